@@ -1,0 +1,8 @@
+import type { Migration } from "kysely";
+import * as coreTables from "./2026-12-01T000000-core-tables";
+
+// A static index: vitest and bundlers cannot import .ts migrations from a folder scan.
+// Keys sort in time order; append new migrations at the end.
+export const migrations: Record<string, Migration> = {
+  "2026-12-01T000000-core-tables": coreTables,
+};

@@ -1,0 +1,217 @@
+import bcrypt from "bcryptjs";
+import type { Kysely } from "kysely";
+import type { Database, Role, StressingEnds, TendonSegment } from "../types";
+
+/**
+ * The demo job: an invented four-level parking structure, "Alder Yard Parking", with
+ * unbonded monostrand slab tendons, plus a second invented project so access rules can be
+ * seen from both sides. Every name, address and value here is made up for the demo.
+ *
+ * Idempotent: rows are keyed on natural keys (e-mail, project code, pour name, lot number,
+ * tendon tag) and inserted with ON CONFLICT DO NOTHING, so a second run changes nothing.
+ */
+
+export const DEMO_PASSWORD = "tautline-demo";
+
+export const DEMO_PEOPLE: ReadonlyArray<{
+  email: string;
+  name: string;
+  project: string;
+  role: Role;
+  operator?: boolean;
+}> = [
+  { email: "admin@demo.tautline.test", name: "Dana Okafor", project: "AYP", role: "admin", operator: true },
+  { email: "crew@demo.tautline.test", name: "Luis Ferreira", project: "AYP", role: "crew" },
+  { email: "inspector@demo.tautline.test", name: "Mei Lindqvist", project: "AYP", role: "inspector" },
+  { email: "engineer@demo.tautline.test", name: "Priya Raman, P.E.", project: "AYP", role: "engineer" },
+  { email: "crew@other.tautline.test", name: "Sam Whitcombe", project: "QHM", role: "crew" },
+];
+
+const IN = 25.4;
+const FT = 12 * IN;
+
+/** Half-span parabolic segments: a drop h over a half span l turns the tendon by 2h/l. */
+function drapedSpans(spans: number, spanMm: number, drapeMm: number): TendonSegment[] {
+  const half = spanMm / 2;
+  const angle = (2 * drapeMm) / half;
+  return Array.from({ length: spans * 2 }, () => ({ lengthMm: half, angleRad: angle }));
+}
+
+interface DemoTendon {
+  tag: string;
+  segments: TendonSegment[];
+  ends: StressingEnds;
+  lot: string;
+}
+
+/** One pour's slab tendons: uniform tendons one way, banded tendons over the column lines. */
+function pourTendons(prefix: string, uniformCount: number, bandedCount: number): DemoTendon[] {
+  const tendons: DemoTendon[] = [];
+  for (let i = 1; i <= uniformCount; i++) {
+    // Two 30 ft spans, and every fifth tendon runs a third span at the ramp.
+    const spans = i % 5 === 0 ? 3 : 2;
+    tendons.push({
+      tag: `${prefix}-U${String(i).padStart(2, "0")}`,
+      segments: drapedSpans(spans, 30 * FT, 4.25 * IN),
+      ends: spans === 3 ? "both" : "A",
+      lot: i % 3 === 0 ? "AY-0903" : "AY-0871",
+    });
+  }
+  for (let i = 1; i <= bandedCount; i++) {
+    tendons.push({
+      tag: `${prefix}-B${String(i).padStart(2, "0")}`,
+      segments: drapedSpans(4, 27.5 * FT, 5 * IN),
+      ends: "both",
+      lot: "AY-0871",
+    });
+  }
+  return tendons;
+}
+
+const DEMO_POURS = [
+  { name: "L2 Pour 1", level: "Level 2", areaM2: 1480, date: "2026-11-24", prefix: "2-1" },
+  { name: "L2 Pour 2", level: "Level 2", areaM2: 1510, date: "2026-12-01", prefix: "2-2" },
+  { name: "L3 Pour 1", level: "Level 3", areaM2: 1495, date: "2026-12-08", prefix: "3-1" },
+] as const;
+
+export interface SeedSummary {
+  projects: number;
+  users: number;
+  pours: number;
+  tendons: number;
+}
+
+export async function seedDemo(db: Kysely<Database>): Promise<SeedSummary> {
+  const passwordHash = await bcrypt.hash(DEMO_PASSWORD, 10);
+
+  return db.transaction().execute(async (trx) => {
+    await trx
+      .insertInto("projects")
+      .values([
+        {
+          code: "AYP",
+          name: "Alder Yard Parking",
+          address: "1400 Cinder Row (invented demo site)",
+          unit_system: "us",
+          reading_resolution: "1/8in",
+          tolerance_pct: 7,
+          comparison_basis: "net",
+          count_jack_grip: false,
+          friction_mu: 0.07,
+          wobble_per_m: 0.001 * 3.280839895,
+          anchor_set_mm: 6.35,
+          calibration_validity_days: 182,
+          required_concrete_mpa: 20.7,
+          engineer_of_record_name: "Priya Raman, P.E.",
+          engineer_of_record_email: "engineer@demo.tautline.test",
+          notify_emails: ["inspector@demo.tautline.test"],
+        },
+        {
+          code: "QHM",
+          name: "Quarry Hill Clinic",
+          address: "88 Slate Terrace (invented demo site)",
+          unit_system: "si",
+          reading_resolution: "1mm",
+        },
+      ])
+      .onConflict((oc) => oc.column("code").doNothing())
+      .execute();
+
+    await trx
+      .insertInto("users")
+      .values(
+        DEMO_PEOPLE.map((p) => ({
+          email: p.email,
+          name: p.name,
+          password_hash: passwordHash,
+          email_verified: new Date(),
+          is_operator: p.operator ?? false,
+        })),
+      )
+      .onConflict((oc) => oc.column("email").doNothing())
+      .execute();
+
+    const projects = await trx.selectFrom("projects").select(["id", "code"]).where("code", "in", ["AYP", "QHM"]).execute();
+    const projectId = (code: string) => {
+      const found = projects.find((p) => p.code === code);
+      if (!found) throw new Error(`demo project ${code} missing after insert`);
+      return found.id;
+    };
+    const users = await trx
+      .selectFrom("users")
+      .select(["id", "email"])
+      .where("email", "in", DEMO_PEOPLE.map((p) => p.email))
+      .execute();
+
+    await trx
+      .insertInto("project_members")
+      .values(
+        DEMO_PEOPLE.map((p) => {
+          const user = users.find((u) => u.email === p.email);
+          if (!user) throw new Error(`demo user ${p.email} missing after insert`);
+          return { project_id: projectId(p.project), user_id: user.id, role: p.role };
+        }),
+      )
+      .onConflict((oc) => oc.columns(["project_id", "user_id"]).doNothing())
+      .execute();
+
+    const ayp = projectId("AYP");
+    await trx
+      .insertInto("strand_lots")
+      .values([
+        // Invented mill-certificate values for the demo, near ASTM A416 nominal 0.5 in strand.
+        { project_id: ayp, lot_number: "AY-0871", strand_size: "0.5in", area_mm2: 99.3, modulus_mpa: 197_200, breaking_load_n: 187_400 },
+        { project_id: ayp, lot_number: "AY-0903", strand_size: "0.5in", area_mm2: 98.9, modulus_mpa: 195_600, breaking_load_n: 186_100 },
+      ])
+      .onConflict((oc) => oc.columns(["project_id", "lot_number"]).doNothing())
+      .execute();
+    const lots = await trx.selectFrom("strand_lots").select(["id", "lot_number"]).where("project_id", "=", ayp).execute();
+
+    await trx
+      .insertInto("pours")
+      .values(
+        DEMO_POURS.map((p) => ({
+          project_id: ayp,
+          name: p.name,
+          level: p.level,
+          area_m2: p.areaM2,
+          planned_stressing_date: p.date,
+        })),
+      )
+      .onConflict((oc) => oc.columns(["project_id", "name"]).doNothing())
+      .execute();
+    const pours = await trx.selectFrom("pours").select(["id", "name"]).where("project_id", "=", ayp).execute();
+
+    for (const demoPour of DEMO_POURS) {
+      const pour = pours.find((p) => p.name === demoPour.name);
+      if (!pour) throw new Error(`demo pour ${demoPour.name} missing after insert`);
+      await trx
+        .insertInto("tendons")
+        .values(
+          pourTendons(demoPour.prefix, 36, 14).map((t) => ({
+            project_id: ayp,
+            pour_id: pour.id,
+            tag: t.tag,
+            kind: "unbonded_monostrand" as const,
+            strand_size: "0.5in",
+            strand_count: 1,
+            segments: JSON.stringify(t.segments),
+            ends: t.ends,
+            jack_grip_mm: 18 * IN,
+            strand_lot_id: lots.find((l) => l.lot_number === t.lot)?.id ?? null,
+          })),
+        )
+        .onConflict((oc) => oc.columns(["pour_id", "tag"]).doNothing())
+        .execute();
+    }
+
+    const count = async (table: "projects" | "users" | "pours" | "tendons") =>
+      Number((await trx.selectFrom(table).select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow()).n);
+    return {
+      projects: await count("projects"),
+      users: await count("users"),
+      pours: await count("pours"),
+      tendons: await count("tendons"),
+    };
+  });
+}

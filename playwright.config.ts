@@ -1,0 +1,36 @@
+import { defineConfig } from "@playwright/test";
+
+// The app is started by scripts/test.sh (built, on its own port, against a throwaway database);
+// Playwright only drives Debian's Chromium against it. No browser is ever downloaded.
+const baseURL = process.env.E2E_BASE_URL ?? "http://localhost:3100";
+
+export default defineConfig({
+  testDir: "tests/e2e",
+  outputDir: ".tmp/playwright",
+  fullyParallel: false,
+  workers: 1,
+  retries: 0,
+  timeout: 60_000,
+  reporter: [["list"]],
+  use: {
+    baseURL,
+    trace: "retain-on-failure",
+    screenshot: "only-on-failure",
+    launchOptions: {
+      executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
+      args: [
+        "--no-sandbox",
+        "--headless",
+        "--disable-gpu",
+        "--disable-quic",
+        "--disable-background-networking",
+        "--disable-component-update",
+        "--disable-sync",
+        "--no-first-run",
+      ],
+    },
+  },
+  projects: [
+    { name: "tablet", use: { viewport: { width: 1280, height: 800 }, hasTouch: true } },
+  ],
+});

@@ -1,0 +1,15 @@
+// Seeds the invented demo job. Safe to run again: existing demo rows are kept, not doubled.
+import { createDb } from "@/db/connect";
+import { seedDemo } from "@/db/seed/demo";
+import { env } from "@/lib/env";
+
+const db = createDb(env.DATABASE_URL, 1);
+try {
+  const summary = await seedDemo(db);
+  console.log(
+    `demo job ready: ${summary.projects} projects, ${summary.users} people, ` +
+      `${summary.pours} pours, ${summary.tendons} tendons`,
+  );
+} finally {
+  await db.destroy();
+}

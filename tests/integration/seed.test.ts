@@ -1,0 +1,55 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import bcrypt from "bcryptjs";
+import { DEMO_PASSWORD, DEMO_PEOPLE, seedDemo } from "@/db/seed/demo";
+import { createTestDatabase, type TestDatabase } from "../support/database";
+
+let t: TestDatabase;
+beforeAll(async () => {
+  t = await createTestDatabase({ migrate: true });
+});
+afterAll(async () => {
+  await t.drop();
+});
+
+describe("demo seed", () => {
+  it("creates the demo job: two projects, one person per role, three pours of tendons", async () => {
+    const summary = await seedDemo(t.db);
+    expect(summary).toEqual({ projects: 2, users: DEMO_PEOPLE.length, pours: 3, tendons: 150 });
+
+    const roles = await t.db
+      .selectFrom("project_members")
+      .innerJoin("users", "users.id", "project_members.user_id")
+      .innerJoin("projects", "projects.id", "project_members.project_id")
+      .select(["users.email", "projects.code", "project_members.role"])
+      .orderBy("users.email")
+      .execute();
+    expect(roles).toEqual(
+      [...DEMO_PEOPLE]
+        .sort((a, b) => a.email.localeCompare(b.email))
+        .map((p) => ({ email: p.email, code: p.project, role: p.role })),
+    );
+
+    const admin = await t.db
+      .selectFrom("users")
+      .select("password_hash")
+      .where("email", "=", "admin@demo.tautline.test")
+      .executeTakeFirstOrThrow();
+    expect(await bcrypt.compare(DEMO_PASSWORD, admin.password_hash ?? "")).toBe(true);
+  });
+
+  it("is idempotent: a second run duplicates nothing and keeps the rows it made", async () => {
+    const before = await t.db.selectFrom("tendons").select(["id", "tag"]).orderBy("tag").execute();
+    const summary = await seedDemo(t.db);
+    expect(summary).toEqual({ projects: 2, users: DEMO_PEOPLE.length, pours: 3, tendons: 150 });
+    const after = await t.db.selectFrom("tendons").select(["id", "tag"]).orderBy("tag").execute();
+    expect(after).toEqual(before);
+  });
+
+  it("keeps data a person added between runs", async () => {
+    const project = await t.db.selectFrom("projects").select("id").where("code", "=", "AYP").executeTakeFirstOrThrow();
+    await t.db.insertInto("pours").values({ project_id: project.id, name: "Added by hand" }).execute();
+    await seedDemo(t.db);
+    const pours = await t.db.selectFrom("pours").select("name").where("project_id", "=", project.id).execute();
+    expect(pours.map((p) => p.name)).toContain("Added by hand");
+  });
+});
