@@ -38,8 +38,8 @@ export default function LandingPage() {
           project&apos;s tolerance, and tells the engineer of record at once.
         </p>
         <div className="mt-8 flex flex-wrap gap-4">
-          <Link href="/home" className="btn-primary">
-            Open Tautline
+          <Link href="/sign-in" className="btn-primary">
+            Sign in
           </Link>
           <a href="#who" className="btn-quiet">
             Who it is for

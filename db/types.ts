@@ -6,6 +6,7 @@ import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "
  * a value in another unit, the value as entered is kept beside it.
  */
 
+// Optional on insert: every timestamp column has a default or is nullable.
 type Timestamp = ColumnType<Date, Date | string | undefined, Date | string>;
 type Json<T> = ColumnType<T, string, string>;
 
@@ -30,8 +31,8 @@ export interface UsersTable {
   email_verified: Date | null;
   is_operator: Generated<boolean>;
   is_active: Generated<boolean>;
-  created_at: Generated<Timestamp>;
-  updated_at: Generated<Timestamp>;
+  created_at: Timestamp;
+  updated_at: Timestamp;
 }
 
 export interface ProjectsTable {
@@ -55,15 +56,15 @@ export interface ProjectsTable {
   engineer_of_record_email: string | null;
   notify_emails: Generated<string[]>;
   blind_entry: Generated<boolean>;
-  created_at: Generated<Timestamp>;
-  updated_at: Generated<Timestamp>;
+  created_at: Timestamp;
+  updated_at: Timestamp;
 }
 
 export interface ProjectMembersTable {
   project_id: string;
   user_id: string;
   role: Role;
-  created_at: Generated<Timestamp>;
+  created_at: Timestamp;
 }
 
 export interface PoursTable {
@@ -74,8 +75,8 @@ export interface PoursTable {
   area_m2: number | null;
   planned_stressing_date: string | null;
   status: Generated<PourStatus>;
-  created_at: Generated<Timestamp>;
-  updated_at: Generated<Timestamp>;
+  created_at: Timestamp;
+  updated_at: Timestamp;
 }
 
 export interface StrandLotsTable {
@@ -87,7 +88,7 @@ export interface StrandLotsTable {
   modulus_mpa: number;
   breaking_load_n: number;
   certificate_attachment_id: string | null;
-  created_at: Generated<Timestamp>;
+  created_at: Timestamp;
 }
 
 export interface TendonsTable {
@@ -103,8 +104,52 @@ export interface TendonsTable {
   jack_grip_mm: number | null;
   shop_elongation_mm: number | null;
   strand_lot_id: string | null;
-  created_at: Generated<Timestamp>;
-  updated_at: Generated<Timestamp>;
+  created_at: Timestamp;
+  updated_at: Timestamp;
+}
+
+export interface VerificationTokensTable {
+  identifier: string;
+  token: string;
+  expires: Date;
+}
+
+export interface InvitationsTable {
+  id: Generated<string>;
+  project_id: string;
+  email: string;
+  role: Role;
+  token_hash: string;
+  invited_by: string | null;
+  expires_at: Timestamp;
+  accepted_at: Timestamp | null;
+  revoked_at: Timestamp | null;
+  sent_count: Generated<number>;
+  created_at: Timestamp;
+}
+
+export interface PasswordResetsTable {
+  id: Generated<string>;
+  user_id: string;
+  token_hash: string;
+  expires_at: Timestamp;
+  used_at: Timestamp | null;
+  created_at: Timestamp;
+}
+
+export type AuditOutcome = "success" | "failure" | "denied";
+
+export interface AuditEventsTable {
+  id: Generated<string>;
+  at: Timestamp;
+  action: string;
+  outcome: AuditOutcome;
+  actor_user_id: string | null;
+  actor_email: string | null;
+  project_id: string | null;
+  target: string | null;
+  ip: string | null;
+  detail: ColumnType<Record<string, unknown>, string | undefined, string>;
 }
 
 export interface Database {
@@ -114,6 +159,10 @@ export interface Database {
   pours: PoursTable;
   strand_lots: StrandLotsTable;
   tendons: TendonsTable;
+  verification_tokens: VerificationTokensTable;
+  invitations: InvitationsTable;
+  password_resets: PasswordResetsTable;
+  audit_events: AuditEventsTable;
 }
 
 export type User = Selectable<UsersTable>;

@@ -1,6 +1,7 @@
 # Shared shell functions for the start, test and database scripts. Source it; do not run it.
 # Everything here is safe to run twice.
 
+export NEXT_TELEMETRY_DISABLED=1
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 PG_VERSION_DIR="$(ls -d /usr/lib/postgresql/*/bin 2>/dev/null | sort -V | tail -n 1)"
 

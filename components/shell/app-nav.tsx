@@ -1,8 +1,9 @@
 import Link from "next/link";
 import type { NavItem } from "@/lib/navigation";
 import { BrandMark } from "./brand-mark";
+import { SignOutButton } from "./sign-out-button";
 
-export function AppNav({ items, current }: { items: NavItem[]; current?: string }) {
+export function AppNav({ items, userName }: { items: NavItem[]; userName: string }) {
   return (
     <nav aria-label="Main" className="border-b-2 border-ink bg-white">
       <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-2 px-4 py-2">
@@ -10,19 +11,22 @@ export function AppNav({ items, current }: { items: NavItem[]; current?: string 
           <BrandMark className="h-7 w-7" />
           Tautline
         </Link>
-        <ul className="flex flex-wrap gap-1">
+        <ul className="flex flex-1 flex-wrap gap-1">
           {items.map((item) => (
             <li key={item.href}>
               <Link
                 href={item.href}
-                aria-current={current === item.href ? "page" : undefined}
-                className="flex min-h-touch items-center rounded-md px-4 font-semibold no-underline hover:bg-concrete-100 aria-[current=page]:bg-ink aria-[current=page]:text-concrete-50"
+                className="flex min-h-touch items-center rounded-md px-4 font-semibold no-underline hover:bg-concrete-100"
               >
                 {item.label}
               </Link>
             </li>
           ))}
         </ul>
+        <span className="text-label text-ink-faint" data-testid="signed-in-as">
+          {userName}
+        </span>
+        <SignOutButton />
       </div>
     </nav>
   );

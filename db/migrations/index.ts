@@ -1,8 +1,10 @@
 import type { Migration } from "kysely";
 import * as coreTables from "./2026-12-01T000000-core-tables";
+import * as accountsAndAudit from "./2026-12-01T010000-accounts-and-audit";
 
 // A static index: vitest and bundlers cannot import .ts migrations from a folder scan.
 // Keys sort in time order; append new migrations at the end.
 export const migrations: Record<string, Migration> = {
   "2026-12-01T000000-core-tables": coreTables,
+  "2026-12-01T010000-accounts-and-audit": accountsAndAudit,
 };

@@ -1,0 +1,78 @@
+"use client";
+
+import { signIn } from "next-auth/react";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { FieldError, FormMessage } from "@/components/ui/form-message";
+import { sendJson } from "@/lib/client/send-json";
+
+export function AcceptInvitationForm({ token, email, hasAccount }: { token: string; email: string; hasAccount: boolean }) {
+  const router = useRouter();
+  const [error, setError] = useState<string>();
+  const [fields, setFields] = useState<Record<string, string[]>>({});
+  const [busy, setBusy] = useState(false);
+
+  async function accept(form: FormData) {
+    setBusy(true);
+    setError(undefined);
+    setFields({});
+    const password = String(form.get("password") ?? "");
+    const body = hasAccount ? { token } : { token, name: String(form.get("name") ?? ""), password };
+    const result = await sendJson("POST", "/api/invitations/accept", body);
+    if (!result.ok) {
+      setBusy(false);
+      setError(result.error.message);
+      setFields(result.error.fields ?? {});
+      return;
+    }
+    if (hasAccount) {
+      router.push("/sign-in?callbackUrl=/home");
+      return;
+    }
+    const signedIn = await signIn("credentials", { email, password, redirect: false });
+    router.push(signedIn?.ok ? "/home" : "/sign-in");
+    router.refresh();
+  }
+
+  return (
+    <form
+      className="space-y-5"
+      onSubmit={(e) => {
+        e.preventDefault();
+        void accept(new FormData(e.currentTarget));
+      }}
+    >
+      <FormMessage tone="error">{error}</FormMessage>
+      {hasAccount ? (
+        <p>You already have a Tautline account as {email}. Accept, then sign in as usual.</p>
+      ) : (
+        <>
+          <div>
+            <label htmlFor="name" className="field-label">
+              Your name
+            </label>
+            <input id="name" name="name" autoComplete="name" className="field-input mt-1" aria-describedby="name-error" />
+            <FieldError id="name-error" messages={fields.name} />
+          </div>
+          <div>
+            <label htmlFor="password" className="field-label">
+              Choose a password (10 characters or more)
+            </label>
+            <input
+              id="password"
+              name="password"
+              type="password"
+              autoComplete="new-password"
+              className="field-input mt-1"
+              aria-describedby="password-error"
+            />
+            <FieldError id="password-error" messages={fields.password} />
+          </div>
+        </>
+      )}
+      <button type="submit" className="btn-primary" disabled={busy}>
+        {busy ? "Joining…" : "Accept and join"}
+      </button>
+    </form>
+  );
+}

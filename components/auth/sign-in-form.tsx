@@ -1,0 +1,77 @@
+"use client";
+
+import { signIn } from "next-auth/react";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { FormMessage } from "@/components/ui/form-message";
+
+// The same words for every failure, so the form never tells whether an account exists.
+const FAILED =
+  "That e-mail and password did not open an account. Check both and try again; after several failed tries, sign-in pauses for 15 minutes.";
+
+export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string; initialError?: string }) {
+  const router = useRouter();
+  const [error, setError] = useState<string | undefined>(initialError);
+  const [busy, setBusy] = useState<"password" | "link" | null>(null);
+
+  async function withPassword(form: FormData) {
+    setBusy("password");
+    setError(undefined);
+    const result = await signIn("credentials", {
+      email: String(form.get("email") ?? ""),
+      password: String(form.get("password") ?? ""),
+      redirect: false,
+      callbackUrl,
+    });
+    setBusy(null);
+    if (!result || result.error) return setError(FAILED);
+    router.push(callbackUrl);
+    router.refresh();
+  }
+
+  async function withLink(form: FormData) {
+    const email = String(form.get("email") ?? "").trim();
+    if (!email) return setError("Enter your e-mail address first, then ask for a link.");
+    setBusy("link");
+    setError(undefined);
+    await signIn("email", { email, callbackUrl, redirect: false });
+    router.push("/sign-in/check-email");
+  }
+
+  return (
+    <form
+      className="space-y-5"
+      onSubmit={(e) => {
+        e.preventDefault();
+        void withPassword(new FormData(e.currentTarget));
+      }}
+    >
+      <FormMessage tone="error">{error}</FormMessage>
+      <div>
+        <label htmlFor="email" className="field-label">
+          E-mail
+        </label>
+        <input id="email" name="email" type="email" autoComplete="username" required className="field-input mt-1" />
+      </div>
+      <div>
+        <label htmlFor="password" className="field-label">
+          Password
+        </label>
+        <input id="password" name="password" type="password" autoComplete="current-password" className="field-input mt-1" />
+      </div>
+      <div className="flex flex-wrap gap-3">
+        <button type="submit" className="btn-primary" disabled={busy !== null}>
+          {busy === "password" ? "Signing in…" : "Sign in"}
+        </button>
+        <button
+          type="button"
+          className="btn-quiet"
+          disabled={busy !== null}
+          onClick={(e) => void withLink(new FormData(e.currentTarget.form ?? undefined))}
+        >
+          {busy === "link" ? "Sending…" : "E-mail me a sign-in link"}
+        </button>
+      </div>
+    </form>
+  );
+}

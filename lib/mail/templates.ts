@@ -1,0 +1,72 @@
+import type { OutgoingMail } from "./send-mail";
+
+/** Plain, readable e-mails: every message has an HTML part and a text part with the same words. */
+
+const escapeHtml = (s: string) =>
+  s.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c] ?? c);
+
+function layout(title: string, paragraphs: string[], action: { label: string; url: string }, footer: string): string {
+  const body = paragraphs.map((p) => `<p style="margin:0 0 16px">${escapeHtml(p)}</p>`).join("");
+  return `<!doctype html><html><body style="margin:0;background:#f6f5f2;font-family:Arial,Helvetica,sans-serif;color:#14213d">
+<table role="presentation" width="100%" cellpadding="0" cellspacing="0"><tr><td style="padding:24px">
+<table role="presentation" width="560" cellpadding="0" cellspacing="0" style="background:#ffffff;border:1px solid #c3c0b6;border-radius:8px">
+<tr><td style="padding:24px 28px;font-size:17px;line-height:1.5">
+<p style="margin:0 0 8px;font-weight:bold;font-size:14px;letter-spacing:.04em;text-transform:uppercase">Tautline</p>
+<h1 style="margin:0 0 16px;font-size:22px">${escapeHtml(title)}</h1>
+${body}
+<p style="margin:24px 0"><a href="${escapeHtml(action.url)}" style="display:inline-block;background:#14213d;color:#f6f5f2;padding:12px 20px;border-radius:6px;text-decoration:none;font-weight:bold">${escapeHtml(action.label)}</a></p>
+<p style="margin:0 0 16px;font-size:14px">If the button does not work, copy this address into your browser:<br><span style="word-break:break-all">${escapeHtml(action.url)}</span></p>
+<p style="margin:16px 0 0;font-size:13px;color:#4a5878">${escapeHtml(footer)}</p>
+</td></tr></table></td></tr></table></body></html>`;
+}
+
+function text(title: string, paragraphs: string[], action: { label: string; url: string }, footer: string): string {
+  return [title, "", ...paragraphs.flatMap((p) => [p, ""]), `${action.label}: ${action.url}`, "", footer, ""].join("\n");
+}
+
+function mail(to: string, subject: string, title: string, paragraphs: string[], action: { label: string; url: string }, footer: string): OutgoingMail {
+  return { to, subject, html: layout(title, paragraphs, action, footer), text: text(title, paragraphs, action, footer) };
+}
+
+export function signInLinkMail(input: { to: string; url: string; minutes: number }): OutgoingMail {
+  return mail(
+    input.to,
+    "Your Tautline sign-in link",
+    "Sign in to Tautline",
+    [`Use this link to sign in. It works once and expires in ${input.minutes} minutes.`],
+    { label: "Sign in", url: input.url },
+    "If you did not ask to sign in, you can ignore this message; nobody can sign in without the link.",
+  );
+}
+
+export function invitationMail(input: {
+  to: string;
+  url: string;
+  projectName: string;
+  roleLabel: string;
+  invitedBy: string;
+  expiresAt: Date;
+}): OutgoingMail {
+  return mail(
+    input.to,
+    `You are invited to ${input.projectName} on Tautline`,
+    `Join ${input.projectName}`,
+    [
+      `${input.invitedBy} has invited you to the project ${input.projectName} as ${input.roleLabel}.`,
+      `The link works once and expires on ${input.expiresAt.toUTCString()}.`,
+    ],
+    { label: "Accept the invitation", url: input.url },
+    "If you were not expecting this invitation, ignore this message and nothing will happen.",
+  );
+}
+
+export function passwordResetMail(input: { to: string; url: string; minutes: number }): OutgoingMail {
+  return mail(
+    input.to,
+    "Reset your Tautline password",
+    "Choose a new password",
+    [`Someone asked to reset the password of this account. The link works once and expires in ${input.minutes} minutes.`],
+    { label: "Choose a new password", url: input.url },
+    "If it was not you, ignore this message: your password stays as it is.",
+  );
+}

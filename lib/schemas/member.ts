@@ -1,0 +1,26 @@
+import { z } from "zod";
+import { emailSchema } from "./account";
+
+export const roleSchema = z.enum(["crew", "inspector", "engineer", "admin"], {
+  error: "Pick a role: crew, inspector, engineer or admin.",
+});
+
+export const projectParamsSchema = z.object({ projectId: z.uuid({ error: "Not a project id." }) });
+export const memberParamsSchema = projectParamsSchema.extend({ userId: z.uuid({ error: "Not a person's id." }) });
+export const invitationParamsSchema = projectParamsSchema.extend({
+  invitationId: z.uuid({ error: "Not an invitation id." }),
+});
+
+export const inviteSchema = z.object({ email: emailSchema, role: roleSchema });
+export const changeRoleSchema = z.object({ role: roleSchema });
+
+export const createProjectSchema = z.object({
+  code: z
+    .string()
+    .trim()
+    .toUpperCase()
+    .regex(/^[A-Z0-9-]{2,12}$/, "Use 2 to 12 letters, digits or dashes."),
+  name: z.string().trim().min(2, "Give the project a name.").max(160, "Use at most 160 characters."),
+  unitSystem: z.enum(["us", "si"], { error: "Pick US customary or SI units." }).default("us"),
+  firstAdminEmail: emailSchema,
+});

@@ -1,0 +1,75 @@
+import "server-only";
+import type { Kysely } from "kysely";
+import type { Db } from "@/db/connect";
+import type { Database, Role } from "@/db/types";
+import { AppError } from "@/lib/errors";
+import { recordAudit } from "./record-audit";
+
+async function assertAnotherAdminRemains(db: Kysely<Database>, projectId: string, userId: string): Promise<void> {
+  const others = await db
+    .selectFrom("project_members")
+    .select((eb) => eb.fn.countAll<number>().as("n"))
+    .where("project_id", "=", projectId)
+    .where("role", "=", "admin")
+    .where("user_id", "!=", userId)
+    .executeTakeFirstOrThrow();
+  if (Number(others.n) === 0) {
+    throw new AppError("CONFLICT", "A project needs at least one admin. Make someone else admin first.");
+  }
+}
+
+export async function changeMemberRole(db: Db, input: { projectId: string; userId: string; role: Role; by: string }): Promise<void> {
+  await db.transaction().execute(async (trx) => {
+    const current = await trx
+      .selectFrom("project_members")
+      .select("role")
+      .where("project_id", "=", input.projectId)
+      .where("user_id", "=", input.userId)
+      .forUpdate()
+      .executeTakeFirst();
+    if (!current) throw new AppError("NOT_FOUND", "This person is not on the project.");
+    if (current.role === input.role) return;
+    if (current.role === "admin") await assertAnotherAdminRemains(trx, input.projectId, input.userId);
+    await trx
+      .updateTable("project_members")
+      .set({ role: input.role })
+      .where("project_id", "=", input.projectId)
+      .where("user_id", "=", input.userId)
+      .execute();
+    await recordAudit(trx, {
+      action: "member.role-change",
+      outcome: "success",
+      actorUserId: input.by,
+      projectId: input.projectId,
+      target: input.userId,
+      detail: { from: current.role, to: input.role },
+    });
+  });
+}
+
+export async function removeMember(db: Db, input: { projectId: string; userId: string; by: string }): Promise<void> {
+  await db.transaction().execute(async (trx) => {
+    const current = await trx
+      .selectFrom("project_members")
+      .select("role")
+      .where("project_id", "=", input.projectId)
+      .where("user_id", "=", input.userId)
+      .forUpdate()
+      .executeTakeFirst();
+    if (!current) throw new AppError("NOT_FOUND", "This person is not on the project.");
+    if (current.role === "admin") await assertAnotherAdminRemains(trx, input.projectId, input.userId);
+    await trx
+      .deleteFrom("project_members")
+      .where("project_id", "=", input.projectId)
+      .where("user_id", "=", input.userId)
+      .execute();
+    await recordAudit(trx, {
+      action: "member.remove",
+      outcome: "success",
+      actorUserId: input.by,
+      projectId: input.projectId,
+      target: input.userId,
+      detail: { role: current.role },
+    });
+  });
+}

@@ -1,0 +1,188 @@
+import { expect, test, type APIRequestContext, type APIResponse } from "@playwright/test";
+import { readdirSync, readFileSync, statSync } from "node:fs";
+import path from "node:path";
+import { MATRIX, SERVER_ACTION_FILES, type Caller } from "./authz-matrix";
+import { PEOPLE, apiAs, latestMailTo, lastMailId, linkIn } from "./people";
+
+const APP_DIR = path.resolve("app");
+
+function walk(dir: string): string[] {
+  return readdirSync(dir).flatMap((name) => {
+    const full = path.join(dir, name);
+    return statSync(full).isDirectory() ? walk(full) : [full];
+  });
+}
+
+/** Every "METHOD /path" that a route.ts on disk exports. */
+function routesOnDisk(): string[] {
+  return walk(APP_DIR)
+    .filter((f) => /\/route\.tsx?$/.test(f))
+    .flatMap((file) => {
+      const source = readFileSync(file, "utf8");
+      const urlPath =
+        "/" +
+        path
+          .relative(APP_DIR, path.dirname(file))
+          .split(path.sep)
+          .filter((seg) => !/^\(.*\)$/.test(seg))
+          .join("/");
+      const methods = new Set<string>();
+      for (const m of source.matchAll(/export\s+(?:const|async function|function)\s+(GET|POST|PUT|PATCH|DELETE)\b/g)) methods.add(m[1]!);
+      for (const m of source.matchAll(/\bas\s+(GET|POST|PUT|PATCH|DELETE)\b/g)) methods.add(m[1]!);
+      return [...methods].map((method) => `${method} ${urlPath}`);
+    })
+    .sort();
+}
+
+test("the matrix lists every route handler and server action on disk, and nothing else", () => {
+  expect(Object.keys(MATRIX).sort()).toEqual(routesOnDisk());
+  const actionFiles = walk(path.resolve("."))
+    .filter((f) => !f.includes("node_modules") && !f.includes(`${path.sep}.`) && /\.(ts|tsx)$/.test(f))
+    .filter((f) => /^\s*["']use server["']/m.test(readFileSync(f, "utf8")))
+    .map((f) => path.relative(".", f));
+  expect(actionFiles.sort()).toEqual([...SERVER_ACTION_FILES].sort());
+});
+
+test.describe("every caller gets the expected answer from every endpoint", () => {
+  const contexts = {} as Record<Caller, APIRequestContext>;
+  let projectId = "";
+  let crewUserId = "";
+  let counter = 0;
+  const unique = (label: string) => `matrix-${label}-${Date.now()}-${counter++}@demo.tautline.test`;
+
+  test.beforeAll(async () => {
+    for (const [caller, email] of Object.entries(PEOPLE) as [Caller, string][]) contexts[caller] = await apiAs(email);
+    contexts.anonymous = await apiAs(null);
+    const me = (await (await contexts.admin.get("/api/me")).json()) as { memberships: { projectId: string; projectCode: string }[] };
+    projectId = me.memberships.find((m) => m.projectCode === "AYP")!.projectId;
+    const list = (await (await contexts.admin.get(`/api/projects/${projectId}/members`)).json()) as {
+      members: { userId: string; email: string }[];
+    };
+    crewUserId = list.members.find((m) => m.email === PEOPLE.crew)!.userId;
+  });
+  test.afterAll(async () => {
+    await Promise.all(Object.values(contexts).map((c) => c.dispose()));
+  });
+
+  async function invite(email: string, role = "crew"): Promise<string> {
+    const res = await contexts.admin.post(`/api/projects/${projectId}/invitations`, { data: { email, role } });
+    expect(res.status()).toBe(201);
+    return ((await res.json()) as { invitationId: string }).invitationId;
+  }
+
+  /** A person who joined by invitation, so removing them leaves the demo roles intact. */
+  async function throwawayMember(): Promise<string> {
+    const email = unique("member");
+    const before = await lastMailId();
+    await invite(email);
+    const token = linkIn(await latestMailTo(email, before), "/invite/").split("/invite/")[1]!;
+    const accepted = await contexts.anonymous.post("/api/invitations/accept", {
+      data: { token, name: "Matrix Throwaway", password: "a-long-enough-password" },
+    });
+    expect(accepted.status()).toBe(200);
+    const list = (await (await contexts.admin.get(`/api/projects/${projectId}/members`)).json()) as {
+      members: { userId: string; email: string }[];
+    };
+    return list.members.find((m) => m.email === email)!.userId;
+  }
+
+  const BOGUS_TOKEN = "x".repeat(43);
+
+  // Each entry makes the call; `fixture` runs once before the callers, who go in the order below
+  // so that the allowed (and possibly destructive) call comes last.
+  const CALLS: Record<string, { fixture?: () => Promise<string>; call: (ctx: APIRequestContext, id: string) => Promise<APIResponse> }> = {
+    "GET /api/health": { call: (c) => c.get("/api/health") },
+    "GET /api/auth/[...nextauth]": { call: (c) => c.get("/api/auth/session") },
+    "POST /api/auth/[...nextauth]": { call: (c) => c.post("/api/auth/_log", { form: { level: "debug", code: "matrix" } }) },
+    "GET /api/me": { call: (c) => c.get("/api/me") },
+    "POST /api/projects": {
+      call: (c) =>
+        c.post("/api/projects", {
+          data: { code: `M${String(Date.now()).slice(-6)}`, name: "Matrix check project", firstAdminEmail: PEOPLE.admin },
+        }),
+    },
+    "GET /api/projects/[projectId]/members": { call: (c) => c.get(`/api/projects/${projectId}/members`) },
+    "PATCH /api/projects/[projectId]/members/[userId]": {
+      call: (c) => c.patch(`/api/projects/${projectId}/members/${crewUserId}`, { data: { role: "crew" } }),
+    },
+    "DELETE /api/projects/[projectId]/members/[userId]": {
+      fixture: throwawayMember,
+      call: (c, userId) => c.delete(`/api/projects/${projectId}/members/${userId}`),
+    },
+    "POST /api/projects/[projectId]/invitations": {
+      call: (c) => c.post(`/api/projects/${projectId}/invitations`, { data: { email: unique("invite"), role: "crew" } }),
+    },
+    "DELETE /api/projects/[projectId]/invitations/[invitationId]": {
+      fixture: () => invite(unique("revoke")),
+      call: (c, id) => c.delete(`/api/projects/${projectId}/invitations/${id}`),
+    },
+    "POST /api/projects/[projectId]/invitations/[invitationId]/resend": {
+      fixture: () => invite(unique("resend")),
+      call: (c, id) => c.post(`/api/projects/${projectId}/invitations/${id}/resend`),
+    },
+    "POST /api/invitations/accept": {
+      call: (c) => c.post("/api/invitations/accept", { data: { token: BOGUS_TOKEN, name: "Nobody", password: "a-long-enough-password" } }),
+    },
+    "POST /api/password-reset": { call: (c) => c.post("/api/password-reset", { data: { email: "nobody@nowhere.tautline.test" } }) },
+    "POST /api/password-reset/complete": {
+      call: (c) => c.post("/api/password-reset/complete", { data: { token: BOGUS_TOKEN, password: "a-long-enough-password" } }),
+    },
+  };
+
+  const ORDER: Caller[] = ["anonymous", "other", "crew", "inspector", "engineer", "admin"];
+
+  test("calls are defined for every matrix entry", () => {
+    expect(Object.keys(CALLS).sort()).toEqual(Object.keys(MATRIX).sort());
+  });
+
+  for (const [endpoint, expected] of Object.entries(MATRIX)) {
+    test(endpoint, async () => {
+      const spec = CALLS[endpoint];
+      expect(spec, `no call defined for ${endpoint}`).toBeDefined();
+      const id = spec!.fixture ? await spec!.fixture() : "";
+      const answers: Record<string, number> = {};
+      for (const caller of ORDER) answers[caller] = (await spec!.call(contexts[caller], id)).status();
+      expect(answers).toEqual(Object.fromEntries(ORDER.map((c) => [c, expected[c]])));
+    });
+  }
+});
+
+test.describe("route handlers refuse cross-site and non-JSON requests", () => {
+  test("a foreign Origin is refused before anything happens", async () => {
+    const ctx = await apiAs(PEOPLE.admin);
+    const me = (await (await ctx.get("/api/me")).json()) as { memberships: { projectId: string }[] };
+    const res = await ctx.post(`/api/projects/${me.memberships[0]!.projectId}/invitations`, {
+      headers: { Origin: "https://evil.example" },
+      data: { email: "someone@demo.tautline.test", role: "crew" },
+    });
+    expect(res.status()).toBe(403);
+    expect(((await res.json()) as { error: { code: string } }).error.code).toBe("BAD_ORIGIN");
+    await ctx.dispose();
+  });
+
+  test("a text/plain body is refused with a clear message", async () => {
+    const ctx = await apiAs(PEOPLE.admin);
+    const me = (await (await ctx.get("/api/me")).json()) as { memberships: { projectId: string }[] };
+    const res = await ctx.post(`/api/projects/${me.memberships[0]!.projectId}/invitations`, {
+      headers: { "Content-Type": "text/plain" },
+      data: JSON.stringify({ email: "someone@demo.tautline.test", role: "crew" }),
+    });
+    expect(res.status()).toBe(415);
+    expect(((await res.json()) as { error: { message: string } }).error.message).toMatch(/JSON/);
+    await ctx.dispose();
+  });
+
+  test("bad input names the field and writes nothing", async () => {
+    const ctx = await apiAs(PEOPLE.admin);
+    const me = (await (await ctx.get("/api/me")).json()) as { memberships: { projectId: string }[] };
+    const projectId = me.memberships[0]!.projectId;
+    const before = ((await (await ctx.get(`/api/projects/${projectId}/members`)).json()) as { invitations: unknown[] }).invitations.length;
+    const res = await ctx.post(`/api/projects/${projectId}/invitations`, { data: { email: "not-an-address", role: "foreman" } });
+    expect(res.status()).toBe(422);
+    const body = (await res.json()) as { error: { fields: Record<string, string[]> } };
+    expect(Object.keys(body.error.fields).sort()).toEqual(["email", "role"]);
+    const after = ((await (await ctx.get(`/api/projects/${projectId}/members`)).json()) as { invitations: unknown[] }).invitations.length;
+    expect(after).toBe(before);
+    await ctx.dispose();
+  });
+});

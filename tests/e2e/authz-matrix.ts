@@ -1,0 +1,51 @@
+/**
+ * The authorization matrix: every route handler (and server action) of the app, with the
+ * answer each caller must get. tests/e2e/authz-matrix.spec.ts lists the route files on disk and
+ * fails when one is missing here, then calls each against the running app.
+ *
+ * Callers: the four roles on the demo project, a crew member of another project, anonymous.
+ */
+import type { Person } from "./people";
+
+export type Caller = Person | "anonymous";
+export type Expected = Record<Caller, number>;
+
+const everyone = (status: number): Expected => ({
+  admin: status,
+  crew: status,
+  inspector: status,
+  engineer: status,
+  other: status,
+  anonymous: status,
+});
+const signedIn = (status: number): Expected => ({ ...everyone(status), anonymous: 401 });
+/** A project-scoped action: allowed roles get `ok`, other roles 403, the stranger 404, anonymous 401. */
+const projectAction = (ok: number, allowed: Person[]): Expected => ({
+  admin: allowed.includes("admin") ? ok : 403,
+  crew: allowed.includes("crew") ? ok : 403,
+  inspector: allowed.includes("inspector") ? ok : 403,
+  engineer: allowed.includes("engineer") ? ok : 403,
+  other: 404,
+  anonymous: 401,
+});
+
+export const MATRIX: Record<string, Expected> = {
+  "GET /api/health": everyone(200),
+  "GET /api/auth/[...nextauth]": everyone(200),
+  "POST /api/auth/[...nextauth]": everyone(200),
+  "GET /api/me": signedIn(200),
+  "POST /api/projects": { ...signedIn(403), admin: 201 },
+  "GET /api/projects/[projectId]/members": projectAction(200, ["admin"]),
+  "PATCH /api/projects/[projectId]/members/[userId]": projectAction(200, ["admin"]),
+  "DELETE /api/projects/[projectId]/members/[userId]": projectAction(200, ["admin"]),
+  "POST /api/projects/[projectId]/invitations": projectAction(201, ["admin"]),
+  "DELETE /api/projects/[projectId]/invitations/[invitationId]": projectAction(200, ["admin"]),
+  "POST /api/projects/[projectId]/invitations/[invitationId]/resend": projectAction(200, ["admin"]),
+  // Token routes: the token is the authorization, so every caller gets the same answer.
+  "POST /api/invitations/accept": everyone(410),
+  "POST /api/password-reset": everyone(202),
+  "POST /api/password-reset/complete": everyone(410),
+};
+
+/** Files with "use server" (server actions). Tautline has none: mutations are route handlers. */
+export const SERVER_ACTION_FILES: string[] = [];
