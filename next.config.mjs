@@ -1,9 +1,11 @@
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   reactStrictMode: true,
+  // A second build folder lets two app instances (say, two people testing side by side) coexist.
+  distDir: process.env.NEXT_DIST_DIR || ".next",
   poweredByHeader: false,
-  // pg and nodemailer are Node libraries; keep them out of the server bundle.
-  serverExternalPackages: ["pg", "nodemailer"],
+  // Node libraries that read files of their own at run time; keep them out of the server bundle.
+  serverExternalPackages: ["pg", "nodemailer", "pdfkit"],
   async headers() {
     return [
       {

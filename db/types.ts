@@ -56,6 +56,7 @@ export interface ProjectsTable {
   engineer_of_record_email: string | null;
   notify_emails: Generated<string[]>;
   blind_entry: Generated<boolean>;
+  release_by: Generated<"engineer" | "inspector">;
   created_at: Timestamp;
   updated_at: Timestamp;
 }
@@ -75,6 +76,9 @@ export interface PoursTable {
   area_m2: number | null;
   planned_stressing_date: string | null;
   status: Generated<PourStatus>;
+  concrete_strength_mpa: number | null;
+  concrete_confirmed_by: string | null;
+  concrete_confirmed_at: Timestamp | null;
   created_at: Timestamp;
   updated_at: Timestamp;
 }
@@ -152,6 +156,204 @@ export interface AuditEventsTable {
   detail: ColumnType<Record<string, unknown>, string | undefined, string>;
 }
 
+export type AttachmentPurpose = "mill_certificate" | "calibration_certificate" | "record_photo" | "review_photo";
+
+export interface AttachmentsTable {
+  id: Generated<string>;
+  project_id: string;
+  purpose: AttachmentPurpose;
+  object_key: string;
+  content_type: string;
+  size_bytes: number;
+  sha256: string | null;
+  original_name: string | null;
+  status: Generated<"pending" | "stored">;
+  record_id: string | null;
+  uploaded_by: string | null;
+  created_at: Timestamp;
+}
+
+export interface EquipmentSetsTable {
+  id: Generated<string>;
+  project_id: string;
+  name: string;
+  jack_serial: string;
+  gauge_serial: string;
+  pump_serial: string | null;
+  jack_grip_mm: number | null;
+  max_force_n: number | null;
+  created_at: Timestamp;
+}
+
+export interface CalibrationPoint {
+  pressureMPa: number;
+  forceN: number;
+}
+
+export interface CalibrationsTable {
+  id: Generated<string>;
+  project_id: string;
+  equipment_set_id: string;
+  calibrated_on: string;
+  valid_until: string;
+  points: Json<CalibrationPoint[]>;
+  slope_n_per_mpa: number;
+  intercept_n: number;
+  r2: number;
+  min_pressure_mpa: number;
+  max_pressure_mpa: number;
+  laboratory: string | null;
+  certificate_attachment_id: string | null;
+  created_at: Timestamp;
+}
+
+export type TendonEnd = "A" | "B";
+export type ReadingMethod = "marks" | "strokes";
+
+export interface RecordsTable {
+  id: string;
+  project_id: string;
+  pour_id: string;
+  tendon_id: string;
+  tendon_end: TendonEnd;
+  chain_id: string;
+  revision: number;
+  base_record_id: string | null;
+  revision_reason: string | null;
+  equipment_set_id: string;
+  calibration_id: string | null;
+  expired_calibration_reason: string | null;
+  initial_pressure_mpa: number | null;
+  final_pressure_mpa: number;
+  reading_method: ReadingMethod;
+  entered: Json<Record<string, unknown>>;
+  measured_mm: number;
+  seating_mm: number | null;
+  wire_breaks: Generated<number>;
+  remarks: string | null;
+  device_time: Timestamp;
+  device_time_zone: string;
+  device_id: string;
+  author_user_id: string;
+  restress_of_disposition_id: string | null;
+  received_at: Timestamp;
+}
+
+export type Verdict = "in band" | "long" | "short" | "incomplete";
+
+export interface EvaluationsTable {
+  id: Generated<string>;
+  project_id: string;
+  tendon_id: string;
+  record_ids: string[];
+  reason: string;
+  engine_version: string;
+  inputs: Json<Record<string, unknown>>;
+  result: Json<Record<string, unknown>>;
+  verdict: Verdict;
+  provisional: boolean;
+  deviation_pct: number | null;
+  predicted_mm: number | null;
+  measured_mm: number | null;
+  created_at: Timestamp;
+}
+
+export type FlagKind =
+  | "out_of_band"
+  | "jacking_over_limit"
+  | "anchor_over_limit"
+  | "calibration_expired"
+  | "calibration_range"
+  | "wire_break"
+  | "concrete_unconfirmed"
+  | "reading_missing"
+  | "stressed_twice";
+export type FlagStatus = "open" | "with_engineer" | "closed";
+
+export interface FlagsTable {
+  id: Generated<string>;
+  project_id: string;
+  pour_id: string;
+  tendon_id: string;
+  record_id: string | null;
+  evaluation_id: string | null;
+  kind: FlagKind;
+  reason: string;
+  status: Generated<FlagStatus>;
+  closed_at: Timestamp | null;
+  closed_by: string | null;
+  close_reason: string | null;
+  created_at: Timestamp;
+}
+
+export type ReviewKind = "note" | "remeasured" | "paperwork_error" | "photo" | "sent_to_engineer" | "closed_paperwork";
+
+export interface ReviewsTable {
+  id: Generated<string>;
+  project_id: string;
+  flag_id: string;
+  author_user_id: string;
+  kind: ReviewKind;
+  body: string;
+  remeasured_mm: number | null;
+  attachment_id: string | null;
+  created_at: Timestamp;
+}
+
+export type Decision = "accept" | "restress" | "detension_restress" | "liftoff_check" | "replace" | "other";
+
+export interface DispositionsTable {
+  id: Generated<string>;
+  project_id: string;
+  flag_id: string;
+  tendon_id: string;
+  decision: Decision;
+  reasons: string;
+  engineer_user_id: string;
+  engineer_name: string;
+  licence_statement: string;
+  created_at: Timestamp;
+}
+
+export interface ReleasesTable {
+  id: Generated<string>;
+  project_id: string;
+  pour_id: string;
+  released_by: string;
+  released_by_name: string;
+  statement: string;
+  created_at: Timestamp;
+}
+
+export interface NotificationsTable {
+  id: Generated<string>;
+  project_id: string;
+  flag_id: string | null;
+  dedupe_key: string;
+  to_emails: string[];
+  subject: string;
+  text_body: string;
+  html_body: string;
+  status: Generated<"pending" | "sent" | "failed">;
+  attempts: Generated<number>;
+  next_attempt_at: Timestamp;
+  last_error: string | null;
+  sent_at: Timestamp | null;
+  created_at: Timestamp;
+}
+
+export interface AppliedOpsTable {
+  op_id: string;
+  project_id: string;
+  device_id: string;
+  user_id: string;
+  kind: string;
+  record_id: string | null;
+  status: "applied" | "conflict" | "rejected";
+  result: ColumnType<Record<string, unknown>, string | undefined, string>;
+  applied_at: Timestamp;
+}
+
 export interface Database {
   users: UsersTable;
   projects: ProjectsTable;
@@ -163,6 +365,17 @@ export interface Database {
   invitations: InvitationsTable;
   password_resets: PasswordResetsTable;
   audit_events: AuditEventsTable;
+  attachments: AttachmentsTable;
+  equipment_sets: EquipmentSetsTable;
+  calibrations: CalibrationsTable;
+  records: RecordsTable;
+  evaluations: EvaluationsTable;
+  flags: FlagsTable;
+  reviews: ReviewsTable;
+  dispositions: DispositionsTable;
+  releases: ReleasesTable;
+  notifications: NotificationsTable;
+  applied_ops: AppliedOpsTable;
 }
 
 export type User = Selectable<UsersTable>;

@@ -26,7 +26,7 @@ describe("migrations", () => {
       Object.keys(migrations).map((name) => [name, "Success"]),
     );
     const tables = await tableNames();
-    for (const table of ["users", "projects", "project_members", "pours", "strand_lots", "tendons"]) {
+    for (const table of ["users", "projects", "project_members", "pours", "strand_lots", "tendons", "records", "evaluations", "flags", "dispositions", "notifications", "applied_ops", "audit_events"]) {
       expect(tables).toContain(table);
     }
   });
