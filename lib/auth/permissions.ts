@@ -23,6 +23,14 @@ export const PERMISSIONS = {
 
 export type Action = keyof typeof PERMISSIONS;
 
+/** Who may upload (and confirm) each kind of file: the action behind the file's purpose. */
+export const UPLOAD_PERMISSION = {
+  mill_certificate: "schedule.manage",
+  calibration_certificate: "equipment.manage",
+  record_photo: "record.create",
+  review_photo: "flag.review",
+} as const satisfies Record<"mill_certificate" | "calibration_certificate" | "record_photo" | "review_photo", Action>;
+
 export function can(role: Role, action: Action): boolean {
   return (PERMISSIONS[action] as readonly Role[]).includes(role);
 }

@@ -90,6 +90,18 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
 
   const BOGUS_TOKEN = "x".repeat(43);
 
+  const CERTIFICATE = Buffer.from("%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n");
+  const certificateUpload = { purpose: "mill_certificate", contentType: "application/pdf", sizeBytes: CERTIFICATE.byteLength, originalName: "matrix.pdf" };
+  /** An admin's certificate upload, put in storage; confirmed too when `confirm` is set. */
+  async function uploadedCertificate(confirm: boolean): Promise<string> {
+    const res = await contexts.admin.post(`/api/projects/${projectId}/uploads`, { data: certificateUpload });
+    expect(res.status()).toBe(201);
+    const started = (await res.json()) as { attachmentId: string; uploadUrl: string; headers: Record<string, string> };
+    expect((await fetch(started.uploadUrl, { method: "PUT", headers: started.headers, body: CERTIFICATE })).status).toBe(200);
+    if (confirm) expect((await contexts.admin.post(`/api/projects/${projectId}/uploads/${started.attachmentId}/confirm`)).status()).toBe(200);
+    return started.attachmentId;
+  }
+
   // Each entry makes the call; `fixture` runs once before the callers, who go in the order below
   // so that the allowed (and possibly destructive) call comes last.
   const CALLS: Record<string, { fixture?: () => Promise<string>; call: (ctx: APIRequestContext, id: string) => Promise<APIResponse> }> = {
@@ -121,6 +133,15 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     "POST /api/projects/[projectId]/invitations/[invitationId]/resend": {
       fixture: () => invite(unique("resend")),
       call: (c, id) => c.post(`/api/projects/${projectId}/invitations/${id}/resend`),
+    },
+    "POST /api/projects/[projectId]/uploads": { call: (c) => c.post(`/api/projects/${projectId}/uploads`, { data: certificateUpload }) },
+    "POST /api/projects/[projectId]/uploads/[attachmentId]/confirm": {
+      fixture: () => uploadedCertificate(false),
+      call: (c, id) => c.post(`/api/projects/${projectId}/uploads/${id}/confirm`),
+    },
+    "GET /api/projects/[projectId]/attachments/[attachmentId]": {
+      fixture: () => uploadedCertificate(true),
+      call: (c, id) => c.get(`/api/projects/${projectId}/attachments/${id}`),
     },
     "POST /api/invitations/accept": {
       call: (c) => c.post("/api/invitations/accept", { data: { token: BOGUS_TOKEN, name: "Nobody", password: "a-long-enough-password" } }),

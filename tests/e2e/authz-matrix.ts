@@ -41,6 +41,9 @@ export const MATRIX: Record<string, Expected> = {
   "POST /api/projects/[projectId]/invitations": projectAction(201, ["admin"]),
   "DELETE /api/projects/[projectId]/invitations/[invitationId]": projectAction(200, ["admin"]),
   "POST /api/projects/[projectId]/invitations/[invitationId]/resend": projectAction(200, ["admin"]),
+  "POST /api/projects/[projectId]/uploads": projectAction(201, ["admin"]),
+  "POST /api/projects/[projectId]/uploads/[attachmentId]/confirm": projectAction(200, ["admin"]),
+  "GET /api/projects/[projectId]/attachments/[attachmentId]": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   // Token routes: the token is the authorization, so every caller gets the same answer.
   "POST /api/invitations/accept": everyone(410),
   "POST /api/password-reset": everyone(202),

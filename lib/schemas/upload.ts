@@ -1,0 +1,51 @@
+import { z } from "zod";
+
+/** What each kind of upload is for, and the file types its content may be (checked by magic bytes). */
+export const UPLOAD_PURPOSES = ["mill_certificate", "calibration_certificate", "record_photo", "review_photo"] as const;
+export type UploadPurpose = (typeof UPLOAD_PURPOSES)[number];
+
+const IMAGES = ["image/jpeg", "image/png", "image/webp"] as const;
+const CERTIFICATES = ["application/pdf", "image/jpeg", "image/png"] as const;
+
+export const ALLOWED_TYPES: Record<UploadPurpose, readonly string[]> = {
+  mill_certificate: CERTIFICATES,
+  calibration_certificate: CERTIFICATES,
+  record_photo: IMAGES,
+  review_photo: IMAGES,
+};
+
+export const PURPOSE_LABELS: Record<UploadPurpose, string> = {
+  mill_certificate: "mill certificate",
+  calibration_certificate: "calibration certificate",
+  record_photo: "gauge or tendon photo",
+  review_photo: "review photo",
+};
+
+/** Plain words for the accepted types, for messages and the file picker's hint. */
+export function acceptedTypesText(purpose: UploadPurpose): string {
+  return ALLOWED_TYPES[purpose].map((t) => t.split("/")[1]!.toUpperCase()).join(", ");
+}
+
+export const presignUploadSchema = z
+  .object({
+    purpose: z.enum(UPLOAD_PURPOSES, { error: "Say what the file is for." }),
+    contentType: z.string().trim().min(3, "Say what type of file this is.").max(100),
+    sizeBytes: z.number({ error: "Give the file size in bytes." }).int("Give the size in whole bytes.").positive("The file is empty."),
+    originalName: z.string().trim().min(1, "Give the file a name.").max(200, "Use a file name of at most 200 characters."),
+    recordId: z.uuid({ error: "Not a record id." }).optional(),
+  })
+  .superRefine((value, ctx) => {
+    if (!ALLOWED_TYPES[value.purpose].includes(value.contentType)) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["contentType"],
+        message: `A ${PURPOSE_LABELS[value.purpose]} must be ${acceptedTypesText(value.purpose)}.`,
+      });
+    }
+  });
+export type PresignUploadInput = z.infer<typeof presignUploadSchema>;
+
+export const attachmentParamsSchema = z.object({
+  projectId: z.uuid({ error: "Not a project id." }),
+  attachmentId: z.uuid({ error: "Not a file id." }),
+});
