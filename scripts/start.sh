@@ -26,12 +26,13 @@ pg_was_running=false
 if [ -f "$PG_DATA/PG_VERSION" ] && runuser -u postgres -- "$(pg_bin pg_ctl)" -D "$PG_DATA" status >/dev/null 2>&1; then
   pg_was_running=true
 fi
-FAKES_PID="" APP_PID=""
+FAKES_PID="" APP_PID="" DISPATCH_PID=""
 cleanup() {
   trap - INT TERM EXIT
   echo
   say "stopping"
   stop_group "$APP_PID"
+  stop_group "$DISPATCH_PID"
   stop_group "$FAKES_PID"
   [ "$pg_was_running" = true ] || pg_down "$PG_DATA"
   exit 0
@@ -50,6 +51,9 @@ npm run --silent build
 
 start_group "$LOGS/app.log" node_modules/.bin/next start -p "$APP_PORT" -H 127.0.0.1
 APP_PID=$LAST_PID
+# server-only modules load under the react-server condition, as inside Next.
+start_group "$LOGS/dispatcher.log" node_modules/.bin/tsx --conditions=react-server scripts/dispatcher.ts
+DISPATCH_PID=$LAST_PID
 wait_for_url "http://127.0.0.1:$APP_PORT/api/health" 60 || { tail -n 30 "$LOGS/app.log"; die "the app did not start (log: .data/logs/app.log)"; }
 wait_for_url "$MAIL_INBOX_URL" 20 || { tail -n 30 "$LOGS/fakes.log"; die "the mail fake did not start (log: .data/logs/fakes.log)"; }
 

@@ -1,4 +1,5 @@
 import bcrypt from "bcryptjs";
+import { fitCalibration } from "@/lib/elongation";
 import type { Kysely } from "kysely";
 import type { Database, Role, StressingEnds, TendonSegment } from "../types";
 
@@ -68,11 +69,49 @@ function pourTendons(prefix: string, uniformCount: number, bandedCount: number):
   return tendons;
 }
 
+// Cylinder breaks (invented) confirmed on the first two pours; the third waits for its test.
 const DEMO_POURS = [
-  { name: "L2 Pour 1", level: "Level 2", areaM2: 1480, date: "2026-11-24", prefix: "2-1" },
-  { name: "L2 Pour 2", level: "Level 2", areaM2: 1510, date: "2026-12-01", prefix: "2-2" },
-  { name: "L3 Pour 1", level: "Level 3", areaM2: 1495, date: "2026-12-08", prefix: "3-1" },
+  { name: "L2 Pour 1", level: "Level 2", areaM2: 1480, date: "2026-11-24", prefix: "2-1", concreteMpa: 23.4 },
+  { name: "L2 Pour 2", level: "Level 2", areaM2: 1510, date: "2026-12-01", prefix: "2-2", concreteMpa: 22.1 },
+  { name: "L3 Pour 1", level: "Level 3", areaM2: 1495, date: "2026-12-08", prefix: "3-1", concreteMpa: null },
 ] as const;
+
+/**
+ * Two invented jack-and-gauge sets with calibration points as a certificate would list them:
+ * ten load steps, force read on a reference load cell. Set B's calibration runs out during
+ * the week of the demo, so the field log's expiry warning can be seen.
+ */
+const DEMO_EQUIPMENT = [
+  {
+    name: "Set A · Jack J-14",
+    jack: "J-14-2207",
+    gauge: "G-221",
+    pump: "P-88",
+    calibratedOn: "2026-09-15",
+    validUntil: "2027-03-16",
+    slope: 5162,
+    intercept: -1150,
+    wiggle: [310, -220, 140, -90, 260, -310, 80, 190, -160, 40],
+  },
+  {
+    name: "Set B · Jack J-31",
+    jack: "J-31-1865",
+    gauge: "G-307",
+    pump: "P-91",
+    calibratedOn: "2026-06-10",
+    validUntil: "2026-12-09",
+    slope: 5231,
+    intercept: -880,
+    wiggle: [-150, 240, -60, 180, -270, 110, -40, 220, -130, 70],
+  },
+] as const;
+
+function demoPoints(e: (typeof DEMO_EQUIPMENT)[number]) {
+  return e.wiggle.map((w, i) => {
+    const pressureMPa = 4 * (i + 1);
+    return { pressureMPa, forceN: Math.round(e.slope * pressureMPa + e.intercept + w) };
+  });
+}
 
 export interface SeedSummary {
   projects: number;
@@ -98,7 +137,7 @@ export async function seedDemo(db: Kysely<Database>): Promise<SeedSummary> {
           comparison_basis: "net",
           count_jack_grip: false,
           friction_mu: 0.07,
-          wobble_per_m: 0.001 * 3.280839895,
+          wobble_per_m: 0.0015 * 3.280839895, // 0.0015 per ft, within ACI R18.6.2 greased monostrand range
           anchor_set_mm: 6.35,
           calibration_validity_days: 182,
           required_concrete_mpa: 20.7,
@@ -160,8 +199,8 @@ export async function seedDemo(db: Kysely<Database>): Promise<SeedSummary> {
       .insertInto("strand_lots")
       .values([
         // Invented mill-certificate values for the demo, near ASTM A416 nominal 0.5 in strand.
-        { project_id: ayp, lot_number: "AY-0871", strand_size: "0.5in", area_mm2: 99.3, modulus_mpa: 197_200, breaking_load_n: 187_400 },
-        { project_id: ayp, lot_number: "AY-0903", strand_size: "0.5in", area_mm2: 98.9, modulus_mpa: 195_600, breaking_load_n: 186_100 },
+        { project_id: ayp, lot_number: "AY-0871", strand_size: "0.5 in", area_mm2: 99.3, modulus_mpa: 197_200, breaking_load_n: 187_400 },
+        { project_id: ayp, lot_number: "AY-0903", strand_size: "0.5 in", area_mm2: 98.9, modulus_mpa: 195_600, breaking_load_n: 186_100 },
       ])
       .onConflict((oc) => oc.columns(["project_id", "lot_number"]).doNothing())
       .execute();
@@ -176,6 +215,8 @@ export async function seedDemo(db: Kysely<Database>): Promise<SeedSummary> {
           level: p.level,
           area_m2: p.areaM2,
           planned_stressing_date: p.date,
+          concrete_strength_mpa: p.concreteMpa,
+          concrete_confirmed_at: p.concreteMpa === null ? null : new Date(`${p.date}T07:00:00Z`),
         })),
       )
       .onConflict((oc) => oc.columns(["project_id", "name"]).doNothing())
@@ -193,7 +234,7 @@ export async function seedDemo(db: Kysely<Database>): Promise<SeedSummary> {
             pour_id: pour.id,
             tag: t.tag,
             kind: "unbonded_monostrand" as const,
-            strand_size: "0.5in",
+            strand_size: "0.5 in",
             strand_count: 1,
             segments: JSON.stringify(t.segments),
             ends: t.ends,
@@ -202,6 +243,47 @@ export async function seedDemo(db: Kysely<Database>): Promise<SeedSummary> {
           })),
         )
         .onConflict((oc) => oc.columns(["pour_id", "tag"]).doNothing())
+        .execute();
+    }
+
+    await trx
+      .insertInto("equipment_sets")
+      .values(
+        DEMO_EQUIPMENT.map((e) => ({
+          project_id: ayp,
+          name: e.name,
+          jack_serial: e.jack,
+          gauge_serial: e.gauge,
+          pump_serial: e.pump,
+          jack_grip_mm: 18 * IN,
+          max_force_n: 220_000,
+        })),
+      )
+      .onConflict((oc) => oc.columns(["project_id", "name"]).doNothing())
+      .execute();
+    const sets = await trx.selectFrom("equipment_sets").select(["id", "name"]).where("project_id", "=", ayp).execute();
+    for (const e of DEMO_EQUIPMENT) {
+      const set = sets.find((x) => x.name === e.name);
+      if (!set) throw new Error(`demo equipment set ${e.name} missing after insert`);
+      const existing = await trx.selectFrom("calibrations").select("id").where("equipment_set_id", "=", set.id).executeTakeFirst();
+      if (existing) continue;
+      const points = demoPoints(e);
+      const fit = fitCalibration(points);
+      await trx
+        .insertInto("calibrations")
+        .values({
+          project_id: ayp,
+          equipment_set_id: set.id,
+          calibrated_on: e.calibratedOn,
+          valid_until: e.validUntil,
+          points: JSON.stringify(points),
+          slope_n_per_mpa: fit.slope,
+          intercept_n: fit.intercept,
+          r2: fit.r2,
+          min_pressure_mpa: Math.min(...points.map((p) => p.pressureMPa)),
+          max_pressure_mpa: Math.max(...points.map((p) => p.pressureMPa)),
+          laboratory: "Brightwater Load Lab (invented)",
+        })
         .execute();
     }
 

@@ -18,6 +18,7 @@ function transport(): Transporter {
 
 export interface OutgoingMail {
   to: string | string[];
+  messageId?: string;
   subject: string;
   text: string;
   html: string;
@@ -25,5 +26,12 @@ export interface OutgoingMail {
 
 /** Sends one message. Addresses come from our own records; user text never goes into headers. */
 export async function sendMail(mail: OutgoingMail): Promise<void> {
-  await transport().sendMail({ from: env.MAIL_FROM, to: mail.to, subject: mail.subject, text: mail.text, html: mail.html });
+  await transport().sendMail({
+    from: env.MAIL_FROM,
+    to: mail.to,
+    subject: mail.subject,
+    text: mail.text,
+    html: mail.html,
+    messageId: mail.messageId,
+  });
 }

@@ -70,3 +70,32 @@ export function passwordResetMail(input: { to: string; url: string; minutes: num
     "If it was not you, ignore this message: your password stays as it is.",
   );
 }
+
+const CAUTION_LINE =
+  "Caution: these figures support the licensed engineer of record and do not replace the engineer's judgment; local codes, the project specifications and the engineer's instructions govern. Stressing is dangerous: nobody stands behind or beside the jack.";
+
+export function flagMail(input: {
+  to: string[];
+  projectName: string;
+  pourName: string;
+  tendonTag: string;
+  flags: { kind: string; reason: string }[];
+  verdictLine: string;
+  basisLine: string;
+  url: string;
+}): OutgoingMail {
+  const title = `Tendon ${input.tendonTag} needs the engineer of record`;
+  const paragraphs = [
+    `${input.projectName}, ${input.pourName}, tendon ${input.tendonTag}.`,
+    `Verdict: ${input.verdictLine}.`,
+    ...input.flags.map((f) => `Flag (${f.kind.replaceAll("_", " ")}): ${f.reason}`),
+    `Basis: ${input.basisLine}`,
+    "Do not cut tails or grout this tendon until a disposition is recorded.",
+  ];
+  return {
+    to: input.to.join(", "),
+    subject: `Tautline flag: ${input.tendonTag}, ${input.pourName} (${input.flags.map((f) => f.kind.replaceAll("_", " ")).join(", ")})`,
+    html: layout(title, paragraphs, { label: "Open the tendon's flags", url: input.url }, CAUTION_LINE),
+    text: text(title, paragraphs, { label: "Open the tendon's flags", url: input.url }, CAUTION_LINE),
+  };
+}

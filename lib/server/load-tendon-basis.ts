@@ -1,0 +1,105 @@
+import "server-only";
+import type { Kysely } from "kysely";
+import type { Database } from "@/db/types";
+import { AppError } from "@/lib/errors";
+import type { LotBasis, ProjectBasis, TendonBasis } from "@/lib/stressing/basis";
+import type { DisplayUnits, StoredResolution } from "@/lib/stressing/display";
+
+export interface LoadedTendon {
+  project: ProjectBasis &
+    DisplayUnits & {
+      id: string;
+      name: string;
+      requiredConcreteMpa: number | null;
+      engineerOfRecordName: string | null;
+      engineerOfRecordEmail: string | null;
+      notifyEmails: string[];
+    };
+  pour: { id: string; name: string; concreteStrengthMpa: number | null; status: string };
+  tendon: TendonBasis & { id: string; tag: string; kind: string; shopElongationMm: number | null };
+  lot: (LotBasis & { lotNumber: string }) | null;
+}
+
+/** Everything the computation needs about one tendon, read with the project in every WHERE. */
+export async function loadTendonBasis(db: Kysely<Database>, input: { projectId: string; tendonId: string }): Promise<LoadedTendon> {
+  const row = await db
+    .selectFrom("tendons")
+    .innerJoin("projects", "projects.id", "tendons.project_id")
+    .innerJoin("pours", (j) => j.onRef("pours.id", "=", "tendons.pour_id").onRef("pours.project_id", "=", "tendons.project_id"))
+    .leftJoin("strand_lots", (j) =>
+      j.onRef("strand_lots.id", "=", "tendons.strand_lot_id").onRef("strand_lots.project_id", "=", "tendons.project_id"),
+    )
+    .select([
+      "projects.id as projectId",
+      "projects.name as projectName",
+      "projects.unit_system",
+      "projects.reading_resolution",
+      "projects.tolerance_pct",
+      "projects.short_tendon_floor_mm",
+      "projects.comparison_basis",
+      "projects.count_jack_grip",
+      "projects.friction_mu",
+      "projects.wobble_per_m",
+      "projects.anchor_set_mm",
+      "projects.required_concrete_mpa",
+      "projects.engineer_of_record_name",
+      "projects.engineer_of_record_email",
+      "projects.notify_emails",
+      "pours.id as pourId",
+      "pours.name as pourName",
+      "pours.concrete_strength_mpa",
+      "pours.status as pourStatus",
+      "tendons.id as tendonId",
+      "tendons.tag",
+      "tendons.kind",
+      "tendons.strand_size",
+      "tendons.strand_count",
+      "tendons.segments",
+      "tendons.ends",
+      "tendons.jack_grip_mm",
+      "tendons.shop_elongation_mm",
+      "strand_lots.lot_number",
+      "strand_lots.area_mm2",
+      "strand_lots.modulus_mpa",
+      "strand_lots.breaking_load_n",
+    ])
+    .where("tendons.project_id", "=", input.projectId)
+    .where("tendons.id", "=", input.tendonId)
+    .executeTakeFirst();
+  if (!row) throw new AppError("NOT_FOUND", "No such tendon on this project.");
+  return {
+    project: {
+      id: row.projectId,
+      name: row.projectName,
+      unitSystem: row.unit_system,
+      readingResolution: row.reading_resolution as StoredResolution,
+      tolerancePct: row.tolerance_pct,
+      shortTendonFloorMm: row.short_tendon_floor_mm,
+      comparisonBasis: row.comparison_basis,
+      countJackGrip: row.count_jack_grip,
+      frictionMu: row.friction_mu,
+      wobblePerM: row.wobble_per_m,
+      anchorSetMm: row.anchor_set_mm,
+      requiredConcreteMpa: row.required_concrete_mpa,
+      engineerOfRecordName: row.engineer_of_record_name,
+      engineerOfRecordEmail: row.engineer_of_record_email,
+      notifyEmails: row.notify_emails,
+    },
+    pour: { id: row.pourId, name: row.pourName, concreteStrengthMpa: row.concrete_strength_mpa, status: row.pourStatus },
+    tendon: {
+      id: row.tendonId,
+      tag: row.tag,
+      kind: row.kind,
+      strandSize: row.strand_size,
+      strandCount: row.strand_count,
+      segments: row.segments,
+      ends: row.ends,
+      jackGripMm: row.jack_grip_mm,
+      shopElongationMm: row.shop_elongation_mm,
+    },
+    lot:
+      row.lot_number && row.area_mm2 && row.modulus_mpa && row.breaking_load_n
+        ? { lotNumber: row.lot_number, areaMm2: row.area_mm2, modulusMPa: row.modulus_mpa, breakingLoadN: row.breaking_load_n }
+        : null,
+  };
+}

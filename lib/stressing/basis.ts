@@ -1,0 +1,198 @@
+import {
+  DEFAULT_STRAND_MODULUS_MPA,
+  JACKING_LIMIT_FPU_FRACTION,
+  checkStressLimits,
+  compareElongation,
+  findStrandSize,
+  forceFromPressure,
+  pressureForForce,
+  predictElongation,
+  totalFromInitial,
+  type Check,
+  type Comparison,
+  type ElongationPrediction,
+  type TendonSegment,
+} from "@/lib/elongation";
+
+/**
+ * The computation basis of one tendon: which values feed the engine and how the measured sum is
+ * compared. Pure and shared, so the tablet's provisional verdict, the server's evaluation and the
+ * tendon screen all agree to the last digit.
+ */
+
+export interface ProjectBasis {
+  tolerancePct: number;
+  shortTendonFloorMm: number | null;
+  comparisonBasis: "gross" | "net";
+  countJackGrip: boolean;
+  frictionMu: number;
+  wobblePerM: number;
+  anchorSetMm: number;
+}
+
+export interface TendonBasis {
+  strandSize: string;
+  strandCount: number;
+  segments: TendonSegment[];
+  ends: "A" | "B" | "both";
+  jackGripMm: number | null;
+}
+
+/** Mill-certificate values of the strand lot, when the tendon has one. */
+export interface LotBasis {
+  areaMm2: number;
+  modulusMPa: number;
+  breakingLoadN: number;
+}
+
+export interface CalibrationLine {
+  slope: number;
+  intercept: number;
+  minPressureMPa: number;
+  maxPressureMPa: number;
+}
+
+export interface StrandValues {
+  areaMm2: number;
+  modulusMPa: number;
+  breakingLoadPerStrandN: number;
+  source: "strand lot" | "nominal";
+}
+
+/** Area, modulus and breaking load: the lot's mill certificate, else ASTM A416 nominal values. */
+export function strandValues(tendon: TendonBasis, lot: LotBasis | null): StrandValues {
+  if (lot) return { areaMm2: lot.areaMm2, modulusMPa: lot.modulusMPa, breakingLoadPerStrandN: lot.breakingLoadN, source: "strand lot" };
+  const nominal = findStrandSize(tendon.strandSize);
+  if (!nominal) throw new Error(`Unknown strand size "${tendon.strandSize}"`);
+  return {
+    areaMm2: nominal.areaMm2,
+    modulusMPa: DEFAULT_STRAND_MODULUS_MPA.aashto,
+    breakingLoadPerStrandN: nominal.minBreakingStrengthN,
+    source: "nominal",
+  };
+}
+
+/**
+ * The jacking force the tendon is stressed to: 0.80 of the specified breaking load of the
+ * nominal strand (ACI 318-19 Table 20.3.2.5.1), the usual target of building tendons.
+ */
+export function targetJackingForceN(tendon: TendonBasis): number {
+  const nominal = findStrandSize(tendon.strandSize);
+  if (!nominal) throw new Error(`Unknown strand size "${tendon.strandSize}"`);
+  return JACKING_LIMIT_FPU_FRACTION * nominal.minBreakingStrengthN * tendon.strandCount;
+}
+
+export interface TendonPrediction {
+  jackingForceN: number;
+  strand: StrandValues;
+  prediction: ElongationPrediction;
+  /** The value the measured sum is compared with, on the project's basis. */
+  predictedMm: number;
+  gripMm: number;
+  checks: Check[];
+}
+
+export function predictTendon(input: {
+  project: ProjectBasis;
+  tendon: TendonBasis;
+  lot: LotBasis | null;
+  /** The equipment set's grip length, used when the tendon gives none. */
+  equipmentGripMm?: number | null;
+  jackingForceN?: number;
+}): TendonPrediction {
+  const { project, tendon } = input;
+  const strand = strandValues(tendon, input.lot);
+  const jackingForceN = input.jackingForceN ?? targetJackingForceN(tendon);
+  const gripMm = project.countJackGrip ? (tendon.jackGripMm ?? input.equipmentGripMm ?? 0) : 0;
+  const prediction = predictElongation({
+    segments: tendon.segments,
+    strandAreaMm2: strand.areaMm2,
+    strandCount: tendon.strandCount,
+    modulusMPa: strand.modulusMPa,
+    jackingForceN,
+    wobblePerM: project.wobblePerM,
+    mu: project.frictionMu,
+    anchorSetMm: project.anchorSetMm > 0 ? project.anchorSetMm : undefined,
+    jackGripMm: gripMm > 0 ? gripMm : undefined,
+    ends: tendon.ends,
+  });
+  const checks = checkStressLimits({
+    breakingLoadPerStrandN: strand.breakingLoadPerStrandN,
+    strandCount: tendon.strandCount,
+    jackingForceN,
+    anchorForceAfterN: prediction.seating?.anchorForceAfterN,
+  });
+  return {
+    jackingForceN,
+    strand,
+    prediction,
+    predictedMm: project.comparisonBasis === "net" ? prediction.netMm : prediction.grossMm,
+    gripMm,
+    checks,
+  };
+}
+
+/** The gauge pressure to pull to for the tendon's jacking force on one calibration. */
+export function targetPressureMPa(calibration: CalibrationLine, jackingForceN: number): number {
+  return pressureForForce(calibration, jackingForceN);
+}
+
+export interface EndReading {
+  end: "A" | "B";
+  measuredMm: number;
+  initialPressureMPa: number | null;
+  finalPressureMPa: number;
+  calibration: CalibrationLine | null;
+}
+
+/**
+ * An end's elongation brought to the full jacking force: readings taken from an initial
+ * pressure are extrapolated linearly (measured·Pj/(Pj − Pi)), forces from the calibration.
+ */
+export function endTotalMm(reading: EndReading): number {
+  if (!reading.initialPressureMPa || !reading.calibration) return reading.measuredMm;
+  const initialForceN = forceFromPressure(reading.calibration, reading.initialPressureMPa);
+  const finalForceN = forceFromPressure(reading.calibration, reading.finalPressureMPa);
+  if (initialForceN <= 0) return reading.measuredMm;
+  return totalFromInitial({ measuredMm: reading.measuredMm, initialForceN, jackingForceN: finalForceN });
+}
+
+export interface TendonJudgement {
+  /** Ends the schedule stresses that have no reading yet. */
+  missingEnds: ("A" | "B")[];
+  measuredMm: number;
+  comparison: Comparison;
+  /** True until every end the schedule stresses has a reading. */
+  provisional: boolean;
+}
+
+export function stressedEnds(ends: TendonBasis["ends"]): ("A" | "B")[] {
+  return ends === "both" ? ["A", "B"] : [ends];
+}
+
+/**
+ * Compares the measured sum of the ends read so far with the prediction. A lone end of a
+ * two-end tendon is judged against that end's own share, provisionally.
+ */
+export function judgeTendon(input: { project: ProjectBasis; tendon: TendonBasis; predicted: TendonPrediction; readings: EndReading[] }): TendonJudgement {
+  const { tendon, predicted } = input;
+  const wanted = stressedEnds(tendon.ends);
+  const read = wanted.filter((e) => input.readings.some((r) => r.end === e));
+  const missingEnds = wanted.filter((e) => !read.includes(e));
+  const measuredMm = input.readings.filter((r) => wanted.includes(r.end)).reduce((sum, r) => sum + endTotalMm(r), 0);
+
+  let predictedMm = predicted.predictedMm;
+  if (missingEnds.length && read.length) {
+    // Share of the whole for the ends that were read, on the same basis.
+    const share = read.reduce((s, e) => s + (predicted.prediction.perEndMm[e] ?? 0), 0) / predicted.prediction.grossMm;
+    predictedMm = predicted.predictedMm * share;
+  }
+  const comparison = compareElongation({
+    measuredMm,
+    predictedMm,
+    tolerancePct: input.project.tolerancePct,
+    floorMm: input.project.shortTendonFloorMm ?? undefined,
+    jackingForceN: predicted.jackingForceN,
+  });
+  return { missingEnds, measuredMm, comparison, provisional: missingEnds.length > 0 };
+}

@@ -1,0 +1,44 @@
+import { DEFAULT_UNITS, formatForce, formatLength, formatPressure, type ReadingResolution } from "@/lib/units";
+
+/**
+ * Shows SI values in a project's display units. The database stores the reading resolution
+ * as "1/8in" | "1/16in" | "1mm" and the unit system as "us" | "si".
+ */
+
+export type StoredResolution = "1/8in" | "1/16in" | "1mm";
+
+const RESOLUTIONS: Record<StoredResolution, ReadingResolution> = { "1/8in": "1/8 in", "1/16in": "1/16 in", "1mm": "1 mm" };
+
+export function readingResolution(stored: StoredResolution): ReadingResolution {
+  return RESOLUTIONS[stored];
+}
+
+export interface DisplayUnits {
+  unitSystem: "us" | "si";
+  readingResolution: StoredResolution;
+}
+
+export function unitsOf(project: DisplayUnits) {
+  return DEFAULT_UNITS[project.unitSystem === "us" ? "US" : "SI"];
+}
+
+export function showLength(project: DisplayUnits, mm: number): string {
+  return formatLength(mm, readingResolution(project.readingResolution));
+}
+
+/** Lengths that are computed, not read (predictions, bands): one finer step than a reading. */
+export function showComputedLength(project: DisplayUnits, mm: number): string {
+  return project.unitSystem === "us" ? `${(mm / 25.4).toFixed(2)} in` : `${mm.toFixed(1)} mm`;
+}
+
+export function showForce(project: DisplayUnits, n: number): string {
+  return formatForce(n, { unit: unitsOf(project).force });
+}
+
+export function showPressure(project: DisplayUnits, mpa: number): string {
+  return formatPressure(mpa, { unit: unitsOf(project).pressure });
+}
+
+export function showPct(pct: number): string {
+  return `${pct >= 0 ? "+" : "−"}${Math.abs(pct).toFixed(1)} %`;
+}

@@ -1,0 +1,183 @@
+import { sql } from "kysely";
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
+import { seedDemo } from "@/db/seed/demo";
+import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
+import { lbfToN } from "@/lib/units";
+import { predictTendon } from "@/lib/stressing/basis";
+import { evaluateTendon } from "@/lib/server/evaluate-tendon";
+import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
+import { demoFixture, insertRecord } from "../support/records";
+import { createTestDatabase, type TestDatabase } from "../support/database";
+
+let t: TestDatabase;
+let fx: Awaited<ReturnType<typeof demoFixture>>;
+
+beforeAll(async () => {
+  t = await createTestDatabase({ migrate: true });
+  await seedDemo(t.db);
+  fx = await demoFixture(t.db);
+});
+afterAll(async () => {
+  await t.drop();
+});
+
+async function predictedFor(tendonId: string) {
+  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId });
+  return predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot, equipmentGripMm: 457.2 });
+}
+
+/** The gauge pressure on demo Set A that gives a force, from its stored calibration line. */
+async function pressureOnSetA(forceN: number): Promise<number> {
+  const c = await t.db.selectFrom("calibrations").select(["slope_n_per_mpa", "intercept_n"]).where("equipment_set_id", "=", fx.setA).executeTakeFirstOrThrow();
+  return (forceN - c.intercept_n) / c.slope_n_per_mpa;
+}
+
+const flagsOf = (tendonId: string) =>
+  t.db.selectFrom("flags").select(["kind", "reason", "status"]).where("tendon_id", "=", tendonId).orderBy("kind").execute();
+const notificationsOf = (tendonId: string) =>
+  t.db
+    .selectFrom("notifications")
+    .innerJoin("flags", "flags.id", "notifications.flag_id")
+    .select(["notifications.to_emails", "notifications.subject", "notifications.text_body"])
+    .where("flags.tendon_id", "=", tendonId)
+    .execute();
+
+// ACI 318-19 Table 20.3.2.5.1 (from memory): jacking ≤ 0.80·fpu, at the anchorage after
+// transfer ≤ 0.70·fpu. ASTM A416 Grade 270, 0.5 in strand: 41,300 lbf minimum breaking strength.
+const HALF_INCH = ASTM_A416_GRADE_270.find((s) => s.designation === "0.5 in")!;
+const JACKING_TARGET_N = 0.8 * HALF_INCH.minBreakingStrengthN;
+
+describe("the server's evaluation of a tendon", () => {
+  let normalPressure: number;
+  beforeEach(async () => {
+    normalPressure = await pressureOnSetA(JACKING_TARGET_N);
+  });
+
+  it("jacks 0.5 in strand to 0.80·fpu·A = 33.04 kips (ACI 318 limit; ASTM A416 strength)", () => {
+    expect(JACKING_TARGET_N).toBeCloseTo(lbfToN(0.8 * 41_300), 6);
+    expect(JACKING_TARGET_N / 4448.2216152605).toBeCloseTo(33.04, 2);
+  });
+
+  it("stores an in-band verdict with every input and raises nothing", async () => {
+    const tendon = await fx.tendon("2-1-U01");
+    const predicted = await predictedFor(tendon.id);
+    await insertRecord(t.db, { projectId: fx.projectId, tendon, end: "A", equipmentSetId: fx.setA, authorId: fx.crewId, measuredMm: predicted.predictedMm * 1.02, finalPressureMPa: normalPressure });
+    const outcome = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+    expect(outcome).toMatchObject({ verdict: "in band", provisional: false, flagKinds: [] });
+    expect(outcome.deviationPct).toBeCloseTo(2, 9);
+    const stored = await t.db.selectFrom("evaluations").selectAll().where("id", "=", outcome.evaluationId).executeTakeFirstOrThrow();
+    expect(stored.engine_version).toMatch(/^tautline-elongation\//);
+    expect(stored.inputs).toMatchObject({ project: { tolerancePct: 7, comparisonBasis: "net" }, lot: { lotNumber: "AY-0871" } });
+    expect(await flagsOf(tendon.id)).toEqual([]);
+  });
+
+  it("flags a long tendon once, queues one e-mail to the engineer with the inspector copied, and a replay adds nothing", async () => {
+    const tendon = await fx.tendon("2-1-U02");
+    const predicted = await predictedFor(tendon.id);
+    await insertRecord(t.db, { projectId: fx.projectId, tendon, end: "A", equipmentSetId: fx.setA, authorId: fx.crewId, measuredMm: predicted.predictedMm * 1.1, finalPressureMPa: normalPressure });
+    const first = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+    expect(first).toMatchObject({ verdict: "long", flagKinds: ["out_of_band"] });
+    const flags = await flagsOf(tendon.id);
+    expect(flags).toHaveLength(1);
+    expect(flags[0]!.reason).toMatch(/\+10\.0 %, long of the ±7 % band/);
+    const mails = await notificationsOf(tendon.id);
+    expect(mails).toHaveLength(1);
+    expect(mails[0]!.to_emails.sort()).toEqual(["engineer@demo.tautline.test", "inspector@demo.tautline.test"]);
+    expect(mails[0]!.text_body).toContain("2-1-U02");
+    expect(mails[0]!.text_body).toContain("Caution");
+
+    const again = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+    expect(again.flagKinds).toEqual([]);
+    expect(await flagsOf(tendon.id)).toHaveLength(1);
+    expect(await notificationsOf(tendon.id)).toHaveLength(1);
+  });
+
+  it("keeps a lone end of a two-end tendon provisional and flags the total only when both ends are in", async () => {
+    const tendon = await fx.tendon("2-1-B01");
+    expect(tendon.ends).toBe("both");
+    const predicted = await predictedFor(tendon.id);
+    const a = predicted.prediction.perEndMm.A!;
+    const b = predicted.prediction.perEndMm.B!;
+    const share = (x: number) => (x / predicted.prediction.grossMm) * predicted.predictedMm;
+    await insertRecord(t.db, { projectId: fx.projectId, tendon, end: "A", equipmentSetId: fx.setA, authorId: fx.crewId, measuredMm: share(a) * 0.9, finalPressureMPa: normalPressure });
+    const lone = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+    expect(lone).toMatchObject({ provisional: true, verdict: "short", flagKinds: [] });
+    await insertRecord(t.db, { projectId: fx.projectId, tendon, end: "B", equipmentSetId: fx.setA, authorId: fx.crewId, measuredMm: share(b) * 0.9, finalPressureMPa: normalPressure });
+    const both = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+    expect(both).toMatchObject({ provisional: false, verdict: "short", flagKinds: ["out_of_band"] });
+    expect(both.deviationPct).toBeCloseTo(-10, 6);
+  });
+
+  it("flags a jacking force above 0.80·fpu·A read from the gauge through the calibration", async () => {
+    const tendon = await fx.tendon("2-1-U03");
+    const predicted = await predictedFor(tendon.id);
+    const over = await pressureOnSetA(JACKING_TARGET_N * 1.04);
+    await insertRecord(t.db, { projectId: fx.projectId, tendon, end: "A", equipmentSetId: fx.setA, authorId: fx.crewId, measuredMm: predicted.predictedMm, finalPressureMPa: over });
+    const outcome = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+    expect(outcome.flagKinds).toContain("jacking_over_limit");
+    const flag = (await flagsOf(tendon.id)).find((f) => f.kind === "jacking_over_limit")!;
+    expect(flag.reason).toMatch(/above 0\.80·fpu·A = 33\.04 kip/);
+  });
+
+  it("flags a wire break, an expired calibration with the crew's reason, and a reading outside the calibrated range", async () => {
+    const tendon = await fx.tendon("2-1-U04");
+    const predicted = await predictedFor(tendon.id);
+    // Demo Set B is calibrated up to 40 MPa and valid until 2026-12-09.
+    await t.db.insertInto("records").values({
+      id: "01900000-0000-7000-8000-000000000001",
+      project_id: fx.projectId,
+      pour_id: tendon.pour_id,
+      tendon_id: tendon.id,
+      tendon_end: "A",
+      chain_id: "01900000-0000-7000-8000-000000000001",
+      revision: 1,
+      equipment_set_id: fx.setB,
+      expired_calibration_reason: "Set A in for repair",
+      final_pressure_mpa: 41,
+      reading_method: "marks",
+      entered: JSON.stringify({}),
+      measured_mm: predicted.predictedMm,
+      wire_breaks: 1,
+      device_time: "2026-12-20T15:00:00Z",
+      device_time_zone: "America/Chicago",
+      device_id: "test-device",
+      author_user_id: fx.crewId,
+    }).execute();
+    const outcome = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+    expect(outcome.flagKinds.sort()).toEqual(expect.arrayContaining(["calibration_expired", "calibration_range", "wire_break"]));
+    const flags = await flagsOf(tendon.id);
+    expect(flags.find((f) => f.kind === "calibration_expired")!.reason).toContain("Set A in for repair");
+    expect(flags.find((f) => f.kind === "wire_break")!.reason).toBe("1 wire break reported at end A.");
+  });
+
+  it("flags stressing before the required concrete strength is confirmed", async () => {
+    const pour = await t.db.selectFrom("pours").select("id").where("name", "=", "L3 Pour 1").executeTakeFirstOrThrow();
+    const tendon = await t.db.selectFrom("tendons").select(["id", "pour_id"]).where("pour_id", "=", pour.id).where("tag", "=", "3-1-U01").executeTakeFirstOrThrow();
+    const predicted = await predictedFor(tendon.id);
+    await insertRecord(t.db, { projectId: fx.projectId, tendon, end: "A", equipmentSetId: fx.setA, authorId: fx.crewId, measuredMm: predicted.predictedMm, finalPressureMPa: normalPressure });
+    const outcome = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+    expect(outcome.flagKinds).toEqual(["concrete_unconfirmed"]);
+  });
+
+  it("flags an end stressed twice without a disposition", async () => {
+    const tendon = await fx.tendon("2-1-U06");
+    const predicted = await predictedFor(tendon.id);
+    const base = { projectId: fx.projectId, tendon, end: "A" as const, equipmentSetId: fx.setA, authorId: fx.crewId, measuredMm: predicted.predictedMm, finalPressureMPa: normalPressure };
+    await insertRecord(t.db, { ...base, deviceTime: "2026-12-01T14:00:00Z" });
+    await insertRecord(t.db, { ...base, deviceTime: "2026-12-01T16:00:00Z" });
+    const outcome = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+    expect(outcome.flagKinds).toEqual(["stressed_twice"]);
+  });
+
+  it("never rewrites an evaluation: the database refuses UPDATE and DELETE", async () => {
+    await expect(sql`update evaluations set verdict = 'in band'`.execute(t.db)).rejects.toThrow(/append-only/);
+    await expect(sql`delete from evaluations`.execute(t.db)).rejects.toThrow(/append-only/);
+    await expect(sql`update records set measured_mm = 1`.execute(t.db)).rejects.toThrow(/append-only/);
+  });
+
+  it("answers NOT_FOUND for another project's tendon", async () => {
+    const other = await t.db.selectFrom("projects").select("id").where("code", "=", "QHM").executeTakeFirstOrThrow();
+    const tendon = await fx.tendon("2-1-U01");
+    await expect(evaluateTendon(t.db, { projectId: other.id, tendonId: tendon.id, reason: "sync" })).rejects.toMatchObject({ code: "NOT_FOUND" });
+  });
+});

@@ -1,0 +1,116 @@
+import { spawn } from "node:child_process";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { seedDemo } from "@/db/seed/demo";
+import { MAX_ATTEMPTS, backoffMs, dispatchOne, drainNotifications } from "@/lib/server/dispatch-notifications";
+import { createTestDatabase, type TestDatabase } from "../support/database";
+
+const INBOX = process.env.MAIL_INBOX_URL ?? "http://127.0.0.1:1081";
+
+let t: TestDatabase;
+let projectId: string;
+
+beforeAll(async () => {
+  t = await createTestDatabase({ migrate: true });
+  await seedDemo(t.db);
+  projectId = (await t.db.selectFrom("projects").select("id").where("code", "=", "AYP").executeTakeFirstOrThrow()).id;
+});
+afterAll(async () => {
+  await t.drop();
+});
+
+async function queue(subject: string): Promise<string> {
+  const row = await t.db
+    .insertInto("notifications")
+    .values({
+      project_id: projectId,
+      dedupe_key: `test:${subject}`,
+      to_emails: ["engineer@demo.tautline.test"],
+      subject,
+      text_body: `Body of ${subject}`,
+      html_body: `<p>Body of ${subject}</p>`,
+    })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  return row.id;
+}
+
+async function inboxCount(subject: string): Promise<number> {
+  const list = (await (await fetch(`${INBOX}/api/messages`)).json()) as { subject: string }[];
+  return list.filter((m) => m.subject === subject).length;
+}
+
+describe("the e-mail dispatcher", () => {
+  it("sends a queued notification through SMTP once and marks it sent", async () => {
+    const subject = `once-${Date.now()}`;
+    const id = await queue(subject);
+    expect(await drainNotifications(t.db)).toBe(1);
+    expect(await drainNotifications(t.db)).toBe(0);
+    expect(await inboxCount(subject)).toBe(1);
+    const row = await t.db.selectFrom("notifications").select(["status", "attempts", "sent_at"]).where("id", "=", id).executeTakeFirstOrThrow();
+    expect(row).toMatchObject({ status: "sent", attempts: 1 });
+    expect(row.sent_at).not.toBeNull();
+  });
+
+  it("refuses a second row with the same dedupe key, so a replay cannot queue a copy", async () => {
+    const subject = `dedupe-${Date.now()}`;
+    await queue(subject);
+    await expect(queue(subject)).rejects.toThrow(/duplicate key/);
+    expect(await drainNotifications(t.db)).toBe(1);
+    expect(await inboxCount(subject)).toBe(1);
+  });
+
+  it("retries a failed send later, with backoff, and gives up after the last attempt", async () => {
+    const subject = `retry-${Date.now()}`;
+    const id = await queue(subject);
+    const outcome = await dispatchOne(t.db, async () => {
+      throw new Error("relay refused");
+    });
+    expect(outcome).toBe("retry");
+    const row = await t.db.selectFrom("notifications").select(["status", "attempts", "last_error", "next_attempt_at"]).where("id", "=", id).executeTakeFirstOrThrow();
+    expect(row).toMatchObject({ status: "pending", attempts: 1, last_error: "relay refused" });
+    expect(new Date(row.next_attempt_at).getTime()).toBeGreaterThan(Date.now());
+    // Not due yet: a drain right now sends nothing.
+    expect(await drainNotifications(t.db)).toBe(0);
+    expect(await inboxCount(subject)).toBe(0);
+
+    // At the last attempt a failure marks the row failed for a person to look at.
+    await t.db.updateTable("notifications").set({ attempts: MAX_ATTEMPTS - 1, next_attempt_at: new Date(0) }).where("id", "=", id).execute();
+    expect(await dispatchOne(t.db, async () => Promise.reject(new Error("relay still refusing")))).toBe("failed");
+    const failed = await t.db.selectFrom("notifications").select(["status", "attempts"]).where("id", "=", id).executeTakeFirstOrThrow();
+    expect(failed).toEqual({ status: "failed", attempts: MAX_ATTEMPTS });
+  });
+
+  it("backs off exponentially within ±25 % jitter and never waits more than half an hour", () => {
+    expect(backoffMs(1, () => 0.5)).toBe(5_000);
+    expect(backoffMs(2, () => 0.5)).toBe(10_000);
+    expect(backoffMs(4, () => 0)).toBe(30_000);
+    expect(backoffMs(4, () => 1)).toBe(50_000);
+    expect(backoffMs(30, () => 0.5)).toBe(30 * 60_000);
+  });
+
+  it("sends exactly once when a dispatcher dies in the middle of sending", async () => {
+    await drainNotifications(t.db); // nothing else due
+    const subject = `crash-${Date.now()}`;
+    const id = await queue(subject);
+    // node itself (not the tsx wrapper) so the kill ends the process that holds the row.
+    const child = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", "tests/support/crashing-dispatcher.ts"], {
+      env: { ...process.env, DATABASE_URL: t.url },
+      stdio: ["ignore", "pipe", "inherit"],
+    });
+    await new Promise<void>((resolve, reject) => {
+      child.stdout.on("data", (chunk: Buffer) => chunk.toString().includes("claimed") && resolve());
+      child.on("exit", (code) => reject(new Error(`crashing dispatcher exited early (${code})`)));
+    });
+    // While the dying dispatcher holds the row, another one skips it.
+    expect(await dispatchOne(t.db, async () => undefined)).toBe("idle");
+    child.kill("SIGKILL");
+    await new Promise((r) => child.on("exit", r));
+
+    expect(await inboxCount(subject)).toBe(0);
+    expect((await t.db.selectFrom("notifications").select("status").where("id", "=", id).executeTakeFirstOrThrow()).status).toBe("pending");
+    // The next dispatcher (at server start it drains first) sends it, once.
+    expect(await drainNotifications(t.db)).toBe(1);
+    expect(await drainNotifications(t.db)).toBe(0);
+    expect(await inboxCount(subject)).toBe(1);
+  });
+});
