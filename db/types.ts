@@ -354,6 +354,17 @@ export interface AppliedOpsTable {
   applied_at: Timestamp;
 }
 
+/** A deleted row the tablets may hold; change_xid (xid8) is read as text. */
+export interface SyncTombstonesTable {
+  id: Generated<number>;
+  project_id: string;
+  table_name: string;
+  row_id: string;
+  pour_id: string | null;
+  change_xid: Generated<string>;
+  deleted_at: Timestamp;
+}
+
 export interface Database {
   users: UsersTable;
   projects: ProjectsTable;
@@ -376,6 +387,7 @@ export interface Database {
   releases: ReleasesTable;
   notifications: NotificationsTable;
   applied_ops: AppliedOpsTable;
+  sync_tombstones: SyncTombstonesTable;
 }
 
 export type User = Selectable<UsersTable>;

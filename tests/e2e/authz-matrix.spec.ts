@@ -90,6 +90,12 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
 
   const BOGUS_TOKEN = "x".repeat(43);
 
+  /** A pour of the demo project, as the demo crew's download list names it. */
+  async function crewDownloadPourId(): Promise<string> {
+    const list = (await (await contexts.crew.get("/api/field/pours")).json()) as { pours: { id: string; projectId: string }[] };
+    return list.pours.find((p) => p.projectId === projectId)!.id;
+  }
+
   const CERTIFICATE = Buffer.from("%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n");
   const certificateUpload = { purpose: "mill_certificate", contentType: "application/pdf", sizeBytes: CERTIFICATE.byteLength, originalName: "matrix.pdf" };
   /** An admin's certificate upload, put in storage; confirmed too when `confirm` is set. */
@@ -150,6 +156,16 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     "POST /api/password-reset/complete": {
       call: (c) => c.post("/api/password-reset/complete", { data: { token: BOGUS_TOKEN, password: "a-long-enough-password" } }),
     },
+    "GET /api/field/pours": { call: (c) => c.get("/api/field/pours") },
+    "GET /api/field/pours/[pourId]": { fixture: crewDownloadPourId, call: (c, pourId) => c.get(`/api/field/pours/${pourId}`) },
+    // An op whose payload is empty: the crew's answer is 200 with the op rejected, so nothing is written.
+    "POST /api/sync/push": {
+      call: (c) =>
+        c.post("/api/sync/push", {
+          data: { deviceId: "matrix-tablet-01", ops: [{ opId: crypto.randomUUID(), kind: "create", recordId: crypto.randomUUID(), payload: {} }] },
+        }),
+    },
+    "GET /api/sync/pull": { fixture: crewDownloadPourId, call: (c, pourId) => c.get(`/api/sync/pull?cursor=0&pours=${pourId}`) },
   };
 
   const ORDER: Caller[] = ["anonymous", "other", "crew", "inspector", "engineer", "admin"];

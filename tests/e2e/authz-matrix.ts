@@ -48,6 +48,11 @@ export const MATRIX: Record<string, Expected> = {
   "POST /api/invitations/accept": everyone(410),
   "POST /api/password-reset": everyone(202),
   "POST /api/password-reset/complete": everyone(410),
+  // Field log and sync: any stressing crew member (each op and pour is then checked per project).
+  "GET /api/field/pours": { ...signedIn(403), crew: 200, other: 200 },
+  "GET /api/field/pours/[pourId]": projectAction(200, ["crew"]),
+  "POST /api/sync/push": { ...signedIn(403), crew: 200, other: 200 },
+  "GET /api/sync/pull": { ...signedIn(403), crew: 200, other: 200 },
 };
 
 /** Files with "use server" (server actions). Tautline has none: mutations are route handlers. */

@@ -1,0 +1,297 @@
+import { z } from "zod";
+import { isInputError, parseLength, parsePressure, type LengthUnit, type PressureUnit } from "@/lib/units";
+
+/**
+ * One stressing record of one tendon end, as the crew types it on the tablet and as it travels
+ * in a sync operation. The form keeps the text exactly as typed; the payload carries the same
+ * text (`entered`) beside the SI values, and the server re-reads the text to check the SI values
+ * were derived from it. Shared by the record form (zodResolver), the outbox and the push route.
+ */
+
+export const TENDON_ENDS = ["A", "B"] as const;
+export const READING_METHODS = ["marks", "strokes"] as const;
+export const MAX_STROKES = 8;
+
+/** The units bare numbers are read in, from the project's unit system. */
+export interface EntryUnits {
+  length: Extract<LengthUnit, "in" | "mm">;
+  pressure: Extract<PressureUnit, "psi" | "MPa">;
+}
+
+export function entryUnitsFor(unitSystem: "us" | "si"): EntryUnits {
+  return unitSystem === "us" ? { length: "in", pressure: "psi" } : { length: "mm", pressure: "MPa" };
+}
+
+const typed = (label: string) => z.string({ error: `Type the ${label}.` }).trim().max(40, `Keep the ${label} under 40 characters.`);
+
+/** The values exactly as typed, with the units bare numbers were read in. */
+export const enteredSchema = z.object({
+  units: z.object({ length: z.enum(["in", "mm"]), pressure: z.enum(["psi", "MPa"]) }),
+  initialPressure: typed("initial pressure").nullable(),
+  finalPressure: typed("final pressure").min(1, "Type the final gauge pressure."),
+  marks: z.object({ before: typed("mark before"), after: typed("mark after") }).nullable(),
+  strokes: z.array(typed("stroke")).max(MAX_STROKES, `At most ${MAX_STROKES} strokes.`).nullable(),
+  seating: typed("seating").nullable(),
+});
+export type Entered = z.infer<typeof enteredSchema>;
+
+export interface DerivedValues {
+  initialPressureMPa: number | null;
+  finalPressureMPa: number;
+  measuredMm: number;
+  seatingMm: number | null;
+}
+
+/** A typed value that could not be read, named by its form field. */
+export interface EntryProblem {
+  field: string;
+  message: string;
+}
+
+function read<T>(problems: EntryProblem[], field: string, fn: () => T): T | null {
+  try {
+    return fn();
+  } catch (error) {
+    if (!isInputError(error)) throw error;
+    const said = error.message.replace(/^[^:]+:\s*/, "");
+    problems.push({ field, message: error.code === "required" ? "Type a value here." : said.charAt(0).toUpperCase() + said.slice(1) });
+    return null;
+  }
+}
+
+/**
+ * Reads the typed text into SI values with lib/units: pressures in MPa, the elongation as the
+ * mark distance after minus before, or the strokes summed. Returns the problems per form field.
+ */
+export function deriveFromEntered(entered: Entered, method: (typeof READING_METHODS)[number]): { values: DerivedValues | null; problems: EntryProblem[] } {
+  const problems: EntryProblem[] = [];
+  const lengthOpts = (field: string) => ({ field, system: "SI" as const, defaultUnit: entered.units.length });
+  const pressureOpts = (field: string) => ({ field, system: "SI" as const, defaultUnit: entered.units.pressure });
+
+  const initial = entered.initialPressure ? read(problems, "initialPressure", () => parsePressure(entered.initialPressure!, pressureOpts("initialPressure"))) : null;
+  const final = read(problems, "finalPressure", () => parsePressure(entered.finalPressure, pressureOpts("finalPressure")));
+  if (final !== null && final <= 0) problems.push({ field: "finalPressure", message: "The final gauge pressure must be above zero." });
+  if (initial !== null && final !== null && initial >= final) {
+    problems.push({ field: "initialPressure", message: "The initial pressure must be below the final pressure." });
+  }
+
+  let measured: number | null = null;
+  if (method === "marks") {
+    if (!entered.marks) {
+      problems.push({ field: "marksAfter", message: "Type the mark distances before and after." });
+    } else {
+      const before = read(problems, "marksBefore", () => parseLength(entered.marks!.before, lengthOpts("marksBefore")));
+      const after = read(problems, "marksAfter", () => parseLength(entered.marks!.after, lengthOpts("marksAfter")));
+      if (before !== null && after !== null) {
+        measured = after - before;
+        if (measured <= 0) problems.push({ field: "marksAfter", message: "The mark after must be farther out than the mark before." });
+      }
+    }
+  } else {
+    const strokes = (entered.strokes ?? []).filter((s) => s.trim() !== "");
+    if (!strokes.length) problems.push({ field: "strokes.0", message: "Type at least one ram stroke." });
+    let sum = 0;
+    let ok = strokes.length > 0;
+    strokes.forEach((s, i) => {
+      const v = read(problems, `strokes.${i}`, () => parseLength(s, lengthOpts(`strokes.${i}`)));
+      if (v === null) ok = false;
+      else if (v <= 0) {
+        problems.push({ field: `strokes.${i}`, message: "A stroke must be longer than zero." });
+        ok = false;
+      } else sum += v;
+    });
+    if (ok) measured = sum;
+  }
+  const seating = entered.seating ? read(problems, "seating", () => parseLength(entered.seating!, lengthOpts("seating"))) : null;
+
+  if (problems.length || final === null || measured === null) return { values: null, problems };
+  return { values: { initialPressureMPa: initial, finalPressureMPa: final, measuredMm: measured, seatingMm: seating }, problems };
+}
+
+// ---------------------------------------------------------------------------------------------
+// The form, as the crew fills it in.
+
+export interface RecordFormContext {
+  units: EntryUnits;
+  /** Equipment sets whose calibration is expired (or missing) on the day of the record. */
+  expiredSetIds: readonly string[];
+  /** Ends the tendon's schedule stresses. */
+  ends: readonly ("A" | "B")[];
+  /** A correction of a record already saved: a reason is required. */
+  correction: boolean;
+}
+
+export const recordFormShape = z.object({
+  tendonEnd: z.enum(TENDON_ENDS, { error: "Pick the end you stressed." }),
+  equipmentSetId: z.string({ error: "Pick the equipment set." }).min(1, "Pick the equipment set."),
+  expiredCalibrationReason: z.string().trim().max(500, "Keep the reason under 500 characters."),
+  readingMethod: z.enum(READING_METHODS, { error: "Pick how the elongation was read." }),
+  initialPressure: z.string().trim().max(40),
+  finalPressure: z.string().trim().max(40),
+  marksBefore: z.string().trim().max(40),
+  marksAfter: z.string().trim().max(40),
+  strokes: z.array(z.object({ value: z.string().trim().max(40) })).max(MAX_STROKES),
+  seating: z.string().trim().max(40),
+  wireBreaks: z.string().trim().regex(/^\d{0,2}$/, "Type the number of broken wires as a whole number (0 if none)."),
+  remarks: z.string().trim().max(2000, "Keep the remarks under 2000 characters."),
+  revisionReason: z.string().trim().max(500, "Keep the reason under 500 characters."),
+});
+export type RecordFormValues = z.infer<typeof recordFormShape>;
+
+export const EMPTY_RECORD_FORM: RecordFormValues = {
+  tendonEnd: "A",
+  equipmentSetId: "",
+  expiredCalibrationReason: "",
+  readingMethod: "marks",
+  initialPressure: "",
+  finalPressure: "",
+  marksBefore: "",
+  marksAfter: "",
+  strokes: [{ value: "" }],
+  seating: "",
+  wireBreaks: "0",
+  remarks: "",
+  revisionReason: "",
+};
+
+export function enteredFromForm(values: RecordFormValues, units: EntryUnits): Entered {
+  return {
+    units,
+    initialPressure: values.initialPressure || null,
+    finalPressure: values.finalPressure,
+    marks: values.readingMethod === "marks" ? { before: values.marksBefore, after: values.marksAfter } : null,
+    strokes: values.readingMethod === "strokes" ? values.strokes.map((s) => s.value).filter((s) => s !== "") : null,
+    seating: values.seating || null,
+  };
+}
+
+/** "strokes.2" names the third stroke box, whose value sits at strokes[2].value in the form. */
+function formPath(field: string): (string | number)[] {
+  const stroke = /^strokes\.(\d+)$/.exec(field);
+  return stroke ? ["strokes", Number(stroke[1]), "value"] : [field];
+}
+
+/** The form's schema for one tendon and project: every message names the box it belongs to. */
+export function recordFormSchema(context: RecordFormContext) {
+  return recordFormShape.superRefine((values, ctx) => {
+    if (!context.ends.includes(values.tendonEnd)) {
+      ctx.addIssue({ code: "custom", path: ["tendonEnd"], message: `This tendon is stressed at end ${context.ends.join(" and ")} only.` });
+    }
+    if (context.expiredSetIds.includes(values.equipmentSetId) && values.expiredCalibrationReason.length < 3) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["expiredCalibrationReason"],
+        message: "This set's calibration has expired: say why it is used anyway.",
+      });
+    }
+    if (!values.finalPressure) ctx.addIssue({ code: "custom", path: ["finalPressure"], message: "Type the final gauge pressure." });
+    if (context.correction && values.revisionReason.length < 3) {
+      ctx.addIssue({ code: "custom", path: ["revisionReason"], message: "Say why this record is corrected." });
+    }
+    if (values.finalPressure) {
+      const { problems } = deriveFromEntered(enteredFromForm(values, context.units), values.readingMethod);
+      for (const p of problems) ctx.addIssue({ code: "custom", path: formPath(p.field), message: p.message });
+    }
+  });
+}
+
+// ---------------------------------------------------------------------------------------------
+// The payload of a sync operation: what the server stores.
+
+const uuid = (what: string) => z.uuid({ error: `Not a ${what} id.` });
+const optionalText = (max: number, label: string) =>
+  z.string().trim().min(1, `The ${label} is empty.`).max(max, `Keep the ${label} under ${max} characters.`).nullable();
+
+// Two readings derived the same way agree to the last bits of a double.
+const agrees = (a: number | null, b: number | null) => (a === null || b === null ? a === b : Math.abs(a - b) <= 1e-9 * Math.max(1, Math.abs(a)));
+
+export const recordPayloadSchema = z
+  .object({
+    projectId: uuid("project"),
+    pourId: uuid("pour"),
+    tendonId: uuid("tendon"),
+    tendonEnd: z.enum(TENDON_ENDS, { error: "The tendon end must be A or B." }),
+    chainId: uuid("record chain"),
+    revision: z.number({ error: "The revision must be a number." }).int().min(1).max(1000),
+    baseRecordId: uuid("base record").nullable(),
+    revisionReason: optionalText(500, "reason for the correction"),
+    equipmentSetId: uuid("equipment set"),
+    calibrationId: uuid("calibration").nullable(),
+    expiredCalibrationReason: optionalText(500, "reason for using an expired set"),
+    initialPressureMPa: z.number().finite().nonnegative("The initial pressure cannot be negative.").nullable(),
+    finalPressureMPa: z.number().finite().positive("The final pressure must be above zero."),
+    readingMethod: z.enum(READING_METHODS, { error: "The reading method must be marks or strokes." }),
+    entered: enteredSchema,
+    measuredMm: z.number().finite().positive("The measured elongation must be above zero.").max(5000, "The measured elongation is over 5 m."),
+    seatingMm: z.number().finite().nonnegative("Seating cannot be negative.").max(100, "Seating over 100 mm is not a reading.").nullable(),
+    wireBreaks: z.number().int("Wire breaks are a whole number.").min(0).max(99),
+    remarks: optionalText(2000, "remarks"),
+    deviceTime: z.iso.datetime({ offset: true, error: "The device time must be an ISO date and time." }),
+    deviceTimeZone: z.string().min(1).max(64).regex(/^[A-Za-z0-9_+\-/]+$/, "Not a time zone name."),
+    authorUserId: uuid("operator"),
+  })
+  .strict()
+  .superRefine((p, ctx) => {
+    if (p.revision === 1 && (p.baseRecordId !== null || p.revisionReason !== null)) {
+      ctx.addIssue({ code: "custom", path: ["baseRecordId"], message: "A first record names no base and no correction reason." });
+    }
+    if (p.revision > 1 && (p.baseRecordId === null || p.revisionReason === null || p.revisionReason.length < 3)) {
+      ctx.addIssue({ code: "custom", path: ["revisionReason"], message: "A correction names the record it corrects and a reason." });
+    }
+    const derived = deriveFromEntered(p.entered, p.readingMethod);
+    for (const problem of derived.problems) ctx.addIssue({ code: "custom", path: ["entered", problem.field], message: problem.message });
+    const v = derived.values;
+    if (!v) return;
+    if (!agrees(v.finalPressureMPa, p.finalPressureMPa)) ctx.addIssue({ code: "custom", path: ["finalPressureMPa"], message: "The final pressure does not match the value as typed." });
+    if (!agrees(v.initialPressureMPa, p.initialPressureMPa)) ctx.addIssue({ code: "custom", path: ["initialPressureMPa"], message: "The initial pressure does not match the value as typed." });
+    if (!agrees(v.measuredMm, p.measuredMm)) ctx.addIssue({ code: "custom", path: ["measuredMm"], message: "The elongation does not match the readings as typed." });
+    if (!agrees(v.seatingMm, p.seatingMm)) ctx.addIssue({ code: "custom", path: ["seatingMm"], message: "The seating does not match the value as typed." });
+  });
+export type RecordPayload = z.infer<typeof recordPayloadSchema>;
+
+/** Builds the payload from a filled-in form; throws when the form does not read (validate first). */
+export function payloadFromForm(
+  values: RecordFormValues,
+  context: {
+    units: EntryUnits;
+    projectId: string;
+    pourId: string;
+    tendonId: string;
+    chainId: string;
+    revision: number;
+    baseRecordId: string | null;
+    calibrationId: string | null;
+    expired: boolean;
+    authorUserId: string;
+    now: Date;
+    timeZone: string;
+  },
+): RecordPayload {
+  const entered = enteredFromForm(values, context.units);
+  const { values: v, problems } = deriveFromEntered(entered, values.readingMethod);
+  if (!v) throw new Error(`the record form does not read: ${problems.map((p) => p.field).join(", ")}`);
+  return {
+    projectId: context.projectId,
+    pourId: context.pourId,
+    tendonId: context.tendonId,
+    tendonEnd: values.tendonEnd,
+    chainId: context.chainId,
+    revision: context.revision,
+    baseRecordId: context.baseRecordId,
+    revisionReason: context.revision > 1 ? values.revisionReason : null,
+    equipmentSetId: values.equipmentSetId,
+    calibrationId: context.calibrationId,
+    expiredCalibrationReason: context.expired ? values.expiredCalibrationReason : null,
+    initialPressureMPa: v.initialPressureMPa,
+    finalPressureMPa: v.finalPressureMPa,
+    readingMethod: values.readingMethod,
+    entered,
+    measuredMm: v.measuredMm,
+    seatingMm: v.seatingMm,
+    wireBreaks: Number(values.wireBreaks || "0"),
+    remarks: values.remarks || null,
+    deviceTime: context.now.toISOString(),
+    deviceTimeZone: context.timeZone,
+    authorUserId: context.authorUserId,
+  };
+}

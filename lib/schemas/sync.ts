@@ -1,0 +1,243 @@
+import { z } from "zod";
+
+/**
+ * The sync protocol between the tablet's outbox and the server, shared by the sync client and
+ * the route handlers. Each operation carries a client-made id that is a permanent idempotency
+ * key: the server answers applied | duplicate | conflict | rejected per operation.
+ */
+
+export const OP_KINDS = ["create", "revise"] as const;
+export type OpKind = (typeof OP_KINDS)[number];
+
+export const OP_STATUSES = ["applied", "duplicate", "conflict", "rejected"] as const;
+export type OpStatus = (typeof OP_STATUSES)[number];
+
+/** Most operations one push may carry; the client sends batches of 25–50. */
+export const MAX_OPS_PER_PUSH = 100;
+
+export const deviceIdSchema = z
+  .string({ error: "Send the device id." })
+  .regex(/^[A-Za-z0-9_-]{8,64}$/, "The device id is 8 to 64 letters, digits, dashes or underscores.");
+
+/** The envelope of one operation; its payload is checked per operation, so one bad op spoils only itself. */
+export const syncOpSchema = z
+  .object({
+    opId: z.uuid({ error: "Each operation needs a UUID opId." }),
+    kind: z.enum(OP_KINDS, { error: "The kind of operation must be create or revise." }),
+    recordId: z.uuid({ error: "Each operation needs the record's UUID." }),
+    baseVersion: z.number().int().min(1).optional(),
+    payload: z.unknown(),
+  })
+  .strict();
+export type SyncOp = z.infer<typeof syncOpSchema>;
+
+export const pushRequestSchema = z
+  .object({
+    deviceId: deviceIdSchema,
+    ops: z
+      .array(syncOpSchema, { error: "Send the operations as a list." })
+      .min(1, "Send at least one operation.")
+      .max(MAX_OPS_PER_PUSH, `Send at most ${MAX_OPS_PER_PUSH} operations at a time.`),
+  })
+  .strict()
+  .superRefine((body, ctx) => {
+    const seen = new Set<string>();
+    body.ops.forEach((op, i) => {
+      if (seen.has(op.opId)) ctx.addIssue({ code: "custom", path: ["ops", i, "opId"], message: "The same opId appears twice in one push." });
+      seen.add(op.opId);
+    });
+  });
+export type PushRequest = z.infer<typeof pushRequestSchema>;
+
+export interface OpError {
+  code: string;
+  message: string;
+  fields?: Record<string, string[]>;
+}
+
+/** The server's verdict on the tendon after the op, for the tablet's list. */
+export interface OpEvaluation {
+  verdict: "in band" | "long" | "short" | "incomplete";
+  provisional: boolean;
+  deviationPct: number | null;
+  flagKinds: string[];
+}
+
+export interface OpResult {
+  opId: string;
+  status: OpStatus;
+  /** Revision stored (applied/duplicate), or the server's current one (conflict). */
+  revision?: number;
+  /** The chain's current head on a conflict, so the tablet can show what it lost to. */
+  headRecordId?: string;
+  evaluation?: OpEvaluation;
+  error?: OpError;
+}
+
+export interface PushResponse {
+  results: OpResult[];
+}
+
+/** The server's cursor is xid8 as decimal text. "0" asks for everything. */
+export const cursorSchema = z.string().regex(/^\d{1,20}$/, "The cursor is the number the last pull returned.");
+
+export const pullQuerySchema = z.object({
+  cursor: cursorSchema.default("0"),
+  pours: z
+    .string({ error: "Name the pours to pull, comma-separated." })
+    .transform((s) => s.split(",").map((p) => p.trim()).filter(Boolean))
+    .pipe(z.array(z.uuid({ error: "Each pour must be a UUID." })).min(1, "Name at least one pour.").max(20, "Pull at most 20 pours at a time.")),
+});
+export type PullQuery = z.infer<typeof pullQuerySchema>;
+
+export const pourParamsSchema = z.object({ pourId: z.uuid({ error: "Not a pour id." }) });
+
+// ---------------------------------------------------------------------------------------------
+// What the tablet stores: reference data and record states, as the server sends them.
+
+export interface FieldProject {
+  id: string;
+  code: string;
+  name: string;
+  unitSystem: "us" | "si";
+  readingResolution: string;
+  tolerancePct: number;
+  shortTendonFloorMm: number | null;
+  comparisonBasis: "gross" | "net";
+  countJackGrip: boolean;
+  frictionMu: number;
+  wobblePerM: number;
+  anchorSetMm: number;
+  blindEntry: boolean;
+}
+
+export interface FieldPour {
+  id: string;
+  projectId: string;
+  name: string;
+  level: string | null;
+  plannedStressingDate: string | null;
+  status: string;
+}
+
+export interface FieldTendon {
+  id: string;
+  projectId: string;
+  pourId: string;
+  tag: string;
+  kind: string;
+  strandSize: string;
+  strandCount: number;
+  segments: { lengthMm: number; angleRad: number }[];
+  ends: "A" | "B" | "both";
+  jackGripMm: number | null;
+  strandLotId: string | null;
+}
+
+export interface FieldStrandLot {
+  id: string;
+  projectId: string;
+  lotNumber: string;
+  strandSize: string;
+  areaMm2: number;
+  modulusMPa: number;
+  breakingLoadN: number;
+}
+
+export interface FieldEquipmentSet {
+  id: string;
+  projectId: string;
+  name: string;
+  jackSerial: string;
+  gaugeSerial: string;
+  jackGripMm: number | null;
+}
+
+export interface FieldCalibration {
+  id: string;
+  projectId: string;
+  equipmentSetId: string;
+  calibratedOn: string;
+  validUntil: string;
+  slope: number;
+  intercept: number;
+  minPressureMPa: number;
+  maxPressureMPa: number;
+}
+
+/** A stored record revision, as the server holds it. */
+export interface FieldRecord {
+  id: string;
+  projectId: string;
+  pourId: string;
+  tendonId: string;
+  tendonEnd: "A" | "B";
+  chainId: string;
+  revision: number;
+  baseRecordId: string | null;
+  revisionReason: string | null;
+  equipmentSetId: string;
+  calibrationId: string | null;
+  initialPressureMPa: number | null;
+  finalPressureMPa: number;
+  readingMethod: "marks" | "strokes";
+  entered: unknown;
+  measuredMm: number;
+  seatingMm: number | null;
+  wireBreaks: number;
+  remarks: string | null;
+  deviceTime: string;
+  authorUserId: string;
+  authorName: string;
+}
+
+export interface FieldEvaluation {
+  id: string;
+  tendonId: string;
+  verdict: "in band" | "long" | "short" | "incomplete";
+  provisional: boolean;
+  deviationPct: number | null;
+  createdAt: string;
+}
+
+export interface FieldFlag {
+  id: string;
+  tendonId: string;
+  kind: string;
+  status: string;
+}
+
+export interface Tombstone {
+  table: string;
+  id: string;
+}
+
+export interface PullResponse {
+  cursor: string;
+  serverTime: string;
+  projects: FieldProject[];
+  pours: FieldPour[];
+  tendons: FieldTendon[];
+  strandLots: FieldStrandLot[];
+  equipmentSets: FieldEquipmentSet[];
+  calibrations: FieldCalibration[];
+  records: FieldRecord[];
+  evaluations: FieldEvaluation[];
+  flags: FieldFlag[];
+  removed: Tombstone[];
+  /** Pours asked for that the caller may no longer take out (removed, or not on their crew). */
+  unavailable: string[];
+}
+
+/** A pour the crew may take out, for the download list. */
+export interface AvailablePour {
+  id: string;
+  projectId: string;
+  projectCode: string;
+  projectName: string;
+  name: string;
+  level: string | null;
+  plannedStressingDate: string | null;
+  status: string;
+  tendonCount: number;
+}

@@ -1,0 +1,54 @@
+import "server-only";
+import type { Kysely } from "kysely";
+import type { Database } from "@/db/types";
+import { AppError } from "@/lib/errors";
+import type { SessionUser } from "@/lib/auth/session";
+import type { AvailablePour } from "@/lib/schemas/sync";
+import { recordingProjectIds } from "./require-recorder";
+
+/** The pours a crew member may take out on the tablet, newest stressing date first. */
+export async function listFieldPours(db: Kysely<Database>, user: Pick<SessionUser, "memberships">): Promise<{ pours: AvailablePour[] }> {
+  const projectIds = recordingProjectIds(user);
+  if (!projectIds.length) return { pours: [] };
+  const rows = await db
+    .selectFrom("pours")
+    .innerJoin("projects", "projects.id", "pours.project_id")
+    .leftJoin("tendons", (j) => j.onRef("tendons.pour_id", "=", "pours.id").onRef("tendons.project_id", "=", "pours.project_id"))
+    .select((eb) => [
+      "pours.id",
+      "pours.project_id",
+      "projects.code",
+      "projects.name as project_name",
+      "pours.name",
+      "pours.level",
+      "pours.planned_stressing_date",
+      "pours.status",
+      eb.fn.count<number>("tendons.id").as("tendon_count"),
+    ])
+    .where("pours.project_id", "in", projectIds)
+    .groupBy(["pours.id", "projects.id"])
+    .orderBy("projects.name")
+    .orderBy("pours.planned_stressing_date", "desc")
+    .orderBy("pours.name")
+    .execute();
+  return {
+    pours: rows.map((r) => ({
+      id: r.id,
+      projectId: r.project_id,
+      projectCode: r.code,
+      projectName: r.project_name,
+      name: r.name,
+      level: r.level,
+      plannedStressingDate: r.planned_stressing_date,
+      status: r.status,
+      tendonCount: Number(r.tendon_count),
+    })),
+  };
+}
+
+/** The project a pour belongs to, for the access check; unknown pours answer 404. */
+export async function projectOfPour(db: Kysely<Database>, pourId: string): Promise<string> {
+  const row = await db.selectFrom("pours").select("project_id").where("id", "=", pourId).executeTakeFirst();
+  if (!row) throw new AppError("NOT_FOUND", "No such pour among yours.");
+  return row.project_id;
+}

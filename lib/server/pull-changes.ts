@@ -1,0 +1,271 @@
+import "server-only";
+import { sql, type Kysely, type Transaction } from "kysely";
+import type { Database } from "@/db/types";
+import type { SessionUser } from "@/lib/auth/session";
+import type { PullResponse } from "@/lib/schemas/sync";
+import { recordingProjectIds } from "./require-recorder";
+
+/**
+ * Reference data and record states of some pours changed since a cursor. The cursor is the
+ * xmin of the read's snapshot (xid8): every transaction below it had finished when we read, so
+ * everything it wrote is in this answer or an earlier one; anything written by a transaction at
+ * or above it is sent (again) next time. Commit order never makes a row slip past the cursor,
+ * and sending a row twice is harmless because the tablet stores by id.
+ */
+
+type Trx = Transaction<Database>;
+
+const since = (column: string, cursor: string) => sql<boolean>`${sql.ref(column)} >= ${cursor}::xid8`;
+
+export async function pullChanges(
+  db: Kysely<Database>,
+  input: { user: Pick<SessionUser, "memberships">; cursor: string; pourIds: string[] },
+): Promise<PullResponse> {
+  const allowed = recordingProjectIds(input.user);
+  return db
+    .transaction()
+    .setIsolationLevel("repeatable read")
+    .execute(async (trx: Trx) => {
+      // First statement: fixes the snapshot the rest of the transaction reads.
+      const { rows } = await sql<{ xmin: string; now: Date }>`select pg_snapshot_xmin(pg_current_snapshot())::text as xmin, now() as now`.execute(trx);
+      const { xmin, now } = rows[0]!;
+      const cursor = input.cursor;
+      const empty = (): PullResponse => ({
+        cursor: xmin,
+        serverTime: new Date(now).toISOString(),
+        projects: [],
+        pours: [],
+        tendons: [],
+        strandLots: [],
+        equipmentSets: [],
+        calibrations: [],
+        records: [],
+        evaluations: [],
+        flags: [],
+        removed: [],
+        unavailable: input.pourIds,
+      });
+      if (!allowed.length) return empty();
+
+      const found = await trx.selectFrom("pours").select(["id", "project_id"]).where("id", "in", input.pourIds).where("project_id", "in", allowed).execute();
+      const pourIds = found.map((p) => p.id);
+      const unavailable = input.pourIds.filter((id) => !pourIds.includes(id));
+      if (!pourIds.length) return { ...empty(), unavailable };
+      const projectIds = [...new Set(found.map((p) => p.project_id))];
+
+      const [projects, pours, tendons, lots, sets, calibrations, records, evaluations, flags, removed] = await Promise.all([
+        trx
+          .selectFrom("projects")
+          .select([
+            "id",
+            "code",
+            "name",
+            "unit_system",
+            "reading_resolution",
+            "tolerance_pct",
+            "short_tendon_floor_mm",
+            "comparison_basis",
+            "count_jack_grip",
+            "friction_mu",
+            "wobble_per_m",
+            "anchor_set_mm",
+            "blind_entry",
+          ])
+          .where("id", "in", projectIds)
+          .where(since("change_xid", cursor))
+          .execute(),
+        trx
+          .selectFrom("pours")
+          .select(["id", "project_id", "name", "level", "planned_stressing_date", "status"])
+          .where("id", "in", pourIds)
+          .where(since("change_xid", cursor))
+          .execute(),
+        trx
+          .selectFrom("tendons")
+          .select(["id", "project_id", "pour_id", "tag", "kind", "strand_size", "strand_count", "segments", "ends", "jack_grip_mm", "strand_lot_id"])
+          .where("project_id", "in", projectIds)
+          .where("pour_id", "in", pourIds)
+          .where(since("change_xid", cursor))
+          .orderBy("tag")
+          .execute(),
+        trx
+          .selectFrom("strand_lots")
+          .select(["id", "project_id", "lot_number", "strand_size", "area_mm2", "modulus_mpa", "breaking_load_n"])
+          .where("project_id", "in", projectIds)
+          .where(since("change_xid", cursor))
+          .execute(),
+        trx
+          .selectFrom("equipment_sets")
+          .select(["id", "project_id", "name", "jack_serial", "gauge_serial", "jack_grip_mm"])
+          .where("project_id", "in", projectIds)
+          .where(since("change_xid", cursor))
+          .orderBy("name")
+          .execute(),
+        trx
+          .selectFrom("calibrations")
+          .select(["id", "project_id", "equipment_set_id", "calibrated_on", "valid_until", "slope_n_per_mpa", "intercept_n", "min_pressure_mpa", "max_pressure_mpa"])
+          .where("project_id", "in", projectIds)
+          .where(since("change_xid", cursor))
+          .execute(),
+        trx
+          .selectFrom("records")
+          .innerJoin("users", "users.id", "records.author_user_id")
+          .select([
+            "records.id",
+            "records.project_id",
+            "records.pour_id",
+            "records.tendon_id",
+            "records.tendon_end",
+            "records.chain_id",
+            "records.revision",
+            "records.base_record_id",
+            "records.revision_reason",
+            "records.equipment_set_id",
+            "records.calibration_id",
+            "records.initial_pressure_mpa",
+            "records.final_pressure_mpa",
+            "records.reading_method",
+            "records.entered",
+            "records.measured_mm",
+            "records.seating_mm",
+            "records.wire_breaks",
+            "records.remarks",
+            "records.device_time",
+            "records.author_user_id",
+            "users.name as author_name",
+          ])
+          .where("records.project_id", "in", projectIds)
+          .where("records.pour_id", "in", pourIds)
+          .where(since("records.change_xid", cursor))
+          .execute(),
+        trx
+          .selectFrom("evaluations")
+          .innerJoin("tendons", (j) => j.onRef("tendons.id", "=", "evaluations.tendon_id").onRef("tendons.project_id", "=", "evaluations.project_id"))
+          .select(["evaluations.id", "evaluations.tendon_id", "evaluations.verdict", "evaluations.provisional", "evaluations.deviation_pct", "evaluations.created_at"])
+          .where("evaluations.project_id", "in", projectIds)
+          .where("tendons.pour_id", "in", pourIds)
+          .where(since("evaluations.change_xid", cursor))
+          .execute(),
+        trx
+          .selectFrom("flags")
+          .select(["id", "tendon_id", "kind", "status"])
+          .where("project_id", "in", projectIds)
+          .where("pour_id", "in", pourIds)
+          .where(since("change_xid", cursor))
+          .execute(),
+        cursor === "0"
+          ? Promise.resolve([])
+          : trx
+              .selectFrom("sync_tombstones")
+              .select(["table_name", "row_id"])
+              .where("project_id", "in", projectIds)
+              .where((eb) => eb.or([eb("pour_id", "in", pourIds), eb("pour_id", "is", null)]))
+              .where(since("change_xid", cursor))
+              .execute(),
+      ]);
+
+      return {
+        cursor: xmin,
+        serverTime: new Date(now).toISOString(),
+        projects: projects.map((p) => ({
+          id: p.id,
+          code: p.code,
+          name: p.name,
+          unitSystem: p.unit_system,
+          readingResolution: p.reading_resolution,
+          tolerancePct: p.tolerance_pct,
+          shortTendonFloorMm: p.short_tendon_floor_mm,
+          comparisonBasis: p.comparison_basis,
+          countJackGrip: p.count_jack_grip,
+          frictionMu: p.friction_mu,
+          wobblePerM: p.wobble_per_m,
+          anchorSetMm: p.anchor_set_mm,
+          blindEntry: p.blind_entry,
+        })),
+        pours: pours.map((p) => ({
+          id: p.id,
+          projectId: p.project_id,
+          name: p.name,
+          level: p.level,
+          plannedStressingDate: p.planned_stressing_date,
+          status: p.status,
+        })),
+        tendons: tendons.map((t) => ({
+          id: t.id,
+          projectId: t.project_id,
+          pourId: t.pour_id,
+          tag: t.tag,
+          kind: t.kind,
+          strandSize: t.strand_size,
+          strandCount: t.strand_count,
+          segments: t.segments,
+          ends: t.ends,
+          jackGripMm: t.jack_grip_mm,
+          strandLotId: t.strand_lot_id,
+        })),
+        strandLots: lots.map((l) => ({
+          id: l.id,
+          projectId: l.project_id,
+          lotNumber: l.lot_number,
+          strandSize: l.strand_size,
+          areaMm2: l.area_mm2,
+          modulusMPa: l.modulus_mpa,
+          breakingLoadN: l.breaking_load_n,
+        })),
+        equipmentSets: sets.map((s) => ({
+          id: s.id,
+          projectId: s.project_id,
+          name: s.name,
+          jackSerial: s.jack_serial,
+          gaugeSerial: s.gauge_serial,
+          jackGripMm: s.jack_grip_mm,
+        })),
+        calibrations: calibrations.map((c) => ({
+          id: c.id,
+          projectId: c.project_id,
+          equipmentSetId: c.equipment_set_id,
+          calibratedOn: c.calibrated_on,
+          validUntil: c.valid_until,
+          slope: c.slope_n_per_mpa,
+          intercept: c.intercept_n,
+          minPressureMPa: c.min_pressure_mpa,
+          maxPressureMPa: c.max_pressure_mpa,
+        })),
+        records: records.map((r) => ({
+          id: r.id,
+          projectId: r.project_id,
+          pourId: r.pour_id,
+          tendonId: r.tendon_id,
+          tendonEnd: r.tendon_end,
+          chainId: r.chain_id,
+          revision: r.revision,
+          baseRecordId: r.base_record_id,
+          revisionReason: r.revision_reason,
+          equipmentSetId: r.equipment_set_id,
+          calibrationId: r.calibration_id,
+          initialPressureMPa: r.initial_pressure_mpa,
+          finalPressureMPa: r.final_pressure_mpa,
+          readingMethod: r.reading_method,
+          entered: r.entered,
+          measuredMm: r.measured_mm,
+          seatingMm: r.seating_mm,
+          wireBreaks: r.wire_breaks,
+          remarks: r.remarks,
+          deviceTime: new Date(r.device_time).toISOString(),
+          authorUserId: r.author_user_id,
+          authorName: r.author_name,
+        })),
+        evaluations: evaluations.map((e) => ({
+          id: e.id,
+          tendonId: e.tendon_id,
+          verdict: e.verdict,
+          provisional: e.provisional,
+          deviationPct: e.deviation_pct,
+          createdAt: new Date(e.created_at).toISOString(),
+        })),
+        flags: flags.map((f) => ({ id: f.id, tendonId: f.tendon_id, kind: f.kind, status: f.status })),
+        removed: removed.map((r) => ({ table: r.table_name, id: r.row_id })),
+        unavailable,
+      };
+    });
+}

@@ -1,0 +1,184 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { RecordPayload } from "@/lib/schemas/record";
+import type { SyncOp } from "@/lib/schemas/sync";
+import { pushOps, type Pusher } from "@/lib/server/push-ops";
+import { createTestDatabase, type TestDatabase } from "../support/database";
+import { buildWorld, createOp, reviseOp, rowsOf, type SyncWorld } from "./sync-fixtures";
+
+let t: TestDatabase;
+let w: SyncWorld;
+const DEVICE = "tablet-test-0001";
+
+beforeAll(async () => {
+  t = await createTestDatabase({ migrate: true });
+  w = await buildWorld(t.db);
+});
+afterAll(async () => {
+  await t.drop();
+});
+
+const push = (ops: SyncOp[], user: Pusher = w.crew) => pushOps(t.db, { user, deviceId: DEVICE, ops });
+const statuses = (r: { results: { status: string }[] }) => r.results.map((x) => x.status);
+const recordsOf = (recordIds: string[]) => t.db.selectFrom("records").select(["id", "revision"]).where("id", "in", recordIds).execute();
+
+describe("push: idempotency", () => {
+  it("applies a batch once; the same batch again answers duplicate and writes nothing", async () => {
+    const ops = [createOp(w, w.tendons[0]!.id), createOp(w, w.tendons[1]!.id), createOp(w, w.tendons[2]!.id)];
+    const before = await rowsOf(t.db, "records");
+    expect(statuses(await push(ops))).toEqual(["applied", "applied", "applied"]);
+    const again = await push(ops);
+    expect(statuses(again)).toEqual(["duplicate", "duplicate", "duplicate"]);
+    expect(again.results.map((r) => r.revision)).toEqual([1, 1, 1]);
+    expect(await rowsOf(t.db, "records")).toBe(before + 3);
+    expect(await recordsOf(ops.map((o) => o.recordId))).toHaveLength(3);
+  });
+
+  it("the same op delivered ten times at once makes one row and nine duplicates", async () => {
+    const op = createOp(w, w.tendons[3]!.id);
+    const answers = await Promise.all(Array.from({ length: 10 }, () => push([op])));
+    const all = answers.flatMap(statuses).sort();
+    expect(all).toEqual(["applied", ...Array(9).fill("duplicate")]);
+    expect(await recordsOf([op.recordId])).toHaveLength(1);
+    const claims = await t.db.selectFrom("applied_ops").select("op_id").where("op_id", "=", op.opId).execute();
+    expect(claims).toHaveLength(1);
+  });
+
+  it("a server that commits and then loses its answer gives duplicate on the retry", async () => {
+    const op = createOp(w, w.tendons[4]!.id);
+    await expect(
+      pushOps(t.db, {
+        user: w.crew,
+        deviceId: DEVICE,
+        ops: [op],
+        hooks: {
+          afterCommit: () => {
+            throw new Error("connection reset after commit");
+          },
+        },
+      }),
+    ).rejects.toThrow("connection reset after commit");
+    expect(await recordsOf([op.recordId])).toHaveLength(1);
+    const retry = await push([op]);
+    expect(retry.results[0]).toMatchObject({ opId: op.opId, status: "duplicate", revision: 1 });
+    expect(await recordsOf([op.recordId])).toHaveLength(1);
+  });
+
+  it("keeps the server's evaluation with the op, so a duplicate answers with the same verdict", async () => {
+    const op = createOp(w, w.tendons[5]!.id, { marksAfter: await w.inBandAfter(w.tendons[5]!.id) });
+    const first = await push([op]);
+    expect(first.results[0]!.evaluation).toBeDefined();
+    const again = await push([op]);
+    expect(again.results[0]!.evaluation).toEqual(first.results[0]!.evaluation);
+    const evaluations = await t.db.selectFrom("evaluations").select("id").where("tendon_id", "=", w.tendons[5]!.id).execute();
+    expect(evaluations).toHaveLength(1);
+  });
+});
+
+describe("push: corrections", () => {
+  it("a correction on the current version appends the next revision; one on a stale version is a conflict and writes nothing", async () => {
+    const create = createOp(w, w.tendons[6]!.id) as SyncOp & { payload: RecordPayload };
+    expect(statuses(await push([create]))).toEqual(["applied"]);
+    const base = { recordId: create.recordId, revision: 1, payload: create.payload };
+    const fix = reviseOp(base, { remarks: "Second look at the mark" });
+    expect((await push([fix])).results[0]).toMatchObject({ status: "applied", revision: 2 });
+
+    // Another tablet still holds revision 1 and corrects it too.
+    const stale = reviseOp(base, { remarks: "Corrected on the other tablet" });
+    const recordsBefore = await rowsOf(t.db, "records");
+    const claimsBefore = await rowsOf(t.db, "applied_ops");
+    const answer = (await push([stale])).results[0]!;
+    expect(answer).toMatchObject({ status: "conflict", revision: 2, headRecordId: fix.recordId });
+    expect(answer.error?.message).toMatch(/revision 2/);
+    expect(await rowsOf(t.db, "records")).toBe(recordsBefore);
+    expect(await rowsOf(t.db, "applied_ops")).toBe(claimsBefore);
+    const chain = await t.db.selectFrom("records").select("revision").where("chain_id", "=", create.recordId).orderBy("revision").execute();
+    expect(chain.map((r) => r.revision)).toEqual([1, 2]);
+  });
+
+  it("two corrections of the same version sent at once: one lands, the other is a conflict", async () => {
+    const create = createOp(w, w.tendons[7]!.id) as SyncOp & { payload: RecordPayload };
+    await push([create]);
+    const base = { recordId: create.recordId, revision: 1, payload: create.payload };
+    const [x, y] = await Promise.all([push([reviseOp(base, { remarks: "x" })]), push([reviseOp(base, { remarks: "y" })])]);
+    expect([...statuses(x!), ...statuses(y!)].sort()).toEqual(["applied", "conflict"]);
+    const chain = await t.db.selectFrom("records").select("revision").where("chain_id", "=", create.recordId).execute();
+    expect(chain).toHaveLength(2);
+  });
+
+  it("a correction whose first revision never reached the server is rejected", async () => {
+    const create = createOp(w, w.tendons[8]!.id) as SyncOp & { payload: RecordPayload };
+    const fix = reviseOp({ recordId: create.recordId, revision: 1, payload: create.payload }, { remarks: "z" });
+    expect((await push([fix])).results[0]).toMatchObject({ status: "rejected", error: { code: "NOT_FOUND" } });
+  });
+});
+
+describe("push: bad operations", () => {
+  it("one invalid op in a batch is rejected with its fields while the others land", async () => {
+    const good1 = createOp(w, w.tendons[9]!.id);
+    const bad = createOp(w, w.tendons[10]!.id);
+    (bad.payload as RecordPayload).measuredMm = 999; // not what the marks as typed say
+    const good2 = createOp(w, w.tendons[11]!.id);
+    const claimsBefore = await rowsOf(t.db, "applied_ops");
+    const { results } = await push([good1, bad, good2]);
+    expect(statuses({ results })).toEqual(["applied", "rejected", "applied"]);
+    expect(results[1]!.error?.fields).toHaveProperty("measuredMm");
+    expect(results.map((r) => r.opId)).toEqual([good1.opId, bad.opId, good2.opId]);
+    expect(await recordsOf([good1.recordId, bad.recordId, good2.recordId])).toHaveLength(2);
+    expect(await rowsOf(t.db, "applied_ops")).toBe(claimsBefore + 2);
+  });
+
+  it("names every unreadable typed value", async () => {
+    const bad = createOp(w, w.tendons[12]!.id);
+    const p = bad.payload as RecordPayload;
+    p.entered = { ...p.entered, finalPressure: "lots", marks: { before: "0", after: "8 9/8" } };
+    const answer = (await push([bad])).results[0]!;
+    expect(answer.status).toBe("rejected");
+    expect(Object.keys(answer.error!.fields!)).toEqual(expect.arrayContaining(["entered.finalPressure", "entered.marksAfter"]));
+  });
+
+  it("rejects another project's tendon, a project the person is not on, and a role that may not record", async () => {
+    const viaOwnProject = createOp(w, w.foreign.tendonId);
+    const intoForeignProject = createOp(w, w.foreign.tendonId, {}, { projectId: w.foreign.projectId, pourId: w.foreign.pourId });
+    const before = await rowsOf(t.db, "records");
+    const { results } = await push([viaOwnProject, intoForeignProject]);
+    expect(results.map((r) => [r.status, r.error?.code])).toEqual([
+      ["rejected", "NOT_FOUND"],
+      ["rejected", "NOT_FOUND"],
+    ]);
+    // The other project's crew member cannot record on this project either.
+    const theirs = createOp(w, w.tendons[13]!.id, {}, { authorUserId: w.other.id });
+    expect((await push([theirs], w.other)).results[0]).toMatchObject({ status: "rejected", error: { code: "NOT_FOUND" } });
+    const inspectors = createOp(w, w.tendons[13]!.id, {}, { authorUserId: w.inspector.id });
+    expect((await push([inspectors], w.inspector)).results[0]).toMatchObject({ status: "rejected", error: { code: "FORBIDDEN" } });
+    expect(await rowsOf(t.db, "records")).toBe(before);
+  });
+
+  it("refuses a record made by someone else than the person pushing", async () => {
+    const op = createOp(w, w.tendons[14]!.id, {}, { authorUserId: w.inspector.id });
+    expect((await push([op])).results[0]).toMatchObject({ status: "rejected", error: { fields: { authorUserId: expect.any(Array) } } });
+  });
+
+  it("wants a reason for an equipment set whose calibration had expired that day", async () => {
+    const day = new Date("2026-12-20T10:00:00-08:00");
+    const noReason = createOp(w, w.tendons[15]!.id, { equipmentSetId: w.setB.id }, { calibrationId: w.setB.calibrationId, deviceTime: day.toISOString() });
+    expect((await push([noReason])).results[0]).toMatchObject({ status: "rejected", error: { fields: { expiredCalibrationReason: expect.any(Array) } } });
+    const withReason = createOp(
+      w,
+      w.tendons[15]!.id,
+      { equipmentSetId: w.setB.id },
+      { calibrationId: w.setB.calibrationId, deviceTime: day.toISOString(), expiredCalibrationReason: "Set A jack leaking; engineer told by phone" },
+    );
+    const answer = (await push([withReason])).results[0]!;
+    expect(answer.status).toBe("applied");
+    expect(answer.evaluation?.flagKinds).toContain("calibration_expired");
+  });
+
+  it("refuses a calibration of another set and an end the tendon is not stressed at", async () => {
+    const wrongCal = createOp(w, w.tendons[16]!.id, {}, { calibrationId: w.setB.calibrationId });
+    const oneEnded = w.tendons.find((x) => x.ends === "A")!;
+    const wrongEnd = createOp(w, oneEnded.id, { tendonEnd: "B" });
+    const { results } = await push([wrongCal, wrongEnd]);
+    expect(results[0]).toMatchObject({ status: "rejected", error: { fields: { calibrationId: expect.any(Array) } } });
+    expect(results[1]).toMatchObject({ status: "rejected", error: { fields: { tendonEnd: expect.any(Array) } } });
+  });
+});
