@@ -8,10 +8,10 @@ describe("the permission table", () => {
     expect(can("admin", "record.create")).toBe(false);
   });
 
-  it("gives the engineer of record alone the disposition and the release", () => {
+  it("gives the engineer of record alone the disposition; the release goes to the engineer or the inspector", () => {
     for (const role of ROLES) {
       expect(can(role, "disposition.create")).toBe(role === "engineer");
-      expect(can(role, "pour.release")).toBe(role === "engineer");
+      expect(can(role, "pour.release")).toBe(role === "engineer" || role === "inspector");
     }
   });
 

@@ -15,9 +15,11 @@ export const PERMISSIONS = {
   "equipment.manage": ["admin"],
   "record.create": ["crew"],
   "record.view": ["crew", "inspector", "engineer", "admin"],
+  "record.correct": ["inspector"],
   "flag.review": ["inspector", "engineer"],
   "disposition.create": ["engineer"],
-  "pour.release": ["engineer"],
+  // Which of the two releases a given project is the project's own rule (projects.release_by).
+  "pour.release": ["inspector", "engineer"],
   "report.download": ["inspector", "engineer", "admin"],
 } as const satisfies Record<string, readonly Role[]>;
 

@@ -71,6 +71,21 @@ export async function evaluateTendon(
   for (const list of Object.values(chainsByEnd)) list.sort((a, b) => +new Date(a.device_time) - +new Date(b.device_time));
   const current = (["A", "B"] as const).flatMap((end) => chainsByEnd[end].slice(-1));
 
+  // A stressing that reached the server after an engineer ordered a restress answers that
+  // order, whether or not the tablet knew of it.
+  const restressOrders = await db
+    .selectFrom("dispositions")
+    .select(["id", "created_at"])
+    .where("project_id", "=", input.projectId)
+    .where("tendon_id", "=", input.tendonId)
+    .where("decision", "in", ["restress", "detension_restress"])
+    .orderBy("created_at")
+    .execute();
+  const answeredOrder = (r: (typeof all)[number]): string | null =>
+    r.restress_of_disposition_id ??
+    restressOrders.filter((d) => new Date(d.created_at) < new Date(r.received_at)).at(-1)?.id ??
+    null;
+
   const findings: Finding[] = [];
   const readings: EndReading[] = [];
   const usedCalibrations: Record<string, unknown>[] = [];
@@ -80,7 +95,7 @@ export async function evaluateTendon(
   for (const end of ["A", "B"] as const) {
     const chains = chainsByEnd[end];
     const latest = chains.at(-1);
-    if (chains.length > 1 && latest && !latest.restress_of_disposition_id) {
+    if (chains.length > 1 && latest && !answeredOrder(latest)) {
       findings.push({
         kind: "stressed_twice",
         reason: `End ${end} was stressed ${chains.length} times and the last stressing is not linked to an engineer's disposition.`,
@@ -274,7 +289,13 @@ export async function evaluateTendon(
     created.push(flag);
   }
 
-  await closeRestressedFlags(db, { projectId: input.projectId, current, verdict, provisional, evaluationId: evaluation.id });
+  await closeRestressedFlags(db, {
+    projectId: input.projectId,
+    dispositionIds: current.map(answeredOrder).filter((id): id is string => Boolean(id)),
+    verdict,
+    provisional,
+    evaluationId: evaluation.id,
+  });
 
   if (created.length) {
     const recipients = [...new Set([project.engineerOfRecordEmail, ...project.notifyEmails].filter((e): e is string => Boolean(e)))];
@@ -320,10 +341,10 @@ export async function evaluateTendon(
  */
 async function closeRestressedFlags(
   db: Kysely<Database>,
-  input: { projectId: string; current: { id: string; restress_of_disposition_id: string | null }[]; verdict: Verdict; provisional: boolean; evaluationId: string },
+  input: { projectId: string; dispositionIds: string[]; verdict: Verdict; provisional: boolean; evaluationId: string },
 ): Promise<void> {
   if (input.provisional || input.verdict !== "in band") return;
-  const dispositionIds = input.current.map((r) => r.restress_of_disposition_id).filter((id): id is string => Boolean(id));
+  const dispositionIds = [...new Set(input.dispositionIds)];
   if (!dispositionIds.length) return;
   const dispositions = await db
     .selectFrom("dispositions")

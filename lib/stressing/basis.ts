@@ -11,6 +11,7 @@ import {
   type Check,
   type Comparison,
   type ElongationPrediction,
+  type TendonInput,
   type TendonSegment,
 } from "@/lib/elongation";
 
@@ -83,6 +84,8 @@ export function targetJackingForceN(tendon: TendonBasis): number {
 }
 
 export interface TendonPrediction {
+  /** Exactly what the engine was given, for drawing the force profile with the same figures. */
+  engineInput: TendonInput;
   jackingForceN: number;
   strand: StrandValues;
   prediction: ElongationPrediction;
@@ -104,7 +107,7 @@ export function predictTendon(input: {
   const strand = strandValues(tendon, input.lot);
   const jackingForceN = input.jackingForceN ?? targetJackingForceN(tendon);
   const gripMm = project.countJackGrip ? (tendon.jackGripMm ?? input.equipmentGripMm ?? 0) : 0;
-  const prediction = predictElongation({
+  const engineInput: TendonInput = {
     segments: tendon.segments,
     strandAreaMm2: strand.areaMm2,
     strandCount: tendon.strandCount,
@@ -115,7 +118,8 @@ export function predictTendon(input: {
     anchorSetMm: project.anchorSetMm > 0 ? project.anchorSetMm : undefined,
     jackGripMm: gripMm > 0 ? gripMm : undefined,
     ends: tendon.ends,
-  });
+  };
+  const prediction = predictElongation(engineInput);
   const checks = checkStressLimits({
     breakingLoadPerStrandN: strand.breakingLoadPerStrandN,
     strandCount: tendon.strandCount,
@@ -123,6 +127,7 @@ export function predictTendon(input: {
     anchorForceAfterN: prediction.seating?.anchorForceAfterN,
   });
   return {
+    engineInput,
     jackingForceN,
     strand,
     prediction,

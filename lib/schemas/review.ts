@@ -1,0 +1,89 @@
+import { z } from "zod";
+
+const reasonText = (what: string) =>
+  z
+    .string({ error: `Write the ${what}.` })
+    .trim()
+    .min(10, `Write the ${what} in a sentence or more (at least 10 characters).`)
+    .max(4000, "Use at most 4,000 characters.");
+
+export const flagParamsSchema = z.object({
+  projectId: z.uuid({ error: "Not a project id." }),
+  flagId: z.uuid({ error: "Not a flag id." }),
+});
+
+export const reviewSchema = z.discriminatedUnion("kind", [
+  z.object({ kind: z.literal("note"), body: reasonText("note") }),
+  z.object({ kind: z.literal("paperwork_error"), body: reasonText("paperwork error you found") }),
+  z.object({
+    kind: z.literal("remeasured"),
+    body: reasonText("how and where it was re-measured"),
+    remeasuredMm: z.number({ error: "Enter the re-measured elongation." }).positive("The re-measured elongation must be above zero.").max(5000, "That is longer than any tendon stretches."),
+  }),
+  z.object({ kind: z.literal("photo"), body: reasonText("what the photo shows"), attachmentId: z.uuid({ error: "Upload the photo first." }) }),
+  z.object({ kind: z.literal("sent_to_engineer"), body: reasonText("note for the engineer") }),
+  z.object({ kind: z.literal("closed_paperwork"), body: reasonText("reason for closing") }),
+]);
+export type ReviewInput = z.infer<typeof reviewSchema>;
+
+export const DECISIONS = ["accept", "restress", "detension_restress", "liftoff_check", "replace", "other"] as const;
+
+export const DECISION_LABELS: Record<(typeof DECISIONS)[number], string> = {
+  accept: "Accept as stressed",
+  restress: "Restress",
+  detension_restress: "Detension and restress",
+  liftoff_check: "Lift-off check",
+  replace: "Replace tendon",
+  other: "Other instruction",
+};
+
+export const dispositionSchema = z.object({
+  decision: z.enum(DECISIONS, { error: "Pick a disposition." }),
+  reasons: reasonText("reasons for the disposition"),
+  licenceStatement: z
+    .string({ error: "State your licence." })
+    .trim()
+    .min(6, "State your licence, for example: Licensed professional engineer, State of …, No. …")
+    .max(400, "Use at most 400 characters."),
+});
+export type DispositionInput = z.infer<typeof dispositionSchema>;
+
+export const releaseParamsSchema = z.object({
+  projectId: z.uuid({ error: "Not a project id." }),
+  pourId: z.uuid({ error: "Not a pour id." }),
+});
+
+export const releaseSchema = z.object({
+  statement: reasonText("release statement"),
+});
+
+export const correctionParamsSchema = z.object({
+  projectId: z.uuid({ error: "Not a project id." }),
+  recordId: z.uuid({ error: "Not a record id." }),
+});
+
+/** A paperwork correction: the values that were written down wrong, and why. */
+export const correctionSchema = z
+  .object({
+    reason: reasonText("reason for the correction"),
+    measuredMm: z.number().positive("The elongation must be above zero.").max(5000).optional(),
+    finalPressureMPa: z.number().positive("The gauge pressure must be above zero.").max(200).optional(),
+    initialPressureMPa: z.number().min(0).max(200).nullable().optional(),
+    tendonEnd: z.enum(["A", "B"]).optional(),
+  })
+  .refine((v) => v.measuredMm !== undefined || v.finalPressureMPa !== undefined || v.initialPressureMPa !== undefined || v.tendonEnd !== undefined, {
+    message: "Change at least one value.",
+    path: ["measuredMm"],
+  });
+export type CorrectionInput = z.infer<typeof correctionSchema>;
+
+export const flagFilterSchema = z.object({
+  projectId: z.uuid().optional(),
+  pourId: z.uuid().optional(),
+  kind: z
+    .enum(["out_of_band", "jacking_over_limit", "anchor_over_limit", "calibration_expired", "calibration_range", "wire_break", "concrete_unconfirmed", "reading_missing", "stressed_twice"])
+    .optional(),
+  olderThanHours: z.coerce.number().int().min(0).max(24 * 365).optional(),
+  status: z.enum(["open", "with_engineer", "any_open"]).default("any_open"),
+});
+export type FlagFilter = z.infer<typeof flagFilterSchema>;

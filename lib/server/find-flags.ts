@@ -1,0 +1,80 @@
+import "server-only";
+import type { Kysely } from "kysely";
+import type { Database, FlagKind, FlagStatus, Verdict } from "@/db/types";
+import type { FlagFilter } from "@/lib/schemas/review";
+
+export interface FlaggedTendon {
+  projectId: string;
+  projectName: string;
+  pourId: string;
+  pourName: string;
+  tendonId: string;
+  tag: string;
+  oldest: Date;
+  flags: { id: string; kind: FlagKind; reason: string; status: FlagStatus; createdAt: Date }[];
+  verdict: Verdict | null;
+  deviationPct: number | null;
+}
+
+/** Open flags on the given projects, grouped per tendon, oldest first. */
+export async function findFlags(db: Kysely<Database>, input: { projectIds: string[]; filter: FlagFilter }): Promise<FlaggedTendon[]> {
+  if (!input.projectIds.length) return [];
+  const { filter } = input;
+  let query = db
+    .selectFrom("flags")
+    .innerJoin("projects", "projects.id", "flags.project_id")
+    .innerJoin("pours", "pours.id", "flags.pour_id")
+    .innerJoin("tendons", "tendons.id", "flags.tendon_id")
+    .leftJoin("evaluations", "evaluations.id", "flags.evaluation_id")
+    .select([
+      "flags.id",
+      "flags.kind",
+      "flags.reason",
+      "flags.status",
+      "flags.created_at",
+      "flags.project_id",
+      "projects.name as projectName",
+      "flags.pour_id",
+      "pours.name as pourName",
+      "flags.tendon_id",
+      "tendons.tag",
+      "evaluations.verdict",
+      "evaluations.deviation_pct",
+    ])
+    .where("flags.project_id", "in", input.projectIds)
+    .orderBy("flags.created_at");
+  query = filter.status === "any_open" ? query.where("flags.status", "!=", "closed") : query.where("flags.status", "=", filter.status);
+  if (filter.projectId) query = query.where("flags.project_id", "=", filter.projectId);
+  if (filter.pourId) query = query.where("flags.pour_id", "=", filter.pourId);
+  if (filter.kind) query = query.where("flags.kind", "=", filter.kind);
+  if (filter.olderThanHours !== undefined) {
+    query = query.where("flags.created_at", "<=", new Date(Date.now() - filter.olderThanHours * 3600_000));
+  }
+  const rows = await query.execute();
+
+  const byTendon = new Map<string, FlaggedTendon>();
+  for (const r of rows) {
+    let group = byTendon.get(r.tendon_id);
+    if (!group) {
+      group = {
+        projectId: r.project_id,
+        projectName: r.projectName,
+        pourId: r.pour_id,
+        pourName: r.pourName,
+        tendonId: r.tendon_id,
+        tag: r.tag,
+        oldest: r.created_at,
+        flags: [],
+        verdict: null,
+        deviationPct: null,
+      };
+      byTendon.set(r.tendon_id, group);
+    }
+    group.flags.push({ id: r.id, kind: r.kind, reason: r.reason, status: r.status, createdAt: r.created_at });
+    if (r.verdict) {
+      group.verdict = r.verdict;
+      group.deviationPct = r.deviation_pct;
+    }
+  }
+  return [...byTendon.values()];
+}

@@ -1,0 +1,129 @@
+import "server-only";
+import type { Kysely } from "kysely";
+import type { Database } from "@/db/types";
+import { forceProfile, segmentBeta, type ForceProfile } from "@/lib/elongation";
+import { predictTendon, type TendonPrediction } from "@/lib/stressing/basis";
+import { loadTendonBasis, type LoadedTendon } from "./load-tendon-basis";
+
+/**
+ * Everything the review and decision page shows for one tendon: the basis and its sources, the
+ * prediction with the force profile, every record (all revisions) with photos, the latest
+ * evaluation, the flags with their review trail and dispositions, and the pour's release.
+ */
+export async function getTendonCase(db: Kysely<Database>, input: { projectId: string; tendonId: string }) {
+  const basis: LoadedTendon = await loadTendonBasis(db, input);
+
+  const [records, evaluation, flags, reviews, dispositions, photos, release] = await Promise.all([
+    db
+      .selectFrom("records")
+      .innerJoin("users", "users.id", "records.author_user_id")
+      .innerJoin("equipment_sets", "equipment_sets.id", "records.equipment_set_id")
+      .select([
+        "records.id",
+        "records.chain_id",
+        "records.revision",
+        "records.revision_reason",
+        "records.tendon_end",
+        "records.initial_pressure_mpa",
+        "records.final_pressure_mpa",
+        "records.measured_mm",
+        "records.seating_mm",
+        "records.wire_breaks",
+        "records.remarks",
+        "records.device_time",
+        "records.device_time_zone",
+        "records.received_at",
+        "records.entered",
+        "users.name as author",
+        "equipment_sets.name as equipmentSet",
+        "equipment_sets.jack_grip_mm as equipmentGripMm",
+      ])
+      .where("records.project_id", "=", input.projectId)
+      .where("records.tendon_id", "=", input.tendonId)
+      .orderBy("records.device_time")
+      .orderBy("records.revision")
+      .execute(),
+    db
+      .selectFrom("evaluations")
+      .selectAll()
+      .where("project_id", "=", input.projectId)
+      .where("tendon_id", "=", input.tendonId)
+      .orderBy("created_at", "desc")
+      .limit(1)
+      .executeTakeFirst(),
+    db
+      .selectFrom("flags")
+      .leftJoin("users", "users.id", "flags.closed_by")
+      .select([
+        "flags.id",
+        "flags.kind",
+        "flags.reason",
+        "flags.status",
+        "flags.created_at",
+        "flags.closed_at",
+        "flags.close_reason",
+        "flags.record_id",
+        "users.name as closedByName",
+      ])
+      .where("flags.project_id", "=", input.projectId)
+      .where("flags.tendon_id", "=", input.tendonId)
+      .orderBy("flags.created_at")
+      .execute(),
+    db
+      .selectFrom("reviews")
+      .innerJoin("users", "users.id", "reviews.author_user_id")
+      .innerJoin("flags", "flags.id", "reviews.flag_id")
+      .select(["reviews.id", "reviews.flag_id", "reviews.kind", "reviews.body", "reviews.remeasured_mm", "reviews.attachment_id", "reviews.created_at", "users.name as author"])
+      .where("reviews.project_id", "=", input.projectId)
+      .where("flags.tendon_id", "=", input.tendonId)
+      .orderBy("reviews.created_at")
+      .execute(),
+    db
+      .selectFrom("dispositions")
+      .select(["id", "flag_id", "decision", "reasons", "engineer_name", "licence_statement", "created_at"])
+      .where("project_id", "=", input.projectId)
+      .where("tendon_id", "=", input.tendonId)
+      .orderBy("created_at")
+      .execute(),
+    db
+      .selectFrom("attachments")
+      .innerJoin("records", "records.id", "attachments.record_id")
+      .select(["attachments.id", "attachments.record_id", "attachments.original_name"])
+      .where("attachments.project_id", "=", input.projectId)
+      .where("records.tendon_id", "=", input.tendonId)
+      .where("attachments.status", "=", "stored")
+      .where("attachments.purpose", "=", "record_photo")
+      .execute(),
+    db
+      .selectFrom("releases")
+      .select(["released_by_name", "statement", "created_at"])
+      .where("project_id", "=", input.projectId)
+      .where("pour_id", "=", basis.pour.id)
+      .executeTakeFirst(),
+  ]);
+
+  const equipmentGripMm = records.find((r) => r.equipmentGripMm !== null)?.equipmentGripMm ?? null;
+  let predicted: TendonPrediction | null = null;
+  let profile: ForceProfile | null = null;
+  let computationError: string | null = null;
+  try {
+    predicted = predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot, equipmentGripMm });
+    profile = forceProfile(predicted.engineInput, { samplesPerSegment: 6 });
+  } catch (error) {
+    computationError = error instanceof Error ? error.message : String(error);
+  }
+
+  // Segment by segment, from end A: β = K·L + μ·α, and the running sums.
+  let x = 0;
+  let alpha = 0;
+  const segments = basis.tendon.segments.map((s, i) => {
+    const beta = segmentBeta(s.lengthMm, s.angleRad, basis.project.wobblePerM, basis.project.frictionMu);
+    x += s.lengthMm;
+    alpha += s.angleRad;
+    return { index: i + 1, lengthMm: s.lengthMm, angleRad: s.angleRad, beta, endMm: x, cumulativeAngleRad: alpha };
+  });
+
+  return { basis, predicted, profile, computationError, segments, records, evaluation: evaluation ?? null, flags, reviews, dispositions, photos, release: release ?? null };
+}
+
+export type TendonCase = Awaited<ReturnType<typeof getTendonCase>>;

@@ -1,0 +1,88 @@
+import "server-only";
+import type { Kysely } from "kysely";
+import type { Database, Role } from "@/db/types";
+import { AppError } from "@/lib/errors";
+import { stressedEnds } from "@/lib/stressing/basis";
+import { recordAudit } from "./record-audit";
+
+export interface ReleaseBlockers {
+  openFlags: { tendonTag: string; kind: string }[];
+  unstressed: { tendonTag: string; missingEnds: string[] }[];
+}
+
+/** What stands between a pour and its release: open flags, and tendon ends with no record. */
+export async function findReleaseBlockers(db: Kysely<Database>, input: { projectId: string; pourId: string }): Promise<ReleaseBlockers> {
+  const [openFlags, tendons, ends] = await Promise.all([
+    db
+      .selectFrom("flags")
+      .innerJoin("tendons", "tendons.id", "flags.tendon_id")
+      .select(["tendons.tag as tendonTag", "flags.kind"])
+      .where("flags.project_id", "=", input.projectId)
+      .where("flags.pour_id", "=", input.pourId)
+      .where("flags.status", "!=", "closed")
+      .orderBy("tendons.tag")
+      .execute(),
+    db
+      .selectFrom("tendons")
+      .select(["id", "tag", "ends"])
+      .where("project_id", "=", input.projectId)
+      .where("pour_id", "=", input.pourId)
+      .orderBy("tag")
+      .execute(),
+    db
+      .selectFrom("records")
+      .select(["tendon_id", "tendon_end"])
+      .distinct()
+      .where("project_id", "=", input.projectId)
+      .where("pour_id", "=", input.pourId)
+      .execute(),
+  ]);
+  const unstressed = tendons
+    .map((t) => ({
+      tendonTag: t.tag,
+      missingEnds: stressedEnds(t.ends).filter((e) => !ends.some((r) => r.tendon_id === t.id && r.tendon_end === e)),
+    }))
+    .filter((t) => t.missingEnds.length > 0);
+  return { openFlags, unstressed };
+}
+
+/**
+ * Releases a pour for tail cutting or grouting: only with no open flag and every scheduled end
+ * recorded, by the role the project names (the engineer of record unless it says inspector).
+ */
+export async function releasePour(
+  db: Kysely<Database>,
+  input: { projectId: string; pourId: string; by: { id: string; name: string; role: Role }; statement: string },
+): Promise<{ releaseId: string }> {
+  return db.transaction().execute(async (trx) => {
+    const pour = await trx
+      .selectFrom("pours")
+      .innerJoin("projects", "projects.id", "pours.project_id")
+      .select(["pours.id", "pours.status", "projects.release_by"])
+      .where("pours.project_id", "=", input.projectId)
+      .where("pours.id", "=", input.pourId)
+      .forUpdate()
+      .executeTakeFirst();
+    if (!pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
+    if (input.by.role !== pour.release_by) {
+      throw new AppError("FORBIDDEN", `On this project the ${pour.release_by === "engineer" ? "engineer of record" : "inspector"} releases pours.`);
+    }
+    if (pour.status === "released") throw new AppError("CONFLICT", "This pour is already released.");
+    const blockers = await findReleaseBlockers(trx, input);
+    if (blockers.openFlags.length || blockers.unstressed.length) {
+      const parts = [
+        blockers.openFlags.length ? `${blockers.openFlags.length} open flag(s) on ${[...new Set(blockers.openFlags.map((f) => f.tendonTag))].join(", ")}` : "",
+        blockers.unstressed.length ? `${blockers.unstressed.length} tendon(s) with ends not recorded, such as ${blockers.unstressed.slice(0, 5).map((t) => t.tendonTag).join(", ")}` : "",
+      ].filter(Boolean);
+      throw new AppError("CONFLICT", `The pour cannot be released yet: ${parts.join("; ")}.`);
+    }
+    const row = await trx
+      .insertInto("releases")
+      .values({ project_id: input.projectId, pour_id: input.pourId, released_by: input.by.id, released_by_name: input.by.name, statement: input.statement })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    await trx.updateTable("pours").set({ status: "released", updated_at: new Date() }).where("project_id", "=", input.projectId).where("id", "=", input.pourId).execute();
+    await recordAudit(trx, { action: "pour.release", outcome: "success", actorUserId: input.by.id, projectId: input.projectId, target: input.pourId });
+    return { releaseId: row.id };
+  });
+}

@@ -1,0 +1,174 @@
+import { sql } from "kysely";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { seedDemo } from "@/db/seed/demo";
+import { predictTendon } from "@/lib/stressing/basis";
+import { addReview } from "@/lib/server/add-review";
+import { correctRecord } from "@/lib/server/correct-record";
+import { evaluateTendon } from "@/lib/server/evaluate-tendon";
+import { findFlags } from "@/lib/server/find-flags";
+import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
+import { recordDisposition } from "@/lib/server/record-disposition";
+import { findReleaseBlockers, releasePour } from "@/lib/server/release-pour";
+import { demoFixture, insertRecord } from "../support/records";
+import { createTestDatabase, type TestDatabase } from "../support/database";
+
+let t: TestDatabase;
+let fx: Awaited<ReturnType<typeof demoFixture>>;
+let pourId: string;
+let tendons: { id: string; pour_id: string; tag: string }[];
+let people: Record<"inspector" | "engineer", { id: string; name: string }>;
+let pressure: number;
+
+beforeAll(async () => {
+  t = await createTestDatabase({ migrate: true });
+  await seedDemo(t.db);
+  fx = await demoFixture(t.db);
+  // A small pour of our own: two one-end tendons copied from the demo schedule.
+  const pour = await t.db.insertInto("pours").values({ project_id: fx.projectId, name: "Review test pour", concrete_strength_mpa: 30 }).returning("id").executeTakeFirstOrThrow();
+  pourId = pour.id;
+  const template = await t.db.selectFrom("tendons").selectAll().where("project_id", "=", fx.projectId).where("tag", "=", "2-1-U01").executeTakeFirstOrThrow();
+  tendons = [];
+  for (const tag of ["R-1", "R-2"]) {
+    const row = await t.db
+      .insertInto("tendons")
+      .values({
+        project_id: template.project_id,
+        pour_id: pourId,
+        tag,
+        kind: template.kind,
+        strand_size: template.strand_size,
+        strand_count: template.strand_count,
+        segments: JSON.stringify(template.segments),
+        ends: template.ends,
+        jack_grip_mm: template.jack_grip_mm,
+        strand_lot_id: template.strand_lot_id,
+      })
+      .returning(["id", "pour_id", "tag"])
+      .executeTakeFirstOrThrow();
+    tendons.push(row);
+  }
+  const user = (email: string) => t.db.selectFrom("users").select(["id", "name"]).where("email", "=", email).executeTakeFirstOrThrow();
+  people = { inspector: await user("inspector@demo.tautline.test"), engineer: await user("engineer@demo.tautline.test") };
+  const c = await t.db.selectFrom("calibrations").select(["slope_n_per_mpa", "intercept_n"]).where("equipment_set_id", "=", fx.setA).executeTakeFirstOrThrow();
+  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tendons[0]!.id });
+  const target = predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot }).jackingForceN;
+  pressure = (target - c.intercept_n) / c.slope_n_per_mpa;
+});
+afterAll(async () => {
+  await t.drop();
+});
+
+async function predicted(tendonId: string) {
+  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId });
+  return predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot, equipmentGripMm: 457.2 }).predictedMm;
+}
+
+async function stress(tendon: { id: string; pour_id: string }, factor: number) {
+  const recordId = await insertRecord(t.db, {
+    projectId: fx.projectId,
+    tendon,
+    end: "A",
+    equipmentSetId: fx.setA,
+    authorId: fx.crewId,
+    measuredMm: (await predicted(tendon.id)) * factor,
+    finalPressureMPa: pressure,
+  });
+  const evaluation = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+  return { recordId, evaluation };
+}
+
+describe("from flag to release", () => {
+  it("an out-of-band tendon holds the pour until the engineer's restress comes back in band", async () => {
+    const [r1, r2] = tendons as [(typeof tendons)[number], (typeof tendons)[number]];
+    await stress(r2, 1.01);
+    const { evaluation } = await stress(r1, 0.9);
+    expect(evaluation.flagKinds).toEqual(["out_of_band"]);
+
+    const queue = await findFlags(t.db, { projectIds: [fx.projectId], filter: { status: "any_open", pourId } });
+    expect(queue.map((q) => q.tag)).toEqual(["R-1"]);
+    const flagId = queue[0]!.flags[0]!.id;
+
+    expect(await findReleaseBlockers(t.db, { projectId: fx.projectId, pourId })).toEqual({
+      openFlags: [{ tendonTag: "R-1", kind: "out_of_band" }],
+      unstressed: [],
+    });
+    await expect(
+      releasePour(t.db, { projectId: fx.projectId, pourId, by: { ...people.engineer, role: "engineer" }, statement: "All tendons accepted, tails may be cut." }),
+    ).rejects.toMatchObject({ code: "CONFLICT", message: expect.stringContaining("1 open flag(s) on R-1") });
+
+    // The inspector may not close an out-of-band flag as paperwork.
+    await expect(
+      addReview(t.db, { projectId: fx.projectId, flagId, author: people.inspector, review: { kind: "closed_paperwork", body: "Looks like a typo to me." } }),
+    ).rejects.toMatchObject({ code: "CONFLICT" });
+    await addReview(t.db, { projectId: fx.projectId, flagId, author: people.inspector, review: { kind: "remeasured", body: "Re-measured the tail mark with a steel tape.", remeasuredMm: 150 } });
+    const sent = await addReview(t.db, { projectId: fx.projectId, flagId, author: people.inspector, review: { kind: "sent_to_engineer", body: "Short by 10 %; mark confirmed. Please advise." } });
+    expect(sent.flagStatus).toBe("with_engineer");
+
+    const disposition = await recordDisposition(t.db, {
+      projectId: fx.projectId,
+      flagId,
+      engineer: people.engineer,
+      disposition: { decision: "restress", reasons: "Short elongation; restress to the same gauge pressure and re-read.", licenceStatement: "Licensed professional engineer (demo)" },
+    });
+    expect(disposition.flagStatus).toBe("with_engineer");
+
+    // The crew restresses; the new stressing answers the order and comes back in band.
+    const restress = await stress(r1, 1.0);
+    expect(restress.evaluation).toMatchObject({ verdict: "in band", flagKinds: [] });
+    const flag = await t.db.selectFrom("flags").select(["status", "close_reason"]).where("id", "=", flagId).executeTakeFirstOrThrow();
+    expect(flag.status).toBe("closed");
+    expect(flag.close_reason).toContain(disposition.dispositionId);
+
+    const release = await releasePour(t.db, {
+      projectId: fx.projectId,
+      pourId,
+      by: { ...people.engineer, role: "engineer" },
+      statement: "All tendons stressed and accepted; tails may be cut.",
+    });
+    expect(release.releaseId).toBeTruthy();
+    const pour = await t.db.selectFrom("pours").select("status").where("id", "=", pourId).executeTakeFirstOrThrow();
+    expect(pour.status).toBe("released");
+  });
+
+  it("refuses a release by a role the project does not name, and a pour with ends never recorded", async () => {
+    const pour = await t.db.selectFrom("pours").select("id").where("name", "=", "L2 Pour 2").executeTakeFirstOrThrow();
+    await expect(
+      releasePour(t.db, { projectId: fx.projectId, pourId: pour.id, by: { ...people.inspector, role: "inspector" }, statement: "Release by the wrong person." }),
+    ).rejects.toMatchObject({ code: "FORBIDDEN" });
+    const blockers = await findReleaseBlockers(t.db, { projectId: fx.projectId, pourId: pour.id });
+    expect(blockers.unstressed).toHaveLength(50);
+    expect(blockers.unstressed.find((u) => u.tendonTag === "2-2-B01")?.missingEnds).toEqual(["A", "B"]);
+  });
+
+  it("a paperwork correction is a new revision, evaluated again; the original stays untouched", async () => {
+    const tendon = await fx.tendon("2-1-U11");
+    const { recordId, evaluation } = await stress(tendon, 1.2);
+    expect(evaluation.verdict).toBe("long");
+    const right = await predicted(tendon.id);
+    const corrected = await correctRecord(t.db, {
+      projectId: fx.projectId,
+      recordId,
+      by: people.inspector,
+      correction: { reason: "Reading was copied from the tendon next to it.", measuredMm: right },
+    });
+    expect(corrected.evaluation.verdict).toBe("in band");
+    const chain = await t.db.selectFrom("records").select(["revision", "measured_mm", "revision_reason"]).where("chain_id", "=", recordId).orderBy("revision").execute();
+    expect(chain.map((r) => r.revision)).toEqual([1, 2]);
+    expect(chain[0]!.measured_mm).toBeCloseTo(right * 1.2, 9);
+    expect(chain[1]!.revision_reason).toBe("Reading was copied from the tendon next to it.");
+    await expect(correctRecord(t.db, { projectId: fx.projectId, recordId, by: people.inspector, correction: { reason: "Second try on the old one.", measuredMm: 1 } })).rejects.toMatchObject({
+      code: "CONFLICT",
+    });
+    // With the corrected record in band, the inspector may now close the flag as paperwork.
+    const flag = await t.db.selectFrom("flags").select("id").where("tendon_id", "=", tendon.id).where("kind", "=", "out_of_band").executeTakeFirstOrThrow();
+    const closed = await addReview(t.db, { projectId: fx.projectId, flagId: flag.id, author: people.inspector, review: { kind: "closed_paperwork", body: "Transcription error; corrected revision is in band." } });
+    expect(closed.flagStatus).toBe("closed");
+  });
+
+  it("keeps dispositions, reviews and releases append-only", async () => {
+    for (const table of ["dispositions", "reviews", "releases"]) {
+      await expect(sql`update ${sql.id(table)} set created_at = now()`.execute(t.db)).rejects.toThrow(/append-only/);
+      await expect(sql`delete from ${sql.id(table)}`.execute(t.db)).rejects.toThrow(/append-only/);
+    }
+  });
+});
