@@ -98,6 +98,31 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
 
   const CERTIFICATE = Buffer.from("%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n");
   const certificateUpload = { purpose: "mill_certificate", contentType: "application/pdf", sizeBytes: CERTIFICATE.byteLength, originalName: "matrix.pdf" };
+  const stamp = () => `${Date.now()}-${counter++}`;
+  const pourBody = (name: string) => ({ name, level: "Matrix", areaM2: null, plannedStressingDate: null, status: "planned" });
+  /** A throwaway pour, so the demo pours keep their schedules. */
+  async function throwawayPour(): Promise<string> {
+    const res = await contexts.admin.post(`/api/projects/${projectId}/pours`, { data: pourBody(`Matrix pour ${stamp()}`) });
+    expect(res.status()).toBe(201);
+    return ((await res.json()) as { pourId: string }).pourId;
+  }
+  async function demoPourId(): Promise<string> {
+    const list = (await (await contexts.admin.get(`/api/projects/${projectId}/pours`)).json()) as { pours: { id: string; name: string }[] };
+    return list.pours.find((p) => p.name === "L2 Pour 1")!.id;
+  }
+  const tendonBody = (tag: string) => ({
+    tag,
+    kind: "unbonded_monostrand",
+    strandSize: "0.5 in",
+    strandCount: 1,
+    segments: [{ lengthMm: 9000, angleRad: 0.1 }],
+    ends: "A",
+    jackGripMm: null,
+    shopElongationMm: null,
+    strandLotId: null,
+  });
+  const SCHEDULE_HEADER = "tag,type,strand size [in],strands,ends,segments [ft@deg]";
+
   /** An admin's certificate upload, put in storage; confirmed too when `confirm` is set. */
   async function uploadedCertificate(confirm: boolean): Promise<string> {
     const res = await contexts.admin.post(`/api/projects/${projectId}/uploads`, { data: certificateUpload });
@@ -148,6 +173,67 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     "GET /api/projects/[projectId]/attachments/[attachmentId]": {
       fixture: () => uploadedCertificate(true),
       call: (c, id) => c.get(`/api/projects/${projectId}/attachments/${id}`),
+    },
+    "GET /api/projects/[projectId]/settings": { call: (c) => c.get(`/api/projects/${projectId}/settings`) },
+    "PATCH /api/projects/[projectId]/settings": {
+      // The admin writes the settings back unchanged.
+      fixture: async () => JSON.stringify(await (await contexts.admin.get(`/api/projects/${projectId}/settings`)).json()),
+      call: (c, json) => {
+        const { id: _id, code: _code, ...settings } = JSON.parse(json) as Record<string, unknown>;
+        void _id;
+        void _code;
+        return c.patch(`/api/projects/${projectId}/settings`, { data: settings });
+      },
+    },
+    "GET /api/projects/[projectId]/pours": { call: (c) => c.get(`/api/projects/${projectId}/pours`) },
+    "POST /api/projects/[projectId]/pours": { call: (c) => c.post(`/api/projects/${projectId}/pours`, { data: pourBody(`Matrix pour ${stamp()}`) }) },
+    "PATCH /api/projects/[projectId]/pours/[pourId]": {
+      fixture: throwawayPour,
+      call: (c, id) => c.patch(`/api/projects/${projectId}/pours/${id}`, { data: { ...pourBody(`Matrix pour ${id}`), status: "stressing" } }),
+    },
+    "GET /api/projects/[projectId]/pours/[pourId]/tendons": { fixture: demoPourId, call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/tendons`) },
+    "POST /api/projects/[projectId]/pours/[pourId]/tendons": {
+      fixture: throwawayPour,
+      call: (c, id) => c.post(`/api/projects/${projectId}/pours/${id}/tendons`, { data: tendonBody(`M-${stamp()}`) }),
+    },
+    "POST /api/projects/[projectId]/pours/[pourId]/tendons/import": {
+      fixture: throwawayPour,
+      call: (c, id) => c.post(`/api/projects/${projectId}/pours/${id}/tendons/import`, { data: { csv: `${SCHEDULE_HEADER}\nM-${stamp()},monostrand,0.5,1,A,30@2` } }),
+    },
+    "GET /api/projects/[projectId]/pours/[pourId]/tendons/export": { fixture: demoPourId, call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/tendons/export`) },
+    "GET /api/projects/[projectId]/tendon-template": { call: (c) => c.get(`/api/projects/${projectId}/tendon-template`) },
+    "GET /api/projects/[projectId]/tendons/[tendonId]": {
+      fixture: async () => {
+        const list = (await (await contexts.admin.get(`/api/projects/${projectId}/pours/${await demoPourId()}/tendons`)).json()) as { tendons: { id: string }[] };
+        return list.tendons[0]!.id;
+      },
+      call: (c, id) => c.get(`/api/projects/${projectId}/tendons/${id}`),
+    },
+    "GET /api/projects/[projectId]/strand-lots": { call: (c) => c.get(`/api/projects/${projectId}/strand-lots`) },
+    "POST /api/projects/[projectId]/strand-lots": {
+      call: (c) =>
+        c.post(`/api/projects/${projectId}/strand-lots`, {
+          data: { lotNumber: `M-${stamp()}`, strandSize: "0.5 in", areaMm2: 99, modulusMPa: 197_000, breakingLoadN: 186_000, certificateAttachmentId: null },
+        }),
+    },
+    "GET /api/projects/[projectId]/equipment-sets": { call: (c) => c.get(`/api/projects/${projectId}/equipment-sets`) },
+    "POST /api/projects/[projectId]/equipment-sets": {
+      call: (c) =>
+        c.post(`/api/projects/${projectId}/equipment-sets`, {
+          data: { name: `Matrix set ${stamp()}`, jackSerial: "MJ-1", gaugeSerial: "MG-1", pumpSerial: null, jackGripMm: null, maxForceN: null },
+        }),
+    },
+    "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations": {
+      fixture: async () => {
+        const res = await contexts.admin.post(`/api/projects/${projectId}/equipment-sets`, {
+          data: { name: `Matrix set ${stamp()}`, jackSerial: "MJ-2", gaugeSerial: "MG-2", pumpSerial: null, jackGripMm: null, maxForceN: null },
+        });
+        return ((await res.json()) as { setId: string }).setId;
+      },
+      call: (c, id) =>
+        c.post(`/api/projects/${projectId}/equipment-sets/${id}/calibrations`, {
+          data: { calibratedOn: "2026-12-01", validUntil: null, points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })), laboratory: null, certificateAttachmentId: null },
+        }),
     },
     "POST /api/invitations/accept": {
       call: (c) => c.post("/api/invitations/accept", { data: { token: BOGUS_TOKEN, name: "Nobody", password: "a-long-enough-password" } }),

@@ -1,0 +1,56 @@
+import { z } from "zod";
+
+/** A calibration as the certificate gives it: load-cell forces at gauge pressures, in SI. */
+export const calibrationSchema = z
+  .object({
+    calibratedOn: z.iso.date({ error: "Give the calibration date as YYYY-MM-DD." }),
+    validUntil: z.iso.date({ error: "Give the expiry as YYYY-MM-DD." }).nullable(),
+    points: z
+      .array(
+        z.object({
+          pressureMPa: z.number({ error: "Give the pressure." }).min(0, "Pressure cannot be negative.").max(250, "Above 250 MPa (36,000 psi) looks wrong."),
+          forceN: z.number({ error: "Give the force." }).min(0, "Force cannot be negative.").max(20_000_000, "That force looks wrong."),
+        }),
+      )
+      .min(2, "Give at least two points; five or more show a bad one.")
+      .max(50, "At most 50 points."),
+    laboratory: z.string().trim().max(160, "Use at most 160 characters.").nullable(),
+    certificateAttachmentId: z.uuid({ error: "Upload the certificate again." }).nullable(),
+  })
+  .superRefine((c, ctx) => {
+    if (c.validUntil && c.validUntil < c.calibratedOn) {
+      ctx.addIssue({ code: "custom", path: ["validUntil"], message: "The expiry is before the calibration date." });
+    }
+    const pressures = new Set(c.points.map((p) => p.pressureMPa));
+    if (pressures.size < 2) ctx.addIssue({ code: "custom", path: ["points"], message: "The points must be at different pressures." });
+  });
+export type CalibrationInput = z.infer<typeof calibrationSchema>;
+
+/** Days before expiry when a set is marked as running out. */
+export const EXPIRING_WITHIN_DAYS = 14;
+
+export type CalibrationState = "valid" | "expiring" | "expired" | "none";
+
+export const CALIBRATION_STATE_LABELS: Record<CalibrationState, string> = {
+  valid: "Calibrated",
+  expiring: "Runs out soon",
+  expired: "Expired",
+  none: "No calibration",
+};
+
+/** Whole days from one calendar day to another (YYYY-MM-DD), negative when `to` is earlier. */
+export function daysBetween(from: string, to: string): number {
+  return Math.round((Date.parse(`${to}T00:00:00Z`) - Date.parse(`${from}T00:00:00Z`)) / 86_400_000);
+}
+
+export function addDays(day: string, days: number): string {
+  return new Date(Date.parse(`${day}T00:00:00Z`) + days * 86_400_000).toISOString().slice(0, 10);
+}
+
+/** A set's state on a day: expired after its last valid day, running out within 14 days. */
+export function calibrationState(validUntil: string | null, today: string): CalibrationState {
+  if (!validUntil) return "none";
+  const left = daysBetween(today, validUntil);
+  if (left < 0) return "expired";
+  return left <= EXPIRING_WITHIN_DAYS ? "expiring" : "valid";
+}

@@ -1,0 +1,62 @@
+import { z } from "zod";
+import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
+
+export const STRAND_SIZES = ASTM_A416_GRADE_270.map((s) => s.designation) as [string, ...string[]];
+export const TENDON_KINDS = ["unbonded_monostrand", "bonded_multistrand"] as const;
+export const KIND_LABELS: Record<(typeof TENDON_KINDS)[number], string> = {
+  unbonded_monostrand: "Unbonded monostrand",
+  bonded_multistrand: "Bonded multistrand",
+};
+
+/** A spreadsheet runs a cell that starts with one of these as a formula. */
+export const FORMULA_START = /^[=+\-@\t\r]/;
+
+/** A name a person typed that will later land in CSV files and reports. */
+export const plainText = (what: string, max: number) =>
+  z
+    .string({ error: `Give the ${what}.` })
+    .trim()
+    .min(1, `Give the ${what}.`)
+    .max(max, `Use at most ${max} characters.`)
+    .refine((v) => !FORMULA_START.test(v), `The ${what} may not start with =, +, -, @ (a spreadsheet would run it as a formula).`)
+    .refine((v) => !/[\u0000-\u001f\u007f]/.test(v), `The ${what} may not hold control characters.`);
+
+export const tagSchema = plainText("tag as drawn", 40);
+
+export const segmentSchema = z.object({
+  lengthMm: z.number({ error: "Give the segment length." }).positive("A segment must be longer than 0.").max(300_000, "A segment over 300 m (980 ft) looks wrong."),
+  angleRad: z.number({ error: "Give the angle change." }).min(0, "The angle change is an absolute value (0 or more).").max(Math.PI, "An angle change above 180° looks like degrees typed as radians."),
+});
+
+export const tendonSchema = z
+  .object({
+    tag: tagSchema,
+    kind: z.enum(TENDON_KINDS, { error: "Pick unbonded monostrand or bonded multistrand." }),
+    strandSize: z.enum(STRAND_SIZES, { error: `Pick a strand size: ${STRAND_SIZES.join(", ")}.` }),
+    strandCount: z.number({ error: "Give the number of strands." }).int("Use a whole number of strands.").min(1, "At least 1 strand.").max(61, "At most 61 strands."),
+    segments: z.array(segmentSchema).min(1, "Give at least one segment.").max(200, "At most 200 segments."),
+    ends: z.enum(["A", "B", "both"], { error: "Pick the stressing end: A, B or both." }),
+    jackGripMm: z.number({ error: "Give the grip length." }).min(0, "The grip length cannot be negative.").max(2000, "A grip over 2 m looks wrong.").nullable(),
+    shopElongationMm: z.number({ error: "Give the shop-drawing elongation." }).positive("The elongation must be above 0.").max(5000, "Over 5 m looks wrong.").nullable(),
+    strandLotId: z.uuid({ error: "Pick a strand lot of this project." }).nullable(),
+  })
+  .superRefine((t, ctx) => {
+    if (t.kind === "unbonded_monostrand" && t.strandCount !== 1) {
+      ctx.addIssue({ code: "custom", path: ["strandCount"], message: "An unbonded monostrand tendon has 1 strand." });
+    }
+  });
+export type TendonInput = z.infer<typeof tendonSchema>;
+
+export const tendonParamsSchema = z.object({
+  projectId: z.uuid({ error: "Not a project id." }),
+  tendonId: z.uuid({ error: "Not a tendon id." }),
+});
+
+/** A parabolic drape h over a half span l turns the tendon by 2h/l (common practice). */
+export function drapeAngleRad(drapeMm: number, halfSpanMm: number): number {
+  return (2 * drapeMm) / halfSpanMm;
+}
+
+export const importScheduleSchema = z.object({
+  csv: z.string({ error: "Send the CSV file's text." }).min(1, "The file is empty.").max(8_000_000, "The file is over 8 MB; split it by pour."),
+});

@@ -1,0 +1,54 @@
+import "server-only";
+import type { Db } from "@/db/connect";
+import { fitCalibration, isInputError } from "@/lib/elongation";
+import { AppError } from "@/lib/errors";
+import { addDays, type CalibrationInput } from "@/lib/schemas/calibration";
+import { requireStoredAttachment } from "@/lib/storage";
+
+/**
+ * Adds a calibration to a set: the least-squares line through the points with its r², and the
+ * expiry, which is the certificate's own or the project's validity period after the calibration
+ * date, whichever comes first.
+ */
+export async function addCalibration(
+  db: Db,
+  input: { projectId: string; setId: string; values: CalibrationInput },
+): Promise<{ calibrationId: string; validUntil: string; r2: number; warnings: string[] }> {
+  const v = input.values;
+  const [set, project] = await Promise.all([
+    db.selectFrom("equipment_sets").select("id").where("project_id", "=", input.projectId).where("id", "=", input.setId).executeTakeFirst(),
+    db.selectFrom("projects").select("calibration_validity_days").where("id", "=", input.projectId).executeTakeFirstOrThrow(),
+  ]);
+  if (!set) throw new AppError("NOT_FOUND", "No such equipment set on this project.");
+  let fit;
+  try {
+    fit = fitCalibration(v.points);
+  } catch (error) {
+    if (isInputError(error)) throw new AppError("INVALID_INPUT", `The calibration points do not make a line: ${error.message}.`, { points: [error.message] });
+    throw error;
+  }
+  if (v.certificateAttachmentId) {
+    await requireStoredAttachment(db, { projectId: input.projectId, attachmentId: v.certificateAttachmentId, purpose: "calibration_certificate", field: "certificateAttachmentId" });
+  }
+  const byRule = addDays(v.calibratedOn, project.calibration_validity_days);
+  const validUntil = v.validUntil && v.validUntil < byRule ? v.validUntil : byRule;
+  const row = await db
+    .insertInto("calibrations")
+    .values({
+      project_id: input.projectId,
+      equipment_set_id: input.setId,
+      calibrated_on: v.calibratedOn,
+      valid_until: validUntil,
+      points: JSON.stringify(v.points),
+      slope_n_per_mpa: fit.slope,
+      intercept_n: fit.intercept,
+      r2: fit.r2,
+      min_pressure_mpa: fit.minPressureMPa,
+      max_pressure_mpa: fit.maxPressureMPa,
+      laboratory: v.laboratory,
+      certificate_attachment_id: v.certificateAttachmentId,
+    })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  return { calibrationId: row.id, validUntil, r2: fit.r2, warnings: fit.checks.map((c) => c.message) };
+}

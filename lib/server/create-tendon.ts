@@ -1,0 +1,44 @@
+import "server-only";
+import type { Db } from "@/db/connect";
+import { AppError } from "@/lib/errors";
+import type { TendonInput } from "@/lib/schemas/tendon";
+
+/** Adds one tendon to a pour; the tag must be new in the pour and the lot the project's. */
+export async function createTendon(db: Db, input: { projectId: string; pourId: string; values: TendonInput }): Promise<{ tendonId: string }> {
+  const v = input.values;
+  return db.transaction().execute(async (trx) => {
+    const pour = await trx.selectFrom("pours").select("id").where("project_id", "=", input.projectId).where("id", "=", input.pourId).executeTakeFirst();
+    if (!pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
+    const clash = await trx
+      .selectFrom("tendons")
+      .select("id")
+      .where("project_id", "=", input.projectId)
+      .where("pour_id", "=", input.pourId)
+      .where((eb) => eb(eb.fn("lower", ["tag"]), "=", v.tag.toLowerCase()))
+      .executeTakeFirst();
+    if (clash) throw new AppError("CONFLICT", `The tag ${v.tag} is already in this pour.`, { tag: ["Already in this pour."] });
+    if (v.strandLotId) {
+      const lot = await trx.selectFrom("strand_lots").select("strand_size").where("project_id", "=", input.projectId).where("id", "=", v.strandLotId).executeTakeFirst();
+      if (!lot) throw new AppError("INVALID_INPUT", "Pick a strand lot of this project.", { strandLotId: ["Not a lot of this project."] });
+      if (lot.strand_size !== v.strandSize) throw new AppError("INVALID_INPUT", "The lot is another strand size.", { strandLotId: [`This lot is ${lot.strand_size} strand.`] });
+    }
+    const row = await trx
+      .insertInto("tendons")
+      .values({
+        project_id: input.projectId,
+        pour_id: input.pourId,
+        tag: v.tag,
+        kind: v.kind,
+        strand_size: v.strandSize,
+        strand_count: v.strandCount,
+        segments: JSON.stringify(v.segments),
+        ends: v.ends,
+        jack_grip_mm: v.jackGripMm,
+        shop_elongation_mm: v.shopElongationMm,
+        strand_lot_id: v.strandLotId,
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    return { tendonId: row.id };
+  });
+}

@@ -1,0 +1,38 @@
+import "server-only";
+import type { Db } from "@/db/connect";
+import { AppError } from "@/lib/errors";
+import type { ProjectSettings } from "@/lib/schemas/project-settings";
+
+export interface ProjectSettingsView extends ProjectSettings {
+  id: string;
+  code: string;
+}
+
+/** A project's settings in SI, as the settings form and the computations read them. */
+export async function getProjectSettings(db: Db, projectId: string): Promise<ProjectSettingsView> {
+  const p = await db.selectFrom("projects").selectAll().where("id", "=", projectId).executeTakeFirst();
+  if (!p) throw new AppError("NOT_FOUND", "No such project.");
+  return {
+    id: p.id,
+    code: p.code,
+    name: p.name,
+    address: p.address,
+    unitSystem: p.unit_system,
+    readingResolution: p.reading_resolution,
+    tolerancePct: p.tolerance_pct,
+    groupTolerancePct: p.group_tolerance_pct,
+    shortTendonFloorMm: p.short_tendon_floor_mm,
+    comparisonBasis: p.comparison_basis,
+    countJackGrip: p.count_jack_grip,
+    frictionMu: p.friction_mu,
+    wobblePerM: p.wobble_per_m,
+    anchorSetMm: p.anchor_set_mm,
+    calibrationValidityDays: p.calibration_validity_days,
+    requiredConcreteMPa: p.required_concrete_mpa,
+    engineerOfRecordName: p.engineer_of_record_name,
+    engineerOfRecordEmail: p.engineer_of_record_email,
+    notifyEmails: p.notify_emails,
+    blindEntry: p.blind_entry,
+    releaseBy: p.release_by,
+  };
+}
