@@ -1,0 +1,186 @@
+import Dexie, { type DexieOptions, type Table } from "dexie";
+import type { RecordPayload } from "@/lib/schemas/record";
+import type {
+  FieldCalibration,
+  FieldEquipmentSet,
+  FieldEvaluation,
+  FieldFlag,
+  FieldPour,
+  FieldProject,
+  FieldStrandLot,
+  FieldTendon,
+  OpError,
+  OpEvaluation,
+  OpKind,
+} from "@/lib/schemas/sync";
+
+/**
+ * The tablet's own database (IndexedDB through Dexie): the reference data of the pours taken
+ * out, the records made here and those the server sent, the outbox of operations waiting to be
+ * pushed, and the photos waiting to upload. Client-only. Keys are UUIDs made on the tablet or
+ * by the server; the outbox's auto-increment seq only orders this tablet's own operations.
+ */
+
+export type RecordSyncState = "pending" | "synced" | "conflict" | "rejected";
+
+/** The tablet's provisional verdict, worked out from lib/stressing at the moment of saving. */
+export interface LocalVerdict {
+  verdict: "in band" | "long" | "short";
+  deviationPct: number;
+  measuredMm: number;
+  predictedMm: number;
+  lowerMm: number;
+  upperMm: number;
+  provisional: boolean;
+  missingEnds: ("A" | "B")[];
+}
+
+export interface LocalRecord extends RecordPayload {
+  id: string;
+  syncState: RecordSyncState;
+  authorName: string;
+  savedAt: string;
+  local?: LocalVerdict | null;
+  server?: OpEvaluation | null;
+  /** Set on a revision's base once a newer revision exists here. */
+  supersededBy?: string | null;
+}
+
+export interface OutboxEntry {
+  seq?: number;
+  opId: string;
+  kind: OpKind;
+  recordId: string;
+  baseVersion?: number;
+  payload: RecordPayload;
+  authorUserId: string;
+  /** "pending" waits for a push; "attention" was refused by the server and waits for a person. */
+  state: "pending" | "attention";
+  createdAt: string;
+  attempts: number;
+  lastError?: string | null;
+  status?: "conflict" | "rejected";
+  error?: OpError;
+}
+
+export interface LocalPour extends FieldPour {
+  downloadedAt: string;
+  /** The server's cursor this pour was last pulled at. */
+  cursor: string;
+  /** Set when the server says the pour can no longer be taken out. */
+  unavailable?: boolean;
+}
+
+export interface LocalPhoto {
+  id: string;
+  recordId: string;
+  projectId: string;
+  blob: Blob;
+  contentType: string;
+  sizeBytes: number;
+  width: number;
+  height: number;
+  takenAt: string;
+  state: "queued" | "uploading" | "stored" | "failed";
+  uploadedBytes: number;
+  attachmentId?: string | null;
+  lastError?: string | null;
+}
+
+export interface SessionMeta {
+  userId: string;
+  name: string;
+  email: string;
+  /** Projects on which this person records, with the display name. */
+  projects: { projectId: string; projectName: string; projectCode: string }[];
+  checkedAt: string;
+}
+
+export interface SyncMeta {
+  lastConfirmedSyncAt: string | null;
+  lastAttemptAt: string | null;
+  lastError: string | null;
+  needsSignIn: boolean;
+  storagePersisted: boolean | null;
+}
+
+export interface MetaRow {
+  key: "device" | "session" | "sync";
+  value: unknown;
+}
+
+export class FieldDb extends Dexie {
+  meta!: Table<MetaRow, string>;
+  projects!: Table<FieldProject, string>;
+  pours!: Table<LocalPour, string>;
+  tendons!: Table<FieldTendon, string>;
+  strandLots!: Table<FieldStrandLot, string>;
+  equipmentSets!: Table<FieldEquipmentSet, string>;
+  calibrations!: Table<FieldCalibration, string>;
+  records!: Table<LocalRecord, string>;
+  evaluations!: Table<FieldEvaluation, string>;
+  flags!: Table<FieldFlag, string>;
+  outbox!: Table<OutboxEntry, number>;
+  photos!: Table<LocalPhoto, string>;
+
+  constructor(name = "tautline-field", options?: DexieOptions) {
+    super(name, options);
+    this.version(1).stores({
+      meta: "key",
+      projects: "id",
+      pours: "id, projectId",
+      tendons: "id, pourId, [pourId+tag]",
+      strandLots: "id, projectId",
+      equipmentSets: "id, projectId",
+      calibrations: "id, equipmentSetId, projectId",
+      records: "id, tendonId, chainId, pourId, syncState",
+      evaluations: "id, tendonId",
+      flags: "id, tendonId",
+      outbox: "++seq, &opId, recordId, state, authorUserId",
+      photos: "id, recordId, state",
+    });
+  }
+}
+
+let shared: FieldDb | undefined;
+
+/** The page's one database connection. */
+export function fieldDb(): FieldDb {
+  shared ??= new FieldDb();
+  return shared;
+}
+
+export async function readMeta<T>(db: FieldDb, key: MetaRow["key"]): Promise<T | undefined> {
+  return (await db.meta.get(key))?.value as T | undefined;
+}
+
+export async function writeMeta(db: FieldDb, key: MetaRow["key"], value: unknown): Promise<void> {
+  await db.meta.put({ key, value });
+}
+
+export const EMPTY_SYNC_META: SyncMeta = {
+  lastConfirmedSyncAt: null,
+  lastAttemptAt: null,
+  lastError: null,
+  needsSignIn: false,
+  storagePersisted: null,
+};
+
+export async function updateSyncMeta(db: FieldDb, change: Partial<SyncMeta>): Promise<SyncMeta> {
+  return db.transaction("rw", db.meta, async () => {
+    const next = { ...EMPTY_SYNC_META, ...(await readMeta<SyncMeta>(db, "sync")), ...change };
+    await writeMeta(db, "sync", next);
+    return next;
+  });
+}
+
+/** This tablet's id, made once and kept: the server records it with every operation. */
+export async function deviceId(db: FieldDb): Promise<string> {
+  return db.transaction("rw", db.meta, async () => {
+    const existing = await readMeta<string>(db, "device");
+    if (existing) return existing;
+    const made = `tablet-${crypto.randomUUID()}`;
+    await writeMeta(db, "device", made);
+    return made;
+  });
+}

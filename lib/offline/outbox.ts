@@ -1,0 +1,190 @@
+import { uuidv7 } from "uuidv7";
+import type { RecordPayload } from "@/lib/schemas/record";
+import type { OpResult } from "@/lib/schemas/sync";
+import type { FieldDb, LocalPhoto, LocalRecord, LocalVerdict, OutboxEntry } from "./db";
+
+/**
+ * The durable outbox. A record and its operation are written in one IndexedDB transaction, so a
+ * record never exists here without the op that will send it. An op leaves the outbox only when
+ * the server answers applied or duplicate; conflict and rejected move it to "needs attention",
+ * with the server's reason, for a person to deal with.
+ */
+
+export class OutboxWriteError extends Error {}
+
+export interface SaveInput {
+  payload: RecordPayload;
+  recordId: string;
+  authorName: string;
+  local: LocalVerdict | null;
+  photos?: Omit<LocalPhoto, "recordId" | "projectId" | "state" | "uploadedBytes">[];
+  now?: Date;
+}
+
+/** Saves a new record (revision 1, or a correction naming its base) with its outbox op. */
+export async function saveRecord(db: FieldDb, input: SaveInput): Promise<{ recordId: string; opId: string }> {
+  const { payload, recordId } = input;
+  const opId = crypto.randomUUID();
+  const now = (input.now ?? new Date()).toISOString();
+  const record: LocalRecord = {
+    ...payload,
+    id: recordId,
+    syncState: "pending",
+    authorName: input.authorName,
+    savedAt: now,
+    local: input.local,
+    server: null,
+    supersededBy: null,
+  };
+  const entry: OutboxEntry = {
+    opId,
+    kind: payload.revision === 1 ? "create" : "revise",
+    recordId,
+    ...(payload.revision > 1 ? { baseVersion: payload.revision - 1 } : {}),
+    payload,
+    authorUserId: payload.authorUserId,
+    state: "pending",
+    createdAt: now,
+    attempts: 0,
+  };
+  await db.transaction("rw", [db.records, db.outbox, db.photos], async () => {
+    if (payload.baseRecordId) {
+      const base = await db.records.get(payload.baseRecordId);
+      if (!base) throw new OutboxWriteError("The record being corrected is not on this tablet.");
+      if (base.supersededBy)
+        throw new OutboxWriteError("This record was already corrected: correct the newest revision.");
+      await db.records.update(base.id, { supersededBy: recordId });
+    }
+    await db.records.add(record);
+    await db.outbox.add(entry);
+    for (const photo of input.photos ?? []) {
+      await db.photos.add({ ...photo, recordId, projectId: payload.projectId, state: "queued", uploadedBytes: 0 });
+    }
+  });
+  // Read back what was written: a write the browser lost quietly must not look saved.
+  const [savedRecord, savedOps] = await Promise.all([
+    db.records.get(recordId),
+    db.outbox.where("opId").equals(opId).count(),
+  ]);
+  if (!savedRecord || savedOps !== 1)
+    throw new OutboxWriteError("The tablet did not keep the record. Nothing was saved; try again.");
+  return { recordId, opId };
+}
+
+/** A correction: the next revision of the chain whose newest revision is `head`, with a reason. */
+export function correctionOf(
+  head: LocalRecord,
+  changes: Partial<RecordPayload>,
+  reason: string,
+  now = new Date(),
+): { recordId: string; payload: RecordPayload } {
+  const { id, syncState, authorName, savedAt, local, server, supersededBy, ...payload } = head;
+  void syncState;
+  void authorName;
+  void savedAt;
+  void local;
+  void server;
+  void supersededBy;
+  return {
+    recordId: uuidv7(),
+    payload: {
+      ...payload,
+      ...changes,
+      revision: head.revision + 1,
+      baseRecordId: id,
+      revisionReason: reason,
+      deviceTime: now.toISOString(),
+    },
+  };
+}
+
+/** The ops of one person waiting to be pushed, oldest first. */
+export async function pendingOps(db: FieldDb, authorUserId: string, limit: number): Promise<OutboxEntry[]> {
+  const all = await db.outbox
+    .orderBy("seq")
+    .filter((e) => e.state === "pending" && e.authorUserId === authorUserId)
+    .limit(limit)
+    .toArray();
+  return all;
+}
+
+/** Takes the server's answers into the outbox and the records, in one transaction. */
+export async function applyPushResults(
+  db: FieldDb,
+  results: OpResult[],
+): Promise<{ confirmed: number; attention: number }> {
+  let confirmed = 0;
+  let attention = 0;
+  await db.transaction("rw", [db.outbox, db.records], async () => {
+    for (const result of results) {
+      const entry = await db.outbox.where("opId").equals(result.opId).first();
+      if (!entry || entry.state !== "pending") continue;
+      if (result.status === "applied" || result.status === "duplicate") {
+        await db.outbox.delete(entry.seq!);
+        await db.records.update(entry.recordId, {
+          syncState: "synced",
+          ...(result.evaluation ? { server: result.evaluation } : {}),
+        });
+        confirmed++;
+      } else {
+        await db.outbox.update(entry.seq!, {
+          state: "attention",
+          status: result.status,
+          error: result.error ?? {
+            code: result.status.toUpperCase(),
+            message: `The server answered ${result.status}.`,
+          },
+          lastError: result.error?.message ?? null,
+        });
+        await db.records.update(entry.recordId, { syncState: result.status });
+        attention++;
+      }
+    }
+  });
+  return { confirmed, attention };
+}
+
+/** Counts that an ongoing error should not hide: note the failure on each pending op. */
+export async function notePushFailure(db: FieldDb, seqs: number[], message: string): Promise<void> {
+  await db.transaction("rw", db.outbox, async () => {
+    for (const seq of seqs) {
+      const entry = await db.outbox.get(seq);
+      if (entry) await db.outbox.update(seq, { attempts: entry.attempts + 1, lastError: message });
+    }
+  });
+}
+
+export interface OutboxStatus {
+  pending: number;
+  oldestPendingAt: string | null;
+  attention: number;
+  photosQueued: number;
+}
+
+export async function outboxStatus(db: FieldDb): Promise<OutboxStatus> {
+  return db.transaction("r", [db.outbox, db.photos], async () => {
+    const pending = await db.outbox.where("state").equals("pending").toArray();
+    return {
+      pending: pending.length,
+      oldestPendingAt: pending.reduce<string | null>(
+        (oldest, e) => (!oldest || e.createdAt < oldest ? e.createdAt : oldest),
+        null,
+      ),
+      attention: await db.outbox.where("state").equals("attention").count(),
+      photosQueued: await db.photos.where("state").anyOf("queued", "uploading", "failed").count(),
+    };
+  });
+}
+
+/**
+ * Sends a refused op again under the same op id (safe: the server never applied it), once a
+ * person has dealt with the cause, say by signing in as its author.
+ */
+export async function requeue(db: FieldDb, opId: string): Promise<void> {
+  await db.transaction("rw", [db.outbox, db.records], async () => {
+    const entry = await db.outbox.where("opId").equals(opId).first();
+    if (entry?.state !== "attention") return;
+    await db.outbox.update(entry.seq!, { state: "pending", status: undefined, error: undefined });
+    await db.records.update(entry.recordId, { syncState: "pending" });
+  });
+}

@@ -1,0 +1,220 @@
+import fc from "fast-check";
+import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
+import { NextRequest } from "next/server";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import type { Db } from "@/db/connect";
+import type { SessionUser } from "@/lib/auth/session";
+import { deviceId, FieldDb, writeMeta } from "@/lib/offline/db";
+import { correctionOf, saveRecord } from "@/lib/offline/outbox";
+import { SyncClient, type Fetch } from "@/lib/offline/sync-client";
+import { createTestDatabase, type TestDatabase } from "../support/database";
+import { buildWorld, recordPayload, type SyncWorld } from "./sync-fixtures";
+
+/**
+ * Model-based test of the sync client against the real server: fast-check drives a tablet
+ * through creates, corrections, going offline and online, lost answers, double deliveries and
+ * restarts; the model is the set of records the tablet committed. After every step the server
+ * holds nothing the tablet did not make and its chains have no gaps; after quiescence every
+ * committed record is on the server exactly once.
+ */
+
+const state = vi.hoisted(() => ({ db: null as Db | null, user: null as SessionUser | null }));
+vi.mock("@/db", () => ({
+  get db() {
+    return state.db;
+  },
+}));
+vi.mock("@/lib/auth/session", async () => {
+  const { AppError } = await import("@/lib/errors");
+  return {
+    getSessionUser: async () => state.user,
+    requireUser: async () => {
+      if (!state.user) throw new AppError("UNAUTHENTICATED", "Sign in to continue.");
+      return state.user;
+    },
+  };
+});
+const { POST: push } = await import("@/app/api/sync/push/route");
+const { GET: pull } = await import("@/app/api/sync/pull/route");
+const { GET: download } = await import("@/app/api/field/pours/[pourId]/route");
+
+const ORIGIN = process.env.APP_URL ?? "http://localhost:3000";
+let t: TestDatabase;
+let w: SyncWorld;
+
+beforeAll(async () => {
+  t = await createTestDatabase({ migrate: true });
+  w = await buildWorld(t.db);
+  state.db = t.db;
+  state.user = { id: w.crew.id, email: w.crew.email, name: "Crew", isOperator: false, memberships: w.crew.memberships.map((m) => ({ ...m, projectName: "", projectCode: "" })) };
+});
+afterAll(async () => {
+  await t.drop();
+});
+
+interface Net {
+  online: boolean;
+  dropNextPush: boolean;
+  duplicateNextPush: boolean;
+}
+
+/** The tablet's network: the real route handlers behind switchable faults. */
+function network(net: Net): Fetch {
+  return async (url, init) => {
+    if (!net.online) throw new TypeError("Failed to fetch");
+    const request = () =>
+      new NextRequest(`${ORIGIN}${url}`, {
+        method: init?.method ?? "GET",
+        body: init?.body as string | undefined,
+        headers: { ...(init?.headers as Record<string, string> | undefined), origin: ORIGIN },
+      });
+    if (url.startsWith("/api/sync/push")) {
+      const ctx = { params: Promise.resolve({}) };
+      if (net.dropNextPush) {
+        net.dropNextPush = false;
+        await push(request(), ctx); // the server commits…
+        throw new TypeError("connection reset"); // …and the answer never arrives
+      }
+      if (net.duplicateNextPush) {
+        net.duplicateNextPush = false;
+        await push(request(), ctx);
+      }
+      return push(request(), ctx);
+    }
+    if (url.startsWith("/api/sync/pull")) return pull(request(), { params: Promise.resolve({}) });
+    const pourId = url.split("/").pop()!;
+    return download(request(), { params: Promise.resolve({ pourId }) });
+  };
+}
+
+interface Model {
+  /** recordId → chain and revision, for every record the tablet committed. */
+  records: Map<string, { chainId: string; revision: number }>;
+  /** chainId → newest committed revision's record id. */
+  heads: Map<string, string>;
+}
+
+class Tablet {
+  db: FieldDb;
+  client: SyncClient;
+  constructor(
+    readonly name: string,
+    readonly factory: IDBFactory,
+    readonly net: Net,
+  ) {
+    this.db = new FieldDb(name, { indexedDB: factory, IDBKeyRange });
+    this.client = new SyncClient({ db: this.db, fetch: network(net), locks: null, random: () => 0.5 });
+  }
+  restart() {
+    this.db.close();
+    this.db = new FieldDb(this.name, { indexedDB: this.factory, IDBKeyRange });
+    this.client = new SyncClient({ db: this.db, fetch: network(this.net), locks: null, random: () => 0.5 });
+  }
+}
+
+type Cmd = fc.AsyncCommand<Model, Tablet>;
+
+/** Server rows of this tablet: nothing it did not make, chains without gaps. */
+async function checkServer(model: Model, tablet: Tablet) {
+  const device = await deviceId(tablet.db);
+  const rows = await t.db.selectFrom("records").select(["id", "chain_id", "revision"]).where("device_id", "=", device).execute();
+  for (const row of rows) expect(model.records.get(row.id), `server row ${row.id} not made by the tablet`).toEqual({ chainId: row.chain_id, revision: row.revision });
+  const byChain = new Map<string, number[]>();
+  for (const row of rows) byChain.set(row.chain_id, [...(byChain.get(row.chain_id) ?? []), row.revision]);
+  for (const revisions of byChain.values()) expect(revisions.sort((a, b) => a - b)).toEqual(revisions.map((_, i) => i + 1));
+  return rows;
+}
+
+class CreateCmd implements Cmd {
+  constructor(readonly tendon: number) {}
+  check = () => true;
+  async run(model: Model, tablet: Tablet) {
+    const { recordId, payload } = recordPayload(w, w.tendons[this.tendon]!.id, {}, { deviceTime: new Date().toISOString() });
+    await saveRecord(tablet.db, { recordId, payload, authorName: "Crew", local: null });
+    model.records.set(recordId, { chainId: recordId, revision: 1 });
+    model.heads.set(recordId, recordId);
+  }
+  toString = () => `create(${this.tendon})`;
+}
+
+class ReviseCmd implements Cmd {
+  constructor(readonly pick: number) {}
+  check = (model: Readonly<Model>) => model.heads.size > 0;
+  async run(model: Model, tablet: Tablet) {
+    const chains = [...model.heads.keys()];
+    const chainId = chains[this.pick % chains.length]!;
+    const head = (await tablet.db.records.get(model.heads.get(chainId)!))!;
+    const fix = correctionOf(head, { remarks: `correction ${head.revision + 1}` }, "Second reading of the mark");
+    await saveRecord(tablet.db, { ...fix, authorName: "Crew", local: null });
+    model.records.set(fix.recordId, { chainId, revision: fix.payload.revision });
+    model.heads.set(chainId, fix.recordId);
+  }
+  toString = () => `revise(${this.pick})`;
+}
+
+const netCmd = (name: string, change: (net: Net) => void): Cmd => ({
+  check: () => true,
+  run: async (_m, tablet) => change(tablet.net),
+  toString: () => name,
+});
+
+class SyncCmd implements Cmd {
+  check = () => true;
+  async run(model: Model, tablet: Tablet) {
+    await tablet.client.sync({ force: true });
+    await checkServer(model, tablet);
+    expect(await tablet.db.outbox.where("state").equals("attention").count()).toBe(0);
+  }
+  toString = () => "sync";
+}
+
+class RestartCmd implements Cmd {
+  check = () => true;
+  async run(model: Model, tablet: Tablet) {
+    tablet.restart();
+    // Nothing committed is lost across a restart.
+    for (const id of model.records.keys()) expect(await tablet.db.records.get(id)).toBeDefined();
+  }
+  toString = () => "restart";
+}
+
+describe("sync client against the real server (model-based)", () => {
+  it("after quiescence every committed record is on the server exactly once", async () => {
+    const create = fc.integer({ min: 0, max: 40 }).map((i) => new CreateCmd(i));
+    const sync = fc.constant(new SyncCmd());
+    // Creates and syncs are listed twice so runs carry work through the faults.
+    const commands = [
+      create,
+      create,
+      fc.nat(50).map((i) => new ReviseCmd(i)),
+      sync,
+      fc.constant(netCmd("offline", (n) => (n.online = false))),
+      fc.constant(netCmd("online", (n) => (n.online = true))),
+      fc.constant(netCmd("dropResponse", (n) => (n.dropNextPush = true))),
+      fc.constant(netCmd("deliverTwice", (n) => (n.duplicateNextPush = true))),
+      fc.constant(new SyncCmd()),
+      fc.constant(new RestartCmd()),
+    ];
+    await fc.assert(
+      fc.asyncProperty(fc.commands(commands, { maxCommands: 40 }), async (cmds) => {
+        const net: Net = { online: true, dropNextPush: false, duplicateNextPush: false };
+        const tablet = new Tablet(`model-${crypto.randomUUID()}`, new IDBFactory(), net);
+        await writeMeta(tablet.db, "session", { userId: w.crew.id, name: "Crew", email: w.crew.email, projects: [], checkedAt: new Date().toISOString() });
+        expect(await tablet.client.download(w.pourId)).toEqual({ ok: true });
+        const model: Model = { records: new Map(), heads: new Map() };
+        await fc.asyncModelRun(() => ({ model, real: tablet }), cmds);
+
+        // Quiescence: the connection comes back and stays.
+        Object.assign(net, { online: true, dropNextPush: false, duplicateNextPush: false });
+        for (let i = 0; i < 5 && (await tablet.db.outbox.count()) > 0; i++) await tablet.client.sync({ force: true });
+        expect(await tablet.db.outbox.count()).toBe(0);
+        const rows = await checkServer(model, tablet);
+        expect(rows.map((r) => r.id).sort()).toEqual([...model.records.keys()].sort());
+        const local = await tablet.db.records.where("syncState").notEqual("synced").count();
+        expect(local).toBe(0);
+        tablet.db.close();
+      }),
+      { numRuns: 100 },
+    );
+  }, 300_000);
+});
