@@ -7,7 +7,11 @@ import { DEFAULT_UNITS, formatForce, formatLength, formatPressure, type ReadingR
 
 export type StoredResolution = "1/8in" | "1/16in" | "1mm";
 
-const RESOLUTIONS: Record<StoredResolution, ReadingResolution> = { "1/8in": "1/8 in", "1/16in": "1/16 in", "1mm": "1 mm" };
+const RESOLUTIONS: Record<StoredResolution, ReadingResolution> = {
+  "1/8in": "1/8 in",
+  "1/16in": "1/16 in",
+  "1mm": "1 mm",
+};
 
 export function readingResolution(stored: StoredResolution): ReadingResolution {
   return RESOLUTIONS[stored];
@@ -28,7 +32,9 @@ export function showLength(project: DisplayUnits, mm: number): string {
 
 /** Lengths that are computed, not read (predictions, bands): one finer step than a reading. */
 export function showComputedLength(project: DisplayUnits, mm: number): string {
-  return project.unitSystem === "us" ? `${(mm / 25.4).toFixed(2)} in` : `${mm.toFixed(1)} mm`;
+  if (project.unitSystem === "si") return Math.abs(mm) >= 10_000 ? `${(mm / 1000).toFixed(2)} m` : `${mm.toFixed(1)} mm`;
+  const inches = mm / 25.4;
+  return Math.abs(inches) >= 120 ? `${(inches / 12).toFixed(2)} ft` : `${inches.toFixed(2)} in`;
 }
 
 export function showForce(project: DisplayUnits, n: number): string {

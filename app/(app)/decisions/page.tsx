@@ -1,17 +1,39 @@
 import { redirect } from "next/navigation";
-import { ProjectsForRole } from "@/components/shell/projects-for-role";
+import { FlagQueue } from "@/components/review/flag-queue";
+import { ReleaseList } from "@/components/review/release-list";
+import { Caution } from "@/components/ui/caution";
+import { db } from "@/db";
 import { getSessionUser } from "@/lib/auth/session";
+import { findFlags } from "@/lib/server/find-flags";
+import { findReleaseCandidates } from "@/lib/server/find-release-candidates";
 
 export const metadata = { title: "Decisions" };
 
 export default async function DecisionsPage() {
   const user = await getSessionUser();
   if (!user) redirect("/sign-in");
+  const projectIds = user.memberships.filter((m) => m.role === "engineer").map((m) => m.projectId);
+  const releaseRule = await db.selectFrom("projects").select(["id", "release_by"]).where("id", "in", projectIds.length ? projectIds : ["00000000-0000-4000-8000-000000000000"]).execute();
+  const [waiting, pours] = await Promise.all([
+    findFlags(db, { projectIds, filter: { status: "any_open" } }),
+    findReleaseCandidates(db, projectIds),
+  ]);
   return (
-    <main>
+    <main className="space-y-10">
       <h1 className="text-figure font-bold">Decisions</h1>
-      <p className="mt-2 text-ink-soft">The projects on which you are the engineer of record.</p>
-      <ProjectsForRole user={user} roles={["engineer"]} links={() => []} empty="You are engineer of record on no project." />
+      <section aria-labelledby="waiting-heading" className="space-y-3">
+        <h2 id="waiting-heading" className="text-lead font-bold">
+          Flags waiting for a disposition ({waiting.length} tendons)
+        </h2>
+        <FlagQueue tendons={waiting} empty="No flag is waiting for you." />
+      </section>
+      <section aria-labelledby="release-heading" className="space-y-3">
+        <h2 id="release-heading" className="text-lead font-bold">
+          Pours and their release
+        </h2>
+        <ReleaseList pours={pours} canRelease={(id) => releaseRule.find((r) => r.id === id)?.release_by === "engineer"} />
+      </section>
+      <Caution />
     </main>
   );
 }

@@ -1,17 +1,104 @@
 import { redirect } from "next/navigation";
-import { ProjectsForRole } from "@/components/shell/projects-for-role";
+import { FlagQueue } from "@/components/review/flag-queue";
+import { ReleaseList } from "@/components/review/release-list";
+import { Caution } from "@/components/ui/caution";
+import { flagLabel } from "@/components/ui/verdict-badge";
+import { db } from "@/db";
+import { can } from "@/lib/auth/permissions";
 import { getSessionUser } from "@/lib/auth/session";
+import { flagFilterSchema } from "@/lib/schemas/review";
+import { findFlags } from "@/lib/server/find-flags";
+import { findReleaseCandidates } from "@/lib/server/find-release-candidates";
 
 export const metadata = { title: "Flags to review" };
 
-export default async function ReviewPage() {
+const KINDS = flagFilterSchema.shape.kind.unwrap().options;
+
+export default async function ReviewPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const user = await getSessionUser();
   if (!user) redirect("/sign-in");
+  const raw = Object.fromEntries(Object.entries(await searchParams).map(([k, v]) => [k, Array.isArray(v) ? v[0] : v]).filter(([, v]) => v));
+  const parsed = flagFilterSchema.safeParse(raw);
+  const filter = parsed.success ? parsed.data : flagFilterSchema.parse({});
+  const projects = user.memberships.filter((m) => can(m.role, "flag.review"));
+  const allowedIds = projects.map((p) => p.projectId);
+  const tendons = await findFlags(db, {
+    projectIds: filter.projectId ? allowedIds.filter((id) => id === filter.projectId) : allowedIds,
+    filter,
+  });
+  const pours = [...new Map(tendons.map((t) => [t.pourId, t.pourName])).entries()];
+  // On projects whose rule gives the release to the inspector, the pours to release are here too.
+  const inspectorProjects = projects.filter((p) => p.role === "inspector").map((p) => p.projectId);
+  const releasing = inspectorProjects.length
+    ? await db.selectFrom("projects").select("id").where("id", "in", inspectorProjects).where("release_by", "=", "inspector").execute()
+    : [];
+  const releasable = await findReleaseCandidates(db, releasing.map((r) => r.id));
+
   return (
-    <main>
+    <main className="space-y-6">
       <h1 className="text-figure font-bold">Flags to review</h1>
-      <p className="mt-2 text-ink-soft">The projects whose flagged records you review.</p>
-      <ProjectsForRole user={user} roles={["inspector", "engineer"]} links={() => []} empty="You review no project." />
+      <p className="text-ink-soft">Every open flag on your projects, one tendon per card, oldest first.</p>
+      {!parsed.success && <p className="card">Some filters in the address were not understood and were left out.</p>}
+      <form className="card grid gap-4 md:grid-cols-5 md:items-end" method="get" aria-label="Filter the flags">
+        <div>
+          <label htmlFor="f-project" className="field-label">
+            Project
+          </label>
+          <select id="f-project" name="projectId" defaultValue={filter.projectId ?? ""} className="field-input mt-1">
+            <option value="">All</option>
+            {projects.map((p) => (
+              <option key={p.projectId} value={p.projectId}>
+                {p.projectName}
+              </option>
+            ))}
+          </select>
+        </div>
+        <div>
+          <label htmlFor="f-pour" className="field-label">
+            Pour
+          </label>
+          <select id="f-pour" name="pourId" defaultValue={filter.pourId ?? ""} className="field-input mt-1">
+            <option value="">All</option>
+            {pours.map(([id, name]) => (
+              <option key={id} value={id}>
+                {name}
+              </option>
+            ))}
+          </select>
+        </div>
+        <div>
+          <label htmlFor="f-kind" className="field-label">
+            Flag
+          </label>
+          <select id="f-kind" name="kind" defaultValue={filter.kind ?? ""} className="field-input mt-1">
+            <option value="">All</option>
+            {KINDS.map((k) => (
+              <option key={k} value={k}>
+                {flagLabel(k)}
+              </option>
+            ))}
+          </select>
+        </div>
+        <div>
+          <label htmlFor="f-age" className="field-label">
+            Older than (hours)
+          </label>
+          <input id="f-age" name="olderThanHours" inputMode="numeric" defaultValue={filter.olderThanHours ?? ""} className="field-input mt-1" />
+        </div>
+        <button type="submit" className="btn-primary">
+          Filter
+        </button>
+      </form>
+      <FlagQueue tendons={tendons} empty={projects.length ? "No open flag matches. Records that pass every check do not appear here." : "You review no project."} />
+      {releasable.length > 0 && (
+        <section aria-labelledby="release-heading" className="space-y-3">
+          <h2 id="release-heading" className="text-lead font-bold">
+            Pours you release
+          </h2>
+          <ReleaseList pours={releasable} canRelease={() => true} />
+        </section>
+      )}
+      <Caution />
     </main>
   );
 }

@@ -1,0 +1,164 @@
+import { ForceProfileChart } from "@/components/review/force-profile-chart";
+import { VerdictBadge } from "@/components/ui/verdict-badge";
+import type { Verdict } from "@/db/types";
+import { showComputedLength, showForce, showLength, showPct } from "@/lib/stressing/display";
+import type { TendonCase } from "@/lib/server/get-tendon-case";
+
+const deg = (rad: number) => `${((rad * 180) / Math.PI).toFixed(2)}°`;
+
+function Row({ label, value, source }: { label: string; value: string; source?: string }) {
+  return (
+    <tr className="border-b border-concrete-200">
+      <th scope="row" className="py-2 pr-4 text-left font-normal text-ink-soft">
+        {label}
+      </th>
+      <td className="py-2 pr-4 text-right font-semibold tabular-nums">{value}</td>
+      <td className="py-2 text-label text-ink-faint">{source}</td>
+    </tr>
+  );
+}
+
+interface Judgement {
+  measuredMm: number;
+  missingEnds: string[];
+  comparison: { deviationPct: number; verdict: Verdict; bandMm: number; lowerMm: number; upperMm: number; impliedForceN: number | null };
+}
+
+/** The computation, read top to bottom like a calculation sheet: inputs, steps, result. */
+export function ComputationSheet({ c }: { c: TendonCase }) {
+  const { basis, predicted, profile, segments } = c;
+  const p = basis.project;
+  if (!predicted || !profile) {
+    return <p className="card">The prediction could not be computed: {c.computationError}</p>;
+  }
+  const e = predicted.prediction;
+  const judgement = (c.evaluation?.result as { judgement?: Judgement | null } | undefined)?.judgement ?? null;
+  const totalLength = segments.at(-1)?.endMm ?? 0;
+  return (
+    <div className="space-y-8">
+      <section aria-labelledby="inputs-heading">
+        <h3 id="inputs-heading" className="text-lead font-bold">
+          1. Inputs
+        </h3>
+        <table className="mt-2 w-full">
+          <tbody>
+            <Row label="Strand" value={`${basis.tendon.strandCount} × ${basis.tendon.strandSize}`} source="Tendon schedule" />
+            <Row
+              label="Area per strand"
+              value={`${predicted.strand.areaMm2.toFixed(1)} mm²`}
+              source={predicted.strand.source === "strand lot" ? `Mill certificate, lot ${basis.lot?.lotNumber}` : "ASTM A416 nominal"}
+            />
+            <Row
+              label="Modulus E"
+              value={`${(predicted.strand.modulusMPa / 1000).toFixed(1)} GPa`}
+              source={predicted.strand.source === "strand lot" ? `Mill certificate, lot ${basis.lot?.lotNumber}` : "28,500 ksi default (AASHTO LRFD 5.4.4.2)"}
+            />
+            <Row label="Jacking force Pj" value={showForce(p, predicted.jackingForceN)} source="0.80 × specified breaking load (ACI 318-19 Table 20.3.2.5.1)" />
+            <Row label="Tendon length" value={showComputedLength(p, totalLength)} source={`${segments.length} segments, schedule profile`} />
+            <Row label="Curvature friction μ" value={String(p.frictionMu)} source="Project setting" />
+            <Row label="Wobble K" value={`${p.wobblePerM.toFixed(5)} per m (${(p.wobblePerM / 3.280839895).toFixed(5)} per ft)`} source="Project setting" />
+            <Row label="Anchor set" value={showComputedLength(p, p.anchorSetMm)} source="Project setting" />
+            <Row label="Strand inside the jack" value={predicted.gripMm ? showComputedLength(p, predicted.gripMm) : "not counted"} source="Project basis" />
+            <Row label="Stressed from" value={basis.tendon.ends === "both" ? "both ends" : `end ${basis.tendon.ends}`} source="Tendon schedule" />
+          </tbody>
+        </table>
+      </section>
+
+      <section aria-labelledby="steps-heading">
+        <h3 id="steps-heading" className="text-lead font-bold">
+          2. Friction, segment by segment
+        </h3>
+        <p className="mt-1 text-ink-soft">
+          P(x) = Pj·e<sup>−(K·x + μ·α)</sup>; each segment stretches Δ = P·L·(1 − e<sup>−β</sup>)/(β·A·E) with β = K·L + μ·α.
+        </p>
+        <div className="mt-2 overflow-x-auto">
+          <table className="w-full min-w-[560px]">
+            <thead>
+              <tr className="border-b-2 border-ink text-left text-label uppercase">
+                <th className="py-2">Segment</th>
+                <th className="py-2 text-right">Length</th>
+                <th className="py-2 text-right">Angle change α</th>
+                <th className="py-2 text-right">β</th>
+                <th className="py-2 text-right">Ends at</th>
+              </tr>
+            </thead>
+            <tbody className="tabular-nums">
+              {segments.map((s) => (
+                <tr key={s.index} className="border-b border-concrete-200">
+                  <td className="py-1">{s.index}</td>
+                  <td className="py-1 text-right">{showComputedLength(p, s.lengthMm)}</td>
+                  <td className="py-1 text-right">
+                    {s.angleRad.toFixed(4)} rad ({deg(s.angleRad)})
+                  </td>
+                  <td className="py-1 text-right">{s.beta.toFixed(5)}</td>
+                  <td className="py-1 text-right">{showComputedLength(p, s.endMm)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+        <div className="card mt-4">
+          <ForceProfileChart profile={profile} formatForce={(n) => showForce(p, n)} formatLength={(mm) => showComputedLength(p, mm)} />
+        </div>
+      </section>
+
+      <section aria-labelledby="set-heading">
+        <h3 id="set-heading" className="text-lead font-bold">
+          3. Elongation and anchor set
+        </h3>
+        <table className="mt-2 w-full">
+          <tbody>
+            {e.perEndMm.A !== undefined && <Row label="From end A" value={showComputedLength(p, e.perEndMm.A)} />}
+            {e.perEndMm.B !== undefined && <Row label="From end B" value={showComputedLength(p, e.perEndMm.B)} />}
+            <Row label="Gross at jacking" value={showComputedLength(p, e.grossMm)} source="Σ segments (+ strand in jack)" />
+            <Row label="Net of anchor set" value={showComputedLength(p, e.netMm)} source="Gross − anchor set at each stressed end" />
+            <Row label="Force at the far end / meeting point" value={showForce(p, e.farEndForceN)} />
+            <Row label="Average force" value={showForce(p, e.averageForceN)} />
+            {e.seating && (
+              <>
+                <Row label="Anchor-set influence length" value={showComputedLength(p, e.seating.influenceMm)} source="√(Δset·A·E/p)" />
+                <Row label="Force at the anchor after seating" value={showForce(p, e.seating.anchorForceAfterN)} source="Check: ≤ 0.70·fpu·A" />
+              </>
+            )}
+          </tbody>
+        </table>
+      </section>
+
+      <section aria-labelledby="result-heading">
+        <h3 id="result-heading" className="text-lead font-bold">
+          4. Result
+        </h3>
+        <table className="mt-2 w-full">
+          <tbody>
+            <Row
+              label={`Predicted, ${p.comparisonBasis === "net" ? "net of anchor set" : "gross at jacking"}`}
+              value={showComputedLength(p, predicted.predictedMm)}
+              source="Project comparison basis"
+            />
+            {judgement && (
+              <>
+                <Row label="Measured (sum of ends read)" value={showLength(p, judgement.measuredMm)} source="Stressing records, latest revisions" />
+                <Row
+                  label={`Band ±${p.tolerancePct} %${p.shortTendonFloorMm ? `, at least ±${showComputedLength(p, p.shortTendonFloorMm)}` : ""}`}
+                  value={`${showComputedLength(p, judgement.comparison.lowerMm)} to ${showComputedLength(p, judgement.comparison.upperMm)}`}
+                  source="ACI 318 §26.10 practice; project rule"
+                />
+                <Row label="Deviation" value={showPct(judgement.comparison.deviationPct)} source="(measured − predicted)/predicted" />
+                {judgement.comparison.impliedForceN !== null && (
+                  <Row label="Force implied by the elongation" value={showForce(p, judgement.comparison.impliedForceN)} source="Pj · measured/predicted" />
+                )}
+              </>
+            )}
+          </tbody>
+        </table>
+        <div className="mt-4">
+          {c.evaluation ? (
+            <VerdictBadge verdict={c.evaluation.verdict} deviationPct={c.evaluation.deviation_pct} provisional={c.evaluation.provisional} />
+          ) : (
+            <p className="text-ink-soft">No stressing record has reached the server for this tendon yet.</p>
+          )}
+        </div>
+      </section>
+    </div>
+  );
+}

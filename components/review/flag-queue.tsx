@@ -1,0 +1,40 @@
+import Link from "next/link";
+import { FlagChip, VerdictBadge } from "@/components/ui/verdict-badge";
+import type { FlaggedTendon } from "@/lib/server/find-flags";
+
+const age = (d: Date) => {
+  const hours = (Date.now() - new Date(d).getTime()) / 3600_000;
+  if (hours < 1) return `${Math.max(1, Math.round(hours * 60))} min`;
+  if (hours < 48) return `${Math.round(hours)} h`;
+  return `${Math.round(hours / 24)} days`;
+};
+
+/** Flagged tendons, one card each, oldest first. */
+export function FlagQueue({ tendons, empty }: { tendons: FlaggedTendon[]; empty: string }) {
+  if (!tendons.length) return <p className="card">{empty}</p>;
+  return (
+    <ul className="space-y-3">
+      {tendons.map((t) => (
+        <li key={t.tendonId} className="card flex flex-wrap items-center gap-4">
+          <div className="min-w-48 flex-1">
+            <p className="text-label uppercase text-ink-faint">
+              {t.projectName} · {t.pourName} · oldest flag {age(t.oldest)} ago
+            </p>
+            <Link href={`/projects/${t.projectId}/tendons/${t.tendonId}/flags`} className="text-lead font-bold">
+              Tendon {t.tag}
+            </Link>
+            <div className="mt-2 flex flex-wrap gap-2">
+              {t.flags.map((f) => (
+                <FlagChip key={f.id} kind={f.kind} status={f.status} />
+              ))}
+            </div>
+          </div>
+          {t.verdict && <VerdictBadge verdict={t.verdict} deviationPct={t.deviationPct} />}
+          <Link href={`/projects/${t.projectId}/tendons/${t.tendonId}/flags`} className="btn-primary">
+            Open
+          </Link>
+        </li>
+      ))}
+    </ul>
+  );
+}

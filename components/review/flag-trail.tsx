@@ -1,0 +1,77 @@
+import { FlagChip } from "@/components/ui/verdict-badge";
+import { DECISION_LABELS } from "@/lib/schemas/review";
+import type { TendonCase } from "@/lib/server/get-tendon-case";
+
+const REVIEW_LABELS: Record<string, string> = {
+  note: "Note",
+  remeasured: "Re-measured",
+  paperwork_error: "Paperwork error found",
+  photo: "Photo",
+  sent_to_engineer: "Sent to the engineer",
+  closed_paperwork: "Closed as paperwork",
+};
+
+const when = (d: Date | string) => new Date(d).toLocaleString("en-US", { dateStyle: "medium", timeStyle: "short", timeZone: "UTC" }) + " UTC";
+
+/** Each flag with its reason and its whole trail: findings, dispositions, closing. */
+export function FlagTrail({ c, showLength }: { c: TendonCase; showLength: (mm: number) => string }) {
+  if (!c.flags.length) return <p className="card">No flag has been raised on this tendon.</p>;
+  return (
+    <ol className="space-y-4">
+      {c.flags.map((flag) => {
+        const trail = [
+          ...c.reviews.filter((r) => r.flag_id === flag.id).map((r) => ({ at: r.created_at, kind: "review" as const, r })),
+          ...c.dispositions.filter((d) => d.flag_id === flag.id).map((d) => ({ at: d.created_at, kind: "disposition" as const, d })),
+        ].sort((a, b) => +new Date(a.at) - +new Date(b.at));
+        return (
+          <li key={flag.id} className="card" data-flag-kind={flag.kind}>
+            <div className="flex flex-wrap items-center gap-3">
+              <FlagChip kind={flag.kind} status={flag.status} />
+              <span className="text-label text-ink-faint">raised {when(flag.created_at)}</span>
+            </div>
+            <p className="mt-2">{flag.reason}</p>
+            {trail.length > 0 && (
+              <ol className="mt-3 space-y-2 border-l-4 border-concrete-300 pl-4">
+                {trail.map((item) =>
+                  item.kind === "review" ? (
+                    <li key={item.r.id}>
+                      <p className="text-label font-bold uppercase">
+                        {REVIEW_LABELS[item.r.kind] ?? item.r.kind} · {item.r.author} · {when(item.r.created_at)}
+                      </p>
+                      <p>
+                        {item.r.body}
+                        {item.r.remeasured_mm !== null && <strong> Re-measured: {showLength(item.r.remeasured_mm)}.</strong>}
+                        {item.r.attachment_id && (
+                          <>
+                            {" "}
+                            <a href={`/api/attachments/${item.r.attachment_id}`}>Open the photo</a>
+                          </>
+                        )}
+                      </p>
+                    </li>
+                  ) : (
+                    <li key={item.d.id} className="rounded-md bg-concrete-100 p-3">
+                      <p className="text-label font-bold uppercase">
+                        Disposition: {DECISION_LABELS[item.d.decision]} · {when(item.d.created_at)}
+                      </p>
+                      <p>{item.d.reasons}</p>
+                      <p className="mt-1 text-label">
+                        {item.d.engineer_name} — {item.d.licence_statement}
+                      </p>
+                    </li>
+                  ),
+                )}
+              </ol>
+            )}
+            {flag.status === "closed" && (
+              <p className="mt-3 text-label">
+                Closed {flag.closed_at ? when(flag.closed_at) : ""}
+                {flag.closedByName ? ` by ${flag.closedByName}` : ""}: {flag.close_reason}
+              </p>
+            )}
+          </li>
+        );
+      })}
+    </ol>
+  );
+}

@@ -1,0 +1,76 @@
+import type { TendonCase } from "@/lib/server/get-tendon-case";
+import { CorrectionForm } from "./flag-actions";
+
+/** Every stressing record of the tendon, all revisions, oldest first; photos link to the files. */
+export function RecordsTable({
+  c,
+  showLength,
+  showPressure,
+  canCorrect,
+  unit,
+}: {
+  c: TendonCase;
+  showLength: (mm: number) => string;
+  showPressure: (mpa: number) => string;
+  canCorrect: boolean;
+  unit: "in" | "mm";
+}) {
+  if (!c.records.length) return <p className="card">No stressing record has reached the server for this tendon yet.</p>;
+  const heads = new Set(
+    [...new Map(c.records.map((r) => [r.chain_id, r])).values()].map((r) => r.id),
+  );
+  // The Map above keeps the last revision of each chain, since records come ordered by revision.
+  return (
+    <div className="overflow-x-auto">
+      <table className="w-full min-w-[720px] bg-white">
+        <thead>
+          <tr className="border-b-2 border-ink text-left text-label uppercase">
+            <th className="p-2">End</th>
+            <th className="p-2">Stressed</th>
+            <th className="p-2">Equipment</th>
+            <th className="p-2 text-right">Gauge</th>
+            <th className="p-2 text-right">Elongation</th>
+            <th className="p-2">By</th>
+            <th className="p-2">Notes</th>
+          </tr>
+        </thead>
+        <tbody className="tabular-nums">
+          {c.records.map((r) => {
+            const photos = c.photos.filter((p) => p.record_id === r.id);
+            return (
+              <tr key={r.id} className={`border-b border-concrete-200 align-top ${heads.has(r.id) ? "" : "text-ink-faint line-through decoration-1"}`}>
+                <td className="p-2 font-bold">{r.tendon_end}</td>
+                <td className="p-2">
+                  {new Date(r.device_time).toLocaleString("en-US", { dateStyle: "short", timeStyle: "short", timeZone: r.device_time_zone })}
+                  <span className="block text-label">{r.device_time_zone}</span>
+                </td>
+                <td className="p-2">{r.equipmentSet}</td>
+                <td className="p-2 text-right">
+                  {r.initial_pressure_mpa ? `${showPressure(r.initial_pressure_mpa)} → ` : ""}
+                  {showPressure(r.final_pressure_mpa)}
+                </td>
+                <td className="p-2 text-right font-semibold">{showLength(r.measured_mm)}</td>
+                <td className="p-2">{r.author}</td>
+                <td className="p-2">
+                  {r.revision > 1 && (
+                    <span className="block">
+                      Revision {r.revision}: {r.revision_reason}
+                    </span>
+                  )}
+                  {r.wire_breaks > 0 && <span className="block font-bold">{r.wire_breaks} wire break(s)</span>}
+                  {r.remarks && <span className="block">{r.remarks}</span>}
+                  {photos.map((p, i) => (
+                    <a key={p.id} href={`/api/attachments/${p.id}`} className="block">
+                      Photo {i + 1}
+                    </a>
+                  ))}
+                  {canCorrect && heads.has(r.id) && <CorrectionForm projectId={c.basis.project.id} recordId={r.id} unit={unit} />}
+                </td>
+              </tr>
+            );
+          })}
+        </tbody>
+      </table>
+    </div>
+  );
+}

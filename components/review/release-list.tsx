@@ -1,0 +1,37 @@
+import { ReleaseForm } from "@/components/review/release-card";
+import type { ReleaseCandidate } from "@/lib/server/find-release-candidates";
+
+export function ReleaseList({ pours, canRelease }: { pours: ReleaseCandidate[]; canRelease: (projectId: string) => boolean }) {
+  if (!pours.length) return <p className="card">No pour is waiting on you.</p>;
+  return (
+    <ul className="grid gap-4 md:grid-cols-2">
+      {pours.map((p) => {
+        const openTendons = [...new Set(p.blockers.openFlags.map((f) => f.tendonTag))];
+        const clear = !openTendons.length && !p.blockers.unstressed.length;
+        return (
+          <li key={p.pourId} className="card" data-pour={p.pourName}>
+            <p className="text-label uppercase text-ink-faint">{p.projectName}</p>
+            <h3 className="text-lead font-bold">{p.pourName}</h3>
+            {p.releasedBy ? (
+              <p className="mt-2 font-semibold">
+                ✓ Released by {p.releasedBy} on {p.releasedAt ? new Date(p.releasedAt).toUTCString() : ""}
+              </p>
+            ) : (
+              <>
+                <p className="mt-2">
+                  {p.tendonCount} tendons · {openTendons.length} with open flags · {p.blockers.unstressed.length} with ends not recorded
+                </p>
+                {openTendons.length > 0 && <p className="mt-1 text-ink-soft">Open flags on {openTendons.slice(0, 8).join(", ")}{openTendons.length > 8 ? "…" : ""}</p>}
+                {clear && canRelease(p.projectId) ? (
+                  <ReleaseForm projectId={p.projectId} pourId={p.pourId} pourName={p.pourName} />
+                ) : (
+                  <p className="mt-2 font-semibold">{clear ? "Ready; released by the role the project names." : "Cannot be released yet."}</p>
+                )}
+              </>
+            )}
+          </li>
+        );
+      })}
+    </ul>
+  );
+}

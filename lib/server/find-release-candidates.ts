@@ -1,0 +1,55 @@
+import "server-only";
+import type { Kysely } from "kysely";
+import type { Database } from "@/db/types";
+import { findReleaseBlockers, type ReleaseBlockers } from "./release-pour";
+
+export interface ReleaseCandidate {
+  projectId: string;
+  projectName: string;
+  pourId: string;
+  pourName: string;
+  tendonCount: number;
+  blockers: ReleaseBlockers;
+  releasedBy: string | null;
+  releasedAt: Date | null;
+}
+
+/** The pours of the given projects with what still blocks each one's release. */
+export async function findReleaseCandidates(db: Kysely<Database>, projectIds: string[]): Promise<ReleaseCandidate[]> {
+  if (!projectIds.length) return [];
+  const pours = await db
+    .selectFrom("pours")
+    .innerJoin("projects", "projects.id", "pours.project_id")
+    .leftJoin("releases", "releases.pour_id", "pours.id")
+    .select([
+      "pours.id",
+      "pours.name",
+      "pours.project_id",
+      "projects.name as projectName",
+      "releases.released_by_name",
+      "releases.created_at as releasedAt",
+      (eb) =>
+        eb
+          .selectFrom("tendons")
+          .select((e) => e.fn.countAll<number>().as("n"))
+          .whereRef("tendons.pour_id", "=", "pours.id")
+          .as("tendonCount"),
+    ])
+    .where("pours.project_id", "in", projectIds)
+    .orderBy("projects.name")
+    .orderBy("pours.planned_stressing_date")
+    .orderBy("pours.name")
+    .execute();
+  return Promise.all(
+    pours.map(async (p) => ({
+      projectId: p.project_id,
+      projectName: p.projectName,
+      pourId: p.id,
+      pourName: p.name,
+      tendonCount: Number(p.tendonCount ?? 0),
+      blockers: p.released_by_name ? { openFlags: [], unstressed: [] } : await findReleaseBlockers(db, { projectId: p.project_id, pourId: p.id }),
+      releasedBy: p.released_by_name,
+      releasedAt: p.releasedAt,
+    })),
+  );
+}
