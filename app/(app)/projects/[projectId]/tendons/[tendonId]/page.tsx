@@ -1,0 +1,181 @@
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { ForceProfileChart } from "@/components/tendons/force-profile-chart";
+import { Caution } from "@/components/ui/caution";
+import { db } from "@/db";
+import { isAppError } from "@/lib/errors";
+import { CALIBRATION_STATE_LABELS } from "@/lib/schemas/calibration";
+import { displayUnits } from "@/lib/schemas/project-settings";
+import { KIND_LABELS } from "@/lib/schemas/tendon";
+import { getTendonDetail, SHOP_DRAWING_MARK_PCT } from "@/lib/server/get-tendon-detail";
+import { formatForce, formatLength, formatPressure } from "@/lib/units";
+import { isUuid, pageAccess } from "../../page-access";
+
+export const metadata = { title: "Tendon" };
+
+const Figure = ({ label, value, note }: { label: string; value: string; note?: string }) => (
+  <div className="card">
+    <p className="field-label">{label}</p>
+    <p className="text-figure font-bold">{value}</p>
+    {note && <p className="mt-1 text-label text-ink-soft">{note}</p>}
+  </div>
+);
+
+export default async function TendonPage({ params }: { params: Promise<{ projectId: string; tendonId: string }> }) {
+  const { projectId, tendonId } = await params;
+  const access = await pageAccess("schedule.view", projectId);
+  if (!isUuid(tendonId)) notFound();
+  const detail = await getTendonDetail(db, { projectId, tendonId }).catch((e: unknown) => {
+    if (isAppError(e) && e.code === "NOT_FOUND") notFound();
+    throw e;
+  });
+  const { tendon, computed, targets, project } = detail;
+  const u = displayUnits(project);
+  const us = u.system === "US";
+  const len = (mm: number) => formatLength(mm, u.resolution);
+  // Elongations to 0.01 in or 0.1 mm on this sheet, finer than a reading, so differences show.
+  const fine = (mm: number) => (us ? `${(mm / 25.4).toFixed(2)} in` : `${mm.toFixed(1)} mm`);
+  const force = (n: number) => formatForce(n, { unit: u.force });
+  const pressure = (mpa: number) => formatPressure(mpa, { unit: u.pressure });
+  const long = (mm: number) => (us ? `${(mm / 304.8).toFixed(1)} ft` : `${(mm / 1000).toFixed(2)} m`);
+  const canManage = access.role === "admin";
+
+  return (
+    <main className="space-y-6">
+      <p className="field-label">
+        {access.projectName} ·{" "}
+        {canManage ? <Link href={`/projects/${projectId}/pours/${tendon.pour.id}`}>{tendon.pour.name}</Link> : tendon.pour.name}
+      </p>
+      <h1 className="text-hero font-bold">Tendon {tendon.tag}</h1>
+      <p className="text-lead">
+        {KIND_LABELS[tendon.kind]} · {tendon.strandCount} × {tendon.strandSize} strand · stressed at {tendon.ends === "both" ? "both ends" : `end ${tendon.ends}`} ·{" "}
+        {long(tendon.segments.reduce((s, x) => s + x.lengthMm, 0))} in {tendon.segments.length} segments ·{" "}
+        {tendon.lot ? `strand lot ${tendon.lot.lotNumber}` : "no strand lot (nominal values)"}
+      </p>
+
+      {!computed.ok ? (
+        <p role="alert" className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-4 font-semibold text-signal-stop">
+          {computed.message}
+        </p>
+      ) : (
+        <>
+          <section aria-labelledby="prediction-heading" className="space-y-4">
+            <h2 id="prediction-heading" className="text-lead font-semibold">
+              Predicted elongation ({project.comparisonBasis === "net" ? "net of anchor set, as marks read after lock-off" : "gross at jacking"})
+            </h2>
+            <div className="grid gap-4 md:grid-cols-4">
+              <Figure label="Compared with the readings" value={len(computed.prediction.predictedMm)} note={`${fine(computed.prediction.predictedMm)} · band ±${project.tolerancePct} %`} />
+              <Figure label="Gross at jacking" value={fine(computed.prediction.prediction.grossMm)} note={computed.prediction.gripMm > 0 ? `includes ${fine(computed.prediction.gripMm)} of strand in the jack per stressed end` : "strand in the jack not counted"} />
+              <Figure label="Net of anchor set" value={fine(computed.prediction.prediction.netMm)} note={`anchor set ${fine(project.anchorSetMm)} per stressed end`} />
+              <Figure label="Jacking force" value={force(computed.prediction.jackingForceN)} note="0.80 of the nominal breaking load (ACI 318-19 Table 20.3.2.5.1)" />
+            </div>
+            {tendon.ends === "both" && (
+              <p>
+                Per end, for information: A {fine(computed.prediction.prediction.perEndMm.A ?? 0)}, B {fine(computed.prediction.prediction.perEndMm.B ?? 0)}.
+              </p>
+            )}
+            <p>
+              Strand values: {computed.prediction.strand.source === "strand lot" ? `mill certificate of lot ${tendon.lot?.lotNumber}` : "ASTM A416 nominal"} — area {computed.prediction.strand.areaMm2.toFixed(1)} mm²
+              {us ? ` (${(computed.prediction.strand.areaMm2 / 645.16).toFixed(4)} in²)` : ""}, modulus {(computed.prediction.strand.modulusMPa / 1000).toFixed(1)} GPa
+              {us ? ` (${(computed.prediction.strand.modulusMPa / 6.894757293168).toFixed(0)} ksi)` : ""}.
+              {computed.nominalPredictedMm !== null &&
+                ` On nominal values the prediction would be ${fine(computed.nominalPredictedMm)} (${(((computed.prediction.predictedMm - computed.nominalPredictedMm) / computed.nominalPredictedMm) * 100).toFixed(1)} % change from the lot).`}
+            </p>
+            {computed.prediction.prediction.seating && (
+              <p>
+                Anchor set reaches {long(computed.prediction.prediction.seating.influenceMm)} from the stressed end; force at the anchor after seating {force(computed.prediction.prediction.seating.anchorForceAfterN)}.
+              </p>
+            )}
+            {computed.checks.length > 0 && (
+              <ul className="space-y-1">
+                {computed.checks.map((c) => (
+                  <li key={c.code} className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-semibold text-signal-stop">
+                    <span aria-hidden="true">⛔ </span>
+                    {c.message}
+                  </li>
+                ))}
+              </ul>
+            )}
+          </section>
+
+          <section aria-labelledby="shop-heading" className="card">
+            <h2 id="shop-heading" className="text-lead font-semibold">
+              Shop drawing
+            </h2>
+            {computed.shopDifferencePct === null || tendon.shopElongationMm === null ? (
+              <p className="mt-1">The shop drawing gives no elongation for this tendon.</p>
+            ) : computed.shopMarked ? (
+              <p className="mt-2 rounded-md border-2 border-signal-long bg-signal-long-bg p-3 font-semibold text-signal-long">
+                <span aria-hidden="true">⚠ </span>Check with the detailer: the shop drawing gives {fine(tendon.shopElongationMm)}, {computed.shopDifferencePct > 0 ? "+" : ""}
+                {computed.shopDifferencePct.toFixed(1)} % from ours (more than {SHOP_DRAWING_MARK_PCT} %).
+              </p>
+            ) : (
+              <p className="mt-2 font-semibold">
+                <span aria-hidden="true">✓ </span>The shop drawing gives {fine(tendon.shopElongationMm)}, {computed.shopDifferencePct > 0 ? "+" : ""}
+                {computed.shopDifferencePct.toFixed(1)} % from ours (within {SHOP_DRAWING_MARK_PCT} %).
+              </p>
+            )}
+          </section>
+
+          <section aria-labelledby="profile-heading" className="card">
+            <h2 id="profile-heading" className="text-lead font-semibold">
+              Force along the tendon
+            </h2>
+            <ForceProfileChart
+              xUnit={us ? "ft" : "m"}
+              forceUnit={u.force}
+              points={computed.profile.points.map((p) => ({
+                x: us ? p.xMm / 304.8 : p.xMm / 1000,
+                jacking: us ? p.jackingN / 4448.2216152605 : p.jackingN / 1000,
+                seated: us ? p.afterSeatingN / 4448.2216152605 : p.afterSeatingN / 1000,
+              }))}
+              zones={(() => {
+                const s = computed.prediction.prediction.seating;
+                const L = computed.profile.lengthMm;
+                const k = us ? 304.8 : 1000;
+                if (!s) return [];
+                const zoneAt = (end: "A" | "B", influence: number) => (end === "A" ? { from: 0, to: Math.min(L, influence) / k } : { from: Math.max(0, L - influence) / k, to: L / k });
+                return [zoneAt(s.end, s.influenceMm), ...(s.otherEnd ? [zoneAt(s.otherEnd.end, s.otherEnd.influenceMm)] : [])];
+              })()}
+            />
+          </section>
+        </>
+      )}
+
+      <section aria-labelledby="targets-heading" className="card">
+        <h2 id="targets-heading" className="text-lead font-semibold">
+          Target gauge pressure by equipment set
+        </h2>
+        {targets.length === 0 ? (
+          <p className="mt-1">No equipment sets on the project yet.</p>
+        ) : (
+          <table className="mt-2 w-full text-left">
+            <thead>
+              <tr className="border-b-2 border-ink">
+                <th className="p-2">Set</th>
+                <th className="p-2 text-right">Target pressure</th>
+                <th className="p-2">Calibration</th>
+                <th className="p-2">Notes</th>
+              </tr>
+            </thead>
+            <tbody>
+              {targets.map((t) => (
+                <tr key={t.setId} className="border-b border-concrete-300">
+                  <td className="p-2 font-semibold">{t.name}</td>
+                  <td className="p-2 text-right text-lead font-bold">{t.targetPressureMPa === null ? "—" : pressure(t.targetPressureMPa)}</td>
+                  <td className={`p-2 font-semibold ${t.state === "expired" || t.state === "none" ? "text-signal-stop" : t.state === "expiring" ? "text-signal-long" : ""}`}>
+                    <span aria-hidden="true">{t.state === "valid" ? "✓ " : t.state === "expiring" ? "⚠ " : "⛔ "}</span>
+                    {CALIBRATION_STATE_LABELS[t.state]}
+                    {t.validUntil ? ` (to ${t.validUntil})` : ""}
+                  </td>
+                  <td className="p-2">{t.notes.join(" ") || "—"}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+      </section>
+      <Caution />
+    </main>
+  );
+}

@@ -1,0 +1,158 @@
+"use client";
+
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { useForm } from "react-hook-form";
+import { z } from "zod";
+import { units } from "@/components/setup/unit-fields";
+import { FileUpload } from "@/components/uploads/file-upload";
+import { FormMessage } from "@/components/ui/form-message";
+import { sendJson } from "@/lib/client/send-json";
+import { calibrationSchema, type CalibrationInput } from "@/lib/schemas/calibration";
+import { equipmentSetSchema, type EquipmentSetInput } from "@/lib/schemas/equipment";
+import { isInputError, parseForce, parsePressure } from "@/lib/units";
+
+type Errors = Record<string, { message?: string } | undefined>;
+
+function Text({ id, label, error, hint, ...rest }: { id: string; label: string; error?: string; hint?: string } & React.InputHTMLAttributes<HTMLInputElement>) {
+  return (
+    <div>
+      <label htmlFor={id} className="field-label">
+        {label}
+      </label>
+      <input id={id} className="field-input mt-1" aria-invalid={error ? true : undefined} {...rest} />
+      {hint && <p className="mt-1 text-label text-ink-faint">{hint}</p>}
+      {error && <p className="mt-1 font-semibold text-signal-stop">{error}</p>}
+    </div>
+  );
+}
+
+function setForm(us: boolean) {
+  const system = us ? "US" : "SI";
+  return z
+    .object({ name: z.string(), jackSerial: z.string(), gaugeSerial: z.string(), pumpSerial: z.string(), jackGripMm: units.length(system, us ? "in" : "mm", false), maxForceN: units.force(system, us ? "kip" : "kN", false) })
+    .transform((v) => ({ ...v, pumpSerial: v.pumpSerial.trim() || null }))
+    .pipe(equipmentSetSchema);
+}
+
+export function EquipmentSetForm({ projectId, us }: { projectId: string; us: boolean }) {
+  const router = useRouter();
+  const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
+  const form = useForm<z.input<ReturnType<typeof setForm>>, unknown, EquipmentSetInput>({
+    resolver: zodResolver(setForm(us)),
+    defaultValues: { name: "", jackSerial: "", gaugeSerial: "", pumpSerial: "", jackGripMm: "", maxForceN: "" },
+  });
+  const e = form.formState.errors as Errors;
+  const onSubmit = form.handleSubmit(async (values) => {
+    const r = await sendJson("POST", `/api/projects/${projectId}/equipment-sets`, values);
+    if (!r.ok) {
+      for (const [k, m] of Object.entries(r.error.fields ?? {})) form.setError(k as "name", { message: m.join(" ") });
+      return setMessage({ tone: "error", text: r.error.message });
+    }
+    setMessage({ tone: "info", text: `Set ${values.name} added. Add its calibration next.` });
+    form.reset();
+    router.refresh();
+  });
+  return (
+    <form onSubmit={onSubmit} noValidate className="card space-y-4">
+      <h2 className="text-lead font-semibold">Add an equipment set</h2>
+      <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
+      <div className="grid gap-4 md:grid-cols-3">
+        <Text id="e-name" label="Set name" error={e.name?.message} {...form.register("name")} />
+        <Text id="e-jack" label="Jack serial" error={e.jackSerial?.message} {...form.register("jackSerial")} />
+        <Text id="e-gauge" label="Gauge serial" error={e.gaugeSerial?.message} {...form.register("gaugeSerial")} />
+        <Text id="e-pump" label="Pump serial (optional)" error={e.pumpSerial?.message} {...form.register("pumpSerial")} />
+        <Text id="e-grip" label={`Jack grip length, ${us ? "in" : "mm"} (optional)`} inputMode="decimal" error={e.jackGripMm?.message} {...form.register("jackGripMm")} />
+        <Text id="e-max" label={`Rated force, ${us ? "kip" : "kN"} (optional)`} inputMode="decimal" error={e.maxForceN?.message} {...form.register("maxForceN")} />
+      </div>
+      <button className="btn-primary" type="submit">
+        Add set
+      </button>
+    </form>
+  );
+}
+
+/** "pressure, force" per line, in the project's units unless a unit is typed. */
+export function readPoints(text: string, us: boolean): { points: CalibrationInput["points"]; error: string | null } {
+  const system = us ? "US" : "SI";
+  const points: CalibrationInput["points"] = [];
+  const lines = text.split(/\r?\n/).map((l) => l.trim()).filter(Boolean);
+  for (const [i, line] of lines.entries()) {
+    const [p, f, extra] = line.split(/[,;\t]/).map((s) => s.trim());
+    try {
+      if (!p || !f || extra !== undefined) throw new Error("give pressure, force");
+      points.push({ pressureMPa: parsePressure(p, { field: "pressure", system }), forceN: parseForce(f, { field: "force", system }) });
+    } catch (error) {
+      return { points, error: `Line ${i + 1} "${line}": ${isInputError(error) ? error.message.replace(/^[^:]*: /, "") : "write pressure, force"}.` };
+    }
+  }
+  return { points, error: null };
+}
+
+function calForm(us: boolean) {
+  return z
+    .object({ calibratedOn: z.string(), validUntil: z.string(), pointsText: z.string(), laboratory: z.string(), certificateAttachmentId: z.string() })
+    .transform((v, ctx) => {
+      const { points, error } = readPoints(v.pointsText, us);
+      if (error) ctx.addIssue({ code: "custom", path: ["pointsText"], message: error });
+      return { calibratedOn: v.calibratedOn, validUntil: v.validUntil || null, points, laboratory: v.laboratory.trim() || null, certificateAttachmentId: v.certificateAttachmentId || null };
+    })
+    .pipe(calibrationSchema);
+}
+
+export function CalibrationForm({ projectId, us, sets, validityDays }: { projectId: string; us: boolean; sets: { id: string; name: string }[]; validityDays: number }) {
+  const router = useRouter();
+  const [setId, setSetId] = useState(sets[0]?.id ?? "");
+  const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
+  const form = useForm<z.input<ReturnType<typeof calForm>>, unknown, CalibrationInput>({
+    resolver: zodResolver(calForm(us)),
+    defaultValues: { calibratedOn: "", validUntil: "", pointsText: "", laboratory: "", certificateAttachmentId: "" },
+  });
+  const e = form.formState.errors as Errors;
+  const onSubmit = form.handleSubmit(async (values) => {
+    const r = await sendJson<{ validUntil: string; r2: number; warnings: string[] }>("POST", `/api/projects/${projectId}/equipment-sets/${setId}/calibrations`, values);
+    if (!r.ok) {
+      for (const [k, m] of Object.entries(r.error.fields ?? {})) form.setError((k.startsWith("points") ? "pointsText" : k) as "calibratedOn", { message: m.join(" ") });
+      return setMessage({ tone: "error", text: r.error.message });
+    }
+    setMessage({ tone: "info", text: `Calibration saved: r² = ${r.data.r2.toFixed(5)}, valid to ${r.data.validUntil}. ${r.data.warnings.join(" ")}` });
+    form.reset();
+    router.refresh();
+  });
+  if (!sets.length) return null;
+  return (
+    <form onSubmit={onSubmit} noValidate className="card space-y-4">
+      <h2 className="text-lead font-semibold">Add a calibration</h2>
+      <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
+      <div className="grid gap-4 md:grid-cols-3">
+        <div>
+          <label htmlFor="c-set" className="field-label">
+            Equipment set
+          </label>
+          <select id="c-set" className="field-input mt-1" value={setId} onChange={(ev) => setSetId(ev.target.value)}>
+            {sets.map((s) => (
+              <option key={s.id} value={s.id}>
+                {s.name}
+              </option>
+            ))}
+          </select>
+        </div>
+        <Text id="c-on" type="date" label="Calibrated on" error={e.calibratedOn?.message} {...form.register("calibratedOn")} />
+        <Text id="c-until" type="date" label="Valid until (optional)" hint={`Empty: ${validityDays} days after calibration, the project's rule; the earlier date wins.`} error={e.validUntil?.message} {...form.register("validUntil")} />
+      </div>
+      <div>
+        <label htmlFor="c-points" className="field-label">
+          Calibration points: gauge pressure, force ({us ? "psi, kip" : "MPa, kN"}), one pair per line
+        </label>
+        <textarea id="c-points" rows={6} className="field-input mt-1 py-2 font-mono" placeholder={us ? "1000, 6.3\n2000, 13.4" : "10, 50.2\n20, 101.6"} {...form.register("pointsText")} />
+        {(e.pointsText?.message || e.points?.message) && <p className="mt-1 font-semibold text-signal-stop">{e.pointsText?.message ?? e.points?.message}</p>}
+      </div>
+      <Text id="c-lab" label="Laboratory (optional)" {...form.register("laboratory")} />
+      <FileUpload projectId={projectId} purpose="calibration_certificate" label="Calibration certificate file" onUploaded={(f) => form.setValue("certificateAttachmentId", f.id)} />
+      <button className="btn-primary" type="submit">
+        Save calibration
+      </button>
+    </form>
+  );
+}

@@ -1,0 +1,218 @@
+"use client";
+
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { useForm } from "react-hook-form";
+import { z } from "zod";
+import { FormMessage } from "@/components/ui/form-message";
+import { sendJson } from "@/lib/client/send-json";
+import { projectSettingsSchema, type ProjectSettings } from "@/lib/schemas/project-settings";
+import { PER, shown, units } from "./unit-fields";
+
+type KUnit = "per ft" | "per m";
+
+function formSchema(us: boolean) {
+  const system = us ? "US" : "SI";
+  return z
+    .object({
+      name: z.string(),
+      address: z.string(),
+      unitSystem: z.enum(["us", "si"]),
+      readingResolution: z.enum(["1/8in", "1/16in", "1mm"]),
+      tolerancePct: units.number(),
+      groupTolerancePct: units.number(false),
+      shortTendonFloorMm: units.length(system, us ? "in" : "mm", false),
+      comparisonBasis: z.enum(["gross", "net"]),
+      countJackGrip: z.boolean(),
+      frictionMu: units.number(),
+      wobble: units.number(),
+      wobbleUnit: z.enum(["per ft", "per m"]),
+      anchorSetMm: units.length(system, us ? "in" : "mm"),
+      calibrationValidityDays: units.number(),
+      requiredConcreteMPa: units.pressure(system, us ? "psi" : "MPa", false),
+      engineerOfRecordName: z.string(),
+      engineerOfRecordEmail: z.string(),
+      notifyEmails: z.string(),
+      blindEntry: z.boolean(),
+      releaseBy: z.enum(["engineer", "inspector"]),
+    })
+    .transform(({ wobble, wobbleUnit, ...v }) => ({
+      ...v,
+      address: v.address.trim() || null,
+      engineerOfRecordName: v.engineerOfRecordName.trim() || null,
+      engineerOfRecordEmail: v.engineerOfRecordEmail.trim() || null,
+      notifyEmails: v.notifyEmails.split(/[\s,;]+/).filter(Boolean),
+      // K per ft × 3.2808 = K per m (1 m = 3.2808 ft).
+      wobblePerM: wobble === null ? null : wobbleUnit === "per ft" ? wobble / 0.3048 : wobble,
+    }))
+    .pipe(projectSettingsSchema);
+}
+
+type FormIn = z.input<ReturnType<typeof formSchema>>;
+
+const Row = ({ id, label, hint, error, children }: { id: string; label: string; hint?: string; error?: string; children: React.ReactNode }) => (
+  <div>
+    <label htmlFor={id} className="field-label">
+      {label}
+    </label>
+    <div className="mt-1">{children}</div>
+    {hint && <p className="mt-1 text-label text-ink-faint">{hint}</p>}
+    {error && (
+      <p id={`${id}-error`} className="mt-1 font-semibold text-signal-stop">
+        {error}
+      </p>
+    )}
+  </div>
+);
+
+/** The project's computation basis and who is told; values in the project's units, stored in SI. */
+export function SettingsForm({ projectId, settings }: { projectId: string; settings: ProjectSettings }) {
+  const router = useRouter();
+  const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
+  const us = settings.unitSystem === "us";
+  const len = us ? "in" : "mm";
+  const form = useForm<FormIn, unknown, ProjectSettings>({
+    resolver: zodResolver(formSchema(us)),
+    defaultValues: {
+      ...settings,
+      address: settings.address ?? "",
+      tolerancePct: String(settings.tolerancePct),
+      groupTolerancePct: settings.groupTolerancePct === null ? "" : String(settings.groupTolerancePct),
+      shortTendonFloorMm: shown(settings.shortTendonFloorMm, PER[len]),
+      frictionMu: String(settings.frictionMu),
+      wobble: us ? shown(settings.wobblePerM * 0.3048, 1, 6) : shown(settings.wobblePerM, 1, 6),
+      wobbleUnit: us ? "per ft" : "per m",
+      anchorSetMm: shown(settings.anchorSetMm, PER[len]),
+      calibrationValidityDays: String(settings.calibrationValidityDays),
+      requiredConcreteMPa: shown(settings.requiredConcreteMPa, PER[us ? "psi" : "MPa"], us ? 0 : 1),
+      engineerOfRecordName: settings.engineerOfRecordName ?? "",
+      engineerOfRecordEmail: settings.engineerOfRecordEmail ?? "",
+      notifyEmails: settings.notifyEmails.join(", "),
+    },
+  });
+  const err = (k: keyof FormIn | "wobblePerM") => (form.formState.errors as Record<string, { message?: string } | undefined>)[k]?.message;
+  const reg = (k: keyof FormIn) => ({ id: `s-${k}`, "aria-invalid": err(k) ? true : undefined, "aria-describedby": err(k) ? `s-${k}-error` : undefined, ...form.register(k) });
+
+  const onSubmit = form.handleSubmit(async (values) => {
+    const result = await sendJson("PATCH", `/api/projects/${projectId}/settings`, values);
+    if (!result.ok) {
+      for (const [k, msgs] of Object.entries(result.error.fields ?? {})) form.setError(k as keyof FormIn, { message: msgs.join(" ") });
+      setMessage({ tone: "error", text: result.error.message });
+      return;
+    }
+    setMessage({ tone: "info", text: "Settings saved. New predictions use them at once." });
+    router.refresh();
+  });
+
+  return (
+    <form onSubmit={onSubmit} className="space-y-6" noValidate>
+      <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
+      <fieldset className="card grid gap-4 md:grid-cols-2">
+        <legend className="px-1 text-lead font-semibold">Project</legend>
+        <Row id="s-name" label="Name" error={err("name")}>
+          <input className="field-input" {...reg("name")} />
+        </Row>
+        <Row id="s-address" label="Address" error={err("address")}>
+          <input className="field-input" {...reg("address")} />
+        </Row>
+        <Row id="s-unitSystem" label="Units shown" hint="Display only: everything is stored in SI." error={err("unitSystem")}>
+          <select className="field-input" {...reg("unitSystem")}>
+            <option value="us">US customary (in, ft, psi, kip)</option>
+            <option value="si">SI (mm, m, MPa, kN)</option>
+          </select>
+        </Row>
+        <Row id="s-readingResolution" label="Reading division" error={err("readingResolution")}>
+          <select className="field-input" {...reg("readingResolution")}>
+            <option value="1/8in">1/8 in</option>
+            <option value="1/16in">1/16 in</option>
+            <option value="1mm">1 mm</option>
+          </select>
+        </Row>
+      </fieldset>
+
+      <fieldset className="card grid gap-4 md:grid-cols-3">
+        <legend className="px-1 text-lead font-semibold">Tolerance rule</legend>
+        <Row id="s-tolerancePct" label="Band per tendon, ± %" hint="7 % is the usual building rule (ACI 318); 5 % is common on bridges." error={err("tolerancePct")}>
+          <input className="field-input" inputMode="decimal" {...reg("tolerancePct")} />
+        </Row>
+        <Row id="s-groupTolerancePct" label="Group-average band, ± % (optional)" error={err("groupTolerancePct")}>
+          <input className="field-input" inputMode="decimal" {...reg("groupTolerancePct")} />
+        </Row>
+        <Row id="s-shortTendonFloorMm" label={`Floor for short tendons, ${len} (optional)`} hint="The band is never narrower than this length." error={err("shortTendonFloorMm")}>
+          <input className="field-input" inputMode="decimal" {...reg("shortTendonFloorMm")} />
+        </Row>
+        <Row id="s-comparisonBasis" label="Compare with" error={err("comparisonBasis")}>
+          <select className="field-input" {...reg("comparisonBasis")}>
+            <option value="gross">Gross elongation at jacking</option>
+            <option value="net">Net of anchor set (marks read after lock-off)</option>
+          </select>
+        </Row>
+        <Row id="s-countJackGrip" label="Strand inside the jack">
+          <label className="flex min-h-touch items-center gap-3">
+            <input type="checkbox" className="h-6 w-6" {...form.register("countJackGrip")} id="s-countJackGrip" />
+            Counted (readings taken from ram travel)
+          </label>
+        </Row>
+      </fieldset>
+
+      <fieldset className="card grid gap-4 md:grid-cols-3">
+        <legend className="px-1 text-lead font-semibold">Friction and anchor set defaults</legend>
+        <Row id="s-frictionMu" label="Curvature μ" error={err("frictionMu")}>
+          <input className="field-input" inputMode="decimal" {...reg("frictionMu")} />
+        </Row>
+        <Row id="s-wobble" label="Wobble K" hint="Per ft × 3.2808 = per m. Check which one your data gives." error={err("wobble") ?? err("wobblePerM")}>
+          <div className="flex gap-2">
+            <input className="field-input" inputMode="decimal" {...reg("wobble")} />
+            <select className="field-input w-36" aria-label="Unit of K" {...form.register("wobbleUnit")}>
+              {(["per ft", "per m"] as KUnit[]).map((u) => (
+                <option key={u}>{u}</option>
+              ))}
+            </select>
+          </div>
+        </Row>
+        <Row id="s-anchorSetMm" label={`Anchor set, ${len}`} hint="About 1/4 in (6 mm) for monostrand, 3/8 in (10 mm) for multistrand." error={err("anchorSetMm")}>
+          <input className="field-input" inputMode="decimal" {...reg("anchorSetMm")} />
+        </Row>
+      </fieldset>
+
+      <fieldset className="card grid gap-4 md:grid-cols-3">
+        <legend className="px-1 text-lead font-semibold">Before stressing</legend>
+        <Row id="s-calibrationValidityDays" label="Calibration valid for, days" error={err("calibrationValidityDays")}>
+          <input className="field-input" inputMode="numeric" {...reg("calibrationValidityDays")} />
+        </Row>
+        <Row id="s-requiredConcreteMPa" label={`Concrete strength required, ${us ? "psi" : "MPa"}`} error={err("requiredConcreteMPa")}>
+          <input className="field-input" inputMode="decimal" {...reg("requiredConcreteMPa")} />
+        </Row>
+        <Row id="s-blindEntry" label="Crew sees predicted values">
+          <label className="flex min-h-touch items-center gap-3">
+            <input type="checkbox" className="h-6 w-6" {...form.register("blindEntry")} id="s-blindEntry" />
+            Hide them until readings are entered
+          </label>
+        </Row>
+      </fieldset>
+
+      <fieldset className="card grid gap-4 md:grid-cols-2">
+        <legend className="px-1 text-lead font-semibold">Engineer of record and e-mails</legend>
+        <Row id="s-engineerOfRecordName" label="Engineer of record" error={err("engineerOfRecordName")}>
+          <input className="field-input" {...reg("engineerOfRecordName")} />
+        </Row>
+        <Row id="s-engineerOfRecordEmail" label="Engineer of record's e-mail" hint="Flags are e-mailed here at once." error={err("engineerOfRecordEmail")}>
+          <input className="field-input" type="email" {...reg("engineerOfRecordEmail")} />
+        </Row>
+        <Row id="s-notifyEmails" label="Also e-mail (commas between addresses)" error={err("notifyEmails")}>
+          <input className="field-input" {...reg("notifyEmails")} />
+        </Row>
+        <Row id="s-releaseBy" label="Who releases a pour" error={err("releaseBy")}>
+          <select className="field-input" {...reg("releaseBy")}>
+            <option value="engineer">The engineer of record</option>
+            <option value="inspector">The special inspector</option>
+          </select>
+        </Row>
+      </fieldset>
+      <button type="submit" className="btn-primary" disabled={form.formState.isSubmitting}>
+        {form.formState.isSubmitting ? "Saving…" : "Save settings"}
+      </button>
+    </form>
+  );
+}

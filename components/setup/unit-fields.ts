@@ -1,0 +1,50 @@
+import { z } from "zod";
+import { isInputError, parseForce, parseLength, parsePressure, type UnitSystem } from "@/lib/units";
+
+/**
+ * Form fields that hold what a person typed (in the project's units, or with a unit of their
+ * own such as "6 mm" on a US job) and turn it into SI for the shared schemas.
+ */
+type Kind = "length" | "pressure" | "force" | "number";
+
+function parse(kind: Kind, text: string, system: UnitSystem, unit: string | undefined): number {
+  if (kind === "number") {
+    const n = Number(text.replace(/,/g, ""));
+    if (!Number.isFinite(n) || text.trim() === "") throw new Error("Type a number.");
+    return n;
+  }
+  const options = { field: kind, system };
+  if (kind === "length") return parseLength(text, { ...options, defaultUnit: unit as never });
+  if (kind === "pressure") return parsePressure(text, { ...options, defaultUnit: unit as never });
+  return parseForce(text, { ...options, defaultUnit: unit as never });
+}
+
+function field(kind: Kind, system: UnitSystem, unit: string | undefined, required: boolean) {
+  return z.string().transform((text, ctx): number | null => {
+    if (!text.trim()) {
+      if (required) ctx.addIssue({ code: "custom", message: "Fill this in." });
+      return null;
+    }
+    try {
+      return parse(kind, text, system, unit);
+    } catch (error) {
+      ctx.addIssue({ code: "custom", message: isInputError(error) ? error.message.replace(/^[^:]*: /, "") : "Type a number." });
+      return null;
+    }
+  });
+}
+
+export const units = {
+  length: (system: UnitSystem, unit: string, required = true) => field("length", system, unit, required),
+  pressure: (system: UnitSystem, unit: string, required = true) => field("pressure", system, unit, required),
+  force: (system: UnitSystem, unit: string, required = true) => field("force", system, unit, required),
+  number: (required = true) => field("number", "SI", undefined, required),
+};
+
+/** A stored SI value written back into a form field, in the given unit, without rounding to the reading division. */
+export function shown(value: number | null | undefined, per: number, decimals = 4): string {
+  if (value === null || value === undefined) return "";
+  return String(Number((value / per).toFixed(decimals)));
+}
+
+export const PER = { in: 25.4, mm: 1, ft: 304.8, m: 1000, psi: 0.006894757293168, MPa: 1, kip: 4448.2216152605, kN: 1000, lbf: 4.4482216152605, N: 1 } as const;
