@@ -1,0 +1,95 @@
+import {
+  InputError,
+  optionalPositive,
+  requireFinite,
+  requireNonNegative,
+  requirePositive,
+  requirePositiveInteger,
+} from "./errors";
+import { fitLine } from "./least-squares";
+
+/**
+ * Reading taken from an initial force Pi (the reference mark set at, say, 20 %) brought to the
+ * elongation from zero: measured·Pj/(Pj − Pi). Valid because the predicted elongation is linear
+ * in force; the slack and seating taken up below Pi are what this leaves out on purpose.
+ */
+export function totalFromInitial(input: { measuredMm: number; initialForceN: number; jackingForceN: number }): number {
+  const measuredMm = requireFinite(input.measuredMm, "measuredMm");
+  const initialForceN = requireNonNegative(input.initialForceN, "initialForceN");
+  const jackingForceN = requirePositive(input.jackingForceN, "jackingForceN");
+  if (initialForceN >= jackingForceN) {
+    throw new InputError("initialForceN", "out-of-range", "initial force must be below the jacking force");
+  }
+  return (measuredMm * jackingForceN) / (jackingForceN - initialForceN);
+}
+
+export interface GaugeStep {
+  forceN: number;
+  /** Ram or mark reading at that force, from any fixed origin. */
+  readingMm: number;
+}
+
+export interface ApparentStiffness {
+  /** Slope of force against reading: the tendon's apparent A·E/L, N per mm. */
+  stiffnessNPerMm: number;
+  r2: number;
+  /** slope·L/A: the modulus the tendon behaved as if it had. */
+  apparentModulusMPa: number;
+  /** The mill-certificate value, passed through so a screen shows the two side by side. */
+  millModulusMPa: number | null;
+  /** apparent / mill. Friction alone makes this above 1 (less strand stretches per unit force). */
+  modulusRatio: number | null;
+  /** Reading where the fitted line reaches zero force: the slack-free zero. */
+  zeroReadingMm: number;
+  /** Reading at the highest-force step less the slack-free zero. */
+  elongationFromZeroMm: number;
+}
+
+/**
+ * Least-squares line through several gauge steps (force against reading). Readings below the
+ * first step carry slack and dead-end seating, so the line's intercept, not the first reading,
+ * gives the zero.
+ */
+export function fitApparentStiffness(input: {
+  steps: readonly GaugeStep[];
+  lengthMm: number;
+  strandAreaMm2: number;
+  strandCount: number;
+  millModulusMPa?: number;
+}): ApparentStiffness {
+  const { steps } = input;
+  if (!Array.isArray(steps) || steps.length < 2) {
+    throw new InputError("steps", "too-few", "need at least two gauge steps to fit a line");
+  }
+  const lengthMm = requirePositive(input.lengthMm, "lengthMm");
+  const areaMm2 =
+    requirePositive(input.strandAreaMm2, "strandAreaMm2") * requirePositiveInteger(input.strandCount, "strandCount");
+  const millModulusMPa = optionalPositive(input.millModulusMPa, "millModulusMPa") ?? null;
+
+  const readings: number[] = [];
+  const forces: number[] = [];
+  let topIndex = 0;
+  steps.forEach((step, i) => {
+    if (step === null || typeof step !== "object") throw new InputError(`steps[${i}]`, "required", "step is missing");
+    readings.push(requireFinite(step.readingMm, `steps[${i}].readingMm`));
+    forces.push(requireNonNegative(step.forceN, `steps[${i}].forceN`));
+    if (forces[i]! > forces[topIndex]!) topIndex = i;
+  });
+  if (Math.min(...readings) === Math.max(...readings)) {
+    throw new InputError("steps", "out-of-range", "readings did not change between steps");
+  }
+
+  const { slope, intercept, r2 } = fitLine(readings, forces);
+  if (!(slope > 0)) throw new InputError("steps", "out-of-range", "force must rise as the strand elongates");
+  const apparentModulusMPa = (slope * lengthMm) / areaMm2;
+  const zeroReadingMm = -intercept / slope;
+  return {
+    stiffnessNPerMm: slope,
+    r2,
+    apparentModulusMPa,
+    millModulusMPa,
+    modulusRatio: millModulusMPa === null ? null : apparentModulusMPa / millModulusMPa,
+    zeroReadingMm,
+    elongationFromZeroMm: readings[topIndex]! - zeroReadingMm,
+  };
+}
