@@ -65,13 +65,13 @@ export function TendonTable(props: { base: string; projectId: string; rows: Tend
       <form method="get" action={props.base} className="mt-3 grid gap-3 md:grid-cols-[2fr_1fr_1fr_auto_auto] md:items-end">
         <div>
           <label htmlFor="f-q" className="field-label">
-            Tag contains
+            Show tags containing
           </label>
           <input id="f-q" name="q" defaultValue={q.q} className="field-input mt-1" />
         </div>
         <div>
           <label htmlFor="f-ends" className="field-label">
-            Stressing end
+            Show stressing end
           </label>
           <select id="f-ends" name="ends" defaultValue={q.ends} className="field-input mt-1">
             <option value="">Any</option>
@@ -82,7 +82,7 @@ export function TendonTable(props: { base: string; projectId: string; rows: Tend
         </div>
         <div>
           <label htmlFor="f-lot" className="field-label">
-            Strand lot
+            Show strand lot
           </label>
           <select id="f-lot" name="lot" defaultValue={q.lot} className="field-input mt-1">
             <option value="">Any</option>

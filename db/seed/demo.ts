@@ -1,5 +1,6 @@
 import bcrypt from "bcryptjs";
 import { fitCalibration } from "@/lib/elongation";
+import { predictTendon } from "@/lib/stressing/basis";
 import type { Kysely } from "kysely";
 import type { Database, Role, StressingEnds, TendonSegment } from "../types";
 
@@ -223,6 +224,36 @@ export async function seedDemo(db: Kysely<Database>): Promise<SeedSummary> {
       .execute();
     const pours = await trx.selectFrom("pours").select(["id", "name"]).where("project_id", "=", ayp).execute();
 
+    // Shop-drawing elongations on every sixth uniform tendon, rounded to 1/8 in as a detailer
+    // would; U18 and U30 of each pour differ from Tautline's prediction by about 3 %, so the
+    // "check with the detailer" mark shows. Invented for the demo.
+    const basis = await trx
+      .selectFrom("projects")
+      .select(["tolerance_pct", "short_tendon_floor_mm", "comparison_basis", "count_jack_grip", "friction_mu", "wobble_per_m", "anchor_set_mm"])
+      .where("id", "=", ayp)
+      .executeTakeFirstOrThrow();
+    const lotValues = await trx.selectFrom("strand_lots").select(["lot_number", "area_mm2", "modulus_mpa", "breaking_load_n"]).where("project_id", "=", ayp).execute();
+    const SHOP_FACTORS: Record<number, number> = { 6: 1.004, 12: 0.992, 18: 1.031, 24: 1.006, 30: 0.968, 36: 0.997 };
+    const shopElongation = (t: DemoTendon): number | null => {
+      const factor = SHOP_FACTORS[Number(/-U(\d+)$/.exec(t.tag)?.[1] ?? 0)];
+      if (!factor) return null;
+      const lot = lotValues.find((l) => l.lot_number === t.lot);
+      const predicted = predictTendon({
+        project: {
+          tolerancePct: basis.tolerance_pct,
+          shortTendonFloorMm: basis.short_tendon_floor_mm,
+          comparisonBasis: basis.comparison_basis,
+          countJackGrip: basis.count_jack_grip,
+          frictionMu: basis.friction_mu,
+          wobblePerM: basis.wobble_per_m,
+          anchorSetMm: basis.anchor_set_mm,
+        },
+        tendon: { strandSize: "0.5 in", strandCount: 1, segments: t.segments, ends: t.ends, jackGripMm: 18 * IN },
+        lot: lot ? { areaMm2: lot.area_mm2, modulusMPa: lot.modulus_mpa, breakingLoadN: lot.breaking_load_n } : null,
+      }).predictedMm;
+      return (Math.round(((predicted * factor) / IN) * 8) / 8) * IN;
+    };
+
     for (const demoPour of DEMO_POURS) {
       const pour = pours.find((p) => p.name === demoPour.name);
       if (!pour) throw new Error(`demo pour ${demoPour.name} missing after insert`);
@@ -239,6 +270,7 @@ export async function seedDemo(db: Kysely<Database>): Promise<SeedSummary> {
             segments: JSON.stringify(t.segments),
             ends: t.ends,
             jack_grip_mm: 18 * IN,
+            shop_elongation_mm: shopElongation(t),
             strand_lot_id: lots.find((l) => l.lot_number === t.lot)?.id ?? null,
           })),
         )

@@ -113,6 +113,17 @@ describe("strand lots, calibrations and the tendon detail", () => {
     expect(detail.computed.shopDifferencePct).toBeCloseTo(((80 - detail.computed.prediction.predictedMm) / detail.computed.prediction.predictedMm) * 100, 9);
   });
 
+  it("the demo seed gives shop-drawing elongations, two per pour more than 2 % from ours", async () => {
+    const withShop = await t.db.selectFrom("tendons").select(["id", "tag"]).where("project_id", "=", ayp).where("shop_elongation_mm", "is not", null).where("pour_id", "!=", pourId).execute();
+    expect(withShop).toHaveLength(18);
+    const marked = [];
+    for (const row of withShop) {
+      const detail = await getTendonDetail(t.db, { projectId: ayp, tendonId: row.id });
+      if (detail.computed.ok && detail.computed.shopMarked) marked.push(row.tag);
+    }
+    expect(marked.sort()).toEqual(["2-1-U18", "2-1-U30", "2-2-U18", "2-2-U30", "3-1-U18", "3-1-U30"]);
+  });
+
   it("refuses calibration points that make no line, naming the field", async () => {
     const setA = (await listEquipmentSets(t.db, ayp)).find((s) => s.name.startsWith("Set A"))!;
     await expect(
