@@ -5,7 +5,7 @@ import { env } from "@/lib/env";
 
 const db = createDb(env.DATABASE_URL, 1);
 try {
-  const summary = await seedDemo(db);
+  const summary = await seedDemo(db, { records: true });
   console.log(
     `demo job ready: ${summary.projects} projects, ${summary.users} people, ` +
       `${summary.pours} pours, ${summary.tendons} tendons`,

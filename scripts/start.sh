@@ -41,7 +41,7 @@ trap cleanup INT TERM EXIT
 
 pg_up "$PG_DATA" "$TAUTLINE_PG_PORT"
 node_modules/.bin/tsx scripts/migrate.ts
-node_modules/.bin/tsx scripts/seed.ts
+node_modules/.bin/tsx --conditions=react-server scripts/seed.ts
 
 start_group "$LOGS/fakes.log" node_modules/.bin/tsx scripts/fakes.ts
 FAKES_PID=$LAST_PID

@@ -57,7 +57,7 @@ step unit node_modules/.bin/vitest run --project unit
 step integration node_modules/.bin/vitest run --project integration
 
 e2e() {
-  node_modules/.bin/tsx scripts/migrate.ts && node_modules/.bin/tsx scripts/seed.ts || return 1
+  node_modules/.bin/tsx scripts/migrate.ts && node_modules/.bin/tsx --conditions=react-server scripts/seed.ts || return 1
   npm run --silent build || return 1
   start_group "$LOGS/app.log" node_modules/.bin/next start -p "$APP_PORT" -H 127.0.0.1
   APP_PID=$LAST_PID

@@ -1,6 +1,7 @@
 import bcrypt from "bcryptjs";
 import { fitCalibration } from "@/lib/elongation";
 import { predictTendon } from "@/lib/stressing/basis";
+import { seedDemoRecords } from "./demo-records";
 import type { Kysely } from "kysely";
 import type { Database, Role, StressingEnds, TendonSegment } from "../types";
 
@@ -70,17 +71,25 @@ function pourTendons(prefix: string, uniformCount: number, bandedCount: number):
   return tendons;
 }
 
+/** A calendar day relative to the day the demo is first seeded, as "YYYY-MM-DD". */
+export function demoDay(today: Date, offsetDays: number): string {
+  return new Date(today.getTime() + offsetDays * 86_400_000).toISOString().slice(0, 10);
+}
+
 // Cylinder breaks (invented) confirmed on the first two pours; the third waits for its test.
-const DEMO_POURS = [
-  { name: "L2 Pour 1", level: "Level 2", areaM2: 1480, date: "2026-11-24", prefix: "2-1", concreteMpa: 23.4 },
-  { name: "L2 Pour 2", level: "Level 2", areaM2: 1510, date: "2026-12-01", prefix: "2-2", concreteMpa: 22.1 },
-  { name: "L3 Pour 1", level: "Level 3", areaM2: 1495, date: "2026-12-08", prefix: "3-1", concreteMpa: null },
+// Dates are days from the first seeding: a week ago (stressed and released), today (being
+// stressed), next week (planned).
+export const DEMO_POURS = [
+  { name: "L2 Pour 1", level: "Level 2", areaM2: 1480, dayOffset: -7, prefix: "2-1", concreteMpa: 23.4 },
+  { name: "L2 Pour 2", level: "Level 2", areaM2: 1510, dayOffset: 0, prefix: "2-2", concreteMpa: 22.1 },
+  { name: "L3 Pour 1", level: "Level 3", areaM2: 1495, dayOffset: 7, prefix: "3-1", concreteMpa: null },
 ] as const;
 
 /**
  * Two invented jack-and-gauge sets with calibration points as a certificate would list them:
- * ten load steps, force read on a reference load cell. Set B's calibration runs out during
- * the week of the demo, so the field log's expiry warning can be seen.
+ * ten load steps, force read on a reference load cell (dates in days from the first seeding).
+ * Set B's calibration runs out during the week of the demo, so the field log's expiry warning
+ * can be seen; its gauge also reads low, so its tendons come out long (the drift to spot).
  */
 const DEMO_EQUIPMENT = [
   {
@@ -88,8 +97,8 @@ const DEMO_EQUIPMENT = [
     jack: "J-14-2207",
     gauge: "G-221",
     pump: "P-88",
-    calibratedOn: "2026-09-15",
-    validUntil: "2027-03-16",
+    calibratedOn: -77,
+    validUntil: 105,
     slope: 5162,
     intercept: -1150,
     wiggle: [310, -220, 140, -90, 260, -310, 80, 190, -160, 40],
@@ -99,8 +108,8 @@ const DEMO_EQUIPMENT = [
     jack: "J-31-1865",
     gauge: "G-307",
     pump: "P-91",
-    calibratedOn: "2026-06-10",
-    validUntil: "2026-12-09",
+    calibratedOn: -174,
+    validUntil: 8,
     slope: 5231,
     intercept: -880,
     wiggle: [-150, 240, -60, 180, -270, 110, -40, 220, -130, 70],
@@ -121,7 +130,12 @@ export interface SeedSummary {
   tendons: number;
 }
 
-export async function seedDemo(db: Kysely<Database>): Promise<SeedSummary> {
+/**
+ * `records: true` adds the demo's stressing history (what `npm start` and the e2e run show);
+ * tests that build their own records seed without it.
+ */
+export async function seedDemo(db: Kysely<Database>, options: { today?: Date; records?: boolean } = {}): Promise<SeedSummary> {
+  const today = options.today ?? new Date();
   const passwordHash = await bcrypt.hash(DEMO_PASSWORD, 10);
 
   return db.transaction().execute(async (trx) => {
@@ -215,9 +229,9 @@ export async function seedDemo(db: Kysely<Database>): Promise<SeedSummary> {
           name: p.name,
           level: p.level,
           area_m2: p.areaM2,
-          planned_stressing_date: p.date,
+          planned_stressing_date: demoDay(today, p.dayOffset),
           concrete_strength_mpa: p.concreteMpa,
-          concrete_confirmed_at: p.concreteMpa === null ? null : new Date(`${p.date}T07:00:00Z`),
+          concrete_confirmed_at: p.concreteMpa === null ? null : new Date(`${demoDay(today, p.dayOffset)}T07:00:00Z`),
         })),
       )
       .onConflict((oc) => oc.columns(["project_id", "name"]).doNothing())
@@ -306,8 +320,8 @@ export async function seedDemo(db: Kysely<Database>): Promise<SeedSummary> {
         .values({
           project_id: ayp,
           equipment_set_id: set.id,
-          calibrated_on: e.calibratedOn,
-          valid_until: e.validUntil,
+          calibrated_on: demoDay(today, e.calibratedOn),
+          valid_until: demoDay(today, e.validUntil),
           points: JSON.stringify(points),
           slope_n_per_mpa: fit.slope,
           intercept_n: fit.intercept,
@@ -318,6 +332,8 @@ export async function seedDemo(db: Kysely<Database>): Promise<SeedSummary> {
         })
         .execute();
     }
+
+    if (options.records) await seedDemoRecords(trx, { projectId: ayp, today, dayOf: (offset) => demoDay(today, offset) });
 
     const count = async (table: "projects" | "users" | "pours" | "tendons") =>
       Number((await trx.selectFrom(table).select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow()).n);

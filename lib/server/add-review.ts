@@ -3,10 +3,16 @@ import type { Kysely } from "kysely";
 import type { Database, FlagKind } from "@/db/types";
 import { AppError } from "@/lib/errors";
 import type { ReviewInput } from "@/lib/schemas/review";
+import { inTransaction } from "./in-transaction";
 import { recordAudit } from "./record-audit";
 
 /** Flags about the paperwork, which the inspector may close once the cause is found. */
-export const PAPERWORK_FLAGS: readonly FlagKind[] = ["calibration_expired", "calibration_range", "concrete_unconfirmed", "reading_missing"];
+export const PAPERWORK_FLAGS: readonly FlagKind[] = [
+  "calibration_expired",
+  "calibration_range",
+  "concrete_unconfirmed",
+  "reading_missing",
+];
 
 /**
  * The inspector's findings on a flag, appended to its trail: a note, a re-measured reading, a
@@ -17,7 +23,7 @@ export async function addReview(
   db: Kysely<Database>,
   input: { projectId: string; flagId: string; author: { id: string }; review: ReviewInput },
 ): Promise<{ reviewId: string; flagStatus: string }> {
-  return db.transaction().execute(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const flag = await trx
       .selectFrom("flags")
       .select(["id", "kind", "status", "tendon_id"])
@@ -26,7 +32,8 @@ export async function addReview(
       .forUpdate()
       .executeTakeFirst();
     if (!flag) throw new AppError("NOT_FOUND", "No such flag on this project.");
-    if (flag.status === "closed") throw new AppError("CONFLICT", "This flag is already closed; its trail can be read but not added to.");
+    if (flag.status === "closed")
+      throw new AppError("CONFLICT", "This flag is already closed; its trail can be read but not added to.");
     const { review } = input;
 
     if (review.kind === "photo") {
@@ -37,7 +44,10 @@ export async function addReview(
         .where("id", "=", review.attachmentId)
         .where("status", "=", "stored")
         .executeTakeFirst();
-      if (!photo) throw new AppError("INVALID_INPUT", "That photo is not uploaded to this project.", { attachmentId: ["Upload the photo first."] });
+      if (!photo)
+        throw new AppError("INVALID_INPUT", "That photo is not uploaded to this project.", {
+          attachmentId: ["Upload the photo first."],
+        });
     }
     if (review.kind === "closed_paperwork" && !PAPERWORK_FLAGS.includes(flag.kind)) {
       const latest = await trx
@@ -74,13 +84,23 @@ export async function addReview(
     let flagStatus: string = flag.status;
     if (review.kind === "sent_to_engineer") {
       flagStatus = "with_engineer";
-      await trx.updateTable("flags").set({ status: "with_engineer" }).where("project_id", "=", input.projectId).where("id", "=", flag.id).execute();
+      await trx
+        .updateTable("flags")
+        .set({ status: "with_engineer" })
+        .where("project_id", "=", input.projectId)
+        .where("id", "=", flag.id)
+        .execute();
     }
     if (review.kind === "closed_paperwork") {
       flagStatus = "closed";
       await trx
         .updateTable("flags")
-        .set({ status: "closed", closed_at: new Date(), closed_by: input.author.id, close_reason: `Paperwork: ${review.body}` })
+        .set({
+          status: "closed",
+          closed_at: new Date(),
+          closed_by: input.author.id,
+          close_reason: `Paperwork: ${review.body}`,
+        })
         .where("project_id", "=", input.projectId)
         .where("id", "=", flag.id)
         .execute();

@@ -5,6 +5,7 @@ import type { Database } from "@/db/types";
 import { AppError } from "@/lib/errors";
 import type { CorrectionInput } from "@/lib/schemas/review";
 import { evaluateTendon, type EvaluationOutcome } from "./evaluate-tendon";
+import { inTransaction } from "./in-transaction";
 import { recordAudit } from "./record-audit";
 
 /**
@@ -15,7 +16,7 @@ export async function correctRecord(
   db: Kysely<Database>,
   input: { projectId: string; recordId: string; by: { id: string }; correction: CorrectionInput },
 ): Promise<{ recordId: string; evaluation: EvaluationOutcome }> {
-  return db.transaction().execute(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const base = await trx
       .selectFrom("records")
       .selectAll()
@@ -32,7 +33,10 @@ export async function correctRecord(
       .limit(1)
       .executeTakeFirstOrThrow();
     if (head.id !== base.id) {
-      throw new AppError("CONFLICT", `This record was already corrected (revision ${head.revision} is the latest); correct that one instead.`);
+      throw new AppError(
+        "CONFLICT",
+        `This record was already corrected (revision ${head.revision} is the latest); correct that one instead.`,
+      );
     }
     const c = input.correction;
     const id = uuidv7();
@@ -53,8 +57,19 @@ export async function correctRecord(
         received_at: new Date(),
       })
       .execute();
-    await recordAudit(trx, { action: "record.correct", outcome: "success", actorUserId: input.by.id, projectId: input.projectId, target: base.id, detail: { revision: base.revision + 1 } });
-    const evaluation = await evaluateTendon(trx, { projectId: input.projectId, tendonId: base.tendon_id, reason: `paperwork correction: ${c.reason}` });
+    await recordAudit(trx, {
+      action: "record.correct",
+      outcome: "success",
+      actorUserId: input.by.id,
+      projectId: input.projectId,
+      target: base.id,
+      detail: { revision: base.revision + 1 },
+    });
+    const evaluation = await evaluateTendon(trx, {
+      projectId: input.projectId,
+      tendonId: base.tendon_id,
+      reason: `paperwork correction: ${c.reason}`,
+    });
     return { recordId: id, evaluation };
   });
 }

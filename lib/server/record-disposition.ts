@@ -3,6 +3,7 @@ import type { Kysely } from "kysely";
 import type { Database, Decision } from "@/db/types";
 import { AppError } from "@/lib/errors";
 import type { DispositionInput } from "@/lib/schemas/review";
+import { inTransaction } from "./in-transaction";
 import { recordAudit } from "./record-audit";
 
 /** Decisions that settle the flag at once; the others wait for the field work they order. */
@@ -18,7 +19,7 @@ export async function recordDisposition(
   db: Kysely<Database>,
   input: { projectId: string; flagId: string; engineer: { id: string; name: string }; disposition: DispositionInput },
 ): Promise<{ dispositionId: string; flagStatus: "closed" | "with_engineer" }> {
-  return db.transaction().execute(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const flag = await trx
       .selectFrom("flags")
       .select(["id", "status", "tendon_id"])
@@ -48,7 +49,12 @@ export async function recordDisposition(
       .updateTable("flags")
       .set(
         flagStatus === "closed"
-          ? { status: "closed", closed_at: new Date(), closed_by: input.engineer.id, close_reason: `Disposition ${decision}: ${reasons}` }
+          ? {
+              status: "closed",
+              closed_at: new Date(),
+              closed_by: input.engineer.id,
+              close_reason: `Disposition ${decision}: ${reasons}`,
+            }
           : { status: "with_engineer" },
       )
       .where("project_id", "=", input.projectId)

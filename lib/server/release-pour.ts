@@ -3,6 +3,7 @@ import type { Kysely } from "kysely";
 import type { Database, Role } from "@/db/types";
 import { AppError } from "@/lib/errors";
 import { stressedEnds } from "@/lib/stressing/basis";
+import { inTransaction } from "./in-transaction";
 import { recordAudit } from "./record-audit";
 
 export interface ReleaseBlockers {
@@ -11,7 +12,10 @@ export interface ReleaseBlockers {
 }
 
 /** What stands between a pour and its release: open flags, and tendon ends with no record. */
-export async function findReleaseBlockers(db: Kysely<Database>, input: { projectId: string; pourId: string }): Promise<ReleaseBlockers> {
+export async function findReleaseBlockers(
+  db: Kysely<Database>,
+  input: { projectId: string; pourId: string },
+): Promise<ReleaseBlockers> {
   const [openFlags, tendons, ends] = await Promise.all([
     db
       .selectFrom("flags")
@@ -54,7 +58,7 @@ export async function releasePour(
   db: Kysely<Database>,
   input: { projectId: string; pourId: string; by: { id: string; name: string; role: Role }; statement: string },
 ): Promise<{ releaseId: string }> {
-  return db.transaction().execute(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const pour = await trx
       .selectFrom("pours")
       .innerJoin("projects", "projects.id", "pours.project_id")
@@ -65,24 +69,51 @@ export async function releasePour(
       .executeTakeFirst();
     if (!pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
     if (input.by.role !== pour.release_by) {
-      throw new AppError("FORBIDDEN", `On this project the ${pour.release_by === "engineer" ? "engineer of record" : "inspector"} releases pours.`);
+      throw new AppError(
+        "FORBIDDEN",
+        `On this project the ${pour.release_by === "engineer" ? "engineer of record" : "inspector"} releases pours.`,
+      );
     }
     if (pour.status === "released") throw new AppError("CONFLICT", "This pour is already released.");
     const blockers = await findReleaseBlockers(trx, input);
     if (blockers.openFlags.length || blockers.unstressed.length) {
       const parts = [
-        blockers.openFlags.length ? `${blockers.openFlags.length} open flag(s) on ${[...new Set(blockers.openFlags.map((f) => f.tendonTag))].join(", ")}` : "",
-        blockers.unstressed.length ? `${blockers.unstressed.length} tendon(s) with ends not recorded, such as ${blockers.unstressed.slice(0, 5).map((t) => t.tendonTag).join(", ")}` : "",
+        blockers.openFlags.length
+          ? `${blockers.openFlags.length} open flag(s) on ${[...new Set(blockers.openFlags.map((f) => f.tendonTag))].join(", ")}`
+          : "",
+        blockers.unstressed.length
+          ? `${blockers.unstressed.length} tendon(s) with ends not recorded, such as ${blockers.unstressed
+              .slice(0, 5)
+              .map((t) => t.tendonTag)
+              .join(", ")}`
+          : "",
       ].filter(Boolean);
       throw new AppError("CONFLICT", `The pour cannot be released yet: ${parts.join("; ")}.`);
     }
     const row = await trx
       .insertInto("releases")
-      .values({ project_id: input.projectId, pour_id: input.pourId, released_by: input.by.id, released_by_name: input.by.name, statement: input.statement })
+      .values({
+        project_id: input.projectId,
+        pour_id: input.pourId,
+        released_by: input.by.id,
+        released_by_name: input.by.name,
+        statement: input.statement,
+      })
       .returning("id")
       .executeTakeFirstOrThrow();
-    await trx.updateTable("pours").set({ status: "released", updated_at: new Date() }).where("project_id", "=", input.projectId).where("id", "=", input.pourId).execute();
-    await recordAudit(trx, { action: "pour.release", outcome: "success", actorUserId: input.by.id, projectId: input.projectId, target: input.pourId });
+    await trx
+      .updateTable("pours")
+      .set({ status: "released", updated_at: new Date() })
+      .where("project_id", "=", input.projectId)
+      .where("id", "=", input.pourId)
+      .execute();
+    await recordAudit(trx, {
+      action: "pour.release",
+      outcome: "success",
+      actorUserId: input.by.id,
+      projectId: input.projectId,
+      target: input.pourId,
+    });
     return { releaseId: row.id };
   });
 }

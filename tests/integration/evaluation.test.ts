@@ -122,7 +122,7 @@ describe("the server's evaluation of a tendon", () => {
   it("flags a wire break, an expired calibration with the crew's reason, and a reading outside the calibrated range", async () => {
     const tendon = await fx.tendon("2-1-U04");
     const predicted = await predictedFor(tendon.id);
-    // Demo Set B is calibrated up to 40 MPa and valid until 2026-12-09.
+    // Demo Set B is calibrated up to 40 MPa and valid for 8 more days after seeding.
     await t.db.insertInto("records").values({
       id: "01900000-0000-7000-8000-000000000001",
       project_id: fx.projectId,
@@ -138,7 +138,7 @@ describe("the server's evaluation of a tendon", () => {
       entered: JSON.stringify({}),
       measured_mm: predicted.predictedMm,
       wire_breaks: 1,
-      device_time: "2026-12-20T15:00:00Z",
+      device_time: new Date(Date.now() + 20 * 86_400_000).toISOString(),
       device_time_zone: "America/Chicago",
       device_id: "test-device",
       author_user_id: fx.crewId,
@@ -163,8 +163,8 @@ describe("the server's evaluation of a tendon", () => {
     const tendon = await fx.tendon("2-1-U06");
     const predicted = await predictedFor(tendon.id);
     const base = { projectId: fx.projectId, tendon, end: "A" as const, equipmentSetId: fx.setA, authorId: fx.crewId, measuredMm: predicted.predictedMm, finalPressureMPa: normalPressure };
-    await insertRecord(t.db, { ...base, deviceTime: "2026-12-01T14:00:00Z" });
-    await insertRecord(t.db, { ...base, deviceTime: "2026-12-01T16:00:00Z" });
+    await insertRecord(t.db, { ...base, deviceTime: new Date(Date.now() - 2 * 3600_000).toISOString() });
+    await insertRecord(t.db, { ...base, deviceTime: new Date(Date.now() - 3600_000).toISOString() });
     const outcome = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
     expect(outcome.flagKinds).toEqual(["stressed_twice"]);
   });

@@ -45,6 +45,33 @@ describe("demo seed", () => {
     expect(after).toEqual(before);
   });
 
+  it("adds the stressing history once: a released pour, flags at each stage, nothing doubled", async () => {
+    await seedDemo(t.db, { records: true });
+    const count = async () => Number((await t.db.selectFrom("records").select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow()).n);
+    const records = await count();
+    expect(records).toBeGreaterThan(100);
+    await seedDemo(t.db, { records: true });
+    expect(await count()).toBe(records);
+
+    const pours = await t.db.selectFrom("pours").select(["name", "status"]).orderBy("name").execute();
+    expect(pours.find((p) => p.name === "L2 Pour 1")?.status).toBe("released");
+    const flags = await t.db
+      .selectFrom("flags")
+      .innerJoin("tendons", "tendons.id", "flags.tendon_id")
+      .select(["tendons.tag", "flags.kind", "flags.status"])
+      .orderBy("tendons.tag")
+      .execute();
+    expect(flags).toEqual([
+      { tag: "2-1-U14", kind: "out_of_band", status: "closed" },
+      { tag: "2-2-B03", kind: "wire_break", status: "open" },
+      { tag: "2-2-U08", kind: "out_of_band", status: "open" },
+      { tag: "2-2-U17", kind: "out_of_band", status: "with_engineer" },
+      { tag: "2-2-U23", kind: "out_of_band", status: "with_engineer" },
+    ]);
+    const decisions = await t.db.selectFrom("dispositions").select("decision").orderBy("created_at").execute();
+    expect(decisions.map((d) => d.decision)).toEqual(["accept", "restress", "liftoff_check"]);
+  });
+
   it("keeps data a person added between runs", async () => {
     const project = await t.db.selectFrom("projects").select("id").where("code", "=", "AYP").executeTakeFirstOrThrow();
     await t.db.insertInto("pours").values({ project_id: project.id, name: "Added by hand" }).execute();

@@ -50,7 +50,7 @@ export async function insertRecord(
       entered: JSON.stringify({ unit: "mm", measuredMm: input.measuredMm }),
       measured_mm: input.measuredMm,
       wire_breaks: input.wireBreaks ?? 0,
-      device_time: input.deviceTime ?? "2026-12-01T15:00:00Z",
+      device_time: input.deviceTime ?? new Date().toISOString(),
       device_time_zone: "America/Chicago",
       device_id: "test-device",
       author_user_id: input.authorId,
