@@ -5,7 +5,7 @@ const config = [
   ...nextVitals,
   ...nextTs,
   {
-    ignores: [".next/**", "node_modules/**", ".data/**", ".tmp/**", "public/sw.js", "test-results/**", "playwright-report/**", "next-env.d.ts"],
+    ignores: [".next/**", ".next-*/**", "node_modules/**", ".data/**", ".tmp/**", "public/sw.js", "test-results/**", "playwright-report/**", "next-env.d.ts"],
   },
   {
     files: ["db/migrations/**/*.ts", "db/migrate.ts"],
