@@ -39,7 +39,7 @@ export default async function EquipmentPage({ params }: { params: Promise<{ proj
                 {s.pumpSerial ? ` · pump ${s.pumpSerial}` : ""}
               </p>
               <p className={`mt-2 font-semibold ${s.state === "valid" ? "" : s.state === "expiring" ? "text-signal-long" : "text-signal-stop"}`}>
-                <span aria-hidden="true">{s.state === "valid" ? "✓ " : s.state === "expiring" ? "⚠ " : "⛔ "}</span>
+                <span aria-hidden="true">{s.state === "valid" ? "✓ " : s.state === "expiring" ? "⚠ " : "⚠ "}</span>
                 {CALIBRATION_STATE_LABELS[s.state]}
                 {c ? `: calibrated ${c.calibratedOn}, valid to ${c.validUntil}` : ""}
               </p>

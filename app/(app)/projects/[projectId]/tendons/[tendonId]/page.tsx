@@ -90,7 +90,7 @@ export default async function TendonPage({ params }: { params: Promise<{ project
               <ul className="space-y-1">
                 {computed.checks.map((c) => (
                   <li key={c.code} className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-semibold text-signal-stop">
-                    <span aria-hidden="true">⛔ </span>
+                    <span aria-hidden="true">⚠ </span>
                     {c.message}
                   </li>
                 ))}
@@ -164,7 +164,7 @@ export default async function TendonPage({ params }: { params: Promise<{ project
                   <td className="p-2 font-semibold">{t.name}</td>
                   <td className="p-2 text-right text-lead font-bold">{t.targetPressureMPa === null ? "—" : pressure(t.targetPressureMPa)}</td>
                   <td className={`p-2 font-semibold ${t.state === "expired" || t.state === "none" ? "text-signal-stop" : t.state === "expiring" ? "text-signal-long" : ""}`}>
-                    <span aria-hidden="true">{t.state === "valid" ? "✓ " : t.state === "expiring" ? "⚠ " : "⛔ "}</span>
+                    <span aria-hidden="true">{t.state === "valid" ? "✓ " : t.state === "expiring" ? "⚠ " : "⚠ "}</span>
                     {CALIBRATION_STATE_LABELS[t.state]}
                     {t.validUntil ? ` (to ${t.validUntil})` : ""}
                   </td>
