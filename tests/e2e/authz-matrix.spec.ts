@@ -202,6 +202,8 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     },
     "GET /api/projects/[projectId]/pours/[pourId]/tendons/export": { fixture: demoPourId, call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/tendons/export`) },
     "GET /api/projects/[projectId]/tendon-template": { call: (c) => c.get(`/api/projects/${projectId}/tendon-template`) },
+    "GET /api/projects/[projectId]/pours/[pourId]/report/pdf": { fixture: demoPourId, call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/report/pdf`) },
+    "GET /api/projects/[projectId]/pours/[pourId]/report/csv": { fixture: demoPourId, call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/report/csv`) },
     "GET /api/projects/[projectId]/tendons/[tendonId]": {
       fixture: async () => {
         const list = (await (await contexts.admin.get(`/api/projects/${projectId}/pours/${await demoPourId()}/tendons`)).json()) as { tendons: { id: string }[] };

@@ -54,6 +54,8 @@ export const MATRIX: Record<string, Expected> = {
   "POST /api/projects/[projectId]/pours/[pourId]/tendons/import": projectAction(201, ["admin"]),
   "GET /api/projects/[projectId]/pours/[pourId]/tendons/export": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "GET /api/projects/[projectId]/tendon-template": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
+  "GET /api/projects/[projectId]/pours/[pourId]/report/pdf": projectAction(200, ["admin", "inspector", "engineer"]),
+  "GET /api/projects/[projectId]/pours/[pourId]/report/csv": projectAction(200, ["admin", "inspector", "engineer"]),
   "GET /api/projects/[projectId]/tendons/[tendonId]": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "GET /api/projects/[projectId]/strand-lots": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "POST /api/projects/[projectId]/strand-lots": projectAction(201, ["admin"]),
