@@ -1,0 +1,28 @@
+import Papa from "papaparse";
+import type { PourReport } from "@/lib/server/get-pour-report";
+import { TENDON_COLUMNS, tendonRows } from "./pour-rows";
+
+/**
+ * Text a spreadsheet would run as a formula ("=", "@", a tab, or "+"/"-" not starting a number)
+ * gets a leading quote from papaparse; signed figures such as "+1.2 %" stay as they are.
+ */
+export const FORMULA_START = /^([=@\t\r]|[+\-](?![\d.]))/;
+
+/**
+ * The pour's report as CSV: one row per tendon end read, in the project's display units, with
+ * the project code and pour on each row. The same strings as the PDF's tendon table.
+ */
+
+export const CSV_COLUMNS = ["Project", "Pour", ...TENDON_COLUMNS] as const;
+
+export function pourCsvTable(report: PourReport): { fields: string[]; data: string[][] } {
+  return {
+    fields: [...CSV_COLUMNS],
+    data: tendonRows(report).map((row) => [report.project.code, report.pour.name, ...row]),
+  };
+}
+
+export function renderPourCsv(report: PourReport): string {
+  return Papa.unparse(pourCsvTable(report), { escapeFormulae: FORMULA_START, newline: "\r\n" });
+}
+

@@ -1,0 +1,157 @@
+import "server-only";
+import type { Kysely } from "kysely";
+import type { Database, Verdict } from "@/db/types";
+import { apparentModuli, equipmentDrift, resolutionShare, type ApparentModulus, type DeviationSample, type ResolutionShare, type SetDrift } from "@/lib/insights";
+import { AppError } from "@/lib/errors";
+import { readingResolution, type StoredResolution } from "@/lib/stressing/display";
+import { resolutionStepMm } from "@/lib/units";
+import { listTendonResults, type TendonResult } from "./list-tendon-results";
+
+/**
+ * What the pour's insight page shows: each evaluated tendon's deviation against the band, the
+ * pour's progress, the mean deviation per equipment set on the pour and across the project with
+ * drift marks, the apparent modulus where gauge steps were read, and the share of verdicts the
+ * reading division alone could change. SI values; the page formats them.
+ */
+
+export interface InsightPoint {
+  tag: string;
+  deviationPct: number;
+  verdict: Exclude<Verdict, "incomplete">;
+  provisional: boolean;
+  measuredMm: number;
+  predictedMm: number;
+}
+
+export interface PourInsight {
+  project: { code: string; name: string; unitSystem: "us" | "si"; readingResolution: StoredResolution; tolerancePct: number };
+  pour: { id: string; name: string; status: string };
+  progress: { tendons: number; stressed: number; provisional: number; flagged: number; released: number };
+  points: InsightPoint[];
+  driftOnPour: SetDrift[];
+  driftOnProject: SetDrift[];
+  /** Tendons whose ends were stressed by different sets, left out of the per-set means. */
+  mixedSets: number;
+  moduli: ApparentModulus[];
+  resolution: ResolutionShare;
+}
+
+/** A complete evaluation's deviation, attributed to the one set that stressed every end. */
+function deviationSamples(results: TendonResult[]): { samples: DeviationSample[]; mixed: number } {
+  const samples: DeviationSample[] = [];
+  let mixed = 0;
+  for (const t of results) {
+    const e = t.evaluation;
+    if (!e || e.provisional || e.deviationPct === null || e.verdict === "incomplete") continue;
+    const sets = [...new Set(t.endResults.map((r) => r.equipmentSetId))];
+    if (sets.length !== 1) {
+      mixed++;
+      continue;
+    }
+    samples.push({ setId: sets[0]!, setName: t.endResults[0]!.equipmentSetName, deviationPct: e.deviationPct });
+  }
+  return { samples, mixed };
+}
+
+export async function getPourInsight(db: Kysely<Database>, input: { projectId: string; pourId: string }): Promise<PourInsight> {
+  const [project, pour] = await Promise.all([
+    db
+      .selectFrom("projects")
+      .select(["code", "name", "unit_system", "reading_resolution", "tolerance_pct", "short_tendon_floor_mm"])
+      .where("id", "=", input.projectId)
+      .executeTakeFirst(),
+    db
+      .selectFrom("pours")
+      .leftJoin("releases", (j) => j.onRef("releases.pour_id", "=", "pours.id").onRef("releases.project_id", "=", "pours.project_id"))
+      .select(["pours.id", "pours.name", "pours.status", "releases.id as releaseId"])
+      .where("pours.project_id", "=", input.projectId)
+      .where("pours.id", "=", input.pourId)
+      .executeTakeFirst(),
+  ]);
+  if (!project || !pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
+
+  const [all, openFlags] = await Promise.all([
+    listTendonResults(db, { projectId: input.projectId }),
+    db
+      .selectFrom("flags")
+      .select("tendon_id")
+      .distinct()
+      .where("project_id", "=", input.projectId)
+      .where("pour_id", "=", input.pourId)
+      .where("status", "!=", "closed")
+      .execute(),
+  ]);
+  const onPour = all.filter((t) => t.pourId === input.pourId);
+  const evaluated = onPour.filter((t) => t.evaluation && t.evaluation.verdict !== "incomplete" && t.evaluation.deviationPct !== null);
+  const complete = evaluated.filter((t) => !t.evaluation!.provisional);
+
+  const points: InsightPoint[] = evaluated.map((t) => ({
+    tag: t.tag,
+    deviationPct: t.evaluation!.deviationPct!,
+    verdict: t.evaluation!.verdict as InsightPoint["verdict"],
+    provisional: t.evaluation!.provisional,
+    measuredMm: t.evaluation!.measuredMm ?? 0,
+    predictedMm: t.evaluation!.predictedMm ?? 0,
+  }));
+
+  const pourSamples = deviationSamples(onPour);
+  const projectSamples = deviationSamples(all);
+
+  const moduli = apparentModuli(
+    onPour.flatMap((t) =>
+      t.endResults.map((r) => ({
+        tag: t.tag,
+        end: r.end,
+        steps: r.gaugeSteps,
+        calibration: r.calibration,
+        lengthMm: t.lengthMm,
+        strandAreaMm2: t.strand?.areaMm2 ?? 0,
+        strandCount: t.strandCount,
+        millModulusMPa: t.strand?.modulusMPa ?? null,
+      })),
+    ).filter((r) => r.strandAreaMm2 > 0),
+  );
+
+  const divisionMm = resolutionStepMm(readingResolution(project.reading_resolution as StoredResolution));
+  const resolution = resolutionShare(
+    complete
+      .filter((t) => (t.evaluation!.predictedMm ?? 0) > 0 && t.evaluation!.measuredMm !== null)
+      .map((t) => {
+        const ratios = t.endResults.map((r) => (r.measuredMm > 0 ? r.totalMm / r.measuredMm : 1));
+        return {
+          tag: t.tag,
+          measuredMm: t.evaluation!.measuredMm!,
+          predictedMm: t.evaluation!.predictedMm!,
+          tolerancePct: project.tolerance_pct,
+          floorMm: project.short_tendon_floor_mm ?? undefined,
+          divisionMm,
+          endsRead: Math.max(1, t.endResults.length),
+          scale: ratios.length ? ratios.reduce((a, b) => a + b, 0) / ratios.length : 1,
+        };
+      }),
+  );
+
+  return {
+    project: {
+      code: project.code,
+      name: project.name,
+      unitSystem: project.unit_system,
+      readingResolution: project.reading_resolution as StoredResolution,
+      tolerancePct: project.tolerance_pct,
+    },
+    pour: { id: pour.id, name: pour.name, status: pour.status },
+    progress: {
+      tendons: onPour.length,
+      stressed: complete.length,
+      provisional: evaluated.length - complete.length,
+      flagged: openFlags.length,
+      released: pour.releaseId ? onPour.length : 0,
+    },
+    points,
+    driftOnPour: equipmentDrift(pourSamples.samples),
+    driftOnProject: equipmentDrift(projectSamples.samples),
+    mixedSets: pourSamples.mixed,
+    moduli,
+    resolution,
+  };
+}
