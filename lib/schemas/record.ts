@@ -22,7 +22,11 @@ export function entryUnitsFor(unitSystem: "us" | "si"): EntryUnits {
   return unitSystem === "us" ? { length: "in", pressure: "psi" } : { length: "mm", pressure: "MPa" };
 }
 
-const typed = (label: string) => z.string({ error: `Type the ${label}.` }).trim().max(40, `Keep the ${label} under 40 characters.`);
+const typed = (label: string) =>
+  z
+    .string({ error: `Type the ${label}.` })
+    .trim()
+    .max(40, `Keep the ${label} under 40 characters.`);
 
 /** The values exactly as typed, with the units bare numbers were read in. */
 export const enteredSchema = z.object({
@@ -54,7 +58,10 @@ function read<T>(problems: EntryProblem[], field: string, fn: () => T): T | null
   } catch (error) {
     if (!isInputError(error)) throw error;
     const said = error.message.replace(/^[^:]+:\s*/, "");
-    problems.push({ field, message: error.code === "required" ? "Type a value here." : said.charAt(0).toUpperCase() + said.slice(1) });
+    problems.push({
+      field,
+      message: error.code === "required" ? "Type a value here." : said.charAt(0).toUpperCase() + said.slice(1),
+    });
     return null;
   }
 }
@@ -63,14 +70,22 @@ function read<T>(problems: EntryProblem[], field: string, fn: () => T): T | null
  * Reads the typed text into SI values with lib/units: pressures in MPa, the elongation as the
  * mark distance after minus before, or the strokes summed. Returns the problems per form field.
  */
-export function deriveFromEntered(entered: Entered, method: (typeof READING_METHODS)[number]): { values: DerivedValues | null; problems: EntryProblem[] } {
+export function deriveFromEntered(
+  entered: Entered,
+  method: (typeof READING_METHODS)[number],
+): { values: DerivedValues | null; problems: EntryProblem[] } {
   const problems: EntryProblem[] = [];
   const lengthOpts = (field: string) => ({ field, system: "SI" as const, defaultUnit: entered.units.length });
   const pressureOpts = (field: string) => ({ field, system: "SI" as const, defaultUnit: entered.units.pressure });
 
-  const initial = entered.initialPressure ? read(problems, "initialPressure", () => parsePressure(entered.initialPressure!, pressureOpts("initialPressure"))) : null;
-  const final = read(problems, "finalPressure", () => parsePressure(entered.finalPressure, pressureOpts("finalPressure")));
-  if (final !== null && final <= 0) problems.push({ field: "finalPressure", message: "The final gauge pressure must be above zero." });
+  const initial = entered.initialPressure
+    ? read(problems, "initialPressure", () => parsePressure(entered.initialPressure!, pressureOpts("initialPressure")))
+    : null;
+  const final = read(problems, "finalPressure", () =>
+    parsePressure(entered.finalPressure, pressureOpts("finalPressure")),
+  );
+  if (final !== null && final <= 0)
+    problems.push({ field: "finalPressure", message: "The final gauge pressure must be above zero." });
   if (initial !== null && final !== null && initial >= final) {
     problems.push({ field: "initialPressure", message: "The initial pressure must be below the final pressure." });
   }
@@ -84,7 +99,8 @@ export function deriveFromEntered(entered: Entered, method: (typeof READING_METH
       const after = read(problems, "marksAfter", () => parseLength(entered.marks!.after, lengthOpts("marksAfter")));
       if (before !== null && after !== null) {
         measured = after - before;
-        if (measured <= 0) problems.push({ field: "marksAfter", message: "The mark after must be farther out than the mark before." });
+        if (measured <= 0)
+          problems.push({ field: "marksAfter", message: "The mark after must be farther out than the mark before." });
       }
     }
   } else {
@@ -102,10 +118,15 @@ export function deriveFromEntered(entered: Entered, method: (typeof READING_METH
     });
     if (ok) measured = sum;
   }
-  const seating = entered.seating ? read(problems, "seating", () => parseLength(entered.seating!, lengthOpts("seating"))) : null;
+  const seating = entered.seating
+    ? read(problems, "seating", () => parseLength(entered.seating!, lengthOpts("seating")))
+    : null;
 
   if (problems.length || final === null || measured === null) return { values: null, problems };
-  return { values: { initialPressureMPa: initial, finalPressureMPa: final, measuredMm: measured, seatingMm: seating }, problems };
+  return {
+    values: { initialPressureMPa: initial, finalPressureMPa: final, measuredMm: measured, seatingMm: seating },
+    problems,
+  };
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -132,7 +153,10 @@ export const recordFormShape = z.object({
   marksAfter: z.string().trim().max(40),
   strokes: z.array(z.object({ value: z.string().trim().max(40) })).max(MAX_STROKES),
   seating: z.string().trim().max(40),
-  wireBreaks: z.string().trim().regex(/^\d{0,2}$/, "Type the number of broken wires as a whole number (0 if none)."),
+  wireBreaks: z
+    .string()
+    .trim()
+    .regex(/^\d{0,2}$/, "Type the number of broken wires as a whole number (0 if none)."),
   remarks: z.string().trim().max(2000, "Keep the remarks under 2000 characters."),
   revisionReason: z.string().trim().max(500, "Keep the reason under 500 characters."),
 });
@@ -175,7 +199,11 @@ function formPath(field: string): (string | number)[] {
 export function recordFormSchema(context: RecordFormContext) {
   return recordFormShape.superRefine((values, ctx) => {
     if (!context.ends.includes(values.tendonEnd)) {
-      ctx.addIssue({ code: "custom", path: ["tendonEnd"], message: `This tendon is stressed at end ${context.ends.join(" and ")} only.` });
+      ctx.addIssue({
+        code: "custom",
+        path: ["tendonEnd"],
+        message: `This tendon is stressed at end ${context.ends.join(" and ")} only.`,
+      });
     }
     if (context.expiredSetIds.includes(values.equipmentSetId) && values.expiredCalibrationReason.length < 3) {
       ctx.addIssue({
@@ -184,7 +212,8 @@ export function recordFormSchema(context: RecordFormContext) {
         message: "This set's calibration has expired: say why it is used anyway.",
       });
     }
-    if (!values.finalPressure) ctx.addIssue({ code: "custom", path: ["finalPressure"], message: "Type the final gauge pressure." });
+    if (!values.finalPressure)
+      ctx.addIssue({ code: "custom", path: ["finalPressure"], message: "Type the final gauge pressure." });
     if (context.correction && values.revisionReason.length < 3) {
       ctx.addIssue({ code: "custom", path: ["revisionReason"], message: "Say why this record is corrected." });
     }
@@ -203,7 +232,8 @@ const optionalText = (max: number, label: string) =>
   z.string().trim().min(1, `The ${label} is empty.`).max(max, `Keep the ${label} under ${max} characters.`).nullable();
 
 // Two readings derived the same way agree to the last bits of a double.
-const agrees = (a: number | null, b: number | null) => (a === null || b === null ? a === b : Math.abs(a - b) <= 1e-9 * Math.max(1, Math.abs(a)));
+const agrees = (a: number | null, b: number | null) =>
+  a === null || b === null ? a === b : Math.abs(a - b) <= 1e-9 * Math.max(1, Math.abs(a));
 
 export const recordPayloadSchema = z
   .object({
@@ -222,30 +252,68 @@ export const recordPayloadSchema = z
     finalPressureMPa: z.number().finite().positive("The final pressure must be above zero."),
     readingMethod: z.enum(READING_METHODS, { error: "The reading method must be marks or strokes." }),
     entered: enteredSchema,
-    measuredMm: z.number().finite().positive("The measured elongation must be above zero.").max(5000, "The measured elongation is over 5 m."),
-    seatingMm: z.number().finite().nonnegative("Seating cannot be negative.").max(100, "Seating over 100 mm is not a reading.").nullable(),
+    measuredMm: z
+      .number()
+      .finite()
+      .positive("The measured elongation must be above zero.")
+      .max(5000, "The measured elongation is over 5 m."),
+    seatingMm: z
+      .number()
+      .finite()
+      .nonnegative("Seating cannot be negative.")
+      .max(100, "Seating over 100 mm is not a reading.")
+      .nullable(),
     wireBreaks: z.number().int("Wire breaks are a whole number.").min(0).max(99),
     remarks: optionalText(2000, "remarks"),
     deviceTime: z.iso.datetime({ offset: true, error: "The device time must be an ISO date and time." }),
-    deviceTimeZone: z.string().min(1).max(64).regex(/^[A-Za-z0-9_+\-/]+$/, "Not a time zone name."),
+    deviceTimeZone: z
+      .string()
+      .min(1)
+      .max(64)
+      .regex(/^[A-Za-z0-9_+\-/]+$/, "Not a time zone name."),
     authorUserId: uuid("operator"),
   })
   .strict()
   .superRefine((p, ctx) => {
     if (p.revision === 1 && (p.baseRecordId !== null || p.revisionReason !== null)) {
-      ctx.addIssue({ code: "custom", path: ["baseRecordId"], message: "A first record names no base and no correction reason." });
+      ctx.addIssue({
+        code: "custom",
+        path: ["baseRecordId"],
+        message: "A first record names no base and no correction reason.",
+      });
     }
     if (p.revision > 1 && (p.baseRecordId === null || p.revisionReason === null || p.revisionReason.length < 3)) {
-      ctx.addIssue({ code: "custom", path: ["revisionReason"], message: "A correction names the record it corrects and a reason." });
+      ctx.addIssue({
+        code: "custom",
+        path: ["revisionReason"],
+        message: "A correction names the record it corrects and a reason.",
+      });
     }
     const derived = deriveFromEntered(p.entered, p.readingMethod);
-    for (const problem of derived.problems) ctx.addIssue({ code: "custom", path: ["entered", problem.field], message: problem.message });
+    for (const problem of derived.problems)
+      ctx.addIssue({ code: "custom", path: ["entered", problem.field], message: problem.message });
     const v = derived.values;
     if (!v) return;
-    if (!agrees(v.finalPressureMPa, p.finalPressureMPa)) ctx.addIssue({ code: "custom", path: ["finalPressureMPa"], message: "The final pressure does not match the value as typed." });
-    if (!agrees(v.initialPressureMPa, p.initialPressureMPa)) ctx.addIssue({ code: "custom", path: ["initialPressureMPa"], message: "The initial pressure does not match the value as typed." });
-    if (!agrees(v.measuredMm, p.measuredMm)) ctx.addIssue({ code: "custom", path: ["measuredMm"], message: "The elongation does not match the readings as typed." });
-    if (!agrees(v.seatingMm, p.seatingMm)) ctx.addIssue({ code: "custom", path: ["seatingMm"], message: "The seating does not match the value as typed." });
+    if (!agrees(v.finalPressureMPa, p.finalPressureMPa))
+      ctx.addIssue({
+        code: "custom",
+        path: ["finalPressureMPa"],
+        message: "The final pressure does not match the value as typed.",
+      });
+    if (!agrees(v.initialPressureMPa, p.initialPressureMPa))
+      ctx.addIssue({
+        code: "custom",
+        path: ["initialPressureMPa"],
+        message: "The initial pressure does not match the value as typed.",
+      });
+    if (!agrees(v.measuredMm, p.measuredMm))
+      ctx.addIssue({
+        code: "custom",
+        path: ["measuredMm"],
+        message: "The elongation does not match the readings as typed.",
+      });
+    if (!agrees(v.seatingMm, p.seatingMm))
+      ctx.addIssue({ code: "custom", path: ["seatingMm"], message: "The seating does not match the value as typed." });
   });
 export type RecordPayload = z.infer<typeof recordPayloadSchema>;
 

@@ -43,7 +43,8 @@ export const pushRequestSchema = z
   .superRefine((body, ctx) => {
     const seen = new Set<string>();
     body.ops.forEach((op, i) => {
-      if (seen.has(op.opId)) ctx.addIssue({ code: "custom", path: ["ops", i, "opId"], message: "The same opId appears twice in one push." });
+      if (seen.has(op.opId))
+        ctx.addIssue({ code: "custom", path: ["ops", i, "opId"], message: "The same opId appears twice in one push." });
       seen.add(op.opId);
     });
   });
@@ -85,8 +86,18 @@ export const pullQuerySchema = z.object({
   cursor: cursorSchema.default("0"),
   pours: z
     .string({ error: "Name the pours to pull, comma-separated." })
-    .transform((s) => s.split(",").map((p) => p.trim()).filter(Boolean))
-    .pipe(z.array(z.uuid({ error: "Each pour must be a UUID." })).min(1, "Name at least one pour.").max(20, "Pull at most 20 pours at a time.")),
+    .transform((s) =>
+      s
+        .split(",")
+        .map((p) => p.trim())
+        .filter(Boolean),
+    )
+    .pipe(
+      z
+        .array(z.uuid({ error: "Each pour must be a UUID." }))
+        .min(1, "Name at least one pour.")
+        .max(20, "Pull at most 20 pours at a time."),
+    ),
 });
 export type PullQuery = z.infer<typeof pullQuerySchema>;
 

@@ -7,13 +7,18 @@ import type { AvailablePour } from "@/lib/schemas/sync";
 import { recordingProjectIds } from "./require-recorder";
 
 /** The pours a crew member may take out on the tablet, newest stressing date first. */
-export async function listFieldPours(db: Kysely<Database>, user: Pick<SessionUser, "memberships">): Promise<{ pours: AvailablePour[] }> {
+export async function listFieldPours(
+  db: Kysely<Database>,
+  user: Pick<SessionUser, "memberships">,
+): Promise<{ pours: AvailablePour[] }> {
   const projectIds = recordingProjectIds(user);
   if (!projectIds.length) return { pours: [] };
   const rows = await db
     .selectFrom("pours")
     .innerJoin("projects", "projects.id", "pours.project_id")
-    .leftJoin("tendons", (j) => j.onRef("tendons.pour_id", "=", "pours.id").onRef("tendons.project_id", "=", "pours.project_id"))
+    .leftJoin("tendons", (j) =>
+      j.onRef("tendons.pour_id", "=", "pours.id").onRef("tendons.project_id", "=", "pours.project_id"),
+    )
     .select((eb) => [
       "pours.id",
       "pours.project_id",

@@ -27,7 +27,10 @@ export async function pullChanges(
     .setIsolationLevel("repeatable read")
     .execute(async (trx: Trx) => {
       // First statement: fixes the snapshot the rest of the transaction reads.
-      const { rows } = await sql<{ xmin: string; now: Date }>`select pg_snapshot_xmin(pg_current_snapshot())::text as xmin, now() as now`.execute(trx);
+      const { rows } = await sql<{
+        xmin: string;
+        now: Date;
+      }>`select pg_snapshot_xmin(pg_current_snapshot())::text as xmin, now() as now`.execute(trx);
       const { xmin, now } = rows[0]!;
       const cursor = input.cursor;
       const empty = (): PullResponse => ({
@@ -47,122 +50,161 @@ export async function pullChanges(
       });
       if (!allowed.length) return empty();
 
-      const found = await trx.selectFrom("pours").select(["id", "project_id"]).where("id", "in", input.pourIds).where("project_id", "in", allowed).execute();
+      const found = await trx
+        .selectFrom("pours")
+        .select(["id", "project_id"])
+        .where("id", "in", input.pourIds)
+        .where("project_id", "in", allowed)
+        .execute();
       const pourIds = found.map((p) => p.id);
       const unavailable = input.pourIds.filter((id) => !pourIds.includes(id));
       if (!pourIds.length) return { ...empty(), unavailable };
       const projectIds = [...new Set(found.map((p) => p.project_id))];
 
-      const [projects, pours, tendons, lots, sets, calibrations, records, evaluations, flags, removed] = await Promise.all([
-        trx
-          .selectFrom("projects")
-          .select([
-            "id",
-            "code",
-            "name",
-            "unit_system",
-            "reading_resolution",
-            "tolerance_pct",
-            "short_tendon_floor_mm",
-            "comparison_basis",
-            "count_jack_grip",
-            "friction_mu",
-            "wobble_per_m",
-            "anchor_set_mm",
-            "blind_entry",
-          ])
-          .where("id", "in", projectIds)
-          .where(since("change_xid", cursor))
-          .execute(),
-        trx
-          .selectFrom("pours")
-          .select(["id", "project_id", "name", "level", "planned_stressing_date", "status"])
-          .where("id", "in", pourIds)
-          .where(since("change_xid", cursor))
-          .execute(),
-        trx
-          .selectFrom("tendons")
-          .select(["id", "project_id", "pour_id", "tag", "kind", "strand_size", "strand_count", "segments", "ends", "jack_grip_mm", "strand_lot_id"])
-          .where("project_id", "in", projectIds)
-          .where("pour_id", "in", pourIds)
-          .where(since("change_xid", cursor))
-          .orderBy("tag")
-          .execute(),
-        trx
-          .selectFrom("strand_lots")
-          .select(["id", "project_id", "lot_number", "strand_size", "area_mm2", "modulus_mpa", "breaking_load_n"])
-          .where("project_id", "in", projectIds)
-          .where(since("change_xid", cursor))
-          .execute(),
-        trx
-          .selectFrom("equipment_sets")
-          .select(["id", "project_id", "name", "jack_serial", "gauge_serial", "jack_grip_mm"])
-          .where("project_id", "in", projectIds)
-          .where(since("change_xid", cursor))
-          .orderBy("name")
-          .execute(),
-        trx
-          .selectFrom("calibrations")
-          .select(["id", "project_id", "equipment_set_id", "calibrated_on", "valid_until", "slope_n_per_mpa", "intercept_n", "min_pressure_mpa", "max_pressure_mpa"])
-          .where("project_id", "in", projectIds)
-          .where(since("change_xid", cursor))
-          .execute(),
-        trx
-          .selectFrom("records")
-          .innerJoin("users", "users.id", "records.author_user_id")
-          .select([
-            "records.id",
-            "records.project_id",
-            "records.pour_id",
-            "records.tendon_id",
-            "records.tendon_end",
-            "records.chain_id",
-            "records.revision",
-            "records.base_record_id",
-            "records.revision_reason",
-            "records.equipment_set_id",
-            "records.calibration_id",
-            "records.initial_pressure_mpa",
-            "records.final_pressure_mpa",
-            "records.reading_method",
-            "records.entered",
-            "records.measured_mm",
-            "records.seating_mm",
-            "records.wire_breaks",
-            "records.remarks",
-            "records.device_time",
-            "records.author_user_id",
-            "users.name as author_name",
-          ])
-          .where("records.project_id", "in", projectIds)
-          .where("records.pour_id", "in", pourIds)
-          .where(since("records.change_xid", cursor))
-          .execute(),
-        trx
-          .selectFrom("evaluations")
-          .innerJoin("tendons", (j) => j.onRef("tendons.id", "=", "evaluations.tendon_id").onRef("tendons.project_id", "=", "evaluations.project_id"))
-          .select(["evaluations.id", "evaluations.tendon_id", "evaluations.verdict", "evaluations.provisional", "evaluations.deviation_pct", "evaluations.created_at"])
-          .where("evaluations.project_id", "in", projectIds)
-          .where("tendons.pour_id", "in", pourIds)
-          .where(since("evaluations.change_xid", cursor))
-          .execute(),
-        trx
-          .selectFrom("flags")
-          .select(["id", "tendon_id", "kind", "status"])
-          .where("project_id", "in", projectIds)
-          .where("pour_id", "in", pourIds)
-          .where(since("change_xid", cursor))
-          .execute(),
-        cursor === "0"
-          ? Promise.resolve([])
-          : trx
-              .selectFrom("sync_tombstones")
-              .select(["table_name", "row_id"])
-              .where("project_id", "in", projectIds)
-              .where((eb) => eb.or([eb("pour_id", "in", pourIds), eb("pour_id", "is", null)]))
-              .where(since("change_xid", cursor))
-              .execute(),
-      ]);
+      const [projects, pours, tendons, lots, sets, calibrations, records, evaluations, flags, removed] =
+        await Promise.all([
+          trx
+            .selectFrom("projects")
+            .select([
+              "id",
+              "code",
+              "name",
+              "unit_system",
+              "reading_resolution",
+              "tolerance_pct",
+              "short_tendon_floor_mm",
+              "comparison_basis",
+              "count_jack_grip",
+              "friction_mu",
+              "wobble_per_m",
+              "anchor_set_mm",
+              "blind_entry",
+            ])
+            .where("id", "in", projectIds)
+            .where(since("change_xid", cursor))
+            .execute(),
+          trx
+            .selectFrom("pours")
+            .select(["id", "project_id", "name", "level", "planned_stressing_date", "status"])
+            .where("id", "in", pourIds)
+            .where(since("change_xid", cursor))
+            .execute(),
+          trx
+            .selectFrom("tendons")
+            .select([
+              "id",
+              "project_id",
+              "pour_id",
+              "tag",
+              "kind",
+              "strand_size",
+              "strand_count",
+              "segments",
+              "ends",
+              "jack_grip_mm",
+              "strand_lot_id",
+            ])
+            .where("project_id", "in", projectIds)
+            .where("pour_id", "in", pourIds)
+            .where(since("change_xid", cursor))
+            .orderBy("tag")
+            .execute(),
+          trx
+            .selectFrom("strand_lots")
+            .select(["id", "project_id", "lot_number", "strand_size", "area_mm2", "modulus_mpa", "breaking_load_n"])
+            .where("project_id", "in", projectIds)
+            .where(since("change_xid", cursor))
+            .execute(),
+          trx
+            .selectFrom("equipment_sets")
+            .select(["id", "project_id", "name", "jack_serial", "gauge_serial", "jack_grip_mm"])
+            .where("project_id", "in", projectIds)
+            .where(since("change_xid", cursor))
+            .orderBy("name")
+            .execute(),
+          trx
+            .selectFrom("calibrations")
+            .select([
+              "id",
+              "project_id",
+              "equipment_set_id",
+              "calibrated_on",
+              "valid_until",
+              "slope_n_per_mpa",
+              "intercept_n",
+              "min_pressure_mpa",
+              "max_pressure_mpa",
+            ])
+            .where("project_id", "in", projectIds)
+            .where(since("change_xid", cursor))
+            .execute(),
+          trx
+            .selectFrom("records")
+            .innerJoin("users", "users.id", "records.author_user_id")
+            .select([
+              "records.id",
+              "records.project_id",
+              "records.pour_id",
+              "records.tendon_id",
+              "records.tendon_end",
+              "records.chain_id",
+              "records.revision",
+              "records.base_record_id",
+              "records.revision_reason",
+              "records.equipment_set_id",
+              "records.calibration_id",
+              "records.initial_pressure_mpa",
+              "records.final_pressure_mpa",
+              "records.reading_method",
+              "records.entered",
+              "records.measured_mm",
+              "records.seating_mm",
+              "records.wire_breaks",
+              "records.remarks",
+              "records.device_time",
+              "records.author_user_id",
+              "users.name as author_name",
+            ])
+            .where("records.project_id", "in", projectIds)
+            .where("records.pour_id", "in", pourIds)
+            .where(since("records.change_xid", cursor))
+            .execute(),
+          trx
+            .selectFrom("evaluations")
+            .innerJoin("tendons", (j) =>
+              j
+                .onRef("tendons.id", "=", "evaluations.tendon_id")
+                .onRef("tendons.project_id", "=", "evaluations.project_id"),
+            )
+            .select([
+              "evaluations.id",
+              "evaluations.tendon_id",
+              "evaluations.verdict",
+              "evaluations.provisional",
+              "evaluations.deviation_pct",
+              "evaluations.created_at",
+            ])
+            .where("evaluations.project_id", "in", projectIds)
+            .where("tendons.pour_id", "in", pourIds)
+            .where(since("evaluations.change_xid", cursor))
+            .execute(),
+          trx
+            .selectFrom("flags")
+            .select(["id", "tendon_id", "kind", "status"])
+            .where("project_id", "in", projectIds)
+            .where("pour_id", "in", pourIds)
+            .where(since("change_xid", cursor))
+            .execute(),
+          cursor === "0"
+            ? Promise.resolve([])
+            : trx
+                .selectFrom("sync_tombstones")
+                .select(["table_name", "row_id"])
+                .where("project_id", "in", projectIds)
+                .where((eb) => eb.or([eb("pour_id", "in", pourIds), eb("pour_id", "is", null)]))
+                .where(since("change_xid", cursor))
+                .execute(),
+        ]);
 
       return {
         cursor: xmin,

@@ -49,7 +49,9 @@ const rejected = (op: SyncOp, code: string, message: string, fields?: Record<str
 /** The calendar day of an instant in the device's time zone, or null for an unknown zone. */
 function localDay(instant: string, timeZone: string): string | null {
   try {
-    return new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" }).format(new Date(instant));
+    return new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" }).format(
+      new Date(instant),
+    );
   } catch {
     return null;
   }
@@ -63,22 +65,41 @@ function precheck(op: SyncOp, user: Pusher): { payload: RecordPayload; day: stri
   }
   const p = parsed.data;
   if (op.kind === "create" && (p.revision !== 1 || p.chainId !== op.recordId || op.baseVersion !== undefined)) {
-    return rejected(op, "INVALID_INPUT", "A new record is revision 1 of its own chain, with no base version.", { revision: ["Must be 1 for a new record."] });
-  }
-  if (op.kind === "revise" && (op.baseVersion === undefined || p.revision !== op.baseVersion + 1 || p.chainId === op.recordId)) {
-    return rejected(op, "INVALID_INPUT", "A correction names the version it corrects and is the next revision of that chain.", {
-      baseVersion: ["A correction needs baseVersion, and its revision must be baseVersion + 1."],
+    return rejected(op, "INVALID_INPUT", "A new record is revision 1 of its own chain, with no base version.", {
+      revision: ["Must be 1 for a new record."],
     });
+  }
+  if (
+    op.kind === "revise" &&
+    (op.baseVersion === undefined || p.revision !== op.baseVersion + 1 || p.chainId === op.recordId)
+  ) {
+    return rejected(
+      op,
+      "INVALID_INPUT",
+      "A correction names the version it corrects and is the next revision of that chain.",
+      {
+        baseVersion: ["A correction needs baseVersion, and its revision must be baseVersion + 1."],
+      },
+    );
   }
   const day = localDay(p.deviceTime, p.deviceTimeZone);
-  if (!day) return rejected(op, "INVALID_INPUT", "The device time zone is not one the server knows.", { deviceTimeZone: ["Unknown time zone."] });
+  if (!day)
+    return rejected(op, "INVALID_INPUT", "The device time zone is not one the server knows.", {
+      deviceTimeZone: ["Unknown time zone."],
+    });
   const membership = user.memberships.find((m) => m.projectId === p.projectId);
   if (!membership) return rejected(op, "NOT_FOUND", "No such project among yours.");
-  if (!can(membership.role, "record.create")) return rejected(op, "FORBIDDEN", `Your role on this project (${membership.role}) does not allow recording.`);
+  if (!can(membership.role, "record.create"))
+    return rejected(op, "FORBIDDEN", `Your role on this project (${membership.role}) does not allow recording.`);
   if (p.authorUserId !== user.id) {
-    return rejected(op, "FORBIDDEN", "This record was made by another person on this tablet; it is sent when they sign in.", {
-      authorUserId: ["Not the signed-in person."],
-    });
+    return rejected(
+      op,
+      "FORBIDDEN",
+      "This record was made by another person on this tablet; it is sent when they sign in.",
+      {
+        authorUserId: ["Not the signed-in person."],
+      },
+    );
   }
   return { payload: p, day };
 }
@@ -87,35 +108,66 @@ function precheck(op: SyncOp, user: Pusher): { payload: RecordPayload; day: stri
 async function loadRefs(trx: Trx, p: RecordPayload) {
   return trx
     .selectFrom("tendons")
-    .innerJoin("pours", (j) => j.onRef("pours.id", "=", "tendons.pour_id").onRef("pours.project_id", "=", "tendons.project_id"))
-    .leftJoin("equipment_sets", (j) => j.on("equipment_sets.id", "=", p.equipmentSetId).onRef("equipment_sets.project_id", "=", "tendons.project_id"))
+    .innerJoin("pours", (j) =>
+      j.onRef("pours.id", "=", "tendons.pour_id").onRef("pours.project_id", "=", "tendons.project_id"),
+    )
+    .leftJoin("equipment_sets", (j) =>
+      j.on("equipment_sets.id", "=", p.equipmentSetId).onRef("equipment_sets.project_id", "=", "tendons.project_id"),
+    )
     .leftJoin("calibrations", (j) =>
       j
         .on("calibrations.id", "=", p.calibrationId ?? "00000000-0000-0000-0000-000000000000")
         .onRef("calibrations.equipment_set_id", "=", "equipment_sets.id")
         .onRef("calibrations.project_id", "=", "tendons.project_id"),
     )
-    .select(["tendons.pour_id", "tendons.ends", "equipment_sets.id as setId", "calibrations.id as calibrationId", "calibrations.valid_until"])
+    .select([
+      "tendons.pour_id",
+      "tendons.ends",
+      "equipment_sets.id as setId",
+      "calibrations.id as calibrationId",
+      "calibrations.valid_until",
+    ])
     .where("tendons.project_id", "=", p.projectId)
     .where("tendons.id", "=", p.tendonId)
     .executeTakeFirst();
 }
 
-function refProblem(op: SyncOp, p: RecordPayload, day: string, refs: Awaited<ReturnType<typeof loadRefs>>): OpResult | null {
-  if (!refs) return rejected(op, "NOT_FOUND", "No such tendon on this project.", { tendonId: ["Not a tendon of this project."] });
-  if (refs.pour_id !== p.pourId) return rejected(op, "INVALID_INPUT", "The tendon is not in that pour.", { pourId: ["Not the tendon's pour."] });
+function refProblem(
+  op: SyncOp,
+  p: RecordPayload,
+  day: string,
+  refs: Awaited<ReturnType<typeof loadRefs>>,
+): OpResult | null {
+  if (!refs)
+    return rejected(op, "NOT_FOUND", "No such tendon on this project.", {
+      tendonId: ["Not a tendon of this project."],
+    });
+  if (refs.pour_id !== p.pourId)
+    return rejected(op, "INVALID_INPUT", "The tendon is not in that pour.", { pourId: ["Not the tendon's pour."] });
   if (refs.ends !== "both" && refs.ends !== p.tendonEnd) {
-    return rejected(op, "INVALID_INPUT", `This tendon is stressed at end ${refs.ends} only.`, { tendonEnd: [`Only end ${refs.ends}.`] });
+    return rejected(op, "INVALID_INPUT", `This tendon is stressed at end ${refs.ends} only.`, {
+      tendonEnd: [`Only end ${refs.ends}.`],
+    });
   }
-  if (!refs.setId) return rejected(op, "NOT_FOUND", "No such equipment set on this project.", { equipmentSetId: ["Not a set of this project."] });
+  if (!refs.setId)
+    return rejected(op, "NOT_FOUND", "No such equipment set on this project.", {
+      equipmentSetId: ["Not a set of this project."],
+    });
   if (p.calibrationId && !refs.calibrationId) {
-    return rejected(op, "NOT_FOUND", "That calibration does not belong to the equipment set.", { calibrationId: ["Not this set's calibration."] });
+    return rejected(op, "NOT_FOUND", "That calibration does not belong to the equipment set.", {
+      calibrationId: ["Not this set's calibration."],
+    });
   }
   const expired = !refs.valid_until || refs.valid_until < day;
   if (expired && !p.expiredCalibrationReason) {
-    return rejected(op, "INVALID_INPUT", "The equipment set's calibration had expired on the day of the record: a reason is required.", {
-      expiredCalibrationReason: ["Say why an expired set was used."],
-    });
+    return rejected(
+      op,
+      "INVALID_INPUT",
+      "The equipment set's calibration had expired on the day of the record: a reason is required.",
+      {
+        expiredCalibrationReason: ["Say why an expired set was used."],
+      },
+    );
   }
   return null;
 }
@@ -124,7 +176,18 @@ function refProblem(op: SyncOp, p: RecordPayload, day: string, refs: Awaited<Ret
 async function sameRecordStored(trx: Trx, recordId: string, p: RecordPayload): Promise<boolean | null> {
   const row = await trx
     .selectFrom("records")
-    .select(["project_id", "tendon_id", "tendon_end", "chain_id", "revision", "measured_mm", "final_pressure_mpa", "equipment_set_id", "device_time", "author_user_id"])
+    .select([
+      "project_id",
+      "tendon_id",
+      "tendon_end",
+      "chain_id",
+      "revision",
+      "measured_mm",
+      "final_pressure_mpa",
+      "equipment_set_id",
+      "device_time",
+      "author_user_id",
+    ])
     .where("id", "=", recordId)
     .executeTakeFirst();
   if (!row) return null;
@@ -178,10 +241,20 @@ async function insertRecord(trx: Trx, recordId: string, deviceId: string, p: Rec
 }
 
 async function duplicateOf(trx: Trx, op: SyncOp, user: Pusher): Promise<OpResult> {
-  const stored = await trx.selectFrom("applied_ops").select(["user_id", "status", "result"]).where("op_id", "=", op.opId).executeTakeFirstOrThrow();
-  if (stored.user_id !== user.id) return rejected(op, "CONFLICT", "This operation id was already used by someone else.");
+  const stored = await trx
+    .selectFrom("applied_ops")
+    .select(["user_id", "status", "result"])
+    .where("op_id", "=", op.opId)
+    .executeTakeFirstOrThrow();
+  if (stored.user_id !== user.id)
+    return rejected(op, "CONFLICT", "This operation id was already used by someone else.");
   const result = stored.result as { revision?: number; evaluation?: OpEvaluation };
-  return { opId: op.opId, status: "duplicate", ...(result.revision ? { revision: result.revision } : {}), ...(result.evaluation ? { evaluation: result.evaluation } : {}) };
+  return {
+    opId: op.opId,
+    status: "duplicate",
+    ...(result.revision ? { revision: result.revision } : {}),
+    ...(result.evaluation ? { evaluation: result.evaluation } : {}),
+  };
 }
 
 function databaseRefusal(op: SyncOp, error: unknown): OpResult | null {
@@ -193,7 +266,11 @@ function databaseRefusal(op: SyncOp, error: unknown): OpResult | null {
   return null;
 }
 
-async function applyOp(db: Db, input: { user: Pusher; deviceId: string; hooks?: PushHooks }, op: SyncOp): Promise<OpResult> {
+async function applyOp(
+  db: Db,
+  input: { user: Pusher; deviceId: string; hooks?: PushHooks },
+  op: SyncOp,
+): Promise<OpResult> {
   const { user, deviceId } = input;
   const checked = precheck(op, user);
   if ("status" in checked) {
@@ -214,7 +291,15 @@ async function applyOp(db: Db, input: { user: Pusher; deviceId: string; hooks?: 
     result = await db.transaction().execute(async (trx) => {
       const claimed = await trx
         .insertInto("applied_ops")
-        .values({ op_id: op.opId, project_id: p.projectId, device_id: deviceId, user_id: user.id, kind: op.kind, record_id: op.recordId, status: "applied" })
+        .values({
+          op_id: op.opId,
+          project_id: p.projectId,
+          device_id: deviceId,
+          user_id: user.id,
+          kind: op.kind,
+          record_id: op.recordId,
+          status: "applied",
+        })
         .onConflict((oc) => oc.column("op_id").doNothing())
         .returning("op_id")
         .executeTakeFirst();
@@ -232,9 +317,19 @@ async function applyOp(db: Db, input: { user: Pusher; deviceId: string; hooks?: 
           .orderBy("revision", "desc")
           .limit(1)
           .executeTakeFirst();
-        if (!head) throw new Answer(rejected(op, "NOT_FOUND", "There is no record to correct: its first revision has not reached the server."));
+        if (!head)
+          throw new Answer(
+            rejected(op, "NOT_FOUND", "There is no record to correct: its first revision has not reached the server."),
+          );
         if (head.tendon_id !== p.tendonId || head.tendon_end !== p.tendonEnd) {
-          throw new Answer(rejected(op, "INVALID_INPUT", "A correction stays on the same tendon end; record the other end as a new record.", { tendonId: ["Not the corrected record's tendon."] }));
+          throw new Answer(
+            rejected(
+              op,
+              "INVALID_INPUT",
+              "A correction stays on the same tendon end; record the other end as a new record.",
+              { tendonId: ["Not the corrected record's tendon."] },
+            ),
+          );
         }
         if (head.revision !== op.baseVersion || head.id !== p.baseRecordId) {
           throw new Answer({
@@ -242,7 +337,10 @@ async function applyOp(db: Db, input: { user: Pusher; deviceId: string; hooks?: 
             status: "conflict",
             revision: head.revision,
             headRecordId: head.id,
-            error: { code: "CONFLICT", message: `This record was corrected elsewhere first (the server has revision ${head.revision}); nothing was saved.` },
+            error: {
+              code: "CONFLICT",
+              message: `This record was corrected elsewhere first (the server has revision ${head.revision}); nothing was saved.`,
+            },
           });
         }
       }
@@ -252,8 +350,14 @@ async function applyOp(db: Db, input: { user: Pusher; deviceId: string; hooks?: 
         if (same) throw new Answer({ opId: op.opId, status: "duplicate", revision: p.revision });
         const error: OpError =
           same === false
-            ? { code: "CONFLICT", message: "A record with this id is already stored with other values; nothing was saved." }
-            : { code: "CONFLICT", message: `Revision ${p.revision} of this record was saved from elsewhere first; nothing was saved.` };
+            ? {
+                code: "CONFLICT",
+                message: "A record with this id is already stored with other values; nothing was saved.",
+              }
+            : {
+                code: "CONFLICT",
+                message: `Revision ${p.revision} of this record was saved from elsewhere first; nothing was saved.`,
+              };
         throw new Answer({ opId: op.opId, status: "conflict", error });
       }
 

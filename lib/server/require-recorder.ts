@@ -17,7 +17,12 @@ export function recordingProjectIds(user: Pick<SessionUser, "memberships">): str
 export async function requireRecorder(): Promise<SessionUser> {
   const user = await requireUser();
   if (!recordingProjectIds(user).length) {
-    await recordAudit(db, { action: "record.create", outcome: "denied", actorUserId: user.id, detail: { reason: "not on any stressing crew" } });
+    await recordAudit(db, {
+      action: "record.create",
+      outcome: "denied",
+      actorUserId: user.id,
+      detail: { reason: "not on any stressing crew" },
+    });
     throw new AppError("FORBIDDEN", "Only a stressing crew member can use the field log.");
   }
   return user;

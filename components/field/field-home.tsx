@@ -1,0 +1,179 @@
+"use client";
+import { useEffect, useState } from "react";
+import { readMeta, type SessionMeta } from "@/lib/offline/db";
+import type { AvailablePour } from "@/lib/schemas/sync";
+import { AttentionList } from "./attention-list";
+import { useField } from "./field-provider";
+import { ago, clockTime, useLive, useNow } from "./use-live";
+
+const DAY_MS = 86_400_000;
+const isoDay = (ms: number) => new Date(ms).toLocaleDateString("en-CA");
+
+async function availablePours(): Promise<{ pours: AvailablePour[] | null; error: string | null }> {
+  try {
+    const response = await fetch("/api/field/pours", { credentials: "same-origin", cache: "no-store" });
+    if (response.status === 401) return { pours: null, error: "Sign in to see the pours you can take out." };
+    if (!response.ok) return { pours: null, error: `The server answered ${response.status}; try again.` };
+    return { pours: ((await response.json()) as { pours: AvailablePour[] }).pours, error: null };
+  } catch {
+    return { pours: null, error: "No signal: pours can be taken out once the tablet is online again." };
+  }
+}
+
+/** The crew's landing: pours ready offline with what they hold, and pours to take out. */
+export function FieldHome() {
+  const { db, client } = useField();
+  const now = useNow();
+  const session = useLive(() => readMeta<SessionMeta>(db, "session"), [db]);
+  const ready = useLive(async () => {
+    const pours = await db.pours.toArray();
+    return Promise.all(
+      pours.map(async (pour) => {
+        const tendons = await db.tendons.where("pourId").equals(pour.id).toArray();
+        const records = await db.records.where("pourId").equals(pour.id).toArray();
+        const sets = await db.equipmentSets.where("projectId").equals(pour.projectId).toArray();
+        const calibrations = await db.calibrations.where("projectId").equals(pour.projectId).toArray();
+        const lots = await db.strandLots.where("projectId").equals(pour.projectId).count();
+        const project = await db.projects.get(pour.projectId);
+        const stressed = new Set(records.map((r) => r.tendonId)).size;
+        return { pour, project, tendons: tendons.length, stressed, sets, calibrations, lots };
+      }),
+    );
+  }, [db]);
+
+  const [available, setAvailable] = useState<AvailablePour[] | null>(null);
+  const [listError, setListError] = useState<string | null>(null);
+  const [downloading, setDownloading] = useState<string | null>(null);
+  const [downloadError, setDownloadError] = useState<string | null>(null);
+
+  const [listVersion, setListVersion] = useState(0);
+  useEffect(() => {
+    let cancelled = false;
+    void availablePours().then((answer) => {
+      if (cancelled) return;
+      setListError(answer.error);
+      if (answer.pours) setAvailable(answer.pours);
+    });
+    const again = () => setListVersion((v) => v + 1);
+    window.addEventListener("online", again);
+    return () => {
+      cancelled = true;
+      window.removeEventListener("online", again);
+    };
+  }, [listVersion]);
+
+  async function download(pourId: string) {
+    setDownloading(pourId);
+    setDownloadError(null);
+    const result = await client.download(pourId);
+    setDownloading(null);
+    if (!result.ok) setDownloadError(result.status === 401 ? "Sign in again to download." : `Could not download: ${result.message}`);
+  }
+
+  const today = isoDay(now);
+  const tomorrow = isoDay(now + DAY_MS);
+  const readyIds = new Set(ready?.map((r) => r.pour.id));
+
+  return (
+    <main className="mx-auto grid max-w-6xl gap-6 px-4 py-6">
+      <header>
+        <h1 className="text-figure font-bold">Field log</h1>
+        <p className="text-lead" data-testid="operator">
+          {session === undefined ? "Checking who is signed in…" : session ? `Operator: ${session.name}` : "Nobody is signed in on this tablet yet."}
+        </p>
+        {session === null && (
+          <a className="btn-primary mt-3" href="/sign-in?callbackUrl=/field">
+            Sign in
+          </a>
+        )}
+      </header>
+
+      <AttentionList />
+
+      <section aria-labelledby="ready-heading" className="grid gap-3">
+        <h2 id="ready-heading" className="text-lead font-bold">
+          Ready offline
+        </h2>
+        {ready === undefined && <p>Reading the tablet&apos;s storage…</p>}
+        {ready?.length === 0 && <p className="card">No pours on this tablet yet. Take one out below while you have signal.</p>}
+        <ul className="grid gap-4 md:grid-cols-2">
+          {ready?.map(({ pour, project, tendons, stressed, sets, calibrations, lots }) => {
+            const warnings = sets.flatMap((set) => {
+              const current = calibrations.filter((c) => c.equipmentSetId === set.id).sort((a, b) => b.calibratedOn.localeCompare(a.calibratedOn))[0];
+              if (!current) return [`${set.name} has no calibration: a reason is needed to use it.`];
+              if (current.validUntil < today) return [`${set.name}: calibration expired on ${current.validUntil}; a reason is needed to use it.`];
+              if (current.validUntil <= tomorrow) return [`${set.name}: calibration runs out on ${current.validUntil}, during or just after this shift.`];
+              return [];
+            });
+            return (
+              <li key={pour.id} className="card grid gap-2" data-testid="ready-pour">
+                <div className="flex flex-wrap items-baseline justify-between gap-2">
+                  <h3 className="text-lead font-bold">{pour.name}</h3>
+                  <span className="text-label font-semibold uppercase text-ink-faint">{project ? `${project.code} · ${project.name}` : ""}</span>
+                </div>
+                <p className="inline-flex items-center gap-2 font-bold text-signal-band" data-testid="ready-offline">
+                  <svg viewBox="0 0 24 24" className="h-6 w-6" aria-hidden="true">
+                    <path d="M5 12l4 4 10-10" fill="none" stroke="currentColor" strokeWidth="3" strokeLinecap="round" />
+                  </svg>
+                  Ready offline
+                </p>
+                <p data-testid="ready-counts">
+                  {tendons} tendons ({stressed} with records) · {sets.length} equipment sets · {calibrations.length} calibrations · {lots} strand lots
+                </p>
+                <p className="text-ink-soft" data-testid="ready-age">
+                  Data from {clockTime(pour.downloadedAt)} ({ago(pour.downloadedAt, now)}), kept up to date at each sync.
+                </p>
+                {pour.unavailable && <p className="font-bold text-signal-stop">The server no longer lists this pour for you; records already made here are still sent.</p>}
+                {warnings.map((w) => (
+                  <p key={w} role="alert" className="flex gap-2 rounded-md bg-signal-stop-bg p-2 font-semibold text-signal-stop" data-testid="calibration-warning">
+                    <svg viewBox="0 0 24 24" className="mt-1 h-5 w-5 shrink-0" aria-hidden="true">
+                      <path d="M12 2 L23 21 H1 Z M12 9 V14 M12 17 V18" fill="none" stroke="currentColor" strokeWidth="2.5" strokeLinejoin="round" />
+                    </svg>
+                    {w}
+                  </p>
+                ))}
+                <div className="flex flex-wrap gap-2">
+                  <a className="btn-primary" href={`/field/pour?id=${pour.id}`}>
+                    Open tendon list
+                  </a>
+                  <button type="button" className="btn-quiet" disabled={downloading === pour.id} onClick={() => void download(pour.id)}>
+                    {downloading === pour.id ? "Refreshing…" : "Refresh now"}
+                  </button>
+                </div>
+              </li>
+            );
+          })}
+        </ul>
+      </section>
+
+      <section aria-labelledby="take-heading" className="grid gap-3">
+        <h2 id="take-heading" className="text-lead font-bold">
+          Take pours out
+        </h2>
+        {downloadError && (
+          <p role="alert" className="font-semibold text-signal-stop">
+            {downloadError}
+          </p>
+        )}
+        {listError && <p className="card">{listError}</p>}
+        {!listError && available === null && <p>Asking the server for your pours…</p>}
+        {available?.length === 0 && <p className="card">There are no pours on your crew&apos;s projects yet.</p>}
+        <ul className="grid gap-3 md:grid-cols-2">
+          {available?.map((p) => (
+            <li key={p.id} className="card flex flex-wrap items-center justify-between gap-3" data-testid="available-pour">
+              <div>
+                <p className="font-bold">{p.name}</p>
+                <p className="text-ink-soft">
+                  {p.projectCode} · {p.tendonCount} tendons{p.plannedStressingDate ? ` · stressing ${p.plannedStressingDate}` : ""}
+                </p>
+              </div>
+              <button type="button" className="btn-primary" disabled={downloading === p.id} onClick={() => void download(p.id)}>
+                {downloading === p.id ? "Downloading…" : readyIds.has(p.id) ? "Download again" : `Download ${p.name}`}
+              </button>
+            </li>
+          ))}
+        </ul>
+      </section>
+    </main>
+  );
+}

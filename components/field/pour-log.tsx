@@ -1,0 +1,291 @@
+"use client";
+import { useMemo, useState, useSyncExternalStore } from "react";
+import { readMeta, type LocalRecord, type SessionMeta } from "@/lib/offline/db";
+import { calibrationFor, currentEnds, provisionalVerdict, targetFor, tendonState, type TendonState } from "@/lib/offline/tendon-view";
+import type { FieldEvaluation, FieldTendon } from "@/lib/schemas/sync";
+import { stressedEnds } from "@/lib/stressing/basis";
+import { showLength, showPressure } from "@/lib/stressing/display";
+import { useField } from "./field-provider";
+import { RecordForm } from "./record-form";
+import { useLive } from "./use-live";
+import { units, VerdictPanel } from "./verdict-panel";
+
+const STATE_LOOK: Record<TendonState, { icon: string; cls: string }> = {
+  "not stressed": { icon: "M6 12h12", cls: "border-concrete-400" },
+  "one end done": { icon: "M4 12h8M12 6v12", cls: "border-ink-faint bg-concrete-100" },
+  done: { icon: "M5 12l4 4 10-10", cls: "border-signal-band bg-signal-band-bg text-signal-band" },
+  flagged: { icon: "M6 3v18M6 4h11l-3 4 3 4H6", cls: "border-signal-stop bg-signal-stop-bg text-signal-stop" },
+};
+
+function StateMark({ state }: { state: TendonState }) {
+  const look = STATE_LOOK[state];
+  return (
+    <span className={`inline-flex items-center gap-1 rounded-md border-2 px-2 text-label font-bold uppercase ${look.cls}`} data-state={state}>
+      <svg viewBox="0 0 24 24" className="h-4 w-4" aria-hidden="true">
+        <path d={look.icon} fill="none" stroke="currentColor" strokeWidth="3" strokeLinecap="round" strokeLinejoin="round" />
+      </svg>
+      {state}
+    </span>
+  );
+}
+
+const subscribeToHistory = (onChange: () => void) => {
+  window.addEventListener("popstate", onChange);
+  return () => window.removeEventListener("popstate", onChange);
+};
+
+/** The pour and tendon named in the address (?id=…&tendon=…): the page is one cached shell for every pour. */
+function useAddress(): [URLSearchParams, (tendonId: string) => void] {
+  const search = useSyncExternalStore(subscribeToHistory, () => window.location.search, () => "");
+  const params = useMemo(() => new URLSearchParams(search), [search]);
+  const select = (tendonId: string) => {
+    const next = new URLSearchParams(window.location.search);
+    next.set("tendon", tendonId);
+    window.history.pushState(null, "", `?${next.toString()}`);
+    window.dispatchEvent(new PopStateEvent("popstate"));
+  };
+  return [params, select];
+}
+
+const latestOf = (evaluations: FieldEvaluation[], tendonId: string) =>
+  evaluations.filter((e) => e.tendonId === tendonId).sort((a, b) => a.createdAt.localeCompare(b.createdAt)).at(-1);
+
+export function PourLog() {
+  const { db } = useField();
+  const [params, selectTendon] = useAddress();
+  const pourId = params.get("id");
+  const selectedId = params.get("tendon");
+  const [query, setQuery] = useState("");
+  const [correcting, setCorrecting] = useState<LocalRecord | null>(null);
+  const [justSaved, setJustSaved] = useState<string | null>(null);
+
+  const data = useLive(async () => {
+    if (!pourId) return null;
+    const pour = await db.pours.get(pourId);
+    if (!pour) return null;
+    const [project, tendons, records, sets, calibrations, lots, session] = await Promise.all([
+      db.projects.get(pour.projectId),
+      db.tendons.where("pourId").equals(pourId).sortBy("tag"),
+      db.records.where("pourId").equals(pourId).toArray(),
+      db.equipmentSets.where("projectId").equals(pour.projectId).sortBy("name"),
+      db.calibrations.where("projectId").equals(pour.projectId).toArray(),
+      db.strandLots.where("projectId").equals(pour.projectId).toArray(),
+      readMeta<SessionMeta>(db, "session"),
+    ]);
+    const ids = tendons.map((t) => t.id);
+    const [evaluations, flags] = await Promise.all([db.evaluations.where("tendonId").anyOf(ids).toArray(), db.flags.where("tendonId").anyOf(ids).toArray()]);
+    return { pour, project, tendons, records, sets, calibrations, lots, session, evaluations, flags };
+  }, [db, pourId]);
+
+  if (!pourId) return <p className="card m-4">No pour was chosen. Go back to the field log and open one.</p>;
+  if (data === undefined) return <p className="m-4">Reading the tablet&apos;s storage…</p>;
+  if (data === null || !data.project) {
+    return (
+      <div className="card m-4">
+        <p>This pour is not on the tablet. Download it from the field log while you have signal.</p>
+        <a className="btn-primary mt-3" href="/field">
+          Back to the field log
+        </a>
+      </div>
+    );
+  }
+  const { pour, project, tendons, records, sets, calibrations, lots, session, evaluations, flags } = data;
+  const recordsOf = (t: FieldTendon) => records.filter((r) => r.tendonId === t.id);
+  const states = new Map(tendons.map((t) => [t.id, tendonState(t, recordsOf(t), flags.filter((f) => f.tendonId === t.id), latestOf(evaluations, t.id))]));
+  const shown = tendons.filter((t) => t.tag.toLowerCase().includes(query.trim().toLowerCase()));
+  const selected = tendons.find((t) => t.id === selectedId) ?? null;
+  const next = tendons.find((t) => t.id !== selected?.id && (states.get(t.id) === "not stressed" || states.get(t.id) === "one end done"));
+  const doneCount = [...states.values()].filter((s) => s === "done").length;
+
+  const go = (t: FieldTendon) => {
+    setCorrecting(null);
+    setJustSaved(null);
+    selectTendon(t.id);
+  };
+
+  return (
+    <main className="grid gap-4 p-4 landscape:grid-cols-[minmax(0,2fr)_minmax(0,3fr)] landscape:items-start">
+      <section aria-label="Tendons" className="grid gap-3 landscape:sticky landscape:top-28 landscape:max-h-[calc(100vh-8rem)] landscape:overflow-y-auto">
+        <div className="flex flex-wrap items-baseline justify-between gap-2">
+          <h1 className="text-figure font-bold">{pour.name}</h1>
+          <a href="/field" className="btn-quiet">
+            All pours
+          </a>
+        </div>
+        <p className="text-ink-soft">
+          {project.code} · {tendons.length} tendons · {doneCount} done
+        </p>
+        <label htmlFor="tendon-search" className="field-label">
+          Find a tendon by tag
+        </label>
+        <input id="tendon-search" type="search" className="field-input" value={query} onChange={(e) => setQuery(e.target.value)} placeholder="e.g. U07" autoComplete="off" />
+        {next && (
+          <button type="button" className="btn-primary" onClick={() => go(next)} data-testid="next-tendon">
+            Next tendon: {next.tag}
+          </button>
+        )}
+        {shown.length === 0 && <p>No tendon tag contains “{query}”.</p>}
+        <ul className="grid gap-1" data-testid="tendon-list">
+          {shown.map((t) => (
+            <li key={t.id}>
+              <button
+                type="button"
+                onClick={() => go(t)}
+                aria-current={t.id === selected?.id ? "true" : undefined}
+                className={`flex min-h-touch w-full items-center justify-between gap-2 rounded-md border-2 px-3 text-left ${t.id === selected?.id ? "border-ink bg-concrete-100" : "border-concrete-300 bg-white"}`}
+                data-testid="tendon-row"
+              >
+                <span className="font-bold">{t.tag}</span>
+                <StateMark state={states.get(t.id)!} />
+              </button>
+            </li>
+          ))}
+        </ul>
+      </section>
+
+      <section aria-label="Selected tendon" className="grid gap-4">
+        {!selected && <p className="card">Pick a tendon from the list, or tap “Next tendon”.</p>}
+        {selected && !session && (
+          <p className="card">
+            Sign in once with signal to record: the tablet needs to know who the operator is.{" "}
+            <a className="btn-quiet" href="/sign-in?callbackUrl=/field">
+              Sign in
+            </a>
+          </p>
+        )}
+        {selected && session && (
+          <TendonPanel
+            key={selected.id}
+            tendon={selected}
+            state={states.get(selected.id)!}
+            project={project}
+            records={recordsOf(selected)}
+            sets={sets}
+            calibrations={calibrations}
+            lot={lots.find((l) => l.id === selected.strandLotId) ?? null}
+            session={session}
+            correcting={correcting}
+            onCorrect={setCorrecting}
+            justSaved={justSaved}
+            onSaved={(id) => {
+              setCorrecting(null);
+              setJustSaved(id);
+            }}
+            next={next ?? null}
+            onNext={go}
+          />
+        )}
+      </section>
+    </main>
+  );
+}
+
+function TendonPanel(props: {
+  tendon: FieldTendon;
+  state: TendonState;
+  project: NonNullable<Parameters<typeof targetFor>[0]["project"]>;
+  records: LocalRecord[];
+  sets: NonNullable<Parameters<typeof targetFor>[0]["set"]>[];
+  calibrations: Parameters<typeof targetFor>[0]["calibrations"];
+  lot: Parameters<typeof targetFor>[0]["lot"];
+  session: SessionMeta;
+  correcting: LocalRecord | null;
+  onCorrect: (r: LocalRecord | null) => void;
+  justSaved: string | null;
+  onSaved: (id: string) => void;
+  next: FieldTendon | null;
+  onNext: (t: FieldTendon) => void;
+}) {
+  const { tendon, project, records, sets, calibrations, lot, session } = props;
+  const u = units(project);
+  const ends = currentEnds(records);
+  const wanted = stressedEnds(tendon.ends);
+  const allDone = wanted.every((e) => ends[e]);
+  const lengthMm = tendon.segments.reduce((s, seg) => s + seg.lengthMm, 0);
+  const newest = Object.values(ends).sort((a, b) => (a!.savedAt < b!.savedAt ? 1 : -1))[0] ?? null;
+  const today = new Date().toLocaleDateString("en-CA");
+  const newestSet = newest ? sets.find((s) => s.id === newest.equipmentSetId) ?? null : null;
+  const local = records.length ? provisionalVerdict({ project, tendon, lot, set: newestSet, calibrations }, records) : null;
+  const target = newest && newestSet ? targetFor({ project, tendon, lot, set: newestSet, calibrations }, calibrationFor(calibrations, newestSet.id, today).calibration) : null;
+  const [adding, setAdding] = useState(false);
+  const showForm = Boolean(props.correcting) || adding || !allDone;
+
+  return (
+    <>
+      <header className="card grid gap-1">
+        <div className="flex flex-wrap items-center gap-3">
+          <h2 className="text-figure font-bold" data-testid="selected-tag">
+            {tendon.tag}
+          </h2>
+          <StateMark state={props.state} />
+        </div>
+        <p>
+          {tendon.strandCount} × {tendon.strandSize} strand · {showLength(u, lengthMm)} long · stressed at {tendon.ends === "both" ? "both ends" : `end ${tendon.ends}`}
+          {lot ? ` · lot ${lot.lotNumber}` : ""}
+        </p>
+      </header>
+
+      {records.length > 0 && (
+        <>
+          {props.justSaved && (
+            <p className="font-bold" role="status" data-testid="saved-note">
+              Saved on this tablet. It is sent when there is signal.
+            </p>
+          )}
+          <VerdictPanel project={project} local={local} server={newest?.server} targetMPa={target} />
+          <section aria-label="Readings" className="card grid gap-2">
+            <h3 className="font-bold">Readings</h3>
+            {wanted.map((end) => {
+              const r = ends[end];
+              return (
+                <div key={end} className="flex flex-wrap items-center justify-between gap-2 border-t border-concrete-300 pt-2" data-testid={`end-${end}`}>
+                  {r ? (
+                    <>
+                      <p>
+                        End {end}: <strong>{showLength(u, r.measuredMm)}</strong> at {showPressure(u, r.finalPressureMPa)} · {r.authorName} · {new Date(r.deviceTime).toLocaleTimeString(undefined, { hour: "2-digit", minute: "2-digit" })}
+                        {r.revision > 1 ? ` · revision ${r.revision} (${r.revisionReason})` : ""} ·{" "}
+                        <span data-testid="sync-state">{r.syncState === "synced" ? "sent" : r.syncState === "pending" ? "waiting to send" : `needs attention (${r.syncState})`}</span>
+                      </p>
+                      <button type="button" className="btn-quiet" onClick={() => props.onCorrect(r)}>
+                        Correct
+                      </button>
+                    </>
+                  ) : (
+                    <p>End {end}: not stressed yet.</p>
+                  )}
+                </div>
+              );
+            })}
+            {allDone && !adding && !props.correcting && (
+              <button type="button" className="btn-quiet w-fit" onClick={() => setAdding(true)}>
+                Record a restress
+              </button>
+            )}
+          </section>
+        </>
+      )}
+
+      {props.justSaved && props.next && !props.correcting && (
+        <button type="button" className="btn-primary" onClick={() => props.onNext(props.next!)}>
+          Next tendon: {props.next.tag}
+        </button>
+      )}
+
+      {showForm && (
+        <RecordForm
+          key={`${tendon.id}-${props.correcting?.id ?? "new"}-${records.length}`}
+          ctx={{ project, tendon, lot, calibrations }}
+          sets={sets}
+          session={session}
+          records={records}
+          correcting={props.correcting}
+          onSaved={(id) => {
+            setAdding(false);
+            props.onSaved(id);
+          }}
+          onCancel={props.correcting || adding ? () => (props.onCorrect(null), setAdding(false)) : undefined}
+        />
+      )}
+    </>
+  );
+}

@@ -1,0 +1,346 @@
+"use client";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useEffect, useMemo, useState } from "react";
+import { useFieldArray, useForm, useWatch, type UseFormRegisterReturn } from "react-hook-form";
+import { uuidv7 } from "uuidv7";
+import type { LocalRecord, SessionMeta } from "@/lib/offline/db";
+import { saveRecord } from "@/lib/offline/outbox";
+import { calibrationFor, provisionalVerdict, targetFor, type TendonContext } from "@/lib/offline/tendon-view";
+import {
+  EMPTY_RECORD_FORM,
+  entryUnitsFor,
+  payloadFromForm,
+  recordFormSchema,
+  recordPayloadSchema,
+  type Entered,
+  type RecordFormValues,
+} from "@/lib/schemas/record";
+import { stressedEnds } from "@/lib/stressing/basis";
+import { showPressure } from "@/lib/stressing/display";
+import { setFormDirty } from "./form-dirty";
+import { useField } from "./field-provider";
+import { PhotoPicker, type PickedPhoto } from "./photo-picker";
+import { units } from "./verdict-panel";
+
+const FRACTIONS = ["1/8", "1/4", "3/8", "1/2", "5/8", "3/4", "7/8"];
+
+function FieldError({ message }: { message?: string }) {
+  return message ? (
+    <p className="mt-1 font-semibold text-signal-stop" role="alert">
+      {message}
+    </p>
+  ) : null;
+}
+
+/** Fraction keys for inch readings: the numeric keypad has no slash, gloves want big keys. */
+function FractionKeys({ value, onPick }: { value: string; onPick: (next: string) => void }) {
+  return (
+    <div className="mt-2 flex flex-wrap gap-1" aria-label="Add a fraction of an inch">
+      {FRACTIONS.map((f) => (
+        <button
+          key={f}
+          type="button"
+          className="btn-quiet min-w-touch px-3"
+          onClick={() => onPick(`${value.replace(/\s*\d+\/\d+\s*$/, "").trim() || "0"} ${f}`)}
+        >
+          {f}
+        </button>
+      ))}
+    </div>
+  );
+}
+
+function NumberBox(props: { id: string; label: string; unit: string; reg: UseFormRegisterReturn; error?: string; hint?: string; keys?: React.ReactNode; numeric?: boolean }) {
+  return (
+    <div>
+      <label htmlFor={props.id} className="field-label">
+        {props.label} <span className="normal-case">({props.unit})</span>
+      </label>
+      <input id={props.id} type="text" inputMode={props.numeric ? "numeric" : "decimal"} autoComplete="off" className="field-input text-lead tabular-nums" aria-invalid={Boolean(props.error)} {...props.reg} />
+      {props.hint && <p className="text-label text-ink-faint">{props.hint}</p>}
+      {props.keys}
+      <FieldError message={props.error} />
+    </div>
+  );
+}
+
+function formFromEntered(base: LocalRecord): RecordFormValues {
+  const e = base.entered as Entered;
+  return {
+    ...EMPTY_RECORD_FORM,
+    tendonEnd: base.tendonEnd,
+    equipmentSetId: base.equipmentSetId,
+    expiredCalibrationReason: base.expiredCalibrationReason ?? "",
+    readingMethod: base.readingMethod,
+    initialPressure: e.initialPressure ?? "",
+    finalPressure: e.finalPressure,
+    marksBefore: e.marks?.before ?? "",
+    marksAfter: e.marks?.after ?? "",
+    strokes: e.strokes?.length ? e.strokes.map((value) => ({ value })) : [{ value: "" }],
+    seating: e.seating ?? "",
+    wireBreaks: String(base.wireBreaks),
+    remarks: base.remarks ?? "",
+  };
+}
+
+export function RecordForm({
+  ctx,
+  sets,
+  session,
+  records,
+  correcting,
+  onSaved,
+  onCancel,
+}: {
+  ctx: Omit<TendonContext, "set">;
+  sets: TendonContext["set"][];
+  session: SessionMeta;
+  records: LocalRecord[];
+  correcting: LocalRecord | null;
+  onSaved: (recordId: string) => void;
+  onCancel?: () => void;
+}) {
+  const { db } = useField();
+  const entryUnits = entryUnitsFor(ctx.project.unitSystem);
+  const today = new Date().toLocaleDateString("en-CA");
+  const ends = stressedEnds(ctx.tendon.ends);
+  const doneEnds = new Set(records.filter((r) => !r.supersededBy).map((r) => r.tendonEnd));
+  const expiredSetIds = useMemo(() => sets.filter((s) => s && calibrationFor(ctx.calibrations, s.id, today).expired).map((s) => s!.id), [sets, ctx.calibrations, today]);
+  const schema = useMemo(() => recordFormSchema({ units: entryUnits, expiredSetIds, ends, correction: Boolean(correcting) }), [entryUnits, expiredSetIds, ends, correcting]);
+  const defaults = useMemo<RecordFormValues>(
+    () =>
+      correcting
+        ? formFromEntered(correcting)
+        : { ...EMPTY_RECORD_FORM, tendonEnd: ends.find((e) => !doneEnds.has(e)) ?? ends[0]!, equipmentSetId: sets.length === 1 ? sets[0]!.id : "" },
+    // Defaults are taken once per tendon and mode.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [correcting?.id, ctx.tendon.id],
+  );
+  const form = useForm<RecordFormValues>({ resolver: zodResolver(schema), defaultValues: defaults, mode: "onSubmit" });
+  const { register, handleSubmit, setValue, formState, reset, control } = form;
+  const strokes = useFieldArray({ control, name: "strokes" });
+  const [photos, setPhotos] = useState<PickedPhoto[]>([]);
+  const [saveError, setSaveError] = useState<string | null>(null);
+  const [saving, setSaving] = useState(false);
+
+  useEffect(() => setFormDirty(formState.isDirty || photos.length > 0), [formState.isDirty, photos.length]);
+  useEffect(() => () => setFormDirty(false), []);
+
+  const setId = useWatch({ control, name: "equipmentSetId" });
+  const method = useWatch({ control, name: "readingMethod" });
+  const marksBefore = useWatch({ control, name: "marksBefore" });
+  const marksAfter = useWatch({ control, name: "marksAfter" });
+  const set = sets.find((s) => s?.id === setId) ?? null;
+  const { calibration, expired } = calibrationFor(ctx.calibrations, setId, today);
+  const targetMPa = set ? targetFor({ ...ctx, set }, calibration) : null;
+  const blind = ctx.project.blindEntry;
+  const inches = entryUnits.length === "in";
+  const err = formState.errors;
+
+  async function submit(values: RecordFormValues) {
+    setSaving(true);
+    setSaveError(null);
+    try {
+      const recordId = uuidv7();
+      const cal = calibrationFor(ctx.calibrations, values.equipmentSetId, today);
+      const payload = payloadFromForm(values, {
+        units: entryUnits,
+        projectId: ctx.project.id,
+        pourId: ctx.tendon.pourId,
+        tendonId: ctx.tendon.id,
+        chainId: correcting ? correcting.chainId : recordId,
+        revision: correcting ? correcting.revision + 1 : 1,
+        baseRecordId: correcting?.id ?? null,
+        calibrationId: cal.calibration?.id ?? null,
+        expired: cal.expired,
+        authorUserId: session.userId,
+        now: new Date(),
+        timeZone: Intl.DateTimeFormat().resolvedOptions().timeZone || "UTC",
+      });
+      // The same check the server makes, before anything is stored.
+      const checked = recordPayloadSchema.safeParse(payload);
+      if (!checked.success) throw new Error(checked.error.issues.map((i) => i.message).join(" "));
+      const chosen = sets.find((s) => s?.id === values.equipmentSetId) ?? null;
+      const draft = { ...payload, id: recordId, syncState: "pending", authorName: session.name, savedAt: payload.deviceTime, supersededBy: null } as LocalRecord;
+      const local = provisionalVerdict({ ...ctx, set: chosen }, [...records.filter((r) => r.id !== correcting?.id), draft]);
+      await saveRecord(db, {
+        recordId,
+        payload,
+        authorName: session.name,
+        local,
+        photos: photos.map(({ url, ...p }) => (void url, p)),
+      });
+      photos.forEach((p) => URL.revokeObjectURL(p.url));
+      setPhotos([]);
+      reset(defaults);
+      setFormDirty(false);
+      onSaved(recordId);
+    } catch (error) {
+      setSaveError(`Not saved: ${(error as Error).message}`);
+    } finally {
+      setSaving(false);
+    }
+  }
+
+  return (
+    <form onSubmit={handleSubmit(submit)} className="card grid gap-5" aria-label={correcting ? "Correct the record" : "New record"} noValidate>
+      <h3 className="text-lead font-bold">{correcting ? `Correct end ${correcting.tendonEnd} (revision ${correcting.revision + 1})` : `Record ${ctx.tendon.tag}`}</h3>
+
+      {correcting && (
+        <div>
+          <label htmlFor="revisionReason" className="field-label">
+            Why is it corrected?
+          </label>
+          <input id="revisionReason" className="field-input" {...register("revisionReason")} placeholder="e.g. read the wrong mark" />
+          <FieldError message={err.revisionReason?.message} />
+        </div>
+      )}
+
+      <fieldset>
+        <legend className="field-label">Tendon end</legend>
+        <div className="mt-1 flex gap-2">
+          {(["A", "B"] as const).map((end) => (
+            <label key={end} className={`btn-quiet has-checked:bg-ink has-checked:text-concrete-50 ${ends.includes(end) && !correcting ? "" : "opacity-40"}`}>
+              <input type="radio" value={end} className="sr-only" disabled={!ends.includes(end) || Boolean(correcting)} {...register("tendonEnd")} />
+              End {end}
+              {doneEnds.has(end) && !correcting ? " (done)" : ""}
+            </label>
+          ))}
+        </div>
+        <FieldError message={err.tendonEnd?.message} />
+      </fieldset>
+
+      <fieldset>
+        <legend className="field-label">Equipment set</legend>
+        <div className="mt-1 grid gap-2">
+          {sets.length === 0 && <p>No equipment sets were downloaded with this pour.</p>}
+          {sets.map((s) => {
+            const c = calibrationFor(ctx.calibrations, s!.id, today);
+            return (
+              <label key={s!.id} className="flex min-h-touch cursor-pointer items-center gap-3 rounded-md border-2 border-concrete-500 px-3 has-checked:border-ink has-checked:bg-concrete-100">
+                <input type="radio" value={s!.id} className="h-6 w-6" {...register("equipmentSetId")} />
+                <span>
+                  <strong>{s!.name}</strong> · gauge {s!.gaugeSerial}
+                  <br />
+                  <span className={c.expired ? "font-bold text-signal-stop" : "text-ink-soft"}>
+                    {c.calibration ? `${c.expired ? "Calibration EXPIRED" : "Calibrated"} until ${c.calibration.validUntil}` : "No calibration"}
+                  </span>
+                </span>
+              </label>
+            );
+          })}
+        </div>
+        <FieldError message={err.equipmentSetId?.message} />
+        {expired && setId && (
+          <div className="mt-2">
+            <label htmlFor="expiredCalibrationReason" className="field-label">
+              Reason to use a set whose calibration has expired
+            </label>
+            <input id="expiredCalibrationReason" className="field-input" {...register("expiredCalibrationReason")} />
+            <FieldError message={err.expiredCalibrationReason?.message} />
+          </div>
+        )}
+      </fieldset>
+
+      <div className="rounded-md bg-concrete-100 p-3" data-testid="target-pressure">
+        <span className="field-label">Target gauge pressure</span>
+        <p className="text-figure font-bold">
+          {!set ? "Pick a set" : blind ? "Shown after saving (blind entry)" : targetMPa === null ? "No calibration" : showPressure(units(ctx.project), targetMPa)}
+        </p>
+      </div>
+
+      <div className="grid gap-4 sm:grid-cols-2">
+        <NumberBox id="initialPressure" label="Initial gauge pressure" unit={entryUnits.pressure} reg={register("initialPressure")} error={err.initialPressure?.message} hint="Where the marks were set; leave empty if from zero." />
+        <NumberBox id="finalPressure" label="Final gauge pressure" unit={entryUnits.pressure} reg={register("finalPressure")} error={err.finalPressure?.message} />
+      </div>
+
+      <fieldset>
+        <legend className="field-label">Elongation read as</legend>
+        <div className="mt-1 flex flex-wrap gap-2">
+          <label className="btn-quiet has-checked:bg-ink has-checked:text-concrete-50">
+            <input type="radio" value="marks" className="sr-only" {...register("readingMethod")} />
+            Marks before / after
+          </label>
+          <label className="btn-quiet has-checked:bg-ink has-checked:text-concrete-50">
+            <input type="radio" value="strokes" className="sr-only" {...register("readingMethod")} />
+            Ram strokes
+          </label>
+        </div>
+      </fieldset>
+
+      {method === "marks" ? (
+        <div className="grid gap-4 sm:grid-cols-2">
+          <NumberBox
+            id="marksBefore"
+            label="Mark before"
+            unit={entryUnits.length}
+            reg={register("marksBefore")}
+            error={err.marksBefore?.message}
+            keys={inches && <FractionKeys value={marksBefore} onPick={(v) => setValue("marksBefore", v, { shouldDirty: true })} />}
+          />
+          <NumberBox
+            id="marksAfter"
+            label="Mark after"
+            unit={entryUnits.length}
+            reg={register("marksAfter")}
+            error={err.marksAfter?.message}
+            keys={inches && <FractionKeys value={marksAfter} onPick={(v) => setValue("marksAfter", v, { shouldDirty: true })} />}
+          />
+        </div>
+      ) : (
+        <div className="grid gap-3">
+          {strokes.fields.map((f, i) => (
+            <div key={f.id} className="flex items-end gap-2">
+              <div className="flex-1">
+                <NumberBox id={`stroke-${i}`} label={`Stroke ${i + 1}`} unit={entryUnits.length} reg={register(`strokes.${i}.value`)} error={err.strokes?.[i]?.value?.message} />
+              </div>
+              {strokes.fields.length > 1 && (
+                <button type="button" className="btn-quiet" onClick={() => strokes.remove(i)}>
+                  Remove
+                </button>
+              )}
+            </div>
+          ))}
+          <button type="button" className="btn-quiet w-fit" onClick={() => strokes.append({ value: "" })} disabled={strokes.fields.length >= 8}>
+            Add a stroke
+          </button>
+          <p className="text-label text-ink-faint">The strokes are added up into the elongation.</p>
+        </div>
+      )}
+
+      <div className="grid gap-4 sm:grid-cols-2">
+        <NumberBox id="seating" label="Measured seating (if taken)" unit={entryUnits.length} reg={register("seating")} error={err.seating?.message} />
+        <NumberBox id="wireBreaks" label="Wire breaks" unit="count" numeric reg={register("wireBreaks")} error={err.wireBreaks?.message} />
+      </div>
+
+      <div>
+        <label htmlFor="remarks" className="field-label">
+          Remarks
+        </label>
+        <textarea id="remarks" rows={2} className="field-input py-2" {...register("remarks")} />
+        <FieldError message={err.remarks?.message} />
+      </div>
+
+      <PhotoPicker photos={photos} onChange={setPhotos} />
+
+      <p className="text-ink-soft" data-testid="record-by">
+        Operator {session.name} · device time and zone ({Intl.DateTimeFormat().resolvedOptions().timeZone}) are stamped when you save.
+      </p>
+      {saveError && (
+        <p role="alert" className="font-bold text-signal-stop">
+          {saveError}
+        </p>
+      )}
+      <div className="flex flex-wrap gap-2">
+        <button type="submit" className="btn-primary min-w-40" disabled={saving}>
+          {saving ? "Saving…" : correcting ? "Save correction" : "Save record"}
+        </button>
+        {onCancel && (
+          <button type="button" className="btn-quiet" onClick={onCancel}>
+            Cancel
+          </button>
+        )}
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,40 @@
+"use client";
+import { liveQuery } from "dexie";
+import { useEffect, useState } from "react";
+
+/** The current answer of a Dexie query, re-run whenever the tables it read change. Undefined while loading. */
+export function useLive<T>(query: () => Promise<T>, deps: readonly unknown[]): T | undefined {
+  const [value, setValue] = useState<T | undefined>(undefined);
+  useEffect(() => {
+    const subscription = liveQuery(query).subscribe({ next: (v) => setValue(() => v), error: (e) => console.error("tablet database query failed", e) });
+    return () => subscription.unsubscribe();
+    // The query closes over exactly the values listed in deps.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, deps);
+  return value;
+}
+
+/** A clock that ticks, for "5 min ago" labels. */
+export function useNow(intervalMs = 15_000): number {
+  const [now, setNow] = useState(() => Date.now());
+  useEffect(() => {
+    const timer = window.setInterval(() => setNow(Date.now()), intervalMs);
+    return () => window.clearInterval(timer);
+  }, [intervalMs]);
+  return now;
+}
+
+export function ago(iso: string | null | undefined, now: number): string {
+  if (!iso) return "never";
+  const minutes = Math.round((now - new Date(iso).getTime()) / 60_000);
+  if (minutes < 1) return "just now";
+  if (minutes < 60) return `${minutes} min ago`;
+  const hours = Math.floor(minutes / 60);
+  if (hours < 24) return `${hours} h ${minutes % 60} min ago`;
+  return `${Math.floor(hours / 24)} d ago`;
+}
+
+export function clockTime(iso: string | null | undefined): string {
+  if (!iso) return "—";
+  return new Date(iso).toLocaleString(undefined, { weekday: "short", hour: "2-digit", minute: "2-digit" });
+}
