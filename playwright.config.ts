@@ -31,6 +31,13 @@ export default defineConfig({
     },
   },
   projects: [
-    { name: "tablet", use: { viewport: { width: 1280, height: 800 }, hasTouch: true } },
+    // The README's tour runs first, on the demo job as seeded, before other specs add their own data.
+    { name: "tour", testMatch: /demo-tour\.spec\.ts/, use: { viewport: { width: 1280, height: 800 }, hasTouch: true } },
+    {
+      name: "tablet",
+      testIgnore: /demo-tour\.spec\.ts/,
+      dependencies: ["tour"],
+      use: { viewport: { width: 1280, height: 800 }, hasTouch: true },
+    },
   ],
 });
