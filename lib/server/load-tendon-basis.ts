@@ -1,6 +1,6 @@
 import "server-only";
 import type { Kysely } from "kysely";
-import type { Database } from "@/db/types";
+import type { Database, TendonKind } from "@/db/types";
 import { AppError } from "@/lib/errors";
 import type { LotBasis, ProjectBasis, TendonBasis } from "@/lib/stressing/basis";
 import type { DisplayUnits, StoredResolution } from "@/lib/stressing/display";
@@ -16,18 +16,25 @@ export interface LoadedTendon {
       notifyEmails: string[];
     };
   pour: { id: string; name: string; concreteStrengthMpa: number | null; status: string };
-  tendon: TendonBasis & { id: string; tag: string; kind: string; shopElongationMm: number | null };
-  lot: (LotBasis & { lotNumber: string }) | null;
+  tendon: TendonBasis & { id: string; tag: string; kind: TendonKind; shopElongationMm: number | null };
+  lot: (LotBasis & { id: string; lotNumber: string }) | null;
 }
 
 /** Everything the computation needs about one tendon, read with the project in every WHERE. */
-export async function loadTendonBasis(db: Kysely<Database>, input: { projectId: string; tendonId: string }): Promise<LoadedTendon> {
+export async function loadTendonBasis(
+  db: Kysely<Database>,
+  input: { projectId: string; tendonId: string },
+): Promise<LoadedTendon> {
   const row = await db
     .selectFrom("tendons")
     .innerJoin("projects", "projects.id", "tendons.project_id")
-    .innerJoin("pours", (j) => j.onRef("pours.id", "=", "tendons.pour_id").onRef("pours.project_id", "=", "tendons.project_id"))
+    .innerJoin("pours", (j) =>
+      j.onRef("pours.id", "=", "tendons.pour_id").onRef("pours.project_id", "=", "tendons.project_id"),
+    )
     .leftJoin("strand_lots", (j) =>
-      j.onRef("strand_lots.id", "=", "tendons.strand_lot_id").onRef("strand_lots.project_id", "=", "tendons.project_id"),
+      j
+        .onRef("strand_lots.id", "=", "tendons.strand_lot_id")
+        .onRef("strand_lots.project_id", "=", "tendons.project_id"),
     )
     .select([
       "projects.id as projectId",
@@ -58,6 +65,7 @@ export async function loadTendonBasis(db: Kysely<Database>, input: { projectId: 
       "tendons.ends",
       "tendons.jack_grip_mm",
       "tendons.shop_elongation_mm",
+      "strand_lots.id as lotId",
       "strand_lots.lot_number",
       "strand_lots.area_mm2",
       "strand_lots.modulus_mpa",
@@ -85,7 +93,12 @@ export async function loadTendonBasis(db: Kysely<Database>, input: { projectId: 
       engineerOfRecordEmail: row.engineer_of_record_email,
       notifyEmails: row.notify_emails,
     },
-    pour: { id: row.pourId, name: row.pourName, concreteStrengthMpa: row.concrete_strength_mpa, status: row.pourStatus },
+    pour: {
+      id: row.pourId,
+      name: row.pourName,
+      concreteStrengthMpa: row.concrete_strength_mpa,
+      status: row.pourStatus,
+    },
     tendon: {
       id: row.tendonId,
       tag: row.tag,
@@ -98,8 +111,14 @@ export async function loadTendonBasis(db: Kysely<Database>, input: { projectId: 
       shopElongationMm: row.shop_elongation_mm,
     },
     lot:
-      row.lot_number && row.area_mm2 && row.modulus_mpa && row.breaking_load_n
-        ? { lotNumber: row.lot_number, areaMm2: row.area_mm2, modulusMPa: row.modulus_mpa, breakingLoadN: row.breaking_load_n }
+      row.lotId && row.lot_number && row.area_mm2 && row.modulus_mpa && row.breaking_load_n
+        ? {
+            id: row.lotId,
+            lotNumber: row.lot_number,
+            areaMm2: row.area_mm2,
+            modulusMPa: row.modulus_mpa,
+            breakingLoadN: row.breaking_load_n,
+          }
         : null,
   };
 }
