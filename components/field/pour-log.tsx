@@ -125,7 +125,7 @@ export function PourLog() {
           </button>
         )}
         {shown.length === 0 && <p>No tendon tag contains “{query}”.</p>}
-        <ul className="grid gap-1" data-testid="tendon-list">
+        <ul className="grid gap-1 portrait:max-h-[34vh] portrait:overflow-y-auto" data-testid="tendon-list">
           {shown.map((t) => (
             <li key={t.id}>
               <button
@@ -220,7 +220,7 @@ function TendonPanel(props: {
           <StateMark state={props.state} />
         </div>
         <p>
-          {tendon.strandCount} × {tendon.strandSize} strand · {showLength(u, lengthMm)} long · stressed at {tendon.ends === "both" ? "both ends" : `end ${tendon.ends}`}
+          {tendon.strandCount} × {tendon.strandSize} strand · {project.unitSystem === "us" ? `${(lengthMm / 304.8).toFixed(1)} ft` : `${(lengthMm / 1000).toFixed(2)} m`} long · stressed at {tendon.ends === "both" ? "both ends" : `end ${tendon.ends}`}
           {lot ? ` · lot ${lot.lotNumber}` : ""}
         </p>
       </header>

@@ -1,0 +1,137 @@
+import { expect, test, type Page } from "@playwright/test";
+import pg from "pg";
+import type { AvailablePour, PullResponse } from "@/lib/schemas/sync";
+import { predictTendon, targetPressureMPa } from "@/lib/stressing/basis";
+import { formatLength, mpaToPsi } from "@/lib/units";
+import { PEOPLE, apiAs, signInWithPassword } from "./people";
+import { screenshot } from "./support";
+
+/**
+ * The crew's whole offline shift in Chromium: sign in, take a pour out, lose the signal, log
+ * three tendons (one out of band), reload with no signal and find them, get the signal back,
+ * watch them go, and check PostgreSQL holds each exactly once.
+ */
+
+const POUR = "L3 Pour 1";
+
+interface Plan {
+  pourId: string;
+  tendons: { id: string; tag: string; after: string; verdict: "In band" | "Long" }[];
+  finalPsi: string;
+}
+
+/** Three one-end tendons of the pour with nothing recorded yet, with readings worked out on the same basis as the app. */
+async function plan(): Promise<Plan> {
+  const crew = await apiAs(PEOPLE.crew);
+  const { pours } = (await (await crew.get("/api/field/pours")).json()) as { pours: AvailablePour[] };
+  const pour = pours.find((p) => p.name === POUR && p.projectCode === "AYP")!;
+  const data = (await (await crew.get(`/api/field/pours/${pour.id}`)).json()) as PullResponse;
+  await crew.dispose();
+  const project = data.projects[0]!;
+  const setA = data.equipmentSets.find((s) => s.name.startsWith("Set A"))!;
+  const cal = data.calibrations.find((c) => c.equipmentSetId === setA.id)!;
+  const stressed = new Set(data.records.map((r) => r.tendonId));
+  const free = data.tendons.filter((t) => t.ends === "A" && !stressed.has(t.id)).slice(0, 3);
+  expect(free).toHaveLength(3);
+  let jackingForceN = 0;
+  const tendons = free.map((t, i) => {
+    const lot = data.strandLots.find((l) => l.id === t.strandLotId) ?? null;
+    const p = predictTendon({ project, tendon: t, lot, equipmentGripMm: setA.jackGripMm });
+    jackingForceN = p.jackingForceN;
+    // The second tendon reads a quarter long: out of any band.
+    const out = i === 1;
+    return { id: t.id, tag: t.tag, after: formatLength(p.predictedMm * (out ? 1.25 : 1), "1/8 in"), verdict: out ? ("Long" as const) : ("In band" as const) };
+  });
+  const line = { slope: cal.slope, intercept: cal.intercept, minPressureMPa: cal.minPressureMPa, maxPressureMPa: cal.maxPressureMPa };
+  return { pourId: pour.id, tendons, finalPsi: String(Math.round(mpaToPsi(targetPressureMPa(line, jackingForceN)))) };
+}
+
+/** Full-page shots from the top, so the sticky status bar sits where the crew sees it. */
+async function shoot(page: Page, name: string) {
+  await page.evaluate(() => window.scrollTo(0, 0));
+  await screenshot(page, name);
+}
+
+async function logTendon(page: Page, t: Plan["tendons"][number], finalPsi: string, shot?: string) {
+  await page.getByLabel("Find a tendon by tag").fill(t.tag);
+  await page.getByTestId("tendon-row").filter({ hasText: t.tag }).click();
+  await expect(page.getByTestId("selected-tag")).toHaveText(t.tag);
+  await page.getByRole("radio", { name: /Set A/ }).check();
+  await page.getByLabel(/Final gauge pressure/).fill(finalPsi);
+  await page.getByLabel(/Mark before/).fill("0");
+  await page.getByLabel(/Mark after/).fill(t.after);
+  if (shot) await shoot(page, shot);
+  await page.getByRole("button", { name: "Save record" }).click();
+  await expect(page.getByTestId("verdict").locator("[data-verdict]").first()).toContainText(t.verdict);
+  await expect(page.getByTestId("end-A").getByTestId("sync-state")).toHaveText("waiting to send");
+}
+
+test("a crew logs a pour with no signal and every record reaches PostgreSQL exactly once", async ({ page, context }) => {
+  test.setTimeout(120_000);
+  const p = await plan();
+
+  await signInWithPassword(page, PEOPLE.crew);
+  await page.waitForURL(/\/home/);
+  await page.goto("/field");
+  await expect(page.getByTestId("operator")).toContainText("Operator:");
+  // The offline worker must control the page before the signal goes.
+  await page.evaluate(() => navigator.serviceWorker.ready);
+  await page.waitForFunction(() => navigator.serviceWorker.controller !== null);
+
+  await page.getByTestId("available-pour").filter({ hasText: POUR }).getByRole("button").click();
+  const ready = page.getByTestId("ready-pour").filter({ hasText: POUR });
+  await expect(ready.getByTestId("ready-offline")).toBeVisible();
+  await expect(ready.getByTestId("ready-counts")).toContainText("50 tendons");
+  await expect(ready.getByTestId("ready-age")).toContainText("Data from");
+  await shoot(page, "field-ready-offline-landscape");
+
+  await context.setOffline(true);
+  await ready.getByRole("link", { name: "Open tendon list" }).click();
+  await expect(page.getByTestId("connection")).toHaveText("No signal");
+  for (const [i, t] of p.tendons.entries()) await logTendon(page, t, p.finalPsi, i === 0 ? "field-form-offline-landscape" : undefined);
+  await expect(page.getByTestId("pending-count")).toContainText("3 records");
+  await expect(page.getByRole("alert").filter({ hasText: "Out of band" })).toHaveCount(0); // the last one logged is in band
+  await shoot(page, "field-log-offline-landscape");
+
+  // Reload with no signal: the worker serves the page, the tablet database still has the records.
+  await page.reload();
+  await expect(page.getByTestId("pending-count")).toContainText("3 records");
+  await page.getByLabel("Find a tendon by tag").fill(p.tendons[1]!.tag);
+  await expect(page.getByTestId("tendon-row").filter({ hasText: p.tendons[1]!.tag }).locator("[data-state]")).toHaveText("flagged");
+  await page.getByTestId("tendon-row").filter({ hasText: p.tendons[1]!.tag }).click();
+  await expect(page.getByTestId("verdict")).toContainText("Long");
+  await expect(page.getByRole("alert").filter({ hasText: "Out of band" })).toBeVisible();
+  await page.getByLabel("Find a tendon by tag").fill("");
+  for (const t of [p.tendons[0]!, p.tendons[2]!]) {
+    await expect(page.getByTestId("tendon-row").filter({ hasText: t.tag }).locator("[data-state]")).toHaveText("done");
+  }
+  await shoot(page, "field-log-reloaded-offline-landscape");
+  await page.setViewportSize({ width: 800, height: 1280 });
+  await shoot(page, "field-log-offline-portrait");
+
+  // Signal back: the records go, and the server's verdict comes back.
+  await context.setOffline(false);
+  await page.getByRole("button", { name: "Sync now" }).click();
+  await expect(page.getByTestId("pending-count")).toContainText("0 records", { timeout: 20_000 });
+  await expect(page.getByTestId("end-A").getByTestId("sync-state")).toHaveText("sent");
+  await expect(page.getByTestId("server-verdict")).toContainText("Long");
+  await expect(page.getByTestId("last-sync")).not.toContainText("never");
+  await shoot(page, "field-log-synced-portrait");
+  await page.setViewportSize({ width: 1280, height: 800 });
+
+  const client = new pg.Client({ connectionString: process.env.DATABASE_URL });
+  await client.connect();
+  try {
+    const { rows } = await client.query<{ tendon_id: string; n: number }>(
+      "select tendon_id, count(*)::int as n from records where tendon_id = any($1::uuid[]) group by tendon_id",
+      [p.tendons.map((t) => t.id)],
+    );
+    expect(rows.map((r) => r.n)).toEqual([1, 1, 1]);
+    const ops = await client.query<{ n: number }>("select count(*)::int as n from applied_ops where record_id in (select id from records where tendon_id = any($1::uuid[]))", [
+      p.tendons.map((t) => t.id),
+    ]);
+    expect(ops.rows[0]!.n).toBe(3);
+  } finally {
+    await client.end();
+  }
+});
