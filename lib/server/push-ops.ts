@@ -31,7 +31,7 @@ export interface PushHooks {
   afterCommit?: (op: SyncOp, result: OpResult) => void | Promise<void>;
 }
 
-const CHAINS_AT_ONCE = 4;
+const CHAINS_AT_ONCE = 8;
 
 /** Ends the op's transaction with an answer: thrown inside it so everything it wrote rolls back. */
 class Answer extends Error {
