@@ -12,6 +12,9 @@ export function ReleaseList({ pours, canRelease }: { pours: ReleaseCandidate[]; 
           <li key={p.pourId} className="card" data-pour={p.pourName}>
             <p className="text-label uppercase text-ink-faint">{p.projectName}</p>
             <h3 className="text-lead font-bold">{p.pourName}</h3>
+            <a className="btn-quiet mt-2" href={`/projects/${p.projectId}/pours/${p.pourId}/insight`}>
+              Charts, insight and report
+            </a>
             {p.releasedBy ? (
               <p className="mt-2 font-semibold">
                 ✓ Released by {p.releasedBy} on {p.releasedAt ? new Date(p.releasedAt).toUTCString() : ""}

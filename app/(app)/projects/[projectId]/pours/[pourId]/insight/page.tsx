@@ -1,0 +1,120 @@
+import { notFound } from "next/navigation";
+import { DeviationChart } from "@/components/insight/deviation-chart";
+import { DriftTable, ModulusTable, ResolutionSummary } from "@/components/insight/insight-tables";
+import { MeasuredPredictedChart } from "@/components/insight/measured-predicted-chart";
+import { ProgressChart } from "@/components/insight/progress-chart";
+import { Caution } from "@/components/ui/caution";
+import { db } from "@/db";
+import { can } from "@/lib/auth/permissions";
+import { isAppError } from "@/lib/errors";
+import { DRIFT_RULE } from "@/lib/insights";
+import { getPourInsight } from "@/lib/server/get-pour-insight";
+import { readingResolution } from "@/lib/stressing/display";
+import { isUuid, pageAccess } from "../../../page-access";
+
+export const metadata = { title: "Pour insight" };
+
+export default async function PourInsightPage({ params }: { params: Promise<{ projectId: string; pourId: string }> }) {
+  const { projectId, pourId } = await params;
+  const access = await pageAccess("record.view", projectId);
+  if (!isUuid(pourId)) notFound();
+  const insight = await getPourInsight(db, { projectId, pourId }).catch((e: unknown) => {
+    if (isAppError(e) && e.code === "NOT_FOUND") notFound();
+    throw e;
+  });
+  const us = insight.project.unitSystem === "us";
+  const lengthUnit = us ? "in" : "mm";
+  const toUnit = (mm: number) => (us ? mm / 25.4 : mm);
+  const points = insight.points.map((p, i) => ({ index: i + 1, tag: p.tag, deviationPct: p.deviationPct, verdict: p.verdict, provisional: p.provisional }));
+  const api = `/api/projects/${projectId}/pours/${pourId}/report`;
+  const { progress } = insight;
+
+  return (
+    <main className="space-y-10">
+      <header className="flex flex-wrap items-end justify-between gap-4">
+        <div>
+          <p className="text-label uppercase text-ink-faint">{access.projectName}</p>
+          <h1 className="text-figure font-bold">{insight.pour.name}: what the records show</h1>
+          <p className="mt-1 text-ink-soft">
+            {progress.stressed} of {progress.tendons} tendons complete
+            {progress.provisional ? `, ${progress.provisional} with an end still to read` : ""}; pour {insight.pour.status}.
+          </p>
+        </div>
+        {can(access.role, "report.download") && (
+          <div className="flex flex-wrap gap-2">
+            <a className="btn-primary" href={`${api}/pdf`} download>
+              Stressing report (PDF)
+            </a>
+            <a className="btn-quiet" href={`${api}/csv`} download>
+              Records as CSV
+            </a>
+          </div>
+        )}
+      </header>
+
+      <section aria-labelledby="progress-heading" className="space-y-3">
+        <h2 id="progress-heading" className="text-lead font-bold">
+          Progress of the pour
+        </h2>
+        <ProgressChart tendons={progress.tendons} stressed={progress.stressed} flagged={progress.flagged} released={progress.released} />
+      </section>
+
+      {points.length === 0 ? (
+        <p className="card">No tendon on this pour has been stressed yet. The charts appear here once the crew&apos;s records reach the server.</p>
+      ) : (
+        <div className="grid gap-8 xl:grid-cols-2">
+          <section aria-labelledby="deviation-heading" className="space-y-3">
+            <h2 id="deviation-heading" className="text-lead font-bold">
+              Deviation per tendon against the band
+            </h2>
+            <DeviationChart points={points} tolerancePct={insight.project.tolerancePct} />
+          </section>
+          <section aria-labelledby="scatter-heading" className="space-y-3">
+            <h2 id="scatter-heading" className="text-lead font-bold">
+              Measured against predicted
+            </h2>
+            <MeasuredPredictedChart
+              points={insight.points.map((p) => ({ tag: p.tag, predicted: toUnit(p.predictedMm), measured: toUnit(p.measuredMm), verdict: p.verdict }))}
+              tolerancePct={insight.project.tolerancePct}
+              unit={lengthUnit}
+            />
+          </section>
+        </div>
+      )}
+
+      <section aria-labelledby="drift-heading" className="space-y-4">
+        <h2 id="drift-heading" className="text-lead font-bold">
+          Equipment sets: is one drifting?
+        </h2>
+        <p className="text-ink-soft">
+          Elongation follows force, so a gauge or jack out of calibration moves every tendon it stresses the same way. A set is marked when its
+          mean differs from the other sets&apos; pooled mean by at least {DRIFT_RULE.minDifferencePct} points, with at least {DRIFT_RULE.minSamples}{" "}
+          complete tendons on each side, and by at least {DRIFT_RULE.minT} standard errors (Welch&apos;s two-sample comparison).
+          {insight.mixedSets > 0 ? ` ${insight.mixedSets} tendons stressed with two different sets are left out.` : ""}
+        </p>
+        <DriftTable caption="On this pour" sets={insight.driftOnPour} />
+        <DriftTable caption="Across the project" sets={insight.driftOnProject} />
+      </section>
+
+      <section aria-labelledby="modulus-heading" className="space-y-3">
+        <h2 id="modulus-heading" className="text-lead font-bold">
+          Apparent modulus from gauge steps
+        </h2>
+        <p className="text-ink-soft">
+          Where the crew read the elongation at several gauge pressures, the slope of force against reading gives the modulus the tendon behaved
+          as if it had. Friction alone puts it above the mill value; a ratio far from the neighbours&apos; is worth a look.
+        </p>
+        <ModulusTable moduli={insight.moduli} />
+      </section>
+
+      <section aria-labelledby="resolution-heading" className="space-y-3">
+        <h2 id="resolution-heading" className="text-lead font-bold">
+          Verdicts the reading division could change
+        </h2>
+        <ResolutionSummary resolution={insight.resolution} division={readingResolution(insight.project.readingResolution)} />
+      </section>
+
+      <Caution />
+    </main>
+  );
+}

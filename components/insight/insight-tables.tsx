@@ -1,0 +1,115 @@
+import type { ApparentModulus, ResolutionShare, SetDrift } from "@/lib/insights";
+
+/** The insight page's tables: plain server-rendered markup, numbers in tabular figures. */
+
+const pct = (v: number) => `${v >= 0 ? "+" : "−"}${Math.abs(v).toFixed(1)} %`;
+const share = (s: number | null) => (s === null ? "—" : `${Math.round(s * 100)} %`);
+
+export function DriftTable({ caption, sets }: { caption: string; sets: SetDrift[] }) {
+  if (!sets.length) return <p className="card">{caption}: no tendon is complete yet, so there is nothing to compare.</p>;
+  return (
+    <div className="overflow-x-auto">
+      <table className="w-full border-collapse text-left" data-table="drift">
+        <caption className="mb-2 text-left text-lead font-semibold">{caption}</caption>
+        <thead>
+          <tr className="border-b-2 border-ink">
+            <th className="p-2">Equipment set</th>
+            <th className="p-2 text-right">Tendons</th>
+            <th className="p-2 text-right">Mean deviation</th>
+            <th className="p-2 text-right">Spread (sd)</th>
+            <th className="p-2 text-right">Other sets</th>
+            <th className="p-2">Drift</th>
+          </tr>
+        </thead>
+        <tbody>
+          {sets.map((s) => (
+            <tr key={s.setId} className="border-b border-concrete-300 align-top" data-set={s.setName} data-drifting={s.drifting}>
+              <th scope="row" className="p-2 font-semibold">
+                {s.setName}
+              </th>
+              <td className="whitespace-nowrap p-2 text-right tabular-nums">{s.n}</td>
+              <td className="whitespace-nowrap p-2 text-right tabular-nums">
+                {pct(s.meanPct)} <span className="text-label text-ink-faint">± {s.sePct.toFixed(1)}</span>
+              </td>
+              <td className="whitespace-nowrap p-2 text-right tabular-nums">{s.sdPct.toFixed(1)} pts</td>
+              <td className="whitespace-nowrap p-2 text-right tabular-nums">{s.others ? `${pct(s.others.meanPct)} (${s.others.n})` : "—"}</td>
+              <td className="p-2">
+                {s.drifting ? (
+                  <span className="inline-flex items-center gap-2 rounded-md border-2 border-signal-stop bg-signal-stop-bg px-2 font-bold text-signal-stop">
+                    <svg viewBox="0 0 24 24" className="h-4 w-4" aria-hidden="true">
+                      <path d="M12 2 L23 21 H1 Z" fill="none" stroke="currentColor" strokeWidth="2.5" strokeLinejoin="round" />
+                    </svg>
+                    Drifting
+                  </span>
+                ) : (
+                  <span className="font-semibold">No drift seen</span>
+                )}
+                <p className="mt-1 text-label text-ink-soft">{s.note}</p>
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
+export function ModulusTable({ moduli }: { moduli: ApparentModulus[] }) {
+  if (!moduli.length)
+    return <p className="card">No record on this pour was read at several gauge steps, so there is no apparent modulus to show.</p>;
+  return (
+    <div className="overflow-x-auto">
+      <table className="w-full border-collapse text-left" data-table="modulus">
+        <thead>
+          <tr className="border-b-2 border-ink">
+            <th className="p-2">Tendon, end</th>
+            <th className="p-2 text-right">Steps</th>
+            <th className="p-2 text-right">Apparent modulus</th>
+            <th className="p-2 text-right">Mill value</th>
+            <th className="p-2 text-right">Ratio</th>
+            <th className="p-2 text-right">r²</th>
+          </tr>
+        </thead>
+        <tbody>
+          {moduli.map((m) => (
+            <tr key={`${m.tag}-${m.end}`} className="border-b border-concrete-300">
+              <th scope="row" className="p-2 font-semibold">
+                {m.tag}, end {m.end}
+              </th>
+              <td className="whitespace-nowrap p-2 text-right tabular-nums">{m.steps}</td>
+              {"problem" in m ? (
+                <td className="p-2" colSpan={4}>
+                  {m.problem}
+                </td>
+              ) : (
+                <>
+                  <td className="whitespace-nowrap p-2 text-right tabular-nums">{Math.round(m.apparentModulusMPa).toLocaleString("en-US")} MPa</td>
+                  <td className="whitespace-nowrap p-2 text-right tabular-nums">{m.millModulusMPa ? `${Math.round(m.millModulusMPa).toLocaleString("en-US")} MPa` : "—"}</td>
+                  <td className="whitespace-nowrap p-2 text-right tabular-nums">{m.modulusRatio ? m.modulusRatio.toFixed(3) : "—"}</td>
+                  <td className="whitespace-nowrap p-2 text-right tabular-nums">{m.r2.toFixed(4)}</td>
+                </>
+              )}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
+export function ResolutionSummary({ resolution, division }: { resolution: ResolutionShare; division: string }) {
+  if (!resolution.all.n) return <p className="card">No tendon is complete yet, so no verdict can be weighed against the reading division.</p>;
+  return (
+    <div className="card space-y-2" data-table="resolution">
+      <p>
+        <strong className="tabular-nums">{share(resolution.short.share)}</strong> of short tendons ({resolution.short.couldChange} of {resolution.short.n}) and{" "}
+        <strong className="tabular-nums">{share(resolution.all.share)}</strong> of all complete tendons ({resolution.all.couldChange} of {resolution.all.n}) have a
+        verdict that the reading division ({division}) alone could change: half a division either way on each end read crosses a band edge.
+      </p>
+      <p className="text-label text-ink-soft">
+        Short here means a band narrower than four reading divisions. A finer division, or a second reading, settles these.
+      </p>
+      {resolution.tendons.length > 0 && <p>Tendons: {resolution.tendons.map((t) => `${t.tag}${t.short ? " (short)" : ""}`).join(", ")}</p>}
+    </div>
+  );
+}
