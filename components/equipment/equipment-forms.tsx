@@ -1,9 +1,9 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
+import { useSWRConfig } from "swr";
 import { z } from "zod";
 import { units } from "@/components/setup/unit-fields";
 import { FileUpload } from "@/components/uploads/file-upload";
@@ -12,6 +12,7 @@ import { sendJson } from "@/lib/client/send-json";
 import { calibrationSchema, type CalibrationInput } from "@/lib/schemas/calibration";
 import { equipmentSetSchema, type EquipmentSetInput } from "@/lib/schemas/equipment";
 import { isInputError, parseForce, parsePressure } from "@/lib/units";
+import { equipmentSetsKey, useEquipmentSets, type EquipmentSetList } from "./equipment-list";
 
 type Errors = Record<string, { message?: string } | undefined>;
 
@@ -37,7 +38,7 @@ function setForm(us: boolean) {
 }
 
 export function EquipmentSetForm({ projectId, us }: { projectId: string; us: boolean }) {
-  const router = useRouter();
+  const { mutate } = useSWRConfig();
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
   const form = useForm<z.input<ReturnType<typeof setForm>>, unknown, EquipmentSetInput>({
     resolver: zodResolver(setForm(us)),
@@ -52,7 +53,7 @@ export function EquipmentSetForm({ projectId, us }: { projectId: string; us: boo
     }
     setMessage({ tone: "info", text: `Set ${values.name} added. Add its calibration next.` });
     form.reset();
-    router.refresh();
+    void mutate(equipmentSetsKey(projectId));
   });
   return (
     <form onSubmit={onSubmit} noValidate className="card space-y-4">
@@ -101,9 +102,12 @@ function calForm(us: boolean) {
     .pipe(calibrationSchema);
 }
 
-export function CalibrationForm({ projectId, us, sets, validityDays }: { projectId: string; us: boolean; sets: { id: string; name: string }[]; validityDays: number }) {
-  const router = useRouter();
-  const [setId, setSetId] = useState(sets[0]?.id ?? "");
+export function CalibrationForm({ projectId, us, initial, validityDays }: { projectId: string; us: boolean; initial: EquipmentSetList; validityDays: number }) {
+  const { mutate } = useSWRConfig();
+  // The same list as the cards above, so a set added a moment ago can be chosen at once.
+  const sets = useEquipmentSets(projectId, initial).data.equipmentSets;
+  const [chosen, setChosen] = useState("");
+  const setId = sets.some((s) => s.id === chosen) ? chosen : (sets[0]?.id ?? "");
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
   const form = useForm<z.input<ReturnType<typeof calForm>>, unknown, CalibrationInput>({
     resolver: zodResolver(calForm(us)),
@@ -118,7 +122,7 @@ export function CalibrationForm({ projectId, us, sets, validityDays }: { project
     }
     setMessage({ tone: "info", text: `Calibration saved: r² = ${r.data.r2.toFixed(5)}, valid to ${r.data.validUntil}. ${r.data.warnings.join(" ")}` });
     form.reset();
-    router.refresh();
+    void mutate(equipmentSetsKey(projectId));
   });
   if (!sets.length) return null;
   return (
@@ -130,7 +134,7 @@ export function CalibrationForm({ projectId, us, sets, validityDays }: { project
           <label htmlFor="c-set" className="field-label">
             Equipment set
           </label>
-          <select id="c-set" className="field-input mt-1" value={setId} onChange={(ev) => setSetId(ev.target.value)}>
+          <select id="c-set" className="field-input mt-1" value={setId} onChange={(ev) => setChosen(ev.target.value)}>
             {sets.map((s) => (
               <option key={s.id} value={s.id}>
                 {s.name}

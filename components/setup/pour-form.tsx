@@ -1,13 +1,14 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
+import { useSWRConfig } from "swr";
 import { z } from "zod";
 import { FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
 import { POUR_STATUSES, pourSchema, type PourInput } from "@/lib/schemas/pour";
+import { poursKey } from "./pour-table";
 import { units } from "./unit-fields";
 
 const FT2_PER_M2 = 10.7639104167;
@@ -28,7 +29,7 @@ type FormIn = z.input<ReturnType<typeof formSchema>>;
 
 /** Adds a pour (placement) to the project. */
 export function PourForm({ projectId, us }: { projectId: string; us: boolean }) {
-  const router = useRouter();
+  const { mutate } = useSWRConfig();
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
   const form = useForm<FormIn, unknown, PourInput>({
     resolver: zodResolver(formSchema(us)),
@@ -44,7 +45,7 @@ export function PourForm({ projectId, us }: { projectId: string; us: boolean }) 
     }
     setMessage({ tone: "info", text: `Pour ${values.name} added. Import its tendon schedule next.` });
     form.reset();
-    router.refresh();
+    void mutate(poursKey(projectId));
   });
   const input = (k: keyof FormIn, label: string, props: React.InputHTMLAttributes<HTMLInputElement> = {}) => (
     <div>

@@ -1,15 +1,16 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
+import { useSWRConfig } from "swr";
 import { z } from "zod";
 import { FileUpload, type UploadedFile } from "@/components/uploads/file-upload";
 import { FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
 import { strandLotSchema, type StrandLotInput } from "@/lib/schemas/strand-lot";
 import { STRAND_SIZES } from "@/lib/schemas/tendon";
+import { strandLotsKey } from "./strand-lot-table";
 import { units } from "./unit-fields";
 
 function formSchema(us: boolean) {
@@ -31,7 +32,7 @@ type FormIn = z.input<ReturnType<typeof formSchema>>;
 
 /** Registers a strand lot with its mill-certificate values and the certificate file. */
 export function StrandLotForm({ projectId, us }: { projectId: string; us: boolean }) {
-  const router = useRouter();
+  const { mutate } = useSWRConfig();
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
   const [file, setFile] = useState<UploadedFile | null>(null);
   const form = useForm<FormIn, unknown, StrandLotInput>({
@@ -49,7 +50,7 @@ export function StrandLotForm({ projectId, us }: { projectId: string; us: boolea
     setMessage({ tone: "info", text: `Lot ${values.lotNumber} registered.` });
     form.reset();
     setFile(null);
-    router.refresh();
+    void mutate(strandLotsKey(projectId));
   });
   const input = (k: keyof FormIn, label: string, hint?: string) => (
     <div>

@@ -1,12 +1,13 @@
 "use client";
 
-import { useRouter } from "next/navigation";
 import { useState } from "react";
+import { useSWRConfig } from "swr";
 import { sendJson } from "@/lib/client/send-json";
+import { tendonsKey } from "./tendon-table";
 
 /** Reads a schedule file in the browser and sends its text; lists every problem by line and column. */
 export function ScheduleImport({ projectId, pourId }: { projectId: string; pourId: string }) {
-  const router = useRouter();
+  const { mutate } = useSWRConfig();
   const [busy, setBusy] = useState(false);
   const [result, setResult] = useState<{ ok: true; text: string } | { ok: false; text: string; rows: [string, string[]][] } | null>(null);
 
@@ -18,7 +19,7 @@ export function ScheduleImport({ projectId, pourId }: { projectId: string; pourI
     setBusy(false);
     if (answer.ok) {
       setResult({ ok: true, text: `${answer.data.imported} tendons imported from ${file.name}.` });
-      router.refresh();
+      void mutate(tendonsKey(projectId, pourId));
     } else {
       setResult({ ok: false, text: answer.error.message, rows: Object.entries(answer.error.fields ?? {}) });
     }

@@ -1,14 +1,15 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useFieldArray, useForm, useWatch } from "react-hook-form";
+import { useSWRConfig } from "swr";
 import { z } from "zod";
 import { units } from "@/components/setup/unit-fields";
 import { FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
 import { drapeAngleRad, KIND_LABELS, STRAND_SIZES, TENDON_KINDS, tendonSchema, type TendonInput } from "@/lib/schemas/tendon";
+import { tendonsKey } from "./tendon-table";
 
 function formSchema(us: boolean) {
   const system = us ? "US" : "SI";
@@ -47,7 +48,7 @@ type FormIn = z.input<ReturnType<typeof formSchema>>;
 
 /** Adds one tendon by hand: profile as segments, or as a drape height over equal spans. */
 export function TendonForm({ projectId, pourId, us, lots }: { projectId: string; pourId: string; us: boolean; lots: { id: string; lotNumber: string; strandSize: string }[] }) {
-  const router = useRouter();
+  const { mutate } = useSWRConfig();
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
   const long = us ? "ft" : "m";
   const short = us ? "in" : "mm";
@@ -83,7 +84,7 @@ export function TendonForm({ projectId, pourId, us, lots }: { projectId: string;
     }
     setMessage({ tone: "info", text: `Tendon ${values.tag} added.` });
     form.reset();
-    router.refresh();
+    void mutate(tendonsKey(projectId, pourId));
   });
 
   const text = (k: keyof FormIn, label: string, hint?: string) => (

@@ -1,79 +1,161 @@
+"use client";
+
+import { createColumnHelper, functionalUpdate, useTable, type ColumnFiltersState, type ColumnSort, type SortingState } from "@tanstack/react-table";
 import Link from "next/link";
+import { useMemo } from "react";
+import { compareText, isPlainClick, readSorting, SetupTable, setupFeatures, sortingParams, useUrlView } from "@/components/setup/url-table";
+import { RefreshError, useRouteData } from "@/components/setup/use-route-data";
 import { KIND_LABELS } from "@/lib/schemas/tendon";
 import type { TendonRow } from "@/lib/server/list-tendons";
+import { formatLength, type ReadingResolution } from "@/lib/units";
+
+export interface TendonList {
+  pour: { id: string; name: string };
+  tendons: TendonRow[];
+}
+
+/** The route handler that lists a pour's tendons; also the swr key the import and the form refresh. */
+export const tendonsKey = (projectId: string, pourId: string) => `/api/projects/${projectId}/pours/${pourId}/tendons`;
 
 export const SORTS = ["tag", "length", "ends", "lot", "kind"] as const;
-export type Sort = (typeof SORTS)[number];
+const DEFAULT_SORT: ColumnSort = { id: "tag", desc: false };
+const ENDS = ["A", "B", "both"] as const;
 
-export interface TableQuery {
-  q: string;
-  ends: "" | "A" | "B" | "both";
-  lot: string;
-  sort: Sort;
-  dir: "asc" | "desc";
+/** The filters in the URL: q (part of a tag), ends, lot ("none" for tendons without one). */
+function readFilters(params: URLSearchParams): ColumnFiltersState {
+  const q = (params.get("q") ?? "").slice(0, 60);
+  const ends = ENDS.find((e) => e === params.get("ends"));
+  const lot = (params.get("lot") ?? "").slice(0, 60);
+  return [...(q ? [{ id: "tag", value: q }] : []), ...(ends ? [{ id: "ends", value: ends }] : []), ...(lot ? [{ id: "lot", value: lot }] : [])];
 }
 
-export function readQuery(sp: Record<string, string | string[] | undefined>): TableQuery {
-  const one = (k: string) => (Array.isArray(sp[k]) ? sp[k][0] : sp[k]) ?? "";
-  const sort = SORTS.includes(one("sort") as Sort) ? (one("sort") as Sort) : "tag";
-  const ends = (["A", "B", "both"] as const).find((e) => e === one("ends")) ?? "";
-  return { q: one("q").slice(0, 60), ends, lot: one("lot").slice(0, 60), sort, dir: one("dir") === "desc" ? "desc" : "asc" };
-}
-
-const collator = new Intl.Collator("en", { numeric: true, sensitivity: "base" });
-
-/** Filter and sort on the server from the URL, so a filtered view can be shared and reloaded. */
-export function applyQuery(rows: TendonRow[], q: TableQuery): TendonRow[] {
-  const needle = q.q.toLowerCase();
-  const kept = rows.filter((t) => (!needle || t.tag.toLowerCase().includes(needle)) && (!q.ends || t.ends === q.ends) && (!q.lot || (q.lot === "none" ? !t.strandLot : t.strandLot === q.lot)));
-  const key = (t: TendonRow): string | number => (q.sort === "length" ? t.lengthMm : q.sort === "ends" ? t.ends : q.sort === "lot" ? (t.strandLot ?? "") : q.sort === "kind" ? t.kind : t.tag);
-  const sorted = kept.sort((a, b) => {
-    const x = key(a);
-    const y = key(b);
-    return typeof x === "number" && typeof y === "number" ? x - y : collator.compare(String(x), String(y));
-  });
-  return q.dir === "desc" ? sorted.reverse() : sorted;
-}
-
-function href(base: string, q: TableQuery, change: Partial<TableQuery>): string {
-  const next = { ...q, ...change };
-  const sp = new URLSearchParams();
-  for (const [k, v] of Object.entries(next)) if (v && !(k === "sort" && v === "tag") && !(k === "dir" && v === "asc")) sp.set(k, v);
-  const s = sp.toString();
-  return s ? `${base}?${s}` : base;
-}
-
-export function TendonTable(props: { base: string; projectId: string; rows: TendonRow[]; total: number; query: TableQuery; lots: string[]; formatLong: (mm: number) => string; formatShort: (mm: number) => string }) {
-  const { query: q } = props;
-  const header = (key: Sort, label: string, right = false) => {
-    const active = q.sort === key;
-    const dir = active && q.dir === "asc" ? "desc" : "asc";
-    return (
-      <th className={`p-2 ${right ? "text-right" : ""}`} aria-sort={active ? (q.dir === "asc" ? "ascending" : "descending") : "none"}>
-        <Link href={href(props.base, q, { sort: key, dir })} className="inline-flex min-h-touch items-center gap-1">
-          {label}
-          <span aria-hidden="true">{active ? (q.dir === "asc" ? "▲" : "▼") : "↕"}</span>
-        </Link>
-      </th>
-    );
+function filterParams(filters: ColumnFiltersState): Record<"q" | "ends" | "lot", string | null> {
+  const value = (id: string) => {
+    const v = filters.find((f) => f.id === id)?.value;
+    return typeof v === "string" && v ? v : null;
   };
+  return { q: value("tag"), ends: value("ends"), lot: value("lot") };
+}
+
+const helper = createColumnHelper<typeof setupFeatures, TendonRow>();
+
+function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolution) {
+  const long = (mm: number) => (us ? `${(mm / 304.8).toFixed(1)} ft` : `${(mm / 1000).toFixed(2)} m`);
+  return helper.columns([
+    helper.accessor("tag", {
+      header: "Tag",
+      sortFn: (a, b, id) => compareText(a.getValue<string>(id), b.getValue<string>(id)),
+      filterFn: (row, id, value: string) => row.getValue<string>(id).toLowerCase().includes(value.toLowerCase()),
+      cell: (c) => (
+        <Link href={`/projects/${projectId}/tendons/${c.row.original.id}`} className="inline-flex min-h-touch items-center font-semibold">
+          {c.getValue()}
+        </Link>
+      ),
+    }),
+    helper.accessor("kind", {
+      header: "Type",
+      sortFn: (a, b, id) => compareText(a.getValue<string>(id), b.getValue<string>(id)),
+      enableColumnFilter: false,
+      cell: (c) => KIND_LABELS[c.getValue()],
+    }),
+    helper.display({
+      id: "strand",
+      header: "Strand",
+      cell: (c) => `${c.row.original.strandCount} × ${c.row.original.strandSize}`,
+    }),
+    helper.accessor("ends", {
+      header: "Ends",
+      sortFn: (a, b, id) => compareText(a.getValue<string>(id), b.getValue<string>(id)),
+      filterFn: (row, id, value: string) => row.getValue<string>(id) === value,
+    }),
+    helper.accessor("lengthMm", {
+      id: "length",
+      header: "Length",
+      meta: { right: true },
+      sortFn: (a, b, id) => a.getValue<number>(id) - b.getValue<number>(id),
+      enableColumnFilter: false,
+      cell: (c) => long(c.getValue()),
+    }),
+    helper.display({ id: "segments", header: "Segments", meta: { right: true }, cell: (c) => c.row.original.segments.length }),
+    helper.display({
+      id: "shop",
+      header: "Shop elongation",
+      meta: { right: true },
+      cell: (c) => (c.row.original.shopElongationMm === null ? "—" : formatLength(c.row.original.shopElongationMm, resolution)),
+    }),
+    helper.accessor("strandLot", {
+      id: "lot",
+      header: "Lot",
+      sortFn: (a, b, id) => compareText(a.getValue<string | null>(id), b.getValue<string | null>(id)),
+      filterFn: (row, id, value: string) => (value === "none" ? !row.getValue<string | null>(id) : row.getValue<string | null>(id) === value),
+      cell: (c) => c.getValue() ?? <span className="text-ink-faint">nominal</span>,
+    }),
+  ]);
+}
+
+/**
+ * A pour's tendon schedule. The first render has the list the page read on the server; after an
+ * import or a new tendon the list is read again through the route handler (swr). Sorting and
+ * filtering are done by the table library in the browser, with the view kept in the URL.
+ */
+export function TendonTable(props: { base: string; projectId: string; pourId: string; initial: TendonList; lots: string[]; us: boolean; resolution: ReadingResolution }) {
+  const { data, error } = useRouteData(tendonsKey(props.projectId, props.pourId), props.initial);
+  const tendons = data.tendons;
+  const { params, hrefWith, go } = useUrlView(props.base);
+  const sorting = useMemo(() => readSorting(params, SORTS, DEFAULT_SORT), [params]);
+  const columnFilters = useMemo(() => readFilters(params), [params]);
+  const columns = useMemo(() => tendonColumns(props.projectId, props.us, props.resolution), [props.projectId, props.us, props.resolution]);
+  const hrefFor = (next: SortingState) => hrefWith(sortingParams(next, DEFAULT_SORT));
+
+  const table = useTable({
+    features: setupFeatures,
+    columns,
+    data: tendons,
+    getRowId: (t) => t.id,
+    state: { sorting, columnFilters },
+    enableSortingRemoval: false,
+    onSortingChange: (updater) => go(hrefFor(functionalUpdate(updater, sorting))),
+    onColumnFiltersChange: (updater) => go(hrefWith(filterParams(functionalUpdate(updater, columnFilters)))),
+  });
+  const shown = table.getRowModel().rows.length;
+  const total = tendons.length;
+  const current = filterParams(columnFilters);
+
   return (
     <section aria-labelledby="tendons-heading">
       <h2 id="tendons-heading" className="text-lead font-semibold">
-        Tendons ({props.rows.length === props.total ? props.total : `${props.rows.length} of ${props.total}`})
+        Tendons ({shown === total ? total : `${shown} of ${total}`})
       </h2>
-      <form method="get" action={props.base} className="mt-3 grid gap-3 md:grid-cols-[2fr_1fr_1fr_auto_auto] md:items-end">
+      <RefreshError error={error} what="tendon list" />
+      <form
+        // Remounted when the URL changes (Clear, the back button), so the fields show the view.
+        key={params.toString()}
+        method="get"
+        action={props.base}
+        className="mt-3 grid gap-3 md:grid-cols-[2fr_1fr_1fr_auto_auto] md:items-end"
+        onSubmit={(e) => {
+          e.preventDefault();
+          const form = new FormData(e.currentTarget);
+          const text = (k: string) => String(form.get(k) ?? "").trim();
+          const next = [
+            { id: "tag", value: text("q").slice(0, 60) },
+            { id: "ends", value: text("ends") },
+            { id: "lot", value: text("lot").slice(0, 60) },
+          ].filter((f) => f.value);
+          table.setColumnFilters(next);
+        }}
+      >
         <div>
           <label htmlFor="f-q" className="field-label">
             Show tags containing
           </label>
-          <input id="f-q" name="q" defaultValue={q.q} className="field-input mt-1" />
+          <input id="f-q" name="q" defaultValue={current.q ?? ""} className="field-input mt-1" />
         </div>
         <div>
           <label htmlFor="f-ends" className="field-label">
             Show stressing end
           </label>
-          <select id="f-ends" name="ends" defaultValue={q.ends} className="field-input mt-1">
+          <select id="f-ends" name="ends" defaultValue={current.ends ?? ""} className="field-input mt-1">
             <option value="">Any</option>
             <option value="A">A</option>
             <option value="B">B</option>
@@ -84,7 +166,7 @@ export function TendonTable(props: { base: string; projectId: string; rows: Tend
           <label htmlFor="f-lot" className="field-label">
             Show strand lot
           </label>
-          <select id="f-lot" name="lot" defaultValue={q.lot} className="field-input mt-1">
+          <select id="f-lot" name="lot" defaultValue={current.lot ?? ""} className="field-input mt-1">
             <option value="">Any</option>
             <option value="none">No lot</option>
             {props.lots.map((l) => (
@@ -92,55 +174,31 @@ export function TendonTable(props: { base: string; projectId: string; rows: Tend
             ))}
           </select>
         </div>
-        <input type="hidden" name="sort" value={q.sort} />
-        <input type="hidden" name="dir" value={q.dir} />
+        {/* Without the script the form is an ordinary GET of the same view. */}
+        {params.get("sort") && <input type="hidden" name="sort" value={params.get("sort") ?? ""} />}
+        {params.get("dir") && <input type="hidden" name="dir" value={params.get("dir") ?? ""} />}
         <button className="btn-primary" type="submit">
           Filter
         </button>
-        <Link className="btn-quiet" href={props.base}>
+        <a
+          className="btn-quiet"
+          href={props.base}
+          onClick={(e) => {
+            if (!isPlainClick(e)) return;
+            e.preventDefault();
+            go(props.base);
+          }}
+        >
           Clear
-        </Link>
+        </a>
       </form>
-      {props.total === 0 ? (
+      {total === 0 ? (
         <p className="card mt-4">This pour has no tendons yet. Import a schedule file or add tendons one by one below.</p>
-      ) : props.rows.length === 0 ? (
+      ) : shown === 0 ? (
         <p className="card mt-4">No tendon matches the filter.</p>
       ) : (
         <div className="mt-4 overflow-x-auto">
-          <table className="w-full border-collapse text-left">
-            <thead>
-              <tr className="border-b-2 border-ink">
-                {header("tag", "Tag")}
-                {header("kind", "Type")}
-                <th className="p-2">Strand</th>
-                {header("ends", "Ends")}
-                {header("length", "Length", true)}
-                <th className="p-2 text-right">Segments</th>
-                <th className="p-2 text-right">Shop elongation</th>
-                {header("lot", "Lot")}
-              </tr>
-            </thead>
-            <tbody>
-              {props.rows.map((t) => (
-                <tr key={t.id} className="border-b border-concrete-300">
-                  <td className="p-2">
-                    <Link href={`/projects/${props.projectId}/tendons/${t.id}`} className="inline-flex min-h-touch items-center font-semibold">
-                      {t.tag}
-                    </Link>
-                  </td>
-                  <td className="p-2">{KIND_LABELS[t.kind]}</td>
-                  <td className="p-2">
-                    {t.strandCount} × {t.strandSize}
-                  </td>
-                  <td className="p-2">{t.ends}</td>
-                  <td className="p-2 text-right">{props.formatLong(t.lengthMm)}</td>
-                  <td className="p-2 text-right">{t.segments.length}</td>
-                  <td className="p-2 text-right">{t.shopElongationMm === null ? "—" : props.formatShort(t.shopElongationMm)}</td>
-                  <td className="p-2">{t.strandLot ?? <span className="text-ink-faint">nominal</span>}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <SetupTable table={table} hrefFor={hrefFor} />
         </div>
       )}
     </section>

@@ -2,7 +2,7 @@ import { notFound } from "next/navigation";
 import { SetupTabs } from "@/components/setup/setup-tabs";
 import { ScheduleImport } from "@/components/tendons/schedule-import";
 import { TendonForm } from "@/components/tendons/tendon-form";
-import { applyQuery, readQuery, TendonTable } from "@/components/tendons/tendon-table";
+import { TendonTable } from "@/components/tendons/tendon-table";
 import { db } from "@/db";
 import { columnGuide } from "@/lib/csv/tendon-schedule";
 import { isAppError } from "@/lib/errors";
@@ -10,31 +10,25 @@ import { displayUnits } from "@/lib/schemas/project-settings";
 import { getProjectSettings } from "@/lib/server/get-project-settings";
 import { listStrandLots } from "@/lib/server/list-strand-lots";
 import { listTendons } from "@/lib/server/list-tendons";
-import { formatLength } from "@/lib/units";
 import { isUuid, pageAccess } from "../../page-access";
 
 export const metadata = { title: "Pour schedule" };
 
-export default async function PourPage({ params, searchParams }: { params: Promise<{ projectId: string; pourId: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+export default async function PourPage({ params }: { params: Promise<{ projectId: string; pourId: string }> }) {
   const { projectId, pourId } = await params;
   const access = await pageAccess("schedule.manage", projectId);
   if (!isUuid(pourId)) notFound();
-  const [list, project, lots, sp] = await Promise.all([
+  const [list, project, lots] = await Promise.all([
     listTendons(db, { projectId, pourId }).catch((e: unknown) => {
       if (isAppError(e) && e.code === "NOT_FOUND") notFound();
       throw e;
     }),
     getProjectSettings(db, projectId),
     listStrandLots(db, projectId),
-    searchParams,
   ]);
   const u = displayUnits(project);
   const us = u.system === "US";
-  const query = readQuery(sp);
-  const rows = applyQuery(list.tendons, query);
   const base = `/projects/${projectId}/pours/${pourId}`;
-  const formatLong = (mm: number) => (us ? `${(mm / 304.8).toFixed(1)} ft` : `${(mm / 1000).toFixed(2)} m`);
-  const formatShort = (mm: number) => formatLength(mm, u.resolution);
   return (
     <main className="space-y-8">
       <SetupTabs projectId={projectId} projectName={access.projectName} current="pours" />
@@ -52,7 +46,7 @@ export default async function PourPage({ params, searchParams }: { params: Promi
           </a>
         </div>
       </div>
-      <TendonTable base={base} projectId={projectId} rows={rows} total={list.tendons.length} query={query} lots={lots.map((l) => l.lotNumber)} formatLong={formatLong} formatShort={formatShort} />
+      <TendonTable base={base} projectId={projectId} pourId={pourId} initial={list} lots={lots.map((l) => l.lotNumber)} us={us} resolution={u.resolution} />
       <div className="grid gap-6 lg:grid-cols-2">
         <ScheduleImport projectId={projectId} pourId={pourId} />
         <section aria-labelledby="layout-heading" className="card">
