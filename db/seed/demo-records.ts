@@ -27,6 +27,18 @@ export function demoUuid(name: string): string {
   return `${h.slice(0, 8)}-${h.slice(8, 12)}-4${h.slice(13, 16)}-8${h.slice(17, 20)}-${h.slice(20, 32)}`;
 }
 
+const STEPPED = new Set(["2-1-B01", "2-1-B02", "2-1-B03", "2-1-B04", "2-1-B05", "2-1-B06"]);
+
+/** Readings at 40, 70 and 100 % of the final pressure, on a line through a 3 mm slack offset. */
+function gaugeSteps(line: { slope: number; intercept: number }, finalMPa: number, measuredMm: number) {
+  const finalForce = line.slope * finalMPa + line.intercept;
+  return [0.4, 0.7, 1].map((f) => {
+    const pressureMPa = finalMPa * f;
+    const force = line.slope * pressureMPa + line.intercept;
+    return { pressureMPa, readingMm: 3 + (measuredMm * force) / finalForce };
+  });
+}
+
 /** Deterministic scatter in [-1, 1) from a name. */
 function scatter(name: string): number {
   const h = createHash("sha256").update(name).digest();
@@ -125,6 +137,9 @@ export async function seedDemoRecords(
               marks: { before: "2", after: afterText },
               strokes: null,
               seating: null,
+              // Last week's first banded tendons were also read at three gauge steps on the way up,
+              // with a little slack taken up before the strand carried load.
+              ...(STEPPED.has(plan.tag) ? { gaugeSteps: gaugeSteps(line, psi / PSI_PER_MPA, measuredMm) } : {}),
             }),
             measured_mm: measuredMm,
             wire_breaks: plan.wireBreakEnd === end ? 1 : 0,

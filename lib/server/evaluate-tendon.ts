@@ -44,6 +44,9 @@ const line = (c: Calibration): CalibrationLine => ({
 
 const isoDay = (d: Date | string) => new Date(d).toISOString().slice(0, 10);
 
+/** Half of a 100 psi gauge graduation, in MPa. */
+const HALF_GRADUATION_MPA = 50 * 0.006894757293168;
+
 export async function evaluateTendon(
   db: Kysely<Database>,
   input: { projectId: string; tendonId: string; reason: string },
@@ -68,7 +71,8 @@ export async function evaluateTendon(
   }
   const chainsByEnd = { A: [] as (typeof all)[number][], B: [] as (typeof all)[number][] };
   for (const head of heads.values()) chainsByEnd[head.tendon_end].push(head);
-  for (const list of Object.values(chainsByEnd)) list.sort((a, b) => +new Date(a.device_time) - +new Date(b.device_time));
+  for (const list of Object.values(chainsByEnd))
+    list.sort((a, b) => +new Date(a.device_time) - +new Date(b.device_time));
   const current = (["A", "B"] as const).flatMap((end) => chainsByEnd[end].slice(-1));
 
   // A stressing that reached the server after an engineer ordered a restress answers that
@@ -115,7 +119,15 @@ export async function evaluateTendon(
     const day = isoDay(record.device_time);
     const calibrationQuery = db
       .selectFrom("calibrations")
-      .select(["id", "calibrated_on", "valid_until", "slope_n_per_mpa", "intercept_n", "min_pressure_mpa", "max_pressure_mpa"])
+      .select([
+        "id",
+        "calibrated_on",
+        "valid_until",
+        "slope_n_per_mpa",
+        "intercept_n",
+        "min_pressure_mpa",
+        "max_pressure_mpa",
+      ])
       .where("project_id", "=", input.projectId)
       .where("equipment_set_id", "=", set.id);
     const calibration: Calibration | undefined = record.calibration_id
@@ -134,7 +146,8 @@ export async function evaluateTendon(
     }
     if (calibration) {
       const outside = [record.initial_pressure_mpa, record.final_pressure_mpa].filter(
-        (p): p is number => p !== null && p > 0 && (p < calibration.min_pressure_mpa || p > calibration.max_pressure_mpa),
+        (p): p is number =>
+          p !== null && p > 0 && (p < calibration.min_pressure_mpa || p > calibration.max_pressure_mpa),
       );
       if (outside.length) {
         findings.push({
@@ -143,7 +156,10 @@ export async function evaluateTendon(
           recordId: record.id,
         });
       }
-      achievedForces.push(forceFromPressure(line(calibration), record.final_pressure_mpa));
+      // A dial is read to its graduation (at most 100 psi, UFGS 02490): a reading within half a
+      // graduation of the mark is at the mark, so the limits are checked on the lowest force the
+      // reading allows.
+      achievedForces.push(forceFromPressure(line(calibration), Math.max(0, record.final_pressure_mpa - HALF_GRADUATION_MPA)));
       usedCalibrations.push({ recordId: record.id, equipmentSet: set.name, ...calibration });
     }
     if (record.wire_breaks > 0) {
@@ -179,7 +195,7 @@ export async function evaluateTendon(
       if (check.code === "jacking-over-limit") {
         findings.push({
           kind: "jacking_over_limit",
-          reason: `Jacking force reached ${showForce(project, check.value)}, above 0.80·fpu·A = ${showForce(project, check.limit)} (ACI 318-19 Table 20.3.2.5.1).`,
+          reason: `Jacking force reached at least ${showForce(project, check.value)} (gauge reading less half a graduation), above 0.80·fpu·A = ${showForce(project, check.limit)} (ACI 318-19 Table 20.3.2.5.1).`,
           recordId: current[0]?.id ?? null,
         });
       }
@@ -250,7 +266,12 @@ export async function evaluateTendon(
         readings,
         calibrations: usedCalibrations,
       }),
-      result: JSON.stringify({ prediction: predicted.prediction, predictedMm: predicted.predictedMm, judgement, findings }),
+      result: JSON.stringify({
+        prediction: predicted.prediction,
+        predictedMm: predicted.predictedMm,
+        judgement,
+        findings,
+      }),
       verdict,
       provisional,
       deviation_pct: deviationPct,
@@ -298,7 +319,9 @@ export async function evaluateTendon(
   });
 
   if (created.length) {
-    const recipients = [...new Set([project.engineerOfRecordEmail, ...project.notifyEmails].filter((e): e is string => Boolean(e)))];
+    const recipients = [
+      ...new Set([project.engineerOfRecordEmail, ...project.notifyEmails].filter((e): e is string => Boolean(e))),
+    ];
     if (recipients.length) {
       const mail = flagMail({
         to: recipients,

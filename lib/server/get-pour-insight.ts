@@ -104,7 +104,8 @@ export async function getPourInsight(db: Kysely<Database>, input: { projectId: s
         end: r.end,
         steps: r.gaugeSteps,
         calibration: r.calibration,
-        lengthMm: t.lengthMm,
+        // Each end's steps stretch only that end's friction path.
+        lengthMm: t.pathMm[r.end] ?? t.lengthMm,
         strandAreaMm2: t.strand?.areaMm2 ?? 0,
         strandCount: t.strandCount,
         millModulusMPa: t.strand?.modulusMPa ?? null,

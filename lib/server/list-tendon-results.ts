@@ -41,6 +41,8 @@ export interface TendonResult {
   strandCount: number;
   ends: StressingEnds;
   lengthMm: number;
+  /** Length of each stressed end's friction path: to the meeting point when both ends are stressed. */
+  pathMm: { A?: number; B?: number };
   lotNumber: string | null;
   /** Area and modulus the evaluation used, and where they came from. */
   strand: { areaMm2: number; modulusMPa: number; source: string } | null;
@@ -57,6 +59,9 @@ export interface TendonResult {
   endResults: EndResult[];
 }
 
+const resultSchema = z.object({
+  prediction: z.object({ meetingPointMm: z.number().nullable() }).catch({ meetingPointMm: null }),
+});
 const calibrationUsed = z.object({ recordId: z.string(), slope_n_per_mpa: z.number(), intercept_n: z.number() });
 const inputsSchema = z.object({
   calibrations: z.array(calibrationUsed).catch([]),
@@ -108,6 +113,7 @@ export async function listTendonResults(
       "evaluations.created_at",
       "evaluations.engine_version",
       "evaluations.inputs",
+      "evaluations.result",
     ])
     .where("evaluations.project_id", "=", input.projectId)
     .where("tendons.project_id", "=", input.projectId);
@@ -185,6 +191,15 @@ export async function listTendonResults(
         };
       });
     const segments = t.segments as TendonSegment[];
+    const lengthMm = segments.reduce((sum, s) => sum + s.lengthMm, 0);
+    const stored = e ? resultSchema.safeParse(e.result) : null;
+    const meeting = stored?.success ? stored.data.prediction.meetingPointMm : null;
+    const pathMm =
+      t.ends === "both"
+        ? meeting === null
+          ? { A: lengthMm / 2, B: lengthMm / 2 }
+          : { A: meeting, B: lengthMm - meeting }
+        : { [t.ends]: lengthMm };
     return {
       tendonId: t.id,
       pourId: t.pour_id,
@@ -193,7 +208,8 @@ export async function listTendonResults(
       strandSize: t.strand_size,
       strandCount: t.strand_count,
       ends: t.ends,
-      lengthMm: segments.reduce((sum, s) => sum + s.lengthMm, 0),
+      lengthMm,
+      pathMm,
       lotNumber: t.lot_number,
       strand: used.strand
         ? { ...used.strand, source: used.strand.source === "strand lot" && used.lot ? `strand lot ${used.lot.lotNumber}` : used.strand.source }

@@ -119,6 +119,17 @@ describe("the server's evaluation of a tendon", () => {
     expect(flag.reason).toMatch(/above 0\.80·fpu·A = 33\.04 kip/);
   });
 
+  it("reads a gauge within half a 100 psi graduation of the mark as at the mark (graduation per UFGS 02490)", async () => {
+    const tendon = await fx.tendon("2-1-U05");
+    const predicted = await predictedFor(tendon.id);
+    const psi = 0.006894757293168;
+    const base = { projectId: fx.projectId, tendon, equipmentSetId: fx.setA, authorId: fx.crewId };
+    await insertRecord(t.db, { ...base, end: "A", measuredMm: (predicted.predictedMm * predicted.prediction.perEndMm.A!) / predicted.prediction.grossMm, finalPressureMPa: normalPressure + 40 * psi });
+    await insertRecord(t.db, { ...base, end: "B", measuredMm: (predicted.predictedMm * predicted.prediction.perEndMm.B!) / predicted.prediction.grossMm, finalPressureMPa: normalPressure + 40 * psi });
+    const outcome = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+    expect(outcome.flagKinds).not.toContain("jacking_over_limit");
+  });
+
   it("flags a wire break, an expired calibration with the crew's reason, and a reading outside the calibrated range", async () => {
     const tendon = await fx.tendon("2-1-U04");
     const predicted = await predictedFor(tendon.id);
