@@ -4,9 +4,7 @@ import { z } from "zod";
  * Every environment variable Tautline reads, validated in one place.
  * The defaults serve a local run (`npm start`); a deployment sets them explicitly.
  */
-const flag = z
-  .enum(["true", "false", "1", "0"])
-  .transform((v) => v === "true" || v === "1");
+const flag = z.enum(["true", "false", "1", "0"]).transform((v) => v === "true" || v === "1");
 
 const schema = z.object({
   NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
@@ -36,7 +34,11 @@ const schema = z.object({
   S3_FORCE_PATH_STYLE: flag.default(true),
   // The local fake needs checksums only when required; real S3 keeps the SDK defaults.
   S3_CHECKSUMS_WHEN_REQUIRED: flag.default(true),
-  UPLOAD_MAX_BYTES: z.coerce.number().int().min(1024).default(15 * 1024 * 1024),
+  UPLOAD_MAX_BYTES: z.coerce
+    .number()
+    .int()
+    .min(1024)
+    .default(15 * 1024 * 1024),
 });
 
 export type Env = z.infer<typeof schema>;

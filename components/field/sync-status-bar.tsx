@@ -23,7 +23,7 @@ function useOnline(): boolean {
 function Item({ label, value, tone = "plain", testId }: { label: string; value: string; tone?: "plain" | "warn"; testId: string }) {
   return (
     <div className={`flex flex-col rounded-md px-3 py-1 ${tone === "warn" ? "bg-signal-stop-bg text-signal-stop" : ""}`} data-testid={testId}>
-      <span className="text-label font-semibold uppercase opacity-80">{label}</span>
+      <span className="text-label font-semibold uppercase">{label}</span>
       <span className="text-body font-bold">{value}</span>
     </div>
   );

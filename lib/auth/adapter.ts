@@ -21,7 +21,12 @@ export function tautlineAdapter(db: Db): Adapter {
       throw new Error("Accounts are created through invitations, not by sign-in links.");
     },
     async getUser(id) {
-      const u = await db.selectFrom("users").select(userColumns).where("id", "=", id).where("is_active", "=", true).executeTakeFirst();
+      const u = await db
+        .selectFrom("users")
+        .select(userColumns)
+        .where("id", "=", id)
+        .where("is_active", "=", true)
+        .executeTakeFirst();
       return u ? toAdapterUser(u) : null;
     },
     async getUserByEmail(email) {

@@ -30,7 +30,14 @@ export async function authorize(action: Action, projectId: string): Promise<Proj
   const user = await requireUser();
   const membership = user.memberships.find((m) => m.projectId === projectId);
   if (!membership) {
-    await recordAudit(db, { action, outcome: "denied", actorUserId: user.id, target: projectId, ip: await ip(), detail: { reason: "not a member" } });
+    await recordAudit(db, {
+      action,
+      outcome: "denied",
+      actorUserId: user.id,
+      target: projectId,
+      ip: await ip(),
+      detail: { reason: "not a member" },
+    });
     throw new AppError("NOT_FOUND", "No such project among yours.");
   }
   if (!can(membership.role, action)) {

@@ -47,7 +47,13 @@ export const authOptions: NextAuthOptions = {
         const ip = requestIp(req?.headers);
 
         if (await isSignInPaused(email, ip)) {
-          await recordAudit(db, { action: "sign-in.password", outcome: "denied", actorEmail: email, ip, detail: { reason: "paused" } });
+          await recordAudit(db, {
+            action: "sign-in.password",
+            outcome: "denied",
+            actorEmail: email,
+            ip,
+            detail: { reason: "paused" },
+          });
           return null;
         }
         const user = await db
@@ -58,11 +64,23 @@ export const authOptions: NextAuthOptions = {
         const ok = (await verifyPassword(password, user?.password_hash)) && user?.is_active === true;
         if (!ok || !user) {
           await countFailedSignIn(email, ip);
-          await recordAudit(db, { action: "sign-in.password", outcome: "failure", actorUserId: user?.id, actorEmail: email, ip });
+          await recordAudit(db, {
+            action: "sign-in.password",
+            outcome: "failure",
+            actorUserId: user?.id,
+            actorEmail: email,
+            ip,
+          });
           return null;
         }
         await clearFailedSignIns(email);
-        await recordAudit(db, { action: "sign-in.password", outcome: "success", actorUserId: user.id, actorEmail: email, ip });
+        await recordAudit(db, {
+          action: "sign-in.password",
+          outcome: "success",
+          actorUserId: user.id,
+          actorEmail: email,
+          ip,
+        });
         return { id: user.id, email: user.email, name: user.name };
       },
     }),
@@ -73,7 +91,12 @@ export const authOptions: NextAuthOptions = {
       // answer never tells whether an address has an account.
       async sendVerificationRequest({ identifier, url }) {
         const email = identifier.toLowerCase();
-        const user = await db.selectFrom("users").select("id").where("email", "=", email).where("is_active", "=", true).executeTakeFirst();
+        const user = await db
+          .selectFrom("users")
+          .select("id")
+          .where("email", "=", email)
+          .where("is_active", "=", true)
+          .executeTakeFirst();
         await recordAudit(db, {
           action: "sign-in.link-requested",
           outcome: user ? "success" : "failure",
@@ -89,7 +112,12 @@ export const authOptions: NextAuthOptions = {
     async signIn({ user, account, email }) {
       if (account?.provider !== "email" || email?.verificationRequest) return true;
       // The link was used: accept it only for an active account.
-      const found = await db.selectFrom("users").select("id").where("id", "=", user.id).where("is_active", "=", true).executeTakeFirst();
+      const found = await db
+        .selectFrom("users")
+        .select("id")
+        .where("id", "=", user.id)
+        .where("is_active", "=", true)
+        .executeTakeFirst();
       await recordAudit(db, {
         action: "sign-in.link",
         outcome: found ? "success" : "failure",

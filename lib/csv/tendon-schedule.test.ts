@@ -1,16 +1,26 @@
 import { describe, expect, it } from "vitest";
 import { parseTendonSchedule, templateCsv, toTendonCsv } from "./tendon-schedule";
 
-const HEADER = "tag,type,strand size [in],strands,ends,segments [ft@deg],jack grip [in],shop elongation [in],strand lot";
+const HEADER =
+  "tag,type,strand size [in],strands,ends,segments [ft@deg],jack grip [in],shop elongation [in],strand lot";
 const file = (...rows: string[]) => [HEADER, ...rows].join("\n");
 
 describe("tendon schedule CSV: good files", () => {
   it("reads a row into SI: ft → mm, deg → rad, fractional inches → mm", () => {
-    const result = parseTendonSchedule(file("2-1-U01,monostrand,0.5,1,A,15@1.62 15@1.62,18,8 3/8,AY-0871"), { lotNumbers: new Set(["AY-0871"]) });
+    const result = parseTendonSchedule(file("2-1-U01,monostrand,0.5,1,A,15@1.62 15@1.62,18,8 3/8,AY-0871"), {
+      lotNumbers: new Set(["AY-0871"]),
+    });
     expect(result.ok).toBe(true);
     if (!result.ok) return;
     const [t] = result.tendons;
-    expect(t).toMatchObject({ tag: "2-1-U01", kind: "unbonded_monostrand", strandSize: "0.5 in", strandCount: 1, ends: "A", strandLot: "AY-0871" });
+    expect(t).toMatchObject({
+      tag: "2-1-U01",
+      kind: "unbonded_monostrand",
+      strandSize: "0.5 in",
+      strandCount: 1,
+      ends: "A",
+      strandLot: "AY-0871",
+    });
     // 15 ft = 4572 mm and 18 in = 457.2 mm (1 in = 25.4 mm exactly, by definition); 8 3/8 in = 212.725 mm.
     expect(t!.segments[0]!.lengthMm).toBeCloseTo(4572, 9);
     expect(t!.segments[0]!.angleRad).toBeCloseTo((1.62 * Math.PI) / 180, 12);
@@ -19,15 +29,38 @@ describe("tendon schedule CSV: good files", () => {
   });
 
   it("takes columns in any order, SI units, and optional columns left out", () => {
-    const result = parseTendonSchedule(["ends,segments [m@rad],tag,strands,strand size [in],type", "both,12@0.1 12@0.1,B-7,12,0.6,multistrand"].join("\r\n"));
-    expect(result).toMatchObject({ ok: true, tendons: [{ tag: "B-7", strandCount: 12, ends: "both", jackGripMm: null, segments: [{ lengthMm: 12000, angleRad: 0.1 }, { lengthMm: 12000, angleRad: 0.1 }] }] });
+    const result = parseTendonSchedule(
+      ["ends,segments [m@rad],tag,strands,strand size [in],type", "both,12@0.1 12@0.1,B-7,12,0.6,multistrand"].join(
+        "\r\n",
+      ),
+    );
+    expect(result).toMatchObject({
+      ok: true,
+      tendons: [
+        {
+          tag: "B-7",
+          strandCount: 12,
+          ends: "both",
+          jackGripMm: null,
+          segments: [
+            { lengthMm: 12000, angleRad: 0.1 },
+            { lengthMm: 12000, angleRad: 0.1 },
+          ],
+        },
+      ],
+    });
   });
 
   it("exports the same layout, which imports again to the same values, and the template imports too", () => {
     const first = parseTendonSchedule(file("T1,monostrand,0.5,1,both,30@3.1 30@3.1 30@3.1,18,,"));
     expect(first.ok).toBe(true);
     if (!first.ok) return;
-    const again = parseTendonSchedule(toTendonCsv(first.tendons.map((t) => ({ ...t })), "US"));
+    const again = parseTendonSchedule(
+      toTendonCsv(
+        first.tendons.map((t) => ({ ...t })),
+        "US",
+      ),
+    );
     expect(again.ok && again.tendons[0]!.segments[2]!.lengthMm).toBeCloseTo(first.tendons[0]!.segments[2]!.lengthMm, 3);
     expect(parseTendonSchedule(templateCsv("US")).ok).toBe(true);
     expect(parseTendonSchedule(templateCsv("SI")).ok).toBe(true);
@@ -55,7 +88,9 @@ describe("tendon schedule CSV: bad files, every error by line and column", () =>
   });
 
   it("refuses a length column without its unit and an unknown column", () => {
-    const result = parseTendonSchedule("tag,type,strand size,strands,ends,segments [ft@deg],colour\nT1,monostrand,0.5,1,A,10@1,red");
+    const result = parseTendonSchedule(
+      "tag,type,strand size,strands,ends,segments [ft@deg],colour\nT1,monostrand,0.5,1,A,10@1,red",
+    );
     expect(result.ok || result.errors.map((e) => e.column)).toEqual(["strand size", "colour"]);
   });
 
@@ -72,26 +107,56 @@ describe("tendon schedule CSV: bad files, every error by line and column", () =>
     expect(result.ok).toBe(false);
     if (result.ok) return;
     const where = result.errors.map((e) => `${e.row}:${e.column}`);
-    expect(where).toEqual(["3:strand size", "3:strands", "3:ends", "3:jack grip", "3:strand lot", "4:tag", "4:segments", "5:tag"]);
-    expect(result.errors.find((e) => e.row === 4 && e.column === "tag")!.message).toBe('The tag "t1" is already on line 2.');
+    expect(where).toEqual([
+      "3:strand size",
+      "3:strands",
+      "3:ends",
+      "3:jack grip",
+      "3:strand lot",
+      "4:tag",
+      "4:segments",
+      "5:tag",
+    ]);
+    expect(result.errors.find((e) => e.row === 4 && e.column === "tag")!.message).toBe(
+      'The tag "t1" is already on line 2.',
+    );
     expect(result.errors.find((e) => e.row === 5)!.message).toContain("already in this pour");
   });
 
   it("checks the schema's rules too: a monostrand has one strand, an angle in rad above π is refused", () => {
-    const result = parseTendonSchedule(["tag,type,strand size [in],strands,ends,segments [m@rad]", "X,monostrand,0.5,3,A,10@0.1", "Y,multistrand,0.5,3,A,10@4"].join("\n"));
+    const result = parseTendonSchedule(
+      [
+        "tag,type,strand size [in],strands,ends,segments [m@rad]",
+        "X,monostrand,0.5,3,A,10@0.1",
+        "Y,multistrand,0.5,3,A,10@4",
+      ].join("\n"),
+    );
     expect(result.ok || result.errors.map((e) => `${e.row}:${e.column}`)).toEqual(["2:strands", "3:segments"]);
   });
 
   it("says so for an empty file, a header with no rows, and a file that is not CSV", () => {
-    expect(parseTendonSchedule("")).toMatchObject({ ok: false, errors: [{ row: 1, message: "The file has no header row." }] });
-    expect(parseTendonSchedule(HEADER)).toMatchObject({ ok: false, errors: [{ row: 0, message: "The file has a header but no tendons." }] });
+    expect(parseTendonSchedule("")).toMatchObject({
+      ok: false,
+      errors: [{ row: 1, message: "The file has no header row." }],
+    });
+    expect(parseTendonSchedule(HEADER)).toMatchObject({
+      ok: false,
+      errors: [{ row: 0, message: "The file has a header but no tendons." }],
+    });
     expect(parseTendonSchedule('tag,type\n"unclosed,quote').ok).toBe(false);
   });
 });
 
 describe("tendon schedule CSV: hostile files", () => {
   it("refuses cells that a spreadsheet would run as formulas", () => {
-    const result = parseTendonSchedule(file('=CMD("calc"),monostrand,0.5,1,A,15@1.6,,,', "T2,monostrand,0.5,1,A,15@1.6,,,@SUM(A1)", "T3,+monostrand,0.5,1,A,15@1.6,,,", "T4,monostrand,0.5,1,A,15@1.6,-2,,"));
+    const result = parseTendonSchedule(
+      file(
+        '=CMD("calc"),monostrand,0.5,1,A,15@1.6,,,',
+        "T2,monostrand,0.5,1,A,15@1.6,,,@SUM(A1)",
+        "T3,+monostrand,0.5,1,A,15@1.6,,,",
+        "T4,monostrand,0.5,1,A,15@1.6,-2,,",
+      ),
+    );
     expect(result.ok).toBe(false);
     if (result.ok) return;
     const formula = result.errors.filter((e) => e.message.includes("formula"));
@@ -99,7 +164,22 @@ describe("tendon schedule CSV: hostile files", () => {
   });
 
   it("neutralises formula-looking text on export", () => {
-    const csv = toTendonCsv([{ tag: "=HYPERLINK(1)", kind: "unbonded_monostrand", strandSize: "0.5 in", strandCount: 1, ends: "A", segments: [{ lengthMm: 1000, angleRad: 0 }], jackGripMm: null, shopElongationMm: null, strandLot: "@x" }], "SI");
+    const csv = toTendonCsv(
+      [
+        {
+          tag: "=HYPERLINK(1)",
+          kind: "unbonded_monostrand",
+          strandSize: "0.5 in",
+          strandCount: 1,
+          ends: "A",
+          segments: [{ lengthMm: 1000, angleRad: 0 }],
+          jackGripMm: null,
+          shopElongationMm: null,
+          strandLot: "@x",
+        },
+      ],
+      "SI",
+    );
     const line = csv.split("\r\n")[1]!;
     expect(line.startsWith("'=HYPERLINK(1)")).toBe(true);
     expect(line.endsWith(",'@x")).toBe(true);
@@ -107,7 +187,10 @@ describe("tendon schedule CSV: hostile files", () => {
 
   it("refuses more rows than allowed without reading them all, and caps the error list", () => {
     const many = file(...Array.from({ length: 20_001 }, (_, i) => `T${i},monostrand,0.5,1,A,15@1.6,,,`));
-    expect(parseTendonSchedule(many)).toMatchObject({ ok: false, errors: [{ row: 0, message: expect.stringContaining("at most 20000") }] });
+    expect(parseTendonSchedule(many)).toMatchObject({
+      ok: false,
+      errors: [{ row: 0, message: expect.stringContaining("at most 20000") }],
+    });
     const bad = file(...Array.from({ length: 5000 }, () => "T,x,x,x,x,x,x,x,x"));
     const result = parseTendonSchedule(bad);
     expect(result.ok || result.errors.length).toBe(200);
@@ -116,6 +199,10 @@ describe("tendon schedule CSV: hostile files", () => {
   it("reads a byte-order mark, control characters in a tag are refused", () => {
     expect(parseTendonSchedule("\uFEFF" + file("T1,monostrand,0.5,1,A,15@1.6,,,")).ok).toBe(true);
     const result = parseTendonSchedule(file("T\u00071,monostrand,0.5,1,A,15@1.6,,,"));
-    expect(result.ok || result.errors[0]).toMatchObject({ row: 2, column: "tag", message: expect.stringContaining("control") });
+    expect(result.ok || result.errors[0]).toMatchObject({
+      row: 2,
+      column: "tag",
+      message: expect.stringContaining("control"),
+    });
   });
 });

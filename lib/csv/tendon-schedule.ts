@@ -32,8 +32,18 @@ export const COLUMNS: readonly ColumnSpec[] = [
   { key: "strand size", required: true, units: ["in"], hint: "nominal diameter: 0.375, 0.438, 0.5 or 0.6" },
   { key: "strands", required: true, hint: "number of strands (1 for monostrand)" },
   { key: "ends", required: true, hint: "stressing end: A, B or both" },
-  { key: "segments", required: true, units: ["ft@deg", "ft@rad", "m@deg", "m@rad"], hint: "length@angle change per segment from end A, separated by spaces" },
-  { key: "jack grip", required: false, units: ["in", "mm"], hint: "strand inside the jack; empty to use the equipment set's" },
+  {
+    key: "segments",
+    required: true,
+    units: ["ft@deg", "ft@rad", "m@deg", "m@rad"],
+    hint: "length@angle change per segment from end A, separated by spaces",
+  },
+  {
+    key: "jack grip",
+    required: false,
+    units: ["in", "mm"],
+    hint: "strand inside the jack; empty to use the equipment set's",
+  },
   { key: "shop elongation", required: false, units: ["in", "mm"], hint: "the detailer's elongation, when given" },
   { key: "strand lot", required: false, hint: "lot or heat number registered on the project" },
 ];
@@ -79,18 +89,29 @@ const KIND_WORDS: Record<string, TendonInput["kind"]> = {
  * result holds tendons only when the whole file is good. `existingTags` are the tags already
  * in the pour and `lotNumbers` the project's strand lots.
  */
-export function parseTendonSchedule(text: string, context: { existingTags?: ReadonlySet<string>; lotNumbers?: ReadonlySet<string> } = {}): ScheduleParse {
+export function parseTendonSchedule(
+  text: string,
+  context: { existingTags?: ReadonlySet<string>; lotNumbers?: ReadonlySet<string> } = {},
+): ScheduleParse {
   const errors: ScheduleError[] = [];
   const add = (row: number, column: string, message: string) => {
     if (errors.length < MAX_ERRORS) errors.push({ row, column, message });
   };
   const source = text.replace(/^\uFEFF/, "");
   const parsed = Papa.parse<string[]>(source, { skipEmptyLines: "greedy" });
-  for (const e of parsed.errors.slice(0, 20)) add((e.row ?? -1) + 1, "", `The file is not well-formed CSV: ${e.message}.`);
+  for (const e of parsed.errors.slice(0, 20))
+    add((e.row ?? -1) + 1, "", `The file is not well-formed CSV: ${e.message}.`);
   const [header, ...rows] = parsed.data;
-  if (!header || header.every((h) => !h.trim())) return { ok: false, errors: [{ row: 1, column: "", message: "The file has no header row." }] };
+  if (!header || header.every((h) => !h.trim()))
+    return { ok: false, errors: [{ row: 1, column: "", message: "The file has no header row." }] };
   if (rows.length === 0) add(0, "", "The file has a header but no tendons.");
-  if (rows.length > MAX_ROWS) return { ok: false, errors: [{ row: 0, column: "", message: `The file has ${rows.length} rows; import at most ${MAX_ROWS} at a time.` }] };
+  if (rows.length > MAX_ROWS)
+    return {
+      ok: false,
+      errors: [
+        { row: 0, column: "", message: `The file has ${rows.length} rows; import at most ${MAX_ROWS} at a time.` },
+      ],
+    };
 
   // Header: known names, allowed units, no repeats, every required column.
   const index = new Map<string, { at: number; unit: string | null }>();
@@ -105,7 +126,13 @@ export function parseTendonSchedule(text: string, context: { existingTags?: Read
     if (!spec.units && unit) return add(1, raw, `The column "${key}" takes no unit.`);
     index.set(key, { at, unit });
   });
-  for (const spec of COLUMNS) if (spec.required && !index.has(spec.key) && !errors.some((e) => e.row === 1 && readHeader(e.column).key === spec.key)) add(1, spec.key, `The column "${spec.key}" is missing.`);
+  for (const spec of COLUMNS)
+    if (
+      spec.required &&
+      !index.has(spec.key) &&
+      !errors.some((e) => e.row === 1 && readHeader(e.column).key === spec.key)
+    )
+      add(1, spec.key, `The column "${spec.key}" is missing.`);
   if (errors.some((e) => e.row <= 1)) return { ok: false, errors };
 
   const cell = (row: string[], key: string): string => {
@@ -125,7 +152,11 @@ export function parseTendonSchedule(text: string, context: { existingTags?: Read
     }
     const n = parseNumber(text);
     if (n === null) {
-      add(line, key, `"${text}" is not a length in ${unit}${unit === "in" ? " (decimal or a fraction like 8 3/8)" : ""}.`);
+      add(
+        line,
+        key,
+        `"${text}" is not a length in ${unit}${unit === "in" ? " (decimal or a fraction like 8 3/8)" : ""}.`,
+      );
       return undefined;
     }
     return unit === "in" ? n * 25.4 : n;
@@ -135,7 +166,8 @@ export function parseTendonSchedule(text: string, context: { existingTags?: Read
   const tendons: ParsedTendon[] = [];
   rows.forEach((row, i) => {
     const line = i + 2;
-    if (row.length > header.length && row.slice(header.length).some((c) => c.trim())) add(line, "", `Line ${line} has more cells than the header.`);
+    if (row.length > header.length && row.slice(header.length).some((c) => c.trim()))
+      add(line, "", `Line ${line} has more cells than the header.`);
     for (const [key] of index) {
       const raw = cell(row, key);
       if (FORMULA_START.test(raw) && !(key === "segments" && /^-?[0-9.]/.test(raw))) {
@@ -157,13 +189,22 @@ export function parseTendonSchedule(text: string, context: { existingTags?: Read
 
     const sizeText = cell(row, "strand size").replace(/\s*(in|")$/i, "");
     const designation = STRAND_SIZES.find((d) => Number(d.replace(" in", "")) === Number(sizeText) && sizeText !== "");
-    if (!designation || !findStrandSize(designation)) add(line, "strand size", `"${cell(row, "strand size")}" is not a strand size; use 0.375, 0.438, 0.5 or 0.6.`);
+    if (!designation || !findStrandSize(designation))
+      add(line, "strand size", `"${cell(row, "strand size")}" is not a strand size; use 0.375, 0.438, 0.5 or 0.6.`);
 
     const strands = parseNumber(cell(row, "strands"));
-    if (strands === null || !Number.isInteger(strands)) add(line, "strands", `"${cell(row, "strands")}" is not a whole number of strands.`);
+    if (strands === null || !Number.isInteger(strands))
+      add(line, "strands", `"${cell(row, "strands")}" is not a whole number of strands.`);
 
     const endsText = cell(row, "ends");
-    const ends = endsText.toLowerCase() === "both" ? "both" : endsText.toUpperCase() === "A" ? "A" : endsText.toUpperCase() === "B" ? "B" : null;
+    const ends =
+      endsText.toLowerCase() === "both"
+        ? "both"
+        : endsText.toUpperCase() === "A"
+          ? "A"
+          : endsText.toUpperCase() === "B"
+            ? "B"
+            : null;
     if (!ends) add(line, "ends", `"${endsText}" is not a stressing end; use A, B or both.`);
 
     const segments: { lengthMm: number; angleRad: number }[] = [];
@@ -183,7 +224,8 @@ export function parseTendonSchedule(text: string, context: { existingTags?: Read
     const jackGripMm = optionalLength(row, "jack grip", line);
     const shopElongationMm = optionalLength(row, "shop elongation", line);
     const lot = cell(row, "strand lot") || null;
-    if (lot && context.lotNumbers && !context.lotNumbers.has(lot)) add(line, "strand lot", `The strand lot "${lot}" is not registered on this project.`);
+    if (lot && context.lotNumbers && !context.lotNumbers.has(lot))
+      add(line, "strand lot", `The strand lot "${lot}" is not registered on this project.`);
 
     if (errors.some((e) => e.row === line)) return;
     const checked = tendonSchema.safeParse({
@@ -200,7 +242,17 @@ export function parseTendonSchedule(text: string, context: { existingTags?: Read
     if (!checked.success) {
       for (const issue of checked.error.issues) {
         const field = String(issue.path[0] ?? "");
-        const column = { tag: "tag", kind: "type", strandSize: "strand size", strandCount: "strands", segments: "segments", ends: "ends", jackGripMm: "jack grip", shopElongationMm: "shop elongation" }[field] ?? field;
+        const column =
+          {
+            tag: "tag",
+            kind: "type",
+            strandSize: "strand size",
+            strandCount: "strands",
+            segments: "segments",
+            ends: "ends",
+            jackGripMm: "jack grip",
+            shopElongationMm: "shop elongation",
+          }[field] ?? field;
         add(line, column, issue.message);
       }
       return;
@@ -222,7 +274,17 @@ const round = (n: number, places: number) => String(Number(n.toFixed(places)));
 export function scheduleHeader(system: UnitSystem): string[] {
   const long = system === "US" ? "ft" : "m";
   const short = system === "US" ? "in" : "mm";
-  return ["tag", "type", "strand size [in]", "strands", "ends", `segments [${long}@deg]`, `jack grip [${short}]`, `shop elongation [${short}]`, "strand lot"];
+  return [
+    "tag",
+    "type",
+    "strand size [in]",
+    "strands",
+    "ends",
+    `segments [${long}@deg]`,
+    `jack grip [${short}]`,
+    `shop elongation [${short}]`,
+    "strand lot",
+  ];
 }
 
 export interface ExportTendon {
@@ -246,7 +308,12 @@ export function toTendonCsv(tendons: readonly ExportTendon[], system: UnitSystem
     t.strandSize.replace(" in", ""),
     String(t.strandCount),
     t.ends,
-    t.segments.map((s) => `${round(system === "US" ? s.lengthMm / 304.8 : s.lengthMm / 1000, 4)}@${round((s.angleRad * 180) / Math.PI, 4)}`).join(" "),
+    t.segments
+      .map(
+        (s) =>
+          `${round(system === "US" ? s.lengthMm / 304.8 : s.lengthMm / 1000, 4)}@${round((s.angleRad * 180) / Math.PI, 4)}`,
+      )
+      .join(" "),
     short(t.jackGripMm),
     short(t.shopElongationMm),
     neutralise(t.strandLot ?? ""),
@@ -289,4 +356,3 @@ export function columnGuide(system: UnitSystem): { header: string; required: boo
   const header = scheduleHeader(system);
   return COLUMNS.map((c, i) => ({ header: header[i]!, required: c.required, hint: c.hint }));
 }
-

@@ -96,9 +96,18 @@ interface RouteOptions<B extends z.ZodType | undefined, P extends z.ZodType | un
  * Order matters: origin check, params, then access (so an anonymous caller always gets 401 and
  * a stranger 404 before any body is looked at), then the body.
  */
-export function route<B extends z.ZodType | undefined = undefined, P extends z.ZodType | undefined = undefined, A = undefined>(
+export function route<
+  B extends z.ZodType | undefined = undefined,
+  P extends z.ZodType | undefined = undefined,
+  A = undefined,
+>(
   options: RouteOptions<B, P, A>,
-  handler: (input: { request: NextRequest; body: Infer<B>; params: Infer<P>; access: A }) => Promise<Response | unknown>,
+  handler: (input: {
+    request: NextRequest;
+    body: Infer<B>;
+    params: Infer<P>;
+    access: A;
+  }) => Promise<Response | unknown>,
 ) {
   return async (request: NextRequest, ctx: Ctx): Promise<Response> => {
     try {

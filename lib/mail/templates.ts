@@ -21,11 +21,25 @@ ${body}
 }
 
 function text(title: string, paragraphs: string[], action: { label: string; url: string }, footer: string): string {
-  return [title, "", ...paragraphs.flatMap((p) => [p, ""]), `${action.label}: ${action.url}`, "", footer, ""].join("\n");
+  return [title, "", ...paragraphs.flatMap((p) => [p, ""]), `${action.label}: ${action.url}`, "", footer, ""].join(
+    "\n",
+  );
 }
 
-function mail(to: string, subject: string, title: string, paragraphs: string[], action: { label: string; url: string }, footer: string): OutgoingMail {
-  return { to, subject, html: layout(title, paragraphs, action, footer), text: text(title, paragraphs, action, footer) };
+function mail(
+  to: string,
+  subject: string,
+  title: string,
+  paragraphs: string[],
+  action: { label: string; url: string },
+  footer: string,
+): OutgoingMail {
+  return {
+    to,
+    subject,
+    html: layout(title, paragraphs, action, footer),
+    text: text(title, paragraphs, action, footer),
+  };
 }
 
 export function signInLinkMail(input: { to: string; url: string; minutes: number }): OutgoingMail {
@@ -65,7 +79,9 @@ export function passwordResetMail(input: { to: string; url: string; minutes: num
     input.to,
     "Reset your Tautline password",
     "Choose a new password",
-    [`Someone asked to reset the password of this account. The link works once and expires in ${input.minutes} minutes.`],
+    [
+      `Someone asked to reset the password of this account. The link works once and expires in ${input.minutes} minutes.`,
+    ],
     { label: "Choose a new password", url: input.url },
     "If it was not you, ignore this message: your password stays as it is.",
   );

@@ -8,8 +8,14 @@ export const calibrationSchema = z
     points: z
       .array(
         z.object({
-          pressureMPa: z.number({ error: "Give the pressure." }).min(0, "Pressure cannot be negative.").max(250, "Above 250 MPa (36,000 psi) looks wrong."),
-          forceN: z.number({ error: "Give the force." }).min(0, "Force cannot be negative.").max(20_000_000, "That force looks wrong."),
+          pressureMPa: z
+            .number({ error: "Give the pressure." })
+            .min(0, "Pressure cannot be negative.")
+            .max(250, "Above 250 MPa (36,000 psi) looks wrong."),
+          forceN: z
+            .number({ error: "Give the force." })
+            .min(0, "Force cannot be negative.")
+            .max(20_000_000, "That force looks wrong."),
         }),
       )
       .min(2, "Give at least two points; five or more show a bad one.")
@@ -22,7 +28,8 @@ export const calibrationSchema = z
       ctx.addIssue({ code: "custom", path: ["validUntil"], message: "The expiry is before the calibration date." });
     }
     const pressures = new Set(c.points.map((p) => p.pressureMPa));
-    if (pressures.size < 2) ctx.addIssue({ code: "custom", path: ["points"], message: "The points must be at different pressures." });
+    if (pressures.size < 2)
+      ctx.addIssue({ code: "custom", path: ["points"], message: "The points must be at different pressures." });
   });
 export type CalibrationInput = z.infer<typeof calibrationSchema>;
 

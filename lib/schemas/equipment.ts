@@ -6,8 +6,16 @@ export const equipmentSetSchema = z.object({
   jackSerial: plainText("jack serial", 60),
   gaugeSerial: plainText("gauge serial", 60),
   pumpSerial: plainText("pump serial", 60).nullable(),
-  jackGripMm: z.number({ error: "Give the grip length." }).min(0, "The grip length cannot be negative.").max(2000, "A grip over 2 m looks wrong.").nullable(),
-  maxForceN: z.number({ error: "Give the jack's rated force." }).positive("The rated force must be above 0.").max(20_000_000, "That force looks wrong.").nullable(),
+  jackGripMm: z
+    .number({ error: "Give the grip length." })
+    .min(0, "The grip length cannot be negative.")
+    .max(2000, "A grip over 2 m looks wrong.")
+    .nullable(),
+  maxForceN: z
+    .number({ error: "Give the jack's rated force." })
+    .positive("The rated force must be above 0.")
+    .max(20_000_000, "That force looks wrong.")
+    .nullable(),
 });
 export type EquipmentSetInput = z.infer<typeof equipmentSetSchema>;
 

@@ -5,7 +5,11 @@ export const POUR_STATUSES = ["planned", "stressing", "released"] as const;
 export const pourSchema = z.object({
   name: z.string().trim().min(1, "Give the pour a name, as on the drawings.").max(80, "Use at most 80 characters."),
   level: z.string().trim().max(80, "Use at most 80 characters.").nullable(),
-  areaM2: z.number({ error: "Give the area as a number." }).positive("The area must be above 0.").max(100_000, "That area looks too large.").nullable(),
+  areaM2: z
+    .number({ error: "Give the area as a number." })
+    .positive("The area must be above 0.")
+    .max(100_000, "That area looks too large.")
+    .nullable(),
   plannedStressingDate: z.iso.date({ error: "Give the date as YYYY-MM-DD." }).nullable(),
   status: z.enum(POUR_STATUSES, { error: "Pick planned, stressing or released." }),
 });

@@ -14,17 +14,44 @@ export const projectSettingsSchema = z.object({
   name: z.string().trim().min(2, "Give the project a name.").max(160, "Use at most 160 characters."),
   address: z.string().trim().max(300, "Use at most 300 characters.").nullable(),
   unitSystem: z.enum(["us", "si"], { error: "Pick US customary or SI units." }),
-  readingResolution: z.enum(["1/8in", "1/16in", "1mm"], { error: "Pick the reading division: 1/8 in, 1/16 in or 1 mm." }),
-  tolerancePct: z.number({ error: "Give the band in %." }).positive("The band must be above 0 %.").max(25, "A band above 25 % is not a check."),
-  groupTolerancePct: optionalPositive("Give the group band in %, or leave it empty.", 25, "A band above 25 % is not a check."),
-  shortTendonFloorMm: optionalPositive("Give the floor as a length, or leave it empty.", 50, "A floor above 50 mm (2 in) would hide real problems."),
+  readingResolution: z.enum(["1/8in", "1/16in", "1mm"], {
+    error: "Pick the reading division: 1/8 in, 1/16 in or 1 mm.",
+  }),
+  tolerancePct: z
+    .number({ error: "Give the band in %." })
+    .positive("The band must be above 0 %.")
+    .max(25, "A band above 25 % is not a check."),
+  groupTolerancePct: optionalPositive(
+    "Give the group band in %, or leave it empty.",
+    25,
+    "A band above 25 % is not a check.",
+  ),
+  shortTendonFloorMm: optionalPositive(
+    "Give the floor as a length, or leave it empty.",
+    50,
+    "A floor above 50 mm (2 in) would hide real problems.",
+  ),
   comparisonBasis: z.enum(["gross", "net"], { error: "Pick gross at jacking or net of anchor set." }),
   countJackGrip: z.boolean({ error: "Say whether strand inside the jack is counted." }),
   frictionMu: z.number({ error: "Give μ as a number." }).min(0, "μ cannot be negative.").lt(1, "μ must be below 1."),
-  wobblePerM: z.number({ error: "Give K as a number." }).min(0, "K cannot be negative.").lt(0.1, "K looks too high; check per ft against per m."),
-  anchorSetMm: z.number({ error: "Give the anchor set as a length." }).min(0, "Anchor set cannot be negative.").lt(50, "Anchor set must be below 50 mm (2 in)."),
-  calibrationValidityDays: z.number({ error: "Give a number of days." }).int("Use whole days.").min(1, "At least 1 day.").max(1096, "At most 3 years (1096 days)."),
-  requiredConcreteMPa: optionalPositive("Give the strength, or leave it empty.", 120, "Above 120 MPa (17,400 psi) looks wrong."),
+  wobblePerM: z
+    .number({ error: "Give K as a number." })
+    .min(0, "K cannot be negative.")
+    .lt(0.1, "K looks too high; check per ft against per m."),
+  anchorSetMm: z
+    .number({ error: "Give the anchor set as a length." })
+    .min(0, "Anchor set cannot be negative.")
+    .lt(50, "Anchor set must be below 50 mm (2 in)."),
+  calibrationValidityDays: z
+    .number({ error: "Give a number of days." })
+    .int("Use whole days.")
+    .min(1, "At least 1 day.")
+    .max(1096, "At most 3 years (1096 days)."),
+  requiredConcreteMPa: optionalPositive(
+    "Give the strength, or leave it empty.",
+    120,
+    "Above 120 MPa (17,400 psi) looks wrong.",
+  ),
   engineerOfRecordName: z.string().trim().max(160, "Use at most 160 characters.").nullable(),
   engineerOfRecordEmail: emailSchema.nullable(),
   notifyEmails: z.array(emailSchema).max(20, "At most 20 addresses."),
@@ -42,7 +69,8 @@ export function displayUnits(project: { unitSystem: DbSystem; readingResolution:
   pressure: "psi" | "MPa";
   force: "kip" | "kN";
 } {
-  const resolution: ReadingResolution = project.readingResolution === "1mm" ? "1 mm" : project.readingResolution === "1/16in" ? "1/16 in" : "1/8 in";
+  const resolution: ReadingResolution =
+    project.readingResolution === "1mm" ? "1 mm" : project.readingResolution === "1/16in" ? "1/16 in" : "1/8 in";
   return project.unitSystem === "us"
     ? { system: "US", resolution, length: "in", longLength: "ft", pressure: "psi", force: "kip" }
     : { system: "SI", resolution, length: "mm", longLength: "m", pressure: "MPa", force: "kN" };

@@ -18,9 +18,16 @@ export const reviewSchema = z.discriminatedUnion("kind", [
   z.object({
     kind: z.literal("remeasured"),
     body: reasonText("how and where it was re-measured"),
-    remeasuredMm: z.number({ error: "Enter the re-measured elongation." }).positive("The re-measured elongation must be above zero.").max(5000, "That is longer than any tendon stretches."),
+    remeasuredMm: z
+      .number({ error: "Enter the re-measured elongation." })
+      .positive("The re-measured elongation must be above zero.")
+      .max(5000, "That is longer than any tendon stretches."),
   }),
-  z.object({ kind: z.literal("photo"), body: reasonText("what the photo shows"), attachmentId: z.uuid({ error: "Upload the photo first." }) }),
+  z.object({
+    kind: z.literal("photo"),
+    body: reasonText("what the photo shows"),
+    attachmentId: z.uuid({ error: "Upload the photo first." }),
+  }),
   z.object({ kind: z.literal("sent_to_engineer"), body: reasonText("note for the engineer") }),
   z.object({ kind: z.literal("closed_paperwork"), body: reasonText("reason for closing") }),
 ]);
@@ -71,19 +78,41 @@ export const correctionSchema = z
     initialPressureMPa: z.number().min(0).max(200).nullable().optional(),
     tendonEnd: z.enum(["A", "B"]).optional(),
   })
-  .refine((v) => v.measuredMm !== undefined || v.finalPressureMPa !== undefined || v.initialPressureMPa !== undefined || v.tendonEnd !== undefined, {
-    message: "Change at least one value.",
-    path: ["measuredMm"],
-  });
+  .refine(
+    (v) =>
+      v.measuredMm !== undefined ||
+      v.finalPressureMPa !== undefined ||
+      v.initialPressureMPa !== undefined ||
+      v.tendonEnd !== undefined,
+    {
+      message: "Change at least one value.",
+      path: ["measuredMm"],
+    },
+  );
 export type CorrectionInput = z.infer<typeof correctionSchema>;
 
 export const flagFilterSchema = z.object({
   projectId: z.uuid().optional(),
   pourId: z.uuid().optional(),
   kind: z
-    .enum(["out_of_band", "jacking_over_limit", "anchor_over_limit", "calibration_expired", "calibration_range", "wire_break", "concrete_unconfirmed", "reading_missing", "stressed_twice"])
+    .enum([
+      "out_of_band",
+      "jacking_over_limit",
+      "anchor_over_limit",
+      "calibration_expired",
+      "calibration_range",
+      "wire_break",
+      "concrete_unconfirmed",
+      "reading_missing",
+      "stressed_twice",
+    ])
     .optional(),
-  olderThanHours: z.coerce.number().int().min(0).max(24 * 365).optional(),
+  olderThanHours: z.coerce
+    .number()
+    .int()
+    .min(0)
+    .max(24 * 365)
+    .optional(),
   status: z.enum(["open", "with_engineer", "any_open"]).default("any_open"),
 });
 export type FlagFilter = z.infer<typeof flagFilterSchema>;

@@ -18,14 +18,23 @@ export const plainText = (what: string, max: number) =>
     .trim()
     .min(1, `Give the ${what}.`)
     .max(max, `Use at most ${max} characters.`)
-    .refine((v) => !FORMULA_START.test(v), `The ${what} may not start with =, +, -, @ (a spreadsheet would run it as a formula).`)
+    .refine(
+      (v) => !FORMULA_START.test(v),
+      `The ${what} may not start with =, +, -, @ (a spreadsheet would run it as a formula).`,
+    )
     .refine((v) => !/[\u0000-\u001f\u007f]/.test(v), `The ${what} may not hold control characters.`);
 
 export const tagSchema = plainText("tag as drawn", 40);
 
 export const segmentSchema = z.object({
-  lengthMm: z.number({ error: "Give the segment length." }).positive("A segment must be longer than 0.").max(300_000, "A segment over 300 m (980 ft) looks wrong."),
-  angleRad: z.number({ error: "Give the angle change." }).min(0, "The angle change is an absolute value (0 or more).").max(Math.PI, "An angle change above 180° looks like degrees typed as radians."),
+  lengthMm: z
+    .number({ error: "Give the segment length." })
+    .positive("A segment must be longer than 0.")
+    .max(300_000, "A segment over 300 m (980 ft) looks wrong."),
+  angleRad: z
+    .number({ error: "Give the angle change." })
+    .min(0, "The angle change is an absolute value (0 or more).")
+    .max(Math.PI, "An angle change above 180° looks like degrees typed as radians."),
 });
 
 export const tendonSchema = z
@@ -33,11 +42,23 @@ export const tendonSchema = z
     tag: tagSchema,
     kind: z.enum(TENDON_KINDS, { error: "Pick unbonded monostrand or bonded multistrand." }),
     strandSize: z.enum(STRAND_SIZES, { error: `Pick a strand size: ${STRAND_SIZES.join(", ")}.` }),
-    strandCount: z.number({ error: "Give the number of strands." }).int("Use a whole number of strands.").min(1, "At least 1 strand.").max(61, "At most 61 strands."),
+    strandCount: z
+      .number({ error: "Give the number of strands." })
+      .int("Use a whole number of strands.")
+      .min(1, "At least 1 strand.")
+      .max(61, "At most 61 strands."),
     segments: z.array(segmentSchema).min(1, "Give at least one segment.").max(200, "At most 200 segments."),
     ends: z.enum(["A", "B", "both"], { error: "Pick the stressing end: A, B or both." }),
-    jackGripMm: z.number({ error: "Give the grip length." }).min(0, "The grip length cannot be negative.").max(2000, "A grip over 2 m looks wrong.").nullable(),
-    shopElongationMm: z.number({ error: "Give the shop-drawing elongation." }).positive("The elongation must be above 0.").max(5000, "Over 5 m looks wrong.").nullable(),
+    jackGripMm: z
+      .number({ error: "Give the grip length." })
+      .min(0, "The grip length cannot be negative.")
+      .max(2000, "A grip over 2 m looks wrong.")
+      .nullable(),
+    shopElongationMm: z
+      .number({ error: "Give the shop-drawing elongation." })
+      .positive("The elongation must be above 0.")
+      .max(5000, "Over 5 m looks wrong.")
+      .nullable(),
     strandLotId: z.uuid({ error: "Pick a strand lot of this project." }).nullable(),
   })
   .superRefine((t, ctx) => {
@@ -58,5 +79,8 @@ export function drapeAngleRad(drapeMm: number, halfSpanMm: number): number {
 }
 
 export const importScheduleSchema = z.object({
-  csv: z.string({ error: "Send the CSV file's text." }).min(1, "The file is empty.").max(8_000_000, "The file is over 8 MB; split it by pour."),
+  csv: z
+    .string({ error: "Send the CSV file's text." })
+    .min(1, "The file is empty.")
+    .max(8_000_000, "The file is over 8 MB; split it by pour."),
 });

@@ -30,8 +30,15 @@ export const presignUploadSchema = z
   .object({
     purpose: z.enum(UPLOAD_PURPOSES, { error: "Say what the file is for." }),
     contentType: z.string().trim().min(3, "Say what type of file this is.").max(100),
-    sizeBytes: z.number({ error: "Give the file size in bytes." }).int("Give the size in whole bytes.").positive("The file is empty."),
-    originalName: z.string().trim().min(1, "Give the file a name.").max(200, "Use a file name of at most 200 characters."),
+    sizeBytes: z
+      .number({ error: "Give the file size in bytes." })
+      .int("Give the size in whole bytes.")
+      .positive("The file is empty."),
+    originalName: z
+      .string()
+      .trim()
+      .min(1, "Give the file a name.")
+      .max(200, "Use a file name of at most 200 characters."),
     recordId: z.uuid({ error: "Not a record id." }).optional(),
   })
   .superRefine((value, ctx) => {

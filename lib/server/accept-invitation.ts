@@ -13,7 +13,8 @@ export interface InvitationPreview {
   hasAccount: boolean;
 }
 
-const GONE = "This invitation link has expired, was already used or was withdrawn. Ask the project admin to send a new one.";
+const GONE =
+  "This invitation link has expired, was already used or was withdrawn. Ask the project admin to send a new one.";
 
 /** What an invitation link offers, for the page that accepts it. */
 export async function previewInvitation(db: Db, token: string): Promise<InvitationPreview> {
@@ -52,16 +53,26 @@ export async function acceptInvitation(
       .executeTakeFirst();
     if (!invitation) throw new AppError("GONE", GONE);
 
-    let user = await trx.selectFrom("users").select(["id", "is_active"]).where("email", "=", invitation.email).executeTakeFirst();
+    let user = await trx
+      .selectFrom("users")
+      .select(["id", "is_active"])
+      .where("email", "=", invitation.email)
+      .executeTakeFirst();
     const newAccount = !user;
     if (!user) {
       const fields: Record<string, string[]> = {};
       if (!input.name) fields.name = ["Enter your name as it should appear on records."];
       if (!passwordHash) fields.password = ["Choose a password of at least 10 characters."];
-      if (Object.keys(fields).length) throw new AppError("INVALID_INPUT", "Enter your name and a password to finish.", fields);
+      if (Object.keys(fields).length)
+        throw new AppError("INVALID_INPUT", "Enter your name and a password to finish.", fields);
       user = await trx
         .insertInto("users")
-        .values({ email: invitation.email, name: input.name ?? invitation.email, password_hash: passwordHash, email_verified: new Date() })
+        .values({
+          email: invitation.email,
+          name: input.name ?? invitation.email,
+          password_hash: passwordHash,
+          email_verified: new Date(),
+        })
         .returning(["id", "is_active"])
         .executeTakeFirstOrThrow();
     } else if (!user.is_active) {

@@ -16,19 +16,36 @@ export async function addCalibration(
 ): Promise<{ calibrationId: string; validUntil: string; r2: number; warnings: string[] }> {
   const v = input.values;
   const [set, project] = await Promise.all([
-    db.selectFrom("equipment_sets").select("id").where("project_id", "=", input.projectId).where("id", "=", input.setId).executeTakeFirst(),
-    db.selectFrom("projects").select("calibration_validity_days").where("id", "=", input.projectId).executeTakeFirstOrThrow(),
+    db
+      .selectFrom("equipment_sets")
+      .select("id")
+      .where("project_id", "=", input.projectId)
+      .where("id", "=", input.setId)
+      .executeTakeFirst(),
+    db
+      .selectFrom("projects")
+      .select("calibration_validity_days")
+      .where("id", "=", input.projectId)
+      .executeTakeFirstOrThrow(),
   ]);
   if (!set) throw new AppError("NOT_FOUND", "No such equipment set on this project.");
   let fit;
   try {
     fit = fitCalibration(v.points);
   } catch (error) {
-    if (isInputError(error)) throw new AppError("INVALID_INPUT", `The calibration points do not make a line: ${error.message}.`, { points: [error.message] });
+    if (isInputError(error))
+      throw new AppError("INVALID_INPUT", `The calibration points do not make a line: ${error.message}.`, {
+        points: [error.message],
+      });
     throw error;
   }
   if (v.certificateAttachmentId) {
-    await requireStoredAttachment(db, { projectId: input.projectId, attachmentId: v.certificateAttachmentId, purpose: "calibration_certificate", field: "certificateAttachmentId" });
+    await requireStoredAttachment(db, {
+      projectId: input.projectId,
+      attachmentId: v.certificateAttachmentId,
+      purpose: "calibration_certificate",
+      field: "certificateAttachmentId",
+    });
   }
   const byRule = addDays(v.calibratedOn, project.calibration_validity_days);
   const validUntil = v.validUntil && v.validUntil < byRule ? v.validUntil : byRule;

@@ -18,7 +18,10 @@ async function assertAnotherAdminRemains(db: Kysely<Database>, projectId: string
   }
 }
 
-export async function changeMemberRole(db: Db, input: { projectId: string; userId: string; role: Role; by: string }): Promise<void> {
+export async function changeMemberRole(
+  db: Db,
+  input: { projectId: string; userId: string; role: Role; by: string },
+): Promise<void> {
   await db.transaction().execute(async (trx) => {
     const current = await trx
       .selectFrom("project_members")

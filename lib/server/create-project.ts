@@ -10,11 +10,20 @@ import { recordAudit } from "./record-audit";
  */
 export async function createProject(
   db: Db,
-  input: { code: string; name: string; unitSystem: "us" | "si"; firstAdminEmail: string; by: { id: string; name: string } },
+  input: {
+    code: string;
+    name: string;
+    unitSystem: "us" | "si";
+    firstAdminEmail: string;
+    by: { id: string; name: string };
+  },
 ): Promise<{ projectId: string; invited: boolean }> {
   const result = await db.transaction().execute(async (trx) => {
     const exists = await trx.selectFrom("projects").select("id").where("code", "=", input.code).executeTakeFirst();
-    if (exists) throw new AppError("CONFLICT", `The project code ${input.code} is taken.`, { code: ["Already used by another project."] });
+    if (exists)
+      throw new AppError("CONFLICT", `The project code ${input.code} is taken.`, {
+        code: ["Already used by another project."],
+      });
     const project = await trx
       .insertInto("projects")
       .values({
@@ -25,9 +34,17 @@ export async function createProject(
       })
       .returning("id")
       .executeTakeFirstOrThrow();
-    const admin = await trx.selectFrom("users").select("id").where("email", "=", input.firstAdminEmail).where("is_active", "=", true).executeTakeFirst();
+    const admin = await trx
+      .selectFrom("users")
+      .select("id")
+      .where("email", "=", input.firstAdminEmail)
+      .where("is_active", "=", true)
+      .executeTakeFirst();
     if (admin) {
-      await trx.insertInto("project_members").values({ project_id: project.id, user_id: admin.id, role: "admin" }).execute();
+      await trx
+        .insertInto("project_members")
+        .values({ project_id: project.id, user_id: admin.id, role: "admin" })
+        .execute();
     }
     await recordAudit(trx, {
       action: "project.create",
@@ -39,7 +56,12 @@ export async function createProject(
     return { projectId: project.id, adminExists: Boolean(admin) };
   });
   if (!result.adminExists) {
-    await inviteMember(db, { projectId: result.projectId, email: input.firstAdminEmail, role: "admin", invitedBy: input.by });
+    await inviteMember(db, {
+      projectId: result.projectId,
+      email: input.firstAdminEmail,
+      role: "admin",
+      invitedBy: input.by,
+    });
   }
   return { projectId: result.projectId, invited: !result.adminExists };
 }

@@ -4,10 +4,18 @@ import { AppError } from "@/lib/errors";
 import type { TendonInput } from "@/lib/schemas/tendon";
 
 /** Adds one tendon to a pour; the tag must be new in the pour and the lot the project's. */
-export async function createTendon(db: Db, input: { projectId: string; pourId: string; values: TendonInput }): Promise<{ tendonId: string }> {
+export async function createTendon(
+  db: Db,
+  input: { projectId: string; pourId: string; values: TendonInput },
+): Promise<{ tendonId: string }> {
   const v = input.values;
   return db.transaction().execute(async (trx) => {
-    const pour = await trx.selectFrom("pours").select("id").where("project_id", "=", input.projectId).where("id", "=", input.pourId).executeTakeFirst();
+    const pour = await trx
+      .selectFrom("pours")
+      .select("id")
+      .where("project_id", "=", input.projectId)
+      .where("id", "=", input.pourId)
+      .executeTakeFirst();
     if (!pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
     const clash = await trx
       .selectFrom("tendons")
@@ -16,11 +24,23 @@ export async function createTendon(db: Db, input: { projectId: string; pourId: s
       .where("pour_id", "=", input.pourId)
       .where((eb) => eb(eb.fn("lower", ["tag"]), "=", v.tag.toLowerCase()))
       .executeTakeFirst();
-    if (clash) throw new AppError("CONFLICT", `The tag ${v.tag} is already in this pour.`, { tag: ["Already in this pour."] });
+    if (clash)
+      throw new AppError("CONFLICT", `The tag ${v.tag} is already in this pour.`, { tag: ["Already in this pour."] });
     if (v.strandLotId) {
-      const lot = await trx.selectFrom("strand_lots").select("strand_size").where("project_id", "=", input.projectId).where("id", "=", v.strandLotId).executeTakeFirst();
-      if (!lot) throw new AppError("INVALID_INPUT", "Pick a strand lot of this project.", { strandLotId: ["Not a lot of this project."] });
-      if (lot.strand_size !== v.strandSize) throw new AppError("INVALID_INPUT", "The lot is another strand size.", { strandLotId: [`This lot is ${lot.strand_size} strand.`] });
+      const lot = await trx
+        .selectFrom("strand_lots")
+        .select("strand_size")
+        .where("project_id", "=", input.projectId)
+        .where("id", "=", v.strandLotId)
+        .executeTakeFirst();
+      if (!lot)
+        throw new AppError("INVALID_INPUT", "Pick a strand lot of this project.", {
+          strandLotId: ["Not a lot of this project."],
+        });
+      if (lot.strand_size !== v.strandSize)
+        throw new AppError("INVALID_INPUT", "The lot is another strand size.", {
+          strandLotId: [`This lot is ${lot.strand_size} strand.`],
+        });
     }
     const row = await trx
       .insertInto("tendons")

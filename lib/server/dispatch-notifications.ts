@@ -22,7 +22,10 @@ export type Send = (mail: OutgoingMail & { messageId: string }) => Promise<void>
 
 const defaultSend: Send = (mail) => sendMail(mail);
 
-export async function dispatchOne(db: Kysely<Database>, send: Send = defaultSend): Promise<"sent" | "retry" | "failed" | "idle"> {
+export async function dispatchOne(
+  db: Kysely<Database>,
+  send: Send = defaultSend,
+): Promise<"sent" | "retry" | "failed" | "idle"> {
   return db.transaction().execute(async (trx) => {
     const row = await trx
       .selectFrom("notifications")

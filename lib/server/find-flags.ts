@@ -17,7 +17,10 @@ export interface FlaggedTendon {
 }
 
 /** Open flags on the given projects, grouped per tendon, oldest first. */
-export async function findFlags(db: Kysely<Database>, input: { projectIds: string[]; filter: FlagFilter }): Promise<FlaggedTendon[]> {
+export async function findFlags(
+  db: Kysely<Database>,
+  input: { projectIds: string[]; filter: FlagFilter },
+): Promise<FlaggedTendon[]> {
   if (!input.projectIds.length) return [];
   const { filter } = input;
   let query = db
@@ -43,7 +46,10 @@ export async function findFlags(db: Kysely<Database>, input: { projectIds: strin
     ])
     .where("flags.project_id", "in", input.projectIds)
     .orderBy("flags.created_at");
-  query = filter.status === "any_open" ? query.where("flags.status", "!=", "closed") : query.where("flags.status", "=", filter.status);
+  query =
+    filter.status === "any_open"
+      ? query.where("flags.status", "!=", "closed")
+      : query.where("flags.status", "=", filter.status);
   if (filter.projectId) query = query.where("flags.project_id", "=", filter.projectId);
   if (filter.pourId) query = query.where("flags.pour_id", "=", filter.pourId);
   if (filter.kind) query = query.where("flags.kind", "=", filter.kind);

@@ -73,7 +73,16 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
       .selectFrom("reviews")
       .innerJoin("users", "users.id", "reviews.author_user_id")
       .innerJoin("flags", "flags.id", "reviews.flag_id")
-      .select(["reviews.id", "reviews.flag_id", "reviews.kind", "reviews.body", "reviews.remeasured_mm", "reviews.attachment_id", "reviews.created_at", "users.name as author"])
+      .select([
+        "reviews.id",
+        "reviews.flag_id",
+        "reviews.kind",
+        "reviews.body",
+        "reviews.remeasured_mm",
+        "reviews.attachment_id",
+        "reviews.created_at",
+        "users.name as author",
+      ])
       .where("reviews.project_id", "=", input.projectId)
       .where("flags.tendon_id", "=", input.tendonId)
       .orderBy("reviews.created_at")
@@ -123,7 +132,20 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
     return { index: i + 1, lengthMm: s.lengthMm, angleRad: s.angleRad, beta, endMm: x, cumulativeAngleRad: alpha };
   });
 
-  return { basis, predicted, profile, computationError, segments, records, evaluation: evaluation ?? null, flags, reviews, dispositions, photos, release: release ?? null };
+  return {
+    basis,
+    predicted,
+    profile,
+    computationError,
+    segments,
+    records,
+    evaluation: evaluation ?? null,
+    flags,
+    reviews,
+    dispositions,
+    photos,
+    release: release ?? null,
+  };
 }
 
 export type TendonCase = Awaited<ReturnType<typeof getTendonCase>>;

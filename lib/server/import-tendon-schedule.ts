@@ -14,24 +14,54 @@ export function scheduleErrorKey(e: ScheduleError): string {
  * by line and column, tags against the pour, lots against the project) inside one transaction
  * that also writes the rows, so nothing is written unless every row is good.
  */
-export async function importTendonSchedule(db: Db, input: { projectId: string; pourId: string; csv: string; by: string }): Promise<{ imported: number }> {
+export async function importTendonSchedule(
+  db: Db,
+  input: { projectId: string; pourId: string; csv: string; by: string },
+): Promise<{ imported: number }> {
   return db.transaction().execute(async (trx) => {
-    const pour = await trx.selectFrom("pours").select("id").where("project_id", "=", input.projectId).where("id", "=", input.pourId).forUpdate().executeTakeFirst();
+    const pour = await trx
+      .selectFrom("pours")
+      .select("id")
+      .where("project_id", "=", input.projectId)
+      .where("id", "=", input.pourId)
+      .forUpdate()
+      .executeTakeFirst();
     if (!pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
-    const existing = await trx.selectFrom("tendons").select("tag").where("project_id", "=", input.projectId).where("pour_id", "=", input.pourId).execute();
-    const lots = await trx.selectFrom("strand_lots").select(["id", "lot_number", "strand_size"]).where("project_id", "=", input.projectId).execute();
-    const result = parseTendonSchedule(input.csv, { existingTags: new Set(existing.map((t) => t.tag.toLowerCase())), lotNumbers: new Set(lots.map((l) => l.lot_number)) });
+    const existing = await trx
+      .selectFrom("tendons")
+      .select("tag")
+      .where("project_id", "=", input.projectId)
+      .where("pour_id", "=", input.pourId)
+      .execute();
+    const lots = await trx
+      .selectFrom("strand_lots")
+      .select(["id", "lot_number", "strand_size"])
+      .where("project_id", "=", input.projectId)
+      .execute();
+    const result = parseTendonSchedule(input.csv, {
+      existingTags: new Set(existing.map((t) => t.tag.toLowerCase())),
+      lotNumbers: new Set(lots.map((l) => l.lot_number)),
+    });
     const errors: ScheduleError[] = result.ok ? [] : [...result.errors];
     if (result.ok) {
       result.tendons.forEach((t, i) => {
         const lot = t.strandLot ? lots.find((l) => l.lot_number === t.strandLot) : undefined;
-        if (lot && lot.strand_size !== t.strandSize) errors.push({ row: i + 2, column: "strand lot", message: `Lot ${lot.lot_number} is ${lot.strand_size} strand, not ${t.strandSize}.` });
+        if (lot && lot.strand_size !== t.strandSize)
+          errors.push({
+            row: i + 2,
+            column: "strand lot",
+            message: `Lot ${lot.lot_number} is ${lot.strand_size} strand, not ${t.strandSize}.`,
+          });
       });
     }
     if (errors.length || !result.ok) {
       const fields: FieldErrors = {};
       for (const e of errors) (fields[scheduleErrorKey(e)] ??= []).push(e.message);
-      throw new AppError("INVALID_INPUT", `The file has ${errors.length}${errors.length >= 200 ? " or more" : ""} problem${errors.length === 1 ? "" : "s"}; nothing was imported.`, fields);
+      throw new AppError(
+        "INVALID_INPUT",
+        `The file has ${errors.length}${errors.length >= 200 ? " or more" : ""} problem${errors.length === 1 ? "" : "s"}; nothing was imported.`,
+        fields,
+      );
     }
     const lotId = new Map(lots.map((l) => [l.lot_number, l.id]));
     const CHUNK = 1000;
@@ -55,7 +85,14 @@ export async function importTendonSchedule(db: Db, input: { projectId: string; p
         )
         .execute();
     }
-    await recordAudit(trx, { action: "schedule.import", outcome: "success", actorUserId: input.by, projectId: input.projectId, target: input.pourId, detail: { tendons: result.tendons.length } });
+    await recordAudit(trx, {
+      action: "schedule.import",
+      outcome: "success",
+      actorUserId: input.by,
+      projectId: input.projectId,
+      target: input.pourId,
+      detail: { tendons: result.tendons.length },
+    });
     return { imported: result.tendons.length };
   });
 }

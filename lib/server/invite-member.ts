@@ -26,7 +26,11 @@ export async function inviteMember(
   const expiresAt = new Date(Date.now() + INVITATION_DAYS * 24 * 3600 * 1000);
 
   const { invitationId, projectName } = await db.transaction().execute(async (trx) => {
-    const project = await trx.selectFrom("projects").select("name").where("id", "=", input.projectId).executeTakeFirstOrThrow();
+    const project = await trx
+      .selectFrom("projects")
+      .select("name")
+      .where("id", "=", input.projectId)
+      .executeTakeFirstOrThrow();
     const member = await trx
       .selectFrom("project_members")
       .innerJoin("users", "users.id", "project_members.user_id")
@@ -34,7 +38,8 @@ export async function inviteMember(
       .where("project_members.project_id", "=", input.projectId)
       .where("users.email", "=", input.email)
       .executeTakeFirst();
-    if (member) throw new AppError("CONFLICT", `${input.email} is already on this project.`, { email: ["Already a member."] });
+    if (member)
+      throw new AppError("CONFLICT", `${input.email} is already on this project.`, { email: ["Already a member."] });
 
     await trx
       .updateTable("invitations")

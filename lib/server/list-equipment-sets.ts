@@ -38,10 +38,28 @@ export function todayIso(): string {
 /** Every set with its calibrations, newest first, and its state today (expired, running out, valid). */
 export async function listEquipmentSets(db: Db, projectId: string, today = todayIso()): Promise<EquipmentSetView[]> {
   const [sets, calibrations] = await Promise.all([
-    db.selectFrom("equipment_sets").select(["id", "name", "jack_serial", "gauge_serial", "pump_serial", "jack_grip_mm", "max_force_n"]).where("project_id", "=", projectId).orderBy("name").execute(),
+    db
+      .selectFrom("equipment_sets")
+      .select(["id", "name", "jack_serial", "gauge_serial", "pump_serial", "jack_grip_mm", "max_force_n"])
+      .where("project_id", "=", projectId)
+      .orderBy("name")
+      .execute(),
     db
       .selectFrom("calibrations")
-      .select(["id", "equipment_set_id", "calibrated_on", "valid_until", "points", "slope_n_per_mpa", "intercept_n", "r2", "min_pressure_mpa", "max_pressure_mpa", "laboratory", "certificate_attachment_id"])
+      .select([
+        "id",
+        "equipment_set_id",
+        "calibrated_on",
+        "valid_until",
+        "points",
+        "slope_n_per_mpa",
+        "intercept_n",
+        "r2",
+        "min_pressure_mpa",
+        "max_pressure_mpa",
+        "laboratory",
+        "certificate_attachment_id",
+      ])
       .where("project_id", "=", projectId)
       .orderBy("calibrated_on", "desc")
       .orderBy("created_at", "desc")

@@ -20,7 +20,10 @@ export interface InvitationRow {
 }
 
 /** The people on a project and its open invitations. Chosen columns only: no hashes leave here. */
-export async function listMembers(db: Db, projectId: string): Promise<{ members: MemberRow[]; invitations: InvitationRow[] }> {
+export async function listMembers(
+  db: Db,
+  projectId: string,
+): Promise<{ members: MemberRow[]; invitations: InvitationRow[] }> {
   const [members, invitations] = await Promise.all([
     db
       .selectFrom("project_members")

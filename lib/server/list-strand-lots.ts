@@ -16,7 +16,12 @@ export interface StrandLotView {
   againstNominal: { areaPct: number; modulusPct: number; areaTimesModulusPct: number; breakingPct: number } | null;
 }
 
-export function againstNominal(lot: { strandSize: string; areaMm2: number; modulusMPa: number; breakingLoadN: number }): StrandLotView["againstNominal"] {
+export function againstNominal(lot: {
+  strandSize: string;
+  areaMm2: number;
+  modulusMPa: number;
+  breakingLoadN: number;
+}): StrandLotView["againstNominal"] {
   const nominal = findStrandSize(lot.strandSize);
   if (!nominal) return null;
   const e = DEFAULT_STRAND_MODULUS_MPA.aashto;
@@ -32,7 +37,12 @@ export function againstNominal(lot: { strandSize: string; areaMm2: number; modul
 export async function listStrandLots(db: Db, projectId: string): Promise<StrandLotView[]> {
   const rows = await db
     .selectFrom("strand_lots")
-    .leftJoin("attachments", (j) => j.onRef("attachments.id", "=", "strand_lots.certificate_attachment_id").on("attachments.project_id", "=", projectId).on("attachments.status", "=", "stored"))
+    .leftJoin("attachments", (j) =>
+      j
+        .onRef("attachments.id", "=", "strand_lots.certificate_attachment_id")
+        .on("attachments.project_id", "=", projectId)
+        .on("attachments.status", "=", "stored"),
+    )
     .select((eb) => [
       "strand_lots.id",
       "strand_lots.lot_number",
@@ -53,7 +63,12 @@ export async function listStrandLots(db: Db, projectId: string): Promise<StrandL
     .orderBy("strand_lots.lot_number")
     .execute();
   return rows.map((r) => {
-    const lot = { strandSize: r.strand_size, areaMm2: r.area_mm2, modulusMPa: r.modulus_mpa, breakingLoadN: r.breaking_load_n };
+    const lot = {
+      strandSize: r.strand_size,
+      areaMm2: r.area_mm2,
+      modulusMPa: r.modulus_mpa,
+      breakingLoadN: r.breaking_load_n,
+    };
     return {
       id: r.id,
       lotNumber: r.lot_number,

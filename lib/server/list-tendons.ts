@@ -18,12 +18,22 @@ export interface TendonRow {
 }
 
 /** The tendons of one pour with their lot numbers; 404 when the pour is not the project's. */
-export async function listTendons(db: Db, input: { projectId: string; pourId: string }): Promise<{ pour: { id: string; name: string }; tendons: TendonRow[] }> {
-  const pour = await db.selectFrom("pours").select(["id", "name"]).where("project_id", "=", input.projectId).where("id", "=", input.pourId).executeTakeFirst();
+export async function listTendons(
+  db: Db,
+  input: { projectId: string; pourId: string },
+): Promise<{ pour: { id: string; name: string }; tendons: TendonRow[] }> {
+  const pour = await db
+    .selectFrom("pours")
+    .select(["id", "name"])
+    .where("project_id", "=", input.projectId)
+    .where("id", "=", input.pourId)
+    .executeTakeFirst();
   if (!pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
   const rows = await db
     .selectFrom("tendons")
-    .leftJoin("strand_lots", (j) => j.onRef("strand_lots.id", "=", "tendons.strand_lot_id").on("strand_lots.project_id", "=", input.projectId))
+    .leftJoin("strand_lots", (j) =>
+      j.onRef("strand_lots.id", "=", "tendons.strand_lot_id").on("strand_lots.project_id", "=", input.projectId),
+    )
     .select([
       "tendons.id",
       "tendons.tag",

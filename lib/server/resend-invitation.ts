@@ -25,8 +25,18 @@ export async function resendInvitation(
     .returning(["email", "role"])
     .executeTakeFirst();
   if (!invitation) throw new AppError("NOT_FOUND", "No open invitation with this id on this project.");
-  const project = await db.selectFrom("projects").select("name").where("id", "=", input.projectId).executeTakeFirstOrThrow();
-  await recordAudit(db, { action: "invitation.resend", outcome: "success", actorUserId: input.by.id, projectId: input.projectId, target: invitation.email });
+  const project = await db
+    .selectFrom("projects")
+    .select("name")
+    .where("id", "=", input.projectId)
+    .executeTakeFirstOrThrow();
+  await recordAudit(db, {
+    action: "invitation.resend",
+    outcome: "success",
+    actorUserId: input.by.id,
+    projectId: input.projectId,
+    target: invitation.email,
+  });
   await sendMail(
     invitationMail({
       to: invitation.email,

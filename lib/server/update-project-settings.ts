@@ -4,7 +4,10 @@ import { AppError } from "@/lib/errors";
 import type { ProjectSettings } from "@/lib/schemas/project-settings";
 import { recordAudit } from "./record-audit";
 
-export async function updateProjectSettings(db: Db, input: { projectId: string; values: ProjectSettings; by: string }): Promise<void> {
+export async function updateProjectSettings(
+  db: Db,
+  input: { projectId: string; values: ProjectSettings; by: string },
+): Promise<void> {
   const v = input.values;
   await db.transaction().execute(async (trx) => {
     const updated = await trx
@@ -34,6 +37,12 @@ export async function updateProjectSettings(db: Db, input: { projectId: string; 
       .where("id", "=", input.projectId)
       .executeTakeFirst();
     if (!updated.numUpdatedRows) throw new AppError("NOT_FOUND", "No such project.");
-    await recordAudit(trx, { action: "project.configure", outcome: "success", actorUserId: input.by, projectId: input.projectId, detail: { tolerancePct: v.tolerancePct, basis: v.comparisonBasis } });
+    await recordAudit(trx, {
+      action: "project.configure",
+      outcome: "success",
+      actorUserId: input.by,
+      projectId: input.projectId,
+      detail: { tolerancePct: v.tolerancePct, basis: v.comparisonBasis },
+    });
   });
 }

@@ -35,7 +35,10 @@ export interface StoredAttachment {
 /** A file name safe to put in a header and to show: no path, no control characters. */
 export function safeFileName(name: string | null | undefined, fallback = "file"): string {
   const base = (name ?? "").split(/[\\/]/).pop() ?? "";
-  const cleaned = base.replace(/[\u0000-\u001f\u007f"]/g, "").trim().slice(0, 200);
+  const cleaned = base
+    .replace(/[\u0000-\u001f\u007f"]/g, "")
+    .trim()
+    .slice(0, 200);
   return cleaned || fallback;
 }
 
@@ -59,9 +62,13 @@ export async function presignUpload(
   },
 ): Promise<{ attachmentId: string; uploadUrl: string; headers: Record<string, string>; expiresInSeconds: number }> {
   if (!ALLOWED_TYPES[input.purpose].includes(input.contentType)) {
-    throw new AppError("INVALID_INPUT", `A ${PURPOSE_LABELS[input.purpose]} must be ${acceptedTypesText(input.purpose)}.`, {
-      contentType: [`Use ${acceptedTypesText(input.purpose)}.`],
-    });
+    throw new AppError(
+      "INVALID_INPUT",
+      `A ${PURPOSE_LABELS[input.purpose]} must be ${acceptedTypesText(input.purpose)}.`,
+      {
+        contentType: [`Use ${acceptedTypesText(input.purpose)}.`],
+      },
+    );
   }
   if (input.sizeBytes > env.UPLOAD_MAX_BYTES) throw tooBig(input.sizeBytes);
   const attachmentId = randomUUID();
@@ -81,9 +88,13 @@ export async function presignUpload(
       uploaded_by: input.uploadedBy,
     })
     .execute();
-  const uploadUrl = await getSignedUrl(s3(), new PutObjectCommand({ Bucket: bucket(), Key: objectKey, ContentType: input.contentType }), {
-    expiresIn: PRESIGN_SECONDS,
-  });
+  const uploadUrl = await getSignedUrl(
+    s3(),
+    new PutObjectCommand({ Bucket: bucket(), Key: objectKey, ContentType: input.contentType }),
+    {
+      expiresIn: PRESIGN_SECONDS,
+    },
+  );
   return { attachmentId, uploadUrl, headers: { "Content-Type": input.contentType }, expiresInSeconds: PRESIGN_SECONDS };
 }
 
@@ -91,7 +102,9 @@ async function readObject(key: string): Promise<Uint8Array | null> {
   try {
     const object = await s3().send(new GetObjectCommand({ Bucket: bucket(), Key: key }));
     if (object.ContentLength !== undefined && object.ContentLength > env.UPLOAD_MAX_BYTES) {
-      object.Body?.transformToWebStream().cancel().catch(() => undefined);
+      object.Body?.transformToWebStream()
+        .cancel()
+        .catch(() => undefined);
       throw tooBig(object.ContentLength);
     }
     return (await object.Body?.transformToByteArray()) ?? null;
@@ -127,7 +140,10 @@ function toStored(row: {
 }
 
 /** What an upload of the project is for (to authorize its confirmation); 404 when there is none. */
-export async function attachmentPurpose(db: Db, input: { projectId: string; attachmentId: string }): Promise<AttachmentPurpose> {
+export async function attachmentPurpose(
+  db: Db,
+  input: { projectId: string; attachmentId: string },
+): Promise<AttachmentPurpose> {
   const row = await db
     .selectFrom("attachments")
     .select("purpose")
@@ -143,7 +159,10 @@ export async function attachmentPurpose(db: Db, input: { projectId: string; atta
  * (idempotent); a missing object answers 409 (upload first); a wrong type or size deletes the
  * object and the row and answers 422.
  */
-export async function confirmUpload(db: Db, input: { projectId: string; attachmentId: string }): Promise<StoredAttachment> {
+export async function confirmUpload(
+  db: Db,
+  input: { projectId: string; attachmentId: string },
+): Promise<StoredAttachment> {
   const row = await db
     .selectFrom("attachments")
     .select(["id", "purpose", "object_key", "content_type", "size_bytes", "sha256", "original_name", "status"])
@@ -160,7 +179,10 @@ export async function confirmUpload(db: Db, input: { projectId: string; attachme
     if (error instanceof AppError) await discard(db, input.projectId, row.id, row.object_key);
     throw error;
   }
-  if (!bytes) throw new AppError("CONFLICT", "The file has not arrived yet. Upload it, then confirm.", { file: ["Not uploaded yet."] });
+  if (!bytes)
+    throw new AppError("CONFLICT", "The file has not arrived yet. Upload it, then confirm.", {
+      file: ["Not uploaded yet."],
+    });
   if (bytes.byteLength === 0) {
     await discard(db, input.projectId, row.id, row.object_key);
     throw new AppError("INVALID_INPUT", "The file is empty.", { file: ["The file is empty."] });
@@ -174,9 +196,13 @@ export async function confirmUpload(db: Db, input: { projectId: string; attachme
   if (!detected || !allowed.includes(detected.mime)) {
     await discard(db, input.projectId, row.id, row.object_key);
     const what = detected ? `looks like ${detected.mime}` : "is not a file type we recognise";
-    throw new AppError("INVALID_INPUT", `This ${PURPOSE_LABELS[row.purpose]} ${what}; use ${acceptedTypesText(row.purpose)}.`, {
-      file: [`Use ${acceptedTypesText(row.purpose)}.`],
-    });
+    throw new AppError(
+      "INVALID_INPUT",
+      `This ${PURPOSE_LABELS[row.purpose]} ${what}; use ${acceptedTypesText(row.purpose)}.`,
+      {
+        file: [`Use ${acceptedTypesText(row.purpose)}.`],
+      },
+    );
   }
   const sha256 = createHash("sha256").update(bytes).digest("hex");
   const stored = await db
@@ -222,7 +248,10 @@ export async function readAttachment(
 }
 
 /** Checks that an attachment is stored on the project for one of the purposes, before a row links to it. */
-export async function requireStoredAttachment(db: Db, input: { projectId: string; attachmentId: string; purpose: AttachmentPurpose; field: string }): Promise<void> {
+export async function requireStoredAttachment(
+  db: Db,
+  input: { projectId: string; attachmentId: string; purpose: AttachmentPurpose; field: string },
+): Promise<void> {
   const row = await db
     .selectFrom("attachments")
     .select("id")

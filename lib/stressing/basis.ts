@@ -62,7 +62,13 @@ export interface StrandValues {
 
 /** Area, modulus and breaking load: the lot's mill certificate, else ASTM A416 nominal values. */
 export function strandValues(tendon: TendonBasis, lot: LotBasis | null): StrandValues {
-  if (lot) return { areaMm2: lot.areaMm2, modulusMPa: lot.modulusMPa, breakingLoadPerStrandN: lot.breakingLoadN, source: "strand lot" };
+  if (lot)
+    return {
+      areaMm2: lot.areaMm2,
+      modulusMPa: lot.modulusMPa,
+      breakingLoadPerStrandN: lot.breakingLoadN,
+      source: "strand lot",
+    };
   const nominal = findStrandSize(tendon.strandSize);
   if (!nominal) throw new Error(`Unknown strand size "${tendon.strandSize}"`);
   return {
@@ -179,7 +185,12 @@ export function stressedEnds(ends: TendonBasis["ends"]): ("A" | "B")[] {
  * Compares the measured sum of the ends read so far with the prediction. A lone end of a
  * two-end tendon is judged against that end's own share, provisionally.
  */
-export function judgeTendon(input: { project: ProjectBasis; tendon: TendonBasis; predicted: TendonPrediction; readings: EndReading[] }): TendonJudgement {
+export function judgeTendon(input: {
+  project: ProjectBasis;
+  tendon: TendonBasis;
+  predicted: TendonPrediction;
+  readings: EndReading[];
+}): TendonJudgement {
   const { tendon, predicted } = input;
   const wanted = stressedEnds(tendon.ends);
   const read = wanted.filter((e) => input.readings.some((r) => r.end === e));

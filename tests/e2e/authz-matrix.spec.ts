@@ -2,7 +2,7 @@ import { expect, test, type APIRequestContext, type APIResponse } from "@playwri
 import { readdirSync, readFileSync, statSync } from "node:fs";
 import path from "node:path";
 import { MATRIX, SERVER_ACTION_FILES, type Caller } from "./authz-matrix";
-import { PEOPLE, apiAs, latestMailTo, lastMailId, linkIn } from "./people";
+import { PEOPLE, apiAs, latestMailTo, lastMailId, linkIn, pourIdByName } from "./people";
 
 const APP_DIR = path.resolve("app");
 
@@ -89,6 +89,7 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
   }
 
   const BOGUS_TOKEN = "x".repeat(43);
+  const MISSING_ID = "00000000-0000-4000-8000-000000000000";
 
   /** A pour of the demo project, as the demo crew's download list names it. */
   async function crewDownloadPourId(): Promise<string> {
@@ -236,6 +237,24 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
         c.post(`/api/projects/${projectId}/equipment-sets/${id}/calibrations`, {
           data: { calibratedOn: "2026-12-01", validUntil: null, points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })), laboratory: null, certificateAttachmentId: null },
         }),
+    },
+    "GET /api/projects/[projectId]/flags": { call: (c) => c.get(`/api/projects/${projectId}/flags?status=any_open`) },
+    "POST /api/projects/[projectId]/flags/[flagId]/reviews": {
+      call: (c) => c.post(`/api/projects/${projectId}/flags/${MISSING_ID}/reviews`, { data: { kind: "note", body: "Checked the gauge photo." } }),
+    },
+    "POST /api/projects/[projectId]/flags/[flagId]/dispositions": {
+      call: (c) =>
+        c.post(`/api/projects/${projectId}/flags/${MISSING_ID}/dispositions`, {
+          data: { decision: "accept", reasons: "Within the engineer's allowance.", licenceStatement: "Licensed engineer (matrix)" },
+        }),
+    },
+    "POST /api/projects/[projectId]/records/[recordId]/corrections": {
+      call: (c) =>
+        c.post(`/api/projects/${projectId}/records/${MISSING_ID}/corrections`, { data: { reason: "Copied from the wrong line.", measuredMm: 200 } }),
+    },
+    "POST /api/projects/[projectId]/pours/[pourId]/release": {
+      fixture: () => pourIdByName("L3 Pour 1"),
+      call: (c, pourId) => c.post(`/api/projects/${projectId}/pours/${pourId}/release`, { data: { statement: "Matrix check of the release rule." } }),
     },
     "POST /api/invitations/accept": {
       call: (c) => c.post("/api/invitations/accept", { data: { token: BOGUS_TOKEN, name: "Nobody", password: "a-long-enough-password" } }),

@@ -62,6 +62,14 @@ export const MATRIX: Record<string, Expected> = {
   "GET /api/projects/[projectId]/equipment-sets": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "POST /api/projects/[projectId]/equipment-sets": projectAction(201, ["admin"]),
   "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations": projectAction(201, ["admin"]),
+  // Flags, reviews, dispositions and corrections on an id that does not exist: the roles allowed
+  // pass the access check and get 404 from the operation; the release is refused by the
+  // project's rule (inspector: 403) or by the pour's unstressed tendons (engineer: 409).
+  "GET /api/projects/[projectId]/flags": projectAction(200, ["inspector", "engineer"]),
+  "POST /api/projects/[projectId]/flags/[flagId]/reviews": projectAction(404, ["inspector", "engineer"]),
+  "POST /api/projects/[projectId]/flags/[flagId]/dispositions": projectAction(404, ["engineer"]),
+  "POST /api/projects/[projectId]/records/[recordId]/corrections": projectAction(404, ["inspector"]),
+  "POST /api/projects/[projectId]/pours/[pourId]/release": { ...projectAction(409, ["engineer"]), inspector: 403 },
   // Token routes: the token is the authorization, so every caller gets the same answer.
   "POST /api/invitations/accept": everyone(410),
   "POST /api/password-reset": everyone(202),

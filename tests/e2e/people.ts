@@ -1,4 +1,5 @@
 import { request as playwrightRequest, type APIRequestContext, type Page } from "@playwright/test";
+import pg from "pg";
 
 export const BASE_URL = process.env.E2E_BASE_URL ?? "http://localhost:3100";
 export const INBOX_URL = process.env.MAIL_INBOX_URL ?? "http://127.0.0.1:1081";
@@ -64,4 +65,24 @@ export function linkIn(mail: CaughtMail, path: string): string {
   const match = new RegExp(`https?://[^\\s"<>]+${path.replace(/[/]/g, "\\/")}[^\\s"<>]*`).exec(mail.text);
   if (!match) throw new Error(`no ${path} link in "${mail.subject}"`);
   return match[0];
+}
+
+/** Reads the seeded demo straight from the app's database (the e2e run's throwaway one). */
+export async function queryDemo<T extends Record<string, unknown>>(text: string, values: unknown[] = []): Promise<T[]> {
+  const client = new pg.Client({ connectionString: process.env.DATABASE_URL });
+  await client.connect();
+  try {
+    return (await client.query<T>(text, values)).rows;
+  } finally {
+    await client.end();
+  }
+}
+
+export async function pourIdByName(name: string): Promise<string> {
+  const rows = await queryDemo<{ id: string }>(
+    "select pours.id from pours join projects on projects.id = pours.project_id where projects.code = 'AYP' and pours.name = $1",
+    [name],
+  );
+  if (!rows[0]) throw new Error(`demo pour ${name} not found`);
+  return rows[0].id;
 }
