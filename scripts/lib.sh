@@ -71,6 +71,9 @@ pg_up() {
   if runuser -u postgres -- "$(pg_bin pg_ctl)" -D "$data" status >/dev/null 2>&1; then
     say "PostgreSQL already running on 127.0.0.1:$port"
   else
+    if (exec 3<>"/dev/tcp/127.0.0.1/$port") 2>/dev/null; then
+      die "port $port on 127.0.0.1 is taken by another program (another PostgreSQL?): stop it, or set TAUTLINE_PG_PORT to a free port"
+    fi
     local opts="-c listen_addresses=127.0.0.1 -c port=$port -c unix_socket_directories=$run"
     if [ "$mode" = "fast" ]; then
       # Throwaway test clusters only: durability traded for speed.
