@@ -113,6 +113,14 @@ stop_group() {
   kill -KILL -- "-$pid" 2>/dev/null || true
 }
 
+# Stops with a clear message when a port on loopback is already taken.
+# Usage: require_free_port PORT "what needs it" VARIABLE
+require_free_port() {
+  if (exec 3<>"/dev/tcp/127.0.0.1/$1") 2>/dev/null; then
+    die "port $1 on 127.0.0.1 (for $2) is taken by another program: stop it, or set $3 to a free port"
+  fi
+}
+
 # Waits until a URL answers. Usage: wait_for_url URL SECONDS
 wait_for_url() {
   local url="$1" seconds="$2"

@@ -39,6 +39,12 @@ cleanup() {
 }
 trap cleanup INT TERM EXIT
 
+port_of() { local rest="${1##*:}"; echo "${rest%%/*}"; }
+require_free_port "$APP_PORT" "the app" APP_PORT
+require_free_port "$SMTP_PORT" "the mail fake" SMTP_PORT
+require_free_port "$(port_of "$MAIL_INBOX_URL")" "the mail inbox" MAIL_INBOX_URL
+require_free_port "$(port_of "$S3_ENDPOINT")" "the upload fake" S3_ENDPOINT
+
 pg_up "$PG_DATA" "$TAUTLINE_PG_PORT"
 node_modules/.bin/tsx scripts/migrate.ts
 node_modules/.bin/tsx --conditions=react-server scripts/seed.ts

@@ -35,6 +35,12 @@ cleanup() {
 }
 trap cleanup EXIT
 
+port_of() { local rest="${1##*:}"; echo "${rest%%/*}"; }
+require_free_port "$APP_PORT" "the app under test" TEST_APP_PORT
+require_free_port "$SMTP_PORT" "the mail fake" TEST_SMTP_PORT
+require_free_port "$(port_of "$MAIL_INBOX_URL")" "the mail inbox" TEST_INBOX_PORT
+require_free_port "$(port_of "$S3_ENDPOINT")" "the upload fake" TEST_S3_PORT
+
 # A throwaway cluster: made new for every run.
 pg_down "$PG_DATA"
 rm -rf "$PG_DATA" "$PG_DATA.run" "$TAUTLINE_S3_DIR" "$TMPDIR" "$LOGS" test-results
