@@ -2,6 +2,18 @@
 import { useEffect, useState } from "react";
 import { readMeta, type SessionMeta } from "@/lib/offline/db";
 import type { AvailablePour } from "@/lib/schemas/sync";
+
+/** A released pour: the engineer's statement is in; the crew may cut tails or grout. */
+function ReleasedMark() {
+  return (
+    <p className="inline-flex items-center gap-2 font-bold text-signal-band" data-testid="pour-released">
+      <svg viewBox="0 0 24 24" className="h-5 w-5" aria-hidden="true">
+        <path d="M5 12l4 4 10-10" fill="none" stroke="currentColor" strokeWidth="3" strokeLinecap="round" />
+      </svg>
+      Released: tails may be cut or ducts grouted
+    </p>
+  );
+}
 import { AttentionList } from "./attention-list";
 import { useField } from "./field-provider";
 import { ago, clockTime, useLive, useNow } from "./use-live";
@@ -111,6 +123,7 @@ export function FieldHome() {
                   <h3 className="text-lead font-bold">{pour.name}</h3>
                   <span className="text-label font-semibold uppercase text-ink-faint">{project ? `${project.code} · ${project.name}` : ""}</span>
                 </div>
+                {pour.status === "released" && <ReleasedMark />}
                 <p className="inline-flex items-center gap-2 font-bold text-signal-band" data-testid="ready-offline">
                   <svg viewBox="0 0 24 24" className="h-6 w-6" aria-hidden="true">
                     <path d="M5 12l4 4 10-10" fill="none" stroke="currentColor" strokeWidth="3" strokeLinecap="round" />
@@ -166,6 +179,7 @@ export function FieldHome() {
                 <p className="text-ink-soft">
                   {p.projectCode} · {p.tendonCount} tendons{p.plannedStressingDate ? ` · stressing ${p.plannedStressingDate}` : ""}
                 </p>
+                {p.status === "released" && <ReleasedMark />}
               </div>
               <button type="button" className="btn-primary" disabled={downloading === p.id} onClick={() => void download(p.id)}>
                 {downloading === p.id ? "Downloading…" : readyIds.has(p.id) ? "Download again" : `Download ${p.name}`}
