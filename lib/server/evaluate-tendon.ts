@@ -76,15 +76,18 @@ export async function evaluateTendon(
   const current = (["A", "B"] as const).flatMap((end) => chainsByEnd[end].slice(-1));
 
   // A stressing that reached the server after an engineer ordered a restress answers that
-  // order, whether or not the tablet knew of it.
-  const restressOrders = await db
-    .selectFrom("dispositions")
-    .select(["id", "created_at"])
-    .where("project_id", "=", input.projectId)
-    .where("tendon_id", "=", input.tendonId)
-    .where("decision", "in", ["restress", "detension_restress"])
-    .orderBy("created_at")
-    .execute();
+  // order, whether or not the tablet knew of it (so only when an end was stressed again).
+  const stressedAgain = chainsByEnd.A.length > 1 || chainsByEnd.B.length > 1;
+  const restressOrders = !stressedAgain
+    ? []
+    : await db
+        .selectFrom("dispositions")
+        .select(["id", "created_at"])
+        .where("project_id", "=", input.projectId)
+        .where("tendon_id", "=", input.tendonId)
+        .where("decision", "in", ["restress", "detension_restress"])
+        .orderBy("created_at")
+        .execute();
   const answeredOrder = (r: (typeof all)[number]): string | null =>
     r.restress_of_disposition_id ??
     restressOrders.filter((d) => new Date(d.created_at) < new Date(r.received_at)).at(-1)?.id ??
@@ -108,31 +111,46 @@ export async function evaluateTendon(
     }
   }
 
+  // The equipment sets of the current records and all their calibrations, in one query.
+  const setIds = [...new Set(current.map((r) => r.equipment_set_id))];
+  const setRows = setIds.length
+    ? await db
+        .selectFrom("equipment_sets")
+        .leftJoin("calibrations", (j) =>
+          j
+            .onRef("calibrations.equipment_set_id", "=", "equipment_sets.id")
+            .onRef("calibrations.project_id", "=", "equipment_sets.project_id"),
+        )
+        .select([
+          "equipment_sets.id as setId",
+          "equipment_sets.name",
+          "equipment_sets.jack_grip_mm",
+          "calibrations.id",
+          "calibrations.calibrated_on",
+          "calibrations.valid_until",
+          "calibrations.slope_n_per_mpa",
+          "calibrations.intercept_n",
+          "calibrations.min_pressure_mpa",
+          "calibrations.max_pressure_mpa",
+        ])
+        .where("equipment_sets.project_id", "=", input.projectId)
+        .where("equipment_sets.id", "in", setIds)
+        .execute()
+    : [];
+  const calibrationsOf = (setId: string): Calibration[] =>
+    setRows
+      .filter((r): r is typeof r & Calibration => r.setId === setId && r.id !== null)
+      .sort((a, b) => b.calibrated_on.localeCompare(a.calibrated_on));
+
   for (const record of current) {
-    const set = await db
-      .selectFrom("equipment_sets")
-      .select(["id", "name", "jack_grip_mm", "max_force_n"])
-      .where("project_id", "=", input.projectId)
-      .where("id", "=", record.equipment_set_id)
-      .executeTakeFirstOrThrow();
+    const set = setRows.find((r) => r.setId === record.equipment_set_id);
+    if (!set) throw new Error(`equipment set ${record.equipment_set_id} of record ${record.id} is not on the project`);
     equipmentGripMm ??= set.jack_grip_mm;
     const day = isoDay(record.device_time);
-    const calibrationQuery = db
-      .selectFrom("calibrations")
-      .select([
-        "id",
-        "calibrated_on",
-        "valid_until",
-        "slope_n_per_mpa",
-        "intercept_n",
-        "min_pressure_mpa",
-        "max_pressure_mpa",
-      ])
-      .where("project_id", "=", input.projectId)
-      .where("equipment_set_id", "=", set.id);
+    // The calibration the crew picked, else the latest one made on or before the stressing day.
     const calibration: Calibration | undefined = record.calibration_id
-      ? await calibrationQuery.where("id", "=", record.calibration_id).executeTakeFirst()
-      : await calibrationQuery.where("calibrated_on", "<=", day).orderBy("calibrated_on", "desc").executeTakeFirst();
+      ? calibrationsOf(set.setId).find((c) => c.id === record.calibration_id)
+      : calibrationsOf(set.setId).find((c) => c.calibrated_on <= day);
 
     if (!calibration || day > calibration.valid_until || day < calibration.calibrated_on) {
       findings.push({
@@ -159,7 +177,9 @@ export async function evaluateTendon(
       // A dial is read to its graduation (at most 100 psi, UFGS 02490): a reading within half a
       // graduation of the mark is at the mark, so the limits are checked on the lowest force the
       // reading allows.
-      achievedForces.push(forceFromPressure(line(calibration), Math.max(0, record.final_pressure_mpa - HALF_GRADUATION_MPA)));
+      achievedForces.push(
+        forceFromPressure(line(calibration), Math.max(0, record.final_pressure_mpa - HALF_GRADUATION_MPA)),
+      );
       usedCalibrations.push({ recordId: record.id, equipmentSet: set.name, ...calibration });
     }
     if (record.wire_breaks > 0) {
