@@ -4,6 +4,7 @@ import type { Database, Decision, FlagKind, FlagStatus, ReviewKind } from "@/db/
 import { ENGINE_VERSION } from "@/lib/elongation";
 import { AppError } from "@/lib/errors";
 import type { StoredResolution } from "@/lib/stressing/display";
+import { findFlagTrail } from "./find-flag-trail";
 import { listTendonResults, type TendonResult } from "./list-tendon-results";
 
 /**
@@ -65,7 +66,14 @@ export interface PourReport {
     jackSerial: string;
     gaugeSerial: string;
     pumpSerial: string | null;
-    calibrations: { calibratedOn: string; validUntil: string; slope: number; intercept: number; r2: number; laboratory: string | null }[];
+    calibrations: {
+      calibratedOn: string;
+      validUntil: string;
+      slope: number;
+      intercept: number;
+      r2: number;
+      laboratory: string | null;
+    }[];
   }[];
   strandLots: { lotNumber: string; strandSize: string; areaMm2: number; modulusMPa: number; breakingLoadN: number }[];
   tendons: TendonResult[];
@@ -75,7 +83,10 @@ export interface PourReport {
 
 const asDay = (d: Date | string) => (typeof d === "string" ? d.slice(0, 10) : d.toISOString().slice(0, 10));
 
-export async function getPourReport(db: Kysely<Database>, input: { projectId: string; pourId: string }): Promise<PourReport> {
+export async function getPourReport(
+  db: Kysely<Database>,
+  input: { projectId: string; pourId: string },
+): Promise<PourReport> {
   const project = await db.selectFrom("projects").selectAll().where("id", "=", input.projectId).executeTakeFirst();
   const pour = await db
     .selectFrom("pours")
@@ -85,52 +96,9 @@ export async function getPourReport(db: Kysely<Database>, input: { projectId: st
     .executeTakeFirst();
   if (!project || !pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
 
-  const [tendons, flags, reviews, dispositions, release] = await Promise.all([
+  const [tendons, { flags, reviews, dispositions }, release] = await Promise.all([
     listTendonResults(db, input),
-    db
-      .selectFrom("flags")
-      .innerJoin("tendons", "tendons.id", "flags.tendon_id")
-      .leftJoin("users", "users.id", "flags.closed_by")
-      .select([
-        "flags.id",
-        "tendons.tag",
-        "flags.kind",
-        "flags.reason",
-        "flags.status",
-        "flags.created_at",
-        "flags.closed_at",
-        "flags.close_reason",
-        "users.name as closedBy",
-      ])
-      .where("flags.project_id", "=", input.projectId)
-      .where("flags.pour_id", "=", input.pourId)
-      .orderBy("tendons.tag")
-      .orderBy("flags.created_at")
-      .execute(),
-    db
-      .selectFrom("reviews")
-      .innerJoin("flags", "flags.id", "reviews.flag_id")
-      .innerJoin("users", "users.id", "reviews.author_user_id")
-      .select(["reviews.flag_id", "reviews.kind", "reviews.body", "reviews.created_at", "users.name as author"])
-      .where("reviews.project_id", "=", input.projectId)
-      .where("flags.pour_id", "=", input.pourId)
-      .orderBy("reviews.created_at")
-      .execute(),
-    db
-      .selectFrom("dispositions")
-      .innerJoin("flags", "flags.id", "dispositions.flag_id")
-      .select([
-        "dispositions.flag_id",
-        "dispositions.decision",
-        "dispositions.reasons",
-        "dispositions.engineer_name",
-        "dispositions.licence_statement",
-        "dispositions.created_at",
-      ])
-      .where("dispositions.project_id", "=", input.projectId)
-      .where("flags.pour_id", "=", input.pourId)
-      .orderBy("dispositions.created_at")
-      .execute(),
+    findFlagTrail(db, { projectId: input.projectId, pourId: input.pourId }),
     db
       .selectFrom("releases")
       .select(["released_by_name", "statement", "created_at"])
@@ -155,7 +123,15 @@ export async function getPourReport(db: Kysely<Database>, input: { projectId: st
     setIds.length
       ? db
           .selectFrom("calibrations")
-          .select(["equipment_set_id", "calibrated_on", "valid_until", "slope_n_per_mpa", "intercept_n", "r2", "laboratory"])
+          .select([
+            "equipment_set_id",
+            "calibrated_on",
+            "valid_until",
+            "slope_n_per_mpa",
+            "intercept_n",
+            "r2",
+            "laboratory",
+          ])
           .where("project_id", "=", input.projectId)
           .where("equipment_set_id", "in", setIds)
           .orderBy("calibrated_on")
@@ -237,7 +213,7 @@ export async function getPourReport(db: Kysely<Database>, input: { projectId: st
       status: f.status,
       raisedAt: new Date(f.created_at),
       closedAt: f.closed_at ? new Date(f.closed_at) : null,
-      closedBy: f.closedBy,
+      closedBy: f.closedByName,
       closeReason: f.close_reason,
       reviews: reviews
         .filter((r) => r.flag_id === f.id)
@@ -252,6 +228,8 @@ export async function getPourReport(db: Kysely<Database>, input: { projectId: st
           at: new Date(d.created_at),
         })),
     })),
-    release: release ? { byName: release.released_by_name, at: new Date(release.created_at), statement: release.statement } : null,
+    release: release
+      ? { byName: release.released_by_name, at: new Date(release.created_at), statement: release.statement }
+      : null,
   };
 }

@@ -3,6 +3,7 @@ import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { forceProfile, segmentBeta, type ForceProfile } from "@/lib/elongation";
 import { predictTendon, type TendonPrediction } from "@/lib/stressing/basis";
+import { findFlagTrail } from "./find-flag-trail";
 import { loadTendonBasis, type LoadedTendon } from "./load-tendon-basis";
 
 /**
@@ -13,7 +14,7 @@ import { loadTendonBasis, type LoadedTendon } from "./load-tendon-basis";
 export async function getTendonCase(db: Kysely<Database>, input: { projectId: string; tendonId: string }) {
   const basis: LoadedTendon = await loadTendonBasis(db, input);
 
-  const [records, evaluation, flags, reviews, dispositions, photos, release] = await Promise.all([
+  const [records, evaluation, { flags, reviews, dispositions }, photos, release] = await Promise.all([
     db
       .selectFrom("records")
       .innerJoin("users", "users.id", "records.author_user_id")
@@ -51,49 +52,7 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
       .orderBy("created_at", "desc")
       .limit(1)
       .executeTakeFirst(),
-    db
-      .selectFrom("flags")
-      .leftJoin("users", "users.id", "flags.closed_by")
-      .select([
-        "flags.id",
-        "flags.kind",
-        "flags.reason",
-        "flags.status",
-        "flags.created_at",
-        "flags.closed_at",
-        "flags.close_reason",
-        "flags.record_id",
-        "users.name as closedByName",
-      ])
-      .where("flags.project_id", "=", input.projectId)
-      .where("flags.tendon_id", "=", input.tendonId)
-      .orderBy("flags.created_at")
-      .execute(),
-    db
-      .selectFrom("reviews")
-      .innerJoin("users", "users.id", "reviews.author_user_id")
-      .innerJoin("flags", "flags.id", "reviews.flag_id")
-      .select([
-        "reviews.id",
-        "reviews.flag_id",
-        "reviews.kind",
-        "reviews.body",
-        "reviews.remeasured_mm",
-        "reviews.attachment_id",
-        "reviews.created_at",
-        "users.name as author",
-      ])
-      .where("reviews.project_id", "=", input.projectId)
-      .where("flags.tendon_id", "=", input.tendonId)
-      .orderBy("reviews.created_at")
-      .execute(),
-    db
-      .selectFrom("dispositions")
-      .select(["id", "flag_id", "decision", "reasons", "engineer_name", "licence_statement", "created_at"])
-      .where("project_id", "=", input.projectId)
-      .where("tendon_id", "=", input.tendonId)
-      .orderBy("created_at")
-      .execute(),
+    findFlagTrail(db, input),
     db
       .selectFrom("attachments")
       .innerJoin("records", "records.id", "attachments.record_id")
