@@ -22,7 +22,8 @@ const count = async (pour: string) => Number((await t.db.selectFrom("tendons").s
 
 beforeAll(async () => {
   t = await createTestDatabase({ migrate: true });
-  await seedDemo(t.db);
+  // Fixed dates below are read against the demo seeded as on 2026-12-01.
+  await seedDemo(t.db, { today: new Date("2026-12-01T12:00:00Z") });
   ayp = (await t.db.selectFrom("projects").select("id").where("code", "=", "AYP").executeTakeFirstOrThrow()).id;
   qhm = (await t.db.selectFrom("projects").select("id").where("code", "=", "QHM").executeTakeFirstOrThrow()).id;
   adminId = (await t.db.selectFrom("users").select("id").where("email", "=", "admin@demo.tautline.test").executeTakeFirstOrThrow()).id;

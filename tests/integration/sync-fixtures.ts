@@ -31,7 +31,8 @@ async function pusher(db: Db, email: string): Promise<Pusher & { email: string }
 }
 
 export async function buildWorld(db: Db): Promise<SyncWorld> {
-  await seedDemo(db);
+  // The fixed dates of these tests are read against the demo seeded as on 2026-12-01.
+  await seedDemo(db, { today: new Date("2026-12-01T12:00:00Z") });
   const project = await db.selectFrom("projects").selectAll().where("code", "=", "AYP").executeTakeFirstOrThrow();
   const pour = await db.selectFrom("pours").select("id").where("project_id", "=", project.id).where("name", "=", "L2 Pour 1").executeTakeFirstOrThrow();
   const tendons = await db.selectFrom("tendons").select(["id", "tag", "ends"]).where("pour_id", "=", pour.id).orderBy("tag").execute();

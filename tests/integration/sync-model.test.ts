@@ -125,11 +125,14 @@ async function checkServer(model: Model, tablet: Tablet) {
   return rows;
 }
 
+// Stressing times inside the demo's calibration period (seeded as on 2026-12-01), one minute apart.
+let stressedAt = Date.parse("2026-12-02T14:00:00Z");
+
 class CreateCmd implements Cmd {
   constructor(readonly tendon: number) {}
   check = () => true;
   async run(model: Model, tablet: Tablet) {
-    const { recordId, payload } = recordPayload(w, w.tendons[this.tendon]!.id, {}, { deviceTime: new Date().toISOString() });
+    const { recordId, payload } = recordPayload(w, w.tendons[this.tendon]!.id, {}, { deviceTime: new Date((stressedAt += 60_000)).toISOString() });
     await saveRecord(tablet.db, { recordId, payload, authorName: "Crew", local: null });
     model.records.set(recordId, { chainId: recordId, revision: 1 });
     model.heads.set(recordId, recordId);
