@@ -1,6 +1,6 @@
 import { expect, test } from "@playwright/test";
 import { screenshot } from "./support";
-import { PEOPLE, apiAs, lastMailId, latestMailTo, linkIn, signInWithPassword } from "./people";
+import { PEOPLE, apiAs, lastMailId, latestMailTo, linkIn, queryDemo, signInWithPassword } from "./people";
 
 const NAV_BY_PERSON = {
   crew: ["Today", "Field log"],
@@ -148,4 +148,28 @@ test("a password reset by e-mail sets a new password that then signs in", async 
   await signInWithPassword(page, email, "second-password-456");
   await expect(page).toHaveURL(/\/home$/);
   await admin.dispose();
+});
+
+test("after ten wrong passwords the account pauses, with the same words as any failure", async () => {
+  const email = `paused-${Date.now()}@demo.tautline.test`;
+  const admin = await apiAs(PEOPLE.admin);
+  const me = (await (await admin.get("/api/me")).json()) as { memberships: { projectId: string; projectCode: string }[] };
+  const projectId = me.memberships.find((m) => m.projectCode === "AYP")!.projectId;
+  const before = await lastMailId();
+  await admin.post(`/api/projects/${projectId}/invitations`, { data: { email, role: "crew" } });
+  const token = linkIn(await latestMailTo(email, before), "/invite/").split("/invite/")[1];
+  await admin.post("/api/invitations/accept", { data: { token, name: "Paused Person", password: "the-right-password-1" } });
+  await admin.dispose();
+
+  // Ten failures are allowed; the account limit is 10 in 15 minutes (lib/auth/rate-limit.ts).
+  for (let i = 0; i < 10; i++) {
+    await expect(apiAs(email, `wrong-password-${i}`)).rejects.toThrow(/answered 401|did not give a session/);
+  }
+  // Now even the right password is refused, with the same answer as a wrong one.
+  await expect(apiAs(email, "the-right-password-1")).rejects.toThrow(/answered 401|did not give a session/);
+  const [paused] = await queryDemo<{ n: number }>(
+    "select count(*)::int as n from audit_events where actor_email = $1 and action = 'sign-in.password' and outcome = 'denied'",
+    [email],
+  );
+  expect(paused!.n).toBe(1);
 });
