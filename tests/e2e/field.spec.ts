@@ -52,7 +52,13 @@ async function shoot(page: Page, name: string) {
   await screenshot(page, name);
 }
 
-async function logTendon(page: Page, t: Plan["tendons"][number], finalPsi: string, shot?: string) {
+// A 1×1 PNG standing in for the tablet camera's gauge photo.
+const GAUGE_PHOTO = Buffer.from(
+  "iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8BQDwAEhQGAhKmMIQAAAABJRU5ErkJggg==",
+  "base64",
+);
+
+async function logTendon(page: Page, t: Plan["tendons"][number], finalPsi: string, shot?: string, photo = false) {
   await page.getByLabel("Find a tendon by tag").fill(t.tag);
   await page.getByTestId("tendon-row").filter({ hasText: t.tag }).click();
   await expect(page.getByTestId("selected-tag")).toHaveText(t.tag);
@@ -60,6 +66,10 @@ async function logTendon(page: Page, t: Plan["tendons"][number], finalPsi: strin
   await page.getByLabel(/Final gauge pressure/).fill(finalPsi);
   await page.getByLabel(/Mark before/).fill("0");
   await page.getByLabel(/Mark after/).fill(t.after);
+  if (photo) {
+    await page.locator('input[type="file"]').setInputFiles({ name: "gauge.png", mimeType: "image/png", buffer: GAUGE_PHOTO });
+    await expect(page.getByRole("img", { name: "Photo to keep with this record" })).toHaveCount(1);
+  }
   if (shot) await shoot(page, shot);
   await page.getByRole("button", { name: "Save record" }).click();
   await expect(page.getByTestId("verdict").locator("[data-verdict]").first()).toContainText(t.verdict);
@@ -88,7 +98,7 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
   await context.setOffline(true);
   await ready.getByRole("link", { name: "Open tendon list" }).click();
   await expect(page.getByTestId("connection")).toHaveText("No signal");
-  for (const [i, t] of p.tendons.entries()) await logTendon(page, t, p.finalPsi, i === 0 ? "field-form-offline-landscape" : undefined);
+  for (const [i, t] of p.tendons.entries()) await logTendon(page, t, p.finalPsi, i === 0 ? "field-form-offline-landscape" : undefined, i === 0);
   await expect(page.getByTestId("pending-count")).toContainText("3 records");
   await expect(page.getByRole("alert").filter({ hasText: "Out of band" })).toHaveCount(0); // the last one logged is in band
   await shoot(page, "field-log-offline-landscape");
@@ -131,6 +141,19 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
       p.tendons.map((t) => t.id),
     ]);
     expect(ops.rows[0]!.n).toBe(3);
+    // The gauge photo follows its record: uploaded, checked by content and stored once.
+    await expect
+      .poll(
+        async () =>
+          (
+            await client.query<{ n: number }>(
+              "select count(*)::int as n from attachments where purpose = 'record_photo' and status = 'stored' and sha256 is not null and record_id in (select id from records where tendon_id = $1)",
+              [p.tendons[0]!.id],
+            )
+          ).rows[0]!.n,
+        { timeout: 30_000 },
+      )
+      .toBe(1);
   } finally {
     await client.end();
   }

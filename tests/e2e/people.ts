@@ -43,13 +43,21 @@ interface CaughtMail {
   html: string;
 }
 
-/** Waits for the newest message to an address in the local mail fake and returns it. */
-export async function latestMailTo(address: string, after = 0, timeoutMs = 15_000): Promise<CaughtMail> {
+/**
+ * Waits for the newest message to an address in the local mail fake (that `match` accepts, when
+ * given: other specs' e-mails can arrive in between) and returns it.
+ */
+export async function latestMailTo(
+  address: string,
+  after = 0,
+  timeoutMs = 15_000,
+  match: (mail: CaughtMail) => boolean = () => true,
+): Promise<CaughtMail> {
   const deadline = Date.now() + timeoutMs;
   while (Date.now() < deadline) {
     const res = await fetch(`${INBOX_URL}/api/messages?to=${encodeURIComponent(address)}`);
     const list = (await res.json()) as CaughtMail[];
-    const newest = list.filter((m) => m.id > after).at(-1);
+    const newest = list.filter((m) => m.id > after && match(m)).at(-1);
     if (newest) return newest;
     await new Promise((r) => setTimeout(r, 250));
   }
