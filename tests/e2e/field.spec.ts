@@ -158,3 +158,46 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
     await client.end();
   }
 });
+
+test("a tablet whose sign-in ran out keeps what it holds and sends it once the crew signs in again", async ({ page, context }) => {
+  test.setTimeout(120_000);
+  const p = await plan();
+  const t = p.tendons[0]!;
+
+  await signInWithPassword(page, PEOPLE.crew);
+  await page.waitForURL(/\/home/);
+  await page.goto("/field");
+  await page.getByTestId("available-pour").filter({ hasText: POUR }).getByRole("button").click();
+  const ready = page.getByTestId("ready-pour").filter({ hasText: POUR });
+  await expect(ready.getByTestId("ready-offline")).toBeVisible();
+  await ready.getByRole("link", { name: "Open tendon list" }).click();
+  await context.setOffline(true);
+  await logTendon(page, t, p.finalPsi);
+
+  // The session ends while the tablet is out of signal; when the signal comes back the push is refused.
+  await context.clearCookies();
+  await context.setOffline(false);
+  await page.getByRole("button", { name: "Sync now" }).click();
+  await expect(page.getByRole("alert").filter({ hasText: "You are signed out" })).toBeVisible();
+  await expect(page.getByTestId("pending-count")).toContainText("1 record");
+  await shoot(page, "field-signed-out");
+
+  const count = async () => {
+    const client = new pg.Client({ connectionString: process.env.DATABASE_URL });
+    await client.connect();
+    try {
+      return (await client.query<{ n: number }>("select count(*)::int as n from records where tendon_id = $1", [t.id])).rows[0]!.n;
+    } finally {
+      await client.end();
+    }
+  };
+  expect(await count()).toBe(0);
+
+  // Signed in again, the tablet sends what it kept, once.
+  await signInWithPassword(page, PEOPLE.crew);
+  await page.waitForURL(/\/home/);
+  await page.goto("/field");
+  await page.getByRole("button", { name: "Sync now" }).click();
+  await expect(page.getByTestId("pending-count")).toContainText("0 records", { timeout: 20_000 });
+  await expect.poll(count, { timeout: 10_000 }).toBe(1);
+});
