@@ -1,22 +1,19 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { useState } from "react";
 import { FieldError, FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
+import { useApiCall } from "@/lib/client/use-api-call";
 
 export function RequestResetForm() {
-  const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
-  const [fields, setFields] = useState<Record<string, string[]>>({});
+  const { message, fields, call } = useApiCall();
   return (
     <form
       className="space-y-5"
       onSubmit={async (e) => {
         e.preventDefault();
         const email = String(new FormData(e.currentTarget).get("email") ?? "");
-        const result = await sendJson<{ message: string }>("POST", "/api/password-reset", { email });
-        setFields(result.ok ? {} : (result.error.fields ?? {}));
-        setMessage(result.ok ? { tone: "info", text: result.data.message } : { tone: "error", text: result.error.message });
+        await call(sendJson<{ message: string }>("POST", "/api/password-reset", { email }), (data) => data.message);
       }}
     >
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
@@ -36,21 +33,18 @@ export function RequestResetForm() {
 
 export function NewPasswordForm({ token }: { token: string }) {
   const router = useRouter();
-  const [error, setError] = useState<string>();
-  const [fields, setFields] = useState<Record<string, string[]>>({});
+  const { message, fields, call } = useApiCall();
   return (
     <form
       className="space-y-5"
       onSubmit={async (e) => {
         e.preventDefault();
         const password = String(new FormData(e.currentTarget).get("password") ?? "");
-        const result = await sendJson("POST", "/api/password-reset/complete", { token, password });
-        if (result.ok) return router.push("/sign-in?reset=done");
-        setError(result.error.message);
-        setFields(result.error.fields ?? {});
+        const result = await call(sendJson("POST", "/api/password-reset/complete", { token, password }));
+        if (result.ok) router.push("/sign-in?reset=done");
       }}
     >
-      <FormMessage tone="error">{error}</FormMessage>
+      <FormMessage tone="error">{message?.text}</FormMessage>
       <div>
         <label htmlFor="password" className="field-label">
           New password (10 characters or more)

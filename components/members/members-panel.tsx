@@ -1,11 +1,11 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { useState } from "react";
 import { FieldError, FormMessage } from "@/components/ui/form-message";
 import type { Role } from "@/db/types";
 import { ROLE_LABELS, ROLES } from "@/lib/auth/permissions";
 import { sendJson } from "@/lib/client/send-json";
+import { useApiCall } from "@/lib/client/use-api-call";
 
 interface Member {
   userId: string;
@@ -24,21 +24,13 @@ interface Invitation {
 
 export function MembersPanel(props: { projectId: string; currentUserId: string; members: Member[]; invitations: Invitation[] }) {
   const router = useRouter();
-  const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
-  const [fields, setFields] = useState<Record<string, string[]>>({});
+  const { message, fields, call } = useApiCall();
   const base = `/api/projects/${props.projectId}`;
 
-  async function run(call: ReturnType<typeof sendJson>, done: string) {
-    const result = await call;
-    if (!result.ok) {
-      setMessage({ tone: "error", text: result.error.message });
-      setFields(result.error.fields ?? {});
-      return false;
-    }
-    setFields({});
-    setMessage({ tone: "info", text: done });
-    router.refresh();
-    return true;
+  async function run(request: ReturnType<typeof sendJson>, done: string) {
+    const result = await call(request, done);
+    if (result.ok) router.refresh();
+    return result.ok;
   }
 
   return (

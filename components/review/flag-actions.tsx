@@ -4,6 +4,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { FieldError, FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
+import { useApiCall } from "@/lib/client/use-api-call";
 import { DECISION_LABELS, DECISIONS } from "@/lib/schemas/review";
 
 interface OpenFlag {
@@ -11,24 +12,14 @@ interface OpenFlag {
   label: string;
 }
 
+/** A POST to a route handler; the page is read again when it succeeds. */
 function useSubmit() {
   const router = useRouter();
-  const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
-  const [fields, setFields] = useState<Record<string, string[]>>({});
-  const [busy, setBusy] = useState(false);
+  const { message, fields, busy, call } = useApiCall();
   async function submit(url: string, body: unknown, done: string): Promise<boolean> {
-    setBusy(true);
-    const result = await sendJson("POST", url, body);
-    setBusy(false);
-    if (!result.ok) {
-      setMessage({ tone: "error", text: result.error.message });
-      setFields(result.error.fields ?? {});
-      return false;
-    }
-    setFields({});
-    setMessage({ tone: "info", text: done });
-    router.refresh();
-    return true;
+    const result = await call(sendJson("POST", url, body), done);
+    if (result.ok) router.refresh();
+    return result.ok;
   }
   return { message, fields, busy, submit };
 }

@@ -1,15 +1,14 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { useState } from "react";
 import { FieldError, FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
+import { useApiCall } from "@/lib/client/use-api-call";
 
 /** Release of one pour for tail cutting or grouting; refused by the server while anything is open. */
 export function ReleaseForm({ projectId, pourId, pourName }: { projectId: string; pourId: string; pourName: string }) {
   const router = useRouter();
-  const [error, setError] = useState<string>();
-  const [fields, setFields] = useState<Record<string, string[]>>({});
+  const { message, fields, call } = useApiCall();
   return (
     <form
       className="mt-3 space-y-3"
@@ -17,16 +16,11 @@ export function ReleaseForm({ projectId, pourId, pourName }: { projectId: string
       onSubmit={async (e) => {
         e.preventDefault();
         const statement = String(new FormData(e.currentTarget).get("statement") ?? "");
-        const result = await sendJson("POST", `/api/projects/${projectId}/pours/${pourId}/release`, { statement });
-        if (!result.ok) {
-          setError(result.error.message);
-          setFields(result.error.fields ?? {});
-          return;
-        }
-        router.refresh();
+        const result = await call(sendJson("POST", `/api/projects/${projectId}/pours/${pourId}/release`, { statement }));
+        if (result.ok) router.refresh();
       }}
     >
-      <FormMessage tone="error">{error}</FormMessage>
+      <FormMessage tone="error">{message?.text}</FormMessage>
       <div>
         <label htmlFor={`statement-${pourId}`} className="field-label">
           Release statement

@@ -1,7 +1,7 @@
 import { ReleaseForm } from "@/components/review/release-card";
 import type { ReleaseCandidate } from "@/lib/server/find-release-candidates";
 
-export function ReleaseList({ pours, canRelease }: { pours: ReleaseCandidate[]; canRelease: (projectId: string) => boolean }) {
+export function ReleaseList({ pours, canRelease }: { pours: ReleaseCandidate[]; canRelease: (pour: ReleaseCandidate) => boolean }) {
   if (!pours.length) return <p className="card">No pour is waiting on you.</p>;
   return (
     <ul className="grid gap-4 md:grid-cols-2">
@@ -25,7 +25,7 @@ export function ReleaseList({ pours, canRelease }: { pours: ReleaseCandidate[]; 
                   {p.tendonCount} tendons · {openTendons.length} with open flags · {p.blockers.unstressed.length} with ends not recorded
                 </p>
                 {openTendons.length > 0 && <p className="mt-1 text-ink-soft">Open flags on {openTendons.slice(0, 8).join(", ")}{openTendons.length > 8 ? "…" : ""}</p>}
-                {clear && canRelease(p.projectId) ? (
+                {clear && canRelease(p) ? (
                   <ReleaseForm projectId={p.projectId} pourId={p.pourId} pourName={p.pourName} />
                 ) : (
                   <p className="mt-2 font-semibold">{clear ? "Ready; released by the role the project names." : "Cannot be released yet."}</p>

@@ -18,19 +18,31 @@ async function assertAnotherAdminRemains(db: Kysely<Database>, projectId: string
   }
 }
 
+/**
+ * Locks one membership row for the rest of the transaction; a membership leaving the admin role
+ * must leave another admin behind.
+ */
+async function lockMembership(
+  trx: Kysely<Database>,
+  input: { projectId: string; userId: string },
+): Promise<{ role: Role }> {
+  const current = await trx
+    .selectFrom("project_members")
+    .select("role")
+    .where("project_id", "=", input.projectId)
+    .where("user_id", "=", input.userId)
+    .forUpdate()
+    .executeTakeFirst();
+  if (!current) throw new AppError("NOT_FOUND", "This person is not on the project.");
+  return current;
+}
+
 export async function changeMemberRole(
   db: Db,
   input: { projectId: string; userId: string; role: Role; by: string },
 ): Promise<void> {
   await db.transaction().execute(async (trx) => {
-    const current = await trx
-      .selectFrom("project_members")
-      .select("role")
-      .where("project_id", "=", input.projectId)
-      .where("user_id", "=", input.userId)
-      .forUpdate()
-      .executeTakeFirst();
-    if (!current) throw new AppError("NOT_FOUND", "This person is not on the project.");
+    const current = await lockMembership(trx, input);
     if (current.role === input.role) return;
     if (current.role === "admin") await assertAnotherAdminRemains(trx, input.projectId, input.userId);
     await trx
@@ -52,14 +64,7 @@ export async function changeMemberRole(
 
 export async function removeMember(db: Db, input: { projectId: string; userId: string; by: string }): Promise<void> {
   await db.transaction().execute(async (trx) => {
-    const current = await trx
-      .selectFrom("project_members")
-      .select("role")
-      .where("project_id", "=", input.projectId)
-      .where("user_id", "=", input.userId)
-      .forUpdate()
-      .executeTakeFirst();
-    if (!current) throw new AppError("NOT_FOUND", "This person is not on the project.");
+    const current = await lockMembership(trx, input);
     if (current.role === "admin") await assertAnotherAdminRemains(trx, input.projectId, input.userId);
     await trx
       .deleteFrom("project_members")

@@ -8,6 +8,8 @@ export interface ReleaseCandidate {
   projectName: string;
   pourId: string;
   pourName: string;
+  /** Who releases this project's pours (the project's rule). */
+  releaseBy: "engineer" | "inspector";
   tendonCount: number;
   blockers: ReleaseBlockers;
   releasedBy: string | null;
@@ -26,6 +28,7 @@ export async function findReleaseCandidates(db: Kysely<Database>, projectIds: st
       "pours.name",
       "pours.project_id",
       "projects.name as projectName",
+      "projects.release_by",
       "releases.released_by_name",
       "releases.created_at as releasedAt",
       (eb) =>
@@ -46,6 +49,7 @@ export async function findReleaseCandidates(db: Kysely<Database>, projectIds: st
       projectName: p.projectName,
       pourId: p.id,
       pourName: p.name,
+      releaseBy: p.release_by,
       tendonCount: Number(p.tendonCount ?? 0),
       blockers: p.released_by_name ? { openFlags: [], unstressed: [] } : await findReleaseBlockers(db, { projectId: p.project_id, pourId: p.id }),
       releasedBy: p.released_by_name,

@@ -13,7 +13,6 @@ export default async function DecisionsPage() {
   const user = await getSessionUser();
   if (!user) redirect("/sign-in");
   const projectIds = user.memberships.filter((m) => m.role === "engineer").map((m) => m.projectId);
-  const releaseRule = await db.selectFrom("projects").select(["id", "release_by"]).where("id", "in", projectIds.length ? projectIds : ["00000000-0000-4000-8000-000000000000"]).execute();
   const [waiting, pours] = await Promise.all([
     findFlags(db, { projectIds, filter: { status: "any_open" } }),
     findReleaseCandidates(db, projectIds),
@@ -31,7 +30,7 @@ export default async function DecisionsPage() {
         <h2 id="release-heading" className="text-lead font-bold">
           Pours and their release
         </h2>
-        <ReleaseList pours={pours} canRelease={(id) => releaseRule.find((r) => r.id === id)?.release_by === "engineer"} />
+        <ReleaseList pours={pours} canRelease={(pour) => pour.releaseBy === "engineer"} />
       </section>
       <Caution />
     </main>

@@ -29,10 +29,7 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
   const pours = [...new Map(tendons.map((t) => [t.pourId, t.pourName])).entries()];
   // On projects whose rule gives the release to the inspector, the pours to release are here too.
   const inspectorProjects = projects.filter((p) => p.role === "inspector").map((p) => p.projectId);
-  const releasing = inspectorProjects.length
-    ? await db.selectFrom("projects").select("id").where("id", "in", inspectorProjects).where("release_by", "=", "inspector").execute()
-    : [];
-  const releasable = await findReleaseCandidates(db, releasing.map((r) => r.id));
+  const releasable = (await findReleaseCandidates(db, inspectorProjects)).filter((p) => p.releaseBy === "inspector");
 
   return (
     <main className="space-y-6">
