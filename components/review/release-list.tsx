@@ -7,7 +7,7 @@ export function ReleaseList({ pours, canRelease }: { pours: ReleaseCandidate[]; 
     <ul className="grid gap-4 md:grid-cols-2">
       {pours.map((p) => {
         const openTendons = [...new Set(p.blockers.openFlags.map((f) => f.tendonTag))];
-        const clear = !openTendons.length && !p.blockers.unstressed.length;
+        const clear = !p.blockers.noSchedule && !openTendons.length && !p.blockers.unstressed.length;
         return (
           <li key={p.pourId} className="card" data-pour={p.pourName}>
             <p className="text-label uppercase text-ink-faint">{p.projectName}</p>
@@ -24,6 +24,7 @@ export function ReleaseList({ pours, canRelease }: { pours: ReleaseCandidate[]; 
                 <p className="mt-2">
                   {p.tendonCount} tendons · {openTendons.length} with open flags · {p.blockers.unstressed.length} with ends not recorded
                 </p>
+                {p.blockers.noSchedule && <p className="mt-1 text-ink-soft">No tendon schedule yet: nothing to release.</p>}
                 {openTendons.length > 0 && <p className="mt-1 text-ink-soft">Open flags on {openTendons.slice(0, 8).join(", ")}{openTendons.length > 8 ? "…" : ""}</p>}
                 {clear && canRelease(p) ? (
                   <ReleaseForm projectId={p.projectId} pourId={p.pourId} pourName={p.pourName} />

@@ -7,6 +7,8 @@ import { inTransaction } from "./in-transaction";
 import { recordAudit } from "./record-audit";
 
 export interface ReleaseBlockers {
+  /** A pour without a tendon schedule has nothing to release. */
+  noSchedule: boolean;
   openFlags: { tendonTag: string; kind: string }[];
   unstressed: { tendonTag: string; missingEnds: string[] }[];
 }
@@ -47,7 +49,7 @@ export async function findReleaseBlockers(
       missingEnds: stressedEnds(t.ends).filter((e) => !ends.some((r) => r.tendon_id === t.id && r.tendon_end === e)),
     }))
     .filter((t) => t.missingEnds.length > 0);
-  return { openFlags, unstressed };
+  return { noSchedule: tendons.length === 0, openFlags, unstressed };
 }
 
 /**
@@ -76,6 +78,7 @@ export async function releasePour(
     }
     if (pour.status === "released") throw new AppError("CONFLICT", "This pour is already released.");
     const blockers = await findReleaseBlockers(trx, input);
+    if (blockers.noSchedule) throw new AppError("CONFLICT", "The pour has no tendon schedule, so there is nothing to release.");
     if (blockers.openFlags.length || blockers.unstressed.length) {
       const parts = [
         blockers.openFlags.length

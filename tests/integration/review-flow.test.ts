@@ -89,6 +89,7 @@ describe("from flag to release", () => {
     const flagId = queue[0]!.flags[0]!.id;
 
     expect(await findReleaseBlockers(t.db, { projectId: fx.projectId, pourId })).toEqual({
+      noSchedule: false,
       openFlags: [{ tendonTag: "R-1", kind: "out_of_band" }],
       unstressed: [],
     });
@@ -163,6 +164,14 @@ describe("from flag to release", () => {
     const flag = await t.db.selectFrom("flags").select("id").where("tendon_id", "=", tendon.id).where("kind", "=", "out_of_band").executeTakeFirstOrThrow();
     const closed = await addReview(t.db, { projectId: fx.projectId, flagId: flag.id, author: people.inspector, review: { kind: "closed_paperwork", body: "Transcription error; corrected revision is in band." } });
     expect(closed.flagStatus).toBe("closed");
+  });
+
+  it("refuses to release a pour with no tendon schedule", async () => {
+    const empty = await t.db.insertInto("pours").values({ project_id: fx.projectId, name: "Empty pour" }).returning("id").executeTakeFirstOrThrow();
+    expect((await findReleaseBlockers(t.db, { projectId: fx.projectId, pourId: empty.id })).noSchedule).toBe(true);
+    await expect(
+      releasePour(t.db, { projectId: fx.projectId, pourId: empty.id, by: { ...people.engineer, role: "engineer" }, statement: "Nothing here to release at all." }),
+    ).rejects.toMatchObject({ code: "CONFLICT", message: expect.stringContaining("no tendon schedule") });
   });
 
   it("keeps dispositions, reviews and releases append-only", async () => {
