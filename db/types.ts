@@ -354,6 +354,12 @@ export interface AppliedOpsTable {
   applied_at: Timestamp;
 }
 
+/** The version of a tendon's stored records, raised by each write that evaluates it. */
+export interface TendonVersionsTable {
+  tendon_id: string;
+  version: number;
+}
+
 /** A deleted row the tablets may hold; change_xid (xid8) is read as text. */
 export interface SyncTombstonesTable {
   id: Generated<number>;
@@ -388,6 +394,7 @@ export interface Database {
   notifications: NotificationsTable;
   applied_ops: AppliedOpsTable;
   sync_tombstones: SyncTombstonesTable;
+  tendon_versions: TendonVersionsTable;
 }
 
 export type User = Selectable<UsersTable>;

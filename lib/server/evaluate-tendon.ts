@@ -1,12 +1,25 @@
 import "server-only";
-import type { Kysely } from "kysely";
-import type { CalibrationsTable, Database, FlagKind, Verdict } from "@/db/types";
+import { randomUUID } from "node:crypto";
+import { sql, type Compilable, type Insertable, type Kysely, type QueryCreator, type RawBuilder } from "kysely";
+import { jsonArrayFrom } from "kysely/helpers/postgres";
+import type {
+  CalibrationsTable,
+  Database,
+  Decision,
+  EvaluationsTable,
+  FlagKind,
+  FlagsTable,
+  NotificationsTable,
+  TendonEnd,
+  Verdict,
+} from "@/db/types";
+import { AppError } from "@/lib/errors";
 import { ENGINE_VERSION, checkStressLimits, findStrandSize, forceFromPressure } from "@/lib/elongation";
 import { env } from "@/lib/env";
 import { flagMail } from "@/lib/mail/templates";
 import { judgeTendon, predictTendon, type CalibrationLine, type EndReading } from "@/lib/stressing/basis";
 import { showForce, showLength, showPct, showPressure } from "@/lib/stressing/display";
-import { loadTendonBasis } from "./load-tendon-basis";
+import { selectTendonBasis, toLoadedTendon, type LoadedTendon } from "./load-tendon-basis";
 
 /**
  * The server's authoritative evaluation of one tendon, run in the caller's transaction (the
@@ -14,6 +27,14 @@ import { loadTendonBasis } from "./load-tendon-basis";
  * stressing, computes on the project's basis, stores the evaluation with every input used,
  * raises flags by rule and queues one e-mail for the new flags, all in that transaction: a
  * replayed sync stores nothing new and so sends nothing twice.
+ *
+ * It is three steps so that the sync push can fold them into its own statements: one query
+ * reads the tendon's state (`selectTendonState`), a pure function decides (`planEvaluation`),
+ * and one statement writes the evaluation, its flags, the e-mail and any closures
+ * (`evaluationWrites`, sent by `writeTogether`). Every write that stores a record and evaluates
+ * raises the tendon's version (`tendon_versions`): here first, which holds the row until the
+ * transaction ends; in the push optimistically, only from the version it read. Two ends stored
+ * at the same moment are so never judged each without the other.
  */
 
 export interface EvaluationOutcome {
@@ -47,51 +68,198 @@ const isoDay = (d: Date | string) => new Date(d).toISOString().slice(0, 10);
 /** Half of a 100 psi gauge graduation, in MPa. */
 const HALF_GRADUATION_MPA = 50 * 0.006894757293168;
 
-export async function evaluateTendon(
-  db: Kysely<Database>,
-  input: { projectId: string; tendonId: string; reason: string },
-): Promise<EvaluationOutcome> {
-  const basis = await loadTendonBasis(db, input);
-  const { project, tendon, pour } = basis;
+const RESTRESS_DECISIONS: Decision[] = ["restress", "detension_restress"];
 
-  const all = await db
-    .selectFrom("records")
-    .selectAll()
-    .where("project_id", "=", input.projectId)
-    .where("tendon_id", "=", input.tendonId)
-    .orderBy("device_time")
-    .orderBy("revision")
-    .execute();
+/** The columns of a stored record that the evaluation reads. */
+export const EVALUATED_RECORD_COLUMNS = [
+  "id",
+  "chain_id",
+  "revision",
+  "tendon_end",
+  "device_time",
+  "received_at",
+  "restress_of_disposition_id",
+  "equipment_set_id",
+  "calibration_id",
+  "expired_calibration_reason",
+  "initial_pressure_mpa",
+  "final_pressure_mpa",
+  "measured_mm",
+  "wire_breaks",
+] as const;
+
+export interface EvaluatedRecord {
+  id: string;
+  chain_id: string;
+  revision: number;
+  tendon_end: TendonEnd;
+  device_time: Date;
+  received_at: Date;
+  restress_of_disposition_id: string | null;
+  equipment_set_id: string;
+  calibration_id: string | null;
+  expired_calibration_reason: string | null;
+  initial_pressure_mpa: number | null;
+  final_pressure_mpa: number;
+  measured_mm: number;
+  wire_breaks: number;
+}
+
+/** A record as it comes out of a JSON aggregate: its instants as text. */
+type RecordJson = Omit<EvaluatedRecord, "device_time" | "received_at"> & {
+  device_time: string | Date;
+  received_at: string | Date;
+};
+
+/** What one evaluation reads about a tendon. */
+export interface TendonState {
+  basis: LoadedTendon;
+  /** Every revision of every record of the tendon, by device time then revision. */
+  records: EvaluatedRecord[];
+  openFlagKinds: FlagKind[];
+  /** The project's equipment sets used on the tendon, one row per calibration (or one with none). */
+  sets: StateRow["sets"];
+  dispositions: { id: string; flag_id: string; decision: Decision; created_at: Date }[];
+  /** The tendon's version as read with the rest (0 before its first record). */
+  version: number;
+}
+
+/**
+ * One query for the whole state of a tendon: its basis, records, open flags, the equipment sets
+ * its records name (and `alsoSetId`, for a record about to be stored) with their calibrations,
+ * its dispositions and its version.
+ */
+export function selectTendonState(
+  qc: QueryCreator<Database>,
+  input: { projectId: string; tendonId: string; alsoSetId?: string },
+) {
+  const { projectId, tendonId } = input;
+  return selectTendonBasis(qc, input).select((eb) => [
+    jsonArrayFrom(
+      eb
+        .selectFrom("records")
+        .select(EVALUATED_RECORD_COLUMNS)
+        .where("records.project_id", "=", projectId)
+        .where("records.tendon_id", "=", tendonId),
+    ).as("records"),
+    jsonArrayFrom(
+      eb
+        .selectFrom("flags")
+        .select("flags.kind")
+        .where("flags.project_id", "=", projectId)
+        .where("flags.tendon_id", "=", tendonId)
+        .where("flags.status", "!=", "closed"),
+    ).as("openFlags"),
+    jsonArrayFrom(
+      eb
+        .selectFrom("equipment_sets")
+        .leftJoin("calibrations", (j) =>
+          j
+            .onRef("calibrations.equipment_set_id", "=", "equipment_sets.id")
+            .onRef("calibrations.project_id", "=", "equipment_sets.project_id"),
+        )
+        .select([
+          "equipment_sets.id as setId",
+          "equipment_sets.name",
+          "equipment_sets.jack_grip_mm",
+          "calibrations.id",
+          "calibrations.calibrated_on",
+          "calibrations.valid_until",
+          "calibrations.slope_n_per_mpa",
+          "calibrations.intercept_n",
+          "calibrations.min_pressure_mpa",
+          "calibrations.max_pressure_mpa",
+        ])
+        .where("equipment_sets.project_id", "=", projectId)
+        .where((w) =>
+          w.or([
+            w(
+              "equipment_sets.id",
+              "in",
+              w
+                .selectFrom("records")
+                .select("records.equipment_set_id")
+                .where("records.project_id", "=", projectId)
+                .where("records.tendon_id", "=", tendonId),
+            ),
+            ...(input.alsoSetId ? [w("equipment_sets.id", "=", input.alsoSetId)] : []),
+          ]),
+        ),
+    ).as("sets"),
+    jsonArrayFrom(
+      eb
+        .selectFrom("dispositions")
+        .select(["dispositions.id", "dispositions.flag_id", "dispositions.decision", "dispositions.created_at"])
+        .where("dispositions.project_id", "=", projectId)
+        .where("dispositions.tendon_id", "=", tendonId),
+    ).as("dispositions"),
+    eb
+      .selectFrom("tendon_versions")
+      .select("tendon_versions.version")
+      .where("tendon_versions.tendon_id", "=", tendonId)
+      .as("version"),
+  ]);
+}
+
+type StateRow = Awaited<ReturnType<ReturnType<typeof selectTendonState>["executeTakeFirstOrThrow"]>>;
+
+const asRecord = (r: RecordJson): EvaluatedRecord => ({
+  ...r,
+  device_time: new Date(r.device_time),
+  received_at: new Date(r.received_at),
+});
+
+/** The state from a row of `selectTendonState`, with a record about to be stored added. */
+export function stateFromRow(row: StateRow, adding?: EvaluatedRecord): TendonState {
+  const records = [...(row.records as RecordJson[]).map(asRecord), ...(adding ? [adding] : [])].sort(
+    (a, b) => +a.device_time - +b.device_time || a.revision - b.revision,
+  );
+  return {
+    basis: toLoadedTendon(row),
+    records,
+    openFlagKinds: row.openFlags.map((f) => f.kind),
+    sets: row.sets,
+    dispositions: row.dispositions
+      .map((d) => ({ ...d, created_at: new Date(d.created_at) }))
+      .sort((a, b) => +a.created_at - +b.created_at),
+    version: row.version ?? 0,
+  };
+}
+
+/** What one evaluation will write, and what it answers. */
+export interface EvaluationPlan {
+  outcome: EvaluationOutcome;
+  evaluation: Insertable<EvaluationsTable> & { id: string };
+  flags: (Insertable<FlagsTable> & { id: string })[];
+  notification: Insertable<NotificationsTable> | null;
+  closures: { flagId: string; reason: string }[];
+}
+
+/** Decides the evaluation of a tendon from its state: no database, no clock but the mail's. */
+export function planEvaluation(
+  state: TendonState,
+  input: { projectId: string; tendonId: string; reason: string },
+): EvaluationPlan {
+  const { basis } = state;
+  const { project, tendon, pour } = basis;
+  const all = state.records;
 
   // The head revision of each chain; per end, the chain stressed last is the current one.
-  const heads = new Map<string, (typeof all)[number]>();
+  const heads = new Map<string, EvaluatedRecord>();
   for (const r of all) {
     const seen = heads.get(r.chain_id);
     if (!seen || r.revision > seen.revision) heads.set(r.chain_id, r);
   }
-  const chainsByEnd = { A: [] as (typeof all)[number][], B: [] as (typeof all)[number][] };
+  const chainsByEnd = { A: [] as EvaluatedRecord[], B: [] as EvaluatedRecord[] };
   for (const head of heads.values()) chainsByEnd[head.tendon_end].push(head);
-  for (const list of Object.values(chainsByEnd))
-    list.sort((a, b) => +new Date(a.device_time) - +new Date(b.device_time));
+  for (const list of Object.values(chainsByEnd)) list.sort((a, b) => +a.device_time - +b.device_time);
   const current = (["A", "B"] as const).flatMap((end) => chainsByEnd[end].slice(-1));
 
   // A stressing that reached the server after an engineer ordered a restress answers that
-  // order, whether or not the tablet knew of it (so only when an end was stressed again).
-  const stressedAgain = chainsByEnd.A.length > 1 || chainsByEnd.B.length > 1;
-  const restressOrders = !stressedAgain
-    ? []
-    : await db
-        .selectFrom("dispositions")
-        .select(["id", "created_at"])
-        .where("project_id", "=", input.projectId)
-        .where("tendon_id", "=", input.tendonId)
-        .where("decision", "in", ["restress", "detension_restress"])
-        .orderBy("created_at")
-        .execute();
-  const answeredOrder = (r: (typeof all)[number]): string | null =>
-    r.restress_of_disposition_id ??
-    restressOrders.filter((d) => new Date(d.created_at) < new Date(r.received_at)).at(-1)?.id ??
-    null;
+  // order, whether or not the tablet knew of it.
+  const restressOrders = state.dispositions.filter((d) => RESTRESS_DECISIONS.includes(d.decision));
+  const answeredOrder = (r: EvaluatedRecord): string | null =>
+    r.restress_of_disposition_id ?? restressOrders.filter((d) => d.created_at < r.received_at).at(-1)?.id ?? null;
 
   const findings: Finding[] = [];
   const readings: EndReading[] = [];
@@ -111,32 +279,7 @@ export async function evaluateTendon(
     }
   }
 
-  // The equipment sets of the current records and all their calibrations, in one query.
-  const setIds = [...new Set(current.map((r) => r.equipment_set_id))];
-  const setRows = setIds.length
-    ? await db
-        .selectFrom("equipment_sets")
-        .leftJoin("calibrations", (j) =>
-          j
-            .onRef("calibrations.equipment_set_id", "=", "equipment_sets.id")
-            .onRef("calibrations.project_id", "=", "equipment_sets.project_id"),
-        )
-        .select([
-          "equipment_sets.id as setId",
-          "equipment_sets.name",
-          "equipment_sets.jack_grip_mm",
-          "calibrations.id",
-          "calibrations.calibrated_on",
-          "calibrations.valid_until",
-          "calibrations.slope_n_per_mpa",
-          "calibrations.intercept_n",
-          "calibrations.min_pressure_mpa",
-          "calibrations.max_pressure_mpa",
-        ])
-        .where("equipment_sets.project_id", "=", input.projectId)
-        .where("equipment_sets.id", "in", setIds)
-        .execute()
-    : [];
+  const setRows = state.sets;
   const calibrationsOf = (setId: string): Calibration[] =>
     setRows
       .filter((r): r is typeof r & Calibration => r.setId === setId && r.id !== null)
@@ -267,145 +410,195 @@ export async function evaluateTendon(
     }
   }
 
-  const evaluation = await db
-    .insertInto("evaluations")
-    .values({
-      project_id: input.projectId,
-      tendon_id: input.tendonId,
-      record_ids: current.map((r) => r.id),
-      reason: input.reason,
-      engine_version: ENGINE_VERSION,
-      inputs: JSON.stringify({
-        project,
-        tendon,
-        strand: predicted.strand,
-        lot: basis.lot,
-        jackingForceN: predicted.jackingForceN,
-        gripMm: predicted.gripMm,
-        pour: { id: pour.id, concreteStrengthMpa: pour.concreteStrengthMpa },
-        readings,
-        calibrations: usedCalibrations,
-      }),
-      result: JSON.stringify({
-        prediction: predicted.prediction,
-        predictedMm: predicted.predictedMm,
-        judgement,
-        findings,
-      }),
-      verdict,
-      provisional,
-      deviation_pct: deviationPct,
-      predicted_mm: predicted.predictedMm,
-      measured_mm: measuredMm,
-    })
-    .returning("id")
-    .executeTakeFirstOrThrow();
-
-  // A rule already flagged and still open on this tendon is not raised again.
-  const open = await db
-    .selectFrom("flags")
-    .select(["kind", "record_id"])
-    .where("project_id", "=", input.projectId)
-    .where("tendon_id", "=", input.tendonId)
-    .where("status", "!=", "closed")
-    .execute();
-  const fresh = findings.filter((f) => !open.some((o) => o.kind === f.kind));
-  const unique = fresh.filter((f, i) => fresh.findIndex((g) => g.kind === f.kind) === i);
-
-  const created: { id: string; kind: FlagKind; reason: string }[] = [];
-  for (const f of unique) {
-    const flag = await db
-      .insertInto("flags")
-      .values({
-        project_id: input.projectId,
-        pour_id: pour.id,
-        tendon_id: input.tendonId,
-        record_id: f.recordId,
-        evaluation_id: evaluation.id,
-        kind: f.kind,
-        reason: f.reason,
-      })
-      .returning(["id", "kind", "reason"])
-      .executeTakeFirstOrThrow();
-    created.push(flag);
-  }
-
-  await closeRestressedFlags(db, {
-    projectId: input.projectId,
-    dispositionIds: current.map(answeredOrder).filter((id): id is string => Boolean(id)),
+  const evaluationId = randomUUID();
+  const evaluation: EvaluationPlan["evaluation"] = {
+    id: evaluationId,
+    project_id: input.projectId,
+    tendon_id: input.tendonId,
+    record_ids: current.map((r) => r.id),
+    reason: input.reason,
+    engine_version: ENGINE_VERSION,
+    inputs: JSON.stringify({
+      project,
+      tendon,
+      strand: predicted.strand,
+      lot: basis.lot,
+      jackingForceN: predicted.jackingForceN,
+      gripMm: predicted.gripMm,
+      pour: { id: pour.id, concreteStrengthMpa: pour.concreteStrengthMpa },
+      readings,
+      calibrations: usedCalibrations,
+    }),
+    result: JSON.stringify({
+      prediction: predicted.prediction,
+      predictedMm: predicted.predictedMm,
+      judgement,
+      findings,
+    }),
     verdict,
     provisional,
-    evaluationId: evaluation.id,
-  });
+    deviation_pct: deviationPct,
+    predicted_mm: predicted.predictedMm,
+    measured_mm: measuredMm,
+  };
 
-  if (created.length) {
-    const recipients = [
-      ...new Set([project.engineerOfRecordEmail, ...project.notifyEmails].filter((e): e is string => Boolean(e))),
-    ];
-    if (recipients.length) {
-      const mail = flagMail({
-        to: recipients,
-        projectName: project.name,
-        pourName: pour.name,
-        tendonTag: tendon.tag,
-        flags: created,
-        verdictLine:
-          deviationPct === null
-            ? "No elongation reading yet."
-            : `${verdict}${provisional ? " (provisional: not every end read)" : ""}, ${showPct(deviationPct)}`,
-        basisLine:
-          `${project.comparisonBasis === "net" ? "Net of anchor set" : "Gross at jacking"}, ±${project.tolerancePct} % band, ` +
-          `μ ${project.frictionMu}, K ${project.wobblePerM.toFixed(4)} per m, anchor set ${showLength(project, project.anchorSetMm)}, ` +
-          `${predicted.strand.source === "strand lot" ? `strand lot ${basis.lot?.lotNumber}` : "nominal strand values"}.`,
-        url: `${env.APP_URL}/projects/${input.projectId}/tendons/${input.tendonId}/flags`,
-      });
-      await db
-        .insertInto("notifications")
-        .values({
-          project_id: input.projectId,
-          flag_id: created[0]!.id,
-          dedupe_key: `evaluation:${evaluation.id}`,
-          to_emails: recipients,
-          subject: mail.subject,
-          text_body: mail.text,
-          html_body: mail.html,
-        })
-        .execute();
-    }
+  // A rule already flagged and still open on this tendon is not raised again.
+  const fresh = findings.filter((f) => !state.openFlagKinds.includes(f.kind));
+  const unique = fresh.filter((f, i) => fresh.findIndex((g) => g.kind === f.kind) === i);
+  const flags: EvaluationPlan["flags"] = unique.map((f) => ({
+    id: randomUUID(),
+    project_id: input.projectId,
+    pour_id: pour.id,
+    tendon_id: input.tendonId,
+    record_id: f.recordId,
+    evaluation_id: evaluationId,
+    kind: f.kind,
+    reason: f.reason,
+  }));
+
+  // A restress ordered by a disposition closes the flag it answered once the tendon, evaluated
+  // again with that record, is complete and in band. Out of band again, the rules above raise a
+  // new flag and the old one stays with the engineer.
+  const answered = new Set(current.map(answeredOrder).filter((id): id is string => Boolean(id)));
+  const closures =
+    provisional || verdict !== "in band"
+      ? []
+      : state.dispositions
+          .filter((d) => answered.has(d.id))
+          .map((d) => ({
+            flagId: d.flag_id,
+            reason: `Restressed as ordered by disposition ${d.id}; evaluation ${evaluationId} is in band.`,
+          }));
+
+  let notification: EvaluationPlan["notification"] = null;
+  const recipients = [
+    ...new Set([project.engineerOfRecordEmail, ...project.notifyEmails].filter((e): e is string => Boolean(e))),
+  ];
+  if (flags.length && recipients.length) {
+    const mail = flagMail({
+      to: recipients,
+      projectName: project.name,
+      pourName: pour.name,
+      tendonTag: tendon.tag,
+      flags: flags.map((f) => ({ id: f.id, kind: f.kind, reason: f.reason })),
+      verdictLine:
+        deviationPct === null
+          ? "No elongation reading yet."
+          : `${verdict}${provisional ? " (provisional: not every end read)" : ""}, ${showPct(deviationPct)}`,
+      basisLine:
+        `${project.comparisonBasis === "net" ? "Net of anchor set" : "Gross at jacking"}, ±${project.tolerancePct} % band, ` +
+        `μ ${project.frictionMu}, K ${project.wobblePerM.toFixed(4)} per m, anchor set ${showLength(project, project.anchorSetMm)}, ` +
+        `${predicted.strand.source === "strand lot" ? `strand lot ${basis.lot?.lotNumber}` : "nominal strand values"}.`,
+      url: `${env.APP_URL}/projects/${input.projectId}/tendons/${input.tendonId}/flags`,
+    });
+    notification = {
+      project_id: input.projectId,
+      flag_id: flags[0]!.id,
+      dedupe_key: `evaluation:${evaluationId}`,
+      to_emails: recipients,
+      subject: mail.subject,
+      text_body: mail.text,
+      html_body: mail.html,
+    };
   }
 
-  return { evaluationId: evaluation.id, verdict, provisional, deviationPct, flagKinds: created.map((c) => c.kind) };
+  return {
+    outcome: { evaluationId, verdict, provisional, deviationPct, flagKinds: flags.map((f) => f.kind) },
+    evaluation,
+    flags,
+    notification,
+    closures,
+  };
 }
 
 /**
- * A restress ordered by a disposition closes the flag it answered once the tendon, evaluated
- * again with that record, is complete and in band. Out of band again, the rules above raise a
- * new flag and the old one stays with the engineer.
+ * The writes of a plan: the evaluation, its flags, the e-mail and the closures, to be sent as one
+ * statement by `writeTogether`. The evaluation is stamped with the clock at the write, not the
+ * transaction's start, so that of two evaluations of a tendon the later one is also the latest.
  */
-async function closeRestressedFlags(
-  db: Kysely<Database>,
-  input: { projectId: string; dispositionIds: string[]; verdict: Verdict; provisional: boolean; evaluationId: string },
-): Promise<void> {
-  if (input.provisional || input.verdict !== "in band") return;
-  const dispositionIds = [...new Set(input.dispositionIds)];
-  if (!dispositionIds.length) return;
-  const dispositions = await db
-    .selectFrom("dispositions")
-    .select(["id", "flag_id"])
-    .where("project_id", "=", input.projectId)
-    .where("id", "in", dispositionIds)
-    .execute();
-  for (const d of dispositions) {
-    await db
+export function evaluationWrites(db: Kysely<Database>, plan: EvaluationPlan): Record<string, Compilable> {
+  const writes: Record<string, Compilable> = {
+    evaluation: db.insertInto("evaluations").values({ ...plan.evaluation, created_at: sql`clock_timestamp()` }),
+  };
+  if (plan.flags.length) writes.flags = db.insertInto("flags").values(plan.flags);
+  if (plan.notification) writes.notification = db.insertInto("notifications").values(plan.notification);
+  plan.closures.forEach((c, i) => {
+    writes[`closure_${i}`] = db
       .updateTable("flags")
-      .set({
-        status: "closed",
-        closed_at: new Date(),
-        close_reason: `Restressed as ordered by disposition ${d.id}; evaluation ${input.evaluationId} is in band.`,
-      })
-      .where("project_id", "=", input.projectId)
-      .where("id", "=", d.flag_id)
-      .where("status", "!=", "closed")
-      .execute();
-  }
+      .set({ status: "closed", closed_at: new Date(), close_reason: c.reason })
+      .where("project_id", "=", plan.evaluation.project_id)
+      .where("id", "=", c.flagId)
+      .where("status", "!=", "closed");
+  });
+  return writes;
+}
+
+/**
+ * Sends writes as the data-modifying WITHs of one statement, named by their keys, ending in
+ * `final` (which may read them and refuse the whole statement). One statement is one round
+ * trip, and on its own one transaction.
+ */
+export async function writeTogether(
+  db: Kysely<Database>,
+  writes: Record<string, Compilable>,
+  final: RawBuilder<unknown> = sql`select 1`,
+): Promise<void> {
+  const parts = Object.entries(writes).map(([name, w]) => sql`${sql.id(name)} as (${w})`);
+  await sql`with ${sql.join(parts)} ${final}`.execute(db);
+}
+
+/**
+ * Raises the tendon's version and so holds its row until the transaction ends: a push that read
+ * the tendon before cannot then store a record of it. NOT_FOUND when the tendon is not on the
+ * project.
+ */
+export async function raiseTendonVersion(
+  db: Kysely<Database>,
+  input: { projectId: string; tendonId: string },
+): Promise<void> {
+  const row = await db
+    .insertInto("tendon_versions")
+    .columns(["tendon_id", "version"])
+    .expression((eb) =>
+      eb
+        .selectFrom("tendons")
+        .select(["tendons.id", sql<number>`1`.as("version")])
+        .where("tendons.project_id", "=", input.projectId)
+        .where("tendons.id", "=", input.tendonId),
+    )
+    .onConflict((oc) =>
+      oc.column("tendon_id").doUpdateSet((eb) => ({ version: eb("tendon_versions.version", "+", 1) })),
+    )
+    .returning("version")
+    .executeTakeFirst();
+  if (!row) throw new AppError("NOT_FOUND", "No such tendon on this project.");
+}
+
+/**
+ * Raises the version only from the one read with the state: writes nothing when another write
+ * raised it since (the caller's guard then refuses its statement).
+ */
+export function raiseVersionFrom(db: Kysely<Database>, tendonId: string, seen: number) {
+  return db
+    .insertInto("tendon_versions")
+    .values({ tendon_id: tendonId, version: seen + 1 })
+    .onConflict((oc) =>
+      oc
+        .column("tendon_id")
+        .doUpdateSet({ version: seen + 1 })
+        .where("tendon_versions.version", "=", seen),
+    )
+    .returning("version");
+}
+
+/** Evaluates a tendon in the caller's transaction, after records of it were stored there. */
+export async function evaluateTendon(
+  db: Kysely<Database>,
+  input: { projectId: string; tendonId: string; reason: string },
+): Promise<EvaluationOutcome> {
+  await raiseTendonVersion(db, input);
+  const row = await selectTendonState(db, input).executeTakeFirstOrThrow();
+  const plan = planEvaluation(stateFromRow(row), input);
+  await writeTogether(db, evaluationWrites(db, plan));
+  return plan.outcome;
 }

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Kysely } from "kysely";
+import type { Kysely, QueryCreator } from "kysely";
 import type { Database, TendonKind } from "@/db/types";
 import { AppError } from "@/lib/errors";
 import type { LotBasis, ProjectBasis, TendonBasis } from "@/lib/stressing/basis";
@@ -20,12 +20,12 @@ export interface LoadedTendon {
   lot: (LotBasis & { id: string; lotNumber: string }) | null;
 }
 
-/** Everything the computation needs about one tendon, read with the project in every WHERE. */
-export async function loadTendonBasis(
-  db: Kysely<Database>,
-  input: { projectId: string; tendonId: string },
-): Promise<LoadedTendon> {
-  const row = await db
+/**
+ * The select that reads one tendon's basis, with the project in every WHERE; others add their
+ * own columns to it (the evaluation reads the tendon's records and flags in the same query).
+ */
+export function selectTendonBasis(qc: QueryCreator<Database>, input: { projectId: string; tendonId: string }) {
+  return qc
     .selectFrom("tendons")
     .innerJoin("projects", "projects.id", "tendons.project_id")
     .innerJoin("pours", (j) =>
@@ -72,9 +72,23 @@ export async function loadTendonBasis(
       "strand_lots.breaking_load_n",
     ])
     .where("tendons.project_id", "=", input.projectId)
-    .where("tendons.id", "=", input.tendonId)
-    .executeTakeFirst();
+    .where("tendons.id", "=", input.tendonId);
+}
+
+type BasisRow = Awaited<ReturnType<ReturnType<typeof selectTendonBasis>["executeTakeFirstOrThrow"]>>;
+
+/** Everything the computation needs about one tendon, read with the project in every WHERE. */
+export async function loadTendonBasis(
+  db: Kysely<Database>,
+  input: { projectId: string; tendonId: string },
+): Promise<LoadedTendon> {
+  const row = await selectTendonBasis(db, input).executeTakeFirst();
   if (!row) throw new AppError("NOT_FOUND", "No such tendon on this project.");
+  return toLoadedTendon(row);
+}
+
+/** The basis columns of a row read with `selectTendonBasis`, shaped for the computation. */
+export function toLoadedTendon(row: BasisRow): LoadedTendon {
   return {
     project: {
       id: row.projectId,

@@ -1,25 +1,45 @@
 import "server-only";
-import type { Kysely, Transaction } from "kysely";
+import { setTimeout as sleep } from "node:timers/promises";
+import { sql, type Kysely } from "kysely";
+import { jsonObjectFrom } from "kysely/helpers/postgres";
+import { reusableQuery } from "@/db/reusable-query";
 import type { Database } from "@/db/types";
 import { can } from "@/lib/auth/permissions";
 import type { SessionUser } from "@/lib/auth/session";
 import { zodFields } from "@/lib/http/route";
 import { recordPayloadSchema, type RecordPayload } from "@/lib/schemas/record";
 import type { OpError, OpEvaluation, OpResult, PushResponse, SyncOp } from "@/lib/schemas/sync";
-import { evaluateTendon } from "./evaluate-tendon";
-import { recordAudit } from "./record-audit";
+import {
+  evaluationWrites,
+  planEvaluation,
+  raiseVersionFrom,
+  selectTendonState,
+  stateFromRow,
+  writeTogether,
+  type EvaluatedRecord,
+} from "./evaluate-tendon";
+import { auditInsert, recordAudit } from "./record-audit";
 
 /**
- * Applies a batch of the tablet's operations. Each operation runs in a transaction of its own that
- * first claims its op id in applied_ops (the permanent idempotency key): a second delivery finds
- * the claim and answers "duplicate" with the stored result, a concurrent one waits on the key and
- * then does the same. A conflict or a rejection rolls the transaction back, so nothing at all is
- * written for it. Operations on different record chains run side by side; those on one chain run
+ * Applies a batch of the tablet's operations. Each operation is one transaction: a single
+ * statement that claims its op id in applied_ops (the permanent idempotency key), stores the
+ * record, the server's evaluation with its flags and e-mail, the op's result and the audit row,
+ * and raises the tendon's version from the one read before. It ends in sync_write_guard, which
+ * refuses the whole statement unless the claim, the version and the record each wrote their
+ * row, so nothing at all is written for an op that loses:
+ *
+ * - a second delivery finds the claim and answers "duplicate" with the stored result; a
+ *   concurrent one waits on the key and then does the same;
+ * - when another write stored a record of the tendon since the state was read, the op reads the
+ *   state again and retries, so two ends stored at the same moment are judged together;
+ * - a conflict or a rejection is decided from the read, before anything is written.
+ *
+ * An applied op costs two round trips: the read of the tendon's state with the op's references,
+ * and the write. Operations on different record chains run side by side; those on one chain run
  * in the order sent.
  */
 
 type Db = Kysely<Database>;
-type Trx = Transaction<Database>;
 
 export interface Pusher {
   id: string;
@@ -32,13 +52,8 @@ export interface PushHooks {
 }
 
 const CHAINS_AT_ONCE = 8;
-
-/** Ends the op's transaction with an answer: thrown inside it so everything it wrote rolls back. */
-class Answer extends Error {
-  constructor(readonly result: OpResult) {
-    super(result.status);
-  }
-}
+/** Reads again when another write of the same tendon came first; each lost round means one landed. */
+const MAX_ATTEMPTS = 20;
 
 const rejected = (op: SyncOp, code: string, message: string, fields?: Record<string, string[]>): OpResult => ({
   opId: op.opId,
@@ -46,15 +61,22 @@ const rejected = (op: SyncOp, code: string, message: string, fields?: Record<str
   error: { code, message, ...(fields ? { fields } : {}) },
 });
 
+const dayFormats = new Map<string, Intl.DateTimeFormat | null>();
+
 /** The calendar day of an instant in the device's time zone, or null for an unknown zone. */
 function localDay(instant: string, timeZone: string): string | null {
-  try {
-    return new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" }).format(
-      new Date(instant),
-    );
-  } catch {
-    return null;
+  if (!dayFormats.has(timeZone)) {
+    let format: Intl.DateTimeFormat | null = null;
+    try {
+      format = new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" });
+    } catch {
+      // an unknown zone: remembered as such
+    }
+    if (dayFormats.size < 1_000) dayFormats.set(timeZone, format);
+    if (!format) return null;
+    return format.format(new Date(instant));
   }
+  return dayFormats.get(timeZone)?.format(new Date(instant)) ?? null;
 }
 
 function precheck(op: SyncOp, user: Pusher): { payload: RecordPayload; day: string } | OpResult {
@@ -104,39 +126,303 @@ function precheck(op: SyncOp, user: Pusher): { payload: RecordPayload; day: stri
   return { payload: p, day };
 }
 
-/** The tendon, its pour, the equipment set and the calibration, each within the payload's project. */
-async function loadRefs(trx: Trx, p: RecordPayload) {
-  return trx
-    .selectFrom("tendons")
-    .innerJoin("pours", (j) =>
-      j.onRef("pours.id", "=", "tendons.pour_id").onRef("pours.project_id", "=", "tendons.project_id"),
-    )
-    .leftJoin("equipment_sets", (j) =>
-      j.on("equipment_sets.id", "=", p.equipmentSetId).onRef("equipment_sets.project_id", "=", "tendons.project_id"),
-    )
-    .leftJoin("calibrations", (j) =>
-      j
-        .on("calibrations.id", "=", p.calibrationId ?? "00000000-0000-0000-0000-000000000000")
-        .onRef("calibrations.equipment_set_id", "=", "equipment_sets.id")
-        .onRef("calibrations.project_id", "=", "tendons.project_id"),
-    )
-    .select([
-      "tendons.pour_id",
-      "tendons.ends",
-      "equipment_sets.id as setId",
-      "calibrations.id as calibrationId",
-      "calibrations.valid_until",
-    ])
-    .where("tendons.project_id", "=", p.projectId)
-    .where("tendons.id", "=", p.tendonId)
-    .executeTakeFirst();
+/**
+ * One read for an op: the tendon's state (basis, records, flags, sets, dispositions, version),
+ * the op's claim if it was applied before, the equipment set and calibration it names within the
+ * project, a record already stored under its id and the head of its chain.
+ */
+const opRead = reusableQuery(
+  ["projectId", "tendonId", "setId", "calibrationId", "opId", "recordId", "chainId"],
+  (db, a) =>
+    selectTendonState(db, { projectId: a.projectId, tendonId: a.tendonId, alsoSetId: a.setId }).select((eb) => [
+      jsonObjectFrom(
+        eb
+          .selectFrom("applied_ops")
+          .select(["applied_ops.user_id", "applied_ops.result"])
+          .where("applied_ops.op_id", "=", a.opId),
+      ).as("claim"),
+      eb
+        .selectFrom("equipment_sets")
+        .select("equipment_sets.id")
+        .where("equipment_sets.project_id", "=", a.projectId)
+        .where("equipment_sets.id", "=", a.setId)
+        .as("setId"),
+      jsonObjectFrom(
+        eb
+          .selectFrom("calibrations")
+          .select(["calibrations.id", "calibrations.valid_until"])
+          .where("calibrations.project_id", "=", a.projectId)
+          .where("calibrations.equipment_set_id", "=", a.setId)
+          .where("calibrations.id", "=", a.calibrationId),
+      ).as("calibration"),
+      jsonObjectFrom(
+        eb
+          .selectFrom("records")
+          .select([
+            "records.project_id",
+            "records.tendon_id",
+            "records.tendon_end",
+            "records.chain_id",
+            "records.revision",
+            "records.measured_mm",
+            "records.final_pressure_mpa",
+            "records.equipment_set_id",
+            "records.device_time",
+            "records.author_user_id",
+          ])
+          .where("records.id", "=", a.recordId),
+      ).as("sameId"),
+      jsonObjectFrom(
+        eb
+          .selectFrom("records")
+          .select(["records.id", "records.revision", "records.tendon_id", "records.tendon_end"])
+          .where("records.project_id", "=", a.projectId)
+          .where("records.chain_id", "=", a.chainId)
+          .orderBy("records.revision", "desc")
+          .limit(1),
+      ).as("chainHead"),
+    ]),
+);
+
+function readForOp(db: Db, op: SyncOp, p: RecordPayload) {
+  return opRead.executeTakeFirst(db, {
+    projectId: p.projectId,
+    tendonId: p.tendonId,
+    setId: p.equipmentSetId,
+    calibrationId: p.calibrationId ?? "00000000-0000-0000-0000-000000000000",
+    opId: op.opId,
+    recordId: op.recordId,
+    chainId: p.chainId,
+  });
+}
+
+type OpRead = NonNullable<Awaited<ReturnType<typeof readForOp>>>;
+
+/** The stored record under the op's id has the same values (a re-delivery under a new op id). */
+function sameValues(row: NonNullable<OpRead["sameId"]>, p: RecordPayload): boolean {
+  return (
+    row.project_id === p.projectId &&
+    row.tendon_id === p.tendonId &&
+    row.tendon_end === p.tendonEnd &&
+    row.chain_id === p.chainId &&
+    row.revision === p.revision &&
+    row.measured_mm === p.measuredMm &&
+    row.final_pressure_mpa === p.finalPressureMPa &&
+    row.equipment_set_id === p.equipmentSetId &&
+    new Date(row.device_time).getTime() === new Date(p.deviceTime).getTime() &&
+    row.author_user_id === p.authorUserId
+  );
+}
+
+function duplicateFrom(
+  op: SyncOp,
+  user: Pusher,
+  claim: { user_id: string; result: Record<string, unknown> },
+): OpResult {
+  if (claim.user_id !== user.id) return rejected(op, "CONFLICT", "This operation id was already used by someone else.");
+  const result = claim.result as { revision?: number; evaluation?: OpEvaluation };
+  return {
+    opId: op.opId,
+    status: "duplicate",
+    ...(result.revision ? { revision: result.revision } : {}),
+    ...(result.evaluation ? { evaluation: result.evaluation } : {}),
+  };
+}
+
+/** What the read says of the op before anything is written: an answer, or null to go on. */
+function answerFromRead(op: SyncOp, user: Pusher, p: RecordPayload, day: string, read: OpRead): OpResult | null {
+  if (read.claim) return duplicateFrom(op, user, read.claim);
+  const problem = refProblem(op, p, day, {
+    pour_id: read.pourId,
+    ends: read.ends,
+    setId: read.setId,
+    calibrationId: read.calibration?.id ?? null,
+    valid_until: read.calibration?.valid_until ?? null,
+  });
+  if (problem) return problem;
+
+  const head = read.chainHead;
+  if (op.kind === "revise") {
+    if (!head)
+      return rejected(op, "NOT_FOUND", "There is no record to correct: its first revision has not reached the server.");
+    if (head.tendon_id !== p.tendonId || head.tendon_end !== p.tendonEnd) {
+      return rejected(
+        op,
+        "INVALID_INPUT",
+        "A correction stays on the same tendon end; record the other end as a new record.",
+        {
+          tendonId: ["Not the corrected record's tendon."],
+        },
+      );
+    }
+    if (head.revision !== op.baseVersion || head.id !== p.baseRecordId) {
+      return {
+        opId: op.opId,
+        status: "conflict",
+        revision: head.revision,
+        headRecordId: head.id,
+        error: {
+          code: "CONFLICT",
+          message: `This record was corrected elsewhere first (the server has revision ${head.revision}); nothing was saved.`,
+        },
+      };
+    }
+  }
+  if (read.sameId) {
+    if (sameValues(read.sameId, p)) return { opId: op.opId, status: "duplicate", revision: p.revision };
+    const error: OpError = {
+      code: "CONFLICT",
+      message: "A record with this id is already stored with other values; nothing was saved.",
+    };
+    return { opId: op.opId, status: "conflict", error };
+  }
+  if (op.kind === "create" && head) {
+    const error: OpError = {
+      code: "CONFLICT",
+      message: `Revision ${p.revision} of this record was saved from elsewhere first; nothing was saved.`,
+    };
+    return { opId: op.opId, status: "conflict", error };
+  }
+  return null;
+}
+
+/** The record as the evaluation reads it, before it is stored. */
+function asEvaluated(op: SyncOp, p: RecordPayload, receivedAt: Date): EvaluatedRecord {
+  return {
+    id: op.recordId,
+    chain_id: p.chainId,
+    revision: p.revision,
+    tendon_end: p.tendonEnd,
+    device_time: new Date(p.deviceTime),
+    received_at: receivedAt,
+    restress_of_disposition_id: null,
+    equipment_set_id: p.equipmentSetId,
+    calibration_id: p.calibrationId,
+    expired_calibration_reason: p.expiredCalibrationReason,
+    initial_pressure_mpa: p.initialPressureMPa,
+    final_pressure_mpa: p.finalPressureMPa,
+    measured_mm: p.measuredMm,
+    wire_breaks: p.wireBreaks,
+  };
+}
+
+const RETRY = Symbol("read again");
+
+/** Which part of the guarded write refused, when sync_write_guard did. */
+function guardRefusal(error: unknown): "claim" | "tendon" | "record" | null {
+  const e = error as { code?: unknown; hint?: unknown };
+  return e?.code === "TL409" && (e.hint === "claim" || e.hint === "tendon" || e.hint === "record") ? e.hint : null;
+}
+
+async function attemptOp(
+  db: Db,
+  input: { user: Pusher; deviceId: string },
+  op: SyncOp,
+  p: RecordPayload,
+  day: string,
+): Promise<OpResult | typeof RETRY> {
+  const { user, deviceId } = input;
+  const read = await readForOp(db, op, p);
+  if (!read)
+    return rejected(op, "NOT_FOUND", "No such tendon on this project.", {
+      tendonId: ["Not a tendon of this project."],
+    });
+  const answer = answerFromRead(op, user, p, day, read);
+  if (answer) return answer;
+
+  const receivedAt = new Date();
+  const plan = planEvaluation(stateFromRow(read, asEvaluated(op, p, receivedAt)), {
+    projectId: p.projectId,
+    tendonId: p.tendonId,
+    reason: "sync",
+  });
+  const { verdict, provisional, deviationPct, flagKinds } = plan.outcome;
+  const evaluation: OpEvaluation = { verdict, provisional, deviationPct, flagKinds };
+  try {
+    await writeTogether(
+      db,
+      {
+        claim: db
+          .insertInto("applied_ops")
+          .values({
+            op_id: op.opId,
+            project_id: p.projectId,
+            device_id: deviceId,
+            user_id: user.id,
+            kind: op.kind,
+            record_id: op.recordId,
+            status: "applied",
+            result: JSON.stringify({ revision: p.revision, evaluation }),
+          })
+          .onConflict((oc) => oc.column("op_id").doNothing())
+          .returning("op_id"),
+        raised: raiseVersionFrom(db, p.tendonId, read.version ?? 0),
+        stored: db
+          .insertInto("records")
+          .values(recordValues(op.recordId, deviceId, p, receivedAt))
+          .onConflict((oc) => oc.doNothing())
+          .returning("id"),
+        ...evaluationWrites(db, plan),
+        audit: auditInsert(db, {
+          action: op.kind === "create" ? "record.create" : "record.revise",
+          outcome: "success",
+          actorUserId: user.id,
+          projectId: p.projectId,
+          target: op.recordId,
+          detail: { opId: op.opId, revision: p.revision, deviceId },
+        }),
+      },
+      sql`select sync_write_guard((select count(*) from claim), (select count(*) from raised), (select count(*) from stored))`,
+    );
+  } catch (error) {
+    // Another write came first: the claim (a concurrent delivery of this op), or a record of the
+    // tendon or under this id. The next read tells which answer is right.
+    if (guardRefusal(error)) return RETRY;
+    const refusal = databaseRefusal(op, error);
+    if (refusal) return refusal;
+    throw error;
+  }
+  return { opId: op.opId, status: "applied", revision: p.revision, evaluation };
+}
+
+async function applyOp(
+  db: Db,
+  input: { user: Pusher; deviceId: string; hooks?: PushHooks },
+  op: SyncOp,
+): Promise<OpResult> {
+  const { user } = input;
+  const checked = precheck(op, user);
+  if ("status" in checked) {
+    if (checked.error?.code === "FORBIDDEN" || checked.error?.code === "NOT_FOUND") {
+      await recordAudit(db, {
+        action: "record.create",
+        outcome: "denied",
+        actorUserId: user.id,
+        target: op.recordId,
+        detail: { opId: op.opId, reason: checked.error.message },
+      });
+    }
+    return checked;
+  }
+  for (let attempt = 1; ; attempt++) {
+    const result = await attemptOp(db, input, op, checked.payload, checked.day);
+    if (result !== RETRY) {
+      if (result.status === "applied") await input.hooks?.afterCommit?.(op, result);
+      return result;
+    }
+    if (attempt >= MAX_ATTEMPTS)
+      throw new Error(`op ${op.opId}: the tendon kept changing under ${MAX_ATTEMPTS} attempts`);
+    await sleep(Math.random() * 5 * attempt);
+  }
 }
 
 function refProblem(
   op: SyncOp,
   p: RecordPayload,
   day: string,
-  refs: Awaited<ReturnType<typeof loadRefs>>,
+  refs:
+    | { pour_id: string; ends: string; setId: string | null; calibrationId: string | null; valid_until: string | null }
+    | undefined,
 ): OpResult | null {
   if (!refs)
     return rejected(op, "NOT_FOUND", "No such tendon on this project.", {
@@ -172,88 +458,33 @@ function refProblem(
   return null;
 }
 
-/** A record already stored under this id: the same values (a re-delivery under a new op id) or not. */
-async function sameRecordStored(trx: Trx, recordId: string, p: RecordPayload): Promise<boolean | null> {
-  const row = await trx
-    .selectFrom("records")
-    .select([
-      "project_id",
-      "tendon_id",
-      "tendon_end",
-      "chain_id",
-      "revision",
-      "measured_mm",
-      "final_pressure_mpa",
-      "equipment_set_id",
-      "device_time",
-      "author_user_id",
-    ])
-    .where("id", "=", recordId)
-    .executeTakeFirst();
-  if (!row) return null;
-  return (
-    row.project_id === p.projectId &&
-    row.tendon_id === p.tendonId &&
-    row.tendon_end === p.tendonEnd &&
-    row.chain_id === p.chainId &&
-    row.revision === p.revision &&
-    row.measured_mm === p.measuredMm &&
-    row.final_pressure_mpa === p.finalPressureMPa &&
-    row.equipment_set_id === p.equipmentSetId &&
-    new Date(row.device_time).getTime() === new Date(p.deviceTime).getTime() &&
-    row.author_user_id === p.authorUserId
-  );
-}
-
-async function insertRecord(trx: Trx, recordId: string, deviceId: string, p: RecordPayload): Promise<boolean> {
-  const inserted = await trx
-    .insertInto("records")
-    .values({
-      id: recordId,
-      project_id: p.projectId,
-      pour_id: p.pourId,
-      tendon_id: p.tendonId,
-      tendon_end: p.tendonEnd,
-      chain_id: p.chainId,
-      revision: p.revision,
-      base_record_id: p.baseRecordId,
-      revision_reason: p.revisionReason,
-      equipment_set_id: p.equipmentSetId,
-      calibration_id: p.calibrationId,
-      expired_calibration_reason: p.expiredCalibrationReason,
-      initial_pressure_mpa: p.initialPressureMPa,
-      final_pressure_mpa: p.finalPressureMPa,
-      reading_method: p.readingMethod,
-      entered: JSON.stringify(p.entered),
-      measured_mm: p.measuredMm,
-      seating_mm: p.seatingMm,
-      wire_breaks: p.wireBreaks,
-      remarks: p.remarks,
-      device_time: p.deviceTime,
-      device_time_zone: p.deviceTimeZone,
-      device_id: deviceId,
-      author_user_id: p.authorUserId,
-    })
-    .onConflict((oc) => oc.doNothing())
-    .returning("id")
-    .executeTakeFirst();
-  return Boolean(inserted);
-}
-
-async function duplicateOf(trx: Trx, op: SyncOp, user: Pusher): Promise<OpResult> {
-  const stored = await trx
-    .selectFrom("applied_ops")
-    .select(["user_id", "status", "result"])
-    .where("op_id", "=", op.opId)
-    .executeTakeFirstOrThrow();
-  if (stored.user_id !== user.id)
-    return rejected(op, "CONFLICT", "This operation id was already used by someone else.");
-  const result = stored.result as { revision?: number; evaluation?: OpEvaluation };
+function recordValues(recordId: string, deviceId: string, p: RecordPayload, receivedAt: Date) {
   return {
-    opId: op.opId,
-    status: "duplicate",
-    ...(result.revision ? { revision: result.revision } : {}),
-    ...(result.evaluation ? { evaluation: result.evaluation } : {}),
+    id: recordId,
+    project_id: p.projectId,
+    pour_id: p.pourId,
+    tendon_id: p.tendonId,
+    tendon_end: p.tendonEnd,
+    chain_id: p.chainId,
+    revision: p.revision,
+    base_record_id: p.baseRecordId,
+    revision_reason: p.revisionReason,
+    equipment_set_id: p.equipmentSetId,
+    calibration_id: p.calibrationId,
+    expired_calibration_reason: p.expiredCalibrationReason,
+    initial_pressure_mpa: p.initialPressureMPa,
+    final_pressure_mpa: p.finalPressureMPa,
+    reading_method: p.readingMethod,
+    entered: JSON.stringify(p.entered),
+    measured_mm: p.measuredMm,
+    seating_mm: p.seatingMm,
+    wire_breaks: p.wireBreaks,
+    remarks: p.remarks,
+    device_time: p.deviceTime,
+    device_time_zone: p.deviceTimeZone,
+    device_id: deviceId,
+    author_user_id: p.authorUserId,
+    received_at: receivedAt,
   };
 }
 
@@ -264,135 +495,6 @@ function databaseRefusal(op: SyncOp, error: unknown): OpResult | null {
     return rejected(op, "INVALID_INPUT", `The database refused this record (${(error as Error).message}).`);
   }
   return null;
-}
-
-async function applyOp(
-  db: Db,
-  input: { user: Pusher; deviceId: string; hooks?: PushHooks },
-  op: SyncOp,
-): Promise<OpResult> {
-  const { user, deviceId } = input;
-  const checked = precheck(op, user);
-  if ("status" in checked) {
-    if (checked.error?.code === "FORBIDDEN" || checked.error?.code === "NOT_FOUND") {
-      await recordAudit(db, {
-        action: "record.create",
-        outcome: "denied",
-        actorUserId: user.id,
-        target: op.recordId,
-        detail: { opId: op.opId, reason: checked.error.message },
-      });
-    }
-    return checked;
-  }
-  const { payload: p, day } = checked;
-  let result: OpResult;
-  try {
-    result = await db.transaction().execute(async (trx) => {
-      const claimed = await trx
-        .insertInto("applied_ops")
-        .values({
-          op_id: op.opId,
-          project_id: p.projectId,
-          device_id: deviceId,
-          user_id: user.id,
-          kind: op.kind,
-          record_id: op.recordId,
-          status: "applied",
-        })
-        .onConflict((oc) => oc.column("op_id").doNothing())
-        .returning("op_id")
-        .executeTakeFirst();
-      if (!claimed) throw new Answer(await duplicateOf(trx, op, user));
-
-      const problem = refProblem(op, p, day, await loadRefs(trx, p));
-      if (problem) throw new Answer(problem);
-
-      if (op.kind === "revise") {
-        const head = await trx
-          .selectFrom("records")
-          .select(["id", "revision", "tendon_id", "tendon_end"])
-          .where("project_id", "=", p.projectId)
-          .where("chain_id", "=", p.chainId)
-          .orderBy("revision", "desc")
-          .limit(1)
-          .executeTakeFirst();
-        if (!head)
-          throw new Answer(
-            rejected(op, "NOT_FOUND", "There is no record to correct: its first revision has not reached the server."),
-          );
-        if (head.tendon_id !== p.tendonId || head.tendon_end !== p.tendonEnd) {
-          throw new Answer(
-            rejected(
-              op,
-              "INVALID_INPUT",
-              "A correction stays on the same tendon end; record the other end as a new record.",
-              { tendonId: ["Not the corrected record's tendon."] },
-            ),
-          );
-        }
-        if (head.revision !== op.baseVersion || head.id !== p.baseRecordId) {
-          throw new Answer({
-            opId: op.opId,
-            status: "conflict",
-            revision: head.revision,
-            headRecordId: head.id,
-            error: {
-              code: "CONFLICT",
-              message: `This record was corrected elsewhere first (the server has revision ${head.revision}); nothing was saved.`,
-            },
-          });
-        }
-      }
-
-      if (!(await insertRecord(trx, op.recordId, deviceId, p))) {
-        const same = await sameRecordStored(trx, op.recordId, p);
-        if (same) throw new Answer({ opId: op.opId, status: "duplicate", revision: p.revision });
-        const error: OpError =
-          same === false
-            ? {
-                code: "CONFLICT",
-                message: "A record with this id is already stored with other values; nothing was saved.",
-              }
-            : {
-                code: "CONFLICT",
-                message: `Revision ${p.revision} of this record was saved from elsewhere first; nothing was saved.`,
-              };
-        throw new Answer({ opId: op.opId, status: "conflict", error });
-      }
-
-      // The server's verdict, flags and queued e-mail, in this same transaction.
-      const outcome = await evaluateTendon(trx, { projectId: p.projectId, tendonId: p.tendonId, reason: "sync" });
-      const evaluation: OpEvaluation = {
-        verdict: outcome.verdict,
-        provisional: outcome.provisional,
-        deviationPct: outcome.deviationPct,
-        flagKinds: outcome.flagKinds,
-      };
-      const applied: OpResult = { opId: op.opId, status: "applied", revision: p.revision, evaluation };
-      await trx
-        .updateTable("applied_ops")
-        .set({ result: JSON.stringify({ revision: p.revision, evaluation }) })
-        .where("op_id", "=", op.opId)
-        .execute();
-      await recordAudit(trx, {
-        action: op.kind === "create" ? "record.create" : "record.revise",
-        outcome: "success",
-        actorUserId: user.id,
-        projectId: p.projectId,
-        target: op.recordId,
-        detail: { opId: op.opId, revision: p.revision, deviceId },
-      });
-      return applied;
-    });
-  } catch (error) {
-    if (error instanceof Answer) return error.result;
-    const refusal = databaseRefusal(op, error);
-    if (refusal) return refusal;
-    throw error;
-  }
-  await input.hooks?.afterCommit?.(op, result);
-  return result;
 }
 
 function chainKey(op: SyncOp): string {

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Kysely, Transaction } from "kysely";
+import type { Kysely, QueryCreator, Transaction } from "kysely";
 import type { AuditOutcome, Database } from "@/db/types";
 
 export interface AuditEvent {
@@ -15,17 +15,19 @@ export interface AuditEvent {
 
 /** Appends one security event. Never pass secrets, tokens or session ids in `detail`. */
 export async function recordAudit(db: Kysely<Database> | Transaction<Database>, event: AuditEvent): Promise<void> {
-  await db
-    .insertInto("audit_events")
-    .values({
-      action: event.action,
-      outcome: event.outcome,
-      actor_user_id: event.actorUserId ?? null,
-      actor_email: event.actorEmail ?? null,
-      project_id: event.projectId ?? null,
-      target: event.target ?? null,
-      ip: event.ip ?? null,
-      detail: JSON.stringify(event.detail ?? {}),
-    })
-    .execute();
+  await auditInsert(db, event).execute();
+}
+
+/** The insert of one security event, for a caller that sends it with other writes in one statement. */
+export function auditInsert(qc: QueryCreator<Database>, event: AuditEvent) {
+  return qc.insertInto("audit_events").values({
+    action: event.action,
+    outcome: event.outcome,
+    actor_user_id: event.actorUserId ?? null,
+    actor_email: event.actorEmail ?? null,
+    project_id: event.projectId ?? null,
+    target: event.target ?? null,
+    ip: event.ip ?? null,
+    detail: JSON.stringify(event.detail ?? {}),
+  });
 }

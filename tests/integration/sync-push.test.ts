@@ -1,25 +1,32 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { createDb, type Db } from "@/db/connect";
 import type { RecordPayload } from "@/lib/schemas/record";
 import type { SyncOp } from "@/lib/schemas/sync";
+import { correctRecord } from "@/lib/server/correct-record";
 import { pushOps, type Pusher } from "@/lib/server/push-ops";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 import { buildWorld, createOp, reviseOp, rowsOf, type SyncWorld } from "./sync-fixtures";
 
 let t: TestDatabase;
 let w: SyncWorld;
+/** Pushes go through a client like the app's, with prepared statements. */
+let app: Db;
 const DEVICE = "tablet-test-0001";
 
 beforeAll(async () => {
   t = await createTestDatabase({ migrate: true });
   w = await buildWorld(t.db);
+  app = createDb(t.url, 5, { prepare: true });
 });
 afterAll(async () => {
+  await app.destroy();
   await t.drop();
 });
 
-const push = (ops: SyncOp[], user: Pusher = w.crew) => pushOps(t.db, { user, deviceId: DEVICE, ops });
+const push = (ops: SyncOp[], user: Pusher = w.crew) => pushOps(app, { user, deviceId: DEVICE, ops });
 const statuses = (r: { results: { status: string }[] }) => r.results.map((x) => x.status);
-const recordsOf = (recordIds: string[]) => t.db.selectFrom("records").select(["id", "revision"]).where("id", "in", recordIds).execute();
+const recordsOf = (recordIds: string[]) =>
+  t.db.selectFrom("records").select(["id", "revision"]).where("id", "in", recordIds).execute();
 
 describe("push: idempotency", () => {
   it("applies a batch once; the same batch again answers duplicate and writes nothing", async () => {
@@ -46,7 +53,7 @@ describe("push: idempotency", () => {
   it("a server that commits and then loses its answer gives duplicate on the retry", async () => {
     const op = createOp(w, w.tendons[4]!.id);
     await expect(
-      pushOps(t.db, {
+      pushOps(app, {
         user: w.crew,
         deviceId: DEVICE,
         ops: [op],
@@ -69,7 +76,11 @@ describe("push: idempotency", () => {
     expect(first.results[0]!.evaluation).toBeDefined();
     const again = await push([op]);
     expect(again.results[0]!.evaluation).toEqual(first.results[0]!.evaluation);
-    const evaluations = await t.db.selectFrom("evaluations").select("id").where("tendon_id", "=", w.tendons[5]!.id).execute();
+    const evaluations = await t.db
+      .selectFrom("evaluations")
+      .select("id")
+      .where("tendon_id", "=", w.tendons[5]!.id)
+      .execute();
     expect(evaluations).toHaveLength(1);
   });
 });
@@ -91,7 +102,12 @@ describe("push: corrections", () => {
     expect(answer.error?.message).toMatch(/revision 2/);
     expect(await rowsOf(t.db, "records")).toBe(recordsBefore);
     expect(await rowsOf(t.db, "applied_ops")).toBe(claimsBefore);
-    const chain = await t.db.selectFrom("records").select("revision").where("chain_id", "=", create.recordId).orderBy("revision").execute();
+    const chain = await t.db
+      .selectFrom("records")
+      .select("revision")
+      .where("chain_id", "=", create.recordId)
+      .orderBy("revision")
+      .execute();
     expect(chain.map((r) => r.revision)).toEqual([1, 2]);
   });
 
@@ -99,7 +115,10 @@ describe("push: corrections", () => {
     const create = createOp(w, w.tendons[7]!.id) as SyncOp & { payload: RecordPayload };
     await push([create]);
     const base = { recordId: create.recordId, revision: 1, payload: create.payload };
-    const [x, y] = await Promise.all([push([reviseOp(base, { remarks: "x" })]), push([reviseOp(base, { remarks: "y" })])]);
+    const [x, y] = await Promise.all([
+      push([reviseOp(base, { remarks: "x" })]),
+      push([reviseOp(base, { remarks: "y" })]),
+    ]);
     expect([...statuses(x!), ...statuses(y!)].sort()).toEqual(["applied", "conflict"]);
     const chain = await t.db.selectFrom("records").select("revision").where("chain_id", "=", create.recordId).execute();
     expect(chain).toHaveLength(2);
@@ -133,12 +152,19 @@ describe("push: bad operations", () => {
     p.entered = { ...p.entered, finalPressure: "lots", marks: { before: "0", after: "8 9/8" } };
     const answer = (await push([bad])).results[0]!;
     expect(answer.status).toBe("rejected");
-    expect(Object.keys(answer.error!.fields!)).toEqual(expect.arrayContaining(["entered.finalPressure", "entered.marksAfter"]));
+    expect(Object.keys(answer.error!.fields!)).toEqual(
+      expect.arrayContaining(["entered.finalPressure", "entered.marksAfter"]),
+    );
   });
 
   it("rejects another project's tendon, a project the person is not on, and a role that may not record", async () => {
     const viaOwnProject = createOp(w, w.foreign.tendonId);
-    const intoForeignProject = createOp(w, w.foreign.tendonId, {}, { projectId: w.foreign.projectId, pourId: w.foreign.pourId });
+    const intoForeignProject = createOp(
+      w,
+      w.foreign.tendonId,
+      {},
+      { projectId: w.foreign.projectId, pourId: w.foreign.pourId },
+    );
     const before = await rowsOf(t.db, "records");
     const { results } = await push([viaOwnProject, intoForeignProject]);
     expect(results.map((r) => [r.status, r.error?.code])).toEqual([
@@ -147,26 +173,47 @@ describe("push: bad operations", () => {
     ]);
     // The other project's crew member cannot record on this project either.
     const theirs = createOp(w, w.tendons[13]!.id, {}, { authorUserId: w.other.id });
-    expect((await push([theirs], w.other)).results[0]).toMatchObject({ status: "rejected", error: { code: "NOT_FOUND" } });
+    expect((await push([theirs], w.other)).results[0]).toMatchObject({
+      status: "rejected",
+      error: { code: "NOT_FOUND" },
+    });
     const inspectors = createOp(w, w.tendons[13]!.id, {}, { authorUserId: w.inspector.id });
-    expect((await push([inspectors], w.inspector)).results[0]).toMatchObject({ status: "rejected", error: { code: "FORBIDDEN" } });
+    expect((await push([inspectors], w.inspector)).results[0]).toMatchObject({
+      status: "rejected",
+      error: { code: "FORBIDDEN" },
+    });
     expect(await rowsOf(t.db, "records")).toBe(before);
   });
 
   it("refuses a record made by someone else than the person pushing", async () => {
     const op = createOp(w, w.tendons[14]!.id, {}, { authorUserId: w.inspector.id });
-    expect((await push([op])).results[0]).toMatchObject({ status: "rejected", error: { fields: { authorUserId: expect.any(Array) } } });
+    expect((await push([op])).results[0]).toMatchObject({
+      status: "rejected",
+      error: { fields: { authorUserId: expect.any(Array) } },
+    });
   });
 
   it("wants a reason for an equipment set whose calibration had expired that day", async () => {
     const day = new Date("2026-12-20T10:00:00-08:00");
-    const noReason = createOp(w, w.tendons[15]!.id, { equipmentSetId: w.setB.id }, { calibrationId: w.setB.calibrationId, deviceTime: day.toISOString() });
-    expect((await push([noReason])).results[0]).toMatchObject({ status: "rejected", error: { fields: { expiredCalibrationReason: expect.any(Array) } } });
+    const noReason = createOp(
+      w,
+      w.tendons[15]!.id,
+      { equipmentSetId: w.setB.id },
+      { calibrationId: w.setB.calibrationId, deviceTime: day.toISOString() },
+    );
+    expect((await push([noReason])).results[0]).toMatchObject({
+      status: "rejected",
+      error: { fields: { expiredCalibrationReason: expect.any(Array) } },
+    });
     const withReason = createOp(
       w,
       w.tendons[15]!.id,
       { equipmentSetId: w.setB.id },
-      { calibrationId: w.setB.calibrationId, deviceTime: day.toISOString(), expiredCalibrationReason: "Set A jack leaking; engineer told by phone" },
+      {
+        calibrationId: w.setB.calibrationId,
+        deviceTime: day.toISOString(),
+        expiredCalibrationReason: "Set A jack leaking; engineer told by phone",
+      },
     );
     const answer = (await push([withReason])).results[0]!;
     expect(answer.status).toBe("applied");
@@ -180,5 +227,62 @@ describe("push: bad operations", () => {
     const { results } = await push([wrongCal, wrongEnd]);
     expect(results[0]).toMatchObject({ status: "rejected", error: { fields: { calibrationId: expect.any(Array) } } });
     expect(results[1]).toMatchObject({ status: "rejected", error: { fields: { tendonEnd: expect.any(Array) } } });
+  });
+});
+
+describe("push: both ends of a tendon in one batch", () => {
+  it("the evaluation after the second end sees the first, however the two ops interleave", async () => {
+    // The two ends are different record chains, so the push applies them side by side; the
+    // tendon's evaluation must still read both ends once both are stored.
+    const twoEnded = w.tendons.filter((x) => x.ends === "both").slice(-6);
+    expect(twoEnded.length).toBeGreaterThanOrEqual(4);
+    const ops = twoEnded.flatMap((x) => [createOp(w, x.id, { tendonEnd: "A" }), createOp(w, x.id, { tendonEnd: "B" })]);
+    expect(statuses(await push(ops))).toEqual(ops.map(() => "applied"));
+    for (const x of twoEnded) {
+      const latest = await t.db
+        .selectFrom("evaluations")
+        .select(["record_ids", "provisional"])
+        .where("tendon_id", "=", x.id)
+        .orderBy("created_at", "desc")
+        .limit(1)
+        .executeTakeFirstOrThrow();
+      expect({ tag: x.tag, ends: latest.record_ids.length, provisional: latest.provisional }).toEqual({
+        tag: x.tag,
+        ends: 2,
+        provisional: false,
+      });
+    }
+  });
+
+  it("a correction made in review while the other end is pushed: the latest evaluation reads both", async () => {
+    const twoEnded = w.tendons.filter((x) => x.ends === "both").slice(-10, -6);
+    expect(twoEnded.length).toBe(4);
+    for (const x of twoEnded) {
+      const endA = createOp(w, x.id, { tendonEnd: "A" });
+      expect(statuses(await push([endA]))).toEqual(["applied"]);
+      const [corrected, pushed] = await Promise.all([
+        correctRecord(t.db, {
+          projectId: w.projectId,
+          recordId: endA.recordId,
+          by: w.inspector,
+          correction: {
+            reason: "Tape read from the wrong mark.",
+            measuredMm: (endA.payload as RecordPayload).measuredMm + 3,
+          },
+        }),
+        push([createOp(w, x.id, { tendonEnd: "B" })]),
+      ]);
+      expect(statuses(pushed)).toEqual(["applied"]);
+      const latest = await t.db
+        .selectFrom("evaluations")
+        .select(["record_ids", "provisional"])
+        .where("tendon_id", "=", x.id)
+        .orderBy("created_at", "desc")
+        .limit(1)
+        .executeTakeFirstOrThrow();
+      expect(latest.provisional).toBe(false);
+      expect(latest.record_ids).toContain(corrected.recordId);
+      expect(latest.record_ids).toHaveLength(2);
+    }
   });
 });
