@@ -35,8 +35,15 @@ export default defineConfig({
     { name: "tour", testMatch: /demo-tour\.spec\.ts/, use: { viewport: { width: 1280, height: 800 }, hasTouch: true } },
     {
       name: "tablet",
-      testIgnore: /demo-tour\.spec\.ts/,
+      testIgnore: [/demo-tour\.spec\.ts/, /field-update\.spec\.ts/],
       dependencies: ["tour"],
+      use: { viewport: { width: 1280, height: 800 }, hasTouch: true },
+    },
+    // Last, alone: it deploys a next build of the offline worker into public/ and puts it back.
+    {
+      name: "update",
+      testMatch: /field-update\.spec\.ts/,
+      dependencies: ["tablet"],
       use: { viewport: { width: 1280, height: 800 }, hasTouch: true },
     },
   ],

@@ -1,10 +1,7 @@
-import { expect, test, type Page } from "@playwright/test";
+import { expect, test } from "@playwright/test";
 import pg from "pg";
-import type { AvailablePour, PullResponse } from "@/lib/schemas/sync";
-import { predictTendon, targetPressureMPa } from "@/lib/stressing/basis";
-import { formatLength, mpaToPsi } from "@/lib/units";
-import { PEOPLE, apiAs, signInWithPassword } from "./people";
-import { screenshot } from "./support";
+import { POUR, logTendon, plan, shoot } from "./field-steps";
+import { PEOPLE, signInWithPassword } from "./people";
 
 /**
  * The crew's whole offline shift in Chromium: sign in, take a pour out, lose the signal, log
@@ -12,71 +9,10 @@ import { screenshot } from "./support";
  * watch them go, and check PostgreSQL holds each exactly once.
  */
 
-const POUR = "L3 Pour 1";
-
-interface Plan {
-  pourId: string;
-  tendons: { id: string; tag: string; after: string; verdict: "In band" | "Long" }[];
-  finalPsi: string;
-}
-
-/** Three one-end tendons of the pour with nothing recorded yet, with readings worked out on the same basis as the app. */
-async function plan(): Promise<Plan> {
-  const crew = await apiAs(PEOPLE.crew);
-  const { pours } = (await (await crew.get("/api/field/pours")).json()) as { pours: AvailablePour[] };
-  const pour = pours.find((p) => p.name === POUR && p.projectCode === "AYP")!;
-  const data = (await (await crew.get(`/api/field/pours/${pour.id}`)).json()) as PullResponse;
-  await crew.dispose();
-  const project = data.projects[0]!;
-  const setA = data.equipmentSets.find((s) => s.name.startsWith("Set A"))!;
-  const cal = data.calibrations.find((c) => c.equipmentSetId === setA.id)!;
-  const stressed = new Set(data.records.map((r) => r.tendonId));
-  const free = data.tendons.filter((t) => t.ends === "A" && !stressed.has(t.id)).slice(0, 3);
-  expect(free).toHaveLength(3);
-  let jackingForceN = 0;
-  const tendons = free.map((t, i) => {
-    const lot = data.strandLots.find((l) => l.id === t.strandLotId) ?? null;
-    const p = predictTendon({ project, tendon: t, lot, equipmentGripMm: setA.jackGripMm });
-    jackingForceN = p.jackingForceN;
-    // The second tendon reads a quarter long: out of any band.
-    const out = i === 1;
-    return { id: t.id, tag: t.tag, after: formatLength(p.predictedMm * (out ? 1.25 : 1), "1/8 in"), verdict: out ? ("Long" as const) : ("In band" as const) };
-  });
-  const line = { slope: cal.slope, intercept: cal.intercept, minPressureMPa: cal.minPressureMPa, maxPressureMPa: cal.maxPressureMPa };
-  return { pourId: pour.id, tendons, finalPsi: String(Math.round(mpaToPsi(targetPressureMPa(line, jackingForceN)))) };
-}
-
-/** Full-page shots from the top, so the sticky status bar sits where the crew sees it. */
-async function shoot(page: Page, name: string) {
-  await page.evaluate(() => window.scrollTo(0, 0));
-  await screenshot(page, name);
-}
-
-// A 1×1 PNG standing in for the tablet camera's gauge photo.
-const GAUGE_PHOTO = Buffer.from(
-  "iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8BQDwAEhQGAhKmMIQAAAABJRU5ErkJggg==",
-  "base64",
-);
-
-async function logTendon(page: Page, t: Plan["tendons"][number], finalPsi: string, shot?: string, photo = false) {
-  await page.getByLabel("Find a tendon by tag").fill(t.tag);
-  await page.getByTestId("tendon-row").filter({ hasText: t.tag }).click();
-  await expect(page.getByTestId("selected-tag")).toHaveText(t.tag);
-  await page.getByRole("radio", { name: /Set A/ }).check();
-  await page.getByLabel(/Final gauge pressure/).fill(finalPsi);
-  await page.getByLabel(/Mark before/).fill("0");
-  await page.getByLabel(/Mark after/).fill(t.after);
-  if (photo) {
-    await page.locator('input[type="file"]').setInputFiles({ name: "gauge.png", mimeType: "image/png", buffer: GAUGE_PHOTO });
-    await expect(page.getByRole("img", { name: "Photo to keep with this record" })).toHaveCount(1);
-  }
-  if (shot) await shoot(page, shot);
-  await page.getByRole("button", { name: "Save record" }).click();
-  await expect(page.getByTestId("verdict").locator("[data-verdict]").first()).toContainText(t.verdict);
-  await expect(page.getByTestId("end-A").getByTestId("sync-state")).toHaveText("waiting to send");
-}
-
-test("a crew logs a pour with no signal and every record reaches PostgreSQL exactly once", async ({ page, context }) => {
+test("a crew logs a pour with no signal and every record reaches PostgreSQL exactly once", async ({
+  page,
+  context,
+}) => {
   test.setTimeout(120_000);
   const p = await plan();
 
@@ -98,7 +34,8 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
   await context.setOffline(true);
   await ready.getByRole("link", { name: "Open tendon list" }).click();
   await expect(page.getByTestId("connection")).toHaveText("No signal");
-  for (const [i, t] of p.tendons.entries()) await logTendon(page, t, p.finalPsi, i === 0 ? "field-form-offline-landscape" : undefined, i === 0);
+  for (const [i, t] of p.tendons.entries())
+    await logTendon(page, t, p.finalPsi, i === 0 ? "field-form-offline-landscape" : undefined, i === 0);
   await expect(page.getByTestId("pending-count")).toContainText("3 records");
   await expect(page.getByRole("alert").filter({ hasText: "Out of band" })).toHaveCount(0); // the last one logged is in band
   await shoot(page, "field-log-offline-landscape");
@@ -107,7 +44,9 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
   await page.reload();
   await expect(page.getByTestId("pending-count")).toContainText("3 records");
   await page.getByLabel("Find a tendon by tag").fill(p.tendons[1]!.tag);
-  await expect(page.getByTestId("tendon-row").filter({ hasText: p.tendons[1]!.tag }).locator("[data-state]")).toHaveText("flagged");
+  await expect(
+    page.getByTestId("tendon-row").filter({ hasText: p.tendons[1]!.tag }).locator("[data-state]"),
+  ).toHaveText("flagged");
   await page.getByTestId("tendon-row").filter({ hasText: p.tendons[1]!.tag }).click();
   await expect(page.getByTestId("verdict")).toContainText("Long");
   await expect(page.getByRole("alert").filter({ hasText: "Out of band" })).toBeVisible();
@@ -137,9 +76,10 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
       [p.tendons.map((t) => t.id)],
     );
     expect(rows.map((r) => r.n)).toEqual([1, 1, 1]);
-    const ops = await client.query<{ n: number }>("select count(*)::int as n from applied_ops where record_id in (select id from records where tendon_id = any($1::uuid[]))", [
-      p.tendons.map((t) => t.id),
-    ]);
+    const ops = await client.query<{ n: number }>(
+      "select count(*)::int as n from applied_ops where record_id in (select id from records where tendon_id = any($1::uuid[]))",
+      [p.tendons.map((t) => t.id)],
+    );
     expect(ops.rows[0]!.n).toBe(3);
     // The gauge photo follows its record: uploaded, checked by content and stored once.
     await expect
@@ -159,7 +99,10 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
   }
 });
 
-test("a tablet whose sign-in ran out keeps what it holds and sends it once the crew signs in again", async ({ page, context }) => {
+test("a tablet whose sign-in ran out keeps what it holds and sends it once the crew signs in again", async ({
+  page,
+  context,
+}) => {
   test.setTimeout(120_000);
   const p = await plan();
   const t = p.tendons[0]!;
@@ -186,7 +129,8 @@ test("a tablet whose sign-in ran out keeps what it holds and sends it once the c
     const client = new pg.Client({ connectionString: process.env.DATABASE_URL });
     await client.connect();
     try {
-      return (await client.query<{ n: number }>("select count(*)::int as n from records where tendon_id = $1", [t.id])).rows[0]!.n;
+      return (await client.query<{ n: number }>("select count(*)::int as n from records where tendon_id = $1", [t.id]))
+        .rows[0]!.n;
     } finally {
       await client.end();
     }

@@ -1,0 +1,90 @@
+import { expect, type Page } from "@playwright/test";
+import type { AvailablePour, PullResponse } from "@/lib/schemas/sync";
+import { predictTendon, targetPressureMPa } from "@/lib/stressing/basis";
+import { formatLength, mpaToPsi } from "@/lib/units";
+import { PEOPLE, apiAs } from "./people";
+import { screenshot } from "./support";
+
+/** The field log's e2e steps, shared by the specs that drive the tablet. */
+
+export const POUR = "L3 Pour 1";
+
+export interface Plan {
+  pourId: string;
+  tendons: { id: string; tag: string; after: string; verdict: "In band" | "Long" }[];
+  finalPsi: string;
+}
+
+/** Three one-end tendons of the pour with nothing recorded yet, with readings worked out on the same basis as the app. */
+export async function plan(): Promise<Plan> {
+  const crew = await apiAs(PEOPLE.crew);
+  const { pours } = (await (await crew.get("/api/field/pours")).json()) as { pours: AvailablePour[] };
+  const pour = pours.find((p) => p.name === POUR && p.projectCode === "AYP")!;
+  const data = (await (await crew.get(`/api/field/pours/${pour.id}`)).json()) as PullResponse;
+  await crew.dispose();
+  const project = data.projects[0]!;
+  const setA = data.equipmentSets.find((s) => s.name.startsWith("Set A"))!;
+  const cal = data.calibrations.find((c) => c.equipmentSetId === setA.id)!;
+  const stressed = new Set(data.records.map((r) => r.tendonId));
+  const free = data.tendons.filter((t) => t.ends === "A" && !stressed.has(t.id)).slice(0, 3);
+  expect(free).toHaveLength(3);
+  let jackingForceN = 0;
+  const tendons = free.map((t, i) => {
+    const lot = data.strandLots.find((l) => l.id === t.strandLotId) ?? null;
+    const p = predictTendon({ project, tendon: t, lot, equipmentGripMm: setA.jackGripMm });
+    jackingForceN = p.jackingForceN;
+    // The second tendon reads a quarter long: out of any band.
+    const out = i === 1;
+    return {
+      id: t.id,
+      tag: t.tag,
+      after: formatLength(p.predictedMm * (out ? 1.25 : 1), "1/8 in"),
+      verdict: out ? ("Long" as const) : ("In band" as const),
+    };
+  });
+  const line = {
+    slope: cal.slope,
+    intercept: cal.intercept,
+    minPressureMPa: cal.minPressureMPa,
+    maxPressureMPa: cal.maxPressureMPa,
+  };
+  return { pourId: pour.id, tendons, finalPsi: String(Math.round(mpaToPsi(targetPressureMPa(line, jackingForceN)))) };
+}
+
+/** Full-page shots from the top, so the sticky status bar sits where the crew sees it. */
+export async function shoot(page: Page, name: string) {
+  await page.evaluate(() => window.scrollTo(0, 0));
+  await screenshot(page, name);
+}
+
+// A 1×1 PNG standing in for the tablet camera's gauge photo.
+const GAUGE_PHOTO = Buffer.from(
+  "iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8BQDwAEhQGAhKmMIQAAAABJRU5ErkJggg==",
+  "base64",
+);
+
+export async function logTendon(
+  page: Page,
+  t: Plan["tendons"][number],
+  finalPsi: string,
+  shot?: string,
+  photo = false,
+) {
+  await page.getByLabel("Find a tendon by tag").fill(t.tag);
+  await page.getByTestId("tendon-row").filter({ hasText: t.tag }).click();
+  await expect(page.getByTestId("selected-tag")).toHaveText(t.tag);
+  await page.getByRole("radio", { name: /Set A/ }).check();
+  await page.getByLabel(/Final gauge pressure/).fill(finalPsi);
+  await page.getByLabel(/Mark before/).fill("0");
+  await page.getByLabel(/Mark after/).fill(t.after);
+  if (photo) {
+    await page
+      .locator('input[type="file"]')
+      .setInputFiles({ name: "gauge.png", mimeType: "image/png", buffer: GAUGE_PHOTO });
+    await expect(page.getByRole("img", { name: "Photo to keep with this record" })).toHaveCount(1);
+  }
+  if (shot) await shoot(page, shot);
+  await page.getByRole("button", { name: "Save record" }).click();
+  await expect(page.getByTestId("verdict").locator("[data-verdict]").first()).toContainText(t.verdict);
+  await expect(page.getByTestId("end-A").getByTestId("sync-state")).toHaveText("waiting to send");
+}
