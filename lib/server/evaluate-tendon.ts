@@ -22,11 +22,11 @@ import { showForce, showLength, showPct, showPressure } from "@/lib/stressing/di
 import { selectTendonBasis, toLoadedTendon, type LoadedTendon } from "./load-tendon-basis";
 
 /**
- * The server's authoritative evaluation of one tendon, run in the caller's transaction (the
- * sync push that stored the record). It reads the latest revision of each end's current
- * stressing, computes on the project's basis, stores the evaluation with every input used,
- * raises flags by rule and queues one e-mail for the new flags, all in that transaction: a
- * replayed sync stores nothing new and so sends nothing twice.
+ * The server's authoritative evaluation of one tendon, written together with the record that
+ * caused it (in the sync push's own statement, or in the transaction of a correction or the
+ * seed). It reads the latest revision of each end's current stressing, computes on the
+ * project's basis, stores the evaluation with every input used, raises flags by rule and queues
+ * one e-mail for the new flags: a replayed sync stores nothing new and so sends nothing twice.
  *
  * It is three steps so that the sync push can fold them into its own statements: one query
  * reads the tendon's state (`selectTendonState`), a pure function decides (`planEvaluation`),
@@ -71,7 +71,7 @@ const HALF_GRADUATION_MPA = 50 * 0.006894757293168;
 const RESTRESS_DECISIONS: Decision[] = ["restress", "detension_restress"];
 
 /** The columns of a stored record that the evaluation reads. */
-export const EVALUATED_RECORD_COLUMNS = [
+const EVALUATED_RECORD_COLUMNS = [
   "id",
   "chain_id",
   "revision",
