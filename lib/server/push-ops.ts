@@ -32,7 +32,8 @@ import { auditInsert, recordAudit } from "./record-audit";
  *   concurrent one waits on the key and then does the same;
  * - when another write stored a record of the tendon since the state was read, the op reads the
  *   state again and retries, so two ends stored at the same moment are judged together;
- * - a conflict or a rejection is decided from the read, before anything is written.
+ * - a conflict or a rejection is decided from the read, before anything is written (or from the
+ *   guard, when a record of another tendon took the op's record id in between).
  *
  * An applied op costs two round trips: the read of the tendon's state with the op's references,
  * and the write. Operations on different record chains run side by side; those on one chain run
@@ -49,6 +50,8 @@ export interface Pusher {
 export interface PushHooks {
   /** Called after an op's transaction committed, before its answer is returned (tests use it to lose answers). */
   afterCommit?: (op: SyncOp, result: OpResult) => void | Promise<void>;
+  /** Called between an attempt's read and its write (tests use it to let another write in first). */
+  beforeWrite?: (op: SyncOp, attempt: number) => void | Promise<void>;
 }
 
 const CHAINS_AT_ONCE = 8;
@@ -316,10 +319,11 @@ function guardRefusal(error: unknown): "claim" | "tendon" | "record" | null {
 
 async function attemptOp(
   db: Db,
-  input: { user: Pusher; deviceId: string },
+  input: { user: Pusher; deviceId: string; hooks?: PushHooks },
   op: SyncOp,
   p: RecordPayload,
   day: string,
+  attempt: number,
 ): Promise<OpResult | typeof RETRY> {
   const { user, deviceId } = input;
   const read = await readForOp(db, op, p);
@@ -338,6 +342,7 @@ async function attemptOp(
   });
   const { verdict, provisional, deviationPct, flagKinds } = plan.outcome;
   const evaluation: OpEvaluation = { verdict, provisional, deviationPct, flagKinds };
+  await input.hooks?.beforeWrite?.(op, attempt);
   try {
     await writeTogether(
       db,
@@ -375,9 +380,22 @@ async function attemptOp(
       sql`select sync_write_guard((select count(*) from claim), (select count(*) from raised), (select count(*) from stored))`,
     );
   } catch (error) {
-    // Another write came first: the claim (a concurrent delivery of this op), or a record of the
-    // tendon or under this id. The next read tells which answer is right.
-    if (guardRefusal(error)) return RETRY;
+    // Another write came first. The claim (a concurrent delivery of this op) or the tendon's
+    // version (another record of the tendon): the next read tells which answer is right. The
+    // record alone, with the tendon's version still the one read: its id or revision was taken
+    // since the read by a record of another tendon, so it can only be a conflict.
+    const refused = guardRefusal(error);
+    if (refused === "record") {
+      return {
+        opId: op.opId,
+        status: "conflict",
+        error: {
+          code: "CONFLICT",
+          message: "A record with this id or revision is already stored elsewhere; nothing was saved.",
+        },
+      };
+    }
+    if (refused) return RETRY;
     const refusal = databaseRefusal(op, error);
     if (refusal) return refusal;
     throw error;
@@ -405,7 +423,7 @@ async function applyOp(
     return checked;
   }
   for (let attempt = 1; ; attempt++) {
-    const result = await attemptOp(db, input, op, checked.payload, checked.day);
+    const result = await attemptOp(db, input, op, checked.payload, checked.day, attempt);
     if (result !== RETRY) {
       if (result.status === "applied") await input.hooks?.afterCommit?.(op, result);
       return result;

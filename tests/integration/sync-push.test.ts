@@ -245,3 +245,65 @@ describe("push: both ends of a tendon in one batch", () => {
     }
   });
 });
+
+describe("push: another write between an op's read and its write", () => {
+  const latestOf = (tendonId: string) =>
+    t.db
+      .selectFrom("evaluations")
+      .select(["record_ids", "provisional"])
+      .where("tendon_id", "=", tendonId)
+      .orderBy("created_at", "desc")
+      .execute();
+
+  it("the other end stored first: the op reads again, lands once, and its evaluation reads both ends", async () => {
+    const twoEnded = w.tendons.filter((x) => x.ends === "both");
+    const tendon = twoEnded.at(-11)!;
+    expect(twoEnded.length).toBeGreaterThanOrEqual(11);
+    const endA = createOp(w, tendon.id, { tendonEnd: "A" });
+    const endB = createOp(w, tendon.id, { tendonEnd: "B" });
+    const attempts: number[] = [];
+    const { results } = await pushOps(app, {
+      user: w.crew,
+      deviceId: DEVICE,
+      ops: [endA],
+      hooks: {
+        beforeWrite: async (_op, attempt) => {
+          attempts.push(attempt);
+          if (attempt === 1) expect(statuses(await push([endB]))).toEqual(["applied"]);
+        },
+      },
+    });
+    expect(results[0]).toMatchObject({ status: "applied", evaluation: { provisional: false } });
+    expect(attempts).toEqual([1, 2]);
+    // End B's lone evaluation, then end A's with both: the refused first write left nothing.
+    const evaluations = await latestOf(tendon.id);
+    expect(evaluations.map((e) => [e.record_ids.length, e.provisional])).toEqual([
+      [2, false],
+      [1, true],
+    ]);
+    expect(await recordsOf([endA.recordId, endB.recordId])).toHaveLength(2);
+  });
+
+  it("its record id taken on another tendon meanwhile: a conflict, and nothing of the op is written", async () => {
+    const [mine, theirs] = [w.tendons[20]!, w.tendons[21]!];
+    const op = createOp(w, mine.id);
+    const { results } = await pushOps(app, {
+      user: w.crew,
+      deviceId: DEVICE,
+      ops: [op],
+      hooks: {
+        beforeWrite: async () => {
+          const other = createOp(w, theirs.id);
+          const sameId = { ...other, recordId: op.recordId, payload: { ...(other.payload as RecordPayload), chainId: op.recordId } };
+          expect(statuses(await push([sameId]))).toEqual(["applied"]);
+        },
+      },
+    });
+    expect(results[0]).toMatchObject({ status: "conflict", error: { code: "CONFLICT", message: expect.stringContaining("already stored elsewhere") } });
+    const claim = await t.db.selectFrom("applied_ops").select("op_id").where("op_id", "=", op.opId).execute();
+    expect(claim).toHaveLength(0);
+    expect(await latestOf(mine.id)).toHaveLength(0);
+    const stored = await t.db.selectFrom("records").select("tendon_id").where("id", "=", op.recordId).execute();
+    expect(stored).toEqual([{ tendon_id: theirs.id }]);
+  });
+});
