@@ -1,6 +1,6 @@
 import bcrypt from "bcryptjs";
 import { fitCalibration } from "@/lib/elongation";
-import { predictTendon } from "@/lib/stressing/basis";
+import { predictTendon, projectBasisFromRow } from "@/lib/stressing/basis";
 import { seedDemoRecords } from "./demo-records";
 import type { Kysely } from "kysely";
 import type { Database, Role, StressingEnds, TendonSegment } from "../types";
@@ -253,15 +253,7 @@ export async function seedDemo(db: Kysely<Database>, options: { today?: Date; re
       if (!factor) return null;
       const lot = lotValues.find((l) => l.lot_number === t.lot);
       const predicted = predictTendon({
-        project: {
-          tolerancePct: basis.tolerance_pct,
-          shortTendonFloorMm: basis.short_tendon_floor_mm,
-          comparisonBasis: basis.comparison_basis,
-          countJackGrip: basis.count_jack_grip,
-          frictionMu: basis.friction_mu,
-          wobblePerM: basis.wobble_per_m,
-          anchorSetMm: basis.anchor_set_mm,
-        },
+        project: projectBasisFromRow(basis),
         tendon: { strandSize: "0.5 in", strandCount: 1, segments: t.segments, ends: t.ends, jackGripMm: 18 * IN },
         lot: lot ? { areaMm2: lot.area_mm2, modulusMPa: lot.modulus_mpa, breakingLoadN: lot.breaking_load_n } : null,
       }).predictedMm;

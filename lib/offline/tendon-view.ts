@@ -1,4 +1,4 @@
-import { judgeTendon, predictTendon, stressedEnds, targetPressureMPa, type CalibrationLine, type EndReading, type ProjectBasis } from "@/lib/stressing/basis";
+import { judgeTendon, predictTendon, stressedEnds, targetPressureMPa, type CalibrationLine, type EndReading } from "@/lib/stressing/basis";
 import type { FieldCalibration, FieldEquipmentSet, FieldEvaluation, FieldFlag, FieldProject, FieldStrandLot, FieldTendon } from "@/lib/schemas/sync";
 import type { LocalRecord, LocalVerdict } from "./db";
 
@@ -9,16 +9,6 @@ import type { LocalRecord, LocalVerdict } from "./db";
  */
 
 export type TendonState = "not stressed" | "one end done" | "done" | "flagged";
-
-export const projectBasis = (p: FieldProject): ProjectBasis => ({
-  tolerancePct: p.tolerancePct,
-  shortTendonFloorMm: p.shortTendonFloorMm,
-  comparisonBasis: p.comparisonBasis,
-  countJackGrip: p.countJackGrip,
-  frictionMu: p.frictionMu,
-  wobblePerM: p.wobblePerM,
-  anchorSetMm: p.anchorSetMm,
-});
 
 export const calibrationLine = (c: FieldCalibration): CalibrationLine => ({
   slope: c.slope,
@@ -66,7 +56,7 @@ const lotBasis = (lot: FieldStrandLot | null) => (lot ? { areaMm2: lot.areaMm2, 
 /** The gauge pressure to pull to on the set's calibration, MPa; null without a calibration. */
 export function targetFor(ctx: TendonContext, calibration: FieldCalibration | null): number | null {
   if (!calibration) return null;
-  const predicted = predictTendon({ project: projectBasis(ctx.project), tendon: ctx.tendon, lot: lotBasis(ctx.lot), equipmentGripMm: ctx.set?.jackGripMm });
+  const predicted = predictTendon({ project: ctx.project, tendon: ctx.tendon, lot: lotBasis(ctx.lot), equipmentGripMm: ctx.set?.jackGripMm });
   return targetPressureMPa(calibrationLine(calibration), predicted.jackingForceN);
 }
 
@@ -80,7 +70,7 @@ export function provisionalVerdict(ctx: TendonContext, records: LocalRecord[]): 
     readings.push({ end: r.tendonEnd, measuredMm: r.measuredMm, initialPressureMPa: r.initialPressureMPa, finalPressureMPa: r.finalPressureMPa, calibration: cal ? calibrationLine(cal) : null });
   }
   if (!readings.length) return null;
-  const project = projectBasis(ctx.project);
+  const project = ctx.project;
   const predicted = predictTendon({ project, tendon: ctx.tendon, lot: lotBasis(ctx.lot), equipmentGripMm: ctx.set?.jackGripMm });
   const judged = judgeTendon({ project, tendon: ctx.tendon, predicted, readings });
   return {

@@ -1,4 +1,5 @@
 import "server-only";
+import { projectBasisFromRow } from "@/lib/stressing/basis";
 import type { Kysely } from "kysely";
 import type { Database, Decision, FlagKind, FlagStatus, ReviewKind } from "@/db/types";
 import { ENGINE_VERSION } from "@/lib/elongation";
@@ -162,14 +163,8 @@ export async function getPourReport(
       releaseBy: project.release_by,
     },
     basis: {
-      tolerancePct: project.tolerance_pct,
+      ...projectBasisFromRow(project),
       groupTolerancePct: project.group_tolerance_pct,
-      shortTendonFloorMm: project.short_tendon_floor_mm,
-      comparisonBasis: project.comparison_basis,
-      countJackGrip: project.count_jack_grip,
-      frictionMu: project.friction_mu,
-      wobblePerM: project.wobble_per_m,
-      anchorSetMm: project.anchor_set_mm,
       requiredConcreteMpa: project.required_concrete_mpa,
     },
     pour: {

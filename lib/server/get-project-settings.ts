@@ -1,4 +1,5 @@
 import "server-only";
+import { projectBasisFromRow } from "@/lib/stressing/basis";
 import type { Db } from "@/db/connect";
 import { AppError } from "@/lib/errors";
 import type { ProjectSettings } from "@/lib/schemas/project-settings";
@@ -19,14 +20,8 @@ export async function getProjectSettings(db: Db, projectId: string): Promise<Pro
     address: p.address,
     unitSystem: p.unit_system,
     readingResolution: p.reading_resolution,
-    tolerancePct: p.tolerance_pct,
+    ...projectBasisFromRow(p),
     groupTolerancePct: p.group_tolerance_pct,
-    shortTendonFloorMm: p.short_tendon_floor_mm,
-    comparisonBasis: p.comparison_basis,
-    countJackGrip: p.count_jack_grip,
-    frictionMu: p.friction_mu,
-    wobblePerM: p.wobble_per_m,
-    anchorSetMm: p.anchor_set_mm,
     calibrationValidityDays: p.calibration_validity_days,
     requiredConcreteMPa: p.required_concrete_mpa,
     engineerOfRecordName: p.engineer_of_record_name,

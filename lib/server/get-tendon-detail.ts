@@ -3,7 +3,7 @@ import type { Db } from "@/db/connect";
 import type { StressingEnds, TendonKind, TendonSegment } from "@/db/types";
 import { forceProfile, isInputError, type Check, type ForceProfile } from "@/lib/elongation";
 import type { CalibrationState } from "@/lib/schemas/calibration";
-import { predictTendon, targetPressureMPa, type ProjectBasis, type TendonPrediction } from "@/lib/stressing/basis";
+import { predictTendon, targetPressureMPa, type TendonPrediction } from "@/lib/stressing/basis";
 import { getProjectSettings, type ProjectSettingsView } from "./get-project-settings";
 import { loadTendonBasis } from "./load-tendon-basis";
 import { listEquipmentSets } from "./list-equipment-sets";
@@ -51,18 +51,6 @@ export interface TendonDetail {
   targets: TargetForSet[];
 }
 
-export function projectBasis(p: ProjectSettingsView): ProjectBasis {
-  return {
-    tolerancePct: p.tolerancePct,
-    shortTendonFloorMm: p.shortTendonFloorMm,
-    comparisonBasis: p.comparisonBasis,
-    countJackGrip: p.countJackGrip,
-    frictionMu: p.frictionMu,
-    wobblePerM: p.wobblePerM,
-    anchorSetMm: p.anchorSetMm,
-  };
-}
-
 /** Everything the tendon screen shows, computed by the shared basis (never re-derived here). */
 export async function getTendonDetail(
   db: Db,
@@ -73,8 +61,7 @@ export async function getTendonDetail(
     getProjectSettings(db, input.projectId),
     listEquipmentSets(db, input.projectId, input.today),
   ]);
-  const { tendon, lot } = loaded;
-  const basis = projectBasis(project);
+  const { project: basis, tendon, lot } = loaded;
 
   let computed: TendonDetail["computed"];
   try {

@@ -2,7 +2,7 @@ import "server-only";
 import type { Kysely, QueryCreator } from "kysely";
 import type { Database, TendonKind } from "@/db/types";
 import { AppError } from "@/lib/errors";
-import type { LotBasis, ProjectBasis, TendonBasis } from "@/lib/stressing/basis";
+import { projectBasisFromRow, type LotBasis, type ProjectBasis, type TendonBasis } from "@/lib/stressing/basis";
 import type { DisplayUnits, StoredResolution } from "@/lib/stressing/display";
 
 export interface LoadedTendon {
@@ -95,13 +95,7 @@ export function toLoadedTendon(row: BasisRow): LoadedTendon {
       name: row.projectName,
       unitSystem: row.unit_system,
       readingResolution: row.reading_resolution as StoredResolution,
-      tolerancePct: row.tolerance_pct,
-      shortTendonFloorMm: row.short_tendon_floor_mm,
-      comparisonBasis: row.comparison_basis,
-      countJackGrip: row.count_jack_grip,
-      frictionMu: row.friction_mu,
-      wobblePerM: row.wobble_per_m,
-      anchorSetMm: row.anchor_set_mm,
+      ...projectBasisFromRow(row),
       requiredConcreteMpa: row.required_concrete_mpa,
       engineerOfRecordName: row.engineer_of_record_name,
       engineerOfRecordEmail: row.engineer_of_record_email,

@@ -1,4 +1,5 @@
 import "server-only";
+import { projectBasisFromRow } from "@/lib/stressing/basis";
 import { sql, type Kysely, type Transaction } from "kysely";
 import type { Database } from "@/db/types";
 import type { SessionUser } from "@/lib/auth/session";
@@ -215,13 +216,7 @@ export async function pullChanges(
           name: p.name,
           unitSystem: p.unit_system,
           readingResolution: p.reading_resolution,
-          tolerancePct: p.tolerance_pct,
-          shortTendonFloorMm: p.short_tendon_floor_mm,
-          comparisonBasis: p.comparison_basis,
-          countJackGrip: p.count_jack_grip,
-          frictionMu: p.friction_mu,
-          wobblePerM: p.wobble_per_m,
-          anchorSetMm: p.anchor_set_mm,
+          ...projectBasisFromRow(p),
           blindEntry: p.blind_entry,
         })),
         pours: pours.map((p) => ({

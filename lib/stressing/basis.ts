@@ -31,6 +31,28 @@ export interface ProjectBasis {
   anchorSetMm: number;
 }
 
+/** The basis columns of a `projects` row. */
+export interface ProjectBasisColumns {
+  tolerance_pct: number;
+  short_tendon_floor_mm: number | null;
+  comparison_basis: "gross" | "net";
+  count_jack_grip: boolean;
+  friction_mu: number;
+  wobble_per_m: number;
+  anchor_set_mm: number;
+}
+
+/** The basis of a project as stored. */
+export const projectBasisFromRow = (p: ProjectBasisColumns): ProjectBasis => ({
+  tolerancePct: p.tolerance_pct,
+  shortTendonFloorMm: p.short_tendon_floor_mm,
+  comparisonBasis: p.comparison_basis,
+  countJackGrip: p.count_jack_grip,
+  frictionMu: p.friction_mu,
+  wobblePerM: p.wobble_per_m,
+  anchorSetMm: p.anchor_set_mm,
+});
+
 export interface TendonBasis {
   strandSize: string;
   strandCount: number;

@@ -18,7 +18,7 @@ import type { Database } from "../../db/types";
 import { fitCalibration } from "../../lib/elongation/index";
 import { payloadFromForm, EMPTY_RECORD_FORM, type RecordPayload } from "../../lib/schemas/record";
 import type { PushResponse } from "../../lib/schemas/sync";
-import { predictTendon, targetPressureMPa } from "../../lib/stressing/basis";
+import { predictTendon, projectBasisFromRow, targetPressureMPa } from "../../lib/stressing/basis";
 
 const RECORDS = 1_000;
 const BATCH = 50;
@@ -89,15 +89,7 @@ async function seedBench(db: Kysely<Database>, password: string) {
     .returning("id")
     .executeTakeFirstOrThrow();
   const projectRow = await db.selectFrom("projects").selectAll().where("id", "=", project.id).executeTakeFirstOrThrow();
-  const basis = {
-    tolerancePct: projectRow.tolerance_pct,
-    shortTendonFloorMm: projectRow.short_tendon_floor_mm,
-    comparisonBasis: projectRow.comparison_basis,
-    countJackGrip: projectRow.count_jack_grip,
-    frictionMu: projectRow.friction_mu,
-    wobblePerM: projectRow.wobble_per_m,
-    anchorSetMm: projectRow.anchor_set_mm,
-  };
+  const basis = projectBasisFromRow(projectRow);
   const predicted = predictTendon({ project: basis, tendon: { strandSize: "0.5 in", strandCount: 1, segments, ends: "A", jackGripMm: null }, lot: null });
   const targetMPa = targetPressureMPa({ slope: fit.slope, intercept: fit.intercept, minPressureMPa: 5, maxPressureMPa: 40 }, predicted.jackingForceN * 0.98);
   const payloads: { recordId: string; payload: RecordPayload }[] = tendons.map((t) => {

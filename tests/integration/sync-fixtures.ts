@@ -4,7 +4,7 @@ import { seedDemo } from "@/db/seed/demo";
 import { payloadFromForm, EMPTY_RECORD_FORM, type RecordFormValues, type RecordPayload } from "@/lib/schemas/record";
 import type { SyncOp } from "@/lib/schemas/sync";
 import type { Pusher } from "@/lib/server/push-ops";
-import { predictTendon, targetPressureMPa } from "@/lib/stressing/basis";
+import { predictTendon, projectBasisFromRow, targetPressureMPa } from "@/lib/stressing/basis";
 import { formatLength, mpaToPsi } from "@/lib/units";
 
 /** The demo job in a test database, with what the sync tests push against. */
@@ -68,15 +68,7 @@ export async function buildWorld(db: Db): Promise<SyncWorld> {
     .returning("id")
     .executeTakeFirstOrThrow();
 
-  const basisProject = {
-    tolerancePct: project.tolerance_pct,
-    shortTendonFloorMm: project.short_tendon_floor_mm,
-    comparisonBasis: project.comparison_basis,
-    countJackGrip: project.count_jack_grip,
-    frictionMu: project.friction_mu,
-    wobblePerM: project.wobble_per_m,
-    anchorSetMm: project.anchor_set_mm,
-  };
+  const basisProject = projectBasisFromRow(project);
   const line = { slope: a.slope_n_per_mpa, intercept: a.intercept_n, minPressureMPa: a.min_pressure_mpa, maxPressureMPa: a.max_pressure_mpa };
   const first = await db.selectFrom("tendons").selectAll().where("id", "=", tendons[0]!.id).executeTakeFirstOrThrow();
   const jackingForce = predictTendon({ project: basisProject, tendon: { strandSize: first.strand_size, strandCount: first.strand_count, segments: first.segments, ends: first.ends, jackGripMm: first.jack_grip_mm }, lot: null }).jackingForceN;
