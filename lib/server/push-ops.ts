@@ -1,7 +1,7 @@
 import "server-only";
 import { setTimeout as sleep } from "node:timers/promises";
 import { sql, type Kysely } from "kysely";
-import { jsonObjectFrom } from "kysely/helpers/postgres";
+import { jsonArrayFrom, jsonObjectFrom } from "kysely/helpers/postgres";
 import { reusableQuery } from "@/db/reusable-query";
 import type { Database } from "@/db/types";
 import { can } from "@/lib/auth/permissions";
@@ -32,8 +32,8 @@ import { auditInsert, recordAudit } from "./record-audit";
  *   concurrent one waits on the key and then does the same;
  * - when another write stored a record of the tendon since the state was read, the op reads the
  *   state again and retries, so two ends stored at the same moment are judged together;
- * - a conflict or a rejection is decided from the read, before anything is written (or from the
- *   guard, when a record of another tendon took the op's record id in between).
+ * - a conflict or a rejection is decided from the read, before anything is written; the read
+ *   covers every row the write could collide with, so a refused write always reads again.
  *
  * An applied op costs two round trips: the read of the tendon's state with the op's references,
  * and the write. Operations on different record chains run side by side; those on one chain run
@@ -184,6 +184,10 @@ const opRead = reusableQuery(
           .orderBy("records.revision", "desc")
           .limit(1),
       ).as("chainHead"),
+      // Every revision of the chain stored anywhere: the write's other unique key.
+      jsonArrayFrom(eb.selectFrom("records").select("records.revision").where("records.chain_id", "=", a.chainId)).as(
+        "chainRevisions",
+      ),
     ]),
 );
 
@@ -275,11 +279,11 @@ function answerFromRead(op: SyncOp, user: Pusher, p: RecordPayload, day: string,
     if (sameValues(read.sameId, p)) return { opId: op.opId, status: "duplicate", revision: p.revision };
     const error: OpError = {
       code: "CONFLICT",
-      message: "A record with this id is already stored with other values; nothing was saved.",
+      message: "A record with this id is already stored elsewhere or with other values; nothing was saved.",
     };
     return { opId: op.opId, status: "conflict", error };
   }
-  if (op.kind === "create" && head) {
+  if (read.chainRevisions.some((r) => r.revision === p.revision)) {
     const error: OpError = {
       code: "CONFLICT",
       message: `Revision ${p.revision} of this record was saved from elsewhere first; nothing was saved.`,
@@ -311,11 +315,8 @@ function asEvaluated(op: SyncOp, p: RecordPayload, receivedAt: Date): EvaluatedR
 
 const RETRY = Symbol("read again");
 
-/** Which part of the guarded write refused, when sync_write_guard did. */
-function guardRefusal(error: unknown): "claim" | "tendon" | "record" | null {
-  const e = error as { code?: unknown; hint?: unknown };
-  return e?.code === "TL409" && (e.hint === "claim" || e.hint === "tendon" || e.hint === "record") ? e.hint : null;
-}
+/** sync_write_guard refused the write (its hint says which row was missing). */
+const refusedByGuard = (error: unknown): boolean => (error as { code?: unknown } | null)?.code === "TL409";
 
 async function attemptOp(
   db: Db,
@@ -380,22 +381,10 @@ async function attemptOp(
       sql`select sync_write_guard((select count(*) from claim), (select count(*) from raised), (select count(*) from stored))`,
     );
   } catch (error) {
-    // Another write came first. The claim (a concurrent delivery of this op) or the tendon's
-    // version (another record of the tendon): the next read tells which answer is right. The
-    // record alone, with the tendon's version still the one read: its id or revision was taken
-    // since the read by a record of another tendon, so it can only be a conflict.
-    const refused = guardRefusal(error);
-    if (refused === "record") {
-      return {
-        opId: op.opId,
-        status: "conflict",
-        error: {
-          code: "CONFLICT",
-          message: "A record with this id or revision is already stored elsewhere; nothing was saved.",
-        },
-      };
-    }
-    if (refused) return RETRY;
+    // Another write came first: a concurrent delivery of this op (the claim), another record of
+    // the tendon (its version) or a record taking this one's id or revision. The read covers each
+    // of them, so reading again tells which answer is right.
+    if (refusedByGuard(error)) return RETRY;
     const refusal = databaseRefusal(op, error);
     if (refusal) return refusal;
     throw error;
