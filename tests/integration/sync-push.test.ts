@@ -25,6 +25,14 @@ afterAll(async () => {
 
 const push = (ops: SyncOp[], user: Pusher = w.crew) => pushOps(app, { user, deviceId: DEVICE, ops });
 const statuses = (r: { results: { status: string }[] }) => r.results.map((x) => x.status);
+/** A tendon's evaluations, the latest first. */
+const evaluationsOf = (tendonId: string) =>
+  t.db
+    .selectFrom("evaluations")
+    .select(["record_ids", "provisional"])
+    .where("tendon_id", "=", tendonId)
+    .orderBy("created_at", "desc")
+    .execute();
 const recordsOf = (recordIds: string[]) => t.db.selectFrom("records").select(["id", "revision"]).where("id", "in", recordIds).execute();
 
 describe("push: idempotency", () => {
@@ -198,13 +206,7 @@ describe("push: both ends of a tendon in one batch", () => {
     const ops = twoEnded.flatMap((x) => [createOp(w, x.id, { tendonEnd: "A" }), createOp(w, x.id, { tendonEnd: "B" })]);
     expect(statuses(await push(ops))).toEqual(ops.map(() => "applied"));
     for (const x of twoEnded) {
-      const latest = await t.db
-        .selectFrom("evaluations")
-        .select(["record_ids", "provisional"])
-        .where("tendon_id", "=", x.id)
-        .orderBy("created_at", "desc")
-        .limit(1)
-        .executeTakeFirstOrThrow();
+      const latest = (await evaluationsOf(x.id))[0]!;
       expect({ tag: x.tag, ends: latest.record_ids.length, provisional: latest.provisional }).toEqual({
         tag: x.tag,
         ends: 2,
@@ -232,13 +234,7 @@ describe("push: both ends of a tendon in one batch", () => {
         push([createOp(w, x.id, { tendonEnd: "B" })]),
       ]);
       expect(statuses(pushed)).toEqual(["applied"]);
-      const latest = await t.db
-        .selectFrom("evaluations")
-        .select(["record_ids", "provisional"])
-        .where("tendon_id", "=", x.id)
-        .orderBy("created_at", "desc")
-        .limit(1)
-        .executeTakeFirstOrThrow();
+      const latest = (await evaluationsOf(x.id))[0]!;
       expect(latest.provisional).toBe(false);
       expect(latest.record_ids).toContain(corrected.recordId);
       expect(latest.record_ids).toHaveLength(2);
@@ -247,14 +243,6 @@ describe("push: both ends of a tendon in one batch", () => {
 });
 
 describe("push: another write between an op's read and its write", () => {
-  const latestOf = (tendonId: string) =>
-    t.db
-      .selectFrom("evaluations")
-      .select(["record_ids", "provisional"])
-      .where("tendon_id", "=", tendonId)
-      .orderBy("created_at", "desc")
-      .execute();
-
   it("the other end stored first: the op reads again, lands once, and its evaluation reads both ends", async () => {
     const twoEnded = w.tendons.filter((x) => x.ends === "both");
     const tendon = twoEnded.at(-11)!;
@@ -276,7 +264,7 @@ describe("push: another write between an op's read and its write", () => {
     expect(results[0]).toMatchObject({ status: "applied", evaluation: { provisional: false } });
     expect(attempts).toEqual([1, 2]);
     // End B's lone evaluation, then end A's with both: the refused first write left nothing.
-    const evaluations = await latestOf(tendon.id);
+    const evaluations = await evaluationsOf(tendon.id);
     expect(evaluations.map((e) => [e.record_ids.length, e.provisional])).toEqual([
       [2, false],
       [1, true],
@@ -302,7 +290,7 @@ describe("push: another write between an op's read and its write", () => {
     expect(results[0]).toMatchObject({ status: "conflict", error: { code: "CONFLICT", message: expect.stringContaining("already stored elsewhere") } });
     const claim = await t.db.selectFrom("applied_ops").select("op_id").where("op_id", "=", op.opId).execute();
     expect(claim).toHaveLength(0);
-    expect(await latestOf(mine.id)).toHaveLength(0);
+    expect(await evaluationsOf(mine.id)).toHaveLength(0);
     const stored = await t.db.selectFrom("records").select("tendon_id").where("id", "=", op.recordId).execute();
     expect(stored).toEqual([{ tendon_id: theirs.id }]);
   });
