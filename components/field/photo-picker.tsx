@@ -1,16 +1,11 @@
 "use client";
 import { useState } from "react";
+import type { LocalPhoto } from "@/lib/offline/db";
 
-export interface PickedPhoto {
-  id: string;
-  blob: Blob;
-  contentType: string;
-  sizeBytes: number;
-  width: number;
-  height: number;
-  takenAt: string;
+/** A photo as the tablet will store it, with a preview URL until it is saved. */
+export type PickedPhoto = Pick<LocalPhoto, "id" | "blob" | "contentType" | "sizeBytes" | "width" | "height" | "takenAt"> & {
   url: string;
-}
+};
 
 const MAX_EDGE = 1600;
 
