@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { expectInputError } from "../../tests/reference/support";
+import { expectInputError, sampleTendon } from "../../tests/reference/support";
 import { influenceLengthMm, mirrorLevelN, seatPolyline } from "./anchor-set";
 import { predictElongation } from "./predict";
 
@@ -78,20 +78,13 @@ describe("seatPolyline", () => {
   });
 
   it("agrees with the exponential engine when given the engine's force line finely sampled", () => {
-    const tendon = {
+    const tendon = sampleTendon({
       segments: [
         { lengthMm: 8_000, angleRad: 0.3 },
         { lengthMm: 20_000, angleRad: 0.05 },
       ],
-      strandAreaMm2: 98.7,
-      strandCount: 1,
-      modulusMPa: 196_500,
-      jackingForceN: 147_000,
-      wobblePerM: 0.0033,
-      mu: 0.07,
       anchorSetMm: 6,
-      ends: "A" as const,
-    };
+    });
     const engine = predictElongation(tendon).seating!;
     const points = [];
     for (let x = 0; x <= 28_000; x += 10) {
