@@ -10,11 +10,14 @@ export async function createTendon(
 ): Promise<{ tendonId: string }> {
   const v = input.values;
   return db.transaction().execute(async (trx) => {
+    // The pour's row lock serialises the tag check with other writers of its tendons (the
+    // schedule import takes it too), so two at once cannot both pass it.
     const pour = await trx
       .selectFrom("pours")
       .select("id")
       .where("project_id", "=", input.projectId)
       .where("id", "=", input.pourId)
+      .forUpdate()
       .executeTakeFirst();
     if (!pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
     const clash = await trx

@@ -114,6 +114,14 @@ describe("strand lots, calibrations and the tendon detail", () => {
     expect(detail.computed.shopDifferencePct).toBeCloseTo(((80 - detail.computed.prediction.predictedMm) / detail.computed.prediction.predictedMm) * 100, 9);
   });
 
+  it("two admins adding the same tag at once: one tendon, and the other is told the tag is taken", async () => {
+    const values = { tag: "4-1-RACE", kind: "unbonded_monostrand" as const, strandSize: "0.5 in", strandCount: 1, segments: [{ lengthMm: 9144, angleRad: 0.05 }], ends: "A" as const, jackGripMm: null, shopElongationMm: null, strandLotId: null };
+    const outcomes = await Promise.allSettled(Array.from({ length: 4 }, () => createTendon(t.db, { projectId: ayp, pourId, values })));
+    expect(outcomes.filter((o) => o.status === "fulfilled")).toHaveLength(1);
+    for (const o of outcomes.filter((x) => x.status === "rejected")) expect(o.reason).toMatchObject({ code: "CONFLICT", fields: { tag: expect.any(Array) } });
+    expect(await t.db.selectFrom("tendons").select("id").where("pour_id", "=", pourId).where("tag", "=", "4-1-RACE").execute()).toHaveLength(1);
+  });
+
   it("the demo seed gives shop-drawing elongations, two per pour more than 2 % from ours", async () => {
     const withShop = await t.db.selectFrom("tendons").select(["id", "tag"]).where("project_id", "=", ayp).where("shop_elongation_mm", "is not", null).where("pour_id", "!=", pourId).execute();
     expect(withShop).toHaveLength(18);
