@@ -3,7 +3,8 @@
 import { signIn } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { FieldError, FormMessage } from "@/components/ui/form-message";
+import { FormMessage } from "@/components/ui/form-message";
+import { TextField } from "@/components/ui/text-field";
 import { sendJson } from "@/lib/client/send-json";
 
 export function AcceptInvitationForm({ token, email, hasAccount }: { token: string; email: string; hasAccount: boolean }) {
@@ -47,27 +48,15 @@ export function AcceptInvitationForm({ token, email, hasAccount }: { token: stri
         <p>You already have a Tautline account as {email}. Accept, then sign in as usual.</p>
       ) : (
         <>
-          <div>
-            <label htmlFor="name" className="field-label">
-              Your name
-            </label>
-            <input id="name" name="name" autoComplete="name" className="field-input mt-1" aria-describedby="name-error" />
-            <FieldError id="name-error" messages={fields.name} />
-          </div>
-          <div>
-            <label htmlFor="password" className="field-label">
-              Choose a password (10 characters or more)
-            </label>
-            <input
-              id="password"
-              name="password"
-              type="password"
-              autoComplete="new-password"
-              className="field-input mt-1"
-              aria-describedby="password-error"
-            />
-            <FieldError id="password-error" messages={fields.password} />
-          </div>
+          <TextField id="name" name="name" autoComplete="name" label="Your name" errors={fields.name} />
+          <TextField
+            id="password"
+            name="password"
+            type="password"
+            autoComplete="new-password"
+            label="Choose a password (10 characters or more)"
+            errors={fields.password}
+          />
         </>
       )}
       <button type="submit" className="btn-primary" disabled={busy}>

@@ -1,7 +1,8 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { FieldError, FormMessage } from "@/components/ui/form-message";
+import { FormMessage } from "@/components/ui/form-message";
+import { TextField } from "@/components/ui/text-field";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
 
@@ -17,13 +18,7 @@ export function RequestResetForm() {
       }}
     >
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
-      <div>
-        <label htmlFor="email" className="field-label">
-          E-mail
-        </label>
-        <input id="email" name="email" type="email" autoComplete="username" className="field-input mt-1" aria-describedby="email-error" />
-        <FieldError id="email-error" messages={fields.email} />
-      </div>
+      <TextField id="email" name="email" type="email" autoComplete="username" label="E-mail" errors={fields.email} />
       <button type="submit" className="btn-primary">
         Send a reset link
       </button>
@@ -45,13 +40,14 @@ export function NewPasswordForm({ token }: { token: string }) {
       }}
     >
       <FormMessage tone="error">{message?.text}</FormMessage>
-      <div>
-        <label htmlFor="password" className="field-label">
-          New password (10 characters or more)
-        </label>
-        <input id="password" name="password" type="password" autoComplete="new-password" className="field-input mt-1" aria-describedby="password-error" />
-        <FieldError id="password-error" messages={fields.password} />
-      </div>
+      <TextField
+        id="password"
+        name="password"
+        type="password"
+        autoComplete="new-password"
+        label="New password (10 characters or more)"
+        errors={fields.password}
+      />
       <button type="submit" className="btn-primary">
         Save the new password
       </button>

@@ -1,7 +1,8 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { FieldError, FormMessage } from "@/components/ui/form-message";
+import { FormMessage } from "@/components/ui/form-message";
+import { TextField } from "@/components/ui/text-field";
 import type { Role } from "@/db/types";
 import { ROLE_LABELS, ROLES } from "@/lib/auth/permissions";
 import { sendJson } from "@/lib/client/send-json";
@@ -55,13 +56,7 @@ export function MembersPanel(props: { projectId: string; currentUserId: string; 
             if (ok) form.reset();
           }}
         >
-          <div>
-            <label htmlFor="invite-email" className="field-label">
-              E-mail
-            </label>
-            <input id="invite-email" name="email" type="email" className="field-input mt-1" aria-describedby="invite-email-error" />
-            <FieldError id="invite-email-error" messages={fields.email} />
-          </div>
+          <TextField id="invite-email" name="email" type="email" label="E-mail" errors={fields.email} />
           <div>
             <label htmlFor="invite-role" className="field-label">
               Role

@@ -3,6 +3,7 @@
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { FieldError, FormMessage } from "@/components/ui/form-message";
+import { TextField } from "@/components/ui/text-field";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
 import { DECISION_LABELS, DECISIONS } from "@/lib/schemas/review";
@@ -84,21 +85,21 @@ export function ReviewForm({ projectId, flags, unit }: { projectId: string; flag
         </div>
       </fieldset>
       {kind === "remeasured" && (
-        <div>
-          <label htmlFor="remeasured" className="field-label">
-            Re-measured elongation ({unit})
-          </label>
-          <input id="remeasured" name="remeasured" inputMode="decimal" className="field-input mt-1" aria-describedby="remeasured-error" />
-          <FieldError id="remeasured-error" messages={fields.remeasuredMm} />
-        </div>
+        <TextField
+          id="remeasured"
+          name="remeasured"
+          inputMode="decimal"
+          label={`Re-measured elongation (${unit})`}
+          errors={fields.remeasuredMm}
+        />
       )}
-      <div>
-        <label htmlFor="review-body" className="field-label">
-          {kind === "closed_paperwork" ? "Reason for closing" : kind === "sent_to_engineer" ? "Note for the engineer" : "What you found"}
-        </label>
-        <textarea id="review-body" name="body" rows={3} className="field-input mt-1 py-2" aria-describedby="review-body-error" />
-        <FieldError id="review-body-error" messages={fields.body} />
-      </div>
+      <TextField
+        id="review-body"
+        name="body"
+        rows={3}
+        label={kind === "closed_paperwork" ? "Reason for closing" : kind === "sent_to_engineer" ? "Note for the engineer" : "What you found"}
+        errors={fields.body}
+      />
       <button type="submit" className="btn-primary" disabled={busy}>
         {busy ? "Saving…" : "Add to the trail"}
       </button>
@@ -141,20 +142,14 @@ export function DispositionForm({ projectId, flags, engineerName }: { projectId:
         </div>
         <FieldError id="decision-error" messages={fields.decision} />
       </fieldset>
-      <div>
-        <label htmlFor="reasons" className="field-label">
-          Reasons
-        </label>
-        <textarea id="reasons" name="reasons" rows={4} className="field-input mt-1 py-2" aria-describedby="reasons-error" />
-        <FieldError id="reasons-error" messages={fields.reasons} />
-      </div>
-      <div>
-        <label htmlFor="licence" className="field-label">
-          Licence statement of {engineerName}
-        </label>
-        <input id="licence" name="licence" className="field-input mt-1" placeholder="Licensed professional engineer, jurisdiction and number" aria-describedby="licence-error" />
-        <FieldError id="licence-error" messages={fields.licenceStatement} />
-      </div>
+      <TextField id="reasons" name="reasons" rows={4} label="Reasons" errors={fields.reasons} />
+      <TextField
+        id="licence"
+        name="licence"
+        placeholder="Licensed professional engineer, jurisdiction and number"
+        label={`Licence statement of ${engineerName}`}
+        errors={fields.licenceStatement}
+      />
       <button type="submit" className="btn-primary" disabled={busy}>
         {busy ? "Recording…" : "Record the disposition"}
       </button>
@@ -189,20 +184,14 @@ export function CorrectionForm({ projectId, recordId, unit }: { projectId: strin
       }}
     >
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
-      <div>
-        <label htmlFor={`measured-${recordId}`} className="field-label">
-          Correct elongation ({unit})
-        </label>
-        <input id={`measured-${recordId}`} name="measured" inputMode="decimal" className="field-input mt-1" />
-        <FieldError id={`measured-${recordId}-error`} messages={fields.measuredMm} />
-      </div>
-      <div>
-        <label htmlFor={`reason-${recordId}`} className="field-label">
-          Why the record was wrong
-        </label>
-        <input id={`reason-${recordId}`} name="reason" className="field-input mt-1" />
-        <FieldError id={`reason-${recordId}-error`} messages={fields.reason} />
-      </div>
+      <TextField
+        id={`measured-${recordId}`}
+        name="measured"
+        inputMode="decimal"
+        label={`Correct elongation (${unit})`}
+        errors={fields.measuredMm}
+      />
+      <TextField id={`reason-${recordId}`} name="reason" label="Why the record was wrong" errors={fields.reason} />
       <button type="submit" className="btn-primary" disabled={busy}>
         Save the correction
       </button>
