@@ -1,14 +1,18 @@
 "use client";
-import { createContext, useContext, useEffect, useState, type ReactNode } from "react";
+import { createContext, useContext, useEffect, useMemo, useState, type ReactNode } from "react";
 import { fieldDb, readMeta, updateSyncMeta, writeMeta, type FieldDb, type SessionMeta } from "@/lib/offline/db";
+import { outboxStatus, type OutboxStatus } from "@/lib/offline/outbox";
 import { uploadPhotos } from "@/lib/offline/photo-upload";
 import { SyncClient } from "@/lib/offline/sync-client";
+import { useLive } from "./use-live";
 
 interface FieldApi {
   db: FieldDb;
   client: SyncClient;
   /** Sync now: resets the backoff, pushes, pulls, then uploads waiting photos. */
   syncNow: () => Promise<void>;
+  /** What the outbox holds, read once for every screen that shows or waits on it (undefined while loading). */
+  outbox: OutboxStatus | undefined;
 }
 
 const FieldContext = createContext<FieldApi | null>(null);
@@ -64,7 +68,7 @@ async function protectStorage(db: FieldDb): Promise<void> {
 }
 
 export function FieldProvider({ children }: { children: ReactNode }) {
-  const [api] = useState<FieldApi>(() => {
+  const [api] = useState<Omit<FieldApi, "outbox">>(() => {
     const db = fieldDb();
     const client = new SyncClient({ db });
     return {
@@ -93,5 +97,7 @@ export function FieldProvider({ children }: { children: ReactNode }) {
     };
   }, [api]);
 
-  return <FieldContext.Provider value={api}>{children}</FieldContext.Provider>;
+  const outbox = useLive(() => outboxStatus(api.db), [api]);
+  const value = useMemo(() => ({ ...api, outbox }), [api, outbox]);
+  return <FieldContext.Provider value={value}>{children}</FieldContext.Provider>;
 }

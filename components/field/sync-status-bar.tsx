@@ -1,7 +1,6 @@
 "use client";
 import { useEffect, useState } from "react";
 import { EMPTY_SYNC_META, readMeta, type SyncMeta } from "@/lib/offline/db";
-import { outboxStatus } from "@/lib/offline/outbox";
 import { useField } from "./field-provider";
 import { ago, clockTime, useLive, useNow } from "./use-live";
 
@@ -31,11 +30,10 @@ function Item({ label, value, tone = "plain", testId }: { label: string; value: 
 
 /** Always on screen: what waits to be sent, since when, the last sync the server confirmed, what needs a person, and storage protection. */
 export function SyncStatusBar() {
-  const { db, syncNow } = useField();
+  const { db, syncNow, outbox: status } = useField();
   const now = useNow();
   const online = useOnline();
   const [busy, setBusy] = useState(false);
-  const status = useLive(() => outboxStatus(db), [db]);
   const meta = useLive(async () => ({ ...EMPTY_SYNC_META, ...(await readMeta<SyncMeta>(db, "sync")) }), [db]);
 
   const pending = status?.pending ?? 0;

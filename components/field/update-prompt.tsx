@@ -1,10 +1,8 @@
 "use client";
 import { useEffect, useRef, useState } from "react";
 import type { Workbox } from "workbox-window";
-import { outboxStatus } from "@/lib/offline/outbox";
 import { useField } from "./field-provider";
 import { useFormDirty } from "./form-dirty";
-import { useLive } from "./use-live";
 
 /**
  * Registers the offline worker (production builds only) and, when a new version is waiting,
@@ -12,9 +10,8 @@ import { useLive } from "./use-live";
  * be sent, so an update never interrupts a reading or strands an op.
  */
 export function UpdatePrompt() {
-  const { db } = useField();
+  const { outbox: status } = useField();
   const dirty = useFormDirty();
-  const status = useLive(() => outboxStatus(db), [db]);
   const [waiting, setWaiting] = useState(false);
   const wb = useRef<Workbox | null>(null);
 
