@@ -2,12 +2,11 @@ import fc from "fast-check";
 import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import { NextRequest } from "next/server";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
-import type { Db } from "@/db/connect";
-import type { SessionUser } from "@/lib/auth/session";
 import { deviceId, FieldDb, writeMeta } from "@/lib/offline/db";
 import { correctionOf, saveRecord } from "@/lib/offline/outbox";
 import { SyncClient, type Fetch } from "@/lib/offline/sync-client";
 import { createTestDatabase, type TestDatabase } from "../support/database";
+import { routeState } from "./route-mocks";
 import { buildWorld, recordPayload, type SyncWorld } from "./sync-fixtures";
 
 /**
@@ -18,22 +17,8 @@ import { buildWorld, recordPayload, type SyncWorld } from "./sync-fixtures";
  * committed record is on the server exactly once.
  */
 
-const state = vi.hoisted(() => ({ db: null as Db | null, user: null as SessionUser | null }));
-vi.mock("@/db", () => ({
-  get db() {
-    return state.db;
-  },
-}));
-vi.mock("@/lib/auth/session", async () => {
-  const { AppError } = await import("@/lib/errors");
-  return {
-    getSessionUser: async () => state.user,
-    requireUser: async () => {
-      if (!state.user) throw new AppError("UNAUTHENTICATED", "Sign in to continue.");
-      return state.user;
-    },
-  };
-});
+vi.mock("@/db", async () => (await import("./route-mocks")).mockedDb);
+vi.mock("@/lib/auth/session", async () => (await import("./route-mocks")).mockedSession);
 const { POST: push } = await import("@/app/api/sync/push/route");
 const { GET: pull } = await import("@/app/api/sync/pull/route");
 const { GET: download } = await import("@/app/api/field/pours/[pourId]/route");
@@ -45,8 +30,8 @@ let w: SyncWorld;
 beforeAll(async () => {
   t = await createTestDatabase({ migrate: true });
   w = await buildWorld(t.db);
-  state.db = t.db;
-  state.user = { id: w.crew.id, email: w.crew.email, name: "Crew", isOperator: false, memberships: w.crew.memberships.map((m) => ({ ...m, projectName: "", projectCode: "" })) };
+  routeState.db = t.db;
+  routeState.user = { id: w.crew.id, email: w.crew.email, name: "Crew", isOperator: false, memberships: w.crew.memberships.map((m) => ({ ...m, projectName: "", projectCode: "" })) };
 });
 afterAll(async () => {
   await t.drop();

@@ -1,31 +1,17 @@
 import fc from "fast-check";
 import { NextRequest } from "next/server";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
-import type { Db } from "@/db/connect";
 import type { SessionUser } from "@/lib/auth/session";
 import type { RecordPayload } from "@/lib/schemas/record";
 import type { PullResponse, PushResponse } from "@/lib/schemas/sync";
 import { createTestDatabase, type TestDatabase } from "../support/database";
+import { routeState } from "./route-mocks";
 import { buildWorld, createOp, reviseOp, rowsOf, type SyncWorld } from "./sync-fixtures";
 
 // The real route modules, with the app's database and the session swapped for the test's own:
 // everything between the HTTP request and PostgreSQL is the code that runs in production.
-const state = vi.hoisted(() => ({ db: null as Db | null, user: null as SessionUser | null }));
-vi.mock("@/db", () => ({
-  get db() {
-    return state.db;
-  },
-}));
-vi.mock("@/lib/auth/session", async () => {
-  const { AppError } = await import("@/lib/errors");
-  return {
-    getSessionUser: async () => state.user,
-    requireUser: async () => {
-      if (!state.user) throw new AppError("UNAUTHENTICATED", "Sign in to continue.");
-      return state.user;
-    },
-  };
-});
+vi.mock("@/db", async () => (await import("./route-mocks")).mockedDb);
+vi.mock("@/lib/auth/session", async () => (await import("./route-mocks")).mockedSession);
 
 const { POST: push } = await import("@/app/api/sync/push/route");
 const { GET: pull } = await import("@/app/api/sync/pull/route");
@@ -41,7 +27,7 @@ const noParams = { params: Promise.resolve({}) };
 beforeAll(async () => {
   t = await createTestDatabase({ migrate: true });
   w = await buildWorld(t.db);
-  state.db = t.db;
+  routeState.db = t.db;
   crew = {
     id: w.crew.id,
     email: w.crew.email,
@@ -49,7 +35,7 @@ beforeAll(async () => {
     isOperator: false,
     memberships: w.crew.memberships.map((m) => ({ ...m, projectName: "", projectCode: "" })),
   };
-  state.user = crew;
+  routeState.user = crew;
 });
 afterAll(async () => {
   await t.drop();
@@ -63,11 +49,11 @@ const getJson = async <T>(res: Response) => ({ status: res.status, body: (await 
 describe("POST /api/sync/push through the route", () => {
   it("answers 401 without a session and 403 to a role that never records, writing nothing", async () => {
     const body = JSON.stringify({ deviceId: "tablet-routes-01", ops: [createOp(w, w.tendons[0]!.id)] });
-    state.user = null;
+    routeState.user = null;
     expect((await postPush(body)).status).toBe(401);
-    state.user = { ...crew, id: w.inspector.id, memberships: w.inspector.memberships.map((m) => ({ ...m, projectName: "", projectCode: "" })) };
+    routeState.user = { ...crew, id: w.inspector.id, memberships: w.inspector.memberships.map((m) => ({ ...m, projectName: "", projectCode: "" })) };
     expect((await postPush(body)).status).toBe(403);
-    state.user = crew;
+    routeState.user = crew;
     expect(await rowsOf(t.db, "records")).toBe(0);
   });
 
