@@ -95,7 +95,9 @@ export function PourLog() {
   const shown = tendons.filter((t) => t.tag.toLowerCase().includes(query.trim().toLowerCase()));
   const selected = tendons.find((t) => t.id === selectedId) ?? null;
   const next = tendons.find((t) => t.id !== selected?.id && (states.get(t.id) === "not stressed" || states.get(t.id) === "one end done"));
-  const doneCount = [...states.values()].filter((s) => s === "done").length;
+  // A flagged tendon was stressed too: it counts with the done ones, and the header says how many wait on a decision.
+  const stressedCount = [...states.values()].filter((s) => s === "done" || s === "flagged").length;
+  const flaggedCount = [...states.values()].filter((s) => s === "flagged").length;
 
   const go = (t: FieldTendon) => {
     setCorrecting(null);
@@ -112,8 +114,8 @@ export function PourLog() {
             All pours
           </a>
         </div>
-        <p className="text-ink-soft">
-          {project.code} · {tendons.length} tendons · {doneCount} done
+        <p className="text-ink-soft" data-testid="pour-progress">
+          {project.code} · {tendons.length} tendons · {stressedCount} stressed{flaggedCount ? ` (${flaggedCount} flagged)` : ""}
         </p>
         <label htmlFor="tendon-search" className="field-label">
           Find a tendon by tag

@@ -34,6 +34,7 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
   for (const [i, t] of p.tendons.entries()) await logTendon(page, t, p.finalPsi, i === 0 ? "field-form-offline-landscape" : undefined, i === 0);
   await expect(page.getByTestId("pending-count")).toContainText("3 records");
   await expect(page.getByRole("alert").filter({ hasText: "Out of band" })).toHaveCount(0); // the last one logged is in band
+  await expect(page.getByTestId("pour-progress")).toContainText("50 tendons · 3 stressed (1 flagged)");
   await shoot(page, "field-log-offline-landscape");
 
   // Reload with no signal: the worker serves the page, the tablet database still has the records.
