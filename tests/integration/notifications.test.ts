@@ -108,6 +108,14 @@ describe("the e-mail dispatcher", () => {
 
     expect(await inboxCount(subject)).toBe(0);
     expect((await t.db.selectFrom("notifications").select("status").where("id", "=", id).executeTakeFirstOrThrow()).status).toBe("pending");
+    // PostgreSQL ends the dead session's transaction once it sees the connection gone, which can
+    // take a moment after the kill; until then the row is still locked and rightly skipped.
+    for (let i = 0; ; i++) {
+      const free = await t.db.selectFrom("notifications").select("id").where("id", "=", id).forUpdate().skipLocked().executeTakeFirst();
+      if (free) break;
+      if (i >= 100) throw new Error("the killed dispatcher's lock was never released");
+      await new Promise((r) => setTimeout(r, 100));
+    }
     // The next dispatcher (at server start it drains first) sends it, once.
     expect(await drainNotifications(t.db)).toBe(1);
     expect(await drainNotifications(t.db)).toBe(0);
