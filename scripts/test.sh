@@ -51,16 +51,20 @@ start_group "$LOGS/fakes.log" node_modules/.bin/tsx scripts/fakes.ts
 FAKES_PID=$LAST_PID
 
 passed=() failed=()
+# TEST_STEPS picks steps (default: all); UNIT_ARGS, INTEGRATION_ARGS and E2E_ARGS pass file filters or
+# flags to vitest and Playwright, e.g. TEST_STEPS="integration e2e" E2E_ARGS="tests/e2e/field.spec.ts --no-deps".
+TEST_STEPS="${TEST_STEPS:-typecheck lint unit integration e2e}"
 step() {
   local name="$1"; shift
+  case " $TEST_STEPS " in *" $name "*) ;; *) say "── $name (skipped: not in TEST_STEPS)"; return 0 ;; esac
   say "── $name"
   if "$@"; then passed+=("$name"); else failed+=("$name"); say "✗ $name failed"; fi
 }
 
 step typecheck node_modules/.bin/tsc --noEmit
 step lint node_modules/.bin/eslint . --max-warnings 0
-step unit node_modules/.bin/vitest run --project unit
-step integration node_modules/.bin/vitest run --project integration
+step unit node_modules/.bin/vitest run --project unit ${UNIT_ARGS:-}
+step integration node_modules/.bin/vitest run --project integration ${INTEGRATION_ARGS:-}
 
 e2e() {
   node_modules/.bin/tsx scripts/migrate.ts && node_modules/.bin/tsx --conditions=react-server scripts/seed.ts || return 1
@@ -71,7 +75,7 @@ e2e() {
   DISPATCH_PID=$LAST_PID
   wait_for_url "http://127.0.0.1:$APP_PORT/api/health" 60 || { tail -n 40 "$LOGS/app.log"; return 1; }
   wait_for_url "$MAIL_INBOX_URL" 20 || { tail -n 40 "$LOGS/fakes.log"; return 1; }
-  node_modules/.bin/playwright test
+  node_modules/.bin/playwright test ${E2E_ARGS:-}
 }
 step e2e e2e
 
