@@ -1,0 +1,41 @@
+import { TZDate } from "@date-fns/tz";
+import { format, formatDistanceStrict } from "date-fns";
+
+/**
+ * The one way Tautline writes dates and times, always in the project's time zone (an IANA name such
+ * as "America/Chicago"). Screens, e-mails and reports call these; nothing formats a date by hand.
+ */
+
+type Instant = Date | string | number;
+
+function inZone(instant: Instant, timeZone: string): TZDate {
+  return new TZDate(new Date(instant).getTime(), timeZone);
+}
+
+/** "2026-12-02": the stressing day, calibration days, report dates. */
+export function formatDay(instant: Instant, timeZone: string): string {
+  return format(inZone(instant, timeZone), "yyyy-MM-dd");
+}
+
+/** "2026-12-02 14:05 CST": a moment, with the zone's abbreviation so nobody guesses. */
+export function formatDateTime(instant: Instant, timeZone: string): string {
+  return `${format(inZone(instant, timeZone), "yyyy-MM-dd HH:mm")} ${zoneName(instant, timeZone)}`;
+}
+
+/** The zone's short name at that moment ("CST", "CDT"; "UTC+1" where no short name is in use). */
+export function zoneName(instant: Instant, timeZone: string): string {
+  const part = new Intl.DateTimeFormat("en-US", { timeZone, timeZoneName: "short" })
+    .formatToParts(new Date(instant))
+    .find((p) => p.type === "timeZoneName");
+  return (part?.value ?? timeZone).replace(/^GMT(?=[+-])/, "UTC").replace(/^GMT$/, "UTC");
+}
+
+/** "3 hours ago", "in 2 days": ages of flags, outboxes and syncs. */
+export function formatAge(instant: Instant, now: Instant = Date.now()): string {
+  return formatDistanceStrict(new Date(instant), new Date(now), { addSuffix: true });
+}
+
+/** The calendar day of an instant in a time zone ("2026-12-02"): the stressing day on tablet and server. */
+export function dayInZone(instant: Instant, timeZone: string): string {
+  return formatDay(instant, timeZone);
+}
