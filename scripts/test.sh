@@ -61,7 +61,7 @@ step() {
   if "$@"; then passed+=("$name"); else failed+=("$name"); say "✗ $name failed"; fi
 }
 
-step typecheck node_modules/.bin/tsc --noEmit
+step typecheck npm run --silent typecheck
 step lint node_modules/.bin/eslint . --max-warnings 0
 step unit node_modules/.bin/vitest run --project unit ${UNIT_ARGS:-}
 step integration node_modules/.bin/vitest run --project integration ${INTEGRATION_ARGS:-}
