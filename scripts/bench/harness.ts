@@ -4,7 +4,7 @@
  * straight tendons and one calibrated set, and record payloads in band or out of it.
  * Every address here is a loopback address; every loop has a count and a time limit.
  */
-import { spawn } from "node:child_process";
+import { spawn, type ChildProcess } from "node:child_process";
 import { appendFileSync } from "node:fs";
 import { randomBytes } from "node:crypto";
 import bcrypt from "bcryptjs";
@@ -75,37 +75,38 @@ export async function makeDatabase(
   };
 }
 
+/** A stop function for a child started in its own process group: TERM, then wait for it (5 s at most). */
+function stopper(child: ChildProcess): () => Promise<void> {
+  const exited = new Promise<void>((resolve) => child.once("exit", () => resolve()));
+  return async () => {
+    try {
+      process.kill(-child.pid!, "SIGTERM");
+    } catch {
+      return; // already gone
+    }
+    await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))]);
+  };
+}
+
 /** Starts `next start` of the current build on loopback; returns a stop function. */
-export function startApp(port: number, env: Record<string, string>): () => void {
+export function startApp(port: number, env: Record<string, string>): () => Promise<void> {
   const base = `http://localhost:${port}`;
   const child = spawn("node_modules/.bin/next", ["start", "-p", String(port), "-H", "127.0.0.1"], {
     env: { ...process.env, APP_URL: base, NEXTAUTH_URL: base, NODE_ENV: "production", ...env },
     stdio: ["ignore", "ignore", "inherit"],
     detached: true,
   });
-  return () => {
-    try {
-      process.kill(-child.pid!, "SIGTERM");
-    } catch {
-      // already gone
-    }
-  };
+  return stopper(child);
 }
 
 /** Starts the e-mail dispatcher against a database; returns a stop function. */
-export function startDispatcher(env: Record<string, string>): () => void {
+export function startDispatcher(env: Record<string, string>): () => Promise<void> {
   const child = spawn("node_modules/.bin/tsx", ["--conditions=react-server", "scripts/dispatcher.ts"], {
     env: { ...process.env, DISPATCH_INTERVAL_MS: "500", ...env },
     stdio: ["ignore", "ignore", "inherit"],
     detached: true,
   });
-  return () => {
-    try {
-      process.kill(-child.pid!, "SIGTERM");
-    } catch {
-      // already gone
-    }
-  };
+  return stopper(child);
 }
 
 export async function waitForUrl(url: string, seconds = 90): Promise<void> {

@@ -71,5 +71,5 @@ try {
   }
 } finally {
   chrome.kill();
-  stop();
+  await stop();
 }

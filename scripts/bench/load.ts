@@ -41,6 +41,8 @@ const PHASE_LIMIT_MS = 180_000;
 interface Phase {
   batchMs: number[];
   errors: number;
+  /** HTTP statuses of failed deliveries (0: no answer), with their counts. */
+  failures: Map<number, number>;
   seconds: number;
   ops: number;
 }
@@ -54,6 +56,7 @@ async function runPhase(
   twice: boolean,
 ): Promise<Phase> {
   const batchMs: number[] = [];
+  const failures = new Map<number, number>();
   let errors = 0;
   const deadline = Date.now() + PHASE_LIMIT_MS;
   const started = performance.now();
@@ -73,7 +76,10 @@ async function runPhase(
         );
         for (const d of deliveries) {
           if (Number.isFinite(d.ms)) batchMs.push(d.ms);
-          if (d.status !== 200) errors += batch.length;
+          if (d.status !== 200) {
+            errors += batch.length;
+            failures.set(d.status, (failures.get(d.status) ?? 0) + 1);
+          }
         }
         // Each op must be applied by exactly one delivery; any other delivery answers duplicate.
         batch.forEach((_, k) => {
@@ -87,7 +93,7 @@ async function runPhase(
   );
   const seconds = (performance.now() - started) / 1000;
   if (Date.now() >= deadline) errors++;
-  return { batchMs, errors, seconds, ops: tablets.reduce((n, ops) => n + ops.length, 0) };
+  return { batchMs, errors, failures, seconds, ops: tablets.reduce((n, ops) => n + ops.length, 0) };
 }
 
 function reportPhase(name: string, p: Phase): void {
@@ -109,7 +115,13 @@ function reportPhase(name: string, p: Phase): void {
     target: "p95 < 1000 ms",
     holds: percentile(p.batchMs, 95) < 1000,
   });
-  report({ figure: `load${LABEL}: ${name}, errors`, value: String(p.errors), target: "0", holds: p.errors === 0 });
+  const statuses = [...p.failures].map(([status, n]) => `${n} × HTTP ${status || "no answer"}`).join(", ");
+  report({
+    figure: `load${LABEL}: ${name}, errors (ops)`,
+    value: `${p.errors}${statuses ? ` (${statuses})` : ""}`,
+    target: "0",
+    holds: p.errors === 0,
+  });
 }
 
 async function main() {
@@ -121,7 +133,7 @@ async function main() {
     ? { url: process.env.LOAD_DATABASE_URL, drop: async () => {} }
     : await makeDatabase("bench_load");
   const db = createDb(database.url, 4);
-  const stops: (() => void)[] = [];
+  const stops: (() => Promise<void>)[] = [];
   try {
     await migrateToLatest(db);
     const code = `L${Date.now().toString(36).slice(-5).toUpperCase()}`;
@@ -264,8 +276,7 @@ async function main() {
       holds: Math.max(...pdfMs) < 3000,
     });
   } finally {
-    stops.forEach((stop) => stop());
-    await new Promise((r) => setTimeout(r, 1500));
+    await Promise.all(stops.map((stop) => stop()));
     await db.destroy();
     await database.drop();
   }

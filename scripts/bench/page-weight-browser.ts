@@ -53,5 +53,5 @@ try {
     await browser.close();
   }
 } finally {
-  stop();
+  await stop();
 }

@@ -52,7 +52,7 @@ pg_up "$DIR/primary" "$PRIMARY_PORT" || die "the primary did not start"
 say "taking a base backup for the replica"
 mkdir -p "$DIR/replica" "$DIR/replica.run"; chown postgres:postgres "$DIR/replica" "$DIR/replica.run"; chmod 700 "$DIR/replica"
 runuser -u postgres -- env PGPASSWORD=tautline "$(pg_bin pg_basebackup)" -h 127.0.0.1 -p "$PRIMARY_PORT" -U tautline \
-  -D "$DIR/replica" -X stream -R >"$DIR/logs/basebackup.log" 2>&1 || { cat "$DIR/logs/basebackup.log"; die "pg_basebackup failed"; }
+  -D "$DIR/replica" -X stream -R --checkpoint=fast >"$DIR/logs/basebackup.log" 2>&1 || { cat "$DIR/logs/basebackup.log"; die "pg_basebackup failed"; }
 echo "primary_conninfo = 'host=127.0.0.1 port=$PRIMARY_PORT user=tautline password=tautline application_name=replica1'" \
   | runuser -u postgres -- tee -a "$DIR/replica/postgresql.auto.conf" >/dev/null
 runuser -u postgres -- "$(pg_bin pg_ctl)" -D "$DIR/replica" -l "$DIR/replica.run/postgres.log" \
@@ -113,6 +113,10 @@ defaults
   timeout connect 5s
   timeout client 60s
   timeout server 60s
+  # Under load a health check can wait behind pushes: give it time and several misses before a
+  # server is taken out, or both go down together and HAProxy answers 503.
+  timeout check 10s
+  default-server inter 3s fall 5 rise 2
 frontend tautline
   bind 127.0.0.1:$PROXY_PORT
   default_backend apps
