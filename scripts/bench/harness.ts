@@ -139,8 +139,13 @@ export async function signIn(base: string, email: string, password: string): Pro
   });
   keep(res);
   const cookie = [...jar.values()].join("; ");
-  if ((await fetch(`${base}/api/me`, { headers: { cookie } })).status !== 200)
-    throw new Error(`bench sign-in of ${email} failed`);
+  const me = await fetch(`${base}/api/me`, { headers: { cookie } });
+  if (me.status !== 200) {
+    throw new Error(
+      `bench sign-in of ${email} failed: callback answered ${res.status} ${res.headers.get("location") ?? ""}, ` +
+        `cookies ${[...jar.keys()].join(", ")}; /api/me answered ${me.status} ${(await me.text()).slice(0, 200)}`,
+    );
+  }
   return cookie;
 }
 

@@ -204,6 +204,20 @@ async function main() {
       holds: c.mails === expectedMail && c.mail_keys === expectedMail,
     });
 
+    // What a stored record costs on disk, everything it brings included (claim, evaluation, flags,
+    // e-mail, audit, indexes), for sizing: the whole database over the records in it.
+    const size = await sql<{ bytes: number; records: number }>`
+      select pg_database_size(current_database())::bigint as bytes, (select count(*) from records) as records`.execute(
+      db,
+    );
+    const { bytes, records } = size.rows[0]!;
+    report({
+      figure: `load${LABEL}: database size per stored record`,
+      value: `${(bytes / records / 1024).toFixed(1)} KB (${(bytes / 1024 ** 2).toFixed(0)} MB for ${records} records)`,
+      target: "",
+      holds: null,
+    });
+
     // Every e-mail sent once: wait for the dispatcher(s), bounded.
     const mailStart = performance.now();
     let pending = Number.POSITIVE_INFINITY;

@@ -57,7 +57,7 @@ start_group "$LOGS/fakes.log" node_modules/.bin/tsx scripts/fakes.ts
 FAKES_PID=$LAST_PID
 wait_for_url "$MAIL_INBOX_URL" 20 || { tail -n 20 "$LOGS/fakes.log"; die "the mail fake did not start"; }
 
-BENCH_ONLY="${BENCH_ONLY:-elongation pages pages-browser sync load latency lighthouse offline}"
+BENCH_ONLY="${BENCH_ONLY:-elongation pages pages-browser sync explain load latency lighthouse offline}"
 bench_step() {
   local name="$1" seconds="$2"; shift 2
   case " $BENCH_ONLY " in *" $name "*) ;; *) return 0 ;; esac
@@ -71,6 +71,7 @@ bench_step elongation 120 node_modules/.bin/tsx scripts/bench/elongation.ts
 bench_step pages 60 node_modules/.bin/tsx scripts/bench/page-weight.ts
 bench_step pages-browser 120 node_modules/.bin/tsx scripts/bench/page-weight-browser.ts /field/pour
 bench_step sync 240 node_modules/.bin/tsx scripts/bench/sync.ts
+bench_step explain 300 node_modules/.bin/tsx --conditions=react-server --import ./scripts/bench/support/no-auth-options.mjs scripts/bench/explain.ts
 bench_step load 600 node_modules/.bin/tsx scripts/bench/load.ts
 bench_step latency 300 node_modules/.bin/tsx scripts/bench/latency.ts
 bench_step lighthouse 420 node_modules/.bin/tsx scripts/bench/lighthouse.ts
