@@ -72,7 +72,7 @@ bench_step pages 60 node_modules/.bin/tsx scripts/bench/page-weight.ts
 bench_step pages-browser 120 node_modules/.bin/tsx scripts/bench/page-weight-browser.ts /field/pour
 bench_step sync 240 node_modules/.bin/tsx scripts/bench/sync.ts
 bench_step explain 300 node_modules/.bin/tsx --conditions=react-server --import ./scripts/bench/support/no-auth-options.mjs scripts/bench/explain.ts
-bench_step load 600 node_modules/.bin/tsx scripts/bench/load.ts
+bench_step load 720 node_modules/.bin/tsx scripts/bench/load.ts
 bench_step latency 300 node_modules/.bin/tsx scripts/bench/latency.ts
 bench_step lighthouse 420 node_modules/.bin/tsx scripts/bench/lighthouse.ts
 bench_step offline 180 node_modules/.bin/tsx scripts/bench/offline-start.ts

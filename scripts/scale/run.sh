@@ -147,7 +147,7 @@ say "two app servers behind HAProxy on :$PROXY_PORT, PgBouncer on :$BOUNCER_PORT
 
 # 7. The load, through the proxy.
 LOAD_BASE="http://localhost:$PROXY_PORT" LOAD_DATABASE_URL="$PRIMARY_URL" LOAD_LABEL="two servers" \
-  timeout --kill-after=10 600 node_modules/.bin/tsx scripts/bench/load.ts
+  timeout --kill-after=10 720 node_modules/.bin/tsx scripts/bench/load.ts
 status=$?
 
 # 8. What each app server took (HAProxy's counters), and the replica: same rows, how far behind.
