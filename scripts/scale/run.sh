@@ -70,7 +70,9 @@ cat >"$DIR/pgbouncer/pgbouncer.ini" <<INI
 [databases]
 tautline = host=127.0.0.1 port=$PRIMARY_PORT dbname=tautline
 ; rate-limiter-flexible (sign-in counters) sends its own named prepared statements, which 1.18
-; cannot carry in transaction mode: its small pool (2 per app) gets a session-mode entry.
+; cannot carry in transaction mode: its small pool (2 per app) gets a session-mode entry. The
+; default server_reset_query (DISCARD ALL) must stay, or a server connection handed to the next
+; client still holds the last one's statements ("prepared statement … already exists").
 tautline_session = host=127.0.0.1 port=$PRIMARY_PORT dbname=tautline pool_mode=session
 [pgbouncer]
 listen_addr = 127.0.0.1
@@ -81,7 +83,6 @@ auth_file = $DIR/pgbouncer/userlist.txt
 pool_mode = transaction
 max_client_conn = 200
 default_pool_size = 20
-server_reset_query =
 ignore_startup_parameters = extra_float_digits
 logfile = $DIR/logs/pgbouncer.log
 pidfile = $DIR/pgbouncer/pgbouncer.pid
