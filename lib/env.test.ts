@@ -20,4 +20,14 @@ describe("parseEnv", () => {
       /DATABASE_URL: DATABASE_URL must be a postgres:\/\/ connection string[\s\S]*SMTP_PORT/,
     );
   });
+
+  it("keeps prepared statements on unless told, and checks the rate limiter's own URL", () => {
+    expect(parseEnv({}).DATABASE_PREPARE).toBe(true);
+    expect(parseEnv({}).RATE_LIMIT_DATABASE_URL).toBeUndefined();
+    expect(parseEnv({ DATABASE_PREPARE: "false" }).DATABASE_PREPARE).toBe(false);
+    expect(() => parseEnv({ DATABASE_PREPARE: "sometimes" })).toThrow(/DATABASE_PREPARE/);
+    expect(() => parseEnv({ RATE_LIMIT_DATABASE_URL: "redis://x" })).toThrow(
+      /RATE_LIMIT_DATABASE_URL: RATE_LIMIT_DATABASE_URL must be a postgres:\/\/ connection string/,
+    );
+  });
 });

@@ -13,7 +13,7 @@ let pool: pg.Pool | undefined;
 let limiters: { account: RateLimiterPostgres; address: RateLimiterPostgres } | undefined;
 
 function get() {
-  pool ??= new pg.Pool({ connectionString: env.DATABASE_URL, max: 2 });
+  pool ??= new pg.Pool({ connectionString: env.RATE_LIMIT_DATABASE_URL ?? env.DATABASE_URL, max: 2 });
   limiters ??= {
     account: new RateLimiterPostgres({
       storeClient: pool,

@@ -19,6 +19,7 @@ import { fitCalibration } from "../../lib/elongation/index";
 import { payloadFromForm, EMPTY_RECORD_FORM, type RecordPayload } from "../../lib/schemas/record";
 import type { PushResponse } from "../../lib/schemas/sync";
 import { predictTendon, projectBasisFromRow, targetPressureMPa } from "../../lib/stressing/basis";
+import { report } from "./harness";
 
 const RECORDS = 1_000;
 const BATCH = 50;
@@ -244,6 +245,8 @@ async function main() {
     console.log(`  plain per-row Kysely transactions:  ${plainRate.toFixed(0)} records/s  (${plainSeconds.toFixed(2)} s)`);
     console.log(`  ratio push / plain:                 ${(pushRate / plainRate).toFixed(2)}  (target at least 0.5)`);
     console.log(`  rows stored: ${rows.n} (expected ${2 * RECORDS}: each pushed record once, plus the plain copies)`);
+    report({ figure: "sync push, one tablet, batches of 50", value: `${pushRate.toFixed(0)} records/s`, target: "", holds: null });
+    report({ figure: "sync push / plain per-row inserts", value: (pushRate / plainRate).toFixed(2), target: "≥ 0.50", holds: pushRate / plainRate >= 0.5 });
   } finally {
     stop();
     await db.destroy();
