@@ -56,6 +56,11 @@ export const MATRIX: Record<string, Expected> = {
   "GET /api/projects/[projectId]/tendon-template": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "GET /api/projects/[projectId]/pours/[pourId]/report/pdf": projectAction(200, ["admin", "inspector", "engineer"]),
   "GET /api/projects/[projectId]/pours/[pourId]/report/csv": projectAction(200, ["admin", "inspector", "engineer"]),
+  "GET /api/projects/[projectId]/pours/[pourId]/report/signatures": projectAction(200, ["admin", "inspector", "engineer"]),
+  "POST /api/projects/[projectId]/pours/[pourId]/report/signatures": projectAction(201, ["inspector"]),
+  "GET /api/projects/[projectId]/pours/[pourId]/report/signatures/[revision]": projectAction(200, ["admin", "inspector", "engineer"]),
+  // Public: a report file's sha256 in, whether it is a signed revision out (audited).
+  "POST /api/report-verifications": everyone(200),
   "GET /api/projects/[projectId]/tendons/[tendonId]": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "GET /api/projects/[projectId]/strand-lots": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "POST /api/projects/[projectId]/strand-lots": projectAction(201, ["admin"]),
