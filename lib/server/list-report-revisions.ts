@@ -26,6 +26,7 @@ export async function listReportRevisions(
   db: Kysely<Database>,
   input: { projectId: string; pourId: string },
 ): Promise<{
+  timeZone: string;
   revisions: ReportRevision[];
   current: { contentSha256: string; signed: boolean; changesSinceSigned: string[] };
 }> {
@@ -55,6 +56,7 @@ export async function listReportRevisions(
     .digest("hex");
   const last = rows[0];
   return {
+    timeZone: report.timeZone,
     revisions: rows.map((r) => ({
       revision: r.revision,
       signerName: r.signer_name,
