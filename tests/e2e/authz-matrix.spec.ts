@@ -219,6 +219,12 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
       },
       call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/report/signatures/1`),
     },
+    "GET /api/projects/[projectId]/share-links": { call: (c) => c.get(`/api/projects/${projectId}/share-links`) },
+    "POST /api/projects/[projectId]/share-links": {
+      call: (c) => c.post(`/api/projects/${projectId}/share-links`, { data: { label: "Matrix general contractor", days: 1 } }),
+    },
+    "DELETE /api/projects/[projectId]/share-links/[linkId]": { call: (c) => c.delete(`/api/projects/${projectId}/share-links/${MISSING_ID}`) },
+    "GET /api/share/[token]/reports/[pourId]/[revision]": { call: (c) => c.get(`/api/share/${BOGUS_TOKEN}/reports/${MISSING_ID}/1`) },
     "POST /api/report-verifications": { call: (c) => c.post("/api/report-verifications", { data: { sha256: "0".repeat(64) } }) },
     "GET /api/projects/[projectId]/tendons/[tendonId]": {
       fixture: async () => {
