@@ -19,6 +19,7 @@ import { env } from "@/lib/env";
 import { flagMail } from "@/lib/mail/templates";
 import { judgeTendon, predictTendon, type CalibrationLine, type EndReading } from "@/lib/stressing/basis";
 import { pickCalibration } from "@/lib/schemas/calibration";
+import { MPA_PER_PSI } from "@/lib/units";
 import { showForce, showLength, showPct, showPressure } from "@/lib/stressing/display";
 import { selectTendonBasis, toLoadedTendon, type LoadedTendon } from "./load-tendon-basis";
 
@@ -67,7 +68,7 @@ const line = (c: Calibration): CalibrationLine => ({
 const isoDay = (d: Date | string) => new Date(d).toISOString().slice(0, 10);
 
 /** Half of a 100 psi gauge graduation, in MPa. */
-const HALF_GRADUATION_MPA = 50 * 0.006894757293168;
+const HALF_GRADUATION_MPA = 50 * MPA_PER_PSI;
 
 const RESTRESS_DECISIONS: Decision[] = ["restress", "detension_restress"];
 
