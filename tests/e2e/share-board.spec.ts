@@ -28,8 +28,9 @@ test("a read-only link shows the pours' status to the general contractor until i
   const board = await visitor.newPage();
   await board.goto(new URL(url).pathname);
   await expect(board.getByRole("heading", { name: /Alder Yard Parking \(AYP\)/ })).toBeVisible();
-  const rows = board.getByRole("table", { name: "Pours" }).locator("tbody tr");
-  await expect(rows).toHaveCount(3);
+  // The demo's pours (other specs may have added more).
+  for (const name of ["L2 Pour 1", "L2 Pour 2", "L3 Pour 1"])
+    await expect(board.locator(`[data-pour="${name}"]`)).toBeVisible();
   await expect(board.locator('[data-pour="L2 Pour 1"] [data-status]')).toHaveText(
     /Released|Held|Stressed|Stressing|Planned/,
   );

@@ -25,7 +25,10 @@ test("the inspector signs a pour's stressing report and anyone can check the sig
   await form.getByLabel("Licence or certification number").fill("ICC special inspector 5551234 (demo)");
   await screenshot(page, "report-sign-form");
   await form.getByRole("button", { name: "Sign revision 1" }).click();
-  await expect(page.getByTestId("signature-state")).toHaveText("The report as it stands is signed: revision 1.");
+  await expect(page.getByTestId("signature-state")).toHaveText("The report as it stands is signed: revision 1.", {
+    // Signing draws the report twice and stores it; on a busy CI machine that takes a while.
+    timeout: 30_000,
+  });
   await expect(page.getByRole("list", { name: "Signed revisions" })).toContainText(
     "ICC special inspector 5551234 (demo)",
   );
