@@ -31,7 +31,7 @@ const PAD = 2;
 const PDF_COLUMNS: { title: string; width: number; from: RecordColumn[] }[] = [
   { title: "Tendon, end, stressing", width: 62, from: ["Tendon", "End", "Stressing"] },
   { title: "Stressed, operator", width: 62, from: ["Stressed", "Operator"] },
-  { title: "Equipment, calibration", width: 100, from: ["Equipment set", "Jack, gauge, pump", "Calibration"] },
+  { title: "Equipment, calibration", width: 94, from: ["Equipment set", "Jack, gauge, pump", "Calibration"] },
   {
     title: "Gauge: initial, final, target",
     width: 54,
@@ -39,7 +39,7 @@ const PDF_COLUMNS: { title: string; width: number; from: RecordColumn[] }[] = [
   },
   { title: "Force", width: 40, from: ["Force"] },
   { title: "Readings as entered, seating", width: 74, from: ["Readings as entered", "Seating"] },
-  { title: "Measured", width: 48, from: ["Measured"] },
+  { title: "Measured", width: 56, from: ["Measured"] },
   {
     title: "Predicted: Tautline, shop, governs",
     width: 68,
