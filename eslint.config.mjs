@@ -8,6 +8,22 @@ const config = [
     ignores: [".next/**", ".next-*/**", "node_modules/**", ".data/**", ".tmp/**", "public/sw.js", "test-results/**", "playwright-report/**", "next-env.d.ts"],
   },
   {
+    // Unit factors live in lib/units only; display code formats through lib/format/quantities.
+    // Scoped to the folders already clean; widen it as the other screens move over.
+    files: ["lib/format/**/*.ts", "lib/reports/**/*.ts", "lib/stressing/**/*.ts", "lib/server/**/*.ts", "components/reports/**/*.tsx"],
+    ignores: ["**/*.test.ts"],
+    rules: {
+      "no-restricted-syntax": [
+        "error",
+        {
+          selector:
+            "Literal[value=25.4], Literal[value=304.8], Literal[value=645.16], Literal[value=0.3048], Literal[value=6.894757293168], Literal[value=0.006894757293168], Literal[value=4.4482216152605], Literal[value=4448.2216152605]",
+          message: "Unit factor literal: import it from lib/units (or format through lib/format/quantities).",
+        },
+      ],
+    },
+  },
+  {
     files: ["db/migrations/**/*.ts", "db/migrate.ts"],
     rules: { "@typescript-eslint/no-explicit-any": "off" },
   },

@@ -156,7 +156,7 @@ export interface AuditEventsTable {
   detail: ColumnType<Record<string, unknown>, string | undefined, string>;
 }
 
-export type AttachmentPurpose = "mill_certificate" | "calibration_certificate" | "record_photo" | "review_photo";
+export type AttachmentPurpose = "mill_certificate" | "calibration_certificate" | "record_photo" | "review_photo" | "signed_report";
 
 export interface AttachmentsTable {
   id: Generated<string>;
@@ -371,6 +371,39 @@ export interface SyncTombstonesTable {
   deleted_at: Timestamp;
 }
 
+export type ReportKind = "pour_stressing" | "daily_inspection";
+
+export interface ReportRevisionsTable {
+  id: Generated<string>;
+  project_id: string;
+  pour_id: string | null;
+  kind: ReportKind;
+  report_day: string | null;
+  revision: number;
+  content_sha256: string;
+  file_sha256: string;
+  snapshot: Json<Record<string, string>>;
+  changes: Json<string[]>;
+  attachment_id: string;
+  signer_user_id: string;
+  signer_name: string;
+  licence: string;
+  statement: string;
+  signed_at: Timestamp;
+}
+
+export interface ShareLinksTable {
+  id: Generated<string>;
+  project_id: string;
+  token_sha256: string;
+  label: string;
+  created_by: string;
+  created_at: Timestamp;
+  expires_at: Timestamp;
+  revoked_at: Timestamp | null;
+  revoked_by: string | null;
+}
+
 export interface Database {
   users: UsersTable;
   projects: ProjectsTable;
@@ -395,6 +428,8 @@ export interface Database {
   applied_ops: AppliedOpsTable;
   sync_tombstones: SyncTombstonesTable;
   tendon_versions: TendonVersionsTable;
+  report_revisions: ReportRevisionsTable;
+  share_links: ShareLinksTable;
 }
 
 export type User = Selectable<UsersTable>;

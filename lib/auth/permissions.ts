@@ -21,6 +21,10 @@ export const PERMISSIONS = {
   // Which of the two releases a given project is the project's own rule (projects.release_by).
   "pour.release": ["inspector", "engineer"],
   "report.download": ["inspector", "engineer", "admin"],
+  // The special inspector signs the pour's stressing report and the day's inspection report.
+  "report.sign": ["inspector"],
+  // Read-only links to the status board for the general contractor and the building official.
+  "share.manage": ["inspector", "engineer", "admin"],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Action = keyof typeof PERMISSIONS;
@@ -31,7 +35,9 @@ export const UPLOAD_PERMISSION = {
   calibration_certificate: "equipment.manage",
   record_photo: "record.create",
   review_photo: "flag.review",
-} as const satisfies Record<"mill_certificate" | "calibration_certificate" | "record_photo" | "review_photo", Action>;
+  // Never presigned (not an upload purpose); a signed report is stored by the signing itself.
+  signed_report: "report.sign",
+} as const satisfies Record<"mill_certificate" | "calibration_certificate" | "record_photo" | "review_photo" | "signed_report", Action>;
 
 export function can(role: Role, action: Action): boolean {
   return (PERMISSIONS[action] as readonly Role[]).includes(role);

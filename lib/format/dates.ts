@@ -39,3 +39,11 @@ export function formatAge(instant: Instant, now: Instant = Date.now()): string {
 export function dayInZone(instant: Instant, timeZone: string): string {
   return formatDay(instant, timeZone);
 }
+
+/**
+ * The latest calendar day anywhere on Earth at that moment (the day at UTC+14): a date after it
+ * has not begun in any time zone, so no certificate can carry it yet.
+ */
+export function latestDayAnywhere(now: Instant = Date.now()): string {
+  return formatDay(now, "Pacific/Kiritimati");
+}

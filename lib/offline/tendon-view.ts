@@ -1,5 +1,6 @@
 import { judgeTendon, predictTendon, stressedEnds, targetPressureMPa, type CalibrationLine, type EndReading } from "@/lib/stressing/basis";
 import type { FieldCalibration, FieldEquipmentSet, FieldEvaluation, FieldFlag, FieldProject, FieldStrandLot, FieldTendon } from "@/lib/schemas/sync";
+import { pickCalibration } from "@/lib/schemas/calibration";
 import type { LocalRecord, LocalVerdict } from "./db";
 
 /**
@@ -38,8 +39,7 @@ export function tendonState(tendon: FieldTendon, records: LocalRecord[], flags: 
 
 /** Calibration in force for a set on a day, and whether it has expired by then. */
 export function calibrationFor(calibrations: FieldCalibration[], setId: string, day: string): { calibration: FieldCalibration | null; expired: boolean } {
-  const own = calibrations.filter((c) => c.equipmentSetId === setId && c.calibratedOn <= day).sort((a, b) => b.calibratedOn.localeCompare(a.calibratedOn));
-  const calibration = own[0] ?? null;
+  const calibration = pickCalibration(calibrations.filter((c) => c.equipmentSetId === setId), day);
   return { calibration, expired: !calibration || calibration.validUntil < day };
 }
 

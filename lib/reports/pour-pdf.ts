@@ -1,9 +1,18 @@
 import PDFDocument from "pdfkit";
 import { CAUTION_TEXT } from "@/components/ui/caution";
 import type { PourReport } from "@/lib/server/get-pour-report";
-import { showForce, showPressure } from "@/lib/stressing/display";
-import { MPA_PER_PSI } from "@/lib/units";
-import { basisLines, flagLines, isoMinute, releaseLine, TENDON_COLUMNS, tendonRows, type TendonColumn } from "./pour-rows";
+import {
+  basisLines,
+  calibrationLines,
+  concreteLine,
+  flagLines,
+  RECORD_COLUMNS,
+  recordRows,
+  releaseLine,
+  reportTime,
+  strandLotLines,
+  type RecordColumn,
+} from "./pour-rows";
 
 /**
  * The pour's stressing report as a PDF, drawn with pdfkit's built-in Helvetica: black on white,
@@ -15,27 +24,73 @@ const BODY = 9;
 const MARGIN = 36;
 const PAD = 2;
 
-// Column widths in points, scaled to the page; each fits its header's longest word in bold 9 pt.
-const WIDTHS: Record<TendonColumn, number> = {
-  Tendon: 48,
-  Ends: 36,
-  Strands: 42,
-  Length: 36,
-  Strand: 50,
-  End: 22,
-  "Equipment set": 52,
-  "Gauge pressure": 44,
-  Force: 42,
-  Measured: 46,
-  "Measured total": 46,
-  Predicted: 45,
-  Deviation: 45,
-  Verdict: 54,
-  "Evaluated (UTC)": 50,
-  Flags: 60,
+/**
+ * The record table's columns on paper: the CSV's columns grouped so a landscape page holds them,
+ * each cell the CSV's strings joined line by line.
+ */
+const PDF_COLUMNS: { title: string; width: number; from: RecordColumn[] }[] = [
+  { title: "Tendon, end, stressing", width: 62, from: ["Tendon", "End", "Stressing"] },
+  { title: "Stressed, operator", width: 62, from: ["Stressed", "Operator"] },
+  { title: "Equipment, calibration", width: 94, from: ["Equipment set", "Jack, gauge, pump", "Calibration"] },
+  {
+    title: "Gauge: initial, final, target",
+    width: 54,
+    from: ["Initial pressure", "Final pressure", "Target pressure"],
+  },
+  { title: "Force", width: 40, from: ["Force"] },
+  { title: "Readings as entered, seating", width: 74, from: ["Readings as entered", "Seating"] },
+  { title: "Measured", width: 56, from: ["Measured"] },
+  {
+    title: "Predicted: Tautline, shop, governs",
+    width: 68,
+    from: ["Predicted (Tautline)", "Predicted (shop drawing)", "Governs"],
+  },
+  { title: "Deviation", width: 48, from: ["Deviation"] },
+  { title: "Verdict, basis", width: 68, from: ["Verdict", "Basis"] },
+  { title: "Breaks, remarks, photos", width: 70, from: ["Wire breaks", "Remarks", "Photos"] },
+  { title: "Flags", width: 62, from: ["Flags"] },
+];
+const LABELLED = new Set<RecordColumn>([
+  "Initial pressure",
+  "Final pressure",
+  "Target pressure",
+  "Predicted (Tautline)",
+  "Predicted (shop drawing)",
+  "Governs",
+  "Wire breaks",
+  "Seating",
+]);
+const LABELS: Partial<Record<RecordColumn, string>> = {
+  "Initial pressure": "initial",
+  "Final pressure": "final",
+  "Target pressure": "target",
+  "Predicted (Tautline)": "Tautline",
+  "Predicted (shop drawing)": "shop",
+  Governs: "governs",
+  "Wire breaks": "wire breaks",
+  Seating: "seating",
 };
-/** Columns that belong to one end's record; the others belong to the tendon. */
-const END_COLUMNS = new Set<TendonColumn>(["End", "Equipment set", "Gauge pressure", "Force", "Measured"]);
+
+function pdfCells(row: string[]): string[] {
+  const value = (c: RecordColumn) => row[RECORD_COLUMNS.indexOf(c)] ?? "";
+  return PDF_COLUMNS.map((col) =>
+    col.from
+      .map((c) => (value(c) && LABELLED.has(c) ? `${LABELS[c]}: ${value(c)}` : value(c)))
+      .filter(Boolean)
+      .join("\n"),
+  );
+}
+
+/** What the signer typed and when, printed on a signed revision. */
+export interface SignatureBlock {
+  revision: number;
+  signerName: string;
+  licence: string;
+  statement: string;
+  signedAt: Date;
+  contentSha256: string;
+  changes: string[];
+}
 
 /**
  * The standard PDF fonts carry WinAnsi characters only: the minus sign, the Greek mu and the
@@ -45,12 +100,13 @@ export function pdfText(text: string): string {
   return text
     .replace(/\u2212/g, "-")
     .replace(/\u03bc/g, "\u00b5")
+    .replace(/\u2192/g, "->")
     .replace(/[\u2018\u2019]/g, "'")
     .replace(/[\u201c\u201d]/g, '"')
     .replace(/[^\x20-\x7e\u00a0-\u00ff\u2013\u2014\u2022\u2026\u00d7\n]/g, "?");
 }
 
-export async function renderPourPdf(report: PourReport): Promise<Buffer> {
+export async function renderPourPdf(report: PourReport, signature?: SignatureBlock): Promise<Buffer> {
   const doc = new PDFDocument({
     size: report.project.unitSystem === "us" ? "LETTER" : "A4",
     layout: "landscape",
@@ -60,6 +116,9 @@ export async function renderPourPdf(report: PourReport): Promise<Buffer> {
       Title: pdfText(`Stressing report ${report.project.code} ${report.pour.name}`),
       Author: "Tautline",
       Subject: pdfText(`${report.project.name}, ${report.pour.name}`),
+      // Fixed to the content's own time, so the same content always gives the same bytes.
+      CreationDate: signature?.signedAt ?? report.asOf,
+      ModDate: signature?.signedAt ?? report.asOf,
     },
   });
   const chunks: Buffer[] = [];
@@ -73,7 +132,11 @@ export async function renderPourPdf(report: PourReport): Promise<Buffer> {
   const width = doc.page.width - doc.page.margins.left - doc.page.margins.right;
   const bottom = () => doc.page.height - doc.page.margins.bottom;
   const text = (t: string, options: PDFKit.Mixins.TextOptions = {}) => doc.text(pdfText(t), options);
-  const font = (bold: boolean, size = BODY) => doc.font(bold ? "Helvetica-Bold" : "Helvetica").fontSize(size).fillColor("black");
+  const font = (bold: boolean, size = BODY) =>
+    doc
+      .font(bold ? "Helvetica-Bold" : "Helvetica")
+      .fontSize(size)
+      .fillColor("black");
   const heading = (t: string) => {
     if (doc.y + 40 > bottom()) doc.addPage();
     doc.moveDown(0.8);
@@ -105,7 +168,11 @@ export async function renderPourPdf(report: PourReport): Promise<Buffer> {
     const h = doc.heightOfString(pdfText(body), { width: width - 16 });
     if (doc.y + h + 12 > bottom()) doc.addPage();
     const top = doc.y;
-    doc.lineWidth(1.5).strokeColor("black").rect(left, top, width, h + 12).stroke();
+    doc
+      .lineWidth(1.5)
+      .strokeColor("black")
+      .rect(left, top, width, h + 12)
+      .stroke();
     font(true, 10);
     doc.text("Caution. ", left + 8, top + 6, { width: width - 16, continued: true });
     font(false, 10);
@@ -115,27 +182,28 @@ export async function renderPourPdf(report: PourReport): Promise<Buffer> {
     font(false);
   };
 
-  // Title block.
+  // Page 1: the summary a reader signs against.
   font(true, 16);
-  text(`Stressing report: ${report.pour.name}`, { width });
+  text(`Stressing report: ${report.pour.name}${signature ? ` (revision ${signature.revision})` : ""}`, { width });
   font(false, 11);
-  text(`${report.project.name} (${report.project.code})${report.project.address ? `, ${report.project.address}` : ""}`, { width });
+  text(
+    `${report.project.name} (${report.project.code})${report.project.address ? `, ${report.project.address}` : ""}`,
+    { width },
+  );
   font(false);
   text(
     [
       report.pour.level ? `Level: ${report.pour.level}` : null,
       `Pour status: ${report.pour.status}`,
       report.pour.plannedStressingDate ? `Planned stressing: ${report.pour.plannedStressingDate}` : null,
-      report.pour.concreteStrengthMpa !== null
-        ? `Concrete strength confirmed: ${showPressure(report.project, report.pour.concreteStrengthMpa)}`
-        : "Concrete strength: not confirmed",
       report.project.engineerOfRecordName ? `Engineer of record: ${report.project.engineerOfRecordName}` : null,
-      `Generated ${isoMinute(report.generatedAt)}`,
+      `Content as of ${reportTime(report, report.asOf)}`,
     ]
       .filter(Boolean)
       .join("   ·   "),
     { width },
   );
+  text(concreteLine(report), { width });
   doc.moveDown(0.6);
   caution();
 
@@ -144,93 +212,86 @@ export async function renderPourPdf(report: PourReport): Promise<Buffer> {
 
   const stressed = report.tendons.filter((t) => t.evaluation && !t.evaluation.provisional);
   const count = (v: string) => stressed.filter((t) => t.evaluation?.verdict === v).length;
+  const restresses = report.records.filter((r) => r.stressing > 1).length;
   heading("Summary");
   text(
     `${report.tendons.length} tendons on the schedule; ${stressed.length} evaluated with every end read ` +
       `(${count("in band")} in band, ${count("long")} long, ${count("short")} short); ` +
       `${report.tendons.length - stressed.length} not yet complete. ` +
+      `${report.records.length} stressing records, ${restresses} of them restresses or lift-offs. ` +
       `${report.flags.length} flags, ${report.flags.filter((f) => f.status !== "closed").length} still open.`,
     { width },
   );
+
+  heading("Inspector's signature");
+  if (signature) {
+    keyValues([
+      ["Signed by", `${signature.signerName}, ${signature.licence}`],
+      ["Statement", signature.statement],
+      ["Signed", reportTime(report, signature.signedAt)],
+      ["Revision", String(signature.revision)],
+      ["What changed", signature.changes.length ? signature.changes.join("; ") : "first signed revision"],
+      ["Content sha256", signature.contentSha256],
+    ]);
+  } else {
+    text(
+      "Not signed. This copy shows the records as they stand; a signed revision is downloaded from the pour's report page.",
+      { width },
+    );
+  }
 
   heading("Computation basis and its sources");
   keyValues(basisLines(report));
 
   heading("Equipment sets and calibrations");
-  // The calibration line's slope per 1,000 psi (US) or per MPa (SI).
-  const pressureStep = report.project.unitSystem === "us" ? 1000 * MPA_PER_PSI : 1;
-  const pressureStepLabel = report.project.unitSystem === "us" ? "1,000 psi" : "MPa";
   if (!report.equipment.length) text("No equipment set has been used on this pour yet.", { width });
-  keyValues(
-    report.equipment.map((s) => [
-      s.name,
-      `Jack ${s.jackSerial}, gauge ${s.gaugeSerial}${s.pumpSerial ? `, pump ${s.pumpSerial}` : ""}. ` +
-        (s.calibrations.length
-          ? s.calibrations
-              .map(
-                (c) =>
-                  `Calibrated ${c.calibratedOn}, valid until ${c.validUntil}${c.laboratory ? ` (${c.laboratory})` : ""}: ` +
-                  `line of ${showForce(report.project, c.slope * pressureStep)} per ${pressureStepLabel}, ` +
-                  `${showForce(report.project, c.intercept)} at zero pressure, r² ${c.r2.toFixed(5)}`,
-              )
-              .join("; ")
-          : "No calibration on file."),
-    ]),
-  );
+  keyValues(calibrationLines(report));
 
   heading("Strand lots");
-  if (!report.strandLots.length) text("No tendon on this pour names a strand lot; nominal strand values apply.", { width });
-  keyValues(
-    report.strandLots.map((l) => [
-      l.lotNumber,
-      `${l.strandSize} strand, area ${l.areaMm2} mm², modulus ${l.modulusMPa.toLocaleString("en-US")} MPa, ` +
-        `breaking load ${showForce(report.project, l.breakingLoadN)} (mill certificate)`,
-    ]),
-  );
+  if (!report.strandLots.length)
+    text("No tendon on this pour names a strand lot; nominal strand values apply.", { width });
+  keyValues(strandLotLines(report));
 
-  // The tendon table, its header drawn again at the top of every page it runs onto.
+  // Every stressing record, its header drawn again at the top of every page it runs onto.
   doc.addPage();
   font(true, 12);
-  text("Tendons", { width });
+  text("Stressing records, every stressing of every end in order", { width });
   doc.moveDown(0.3);
-  const scale = width / Object.values(WIDTHS).reduce((a, b) => a + b, 0);
-  const colWidths = TENDON_COLUMNS.map((c) => WIDTHS[c] * scale);
+  const scale = width / PDF_COLUMNS.reduce((a, c) => a + c.width, 0);
+  const colWidths = PDF_COLUMNS.map((c) => c.width * scale);
+  const cellHeight = (cells: string[]) =>
+    Math.max(...cells.map((c, i) => doc.heightOfString(pdfText(c) || " ", { width: colWidths[i]! - 2 * PAD }))) +
+    2 * PAD;
   const drawRow = (cells: string[], bold: boolean) => {
-    font(bold);
-    const h = Math.max(...cells.map((c, i) => doc.heightOfString(pdfText(c) || " ", { width: colWidths[i]! - 2 * PAD }))) + 2 * PAD;
+    font(bold, bold ? BODY : BODY - 1);
+    const h = cellHeight(cells);
     const top = doc.y;
     let x = left;
     cells.forEach((c, i) => {
       doc.text(pdfText(c), x + PAD, top + PAD, { width: colWidths[i]! - 2 * PAD, lineBreak: true });
       x += colWidths[i]!;
     });
-    doc.lineWidth(bold ? 1 : 0.5).strokeColor("black").moveTo(left, top + h).lineTo(left + width, top + h).stroke();
+    doc
+      .lineWidth(bold ? 1 : 0.5)
+      .strokeColor("black")
+      .moveTo(left, top + h)
+      .lineTo(left + width, top + h)
+      .stroke();
     doc.x = left;
     doc.y = top + h;
-    return h;
   };
-  const header = [...TENDON_COLUMNS];
+  const header = PDF_COLUMNS.map((c) => c.title);
   drawRow(header, true);
-  let previousTag: string | null = null;
-  let firstOnPage = true;
-  for (const row of tendonRows(report)) {
-    const tag = row[0]!;
-    const continuation = tag === previousTag && !firstOnPage;
-    const cells = continuation ? row.map((c, i) => (END_COLUMNS.has(TENDON_COLUMNS[i]!) ? c : "")) : row;
-    font(false);
-    const h = Math.max(...cells.map((c, i) => doc.heightOfString(pdfText(c) || " ", { width: colWidths[i]! - 2 * PAD }))) + 2 * PAD;
-    if (doc.y + h > bottom()) {
+  for (const row of recordRows(report)) {
+    const cells = pdfCells(row);
+    font(false, BODY - 1);
+    if (doc.y + cellHeight(cells) > bottom()) {
       doc.addPage();
       drawRow(header, true);
-      firstOnPage = true;
-      previousTag = null;
-      drawRow(row, false);
-    } else {
-      drawRow(cells, false);
     }
-    firstOnPage = false;
-    previousTag = tag;
+    drawRow(cells, false);
   }
+  font(false);
   if (!report.tendons.length) text("This pour has no tendons on its schedule.", { width });
 
   heading("Flags and dispositions");

@@ -1,34 +1,59 @@
 import { flagLabel } from "@/components/ui/verdict-badge";
-import type { PourReport } from "@/lib/server/get-pour-report";
-import type { TendonResult } from "@/lib/server/list-tendon-results";
+import { formatDateTime, formatDay } from "@/lib/format/dates";
+import {
+  readingResolution,
+  showArea,
+  showComputedLength,
+  showForce,
+  showLength,
+  showLongLength,
+  showModulus,
+  showPct,
+  showPressure,
+  showStrength,
+  showWobble,
+} from "@/lib/format/quantities";
+import { MPA_PER_PSI } from "@/lib/units";
 import { DECISION_LABELS } from "@/lib/schemas/review";
-import { readingResolution, showComputedLength, showForce, showLength, showPct, showPressure, type DisplayUnits } from "@/lib/stressing/display";
+import type { PourReport } from "@/lib/server/get-pour-report";
+import type { PourRecord } from "@/lib/server/list-pour-records";
+import type { TendonResult } from "@/lib/server/list-tendon-results";
 
 /**
- * The report's tables as display strings in the project's units: the PDF draws them and the CSV
- * writes them, so both carry exactly the same rows and columns.
+ * The report's content as display strings in the project's units, once: the PDF draws them and
+ * the CSV writes them, so both carry exactly the same rows and columns. Dates and times go through
+ * lib/format/dates in the time zone the pour was stressed in; people and flags by name and reference.
  */
 
-export const TENDON_COLUMNS = [
+export const RECORD_COLUMNS = [
   "Tendon",
-  "Ends",
-  "Strands",
-  "Length",
-  "Strand",
   "End",
+  "Stressing",
+  "Stressed",
+  "Operator",
   "Equipment set",
-  "Gauge pressure",
+  "Jack, gauge, pump",
+  "Calibration",
+  "Initial pressure",
+  "Final pressure",
+  "Target pressure",
   "Force",
+  "Readings as entered",
+  "Seating",
   "Measured",
-  "Measured total",
-  "Predicted",
+  "Predicted (Tautline)",
+  "Predicted (shop drawing)",
+  "Governs",
   "Deviation",
   "Verdict",
-  "Evaluated (UTC)",
+  "Basis",
+  "Wire breaks",
+  "Remarks",
+  "Photos",
   "Flags",
 ] as const;
 
-export type TendonColumn = (typeof TENDON_COLUMNS)[number];
+export type RecordColumn = (typeof RECORD_COLUMNS)[number];
 
 const VERDICT_WORDS = { "in band": "In band", long: "Long", short: "Short", incomplete: "Incomplete" } as const;
 
@@ -38,99 +63,220 @@ export function verdictText(t: TendonResult): string {
   return t.evaluation.provisional ? `${word} (provisional)` : word;
 }
 
-export function showLongLength(project: DisplayUnits, mm: number): string {
-  return project.unitSystem === "us" ? `${(mm / 304.8).toFixed(1)} ft` : `${(mm / 1000).toFixed(2)} m`;
+/** A moment in the report's time zone: "2026-12-02 14:05 CST". */
+export const reportTime = (report: Pick<PourReport, "timeZone">, d: Date) => formatDateTime(d, report.timeZone);
+export const reportDay = (report: Pick<PourReport, "timeZone">, d: Date) => formatDay(d, report.timeZone);
+
+function stressingLabel(r: PourRecord): string {
+  const kind = r.stressing === 1 ? "original" : r.restressOrdered ? "restress (ordered)" : "restress";
+  const revised = r.revision > 1 ? `, revision ${r.revision}` : "";
+  return `${r.stressing} ${kind}${revised}`;
 }
 
-export const isoMinute = (d: Date) => `${d.toISOString().slice(0, 16).replace("T", " ")} UTC`;
-export const isoDay = (d: Date) => d.toISOString().slice(0, 10);
+function readingsText(r: PourRecord): string {
+  const parts: string[] = [];
+  if (r.method === "marks" && r.entered.marks)
+    parts.push(`marks ${r.entered.marks.before} before, ${r.entered.marks.after} after`);
+  if (r.method === "strokes" && r.entered.strokes?.length)
+    parts.push(r.entered.strokes.map((s, i) => `stroke ${i + 1}: ${s}`).join(", "));
+  if (!parts.length) parts.push(`${r.method === "marks" ? "marks" : "strokes"} (typed values not kept)`);
+  return parts.join("; ");
+}
 
-/**
- * One row per tendon end that was read (a tendon not yet stressed has one row with its schedule
- * alone). The tendon's own columns repeat on each of its rows so every row stands by itself.
- */
-export function tendonRows(report: PourReport): string[][] {
+function calibrationText(report: PourReport, r: PourRecord): string {
+  const c = r.calibration;
+  if (!c) return "none on file for that day";
+  const certificate = c.certificate ? `certificate ${c.certificate}` : "no certificate uploaded";
+  const state = c.inForce ? "" : ` NOT IN FORCE on ${reportDay({ timeZone: r.deviceTimeZone }, r.deviceTime)}`;
+  const reason = r.expiredCalibrationReason ? ` (crew: ${r.expiredCalibrationReason})` : "";
+  return `${c.calibratedOn} to ${c.validUntil}${c.laboratory ? `, ${c.laboratory}` : ""}; ${certificate}${state}${reason}`;
+}
+
+/** One row per stressing of each end in order; a tendon not yet stressed has one row saying so. */
+export function recordRows(report: PourReport): string[][] {
   const p = report.project;
   const flagsOf = (tag: string) =>
     report.flags
       .filter((f) => f.tendonTag === tag)
-      .map((f) => `${flagLabel(f.kind)}: ${f.status === "with_engineer" ? "with the engineer" : f.status}`)
+      .map(
+        (f) =>
+          `flag ${f.reference} ${flagLabel(f.kind)}: ${f.status === "with_engineer" ? "with the engineer" : f.status}`,
+      )
       .join("; ");
-  return report.tendons.flatMap((t) => {
-    const e = t.evaluation;
-    const own = {
-      Tendon: t.tag,
-      Ends: t.ends === "both" ? "A and B" : t.ends,
-      Strands: `${t.strandCount} × ${t.strandSize}`,
-      Length: showLongLength(p, t.lengthMm),
-      // Area and modulus of each lot are in the report's strand lot table.
-      Strand: t.strand ? t.strand.source.replace("strand lot", "lot") : t.lotNumber ? `lot ${t.lotNumber}` : "nominal",
-      "Measured total": e?.measuredMm != null ? showLength(p, e.measuredMm) : "",
-      Predicted: e?.predictedMm != null ? showComputedLength(p, e.predictedMm) : "",
-      Deviation: e?.deviationPct != null ? showPct(e.deviationPct) : "",
-      Verdict: verdictText(t),
-      "Evaluated (UTC)": e ? e.createdAt.toISOString().slice(0, 16).replace("T", " ") : "",
-      Flags: flagsOf(t.tag),
-    };
-    const ends = t.endResults.length
-      ? t.endResults.map((r) => ({
-          End: r.end,
-          "Equipment set": r.equipmentSetName,
-          "Gauge pressure": r.initialPressureMPa
-            ? `${showPressure(p, r.initialPressureMPa)} to ${showPressure(p, r.finalPressureMPa)}`
-            : showPressure(p, r.finalPressureMPa),
-          Force: r.forceN !== null ? showForce(p, r.forceN) : "no calibration",
-          Measured: showLength(p, r.measuredMm) + (r.revision > 1 ? ` (rev. ${r.revision})` : ""),
-        }))
-      : [{ End: "", "Equipment set": "", "Gauge pressure": "", Force: "", Measured: "" }];
-    return ends.map((end) => {
-      const row: Record<TendonColumn, string> = { ...own, ...end };
-      return TENDON_COLUMNS.map((c) => row[c]);
-    });
-  });
+  const rows: Record<RecordColumn, string>[] = [];
+  for (const t of report.tendons) {
+    const records = report.records.filter((r) => r.tendonId === t.tendonId);
+    if (!records.length) {
+      rows.push({
+        ...Object.fromEntries(RECORD_COLUMNS.map((c) => [c, ""])),
+        Tendon: t.tag,
+        Verdict: "Not stressed",
+        "Predicted (Tautline)": "",
+        Flags: flagsOf(t.tag),
+      } as Record<RecordColumn, string>);
+      continue;
+    }
+    for (const r of records) {
+      const e = r.evaluation;
+      const verdict = e
+        ? VERDICT_WORDS[e.verdict] + (e.provisional ? " (provisional)" : "") + (e.current ? "" : " (superseded)")
+        : "Not evaluated";
+      rows.push({
+        Tendon: t.tag,
+        End: r.end,
+        Stressing: stressingLabel(r),
+        Stressed: formatDateTime(r.deviceTime, r.deviceTimeZone),
+        Operator: r.operator,
+        "Equipment set": r.equipment.name,
+        "Jack, gauge, pump": `jack ${r.equipment.jackSerial}, gauge ${r.equipment.gaugeSerial}, pump ${r.equipment.pumpSerial ?? "not recorded"}`,
+        Calibration: calibrationText(report, r),
+        "Initial pressure": r.initialPressureMPa !== null ? showPressure(p, r.initialPressureMPa) : "none (from zero)",
+        "Final pressure": showPressure(p, r.finalPressureMPa),
+        "Target pressure": r.targetPressureMPa !== null ? showPressure(p, r.targetPressureMPa) : "no calibration",
+        Force: r.forceN !== null ? showForce(p, r.forceN) : "no calibration",
+        "Readings as entered": readingsText(r),
+        Seating: r.entered.seating ?? (r.seatingMm !== null ? showLength(p, r.seatingMm) : "not read"),
+        Measured: showLength(p, r.measuredMm),
+        "Predicted (Tautline)": e?.predictedMm != null ? showComputedLength(p, e.predictedMm) : "",
+        "Predicted (shop drawing)":
+          r.shopElongationMm !== null ? showComputedLength(p, r.shopElongationMm) : "none given",
+        Governs: e ? (e.governs === "shop drawing" ? "shop drawing" : "Tautline") : "",
+        Deviation: e?.deviationPct != null ? showPct(e.deviationPct) : "",
+        Verdict: verdict,
+        Basis: e ? (e.basis === "net" ? "net of anchor set" : "gross at jacking") : "",
+        "Wire breaks": String(r.wireBreaks),
+        Remarks: [r.remarks, ...r.corrections.map((c) => `corrected to revision ${c.revision}: ${c.reason}`)]
+          .filter(Boolean)
+          .join("; "),
+        Photos: r.photos.map((n) => `photo ${n}`).join(", "),
+        Flags: flagsOf(t.tag),
+      });
+    }
+  }
+  return rows.map((row) => RECORD_COLUMNS.map((c) => row[c]));
+}
+
+export function concreteLine(report: PourReport): string {
+  const pour = report.pour;
+  if (pour.concreteStrengthMpa !== null) {
+    const by = pour.concreteConfirmedBy ? ` by ${pour.concreteConfirmedBy}` : "";
+    const at = pour.concreteConfirmedAt ? ` on ${reportDay(report, pour.concreteConfirmedAt)}` : "";
+    return `Concrete strength ${showStrength(report.project, pour.concreteStrengthMpa)} confirmed${by}${at}`;
+  }
+  if (report.release)
+    return "Concrete strength: no test result entered in Tautline; the release stands on the engineer's statement";
+  return "Concrete strength: not confirmed in Tautline";
 }
 
 export function basisLines(report: PourReport): [string, string][] {
   const p = report.project;
   const b = report.basis;
-  const wobble = p.unitSystem === "us" ? `${(b.wobblePerM * 0.3048).toFixed(4)} per ft` : `${b.wobblePerM.toFixed(4)} per m`;
   const sources = [...new Set(report.tendons.map((t) => t.strand?.source).filter((s): s is string => Boolean(s)))];
   return [
-    ["Comparison basis", b.comparisonBasis === "net" ? "Net of anchor set (marks read after lock-off)" : "Gross, at jacking force"],
-    ["Tolerance", `±${b.tolerancePct} % per tendon` + (b.groupTolerancePct !== null ? `; ±${b.groupTolerancePct} % on the group average` : "")],
-    ["Short-tendon floor", b.shortTendonFloorMm !== null ? `band never narrower than ${showComputedLength(p, b.shortTendonFloorMm)}` : "none"],
+    [
+      "Comparison basis",
+      b.comparisonBasis === "net" ? "Net of anchor set (marks read after lock-off)" : "Gross, at jacking force",
+    ],
+    [
+      "Tolerance",
+      `±${b.tolerancePct} % per tendon` +
+        (b.groupTolerancePct !== null ? `; ±${b.groupTolerancePct} % on the group average` : ""),
+    ],
+    [
+      "Short-tendon floor",
+      b.shortTendonFloorMm !== null
+        ? `band never narrower than ${showComputedLength(p, b.shortTendonFloorMm)}`
+        : "none",
+    ],
     ["Curvature friction μ", `${b.frictionMu} (project setting)`],
-    ["Wobble K", `${wobble} (project setting)`],
+    ["Wobble K", `${showWobble(p, b.wobblePerM)} (project setting)`],
     ["Anchor set", `${showComputedLength(p, b.anchorSetMm)} at each stressed end (project setting)`],
-    ["Strand inside the jack", b.countJackGrip ? "counted (tendon's grip length, else the equipment set's)" : "not counted"],
+    [
+      "Strand inside the jack",
+      b.countJackGrip ? "counted (tendon's grip length, else the equipment set's)" : "not counted",
+    ],
     ["Strand area A and modulus E", sources.length ? sources.join("; ") : "no tendon evaluated yet"],
     ["Nominal strand values", "ASTM A416 nominal area and breaking strength where a tendon names no strand lot"],
     ["Jacking force", "0.80 · fpu · A of the specified strand (ACI 318-19 Table 20.3.2.5.1)"],
     ["Forces from gauge pressure", "least-squares line of the equipment set's calibration"],
+    [
+      "Predicted elongation",
+      "Tautline's computation governs unless a record says the shop drawing's does; both are listed",
+    ],
     ["Reading resolution", readingResolution(p.readingResolution)],
+    ["Required concrete strength", b.requiredConcreteMpa !== null ? showStrength(p, b.requiredConcreteMpa) : "not set"],
     ["Engine", report.engineVersion],
   ];
 }
 
+export function strandLotLines(report: PourReport): [string, string][] {
+  const p = report.project;
+  return report.strandLots.map((l) => [
+    l.lotNumber,
+    `${l.strandSize} strand, area ${showArea(p, l.areaMm2)}, modulus ${showModulus(p, l.modulusMPa)}, ` +
+      `breaking load ${showForce(p, l.breakingLoadN)} (mill certificate)`,
+  ]);
+}
+
+/** A calibration dated after the report's content is never shown as the one in force. */
+export function calibrationLines(report: PourReport): [string, string][] {
+  const p = report.project;
+  const today = reportDay(report, report.asOf);
+  // The calibration line's slope per 1,000 psi (US) or per MPa (SI).
+  const step = p.unitSystem === "us" ? { mpa: 1000 * MPA_PER_PSI, label: "1,000 psi" } : { mpa: 1, label: "MPa" };
+  return report.equipment.map((s) => [
+    s.name,
+    `Jack ${s.jackSerial}, gauge ${s.gaugeSerial}, pump ${s.pumpSerial ?? "not recorded"}. ` +
+      (s.calibrations.length
+        ? s.calibrations
+            .map((c) => {
+              const state =
+                c.calibratedOn > today
+                  ? "dated after this report: not in force"
+                  : c.validUntil < today
+                    ? `expired by ${today}`
+                    : `in force on ${today}`;
+              return (
+                `Calibrated ${c.calibratedOn}, valid until ${c.validUntil} (${state})${c.laboratory ? `, ${c.laboratory}` : ""}: ` +
+                `line of ${showForce(p, c.slope * step.mpa)} per ${step.label}, ${showForce(p, c.intercept)} at zero pressure, r² ${c.r2.toFixed(5)}`
+              );
+            })
+            .join("; ")
+        : "No calibration on file."),
+  ]);
+}
+
 export function flagLines(report: PourReport): { heading: string; lines: string[] }[] {
   return report.flags.map((f) => {
-    const lines = [f.reason, `Raised ${isoMinute(f.raisedAt)}.`];
-    for (const r of f.reviews) lines.push(`Review (${r.kind.replace(/_/g, " ")}) by ${r.author}, ${isoMinute(r.at)}: ${r.body}`);
+    const lines = [f.reason, `Raised ${reportTime(report, f.raisedAt)}.`];
+    for (const r of f.reviews)
+      lines.push(`Review (${r.kind.replace(/_/g, " ")}) by ${r.author}, ${reportTime(report, r.at)}: ${r.body}`);
     for (const d of f.dispositions)
-      lines.push(`Disposition: ${DECISION_LABELS[d.decision]}, by ${d.engineerName} (${d.licenceStatement}), ${isoMinute(d.at)}: ${d.reasons}`);
+      lines.push(
+        `Disposition ${d.reference}: ${DECISION_LABELS[d.decision]}, by ${d.engineerName} (${d.licenceStatement}), ${reportTime(report, d.at)}: ${d.reasons}`,
+      );
     if (!f.dispositions.length && f.status !== "closed") lines.push("No disposition yet.");
     if (f.closedAt)
-      lines.push(`Closed ${isoMinute(f.closedAt)}${f.closedBy ? ` by ${f.closedBy}` : ""}${f.closeReason ? `: ${f.closeReason}` : "."}`);
+      lines.push(
+        `Closed ${reportTime(report, f.closedAt)}${f.closedBy ? ` by ${f.closedBy}` : ""}${f.closeReason ? `: ${f.closeReason}` : "."}`,
+      );
     const status = f.status === "with_engineer" ? "with the engineer" : f.status;
-    return { heading: `${f.tendonTag} · ${flagLabel(f.kind)} · ${status}`, lines };
+    return { heading: `Flag ${f.reference} · ${f.tendonTag} · ${flagLabel(f.kind)} · ${status}`, lines };
   });
 }
 
 export function releaseLine(report: PourReport): string {
-  if (!report.release) return `Not released. The pour is ${report.pour.status}; the ${report.project.releaseBy} releases it once no flag is open.`;
-  return `Released by ${report.release.byName} on ${isoMinute(report.release.at)}: "${report.release.statement}"`;
+  if (!report.release)
+    return `Not released. The pour is ${report.pour.status}; the ${report.project.releaseBy} releases it once no flag is open.`;
+  return `Released by ${report.release.byName} on ${reportTime(report, report.release.at)}: "${report.release.statement}"`;
 }
 
-export function reportFileName(report: PourReport, extension: "pdf" | "csv"): string {
-  return `${report.project.code}-${report.pour.name}-stressing-report`.replace(/[^A-Za-z0-9._-]+/g, "-") + `.${extension}`;
+export function reportFileName(report: PourReport, extension: "pdf" | "csv", revision?: number): string {
+  const suffix = revision ? `-rev${revision}` : "";
+  return (
+    `${report.project.code}-${report.pour.name}-stressing-report${suffix}`.replace(/[^A-Za-z0-9._-]+/g, "-") +
+    `.${extension}`
+  );
 }
+
+export { showLongLength };

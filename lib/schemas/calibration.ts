@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { latestDayAnywhere } from "@/lib/format/dates";
 
 /** A calibration as the certificate gives it: load-cell forces at gauge pressures, in SI. */
 export const calibrationSchema = z
@@ -24,6 +25,13 @@ export const calibrationSchema = z
     certificateAttachmentId: z.uuid({ error: "Upload the certificate again." }).nullable(),
   })
   .superRefine((c, ctx) => {
+    if (c.calibratedOn > latestDayAnywhere()) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["calibratedOn"],
+        message: "The calibration date is in the future; give the day the set was calibrated.",
+      });
+    }
     if (c.validUntil && c.validUntil < c.calibratedOn) {
       ctx.addIssue({ code: "custom", path: ["validUntil"], message: "The expiry is before the calibration date." });
     }
@@ -60,4 +68,27 @@ export function calibrationState(validUntil: string | null, today: string): Cali
   const left = daysBetween(today, validUntil);
   if (left < 0) return "expired";
   return left <= EXPIRING_WITHIN_DAYS ? "expiring" : "valid";
+}
+
+/** What a set's calibration needs for it to be picked for a day. */
+export interface PickableCalibration {
+  id: string;
+  calibratedOn: string;
+  /** Set when the calibration was retired: it is never picked again. */
+  retiredAt?: string | Date | null;
+}
+
+/**
+ * The calibration in force on a stressing day: the latest one made on or before that day and not
+ * retired. The tablet (`lib/offline/tendon-view.ts`) and the server's evaluation both call this, so
+ * office and field always pick the same one, whatever order the list comes in (two on the same day:
+ * the greater id, so the choice never depends on the order rows were read).
+ */
+export function pickCalibration<C extends PickableCalibration>(calibrations: readonly C[], day: string): C | null {
+  let best: C | null = null;
+  for (const c of calibrations) {
+    if (c.retiredAt || c.calibratedOn > day) continue;
+    if (!best || c.calibratedOn > best.calibratedOn || (c.calibratedOn === best.calibratedOn && c.id > best.id)) best = c;
+  }
+  return best;
 }

@@ -7,14 +7,19 @@ export type UploadPurpose = (typeof UPLOAD_PURPOSES)[number];
 const IMAGES = ["image/jpeg", "image/png", "image/webp"] as const;
 const CERTIFICATES = ["application/pdf", "image/jpeg", "image/png"] as const;
 
-export const ALLOWED_TYPES: Record<UploadPurpose, readonly string[]> = {
+/** Files the server makes itself (a signed report) and stores beside the uploads; never uploaded. */
+export type StoredPurpose = UploadPurpose | "signed_report";
+
+export const ALLOWED_TYPES: Record<StoredPurpose, readonly string[]> = {
+  signed_report: ["application/pdf"],
   mill_certificate: CERTIFICATES,
   calibration_certificate: CERTIFICATES,
   record_photo: IMAGES,
   review_photo: IMAGES,
 };
 
-export const PURPOSE_LABELS: Record<UploadPurpose, string> = {
+export const PURPOSE_LABELS: Record<StoredPurpose, string> = {
+  signed_report: "signed report",
   mill_certificate: "mill certificate",
   calibration_certificate: "calibration certificate",
   record_photo: "gauge or tendon photo",
@@ -22,7 +27,7 @@ export const PURPOSE_LABELS: Record<UploadPurpose, string> = {
 };
 
 /** Plain words for the accepted types, for messages and the file picker's hint. */
-export function acceptedTypesText(purpose: UploadPurpose): string {
+export function acceptedTypesText(purpose: StoredPurpose): string {
   return ALLOWED_TYPES[purpose].map((t) => t.split("/")[1]!.toUpperCase()).join(", ");
 }
 

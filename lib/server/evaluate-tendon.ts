@@ -18,6 +18,8 @@ import { ENGINE_VERSION, checkStressLimits, findStrandSize, forceFromPressure } 
 import { env } from "@/lib/env";
 import { flagMail } from "@/lib/mail/templates";
 import { judgeTendon, predictTendon, type CalibrationLine, type EndReading } from "@/lib/stressing/basis";
+import { pickCalibration } from "@/lib/schemas/calibration";
+import { MPA_PER_PSI } from "@/lib/units";
 import { showForce, showLength, showPct, showPressure } from "@/lib/stressing/display";
 import { selectTendonBasis, toLoadedTendon, type LoadedTendon } from "./load-tendon-basis";
 
@@ -66,7 +68,7 @@ const line = (c: Calibration): CalibrationLine => ({
 const isoDay = (d: Date | string) => new Date(d).toISOString().slice(0, 10);
 
 /** Half of a 100 psi gauge graduation, in MPa. */
-const HALF_GRADUATION_MPA = 50 * 0.006894757293168;
+const HALF_GRADUATION_MPA = 50 * MPA_PER_PSI;
 
 const RESTRESS_DECISIONS: Decision[] = ["restress", "detension_restress"];
 
@@ -293,7 +295,7 @@ export function planEvaluation(
     // The calibration the crew picked, else the latest one made on or before the stressing day.
     const calibration: Calibration | undefined = record.calibration_id
       ? calibrationsOf(set.setId).find((c) => c.id === record.calibration_id)
-      : calibrationsOf(set.setId).find((c) => c.calibrated_on <= day);
+      : (pickCalibration(calibrationsOf(set.setId).map((c) => ({ ...c, calibratedOn: c.calibrated_on })), day) ?? undefined);
 
     if (!calibration || day > calibration.valid_until || day < calibration.calibrated_on) {
       findings.push({

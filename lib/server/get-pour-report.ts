@@ -6,7 +6,9 @@ import { ENGINE_VERSION } from "@/lib/elongation";
 import { AppError } from "@/lib/errors";
 import type { StoredResolution } from "@/lib/stressing/display";
 import { findFlagTrail } from "./find-flag-trail";
+import { listPourRecords, type PourRecord } from "./list-pour-records";
 import { listTendonResults, type TendonResult } from "./list-tendon-results";
+import { sql } from "kysely";
 
 /**
  * Everything the pour's stressing report says, in SI as stored: the project and its computation
@@ -17,6 +19,8 @@ import { listTendonResults, type TendonResult } from "./list-tendon-results";
 
 export interface ReportFlag {
   id: string;
+  /** The project's running reference, "F-0012". */
+  reference: string;
   tendonTag: string;
   kind: FlagKind;
   reason: string;
@@ -26,11 +30,18 @@ export interface ReportFlag {
   closedBy: string | null;
   closeReason: string | null;
   reviews: { kind: ReviewKind; body: string; author: string; at: Date }[];
-  dispositions: { decision: Decision; reasons: string; engineerName: string; licenceStatement: string; at: Date }[];
+  dispositions: { reference: string; decision: Decision; reasons: string; engineerName: string; licenceStatement: string; at: Date }[];
 }
 
 export interface PourReport {
-  generatedAt: Date;
+  /**
+   * The moment of the latest change the report shows (a record, an evaluation, a flag's trail,
+   * the release). The report prints it instead of the time it was drawn, so the same content
+   * always gives the same file, byte for byte.
+   */
+  asOf: Date;
+  /** The zone the pour was stressed in (its records' zone), for every date and time the report prints. */
+  timeZone: string;
   engineVersion: string;
   project: {
     id: string;
@@ -60,6 +71,8 @@ export interface PourReport {
     status: string;
     plannedStressingDate: string | null;
     concreteStrengthMpa: number | null;
+    concreteConfirmedBy: string | null;
+    concreteConfirmedAt: Date | null;
   };
   equipment: {
     id: string;
@@ -78,9 +91,14 @@ export interface PourReport {
   }[];
   strandLots: { lotNumber: string; strandSize: string; areaMm2: number; modulusMPa: number; breakingLoadN: number }[];
   tendons: TendonResult[];
+  /** Every stressing of every end, in order: the original and each restress, never only the latest. */
+  records: PourRecord[];
   flags: ReportFlag[];
   release: { byName: string; at: Date; statement: string } | null;
 }
+
+/** "F-0012": a flag's or a disposition's number in its project, in the order they were made. */
+export const reference = (prefix: "F" | "D", n: number) => `${prefix}-${String(n).padStart(4, "0")}`;
 
 const asDay = (d: Date | string) => (typeof d === "string" ? d.slice(0, 10) : d.toISOString().slice(0, 10));
 
@@ -91,14 +109,26 @@ export async function getPourReport(
   const project = await db.selectFrom("projects").selectAll().where("id", "=", input.projectId).executeTakeFirst();
   const pour = await db
     .selectFrom("pours")
-    .select(["id", "name", "level", "status", "planned_stressing_date", "concrete_strength_mpa"])
-    .where("project_id", "=", input.projectId)
-    .where("id", "=", input.pourId)
+    .leftJoin("users", "users.id", "pours.concrete_confirmed_by")
+    .select([
+      "pours.id",
+      "pours.name",
+      "pours.level",
+      "pours.status",
+      "pours.planned_stressing_date",
+      "pours.concrete_strength_mpa",
+      "pours.concrete_confirmed_at",
+      "pours.updated_at",
+      "users.name as concreteConfirmedBy",
+    ])
+    .where("pours.project_id", "=", input.projectId)
+    .where("pours.id", "=", input.pourId)
     .executeTakeFirst();
   if (!project || !pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
 
-  const [tendons, { flags, reviews, dispositions }, release] = await Promise.all([
+  const [tendons, records, { flags, reviews, dispositions }, release, flagNumbers, dispositionNumbers] = await Promise.all([
     listTendonResults(db, input),
+    listPourRecords(db, { ...input, projectBasis: project.comparison_basis }),
     findFlagTrail(db, { projectId: input.projectId, pourId: input.pourId }),
     db
       .selectFrom("releases")
@@ -106,7 +136,19 @@ export async function getPourReport(
       .where("project_id", "=", input.projectId)
       .where("pour_id", "=", input.pourId)
       .executeTakeFirst(),
+    db
+      .selectFrom("flags")
+      .select(["id", sql<string>`row_number() over (order by created_at, id)`.as("n")])
+      .where("project_id", "=", input.projectId)
+      .execute(),
+    db
+      .selectFrom("dispositions")
+      .select(["id", sql<string>`row_number() over (order by created_at, id)`.as("n")])
+      .where("project_id", "=", input.projectId)
+      .execute(),
   ]);
+  const flagRef = new Map(flagNumbers.map((f) => [f.id, reference("F", Number(f.n))]));
+  const dispositionRef = new Map(dispositionNumbers.map((d) => [d.id, reference("D", Number(d.n))]));
 
   // The sets used on this pour and the lots its tendons name.
   const setIds = [...new Set(tendons.flatMap((t) => t.endResults.map((r) => r.equipmentSetId)))];
@@ -149,8 +191,23 @@ export async function getPourReport(
       : [],
   ]);
 
+  const moments = [
+    new Date(pour.updated_at),
+    ...records.flatMap((r) => [r.deviceTime, ...(r.evaluation ? [r.evaluation.at] : [])]),
+    ...tendons.flatMap((t) => (t.evaluation ? [t.evaluation.createdAt] : [])),
+    ...flags.flatMap((f) => [new Date(f.created_at), ...(f.closed_at ? [new Date(f.closed_at)] : [])]),
+    ...reviews.map((r) => new Date(r.created_at)),
+    ...dispositions.map((d) => new Date(d.created_at)),
+    ...(release ? [new Date(release.created_at)] : []),
+  ];
+  const asOf = new Date(Math.max(...moments.map((m) => m.getTime())));
+
+  const zones = records.map((r) => r.deviceTimeZone);
+  const timeZone = zones.sort((a, b) => zones.filter((z) => z === b).length - zones.filter((z) => z === a).length)[0] ?? "UTC";
+
   return {
-    generatedAt: new Date(),
+    asOf,
+    timeZone,
     engineVersion: ENGINE_VERSION,
     project: {
       id: project.id,
@@ -174,6 +231,8 @@ export async function getPourReport(
       status: pour.status,
       plannedStressingDate: pour.planned_stressing_date ? asDay(pour.planned_stressing_date) : null,
       concreteStrengthMpa: pour.concrete_strength_mpa,
+      concreteConfirmedBy: pour.concreteConfirmedBy,
+      concreteConfirmedAt: pour.concrete_confirmed_at ? new Date(pour.concrete_confirmed_at) : null,
     },
     equipment: sets.map((s) => ({
       id: s.id,
@@ -200,8 +259,10 @@ export async function getPourReport(
       breakingLoadN: l.breaking_load_n,
     })),
     tendons,
+    records,
     flags: flags.map((f) => ({
       id: f.id,
+      reference: flagRef.get(f.id) ?? "F-?",
       tendonTag: f.tag,
       kind: f.kind,
       reason: f.reason,
@@ -209,13 +270,19 @@ export async function getPourReport(
       raisedAt: new Date(f.created_at),
       closedAt: f.closed_at ? new Date(f.closed_at) : null,
       closedBy: f.closedByName,
-      closeReason: f.close_reason,
+      // Closures written by the evaluation name rows by id; the report names them by reference.
+      closeReason: f.close_reason
+        ? f.close_reason
+            .replace(/disposition ([0-9a-f-]{36})/g, (_, id: string) => `disposition ${dispositionRef.get(id) ?? "of another project"}`)
+            .replace(/;? ?evaluation [0-9a-f-]{36}/g, "; the new evaluation")
+        : null,
       reviews: reviews
         .filter((r) => r.flag_id === f.id)
         .map((r) => ({ kind: r.kind, body: r.body, author: r.author, at: new Date(r.created_at) })),
       dispositions: dispositions
         .filter((d) => d.flag_id === f.id)
         .map((d) => ({
+          reference: dispositionRef.get(d.id) ?? "D-?",
           decision: d.decision,
           reasons: d.reasons,
           engineerName: d.engineer_name,

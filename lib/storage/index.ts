@@ -266,3 +266,43 @@ export async function requireStoredAttachment(
     });
   }
 }
+
+/**
+ * Stores a file the server made itself (a signed report) in the upload store: the bytes go up
+ * under a generated key and the row is written `stored` with the file's sha256. Returns the row.
+ */
+export async function storeGeneratedFile(
+  db: Db,
+  input: {
+    projectId: string;
+    purpose: "signed_report";
+    contentType: string;
+    bytes: Uint8Array;
+    name: string;
+    createdBy: string;
+  },
+): Promise<StoredAttachment> {
+  const attachmentId = randomUUID();
+  const objectKey = `projects/${input.projectId}/${input.purpose}/${attachmentId}`;
+  const sha256 = createHash("sha256").update(input.bytes).digest("hex");
+  await s3().send(
+    new PutObjectCommand({ Bucket: bucket(), Key: objectKey, Body: input.bytes, ContentType: input.contentType }),
+  );
+  const row = await db
+    .insertInto("attachments")
+    .values({
+      id: attachmentId,
+      project_id: input.projectId,
+      purpose: input.purpose,
+      object_key: objectKey,
+      content_type: input.contentType,
+      size_bytes: input.bytes.byteLength,
+      sha256,
+      original_name: safeFileName(input.name),
+      status: "stored",
+      uploaded_by: input.createdBy,
+    })
+    .returning(["id", "purpose", "content_type", "size_bytes", "sha256", "original_name"])
+    .executeTakeFirstOrThrow();
+  return toStored(row);
+}

@@ -1,50 +1,15 @@
-import { DEFAULT_UNITS, formatForce, formatLength, formatPressure, type ReadingResolution } from "@/lib/units";
-
 /**
- * Shows SI values in a project's display units. The database stores the reading resolution
- * as "1/8in" | "1/16in" | "1mm" and the unit system as "us" | "si".
+ * Shows SI values in a project's display units. The formatting itself lives in
+ * `lib/format/quantities.ts`; this module keeps the names the screens already import.
  */
-
-export type StoredResolution = "1/8in" | "1/16in" | "1mm";
-
-const RESOLUTIONS: Record<StoredResolution, ReadingResolution> = {
-  "1/8in": "1/8 in",
-  "1/16in": "1/16 in",
-  "1mm": "1 mm",
-};
-
-export function readingResolution(stored: StoredResolution): ReadingResolution {
-  return RESOLUTIONS[stored];
-}
-
-export interface DisplayUnits {
-  unitSystem: "us" | "si";
-  readingResolution: StoredResolution;
-}
-
-export function unitsOf(project: DisplayUnits) {
-  return DEFAULT_UNITS[project.unitSystem === "us" ? "US" : "SI"];
-}
-
-export function showLength(project: DisplayUnits, mm: number): string {
-  return formatLength(mm, readingResolution(project.readingResolution));
-}
-
-/** Lengths that are computed, not read (predictions, bands): one finer step than a reading. */
-export function showComputedLength(project: DisplayUnits, mm: number): string {
-  if (project.unitSystem === "si") return Math.abs(mm) >= 10_000 ? `${(mm / 1000).toFixed(2)} m` : `${mm.toFixed(1)} mm`;
-  const inches = mm / 25.4;
-  return Math.abs(inches) >= 120 ? `${(inches / 12).toFixed(2)} ft` : `${inches.toFixed(2)} in`;
-}
-
-export function showForce(project: DisplayUnits, n: number): string {
-  return formatForce(n, { unit: unitsOf(project).force });
-}
-
-export function showPressure(project: DisplayUnits, mpa: number): string {
-  return formatPressure(mpa, { unit: unitsOf(project).pressure });
-}
-
-export function showPct(pct: number): string {
-  return `${pct >= 0 ? "+" : "−"}${Math.abs(pct).toFixed(1)} %`;
-}
+export {
+  readingResolution,
+  showComputedLength,
+  showForce,
+  showLength,
+  showPct,
+  showPressure,
+  unitsOf,
+  type DisplayUnits,
+  type StoredResolution,
+} from "@/lib/format/quantities";

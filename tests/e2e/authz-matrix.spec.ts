@@ -122,6 +122,7 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     shopElongationMm: null,
     strandLotId: null,
   });
+  const SIGNATURE = { signerName: "Matrix Inspector", licence: "ICC special inspector 0000000 (matrix)", statement: "Matrix check of who may sign the stressing report." };
   const SCHEDULE_HEADER = "tag,type,strand size [in],strands,ends,segments [ft@deg]";
 
   /** An admin's certificate upload, put in storage; confirmed too when `confirm` is set. */
@@ -205,6 +206,26 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     "GET /api/projects/[projectId]/tendon-template": { call: (c) => c.get(`/api/projects/${projectId}/tendon-template`) },
     "GET /api/projects/[projectId]/pours/[pourId]/report/pdf": { fixture: demoPourId, call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/report/pdf`) },
     "GET /api/projects/[projectId]/pours/[pourId]/report/csv": { fixture: demoPourId, call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/report/csv`) },
+    "GET /api/projects/[projectId]/pours/[pourId]/report/signatures": { fixture: demoPourId, call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/report/signatures`) },
+    "POST /api/projects/[projectId]/pours/[pourId]/report/signatures": {
+      fixture: throwawayPour,
+      call: (c, id) => c.post(`/api/projects/${projectId}/pours/${id}/report/signatures`, { data: SIGNATURE }),
+    },
+    "GET /api/projects/[projectId]/pours/[pourId]/report/signatures/[revision]": {
+      fixture: async () => {
+        const pourId = await throwawayPour();
+        expect((await contexts.inspector.post(`/api/projects/${projectId}/pours/${pourId}/report/signatures`, { data: SIGNATURE })).status()).toBe(201);
+        return pourId;
+      },
+      call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/report/signatures/1`),
+    },
+    "GET /api/projects/[projectId]/share-links": { call: (c) => c.get(`/api/projects/${projectId}/share-links`) },
+    "POST /api/projects/[projectId]/share-links": {
+      call: (c) => c.post(`/api/projects/${projectId}/share-links`, { data: { label: "Matrix general contractor", days: 1 } }),
+    },
+    "DELETE /api/projects/[projectId]/share-links/[linkId]": { call: (c) => c.delete(`/api/projects/${projectId}/share-links/${MISSING_ID}`) },
+    "GET /api/share/[token]/reports/[pourId]/[revision]": { call: (c) => c.get(`/api/share/${BOGUS_TOKEN}/reports/${MISSING_ID}/1`) },
+    "POST /api/report-verifications": { call: (c) => c.post("/api/report-verifications", { data: { sha256: "0".repeat(64) } }) },
     "GET /api/projects/[projectId]/tendons/[tendonId]": {
       fixture: async () => {
         const list = (await (await contexts.admin.get(`/api/projects/${projectId}/pours/${await demoPourId()}/tendons`)).json()) as { tendons: { id: string }[] };

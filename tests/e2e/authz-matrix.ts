@@ -56,6 +56,17 @@ export const MATRIX: Record<string, Expected> = {
   "GET /api/projects/[projectId]/tendon-template": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "GET /api/projects/[projectId]/pours/[pourId]/report/pdf": projectAction(200, ["admin", "inspector", "engineer"]),
   "GET /api/projects/[projectId]/pours/[pourId]/report/csv": projectAction(200, ["admin", "inspector", "engineer"]),
+  "GET /api/projects/[projectId]/pours/[pourId]/report/signatures": projectAction(200, ["admin", "inspector", "engineer"]),
+  "POST /api/projects/[projectId]/pours/[pourId]/report/signatures": projectAction(201, ["inspector"]),
+  "GET /api/projects/[projectId]/pours/[pourId]/report/signatures/[revision]": projectAction(200, ["admin", "inspector", "engineer"]),
+  "GET /api/projects/[projectId]/share-links": projectAction(200, ["admin", "inspector", "engineer"]),
+  "POST /api/projects/[projectId]/share-links": projectAction(201, ["admin", "inspector", "engineer"]),
+  // Revoking a link that does not exist: the roles allowed pass the access check and get 404.
+  "DELETE /api/projects/[projectId]/share-links/[linkId]": projectAction(404, ["admin", "inspector", "engineer"]),
+  // A read-only link's token is the authorization: an unknown one is gone for everyone.
+  "GET /api/share/[token]/reports/[pourId]/[revision]": everyone(410),
+  // Public: a report file's sha256 in, whether it is a signed revision out (audited).
+  "POST /api/report-verifications": everyone(200),
   "GET /api/projects/[projectId]/tendons/[tendonId]": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "GET /api/projects/[projectId]/strand-lots": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "POST /api/projects/[projectId]/strand-lots": projectAction(201, ["admin"]),

@@ -3,12 +3,16 @@ import { DeviationChart } from "@/components/insight/deviation-chart";
 import { DriftTable, ModulusTable, ResolutionSummary } from "@/components/insight/insight-tables";
 import { MeasuredPredictedChart } from "@/components/insight/measured-predicted-chart";
 import { ProgressChart } from "@/components/insight/progress-chart";
+import { ReportSigning } from "@/components/reports/report-signing";
 import { Caution } from "@/components/ui/caution";
 import { db } from "@/db";
 import { can } from "@/lib/auth/permissions";
 import { isAppError } from "@/lib/errors";
 import { DRIFT_RULE } from "@/lib/insights";
+import { formatDateTime } from "@/lib/format/dates";
+import { DEFAULT_POUR_STATEMENT } from "@/lib/schemas/report-signature";
 import { getPourInsight } from "@/lib/server/get-pour-insight";
+import { listReportRevisions } from "@/lib/server/list-report-revisions";
 import { readingResolution } from "@/lib/stressing/display";
 import { isUuid, pageAccess } from "../../../page-access";
 
@@ -27,6 +31,7 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
   const toUnit = (mm: number) => (us ? mm / 25.4 : mm);
   const points = insight.points.map((p, i) => ({ index: i + 1, tag: p.tag, deviationPct: p.deviationPct, verdict: p.verdict, provisional: p.provisional }));
   const api = `/api/projects/${projectId}/pours/${pourId}/report`;
+  const signatures = can(access.role, "report.download") ? await listReportRevisions(db, { projectId, pourId }) : null;
   const { progress } = insight;
 
   return (
@@ -51,6 +56,31 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
           </div>
         )}
       </header>
+
+      {signatures && (
+        <section aria-labelledby="signatures-heading" className="space-y-3">
+          <h2 id="signatures-heading" className="text-lead font-bold">
+            Signed stressing report
+          </h2>
+          <ReportSigning
+            projectId={projectId}
+            pourId={pourId}
+            pourName={insight.pour.name}
+            revisions={signatures.revisions.map((r) => ({
+              revision: r.revision,
+              signerName: r.signerName,
+              licence: r.licence,
+              signedAt: formatDateTime(r.signedAt, signatures.timeZone),
+              fileSha256: r.fileSha256,
+              changes: r.changes,
+            }))}
+            current={signatures.current}
+            canSign={can(access.role, "report.sign")}
+            signerName={access.user.name}
+            defaultStatement={DEFAULT_POUR_STATEMENT}
+          />
+        </section>
+      )}
 
       <section aria-labelledby="progress-heading" className="space-y-3">
         <h2 id="progress-heading" className="text-lead font-bold">

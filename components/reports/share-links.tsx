@@ -1,0 +1,111 @@
+"use client";
+
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { FieldError, FormMessage } from "@/components/ui/form-message";
+import { sendJson } from "@/lib/client/send-json";
+import { useApiCall } from "@/lib/client/use-api-call";
+
+export interface ShareLinkView {
+  id: string;
+  label: string;
+  createdBy: string | null;
+  expires: string;
+  state: "active" | "expired" | "revoked";
+}
+
+/** Makes and revokes the project's read-only links; a new link's address is shown once. */
+export function ShareLinks({ projectId, links }: { projectId: string; links: ShareLinkView[] }) {
+  const router = useRouter();
+  const { message, fields, busy, call } = useApiCall();
+  const [made, setMade] = useState<string>();
+  const api = `/api/projects/${projectId}/share-links`;
+  return (
+    <div className="space-y-6">
+      <form
+        className="card space-y-3"
+        aria-label="Make a read-only link"
+        onSubmit={async (e) => {
+          e.preventDefault();
+          const data = new FormData(e.currentTarget);
+          const result = await call(
+            sendJson<{ url: string }>("POST", api, {
+              label: String(data.get("label") ?? ""),
+              days: Number(data.get("days")),
+            }),
+          );
+          if (result.ok) {
+            setMade(result.data.url);
+            router.refresh();
+          }
+        }}
+      >
+        <FormMessage tone="error">{message?.text}</FormMessage>
+        <div className="grid gap-3 md:grid-cols-2">
+          <div>
+            <label htmlFor="share-label" className="field-label">
+              Who it is for
+            </label>
+            <input
+              id="share-label"
+              name="label"
+              className="field-input mt-1"
+              placeholder="General contractor"
+              aria-describedby="share-label-error"
+            />
+            <FieldError id="share-label-error" messages={fields.label} />
+          </div>
+          <div>
+            <label htmlFor="share-days" className="field-label">
+              Works for (days)
+            </label>
+            <input
+              id="share-days"
+              name="days"
+              type="number"
+              inputMode="numeric"
+              defaultValue={30}
+              className="field-input mt-1"
+              aria-describedby="share-days-error"
+            />
+            <FieldError id="share-days-error" messages={fields.days} />
+          </div>
+        </div>
+        <button type="submit" className="btn-primary" disabled={busy}>
+          Make link
+        </button>
+        {made && (
+          <p role="status" className="break-all rounded-md border-2 border-ink bg-concrete-100 p-3">
+            Copy this address now; it is not shown again: <span data-testid="share-url">{made}</span>
+          </p>
+        )}
+      </form>
+      <ul className="space-y-2" aria-label="Read-only links">
+        {links.map((l) => (
+          <li
+            key={l.id}
+            className="flex flex-wrap items-center justify-between gap-3 rounded-md border border-concrete-300 p-3"
+          >
+            <span>
+              <span className="font-semibold">{l.label}</span>:{" "}
+              {l.state === "active" ? `works until ${l.expires}` : l.state}
+              {l.createdBy ? `, made by ${l.createdBy}` : ""}
+            </span>
+            {l.state === "active" && (
+              <button
+                type="button"
+                className="btn-quiet"
+                onClick={async () => {
+                  const result = await call(sendJson("DELETE", `${api}/${l.id}`));
+                  if (result.ok) router.refresh();
+                }}
+              >
+                Revoke {l.label}
+              </button>
+            )}
+          </li>
+        ))}
+      </ul>
+    </div>
+  );
+}

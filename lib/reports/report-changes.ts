@@ -1,0 +1,47 @@
+import { showLength, showPressure } from "@/lib/format/quantities";
+import type { PourReport } from "@/lib/server/get-pour-report";
+import { concreteLine } from "./pour-rows";
+
+/**
+ * What a signed revision says changed since the previous one. A snapshot names each thing a reader
+ * signs for (each stressing of each end, each flag, each disposition, the release, the concrete, the
+ * pour's status) with a short text of its state; two snapshots compare key by key. Pure.
+ */
+
+export type ReportSnapshot = Record<string, string>;
+
+export function pourSnapshot(report: PourReport): ReportSnapshot {
+  const p = report.project;
+  const snapshot: ReportSnapshot = {
+    "pour status": report.pour.status,
+    concrete: concreteLine(report),
+    release: report.release ? `released by ${report.release.byName}` : "not released",
+  };
+  for (const r of report.records) {
+    snapshot[`record ${r.tag} end ${r.end} stressing ${r.stressing}`] =
+      `revision ${r.revision}, ${showLength(p, r.measuredMm)} at ${showPressure(p, r.finalPressureMPa)}` +
+      (r.evaluation ? `, ${r.evaluation.verdict}` : "");
+  }
+  for (const f of report.flags) {
+    snapshot[`flag ${f.reference} (${f.tendonTag})`] = f.status === "with_engineer" ? "with the engineer" : f.status;
+    for (const d of f.dispositions)
+      snapshot[`disposition ${d.reference} (${f.tendonTag})`] = d.decision.replace(/_/g, " ");
+  }
+  return snapshot;
+}
+
+/** Lines such as "record S-01 end A stressing 2: added (revision 1, …)" or "flag F-0003 (S-01): open → closed". */
+export function describeChanges(before: ReportSnapshot | null, after: ReportSnapshot): string[] {
+  if (!before) return [];
+  const keys = [...new Set([...Object.keys(before), ...Object.keys(after)])].sort();
+  const lines: string[] = [];
+  for (const key of keys) {
+    const was = before[key];
+    const now = after[key];
+    if (was === now) continue;
+    if (was === undefined) lines.push(`${key}: added (${now})`);
+    else if (now === undefined) lines.push(`${key}: no longer in the report (was ${was})`);
+    else lines.push(`${key}: ${was} → ${now}`);
+  }
+  return lines;
+}

@@ -1,0 +1,297 @@
+import "server-only";
+import type { Kysely } from "kysely";
+import { z } from "zod";
+import type { Database, ReadingMethod, TendonEnd, Verdict } from "@/db/types";
+import { forceFromPressure, pressureForForce } from "@/lib/elongation";
+import { dayInZone } from "@/lib/format/dates";
+import { pickCalibration } from "@/lib/schemas/calibration";
+
+/**
+ * Every stressing of every tendon end of a pour, in the order it happened: the original and each
+ * restress or lift-off, never only the latest. A stressing (a chain) shows its current revision with
+ * the corrections that led to it. Each carries who stressed it, the equipment set with the
+ * calibration in force that day and its certificate, the pressures, the readings exactly as typed,
+ * the target pressure and the force on that calibration, both predictions, and the verdict of the
+ * latest evaluation that used it. All in SI as stored; `lib/reports/record-rows.ts` formats it.
+ */
+
+export interface PourRecord {
+  recordId: string;
+  tendonId: string;
+  tag: string;
+  end: TendonEnd;
+  /** 1 for the first stressing of the end, 2 for the next (a restress or a lift-off), … */
+  stressing: number;
+  restressOrdered: boolean;
+  revision: number;
+  corrections: { revision: number; reason: string }[];
+  deviceTime: Date;
+  deviceTimeZone: string;
+  operator: string;
+  equipment: { name: string; jackSerial: string; gaugeSerial: string; pumpSerial: string | null };
+  calibration: {
+    calibratedOn: string;
+    validUntil: string;
+    laboratory: string | null;
+    certificate: string | null;
+    inForce: boolean;
+  } | null;
+  expiredCalibrationReason: string | null;
+  initialPressureMPa: number | null;
+  finalPressureMPa: number;
+  targetPressureMPa: number | null;
+  forceN: number | null;
+  method: ReadingMethod;
+  entered: {
+    marks: { before: string; after: string } | null;
+    strokes: string[] | null;
+    seating: string | null;
+    initialPressure: string | null;
+    finalPressure: string | null;
+  };
+  measuredMm: number;
+  seatingMm: number | null;
+  wireBreaks: number;
+  remarks: string | null;
+  photos: number[];
+  shopElongationMm: number | null;
+  evaluation: {
+    verdict: Verdict;
+    provisional: boolean;
+    deviationPct: number | null;
+    predictedMm: number | null;
+    measuredMm: number | null;
+    basis: "gross" | "net";
+    /** Whose predicted elongation the verdict was judged against. */
+    governs: "tautline" | "shop drawing";
+    at: Date;
+    current: boolean;
+  } | null;
+}
+
+const enteredSchema = z.object({
+  marks: z.object({ before: z.string(), after: z.string() }).nullable().catch(null),
+  strokes: z.array(z.string()).nullable().catch(null),
+  seating: z.string().nullable().catch(null),
+  initialPressure: z.string().nullable().catch(null),
+  finalPressure: z.string().nullable().catch(null),
+});
+const noEntered = { marks: null, strokes: null, seating: null, initialPressure: null, finalPressure: null };
+
+// Read defensively: evaluations written before a per-record basis or both predictions were stored
+// fall back to the project's basis and to Tautline's prediction governing.
+const inputsSchema = z.object({
+  project: z
+    .object({ comparisonBasis: z.enum(["gross", "net"]) })
+    .partial()
+    .catch({}),
+  jackingForceN: z.number().nullable().catch(null),
+  basis: z.enum(["gross", "net"]).optional().catch(undefined),
+  governs: z.enum(["tautline", "shop drawing", "shop"]).optional().catch(undefined),
+  calibrations: z
+    .array(z.object({ recordId: z.string(), slope_n_per_mpa: z.number(), intercept_n: z.number() }).passthrough())
+    .catch([]),
+});
+
+const day = (d: Date | string) => (typeof d === "string" ? d.slice(0, 10) : d.toISOString().slice(0, 10));
+
+export async function listPourRecords(
+  db: Kysely<Database>,
+  input: { projectId: string; pourId: string; projectBasis: "gross" | "net" },
+): Promise<PourRecord[]> {
+  const rows = await db
+    .selectFrom("records")
+    .innerJoin("tendons", "tendons.id", "records.tendon_id")
+    .innerJoin("equipment_sets", "equipment_sets.id", "records.equipment_set_id")
+    .innerJoin("users", "users.id", "records.author_user_id")
+    .select([
+      "records.id",
+      "records.tendon_id",
+      "tendons.tag",
+      "tendons.shop_elongation_mm",
+      "records.tendon_end",
+      "records.chain_id",
+      "records.revision",
+      "records.revision_reason",
+      "records.equipment_set_id",
+      "records.calibration_id",
+      "records.expired_calibration_reason",
+      "records.initial_pressure_mpa",
+      "records.final_pressure_mpa",
+      "records.reading_method",
+      "records.entered",
+      "records.measured_mm",
+      "records.seating_mm",
+      "records.wire_breaks",
+      "records.remarks",
+      "records.device_time",
+      "records.device_time_zone",
+      "records.restress_of_disposition_id",
+      "users.name as operator",
+      "equipment_sets.name as setName",
+      "equipment_sets.jack_serial",
+      "equipment_sets.gauge_serial",
+      "equipment_sets.pump_serial",
+    ])
+    .where("records.project_id", "=", input.projectId)
+    .where("tendons.project_id", "=", input.projectId)
+    .where("equipment_sets.project_id", "=", input.projectId)
+    .where("records.pour_id", "=", input.pourId)
+    .orderBy("tendons.tag")
+    .orderBy("records.tendon_end")
+    .orderBy("records.device_time")
+    .orderBy("records.revision")
+    .execute();
+  if (!rows.length) return [];
+
+  const recordIds = rows.map((r) => r.id);
+  const setIds = [...new Set(rows.map((r) => r.equipment_set_id))];
+  const tendonIds = [...new Set(rows.map((r) => r.tendon_id))];
+  const [calibrations, photos, evaluations] = await Promise.all([
+    db
+      .selectFrom("calibrations")
+      .leftJoin("attachments", (j) =>
+        j
+          .onRef("attachments.id", "=", "calibrations.certificate_attachment_id")
+          .on("attachments.project_id", "=", input.projectId),
+      )
+      .select([
+        "calibrations.id",
+        "calibrations.equipment_set_id",
+        "calibrations.calibrated_on",
+        "calibrations.valid_until",
+        "calibrations.laboratory",
+        "attachments.original_name",
+        "attachments.status as certificateStatus",
+      ])
+      .where("calibrations.project_id", "=", input.projectId)
+      .where("calibrations.equipment_set_id", "in", setIds)
+      .execute(),
+    db
+      .selectFrom("attachments")
+      .select(["id", "record_id"])
+      .where("project_id", "=", input.projectId)
+      .where("purpose", "=", "record_photo")
+      .where("status", "=", "stored")
+      .where("record_id", "in", recordIds)
+      .orderBy("created_at")
+      .orderBy("id")
+      .execute(),
+    db
+      .selectFrom("evaluations")
+      .select([
+        "id",
+        "tendon_id",
+        "record_ids",
+        "verdict",
+        "provisional",
+        "deviation_pct",
+        "predicted_mm",
+        "measured_mm",
+        "inputs",
+        "created_at",
+      ])
+      .where("project_id", "=", input.projectId)
+      .where("tendon_id", "in", tendonIds)
+      .orderBy("created_at")
+      .orderBy("id")
+      .execute(),
+  ]);
+
+  // Photos are numbered through the pour in the order they were stored, as the report lists them.
+  const photoNumbers = new Map<string, number[]>();
+  photos.forEach((p, i) => {
+    if (!p.record_id) return;
+    photoNumbers.set(p.record_id, [...(photoNumbers.get(p.record_id) ?? []), i + 1]);
+  });
+  const latestEvaluationOf = new Map<string, (typeof evaluations)[number]>();
+  const latestOfTendon = new Map<string, string>();
+  for (const e of evaluations) {
+    latestOfTendon.set(e.tendon_id, e.id);
+    for (const id of e.record_ids) latestEvaluationOf.set(id, e);
+  }
+
+  // The current revision of each chain, with the corrections before it.
+  const chains = new Map<string, typeof rows>();
+  for (const r of rows) chains.set(r.chain_id, [...(chains.get(r.chain_id) ?? []), r]);
+  const current = [...chains.values()].map((revisions) => {
+    const sorted = [...revisions].sort((a, b) => a.revision - b.revision);
+    return { row: sorted.at(-1)!, first: sorted[0]!, corrections: sorted.slice(1) };
+  });
+  current.sort(
+    (a, b) =>
+      a.row.tag.localeCompare(b.row.tag) ||
+      a.row.tendon_end.localeCompare(b.row.tendon_end) ||
+      new Date(a.first.device_time).getTime() - new Date(b.first.device_time).getTime(),
+  );
+
+  const stressingCount = new Map<string, number>();
+  return current.map(({ row: r, corrections }) => {
+    const endKey = `${r.tendon_id}/${r.tendon_end}`;
+    const stressing = (stressingCount.get(endKey) ?? 0) + 1;
+    stressingCount.set(endKey, stressing);
+    const stressedOn = dayInZone(r.device_time, r.device_time_zone);
+    const ofSet = calibrations
+      .filter((c) => c.equipment_set_id === r.equipment_set_id)
+      .map((c) => ({ ...c, calibratedOn: day(c.calibrated_on) }));
+    const cal = r.calibration_id
+      ? (ofSet.find((c) => c.id === r.calibration_id) ?? null)
+      : pickCalibration(ofSet, stressedOn);
+    const e = latestEvaluationOf.get(r.id);
+    const inputs = e ? inputsSchema.safeParse(e.inputs) : null;
+    const used = inputs?.success ? inputs.data : null;
+    const line = used?.calibrations.find((c) => c.recordId === r.id);
+    const calibrationLine = line ? { slope: line.slope_n_per_mpa, intercept: line.intercept_n } : null;
+    const entered = enteredSchema.safeParse(r.entered);
+    return {
+      recordId: r.id,
+      tendonId: r.tendon_id,
+      tag: r.tag,
+      end: r.tendon_end,
+      stressing,
+      restressOrdered: r.restress_of_disposition_id !== null,
+      revision: r.revision,
+      corrections: corrections.map((c) => ({ revision: c.revision, reason: c.revision_reason ?? "no reason given" })),
+      deviceTime: new Date(r.device_time),
+      deviceTimeZone: r.device_time_zone,
+      operator: r.operator,
+      equipment: { name: r.setName, jackSerial: r.jack_serial, gaugeSerial: r.gauge_serial, pumpSerial: r.pump_serial },
+      calibration: cal
+        ? {
+            calibratedOn: cal.calibratedOn,
+            validUntil: day(cal.valid_until),
+            laboratory: cal.laboratory,
+            certificate: cal.certificateStatus === "stored" ? (cal.original_name ?? "certificate on file") : null,
+            inForce: cal.calibratedOn <= stressedOn && stressedOn <= day(cal.valid_until),
+          }
+        : null,
+      expiredCalibrationReason: r.expired_calibration_reason,
+      initialPressureMPa: r.initial_pressure_mpa,
+      finalPressureMPa: r.final_pressure_mpa,
+      targetPressureMPa:
+        calibrationLine && used?.jackingForceN ? pressureForForce(calibrationLine, used.jackingForceN) : null,
+      forceN: calibrationLine ? forceFromPressure(calibrationLine, r.final_pressure_mpa) : null,
+      method: r.reading_method,
+      entered: entered.success ? entered.data : noEntered,
+      measuredMm: r.measured_mm,
+      seatingMm: r.seating_mm,
+      wireBreaks: r.wire_breaks,
+      remarks: r.remarks,
+      photos: photoNumbers.get(r.id) ?? [],
+      shopElongationMm: r.shop_elongation_mm,
+      evaluation: e
+        ? {
+            verdict: e.verdict,
+            provisional: e.provisional,
+            deviationPct: e.deviation_pct,
+            predictedMm: e.predicted_mm,
+            measuredMm: e.measured_mm,
+            basis: used?.basis ?? used?.project.comparisonBasis ?? input.projectBasis,
+            governs: used?.governs === "shop drawing" || used?.governs === "shop" ? "shop drawing" : "tautline",
+            at: new Date(e.created_at),
+            current: latestOfTendon.get(r.tendon_id) === e.id,
+          }
+        : null,
+    };
+  });
+}

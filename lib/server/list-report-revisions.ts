@@ -1,0 +1,79 @@
+import "server-only";
+import { createHash } from "node:crypto";
+import type { Kysely } from "kysely";
+import type { Database } from "@/db/types";
+import { renderPourPdf } from "@/lib/reports/pour-pdf";
+import { describeChanges, pourSnapshot, type ReportSnapshot } from "@/lib/reports/report-changes";
+import { getPourReport } from "./get-pour-report";
+
+export interface ReportRevision {
+  revision: number;
+  signerName: string;
+  licence: string;
+  statement: string;
+  signedAt: Date;
+  contentSha256: string;
+  fileSha256: string;
+  changes: string[];
+}
+
+/**
+ * The signed revisions of a pour's stressing report, newest first, and whether the report as it
+ * stands now is the last one signed or has changed since (and what changed), so a new signature
+ * is asked for.
+ */
+export async function listReportRevisions(
+  db: Kysely<Database>,
+  input: { projectId: string; pourId: string },
+): Promise<{
+  timeZone: string;
+  revisions: ReportRevision[];
+  current: { contentSha256: string; signed: boolean; changesSinceSigned: string[] };
+}> {
+  const [report, rows] = await Promise.all([
+    getPourReport(db, input),
+    db
+      .selectFrom("report_revisions")
+      .select([
+        "revision",
+        "signer_name",
+        "licence",
+        "statement",
+        "signed_at",
+        "content_sha256",
+        "file_sha256",
+        "changes",
+        "snapshot",
+      ])
+      .where("project_id", "=", input.projectId)
+      .where("pour_id", "=", input.pourId)
+      .where("kind", "=", "pour_stressing")
+      .orderBy("revision", "desc")
+      .execute(),
+  ]);
+  const contentSha256 = createHash("sha256")
+    .update(await renderPourPdf(report))
+    .digest("hex");
+  const last = rows[0];
+  return {
+    timeZone: report.timeZone,
+    revisions: rows.map((r) => ({
+      revision: r.revision,
+      signerName: r.signer_name,
+      licence: r.licence,
+      statement: r.statement,
+      signedAt: new Date(r.signed_at),
+      contentSha256: r.content_sha256,
+      fileSha256: r.file_sha256,
+      changes: r.changes,
+    })),
+    current: {
+      contentSha256,
+      signed: last?.content_sha256 === contentSha256,
+      changesSinceSigned:
+        last && last.content_sha256 !== contentSha256
+          ? describeChanges(last.snapshot as ReportSnapshot, pourSnapshot(report))
+          : [],
+    },
+  };
+}

@@ -1,0 +1,61 @@
+import { expect, test } from "@playwright/test";
+import { PEOPLE, pourIdByName, queryDemo, signInWithPassword } from "./people";
+import { screenshot } from "./support";
+
+// The inspector signs the stressing report of "L2 Pour 1" from its page, downloads the signed PDF,
+// and a building official with no account checks the file on /verify: the signed file matches,
+// an altered copy does not. Writes one signed revision on the demo pour.
+
+test("the inspector signs a pour's stressing report and anyone can check the signed file", async ({
+  page,
+  browser,
+}) => {
+  const pourId = await pourIdByName("L2 Pour 1");
+  const [project] = await queryDemo<{ id: string }>("select project_id as id from pours where id = $1", [pourId]);
+  await signInWithPassword(page, PEOPLE.inspector);
+  await page.waitForURL(/\/home/);
+  await page.goto(`/projects/${project!.id}/pours/${pourId}/insight`);
+  await expect(page.getByTestId("signature-state")).toHaveText("Not signed yet.");
+
+  const form = page.getByRole("form", { name: /Sign the stressing report of L2 Pour 1/ });
+  // Without a licence number the server names the field and signs nothing.
+  await form.getByLabel("Licence or certification number").fill("");
+  await form.getByRole("button", { name: "Sign revision 1" }).click();
+  await expect(form.locator("#sign-licence-error")).toContainText("licence or certification number");
+  await form.getByLabel("Licence or certification number").fill("ICC special inspector 5551234 (demo)");
+  await screenshot(page, "report-sign-form");
+  await form.getByRole("button", { name: "Sign revision 1" }).click();
+  await expect(page.getByTestId("signature-state")).toHaveText("The report as it stands is signed: revision 1.", {
+    // Signing draws the report twice and stores it; on a busy CI machine that takes a while.
+    timeout: 30_000,
+  });
+  await expect(page.getByRole("list", { name: "Signed revisions" })).toContainText(
+    "ICC special inspector 5551234 (demo)",
+  );
+  await screenshot(page, "report-signed");
+
+  const href = await page.getByRole("link", { name: "Signed PDF, revision 1" }).getAttribute("href");
+  const signed = await page.request.get(href!);
+  expect(signed.status()).toBe(200);
+  const bytes = await signed.body();
+  expect(bytes.subarray(0, 5).toString()).toBe("%PDF-");
+
+  // A reader with no account checks the file.
+  const visitor = await browser.newContext();
+  const check = await visitor.newPage();
+  await check.goto("/verify");
+  await check
+    .getByLabel("Report file (PDF)")
+    .setInputFiles({ name: "report.pdf", mimeType: "application/pdf", buffer: bytes });
+  await expect(check.getByRole("status")).toContainText("Matches revision 1 of the stressing report of L2 Pour 1");
+  await expect(check.getByRole("status")).toContainText("It is the latest signed revision.");
+  await screenshot(check, "report-verify-match");
+  const altered = Buffer.from(bytes);
+  altered[altered.length - 20] = altered[altered.length - 20]! ^ 1;
+  await check
+    .getByLabel("Report file (PDF)")
+    .setInputFiles({ name: "altered.pdf", mimeType: "application/pdf", buffer: altered });
+  await expect(check.getByRole("alert").filter({ hasText: "Not a signed revision." })).toBeVisible();
+  await screenshot(check, "report-verify-no-match");
+  await visitor.close();
+});

@@ -1,0 +1,396 @@
+import { mkdirSync, writeFileSync } from "node:fs";
+import Papa from "papaparse";
+import { PDFParse } from "pdf-parse";
+import { uuidv7 } from "uuidv7";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { seedDemo } from "@/db/seed/demo";
+import { pourCsvTable, renderPourCsv } from "@/lib/reports/pour-csv";
+import { renderPourPdf } from "@/lib/reports/pour-pdf";
+import { evaluateTendon } from "@/lib/server/evaluate-tendon";
+import { getPourReport } from "@/lib/server/get-pour-report";
+import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
+import { recordDisposition } from "@/lib/server/record-disposition";
+import { createHash } from "node:crypto";
+import { listReportRevisions } from "@/lib/server/list-report-revisions";
+import { readSignedReport } from "@/lib/server/read-signed-report";
+import { signPourReport } from "@/lib/server/sign-pour-report";
+import { verifyReportFile } from "@/lib/server/verify-report-file";
+import { predictTendon } from "@/lib/stressing/basis";
+import { demoFixture } from "../support/records";
+import { createTestDatabase, type TestDatabase } from "../support/database";
+
+// A pour of our own with two tendons copied from the demo schedule. Tendon S-01 is stressed short
+// (invented: 85 % of the prediction), flagged, ordered restressed by the engineer and restressed in
+// band; S-02 is not stressed. The report must show both stressings of S-01 with everything typed.
+
+let t: TestDatabase;
+let fx: Awaited<ReturnType<typeof demoFixture>>;
+let pourId: string;
+let crewName: string;
+let predicted: { predictedMm: number; jackingForceN: number };
+const SHOP_MM = 5.5 * 25.4; // the shop drawing's elongation for S-01 (invented, 5 1/2 in)
+
+async function insertTyped(values: {
+  tendon: { id: string };
+  measuredMm: number;
+  typed: { before: string; after: string; seating: string; final: string; initial: string | null };
+  finalPressureMPa: number;
+  initialPressureMPa: number | null;
+  deviceTime: string;
+  remarks?: string;
+  restressOf?: string;
+}) {
+  const id = uuidv7();
+  await t.db
+    .insertInto("records")
+    .values({
+      id,
+      project_id: fx.projectId,
+      pour_id: pourId,
+      tendon_id: values.tendon.id,
+      tendon_end: "A",
+      chain_id: id,
+      revision: 1,
+      equipment_set_id: fx.setA,
+      initial_pressure_mpa: values.initialPressureMPa,
+      final_pressure_mpa: values.finalPressureMPa,
+      reading_method: "marks",
+      entered: JSON.stringify({
+        units: { length: "in", pressure: "psi" },
+        initialPressure: values.typed.initial,
+        finalPressure: values.typed.final,
+        marks: { before: values.typed.before, after: values.typed.after },
+        strokes: null,
+        seating: values.typed.seating,
+      }),
+      measured_mm: values.measuredMm,
+      seating_mm: 0.25 * 25.4,
+      remarks: values.remarks ?? null,
+      device_time: values.deviceTime,
+      device_time_zone: "America/Chicago",
+      device_id: "test-device",
+      author_user_id: fx.crewId,
+      restress_of_disposition_id: values.restressOf ?? null,
+    })
+    .execute();
+  return id;
+}
+
+export async function pdfTextOf(buffer: Buffer) {
+  const parser = new PDFParse({ data: new Uint8Array(buffer) });
+  try {
+    return await parser.getText();
+  } finally {
+    await parser.destroy();
+  }
+}
+
+beforeAll(async () => {
+  mkdirSync("test-results/reports", { recursive: true });
+  t = await createTestDatabase({ migrate: true });
+  await seedDemo(t.db);
+  fx = await demoFixture(t.db);
+  crewName = (await t.db.selectFrom("users").select("name").where("id", "=", fx.crewId).executeTakeFirstOrThrow()).name;
+  const template = await t.db
+    .selectFrom("tendons")
+    .selectAll()
+    .where("project_id", "=", fx.projectId)
+    .where("ends", "=", "A")
+    .orderBy("tag")
+    .limit(1)
+    .executeTakeFirstOrThrow();
+  const pour = await t.db
+    .insertInto("pours")
+    .values({ project_id: fx.projectId, name: "Signed pour", concrete_strength_mpa: 4000 * 0.006894757293168 })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  pourId = pour.id;
+  for (const tag of ["S-01", "S-02"])
+    await t.db
+      .insertInto("tendons")
+      .values({
+        project_id: fx.projectId,
+        pour_id: pourId,
+        tag,
+        kind: template.kind,
+        strand_size: template.strand_size,
+        strand_count: template.strand_count,
+        segments: JSON.stringify(template.segments),
+        ends: "A",
+        jack_grip_mm: template.jack_grip_mm,
+        strand_lot_id: template.strand_lot_id,
+        shop_elongation_mm: tag === "S-01" ? SHOP_MM : null,
+      })
+      .execute();
+  const s01 = await t.db
+    .selectFrom("tendons")
+    .select(["id"])
+    .where("pour_id", "=", pourId)
+    .where("tag", "=", "S-01")
+    .executeTakeFirstOrThrow();
+  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: s01.id });
+  predicted = predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot, equipmentGripMm: 457.2 });
+
+  // The original: 85 % of the prediction, out of band.
+  await insertTyped({
+    tendon: s01,
+    measuredMm: 0.85 * predicted.predictedMm,
+    typed: { before: "12", after: "16 1/4", seating: "1/4", final: "4150", initial: null },
+    finalPressureMPa: 4150 * 0.006894757293168,
+    initialPressureMPa: null,
+    deviceTime: "2026-11-30T15:10:00Z",
+    remarks: "Jack chattered near the end of the pull",
+  });
+  await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: s01.id, reason: "sync" });
+  const flag = await t.db
+    .selectFrom("flags")
+    .select("id")
+    .where("tendon_id", "=", s01.id)
+    .where("kind", "=", "out_of_band")
+    .executeTakeFirstOrThrow();
+  const engineer = await t.db
+    .selectFrom("users")
+    .select(["id", "name"])
+    .where("email", "=", "engineer@demo.tautline.test")
+    .executeTakeFirstOrThrow();
+  const { dispositionId } = await recordDisposition(t.db, {
+    projectId: fx.projectId,
+    flagId: flag.id,
+    engineer,
+    disposition: {
+      decision: "restress",
+      reasons: "Restress to the marked gauge pressure and read again.",
+      licenceStatement: "Licensed professional engineer (test)",
+    },
+  });
+  // The restress, in band, read from an initial pressure.
+  // Read from 800 psi, the travel is about (4230 − 800)/4230 of the full elongation.
+  await insertTyped({
+    tendon: s01,
+    measuredMm: (predicted.predictedMm * (4230 - 800)) / 4230,
+    typed: { before: "12", after: "17 3/8", seating: "5/16", final: "4230", initial: "800" },
+    finalPressureMPa: 4230 * 0.006894757293168,
+    initialPressureMPa: 800 * 0.006894757293168,
+    deviceTime: "2026-12-01T14:40:00Z",
+    restressOf: dispositionId,
+  });
+  await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: s01.id, reason: "sync" });
+}, 120_000);
+afterAll(async () => {
+  await t?.drop();
+});
+
+describe("the stressing report shows every stressing of every end", () => {
+  it("keeps the original out-of-band record and the restress, each with operator, pressures, readings and both predictions", async () => {
+    const report = await getPourReport(t.db, { projectId: fx.projectId, pourId });
+    const s01 = report.records.filter((r) => r.tag === "S-01");
+    expect(s01.map((r) => [r.stressing, r.restressOrdered])).toEqual([
+      [1, false],
+      [2, true],
+    ]);
+    expect(s01[0]!.evaluation).toMatchObject({ verdict: "short", current: false });
+    expect(s01[1]!.evaluation).toMatchObject({ verdict: "in band", current: true });
+
+    const pdf = await renderPourPdf(report);
+    writeFileSync("test-results/reports/stressing-report.pdf", pdf);
+    const parsed = await pdfTextOf(pdf);
+    const text = parsed.text.replace(/\s+/g, " ");
+    expect(text).toContain("1 original");
+    expect(text).toContain("2 restress (ordered)");
+    expect(text).toContain(crewName);
+    expect(text).toContain("marks 12 before, 16 1/4 after");
+    expect(text).toContain("marks 12 before, 17 3/8 after");
+    expect(text).toContain("final: 4150 psi");
+    expect(text).toContain("initial: 800 psi");
+    expect(text).toContain("seating: 5/16");
+    expect(text).toContain("shop: 5.50 in");
+    expect(text).toMatch(/Tautline: \d+\.\d\d in/);
+    expect(text).toContain("Short (superseded)");
+    expect(text).toContain("Jack chattered near the end of the pull");
+    expect(text).toMatch(/2026-11-30 09:10 CST/);
+    expect(text).toMatch(/flag F-\d{4}/i);
+    expect(text).toMatch(/Disposition D-\d{4}: Restress/);
+    expect(text).toContain("Concrete strength 4,000 psi confirmed");
+    expect(text).toMatch(/Restressed as ordered by disposition D-\d{4}; the new evaluation/);
+    expect(text).not.toMatch(/[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}/);
+    expect(text).not.toMatch(/MPa|mm²|\d\.\d{6,}/);
+    // The same content draws the same bytes: nothing in the file depends on when it was drawn.
+    expect((await renderPourPdf(await getPourReport(t.db, { projectId: fx.projectId, pourId }))).equals(pdf)).toBe(
+      true,
+    );
+  }, 60_000);
+
+  it("as CSV has one row per stressing, in order, with the same strings", async () => {
+    const report = await getPourReport(t.db, { projectId: fx.projectId, pourId });
+    const csv = renderPourCsv(report);
+    writeFileSync("test-results/reports/stressing-report.csv", csv);
+    const parsed = Papa.parse<Record<string, string>>(csv, { header: true, skipEmptyLines: true });
+    expect(parsed.errors).toEqual([]);
+    const rows = parsed.data.filter((r) => r.Tendon === "S-01");
+    expect(rows.map((r) => r.Stressing)).toEqual(["1 original", "2 restress (ordered)"]);
+    expect(rows[0]).toMatchObject({
+      Operator: crewName,
+      "Final pressure": "4150 psi",
+      "Initial pressure": "none (from zero)",
+      "Readings as entered": "marks 12 before, 16 1/4 after",
+      Seating: "1/4",
+      "Predicted (shop drawing)": "5.50 in",
+      Governs: "Tautline",
+      Verdict: "Short (superseded)",
+      Basis: expect.stringMatching(/net|gross/),
+    });
+    expect(rows[1]).toMatchObject({ "Initial pressure": "800 psi", "Final pressure": "4230 psi", Verdict: "In band" });
+    expect(rows[0]!["Predicted (Tautline)"]).toMatch(/^\d+\.\d\d in$/);
+    expect(rows[1]!["Target pressure"]).toMatch(/^\d+ psi$/);
+    expect(rows[1]!.Force).toMatch(/^\d+\.\d\d kip$/);
+    expect(parsed.data.find((r) => r.Tendon === "S-02")).toMatchObject({ Verdict: "Not stressed", Stressing: "" });
+    expect(pourCsvTable(report).data).toHaveLength(3);
+  }, 60_000);
+});
+
+describe("signing the stressing report", () => {
+  const sha = (b: Uint8Array) => createHash("sha256").update(b).digest("hex");
+  const values = {
+    signerName: "Dana Okafor",
+    licence: "ICC special inspector 5551234 (invented)",
+    statement:
+      "I inspected the stressing of the tendons listed; the work was in conformance except as noted in the flags.",
+  };
+
+  it("freezes a signed revision; a correction makes a new revision that says what changed; verification follows the file", async () => {
+    const inspector = await t.db
+      .selectFrom("users")
+      .select("id")
+      .where("email", "=", "inspector@demo.tautline.test")
+      .executeTakeFirstOrThrow();
+    const first = await signPourReport(t.db, { projectId: fx.projectId, pourId, signer: inspector, values });
+    expect(first).toMatchObject({ revision: 1, changes: [] });
+    // Signing the same content again is refused: nothing changed.
+    await expect(
+      signPourReport(t.db, { projectId: fx.projectId, pourId, signer: inspector, values }),
+    ).rejects.toMatchObject({ code: "CONFLICT" });
+
+    const signed1 = await readSignedReport(t.db, { projectId: fx.projectId, pourId, revision: 1 });
+    expect(sha(signed1.body)).toBe(first.fileSha256);
+    writeFileSync("test-results/reports/stressing-report-signed-rev1.pdf", signed1.body);
+    const text1 = (await pdfTextOf(Buffer.from(signed1.body))).text.replace(/\s+/g, " ");
+    expect(text1).toContain("Signed by Dana Okafor, ICC special inspector 5551234 (invented)");
+    expect(text1).toContain(`Content sha256 ${first.contentSha256}`);
+    expect(text1).toContain("(revision 1)");
+    expect(await verifyReportFile(t.db, { sha256: first.fileSha256 })).toMatchObject({
+      match: true,
+      revision: 1,
+      latest: true,
+      signerName: "Dana Okafor",
+      pour: "Signed pour",
+    });
+
+    // A paperwork correction of the restress: a new revision of that record, evaluated again.
+    const s01 = await t.db
+      .selectFrom("tendons")
+      .select(["id", "pour_id"])
+      .where("pour_id", "=", pourId)
+      .where("tag", "=", "S-01")
+      .executeTakeFirstOrThrow();
+    const restress = await t.db
+      .selectFrom("records")
+      .selectAll()
+      .where("tendon_id", "=", s01.id)
+      .where("restress_of_disposition_id", "is not", null)
+      .executeTakeFirstOrThrow();
+    const rest: Partial<typeof restress> = { ...restress };
+    delete rest.id;
+    delete rest.received_at;
+    await t.db
+      .insertInto("records")
+      .values({
+        ...(rest as Omit<typeof restress, "id" | "received_at">),
+        id: uuidv7(),
+        revision: 2,
+        base_record_id: restress.id,
+        revision_reason: "Mark after was 17 1/2, not 17 3/8 (photo checked)",
+        measured_mm: restress.measured_mm + 3.175,
+        entered: JSON.stringify(restress.entered),
+      })
+      .execute();
+    await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: s01.id, reason: "correction" });
+
+    const pending = await listReportRevisions(t.db, { projectId: fx.projectId, pourId });
+    expect(pending.current.signed).toBe(false);
+    expect(pending.current.changesSinceSigned.join("\n")).toMatch(
+      /record S-01 end A stressing 2: revision 1, .* → revision 2/,
+    );
+
+    const second = await signPourReport(t.db, { projectId: fx.projectId, pourId, signer: inspector, values });
+    expect(second.revision).toBe(2);
+    expect(second.changes.join("\n")).toMatch(/record S-01 end A stressing 2: revision 1, .* → revision 2/);
+    const signed2 = await readSignedReport(t.db, { projectId: fx.projectId, pourId, revision: 2 });
+    writeFileSync("test-results/reports/stressing-report-signed-rev2.pdf", signed2.body);
+    const text2 = (await pdfTextOf(Buffer.from(signed2.body))).text.replace(/\s+/g, " ");
+    expect(text2).toContain("corrected to revision 2: Mark after was 17 1/2, not 17 3/8 (photo checked)");
+    expect(text2).toMatch(/What changed record S-01 end A stressing 2: revision 1/);
+
+    // The old file is no longer the report: revision 1, superseded. The new one is current. An
+    // altered copy matches nothing.
+    expect(await verifyReportFile(t.db, { sha256: first.fileSha256 })).toMatchObject({
+      match: true,
+      revision: 1,
+      latest: false,
+    });
+    expect(await verifyReportFile(t.db, { sha256: sha(signed2.body) })).toMatchObject({
+      match: true,
+      revision: 2,
+      latest: true,
+    });
+    const altered = Buffer.from(signed2.body);
+    altered[altered.length - 10] = altered[altered.length - 10]! ^ 1;
+    expect(await verifyReportFile(t.db, { sha256: sha(altered) })).toEqual({ match: false });
+    const listed = await listReportRevisions(t.db, { projectId: fx.projectId, pourId });
+    expect(listed.current.signed).toBe(true);
+    expect(listed.revisions.map((r) => r.revision)).toEqual([2, 1]);
+    // Stored revisions are append-only.
+    await expect(
+      t.db
+        .updateTable("report_revisions")
+        .set({ signer_name: "Someone else" })
+        .where("project_id", "=", fx.projectId)
+        .execute(),
+    ).rejects.toThrow(/append-only/);
+  }, 120_000);
+});
+
+describe("the read-only status board", () => {
+  it("shows each pour's state and signed reports, and ends at expiry or revocation, auditing every view", async () => {
+    const { createShareLink, revokeShareLink } = await import("@/lib/server/manage-share-links");
+    const { getShareBoard, readSharedReport } = await import("@/lib/server/get-share-board");
+    const engineer = await t.db.selectFrom("users").select("id").where("email", "=", "engineer@demo.tautline.test").executeTakeFirstOrThrow();
+    const now = new Date("2026-12-02T12:00:00Z");
+    const link = await createShareLink(t.db, { projectId: fx.projectId, by: engineer, values: { label: "Building official (test)", days: 7 }, now });
+    const board = await getShareBoard(t.db, { token: link.token, now });
+    const signedPour = board.pours.find((p) => p.name === "Signed pour")!;
+    // S-01 still has an open jacking-force flag; S-02 is not stressed.
+    expect(signedPour).toMatchObject({ status: "held", held: 1, tendons: 2, complete: 1 });
+    expect(signedPour.signed.map((s) => s.revision)).toEqual([2, 1]);
+    expect(JSON.stringify(board)).not.toContain(crewName);
+    const file = await readSharedReport(t.db, { token: link.token, pourId, revision: 2, now });
+    expect(Buffer.from(file.body.subarray(0, 5)).toString()).toBe("%PDF-");
+
+    // Expired a moment after its last day.
+    await expect(getShareBoard(t.db, { token: link.token, now: new Date(link.expiresAt.getTime() + 1000) })).rejects.toMatchObject({ code: "GONE" });
+    // Revoked: gone at once.
+    await revokeShareLink(t.db, { projectId: fx.projectId, linkId: link.linkId, by: engineer });
+    await expect(getShareBoard(t.db, { token: link.token, now })).rejects.toMatchObject({ code: "GONE" });
+    await expect(readSharedReport(t.db, { token: link.token, pourId, revision: 2, now })).rejects.toMatchObject({ code: "GONE" });
+    await expect(revokeShareLink(t.db, { projectId: fx.projectId, linkId: link.linkId, by: engineer })).rejects.toMatchObject({ code: "CONFLICT" });
+    const audits = await t.db.selectFrom("audit_events").select(["action", "outcome"]).where("target", "=", `share:${link.linkId}`).orderBy("at").execute();
+    expect(audits.map((a) => `${a.action}/${a.outcome}`)).toEqual([
+      "share.create/success",
+      "share.view/success",
+      "share.download/success",
+      "share.view/denied",
+      "share.revoke/success",
+      "share.view/denied",
+      "share.download/denied",
+    ]);
+  }, 60_000);
+});
