@@ -31,6 +31,7 @@ export interface UsersTable {
   email_verified: Date | null;
   is_operator: Generated<boolean>;
   is_active: Generated<boolean>;
+  session_version: Generated<number>;
   created_at: Timestamp;
   updated_at: Timestamp;
 }
@@ -371,6 +372,13 @@ export interface SyncTombstonesTable {
   deleted_at: Timestamp;
 }
 
+export interface WorkerHeartbeatsTable {
+  worker: string;
+  beat_at: Timestamp;
+  last_error: string | null;
+  last_error_at: Date | null;
+}
+
 export interface Database {
   users: UsersTable;
   projects: ProjectsTable;
@@ -395,6 +403,7 @@ export interface Database {
   applied_ops: AppliedOpsTable;
   sync_tombstones: SyncTombstonesTable;
   tendon_versions: TendonVersionsTable;
+  worker_heartbeats: WorkerHeartbeatsTable;
 }
 
 export type User = Selectable<UsersTable>;
