@@ -3,14 +3,19 @@
 // if it ever dies) and `npm test`. A lost database connection or a PostgreSQL restart never ends
 // it: the pool has an error listener (db/connect.ts), a failed pass is logged and retried with
 // exponential backoff (1 s doubling to 30 s), and every good pass stamps a heartbeat that
-// /api/health and the engineer's and admin's screens read.
+// /api/health and the engineer's and admin's screens read. Once an hour it also deletes uploads
+// that were never confirmed within a day.
 import { createDb } from "@/db/connect";
 import { env } from "@/lib/env";
 import { drainNotifications } from "@/lib/server/dispatch-notifications";
 import { recordHeartbeat, recordWorkerError } from "@/lib/server/record-heartbeat";
+import { cleanPendingUploads } from "@/lib/storage";
 
 const INTERVAL_MS = Number(process.env.DISPATCH_INTERVAL_MS ?? 3000);
 const MAX_BACKOFF_MS = 30_000;
+/** Unconfirmed uploads older than a day are cleaned this often. */
+const CLEAN_EVERY_MS = 60 * 60_000;
+let lastCleanAt = 0;
 const db = createDb(env.DATABASE_URL, 2);
 let stopping = false;
 let failures = 0;
@@ -24,6 +29,14 @@ async function tick(): Promise<number> {
     const sent = await drainNotifications(db);
     await recordHeartbeat(db, "dispatcher");
     if (sent) log(`sent ${sent} e-mail${sent > 1 ? "s" : ""}`);
+    if (Date.now() - lastCleanAt >= CLEAN_EVERY_MS) {
+      lastCleanAt = Date.now();
+      const cleaned = await cleanPendingUploads(db).catch((e: unknown) => {
+        log(`cleaning unconfirmed uploads failed: ${e instanceof Error ? e.message : String(e)}`);
+        return 0;
+      });
+      if (cleaned) log(`deleted ${cleaned} upload${cleaned > 1 ? "s" : ""} never confirmed within a day`);
+    }
     if (failures) log(`database reachable again after ${failures} failed pass${failures > 1 ? "es" : ""}`);
     failures = 0;
     return INTERVAL_MS;

@@ -49,7 +49,8 @@ beforeAll(async () => {
   await seedDemo(t.db, { records: true });
   projectId = (await t.db.selectFrom("projects").select("id").where("code", "=", "AYP").executeTakeFirstOrThrow()).id;
   relay = await startTcpCut(Number(new URL(t.url).port));
-  const through = new URL(t.url);
+  // As the app's own role, as `npm start` runs it.
+  const through = new URL(t.appUrl);
   through.port = String(relay.port);
   child = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", "scripts/dispatcher.ts"], {
     env: { ...process.env, DATABASE_URL: through.toString(), DISPATCH_INTERVAL_MS: "200" },
