@@ -1,5 +1,5 @@
 import { execFile } from "node:child_process";
-import { mkdtempSync } from "node:fs";
+import { mkdirSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { promisify } from "node:util";
@@ -55,10 +55,19 @@ async function fingerprint(db: Db) {
 describe("backup and restore", () => {
   it("a restored backup holds the same rows, checksum for checksum, and the app role's grants", async () => {
     const dir = join(mkdtempSync(join(tmpdir(), "backup-")), "b");
-    const s3 = mkdtempSync(join(tmpdir(), "s3-"));
-    const env = { ...process.env, TAUTLINE_S3_DIR: s3 };
-    await run("bash", ["scripts/db-backup.sh", dir], { env: { ...env, MIGRATION_DATABASE_URL: source.url } });
-    await run("bash", ["scripts/db-restore.sh", dir], { env: { ...env, MIGRATION_DATABASE_URL: target.url } });
+    // The upload store's files travel with the database: one file in, the same bytes out elsewhere.
+    const [s3From, s3To] = [mkdtempSync(join(tmpdir(), "s3-")), mkdtempSync(join(tmpdir(), "s3-"))];
+    mkdirSync(join(s3From, "tautline-uploads", "projects"), { recursive: true });
+    writeFileSync(join(s3From, "tautline-uploads", "projects", "certificate.pdf"), "%PDF-1.4 evidence");
+    await run("bash", ["scripts/db-backup.sh", dir], {
+      env: { ...process.env, TAUTLINE_S3_DIR: s3From, MIGRATION_DATABASE_URL: source.url },
+    });
+    await run("bash", ["scripts/db-restore.sh", dir], {
+      env: { ...process.env, TAUTLINE_S3_DIR: s3To, MIGRATION_DATABASE_URL: target.url },
+    });
+    expect(readFileSync(join(s3To, "tautline-uploads", "projects", "certificate.pdf"), "utf8")).toBe(
+      "%PDF-1.4 evidence",
+    );
 
     const [before, after] = [await fingerprint(source.db), await fingerprint(target.db)];
     expect(before.records!.rows).toBeGreaterThan(0);
