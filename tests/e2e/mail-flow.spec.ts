@@ -34,7 +34,7 @@ test("a flag e-mail given up after every retry is shown to the engineer with its
     const crewPage = await crew.newPage();
     await signInWithPassword(crewPage, PEOPLE.crew);
     await crewPage.waitForURL(/\/home/);
-    await expect(crewPage.getByRole("heading", { name: "Today" })).toBeVisible();
+    await expect(crewPage.getByRole("heading", { name: "Today", exact: true })).toBeVisible();
     await expect(crewPage.getByRole("alert", { name: "E-mail is not going out" })).toHaveCount(0);
     await crew.close();
   } finally {
