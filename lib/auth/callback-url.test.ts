@@ -1,8 +1,11 @@
 import { describe, expect, it } from "vitest";
+import { env } from "@/lib/env";
 import { isSafeCallbackUrl, refuseBadCallbackUrl } from "./callback-url";
 
+const ORIGIN = new URL(env.APP_URL).origin;
+
 describe("callbackUrl", () => {
-  it.each(["/home", "/projects/abc/members?x=1", "http://localhost:3000/review"])("accepts %j", (url) => {
+  it.each(["/home", "/projects/abc/members?x=1", `${ORIGIN}/review`])("accepts %j", (url) => {
     expect(isSafeCallbackUrl(url)).toBe(true);
   });
 
@@ -34,7 +37,7 @@ describe("callbackUrl", () => {
       expect(await answer!.json()).toMatchObject({ error: { fields: { callbackUrl: [expect.any(String)] } } });
     }
     const good = new Request("http://localhost:3000/api/auth/signin?callbackUrl=%2Fhome", {
-      headers: { cookie: "next-auth.callback-url=http%3A%2F%2Flocalhost%3A3000%2Fhome" },
+      headers: { cookie: `next-auth.callback-url=${encodeURIComponent(`${ORIGIN}/home`)}` },
     });
     expect(await refuseBadCallbackUrl(good)).toBeNull();
   });
