@@ -56,16 +56,19 @@ export class PreparingClient extends pg.Client {
  * prepared before a schema change can no longer run after it.
  */
 export function createDb(connectionString: string, max = 10, options: { prepare?: boolean } = {}): Kysely<Database> {
-  return new Kysely<Database>({
-    dialect: new PostgresDialect({
-      pool: new pg.Pool({
-        connectionString,
-        max,
-        idleTimeoutMillis: 30_000,
-        ...(options.prepare ? { Client: PreparingClient } : {}),
-      }),
-    }),
+  const pool = new pg.Pool({
+    connectionString,
+    max,
+    idleTimeoutMillis: 30_000,
+    ...(options.prepare ? { Client: PreparingClient } : {}),
   });
+  // An idle connection that PostgreSQL drops (a restart, a network cut, an administrator ending
+  // the session) makes the pool emit "error"; with no listener node ends the whole process. The
+  // pool has already discarded that client, and the next query opens a new connection.
+  pool.on("error", (error) => {
+    console.error(`${new Date().toISOString()} database connection lost (the pool reconnects on the next query): ${error.message}`);
+  });
+  return new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
 }
 
 export type Db = Kysely<Database>;

@@ -31,6 +31,7 @@ export interface UsersTable {
   email_verified: Date | null;
   is_operator: Generated<boolean>;
   is_active: Generated<boolean>;
+  session_version: Generated<number>;
   created_at: Timestamp;
   updated_at: Timestamp;
 }
@@ -404,6 +405,13 @@ export interface ShareLinksTable {
   revoked_by: string | null;
 }
 
+export interface WorkerHeartbeatsTable {
+  worker: string;
+  beat_at: Timestamp;
+  last_error: string | null;
+  last_error_at: Date | null;
+}
+
 export interface Database {
   users: UsersTable;
   projects: ProjectsTable;
@@ -430,6 +438,7 @@ export interface Database {
   tendon_versions: TendonVersionsTable;
   report_revisions: ReportRevisionsTable;
   share_links: ShareLinksTable;
+  worker_heartbeats: WorkerHeartbeatsTable;
 }
 
 export type User = Selectable<UsersTable>;

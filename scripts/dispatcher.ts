@@ -1,33 +1,73 @@
 // The e-mail dispatcher: drains the notifications outbox at start (what a crash left behind),
-// then every few seconds, until stopped. Started beside the app by `npm start` and `npm test`.
+// then every few seconds, until stopped. Started beside the app by `npm start` (which restarts it
+// if it ever dies) and `npm test`. A lost database connection or a PostgreSQL restart never ends
+// it: the pool has an error listener (db/connect.ts), a failed pass is logged and retried with
+// exponential backoff (1 s doubling to 30 s), and every good pass stamps a heartbeat that
+// /api/health and the engineer's and admin's screens read. Once an hour it also deletes uploads
+// that were never confirmed within a day.
 import { createDb } from "@/db/connect";
 import { env } from "@/lib/env";
 import { drainNotifications } from "@/lib/server/dispatch-notifications";
+import { recordHeartbeat, recordWorkerError } from "@/lib/server/record-heartbeat";
+import { cleanPendingUploads } from "@/lib/storage";
 
 const INTERVAL_MS = Number(process.env.DISPATCH_INTERVAL_MS ?? 3000);
+const MAX_BACKOFF_MS = 30_000;
+/** Unconfirmed uploads older than a day are cleaned this often. */
+const CLEAN_EVERY_MS = 60 * 60_000;
+let lastCleanAt = 0;
 const db = createDb(env.DATABASE_URL, 2);
 let stopping = false;
+let failures = 0;
+let wake: (() => void) | undefined;
 
-async function tick(): Promise<void> {
+const log = (message: string) => console.log(`${new Date().toISOString()} ${message}`);
+
+/** One pass; returns how long to wait before the next. */
+async function tick(): Promise<number> {
   try {
     const sent = await drainNotifications(db);
-    if (sent) console.log(`${new Date().toISOString()} sent ${sent} e-mail${sent > 1 ? "s" : ""}`);
+    await recordHeartbeat(db, "dispatcher");
+    if (sent) log(`sent ${sent} e-mail${sent > 1 ? "s" : ""}`);
+    if (Date.now() - lastCleanAt >= CLEAN_EVERY_MS) {
+      lastCleanAt = Date.now();
+      const cleaned = await cleanPendingUploads(db).catch((e: unknown) => {
+        log(`cleaning unconfirmed uploads failed: ${e instanceof Error ? e.message : String(e)}`);
+        return 0;
+      });
+      if (cleaned) log(`deleted ${cleaned} upload${cleaned > 1 ? "s" : ""} never confirmed within a day`);
+    }
+    if (failures) log(`database reachable again after ${failures} failed pass${failures > 1 ? "es" : ""}`);
+    failures = 0;
+    return INTERVAL_MS;
   } catch (error) {
-    console.error("dispatcher pass failed; will try again", error);
+    failures++;
+    const message = error instanceof Error ? error.message : String(error);
+    const wait = Math.min(1000 * 2 ** (failures - 1), MAX_BACKOFF_MS);
+    log(`dispatcher pass failed (${message}); trying again in ${wait} ms`);
+    // Best effort: the database may be the thing that is down.
+    await recordWorkerError(db, "dispatcher", message).catch(() => undefined);
+    return wait;
   }
 }
 
 async function loop(): Promise<void> {
-  console.log(`e-mail dispatcher running, every ${INTERVAL_MS} ms`);
+  log(`e-mail dispatcher running, every ${INTERVAL_MS} ms`);
   while (!stopping) {
-    await tick();
-    await new Promise((r) => setTimeout(r, INTERVAL_MS));
+    const wait = await tick();
+    if (stopping) break;
+    await new Promise<void>((resolve) => {
+      wake = resolve;
+      setTimeout(resolve, wait);
+    });
   }
   await db.destroy();
+  log("e-mail dispatcher stopped");
 }
 
 const stop = () => {
   stopping = true;
+  wake?.();
 };
 process.on("SIGINT", stop);
 process.on("SIGTERM", stop);

@@ -86,6 +86,16 @@ pg_up() {
   PGPASSWORD=tautline "$(pg_bin psql)" -h 127.0.0.1 -p "$port" -U tautline -d postgres -tAc \
     "select 1 from pg_database where datname = 'tautline'" | grep -q 1 \
     || PGPASSWORD=tautline "$(pg_bin createdb)" -h 127.0.0.1 -p "$port" -U tautline tautline
+  # The app's own login (least privilege): owns nothing; the migration
+  # 2026-12-10T040000-app-role grants it row access only. Local clusters use password 'tautline_app'.
+  PGPASSWORD=tautline "$(pg_bin psql)" -h 127.0.0.1 -p "$port" -U tautline -d postgres -qtAc "
+    do \$\$ begin
+      if not exists (select 1 from pg_roles where rolname = 'tautline_app') then
+        create role tautline_app login password 'tautline_app' nosuperuser nocreatedb nocreaterole noinherit;
+      else
+        alter role tautline_app login password 'tautline_app';
+      end if;
+    end \$\$" >/dev/null
 }
 
 # Stops the server of a data folder when it runs. Usage: pg_down DATA_DIR

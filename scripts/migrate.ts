@@ -3,7 +3,8 @@ import { createDb } from "@/db/connect";
 import { migrateToLatest } from "@/db/migrate";
 import { env } from "@/lib/env";
 
-const db = createDb(env.DATABASE_URL, 1);
+// As the owner role: the app's own role may not change the schema.
+const db = createDb(env.MIGRATION_DATABASE_URL ?? env.DATABASE_URL, 1);
 try {
   const { results = [] } = await migrateToLatest(db);
   const applied = results.filter((r) => r.status === "Success").map((r) => r.migrationName);

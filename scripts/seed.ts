@@ -3,7 +3,8 @@ import { createDb } from "@/db/connect";
 import { seedDemo } from "@/db/seed/demo";
 import { env } from "@/lib/env";
 
-const db = createDb(env.DATABASE_URL, 1);
+// As the owner role: the app's own role may not change the schema.
+const db = createDb(env.MIGRATION_DATABASE_URL ?? env.DATABASE_URL, 1);
 try {
   const summary = await seedDemo(db, { records: true });
   console.log(

@@ -1,6 +1,7 @@
 import { redirect } from "next/navigation";
 import type { ReactNode } from "react";
 import { AppNav } from "@/components/shell/app-nav";
+import { MailFlowBanner } from "@/components/shell/mail-flow-banner";
 import { getSessionUser } from "@/lib/auth/session";
 import { navFor } from "@/lib/navigation";
 
@@ -13,6 +14,7 @@ export default async function SignedInLayout({ children }: { children: ReactNode
   return (
     <div className="min-h-screen">
       <AppNav items={navFor(roles)} userName={user.name} />
+      <MailFlowBanner user={user} />
       <div className="mx-auto max-w-6xl px-4 py-8">{children}</div>
     </div>
   );

@@ -5,9 +5,13 @@ import EmailProvider from "next-auth/providers/email";
 import { z } from "zod";
 import { db } from "@/db";
 import { env } from "@/lib/env";
+import { clientAddress } from "@/lib/http/client-address";
 import { sendMail } from "@/lib/mail/send-mail";
 import { signInLinkMail } from "@/lib/mail/templates";
+import { allowMailToAddress } from "@/lib/server/allow-mail-to-address";
+import { endSessions } from "@/lib/server/end-sessions";
 import { recordAudit } from "@/lib/server/record-audit";
+import { runInBackground } from "@/lib/server/run-in-background";
 import { tautlineAdapter } from "./adapter";
 import { verifyPassword } from "./passwords";
 import { clearFailedSignIns, countFailedSignIn, isSignInPaused } from "./rate-limit";
@@ -19,11 +23,6 @@ const credentialsSchema = z.object({
   password: z.string().min(1).max(200),
 });
 
-function requestIp(headers: Record<string, string | string[] | undefined> | undefined): string {
-  const value = headers?.["x-forwarded-for"];
-  const first = (Array.isArray(value) ? value[0] : value)?.split(",")[0]?.trim();
-  return first || "unknown";
-}
 
 /**
  * next-auth options, in one module so the route handler and getServerSession share them.
@@ -44,7 +43,7 @@ export const authOptions: NextAuthOptions = {
         const parsed = credentialsSchema.safeParse(raw);
         if (!parsed.success) return null;
         const { email, password } = parsed.data;
-        const ip = requestIp(req?.headers);
+        const ip = clientAddress(req?.headers);
 
         if (await isSignInPaused(email, ip)) {
           await recordAudit(db, {
@@ -90,21 +89,25 @@ export const authOptions: NextAuthOptions = {
       // Sent only to active accounts; the page says "check your inbox" either way, so the
       // answer never tells whether an address has an account.
       async sendVerificationRequest({ identifier, url }) {
-        const email = identifier.toLowerCase();
-        const user = await db
-          .selectFrom("users")
-          .select("id")
-          .where("email", "=", email)
-          .where("is_active", "=", true)
-          .executeTakeFirst();
-        await recordAudit(db, {
-          action: "sign-in.link-requested",
-          outcome: user ? "success" : "failure",
-          actorUserId: user?.id,
-          actorEmail: email,
+        // In the background, so the answer takes the same time whether or not the account exists.
+        runInBackground("sign-in-link", async () => {
+          const email = identifier.toLowerCase();
+          const user = await db
+            .selectFrom("users")
+            .select("id")
+            .where("email", "=", email)
+            .where("is_active", "=", true)
+            .executeTakeFirst();
+          const allowed = user ? await allowMailToAddress(db, { action: "sign-in.link-requested", email }) : false;
+          await recordAudit(db, {
+            action: "sign-in.link-requested",
+            outcome: user ? (allowed ? "success" : "denied") : "failure",
+            actorUserId: user?.id,
+            actorEmail: email,
+          });
+          if (!user || !allowed) return;
+          await sendMail(signInLinkMail({ to: email, url, minutes: LINK_MINUTES }));
         });
-        if (!user) return;
-        await sendMail(signInLinkMail({ to: email, url, minutes: LINK_MINUTES }));
       },
     }),
   ],
@@ -127,11 +130,28 @@ export const authOptions: NextAuthOptions = {
       return Boolean(found);
     },
     async jwt({ token, user }) {
-      if (user) token.sub = user.id;
+      if (user) {
+        token.sub = user.id;
+        // The session version at sign-in; a later sign-out, reset, removal or role change raises it.
+        const row = await db.selectFrom("users").select("session_version").where("id", "=", user.id).executeTakeFirst();
+        token.sv = row?.session_version ?? 0;
+      }
       return token;
     },
     async session({ session, token }) {
-      return { ...session, user: { ...session.user, id: token.sub ?? "" } };
+      return {
+        ...session,
+        user: { ...session.user, id: token.sub ?? "", sessionVersion: typeof token.sv === "number" ? token.sv : 0 },
+      };
+    },
+  },
+  events: {
+    // Signing out ends the person's sessions everywhere, so a copied cookie dies with it.
+    async signOut({ token }) {
+      const id = token?.sub;
+      if (!id) return;
+      await endSessions(db, id);
+      await recordAudit(db, { action: "sign-out", outcome: "success", actorUserId: id });
     },
   },
 };

@@ -13,7 +13,10 @@ let pool: pg.Pool | undefined;
 let limiters: { account: RateLimiterPostgres; address: RateLimiterPostgres } | undefined;
 
 function get() {
-  pool ??= new pg.Pool({ connectionString: env.RATE_LIMIT_DATABASE_URL ?? env.DATABASE_URL, max: 2 });
+  if (!pool) {
+    pool = new pg.Pool({ connectionString: env.RATE_LIMIT_DATABASE_URL ?? env.DATABASE_URL, max: 2 });
+    pool.on("error", (error) => console.error(`rate-limit pool: connection lost (${error.message})`));
+  }
   limiters ??= {
     account: new RateLimiterPostgres({
       storeClient: pool,
@@ -40,17 +43,21 @@ const remaining = async (limiter: RateLimiterPostgres, key: string) => {
   return res ? limiter.points - res.consumedPoints : limiter.points;
 };
 
-/** True when this account or address has used up its failed attempts. */
-export async function isSignInPaused(email: string, ip: string): Promise<boolean> {
+/**
+ * True when this account or address has used up its failed attempts. An unknown address (no
+ * trusted proxy, lib/http/client-address.ts) is counted per account only, never in a bucket
+ * shared by everyone whose address is unknown.
+ */
+export async function isSignInPaused(email: string, ip: string | null): Promise<boolean> {
   const { account, address } = get();
-  const [a, b] = await Promise.all([remaining(account, email), remaining(address, ip)]);
+  const [a, b] = await Promise.all([remaining(account, email), ip ? remaining(address, ip) : address.points]);
   return a <= 0 || b <= 0;
 }
 
-export async function countFailedSignIn(email: string, ip: string): Promise<void> {
+export async function countFailedSignIn(email: string, ip: string | null): Promise<void> {
   const { account, address } = get();
   await Promise.all(
-    [account.consume(email), address.consume(ip)].map((p) =>
+    [account.consume(email), ...(ip ? [address.consume(ip)] : [])].map((p) =>
       p.catch((e: unknown) => {
         if (!(e instanceof RateLimiterRes)) throw e;
       }),

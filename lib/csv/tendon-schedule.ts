@@ -1,4 +1,5 @@
 import Papa from "papaparse";
+import { safeCell, safeRows } from "./safe-cell";
 import { findStrandSize } from "@/lib/elongation";
 import { parseLength, type UnitSystem } from "@/lib/units";
 import { FORMULA_START, STRAND_SIZES, tendonSchema, type TendonInput } from "@/lib/schemas/tendon";
@@ -266,7 +267,7 @@ export function parseTendonSchedule(
 
 /** Keeps a spreadsheet from running a cell as a formula (OWASP CSV injection advice). */
 export function neutralise(value: string): string {
-  return FORMULA_START.test(value) ? `'${value}` : value;
+  return safeCell(value);
 }
 
 const round = (n: number, places: number) => String(Number(n.toFixed(places)));
@@ -318,7 +319,7 @@ export function toTendonCsv(tendons: readonly ExportTendon[], system: UnitSystem
     short(t.shopElongationMm),
     neutralise(t.strandLot ?? ""),
   ]);
-  return Papa.unparse({ fields: scheduleHeader(system), data: rows }, { newline: "\r\n" }) + "\r\n";
+  return Papa.unparse({ fields: scheduleHeader(system), data: safeRows(rows) }, { newline: "\r\n" }) + "\r\n";
 }
 
 /** A template with two example rows in the project's units, ready to fill in. */

@@ -3,6 +3,7 @@ import { NextResponse, type NextRequest } from "next/server";
 import { z } from "zod";
 import { env } from "@/lib/env";
 import { AppError, isAppError, type FieldErrors } from "@/lib/errors";
+import { clientAddress } from "./client-address";
 
 /**
  * The one wrapper every Tautline route handler goes through.
@@ -37,6 +38,15 @@ export function errorResponse(error: unknown): NextResponse {
     return NextResponse.json(
       { error: { code: error.code, message: error.message, ...(error.fields ? { fields: error.fields } : {}) } },
       { status: error.status },
+    );
+  }
+  // Text PostgreSQL cannot store (a NUL that slipped past a schema, a byte sequence it refuses)
+  // is bad input, not a server fault, and the statement wrote nothing.
+  const pgCode = (error as { code?: unknown } | null)?.code;
+  if (pgCode === "22P05" || pgCode === "22021" || pgCode === "22001") {
+    return NextResponse.json(
+      { error: { code: "INVALID_INPUT", message: "Some text holds characters that cannot be stored, or is too long. Nothing was saved." } },
+      { status: 422 },
     );
   }
   console.error("unhandled error in route handler", error);
@@ -126,7 +136,7 @@ export function route<
   };
 }
 
-export function clientIp(request: Request): string {
-  const forwarded = request.headers.get("x-forwarded-for")?.split(",")[0]?.trim();
-  return forwarded || request.headers.get("x-real-ip") || "unknown";
+/** The caller's address when a trusted proxy tells it (lib/http/client-address.ts), else null. */
+export function clientIp(request: Request): string | null {
+  return clientAddress(request.headers);
 }

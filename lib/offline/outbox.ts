@@ -119,6 +119,11 @@ export async function applyPushResults(
     for (const result of results) {
       const entry = await db.outbox.where("opId").equals(result.opId).first();
       if (!entry || entry.state !== "pending") continue;
+      if (result.status === "retry-later") {
+        // Nothing stored: the op stays pending and goes with the next push.
+        await db.outbox.update(entry.seq!, { attempts: entry.attempts + 1, lastError: result.error?.message ?? null });
+        continue;
+      }
       if (result.status === "applied" || result.status === "duplicate") {
         await db.outbox.delete(entry.seq!);
         await db.records.update(entry.recordId, {

@@ -139,6 +139,8 @@ export class SyncClient {
         confirmed += applied.confirmed;
         attention += applied.attention;
         await updateSyncMeta(db, { lastConfirmedSyncAt: new Date(this.now()).toISOString(), needsSignIn: false, lastError: null });
+        // Ops the server could not take now stay pending; wait (with backoff) before sending them again.
+        if (body.results.some((r) => r.status === "retry-later")) throw new Retryable("The server asked for some changes to be sent again shortly.");
         if (batch.length < this.batchSize) break;
       }
       const pulled = await this.pullAll();

@@ -1,12 +1,8 @@
 import Papa from "papaparse";
+import { safeRows } from "@/lib/csv/safe-cell";
 import type { PourReport } from "@/lib/server/get-pour-report";
 import { RECORD_COLUMNS, recordRows } from "./pour-rows";
 
-/**
- * Text a spreadsheet would run as a formula ("=", "@", a tab, or "+"/"-" not starting a number)
- * gets a leading quote from papaparse; signed figures such as "+1.2 %" stay as they are.
- */
-export const FORMULA_START = /^([=@\t\r]|[+\-](?![\d.]))/;
 
 /**
  * The pour's report as CSV: one row per stressing of each tendon end, in order (the original and
@@ -24,5 +20,7 @@ export function pourCsvTable(report: PourReport): { fields: string[]; data: stri
 }
 
 export function renderPourCsv(report: PourReport): string {
-  return Papa.unparse(pourCsvTable(report), { escapeFormulae: FORMULA_START, newline: "\r\n" });
+  // Every cell through the one formula guard (lib/csv/safe-cell.ts); signed figures stay as they are.
+  const table = pourCsvTable(report);
+  return Papa.unparse({ fields: table.fields, data: safeRows(table.data) }, { newline: "\r\n" });
 }

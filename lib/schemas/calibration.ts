@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { latestDayAnywhere } from "@/lib/format/dates";
+import { text } from "./text";
 
 /** A calibration as the certificate gives it: load-cell forces at gauge pressures, in SI. */
 export const calibrationSchema = z
@@ -21,7 +22,7 @@ export const calibrationSchema = z
       )
       .min(2, "Give at least two points; five or more show a bad one.")
       .max(50, "At most 50 points."),
-    laboratory: z.string().trim().max(160, "Use at most 160 characters.").nullable(),
+    laboratory: text().trim().max(160, "Use at most 160 characters.").nullable(),
     certificateAttachmentId: z.uuid({ error: "Upload the certificate again." }).nullable(),
   })
   .superRefine((c, ctx) => {

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { text } from "./text";
 import { emailSchema } from "./account";
 
 export const roleSchema = z.enum(["crew", "inspector", "engineer", "admin"], {
@@ -15,12 +16,11 @@ export const inviteSchema = z.object({ email: emailSchema, role: roleSchema });
 export const changeRoleSchema = z.object({ role: roleSchema });
 
 export const createProjectSchema = z.object({
-  code: z
-    .string()
+  code: text()
     .trim()
     .toUpperCase()
     .regex(/^[A-Z0-9-]{2,12}$/, "Use 2 to 12 letters, digits or dashes."),
-  name: z.string().trim().min(2, "Give the project a name.").max(160, "Use at most 160 characters."),
+  name: text().trim().min(2, "Give the project a name.").max(160, "Use at most 160 characters."),
   unitSystem: z.enum(["us", "si"], { error: "Pick US customary or SI units." }).default("us"),
   firstAdminEmail: emailSchema,
 });

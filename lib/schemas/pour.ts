@@ -1,10 +1,11 @@
 import { z } from "zod";
+import { text } from "./text";
 
 export const POUR_STATUSES = ["planned", "stressing", "released"] as const;
 
 export const pourSchema = z.object({
-  name: z.string().trim().min(1, "Give the pour a name, as on the drawings.").max(80, "Use at most 80 characters."),
-  level: z.string().trim().max(80, "Use at most 80 characters.").nullable(),
+  name: text().trim().min(1, "Give the pour a name, as on the drawings.").max(80, "Use at most 80 characters."),
+  level: text().trim().max(80, "Use at most 80 characters.").nullable(),
   areaM2: z
     .number({ error: "Give the area as a number." })
     .positive("The area must be above 0.")

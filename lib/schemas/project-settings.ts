@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { text } from "./text";
 import type { ReadingResolution as DbResolution, UnitSystem as DbSystem } from "@/db/types";
 import type { ReadingResolution, UnitSystem } from "@/lib/units";
 import { emailSchema } from "./account";
@@ -11,8 +12,8 @@ const optionalPositive = (message: string, max: number, maxMessage: string) =>
   z.number({ error: message }).positive(message).max(max, maxMessage).nullable();
 
 export const projectSettingsSchema = z.object({
-  name: z.string().trim().min(2, "Give the project a name.").max(160, "Use at most 160 characters."),
-  address: z.string().trim().max(300, "Use at most 300 characters.").nullable(),
+  name: text().trim().min(2, "Give the project a name.").max(160, "Use at most 160 characters."),
+  address: text().trim().max(300, "Use at most 300 characters.").nullable(),
   unitSystem: z.enum(["us", "si"], { error: "Pick US customary or SI units." }),
   readingResolution: z.enum(["1/8in", "1/16in", "1mm"], {
     error: "Pick the reading division: 1/8 in, 1/16 in or 1 mm.",
@@ -52,7 +53,7 @@ export const projectSettingsSchema = z.object({
     120,
     "Above 120 MPa (17,400 psi) looks wrong.",
   ),
-  engineerOfRecordName: z.string().trim().max(160, "Use at most 160 characters.").nullable(),
+  engineerOfRecordName: text().trim().max(160, "Use at most 160 characters.").nullable(),
   engineerOfRecordEmail: emailSchema.nullable(),
   notifyEmails: z.array(emailSchema).max(20, "At most 20 addresses."),
   blindEntry: z.boolean({ error: "Say whether the crew sees predicted values before entering readings." }),

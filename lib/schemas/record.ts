@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { text } from "./text";
 import { isInputError, parseLength, parsePressure, type LengthUnit, type PressureUnit } from "@/lib/units";
 
 /**
@@ -23,8 +24,7 @@ export function entryUnitsFor(unitSystem: "us" | "si"): EntryUnits {
 }
 
 const typed = (label: string) =>
-  z
-    .string({ error: `Type the ${label}.` })
+  text({ error: `Type the ${label}.` })
     .trim()
     .max(40, `Keep the ${label} under 40 characters.`);
 
@@ -144,21 +144,20 @@ export interface RecordFormContext {
 
 export const recordFormShape = z.object({
   tendonEnd: z.enum(TENDON_ENDS, { error: "Pick the end you stressed." }),
-  equipmentSetId: z.string({ error: "Pick the equipment set." }).min(1, "Pick the equipment set."),
-  expiredCalibrationReason: z.string().trim().max(500, "Keep the reason under 500 characters."),
+  equipmentSetId: text({ error: "Pick the equipment set." }).min(1, "Pick the equipment set."),
+  expiredCalibrationReason: text().trim().max(500, "Keep the reason under 500 characters."),
   readingMethod: z.enum(READING_METHODS, { error: "Pick how the elongation was read." }),
-  initialPressure: z.string().trim().max(40),
-  finalPressure: z.string().trim().max(40),
-  marksBefore: z.string().trim().max(40),
-  marksAfter: z.string().trim().max(40),
-  strokes: z.array(z.object({ value: z.string().trim().max(40) })).max(MAX_STROKES),
-  seating: z.string().trim().max(40),
-  wireBreaks: z
-    .string()
+  initialPressure: text().trim().max(40),
+  finalPressure: text().trim().max(40),
+  marksBefore: text().trim().max(40),
+  marksAfter: text().trim().max(40),
+  strokes: z.array(z.object({ value: text().trim().max(40) })).max(MAX_STROKES),
+  seating: text().trim().max(40),
+  wireBreaks: text()
     .trim()
     .regex(/^\d{0,2}$/, "Type the number of broken wires as a whole number (0 if none)."),
-  remarks: z.string().trim().max(2000, "Keep the remarks under 2000 characters."),
-  revisionReason: z.string().trim().max(500, "Keep the reason under 500 characters."),
+  remarks: text().trim().max(2000, "Keep the remarks under 2000 characters."),
+  revisionReason: text().trim().max(500, "Keep the reason under 500 characters."),
 });
 export type RecordFormValues = z.infer<typeof recordFormShape>;
 
@@ -229,7 +228,7 @@ export function recordFormSchema(context: RecordFormContext) {
 
 const uuid = (what: string) => z.uuid({ error: `Not a ${what} id.` });
 const optionalText = (max: number, label: string) =>
-  z.string().trim().min(1, `The ${label} is empty.`).max(max, `Keep the ${label} under ${max} characters.`).nullable();
+  text().trim().min(1, `The ${label} is empty.`).max(max, `Keep the ${label} under ${max} characters.`).nullable();
 
 // Two readings derived the same way agree to the last bits of a double.
 const agrees = (a: number | null, b: number | null) =>
@@ -266,8 +265,7 @@ export const recordPayloadSchema = z
     wireBreaks: z.number().int("Wire breaks are a whole number.").min(0).max(99),
     remarks: optionalText(2000, "remarks"),
     deviceTime: z.iso.datetime({ offset: true, error: "The device time must be an ISO date and time." }),
-    deviceTimeZone: z
-      .string()
+    deviceTimeZone: text()
       .min(1)
       .max(64)
       .regex(/^[A-Za-z0-9_+\-/]+$/, "Not a time zone name."),

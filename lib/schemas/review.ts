@@ -1,8 +1,8 @@
 import { z } from "zod";
+import { text } from "./text";
 
 const reasonText = (what: string) =>
-  z
-    .string({ error: `Write the ${what}.` })
+  text({ error: `Write the ${what}.` })
     .trim()
     .min(10, `Write the ${what} in a sentence or more (at least 10 characters).`)
     .max(4000, "Use at most 4,000 characters.");
@@ -47,8 +47,7 @@ export const DECISION_LABELS: Record<(typeof DECISIONS)[number], string> = {
 export const dispositionSchema = z.object({
   decision: z.enum(DECISIONS, { error: "Pick a disposition." }),
   reasons: reasonText("reasons for the disposition"),
-  licenceStatement: z
-    .string({ error: "State your licence." })
+  licenceStatement: text({ error: "State your licence." })
     .trim()
     .min(6, "State your licence, for example: Licensed professional engineer, State of …, No. …")
     .max(400, "Use at most 400 characters."),

@@ -9,7 +9,8 @@ import { z } from "zod";
 export const OP_KINDS = ["create", "revise"] as const;
 export type OpKind = (typeof OP_KINDS)[number];
 
-export const OP_STATUSES = ["applied", "duplicate", "conflict", "rejected"] as const;
+/** "retry-later": nothing was stored for this op; the tablet keeps it and sends it again. */
+export const OP_STATUSES = ["applied", "duplicate", "conflict", "rejected", "retry-later"] as const;
 export type OpStatus = (typeof OP_STATUSES)[number];
 
 /** Most operations one push may carry; the client sends batches of 25–50. */

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { text } from "./text";
 import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 
 export const STRAND_SIZES = ASTM_A416_GRADE_270.map((s) => s.designation) as [string, ...string[]];
@@ -13,8 +14,7 @@ export const FORMULA_START = /^[=+\-@\t\r]/;
 
 /** A name a person typed that will later land in CSV files and reports. */
 export const plainText = (what: string, max: number) =>
-  z
-    .string({ error: `Give the ${what}.` })
+  text({ error: `Give the ${what}.` })
     .trim()
     .min(1, `Give the ${what}.`)
     .max(max, `Use at most ${max} characters.`)
@@ -79,8 +79,7 @@ export function drapeAngleRad(drapeMm: number, halfSpanMm: number): number {
 }
 
 export const importScheduleSchema = z.object({
-  csv: z
-    .string({ error: "Send the CSV file's text." })
+  csv: text({ error: "Send the CSV file's text." })
     .min(1, "The file is empty.")
     .max(8_000_000, "The file is over 8 MB; split it by pour."),
 });

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { text } from "./text";
 
 /** What each kind of upload is for, and the file types its content may be (checked by magic bytes). */
 export const UPLOAD_PURPOSES = ["mill_certificate", "calibration_certificate", "record_photo", "review_photo"] as const;
@@ -34,13 +35,12 @@ export function acceptedTypesText(purpose: StoredPurpose): string {
 export const presignUploadSchema = z
   .object({
     purpose: z.enum(UPLOAD_PURPOSES, { error: "Say what the file is for." }),
-    contentType: z.string().trim().min(3, "Say what type of file this is.").max(100),
+    contentType: text().trim().min(3, "Say what type of file this is.").max(100),
     sizeBytes: z
       .number({ error: "Give the file size in bytes." })
       .int("Give the size in whole bytes.")
       .positive("The file is empty."),
-    originalName: z
-      .string()
+    originalName: text()
       .trim()
       .min(1, "Give the file a name.")
       .max(200, "Use a file name of at most 200 characters."),

@@ -3,6 +3,7 @@ import type { Kysely } from "kysely";
 import type { Db } from "@/db/connect";
 import type { Database, Role } from "@/db/types";
 import { AppError } from "@/lib/errors";
+import { endSessions } from "./end-sessions";
 import { recordAudit } from "./record-audit";
 
 async function assertAnotherAdminRemains(db: Kysely<Database>, projectId: string, userId: string): Promise<void> {
@@ -51,6 +52,7 @@ export async function changeMemberRole(
       .where("project_id", "=", input.projectId)
       .where("user_id", "=", input.userId)
       .execute();
+    await endSessions(trx, input.userId);
     await recordAudit(trx, {
       action: "member.role-change",
       outcome: "success",
@@ -71,6 +73,7 @@ export async function removeMember(db: Db, input: { projectId: string; userId: s
       .where("project_id", "=", input.projectId)
       .where("user_id", "=", input.userId)
       .execute();
+    await endSessions(trx, input.userId);
     await recordAudit(trx, {
       action: "member.remove",
       outcome: "success",

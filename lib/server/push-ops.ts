@@ -64,6 +64,18 @@ const rejected = (op: SyncOp, code: string, message: string, fields?: Record<str
   error: { code, message, ...(fields ? { fields } : {}) },
 });
 
+class AnswerLost extends Error {
+  constructor(cause: unknown) {
+    super("the answer to a committed op was lost", { cause });
+  }
+}
+
+const retryLater = (op: SyncOp, message: string): OpResult => ({
+  opId: op.opId,
+  status: "retry-later",
+  error: { code: "RETRY_LATER", message },
+});
+
 const dayFormats = new Map<string, Intl.DateTimeFormat | null>();
 
 /** The calendar day of an instant in the device's time zone, or null for an unknown zone. */
@@ -414,7 +426,13 @@ async function applyOp(
   for (let attempt = 1; ; attempt++) {
     const result = await attemptOp(db, input, op, checked.payload, checked.day, attempt);
     if (result !== RETRY) {
-      if (result.status === "applied") await input.hooks?.afterCommit?.(op, result);
+      if (result.status === "applied" && input.hooks?.afterCommit) {
+        try {
+          await input.hooks.afterCommit(op, result);
+        } catch (error) {
+          throw new AnswerLost(error);
+        }
+      }
       return result;
     }
     if (attempt >= MAX_ATTEMPTS)
@@ -522,7 +540,25 @@ export async function pushOps(
   const queue = [...chains.values()];
   const worker = async () => {
     for (let chain = queue.shift(); chain; chain = queue.shift()) {
-      for (const i of chain) results[i] = await applyOp(db, input, input.ops[i]!);
+      let failed = false;
+      for (const i of chain) {
+        // One op that cannot get through now (the tendon kept changing, a deadlock, a lost
+        // connection) answers retry-later on its own, with the rest of its chain behind it; the
+        // ops that were applied still say so, instead of a 500 for the whole batch.
+        if (failed) {
+          results[i] = retryLater(input.ops[i]!, "An earlier change to this record is waiting to be sent again.");
+          continue;
+        }
+        try {
+          results[i] = await applyOp(db, input, input.ops[i]!);
+        } catch (error) {
+          // The op committed and its answer was lost (a test hook's stand-in for a dropped connection).
+          if (error instanceof AnswerLost) throw error.cause;
+          console.error(`push: op ${input.ops[i]!.opId} answered retry-later`, error);
+          results[i] = retryLater(input.ops[i]!, "The server was busy with this tendon; this change will be sent again.");
+          failed = true;
+        }
+      }
     }
   };
   await Promise.all(Array.from({ length: Math.min(CHAINS_AT_ONCE, queue.length) }, worker));

@@ -6,26 +6,34 @@ import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
 import { sendMail } from "@/lib/mail/send-mail";
 import { passwordResetMail } from "@/lib/mail/templates";
+import { allowMailToAddress } from "./allow-mail-to-address";
+import { endSessions } from "./end-sessions";
 import { recordAudit } from "./record-audit";
 
 const RESET_MINUTES = 30;
 
-/** Sends a reset link when the address has an active account; says nothing either way. */
-export async function requestPasswordReset(db: Db, input: { email: string; ip: string }): Promise<void> {
+/**
+ * Sends a reset link when the address has an active account; says nothing either way. The
+ * route runs it in the background (runInBackground), so the answer takes the same time for an
+ * address with or without an account; at most 3 links an hour go to one address.
+ */
+export async function requestPasswordReset(db: Db, input: { email: string; ip: string | null }): Promise<void> {
   const user = await db
     .selectFrom("users")
     .select("id")
     .where("email", "=", input.email)
     .where("is_active", "=", true)
     .executeTakeFirst();
+  const allowed = user ? await allowMailToAddress(db, { action: "password.reset-request", email: input.email }) : false;
   await recordAudit(db, {
     action: "password.reset-request",
-    outcome: user ? "success" : "failure",
+    outcome: user ? (allowed ? "success" : "denied") : "failure",
     actorUserId: user?.id,
     actorEmail: input.email,
     ip: input.ip,
+    ...(user && !allowed ? { detail: { reason: "throttled" } } : {}),
   });
-  if (!user) return;
+  if (!user || !allowed) return;
   const { token, hash } = newToken();
   await db
     .insertInto("password_resets")
@@ -57,6 +65,8 @@ export async function resetPassword(db: Db, input: { token: string; password: st
       .returning("email")
       .executeTakeFirst();
     if (!user) throw new AppError("GONE", "This account is switched off. Ask the project admin.");
+    // Sessions opened before the reset end: whoever knew the old password is signed out.
+    await endSessions(trx, reset.user_id);
     // Every other open link for this account stops working too.
     await trx
       .updateTable("password_resets")

@@ -21,7 +21,16 @@ import { bucket, s3 } from "./client";
 type Db = Kysely<Database> | Transaction<Database>;
 
 /** How long a presigned PUT stays usable. */
-const PRESIGN_SECONDS = 15 * 60;
+const PRESIGN_SECONDS = 10 * 60;
+
+/** Unconfirmed uploads older than this are deleted with their objects (cleanPendingUploads). */
+export const PENDING_UPLOAD_TTL_MS = 24 * 60 * 60 * 1000;
+
+/**
+ * Where a confirmed file lives: a key no presigned URL was ever issued for, so a PUT on the
+ * upload's still-valid URL can no longer change the evidence.
+ */
+export const finalKey = (uploadKey: string) => `${uploadKey.replace(/\/upload$/, "")}/confirmed`;
 
 export interface StoredAttachment {
   id: string;
@@ -72,7 +81,7 @@ export async function presignUpload(
   }
   if (input.sizeBytes > env.UPLOAD_MAX_BYTES) throw tooBig(input.sizeBytes);
   const attachmentId = randomUUID();
-  const objectKey = `projects/${input.projectId}/${input.purpose}/${attachmentId}`;
+  const objectKey = `projects/${input.projectId}/${input.purpose}/${attachmentId}/upload`;
   await db
     .insertInto("attachments")
     .values({
@@ -205,9 +214,22 @@ export async function confirmUpload(
     );
   }
   const sha256 = createHash("sha256").update(bytes).digest("hex");
+  // The bytes just checked are copied to the final key, and the upload key is emptied: the
+  // presigned PUT may stay valid for minutes more, but it now writes where nothing reads.
+  const confirmedKey = finalKey(row.object_key);
+  await s3().send(
+    new PutObjectCommand({ Bucket: bucket(), Key: confirmedKey, Body: bytes, ContentType: detected.mime }),
+  );
+  await s3().send(new DeleteObjectCommand({ Bucket: bucket(), Key: row.object_key }));
   const stored = await db
     .updateTable("attachments")
-    .set({ status: "stored", sha256, content_type: detected.mime, size_bytes: bytes.byteLength })
+    .set({
+      status: "stored",
+      sha256,
+      content_type: detected.mime,
+      size_bytes: bytes.byteLength,
+      object_key: confirmedKey,
+    })
     .where("project_id", "=", input.projectId)
     .where("id", "=", row.id)
     .returning(["id", "purpose", "content_type", "size_bytes", "sha256", "original_name"])
@@ -230,6 +252,14 @@ export async function readAttachment(
   if (!row) throw new AppError("NOT_FOUND", "No such file on this project.");
   const body = await readObject(row.object_key);
   if (!body) throw new AppError("NOT_FOUND", "The file is missing from storage.");
+  // Evidence is immutable: bytes that no longer match the hash kept at confirmation are refused.
+  if (row.sha256 && createHash("sha256").update(body).digest("hex") !== row.sha256) {
+    console.error(`attachment ${row.id}: stored bytes no longer match their sha256; refused`);
+    throw new AppError(
+      "CONFLICT",
+      "This file was changed in storage after it was confirmed, so it is not served. Tell the project admin.",
+    );
+  }
   const name = safeFileName(row.original_name, `${row.purpose}-${row.id}`);
   const ascii = name.replace(/[^\x20-\x7e]/g, "_");
   return {
@@ -305,4 +335,31 @@ export async function storeGeneratedFile(
     .returning(["id", "purpose", "content_type", "size_bytes", "sha256", "original_name"])
     .executeTakeFirstOrThrow();
   return toStored(row);
+}
+
+/**
+ * Deletes uploads that were never confirmed within a day, objects and rows; returns how many.
+ * The e-mail dispatcher runs it every hour. A row something still points at is left alone.
+ */
+export async function cleanPendingUploads(db: Db, now = new Date()): Promise<number> {
+  const stale = await db
+    .selectFrom("attachments")
+    .select(["id", "project_id", "object_key"])
+    .where("status", "=", "pending")
+    .where("created_at", "<", new Date(now.getTime() - PENDING_UPLOAD_TTL_MS))
+    .limit(500)
+    .execute();
+  let cleaned = 0;
+  for (const row of stale) {
+    try {
+      await db.deleteFrom("attachments").where("project_id", "=", row.project_id).where("id", "=", row.id).execute();
+    } catch {
+      continue;
+    }
+    await s3()
+      .send(new DeleteObjectCommand({ Bucket: bucket(), Key: row.object_key }))
+      .catch(() => undefined);
+    cleaned++;
+  }
+  return cleaned;
 }

@@ -202,7 +202,7 @@ describe("sync client against the real server (model-based)", () => {
         expect(local).toBe(0);
         tablet.db.close();
       }),
-      { numRuns: 100 },
+      { numRuns: Number(process.env.SYNC_MODEL_RUNS ?? 100) },
     );
   }, 300_000);
 });

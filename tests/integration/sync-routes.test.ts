@@ -96,7 +96,7 @@ describe("POST /api/sync/push through the route", () => {
           }
         }
       }),
-      { numRuns: 10_000 },
+      { numRuns: Number(process.env.FUZZ_RUNS ?? 10_000) },
     );
     // Every row written belongs to an op the server answered "applied".
     expect(await rowsOf(t.db, "records")).toBe(before + applied);

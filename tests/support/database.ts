@@ -29,8 +29,11 @@ function requireAdminUrl(): string {
 }
 
 export interface TestDatabase {
+  /** Connected as the owner role (the one migrations run as). */
   db: Db;
   url: string;
+  /** The same database as the app's least-privileged role (tautline_app), as the app connects. */
+  appUrl: string;
   name: string;
   drop: () => Promise<void>;
 }
@@ -50,9 +53,13 @@ export async function createTestDatabase(options: { migrate?: boolean } = {}): P
   const db = createDb(url.toString(), 5);
   if (options.migrate) await migrateToLatest(db);
 
+  const appUrl = new URL(url);
+  appUrl.username = "tautline_app";
+  appUrl.password = "tautline_app";
   return {
     db,
     url: url.toString(),
+    appUrl: appUrl.toString(),
     name,
     drop: async () => {
       await db.destroy();
