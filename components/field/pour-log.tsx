@@ -6,6 +6,7 @@ import type { FieldEvaluation, FieldTendon } from "@/lib/schemas/sync";
 import { stressedEnds } from "@/lib/stressing/basis";
 import { showLength, showPressure } from "@/lib/stressing/display";
 import { useField } from "./field-provider";
+import { PourReleaseNote } from "./pour-release-note";
 import { RecordForm } from "./record-form";
 import { useLive } from "./use-live";
 import { units, VerdictPanel } from "./verdict-panel";
@@ -117,6 +118,7 @@ export function PourLog() {
         <p className="text-ink-soft" data-testid="pour-progress">
           {project.code} · {tendons.length} tendons · {stressedCount} stressed{flaggedCount ? ` (${flaggedCount} flagged)` : ""}
         </p>
+        <PourReleaseNote pour={pour} />
         <label htmlFor="tendon-search" className="field-label">
           Find a tendon by tag
         </label>
@@ -175,6 +177,7 @@ export function PourLog() {
             }}
             next={next ?? null}
             onNext={go}
+            released={Boolean(pour.release)}
           />
         )}
       </section>
@@ -197,6 +200,8 @@ function TendonPanel(props: {
   onSaved: (id: string) => void;
   next: FieldTendon | null;
   onNext: (t: FieldTendon) => void;
+  /** The pour is released: nothing new is recorded until the engineer reopens it. */
+  released: boolean;
 }) {
   const { tendon, project, records, sets, calibrations, lot, session } = props;
   const u = units(project);
@@ -210,7 +215,7 @@ function TendonPanel(props: {
   const local = records.length ? provisionalVerdict({ project, tendon, lot, set: newestSet, calibrations }, records) : null;
   const target = newest && newestSet ? targetFor({ project, tendon, lot, set: newestSet, calibrations }, calibrationFor(calibrations, newestSet.id, today).calibration) : null;
   const [adding, setAdding] = useState(false);
-  const showForm = Boolean(props.correcting) || adding || !allDone;
+  const showForm = !props.released && (Boolean(props.correcting) || adding || !allDone);
 
   return (
     <>
@@ -248,9 +253,11 @@ function TendonPanel(props: {
                         {r.revision > 1 ? ` · revision ${r.revision} (${r.revisionReason})` : ""} ·{" "}
                         <span data-testid="sync-state">{r.syncState === "synced" ? "sent" : r.syncState === "pending" ? "waiting to send" : `needs attention (${r.syncState})`}</span>
                       </p>
-                      <button type="button" className="btn-quiet" onClick={() => props.onCorrect(r)}>
-                        Correct
-                      </button>
+                      {!props.released && (
+                        <button type="button" className="btn-quiet" onClick={() => props.onCorrect(r)}>
+                          Correct
+                        </button>
+                      )}
                     </>
                   ) : (
                     <p>End {end}: not stressed yet.</p>
@@ -258,7 +265,7 @@ function TendonPanel(props: {
                 </div>
               );
             })}
-            {allDone && !adding && !props.correcting && (
+            {allDone && !adding && !props.correcting && !props.released && (
               <button type="button" className="btn-quiet w-fit" onClick={() => setAdding(true)}>
                 Record a restress
               </button>
@@ -271,6 +278,12 @@ function TendonPanel(props: {
         <button type="button" className="btn-primary" onClick={() => props.onNext(props.next!)}>
           Next tendon: {props.next.tag}
         </button>
+      )}
+
+      {props.released && (
+        <p className="card font-semibold" data-testid="record-refused">
+          The pour is released: this tablet saves no record for {tendon.tag} until the engineer of record reopens it.
+        </p>
       )}
 
       {showForm && (

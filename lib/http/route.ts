@@ -3,6 +3,7 @@ import { NextResponse, type NextRequest } from "next/server";
 import { z } from "zod";
 import { env } from "@/lib/env";
 import { AppError, isAppError, type FieldErrors } from "@/lib/errors";
+import { isReleasedPourRefusal, RELEASED_POUR_MESSAGE } from "@/lib/server/require-open-pour";
 
 /**
  * The one wrapper every Tautline route handler goes through.
@@ -38,6 +39,9 @@ export function errorResponse(error: unknown): NextResponse {
       { error: { code: error.code, message: error.message, ...(error.fields ? { fields: error.fields } : {}) } },
       { status: error.status },
     );
+  }
+  if (isReleasedPourRefusal(error)) {
+    return NextResponse.json({ error: { code: "CONFLICT", message: RELEASED_POUR_MESSAGE } }, { status: 409 });
   }
   console.error("unhandled error in route handler", error);
   return NextResponse.json(

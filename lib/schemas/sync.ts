@@ -128,7 +128,12 @@ export interface FieldPour {
   name: string;
   level: string | null;
   plannedStressingDate: string | null;
+  /** Derived on the server: planned, stressing, stressed or released. */
   status: string;
+  /** The standing release: while it is set the pour takes no record. */
+  release: { by: string; at: string; statement: string } | null;
+  /** The last time the engineer reopened a release, with the reason. */
+  reopened: { by: string; at: string; reason: string } | null;
 }
 
 export interface FieldTendon {

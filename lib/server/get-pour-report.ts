@@ -91,9 +91,10 @@ export async function getPourReport(
   const project = await db.selectFrom("projects").selectAll().where("id", "=", input.projectId).executeTakeFirst();
   const pour = await db
     .selectFrom("pours")
-    .select(["id", "name", "level", "status", "planned_stressing_date", "concrete_strength_mpa"])
-    .where("project_id", "=", input.projectId)
-    .where("id", "=", input.pourId)
+    .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
+    .select(["pours.id", "pours.name", "pours.level", "pour_states.status", "pours.planned_stressing_date", "pours.concrete_strength_mpa"])
+    .where("pours.project_id", "=", input.projectId)
+    .where("pours.id", "=", input.pourId)
     .executeTakeFirst();
   if (!project || !pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
 

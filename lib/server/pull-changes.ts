@@ -86,9 +86,35 @@ export async function pullChanges(
             .execute(),
           trx
             .selectFrom("pours")
-            .select(["id", "project_id", "name", "level", "planned_stressing_date", "status"])
-            .where("id", "in", pourIds)
-            .where(since("change_xid", cursor))
+            .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
+            .select([
+              "pours.id",
+              "pours.project_id",
+              "pours.name",
+              "pours.level",
+              "pours.planned_stressing_date",
+              "pour_states.status",
+              "pour_states.released_by_name",
+              "pour_states.released_at",
+              "pour_states.release_statement",
+              "pour_states.last_reopened_by_name",
+              "pour_states.last_reopened_at",
+              "pour_states.last_reopen_reason",
+            ])
+            .where("pours.id", "in", pourIds)
+            // The status follows the records too: a pour whose records changed is sent again.
+            .where((eb) =>
+              eb.or([
+                since("pours.change_xid", cursor),
+                eb.exists(
+                  eb
+                    .selectFrom("records")
+                    .select("records.id")
+                    .whereRef("records.pour_id", "=", "pours.id")
+                    .where(since("records.change_xid", cursor)),
+                ),
+              ]),
+            )
             .execute(),
           trx
             .selectFrom("tendons")
@@ -226,6 +252,14 @@ export async function pullChanges(
           level: p.level,
           plannedStressingDate: p.planned_stressing_date,
           status: p.status,
+          release:
+            p.released_by_name && p.released_at
+              ? { by: p.released_by_name, at: new Date(p.released_at).toISOString(), statement: p.release_statement ?? "" }
+              : null,
+          reopened:
+            p.last_reopened_by_name && p.last_reopened_at
+              ? { by: p.last_reopened_by_name, at: new Date(p.last_reopened_at).toISOString(), reason: p.last_reopen_reason ?? "" }
+              : null,
         })),
         tendons: tendons.map((t) => ({
           id: t.id,
