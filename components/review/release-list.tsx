@@ -45,7 +45,12 @@ export function ReleaseList({
                   ✓ Released by {p.releasedBy} on {p.releasedAt ? formatDateTime(p.releasedAt, "UTC") : ""}
                 </p>
                 {p.releaseStatement && <p className="mt-1 text-ink-soft">“{p.releaseStatement}”</p>}
-                {canReopen(p) && <ReopenForm projectId={p.projectId} pourId={p.pourId} pourName={p.pourName} />}
+                {canReopen(p) && (
+                  <details className="mt-3">
+                    <summary className="btn-quiet w-fit cursor-pointer">Reopen this pour…</summary>
+                    <ReopenForm projectId={p.projectId} pourId={p.pourId} pourName={p.pourName} />
+                  </details>
+                )}
               </>
             ) : (
               <>
