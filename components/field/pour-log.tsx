@@ -2,10 +2,12 @@
 import { useMemo, useState, useSyncExternalStore } from "react";
 import { readMeta, type LocalRecord, type SessionMeta } from "@/lib/offline/db";
 import { calibrationFor, currentEnds, provisionalVerdict, targetFor, tendonState, type TendonState } from "@/lib/offline/tendon-view";
-import type { FieldEvaluation, FieldTendon } from "@/lib/schemas/sync";
+import { holdsOf, holdSummary } from "@/lib/offline/hold-view";
+import type { FieldEvaluation, FieldFlag, FieldTendon } from "@/lib/schemas/sync";
 import { stressedEnds } from "@/lib/stressing/basis";
 import { showLength, showPressure } from "@/lib/stressing/display";
 import { useField } from "./field-provider";
+import { HoldPanel } from "./hold-panel";
 import { PourReleaseNote } from "./pour-release-note";
 import { RecordForm } from "./record-form";
 import { useLive } from "./use-live";
@@ -93,7 +95,12 @@ export function PourLog() {
   const { pour, project, tendons, records, sets, calibrations, lots, session, evaluations, flags } = data;
   const recordsOf = (t: FieldTendon) => records.filter((r) => r.tendonId === t.id);
   const states = new Map(tendons.map((t) => [t.id, tendonState(t, recordsOf(t), flags.filter((f) => f.tendonId === t.id), latestOf(evaluations, t.id))]));
-  const shown = tendons.filter((t) => t.tag.toLowerCase().includes(query.trim().toLowerCase()));
+  const flagsOf = (t: FieldTendon) => flags.filter((f) => f.tendonId === t.id);
+  const holdWords = new Map(tendons.map((t) => [t.id, holdSummary(holdsOf(flagsOf(t)))]));
+  // Held tendons first, so nobody at the slab edge has to scroll to find them.
+  const shown = tendons
+    .filter((t) => t.tag.toLowerCase().includes(query.trim().toLowerCase()))
+    .sort((a, b) => Number(states.get(b.id) === "flagged") - Number(states.get(a.id) === "flagged"));
   const selected = tendons.find((t) => t.id === selectedId) ?? null;
   const next = tendons.find((t) => t.id !== selected?.id && (states.get(t.id) === "not stressed" || states.get(t.id) === "one end done"));
   // A flagged tendon was stressed too: it counts with the done ones, and the header says how many wait on a decision.
@@ -139,7 +146,14 @@ export function PourLog() {
                 className={`flex min-h-touch w-full items-center justify-between gap-2 rounded-md border-2 px-3 text-left ${t.id === selected?.id ? "border-ink bg-concrete-100" : "border-concrete-300 bg-white"}`}
                 data-testid="tendon-row"
               >
-                <span className="font-bold">{t.tag}</span>
+                <span className="grid">
+                  <span className="font-bold">{t.tag}</span>
+                  {states.get(t.id) === "flagged" && (
+                    <span className="text-label font-semibold text-signal-stop" data-testid="hold-summary">
+                      Held · {holdWords.get(t.id) ?? "out of band on this tablet"}
+                    </span>
+                  )}
+                </span>
                 <StateMark state={states.get(t.id)!} />
               </button>
             </li>
@@ -178,6 +192,7 @@ export function PourLog() {
             next={next ?? null}
             onNext={go}
             released={Boolean(pour.release)}
+            flags={flagsOf(selected)}
           />
         )}
       </section>
@@ -202,6 +217,7 @@ function TendonPanel(props: {
   onNext: (t: FieldTendon) => void;
   /** The pour is released: nothing new is recorded until the engineer reopens it. */
   released: boolean;
+  flags: FieldFlag[];
 }) {
   const { tendon, project, records, sets, calibrations, lot, session } = props;
   const u = units(project);
@@ -231,6 +247,8 @@ function TendonPanel(props: {
           {lot ? ` · lot ${lot.lotNumber}` : ""}
         </p>
       </header>
+
+      <HoldPanel flags={props.flags} heldOnTablet={props.state === "flagged"} />
 
       {records.length > 0 && (
         <>

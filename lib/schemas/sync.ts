@@ -216,11 +216,24 @@ export interface FieldEvaluation {
   createdAt: string;
 }
 
+/** The engineer's decision on a flag, as the crew needs it at the slab edge. */
+export interface FieldDisposition {
+  decision: "accept" | "restress" | "detension_restress" | "liftoff_check" | "replace" | "other";
+  reasons: string;
+  engineerName: string;
+  createdAt: string;
+}
+
 export interface FieldFlag {
   id: string;
   tendonId: string;
   kind: string;
   status: string;
+  /** Why the flag was raised, in words (absent on flags pulled before it was synced). */
+  reason?: string;
+  createdAt?: string;
+  /** Oldest first. */
+  dispositions?: FieldDisposition[];
 }
 
 export interface Tombstone {

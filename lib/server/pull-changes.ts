@@ -1,6 +1,7 @@
 import "server-only";
 import { projectBasisFromRow } from "@/lib/stressing/basis";
 import { sql, type Kysely, type Transaction } from "kysely";
+import { jsonArrayFrom } from "kysely/helpers/postgres";
 import type { Database } from "@/db/types";
 import type { SessionUser } from "@/lib/auth/session";
 import type { PullResponse } from "@/lib/schemas/sync";
@@ -217,7 +218,22 @@ export async function pullChanges(
             .execute(),
           trx
             .selectFrom("flags")
-            .select(["id", "tendon_id", "kind", "status"])
+            .select((eb) => [
+              "flags.id",
+              "flags.tendon_id",
+              "flags.kind",
+              "flags.status",
+              "flags.reason",
+              "flags.created_at",
+              // The engineer's decisions on the flag; each one updates the flag, so it is sent again.
+              jsonArrayFrom(
+                eb
+                  .selectFrom("dispositions")
+                  .select(["dispositions.decision", "dispositions.reasons", "dispositions.engineer_name", "dispositions.created_at"])
+                  .whereRef("dispositions.flag_id", "=", "flags.id")
+                  .orderBy("dispositions.created_at"),
+              ).as("dispositions"),
+            ])
             .where("project_id", "in", projectIds)
             .where("pour_id", "in", pourIds)
             .where(since("change_xid", cursor))
@@ -334,7 +350,20 @@ export async function pullChanges(
           deviationPct: e.deviation_pct,
           createdAt: new Date(e.created_at).toISOString(),
         })),
-        flags: flags.map((f) => ({ id: f.id, tendonId: f.tendon_id, kind: f.kind, status: f.status })),
+        flags: flags.map((f) => ({
+          id: f.id,
+          tendonId: f.tendon_id,
+          kind: f.kind,
+          status: f.status,
+          reason: f.reason,
+          createdAt: new Date(f.created_at).toISOString(),
+          dispositions: f.dispositions.map((d) => ({
+            decision: d.decision,
+            reasons: d.reasons,
+            engineerName: d.engineer_name,
+            createdAt: new Date(d.created_at).toISOString(),
+          })),
+        })),
         removed: removed.map((r) => ({ table: r.table_name, id: r.row_id })),
         unavailable,
       };

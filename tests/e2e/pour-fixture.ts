@@ -96,10 +96,16 @@ export async function makePourFixture(pourName: string, tags: string[]): Promise
  * Pushes one record of end A, typed as the crew would type it (pressure to the gauge mark,
  * marks to 1/8 in), through the tablet's sync route; answers the op's result.
  */
-export async function pushEndA(crew: APIRequestContext, fx: PourFixture, tendonId: string, factor: number) {
+/** What the crew types for a reading `factor` times the prediction: pressure to the mark, marks from 2 in. */
+export function typedReading(fx: PourFixture, factor: number): { psi: string; before: string; after: string } {
   const predicted = predictTendon({ project: fx.project, tendon: fx.tendon, lot: fx.lot });
   const psi = String(Math.floor((pressureForForce(fx.line, predicted.jackingForceN) * PSI_PER_MPA) / 50) * 50);
   const after = formatLength(2 * 25.4 + predicted.predictedMm * factor, "1/8 in").replace(/ in$/, "");
+  return { psi, before: "2", after };
+}
+
+export async function pushEndA(crew: APIRequestContext, fx: PourFixture, tendonId: string, factor: number) {
+  const { psi, after } = typedReading(fx, factor);
   const measuredMm =
     parseLength(after, { field: "marksAfter", system: "US", defaultUnit: "in" }) -
     parseLength("2", { field: "marksBefore", system: "US", defaultUnit: "in" });

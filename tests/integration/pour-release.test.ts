@@ -8,6 +8,7 @@ import { findReleaseCandidates } from "@/lib/server/find-release-candidates";
 import { importTendonSchedule } from "@/lib/server/import-tendon-schedule";
 import { pullChanges } from "@/lib/server/pull-changes";
 import { pushOps } from "@/lib/server/push-ops";
+import { recordDisposition } from "@/lib/server/record-disposition";
 import { releasePour } from "@/lib/server/release-pour";
 import { reopenPour } from "@/lib/server/reopen-pour";
 import { createTestDatabase, type TestDatabase } from "../support/database";
@@ -347,5 +348,42 @@ describe("reopen", () => {
       "Both tendons in band; tails may be cut.",
       "Lift-off checked; released again.",
     ]);
+  });
+});
+
+describe("decisions sync down", () => {
+  it("a pull carries the tendon's open flag with its reason, then the engineer's disposition with the instruction", async () => {
+    const tendonId = w.tendons.find((x) => x.ends === "A")!.id;
+    const start = (await pullChanges(t.db, { user: crewSession(), cursor: "0", pourIds: [w.pourId] })).cursor;
+    const long = createOp(w, tendonId, { marksAfter: "9" });
+    const pushed = await pushOps(app, { user: w.crew, deviceId: DEVICE, ops: [long] });
+    expect(pushed.results[0]).toMatchObject({ status: "applied", evaluation: { verdict: "long" } });
+
+    const first = await pullChanges(t.db, { user: crewSession(), cursor: start, pourIds: [w.pourId] });
+    const flag = first.flags.find((f) => f.tendonId === tendonId && f.kind === "out_of_band");
+    expect(flag).toMatchObject({ status: "open", reason: expect.stringMatching(/long|band/i), dispositions: [] });
+
+    await recordDisposition(t.db, {
+      projectId: w.projectId,
+      flagId: flag!.id,
+      engineer: people.engineer,
+      disposition: {
+        decision: "restress",
+        reasons: "Detension is not needed; restress to 3,350 psi and re-read the marks.",
+        licenceStatement: "Licensed professional engineer (test)",
+      },
+    });
+    const second = await pullChanges(t.db, { user: crewSession(), cursor: first.cursor, pourIds: [w.pourId] });
+    const again = second.flags.find((f) => f.id === flag!.id);
+    expect(again).toMatchObject({
+      status: "with_engineer",
+      dispositions: [
+        {
+          decision: "restress",
+          reasons: "Detension is not needed; restress to 3,350 psi and re-read the marks.",
+          engineerName: people.engineer.name,
+        },
+      ],
+    });
   });
 });
