@@ -14,7 +14,8 @@ export type Role = "crew" | "inspector" | "engineer" | "admin";
 export type UnitSystem = "us" | "si";
 export type ReadingResolution = "1/8in" | "1/16in" | "1mm";
 export type ComparisonBasis = "gross" | "net";
-export type PourStatus = "planned" | "stressing" | "released";
+/** Derived, never set: see the pour_states view. */
+export type PourStatus = "planned" | "stressing" | "stressed" | "released";
 export type TendonKind = "unbonded_monostrand" | "bonded_multistrand";
 export type StressingEnds = "A" | "B" | "both";
 
@@ -76,7 +77,6 @@ export interface PoursTable {
   level: string | null;
   area_m2: number | null;
   planned_stressing_date: string | null;
-  status: Generated<PourStatus>;
   concrete_strength_mpa: number | null;
   concrete_confirmed_by: string | null;
   concrete_confirmed_at: Timestamp | null;
@@ -326,6 +326,31 @@ export interface ReleasesTable {
   created_at: Timestamp;
 }
 
+export interface PourReopeningsTable {
+  id: Generated<string>;
+  project_id: string;
+  pour_id: string;
+  release_id: string;
+  reopened_by: string;
+  reopened_by_name: string;
+  reason: string;
+  created_at: Generated<Date>;
+}
+
+/** A view: each pour's derived status, its standing release and its last reopening. */
+export interface PourStatesView {
+  pour_id: string;
+  project_id: string;
+  status: PourStatus;
+  release_id: string | null;
+  released_by_name: string | null;
+  released_at: Date | null;
+  release_statement: string | null;
+  last_reopened_by_name: string | null;
+  last_reopened_at: Date | null;
+  last_reopen_reason: string | null;
+}
+
 export interface NotificationsTable {
   id: Generated<string>;
   project_id: string;
@@ -432,6 +457,8 @@ export interface Database {
   reviews: ReviewsTable;
   dispositions: DispositionsTable;
   releases: ReleasesTable;
+  pour_reopenings: PourReopeningsTable;
+  pour_states: PourStatesView;
   notifications: NotificationsTable;
   applied_ops: AppliedOpsTable;
   sync_tombstones: SyncTombstonesTable;

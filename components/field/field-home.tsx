@@ -123,7 +123,12 @@ export function FieldHome() {
                   <h3 className="text-lead font-bold">{pour.name}</h3>
                   <span className="text-label font-semibold uppercase text-ink-faint">{project ? `${project.code} · ${project.name}` : ""}</span>
                 </div>
-                {pour.status === "released" && <ReleasedMark />}
+                {pour.release || pour.status === "released" ? <ReleasedMark /> : null}
+                {!pour.release && pour.reopened && (
+                  <p className="font-semibold text-signal-stop" data-testid="pour-reopened">
+                    Reopened by {pour.reopened.by}: {pour.reopened.reason}
+                  </p>
+                )}
                 <p className="inline-flex items-center gap-2 font-bold text-signal-band" data-testid="ready-offline">
                   <svg viewBox="0 0 24 24" className="h-6 w-6" aria-hidden="true">
                     <path d="M5 12l4 4 10-10" fill="none" stroke="currentColor" strokeWidth="3" strokeLinecap="round" />

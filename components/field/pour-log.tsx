@@ -2,10 +2,13 @@
 import { useMemo, useState, useSyncExternalStore } from "react";
 import { readMeta, type LocalRecord, type SessionMeta } from "@/lib/offline/db";
 import { calibrationFor, currentEnds, provisionalVerdict, targetFor, tendonState, type TendonState } from "@/lib/offline/tendon-view";
-import type { FieldEvaluation, FieldTendon } from "@/lib/schemas/sync";
+import { holdsOf, holdSummary } from "@/lib/offline/hold-view";
+import type { FieldEvaluation, FieldFlag, FieldTendon } from "@/lib/schemas/sync";
 import { stressedEnds } from "@/lib/stressing/basis";
 import { showLength, showPressure } from "@/lib/stressing/display";
 import { useField } from "./field-provider";
+import { HoldPanel } from "./hold-panel";
+import { PourReleaseNote } from "./pour-release-note";
 import { RecordForm } from "./record-form";
 import { useLive } from "./use-live";
 import { units, VerdictPanel } from "./verdict-panel";
@@ -92,7 +95,12 @@ export function PourLog() {
   const { pour, project, tendons, records, sets, calibrations, lots, session, evaluations, flags } = data;
   const recordsOf = (t: FieldTendon) => records.filter((r) => r.tendonId === t.id);
   const states = new Map(tendons.map((t) => [t.id, tendonState(t, recordsOf(t), flags.filter((f) => f.tendonId === t.id), latestOf(evaluations, t.id))]));
-  const shown = tendons.filter((t) => t.tag.toLowerCase().includes(query.trim().toLowerCase()));
+  const flagsOf = (t: FieldTendon) => flags.filter((f) => f.tendonId === t.id);
+  const holdWords = new Map(tendons.map((t) => [t.id, holdSummary(holdsOf(flagsOf(t)))]));
+  // Held tendons first, so nobody at the slab edge has to scroll to find them.
+  const shown = tendons
+    .filter((t) => t.tag.toLowerCase().includes(query.trim().toLowerCase()))
+    .sort((a, b) => Number(states.get(b.id) === "flagged") - Number(states.get(a.id) === "flagged"));
   const selected = tendons.find((t) => t.id === selectedId) ?? null;
   const next = tendons.find((t) => t.id !== selected?.id && (states.get(t.id) === "not stressed" || states.get(t.id) === "one end done"));
   // A flagged tendon was stressed too: it counts with the done ones, and the header says how many wait on a decision.
@@ -117,6 +125,7 @@ export function PourLog() {
         <p className="text-ink-soft" data-testid="pour-progress">
           {project.code} · {tendons.length} tendons · {stressedCount} stressed{flaggedCount ? ` (${flaggedCount} flagged)` : ""}
         </p>
+        <PourReleaseNote pour={pour} />
         <label htmlFor="tendon-search" className="field-label">
           Find a tendon by tag
         </label>
@@ -137,7 +146,14 @@ export function PourLog() {
                 className={`flex min-h-touch w-full items-center justify-between gap-2 rounded-md border-2 px-3 text-left ${t.id === selected?.id ? "border-ink bg-concrete-100" : "border-concrete-300 bg-white"}`}
                 data-testid="tendon-row"
               >
-                <span className="font-bold">{t.tag}</span>
+                <span className="grid">
+                  <span className="font-bold">{t.tag}</span>
+                  {states.get(t.id) === "flagged" && (
+                    <span className="text-label font-semibold text-signal-stop" data-testid="hold-summary">
+                      Held · {holdWords.get(t.id) ?? "out of band on this tablet"}
+                    </span>
+                  )}
+                </span>
                 <StateMark state={states.get(t.id)!} />
               </button>
             </li>
@@ -175,6 +191,8 @@ export function PourLog() {
             }}
             next={next ?? null}
             onNext={go}
+            released={Boolean(pour.release)}
+            flags={flagsOf(selected)}
           />
         )}
       </section>
@@ -197,6 +215,9 @@ function TendonPanel(props: {
   onSaved: (id: string) => void;
   next: FieldTendon | null;
   onNext: (t: FieldTendon) => void;
+  /** The pour is released: nothing new is recorded until the engineer reopens it. */
+  released: boolean;
+  flags: FieldFlag[];
 }) {
   const { tendon, project, records, sets, calibrations, lot, session } = props;
   const u = units(project);
@@ -210,7 +231,7 @@ function TendonPanel(props: {
   const local = records.length ? provisionalVerdict({ project, tendon, lot, set: newestSet, calibrations }, records) : null;
   const target = newest && newestSet ? targetFor({ project, tendon, lot, set: newestSet, calibrations }, calibrationFor(calibrations, newestSet.id, today).calibration) : null;
   const [adding, setAdding] = useState(false);
-  const showForm = Boolean(props.correcting) || adding || !allDone;
+  const showForm = !props.released && (Boolean(props.correcting) || adding || !allDone);
 
   return (
     <>
@@ -226,6 +247,8 @@ function TendonPanel(props: {
           {lot ? ` · lot ${lot.lotNumber}` : ""}
         </p>
       </header>
+
+      <HoldPanel flags={props.flags} heldOnTablet={props.state === "flagged"} />
 
       {records.length > 0 && (
         <>
@@ -248,9 +271,11 @@ function TendonPanel(props: {
                         {r.revision > 1 ? ` · revision ${r.revision} (${r.revisionReason})` : ""} ·{" "}
                         <span data-testid="sync-state">{r.syncState === "synced" ? "sent" : r.syncState === "pending" ? "waiting to send" : `needs attention (${r.syncState})`}</span>
                       </p>
-                      <button type="button" className="btn-quiet" onClick={() => props.onCorrect(r)}>
-                        Correct
-                      </button>
+                      {!props.released && (
+                        <button type="button" className="btn-quiet" onClick={() => props.onCorrect(r)}>
+                          Correct
+                        </button>
+                      )}
                     </>
                   ) : (
                     <p>End {end}: not stressed yet.</p>
@@ -258,7 +283,7 @@ function TendonPanel(props: {
                 </div>
               );
             })}
-            {allDone && !adding && !props.correcting && (
+            {allDone && !adding && !props.correcting && !props.released && (
               <button type="button" className="btn-quiet w-fit" onClick={() => setAdding(true)}>
                 Record a restress
               </button>
@@ -271,6 +296,12 @@ function TendonPanel(props: {
         <button type="button" className="btn-primary" onClick={() => props.onNext(props.next!)}>
           Next tendon: {props.next.tag}
         </button>
+      )}
+
+      {props.released && (
+        <p className="card font-semibold" data-testid="record-refused">
+          The pour is released: this tablet saves no record for {tendon.tag} until the engineer of record reopens it.
+        </p>
       )}
 
       {showForm && (

@@ -245,8 +245,10 @@ export function RecordForm({
       <div className="rounded-md bg-concrete-100 p-3" data-testid="target-pressure">
         <span className="field-label">Target gauge pressure</span>
         <p className="text-figure font-bold">
-          {!set ? "Pick a set" : blind ? "Shown after saving (blind entry)" : targetMPa === null ? "No calibration" : showPressure(units(ctx.project), targetMPa)}
+          {!set ? "Pick a set" : targetMPa === null ? "No calibration" : showPressure(units(ctx.project), targetMPa)}
         </p>
+        {/* Blind entry keeps the predicted elongation and its band from the reader, never the pressure to pump to. */}
+        {blind && <p className="text-ink-soft" data-testid="blind-note">Blind entry: the predicted elongation and its band are shown after saving.</p>}
       </div>
 
       <div className="grid gap-4 sm:grid-cols-2">

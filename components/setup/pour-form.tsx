@@ -7,7 +7,7 @@ import { useSWRConfig } from "swr";
 import { z } from "zod";
 import { FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
-import { POUR_STATUSES, pourSchema, type PourInput } from "@/lib/schemas/pour";
+import { pourSchema, type PourInput } from "@/lib/schemas/pour";
 import { poursKey } from "./pour-table";
 import { units } from "./unit-fields";
 
@@ -15,7 +15,7 @@ const FT2_PER_M2 = 10.7639104167;
 
 function formSchema(us: boolean) {
   return z
-    .object({ name: z.string(), level: z.string(), area: units.number(false), plannedStressingDate: z.string(), status: z.enum(POUR_STATUSES) })
+    .object({ name: z.string(), level: z.string(), area: units.number(false), plannedStressingDate: z.string() })
     .transform(({ area, ...v }) => ({
       ...v,
       level: v.level.trim() || null,
@@ -33,7 +33,7 @@ export function PourForm({ projectId, us }: { projectId: string; us: boolean }) 
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
   const form = useForm<FormIn, unknown, PourInput>({
     resolver: zodResolver(formSchema(us)),
-    defaultValues: { name: "", level: "", area: "", plannedStressingDate: "", status: "planned" },
+    defaultValues: { name: "", level: "", area: "", plannedStressingDate: "" },
   });
   const errors = form.formState.errors as Record<string, { message?: string } | undefined>;
   const onSubmit = form.handleSubmit(async (values) => {
@@ -60,22 +60,15 @@ export function PourForm({ projectId, us }: { projectId: string; us: boolean }) 
     <form onSubmit={onSubmit} noValidate className="card space-y-4">
       <h2 className="text-lead font-semibold">Add a pour</h2>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
-      <div className="grid gap-4 md:grid-cols-5">
+      <div className="grid gap-4 md:grid-cols-4">
         {input("name", "Name, as drawn")}
         {input("level", "Level")}
         {input("area", `Area, ${us ? "ft²" : "m²"}`, { inputMode: "decimal" })}
         {input("plannedStressingDate", "Planned stressing", { type: "date" })}
-        <div>
-          <label htmlFor="p-status" className="field-label">
-            Status
-          </label>
-          <select id="p-status" className="field-input mt-1" {...form.register("status")}>
-            {POUR_STATUSES.map((s) => (
-              <option key={s}>{s}</option>
-            ))}
-          </select>
-        </div>
       </div>
+      <p className="text-ink-soft">
+        A pour&apos;s status follows from its records (planned, stressing, stressed) and is released only by the release the engineer signs.
+      </p>
       <button className="btn-primary" type="submit" disabled={form.formState.isSubmitting}>
         Add pour
       </button>

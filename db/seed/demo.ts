@@ -263,6 +263,9 @@ export async function seedDemo(db: Kysely<Database>, options: { today?: Date; re
     for (const demoPour of DEMO_POURS) {
       const pour = pours.find((p) => p.name === demoPour.name);
       if (!pour) throw new Error(`demo pour ${demoPour.name} missing after insert`);
+      // A released pour's schedule is in already, and its trigger refuses even a row ON CONFLICT would skip.
+      const state = await trx.selectFrom("pour_states").select("status").where("pour_id", "=", pour.id).executeTakeFirst();
+      if (state?.status === "released") continue;
       await trx
         .insertInto("tendons")
         .values(

@@ -20,6 +20,8 @@ export const PERMISSIONS = {
   "disposition.create": ["engineer"],
   // Which of the two releases a given project is the project's own rule (projects.release_by).
   "pour.release": ["inspector", "engineer"],
+  // Undoing a release is the engineer of record's act alone, with a reason.
+  "pour.reopen": ["engineer"],
   "report.download": ["inspector", "engineer", "admin"],
   // The special inspector signs the pour's stressing report and the day's inspection report.
   "report.sign": ["inspector"],

@@ -4,6 +4,7 @@ import { z } from "zod";
 import { env } from "@/lib/env";
 import { AppError, isAppError, type FieldErrors } from "@/lib/errors";
 import { clientAddress } from "./client-address";
+import { isReleasedPourRefusal, RELEASED_POUR_MESSAGE } from "@/lib/server/require-open-pour";
 
 /**
  * The one wrapper every Tautline route handler goes through.
@@ -48,6 +49,9 @@ export function errorResponse(error: unknown): NextResponse {
       { error: { code: "INVALID_INPUT", message: "Some text holds characters that cannot be stored, or is too long. Nothing was saved." } },
       { status: 422 },
     );
+  }
+  if (isReleasedPourRefusal(error)) {
+    return NextResponse.json({ error: { code: "CONFLICT", message: RELEASED_POUR_MESSAGE } }, { status: 409 });
   }
   console.error("unhandled error in route handler", error);
   return NextResponse.json(

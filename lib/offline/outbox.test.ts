@@ -39,6 +39,32 @@ describe("saveRecord", () => {
     expect(await db.outbox.count()).toBe(1);
   });
 
+  it("refuses, before saving anything, a record for a pour the last sync said is released; saves again once reopened", async () => {
+    const db = freshDb();
+    const { recordId, payload } = samplePayload();
+    const pour = {
+      id: payload.pourId,
+      projectId: payload.projectId,
+      name: "L2 Pour 1",
+      level: null,
+      plannedStressingDate: null,
+      status: "released",
+      release: { by: "P. Raman, P.E.", at: "2026-12-01T15:00:00.000Z", statement: "All tendons accepted." },
+      reopened: null,
+      downloadedAt: "2026-12-01T15:00:00.000Z",
+      cursor: "1",
+    };
+    await db.pours.put(pour);
+    await expect(saveRecord(db, { recordId, payload, authorName: "Test Crew", local: null })).rejects.toThrow(
+      /L2 Pour 1 was released by P\. Raman, P\.E\.: it takes no new record/,
+    );
+    expect(await db.records.count()).toBe(0);
+    expect(await db.outbox.count()).toBe(0);
+    await db.pours.put({ ...pour, status: "stressed", release: null, reopened: { by: "P. Raman, P.E.", at: "2026-12-02T09:00:00.000Z", reason: "Restress U07" } });
+    await saveRecord(db, { recordId, payload, authorName: "Test Crew", local: null });
+    expect(await db.outbox.count()).toBe(1);
+  });
+
   it("makes a correction the next revision naming its base, and refuses to correct a superseded revision", async () => {
     const db = freshDb();
     const first = samplePayload();

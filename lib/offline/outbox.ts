@@ -47,7 +47,13 @@ export async function saveRecord(db: FieldDb, input: SaveInput): Promise<{ recor
     createdAt: now,
     attempts: 0,
   };
-  await db.transaction("rw", [db.records, db.outbox, db.photos], async () => {
+  await db.transaction("rw", [db.records, db.outbox, db.photos, db.pours], async () => {
+    const pour = await db.pours.get(payload.pourId);
+    if (pour?.release) {
+      throw new OutboxWriteError(
+        `${pour.name} was released by ${pour.release.by}: it takes no new record unless the engineer of record reopens it. Nothing was saved.`,
+      );
+    }
     if (payload.baseRecordId) {
       const base = await db.records.get(payload.baseRecordId);
       if (!base) throw new OutboxWriteError("The record being corrected is not on this tablet.");

@@ -1,7 +1,8 @@
 import { z } from "zod";
 import { text } from "./text";
 
-export const POUR_STATUSES = ["planned", "stressing", "released"] as const;
+/** Derived from records and the release (the pour_states view); never set by a form. */
+export const POUR_STATUSES = ["planned", "stressing", "stressed", "released"] as const;
 
 export const pourSchema = z.object({
   name: text().trim().min(1, "Give the pour a name, as on the drawings.").max(80, "Use at most 80 characters."),
@@ -12,7 +13,9 @@ export const pourSchema = z.object({
     .max(100_000, "That area looks too large.")
     .nullable(),
   plannedStressingDate: z.iso.date({ error: "Give the date as YYYY-MM-DD." }).nullable(),
-  status: z.enum(POUR_STATUSES, { error: "Pick planned, stressing or released." }),
+  status: z
+    .never({ error: "A pour's status follows from its records and its release; it cannot be set." })
+    .optional(),
 });
 export type PourInput = z.infer<typeof pourSchema>;
 

@@ -59,8 +59,19 @@ export const releaseParamsSchema = z.object({
   pourId: z.uuid({ error: "Not a pour id." }),
 });
 
+const confirmedStatement = z.literal(true, {
+  error: "Confirm that you have read the statement and that it is your own.",
+});
+
 export const releaseSchema = z.object({
   statement: reasonText("release statement"),
+  confirmed: confirmedStatement,
+});
+
+/** Reopening a released pour: the engineer's reason, read and confirmed like a release. */
+export const reopenSchema = z.object({
+  reason: reasonText("reason for reopening the pour"),
+  confirmed: confirmedStatement,
 });
 
 export const correctionParamsSchema = z.object({

@@ -129,7 +129,12 @@ export interface FieldPour {
   name: string;
   level: string | null;
   plannedStressingDate: string | null;
+  /** Derived on the server: planned, stressing, stressed or released. */
   status: string;
+  /** The standing release: while it is set the pour takes no record. */
+  release: { by: string; at: string; statement: string } | null;
+  /** The last time the engineer reopened a release, with the reason. */
+  reopened: { by: string; at: string; reason: string } | null;
 }
 
 export interface FieldTendon {
@@ -212,11 +217,24 @@ export interface FieldEvaluation {
   createdAt: string;
 }
 
+/** The engineer's decision on a flag, as the crew needs it at the slab edge. */
+export interface FieldDisposition {
+  decision: "accept" | "restress" | "detension_restress" | "liftoff_check" | "replace" | "other";
+  reasons: string;
+  engineerName: string;
+  createdAt: string;
+}
+
 export interface FieldFlag {
   id: string;
   tendonId: string;
   kind: string;
   status: string;
+  /** Why the flag was raised, in words (absent on flags pulled before it was synced). */
+  reason?: string;
+  createdAt?: string;
+  /** Oldest first. */
+  dispositions?: FieldDisposition[];
 }
 
 export interface Tombstone {

@@ -7,6 +7,7 @@ import type { CorrectionInput } from "@/lib/schemas/review";
 import { evaluateTendon, type EvaluationOutcome } from "./evaluate-tendon";
 import { inTransaction } from "./in-transaction";
 import { recordAudit } from "./record-audit";
+import { requireOpenPour } from "./require-open-pour";
 
 /**
  * A paperwork correction found in review: a new revision of the record with the corrected
@@ -24,6 +25,7 @@ export async function correctRecord(
       .where("id", "=", input.recordId)
       .executeTakeFirst();
     if (!base) throw new AppError("NOT_FOUND", "No such record on this project.");
+    await requireOpenPour(trx, { projectId: input.projectId, pourId: base.pour_id });
     const head = await trx
       .selectFrom("records")
       .select(["id", "revision"])

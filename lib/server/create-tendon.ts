@@ -2,6 +2,7 @@ import "server-only";
 import type { Db } from "@/db/connect";
 import { AppError } from "@/lib/errors";
 import type { TendonInput } from "@/lib/schemas/tendon";
+import { requireOpenPour } from "./require-open-pour";
 
 /** Adds one tendon to a pour; the tag must be new in the pour and the lot the project's. */
 export async function createTendon(
@@ -20,6 +21,7 @@ export async function createTendon(
       .forUpdate()
       .executeTakeFirst();
     if (!pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
+    await requireOpenPour(trx, input);
     const clash = await trx
       .selectFrom("tendons")
       .select("id")

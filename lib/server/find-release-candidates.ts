@@ -1,6 +1,6 @@
 import "server-only";
 import type { Kysely } from "kysely";
-import type { Database } from "@/db/types";
+import type { Database, PourStatus } from "@/db/types";
 import { findReleaseBlockers, type ReleaseBlockers } from "./release-pour";
 
 export interface ReleaseCandidate {
@@ -12,8 +12,13 @@ export interface ReleaseCandidate {
   releaseBy: "engineer" | "inspector";
   tendonCount: number;
   blockers: ReleaseBlockers;
+  /** Derived: planned, stressing, stressed or released. */
+  status: PourStatus;
   releasedBy: string | null;
   releasedAt: Date | null;
+  releaseStatement: string | null;
+  /** The last reopening of a release, shown with the pour. */
+  reopened: { by: string; at: Date; reason: string } | null;
 }
 
 /** The pours of the given projects with what still blocks each one's release. */
@@ -22,15 +27,20 @@ export async function findReleaseCandidates(db: Kysely<Database>, projectIds: st
   const pours = await db
     .selectFrom("pours")
     .innerJoin("projects", "projects.id", "pours.project_id")
-    .leftJoin("releases", "releases.pour_id", "pours.id")
+    .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
     .select([
       "pours.id",
       "pours.name",
       "pours.project_id",
       "projects.name as projectName",
       "projects.release_by",
-      "releases.released_by_name",
-      "releases.created_at as releasedAt",
+      "pour_states.status",
+      "pour_states.released_by_name",
+      "pour_states.released_at as releasedAt",
+      "pour_states.release_statement",
+      "pour_states.last_reopened_by_name",
+      "pour_states.last_reopened_at",
+      "pour_states.last_reopen_reason",
       (eb) =>
         eb
           .selectFrom("tendons")
@@ -52,8 +62,14 @@ export async function findReleaseCandidates(db: Kysely<Database>, projectIds: st
       releaseBy: p.release_by,
       tendonCount: Number(p.tendonCount ?? 0),
       blockers: p.released_by_name ? { noSchedule: false, openFlags: [], unstressed: [] } : await findReleaseBlockers(db, { projectId: p.project_id, pourId: p.id }),
+      status: p.status,
       releasedBy: p.released_by_name,
       releasedAt: p.releasedAt,
+      releaseStatement: p.release_statement,
+      reopened:
+        p.last_reopened_by_name && p.last_reopened_at
+          ? { by: p.last_reopened_by_name, at: p.last_reopened_at, reason: p.last_reopen_reason ?? "" }
+          : null,
     })),
   );
 }

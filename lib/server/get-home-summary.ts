@@ -38,6 +38,7 @@ export async function getHomeSummary(
         await db
           .selectFrom("pours")
           .innerJoin("projects", "projects.id", "pours.project_id")
+          .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
           .select([
             "pours.project_id as projectId",
             "projects.name as projectName",
@@ -53,8 +54,8 @@ export async function getHomeSummary(
                 .as("stressed"),
           ])
           .where("pours.project_id", "in", watching)
-          .where("pours.status", "!=", "released")
-          .where((eb) => eb.or([eb("pours.planned_stressing_date", "=", input.today), eb("pours.status", "=", "stressing")]))
+          .where("pour_states.status", "!=", "released")
+          .where((eb) => eb.or([eb("pours.planned_stressing_date", "=", input.today), eb("pour_states.status", "=", "stressing")]))
           .orderBy("projects.name")
           .orderBy("pours.name")
           .execute()

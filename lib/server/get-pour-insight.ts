@@ -62,8 +62,8 @@ export async function getPourInsight(db: Kysely<Database>, input: { projectId: s
       .executeTakeFirst(),
     db
       .selectFrom("pours")
-      .leftJoin("releases", (j) => j.onRef("releases.pour_id", "=", "pours.id").onRef("releases.project_id", "=", "pours.project_id"))
-      .select(["pours.id", "pours.name", "pours.status", "releases.id as releaseId"])
+      .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
+      .select(["pours.id", "pours.name", "pour_states.status", "pour_states.release_id as releaseId"])
       .where("pours.project_id", "=", input.projectId)
       .where("pours.id", "=", input.pourId)
       .executeTakeFirst(),

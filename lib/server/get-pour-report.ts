@@ -110,11 +110,12 @@ export async function getPourReport(
   const pour = await db
     .selectFrom("pours")
     .leftJoin("users", "users.id", "pours.concrete_confirmed_by")
+    .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
     .select([
       "pours.id",
       "pours.name",
       "pours.level",
-      "pours.status",
+      "pour_states.status",
       "pours.planned_stressing_date",
       "pours.concrete_strength_mpa",
       "pours.concrete_confirmed_at",

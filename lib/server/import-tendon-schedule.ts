@@ -3,6 +3,7 @@ import type { Db } from "@/db/connect";
 import { parseTendonSchedule, type ScheduleError } from "@/lib/csv/tendon-schedule";
 import { AppError, type FieldErrors } from "@/lib/errors";
 import { recordAudit } from "./record-audit";
+import { requireOpenPour } from "./require-open-pour";
 
 /** Field key of one schedule error, as the import screen lists them: "line 3 · strands". */
 export function scheduleErrorKey(e: ScheduleError): string {
@@ -27,6 +28,7 @@ export async function importTendonSchedule(
       .forUpdate()
       .executeTakeFirst();
     if (!pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
+    await requireOpenPour(trx, input);
     const existing = await trx
       .selectFrom("tendons")
       .select("tag")

@@ -16,6 +16,7 @@ export async function listFieldPours(
   const rows = await db
     .selectFrom("pours")
     .innerJoin("projects", "projects.id", "pours.project_id")
+    .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
     .leftJoin("tendons", (j) =>
       j.onRef("tendons.pour_id", "=", "pours.id").onRef("tendons.project_id", "=", "pours.project_id"),
     )
@@ -27,11 +28,11 @@ export async function listFieldPours(
       "pours.name",
       "pours.level",
       "pours.planned_stressing_date",
-      "pours.status",
+      "pour_states.status",
       eb.fn.count<number>("tendons.id").as("tendon_count"),
     ])
     .where("pours.project_id", "in", projectIds)
-    .groupBy(["pours.id", "projects.id"])
+    .groupBy(["pours.id", "projects.id", "pour_states.status"])
     .orderBy("projects.name")
     .orderBy("pours.planned_stressing_date", "desc")
     .orderBy("pours.name")

@@ -15,6 +15,7 @@ export interface PourSummary {
 export async function listPours(db: Db, projectId: string): Promise<PourSummary[]> {
   const rows = await db
     .selectFrom("pours")
+    .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
     .leftJoin("tendons", (j) => j.onRef("tendons.pour_id", "=", "pours.id").on("tendons.project_id", "=", projectId))
     .select((eb) => [
       "pours.id",
@@ -22,11 +23,11 @@ export async function listPours(db: Db, projectId: string): Promise<PourSummary[
       "pours.level",
       "pours.area_m2",
       "pours.planned_stressing_date",
-      "pours.status",
+      "pour_states.status",
       eb.fn.count<number>("tendons.id").as("tendon_count"),
     ])
     .where("pours.project_id", "=", projectId)
-    .groupBy("pours.id")
+    .groupBy(["pours.id", "pour_states.status"])
     .orderBy("pours.planned_stressing_date", (o) => o.asc().nullsLast())
     .orderBy("pours.name")
     .execute();

@@ -31,6 +31,7 @@ export function selectTendonBasis(qc: QueryCreator<Database>, input: { projectId
     .innerJoin("pours", (j) =>
       j.onRef("pours.id", "=", "tendons.pour_id").onRef("pours.project_id", "=", "tendons.project_id"),
     )
+    .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
     .leftJoin("strand_lots", (j) =>
       j
         .onRef("strand_lots.id", "=", "tendons.strand_lot_id")
@@ -55,7 +56,7 @@ export function selectTendonBasis(qc: QueryCreator<Database>, input: { projectId
       "pours.id as pourId",
       "pours.name as pourName",
       "pours.concrete_strength_mpa",
-      "pours.status as pourStatus",
+      "pour_states.status as pourStatus",
       "tendons.id as tendonId",
       "tendons.tag",
       "tendons.kind",

@@ -1,6 +1,7 @@
 import "server-only";
 import { projectBasisFromRow } from "@/lib/stressing/basis";
 import { sql, type Kysely, type Transaction } from "kysely";
+import { jsonArrayFrom } from "kysely/helpers/postgres";
 import type { Database } from "@/db/types";
 import type { SessionUser } from "@/lib/auth/session";
 import type { PullResponse } from "@/lib/schemas/sync";
@@ -86,9 +87,35 @@ export async function pullChanges(
             .execute(),
           trx
             .selectFrom("pours")
-            .select(["id", "project_id", "name", "level", "planned_stressing_date", "status"])
-            .where("id", "in", pourIds)
-            .where(since("change_xid", cursor))
+            .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
+            .select([
+              "pours.id",
+              "pours.project_id",
+              "pours.name",
+              "pours.level",
+              "pours.planned_stressing_date",
+              "pour_states.status",
+              "pour_states.released_by_name",
+              "pour_states.released_at",
+              "pour_states.release_statement",
+              "pour_states.last_reopened_by_name",
+              "pour_states.last_reopened_at",
+              "pour_states.last_reopen_reason",
+            ])
+            .where("pours.id", "in", pourIds)
+            // The status follows the records too: a pour whose records changed is sent again.
+            .where((eb) =>
+              eb.or([
+                since("pours.change_xid", cursor),
+                eb.exists(
+                  eb
+                    .selectFrom("records")
+                    .select("records.id")
+                    .whereRef("records.pour_id", "=", "pours.id")
+                    .where(since("records.change_xid", cursor)),
+                ),
+              ]),
+            )
             .execute(),
           trx
             .selectFrom("tendons")
@@ -191,7 +218,22 @@ export async function pullChanges(
             .execute(),
           trx
             .selectFrom("flags")
-            .select(["id", "tendon_id", "kind", "status"])
+            .select((eb) => [
+              "flags.id",
+              "flags.tendon_id",
+              "flags.kind",
+              "flags.status",
+              "flags.reason",
+              "flags.created_at",
+              // The engineer's decisions on the flag; each one updates the flag, so it is sent again.
+              jsonArrayFrom(
+                eb
+                  .selectFrom("dispositions")
+                  .select(["dispositions.decision", "dispositions.reasons", "dispositions.engineer_name", "dispositions.created_at"])
+                  .whereRef("dispositions.flag_id", "=", "flags.id")
+                  .orderBy("dispositions.created_at"),
+              ).as("dispositions"),
+            ])
             .where("project_id", "in", projectIds)
             .where("pour_id", "in", pourIds)
             .where(since("change_xid", cursor))
@@ -226,6 +268,14 @@ export async function pullChanges(
           level: p.level,
           plannedStressingDate: p.planned_stressing_date,
           status: p.status,
+          release:
+            p.released_by_name && p.released_at
+              ? { by: p.released_by_name, at: new Date(p.released_at).toISOString(), statement: p.release_statement ?? "" }
+              : null,
+          reopened:
+            p.last_reopened_by_name && p.last_reopened_at
+              ? { by: p.last_reopened_by_name, at: new Date(p.last_reopened_at).toISOString(), reason: p.last_reopen_reason ?? "" }
+              : null,
         })),
         tendons: tendons.map((t) => ({
           id: t.id,
@@ -300,7 +350,20 @@ export async function pullChanges(
           deviationPct: e.deviation_pct,
           createdAt: new Date(e.created_at).toISOString(),
         })),
-        flags: flags.map((f) => ({ id: f.id, tendonId: f.tendon_id, kind: f.kind, status: f.status })),
+        flags: flags.map((f) => ({
+          id: f.id,
+          tendonId: f.tendon_id,
+          kind: f.kind,
+          status: f.status,
+          reason: f.reason,
+          createdAt: new Date(f.created_at).toISOString(),
+          dispositions: f.dispositions.map((d) => ({
+            decision: d.decision,
+            reasons: d.reasons,
+            engineerName: d.engineer_name,
+            createdAt: new Date(d.created_at).toISOString(),
+          })),
+        })),
         removed: removed.map((r) => ({ table: r.table_name, id: r.row_id })),
         unavailable,
       };

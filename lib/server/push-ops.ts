@@ -19,6 +19,7 @@ import {
   type EvaluatedRecord,
 } from "./evaluate-tendon";
 import { auditInsert, recordAudit } from "./record-audit";
+import { isReleasedPourRefusal, RELEASED_POUR_MESSAGE } from "./require-open-pour";
 
 /**
  * Applies a batch of the tablet's operations. Each operation is one transaction: a single
@@ -397,6 +398,7 @@ async function attemptOp(
     // the tendon (its version) or a record taking this one's id or revision. The read covers each
     // of them, so reading again tells which answer is right.
     if (refusedByGuard(error)) return RETRY;
+    if (isReleasedPourRefusal(error)) return rejected(op, "RELEASED", RELEASED_POUR_MESSAGE, { pourId: ["Released."] });
     const refusal = databaseRefusal(op, error);
     if (refusal) return refusal;
     throw error;

@@ -64,10 +64,10 @@ export async function releasePour(
     const pour = await trx
       .selectFrom("pours")
       .innerJoin("projects", "projects.id", "pours.project_id")
-      .select(["pours.id", "pours.status", "projects.release_by"])
+      .select(["pours.id", "projects.release_by"])
       .where("pours.project_id", "=", input.projectId)
       .where("pours.id", "=", input.pourId)
-      .forUpdate()
+      .forUpdate("pours")
       .executeTakeFirst();
     if (!pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
     if (input.by.role !== pour.release_by) {
@@ -76,7 +76,13 @@ export async function releasePour(
         `On this project the ${pour.release_by === "engineer" ? "engineer of record" : "inspector"} releases pours.`,
       );
     }
-    if (pour.status === "released") throw new AppError("CONFLICT", "This pour is already released.");
+    const state = await trx
+      .selectFrom("pour_states")
+      .select("release_id")
+      .where("project_id", "=", input.projectId)
+      .where("pour_id", "=", input.pourId)
+      .executeTakeFirstOrThrow();
+    if (state.release_id) throw new AppError("CONFLICT", "This pour is already released.");
     const blockers = await findReleaseBlockers(trx, input);
     if (blockers.noSchedule) throw new AppError("CONFLICT", "The pour has no tendon schedule, so there is nothing to release.");
     if (blockers.openFlags.length || blockers.unstressed.length) {
@@ -106,7 +112,8 @@ export async function releasePour(
       .executeTakeFirstOrThrow();
     await trx
       .updateTable("pours")
-      .set({ status: "released", updated_at: new Date() })
+      // Touching the pour sends its new state to the tablets on their next pull.
+      .set({ updated_at: new Date() })
       .where("project_id", "=", input.projectId)
       .where("id", "=", input.pourId)
       .execute();

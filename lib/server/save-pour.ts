@@ -9,7 +9,6 @@ function values(v: PourInput) {
     level: v.level,
     area_m2: v.areaM2,
     planned_stressing_date: v.plannedStressingDate,
-    status: v.status,
   };
 }
 

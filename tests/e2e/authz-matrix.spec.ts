@@ -100,7 +100,7 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
   const CERTIFICATE = Buffer.from("%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n");
   const certificateUpload = { purpose: "mill_certificate", contentType: "application/pdf", sizeBytes: CERTIFICATE.byteLength, originalName: "matrix.pdf" };
   const stamp = () => `${Date.now()}-${counter++}`;
-  const pourBody = (name: string) => ({ name, level: "Matrix", areaM2: null, plannedStressingDate: null, status: "planned" });
+  const pourBody = (name: string) => ({ name, level: "Matrix", areaM2: null, plannedStressingDate: null });
   /** A throwaway pour, so the demo pours keep their schedules. */
   async function throwawayPour(): Promise<string> {
     const res = await contexts.admin.post(`/api/projects/${projectId}/pours`, { data: pourBody(`Matrix pour ${stamp()}`) });
@@ -191,7 +191,7 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     "POST /api/projects/[projectId]/pours": { call: (c) => c.post(`/api/projects/${projectId}/pours`, { data: pourBody(`Matrix pour ${stamp()}`) }) },
     "PATCH /api/projects/[projectId]/pours/[pourId]": {
       fixture: throwawayPour,
-      call: (c, id) => c.patch(`/api/projects/${projectId}/pours/${id}`, { data: { ...pourBody(`Matrix pour ${id}`), status: "stressing" } }),
+      call: (c, id) => c.patch(`/api/projects/${projectId}/pours/${id}`, { data: pourBody(`Matrix pour ${id}`) }),
     },
     "GET /api/projects/[projectId]/pours/[pourId]/tendons": { fixture: demoPourId, call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/tendons`) },
     "POST /api/projects/[projectId]/pours/[pourId]/tendons": {
@@ -275,7 +275,11 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     },
     "POST /api/projects/[projectId]/pours/[pourId]/release": {
       fixture: () => pourIdByName("L3 Pour 1"),
-      call: (c, pourId) => c.post(`/api/projects/${projectId}/pours/${pourId}/release`, { data: { statement: "Matrix check of the release rule." } }),
+      call: (c, pourId) => c.post(`/api/projects/${projectId}/pours/${pourId}/release`, { data: { statement: "Matrix check of the release rule.", confirmed: true } }),
+    },
+    "POST /api/projects/[projectId]/pours/[pourId]/reopen": {
+      fixture: () => pourIdByName("L3 Pour 1"),
+      call: (c, pourId) => c.post(`/api/projects/${projectId}/pours/${pourId}/reopen`, { data: { reason: "Matrix check of the reopen rule.", confirmed: true } }),
     },
     "POST /api/invitations/accept": {
       call: (c) => c.post("/api/invitations/accept", { data: { token: BOGUS_TOKEN, name: "Nobody", password: "a-long-enough-password" } }),

@@ -81,6 +81,8 @@ export const MATRIX: Record<string, Expected> = {
   "POST /api/projects/[projectId]/flags/[flagId]/dispositions": projectAction(404, ["engineer"]),
   "POST /api/projects/[projectId]/records/[recordId]/corrections": projectAction(404, ["inspector"]),
   "POST /api/projects/[projectId]/pours/[pourId]/release": { ...projectAction(409, ["engineer"]), inspector: 403 },
+  // Only the engineer reopens; the pour named is not released, so the engineer gets 409.
+  "POST /api/projects/[projectId]/pours/[pourId]/reopen": projectAction(409, ["engineer"]),
   // Token routes: the token is the authorization, so every caller gets the same answer.
   "POST /api/invitations/accept": everyone(410),
   "POST /api/password-reset": everyone(202),

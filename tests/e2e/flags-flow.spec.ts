@@ -196,7 +196,7 @@ test("an out-of-band tendon is flagged, mailed, reviewed, restressed and only th
   const card = engineer.locator(`[data-pour="${POUR}"]`);
   await expect(card).toContainText("1 with open flags");
   await expect(card).toContainText("Cannot be released yet.");
-  const refused = await (await apiAs(PEOPLE.engineer)).post(`/api/projects/${fx.projectId}/pours/${fx.pourId}/release`, { data: { statement: "Trying too early, should be refused." } });
+  const refused = await (await apiAs(PEOPLE.engineer)).post(`/api/projects/${fx.projectId}/pours/${fx.pourId}/release`, { data: { statement: "Trying too early, should be refused.", confirmed: true } });
   expect(refused.status()).toBe(409);
 
   // 5. The crew restresses; the new record comes back in band and closes the flag.
@@ -209,9 +209,15 @@ test("an out-of-band tendon is flagged, mailed, reviewed, restressed and only th
   await engineer.goto("/decisions");
   await expect(card).toContainText("0 with open flags");
   await card.getByRole("button", { name: `Release ${POUR}` }).click();
+  // The statement must be read and owned before the release is confirmed.
+  await expect(card.getByRole("alertdialog")).toContainText("Tick the box above first");
+  await expect(card.getByRole("button", { name: `Yes, release ${POUR}` })).toBeDisabled();
+  await card.getByRole("checkbox", { name: /it is my own/ }).check();
+  await card.getByRole("button", { name: `Release ${POUR}` }).click();
+  await card.getByRole("button", { name: `Yes, release ${POUR}` }).click();
   await expect(card).toContainText("Released by Priya Raman, P.E.");
   await screenshot(engineer, "decisions-released");
-  const [pour] = await queryDemo<{ status: string }>("select status from pours where id = $1", [fx.pourId]);
+  const [pour] = await queryDemo<{ status: string }>("select status from pour_states where pour_id = $1", [fx.pourId]);
   expect(pour!.status).toBe("released");
   await engineerCtx.close();
   await crew.dispose();

@@ -127,7 +127,7 @@ describe("from flag to release", () => {
       statement: "All tendons stressed and accepted; tails may be cut.",
     });
     expect(release.releaseId).toBeTruthy();
-    const pour = await t.db.selectFrom("pours").select("status").where("id", "=", pourId).executeTakeFirstOrThrow();
+    const pour = await t.db.selectFrom("pour_states").select("status").where("pour_id", "=", pourId).executeTakeFirstOrThrow();
     expect(pour.status).toBe("released");
   });
 

@@ -53,7 +53,12 @@ describe("demo seed", () => {
     await seedDemo(t.db, { records: true });
     expect(await count()).toBe(records);
 
-    const pours = await t.db.selectFrom("pours").select(["name", "status"]).orderBy("name").execute();
+    const pours = await t.db
+      .selectFrom("pours")
+      .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
+      .select(["pours.name", "pour_states.status"])
+      .orderBy("pours.name")
+      .execute();
     expect(pours.find((p) => p.name === "L2 Pour 1")?.status).toBe("released");
     const flags = await t.db
       .selectFrom("flags")

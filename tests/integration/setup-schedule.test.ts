@@ -27,7 +27,7 @@ beforeAll(async () => {
   ayp = (await t.db.selectFrom("projects").select("id").where("code", "=", "AYP").executeTakeFirstOrThrow()).id;
   qhm = (await t.db.selectFrom("projects").select("id").where("code", "=", "QHM").executeTakeFirstOrThrow()).id;
   adminId = (await t.db.selectFrom("users").select("id").where("email", "=", "admin@demo.tautline.test").executeTakeFirstOrThrow()).id;
-  pourId = (await savePour(t.db, { projectId: ayp, values: { name: "L4 Pour 1", level: "Level 4", areaM2: 1500, plannedStressingDate: "2027-01-12", status: "planned" } })).pourId;
+  pourId = (await savePour(t.db, { projectId: ayp, values: { name: "L4 Pour 1", level: "Level 4", areaM2: 1500, plannedStressingDate: "2027-01-12" } })).pourId;
 });
 afterAll(async () => {
   await t.drop();

@@ -30,7 +30,7 @@ export default async function DecisionsPage() {
         <h2 id="release-heading" className="text-lead font-bold">
           Pours and their release
         </h2>
-        <ReleaseList pours={pours} canRelease={(pour) => pour.releaseBy === "engineer"} />
+        <ReleaseList pours={pours} canRelease={(pour) => pour.releaseBy === "engineer"} canReopen={() => true} />
       </section>
       <Caution />
     </main>

@@ -1,0 +1,65 @@
+import { flagLabel } from "@/components/ui/verdict-badge";
+import { holdsOf } from "@/lib/offline/hold-view";
+import type { FieldFlag } from "@/lib/schemas/sync";
+
+/**
+ * Above the verdict: why the tendon is held and what to do, in words, from the flags and the
+ * engineer's decisions of the last sync. A tendon the tablet's own check finds out of band, with
+ * no flag from the server yet, is held too.
+ */
+export function HoldPanel({ flags, heldOnTablet }: { flags: FieldFlag[]; heldOnTablet: boolean }) {
+  const holds = holdsOf(flags);
+  if (!holds.length && !heldOnTablet) return null;
+  return (
+    <section
+      aria-label="Held"
+      className="grid gap-3 rounded-md border-4 border-signal-stop bg-signal-stop-bg p-4 text-ink"
+      data-testid="hold-panel"
+    >
+      <h3 className="flex items-center gap-2 text-lead font-bold text-signal-stop">
+        <svg viewBox="0 0 24 24" className="h-7 w-7 shrink-0" aria-hidden="true">
+          <path
+            d="M6 3v18M6 4h11l-3 4 3 4H6"
+            fill="none"
+            stroke="currentColor"
+            strokeWidth="3"
+            strokeLinecap="round"
+            strokeLinejoin="round"
+          />
+        </svg>
+        Held: do not cut tails
+      </h3>
+      {!holds.length && (
+        <p className="font-semibold">
+          This tablet&apos;s own check puts the tendon out of band. The server judges it when the record is sent; wait
+          for its verdict and the engineer&apos;s decision.
+        </p>
+      )}
+      <ul className="grid gap-3">
+        {holds.map((h) => (
+          <li
+            key={h.flagId}
+            className="grid gap-1 rounded-md border-2 border-signal-stop bg-white p-3"
+            data-testid="hold"
+            data-kind={h.kind}
+          >
+            <p className="font-bold">
+              {flagLabel(h.kind)}
+              {h.status === "with_engineer" ? " · with the engineer" : ""}
+            </p>
+            <p data-testid="hold-why">{h.reason ?? "The reason arrives with the next sync."}</p>
+            {h.decision && (
+              <p data-testid="hold-instruction">
+                <strong>Engineer&apos;s instruction</strong> ({h.decision.engineerName},{" "}
+                {new Date(h.decision.createdAt).toLocaleDateString("en-CA")}): {h.decision.reasons}
+              </p>
+            )}
+            <p className="font-bold" data-testid="hold-todo">
+              What to do: {h.todo}
+            </p>
+          </li>
+        ))}
+      </ul>
+    </section>
+  );
+}

@@ -1,0 +1,81 @@
+import { describe, expect, it } from "vitest";
+import type { FieldFlag } from "@/lib/schemas/sync";
+import { holdsOf, holdSummary, WAITING_TODO } from "./hold-view";
+
+const flag = (over: Partial<FieldFlag>): FieldFlag => ({
+  id: crypto.randomUUID(),
+  tendonId: "t1",
+  kind: "out_of_band",
+  status: "open",
+  reason: "Measured 14.4 % long against the prediction.",
+  createdAt: "2026-12-02T15:00:00.000Z",
+  dispositions: [],
+  ...over,
+});
+
+describe("holdsOf", () => {
+  it("keeps only open flags, oldest first, each with why and what to do", () => {
+    const holds = holdsOf([
+      flag({ kind: "wire_break", createdAt: "2026-12-02T16:00:00.000Z", reason: "One wire broke at end B." }),
+      flag({ status: "closed", kind: "calibration_expired" }),
+      flag({}),
+    ]);
+    expect(holds.map((h) => h.kind)).toEqual(["out_of_band", "wire_break"]);
+    expect(holds[0]).toMatchObject({
+      reason: "Measured 14.4 % long against the prediction.",
+      decision: null,
+      todo: WAITING_TODO,
+    });
+  });
+
+  it("says what the engineer's latest disposition asks for", () => {
+    const [hold] = holdsOf([
+      flag({
+        status: "with_engineer",
+        dispositions: [
+          {
+            decision: "liftoff_check",
+            reasons: "Check first.",
+            engineerName: "P. Raman",
+            createdAt: "2026-12-02T16:00:00.000Z",
+          },
+          {
+            decision: "restress",
+            reasons: "Restress to 3,350 psi.",
+            engineerName: "P. Raman",
+            createdAt: "2026-12-02T17:00:00.000Z",
+          },
+        ],
+      }),
+    ]);
+    expect(hold!.decision).toMatchObject({ decision: "restress", reasons: "Restress to 3,350 psi." });
+    expect(hold!.todo).toMatch(/Restress this tendon/);
+  });
+
+  it("works on flags pulled before reasons were synced", () => {
+    const old: FieldFlag = { id: "f", tendonId: "t1", kind: "out_of_band", status: "open" };
+    expect(holdsOf([old])).toEqual([
+      { flagId: "f", kind: "out_of_band", status: "open", reason: null, decision: null, todo: WAITING_TODO },
+    ]);
+  });
+});
+
+describe("holdSummary", () => {
+  it("names the ordered work first, then who the tendon waits on, and nothing for a clear tendon", () => {
+    expect(holdSummary([])).toBeNull();
+    expect(holdSummary(holdsOf([flag({})]))).toBe("waiting for the engineer");
+    expect(holdSummary(holdsOf([flag({ status: "with_engineer" })]))).toBe("with the engineer");
+    const ordered = flag({
+      status: "with_engineer",
+      dispositions: [
+        {
+          decision: "detension_restress",
+          reasons: "Slip at the wedges.",
+          engineerName: "P. Raman",
+          createdAt: "2026-12-02T17:00:00.000Z",
+        },
+      ],
+    });
+    expect(holdSummary(holdsOf([flag({}), ordered]))).toBe("detension and restress ordered");
+  });
+});

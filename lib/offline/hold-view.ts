@@ -1,0 +1,69 @@
+import type { FieldDisposition, FieldFlag } from "@/lib/schemas/sync";
+
+/**
+ * Why a tendon is held and what the crew is to do, in words, from the flags and the engineer's
+ * dispositions the tablet pulled. Pure, so the list, the tendon panel and the tests agree.
+ */
+
+export type Decision = FieldDisposition["decision"];
+
+/** What each disposition that orders work asks of the crew. Accept closes the flag. */
+export const DECISION_TODO: Record<Decision, string> = {
+  accept: "Accepted by the engineer of record.",
+  restress: "Restress this tendon as the engineer instructs, then log it with “Record a restress”.",
+  detension_restress: "Detension this tendon, restress it as the engineer instructs, then log the restress.",
+  liftoff_check: "Do a lift-off check as the engineer instructs and report the lift-off gauge pressure.",
+  replace: "Do not stress again or cut tails: the engineer orders this tendon replaced.",
+  other: "Follow the engineer's instruction below.",
+};
+
+export const DECISION_WORDS: Record<Decision, string> = {
+  accept: "accepted",
+  restress: "restress ordered",
+  detension_restress: "detension and restress ordered",
+  liftoff_check: "lift-off check ordered",
+  replace: "replacement ordered",
+  other: "instruction from the engineer",
+};
+
+export const WAITING_TODO = "Wait for the engineer of record's decision. Do not cut tails.";
+
+export interface Hold {
+  flagId: string;
+  kind: string;
+  status: string;
+  /** Why the flag was raised; null when the tablet pulled it before reasons were synced. */
+  reason: string | null;
+  /** The engineer's latest decision on it, or null while none is recorded. */
+  decision: FieldDisposition | null;
+  /** What to do now, in words. */
+  todo: string;
+}
+
+export const isOpen = (f: Pick<FieldFlag, "status">) => f.status !== "closed";
+
+/** The open flags of a tendon as holds, oldest first. */
+export function holdsOf(flags: FieldFlag[]): Hold[] {
+  return flags
+    .filter(isOpen)
+    .sort((a, b) => (a.createdAt ?? "").localeCompare(b.createdAt ?? ""))
+    .map((f) => {
+      const decision = f.dispositions?.at(-1) ?? null;
+      return {
+        flagId: f.id,
+        kind: f.kind,
+        status: f.status,
+        reason: f.reason ?? null,
+        decision,
+        todo: decision ? DECISION_TODO[decision.decision] : WAITING_TODO,
+      };
+    });
+}
+
+/** One line for the tendon list: what holds the tendon, e.g. "restress ordered" or "waiting for the engineer". */
+export function holdSummary(holds: Hold[]): string | null {
+  if (!holds.length) return null;
+  const ordered = holds.find((h) => h.decision && h.decision.decision !== "accept");
+  if (ordered?.decision) return DECISION_WORDS[ordered.decision.decision];
+  return holds.some((h) => h.status === "with_engineer") ? "with the engineer" : "waiting for the engineer";
+}

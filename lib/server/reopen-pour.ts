@@ -1,0 +1,64 @@
+import "server-only";
+import type { Kysely } from "kysely";
+import type { Database, Role } from "@/db/types";
+import { AppError } from "@/lib/errors";
+import { inTransaction } from "./in-transaction";
+import { recordAudit } from "./record-audit";
+
+/**
+ * Reopens a released pour: the engineer of record's act, with a reason, written beside the
+ * release it undoes (both append-only) and audited. The pour then takes records and tendons
+ * again and may be released anew.
+ */
+export async function reopenPour(
+  db: Kysely<Database>,
+  input: { projectId: string; pourId: string; by: { id: string; name: string; role: Role }; reason: string },
+): Promise<{ reopeningId: string }> {
+  if (input.by.role !== "engineer")
+    throw new AppError("FORBIDDEN", "Only the engineer of record reopens a released pour.");
+  return inTransaction(db, async (trx) => {
+    const pour = await trx
+      .selectFrom("pours")
+      .select("id")
+      .where("project_id", "=", input.projectId)
+      .where("id", "=", input.pourId)
+      .forUpdate()
+      .executeTakeFirst();
+    if (!pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
+    const state = await trx
+      .selectFrom("pour_states")
+      .select("release_id")
+      .where("project_id", "=", input.projectId)
+      .where("pour_id", "=", input.pourId)
+      .executeTakeFirstOrThrow();
+    if (!state.release_id) throw new AppError("CONFLICT", "This pour is not released, so there is nothing to reopen.");
+    const row = await trx
+      .insertInto("pour_reopenings")
+      .values({
+        project_id: input.projectId,
+        pour_id: input.pourId,
+        release_id: state.release_id,
+        reopened_by: input.by.id,
+        reopened_by_name: input.by.name,
+        reason: input.reason,
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    // Touching the pour sends its new state to the tablets on their next pull.
+    await trx
+      .updateTable("pours")
+      .set({ updated_at: new Date() })
+      .where("project_id", "=", input.projectId)
+      .where("id", "=", input.pourId)
+      .execute();
+    await recordAudit(trx, {
+      action: "pour.reopen",
+      outcome: "success",
+      actorUserId: input.by.id,
+      projectId: input.projectId,
+      target: input.pourId,
+      detail: { releaseId: state.release_id, reason: input.reason },
+    });
+    return { reopeningId: row.id };
+  });
+}

@@ -1,0 +1,149 @@
+import type { APIRequestContext } from "@playwright/test";
+import { randomUUID } from "node:crypto";
+import { uuidv7 } from "uuidv7";
+import { pressureForForce } from "@/lib/elongation";
+import { predictTendon, type ProjectBasis, type TendonBasis } from "@/lib/stressing/basis";
+import { formatLength, parseLength, parsePressure } from "@/lib/units";
+import { PEOPLE, queryDemo } from "./people";
+
+const PSI_PER_MPA = 145.03773773;
+
+/** A pour of the demo project made for one spec, with one-end tendons copied from the demo schedule. */
+export interface PourFixture {
+  projectId: string;
+  pourId: string;
+  pourName: string;
+  tendons: { id: string; tag: string }[];
+  crewId: string;
+  setId: string;
+  calibrationId: string;
+  line: { slope: number; intercept: number };
+  project: ProjectBasis;
+  tendon: TendonBasis;
+  lot: { areaMm2: number; modulusMPa: number; breakingLoadN: number } | null;
+}
+
+export async function makePourFixture(pourName: string, tags: string[]): Promise<PourFixture> {
+  const [p] = await queryDemo<Record<string, unknown>>("select * from projects where code = 'AYP'");
+  const [template] = await queryDemo<Record<string, unknown>>(
+    "select * from tendons where project_id = $1 and ends = 'A' order by tag limit 1",
+    [p!.id],
+  );
+  const [pour] = await queryDemo<{ id: string }>(
+    "insert into pours (project_id, name, level, concrete_strength_mpa, concrete_confirmed_at, planned_stressing_date) values ($1, $2, 'Level 2', 25, now(), current_date) returning id",
+    [p!.id, pourName],
+  );
+  const tendons: { id: string; tag: string }[] = [];
+  for (const tag of tags) {
+    const [row] = await queryDemo<{ id: string }>(
+      `insert into tendons (project_id, pour_id, tag, kind, strand_size, strand_count, segments, ends, jack_grip_mm, strand_lot_id)
+       values ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10) returning id`,
+      [
+        p!.id,
+        pour!.id,
+        tag,
+        template!.kind,
+        template!.strand_size,
+        template!.strand_count,
+        JSON.stringify(template!.segments),
+        template!.ends,
+        template!.jack_grip_mm,
+        template!.strand_lot_id,
+      ],
+    );
+    tendons.push({ id: row!.id, tag });
+  }
+  const [lot] = await queryDemo<{ area_mm2: number; modulus_mpa: number; breaking_load_n: number }>(
+    "select * from strand_lots where id = $1",
+    [template!.strand_lot_id],
+  );
+  const [set] = await queryDemo<{ id: string; calibration_id: string; slope_n_per_mpa: number; intercept_n: number }>(
+    `select s.id, c.id as calibration_id, c.slope_n_per_mpa, c.intercept_n from equipment_sets s join calibrations c on c.equipment_set_id = s.id
+     where s.project_id = $1 order by s.name limit 1`,
+    [p!.id],
+  );
+  const [crew] = await queryDemo<{ id: string }>("select id from users where email = $1", [PEOPLE.crew]);
+  return {
+    projectId: p!.id as string,
+    pourId: pour!.id,
+    pourName,
+    tendons,
+    crewId: crew!.id,
+    setId: set!.id,
+    calibrationId: set!.calibration_id,
+    line: { slope: set!.slope_n_per_mpa, intercept: set!.intercept_n },
+    project: {
+      tolerancePct: p!.tolerance_pct as number,
+      shortTendonFloorMm: p!.short_tendon_floor_mm as number | null,
+      comparisonBasis: p!.comparison_basis as "gross" | "net",
+      countJackGrip: p!.count_jack_grip as boolean,
+      frictionMu: p!.friction_mu as number,
+      wobblePerM: p!.wobble_per_m as number,
+      anchorSetMm: p!.anchor_set_mm as number,
+    },
+    tendon: {
+      strandSize: template!.strand_size as string,
+      strandCount: template!.strand_count as number,
+      segments: template!.segments as TendonBasis["segments"],
+      ends: template!.ends as TendonBasis["ends"],
+      jackGripMm: template!.jack_grip_mm as number | null,
+    },
+    lot: lot ? { areaMm2: lot.area_mm2, modulusMPa: lot.modulus_mpa, breakingLoadN: lot.breaking_load_n } : null,
+  };
+}
+
+/**
+ * Pushes one record of end A, typed as the crew would type it (pressure to the gauge mark,
+ * marks to 1/8 in), through the tablet's sync route; answers the op's result.
+ */
+/** What the crew types for a reading `factor` times the prediction: pressure to the mark, marks from 2 in. */
+export function typedReading(fx: PourFixture, factor: number): { psi: string; before: string; after: string } {
+  const predicted = predictTendon({ project: fx.project, tendon: fx.tendon, lot: fx.lot });
+  const psi = String(Math.floor((pressureForForce(fx.line, predicted.jackingForceN) * PSI_PER_MPA) / 50) * 50);
+  const after = formatLength(2 * 25.4 + predicted.predictedMm * factor, "1/8 in").replace(/ in$/, "");
+  return { psi, before: "2", after };
+}
+
+export async function pushEndA(crew: APIRequestContext, fx: PourFixture, tendonId: string, factor: number) {
+  const { psi, after } = typedReading(fx, factor);
+  const measuredMm =
+    parseLength(after, { field: "marksAfter", system: "US", defaultUnit: "in" }) -
+    parseLength("2", { field: "marksBefore", system: "US", defaultUnit: "in" });
+  const id = uuidv7();
+  const payload = {
+    projectId: fx.projectId,
+    pourId: fx.pourId,
+    tendonId,
+    tendonEnd: "A",
+    chainId: id,
+    revision: 1,
+    baseRecordId: null,
+    revisionReason: null,
+    equipmentSetId: fx.setId,
+    calibrationId: fx.calibrationId,
+    expiredCalibrationReason: null,
+    initialPressureMPa: null,
+    finalPressureMPa: parsePressure(psi, { field: "finalPressure", system: "SI", defaultUnit: "psi" }),
+    readingMethod: "marks",
+    entered: {
+      units: { length: "in", pressure: "psi" },
+      initialPressure: null,
+      finalPressure: psi,
+      marks: { before: "2", after },
+      strokes: null,
+      seating: null,
+    },
+    measuredMm,
+    seatingMm: null,
+    wireBreaks: 0,
+    remarks: null,
+    deviceTime: new Date().toISOString(),
+    deviceTimeZone: "America/Chicago",
+    authorUserId: fx.crewId,
+  };
+  const res = await crew.post("/api/sync/push", {
+    data: { deviceId: "release-check-tablet", ops: [{ opId: randomUUID(), kind: "create", recordId: id, payload }] },
+  });
+  const body = (await res.json()) as { results: { status: string; error?: { code: string; message: string } }[] };
+  return { httpStatus: res.status(), result: body.results[0]! };
+}

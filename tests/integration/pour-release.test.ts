@@ -1,0 +1,389 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { createDb, type Db } from "@/db/connect";
+import { pourSchema } from "@/lib/schemas/pour";
+import { releaseSchema, reopenSchema } from "@/lib/schemas/review";
+import { correctRecord } from "@/lib/server/correct-record";
+import { createTendon } from "@/lib/server/create-tendon";
+import { findReleaseCandidates } from "@/lib/server/find-release-candidates";
+import { importTendonSchedule } from "@/lib/server/import-tendon-schedule";
+import { pullChanges } from "@/lib/server/pull-changes";
+import { pushOps } from "@/lib/server/push-ops";
+import { recordDisposition } from "@/lib/server/record-disposition";
+import { releasePour } from "@/lib/server/release-pour";
+import { reopenPour } from "@/lib/server/reopen-pour";
+import { createTestDatabase, type TestDatabase } from "../support/database";
+import { buildWorld, createOp, type SyncWorld } from "./sync-fixtures";
+
+let t: TestDatabase;
+let w: SyncWorld;
+let app: Db;
+let pourId: string;
+let tendonIds: string[];
+let people: Record<"admin" | "inspector" | "engineer", { id: string; name: string }>;
+const DEVICE = "tablet-release-01";
+
+const stateOf = async () =>
+  t.db.selectFrom("pour_states").selectAll().where("pour_id", "=", pourId).executeTakeFirstOrThrow();
+const recordCount = async () =>
+  Number(
+    (
+      await t.db
+        .selectFrom("records")
+        .select((eb) => eb.fn.countAll<number>().as("n"))
+        .where("pour_id", "=", pourId)
+        .executeTakeFirstOrThrow()
+    ).n,
+  );
+const inBandOp = async (tendonId: string) =>
+  createOp(w, tendonId, { marksAfter: await w.inBandAfter(tendonId) }, { pourId });
+/** The crew member as the pull sees a session: their project memberships. */
+const crewSession = () =>
+  ({
+    memberships: w.crew.memberships.map((m) => ({ ...m, projectName: "", projectCode: "" })),
+  }) as unknown as Parameters<typeof pullChanges>[1]["user"];
+const engineer = () => ({ ...people.engineer, role: "engineer" as const });
+
+beforeAll(async () => {
+  t = await createTestDatabase({ migrate: true });
+  w = await buildWorld(t.db);
+  app = createDb(t.url, 3, { prepare: true });
+  // A pour of our own with two one-end tendons copied from the demo schedule, its concrete confirmed.
+  const demoPour = await t.db
+    .selectFrom("pours")
+    .select(["concrete_strength_mpa"])
+    .where("id", "=", w.pourId)
+    .executeTakeFirstOrThrow();
+  const pour = await t.db
+    .insertInto("pours")
+    .values({
+      project_id: w.projectId,
+      name: "Release test pour",
+      concrete_strength_mpa: demoPour.concrete_strength_mpa,
+    })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  pourId = pour.id;
+  const oneEnd = w.tendons.filter((x) => x.ends === "A").slice(0, 2);
+  tendonIds = [];
+  for (const [i, source] of oneEnd.entries()) {
+    const s = await t.db.selectFrom("tendons").selectAll().where("id", "=", source.id).executeTakeFirstOrThrow();
+    const row = await t.db
+      .insertInto("tendons")
+      .values({
+        project_id: s.project_id,
+        pour_id: pourId,
+        tag: `RT-${i + 1}`,
+        kind: s.kind,
+        strand_size: s.strand_size,
+        strand_count: s.strand_count,
+        segments: JSON.stringify(s.segments),
+        ends: s.ends,
+        jack_grip_mm: s.jack_grip_mm,
+        strand_lot_id: s.strand_lot_id,
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    tendonIds.push(row.id);
+  }
+  const user = (email: string) =>
+    t.db.selectFrom("users").select(["id", "name"]).where("email", "=", email).executeTakeFirstOrThrow();
+  people = {
+    admin: await user("admin@demo.tautline.test"),
+    inspector: await user("inspector@demo.tautline.test"),
+    engineer: await user("engineer@demo.tautline.test"),
+  };
+});
+afterAll(async () => {
+  await app.destroy();
+  await t.drop();
+});
+
+describe("a pour's status follows from its records and its release", () => {
+  it("is planned, then stressing, then stressed, and the pour form cannot set it", async () => {
+    expect((await stateOf()).status).toBe("planned");
+    const first = await pushOps(app, { user: w.crew, deviceId: DEVICE, ops: [await inBandOp(tendonIds[0]!)] });
+    expect(first.results[0]).toMatchObject({ status: "applied", evaluation: { verdict: "in band", flagKinds: [] } });
+    expect((await stateOf()).status).toBe("stressing");
+    const second = await pushOps(app, { user: w.crew, deviceId: DEVICE, ops: [await inBandOp(tendonIds[1]!)] });
+    expect(second.results[0]).toMatchObject({ status: "applied", evaluation: { flagKinds: [] } });
+    expect((await stateOf()).status).toBe("stressed");
+
+    const set = pourSchema.safeParse({
+      name: "X",
+      level: null,
+      areaM2: null,
+      plannedStressingDate: null,
+      status: "released",
+    });
+    expect(set.success).toBe(false);
+    expect(set.error?.issues[0]).toMatchObject({
+      path: ["status"],
+      message: expect.stringMatching(/follows from its records/),
+    });
+    expect(pourSchema.safeParse({ name: "X", level: null, areaM2: null, plannedStressingDate: null }).success).toBe(
+      true,
+    );
+  });
+});
+
+describe("release", () => {
+  it("is refused to an admin, the inspector (on an engineer-released project) and the crew; the statement must be confirmed", async () => {
+    for (const role of ["admin", "inspector"] as const) {
+      await expect(
+        releasePour(t.db, {
+          projectId: w.projectId,
+          pourId,
+          by: { ...people[role], role },
+          statement: "Trying to release it.",
+        }),
+      ).rejects.toMatchObject({ code: "FORBIDDEN" });
+    }
+    await expect(
+      releasePour(t.db, {
+        projectId: w.projectId,
+        pourId,
+        by: { id: w.crew.id, name: "Crew", role: "crew" },
+        statement: "Crew release.",
+      }),
+    ).rejects.toMatchObject({ code: "FORBIDDEN" });
+    expect((await stateOf()).status).toBe("stressed");
+    const unconfirmed = releaseSchema.safeParse({ statement: "All tendons accepted; tails may be cut." });
+    expect(unconfirmed.error?.issues.map((i) => i.path.join("."))).toEqual(["confirmed"]);
+    expect(
+      releaseSchema.safeParse({ statement: "All tendons accepted; tails may be cut.", confirmed: false }).success,
+    ).toBe(false);
+  });
+
+  it("by the engineer freezes the pour: the push answers rejected, and no tendon or correction is taken", async () => {
+    const cursorBefore = (await pullChanges(t.db, { user: crewSession(), cursor: "0", pourIds: [pourId] })).cursor;
+    await releasePour(t.db, {
+      projectId: w.projectId,
+      pourId,
+      by: engineer(),
+      statement: "Both tendons in band; tails may be cut.",
+    });
+    const state = await stateOf();
+    expect(state).toMatchObject({ status: "released", released_by_name: people.engineer.name });
+    await expect(
+      releasePour(t.db, {
+        projectId: w.projectId,
+        pourId,
+        by: engineer(),
+        statement: "A second release of the same pour.",
+      }),
+    ).rejects.toMatchObject({ code: "CONFLICT" });
+
+    // The tablet learns of the release on its next pull, though no record changed.
+    const pulled = await pullChanges(t.db, { user: crewSession(), cursor: cursorBefore, pourIds: [pourId] });
+    expect(pulled.pours).toEqual([
+      expect.objectContaining({
+        id: pourId,
+        status: "released",
+        release: expect.objectContaining({ by: people.engineer.name }),
+        reopened: null,
+      }),
+    ]);
+
+    const before = await recordCount();
+    const pushed = await pushOps(app, { user: w.crew, deviceId: DEVICE, ops: [await inBandOp(tendonIds[0]!)] });
+    expect(pushed.results[0]).toMatchObject({
+      status: "rejected",
+      error: {
+        code: "RELEASED",
+        message: expect.stringMatching(
+          /released: it takes no new record or tendon unless the engineer of record reopens it/,
+        ),
+      },
+    });
+    expect(await recordCount()).toBe(before);
+    const claims = await t.db.selectFrom("applied_ops").select("op_id").where("device_id", "=", DEVICE).execute();
+    expect(claims).toHaveLength(2);
+
+    const template = await t.db
+      .selectFrom("tendons")
+      .selectAll()
+      .where("id", "=", tendonIds[0]!)
+      .executeTakeFirstOrThrow();
+    await expect(
+      createTendon(t.db, {
+        projectId: w.projectId,
+        pourId,
+        values: {
+          tag: "RT-3",
+          kind: template.kind,
+          strandSize: template.strand_size,
+          strandCount: template.strand_count,
+          segments: template.segments,
+          ends: template.ends,
+          jackGripMm: null,
+          shopElongationMm: null,
+          strandLotId: null,
+        } as Parameters<typeof createTendon>[1]["values"],
+      }),
+    ).rejects.toMatchObject({ code: "CONFLICT", message: expect.stringMatching(/released/) });
+    await expect(
+      importTendonSchedule(t.db, { projectId: w.projectId, pourId, csv: "tag\nRT-9\n", by: people.admin.id }),
+    ).rejects.toMatchObject({ code: "CONFLICT" });
+    const record = await t.db
+      .selectFrom("records")
+      .select("id")
+      .where("pour_id", "=", pourId)
+      .executeTakeFirstOrThrow();
+    await expect(
+      correctRecord(t.db, {
+        projectId: w.projectId,
+        recordId: record.id,
+        by: { id: people.inspector.id },
+        correction: { reason: "Copied from the wrong line.", measuredMm: 200 },
+      }),
+    ).rejects.toMatchObject({ code: "CONFLICT" });
+    expect(await recordCount()).toBe(before);
+    expect(await t.db.selectFrom("tendons").select("id").where("pour_id", "=", pourId).execute()).toHaveLength(2);
+  });
+
+  it("is also enforced by the database, whatever path a write comes by", async () => {
+    const source = await t.db.selectFrom("records").selectAll().where("pour_id", "=", pourId).executeTakeFirstOrThrow();
+    await expect(
+      t.db
+        .insertInto("records")
+        .values({
+          ...source,
+          id: crypto.randomUUID(),
+          chain_id: crypto.randomUUID(),
+          entered: JSON.stringify(source.entered),
+          change_xid: undefined,
+        } as never)
+        .execute(),
+    ).rejects.toMatchObject({ code: "TL423" });
+    await expect(
+      t.db.updateTable("tendons").set({ tag: "RT-1b" }).where("id", "=", tendonIds[0]!).execute(),
+    ).rejects.toMatchObject({ code: "TL423" });
+  });
+});
+
+describe("reopen", () => {
+  it("is the engineer's alone, needs a confirmed reason, and is refused on a pour that is not released", async () => {
+    for (const role of ["admin", "inspector"] as const) {
+      await expect(
+        reopenPour(t.db, {
+          projectId: w.projectId,
+          pourId,
+          by: { ...people[role], role },
+          reason: "Reopen by the wrong person.",
+        }),
+      ).rejects.toMatchObject({ code: "FORBIDDEN" });
+    }
+    expect(reopenSchema.safeParse({ reason: "short", confirmed: true }).success).toBe(false);
+    expect(reopenSchema.safeParse({ reason: "Lift-off check ordered on RT-1.", confirmed: false }).success).toBe(false);
+    const other = await t.db.selectFrom("pours").select("id").where("name", "=", "L3 Pour 1").executeTakeFirstOrThrow();
+    await expect(
+      reopenPour(t.db, { projectId: w.projectId, pourId: other.id, by: engineer(), reason: "Nothing to reopen here." }),
+    ).rejects.toMatchObject({ code: "CONFLICT" });
+  });
+
+  it("lets records in again, is audited and shown with the pour, and the pour can be released anew", async () => {
+    const cursorBefore = (await pullChanges(t.db, { user: crewSession(), cursor: "0", pourIds: [pourId] })).cursor;
+    await reopenPour(t.db, {
+      projectId: w.projectId,
+      pourId,
+      by: engineer(),
+      reason: "Lift-off check ordered on RT-1 after the site visit.",
+    });
+    const state = await stateOf();
+    expect(state).toMatchObject({ status: "stressed", release_id: null, last_reopened_by_name: people.engineer.name });
+    const audit = await t.db
+      .selectFrom("audit_events")
+      .select(["action", "outcome", "detail"])
+      .where("action", "=", "pour.reopen")
+      .where("target", "=", pourId)
+      .execute();
+    expect(audit).toEqual([
+      expect.objectContaining({
+        outcome: "success",
+        detail: expect.objectContaining({ reason: expect.stringMatching(/Lift-off/) }),
+      }),
+    ]);
+    await expect(t.db.deleteFrom("pour_reopenings").where("pour_id", "=", pourId).execute()).rejects.toThrow(
+      /append-only/,
+    );
+
+    const pulled = await pullChanges(t.db, { user: crewSession(), cursor: cursorBefore, pourIds: [pourId] });
+    expect(pulled.pours[0]).toMatchObject({
+      status: "stressed",
+      release: null,
+      reopened: { by: people.engineer.name, reason: expect.stringMatching(/Lift-off/) },
+    });
+
+    // The paperwork correction refused while the pour stood released is taken now.
+    const record = await t.db
+      .selectFrom("records")
+      .select(["id", "measured_mm"])
+      .where("tendon_id", "=", tendonIds[0]!)
+      .executeTakeFirstOrThrow();
+    const corrected = await correctRecord(t.db, {
+      projectId: w.projectId,
+      recordId: record.id,
+      by: { id: people.inspector.id },
+      correction: { reason: "Copied from the wrong line.", measuredMm: record.measured_mm + 1 },
+    });
+    expect(corrected.evaluation).toMatchObject({ verdict: "in band" });
+
+    const [candidate] = (await findReleaseCandidates(t.db, [w.projectId])).filter((c) => c.pourId === pourId);
+    expect(candidate).toMatchObject({ status: "stressed", releasedBy: null, reopened: { by: people.engineer.name } });
+
+    await releasePour(t.db, {
+      projectId: w.projectId,
+      pourId,
+      by: engineer(),
+      statement: "Lift-off checked; released again.",
+    });
+    expect((await stateOf()).status).toBe("released");
+    const releases = await t.db
+      .selectFrom("releases")
+      .select("statement")
+      .where("pour_id", "=", pourId)
+      .orderBy("created_at")
+      .execute();
+    expect(releases.map((r) => r.statement)).toEqual([
+      "Both tendons in band; tails may be cut.",
+      "Lift-off checked; released again.",
+    ]);
+  });
+});
+
+describe("decisions sync down", () => {
+  it("a pull carries the tendon's open flag with its reason, then the engineer's disposition with the instruction", async () => {
+    const tendonId = w.tendons.find((x) => x.ends === "A")!.id;
+    const start = (await pullChanges(t.db, { user: crewSession(), cursor: "0", pourIds: [w.pourId] })).cursor;
+    const long = createOp(w, tendonId, { marksAfter: "9" });
+    const pushed = await pushOps(app, { user: w.crew, deviceId: DEVICE, ops: [long] });
+    expect(pushed.results[0]).toMatchObject({ status: "applied", evaluation: { verdict: "long" } });
+
+    const first = await pullChanges(t.db, { user: crewSession(), cursor: start, pourIds: [w.pourId] });
+    const flag = first.flags.find((f) => f.tendonId === tendonId && f.kind === "out_of_band");
+    expect(flag).toMatchObject({ status: "open", reason: expect.stringMatching(/long|band/i), dispositions: [] });
+
+    await recordDisposition(t.db, {
+      projectId: w.projectId,
+      flagId: flag!.id,
+      engineer: people.engineer,
+      disposition: {
+        decision: "restress",
+        reasons: "Detension is not needed; restress to 3,350 psi and re-read the marks.",
+        licenceStatement: "Licensed professional engineer (test)",
+      },
+    });
+    const second = await pullChanges(t.db, { user: crewSession(), cursor: first.cursor, pourIds: [w.pourId] });
+    const again = second.flags.find((f) => f.id === flag!.id);
+    expect(again).toMatchObject({
+      status: "with_engineer",
+      dispositions: [
+        {
+          decision: "restress",
+          reasons: "Detension is not needed; restress to 3,350 psi and re-read the marks.",
+          engineerName: people.engineer.name,
+        },
+      ],
+    });
+  });
+});
