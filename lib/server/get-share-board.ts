@@ -70,6 +70,7 @@ export async function getShareBoard(
   const [pours, revisions] = await Promise.all([
     db
       .selectFrom("pours")
+      .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
       .select([
         "pours.id",
         "pours.name",
@@ -113,10 +114,8 @@ export async function getShareBoard(
               ),
             )
             .as("held"),
-        (eb) =>
-          eb
-            .exists(eb.selectFrom("releases").select("releases.id").whereRef("releases.pour_id", "=", "pours.id"))
-            .as("released"),
+        // A standing release (one the engineer has not reopened), from the one definition of a pour's status.
+        sql<boolean>`pour_states.status = 'released'`.as("released"),
       ])
       .where("pours.project_id", "=", projectId)
       .orderBy("pours.name")
