@@ -4,6 +4,7 @@ import * as accountsAndAudit from "./2026-12-01T010000-accounts-and-audit";
 import * as stressingRecords from "./2026-12-01T020000-stressing-records";
 import * as syncChangeCursor from "./2026-12-03T000000-sync-change-cursor";
 import * as tendonVersions from "./2026-12-04T000000-tendon-versions";
+import * as judgeEachEnd from "./2026-12-10T010000-judge-each-end";
 
 // A static index: vitest and bundlers cannot import .ts migrations from a folder scan.
 // Keys sort in time order; append new migrations at the end.
@@ -13,4 +14,5 @@ export const migrations: Record<string, Migration> = {
   "2026-12-01T020000-stressing-records": stressingRecords,
   "2026-12-03T000000-sync-change-cursor": syncChangeCursor,
   "2026-12-04T000000-tendon-versions": tendonVersions,
+  "2026-12-10T010000-judge-each-end": judgeEachEnd,
 };
