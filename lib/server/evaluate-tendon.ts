@@ -340,7 +340,13 @@ export function planEvaluation(
     .map((e) => ({
       recordId: e.record.id,
       equipmentSet: state.sets.find((s) => s.setId === e.record.equipmentSetId)?.name ?? null,
-      ...e.calibration,
+      id: e.calibration!.id,
+      calibrated_on: e.calibration!.calibratedOn,
+      valid_until: e.calibration!.validUntil,
+      slope_n_per_mpa: e.calibration!.slope,
+      intercept_n: e.calibration!.intercept,
+      min_pressure_mpa: e.calibration!.minPressureMPa,
+      max_pressure_mpa: e.calibration!.maxPressureMPa,
     }));
   const predictedMm = judgement.predictedMm ?? (project.comparisonBasis === "net" ? judgement.netMm : judgement.grossMm);
 
@@ -365,6 +371,7 @@ export function planEvaluation(
     }),
     result: JSON.stringify({
       basis: judgement.basisLabel,
+      prediction: { meetingPointMm: judgement.meetingPointMm },
       grossMm: judgement.grossMm,
       netMm: judgement.netMm,
       shopDrawing: judgement.shopDrawing,

@@ -160,6 +160,8 @@ export interface StressingJudgement {
   /** Whole tendon gross at the specified force (no grip), on the schedule's ends, and net. */
   grossMm: number;
   netMm: number;
+  /** Where the two friction paths meet (two-end tendons), mm from end A. */
+  meetingPointMm: number | null;
   /** The approved shop-drawing elongation and its difference from ours, when the schedule has one. */
   shopDrawing: { mm: number; differencePct: number } | null;
 }
@@ -390,6 +392,7 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
     strand,
     grossMm: whole.grossMm,
     netMm: whole.grossMm - stressedCount * planSetMm,
+    meetingPointMm: whole.meetingPointMm,
     shopDrawing: shop ? { mm: shop, differencePct: ((whole.grossMm - shop) / shop) * 100 } : null,
   };
 }
