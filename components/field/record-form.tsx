@@ -133,6 +133,8 @@ export function RecordForm({
   const [photos, setPhotos] = useState<PickedPhoto[]>([]);
   const [saveError, setSaveError] = useState<string | null>(null);
   const [saving, setSaving] = useState(false);
+  // A final pressure farther from the target than the band asks for a reason before it is saved.
+  const [offTarget, setOffTarget] = useState<{ pct: number; reason: string } | null>(null);
 
   useEffect(() => setFormDirty(formState.isDirty || photos.length > 0), [formState.isDirty, photos.length]);
   useEffect(() => () => setFormDirty(false), []);
@@ -176,6 +178,16 @@ export function RecordForm({
         });
         return;
       }
+      const target = cal.calibration ? targetFor({ ...ctx, set: sets.find((s) => s?.id === values.equipmentSetId) ?? null }, cal.calibration) : null;
+      const offPct = target ? ((payload.finalPressureMPa - target) / target) * 100 : 0;
+      if (Math.abs(offPct) > ctx.project.tolerancePct) {
+        if (!offTarget || offTarget.reason.trim().length < 3) {
+          setOffTarget({ pct: offPct, reason: offTarget?.reason ?? "" });
+          setSaveError(`The final pressure is ${offPct >= 0 ? "+" : "−"}${Math.abs(offPct).toFixed(1)} % from the target ${showPressure(units(ctx.project), target!)}: read the gauge again, or say why below and save again.`);
+          return;
+        }
+        payload.remarks = [`Gauge ${offPct >= 0 ? "+" : "−"}${Math.abs(offPct).toFixed(1)} % off target: ${offTarget.reason.trim()}`, payload.remarks].filter(Boolean).join(" · ").slice(0, 2000);
+      }
       // The same check the server makes, before anything is stored.
       const checked = recordPayloadSchema.safeParse(payload);
       if (!checked.success) throw new Error(checked.error.issues.map((i) => i.message).join(" "));
@@ -191,6 +203,7 @@ export function RecordForm({
       });
       photos.forEach((p) => URL.revokeObjectURL(p.url));
       setPhotos([]);
+      setOffTarget(null);
       reset(defaults);
       setFormDirty(false);
       onSaved(recordId);
@@ -365,6 +378,14 @@ export function RecordForm({
       <p className="text-ink-soft" data-testid="record-by">
         Operator {session.name} · device time and zone ({Intl.DateTimeFormat().resolvedOptions().timeZone}) are stamped when you save.
       </p>
+      {offTarget && (
+        <div>
+          <label htmlFor="offTargetReason" className="field-label">
+            Why the gauge is off target
+          </label>
+          <input id="offTargetReason" className="field-input" value={offTarget.reason} onChange={(e) => setOffTarget({ ...offTarget, reason: e.target.value })} />
+        </div>
+      )}
       {saveError && (
         <p role="alert" className="font-bold text-signal-stop">
           {saveError}

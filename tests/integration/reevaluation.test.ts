@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { seedDemo } from "@/db/seed/demo";
 import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
+import { addCalibration } from "@/lib/server/add-calibration";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getProjectSettings } from "@/lib/server/get-project-settings";
 import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
@@ -127,6 +128,48 @@ describe("re-evaluation when the project's basis changes", () => {
       by: fx.crewId,
     });
     expect(same.reevaluated).toBe(0);
+  });
+
+  it("a calibration added to a set judges again the tendons whose records named none", async () => {
+    const tendon = await fx.tendon("2-1-U08");
+    const c = await t.db
+      .selectFrom("calibrations")
+      .select(["slope_n_per_mpa", "intercept_n"])
+      .where("equipment_set_id", "=", fx.setA)
+      .executeTakeFirstOrThrow();
+    const pressure = (0.8 * HALF_INCH.minBreakingStrengthN - c.intercept_n) / c.slope_n_per_mpa;
+    await insertRecord(t.db, {
+      projectId: fx.projectId,
+      tendon,
+      end: "A",
+      equipmentSetId: fx.setA,
+      authorId: fx.crewId,
+      measuredMm: 150,
+      finalPressureMPa: pressure,
+    });
+    await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+    const today = new Date().toISOString().slice(0, 10);
+    await addCalibration(t.db, {
+      projectId: fx.projectId,
+      setId: fx.setA,
+      values: {
+        calibratedOn: today,
+        validUntil: null,
+        laboratory: "Test lab",
+        certificateAttachmentId: null,
+        points: [0.25, 0.5, 0.75, 1].map((f) => ({
+          pressureMPa: f * 40,
+          forceN: f * 40 * c.slope_n_per_mpa + c.intercept_n,
+        })),
+      },
+    });
+    const latest = await t.db
+      .selectFrom("evaluations")
+      .select("reason")
+      .where("tendon_id", "=", tendon.id)
+      .orderBy("created_at", "desc")
+      .executeTakeFirstOrThrow();
+    expect(latest.reason).toBe(`calibration of ${today} added to the equipment set`);
   });
 
   it("refuses an unknown time zone by name", async () => {
