@@ -55,6 +55,11 @@ export function VerdictPanel({ project, local, server, targetMPa }: { project: F
               No verdict: {(local.incomplete ?? []).join(" ") || "the reading cannot be judged yet."}
             </p>
           )}
+          {local.reread && (
+            <p className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-bold text-signal-stop" role="alert" data-testid="reread">
+              The reading division alone could change this verdict: read the elongation again to a finer division and save it as a correction (both readings are kept).
+            </p>
+          )}
           {local.basisLabel && <p data-testid="basis">Compared {local.basisLabel}.</p>}
           {local.forces?.length && local.specifiedForceN ? (
             <p data-testid="forces">

@@ -43,6 +43,8 @@ export interface LocalVerdict {
   /** Gauge force and the force the elongation implies, per end read. */
   forces?: { end: "A" | "B"; gaugeForceN: number | null; impliedForceN: number | null; role: string }[];
   specifiedForceN?: number;
+  /** The reading division alone could flip the verdict: read again, finer, before it is final. */
+  reread?: boolean;
 }
 
 export interface LocalRecord extends RecordPayload {

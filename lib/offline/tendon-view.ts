@@ -128,5 +128,6 @@ export function provisionalVerdict(ctx: TendonContext & { sets?: FieldEquipmentS
     flagKinds: findings.map((f) => f.kind),
     forces: j.ends.map((e) => ({ end: e.end, gaugeForceN: e.gaugeForceN, impliedForceN: e.impliedForceN, role: e.role })),
     specifiedForceN: j.specifiedForceN,
+    reread: j.divisionCouldFlip,
   };
 }

@@ -379,6 +379,7 @@ export function planEvaluation(
       comparison: judgement.comparison,
       incomplete: judgement.incomplete,
       missingEnds: judgement.missingEnds,
+      divisionCouldFlip: judgement.divisionCouldFlip,
       findings,
     }),
     verdict,

@@ -208,6 +208,20 @@ describe("judgeStressing: each end the way it was read", () => {
   });
 });
 
+describe("re-read prompt", () => {
+  const L = 40 * FT;
+  const perfect = oneEndGross(L) - 6;
+  it("asks for a finer reading when half a 1/8 in division straddles the band edge", () => {
+    // The upper edge is predicted·1.07; a reading 1/32 in under it could be read on either side.
+    const edge = perfect * 1.07;
+    const near = judgeStressing(input({ records: [record({ measuredMm: edge - IN / 32 })] }));
+    expect(near.verdict).toBe("in band");
+    expect(near.divisionCouldFlip).toBe(true);
+    const clear = judgeStressing(input({ records: [record({ measuredMm: perfect })] }));
+    expect(clear.divisionCouldFlip).toBe(false);
+  });
+});
+
 describe("stressingDay", () => {
   it("is the day in the project's time zone, so an evening in the west is not tomorrow", () => {
     // 6 pm Pacific on 1 December is 02:00 UTC on 2 December.

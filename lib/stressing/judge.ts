@@ -3,14 +3,16 @@ import {
   findStrandSize,
   forceFromPressure,
   predictElongation,
+  resolutionEffect,
   totalFromInitial,
   type Comparison,
   type TendonInput,
   type Verdict,
 } from "@/lib/elongation";
 import { dayInZone } from "@/lib/format/dates";
+import { resolutionStepMm } from "@/lib/units";
 import { strandValues, type LotBasis, type ProjectBasis, type StrandValues, type TendonBasis } from "./basis";
-import type { DisplayUnits } from "./display";
+import { readingResolution, type DisplayUnits } from "./display";
 
 /**
  * The one judge of a tendon's stressing, pure and shared: the server's evaluation and the tablet's
@@ -162,6 +164,11 @@ export interface StressingJudgement {
   netMm: number;
   /** Where the two friction paths meet (two-end tendons), mm from end A. */
   meetingPointMm: number | null;
+  /**
+   * True when the reading division alone could flip the verdict: the sum of the ends, each read to
+   * within half a division, straddles a band edge. The tablet asks for a finer second reading.
+   */
+  divisionCouldFlip: boolean;
   /** The approved shop-drawing elongation and its difference from ours, when the schedule has one. */
   shopDrawing: { mm: number; differencePct: number } | null;
 }
@@ -393,6 +400,17 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
     grossMm: whole.grossMm,
     netMm: whole.grossMm - stressedCount * planSetMm,
     meetingPointMm: whole.meetingPointMm,
+    divisionCouldFlip:
+      comparison !== null &&
+      measuredMm !== null &&
+      predictedMm !== null &&
+      resolutionEffect({
+        measuredMm,
+        predictedMm,
+        tolerancePct: project.tolerancePct,
+        floorMm: project.shortTendonFloorMm ?? undefined,
+        resolutionMm: resolutionStepMm(readingResolution(project.readingResolution)) * ends.length,
+      }).couldChangeVerdict,
     shopDrawing: shop ? { mm: shop, differencePct: ((whole.grossMm - shop) / shop) * 100 } : null,
   };
 }
