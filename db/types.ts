@@ -59,6 +59,10 @@ export interface ProjectsTable {
   notify_emails: Generated<string[]>;
   blind_entry: Generated<boolean>;
   release_by: Generated<"engineer" | "inspector">;
+  time_zone: Generated<string>;
+  jacking_force_factor: Generated<number>;
+  under_force_pct: Generated<number>;
+  seating_excess_mm: Generated<number>;
   created_at: Timestamp;
   updated_at: Timestamp;
 }
@@ -210,6 +214,7 @@ export interface CalibrationsTable {
 
 export type TendonEnd = "A" | "B";
 export type ReadingMethod = "marks" | "strokes";
+export type StressingOrder = "sequential" | "simultaneous";
 
 export interface RecordsTable {
   id: string;
@@ -230,6 +235,8 @@ export interface RecordsTable {
   entered: Json<Record<string, unknown>>;
   measured_mm: number;
   seating_mm: number | null;
+  stressing_order: StressingOrder | null;
+  draw_in_mm: number | null;
   wire_breaks: Generated<number>;
   remarks: string | null;
   device_time: Timestamp;
@@ -268,7 +275,9 @@ export type FlagKind =
   | "wire_break"
   | "concrete_unconfirmed"
   | "reading_missing"
-  | "stressed_twice";
+  | "stressed_twice"
+  | "under_force"
+  | "seating_excess";
 export type FlagStatus = "open" | "with_engineer" | "closed";
 
 export interface FlagsTable {

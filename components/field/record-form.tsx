@@ -5,7 +5,7 @@ import { useFieldArray, useForm, useWatch, type UseFormRegisterReturn } from "re
 import { uuidv7 } from "uuidv7";
 import type { LocalRecord, SessionMeta } from "@/lib/offline/db";
 import { saveRecord } from "@/lib/offline/outbox";
-import { calibrationFor, provisionalVerdict, targetFor, type TendonContext } from "@/lib/offline/tendon-view";
+import { calibrationFor, fieldDay, provisionalVerdict, targetFor, type TendonContext } from "@/lib/offline/tendon-view";
 import {
   EMPTY_RECORD_FORM,
   entryUnitsFor,
@@ -78,6 +78,8 @@ function formFromEntered(base: LocalRecord): RecordFormValues {
     marksAfter: e.marks?.after ?? "",
     strokes: e.strokes?.length ? e.strokes.map((value) => ({ value })) : [{ value: "" }],
     seating: e.seating ?? "",
+    drawIn: e.drawIn ?? "",
+    stressingOrder: base.stressingOrder ?? "sequential",
     wireBreaks: String(base.wireBreaks),
     remarks: base.remarks ?? "",
   };
@@ -102,7 +104,8 @@ export function RecordForm({
 }) {
   const { db } = useField();
   const entryUnits = entryUnitsFor(ctx.project.unitSystem);
-  const today = new Date().toLocaleDateString("en-CA");
+  // The stressing day in the project's time zone, the day the server judges the calibration on.
+  const today = fieldDay(ctx.project);
   const ends = stressedEnds(ctx.tendon.ends);
   const doneEnds = new Set(records.filter((r) => !r.supersededBy).map((r) => r.tendonEnd));
   const expiredSetIds = useMemo(() => sets.filter((s) => s && calibrationFor(ctx.calibrations, s.id, today).expired).map((s) => s!.id), [sets, ctx.calibrations, today]);
@@ -111,7 +114,15 @@ export function RecordForm({
     () =>
       correcting
         ? formFromEntered(correcting)
-        : { ...EMPTY_RECORD_FORM, tendonEnd: ends.find((e) => !doneEnds.has(e)) ?? ends[0]!, equipmentSetId: sets.length === 1 ? sets[0]!.id : "" },
+        : {
+            ...EMPTY_RECORD_FORM,
+            tendonEnd: ends.find((e) => !doneEnds.has(e)) ?? ends[0]!,
+            equipmentSetId: sets.length === 1 ? sets[0]!.id : "",
+            // Asked once per tendon: the order the other end's record gave, else one end after the other.
+            stressingOrder: records.find((r) => r.stressingOrder)?.stressingOrder ?? "sequential",
+            // The project's comparison basis is the form's default reading method.
+            readingMethod: ctx.project.comparisonBasis === "gross" ? "strokes" : "marks",
+          },
     // Defaults are taken once per tendon and mode.
     // eslint-disable-next-line react-hooks/exhaustive-deps
     [correcting?.id, ctx.tendon.id],
@@ -122,6 +133,8 @@ export function RecordForm({
   const [photos, setPhotos] = useState<PickedPhoto[]>([]);
   const [saveError, setSaveError] = useState<string | null>(null);
   const [saving, setSaving] = useState(false);
+  // A final pressure farther from the target than the band asks for a reason before it is saved.
+  const [offTarget, setOffTarget] = useState<{ pct: number; reason: string } | null>(null);
 
   useEffect(() => setFormDirty(formState.isDirty || photos.length > 0), [formState.isDirty, photos.length]);
   useEffect(() => () => setFormDirty(false), []);
@@ -153,10 +166,28 @@ export function RecordForm({
         baseRecordId: correcting?.id ?? null,
         calibrationId: cal.calibration?.id ?? null,
         expired: cal.expired,
+        twoEnds: ends.length === 2,
         authorUserId: session.userId,
         now: new Date(),
         timeZone: Intl.DateTimeFormat().resolvedOptions().timeZone || "UTC",
       });
+      // A gauge reading the calibration does not cover gives no known force: refused, never judged.
+      if (cal.calibration && (payload.finalPressureMPa < cal.calibration.minPressureMPa || payload.finalPressureMPa > cal.calibration.maxPressureMPa)) {
+        form.setError("finalPressure", {
+          message: `Outside the calibrated range ${showPressure(units(ctx.project), cal.calibration.minPressureMPa)} to ${showPressure(units(ctx.project), cal.calibration.maxPressureMPa)}: read the gauge again.`,
+        });
+        return;
+      }
+      const target = cal.calibration ? targetFor({ ...ctx, set: sets.find((s) => s?.id === values.equipmentSetId) ?? null }, cal.calibration) : null;
+      const offPct = target ? ((payload.finalPressureMPa - target) / target) * 100 : 0;
+      if (Math.abs(offPct) > ctx.project.tolerancePct) {
+        if (!offTarget || offTarget.reason.trim().length < 3) {
+          setOffTarget({ pct: offPct, reason: offTarget?.reason ?? "" });
+          setSaveError(`The final pressure is ${offPct >= 0 ? "+" : "−"}${Math.abs(offPct).toFixed(1)} % from the target ${showPressure(units(ctx.project), target!)}: read the gauge again, or say why below and save again.`);
+          return;
+        }
+        payload.remarks = [`Gauge ${offPct >= 0 ? "+" : "−"}${Math.abs(offPct).toFixed(1)} % off target: ${offTarget.reason.trim()}`, payload.remarks].filter(Boolean).join(" · ").slice(0, 2000);
+      }
       // The same check the server makes, before anything is stored.
       const checked = recordPayloadSchema.safeParse(payload);
       if (!checked.success) throw new Error(checked.error.issues.map((i) => i.message).join(" "));
@@ -172,6 +203,7 @@ export function RecordForm({
       });
       photos.forEach((p) => URL.revokeObjectURL(p.url));
       setPhotos([]);
+      setOffTarget(null);
       reset(defaults);
       setFormDirty(false);
       onSaved(recordId);
@@ -256,12 +288,29 @@ export function RecordForm({
         <NumberBox id="finalPressure" label="Final gauge pressure" unit={entryUnits.pressure} reg={register("finalPressure")} error={err.finalPressure?.message} />
       </div>
 
+      {ends.length === 2 && (
+        <fieldset>
+          <legend className="field-label">The two ends were stressed</legend>
+          <div className="mt-1 flex flex-wrap gap-2">
+            <label className="btn-quiet has-checked:bg-ink has-checked:text-concrete-50">
+              <input type="radio" value="sequential" className="sr-only" {...register("stressingOrder")} />
+              One after the other
+            </label>
+            <label className="btn-quiet has-checked:bg-ink has-checked:text-concrete-50">
+              <input type="radio" value="simultaneous" className="sr-only" {...register("stressingOrder")} />
+              Both at once
+            </label>
+          </div>
+          <FieldError message={err.stressingOrder?.message} />
+        </fieldset>
+      )}
+
       <fieldset>
         <legend className="field-label">Elongation read as</legend>
         <div className="mt-1 flex flex-wrap gap-2">
           <label className="btn-quiet has-checked:bg-ink has-checked:text-concrete-50">
             <input type="radio" value="marks" className="sr-only" {...register("readingMethod")} />
-            Marks before / after
+            Marks before / after (after lock-off)
           </label>
           <label className="btn-quiet has-checked:bg-ink has-checked:text-concrete-50">
             <input type="radio" value="strokes" className="sr-only" {...register("readingMethod")} />
@@ -306,7 +355,10 @@ export function RecordForm({
           <button type="button" className="btn-quiet w-fit" onClick={() => strokes.append({ value: "" })} disabled={strokes.fields.length >= 8}>
             Add a stroke
           </button>
-          <p className="text-label text-ink-faint">The strokes are added up into the elongation.</p>
+          {strokes.fields.length > 1 && (
+            <NumberBox id="drawIn" label="Draw-in at each re-grip" unit={entryUnits.length} reg={register("drawIn")} error={err.drawIn?.message} hint="Taken off the sum once per re-grip; leave empty if none." />
+          )}
+          <p className="text-label text-ink-faint">The strokes are added up into the elongation and compared gross, with the strand inside the jack.</p>
         </div>
       )}
 
@@ -328,6 +380,14 @@ export function RecordForm({
       <p className="text-ink-soft" data-testid="record-by">
         Operator {session.name} · device time and zone ({Intl.DateTimeFormat().resolvedOptions().timeZone}) are stamped when you save.
       </p>
+      {offTarget && (
+        <div>
+          <label htmlFor="offTargetReason" className="field-label">
+            Why the gauge is off target
+          </label>
+          <input id="offTargetReason" className="field-input" value={offTarget.reason} onChange={(e) => setOffTarget({ ...offTarget, reason: e.target.value })} />
+        </div>
+      )}
       {saveError && (
         <p role="alert" className="font-bold text-signal-stop">
           {saveError}

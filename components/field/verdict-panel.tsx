@@ -1,7 +1,7 @@
 import { Caution } from "@/components/ui/caution";
 import type { LocalVerdict } from "@/lib/offline/db";
 import type { FieldProject, OpEvaluation } from "@/lib/schemas/sync";
-import { showComputedLength, showLength, showPct, showPressure, type StoredResolution } from "@/lib/stressing/display";
+import { showBandEdge, showComputedLength, showForce, showLength, showPct, showPressure, type StoredResolution } from "@/lib/stressing/display";
 
 const LOOK = {
   "in band": { word: "In band", icon: "M5 12l4 4 10-10", cls: "border-signal-band bg-signal-band-bg text-signal-band" },
@@ -34,20 +34,46 @@ export function VerdictPanel({ project, local, server, targetMPa }: { project: F
         <>
           <div className="flex flex-wrap items-center gap-3">
             <VerdictMark verdict={local.verdict}>
-              <span className="tabular-nums" data-testid="deviation">
-                {showPct(local.deviationPct)}
-              </span>
+              {local.deviationPct !== null && (
+                <span className="tabular-nums" data-testid="deviation">
+                  {showPct(local.deviationPct)}
+                </span>
+              )}
             </VerdictMark>
             <span className="text-label font-semibold uppercase">{local.provisional ? "Provisional, on this tablet" : "On this tablet"}</span>
           </div>
-          <p className="text-lead">
-            Measured <strong>{showLength(u, local.measuredMm)}</strong> against predicted <strong>{showComputedLength(u, local.predictedMm)}</strong>; the band is{" "}
-            <strong data-testid="band">
-              {showComputedLength(u, local.lowerMm)} to {showComputedLength(u, local.upperMm)}
-            </strong>{" "}
-            (±{project.tolerancePct} %).
-          </p>
-          {local.missingEnds.length > 0 && <p>End {local.missingEnds.join(" and ")} still to stress: this end is judged on its own share for now.</p>}
+          {local.measuredMm !== null && local.predictedMm !== null && local.lowerMm !== null && local.upperMm !== null ? (
+            <p className="text-lead">
+              Measured <strong>{showLength(u, local.measuredMm)}</strong> against predicted <strong>{showComputedLength(u, local.predictedMm)}</strong>; the band is{" "}
+              <strong data-testid="band">
+                {showBandEdge(u, local.lowerMm, "lower")} to {showBandEdge(u, local.upperMm, "upper")}
+              </strong>{" "}
+              (±{project.tolerancePct} %).
+            </p>
+          ) : (
+            <p className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-bold text-signal-stop" role="alert" data-testid="incomplete">
+              No verdict: {(local.incomplete ?? []).join(" ") || "the reading cannot be judged yet."}
+            </p>
+          )}
+          {local.reread && (
+            <p className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-bold text-signal-stop" role="alert" data-testid="reread">
+              The reading division alone could change this verdict: read the elongation again to a finer division and save it as a correction (both readings are kept).
+            </p>
+          )}
+          {local.basisLabel && <p data-testid="basis">Compared {local.basisLabel}.</p>}
+          {local.forces?.length && local.specifiedForceN ? (
+            <p data-testid="forces">
+              Specified {showForce(u, local.specifiedForceN)}
+              {local.forces.map((f) => (
+                <span key={f.end}>
+                  {" "}
+                  · end {f.end} ({f.role}): gauge {f.gaugeForceN === null ? "no calibration" : showForce(u, f.gaugeForceN)}, elongation implies {f.impliedForceN === null ? "—" : showForce(u, f.impliedForceN)}
+                </span>
+              ))}
+            </p>
+          ) : null}
+          {local.flagKinds && local.flagKinds.length > 0 && <p className="font-semibold">The server will flag: {local.flagKinds.join(", ").replaceAll("_", " ")}.</p>}
+          {local.missingEnds.length > 0 && <p>End {local.missingEnds.join(" and ")} still to stress: the end read so far is judged provisionally (as stressed alone when the ends are pulled one after the other).</p>}
           {targetMPa !== null && <p>Target gauge pressure for this set: {showPressure(u, targetMPa)}.</p>}
           {server ? (
             <p data-testid="server-verdict">

@@ -36,6 +36,10 @@ function formSchema(us: boolean) {
       notifyEmails: z.string(),
       blindEntry: z.boolean(),
       releaseBy: z.enum(["engineer", "inspector"]),
+      timeZone: z.string(),
+      jackingForceFactor: units.number(),
+      underForcePct: units.number(),
+      seatingExcessMm: units.length(system, us ? "in" : "mm"),
     })
     .transform(({ wobble, wobbleUnit, ...v }) => ({
       ...v,
@@ -45,8 +49,13 @@ function formSchema(us: boolean) {
       notifyEmails: v.notifyEmails.split(/[\s,;]+/).filter(Boolean),
       // K per ft × 3.2808 = K per m (1 m = 3.2808 ft).
       wobblePerM: wobble === null ? null : wobbleUnit === "per ft" ? wobble / 0.3048 : wobble,
+      timeZone: v.timeZone.trim(),
+      // Required boxes: units.number() has already refused an empty one.
+      jackingForceFactor: v.jackingForceFactor as number,
+      underForcePct: v.underForcePct as number,
+      seatingExcessMm: v.seatingExcessMm as number,
     }))
-    .pipe(projectSettingsSchema);
+    .pipe(projectSettingsSchema.required({ timeZone: true, jackingForceFactor: true, underForcePct: true, seatingExcessMm: true }));
 }
 
 type FormIn = z.input<ReturnType<typeof formSchema>>;
@@ -89,19 +98,44 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
       engineerOfRecordName: settings.engineerOfRecordName ?? "",
       engineerOfRecordEmail: settings.engineerOfRecordEmail ?? "",
       notifyEmails: settings.notifyEmails.join(", "),
+      timeZone: settings.timeZone ?? "UTC",
+      jackingForceFactor: String(settings.jackingForceFactor ?? 0.8),
+      underForcePct: String(settings.underForcePct ?? 2),
+      seatingExcessMm: shown(settings.seatingExcessMm ?? 3.175, PER[len]),
     },
   });
   const err = (k: keyof FormIn | "wobblePerM") => (form.formState.errors as Record<string, { message?: string } | undefined>)[k]?.message;
   const reg = (k: keyof FormIn) => ({ id: `s-${k}`, "aria-invalid": err(k) ? true : undefined, "aria-describedby": err(k) ? `s-${k}-error` : undefined, ...form.register(k) });
 
+  // A change that re-judges stressed tendons is shown first and saved on a second press.
+  const [confirmed, setConfirmed] = useState<string | null>(null);
   const onSubmit = form.handleSubmit(async (values) => {
+    const key = JSON.stringify(values);
+    if (confirmed !== key) {
+      const preview = await sendJson<{ stressed: number; verdictsChanging: number; tags: string[] }>("POST", `/api/projects/${projectId}/settings/preview`, values);
+      if (!preview.ok) {
+        for (const [k, msgs] of Object.entries(preview.error.fields ?? {})) form.setError(k as keyof FormIn, { message: msgs.join(" ") });
+        setMessage({ tone: "error", text: preview.error.message });
+        return;
+      }
+      if (preview.data.verdictsChanging > 0) {
+        setConfirmed(key);
+        setMessage({
+          tone: "error",
+          text: `Saving judges the ${preview.data.stressed} stressed tendons again; ${preview.data.verdictsChanging} verdict${preview.data.verdictsChanging > 1 ? "s" : ""} change (${preview.data.tags.slice(0, 12).join(", ")}${preview.data.tags.length > 12 ? ", …" : ""}). Press Save settings again to confirm.`,
+        });
+        return;
+      }
+    }
     const result = await sendJson("PATCH", `/api/projects/${projectId}/settings`, values);
     if (!result.ok) {
       for (const [k, msgs] of Object.entries(result.error.fields ?? {})) form.setError(k as keyof FormIn, { message: msgs.join(" ") });
       setMessage({ tone: "error", text: result.error.message });
       return;
     }
-    setMessage({ tone: "info", text: "Settings saved. New predictions use them at once." });
+    setConfirmed(null);
+    const done = result.data as { reevaluated?: number };
+    setMessage({ tone: "info", text: `Settings saved. New predictions use them at once${done.reevaluated ? `; ${done.reevaluated} stressed tendons were judged again` : ""}.` });
     router.refresh();
   });
 
@@ -142,17 +176,32 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
         <Row id="s-shortTendonFloorMm" label={`Floor for short tendons, ${len} (optional)`} hint="The band is never narrower than this length." error={err("shortTendonFloorMm")}>
           <input className="field-input" inputMode="decimal" {...reg("shortTendonFloorMm")} />
         </Row>
-        <Row id="s-comparisonBasis" label="Compare with" error={err("comparisonBasis")}>
+        <Row
+          id="s-comparisonBasis"
+          label="Usual reading method (the tablet's default)"
+          hint="Each record is judged the way it was read: marks net of anchor set, ram travel gross plus the strand inside the jack."
+          error={err("comparisonBasis")}
+        >
           <select className="field-input" {...reg("comparisonBasis")}>
-            <option value="gross">Gross elongation at jacking</option>
-            <option value="net">Net of anchor set (marks read after lock-off)</option>
+            <option value="gross">Ram travel (gross, with the strand inside the jack)</option>
+            <option value="net">Marks read after lock-off (net of anchor set)</option>
           </select>
         </Row>
-        <Row id="s-countJackGrip" label="Strand inside the jack">
-          <label className="flex min-h-touch items-center gap-3">
-            <input type="checkbox" className="h-6 w-6" {...form.register("countJackGrip")} id="s-countJackGrip" />
-            Counted (readings taken from ram travel)
-          </label>
+      </fieldset>
+
+      <fieldset className="card grid gap-4 md:grid-cols-2">
+        <legend className="px-1 text-lead font-semibold">Force and time</legend>
+        <Row id="s-jackingForceFactor" label="Specified jacking force, × fpu·A" hint="0.80 is the ACI 318 limit for buildings; 0.75 is usual on bridges." error={err("jackingForceFactor")}>
+          <input className="field-input" inputMode="decimal" {...reg("jackingForceFactor")} />
+        </Row>
+        <Row id="s-underForcePct" label="Flag a gauge force short by more than, %" error={err("underForcePct")}>
+          <input className="field-input" inputMode="decimal" {...reg("underForcePct")} />
+        </Row>
+        <Row id="s-seatingExcessMm" label={`Flag measured seating above plan by more than, ${len}`} error={err("seatingExcessMm")}>
+          <input className="field-input" inputMode="decimal" {...reg("seatingExcessMm")} />
+        </Row>
+        <Row id="s-timeZone" label="Time zone of the site" hint="The stressing day for calibrations and the concrete gate, e.g. America/Chicago." error={err("timeZone")}>
+          <input className="field-input" autoComplete="off" {...reg("timeZone")} />
         </Row>
       </fieldset>
 

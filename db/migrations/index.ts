@@ -4,6 +4,7 @@ import * as accountsAndAudit from "./2026-12-01T010000-accounts-and-audit";
 import * as stressingRecords from "./2026-12-01T020000-stressing-records";
 import * as syncChangeCursor from "./2026-12-03T000000-sync-change-cursor";
 import * as tendonVersions from "./2026-12-04T000000-tendon-versions";
+import * as judgeEachEnd from "./2026-12-10T010000-judge-each-end";
 import * as pourReleaseStates from "./2026-12-10T020000-pour-release-states";
 import * as signedReports from "./2026-12-10T030000-signed-reports";
 import * as appRole from "./2026-12-10T040000-app-role";
@@ -18,6 +19,7 @@ export const migrations: Record<string, Migration> = {
   "2026-12-01T020000-stressing-records": stressingRecords,
   "2026-12-03T000000-sync-change-cursor": syncChangeCursor,
   "2026-12-04T000000-tendon-versions": tendonVersions,
+  "2026-12-10T010000-judge-each-end": judgeEachEnd,
   "2026-12-10T020000-pour-release-states": pourReleaseStates,
   "2026-12-10T030000-signed-reports": signedReports,
   "2026-12-10T040000-app-role": appRole,

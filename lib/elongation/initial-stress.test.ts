@@ -13,6 +13,25 @@ describe("totalFromInitial", () => {
     );
   });
 
+  // Net basis: marks set at 20 % and read after lock-off. A tendon whose gross elongation at Pj is
+  // 200 mm and whose anchor seats 6 mm shows m = 200·0.8 − 6 = 154 mm at the marks; its net total is
+  // 194 mm. Worked by hand from the linear load–elongation relation (PTI field procedure for
+  // initial-stress readings, from memory): (154 + 6)·Pj/(Pj − 0.2·Pj) − 6 = 194.
+  it("on the net basis adds the seating back before scaling and takes it off after", () => {
+    expect(
+      totalFromInitial({ measuredMm: 154, initialForceN: 0.2 * 147_000, jackingForceN: 147_000, seatingMm: 6 }),
+    ).toBeCloseTo(194, 10);
+    // Scaling the net reading alone would give 192.5 mm: the seating scaled as if it were elongation.
+    expect(totalFromInitial({ measuredMm: 154, initialForceN: 0.2 * 147_000, jackingForceN: 147_000 })).toBeCloseTo(
+      192.5,
+      10,
+    );
+  });
+
+  it("on the net basis leaves a reading from zero force unchanged", () => {
+    expect(totalFromInitial({ measuredMm: 206, initialForceN: 0, jackingForceN: 147_000, seatingMm: 6 })).toBe(206);
+  });
+
   it("leaves a reading from zero force unchanged", () => {
     expect(totalFromInitial({ measuredMm: 212, initialForceN: 0, jackingForceN: 147_000 })).toBe(212);
   });
@@ -32,6 +51,11 @@ describe("totalFromInitial", () => {
       () => totalFromInitial({ measuredMm: Number.NaN, initialForceN: 0, jackingForceN: 1 }),
       "measuredMm",
       "not-finite",
+    );
+    expectInputError(
+      () => totalFromInitial({ measuredMm: 1, initialForceN: 0, jackingForceN: 1, seatingMm: -1 }),
+      "seatingMm",
+      "negative",
     );
     expectInputError(
       () => totalFromInitial({ measuredMm: 1, initialForceN: 0, jackingForceN: 0 }),

@@ -10,17 +10,31 @@ import { fitLine } from "./least-squares";
 
 /**
  * Reading taken from an initial force Pi (the reference mark set at, say, 20 %) brought to the
- * elongation from zero: measured·Pj/(Pj − Pi). Valid because the predicted elongation is linear
- * in force; the slack and seating taken up below Pi are what this leaves out on purpose.
+ * elongation from zero. Valid because the elongation is linear in force; the slack taken up
+ * below Pi is what this leaves out on purpose.
+ *
+ * - Gross (ram travel, read at the jacking force before seating): m·Pj/(Pj − Pi).
+ * - Net (marks read after lock-off, `seatingMm` given): the reading already lost the seating, so
+ *   the part proportional to force is m + set; the total on the same net basis is
+ *   (m + set)·Pj/(Pj − Pi) − set. Scaling the net reading alone would scale the seating too and
+ *   judge a perfect tendon short.
  */
-export function totalFromInitial(input: { measuredMm: number; initialForceN: number; jackingForceN: number }): number {
+export function totalFromInitial(input: {
+  measuredMm: number;
+  initialForceN: number;
+  jackingForceN: number;
+  /** Seating (anchor set) the reading lost after lock-off; given only on the net basis. */
+  seatingMm?: number;
+}): number {
   const measuredMm = requireFinite(input.measuredMm, "measuredMm");
   const initialForceN = requireNonNegative(input.initialForceN, "initialForceN");
   const jackingForceN = requirePositive(input.jackingForceN, "jackingForceN");
+  const seatingMm = input.seatingMm === undefined ? 0 : requireNonNegative(input.seatingMm, "seatingMm");
   if (initialForceN >= jackingForceN) {
     throw new InputError("initialForceN", "out-of-range", "initial force must be below the jacking force");
   }
-  return (measuredMm * jackingForceN) / (jackingForceN - initialForceN);
+  if (initialForceN === 0) return measuredMm;
+  return ((measuredMm + seatingMm) * jackingForceN) / (jackingForceN - initialForceN) - seatingMm;
 }
 
 export interface GaugeStep {

@@ -25,14 +25,26 @@ export type RecordSyncState = "pending" | "synced" | "conflict" | "rejected";
 
 /** The tablet's provisional verdict, worked out from lib/stressing at the moment of saving. */
 export interface LocalVerdict {
-  verdict: "in band" | "long" | "short";
-  deviationPct: number;
-  measuredMm: number;
-  predictedMm: number;
-  lowerMm: number;
-  upperMm: number;
+  verdict: "in band" | "long" | "short" | "incomplete";
+  /** Null when the verdict is incomplete. */
+  deviationPct: number | null;
+  measuredMm: number | null;
+  predictedMm: number | null;
+  lowerMm: number | null;
+  upperMm: number | null;
   provisional: boolean;
   missingEnds: ("A" | "B")[];
+  /** Which prediction each end was compared with, in words. */
+  basisLabel?: string;
+  /** Why the verdict is incomplete. */
+  incomplete?: string[];
+  /** The flags the server's rules will raise on these readings, as the tablet sees them. */
+  flagKinds?: string[];
+  /** Gauge force and the force the elongation implies, per end read. */
+  forces?: { end: "A" | "B"; gaugeForceN: number | null; impliedForceN: number | null; role: string }[];
+  specifiedForceN?: number;
+  /** The reading division alone could flip the verdict: read again, finer, before it is final. */
+  reread?: boolean;
 }
 
 export interface LocalRecord extends RecordPayload {

@@ -1,4 +1,6 @@
-import { judgeTendon, predictTendon, stressedEnds, targetPressureMPa, type CalibrationLine, type EndReading } from "@/lib/stressing/basis";
+import { predictTendon, stressedEnds, targetPressureMPa, type CalibrationLine } from "@/lib/stressing/basis";
+import { judgeAndFlag } from "@/lib/stressing/rules";
+import { stressingDay, type JudgeInput, type JudgeRecord } from "@/lib/stressing/judge";
 import type { FieldCalibration, FieldEquipmentSet, FieldEvaluation, FieldFlag, FieldProject, FieldStrandLot, FieldTendon } from "@/lib/schemas/sync";
 import { pickCalibration } from "@/lib/schemas/calibration";
 import type { LocalRecord, LocalVerdict } from "./db";
@@ -60,27 +62,72 @@ export function targetFor(ctx: TendonContext, calibration: FieldCalibration | nu
   return targetPressureMPa(calibrationLine(calibration), predicted.jackingForceN);
 }
 
-/** The provisional verdict over the current reading of each end, as saved on this tablet. */
-export function provisionalVerdict(ctx: TendonContext, records: LocalRecord[]): LocalVerdict | null {
-  const ends = currentEnds(records);
-  const readings: EndReading[] = [];
-  for (const r of Object.values(ends)) {
-    if (!r) continue;
-    const cal = ctx.calibrations.find((c) => c.id === r.calibrationId) ?? null;
-    readings.push({ end: r.tendonEnd, measuredMm: r.measuredMm, initialPressureMPa: r.initialPressureMPa, finalPressureMPa: r.finalPressureMPa, calibration: cal ? calibrationLine(cal) : null });
-  }
-  if (!readings.length) return null;
-  const project = ctx.project;
-  const predicted = predictTendon({ project, tendon: ctx.tendon, lot: lotBasis(ctx.lot), equipmentGripMm: ctx.set?.jackGripMm });
-  const judged = judgeTendon({ project, tendon: ctx.tendon, predicted, readings });
+/** The stressing day now (or at an instant), in the project's time zone: the same day the server uses. */
+export function fieldDay(project: FieldProject, at: Date | string = new Date()): string {
+  return stressingDay(at, project.timeZone);
+}
+
+const strokeCount = (r: LocalRecord): number =>
+  r.readingMethod === "strokes" && Array.isArray(r.entered?.strokes) ? Math.max(1, r.entered.strokes.length) : 1;
+
+/** The judge's facts from what the tablet holds: the same shape the server builds from its query. */
+export function judgeInputFor(ctx: TendonContext & { sets?: FieldEquipmentSet[] }, records: LocalRecord[]): JudgeInput {
+  const known = [...(ctx.sets ?? []), ...(ctx.set ? [ctx.set] : [])];
+  const setIds = [...new Set(records.map((r) => r.equipmentSetId))];
+  const sets = setIds.map((id) => {
+    const s = known.find((k) => k.id === id);
+    return {
+      id,
+      name: s?.name ?? "Equipment set",
+      jackGripMm: s?.jackGripMm ?? null,
+      maxForceN: s?.maxForceN ?? null,
+      calibrations: ctx.calibrations
+        .filter((c) => c.equipmentSetId === id)
+        .map((c) => ({ id: c.id, calibratedOn: c.calibratedOn, validUntil: c.validUntil, slope: c.slope, intercept: c.intercept, minPressureMPa: c.minPressureMPa, maxPressureMPa: c.maxPressureMPa })),
+    };
+  });
+  const judged: JudgeRecord[] = records.map((r) => ({
+    id: r.id,
+    chainId: r.chainId,
+    revision: r.revision,
+    end: r.tendonEnd,
+    deviceTime: r.deviceTime,
+    equipmentSetId: r.equipmentSetId,
+    calibrationId: r.calibrationId,
+    expiredCalibrationReason: r.expiredCalibrationReason,
+    readingMethod: r.readingMethod,
+    initialPressureMPa: r.initialPressureMPa,
+    finalPressureMPa: r.finalPressureMPa,
+    measuredMm: r.measuredMm,
+    strokeCount: strokeCount(r),
+    drawInMm: r.drawInMm ?? null,
+    seatingMm: r.seatingMm,
+    stressingOrder: r.stressingOrder ?? null,
+    wireBreaks: r.wireBreaks,
+  }));
+  return { project: { ...ctx.project, readingResolution: ctx.project.readingResolution as "1/8in" | "1/16in" | "1mm" }, tendon: ctx.tendon, lot: lotBasis(ctx.lot), sets, records: judged };
+}
+
+/** The provisional verdict over the current reading of each end, as saved on this tablet: the server's judge. */
+export function provisionalVerdict(ctx: TendonContext & { sets?: FieldEquipmentSet[] }, records: LocalRecord[]): LocalVerdict | null {
+  if (!records.length) return null;
+  const { judgement: j, findings } = judgeAndFlag(judgeInputFor(ctx, records));
+  if (!j.ends.length) return null;
+  const c = j.comparison;
   return {
-    verdict: judged.comparison.verdict,
-    deviationPct: judged.comparison.deviationPct,
-    measuredMm: judged.measuredMm,
-    predictedMm: judged.comparison.lowerMm + judged.comparison.bandMm,
-    lowerMm: judged.comparison.lowerMm,
-    upperMm: judged.comparison.upperMm,
-    provisional: judged.provisional,
-    missingEnds: judged.missingEnds,
+    verdict: j.verdict,
+    deviationPct: c?.deviationPct ?? null,
+    measuredMm: j.measuredMm,
+    predictedMm: j.predictedMm,
+    lowerMm: c?.lowerMm ?? null,
+    upperMm: c?.upperMm ?? null,
+    provisional: j.provisional,
+    missingEnds: j.missingEnds,
+    basisLabel: j.basisLabel,
+    incomplete: j.incomplete,
+    flagKinds: findings.map((f) => f.kind),
+    forces: j.ends.map((e) => ({ end: e.end, gaugeForceN: e.gaugeForceN, impliedForceN: e.impliedForceN, role: e.role })),
+    specifiedForceN: j.specifiedForceN,
+    reread: j.divisionCouldFlip,
   };
 }

@@ -4,6 +4,17 @@ import type { ReadingResolution as DbResolution, UnitSystem as DbSystem } from "
 import type { ReadingResolution, UnitSystem } from "@/lib/units";
 import { emailSchema } from "./account";
 
+/** True for an IANA time zone name the runtime knows. */
+export function isTimeZone(name: string): boolean {
+  if (!/^[A-Za-z0-9_+\-/]{1,64}$/.test(name)) return false;
+  try {
+    new Intl.DateTimeFormat("en-US", { timeZone: name });
+    return true;
+  } catch {
+    return false;
+  }
+}
+
 /**
  * A project's settings, stored in SI (mm, MPa, K per metre). Forms show them in the project's
  * units and convert before sending; this schema checks what arrives.
@@ -58,6 +69,27 @@ export const projectSettingsSchema = z.object({
   notifyEmails: z.array(emailSchema).max(20, "At most 20 addresses."),
   blindEntry: z.boolean({ error: "Say whether the crew sees predicted values before entering readings." }),
   releaseBy: z.enum(["engineer", "inspector"], { error: "Pick who releases a pour." }),
+  // Judging settings (lib/stressing/judge.ts); left out, the stored values stay.
+  timeZone: z
+    .string({ error: "Give the project's time zone, e.g. America/Chicago." })
+    .trim()
+    .refine(isTimeZone, "Not a time zone name; use one like America/Chicago.")
+    .optional(),
+  jackingForceFactor: z
+    .number({ error: "Give the jacking force as a fraction of fpu·A, e.g. 0.80." })
+    .min(0.5, "Below 0.50·fpu·A is not a stressing force.")
+    .max(0.8, "Above 0.80·fpu·A exceeds the code limit (ACI 318-19 Table 20.3.2.5.1).")
+    .optional(),
+  underForcePct: z
+    .number({ error: "Give the under-force threshold in %." })
+    .min(0, "The threshold cannot be negative.")
+    .max(10, "More than 10 % under force is not a check.")
+    .optional(),
+  seatingExcessMm: z
+    .number({ error: "Give the seating threshold as a length." })
+    .min(0, "The threshold cannot be negative.")
+    .lt(50, "The threshold must be below 50 mm (2 in).")
+    .optional(),
 });
 export type ProjectSettings = z.infer<typeof projectSettingsSchema>;
 

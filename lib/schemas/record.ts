@@ -12,6 +12,7 @@ import { isInputError, parseLength, parsePressure, type LengthUnit, type Pressur
 export const TENDON_ENDS = ["A", "B"] as const;
 export const READING_METHODS = ["marks", "strokes"] as const;
 export const MAX_STROKES = 8;
+export const STRESSING_ORDERS = ["sequential", "simultaneous"] as const;
 
 /** The units bare numbers are read in, from the project's unit system. */
 export interface EntryUnits {
@@ -36,6 +37,8 @@ export const enteredSchema = z.object({
   marks: z.object({ before: typed("mark before"), after: typed("mark after") }).nullable(),
   strokes: z.array(typed("stroke")).max(MAX_STROKES, `At most ${MAX_STROKES} strokes.`).nullable(),
   seating: typed("seating").nullable(),
+  /** Draw-in lost at each re-grip between strokes; absent on records made before it was asked. */
+  drawIn: typed("draw-in").nullable().optional(),
 });
 export type Entered = z.infer<typeof enteredSchema>;
 
@@ -44,6 +47,7 @@ export interface DerivedValues {
   finalPressureMPa: number;
   measuredMm: number;
   seatingMm: number | null;
+  drawInMm: number | null;
 }
 
 /** A typed value that could not be read, named by its form field. */
@@ -122,9 +126,22 @@ export function deriveFromEntered(
     ? read(problems, "seating", () => parseLength(entered.seating!, lengthOpts("seating")))
     : null;
 
+  const drawIn =
+    method === "strokes" && entered.drawIn
+      ? read(problems, "drawIn", () => parseLength(entered.drawIn!, lengthOpts("drawIn")))
+      : null;
+  if (method === "marks" && entered.drawIn)
+    problems.push({ field: "drawIn", message: "Draw-in per re-grip applies to ram strokes only; clear it." });
+
   if (problems.length || final === null || measured === null) return { values: null, problems };
   return {
-    values: { initialPressureMPa: initial, finalPressureMPa: final, measuredMm: measured, seatingMm: seating },
+    values: {
+      initialPressureMPa: initial,
+      finalPressureMPa: final,
+      measuredMm: measured,
+      seatingMm: seating,
+      drawInMm: drawIn,
+    },
     problems,
   };
 }
@@ -153,6 +170,9 @@ export const recordFormShape = z.object({
   marksAfter: text().trim().max(40),
   strokes: z.array(z.object({ value: text().trim().max(40) })).max(MAX_STROKES),
   seating: text().trim().max(40),
+  drawIn: text().trim().max(40),
+  /** Two-end tendons: one end after the other, or both at once. */
+  stressingOrder: z.enum(STRESSING_ORDERS, { error: "Say how the two ends were stressed." }),
   wireBreaks: text()
     .trim()
     .regex(/^\d{0,2}$/, "Type the number of broken wires as a whole number (0 if none)."),
@@ -172,6 +192,8 @@ export const EMPTY_RECORD_FORM: RecordFormValues = {
   marksAfter: "",
   strokes: [{ value: "" }],
   seating: "",
+  drawIn: "",
+  stressingOrder: "sequential",
   wireBreaks: "0",
   remarks: "",
   revisionReason: "",
@@ -185,6 +207,7 @@ export function enteredFromForm(values: RecordFormValues, units: EntryUnits): En
     marks: values.readingMethod === "marks" ? { before: values.marksBefore, after: values.marksAfter } : null,
     strokes: values.readingMethod === "strokes" ? values.strokes.map((s) => s.value).filter((s) => s !== "") : null,
     seating: values.seating || null,
+    drawIn: values.readingMethod === "strokes" ? values.drawIn || null : null,
   };
 }
 
@@ -262,6 +285,17 @@ export const recordPayloadSchema = z
       .nonnegative("Seating cannot be negative.")
       .max(100, "Seating over 100 mm is not a reading.")
       .nullable(),
+    drawInMm: z
+      .number()
+      .finite()
+      .nonnegative("Draw-in cannot be negative.")
+      .max(49, "Draw-in over 49 mm per re-grip is not a reading.")
+      .nullable()
+      .optional(),
+    stressingOrder: z
+      .enum(STRESSING_ORDERS, { error: "The stressing order must be sequential or simultaneous." })
+      .nullable()
+      .optional(),
     wireBreaks: z.number().int("Wire breaks are a whole number.").min(0).max(99),
     remarks: optionalText(2000, "remarks"),
     deviceTime: z.iso.datetime({ offset: true, error: "The device time must be an ISO date and time." }),
@@ -312,6 +346,8 @@ export const recordPayloadSchema = z
       });
     if (!agrees(v.seatingMm, p.seatingMm))
       ctx.addIssue({ code: "custom", path: ["seatingMm"], message: "The seating does not match the value as typed." });
+    if (!agrees(v.drawInMm, p.drawInMm ?? null))
+      ctx.addIssue({ code: "custom", path: ["drawInMm"], message: "The draw-in does not match the value as typed." });
   });
 export type RecordPayload = z.infer<typeof recordPayloadSchema>;
 
@@ -328,6 +364,8 @@ export function payloadFromForm(
     baseRecordId: string | null;
     calibrationId: string | null;
     expired: boolean;
+    /** The tendon is stressed at both ends: the order is recorded. */
+    twoEnds?: boolean;
     authorUserId: string;
     now: Date;
     timeZone: string;
@@ -354,6 +392,8 @@ export function payloadFromForm(
     entered,
     measuredMm: v.measuredMm,
     seatingMm: v.seatingMm,
+    drawInMm: v.drawInMm,
+    stressingOrder: context.twoEnds ? values.stressingOrder : null,
     wireBreaks: Number(values.wireBreaks || "0"),
     remarks: values.remarks || null,
     deviceTime: context.now.toISOString(),

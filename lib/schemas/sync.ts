@@ -121,6 +121,11 @@ export interface FieldProject {
   wobblePerM: number;
   anchorSetMm: number;
   blindEntry: boolean;
+  /** The project's time zone: the stressing day on the tablet is the day there. */
+  timeZone?: string;
+  jackingForceFactor?: number;
+  underForcePct?: number;
+  seatingExcessMm?: number;
 }
 
 export interface FieldPour {
@@ -168,6 +173,7 @@ export interface FieldEquipmentSet {
   jackSerial: string;
   gaugeSerial: string;
   jackGripMm: number | null;
+  maxForceN?: number | null;
 }
 
 export interface FieldCalibration {
@@ -201,6 +207,8 @@ export interface FieldRecord {
   entered: unknown;
   measuredMm: number;
   seatingMm: number | null;
+  drawInMm?: number | null;
+  stressingOrder?: "sequential" | "simultaneous" | null;
   wireBreaks: number;
   remarks: string | null;
   deviceTime: string;

@@ -1,4 +1,6 @@
 import "server-only";
+import { inTransaction } from "./in-transaction";
+import { reevaluateTendons } from "./reevaluate-project";
 import type { Db } from "@/db/connect";
 import { fitCalibration, isInputError } from "@/lib/elongation";
 import { AppError } from "@/lib/errors";
@@ -49,23 +51,41 @@ export async function addCalibration(
   }
   const byRule = addDays(v.calibratedOn, project.calibration_validity_days);
   const validUntil = v.validUntil && v.validUntil < byRule ? v.validUntil : byRule;
-  const row = await db
-    .insertInto("calibrations")
-    .values({
-      project_id: input.projectId,
-      equipment_set_id: input.setId,
-      calibrated_on: v.calibratedOn,
-      valid_until: validUntil,
-      points: JSON.stringify(v.points),
-      slope_n_per_mpa: fit.slope,
-      intercept_n: fit.intercept,
-      r2: fit.r2,
-      min_pressure_mpa: fit.minPressureMPa,
-      max_pressure_mpa: fit.maxPressureMPa,
-      laboratory: v.laboratory,
-      certificate_attachment_id: v.certificateAttachmentId,
-    })
-    .returning("id")
-    .executeTakeFirstOrThrow();
-  return { calibrationId: row.id, validUntil, r2: fit.r2, warnings: fit.checks.map((c) => c.message) };
+  return inTransaction(db, async (trx) => {
+    const row = await trx
+      .insertInto("calibrations")
+      .values({
+        project_id: input.projectId,
+        equipment_set_id: input.setId,
+        calibrated_on: v.calibratedOn,
+        valid_until: validUntil,
+        points: JSON.stringify(v.points),
+        slope_n_per_mpa: fit.slope,
+        intercept_n: fit.intercept,
+        r2: fit.r2,
+        min_pressure_mpa: fit.minPressureMPa,
+        max_pressure_mpa: fit.maxPressureMPa,
+        laboratory: v.laboratory,
+        certificate_attachment_id: v.certificateAttachmentId,
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    // Records that named no calibration are judged on the one in force on their day: a new one
+    // may now be it, so their tendons are judged again.
+    const touched = await trx
+      .selectFrom("records")
+      .select("tendon_id")
+      .distinct()
+      .where("project_id", "=", input.projectId)
+      .where("equipment_set_id", "=", input.setId)
+      .where("calibration_id", "is", null)
+      .execute();
+    if (touched.length)
+      await reevaluateTendons(trx, {
+        projectId: input.projectId,
+        tendonIds: touched.map((t) => t.tendon_id),
+        reason: `calibration of ${v.calibratedOn} added to the equipment set`,
+      });
+    return { calibrationId: row.id, validUntil, r2: fit.r2, warnings: fit.checks.map((c) => c.message) };
+  });
 }

@@ -3,24 +3,25 @@ import { randomUUID } from "node:crypto";
 import { sql, type Compilable, type Insertable, type Kysely, type QueryCreator, type RawBuilder } from "kysely";
 import { jsonArrayFrom } from "kysely/helpers/postgres";
 import type {
-  CalibrationsTable,
   Database,
   Decision,
   EvaluationsTable,
   FlagKind,
   FlagsTable,
   NotificationsTable,
+  ReadingMethod,
+  StressingOrder,
   TendonEnd,
   Verdict,
 } from "@/db/types";
 import { AppError } from "@/lib/errors";
-import { ENGINE_VERSION, checkStressLimits, findStrandSize, forceFromPressure } from "@/lib/elongation";
+import { ENGINE_VERSION } from "@/lib/elongation";
 import { env } from "@/lib/env";
 import { flagMail } from "@/lib/mail/templates";
-import { judgeTendon, predictTendon, type CalibrationLine, type EndReading } from "@/lib/stressing/basis";
-import { pickCalibration } from "@/lib/schemas/calibration";
-import { MPA_PER_PSI } from "@/lib/units";
-import { showForce, showLength, showPct, showPressure } from "@/lib/stressing/display";
+import type { JudgeInput, JudgeRecord } from "@/lib/stressing/judge";
+import { judgeAndFlag } from "@/lib/stressing/rules";
+import { answeredOrder } from "@/lib/stressing/rules/stressed-twice";
+import { showLength, showPct } from "@/lib/stressing/display";
 import { selectTendonBasis, toLoadedTendon, type LoadedTendon } from "./load-tendon-basis";
 
 /**
@@ -47,31 +48,6 @@ export interface EvaluationOutcome {
   flagKinds: FlagKind[];
 }
 
-interface Finding {
-  kind: FlagKind;
-  reason: string;
-  recordId: string | null;
-}
-
-type Calibration = Pick<
-  CalibrationsTable,
-  "calibrated_on" | "valid_until" | "slope_n_per_mpa" | "intercept_n" | "min_pressure_mpa" | "max_pressure_mpa"
-> & { id: string };
-
-const line = (c: Calibration): CalibrationLine => ({
-  slope: c.slope_n_per_mpa,
-  intercept: c.intercept_n,
-  minPressureMPa: c.min_pressure_mpa,
-  maxPressureMPa: c.max_pressure_mpa,
-});
-
-const isoDay = (d: Date | string) => new Date(d).toISOString().slice(0, 10);
-
-/** Half of a 100 psi gauge graduation, in MPa. */
-const HALF_GRADUATION_MPA = 50 * MPA_PER_PSI;
-
-const RESTRESS_DECISIONS: Decision[] = ["restress", "detension_restress"];
-
 /** The columns of a stored record that the evaluation reads. */
 const EVALUATED_RECORD_COLUMNS = [
   "id",
@@ -87,6 +63,11 @@ const EVALUATED_RECORD_COLUMNS = [
   "initial_pressure_mpa",
   "final_pressure_mpa",
   "measured_mm",
+  "reading_method",
+  "entered",
+  "seating_mm",
+  "draw_in_mm",
+  "stressing_order",
   "wire_breaks",
 ] as const;
 
@@ -104,6 +85,12 @@ export interface EvaluatedRecord {
   initial_pressure_mpa: number | null;
   final_pressure_mpa: number;
   measured_mm: number;
+  reading_method: ReadingMethod;
+  /** The values as typed; the judge counts the strokes from it. */
+  entered: unknown;
+  seating_mm: number | null;
+  draw_in_mm: number | null;
+  stressing_order: StressingOrder | null;
   wire_breaks: number;
 }
 
@@ -164,6 +151,7 @@ export function selectTendonState(
           "equipment_sets.id as setId",
           "equipment_sets.name",
           "equipment_sets.jack_grip_mm",
+          "equipment_sets.max_force_n",
           "calibrations.id",
           "calibrations.calibrated_on",
           "calibrations.valid_until",
@@ -237,6 +225,76 @@ export interface EvaluationPlan {
   closures: { flagId: string; reason: string }[];
 }
 
+/** How many strokes a record's typed values sum (1 for marks). */
+function strokeCount(r: EvaluatedRecord): number {
+  const strokes = (r.entered as { strokes?: unknown } | null)?.strokes;
+  return r.reading_method === "strokes" && Array.isArray(strokes) ? Math.max(1, strokes.length) : 1;
+}
+
+/** The judge's facts from the state read in one query. */
+export function judgeInputFromState(state: TendonState): JudgeInput {
+  const { project, tendon, pour, lot } = state.basis;
+  const sets = new Map<string, JudgeInput["sets"][number]>();
+  for (const row of state.sets) {
+    const set = sets.get(row.setId) ?? {
+      id: row.setId,
+      name: row.name,
+      jackGripMm: row.jack_grip_mm,
+      maxForceN: row.max_force_n,
+      calibrations: [],
+    };
+    if (row.id !== null && row.calibrated_on && row.valid_until)
+      set.calibrations.push({
+        id: row.id,
+        calibratedOn: row.calibrated_on,
+        validUntil: row.valid_until,
+        slope: row.slope_n_per_mpa!,
+        intercept: row.intercept_n!,
+        minPressureMPa: row.min_pressure_mpa!,
+        maxPressureMPa: row.max_pressure_mpa!,
+      });
+    sets.set(row.setId, set);
+  }
+  const records: JudgeRecord[] = state.records.map((r) => ({
+    id: r.id,
+    chainId: r.chain_id,
+    revision: r.revision,
+    end: r.tendon_end,
+    deviceTime: r.device_time,
+    receivedAt: r.received_at,
+    equipmentSetId: r.equipment_set_id,
+    calibrationId: r.calibration_id,
+    expiredCalibrationReason: r.expired_calibration_reason,
+    readingMethod: r.reading_method,
+    initialPressureMPa: r.initial_pressure_mpa,
+    finalPressureMPa: r.final_pressure_mpa,
+    measuredMm: r.measured_mm,
+    strokeCount: strokeCount(r),
+    drawInMm: r.draw_in_mm,
+    seatingMm: r.seating_mm,
+    stressingOrder: r.stressing_order,
+    wireBreaks: r.wire_breaks,
+    restressOfDispositionId: r.restress_of_disposition_id,
+  }));
+  for (const r of records)
+    if (!sets.has(r.equipmentSetId))
+      throw new Error(`equipment set ${r.equipmentSetId} of record ${r.id} is not on the project`);
+  return {
+    project,
+    tendon,
+    lot,
+    pour: { concreteStrengthMpa: pour.concreteStrengthMpa },
+    sets: [...sets.values()],
+    records,
+    dispositions: state.dispositions.map((d) => ({
+      id: d.id,
+      flagId: d.flag_id,
+      decision: d.decision,
+      createdAt: d.created_at,
+    })),
+  };
+}
+
 /** Decides the evaluation of a tendon from its state: no database, no clock but the mail's. */
 export function planEvaluation(
   state: TendonState,
@@ -244,173 +302,53 @@ export function planEvaluation(
 ): EvaluationPlan {
   const { basis } = state;
   const { project, tendon, pour } = basis;
-  const all = state.records;
 
-  // The head revision of each chain; per end, the chain stressed last is the current one.
-  const heads = new Map<string, EvaluatedRecord>();
-  for (const r of all) {
-    const seen = heads.get(r.chain_id);
-    if (!seen || r.revision > seen.revision) heads.set(r.chain_id, r);
-  }
-  const chainsByEnd = { A: [] as EvaluatedRecord[], B: [] as EvaluatedRecord[] };
-  for (const head of heads.values()) chainsByEnd[head.tendon_end].push(head);
-  for (const list of Object.values(chainsByEnd)) list.sort((a, b) => +a.device_time - +b.device_time);
-  const current = (["A", "B"] as const).flatMap((end) => chainsByEnd[end].slice(-1));
-
-  // A stressing that reached the server after an engineer ordered a restress answers that
-  // order, whether or not the tablet knew of it.
-  const restressOrders = state.dispositions.filter((d) => RESTRESS_DECISIONS.includes(d.decision));
-  const answeredOrder = (r: EvaluatedRecord): string | null =>
-    r.restress_of_disposition_id ?? restressOrders.filter((d) => d.created_at < r.received_at).at(-1)?.id ?? null;
-
-  const findings: Finding[] = [];
-  const readings: EndReading[] = [];
-  const usedCalibrations: Record<string, unknown>[] = [];
-  const achievedForces: number[] = [];
-  let equipmentGripMm: number | null = null;
-
-  for (const end of ["A", "B"] as const) {
-    const chains = chainsByEnd[end];
-    const latest = chains.at(-1);
-    if (chains.length > 1 && latest && !answeredOrder(latest)) {
-      findings.push({
-        kind: "stressed_twice",
-        reason: `End ${end} was stressed ${chains.length} times and the last stressing is not linked to an engineer's disposition.`,
-        recordId: latest.id,
-      });
-    }
-  }
-
-  const setRows = state.sets;
-  const calibrationsOf = (setId: string): Calibration[] =>
-    setRows
-      .filter((r): r is typeof r & Calibration => r.setId === setId && r.id !== null)
-      .sort((a, b) => b.calibrated_on.localeCompare(a.calibrated_on));
-
-  for (const record of current) {
-    const set = setRows.find((r) => r.setId === record.equipment_set_id);
-    if (!set) throw new Error(`equipment set ${record.equipment_set_id} of record ${record.id} is not on the project`);
-    equipmentGripMm ??= set.jack_grip_mm;
-    const day = isoDay(record.device_time);
-    // The calibration the crew picked, else the latest one made on or before the stressing day.
-    const calibration: Calibration | undefined = record.calibration_id
-      ? calibrationsOf(set.setId).find((c) => c.id === record.calibration_id)
-      : (pickCalibration(calibrationsOf(set.setId).map((c) => ({ ...c, calibratedOn: c.calibrated_on })), day) ?? undefined);
-
-    if (!calibration || day > calibration.valid_until || day < calibration.calibrated_on) {
-      findings.push({
-        kind: "calibration_expired",
-        reason: calibration
-          ? `${set.name} was used on ${day}, outside its calibration (${calibration.calibrated_on} to ${calibration.valid_until}).` +
-            (record.expired_calibration_reason ? ` Crew's reason: ${record.expired_calibration_reason}` : "")
-          : `${set.name} had no calibration covering ${day}.`,
-        recordId: record.id,
-      });
-    }
-    if (calibration) {
-      const outside = [record.initial_pressure_mpa, record.final_pressure_mpa].filter(
-        (p): p is number =>
-          p !== null && p > 0 && (p < calibration.min_pressure_mpa || p > calibration.max_pressure_mpa),
-      );
-      if (outside.length) {
-        findings.push({
-          kind: "calibration_range",
-          reason: `Gauge reading ${outside.map((p) => showPressure(project, p)).join(", ")} at end ${record.tendon_end} is outside the calibrated range ${showPressure(project, calibration.min_pressure_mpa)} to ${showPressure(project, calibration.max_pressure_mpa)}.`,
-          recordId: record.id,
-        });
-      }
-      // A dial is read to its graduation (at most 100 psi, UFGS 02490): a reading within half a
-      // graduation of the mark is at the mark, so the limits are checked on the lowest force the
-      // reading allows.
-      achievedForces.push(
-        forceFromPressure(line(calibration), Math.max(0, record.final_pressure_mpa - HALF_GRADUATION_MPA)),
-      );
-      usedCalibrations.push({ recordId: record.id, equipmentSet: set.name, ...calibration });
-    }
-    if (record.wire_breaks > 0) {
-      findings.push({
-        kind: "wire_break",
-        reason: `${record.wire_breaks} wire break${record.wire_breaks > 1 ? "s" : ""} reported at end ${record.tendon_end}.`,
-        recordId: record.id,
-      });
-    }
-    readings.push({
-      end: record.tendon_end,
-      measuredMm: record.measured_mm,
-      initialPressureMPa: record.initial_pressure_mpa,
-      finalPressureMPa: record.final_pressure_mpa,
-      calibration: calibration ? line(calibration) : null,
-    });
-  }
-
-  const predicted = predictTendon({ project, tendon, lot: basis.lot, equipmentGripMm });
-
-  // Limits are checked on the force the gauge says was reached, against the specified strand.
-  const nominal = findStrandSize(tendon.strandSize);
-  if (nominal && achievedForces.length) {
-    const achievedN = Math.max(...achievedForces);
-    const atAchieved = predictTendon({ project, tendon, lot: basis.lot, equipmentGripMm, jackingForceN: achievedN });
-    const checks = checkStressLimits({
-      breakingLoadPerStrandN: nominal.minBreakingStrengthN,
-      strandCount: tendon.strandCount,
-      jackingForceN: achievedN,
-      anchorForceAfterN: atAchieved.prediction.seating?.anchorForceAfterN,
-    });
-    for (const check of checks) {
-      if (check.code === "jacking-over-limit") {
-        findings.push({
-          kind: "jacking_over_limit",
-          reason: `Jacking force reached at least ${showForce(project, check.value)} (gauge reading less half a graduation), above 0.80·fpu·A = ${showForce(project, check.limit)} (ACI 318-19 Table 20.3.2.5.1).`,
-          recordId: current[0]?.id ?? null,
-        });
-      }
-      if (check.code === "anchor-over-limit") {
-        findings.push({
-          kind: "anchor_over_limit",
-          reason: `Force at the anchor after seating ${showForce(project, check.value)} is above 0.70·fpu·A = ${showForce(project, check.limit)} (ACI 318-19 Table 20.3.2.5.1).`,
-          recordId: current[0]?.id ?? null,
-        });
-      }
-    }
-  }
-
-  let verdict: Verdict = "incomplete";
-  let provisional = true;
-  let deviationPct: number | null = null;
-  let measuredMm: number | null = null;
-  let judgement: ReturnType<typeof judgeTendon> | null = null;
-  if (readings.length) {
-    judgement = judgeTendon({ project, tendon, predicted, readings });
-    provisional = judgement.provisional;
-    verdict = judgement.comparison.verdict;
-    deviationPct = judgement.comparison.deviationPct;
-    measuredMm = judgement.measuredMm;
-    if (!provisional && verdict !== "in band") {
-      const c = judgement.comparison;
-      findings.push({
-        kind: "out_of_band",
-        reason:
-          `Measured ${showLength(project, judgement.measuredMm)} against ${showLength(project, predicted.predictedMm)} predicted ` +
-          `(${project.comparisonBasis === "net" ? "net of anchor set" : "gross at jacking"}): ${showPct(c.deviationPct)}, ` +
-          `${verdict} of the ±${project.tolerancePct} % band (${showLength(project, c.lowerMm)} to ${showLength(project, c.upperMm)}).`,
-        recordId: current.at(-1)?.id ?? null,
-      });
-    }
-  }
-
-  if (current.length && project.requiredConcreteMpa !== null) {
-    const strength = pour.concreteStrengthMpa;
-    if (strength === null || strength < project.requiredConcreteMpa) {
-      findings.push({
-        kind: "concrete_unconfirmed",
-        reason:
-          strength === null
-            ? `Stressed before the pour's concrete strength (${project.requiredConcreteMpa} MPa required) was confirmed.`
-            : `Confirmed concrete strength ${strength} MPa is below the ${project.requiredConcreteMpa} MPa required before stressing.`,
-        recordId: current[0]?.id ?? null,
-      });
-    }
-  }
+  // Read → judge (pure, the same function the tablet calls) → write.
+  const judgeInput = judgeInputFromState(state);
+  const { judgement, findings } = judgeAndFlag(judgeInput);
+  const current = judgement.ends.map((e) => e.record);
+  const verdict: Verdict = judgement.verdict;
+  const provisional = judgement.provisional;
+  const deviationPct = judgement.comparison?.deviationPct ?? null;
+  const measuredMm = judgement.measuredMm;
+  const readings = judgement.ends.map((e) => ({
+    end: e.end,
+    recordId: e.record.id,
+    method: e.method,
+    basis: e.basis,
+    role: e.role,
+    day: e.day,
+    measuredMm: e.record.measuredMm,
+    strokeCount: e.record.strokeCount,
+    drawInMm: e.record.drawInMm,
+    drawInDeductedMm: e.drawInDeductedMm,
+    seatingMm: e.record.seatingMm,
+    initialPressureMPa: e.record.initialPressureMPa,
+    finalPressureMPa: e.record.finalPressureMPa,
+    totalMm: e.totalMm,
+    predictedGrossMm: e.predictedGrossMm,
+    gripMm: e.gripMm,
+    setMm: e.setMm,
+    setSource: e.setSource,
+    predictedMm: e.predictedMm,
+    gaugeForceN: e.gaugeForceN,
+    impliedForceN: e.impliedForceN,
+    incomplete: e.incomplete,
+  }));
+  const usedCalibrations = judgement.ends
+    .filter((e) => e.calibration)
+    .map((e) => ({
+      recordId: e.record.id,
+      equipmentSet: state.sets.find((s) => s.setId === e.record.equipmentSetId)?.name ?? null,
+      id: e.calibration!.id,
+      calibrated_on: e.calibration!.calibratedOn,
+      valid_until: e.calibration!.validUntil,
+      slope_n_per_mpa: e.calibration!.slope,
+      intercept_n: e.calibration!.intercept,
+      min_pressure_mpa: e.calibration!.minPressureMPa,
+      max_pressure_mpa: e.calibration!.maxPressureMPa,
+    }));
+  const predictedMm = judgement.predictedMm ?? (project.comparisonBasis === "net" ? judgement.netMm : judgement.grossMm);
 
   const evaluationId = randomUUID();
   const evaluation: EvaluationPlan["evaluation"] = {
@@ -423,24 +361,31 @@ export function planEvaluation(
     inputs: JSON.stringify({
       project,
       tendon,
-      strand: predicted.strand,
+      strand: judgement.strand,
       lot: basis.lot,
-      jackingForceN: predicted.jackingForceN,
-      gripMm: predicted.gripMm,
+      jackingForceN: judgement.specifiedForceN,
+      order: judgement.order,
       pour: { id: pour.id, concreteStrengthMpa: pour.concreteStrengthMpa },
       readings,
       calibrations: usedCalibrations,
     }),
     result: JSON.stringify({
-      prediction: predicted.prediction,
-      predictedMm: predicted.predictedMm,
-      judgement,
+      basis: judgement.basisLabel,
+      prediction: { meetingPointMm: judgement.meetingPointMm },
+      grossMm: judgement.grossMm,
+      netMm: judgement.netMm,
+      shopDrawing: judgement.shopDrawing,
+      predictedMm,
+      comparison: judgement.comparison,
+      incomplete: judgement.incomplete,
+      missingEnds: judgement.missingEnds,
+      divisionCouldFlip: judgement.divisionCouldFlip,
       findings,
     }),
     verdict,
     provisional,
     deviation_pct: deviationPct,
-    predicted_mm: predicted.predictedMm,
+    predicted_mm: predictedMm,
     measured_mm: measuredMm,
   };
 
@@ -461,7 +406,9 @@ export function planEvaluation(
   // A restress ordered by a disposition closes the flag it answered once the tendon, evaluated
   // again with that record, is complete and in band. Out of band again, the rules above raise a
   // new flag and the old one stays with the engineer.
-  const answered = new Set(current.map(answeredOrder).filter((id): id is string => Boolean(id)));
+  const answered = new Set(
+    current.map((r) => answeredOrder(judgeInput, r)).filter((id): id is string => Boolean(id)),
+  );
   const closures =
     provisional || verdict !== "in band"
       ? []
@@ -485,12 +432,14 @@ export function planEvaluation(
       flags: flags.map((f) => ({ id: f.id, kind: f.kind, reason: f.reason })),
       verdictLine:
         deviationPct === null
-          ? "No elongation reading yet."
+          ? judgement.incomplete.length
+            ? `Incomplete: ${judgement.incomplete.join(" ")}`
+            : "No elongation reading yet."
           : `${verdict}${provisional ? " (provisional: not every end read)" : ""}, ${showPct(deviationPct)}`,
       basisLine:
-        `${project.comparisonBasis === "net" ? "Net of anchor set" : "Gross at jacking"}, ±${project.tolerancePct} % band, ` +
+        `Compared ${judgement.basisLabel}, ±${project.tolerancePct} % band, ` +
         `μ ${project.frictionMu}, K ${project.wobblePerM.toFixed(4)} per m, anchor set ${showLength(project, project.anchorSetMm)}, ` +
-        `${predicted.strand.source === "strand lot" ? `strand lot ${basis.lot?.lotNumber}` : "nominal strand values"}.`,
+        `${judgement.strand.source === "strand lot" ? `strand lot ${basis.lot?.lotNumber}` : "nominal strand values"}.`,
       url: `${env.APP_URL}/projects/${input.projectId}/tendons/${input.tendonId}/flags`,
     });
     notification = {

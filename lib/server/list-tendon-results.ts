@@ -63,7 +63,9 @@ const resultSchema = z.object({
   prediction: z.object({ meetingPointMm: z.number().nullable() }).catch({ meetingPointMm: null }),
 });
 const calibrationUsed = z.object({ recordId: z.string(), slope_n_per_mpa: z.number(), intercept_n: z.number() });
+const judgedEnd = z.object({ recordId: z.string(), basis: z.string(), totalMm: z.number().nullable() });
 const inputsSchema = z.object({
+  readings: z.array(judgedEnd.passthrough()).catch([]),
   calibrations: z.array(calibrationUsed).catch([]),
   strand: z.object({ areaMm2: z.number(), modulusMPa: z.number(), source: z.string() }).nullable().catch(null),
   lot: z.object({ lotNumber: z.string() }).nullable().catch(null),
@@ -156,7 +158,7 @@ export async function listTendonResults(
   return tendons.map((t) => {
     const e = evaluationByTendon.get(t.id);
     const inputs = e ? inputsSchema.safeParse(e.inputs) : null;
-    const used = inputs?.success ? inputs.data : { calibrations: [], strand: null, lot: null };
+    const used = inputs?.success ? inputs.data : { calibrations: [], strand: null, lot: null, readings: [] };
     const endResults: EndResult[] = (e?.record_ids ?? [])
       .map((id) => recordById.get(id))
       .filter((r): r is NonNullable<typeof r> => Boolean(r))
@@ -175,7 +177,8 @@ export async function listTendonResults(
           finalPressureMPa: r.final_pressure_mpa,
           forceN: line ? forceFromPressure(line, r.final_pressure_mpa) : null,
           measuredMm: r.measured_mm,
-          totalMm: endTotalMm({
+          // The evaluation's own total on the end's basis; older evaluations are recomputed as before.
+          totalMm: used.readings.find((x) => x.recordId === r.id)?.totalMm ?? endTotalMm({
             end: r.tendon_end,
             measuredMm: r.measured_mm,
             initialPressureMPa: r.initial_pressure_mpa,

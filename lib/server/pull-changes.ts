@@ -81,6 +81,10 @@ export async function pullChanges(
               "wobble_per_m",
               "anchor_set_mm",
               "blind_entry",
+              "time_zone",
+              "jacking_force_factor",
+              "under_force_pct",
+              "seating_excess_mm",
             ])
             .where("id", "in", projectIds)
             .where(since("change_xid", cursor))
@@ -145,7 +149,7 @@ export async function pullChanges(
             .execute(),
           trx
             .selectFrom("equipment_sets")
-            .select(["id", "project_id", "name", "jack_serial", "gauge_serial", "jack_grip_mm"])
+            .select(["id", "project_id", "name", "jack_serial", "gauge_serial", "jack_grip_mm", "max_force_n"])
             .where("project_id", "in", projectIds)
             .where(since("change_xid", cursor))
             .orderBy("name")
@@ -187,6 +191,8 @@ export async function pullChanges(
               "records.entered",
               "records.measured_mm",
               "records.seating_mm",
+              "records.draw_in_mm",
+              "records.stressing_order",
               "records.wire_breaks",
               "records.remarks",
               "records.device_time",
@@ -260,6 +266,10 @@ export async function pullChanges(
           readingResolution: p.reading_resolution,
           ...projectBasisFromRow(p),
           blindEntry: p.blind_entry,
+          timeZone: p.time_zone,
+          jackingForceFactor: p.jacking_force_factor,
+          underForcePct: p.under_force_pct,
+          seatingExcessMm: p.seating_excess_mm,
         })),
         pours: pours.map((p) => ({
           id: p.id,
@@ -306,6 +316,7 @@ export async function pullChanges(
           jackSerial: s.jack_serial,
           gaugeSerial: s.gauge_serial,
           jackGripMm: s.jack_grip_mm,
+          maxForceN: s.max_force_n,
         })),
         calibrations: calibrations.map((c) => ({
           id: c.id,
@@ -336,6 +347,8 @@ export async function pullChanges(
           entered: r.entered,
           measuredMm: r.measured_mm,
           seatingMm: r.seating_mm,
+          drawInMm: r.draw_in_mm,
+          stressingOrder: r.stressing_order,
           wireBreaks: r.wire_breaks,
           remarks: r.remarks,
           deviceTime: new Date(r.device_time).toISOString(),

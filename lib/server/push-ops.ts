@@ -322,6 +322,11 @@ function asEvaluated(op: SyncOp, p: RecordPayload, receivedAt: Date): EvaluatedR
     initial_pressure_mpa: p.initialPressureMPa,
     final_pressure_mpa: p.finalPressureMPa,
     measured_mm: p.measuredMm,
+    reading_method: p.readingMethod,
+    entered: p.entered,
+    seating_mm: p.seatingMm,
+    draw_in_mm: p.drawInMm ?? null,
+    stressing_order: p.stressingOrder ?? null,
     wire_breaks: p.wireBreaks,
   };
 }
@@ -505,6 +510,8 @@ function recordValues(recordId: string, deviceId: string, p: RecordPayload, rece
     entered: JSON.stringify(p.entered),
     measured_mm: p.measuredMm,
     seating_mm: p.seatingMm,
+    draw_in_mm: p.drawInMm ?? null,
+    stressing_order: p.stressingOrder ?? null,
     wire_breaks: p.wireBreaks,
     remarks: p.remarks,
     device_time: p.deviceTime,

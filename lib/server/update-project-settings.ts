@@ -3,13 +3,35 @@ import type { Db } from "@/db/connect";
 import { AppError } from "@/lib/errors";
 import type { ProjectSettings } from "@/lib/schemas/project-settings";
 import { recordAudit } from "./record-audit";
+import { reevaluateTendons } from "./reevaluate-project";
+
+/** The settings a verdict depends on: changing any of them judges the stressed tendons again. */
+const JUDGING_COLUMNS = [
+  "tolerance_pct",
+  "short_tendon_floor_mm",
+  "friction_mu",
+  "wobble_per_m",
+  "anchor_set_mm",
+  "required_concrete_mpa",
+  "time_zone",
+  "jacking_force_factor",
+  "under_force_pct",
+  "seating_excess_mm",
+] as const;
 
 export async function updateProjectSettings(
   db: Db,
   input: { projectId: string; values: ProjectSettings; by: string },
-): Promise<void> {
+): Promise<{ reevaluated: number; changed: number; closedFlags: number }> {
   const v = input.values;
-  await db.transaction().execute(async (trx) => {
+  return db.transaction().execute(async (trx) => {
+    const before = await trx
+      .selectFrom("projects")
+      .select(JUDGING_COLUMNS)
+      .where("id", "=", input.projectId)
+      .forUpdate()
+      .executeTakeFirst();
+    if (!before) throw new AppError("NOT_FOUND", "No such project.");
     const updated = await trx
       .updateTable("projects")
       .set({
@@ -32,6 +54,10 @@ export async function updateProjectSettings(
         notify_emails: v.notifyEmails,
         blind_entry: v.blindEntry,
         release_by: v.releaseBy,
+        ...(v.timeZone !== undefined && { time_zone: v.timeZone }),
+        ...(v.jackingForceFactor !== undefined && { jacking_force_factor: v.jackingForceFactor }),
+        ...(v.underForcePct !== undefined && { under_force_pct: v.underForcePct }),
+        ...(v.seatingExcessMm !== undefined && { seating_excess_mm: v.seatingExcessMm }),
         updated_at: new Date(),
       })
       .where("id", "=", input.projectId)
@@ -43,6 +69,17 @@ export async function updateProjectSettings(
       actorUserId: input.by,
       projectId: input.projectId,
       detail: { tolerancePct: v.tolerancePct, basis: v.comparisonBasis },
+    });
+    const after = await trx
+      .selectFrom("projects")
+      .select(JUDGING_COLUMNS)
+      .where("id", "=", input.projectId)
+      .executeTakeFirstOrThrow();
+    const moved = JUDGING_COLUMNS.filter((c) => before[c] !== after[c]);
+    if (!moved.length) return { reevaluated: 0, changed: 0, closedFlags: 0 };
+    return reevaluateTendons(trx, {
+      projectId: input.projectId,
+      reason: `project settings changed: ${moved.map((c) => c.replaceAll("_", " ")).join(", ")}`,
     });
   });
 }

@@ -29,6 +29,11 @@ export interface ProjectBasis {
   frictionMu: number;
   wobblePerM: number;
   anchorSetMm: number;
+  /** Read by the judge (lib/stressing/judge.ts); absent where a caller predates them. */
+  timeZone?: string;
+  jackingForceFactor?: number;
+  underForcePct?: number;
+  seatingExcessMm?: number;
 }
 
 /** The basis columns of a `projects` row. */
@@ -40,6 +45,10 @@ export interface ProjectBasisColumns {
   friction_mu: number;
   wobble_per_m: number;
   anchor_set_mm: number;
+  time_zone?: string;
+  jacking_force_factor?: number;
+  under_force_pct?: number;
+  seating_excess_mm?: number;
 }
 
 /** The basis of a project as stored. */
@@ -51,6 +60,10 @@ export const projectBasisFromRow = (p: ProjectBasisColumns): ProjectBasis => ({
   frictionMu: p.friction_mu,
   wobblePerM: p.wobble_per_m,
   anchorSetMm: p.anchor_set_mm,
+  ...(p.time_zone !== undefined && { timeZone: p.time_zone }),
+  ...(p.jacking_force_factor !== undefined && { jackingForceFactor: p.jacking_force_factor }),
+  ...(p.under_force_pct !== undefined && { underForcePct: p.under_force_pct }),
+  ...(p.seating_excess_mm !== undefined && { seatingExcessMm: p.seating_excess_mm }),
 });
 
 export interface TendonBasis {
@@ -133,7 +146,9 @@ export function predictTendon(input: {
 }): TendonPrediction {
   const { project, tendon } = input;
   const strand = strandValues(tendon, input.lot);
-  const jackingForceN = input.jackingForceN ?? targetJackingForceN(tendon);
+  const jackingForceN =
+    input.jackingForceN ??
+    (targetJackingForceN(tendon) * (project.jackingForceFactor ?? JACKING_LIMIT_FPU_FRACTION)) / JACKING_LIMIT_FPU_FRACTION;
   const gripMm = project.countJackGrip ? (tendon.jackGripMm ?? input.equipmentGripMm ?? 0) : 0;
   const engineInput: TendonInput = {
     segments: tendon.segments,

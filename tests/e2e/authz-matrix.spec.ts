@@ -187,6 +187,15 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
         return c.patch(`/api/projects/${projectId}/settings`, { data: settings });
       },
     },
+    "POST /api/projects/[projectId]/settings/preview": {
+      fixture: async () => JSON.stringify(await (await contexts.admin.get(`/api/projects/${projectId}/settings`)).json()),
+      call: (c, json) => {
+        const { id: _id, code: _code, ...settings } = JSON.parse(json) as Record<string, unknown>;
+        void _id;
+        void _code;
+        return c.post(`/api/projects/${projectId}/settings/preview`, { data: { ...settings, tolerancePct: 5 } });
+      },
+    },
     "GET /api/projects/[projectId]/pours": { call: (c) => c.get(`/api/projects/${projectId}/pours`) },
     "POST /api/projects/[projectId]/pours": { call: (c) => c.post(`/api/projects/${projectId}/pours`, { data: pourBody(`Matrix pour ${stamp()}`) }) },
     "PATCH /api/projects/[projectId]/pours/[pourId]": {

@@ -41,6 +41,15 @@ test("an admin sets up a pour, imports its schedule, adds a strand lot and a cal
   await page.getByRole("button", { name: "Save settings" }).click();
   await expect(page.getByText("Settings saved.")).toBeVisible();
   await screenshot(page, "setup-settings");
+  // A narrower band would change stressed tendons' verdicts: the admin is told how many before saving.
+  await page.getByLabel("Band per tendon, ± %").fill("1");
+  await page.getByRole("button", { name: "Save settings" }).click();
+  await expect(page.getByText(/verdicts? change/)).toBeVisible();
+  await expect(page.getByText("Press Save settings again to confirm.")).toBeVisible();
+  await screenshot(page, "setup-settings-preview");
+  await page.getByLabel("Band per tendon, ± %").fill("7");
+  await page.getByRole("button", { name: "Save settings" }).click();
+  await expect(page.getByText("Settings saved.")).toBeVisible();
 
   // A pour, then its schedule: a bad file first (nothing imported), then the good one.
   await page.getByRole("navigation", { name: "Project setup" }).getByRole("link", { name: "Pours and tendons" }).click();

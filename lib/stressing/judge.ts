@@ -1,0 +1,416 @@
+import {
+  compareElongation,
+  findStrandSize,
+  forceFromPressure,
+  predictElongation,
+  resolutionEffect,
+  totalFromInitial,
+  type Comparison,
+  type TendonInput,
+  type Verdict,
+} from "@/lib/elongation";
+import { dayInZone } from "@/lib/format/dates";
+import { pickCalibration } from "@/lib/schemas/calibration";
+import { resolutionStepMm } from "@/lib/units";
+import { strandValues, type LotBasis, type ProjectBasis, type StrandValues, type TendonBasis } from "./basis";
+import { readingResolution, type DisplayUnits } from "./display";
+
+/**
+ * The one judge of a tendon's stressing, pure and shared: the server's evaluation and the tablet's
+ * provisional verdict both call `judgeStressing` with the same facts and so agree to the digit.
+ *
+ * Each end is judged the way it was read (the field procedure, common practice):
+ * - marks read after lock-off include the seating loss and no strand inside the jack, so they are
+ *   compared with the prediction net of the anchor set (the measured seating when the crew typed
+ *   one, else the plan's), grip excluded;
+ * - ram travel (strokes) is read at the jacking force before seating and includes the strand
+ *   inside the jack, so it is compared with the gross prediction plus the grip; the draw-in lost
+ *   at each re-grip between strokes is deducted from the sum of the strokes.
+ * Two-end tendons stressed one end after the other (the usual case) judge the first end as a
+ * one-end stressing and the second end as what it adds; stressed at the same time, each end's
+ * share meets where the two friction paths give equal force.
+ */
+
+export type ReadingMethod = "marks" | "strokes";
+export type ComparisonBasis = "net" | "gross";
+export type StressingOrder = "sequential" | "simultaneous";
+
+/** Defaults of the settings this module added; a project row may not carry them yet. */
+export const JUDGING_DEFAULTS = {
+  timeZone: "UTC",
+  /** Specified jacking force as a fraction of fpu·A (ACI 318-19 Table 20.3.2.5.1 limit, from memory). */
+  jackingForceFactor: 0.8,
+  /** Under-force beyond this share of the specified force is flagged (common practice). */
+  underForcePct: 2,
+  /** Measured seating larger than the plan's by more than this is flagged (1/8 in, common practice). */
+  seatingExcessMm: 3.175,
+  governing: "tautline" as "tautline" | "shop_drawing",
+} as const;
+
+export interface JudgeProject extends ProjectBasis, DisplayUnits {
+  timeZone?: string;
+  jackingForceFactor?: number;
+  underForcePct?: number;
+  seatingExcessMm?: number;
+  requiredConcreteMpa?: number | null;
+}
+
+export interface JudgeCalibration {
+  id: string;
+  calibratedOn: string;
+  validUntil: string;
+  slope: number;
+  intercept: number;
+  minPressureMPa: number;
+  maxPressureMPa: number;
+}
+
+export interface JudgeSet {
+  id: string;
+  name: string;
+  jackGripMm: number | null;
+  maxForceN: number | null;
+  calibrations: JudgeCalibration[];
+}
+
+export interface JudgeRecord {
+  id: string;
+  chainId: string;
+  revision: number;
+  end: "A" | "B";
+  deviceTime: string | Date;
+  receivedAt?: string | Date | null;
+  equipmentSetId: string;
+  calibrationId: string | null;
+  expiredCalibrationReason: string | null;
+  readingMethod: ReadingMethod;
+  initialPressureMPa: number | null;
+  finalPressureMPa: number;
+  /** Marks after − before, or the strokes summed, as typed. */
+  measuredMm: number;
+  /** How many strokes were summed (1 for marks). */
+  strokeCount: number;
+  /** Draw-in lost at each re-grip, as typed; null when not given. */
+  drawInMm: number | null;
+  /** Seating (wedge draw-in at lock-off) measured by the crew. */
+  seatingMm: number | null;
+  /** Null when the record predates the question: two-end tendons are then taken as sequential. */
+  stressingOrder: StressingOrder | null;
+  wireBreaks: number;
+  restressOfDispositionId?: string | null;
+}
+
+export interface JudgeInput {
+  project: JudgeProject;
+  tendon: TendonBasis & { shopElongationMm?: number | null };
+  lot: LotBasis | null;
+  pour?: { concreteStrengthMpa: number | null };
+  sets: JudgeSet[];
+  /** Every revision of every record of the tendon. */
+  records: JudgeRecord[];
+  dispositions?: { id: string; flagId: string; decision: string; createdAt: string | Date }[];
+}
+
+export type EndRole = "one end" | "first end" | "second end" | "simultaneous";
+
+export interface EndJudgement {
+  end: "A" | "B";
+  record: JudgeRecord;
+  method: ReadingMethod;
+  basis: ComparisonBasis;
+  role: EndRole;
+  /** The stressing day in the project's time zone. */
+  day: string;
+  calibration: JudgeCalibration | null;
+  /** The day is outside the calibration's dates, or there is none. */
+  calibrationExpired: boolean;
+  /** Gauge pressures outside the calibrated range. */
+  outsideRangeMPa: number[];
+  gaugeForceN: number | null;
+  /** Draw-in deducted from the strokes: draw-in × (strokes − 1). */
+  drawInDeductedMm: number;
+  /** The reading brought to the full force on its basis; null when it cannot be (see `incomplete`). */
+  totalMm: number | null;
+  /** This end's gross elongation at the specified force, without grip. */
+  predictedGrossMm: number;
+  gripMm: number;
+  /** The anchor set taken off on the net basis (0 on gross). */
+  setMm: number;
+  setSource: "measured" | "plan" | "none";
+  /** What this end's reading is compared with. */
+  predictedMm: number;
+  comparison: Comparison | null;
+  /** Pj·(m + set)/gross on net, Pj·(m − grip)/gross on gross: the force the elongation implies. */
+  impliedForceN: number | null;
+  incomplete: string | null;
+}
+
+export interface StressingJudgement {
+  ends: EndJudgement[];
+  order: StressingOrder;
+  missingEnds: ("A" | "B")[];
+  provisional: boolean;
+  verdict: Verdict | "incomplete";
+  /** Why the verdict is incomplete, in words. */
+  incomplete: string[];
+  measuredMm: number | null;
+  predictedMm: number | null;
+  comparison: Comparison | null;
+  /** "net of anchor set (marks)", "gross plus grip (ram travel)", or both named per end. */
+  basisLabel: string;
+  specifiedForceN: number;
+  strand: StrandValues;
+  /** Whole tendon gross at the specified force (no grip), on the schedule's ends, and net. */
+  grossMm: number;
+  netMm: number;
+  /** Where the two friction paths meet (two-end tendons), mm from end A. */
+  meetingPointMm: number | null;
+  /**
+   * True when the reading division alone could flip the verdict: the sum of the ends, each read to
+   * within half a division, straddles a band edge. The tablet asks for a finer second reading.
+   */
+  divisionCouldFlip: boolean;
+  /** The approved shop-drawing elongation and its difference from ours, when the schedule has one. */
+  shopDrawing: { mm: number; differencePct: number } | null;
+}
+
+/** The basis a reading method is compared on. */
+export const basisOf = (method: ReadingMethod): ComparisonBasis => (method === "marks" ? "net" : "gross");
+
+export const BASIS_WORDS: Record<ComparisonBasis, string> = {
+  net: "net of anchor set (marks read after lock-off)",
+  gross: "gross plus grip (ram travel before seating)",
+};
+
+/** The stressing day of a record, in the project's time zone: calibration validity, the concrete gate. */
+export function stressingDay(deviceTime: string | Date, timeZone: string | undefined): string {
+  return dayInZone(deviceTime, timeZone || JUDGING_DEFAULTS.timeZone);
+}
+
+/** The head revision of each chain; per end, the chains by device time (the current one last). */
+export function chainsByEnd(records: readonly JudgeRecord[]): Record<"A" | "B", JudgeRecord[]> {
+  const heads = new Map<string, JudgeRecord>();
+  for (const r of records) {
+    const seen = heads.get(r.chainId);
+    if (!seen || r.revision > seen.revision) heads.set(r.chainId, r);
+  }
+  const out = { A: [] as JudgeRecord[], B: [] as JudgeRecord[] };
+  for (const head of heads.values()) out[head.end].push(head);
+  for (const list of Object.values(out))
+    list.sort((a, b) => +new Date(a.deviceTime) - +new Date(b.deviceTime) || a.id.localeCompare(b.id));
+  return out;
+}
+
+/** The current record of each end: the latest revision of the stressing done last. */
+export function currentRecords(records: readonly JudgeRecord[]): JudgeRecord[] {
+  const by = chainsByEnd(records);
+  return (["A", "B"] as const).flatMap((end) => by[end].slice(-1));
+}
+
+/** The calibration the crew picked, else the latest one made on or before the stressing day. */
+export function chooseCalibration(set: JudgeSet | undefined, calibrationId: string | null, day: string) {
+  if (!set) return null;
+  if (calibrationId) return set.calibrations.find((c) => c.id === calibrationId) ?? null;
+  return pickCalibration(set.calibrations, day);
+}
+
+/** The specified jacking force: the project's factor (default 0.80) of fpu·A of the nominal strand. */
+export function specifiedJackingForceN(project: JudgeProject, tendon: TendonBasis): number {
+  const nominal = findStrandSize(tendon.strandSize);
+  if (!nominal) throw new Error(`Unknown strand size "${tendon.strandSize}"`);
+  const factor = project.jackingForceFactor ?? JUDGING_DEFAULTS.jackingForceFactor;
+  return factor * nominal.minBreakingStrengthN * tendon.strandCount;
+}
+
+function engineInput(input: JudgeInput, strand: StrandValues, jackingForceN: number, ends: TendonInput["ends"]) {
+  return {
+    segments: input.tendon.segments,
+    strandAreaMm2: strand.areaMm2,
+    strandCount: input.tendon.strandCount,
+    modulusMPa: strand.modulusMPa,
+    jackingForceN,
+    wobblePerM: input.project.wobblePerM,
+    mu: input.project.frictionMu,
+    ends,
+  } satisfies TendonInput;
+}
+
+/** Judges a tendon from every record of it. Pure: no clock, no database. */
+export function judgeStressing(input: JudgeInput): StressingJudgement {
+  const { project, tendon } = input;
+  const strand = strandValues(tendon, input.lot);
+  const specifiedForceN = specifiedJackingForceN(project, tendon);
+  const wanted: ("A" | "B")[] = tendon.ends === "both" ? ["A", "B"] : [tendon.ends];
+  const current = currentRecords(input.records).filter((r) => wanted.includes(r.end));
+  const missingEnds = wanted.filter((e) => !current.some((r) => r.end === e));
+
+  const whole = predictElongation(engineInput(input, strand, specifiedForceN, tendon.ends));
+  const axial = whole.axialStiffnessN;
+  const planSetMm = project.anchorSetMm > 0 ? project.anchorSetMm : 0;
+  const stressedCount = wanted.length;
+
+  // The order is asked once per tendon; the latest record that says it decides.
+  const said = [...current].sort((a, b) => +new Date(a.deviceTime) - +new Date(b.deviceTime));
+  const order: StressingOrder =
+    tendon.ends === "both"
+      ? (said
+          .map((r) => r.stressingOrder)
+          .filter(Boolean)
+          .at(-1) ?? "sequential")
+      : "sequential";
+  const oneEnd = (end: "A" | "B") => predictElongation(engineInput(input, strand, specifiedForceN, end)).grossMm;
+  const first = said[0]?.end;
+
+  const ends: EndJudgement[] = current.map((record) => {
+    const set = input.sets.find((s) => s.id === record.equipmentSetId);
+    const day = stressingDay(record.deviceTime, project.timeZone);
+    const calibration = chooseCalibration(set, record.calibrationId, day);
+    const calibrationExpired = !calibration || day > calibration.validUntil || day < calibration.calibratedOn;
+    const outsideRangeMPa = calibration
+      ? [record.initialPressureMPa, record.finalPressureMPa].filter(
+          (p): p is number => p !== null && p > 0 && (p < calibration.minPressureMPa || p > calibration.maxPressureMPa),
+        )
+      : [];
+    const gaugeForceN = calibration ? forceFromPressure(calibration, record.finalPressureMPa) : null;
+
+    let role: EndRole = "one end";
+    let predictedGrossMm: number;
+    if (tendon.ends !== "both") predictedGrossMm = whole.grossMm;
+    else if (order === "simultaneous") {
+      role = "simultaneous";
+      predictedGrossMm = whole.perEndMm[record.end] ?? 0;
+    } else if (record.end === first) {
+      role = "first end";
+      predictedGrossMm = oneEnd(record.end);
+    } else {
+      // What the second end adds: the strand moves only where its friction path rises above the
+      // force the first end left (the first end's set zone is taken not to reach that far).
+      role = "second end";
+      predictedGrossMm = whole.grossMm - oneEnd(first ?? (record.end === "A" ? "B" : "A"));
+    }
+
+    const method = record.readingMethod;
+    const basis = basisOf(method);
+    const gripLengthMm = tendon.jackGripMm ?? set?.jackGripMm ?? 0;
+    const gripMm = basis === "gross" ? (specifiedForceN * gripLengthMm) / axial : 0;
+    const setSource: EndJudgement["setSource"] =
+      basis === "gross" ? "none" : record.seatingMm !== null ? "measured" : "plan";
+    const setMm = basis === "gross" ? 0 : (record.seatingMm ?? planSetMm);
+    const predictedMm = predictedGrossMm + gripMm - setMm;
+
+    const regrips = method === "strokes" ? Math.max(0, record.strokeCount - 1) : 0;
+    const drawInDeductedMm = regrips * (record.drawInMm ?? 0);
+    const readMm = record.measuredMm - drawInDeductedMm;
+
+    let incomplete: string | null = null;
+    let totalMm: number | null = readMm;
+    if (record.initialPressureMPa !== null && record.initialPressureMPa > 0) {
+      const initialForceN = calibration ? forceFromPressure(calibration, record.initialPressureMPa) : null;
+      if (!calibration || gaugeForceN === null || initialForceN === null) {
+        incomplete = `End ${record.end} was read from an initial pressure but its equipment set has no usable calibration to bring the reading to the full force.`;
+      } else if (!(initialForceN > 0) || initialForceN >= gaugeForceN) {
+        incomplete = `End ${record.end}: the calibration gives no force between the initial and the final pressure.`;
+      } else {
+        totalMm = totalFromInitial({
+          measuredMm: readMm,
+          initialForceN,
+          jackingForceN: gaugeForceN,
+          seatingMm: basis === "net" ? setMm : undefined,
+        });
+      }
+    }
+    if (!incomplete && outsideRangeMPa.length) {
+      incomplete = `End ${record.end}: a gauge reading is outside the calibrated range, so the force reached is not known.`;
+    }
+    if (incomplete) totalMm = null;
+
+    const comparison =
+      totalMm === null || !(predictedMm > 0)
+        ? null
+        : compareElongation({
+            measuredMm: totalMm,
+            predictedMm,
+            tolerancePct: project.tolerancePct,
+            floorMm: project.shortTendonFloorMm ?? undefined,
+          });
+    const impliedForceN =
+      totalMm === null || !(predictedGrossMm > 0)
+        ? null
+        : (specifiedForceN * (totalMm + setMm - gripMm)) / predictedGrossMm;
+    return {
+      end: record.end,
+      record,
+      method,
+      basis,
+      role,
+      day,
+      calibration,
+      calibrationExpired,
+      outsideRangeMPa,
+      gaugeForceN,
+      drawInDeductedMm,
+      totalMm,
+      predictedGrossMm,
+      gripMm,
+      setMm,
+      setSource,
+      predictedMm,
+      comparison,
+      impliedForceN,
+      incomplete,
+    };
+  });
+
+  const incompleteReasons = ends.map((e) => e.incomplete).filter((r): r is string => r !== null);
+  let comparison: Comparison | null = null;
+  let measuredMm: number | null = null;
+  let predictedMm: number | null = null;
+  if (ends.length && !incompleteReasons.length) {
+    measuredMm = ends.reduce((s, e) => s + (e.totalMm ?? 0), 0);
+    predictedMm = ends.reduce((s, e) => s + e.predictedMm, 0);
+    comparison = compareElongation({
+      measuredMm,
+      predictedMm,
+      tolerancePct: project.tolerancePct,
+      floorMm: project.shortTendonFloorMm ?? undefined,
+      jackingForceN: specifiedForceN,
+    });
+  }
+  const bases = [...new Set(ends.map((e) => e.basis))];
+  const basisLabel =
+    bases.length === 1
+      ? BASIS_WORDS[bases[0]!]
+      : bases.length === 0
+        ? BASIS_WORDS[project.comparisonBasis]
+        : ends.map((e) => `end ${e.end} ${BASIS_WORDS[e.basis]}`).join("; ");
+  const shop = input.tendon.shopElongationMm ?? null;
+  return {
+    ends,
+    order,
+    missingEnds,
+    provisional: missingEnds.length > 0,
+    verdict: comparison ? comparison.verdict : "incomplete",
+    incomplete: incompleteReasons,
+    measuredMm,
+    predictedMm,
+    comparison,
+    basisLabel,
+    specifiedForceN,
+    strand,
+    grossMm: whole.grossMm,
+    netMm: whole.grossMm - stressedCount * planSetMm,
+    meetingPointMm: whole.meetingPointMm,
+    divisionCouldFlip:
+      comparison !== null &&
+      measuredMm !== null &&
+      predictedMm !== null &&
+      resolutionEffect({
+        measuredMm,
+        predictedMm,
+        tolerancePct: project.tolerancePct,
+        floorMm: project.shortTendonFloorMm ?? undefined,
+        resolutionMm: resolutionStepMm(readingResolution(project.readingResolution)) * ends.length,
+      }).couldChangeVerdict,
+    shopDrawing: shop ? { mm: shop, differencePct: ((whole.grossMm - shop) / shop) * 100 } : null,
+  };
+}

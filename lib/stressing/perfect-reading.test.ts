@@ -1,0 +1,247 @@
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { findStrandSize, predictElongation, type TendonInput } from "@/lib/elongation";
+import type { LocalRecord } from "@/lib/offline/db";
+import { provisionalVerdict } from "@/lib/offline/tendon-view";
+import type { FieldProject, FieldTendon } from "@/lib/schemas/sync";
+import { planEvaluation, type EvaluatedRecord, type TendonState } from "@/lib/server/evaluate-tendon";
+
+// Property: a reading generated from the prediction itself (the engine's elongation at the
+// specified force, turned into what the crew would read by each method) is in band, with no
+// deviation, on every basis, reading method and stressing order, on the tablet's path and on the
+// server's path, and the two paths give the same numbers to the digit.
+
+const strand = findStrandSize("0.5 in")!;
+const PJ = 0.8 * strand.minBreakingStrengthN;
+const SLOPE = 6000;
+const CAL = {
+  id: "0190a0b0-0000-7000-8000-00000000ca11",
+  calibratedOn: "2026-11-01",
+  validUntil: "2027-04-30",
+  slope: SLOPE,
+  intercept: 0,
+  minPressureMPa: 2,
+  maxPressureMPa: 60,
+};
+const SET_ID = "0190a0b0-0000-7000-8000-0000000000dd";
+const GRIP = 457.2;
+
+type EndPlan = {
+  method: "marks" | "strokes";
+  initialShare: number | null;
+  strokes: number;
+  drawIn: number;
+  seating: number | null;
+};
+
+const endPlan = fc.record({
+  method: fc.constantFrom("marks" as const, "strokes" as const),
+  initialShare: fc.option(fc.double({ min: 0.1, max: 0.3, noNaN: true }), { nil: null }),
+  strokes: fc.integer({ min: 1, max: 4 }),
+  drawIn: fc.double({ min: 0, max: 8, noNaN: true }),
+  seating: fc.option(fc.double({ min: 3, max: 9, noNaN: true }), { nil: null }),
+});
+
+const project: FieldProject = {
+  id: "0190a0b0-0000-7000-8000-0000000000aa",
+  code: "P",
+  name: "Property",
+  unitSystem: "si",
+  readingResolution: "1mm",
+  tolerancePct: 7,
+  shortTendonFloorMm: null,
+  comparisonBasis: "gross",
+  countJackGrip: true,
+  frictionMu: 0.07,
+  wobblePerM: 0.0033,
+  anchorSetMm: 6,
+  blindEntry: false,
+  timeZone: "America/Denver",
+};
+
+/** What the crew reads at one end for a tendon behaving exactly as predicted. */
+function perfectReading(plan: EndPlan, grossMm: number, axial: number) {
+  const basisNet = plan.method === "marks";
+  const set = plan.seating ?? project.anchorSetMm;
+  const grip = basisNet ? 0 : (PJ * GRIP) / axial;
+  const fromZero = grossMm + grip; // at the jacking force, before seating
+  const share = plan.initialShare ?? 0;
+  const sincePi = fromZero * (1 - share);
+  const measured = basisNet ? sincePi - set : sincePi + (plan.strokes - 1) * plan.drawIn;
+  return { measured, initialMPa: plan.initialShare === null ? null : (plan.initialShare * PJ) / SLOPE };
+}
+
+describe("a perfect reading is in band on every basis, method and order", () => {
+  it("on the tablet and on the server, to the digit", () => {
+    fc.assert(
+      fc.property(
+        fc.double({ min: 8_000, max: 60_000, noNaN: true }),
+        fc.double({ min: 0, max: 1.2, noNaN: true }),
+        fc.constantFrom("A" as const, "both" as const),
+        fc.constantFrom("sequential" as const, "simultaneous" as const),
+        endPlan,
+        endPlan,
+        (lengthMm, angleRad, ends, order, planA, planB) => {
+          const segments = [{ lengthMm, angleRad }];
+          const tendon: FieldTendon = {
+            id: "0190a0b0-0000-7000-8000-0000000000cc",
+            projectId: project.id,
+            pourId: "0190a0b0-0000-7000-8000-0000000000bb",
+            tag: "T1",
+            kind: "unbonded_monostrand",
+            strandSize: "0.5 in",
+            strandCount: 1,
+            segments,
+            ends,
+            jackGripMm: GRIP,
+            strandLotId: null,
+          };
+          const engine = (e: TendonInput["ends"]) =>
+            predictElongation({
+              segments,
+              strandAreaMm2: strand.areaMm2,
+              strandCount: 1,
+              modulusMPa: 28_500_000 * 0.006894757293168,
+              jackingForceN: PJ,
+              wobblePerM: project.wobblePerM,
+              mu: project.frictionMu,
+              ends: e,
+            });
+          const whole = engine(ends);
+          const grossA =
+            ends === "A" ? whole.grossMm : order === "simultaneous" ? whole.perEndMm.A! : engine("A").grossMm;
+          const grossB = order === "simultaneous" ? whole.perEndMm.B! : whole.grossMm - engine("A").grossMm;
+          const plans: ["A" | "B", EndPlan, number][] =
+            ends === "A"
+              ? [["A", planA, grossA]]
+              : [
+                  ["A", planA, grossA],
+                  ["B", planB, grossB],
+                ];
+
+          const local: LocalRecord[] = plans.map(([end, plan, gross], i) => {
+            const r = perfectReading(plan, gross, whole.axialStiffnessN);
+            const id = `0190a0b0-0000-7000-8000-00000000000${i + 1}`;
+            return {
+              id,
+              projectId: project.id,
+              pourId: tendon.pourId,
+              tendonId: tendon.id,
+              tendonEnd: end,
+              chainId: id,
+              revision: 1,
+              baseRecordId: null,
+              revisionReason: null,
+              equipmentSetId: SET_ID,
+              calibrationId: CAL.id,
+              expiredCalibrationReason: null,
+              initialPressureMPa: r.initialMPa,
+              finalPressureMPa: PJ / SLOPE,
+              readingMethod: plan.method,
+              entered: {
+                units: { length: "mm", pressure: "MPa" },
+                initialPressure: null,
+                finalPressure: "x",
+                marks: null,
+                strokes: plan.method === "strokes" ? Array.from({ length: plan.strokes }, () => "x") : null,
+                seating: null,
+              },
+              measuredMm: r.measured,
+              seatingMm: plan.seating,
+              drawInMm: plan.method === "strokes" ? plan.drawIn : null,
+              stressingOrder: ends === "both" ? order : null,
+              wireBreaks: 0,
+              remarks: null,
+              deviceTime: `2026-12-02T1${i}:00:00.000Z`,
+              deviceTimeZone: "UTC",
+              authorUserId: "0190a0b0-0000-7000-8000-000000000001",
+              syncState: "pending",
+              authorName: "Crew",
+              savedAt: "2026-12-02T10:00:00.000Z",
+            };
+          });
+          const set = {
+            id: SET_ID,
+            projectId: project.id,
+            name: "Jack 1",
+            jackSerial: "J",
+            gaugeSerial: "G",
+            jackGripMm: null,
+          };
+          const tablet = provisionalVerdict(
+            {
+              project,
+              tendon,
+              lot: null,
+              set,
+              calibrations: [{ ...CAL, projectId: project.id, equipmentSetId: SET_ID }],
+            },
+            local,
+          )!;
+          expect(tablet.verdict).toBe("in band");
+          expect(Math.abs(tablet.deviationPct!)).toBeLessThan(1e-9);
+
+          const state: TendonState = {
+            basis: {
+              project: {
+                ...project,
+                readingResolution: "1mm",
+                requiredConcreteMpa: null,
+                engineerOfRecordName: null,
+                engineerOfRecordEmail: null,
+                notifyEmails: [],
+              },
+              pour: { id: tendon.pourId, name: "Pour", concreteStrengthMpa: null, status: "stressing" },
+              tendon: { ...tendon, kind: "unbonded_monostrand", shopElongationMm: null },
+              lot: null,
+            },
+            records: local.map((r): EvaluatedRecord => ({
+              id: r.id,
+              chain_id: r.chainId,
+              revision: r.revision,
+              tendon_end: r.tendonEnd,
+              device_time: new Date(r.deviceTime),
+              received_at: new Date(r.deviceTime),
+              restress_of_disposition_id: null,
+              equipment_set_id: r.equipmentSetId,
+              calibration_id: r.calibrationId,
+              expired_calibration_reason: null,
+              initial_pressure_mpa: r.initialPressureMPa,
+              final_pressure_mpa: r.finalPressureMPa,
+              measured_mm: r.measuredMm,
+              reading_method: r.readingMethod,
+              entered: r.entered,
+              seating_mm: r.seatingMm,
+              draw_in_mm: r.drawInMm ?? null,
+              stressing_order: r.stressingOrder ?? null,
+              wire_breaks: 0,
+            })),
+            openFlagKinds: [],
+            sets: [
+              {
+                setId: SET_ID,
+                name: "Jack 1",
+                jack_grip_mm: null,
+                max_force_n: null,
+                id: CAL.id,
+                calibrated_on: CAL.calibratedOn,
+                valid_until: CAL.validUntil,
+                slope_n_per_mpa: SLOPE,
+                intercept_n: 0,
+                min_pressure_mpa: CAL.minPressureMPa,
+                max_pressure_mpa: CAL.maxPressureMPa,
+              },
+            ] as TendonState["sets"],
+            dispositions: [],
+            version: 0,
+          };
+          const server = planEvaluation(state, { projectId: project.id, tendonId: tendon.id, reason: "property" });
+          expect(server.outcome.verdict).toBe("in band");
+          expect(server.outcome.deviationPct).toBe(tablet.deviationPct);
+          expect(server.outcome.flagKinds).not.toContain("out_of_band");
+        },
+      ),
+      { numRuns: 150 },
+    );
+  }, 120_000);
+});

@@ -1,0 +1,258 @@
+import { describe, expect, it } from "vitest";
+import { findStrandSize } from "@/lib/elongation";
+import { judgeStressing, type JudgeInput, type JudgeRecord } from "../judge";
+import { FLAG_RULES, type RuleKind } from ".";
+
+// Each rule as a table of cases. Strand 0.5 in Grade 270 (ASTM A416 Table 1); jacking at 0.80·fpu·A
+// and the anchorage at 0.70·fpu·A (ACI 318-19 Table 20.3.2.5.1); ±7 % (ACI 318-11 §18.20.1, from
+// memory); under-force 2 % and seating 1/8 in over plan (common practice). A 30 m straight tendon.
+
+const strand = findStrandSize("0.5 in")!;
+const PJ = 0.8 * strand.minBreakingStrengthN;
+const SLOPE = 6000;
+const TARGET = PJ / SLOPE;
+const CAL = {
+  id: "cal",
+  calibratedOn: "2026-11-01",
+  validUntil: "2027-04-30",
+  slope: SLOPE,
+  intercept: 0,
+  minPressureMPa: 3,
+  maxPressureMPa: 40,
+};
+
+function base(): JudgeInput {
+  return {
+    project: {
+      tolerancePct: 7,
+      shortTendonFloorMm: null,
+      comparisonBasis: "net",
+      countJackGrip: false,
+      frictionMu: 0.07,
+      wobblePerM: 0.0033,
+      anchorSetMm: 6,
+      unitSystem: "si",
+      readingResolution: "1mm",
+      timeZone: "America/Chicago",
+      requiredConcreteMpa: 20,
+    },
+    tendon: {
+      strandSize: "0.5 in",
+      strandCount: 1,
+      segments: [{ lengthMm: 30_000, angleRad: 0 }],
+      ends: "A",
+      jackGripMm: null,
+    },
+    lot: null,
+    pour: { concreteStrengthMpa: 25 },
+    sets: [{ id: "set", name: "Jack 1", jackGripMm: null, maxForceN: null, calibrations: [CAL] }],
+    records: [],
+  };
+}
+
+function perfectNet(): number {
+  const j = judgeStressing({ ...base(), records: [rec({ measuredMm: 100 })] });
+  return j.ends[0]!.predictedMm;
+}
+
+function rec(over: Partial<JudgeRecord> = {}): JudgeRecord {
+  return {
+    id: over.id ?? "r1",
+    chainId: over.chainId ?? over.id ?? "r1",
+    revision: 1,
+    end: "A",
+    deviceTime: "2026-12-02T16:00:00Z",
+    receivedAt: "2026-12-02T16:05:00Z",
+    equipmentSetId: "set",
+    calibrationId: null,
+    expiredCalibrationReason: null,
+    readingMethod: "marks",
+    initialPressureMPa: null,
+    finalPressureMPa: TARGET,
+    measuredMm: 100,
+    strokeCount: 1,
+    drawInMm: null,
+    seatingMm: null,
+    stressingOrder: null,
+    wireBreaks: 0,
+    ...over,
+  };
+}
+
+type Case = { name: string; change: (i: JudgeInput) => JudgeInput; raised: boolean; reason?: RegExp };
+
+const P = perfectNet();
+const cases: Record<RuleKind, Case[]> = {
+  out_of_band: [
+    { name: "perfect reading", change: (i) => ({ ...i, records: [rec({ measuredMm: P })] }), raised: false },
+    { name: "6.9 % long", change: (i) => ({ ...i, records: [rec({ measuredMm: P * 1.069 })] }), raised: false },
+    {
+      name: "7.5 % long",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P * 1.075 })] }),
+      raised: true,
+      reason: /long of the ±7 % band/,
+    },
+    {
+      name: "10 % short",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P * 0.9 })] }),
+      raised: true,
+      reason: /net of anchor set/,
+    },
+    {
+      name: "lone end of a two-end tendon is provisional",
+      change: (i) => ({ ...i, tendon: { ...i.tendon, ends: "both" }, records: [rec({ measuredMm: P * 0.5 })] }),
+      raised: false,
+    },
+  ],
+  under_force: [
+    { name: "at 100 %", change: (i) => ({ ...i, records: [rec({ measuredMm: P })] }), raised: false },
+    {
+      name: "at 98.5 %",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P, finalPressureMPa: 0.985 * TARGET })] }),
+      raised: false,
+    },
+    {
+      name: "at 94 %",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P, finalPressureMPa: 0.94 * TARGET })] }),
+      raised: true,
+      reason: /94\.0 %/,
+    },
+    {
+      name: "0.75 factor project at 0.75",
+      change: (i) => ({
+        ...i,
+        project: { ...i.project, jackingForceFactor: 0.75 },
+        records: [rec({ measuredMm: P, finalPressureMPa: (0.75 / 0.8) * TARGET })],
+      }),
+      raised: false,
+    },
+  ],
+  jacking_over_limit: [
+    { name: "at 0.80", change: (i) => ({ ...i, records: [rec({ measuredMm: P })] }), raised: false },
+    {
+      name: "at 0.84",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P, finalPressureMPa: 1.05 * TARGET })] }),
+      raised: true,
+      reason: /0\.80·fpu·A/,
+    },
+    {
+      name: "over the set's rated maximum",
+      change: (i) => ({ ...i, sets: [{ ...i.sets[0]!, maxForceN: 0.9 * PJ }], records: [rec({ measuredMm: P })] }),
+      raised: true,
+      reason: /rated maximum/,
+    },
+  ],
+  // Straight 30 m, wobble loss p ≈ 0.0033 per m · 147 kN ≈ 0.485 N/mm; influence x = √(Δset·A·E/p) and loss
+  // 2·p·x at the anchor (textbook anchor-set triangle, hand-worked): 6 mm → x ≈ 15.5 m, loss ≈ 15 kN,
+  // 132 kN ≈ 0.72·fpu·A left at the anchor (over); 12 mm → loss ≈ 21 kN, 126 kN ≈ 0.685·fpu·A (under).
+  anchor_over_limit: [
+    {
+      name: "6 mm set on a low-friction tendon leaves 0.72",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P })] }),
+      raised: true,
+      reason: /0\.70·fpu·A/,
+    },
+    {
+      name: "12 mm set leaves 0.685",
+      change: (i) => ({ ...i, project: { ...i.project, anchorSetMm: 12 }, records: [rec({ measuredMm: P - 6 })] }),
+      raised: false,
+    },
+  ],
+  calibration_expired: [
+    { name: "in date", change: (i) => ({ ...i, records: [rec({ measuredMm: P })] }), raised: false },
+    {
+      name: "after expiry",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P, deviceTime: "2027-05-02T16:00:00Z" })] }),
+      raised: true,
+      reason: /outside its calibration/,
+    },
+    {
+      name: "evening of the last day in Chicago is still in date",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P, deviceTime: "2027-05-01T02:00:00Z" })] }),
+      raised: false,
+    },
+  ],
+  calibration_range: [
+    { name: "in range", change: (i) => ({ ...i, records: [rec({ measuredMm: P })] }), raised: false },
+    {
+      name: "above range",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P, finalPressureMPa: 41 })] }),
+      raised: true,
+      reason: /outside the calibrated range/,
+    },
+  ],
+  seating_excess: [
+    { name: "none measured", change: (i) => ({ ...i, records: [rec({ measuredMm: P })] }), raised: false },
+    {
+      name: "8 mm against 6 + 3.175",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P, seatingMm: 8 })] }),
+      raised: false,
+    },
+    {
+      name: "10 mm against 6 + 3.175",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P, seatingMm: 10 })] }),
+      raised: true,
+      reason: /Seating measured 10 mm/,
+    },
+  ],
+  wire_break: [
+    { name: "none", change: (i) => ({ ...i, records: [rec({ measuredMm: P })] }), raised: false },
+    {
+      name: "two",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P, wireBreaks: 2 })] }),
+      raised: true,
+      reason: /2 wire breaks/,
+    },
+  ],
+  concrete_unconfirmed: [
+    { name: "confirmed above", change: (i) => ({ ...i, records: [rec({ measuredMm: P })] }), raised: false },
+    {
+      name: "not confirmed",
+      change: (i) => ({ ...i, pour: { concreteStrengthMpa: null }, records: [rec({ measuredMm: P })] }),
+      raised: true,
+      reason: /before the pour's concrete strength/,
+    },
+    {
+      name: "below",
+      change: (i) => ({ ...i, pour: { concreteStrengthMpa: 15 }, records: [rec({ measuredMm: P })] }),
+      raised: true,
+      reason: /below the 20 MPa/,
+    },
+  ],
+  stressed_twice: [
+    { name: "once", change: (i) => ({ ...i, records: [rec({ measuredMm: P })] }), raised: false },
+    {
+      name: "twice, no order",
+      change: (i) => ({
+        ...i,
+        records: [rec({ measuredMm: P }), rec({ id: "r2", measuredMm: P, deviceTime: "2026-12-02T17:00:00Z" })],
+      }),
+      raised: true,
+      reason: /stressed 2 times/,
+    },
+    {
+      name: "twice, after a restress order",
+      change: (i) => ({
+        ...i,
+        dispositions: [{ id: "d1", flagId: "f1", decision: "restress", createdAt: "2026-12-02T16:30:00Z" }],
+        records: [
+          rec({ measuredMm: P }),
+          rec({ id: "r2", measuredMm: P, deviceTime: "2026-12-02T17:00:00Z", receivedAt: "2026-12-02T17:05:00Z" }),
+        ],
+      }),
+      raised: false,
+    },
+  ],
+};
+
+describe.each(Object.entries(cases))("rule %s", (kind, table) => {
+  it.each(table)("$name", ({ change, raised, reason }) => {
+    const input = change(base());
+    const finding = FLAG_RULES[kind as RuleKind]({ input, judgement: judgeStressing(input) });
+    if (!raised) expect(finding).toBeNull();
+    else {
+      expect(finding?.kind).toBe(kind);
+      expect(finding?.reason).toMatch(reason!);
+    }
+  });
+});

@@ -1,0 +1,183 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { seedDemo } from "@/db/seed/demo";
+import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
+import { addCalibration } from "@/lib/server/add-calibration";
+import { evaluateTendon } from "@/lib/server/evaluate-tendon";
+import { getProjectSettings } from "@/lib/server/get-project-settings";
+import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
+import { previewBasisChange } from "@/lib/server/reevaluate-project";
+import { updateProjectSettings } from "@/lib/server/update-project-settings";
+import { judgeStressing } from "@/lib/stressing/judge";
+import { demoFixture, insertRecord } from "../support/records";
+import { createTestDatabase, type TestDatabase } from "../support/database";
+
+// A change of the project's basis judges the stressed tendons again, on real PostgreSQL: the admin
+// sees how many verdicts it touches before saving; saving writes new evaluations with the reason,
+// raises the flags the rules now find and closes the open ones they no longer find.
+// Jacking at 0.80·fpu·A (ACI 318-19 Table 20.3.2.5.1), 0.5 in strand 41,300 lbf (ASTM A416 Table 1).
+
+let t: TestDatabase;
+let fx: Awaited<ReturnType<typeof demoFixture>>;
+beforeAll(async () => {
+  t = await createTestDatabase({ migrate: true });
+  await seedDemo(t.db);
+  fx = await demoFixture(t.db);
+});
+afterAll(async () => {
+  await t.drop();
+});
+
+const HALF_INCH = ASTM_A416_GRADE_270.find((s) => s.designation === "0.5 in")!;
+
+describe("re-evaluation when the project's basis changes", () => {
+  it("previews, re-judges with the reason, raises and closes flags by the rules", async () => {
+    const tendon = await fx.tendon("2-1-U06");
+    const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tendon.id });
+    // The net prediction for marks on this tendon, from the same judge.
+    const probe = judgeStressing({
+      project: basis.project,
+      tendon: basis.tendon,
+      lot: basis.lot,
+      sets: [{ id: "s", name: "s", jackGripMm: null, maxForceN: null, calibrations: [] }],
+      records: [
+        {
+          id: "p",
+          chainId: "p",
+          revision: 1,
+          end: "A",
+          deviceTime: "2026-12-01T16:00:00Z",
+          equipmentSetId: "s",
+          calibrationId: null,
+          expiredCalibrationReason: null,
+          readingMethod: "marks",
+          initialPressureMPa: null,
+          finalPressureMPa: 30,
+          measuredMm: 100,
+          strokeCount: 1,
+          drawInMm: null,
+          seatingMm: null,
+          stressingOrder: null,
+          wireBreaks: 0,
+        },
+      ],
+    });
+    const c = await t.db
+      .selectFrom("calibrations")
+      .select(["slope_n_per_mpa", "intercept_n"])
+      .where("equipment_set_id", "=", fx.setA)
+      .executeTakeFirstOrThrow();
+    const pressure = (0.8 * HALF_INCH.minBreakingStrengthN - c.intercept_n) / c.slope_n_per_mpa;
+    // 6 % long: in the ±7 % band, out of a ±5 % one.
+    await insertRecord(t.db, {
+      projectId: fx.projectId,
+      tendon,
+      end: "A",
+      equipmentSetId: fx.setA,
+      authorId: fx.crewId,
+      measuredMm: probe.ends[0]!.predictedMm * 1.06,
+      finalPressureMPa: pressure,
+    });
+    const first = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+    expect(first).toMatchObject({ verdict: "in band", flagKinds: [] });
+    expect(first.deviationPct).toBeCloseTo(6, 6);
+
+    const preview = await previewBasisChange(t.db, { projectId: fx.projectId, basis: { tolerancePct: 5 } });
+    expect(preview.tags).toContain("2-1-U06");
+    expect(preview.stressed).toBeGreaterThanOrEqual(preview.verdictsChanging);
+    const untouched = await t.db.selectFrom("evaluations").select("id").where("tendon_id", "=", tendon.id).execute();
+    expect(untouched).toHaveLength(1); // the preview wrote nothing
+
+    const settings = await getProjectSettings(t.db, fx.projectId);
+    const narrowed = await updateProjectSettings(t.db, {
+      projectId: fx.projectId,
+      values: { ...settings, tolerancePct: 5 },
+      by: fx.crewId,
+    });
+    expect(narrowed.reevaluated).toBe(preview.stressed);
+    expect(narrowed.changed).toBeGreaterThanOrEqual(1);
+    const latest = () =>
+      t.db
+        .selectFrom("evaluations")
+        .select(["verdict", "reason", "deviation_pct", "result"])
+        .where("tendon_id", "=", tendon.id)
+        .orderBy("created_at", "desc")
+        .executeTakeFirstOrThrow();
+    const after = await latest();
+    expect(after.verdict).toBe("long");
+    expect(after.reason).toBe("project settings changed: tolerance pct");
+    expect(after.result).toMatchObject({ basis: expect.stringMatching(/net of anchor set/) });
+    const flags = () =>
+      t.db.selectFrom("flags").select(["kind", "status", "close_reason"]).where("tendon_id", "=", tendon.id).execute();
+    expect(await flags()).toEqual([expect.objectContaining({ kind: "out_of_band", status: "open" })]);
+
+    const widened = await updateProjectSettings(t.db, {
+      projectId: fx.projectId,
+      values: { ...settings, tolerancePct: 7 },
+      by: fx.crewId,
+    });
+    expect(widened.closedFlags).toBeGreaterThanOrEqual(1);
+    expect((await latest()).verdict).toBe("in band");
+    const closed = await flags();
+    expect(closed[0]).toMatchObject({ kind: "out_of_band", status: "closed" });
+    expect(closed[0]!.close_reason).toMatch(/no longer finds this/);
+
+    // Saving the same settings again judges nothing again.
+    const same = await updateProjectSettings(t.db, {
+      projectId: fx.projectId,
+      values: { ...settings, tolerancePct: 7 },
+      by: fx.crewId,
+    });
+    expect(same.reevaluated).toBe(0);
+  });
+
+  it("a calibration added to a set judges again the tendons whose records named none", async () => {
+    const tendon = await fx.tendon("2-1-U08");
+    const c = await t.db
+      .selectFrom("calibrations")
+      .select(["slope_n_per_mpa", "intercept_n"])
+      .where("equipment_set_id", "=", fx.setA)
+      .executeTakeFirstOrThrow();
+    const pressure = (0.8 * HALF_INCH.minBreakingStrengthN - c.intercept_n) / c.slope_n_per_mpa;
+    await insertRecord(t.db, {
+      projectId: fx.projectId,
+      tendon,
+      end: "A",
+      equipmentSetId: fx.setA,
+      authorId: fx.crewId,
+      measuredMm: 150,
+      finalPressureMPa: pressure,
+    });
+    await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+    const today = new Date().toISOString().slice(0, 10);
+    await addCalibration(t.db, {
+      projectId: fx.projectId,
+      setId: fx.setA,
+      values: {
+        calibratedOn: today,
+        validUntil: null,
+        laboratory: "Test lab",
+        certificateAttachmentId: null,
+        points: [0.25, 0.5, 0.75, 1].map((f) => ({
+          pressureMPa: f * 40,
+          forceN: f * 40 * c.slope_n_per_mpa + c.intercept_n,
+        })),
+      },
+    });
+    const latest = await t.db
+      .selectFrom("evaluations")
+      .select("reason")
+      .where("tendon_id", "=", tendon.id)
+      .orderBy("created_at", "desc")
+      .executeTakeFirstOrThrow();
+    expect(latest.reason).toBe(`calibration of ${today} added to the equipment set`);
+  });
+
+  it("refuses an unknown time zone by name", async () => {
+    const { projectSettingsSchema } = await import("@/lib/schemas/project-settings");
+    const settings = await getProjectSettings(t.db, fx.projectId);
+    const bad = projectSettingsSchema.safeParse({ ...settings, timeZone: "Mars/Olympus" });
+    expect(bad.success).toBe(false);
+    expect(bad.error!.issues[0]!.path).toEqual(["timeZone"]);
+    expect(projectSettingsSchema.safeParse({ ...settings, timeZone: "America/Denver" }).success).toBe(true);
+  });
+});
