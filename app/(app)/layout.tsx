@@ -13,7 +13,7 @@ export default async function SignedInLayout({ children }: { children: ReactNode
   return (
     <div className="min-h-screen">
       <AppNav items={navFor(roles)} userName={user.name} />
-      <div className="mx-auto max-w-6xl px-4 py-8">{children}</div>
+      <div className="mx-auto max-w-7xl px-4 py-8">{children}</div>
     </div>
   );
 }

@@ -8,6 +8,7 @@ import { z } from "zod";
 import { units } from "@/components/setup/unit-fields";
 import { FileUpload } from "@/components/uploads/file-upload";
 import { FormMessage } from "@/components/ui/form-message";
+import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { calibrationSchema, type CalibrationInput } from "@/lib/schemas/calibration";
 import { equipmentSetSchema, type EquipmentSetInput } from "@/lib/schemas/equipment";
@@ -29,19 +30,27 @@ function Text({ id, label, error, hint, ...rest }: { id: string; label: string; 
   );
 }
 
-function setForm(us: boolean) {
+function setFields(us: boolean) {
   const system = us ? "US" : "SI";
-  return z
-    .object({ name: z.string(), jackSerial: z.string(), gaugeSerial: z.string(), pumpSerial: z.string(), jackGripMm: units.length(system, us ? "in" : "mm", false), maxForceN: units.force(system, us ? "kip" : "kN", false) })
-    .transform((v) => ({ ...v, pumpSerial: v.pumpSerial.trim() || null }))
-    .pipe(equipmentSetSchema);
+  return {
+    name: z.string(),
+    jackSerial: z.string(),
+    gaugeSerial: z.string(),
+    pumpSerial: z.string(),
+    jackGripMm: units.length(system, us ? "in" : "mm", false),
+    maxForceN: units.force(system, us ? "kip" : "kN", false),
+  };
+}
+
+function setResolver(us: boolean) {
+  return formResolver(setFields(us), (v) => ({ ...v, pumpSerial: v.pumpSerial?.trim() || null }), equipmentSetSchema);
 }
 
 export function EquipmentSetForm({ projectId, us }: { projectId: string; us: boolean }) {
   const { mutate } = useSWRConfig();
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
-  const form = useForm<z.input<ReturnType<typeof setForm>>, unknown, EquipmentSetInput>({
-    resolver: zodResolver(setForm(us)),
+  const form = useForm<{ [K in keyof ReturnType<typeof setFields>]: string }, unknown, EquipmentSetInput>({
+    resolver: setResolver(us),
     defaultValues: { name: "", jackSerial: "", gaugeSerial: "", pumpSerial: "", jackGripMm: "", maxForceN: "" },
   });
   const e = form.formState.errors as Errors;
@@ -59,6 +68,7 @@ export function EquipmentSetForm({ projectId, us }: { projectId: string; us: boo
     <form onSubmit={onSubmit} noValidate className="card space-y-4">
       <h2 className="text-lead font-semibold">Add an equipment set</h2>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
+      <FormMessage tone="error">{e.root?.message}</FormMessage>
       <div className="grid gap-4 md:grid-cols-3">
         <Text id="e-name" label="Set name" error={e.name?.message} {...form.register("name")} />
         <Text id="e-jack" label="Jack serial" error={e.jackSerial?.message} {...form.register("jackSerial")} />
