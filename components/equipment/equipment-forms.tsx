@@ -60,7 +60,7 @@ export function EquipmentSetForm({ projectId, us }: { projectId: string; us: boo
       for (const [k, m] of Object.entries(r.error.fields ?? {})) form.setError(k as "name", { message: m.join(" ") });
       return setMessage({ tone: "error", text: r.error.message });
     }
-    setMessage({ tone: "info", text: `Set ${values.name} added. Add its calibration next.` });
+    setMessage({ tone: "info", text: `${values.name} added. Add its calibration next.` });
     form.reset();
     void mutate(equipmentSetsKey(projectId));
   });

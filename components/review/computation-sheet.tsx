@@ -3,6 +3,7 @@ import { VerdictBadge } from "@/components/ui/verdict-badge";
 import type { Verdict } from "@/db/types";
 import { showComputedLength, showForce, showLength, showPct } from "@/lib/stressing/display";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
+import { N_PER_KIP } from "@/lib/units";
 
 const deg = (rad: number) => `${((rad * 180) / Math.PI).toFixed(2)}°`;
 
@@ -85,7 +86,7 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
         <p className="mt-1 text-ink-soft">
           P(x) = Pj·e<sup>−(K·x + μ·α)</sup>; each segment stretches Δ = P·L·(1 − e<sup>−β</sup>)/(β·A·E) with β = K·L + μ·α.
         </p>
-        <div className="mt-2 overflow-x-auto">
+        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Segments, scrolls sideways">
           <table className="w-full min-w-[560px]">
             <thead>
               <tr className="border-b-2 border-ink text-left text-label uppercase">
@@ -112,7 +113,12 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
           </table>
         </div>
         <div className="card mt-4">
-          <ForceProfileChart profile={profile} formatForce={(n) => showForce(p, n)} formatLength={(mm) => showComputedLength(p, mm)} />
+          <ForceProfileChart
+            profile={profile}
+            formatForce={(n) => showForce(p, n)}
+            formatLength={(mm) => showComputedLength(p, mm)}
+            newtonsPerUnit={p.unitSystem === "us" ? N_PER_KIP : 1000}
+          />
         </div>
       </Section>
 

@@ -24,7 +24,7 @@ export function RecordsTable({
   );
   // The Map above keeps the last revision of each chain, since records come ordered by revision.
   return (
-    <div className="overflow-x-auto">
+    <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Stressing records, scrolls sideways">
       <table className="w-full min-w-[720px] bg-white">
         <thead>
           <tr className="border-b-2 border-ink text-left text-label uppercase">
