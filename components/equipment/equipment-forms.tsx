@@ -1,6 +1,5 @@
 "use client";
 
-import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { useSWRConfig } from "swr";
@@ -101,15 +100,34 @@ export function readPoints(text: string, us: boolean): { points: CalibrationInpu
   return { points, error: null };
 }
 
-function calForm(us: boolean) {
-  return z
-    .object({ calibratedOn: z.string(), validUntil: z.string(), pointsText: z.string(), laboratory: z.string(), certificateAttachmentId: z.string() })
-    .transform((v, ctx) => {
-      const { points, error } = readPoints(v.pointsText, us);
-      if (error) ctx.addIssue({ code: "custom", path: ["pointsText"], message: error });
-      return { calibratedOn: v.calibratedOn, validUntil: v.validUntil || null, points, laboratory: v.laboratory.trim() || null, certificateAttachmentId: v.certificateAttachmentId || null };
-    })
-    .pipe(calibrationSchema);
+function calFields(us: boolean) {
+  return {
+    calibratedOn: z.string(),
+    validUntil: z.string(),
+    pointsText: z.string().transform((text, ctx) => {
+      const { points, error } = readPoints(text, us);
+      if (error) ctx.addIssue({ code: "custom", message: error });
+      return points;
+    }),
+    laboratory: z.string(),
+    certificateAttachmentId: z.string(),
+  };
+}
+
+function calResolver(us: boolean) {
+  return formResolver(
+    calFields(us),
+    (v) => ({
+      calibratedOn: v.calibratedOn,
+      validUntil: v.validUntil || null,
+      points: v.pointsText ?? [],
+      laboratory: v.laboratory?.trim() || null,
+      certificateAttachmentId: v.certificateAttachmentId || null,
+    }),
+    calibrationSchema,
+    { points: "pointsText" },
+    { pointsText: "Line" },
+  );
 }
 
 export function CalibrationForm({ projectId, us, initial, validityDays }: { projectId: string; us: boolean; initial: EquipmentSetList; validityDays: number }) {
@@ -119,8 +137,8 @@ export function CalibrationForm({ projectId, us, initial, validityDays }: { proj
   const [chosen, setChosen] = useState("");
   const setId = sets.some((s) => s.id === chosen) ? chosen : (sets[0]?.id ?? "");
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
-  const form = useForm<z.input<ReturnType<typeof calForm>>, unknown, CalibrationInput>({
-    resolver: zodResolver(calForm(us)),
+  const form = useForm<{ [K in keyof ReturnType<typeof calFields>]: string }, unknown, CalibrationInput>({
+    resolver: calResolver(us),
     defaultValues: { calibratedOn: "", validUntil: "", pointsText: "", laboratory: "", certificateAttachmentId: "" },
   });
   const e = form.formState.errors as Errors;
@@ -139,6 +157,7 @@ export function CalibrationForm({ projectId, us, initial, validityDays }: { proj
     <form onSubmit={onSubmit} noValidate className="card space-y-4">
       <h2 className="text-lead font-semibold">Add a calibration</h2>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
+      <FormMessage tone="error">{e.root?.message}</FormMessage>
       <div className="grid gap-4 md:grid-cols-3">
         <div>
           <label htmlFor="c-set" className="field-label">

@@ -3,6 +3,7 @@ import type { Verdict } from "@/db/types";
 import { formatDateTime } from "@/lib/format/dates";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
 import { showComputedLength, showLength, showPct } from "@/lib/stressing/display";
+import { inWords } from "./flag-trail";
 
 interface Judgement {
   measuredMm: number;
@@ -25,7 +26,7 @@ export function DecisionSummary({ c, flagId, timeZone }: { c: TendonCase; flagId
     figures.push(["Deviation", showPct(judgement.comparison.deviationPct)]);
   }
   return (
-    <section aria-labelledby="decision-summary-heading" className="card space-y-3" data-flag-id={flag?.id}>
+    <section aria-labelledby="decision-summary-heading" className="card space-y-3 p-4" data-flag-id={flag?.id}>
       <h2 id="decision-summary-heading" className="sr-only">
         The flag in question
       </h2>
@@ -37,17 +38,14 @@ export function DecisionSummary({ c, flagId, timeZone }: { c: TendonCase; flagId
           <span className="text-ink-soft">Not stressed yet</span>
         )}
       </div>
-      {flag && (
-        <p>
-          {flag.reason} <span className="text-label text-ink-faint">Raised {formatDateTime(flag.created_at, timeZone)}.</span>
-        </p>
-      )}
+      {/* An out-of-band flag's reason repeats the figures below; other flags say what happened. */}
+      {flag && (flag.kind !== "out_of_band" || figures.length === 0) && <p>{inWords(flag.reason, c, (d) => formatDateTime(d, timeZone))}</p>}
       {figures.length > 0 && (
-        <dl className="grid grid-cols-2 gap-x-4 gap-y-2">
+        <dl className="grid grid-cols-2 gap-x-4 gap-y-1 sm:grid-cols-4">
           {figures.map(([label, value]) => (
             <div key={label}>
               <dt className="field-label">{label}</dt>
-              <dd className="text-lead font-bold tabular-nums">{value}</dd>
+              <dd className="font-bold tabular-nums">{value}</dd>
             </div>
           ))}
         </dl>

@@ -41,12 +41,22 @@ function readLength(text: string, unit: "in" | "mm", field: string): { mm: numbe
 }
 
 function FlagPicker({ flags, id, selected }: { flags: OpenFlag[]; id: string; selected?: string }) {
+  const chosen = selected && flags.some((f) => f.id === selected) ? selected : flags[0]?.id;
+  // One open flag: nothing to choose, so it is named, not offered.
+  if (flags.length === 1)
+    return (
+      <p>
+        <span className="text-label font-semibold uppercase text-ink-faint">Flag: </span>
+        <input type="hidden" id={id} name="flagId" value={flags[0]!.id} />
+        {flags[0]!.label}
+      </p>
+    );
   return (
     <div>
       <label htmlFor={id} className="field-label">
         Flag
       </label>
-      <select id={id} name="flagId" className="field-input mt-1" defaultValue={selected && flags.some((f) => f.id === selected) ? selected : flags[0]?.id}>
+      <select id={id} name="flagId" className="field-input mt-1" defaultValue={chosen}>
         {flags.map((f) => (
           <option key={f.id} value={f.id}>
             {f.label}
@@ -144,7 +154,7 @@ export function DispositionForm({
   if (!flags.length) return null;
   return (
     <form
-      className="card space-y-4 border-2 border-ink"
+      className="card space-y-3 border-2 border-ink"
       aria-label="Record a disposition"
       onSubmit={async (e) => {
         e.preventDefault();
@@ -163,10 +173,10 @@ export function DispositionForm({
       <FlagPicker flags={flags} id="disposition-flag" selected={selected} />
       <fieldset>
         <legend className="field-label">Disposition</legend>
-        <div className="mt-1 grid gap-2 sm:grid-cols-2" aria-describedby="decision-error">
+        <div className="mt-1 grid gap-2 sm:grid-cols-3" aria-describedby="decision-error">
           {DECISIONS.map((d) => (
-            <label key={d} className="flex min-h-touch items-center gap-2 rounded-md border-2 border-concrete-400 px-3">
-              <input type="radio" name="decision" value={d} className="h-5 w-5" />
+            <label key={d} className="flex min-h-touch items-center gap-2 rounded-md border-2 border-concrete-400 px-3 py-1 leading-tight">
+              <input type="radio" name="decision" value={d} className="h-5 w-5 shrink-0" />
               {DECISION_LABELS[d]}
             </label>
           ))}

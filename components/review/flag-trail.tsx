@@ -12,6 +12,20 @@ const REVIEW_LABELS: Record<string, string> = {
   closed_paperwork: "Closed as paperwork",
 };
 
+const UUID = "[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}";
+
+/** A stored reason in words: the ids it names become what they are and when (no raw ids on screen). */
+export function inWords(text: string, c: TendonCase, when: (d: Date | string) => string): string {
+  return text
+    .replace(new RegExp(`disposition (${UUID})`, "gi"), (_, id: string) => {
+      const d = c.dispositions.find((x) => x.id === id);
+      return d ? `the disposition of ${when(d.created_at)}` : "the engineer's disposition";
+    })
+    .replace(new RegExp(`evaluation ${UUID}`, "gi"), "the new evaluation")
+    .replace(new RegExp(`record ${UUID}`, "gi"), "the record")
+    .replace(new RegExp(UUID, "gi"), "(reference on file)");
+}
+
 /** Each flag with its reason and its whole trail: findings, dispositions, closing. */
 export function FlagTrail({
   c,
@@ -39,7 +53,7 @@ export function FlagTrail({
               <FlagChip kind={flag.kind} status={flag.status} />
               <span className="text-label text-ink-faint">raised {when(flag.created_at)}</span>
             </div>
-            <p className="mt-2">{flag.reason}</p>
+            <p className="mt-2">{inWords(flag.reason, c, when)}</p>
             {trail.length > 0 && (
               <ol className="mt-3 space-y-2 border-l-4 border-concrete-300 pl-4">
                 {trail.map((item) =>
@@ -76,7 +90,7 @@ export function FlagTrail({
             {flag.status === "closed" && (
               <p className="mt-3 text-label">
                 Closed {flag.closed_at ? when(flag.closed_at) : ""}
-                {flag.closedByName ? ` by ${flag.closedByName}` : ""}: {flag.close_reason}
+                {flag.closedByName ? ` by ${flag.closedByName}` : ""}: {flag.close_reason ? inWords(flag.close_reason, c, when) : ""}
               </p>
             )}
           </li>

@@ -44,3 +44,20 @@ describe("a form resolver that tells every fault at once", () => {
     expect(values).toEqual({ name: "L3 east", level: null, areaM2: 1250, plannedStressingDate: "2026-12-09", status: "planned" });
   });
 });
+
+describe("rows of a list box", () => {
+  it("names the row at fault, whether the box or the SI schema finds it", async () => {
+    const resolve = formResolver(
+      { segments: z.array(z.object({ length: units.length("US", "ft", false) })) },
+      ({ segments }) => ({ segments: (segments ?? []).map((s) => ({ lengthMm: s.length })) }),
+      z.object({ segments: z.array(z.object({ lengthMm: z.number({ error: "Give the length." }).positive("Give a length above 0.") })) }),
+      {},
+      { segments: "Segment" },
+    );
+    const options = { fields: {}, shouldUseNativeValidation: false };
+    const unreadable = await resolve({ segments: [{ length: "15" }, { length: "fifteen" }] }, undefined, options);
+    expect(unreadable.errors.segments?.message).toMatch(/^Segment 2: /);
+    const empty = await resolve({ segments: [{ length: "15" }, { length: "" }] }, undefined, options);
+    expect(empty.errors.segments?.message).toBe("Segment 2: Give the length.");
+  });
+});

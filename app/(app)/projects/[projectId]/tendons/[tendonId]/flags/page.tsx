@@ -50,8 +50,8 @@ export default async function TendonFlagsPage({
   const mayReview = can(access.role, "flag.review");
 
   return (
-    <main className="space-y-6">
-      <header>
+    <main className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_minmax(0,36rem)] xl:grid-rows-[auto_1fr] xl:items-start">
+      <header className="xl:col-start-1 xl:row-start-1">
         <p className="field-label">
           {access.projectName} · {c.basis.pour.name}
           {c.release && " · released"}
@@ -62,62 +62,68 @@ export default async function TendonFlagsPage({
         </p>
       </header>
 
-      <div className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_minmax(0,34rem)] xl:items-start">
-        <div className="space-y-4 xl:sticky xl:top-4 xl:order-2" data-testid="decision-column">
-          {requested === undefined && typeof flagParam === "string" && (
-            <p role="status" className="rounded-md border-2 border-ink bg-concrete-100 p-3">
-              The flag in the link is not on this tendon; showing {open.length ? "its first open flag" : "its flags"} instead.
-            </p>
-          )}
-          <DecisionSummary c={c} flagId={selected} timeZone={timeZone} />
-          {open.length > 0 && (mayDecide || mayReview) ? (
-            <section aria-labelledby="actions-heading" className="space-y-4">
-              <h2 id="actions-heading" className="sr-only">
-                {mayDecide ? "Decision" : "Findings"}
-              </h2>
-              {mayDecide && <DispositionForm projectId={projectId} flags={open} engineerName={access.user.name} selected={selected} />}
-              {mayReview && <ReviewForm projectId={projectId} flags={open} unit={unit} selected={selected} />}
-            </section>
-          ) : (
-            open.length === 0 && <p className="card">Every flag on this tendon is closed; nothing waits for a decision.</p>
-          )}
-          <Caution />
-        </div>
-
-        <div className="space-y-6 xl:order-1">
-          <section aria-labelledby="flags-heading" className="space-y-3">
-            <h2 id="flags-heading" className="text-lead font-bold">
-              Flags and their trail
+      <div
+        className="space-y-4 xl:sticky xl:top-4 xl:col-start-2 xl:row-span-2 xl:row-start-1"
+        data-testid="decision-column"
+      >
+        {requested === undefined && typeof flagParam === "string" && (
+          <p role="status" className="rounded-md border-2 border-ink bg-concrete-100 p-3">
+            The flag in the link is not on this tendon; showing {open.length ? "its first open flag" : "its flags"}{" "}
+            instead.
+          </p>
+        )}
+        <DecisionSummary c={c} flagId={selected} timeZone={timeZone} />
+        {open.length > 0 && (mayDecide || mayReview) ? (
+          <section aria-labelledby="actions-heading" className="space-y-4">
+            <h2 id="actions-heading" className="sr-only">
+              {mayDecide ? "Decision" : "Findings"}
             </h2>
-            <FlagTrail c={c} showLength={length} timeZone={timeZone} selected={selected} />
+            {mayDecide && (
+              <DispositionForm projectId={projectId} flags={open} engineerName={access.user.name} selected={selected} />
+            )}
+            {mayReview && <ReviewForm projectId={projectId} flags={open} unit={unit} selected={selected} />}
           </section>
+        ) : (
+          open.length === 0 && (
+            <p className="card">Every flag on this tendon is closed; nothing waits for a decision.</p>
+          )
+        )}
+        <Caution />
+      </div>
 
-          <section aria-labelledby="records-heading" className="space-y-3">
-            <h2 id="records-heading" className="text-lead font-bold">
-              Stressing records
-            </h2>
-            <RecordsTable
-              c={c}
-              showLength={length}
-              showPressure={(mpa) => showPressure(p, mpa)}
-              canCorrect={can(access.role, "record.correct")}
-              unit={unit}
-              timeZone={timeZone}
-            />
-          </section>
+      <div className="space-y-6 xl:col-start-1 xl:row-start-2">
+        <section aria-labelledby="flags-heading" className="space-y-3">
+          <h2 id="flags-heading" className="text-lead font-bold">
+            Flags and their trail
+          </h2>
+          <FlagTrail c={c} showLength={length} timeZone={timeZone} selected={selected} />
+        </section>
 
-          <section aria-labelledby="calc-heading" className="space-y-3">
-            <h2 id="calc-heading" className="text-lead font-bold">
-              Calculation sheet
-            </h2>
-            <p className="text-ink-soft">
-              Evaluated by {c.evaluation?.engine_version ?? "the elongation engine"}
-              {c.evaluation ? ` on ${formatDateTime(c.evaluation.created_at, timeZone)} (${c.evaluation.reason})` : ""}. Open or close each
-              part.
-            </p>
-            <ComputationSheet c={c} />
-          </section>
-        </div>
+        <section aria-labelledby="records-heading" className="space-y-3">
+          <h2 id="records-heading" className="text-lead font-bold">
+            Stressing records
+          </h2>
+          <RecordsTable
+            c={c}
+            showLength={length}
+            showPressure={(mpa) => showPressure(p, mpa)}
+            canCorrect={can(access.role, "record.correct")}
+            unit={unit}
+            timeZone={timeZone}
+          />
+        </section>
+
+        <section aria-labelledby="calc-heading" className="space-y-3">
+          <h2 id="calc-heading" className="text-lead font-bold">
+            Calculation sheet
+          </h2>
+          <p className="text-ink-soft">
+            Evaluated by {c.evaluation?.engine_version ?? "the elongation engine"}
+            {c.evaluation ? ` on ${formatDateTime(c.evaluation.created_at, timeZone)} (${c.evaluation.reason})` : ""}.
+            Open or close each part.
+          </p>
+          <ComputationSheet c={c} />
+        </section>
       </div>
     </main>
   );
