@@ -15,7 +15,7 @@ export default async function SignedInLayout({ children }: { children: ReactNode
     <div className="min-h-screen">
       <AppNav items={navFor(roles)} userName={user.name} />
       <MailFlowBanner user={user} />
-      <div className="mx-auto max-w-6xl px-4 py-8">{children}</div>
+      <div className="mx-auto max-w-7xl px-4 py-8">{children}</div>
     </div>
   );
 }

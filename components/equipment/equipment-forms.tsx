@@ -1,6 +1,5 @@
 "use client";
 
-import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { useSWRConfig } from "swr";
@@ -8,6 +7,7 @@ import { z } from "zod";
 import { units } from "@/components/setup/unit-fields";
 import { FileUpload } from "@/components/uploads/file-upload";
 import { FormMessage } from "@/components/ui/form-message";
+import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { calibrationSchema, type CalibrationInput } from "@/lib/schemas/calibration";
 import { equipmentSetSchema, type EquipmentSetInput } from "@/lib/schemas/equipment";
@@ -29,19 +29,27 @@ function Text({ id, label, error, hint, ...rest }: { id: string; label: string; 
   );
 }
 
-function setForm(us: boolean) {
+function setFields(us: boolean) {
   const system = us ? "US" : "SI";
-  return z
-    .object({ name: z.string(), jackSerial: z.string(), gaugeSerial: z.string(), pumpSerial: z.string(), jackGripMm: units.length(system, us ? "in" : "mm", false), maxForceN: units.force(system, us ? "kip" : "kN", false) })
-    .transform((v) => ({ ...v, pumpSerial: v.pumpSerial.trim() || null }))
-    .pipe(equipmentSetSchema);
+  return {
+    name: z.string(),
+    jackSerial: z.string(),
+    gaugeSerial: z.string(),
+    pumpSerial: z.string(),
+    jackGripMm: units.length(system, us ? "in" : "mm", false),
+    maxForceN: units.force(system, us ? "kip" : "kN", false),
+  };
+}
+
+function setResolver(us: boolean) {
+  return formResolver(setFields(us), (v) => ({ ...v, pumpSerial: v.pumpSerial?.trim() || null }), equipmentSetSchema);
 }
 
 export function EquipmentSetForm({ projectId, us }: { projectId: string; us: boolean }) {
   const { mutate } = useSWRConfig();
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
-  const form = useForm<z.input<ReturnType<typeof setForm>>, unknown, EquipmentSetInput>({
-    resolver: zodResolver(setForm(us)),
+  const form = useForm<{ [K in keyof ReturnType<typeof setFields>]: string }, unknown, EquipmentSetInput>({
+    resolver: setResolver(us),
     defaultValues: { name: "", jackSerial: "", gaugeSerial: "", pumpSerial: "", jackGripMm: "", maxForceN: "" },
   });
   const e = form.formState.errors as Errors;
@@ -51,7 +59,7 @@ export function EquipmentSetForm({ projectId, us }: { projectId: string; us: boo
       for (const [k, m] of Object.entries(r.error.fields ?? {})) form.setError(k as "name", { message: m.join(" ") });
       return setMessage({ tone: "error", text: r.error.message });
     }
-    setMessage({ tone: "info", text: `Set ${values.name} added. Add its calibration next.` });
+    setMessage({ tone: "info", text: `${values.name} added. Add its calibration next.` });
     form.reset();
     void mutate(equipmentSetsKey(projectId));
   });
@@ -59,6 +67,7 @@ export function EquipmentSetForm({ projectId, us }: { projectId: string; us: boo
     <form onSubmit={onSubmit} noValidate className="card space-y-4">
       <h2 className="text-lead font-semibold">Add an equipment set</h2>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
+      <FormMessage tone="error">{e.root?.message}</FormMessage>
       <div className="grid gap-4 md:grid-cols-3">
         <Text id="e-name" label="Set name" error={e.name?.message} {...form.register("name")} />
         <Text id="e-jack" label="Jack serial" error={e.jackSerial?.message} {...form.register("jackSerial")} />
@@ -91,15 +100,34 @@ export function readPoints(text: string, us: boolean): { points: CalibrationInpu
   return { points, error: null };
 }
 
-function calForm(us: boolean) {
-  return z
-    .object({ calibratedOn: z.string(), validUntil: z.string(), pointsText: z.string(), laboratory: z.string(), certificateAttachmentId: z.string() })
-    .transform((v, ctx) => {
-      const { points, error } = readPoints(v.pointsText, us);
-      if (error) ctx.addIssue({ code: "custom", path: ["pointsText"], message: error });
-      return { calibratedOn: v.calibratedOn, validUntil: v.validUntil || null, points, laboratory: v.laboratory.trim() || null, certificateAttachmentId: v.certificateAttachmentId || null };
-    })
-    .pipe(calibrationSchema);
+function calFields(us: boolean) {
+  return {
+    calibratedOn: z.string(),
+    validUntil: z.string(),
+    pointsText: z.string().transform((text, ctx) => {
+      const { points, error } = readPoints(text, us);
+      if (error) ctx.addIssue({ code: "custom", message: error });
+      return points;
+    }),
+    laboratory: z.string(),
+    certificateAttachmentId: z.string(),
+  };
+}
+
+function calResolver(us: boolean) {
+  return formResolver(
+    calFields(us),
+    (v) => ({
+      calibratedOn: v.calibratedOn,
+      validUntil: v.validUntil || null,
+      points: v.pointsText ?? [],
+      laboratory: v.laboratory?.trim() || null,
+      certificateAttachmentId: v.certificateAttachmentId || null,
+    }),
+    calibrationSchema,
+    { points: "pointsText" },
+    { pointsText: "Line" },
+  );
 }
 
 export function CalibrationForm({ projectId, us, initial, validityDays }: { projectId: string; us: boolean; initial: EquipmentSetList; validityDays: number }) {
@@ -109,8 +137,8 @@ export function CalibrationForm({ projectId, us, initial, validityDays }: { proj
   const [chosen, setChosen] = useState("");
   const setId = sets.some((s) => s.id === chosen) ? chosen : (sets[0]?.id ?? "");
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
-  const form = useForm<z.input<ReturnType<typeof calForm>>, unknown, CalibrationInput>({
-    resolver: zodResolver(calForm(us)),
+  const form = useForm<{ [K in keyof ReturnType<typeof calFields>]: string }, unknown, CalibrationInput>({
+    resolver: calResolver(us),
     defaultValues: { calibratedOn: "", validUntil: "", pointsText: "", laboratory: "", certificateAttachmentId: "" },
   });
   const e = form.formState.errors as Errors;
@@ -129,6 +157,7 @@ export function CalibrationForm({ projectId, us, initial, validityDays }: { proj
     <form onSubmit={onSubmit} noValidate className="card space-y-4">
       <h2 className="text-lead font-semibold">Add a calibration</h2>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
+      <FormMessage tone="error">{e.root?.message}</FormMessage>
       <div className="grid gap-4 md:grid-cols-3">
         <div>
           <label htmlFor="c-set" className="field-label">

@@ -8,7 +8,7 @@ const share = (s: number | null) => (s === null ? "—" : `${Math.round(s * 100)
 export function DriftTable({ caption, sets }: { caption: string; sets: SetDrift[] }) {
   if (!sets.length) return <p className="card">{caption}: no tendon is complete yet, so there is nothing to compare.</p>;
   return (
-    <div className="overflow-x-auto">
+    <div className="overflow-x-auto" tabIndex={0} role="region" aria-label={`${caption}, scrolls sideways`}>
       <table className="w-full border-collapse text-left" data-table="drift">
         <caption className="mb-2 text-left text-lead font-semibold">{caption}</caption>
         <thead>
@@ -58,7 +58,7 @@ export function ModulusTable({ moduli }: { moduli: ApparentModulus[] }) {
   if (!moduli.length)
     return <p className="card">No record on this pour was read at several gauge steps, so there is no apparent modulus to show.</p>;
   return (
-    <div className="overflow-x-auto">
+    <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Apparent modulus per tendon end, scrolls sideways">
       <table className="w-full border-collapse text-left" data-table="modulus">
         <thead>
           <tr className="border-b-2 border-ink">

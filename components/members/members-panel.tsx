@@ -1,12 +1,28 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { FormMessage } from "@/components/ui/form-message";
+import { useState } from "react";
+import { ConfirmDialog } from "@/components/ui/confirm-dialog";
+import { FieldError, FormMessage } from "@/components/ui/form-message";
 import { TextField } from "@/components/ui/text-field";
 import type { Role } from "@/db/types";
 import { ROLE_LABELS, ROLES } from "@/lib/auth/permissions";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
+import { formatDay } from "@/lib/format/dates";
+
+/** Roles whose rights cannot be handed out or taken back in passing: deciding on flags, running the project. */
+const WEIGHTY: ReadonlySet<Role> = new Set(["engineer", "admin"]);
+
+/** What a role change gives and takes, in words, for the confirmation. */
+export function roleChangeConsequence(name: string, from: Role, to: Role): string[] {
+  const lines = [`${name} changes from ${ROLE_LABELS[from]} to ${ROLE_LABELS[to]}, from their next page on.`];
+  if (to === "engineer") lines.push(`${name} will be able to record dispositions on flags and release pours, signed with their licence.`);
+  if (to === "admin") lines.push(`${name} will be able to change the project's settings, schedule and equipment, and add or remove people.`);
+  if (from === "engineer") lines.push(`${name} will no longer be able to record dispositions or release pours.`);
+  if (from === "admin") lines.push(`${name} will no longer be able to change settings or manage people.`);
+  return lines;
+}
 
 interface Member {
   userId: string;
@@ -23,10 +39,36 @@ interface Invitation {
   expired: boolean;
 }
 
-export function MembersPanel(props: { projectId: string; currentUserId: string; members: Member[]; invitations: Invitation[] }) {
+type Pending = { kind: "role"; member: Member; to: Role } | { kind: "remove"; member: Member };
+
+export function MembersPanel(props: { projectId: string; currentUserId: string; members: Member[]; invitations: Invitation[]; timeZone: string }) {
   const router = useRouter();
   const { message, fields, call } = useApiCall();
   const base = `/api/projects/${props.projectId}`;
+  const [pending, setPending] = useState<Pending | null>(null);
+  // What each select shows while a change waits for its confirmation or for the server.
+  const [shownRole, setShownRole] = useState<Record<string, Role>>({});
+  const [rowError, setRowError] = useState<Record<string, string[]>>({});
+
+  async function changeRole(member: Member, to: Role) {
+    setShownRole((s) => ({ ...s, [member.userId]: to }));
+    const result = await call(sendJson("PATCH", `${base}/members/${member.userId}`, { role: to }), `${member.name} is now ${ROLE_LABELS[to]}.`);
+    if (result.ok) {
+      setRowError((e) => ({ ...e, [member.userId]: [] }));
+      router.refresh();
+    } else {
+      setShownRole((s) => ({ ...s, [member.userId]: member.role }));
+      setRowError((e) => ({ ...e, [member.userId]: result.error.fields?.role ?? [result.error.message] }));
+    }
+  }
+
+  function confirmPending() {
+    const p = pending;
+    setPending(null);
+    if (!p) return;
+    if (p.kind === "role") void changeRole(p.member, p.to);
+    else void run(sendJson("DELETE", `${base}/members/${p.member.userId}`), `${p.member.name} was removed.`);
+  }
 
   async function run(request: ReturnType<typeof sendJson>, done: string) {
     const result = await call(request, done);
@@ -102,13 +144,14 @@ export function MembersPanel(props: { projectId: string; currentUserId: string; 
                   <select
                     id={`role-${m.userId}`}
                     className="field-input"
-                    defaultValue={m.role}
-                    onChange={(e) =>
-                      void run(
-                        sendJson("PATCH", `${base}/members/${m.userId}`, { role: e.target.value }),
-                        `${m.name} is now ${ROLE_LABELS[e.target.value as Role]}.`,
-                      )
-                    }
+                    value={shownRole[m.userId] ?? m.role}
+                    aria-describedby={`role-${m.userId}-error`}
+                    onChange={(e) => {
+                      const to = e.target.value as Role;
+                      if (to === m.role) return;
+                      if (WEIGHTY.has(to) || WEIGHTY.has(m.role)) setPending({ kind: "role", member: m, to });
+                      else void changeRole(m, to);
+                    }}
                   >
                     {ROLES.map((r) => (
                       <option key={r} value={r}>
@@ -116,17 +159,14 @@ export function MembersPanel(props: { projectId: string; currentUserId: string; 
                       </option>
                     ))}
                   </select>
+                  <FieldError id={`role-${m.userId}-error`} messages={rowError[m.userId]} />
                 </td>
                 <td className="p-3 text-right">
                   {m.userId !== props.currentUserId && (
                     <button
                       type="button"
                       className="btn-quiet"
-                      onClick={() => {
-                        if (window.confirm(`Remove ${m.name} from the project? They lose access at once.`)) {
-                          void run(sendJson("DELETE", `${base}/members/${m.userId}`), `${m.name} was removed.`);
-                        }
-                      }}
+                      onClick={() => setPending({ kind: "remove", member: m })}
                     >
                       Remove {m.name}
                     </button>
@@ -150,7 +190,7 @@ export function MembersPanel(props: { projectId: string; currentUserId: string; 
               <li key={i.id} className="card flex flex-wrap items-center gap-3">
                 <span className="flex-1">
                   <strong>{i.email}</strong> as {ROLE_LABELS[i.role]} ·{" "}
-                  {i.expired ? "expired" : `expires ${new Date(i.expiresAt).toLocaleDateString()}`} · sent {i.sentCount}×
+                  {i.expired ? "expired" : `expires ${formatDay(i.expiresAt, props.timeZone)}`} · sent {i.sentCount}×
                 </span>
                 <button type="button" className="btn-quiet" onClick={() => void run(sendJson("POST", `${base}/invitations/${i.id}/resend`), `Sent again to ${i.email}.`)}>
                   Send again
@@ -163,6 +203,29 @@ export function MembersPanel(props: { projectId: string; currentUserId: string; 
           </ul>
         )}
       </section>
+
+      <ConfirmDialog
+        open={pending !== null}
+        title={
+          pending?.kind === "remove"
+            ? `Remove ${pending.member.name} from the project?`
+            : pending
+              ? `Make ${pending.member.name} ${ROLE_LABELS[pending.to]}?`
+              : ""
+        }
+        confirmLabel={pending?.kind === "remove" ? `Remove ${pending.member.name}` : pending ? `Make ${pending.member.name} ${ROLE_LABELS[pending.to]}` : "Confirm"}
+        onConfirm={confirmPending}
+        onCancel={() => setPending(null)}
+      >
+        {pending?.kind === "remove" ? (
+          <>
+            <p>{pending.member.name} loses access to this project at once, on every device: no pages, no records, no e-mails about its flags.</p>
+            <p>Their past records, findings and decisions stay on the project under their name. To bring them back, invite them again.</p>
+          </>
+        ) : pending ? (
+          roleChangeConsequence(pending.member.name, pending.member.role, pending.to).map((line) => <p key={line}>{line}</p>)
+        ) : null}
+      </ConfirmDialog>
     </div>
   );
 }

@@ -3,6 +3,7 @@ import { VerdictBadge } from "@/components/ui/verdict-badge";
 import type { Verdict } from "@/db/types";
 import { showComputedLength, showForce, showLength, showPct } from "@/lib/stressing/display";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
+import { N_PER_KIP } from "@/lib/units";
 
 const deg = (rad: number) => `${((rad * 180) / Math.PI).toFixed(2)}°`;
 
@@ -15,6 +16,26 @@ function Row({ label, value, source }: { label: string; value: string; source?: 
       <td className="py-2 pr-4 text-right font-semibold tabular-nums">{value}</td>
       <td className="py-2 text-label text-ink-faint">{source}</td>
     </tr>
+  );
+}
+
+/**
+ * One part of the sheet, folded with <details> so it opens and closes without JavaScript; the
+ * heading stays in the summary, so the sheet's outline reads the same open or closed.
+ */
+function Section({ id, title, open, children }: { id: string; title: string; open?: boolean; children: React.ReactNode }) {
+  return (
+    <details open={open} className="group rounded-md border-2 border-concrete-300 bg-white" data-sheet-section={id}>
+      <summary className="flex min-h-touch cursor-pointer items-center gap-2 px-4 py-2">
+        <svg viewBox="0 0 24 24" className="h-5 w-5 shrink-0 transition-transform group-open:rotate-90" aria-hidden="true">
+          <path d="M9 5l7 7-7 7" fill="none" stroke="currentColor" strokeWidth="2.5" strokeLinecap="round" strokeLinejoin="round" />
+        </svg>
+        <h3 id={`${id}-heading`} className="text-lead font-bold">
+          {title}
+        </h3>
+      </summary>
+      <div className="px-4 pb-4">{children}</div>
+    </details>
   );
 }
 
@@ -35,11 +56,8 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
   const judgement = (c.evaluation?.result as { judgement?: Judgement | null } | undefined)?.judgement ?? null;
   const totalLength = segments.at(-1)?.endMm ?? 0;
   return (
-    <div className="space-y-8">
-      <section aria-labelledby="inputs-heading">
-        <h3 id="inputs-heading" className="text-lead font-bold">
-          1. Inputs
-        </h3>
+    <div className="space-y-3">
+      <Section id="inputs" title="1. Inputs" open>
         <table className="mt-2 w-full">
           <tbody>
             <Row label="Strand" value={`${basis.tendon.strandCount} × ${basis.tendon.strandSize}`} source="Tendon schedule" />
@@ -62,16 +80,13 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
             <Row label="Stressed from" value={basis.tendon.ends === "both" ? "both ends" : `end ${basis.tendon.ends}`} source="Tendon schedule" />
           </tbody>
         </table>
-      </section>
+      </Section>
 
-      <section aria-labelledby="steps-heading">
-        <h3 id="steps-heading" className="text-lead font-bold">
-          2. Friction, segment by segment
-        </h3>
+      <Section id="steps" title="2. Friction, segment by segment">
         <p className="mt-1 text-ink-soft">
           P(x) = Pj·e<sup>−(K·x + μ·α)</sup>; each segment stretches Δ = P·L·(1 − e<sup>−β</sup>)/(β·A·E) with β = K·L + μ·α.
         </p>
-        <div className="mt-2 overflow-x-auto">
+        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Segments, scrolls sideways">
           <table className="w-full min-w-[560px]">
             <thead>
               <tr className="border-b-2 border-ink text-left text-label uppercase">
@@ -98,14 +113,16 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
           </table>
         </div>
         <div className="card mt-4">
-          <ForceProfileChart profile={profile} formatForce={(n) => showForce(p, n)} formatLength={(mm) => showComputedLength(p, mm)} />
+          <ForceProfileChart
+            profile={profile}
+            formatForce={(n) => showForce(p, n)}
+            formatLength={(mm) => showComputedLength(p, mm)}
+            newtonsPerUnit={p.unitSystem === "us" ? N_PER_KIP : 1000}
+          />
         </div>
-      </section>
+      </Section>
 
-      <section aria-labelledby="set-heading">
-        <h3 id="set-heading" className="text-lead font-bold">
-          3. Elongation and anchor set
-        </h3>
+      <Section id="set" title="3. Elongation and anchor set">
         <table className="mt-2 w-full">
           <tbody>
             {e.perEndMm.A !== undefined && <Row label="From end A" value={showComputedLength(p, e.perEndMm.A)} />}
@@ -122,12 +139,9 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
             )}
           </tbody>
         </table>
-      </section>
+      </Section>
 
-      <section aria-labelledby="result-heading">
-        <h3 id="result-heading" className="text-lead font-bold">
-          4. Result
-        </h3>
+      <Section id="result" title="4. Result" open>
         <table className="mt-2 w-full">
           <tbody>
             <Row
@@ -158,7 +172,7 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
             <p className="text-ink-soft">No stressing record has reached the server for this tendon yet.</p>
           )}
         </div>
-      </section>
+      </Section>
     </div>
   );
 }

@@ -7,6 +7,7 @@ import { TextField } from "@/components/ui/text-field";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
 import { DECISION_LABELS, DECISIONS } from "@/lib/schemas/review";
+import { isInputError, parseLength } from "@/lib/units";
 
 interface OpenFlag {
   id: string;
@@ -25,13 +26,37 @@ function useSubmit() {
   return { message, fields, busy, submit };
 }
 
-function FlagPicker({ flags, id }: { flags: OpenFlag[]; id: string }) {
+/**
+ * A length as the crew would type it ("7 1/8", "7.125 in", "181 mm"), read by lib/units like the
+ * field log reads it; a bare number is in the project's unit. Answers millimetres or the message
+ * to show beside the box.
+ */
+function readLength(text: string, unit: "in" | "mm", field: string): { mm: number } | { error: string } {
+  if (!text.trim()) return { error: "Type the elongation, for example 7 1/8 or 181 mm." };
+  try {
+    return { mm: parseLength(text, { field, system: unit === "in" ? "US" : "SI", defaultUnit: unit }) };
+  } catch (error) {
+    return { error: isInputError(error) ? error.message.replace(/^[^:]*: /, "") : "Type the elongation as a number." };
+  }
+}
+
+function FlagPicker({ flags, id, selected }: { flags: OpenFlag[]; id: string; selected?: string }) {
+  const chosen = selected && flags.some((f) => f.id === selected) ? selected : flags[0]?.id;
+  // One open flag: nothing to choose, so it is named, not offered.
+  if (flags.length === 1)
+    return (
+      <p>
+        <span className="text-label font-semibold uppercase text-ink-faint">Flag: </span>
+        <input type="hidden" id={id} name="flagId" value={flags[0]!.id} />
+        {flags[0]!.label}
+      </p>
+    );
   return (
     <div>
       <label htmlFor={id} className="field-label">
         Flag
       </label>
-      <select id={id} name="flagId" className="field-input mt-1">
+      <select id={id} name="flagId" className="field-input mt-1" defaultValue={chosen}>
         {flags.map((f) => (
           <option key={f.id} value={f.id}>
             {f.label}
@@ -43,9 +68,10 @@ function FlagPicker({ flags, id }: { flags: OpenFlag[]; id: string }) {
 }
 
 /** The inspector's findings: a note, a re-measured reading, a paperwork error, send on, close as paperwork. */
-export function ReviewForm({ projectId, flags, unit }: { projectId: string; flags: OpenFlag[]; unit: "in" | "mm" }) {
+export function ReviewForm({ projectId, flags, unit, selected }: { projectId: string; flags: OpenFlag[]; unit: "in" | "mm"; selected?: string }) {
   const { message, fields, busy, submit } = useSubmit();
   const [kind, setKind] = useState("note");
+  const [lengthError, setLengthError] = useState<string[]>();
   if (!flags.length) return null;
   return (
     <form
@@ -55,18 +81,21 @@ export function ReviewForm({ projectId, flags, unit }: { projectId: string; flag
         e.preventDefault();
         const form = e.currentTarget;
         const data = new FormData(form);
-        const remeasured = Number(data.get("remeasured"));
+        // A reading the parser refuses is not sent; the server still checks the rest, so every
+        // message shows at once, the reading's own beside its box.
+        const read = kind === "remeasured" ? readLength(String(data.get("remeasured") ?? ""), unit, "remeasuredMm") : null;
+        setLengthError(read && "error" in read ? [read.error] : undefined);
         const body = {
           kind,
           body: String(data.get("body") ?? ""),
-          ...(kind === "remeasured" ? { remeasuredMm: unit === "in" ? remeasured * 25.4 : remeasured } : {}),
+          ...(read && "mm" in read ? { remeasuredMm: read.mm } : {}),
         };
         if (await submit(`/api/projects/${projectId}/flags/${String(data.get("flagId"))}/reviews`, body, "Finding added to the flag's trail.")) form.reset();
       }}
     >
       <h3 className="text-lead font-bold">Add a finding</h3>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
-      <FlagPicker flags={flags} id="review-flag" />
+      <FlagPicker flags={flags} id="review-flag" selected={selected} />
       <fieldset>
         <legend className="field-label">Finding</legend>
         <div className="mt-1 flex flex-wrap gap-2">
@@ -88,9 +117,11 @@ export function ReviewForm({ projectId, flags, unit }: { projectId: string; flag
         <TextField
           id="remeasured"
           name="remeasured"
-          inputMode="decimal"
+          inputMode="text"
+          autoComplete="off"
+          placeholder={unit === "in" ? "e.g. 7 1/8" : "e.g. 181"}
           label={`Re-measured elongation (${unit})`}
-          errors={fields.remeasuredMm}
+          errors={lengthError ?? fields.remeasuredMm}
         />
       )}
       <TextField
@@ -108,12 +139,22 @@ export function ReviewForm({ projectId, flags, unit }: { projectId: string; flag
 }
 
 /** The engineer of record's disposition, with written reasons and the licence statement. */
-export function DispositionForm({ projectId, flags, engineerName }: { projectId: string; flags: OpenFlag[]; engineerName: string }) {
+export function DispositionForm({
+  projectId,
+  flags,
+  engineerName,
+  selected,
+}: {
+  projectId: string;
+  flags: OpenFlag[];
+  engineerName: string;
+  selected?: string;
+}) {
   const { message, fields, busy, submit } = useSubmit();
   if (!flags.length) return null;
   return (
     <form
-      className="card space-y-4 border-2 border-ink"
+      className="card space-y-3 border-2 border-ink"
       aria-label="Record a disposition"
       onSubmit={async (e) => {
         e.preventDefault();
@@ -129,20 +170,20 @@ export function DispositionForm({ projectId, flags, engineerName }: { projectId:
     >
       <h3 className="text-lead font-bold">Decision of the engineer of record</h3>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
-      <FlagPicker flags={flags} id="disposition-flag" />
+      <FlagPicker flags={flags} id="disposition-flag" selected={selected} />
       <fieldset>
         <legend className="field-label">Disposition</legend>
-        <div className="mt-1 grid gap-2 sm:grid-cols-2">
+        <div className="mt-1 grid gap-2 sm:grid-cols-3" aria-describedby="decision-error">
           {DECISIONS.map((d) => (
-            <label key={d} className="flex min-h-touch items-center gap-2 rounded-md border-2 border-concrete-400 px-3">
-              <input type="radio" name="decision" value={d} className="h-5 w-5" />
+            <label key={d} className="flex min-h-touch items-center gap-2 rounded-md border-2 border-concrete-400 px-3 py-1 leading-tight">
+              <input type="radio" name="decision" value={d} className="h-5 w-5 shrink-0" />
               {DECISION_LABELS[d]}
             </label>
           ))}
         </div>
         <FieldError id="decision-error" messages={fields.decision} />
       </fieldset>
-      <TextField id="reasons" name="reasons" rows={4} label="Reasons" errors={fields.reasons} />
+      <TextField id="reasons" name="reasons" rows={3} label="Reasons" errors={fields.reasons} />
       <TextField
         id="licence"
         name="licence"
@@ -161,6 +202,7 @@ export function DispositionForm({ projectId, flags, engineerName }: { projectId:
 export function CorrectionForm({ projectId, recordId, unit }: { projectId: string; recordId: string; unit: "in" | "mm" }) {
   const { message, fields, busy, submit } = useSubmit();
   const [open, setOpen] = useState(false);
+  const [lengthError, setLengthError] = useState<string[]>();
   if (!open) {
     return (
       <button type="button" className="btn-quiet" onClick={() => setOpen(true)}>
@@ -175,10 +217,11 @@ export function CorrectionForm({ projectId, recordId, unit }: { projectId: strin
       onSubmit={async (e) => {
         e.preventDefault();
         const data = new FormData(e.currentTarget);
-        const value = Number(data.get("measured"));
+        const read = readLength(String(data.get("measured") ?? ""), unit, "measuredMm");
+        setLengthError("error" in read ? [read.error] : undefined);
         await submit(
           `/api/projects/${projectId}/records/${recordId}/corrections`,
-          { reason: String(data.get("reason") ?? ""), measuredMm: unit === "in" ? value * 25.4 : value },
+          { reason: String(data.get("reason") ?? ""), ...("mm" in read ? { measuredMm: read.mm } : {}) },
           "Corrected as a new revision and evaluated again.",
         );
       }}
@@ -187,9 +230,10 @@ export function CorrectionForm({ projectId, recordId, unit }: { projectId: strin
       <TextField
         id={`measured-${recordId}`}
         name="measured"
-        inputMode="decimal"
+        inputMode="text"
+        autoComplete="off"
         label={`Correct elongation (${unit})`}
-        errors={fields.measuredMm}
+        errors={lengthError ?? fields.measuredMm}
       />
       <TextField id={`reason-${recordId}`} name="reason" label="Why the record was wrong" errors={fields.reason} />
       <button type="submit" className="btn-primary" disabled={busy}>

@@ -1,4 +1,5 @@
 import { FlagChip } from "@/components/ui/verdict-badge";
+import { formatDateTime } from "@/lib/format/dates";
 import { DECISION_LABELS } from "@/lib/schemas/review";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
 
@@ -11,10 +12,33 @@ const REVIEW_LABELS: Record<string, string> = {
   closed_paperwork: "Closed as paperwork",
 };
 
-const when = (d: Date | string) => new Date(d).toLocaleString("en-US", { dateStyle: "medium", timeStyle: "short", timeZone: "UTC" }) + " UTC";
+const UUID = "[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}";
+
+/** A stored reason in words: the ids it names become what they are and when (no raw ids on screen). */
+export function inWords(text: string, c: TendonCase, when: (d: Date | string) => string): string {
+  return text
+    .replace(new RegExp(`disposition (${UUID})`, "gi"), (_, id: string) => {
+      const d = c.dispositions.find((x) => x.id === id);
+      return d ? `the disposition of ${when(d.created_at)}` : "the engineer's disposition";
+    })
+    .replace(new RegExp(`evaluation ${UUID}`, "gi"), "the new evaluation")
+    .replace(new RegExp(`record ${UUID}`, "gi"), "the record")
+    .replace(new RegExp(UUID, "gi"), "(reference on file)");
+}
 
 /** Each flag with its reason and its whole trail: findings, dispositions, closing. */
-export function FlagTrail({ c, showLength }: { c: TendonCase; showLength: (mm: number) => string }) {
+export function FlagTrail({
+  c,
+  showLength,
+  timeZone,
+  selected,
+}: {
+  c: TendonCase;
+  showLength: (mm: number) => string;
+  timeZone: string;
+  selected?: string;
+}) {
+  const when = (d: Date | string) => formatDateTime(d, timeZone);
   if (!c.flags.length) return <p className="card">No flag has been raised on this tendon.</p>;
   return (
     <ol className="space-y-4">
@@ -24,12 +48,12 @@ export function FlagTrail({ c, showLength }: { c: TendonCase; showLength: (mm: n
           ...c.dispositions.filter((d) => d.flag_id === flag.id).map((d) => ({ at: d.created_at, kind: "disposition" as const, d })),
         ].sort((a, b) => +new Date(a.at) - +new Date(b.at));
         return (
-          <li key={flag.id} className="card" data-flag-kind={flag.kind}>
+          <li key={flag.id} className={`card ${flag.id === selected ? "border-2 border-ink" : ""}`} data-flag-kind={flag.kind} aria-current={flag.id === selected ? "true" : undefined}>
             <div className="flex flex-wrap items-center gap-3">
               <FlagChip kind={flag.kind} status={flag.status} />
               <span className="text-label text-ink-faint">raised {when(flag.created_at)}</span>
             </div>
-            <p className="mt-2">{flag.reason}</p>
+            <p className="mt-2">{inWords(flag.reason, c, when)}</p>
             {trail.length > 0 && (
               <ol className="mt-3 space-y-2 border-l-4 border-concrete-300 pl-4">
                 {trail.map((item) =>
@@ -44,7 +68,7 @@ export function FlagTrail({ c, showLength }: { c: TendonCase; showLength: (mm: n
                         {item.r.attachment_id && (
                           <>
                             {" "}
-                            <a href={`/api/attachments/${item.r.attachment_id}`}>Open the photo</a>
+                            <a href={`/api/projects/${c.basis.project.id}/attachments/${item.r.attachment_id}`}>Open the photo</a>
                           </>
                         )}
                       </p>
@@ -66,7 +90,7 @@ export function FlagTrail({ c, showLength }: { c: TendonCase; showLength: (mm: n
             {flag.status === "closed" && (
               <p className="mt-3 text-label">
                 Closed {flag.closed_at ? when(flag.closed_at) : ""}
-                {flag.closedByName ? ` by ${flag.closedByName}` : ""}: {flag.close_reason}
+                {flag.closedByName ? ` by ${flag.closedByName}` : ""}: {flag.close_reason ? inWords(flag.close_reason, c, when) : ""}
               </p>
             )}
           </li>

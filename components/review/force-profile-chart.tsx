@@ -1,10 +1,22 @@
+import { ticks as niceTicks } from "d3-array";
 import type { ForceProfile } from "@/lib/elongation";
 
 /**
  * The force along the tendon at jacking and after seating, drawn as plain SVG (no script), with
  * the anchor-set zones shaded where the two lines differ.
  */
-export function ForceProfileChart({ profile, formatForce, formatLength }: { profile: ForceProfile; formatForce: (n: number) => string; formatLength: (mm: number) => string }) {
+export function ForceProfileChart({
+  profile,
+  formatForce,
+  formatLength,
+  newtonsPerUnit,
+}: {
+  profile: ForceProfile;
+  formatForce: (n: number) => string;
+  formatLength: (mm: number) => string;
+  /** Newtons in one unit of the axis (4448.2216 for kip, 1000 for kN), so the ticks fall on round numbers of it. */
+  newtonsPerUnit: number;
+}) {
   const W = 720;
   const H = 240;
   const pad = { l: 72, r: 16, t: 16, b: 40 };
@@ -27,7 +39,10 @@ export function ForceProfileChart({ profile, formatForce, formatLength }: { prof
     }
   }
   if (start !== null) zones.push([start, profile.lengthMm]);
-  const ticks = [lo + (hi - lo) * 0.1, (lo + hi) / 2, hi - (hi - lo) * 0.05];
+  // Round numbers in the unit shown (d3-array's ticks: 1, 2 or 5 times a power of ten apart).
+  const ticks = niceTicks(lo / newtonsPerUnit, hi / newtonsPerUnit, 4)
+    .map((t) => t * newtonsPerUnit)
+    .filter((t) => t >= lo && t <= hi);
 
   return (
     <figure>
@@ -38,9 +53,12 @@ export function ForceProfileChart({ profile, formatForce, formatLength }: { prof
         <line x1={pad.l} x2={W - pad.r} y1={H - pad.b} y2={H - pad.b} stroke="#44433d" />
         <line x1={pad.l} x2={pad.l} y1={pad.t} y2={H - pad.b} stroke="#44433d" />
         {ticks.map((t) => (
-          <text key={t} x={pad.l - 6} y={y(t) + 4} textAnchor="end" fontSize="12" fill="#2b3a5c">
-            {formatForce(t)}
-          </text>
+          <g key={t}>
+            <line x1={pad.l - 4} x2={pad.l} y1={y(t)} y2={y(t)} stroke="#44433d" />
+            <text x={pad.l - 6} y={y(t) + 4} textAnchor="end" fontSize="12" fill="#2b3a5c">
+              {formatForce(t)}
+            </text>
+          </g>
         ))}
         <text x={pad.l} y={H - 14} fontSize="12" fill="#2b3a5c">
           End A

@@ -1,3 +1,4 @@
+import { formatDateTime } from "@/lib/format/dates";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
 import { CorrectionForm } from "./flag-actions";
 
@@ -8,8 +9,10 @@ export function RecordsTable({
   showPressure,
   canCorrect,
   unit,
+  timeZone,
 }: {
   c: TendonCase;
+  timeZone: string;
   showLength: (mm: number) => string;
   showPressure: (mpa: number) => string;
   canCorrect: boolean;
@@ -21,7 +24,7 @@ export function RecordsTable({
   );
   // The Map above keeps the last revision of each chain, since records come ordered by revision.
   return (
-    <div className="overflow-x-auto">
+    <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Stressing records, scrolls sideways">
       <table className="w-full min-w-[720px] bg-white">
         <thead>
           <tr className="border-b-2 border-ink text-left text-label uppercase">
@@ -41,8 +44,7 @@ export function RecordsTable({
               <tr key={r.id} className={`border-b border-concrete-200 align-top ${heads.has(r.id) ? "" : "text-ink-faint line-through decoration-1"}`}>
                 <td className="p-2 font-bold">{r.tendon_end}</td>
                 <td className="p-2">
-                  {new Date(r.device_time).toLocaleString("en-US", { dateStyle: "short", timeStyle: "short", timeZone: r.device_time_zone })}
-                  <span className="block text-label">{r.device_time_zone}</span>
+                  <span className="whitespace-nowrap">{formatDateTime(r.device_time, timeZone)}</span>
                 </td>
                 <td className="p-2">{r.equipmentSet}</td>
                 <td className="p-2 text-right">
@@ -60,7 +62,7 @@ export function RecordsTable({
                   {r.wire_breaks > 0 && <span className="block font-bold">{r.wire_breaks} wire break(s)</span>}
                   {r.remarks && <span className="block">{r.remarks}</span>}
                   {photos.map((p, i) => (
-                    <a key={p.id} href={`/api/attachments/${p.id}`} className="block">
+                    <a key={p.id} href={`/api/projects/${c.basis.project.id}/attachments/${p.id}`} className="block">
                       Photo {i + 1}
                     </a>
                   ))}

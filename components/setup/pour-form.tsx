@@ -1,11 +1,11 @@
 "use client";
 
-import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { useSWRConfig } from "swr";
 import { z } from "zod";
 import { FormMessage } from "@/components/ui/form-message";
+import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { pourSchema, type PourInput } from "@/lib/schemas/pour";
 import { poursKey } from "./pour-table";
@@ -13,33 +13,37 @@ import { units } from "./unit-fields";
 
 const FT2_PER_M2 = 10.7639104167;
 
-function formSchema(us: boolean) {
-  return z
-    .object({ name: z.string(), level: z.string(), area: units.number(false), plannedStressingDate: z.string() })
-    .transform(({ area, ...v }) => ({
+const FIELDS = { name: z.string(), level: z.string(), area: units.number(false), plannedStressingDate: z.string() };
+type FormIn = { [K in keyof typeof FIELDS]: string };
+
+function resolver(us: boolean) {
+  return formResolver(
+    FIELDS,
+    ({ area, ...v }) => ({
       ...v,
-      level: v.level.trim() || null,
+      level: v.level?.trim() || null,
       plannedStressingDate: v.plannedStressingDate || null,
       // 1 m² = 10.7639 ft² (from 1 ft = 0.3048 m exactly).
       areaM2: area === null ? null : us ? area / FT2_PER_M2 : area,
-    }))
-    .pipe(pourSchema);
+    }),
+    pourSchema,
+    { areaM2: "area" },
+  );
 }
-type FormIn = z.input<ReturnType<typeof formSchema>>;
 
 /** Adds a pour (placement) to the project. */
 export function PourForm({ projectId, us }: { projectId: string; us: boolean }) {
   const { mutate } = useSWRConfig();
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
   const form = useForm<FormIn, unknown, PourInput>({
-    resolver: zodResolver(formSchema(us)),
+    resolver: resolver(us),
     defaultValues: { name: "", level: "", area: "", plannedStressingDate: "" },
   });
   const errors = form.formState.errors as Record<string, { message?: string } | undefined>;
   const onSubmit = form.handleSubmit(async (values) => {
     const result = await sendJson("POST", `/api/projects/${projectId}/pours`, values);
     if (!result.ok) {
-      for (const [k, m] of Object.entries(result.error.fields ?? {})) form.setError(k as keyof FormIn, { message: m.join(" ") });
+      for (const [k, m] of Object.entries(result.error.fields ?? {})) form.setError((k === "areaM2" ? "area" : k in FIELDS ? k : "root") as keyof FormIn, { message: m.join(" ") });
       setMessage({ tone: "error", text: result.error.message });
       return;
     }
@@ -52,18 +56,30 @@ export function PourForm({ projectId, us }: { projectId: string; us: boolean }) 
       <label htmlFor={`p-${k}`} className="field-label">
         {label}
       </label>
-      <input id={`p-${k}`} className="field-input mt-1" {...props} {...form.register(k)} aria-invalid={errors[k] ? true : undefined} />
-      {errors[k]?.message && <p className="mt-1 font-semibold text-signal-stop">{errors[k]?.message}</p>}
+      <input
+        id={`p-${k}`}
+        className="field-input mt-1"
+        {...props}
+        {...form.register(k)}
+        aria-invalid={errors[k] ? true : undefined}
+        aria-describedby={`p-${k}-error`}
+      />
+      {errors[k]?.message && (
+        <p id={`p-${k}-error`} className="mt-1 font-semibold text-signal-stop">
+          {errors[k]?.message}
+        </p>
+      )}
     </div>
   );
   return (
     <form onSubmit={onSubmit} noValidate className="card space-y-4">
       <h2 className="text-lead font-semibold">Add a pour</h2>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
-      <div className="grid gap-4 md:grid-cols-4">
+      <FormMessage tone="error">{errors.root?.message}</FormMessage>
+      <div className="grid gap-4 md:grid-cols-5">
         {input("name", "Name, as drawn")}
         {input("level", "Level")}
-        {input("area", `Area, ${us ? "ft²" : "m²"}`, { inputMode: "decimal" })}
+        {input("area", `Area, ${us ? "ft²" : "m²"}`, { inputMode: "decimal", autoComplete: "off" })}
         {input("plannedStressingDate", "Planned stressing", { type: "date" })}
       </div>
       <p className="text-ink-soft">

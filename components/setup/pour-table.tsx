@@ -88,7 +88,7 @@ export function PourTable(props: { projectId: string; us: boolean; initial: { po
       {data.pours.length === 0 ? (
         <p className="card mt-6">No pours yet. Add the first one below, then import its tendon schedule.</p>
       ) : (
-        <div className="mt-6 overflow-x-auto">
+        <div className="mt-6 overflow-x-auto" tabIndex={0} role="region" aria-label="Pours, scrolls sideways">
           <SetupTable table={table} hrefFor={hrefFor} cellClass="p-3" />
         </div>
       )}

@@ -1,21 +1,20 @@
 "use client";
 
-import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { z } from "zod";
 import { FormMessage } from "@/components/ui/form-message";
+import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { projectSettingsSchema, type ProjectSettings } from "@/lib/schemas/project-settings";
 import { PER, shown, units } from "./unit-fields";
 
 type KUnit = "per ft" | "per m";
 
-function formSchema(us: boolean) {
+function fields(us: boolean) {
   const system = us ? "US" : "SI";
-  return z
-    .object({
+  return {
       name: z.string(),
       address: z.string(),
       unitSystem: z.enum(["us", "si"]),
@@ -40,25 +39,32 @@ function formSchema(us: boolean) {
       jackingForceFactor: units.number(),
       underForcePct: units.number(),
       seatingExcessMm: units.length(system, us ? "in" : "mm"),
-    })
-    .transform(({ wobble, wobbleUnit, ...v }) => ({
+  };
+}
+
+function resolver(us: boolean) {
+  return formResolver(
+    fields(us),
+    ({ wobble, wobbleUnit, ...v }) => ({
       ...v,
-      address: v.address.trim() || null,
-      engineerOfRecordName: v.engineerOfRecordName.trim() || null,
-      engineerOfRecordEmail: v.engineerOfRecordEmail.trim() || null,
-      notifyEmails: v.notifyEmails.split(/[\s,;]+/).filter(Boolean),
+      address: v.address?.trim() || null,
+      engineerOfRecordName: v.engineerOfRecordName?.trim() || null,
+      engineerOfRecordEmail: v.engineerOfRecordEmail?.trim() || null,
+      notifyEmails: (v.notifyEmails ?? "").split(/[\s,;]+/).filter(Boolean),
       // K per ft × 3.2808 = K per m (1 m = 3.2808 ft).
       wobblePerM: wobble === null ? null : wobbleUnit === "per ft" ? wobble / 0.3048 : wobble,
-      timeZone: v.timeZone.trim(),
+      timeZone: (v.timeZone ?? "").trim(),
       // Required boxes: units.number() has already refused an empty one.
       jackingForceFactor: v.jackingForceFactor as number,
       underForcePct: v.underForcePct as number,
       seatingExcessMm: v.seatingExcessMm as number,
-    }))
-    .pipe(projectSettingsSchema.required({ timeZone: true, jackingForceFactor: true, underForcePct: true, seatingExcessMm: true }));
+    }),
+    projectSettingsSchema.required({ timeZone: true, jackingForceFactor: true, underForcePct: true, seatingExcessMm: true }),
+    { wobblePerM: "wobble" },
+  );
 }
 
-type FormIn = z.input<ReturnType<typeof formSchema>>;
+type FormIn = { [K in keyof ReturnType<typeof fields>]: z.input<ReturnType<typeof fields>[K]> };
 
 const Row = ({ id, label, hint, error, children }: { id: string; label: string; hint?: string; error?: string; children: React.ReactNode }) => (
   <div>
@@ -82,7 +88,7 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
   const us = settings.unitSystem === "us";
   const len = us ? "in" : "mm";
   const form = useForm<FormIn, unknown, ProjectSettings>({
-    resolver: zodResolver(formSchema(us)),
+    resolver: resolver(us),
     defaultValues: {
       ...settings,
       address: settings.address ?? "",
@@ -129,7 +135,8 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
     }
     const result = await sendJson("PATCH", `/api/projects/${projectId}/settings`, values);
     if (!result.ok) {
-      for (const [k, msgs] of Object.entries(result.error.fields ?? {})) form.setError(k as keyof FormIn, { message: msgs.join(" ") });
+      for (const [k, msgs] of Object.entries(result.error.fields ?? {}))
+        form.setError((k === "wobblePerM" ? "wobble" : k in fields(us) ? k : "root") as keyof FormIn, { message: msgs.join(" ") });
       setMessage({ tone: "error", text: result.error.message });
       return;
     }
@@ -142,6 +149,7 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
   return (
     <form onSubmit={onSubmit} className="space-y-6" noValidate>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
+      <FormMessage tone="error">{form.formState.errors.root?.message}</FormMessage>
       <fieldset className="card grid gap-4 md:grid-cols-2">
         <legend className="px-1 text-lead font-semibold">Project</legend>
         <Row id="s-name" label="Name" error={err("name")}>

@@ -1,34 +1,40 @@
 "use client";
 
-import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { useSWRConfig } from "swr";
 import { z } from "zod";
 import { FileUpload, type UploadedFile } from "@/components/uploads/file-upload";
 import { FormMessage } from "@/components/ui/form-message";
+import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { strandLotSchema, type StrandLotInput } from "@/lib/schemas/strand-lot";
 import { STRAND_SIZES } from "@/lib/schemas/tendon";
 import { strandLotsKey } from "./strand-lot-table";
 import { units } from "./unit-fields";
 
-function formSchema(us: boolean) {
+function fields(us: boolean) {
   const system = us ? "US" : "SI";
-  return z
-    .object({
-      lotNumber: z.string(),
-      strandSize: z.string(),
-      area: units.number(),
-      modulusMPa: units.pressure(system, us ? "ksi" : "MPa"),
-      breakingLoadN: units.force(system, us ? "kip" : "kN"),
-      certificateAttachmentId: z.string(),
-    })
-    // 1 in² = 645.16 mm² exactly.
-    .transform(({ area, ...v }) => ({ ...v, areaMm2: area === null ? null : us ? area * 645.16 : area, certificateAttachmentId: v.certificateAttachmentId || null }))
-    .pipe(strandLotSchema);
+  return {
+    lotNumber: z.string(),
+    strandSize: z.string(),
+    area: units.number(),
+    modulusMPa: units.pressure(system, us ? "ksi" : "MPa"),
+    breakingLoadN: units.force(system, us ? "kip" : "kN"),
+    certificateAttachmentId: z.string(),
+  };
 }
-type FormIn = z.input<ReturnType<typeof formSchema>>;
+type FormIn = { [K in keyof ReturnType<typeof fields>]: string };
+
+function resolver(us: boolean) {
+  return formResolver(
+    fields(us),
+    // 1 in² = 645.16 mm² exactly.
+    ({ area, ...v }) => ({ ...v, areaMm2: area === null ? null : us ? area * 645.16 : area, certificateAttachmentId: v.certificateAttachmentId || null }),
+    strandLotSchema,
+    { areaMm2: "area" },
+  );
+}
 
 /** Registers a strand lot with its mill-certificate values and the certificate file. */
 export function StrandLotForm({ projectId, us }: { projectId: string; us: boolean }) {
@@ -36,7 +42,7 @@ export function StrandLotForm({ projectId, us }: { projectId: string; us: boolea
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
   const [file, setFile] = useState<UploadedFile | null>(null);
   const form = useForm<FormIn, unknown, StrandLotInput>({
-    resolver: zodResolver(formSchema(us)),
+    resolver: resolver(us),
     defaultValues: { lotNumber: "", strandSize: "0.5 in", area: "", modulusMPa: "", breakingLoadN: "", certificateAttachmentId: "" },
   });
   const errors = form.formState.errors as Record<string, { message?: string } | undefined>;
@@ -66,6 +72,7 @@ export function StrandLotForm({ projectId, us }: { projectId: string; us: boolea
     <form onSubmit={onSubmit} noValidate className="card space-y-4">
       <h2 className="text-lead font-semibold">Register a strand lot</h2>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
+      <FormMessage tone="error">{errors.root?.message}</FormMessage>
       <div className="grid gap-4 md:grid-cols-3">
         {input("lotNumber", "Lot or heat number")}
         <div>

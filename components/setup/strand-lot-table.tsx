@@ -125,7 +125,7 @@ export function StrandLotTable(props: { projectId: string; us: boolean; initial:
       {data.strandLots.length === 0 ? (
         <p className="card mt-6">No strand lots yet. Register each reel or pack with its mill certificate below.</p>
       ) : (
-        <div className="mt-6 overflow-x-auto">
+        <div className="mt-6 overflow-x-auto" tabIndex={0} role="region" aria-label="Strand lots, scrolls sideways">
           <SetupTable table={table} hrefFor={hrefFor} />
         </div>
       )}

@@ -6,7 +6,7 @@ import { SignOutButton } from "./sign-out-button";
 export function AppNav({ items, userName }: { items: NavItem[]; userName: string }) {
   return (
     <nav aria-label="Main" className="border-b-2 border-ink bg-white">
-      <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-2 px-4 py-2">
+      <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-2 px-4 py-2">
         <Link href="/home" className="mr-4 flex min-h-touch items-center gap-2 font-bold no-underline">
           <BrandMark className="h-7 w-7" />
           Tautline

@@ -1,22 +1,21 @@
 "use client";
 
-import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
 import { useFieldArray, useForm, useWatch } from "react-hook-form";
 import { useSWRConfig } from "swr";
 import { z } from "zod";
 import { units } from "@/components/setup/unit-fields";
 import { FormMessage } from "@/components/ui/form-message";
+import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { drapeAngleRad, KIND_LABELS, STRAND_SIZES, TENDON_KINDS, tendonSchema, type TendonInput } from "@/lib/schemas/tendon";
 import { tendonsKey } from "./tendon-table";
 
-function formSchema(us: boolean) {
+function fields(us: boolean) {
   const system = us ? "US" : "SI";
   const long = us ? "ft" : "m";
   const short = us ? "in" : "mm";
-  return z
-    .object({
+  return {
       tag: z.string(),
       kind: z.enum(TENDON_KINDS),
       strandSize: z.string(),
@@ -30,21 +29,29 @@ function formSchema(us: boolean) {
       spanLength: units.length(system, long, false),
       spans: units.number(false),
       drape: units.length(system, short, false),
-    })
-    .transform(({ mode, segments, spanLength, spans, drape, ...v }) => {
+  };
+}
+
+function resolver(us: boolean) {
+  return formResolver(
+    fields(us),
+    ({ mode, segments, spanLength, spans, drape, ...v }) => {
       let profile: { lengthMm: number; angleRad: number }[];
       if (mode === "drape") {
         // A parabola dropping h over each half span l turns the tendon by 2h/l (common practice).
         const half = (spanLength ?? 0) / 2;
         profile = Array.from({ length: Math.max(0, Math.round((spans ?? 0) * 2)) }, () => ({ lengthMm: half, angleRad: half > 0 ? drapeAngleRad(drape ?? 0, half) : 0 }));
       } else {
-        profile = segments.filter((s) => s.length !== null).map((s) => ({ lengthMm: s.length!, angleRad: ((s.angleDeg ?? 0) * Math.PI) / 180 }));
+        profile = (segments ?? []).filter((s) => s.length !== null).map((s) => ({ lengthMm: s.length!, angleRad: ((s.angleDeg ?? 0) * Math.PI) / 180 }));
       }
       return { ...v, strandLotId: v.strandLotId || null, segments: profile };
-    })
-    .pipe(tendonSchema);
+    },
+    tendonSchema,
+    {},
+    { segments: "Segment" },
+  );
 }
-type FormIn = z.input<ReturnType<typeof formSchema>>;
+type FormIn = { [K in keyof ReturnType<typeof fields>]: z.input<ReturnType<typeof fields>[K]> };
 
 /** Adds one tendon by hand: profile as segments, or as a drape height over equal spans. */
 export function TendonForm({ projectId, pourId, us, lots }: { projectId: string; pourId: string; us: boolean; lots: { id: string; lotNumber: string; strandSize: string }[] }) {
@@ -53,7 +60,7 @@ export function TendonForm({ projectId, pourId, us, lots }: { projectId: string;
   const long = us ? "ft" : "m";
   const short = us ? "in" : "mm";
   const form = useForm<FormIn, unknown, TendonInput>({
-    resolver: zodResolver(formSchema(us)),
+    resolver: resolver(us),
     defaultValues: {
       tag: "",
       kind: "unbonded_monostrand",
@@ -78,7 +85,8 @@ export function TendonForm({ projectId, pourId, us, lots }: { projectId: string;
   const onSubmit = form.handleSubmit(async (values) => {
     const result = await sendJson("POST", `/api/projects/${projectId}/pours/${pourId}/tendons`, values);
     if (!result.ok) {
-      for (const [k, m] of Object.entries(result.error.fields ?? {})) form.setError(k as keyof FormIn, { message: m.join(" ") });
+      for (const [k, m] of Object.entries(result.error.fields ?? {}))
+        form.setError((k.startsWith("segments") ? "segments" : k in fields(us) ? k : "root") as keyof FormIn, { message: m.join(" ") });
       setMessage({ tone: "error", text: result.error.message });
       return;
     }
@@ -102,6 +110,7 @@ export function TendonForm({ projectId, pourId, us, lots }: { projectId: string;
     <form onSubmit={onSubmit} noValidate className="card space-y-4">
       <h2 className="text-lead font-semibold">Add a tendon</h2>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
+      <FormMessage tone="error">{form.formState.errors.root?.message}</FormMessage>
       <div className="grid gap-4 md:grid-cols-4">
         {text("tag", "Tag as drawn")}
         <div>

@@ -5,8 +5,10 @@ import Link from "next/link";
 import { useMemo } from "react";
 import { compareText, isPlainClick, readSorting, SetupTable, setupFeatures, sortingParams, useUrlView } from "@/components/setup/url-table";
 import { RefreshError, useRouteData } from "@/components/setup/use-route-data";
+import { VerdictBadge } from "@/components/ui/verdict-badge";
 import { KIND_LABELS } from "@/lib/schemas/tendon";
 import type { TendonRow } from "@/lib/server/list-tendons";
+import { showComputedLength, showPressure, type DisplayUnits } from "@/lib/stressing/display";
 import { formatLength, type ReadingResolution } from "@/lib/units";
 
 export interface TendonList {
@@ -17,7 +19,7 @@ export interface TendonList {
 /** The route handler that lists a pour's tendons; also the swr key the import and the form refresh. */
 export const tendonsKey = (projectId: string, pourId: string) => `/api/projects/${projectId}/pours/${pourId}/tendons`;
 
-export const SORTS = ["tag", "length", "ends", "lot", "kind"] as const;
+export const SORTS = ["tag", "length", "predicted", "ends", "lot", "kind"] as const;
 const DEFAULT_SORT: ColumnSort = { id: "tag", desc: false };
 const ENDS = ["A", "B", "both"] as const;
 
@@ -41,6 +43,8 @@ const helper = createColumnHelper<typeof setupFeatures, TendonRow>();
 
 function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolution) {
   const long = (mm: number) => (us ? `${(mm / 304.8).toFixed(1)} ft` : `${(mm / 1000).toFixed(2)} m`);
+  // Only the unit system matters to the computed-length and pressure formats.
+  const units: DisplayUnits = { unitSystem: us ? "us" : "si", readingResolution: us ? "1/8in" : "1mm" };
   return helper.columns([
     helper.accessor("tag", {
       header: "Tag",
@@ -77,6 +81,48 @@ function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolu
       cell: (c) => long(c.getValue()),
     }),
     helper.display({ id: "segments", header: "Segments", meta: { right: true }, cell: (c) => c.row.original.segments.length }),
+    helper.accessor("predictedMm", {
+      id: "predicted",
+      header: "Predicted elongation",
+      meta: { right: true },
+      sortFn: (a, b, id) => (a.getValue<number | null>(id) ?? -1) - (b.getValue<number | null>(id) ?? -1),
+      enableColumnFilter: false,
+      cell: (c) => {
+        const mm = c.getValue();
+        return mm === null ? <span className="text-ink-faint">cannot be computed</span> : showComputedLength(units, mm);
+      },
+    }),
+    helper.display({
+      id: "targets",
+      header: "Target gauge",
+      cell: (c) =>
+        c.row.original.targets.length === 0 ? (
+          <span className="text-ink-faint">no calibrated set</span>
+        ) : (
+          <ul className="whitespace-nowrap">
+            {c.row.original.targets.map((t) => (
+              <li key={t.set}>
+                <span className="text-ink-faint">{t.set}:</span> <span className="tabular-nums">{t.pressureMPa === null ? "—" : showPressure(units, t.pressureMPa)}</span>
+              </li>
+            ))}
+          </ul>
+        ),
+    }),
+    helper.display({
+      id: "verdict",
+      header: "Latest verdict",
+      cell: (c) => {
+        const latest = c.row.original.latest;
+        return latest ? (
+          <Link href={`/projects/${projectId}/tendons/${c.row.original.id}/flags`} className="no-underline">
+            <VerdictBadge verdict={latest.verdict} deviationPct={latest.deviationPct} provisional={latest.provisional} />
+            <span className="sr-only"> readings and flags of {c.row.original.tag}</span>
+          </Link>
+        ) : (
+          <span className="text-ink-faint">not stressed</span>
+        );
+      },
+    }),
     helper.display({
       id: "shop",
       header: "Shop elongation",
@@ -197,7 +243,7 @@ export function TendonTable(props: { base: string; projectId: string; pourId: st
       ) : shown === 0 ? (
         <p className="card mt-4">No tendon matches the filter.</p>
       ) : (
-        <div className="mt-4 overflow-x-auto">
+        <div className="mt-4 overflow-x-auto" tabIndex={0} role="region" aria-label="Tendon schedule, scrolls sideways">
           <SetupTable table={table} hrefFor={hrefFor} />
         </div>
       )}

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { dayInZone, formatAge, formatDateTime } from "./dates";
+import { dayInZone, formatAge, formatDateTime, projectTimeZone } from "./dates";
 
 describe("dates in the project's zone", () => {
   it("an evening record in Chicago belongs to that day, not to the next UTC day", () => {
@@ -14,5 +14,12 @@ describe("dates in the project's zone", () => {
 
   it("writes ages in words", () => {
     expect(formatAge("2026-12-02T10:00:00Z", "2026-12-02T13:00:00Z")).toBe("3 hours ago");
+  });
+
+  it("shows a project in its own zone once it has one, and in UTC until then", () => {
+    expect(projectTimeZone({ time_zone: "America/Chicago" })).toBe("America/Chicago");
+    expect(projectTimeZone({ timeZone: "Europe/Berlin" })).toBe("Europe/Berlin");
+    expect(projectTimeZone({ time_zone: null })).toBe("UTC");
+    expect(projectTimeZone({ name: "no zone column yet" })).toBe("UTC");
   });
 });

@@ -47,3 +47,12 @@ export function dayInZone(instant: Instant, timeZone: string): string {
 export function latestDayAnywhere(now: Instant = Date.now()): string {
   return formatDay(now, "Pacific/Kiritimati");
 }
+
+/**
+ * The time zone a project's dates and times are shown in. Projects have no zone column yet, so
+ * this answers "UTC" until one is there; it is the only place that needs to change when it is.
+ */
+export function projectTimeZone(project: object): string {
+  const zone = (project as { time_zone?: unknown; timeZone?: unknown }).time_zone ?? (project as { timeZone?: unknown }).timeZone;
+  return typeof zone === "string" && zone !== "" ? zone : "UTC";
+}

@@ -95,11 +95,14 @@ export function flagMail(input: {
   projectName: string;
   pourName: string;
   tendonTag: string;
-  flags: { kind: string; reason: string }[];
+  flags: { id?: string; kind: string; reason: string }[];
   verdictLine: string;
   basisLine: string;
   url: string;
 }): OutgoingMail {
+  // The link names the first new flag, so the page opens on the flag this e-mail is about.
+  const first = input.flags[0]?.id;
+  const url = first ? `${input.url}${input.url.includes("?") ? "&" : "?"}flag=${encodeURIComponent(first)}` : input.url;
   const title = `Tendon ${input.tendonTag} needs the engineer of record`;
   const paragraphs = [
     `${input.projectName}, ${input.pourName}, tendon ${input.tendonTag}.`,
@@ -111,7 +114,7 @@ export function flagMail(input: {
   return {
     to: input.to.join(", "),
     subject: `Tautline flag: ${input.tendonTag}, ${input.pourName} (${input.flags.map((f) => f.kind.replaceAll("_", " ")).join(", ")})`,
-    html: layout(title, paragraphs, { label: "Open the tendon's flags", url: input.url }, CAUTION_LINE),
-    text: text(title, paragraphs, { label: "Open the tendon's flags", url: input.url }, CAUTION_LINE),
+    html: layout(title, paragraphs, { label: "Open the tendon's flags", url }, CAUTION_LINE),
+    text: text(title, paragraphs, { label: "Open the tendon's flags", url }, CAUTION_LINE),
   };
 }

@@ -1,7 +1,9 @@
 import "server-only";
 import type { Db } from "@/db/connect";
-import type { StressingEnds, TendonKind, TendonSegment } from "@/db/types";
+import type { StressingEnds, TendonKind, TendonSegment, Verdict } from "@/db/types";
 import { AppError } from "@/lib/errors";
+import { predictTendon, projectBasisFromRow, targetPressureMPa } from "@/lib/stressing/basis";
+import { listEquipmentSets } from "./list-equipment-sets";
 
 export interface TendonRow {
   id: string;
@@ -15,9 +17,18 @@ export interface TendonRow {
   shopElongationMm: number | null;
   strandLot: string | null;
   lengthMm: number;
+  /** The prediction on the project's basis and the tendon's lot; null when the schedule cannot be computed. */
+  predictedMm: number | null;
+  /** The gauge pressure to read on each equipment set with a calibration on file. */
+  targets: { set: string; pressureMPa: number | null }[];
+  /** The latest evaluation, if any end has been stressed. */
+  latest: { verdict: Verdict; deviationPct: number | null; provisional: boolean } | null;
 }
 
-/** The tendons of one pour with their lot numbers; 404 when the pour is not the project's. */
+/**
+ * The tendons of one pour with their lot numbers, predictions, target gauge pressures per set and
+ * latest verdicts; 404 when the pour is not the project's.
+ */
 export async function listTendons(
   db: Db,
   input: { projectId: string; pourId: string },
@@ -29,6 +40,27 @@ export async function listTendons(
     .where("id", "=", input.pourId)
     .executeTakeFirst();
   if (!pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
+  const [project, sets, evaluations] = await Promise.all([
+    db
+      .selectFrom("projects")
+      .select(["tolerance_pct", "short_tendon_floor_mm", "comparison_basis", "count_jack_grip", "friction_mu", "wobble_per_m", "anchor_set_mm"])
+      .where("id", "=", input.projectId)
+      .executeTakeFirstOrThrow(),
+    listEquipmentSets(db, input.projectId),
+    db
+      .selectFrom("evaluations")
+      .innerJoin("tendons", "tendons.id", "evaluations.tendon_id")
+      .select(["evaluations.tendon_id", "evaluations.verdict", "evaluations.deviation_pct", "evaluations.provisional"])
+      .distinctOn("evaluations.tendon_id")
+      .where("evaluations.project_id", "=", input.projectId)
+      .where("tendons.project_id", "=", input.projectId)
+      .where("tendons.pour_id", "=", input.pourId)
+      .orderBy("evaluations.tendon_id")
+      .orderBy("evaluations.created_at", "desc")
+      .execute(),
+  ]);
+  const basis = projectBasisFromRow(project);
+  const latest = new Map(evaluations.map((e) => [e.tendon_id, e]));
   const rows = await db
     .selectFrom("tendons")
     .leftJoin("strand_lots", (j) =>
@@ -45,6 +77,9 @@ export async function listTendons(
       "tendons.jack_grip_mm",
       "tendons.shop_elongation_mm",
       "strand_lots.lot_number",
+      "strand_lots.area_mm2",
+      "strand_lots.modulus_mpa",
+      "strand_lots.breaking_load_n",
     ])
     .where("tendons.project_id", "=", input.projectId)
     .where("tendons.pour_id", "=", input.pourId)
@@ -52,7 +87,20 @@ export async function listTendons(
     .execute();
   return {
     pour,
-    tendons: rows.map((r) => ({
+    tendons: rows.map((r) => {
+      let prediction: ReturnType<typeof predictTendon> | null = null;
+      try {
+        const lot = r.area_mm2 && r.modulus_mpa && r.breaking_load_n ? { areaMm2: r.area_mm2, modulusMPa: r.modulus_mpa, breakingLoadN: r.breaking_load_n } : null;
+        prediction = predictTendon({
+          project: basis,
+          tendon: { strandSize: r.strand_size, strandCount: r.strand_count, segments: r.segments, ends: r.ends, jackGripMm: r.jack_grip_mm },
+          lot,
+        });
+      } catch {
+        // A schedule row the engine refuses shows no prediction here; the tendon's page says why.
+      }
+      const evaluation = latest.get(r.id);
+      return {
       id: r.id,
       tag: r.tag,
       kind: r.kind,
@@ -64,6 +112,12 @@ export async function listTendons(
       shopElongationMm: r.shop_elongation_mm,
       strandLot: r.lot_number,
       lengthMm: r.segments.reduce((s, x) => s + x.lengthMm, 0),
-    })),
+      predictedMm: prediction?.predictedMm ?? null,
+      targets: sets
+        .filter((s) => s.current)
+        .map((s) => ({ set: s.name, pressureMPa: prediction && s.current ? targetPressureMPa(s.current, prediction.jackingForceN) : null })),
+      latest: evaluation ? { verdict: evaluation.verdict, deviationPct: evaluation.deviation_pct, provisional: evaluation.provisional } : null,
+      };
+    }),
   };
 }

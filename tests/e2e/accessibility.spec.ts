@@ -1,6 +1,6 @@
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
-import { PEOPLE, signInWithPassword } from "./people";
+import { PEOPLE, queryDemo, signInWithPassword } from "./people";
 
 /** Automated accessibility checks (axe-core, WCAG 2 A and AA rules) on the main screens. */
 
@@ -11,6 +11,51 @@ async function expectNoSeriousViolations(page: Page, where: string) {
     .map((v) => `${v.id}: ${v.help} (${v.nodes.length}× e.g. ${v.nodes[0]?.target.join(" ")})`);
   expect(serious, `${where}\n${serious.join("\n")}`).toEqual([]);
 }
+
+/** Every violation axe finds (any impact), for the office screens, which must have none. */
+async function expectNoViolations(page: Page, where: string) {
+  const results = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
+  const found = results.violations.map((v) => `${v.id} (${v.impact}): ${v.help} (${v.nodes.length}× e.g. ${v.nodes[0]?.target.join(" ")})`);
+  expect(found, `${where}\n${found.join("\n")}`).toEqual([]);
+}
+
+test("every office page has no axe violation at all, charts included", async ({ page }) => {
+  test.setTimeout(180_000);
+  const [project] = await queryDemo<{ id: string }>("select id from projects where code = 'AYP'");
+  const [pour] = await queryDemo<{ id: string }>("select id from pours where project_id = $1 and name = 'L2 Pour 2'", [project!.id]);
+  const [tendon] = await queryDemo<{ id: string }>("select id from tendons where project_id = $1 and tag = '2-2-U17'", [project!.id]);
+  const base = `/projects/${project!.id}`;
+
+  await signInWithPassword(page, PEOPLE.admin);
+  await page.waitForURL(/\/home$/);
+  for (const path of [
+    "/home",
+    "/setup",
+    `${base}/setup`,
+    `${base}/pours`,
+    `${base}/pours/${pour!.id}`,
+    `${base}/tendons/${tendon!.id}`,
+    `${base}/strand-lots`,
+    `${base}/equipment`,
+    `${base}/members`,
+    `${base}/pours/${pour!.id}/insight`,
+  ]) {
+    await page.goto(path);
+    await expect(page.getByRole("heading", { level: 1 })).toBeVisible();
+    await page.waitForLoadState("networkidle");
+    await expectNoViolations(page, `admin ${path}`);
+  }
+  await page.context().clearCookies();
+
+  await signInWithPassword(page, PEOPLE.engineer);
+  await page.waitForURL(/\/home$/);
+  for (const path of ["/home", "/review", `${base}/tendons/${tendon!.id}/flags`, "/decisions", `${base}/pours/${pour!.id}/insight`, `${base}/pours/00000000-0000-4000-8000-000000000000/insight`]) {
+    await page.goto(path);
+    await expect(page.getByRole("heading", { level: 1 })).toBeVisible();
+    await page.waitForLoadState("networkidle");
+    await expectNoViolations(page, `engineer ${path}`);
+  }
+});
 
 test("the landing and sign-in pages pass", async ({ page }) => {
   await page.goto("/");

@@ -133,8 +133,9 @@ test("an out-of-band tendon is flagged, mailed, reviewed, restressed and only th
   expect(mail.text).toMatch(/short/);
   expect(mail.text).toContain("Caution");
   expect(mail.to).toContain(PEOPLE.inspector);
-  const link = /https?:\/\/\S+\/flags/.exec(mail.text)?.[0];
-  expect(link).toBeTruthy();
+  const link = /https?:\/\/\S+\/flags\?flag=[0-9a-f-]{36}/.exec(mail.text)?.[0];
+  expect(link, "the e-mail links to the tendon's flags and names the flag").toBeTruthy();
+  const linkPath = `${new URL(link!).pathname}${new URL(link!).search}`;
 
   // 3. The inspector reviews and sends it on.
   for (const viewport of [
@@ -154,7 +155,7 @@ test("an out-of-band tendon is flagged, mailed, reviewed, restressed and only th
   const inspector = await inspectorCtx.newPage();
   await signInWithPassword(inspector, PEOPLE.inspector);
   await inspector.waitForURL(/\/home$/);
-  await inspector.goto(new URL(link!).pathname);
+  await inspector.goto(linkPath);
   await expect(inspector.getByRole("heading", { name: `Tendon ${TAG}`, level: 1 })).toBeVisible();
   await expect(inspector.locator("[data-verdict=short]").first()).toBeVisible();
   await expect(inspector.getByRole("note", { name: "Caution" }).first()).toBeVisible();
@@ -174,7 +175,7 @@ test("an out-of-band tendon is flagged, mailed, reviewed, restressed and only th
     const page = await ctx.newPage();
     await signInWithPassword(page, PEOPLE.engineer);
     await page.waitForURL(/\/home$/);
-    await page.goto(new URL(link!).pathname);
+    await page.goto(linkPath);
     await expect(page.getByRole("heading", { name: "1. Inputs" })).toBeVisible();
     await screenshot(page, `flag-engineer-${viewport.name}`);
     await ctx.close();
@@ -183,7 +184,7 @@ test("an out-of-band tendon is flagged, mailed, reviewed, restressed and only th
   const engineer = await engineerCtx.newPage();
   await signInWithPassword(engineer, PEOPLE.engineer);
   await engineer.waitForURL(/\/home$/);
-  await engineer.goto(new URL(link!).pathname);
+  await engineer.goto(linkPath);
   await engineer.getByRole("button", { name: "Record the disposition" }).click();
   await expect(engineer.locator("#reasons-error")).toContainText("at least 10 characters");
   await engineer.getByLabel("Restress", { exact: true }).check();

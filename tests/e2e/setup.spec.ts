@@ -108,7 +108,7 @@ test("an admin sets up a pour, imports its schedule, adds a strand lot and a cal
   await page.getByLabel("Jack serial").fill("EJ-77");
   await page.getByLabel("Gauge serial").fill("EG-77");
   await page.getByRole("button", { name: "Add set" }).click();
-  await expect(page.getByText(`Set ${SET} added.`)).toBeVisible();
+  await expect(page.getByText(`${SET} added. Add its calibration next.`)).toBeVisible();
   await page.getByLabel("Equipment set").selectOption({ label: SET });
   const today = new Date().toISOString().slice(0, 10);
   await page.getByLabel("Calibrated on").fill(today);

@@ -4,6 +4,7 @@ import { db } from "@/db";
 import { authorize } from "@/lib/auth/authorize";
 import { isAppError } from "@/lib/errors";
 import { projectParamsSchema } from "@/lib/schemas/member";
+import { getProjectTimeZone } from "@/lib/server/get-project-time-zone";
 import { listMembers } from "@/lib/server/list-members";
 
 export const metadata = { title: "People and invitations" };
@@ -17,7 +18,7 @@ export default async function MembersPage({ params }: { params: Promise<{ projec
     if (e.code === "UNAUTHENTICATED") redirect("/sign-in");
     notFound();
   });
-  const { members, invitations } = await listMembers(db, projectId);
+  const [{ members, invitations }, timeZone] = await Promise.all([listMembers(db, projectId), getProjectTimeZone(db, projectId)]);
   const project = access.user.memberships.find((m) => m.projectId === projectId);
   return (
     <main>
@@ -26,6 +27,7 @@ export default async function MembersPage({ params }: { params: Promise<{ projec
       <MembersPanel
         projectId={projectId}
         currentUserId={access.user.id}
+        timeZone={timeZone}
         members={members.map((m) => ({ ...m, since: new Date(m.since).toISOString() }))}
         invitations={invitations.map((i) => ({ ...i, expiresAt: new Date(i.expiresAt).toISOString() }))}
       />

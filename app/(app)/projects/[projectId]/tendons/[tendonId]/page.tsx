@@ -2,12 +2,15 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { ForceProfileChart } from "@/components/tendons/force-profile-chart";
 import { Caution } from "@/components/ui/caution";
+import { VerdictBadge } from "@/components/ui/verdict-badge";
 import { db } from "@/db";
 import { isAppError } from "@/lib/errors";
 import { CALIBRATION_STATE_LABELS } from "@/lib/schemas/calibration";
 import { displayUnits } from "@/lib/schemas/project-settings";
 import { KIND_LABELS } from "@/lib/schemas/tendon";
+import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
 import { getTendonDetail, SHOP_DRAWING_MARK_PCT } from "@/lib/server/get-tendon-detail";
+import { listTendonReadings } from "@/lib/server/list-tendon-readings";
 import { formatForce, formatLength, formatPressure } from "@/lib/units";
 import { isUuid, pageAccess } from "../../page-access";
 
@@ -25,10 +28,13 @@ export default async function TendonPage({ params }: { params: Promise<{ project
   const { projectId, tendonId } = await params;
   const access = await pageAccess("schedule.view", projectId);
   if (!isUuid(tendonId)) notFound();
-  const detail = await getTendonDetail(db, { projectId, tendonId }).catch((e: unknown) => {
-    if (isAppError(e) && e.code === "NOT_FOUND") notFound();
-    throw e;
-  });
+  const [detail, readings] = await Promise.all([
+    getTendonDetail(db, { projectId, tendonId }).catch((e: unknown) => {
+      if (isAppError(e) && e.code === "NOT_FOUND") notFound();
+      throw e;
+    }),
+    listTendonReadings(db, { projectId, tendonId }),
+  ]);
   const { tendon, computed, targets, project } = detail;
   const u = displayUnits(project);
   const us = u.system === "US";
@@ -141,6 +147,56 @@ export default async function TendonPage({ params }: { params: Promise<{ project
           </section>
         </>
       )}
+
+      <section aria-labelledby="readings-heading" className="card">
+        <div className="flex flex-wrap items-center justify-between gap-3">
+          <h2 id="readings-heading" className="text-lead font-semibold">
+            Readings
+          </h2>
+          {readings.evaluation && (
+            <VerdictBadge verdict={readings.evaluation.verdict} deviationPct={readings.evaluation.deviation_pct} provisional={readings.evaluation.provisional} />
+          )}
+        </div>
+        {readings.records.length === 0 ? (
+          <p className="mt-1">No end of this tendon has been stressed yet.</p>
+        ) : (
+          <>
+            <table className="mt-2 w-full text-left">
+              <thead>
+                <tr className="border-b-2 border-ink">
+                  <th className="p-2">End</th>
+                  <th className="p-2">Stressed</th>
+                  <th className="p-2">Set</th>
+                  <th className="p-2 text-right">Gauge</th>
+                  <th className="p-2 text-right">Elongation</th>
+                  <th className="p-2">Read by</th>
+                </tr>
+              </thead>
+              <tbody className="tabular-nums">
+                {readings.records.map((r) => (
+                  <tr key={r.id} className="border-b border-concrete-300">
+                    <td className="p-2 font-semibold">{r.tendon_end}</td>
+                    <td className="p-2 whitespace-nowrap">{formatDateTime(r.device_time, projectTimeZone(project))}</td>
+                    <td className="p-2">{r.equipmentSet}</td>
+                    <td className="p-2 text-right">{pressure(r.final_pressure_mpa)}</td>
+                    <td className="p-2 text-right font-semibold">
+                      {len(r.measured_mm)}
+                      {r.wire_breaks > 0 ? ` · ${r.wire_breaks} wire break${r.wire_breaks > 1 ? "s" : ""}` : ""}
+                    </td>
+                    <td className="p-2">
+                      {r.author}
+                      {r.revision > 1 ? ` (revision ${r.revision})` : ""}
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+            <p className="mt-2">
+              <Link href={`/projects/${projectId}/tendons/${tendonId}/flags`}>Flags, the whole trail and the calculation sheet</Link>
+            </p>
+          </>
+        )}
+      </section>
 
       <section aria-labelledby="targets-heading" className="card">
         <h2 id="targets-heading" className="text-lead font-semibold">

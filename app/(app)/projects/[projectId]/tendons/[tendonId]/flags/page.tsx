@@ -1,22 +1,36 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { ComputationSheet } from "@/components/review/computation-sheet";
+import { DecisionSummary } from "@/components/review/decision-summary";
 import { DispositionForm, ReviewForm } from "@/components/review/flag-actions";
 import { FlagTrail } from "@/components/review/flag-trail";
 import { RecordsTable } from "@/components/review/records-table";
 import { Caution } from "@/components/ui/caution";
-import { FlagChip, flagLabel, VerdictBadge } from "@/components/ui/verdict-badge";
+import { flagLabel } from "@/components/ui/verdict-badge";
 import { db } from "@/db";
 import { can } from "@/lib/auth/permissions";
 import { isAppError } from "@/lib/errors";
+import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
 import { getTendonCase } from "@/lib/server/get-tendon-case";
 import { showLength, showPressure } from "@/lib/stressing/display";
 import { isUuid, pageAccess } from "../../../page-access";
 
 export const metadata = { title: "Tendon flags" };
 
-export default async function TendonFlagsPage({ params }: { params: Promise<{ projectId: string; tendonId: string }> }) {
+/**
+ * The engineer's and the inspector's page for one tendon. It opens on the decision: the flag the
+ * e-mail named (`?flag=`), the verdict, the numbers that matter and the form; the evidence and the
+ * calculation sheet follow, folded by section, beside the decision on a wide screen.
+ */
+export default async function TendonFlagsPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ projectId: string; tendonId: string }>;
+  searchParams: Promise<{ flag?: string | string[] }>;
+}) {
   const { projectId, tendonId } = await params;
+  const { flag: flagParam } = await searchParams;
   if (!isUuid(tendonId)) notFound();
   const access = await pageAccess("record.view", projectId);
   const c = await getTendonCase(db, { projectId, tendonId }).catch((e: unknown) => {
@@ -24,71 +38,93 @@ export default async function TendonFlagsPage({ params }: { params: Promise<{ pr
     throw e;
   });
   const p = c.basis.project;
-  const open = c.flags.filter((f) => f.status !== "closed").map((f) => ({ id: f.id, label: `${flagLabel(f.kind)} (${f.status === "open" ? "open" : "with the engineer"})` }));
+  const timeZone = projectTimeZone(p);
+  const open = c.flags
+    .filter((f) => f.status !== "closed")
+    .map((f) => ({ id: f.id, label: `${flagLabel(f.kind)} (${f.status === "open" ? "open" : "with the engineer"})` }));
+  const requested = typeof flagParam === "string" && c.flags.some((f) => f.id === flagParam) ? flagParam : undefined;
+  const selected = requested ?? open[0]?.id;
   const unit = p.unitSystem === "us" ? "in" : "mm";
   const length = (mm: number) => showLength(p, mm);
+  const mayDecide = can(access.role, "disposition.create");
+  const mayReview = can(access.role, "flag.review");
 
   return (
-    <main className="space-y-10">
-      <header>
+    <main className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_minmax(0,36rem)] xl:grid-rows-[auto_1fr] xl:items-start">
+      <header className="xl:col-start-1 xl:row-start-1">
         <p className="field-label">
           {access.projectName} · {c.basis.pour.name}
           {c.release && " · released"}
         </p>
-        <h1 className="text-hero font-bold">Tendon {c.basis.tendon.tag}</h1>
-        <div className="mt-3 flex flex-wrap items-center gap-3">
-          {c.evaluation ? (
-            <VerdictBadge verdict={c.evaluation.verdict} deviationPct={c.evaluation.deviation_pct} provisional={c.evaluation.provisional} />
-          ) : (
-            <span className="text-ink-soft">Not stressed yet</span>
-          )}
-          {c.flags.map((f) => (
-            <FlagChip key={f.id} kind={f.kind} status={f.status} />
-          ))}
-        </div>
-        <p className="mt-3">
+        <h1 className="text-figure font-bold">Tendon {c.basis.tendon.tag}</h1>
+        <p className="mt-1">
           <Link href="/review">Back to the flags</Link>
         </p>
       </header>
 
-      <Caution />
+      <div
+        className="space-y-4 xl:sticky xl:top-4 xl:col-start-2 xl:row-span-2 xl:row-start-1"
+        data-testid="decision-column"
+      >
+        {requested === undefined && typeof flagParam === "string" && (
+          <p role="status" className="rounded-md border-2 border-ink bg-concrete-100 p-3">
+            The flag in the link is not on this tendon; showing {open.length ? "its first open flag" : "its flags"}{" "}
+            instead.
+          </p>
+        )}
+        <DecisionSummary c={c} flagId={selected} timeZone={timeZone} />
+        {open.length > 0 && (mayDecide || mayReview) ? (
+          <section aria-labelledby="actions-heading" className="space-y-4">
+            <h2 id="actions-heading" className="sr-only">
+              {mayDecide ? "Decision" : "Findings"}
+            </h2>
+            {mayDecide && (
+              <DispositionForm projectId={projectId} flags={open} engineerName={access.user.name} selected={selected} />
+            )}
+            {mayReview && <ReviewForm projectId={projectId} flags={open} unit={unit} selected={selected} />}
+          </section>
+        ) : (
+          open.length === 0 && (
+            <p className="card">Every flag on this tendon is closed; nothing waits for a decision.</p>
+          )
+        )}
+        <Caution />
+      </div>
 
-      <section aria-labelledby="flags-heading" className="space-y-4">
-        <h2 id="flags-heading" className="text-figure font-bold">
-          Flags and their trail
-        </h2>
-        <FlagTrail c={c} showLength={length} />
-      </section>
-
-      <section aria-labelledby="records-heading" className="space-y-3">
-        <h2 id="records-heading" className="text-figure font-bold">
-          Stressing records
-        </h2>
-        <RecordsTable c={c} showLength={length} showPressure={(mpa) => showPressure(p, mpa)} canCorrect={can(access.role, "record.correct")} unit={unit} />
-      </section>
-
-      <section aria-labelledby="calc-heading" className="space-y-3">
-        <h2 id="calc-heading" className="text-figure font-bold">
-          Computation
-        </h2>
-        <p className="text-ink-soft">
-          Evaluated by {c.evaluation?.engine_version ?? "the elongation engine"}
-          {c.evaluation ? ` on ${new Date(c.evaluation.created_at).toUTCString()} (${c.evaluation.reason})` : ""}.
-        </p>
-        <ComputationSheet c={c} />
-      </section>
-
-      <Caution />
-
-      {open.length > 0 && (can(access.role, "flag.review") || can(access.role, "disposition.create")) && (
-        <section aria-labelledby="actions-heading" className="space-y-4">
-          <h2 id="actions-heading" className="text-figure font-bold">
-            {access.role === "engineer" ? "Decision" : "Findings"}
+      <div className="space-y-6 xl:col-start-1 xl:row-start-2">
+        <section aria-labelledby="flags-heading" className="space-y-3">
+          <h2 id="flags-heading" className="text-lead font-bold">
+            Flags and their trail
           </h2>
-          {can(access.role, "disposition.create") && <DispositionForm projectId={projectId} flags={open} engineerName={access.user.name} />}
-          {can(access.role, "flag.review") && <ReviewForm projectId={projectId} flags={open} unit={unit} />}
+          <FlagTrail c={c} showLength={length} timeZone={timeZone} selected={selected} />
         </section>
-      )}
+
+        <section aria-labelledby="records-heading" className="space-y-3">
+          <h2 id="records-heading" className="text-lead font-bold">
+            Stressing records
+          </h2>
+          <RecordsTable
+            c={c}
+            showLength={length}
+            showPressure={(mpa) => showPressure(p, mpa)}
+            canCorrect={can(access.role, "record.correct")}
+            unit={unit}
+            timeZone={timeZone}
+          />
+        </section>
+
+        <section aria-labelledby="calc-heading" className="space-y-3">
+          <h2 id="calc-heading" className="text-lead font-bold">
+            Calculation sheet
+          </h2>
+          <p className="text-ink-soft">
+            Evaluated by {c.evaluation?.engine_version ?? "the elongation engine"}
+            {c.evaluation ? ` on ${formatDateTime(c.evaluation.created_at, timeZone)} (${c.evaluation.reason})` : ""}.
+            Open or close each part.
+          </p>
+          <ComputationSheet c={c} />
+        </section>
+      </div>
     </main>
   );
 }

@@ -4,7 +4,7 @@ import { SetupTabs } from "@/components/setup/setup-tabs";
 import { db } from "@/db";
 import { getProjectSettings } from "@/lib/server/get-project-settings";
 import { listPours } from "@/lib/server/list-pours";
-import { pageAccess } from "../page-access";
+import { pageAccess } from "../../page-access";
 
 export const metadata = { title: "Pours and tendons" };
 

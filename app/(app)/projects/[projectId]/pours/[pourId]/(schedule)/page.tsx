@@ -10,7 +10,7 @@ import { displayUnits } from "@/lib/schemas/project-settings";
 import { getProjectSettings } from "@/lib/server/get-project-settings";
 import { listStrandLots } from "@/lib/server/list-strand-lots";
 import { listTendons } from "@/lib/server/list-tendons";
-import { isUuid, pageAccess } from "../../page-access";
+import { isUuid, pageAccess } from "../../../page-access";
 
 export const metadata = { title: "Pour schedule" };
 

@@ -1,0 +1,34 @@
+import Link from "next/link";
+
+/**
+ * The states every office page shares, shown inside the signed-in layout so the navigation stays:
+ * loading (what is being gathered), not found (what may have happened, and where to go).
+ * The error state is in segment-error.tsx, since error boundaries run in the browser.
+ */
+export function SegmentLoading({ what }: { what: string }) {
+  return (
+    <main className="space-y-4" aria-busy="true">
+      <p role="status" className="text-lead font-semibold">
+        Gathering {what}…
+      </p>
+      <div className="h-10 w-2/3 animate-pulse rounded-md bg-concrete-200" />
+      <div className="h-48 animate-pulse rounded-md bg-concrete-200" />
+    </main>
+  );
+}
+
+export function SegmentNotFound({ what, back }: { what: string; back: { href: string; label: string } }) {
+  return (
+    <main className="max-w-2xl space-y-4">
+      <p className="field-label">Not found</p>
+      <h1 className="text-figure font-bold">There is no {what} at this address.</h1>
+      <p className="text-ink-soft">
+        It may have been removed, the link may be cut short, or it belongs to a project you are not a member of. If someone sent you this link, ask them
+        to check it.
+      </p>
+      <Link href={back.href} className="btn-primary">
+        {back.label}
+      </Link>
+    </main>
+  );
+}
