@@ -16,10 +16,10 @@ describe("dates in the project's zone", () => {
     expect(formatAge("2026-12-02T10:00:00Z", "2026-12-02T13:00:00Z")).toBe("3 hours ago");
   });
 
-  it("shows a project in its own zone once it has one, and in UTC until then", () => {
+  it("shows a project in its own zone, and in UTC when it names none", () => {
     expect(projectTimeZone({ time_zone: "America/Chicago" })).toBe("America/Chicago");
     expect(projectTimeZone({ timeZone: "Europe/Berlin" })).toBe("Europe/Berlin");
     expect(projectTimeZone({ time_zone: null })).toBe("UTC");
-    expect(projectTimeZone({ name: "no zone column yet" })).toBe("UTC");
+    expect(projectTimeZone({})).toBe("UTC");
   });
 });

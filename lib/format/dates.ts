@@ -49,10 +49,10 @@ export function latestDayAnywhere(now: Instant = Date.now()): string {
 }
 
 /**
- * The time zone a project's dates and times are shown in. Projects have no zone column yet, so
- * this answers "UTC" until one is there; it is the only place that needs to change when it is.
+ * The time zone a project's dates and times are shown in: its `time_zone` (a projects row) or
+ * `timeZone` (its settings), "UTC" when neither is given.
  */
-export function projectTimeZone(project: object): string {
-  const zone = (project as { time_zone?: unknown; timeZone?: unknown }).time_zone ?? (project as { timeZone?: unknown }).timeZone;
+export function projectTimeZone(project: { time_zone?: string | null; timeZone?: string | null }): string {
+  const zone = project.time_zone ?? project.timeZone;
   return typeof zone === "string" && zone !== "" ? zone : "UTC";
 }

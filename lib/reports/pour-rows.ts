@@ -87,7 +87,7 @@ function calibrationText(report: PourReport, r: PourRecord): string {
   const c = r.calibration;
   if (!c) return "none on file for that day";
   const certificate = c.certificate ? `certificate ${c.certificate}` : "no certificate uploaded";
-  const state = c.inForce ? "" : ` NOT IN FORCE on ${reportDay({ timeZone: r.deviceTimeZone }, r.deviceTime)}`;
+  const state = c.inForce ? "" : ` NOT IN FORCE on ${reportDay(report, r.deviceTime)}`;
   const reason = r.expiredCalibrationReason ? ` (crew: ${r.expiredCalibrationReason})` : "";
   return `${c.calibratedOn} to ${c.validUntil}${c.laboratory ? `, ${c.laboratory}` : ""}; ${certificate}${state}${reason}`;
 }

@@ -1,3 +1,4 @@
+import { projectTimeZone } from "@/lib/format/dates";
 import "server-only";
 import { projectBasisFromRow } from "@/lib/stressing/basis";
 import type { Kysely } from "kysely";
@@ -129,7 +130,7 @@ export async function getPourReport(
 
   const [tendons, records, { flags, reviews, dispositions }, release, flagNumbers, dispositionNumbers] = await Promise.all([
     listTendonResults(db, input),
-    listPourRecords(db, { ...input, projectBasis: project.comparison_basis }),
+    listPourRecords(db, { ...input, projectBasis: project.comparison_basis, timeZone: projectTimeZone(project) }),
     findFlagTrail(db, { projectId: input.projectId, pourId: input.pourId }),
     db
       .selectFrom("releases")
@@ -203,8 +204,8 @@ export async function getPourReport(
   ];
   const asOf = new Date(Math.max(...moments.map((m) => m.getTime())));
 
-  const zones = records.map((r) => r.deviceTimeZone);
-  const timeZone = zones.sort((a, b) => zones.filter((z) => z === b).length - zones.filter((z) => z === a).length)[0] ?? "UTC";
+  // Every date on the report is written in the project's own time zone (the site's), like the screens.
+  const timeZone = projectTimeZone(project);
 
   return {
     asOf,

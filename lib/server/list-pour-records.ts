@@ -1,9 +1,9 @@
+import { stressingDay } from "@/lib/stressing/judge";
 import "server-only";
 import type { Kysely } from "kysely";
 import { z } from "zod";
 import type { Database, ReadingMethod, TendonEnd, Verdict } from "@/db/types";
 import { forceFromPressure, pressureForForce } from "@/lib/elongation";
-import { dayInZone } from "@/lib/format/dates";
 import { pickCalibration } from "@/lib/schemas/calibration";
 
 /**
@@ -97,7 +97,7 @@ const day = (d: Date | string) => (typeof d === "string" ? d.slice(0, 10) : d.to
 
 export async function listPourRecords(
   db: Kysely<Database>,
-  input: { projectId: string; pourId: string; projectBasis: "gross" | "net" },
+  input: { projectId: string; pourId: string; projectBasis: "gross" | "net"; timeZone: string },
 ): Promise<PourRecord[]> {
   const rows = await db
     .selectFrom("records")
@@ -230,7 +230,8 @@ export async function listPourRecords(
     const endKey = `${r.tendon_id}/${r.tendon_end}`;
     const stressing = (stressingCount.get(endKey) ?? 0) + 1;
     stressingCount.set(endKey, stressing);
-    const stressedOn = dayInZone(r.device_time, r.device_time_zone);
+    // The stressing day in the project's time zone, the same day the judge used (stressingDay).
+    const stressedOn = stressingDay(r.device_time, input.timeZone);
     const ofSet = calibrations
       .filter((c) => c.equipment_set_id === r.equipment_set_id)
       .map((c) => ({ ...c, calibratedOn: day(c.calibrated_on) }));

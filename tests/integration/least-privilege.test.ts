@@ -71,6 +71,8 @@ describe("the app's database role", () => {
     ["delete from reviews", /permission denied/],
     ["update dispositions set created_at = now()", /permission denied/],
     ["delete from releases", /permission denied/],
+    ["delete from pour_reopenings", /permission denied/],
+    ["update report_revisions set statement = 'changed'", /permission denied/],
     ["alter table records disable trigger records_append_only", /must be owner/],
     ["alter table audit_events disable trigger all", /must be owner/],
     ["drop trigger audit_events_no_change on audit_events", /must be owner/],
@@ -90,7 +92,7 @@ describe("the app's database role", () => {
   });
 
   it("refuses TRUNCATE of an append-only table even from the owner", async () => {
-    for (const table of ["records", "evaluations", "reviews", "dispositions", "releases", "audit_events"]) {
+    for (const table of ["records", "evaluations", "reviews", "dispositions", "releases", "audit_events", "pour_reopenings", "report_revisions"]) {
       const error = await sql
         .raw(`truncate ${table} cascade`)
         .execute(t.db)
