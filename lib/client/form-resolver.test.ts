@@ -5,13 +5,13 @@ import { pourSchema } from "@/lib/schemas/pour";
 import { formResolver } from "./form-resolver";
 
 const resolver = formResolver(
-  { name: z.string(), level: z.string(), area: units.number(false), plannedStressingDate: z.string(), status: z.string() },
+  { name: z.string(), level: z.string(), area: units.number(false), plannedStressingDate: z.string() },
   ({ area, ...v }) => ({ ...v, level: v.level || null, plannedStressingDate: v.plannedStressingDate || null, areaM2: area }),
   pourSchema,
   { areaM2: "area" },
 );
 const run = (values: Record<string, string>) =>
-  resolver({ name: "L3 east", level: "", area: "", plannedStressingDate: "", status: "planned", ...values } as never, undefined, {
+  resolver({ name: "L3 east", level: "", area: "", plannedStressingDate: "", ...values } as never, undefined, {
     fields: {},
     shouldUseNativeValidation: false,
   });
@@ -31,8 +31,16 @@ describe("a form resolver that tells every fault at once", () => {
   });
 
   it("sends a message no box owns to the form itself", async () => {
-    const { errors } = await run({ status: "demolished" });
-    expect(errors).toEqual({ status: { type: "invalid", message: "Pick planned, stressing or released." } });
+    // The pour form has no status box: a status that reaches the shared schema anyway is refused on the form.
+    const setsStatus = formResolver(
+      { name: z.string() },
+      (v) => ({ name: v.name, level: null, areaM2: null, plannedStressingDate: null, status: "released" }),
+      pourSchema,
+    );
+    const refused = await setsStatus({ name: "L3 east" }, undefined, { fields: {}, shouldUseNativeValidation: false });
+    expect(refused.errors).toEqual({
+      root: { type: "invalid", message: "A pour's status follows from its records and its release; it cannot be set." },
+    });
     const loose = formResolver({ a: z.string() }, () => ({ b: 1 }), z.object({ b: z.string({ error: "B is missing." }) }));
     const out = await loose({ a: "x" }, undefined, { fields: {}, shouldUseNativeValidation: false });
     expect(out.errors).toEqual({ root: { type: "invalid", message: "B is missing." } });
@@ -41,7 +49,7 @@ describe("a form resolver that tells every fault at once", () => {
   it("answers the SI values when every box reads", async () => {
     const { errors, values } = await run({ area: "1,250", plannedStressingDate: "2026-12-09" });
     expect(errors).toEqual({});
-    expect(values).toEqual({ name: "L3 east", level: null, areaM2: 1250, plannedStressingDate: "2026-12-09", status: "planned" });
+    expect(values).toEqual({ name: "L3 east", level: null, areaM2: 1250, plannedStressingDate: "2026-12-09" });
   });
 });
 
