@@ -117,8 +117,11 @@ test("an invitation is accepted end to end, and a removed member is refused at o
   // ...until the admin removes them: their session ends at once (same session cookie), so the
   // very next call is refused and the pages send them to sign in.
   await page.reload();
-  page.once("dialog", (d) => void d.accept());
   await page.getByRole("button", { name: "Remove Noor Halvorsen" }).click();
+  await page
+    .getByRole("dialog", { name: "Remove Noor Halvorsen from the project?" })
+    .getByRole("button", { name: "Remove Noor Halvorsen" })
+    .click();
   await expect(page.getByRole("status")).toContainText("Noor Halvorsen was removed");
   expect((await newcomerPage.request.get(`/api/projects/${projectId}/members`)).status()).toBe(401);
   await newcomerPage.goto(`/projects/${projectId}/members`);

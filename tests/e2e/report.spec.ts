@@ -68,7 +68,8 @@ test("the crew sees the insight but no report buttons and may not download it; a
   // The crew may not download the report at all.
   const refused = await page.request.get(`/api/projects/${project!.id}/pours/${pourId}/report/pdf`);
   expect(refused.status()).toBe(403);
-  // The page streams behind its loading state, so the answer is the not-found screen.
-  await page.goto(`/projects/${project!.id}/pours/00000000-0000-4000-8000-000000000000/insight`);
-  await expect(page.getByRole("heading", { name: "There is nothing at this address." })).toBeVisible();
+  // The pour is checked above the page's loading state, so the answer is a real 404 inside the navigation.
+  const missing = await page.goto(`/projects/${project!.id}/pours/00000000-0000-4000-8000-000000000000/insight`);
+  expect(missing?.status()).toBe(404);
+  await expect(page.getByRole("heading", { name: "There is no pour on this project at this address." })).toBeVisible();
 });
