@@ -1,4 +1,7 @@
-import type { Verdict } from "@/db/types";
+import type { FlagStatus, Verdict } from "@/db/types";
+import { FLAG_STATUS_LABELS, flagLabel } from "@/lib/schemas/flag";
+
+export { flagLabel } from "@/lib/schemas/flag";
 
 /** A verdict as an icon, a word and the number: never colour alone. */
 const STYLE: Record<Verdict, { cls: string; icon: string; word: string }> = {
@@ -27,21 +30,6 @@ export function VerdictBadge({ verdict, deviationPct, provisional }: { verdict: 
   );
 }
 
-const FLAG_LABELS: Record<string, string> = {
-  out_of_band: "Out of band",
-  jacking_over_limit: "Jacking force over limit",
-  anchor_over_limit: "Anchor force over 0.70·fpu",
-  calibration_expired: "Calibration expired",
-  calibration_range: "Reading outside calibration",
-  wire_break: "Wire break",
-  concrete_unconfirmed: "Concrete strength not confirmed",
-  reading_missing: "Reading missing",
-  stressed_twice: "Stressed twice",
-};
-
-export const flagLabel = (kind: string) => FLAG_LABELS[kind] ?? kind;
-
-const STATUS_LABELS: Record<string, string> = { open: "Open", with_engineer: "With the engineer", closed: "Closed" };
 
 export function FlagChip({ kind, status }: { kind: string; status: string }) {
   const closed = status === "closed";
@@ -58,7 +46,7 @@ export function FlagChip({ kind, status }: { kind: string; status: string }) {
           <path d="M6 3v18M6 4h11l-3 4 3 4H6" fill="none" stroke="currentColor" strokeWidth="2.5" strokeLinejoin="round" />
         )}
       </svg>
-      {flagLabel(kind)} · {STATUS_LABELS[status] ?? status}
+      {flagLabel(kind)} · {FLAG_STATUS_LABELS[status as FlagStatus] ?? status}
     </span>
   );
 }

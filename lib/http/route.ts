@@ -3,6 +3,7 @@ import { NextResponse, type NextRequest } from "next/server";
 import { z } from "zod";
 import { env } from "@/lib/env";
 import { AppError, isAppError, type FieldErrors } from "@/lib/errors";
+import { zodFields } from "@/lib/schemas/zod-fields";
 import { clientAddress } from "./client-address";
 import { isReleasedPourRefusal, RELEASED_POUR_MESSAGE } from "@/lib/server/require-open-pour";
 
@@ -18,15 +19,6 @@ type Params = Record<string, string | string[]>;
 type Ctx = { params: Promise<Params> };
 
 const MUTATING = new Set(["POST", "PUT", "PATCH", "DELETE"]);
-
-export function zodFields(error: z.ZodError): FieldErrors {
-  const fields: FieldErrors = {};
-  for (const issue of error.issues) {
-    const key = issue.path.length ? issue.path.join(".") : "_";
-    (fields[key] ??= []).push(issue.message);
-  }
-  return fields;
-}
 
 function describeFields(fields: FieldErrors): string {
   return Object.entries(fields)

@@ -1,3 +1,4 @@
+import { flagLabel } from "@/lib/schemas/flag";
 import type { OutgoingMail } from "./send-mail";
 
 /** Plain, readable e-mails: every message has an HTML part and a text part with the same words. */
@@ -107,13 +108,13 @@ export function flagMail(input: {
   const paragraphs = [
     `${input.projectName}, ${input.pourName}, tendon ${input.tendonTag}.`,
     `Verdict: ${input.verdictLine}.`,
-    ...input.flags.map((f) => `Flag (${f.kind.replaceAll("_", " ")}): ${f.reason}`),
+    ...input.flags.map((f) => `Flag (${flagLabel(f.kind)}): ${f.reason}`),
     `Basis: ${input.basisLine}`,
     "Do not cut tails or grout this tendon until a disposition is recorded.",
   ];
   return {
     to: input.to.join(", "),
-    subject: `Tautline flag: ${input.tendonTag}, ${input.pourName} (${input.flags.map((f) => f.kind.replaceAll("_", " ")).join(", ")})`,
+    subject: `Tautline flag: ${input.tendonTag}, ${input.pourName} (${input.flags.map((f) => flagLabel(f.kind)).join(", ")})`,
     html: layout(title, paragraphs, { label: "Open the tendon's flags", url }, CAUTION_LINE),
     text: text(title, paragraphs, { label: "Open the tendon's flags", url }, CAUTION_LINE),
   };

@@ -1,4 +1,4 @@
-import { flagLabel } from "@/components/ui/verdict-badge";
+import { flagLabel } from "@/lib/schemas/flag";
 import { formatDateTime, formatDay } from "@/lib/format/dates";
 import {
   readingResolution,

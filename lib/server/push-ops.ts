@@ -6,7 +6,7 @@ import { reusableQuery } from "@/db/reusable-query";
 import type { Database } from "@/db/types";
 import { can } from "@/lib/auth/permissions";
 import type { SessionUser } from "@/lib/auth/session";
-import { zodFields } from "@/lib/http/route";
+import { zodFields } from "@/lib/schemas/zod-fields";
 import { recordPayloadSchema, type RecordPayload } from "@/lib/schemas/record";
 import type { OpError, OpEvaluation, OpResult, PushResponse, SyncOp } from "@/lib/schemas/sync";
 import {
