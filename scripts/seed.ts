@@ -1,6 +1,6 @@
 // Seeds the invented demo job. Safe to run again: existing demo rows are kept, not doubled.
 import { createDb } from "@/db/connect";
-import { seedDemo } from "@/db/seed/demo";
+import { seedDemo } from "@/scripts/seed/demo";
 import { env } from "@/lib/env";
 
 // As the owner role: the app's own role may not change the schema.

@@ -9,7 +9,7 @@ import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { pourSchema, type PourInput } from "@/lib/schemas/pour";
 import { poursKey } from "./pour-table";
-import { units } from "./unit-fields";
+import { units } from "@/lib/client/unit-fields";
 
 const FT2_PER_M2 = 10.7639104167;
 

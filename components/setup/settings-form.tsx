@@ -8,7 +8,7 @@ import { FormMessage } from "@/components/ui/form-message";
 import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { projectSettingsSchema, type ProjectSettings } from "@/lib/schemas/project-settings";
-import { PER, shown, units } from "./unit-fields";
+import { PER, shown, units } from "@/lib/client/unit-fields";
 
 type KUnit = "per ft" | "per m";
 

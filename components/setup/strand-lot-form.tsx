@@ -11,7 +11,7 @@ import { sendJson } from "@/lib/client/send-json";
 import { strandLotSchema, type StrandLotInput } from "@/lib/schemas/strand-lot";
 import { STRAND_SIZES } from "@/lib/schemas/tendon";
 import { strandLotsKey } from "./strand-lot-table";
-import { units } from "./unit-fields";
+import { units } from "@/lib/client/unit-fields";
 
 function fields(us: boolean) {
   const system = us ? "US" : "SI";

@@ -4,7 +4,7 @@ import { useState } from "react";
 import { useFieldArray, useForm, useWatch } from "react-hook-form";
 import { useSWRConfig } from "swr";
 import { z } from "zod";
-import { units } from "@/components/setup/unit-fields";
+import { units } from "@/lib/client/unit-fields";
 import { FormMessage } from "@/components/ui/form-message";
 import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";

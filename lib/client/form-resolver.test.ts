@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { z } from "zod";
-import { units } from "@/components/setup/unit-fields";
+import { units } from "@/lib/client/unit-fields";
 import { pourSchema } from "@/lib/schemas/pour";
 import { formResolver } from "./form-resolver";
 

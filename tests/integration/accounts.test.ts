@@ -1,6 +1,6 @@
 import { sql } from "kysely";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/db/seed/demo";
+import { seedDemo } from "@/scripts/seed/demo";
 import { hashToken } from "@/lib/auth/tokens";
 import { AppError } from "@/lib/errors";
 import { acceptInvitation, previewInvitation } from "@/lib/server/accept-invitation";

@@ -6,7 +6,7 @@ import { promisify } from "node:util";
 import { sql } from "kysely";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "@/db/connect";
-import { seedDemo } from "@/db/seed/demo";
+import { seedDemo } from "@/scripts/seed/demo";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
 const run = promisify(execFile);

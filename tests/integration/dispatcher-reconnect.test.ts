@@ -1,6 +1,6 @@
 import { spawn, type ChildProcess } from "node:child_process";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/db/seed/demo";
+import { seedDemo } from "@/scripts/seed/demo";
 import { checkHealth } from "@/lib/server/check-health";
 import { checkMailFlow } from "@/lib/server/check-mail-flow";
 import { createTestDatabase, type TestDatabase } from "../support/database";

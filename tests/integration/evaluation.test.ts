@@ -1,6 +1,6 @@
 import { sql } from "kysely";
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
-import { seedDemo } from "@/db/seed/demo";
+import { seedDemo } from "@/scripts/seed/demo";
 import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 import { lbfToN } from "@/lib/units";
 import { predictTendon } from "@/lib/stressing/basis";

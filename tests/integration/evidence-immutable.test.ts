@@ -1,7 +1,7 @@
 import { createHash } from "node:crypto";
 import { PutObjectCommand } from "@aws-sdk/client-s3";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/db/seed/demo";
+import { seedDemo } from "@/scripts/seed/demo";
 import { cleanPendingUploads, confirmUpload, presignUpload, readAttachment } from "@/lib/storage";
 import { bucket, s3 } from "@/lib/storage/client";
 import { createTestDatabase, type TestDatabase } from "../support/database";

@@ -1,7 +1,7 @@
 import { sql } from "kysely";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createDb, type Db } from "@/db/connect";
-import { seedDemo } from "@/db/seed/demo";
+import { seedDemo } from "@/scripts/seed/demo";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
 // The app connects as tautline_app (scripts/start.sh, scripts/test.sh). Each way around the

@@ -1,6 +1,6 @@
 import { spawn } from "node:child_process";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/db/seed/demo";
+import { seedDemo } from "@/scripts/seed/demo";
 import { MAX_ATTEMPTS, backoffMs, dispatchOne, drainNotifications } from "@/lib/server/dispatch-notifications";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 

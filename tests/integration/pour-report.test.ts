@@ -3,7 +3,7 @@ import { PDFParse } from "pdf-parse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { uuidv7 } from "uuidv7";
 import { CAUTION_TEXT } from "@/components/ui/caution";
-import { seedDemo } from "@/db/seed/demo";
+import { seedDemo } from "@/scripts/seed/demo";
 import { pourCsvTable, renderPourCsv } from "@/lib/reports/pour-csv";
 import { pdfText, renderPourPdf } from "@/lib/reports/pour-pdf";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/db/seed/demo";
+import { seedDemo } from "@/scripts/seed/demo";
 import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 import { addCalibration } from "@/lib/server/add-calibration";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { NextRequest } from "next/server";
 import pg from "pg";
-import { seedDemo } from "@/db/seed/demo";
+import { seedDemo } from "@/scripts/seed/demo";
 import { MAILS_PER_ADDRESS_PER_HOUR } from "@/lib/server/allow-mail-to-address";
 import { requestPasswordReset } from "@/lib/server/reset-password";
 import { settleBackground } from "@/lib/server/run-in-background";

@@ -1,6 +1,6 @@
 import { sql } from "kysely";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/db/seed/demo";
+import { seedDemo } from "@/scripts/seed/demo";
 import { predictTendon } from "@/lib/stressing/basis";
 import { addReview } from "@/lib/server/add-review";
 import { correctRecord } from "@/lib/server/correct-record";

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import bcrypt from "bcryptjs";
-import { DEMO_PASSWORD, DEMO_PEOPLE, seedDemo } from "@/db/seed/demo";
+import { DEMO_PASSWORD, DEMO_PEOPLE, seedDemo } from "@/scripts/seed/demo";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
 let t: TestDatabase;

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
-import { seedDemo } from "@/db/seed/demo";
+import { seedDemo } from "@/scripts/seed/demo";
 import { newToken } from "@/lib/auth/tokens";
 import { changeMemberRole, removeMember } from "@/lib/server/change-member-role";
 import { loadSessionUser } from "@/lib/server/load-session-user";

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/db/seed/demo";
+import { seedDemo } from "@/scripts/seed/demo";
 import { can, PERMISSIONS } from "@/lib/auth/permissions";
 import { addCalibration } from "@/lib/server/add-calibration";
 import { createStrandLot } from "@/lib/server/create-strand-lot";

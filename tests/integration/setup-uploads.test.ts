@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createHash } from "node:crypto";
-import { seedDemo } from "@/db/seed/demo";
+import { seedDemo } from "@/scripts/seed/demo";
 import { confirmUpload, presignUpload, readAttachment } from "@/lib/storage";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 

@@ -3,7 +3,7 @@ import Papa from "papaparse";
 import { PDFParse } from "pdf-parse";
 import { uuidv7 } from "uuidv7";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/db/seed/demo";
+import { seedDemo } from "@/scripts/seed/demo";
 import { pourCsvTable, renderPourCsv } from "@/lib/reports/pour-csv";
 import { renderPourPdf } from "@/lib/reports/pour-pdf";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";

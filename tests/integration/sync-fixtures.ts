@@ -1,6 +1,6 @@
 import { uuidv7 } from "uuidv7";
 import type { Db } from "@/db/connect";
-import { seedDemo } from "@/db/seed/demo";
+import { seedDemo } from "@/scripts/seed/demo";
 import { payloadFromForm, EMPTY_RECORD_FORM, type RecordFormValues, type RecordPayload } from "@/lib/schemas/record";
 import type { SyncOp } from "@/lib/schemas/sync";
 import type { Pusher } from "@/lib/server/push-ops";

@@ -3,7 +3,7 @@ import { fitCalibration } from "@/lib/elongation";
 import { predictTendon, projectBasisFromRow } from "@/lib/stressing/basis";
 import { seedDemoRecords } from "./demo-records";
 import type { Kysely } from "kysely";
-import type { Database, Role, StressingEnds, TendonSegment } from "../types";
+import type { Database, Role, StressingEnds, TendonSegment } from "@/db/types";
 
 /**
  * The demo job: an invented four-level parking structure, "Alder Yard Parking", with

@@ -1,6 +1,6 @@
 import { createHash } from "node:crypto";
 import type { Kysely } from "kysely";
-import type { Database } from "../types";
+import type { Database } from "@/db/types";
 import { pressureForForce } from "@/lib/elongation";
 import { addReview } from "@/lib/server/add-review";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
