@@ -157,17 +157,21 @@ describe("SyncClient.sendSoon (after a save)", () => {
     const server = applyingServer();
     let release!: () => void;
     const gate = new Promise<void>((resolve) => (release = resolve));
+    let entered!: () => void;
+    const pushing = new Promise<void>((resolve) => (entered = resolve));
     let first = true;
     const fetch: Fetch = async (url, init) => {
       if (first && url.startsWith("/api/sync/push")) {
         first = false;
+        entered();
         await gate;
       }
       return server.fetch(url, init);
     };
     const client = new SyncClient({ db, fetch, locks: null, online: () => true });
     const running = client.sync();
-    await new Promise((r) => setTimeout(r, 10));
+    // The first round has read the outbox and is waiting on the server when the record is saved.
+    await pushing;
     const s = samplePayload();
     await saveRecord(db, { ...s, authorName: "Test Crew", local: null });
     const after = client.sendSoon();
