@@ -88,6 +88,19 @@ export interface PoursTable {
   updated_at: Timestamp;
 }
 
+export interface ConcreteResultsTable {
+  id: Generated<string>;
+  project_id: string;
+  pour_id: string;
+  specimen: "cylinder" | "cube";
+  strength_mpa: number;
+  age_days: number;
+  specimen_count: number;
+  attachment_id: string | null;
+  entered_by: string;
+  entered_at: Timestamp;
+}
+
 export interface StrandLotsTable {
   id: Generated<string>;
   project_id: string;
@@ -161,7 +174,7 @@ export interface AuditEventsTable {
   detail: ColumnType<Record<string, unknown>, string | undefined, string>;
 }
 
-export type AttachmentPurpose = "mill_certificate" | "calibration_certificate" | "record_photo" | "review_photo" | "signed_report";
+export type AttachmentPurpose = "mill_certificate" | "calibration_certificate" | "record_photo" | "review_photo" | "lab_report" | "signed_report";
 
 export interface AttachmentsTable {
   id: Generated<string>;
@@ -451,6 +464,7 @@ export interface Database {
   projects: ProjectsTable;
   project_members: ProjectMembersTable;
   pours: PoursTable;
+  concrete_results: ConcreteResultsTable;
   strand_lots: StrandLotsTable;
   tendons: TendonsTable;
   verification_tokens: VerificationTokensTable;

@@ -11,6 +11,8 @@ interface FieldApi {
   client: SyncClient;
   /** Sync now: resets the backoff, pushes, pulls, then uploads waiting photos. */
   syncNow: () => Promise<void>;
+  /** After a save: a round at once when there is signal (within the backoff), then waiting photos. */
+  sendSaved: () => void;
   /** What the outbox holds, read once for every screen that shows or waits on it (undefined while loading). */
   outbox: OutboxStatus | undefined;
 }
@@ -78,6 +80,14 @@ export function FieldProvider({ children }: { children: ReactNode }) {
         await refreshSession(db);
         await client.sync({ force: true });
         await uploadPhotos(db);
+      },
+      sendSaved: () => {
+        void client.sendSoon().then(
+          async (outcome) => {
+            if (outcome?.kind === "done") await uploadPhotos(db);
+          },
+          () => undefined,
+        );
       },
     };
   });

@@ -9,6 +9,7 @@ import { showLength, showPressure } from "@/lib/stressing/display";
 import { useField } from "./field-provider";
 import { HoldPanel } from "./hold-panel";
 import { PourReleaseNote } from "./pour-release-note";
+import { concreteGateMet } from "@/lib/stressing/concrete-strength";
 import { RecordForm } from "./record-form";
 import { useLive } from "./use-live";
 import { units, VerdictPanel } from "./verdict-panel";
@@ -126,6 +127,18 @@ export function PourLog() {
           {project.code} · {tendons.length} tendons · {stressedCount} stressed{flaggedCount ? ` (${flaggedCount} flagged)` : ""}
         </p>
         <PourReleaseNote pour={pour} />
+        {!concreteGateMet(pour.concreteStrengthMpa ?? null, project.requiredConcreteMpa ?? null) && (
+          <p role="status" className="rounded-md border-2 border-signal-stop p-3 font-bold text-signal-stop" data-testid="concrete-gate-field">
+            <span aria-hidden="true">⚠ </span>
+            Concrete not confirmed: do not stress.{" "}
+            <span className="font-normal text-ink">
+              {pour.concreteStrengthMpa == null
+                ? `No lab results confirm the ${showPressure(units(project), project.requiredConcreteMpa!)} required yet.`
+                : `Confirmed ${showPressure(units(project), pour.concreteStrengthMpa)}, below the ${showPressure(units(project), project.requiredConcreteMpa!)} required.`}{" "}
+              Ask the inspector before the first pull.
+            </span>
+          </p>
+        )}
         <label htmlFor="tendon-search" className="field-label">
           Find a tendon by tag
         </label>

@@ -18,6 +18,7 @@ import {
 import { stressedEnds } from "@/lib/stressing/basis";
 import { showPressure } from "@/lib/stressing/display";
 import { setFormDirty } from "./form-dirty";
+import { SafetyCaution } from "@/components/ui/caution";
 import { useField } from "./field-provider";
 import { PhotoPicker, type PickedPhoto } from "./photo-picker";
 import { units } from "./verdict-panel";
@@ -102,7 +103,7 @@ export function RecordForm({
   onSaved: (recordId: string) => void;
   onCancel?: () => void;
 }) {
-  const { db } = useField();
+  const { db, sendSaved } = useField();
   const entryUnits = entryUnitsFor(ctx.project.unitSystem);
   // The stressing day in the project's time zone, the day the server judges the calibration on.
   const today = fieldDay(ctx.project);
@@ -207,6 +208,7 @@ export function RecordForm({
       reset(defaults);
       setFormDirty(false);
       onSaved(recordId);
+      sendSaved();
     } catch (error) {
       setSaveError(`Not saved: ${(error as Error).message}`);
     } finally {
@@ -393,6 +395,7 @@ export function RecordForm({
           {saveError}
         </p>
       )}
+      <SafetyCaution />
       <div className="flex flex-wrap gap-2">
         <button type="submit" className="btn-primary min-w-40" disabled={saving}>
           {saving ? "Saving…" : correcting ? "Save correction" : "Save record"}

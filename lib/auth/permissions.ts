@@ -16,6 +16,8 @@ export const PERMISSIONS = {
   "record.create": ["crew"],
   "record.view": ["crew", "inspector", "engineer", "admin"],
   "record.correct": ["inspector"],
+  // The lab's concrete results for a pour, which confirm (or not) its strength for stressing.
+  "concrete.confirm": ["inspector", "admin"],
   "flag.review": ["inspector", "engineer"],
   "disposition.create": ["engineer"],
   // Which of the two releases a given project is the project's own rule (projects.release_by).
@@ -37,9 +39,10 @@ export const UPLOAD_PERMISSION = {
   calibration_certificate: "equipment.manage",
   record_photo: "record.create",
   review_photo: "flag.review",
+  lab_report: "concrete.confirm",
   // Never presigned (not an upload purpose); a signed report is stored by the signing itself.
   signed_report: "report.sign",
-} as const satisfies Record<"mill_certificate" | "calibration_certificate" | "record_photo" | "review_photo" | "signed_report", Action>;
+} as const satisfies Record<"mill_certificate" | "calibration_certificate" | "record_photo" | "review_photo" | "lab_report" | "signed_report", Action>;
 
 export function can(role: Role, action: Action): boolean {
   return (PERMISSIONS[action] as readonly Role[]).includes(role);

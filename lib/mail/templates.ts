@@ -1,3 +1,4 @@
+import { CAUTION_LINE } from "@/lib/cautions";
 import { flagLabel } from "@/lib/schemas/flag";
 import type { OutgoingMail } from "./send-mail";
 
@@ -88,8 +89,6 @@ export function passwordResetMail(input: { to: string; url: string; minutes: num
   );
 }
 
-const CAUTION_LINE =
-  "Caution: these figures support the licensed engineer of record and do not replace the engineer's judgment; local codes, the project specifications and the engineer's instructions govern. Stressing is dangerous: nobody stands behind or beside the jack.";
 
 export function flagMail(input: {
   to: string[];

@@ -114,6 +114,75 @@ describe("SyncClient", () => {
   });
 });
 
+describe("SyncClient.sendSoon (after a save)", () => {
+  it("with signal sends the saved record at once, without waiting for the timer", async () => {
+    const { db } = await tablet(1);
+    const server = applyingServer();
+    const client = new SyncClient({ db, fetch: server.fetch, locks: null, online: () => true });
+    expect(await client.sendSoon()).toMatchObject({ kind: "done", pushed: 1, confirmed: 1 });
+    expect(server.pushes).toHaveLength(1);
+    expect(await db.outbox.count()).toBe(0);
+  });
+
+  it("without signal tries nothing and keeps the record in the outbox", async () => {
+    const { db } = await tablet(1);
+    let calls = 0;
+    const client = new SyncClient({ db, fetch: async () => (calls++, json(200, { results: [] })), locks: null, online: () => false });
+    expect(await client.sendSoon()).toBeNull();
+    expect(calls).toBe(0);
+    expect(await db.outbox.count()).toBe(1);
+  });
+
+  it("respects the backoff: no request while waiting after a failure", async () => {
+    const { db } = await tablet(1);
+    const clock = 1_000_000;
+    let calls = 0;
+    const client = new SyncClient({ db, fetch: async () => (calls++, json(503, {})), locks: null, now: () => clock, random: () => 0.5, online: () => true });
+    expect(await client.sync()).toMatchObject({ kind: "offline" });
+    expect(await client.sendSoon()).toMatchObject({ kind: "waiting" });
+    expect(calls).toBe(1);
+  });
+
+  it("respects the lock another tab holds", async () => {
+    const { db } = await tablet(1);
+    const held: LockManagerLike = { request: async (_name, _opts, callback) => callback(null) };
+    let calls = 0;
+    const client = new SyncClient({ db, fetch: async () => (calls++, json(200, { results: [] })), locks: held, online: () => true });
+    expect(await client.sendSoon()).toEqual({ kind: "busy" });
+    expect(calls).toBe(0);
+  });
+
+  it("a save during a running round is sent by a round that follows it", async () => {
+    const { db } = await tablet(1);
+    const server = applyingServer();
+    let release!: () => void;
+    const gate = new Promise<void>((resolve) => (release = resolve));
+    let entered!: () => void;
+    const pushing = new Promise<void>((resolve) => (entered = resolve));
+    let first = true;
+    const fetch: Fetch = async (url, init) => {
+      if (first && url.startsWith("/api/sync/push")) {
+        first = false;
+        entered();
+        await gate;
+      }
+      return server.fetch(url, init);
+    };
+    const client = new SyncClient({ db, fetch, locks: null, online: () => true });
+    const running = client.sync();
+    // The first round has read the outbox and is waiting on the server when the record is saved.
+    await pushing;
+    const s = samplePayload();
+    await saveRecord(db, { ...s, authorName: "Test Crew", local: null });
+    const after = client.sendSoon();
+    release();
+    await running;
+    expect(await after).toMatchObject({ kind: "done", pushed: 1 });
+    expect(server.pushes).toHaveLength(2);
+    expect(await db.outbox.count()).toBe(0);
+  });
+});
+
 describe("backoffDelayMs", () => {
   it("grows exponentially under the jitter and stops at the cap", () => {
     expect(backoffDelayMs(1, () => 0.999999, 2_000, 300_000)).toBe(1_999);

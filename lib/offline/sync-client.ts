@@ -26,6 +26,8 @@ export interface SyncClientOptions {
   batchSize?: number;
   baseDelayMs?: number;
   maxDelayMs?: number;
+  /** Whether the browser says there is signal (navigator.onLine by default). */
+  online?: () => boolean;
 }
 
 export type RoundOutcome =
@@ -55,6 +57,7 @@ export class SyncClient {
   private readonly batchSize: number;
   private readonly baseDelayMs: number;
   private readonly maxDelayMs: number;
+  private readonly online: () => boolean;
   private failures = 0;
   private nextAttemptAt = 0;
   private running: Promise<RoundOutcome> | null = null;
@@ -69,6 +72,23 @@ export class SyncClient {
     this.batchSize = options.batchSize ?? 25;
     this.baseDelayMs = options.baseDelayMs ?? 2_000;
     this.maxDelayMs = options.maxDelayMs ?? 300_000;
+    this.online = options.online ?? (() => typeof navigator === "undefined" || navigator.onLine !== false);
+  }
+
+  /**
+   * A record was just saved: with signal, a round at once instead of waiting for the timer. Never
+   * forced, so the backoff and the lock still hold; a round already running may have read the
+   * outbox before the save, so the new round follows it. Without signal nothing is tried (the
+   * `online` event starts a round later). Answers null when nothing was tried.
+   */
+  sendSoon(): Promise<RoundOutcome | null> {
+    if (!this.online()) return Promise.resolve(null);
+    const running = this.running;
+    if (running) return running.then(
+      () => this.sync(),
+      () => this.sync(),
+    );
+    return this.sync();
   }
 
   /** One round now, unless backing off. `force` (Sync now, online) resets the backoff first. */

@@ -1,5 +1,5 @@
 import PDFDocument from "pdfkit";
-import { CAUTION_TEXT } from "@/components/ui/caution";
+import { CAUTION_TEXT } from "@/lib/cautions";
 import type { PourReport } from "@/lib/server/get-pour-report";
 import {
   basisLines,

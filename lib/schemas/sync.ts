@@ -126,6 +126,8 @@ export interface FieldProject {
   jackingForceFactor?: number;
   underForcePct?: number;
   seatingExcessMm?: number;
+  /** The concrete strength the project requires before stressing (MPa), null when it sets none. */
+  requiredConcreteMpa?: number | null;
 }
 
 export interface FieldPour {
@@ -140,6 +142,8 @@ export interface FieldPour {
   release: { by: string; at: string; statement: string } | null;
   /** The last time the engineer reopened a release, with the reason. */
   reopened: { by: string; at: string; reason: string } | null;
+  /** The pour's confirmed concrete strength (MPa) from the lab's results, null until confirmed. */
+  concreteStrengthMpa?: number | null;
 }
 
 export interface FieldTendon {

@@ -2,7 +2,7 @@ import { z } from "zod";
 import { text } from "./text";
 
 /** What each kind of upload is for, and the file types its content may be (checked by magic bytes). */
-export const UPLOAD_PURPOSES = ["mill_certificate", "calibration_certificate", "record_photo", "review_photo"] as const;
+export const UPLOAD_PURPOSES = ["mill_certificate", "calibration_certificate", "record_photo", "review_photo", "lab_report"] as const;
 export type UploadPurpose = (typeof UPLOAD_PURPOSES)[number];
 
 const IMAGES = ["image/jpeg", "image/png", "image/webp"] as const;
@@ -17,6 +17,7 @@ export const ALLOWED_TYPES: Record<StoredPurpose, readonly string[]> = {
   calibration_certificate: CERTIFICATES,
   record_photo: IMAGES,
   review_photo: IMAGES,
+  lab_report: CERTIFICATES,
 };
 
 export const PURPOSE_LABELS: Record<StoredPurpose, string> = {
@@ -25,6 +26,7 @@ export const PURPOSE_LABELS: Record<StoredPurpose, string> = {
   calibration_certificate: "calibration certificate",
   record_photo: "gauge or tendon photo",
   review_photo: "review photo",
+  lab_report: "lab report",
 };
 
 /** Plain words for the accepted types, for messages and the file picker's hint. */

@@ -106,6 +106,8 @@ export interface TendonState {
   /** Every revision of every record of the tendon, by device time then revision. */
   records: EvaluatedRecord[];
   openFlagKinds: FlagKind[];
+  /** Whether the tendon's pour already has an open concrete flag (on any tendon): one per pour. */
+  pourConcreteFlagOpen?: boolean;
   /** The project's equipment sets used on the tendon, one row per calibration (or one with none). */
   sets: StateRow["sets"];
   dispositions: { id: string; flag_id: string; decision: Decision; created_at: Date }[];
@@ -139,6 +141,17 @@ export function selectTendonState(
         .where("flags.tendon_id", "=", tendonId)
         .where("flags.status", "!=", "closed"),
     ).as("openFlags"),
+    eb
+      .exists(
+        eb
+          .selectFrom("flags")
+          .select("flags.id")
+          .where("flags.project_id", "=", projectId)
+          .whereRef("flags.pour_id", "=", "tendons.pour_id")
+          .where("flags.kind", "=", "concrete_unconfirmed")
+          .where("flags.status", "!=", "closed"),
+      )
+      .as("pourConcreteFlagOpen"),
     jsonArrayFrom(
       eb
         .selectFrom("equipment_sets")
@@ -208,6 +221,7 @@ export function stateFromRow(row: StateRow, adding?: EvaluatedRecord): TendonSta
     basis: toLoadedTendon(row),
     records,
     openFlagKinds: row.openFlags.map((f) => f.kind),
+    pourConcreteFlagOpen: Boolean(row.pourConcreteFlagOpen),
     sets: row.sets,
     dispositions: row.dispositions
       .map((d) => ({ ...d, created_at: new Date(d.created_at) }))
@@ -283,7 +297,7 @@ export function judgeInputFromState(state: TendonState): JudgeInput {
     project,
     tendon,
     lot,
-    pour: { concreteStrengthMpa: pour.concreteStrengthMpa },
+    pour: { concreteStrengthMpa: pour.concreteStrengthMpa, concreteFlagOpen: state.pourConcreteFlagOpen ?? false },
     sets: [...sets.values()],
     records,
     dispositions: state.dispositions.map((d) => ({
@@ -365,7 +379,7 @@ export function planEvaluation(
       lot: basis.lot,
       jackingForceN: judgement.specifiedForceN,
       order: judgement.order,
-      pour: { id: pour.id, concreteStrengthMpa: pour.concreteStrengthMpa },
+      pour: { id: pour.id, concreteStrengthMpa: pour.concreteStrengthMpa, concreteFlagOpen: state.pourConcreteFlagOpen ?? false },
       readings,
       calibrations: usedCalibrations,
     }),

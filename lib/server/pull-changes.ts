@@ -85,6 +85,7 @@ export async function pullChanges(
               "jacking_force_factor",
               "under_force_pct",
               "seating_excess_mm",
+              "required_concrete_mpa",
             ])
             .where("id", "in", projectIds)
             .where(since("change_xid", cursor))
@@ -98,6 +99,7 @@ export async function pullChanges(
               "pours.name",
               "pours.level",
               "pours.planned_stressing_date",
+              "pours.concrete_strength_mpa",
               "pour_states.status",
               "pour_states.released_by_name",
               "pour_states.released_at",
@@ -270,6 +272,7 @@ export async function pullChanges(
           jackingForceFactor: p.jacking_force_factor,
           underForcePct: p.under_force_pct,
           seatingExcessMm: p.seating_excess_mm,
+          requiredConcreteMpa: p.required_concrete_mpa,
         })),
         pours: pours.map((p) => ({
           id: p.id,
@@ -286,6 +289,7 @@ export async function pullChanges(
             p.last_reopened_by_name && p.last_reopened_at
               ? { by: p.last_reopened_by_name, at: new Date(p.last_reopened_at).toISOString(), reason: p.last_reopen_reason ?? "" }
               : null,
+          concreteStrengthMpa: p.concrete_strength_mpa,
         })),
         tendons: tendons.map((t) => ({
           id: t.id,

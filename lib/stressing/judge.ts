@@ -104,7 +104,8 @@ export interface JudgeInput {
   project: JudgeProject;
   tendon: TendonBasis & { shopElongationMm?: number | null };
   lot: LotBasis | null;
-  pour?: { concreteStrengthMpa: number | null };
+  /** `concreteFlagOpen`: the pour already has an open concrete flag (the concrete rule raises one per pour). */
+  pour?: { concreteStrengthMpa: number | null; concreteFlagOpen?: boolean };
   sets: JudgeSet[];
   /** Every revision of every record of the tendon. */
   records: JudgeRecord[];

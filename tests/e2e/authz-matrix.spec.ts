@@ -286,6 +286,16 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
       fixture: () => pourIdByName("L3 Pour 1"),
       call: (c, pourId) => c.post(`/api/projects/${projectId}/pours/${pourId}/release`, { data: { statement: "Matrix check of the release rule.", confirmed: true } }),
     },
+    "GET /api/projects/[projectId]/pours/[pourId]/concrete-results": {
+      fixture: () => pourIdByName("L3 Pour 1"),
+      call: (c, pourId) => c.get(`/api/projects/${projectId}/pours/${pourId}/concrete-results`),
+    },
+    "POST /api/projects/[projectId]/pours/[pourId]/concrete-results": {
+      call: (c) =>
+        c.post(`/api/projects/${projectId}/pours/${MISSING_ID}/concrete-results`, {
+          data: { specimen: "cylinder", strengthMPa: 25, ageDays: 5, specimenCount: 2 },
+        }),
+    },
     "POST /api/projects/[projectId]/pours/[pourId]/reopen": {
       fixture: () => pourIdByName("L3 Pour 1"),
       call: (c, pourId) => c.post(`/api/projects/${projectId}/pours/${pourId}/reopen`, { data: { reason: "Matrix check of the reopen rule.", confirmed: true } }),

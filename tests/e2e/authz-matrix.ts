@@ -82,6 +82,10 @@ export const MATRIX: Record<string, Expected> = {
   "POST /api/projects/[projectId]/flags/[flagId]/dispositions": projectAction(404, ["engineer"]),
   "POST /api/projects/[projectId]/records/[recordId]/corrections": projectAction(404, ["inspector"]),
   "POST /api/projects/[projectId]/pours/[pourId]/release": { ...projectAction(409, ["engineer"]), inspector: 403 },
+  // Concrete results: every member reads them; the inspector and the admin enter them (on a pour
+  // id that does not exist, so the allowed roles pass the access check and get 404).
+  "GET /api/projects/[projectId]/pours/[pourId]/concrete-results": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
+  "POST /api/projects/[projectId]/pours/[pourId]/concrete-results": projectAction(404, ["inspector", "admin"]),
   // Only the engineer reopens; the pour named is not released, so the engineer gets 409.
   "POST /api/projects/[projectId]/pours/[pourId]/reopen": projectAction(409, ["engineer"]),
   // Token routes: the token is the authorization, so every caller gets the same answer.

@@ -31,6 +31,8 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
   await context.setOffline(true);
   await ready.getByRole("link", { name: "Open tendon list" }).click();
   await expect(page.getByTestId("connection")).toHaveText("No signal");
+  // The demo's L3 Pour 1 has no lab results yet: the tablet says so before the first pull.
+  await expect(page.getByTestId("concrete-gate-field")).toContainText("Concrete not confirmed: do not stress");
   for (const [i, t] of p.tendons.entries()) await logTendon(page, t, p.finalPsi, i === 0 ? "field-form-offline-landscape" : undefined, i === 0);
   await expect(page.getByTestId("pending-count")).toContainText("3 records");
   await expect(page.getByRole("alert").filter({ hasText: "Out of band" })).toHaveCount(0); // the last one logged is in band

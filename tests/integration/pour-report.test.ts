@@ -2,7 +2,7 @@ import Papa from "papaparse";
 import { PDFParse } from "pdf-parse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { uuidv7 } from "uuidv7";
-import { CAUTION_TEXT } from "@/components/ui/caution";
+import { CAUTION_TEXT } from "@/lib/cautions";
 import { seedDemo } from "@/scripts/seed/demo";
 import { pourCsvTable, renderPourCsv } from "@/lib/reports/pour-csv";
 import { pdfText, renderPourPdf } from "@/lib/reports/pour-pdf";

@@ -218,6 +218,11 @@ const cases: Record<RuleKind, Case[]> = {
       raised: true,
       reason: /below the 20 MPa/,
     },
+    {
+      name: "not confirmed, but the pour already has an open concrete flag (one per pour)",
+      change: (i) => ({ ...i, pour: { concreteStrengthMpa: null, concreteFlagOpen: true }, records: [rec({ measuredMm: P })] }),
+      raised: false,
+    },
   ],
   stressed_twice: [
     { name: "once", change: (i) => ({ ...i, records: [rec({ measuredMm: P })] }), raised: false },

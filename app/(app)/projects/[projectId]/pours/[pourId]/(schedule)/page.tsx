@@ -3,6 +3,7 @@ import { SetupTabs } from "@/components/setup/setup-tabs";
 import { ScheduleImport } from "@/components/tendons/schedule-import";
 import { TendonForm } from "@/components/tendons/tendon-form";
 import { TendonTable } from "@/components/tendons/tendon-table";
+import { Caution } from "@/components/ui/caution";
 import { db } from "@/db";
 import { columnGuide } from "@/lib/csv/tendon-schedule";
 import { isAppError } from "@/lib/errors";
@@ -47,6 +48,7 @@ export default async function PourPage({ params }: { params: Promise<{ projectId
         </div>
       </div>
       <TendonTable base={base} projectId={projectId} pourId={pourId} initial={list} lots={lots.map((l) => l.lotNumber)} us={us} resolution={u.resolution} />
+      <Caution />
       <div className="grid gap-6 lg:grid-cols-2">
         <ScheduleImport projectId={projectId} pourId={pourId} />
         <section aria-labelledby="layout-heading" className="card">

@@ -4,6 +4,7 @@ import { DriftTable, ModulusTable, ResolutionSummary } from "@/components/insigh
 import { MeasuredPredictedChart } from "@/components/insight/measured-predicted-chart";
 import { ProgressChart } from "@/components/insight/progress-chart";
 import { ReportSigning } from "@/components/reports/report-signing";
+import { ConcreteResults } from "@/components/concrete/concrete-results";
 import { Caution } from "@/components/ui/caution";
 import { db } from "@/db";
 import { can } from "@/lib/auth/permissions";
@@ -12,6 +13,8 @@ import { DRIFT_RULE } from "@/lib/insights";
 import { formatDateTime } from "@/lib/format/dates";
 import { DEFAULT_POUR_STATEMENT } from "@/lib/schemas/report-signature";
 import { getPourInsight } from "@/lib/server/get-pour-insight";
+import { getProjectTimeZone } from "@/lib/server/get-project-time-zone";
+import { listConcreteResults } from "@/lib/server/list-concrete-results";
 import { listReportRevisions } from "@/lib/server/list-report-revisions";
 import { readingResolution } from "@/lib/stressing/display";
 import { isUuid, pageAccess } from "../../../page-access";
@@ -33,6 +36,7 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
   const api = `/api/projects/${projectId}/pours/${pourId}/report`;
   const signatures = can(access.role, "report.download") ? await listReportRevisions(db, { projectId, pourId }) : null;
   const { progress } = insight;
+  const [concrete, timeZone] = await Promise.all([listConcreteResults(db, { projectId, pourId }), getProjectTimeZone(db, projectId)]);
 
   return (
     <main className="space-y-10">
@@ -56,6 +60,8 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
           </div>
         )}
       </header>
+
+      <ConcreteResults projectId={projectId} pourId={pourId} us={us} timeZone={timeZone} canEnter={can(access.role, "concrete.confirm")} initial={concrete} />
 
       {signatures && (
         <section aria-labelledby="signatures-heading" className="space-y-3">

@@ -1,0 +1,225 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { seedDemo } from "@/scripts/seed/demo";
+import { addConcreteResult } from "@/lib/server/add-concrete-result";
+import { evaluateTendon } from "@/lib/server/evaluate-tendon";
+import { listConcreteResults } from "@/lib/server/list-concrete-results";
+import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
+import { predictTendon } from "@/lib/stressing/basis";
+import { demoFixture, insertRecord } from "../support/records";
+import { createTestDatabase, type TestDatabase } from "../support/database";
+
+// The concrete gate on real PostgreSQL: one concrete flag per pour however many tendons are
+// stressed before the strength is confirmed, the pour's strength from the lab's results by the
+// rule of lib/stressing/concrete-strength.ts, and the flag closed by results that confirm it.
+// The demo project requires 20.7 MPa before stressing (its seed).
+
+let t: TestDatabase;
+let fx: Awaited<ReturnType<typeof demoFixture>>;
+let inspector: { id: string; name: string };
+let pressure: number;
+
+beforeAll(async () => {
+  t = await createTestDatabase({ migrate: true });
+  await seedDemo(t.db);
+  fx = await demoFixture(t.db);
+  inspector = await t.db
+    .selectFrom("users")
+    .select(["id", "name"])
+    .where("email", "=", "inspector@demo.tautline.test")
+    .executeTakeFirstOrThrow();
+  const c = await t.db
+    .selectFrom("calibrations")
+    .select(["slope_n_per_mpa", "intercept_n"])
+    .where("equipment_set_id", "=", fx.setA)
+    .executeTakeFirstOrThrow();
+  const template = await t.db
+    .selectFrom("tendons")
+    .select("id")
+    .where("project_id", "=", fx.projectId)
+    .where("tag", "=", "2-1-U01")
+    .executeTakeFirstOrThrow();
+  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: template.id });
+  pressure =
+    (predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot }).jackingForceN - c.intercept_n) /
+    c.slope_n_per_mpa;
+});
+afterAll(async () => {
+  await t.drop();
+});
+
+/** A new pour with no confirmed concrete and `count` one-end tendons copied from the demo schedule. */
+async function newPour(name: string, count: number) {
+  const pour = await t.db
+    .insertInto("pours")
+    .values({ project_id: fx.projectId, name })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  const template = await t.db
+    .selectFrom("tendons")
+    .selectAll()
+    .where("project_id", "=", fx.projectId)
+    .where("tag", "=", "2-1-U01")
+    .executeTakeFirstOrThrow();
+  const tendons: { id: string; pour_id: string; tag: string }[] = [];
+  for (let i = 1; i <= count; i++) {
+    tendons.push(
+      await t.db
+        .insertInto("tendons")
+        .values({
+          project_id: template.project_id,
+          pour_id: pour.id,
+          tag: `C-${i}`,
+          kind: template.kind,
+          strand_size: template.strand_size,
+          strand_count: template.strand_count,
+          segments: JSON.stringify(template.segments),
+          ends: template.ends,
+          jack_grip_mm: template.jack_grip_mm,
+          strand_lot_id: template.strand_lot_id,
+        })
+        .returning(["id", "pour_id", "tag"])
+        .executeTakeFirstOrThrow(),
+    );
+  }
+  return { pourId: pour.id, tendons };
+}
+
+async function stress(tendon: { id: string; pour_id: string }) {
+  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tendon.id });
+  const predicted = predictTendon({
+    project: basis.project,
+    tendon: basis.tendon,
+    lot: basis.lot,
+    equipmentGripMm: 457.2,
+  }).predictedMm;
+  for (const end of basis.tendon.ends === "both" ? (["A", "B"] as const) : (["A"] as const))
+    await insertRecord(t.db, {
+      projectId: fx.projectId,
+      tendon,
+      end,
+      equipmentSetId: fx.setA,
+      authorId: fx.crewId,
+      measuredMm: predicted,
+      finalPressureMPa: pressure,
+    });
+  return evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+}
+
+const concreteFlags = (pourId: string) =>
+  t.db
+    .selectFrom("flags")
+    .select(["id", "tendon_id", "status", "close_reason", "closed_by"])
+    .where("pour_id", "=", pourId)
+    .where("kind", "=", "concrete_unconfirmed")
+    .execute();
+
+describe("the concrete gate of a pour", () => {
+  it("raises one concrete flag for the pour, not one per tendon, and closes it when results confirm the strength", async () => {
+    const { pourId, tendons } = await newPour("Gate pour", 3);
+    const first = await stress(tendons[0]!);
+    expect(first.flagKinds).toContain("concrete_unconfirmed");
+    expect((await stress(tendons[1]!)).flagKinds).not.toContain("concrete_unconfirmed");
+    expect((await stress(tendons[2]!)).flagKinds).not.toContain("concrete_unconfirmed");
+    const raised = await concreteFlags(pourId);
+    expect(raised).toHaveLength(1);
+    expect(raised[0]).toMatchObject({ tendon_id: tendons[0]!.id, status: "open" });
+
+    // One specimen does not confirm (at least two are needed): the flag stays open.
+    const one = await addConcreteResult(t.db, {
+      projectId: fx.projectId,
+      pourId,
+      by: inspector,
+      result: { specimen: "cylinder", strengthMPa: 25, ageDays: 3, specimenCount: 1 },
+    });
+    expect(one).toMatchObject({ met: false, closedFlags: 0, confirmed: { strengthMPa: null } });
+
+    // Two at 3 days average 18 MPa: confirmed but below the 20.7 MPa required.
+    const low = await addConcreteResult(t.db, {
+      projectId: fx.projectId,
+      pourId,
+      by: inspector,
+      result: { specimen: "cylinder", strengthMPa: 18, ageDays: 3, specimenCount: 2 },
+    });
+    // Hand check at 3 days: (1 × 25 + 2 × 18) / 3 = 61 / 3 = 20.33 MPa, below 20.7.
+    expect(low.confirmed.strengthMPa).toBeCloseTo(61 / 3, 10);
+    expect(low).toMatchObject({ met: false, closedFlags: 0, requiredMPa: 20.7 });
+    expect((await concreteFlags(pourId))[0]!.status).toBe("open");
+
+    // At 4 days, 2 × 22 MPa: 22.0 MPa ≥ 20.7, the earlier age no longer counts, and the flag closes.
+    const met = await addConcreteResult(t.db, {
+      projectId: fx.projectId,
+      pourId,
+      by: inspector,
+      result: { specimen: "cylinder", strengthMPa: 22, ageDays: 4, specimenCount: 2 },
+    });
+    expect(met.confirmed.strengthMPa).toBe(22);
+    expect(met).toMatchObject({ met: true, closedFlags: 1 });
+    // A further set at 4 days: (2 × 22 + 1 × 25) / 3 = 23.0 MPa; nothing is left to close.
+    const more = await addConcreteResult(t.db, {
+      projectId: fx.projectId,
+      pourId,
+      by: inspector,
+      result: { specimen: "cylinder", strengthMPa: 25, ageDays: 4, specimenCount: 1 },
+    });
+    expect(more.confirmed.strengthMPa).toBeCloseTo(23, 10);
+    expect(more).toMatchObject({ met: true, closedFlags: 0 });
+    const [closed] = await concreteFlags(pourId);
+    expect(closed).toMatchObject({ status: "closed", closed_by: inspector.id });
+    expect(closed!.close_reason).toContain("22.0 MPa");
+    const pour = await t.db
+      .selectFrom("pours")
+      .select(["concrete_strength_mpa", "concrete_confirmed_by", "concrete_confirmed_at"])
+      .where("id", "=", pourId)
+      .executeTakeFirstOrThrow();
+    expect(pour.concrete_strength_mpa).toBeCloseTo(23, 10);
+    expect(pour.concrete_confirmed_by).toBe(inspector.id);
+    expect(pour.concrete_confirmed_at).not.toBeNull();
+
+    const listed = await listConcreteResults(t.db, { projectId: fx.projectId, pourId });
+    expect(listed.results).toHaveLength(4);
+    expect(listed.results.every((r) => r.enteredBy === inspector.name)).toBe(true);
+    expect(listed).toMatchObject({ met: true, requiredMPa: 20.7 });
+    expect(listed.confirmed.strengthMPa).toBeCloseTo(23, 10);
+  });
+
+  it("results entered before stressing: a clean pour of 5 tendons raises no concrete flag", async () => {
+    const { pourId, tendons } = await newPour("Confirmed first", 5);
+    const gate = await addConcreteResult(t.db, {
+      projectId: fx.projectId,
+      pourId,
+      by: inspector,
+      result: { specimen: "cylinder", strengthMPa: 24.1, ageDays: 5, specimenCount: 3 },
+    });
+    expect(gate.met).toBe(true);
+    for (const tendon of tendons) expect((await stress(tendon)).flagKinds).toEqual([]);
+    expect(await concreteFlags(pourId)).toHaveLength(0);
+  });
+
+  it("refuses a pour of another project and a lab report that was not uploaded, and writes nothing", async () => {
+    const { pourId } = await newPour("Refusals", 1);
+    const other = await t.db
+      .insertInto("projects")
+      .values({ name: "Elsewhere", code: "ELSE-1" })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    const result = { specimen: "cube" as const, strengthMPa: 30, ageDays: 7, specimenCount: 3 };
+    await expect(addConcreteResult(t.db, { projectId: other.id, pourId, by: inspector, result })).rejects.toMatchObject(
+      { code: "NOT_FOUND" },
+    );
+    await expect(
+      addConcreteResult(t.db, {
+        projectId: fx.projectId,
+        pourId,
+        by: inspector,
+        result: { ...result, attachmentId: "0193a0a0-0000-7000-8000-000000000000" },
+      }),
+    ).rejects.toMatchObject({ code: "INVALID_INPUT" });
+    expect((await listConcreteResults(t.db, { projectId: fx.projectId, pourId })).results).toHaveLength(0);
+    const pour = await t.db
+      .selectFrom("pours")
+      .select("concrete_strength_mpa")
+      .where("id", "=", pourId)
+      .executeTakeFirstOrThrow();
+    expect(pour.concrete_strength_mpa).toBeNull();
+  });
+});
