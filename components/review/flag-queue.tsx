@@ -29,7 +29,12 @@ export function FlagQueue({ tendons, empty }: { tendons: FlaggedTendon[]; empty:
               ))}
             </div>
           </div>
-          {t.verdict && <VerdictBadge verdict={t.verdict} deviationPct={t.deviationPct} />}
+          {t.verdict && (
+            <div className="flex flex-col items-start gap-1">
+              <span className="text-label uppercase text-ink-faint">Latest verdict</span>
+              <VerdictBadge verdict={t.verdict} deviationPct={t.deviationPct} provisional={t.provisional} />
+            </div>
+          )}
           <Link href={`/projects/${t.projectId}/tendons/${t.tendonId}/flags`} className="btn-primary">
             Open
           </Link>

@@ -12,11 +12,13 @@ export interface FlaggedTendon {
   tag: string;
   oldest: Date;
   flags: { id: string; kind: FlagKind; reason: string; status: FlagStatus; createdAt: Date }[];
+  /** The tendon's latest evaluation (as it stands now), not the one that raised a flag. */
   verdict: Verdict | null;
   deviationPct: number | null;
+  provisional: boolean;
 }
 
-/** Open flags on the given projects, grouped per tendon, oldest first. */
+/** Open flags on the given projects, grouped per tendon, oldest first, each tendon with its latest verdict. */
 export async function findFlags(
   db: Kysely<Database>,
   input: { projectIds: string[]; filter: FlagFilter },
@@ -28,7 +30,18 @@ export async function findFlags(
     .innerJoin("projects", "projects.id", "flags.project_id")
     .innerJoin("pours", "pours.id", "flags.pour_id")
     .innerJoin("tendons", "tendons.id", "flags.tendon_id")
-    .leftJoin("evaluations", "evaluations.id", "flags.evaluation_id")
+    .leftJoinLateral(
+      (eb) =>
+        eb
+          .selectFrom("evaluations")
+          .select(["evaluations.verdict", "evaluations.deviation_pct", "evaluations.provisional"])
+          .whereRef("evaluations.tendon_id", "=", "flags.tendon_id")
+          .whereRef("evaluations.project_id", "=", "flags.project_id")
+          .orderBy("evaluations.created_at", "desc")
+          .limit(1)
+          .as("latest"),
+      (join) => join.onTrue(),
+    )
     .select([
       "flags.id",
       "flags.kind",
@@ -41,8 +54,9 @@ export async function findFlags(
       "pours.name as pourName",
       "flags.tendon_id",
       "tendons.tag",
-      "evaluations.verdict",
-      "evaluations.deviation_pct",
+      "latest.verdict",
+      "latest.deviation_pct",
+      "latest.provisional",
     ])
     .where("flags.project_id", "in", input.projectIds)
     .orderBy("flags.created_at");
@@ -71,16 +85,13 @@ export async function findFlags(
         tag: r.tag,
         oldest: r.created_at,
         flags: [],
-        verdict: null,
-        deviationPct: null,
+        verdict: r.verdict ?? null,
+        deviationPct: r.deviation_pct ?? null,
+        provisional: r.provisional ?? false,
       };
       byTendon.set(r.tendon_id, group);
     }
     group.flags.push({ id: r.id, kind: r.kind, reason: r.reason, status: r.status, createdAt: r.created_at });
-    if (r.verdict) {
-      group.verdict = r.verdict;
-      group.deviationPct = r.deviation_pct;
-    }
   }
   return [...byTendon.values()];
 }

@@ -1,0 +1,136 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { seedDemo } from "@/db/seed/demo";
+import { predictTendon } from "@/lib/stressing/basis";
+import { correctRecord } from "@/lib/server/correct-record";
+import { evaluateTendon } from "@/lib/server/evaluate-tendon";
+import { findFlags } from "@/lib/server/find-flags";
+import { getHomeSummary } from "@/lib/server/get-home-summary";
+import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
+import { demoFixture, insertRecord } from "../support/records";
+import { createTestDatabase, type TestDatabase } from "../support/database";
+
+let t: TestDatabase;
+let fx: Awaited<ReturnType<typeof demoFixture>>;
+let pourId: string;
+let tendons: { id: string; pour_id: string; tag: string }[];
+let inspector: { id: string; name: string };
+let pressure: number;
+
+beforeAll(async () => {
+  t = await createTestDatabase({ migrate: true });
+  await seedDemo(t.db);
+  fx = await demoFixture(t.db);
+  const pour = await t.db
+    .insertInto("pours")
+    .values({ project_id: fx.projectId, name: "Queue test pour", concrete_strength_mpa: 30 })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  pourId = pour.id;
+  const template = await t.db
+    .selectFrom("tendons")
+    .selectAll()
+    .where("project_id", "=", fx.projectId)
+    .where("tag", "=", "2-1-U01")
+    .executeTakeFirstOrThrow();
+  tendons = [];
+  for (const tag of ["Q-1", "Q-2", "Q-3"]) {
+    const row = await t.db
+      .insertInto("tendons")
+      .values({
+        project_id: template.project_id,
+        pour_id: pourId,
+        tag,
+        kind: template.kind,
+        strand_size: template.strand_size,
+        strand_count: template.strand_count,
+        segments: JSON.stringify(template.segments),
+        ends: template.ends,
+        jack_grip_mm: template.jack_grip_mm,
+        strand_lot_id: template.strand_lot_id,
+      })
+      .returning(["id", "pour_id", "tag"])
+      .executeTakeFirstOrThrow();
+    tendons.push(row);
+  }
+  inspector = await t.db
+    .selectFrom("users")
+    .select(["id", "name"])
+    .where("email", "=", "inspector@demo.tautline.test")
+    .executeTakeFirstOrThrow();
+  const c = await t.db
+    .selectFrom("calibrations")
+    .select(["slope_n_per_mpa", "intercept_n"])
+    .where("equipment_set_id", "=", fx.setA)
+    .executeTakeFirstOrThrow();
+  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tendons[0]!.id });
+  const target = predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot }).jackingForceN;
+  pressure = (target - c.intercept_n) / c.slope_n_per_mpa;
+});
+afterAll(async () => {
+  await t.drop();
+});
+
+async function predicted(tendonId: string) {
+  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId });
+  return predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot, equipmentGripMm: 457.2 })
+    .predictedMm;
+}
+
+async function stress(
+  tendon: { id: string; pour_id: string },
+  factor: number,
+  extra: { deviceTime?: string; wireBreaks?: number } = {},
+) {
+  const recordId = await insertRecord(t.db, {
+    projectId: fx.projectId,
+    tendon,
+    end: "A",
+    equipmentSetId: fx.setA,
+    authorId: fx.crewId,
+    measuredMm: (await predicted(tendon.id)) * factor,
+    finalPressureMPa: pressure,
+    ...extra,
+  });
+  const evaluation = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+  return { recordId, evaluation };
+}
+
+describe("queues show the tendon as it stands", () => {
+  it("a flagged tendon whose reading was corrected into band shows the latest verdict, with its flag still open", async () => {
+    const q1 = tendons[0]!;
+    const { recordId, evaluation } = await stress(q1, 1.144);
+    expect(evaluation.verdict).toBe("long");
+    const before = await findFlags(t.db, { projectIds: [fx.projectId], filter: { status: "any_open", pourId } });
+    expect(before).toHaveLength(1);
+    expect(before[0]).toMatchObject({ tag: "Q-1", verdict: "long" });
+    expect(before[0]!.deviationPct).toBeCloseTo(14.4, 0);
+
+    const corrected = await correctRecord(t.db, {
+      projectId: fx.projectId,
+      recordId,
+      by: inspector,
+      correction: { reason: "Tail mark was read from the wrong paint line.", measuredMm: await predicted(q1.id) },
+    });
+    expect(corrected.evaluation.verdict).toBe("in band");
+
+    const after = await findFlags(t.db, { projectIds: [fx.projectId], filter: { status: "any_open", pourId } });
+    expect(after).toHaveLength(1);
+    expect(after[0]!.verdict).toBe("in band");
+    expect(Math.abs(after[0]!.deviationPct ?? 99)).toBeLessThan(1);
+    // The flag that the long reading raised is still open and says so.
+    expect(after[0]!.flags.map((f) => [f.kind, f.status])).toEqual([["out_of_band", "open"]]);
+
+    // The home page's queues and the decisions page read the same list.
+    const project = await t.db
+      .selectFrom("projects")
+      .select("name")
+      .where("id", "=", fx.projectId)
+      .executeTakeFirstOrThrow();
+    const home = await getHomeSummary(t.db, {
+      memberships: [{ projectId: fx.projectId, projectName: project.name, role: "engineer" }],
+      today: "2026-12-10",
+    });
+    const card = home.waitingDisposition.find((w) => w.tendonId === q1.id);
+    expect(card?.verdict).toBe("in band");
+  });
+});
