@@ -1,7 +1,8 @@
 import "server-only";
-import type { Kysely } from "kysely";
+import { sql, type Kysely } from "kysely";
 import type { Database, FlagKind, FlagStatus, Verdict } from "@/db/types";
 import type { FlagFilter } from "@/lib/schemas/review";
+import { FUTURE_GRACE_MS } from "@/lib/stressing/clock-skew";
 
 export interface FlaggedTendon {
   projectId: string;
@@ -16,6 +17,8 @@ export interface FlaggedTendon {
   verdict: Verdict | null;
   deviationPct: number | null;
   provisional: boolean;
+  /** Records of the tendon whose device time is off the server's receipt (see lib/stressing/clock-skew.ts). */
+  clockSkewRecords: number;
 }
 
 /** Open flags on the given projects, grouped per tendon, oldest first, each tendon with its latest verdict. */
@@ -57,6 +60,17 @@ export async function findFlags(
       "latest.verdict",
       "latest.deviation_pct",
       "latest.provisional",
+      (eb) =>
+        eb
+          .selectFrom("records")
+          .select(sql<number>`count(*)::int`.as("n"))
+          .whereRef("records.tendon_id", "=", "flags.tendon_id")
+          .whereRef("records.project_id", "=", "flags.project_id")
+          .where(
+            sql<boolean>`(abs(extract(epoch from records.device_time - records.received_at)) > projects.clock_skew_minutes * 60
+              or records.device_time > records.received_at + make_interval(secs => ${FUTURE_GRACE_MS / 1000}))`,
+          )
+          .as("clockSkewRecords"),
     ])
     .where("flags.project_id", "in", input.projectIds)
     .orderBy("flags.created_at");
@@ -88,6 +102,7 @@ export async function findFlags(
         verdict: r.verdict ?? null,
         deviationPct: r.deviation_pct ?? null,
         provisional: r.provisional ?? false,
+        clockSkewRecords: Number(r.clockSkewRecords ?? 0),
       };
       byTendon.set(r.tendon_id, group);
     }

@@ -5,6 +5,7 @@ import { correctRecord } from "@/lib/server/correct-record";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { findFlags } from "@/lib/server/find-flags";
 import { getHomeSummary } from "@/lib/server/get-home-summary";
+import { getTendonCase } from "@/lib/server/get-tendon-case";
 import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { demoFixture, insertRecord } from "../support/records";
 import { createTestDatabase, type TestDatabase } from "../support/database";
@@ -132,5 +133,38 @@ describe("queues show the tendon as it stands", () => {
     });
     const card = home.waitingDisposition.find((w) => w.tendonId === q1.id);
     expect(card?.verdict).toBe("in band");
+  });
+});
+
+describe("clock skew is visible", () => {
+  it("marks a record whose tablet time is off the receipt by more than the project's threshold, or after it", async () => {
+    const q2 = tendons[1]!;
+    // 30 minutes behind the server: beyond the default 10 minutes.
+    await stress(q2, 0.85, { deviceTime: new Date(Date.now() - 30 * 60_000).toISOString() });
+    const queue = await findFlags(t.db, { projectIds: [fx.projectId], filter: { status: "any_open", pourId } });
+    expect(queue.find((q) => q.tendonId === q2.id)?.clockSkewRecords).toBe(1);
+    // The tendon flagged earlier with a right clock is not marked.
+    expect(queue.find((q) => q.tendonId === tendons[0]!.id)?.clockSkewRecords).toBe(0);
+
+    const c = await getTendonCase(t.db, { projectId: fx.projectId, tendonId: q2.id });
+    expect(c.records).toHaveLength(1);
+    expect(c.records[0]!.skew?.future).toBe(false);
+    expect(c.records[0]!.skew?.minutes).toBeLessThan(-29);
+    expect(c.records[0]!.received_at).toBeInstanceOf(Date);
+
+    // A wider threshold of the project's own clears it.
+    await t.db.updateTable("projects").set({ clock_skew_minutes: 60 }).where("id", "=", fx.projectId).execute();
+    const wide = await findFlags(t.db, { projectIds: [fx.projectId], filter: { status: "any_open", pourId } });
+    expect(wide.find((q) => q.tendonId === q2.id)?.clockSkewRecords).toBe(0);
+    expect((await getTendonCase(t.db, { projectId: fx.projectId, tendonId: q2.id })).records[0]!.skew).toBeNull();
+
+    // A device time after the receipt is marked whatever the threshold.
+    const q3 = tendons[2]!;
+    await stress(q3, 0.85, { deviceTime: new Date(Date.now() + 5 * 60_000).toISOString() });
+    const future = await findFlags(t.db, { projectIds: [fx.projectId], filter: { status: "any_open", pourId } });
+    expect(future.find((q) => q.tendonId === q3.id)?.clockSkewRecords).toBe(1);
+    const c3 = await getTendonCase(t.db, { projectId: fx.projectId, tendonId: q3.id });
+    expect(c3.records[0]!.skew?.future).toBe(true);
+    await t.db.updateTable("projects").set({ clock_skew_minutes: 10 }).where("id", "=", fx.projectId).execute();
   });
 });
