@@ -7,6 +7,8 @@ import { findFlags } from "@/lib/server/find-flags";
 import { getHomeSummary } from "@/lib/server/get-home-summary";
 import { getTendonCase } from "@/lib/server/get-tendon-case";
 import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
+import { recordDisposition } from "@/lib/server/record-disposition";
+import { releasePour } from "@/lib/server/release-pour";
 import { demoFixture, insertRecord } from "../support/records";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
@@ -166,5 +168,112 @@ describe("clock skew is visible", () => {
     const c3 = await getTendonCase(t.db, { projectId: fx.projectId, tendonId: q3.id });
     expect(c3.records[0]!.skew?.future).toBe(true);
     await t.db.updateTable("projects").set({ clock_skew_minutes: 10 }).where("id", "=", fx.projectId).execute();
+  });
+});
+
+describe("people are told", () => {
+  const outbox = () =>
+    t.db
+      .selectFrom("notifications")
+      .selectAll()
+      .where("project_id", "=", fx.projectId)
+      .where("dedupe_key", "not like", "evaluation:%")
+      .execute();
+  const engineer = () =>
+    t.db
+      .selectFrom("users")
+      .select(["id", "name"])
+      .where("email", "=", "engineer@demo.tautline.test")
+      .executeTakeFirstOrThrow();
+
+  it("queues one e-mail to crew and inspector per disposition that orders work, in the project's units, none for an acceptance", async () => {
+    const before = (await outbox()).length;
+    const by = await engineer();
+    const flags = await t.db
+      .selectFrom("flags")
+      .select(["id", "tendon_id"])
+      .where("pour_id", "=", pourId)
+      .where("status", "!=", "closed")
+      .orderBy("created_at")
+      .execute();
+    const onQ2 = flags.find((f) => f.tendon_id === tendons[1]!.id)!;
+    const onQ3 = flags.find((f) => f.tendon_id === tendons[2]!.id)!;
+    const ordered = await recordDisposition(t.db, {
+      projectId: fx.projectId,
+      flagId: onQ2.id,
+      engineer: by,
+      disposition: {
+        decision: "restress",
+        reasons: "Restress end A to the target gauge pressure and read again.",
+        licenceStatement: "Licensed professional engineer (demo)",
+      },
+    });
+    await recordDisposition(t.db, {
+      projectId: fx.projectId,
+      flagId: onQ3.id,
+      engineer: by,
+      disposition: {
+        decision: "accept",
+        reasons: "Short elongation accepted; within the member's capacity.",
+        licenceStatement: "Licensed professional engineer (demo)",
+      },
+    });
+    const rows = await outbox();
+    expect(rows).toHaveLength(before + 1);
+    const mail = rows.find((r) => r.dedupe_key === `disposition:${ordered.dispositionId}`)!;
+    expect([...mail.to_emails].sort()).toEqual(["crew@demo.tautline.test", "inspector@demo.tautline.test"]);
+    expect(mail.flag_id).toBe(onQ2.id);
+    expect(mail.subject).toContain("Restress");
+    expect(mail.text_body).toContain("Restress end A to the target gauge pressure");
+    // The demo project is in US units: gauge in psi, elongation in inches, never MPa or mm.
+    expect(mail.text_body).toMatch(/gauge [\d,]+ psi/);
+    expect(mail.text_body).toMatch(/elongation [\d -\/]+ in/);
+    expect(mail.text_body).not.toMatch(/MPa|\bmm\b/);
+    expect(mail.text_body).toContain("Caution:");
+  });
+
+  it("queues one e-mail per release", async () => {
+    const template = await t.db
+      .selectFrom("tendons")
+      .selectAll()
+      .where("id", "=", tendons[0]!.id)
+      .executeTakeFirstOrThrow();
+    const pour = await t.db
+      .insertInto("pours")
+      .values({ project_id: fx.projectId, name: "Release notice pour", concrete_strength_mpa: 30 })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    const tendon = await t.db
+      .insertInto("tendons")
+      .values({
+        project_id: fx.projectId,
+        pour_id: pour.id,
+        tag: "N-1",
+        kind: template.kind,
+        strand_size: template.strand_size,
+        strand_count: template.strand_count,
+        segments: JSON.stringify(template.segments),
+        ends: template.ends,
+        jack_grip_mm: template.jack_grip_mm,
+        strand_lot_id: template.strand_lot_id,
+      })
+      .returning(["id", "pour_id"])
+      .executeTakeFirstOrThrow();
+    const { evaluation } = await stress(tendon, 1.0);
+    expect(evaluation.flagKinds).toEqual([]);
+    const before = (await outbox()).length;
+    const by = await engineer();
+    const { releaseId } = await releasePour(t.db, {
+      projectId: fx.projectId,
+      pourId: pour.id,
+      by: { ...by, role: "engineer" },
+      statement: "Tendon N-1 stressed and accepted; tails may be cut.",
+    });
+    const rows = await outbox();
+    expect(rows).toHaveLength(before + 1);
+    const mail = rows.find((r) => r.dedupe_key === `release:${releaseId}`)!;
+    expect(mail.subject).toContain("Release notice pour");
+    expect(mail.text_body).toContain("Tendon N-1 stressed and accepted; tails may be cut.");
+    expect([...mail.to_emails].sort()).toEqual(["crew@demo.tautline.test", "inspector@demo.tautline.test"]);
   });
 });
