@@ -63,6 +63,7 @@ export interface ProjectsTable {
   jacking_force_factor: Generated<number>;
   under_force_pct: Generated<number>;
   seating_excess_mm: Generated<number>;
+  clock_skew_minutes: Generated<number>;
   created_at: Timestamp;
   updated_at: Timestamp;
 }

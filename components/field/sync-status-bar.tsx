@@ -54,7 +54,7 @@ export function SyncStatusBar() {
         <Item testId="pending-count" label="Waiting to send" value={status ? `${pending} record${pending === 1 ? "" : "s"}` : "…"} />
         <Item testId="oldest-pending" label="Oldest waiting" value={status?.oldestPendingAt ? ago(status.oldestPendingAt, now) : "none"} />
         <Item testId="last-sync" label="Last confirmed sync" value={meta?.lastConfirmedSyncAt ? `${clockTime(meta.lastConfirmedSyncAt)} (${ago(meta.lastConfirmedSyncAt, now)})` : "never"} />
-        <Item testId="attention-count" label="Needs attention" value={String(status?.attention ?? 0)} tone={status?.attention ? "warn" : "plain"} />
+        <Item testId="attention-count" label="Records the server refused" value={String(status?.attention ?? 0)} tone={status?.attention ? "warn" : "plain"} />
         {photos > 0 && <Item testId="photos-waiting" label="Photos to upload" value={String(photos)} />}
         <Item
           testId="storage"

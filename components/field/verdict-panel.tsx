@@ -28,19 +28,30 @@ export function VerdictMark({ verdict, children }: { verdict: keyof typeof LOOK;
 /** The tablet's verdict at once after saving, in words, icon and numbers, with the server's when it came back. */
 export function VerdictPanel({ project, local, server, targetMPa }: { project: FieldProject; local: LocalVerdict | null; server: OpEvaluation | null | undefined; targetMPa: number | null }) {
   const u = units(project);
+  // Once the server has judged, its verdict is the one that stands; the tablet's own is only until then.
+  const shown = server ? { verdict: server.verdict, deviationPct: server.deviationPct, provisional: server.provisional } : local;
+  const judgedBy = server
+    ? server.provisional
+      ? "Provisional, judged by the server"
+      : "Judged by the server"
+    : local?.provisional
+      ? "Provisional, on this tablet until sent"
+      : "On this tablet until sent";
   return (
     <section aria-label="Verdict" className="card grid gap-3" data-testid="verdict">
       {local ? (
         <>
           <div className="flex flex-wrap items-center gap-3">
-            <VerdictMark verdict={local.verdict}>
-              {local.deviationPct !== null && (
+            <VerdictMark verdict={shown!.verdict}>
+              {shown!.deviationPct !== null && (
                 <span className="tabular-nums" data-testid="deviation">
-                  {showPct(local.deviationPct)}
+                  {showPct(shown!.deviationPct)}
                 </span>
               )}
             </VerdictMark>
-            <span className="text-label font-semibold uppercase">{local.provisional ? "Provisional, on this tablet" : "On this tablet"}</span>
+            <span className="text-label font-semibold uppercase" data-testid="judged-by">
+              {judgedBy}
+            </span>
           </div>
           {local.measuredMm !== null && local.predictedMm !== null && local.lowerMm !== null && local.upperMm !== null ? (
             <p className="text-lead">
@@ -85,7 +96,7 @@ export function VerdictPanel({ project, local, server, targetMPa }: { project: F
           ) : (
             <p className="text-ink-soft">The server evaluates it again when the record is sent; a flag goes to the engineer of record.</p>
           )}
-          {local.verdict !== "in band" && (
+          {shown!.verdict !== "in band" && (
             <p className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-bold text-signal-stop" role="alert">
               Out of band: do not cut the tails or grout until the engineer of record gives a disposition.
             </p>

@@ -28,8 +28,19 @@ export function FlagQueue({ tendons, empty }: { tendons: FlaggedTendon[]; empty:
                 <FlagChip key={f.id} kind={f.kind} status={f.status} />
               ))}
             </div>
+            {t.clockSkewRecords > 0 && (
+              <p className="mt-2 border-l-4 border-signal-stop pl-2 font-bold" data-clock-skew>
+                Check the time: {t.clockSkewRecords === 1 ? "1 record has" : `${t.clockSkewRecords} records have`} a tablet time far from when the server
+                received it (both times on the tendon page).
+              </p>
+            )}
           </div>
-          {t.verdict && <VerdictBadge verdict={t.verdict} deviationPct={t.deviationPct} />}
+          {t.verdict && (
+            <div className="flex flex-col items-start gap-1">
+              <span className="text-label uppercase text-ink-faint">Latest verdict</span>
+              <VerdictBadge verdict={t.verdict} deviationPct={t.deviationPct} provisional={t.provisional} />
+            </div>
+          )}
           <Link href={`/projects/${t.projectId}/tendons/${t.tendonId}/flags`} className="btn-primary">
             Open
           </Link>

@@ -45,6 +45,13 @@ export function RecordsTable({
                 <td className="p-2 font-bold">{r.tendon_end}</td>
                 <td className="p-2">
                   <span className="whitespace-nowrap">{formatDateTime(r.device_time, timeZone)}</span>
+                  {r.skew && (
+                    <span className="mt-1 block border-l-4 border-signal-stop pl-2 font-bold" data-clock-skew>
+                      Check the time: {r.skew.future ? "the tablet's time is after the server received it" : "the tablet's clock and the server disagree"}
+                      <span className="block font-normal">Tablet: {formatDateTime(r.device_time, timeZone)}</span>
+                      <span className="block font-normal">Server received: {formatDateTime(r.received_at, timeZone)}</span>
+                    </span>
+                  )}
                 </td>
                 <td className="p-2">{r.equipmentSet}</td>
                 <td className="p-2 text-right">

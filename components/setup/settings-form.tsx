@@ -39,6 +39,7 @@ function fields(us: boolean) {
       jackingForceFactor: units.number(),
       underForcePct: units.number(),
       seatingExcessMm: units.length(system, us ? "in" : "mm"),
+      clockSkewMinutes: units.number(),
   };
 }
 
@@ -58,8 +59,9 @@ function resolver(us: boolean) {
       jackingForceFactor: v.jackingForceFactor as number,
       underForcePct: v.underForcePct as number,
       seatingExcessMm: v.seatingExcessMm as number,
+      clockSkewMinutes: v.clockSkewMinutes as number,
     }),
-    projectSettingsSchema.required({ timeZone: true, jackingForceFactor: true, underForcePct: true, seatingExcessMm: true }),
+    projectSettingsSchema.required({ timeZone: true, jackingForceFactor: true, underForcePct: true, seatingExcessMm: true, clockSkewMinutes: true }),
     { wobblePerM: "wobble" },
   );
 }
@@ -108,6 +110,7 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
       jackingForceFactor: String(settings.jackingForceFactor ?? 0.8),
       underForcePct: String(settings.underForcePct ?? 2),
       seatingExcessMm: shown(settings.seatingExcessMm ?? 3.175, PER[len]),
+      clockSkewMinutes: String(settings.clockSkewMinutes ?? 10),
     },
   });
   const err = (k: keyof FormIn | "wobblePerM") => (form.formState.errors as Record<string, { message?: string } | undefined>)[k]?.message;
@@ -207,6 +210,14 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
         </Row>
         <Row id="s-seatingExcessMm" label={`Flag measured seating above plan by more than, ${len}`} error={err("seatingExcessMm")}>
           <input className="field-input" inputMode="decimal" {...reg("seatingExcessMm")} />
+        </Row>
+        <Row
+          id="s-clockSkewMinutes"
+          label="Mark a record whose tablet time is off the server's by more than, minutes"
+          hint="The inspector sees both times on the review queue and the tendon's records."
+          error={err("clockSkewMinutes")}
+        >
+          <input className="field-input" inputMode="numeric" {...reg("clockSkewMinutes")} />
         </Row>
         <Row id="s-timeZone" label="Time zone of the site" hint="The stressing day for calibrations and the concrete gate, e.g. America/Chicago." error={err("timeZone")}>
           <input className="field-input" autoComplete="off" {...reg("timeZone")} />

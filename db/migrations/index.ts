@@ -12,6 +12,7 @@ import * as heartbeatAndSessionVersion from "./2026-12-10T040100-dispatcher-hear
 import * as hotPathIndexes from "./2026-12-10T060000-hot-path-indexes";
 import * as lateAppendOnlyTables from "./2026-12-10T070000-late-append-only-tables";
 import * as concreteResults from "./2026-12-10T130000-concrete-results";
+import * as clockSkewThreshold from "./2026-12-10T140000-clock-skew-threshold";
 
 // A static index: vitest and bundlers cannot import .ts migrations from a folder scan.
 // Keys sort in time order; append new migrations at the end.
@@ -29,4 +30,5 @@ export const migrations: Record<string, Migration> = {
   "2026-12-10T060000-hot-path-indexes": hotPathIndexes,
   "2026-12-10T070000-late-append-only-tables": lateAppendOnlyTables,
   "2026-12-10T130000-concrete-results": concreteResults,
+  "2026-12-10T140000-clock-skew-threshold": clockSkewThreshold,
 };

@@ -118,3 +118,63 @@ export function flagMail(input: {
     text: text(title, paragraphs, { label: "Open the tendon's flags", url }, CAUTION_LINE),
   };
 }
+
+/**
+ * To the crew and the inspector: the engineer of record ordered field work on a tendon. Every
+ * figure arrives already written in the project's units.
+ */
+export function workOrderMail(input: {
+  to: string[];
+  projectName: string;
+  pourName: string;
+  tendonTag: string;
+  decisionLabel: string;
+  engineerName: string;
+  instructions: string;
+  flagKind: string;
+  lastStressing: string | null;
+  url: string;
+}): OutgoingMail {
+  const title = `${input.decisionLabel} ordered for tendon ${input.tendonTag}`;
+  const paragraphs = [
+    `${input.projectName}, ${input.pourName}, tendon ${input.tendonTag}.`,
+    `The engineer of record, ${input.engineerName}, ordered: ${input.decisionLabel}.`,
+    `Instructions: ${input.instructions}`,
+    `It answers the flag: ${input.flagKind.replaceAll("_", " ")}.`,
+    ...(input.lastStressing ? [`Last stressing on the server: ${input.lastStressing}.`] : []),
+    "The tendon stays held: do not cut tails or grout it until the work is recorded and its flags are closed.",
+  ];
+  const action = { label: "Open the pour on the tablet", url: input.url };
+  return {
+    to: input.to.join(", "),
+    subject: `Tautline order: ${input.decisionLabel}, tendon ${input.tendonTag}, ${input.pourName}`,
+    html: layout(title, paragraphs, action, CAUTION_LINE),
+    text: text(title, paragraphs, action, CAUTION_LINE),
+  };
+}
+
+/** To the crew and the inspector: a pour was released, in the releasing person's own words. */
+export function releaseMail(input: {
+  to: string[];
+  projectName: string;
+  pourName: string;
+  releasedBy: string;
+  releasedAt: string;
+  tendons: number;
+  statement: string;
+  url: string;
+}): OutgoingMail {
+  const title = `${input.pourName} is released`;
+  const paragraphs = [
+    `${input.projectName}, ${input.pourName}: released by ${input.releasedBy} on ${input.releasedAt}, ${input.tendons} tendon(s).`,
+    `Statement: ${input.statement}`,
+    "The pour now takes no new record unless the engineer of record reopens it.",
+  ];
+  const action = { label: "Open the pour on the tablet", url: input.url };
+  return {
+    to: input.to.join(", "),
+    subject: `Tautline release: ${input.pourName}, ${input.projectName}`,
+    html: layout(title, paragraphs, action, CAUTION_LINE),
+    text: text(title, paragraphs, action, CAUTION_LINE),
+  };
+}

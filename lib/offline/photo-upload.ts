@@ -43,6 +43,8 @@ async function uploadOne(db: FieldDb, photo: LocalPhoto): Promise<void> {
   await db.photos.update(photo.id, { state: "stored", uploadedBytes: photo.sizeBytes });
 }
 
+export const PHOTO_NO_CONNECTION = "No connection to the server. The photo stays on this tablet and is sent when there is signal.";
+
 let running: Promise<void> | null = null;
 
 export function uploadPhotos(db: FieldDb): Promise<void> {
@@ -55,7 +57,9 @@ export function uploadPhotos(db: FieldDb): Promise<void> {
         try {
           await uploadOne(db, photo);
         } catch (error) {
-          await db.photos.update(photo.id, { state: "failed", lastError: (error as Error).message });
+          // fetch() fails with a TypeError whose words ("Failed to fetch") mean nothing to the crew.
+          const lastError = error instanceof TypeError ? PHOTO_NO_CONNECTION : (error as Error).message;
+          await db.photos.update(photo.id, { state: "failed", lastError });
         }
       }
     } finally {

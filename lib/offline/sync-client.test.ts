@@ -2,7 +2,7 @@ import { afterEach, describe, expect, it } from "vitest";
 import type { PushResponse } from "@/lib/schemas/sync";
 import { readMeta, type SyncMeta } from "./db";
 import { saveRecord } from "./outbox";
-import { backoffDelayMs, SyncClient, type Fetch, type LockManagerLike } from "./sync-client";
+import { backoffDelayMs, NO_CONNECTION, SyncClient, type Fetch, type LockManagerLike } from "./sync-client";
 import { samplePayload, signIn, testDb } from "./test-support";
 
 const opened: { close: () => void }[] = [];
@@ -72,7 +72,12 @@ describe("SyncClient", () => {
       return server.fetch(url, init);
     };
     const client = new SyncClient({ db, fetch, locks: null, now: () => clock, random: () => 0.5, baseDelayMs: 2_000 });
-    expect(await client.sync()).toMatchObject({ kind: "offline", retryInMs: 1_000 });
+    const offline = await client.sync();
+    expect(offline).toMatchObject({ kind: "offline", retryInMs: 1_000, message: NO_CONNECTION });
+    // The browser's raw words never reach the crew, neither in the answer nor on the record.
+    expect(JSON.stringify(offline)).not.toContain("Failed to fetch");
+    expect((await db.outbox.toArray())[0]!.lastError).toBe(NO_CONNECTION);
+    expect((await readMeta<SyncMeta>(db, "sync"))!.lastError).toBe(NO_CONNECTION);
     expect(await client.sync()).toMatchObject({ kind: "waiting" });
     expect(calls).toBe(1);
     clock += 1_001;

@@ -3,6 +3,9 @@ import { deviceId, readMeta, updateSyncMeta, type FieldDb, type SessionMeta } fr
 import { applyPushResults, notePushFailure, pendingOps } from "./outbox";
 import { applyPull } from "./reference";
 
+/** What the crew reads when the server cannot be reached: no browser jargon. */
+export const NO_CONNECTION = "No connection to the server. Records stay on this tablet and are sent when there is signal.";
+
 /**
  * Moves the outbox to the server and the server's changes to the tablet. Runs in the page (the
  * service worker never holds records). One tab at a time: a Web Lock guards each round, and a
@@ -114,8 +117,9 @@ export class SyncClient {
     let response: Response;
     try {
       response = await this.fetch(url, { credentials: "same-origin", cache: "no-store", ...init });
-    } catch (error) {
-      throw new Retryable(`No connection (${(error as Error).message || "network error"}).`);
+    } catch {
+      // The browser's own words ("Failed to fetch", "NetworkError…") mean nothing at the slab edge.
+      throw new Retryable(NO_CONNECTION);
     }
     if (response.status === 401) throw new Unauthenticated("Signed out");
     if (response.status >= 500 || response.status === 429 || response.status === 408) throw new Retryable(`The server answered ${response.status}.`);

@@ -90,6 +90,12 @@ export const projectSettingsSchema = z.object({
     .min(0, "The threshold cannot be negative.")
     .lt(50, "The threshold must be below 50 mm (2 in).")
     .optional(),
+  clockSkewMinutes: z
+    .number({ error: "Give the clock check in whole minutes." })
+    .int("Give the clock check in whole minutes.")
+    .min(1, "The clock check must be at least 1 minute.")
+    .max(1440, "The clock check must be at most 1440 minutes (a day).")
+    .optional(),
 });
 export type ProjectSettings = z.infer<typeof projectSettingsSchema>;
 

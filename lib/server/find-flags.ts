@@ -1,7 +1,8 @@
 import "server-only";
-import type { Kysely } from "kysely";
+import { sql, type Kysely } from "kysely";
 import type { Database, FlagKind, FlagStatus, Verdict } from "@/db/types";
 import type { FlagFilter } from "@/lib/schemas/review";
+import { FUTURE_GRACE_MS } from "@/lib/stressing/clock-skew";
 
 export interface FlaggedTendon {
   projectId: string;
@@ -12,11 +13,15 @@ export interface FlaggedTendon {
   tag: string;
   oldest: Date;
   flags: { id: string; kind: FlagKind; reason: string; status: FlagStatus; createdAt: Date }[];
+  /** The tendon's latest evaluation (as it stands now), not the one that raised a flag. */
   verdict: Verdict | null;
   deviationPct: number | null;
+  provisional: boolean;
+  /** Records of the tendon whose device time is off the server's receipt (see lib/stressing/clock-skew.ts). */
+  clockSkewRecords: number;
 }
 
-/** Open flags on the given projects, grouped per tendon, oldest first. */
+/** Open flags on the given projects, grouped per tendon, oldest first, each tendon with its latest verdict. */
 export async function findFlags(
   db: Kysely<Database>,
   input: { projectIds: string[]; filter: FlagFilter },
@@ -28,7 +33,18 @@ export async function findFlags(
     .innerJoin("projects", "projects.id", "flags.project_id")
     .innerJoin("pours", "pours.id", "flags.pour_id")
     .innerJoin("tendons", "tendons.id", "flags.tendon_id")
-    .leftJoin("evaluations", "evaluations.id", "flags.evaluation_id")
+    .leftJoinLateral(
+      (eb) =>
+        eb
+          .selectFrom("evaluations")
+          .select(["evaluations.verdict", "evaluations.deviation_pct", "evaluations.provisional"])
+          .whereRef("evaluations.tendon_id", "=", "flags.tendon_id")
+          .whereRef("evaluations.project_id", "=", "flags.project_id")
+          .orderBy("evaluations.created_at", "desc")
+          .limit(1)
+          .as("latest"),
+      (join) => join.onTrue(),
+    )
     .select([
       "flags.id",
       "flags.kind",
@@ -41,8 +57,20 @@ export async function findFlags(
       "pours.name as pourName",
       "flags.tendon_id",
       "tendons.tag",
-      "evaluations.verdict",
-      "evaluations.deviation_pct",
+      "latest.verdict",
+      "latest.deviation_pct",
+      "latest.provisional",
+      (eb) =>
+        eb
+          .selectFrom("records")
+          .select(sql<number>`count(*)::int`.as("n"))
+          .whereRef("records.tendon_id", "=", "flags.tendon_id")
+          .whereRef("records.project_id", "=", "flags.project_id")
+          .where(
+            sql<boolean>`(abs(extract(epoch from records.device_time - records.received_at)) > projects.clock_skew_minutes * 60
+              or records.device_time > records.received_at + make_interval(secs => ${FUTURE_GRACE_MS / 1000}))`,
+          )
+          .as("clockSkewRecords"),
     ])
     .where("flags.project_id", "in", input.projectIds)
     .orderBy("flags.created_at");
@@ -71,16 +99,14 @@ export async function findFlags(
         tag: r.tag,
         oldest: r.created_at,
         flags: [],
-        verdict: null,
-        deviationPct: null,
+        verdict: r.verdict ?? null,
+        deviationPct: r.deviation_pct ?? null,
+        provisional: r.provisional ?? false,
+        clockSkewRecords: Number(r.clockSkewRecords ?? 0),
       };
       byTendon.set(r.tendon_id, group);
     }
     group.flags.push({ id: r.id, kind: r.kind, reason: r.reason, status: r.status, createdAt: r.created_at });
-    if (r.verdict) {
-      group.verdict = r.verdict;
-      group.deviationPct = r.deviation_pct;
-    }
   }
   return [...byTendon.values()];
 }

@@ -29,5 +29,6 @@ export async function getProjectSettings(db: Db, projectId: string): Promise<Pro
     notifyEmails: p.notify_emails,
     blindEntry: p.blind_entry,
     releaseBy: p.release_by,
+    clockSkewMinutes: p.clock_skew_minutes,
   };
 }

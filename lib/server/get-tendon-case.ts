@@ -3,6 +3,7 @@ import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { forceProfile, segmentBeta, type ForceProfile } from "@/lib/elongation";
 import { predictTendon, type TendonPrediction } from "@/lib/stressing/basis";
+import { clockSkew } from "@/lib/stressing/clock-skew";
 import { findFlagTrail } from "./find-flag-trail";
 import { loadTendonBasis, type LoadedTendon } from "./load-tendon-basis";
 
@@ -14,12 +15,14 @@ import { loadTendonBasis, type LoadedTendon } from "./load-tendon-basis";
 export async function getTendonCase(db: Kysely<Database>, input: { projectId: string; tendonId: string }) {
   const basis: LoadedTendon = await loadTendonBasis(db, input);
 
-  const [records, evaluation, { flags, reviews, dispositions }, photos, release] = await Promise.all([
+  const [rows, evaluation, { flags, reviews, dispositions }, photos, release] = await Promise.all([
     db
       .selectFrom("records")
       .innerJoin("users", "users.id", "records.author_user_id")
       .innerJoin("equipment_sets", "equipment_sets.id", "records.equipment_set_id")
+      .innerJoin("projects", "projects.id", "records.project_id")
       .select([
+        "projects.clock_skew_minutes",
         "records.id",
         "records.chain_id",
         "records.revision",
@@ -70,6 +73,8 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
       .executeTakeFirst(),
   ]);
 
+  // Each record with its clock skew against the project's threshold (null when within it).
+  const records = rows.map(({ clock_skew_minutes, ...r }) => ({ ...r, skew: clockSkew(r.device_time, r.received_at, clock_skew_minutes) }));
   const equipmentGripMm = records.find((r) => r.equipmentGripMm !== null)?.equipmentGripMm ?? null;
   let predicted: TendonPrediction | null = null;
   let profile: ForceProfile | null = null;

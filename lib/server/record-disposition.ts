@@ -4,6 +4,7 @@ import type { Database, Decision } from "@/db/types";
 import { AppError } from "@/lib/errors";
 import type { DispositionInput } from "@/lib/schemas/review";
 import { inTransaction } from "./in-transaction";
+import { queueCrewNotice } from "./queue-crew-notice";
 import { recordAudit } from "./record-audit";
 
 /** Decisions that settle the flag at once; the others wait for the field work they order. */
@@ -68,6 +69,8 @@ export async function recordDisposition(
       target: flag.id,
       detail: { decision },
     });
+    // The crew and the inspector are told of an order for field work (lib/server/queue-crew-notice.ts).
+    await queueCrewNotice(trx, { projectId: input.projectId, notice: { kind: "disposition", dispositionId: row.id } });
     return { dispositionId: row.id, flagStatus };
   });
 }

@@ -4,6 +4,7 @@ import type { Database, Role } from "@/db/types";
 import { AppError } from "@/lib/errors";
 import { stressedEnds } from "@/lib/stressing/basis";
 import { inTransaction } from "./in-transaction";
+import { queueCrewNotice } from "./queue-crew-notice";
 import { recordAudit } from "./record-audit";
 
 export interface ReleaseBlockers {
@@ -124,6 +125,7 @@ export async function releasePour(
       projectId: input.projectId,
       target: input.pourId,
     });
+    await queueCrewNotice(trx, { projectId: input.projectId, notice: { kind: "release", releaseId: row.id } });
     return { releaseId: row.id };
   });
 }

@@ -58,6 +58,7 @@ export async function updateProjectSettings(
         ...(v.jackingForceFactor !== undefined && { jacking_force_factor: v.jackingForceFactor }),
         ...(v.underForcePct !== undefined && { under_force_pct: v.underForcePct }),
         ...(v.seatingExcessMm !== undefined && { seating_excess_mm: v.seatingExcessMm }),
+        ...(v.clockSkewMinutes !== undefined && { clock_skew_minutes: v.clockSkewMinutes }),
         updated_at: new Date(),
       })
       .where("id", "=", input.projectId)

@@ -46,6 +46,7 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
   await expect(page.getByTestId("tendon-row").filter({ hasText: p.tendons[1]!.tag }).locator("[data-state]")).toHaveText("flagged");
   await page.getByTestId("tendon-row").filter({ hasText: p.tendons[1]!.tag }).click();
   await expect(page.getByTestId("verdict")).toContainText("Long");
+  await expect(page.getByTestId("judged-by")).toHaveText(/on this tablet until sent/i);
   await expect(page.getByRole("alert").filter({ hasText: "Out of band" })).toBeVisible();
   await page.getByLabel("Find a tendon by tag").fill("");
   for (const t of [p.tendons[0]!, p.tendons[2]!]) {
@@ -61,6 +62,11 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
   await expect(page.getByTestId("pending-count")).toContainText("0 records", { timeout: 20_000 });
   await expect(page.getByTestId("end-A").getByTestId("sync-state")).toHaveText("sent");
   await expect(page.getByTestId("server-verdict")).toContainText("Long");
+  // Judged by the server now: the tablet no longer says the verdict is its own.
+  await expect(page.getByTestId("judged-by")).toHaveText(/judged by the server/i);
+  // The bar's count says what it counts: records the server refused, not flagged tendons.
+  await expect(page.getByTestId("attention-count")).toContainText("Records the server refused");
+  await expect(page.getByTestId("attention-count")).toContainText("0");
   await expect(page.getByTestId("last-sync")).not.toContainText("never");
   await shoot(page, "field-log-synced-portrait");
   await page.setViewportSize({ width: 1280, height: 800 });

@@ -148,6 +148,10 @@ test("an out-of-band tendon is flagged, mailed, reviewed, restressed and only th
     await page.waitForURL(/\/home$/);
     await page.goto("/review");
     await expect(page.getByRole("link", { name: `Tendon ${TAG}` })).toBeVisible();
+    // The record's tablet time is 30 minutes before the server got it: beyond the default 10 minutes.
+    const card = page.getByRole("listitem").filter({ has: page.getByRole("link", { name: `Tendon ${TAG}` }) });
+    await expect(card.locator("[data-clock-skew]")).toContainText("Check the time");
+    await expect(card).toContainText("Latest verdict");
     await screenshot(page, `review-queue-${viewport.name}`);
     await ctx.close();
   }
@@ -157,6 +161,8 @@ test("an out-of-band tendon is flagged, mailed, reviewed, restressed and only th
   await inspector.waitForURL(/\/home$/);
   await inspector.goto(linkPath);
   await expect(inspector.getByRole("heading", { name: `Tendon ${TAG}`, level: 1 })).toBeVisible();
+  // Both times are shown on the record whose tablet clock is off.
+  await expect(inspector.locator("[data-clock-skew]").first()).toContainText("Server received:");
   await expect(inspector.locator("[data-verdict=short]").first()).toBeVisible();
   await expect(inspector.getByRole("note", { name: "Caution" }).first()).toBeVisible();
   await inspector.getByLabel("Send to the engineer").check();

@@ -1,0 +1,166 @@
+import "server-only";
+import type { Kysely } from "kysely";
+import type { Database, Decision } from "@/db/types";
+import { env } from "@/lib/env";
+import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
+import { releaseMail, workOrderMail } from "@/lib/mail/templates";
+import { DECISION_LABELS } from "@/lib/schemas/review";
+import { showLength, showPct, showPressure, type StoredResolution } from "@/lib/stressing/display";
+
+/** Dispositions that send the crew back to the tendon. */
+export const ORDERS_WORK: readonly Decision[] = ["restress", "detension_restress", "liftoff_check", "replace"];
+
+export type CrewNotice = { kind: "disposition"; dispositionId: string } | { kind: "release"; releaseId: string };
+
+/**
+ * Puts an e-mail to the project's crew and inspectors in the notifications outbox (sent by the
+ * dispatcher), inside the caller's transaction: one for each disposition that orders field work,
+ * one for each release. Figures are in the project's units. Nothing is queued when the
+ * disposition orders no work or the project has nobody active in those roles.
+ * Answers whether a message was queued.
+ */
+export async function queueCrewNotice(
+  db: Kysely<Database>,
+  input: { projectId: string; notice: CrewNotice },
+): Promise<boolean> {
+  const [project, people] = await Promise.all([
+    db.selectFrom("projects").selectAll().where("id", "=", input.projectId).executeTakeFirstOrThrow(),
+    db
+      .selectFrom("project_members")
+      .innerJoin("users", "users.id", "project_members.user_id")
+      .select("users.email")
+      .distinct()
+      .where("project_members.project_id", "=", input.projectId)
+      .where("project_members.role", "in", ["crew", "inspector"])
+      .where("users.is_active", "=", true)
+      .orderBy("users.email")
+      .execute(),
+  ]);
+  const to = people.map((p) => p.email);
+  if (!to.length) return false;
+  const units = { unitSystem: project.unit_system, readingResolution: project.reading_resolution as StoredResolution };
+  const notice = input.notice;
+
+  if (notice.kind === "disposition") {
+    const d = await db
+      .selectFrom("dispositions")
+      .innerJoin("flags", "flags.id", "dispositions.flag_id")
+      .innerJoin("tendons", "tendons.id", "dispositions.tendon_id")
+      .innerJoin("pours", "pours.id", "tendons.pour_id")
+      .select([
+        "dispositions.id",
+        "dispositions.decision",
+        "dispositions.reasons",
+        "dispositions.engineer_name",
+        "dispositions.flag_id",
+        "flags.kind",
+        "tendons.id as tendonId",
+        "tendons.tag",
+        "pours.id as pourId",
+        "pours.name as pourName",
+      ])
+      .where("dispositions.project_id", "=", input.projectId)
+      .where("dispositions.id", "=", notice.dispositionId)
+      .executeTakeFirstOrThrow();
+    if (!ORDERS_WORK.includes(d.decision)) return false;
+    const [record, evaluation] = await Promise.all([
+      db
+        .selectFrom("records")
+        .select(["tendon_end", "final_pressure_mpa", "measured_mm"])
+        .where("project_id", "=", input.projectId)
+        .where("tendon_id", "=", d.tendonId)
+        .orderBy("received_at", "desc")
+        .limit(1)
+        .executeTakeFirst(),
+      db
+        .selectFrom("evaluations")
+        .select(["verdict", "deviation_pct"])
+        .where("project_id", "=", input.projectId)
+        .where("tendon_id", "=", d.tendonId)
+        .orderBy("created_at", "desc")
+        .limit(1)
+        .executeTakeFirst(),
+    ]);
+    const lastStressing = record
+      ? [
+          `end ${record.tendon_end}, gauge ${showPressure(units, record.final_pressure_mpa)}, elongation ${showLength(units, record.measured_mm)}`,
+          evaluation
+            ? `${evaluation.verdict}${evaluation.deviation_pct === null ? "" : ` ${showPct(evaluation.deviation_pct)}`}`
+            : null,
+        ]
+          .filter(Boolean)
+          .join(", ")
+      : null;
+    const mail = workOrderMail({
+      to,
+      projectName: project.name,
+      pourName: d.pourName,
+      tendonTag: d.tag,
+      decisionLabel: DECISION_LABELS[d.decision],
+      engineerName: d.engineer_name,
+      instructions: d.reasons,
+      flagKind: d.kind,
+      lastStressing,
+      url: `${env.APP_URL}/field/pour?id=${d.pourId}&tendon=${d.tendonId}`,
+    });
+    await db
+      .insertInto("notifications")
+      .values({
+        project_id: input.projectId,
+        flag_id: d.flag_id,
+        dedupe_key: `disposition:${d.id}`,
+        to_emails: to,
+        subject: mail.subject,
+        text_body: mail.text,
+        html_body: mail.html,
+      })
+      .onConflict((oc) => oc.column("dedupe_key").doNothing())
+      .execute();
+    return true;
+  }
+
+  const r = await db
+    .selectFrom("releases")
+    .innerJoin("pours", "pours.id", "releases.pour_id")
+    .select([
+      "releases.id",
+      "releases.released_by_name",
+      "releases.statement",
+      "releases.created_at",
+      "pours.id as pourId",
+      "pours.name as pourName",
+      (eb) =>
+        eb
+          .selectFrom("tendons")
+          .select((e) => e.fn.countAll<string>().as("n"))
+          .whereRef("tendons.pour_id", "=", "pours.id")
+          .as("tendons"),
+    ])
+    .where("releases.project_id", "=", input.projectId)
+    .where("releases.id", "=", notice.releaseId)
+    .executeTakeFirstOrThrow();
+  const mail = releaseMail({
+    to,
+    projectName: project.name,
+    pourName: r.pourName,
+    releasedBy: r.released_by_name,
+    releasedAt: formatDateTime(r.created_at, projectTimeZone(project)),
+    tendons: Number(r.tendons ?? 0),
+    statement: r.statement,
+    url: `${env.APP_URL}/field/pour?id=${r.pourId}`,
+  });
+  await db
+    .insertInto("notifications")
+    .values({
+      project_id: input.projectId,
+      flag_id: null,
+      dedupe_key: `release:${r.id}`,
+      to_emails: to,
+      subject: mail.subject,
+      text_body: mail.text,
+      html_body: mail.html,
+    })
+    .onConflict((oc) => oc.column("dedupe_key").doNothing())
+    .execute();
+  return true;
+}
