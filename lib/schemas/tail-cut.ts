@@ -1,5 +1,4 @@
 import { z } from "zod";
-import { text } from "./text";
 
 /**
  * "Tails cut" on one tendon, as the tablet's outbox sends it (op kind tails_cut; the op's
