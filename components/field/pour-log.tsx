@@ -211,6 +211,7 @@ export function PourLog() {
             onNext={go}
             released={Boolean(pour.release)}
             flags={flagsOf(selected)}
+            tailsCut={cutOf.has(selected.id)}
             tailCut={
               <TailCutPanel tendon={selected} clearance={clearance.get(selected.id)!} cut={cutOf.get(selected.id)} session={session} timeZone={timeZone} />
             }
@@ -241,6 +242,8 @@ function TendonPanel(props: {
   flags: FieldFlag[];
   /** Held or clear to cut, or the cut as recorded. */
   tailCut: React.ReactNode;
+  /** The tails are cut: the jack can no longer grip the tendon, so no restress is offered. */
+  tailsCut: boolean;
 }) {
   const { tendon, project, records, sets, calibrations, lot, session } = props;
   const u = units(project);
@@ -306,7 +309,7 @@ function TendonPanel(props: {
                 </div>
               );
             })}
-            {allDone && !adding && !props.correcting && !props.released && (
+            {allDone && !adding && !props.correcting && !props.released && !props.tailsCut && (
               <button type="button" className="btn-quiet w-fit" onClick={() => setAdding(true)}>
                 Record a restress
               </button>

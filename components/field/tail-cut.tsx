@@ -98,17 +98,8 @@ export function TailCutPanel(props: {
             <li key={r}>{r}</li>
           ))}
         </ul>
-        <button
-          type="button"
-          className="btn-quiet w-fit"
-          disabled
-          aria-describedby={`held-${tendon.id}`}
-          data-testid="tail-cut-button"
-        >
-          Record tails cut
-        </button>
-        <p id={`held-${tendon.id}`} className="text-label">
-          Refused on this tablet while the tendon is held.
+        <p className="font-bold" data-testid="tail-cut-refused">
+          No cut can be recorded on this tablet while the tendon is held.
         </p>
       </section>
     );

@@ -43,7 +43,8 @@ test("a held tendon cannot be marked cut; a clear one is cut once after confirma
   await expect(tails).toHaveAttribute("data-cut", "held");
   await expect(tails).toContainText("Tails: held, do not cut");
   await expect(tails.getByTestId("tail-held-reasons")).toContainText("flag is still open");
-  await expect(tails.getByTestId("tail-cut-button")).toBeDisabled();
+  await expect(tails.getByTestId("tail-cut-button")).toHaveCount(0);
+  await expect(tails.getByTestId("tail-cut-refused")).toBeVisible();
   await screenshot(crew, "field-tails-held");
 
   // The clear tendon: cancel first (nothing recorded), then confirm.
@@ -64,6 +65,8 @@ test("a held tendon cannot be marked cut; a clear one is cut once after confirma
   await expect(tails.getByTestId("tail-cut-sync")).toHaveText("received by the server", { timeout: 15_000 });
   await expect(rows.filter({ hasText: clear.tag }).getByTestId("tail-state")).toHaveText("Tails cut");
   await expect(crew.getByTestId("cut-all-clear")).toHaveCount(0);
+  // Nothing can be restressed once the tails are cut.
+  await expect(crew.getByRole("button", { name: "Record a restress" })).toHaveCount(0);
   await screenshot(crew, "field-tails-cut");
 
   const cuts = await queryDemo<{ tendon_id: string; held_reasons: string[] }>(
