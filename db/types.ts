@@ -291,7 +291,8 @@ export type FlagKind =
   | "reading_missing"
   | "stressed_twice"
   | "under_force"
-  | "seating_excess";
+  | "seating_excess"
+  | "cut_while_held";
 export type FlagStatus = "open" | "with_engineer" | "closed";
 
 export interface FlagsTable {
@@ -460,6 +461,20 @@ export interface WorkerHeartbeatsTable {
   last_error_at: Date | null;
 }
 
+/** Tails cut on a tendon (one per tendon, never changed); held_reasons is set when it came while held. */
+export interface TailCutsTable {
+  id: string;
+  project_id: string;
+  pour_id: string;
+  tendon_id: string;
+  cut_by: string;
+  cut_at: Timestamp;
+  device_id: string;
+  held_reasons: Generated<string[]>;
+  received_at: Generated<Timestamp>;
+  change_xid: Generated<string>;
+}
+
 export interface Database {
   users: UsersTable;
   projects: ProjectsTable;
@@ -490,6 +505,7 @@ export interface Database {
   report_revisions: ReportRevisionsTable;
   share_links: ShareLinksTable;
   worker_heartbeats: WorkerHeartbeatsTable;
+  tail_cuts: TailCutsTable;
 }
 
 export type User = Selectable<UsersTable>;

@@ -23,8 +23,11 @@ export function AttentionList() {
         {items.map(({ entry, tendon }) => (
           <li key={entry.opId} className="rounded-md border border-concrete-300 p-3" data-testid="attention-item">
             <p className="font-bold">
-              {tendon?.tag ?? "Tendon"} · end {entry.payload.tendonEnd} · revision {entry.payload.revision} —{" "}
-              {entry.status === "conflict" ? "changed elsewhere first" : "refused"}
+              {tendon?.tag ?? "Tendon"} ·{" "}
+              {"tendonEnd" in entry.payload
+                ? `end ${entry.payload.tendonEnd} · revision ${entry.payload.revision}`
+                : "tails cut"}{" "}
+              — {entry.status === "conflict" ? "changed elsewhere first" : "refused"}
             </p>
             <p className="mt-1">{entry.error?.message}</p>
             {entry.error?.fields && (

@@ -2,7 +2,8 @@
 import { useMemo, useState, useSyncExternalStore } from "react";
 import { readMeta, type LocalRecord, type SessionMeta } from "@/lib/offline/db";
 import { calibrationFor, currentEnds, provisionalVerdict, targetFor, tendonState, type TendonState } from "@/lib/offline/tendon-view";
-import { holdsOf, holdSummary } from "@/lib/offline/hold-view";
+import { cutClearanceOf, holdsOf, holdSummary } from "@/lib/offline/hold-view";
+import { projectTimeZone } from "@/lib/format/dates";
 import type { FieldEvaluation, FieldFlag, FieldTendon } from "@/lib/schemas/sync";
 import { stressedEnds } from "@/lib/stressing/basis";
 import { showLength, showPressure } from "@/lib/stressing/display";
@@ -11,6 +12,7 @@ import { HoldPanel } from "./hold-panel";
 import { PourReleaseNote } from "./pour-release-note";
 import { concreteGateMet } from "@/lib/stressing/concrete-strength";
 import { RecordForm } from "./record-form";
+import { CutAllClear, TailCutPanel } from "./tail-cut";
 import { useLive } from "./use-live";
 import { units, VerdictPanel } from "./verdict-panel";
 
@@ -77,8 +79,8 @@ export function PourLog() {
       readMeta<SessionMeta>(db, "session"),
     ]);
     const ids = tendons.map((t) => t.id);
-    const [evaluations, flags] = await Promise.all([db.evaluations.where("tendonId").anyOf(ids).toArray(), db.flags.where("tendonId").anyOf(ids).toArray()]);
-    return { pour, project, tendons, records, sets, calibrations, lots, session, evaluations, flags };
+    const [evaluations, flags, tailCuts] = await Promise.all([db.evaluations.where("tendonId").anyOf(ids).toArray(), db.flags.where("tendonId").anyOf(ids).toArray(), db.tailCuts.where("pourId").equals(pourId).toArray()]);
+    return { pour, project, tendons, records, sets, calibrations, lots, session, evaluations, flags, tailCuts };
   }, [db, pourId]);
 
   if (!pourId) return <p className="card m-4">No pour was chosen. Go back to the field log and open one.</p>;
@@ -93,11 +95,17 @@ export function PourLog() {
       </div>
     );
   }
-  const { pour, project, tendons, records, sets, calibrations, lots, session, evaluations, flags } = data;
+  const { pour, project, tendons, records, sets, calibrations, lots, session, evaluations, flags, tailCuts } = data;
   const recordsOf = (t: FieldTendon) => records.filter((r) => r.tendonId === t.id);
   const states = new Map(tendons.map((t) => [t.id, tendonState(t, recordsOf(t), flags.filter((f) => f.tendonId === t.id), latestOf(evaluations, t.id))]));
   const flagsOf = (t: FieldTendon) => flags.filter((f) => f.tendonId === t.id);
   const holdWords = new Map(tendons.map((t) => [t.id, holdSummary(holdsOf(flagsOf(t)))]));
+  const cutOf = new Map(tailCuts.map((c) => [c.tendonId, c]));
+  const clearance = new Map(
+    tendons.map((t) => [t.id, cutClearanceOf({ tendon: t, records: recordsOf(t), flags: flagsOf(t), heldOnTablet: states.get(t.id) === "flagged", project, pour })]),
+  );
+  const clearToCut = tendons.filter((t) => !cutOf.has(t.id) && clearance.get(t.id)!.clear);
+  const timeZone = projectTimeZone(project);
   // Held tendons first, so nobody at the slab edge has to scroll to find them.
   const shown = tendons
     .filter((t) => t.tag.toLowerCase().includes(query.trim().toLowerCase()))
@@ -148,6 +156,7 @@ export function PourLog() {
             Next tendon: {next.tag}
           </button>
         )}
+        {session && <CutAllClear projectId={pour.projectId} pourId={pour.id} clear={clearToCut} session={session} timeZone={timeZone} />}
         {shown.length === 0 && <p>No tendon tag contains “{query}”.</p>}
         <ul className="grid gap-1 portrait:max-h-[34vh] portrait:overflow-y-auto" data-testid="tendon-list">
           {shown.map((t) => (
@@ -166,6 +175,15 @@ export function PourLog() {
                       Held · {holdWords.get(t.id) ?? "out of band on this tablet"}
                     </span>
                   )}
+                  {cutOf.has(t.id) ? (
+                    <span className="text-label font-semibold" data-testid="tail-state">
+                      Tails cut
+                    </span>
+                  ) : clearance.get(t.id)!.clear ? (
+                    <span className="text-label font-semibold text-signal-band" data-testid="tail-state">
+                      Clear to cut tails
+                    </span>
+                  ) : null}
                 </span>
                 <StateMark state={states.get(t.id)!} />
               </button>
@@ -206,6 +224,10 @@ export function PourLog() {
             onNext={go}
             released={Boolean(pour.release)}
             flags={flagsOf(selected)}
+            tailsCut={cutOf.has(selected.id)}
+            tailCut={
+              <TailCutPanel tendon={selected} clearance={clearance.get(selected.id)!} cut={cutOf.get(selected.id)} session={session} timeZone={timeZone} />
+            }
           />
         )}
       </section>
@@ -231,6 +253,10 @@ function TendonPanel(props: {
   /** The pour is released: nothing new is recorded until the engineer reopens it. */
   released: boolean;
   flags: FieldFlag[];
+  /** Held or clear to cut, or the cut as recorded. */
+  tailCut: React.ReactNode;
+  /** The tails are cut: the jack can no longer grip the tendon, so no restress is offered. */
+  tailsCut: boolean;
 }) {
   const { tendon, project, records, sets, calibrations, lot, session } = props;
   const u = units(project);
@@ -296,7 +322,7 @@ function TendonPanel(props: {
                 </div>
               );
             })}
-            {allDone && !adding && !props.correcting && !props.released && (
+            {allDone && !adding && !props.correcting && !props.released && !props.tailsCut && (
               <button type="button" className="btn-quiet w-fit" onClick={() => setAdding(true)}>
                 Record a restress
               </button>
@@ -304,6 +330,8 @@ function TendonPanel(props: {
           </section>
         </>
       )}
+
+      {records.length > 0 && props.tailCut}
 
       {props.justSaved && props.next && !props.correcting && (
         <button type="button" className="btn-primary" onClick={() => props.onNext(props.next!)}>

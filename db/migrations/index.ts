@@ -11,6 +11,7 @@ import * as appRole from "./2026-12-10T040000-app-role";
 import * as heartbeatAndSessionVersion from "./2026-12-10T040100-dispatcher-heartbeat-and-session-version";
 import * as hotPathIndexes from "./2026-12-10T060000-hot-path-indexes";
 import * as lateAppendOnlyTables from "./2026-12-10T070000-late-append-only-tables";
+import * as tailCuts from "./2026-12-10T120000-tail-cuts";
 import * as concreteResults from "./2026-12-10T130000-concrete-results";
 import * as clockSkewThreshold from "./2026-12-10T140000-clock-skew-threshold";
 
@@ -29,6 +30,7 @@ export const migrations: Record<string, Migration> = {
   "2026-12-10T040100-dispatcher-heartbeat-and-session-version": heartbeatAndSessionVersion,
   "2026-12-10T060000-hot-path-indexes": hotPathIndexes,
   "2026-12-10T070000-late-append-only-tables": lateAppendOnlyTables,
+  "2026-12-10T120000-tail-cuts": tailCuts,
   "2026-12-10T130000-concrete-results": concreteResults,
   "2026-12-10T140000-clock-skew-threshold": clockSkewThreshold,
 };

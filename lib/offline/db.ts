@@ -1,5 +1,6 @@
 import Dexie, { type DexieOptions, type Table } from "dexie";
 import type { RecordPayload } from "@/lib/schemas/record";
+import type { TailCutPayload } from "@/lib/schemas/tail-cut";
 import type {
   FieldCalibration,
   FieldEquipmentSet,
@@ -8,6 +9,7 @@ import type {
   FieldPour,
   FieldProject,
   FieldStrandLot,
+  FieldTailCut,
   FieldTendon,
   OpError,
   OpEvaluation,
@@ -64,7 +66,8 @@ export interface OutboxEntry {
   kind: OpKind;
   recordId: string;
   baseVersion?: number;
-  payload: RecordPayload;
+  /** A record for create and revise; a tails cut for tails_cut (its recordId is the cut's id). */
+  payload: RecordPayload | TailCutPayload;
   authorUserId: string;
   /** "pending" waits for a push; "attention" was refused by the server and waits for a person. */
   state: "pending" | "attention";
@@ -73,6 +76,11 @@ export interface OutboxEntry {
   lastError?: string | null;
   status?: "conflict" | "rejected";
   error?: OpError;
+}
+
+/** Tails cut on a tendon, made here or pulled; keyed by tendon, so the server's cut replaces a local one. */
+export interface LocalTailCut extends FieldTailCut {
+  syncState: "pending" | "synced" | "conflict" | "rejected";
 }
 
 export interface LocalPour extends FieldPour {
@@ -134,6 +142,7 @@ export class FieldDb extends Dexie {
   flags!: Table<FieldFlag, string>;
   outbox!: Table<OutboxEntry, number>;
   photos!: Table<LocalPhoto, string>;
+  tailCuts!: Table<LocalTailCut, string>;
 
   constructor(name = "tautline-field", options?: DexieOptions) {
     super(name, options);
@@ -151,6 +160,7 @@ export class FieldDb extends Dexie {
       outbox: "++seq, &opId, recordId, state, authorUserId",
       photos: "id, recordId, state",
     });
+    this.version(2).stores({ tailCuts: "tendonId, id, pourId" });
   }
 }
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { FieldFlag } from "@/lib/schemas/sync";
-import { holdsOf, holdSummary, WAITING_TODO } from "./hold-view";
+import { cutClearanceOf, holdsOf, holdSummary, WAITING_TODO } from "./hold-view";
 
 const flag = (over: Partial<FieldFlag>): FieldFlag => ({
   id: crypto.randomUUID(),
@@ -77,5 +77,47 @@ describe("holdSummary", () => {
       ],
     });
     expect(holdSummary(holdsOf([flag({}), ordered]))).toBe("detension and restress ordered");
+  });
+});
+
+describe("cutClearanceOf", () => {
+  const clearCase = {
+    tendon: { ends: "both" as const },
+    records: [
+      { tendonEnd: "A" as const, syncState: "synced" as const },
+      { tendonEnd: "B" as const, syncState: "synced" as const },
+    ],
+    flags: [flag({ status: "closed" })],
+    heldOnTablet: false,
+    project: { requiredConcreteMpa: 20 },
+    pour: { concreteStrengthMpa: 25 },
+  };
+
+  it("is clear when the server has both ends, every flag is closed and the concrete gate is met", () => {
+    expect(cutClearanceOf(clearCase)).toEqual({ clear: true, reasons: [] });
+  });
+
+  it("holds a tendon with an open flag", () => {
+    expect(cutClearanceOf({ ...clearCase, flags: [flag({})] }).clear).toBe(false);
+  });
+
+  it("holds while a record waits to be sent, even with both ends read", () => {
+    const c = cutClearanceOf({
+      ...clearCase,
+      records: [clearCase.records[0]!, { tendonEnd: "B", syncState: "pending" }],
+    });
+    expect(c.clear).toBe(false);
+    expect(c.reasons).toContain("No record yet for end B.");
+  });
+
+  it("holds when the tablet's own check is out of band and no flag came yet", () => {
+    expect(cutClearanceOf({ ...clearCase, heldOnTablet: true }).reasons).toEqual([
+      "This tablet's own check puts the tendon out of band.",
+    ]);
+  });
+
+  it("holds while the concrete strength is below the requirement or the gate was never pulled", () => {
+    expect(cutClearanceOf({ ...clearCase, pour: { concreteStrengthMpa: 15 } }).clear).toBe(false);
+    expect(cutClearanceOf({ ...clearCase, project: {} }).clear).toBe(false);
   });
 });

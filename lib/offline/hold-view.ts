@@ -1,4 +1,6 @@
-import type { FieldDisposition, FieldFlag } from "@/lib/schemas/sync";
+import type { FieldDisposition, FieldFlag, FieldPour, FieldProject, FieldTendon } from "@/lib/schemas/sync";
+import { tailClearance, type Clearance } from "@/lib/stressing/tail-clearance";
+import type { LocalRecord } from "./db";
 
 /**
  * Why a tendon is held and what the crew is to do, in words, from the flags and the engineer's
@@ -66,4 +68,37 @@ export function holdSummary(holds: Hold[]): string | null {
   const ordered = holds.find((h) => h.decision && h.decision.decision !== "accept");
   if (ordered?.decision) return DECISION_WORDS[ordered.decision.decision];
   return holds.some((h) => h.status === "with_engineer") ? "with the engineer" : "waiting for the engineer";
+}
+
+/**
+ * Whether the crew may cut a tendon's tails, from what this tablet holds: the shared rule
+ * (lib/stressing/tail-clearance.ts) on the records the server has received and the flags of the
+ * last sync, held also while a record waits to be sent (the server may flag it) or the tablet's
+ * own check finds it out of band, and while the tablet does not know the concrete gate.
+ */
+export function cutClearanceOf(input: {
+  tendon: Pick<FieldTendon, "ends">;
+  records: Pick<LocalRecord, "tendonEnd" | "syncState">[];
+  flags: FieldFlag[];
+  heldOnTablet: boolean;
+  project: Pick<FieldProject, "requiredConcreteMpa">;
+  pour: Pick<FieldPour, "concreteStrengthMpa">;
+}): Clearance {
+  const received = input.records.filter((r) => r.syncState === "synced");
+  const open = input.flags.filter(isOpen);
+  const shared = tailClearance({
+    ends: input.tendon.ends,
+    recordedEnds: [...new Set(received.map((r) => r.tendonEnd))],
+    openFlags: open,
+    requiredConcreteMpa: input.project.requiredConcreteMpa ?? null,
+    concreteStrengthMpa: input.pour.concreteStrengthMpa ?? null,
+  });
+  const reasons = [...shared.reasons];
+  if (input.records.some((r) => r.syncState !== "synced"))
+    reasons.push("A record of this tendon has not reached the server yet: it judges the record first.");
+  if (input.heldOnTablet && !open.length) reasons.push("This tablet's own check puts the tendon out of band.");
+  const required = input.project.requiredConcreteMpa;
+  if (required === undefined || (required !== null && input.pour.concreteStrengthMpa === undefined))
+    reasons.push("The concrete gate is not on this tablet yet: sync with signal.");
+  return { clear: reasons.length === 0, reasons };
 }

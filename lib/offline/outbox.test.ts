@@ -1,6 +1,6 @@
 import { afterEach, describe, expect, it } from "vitest";
 import type { OpResult } from "@/lib/schemas/sync";
-import { applyPushResults, correctionOf, outboxStatus, OutboxWriteError, pendingOps, requeue, saveRecord } from "./outbox";
+import { applyPushResults, correctionOf, outboxStatus, OutboxWriteError, pendingOps, requeue, saveRecord, saveTailCuts } from "./outbox";
 import { samplePayload, testDb, TEST_USER } from "./test-support";
 
 const opened: { db: { close: () => void } }[] = [];
@@ -121,5 +121,69 @@ describe("applyPushResults", () => {
     await saveRecord(db, { ...theirs, authorName: "Other Crew", local: null, now: new Date("2026-12-02T10:00:00Z") });
     expect(await outboxStatus(db)).toMatchObject({ pending: 2, oldestPendingAt: "2026-12-02T09:00:00.000Z", attention: 0 });
     expect((await pendingOps(db, TEST_USER.userId, 10)).map((e) => e.recordId)).toEqual([mine.recordId]);
+  });
+});
+
+describe("saveTailCuts", () => {
+  const PROJECT = "0190a0b0-0000-7000-8000-0000000000aa";
+  const POUR = "0190a0b0-0000-7000-8000-0000000000bb";
+  const tendon = (id: string, tag: string) => ({
+    id,
+    projectId: PROJECT,
+    pourId: POUR,
+    tag,
+    kind: "unbonded_monostrand",
+    strandSize: "0.5 in",
+    strandCount: 1,
+    segments: [{ lengthMm: 9000, angleRad: 0 }],
+    ends: "A" as const,
+    jackGripMm: null,
+    strandLotId: null,
+  });
+  const T1 = "0190a0b0-0000-7000-8000-0000000000c1";
+  const T2 = "0190a0b0-0000-7000-8000-0000000000c2";
+  const input = (tendonIds: string[]) => ({
+    projectId: PROJECT,
+    pourId: POUR,
+    tendonIds,
+    authorUserId: TEST_USER.userId,
+    authorName: TEST_USER.name,
+    now: new Date("2026-12-02T15:00:00.000Z"),
+  });
+
+  it("writes a cut and a tails_cut op per tendon, and the server's answer marks them received", async () => {
+    const db = freshDb();
+    await db.tendons.bulkPut([tendon(T1, "U01"), tendon(T2, "U02")]);
+    const { opIds } = await saveTailCuts(db, input([T1, T2]));
+    const ops = await db.outbox.toArray();
+    expect(ops.map((o) => o.kind)).toEqual(["tails_cut", "tails_cut"]);
+    expect(ops[0]!.payload).toEqual({
+      projectId: PROJECT,
+      pourId: POUR,
+      tendonId: T1,
+      cutAt: "2026-12-02T15:00:00.000Z",
+      authorUserId: TEST_USER.userId,
+    });
+    expect((await db.tailCuts.get(T1))!).toMatchObject({ id: ops[0]!.recordId, syncState: "pending", cutByName: "Test Crew" });
+
+    const results: OpResult[] = [
+      { opId: opIds[0]!, status: "applied", tailCut: { held: false, reasons: [] } },
+      { opId: opIds[1]!, status: "applied", tailCut: { held: true, reasons: ["1 flag is still open."] } },
+    ];
+    expect(await applyPushResults(db, results)).toEqual({ confirmed: 2, attention: 0 });
+    expect(await db.outbox.count()).toBe(0);
+    expect((await db.tailCuts.get(T1))!.syncState).toBe("synced");
+    expect((await db.tailCuts.get(T2))!.heldReasons).toEqual(["1 flag is still open."]);
+  });
+
+  it("refuses a tendon already cut here or not in the pour, and then writes nothing at all", async () => {
+    const db = freshDb();
+    await db.tendons.bulkPut([tendon(T1, "U01"), tendon(T2, "U02")]);
+    await saveTailCuts(db, input([T1]));
+    await expect(saveTailCuts(db, input([T2, T1]))).rejects.toThrow("U01 are already recorded as cut");
+    await expect(saveTailCuts(db, input([crypto.randomUUID()]))).rejects.toBeInstanceOf(OutboxWriteError);
+    await expect(saveTailCuts(db, input([]))).rejects.toThrow("No tendon is clear to cut");
+    expect(await db.tailCuts.count()).toBe(1);
+    expect(await db.outbox.count()).toBe(1);
   });
 });

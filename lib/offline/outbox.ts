@@ -1,5 +1,6 @@
 import { uuidv7 } from "uuidv7";
 import type { RecordPayload } from "@/lib/schemas/record";
+import type { TailCutPayload } from "@/lib/schemas/tail-cut";
 import type { OpResult } from "@/lib/schemas/sync";
 import type { FieldDb, LocalPhoto, LocalRecord, LocalVerdict, OutboxEntry } from "./db";
 
@@ -121,7 +122,7 @@ export async function applyPushResults(
 ): Promise<{ confirmed: number; attention: number }> {
   let confirmed = 0;
   let attention = 0;
-  await db.transaction("rw", [db.outbox, db.records], async () => {
+  await db.transaction("rw", [db.outbox, db.records, db.tailCuts], async () => {
     for (const result of results) {
       const entry = await db.outbox.where("opId").equals(result.opId).first();
       if (!entry || entry.state !== "pending") continue;
@@ -132,6 +133,17 @@ export async function applyPushResults(
       }
       if (result.status === "applied" || result.status === "duplicate") {
         await db.outbox.delete(entry.seq!);
+        if (entry.kind === "tails_cut") {
+          await db.tailCuts
+            .where("id")
+            .equals(entry.recordId)
+            .modify({
+              syncState: "synced",
+              ...(result.tailCut ? { heldReasons: result.tailCut.reasons } : {}),
+            });
+          confirmed++;
+          continue;
+        }
         await db.records.update(entry.recordId, {
           syncState: "synced",
           ...(result.evaluation ? { server: result.evaluation } : {}),
@@ -147,7 +159,9 @@ export async function applyPushResults(
           },
           lastError: result.error?.message ?? null,
         });
-        await db.records.update(entry.recordId, { syncState: result.status });
+        if (entry.kind === "tails_cut")
+          await db.tailCuts.where("id").equals(entry.recordId).modify({ syncState: result.status });
+        else await db.records.update(entry.recordId, { syncState: result.status });
         attention++;
       }
     }
@@ -192,10 +206,75 @@ export async function outboxStatus(db: FieldDb): Promise<OutboxStatus> {
  * person has dealt with the cause, say by signing in as its author.
  */
 export async function requeue(db: FieldDb, opId: string): Promise<void> {
-  await db.transaction("rw", [db.outbox, db.records], async () => {
+  await db.transaction("rw", [db.outbox, db.records, db.tailCuts], async () => {
     const entry = await db.outbox.where("opId").equals(opId).first();
     if (entry?.state !== "attention") return;
     await db.outbox.update(entry.seq!, { state: "pending", status: undefined, error: undefined });
-    await db.records.update(entry.recordId, { syncState: "pending" });
+    if (entry.kind === "tails_cut")
+      await db.tailCuts.where("id").equals(entry.recordId).modify({ syncState: "pending" });
+    else await db.records.update(entry.recordId, { syncState: "pending" });
   });
+}
+
+export interface TailCutInput {
+  projectId: string;
+  pourId: string;
+  tendonIds: string[];
+  authorUserId: string;
+  authorName: string;
+  now?: Date;
+}
+
+/**
+ * Records "tails cut" on tendons (one, or every clear tendon of a pour), each with its outbox op,
+ * in one transaction. The caller passes only tendons it showed as clear; a tendon already cut
+ * here is refused, and a released pour takes cuts (cutting tails is what the release is for).
+ */
+export async function saveTailCuts(db: FieldDb, input: TailCutInput): Promise<{ opIds: string[] }> {
+  if (!input.tendonIds.length) throw new OutboxWriteError("No tendon is clear to cut. Nothing was saved.");
+  const cutAt = (input.now ?? new Date()).toISOString();
+  const opIds: string[] = [];
+  await db.transaction("rw", [db.tailCuts, db.outbox, db.tendons], async () => {
+    for (const tendonId of input.tendonIds) {
+      const tendon = await db.tendons.get(tendonId);
+      if (!tendon || tendon.pourId !== input.pourId)
+        throw new OutboxWriteError("A tendon to cut is not in this pour on this tablet. Nothing was saved.");
+      if (await db.tailCuts.get(tendonId))
+        throw new OutboxWriteError(`The tails of ${tendon.tag} are already recorded as cut. Nothing was saved.`);
+      const id = uuidv7();
+      const opId = crypto.randomUUID();
+      const payload: TailCutPayload = {
+        projectId: input.projectId,
+        pourId: input.pourId,
+        tendonId,
+        cutAt,
+        authorUserId: input.authorUserId,
+      };
+      await db.tailCuts.add({
+        id,
+        projectId: input.projectId,
+        pourId: input.pourId,
+        tendonId,
+        cutAt,
+        cutByName: input.authorName,
+        heldReasons: [],
+        syncState: "pending",
+      });
+      await db.outbox.add({
+        opId,
+        kind: "tails_cut",
+        recordId: id,
+        payload,
+        authorUserId: input.authorUserId,
+        state: "pending",
+        createdAt: cutAt,
+        attempts: 0,
+      });
+      opIds.push(opId);
+    }
+  });
+  const saved = await db.outbox.where("opId").anyOf(opIds).count();
+  if (saved !== opIds.length)
+    throw new OutboxWriteError("The tablet did not keep the tails cut. Nothing was saved; try again.");
+  return { opIds };
 }

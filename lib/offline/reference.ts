@@ -21,6 +21,7 @@ export async function applyPull(
     db.records,
     db.evaluations,
     db.flags,
+    db.tailCuts,
   ];
   await db.transaction("rw", tables, async () => {
     await db.projects.bulkPut(response.projects);
@@ -43,6 +44,8 @@ export async function applyPull(
     await db.calibrations.bulkPut(response.calibrations);
     await db.evaluations.bulkPut(response.evaluations);
     await db.flags.bulkPut(response.flags);
+    // The server's cut of a tendon replaces any cut made here (keyed by tendon).
+    await db.tailCuts.bulkPut((response.tailCuts ?? []).map((c) => ({ ...c, syncState: "synced" as const })));
 
     for (const r of response.records) {
       const mine = await db.records.get(r.id);

@@ -16,6 +16,7 @@ export const FLAG_LABELS: Record<FlagKind, string> = {
   stressed_twice: "Stressed twice",
   under_force: "Jacking force short of specified",
   seating_excess: "Seating larger than planned",
+  cut_while_held: "Tails cut while held",
 };
 
 export const flagLabel = (kind: string): string => FLAG_LABELS[kind as FlagKind] ?? kind.replaceAll("_", " ");

@@ -115,6 +115,7 @@ export const flagFilterSchema = z.object({
       "concrete_unconfirmed",
       "reading_missing",
       "stressed_twice",
+      "cut_while_held",
     ])
     .optional(),
   olderThanHours: z.coerce

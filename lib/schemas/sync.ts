@@ -6,7 +6,8 @@ import { z } from "zod";
  * key: the server answers applied | duplicate | conflict | rejected per operation.
  */
 
-export const OP_KINDS = ["create", "revise"] as const;
+/** create and revise carry a stressing record; tails_cut records a tendon's tails cut (lib/schemas/tail-cut.ts). */
+export const OP_KINDS = ["create", "revise", "tails_cut"] as const;
 export type OpKind = (typeof OP_KINDS)[number];
 
 /** "retry-later": nothing was stored for this op; the tablet keeps it and sends it again. */
@@ -24,7 +25,7 @@ export const deviceIdSchema = z
 export const syncOpSchema = z
   .object({
     opId: z.uuid({ error: "Each operation needs a UUID opId." }),
-    kind: z.enum(OP_KINDS, { error: "The kind of operation must be create or revise." }),
+    kind: z.enum(OP_KINDS, { error: "The kind of operation must be create, revise or tails_cut." }),
     recordId: z.uuid({ error: "Each operation needs the record's UUID." }),
     baseVersion: z.number().int().min(1).optional(),
     payload: z.unknown(),
@@ -73,6 +74,8 @@ export interface OpResult {
   /** The chain's current head on a conflict, so the tablet can show what it lost to. */
   headRecordId?: string;
   evaluation?: OpEvaluation;
+  /** A tails cut: whether the server found the tendon held when the cut arrived, and why. */
+  tailCut?: { held: boolean; reasons: string[] };
   error?: OpError;
 }
 
@@ -249,6 +252,18 @@ export interface FieldFlag {
   dispositions?: FieldDisposition[];
 }
 
+/** Tails cut on a tendon, as the server stored it. */
+export interface FieldTailCut {
+  id: string;
+  projectId: string;
+  pourId: string;
+  tendonId: string;
+  cutAt: string;
+  cutByName: string;
+  /** Why the tendon was held when the cut reached the server; empty when it was clear. */
+  heldReasons: string[];
+}
+
 export interface Tombstone {
   table: string;
   id: string;
@@ -266,6 +281,8 @@ export interface PullResponse {
   records: FieldRecord[];
   evaluations: FieldEvaluation[];
   flags: FieldFlag[];
+  /** Absent from servers that predate tails cut. */
+  tailCuts?: FieldTailCut[];
   removed: Tombstone[];
   /** Pours asked for that the caller may no longer take out (removed, or not on their crew). */
   unavailable: string[];

@@ -47,6 +47,7 @@ export async function pullChanges(
         records: [],
         evaluations: [],
         flags: [],
+        tailCuts: [],
         removed: [],
         unavailable: input.pourIds,
       });
@@ -63,7 +64,7 @@ export async function pullChanges(
       if (!pourIds.length) return { ...empty(), unavailable };
       const projectIds = [...new Set(found.map((p) => p.project_id))];
 
-      const [projects, pours, tendons, lots, sets, calibrations, records, evaluations, flags, removed] =
+      const [projects, pours, tendons, lots, sets, calibrations, records, evaluations, flags, tailCuts, removed] =
         await Promise.all([
           trx
             .selectFrom("projects")
@@ -246,6 +247,22 @@ export async function pullChanges(
             .where("pour_id", "in", pourIds)
             .where(since("change_xid", cursor))
             .execute(),
+          trx
+            .selectFrom("tail_cuts")
+            .innerJoin("users", "users.id", "tail_cuts.cut_by")
+            .select([
+              "tail_cuts.id",
+              "tail_cuts.project_id",
+              "tail_cuts.pour_id",
+              "tail_cuts.tendon_id",
+              "tail_cuts.cut_at",
+              "tail_cuts.held_reasons",
+              "users.name as cut_by_name",
+            ])
+            .where("tail_cuts.project_id", "in", projectIds)
+            .where("tail_cuts.pour_id", "in", pourIds)
+            .where(since("tail_cuts.change_xid", cursor))
+            .execute(),
           cursor === "0"
             ? Promise.resolve([])
             : trx
@@ -280,6 +297,7 @@ export async function pullChanges(
           name: p.name,
           level: p.level,
           plannedStressingDate: p.planned_stressing_date,
+          concreteStrengthMpa: p.concrete_strength_mpa,
           status: p.status,
           release:
             p.released_by_name && p.released_at
@@ -289,7 +307,6 @@ export async function pullChanges(
             p.last_reopened_by_name && p.last_reopened_at
               ? { by: p.last_reopened_by_name, at: new Date(p.last_reopened_at).toISOString(), reason: p.last_reopen_reason ?? "" }
               : null,
-          concreteStrengthMpa: p.concrete_strength_mpa,
         })),
         tendons: tendons.map((t) => ({
           id: t.id,
@@ -380,6 +397,15 @@ export async function pullChanges(
             engineerName: d.engineer_name,
             createdAt: new Date(d.created_at).toISOString(),
           })),
+        })),
+        tailCuts: tailCuts.map((c) => ({
+          id: c.id,
+          projectId: c.project_id,
+          pourId: c.pour_id,
+          tendonId: c.tendon_id,
+          cutAt: new Date(c.cut_at).toISOString(),
+          cutByName: c.cut_by_name,
+          heldReasons: c.held_reasons,
         })),
         removed: removed.map((r) => ({ table: r.table_name, id: r.row_id })),
         unavailable,

@@ -19,6 +19,7 @@ import {
   type EvaluatedRecord,
 } from "./evaluate-tendon";
 import { auditInsert, recordAudit } from "./record-audit";
+import { recordTailCut } from "./record-tail-cut";
 import { isReleasedPourRefusal, RELEASED_POUR_MESSAGE } from "./require-open-pour";
 
 /**
@@ -417,6 +418,7 @@ async function applyOp(
   op: SyncOp,
 ): Promise<OpResult> {
   const { user } = input;
+  if (op.kind === "tails_cut") return answered(op, await recordTailCut(db, input, op), input.hooks);
   const checked = precheck(op, user);
   if ("status" in checked) {
     if (checked.error?.code === "FORBIDDEN" || checked.error?.code === "NOT_FOUND") {
@@ -432,20 +434,23 @@ async function applyOp(
   }
   for (let attempt = 1; ; attempt++) {
     const result = await attemptOp(db, input, op, checked.payload, checked.day, attempt);
-    if (result !== RETRY) {
-      if (result.status === "applied" && input.hooks?.afterCommit) {
-        try {
-          await input.hooks.afterCommit(op, result);
-        } catch (error) {
-          throw new AnswerLost(error);
-        }
-      }
-      return result;
-    }
+    if (result !== RETRY) return answered(op, result, input.hooks);
     if (attempt >= MAX_ATTEMPTS)
       throw new Error(`op ${op.opId}: the tendon kept changing under ${MAX_ATTEMPTS} attempts`);
     await sleep(Math.random() * 5 * attempt);
   }
+}
+
+/** Calls the afterCommit hook for an applied op; a failure there stands for a lost answer. */
+async function answered(op: SyncOp, result: OpResult, hooks: PushHooks | undefined): Promise<OpResult> {
+  if (result.status === "applied" && hooks?.afterCommit) {
+    try {
+      await hooks.afterCommit(op, result);
+    } catch (error) {
+      throw new AnswerLost(error);
+    }
+  }
+  return result;
 }
 
 function refProblem(

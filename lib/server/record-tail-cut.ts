@@ -1,0 +1,230 @@
+import "server-only";
+import type { Kysely } from "kysely";
+import type { Database } from "@/db/types";
+import { can } from "@/lib/auth/permissions";
+import { zodFields } from "@/lib/schemas/zod-fields";
+import type { OpResult, SyncOp } from "@/lib/schemas/sync";
+import { tailCutPayloadSchema } from "@/lib/schemas/tail-cut";
+import { tailClearance } from "@/lib/stressing/tail-clearance";
+import { inTransaction } from "./in-transaction";
+import { auditInsert, recordAudit } from "./record-audit";
+
+/**
+ * Records "tails cut" on a tendon from the tablet's outbox (op kind tails_cut), exactly once:
+ * the op id is claimed in applied_ops in the same transaction as the cut, so a second delivery
+ * answers "duplicate" with the stored result. One cut per tendon: a cut of a tendon already cut
+ * (another tablet, or the same cut under a new op id) is a duplicate too.
+ *
+ * The server decides the clearance again from what it holds (open flags, an end without a
+ * record, the concrete gate). A cut of a held tendon is a fact on the slab, so it is stored all
+ * the same, with why the tendon was held, and raises a flag (cut_while_held) for the inspector
+ * and the engineer. A released pour accepts cuts: cutting tails is what the release is for.
+ */
+
+type Db = Kysely<Database>;
+
+export interface TailCutter {
+  id: string;
+  memberships: { projectId: string; role: Parameters<typeof can>[0] }[];
+}
+
+const rejected = (op: SyncOp, code: string, message: string, fields?: Record<string, string[]>): OpResult => ({
+  opId: op.opId,
+  status: "rejected",
+  error: { code, message, ...(fields ? { fields } : {}) },
+});
+
+interface StoredResult {
+  tailCut?: { held: boolean; reasons: string[] };
+}
+
+export async function recordTailCut(
+  db: Db,
+  input: { user: TailCutter; deviceId: string },
+  op: SyncOp,
+): Promise<OpResult> {
+  const { user, deviceId } = input;
+  const parsed = tailCutPayloadSchema.safeParse(op.payload);
+  if (!parsed.success) {
+    const fields = zodFields(parsed.error);
+    return rejected(op, "INVALID_INPUT", `Check the tails cut: ${Object.keys(fields).join(", ")}.`, fields);
+  }
+  const p = parsed.data;
+  if (op.baseVersion !== undefined)
+    return rejected(op, "INVALID_INPUT", "A tails cut is never a correction: send it without a base version.", {
+      baseVersion: ["Not allowed on a tails cut."],
+    });
+  const membership = user.memberships.find((m) => m.projectId === p.projectId);
+  if (!membership || !can(membership.role, "record.create")) {
+    const result = membership
+      ? rejected(op, "FORBIDDEN", `Your role on this project (${membership.role}) does not allow recording tails cut.`)
+      : rejected(op, "NOT_FOUND", "No such project among yours.");
+    await recordAudit(db, {
+      action: "tails.cut",
+      outcome: "denied",
+      actorUserId: user.id,
+      target: op.recordId,
+      detail: { opId: op.opId, reason: result.error!.message },
+    });
+    return result;
+  }
+  if (p.authorUserId !== user.id)
+    return rejected(
+      op,
+      "FORBIDDEN",
+      "This tails cut was recorded by another person on this tablet; it is sent when they sign in.",
+      {
+        authorUserId: ["Not the signed-in person."],
+      },
+    );
+
+  return inTransaction(db, async (trx) => {
+    const claim = await trx
+      .selectFrom("applied_ops")
+      .select(["user_id", "result"])
+      .where("op_id", "=", op.opId)
+      .executeTakeFirst();
+    if (claim) return duplicateOf(op, user, claim);
+
+    const tendon = await trx
+      .selectFrom("tendons")
+      .innerJoin("pours", (j) =>
+        j.onRef("pours.id", "=", "tendons.pour_id").onRef("pours.project_id", "=", "tendons.project_id"),
+      )
+      .innerJoin("projects", "projects.id", "tendons.project_id")
+      .select([
+        "tendons.id",
+        "tendons.tag",
+        "tendons.pour_id",
+        "tendons.ends",
+        "pours.concrete_strength_mpa",
+        "projects.required_concrete_mpa",
+      ])
+      .where("tendons.project_id", "=", p.projectId)
+      .where("tendons.id", "=", p.tendonId)
+      // Two cuts of one tendon are decided one after the other (no key lock: records still insert).
+      .forNoKeyUpdate("tendons")
+      .executeTakeFirst();
+    if (!tendon)
+      return rejected(op, "NOT_FOUND", "No such tendon on this project.", {
+        tendonId: ["Not a tendon of this project."],
+      });
+    if (tendon.pour_id !== p.pourId)
+      return rejected(op, "INVALID_INPUT", "The tendon is not in that pour.", { pourId: ["Not the tendon's pour."] });
+
+    const existing = await trx
+      .selectFrom("tail_cuts")
+      .select(["id", "tendon_id"])
+      .where((eb) => eb.or([eb("tendon_id", "=", p.tendonId), eb("id", "=", op.recordId)]))
+      .execute();
+    if (existing.some((c) => c.tendon_id !== p.tendonId))
+      return {
+        opId: op.opId,
+        status: "conflict",
+        error: {
+          code: "CONFLICT",
+          message: "This tails cut id is already used for another tendon; nothing was saved.",
+        },
+      };
+
+    const [ends, openFlags, person] = await Promise.all([
+      trx
+        .selectFrom("records")
+        .select("tendon_end")
+        .distinct()
+        .where("project_id", "=", p.projectId)
+        .where("tendon_id", "=", p.tendonId)
+        .execute(),
+      trx
+        .selectFrom("flags")
+        .select("kind")
+        .where("project_id", "=", p.projectId)
+        .where("tendon_id", "=", p.tendonId)
+        .where("status", "!=", "closed")
+        .execute(),
+      trx.selectFrom("users").select("name").where("id", "=", user.id).executeTakeFirstOrThrow(),
+    ]);
+    const clearance = tailClearance({
+      ends: tendon.ends,
+      recordedEnds: ends.map((e) => e.tendon_end),
+      openFlags,
+      requiredConcreteMpa: tendon.required_concrete_mpa,
+      concreteStrengthMpa: tendon.concrete_strength_mpa,
+    });
+    const alreadyCut = existing.length > 0;
+    const stored: StoredResult = {
+      tailCut: { held: !alreadyCut && !clearance.clear, reasons: alreadyCut ? [] : clearance.reasons },
+    };
+
+    const claimed = await trx
+      .insertInto("applied_ops")
+      .values({
+        op_id: op.opId,
+        project_id: p.projectId,
+        device_id: deviceId,
+        user_id: user.id,
+        kind: op.kind,
+        record_id: op.recordId,
+        status: "applied",
+        result: JSON.stringify(stored),
+      })
+      .onConflict((oc) => oc.column("op_id").doNothing())
+      .returning("op_id")
+      .executeTakeFirst();
+    if (!claimed) {
+      // A concurrent delivery of the same op committed first.
+      const again = await trx
+        .selectFrom("applied_ops")
+        .select(["user_id", "result"])
+        .where("op_id", "=", op.opId)
+        .executeTakeFirstOrThrow();
+      return duplicateOf(op, user, again);
+    }
+    // The tendon's tails are already cut (recorded from elsewhere): nothing more to store.
+    if (alreadyCut) return { opId: op.opId, status: "duplicate", ...stored };
+
+    await trx
+      .insertInto("tail_cuts")
+      .values({
+        id: op.recordId,
+        project_id: p.projectId,
+        pour_id: p.pourId,
+        tendon_id: p.tendonId,
+        cut_by: user.id,
+        cut_at: p.cutAt,
+        device_id: deviceId,
+        held_reasons: clearance.reasons,
+      })
+      .execute();
+    if (!clearance.clear) {
+      await trx
+        .insertInto("flags")
+        .values({
+          project_id: p.projectId,
+          pour_id: p.pourId,
+          tendon_id: p.tendonId,
+          record_id: null,
+          evaluation_id: null,
+          kind: "cut_while_held",
+          reason: `Tails of ${tendon.tag} were cut by ${person.name} at ${new Date(p.cutAt).toISOString()} while the tendon was held: ${clearance.reasons.join(" ")}`,
+          created_at: new Date(),
+        })
+        .execute();
+    }
+    await auditInsert(trx, {
+      action: "tails.cut",
+      outcome: "success",
+      actorUserId: user.id,
+      projectId: p.projectId,
+      target: p.tendonId,
+      detail: { opId: op.opId, tailCutId: op.recordId, held: !clearance.clear, deviceId },
+    }).execute();
+    return { opId: op.opId, status: "applied", ...stored };
+  });
+}
+
+function duplicateOf(op: SyncOp, user: TailCutter, claim: { user_id: string; result: unknown }): OpResult {
+  if (claim.user_id !== user.id) return rejected(op, "CONFLICT", "This operation id was already used by someone else.");
+  const result = claim.result as StoredResult;
+  return { opId: op.opId, status: "duplicate", ...(result.tailCut ? { tailCut: result.tailCut } : {}) };
+}

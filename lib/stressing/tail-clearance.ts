@@ -1,0 +1,44 @@
+/**
+ * Whether a tendon's strand tails may be cut: a step nobody can take back. Pure, so the tablet
+ * (from what it pulled) and the server (when a cut arrives) decide with the same rule.
+ *
+ * Clear only when every flag on the tendon is closed, every end the schedule stresses has a
+ * record, and the concrete gate is met (the same gate as the concrete rule: the pour's confirmed
+ * strength at least the project's required strength; no requirement set means no gate).
+ */
+
+export type TendonEnds = "A" | "B" | "both";
+
+export interface ClearanceInput {
+  ends: TendonEnds;
+  /** Ends that have at least one stored record. */
+  recordedEnds: readonly ("A" | "B")[];
+  /** Flags on the tendon that are not closed. */
+  openFlags: readonly { kind: string }[];
+  requiredConcreteMpa: number | null;
+  concreteStrengthMpa: number | null;
+}
+
+export interface Clearance {
+  clear: boolean;
+  /** Why the tendon is held, in words; empty when clear. */
+  reasons: string[];
+}
+
+export const scheduledEnds = (ends: TendonEnds): ("A" | "B")[] => (ends === "both" ? ["A", "B"] : [ends]);
+
+export function tailClearance(input: ClearanceInput): Clearance {
+  const reasons: string[] = [];
+  const open = input.openFlags.length;
+  if (open) reasons.push(open === 1 ? "1 flag is still open." : `${open} flags are still open.`);
+  const missing = scheduledEnds(input.ends).filter((e) => !input.recordedEnds.includes(e));
+  if (missing.length) reasons.push(`No record yet for end ${missing.join(" and ")}.`);
+  const required = input.requiredConcreteMpa;
+  if (required !== null) {
+    const strength = input.concreteStrengthMpa;
+    if (strength === null) reasons.push(`Concrete strength not confirmed (${required} MPa required).`);
+    else if (strength < required)
+      reasons.push(`Confirmed concrete strength ${strength} MPa is below the ${required} MPa required.`);
+  }
+  return { clear: reasons.length === 0, reasons };
+}
