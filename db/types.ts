@@ -63,6 +63,7 @@ export interface ProjectsTable {
   jacking_force_factor: Generated<number>;
   under_force_pct: Generated<number>;
   seating_excess_mm: Generated<number>;
+  governing_value: Generated<"tautline" | "shop_drawing">;
   created_at: Timestamp;
   updated_at: Timestamp;
 }

@@ -39,6 +39,7 @@ function fields(us: boolean) {
       jackingForceFactor: units.number(),
       underForcePct: units.number(),
       seatingExcessMm: units.length(system, us ? "in" : "mm"),
+      governing: z.enum(["tautline", "shop_drawing"]),
   };
 }
 
@@ -108,6 +109,7 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
       jackingForceFactor: String(settings.jackingForceFactor ?? 0.8),
       underForcePct: String(settings.underForcePct ?? 2),
       seatingExcessMm: shown(settings.seatingExcessMm ?? 3.175, PER[len]),
+      governing: settings.governing ?? "tautline",
     },
   });
   const err = (k: keyof FormIn | "wobblePerM") => (form.formState.errors as Record<string, { message?: string } | undefined>)[k]?.message;
@@ -193,6 +195,17 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
           <select className="field-input" {...reg("comparisonBasis")}>
             <option value="gross">Ram travel (gross, with the strand inside the jack)</option>
             <option value="net">Marks read after lock-off (net of anchor set)</option>
+          </select>
+        </Row>
+        <Row
+          id="s-governing"
+          label="Elongation the verdict is judged against"
+          hint="The shop drawing's value is taken as the whole tendon's, stated on the usual reading method's basis above. Both values are always shown with their difference."
+          error={err("governing")}
+        >
+          <select className="field-input" {...reg("governing")}>
+            <option value="tautline">Tautline&rsquo;s prediction</option>
+            <option value="shop_drawing">Approved shop drawing (where the schedule gives one)</option>
           </select>
         </Row>
       </fieldset>

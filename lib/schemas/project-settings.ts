@@ -90,6 +90,11 @@ export const projectSettingsSchema = z.object({
     .min(0, "The threshold cannot be negative.")
     .lt(50, "The threshold must be below 50 mm (2 in).")
     .optional(),
+  governing: z
+    .enum(["tautline", "shop_drawing"], {
+      error: "Pick which elongation governs the verdict: Tautline's prediction or the approved shop drawing.",
+    })
+    .optional(),
 });
 export type ProjectSettings = z.infer<typeof projectSettingsSchema>;
 

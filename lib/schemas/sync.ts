@@ -126,6 +126,8 @@ export interface FieldProject {
   jackingForceFactor?: number;
   underForcePct?: number;
   seatingExcessMm?: number;
+  /** Which prediction governs the verdict (projectBasisFromRow names it `governing`). */
+  governing?: "tautline" | "shop_drawing";
 }
 
 export interface FieldPour {
@@ -154,6 +156,8 @@ export interface FieldTendon {
   ends: "A" | "B" | "both";
   jackGripMm: number | null;
   strandLotId: string | null;
+  /** The approved shop-drawing elongation of the whole tendon, when the schedule gives one. */
+  shopElongationMm?: number | null;
 }
 
 export interface FieldStrandLot {

@@ -21,7 +21,7 @@ import { flagMail } from "@/lib/mail/templates";
 import type { JudgeInput, JudgeRecord } from "@/lib/stressing/judge";
 import { judgeAndFlag } from "@/lib/stressing/rules";
 import { answeredOrder } from "@/lib/stressing/rules/stressed-twice";
-import { showLength, showPct } from "@/lib/stressing/display";
+import { governsLine, showLength, showPct } from "@/lib/stressing/display";
 import { selectTendonBasis, toLoadedTendon, type LoadedTendon } from "./load-tendon-basis";
 
 /**
@@ -365,6 +365,7 @@ export function planEvaluation(
       lot: basis.lot,
       jackingForceN: judgement.specifiedForceN,
       order: judgement.order,
+      governs: judgement.governs,
       pour: { id: pour.id, concreteStrengthMpa: pour.concreteStrengthMpa },
       readings,
       calibrations: usedCalibrations,
@@ -375,6 +376,9 @@ export function planEvaluation(
       grossMm: judgement.grossMm,
       netMm: judgement.netMm,
       shopDrawing: judgement.shopDrawing,
+      governs: judgement.governs,
+      governsNote: judgement.governsNote,
+      governsLine: governsLine(project, judgement),
       predictedMm,
       comparison: judgement.comparison,
       incomplete: judgement.incomplete,
@@ -439,7 +443,8 @@ export function planEvaluation(
       basisLine:
         `Compared ${judgement.basisLabel}, ±${project.tolerancePct} % band, ` +
         `μ ${project.frictionMu}, K ${project.wobblePerM.toFixed(4)} per m, anchor set ${showLength(project, project.anchorSetMm)}, ` +
-        `${judgement.strand.source === "strand lot" ? `strand lot ${basis.lot?.lotNumber}` : "nominal strand values"}.`,
+        `${judgement.strand.source === "strand lot" ? `strand lot ${basis.lot?.lotNumber}` : "nominal strand values"}. ` +
+        governsLine(project, judgement),
       url: `${env.APP_URL}/projects/${input.projectId}/tendons/${input.tendonId}/flags`,
     });
     notification = {

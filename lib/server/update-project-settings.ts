@@ -17,6 +17,7 @@ const JUDGING_COLUMNS = [
   "jacking_force_factor",
   "under_force_pct",
   "seating_excess_mm",
+  "governing_value",
 ] as const;
 
 export async function updateProjectSettings(
@@ -58,6 +59,7 @@ export async function updateProjectSettings(
         ...(v.jackingForceFactor !== undefined && { jacking_force_factor: v.jackingForceFactor }),
         ...(v.underForcePct !== undefined && { under_force_pct: v.underForcePct }),
         ...(v.seatingExcessMm !== undefined && { seating_excess_mm: v.seatingExcessMm }),
+        ...(v.governing !== undefined && { governing_value: v.governing }),
         updated_at: new Date(),
       })
       .where("id", "=", input.projectId)

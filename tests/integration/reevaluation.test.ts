@@ -130,6 +130,72 @@ describe("re-evaluation when the project's basis changes", () => {
     expect(same.reevaluated).toBe(0);
   });
 
+  it("choosing the shop drawing to govern judges again against it, and back", async () => {
+    // Follows the case above: 2-1-U06 read 6 % long against Tautline's prediction, in the ±7 % band.
+    const tendon = await fx.tendon("2-1-U06");
+    const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tendon.id });
+    const ours = judgeStressing({
+      project: basis.project,
+      tendon: basis.tendon,
+      lot: basis.lot,
+      sets: [],
+      records: [],
+    });
+    const oursOnBasis = basis.project.comparisonBasis === "net" ? ours.netMm : ours.grossMm;
+    // A shop drawing 10 % below ours (our test value): the same reading is then well over the band.
+    await t.db
+      .updateTable("tendons")
+      .set({ shop_elongation_mm: 0.9 * oursOnBasis })
+      .where("id", "=", tendon.id)
+      .execute();
+    const settings = await getProjectSettings(t.db, fx.projectId);
+    expect(settings.governing).toBe("tautline");
+    const preview = await previewBasisChange(t.db, { projectId: fx.projectId, basis: { governing: "shop_drawing" } });
+    expect(preview.tags).toContain("2-1-U06");
+
+    const toShop = await updateProjectSettings(t.db, {
+      projectId: fx.projectId,
+      values: { ...settings, governing: "shop_drawing" },
+      by: fx.crewId,
+    });
+    expect(toShop.reevaluated).toBe(preview.stressed);
+    const latest = () =>
+      t.db
+        .selectFrom("evaluations")
+        .select(["verdict", "reason", "deviation_pct", "result", "inputs"])
+        .where("tendon_id", "=", tendon.id)
+        .orderBy("created_at", "desc")
+        .executeTakeFirstOrThrow();
+    const judged = await latest();
+    expect(judged.reason).toBe("project settings changed: governing value");
+    expect(judged.verdict).toBe("long");
+    expect(judged.deviation_pct!).toBeGreaterThan(15);
+    expect(judged.inputs).toMatchObject({ governs: "shop drawing" });
+    const result = judged.result as { shopDrawing: { differencePct: number }; governsLine: string };
+    expect(result.shopDrawing.differencePct).toBeCloseTo(-10, 9);
+    expect(result.governsLine).toMatch(
+      /^The approved shop drawing governs\. Shop drawing .* Tautline .*difference −.*−10\.0 %/,
+    );
+    const open = await t.db
+      .selectFrom("flags")
+      .select(["kind", "reason"])
+      .where("tendon_id", "=", tendon.id)
+      .where("status", "=", "open")
+      .execute();
+    expect(open.map((f) => f.kind)).toContain("out_of_band");
+
+    const back = await updateProjectSettings(t.db, {
+      projectId: fx.projectId,
+      values: { ...settings, governing: "tautline" },
+      by: fx.crewId,
+    });
+    expect(back.closedFlags).toBeGreaterThanOrEqual(1);
+    const again = await latest();
+    expect(again.verdict).toBe("in band");
+    expect(again.deviation_pct!).toBeCloseTo(6, 6);
+    expect(again.inputs).toMatchObject({ governs: "tautline" });
+  });
+
   it("a calibration added to a set judges again the tendons whose records named none", async () => {
     const tendon = await fx.tendon("2-1-U08");
     const c = await t.db
