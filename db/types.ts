@@ -278,7 +278,8 @@ export type FlagKind =
   | "reading_missing"
   | "stressed_twice"
   | "under_force"
-  | "seating_excess";
+  | "seating_excess"
+  | "group_out_of_band";
 export type FlagStatus = "open" | "with_engineer" | "closed";
 
 export interface FlagsTable {

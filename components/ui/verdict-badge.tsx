@@ -37,6 +37,7 @@ const FLAG_LABELS: Record<string, string> = {
   concrete_unconfirmed: "Concrete strength not confirmed",
   reading_missing: "Reading missing",
   stressed_twice: "Stressed twice",
+  group_out_of_band: "Group average out of band",
 };
 
 export const flagLabel = (kind: string) => FLAG_LABELS[kind] ?? kind;

@@ -18,6 +18,7 @@ const JUDGING_COLUMNS = [
   "under_force_pct",
   "seating_excess_mm",
   "governing_value",
+  "group_tolerance_pct",
 ] as const;
 
 export async function updateProjectSettings(

@@ -114,6 +114,14 @@ export interface JudgeInput {
   /** Every revision of every record of the tendon. */
   records: JudgeRecord[];
   dispositions?: { id: string; flagId: string; decision: string; createdAt: string | Date }[];
+  /**
+   * The other tendons of this tendon's group (its pour) with the deviation of their latest complete,
+   * non-provisional evaluation (null when they have none yet), for the group-average band.
+   */
+  group?: {
+    label: string;
+    tendons: { tendonId: string; tag: string; deviationPct: number | null; lastStressedAt: string | Date | null }[];
+  };
 }
 
 export type EndRole = "one end" | "first end" | "second end" | "simultaneous";
