@@ -64,6 +64,7 @@ export interface ProjectsTable {
   under_force_pct: Generated<number>;
   seating_excess_mm: Generated<number>;
   clock_skew_minutes: Generated<number>;
+  governing_value: Generated<"tautline" | "shop_drawing">;
   created_at: Timestamp;
   updated_at: Timestamp;
 }
@@ -292,7 +293,8 @@ export type FlagKind =
   | "stressed_twice"
   | "under_force"
   | "seating_excess"
-  | "cut_while_held";
+  | "cut_while_held"
+  | "group_out_of_band";
 export type FlagStatus = "open" | "with_engineer" | "closed";
 
 export interface FlagsTable {

@@ -72,6 +72,7 @@ export function VerdictPanel({ project, local, server, targetMPa }: { project: F
             </p>
           )}
           {local.basisLabel && <p data-testid="basis">Compared {local.basisLabel}.</p>}
+          {local.governsLine && <p data-testid="governs">{local.governsLine}</p>}
           {local.forces?.length && local.specifiedForceN ? (
             <p data-testid="forces">
               Specified {showForce(u, local.specifiedForceN)}

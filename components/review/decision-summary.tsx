@@ -18,6 +18,8 @@ export function DecisionSummary({ c, flagId, timeZone }: { c: TendonCase; flagId
   const p = c.basis.project;
   const flag = c.flags.find((f) => f.id === flagId) ?? c.flags.find((f) => f.status !== "closed") ?? c.flags.at(-1);
   const judgement = (c.evaluation?.result as { judgement?: Judgement | null } | undefined)?.judgement ?? null;
+  // Which prediction governed, with the shop drawing's value beside Tautline's (evaluations since the project chooses).
+  const governs = (c.evaluation?.result as { governsLine?: unknown } | undefined)?.governsLine;
   const figures: [string, string][] = [];
   if (c.predicted) figures.push([`Predicted (${p.comparisonBasis === "net" ? "net" : "gross"})`, showComputedLength(p, c.predicted.predictedMm)]);
   if (judgement) {
@@ -50,6 +52,7 @@ export function DecisionSummary({ c, flagId, timeZone }: { c: TendonCase; flagId
           ))}
         </dl>
       )}
+      {typeof governs === "string" && <p data-testid="governs">{governs}</p>}
     </section>
   );
 }

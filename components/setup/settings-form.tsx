@@ -40,6 +40,7 @@ function fields(us: boolean) {
       underForcePct: units.number(),
       seatingExcessMm: units.length(system, us ? "in" : "mm"),
       clockSkewMinutes: units.number(),
+      governing: z.enum(["tautline", "shop_drawing"]),
   };
 }
 
@@ -111,6 +112,7 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
       underForcePct: String(settings.underForcePct ?? 2),
       seatingExcessMm: shown(settings.seatingExcessMm ?? 3.175, PER[len]),
       clockSkewMinutes: String(settings.clockSkewMinutes ?? 10),
+      governing: settings.governing ?? "tautline",
     },
   });
   const err = (k: keyof FormIn | "wobblePerM") => (form.formState.errors as Record<string, { message?: string } | undefined>)[k]?.message;
@@ -196,6 +198,17 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
           <select className="field-input" {...reg("comparisonBasis")}>
             <option value="gross">Ram travel (gross, with the strand inside the jack)</option>
             <option value="net">Marks read after lock-off (net of anchor set)</option>
+          </select>
+        </Row>
+        <Row
+          id="s-governing"
+          label="Elongation the verdict is judged against"
+          hint="The shop drawing's value is taken as the whole tendon's, stated on the usual reading method's basis above. Both values are always shown with their difference."
+          error={err("governing")}
+        >
+          <select className="field-input" {...reg("governing")}>
+            <option value="tautline">Tautline&rsquo;s prediction</option>
+            <option value="shop_drawing">Approved shop drawing (where the schedule gives one)</option>
           </select>
         </Row>
       </fieldset>

@@ -11,9 +11,12 @@ import * as appRole from "./2026-12-10T040000-app-role";
 import * as heartbeatAndSessionVersion from "./2026-12-10T040100-dispatcher-heartbeat-and-session-version";
 import * as hotPathIndexes from "./2026-12-10T060000-hot-path-indexes";
 import * as lateAppendOnlyTables from "./2026-12-10T070000-late-append-only-tables";
+import * as governingValue from "./2026-12-10T110000-governing-value";
+import * as groupAverageBand from "./2026-12-10T110100-group-average-band";
 import * as tailCuts from "./2026-12-10T120000-tail-cuts";
 import * as concreteResults from "./2026-12-10T130000-concrete-results";
 import * as clockSkewThreshold from "./2026-12-10T140000-clock-skew-threshold";
+import * as allFlagKinds from "./2026-12-10T160000-all-flag-kinds";
 
 // A static index: vitest and bundlers cannot import .ts migrations from a folder scan.
 // Keys sort in time order; append new migrations at the end.
@@ -30,7 +33,10 @@ export const migrations: Record<string, Migration> = {
   "2026-12-10T040100-dispatcher-heartbeat-and-session-version": heartbeatAndSessionVersion,
   "2026-12-10T060000-hot-path-indexes": hotPathIndexes,
   "2026-12-10T070000-late-append-only-tables": lateAppendOnlyTables,
+  "2026-12-10T110000-governing-value": governingValue,
+  "2026-12-10T110100-group-average-band": groupAverageBand,
   "2026-12-10T120000-tail-cuts": tailCuts,
   "2026-12-10T130000-concrete-results": concreteResults,
   "2026-12-10T140000-clock-skew-threshold": clockSkewThreshold,
+  "2026-12-10T160000-all-flag-kinds": allFlagKinds,
 };

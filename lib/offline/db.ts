@@ -47,6 +47,8 @@ export interface LocalVerdict {
   specifiedForceN?: number;
   /** The reading division alone could flip the verdict: read again, finer, before it is final. */
   reread?: boolean;
+  /** Which prediction governed, and the shop drawing's value beside Tautline's, in words. */
+  governsLine?: string;
 }
 
 export interface LocalRecord extends RecordPayload {

@@ -1,4 +1,5 @@
 import { predictTendon, stressedEnds, targetPressureMPa, type CalibrationLine } from "@/lib/stressing/basis";
+import { governsLine } from "@/lib/stressing/display";
 import { judgeAndFlag } from "@/lib/stressing/rules";
 import { stressingDay, type JudgeInput, type JudgeRecord } from "@/lib/stressing/judge";
 import type { FieldCalibration, FieldEquipmentSet, FieldEvaluation, FieldFlag, FieldProject, FieldStrandLot, FieldTendon } from "@/lib/schemas/sync";
@@ -129,5 +130,6 @@ export function provisionalVerdict(ctx: TendonContext & { sets?: FieldEquipmentS
     forces: j.ends.map((e) => ({ end: e.end, gaugeForceN: e.gaugeForceN, impliedForceN: e.impliedForceN, role: e.role })),
     specifiedForceN: j.specifiedForceN,
     reread: j.divisionCouldFlip,
+    governsLine: governsLine({ unitSystem: ctx.project.unitSystem, readingResolution: ctx.project.readingResolution as "1/8in" | "1/16in" | "1mm" }, j),
   };
 }

@@ -96,6 +96,11 @@ export const projectSettingsSchema = z.object({
     .min(1, "The clock check must be at least 1 minute.")
     .max(1440, "The clock check must be at most 1440 minutes (a day).")
     .optional(),
+  governing: z
+    .enum(["tautline", "shop_drawing"], {
+      error: "Pick which elongation governs the verdict: Tautline's prediction or the approved shop drawing.",
+    })
+    .optional(),
 });
 export type ProjectSettings = z.infer<typeof projectSettingsSchema>;
 

@@ -131,6 +131,8 @@ export interface FieldProject {
   seatingExcessMm?: number;
   /** The concrete strength the project requires before stressing (MPa), null when it sets none. */
   requiredConcreteMpa?: number | null;
+  /** Which prediction governs the verdict (projectBasisFromRow names it `governing`). */
+  governing?: "tautline" | "shop_drawing";
 }
 
 export interface FieldPour {
@@ -161,6 +163,8 @@ export interface FieldTendon {
   ends: "A" | "B" | "both";
   jackGripMm: number | null;
   strandLotId: string | null;
+  /** The approved shop-drawing elongation of the whole tendon, when the schedule gives one. */
+  shopElongationMm?: number | null;
 }
 
 export interface FieldStrandLot {

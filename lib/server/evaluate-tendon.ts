@@ -21,7 +21,7 @@ import { flagMail } from "@/lib/mail/templates";
 import type { JudgeInput, JudgeRecord } from "@/lib/stressing/judge";
 import { judgeAndFlag } from "@/lib/stressing/rules";
 import { answeredOrder } from "@/lib/stressing/rules/stressed-twice";
-import { showLength, showPct } from "@/lib/stressing/display";
+import { governsLine, showLength, showPct } from "@/lib/stressing/display";
 import { selectTendonBasis, toLoadedTendon, type LoadedTendon } from "./load-tendon-basis";
 
 /**
@@ -113,6 +113,8 @@ export interface TendonState {
   dispositions: { id: string; flag_id: string; decision: Decision; created_at: Date }[];
   /** The tendon's version as read with the rest (0 before its first record). */
   version: number;
+  /** The pour's other tendons (read when the project sets a group band). */
+  group?: { id: string; tag: string; deviation_pct: number | null; last_stressed_at: string | Date | null }[];
 }
 
 /**
@@ -196,6 +198,38 @@ export function selectTendonState(
         .where("dispositions.project_id", "=", projectId)
         .where("dispositions.tendon_id", "=", tendonId),
     ).as("dispositions"),
+    // The other tendons of the pour, for the group-average band (read only when the project sets
+    // one): the deviation of each one's latest evaluation when complete, and when it was stressed last.
+    jsonArrayFrom(
+      eb
+        .selectFrom("tendons as g")
+        .select((g) => [
+          "g.id",
+          "g.tag",
+          g
+            .selectFrom("evaluations as ev")
+            .select(
+              sql<
+                number | null
+              >`case when ev.provisional or ev.verdict = 'incomplete' then null else ev.deviation_pct end`.as("d"),
+            )
+            .where("ev.project_id", "=", projectId)
+            .whereRef("ev.tendon_id", "=", "g.id")
+            .orderBy("ev.created_at", "desc")
+            .limit(1)
+            .as("deviation_pct"),
+          g
+            .selectFrom("records as gr")
+            .select((m) => m.fn.max("gr.device_time").as("t"))
+            .where("gr.project_id", "=", projectId)
+            .whereRef("gr.tendon_id", "=", "g.id")
+            .as("last_stressed_at"),
+        ])
+        .where("g.project_id", "=", projectId)
+        .whereRef("g.pour_id", "=", "tendons.pour_id")
+        .where("g.id", "!=", tendonId)
+        .where(sql<boolean>`projects.group_tolerance_pct is not null`),
+    ).as("group"),
     eb
       .selectFrom("tendon_versions")
       .select("tendon_versions.version")
@@ -227,6 +261,7 @@ export function stateFromRow(row: StateRow, adding?: EvaluatedRecord): TendonSta
       .map((d) => ({ ...d, created_at: new Date(d.created_at) }))
       .sort((a, b) => +a.created_at - +b.created_at),
     version: row.version ?? 0,
+    group: row.group,
   };
 }
 
@@ -306,6 +341,15 @@ export function judgeInputFromState(state: TendonState): JudgeInput {
       decision: d.decision,
       createdAt: d.created_at,
     })),
+    group: {
+      label: `pour ${pour.name}`,
+      tendons: (state.group ?? []).map((g) => ({
+        tendonId: g.id,
+        tag: g.tag,
+        deviationPct: g.deviation_pct,
+        lastStressedAt: g.last_stressed_at,
+      })),
+    },
   };
 }
 
@@ -379,6 +423,7 @@ export function planEvaluation(
       lot: basis.lot,
       jackingForceN: judgement.specifiedForceN,
       order: judgement.order,
+      governs: judgement.governs,
       pour: { id: pour.id, concreteStrengthMpa: pour.concreteStrengthMpa, concreteFlagOpen: state.pourConcreteFlagOpen ?? false },
       readings,
       calibrations: usedCalibrations,
@@ -389,6 +434,9 @@ export function planEvaluation(
       grossMm: judgement.grossMm,
       netMm: judgement.netMm,
       shopDrawing: judgement.shopDrawing,
+      governs: judgement.governs,
+      governsNote: judgement.governsNote,
+      governsLine: governsLine(project, judgement),
       predictedMm,
       comparison: judgement.comparison,
       incomplete: judgement.incomplete,
@@ -453,7 +501,8 @@ export function planEvaluation(
       basisLine:
         `Compared ${judgement.basisLabel}, ±${project.tolerancePct} % band, ` +
         `μ ${project.frictionMu}, K ${project.wobblePerM.toFixed(4)} per m, anchor set ${showLength(project, project.anchorSetMm)}, ` +
-        `${judgement.strand.source === "strand lot" ? `strand lot ${basis.lot?.lotNumber}` : "nominal strand values"}.`,
+        `${judgement.strand.source === "strand lot" ? `strand lot ${basis.lot?.lotNumber}` : "nominal strand values"}. ` +
+        governsLine(project, judgement),
       url: `${env.APP_URL}/projects/${input.projectId}/tendons/${input.tendonId}/flags`,
     });
     notification = {

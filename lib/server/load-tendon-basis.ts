@@ -53,6 +53,8 @@ export function selectTendonBasis(qc: QueryCreator<Database>, input: { projectId
       "projects.jacking_force_factor",
       "projects.under_force_pct",
       "projects.seating_excess_mm",
+      "projects.governing_value",
+      "projects.group_tolerance_pct",
       "projects.required_concrete_mpa",
       "projects.engineer_of_record_name",
       "projects.engineer_of_record_email",

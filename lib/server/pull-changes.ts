@@ -87,6 +87,7 @@ export async function pullChanges(
               "under_force_pct",
               "seating_excess_mm",
               "required_concrete_mpa",
+              "governing_value",
             ])
             .where("id", "in", projectIds)
             .where(since("change_xid", cursor))
@@ -138,6 +139,7 @@ export async function pullChanges(
               "ends",
               "jack_grip_mm",
               "strand_lot_id",
+              "shop_elongation_mm",
             ])
             .where("project_id", "in", projectIds)
             .where("pour_id", "in", pourIds)
@@ -320,6 +322,7 @@ export async function pullChanges(
           ends: t.ends,
           jackGripMm: t.jack_grip_mm,
           strandLotId: t.strand_lot_id,
+          shopElongationMm: t.shop_elongation_mm,
         })),
         strandLots: lots.map((l) => ({
           id: l.id,

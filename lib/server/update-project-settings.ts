@@ -17,6 +17,8 @@ const JUDGING_COLUMNS = [
   "jacking_force_factor",
   "under_force_pct",
   "seating_excess_mm",
+  "governing_value",
+  "group_tolerance_pct",
 ] as const;
 
 export async function updateProjectSettings(
@@ -59,6 +61,7 @@ export async function updateProjectSettings(
         ...(v.underForcePct !== undefined && { under_force_pct: v.underForcePct }),
         ...(v.seatingExcessMm !== undefined && { seating_excess_mm: v.seatingExcessMm }),
         ...(v.clockSkewMinutes !== undefined && { clock_skew_minutes: v.clockSkewMinutes }),
+        ...(v.governing !== undefined && { governing_value: v.governing }),
         updated_at: new Date(),
       })
       .where("id", "=", input.projectId)

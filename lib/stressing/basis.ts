@@ -34,6 +34,10 @@ export interface ProjectBasis {
   jackingForceFactor?: number;
   underForcePct?: number;
   seatingExcessMm?: number;
+  /** Which prediction governs the verdict: Tautline's or the approved shop drawing's. */
+  governing?: "tautline" | "shop_drawing";
+  /** The band on a group's average deviation, ± %; none when null. */
+  groupTolerancePct?: number | null;
 }
 
 /** The basis columns of a `projects` row. */
@@ -49,6 +53,8 @@ export interface ProjectBasisColumns {
   jacking_force_factor?: number;
   under_force_pct?: number;
   seating_excess_mm?: number;
+  governing_value?: "tautline" | "shop_drawing";
+  group_tolerance_pct?: number | null;
 }
 
 /** The basis of a project as stored. */
@@ -64,6 +70,8 @@ export const projectBasisFromRow = (p: ProjectBasisColumns): ProjectBasis => ({
   ...(p.jacking_force_factor !== undefined && { jackingForceFactor: p.jacking_force_factor }),
   ...(p.under_force_pct !== undefined && { underForcePct: p.under_force_pct }),
   ...(p.seating_excess_mm !== undefined && { seatingExcessMm: p.seating_excess_mm }),
+  ...(p.governing_value !== undefined && { governing: p.governing_value }),
+  ...(p.group_tolerance_pct !== undefined && { groupTolerancePct: p.group_tolerance_pct }),
 });
 
 export interface TendonBasis {

@@ -14,7 +14,7 @@ export {
   type StoredResolution,
 } from "@/lib/format/quantities";
 import { mmToIn } from "@/lib/units";
-import type { DisplayUnits } from "@/lib/format/quantities";
+import { showComputedLength, showPct, type DisplayUnits } from "@/lib/format/quantities";
 
 /**
  * A band edge, shown at the precision of computed lengths but never rounded outward: the lower
@@ -27,4 +27,26 @@ export function showBandEdge(project: DisplayUnits, mm: number, edge: "lower" | 
   const step = (value: number, per: number) => round(value * per - (edge === "lower" ? 1e-9 : -1e-9)) / per;
   if (project.unitSystem === "si") return `${step(mm, 10).toFixed(1)} mm`;
   return `${step(mmToIn(mm), 100).toFixed(2)} in`;
+}
+
+/**
+ * Which prediction governed the verdict, with the approved shop drawing's value and Tautline's side
+ * by side on the same basis and their difference: the words the tablet, the flag page and the
+ * e-mail all show.
+ */
+export function governsLine(
+  project: DisplayUnits,
+  j: {
+    governs: "tautline" | "shop drawing";
+    governsNote: string | null;
+    shopDrawing: { mm: number; basis: "net" | "gross"; tautlineMm: number; differenceMm: number; differencePct: number } | null;
+  },
+): string {
+  const who = j.governs === "shop drawing" ? "The approved shop drawing governs" : "Tautline's prediction governs";
+  const side = j.shopDrawing
+    ? ` Shop drawing ${showComputedLength(project, j.shopDrawing.mm)}, Tautline ${showComputedLength(project, j.shopDrawing.tautlineMm)} ` +
+      `(whole tendon, ${j.shopDrawing.basis === "net" ? "net of anchor set" : "gross at jacking"}): ` +
+      `difference ${j.shopDrawing.differenceMm >= 0 ? "+" : "−"}${showComputedLength(project, Math.abs(j.shopDrawing.differenceMm))}, ${showPct(j.shopDrawing.differencePct)}.`
+    : " The schedule gives no shop-drawing elongation.";
+  return `${who}.${side}${j.governsNote ? ` ${j.governsNote}` : ""}`;
 }

@@ -270,3 +270,107 @@ describe("force and gauge", () => {
     expect(findFlags(input(), j).map((f) => f.kind)).toContain("calibration_range");
   });
 });
+
+describe("the governing value: Tautline's prediction or the approved shop drawing", () => {
+  const L = 40 * FT;
+  const gross = oneEndGross(L); // ≈ 90.5 mm, hand value as above
+  const grip = (PJ * GRIP_MM) / (A * E);
+  // A shop drawing 10 % above ours: the factor is our own test value, the arithmetic is by hand.
+  const shop = 1.1 * gross;
+  const withShop = (
+    governing: "tautline" | "shop_drawing" | undefined,
+    shopMm: number | null,
+    basis: "gross" | "net" = "gross",
+  ) => {
+    const base = input();
+    return (records: JudgeRecord[], ends: "A" | "both" = "A") => {
+      const i = input({ ends, records });
+      return judgeStressing({
+        ...i,
+        project: { ...base.project, comparisonBasis: basis, ...(governing && { governing }) },
+        tendon: { ...i.tendon, shopElongationMm: shopMm },
+      });
+    };
+  };
+
+  it.each([
+    // governing, method, reading (mm), expected deviation % — each worked by hand from the lines above
+    { governing: undefined, method: "marks" as const, read: gross - 6, dev: 0, governs: "tautline" },
+    { governing: "tautline" as const, method: "strokes" as const, read: gross + grip, dev: 0, governs: "tautline" },
+    { governing: "shop_drawing" as const, method: "marks" as const, read: shop - 6, dev: 0, governs: "shop drawing" },
+    {
+      governing: "shop_drawing" as const,
+      method: "strokes" as const,
+      read: shop + grip,
+      dev: 0,
+      governs: "shop drawing",
+    },
+    // Our perfect marks reading against the shop drawing's 10 % more: (gross − 6)/(1.1·gross − 6) − 1 ≈ −10.6 %.
+    {
+      governing: "shop_drawing" as const,
+      method: "marks" as const,
+      read: gross - 6,
+      dev: ((gross - 6) / (shop - 6) - 1) * 100,
+      governs: "shop drawing",
+    },
+  ])("$governing governs, $method: deviation $dev %", ({ governing, method, read, dev, governs }) => {
+    const j = withShop(governing, shop)([record({ readingMethod: method, measuredMm: read })]);
+    expect(j.governs).toBe(governs);
+    expect(j.comparison!.deviationPct).toBeCloseTo(dev, 9);
+    // Both values side by side on the project's basis (gross here), difference shop − Tautline.
+    expect(j.shopDrawing).toMatchObject({ mm: shop, basis: "gross" });
+    expect(j.shopDrawing!.tautlineMm).toBeCloseTo(gross, 9);
+    expect(j.shopDrawing!.differenceMm).toBeCloseTo(0.1 * gross, 9);
+    expect(j.shopDrawing!.differencePct).toBeCloseTo(10, 9);
+  });
+
+  it("a shop-drawing value stated net is compared with our net, and governs as the same tendon", () => {
+    const j = withShop("shop_drawing", gross - 6, "net")([record({ measuredMm: gross - 6 })]);
+    expect(j.shopDrawing!.basis).toBe("net");
+    expect(j.shopDrawing!.tautlineMm).toBeCloseTo(gross - 6, 9);
+    expect(j.shopDrawing!.differencePct).toBeCloseTo(0, 9);
+    expect(j.governs).toBe("shop drawing");
+    expect(j.comparison!.deviationPct).toBeCloseTo(0, 9);
+    // Read by ram travel on the same tendon: the net shop value is brought back to gross plus grip.
+    const strokes = withShop(
+      "shop_drawing",
+      gross - 6,
+      "net",
+    )([record({ readingMethod: "strokes", measuredMm: gross + grip })]);
+    expect(strokes.comparison!.deviationPct).toBeCloseTo(0, 9);
+  });
+
+  it("the force the elongation implies stays on Tautline's own computation when the shop drawing governs", () => {
+    const j = withShop("shop_drawing", shop)([record({ measuredMm: gross - 6 })]);
+    expect(j.ends[0]!.impliedForceN).toBeCloseTo(PJ, 6);
+  });
+
+  it("sequential two-end stressing read perfectly against the shop drawing is in band", () => {
+    const long = 120 * FT;
+    const shopLong = 0.95 * bothGross(long); // our test value: 5 % below ours
+    const judge = (records: JudgeRecord[]) => {
+      const i = input({ ends: "both", lengthMm: long, records });
+      return judgeStressing({
+        ...i,
+        project: { ...i.project, governing: "shop_drawing" },
+        tendon: { ...i.tendon, shopElongationMm: shopLong },
+      });
+    };
+    const firstA = oneEndGross(long) * 0.95;
+    const addB = (bothGross(long) - oneEndGross(long)) * 0.95;
+    const j = judge([
+      record({ end: "A", readingMethod: "strokes", measuredMm: firstA + grip, stressingOrder: "sequential" }),
+      record({ end: "B", readingMethod: "strokes", measuredMm: addB + grip }),
+    ]);
+    expect(j.governs).toBe("shop drawing");
+    expect(j.comparison!.deviationPct).toBeCloseTo(0, 6);
+  });
+
+  it("with the shop drawing chosen but none on the schedule, Tautline's governs and says so", () => {
+    const j = withShop("shop_drawing", null)([record({ measuredMm: gross - 6 })]);
+    expect(j.governs).toBe("tautline");
+    expect(j.shopDrawing).toBeNull();
+    expect(j.governsNote).toMatch(/no shop-drawing elongation/);
+    expect(j.comparison!.deviationPct).toBeCloseTo(0, 9);
+  });
+});

@@ -44,11 +44,16 @@ export const JUDGING_DEFAULTS = {
   underForcePct: 2,
   /** Measured seating larger than the plan's by more than this is flagged (1/8 in, common practice). */
   seatingExcessMm: 3.175,
-  governing: "tautline" as "tautline" | "shop_drawing",
+  governing: "tautline" as GoverningValue,
 } as const;
+
+/** Which prediction a verdict is judged against: Tautline's, or the approved shop drawing's. */
+export type GoverningValue = "tautline" | "shop_drawing";
 
 export interface JudgeProject extends ProjectBasis, DisplayUnits {
   timeZone?: string;
+  /** Which prediction governs the verdict; Tautline's when absent. */
+  governing?: GoverningValue;
   jackingForceFactor?: number;
   underForcePct?: number;
   seatingExcessMm?: number;
@@ -110,6 +115,14 @@ export interface JudgeInput {
   /** Every revision of every record of the tendon. */
   records: JudgeRecord[];
   dispositions?: { id: string; flagId: string; decision: string; createdAt: string | Date }[];
+  /**
+   * The other tendons of this tendon's group (its pour) with the deviation of their latest complete,
+   * non-provisional evaluation (null when they have none yet), for the group-average band.
+   */
+  group?: {
+    label: string;
+    tendons: { tendonId: string; tag: string; deviationPct: number | null; lastStressedAt: string | Date | null }[];
+  };
 }
 
 export type EndRole = "one end" | "first end" | "second end" | "simultaneous";
@@ -171,8 +184,47 @@ export interface StressingJudgement {
    * within half a division, straddles a band edge. The tablet asks for a finer second reading.
    */
   divisionCouldFlip: boolean;
-  /** The approved shop-drawing elongation and its difference from ours, when the schedule has one. */
-  shopDrawing: { mm: number; differencePct: number } | null;
+  /**
+   * The approved shop-drawing elongation beside Tautline's prediction on the same basis (the
+   * project's usual comparison basis, as the schedule states it), and their difference, when the
+   * schedule gives one.
+   */
+  shopDrawing: ShopDrawingComparison | null;
+  /** The prediction the verdict was judged against. */
+  governs: "tautline" | "shop drawing";
+  /** Why the project's choice could not be followed (shop drawing chosen, none on the schedule). */
+  governsNote: string | null;
+}
+
+export interface ShopDrawingComparison {
+  /** The shop drawing's whole-tendon elongation as the schedule gives it. */
+  mm: number;
+  /** The basis the shop drawing is taken to state: the project's usual comparison basis. */
+  basis: ComparisonBasis;
+  /** Tautline's whole-tendon prediction on that same basis (at the specified force, no grip). */
+  tautlineMm: number;
+  /** Shop drawing − Tautline, mm and % of Tautline's. */
+  differenceMm: number;
+  differencePct: number;
+}
+
+/**
+ * The shop drawing's value beside ours. The schedule's "shop elongation" is taken as the whole
+ * tendon's elongation at the specified jacking force, stated on the project's usual comparison
+ * basis (net: after the plan's anchor set at each stressed end; gross: at the jacking force), and
+ * never counting strand inside the jack, which belongs to the jack and not to the tendon.
+ */
+export function compareShopDrawing(input: {
+  shopMm: number | null | undefined;
+  basis: ComparisonBasis;
+  grossMm: number;
+  netMm: number;
+}): ShopDrawingComparison | null {
+  const shop = input.shopMm ?? null;
+  if (shop === null || !(shop > 0)) return null;
+  const tautlineMm = input.basis === "net" ? input.netMm : input.grossMm;
+  const differenceMm = shop - tautlineMm;
+  return { mm: shop, basis: input.basis, tautlineMm, differenceMm, differencePct: (differenceMm / tautlineMm) * 100 };
 }
 
 /** The basis a reading method is compared on. */
@@ -249,6 +301,29 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
   const axial = whole.axialStiffnessN;
   const planSetMm = project.anchorSetMm > 0 ? project.anchorSetMm : 0;
   const stressedCount = wanted.length;
+  const netMm = whole.grossMm - stressedCount * planSetMm;
+  const shopDrawing = compareShopDrawing({
+    shopMm: tendon.shopElongationMm,
+    basis: project.comparisonBasis,
+    grossMm: whole.grossMm,
+    netMm,
+  });
+  // When the shop drawing governs, its value is brought to the gross basis (the plan's anchor set
+  // added back when it states net) and every end's gross share is scaled by shop ÷ Tautline; each
+  // record's own basis (grip, measured or planned set) is then applied to that, as to ours.
+  const wantsShop = (project.governing ?? JUDGING_DEFAULTS.governing) === "shop_drawing";
+  const shopGrossMm = shopDrawing
+    ? shopDrawing.basis === "net"
+      ? shopDrawing.mm + stressedCount * planSetMm
+      : shopDrawing.mm
+    : null;
+  const governs: StressingJudgement["governs"] =
+    wantsShop && shopGrossMm !== null && shopGrossMm > 0 ? "shop drawing" : "tautline";
+  const governsNote =
+    wantsShop && governs === "tautline"
+      ? "The project lets the approved shop drawing govern, but the schedule gives no shop-drawing elongation for this tendon: Tautline's prediction was used."
+      : null;
+  const scale = governs === "shop drawing" ? shopGrossMm! / whole.grossMm : 1;
 
   // The order is asked once per tendon; the latest record that says it decides.
   const said = [...current].sort((a, b) => +new Date(a.deviceTime) - +new Date(b.deviceTime));
@@ -289,6 +364,9 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
       role = "second end";
       predictedGrossMm = whole.grossMm - oneEnd(first ?? (record.end === "A" ? "B" : "A"));
     }
+    // The force the elongation implies stays on Tautline's own computation (A, E, friction).
+    const tautlineGrossMm = predictedGrossMm;
+    predictedGrossMm *= scale;
 
     const method = record.readingMethod;
     const basis = basisOf(method);
@@ -335,9 +413,9 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
             floorMm: project.shortTendonFloorMm ?? undefined,
           });
     const impliedForceN =
-      totalMm === null || !(predictedGrossMm > 0)
+      totalMm === null || !(tautlineGrossMm > 0)
         ? null
-        : (specifiedForceN * (totalMm + setMm - gripMm)) / predictedGrossMm;
+        : (specifiedForceN * (totalMm + setMm - gripMm)) / tautlineGrossMm;
     return {
       end: record.end,
       record,
@@ -384,7 +462,6 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
       : bases.length === 0
         ? BASIS_WORDS[project.comparisonBasis]
         : ends.map((e) => `end ${e.end} ${BASIS_WORDS[e.basis]}`).join("; ");
-  const shop = input.tendon.shopElongationMm ?? null;
   return {
     ends,
     order,
@@ -399,7 +476,7 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
     specifiedForceN,
     strand,
     grossMm: whole.grossMm,
-    netMm: whole.grossMm - stressedCount * planSetMm,
+    netMm,
     meetingPointMm: whole.meetingPointMm,
     divisionCouldFlip:
       comparison !== null &&
@@ -412,6 +489,8 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
         floorMm: project.shortTendonFloorMm ?? undefined,
         resolutionMm: resolutionStepMm(readingResolution(project.readingResolution)) * ends.length,
       }).couldChangeVerdict,
-    shopDrawing: shop ? { mm: shop, differencePct: ((whole.grossMm - shop) / shop) * 100 } : null,
+    shopDrawing,
+    governs,
+    governsNote,
   };
 }

@@ -130,6 +130,200 @@ describe("re-evaluation when the project's basis changes", () => {
     expect(same.reevaluated).toBe(0);
   });
 
+  it("choosing the shop drawing to govern judges again against it, and back", async () => {
+    // Follows the case above: 2-1-U06 read 6 % long against Tautline's prediction, in the ±7 % band.
+    const tendon = await fx.tendon("2-1-U06");
+    const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tendon.id });
+    const ours = judgeStressing({
+      project: basis.project,
+      tendon: basis.tendon,
+      lot: basis.lot,
+      sets: [],
+      records: [],
+    });
+    const oursOnBasis = basis.project.comparisonBasis === "net" ? ours.netMm : ours.grossMm;
+    // A shop drawing 10 % below ours (our test value): the same reading is then well over the band.
+    await t.db
+      .updateTable("tendons")
+      .set({ shop_elongation_mm: 0.9 * oursOnBasis })
+      .where("id", "=", tendon.id)
+      .execute();
+    const settings = await getProjectSettings(t.db, fx.projectId);
+    expect(settings.governing).toBe("tautline");
+    const preview = await previewBasisChange(t.db, { projectId: fx.projectId, basis: { governing: "shop_drawing" } });
+    expect(preview.tags).toContain("2-1-U06");
+
+    const toShop = await updateProjectSettings(t.db, {
+      projectId: fx.projectId,
+      values: { ...settings, governing: "shop_drawing" },
+      by: fx.crewId,
+    });
+    expect(toShop.reevaluated).toBe(preview.stressed);
+    const latest = () =>
+      t.db
+        .selectFrom("evaluations")
+        .select(["verdict", "reason", "deviation_pct", "result", "inputs"])
+        .where("tendon_id", "=", tendon.id)
+        .orderBy("created_at", "desc")
+        .executeTakeFirstOrThrow();
+    const judged = await latest();
+    expect(judged.reason).toBe("project settings changed: governing value");
+    expect(judged.verdict).toBe("long");
+    expect(judged.deviation_pct!).toBeGreaterThan(15);
+    expect(judged.inputs).toMatchObject({ governs: "shop drawing" });
+    const result = judged.result as { shopDrawing: { differencePct: number }; governsLine: string };
+    expect(result.shopDrawing.differencePct).toBeCloseTo(-10, 9);
+    expect(result.governsLine).toMatch(
+      /^The approved shop drawing governs\. Shop drawing .* Tautline .*difference −.*−10\.0 %/,
+    );
+    const open = await t.db
+      .selectFrom("flags")
+      .select(["kind", "reason"])
+      .where("tendon_id", "=", tendon.id)
+      .where("status", "=", "open")
+      .execute();
+    expect(open.map((f) => f.kind)).toContain("out_of_band");
+
+    const back = await updateProjectSettings(t.db, {
+      projectId: fx.projectId,
+      values: { ...settings, governing: "tautline" },
+      by: fx.crewId,
+    });
+    expect(back.closedFlags).toBeGreaterThanOrEqual(1);
+    const again = await latest();
+    expect(again.verdict).toBe("in band");
+    expect(again.deviation_pct!).toBeCloseTo(6, 6);
+    expect(again.inputs).toMatchObject({ governs: "tautline" });
+  });
+
+  it("a group band judges a fully stressed pour's average once, on the tendon stressed last", async () => {
+    // A pour of our own with two copies of 2-1-U06 (a one-end tendon), each read 6 % long: inside
+    // the ±7 % band on its own, outside a ±5 % group band on the average (our test values).
+    const source = await t.db.selectFrom("tendons").selectAll().where("tag", "=", "2-1-U06").executeTakeFirstOrThrow();
+    const pour = await t.db
+      .insertInto("pours")
+      .values({
+        project_id: fx.projectId,
+        name: "Group test pour",
+        concrete_strength_mpa: (
+          await t.db
+            .selectFrom("pours")
+            .select("concrete_strength_mpa")
+            .where("id", "=", source.pour_id)
+            .executeTakeFirstOrThrow()
+        ).concrete_strength_mpa,
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    const ids: string[] = [];
+    for (const tag of ["GT-1", "GT-2"]) {
+      const row = await t.db
+        .insertInto("tendons")
+        .values({
+          project_id: fx.projectId,
+          pour_id: pour.id,
+          tag,
+          kind: source.kind,
+          strand_size: source.strand_size,
+          strand_count: source.strand_count,
+          segments: JSON.stringify(source.segments),
+          ends: source.ends,
+          jack_grip_mm: source.jack_grip_mm,
+          shop_elongation_mm: null,
+          strand_lot_id: source.strand_lot_id,
+        })
+        .returning("id")
+        .executeTakeFirstOrThrow();
+      ids.push(row.id);
+    }
+    const settings = await getProjectSettings(t.db, fx.projectId);
+    await updateProjectSettings(t.db, {
+      projectId: fx.projectId,
+      values: { ...settings, groupTolerancePct: 5 },
+      by: fx.crewId,
+    });
+    const c = await t.db
+      .selectFrom("calibrations")
+      .select(["slope_n_per_mpa", "intercept_n"])
+      .where("equipment_set_id", "=", fx.setA)
+      .executeTakeFirstOrThrow();
+    const pressure = (0.8 * HALF_INCH.minBreakingStrengthN - c.intercept_n) / c.slope_n_per_mpa;
+    const outcomes = [];
+    for (const [k, tendonId] of ids.entries()) {
+      const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId });
+      const probe = judgeStressing({
+        project: basis.project,
+        tendon: basis.tendon,
+        lot: basis.lot,
+        sets: [{ id: "s", name: "s", jackGripMm: null, maxForceN: null, calibrations: [] }],
+        records: [
+          {
+            id: "p",
+            chainId: "p",
+            revision: 1,
+            end: "A",
+            deviceTime: "2026-12-01T16:00:00Z",
+            equipmentSetId: "s",
+            calibrationId: null,
+            expiredCalibrationReason: null,
+            readingMethod: "marks",
+            initialPressureMPa: null,
+            finalPressureMPa: 30,
+            measuredMm: 100,
+            strokeCount: 1,
+            drawInMm: null,
+            seatingMm: null,
+            stressingOrder: null,
+            wireBreaks: 0,
+          },
+        ],
+      });
+      await insertRecord(t.db, {
+        projectId: fx.projectId,
+        tendon: { id: tendonId, pour_id: pour.id },
+        end: "A",
+        equipmentSetId: fx.setA,
+        authorId: fx.crewId,
+        measuredMm: probe.ends[0]!.predictedMm * 1.06,
+        finalPressureMPa: pressure,
+        deviceTime: `2026-12-01T1${6 + k}:00:00Z`,
+      });
+      outcomes.push(await evaluateTendon(t.db, { projectId: fx.projectId, tendonId, reason: "sync" }));
+    }
+    // The first alone is no group yet; the second completes it: average +6.0 % outside ±5 %.
+    expect(outcomes[0]!.flagKinds).toEqual([]);
+    expect(outcomes[1]!.flagKinds).toEqual(["group_out_of_band"]);
+    const groupFlags = () =>
+      t.db
+        .selectFrom("flags")
+        .select(["tendon_id", "reason", "status"])
+        .where("pour_id", "=", pour.id)
+        .where("kind", "=", "group_out_of_band")
+        .execute();
+    expect(await groupFlags()).toEqual([
+      expect.objectContaining({
+        tendon_id: ids[1],
+        status: "open",
+        reason: expect.stringMatching(/2 tendons of pour Group test pour average \+6\.0 %/),
+      }),
+    ]);
+
+    // Judging every tendon again (a settings change) raises it no second time, on no other tendon.
+    await updateProjectSettings(t.db, {
+      projectId: fx.projectId,
+      values: { ...settings, groupTolerancePct: 5.5 },
+      by: fx.crewId,
+    });
+    expect(await groupFlags()).toHaveLength(1);
+    // Taking the band away closes it.
+    await updateProjectSettings(t.db, {
+      projectId: fx.projectId,
+      values: { ...settings, groupTolerancePct: null },
+      by: fx.crewId,
+    });
+    expect(await groupFlags()).toEqual([expect.objectContaining({ status: "closed" })]);
+  });
+
   it("a calibration added to a set judges again the tendons whose records named none", async () => {
     const tendon = await fx.tendon("2-1-U08");
     const c = await t.db

@@ -3,6 +3,7 @@ import { calibrationExpired } from "./calibration-expired";
 import { calibrationRange } from "./calibration-range";
 import { concreteUnconfirmed } from "./concrete-unconfirmed";
 import { anchorOverLimit, jackingOverLimit, underForce } from "./forces";
+import { groupOutOfBand } from "./group-out-of-band";
 import { outOfBand } from "./out-of-band";
 import { seatingExcess } from "./seating-excess";
 import { stressedTwice } from "./stressed-twice";
@@ -27,6 +28,7 @@ export const FLAG_RULES: { [K in RuleKind]: Rule } = {
   seating_excess: seatingExcess,
   out_of_band: outOfBand,
   concrete_unconfirmed: concreteUnconfirmed,
+  group_out_of_band: groupOutOfBand,
 };
 
 /** Runs every rule over a judgement. */

@@ -248,7 +248,71 @@ const cases: Record<RuleKind, Case[]> = {
       raised: false,
     },
   ],
+  // A ±5 % band on a group's average beside ±7 % per tendon: common practice in project specifications
+  // (from memory). The other tendons' deviations are test values; the averages are worked by hand.
+  group_out_of_band: [
+    {
+      name: "no group band set",
+      change: (i) => withGroup(i, null, P * 1.06, [6, 6]),
+      raised: false,
+    },
+    {
+      name: "average +4.0 %: this one perfect, two at +6 %",
+      change: (i) => withGroup(i, 5, P, [6, 6]),
+      raised: false,
+    },
+    {
+      name: "average +5.8 %: each within ±7 %, the group long",
+      change: (i) => withGroup(i, 5, P * 1.06, [6, 5.5]),
+      raised: true,
+      reason: /3 tendons of pour L2 average \+5\.8 %.*long of the ±5 % group band/,
+    },
+    {
+      name: "average −6.0 %: short",
+      change: (i) => withGroup(i, 5, P * 0.94, [-6, -6]),
+      raised: true,
+      reason: /−6\.0 %.*short/,
+    },
+    {
+      name: "same group, judged on a tendon stressed before the last one: the flag is the last one's",
+      change: (i) => withGroup(i, 5, P * 1.06, [6, 5.5], "2026-12-02T18:00:00Z"),
+      raised: false,
+    },
+    {
+      name: "a tendon of the group not yet complete",
+      change: (i) => withGroup(i, 5, P * 1.06, [6, null]),
+      raised: false,
+    },
+    {
+      name: "this tendon provisional (one end of two read)",
+      change: (i) => ({ ...withGroup(i, 5, P * 0.5, [6, 6]), tendon: { ...i.tendon, ends: "both" } }),
+      raised: false,
+    },
+  ],
 };
+
+function withGroup(
+  i: JudgeInput,
+  band: number | null,
+  measuredMm: number,
+  others: (number | null)[],
+  lastOthers?: string,
+): JudgeInput {
+  return {
+    ...i,
+    project: { ...i.project, groupTolerancePct: band },
+    records: [rec({ measuredMm })],
+    group: {
+      label: "pour L2",
+      tendons: others.map((d, k) => ({
+        tendonId: `t${k}`,
+        tag: `T${k}`,
+        deviationPct: d,
+        lastStressedAt: lastOthers ?? "2026-12-02T15:00:00Z",
+      })),
+    },
+  };
+}
 
 describe.each(Object.entries(cases))("rule %s", (kind, table) => {
   it.each(table)("$name", ({ change, raised, reason }) => {

@@ -11,7 +11,8 @@ export type RuleKind =
   | "seating_excess"
   | "wire_break"
   | "concrete_unconfirmed"
-  | "stressed_twice";
+  | "stressed_twice"
+  | "group_out_of_band";
 
 export interface Finding {
   kind: RuleKind;

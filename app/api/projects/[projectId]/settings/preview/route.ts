@@ -22,6 +22,7 @@ export const POST = route(
         ...(body.jackingForceFactor !== undefined && { jackingForceFactor: body.jackingForceFactor }),
         ...(body.underForcePct !== undefined && { underForcePct: body.underForcePct }),
         ...(body.seatingExcessMm !== undefined && { seatingExcessMm: body.seatingExcessMm }),
+        ...(body.governing !== undefined && { governing: body.governing }),
       },
     }),
 );
