@@ -332,6 +332,11 @@ export interface ReleasesTable {
   released_by: string;
   released_by_name: string;
   statement: string;
+  /** The name the engineer typed to sign the release (null on releases signed before signatures). */
+  signer_name: string | null;
+  licence: string | null;
+  /** sha256 of the pour's stressing report content at signing. */
+  content_sha256: string | null;
   created_at: Timestamp;
 }
 

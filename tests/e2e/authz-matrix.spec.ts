@@ -284,7 +284,7 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     },
     "POST /api/projects/[projectId]/pours/[pourId]/release": {
       fixture: () => pourIdByName("L3 Pour 1"),
-      call: (c, pourId) => c.post(`/api/projects/${projectId}/pours/${pourId}/release`, { data: { statement: "Matrix check of the release rule.", confirmed: true } }),
+      call: (c, pourId) => c.post(`/api/projects/${projectId}/pours/${pourId}/release`, { data: { statement: "Matrix check of the release rule.", signerName: "Matrix Engineer", licence: "PE 0000000 (matrix)", confirmed: true } }),
     },
     "POST /api/projects/[projectId]/pours/[pourId]/reopen": {
       fixture: () => pourIdByName("L3 Pour 1"),
