@@ -209,6 +209,11 @@ export interface CalibrationsTable {
   max_pressure_mpa: number;
   laboratory: string | null;
   certificate_attachment_id: string | null;
+  /** Retired calibrations are never picked again; a correction also names its replacement. */
+  retired_at: Timestamp | null;
+  retired_reason: string | null;
+  retired_by: string | null;
+  replaced_by: string | null;
   created_at: Timestamp;
 }
 

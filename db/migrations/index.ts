@@ -11,6 +11,7 @@ import * as appRole from "./2026-12-10T040000-app-role";
 import * as heartbeatAndSessionVersion from "./2026-12-10T040100-dispatcher-heartbeat-and-session-version";
 import * as hotPathIndexes from "./2026-12-10T060000-hot-path-indexes";
 import * as signedReleases from "./2026-12-10T150000-signed-releases";
+import * as calibrationRetirement from "./2026-12-10T150100-calibration-retirement";
 
 // A static index: vitest and bundlers cannot import .ts migrations from a folder scan.
 // Keys sort in time order; append new migrations at the end.
@@ -27,4 +28,5 @@ export const migrations: Record<string, Migration> = {
   "2026-12-10T040100-dispatcher-heartbeat-and-session-version": heartbeatAndSessionVersion,
   "2026-12-10T060000-hot-path-indexes": hotPathIndexes,
   "2026-12-10T150000-signed-releases": signedReleases,
+  "2026-12-10T150100-calibration-retirement": calibrationRetirement,
 };
