@@ -224,6 +224,11 @@ export interface CalibrationsTable {
   max_pressure_mpa: number;
   laboratory: string | null;
   certificate_attachment_id: string | null;
+  /** Retired calibrations are never picked again; a correction also names its replacement. */
+  retired_at: Timestamp | null;
+  retired_reason: string | null;
+  retired_by: string | null;
+  replaced_by: string | null;
   created_at: Timestamp;
 }
 
@@ -349,6 +354,11 @@ export interface ReleasesTable {
   released_by: string;
   released_by_name: string;
   statement: string;
+  /** The name the engineer typed to sign the release (null on releases signed before signatures). */
+  signer_name: string | null;
+  licence: string | null;
+  /** sha256 of the pour's stressing report content at signing. */
+  content_sha256: string | null;
   created_at: Timestamp;
 }
 

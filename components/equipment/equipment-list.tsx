@@ -4,6 +4,7 @@ import { RefreshError, useRouteData } from "@/components/setup/use-route-data";
 import { CALIBRATION_STATE_LABELS } from "@/lib/schemas/calibration";
 import type { EquipmentSetView } from "@/lib/server/list-equipment-sets";
 import { CalibrationChart } from "./calibration-chart";
+import { RetireCalibration } from "./retire-calibration";
 
 export interface EquipmentSetList {
   equipmentSets: EquipmentSetView[];
@@ -72,8 +73,16 @@ export function EquipmentList({ projectId, us, initial }: { projectId: string; u
                     </p>
                   )}
                   {s.history.length > 1 && <p className="text-label text-ink-faint">{s.history.length - 1} earlier calibration(s) kept.</p>}
+                  <RetireCalibration projectId={projectId} setId={s.id} calibrationId={c.id} calibratedOn={c.calibratedOn} />
                 </>
               )}
+              {s.history
+                .filter((h) => h.retiredAt)
+                .map((h) => (
+                  <p key={h.id} className="mt-1 text-label text-ink-soft" data-testid="retired-calibration">
+                    Calibration of {h.calibratedOn} retired: {h.retiredReason}
+                  </p>
+                ))}
             </li>
           );
         })}

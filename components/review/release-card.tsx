@@ -2,7 +2,10 @@
 
 import { SignedStatementForm } from "./signed-statement-form";
 
-/** Release of one pour for tail cutting or grouting; refused by the server while anything is open. */
+/**
+ * Release of one pour for tail cutting or grouting, signed with the typed name and licence number;
+ * the server keeps the time and the sha256 of the pour's report. Refused while anything is open.
+ */
 export function ReleaseForm({ projectId, pourId, pourName }: { projectId: string; pourId: string; pourName: string }) {
   return (
     <SignedStatementForm
@@ -13,6 +16,7 @@ export function ReleaseForm({ projectId, pourId, pourName }: { projectId: string
       suggested={`All tendons of ${pourName} are stressed and accepted; tails may be cut.`}
       act={`Release ${pourName}`}
       question={`Release ${pourName}? The crew may then cut tails, and the pour takes no new record until you reopen it.`}
+      signed
     />
   );
 }

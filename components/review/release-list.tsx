@@ -45,6 +45,12 @@ export function ReleaseList({
                   ✓ Released by {p.releasedBy} on {p.releasedAt ? formatDateTime(p.releasedAt, "UTC") : ""}
                 </p>
                 {p.releaseStatement && <p className="mt-1 text-ink-soft">“{p.releaseStatement}”</p>}
+                {p.releaseSignature && (
+                  <p className="mt-1 text-label text-ink-soft" data-testid="release-signature">
+                    Signed by {p.releaseSignature.signerName}, licence {p.releaseSignature.licence}. Report sha256 at
+                    signing: <span className="break-all font-mono">{p.releaseSignature.contentSha256}</span>
+                  </p>
+                )}
                 {canReopen(p) && (
                   <details className="mt-3">
                     <summary className="btn-quiet w-fit cursor-pointer">Reopen this pour…</summary>

@@ -19,10 +19,14 @@ export function SignedStatementForm(props: {
   suggested: string;
   act: string;
   question: string;
+  /** Ask for the signer's typed name and licence number too (a signed release). */
+  signed?: boolean;
 }) {
   const router = useRouter();
   const { message, fields, busy, call } = useApiCall();
   const [text, setText] = useState(props.suggested);
+  const [signerName, setSignerName] = useState("");
+  const [licence, setLicence] = useState("");
   const [owned, setOwned] = useState(false);
   const [confirming, setConfirming] = useState(false);
   return (
@@ -35,7 +39,8 @@ export function SignedStatementForm(props: {
           setConfirming(true);
           return;
         }
-        const result = await call(sendJson("POST", props.url, { [props.field]: text, confirmed: owned }));
+        const signature = props.signed ? { signerName, licence } : {};
+        const result = await call(sendJson("POST", props.url, { [props.field]: text, ...signature, confirmed: owned }));
         setConfirming(false);
         if (result.ok) router.refresh();
       }}
@@ -58,6 +63,43 @@ export function SignedStatementForm(props: {
         />
         <FieldError id={`${props.id}-error`} messages={fields[props.field]} />
       </div>
+      {props.signed && (
+        <div className="grid gap-3 sm:grid-cols-2">
+          <div>
+            <label htmlFor={`${props.id}-signer`} className="field-label">
+              Your name, as you sign
+            </label>
+            <input
+              id={`${props.id}-signer`}
+              className="field-input mt-1"
+              autoComplete="name"
+              value={signerName}
+              onChange={(e) => {
+                setSignerName(e.target.value);
+                setConfirming(false);
+              }}
+              aria-describedby={`${props.id}-signer-error`}
+            />
+            <FieldError id={`${props.id}-signer-error`} messages={fields.signerName} />
+          </div>
+          <div>
+            <label htmlFor={`${props.id}-licence`} className="field-label">
+              Licence number
+            </label>
+            <input
+              id={`${props.id}-licence`}
+              className="field-input mt-1"
+              value={licence}
+              onChange={(e) => {
+                setLicence(e.target.value);
+                setConfirming(false);
+              }}
+              aria-describedby={`${props.id}-licence-error`}
+            />
+            <FieldError id={`${props.id}-licence-error`} messages={fields.licence} />
+          </div>
+        </div>
+      )}
       <label className="flex items-start gap-3 font-semibold">
         <input
           type="checkbox"

@@ -16,6 +16,8 @@ import * as groupAverageBand from "./2026-12-10T110100-group-average-band";
 import * as tailCuts from "./2026-12-10T120000-tail-cuts";
 import * as concreteResults from "./2026-12-10T130000-concrete-results";
 import * as clockSkewThreshold from "./2026-12-10T140000-clock-skew-threshold";
+import * as signedReleases from "./2026-12-10T150000-signed-releases";
+import * as calibrationRetirement from "./2026-12-10T150100-calibration-retirement";
 import * as allFlagKinds from "./2026-12-10T160000-all-flag-kinds";
 
 // A static index: vitest and bundlers cannot import .ts migrations from a folder scan.
@@ -38,5 +40,7 @@ export const migrations: Record<string, Migration> = {
   "2026-12-10T120000-tail-cuts": tailCuts,
   "2026-12-10T130000-concrete-results": concreteResults,
   "2026-12-10T140000-clock-skew-threshold": clockSkewThreshold,
+  "2026-12-10T150000-signed-releases": signedReleases,
+  "2026-12-10T150100-calibration-retirement": calibrationRetirement,
   "2026-12-10T160000-all-flag-kinds": allFlagKinds,
 };

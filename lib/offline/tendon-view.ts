@@ -84,7 +84,7 @@ export function judgeInputFor(ctx: TendonContext & { sets?: FieldEquipmentSet[] 
       maxForceN: s?.maxForceN ?? null,
       calibrations: ctx.calibrations
         .filter((c) => c.equipmentSetId === id)
-        .map((c) => ({ id: c.id, calibratedOn: c.calibratedOn, validUntil: c.validUntil, slope: c.slope, intercept: c.intercept, minPressureMPa: c.minPressureMPa, maxPressureMPa: c.maxPressureMPa })),
+        .map((c) => ({ id: c.id, calibratedOn: c.calibratedOn, validUntil: c.validUntil, slope: c.slope, intercept: c.intercept, minPressureMPa: c.minPressureMPa, maxPressureMPa: c.maxPressureMPa, retiredAt: c.retiredAt ?? null, replacedBy: c.replacedBy ?? null })),
     };
   });
   const judged: JudgeRecord[] = records.map((r) => ({

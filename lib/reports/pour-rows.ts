@@ -268,7 +268,12 @@ export function flagLines(report: PourReport): { heading: string; lines: string[
 export function releaseLine(report: PourReport): string {
   if (!report.release)
     return `Not released. The pour is ${report.pour.status}; the ${report.project.releaseBy} releases it once no flag is open.`;
-  return `Released by ${report.release.byName} on ${reportTime(report, report.release.at)}: "${report.release.statement}"`;
+  const released = `Released by ${report.release.byName} on ${reportTime(report, report.release.at)}: "${report.release.statement}"`;
+  const signature = report.release.signature;
+  return signature
+    ? `${released} Signed by ${signature.signerName}, licence ${signature.licence}; ` +
+        `sha256 of this report's content at signing (before the release was added): ${signature.contentSha256}.`
+    : released;
 }
 
 export function reportFileName(report: PourReport, extension: "pdf" | "csv", revision?: number): string {

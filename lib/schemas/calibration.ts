@@ -93,3 +93,26 @@ export function pickCalibration<C extends PickableCalibration>(calibrations: rea
   }
   return best;
 }
+
+export const calibrationParamsSchema = z.object({
+  projectId: z.uuid({ error: "Not a project id." }),
+  setId: z.uuid({ error: "Not an equipment set id." }),
+  calibrationId: z.uuid({ error: "Not a calibration id." }),
+});
+
+const calibrationReason = (what: string) =>
+  text({ error: `Write why the calibration is ${what}.` })
+    .trim()
+    .min(10, `Write why the calibration is ${what}, in a sentence (at least 10 characters).`)
+    .max(2000, "Use at most 2,000 characters.");
+
+/** Retiring a calibration: it is never picked again; the reason is kept and audited. */
+export const calibrationRetirementSchema = z.object({ reason: calibrationReason("retired") });
+export type CalibrationRetirementInput = z.infer<typeof calibrationRetirementSchema>;
+
+/** Correcting a calibration: the certificate's figures as they should have been typed, and why. */
+export const calibrationCorrectionSchema = z.object({
+  reason: calibrationReason("corrected"),
+  calibration: calibrationSchema,
+});
+export type CalibrationCorrectionInput = z.infer<typeof calibrationCorrectionSchema>;

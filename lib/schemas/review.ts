@@ -63,10 +63,23 @@ const confirmedStatement = z.literal(true, {
   error: "Confirm that you have read the statement and that it is your own.",
 });
 
+/**
+ * The engineer signs a release: the name typed as signed, the licence number and the statement,
+ * read and confirmed. The server adds the time and the sha256 of the pour's report at signing.
+ */
 export const releaseSchema = z.object({
   statement: reasonText("release statement"),
+  signerName: text({ error: "Type your name as you sign." })
+    .trim()
+    .min(2, "Type your name as you sign.")
+    .max(120, "Use at most 120 characters."),
+  licence: text({ error: "Type your licence number." })
+    .trim()
+    .min(3, "Type your licence number (e.g. PE 012345, State of …).")
+    .max(160, "Use at most 160 characters."),
   confirmed: confirmedStatement,
 });
+export type ReleaseInput = z.infer<typeof releaseSchema>;
 
 /** Reopening a released pour: the engineer's reason, read and confirmed like a release. */
 export const reopenSchema = z.object({

@@ -197,6 +197,10 @@ export interface FieldCalibration {
   intercept: number;
   minPressureMPa: number;
   maxPressureMPa: number;
+  /** Retired or corrected: never picked again (`pickCalibration`). */
+  retiredAt?: string | null;
+  /** The calibration that corrects this one. */
+  replacedBy?: string | null;
 }
 
 /** A stored record revision, as the server holds it. */

@@ -14,7 +14,13 @@ import { requireStoredAttachment } from "@/lib/storage";
  */
 export async function addCalibration(
   db: Db,
-  input: { projectId: string; setId: string; values: CalibrationInput },
+  input: {
+    projectId: string;
+    setId: string;
+    values: CalibrationInput;
+    /** False when the caller judges the tendons again itself (a correction). */
+    reevaluate?: boolean;
+  },
 ): Promise<{ calibrationId: string; validUntil: string; r2: number; warnings: string[] }> {
   const v = input.values;
   const [set, project] = await Promise.all([
@@ -80,7 +86,7 @@ export async function addCalibration(
       .where("equipment_set_id", "=", input.setId)
       .where("calibration_id", "is", null)
       .execute();
-    if (touched.length)
+    if (touched.length && input.reevaluate !== false)
       await reevaluateTendons(trx, {
         projectId: input.projectId,
         tendonIds: touched.map((t) => t.tendon_id),

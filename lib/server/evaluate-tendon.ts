@@ -174,6 +174,8 @@ export function selectTendonState(
           "calibrations.intercept_n",
           "calibrations.min_pressure_mpa",
           "calibrations.max_pressure_mpa",
+          "calibrations.retired_at",
+          "calibrations.replaced_by",
         ])
         .where("equipment_sets.project_id", "=", projectId)
         .where((w) =>
@@ -301,6 +303,8 @@ export function judgeInputFromState(state: TendonState): JudgeInput {
         intercept: row.intercept_n!,
         minPressureMPa: row.min_pressure_mpa!,
         maxPressureMPa: row.max_pressure_mpa!,
+        retiredAt: row.retired_at,
+        replacedBy: row.replaced_by,
       });
     sets.set(row.setId, set);
   }

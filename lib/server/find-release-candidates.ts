@@ -17,6 +17,8 @@ export interface ReleaseCandidate {
   releasedBy: string | null;
   releasedAt: Date | null;
   releaseStatement: string | null;
+  /** The standing release's signature: typed name, licence, and the report's sha256 at signing. */
+  releaseSignature: { signerName: string; licence: string; contentSha256: string } | null;
   /** The last reopening of a release, shown with the pour. */
   reopened: { by: string; at: Date; reason: string } | null;
 }
@@ -28,6 +30,7 @@ export async function findReleaseCandidates(db: Kysely<Database>, projectIds: st
     .selectFrom("pours")
     .innerJoin("projects", "projects.id", "pours.project_id")
     .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
+    .leftJoin("releases", "releases.id", "pour_states.release_id")
     .select([
       "pours.id",
       "pours.name",
@@ -38,6 +41,9 @@ export async function findReleaseCandidates(db: Kysely<Database>, projectIds: st
       "pour_states.released_by_name",
       "pour_states.released_at as releasedAt",
       "pour_states.release_statement",
+      "releases.signer_name",
+      "releases.licence",
+      "releases.content_sha256",
       "pour_states.last_reopened_by_name",
       "pour_states.last_reopened_at",
       "pour_states.last_reopen_reason",
@@ -66,6 +72,10 @@ export async function findReleaseCandidates(db: Kysely<Database>, projectIds: st
       releasedBy: p.released_by_name,
       releasedAt: p.releasedAt,
       releaseStatement: p.release_statement,
+      releaseSignature:
+        p.signer_name && p.licence && p.content_sha256
+          ? { signerName: p.signer_name, licence: p.licence, contentSha256: p.content_sha256 }
+          : null,
       reopened:
         p.last_reopened_by_name && p.last_reopened_at
           ? { by: p.last_reopened_by_name, at: p.last_reopened_at, reason: p.last_reopen_reason ?? "" }

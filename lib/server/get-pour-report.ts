@@ -95,7 +95,13 @@ export interface PourReport {
   /** Every stressing of every end, in order: the original and each restress, never only the latest. */
   records: PourRecord[];
   flags: ReportFlag[];
-  release: { byName: string; at: Date; statement: string } | null;
+  release: {
+    byName: string;
+    at: Date;
+    statement: string;
+    /** The signature (null on releases from before releases were signed). */
+    signature: { signerName: string; licence: string; contentSha256: string } | null;
+  } | null;
 }
 
 /** "F-0012": a flag's or a disposition's number in its project, in the order they were made. */
@@ -134,7 +140,7 @@ export async function getPourReport(
     findFlagTrail(db, { projectId: input.projectId, pourId: input.pourId }),
     db
       .selectFrom("releases")
-      .select(["released_by_name", "statement", "created_at"])
+      .select(["released_by_name", "statement", "created_at", "signer_name", "licence", "content_sha256"])
       .where("project_id", "=", input.projectId)
       .where("pour_id", "=", input.pourId)
       .executeTakeFirst(),
@@ -293,7 +299,15 @@ export async function getPourReport(
         })),
     })),
     release: release
-      ? { byName: release.released_by_name, at: new Date(release.created_at), statement: release.statement }
+      ? {
+          byName: release.released_by_name,
+          at: new Date(release.created_at),
+          statement: release.statement,
+          signature:
+            release.signer_name && release.licence && release.content_sha256
+              ? { signerName: release.signer_name, licence: release.licence, contentSha256: release.content_sha256 }
+              : null,
+        }
       : null,
   };
 }

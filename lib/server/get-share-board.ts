@@ -22,6 +22,8 @@ export interface BoardPour {
   tendons: number;
   complete: number;
   signed: { revision: number; signerName: string; signedAt: Date }[];
+  /** The standing release as the engineer signed it (null when not released or signed before signatures). */
+  release: { signerName: string; licence: string; signedAt: Date; contentSha256: string } | null;
 }
 
 async function resolveLink(db: Kysely<Database>, token: string, ip: string | null, action: string, now: Date) {
@@ -71,10 +73,15 @@ export async function getShareBoard(
     db
       .selectFrom("pours")
       .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
+      .leftJoin("releases", "releases.id", "pour_states.release_id")
       .select([
         "pours.id",
         "pours.name",
         "pours.level",
+        "releases.signer_name",
+        "releases.licence",
+        "releases.content_sha256",
+        "releases.created_at as release_signed_at",
         (eb) =>
           eb
             .selectFrom("tendons")
@@ -152,6 +159,15 @@ export async function getShareBoard(
         signed: revisions
           .filter((r) => r.pour_id === p.id)
           .map((r) => ({ revision: r.revision, signerName: r.signer_name, signedAt: new Date(r.signed_at) })),
+        release:
+          p.signer_name && p.licence && p.content_sha256 && p.release_signed_at
+            ? {
+                signerName: p.signer_name,
+                licence: p.licence,
+                signedAt: new Date(p.release_signed_at),
+                contentSha256: p.content_sha256,
+              }
+            : null,
       };
     }),
   };

@@ -1,7 +1,7 @@
 import "server-only";
 import type { Db } from "@/db/connect";
 import type { CalibrationPoint } from "@/db/types";
-import { calibrationState, type CalibrationState } from "@/lib/schemas/calibration";
+import { calibrationState, pickCalibration, type CalibrationState } from "@/lib/schemas/calibration";
 
 export interface CalibrationView {
   id: string;
@@ -15,6 +15,9 @@ export interface CalibrationView {
   maxPressureMPa: number;
   laboratory: string | null;
   certificateAttachmentId: string | null;
+  /** Retired (or corrected): never picked again. */
+  retiredAt: string | null;
+  retiredReason: string | null;
 }
 
 export interface EquipmentSetView {
@@ -25,7 +28,7 @@ export interface EquipmentSetView {
   pumpSerial: string | null;
   jackGripMm: number | null;
   maxForceN: number | null;
-  /** The newest calibration (by calibration date), the one records use. */
+  /** The calibration in force today (`pickCalibration`: the newest not retired), the one records use. */
   current: CalibrationView | null;
   state: CalibrationState;
   history: CalibrationView[];
@@ -59,6 +62,8 @@ export async function listEquipmentSets(db: Db, projectId: string, today = today
         "max_pressure_mpa",
         "laboratory",
         "certificate_attachment_id",
+        "retired_at",
+        "retired_reason",
       ])
       .where("project_id", "=", projectId)
       .orderBy("calibrated_on", "desc")
@@ -80,8 +85,10 @@ export async function listEquipmentSets(db: Db, projectId: string, today = today
         maxPressureMPa: c.max_pressure_mpa,
         laboratory: c.laboratory,
         certificateAttachmentId: c.certificate_attachment_id,
+        retiredAt: c.retired_at ? new Date(c.retired_at).toISOString() : null,
+        retiredReason: c.retired_reason,
       }));
-    const current = history[0] ?? null;
+    const current = pickCalibration(history, today);
     return {
       id: s.id,
       name: s.name,

@@ -171,6 +171,8 @@ export async function pullChanges(
               "intercept_n",
               "min_pressure_mpa",
               "max_pressure_mpa",
+              "retired_at",
+              "replaced_by",
             ])
             .where("project_id", "in", projectIds)
             .where(since("change_xid", cursor))
@@ -352,6 +354,8 @@ export async function pullChanges(
           intercept: c.intercept_n,
           minPressureMPa: c.min_pressure_mpa,
           maxPressureMPa: c.max_pressure_mpa,
+          retiredAt: c.retired_at ? new Date(c.retired_at).toISOString() : null,
+          replacedBy: c.replaced_by,
         })),
         records: records.map((r) => ({
           id: r.id,

@@ -6,6 +6,7 @@ import { stressedEnds } from "@/lib/stressing/basis";
 import { inTransaction } from "./in-transaction";
 import { queueCrewNotice } from "./queue-crew-notice";
 import { recordAudit } from "./record-audit";
+import { pourReportContentSha256 } from "./sign-pour-report";
 
 export interface ReleaseBlockers {
   /** A pour without a tendon schedule has nothing to release. */
@@ -56,11 +57,21 @@ export async function findReleaseBlockers(
 /**
  * Releases a pour for tail cutting or grouting: only with no open flag and every scheduled end
  * recorded, by the role the project names (the engineer of record unless it says inspector).
+ * The release is signed: the typed name, the licence number, the statement, the time (the row's
+ * `created_at`) and the sha256 of the pour's stressing report as it stood at signing, the same
+ * content hash the report's own signature covers.
  */
 export async function releasePour(
   db: Kysely<Database>,
-  input: { projectId: string; pourId: string; by: { id: string; name: string; role: Role }; statement: string },
-): Promise<{ releaseId: string }> {
+  input: {
+    projectId: string;
+    pourId: string;
+    by: { id: string; name: string; role: Role };
+    statement: string;
+    signerName: string;
+    licence: string;
+  },
+): Promise<{ releaseId: string; contentSha256: string; signedAt: Date }> {
   return inTransaction(db, async (trx) => {
     const pour = await trx
       .selectFrom("pours")
@@ -100,6 +111,8 @@ export async function releasePour(
       ].filter(Boolean);
       throw new AppError("CONFLICT", `The pour cannot be released yet: ${parts.join("; ")}.`);
     }
+    // Read under the pour's lock: no record or tendon can change the report between hash and release.
+    const contentSha256 = await pourReportContentSha256(trx, input);
     const row = await trx
       .insertInto("releases")
       .values({
@@ -108,8 +121,11 @@ export async function releasePour(
         released_by: input.by.id,
         released_by_name: input.by.name,
         statement: input.statement,
+        signer_name: input.signerName,
+        licence: input.licence,
+        content_sha256: contentSha256,
       })
-      .returning("id")
+      .returning(["id", "created_at"])
       .executeTakeFirstOrThrow();
     await trx
       .updateTable("pours")
@@ -124,8 +140,9 @@ export async function releasePour(
       actorUserId: input.by.id,
       projectId: input.projectId,
       target: input.pourId,
+      detail: { contentSha256 },
     });
     await queueCrewNotice(trx, { projectId: input.projectId, notice: { kind: "release", releaseId: row.id } });
-    return { releaseId: row.id };
+    return { releaseId: row.id, contentSha256, signedAt: new Date(row.created_at) };
   });
 }

@@ -8,10 +8,23 @@ import { reportFileName } from "@/lib/reports/pour-rows";
 import { describeChanges, pourSnapshot, type ReportSnapshot } from "@/lib/reports/report-changes";
 import type { ReportSignatureInput } from "@/lib/schemas/report-signature";
 import { storeGeneratedFile } from "@/lib/storage";
-import { getPourReport } from "./get-pour-report";
+import { getPourReport, type PourReport } from "./get-pour-report";
 import { recordAudit } from "./record-audit";
 
 const sha256 = (bytes: Uint8Array) => createHash("sha256").update(bytes).digest("hex");
+
+/** What a signature covers: the sha256 of the unsigned report's bytes (same content, same bytes). */
+export async function reportContentSha256(report: PourReport): Promise<string> {
+  return sha256(await renderPourPdf(report));
+}
+
+/** The content hash of a pour's stressing report as it stands now. */
+export async function pourReportContentSha256(
+  db: Kysely<Database>,
+  input: { projectId: string; pourId: string },
+): Promise<string> {
+  return reportContentSha256(await getPourReport(db, input));
+}
 
 /**
  * The inspector signs the pour's stressing report as it stands. What is signed is the sha256 of the
@@ -25,7 +38,7 @@ export async function signPourReport(
   input: { projectId: string; pourId: string; signer: { id: string }; values: ReportSignatureInput },
 ): Promise<{ revision: number; fileSha256: string; contentSha256: string; changes: string[] }> {
   const report = await getPourReport(db, input);
-  const contentSha256 = sha256(await renderPourPdf(report));
+  const contentSha256 = await reportContentSha256(report);
   const last = await db
     .selectFrom("report_revisions")
     .select(["revision", "content_sha256", "snapshot"])

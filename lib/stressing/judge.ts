@@ -68,6 +68,10 @@ export interface JudgeCalibration {
   intercept: number;
   minPressureMPa: number;
   maxPressureMPa: number;
+  /** Set when the calibration was retired or corrected: it is not used again. */
+  retiredAt?: string | Date | null;
+  /** The calibration that corrects this one. */
+  replacedBy?: string | null;
 }
 
 export interface JudgeSet {
@@ -260,10 +264,23 @@ export function currentRecords(records: readonly JudgeRecord[]): JudgeRecord[] {
   return (["A", "B"] as const).flatMap((end) => by[end].slice(-1));
 }
 
-/** The calibration the crew picked, else the latest one made on or before the stressing day. */
+/**
+ * The calibration the crew picked, else the latest one made on or before the stressing day. A
+ * retired calibration is not used again: a corrected one gives way to its correction, a retired
+ * one without a correction to the calibration in force that day (none: the record is incomplete).
+ */
 export function chooseCalibration(set: JudgeSet | undefined, calibrationId: string | null, day: string) {
   if (!set) return null;
-  if (calibrationId) return set.calibrations.find((c) => c.id === calibrationId) ?? null;
+  if (calibrationId) {
+    let named = set.calibrations.find((c) => c.id === calibrationId) ?? null;
+    const seen = new Set<string>();
+    while (named?.retiredAt && named.replacedBy && !seen.has(named.id)) {
+      seen.add(named.id);
+      const replacement: string = named.replacedBy;
+      named = set.calibrations.find((c) => c.id === replacement) ?? null;
+    }
+    if (!named || !named.retiredAt) return named;
+  }
   return pickCalibration(set.calibrations, day);
 }
 

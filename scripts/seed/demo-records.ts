@@ -190,7 +190,7 @@ export async function seedDemoRecords(
     projectId: input.projectId,
     pourId: pourId("L2 Pour 1"),
     by: { ...engineer, role: "engineer" },
-    statement: "All tendons of L2 Pour 1 are stressed and accepted; tails may be cut.",
+    statement: "All tendons of L2 Pour 1 are stressed and accepted; tails may be cut.", signerName: engineer.name, licence,
   });
 
   // Today: one long tendon ordered restressed, one short waiting on a lift-off check, one short

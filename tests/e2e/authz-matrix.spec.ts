@@ -268,6 +268,21 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
           data: { calibratedOn: "2026-12-01", validUntil: null, points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })), laboratory: null, certificateAttachmentId: null },
         }),
     },
+    "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/retirement": {
+      call: (c) =>
+        c.post(`/api/projects/${projectId}/equipment-sets/${MISSING_ID}/calibrations/${MISSING_ID}/retirement`, {
+          data: { reason: "Matrix check of who may retire a calibration." },
+        }),
+    },
+    "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/correction": {
+      call: (c) =>
+        c.post(`/api/projects/${projectId}/equipment-sets/${MISSING_ID}/calibrations/${MISSING_ID}/correction`, {
+          data: {
+            reason: "Matrix check of who may correct a calibration.",
+            calibration: { calibratedOn: "2026-12-01", validUntil: null, points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })), laboratory: null, certificateAttachmentId: null },
+          },
+        }),
+    },
     "GET /api/projects/[projectId]/flags": { call: (c) => c.get(`/api/projects/${projectId}/flags?status=any_open`) },
     "POST /api/projects/[projectId]/flags/[flagId]/reviews": {
       call: (c) => c.post(`/api/projects/${projectId}/flags/${MISSING_ID}/reviews`, { data: { kind: "note", body: "Checked the gauge photo." } }),
@@ -284,7 +299,7 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     },
     "POST /api/projects/[projectId]/pours/[pourId]/release": {
       fixture: () => pourIdByName("L3 Pour 1"),
-      call: (c, pourId) => c.post(`/api/projects/${projectId}/pours/${pourId}/release`, { data: { statement: "Matrix check of the release rule.", confirmed: true } }),
+      call: (c, pourId) => c.post(`/api/projects/${projectId}/pours/${pourId}/release`, { data: { statement: "Matrix check of the release rule.", signerName: "Matrix Engineer", licence: "PE 0000000 (matrix)", confirmed: true } }),
     },
     "GET /api/projects/[projectId]/pours/[pourId]/concrete-results": {
       fixture: () => pourIdByName("L3 Pour 1"),

@@ -74,6 +74,9 @@ export const MATRIX: Record<string, Expected> = {
   "GET /api/projects/[projectId]/equipment-sets": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "POST /api/projects/[projectId]/equipment-sets": projectAction(201, ["admin"]),
   "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations": projectAction(201, ["admin"]),
+  // Retiring or correcting a calibration that does not exist: the admin passes the access check and gets 404.
+  "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/retirement": projectAction(404, ["admin"]),
+  "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/correction": projectAction(404, ["admin"]),
   // Flags, reviews, dispositions and corrections on an id that does not exist: the roles allowed
   // pass the access check and get 404 from the operation; the release is refused by the
   // project's rule (inspector: 403) or by the pour's unstressed tendons (engineer: 409).

@@ -203,7 +203,7 @@ test("an out-of-band tendon is flagged, mailed, reviewed, restressed and only th
   const card = engineer.locator(`[data-pour="${POUR}"]`);
   await expect(card).toContainText("1 with open flags");
   await expect(card).toContainText("Cannot be released yet.");
-  const refused = await (await apiAs(PEOPLE.engineer)).post(`/api/projects/${fx.projectId}/pours/${fx.pourId}/release`, { data: { statement: "Trying too early, should be refused.", confirmed: true } });
+  const refused = await (await apiAs(PEOPLE.engineer)).post(`/api/projects/${fx.projectId}/pours/${fx.pourId}/release`, { data: { statement: "Trying too early, should be refused.", signerName: "Priya Raman", licence: "PE 000000 (invented)", confirmed: true } });
   expect(refused.status()).toBe(409);
 
   // 5. The crew restresses; the new record comes back in band and closes the flag.
@@ -220,9 +220,16 @@ test("an out-of-band tendon is flagged, mailed, reviewed, restressed and only th
   await expect(card.getByRole("alertdialog")).toContainText("Tick the box above first");
   await expect(card.getByRole("button", { name: `Yes, release ${POUR}` })).toBeDisabled();
   await card.getByRole("checkbox", { name: /it is my own/ }).check();
+  // The release is signed: without the typed name and licence the server names the fields.
+  await card.getByRole("button", { name: `Release ${POUR}` }).click();
+  await card.getByRole("button", { name: `Yes, release ${POUR}` }).click();
+  await expect(card).toContainText("Type your name as you sign.");
+  await card.getByLabel("Your name, as you sign").fill("Priya Raman");
+  await card.getByLabel("Licence number").fill("PE 000000 (invented)");
   await card.getByRole("button", { name: `Release ${POUR}` }).click();
   await card.getByRole("button", { name: `Yes, release ${POUR}` }).click();
   await expect(card).toContainText("Released by Priya Raman, P.E.");
+  await expect(card.getByTestId("release-signature")).toContainText("licence PE 000000 (invented)");
   await screenshot(engineer, "decisions-released");
   const [pour] = await queryDemo<{ status: string }>("select status from pour_states where pour_id = $1", [fx.pourId]);
   expect(pour!.status).toBe("released");

@@ -18,7 +18,7 @@ test("an admin cannot release a pour, and the pour form offers no status", async
   expect((await pushEndA(crew, fx, fx.tendons[0]!.id, 1.0)).result).toMatchObject({ status: "applied" });
   const admin = await apiAs(PEOPLE.admin);
   const refused = await admin.post(`/api/projects/${fx.projectId}/pours/${fx.pourId}/release`, {
-    data: { statement: "The admin tries to release this pour.", confirmed: true },
+    data: { statement: "The admin tries to release this pour.", signerName: "Site Admin", licence: "none (admin)", confirmed: true },
   });
   expect(refused.status()).toBe(403);
   const status = await admin.patch(`/api/projects/${fx.projectId}/pours/${fx.pourId}`, {
@@ -61,12 +61,18 @@ test("a released pour refuses a new record and a new tendon until the engineer r
   await card.getByRole("button", { name: `Release ${POUR}` }).click();
   await expect(card.getByRole("button", { name: `Yes, release ${POUR}` })).toBeDisabled();
   await card.getByLabel(/Release statement/).fill(`Both tendons of ${POUR} in band on the day; tails may be cut.`);
+  await card.getByLabel("Your name, as you sign").fill("Priya Raman");
+  await card.getByLabel("Licence number").fill("PE 000000 (invented)");
   await card.getByRole("checkbox", { name: /it is my own/ }).check();
   await card.getByRole("button", { name: `Release ${POUR}` }).click();
   await screenshot(engineer, "release-confirm");
   await card.getByRole("button", { name: `Yes, release ${POUR}` }).click();
   await expect(card).toContainText("Released by Priya Raman, P.E.");
   await expect(card).toContainText("in band on the day");
+  await expect(card.getByTestId("release-signature")).toContainText(
+    /Signed by Priya Raman, licence PE 000000 \(invented\)\. Report sha256 at signing: [0-9a-f]{64}/,
+  );
+  await screenshot(engineer, "release-signed");
 
   // The server refuses a record and a tendon for the released pour.
   const [{ n: before }] = (await queryDemo<{ n: string }>("select count(*) as n from records where pour_id = $1", [

@@ -134,7 +134,7 @@ describe("release", () => {
           projectId: w.projectId,
           pourId,
           by: { ...people[role], role },
-          statement: "Trying to release it.",
+          statement: "Trying to release it.", signerName: "Dana Okafor", licence: "PE 048213 (invented)",
         }),
       ).rejects.toMatchObject({ code: "FORBIDDEN" });
     }
@@ -143,12 +143,12 @@ describe("release", () => {
         projectId: w.projectId,
         pourId,
         by: { id: w.crew.id, name: "Crew", role: "crew" },
-        statement: "Crew release.",
+        statement: "Crew release.", signerName: "Dana Okafor", licence: "PE 048213 (invented)",
       }),
     ).rejects.toMatchObject({ code: "FORBIDDEN" });
     expect((await stateOf()).status).toBe("stressed");
     const unconfirmed = releaseSchema.safeParse({ statement: "All tendons accepted; tails may be cut." });
-    expect(unconfirmed.error?.issues.map((i) => i.path.join("."))).toEqual(["confirmed"]);
+    expect(unconfirmed.error?.issues.map((i) => i.path.join("."))).toEqual(["signerName", "licence", "confirmed"]);
     expect(
       releaseSchema.safeParse({ statement: "All tendons accepted; tails may be cut.", confirmed: false }).success,
     ).toBe(false);
@@ -160,7 +160,7 @@ describe("release", () => {
       projectId: w.projectId,
       pourId,
       by: engineer(),
-      statement: "Both tendons in band; tails may be cut.",
+      statement: "Both tendons in band; tails may be cut.", signerName: "Dana Okafor", licence: "PE 048213 (invented)",
     });
     const state = await stateOf();
     expect(state).toMatchObject({ status: "released", released_by_name: people.engineer.name });
@@ -169,7 +169,7 @@ describe("release", () => {
         projectId: w.projectId,
         pourId,
         by: engineer(),
-        statement: "A second release of the same pour.",
+        statement: "A second release of the same pour.", signerName: "Dana Okafor", licence: "PE 048213 (invented)",
       }),
     ).rejects.toMatchObject({ code: "CONFLICT" });
 
@@ -335,7 +335,7 @@ describe("reopen", () => {
       projectId: w.projectId,
       pourId,
       by: engineer(),
-      statement: "Lift-off checked; released again.",
+      statement: "Lift-off checked; released again.", signerName: "Dana Okafor", licence: "PE 048213 (invented)",
     });
     expect((await stateOf()).status).toBe("released");
     const releases = await t.db

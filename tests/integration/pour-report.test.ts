@@ -1,3 +1,4 @@
+import { createHash } from "node:crypto";
 import Papa from "papaparse";
 import { PDFParse } from "pdf-parse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -109,7 +110,25 @@ describe("the pour's stressing report", () => {
         disposition: { decision: "accept", reasons: "Within the engineer's allowance for this slab; accepted as stressed.", licenceStatement: "Licensed professional engineer (test)" },
       });
     }
-    await releasePour(t.db, { projectId: fx.projectId, pourId, by: { ...engineer, role: "engineer" }, statement: "All tendons stressed and accepted; tails may be cut." });
+    // The engineer signs the release over the report as it stands: its content hash is kept.
+    const beforeRelease = createHash("sha256")
+      .update(await renderPourPdf(await getPourReport(t.db, { projectId: fx.projectId, pourId })))
+      .digest("hex");
+    const release = await releasePour(t.db, { projectId: fx.projectId, pourId, by: { ...engineer, role: "engineer" }, statement: "All tendons stressed and accepted; tails may be cut.", signerName: "Dana Okafor", licence: "PE 048213 (invented)" });
+    expect(release.contentSha256).toBe(beforeRelease);
+    const stored = await t.db.selectFrom("releases").selectAll().where("id", "=", release.releaseId).executeTakeFirstOrThrow();
+    expect(stored).toMatchObject({ signer_name: "Dana Okafor", licence: "PE 048213 (invented)", content_sha256: beforeRelease });
+    expect(new Date(stored.created_at).getTime()).toBe(release.signedAt.getTime());
+    const signature = { signerName: "Dana Okafor", licence: "PE 048213 (invented)", contentSha256: beforeRelease };
+    // The decisions page and the share board show the signature of the standing release.
+    const { findReleaseCandidates } = await import("@/lib/server/find-release-candidates");
+    const candidate = (await findReleaseCandidates(t.db, [fx.projectId])).find((c) => c.pourId === pourId);
+    expect(candidate?.releaseSignature).toEqual(signature);
+    const { createShareLink } = await import("@/lib/server/manage-share-links");
+    const { getShareBoard } = await import("@/lib/server/get-share-board");
+    const link = await createShareLink(t.db, { projectId: fx.projectId, by: { id: engineer.id }, values: { label: "Contractor (test)", days: 7 } });
+    const boardPour = (await getShareBoard(t.db, { token: link.token })).pours.find((p) => p.pourId === pourId);
+    expect(boardPour).toMatchObject({ status: "released", release: { ...signature, signedAt: release.signedAt } });
 
     const report = await getPourReport(t.db, { projectId: fx.projectId, pourId });
     const pdf = await renderPourPdf(report);
@@ -127,6 +146,8 @@ describe("the pour's stressing report", () => {
     expect(text).toContain(pdfText(CAUTION_TEXT).replace(/\s+/g, " "));
     expect(text).toContain(`Released by ${engineer.name}`);
     expect(text).toContain("All tendons stressed and accepted; tails may be cut.");
+    expect(text).toContain("Signed by Dana Okafor, licence PE 048213 (invented)");
+    expect(text.replace(/\s/g, "")).toContain(beforeRelease);
     expect(text).toMatch(/Disposition D-\d{4}: Accept as stressed, by Priya Raman, P\.E\./);
     expect(text).toContain("Set A · Jack J-14");
     expect(text).toContain("AY-0871");

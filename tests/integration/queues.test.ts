@@ -268,6 +268,8 @@ describe("people are told", () => {
       pourId: pour.id,
       by: { ...by, role: "engineer" },
       statement: "Tendon N-1 stressed and accepted; tails may be cut.",
+      signerName: by.name,
+      licence: "PE 048213 (invented)",
     });
     const rows = await outbox();
     expect(rows).toHaveLength(before + 1);

@@ -94,7 +94,7 @@ describe("from flag to release", () => {
       unstressed: [],
     });
     await expect(
-      releasePour(t.db, { projectId: fx.projectId, pourId, by: { ...people.engineer, role: "engineer" }, statement: "All tendons accepted, tails may be cut." }),
+      releasePour(t.db, { projectId: fx.projectId, pourId, by: { ...people.engineer, role: "engineer" }, statement: "All tendons accepted, tails may be cut.", signerName: "Dana Okafor", licence: "PE 048213 (invented)" }),
     ).rejects.toMatchObject({ code: "CONFLICT", message: expect.stringContaining("1 open flag(s) on R-1") });
 
     // The inspector may not close an out-of-band flag as paperwork.
@@ -124,7 +124,7 @@ describe("from flag to release", () => {
       projectId: fx.projectId,
       pourId,
       by: { ...people.engineer, role: "engineer" },
-      statement: "All tendons stressed and accepted; tails may be cut.",
+      statement: "All tendons stressed and accepted; tails may be cut.", signerName: "Dana Okafor", licence: "PE 048213 (invented)",
     });
     expect(release.releaseId).toBeTruthy();
     const pour = await t.db.selectFrom("pour_states").select("status").where("pour_id", "=", pourId).executeTakeFirstOrThrow();
@@ -134,7 +134,7 @@ describe("from flag to release", () => {
   it("refuses a release by a role the project does not name, and a pour with ends never recorded", async () => {
     const pour = await t.db.selectFrom("pours").select("id").where("name", "=", "L2 Pour 2").executeTakeFirstOrThrow();
     await expect(
-      releasePour(t.db, { projectId: fx.projectId, pourId: pour.id, by: { ...people.inspector, role: "inspector" }, statement: "Release by the wrong person." }),
+      releasePour(t.db, { projectId: fx.projectId, pourId: pour.id, by: { ...people.inspector, role: "inspector" }, statement: "Release by the wrong person.", signerName: "Dana Okafor", licence: "PE 048213 (invented)" }),
     ).rejects.toMatchObject({ code: "FORBIDDEN" });
     const blockers = await findReleaseBlockers(t.db, { projectId: fx.projectId, pourId: pour.id });
     expect(blockers.unstressed).toHaveLength(50);
@@ -170,7 +170,7 @@ describe("from flag to release", () => {
     const empty = await t.db.insertInto("pours").values({ project_id: fx.projectId, name: "Empty pour" }).returning("id").executeTakeFirstOrThrow();
     expect((await findReleaseBlockers(t.db, { projectId: fx.projectId, pourId: empty.id })).noSchedule).toBe(true);
     await expect(
-      releasePour(t.db, { projectId: fx.projectId, pourId: empty.id, by: { ...people.engineer, role: "engineer" }, statement: "Nothing here to release at all." }),
+      releasePour(t.db, { projectId: fx.projectId, pourId: empty.id, by: { ...people.engineer, role: "engineer" }, statement: "Nothing here to release at all.", signerName: "Dana Okafor", licence: "PE 048213 (invented)" }),
     ).rejects.toMatchObject({ code: "CONFLICT", message: expect.stringContaining("no tendon schedule") });
   });
 

@@ -199,6 +199,8 @@ describe("tails cut on a released pour, refusals and the pull", () => {
       pourId: releasedPourId,
       by: { ...engineer, role: "engineer" },
       statement: "The tendon is in band; tails may be cut.",
+      signerName: engineer.name,
+      licence: "PE 048213 (invented)",
     });
     const cut = await pushOps(app, { user: w.crew, deviceId: DEVICE, ops: [cutOp(pour!.id, releasedPourId)] });
     expect(cut.results[0]).toMatchObject({ status: "applied", tailCut: { held: false } });

@@ -57,6 +57,13 @@ export default async function SharedBoardPage({ params }: { params: Promise<{ to
               </td>
               <td className="py-2 pr-4" data-status={p.status}>
                 {boardStatusText(p)}
+                {p.release && (
+                  <span className="mt-1 block text-label text-ink-soft" data-testid="release-signature">
+                    Release signed by {p.release.signerName} (licence {p.release.licence}),{" "}
+                    {formatDateTime(p.release.signedAt, "UTC")}; report sha256 at signing{" "}
+                    <span className="break-all font-mono">{p.release.contentSha256}</span>
+                  </span>
+                )}
               </td>
               <td className="py-2 pr-4">
                 {p.complete} of {p.tendons}
