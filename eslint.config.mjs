@@ -5,12 +5,28 @@ const config = [
   ...nextVitals,
   ...nextTs,
   {
-    ignores: [".next/**", ".next-*/**", "node_modules/**", ".data/**", ".tmp/**", "public/sw.js", "test-results/**", "playwright-report/**", "next-env.d.ts"],
+    ignores: [
+      ".next/**",
+      ".next-*/**",
+      "node_modules/**",
+      ".data/**",
+      ".tmp/**",
+      "public/sw.js",
+      "test-results/**",
+      "playwright-report/**",
+      "next-env.d.ts",
+    ],
   },
   {
     // Unit factors live in lib/units only; display code formats through lib/format/quantities.
     // Scoped to the folders already clean; widen it as the other screens move over.
-    files: ["lib/format/**/*.ts", "lib/reports/**/*.ts", "lib/stressing/**/*.ts", "lib/server/**/*.ts", "components/reports/**/*.tsx"],
+    files: [
+      "lib/format/**/*.ts",
+      "lib/reports/**/*.ts",
+      "lib/stressing/**/*.ts",
+      "lib/server/**/*.ts",
+      "components/reports/**/*.tsx",
+    ],
     ignores: ["**/*.test.ts"],
     rules: {
       "no-restricted-syntax": [
@@ -32,7 +48,11 @@ const config = [
         {
           basePath: import.meta.dirname,
           zones: [
-            { target: ["./lib", "./db"], from: ["./app", "./components"], message: "lib and db sit below app and components." },
+            {
+              target: ["./lib", "./db"],
+              from: ["./app", "./components"],
+              message: "lib and db sit below app and components.",
+            },
             { target: "./components", from: "./app", message: "components sit below app." },
             {
               target: ["./lib/elongation", "./lib/units"],
@@ -40,8 +60,17 @@ const config = [
               except: ["./elongation", "./units"],
               message: "The computation and the units are pure: they import nothing of the app.",
             },
-            { target: "./lib/server", from: "./lib/http", message: "Server operations never import the HTTP transport." },
-            { target: "./db", from: "./lib", except: ["./schemas", "./env.ts"], message: "db re-uses lib/schemas only." },
+            {
+              target: "./lib/server",
+              from: "./lib/http",
+              message: "Server operations never import the HTTP transport.",
+            },
+            {
+              target: "./db",
+              from: "./lib",
+              except: ["./schemas", "./env.ts"],
+              message: "db re-uses lib/schemas only.",
+            },
           ],
         },
       ],

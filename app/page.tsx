@@ -30,12 +30,14 @@ export default function LandingPage() {
       </header>
 
       <section className="mt-12 max-w-3xl">
-        <h1 className="text-hero font-bold tracking-tight">Every tendon, measured against what it should have stretched.</h1>
+        <h1 className="text-hero font-bold tracking-tight">
+          Every tendon, measured against what it should have stretched.
+        </h1>
         <p className="mt-5 text-lead text-ink-soft">
-          Tautline is the stressing log for post-tensioned concrete. The crew records gauge pressure and elongation
-          for each tendon end at the slab edge, offline. The server compares each reading with the predicted
-          elongation, accounting for friction, anchor set and the strand inside the jack, flags what is outside the
-          project&apos;s tolerance, and tells the engineer of record at once.
+          Tautline is the stressing log for post-tensioned concrete. The crew records gauge pressure and elongation for
+          each tendon end at the slab edge, offline. The server compares each reading with the predicted elongation,
+          accounting for friction, anchor set and the strand inside the jack, flags what is outside the project&apos;s
+          tolerance, and tells the engineer of record at once.
         </p>
         <div className="mt-8 flex flex-wrap gap-4">
           <Link href="/sign-in" className="btn-primary">

@@ -66,7 +66,9 @@ export function createDb(connectionString: string, max = 10, options: { prepare?
   // the session) makes the pool emit "error"; with no listener node ends the whole process. The
   // pool has already discarded that client, and the next query opens a new connection.
   pool.on("error", (error) => {
-    console.error(`${new Date().toISOString()} database connection lost (the pool reconnects on the next query): ${error.message}`);
+    console.error(
+      `${new Date().toISOString()} database connection lost (the pool reconnects on the next query): ${error.message}`,
+    );
   });
   return new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
 }

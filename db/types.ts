@@ -176,7 +176,8 @@ export interface AuditEventsTable {
   detail: ColumnType<Record<string, unknown>, string | undefined, string>;
 }
 
-export type AttachmentPurpose = "mill_certificate" | "calibration_certificate" | "record_photo" | "review_photo" | "lab_report" | "signed_report";
+export type AttachmentPurpose =
+  "mill_certificate" | "calibration_certificate" | "record_photo" | "review_photo" | "lab_report" | "signed_report";
 
 export interface AttachmentsTable {
   id: Generated<string>;

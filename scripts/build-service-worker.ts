@@ -14,7 +14,13 @@ const buildId = readFileSync(path.join(distDir, "BUILD_ID"), "utf8").trim();
 const fileRevision = (file: string) => createHash("sha256").update(readFileSync(file)).digest("hex").slice(0, 16);
 
 const PAGES = ["/field", "/field/pour", "/offline"];
-const PUBLIC_FILES = ["manifest.webmanifest", "icon.svg", "icons/field-log.svg", "icons/field-log-192.png", "icons/field-log-512.png"];
+const PUBLIC_FILES = [
+  "manifest.webmanifest",
+  "icon.svg",
+  "icons/field-log.svg",
+  "icons/field-log-192.png",
+  "icons/field-log-512.png",
+];
 
 async function main() {
   const workDir = path.join(distDir, "service-worker");
@@ -46,7 +52,9 @@ async function main() {
     maximumFileSizeToCacheInBytes: 5 * 1024 * 1024,
   });
   for (const w of warnings) console.warn(w);
-  console.log(`service worker: public/sw.js precaches ${count} files (${(size / 1024).toFixed(0)} KiB), build ${buildId}`);
+  console.log(
+    `service worker: public/sw.js precaches ${count} files (${(size / 1024).toFixed(0)} KiB), build ${buildId}`,
+  );
 }
 
 main().catch((error) => {

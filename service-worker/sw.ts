@@ -21,7 +21,11 @@ precacheAndRoute(self.__WB_MANIFEST, { ignoreURLParametersMatching: [/.*/], clea
 // Downloaded reference data: network first, the last copy when there is no signal.
 registerRoute(
   ({ url, request }) => request.method === "GET" && url.pathname.startsWith("/api/field/"),
-  new NetworkFirst({ cacheName: "tautline-field-reference", networkTimeoutSeconds: 8, plugins: [new ExpirationPlugin({ maxEntries: 60, maxAgeSeconds: 14 * 86_400 })] }),
+  new NetworkFirst({
+    cacheName: "tautline-field-reference",
+    networkTimeoutSeconds: 8,
+    plugins: [new ExpirationPlugin({ maxEntries: 60, maxAgeSeconds: 14 * 86_400 })],
+  }),
 );
 
 // Every other page needs the network; without it the offline page says so.

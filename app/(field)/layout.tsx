@@ -5,7 +5,10 @@ import { SyncStatusBar } from "@/components/field/sync-status-bar";
 import { UpdatePrompt } from "@/components/field/update-prompt";
 import { BrandMark } from "@/components/shell/brand-mark";
 
-export const metadata: Metadata = { manifest: "/manifest.webmanifest", appleWebApp: { capable: true, title: "Tautline field log" } };
+export const metadata: Metadata = {
+  manifest: "/manifest.webmanifest",
+  appleWebApp: { capable: true, title: "Tautline field log" },
+};
 
 // The tablet shell. Its pages are static and hold no data: the offline worker keeps them, and
 // everything they show comes from the tablet's own database or from route handlers that check

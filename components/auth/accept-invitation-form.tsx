@@ -7,7 +7,15 @@ import { FormMessage } from "@/components/ui/form-message";
 import { TextField } from "@/components/ui/text-field";
 import { sendJson } from "@/lib/client/send-json";
 
-export function AcceptInvitationForm({ token, email, hasAccount }: { token: string; email: string; hasAccount: boolean }) {
+export function AcceptInvitationForm({
+  token,
+  email,
+  hasAccount,
+}: {
+  token: string;
+  email: string;
+  hasAccount: boolean;
+}) {
   const router = useRouter();
   const [error, setError] = useState<string>();
   const [fields, setFields] = useState<Record<string, string[]>>({});

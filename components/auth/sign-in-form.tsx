@@ -57,7 +57,13 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
         <label htmlFor="password" className="field-label">
           Password
         </label>
-        <input id="password" name="password" type="password" autoComplete="current-password" className="field-input mt-1" />
+        <input
+          id="password"
+          name="password"
+          type="password"
+          autoComplete="current-password"
+          className="field-input mt-1"
+        />
       </div>
       <div className="flex flex-wrap gap-3">
         <button type="submit" className="btn-primary" disabled={busy !== null}>

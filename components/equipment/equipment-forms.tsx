@@ -16,7 +16,13 @@ import { equipmentSetsKey, useEquipmentSets, type EquipmentSetList } from "./equ
 
 type Errors = Record<string, { message?: string } | undefined>;
 
-function Text({ id, label, error, hint, ...rest }: { id: string; label: string; error?: string; hint?: string } & React.InputHTMLAttributes<HTMLInputElement>) {
+function Text({
+  id,
+  label,
+  error,
+  hint,
+  ...rest
+}: { id: string; label: string; error?: string; hint?: string } & React.InputHTMLAttributes<HTMLInputElement>) {
   return (
     <div>
       <label htmlFor={id} className="field-label">
@@ -72,9 +78,26 @@ export function EquipmentSetForm({ projectId, us }: { projectId: string; us: boo
         <Text id="e-name" label="Set name" error={e.name?.message} {...form.register("name")} />
         <Text id="e-jack" label="Jack serial" error={e.jackSerial?.message} {...form.register("jackSerial")} />
         <Text id="e-gauge" label="Gauge serial" error={e.gaugeSerial?.message} {...form.register("gaugeSerial")} />
-        <Text id="e-pump" label="Pump serial (optional)" error={e.pumpSerial?.message} {...form.register("pumpSerial")} />
-        <Text id="e-grip" label={`Jack grip length, ${us ? "in" : "mm"} (optional)`} inputMode="decimal" error={e.jackGripMm?.message} {...form.register("jackGripMm")} />
-        <Text id="e-max" label={`Rated force, ${us ? "kip" : "kN"} (optional)`} inputMode="decimal" error={e.maxForceN?.message} {...form.register("maxForceN")} />
+        <Text
+          id="e-pump"
+          label="Pump serial (optional)"
+          error={e.pumpSerial?.message}
+          {...form.register("pumpSerial")}
+        />
+        <Text
+          id="e-grip"
+          label={`Jack grip length, ${us ? "in" : "mm"} (optional)`}
+          inputMode="decimal"
+          error={e.jackGripMm?.message}
+          {...form.register("jackGripMm")}
+        />
+        <Text
+          id="e-max"
+          label={`Rated force, ${us ? "kip" : "kN"} (optional)`}
+          inputMode="decimal"
+          error={e.maxForceN?.message}
+          {...form.register("maxForceN")}
+        />
       </div>
       <button className="btn-primary" type="submit">
         Add set
@@ -87,14 +110,23 @@ export function EquipmentSetForm({ projectId, us }: { projectId: string; us: boo
 export function readPoints(text: string, us: boolean): { points: CalibrationInput["points"]; error: string | null } {
   const system = us ? "US" : "SI";
   const points: CalibrationInput["points"] = [];
-  const lines = text.split(/\r?\n/).map((l) => l.trim()).filter(Boolean);
+  const lines = text
+    .split(/\r?\n/)
+    .map((l) => l.trim())
+    .filter(Boolean);
   for (const [i, line] of lines.entries()) {
     const [p, f, extra] = line.split(/[,;\t]/).map((s) => s.trim());
     try {
       if (!p || !f || extra !== undefined) throw new Error("give pressure, force");
-      points.push({ pressureMPa: parsePressure(p, { field: "pressure", system }), forceN: parseForce(f, { field: "force", system }) });
+      points.push({
+        pressureMPa: parsePressure(p, { field: "pressure", system }),
+        forceN: parseForce(f, { field: "force", system }),
+      });
     } catch (error) {
-      return { points, error: `Line ${i + 1} "${line}": ${isInputError(error) ? error.message.replace(/^[^:]*: /, "") : "write pressure, force"}.` };
+      return {
+        points,
+        error: `Line ${i + 1} "${line}": ${isInputError(error) ? error.message.replace(/^[^:]*: /, "") : "write pressure, force"}.`,
+      };
     }
   }
   return { points, error: null };
@@ -130,7 +162,17 @@ function calResolver(us: boolean) {
   );
 }
 
-export function CalibrationForm({ projectId, us, initial, validityDays }: { projectId: string; us: boolean; initial: EquipmentSetList; validityDays: number }) {
+export function CalibrationForm({
+  projectId,
+  us,
+  initial,
+  validityDays,
+}: {
+  projectId: string;
+  us: boolean;
+  initial: EquipmentSetList;
+  validityDays: number;
+}) {
   const { mutate } = useSWRConfig();
   // The same list as the cards above, so a set added a moment ago can be chosen at once.
   const sets = useEquipmentSets(projectId, initial).data.equipmentSets;
@@ -143,12 +185,20 @@ export function CalibrationForm({ projectId, us, initial, validityDays }: { proj
   });
   const e = form.formState.errors as Errors;
   const onSubmit = form.handleSubmit(async (values) => {
-    const r = await sendJson<{ validUntil: string; r2: number; warnings: string[] }>("POST", `/api/projects/${projectId}/equipment-sets/${setId}/calibrations`, values);
+    const r = await sendJson<{ validUntil: string; r2: number; warnings: string[] }>(
+      "POST",
+      `/api/projects/${projectId}/equipment-sets/${setId}/calibrations`,
+      values,
+    );
     if (!r.ok) {
-      for (const [k, m] of Object.entries(r.error.fields ?? {})) form.setError((k.startsWith("points") ? "pointsText" : k) as "calibratedOn", { message: m.join(" ") });
+      for (const [k, m] of Object.entries(r.error.fields ?? {}))
+        form.setError((k.startsWith("points") ? "pointsText" : k) as "calibratedOn", { message: m.join(" ") });
       return setMessage({ tone: "error", text: r.error.message });
     }
-    setMessage({ tone: "info", text: `Calibration saved: r² = ${r.data.r2.toFixed(5)}, valid to ${r.data.validUntil}. ${r.data.warnings.join(" ")}` });
+    setMessage({
+      tone: "info",
+      text: `Calibration saved: r² = ${r.data.r2.toFixed(5)}, valid to ${r.data.validUntil}. ${r.data.warnings.join(" ")}`,
+    });
     form.reset();
     void mutate(equipmentSetsKey(projectId));
   });
@@ -171,18 +221,44 @@ export function CalibrationForm({ projectId, us, initial, validityDays }: { proj
             ))}
           </select>
         </div>
-        <Text id="c-on" type="date" label="Calibrated on" error={e.calibratedOn?.message} {...form.register("calibratedOn")} />
-        <Text id="c-until" type="date" label="Valid until (optional)" hint={`Empty: ${validityDays} days after calibration, the project's rule; the earlier date wins.`} error={e.validUntil?.message} {...form.register("validUntil")} />
+        <Text
+          id="c-on"
+          type="date"
+          label="Calibrated on"
+          error={e.calibratedOn?.message}
+          {...form.register("calibratedOn")}
+        />
+        <Text
+          id="c-until"
+          type="date"
+          label="Valid until (optional)"
+          hint={`Empty: ${validityDays} days after calibration, the project's rule; the earlier date wins.`}
+          error={e.validUntil?.message}
+          {...form.register("validUntil")}
+        />
       </div>
       <div>
         <label htmlFor="c-points" className="field-label">
           Calibration points: gauge pressure, force ({us ? "psi, kip" : "MPa, kN"}), one pair per line
         </label>
-        <textarea id="c-points" rows={6} className="field-input mt-1 py-2 font-mono" placeholder={us ? "1000, 6.3\n2000, 13.4" : "10, 50.2\n20, 101.6"} {...form.register("pointsText")} />
-        {(e.pointsText?.message || e.points?.message) && <p className="mt-1 font-semibold text-signal-stop">{e.pointsText?.message ?? e.points?.message}</p>}
+        <textarea
+          id="c-points"
+          rows={6}
+          className="field-input mt-1 py-2 font-mono"
+          placeholder={us ? "1000, 6.3\n2000, 13.4" : "10, 50.2\n20, 101.6"}
+          {...form.register("pointsText")}
+        />
+        {(e.pointsText?.message || e.points?.message) && (
+          <p className="mt-1 font-semibold text-signal-stop">{e.pointsText?.message ?? e.points?.message}</p>
+        )}
       </div>
       <Text id="c-lab" label="Laboratory (optional)" {...form.register("laboratory")} />
-      <FileUpload projectId={projectId} purpose="calibration_certificate" label="Calibration certificate file" onUploaded={(f) => form.setValue("certificateAttachmentId", f.id)} />
+      <FileUpload
+        projectId={projectId}
+        purpose="calibration_certificate"
+        label="Calibration certificate file"
+        onUploaded={(f) => form.setValue("certificateAttachmentId", f.id)}
+      />
       <button className="btn-primary" type="submit">
         Save calibration
       </button>

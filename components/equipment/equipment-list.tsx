@@ -22,7 +22,15 @@ const MPA_PER_PSI = 0.006894757293168;
 const N_PER_KIP = 4448.2216152605;
 
 /** Each set with its calibration state, fitted line, chart and certificate. */
-export function EquipmentList({ projectId, us, initial }: { projectId: string; us: boolean; initial: EquipmentSetList }) {
+export function EquipmentList({
+  projectId,
+  us,
+  initial,
+}: {
+  projectId: string;
+  us: boolean;
+  initial: EquipmentSetList;
+}) {
   const { data, error } = useEquipmentSets(projectId, initial);
   const sets = data.equipmentSets;
   const p = (mpa: number) => (us ? mpa / MPA_PER_PSI : mpa);
@@ -36,7 +44,12 @@ export function EquipmentList({ projectId, us, initial }: { projectId: string; u
       <ul className="grid gap-4 lg:grid-cols-2">
         {sets.map((s) => {
           const c = s.current;
-          const tone = s.state === "valid" ? "border-concrete-300" : s.state === "expiring" ? "border-signal-long" : "border-signal-stop";
+          const tone =
+            s.state === "valid"
+              ? "border-concrete-300"
+              : s.state === "expiring"
+                ? "border-signal-long"
+                : "border-signal-stop";
           return (
             <li key={s.id} className={`card border-2 ${tone}`}>
               <h2 className="text-lead font-semibold">{s.name}</h2>
@@ -44,7 +57,9 @@ export function EquipmentList({ projectId, us, initial }: { projectId: string; u
                 Jack {s.jackSerial} · gauge {s.gaugeSerial}
                 {s.pumpSerial ? ` · pump ${s.pumpSerial}` : ""}
               </p>
-              <p className={`mt-2 font-semibold ${s.state === "valid" ? "" : s.state === "expiring" ? "text-signal-long" : "text-signal-stop"}`}>
+              <p
+                className={`mt-2 font-semibold ${s.state === "valid" ? "" : s.state === "expiring" ? "text-signal-long" : "text-signal-stop"}`}
+              >
                 <span aria-hidden="true">{s.state === "valid" ? "✓ " : s.state === "expiring" ? "⚠ " : "⚠ "}</span>
                 {CALIBRATION_STATE_LABELS[s.state]}
                 {c ? `: calibrated ${c.calibratedOn}, valid to ${c.validUntil}` : ""}
@@ -52,8 +67,9 @@ export function EquipmentList({ projectId, us, initial }: { projectId: string; u
               {c && (
                 <>
                   <p className="mt-1">
-                    Line: force = {f(c.slope * (us ? MPA_PER_PSI : 1)).toFixed(us ? 5 : 4)} {fu}/{pu} × pressure {c.intercept >= 0 ? "+" : "−"} {Math.abs(f(c.intercept)).toFixed(2)} {fu} · r² = {c.r2.toFixed(5)} · {c.points.length} points,{" "}
-                    {p(c.minPressureMPa).toFixed(0)}–{p(c.maxPressureMPa).toFixed(0)} {pu}
+                    Line: force = {f(c.slope * (us ? MPA_PER_PSI : 1)).toFixed(us ? 5 : 4)} {fu}/{pu} × pressure{" "}
+                    {c.intercept >= 0 ? "+" : "−"} {Math.abs(f(c.intercept)).toFixed(2)} {fu} · r² = {c.r2.toFixed(5)} ·{" "}
+                    {c.points.length} points, {p(c.minPressureMPa).toFixed(0)}–{p(c.maxPressureMPa).toFixed(0)} {pu}
                     {c.laboratory ? ` · ${c.laboratory}` : ""}
                   </p>
                   <CalibrationChart
@@ -64,7 +80,10 @@ export function EquipmentList({ projectId, us, initial }: { projectId: string; u
                     line={[0, c.maxPressureMPa].map((x) => ({ p: p(x), f: f(c.slope * x + c.intercept) }))}
                   />
                   {c.certificateAttachmentId ? (
-                    <a href={`/api/projects/${projectId}/attachments/${c.certificateAttachmentId}`} className="inline-flex min-h-touch items-center">
+                    <a
+                      href={`/api/projects/${projectId}/attachments/${c.certificateAttachmentId}`}
+                      className="inline-flex min-h-touch items-center"
+                    >
                       Calibration certificate
                     </a>
                   ) : (
@@ -72,8 +91,15 @@ export function EquipmentList({ projectId, us, initial }: { projectId: string; u
                       <span aria-hidden="true">⚠ </span>No certificate file on record.
                     </p>
                   )}
-                  {s.history.length > 1 && <p className="text-label text-ink-faint">{s.history.length - 1} earlier calibration(s) kept.</p>}
-                  <RetireCalibration projectId={projectId} setId={s.id} calibrationId={c.id} calibratedOn={c.calibratedOn} />
+                  {s.history.length > 1 && (
+                    <p className="text-label text-ink-faint">{s.history.length - 1} earlier calibration(s) kept.</p>
+                  )}
+                  <RetireCalibration
+                    projectId={projectId}
+                    setId={s.id}
+                    calibrationId={c.id}
+                    calibratedOn={c.calibratedOn}
+                  />
                 </>
               )}
               {s.history

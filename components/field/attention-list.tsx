@@ -8,9 +8,7 @@ export function AttentionList() {
   const { db } = useField();
   const items = useLive(async () => {
     const entries = await db.outbox.where("state").equals("attention").toArray();
-    return Promise.all(
-      entries.map(async (e) => ({ entry: e, tendon: await db.tendons.get(e.payload.tendonId) })),
-    );
+    return Promise.all(entries.map(async (e) => ({ entry: e, tendon: await db.tendons.get(e.payload.tendonId) })));
   }, [db]);
   if (!items?.length) return null;
   return (

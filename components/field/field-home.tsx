@@ -79,7 +79,8 @@ export function FieldHome() {
     setDownloadError(null);
     const result = await client.download(pourId);
     setDownloading(null);
-    if (!result.ok) setDownloadError(result.status === 401 ? "Sign in again to download." : `Could not download: ${result.message}`);
+    if (!result.ok)
+      setDownloadError(result.status === 401 ? "Sign in again to download." : `Could not download: ${result.message}`);
   }
 
   const today = isoDay(now);
@@ -91,7 +92,11 @@ export function FieldHome() {
       <header>
         <h1 className="text-figure font-bold">Field log</h1>
         <p className="text-lead" data-testid="operator">
-          {session === undefined ? "Checking who is signed in…" : session ? `Operator: ${session.name}` : "Nobody is signed in on this tablet yet."}
+          {session === undefined
+            ? "Checking who is signed in…"
+            : session
+              ? `Operator: ${session.name}`
+              : "Nobody is signed in on this tablet yet."}
         </p>
         {session === null && (
           <a className="btn-primary mt-3" href="/sign-in?callbackUrl=/field">
@@ -107,21 +112,29 @@ export function FieldHome() {
           Ready offline
         </h2>
         {ready === undefined && <p>Reading the tablet&apos;s storage…</p>}
-        {ready?.length === 0 && <p className="card">No pours on this tablet yet. Take one out below while you have signal.</p>}
+        {ready?.length === 0 && (
+          <p className="card">No pours on this tablet yet. Take one out below while you have signal.</p>
+        )}
         <ul className="grid gap-4 md:grid-cols-2">
           {ready?.map(({ pour, project, tendons, stressed, sets, calibrations, lots }) => {
             const warnings = sets.flatMap((set) => {
-              const current = calibrations.filter((c) => c.equipmentSetId === set.id).sort((a, b) => b.calibratedOn.localeCompare(a.calibratedOn))[0];
+              const current = calibrations
+                .filter((c) => c.equipmentSetId === set.id)
+                .sort((a, b) => b.calibratedOn.localeCompare(a.calibratedOn))[0];
               if (!current) return [`${set.name} has no calibration: a reason is needed to use it.`];
-              if (current.validUntil < today) return [`${set.name}: calibration expired on ${current.validUntil}; a reason is needed to use it.`];
-              if (current.validUntil <= tomorrow) return [`${set.name}: calibration runs out on ${current.validUntil}, during or just after this shift.`];
+              if (current.validUntil < today)
+                return [`${set.name}: calibration expired on ${current.validUntil}; a reason is needed to use it.`];
+              if (current.validUntil <= tomorrow)
+                return [`${set.name}: calibration runs out on ${current.validUntil}, during or just after this shift.`];
               return [];
             });
             return (
               <li key={pour.id} className="card grid gap-2" data-testid="ready-pour">
                 <div className="flex flex-wrap items-baseline justify-between gap-2">
                   <h3 className="text-lead font-bold">{pour.name}</h3>
-                  <span className="text-label font-semibold uppercase text-ink-faint">{project ? `${project.code} · ${project.name}` : ""}</span>
+                  <span className="text-label font-semibold uppercase text-ink-faint">
+                    {project ? `${project.code} · ${project.name}` : ""}
+                  </span>
                 </div>
                 {pour.release || pour.status === "released" ? <ReleasedMark /> : null}
                 {!pour.release && pour.reopened && (
@@ -136,16 +149,33 @@ export function FieldHome() {
                   Ready offline
                 </p>
                 <p data-testid="ready-counts">
-                  {tendons} tendons ({stressed} with records) · {sets.length} equipment sets · {calibrations.length} calibrations · {lots} strand lots
+                  {tendons} tendons ({stressed} with records) · {sets.length} equipment sets · {calibrations.length}{" "}
+                  calibrations · {lots} strand lots
                 </p>
                 <p className="text-ink-soft" data-testid="ready-age">
-                  Data from {clockTime(pour.downloadedAt)} ({ago(pour.downloadedAt, now)}), kept up to date at each sync.
+                  Data from {clockTime(pour.downloadedAt)} ({ago(pour.downloadedAt, now)}), kept up to date at each
+                  sync.
                 </p>
-                {pour.unavailable && <p className="font-bold text-signal-stop">The server no longer lists this pour for you; records already made here are still sent.</p>}
+                {pour.unavailable && (
+                  <p className="font-bold text-signal-stop">
+                    The server no longer lists this pour for you; records already made here are still sent.
+                  </p>
+                )}
                 {warnings.map((w) => (
-                  <p key={w} role="alert" className="flex gap-2 rounded-md bg-signal-stop-bg p-2 font-semibold text-signal-stop" data-testid="calibration-warning">
+                  <p
+                    key={w}
+                    role="alert"
+                    className="flex gap-2 rounded-md bg-signal-stop-bg p-2 font-semibold text-signal-stop"
+                    data-testid="calibration-warning"
+                  >
                     <svg viewBox="0 0 24 24" className="mt-1 h-5 w-5 shrink-0" aria-hidden="true">
-                      <path d="M12 2 L23 21 H1 Z M12 9 V14 M12 17 V18" fill="none" stroke="currentColor" strokeWidth="2.5" strokeLinejoin="round" />
+                      <path
+                        d="M12 2 L23 21 H1 Z M12 9 V14 M12 17 V18"
+                        fill="none"
+                        stroke="currentColor"
+                        strokeWidth="2.5"
+                        strokeLinejoin="round"
+                      />
                     </svg>
                     {w}
                   </p>
@@ -154,7 +184,12 @@ export function FieldHome() {
                   <a className="btn-primary" href={`/field/pour?id=${pour.id}`}>
                     Open tendon list
                   </a>
-                  <button type="button" className="btn-quiet" disabled={downloading === pour.id} onClick={() => void download(pour.id)}>
+                  <button
+                    type="button"
+                    className="btn-quiet"
+                    disabled={downloading === pour.id}
+                    onClick={() => void download(pour.id)}
+                  >
                     {downloading === pour.id ? "Refreshing…" : "Refresh now"}
                   </button>
                 </div>
@@ -178,15 +213,25 @@ export function FieldHome() {
         {available?.length === 0 && <p className="card">There are no pours on your crew&apos;s projects yet.</p>}
         <ul className="grid gap-3 md:grid-cols-2">
           {available?.map((p) => (
-            <li key={p.id} className="card flex flex-wrap items-center justify-between gap-3" data-testid="available-pour">
+            <li
+              key={p.id}
+              className="card flex flex-wrap items-center justify-between gap-3"
+              data-testid="available-pour"
+            >
               <div>
                 <p className="font-bold">{p.name}</p>
                 <p className="text-ink-soft">
-                  {p.projectCode} · {p.tendonCount} tendons{p.plannedStressingDate ? ` · stressing ${p.plannedStressingDate}` : ""}
+                  {p.projectCode} · {p.tendonCount} tendons
+                  {p.plannedStressingDate ? ` · stressing ${p.plannedStressingDate}` : ""}
                 </p>
                 {p.status === "released" && <ReleasedMark />}
               </div>
-              <button type="button" className="btn-primary" disabled={downloading === p.id} onClick={() => void download(p.id)}>
+              <button
+                type="button"
+                className="btn-primary"
+                disabled={downloading === p.id}
+                onClick={() => void download(p.id)}
+              >
                 {downloading === p.id ? "Downloading…" : readyIds.has(p.id) ? "Download again" : `Download ${p.name}`}
               </button>
             </li>

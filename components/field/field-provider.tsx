@@ -51,7 +51,9 @@ async function refreshSession(db: FieldDb): Promise<void> {
     userId: me.id,
     name: me.name,
     email: me.email,
-    projects: me.memberships.filter((m) => m.role === "crew").map(({ projectId, projectName, projectCode }) => ({ projectId, projectName, projectCode })),
+    projects: me.memberships
+      .filter((m) => m.role === "crew")
+      .map(({ projectId, projectName, projectCode }) => ({ projectId, projectName, projectCode })),
     checkedAt: new Date().toISOString(),
   };
   await writeMeta(db, "session", session);

@@ -3,7 +3,10 @@ import { useState } from "react";
 import type { LocalPhoto } from "@/lib/offline/db";
 
 /** A photo as the tablet will store it, with a preview URL until it is saved. */
-export type PickedPhoto = Pick<LocalPhoto, "id" | "blob" | "contentType" | "sizeBytes" | "width" | "height" | "takenAt"> & {
+export type PickedPhoto = Pick<
+  LocalPhoto,
+  "id" | "blob" | "contentType" | "sizeBytes" | "width" | "height" | "takenAt"
+> & {
   url: string;
 };
 
@@ -20,11 +23,28 @@ async function resize(file: File): Promise<PickedPhoto> {
   canvas.height = height;
   canvas.getContext("2d")!.drawImage(bitmap, 0, 0, width, height);
   bitmap.close();
-  const blob = await new Promise<Blob>((resolve, reject) => canvas.toBlob((b) => (b ? resolve(b) : reject(new Error("The photo could not be read."))), "image/jpeg", 0.82));
-  return { id: crypto.randomUUID(), blob, contentType: "image/jpeg", sizeBytes: blob.size, width, height, takenAt: new Date().toISOString(), url: URL.createObjectURL(blob) };
+  const blob = await new Promise<Blob>((resolve, reject) =>
+    canvas.toBlob((b) => (b ? resolve(b) : reject(new Error("The photo could not be read."))), "image/jpeg", 0.82),
+  );
+  return {
+    id: crypto.randomUUID(),
+    blob,
+    contentType: "image/jpeg",
+    sizeBytes: blob.size,
+    width,
+    height,
+    takenAt: new Date().toISOString(),
+    url: URL.createObjectURL(blob),
+  };
 }
 
-export function PhotoPicker({ photos, onChange }: { photos: PickedPhoto[]; onChange: (photos: PickedPhoto[]) => void }) {
+export function PhotoPicker({
+  photos,
+  onChange,
+}: {
+  photos: PickedPhoto[];
+  onChange: (photos: PickedPhoto[]) => void;
+}) {
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
   return (
@@ -60,17 +80,23 @@ export function PhotoPicker({ photos, onChange }: { photos: PickedPhoto[]; onCha
             <li key={p.id} className="grid gap-1">
               {/* eslint-disable-next-line @next/next/no-img-element -- a local blob, not a served image */}
               <img src={p.url} alt="Photo to keep with this record" className="h-24 w-24 rounded-md object-cover" />
-              <button type="button" className="btn-quiet" onClick={() => {
+              <button
+                type="button"
+                className="btn-quiet"
+                onClick={() => {
                   URL.revokeObjectURL(p.url);
                   onChange(photos.filter((x) => x.id !== p.id));
-                }}>
+                }}
+              >
                 Remove
               </button>
             </li>
           ))}
         </ul>
       )}
-      <p className="text-label text-ink-faint">Stored on the tablet with the record; uploaded after the record reaches the server.</p>
+      <p className="text-label text-ink-faint">
+        Stored on the tablet with the record; uploaded after the record reaches the server.
+      </p>
     </fieldset>
   );
 }

@@ -1,7 +1,14 @@
 "use client";
 import { useMemo, useState, useSyncExternalStore } from "react";
 import { readMeta, type LocalRecord, type SessionMeta } from "@/lib/offline/db";
-import { calibrationFor, currentEnds, provisionalVerdict, targetFor, tendonState, type TendonState } from "@/lib/offline/tendon-view";
+import {
+  calibrationFor,
+  currentEnds,
+  provisionalVerdict,
+  targetFor,
+  tendonState,
+  type TendonState,
+} from "@/lib/offline/tendon-view";
 import { cutClearanceOf, holdsOf, holdSummary } from "@/lib/offline/hold-view";
 import { projectTimeZone } from "@/lib/format/dates";
 import type { FieldEvaluation, FieldFlag, FieldTendon } from "@/lib/schemas/sync";
@@ -26,9 +33,19 @@ const STATE_LOOK: Record<TendonState, { icon: string; cls: string }> = {
 function StateMark({ state }: { state: TendonState }) {
   const look = STATE_LOOK[state];
   return (
-    <span className={`inline-flex items-center gap-1 rounded-md border-2 px-2 text-label font-bold uppercase ${look.cls}`} data-state={state}>
+    <span
+      className={`inline-flex items-center gap-1 rounded-md border-2 px-2 text-label font-bold uppercase ${look.cls}`}
+      data-state={state}
+    >
       <svg viewBox="0 0 24 24" className="h-4 w-4" aria-hidden="true">
-        <path d={look.icon} fill="none" stroke="currentColor" strokeWidth="3" strokeLinecap="round" strokeLinejoin="round" />
+        <path
+          d={look.icon}
+          fill="none"
+          stroke="currentColor"
+          strokeWidth="3"
+          strokeLinecap="round"
+          strokeLinejoin="round"
+        />
       </svg>
       {state}
     </span>
@@ -42,7 +59,11 @@ const subscribeToHistory = (onChange: () => void) => {
 
 /** The pour and tendon named in the address (?id=…&tendon=…): the page is one cached shell for every pour. */
 function useAddress(): [URLSearchParams, (tendonId: string) => void] {
-  const search = useSyncExternalStore(subscribeToHistory, () => window.location.search, () => "");
+  const search = useSyncExternalStore(
+    subscribeToHistory,
+    () => window.location.search,
+    () => "",
+  );
   const params = useMemo(() => new URLSearchParams(search), [search]);
   const select = (tendonId: string) => {
     const next = new URLSearchParams(window.location.search);
@@ -54,7 +75,10 @@ function useAddress(): [URLSearchParams, (tendonId: string) => void] {
 }
 
 const latestOf = (evaluations: FieldEvaluation[], tendonId: string) =>
-  evaluations.filter((e) => e.tendonId === tendonId).sort((a, b) => a.createdAt.localeCompare(b.createdAt)).at(-1);
+  evaluations
+    .filter((e) => e.tendonId === tendonId)
+    .sort((a, b) => a.createdAt.localeCompare(b.createdAt))
+    .at(-1);
 
 export function PourLog() {
   const { db } = useField();
@@ -79,7 +103,11 @@ export function PourLog() {
       readMeta<SessionMeta>(db, "session"),
     ]);
     const ids = tendons.map((t) => t.id);
-    const [evaluations, flags, tailCuts] = await Promise.all([db.evaluations.where("tendonId").anyOf(ids).toArray(), db.flags.where("tendonId").anyOf(ids).toArray(), db.tailCuts.where("pourId").equals(pourId).toArray()]);
+    const [evaluations, flags, tailCuts] = await Promise.all([
+      db.evaluations.where("tendonId").anyOf(ids).toArray(),
+      db.flags.where("tendonId").anyOf(ids).toArray(),
+      db.tailCuts.where("pourId").equals(pourId).toArray(),
+    ]);
     return { pour, project, tendons, records, sets, calibrations, lots, session, evaluations, flags, tailCuts };
   }, [db, pourId]);
 
@@ -97,12 +125,32 @@ export function PourLog() {
   }
   const { pour, project, tendons, records, sets, calibrations, lots, session, evaluations, flags, tailCuts } = data;
   const recordsOf = (t: FieldTendon) => records.filter((r) => r.tendonId === t.id);
-  const states = new Map(tendons.map((t) => [t.id, tendonState(t, recordsOf(t), flags.filter((f) => f.tendonId === t.id), latestOf(evaluations, t.id))]));
+  const states = new Map(
+    tendons.map((t) => [
+      t.id,
+      tendonState(
+        t,
+        recordsOf(t),
+        flags.filter((f) => f.tendonId === t.id),
+        latestOf(evaluations, t.id),
+      ),
+    ]),
+  );
   const flagsOf = (t: FieldTendon) => flags.filter((f) => f.tendonId === t.id);
   const holdWords = new Map(tendons.map((t) => [t.id, holdSummary(holdsOf(flagsOf(t)))]));
   const cutOf = new Map(tailCuts.map((c) => [c.tendonId, c]));
   const clearance = new Map(
-    tendons.map((t) => [t.id, cutClearanceOf({ tendon: t, records: recordsOf(t), flags: flagsOf(t), heldOnTablet: states.get(t.id) === "flagged", project, pour })]),
+    tendons.map((t) => [
+      t.id,
+      cutClearanceOf({
+        tendon: t,
+        records: recordsOf(t),
+        flags: flagsOf(t),
+        heldOnTablet: states.get(t.id) === "flagged",
+        project,
+        pour,
+      }),
+    ]),
   );
   const clearToCut = tendons.filter((t) => !cutOf.has(t.id) && clearance.get(t.id)!.clear);
   const timeZone = projectTimeZone(project);
@@ -111,7 +159,9 @@ export function PourLog() {
     .filter((t) => t.tag.toLowerCase().includes(query.trim().toLowerCase()))
     .sort((a, b) => Number(states.get(b.id) === "flagged") - Number(states.get(a.id) === "flagged"));
   const selected = tendons.find((t) => t.id === selectedId) ?? null;
-  const next = tendons.find((t) => t.id !== selected?.id && (states.get(t.id) === "not stressed" || states.get(t.id) === "one end done"));
+  const next = tendons.find(
+    (t) => t.id !== selected?.id && (states.get(t.id) === "not stressed" || states.get(t.id) === "one end done"),
+  );
   // A flagged tendon was stressed too: it counts with the done ones, and the header says how many wait on a decision.
   const stressedCount = [...states.values()].filter((s) => s === "done" || s === "flagged").length;
   const flaggedCount = [...states.values()].filter((s) => s === "flagged").length;
@@ -124,7 +174,10 @@ export function PourLog() {
 
   return (
     <main className="grid gap-4 p-4 landscape:grid-cols-[minmax(0,2fr)_minmax(0,3fr)] landscape:items-start">
-      <section aria-label="Tendons" className="grid gap-3 landscape:sticky landscape:top-28 landscape:max-h-[calc(100vh-8rem)] landscape:overflow-y-auto">
+      <section
+        aria-label="Tendons"
+        className="grid gap-3 landscape:sticky landscape:top-28 landscape:max-h-[calc(100vh-8rem)] landscape:overflow-y-auto"
+      >
         <div className="flex flex-wrap items-baseline justify-between gap-2">
           <h1 className="text-figure font-bold">{pour.name}</h1>
           <a href="/field" className="btn-quiet">
@@ -132,11 +185,16 @@ export function PourLog() {
           </a>
         </div>
         <p className="text-ink-soft" data-testid="pour-progress">
-          {project.code} · {tendons.length} tendons · {stressedCount} stressed{flaggedCount ? ` (${flaggedCount} flagged)` : ""}
+          {project.code} · {tendons.length} tendons · {stressedCount} stressed
+          {flaggedCount ? ` (${flaggedCount} flagged)` : ""}
         </p>
         <PourReleaseNote pour={pour} />
         {!concreteGateMet(pour.concreteStrengthMpa ?? null, project.requiredConcreteMpa ?? null) && (
-          <p role="status" className="rounded-md border-2 border-signal-stop p-3 font-bold text-signal-stop" data-testid="concrete-gate-field">
+          <p
+            role="status"
+            className="rounded-md border-2 border-signal-stop p-3 font-bold text-signal-stop"
+            data-testid="concrete-gate-field"
+          >
             <span aria-hidden="true">⚠ </span>
             Concrete not confirmed: do not stress.{" "}
             <span className="font-normal text-ink">
@@ -150,13 +208,29 @@ export function PourLog() {
         <label htmlFor="tendon-search" className="field-label">
           Find a tendon by tag
         </label>
-        <input id="tendon-search" type="search" className="field-input" value={query} onChange={(e) => setQuery(e.target.value)} placeholder="e.g. U07" autoComplete="off" />
+        <input
+          id="tendon-search"
+          type="search"
+          className="field-input"
+          value={query}
+          onChange={(e) => setQuery(e.target.value)}
+          placeholder="e.g. U07"
+          autoComplete="off"
+        />
         {next && (
           <button type="button" className="btn-primary" onClick={() => go(next)} data-testid="next-tendon">
             Next tendon: {next.tag}
           </button>
         )}
-        {session && <CutAllClear projectId={pour.projectId} pourId={pour.id} clear={clearToCut} session={session} timeZone={timeZone} />}
+        {session && (
+          <CutAllClear
+            projectId={pour.projectId}
+            pourId={pour.id}
+            clear={clearToCut}
+            session={session}
+            timeZone={timeZone}
+          />
+        )}
         {shown.length === 0 && <p>No tendon tag contains “{query}”.</p>}
         <ul className="grid gap-1 portrait:max-h-[34vh] portrait:overflow-y-auto" data-testid="tendon-list">
           {shown.map((t) => (
@@ -226,7 +300,13 @@ export function PourLog() {
             flags={flagsOf(selected)}
             tailsCut={cutOf.has(selected.id)}
             tailCut={
-              <TailCutPanel tendon={selected} clearance={clearance.get(selected.id)!} cut={cutOf.get(selected.id)} session={session} timeZone={timeZone} />
+              <TailCutPanel
+                tendon={selected}
+                clearance={clearance.get(selected.id)!}
+                cut={cutOf.get(selected.id)}
+                session={session}
+                timeZone={timeZone}
+              />
             }
           />
         )}
@@ -266,9 +346,17 @@ function TendonPanel(props: {
   const lengthMm = tendon.segments.reduce((s, seg) => s + seg.lengthMm, 0);
   const newest = Object.values(ends).sort((a, b) => (a!.savedAt < b!.savedAt ? 1 : -1))[0] ?? null;
   const today = new Date().toLocaleDateString("en-CA");
-  const newestSet = newest ? sets.find((s) => s.id === newest.equipmentSetId) ?? null : null;
-  const local = records.length ? provisionalVerdict({ project, tendon, lot, set: newestSet, calibrations }, records) : null;
-  const target = newest && newestSet ? targetFor({ project, tendon, lot, set: newestSet, calibrations }, calibrationFor(calibrations, newestSet.id, today).calibration) : null;
+  const newestSet = newest ? (sets.find((s) => s.id === newest.equipmentSetId) ?? null) : null;
+  const local = records.length
+    ? provisionalVerdict({ project, tendon, lot, set: newestSet, calibrations }, records)
+    : null;
+  const target =
+    newest && newestSet
+      ? targetFor(
+          { project, tendon, lot, set: newestSet, calibrations },
+          calibrationFor(calibrations, newestSet.id, today).calibration,
+        )
+      : null;
   const [adding, setAdding] = useState(false);
   const showForm = !props.released && (Boolean(props.correcting) || adding || !allDone);
 
@@ -282,7 +370,9 @@ function TendonPanel(props: {
           <StateMark state={props.state} />
         </div>
         <p>
-          {tendon.strandCount} × {tendon.strandSize} strand · {project.unitSystem === "us" ? `${(lengthMm / 304.8).toFixed(1)} ft` : `${(lengthMm / 1000).toFixed(2)} m`} long · stressed at {tendon.ends === "both" ? "both ends" : `end ${tendon.ends}`}
+          {tendon.strandCount} × {tendon.strandSize} strand ·{" "}
+          {project.unitSystem === "us" ? `${(lengthMm / 304.8).toFixed(1)} ft` : `${(lengthMm / 1000).toFixed(2)} m`}{" "}
+          long · stressed at {tendon.ends === "both" ? "both ends" : `end ${tendon.ends}`}
           {lot ? ` · lot ${lot.lotNumber}` : ""}
         </p>
       </header>
@@ -293,7 +383,9 @@ function TendonPanel(props: {
         <>
           {props.justSaved && (
             <p className="font-bold" role="status" data-testid="saved-note">
-              {newest?.syncState === "synced" ? "Saved on this tablet and received by the server." : "Saved on this tablet. It is sent when there is signal."}
+              {newest?.syncState === "synced"
+                ? "Saved on this tablet and received by the server."
+                : "Saved on this tablet. It is sent when there is signal."}
             </p>
           )}
           <VerdictPanel project={project} local={local} server={newest?.server} targetMPa={target} />
@@ -302,13 +394,25 @@ function TendonPanel(props: {
             {wanted.map((end) => {
               const r = ends[end];
               return (
-                <div key={end} className="flex flex-wrap items-center justify-between gap-2 border-t border-concrete-300 pt-2" data-testid={`end-${end}`}>
+                <div
+                  key={end}
+                  className="flex flex-wrap items-center justify-between gap-2 border-t border-concrete-300 pt-2"
+                  data-testid={`end-${end}`}
+                >
                   {r ? (
                     <>
                       <p>
-                        End {end}: <strong>{showLength(u, r.measuredMm)}</strong> at {showPressure(u, r.finalPressureMPa)} · {r.authorName} · {new Date(r.deviceTime).toLocaleTimeString(undefined, { hour: "2-digit", minute: "2-digit" })}
+                        End {end}: <strong>{showLength(u, r.measuredMm)}</strong> at{" "}
+                        {showPressure(u, r.finalPressureMPa)} · {r.authorName} ·{" "}
+                        {new Date(r.deviceTime).toLocaleTimeString(undefined, { hour: "2-digit", minute: "2-digit" })}
                         {r.revision > 1 ? ` · revision ${r.revision} (${r.revisionReason})` : ""} ·{" "}
-                        <span data-testid="sync-state">{r.syncState === "synced" ? "sent" : r.syncState === "pending" ? "waiting to send" : `needs attention (${r.syncState})`}</span>
+                        <span data-testid="sync-state">
+                          {r.syncState === "synced"
+                            ? "sent"
+                            : r.syncState === "pending"
+                              ? "waiting to send"
+                              : `needs attention (${r.syncState})`}
+                        </span>
                       </p>
                       {!props.released && (
                         <button type="button" className="btn-quiet" onClick={() => props.onCorrect(r)}>

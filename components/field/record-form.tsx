@@ -51,13 +51,30 @@ function FractionKeys({ value, onPick }: { value: string; onPick: (next: string)
   );
 }
 
-function NumberBox(props: { id: string; label: string; unit: string; reg: UseFormRegisterReturn; error?: string; hint?: string; keys?: React.ReactNode; numeric?: boolean }) {
+function NumberBox(props: {
+  id: string;
+  label: string;
+  unit: string;
+  reg: UseFormRegisterReturn;
+  error?: string;
+  hint?: string;
+  keys?: React.ReactNode;
+  numeric?: boolean;
+}) {
   return (
     <div>
       <label htmlFor={props.id} className="field-label">
         {props.label} <span className="normal-case">({props.unit})</span>
       </label>
-      <input id={props.id} type="text" inputMode={props.numeric ? "numeric" : "decimal"} autoComplete="off" className="field-input text-lead tabular-nums" aria-invalid={Boolean(props.error)} {...props.reg} />
+      <input
+        id={props.id}
+        type="text"
+        inputMode={props.numeric ? "numeric" : "decimal"}
+        autoComplete="off"
+        className="field-input text-lead tabular-nums"
+        aria-invalid={Boolean(props.error)}
+        {...props.reg}
+      />
       {props.hint && <p className="text-label text-ink-faint">{props.hint}</p>}
       {props.keys}
       <FieldError message={props.error} />
@@ -109,8 +126,14 @@ export function RecordForm({
   const today = fieldDay(ctx.project);
   const ends = stressedEnds(ctx.tendon.ends);
   const doneEnds = new Set(records.filter((r) => !r.supersededBy).map((r) => r.tendonEnd));
-  const expiredSetIds = useMemo(() => sets.filter((s) => s && calibrationFor(ctx.calibrations, s.id, today).expired).map((s) => s!.id), [sets, ctx.calibrations, today]);
-  const schema = useMemo(() => recordFormSchema({ units: entryUnits, expiredSetIds, ends, correction: Boolean(correcting) }), [entryUnits, expiredSetIds, ends, correcting]);
+  const expiredSetIds = useMemo(
+    () => sets.filter((s) => s && calibrationFor(ctx.calibrations, s.id, today).expired).map((s) => s!.id),
+    [sets, ctx.calibrations, today],
+  );
+  const schema = useMemo(
+    () => recordFormSchema({ units: entryUnits, expiredSetIds, ends, correction: Boolean(correcting) }),
+    [entryUnits, expiredSetIds, ends, correcting],
+  );
   const defaults = useMemo<RecordFormValues>(
     () =>
       correcting
@@ -173,28 +196,52 @@ export function RecordForm({
         timeZone: Intl.DateTimeFormat().resolvedOptions().timeZone || "UTC",
       });
       // A gauge reading the calibration does not cover gives no known force: refused, never judged.
-      if (cal.calibration && (payload.finalPressureMPa < cal.calibration.minPressureMPa || payload.finalPressureMPa > cal.calibration.maxPressureMPa)) {
+      if (
+        cal.calibration &&
+        (payload.finalPressureMPa < cal.calibration.minPressureMPa ||
+          payload.finalPressureMPa > cal.calibration.maxPressureMPa)
+      ) {
         form.setError("finalPressure", {
           message: `Outside the calibrated range ${showPressure(units(ctx.project), cal.calibration.minPressureMPa)} to ${showPressure(units(ctx.project), cal.calibration.maxPressureMPa)}: read the gauge again.`,
         });
         return;
       }
-      const target = cal.calibration ? targetFor({ ...ctx, set: sets.find((s) => s?.id === values.equipmentSetId) ?? null }, cal.calibration) : null;
+      const target = cal.calibration
+        ? targetFor({ ...ctx, set: sets.find((s) => s?.id === values.equipmentSetId) ?? null }, cal.calibration)
+        : null;
       const offPct = target ? ((payload.finalPressureMPa - target) / target) * 100 : 0;
       if (Math.abs(offPct) > ctx.project.tolerancePct) {
         if (!offTarget || offTarget.reason.trim().length < 3) {
           setOffTarget({ pct: offPct, reason: offTarget?.reason ?? "" });
-          setSaveError(`The final pressure is ${offPct >= 0 ? "+" : "−"}${Math.abs(offPct).toFixed(1)} % from the target ${showPressure(units(ctx.project), target!)}: read the gauge again, or say why below and save again.`);
+          setSaveError(
+            `The final pressure is ${offPct >= 0 ? "+" : "−"}${Math.abs(offPct).toFixed(1)} % from the target ${showPressure(units(ctx.project), target!)}: read the gauge again, or say why below and save again.`,
+          );
           return;
         }
-        payload.remarks = [`Gauge ${offPct >= 0 ? "+" : "−"}${Math.abs(offPct).toFixed(1)} % off target: ${offTarget.reason.trim()}`, payload.remarks].filter(Boolean).join(" · ").slice(0, 2000);
+        payload.remarks = [
+          `Gauge ${offPct >= 0 ? "+" : "−"}${Math.abs(offPct).toFixed(1)} % off target: ${offTarget.reason.trim()}`,
+          payload.remarks,
+        ]
+          .filter(Boolean)
+          .join(" · ")
+          .slice(0, 2000);
       }
       // The same check the server makes, before anything is stored.
       const checked = recordPayloadSchema.safeParse(payload);
       if (!checked.success) throw new Error(checked.error.issues.map((i) => i.message).join(" "));
       const chosen = sets.find((s) => s?.id === values.equipmentSetId) ?? null;
-      const draft = { ...payload, id: recordId, syncState: "pending", authorName: session.name, savedAt: payload.deviceTime, supersededBy: null } as LocalRecord;
-      const local = provisionalVerdict({ ...ctx, set: chosen }, [...records.filter((r) => r.id !== correcting?.id), draft]);
+      const draft = {
+        ...payload,
+        id: recordId,
+        syncState: "pending",
+        authorName: session.name,
+        savedAt: payload.deviceTime,
+        supersededBy: null,
+      } as LocalRecord;
+      const local = provisionalVerdict({ ...ctx, set: chosen }, [
+        ...records.filter((r) => r.id !== correcting?.id),
+        draft,
+      ]);
       await saveRecord(db, {
         recordId,
         payload,
@@ -217,15 +264,29 @@ export function RecordForm({
   }
 
   return (
-    <form onSubmit={handleSubmit(submit)} className="card grid gap-5" aria-label={correcting ? "Correct the record" : "New record"} noValidate>
-      <h3 className="text-lead font-bold">{correcting ? `Correct end ${correcting.tendonEnd} (revision ${correcting.revision + 1})` : `Record ${ctx.tendon.tag}`}</h3>
+    <form
+      onSubmit={handleSubmit(submit)}
+      className="card grid gap-5"
+      aria-label={correcting ? "Correct the record" : "New record"}
+      noValidate
+    >
+      <h3 className="text-lead font-bold">
+        {correcting
+          ? `Correct end ${correcting.tendonEnd} (revision ${correcting.revision + 1})`
+          : `Record ${ctx.tendon.tag}`}
+      </h3>
 
       {correcting && (
         <div>
           <label htmlFor="revisionReason" className="field-label">
             Why is it corrected?
           </label>
-          <input id="revisionReason" className="field-input" {...register("revisionReason")} placeholder="e.g. read the wrong mark" />
+          <input
+            id="revisionReason"
+            className="field-input"
+            {...register("revisionReason")}
+            placeholder="e.g. read the wrong mark"
+          />
           <FieldError message={err.revisionReason?.message} />
         </div>
       )}
@@ -234,8 +295,17 @@ export function RecordForm({
         <legend className="field-label">Tendon end</legend>
         <div className="mt-1 flex gap-2">
           {(["A", "B"] as const).map((end) => (
-            <label key={end} className={`btn-quiet has-checked:bg-ink has-checked:text-concrete-50 ${ends.includes(end) && !correcting ? "" : "opacity-40"}`}>
-              <input type="radio" value={end} className="sr-only" disabled={!ends.includes(end) || Boolean(correcting)} {...register("tendonEnd")} />
+            <label
+              key={end}
+              className={`btn-quiet has-checked:bg-ink has-checked:text-concrete-50 ${ends.includes(end) && !correcting ? "" : "opacity-40"}`}
+            >
+              <input
+                type="radio"
+                value={end}
+                className="sr-only"
+                disabled={!ends.includes(end) || Boolean(correcting)}
+                {...register("tendonEnd")}
+              />
               End {end}
               {doneEnds.has(end) && !correcting ? " (done)" : ""}
             </label>
@@ -251,13 +321,18 @@ export function RecordForm({
           {sets.map((s) => {
             const c = calibrationFor(ctx.calibrations, s!.id, today);
             return (
-              <label key={s!.id} className="flex min-h-touch cursor-pointer items-center gap-3 rounded-md border-2 border-concrete-500 px-3 has-checked:border-ink has-checked:bg-concrete-100">
+              <label
+                key={s!.id}
+                className="flex min-h-touch cursor-pointer items-center gap-3 rounded-md border-2 border-concrete-500 px-3 has-checked:border-ink has-checked:bg-concrete-100"
+              >
                 <input type="radio" value={s!.id} className="h-6 w-6" {...register("equipmentSetId")} />
                 <span>
                   <strong>{s!.name}</strong> · gauge {s!.gaugeSerial}
                   <br />
                   <span className={c.expired ? "font-bold text-signal-stop" : "text-ink-soft"}>
-                    {c.calibration ? `${c.expired ? "Calibration EXPIRED" : "Calibrated"} until ${c.calibration.validUntil}` : "No calibration"}
+                    {c.calibration
+                      ? `${c.expired ? "Calibration EXPIRED" : "Calibrated"} until ${c.calibration.validUntil}`
+                      : "No calibration"}
                   </span>
                 </span>
               </label>
@@ -282,12 +357,29 @@ export function RecordForm({
           {!set ? "Pick a set" : targetMPa === null ? "No calibration" : showPressure(units(ctx.project), targetMPa)}
         </p>
         {/* Blind entry keeps the predicted elongation and its band from the reader, never the pressure to pump to. */}
-        {blind && <p className="text-ink-soft" data-testid="blind-note">Blind entry: the predicted elongation and its band are shown after saving.</p>}
+        {blind && (
+          <p className="text-ink-soft" data-testid="blind-note">
+            Blind entry: the predicted elongation and its band are shown after saving.
+          </p>
+        )}
       </div>
 
       <div className="grid gap-4 sm:grid-cols-2">
-        <NumberBox id="initialPressure" label="Initial gauge pressure" unit={entryUnits.pressure} reg={register("initialPressure")} error={err.initialPressure?.message} hint="Where the marks were set; leave empty if from zero." />
-        <NumberBox id="finalPressure" label="Final gauge pressure" unit={entryUnits.pressure} reg={register("finalPressure")} error={err.finalPressure?.message} />
+        <NumberBox
+          id="initialPressure"
+          label="Initial gauge pressure"
+          unit={entryUnits.pressure}
+          reg={register("initialPressure")}
+          error={err.initialPressure?.message}
+          hint="Where the marks were set; leave empty if from zero."
+        />
+        <NumberBox
+          id="finalPressure"
+          label="Final gauge pressure"
+          unit={entryUnits.pressure}
+          reg={register("finalPressure")}
+          error={err.finalPressure?.message}
+        />
       </div>
 
       {ends.length === 2 && (
@@ -329,7 +421,11 @@ export function RecordForm({
             unit={entryUnits.length}
             reg={register("marksBefore")}
             error={err.marksBefore?.message}
-            keys={inches && <FractionKeys value={marksBefore} onPick={(v) => setValue("marksBefore", v, { shouldDirty: true })} />}
+            keys={
+              inches && (
+                <FractionKeys value={marksBefore} onPick={(v) => setValue("marksBefore", v, { shouldDirty: true })} />
+              )
+            }
           />
           <NumberBox
             id="marksAfter"
@@ -337,7 +433,11 @@ export function RecordForm({
             unit={entryUnits.length}
             reg={register("marksAfter")}
             error={err.marksAfter?.message}
-            keys={inches && <FractionKeys value={marksAfter} onPick={(v) => setValue("marksAfter", v, { shouldDirty: true })} />}
+            keys={
+              inches && (
+                <FractionKeys value={marksAfter} onPick={(v) => setValue("marksAfter", v, { shouldDirty: true })} />
+              )
+            }
           />
         </div>
       ) : (
@@ -345,7 +445,13 @@ export function RecordForm({
           {strokes.fields.map((f, i) => (
             <div key={f.id} className="flex items-end gap-2">
               <div className="flex-1">
-                <NumberBox id={`stroke-${i}`} label={`Stroke ${i + 1}`} unit={entryUnits.length} reg={register(`strokes.${i}.value`)} error={err.strokes?.[i]?.value?.message} />
+                <NumberBox
+                  id={`stroke-${i}`}
+                  label={`Stroke ${i + 1}`}
+                  unit={entryUnits.length}
+                  reg={register(`strokes.${i}.value`)}
+                  error={err.strokes?.[i]?.value?.message}
+                />
               </div>
               {strokes.fields.length > 1 && (
                 <button type="button" className="btn-quiet" onClick={() => strokes.remove(i)}>
@@ -354,19 +460,46 @@ export function RecordForm({
               )}
             </div>
           ))}
-          <button type="button" className="btn-quiet w-fit" onClick={() => strokes.append({ value: "" })} disabled={strokes.fields.length >= 8}>
+          <button
+            type="button"
+            className="btn-quiet w-fit"
+            onClick={() => strokes.append({ value: "" })}
+            disabled={strokes.fields.length >= 8}
+          >
             Add a stroke
           </button>
           {strokes.fields.length > 1 && (
-            <NumberBox id="drawIn" label="Draw-in at each re-grip" unit={entryUnits.length} reg={register("drawIn")} error={err.drawIn?.message} hint="Taken off the sum once per re-grip; leave empty if none." />
+            <NumberBox
+              id="drawIn"
+              label="Draw-in at each re-grip"
+              unit={entryUnits.length}
+              reg={register("drawIn")}
+              error={err.drawIn?.message}
+              hint="Taken off the sum once per re-grip; leave empty if none."
+            />
           )}
-          <p className="text-label text-ink-faint">The strokes are added up into the elongation and compared gross, with the strand inside the jack.</p>
+          <p className="text-label text-ink-faint">
+            The strokes are added up into the elongation and compared gross, with the strand inside the jack.
+          </p>
         </div>
       )}
 
       <div className="grid gap-4 sm:grid-cols-2">
-        <NumberBox id="seating" label="Measured seating (if taken)" unit={entryUnits.length} reg={register("seating")} error={err.seating?.message} />
-        <NumberBox id="wireBreaks" label="Wire breaks" unit="count" numeric reg={register("wireBreaks")} error={err.wireBreaks?.message} />
+        <NumberBox
+          id="seating"
+          label="Measured seating (if taken)"
+          unit={entryUnits.length}
+          reg={register("seating")}
+          error={err.seating?.message}
+        />
+        <NumberBox
+          id="wireBreaks"
+          label="Wire breaks"
+          unit="count"
+          numeric
+          reg={register("wireBreaks")}
+          error={err.wireBreaks?.message}
+        />
       </div>
 
       <div>
@@ -380,14 +513,20 @@ export function RecordForm({
       <PhotoPicker photos={photos} onChange={setPhotos} />
 
       <p className="text-ink-soft" data-testid="record-by">
-        Operator {session.name} · device time and zone ({Intl.DateTimeFormat().resolvedOptions().timeZone}) are stamped when you save.
+        Operator {session.name} · device time and zone ({Intl.DateTimeFormat().resolvedOptions().timeZone}) are stamped
+        when you save.
       </p>
       {offTarget && (
         <div>
           <label htmlFor="offTargetReason" className="field-label">
             Why the gauge is off target
           </label>
-          <input id="offTargetReason" className="field-input" value={offTarget.reason} onChange={(e) => setOffTarget({ ...offTarget, reason: e.target.value })} />
+          <input
+            id="offTargetReason"
+            className="field-input"
+            value={offTarget.reason}
+            onChange={(e) => setOffTarget({ ...offTarget, reason: e.target.value })}
+          />
         </div>
       )}
       {saveError && (

@@ -19,9 +19,22 @@ function useOnline(): boolean {
   return online;
 }
 
-function Item({ label, value, tone = "plain", testId }: { label: string; value: string; tone?: "plain" | "warn"; testId: string }) {
+function Item({
+  label,
+  value,
+  tone = "plain",
+  testId,
+}: {
+  label: string;
+  value: string;
+  tone?: "plain" | "warn";
+  testId: string;
+}) {
   return (
-    <div className={`flex flex-col rounded-md px-3 py-1 ${tone === "warn" ? "bg-signal-stop-bg text-signal-stop" : ""}`} data-testid={testId}>
+    <div
+      className={`flex flex-col rounded-md px-3 py-1 ${tone === "warn" ? "bg-signal-stop-bg text-signal-stop" : ""}`}
+      data-testid={testId}
+    >
       <span className="text-label font-semibold uppercase">{label}</span>
       <span className="text-body font-bold">{value}</span>
     </div>
@@ -39,27 +52,73 @@ export function SyncStatusBar() {
   const pending = status?.pending ?? 0;
   const photos = status?.photosQueued ?? 0;
   return (
-    <section aria-label="Sync status" className="sticky top-0 z-20 border-b-2 border-ink bg-white" data-testid="sync-status">
+    <section
+      aria-label="Sync status"
+      className="sticky top-0 z-20 border-b-2 border-ink bg-white"
+      data-testid="sync-status"
+    >
       <div className="flex flex-wrap items-center gap-x-2 gap-y-1 px-4 py-2">
-        <span className={`mr-2 inline-flex items-center gap-2 font-bold ${online ? "" : "text-signal-stop"}`} data-testid="connection">
+        <span
+          className={`mr-2 inline-flex items-center gap-2 font-bold ${online ? "" : "text-signal-stop"}`}
+          data-testid="connection"
+        >
           <svg viewBox="0 0 24 24" className="h-6 w-6" aria-hidden="true">
             {online ? (
-              <path d="M2 9a15 15 0 0 1 20 0M5 13a10 10 0 0 1 14 0M8.5 16.5a5 5 0 0 1 7 0M12 20h.01" fill="none" stroke="currentColor" strokeWidth="2.5" strokeLinecap="round" />
+              <path
+                d="M2 9a15 15 0 0 1 20 0M5 13a10 10 0 0 1 14 0M8.5 16.5a5 5 0 0 1 7 0M12 20h.01"
+                fill="none"
+                stroke="currentColor"
+                strokeWidth="2.5"
+                strokeLinecap="round"
+              />
             ) : (
-              <path d="M3 3l18 18M8.5 16.5a5 5 0 0 1 7 0M12 20h.01M5 13a10 10 0 0 1 5-2.8M2 9a15 15 0 0 1 5.5-3.5" fill="none" stroke="currentColor" strokeWidth="2.5" strokeLinecap="round" />
+              <path
+                d="M3 3l18 18M8.5 16.5a5 5 0 0 1 7 0M12 20h.01M5 13a10 10 0 0 1 5-2.8M2 9a15 15 0 0 1 5.5-3.5"
+                fill="none"
+                stroke="currentColor"
+                strokeWidth="2.5"
+                strokeLinecap="round"
+              />
             )}
           </svg>
           {online ? "Online" : "No signal"}
         </span>
-        <Item testId="pending-count" label="Waiting to send" value={status ? `${pending} record${pending === 1 ? "" : "s"}` : "…"} />
-        <Item testId="oldest-pending" label="Oldest waiting" value={status?.oldestPendingAt ? ago(status.oldestPendingAt, now) : "none"} />
-        <Item testId="last-sync" label="Last confirmed sync" value={meta?.lastConfirmedSyncAt ? `${clockTime(meta.lastConfirmedSyncAt)} (${ago(meta.lastConfirmedSyncAt, now)})` : "never"} />
-        <Item testId="attention-count" label="Records the server refused" value={String(status?.attention ?? 0)} tone={status?.attention ? "warn" : "plain"} />
+        <Item
+          testId="pending-count"
+          label="Waiting to send"
+          value={status ? `${pending} record${pending === 1 ? "" : "s"}` : "…"}
+        />
+        <Item
+          testId="oldest-pending"
+          label="Oldest waiting"
+          value={status?.oldestPendingAt ? ago(status.oldestPendingAt, now) : "none"}
+        />
+        <Item
+          testId="last-sync"
+          label="Last confirmed sync"
+          value={
+            meta?.lastConfirmedSyncAt
+              ? `${clockTime(meta.lastConfirmedSyncAt)} (${ago(meta.lastConfirmedSyncAt, now)})`
+              : "never"
+          }
+        />
+        <Item
+          testId="attention-count"
+          label="Records the server refused"
+          value={String(status?.attention ?? 0)}
+          tone={status?.attention ? "warn" : "plain"}
+        />
         {photos > 0 && <Item testId="photos-waiting" label="Photos to upload" value={String(photos)} />}
         <Item
           testId="storage"
           label="Storage"
-          value={meta?.storagePersisted === null || meta === undefined ? "checking…" : meta.storagePersisted ? "protected" : "not protected"}
+          value={
+            meta?.storagePersisted === null || meta === undefined
+              ? "checking…"
+              : meta.storagePersisted
+                ? "protected"
+                : "not protected"
+          }
           tone={meta?.storagePersisted === false ? "warn" : "plain"}
         />
         <button
@@ -79,7 +138,10 @@ export function SyncStatusBar() {
         </button>
       </div>
       {meta?.needsSignIn && (
-        <p className="flex flex-wrap items-center gap-3 bg-signal-stop-bg px-4 py-2 font-semibold text-signal-stop" role="alert">
+        <p
+          className="flex flex-wrap items-center gap-3 bg-signal-stop-bg px-4 py-2 font-semibold text-signal-stop"
+          role="alert"
+        >
           You are signed out. Everything waiting stays on this tablet until you sign in again.
           <a className="btn-quiet" href="/sign-in?callbackUrl=/field">
             Sign in again

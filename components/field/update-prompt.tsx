@@ -35,7 +35,11 @@ export function UpdatePrompt() {
   if (!waiting) return null;
   const busy = dirty || (status?.pending ?? 1) > 0;
   return (
-    <div role="status" className="flex flex-wrap items-center gap-3 border-b-2 border-ink bg-concrete-100 px-4 py-2" data-testid="update-ready">
+    <div
+      role="status"
+      className="flex flex-wrap items-center gap-3 border-b-2 border-ink bg-concrete-100 px-4 py-2"
+      data-testid="update-ready"
+    >
       <strong>A new version of the field log is ready.</strong>
       {busy ? (
         <span>It switches over once the form is saved or cleared and everything is sent.</span>

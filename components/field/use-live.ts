@@ -6,7 +6,10 @@ import { useEffect, useState } from "react";
 export function useLive<T>(query: () => Promise<T>, deps: readonly unknown[]): T | undefined {
   const [value, setValue] = useState<T | undefined>(undefined);
   useEffect(() => {
-    const subscription = liveQuery(query).subscribe({ next: (v) => setValue(() => v), error: (e) => console.error("tablet database query failed", e) });
+    const subscription = liveQuery(query).subscribe({
+      next: (v) => setValue(() => v),
+      error: (e) => console.error("tablet database query failed", e),
+    });
     return () => subscription.unsubscribe();
     // The query closes over exactly the values listed in deps.
     // eslint-disable-next-line react-hooks/exhaustive-deps

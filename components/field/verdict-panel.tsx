@@ -1,23 +1,48 @@
 import { Caution } from "@/components/ui/caution";
 import type { LocalVerdict } from "@/lib/offline/db";
 import type { FieldProject, OpEvaluation } from "@/lib/schemas/sync";
-import { showBandEdge, showComputedLength, showForce, showLength, showPct, showPressure, type StoredResolution } from "@/lib/stressing/display";
+import {
+  showBandEdge,
+  showComputedLength,
+  showForce,
+  showLength,
+  showPct,
+  showPressure,
+  type StoredResolution,
+} from "@/lib/stressing/display";
 
 const LOOK = {
   "in band": { word: "In band", icon: "M5 12l4 4 10-10", cls: "border-signal-band bg-signal-band-bg text-signal-band" },
   long: { word: "Long", icon: "M12 19V5M5 12l7-7 7 7", cls: "border-signal-long bg-signal-long-bg text-signal-long" },
-  short: { word: "Short", icon: "M12 5v14M5 12l7 7 7-7", cls: "border-signal-short bg-signal-short-bg text-signal-short" },
+  short: {
+    word: "Short",
+    icon: "M12 5v14M5 12l7 7 7-7",
+    cls: "border-signal-short bg-signal-short-bg text-signal-short",
+  },
   incomplete: { word: "Incomplete", icon: "M6 12h12", cls: "border-concrete-500 bg-concrete-100 text-ink" },
 } as const;
 
-export const units = (p: FieldProject) => ({ unitSystem: p.unitSystem, readingResolution: p.readingResolution as StoredResolution });
+export const units = (p: FieldProject) => ({
+  unitSystem: p.unitSystem,
+  readingResolution: p.readingResolution as StoredResolution,
+});
 
 export function VerdictMark({ verdict, children }: { verdict: keyof typeof LOOK; children?: React.ReactNode }) {
   const look = LOOK[verdict];
   return (
-    <span className={`inline-flex min-h-touch items-center gap-2 rounded-md border-2 px-3 text-lead font-bold ${look.cls}`} data-verdict={verdict}>
+    <span
+      className={`inline-flex min-h-touch items-center gap-2 rounded-md border-2 px-3 text-lead font-bold ${look.cls}`}
+      data-verdict={verdict}
+    >
       <svg viewBox="0 0 24 24" className="h-6 w-6" aria-hidden="true">
-        <path d={look.icon} fill="none" stroke="currentColor" strokeWidth="3" strokeLinecap="round" strokeLinejoin="round" />
+        <path
+          d={look.icon}
+          fill="none"
+          stroke="currentColor"
+          strokeWidth="3"
+          strokeLinecap="round"
+          strokeLinejoin="round"
+        />
       </svg>
       {look.word}
       {children}
@@ -26,10 +51,22 @@ export function VerdictMark({ verdict, children }: { verdict: keyof typeof LOOK;
 }
 
 /** The tablet's verdict at once after saving, in words, icon and numbers, with the server's when it came back. */
-export function VerdictPanel({ project, local, server, targetMPa }: { project: FieldProject; local: LocalVerdict | null; server: OpEvaluation | null | undefined; targetMPa: number | null }) {
+export function VerdictPanel({
+  project,
+  local,
+  server,
+  targetMPa,
+}: {
+  project: FieldProject;
+  local: LocalVerdict | null;
+  server: OpEvaluation | null | undefined;
+  targetMPa: number | null;
+}) {
   const u = units(project);
   // Once the server has judged, its verdict is the one that stands; the tablet's own is only until then.
-  const shown = server ? { verdict: server.verdict, deviationPct: server.deviationPct, provisional: server.provisional } : local;
+  const shown = server
+    ? { verdict: server.verdict, deviationPct: server.deviationPct, provisional: server.provisional }
+    : local;
   const judgedBy = server
     ? server.provisional
       ? "Provisional, judged by the server"
@@ -53,22 +90,35 @@ export function VerdictPanel({ project, local, server, targetMPa }: { project: F
               {judgedBy}
             </span>
           </div>
-          {local.measuredMm !== null && local.predictedMm !== null && local.lowerMm !== null && local.upperMm !== null ? (
+          {local.measuredMm !== null &&
+          local.predictedMm !== null &&
+          local.lowerMm !== null &&
+          local.upperMm !== null ? (
             <p className="text-lead">
-              Measured <strong>{showLength(u, local.measuredMm)}</strong> against predicted <strong>{showComputedLength(u, local.predictedMm)}</strong>; the band is{" "}
+              Measured <strong>{showLength(u, local.measuredMm)}</strong> against predicted{" "}
+              <strong>{showComputedLength(u, local.predictedMm)}</strong>; the band is{" "}
               <strong data-testid="band">
                 {showBandEdge(u, local.lowerMm, "lower")} to {showBandEdge(u, local.upperMm, "upper")}
               </strong>{" "}
               (±{project.tolerancePct} %).
             </p>
           ) : (
-            <p className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-bold text-signal-stop" role="alert" data-testid="incomplete">
+            <p
+              className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-bold text-signal-stop"
+              role="alert"
+              data-testid="incomplete"
+            >
               No verdict: {(local.incomplete ?? []).join(" ") || "the reading cannot be judged yet."}
             </p>
           )}
           {local.reread && (
-            <p className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-bold text-signal-stop" role="alert" data-testid="reread">
-              The reading division alone could change this verdict: read the elongation again to a finer division and save it as a correction (both readings are kept).
+            <p
+              className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-bold text-signal-stop"
+              role="alert"
+              data-testid="reread"
+            >
+              The reading division alone could change this verdict: read the elongation again to a finer division and
+              save it as a correction (both readings are kept).
             </p>
           )}
           {local.basisLabel && <p data-testid="basis">Compared {local.basisLabel}.</p>}
@@ -79,13 +129,22 @@ export function VerdictPanel({ project, local, server, targetMPa }: { project: F
               {local.forces.map((f) => (
                 <span key={f.end}>
                   {" "}
-                  · end {f.end} ({f.role}): gauge {f.gaugeForceN === null ? "no calibration" : showForce(u, f.gaugeForceN)}, elongation implies {f.impliedForceN === null ? "—" : showForce(u, f.impliedForceN)}
+                  · end {f.end} ({f.role}): gauge{" "}
+                  {f.gaugeForceN === null ? "no calibration" : showForce(u, f.gaugeForceN)}, elongation implies{" "}
+                  {f.impliedForceN === null ? "—" : showForce(u, f.impliedForceN)}
                 </span>
               ))}
             </p>
           ) : null}
-          {local.flagKinds && local.flagKinds.length > 0 && <p className="font-semibold">The server will flag: {local.flagKinds.join(", ").replaceAll("_", " ")}.</p>}
-          {local.missingEnds.length > 0 && <p>End {local.missingEnds.join(" and ")} still to stress: the end read so far is judged provisionally (as stressed alone when the ends are pulled one after the other).</p>}
+          {local.flagKinds && local.flagKinds.length > 0 && (
+            <p className="font-semibold">The server will flag: {local.flagKinds.join(", ").replaceAll("_", " ")}.</p>
+          )}
+          {local.missingEnds.length > 0 && (
+            <p>
+              End {local.missingEnds.join(" and ")} still to stress: the end read so far is judged provisionally (as
+              stressed alone when the ends are pulled one after the other).
+            </p>
+          )}
           {targetMPa !== null && <p>Target gauge pressure for this set: {showPressure(u, targetMPa)}.</p>}
           {server ? (
             <p data-testid="server-verdict">
@@ -95,10 +154,15 @@ export function VerdictPanel({ project, local, server, targetMPa }: { project: F
               {server.flagKinds.length ? ` · flagged: ${server.flagKinds.join(", ").replaceAll("_", " ")}` : ""}
             </p>
           ) : (
-            <p className="text-ink-soft">The server evaluates it again when the record is sent; a flag goes to the engineer of record.</p>
+            <p className="text-ink-soft">
+              The server evaluates it again when the record is sent; a flag goes to the engineer of record.
+            </p>
           )}
           {shown!.verdict !== "in band" && (
-            <p className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-bold text-signal-stop" role="alert">
+            <p
+              className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-bold text-signal-stop"
+              role="alert"
+            >
               Out of band: do not cut the tails or grout until the engineer of record gives a disposition.
             </p>
           )}

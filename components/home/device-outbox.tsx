@@ -23,8 +23,9 @@ export function DeviceOutbox() {
     <p data-testid="device-outbox">
       On this tablet: <strong>{status.pending}</strong> record{status.pending === 1 ? "" : "s"} waiting to sync
       {status.attention ? `, ${status.attention} needing attention` : ""}
-      {status.photosQueued ? `, ${status.photosQueued} photo${status.photosQueued === 1 ? "" : "s"} to upload` : ""}.{" "}
-      <Link href="/field">Open the field log</Link>
+      {status.photosQueued
+        ? `, ${status.photosQueued} photo${status.photosQueued === 1 ? "" : "s"} to upload`
+        : ""}. <Link href="/field">Open the field log</Link>
     </p>
   );
 }

@@ -1,6 +1,16 @@
 "use client";
 
-import { CartesianGrid, Legend, ReferenceLine, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis } from "recharts";
+import {
+  CartesianGrid,
+  Legend,
+  ReferenceLine,
+  ResponsiveContainer,
+  Scatter,
+  ScatterChart,
+  Tooltip,
+  XAxis,
+  YAxis,
+} from "recharts";
 
 /**
  * Deviation of each tendon against the band: tendon on x (in schedule order), deviation % on y,
@@ -50,9 +60,21 @@ export function DeviationChart({ points, tolerancePct }: { points: DeviationPoin
               tickFormatter={(v: number) => `${v > 0 ? "+" : ""}${v} %`}
               label={{ value: "deviation, %", angle: -90, position: "left", offset: 0 }}
             />
-            <ReferenceLine y={tolerancePct} stroke="#14213d" strokeWidth={2} strokeDasharray="6 4" label={{ value: `+${tolerancePct} %`, position: "right", fill: "#14213d" }} />
+            <ReferenceLine
+              y={tolerancePct}
+              stroke="#14213d"
+              strokeWidth={2}
+              strokeDasharray="6 4"
+              label={{ value: `+${tolerancePct} %`, position: "right", fill: "#14213d" }}
+            />
             <ReferenceLine y={0} stroke="#77746a" />
-            <ReferenceLine y={-tolerancePct} stroke="#14213d" strokeWidth={2} strokeDasharray="6 4" label={{ value: `−${tolerancePct} %`, position: "right", fill: "#14213d" }} />
+            <ReferenceLine
+              y={-tolerancePct}
+              stroke="#14213d"
+              strokeWidth={2}
+              strokeDasharray="6 4"
+              label={{ value: `−${tolerancePct} %`, position: "right", fill: "#14213d" }}
+            />
             <Tooltip
               cursor={{ strokeDasharray: "3 3" }}
               formatter={(value, name) => (name === "deviation" ? `${Number(value).toFixed(1)} %` : String(value))}
@@ -84,7 +106,8 @@ export function DeviationChart({ points, tolerancePct }: { points: DeviationPoin
         </ResponsiveContainer>
       </div>
       <figcaption className="mt-1 text-label text-ink-faint">
-        Dashed lines: the ±{tolerancePct} % band. Circle: in band; triangle: long; square: short. Hover a mark for its tendon.
+        Dashed lines: the ±{tolerancePct} % band. Circle: in band; triangle: long; square: short. Hover a mark for its
+        tendon.
       </figcaption>
     </figure>
   );

@@ -6,7 +6,8 @@ const pct = (v: number) => `${v >= 0 ? "+" : "−"}${Math.abs(v).toFixed(1)} %`;
 const share = (s: number | null) => (s === null ? "—" : `${Math.round(s * 100)} %`);
 
 export function DriftTable({ caption, sets }: { caption: string; sets: SetDrift[] }) {
-  if (!sets.length) return <p className="card">{caption}: no tendon is complete yet, so there is nothing to compare.</p>;
+  if (!sets.length)
+    return <p className="card">{caption}: no tendon is complete yet, so there is nothing to compare.</p>;
   return (
     <div className="overflow-x-auto" tabIndex={0} role="region" aria-label={`${caption}, scrolls sideways`}>
       <table className="w-full border-collapse text-left" data-table="drift">
@@ -23,7 +24,12 @@ export function DriftTable({ caption, sets }: { caption: string; sets: SetDrift[
         </thead>
         <tbody>
           {sets.map((s) => (
-            <tr key={s.setId} className="border-b border-concrete-300 align-top" data-set={s.setName} data-drifting={s.drifting}>
+            <tr
+              key={s.setId}
+              className="border-b border-concrete-300 align-top"
+              data-set={s.setName}
+              data-drifting={s.drifting}
+            >
               <th scope="row" className="p-2 font-semibold">
                 {s.setName}
               </th>
@@ -32,12 +38,20 @@ export function DriftTable({ caption, sets }: { caption: string; sets: SetDrift[
                 {pct(s.meanPct)} <span className="text-label text-ink-faint">± {s.sePct.toFixed(1)}</span>
               </td>
               <td className="whitespace-nowrap p-2 text-right tabular-nums">{s.sdPct.toFixed(1)} pts</td>
-              <td className="whitespace-nowrap p-2 text-right tabular-nums">{s.others ? `${pct(s.others.meanPct)} (${s.others.n})` : "—"}</td>
+              <td className="whitespace-nowrap p-2 text-right tabular-nums">
+                {s.others ? `${pct(s.others.meanPct)} (${s.others.n})` : "—"}
+              </td>
               <td className="p-2">
                 {s.drifting ? (
                   <span className="inline-flex items-center gap-2 rounded-md border-2 border-signal-stop bg-signal-stop-bg px-2 font-bold text-signal-stop">
                     <svg viewBox="0 0 24 24" className="h-4 w-4" aria-hidden="true">
-                      <path d="M12 2 L23 21 H1 Z" fill="none" stroke="currentColor" strokeWidth="2.5" strokeLinejoin="round" />
+                      <path
+                        d="M12 2 L23 21 H1 Z"
+                        fill="none"
+                        stroke="currentColor"
+                        strokeWidth="2.5"
+                        strokeLinejoin="round"
+                      />
                     </svg>
                     Drifting
                   </span>
@@ -56,9 +70,18 @@ export function DriftTable({ caption, sets }: { caption: string; sets: SetDrift[
 
 export function ModulusTable({ moduli }: { moduli: ApparentModulus[] }) {
   if (!moduli.length)
-    return <p className="card">No record on this pour was read at several gauge steps, so there is no apparent modulus to show.</p>;
+    return (
+      <p className="card">
+        No record on this pour was read at several gauge steps, so there is no apparent modulus to show.
+      </p>
+    );
   return (
-    <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Apparent modulus per tendon end, scrolls sideways">
+    <div
+      className="overflow-x-auto"
+      tabIndex={0}
+      role="region"
+      aria-label="Apparent modulus per tendon end, scrolls sideways"
+    >
       <table className="w-full border-collapse text-left" data-table="modulus">
         <thead>
           <tr className="border-b-2 border-ink">
@@ -83,9 +106,15 @@ export function ModulusTable({ moduli }: { moduli: ApparentModulus[] }) {
                 </td>
               ) : (
                 <>
-                  <td className="whitespace-nowrap p-2 text-right tabular-nums">{Math.round(m.apparentModulusMPa).toLocaleString("en-US")} MPa</td>
-                  <td className="whitespace-nowrap p-2 text-right tabular-nums">{m.millModulusMPa ? `${Math.round(m.millModulusMPa).toLocaleString("en-US")} MPa` : "—"}</td>
-                  <td className="whitespace-nowrap p-2 text-right tabular-nums">{m.modulusRatio ? m.modulusRatio.toFixed(3) : "—"}</td>
+                  <td className="whitespace-nowrap p-2 text-right tabular-nums">
+                    {Math.round(m.apparentModulusMPa).toLocaleString("en-US")} MPa
+                  </td>
+                  <td className="whitespace-nowrap p-2 text-right tabular-nums">
+                    {m.millModulusMPa ? `${Math.round(m.millModulusMPa).toLocaleString("en-US")} MPa` : "—"}
+                  </td>
+                  <td className="whitespace-nowrap p-2 text-right tabular-nums">
+                    {m.modulusRatio ? m.modulusRatio.toFixed(3) : "—"}
+                  </td>
                   <td className="whitespace-nowrap p-2 text-right tabular-nums">{m.r2.toFixed(4)}</td>
                 </>
               )}
@@ -98,18 +127,26 @@ export function ModulusTable({ moduli }: { moduli: ApparentModulus[] }) {
 }
 
 export function ResolutionSummary({ resolution, division }: { resolution: ResolutionShare; division: string }) {
-  if (!resolution.all.n) return <p className="card">No tendon is complete yet, so no verdict can be weighed against the reading division.</p>;
+  if (!resolution.all.n)
+    return (
+      <p className="card">No tendon is complete yet, so no verdict can be weighed against the reading division.</p>
+    );
   return (
     <div className="card space-y-2" data-table="resolution">
       <p>
-        <strong className="tabular-nums">{share(resolution.short.share)}</strong> of short tendons ({resolution.short.couldChange} of {resolution.short.n}) and{" "}
-        <strong className="tabular-nums">{share(resolution.all.share)}</strong> of all complete tendons ({resolution.all.couldChange} of {resolution.all.n}) have a
-        verdict that the reading division ({division}) alone could change: half a division either way on each end read crosses a band edge.
+        <strong className="tabular-nums">{share(resolution.short.share)}</strong> of short tendons (
+        {resolution.short.couldChange} of {resolution.short.n}) and{" "}
+        <strong className="tabular-nums">{share(resolution.all.share)}</strong> of all complete tendons (
+        {resolution.all.couldChange} of {resolution.all.n}) have a verdict that the reading division ({division}) alone
+        could change: half a division either way on each end read crosses a band edge.
       </p>
       <p className="text-label text-ink-soft">
-        Short here means a band narrower than four reading divisions. A finer division, or a second reading, settles these.
+        Short here means a band narrower than four reading divisions. A finer division, or a second reading, settles
+        these.
       </p>
-      {resolution.tendons.length > 0 && <p>Tendons: {resolution.tendons.map((t) => `${t.tag}${t.short ? " (short)" : ""}`).join(", ")}</p>}
+      {resolution.tendons.length > 0 && (
+        <p>Tendons: {resolution.tendons.map((t) => `${t.tag}${t.short ? " (short)" : ""}`).join(", ")}</p>
+      )}
     </div>
   );
 }

@@ -3,7 +3,17 @@
 import { Bar, BarChart, CartesianGrid, Cell, LabelList, ResponsiveContainer, XAxis, YAxis } from "recharts";
 
 /** The pour's progress: tendons stressed, with open flags, and released, out of the schedule. */
-export function ProgressChart({ tendons, stressed, flagged, released }: { tendons: number; stressed: number; flagged: number; released: number }) {
+export function ProgressChart({
+  tendons,
+  stressed,
+  flagged,
+  released,
+}: {
+  tendons: number;
+  stressed: number;
+  flagged: number;
+  released: number;
+}) {
   const data = [
     { label: "Stressed", value: stressed, fill: "#14213d" },
     { label: "With open flags", value: flagged, fill: "#a3181b" },
@@ -11,7 +21,12 @@ export function ProgressChart({ tendons, stressed, flagged, released }: { tendon
   ];
   return (
     <figure>
-      <div className="h-48 w-full" role="img" aria-label={`${stressed} of ${tendons} tendons stressed, ${flagged} with open flags, ${released} released`} data-chart="progress">
+      <div
+        className="h-48 w-full"
+        role="img"
+        aria-label={`${stressed} of ${tendons} tendons stressed, ${flagged} with open flags, ${released} released`}
+        data-chart="progress"
+      >
         <ResponsiveContainer width="100%" height="100%">
           <BarChart data={data} layout="vertical" margin={{ top: 4, right: 48, bottom: 4, left: 24 }}>
             <CartesianGrid stroke="#c3c0b6" strokeDasharray="3 3" horizontal={false} />

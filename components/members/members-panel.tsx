@@ -17,8 +17,12 @@ const WEIGHTY: ReadonlySet<Role> = new Set(["engineer", "admin"]);
 /** What a role change gives and takes, in words, for the confirmation. */
 export function roleChangeConsequence(name: string, from: Role, to: Role): string[] {
   const lines = [`${name} changes from ${ROLE_LABELS[from]} to ${ROLE_LABELS[to]}, from their next page on.`];
-  if (to === "engineer") lines.push(`${name} will be able to record dispositions on flags and release pours, signed with their licence.`);
-  if (to === "admin") lines.push(`${name} will be able to change the project's settings, schedule and equipment, and add or remove people.`);
+  if (to === "engineer")
+    lines.push(`${name} will be able to record dispositions on flags and release pours, signed with their licence.`);
+  if (to === "admin")
+    lines.push(
+      `${name} will be able to change the project's settings, schedule and equipment, and add or remove people.`,
+    );
   if (from === "engineer") lines.push(`${name} will no longer be able to record dispositions or release pours.`);
   if (from === "admin") lines.push(`${name} will no longer be able to change settings or manage people.`);
   return lines;
@@ -41,7 +45,13 @@ interface Invitation {
 
 type Pending = { kind: "role"; member: Member; to: Role } | { kind: "remove"; member: Member };
 
-export function MembersPanel(props: { projectId: string; currentUserId: string; members: Member[]; invitations: Invitation[]; timeZone: string }) {
+export function MembersPanel(props: {
+  projectId: string;
+  currentUserId: string;
+  members: Member[];
+  invitations: Invitation[];
+  timeZone: string;
+}) {
   const router = useRouter();
   const { message, fields, call } = useApiCall();
   const base = `/api/projects/${props.projectId}`;
@@ -52,7 +62,10 @@ export function MembersPanel(props: { projectId: string; currentUserId: string; 
 
   async function changeRole(member: Member, to: Role) {
     setShownRole((s) => ({ ...s, [member.userId]: to }));
-    const result = await call(sendJson("PATCH", `${base}/members/${member.userId}`, { role: to }), `${member.name} is now ${ROLE_LABELS[to]}.`);
+    const result = await call(
+      sendJson("PATCH", `${base}/members/${member.userId}`, { role: to }),
+      `${member.name} is now ${ROLE_LABELS[to]}.`,
+    );
     if (result.ok) {
       setRowError((e) => ({ ...e, [member.userId]: [] }));
       router.refresh();
@@ -192,10 +205,22 @@ export function MembersPanel(props: { projectId: string; currentUserId: string; 
                   <strong>{i.email}</strong> as {ROLE_LABELS[i.role]} ·{" "}
                   {i.expired ? "expired" : `expires ${formatDay(i.expiresAt, props.timeZone)}`} · sent {i.sentCount}×
                 </span>
-                <button type="button" className="btn-quiet" onClick={() => void run(sendJson("POST", `${base}/invitations/${i.id}/resend`), `Sent again to ${i.email}.`)}>
+                <button
+                  type="button"
+                  className="btn-quiet"
+                  onClick={() =>
+                    void run(sendJson("POST", `${base}/invitations/${i.id}/resend`), `Sent again to ${i.email}.`)
+                  }
+                >
                   Send again
                 </button>
-                <button type="button" className="btn-quiet" onClick={() => void run(sendJson("DELETE", `${base}/invitations/${i.id}`), `Invitation to ${i.email} withdrawn.`)}>
+                <button
+                  type="button"
+                  className="btn-quiet"
+                  onClick={() =>
+                    void run(sendJson("DELETE", `${base}/invitations/${i.id}`), `Invitation to ${i.email} withdrawn.`)
+                  }
+                >
                   Withdraw
                 </button>
               </li>
@@ -213,17 +238,31 @@ export function MembersPanel(props: { projectId: string; currentUserId: string; 
               ? `Make ${pending.member.name} ${ROLE_LABELS[pending.to]}?`
               : ""
         }
-        confirmLabel={pending?.kind === "remove" ? `Remove ${pending.member.name}` : pending ? `Make ${pending.member.name} ${ROLE_LABELS[pending.to]}` : "Confirm"}
+        confirmLabel={
+          pending?.kind === "remove"
+            ? `Remove ${pending.member.name}`
+            : pending
+              ? `Make ${pending.member.name} ${ROLE_LABELS[pending.to]}`
+              : "Confirm"
+        }
         onConfirm={confirmPending}
         onCancel={() => setPending(null)}
       >
         {pending?.kind === "remove" ? (
           <>
-            <p>{pending.member.name} loses access to this project at once, on every device: no pages, no records, no e-mails about its flags.</p>
-            <p>Their past records, findings and decisions stay on the project under their name. To bring them back, invite them again.</p>
+            <p>
+              {pending.member.name} loses access to this project at once, on every device: no pages, no records, no
+              e-mails about its flags.
+            </p>
+            <p>
+              Their past records, findings and decisions stay on the project under their name. To bring them back,
+              invite them again.
+            </p>
           </>
         ) : pending ? (
-          roleChangeConsequence(pending.member.name, pending.member.role, pending.to).map((line) => <p key={line}>{line}</p>)
+          roleChangeConsequence(pending.member.name, pending.member.role, pending.to).map((line) => (
+            <p key={line}>{line}</p>
+          ))
         ) : null}
       </ConfirmDialog>
     </div>

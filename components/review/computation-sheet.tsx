@@ -23,12 +23,33 @@ function Row({ label, value, source }: { label: string; value: string; source?: 
  * One part of the sheet, folded with <details> so it opens and closes without JavaScript; the
  * heading stays in the summary, so the sheet's outline reads the same open or closed.
  */
-function Section({ id, title, open, children }: { id: string; title: string; open?: boolean; children: React.ReactNode }) {
+function Section({
+  id,
+  title,
+  open,
+  children,
+}: {
+  id: string;
+  title: string;
+  open?: boolean;
+  children: React.ReactNode;
+}) {
   return (
     <details open={open} className="group rounded-md border-2 border-concrete-300 bg-white" data-sheet-section={id}>
       <summary className="flex min-h-touch cursor-pointer items-center gap-2 px-4 py-2">
-        <svg viewBox="0 0 24 24" className="h-5 w-5 shrink-0 transition-transform group-open:rotate-90" aria-hidden="true">
-          <path d="M9 5l7 7-7 7" fill="none" stroke="currentColor" strokeWidth="2.5" strokeLinecap="round" strokeLinejoin="round" />
+        <svg
+          viewBox="0 0 24 24"
+          className="h-5 w-5 shrink-0 transition-transform group-open:rotate-90"
+          aria-hidden="true"
+        >
+          <path
+            d="M9 5l7 7-7 7"
+            fill="none"
+            stroke="currentColor"
+            strokeWidth="2.5"
+            strokeLinecap="round"
+            strokeLinejoin="round"
+          />
         </svg>
         <h3 id={`${id}-heading`} className="text-lead font-bold">
           {title}
@@ -42,7 +63,14 @@ function Section({ id, title, open, children }: { id: string; title: string; ope
 interface Judgement {
   measuredMm: number;
   missingEnds: string[];
-  comparison: { deviationPct: number; verdict: Verdict; bandMm: number; lowerMm: number; upperMm: number; impliedForceN: number | null };
+  comparison: {
+    deviationPct: number;
+    verdict: Verdict;
+    bandMm: number;
+    lowerMm: number;
+    upperMm: number;
+    impliedForceN: number | null;
+  };
 }
 
 /** The computation, read top to bottom like a calculation sheet: inputs, steps, result. */
@@ -60,31 +88,64 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
       <Section id="inputs" title="1. Inputs" open>
         <table className="mt-2 w-full">
           <tbody>
-            <Row label="Strand" value={`${basis.tendon.strandCount} × ${basis.tendon.strandSize}`} source="Tendon schedule" />
+            <Row
+              label="Strand"
+              value={`${basis.tendon.strandCount} × ${basis.tendon.strandSize}`}
+              source="Tendon schedule"
+            />
             <Row
               label="Area per strand"
               value={`${predicted.strand.areaMm2.toFixed(1)} mm²`}
-              source={predicted.strand.source === "strand lot" ? `Mill certificate, lot ${basis.lot?.lotNumber}` : "ASTM A416 nominal"}
+              source={
+                predicted.strand.source === "strand lot"
+                  ? `Mill certificate, lot ${basis.lot?.lotNumber}`
+                  : "ASTM A416 nominal"
+              }
             />
             <Row
               label="Modulus E"
               value={`${(predicted.strand.modulusMPa / 1000).toFixed(1)} GPa`}
-              source={predicted.strand.source === "strand lot" ? `Mill certificate, lot ${basis.lot?.lotNumber}` : "28,500 ksi default (AASHTO LRFD 5.4.4.2)"}
+              source={
+                predicted.strand.source === "strand lot"
+                  ? `Mill certificate, lot ${basis.lot?.lotNumber}`
+                  : "28,500 ksi default (AASHTO LRFD 5.4.4.2)"
+              }
             />
-            <Row label="Jacking force Pj" value={showForce(p, predicted.jackingForceN)} source="0.80 × specified breaking load (ACI 318-19 Table 20.3.2.5.1)" />
-            <Row label="Tendon length" value={showComputedLength(p, totalLength)} source={`${segments.length} segments, schedule profile`} />
+            <Row
+              label="Jacking force Pj"
+              value={showForce(p, predicted.jackingForceN)}
+              source="0.80 × specified breaking load (ACI 318-19 Table 20.3.2.5.1)"
+            />
+            <Row
+              label="Tendon length"
+              value={showComputedLength(p, totalLength)}
+              source={`${segments.length} segments, schedule profile`}
+            />
             <Row label="Curvature friction μ" value={String(p.frictionMu)} source="Project setting" />
-            <Row label="Wobble K" value={`${p.wobblePerM.toFixed(5)} per m (${(p.wobblePerM / 3.280839895).toFixed(5)} per ft)`} source="Project setting" />
+            <Row
+              label="Wobble K"
+              value={`${p.wobblePerM.toFixed(5)} per m (${(p.wobblePerM / 3.280839895).toFixed(5)} per ft)`}
+              source="Project setting"
+            />
             <Row label="Anchor set" value={showComputedLength(p, p.anchorSetMm)} source="Project setting" />
-            <Row label="Strand inside the jack" value={predicted.gripMm ? showComputedLength(p, predicted.gripMm) : "not counted"} source="Project basis" />
-            <Row label="Stressed from" value={basis.tendon.ends === "both" ? "both ends" : `end ${basis.tendon.ends}`} source="Tendon schedule" />
+            <Row
+              label="Strand inside the jack"
+              value={predicted.gripMm ? showComputedLength(p, predicted.gripMm) : "not counted"}
+              source="Project basis"
+            />
+            <Row
+              label="Stressed from"
+              value={basis.tendon.ends === "both" ? "both ends" : `end ${basis.tendon.ends}`}
+              source="Tendon schedule"
+            />
           </tbody>
         </table>
       </Section>
 
       <Section id="steps" title="2. Friction, segment by segment">
         <p className="mt-1 text-ink-soft">
-          P(x) = Pj·e<sup>−(K·x + μ·α)</sup>; each segment stretches Δ = P·L·(1 − e<sup>−β</sup>)/(β·A·E) with β = K·L + μ·α.
+          P(x) = Pj·e<sup>−(K·x + μ·α)</sup>; each segment stretches Δ = P·L·(1 − e<sup>−β</sup>)/(β·A·E) with β = K·L +
+          μ·α.
         </p>
         <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Segments, scrolls sideways">
           <table className="w-full min-w-[560px]">
@@ -127,14 +188,30 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
           <tbody>
             {e.perEndMm.A !== undefined && <Row label="From end A" value={showComputedLength(p, e.perEndMm.A)} />}
             {e.perEndMm.B !== undefined && <Row label="From end B" value={showComputedLength(p, e.perEndMm.B)} />}
-            <Row label="Gross at jacking" value={showComputedLength(p, e.grossMm)} source="Σ segments (+ strand in jack)" />
-            <Row label="Net of anchor set" value={showComputedLength(p, e.netMm)} source="Gross − anchor set at each stressed end" />
+            <Row
+              label="Gross at jacking"
+              value={showComputedLength(p, e.grossMm)}
+              source="Σ segments (+ strand in jack)"
+            />
+            <Row
+              label="Net of anchor set"
+              value={showComputedLength(p, e.netMm)}
+              source="Gross − anchor set at each stressed end"
+            />
             <Row label="Force at the far end / meeting point" value={showForce(p, e.farEndForceN)} />
             <Row label="Average force" value={showForce(p, e.averageForceN)} />
             {e.seating && (
               <>
-                <Row label="Anchor-set influence length" value={showComputedLength(p, e.seating.influenceMm)} source="√(Δset·A·E/p)" />
-                <Row label="Force at the anchor after seating" value={showForce(p, e.seating.anchorForceAfterN)} source="Check: ≤ 0.70·fpu·A" />
+                <Row
+                  label="Anchor-set influence length"
+                  value={showComputedLength(p, e.seating.influenceMm)}
+                  source="√(Δset·A·E/p)"
+                />
+                <Row
+                  label="Force at the anchor after seating"
+                  value={showForce(p, e.seating.anchorForceAfterN)}
+                  source="Check: ≤ 0.70·fpu·A"
+                />
               </>
             )}
           </tbody>
@@ -151,15 +228,27 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
             />
             {judgement && (
               <>
-                <Row label="Measured (sum of ends read)" value={showLength(p, judgement.measuredMm)} source="Stressing records, latest revisions" />
+                <Row
+                  label="Measured (sum of ends read)"
+                  value={showLength(p, judgement.measuredMm)}
+                  source="Stressing records, latest revisions"
+                />
                 <Row
                   label={`Band ±${p.tolerancePct} %${p.shortTendonFloorMm ? `, at least ±${showComputedLength(p, p.shortTendonFloorMm)}` : ""}`}
                   value={`${showComputedLength(p, judgement.comparison.lowerMm)} to ${showComputedLength(p, judgement.comparison.upperMm)}`}
                   source="ACI 318 §26.10 practice; project rule"
                 />
-                <Row label="Deviation" value={showPct(judgement.comparison.deviationPct)} source="(measured − predicted)/predicted" />
+                <Row
+                  label="Deviation"
+                  value={showPct(judgement.comparison.deviationPct)}
+                  source="(measured − predicted)/predicted"
+                />
                 {judgement.comparison.impliedForceN !== null && (
-                  <Row label="Force implied by the elongation" value={showForce(p, judgement.comparison.impliedForceN)} source="Pj · measured/predicted" />
+                  <Row
+                    label="Force implied by the elongation"
+                    value={showForce(p, judgement.comparison.impliedForceN)}
+                    source="Pj · measured/predicted"
+                  />
                 )}
               </>
             )}
@@ -167,7 +256,11 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
         </table>
         <div className="mt-4">
           {c.evaluation ? (
-            <VerdictBadge verdict={c.evaluation.verdict} deviationPct={c.evaluation.deviation_pct} provisional={c.evaluation.provisional} />
+            <VerdictBadge
+              verdict={c.evaluation.verdict}
+              deviationPct={c.evaluation.deviation_pct}
+              provisional={c.evaluation.provisional}
+            />
           ) : (
             <p className="text-ink-soft">No stressing record has reached the server for this tendon yet.</p>
           )}

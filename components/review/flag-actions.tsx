@@ -68,7 +68,17 @@ function FlagPicker({ flags, id, selected }: { flags: OpenFlag[]; id: string; se
 }
 
 /** The inspector's findings: a note, a re-measured reading, a paperwork error, send on, close as paperwork. */
-export function ReviewForm({ projectId, flags, unit, selected }: { projectId: string; flags: OpenFlag[]; unit: "in" | "mm"; selected?: string }) {
+export function ReviewForm({
+  projectId,
+  flags,
+  unit,
+  selected,
+}: {
+  projectId: string;
+  flags: OpenFlag[];
+  unit: "in" | "mm";
+  selected?: string;
+}) {
   const { message, fields, busy, submit } = useSubmit();
   const [kind, setKind] = useState("note");
   const [lengthError, setLengthError] = useState<string[]>();
@@ -83,14 +93,22 @@ export function ReviewForm({ projectId, flags, unit, selected }: { projectId: st
         const data = new FormData(form);
         // A reading the parser refuses is not sent; the server still checks the rest, so every
         // message shows at once, the reading's own beside its box.
-        const read = kind === "remeasured" ? readLength(String(data.get("remeasured") ?? ""), unit, "remeasuredMm") : null;
+        const read =
+          kind === "remeasured" ? readLength(String(data.get("remeasured") ?? ""), unit, "remeasuredMm") : null;
         setLengthError(read && "error" in read ? [read.error] : undefined);
         const body = {
           kind,
           body: String(data.get("body") ?? ""),
           ...(read && "mm" in read ? { remeasuredMm: read.mm } : {}),
         };
-        if (await submit(`/api/projects/${projectId}/flags/${String(data.get("flagId"))}/reviews`, body, "Finding added to the flag's trail.")) form.reset();
+        if (
+          await submit(
+            `/api/projects/${projectId}/flags/${String(data.get("flagId"))}/reviews`,
+            body,
+            "Finding added to the flag's trail.",
+          )
+        )
+          form.reset();
       }}
     >
       <h3 className="text-lead font-bold">Add a finding</h3>
@@ -106,8 +124,18 @@ export function ReviewForm({ projectId, flags, unit, selected }: { projectId: st
             ["sent_to_engineer", "Send to the engineer"],
             ["closed_paperwork", "Close as paperwork"],
           ].map(([value, label]) => (
-            <label key={value} className="flex min-h-touch items-center gap-2 rounded-md border-2 border-concrete-400 px-3">
-              <input type="radio" name="kind" value={value} checked={kind === value} onChange={() => setKind(value!)} className="h-5 w-5" />
+            <label
+              key={value}
+              className="flex min-h-touch items-center gap-2 rounded-md border-2 border-concrete-400 px-3"
+            >
+              <input
+                type="radio"
+                name="kind"
+                value={value}
+                checked={kind === value}
+                onChange={() => setKind(value!)}
+                className="h-5 w-5"
+              />
               {label}
             </label>
           ))}
@@ -128,7 +156,13 @@ export function ReviewForm({ projectId, flags, unit, selected }: { projectId: st
         id="review-body"
         name="body"
         rows={3}
-        label={kind === "closed_paperwork" ? "Reason for closing" : kind === "sent_to_engineer" ? "Note for the engineer" : "What you found"}
+        label={
+          kind === "closed_paperwork"
+            ? "Reason for closing"
+            : kind === "sent_to_engineer"
+              ? "Note for the engineer"
+              : "What you found"
+        }
         errors={fields.body}
       />
       <button type="submit" className="btn-primary" disabled={busy}>
@@ -165,7 +199,14 @@ export function DispositionForm({
           reasons: String(data.get("reasons") ?? ""),
           licenceStatement: String(data.get("licence") ?? ""),
         };
-        if (await submit(`/api/projects/${projectId}/flags/${String(data.get("flagId"))}/dispositions`, body, "Disposition recorded.")) form.reset();
+        if (
+          await submit(
+            `/api/projects/${projectId}/flags/${String(data.get("flagId"))}/dispositions`,
+            body,
+            "Disposition recorded.",
+          )
+        )
+          form.reset();
       }}
     >
       <h3 className="text-lead font-bold">Decision of the engineer of record</h3>
@@ -175,7 +216,10 @@ export function DispositionForm({
         <legend className="field-label">Disposition</legend>
         <div className="mt-1 grid gap-2 sm:grid-cols-3" aria-describedby="decision-error">
           {DECISIONS.map((d) => (
-            <label key={d} className="flex min-h-touch items-center gap-2 rounded-md border-2 border-concrete-400 px-3 py-1 leading-tight">
+            <label
+              key={d}
+              className="flex min-h-touch items-center gap-2 rounded-md border-2 border-concrete-400 px-3 py-1 leading-tight"
+            >
               <input type="radio" name="decision" value={d} className="h-5 w-5 shrink-0" />
               {DECISION_LABELS[d]}
             </label>
@@ -199,7 +243,15 @@ export function DispositionForm({
 }
 
 /** A paperwork correction: a new revision of the record with the right value and the reason. */
-export function CorrectionForm({ projectId, recordId, unit }: { projectId: string; recordId: string; unit: "in" | "mm" }) {
+export function CorrectionForm({
+  projectId,
+  recordId,
+  unit,
+}: {
+  projectId: string;
+  recordId: string;
+  unit: "in" | "mm";
+}) {
   const { message, fields, busy, submit } = useSubmit();
   const [open, setOpen] = useState(false);
   const [lengthError, setLengthError] = useState<string[]>();

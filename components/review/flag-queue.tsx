@@ -30,8 +30,8 @@ export function FlagQueue({ tendons, empty }: { tendons: FlaggedTendon[]; empty:
             </div>
             {t.clockSkewRecords > 0 && (
               <p className="mt-2 border-l-4 border-signal-stop pl-2 font-bold" data-clock-skew>
-                Check the time: {t.clockSkewRecords === 1 ? "1 record has" : `${t.clockSkewRecords} records have`} a tablet time far from when the server
-                received it (both times on the tendon page).
+                Check the time: {t.clockSkewRecords === 1 ? "1 record has" : `${t.clockSkewRecords} records have`} a
+                tablet time far from when the server received it (both times on the tendon page).
               </p>
             )}
           </div>

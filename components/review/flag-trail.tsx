@@ -44,11 +44,20 @@ export function FlagTrail({
     <ol className="space-y-4">
       {c.flags.map((flag) => {
         const trail = [
-          ...c.reviews.filter((r) => r.flag_id === flag.id).map((r) => ({ at: r.created_at, kind: "review" as const, r })),
-          ...c.dispositions.filter((d) => d.flag_id === flag.id).map((d) => ({ at: d.created_at, kind: "disposition" as const, d })),
+          ...c.reviews
+            .filter((r) => r.flag_id === flag.id)
+            .map((r) => ({ at: r.created_at, kind: "review" as const, r })),
+          ...c.dispositions
+            .filter((d) => d.flag_id === flag.id)
+            .map((d) => ({ at: d.created_at, kind: "disposition" as const, d })),
         ].sort((a, b) => +new Date(a.at) - +new Date(b.at));
         return (
-          <li key={flag.id} className={`card ${flag.id === selected ? "border-2 border-ink" : ""}`} data-flag-kind={flag.kind} aria-current={flag.id === selected ? "true" : undefined}>
+          <li
+            key={flag.id}
+            className={`card ${flag.id === selected ? "border-2 border-ink" : ""}`}
+            data-flag-kind={flag.kind}
+            aria-current={flag.id === selected ? "true" : undefined}
+          >
             <div className="flex flex-wrap items-center gap-3">
               <FlagChip kind={flag.kind} status={flag.status} />
               <span className="text-label text-ink-faint">raised {when(flag.created_at)}</span>
@@ -64,11 +73,15 @@ export function FlagTrail({
                       </p>
                       <p>
                         {item.r.body}
-                        {item.r.remeasured_mm !== null && <strong> Re-measured: {showLength(item.r.remeasured_mm)}.</strong>}
+                        {item.r.remeasured_mm !== null && (
+                          <strong> Re-measured: {showLength(item.r.remeasured_mm)}.</strong>
+                        )}
                         {item.r.attachment_id && (
                           <>
                             {" "}
-                            <a href={`/api/projects/${c.basis.project.id}/attachments/${item.r.attachment_id}`}>Open the photo</a>
+                            <a href={`/api/projects/${c.basis.project.id}/attachments/${item.r.attachment_id}`}>
+                              Open the photo
+                            </a>
                           </>
                         )}
                       </p>
@@ -90,7 +103,8 @@ export function FlagTrail({
             {flag.status === "closed" && (
               <p className="mt-3 text-label">
                 Closed {flag.closed_at ? when(flag.closed_at) : ""}
-                {flag.closedByName ? ` by ${flag.closedByName}` : ""}: {flag.close_reason ? inWords(flag.close_reason, c, when) : ""}
+                {flag.closedByName ? ` by ${flag.closedByName}` : ""}:{" "}
+                {flag.close_reason ? inWords(flag.close_reason, c, when) : ""}
               </p>
             )}
           </li>

@@ -27,7 +27,8 @@ export function ForceProfileChart({
   const hi = max + (max - min) * 0.05 || max * 1.01;
   const x = (mm: number) => pad.l + (mm / profile.lengthMm) * (W - pad.l - pad.r);
   const y = (n: number) => pad.t + (1 - (n - lo) / (hi - lo)) * (H - pad.t - pad.b);
-  const line = (key: "jackingN" | "afterSeatingN") => profile.points.map((p) => `${x(p.xMm).toFixed(1)},${y(p[key]).toFixed(1)}`).join(" ");
+  const line = (key: "jackingN" | "afterSeatingN") =>
+    profile.points.map((p) => `${x(p.xMm).toFixed(1)},${y(p[key]).toFixed(1)}`).join(" ");
   const zones: [number, number][] = [];
   let start: number | null = null;
   for (const p of profile.points) {
@@ -46,7 +47,12 @@ export function ForceProfileChart({
 
   return (
     <figure>
-      <svg viewBox={`0 0 ${W} ${H}`} className="w-full" role="img" aria-label="Force along the tendon at jacking and after seating">
+      <svg
+        viewBox={`0 0 ${W} ${H}`}
+        className="w-full"
+        role="img"
+        aria-label="Force along the tendon at jacking and after seating"
+      >
         {zones.map(([a, b]) => (
           <rect key={a} x={x(a)} y={pad.t} width={Math.max(1, x(b) - x(a))} height={H - pad.t - pad.b} fill="#dcdad3" />
         ))}

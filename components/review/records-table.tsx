@@ -19,9 +19,7 @@ export function RecordsTable({
   unit: "in" | "mm";
 }) {
   if (!c.records.length) return <p className="card">No stressing record has reached the server for this tendon yet.</p>;
-  const heads = new Set(
-    [...new Map(c.records.map((r) => [r.chain_id, r])).values()].map((r) => r.id),
-  );
+  const heads = new Set([...new Map(c.records.map((r) => [r.chain_id, r])).values()].map((r) => r.id));
   // The Map above keeps the last revision of each chain, since records come ordered by revision.
   return (
     <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Stressing records, scrolls sideways">
@@ -41,15 +39,23 @@ export function RecordsTable({
           {c.records.map((r) => {
             const photos = c.photos.filter((p) => p.record_id === r.id);
             return (
-              <tr key={r.id} className={`border-b border-concrete-200 align-top ${heads.has(r.id) ? "" : "text-ink-faint line-through decoration-1"}`}>
+              <tr
+                key={r.id}
+                className={`border-b border-concrete-200 align-top ${heads.has(r.id) ? "" : "text-ink-faint line-through decoration-1"}`}
+              >
                 <td className="p-2 font-bold">{r.tendon_end}</td>
                 <td className="p-2">
                   <span className="whitespace-nowrap">{formatDateTime(r.device_time, timeZone)}</span>
                   {r.skew && (
                     <span className="mt-1 block border-l-4 border-signal-stop pl-2 font-bold" data-clock-skew>
-                      Check the time: {r.skew.future ? "the tablet's time is after the server received it" : "the tablet's clock and the server disagree"}
+                      Check the time:{" "}
+                      {r.skew.future
+                        ? "the tablet's time is after the server received it"
+                        : "the tablet's clock and the server disagree"}
                       <span className="block font-normal">Tablet: {formatDateTime(r.device_time, timeZone)}</span>
-                      <span className="block font-normal">Server received: {formatDateTime(r.received_at, timeZone)}</span>
+                      <span className="block font-normal">
+                        Server received: {formatDateTime(r.received_at, timeZone)}
+                      </span>
                     </span>
                   )}
                 </td>
@@ -73,7 +79,9 @@ export function RecordsTable({
                       Photo {i + 1}
                     </a>
                   ))}
-                  {canCorrect && heads.has(r.id) && <CorrectionForm projectId={c.basis.project.id} recordId={r.id} unit={unit} />}
+                  {canCorrect && heads.has(r.id) && (
+                    <CorrectionForm projectId={c.basis.project.id} recordId={r.id} unit={unit} />
+                  )}
                 </td>
               </tr>
             );

@@ -43,7 +43,8 @@ export function PourForm({ projectId, us }: { projectId: string; us: boolean }) 
   const onSubmit = form.handleSubmit(async (values) => {
     const result = await sendJson("POST", `/api/projects/${projectId}/pours`, values);
     if (!result.ok) {
-      for (const [k, m] of Object.entries(result.error.fields ?? {})) form.setError((k === "areaM2" ? "area" : k in FIELDS ? k : "root") as keyof FormIn, { message: m.join(" ") });
+      for (const [k, m] of Object.entries(result.error.fields ?? {}))
+        form.setError((k === "areaM2" ? "area" : k in FIELDS ? k : "root") as keyof FormIn, { message: m.join(" ") });
       setMessage({ tone: "error", text: result.error.message });
       return;
     }
@@ -83,7 +84,8 @@ export function PourForm({ projectId, us }: { projectId: string; us: boolean }) 
         {input("plannedStressingDate", "Planned stressing", { type: "date" })}
       </div>
       <p className="text-ink-soft">
-        A pour&apos;s status follows from its records (planned, stressing, stressed) and is released only by the release the engineer signs.
+        A pour&apos;s status follows from its records (planned, stressing, stressed) and is released only by the release
+        the engineer signs.
       </p>
       <button className="btn-primary" type="submit" disabled={form.formState.isSubmitting}>
         Add pour

@@ -22,7 +22,10 @@ function pourColumns(projectId: string, us: boolean) {
       header: "Pour",
       sortFn: (a, b, id) => compareText(a.getValue<string>(id), b.getValue<string>(id)),
       cell: (c) => (
-        <Link href={`/projects/${projectId}/pours/${c.row.original.id}`} className="inline-flex min-h-touch items-center font-semibold">
+        <Link
+          href={`/projects/${projectId}/pours/${c.row.original.id}`}
+          className="inline-flex min-h-touch items-center font-semibold"
+        >
           {c.getValue()}
         </Link>
       ),

@@ -15,32 +15,32 @@ type KUnit = "per ft" | "per m";
 function fields(us: boolean) {
   const system = us ? "US" : "SI";
   return {
-      name: z.string(),
-      address: z.string(),
-      unitSystem: z.enum(["us", "si"]),
-      readingResolution: z.enum(["1/8in", "1/16in", "1mm"]),
-      tolerancePct: units.number(),
-      groupTolerancePct: units.number(false),
-      shortTendonFloorMm: units.length(system, us ? "in" : "mm", false),
-      comparisonBasis: z.enum(["gross", "net"]),
-      countJackGrip: z.boolean(),
-      frictionMu: units.number(),
-      wobble: units.number(),
-      wobbleUnit: z.enum(["per ft", "per m"]),
-      anchorSetMm: units.length(system, us ? "in" : "mm"),
-      calibrationValidityDays: units.number(),
-      requiredConcreteMPa: units.pressure(system, us ? "psi" : "MPa", false),
-      engineerOfRecordName: z.string(),
-      engineerOfRecordEmail: z.string(),
-      notifyEmails: z.string(),
-      blindEntry: z.boolean(),
-      releaseBy: z.enum(["engineer", "inspector"]),
-      timeZone: z.string(),
-      jackingForceFactor: units.number(),
-      underForcePct: units.number(),
-      seatingExcessMm: units.length(system, us ? "in" : "mm"),
-      clockSkewMinutes: units.number(),
-      governing: z.enum(["tautline", "shop_drawing"]),
+    name: z.string(),
+    address: z.string(),
+    unitSystem: z.enum(["us", "si"]),
+    readingResolution: z.enum(["1/8in", "1/16in", "1mm"]),
+    tolerancePct: units.number(),
+    groupTolerancePct: units.number(false),
+    shortTendonFloorMm: units.length(system, us ? "in" : "mm", false),
+    comparisonBasis: z.enum(["gross", "net"]),
+    countJackGrip: z.boolean(),
+    frictionMu: units.number(),
+    wobble: units.number(),
+    wobbleUnit: z.enum(["per ft", "per m"]),
+    anchorSetMm: units.length(system, us ? "in" : "mm"),
+    calibrationValidityDays: units.number(),
+    requiredConcreteMPa: units.pressure(system, us ? "psi" : "MPa", false),
+    engineerOfRecordName: z.string(),
+    engineerOfRecordEmail: z.string(),
+    notifyEmails: z.string(),
+    blindEntry: z.boolean(),
+    releaseBy: z.enum(["engineer", "inspector"]),
+    timeZone: z.string(),
+    jackingForceFactor: units.number(),
+    underForcePct: units.number(),
+    seatingExcessMm: units.length(system, us ? "in" : "mm"),
+    clockSkewMinutes: units.number(),
+    governing: z.enum(["tautline", "shop_drawing"]),
   };
 }
 
@@ -62,14 +62,32 @@ function resolver(us: boolean) {
       seatingExcessMm: v.seatingExcessMm as number,
       clockSkewMinutes: v.clockSkewMinutes as number,
     }),
-    projectSettingsSchema.required({ timeZone: true, jackingForceFactor: true, underForcePct: true, seatingExcessMm: true, clockSkewMinutes: true }),
+    projectSettingsSchema.required({
+      timeZone: true,
+      jackingForceFactor: true,
+      underForcePct: true,
+      seatingExcessMm: true,
+      clockSkewMinutes: true,
+    }),
     { wobblePerM: "wobble" },
   );
 }
 
 type FormIn = { [K in keyof ReturnType<typeof fields>]: z.input<ReturnType<typeof fields>[K]> };
 
-const Row = ({ id, label, hint, error, children }: { id: string; label: string; hint?: string; error?: string; children: React.ReactNode }) => (
+const Row = ({
+  id,
+  label,
+  hint,
+  error,
+  children,
+}: {
+  id: string;
+  label: string;
+  hint?: string;
+  error?: string;
+  children: React.ReactNode;
+}) => (
   <div>
     <label htmlFor={id} className="field-label">
       {label}
@@ -115,17 +133,28 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
       governing: settings.governing ?? "tautline",
     },
   });
-  const err = (k: keyof FormIn | "wobblePerM") => (form.formState.errors as Record<string, { message?: string } | undefined>)[k]?.message;
-  const reg = (k: keyof FormIn) => ({ id: `s-${k}`, "aria-invalid": err(k) ? true : undefined, "aria-describedby": err(k) ? `s-${k}-error` : undefined, ...form.register(k) });
+  const err = (k: keyof FormIn | "wobblePerM") =>
+    (form.formState.errors as Record<string, { message?: string } | undefined>)[k]?.message;
+  const reg = (k: keyof FormIn) => ({
+    id: `s-${k}`,
+    "aria-invalid": err(k) ? true : undefined,
+    "aria-describedby": err(k) ? `s-${k}-error` : undefined,
+    ...form.register(k),
+  });
 
   // A change that re-judges stressed tendons is shown first and saved on a second press.
   const [confirmed, setConfirmed] = useState<string | null>(null);
   const onSubmit = form.handleSubmit(async (values) => {
     const key = JSON.stringify(values);
     if (confirmed !== key) {
-      const preview = await sendJson<{ stressed: number; verdictsChanging: number; tags: string[] }>("POST", `/api/projects/${projectId}/settings/preview`, values);
+      const preview = await sendJson<{ stressed: number; verdictsChanging: number; tags: string[] }>(
+        "POST",
+        `/api/projects/${projectId}/settings/preview`,
+        values,
+      );
       if (!preview.ok) {
-        for (const [k, msgs] of Object.entries(preview.error.fields ?? {})) form.setError(k as keyof FormIn, { message: msgs.join(" ") });
+        for (const [k, msgs] of Object.entries(preview.error.fields ?? {}))
+          form.setError(k as keyof FormIn, { message: msgs.join(" ") });
         setMessage({ tone: "error", text: preview.error.message });
         return;
       }
@@ -141,13 +170,18 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
     const result = await sendJson("PATCH", `/api/projects/${projectId}/settings`, values);
     if (!result.ok) {
       for (const [k, msgs] of Object.entries(result.error.fields ?? {}))
-        form.setError((k === "wobblePerM" ? "wobble" : k in fields(us) ? k : "root") as keyof FormIn, { message: msgs.join(" ") });
+        form.setError((k === "wobblePerM" ? "wobble" : k in fields(us) ? k : "root") as keyof FormIn, {
+          message: msgs.join(" "),
+        });
       setMessage({ tone: "error", text: result.error.message });
       return;
     }
     setConfirmed(null);
     const done = result.data as { reevaluated?: number };
-    setMessage({ tone: "info", text: `Settings saved. New predictions use them at once${done.reevaluated ? `; ${done.reevaluated} stressed tendons were judged again` : ""}.` });
+    setMessage({
+      tone: "info",
+      text: `Settings saved. New predictions use them at once${done.reevaluated ? `; ${done.reevaluated} stressed tendons were judged again` : ""}.`,
+    });
     router.refresh();
   });
 
@@ -163,7 +197,12 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
         <Row id="s-address" label="Address" error={err("address")}>
           <input className="field-input" {...reg("address")} />
         </Row>
-        <Row id="s-unitSystem" label="Units shown" hint="Display only: everything is stored in SI." error={err("unitSystem")}>
+        <Row
+          id="s-unitSystem"
+          label="Units shown"
+          hint="Display only: everything is stored in SI."
+          error={err("unitSystem")}
+        >
           <select className="field-input" {...reg("unitSystem")}>
             <option value="us">US customary (in, ft, psi, kip)</option>
             <option value="si">SI (mm, m, MPa, kN)</option>
@@ -180,13 +219,23 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
 
       <fieldset className="card grid gap-4 md:grid-cols-3">
         <legend className="px-1 text-lead font-semibold">Tolerance rule</legend>
-        <Row id="s-tolerancePct" label="Band per tendon, ± %" hint="7 % is the usual building rule (ACI 318); 5 % is common on bridges." error={err("tolerancePct")}>
+        <Row
+          id="s-tolerancePct"
+          label="Band per tendon, ± %"
+          hint="7 % is the usual building rule (ACI 318); 5 % is common on bridges."
+          error={err("tolerancePct")}
+        >
           <input className="field-input" inputMode="decimal" {...reg("tolerancePct")} />
         </Row>
         <Row id="s-groupTolerancePct" label="Group-average band, ± % (optional)" error={err("groupTolerancePct")}>
           <input className="field-input" inputMode="decimal" {...reg("groupTolerancePct")} />
         </Row>
-        <Row id="s-shortTendonFloorMm" label={`Floor for short tendons, ${len} (optional)`} hint="The band is never narrower than this length." error={err("shortTendonFloorMm")}>
+        <Row
+          id="s-shortTendonFloorMm"
+          label={`Floor for short tendons, ${len} (optional)`}
+          hint="The band is never narrower than this length."
+          error={err("shortTendonFloorMm")}
+        >
           <input className="field-input" inputMode="decimal" {...reg("shortTendonFloorMm")} />
         </Row>
         <Row
@@ -215,13 +264,22 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
 
       <fieldset className="card grid gap-4 md:grid-cols-2">
         <legend className="px-1 text-lead font-semibold">Force and time</legend>
-        <Row id="s-jackingForceFactor" label="Specified jacking force, × fpu·A" hint="0.80 is the ACI 318 limit for buildings; 0.75 is usual on bridges." error={err("jackingForceFactor")}>
+        <Row
+          id="s-jackingForceFactor"
+          label="Specified jacking force, × fpu·A"
+          hint="0.80 is the ACI 318 limit for buildings; 0.75 is usual on bridges."
+          error={err("jackingForceFactor")}
+        >
           <input className="field-input" inputMode="decimal" {...reg("jackingForceFactor")} />
         </Row>
         <Row id="s-underForcePct" label="Flag a gauge force short by more than, %" error={err("underForcePct")}>
           <input className="field-input" inputMode="decimal" {...reg("underForcePct")} />
         </Row>
-        <Row id="s-seatingExcessMm" label={`Flag measured seating above plan by more than, ${len}`} error={err("seatingExcessMm")}>
+        <Row
+          id="s-seatingExcessMm"
+          label={`Flag measured seating above plan by more than, ${len}`}
+          error={err("seatingExcessMm")}
+        >
           <input className="field-input" inputMode="decimal" {...reg("seatingExcessMm")} />
         </Row>
         <Row
@@ -232,7 +290,12 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
         >
           <input className="field-input" inputMode="numeric" {...reg("clockSkewMinutes")} />
         </Row>
-        <Row id="s-timeZone" label="Time zone of the site" hint="The stressing day for calibrations and the concrete gate, e.g. America/Chicago." error={err("timeZone")}>
+        <Row
+          id="s-timeZone"
+          label="Time zone of the site"
+          hint="The stressing day for calibrations and the concrete gate, e.g. America/Chicago."
+          error={err("timeZone")}
+        >
           <input className="field-input" autoComplete="off" {...reg("timeZone")} />
         </Row>
       </fieldset>
@@ -242,7 +305,12 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
         <Row id="s-frictionMu" label="Curvature μ" error={err("frictionMu")}>
           <input className="field-input" inputMode="decimal" {...reg("frictionMu")} />
         </Row>
-        <Row id="s-wobble" label="Wobble K" hint="Per ft × 3.2808 = per m. Check which one your data gives." error={err("wobble") ?? err("wobblePerM")}>
+        <Row
+          id="s-wobble"
+          label="Wobble K"
+          hint="Per ft × 3.2808 = per m. Check which one your data gives."
+          error={err("wobble") ?? err("wobblePerM")}
+        >
           <div className="flex gap-2">
             <input className="field-input" inputMode="decimal" {...reg("wobble")} />
             <select className="field-input w-36" aria-label="Unit of K" {...form.register("wobbleUnit")}>
@@ -252,7 +320,12 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
             </select>
           </div>
         </Row>
-        <Row id="s-anchorSetMm" label={`Anchor set, ${len}`} hint="About 1/4 in (6 mm) for monostrand, 3/8 in (10 mm) for multistrand." error={err("anchorSetMm")}>
+        <Row
+          id="s-anchorSetMm"
+          label={`Anchor set, ${len}`}
+          hint="About 1/4 in (6 mm) for monostrand, 3/8 in (10 mm) for multistrand."
+          error={err("anchorSetMm")}
+        >
           <input className="field-input" inputMode="decimal" {...reg("anchorSetMm")} />
         </Row>
       </fieldset>
@@ -262,7 +335,11 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
         <Row id="s-calibrationValidityDays" label="Calibration valid for, days" error={err("calibrationValidityDays")}>
           <input className="field-input" inputMode="numeric" {...reg("calibrationValidityDays")} />
         </Row>
-        <Row id="s-requiredConcreteMPa" label={`Concrete strength required, ${us ? "psi" : "MPa"}`} error={err("requiredConcreteMPa")}>
+        <Row
+          id="s-requiredConcreteMPa"
+          label={`Concrete strength required, ${us ? "psi" : "MPa"}`}
+          error={err("requiredConcreteMPa")}
+        >
           <input className="field-input" inputMode="decimal" {...reg("requiredConcreteMPa")} />
         </Row>
         <Row id="s-blindEntry" label="Crew sees predicted values">
@@ -278,7 +355,12 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
         <Row id="s-engineerOfRecordName" label="Engineer of record" error={err("engineerOfRecordName")}>
           <input className="field-input" {...reg("engineerOfRecordName")} />
         </Row>
-        <Row id="s-engineerOfRecordEmail" label="Engineer of record's e-mail" hint="Flags are e-mailed here at once." error={err("engineerOfRecordEmail")}>
+        <Row
+          id="s-engineerOfRecordEmail"
+          label="Engineer of record's e-mail"
+          hint="Flags are e-mailed here at once."
+          error={err("engineerOfRecordEmail")}
+        >
           <input className="field-input" type="email" {...reg("engineerOfRecordEmail")} />
         </Row>
         <Row id="s-notifyEmails" label="Also e-mail (commas between addresses)" error={err("notifyEmails")}>

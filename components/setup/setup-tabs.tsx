@@ -9,7 +9,15 @@ const TABS = [
 ] as const;
 
 /** The parts of one project's setup, with the current one marked for screen readers and the eye. */
-export function SetupTabs({ projectId, projectName, current }: { projectId: string; projectName: string; current: (typeof TABS)[number]["key"] }) {
+export function SetupTabs({
+  projectId,
+  projectName,
+  current,
+}: {
+  projectId: string;
+  projectName: string;
+  current: (typeof TABS)[number]["key"];
+}) {
   return (
     <header className="mb-6">
       <p className="field-label">

@@ -30,7 +30,11 @@ function resolver(us: boolean) {
   return formResolver(
     fields(us),
     // 1 in² = 645.16 mm² exactly.
-    ({ area, ...v }) => ({ ...v, areaMm2: area === null ? null : us ? area * 645.16 : area, certificateAttachmentId: v.certificateAttachmentId || null }),
+    ({ area, ...v }) => ({
+      ...v,
+      areaMm2: area === null ? null : us ? area * 645.16 : area,
+      certificateAttachmentId: v.certificateAttachmentId || null,
+    }),
     strandLotSchema,
     { areaMm2: "area" },
   );
@@ -43,13 +47,21 @@ export function StrandLotForm({ projectId, us }: { projectId: string; us: boolea
   const [file, setFile] = useState<UploadedFile | null>(null);
   const form = useForm<FormIn, unknown, StrandLotInput>({
     resolver: resolver(us),
-    defaultValues: { lotNumber: "", strandSize: "0.5 in", area: "", modulusMPa: "", breakingLoadN: "", certificateAttachmentId: "" },
+    defaultValues: {
+      lotNumber: "",
+      strandSize: "0.5 in",
+      area: "",
+      modulusMPa: "",
+      breakingLoadN: "",
+      certificateAttachmentId: "",
+    },
   });
   const errors = form.formState.errors as Record<string, { message?: string } | undefined>;
   const onSubmit = form.handleSubmit(async (values) => {
     const result = await sendJson("POST", `/api/projects/${projectId}/strand-lots`, values);
     if (!result.ok) {
-      for (const [k, m] of Object.entries(result.error.fields ?? {})) form.setError((k === "areaMm2" ? "area" : k) as keyof FormIn, { message: m.join(" ") });
+      for (const [k, m] of Object.entries(result.error.fields ?? {}))
+        form.setError((k === "areaMm2" ? "area" : k) as keyof FormIn, { message: m.join(" ") });
       setMessage({ tone: "error", text: result.error.message });
       return;
     }
@@ -63,9 +75,17 @@ export function StrandLotForm({ projectId, us }: { projectId: string; us: boolea
       <label htmlFor={`l-${k}`} className="field-label">
         {label}
       </label>
-      <input id={`l-${k}`} className="field-input mt-1" inputMode={k === "lotNumber" ? "text" : "decimal"} {...form.register(k)} aria-invalid={errors[k] ? true : undefined} />
+      <input
+        id={`l-${k}`}
+        className="field-input mt-1"
+        inputMode={k === "lotNumber" ? "text" : "decimal"}
+        {...form.register(k)}
+        aria-invalid={errors[k] ? true : undefined}
+      />
       {hint && <p className="mt-1 text-label text-ink-faint">{hint}</p>}
-      {(errors[k]?.message || (k === "area" && errors.areaMm2?.message)) && <p className="mt-1 font-semibold text-signal-stop">{errors[k]?.message ?? errors.areaMm2?.message}</p>}
+      {(errors[k]?.message || (k === "area" && errors.areaMm2?.message)) && (
+        <p className="mt-1 font-semibold text-signal-stop">{errors[k]?.message ?? errors.areaMm2?.message}</p>
+      )}
     </div>
   );
   return (
@@ -85,8 +105,16 @@ export function StrandLotForm({ projectId, us }: { projectId: string; us: boolea
             ))}
           </select>
         </div>
-        {input("area", `Area, ${us ? "in²" : "mm²"}`, us ? "Nominal 0.153 in² for 0.5 in strand." : "Nominal 98.7 mm² for 12.7 mm strand.")}
-        {input("modulusMPa", `Modulus, ${us ? "ksi" : "MPa"}`, us ? "Design value 28,500 ksi." : "Design value 196,500 MPa.")}
+        {input(
+          "area",
+          `Area, ${us ? "in²" : "mm²"}`,
+          us ? "Nominal 0.153 in² for 0.5 in strand." : "Nominal 98.7 mm² for 12.7 mm strand.",
+        )}
+        {input(
+          "modulusMPa",
+          `Modulus, ${us ? "ksi" : "MPa"}`,
+          us ? "Design value 28,500 ksi." : "Design value 196,500 MPa.",
+        )}
         {input("breakingLoadN", `Breaking load, ${us ? "kip" : "kN"}`, "From the mill certificate, per strand.")}
       </div>
       <FileUpload

@@ -11,7 +11,8 @@ export const strandLotsKey = (projectId: string) => `/api/projects/${projectId}/
 
 const SORTS = ["lot", "size", "area", "modulus", "breaking", "ae", "tendons"] as const;
 const signed = (pct: number) => `${pct > 0 ? "+" : ""}${pct.toFixed(1)} %`;
-const byNumber = (a: number | null | undefined, b: number | null | undefined) => (a ?? -Infinity) - (b ?? -Infinity) || 0;
+const byNumber = (a: number | null | undefined, b: number | null | undefined) =>
+  (a ?? -Infinity) - (b ?? -Infinity) || 0;
 const helper = createColumnHelper<typeof setupFeatures, StrandLotView>();
 
 function Against({ pct }: { pct: number | undefined }) {
@@ -89,7 +90,10 @@ function lotColumns(projectId: string, us: boolean) {
       cell: (c) => {
         const l = c.row.original;
         return l.certificateAttachmentId ? (
-          <a href={`/api/projects/${projectId}/attachments/${l.certificateAttachmentId}`} className="inline-flex min-h-touch items-center">
+          <a
+            href={`/api/projects/${projectId}/attachments/${l.certificateAttachmentId}`}
+            className="inline-flex min-h-touch items-center"
+          >
             {l.certificateName ?? "certificate"}
           </a>
         ) : (

@@ -33,7 +33,8 @@ export type SetupFeatures = typeof setupFeatures;
 
 const collator = new Intl.Collator("en", { numeric: true, sensitivity: "base" });
 /** Text in the order a person expects ("T2" before "T10"); an empty value first. */
-export const compareText = (a: string | null | undefined, b: string | null | undefined) => collator.compare(a ?? "", b ?? "");
+export const compareText = (a: string | null | undefined, b: string | null | undefined) =>
+  collator.compare(a ?? "", b ?? "");
 
 /**
  * The view of a setup table (sort and filters) lives in the URL's search params, so a link
@@ -60,7 +61,11 @@ export function useUrlView(base: string) {
 }
 
 /** `sort` and `dir` from the URL; an unknown column falls back to the table's default order. */
-export function readSorting(params: URLSearchParams, allowed: readonly string[], fallback: ColumnSort | null): SortingState {
+export function readSorting(
+  params: URLSearchParams,
+  allowed: readonly string[],
+  fallback: ColumnSort | null,
+): SortingState {
   const id = params.get("sort");
   if (id && allowed.includes(id)) return [{ id, desc: params.get("dir") === "desc" }];
   if (fallback) return [{ id: fallback.id, desc: params.get("dir") === "desc" }];
@@ -68,7 +73,10 @@ export function readSorting(params: URLSearchParams, allowed: readonly string[],
 }
 
 /** The search params for a sorting state: the default column and ascending order are left out. */
-export function sortingParams(sorting: SortingState, fallback: ColumnSort | null): { sort: string | null; dir: string | null } {
+export function sortingParams(
+  sorting: SortingState,
+  fallback: ColumnSort | null,
+): { sort: string | null; dir: string | null } {
   const first = sorting[0];
   if (!first) return { sort: null, dir: null };
   return { sort: fallback && first.id === fallback.id ? null : first.id, dir: first.desc ? "desc" : null };
@@ -83,10 +91,20 @@ export function isPlainClick(e: React.MouseEvent): boolean {
  * A column header that sorts: a link to the sorted view (so it works before the script loads and
  * can be opened in a new tab), marked with aria-sort, with a touch-sized hit area.
  */
-export function SortHeader(props: { label: React.ReactNode; sorted: false | "asc" | "desc"; href: string; onSort: () => void; right?: boolean; className?: string }) {
+export function SortHeader(props: {
+  label: React.ReactNode;
+  sorted: false | "asc" | "desc";
+  href: string;
+  onSort: () => void;
+  right?: boolean;
+  className?: string;
+}) {
   const { sorted } = props;
   return (
-    <th className={`${props.className ?? "p-2"} ${props.right ? "text-right" : ""}`} aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}>
+    <th
+      className={`${props.className ?? "p-2"} ${props.right ? "text-right" : ""}`}
+      aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}
+    >
       <a
         href={props.href}
         className="inline-flex min-h-touch items-center gap-1"
@@ -107,7 +125,12 @@ export function SortHeader(props: { label: React.ReactNode; sorted: false | "asc
  * One setup table: headers from the table library (sortable ones as SortHeader links whose
  * target is the sorted view), rows from its filtered and sorted row model.
  */
-export function SetupTable<TData extends RowData>(props: { table: ReactTable<SetupFeatures, TData>; hrefFor: (sorting: SortingState) => string; cellClass?: string; caption?: string }) {
+export function SetupTable<TData extends RowData>(props: {
+  table: ReactTable<SetupFeatures, TData>;
+  hrefFor: (sorting: SortingState) => string;
+  cellClass?: string;
+  caption?: string;
+}) {
   const { table } = props;
   const pad = props.cellClass ?? "p-2";
   return (

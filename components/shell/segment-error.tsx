@@ -3,7 +3,15 @@
 import { useEffect } from "react";
 
 /** What an office page shows when it fails: nothing is lost, try again, and a reference to pass on. */
-export function SegmentError({ what, error, reset }: { what: string; error: Error & { digest?: string }; reset: () => void }) {
+export function SegmentError({
+  what,
+  error,
+  reset,
+}: {
+  what: string;
+  error: Error & { digest?: string };
+  reset: () => void;
+}) {
   useEffect(() => {
     console.error(error);
   }, [error]);
@@ -12,7 +20,8 @@ export function SegmentError({ what, error, reset }: { what: string; error: Erro
       <p className="field-label">Something went wrong</p>
       <h1 className="text-figure font-bold">{what} could not be shown.</h1>
       <p className="text-ink-soft">
-        The records themselves are safe: nothing on this page was changed. Try again in a moment; if it keeps failing, tell your project admin
+        The records themselves are safe: nothing on this page was changed. Try again in a moment; if it keeps failing,
+        tell your project admin
         {error.digest ? ` the reference ${error.digest}` : ""}.
       </p>
       <button type="button" className="btn-primary" onClick={reset}>

@@ -23,8 +23,8 @@ export function SegmentNotFound({ what, back }: { what: string; back: { href: st
       <p className="field-label">Not found</p>
       <h1 className="text-figure font-bold">There is no {what} at this address.</h1>
       <p className="text-ink-soft">
-        It may have been removed, the link may be cut short, or it belongs to a project you are not a member of. If someone sent you this link, ask them
-        to check it.
+        It may have been removed, the link may be cut short, or it belongs to a project you are not a member of. If
+        someone sent you this link, ask them to check it.
       </p>
       <Link href={back.href} className="btn-primary">
         {back.label}

@@ -9,13 +9,19 @@ import { tendonsKey } from "./tendon-table";
 export function ScheduleImport({ projectId, pourId }: { projectId: string; pourId: string }) {
   const { mutate } = useSWRConfig();
   const [busy, setBusy] = useState(false);
-  const [result, setResult] = useState<{ ok: true; text: string } | { ok: false; text: string; rows: [string, string[]][] } | null>(null);
+  const [result, setResult] = useState<
+    { ok: true; text: string } | { ok: false; text: string; rows: [string, string[]][] } | null
+  >(null);
 
   async function send(file: File) {
     setBusy(true);
     setResult(null);
     const csv = await file.text();
-    const answer = await sendJson<{ imported: number }>("POST", `/api/projects/${projectId}/pours/${pourId}/tendons/import`, { csv });
+    const answer = await sendJson<{ imported: number }>(
+      "POST",
+      `/api/projects/${projectId}/pours/${pourId}/tendons/import`,
+      { csv },
+    );
     setBusy(false);
     if (answer.ok) {
       setResult({ ok: true, text: `${answer.data.imported} tendons imported from ${file.name}.` });

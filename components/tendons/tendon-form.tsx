@@ -8,7 +8,14 @@ import { units } from "@/lib/client/unit-fields";
 import { FormMessage } from "@/components/ui/form-message";
 import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
-import { drapeAngleRad, KIND_LABELS, STRAND_SIZES, TENDON_KINDS, tendonSchema, type TendonInput } from "@/lib/schemas/tendon";
+import {
+  drapeAngleRad,
+  KIND_LABELS,
+  STRAND_SIZES,
+  TENDON_KINDS,
+  tendonSchema,
+  type TendonInput,
+} from "@/lib/schemas/tendon";
 import { tendonsKey } from "./tendon-table";
 
 function fields(us: boolean) {
@@ -16,19 +23,19 @@ function fields(us: boolean) {
   const long = us ? "ft" : "m";
   const short = us ? "in" : "mm";
   return {
-      tag: z.string(),
-      kind: z.enum(TENDON_KINDS),
-      strandSize: z.string(),
-      strandCount: units.number(),
-      ends: z.enum(["A", "B", "both"]),
-      jackGripMm: units.length(system, short, false),
-      shopElongationMm: units.length(system, short, false),
-      strandLotId: z.string(),
-      mode: z.enum(["segments", "drape"]),
-      segments: z.array(z.object({ length: units.length(system, long, false), angleDeg: units.number(false) })),
-      spanLength: units.length(system, long, false),
-      spans: units.number(false),
-      drape: units.length(system, short, false),
+    tag: z.string(),
+    kind: z.enum(TENDON_KINDS),
+    strandSize: z.string(),
+    strandCount: units.number(),
+    ends: z.enum(["A", "B", "both"]),
+    jackGripMm: units.length(system, short, false),
+    shopElongationMm: units.length(system, short, false),
+    strandLotId: z.string(),
+    mode: z.enum(["segments", "drape"]),
+    segments: z.array(z.object({ length: units.length(system, long, false), angleDeg: units.number(false) })),
+    spanLength: units.length(system, long, false),
+    spans: units.number(false),
+    drape: units.length(system, short, false),
   };
 }
 
@@ -40,9 +47,14 @@ function resolver(us: boolean) {
       if (mode === "drape") {
         // A parabola dropping h over each half span l turns the tendon by 2h/l (common practice).
         const half = (spanLength ?? 0) / 2;
-        profile = Array.from({ length: Math.max(0, Math.round((spans ?? 0) * 2)) }, () => ({ lengthMm: half, angleRad: half > 0 ? drapeAngleRad(drape ?? 0, half) : 0 }));
+        profile = Array.from({ length: Math.max(0, Math.round((spans ?? 0) * 2)) }, () => ({
+          lengthMm: half,
+          angleRad: half > 0 ? drapeAngleRad(drape ?? 0, half) : 0,
+        }));
       } else {
-        profile = (segments ?? []).filter((s) => s.length !== null).map((s) => ({ lengthMm: s.length!, angleRad: ((s.angleDeg ?? 0) * Math.PI) / 180 }));
+        profile = (segments ?? [])
+          .filter((s) => s.length !== null)
+          .map((s) => ({ lengthMm: s.length!, angleRad: ((s.angleDeg ?? 0) * Math.PI) / 180 }));
       }
       return { ...v, strandLotId: v.strandLotId || null, segments: profile };
     },
@@ -54,7 +66,17 @@ function resolver(us: boolean) {
 type FormIn = { [K in keyof ReturnType<typeof fields>]: z.input<ReturnType<typeof fields>[K]> };
 
 /** Adds one tendon by hand: profile as segments, or as a drape height over equal spans. */
-export function TendonForm({ projectId, pourId, us, lots }: { projectId: string; pourId: string; us: boolean; lots: { id: string; lotNumber: string; strandSize: string }[] }) {
+export function TendonForm({
+  projectId,
+  pourId,
+  us,
+  lots,
+}: {
+  projectId: string;
+  pourId: string;
+  us: boolean;
+  lots: { id: string; lotNumber: string; strandSize: string }[];
+}) {
   const { mutate } = useSWRConfig();
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
   const long = us ? "ft" : "m";
@@ -86,7 +108,9 @@ export function TendonForm({ projectId, pourId, us, lots }: { projectId: string;
     const result = await sendJson("POST", `/api/projects/${projectId}/pours/${pourId}/tendons`, values);
     if (!result.ok) {
       for (const [k, m] of Object.entries(result.error.fields ?? {}))
-        form.setError((k.startsWith("segments") ? "segments" : k in fields(us) ? k : "root") as keyof FormIn, { message: m.join(" ") });
+        form.setError((k.startsWith("segments") ? "segments" : k in fields(us) ? k : "root") as keyof FormIn, {
+          message: m.join(" "),
+        });
       setMessage({ tone: "error", text: result.error.message });
       return;
     }
@@ -100,7 +124,13 @@ export function TendonForm({ projectId, pourId, us, lots }: { projectId: string;
       <label htmlFor={`t-${k}`} className="field-label">
         {label}
       </label>
-      <input id={`t-${k}`} className="field-input mt-1" inputMode={k === "tag" ? "text" : "decimal"} {...form.register(k)} aria-invalid={err(k) ? true : undefined} />
+      <input
+        id={`t-${k}`}
+        className="field-input mt-1"
+        inputMode={k === "tag" ? "text" : "decimal"}
+        {...form.register(k)}
+        aria-invalid={err(k) ? true : undefined}
+      />
       {hint && <p className="mt-1 text-label text-ink-faint">{hint}</p>}
       {err(k) && <p className="mt-1 font-semibold text-signal-stop">{err(k)}</p>}
     </div>
@@ -187,15 +217,30 @@ export function TendonForm({ projectId, pourId, us, lots }: { projectId: string;
                   <label htmlFor={`seg-${i}-l`} className="field-label">
                     Segment {i + 1} length, {long}
                   </label>
-                  <input id={`seg-${i}-l`} className="field-input mt-1" inputMode="decimal" {...form.register(`segments.${i}.length`)} />
+                  <input
+                    id={`seg-${i}-l`}
+                    className="field-input mt-1"
+                    inputMode="decimal"
+                    {...form.register(`segments.${i}.length`)}
+                  />
                 </div>
                 <div>
                   <label htmlFor={`seg-${i}-a`} className="field-label">
                     Angle change, degrees
                   </label>
-                  <input id={`seg-${i}-a`} className="field-input mt-1" inputMode="decimal" {...form.register(`segments.${i}.angleDeg`)} />
+                  <input
+                    id={`seg-${i}-a`}
+                    className="field-input mt-1"
+                    inputMode="decimal"
+                    {...form.register(`segments.${i}.angleDeg`)}
+                  />
                 </div>
-                <button type="button" className="btn-quiet" onClick={() => rows.remove(i)} aria-label={`Remove segment ${i + 1}`}>
+                <button
+                  type="button"
+                  className="btn-quiet"
+                  onClick={() => rows.remove(i)}
+                  aria-label={`Remove segment ${i + 1}`}
+                >
                   Remove
                 </button>
               </div>

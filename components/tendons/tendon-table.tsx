@@ -1,9 +1,24 @@
 "use client";
 
-import { createColumnHelper, functionalUpdate, useTable, type ColumnFiltersState, type ColumnSort, type SortingState } from "@tanstack/react-table";
+import {
+  createColumnHelper,
+  functionalUpdate,
+  useTable,
+  type ColumnFiltersState,
+  type ColumnSort,
+  type SortingState,
+} from "@tanstack/react-table";
 import Link from "next/link";
 import { useMemo } from "react";
-import { compareText, isPlainClick, readSorting, SetupTable, setupFeatures, sortingParams, useUrlView } from "@/components/setup/url-table";
+import {
+  compareText,
+  isPlainClick,
+  readSorting,
+  SetupTable,
+  setupFeatures,
+  sortingParams,
+  useUrlView,
+} from "@/components/setup/url-table";
 import { RefreshError, useRouteData } from "@/components/setup/use-route-data";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
 import { KIND_LABELS } from "@/lib/schemas/tendon";
@@ -28,7 +43,11 @@ function readFilters(params: URLSearchParams): ColumnFiltersState {
   const q = (params.get("q") ?? "").slice(0, 60);
   const ends = ENDS.find((e) => e === params.get("ends"));
   const lot = (params.get("lot") ?? "").slice(0, 60);
-  return [...(q ? [{ id: "tag", value: q }] : []), ...(ends ? [{ id: "ends", value: ends }] : []), ...(lot ? [{ id: "lot", value: lot }] : [])];
+  return [
+    ...(q ? [{ id: "tag", value: q }] : []),
+    ...(ends ? [{ id: "ends", value: ends }] : []),
+    ...(lot ? [{ id: "lot", value: lot }] : []),
+  ];
 }
 
 function filterParams(filters: ColumnFiltersState): Record<"q" | "ends" | "lot", string | null> {
@@ -51,7 +70,10 @@ function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolu
       sortFn: (a, b, id) => compareText(a.getValue<string>(id), b.getValue<string>(id)),
       filterFn: (row, id, value: string) => row.getValue<string>(id).toLowerCase().includes(value.toLowerCase()),
       cell: (c) => (
-        <Link href={`/projects/${projectId}/tendons/${c.row.original.id}`} className="inline-flex min-h-touch items-center font-semibold">
+        <Link
+          href={`/projects/${projectId}/tendons/${c.row.original.id}`}
+          className="inline-flex min-h-touch items-center font-semibold"
+        >
           {c.getValue()}
         </Link>
       ),
@@ -80,7 +102,12 @@ function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolu
       enableColumnFilter: false,
       cell: (c) => long(c.getValue()),
     }),
-    helper.display({ id: "segments", header: "Segments", meta: { right: true }, cell: (c) => c.row.original.segments.length }),
+    helper.display({
+      id: "segments",
+      header: "Segments",
+      meta: { right: true },
+      cell: (c) => c.row.original.segments.length,
+    }),
     helper.accessor("predictedMm", {
       id: "predicted",
       header: "Predicted elongation",
@@ -102,7 +129,10 @@ function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolu
           <ul className="whitespace-nowrap">
             {c.row.original.targets.map((t) => (
               <li key={t.set}>
-                <span className="text-ink-faint">{t.set}:</span> <span className="tabular-nums">{t.pressureMPa === null ? "—" : showPressure(units, t.pressureMPa)}</span>
+                <span className="text-ink-faint">{t.set}:</span>{" "}
+                <span className="tabular-nums">
+                  {t.pressureMPa === null ? "—" : showPressure(units, t.pressureMPa)}
+                </span>
               </li>
             ))}
           </ul>
@@ -115,7 +145,11 @@ function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolu
         const latest = c.row.original.latest;
         return latest ? (
           <Link href={`/projects/${projectId}/tendons/${c.row.original.id}/flags`} className="no-underline">
-            <VerdictBadge verdict={latest.verdict} deviationPct={latest.deviationPct} provisional={latest.provisional} />
+            <VerdictBadge
+              verdict={latest.verdict}
+              deviationPct={latest.deviationPct}
+              provisional={latest.provisional}
+            />
             <span className="sr-only"> readings and flags of {c.row.original.tag}</span>
           </Link>
         ) : (
@@ -127,13 +161,15 @@ function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolu
       id: "shop",
       header: "Shop elongation",
       meta: { right: true },
-      cell: (c) => (c.row.original.shopElongationMm === null ? "—" : formatLength(c.row.original.shopElongationMm, resolution)),
+      cell: (c) =>
+        c.row.original.shopElongationMm === null ? "—" : formatLength(c.row.original.shopElongationMm, resolution),
     }),
     helper.accessor("strandLot", {
       id: "lot",
       header: "Lot",
       sortFn: (a, b, id) => compareText(a.getValue<string | null>(id), b.getValue<string | null>(id)),
-      filterFn: (row, id, value: string) => (value === "none" ? !row.getValue<string | null>(id) : row.getValue<string | null>(id) === value),
+      filterFn: (row, id, value: string) =>
+        value === "none" ? !row.getValue<string | null>(id) : row.getValue<string | null>(id) === value,
       cell: (c) => c.getValue() ?? <span className="text-ink-faint">nominal</span>,
     }),
   ]);
@@ -144,13 +180,24 @@ function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolu
  * import or a new tendon the list is read again through the route handler (swr). Sorting and
  * filtering are done by the table library in the browser, with the view kept in the URL.
  */
-export function TendonTable(props: { base: string; projectId: string; pourId: string; initial: TendonList; lots: string[]; us: boolean; resolution: ReadingResolution }) {
+export function TendonTable(props: {
+  base: string;
+  projectId: string;
+  pourId: string;
+  initial: TendonList;
+  lots: string[];
+  us: boolean;
+  resolution: ReadingResolution;
+}) {
   const { data, error } = useRouteData(tendonsKey(props.projectId, props.pourId), props.initial);
   const tendons = data.tendons;
   const { params, hrefWith, go } = useUrlView(props.base);
   const sorting = useMemo(() => readSorting(params, SORTS, DEFAULT_SORT), [params]);
   const columnFilters = useMemo(() => readFilters(params), [params]);
-  const columns = useMemo(() => tendonColumns(props.projectId, props.us, props.resolution), [props.projectId, props.us, props.resolution]);
+  const columns = useMemo(
+    () => tendonColumns(props.projectId, props.us, props.resolution),
+    [props.projectId, props.us, props.resolution],
+  );
   const hrefFor = (next: SortingState) => hrefWith(sortingParams(next, DEFAULT_SORT));
 
   const table = useTable({
@@ -239,7 +286,9 @@ export function TendonTable(props: { base: string; projectId: string; pourId: st
         </a>
       </form>
       {total === 0 ? (
-        <p className="card mt-4">This pour has no tendons yet. Import a schedule file or add tendons one by one below.</p>
+        <p className="card mt-4">
+          This pour has no tendons yet. Import a schedule file or add tendons one by one below.
+        </p>
       ) : shown === 0 ? (
         <p className="card mt-4">No tendon matches the filter.</p>
       ) : (

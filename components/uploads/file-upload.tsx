@@ -18,7 +18,12 @@ interface Presigned {
 }
 
 /** PUT with progress: fetch cannot report upload progress, XMLHttpRequest can. */
-function putWithProgress(url: string, file: File, headers: Record<string, string>, onProgress: (fraction: number) => void): Promise<number> {
+function putWithProgress(
+  url: string,
+  file: File,
+  headers: Record<string, string>,
+  onProgress: (fraction: number) => void,
+): Promise<number> {
   return new Promise((resolve) => {
     const xhr = new XMLHttpRequest();
     xhr.open("PUT", url);
@@ -34,7 +39,12 @@ function putWithProgress(url: string, file: File, headers: Record<string, string
  * Picks a file, sends it straight to storage on a presigned URL with a progress bar, then asks
  * the server to check it (type by content, size, sha256). Calls onUploaded with the stored file.
  */
-export function FileUpload(props: { projectId: string; purpose: UploadPurpose; label: string; onUploaded: (file: UploadedFile) => void }) {
+export function FileUpload(props: {
+  projectId: string;
+  purpose: UploadPurpose;
+  label: string;
+  onUploaded: (file: UploadedFile) => void;
+}) {
   const id = useId();
   const [progress, setProgress] = useState<number | null>(null);
   const [state, setState] = useState<{ tone: "error" | "info"; text: string } | null>(null);
@@ -51,17 +61,28 @@ export function FileUpload(props: { projectId: string; purpose: UploadPurpose; l
     });
     if (!started.ok) {
       setProgress(null);
-      const fieldText = Object.values(started.error.fields ?? {}).flat().join(" ");
+      const fieldText = Object.values(started.error.fields ?? {})
+        .flat()
+        .join(" ");
       setState({ tone: "error", text: fieldText || started.error.message });
       return;
     }
     const status = await putWithProgress(started.data.uploadUrl, file, started.data.headers, setProgress);
     if (status < 200 || status >= 300) {
       setProgress(null);
-      setState({ tone: "error", text: status === 0 ? "The file could not reach storage. Check the connection and try again." : `Storage answered ${status}. Try again.` });
+      setState({
+        tone: "error",
+        text:
+          status === 0
+            ? "The file could not reach storage. Check the connection and try again."
+            : `Storage answered ${status}. Try again.`,
+      });
       return;
     }
-    const confirmed = await sendJson<{ attachment: UploadedFile }>("POST", `${base}/uploads/${started.data.attachmentId}/confirm`);
+    const confirmed = await sendJson<{ attachment: UploadedFile }>(
+      "POST",
+      `${base}/uploads/${started.data.attachmentId}/confirm`,
+    );
     setProgress(null);
     if (!confirmed.ok) {
       setState({ tone: "error", text: confirmed.error.message });
@@ -88,7 +109,8 @@ export function FileUpload(props: { projectId: string; purpose: UploadPurpose; l
         }}
       />
       <p id={`${id}-hint`} className="mt-1 text-label text-ink-faint">
-        A {PURPOSE_LABELS[props.purpose]}: {acceptedTypesText(props.purpose)}. The content is checked, not just the name.
+        A {PURPOSE_LABELS[props.purpose]}: {acceptedTypesText(props.purpose)}. The content is checked, not just the
+        name.
       </p>
       {progress !== null && (
         <div className="mt-2">
@@ -97,7 +119,10 @@ export function FileUpload(props: { projectId: string; purpose: UploadPurpose; l
         </div>
       )}
       {state && (
-        <p role={state.tone === "error" ? "alert" : "status"} className={state.tone === "error" ? "mt-2 font-semibold text-signal-stop" : "mt-2"}>
+        <p
+          role={state.tone === "error" ? "alert" : "status"}
+          className={state.tone === "error" ? "mt-2 font-semibold text-signal-stop" : "mt-2"}
+        >
           {state.text}
         </p>
       )}

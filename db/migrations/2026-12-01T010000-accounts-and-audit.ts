@@ -18,9 +18,7 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("id", "uuid", (c) => c.primaryKey().defaultTo(sql`gen_random_uuid()`))
     .addColumn("project_id", "uuid", (c) => c.notNull().references("projects.id").onDelete("cascade"))
     .addColumn("email", "text", (c) => c.notNull().check(sql`email = lower(email)`))
-    .addColumn("role", "text", (c) =>
-      c.notNull().check(sql`role in ('crew', 'inspector', 'engineer', 'admin')`),
-    )
+    .addColumn("role", "text", (c) => c.notNull().check(sql`role in ('crew', 'inspector', 'engineer', 'admin')`))
     .addColumn("token_hash", "text", (c) => c.notNull().unique())
     .addColumn("invited_by", "uuid", (c) => c.references("users.id").onDelete("set null"))
     .addColumn("expires_at", "timestamptz", (c) => c.notNull())

@@ -28,7 +28,10 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema
     .alterTable("projects")
     .addColumn("release_by", "text", (c) =>
-      c.notNull().defaultTo("engineer").check(sql`release_by in ('engineer', 'inspector')`),
+      c
+        .notNull()
+        .defaultTo("engineer")
+        .check(sql`release_by in ('engineer', 'inspector')`),
     )
     .execute();
 
@@ -46,7 +49,12 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("size_bytes", "bigint", (c) => c.notNull().check(sql`size_bytes > 0`))
     .addColumn("sha256", "text", (c) => c.check(sql`sha256 ~ '^[0-9a-f]{64}$'`))
     .addColumn("original_name", "text")
-    .addColumn("status", "text", (c) => c.notNull().defaultTo("pending").check(sql`status in ('pending', 'stored')`))
+    .addColumn("status", "text", (c) =>
+      c
+        .notNull()
+        .defaultTo("pending")
+        .check(sql`status in ('pending', 'stored')`),
+    )
     .addColumn("record_id", "uuid")
     .addColumn("uploaded_by", "uuid", (c) => c.references("users.id").onDelete("set null"))
     .addColumn("created_at", "timestamptz", (c) => c.notNull().defaultTo(now))
@@ -86,7 +94,11 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("created_at", "timestamptz", (c) => c.notNull().defaultTo(now))
     .addCheckConstraint("calibrations_dates", sql`valid_until >= calibrated_on`)
     .execute();
-  await db.schema.createIndex("calibrations_set_idx").on("calibrations").columns(["equipment_set_id", "calibrated_on"]).execute();
+  await db.schema
+    .createIndex("calibrations_set_idx")
+    .on("calibrations")
+    .columns(["equipment_set_id", "calibrated_on"])
+    .execute();
 
   // One stressing event of one tendon end. Never updated: a correction is a new revision in
   // the same chain (chain_id = the first revision's id) naming its base and a reason.
@@ -111,7 +123,12 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("entered", "jsonb", (c) => c.notNull())
     .addColumn("measured_mm", "double precision", (c) => c.notNull())
     .addColumn("seating_mm", "double precision", (c) => c.check(sql`seating_mm >= 0`))
-    .addColumn("wire_breaks", "integer", (c) => c.notNull().defaultTo(0).check(sql`wire_breaks >= 0`))
+    .addColumn("wire_breaks", "integer", (c) =>
+      c
+        .notNull()
+        .defaultTo(0)
+        .check(sql`wire_breaks >= 0`),
+    )
     .addColumn("remarks", "text")
     .addColumn("device_time", "timestamptz", (c) => c.notNull())
     .addColumn("device_time_zone", "text", (c) => c.notNull())
@@ -140,16 +157,18 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("engine_version", "text", (c) => c.notNull())
     .addColumn("inputs", "jsonb", (c) => c.notNull())
     .addColumn("result", "jsonb", (c) => c.notNull())
-    .addColumn("verdict", "text", (c) =>
-      c.notNull().check(sql`verdict in ('in band', 'long', 'short', 'incomplete')`),
-    )
+    .addColumn("verdict", "text", (c) => c.notNull().check(sql`verdict in ('in band', 'long', 'short', 'incomplete')`))
     .addColumn("provisional", "boolean", (c) => c.notNull())
     .addColumn("deviation_pct", "double precision")
     .addColumn("predicted_mm", "double precision")
     .addColumn("measured_mm", "double precision")
     .addColumn("created_at", "timestamptz", (c) => c.notNull().defaultTo(now))
     .execute();
-  await db.schema.createIndex("evaluations_tendon_idx").on("evaluations").columns(["tendon_id", "created_at"]).execute();
+  await db.schema
+    .createIndex("evaluations_tendon_idx")
+    .on("evaluations")
+    .columns(["tendon_id", "created_at"])
+    .execute();
   await appendOnly(db, "evaluations");
 
   await db.schema
@@ -169,7 +188,10 @@ export async function up(db: Kysely<any>): Promise<void> {
     )
     .addColumn("reason", "text", (c) => c.notNull())
     .addColumn("status", "text", (c) =>
-      c.notNull().defaultTo("open").check(sql`status in ('open', 'with_engineer', 'closed')`),
+      c
+        .notNull()
+        .defaultTo("open")
+        .check(sql`status in ('open', 'with_engineer', 'closed')`),
     )
     .addColumn("closed_at", "timestamptz")
     .addColumn("closed_by", "uuid", (c) => c.references("users.id"))
@@ -239,7 +261,10 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("text_body", "text", (c) => c.notNull())
     .addColumn("html_body", "text", (c) => c.notNull())
     .addColumn("status", "text", (c) =>
-      c.notNull().defaultTo("pending").check(sql`status in ('pending', 'sent', 'failed')`),
+      c
+        .notNull()
+        .defaultTo("pending")
+        .check(sql`status in ('pending', 'sent', 'failed')`),
     )
     .addColumn("attempts", "integer", (c) => c.notNull().defaultTo(0))
     .addColumn("next_attempt_at", "timestamptz", (c) => c.notNull().defaultTo(now))

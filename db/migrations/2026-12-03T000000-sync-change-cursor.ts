@@ -5,7 +5,17 @@ import { sql, type Kysely } from "kysely";
 // tombstone. A pull returns rows written by transactions older than the snapshot's xmin, so a
 // transaction that commits late is never skipped (commit order is not timestamp order).
 
-const TRACKED = ["projects", "pours", "tendons", "strand_lots", "equipment_sets", "calibrations", "records", "evaluations", "flags"];
+const TRACKED = [
+  "projects",
+  "pours",
+  "tendons",
+  "strand_lots",
+  "equipment_sets",
+  "calibrations",
+  "records",
+  "evaluations",
+  "flags",
+];
 // Tables whose rows the tablet may hold and which can be deleted (records and verdicts never are).
 const TOMBSTONED = ["pours", "tendons", "strand_lots", "equipment_sets", "calibrations"];
 
@@ -27,7 +37,11 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("change_xid", sql`xid8`, (c) => c.notNull().defaultTo(sql`pg_current_xact_id()`))
     .addColumn("deleted_at", "timestamptz", (c) => c.notNull().defaultTo(sql`now()`))
     .execute();
-  await db.schema.createIndex("sync_tombstones_project_idx").on("sync_tombstones").columns(["project_id", "change_xid"]).execute();
+  await db.schema
+    .createIndex("sync_tombstones_project_idx")
+    .on("sync_tombstones")
+    .columns(["project_id", "change_xid"])
+    .execute();
 
   await sql`
     create function record_tombstone() returns trigger language plpgsql as $$
@@ -43,7 +57,9 @@ export async function up(db: Kysely<any>): Promise<void> {
     end $$`.execute(db);
 
   for (const table of TRACKED) {
-    await sql`alter table ${sql.id(table)} add column change_xid xid8 not null default pg_current_xact_id()`.execute(db);
+    await sql`alter table ${sql.id(table)} add column change_xid xid8 not null default pg_current_xact_id()`.execute(
+      db,
+    );
     // Records and evaluations are append-only (their update trigger refuses), so only inserts stamp them.
     const events = table === "records" || table === "evaluations" ? sql`before insert` : sql`before insert or update`;
     await sql`create trigger ${sql.id(`${table}_change_xid`)} ${events} on ${sql.id(table)}
@@ -58,7 +74,8 @@ export async function up(db: Kysely<any>): Promise<void> {
 }
 
 export async function down(db: Kysely<any>): Promise<void> {
-  for (const table of TOMBSTONED) await sql`drop trigger ${sql.id(`${table}_tombstone`)} on ${sql.id(table)}`.execute(db);
+  for (const table of TOMBSTONED)
+    await sql`drop trigger ${sql.id(`${table}_tombstone`)} on ${sql.id(table)}`.execute(db);
   for (const table of TRACKED) {
     await sql`drop trigger ${sql.id(`${table}_change_xid`)} on ${sql.id(table)}`.execute(db);
     await sql`alter table ${sql.id(table)} drop column change_xid`.execute(db);

@@ -19,7 +19,9 @@ const BEFORE = [
 ];
 
 const check = (kinds: string[]) =>
-  sql.raw(`alter table flags add constraint flags_kind_check check (kind in (${kinds.map((k) => `'${k}'`).join(", ")}))`);
+  sql.raw(
+    `alter table flags add constraint flags_kind_check check (kind in (${kinds.map((k) => `'${k}'`).join(", ")}))`,
+  );
 
 export async function up(db: Kysely<any>): Promise<void> {
   await sql`alter table flags drop constraint flags_kind_check`.execute(db);

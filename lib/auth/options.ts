@@ -23,7 +23,6 @@ const credentialsSchema = z.object({
   password: z.string().min(1).max(200),
 });
 
-
 /**
  * next-auth options, in one module so the route handler and getServerSession share them.
  * The JWT carries only the user id; roles and the active flag are read from the database on

@@ -42,7 +42,10 @@ export const UPLOAD_PERMISSION = {
   lab_report: "concrete.confirm",
   // Never presigned (not an upload purpose); a signed report is stored by the signing itself.
   signed_report: "report.sign",
-} as const satisfies Record<"mill_certificate" | "calibration_certificate" | "record_photo" | "review_photo" | "lab_report" | "signed_report", Action>;
+} as const satisfies Record<
+  "mill_certificate" | "calibration_certificate" | "record_photo" | "review_photo" | "lab_report" | "signed_report",
+  Action
+>;
 
 export function can(role: Role, action: Action): boolean {
   return (PERMISSIONS[action] as readonly Role[]).includes(role);

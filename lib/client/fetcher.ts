@@ -26,7 +26,11 @@ export async function fetchJson<T>(url: string): Promise<T> {
   const payload = (await response.json().catch(() => null)) as { error?: ApiError } | T | null;
   if (!response.ok) {
     const error = (payload as { error?: ApiError } | null)?.error;
-    throw new FetchError(error?.message ?? `The server answered ${response.status}.`, response.status, error?.code ?? "UNKNOWN");
+    throw new FetchError(
+      error?.message ?? `The server answered ${response.status}.`,
+      response.status,
+      error?.code ?? "UNKNOWN",
+    );
   }
   return payload as T;
 }

@@ -6,7 +6,12 @@ import { formResolver } from "./form-resolver";
 
 const resolver = formResolver(
   { name: z.string(), level: z.string(), area: units.number(false), plannedStressingDate: z.string() },
-  ({ area, ...v }) => ({ ...v, level: v.level || null, plannedStressingDate: v.plannedStressingDate || null, areaM2: area }),
+  ({ area, ...v }) => ({
+    ...v,
+    level: v.level || null,
+    plannedStressingDate: v.plannedStressingDate || null,
+    areaM2: area,
+  }),
   pourSchema,
   { areaM2: "area" },
 );
@@ -41,7 +46,11 @@ describe("a form resolver that tells every fault at once", () => {
     expect(refused.errors).toEqual({
       root: { type: "invalid", message: "A pour's status follows from its records and its release; it cannot be set." },
     });
-    const loose = formResolver({ a: z.string() }, () => ({ b: 1 }), z.object({ b: z.string({ error: "B is missing." }) }));
+    const loose = formResolver(
+      { a: z.string() },
+      () => ({ b: 1 }),
+      z.object({ b: z.string({ error: "B is missing." }) }),
+    );
     const out = await loose({ a: "x" }, undefined, { fields: {}, shouldUseNativeValidation: false });
     expect(out.errors).toEqual({ root: { type: "invalid", message: "B is missing." } });
   });
@@ -58,7 +67,11 @@ describe("rows of a list box", () => {
     const resolve = formResolver(
       { segments: z.array(z.object({ length: units.length("US", "ft", false) })) },
       ({ segments }) => ({ segments: (segments ?? []).map((s) => ({ lengthMm: s.length })) }),
-      z.object({ segments: z.array(z.object({ lengthMm: z.number({ error: "Give the length." }).positive("Give a length above 0.") })) }),
+      z.object({
+        segments: z.array(
+          z.object({ lengthMm: z.number({ error: "Give the length." }).positive("Give a length above 0.") }),
+        ),
+      }),
       {},
       { segments: "Segment" },
     );

@@ -28,7 +28,10 @@ function field(kind: Kind, system: UnitSystem, unit: string | undefined, require
     try {
       return parse(kind, text, system, unit);
     } catch (error) {
-      ctx.addIssue({ code: "custom", message: isInputError(error) ? error.message.replace(/^[^:]*: /, "") : "Type a number." });
+      ctx.addIssue({
+        code: "custom",
+        message: isInputError(error) ? error.message.replace(/^[^:]*: /, "") : "Type a number.",
+      });
       return null;
     }
   });
@@ -47,4 +50,15 @@ export function shown(value: number | null | undefined, per: number, decimals = 
   return String(Number((value / per).toFixed(decimals)));
 }
 
-export const PER = { in: 25.4, mm: 1, ft: 304.8, m: 1000, psi: 0.006894757293168, MPa: 1, kip: 4448.2216152605, kN: 1000, lbf: 4.4482216152605, N: 1 } as const;
+export const PER = {
+  in: 25.4,
+  mm: 1,
+  ft: 304.8,
+  m: 1000,
+  psi: 0.006894757293168,
+  MPa: 1,
+  kip: 4448.2216152605,
+  kN: 1000,
+  lbf: 4.4482216152605,
+  N: 1,
+} as const;

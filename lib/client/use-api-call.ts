@@ -26,7 +26,9 @@ export function useApiCall() {
       return result;
     }
     setFields({});
-    setMessage(done === undefined ? undefined : { tone: "info", text: typeof done === "function" ? done(result.data) : done });
+    setMessage(
+      done === undefined ? undefined : { tone: "info", text: typeof done === "function" ? done(result.data) : done },
+    );
     return result;
   }
 

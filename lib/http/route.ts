@@ -38,7 +38,12 @@ export function errorResponse(error: unknown): NextResponse {
   const pgCode = (error as { code?: unknown } | null)?.code;
   if (pgCode === "22P05" || pgCode === "22021" || pgCode === "22001") {
     return NextResponse.json(
-      { error: { code: "INVALID_INPUT", message: "Some text holds characters that cannot be stored, or is too long. Nothing was saved." } },
+      {
+        error: {
+          code: "INVALID_INPUT",
+          message: "Some text holds characters that cannot be stored, or is too long. Nothing was saved.",
+        },
+      },
       { status: 422 },
     );
   }

@@ -24,7 +24,11 @@ describe("mean, spread and Welch's t", () => {
 
 describe("drift between equipment sets", () => {
   it("marks nothing when every set scatters about the same mean", () => {
-    const result = equipmentDrift([...samples("A", 0), ...samples("B", 0.4, [...pattern].reverse()), ...samples("C", -0.3)]);
+    const result = equipmentDrift([
+      ...samples("A", 0),
+      ...samples("B", 0.4, [...pattern].reverse()),
+      ...samples("C", -0.3),
+    ]);
     expect(result.map((r) => r.setId)).toEqual(["A", "B", "C"]);
     expect(result.every((r) => !r.drifting)).toBe(true);
     expect(result.find((r) => r.setId === "A")!.n).toBe(10);

@@ -117,7 +117,12 @@ export function equipmentDrift(samples: readonly DeviationSample[], rule: DriftR
       .filter((id) => !marked.has(id))
       .map((id) => ({ id, c: compare(values(id), pool(new Set([...marked, id])), rule) }))
       .filter((x) => x.c.verdict === "drift")
-      .sort((a, b) => Math.abs(b.c.t!) - Math.abs(a.c.t!) || Math.abs(b.c.differencePct!) - Math.abs(a.c.differencePct!) || a.id.localeCompare(b.id));
+      .sort(
+        (a, b) =>
+          Math.abs(b.c.t!) - Math.abs(a.c.t!) ||
+          Math.abs(b.c.differencePct!) - Math.abs(a.c.differencePct!) ||
+          a.id.localeCompare(b.id),
+      );
     const first = candidates[0];
     if (!first) break;
     if (judged.length === 2 && candidates.length === 2) {
@@ -150,16 +155,30 @@ export function equipmentDrift(samples: readonly DeviationSample[], rule: DriftR
         note =
           `Comes out ${d! > 0 ? "longer" : "shorter"} than the other sets by ${Math.abs(d!).toFixed(1)} points ` +
           `(t = ${t !== null && Number.isFinite(t) ? t.toFixed(1) : "very large"}): a sign that ` +
-          (twoOnly ? "one of the two sets, this or the other, may be out of calibration. " : "this gauge or jack may be out of calibration. ") +
-          (d! > 0 ? "Long elongations suggest the jack pulls more than the gauge shows." : "Short elongations suggest the jack pulls less than the gauge shows.");
+          (twoOnly
+            ? "one of the two sets, this or the other, may be out of calibration. "
+            : "this gauge or jack may be out of calibration. ") +
+          (d! > 0
+            ? "Long elongations suggest the jack pulls more than the gauge shows."
+            : "Short elongations suggest the jack pulls less than the gauge shows.");
       } else if (c.verdict === "no-others") note = "No other set to compare with.";
       else if (c.verdict === "too-few")
         note = `Too few tendons to judge (${c.mine.n} on this set, ${c.others!.n} on the others; ${rule.minSamples} each needed).`;
       else if (c.verdict === "small") note = `Within ${rule.minDifferencePct} points of the other sets.`;
       else if (c.verdict === "drift")
-        note = "Differs from the marked set only; its own tendons agree with the prediction, so the marked set is the likelier one out.";
+        note =
+          "Differs from the marked set only; its own tendons agree with the prediction, so the marked set is the likelier one out.";
       else note = `The difference is within the scatter (t = ${t === null ? "n/a" : t.toFixed(1)}).`;
-      return { setId, setName: finite.find((s) => s.setId === setId)!.setName, ...c.mine, others: c.others, differencePct: d, t, drifting, note };
+      return {
+        setId,
+        setName: finite.find((s) => s.setId === setId)!.setName,
+        ...c.mine,
+        others: c.others,
+        differencePct: d,
+        t,
+        drifting,
+        note,
+      };
     })
     .sort((a, b) => a.setName.localeCompare(b.setName));
 }

@@ -11,7 +11,16 @@ const step = (pressureMPa: number) => ({ pressureMPa, readingMm: 12 + (5000 * pr
 describe("apparent modulus from gauge steps", () => {
   it("recovers the modulus the steps were built with, beside the mill value", () => {
     const [fit] = apparentModuli([
-      { tag: "U1", end: "A", steps: [step(8), step(16), step(24), step(30)], calibration, lengthMm: 30_000, strandAreaMm2: 98.7, strandCount: 1, millModulusMPa: 197_000 },
+      {
+        tag: "U1",
+        end: "A",
+        steps: [step(8), step(16), step(24), step(30)],
+        calibration,
+        lengthMm: 30_000,
+        strandAreaMm2: 98.7,
+        strandCount: 1,
+        millModulusMPa: 197_000,
+      },
     ]);
     expect(fit && "apparentModulusMPa" in fit).toBe(true);
     if (!fit || !("apparentModulusMPa" in fit)) return;
@@ -23,9 +32,39 @@ describe("apparent modulus from gauge steps", () => {
 
   it("skips single readings and explains steps it cannot fit", () => {
     const result = apparentModuli([
-      { tag: "U2", end: "A", steps: [step(30)], calibration, lengthMm: 30_000, strandAreaMm2: 98.7, strandCount: 1, millModulusMPa: null },
-      { tag: "U3", end: "B", steps: [step(8), step(16)], calibration: null, lengthMm: 30_000, strandAreaMm2: 98.7, strandCount: 1, millModulusMPa: null },
-      { tag: "U4", end: "A", steps: [{ pressureMPa: 8, readingMm: 40 }, { pressureMPa: 16, readingMm: 40 }], calibration, lengthMm: 30_000, strandAreaMm2: 98.7, strandCount: 1, millModulusMPa: null },
+      {
+        tag: "U2",
+        end: "A",
+        steps: [step(30)],
+        calibration,
+        lengthMm: 30_000,
+        strandAreaMm2: 98.7,
+        strandCount: 1,
+        millModulusMPa: null,
+      },
+      {
+        tag: "U3",
+        end: "B",
+        steps: [step(8), step(16)],
+        calibration: null,
+        lengthMm: 30_000,
+        strandAreaMm2: 98.7,
+        strandCount: 1,
+        millModulusMPa: null,
+      },
+      {
+        tag: "U4",
+        end: "A",
+        steps: [
+          { pressureMPa: 8, readingMm: 40 },
+          { pressureMPa: 16, readingMm: 40 },
+        ],
+        calibration,
+        lengthMm: 30_000,
+        strandAreaMm2: 98.7,
+        strandCount: 1,
+        millModulusMPa: null,
+      },
     ]);
     expect(result.map((r) => r.tag)).toEqual(["U3", "U4"]);
     expect(result[0]).toMatchObject({ problem: expect.stringMatching(/No calibration/) });

@@ -34,7 +34,8 @@ export function apparentModuli(records: readonly GaugeStepRecord[]): ApparentMod
     .filter((r) => r.steps.length >= 2)
     .map((r) => {
       const base = { tag: r.tag, end: r.end, steps: r.steps.length };
-      if (!r.calibration) return { ...base, problem: "No calibration for the equipment set, so the steps have no force." };
+      if (!r.calibration)
+        return { ...base, problem: "No calibration for the equipment set, so the steps have no force." };
       const line = r.calibration;
       try {
         const fit = fitApparentStiffness({

@@ -43,6 +43,10 @@ describe("share of verdicts the reading division could change", () => {
   });
 
   it("has no share to give when nothing was evaluated", () => {
-    expect(resolutionShare([])).toEqual({ all: { n: 0, couldChange: 0, share: null }, short: { n: 0, couldChange: 0, share: null }, tendons: [] });
+    expect(resolutionShare([])).toEqual({
+      all: { n: 0, couldChange: 0, share: null },
+      short: { n: 0, couldChange: 0, share: null },
+      tendons: [],
+    });
   });
 });

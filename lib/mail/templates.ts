@@ -89,7 +89,6 @@ export function passwordResetMail(input: { to: string; url: string; minutes: num
   );
 }
 
-
 export function flagMail(input: {
   to: string[];
   projectName: string;

@@ -1,6 +1,15 @@
 import { afterEach, describe, expect, it } from "vitest";
 import type { OpResult } from "@/lib/schemas/sync";
-import { applyPushResults, correctionOf, outboxStatus, OutboxWriteError, pendingOps, requeue, saveRecord, saveTailCuts } from "./outbox";
+import {
+  applyPushResults,
+  correctionOf,
+  outboxStatus,
+  OutboxWriteError,
+  pendingOps,
+  requeue,
+  saveRecord,
+  saveTailCuts,
+} from "./outbox";
 import { samplePayload, testDb, TEST_USER } from "./test-support";
 
 const opened: { db: { close: () => void } }[] = [];
@@ -34,7 +43,9 @@ describe("saveRecord", () => {
     expect(await db.outbox.count()).toBe(1);
     // A correction of a record the tablet does not hold.
     const stray = samplePayload({ revision: 2, baseRecordId: crypto.randomUUID(), revisionReason: "Misread" });
-    await expect(saveRecord(db, { ...stray, authorName: "Test Crew", local: null })).rejects.toBeInstanceOf(OutboxWriteError);
+    await expect(saveRecord(db, { ...stray, authorName: "Test Crew", local: null })).rejects.toBeInstanceOf(
+      OutboxWriteError,
+    );
     expect(await db.records.count()).toBe(1);
     expect(await db.outbox.count()).toBe(1);
   });
@@ -60,7 +71,12 @@ describe("saveRecord", () => {
     );
     expect(await db.records.count()).toBe(0);
     expect(await db.outbox.count()).toBe(0);
-    await db.pours.put({ ...pour, status: "stressed", release: null, reopened: { by: "P. Raman, P.E.", at: "2026-12-02T09:00:00.000Z", reason: "Restress U07" } });
+    await db.pours.put({
+      ...pour,
+      status: "stressed",
+      release: null,
+      reopened: { by: "P. Raman, P.E.", at: "2026-12-02T09:00:00.000Z", reason: "Restress U07" },
+    });
     await saveRecord(db, { recordId, payload, authorName: "Test Crew", local: null });
     expect(await db.outbox.count()).toBe(1);
   });
@@ -70,9 +86,18 @@ describe("saveRecord", () => {
     const first = samplePayload();
     await saveRecord(db, { ...first, authorName: "Test Crew", local: null });
     const head = (await db.records.get(first.recordId))!;
-    const fix = correctionOf(head, { measuredMm: 115, entered: { ...first.payload.entered, marks: { before: "0", after: "115" } } }, "Read the wrong mark");
+    const fix = correctionOf(
+      head,
+      { measuredMm: 115, entered: { ...first.payload.entered, marks: { before: "0", after: "115" } } },
+      "Read the wrong mark",
+    );
     await saveRecord(db, { ...fix, authorName: "Test Crew", local: null });
-    expect(fix.payload).toMatchObject({ revision: 2, baseRecordId: first.recordId, chainId: first.recordId, revisionReason: "Read the wrong mark" });
+    expect(fix.payload).toMatchObject({
+      revision: 2,
+      baseRecordId: first.recordId,
+      chainId: first.recordId,
+      revisionReason: "Read the wrong mark",
+    });
     const ops = await db.outbox.orderBy("seq").toArray();
     expect(ops.map((o) => [o.kind, o.baseVersion])).toEqual([
       ["create", undefined],
@@ -80,7 +105,9 @@ describe("saveRecord", () => {
     ]);
     expect((await db.records.get(first.recordId))!.supersededBy).toBe(fix.recordId);
     const again = correctionOf(head, {}, "Second try on the old revision");
-    await expect(saveRecord(db, { ...again, authorName: "Test Crew", local: null })).rejects.toThrow(/already corrected/);
+    await expect(saveRecord(db, { ...again, authorName: "Test Crew", local: null })).rejects.toThrow(
+      /already corrected/,
+    );
   });
 });
 
@@ -93,10 +120,19 @@ describe("applyPushResults", () => {
       saved.push({ ...s, ...(await saveRecord(db, { ...s, authorName: "Test Crew", local: null })) });
     }
     const results: OpResult[] = [
-      { opId: saved[0]!.opId, status: "applied", revision: 1, evaluation: { verdict: "in band", provisional: false, deviationPct: 1.2, flagKinds: [] } },
+      {
+        opId: saved[0]!.opId,
+        status: "applied",
+        revision: 1,
+        evaluation: { verdict: "in band", provisional: false, deviationPct: 1.2, flagKinds: [] },
+      },
       { opId: saved[1]!.opId, status: "duplicate", revision: 1 },
       { opId: saved[2]!.opId, status: "conflict", error: { code: "CONFLICT", message: "Corrected elsewhere first" } },
-      { opId: saved[3]!.opId, status: "rejected", error: { code: "INVALID_INPUT", message: "No such tendon", fields: { tendonId: ["x"] } } },
+      {
+        opId: saved[3]!.opId,
+        status: "rejected",
+        error: { code: "INVALID_INPUT", message: "No such tendon", fields: { tendonId: ["x"] } },
+      },
     ];
     expect(await applyPushResults(db, results)).toEqual({ confirmed: 2, attention: 2 });
     const left = await db.outbox.toArray();
@@ -119,7 +155,11 @@ describe("applyPushResults", () => {
     const theirs = samplePayload({ authorUserId: "0190a0b0-0000-7000-8000-000000000002" });
     await saveRecord(db, { ...mine, authorName: "Test Crew", local: null, now: new Date("2026-12-02T09:00:00Z") });
     await saveRecord(db, { ...theirs, authorName: "Other Crew", local: null, now: new Date("2026-12-02T10:00:00Z") });
-    expect(await outboxStatus(db)).toMatchObject({ pending: 2, oldestPendingAt: "2026-12-02T09:00:00.000Z", attention: 0 });
+    expect(await outboxStatus(db)).toMatchObject({
+      pending: 2,
+      oldestPendingAt: "2026-12-02T09:00:00.000Z",
+      attention: 0,
+    });
     expect((await pendingOps(db, TEST_USER.userId, 10)).map((e) => e.recordId)).toEqual([mine.recordId]);
   });
 });
@@ -164,7 +204,11 @@ describe("saveTailCuts", () => {
       cutAt: "2026-12-02T15:00:00.000Z",
       authorUserId: TEST_USER.userId,
     });
-    expect((await db.tailCuts.get(T1))!).toMatchObject({ id: ops[0]!.recordId, syncState: "pending", cutByName: "Test Crew" });
+    expect((await db.tailCuts.get(T1))!).toMatchObject({
+      id: ops[0]!.recordId,
+      syncState: "pending",
+      cutByName: "Test Crew",
+    });
 
     const results: OpResult[] = [
       { opId: opIds[0]!, status: "applied", tailCut: { held: false, reasons: [] } },

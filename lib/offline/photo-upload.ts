@@ -6,7 +6,12 @@ import type { FieldDb, LocalPhoto } from "./db";
  * connection costs only the photo in flight, which starts again on the next round.
  */
 
-function put(url: string, blob: Blob, headers: Record<string, string>, onProgress: (loaded: number) => void): Promise<number> {
+function put(
+  url: string,
+  blob: Blob,
+  headers: Record<string, string>,
+  onProgress: (loaded: number) => void,
+): Promise<number> {
   return new Promise((resolve, reject) => {
     const xhr = new XMLHttpRequest();
     xhr.open("PUT", url);
@@ -24,10 +29,20 @@ async function uploadOne(db: FieldDb, photo: LocalPhoto): Promise<void> {
     method: "POST",
     headers: { "Content-Type": "application/json" },
     credentials: "same-origin",
-    body: JSON.stringify({ purpose: "record_photo", contentType: photo.contentType, sizeBytes: photo.sizeBytes, originalName: `${photo.id}.jpg`, recordId: photo.recordId }),
+    body: JSON.stringify({
+      purpose: "record_photo",
+      contentType: photo.contentType,
+      sizeBytes: photo.sizeBytes,
+      originalName: `${photo.id}.jpg`,
+      recordId: photo.recordId,
+    }),
   });
   if (!start.ok) throw new Error(`The server would not take the photo (${start.status}).`);
-  const { attachmentId, uploadUrl, headers } = (await start.json()) as { attachmentId: string; uploadUrl: string; headers: Record<string, string> };
+  const { attachmentId, uploadUrl, headers } = (await start.json()) as {
+    attachmentId: string;
+    uploadUrl: string;
+    headers: Record<string, string>;
+  };
   await db.photos.update(photo.id, { attachmentId });
   let lastWrite = 0;
   const status = await put(uploadUrl, photo.blob, headers ?? {}, (loaded) => {
@@ -38,12 +53,16 @@ async function uploadOne(db: FieldDb, photo: LocalPhoto): Promise<void> {
     }
   });
   if (status < 200 || status >= 300) throw new Error(`Storage answered ${status}.`);
-  const confirm = await fetch(`/api/projects/${photo.projectId}/uploads/${attachmentId}/confirm`, { method: "POST", credentials: "same-origin" });
+  const confirm = await fetch(`/api/projects/${photo.projectId}/uploads/${attachmentId}/confirm`, {
+    method: "POST",
+    credentials: "same-origin",
+  });
   if (!confirm.ok) throw new Error(`The server did not accept the photo (${confirm.status}).`);
   await db.photos.update(photo.id, { state: "stored", uploadedBytes: photo.sizeBytes });
 }
 
-export const PHOTO_NO_CONNECTION = "No connection to the server. The photo stays on this tablet and is sent when there is signal.";
+export const PHOTO_NO_CONNECTION =
+  "No connection to the server. The photo stays on this tablet and is sent when there is signal.";
 
 let running: Promise<void> | null = null;
 

@@ -23,7 +23,8 @@ async function tablet(records = 1) {
   return { db, ids };
 }
 
-const json = (status: number, body: unknown) => new Response(JSON.stringify(body), { status, headers: { "content-type": "application/json" } });
+const json = (status: number, body: unknown) =>
+  new Response(JSON.stringify(body), { status, headers: { "content-type": "application/json" } });
 
 /** A server that applies every op it is sent, and counts the pushes. */
 function applyingServer() {
@@ -32,7 +33,9 @@ function applyingServer() {
     if (url.startsWith("/api/sync/push")) {
       const body = JSON.parse(String(init!.body)) as { ops: { opId: string }[] };
       pushes.push(body.ops.map((o) => o.opId));
-      return json(200, { results: body.ops.map((o) => ({ opId: o.opId, status: "applied", revision: 1 })) } satisfies PushResponse);
+      return json(200, {
+        results: body.ops.map((o) => ({ opId: o.opId, status: "applied", revision: 1 })),
+      } satisfies PushResponse);
     }
     return json(404, {});
   };
@@ -53,7 +56,11 @@ describe("SyncClient", () => {
 
   it("keeps the outbox on a 401 and asks for sign-in again", async () => {
     const { db } = await tablet(2);
-    const client = new SyncClient({ db, fetch: async () => json(401, { error: { code: "UNAUTHENTICATED" } }), locks: null });
+    const client = new SyncClient({
+      db,
+      fetch: async () => json(401, { error: { code: "UNAUTHENTICATED" } }),
+      locks: null,
+    });
     expect(await client.sync()).toEqual({ kind: "signed-out" });
     expect(await db.outbox.count()).toBe(2);
     expect((await readMeta<SyncMeta>(db, "sync"))!.needsSignIn).toBe(true);
@@ -132,7 +139,12 @@ describe("SyncClient.sendSoon (after a save)", () => {
   it("without signal tries nothing and keeps the record in the outbox", async () => {
     const { db } = await tablet(1);
     let calls = 0;
-    const client = new SyncClient({ db, fetch: async () => (calls++, json(200, { results: [] })), locks: null, online: () => false });
+    const client = new SyncClient({
+      db,
+      fetch: async () => (calls++, json(200, { results: [] })),
+      locks: null,
+      online: () => false,
+    });
     expect(await client.sendSoon()).toBeNull();
     expect(calls).toBe(0);
     expect(await db.outbox.count()).toBe(1);
@@ -142,7 +154,14 @@ describe("SyncClient.sendSoon (after a save)", () => {
     const { db } = await tablet(1);
     const clock = 1_000_000;
     let calls = 0;
-    const client = new SyncClient({ db, fetch: async () => (calls++, json(503, {})), locks: null, now: () => clock, random: () => 0.5, online: () => true });
+    const client = new SyncClient({
+      db,
+      fetch: async () => (calls++, json(503, {})),
+      locks: null,
+      now: () => clock,
+      random: () => 0.5,
+      online: () => true,
+    });
     expect(await client.sync()).toMatchObject({ kind: "offline" });
     expect(await client.sendSoon()).toMatchObject({ kind: "waiting" });
     expect(calls).toBe(1);
@@ -152,7 +171,12 @@ describe("SyncClient.sendSoon (after a save)", () => {
     const { db } = await tablet(1);
     const held: LockManagerLike = { request: async (_name, _opts, callback) => callback(null) };
     let calls = 0;
-    const client = new SyncClient({ db, fetch: async () => (calls++, json(200, { results: [] })), locks: held, online: () => true });
+    const client = new SyncClient({
+      db,
+      fetch: async () => (calls++, json(200, { results: [] })),
+      locks: held,
+      online: () => true,
+    });
     expect(await client.sendSoon()).toEqual({ kind: "busy" });
     expect(calls).toBe(0);
   });

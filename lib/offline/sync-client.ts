@@ -4,7 +4,8 @@ import { applyPushResults, notePushFailure, pendingOps } from "./outbox";
 import { applyPull } from "./reference";
 
 /** What the crew reads when the server cannot be reached: no browser jargon. */
-export const NO_CONNECTION = "No connection to the server. Records stay on this tablet and are sent when there is signal.";
+export const NO_CONNECTION =
+  "No connection to the server. Records stay on this tablet and are sent when there is signal.";
 
 /**
  * Moves the outbox to the server and the server's changes to the tablet. Runs in the page (the
@@ -69,7 +70,12 @@ export class SyncClient {
   constructor(options: SyncClientOptions) {
     this.db = options.db;
     this.fetch = options.fetch ?? ((input, init) => globalThis.fetch(input, init));
-    this.locks = options.locks === undefined ? (typeof navigator !== "undefined" && "locks" in navigator ? (navigator.locks as unknown as LockManagerLike) : null) : options.locks;
+    this.locks =
+      options.locks === undefined
+        ? typeof navigator !== "undefined" && "locks" in navigator
+          ? (navigator.locks as unknown as LockManagerLike)
+          : null
+        : options.locks;
     this.now = options.now ?? Date.now;
     this.random = options.random ?? Math.random;
     this.batchSize = options.batchSize ?? 25;
@@ -87,10 +93,11 @@ export class SyncClient {
   sendSoon(): Promise<RoundOutcome | null> {
     if (!this.online()) return Promise.resolve(null);
     const running = this.running;
-    if (running) return running.then(
-      () => this.sync(),
-      () => this.sync(),
-    );
+    if (running)
+      return running.then(
+        () => this.sync(),
+        () => this.sync(),
+      );
     return this.sync();
   }
 
@@ -110,7 +117,9 @@ export class SyncClient {
 
   private async lockedRound(): Promise<RoundOutcome> {
     if (!this.locks) return this.round();
-    return this.locks.request(LOCK_NAME, { ifAvailable: true }, async (lock) => (lock ? this.round() : { kind: "busy" as const }));
+    return this.locks.request(LOCK_NAME, { ifAvailable: true }, async (lock) =>
+      lock ? this.round() : { kind: "busy" as const },
+    );
   }
 
   private async call(url: string, init?: RequestInit): Promise<Response> {
@@ -122,7 +131,8 @@ export class SyncClient {
       throw new Retryable(NO_CONNECTION);
     }
     if (response.status === 401) throw new Unauthenticated("Signed out");
-    if (response.status >= 500 || response.status === 429 || response.status === 408) throw new Retryable(`The server answered ${response.status}.`);
+    if (response.status >= 500 || response.status === 429 || response.status === 408)
+      throw new Retryable(`The server answered ${response.status}.`);
     return response;
   }
 
@@ -146,7 +156,13 @@ export class SyncClient {
           headers: { "Content-Type": "application/json" },
           body: JSON.stringify({
             deviceId: device,
-            ops: batch.map((e) => ({ opId: e.opId, kind: e.kind, recordId: e.recordId, ...(e.baseVersion ? { baseVersion: e.baseVersion } : {}), payload: e.payload })),
+            ops: batch.map((e) => ({
+              opId: e.opId,
+              kind: e.kind,
+              recordId: e.recordId,
+              ...(e.baseVersion ? { baseVersion: e.baseVersion } : {}),
+              payload: e.payload,
+            })),
           }),
         });
         if (!response.ok) {
@@ -162,9 +178,14 @@ export class SyncClient {
         pushed += batch.length;
         confirmed += applied.confirmed;
         attention += applied.attention;
-        await updateSyncMeta(db, { lastConfirmedSyncAt: new Date(this.now()).toISOString(), needsSignIn: false, lastError: null });
+        await updateSyncMeta(db, {
+          lastConfirmedSyncAt: new Date(this.now()).toISOString(),
+          needsSignIn: false,
+          lastError: null,
+        });
         // Ops the server could not take now stay pending; wait (with backoff) before sending them again.
-        if (body.results.some((r) => r.status === "retry-later")) throw new Retryable("The server asked for some changes to be sent again shortly.");
+        if (body.results.some((r) => r.status === "retry-later"))
+          throw new Retryable("The server asked for some changes to be sent again shortly.");
         if (batch.length < this.batchSize) break;
       }
       const pulled = await this.pullAll();
@@ -173,7 +194,10 @@ export class SyncClient {
       return { kind: "done", pushed, confirmed, attention, pulled };
     } catch (error) {
       if (error instanceof Unauthenticated) {
-        await updateSyncMeta(db, { needsSignIn: true, lastError: "Signed out: sign in again to send what is waiting. Nothing is lost." });
+        await updateSyncMeta(db, {
+          needsSignIn: true,
+          lastError: "Signed out: sign in again to send what is waiting. Nothing is lost.",
+        });
         return { kind: "signed-out" };
       }
       if (error instanceof Retryable) {
@@ -219,7 +243,10 @@ export class SyncClient {
       return { ok: false, status: 0, message: (error as Error).message };
     }
     if (!response.ok) return { ok: false, status: response.status, message: `The server answered ${response.status}.` };
-    await applyPull(this.db, (await response.json()) as PullResponse, { pourIds: [pourId], downloadedAt: new Date(this.now()).toISOString() });
+    await applyPull(this.db, (await response.json()) as PullResponse, {
+      pourIds: [pourId],
+      downloadedAt: new Date(this.now()).toISOString(),
+    });
     return { ok: true };
   }
 

@@ -2,7 +2,15 @@ import { predictTendon, stressedEnds, targetPressureMPa, type CalibrationLine } 
 import { governsLine } from "@/lib/stressing/display";
 import { judgeAndFlag } from "@/lib/stressing/rules";
 import { stressingDay, type JudgeInput, type JudgeRecord } from "@/lib/stressing/judge";
-import type { FieldCalibration, FieldEquipmentSet, FieldEvaluation, FieldFlag, FieldProject, FieldStrandLot, FieldTendon } from "@/lib/schemas/sync";
+import type {
+  FieldCalibration,
+  FieldEquipmentSet,
+  FieldEvaluation,
+  FieldFlag,
+  FieldProject,
+  FieldStrandLot,
+  FieldTendon,
+} from "@/lib/schemas/sync";
 import { pickCalibration } from "@/lib/schemas/calibration";
 import type { LocalRecord, LocalVerdict } from "./db";
 
@@ -29,7 +37,12 @@ export function currentEnds(records: LocalRecord[]): Partial<Record<"A" | "B", L
   return out;
 }
 
-export function tendonState(tendon: FieldTendon, records: LocalRecord[], flags: FieldFlag[], latest: FieldEvaluation | undefined): TendonState {
+export function tendonState(
+  tendon: FieldTendon,
+  records: LocalRecord[],
+  flags: FieldFlag[],
+  latest: FieldEvaluation | undefined,
+): TendonState {
   const ends = currentEnds(records);
   const wanted = stressedEnds(tendon.ends);
   const done = wanted.filter((e) => ends[e]).length;
@@ -41,8 +54,15 @@ export function tendonState(tendon: FieldTendon, records: LocalRecord[], flags: 
 }
 
 /** Calibration in force for a set on a day, and whether it has expired by then. */
-export function calibrationFor(calibrations: FieldCalibration[], setId: string, day: string): { calibration: FieldCalibration | null; expired: boolean } {
-  const calibration = pickCalibration(calibrations.filter((c) => c.equipmentSetId === setId), day);
+export function calibrationFor(
+  calibrations: FieldCalibration[],
+  setId: string,
+  day: string,
+): { calibration: FieldCalibration | null; expired: boolean } {
+  const calibration = pickCalibration(
+    calibrations.filter((c) => c.equipmentSetId === setId),
+    day,
+  );
   return { calibration, expired: !calibration || calibration.validUntil < day };
 }
 
@@ -54,12 +74,18 @@ export interface TendonContext {
   calibrations: FieldCalibration[];
 }
 
-const lotBasis = (lot: FieldStrandLot | null) => (lot ? { areaMm2: lot.areaMm2, modulusMPa: lot.modulusMPa, breakingLoadN: lot.breakingLoadN } : null);
+const lotBasis = (lot: FieldStrandLot | null) =>
+  lot ? { areaMm2: lot.areaMm2, modulusMPa: lot.modulusMPa, breakingLoadN: lot.breakingLoadN } : null;
 
 /** The gauge pressure to pull to on the set's calibration, MPa; null without a calibration. */
 export function targetFor(ctx: TendonContext, calibration: FieldCalibration | null): number | null {
   if (!calibration) return null;
-  const predicted = predictTendon({ project: ctx.project, tendon: ctx.tendon, lot: lotBasis(ctx.lot), equipmentGripMm: ctx.set?.jackGripMm });
+  const predicted = predictTendon({
+    project: ctx.project,
+    tendon: ctx.tendon,
+    lot: lotBasis(ctx.lot),
+    equipmentGripMm: ctx.set?.jackGripMm,
+  });
   return targetPressureMPa(calibrationLine(calibration), predicted.jackingForceN);
 }
 
@@ -84,7 +110,17 @@ export function judgeInputFor(ctx: TendonContext & { sets?: FieldEquipmentSet[] 
       maxForceN: s?.maxForceN ?? null,
       calibrations: ctx.calibrations
         .filter((c) => c.equipmentSetId === id)
-        .map((c) => ({ id: c.id, calibratedOn: c.calibratedOn, validUntil: c.validUntil, slope: c.slope, intercept: c.intercept, minPressureMPa: c.minPressureMPa, maxPressureMPa: c.maxPressureMPa, retiredAt: c.retiredAt ?? null, replacedBy: c.replacedBy ?? null })),
+        .map((c) => ({
+          id: c.id,
+          calibratedOn: c.calibratedOn,
+          validUntil: c.validUntil,
+          slope: c.slope,
+          intercept: c.intercept,
+          minPressureMPa: c.minPressureMPa,
+          maxPressureMPa: c.maxPressureMPa,
+          retiredAt: c.retiredAt ?? null,
+          replacedBy: c.replacedBy ?? null,
+        })),
     };
   });
   const judged: JudgeRecord[] = records.map((r) => ({
@@ -106,11 +142,20 @@ export function judgeInputFor(ctx: TendonContext & { sets?: FieldEquipmentSet[] 
     stressingOrder: r.stressingOrder ?? null,
     wireBreaks: r.wireBreaks,
   }));
-  return { project: { ...ctx.project, readingResolution: ctx.project.readingResolution as "1/8in" | "1/16in" | "1mm" }, tendon: ctx.tendon, lot: lotBasis(ctx.lot), sets, records: judged };
+  return {
+    project: { ...ctx.project, readingResolution: ctx.project.readingResolution as "1/8in" | "1/16in" | "1mm" },
+    tendon: ctx.tendon,
+    lot: lotBasis(ctx.lot),
+    sets,
+    records: judged,
+  };
 }
 
 /** The provisional verdict over the current reading of each end, as saved on this tablet: the server's judge. */
-export function provisionalVerdict(ctx: TendonContext & { sets?: FieldEquipmentSet[] }, records: LocalRecord[]): LocalVerdict | null {
+export function provisionalVerdict(
+  ctx: TendonContext & { sets?: FieldEquipmentSet[] },
+  records: LocalRecord[],
+): LocalVerdict | null {
   if (!records.length) return null;
   const { judgement: j, findings } = judgeAndFlag(judgeInputFor(ctx, records));
   if (!j.ends.length) return null;
@@ -127,9 +172,20 @@ export function provisionalVerdict(ctx: TendonContext & { sets?: FieldEquipmentS
     basisLabel: j.basisLabel,
     incomplete: j.incomplete,
     flagKinds: findings.map((f) => f.kind),
-    forces: j.ends.map((e) => ({ end: e.end, gaugeForceN: e.gaugeForceN, impliedForceN: e.impliedForceN, role: e.role })),
+    forces: j.ends.map((e) => ({
+      end: e.end,
+      gaugeForceN: e.gaugeForceN,
+      impliedForceN: e.impliedForceN,
+      role: e.role,
+    })),
     specifiedForceN: j.specifiedForceN,
     reread: j.divisionCouldFlip,
-    governsLine: governsLine({ unitSystem: ctx.project.unitSystem, readingResolution: ctx.project.readingResolution as "1/8in" | "1/16in" | "1mm" }, j),
+    governsLine: governsLine(
+      {
+        unitSystem: ctx.project.unitSystem,
+        readingResolution: ctx.project.readingResolution as "1/8in" | "1/16in" | "1mm",
+      },
+      j,
+    ),
   };
 }

@@ -4,7 +4,10 @@ import type { RecordPayload } from "@/lib/schemas/record";
 import { FieldDb, writeMeta, type SessionMeta } from "./db";
 
 /** A tablet database on fake-indexeddb for tests; `factory` lets a test reopen the same data. */
-export function testDb(name = `field-${crypto.randomUUID()}`, factory: IDBFactory = new IDBFactory()): { db: FieldDb; factory: IDBFactory; name: string } {
+export function testDb(
+  name = `field-${crypto.randomUUID()}`,
+  factory: IDBFactory = new IDBFactory(),
+): { db: FieldDb; factory: IDBFactory; name: string } {
   return { db: new FieldDb(name, { indexedDB: factory, IDBKeyRange }), factory, name };
 }
 
@@ -40,7 +43,14 @@ export function samplePayload(overrides: Partial<RecordPayload> = {}): { recordI
       initialPressureMPa: null,
       finalPressureMPa: 28.5,
       readingMethod: "marks",
-      entered: { units: { length: "mm", pressure: "MPa" }, initialPressure: null, finalPressure: "28.5", marks: { before: "0", after: "112" }, strokes: null, seating: null },
+      entered: {
+        units: { length: "mm", pressure: "MPa" },
+        initialPressure: null,
+        finalPressure: "28.5",
+        marks: { before: "0", after: "112" },
+        strokes: null,
+        seating: null,
+      },
       measuredMm: 112,
       seatingMm: null,
       wireBreaks: 0,

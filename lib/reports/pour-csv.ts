@@ -3,7 +3,6 @@ import { safeRows } from "@/lib/csv/safe-cell";
 import type { PourReport } from "@/lib/server/get-pour-report";
 import { RECORD_COLUMNS, recordRows } from "./pour-rows";
 
-
 /**
  * The pour's report as CSV: one row per stressing of each tendon end, in order (the original and
  * each restress), in the project's display units, with the project code and pour on each row. The

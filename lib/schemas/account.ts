@@ -16,8 +16,10 @@ export const personNameSchema = text({ error: "Enter your name." })
   .min(2, "Enter your name as it should appear on records.")
   .max(120, "Use at most 120 characters.");
 
-export const tokenSchema = text()
-  .regex(/^[A-Za-z0-9_-]{20,100}$/, "This link is not complete; open it from the e-mail again.");
+export const tokenSchema = text().regex(
+  /^[A-Za-z0-9_-]{20,100}$/,
+  "This link is not complete; open it from the e-mail again.",
+);
 
 export const acceptInvitationSchema = z.object({
   token: tokenSchema,

@@ -89,7 +89,8 @@ export function pickCalibration<C extends PickableCalibration>(calibrations: rea
   let best: C | null = null;
   for (const c of calibrations) {
     if (c.retiredAt || c.calibratedOn > day) continue;
-    if (!best || c.calibratedOn > best.calibratedOn || (c.calibratedOn === best.calibratedOn && c.id > best.id)) best = c;
+    if (!best || c.calibratedOn > best.calibratedOn || (c.calibratedOn === best.calibratedOn && c.id > best.id))
+      best = c;
   }
   return best;
 }

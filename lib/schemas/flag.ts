@@ -22,4 +22,8 @@ export const FLAG_LABELS: Record<FlagKind, string> = {
 
 export const flagLabel = (kind: string): string => FLAG_LABELS[kind as FlagKind] ?? kind.replaceAll("_", " ");
 
-export const FLAG_STATUS_LABELS: Record<FlagStatus, string> = { open: "Open", with_engineer: "With the engineer", closed: "Closed" };
+export const FLAG_STATUS_LABELS: Record<FlagStatus, string> = {
+  open: "Open",
+  with_engineer: "With the engineer",
+  closed: "Closed",
+};

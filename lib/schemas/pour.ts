@@ -13,9 +13,7 @@ export const pourSchema = z.object({
     .max(100_000, "That area looks too large.")
     .nullable(),
   plannedStressingDate: z.iso.date({ error: "Give the date as YYYY-MM-DD." }).nullable(),
-  status: z
-    .never({ error: "A pour's status follows from its records and its release; it cannot be set." })
-    .optional(),
+  status: z.never({ error: "A pour's status follows from its records and its release; it cannot be set." }).optional(),
 });
 export type PourInput = z.infer<typeof pourSchema>;
 

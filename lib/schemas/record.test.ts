@@ -8,7 +8,14 @@ const US: Entered["units"] = { length: "in", pressure: "psi" };
 describe("deriveFromEntered", () => {
   it("reads marks in fractional inches and gauge pressure in psi into mm and MPa", () => {
     const { values, problems } = deriveFromEntered(
-      { units: US, initialPressure: "1000", finalPressure: "4227", marks: { before: "1 1/4", after: "8 3/8" }, strokes: null, seating: "1/4" },
+      {
+        units: US,
+        initialPressure: "1000",
+        finalPressure: "4227",
+        marks: { before: "1 1/4", after: "8 3/8" },
+        strokes: null,
+        seating: "1/4",
+      },
       "marks",
     );
     expect(problems).toEqual([]);
@@ -19,13 +26,30 @@ describe("deriveFromEntered", () => {
   });
 
   it("sums ram strokes", () => {
-    const { values } = deriveFromEntered({ units: { length: "mm", pressure: "MPa" }, initialPressure: null, finalPressure: "29.1", marks: null, strokes: ["180", "95.5"], seating: null }, "strokes");
+    const { values } = deriveFromEntered(
+      {
+        units: { length: "mm", pressure: "MPa" },
+        initialPressure: null,
+        finalPressure: "29.1",
+        marks: null,
+        strokes: ["180", "95.5"],
+        seating: null,
+      },
+      "strokes",
+    );
     expect(values!.measuredMm).toBe(275.5);
   });
 
   it("names each box that does not read", () => {
     const { values, problems } = deriveFromEntered(
-      { units: US, initialPressure: "5000", finalPressure: "4000", marks: { before: "3", after: "2" }, strokes: null, seating: "abc" },
+      {
+        units: US,
+        initialPressure: "5000",
+        finalPressure: "4000",
+        marks: { before: "3", after: "2" },
+        strokes: null,
+        seating: "abc",
+      },
       "marks",
     );
     expect(values).toBeNull();
@@ -37,7 +61,13 @@ describe("recordFormSchema", () => {
   const context = { units: US, expiredSetIds: ["set-old"], ends: ["A"] as const, correction: false };
 
   it("accepts a complete form", () => {
-    const ok = recordFormSchema({ ...context, ends: ["A"] }).safeParse({ ...EMPTY_RECORD_FORM, equipmentSetId: "set-new", finalPressure: "4200", marksBefore: "0", marksAfter: "4 1/2" });
+    const ok = recordFormSchema({ ...context, ends: ["A"] }).safeParse({
+      ...EMPTY_RECORD_FORM,
+      equipmentSetId: "set-new",
+      finalPressure: "4200",
+      marksBefore: "0",
+      marksAfter: "4 1/2",
+    });
     expect(ok.success).toBe(true);
   });
 

@@ -2,7 +2,13 @@ import { z } from "zod";
 import { text } from "./text";
 
 /** What each kind of upload is for, and the file types its content may be (checked by magic bytes). */
-export const UPLOAD_PURPOSES = ["mill_certificate", "calibration_certificate", "record_photo", "review_photo", "lab_report"] as const;
+export const UPLOAD_PURPOSES = [
+  "mill_certificate",
+  "calibration_certificate",
+  "record_photo",
+  "review_photo",
+  "lab_report",
+] as const;
 export type UploadPurpose = (typeof UPLOAD_PURPOSES)[number];
 
 const IMAGES = ["image/jpeg", "image/png", "image/webp"] as const;
@@ -42,10 +48,7 @@ export const presignUploadSchema = z
       .number({ error: "Give the file size in bytes." })
       .int("Give the size in whole bytes.")
       .positive("The file is empty."),
-    originalName: text()
-      .trim()
-      .min(1, "Give the file a name.")
-      .max(200, "Use a file name of at most 200 characters."),
+    originalName: text().trim().min(1, "Give the file a name.").max(200, "Use a file name of at most 200 characters."),
     recordId: z.uuid({ error: "Not a record id." }).optional(),
   })
   .superRefine((value, ctx) => {

@@ -410,7 +410,8 @@ export function planEvaluation(
       min_pressure_mpa: e.calibration!.minPressureMPa,
       max_pressure_mpa: e.calibration!.maxPressureMPa,
     }));
-  const predictedMm = judgement.predictedMm ?? (project.comparisonBasis === "net" ? judgement.netMm : judgement.grossMm);
+  const predictedMm =
+    judgement.predictedMm ?? (project.comparisonBasis === "net" ? judgement.netMm : judgement.grossMm);
 
   const evaluationId = randomUUID();
   const evaluation: EvaluationPlan["evaluation"] = {
@@ -428,7 +429,11 @@ export function planEvaluation(
       jackingForceN: judgement.specifiedForceN,
       order: judgement.order,
       governs: judgement.governs,
-      pour: { id: pour.id, concreteStrengthMpa: pour.concreteStrengthMpa, concreteFlagOpen: state.pourConcreteFlagOpen ?? false },
+      pour: {
+        id: pour.id,
+        concreteStrengthMpa: pour.concreteStrengthMpa,
+        concreteFlagOpen: state.pourConcreteFlagOpen ?? false,
+      },
       readings,
       calibrations: usedCalibrations,
     }),
@@ -472,9 +477,7 @@ export function planEvaluation(
   // A restress ordered by a disposition closes the flag it answered once the tendon, evaluated
   // again with that record, is complete and in band. Out of band again, the rules above raise a
   // new flag and the old one stays with the engineer.
-  const answered = new Set(
-    current.map((r) => answeredOrder(judgeInput, r)).filter((id): id is string => Boolean(id)),
-  );
+  const answered = new Set(current.map((r) => answeredOrder(judgeInput, r)).filter((id): id is string => Boolean(id)));
   const closures =
     provisional || verdict !== "in band"
       ? []

@@ -67,7 +67,9 @@ export async function findReleaseCandidates(db: Kysely<Database>, projectIds: st
       pourName: p.name,
       releaseBy: p.release_by,
       tendonCount: Number(p.tendonCount ?? 0),
-      blockers: p.released_by_name ? { noSchedule: false, openFlags: [], unstressed: [] } : await findReleaseBlockers(db, { projectId: p.project_id, pourId: p.id }),
+      blockers: p.released_by_name
+        ? { noSchedule: false, openFlags: [], unstressed: [] }
+        : await findReleaseBlockers(db, { projectId: p.project_id, pourId: p.id }),
       status: p.status,
       releasedBy: p.released_by_name,
       releasedAt: p.releasedAt,

@@ -45,7 +45,12 @@ export async function getHomeSummary(
             "pours.id as pourId",
             "pours.name as pourName",
             "pours.planned_stressing_date as plannedOn",
-            (eb) => eb.selectFrom("tendons").select((e) => e.fn.countAll<number>().as("n")).whereRef("tendons.pour_id", "=", "pours.id").as("tendons"),
+            (eb) =>
+              eb
+                .selectFrom("tendons")
+                .select((e) => e.fn.countAll<number>().as("n"))
+                .whereRef("tendons.pour_id", "=", "pours.id")
+                .as("tendons"),
             (eb) =>
               eb
                 .selectFrom("records")
@@ -55,7 +60,9 @@ export async function getHomeSummary(
           ])
           .where("pours.project_id", "in", watching)
           .where("pour_states.status", "!=", "released")
-          .where((eb) => eb.or([eb("pours.planned_stressing_date", "=", input.today), eb("pour_states.status", "=", "stressing")]))
+          .where((eb) =>
+            eb.or([eb("pours.planned_stressing_date", "=", input.today), eb("pour_states.status", "=", "stressing")]),
+          )
           .orderBy("projects.name")
           .orderBy("pours.name")
           .execute()
@@ -64,7 +71,9 @@ export async function getHomeSummary(
 
   const reviewing = [...new Set([...inspector, ...engineer])];
   const [openFlags, awaitingRelease] = await Promise.all([
-    reviewing.length ? findFlags(db, { projectIds: reviewing, filter: { status: "any_open" } }) : Promise.resolve([] as FlaggedTendon[]),
+    reviewing.length
+      ? findFlags(db, { projectIds: reviewing, filter: { status: "any_open" } })
+      : Promise.resolve([] as FlaggedTendon[]),
     engineer.length ? findReleaseCandidates(db, engineer) : Promise.resolve([] as ReleaseCandidate[]),
   ]);
 
@@ -75,7 +84,11 @@ export async function getHomeSummary(
       db
         .selectFrom("tendons")
         .innerJoin("projects", "projects.id", "tendons.project_id")
-        .select(["tendons.project_id as projectId", "projects.name as projectName", (eb) => eb.fn.countAll<number>().as("n")])
+        .select([
+          "tendons.project_id as projectId",
+          "projects.name as projectName",
+          (eb) => eb.fn.countAll<number>().as("n"),
+        ])
         .where("tendons.project_id", "in", admin)
         .where("tendons.strand_lot_id", "is", null)
         .groupBy(["tendons.project_id", "projects.name"])
@@ -84,7 +97,12 @@ export async function getHomeSummary(
         .selectFrom("calibrations")
         .innerJoin("equipment_sets", "equipment_sets.id", "calibrations.equipment_set_id")
         .innerJoin("projects", "projects.id", "calibrations.project_id")
-        .select(["calibrations.project_id as projectId", "projects.name as projectName", "equipment_sets.name as setName", "calibrations.valid_until as validUntil"])
+        .select([
+          "calibrations.project_id as projectId",
+          "projects.name as projectName",
+          "equipment_sets.name as setName",
+          "calibrations.valid_until as validUntil",
+        ])
         .where("calibrations.project_id", "in", admin)
         .where("calibrations.valid_until", "<=", soon)
         .where(({ not, exists, selectFrom }) =>
@@ -104,11 +122,18 @@ export async function getHomeSummary(
         .innerJoin("projects", "projects.id", "pours.project_id")
         .select(["pours.project_id as projectId", "projects.name as projectName", "pours.name as pourName"])
         .where("pours.project_id", "in", admin)
-        .where(({ not, exists, selectFrom }) => not(exists(selectFrom("tendons").select("tendons.id").whereRef("tendons.pour_id", "=", "pours.id"))))
+        .where(({ not, exists, selectFrom }) =>
+          not(exists(selectFrom("tendons").select("tendons.id").whereRef("tendons.pour_id", "=", "pours.id"))),
+        )
         .execute(),
     ]);
     for (const g of noLot) {
-      gaps.push({ projectId: g.projectId, projectName: g.projectName, text: `${g.n} tendons have no strand lot: they are computed with nominal strand values.`, href: `/projects/${g.projectId}/setup` });
+      gaps.push({
+        projectId: g.projectId,
+        projectName: g.projectName,
+        text: `${g.n} tendons have no strand lot: they are computed with nominal strand values.`,
+        href: `/projects/${g.projectId}/setup`,
+      });
     }
     for (const c of expiring) {
       const expired = c.validUntil < input.today;
@@ -120,7 +145,12 @@ export async function getHomeSummary(
       });
     }
     for (const p of emptyPours) {
-      gaps.push({ projectId: p.projectId, projectName: p.projectName, text: `${p.pourName} has no tendon schedule yet.`, href: `/projects/${p.projectId}/setup` });
+      gaps.push({
+        projectId: p.projectId,
+        projectName: p.projectName,
+        text: `${p.pourName} has no tendon schedule yet.`,
+        href: `/projects/${p.projectId}/setup`,
+      });
     }
   }
 

@@ -1,7 +1,15 @@
 import "server-only";
 import type { Kysely } from "kysely";
 import type { Database, Verdict } from "@/db/types";
-import { apparentModuli, equipmentDrift, resolutionShare, type ApparentModulus, type DeviationSample, type ResolutionShare, type SetDrift } from "@/lib/insights";
+import {
+  apparentModuli,
+  equipmentDrift,
+  resolutionShare,
+  type ApparentModulus,
+  type DeviationSample,
+  type ResolutionShare,
+  type SetDrift,
+} from "@/lib/insights";
 import { AppError } from "@/lib/errors";
 import { readingResolution, type StoredResolution } from "@/lib/stressing/display";
 import { resolutionStepMm } from "@/lib/units";
@@ -24,7 +32,13 @@ export interface InsightPoint {
 }
 
 export interface PourInsight {
-  project: { code: string; name: string; unitSystem: "us" | "si"; readingResolution: StoredResolution; tolerancePct: number };
+  project: {
+    code: string;
+    name: string;
+    unitSystem: "us" | "si";
+    readingResolution: StoredResolution;
+    tolerancePct: number;
+  };
   pour: { id: string; name: string; status: string };
   progress: { tendons: number; stressed: number; provisional: number; flagged: number; released: number };
   points: InsightPoint[];
@@ -53,7 +67,10 @@ function deviationSamples(results: TendonResult[]): { samples: DeviationSample[]
   return { samples, mixed };
 }
 
-export async function getPourInsight(db: Kysely<Database>, input: { projectId: string; pourId: string }): Promise<PourInsight> {
+export async function getPourInsight(
+  db: Kysely<Database>,
+  input: { projectId: string; pourId: string },
+): Promise<PourInsight> {
   const [project, pour] = await Promise.all([
     db
       .selectFrom("projects")
@@ -82,7 +99,9 @@ export async function getPourInsight(db: Kysely<Database>, input: { projectId: s
       .execute(),
   ]);
   const onPour = all.filter((t) => t.pourId === input.pourId);
-  const evaluated = onPour.filter((t) => t.evaluation && t.evaluation.verdict !== "incomplete" && t.evaluation.deviationPct !== null);
+  const evaluated = onPour.filter(
+    (t) => t.evaluation && t.evaluation.verdict !== "incomplete" && t.evaluation.deviationPct !== null,
+  );
   const complete = evaluated.filter((t) => !t.evaluation!.provisional);
 
   const points: InsightPoint[] = evaluated.map((t) => ({
@@ -98,19 +117,21 @@ export async function getPourInsight(db: Kysely<Database>, input: { projectId: s
   const projectSamples = deviationSamples(all);
 
   const moduli = apparentModuli(
-    onPour.flatMap((t) =>
-      t.endResults.map((r) => ({
-        tag: t.tag,
-        end: r.end,
-        steps: r.gaugeSteps,
-        calibration: r.calibration,
-        // Each end's steps stretch only that end's friction path.
-        lengthMm: t.pathMm[r.end] ?? t.lengthMm,
-        strandAreaMm2: t.strand?.areaMm2 ?? 0,
-        strandCount: t.strandCount,
-        millModulusMPa: t.strand?.modulusMPa ?? null,
-      })),
-    ).filter((r) => r.strandAreaMm2 > 0),
+    onPour
+      .flatMap((t) =>
+        t.endResults.map((r) => ({
+          tag: t.tag,
+          end: r.end,
+          steps: r.gaugeSteps,
+          calibration: r.calibration,
+          // Each end's steps stretch only that end's friction path.
+          lengthMm: t.pathMm[r.end] ?? t.lengthMm,
+          strandAreaMm2: t.strand?.areaMm2 ?? 0,
+          strandCount: t.strandCount,
+          millModulusMPa: t.strand?.modulusMPa ?? null,
+        })),
+      )
+      .filter((r) => r.strandAreaMm2 > 0),
   );
 
   const divisionMm = resolutionStepMm(readingResolution(project.reading_resolution as StoredResolution));

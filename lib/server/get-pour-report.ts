@@ -31,7 +31,14 @@ export interface ReportFlag {
   closedBy: string | null;
   closeReason: string | null;
   reviews: { kind: ReviewKind; body: string; author: string; at: Date }[];
-  dispositions: { reference: string; decision: Decision; reasons: string; engineerName: string; licenceStatement: string; at: Date }[];
+  dispositions: {
+    reference: string;
+    decision: Decision;
+    reasons: string;
+    engineerName: string;
+    licenceStatement: string;
+    at: Date;
+  }[];
 }
 
 export interface PourReport {
@@ -134,27 +141,28 @@ export async function getPourReport(
     .executeTakeFirst();
   if (!project || !pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
 
-  const [tendons, records, { flags, reviews, dispositions }, release, flagNumbers, dispositionNumbers] = await Promise.all([
-    listTendonResults(db, input),
-    listPourRecords(db, { ...input, projectBasis: project.comparison_basis, timeZone: projectTimeZone(project) }),
-    findFlagTrail(db, { projectId: input.projectId, pourId: input.pourId }),
-    db
-      .selectFrom("releases")
-      .select(["released_by_name", "statement", "created_at", "signer_name", "licence", "content_sha256"])
-      .where("project_id", "=", input.projectId)
-      .where("pour_id", "=", input.pourId)
-      .executeTakeFirst(),
-    db
-      .selectFrom("flags")
-      .select(["id", sql<string>`row_number() over (order by created_at, id)`.as("n")])
-      .where("project_id", "=", input.projectId)
-      .execute(),
-    db
-      .selectFrom("dispositions")
-      .select(["id", sql<string>`row_number() over (order by created_at, id)`.as("n")])
-      .where("project_id", "=", input.projectId)
-      .execute(),
-  ]);
+  const [tendons, records, { flags, reviews, dispositions }, release, flagNumbers, dispositionNumbers] =
+    await Promise.all([
+      listTendonResults(db, input),
+      listPourRecords(db, { ...input, projectBasis: project.comparison_basis, timeZone: projectTimeZone(project) }),
+      findFlagTrail(db, { projectId: input.projectId, pourId: input.pourId }),
+      db
+        .selectFrom("releases")
+        .select(["released_by_name", "statement", "created_at", "signer_name", "licence", "content_sha256"])
+        .where("project_id", "=", input.projectId)
+        .where("pour_id", "=", input.pourId)
+        .executeTakeFirst(),
+      db
+        .selectFrom("flags")
+        .select(["id", sql<string>`row_number() over (order by created_at, id)`.as("n")])
+        .where("project_id", "=", input.projectId)
+        .execute(),
+      db
+        .selectFrom("dispositions")
+        .select(["id", sql<string>`row_number() over (order by created_at, id)`.as("n")])
+        .where("project_id", "=", input.projectId)
+        .execute(),
+    ]);
   const flagRef = new Map(flagNumbers.map((f) => [f.id, reference("F", Number(f.n))]));
   const dispositionRef = new Map(dispositionNumbers.map((d) => [d.id, reference("D", Number(d.n))]));
 
@@ -281,7 +289,10 @@ export async function getPourReport(
       // Closures written by the evaluation name rows by id; the report names them by reference.
       closeReason: f.close_reason
         ? f.close_reason
-            .replace(/disposition ([0-9a-f-]{36})/g, (_, id: string) => `disposition ${dispositionRef.get(id) ?? "of another project"}`)
+            .replace(
+              /disposition ([0-9a-f-]{36})/g,
+              (_, id: string) => `disposition ${dispositionRef.get(id) ?? "of another project"}`,
+            )
             .replace(/;? ?evaluation [0-9a-f-]{36}/g, "; the new evaluation")
         : null,
       reviews: reviews

@@ -74,7 +74,10 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
   ]);
 
   // Each record with its clock skew against the project's threshold (null when within it).
-  const records = rows.map(({ clock_skew_minutes, ...r }) => ({ ...r, skew: clockSkew(r.device_time, r.received_at, clock_skew_minutes) }));
+  const records = rows.map(({ clock_skew_minutes, ...r }) => ({
+    ...r,
+    skew: clockSkew(r.device_time, r.received_at, clock_skew_minutes),
+  }));
   const equipmentGripMm = records.find((r) => r.equipmentGripMm !== null)?.equipmentGripMm ?? null;
   let predicted: TendonPrediction | null = null;
   let profile: ForceProfile | null = null;

@@ -178,13 +178,15 @@ export async function listTendonResults(
           forceN: line ? forceFromPressure(line, r.final_pressure_mpa) : null,
           measuredMm: r.measured_mm,
           // The evaluation's own total on the end's basis; older evaluations are recomputed as before.
-          totalMm: used.readings.find((x) => x.recordId === r.id)?.totalMm ?? endTotalMm({
-            end: r.tendon_end,
-            measuredMm: r.measured_mm,
-            initialPressureMPa: r.initial_pressure_mpa,
-            finalPressureMPa: r.final_pressure_mpa,
-            calibration: line ? { ...line, minPressureMPa: 0, maxPressureMPa: Infinity } : null,
-          }),
+          totalMm:
+            used.readings.find((x) => x.recordId === r.id)?.totalMm ??
+            endTotalMm({
+              end: r.tendon_end,
+              measuredMm: r.measured_mm,
+              initialPressureMPa: r.initial_pressure_mpa,
+              finalPressureMPa: r.final_pressure_mpa,
+              calibration: line ? { ...line, minPressureMPa: 0, maxPressureMPa: Infinity } : null,
+            }),
           deviceTime: new Date(r.device_time),
           author: r.author,
           wireBreaks: r.wire_breaks,
@@ -215,7 +217,11 @@ export async function listTendonResults(
       pathMm,
       lotNumber: t.lot_number,
       strand: used.strand
-        ? { ...used.strand, source: used.strand.source === "strand lot" && used.lot ? `strand lot ${used.lot.lotNumber}` : used.strand.source }
+        ? {
+            ...used.strand,
+            source:
+              used.strand.source === "strand lot" && used.lot ? `strand lot ${used.lot.lotNumber}` : used.strand.source,
+          }
         : null,
       evaluation: e
         ? {

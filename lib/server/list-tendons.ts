@@ -43,7 +43,15 @@ export async function listTendons(
   const [project, sets, evaluations] = await Promise.all([
     db
       .selectFrom("projects")
-      .select(["tolerance_pct", "short_tendon_floor_mm", "comparison_basis", "count_jack_grip", "friction_mu", "wobble_per_m", "anchor_set_mm"])
+      .select([
+        "tolerance_pct",
+        "short_tendon_floor_mm",
+        "comparison_basis",
+        "count_jack_grip",
+        "friction_mu",
+        "wobble_per_m",
+        "anchor_set_mm",
+      ])
       .where("id", "=", input.projectId)
       .executeTakeFirstOrThrow(),
     listEquipmentSets(db, input.projectId),
@@ -90,10 +98,19 @@ export async function listTendons(
     tendons: rows.map((r) => {
       let prediction: ReturnType<typeof predictTendon> | null = null;
       try {
-        const lot = r.area_mm2 && r.modulus_mpa && r.breaking_load_n ? { areaMm2: r.area_mm2, modulusMPa: r.modulus_mpa, breakingLoadN: r.breaking_load_n } : null;
+        const lot =
+          r.area_mm2 && r.modulus_mpa && r.breaking_load_n
+            ? { areaMm2: r.area_mm2, modulusMPa: r.modulus_mpa, breakingLoadN: r.breaking_load_n }
+            : null;
         prediction = predictTendon({
           project: basis,
-          tendon: { strandSize: r.strand_size, strandCount: r.strand_count, segments: r.segments, ends: r.ends, jackGripMm: r.jack_grip_mm },
+          tendon: {
+            strandSize: r.strand_size,
+            strandCount: r.strand_count,
+            segments: r.segments,
+            ends: r.ends,
+            jackGripMm: r.jack_grip_mm,
+          },
           lot,
         });
       } catch {
@@ -101,22 +118,27 @@ export async function listTendons(
       }
       const evaluation = latest.get(r.id);
       return {
-      id: r.id,
-      tag: r.tag,
-      kind: r.kind,
-      strandSize: r.strand_size,
-      strandCount: r.strand_count,
-      segments: r.segments,
-      ends: r.ends,
-      jackGripMm: r.jack_grip_mm,
-      shopElongationMm: r.shop_elongation_mm,
-      strandLot: r.lot_number,
-      lengthMm: r.segments.reduce((s, x) => s + x.lengthMm, 0),
-      predictedMm: prediction?.predictedMm ?? null,
-      targets: sets
-        .filter((s) => s.current)
-        .map((s) => ({ set: s.name, pressureMPa: prediction && s.current ? targetPressureMPa(s.current, prediction.jackingForceN) : null })),
-      latest: evaluation ? { verdict: evaluation.verdict, deviationPct: evaluation.deviation_pct, provisional: evaluation.provisional } : null,
+        id: r.id,
+        tag: r.tag,
+        kind: r.kind,
+        strandSize: r.strand_size,
+        strandCount: r.strand_count,
+        segments: r.segments,
+        ends: r.ends,
+        jackGripMm: r.jack_grip_mm,
+        shopElongationMm: r.shop_elongation_mm,
+        strandLot: r.lot_number,
+        lengthMm: r.segments.reduce((s, x) => s + x.lengthMm, 0),
+        predictedMm: prediction?.predictedMm ?? null,
+        targets: sets
+          .filter((s) => s.current)
+          .map((s) => ({
+            set: s.name,
+            pressureMPa: prediction && s.current ? targetPressureMPa(s.current, prediction.jackingForceN) : null,
+          })),
+        latest: evaluation
+          ? { verdict: evaluation.verdict, deviationPct: evaluation.deviation_pct, provisional: evaluation.provisional }
+          : null,
       };
     }),
   };

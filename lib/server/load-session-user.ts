@@ -15,7 +15,10 @@ export interface SessionUser {
  * switched off or the cookie was minted under an older session version (signed out, password
  * reset, removed from a project or given another role since).
  */
-export async function loadSessionUser(db: Db, session: { id: string; sessionVersion: number }): Promise<SessionUser | null> {
+export async function loadSessionUser(
+  db: Db,
+  session: { id: string; sessionVersion: number },
+): Promise<SessionUser | null> {
   const user = await db
     .selectFrom("users")
     .select(["id", "email", "name", "is_operator"])

@@ -242,7 +242,12 @@ export async function pullChanges(
               jsonArrayFrom(
                 eb
                   .selectFrom("dispositions")
-                  .select(["dispositions.decision", "dispositions.reasons", "dispositions.engineer_name", "dispositions.created_at"])
+                  .select([
+                    "dispositions.decision",
+                    "dispositions.reasons",
+                    "dispositions.engineer_name",
+                    "dispositions.created_at",
+                  ])
                   .whereRef("dispositions.flag_id", "=", "flags.id")
                   .orderBy("dispositions.created_at"),
               ).as("dispositions"),
@@ -305,11 +310,19 @@ export async function pullChanges(
           status: p.status,
           release:
             p.released_by_name && p.released_at
-              ? { by: p.released_by_name, at: new Date(p.released_at).toISOString(), statement: p.release_statement ?? "" }
+              ? {
+                  by: p.released_by_name,
+                  at: new Date(p.released_at).toISOString(),
+                  statement: p.release_statement ?? "",
+                }
               : null,
           reopened:
             p.last_reopened_by_name && p.last_reopened_at
-              ? { by: p.last_reopened_by_name, at: new Date(p.last_reopened_at).toISOString(), reason: p.last_reopen_reason ?? "" }
+              ? {
+                  by: p.last_reopened_by_name,
+                  at: new Date(p.last_reopened_at).toISOString(),
+                  reason: p.last_reopen_reason ?? "",
+                }
               : null,
         })),
         tendons: tendons.map((t) => ({

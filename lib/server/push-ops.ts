@@ -569,7 +569,10 @@ export async function pushOps(
           // The op committed and its answer was lost (a test hook's stand-in for a dropped connection).
           if (error instanceof AnswerLost) throw error.cause;
           console.error(`push: op ${input.ops[i]!.opId} answered retry-later`, error);
-          results[i] = retryLater(input.ops[i]!, "The server was busy with this tendon; this change will be sent again.");
+          results[i] = retryLater(
+            input.ops[i]!,
+            "The server was busy with this tendon; this change will be sent again.",
+          );
           failed = true;
         }
       }

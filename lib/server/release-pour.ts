@@ -96,7 +96,8 @@ export async function releasePour(
       .executeTakeFirstOrThrow();
     if (state.release_id) throw new AppError("CONFLICT", "This pour is already released.");
     const blockers = await findReleaseBlockers(trx, input);
-    if (blockers.noSchedule) throw new AppError("CONFLICT", "The pour has no tendon schedule, so there is nothing to release.");
+    if (blockers.noSchedule)
+      throw new AppError("CONFLICT", "The pour has no tendon schedule, so there is nothing to release.");
     if (blockers.openFlags.length || blockers.unstressed.length) {
       const parts = [
         blockers.openFlags.length

@@ -156,7 +156,8 @@ export function predictTendon(input: {
   const strand = strandValues(tendon, input.lot);
   const jackingForceN =
     input.jackingForceN ??
-    (targetJackingForceN(tendon) * (project.jackingForceFactor ?? JACKING_LIMIT_FPU_FRACTION)) / JACKING_LIMIT_FPU_FRACTION;
+    (targetJackingForceN(tendon) * (project.jackingForceFactor ?? JACKING_LIMIT_FPU_FRACTION)) /
+      JACKING_LIMIT_FPU_FRACTION;
   const gripMm = project.countJackGrip ? (tendon.jackGripMm ?? input.equipmentGripMm ?? 0) : 0;
   const engineInput: TendonInput = {
     segments: tendon.segments,

@@ -39,7 +39,13 @@ export function governsLine(
   j: {
     governs: "tautline" | "shop drawing";
     governsNote: string | null;
-    shopDrawing: { mm: number; basis: "net" | "gross"; tautlineMm: number; differenceMm: number; differencePct: number } | null;
+    shopDrawing: {
+      mm: number;
+      basis: "net" | "gross";
+      tautlineMm: number;
+      differenceMm: number;
+      differencePct: number;
+    } | null;
   },
 ): string {
   const who = j.governs === "shop drawing" ? "The approved shop drawing governs" : "Tautline's prediction governs";

@@ -82,22 +82,30 @@ export function startMailFake(options: { smtpPort: number; httpPort: number; hos
       return send(
         200,
         "text/html",
-        page(m.subject, `<p><a href="/">All messages</a></p><h1>${escape(m.subject)}</h1>
+        page(
+          m.subject,
+          `<p><a href="/">All messages</a></p><h1>${escape(m.subject)}</h1>
 <p>From ${escape(m.from)} to ${escape(m.to.join(", "))}, ${escape(m.receivedAt)}</p>${body}
-<h2>Text part</h2><pre>${escape(m.text)}</pre>`),
+<h2>Text part</h2><pre>${escape(m.text)}</pre>`,
+        ),
       );
     }
     if (url.pathname === "/") {
       const rows = [...messages]
         .reverse()
-        .map((m) => `<tr><td>${escape(m.receivedAt)}</td><td>${escape(m.to.join(", "))}</td>
-<td><a href="/messages/${m.id}">${escape(m.subject || "(no subject)")}</a></td></tr>`)
+        .map(
+          (m) => `<tr><td>${escape(m.receivedAt)}</td><td>${escape(m.to.join(", "))}</td>
+<td><a href="/messages/${m.id}">${escape(m.subject || "(no subject)")}</a></td></tr>`,
+        )
         .join("");
       return send(
         200,
         "text/html",
-        page("Local mail inbox", `<h1>Local mail inbox</h1><p>Every e-mail the local Tautline sends lands here; nothing leaves this machine.</p>
-${rows ? `<table><tr><th>Received</th><th>To</th><th>Subject</th></tr>${rows}</table>` : "<p>No messages yet.</p>"}`),
+        page(
+          "Local mail inbox",
+          `<h1>Local mail inbox</h1><p>Every e-mail the local Tautline sends lands here; nothing leaves this machine.</p>
+${rows ? `<table><tr><th>Received</th><th>To</th><th>Subject</th></tr>${rows}</table>` : "<p>No messages yet.</p>"}`,
+        ),
       );
     }
     return send(404, "text/plain", "not found");
@@ -107,9 +115,6 @@ ${rows ? `<table><tr><th>Received</th><th>To</th><th>Subject</th></tr>${rows}</t
   return {
     messages,
     close: () =>
-      Promise.all([
-        new Promise<void>((r) => smtp.close(() => r())),
-        new Promise<void>((r) => web.close(() => r())),
-      ]),
+      Promise.all([new Promise<void>((r) => smtp.close(() => r())), new Promise<void>((r) => web.close(() => r()))]),
   };
 }

@@ -52,7 +52,12 @@ interface Plan {
   wireBreakEnd?: "A" | "B";
 }
 
-const OUT_OF_BAND: Record<string, number> = { "2-1-U14": 0.089, "2-2-U08": -0.096, "2-2-U17": 0.104, "2-2-U23": -0.081 };
+const OUT_OF_BAND: Record<string, number> = {
+  "2-1-U14": 0.089,
+  "2-2-U08": -0.096,
+  "2-2-U17": 0.104,
+  "2-2-U23": -0.081,
+};
 
 function planFor(tags: string[]): Plan[] {
   return tags.map((tag) => ({
@@ -66,23 +71,40 @@ export async function seedDemoRecords(
   trx: Kysely<Database>,
   input: { projectId: string; today: Date; dayOf: (offset: number) => string },
 ): Promise<number> {
-  const already = await trx.selectFrom("records").select("id").where("project_id", "=", input.projectId).where("device_id", "=", "demo-tablet-1").limit(1).executeTakeFirst();
+  const already = await trx
+    .selectFrom("records")
+    .select("id")
+    .where("project_id", "=", input.projectId)
+    .where("device_id", "=", "demo-tablet-1")
+    .limit(1)
+    .executeTakeFirst();
   if (already) return 0;
 
-  const person = (email: string) => trx.selectFrom("users").select(["id", "name"]).where("email", "=", email).executeTakeFirstOrThrow();
+  const person = (email: string) =>
+    trx.selectFrom("users").select(["id", "name"]).where("email", "=", email).executeTakeFirstOrThrow();
   const crew = await person("crew@demo.tautline.test");
   const inspector = await person("inspector@demo.tautline.test");
   const engineer = await person("engineer@demo.tautline.test");
   const sets = await trx
     .selectFrom("equipment_sets")
     .innerJoin("calibrations", "calibrations.equipment_set_id", "equipment_sets.id")
-    .select(["equipment_sets.id", "equipment_sets.name", "calibrations.id as calibrationId", "slope_n_per_mpa", "intercept_n"])
+    .select([
+      "equipment_sets.id",
+      "equipment_sets.name",
+      "calibrations.id as calibrationId",
+      "slope_n_per_mpa",
+      "intercept_n",
+    ])
     .where("equipment_sets.project_id", "=", input.projectId)
     .orderBy("equipment_sets.name")
     .execute();
   const [setA, setB] = sets;
   if (!setA || !setB) throw new Error("demo equipment sets missing");
-  const pours = await trx.selectFrom("pours").select(["id", "name"]).where("project_id", "=", input.projectId).execute();
+  const pours = await trx
+    .selectFrom("pours")
+    .select(["id", "name"])
+    .where("project_id", "=", input.projectId)
+    .execute();
   const pourId = (name: string) => pours.find((p) => p.name === name)!.id;
 
   let count = 0;
@@ -178,38 +200,81 @@ export async function seedDemoRecords(
 
   // Last week's long tendon: checked, lifted off, accepted; then the pour was released.
   const u14 = await flagOf("2-1-U14");
-  await addReview(trx, { projectId: input.projectId, flagId: u14.id, author: inspector, review: { kind: "remeasured", body: "Re-measured the tail mark with a steel tape; the reading stands.", remeasuredMm: await recordMm(trx, "2-1-U14") } });
-  await addReview(trx, { projectId: input.projectId, flagId: u14.id, author: inspector, review: { kind: "sent_to_engineer", body: "Long by about 9 %; wedges and dead end look normal." } });
+  await addReview(trx, {
+    projectId: input.projectId,
+    flagId: u14.id,
+    author: inspector,
+    review: {
+      kind: "remeasured",
+      body: "Re-measured the tail mark with a steel tape; the reading stands.",
+      remeasuredMm: await recordMm(trx, "2-1-U14"),
+    },
+  });
+  await addReview(trx, {
+    projectId: input.projectId,
+    flagId: u14.id,
+    author: inspector,
+    review: { kind: "sent_to_engineer", body: "Long by about 9 %; wedges and dead end look normal." },
+  });
   await recordDisposition(trx, {
     projectId: input.projectId,
     flagId: u14.id,
     engineer,
-    disposition: { decision: "accept", reasons: "Lift-off at the live end matched the gauge within 2 %; friction lower than assumed on this run. Accepted as stressed.", licenceStatement: licence },
+    disposition: {
+      decision: "accept",
+      reasons:
+        "Lift-off at the live end matched the gauge within 2 %; friction lower than assumed on this run. Accepted as stressed.",
+      licenceStatement: licence,
+    },
   });
   await releasePour(trx, {
     projectId: input.projectId,
     pourId: pourId("L2 Pour 1"),
     by: { ...engineer, role: "engineer" },
-    statement: "All tendons of L2 Pour 1 are stressed and accepted; tails may be cut.", signerName: engineer.name, licence,
+    statement: "All tendons of L2 Pour 1 are stressed and accepted; tails may be cut.",
+    signerName: engineer.name,
+    licence,
   });
 
   // Today: one long tendon ordered restressed, one short waiting on a lift-off check, one short
   // just flagged, and the wire break still open.
   const u17 = await flagOf("2-2-U17");
-  await addReview(trx, { projectId: input.projectId, flagId: u17.id, author: inspector, review: { kind: "sent_to_engineer", body: "Long by about 10 %; the crew thinks the dead end slipped." } });
+  await addReview(trx, {
+    projectId: input.projectId,
+    flagId: u17.id,
+    author: inspector,
+    review: { kind: "sent_to_engineer", body: "Long by about 10 %; the crew thinks the dead end slipped." },
+  });
   await recordDisposition(trx, {
     projectId: input.projectId,
     flagId: u17.id,
     engineer,
-    disposition: { decision: "restress", reasons: "Possible dead-end slip. Restress to the same gauge pressure and re-read the mark before the tails are cut.", licenceStatement: licence },
+    disposition: {
+      decision: "restress",
+      reasons:
+        "Possible dead-end slip. Restress to the same gauge pressure and re-read the mark before the tails are cut.",
+      licenceStatement: licence,
+    },
   });
   const u23 = await flagOf("2-2-U23");
-  await addReview(trx, { projectId: input.projectId, flagId: u23.id, author: inspector, review: { kind: "sent_to_engineer", body: "Short by about 8 %; sheathing looked damaged near the second high point." } });
+  await addReview(trx, {
+    projectId: input.projectId,
+    flagId: u23.id,
+    author: inspector,
+    review: {
+      kind: "sent_to_engineer",
+      body: "Short by about 8 %; sheathing looked damaged near the second high point.",
+    },
+  });
   await recordDisposition(trx, {
     projectId: input.projectId,
     flagId: u23.id,
     engineer,
-    disposition: { decision: "liftoff_check", reasons: "Check the force by lift-off at the live end before deciding; report the lift-off pressure.", licenceStatement: licence },
+    disposition: {
+      decision: "liftoff_check",
+      reasons: "Check the force by lift-off at the live end before deciding; report the lift-off pressure.",
+      licenceStatement: licence,
+    },
   });
   return count;
 }

@@ -134,7 +134,10 @@ export interface SeedSummary {
  * `records: true` adds the demo's stressing history (what `npm start` and the e2e run show);
  * tests that build their own records seed without it.
  */
-export async function seedDemo(db: Kysely<Database>, options: { today?: Date; records?: boolean } = {}): Promise<SeedSummary> {
+export async function seedDemo(
+  db: Kysely<Database>,
+  options: { today?: Date; records?: boolean } = {},
+): Promise<SeedSummary> {
   const today = options.today ?? new Date();
   const passwordHash = await bcrypt.hash(DEMO_PASSWORD, 10);
 
@@ -185,7 +188,11 @@ export async function seedDemo(db: Kysely<Database>, options: { today?: Date; re
       .onConflict((oc) => oc.column("email").doNothing())
       .execute();
 
-    const projects = await trx.selectFrom("projects").select(["id", "code"]).where("code", "in", ["AYP", "QHM"]).execute();
+    const projects = await trx
+      .selectFrom("projects")
+      .select(["id", "code"])
+      .where("code", "in", ["AYP", "QHM"])
+      .execute();
     const projectId = (code: string) => {
       const found = projects.find((p) => p.code === code);
       if (!found) throw new Error(`demo project ${code} missing after insert`);
@@ -194,7 +201,11 @@ export async function seedDemo(db: Kysely<Database>, options: { today?: Date; re
     const users = await trx
       .selectFrom("users")
       .select(["id", "email"])
-      .where("email", "in", DEMO_PEOPLE.map((p) => p.email))
+      .where(
+        "email",
+        "in",
+        DEMO_PEOPLE.map((p) => p.email),
+      )
       .execute();
 
     await trx
@@ -214,12 +225,30 @@ export async function seedDemo(db: Kysely<Database>, options: { today?: Date; re
       .insertInto("strand_lots")
       .values([
         // Invented mill-certificate values for the demo, near ASTM A416 nominal 0.5 in strand.
-        { project_id: ayp, lot_number: "AY-0871", strand_size: "0.5 in", area_mm2: 99.3, modulus_mpa: 197_200, breaking_load_n: 187_400 },
-        { project_id: ayp, lot_number: "AY-0903", strand_size: "0.5 in", area_mm2: 98.9, modulus_mpa: 195_600, breaking_load_n: 186_100 },
+        {
+          project_id: ayp,
+          lot_number: "AY-0871",
+          strand_size: "0.5 in",
+          area_mm2: 99.3,
+          modulus_mpa: 197_200,
+          breaking_load_n: 187_400,
+        },
+        {
+          project_id: ayp,
+          lot_number: "AY-0903",
+          strand_size: "0.5 in",
+          area_mm2: 98.9,
+          modulus_mpa: 195_600,
+          breaking_load_n: 186_100,
+        },
       ])
       .onConflict((oc) => oc.columns(["project_id", "lot_number"]).doNothing())
       .execute();
-    const lots = await trx.selectFrom("strand_lots").select(["id", "lot_number"]).where("project_id", "=", ayp).execute();
+    const lots = await trx
+      .selectFrom("strand_lots")
+      .select(["id", "lot_number"])
+      .where("project_id", "=", ayp)
+      .execute();
 
     await trx
       .insertInto("pours")
@@ -243,10 +272,22 @@ export async function seedDemo(db: Kysely<Database>, options: { today?: Date; re
     // "check with the detailer" mark shows. Invented for the demo.
     const basis = await trx
       .selectFrom("projects")
-      .select(["tolerance_pct", "short_tendon_floor_mm", "comparison_basis", "count_jack_grip", "friction_mu", "wobble_per_m", "anchor_set_mm"])
+      .select([
+        "tolerance_pct",
+        "short_tendon_floor_mm",
+        "comparison_basis",
+        "count_jack_grip",
+        "friction_mu",
+        "wobble_per_m",
+        "anchor_set_mm",
+      ])
       .where("id", "=", ayp)
       .executeTakeFirstOrThrow();
-    const lotValues = await trx.selectFrom("strand_lots").select(["lot_number", "area_mm2", "modulus_mpa", "breaking_load_n"]).where("project_id", "=", ayp).execute();
+    const lotValues = await trx
+      .selectFrom("strand_lots")
+      .select(["lot_number", "area_mm2", "modulus_mpa", "breaking_load_n"])
+      .where("project_id", "=", ayp)
+      .execute();
     const SHOP_FACTORS: Record<number, number> = { 6: 1.004, 12: 0.992, 18: 1.031, 24: 1.006, 30: 0.968, 36: 0.997 };
     const shopElongation = (t: DemoTendon): number | null => {
       const factor = SHOP_FACTORS[Number(/-U(\d+)$/.exec(t.tag)?.[1] ?? 0)];
@@ -264,7 +305,11 @@ export async function seedDemo(db: Kysely<Database>, options: { today?: Date; re
       const pour = pours.find((p) => p.name === demoPour.name);
       if (!pour) throw new Error(`demo pour ${demoPour.name} missing after insert`);
       // A released pour's schedule is in already, and its trigger refuses even a row ON CONFLICT would skip.
-      const state = await trx.selectFrom("pour_states").select("status").where("pour_id", "=", pour.id).executeTakeFirst();
+      const state = await trx
+        .selectFrom("pour_states")
+        .select("status")
+        .where("pour_id", "=", pour.id)
+        .executeTakeFirst();
       if (state?.status === "released") continue;
       await trx
         .insertInto("tendons")
@@ -306,7 +351,11 @@ export async function seedDemo(db: Kysely<Database>, options: { today?: Date; re
     for (const e of DEMO_EQUIPMENT) {
       const set = sets.find((x) => x.name === e.name);
       if (!set) throw new Error(`demo equipment set ${e.name} missing after insert`);
-      const existing = await trx.selectFrom("calibrations").select("id").where("equipment_set_id", "=", set.id).executeTakeFirst();
+      const existing = await trx
+        .selectFrom("calibrations")
+        .select("id")
+        .where("equipment_set_id", "=", set.id)
+        .executeTakeFirst();
       if (existing) continue;
       const points = demoPoints(e);
       const fit = fitCalibration(points);
@@ -328,10 +377,18 @@ export async function seedDemo(db: Kysely<Database>, options: { today?: Date; re
         .execute();
     }
 
-    if (options.records) await seedDemoRecords(trx, { projectId: ayp, today, dayOf: (offset) => demoDay(today, offset) });
+    if (options.records)
+      await seedDemoRecords(trx, { projectId: ayp, today, dayOf: (offset) => demoDay(today, offset) });
 
     const count = async (table: "projects" | "users" | "pours" | "tendons") =>
-      Number((await trx.selectFrom(table).select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow()).n);
+      Number(
+        (
+          await trx
+            .selectFrom(table)
+            .select((eb) => eb.fn.countAll<number>().as("n"))
+            .executeTakeFirstOrThrow()
+        ).n,
+      );
     return {
       projects: await count("projects"),
       users: await count("users"),

@@ -15,15 +15,21 @@ async function expectNoSeriousViolations(page: Page, where: string) {
 /** Every violation axe finds (any impact), for the office screens, which must have none. */
 async function expectNoViolations(page: Page, where: string) {
   const results = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
-  const found = results.violations.map((v) => `${v.id} (${v.impact}): ${v.help} (${v.nodes.length}× e.g. ${v.nodes[0]?.target.join(" ")})`);
+  const found = results.violations.map(
+    (v) => `${v.id} (${v.impact}): ${v.help} (${v.nodes.length}× e.g. ${v.nodes[0]?.target.join(" ")})`,
+  );
   expect(found, `${where}\n${found.join("\n")}`).toEqual([]);
 }
 
 test("every office page has no axe violation at all, charts included", async ({ page }) => {
   test.setTimeout(180_000);
   const [project] = await queryDemo<{ id: string }>("select id from projects where code = 'AYP'");
-  const [pour] = await queryDemo<{ id: string }>("select id from pours where project_id = $1 and name = 'L2 Pour 2'", [project!.id]);
-  const [tendon] = await queryDemo<{ id: string }>("select id from tendons where project_id = $1 and tag = '2-2-U17'", [project!.id]);
+  const [pour] = await queryDemo<{ id: string }>("select id from pours where project_id = $1 and name = 'L2 Pour 2'", [
+    project!.id,
+  ]);
+  const [tendon] = await queryDemo<{ id: string }>("select id from tendons where project_id = $1 and tag = '2-2-U17'", [
+    project!.id,
+  ]);
   const base = `/projects/${project!.id}`;
 
   await signInWithPassword(page, PEOPLE.admin);
@@ -49,7 +55,14 @@ test("every office page has no axe violation at all, charts included", async ({ 
 
   await signInWithPassword(page, PEOPLE.engineer);
   await page.waitForURL(/\/home$/);
-  for (const path of ["/home", "/review", `${base}/tendons/${tendon!.id}/flags`, "/decisions", `${base}/pours/${pour!.id}/insight`, `${base}/pours/00000000-0000-4000-8000-000000000000/insight`]) {
+  for (const path of [
+    "/home",
+    "/review",
+    `${base}/tendons/${tendon!.id}/flags`,
+    "/decisions",
+    `${base}/pours/${pour!.id}/insight`,
+    `${base}/pours/00000000-0000-4000-8000-000000000000/insight`,
+  ]) {
     await page.goto(path);
     await expect(page.getByRole("heading", { level: 1 })).toBeVisible();
     await page.waitForLoadState("networkidle");

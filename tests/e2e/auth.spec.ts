@@ -41,7 +41,12 @@ test.describe("signing in", () => {
     await page.getByRole("button", { name: "E-mail me a sign-in link" }).click();
     await expect(page.getByRole("heading", { name: "Check your e-mail" })).toBeVisible();
 
-    const mail = await latestMailTo(PEOPLE.inspector, before, 15_000, (m) => m.subject === "Your Tautline sign-in link");
+    const mail = await latestMailTo(
+      PEOPLE.inspector,
+      before,
+      15_000,
+      (m) => m.subject === "Your Tautline sign-in link",
+    );
     expect(mail.subject).toBe("Your Tautline sign-in link");
     expect(mail.html).toContain("Sign in");
     const link = linkIn(mail, "/api/auth/callback/email");
@@ -104,13 +109,18 @@ test("an invitation is accepted end to end, and a removed member is refused at o
   await expect(newcomerPage.getByText(/Alder Yard Parking/).first()).toBeVisible();
 
   // The link works once.
-  const again = await (await apiAs(null)).post("/api/invitations/accept", {
+  const again = await (
+    await apiAs(null)
+  ).post("/api/invitations/accept", {
     data: { token: link.split("/invite/")[1], name: "Someone", password: "a-long-enough-password" },
   });
   expect(again.status()).toBe(410);
 
   // As a project admin the newcomer can read the member list...
-  const me = (await (await newcomerPage.request.get("/api/me")).json()) as { id: string; memberships: { projectId: string }[] };
+  const me = (await (await newcomerPage.request.get("/api/me")).json()) as {
+    id: string;
+    memberships: { projectId: string }[];
+  };
   const projectId = me.memberships[0]!.projectId;
   expect((await newcomerPage.request.get(`/api/projects/${projectId}/members`)).status()).toBe(200);
 
@@ -133,12 +143,16 @@ test("a password reset by e-mail sets a new password that then signs in", async 
   const email = `reset-${Date.now()}@demo.tautline.test`;
   // A fresh person, so the demo passwords stay as documented.
   const admin = await apiAs(PEOPLE.admin);
-  const me = (await (await admin.get("/api/me")).json()) as { memberships: { projectId: string; projectCode: string }[] };
+  const me = (await (await admin.get("/api/me")).json()) as {
+    memberships: { projectId: string; projectCode: string }[];
+  };
   const projectId = me.memberships.find((m) => m.projectCode === "AYP")!.projectId;
   let before = await lastMailId();
   await admin.post(`/api/projects/${projectId}/invitations`, { data: { email, role: "crew" } });
   const token = linkIn(await latestMailTo(email, before), "/invite/").split("/invite/")[1];
-  await admin.post("/api/invitations/accept", { data: { token, name: "Reset Person", password: "first-password-123" } });
+  await admin.post("/api/invitations/accept", {
+    data: { token, name: "Reset Person", password: "first-password-123" },
+  });
 
   before = await lastMailId();
   await page.goto("/reset-password");
@@ -157,12 +171,16 @@ test("a password reset by e-mail sets a new password that then signs in", async 
 test("after ten wrong passwords the account pauses, with the same words as any failure", async () => {
   const email = `paused-${Date.now()}@demo.tautline.test`;
   const admin = await apiAs(PEOPLE.admin);
-  const me = (await (await admin.get("/api/me")).json()) as { memberships: { projectId: string; projectCode: string }[] };
+  const me = (await (await admin.get("/api/me")).json()) as {
+    memberships: { projectId: string; projectCode: string }[];
+  };
   const projectId = me.memberships.find((m) => m.projectCode === "AYP")!.projectId;
   const before = await lastMailId();
   await admin.post(`/api/projects/${projectId}/invitations`, { data: { email, role: "crew" } });
   const token = linkIn(await latestMailTo(email, before), "/invite/").split("/invite/")[1];
-  await admin.post("/api/invitations/accept", { data: { token, name: "Paused Person", password: "the-right-password-1" } });
+  await admin.post("/api/invitations/accept", {
+    data: { token, name: "Paused Person", password: "the-right-password-1" },
+  });
   await admin.dispose();
 
   // Ten failures are allowed; the account limit is 10 in 15 minutes (lib/auth/rate-limit.ts).

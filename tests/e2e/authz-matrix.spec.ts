@@ -29,7 +29,8 @@ function routesOnDisk(): string[] {
           .filter((seg) => !/^\(.*\)$/.test(seg))
           .join("/");
       const methods = new Set<string>();
-      for (const m of source.matchAll(/export\s+(?:const|async function|function)\s+(GET|POST|PUT|PATCH|DELETE)\b/g)) methods.add(m[1]!);
+      for (const m of source.matchAll(/export\s+(?:const|async function|function)\s+(GET|POST|PUT|PATCH|DELETE)\b/g))
+        methods.add(m[1]!);
       for (const m of source.matchAll(/\bas\s+(GET|POST|PUT|PATCH|DELETE)\b/g)) methods.add(m[1]!);
       return [...methods].map((method) => `${method} ${urlPath}`);
     })
@@ -55,7 +56,9 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
   test.beforeAll(async () => {
     for (const [caller, email] of Object.entries(PEOPLE) as [Caller, string][]) contexts[caller] = await apiAs(email);
     contexts.anonymous = await apiAs(null);
-    const me = (await (await contexts.admin.get("/api/me")).json()) as { memberships: { projectId: string; projectCode: string }[] };
+    const me = (await (await contexts.admin.get("/api/me")).json()) as {
+      memberships: { projectId: string; projectCode: string }[];
+    };
     projectId = me.memberships.find((m) => m.projectCode === "AYP")!.projectId;
     const list = (await (await contexts.admin.get(`/api/projects/${projectId}/members`)).json()) as {
       members: { userId: string; email: string }[];
@@ -93,22 +96,33 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
 
   /** A pour of the demo project, as the demo crew's download list names it. */
   async function crewDownloadPourId(): Promise<string> {
-    const list = (await (await contexts.crew.get("/api/field/pours")).json()) as { pours: { id: string; projectId: string }[] };
+    const list = (await (await contexts.crew.get("/api/field/pours")).json()) as {
+      pours: { id: string; projectId: string }[];
+    };
     return list.pours.find((p) => p.projectId === projectId)!.id;
   }
 
   const CERTIFICATE = Buffer.from("%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n");
-  const certificateUpload = { purpose: "mill_certificate", contentType: "application/pdf", sizeBytes: CERTIFICATE.byteLength, originalName: "matrix.pdf" };
+  const certificateUpload = {
+    purpose: "mill_certificate",
+    contentType: "application/pdf",
+    sizeBytes: CERTIFICATE.byteLength,
+    originalName: "matrix.pdf",
+  };
   const stamp = () => `${Date.now()}-${counter++}`;
   const pourBody = (name: string) => ({ name, level: "Matrix", areaM2: null, plannedStressingDate: null });
   /** A throwaway pour, so the demo pours keep their schedules. */
   async function throwawayPour(): Promise<string> {
-    const res = await contexts.admin.post(`/api/projects/${projectId}/pours`, { data: pourBody(`Matrix pour ${stamp()}`) });
+    const res = await contexts.admin.post(`/api/projects/${projectId}/pours`, {
+      data: pourBody(`Matrix pour ${stamp()}`),
+    });
     expect(res.status()).toBe(201);
     return ((await res.json()) as { pourId: string }).pourId;
   }
   async function demoPourId(): Promise<string> {
-    const list = (await (await contexts.admin.get(`/api/projects/${projectId}/pours`)).json()) as { pours: { id: string; name: string }[] };
+    const list = (await (await contexts.admin.get(`/api/projects/${projectId}/pours`)).json()) as {
+      pours: { id: string; name: string }[];
+    };
     return list.pours.find((p) => p.name === "L2 Pour 1")!.id;
   }
   const tendonBody = (tag: string) => ({
@@ -122,7 +136,11 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     shopElongationMm: null,
     strandLotId: null,
   });
-  const SIGNATURE = { signerName: "Matrix Inspector", licence: "ICC special inspector 0000000 (matrix)", statement: "Matrix check of who may sign the stressing report." };
+  const SIGNATURE = {
+    signerName: "Matrix Inspector",
+    licence: "ICC special inspector 0000000 (matrix)",
+    statement: "Matrix check of who may sign the stressing report.",
+  };
   const SCHEDULE_HEADER = "tag,type,strand size [in],strands,ends,segments [ft@deg]";
 
   /** An admin's certificate upload, put in storage; confirmed too when `confirm` is set. */
@@ -130,22 +148,36 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     const res = await contexts.admin.post(`/api/projects/${projectId}/uploads`, { data: certificateUpload });
     expect(res.status()).toBe(201);
     const started = (await res.json()) as { attachmentId: string; uploadUrl: string; headers: Record<string, string> };
-    expect((await fetch(started.uploadUrl, { method: "PUT", headers: started.headers, body: CERTIFICATE })).status).toBe(200);
-    if (confirm) expect((await contexts.admin.post(`/api/projects/${projectId}/uploads/${started.attachmentId}/confirm`)).status()).toBe(200);
+    expect(
+      (await fetch(started.uploadUrl, { method: "PUT", headers: started.headers, body: CERTIFICATE })).status,
+    ).toBe(200);
+    if (confirm)
+      expect(
+        (await contexts.admin.post(`/api/projects/${projectId}/uploads/${started.attachmentId}/confirm`)).status(),
+      ).toBe(200);
     return started.attachmentId;
   }
 
   // Each entry makes the call; `fixture` runs once before the callers, who go in the order below
   // so that the allowed (and possibly destructive) call comes last.
-  const CALLS: Record<string, { fixture?: () => Promise<string>; call: (ctx: APIRequestContext, id: string) => Promise<APIResponse> }> = {
+  const CALLS: Record<
+    string,
+    { fixture?: () => Promise<string>; call: (ctx: APIRequestContext, id: string) => Promise<APIResponse> }
+  > = {
     "GET /api/health": { call: (c) => c.get("/api/health") },
     "GET /api/auth/[...nextauth]": { call: (c) => c.get("/api/auth/session") },
-    "POST /api/auth/[...nextauth]": { call: (c) => c.post("/api/auth/_log", { form: { level: "debug", code: "matrix" } }) },
+    "POST /api/auth/[...nextauth]": {
+      call: (c) => c.post("/api/auth/_log", { form: { level: "debug", code: "matrix" } }),
+    },
     "GET /api/me": { call: (c) => c.get("/api/me") },
     "POST /api/projects": {
       call: (c) =>
         c.post("/api/projects", {
-          data: { code: `M${String(Date.now()).slice(-6)}`, name: "Matrix check project", firstAdminEmail: PEOPLE.admin },
+          data: {
+            code: `M${String(Date.now()).slice(-6)}`,
+            name: "Matrix check project",
+            firstAdminEmail: PEOPLE.admin,
+          },
         }),
     },
     "GET /api/projects/[projectId]/members": { call: (c) => c.get(`/api/projects/${projectId}/members`) },
@@ -157,7 +189,8 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
       call: (c, userId) => c.delete(`/api/projects/${projectId}/members/${userId}`),
     },
     "POST /api/projects/[projectId]/invitations": {
-      call: (c) => c.post(`/api/projects/${projectId}/invitations`, { data: { email: unique("invite"), role: "crew" } }),
+      call: (c) =>
+        c.post(`/api/projects/${projectId}/invitations`, { data: { email: unique("invite"), role: "crew" } }),
     },
     "DELETE /api/projects/[projectId]/invitations/[invitationId]": {
       fixture: () => invite(unique("revoke")),
@@ -167,7 +200,9 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
       fixture: () => invite(unique("resend")),
       call: (c, id) => c.post(`/api/projects/${projectId}/invitations/${id}/resend`),
     },
-    "POST /api/projects/[projectId]/uploads": { call: (c) => c.post(`/api/projects/${projectId}/uploads`, { data: certificateUpload }) },
+    "POST /api/projects/[projectId]/uploads": {
+      call: (c) => c.post(`/api/projects/${projectId}/uploads`, { data: certificateUpload }),
+    },
     "POST /api/projects/[projectId]/uploads/[attachmentId]/confirm": {
       fixture: () => uploadedCertificate(false),
       call: (c, id) => c.post(`/api/projects/${projectId}/uploads/${id}/confirm`),
@@ -179,7 +214,8 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     "GET /api/projects/[projectId]/settings": { call: (c) => c.get(`/api/projects/${projectId}/settings`) },
     "PATCH /api/projects/[projectId]/settings": {
       // The admin writes the settings back unchanged.
-      fixture: async () => JSON.stringify(await (await contexts.admin.get(`/api/projects/${projectId}/settings`)).json()),
+      fixture: async () =>
+        JSON.stringify(await (await contexts.admin.get(`/api/projects/${projectId}/settings`)).json()),
       call: (c, json) => {
         const { id: _id, code: _code, ...settings } = JSON.parse(json) as Record<string, unknown>;
         void _id;
@@ -188,7 +224,8 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
       },
     },
     "POST /api/projects/[projectId]/settings/preview": {
-      fixture: async () => JSON.stringify(await (await contexts.admin.get(`/api/projects/${projectId}/settings`)).json()),
+      fixture: async () =>
+        JSON.stringify(await (await contexts.admin.get(`/api/projects/${projectId}/settings`)).json()),
       call: (c, json) => {
         const { id: _id, code: _code, ...settings } = JSON.parse(json) as Record<string, unknown>;
         void _id;
@@ -197,25 +234,47 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
       },
     },
     "GET /api/projects/[projectId]/pours": { call: (c) => c.get(`/api/projects/${projectId}/pours`) },
-    "POST /api/projects/[projectId]/pours": { call: (c) => c.post(`/api/projects/${projectId}/pours`, { data: pourBody(`Matrix pour ${stamp()}`) }) },
+    "POST /api/projects/[projectId]/pours": {
+      call: (c) => c.post(`/api/projects/${projectId}/pours`, { data: pourBody(`Matrix pour ${stamp()}`) }),
+    },
     "PATCH /api/projects/[projectId]/pours/[pourId]": {
       fixture: throwawayPour,
       call: (c, id) => c.patch(`/api/projects/${projectId}/pours/${id}`, { data: pourBody(`Matrix pour ${id}`) }),
     },
-    "GET /api/projects/[projectId]/pours/[pourId]/tendons": { fixture: demoPourId, call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/tendons`) },
+    "GET /api/projects/[projectId]/pours/[pourId]/tendons": {
+      fixture: demoPourId,
+      call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/tendons`),
+    },
     "POST /api/projects/[projectId]/pours/[pourId]/tendons": {
       fixture: throwawayPour,
       call: (c, id) => c.post(`/api/projects/${projectId}/pours/${id}/tendons`, { data: tendonBody(`M-${stamp()}`) }),
     },
     "POST /api/projects/[projectId]/pours/[pourId]/tendons/import": {
       fixture: throwawayPour,
-      call: (c, id) => c.post(`/api/projects/${projectId}/pours/${id}/tendons/import`, { data: { csv: `${SCHEDULE_HEADER}\nM-${stamp()},monostrand,0.5,1,A,30@2` } }),
+      call: (c, id) =>
+        c.post(`/api/projects/${projectId}/pours/${id}/tendons/import`, {
+          data: { csv: `${SCHEDULE_HEADER}\nM-${stamp()},monostrand,0.5,1,A,30@2` },
+        }),
     },
-    "GET /api/projects/[projectId]/pours/[pourId]/tendons/export": { fixture: demoPourId, call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/tendons/export`) },
-    "GET /api/projects/[projectId]/tendon-template": { call: (c) => c.get(`/api/projects/${projectId}/tendon-template`) },
-    "GET /api/projects/[projectId]/pours/[pourId]/report/pdf": { fixture: demoPourId, call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/report/pdf`) },
-    "GET /api/projects/[projectId]/pours/[pourId]/report/csv": { fixture: demoPourId, call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/report/csv`) },
-    "GET /api/projects/[projectId]/pours/[pourId]/report/signatures": { fixture: demoPourId, call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/report/signatures`) },
+    "GET /api/projects/[projectId]/pours/[pourId]/tendons/export": {
+      fixture: demoPourId,
+      call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/tendons/export`),
+    },
+    "GET /api/projects/[projectId]/tendon-template": {
+      call: (c) => c.get(`/api/projects/${projectId}/tendon-template`),
+    },
+    "GET /api/projects/[projectId]/pours/[pourId]/report/pdf": {
+      fixture: demoPourId,
+      call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/report/pdf`),
+    },
+    "GET /api/projects/[projectId]/pours/[pourId]/report/csv": {
+      fixture: demoPourId,
+      call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/report/csv`),
+    },
+    "GET /api/projects/[projectId]/pours/[pourId]/report/signatures": {
+      fixture: demoPourId,
+      call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/report/signatures`),
+    },
     "POST /api/projects/[projectId]/pours/[pourId]/report/signatures": {
       fixture: throwawayPour,
       call: (c, id) => c.post(`/api/projects/${projectId}/pours/${id}/report/signatures`, { data: SIGNATURE }),
@@ -223,21 +282,36 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     "GET /api/projects/[projectId]/pours/[pourId]/report/signatures/[revision]": {
       fixture: async () => {
         const pourId = await throwawayPour();
-        expect((await contexts.inspector.post(`/api/projects/${projectId}/pours/${pourId}/report/signatures`, { data: SIGNATURE })).status()).toBe(201);
+        expect(
+          (
+            await contexts.inspector.post(`/api/projects/${projectId}/pours/${pourId}/report/signatures`, {
+              data: SIGNATURE,
+            })
+          ).status(),
+        ).toBe(201);
         return pourId;
       },
       call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/report/signatures/1`),
     },
     "GET /api/projects/[projectId]/share-links": { call: (c) => c.get(`/api/projects/${projectId}/share-links`) },
     "POST /api/projects/[projectId]/share-links": {
-      call: (c) => c.post(`/api/projects/${projectId}/share-links`, { data: { label: "Matrix general contractor", days: 1 } }),
+      call: (c) =>
+        c.post(`/api/projects/${projectId}/share-links`, { data: { label: "Matrix general contractor", days: 1 } }),
     },
-    "DELETE /api/projects/[projectId]/share-links/[linkId]": { call: (c) => c.delete(`/api/projects/${projectId}/share-links/${MISSING_ID}`) },
-    "GET /api/share/[token]/reports/[pourId]/[revision]": { call: (c) => c.get(`/api/share/${BOGUS_TOKEN}/reports/${MISSING_ID}/1`) },
-    "POST /api/report-verifications": { call: (c) => c.post("/api/report-verifications", { data: { sha256: "0".repeat(64) } }) },
+    "DELETE /api/projects/[projectId]/share-links/[linkId]": {
+      call: (c) => c.delete(`/api/projects/${projectId}/share-links/${MISSING_ID}`),
+    },
+    "GET /api/share/[token]/reports/[pourId]/[revision]": {
+      call: (c) => c.get(`/api/share/${BOGUS_TOKEN}/reports/${MISSING_ID}/1`),
+    },
+    "POST /api/report-verifications": {
+      call: (c) => c.post("/api/report-verifications", { data: { sha256: "0".repeat(64) } }),
+    },
     "GET /api/projects/[projectId]/tendons/[tendonId]": {
       fixture: async () => {
-        const list = (await (await contexts.admin.get(`/api/projects/${projectId}/pours/${await demoPourId()}/tendons`)).json()) as { tendons: { id: string }[] };
+        const list = (await (
+          await contexts.admin.get(`/api/projects/${projectId}/pours/${await demoPourId()}/tendons`)
+        ).json()) as { tendons: { id: string }[] };
         return list.tendons[0]!.id;
       },
       call: (c, id) => c.get(`/api/projects/${projectId}/tendons/${id}`),
@@ -246,26 +320,53 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     "POST /api/projects/[projectId]/strand-lots": {
       call: (c) =>
         c.post(`/api/projects/${projectId}/strand-lots`, {
-          data: { lotNumber: `M-${stamp()}`, strandSize: "0.5 in", areaMm2: 99, modulusMPa: 197_000, breakingLoadN: 186_000, certificateAttachmentId: null },
+          data: {
+            lotNumber: `M-${stamp()}`,
+            strandSize: "0.5 in",
+            areaMm2: 99,
+            modulusMPa: 197_000,
+            breakingLoadN: 186_000,
+            certificateAttachmentId: null,
+          },
         }),
     },
     "GET /api/projects/[projectId]/equipment-sets": { call: (c) => c.get(`/api/projects/${projectId}/equipment-sets`) },
     "POST /api/projects/[projectId]/equipment-sets": {
       call: (c) =>
         c.post(`/api/projects/${projectId}/equipment-sets`, {
-          data: { name: `Matrix set ${stamp()}`, jackSerial: "MJ-1", gaugeSerial: "MG-1", pumpSerial: null, jackGripMm: null, maxForceN: null },
+          data: {
+            name: `Matrix set ${stamp()}`,
+            jackSerial: "MJ-1",
+            gaugeSerial: "MG-1",
+            pumpSerial: null,
+            jackGripMm: null,
+            maxForceN: null,
+          },
         }),
     },
     "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations": {
       fixture: async () => {
         const res = await contexts.admin.post(`/api/projects/${projectId}/equipment-sets`, {
-          data: { name: `Matrix set ${stamp()}`, jackSerial: "MJ-2", gaugeSerial: "MG-2", pumpSerial: null, jackGripMm: null, maxForceN: null },
+          data: {
+            name: `Matrix set ${stamp()}`,
+            jackSerial: "MJ-2",
+            gaugeSerial: "MG-2",
+            pumpSerial: null,
+            jackGripMm: null,
+            maxForceN: null,
+          },
         });
         return ((await res.json()) as { setId: string }).setId;
       },
       call: (c, id) =>
         c.post(`/api/projects/${projectId}/equipment-sets/${id}/calibrations`, {
-          data: { calibratedOn: "2026-12-01", validUntil: null, points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })), laboratory: null, certificateAttachmentId: null },
+          data: {
+            calibratedOn: "2026-12-01",
+            validUntil: null,
+            points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })),
+            laboratory: null,
+            certificateAttachmentId: null,
+          },
         }),
     },
     "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/retirement": {
@@ -279,27 +380,50 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
         c.post(`/api/projects/${projectId}/equipment-sets/${MISSING_ID}/calibrations/${MISSING_ID}/correction`, {
           data: {
             reason: "Matrix check of who may correct a calibration.",
-            calibration: { calibratedOn: "2026-12-01", validUntil: null, points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })), laboratory: null, certificateAttachmentId: null },
+            calibration: {
+              calibratedOn: "2026-12-01",
+              validUntil: null,
+              points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })),
+              laboratory: null,
+              certificateAttachmentId: null,
+            },
           },
         }),
     },
     "GET /api/projects/[projectId]/flags": { call: (c) => c.get(`/api/projects/${projectId}/flags?status=any_open`) },
     "POST /api/projects/[projectId]/flags/[flagId]/reviews": {
-      call: (c) => c.post(`/api/projects/${projectId}/flags/${MISSING_ID}/reviews`, { data: { kind: "note", body: "Checked the gauge photo." } }),
+      call: (c) =>
+        c.post(`/api/projects/${projectId}/flags/${MISSING_ID}/reviews`, {
+          data: { kind: "note", body: "Checked the gauge photo." },
+        }),
     },
     "POST /api/projects/[projectId]/flags/[flagId]/dispositions": {
       call: (c) =>
         c.post(`/api/projects/${projectId}/flags/${MISSING_ID}/dispositions`, {
-          data: { decision: "accept", reasons: "Within the engineer's allowance.", licenceStatement: "Licensed engineer (matrix)" },
+          data: {
+            decision: "accept",
+            reasons: "Within the engineer's allowance.",
+            licenceStatement: "Licensed engineer (matrix)",
+          },
         }),
     },
     "POST /api/projects/[projectId]/records/[recordId]/corrections": {
       call: (c) =>
-        c.post(`/api/projects/${projectId}/records/${MISSING_ID}/corrections`, { data: { reason: "Copied from the wrong line.", measuredMm: 200 } }),
+        c.post(`/api/projects/${projectId}/records/${MISSING_ID}/corrections`, {
+          data: { reason: "Copied from the wrong line.", measuredMm: 200 },
+        }),
     },
     "POST /api/projects/[projectId]/pours/[pourId]/release": {
       fixture: () => pourIdByName("L3 Pour 1"),
-      call: (c, pourId) => c.post(`/api/projects/${projectId}/pours/${pourId}/release`, { data: { statement: "Matrix check of the release rule.", signerName: "Matrix Engineer", licence: "PE 0000000 (matrix)", confirmed: true } }),
+      call: (c, pourId) =>
+        c.post(`/api/projects/${projectId}/pours/${pourId}/release`, {
+          data: {
+            statement: "Matrix check of the release rule.",
+            signerName: "Matrix Engineer",
+            licence: "PE 0000000 (matrix)",
+            confirmed: true,
+          },
+        }),
     },
     "GET /api/projects/[projectId]/pours/[pourId]/concrete-results": {
       fixture: () => pourIdByName("L3 Pour 1"),
@@ -313,25 +437,43 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     },
     "POST /api/projects/[projectId]/pours/[pourId]/reopen": {
       fixture: () => pourIdByName("L3 Pour 1"),
-      call: (c, pourId) => c.post(`/api/projects/${projectId}/pours/${pourId}/reopen`, { data: { reason: "Matrix check of the reopen rule.", confirmed: true } }),
+      call: (c, pourId) =>
+        c.post(`/api/projects/${projectId}/pours/${pourId}/reopen`, {
+          data: { reason: "Matrix check of the reopen rule.", confirmed: true },
+        }),
     },
     "POST /api/invitations/accept": {
-      call: (c) => c.post("/api/invitations/accept", { data: { token: BOGUS_TOKEN, name: "Nobody", password: "a-long-enough-password" } }),
+      call: (c) =>
+        c.post("/api/invitations/accept", {
+          data: { token: BOGUS_TOKEN, name: "Nobody", password: "a-long-enough-password" },
+        }),
     },
-    "POST /api/password-reset": { call: (c) => c.post("/api/password-reset", { data: { email: "nobody@nowhere.tautline.test" } }) },
+    "POST /api/password-reset": {
+      call: (c) => c.post("/api/password-reset", { data: { email: "nobody@nowhere.tautline.test" } }),
+    },
     "POST /api/password-reset/complete": {
-      call: (c) => c.post("/api/password-reset/complete", { data: { token: BOGUS_TOKEN, password: "a-long-enough-password" } }),
+      call: (c) =>
+        c.post("/api/password-reset/complete", { data: { token: BOGUS_TOKEN, password: "a-long-enough-password" } }),
     },
     "GET /api/field/pours": { call: (c) => c.get("/api/field/pours") },
-    "GET /api/field/pours/[pourId]": { fixture: crewDownloadPourId, call: (c, pourId) => c.get(`/api/field/pours/${pourId}`) },
+    "GET /api/field/pours/[pourId]": {
+      fixture: crewDownloadPourId,
+      call: (c, pourId) => c.get(`/api/field/pours/${pourId}`),
+    },
     // An op whose payload is empty: the crew's answer is 200 with the op rejected, so nothing is written.
     "POST /api/sync/push": {
       call: (c) =>
         c.post("/api/sync/push", {
-          data: { deviceId: "matrix-tablet-01", ops: [{ opId: crypto.randomUUID(), kind: "create", recordId: crypto.randomUUID(), payload: {} }] },
+          data: {
+            deviceId: "matrix-tablet-01",
+            ops: [{ opId: crypto.randomUUID(), kind: "create", recordId: crypto.randomUUID(), payload: {} }],
+          },
         }),
     },
-    "GET /api/sync/pull": { fixture: crewDownloadPourId, call: (c, pourId) => c.get(`/api/sync/pull?cursor=0&pours=${pourId}`) },
+    "GET /api/sync/pull": {
+      fixture: crewDownloadPourId,
+      call: (c, pourId) => c.get(`/api/sync/pull?cursor=0&pours=${pourId}`),
+    },
   };
 
   const ORDER: Caller[] = ["anonymous", "other", "crew", "inspector", "engineer", "admin"];
@@ -381,12 +523,16 @@ test.describe("route handlers refuse cross-site and non-JSON requests", () => {
     const ctx = await apiAs(PEOPLE.admin);
     const me = (await (await ctx.get("/api/me")).json()) as { memberships: { projectId: string }[] };
     const projectId = me.memberships[0]!.projectId;
-    const before = ((await (await ctx.get(`/api/projects/${projectId}/members`)).json()) as { invitations: unknown[] }).invitations.length;
-    const res = await ctx.post(`/api/projects/${projectId}/invitations`, { data: { email: "not-an-address", role: "foreman" } });
+    const before = ((await (await ctx.get(`/api/projects/${projectId}/members`)).json()) as { invitations: unknown[] })
+      .invitations.length;
+    const res = await ctx.post(`/api/projects/${projectId}/invitations`, {
+      data: { email: "not-an-address", role: "foreman" },
+    });
     expect(res.status()).toBe(422);
     const body = (await res.json()) as { error: { fields: Record<string, string[]> } };
     expect(Object.keys(body.error.fields).sort()).toEqual(["email", "role"]);
-    const after = ((await (await ctx.get(`/api/projects/${projectId}/members`)).json()) as { invitations: unknown[] }).invitations.length;
+    const after = ((await (await ctx.get(`/api/projects/${projectId}/members`)).json()) as { invitations: unknown[] })
+      .invitations.length;
     expect(after).toBe(before);
     await ctx.dispose();
   });

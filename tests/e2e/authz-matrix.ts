@@ -43,23 +43,46 @@ export const MATRIX: Record<string, Expected> = {
   "POST /api/projects/[projectId]/invitations/[invitationId]/resend": projectAction(200, ["admin"]),
   "POST /api/projects/[projectId]/uploads": projectAction(201, ["admin"]),
   "POST /api/projects/[projectId]/uploads/[attachmentId]/confirm": projectAction(200, ["admin"]),
-  "GET /api/projects/[projectId]/attachments/[attachmentId]": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
+  "GET /api/projects/[projectId]/attachments/[attachmentId]": projectAction(200, [
+    "admin",
+    "crew",
+    "inspector",
+    "engineer",
+  ]),
   "GET /api/projects/[projectId]/settings": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "PATCH /api/projects/[projectId]/settings": projectAction(200, ["admin"]),
   "POST /api/projects/[projectId]/settings/preview": projectAction(200, ["admin"]),
   "GET /api/projects/[projectId]/pours": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "POST /api/projects/[projectId]/pours": projectAction(201, ["admin"]),
   "PATCH /api/projects/[projectId]/pours/[pourId]": projectAction(200, ["admin"]),
-  "GET /api/projects/[projectId]/pours/[pourId]/tendons": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
+  "GET /api/projects/[projectId]/pours/[pourId]/tendons": projectAction(200, [
+    "admin",
+    "crew",
+    "inspector",
+    "engineer",
+  ]),
   "POST /api/projects/[projectId]/pours/[pourId]/tendons": projectAction(201, ["admin"]),
   "POST /api/projects/[projectId]/pours/[pourId]/tendons/import": projectAction(201, ["admin"]),
-  "GET /api/projects/[projectId]/pours/[pourId]/tendons/export": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
+  "GET /api/projects/[projectId]/pours/[pourId]/tendons/export": projectAction(200, [
+    "admin",
+    "crew",
+    "inspector",
+    "engineer",
+  ]),
   "GET /api/projects/[projectId]/tendon-template": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "GET /api/projects/[projectId]/pours/[pourId]/report/pdf": projectAction(200, ["admin", "inspector", "engineer"]),
   "GET /api/projects/[projectId]/pours/[pourId]/report/csv": projectAction(200, ["admin", "inspector", "engineer"]),
-  "GET /api/projects/[projectId]/pours/[pourId]/report/signatures": projectAction(200, ["admin", "inspector", "engineer"]),
+  "GET /api/projects/[projectId]/pours/[pourId]/report/signatures": projectAction(200, [
+    "admin",
+    "inspector",
+    "engineer",
+  ]),
   "POST /api/projects/[projectId]/pours/[pourId]/report/signatures": projectAction(201, ["inspector"]),
-  "GET /api/projects/[projectId]/pours/[pourId]/report/signatures/[revision]": projectAction(200, ["admin", "inspector", "engineer"]),
+  "GET /api/projects/[projectId]/pours/[pourId]/report/signatures/[revision]": projectAction(200, [
+    "admin",
+    "inspector",
+    "engineer",
+  ]),
   "GET /api/projects/[projectId]/share-links": projectAction(200, ["admin", "inspector", "engineer"]),
   "POST /api/projects/[projectId]/share-links": projectAction(201, ["admin", "inspector", "engineer"]),
   // Revoking a link that does not exist: the roles allowed pass the access check and get 404.
@@ -75,8 +98,12 @@ export const MATRIX: Record<string, Expected> = {
   "POST /api/projects/[projectId]/equipment-sets": projectAction(201, ["admin"]),
   "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations": projectAction(201, ["admin"]),
   // Retiring or correcting a calibration that does not exist: the admin passes the access check and gets 404.
-  "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/retirement": projectAction(404, ["admin"]),
-  "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/correction": projectAction(404, ["admin"]),
+  "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/retirement": projectAction(404, [
+    "admin",
+  ]),
+  "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/correction": projectAction(404, [
+    "admin",
+  ]),
   // Flags, reviews, dispositions and corrections on an id that does not exist: the roles allowed
   // pass the access check and get 404 from the operation; the release is refused by the
   // project's rule (inspector: 403) or by the pour's unstressed tendons (engineer: 409).
@@ -87,7 +114,12 @@ export const MATRIX: Record<string, Expected> = {
   "POST /api/projects/[projectId]/pours/[pourId]/release": { ...projectAction(409, ["engineer"]), inspector: 403 },
   // Concrete results: every member reads them; the inspector and the admin enter them (on a pour
   // id that does not exist, so the allowed roles pass the access check and get 404).
-  "GET /api/projects/[projectId]/pours/[pourId]/concrete-results": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
+  "GET /api/projects/[projectId]/pours/[pourId]/concrete-results": projectAction(200, [
+    "admin",
+    "crew",
+    "inspector",
+    "engineer",
+  ]),
   "POST /api/projects/[projectId]/pours/[pourId]/concrete-results": projectAction(404, ["inspector", "admin"]),
   // Only the engineer reopens; the pour named is not released, so the engineer gets 409.
   "POST /api/projects/[projectId]/pours/[pourId]/reopen": projectAction(409, ["engineer"]),

@@ -30,7 +30,9 @@ test.describe("the demo job, as each person", () => {
     await nav(page, "Field log");
     await expect(page.getByRole("heading", { name: "Field log", level: 1 })).toBeVisible();
     // Last week's pour is released, and the crew can see it.
-    await expect(page.getByTestId("available-pour").filter({ hasText: "L2 Pour 1" }).getByTestId("pour-released")).toBeVisible();
+    await expect(
+      page.getByTestId("available-pour").filter({ hasText: "L2 Pour 1" }).getByTestId("pour-released"),
+    ).toBeVisible();
     await screenshot(page, "tour-crew-field");
   });
 

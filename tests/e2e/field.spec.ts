@@ -9,7 +9,10 @@ import { PEOPLE, signInWithPassword } from "./people";
  * watch them go, and check PostgreSQL holds each exactly once.
  */
 
-test("a crew logs a pour with no signal and every record reaches PostgreSQL exactly once", async ({ page, context }) => {
+test("a crew logs a pour with no signal and every record reaches PostgreSQL exactly once", async ({
+  page,
+  context,
+}) => {
   test.setTimeout(120_000);
   const p = await plan();
 
@@ -33,7 +36,8 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
   await expect(page.getByTestId("connection")).toHaveText("No signal");
   // The demo's L3 Pour 1 has no lab results yet: the tablet says so before the first pull.
   await expect(page.getByTestId("concrete-gate-field")).toContainText("Concrete not confirmed: do not stress");
-  for (const [i, t] of p.tendons.entries()) await logTendon(page, t, p.finalPsi, i === 0 ? "field-form-offline-landscape" : undefined, i === 0);
+  for (const [i, t] of p.tendons.entries())
+    await logTendon(page, t, p.finalPsi, i === 0 ? "field-form-offline-landscape" : undefined, i === 0);
   await expect(page.getByTestId("pending-count")).toContainText("3 records");
   await expect(page.getByRole("alert").filter({ hasText: "Out of band" })).toHaveCount(0); // the last one logged is in band
   await expect(page.getByTestId("pour-progress")).toContainText("50 tendons · 3 stressed (1 flagged)");
@@ -43,7 +47,9 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
   await page.reload();
   await expect(page.getByTestId("pending-count")).toContainText("3 records");
   await page.getByLabel("Find a tendon by tag").fill(p.tendons[1]!.tag);
-  await expect(page.getByTestId("tendon-row").filter({ hasText: p.tendons[1]!.tag }).locator("[data-state]")).toHaveText("flagged");
+  await expect(
+    page.getByTestId("tendon-row").filter({ hasText: p.tendons[1]!.tag }).locator("[data-state]"),
+  ).toHaveText("flagged");
   await page.getByTestId("tendon-row").filter({ hasText: p.tendons[1]!.tag }).click();
   await expect(page.getByTestId("verdict")).toContainText("Long");
   await expect(page.getByTestId("judged-by")).toHaveText(/on this tablet until sent/i);
@@ -79,9 +85,10 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
       [p.tendons.map((t) => t.id)],
     );
     expect(rows.map((r) => r.n)).toEqual([1, 1, 1]);
-    const ops = await client.query<{ n: number }>("select count(*)::int as n from applied_ops where record_id in (select id from records where tendon_id = any($1::uuid[]))", [
-      p.tendons.map((t) => t.id),
-    ]);
+    const ops = await client.query<{ n: number }>(
+      "select count(*)::int as n from applied_ops where record_id in (select id from records where tendon_id = any($1::uuid[]))",
+      [p.tendons.map((t) => t.id)],
+    );
     expect(ops.rows[0]!.n).toBe(3);
     // The gauge photo follows its record: uploaded, checked by content and stored once.
     await expect
@@ -101,7 +108,10 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
   }
 });
 
-test("a tablet whose sign-in ran out keeps what it holds and sends it once the crew signs in again", async ({ page, context }) => {
+test("a tablet whose sign-in ran out keeps what it holds and sends it once the crew signs in again", async ({
+  page,
+  context,
+}) => {
   test.setTimeout(120_000);
   const p = await plan();
   const t = p.tendons[0]!;
@@ -128,7 +138,8 @@ test("a tablet whose sign-in ran out keeps what it holds and sends it once the c
     const client = new pg.Client({ connectionString: process.env.DATABASE_URL });
     await client.connect();
     try {
-      return (await client.query<{ n: number }>("select count(*)::int as n from records where tendon_id = $1", [t.id])).rows[0]!.n;
+      return (await client.query<{ n: number }>("select count(*)::int as n from records where tendon_id = $1", [t.id]))
+        .rows[0]!.n;
     } finally {
       await client.end();
     }

@@ -35,7 +35,10 @@ interface Fixture {
 async function makeFixture(): Promise<Fixture> {
   const [project] = await queryDemo<Record<string, never>>("select * from projects where code = 'AYP'");
   const p = project as unknown as Record<string, unknown>;
-  const [template] = await queryDemo<Record<string, unknown>>("select * from tendons where project_id = $1 and tag = '2-1-U01'", [p.id]);
+  const [template] = await queryDemo<Record<string, unknown>>(
+    "select * from tendons where project_id = $1 and tag = '2-1-U01'",
+    [p.id],
+  );
   const [pour] = await queryDemo<{ id: string }>(
     "insert into pours (project_id, name, level, concrete_strength_mpa, concrete_confirmed_at, planned_stressing_date) values ($1, $2, 'Level 2', 25, now(), current_date) returning id",
     [p.id, POUR],
@@ -43,9 +46,23 @@ async function makeFixture(): Promise<Fixture> {
   const [tendon] = await queryDemo<{ id: string }>(
     `insert into tendons (project_id, pour_id, tag, kind, strand_size, strand_count, segments, ends, jack_grip_mm, strand_lot_id)
      values ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10) returning id`,
-    [p.id, pour!.id, TAG, template!.kind, template!.strand_size, template!.strand_count, JSON.stringify(template!.segments), template!.ends, template!.jack_grip_mm, template!.strand_lot_id],
+    [
+      p.id,
+      pour!.id,
+      TAG,
+      template!.kind,
+      template!.strand_size,
+      template!.strand_count,
+      JSON.stringify(template!.segments),
+      template!.ends,
+      template!.jack_grip_mm,
+      template!.strand_lot_id,
+    ],
   );
-  const [lot] = await queryDemo<{ area_mm2: number; modulus_mpa: number; breaking_load_n: number }>("select * from strand_lots where id = $1", [template!.strand_lot_id]);
+  const [lot] = await queryDemo<{ area_mm2: number; modulus_mpa: number; breaking_load_n: number }>(
+    "select * from strand_lots where id = $1",
+    [template!.strand_lot_id],
+  );
   const [set] = await queryDemo<{ id: string; calibration_id: string; slope_n_per_mpa: number; intercept_n: number }>(
     `select s.id, c.id as calibration_id, c.slope_n_per_mpa, c.intercept_n from equipment_sets s join calibrations c on c.equipment_set_id = s.id
      where s.project_id = $1 order by s.name limit 1`,
@@ -85,7 +102,9 @@ async function pushRecord(crew: APIRequestContext, fx: Fixture, factor: number, 
   const predicted = predictTendon({ project: fx.project, tendon: fx.tendon, lot: fx.lot });
   const psi = String(Math.floor((pressureForForce(fx.line, predicted.jackingForceN) * PSI_PER_MPA) / 50) * 50);
   const after = formatLength(2 * 25.4 + predicted.predictedMm * factor, "1/8 in").replace(/ in$/, "");
-  const measuredMm = parseLength(after, { field: "marksAfter", system: "US", defaultUnit: "in" }) - parseLength("2", { field: "marksBefore", system: "US", defaultUnit: "in" });
+  const measuredMm =
+    parseLength(after, { field: "marksAfter", system: "US", defaultUnit: "in" }) -
+    parseLength("2", { field: "marksBefore", system: "US", defaultUnit: "in" });
   const id = uuidv7();
   const payload = {
     projectId: fx.projectId,
@@ -102,7 +121,14 @@ async function pushRecord(crew: APIRequestContext, fx: Fixture, factor: number, 
     initialPressureMPa: null,
     finalPressureMPa: parsePressure(psi, { field: "finalPressure", system: "SI", defaultUnit: "psi" }),
     readingMethod: "marks",
-    entered: { units: { length: "in", pressure: "psi" }, initialPressure: null, finalPressure: psi, marks: { before: "2", after }, strokes: null, seating: null },
+    entered: {
+      units: { length: "in", pressure: "psi" },
+      initialPressure: null,
+      finalPressure: psi,
+      marks: { before: "2", after },
+      strokes: null,
+      seating: null,
+    },
     measuredMm,
     seatingMm: null,
     wireBreaks: 0,
@@ -111,7 +137,9 @@ async function pushRecord(crew: APIRequestContext, fx: Fixture, factor: number, 
     deviceTimeZone: "America/Chicago",
     authorUserId: fx.crewId,
   };
-  const res = await crew.post("/api/sync/push", { data: { deviceId: "flow-check-tablet", ops: [{ opId: randomUUID(), kind: "create", recordId: id, payload }] } });
+  const res = await crew.post("/api/sync/push", {
+    data: { deviceId: "flow-check-tablet", ops: [{ opId: randomUUID(), kind: "create", recordId: id, payload }] },
+  });
   expect(res.status()).toBe(200);
   const body = (await res.json()) as { results: { status: string; error?: unknown }[] };
   expect(body.results[0], JSON.stringify(body)).toMatchObject({ status: "applied" });
@@ -166,7 +194,9 @@ test("an out-of-band tendon is flagged, mailed, reviewed, restressed and only th
   await expect(inspector.locator("[data-verdict=short]").first()).toBeVisible();
   await expect(inspector.getByRole("note", { name: "Caution" }).first()).toBeVisible();
   await inspector.getByLabel("Send to the engineer").check();
-  await inspector.getByLabel("Note for the engineer").fill("Mark re-checked with a steel tape; the reading stands. Please decide.");
+  await inspector
+    .getByLabel("Note for the engineer")
+    .fill("Mark re-checked with a steel tape; the reading stands. Please decide.");
   await inspector.getByRole("button", { name: "Add to the trail" }).click();
   await expect(inspector.getByText("Out of band · With the engineer").first()).toBeVisible();
   await screenshot(inspector, "flag-inspector");
@@ -194,7 +224,9 @@ test("an out-of-band tendon is flagged, mailed, reviewed, restressed and only th
   await engineer.getByRole("button", { name: "Record the disposition" }).click();
   await expect(engineer.locator("#reasons-error")).toContainText("at least 10 characters");
   await engineer.getByLabel("Restress", { exact: true }).check();
-  await engineer.getByLabel("Reasons").fill("Short by 12 %: restress to the same gauge pressure and read the mark again before the tail is cut.");
+  await engineer
+    .getByLabel("Reasons")
+    .fill("Short by 12 %: restress to the same gauge pressure and read the mark again before the tail is cut.");
   await engineer.getByLabel(/Licence statement/).fill("Licensed professional engineer (demo licence, invented)");
   await engineer.getByRole("button", { name: "Record the disposition" }).click();
   await expect(engineer.getByText("Disposition: Restress")).toBeVisible();
@@ -203,12 +235,24 @@ test("an out-of-band tendon is flagged, mailed, reviewed, restressed and only th
   const card = engineer.locator(`[data-pour="${POUR}"]`);
   await expect(card).toContainText("1 with open flags");
   await expect(card).toContainText("Cannot be released yet.");
-  const refused = await (await apiAs(PEOPLE.engineer)).post(`/api/projects/${fx.projectId}/pours/${fx.pourId}/release`, { data: { statement: "Trying too early, should be refused.", signerName: "Priya Raman", licence: "PE 000000 (invented)", confirmed: true } });
+  const refused = await (
+    await apiAs(PEOPLE.engineer)
+  ).post(`/api/projects/${fx.projectId}/pours/${fx.pourId}/release`, {
+    data: {
+      statement: "Trying too early, should be refused.",
+      signerName: "Priya Raman",
+      licence: "PE 000000 (invented)",
+      confirmed: true,
+    },
+  });
   expect(refused.status()).toBe(409);
 
   // 5. The crew restresses; the new record comes back in band and closes the flag.
   await pushRecord(crew, fx, 1.0, 0);
-  const [flag] = await queryDemo<{ status: string; close_reason: string }>("select status, close_reason from flags where tendon_id = $1", [fx.tendonId]);
+  const [flag] = await queryDemo<{ status: string; close_reason: string }>(
+    "select status, close_reason from flags where tendon_id = $1",
+    [fx.tendonId],
+  );
   expect(flag).toMatchObject({ status: "closed" });
   expect(flag!.close_reason).toMatch(/Restressed as ordered by disposition/);
 

@@ -1,7 +1,9 @@
 import { expect, test } from "@playwright/test";
 import { screenshot, watchForeignRequests } from "./support";
 
-test("the landing page says what Tautline is, loads only from this machine, and shows the caution", async ({ page }) => {
+test("the landing page says what Tautline is, loads only from this machine, and shows the caution", async ({
+  page,
+}) => {
   const foreign = watchForeignRequests(page);
   const requests: string[] = [];
   page.on("request", (r) => requests.push(r.url()));

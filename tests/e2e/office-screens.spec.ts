@@ -22,7 +22,10 @@ async function insideViewport(page: Page, selector: string) {
   expect(box, `${selector} is on the page`).not.toBeNull();
   expect(box!.y, `${selector} starts below the top`).toBeGreaterThanOrEqual(0);
   expect(box!.x).toBeGreaterThanOrEqual(0);
-  expect(box!.y + box!.height, `${selector} ends at ${box!.y + box!.height} px, the window at ${size.height}`).toBeLessThanOrEqual(size.height);
+  expect(
+    box!.y + box!.height,
+    `${selector} ends at ${box!.y + box!.height} px, the window at ${size.height}`,
+  ).toBeLessThanOrEqual(size.height);
   expect(box!.x + box!.width).toBeLessThanOrEqual(size.width);
 }
 
@@ -75,7 +78,9 @@ test.describe("the engineer's flag page", () => {
     await signInWithPassword(page, PEOPLE.engineer);
     await page.waitForURL(/\/home$/);
     await page.goto(`/projects/${projectId}/tendons/${tendon!.id}/flags?flag=00000000-0000-4000-8000-000000000000`);
-    await expect(page.getByRole("status").filter({ hasText: "The flag in the link is not on this tendon" })).toBeVisible();
+    await expect(
+      page.getByRole("status").filter({ hasText: "The flag in the link is not on this tendon" }),
+    ).toBeVisible();
   });
 });
 
@@ -83,9 +88,21 @@ test("a role change that gives engineer rights, and a removal, ask once and say 
   const projectId = await demoProjectId();
   const email = `temp-${stamp}@demo.tautline.test`;
   const name = `Robin Test ${stamp}`;
-  const [user] = await queryDemo<{ id: string }>("insert into users (email, name) values ($1, $2) returning id", [email, name]);
-  await queryDemo("insert into project_members (project_id, user_id, role) values ($1, $2, 'crew')", [projectId, user!.id]);
-  const role = async () => (await queryDemo<{ role: string }>("select role from project_members where project_id = $1 and user_id = $2", [projectId, user!.id]))[0]?.role;
+  const [user] = await queryDemo<{ id: string }>("insert into users (email, name) values ($1, $2) returning id", [
+    email,
+    name,
+  ]);
+  await queryDemo("insert into project_members (project_id, user_id, role) values ($1, $2, 'crew')", [
+    projectId,
+    user!.id,
+  ]);
+  const role = async () =>
+    (
+      await queryDemo<{ role: string }>("select role from project_members where project_id = $1 and user_id = $2", [
+        projectId,
+        user!.id,
+      ])
+    )[0]?.role;
 
   await signInWithPassword(page, PEOPLE.admin);
   await page.waitForURL(/\/home$/);
@@ -161,7 +178,9 @@ test("a missing or foreign pour, tendon or project answers 404 and keeps the nav
     "insert into pours (project_id, name, level) values ($1, $2, 'Level 1') returning id",
     [qhm, `Other job ${stamp}`],
   );
-  const [own] = await queryDemo<{ id: string }>("select id from pours where project_id = $1 order by name limit 1", [ayp]);
+  const [own] = await queryDemo<{ id: string }>("select id from pours where project_id = $1 order by name limit 1", [
+    ayp,
+  ]);
   await signInWithPassword(page, PEOPLE.engineer);
   await page.waitForURL(/\/home$/);
 

@@ -18,7 +18,12 @@ test("an admin cannot release a pour, and the pour form offers no status", async
   expect((await pushEndA(crew, fx, fx.tendons[0]!.id, 1.0)).result).toMatchObject({ status: "applied" });
   const admin = await apiAs(PEOPLE.admin);
   const refused = await admin.post(`/api/projects/${fx.projectId}/pours/${fx.pourId}/release`, {
-    data: { statement: "The admin tries to release this pour.", signerName: "Site Admin", licence: "none (admin)", confirmed: true },
+    data: {
+      statement: "The admin tries to release this pour.",
+      signerName: "Site Admin",
+      licence: "none (admin)",
+      confirmed: true,
+    },
   });
   expect(refused.status()).toBe(403);
   const status = await admin.patch(`/api/projects/${fx.projectId}/pours/${fx.pourId}`, {

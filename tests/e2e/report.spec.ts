@@ -49,7 +49,10 @@ test("the engineer reads a pour's insight and downloads its stressing report", a
   expect(csv.headers()["content-disposition"]).toMatch(/filename="AYP-L2-Pour-1-stressing-report\.csv"/);
   expect(await csv.text()).toMatch(/^Project,Pour,Tendon,/);
 
-  const unknown = await page.request.get(pdfLink && `/api/projects/${page.url().split("/projects/")[1]!.split("/")[0]}/pours/00000000-0000-4000-8000-000000000000/report/csv`);
+  const unknown = await page.request.get(
+    pdfLink &&
+      `/api/projects/${page.url().split("/projects/")[1]!.split("/")[0]}/pours/00000000-0000-4000-8000-000000000000/report/csv`,
+  );
   expect(unknown.status()).toBe(404);
 
   // The browser's own download through the button carries the same file name.
@@ -57,7 +60,9 @@ test("the engineer reads a pour's insight and downloads its stressing report", a
   expect(download.suggestedFilename()).toBe("AYP-L2-Pour-1-stressing-report.csv");
 });
 
-test("the crew sees the insight but no report buttons and may not download it; an unknown pour is not found", async ({ page }) => {
+test("the crew sees the insight but no report buttons and may not download it; an unknown pour is not found", async ({
+  page,
+}) => {
   const pourId = await pourIdByName("L2 Pour 1");
   const [project] = await queryDemo<{ id: string }>("select id from projects where code = 'AYP'");
   await signInWithPassword(page, PEOPLE.crew);

@@ -8,7 +8,8 @@ const stamp = String(Date.now()).slice(-7);
 const POUR = `E2E Pour ${stamp}`;
 const LOT = `E2E-${stamp}`;
 const SET = `E2E set ${stamp}`;
-const HEADER = "tag,type,strand size [in],strands,ends,segments [ft@deg],jack grip [in],shop elongation [in],strand lot";
+const HEADER =
+  "tag,type,strand size [in],strands,ends,segments [ft@deg],jack grip [in],shop elongation [in],strand lot";
 const CERTIFICATE = Buffer.from("%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n");
 
 function schedule(rows: number): string {
@@ -20,7 +21,9 @@ function schedule(rows: number): string {
   return [HEADER, ...lines].join("\n");
 }
 
-test("an admin sets up a pour, imports its schedule, adds a strand lot and a calibrated equipment set, and sees the target gauge pressure", async ({ page }) => {
+test("an admin sets up a pour, imports its schedule, adds a strand lot and a calibrated equipment set, and sees the target gauge pressure", async ({
+  page,
+}) => {
   test.setTimeout(120_000);
   await signInWithPassword(page, PEOPLE.admin);
   await expect(page).toHaveURL(/\/home$/);
@@ -52,7 +55,10 @@ test("an admin sets up a pour, imports its schedule, adds a strand lot and a cal
   await expect(page.getByText("Settings saved.")).toBeVisible();
 
   // A pour, then its schedule: a bad file first (nothing imported), then the good one.
-  await page.getByRole("navigation", { name: "Project setup" }).getByRole("link", { name: "Pours and tendons" }).click();
+  await page
+    .getByRole("navigation", { name: "Project setup" })
+    .getByRole("link", { name: "Pours and tendons" })
+    .click();
   await page.getByLabel("Name, as drawn").fill(POUR);
   await page.getByLabel("Level").fill("Level 5");
   await page.getByLabel("Planned stressing").fill("2027-02-01");
@@ -63,7 +69,9 @@ test("an admin sets up a pour, imports its schedule, adds a strand lot and a cal
   await expect(page.getByText("This pour has no tendons yet.")).toBeVisible();
 
   const bad = `${HEADER}\nB1,monostrand,0.5,1,A,15@1.35,18,,\nB1,monostrand,0.7,1,A,15@1.35,18,,\n=CMD(),monostrand,0.5,1,A,15@1.35,,,`;
-  await page.getByLabel("Schedule CSV").setInputFiles({ name: "bad.csv", mimeType: "text/csv", buffer: Buffer.from(bad) });
+  await page
+    .getByLabel("Schedule CSV")
+    .setInputFiles({ name: "bad.csv", mimeType: "text/csv", buffer: Buffer.from(bad) });
   const alert = page.getByRole("alert").filter({ hasText: "nothing was imported" });
   await expect(alert).toBeVisible();
   await expect(alert).toContainText("line 3 · tag");
@@ -71,7 +79,9 @@ test("an admin sets up a pour, imports its schedule, adds a strand lot and a cal
   await expect(alert).toContainText("line 4 · tag");
   await screenshot(page, "setup-import-errors");
 
-  await page.getByLabel("Schedule CSV").setInputFiles({ name: "pour5.csv", mimeType: "text/csv", buffer: Buffer.from(schedule(220)) });
+  await page
+    .getByLabel("Schedule CSV")
+    .setInputFiles({ name: "pour5.csv", mimeType: "text/csv", buffer: Buffer.from(schedule(220)) });
   await expect(page.getByText("220 tendons imported from pour5.csv.")).toBeVisible();
   await expect(page.getByRole("heading", { name: "Tendons (220)" })).toBeVisible();
   // Filter and sort live in the URL.
@@ -90,14 +100,18 @@ test("an admin sets up a pour, imports its schedule, adds a strand lot and a cal
   await page.getByLabel("Area, in²").fill("0.1545");
   await page.getByLabel("Modulus, ksi").fill("28700");
   await page.getByLabel("Breaking load, kip").fill("42.1");
-  await page.getByLabel("Mill certificate file").setInputFiles({ name: `${LOT}.pdf`, mimeType: "application/pdf", buffer: CERTIFICATE });
+  await page
+    .getByLabel("Mill certificate file")
+    .setInputFiles({ name: `${LOT}.pdf`, mimeType: "application/pdf", buffer: CERTIFICATE });
   await expect(page.getByText(`Uploaded and checked: ${LOT}.pdf.`)).toBeVisible();
   await page.getByRole("button", { name: "Register lot" }).click();
   await expect(page.getByText(`Lot ${LOT} registered.`)).toBeVisible();
   const lotRow = page.locator("tr", { hasText: LOT });
   await expect(lotRow.getByRole("link", { name: `${LOT}.pdf` })).toBeVisible();
   await screenshot(page, "setup-strand-lots");
-  const download = await page.request.get((await lotRow.getByRole("link", { name: `${LOT}.pdf` }).getAttribute("href"))!);
+  const download = await page.request.get(
+    (await lotRow.getByRole("link", { name: `${LOT}.pdf` }).getAttribute("href"))!,
+  );
   expect(download.status()).toBe(200);
   expect(download.headers()["content-disposition"]).toContain("attachment");
   expect((await download.body()).equals(CERTIFICATE)).toBe(true);
@@ -113,8 +127,12 @@ test("an admin sets up a pour, imports its schedule, adds a strand lot and a cal
   const today = new Date().toISOString().slice(0, 10);
   await page.getByLabel("Calibrated on").fill(today);
   // 1000 psi steps at 5.9 kip per 1000 psi, less 0.2 kip: an invented line for the test.
-  await page.getByLabel(/Calibration points/).fill([1, 2, 3, 4, 5, 6].map((k) => `${k * 1000}, ${(5.9 * k - 0.2).toFixed(2)}`).join("\n"));
-  await page.getByLabel("Calibration certificate file").setInputFiles({ name: "cal.pdf", mimeType: "application/pdf", buffer: CERTIFICATE });
+  await page
+    .getByLabel(/Calibration points/)
+    .fill([1, 2, 3, 4, 5, 6].map((k) => `${k * 1000}, ${(5.9 * k - 0.2).toFixed(2)}`).join("\n"));
+  await page
+    .getByLabel("Calibration certificate file")
+    .setInputFiles({ name: "cal.pdf", mimeType: "application/pdf", buffer: CERTIFICATE });
   await expect(page.getByText("Uploaded and checked: cal.pdf.")).toBeVisible();
   await page.getByRole("button", { name: "Save calibration" }).click();
   await expect(page.getByText(/Calibration saved: r² = 1\.00000/)).toBeVisible();
@@ -140,11 +158,17 @@ test("an admin sets up a pour, imports its schedule, adds a strand lot and a cal
 test("the crew can read a tendon but not reach the setup screens", async ({ page }) => {
   await signInWithPassword(page, PEOPLE.crew);
   await expect(page).toHaveURL(/\/home$/);
-  const me = (await (await page.request.get("/api/me")).json()) as { memberships: { projectId: string; projectCode: string }[] };
+  const me = (await (await page.request.get("/api/me")).json()) as {
+    memberships: { projectId: string; projectCode: string }[];
+  };
   const projectId = me.memberships.find((m) => m.projectCode === "AYP")!.projectId;
   const res = await page.goto(`/projects/${projectId}/pours`);
   expect(res?.status()).toBe(404);
-  const pours = (await (await page.request.get(`/api/projects/${projectId}/pours`)).json()) as { pours: { id: string }[] };
-  const post = await page.request.post(`/api/projects/${projectId}/pours/${pours.pours[0]!.id}/tendons/import`, { data: { csv: `${HEADER}\nX,monostrand,0.5,1,A,1@0,,,` } });
+  const pours = (await (await page.request.get(`/api/projects/${projectId}/pours`)).json()) as {
+    pours: { id: string }[];
+  };
+  const post = await page.request.post(`/api/projects/${projectId}/pours/${pours.pours[0]!.id}/tendons/import`, {
+    data: { csv: `${HEADER}\nX,monostrand,0.5,1,A,1@0,,,` },
+  });
   expect(post.status()).toBe(403);
 });

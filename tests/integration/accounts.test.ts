@@ -20,7 +20,10 @@ let admin: { id: string; name: string };
 
 async function mailTo(address: string): Promise<{ text: string; subject: string }> {
   for (let i = 0; i < 40; i++) {
-    const list = (await (await fetch(`${INBOX}/api/messages?to=${encodeURIComponent(address)}`)).json()) as { text: string; subject: string }[];
+    const list = (await (await fetch(`${INBOX}/api/messages?to=${encodeURIComponent(address)}`)).json()) as {
+      text: string;
+      subject: string;
+    }[];
     const last = list.at(-1);
     if (last) return last;
     await new Promise((r) => setTimeout(r, 100));
@@ -33,7 +36,11 @@ beforeAll(async () => {
   t = await createTestDatabase({ migrate: true });
   await seedDemo(t.db);
   projectId = (await t.db.selectFrom("projects").select("id").where("code", "=", "AYP").executeTakeFirstOrThrow()).id;
-  admin = await t.db.selectFrom("users").select(["id", "name"]).where("email", "=", "admin@demo.tautline.test").executeTakeFirstOrThrow();
+  admin = await t.db
+    .selectFrom("users")
+    .select(["id", "name"])
+    .where("email", "=", "admin@demo.tautline.test")
+    .executeTakeFirstOrThrow();
 });
 afterAll(async () => {
   await t.drop();
@@ -46,12 +53,24 @@ describe("invitations", () => {
     const mail = await mailTo(email);
     expect(mail.subject).toBe("You are invited to Alder Yard Parking on Tautline");
     const token = tokenFrom(mail.text, "/invite/");
-    const row = await t.db.selectFrom("invitations").select("token_hash").where("id", "=", invitationId).executeTakeFirstOrThrow();
+    const row = await t.db
+      .selectFrom("invitations")
+      .select("token_hash")
+      .where("id", "=", invitationId)
+      .executeTakeFirstOrThrow();
     expect(row.token_hash).toBe(hashToken(token));
     expect(row.token_hash).not.toContain(token);
 
-    expect(await previewInvitation(t.db, token)).toEqual({ email, role: "inspector", projectName: "Alder Yard Parking", hasAccount: false });
-    await expect(acceptInvitation(t.db, { token })).rejects.toMatchObject({ code: "INVALID_INPUT", fields: { name: expect.any(Array), password: expect.any(Array) } });
+    expect(await previewInvitation(t.db, token)).toEqual({
+      email,
+      role: "inspector",
+      projectName: "Alder Yard Parking",
+      hasAccount: false,
+    });
+    await expect(acceptInvitation(t.db, { token })).rejects.toMatchObject({
+      code: "INVALID_INPUT",
+      fields: { name: expect.any(Array), password: expect.any(Array) },
+    });
     // The failed attempt wrote nothing: the invitation is still open.
     expect(await previewInvitation(t.db, token)).toMatchObject({ email });
 
@@ -59,11 +78,15 @@ describe("invitations", () => {
     expect(accepted).toMatchObject({ email, newAccount: true, projectId });
     const { members } = await listMembers(t.db, projectId);
     expect(members.find((m) => m.email === email)?.role).toBe("inspector");
-    await expect(acceptInvitation(t.db, { token, name: "Again", password: "a-long-enough-password" })).rejects.toMatchObject({ code: "GONE" });
+    await expect(
+      acceptInvitation(t.db, { token, name: "Again", password: "a-long-enough-password" }),
+    ).rejects.toMatchObject({ code: "GONE" });
   });
 
   it("refuse an address that is already on the project", async () => {
-    await expect(inviteMember(t.db, { projectId, email: "crew@demo.tautline.test", role: "crew", invitedBy: admin })).rejects.toMatchObject({
+    await expect(
+      inviteMember(t.db, { projectId, email: "crew@demo.tautline.test", role: "crew", invitedBy: admin }),
+    ).rejects.toMatchObject({
       code: "CONFLICT",
     });
   });
@@ -74,25 +97,37 @@ describe("invitations", () => {
     const token = tokenFrom((await mailTo(email)).text, "/invite/");
     await revokeInvitation(t.db, { projectId, invitationId, by: admin.id });
     await expect(previewInvitation(t.db, token)).rejects.toBeInstanceOf(AppError);
-    await expect(revokeInvitation(t.db, { projectId, invitationId, by: admin.id })).rejects.toMatchObject({ code: "NOT_FOUND" });
+    await expect(revokeInvitation(t.db, { projectId, invitationId, by: admin.id })).rejects.toMatchObject({
+      code: "NOT_FOUND",
+    });
   });
 
   it("cannot be revoked through another project's id", async () => {
     const email = `scoped-${Date.now()}@demo.tautline.test`;
     const { invitationId } = await inviteMember(t.db, { projectId, email, role: "crew", invitedBy: admin });
     const other = await t.db.selectFrom("projects").select("id").where("code", "=", "QHM").executeTakeFirstOrThrow();
-    await expect(revokeInvitation(t.db, { projectId: other.id, invitationId, by: admin.id })).rejects.toMatchObject({ code: "NOT_FOUND" });
+    await expect(revokeInvitation(t.db, { projectId: other.id, invitationId, by: admin.id })).rejects.toMatchObject({
+      code: "NOT_FOUND",
+    });
   });
 });
 
 describe("members", () => {
   it("keep at least one admin on a project", async () => {
-    await expect(changeMemberRole(t.db, { projectId, userId: admin.id, role: "crew", by: admin.id })).rejects.toMatchObject({ code: "CONFLICT" });
-    await expect(removeMember(t.db, { projectId, userId: admin.id, by: admin.id })).rejects.toMatchObject({ code: "CONFLICT" });
+    await expect(
+      changeMemberRole(t.db, { projectId, userId: admin.id, role: "crew", by: admin.id }),
+    ).rejects.toMatchObject({ code: "CONFLICT" });
+    await expect(removeMember(t.db, { projectId, userId: admin.id, by: admin.id })).rejects.toMatchObject({
+      code: "CONFLICT",
+    });
   });
 
   it("change role and removal are written to the audit trail", async () => {
-    const crew = await t.db.selectFrom("users").select("id").where("email", "=", "crew@demo.tautline.test").executeTakeFirstOrThrow();
+    const crew = await t.db
+      .selectFrom("users")
+      .select("id")
+      .where("email", "=", "crew@demo.tautline.test")
+      .executeTakeFirstOrThrow();
     await changeMemberRole(t.db, { projectId, userId: crew.id, role: "inspector", by: admin.id });
     await changeMemberRole(t.db, { projectId, userId: crew.id, role: "crew", by: admin.id });
     const events = await t.db
@@ -116,9 +151,17 @@ describe("password reset", () => {
 
     await requestPasswordReset(t.db, { email: "engineer@demo.tautline.test", ip: "127.0.0.1" });
     const token = tokenFrom((await mailTo("engineer@demo.tautline.test")).text, "/reset-password/");
-    const before = await t.db.selectFrom("users").select("password_hash").where("email", "=", "engineer@demo.tautline.test").executeTakeFirstOrThrow();
+    const before = await t.db
+      .selectFrom("users")
+      .select("password_hash")
+      .where("email", "=", "engineer@demo.tautline.test")
+      .executeTakeFirstOrThrow();
     await resetPassword(t.db, { token, password: "a-new-password-99" });
-    const after = await t.db.selectFrom("users").select("password_hash").where("email", "=", "engineer@demo.tautline.test").executeTakeFirstOrThrow();
+    const after = await t.db
+      .selectFrom("users")
+      .select("password_hash")
+      .where("email", "=", "engineer@demo.tautline.test")
+      .executeTakeFirstOrThrow();
     expect(after.password_hash).not.toBe(before.password_hash);
     await expect(resetPassword(t.db, { token, password: "yet-another-one-1" })).rejects.toMatchObject({ code: "GONE" });
   });

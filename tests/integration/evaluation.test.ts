@@ -28,12 +28,21 @@ async function predictedFor(tendonId: string) {
 
 /** The gauge pressure on demo Set A that gives a force, from its stored calibration line. */
 async function pressureOnSetA(forceN: number): Promise<number> {
-  const c = await t.db.selectFrom("calibrations").select(["slope_n_per_mpa", "intercept_n"]).where("equipment_set_id", "=", fx.setA).executeTakeFirstOrThrow();
+  const c = await t.db
+    .selectFrom("calibrations")
+    .select(["slope_n_per_mpa", "intercept_n"])
+    .where("equipment_set_id", "=", fx.setA)
+    .executeTakeFirstOrThrow();
   return (forceN - c.intercept_n) / c.slope_n_per_mpa;
 }
 
 const flagsOf = (tendonId: string) =>
-  t.db.selectFrom("flags").select(["kind", "reason", "status"]).where("tendon_id", "=", tendonId).orderBy("kind").execute();
+  t.db
+    .selectFrom("flags")
+    .select(["kind", "reason", "status"])
+    .where("tendon_id", "=", tendonId)
+    .orderBy("kind")
+    .execute();
 const notificationsOf = (tendonId: string) =>
   t.db
     .selectFrom("notifications")
@@ -61,20 +70,43 @@ describe("the server's evaluation of a tendon", () => {
   it("stores an in-band verdict with every input and raises nothing", async () => {
     const tendon = await fx.tendon("2-1-U01");
     const predicted = await predictedFor(tendon.id);
-    await insertRecord(t.db, { projectId: fx.projectId, tendon, end: "A", equipmentSetId: fx.setA, authorId: fx.crewId, measuredMm: predicted.predictedMm * 1.02, finalPressureMPa: normalPressure });
+    await insertRecord(t.db, {
+      projectId: fx.projectId,
+      tendon,
+      end: "A",
+      equipmentSetId: fx.setA,
+      authorId: fx.crewId,
+      measuredMm: predicted.predictedMm * 1.02,
+      finalPressureMPa: normalPressure,
+    });
     const outcome = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
     expect(outcome).toMatchObject({ verdict: "in band", provisional: false, flagKinds: [] });
     expect(outcome.deviationPct).toBeCloseTo(2, 9);
-    const stored = await t.db.selectFrom("evaluations").selectAll().where("id", "=", outcome.evaluationId).executeTakeFirstOrThrow();
+    const stored = await t.db
+      .selectFrom("evaluations")
+      .selectAll()
+      .where("id", "=", outcome.evaluationId)
+      .executeTakeFirstOrThrow();
     expect(stored.engine_version).toMatch(/^tautline-elongation\//);
-    expect(stored.inputs).toMatchObject({ project: { tolerancePct: 7, comparisonBasis: "net" }, lot: { lotNumber: "AY-0871" } });
+    expect(stored.inputs).toMatchObject({
+      project: { tolerancePct: 7, comparisonBasis: "net" },
+      lot: { lotNumber: "AY-0871" },
+    });
     expect(await flagsOf(tendon.id)).toEqual([]);
   });
 
   it("flags a long tendon once, queues one e-mail to the engineer with the inspector copied, and a replay adds nothing", async () => {
     const tendon = await fx.tendon("2-1-U02");
     const predicted = await predictedFor(tendon.id);
-    await insertRecord(t.db, { projectId: fx.projectId, tendon, end: "A", equipmentSetId: fx.setA, authorId: fx.crewId, measuredMm: predicted.predictedMm * 1.1, finalPressureMPa: normalPressure });
+    await insertRecord(t.db, {
+      projectId: fx.projectId,
+      tendon,
+      end: "A",
+      equipmentSetId: fx.setA,
+      authorId: fx.crewId,
+      measuredMm: predicted.predictedMm * 1.1,
+      finalPressureMPa: normalPressure,
+    });
     const first = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
     expect(first).toMatchObject({ verdict: "long", flagKinds: ["out_of_band"] });
     const flags = await flagsOf(tendon.id);
@@ -99,10 +131,26 @@ describe("the server's evaluation of a tendon", () => {
     const a = predicted.prediction.perEndMm.A!;
     const b = predicted.prediction.perEndMm.B!;
     const share = (x: number) => (x / predicted.prediction.grossMm) * predicted.predictedMm;
-    await insertRecord(t.db, { projectId: fx.projectId, tendon, end: "A", equipmentSetId: fx.setA, authorId: fx.crewId, measuredMm: share(a) * 0.9, finalPressureMPa: normalPressure });
+    await insertRecord(t.db, {
+      projectId: fx.projectId,
+      tendon,
+      end: "A",
+      equipmentSetId: fx.setA,
+      authorId: fx.crewId,
+      measuredMm: share(a) * 0.9,
+      finalPressureMPa: normalPressure,
+    });
     const lone = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
     expect(lone).toMatchObject({ provisional: true, verdict: "short", flagKinds: [] });
-    await insertRecord(t.db, { projectId: fx.projectId, tendon, end: "B", equipmentSetId: fx.setA, authorId: fx.crewId, measuredMm: share(b) * 0.9, finalPressureMPa: normalPressure });
+    await insertRecord(t.db, {
+      projectId: fx.projectId,
+      tendon,
+      end: "B",
+      equipmentSetId: fx.setA,
+      authorId: fx.crewId,
+      measuredMm: share(b) * 0.9,
+      finalPressureMPa: normalPressure,
+    });
     const both = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
     expect(both).toMatchObject({ provisional: false, verdict: "short", flagKinds: ["out_of_band"] });
     expect(both.deviationPct).toBeCloseTo(-10, 6);
@@ -112,7 +160,15 @@ describe("the server's evaluation of a tendon", () => {
     const tendon = await fx.tendon("2-1-U03");
     const predicted = await predictedFor(tendon.id);
     const over = await pressureOnSetA(JACKING_TARGET_N * 1.04);
-    await insertRecord(t.db, { projectId: fx.projectId, tendon, end: "A", equipmentSetId: fx.setA, authorId: fx.crewId, measuredMm: predicted.predictedMm, finalPressureMPa: over });
+    await insertRecord(t.db, {
+      projectId: fx.projectId,
+      tendon,
+      end: "A",
+      equipmentSetId: fx.setA,
+      authorId: fx.crewId,
+      measuredMm: predicted.predictedMm,
+      finalPressureMPa: over,
+    });
     const outcome = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
     expect(outcome.flagKinds).toContain("jacking_over_limit");
     const flag = (await flagsOf(tendon.id)).find((f) => f.kind === "jacking_over_limit")!;
@@ -124,8 +180,18 @@ describe("the server's evaluation of a tendon", () => {
     const predicted = await predictedFor(tendon.id);
     const psi = 0.006894757293168;
     const base = { projectId: fx.projectId, tendon, equipmentSetId: fx.setA, authorId: fx.crewId };
-    await insertRecord(t.db, { ...base, end: "A", measuredMm: (predicted.predictedMm * predicted.prediction.perEndMm.A!) / predicted.prediction.grossMm, finalPressureMPa: normalPressure + 40 * psi });
-    await insertRecord(t.db, { ...base, end: "B", measuredMm: (predicted.predictedMm * predicted.prediction.perEndMm.B!) / predicted.prediction.grossMm, finalPressureMPa: normalPressure + 40 * psi });
+    await insertRecord(t.db, {
+      ...base,
+      end: "A",
+      measuredMm: (predicted.predictedMm * predicted.prediction.perEndMm.A!) / predicted.prediction.grossMm,
+      finalPressureMPa: normalPressure + 40 * psi,
+    });
+    await insertRecord(t.db, {
+      ...base,
+      end: "B",
+      measuredMm: (predicted.predictedMm * predicted.prediction.perEndMm.B!) / predicted.prediction.grossMm,
+      finalPressureMPa: normalPressure + 40 * psi,
+    });
     const outcome = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
     expect(outcome.flagKinds).not.toContain("jacking_over_limit");
   });
@@ -134,28 +200,33 @@ describe("the server's evaluation of a tendon", () => {
     const tendon = await fx.tendon("2-1-U04");
     const predicted = await predictedFor(tendon.id);
     // Demo Set B is calibrated up to 40 MPa and valid for 8 more days after seeding.
-    await t.db.insertInto("records").values({
-      id: "01900000-0000-7000-8000-000000000001",
-      project_id: fx.projectId,
-      pour_id: tendon.pour_id,
-      tendon_id: tendon.id,
-      tendon_end: "A",
-      chain_id: "01900000-0000-7000-8000-000000000001",
-      revision: 1,
-      equipment_set_id: fx.setB,
-      expired_calibration_reason: "Set A in for repair",
-      final_pressure_mpa: 41,
-      reading_method: "marks",
-      entered: JSON.stringify({}),
-      measured_mm: predicted.predictedMm,
-      wire_breaks: 1,
-      device_time: new Date(Date.now() + 20 * 86_400_000).toISOString(),
-      device_time_zone: "America/Chicago",
-      device_id: "test-device",
-      author_user_id: fx.crewId,
-    }).execute();
+    await t.db
+      .insertInto("records")
+      .values({
+        id: "01900000-0000-7000-8000-000000000001",
+        project_id: fx.projectId,
+        pour_id: tendon.pour_id,
+        tendon_id: tendon.id,
+        tendon_end: "A",
+        chain_id: "01900000-0000-7000-8000-000000000001",
+        revision: 1,
+        equipment_set_id: fx.setB,
+        expired_calibration_reason: "Set A in for repair",
+        final_pressure_mpa: 41,
+        reading_method: "marks",
+        entered: JSON.stringify({}),
+        measured_mm: predicted.predictedMm,
+        wire_breaks: 1,
+        device_time: new Date(Date.now() + 20 * 86_400_000).toISOString(),
+        device_time_zone: "America/Chicago",
+        device_id: "test-device",
+        author_user_id: fx.crewId,
+      })
+      .execute();
     const outcome = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
-    expect(outcome.flagKinds.sort()).toEqual(expect.arrayContaining(["calibration_expired", "calibration_range", "wire_break"]));
+    expect(outcome.flagKinds.sort()).toEqual(
+      expect.arrayContaining(["calibration_expired", "calibration_range", "wire_break"]),
+    );
     const flags = await flagsOf(tendon.id);
     expect(flags.find((f) => f.kind === "calibration_expired")!.reason).toContain("Set A in for repair");
     expect(flags.find((f) => f.kind === "wire_break")!.reason).toBe("1 wire break reported at end A.");
@@ -163,9 +234,22 @@ describe("the server's evaluation of a tendon", () => {
 
   it("flags stressing before the required concrete strength is confirmed", async () => {
     const pour = await t.db.selectFrom("pours").select("id").where("name", "=", "L3 Pour 1").executeTakeFirstOrThrow();
-    const tendon = await t.db.selectFrom("tendons").select(["id", "pour_id"]).where("pour_id", "=", pour.id).where("tag", "=", "3-1-U01").executeTakeFirstOrThrow();
+    const tendon = await t.db
+      .selectFrom("tendons")
+      .select(["id", "pour_id"])
+      .where("pour_id", "=", pour.id)
+      .where("tag", "=", "3-1-U01")
+      .executeTakeFirstOrThrow();
     const predicted = await predictedFor(tendon.id);
-    await insertRecord(t.db, { projectId: fx.projectId, tendon, end: "A", equipmentSetId: fx.setA, authorId: fx.crewId, measuredMm: predicted.predictedMm, finalPressureMPa: normalPressure });
+    await insertRecord(t.db, {
+      projectId: fx.projectId,
+      tendon,
+      end: "A",
+      equipmentSetId: fx.setA,
+      authorId: fx.crewId,
+      measuredMm: predicted.predictedMm,
+      finalPressureMPa: normalPressure,
+    });
     const outcome = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
     expect(outcome.flagKinds).toEqual(["concrete_unconfirmed"]);
   });
@@ -173,7 +257,15 @@ describe("the server's evaluation of a tendon", () => {
   it("flags an end stressed twice without a disposition", async () => {
     const tendon = await fx.tendon("2-1-U06");
     const predicted = await predictedFor(tendon.id);
-    const base = { projectId: fx.projectId, tendon, end: "A" as const, equipmentSetId: fx.setA, authorId: fx.crewId, measuredMm: predicted.predictedMm, finalPressureMPa: normalPressure };
+    const base = {
+      projectId: fx.projectId,
+      tendon,
+      end: "A" as const,
+      equipmentSetId: fx.setA,
+      authorId: fx.crewId,
+      measuredMm: predicted.predictedMm,
+      finalPressureMPa: normalPressure,
+    };
     await insertRecord(t.db, { ...base, deviceTime: new Date(Date.now() - 2 * 3600_000).toISOString() });
     await insertRecord(t.db, { ...base, deviceTime: new Date(Date.now() - 3600_000).toISOString() });
     const outcome = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
@@ -189,6 +281,8 @@ describe("the server's evaluation of a tendon", () => {
   it("answers NOT_FOUND for another project's tendon", async () => {
     const other = await t.db.selectFrom("projects").select("id").where("code", "=", "QHM").executeTakeFirstOrThrow();
     const tendon = await fx.tendon("2-1-U01");
-    await expect(evaluateTendon(t.db, { projectId: other.id, tendonId: tendon.id, reason: "sync" })).rejects.toMatchObject({ code: "NOT_FOUND" });
+    await expect(
+      evaluateTendon(t.db, { projectId: other.id, tendonId: tendon.id, reason: "sync" }),
+    ).rejects.toMatchObject({ code: "NOT_FOUND" });
   });
 });

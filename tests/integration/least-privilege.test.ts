@@ -92,7 +92,16 @@ describe("the app's database role", () => {
   });
 
   it("refuses TRUNCATE of an append-only table even from the owner", async () => {
-    for (const table of ["records", "evaluations", "reviews", "dispositions", "releases", "audit_events", "pour_reopenings", "report_revisions"]) {
+    for (const table of [
+      "records",
+      "evaluations",
+      "reviews",
+      "dispositions",
+      "releases",
+      "audit_events",
+      "pour_reopenings",
+      "report_revisions",
+    ]) {
       const error = await sql
         .raw(`truncate ${table} cascade`)
         .execute(t.db)

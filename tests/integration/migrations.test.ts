@@ -26,7 +26,21 @@ describe("migrations", () => {
       Object.keys(migrations).map((name) => [name, "Success"]),
     );
     const tables = await tableNames();
-    for (const table of ["users", "projects", "project_members", "pours", "strand_lots", "tendons", "records", "evaluations", "flags", "dispositions", "notifications", "applied_ops", "audit_events"]) {
+    for (const table of [
+      "users",
+      "projects",
+      "project_members",
+      "pours",
+      "strand_lots",
+      "tendons",
+      "records",
+      "evaluations",
+      "flags",
+      "dispositions",
+      "notifications",
+      "applied_ops",
+      "audit_events",
+    ]) {
       expect(tables).toContain(table);
     }
   });
@@ -50,11 +64,14 @@ describe("migrations", () => {
       .executeTakeFirstOrThrow();
     expect(project).toMatchObject({ tolerance_pct: 7, comparison_basis: "gross", unit_system: "us" });
 
+    await expect(t.db.insertInto("users").values({ email: "Mixed@Case.test", name: "x" }).execute()).rejects.toThrow(
+      /users_email_lower/,
+    );
     await expect(
-      t.db.insertInto("users").values({ email: "Mixed@Case.test", name: "x" }).execute(),
-    ).rejects.toThrow(/users_email_lower/);
-    await expect(
-      t.db.insertInto("project_members").values({ project_id: project.id, user_id: project.id, role: "boss" as never }).execute(),
+      t.db
+        .insertInto("project_members")
+        .values({ project_id: project.id, user_id: project.id, role: "boss" as never })
+        .execute(),
     ).rejects.toThrow();
     const pour = await t.db
       .insertInto("pours")

@@ -46,7 +46,11 @@ describe("the e-mail dispatcher", () => {
     expect(await drainNotifications(t.db)).toBe(1);
     expect(await drainNotifications(t.db)).toBe(0);
     expect(await inboxCount(subject)).toBe(1);
-    const row = await t.db.selectFrom("notifications").select(["status", "attempts", "sent_at"]).where("id", "=", id).executeTakeFirstOrThrow();
+    const row = await t.db
+      .selectFrom("notifications")
+      .select(["status", "attempts", "sent_at"])
+      .where("id", "=", id)
+      .executeTakeFirstOrThrow();
     expect(row).toMatchObject({ status: "sent", attempts: 1 });
     expect(row.sent_at).not.toBeNull();
   });
@@ -66,7 +70,11 @@ describe("the e-mail dispatcher", () => {
       throw new Error("relay refused");
     });
     expect(outcome).toBe("retry");
-    const row = await t.db.selectFrom("notifications").select(["status", "attempts", "last_error", "next_attempt_at"]).where("id", "=", id).executeTakeFirstOrThrow();
+    const row = await t.db
+      .selectFrom("notifications")
+      .select(["status", "attempts", "last_error", "next_attempt_at"])
+      .where("id", "=", id)
+      .executeTakeFirstOrThrow();
     expect(row).toMatchObject({ status: "pending", attempts: 1, last_error: "relay refused" });
     expect(new Date(row.next_attempt_at).getTime()).toBeGreaterThan(Date.now());
     // Not due yet: a drain right now sends nothing.
@@ -74,9 +82,17 @@ describe("the e-mail dispatcher", () => {
     expect(await inboxCount(subject)).toBe(0);
 
     // At the last attempt a failure marks the row failed for a person to look at.
-    await t.db.updateTable("notifications").set({ attempts: MAX_ATTEMPTS - 1, next_attempt_at: new Date(0) }).where("id", "=", id).execute();
+    await t.db
+      .updateTable("notifications")
+      .set({ attempts: MAX_ATTEMPTS - 1, next_attempt_at: new Date(0) })
+      .where("id", "=", id)
+      .execute();
     expect(await dispatchOne(t.db, async () => Promise.reject(new Error("relay still refusing")))).toBe("failed");
-    const failed = await t.db.selectFrom("notifications").select(["status", "attempts"]).where("id", "=", id).executeTakeFirstOrThrow();
+    const failed = await t.db
+      .selectFrom("notifications")
+      .select(["status", "attempts"])
+      .where("id", "=", id)
+      .executeTakeFirstOrThrow();
     expect(failed).toEqual({ status: "failed", attempts: MAX_ATTEMPTS });
   });
 
@@ -93,10 +109,14 @@ describe("the e-mail dispatcher", () => {
     const subject = `crash-${Date.now()}`;
     const id = await queue(subject);
     // node itself (not the tsx wrapper) so the kill ends the process that holds the row.
-    const child = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", "tests/support/crashing-dispatcher.ts"], {
-      env: { ...process.env, DATABASE_URL: t.url },
-      stdio: ["ignore", "pipe", "inherit"],
-    });
+    const child = spawn(
+      process.execPath,
+      ["--conditions=react-server", "--import", "tsx", "tests/support/crashing-dispatcher.ts"],
+      {
+        env: { ...process.env, DATABASE_URL: t.url },
+        stdio: ["ignore", "pipe", "inherit"],
+      },
+    );
     await new Promise<void>((resolve, reject) => {
       child.stdout.on("data", (chunk: Buffer) => chunk.toString().includes("claimed") && resolve());
       child.on("exit", (code) => reject(new Error(`crashing dispatcher exited early (${code})`)));
@@ -107,11 +127,19 @@ describe("the e-mail dispatcher", () => {
     await new Promise((r) => child.on("exit", r));
 
     expect(await inboxCount(subject)).toBe(0);
-    expect((await t.db.selectFrom("notifications").select("status").where("id", "=", id).executeTakeFirstOrThrow()).status).toBe("pending");
+    expect(
+      (await t.db.selectFrom("notifications").select("status").where("id", "=", id).executeTakeFirstOrThrow()).status,
+    ).toBe("pending");
     // PostgreSQL ends the dead session's transaction once it sees the connection gone, which can
     // take a moment after the kill; until then the row is still locked and rightly skipped.
     for (let i = 0; ; i++) {
-      const free = await t.db.selectFrom("notifications").select("id").where("id", "=", id).forUpdate().skipLocked().executeTakeFirst();
+      const free = await t.db
+        .selectFrom("notifications")
+        .select("id")
+        .where("id", "=", id)
+        .forUpdate()
+        .skipLocked()
+        .executeTakeFirst();
       if (free) break;
       if (i >= 100) throw new Error("the killed dispatcher's lock was never released");
       await new Promise((r) => setTimeout(r, 100));
@@ -133,7 +161,11 @@ describe("the e-mail dispatcher", () => {
       seen.push(mail.messageId);
       throw new Error("relay refused");
     });
-    await t.db.updateTable("notifications").set({ next_attempt_at: new Date(0) }).where("id", "=", id).execute();
+    await t.db
+      .updateTable("notifications")
+      .set({ next_attempt_at: new Date(0) })
+      .where("id", "=", id)
+      .execute();
     await dispatchOne(t.db, async (mail) => {
       seen.push(mail.messageId);
     });

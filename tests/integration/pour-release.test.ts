@@ -134,7 +134,9 @@ describe("release", () => {
           projectId: w.projectId,
           pourId,
           by: { ...people[role], role },
-          statement: "Trying to release it.", signerName: "Dana Okafor", licence: "PE 048213 (invented)",
+          statement: "Trying to release it.",
+          signerName: "Dana Okafor",
+          licence: "PE 048213 (invented)",
         }),
       ).rejects.toMatchObject({ code: "FORBIDDEN" });
     }
@@ -143,7 +145,9 @@ describe("release", () => {
         projectId: w.projectId,
         pourId,
         by: { id: w.crew.id, name: "Crew", role: "crew" },
-        statement: "Crew release.", signerName: "Dana Okafor", licence: "PE 048213 (invented)",
+        statement: "Crew release.",
+        signerName: "Dana Okafor",
+        licence: "PE 048213 (invented)",
       }),
     ).rejects.toMatchObject({ code: "FORBIDDEN" });
     expect((await stateOf()).status).toBe("stressed");
@@ -160,7 +164,9 @@ describe("release", () => {
       projectId: w.projectId,
       pourId,
       by: engineer(),
-      statement: "Both tendons in band; tails may be cut.", signerName: "Dana Okafor", licence: "PE 048213 (invented)",
+      statement: "Both tendons in band; tails may be cut.",
+      signerName: "Dana Okafor",
+      licence: "PE 048213 (invented)",
     });
     const state = await stateOf();
     expect(state).toMatchObject({ status: "released", released_by_name: people.engineer.name });
@@ -169,7 +175,9 @@ describe("release", () => {
         projectId: w.projectId,
         pourId,
         by: engineer(),
-        statement: "A second release of the same pour.", signerName: "Dana Okafor", licence: "PE 048213 (invented)",
+        statement: "A second release of the same pour.",
+        signerName: "Dana Okafor",
+        licence: "PE 048213 (invented)",
       }),
     ).rejects.toMatchObject({ code: "CONFLICT" });
 
@@ -335,7 +343,9 @@ describe("reopen", () => {
       projectId: w.projectId,
       pourId,
       by: engineer(),
-      statement: "Lift-off checked; released again.", signerName: "Dana Okafor", licence: "PE 048213 (invented)",
+      statement: "Lift-off checked; released again.",
+      signerName: "Dana Okafor",
+      licence: "PE 048213 (invented)",
     });
     expect((await stateOf()).status).toBe("released");
     const releases = await t.db

@@ -29,10 +29,25 @@ beforeAll(async () => {
   t = await createTestDatabase({ migrate: true });
   await seedDemo(t.db);
   fx = await demoFixture(t.db);
-  const source = await t.db.selectFrom("pours").select("id").where("project_id", "=", fx.projectId).where("name", "=", "L2 Pour 2").executeTakeFirstOrThrow();
-  const pour = await t.db.insertInto("pours").values({ project_id: fx.projectId, name: "Report pour", concrete_strength_mpa: 30 }).returning("id").executeTakeFirstOrThrow();
+  const source = await t.db
+    .selectFrom("pours")
+    .select("id")
+    .where("project_id", "=", fx.projectId)
+    .where("name", "=", "L2 Pour 2")
+    .executeTakeFirstOrThrow();
+  const pour = await t.db
+    .insertInto("pours")
+    .values({ project_id: fx.projectId, name: "Report pour", concrete_strength_mpa: 30 })
+    .returning("id")
+    .executeTakeFirstOrThrow();
   pourId = pour.id;
-  const template = await t.db.selectFrom("tendons").selectAll().where("project_id", "=", fx.projectId).where("pour_id", "=", source.id).orderBy("tag").execute();
+  const template = await t.db
+    .selectFrom("tendons")
+    .selectAll()
+    .where("project_id", "=", fx.projectId)
+    .where("pour_id", "=", source.id)
+    .orderBy("tag")
+    .execute();
   expect(template).toHaveLength(50);
   tags = [];
   for (const row of template) {
@@ -40,46 +55,106 @@ beforeAll(async () => {
     tags.push(tag);
     await t.db
       .insertInto("tendons")
-      .values({ project_id: fx.projectId, pour_id: pourId, tag, kind: row.kind, strand_size: row.strand_size, strand_count: row.strand_count, segments: JSON.stringify(row.segments), ends: row.ends, jack_grip_mm: row.jack_grip_mm, strand_lot_id: row.strand_lot_id })
+      .values({
+        project_id: fx.projectId,
+        pour_id: pourId,
+        tag,
+        kind: row.kind,
+        strand_size: row.strand_size,
+        strand_count: row.strand_count,
+        segments: JSON.stringify(row.segments),
+        ends: row.ends,
+        jack_grip_mm: row.jack_grip_mm,
+        strand_lot_id: row.strand_lot_id,
+      })
       .execute();
   }
-  engineer = await t.db.selectFrom("users").select(["id", "name"]).where("email", "=", "engineer@demo.tautline.test").executeTakeFirstOrThrow();
+  engineer = await t.db
+    .selectFrom("users")
+    .select(["id", "name"])
+    .where("email", "=", "engineer@demo.tautline.test")
+    .executeTakeFirstOrThrow();
 
   const calibration = async (setId: string) =>
-    t.db.selectFrom("calibrations").select(["slope_n_per_mpa", "intercept_n"]).where("equipment_set_id", "=", setId).orderBy("calibrated_on", "desc").executeTakeFirstOrThrow();
+    t.db
+      .selectFrom("calibrations")
+      .select(["slope_n_per_mpa", "intercept_n"])
+      .where("equipment_set_id", "=", setId)
+      .orderBy("calibrated_on", "desc")
+      .executeTakeFirstOrThrow();
   const lines = { [fx.setA]: await calibration(fx.setA), [fx.setB]: await calibration(fx.setB) };
-  const tendons = await t.db.selectFrom("tendons").select(["id", "pour_id", "tag", "ends"]).where("pour_id", "=", pourId).orderBy("tag").execute();
+  const tendons = await t.db
+    .selectFrom("tendons")
+    .select(["id", "pour_id", "tag", "ends"])
+    .where("pour_id", "=", pourId)
+    .orderBy("tag")
+    .execute();
   // Every tendon stressed; the first 20 by set B, which comes out 6 % long (invented); R2-2-U03 short, U07 long.
   for (const [i, tendon] of tendons.entries()) {
     if (tendon.tag === "R2-2-U04") continue; // read at gauge steps below
     const setId = i < 20 ? fx.setB : fx.setA;
     const line = lines[setId]!;
     const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tendon.id });
-    const predicted = predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot, equipmentGripMm: 457.2 });
+    const predicted = predictTendon({
+      project: basis.project,
+      tendon: basis.tendon,
+      lot: basis.lot,
+      equipmentGripMm: 457.2,
+    });
     const pressure = (predicted.jackingForceN - line.intercept_n) / line.slope_n_per_mpa;
     const wiggle = [0.6, -1.1, 0.3, -0.4, 1.0, -0.7, 0.2, 0.8, -0.9, 0.1][i % 10]! / 100;
-    const factor = tendon.tag === "R2-2-U03" ? 0.88 : tendon.tag === "R2-2-U07" ? 1.12 : 1 + wiggle + (setId === fx.setB ? 0.06 : 0);
+    const factor =
+      tendon.tag === "R2-2-U03" ? 0.88 : tendon.tag === "R2-2-U07" ? 1.12 : 1 + wiggle + (setId === fx.setB ? 0.06 : 0);
     const ends = tendon.ends === "both" ? (["A", "B"] as const) : ([tendon.ends] as const);
     for (const end of ends) {
-      const share = tendon.ends === "both" ? (predicted.prediction.perEndMm[end] ?? 0) / predicted.prediction.grossMm : 1;
-      await insertRecord(t.db, { projectId: fx.projectId, tendon, end, equipmentSetId: setId, authorId: fx.crewId, measuredMm: predicted.predictedMm * share * factor, finalPressureMPa: pressure });
+      const share =
+        tendon.ends === "both" ? (predicted.prediction.perEndMm[end] ?? 0) / predicted.prediction.grossMm : 1;
+      await insertRecord(t.db, {
+        projectId: fx.projectId,
+        tendon,
+        end,
+        equipmentSetId: setId,
+        authorId: fx.crewId,
+        measuredMm: predicted.predictedMm * share * factor,
+        finalPressureMPa: pressure,
+      });
     }
     await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
   }
   // One end read at four gauge steps, with the steps kept beside the reading as the tablet types them.
   const stepped = tendons.find((x) => x.tag === "R2-2-U04")!;
   const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: stepped.id });
-  const predicted = predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot, equipmentGripMm: 457.2 });
+  const predicted = predictTendon({
+    project: basis.project,
+    tendon: basis.tendon,
+    lot: basis.lot,
+    equipmentGripMm: 457.2,
+  });
   const line = lines[fx.setA]!;
-  const steps = [0.25, 0.5, 0.75, 1].map((f) => ({ pressureMPa: (f * predicted.jackingForceN - line.intercept_n) / line.slope_n_per_mpa, readingMm: 20 + f * predicted.predictedMm }));
+  const steps = [0.25, 0.5, 0.75, 1].map((f) => ({
+    pressureMPa: (f * predicted.jackingForceN - line.intercept_n) / line.slope_n_per_mpa,
+    readingMm: 20 + f * predicted.predictedMm,
+  }));
   const id = uuidv7();
   await t.db
     .insertInto("records")
     .values({
-      id, project_id: fx.projectId, pour_id: pourId, tendon_id: stepped.id, tendon_end: "A", chain_id: id, revision: 1,
-      equipment_set_id: fx.setA, final_pressure_mpa: steps[3]!.pressureMPa, reading_method: "marks",
-      entered: JSON.stringify({ unit: "mm", gaugeSteps: steps }), measured_mm: predicted.predictedMm,
-      device_time: "2026-12-01T16:00:00Z", device_time_zone: "America/Chicago", device_id: "test-device", author_user_id: fx.crewId,
+      id,
+      project_id: fx.projectId,
+      pour_id: pourId,
+      tendon_id: stepped.id,
+      tendon_end: "A",
+      chain_id: id,
+      revision: 1,
+      equipment_set_id: fx.setA,
+      final_pressure_mpa: steps[3]!.pressureMPa,
+      reading_method: "marks",
+      entered: JSON.stringify({ unit: "mm", gaugeSteps: steps }),
+      measured_mm: predicted.predictedMm,
+      device_time: "2026-12-01T16:00:00Z",
+      device_time_zone: "America/Chicago",
+      device_id: "test-device",
+      author_user_id: fx.crewId,
     })
     .execute();
   await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: stepped.id, reason: "sync" });
@@ -100,24 +175,48 @@ async function pdfTextOf(buffer: Buffer) {
 describe("the pour's stressing report", () => {
   it("as a PDF lists every tendon with its verdict, the basis, the flags, the release and the caution, page by numbered page", async () => {
     // Settle the out-of-band flags so the pour can be released.
-    const open = await t.db.selectFrom("flags").select(["id", "kind"]).where("pour_id", "=", pourId).where("status", "!=", "closed").execute();
+    const open = await t.db
+      .selectFrom("flags")
+      .select(["id", "kind"])
+      .where("pour_id", "=", pourId)
+      .where("status", "!=", "closed")
+      .execute();
     expect(open.length).toBeGreaterThan(1);
     for (const f of open) {
       await recordDisposition(t.db, {
         projectId: fx.projectId,
         flagId: f.id,
         engineer,
-        disposition: { decision: "accept", reasons: "Within the engineer's allowance for this slab; accepted as stressed.", licenceStatement: "Licensed professional engineer (test)" },
+        disposition: {
+          decision: "accept",
+          reasons: "Within the engineer's allowance for this slab; accepted as stressed.",
+          licenceStatement: "Licensed professional engineer (test)",
+        },
       });
     }
     // The engineer signs the release over the report as it stands: its content hash is kept.
     const beforeRelease = createHash("sha256")
       .update(await renderPourPdf(await getPourReport(t.db, { projectId: fx.projectId, pourId })))
       .digest("hex");
-    const release = await releasePour(t.db, { projectId: fx.projectId, pourId, by: { ...engineer, role: "engineer" }, statement: "All tendons stressed and accepted; tails may be cut.", signerName: "Dana Okafor", licence: "PE 048213 (invented)" });
+    const release = await releasePour(t.db, {
+      projectId: fx.projectId,
+      pourId,
+      by: { ...engineer, role: "engineer" },
+      statement: "All tendons stressed and accepted; tails may be cut.",
+      signerName: "Dana Okafor",
+      licence: "PE 048213 (invented)",
+    });
     expect(release.contentSha256).toBe(beforeRelease);
-    const stored = await t.db.selectFrom("releases").selectAll().where("id", "=", release.releaseId).executeTakeFirstOrThrow();
-    expect(stored).toMatchObject({ signer_name: "Dana Okafor", licence: "PE 048213 (invented)", content_sha256: beforeRelease });
+    const stored = await t.db
+      .selectFrom("releases")
+      .selectAll()
+      .where("id", "=", release.releaseId)
+      .executeTakeFirstOrThrow();
+    expect(stored).toMatchObject({
+      signer_name: "Dana Okafor",
+      licence: "PE 048213 (invented)",
+      content_sha256: beforeRelease,
+    });
     expect(new Date(stored.created_at).getTime()).toBe(release.signedAt.getTime());
     const signature = { signerName: "Dana Okafor", licence: "PE 048213 (invented)", contentSha256: beforeRelease };
     // The decisions page and the share board show the signature of the standing release.
@@ -126,7 +225,11 @@ describe("the pour's stressing report", () => {
     expect(candidate?.releaseSignature).toEqual(signature);
     const { createShareLink } = await import("@/lib/server/manage-share-links");
     const { getShareBoard } = await import("@/lib/server/get-share-board");
-    const link = await createShareLink(t.db, { projectId: fx.projectId, by: { id: engineer.id }, values: { label: "Contractor (test)", days: 7 } });
+    const link = await createShareLink(t.db, {
+      projectId: fx.projectId,
+      by: { id: engineer.id },
+      values: { label: "Contractor (test)", days: 7 },
+    });
     const boardPour = (await getShareBoard(t.db, { token: link.token })).pours.find((p) => p.pourId === pourId);
     expect(boardPour).toMatchObject({ status: "released", release: { ...signature, signedAt: release.signedAt } });
 
@@ -159,7 +262,12 @@ describe("the pour's stressing report", () => {
   }, 60_000);
 
   it("says plainly when a pour is not released and not stressed", async () => {
-    const pour = await t.db.selectFrom("pours").select("id").where("project_id", "=", fx.projectId).where("name", "=", "L3 Pour 1").executeTakeFirstOrThrow();
+    const pour = await t.db
+      .selectFrom("pours")
+      .select("id")
+      .where("project_id", "=", fx.projectId)
+      .where("name", "=", "L3 Pour 1")
+      .executeTakeFirstOrThrow();
     const report = await getPourReport(t.db, { projectId: fx.projectId, pourId: pour.id });
     const unstressed = report.tendons.filter((x) => !x.evaluation);
     expect(unstressed.length).toBeGreaterThan(0);
@@ -170,9 +278,16 @@ describe("the pour's stressing report", () => {
   }, 60_000);
 
   it("refuses a pour of another project as not found", async () => {
-    const other = await t.db.selectFrom("pours").innerJoin("projects", "projects.id", "pours.project_id").select("pours.id").where("projects.code", "=", "QHM").executeTakeFirst();
+    const other = await t.db
+      .selectFrom("pours")
+      .innerJoin("projects", "projects.id", "pours.project_id")
+      .select("pours.id")
+      .where("projects.code", "=", "QHM")
+      .executeTakeFirst();
     const pourOfOther = other?.id ?? "00000000-0000-4000-8000-000000000000";
-    await expect(getPourReport(t.db, { projectId: fx.projectId, pourId: pourOfOther })).rejects.toMatchObject({ code: "NOT_FOUND" });
+    await expect(getPourReport(t.db, { projectId: fx.projectId, pourId: pourOfOther })).rejects.toMatchObject({
+      code: "NOT_FOUND",
+    });
   });
 
   it("as CSV round-trips through papaparse with the same rows and columns as the report", async () => {

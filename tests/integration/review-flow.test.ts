@@ -24,9 +24,18 @@ beforeAll(async () => {
   await seedDemo(t.db);
   fx = await demoFixture(t.db);
   // A small pour of our own: two one-end tendons copied from the demo schedule.
-  const pour = await t.db.insertInto("pours").values({ project_id: fx.projectId, name: "Review test pour", concrete_strength_mpa: 30 }).returning("id").executeTakeFirstOrThrow();
+  const pour = await t.db
+    .insertInto("pours")
+    .values({ project_id: fx.projectId, name: "Review test pour", concrete_strength_mpa: 30 })
+    .returning("id")
+    .executeTakeFirstOrThrow();
   pourId = pour.id;
-  const template = await t.db.selectFrom("tendons").selectAll().where("project_id", "=", fx.projectId).where("tag", "=", "2-1-U01").executeTakeFirstOrThrow();
+  const template = await t.db
+    .selectFrom("tendons")
+    .selectAll()
+    .where("project_id", "=", fx.projectId)
+    .where("tag", "=", "2-1-U01")
+    .executeTakeFirstOrThrow();
   tendons = [];
   for (const tag of ["R-1", "R-2"]) {
     const row = await t.db
@@ -47,9 +56,17 @@ beforeAll(async () => {
       .executeTakeFirstOrThrow();
     tendons.push(row);
   }
-  const user = (email: string) => t.db.selectFrom("users").select(["id", "name"]).where("email", "=", email).executeTakeFirstOrThrow();
-  people = { inspector: await user("inspector@demo.tautline.test"), engineer: await user("engineer@demo.tautline.test") };
-  const c = await t.db.selectFrom("calibrations").select(["slope_n_per_mpa", "intercept_n"]).where("equipment_set_id", "=", fx.setA).executeTakeFirstOrThrow();
+  const user = (email: string) =>
+    t.db.selectFrom("users").select(["id", "name"]).where("email", "=", email).executeTakeFirstOrThrow();
+  people = {
+    inspector: await user("inspector@demo.tautline.test"),
+    engineer: await user("engineer@demo.tautline.test"),
+  };
+  const c = await t.db
+    .selectFrom("calibrations")
+    .select(["slope_n_per_mpa", "intercept_n"])
+    .where("equipment_set_id", "=", fx.setA)
+    .executeTakeFirstOrThrow();
   const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tendons[0]!.id });
   const target = predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot }).jackingForceN;
   pressure = (target - c.intercept_n) / c.slope_n_per_mpa;
@@ -60,7 +77,8 @@ afterAll(async () => {
 
 async function predicted(tendonId: string) {
   const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId });
-  return predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot, equipmentGripMm: 457.2 }).predictedMm;
+  return predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot, equipmentGripMm: 457.2 })
+    .predictedMm;
 }
 
 async function stress(tendon: { id: string; pour_id: string }, factor: number) {
@@ -94,29 +112,59 @@ describe("from flag to release", () => {
       unstressed: [],
     });
     await expect(
-      releasePour(t.db, { projectId: fx.projectId, pourId, by: { ...people.engineer, role: "engineer" }, statement: "All tendons accepted, tails may be cut.", signerName: "Dana Okafor", licence: "PE 048213 (invented)" }),
+      releasePour(t.db, {
+        projectId: fx.projectId,
+        pourId,
+        by: { ...people.engineer, role: "engineer" },
+        statement: "All tendons accepted, tails may be cut.",
+        signerName: "Dana Okafor",
+        licence: "PE 048213 (invented)",
+      }),
     ).rejects.toMatchObject({ code: "CONFLICT", message: expect.stringContaining("1 open flag(s) on R-1") });
 
     // The inspector may not close an out-of-band flag as paperwork.
     await expect(
-      addReview(t.db, { projectId: fx.projectId, flagId, author: people.inspector, review: { kind: "closed_paperwork", body: "Looks like a typo to me." } }),
+      addReview(t.db, {
+        projectId: fx.projectId,
+        flagId,
+        author: people.inspector,
+        review: { kind: "closed_paperwork", body: "Looks like a typo to me." },
+      }),
     ).rejects.toMatchObject({ code: "CONFLICT" });
-    await addReview(t.db, { projectId: fx.projectId, flagId, author: people.inspector, review: { kind: "remeasured", body: "Re-measured the tail mark with a steel tape.", remeasuredMm: 150 } });
-    const sent = await addReview(t.db, { projectId: fx.projectId, flagId, author: people.inspector, review: { kind: "sent_to_engineer", body: "Short by 10 %; mark confirmed. Please advise." } });
+    await addReview(t.db, {
+      projectId: fx.projectId,
+      flagId,
+      author: people.inspector,
+      review: { kind: "remeasured", body: "Re-measured the tail mark with a steel tape.", remeasuredMm: 150 },
+    });
+    const sent = await addReview(t.db, {
+      projectId: fx.projectId,
+      flagId,
+      author: people.inspector,
+      review: { kind: "sent_to_engineer", body: "Short by 10 %; mark confirmed. Please advise." },
+    });
     expect(sent.flagStatus).toBe("with_engineer");
 
     const disposition = await recordDisposition(t.db, {
       projectId: fx.projectId,
       flagId,
       engineer: people.engineer,
-      disposition: { decision: "restress", reasons: "Short elongation; restress to the same gauge pressure and re-read.", licenceStatement: "Licensed professional engineer (demo)" },
+      disposition: {
+        decision: "restress",
+        reasons: "Short elongation; restress to the same gauge pressure and re-read.",
+        licenceStatement: "Licensed professional engineer (demo)",
+      },
     });
     expect(disposition.flagStatus).toBe("with_engineer");
 
     // The crew restresses; the new stressing answers the order and comes back in band.
     const restress = await stress(r1, 1.0);
     expect(restress.evaluation).toMatchObject({ verdict: "in band", flagKinds: [] });
-    const flag = await t.db.selectFrom("flags").select(["status", "close_reason"]).where("id", "=", flagId).executeTakeFirstOrThrow();
+    const flag = await t.db
+      .selectFrom("flags")
+      .select(["status", "close_reason"])
+      .where("id", "=", flagId)
+      .executeTakeFirstOrThrow();
     expect(flag.status).toBe("closed");
     expect(flag.close_reason).toContain(disposition.dispositionId);
 
@@ -124,17 +172,30 @@ describe("from flag to release", () => {
       projectId: fx.projectId,
       pourId,
       by: { ...people.engineer, role: "engineer" },
-      statement: "All tendons stressed and accepted; tails may be cut.", signerName: "Dana Okafor", licence: "PE 048213 (invented)",
+      statement: "All tendons stressed and accepted; tails may be cut.",
+      signerName: "Dana Okafor",
+      licence: "PE 048213 (invented)",
     });
     expect(release.releaseId).toBeTruthy();
-    const pour = await t.db.selectFrom("pour_states").select("status").where("pour_id", "=", pourId).executeTakeFirstOrThrow();
+    const pour = await t.db
+      .selectFrom("pour_states")
+      .select("status")
+      .where("pour_id", "=", pourId)
+      .executeTakeFirstOrThrow();
     expect(pour.status).toBe("released");
   });
 
   it("refuses a release by a role the project does not name, and a pour with ends never recorded", async () => {
     const pour = await t.db.selectFrom("pours").select("id").where("name", "=", "L2 Pour 2").executeTakeFirstOrThrow();
     await expect(
-      releasePour(t.db, { projectId: fx.projectId, pourId: pour.id, by: { ...people.inspector, role: "inspector" }, statement: "Release by the wrong person.", signerName: "Dana Okafor", licence: "PE 048213 (invented)" }),
+      releasePour(t.db, {
+        projectId: fx.projectId,
+        pourId: pour.id,
+        by: { ...people.inspector, role: "inspector" },
+        statement: "Release by the wrong person.",
+        signerName: "Dana Okafor",
+        licence: "PE 048213 (invented)",
+      }),
     ).rejects.toMatchObject({ code: "FORBIDDEN" });
     const blockers = await findReleaseBlockers(t.db, { projectId: fx.projectId, pourId: pour.id });
     expect(blockers.unstressed).toHaveLength(50);
@@ -153,24 +214,57 @@ describe("from flag to release", () => {
       correction: { reason: "Reading was copied from the tendon next to it.", measuredMm: right },
     });
     expect(corrected.evaluation.verdict).toBe("in band");
-    const chain = await t.db.selectFrom("records").select(["revision", "measured_mm", "revision_reason"]).where("chain_id", "=", recordId).orderBy("revision").execute();
+    const chain = await t.db
+      .selectFrom("records")
+      .select(["revision", "measured_mm", "revision_reason"])
+      .where("chain_id", "=", recordId)
+      .orderBy("revision")
+      .execute();
     expect(chain.map((r) => r.revision)).toEqual([1, 2]);
     expect(chain[0]!.measured_mm).toBeCloseTo(right * 1.2, 9);
     expect(chain[1]!.revision_reason).toBe("Reading was copied from the tendon next to it.");
-    await expect(correctRecord(t.db, { projectId: fx.projectId, recordId, by: people.inspector, correction: { reason: "Second try on the old one.", measuredMm: 1 } })).rejects.toMatchObject({
+    await expect(
+      correctRecord(t.db, {
+        projectId: fx.projectId,
+        recordId,
+        by: people.inspector,
+        correction: { reason: "Second try on the old one.", measuredMm: 1 },
+      }),
+    ).rejects.toMatchObject({
       code: "CONFLICT",
     });
     // With the corrected record in band, the inspector may now close the flag as paperwork.
-    const flag = await t.db.selectFrom("flags").select("id").where("tendon_id", "=", tendon.id).where("kind", "=", "out_of_band").executeTakeFirstOrThrow();
-    const closed = await addReview(t.db, { projectId: fx.projectId, flagId: flag.id, author: people.inspector, review: { kind: "closed_paperwork", body: "Transcription error; corrected revision is in band." } });
+    const flag = await t.db
+      .selectFrom("flags")
+      .select("id")
+      .where("tendon_id", "=", tendon.id)
+      .where("kind", "=", "out_of_band")
+      .executeTakeFirstOrThrow();
+    const closed = await addReview(t.db, {
+      projectId: fx.projectId,
+      flagId: flag.id,
+      author: people.inspector,
+      review: { kind: "closed_paperwork", body: "Transcription error; corrected revision is in band." },
+    });
     expect(closed.flagStatus).toBe("closed");
   });
 
   it("refuses to release a pour with no tendon schedule", async () => {
-    const empty = await t.db.insertInto("pours").values({ project_id: fx.projectId, name: "Empty pour" }).returning("id").executeTakeFirstOrThrow();
+    const empty = await t.db
+      .insertInto("pours")
+      .values({ project_id: fx.projectId, name: "Empty pour" })
+      .returning("id")
+      .executeTakeFirstOrThrow();
     expect((await findReleaseBlockers(t.db, { projectId: fx.projectId, pourId: empty.id })).noSchedule).toBe(true);
     await expect(
-      releasePour(t.db, { projectId: fx.projectId, pourId: empty.id, by: { ...people.engineer, role: "engineer" }, statement: "Nothing here to release at all.", signerName: "Dana Okafor", licence: "PE 048213 (invented)" }),
+      releasePour(t.db, {
+        projectId: fx.projectId,
+        pourId: empty.id,
+        by: { ...people.engineer, role: "engineer" },
+        statement: "Nothing here to release at all.",
+        signerName: "Dana Okafor",
+        licence: "PE 048213 (invented)",
+      }),
     ).rejects.toMatchObject({ code: "CONFLICT", message: expect.stringContaining("no tendon schedule") });
   });
 

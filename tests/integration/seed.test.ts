@@ -47,7 +47,15 @@ describe("demo seed", () => {
 
   it("adds the stressing history once: a released pour, flags at each stage, nothing doubled", async () => {
     await seedDemo(t.db, { records: true });
-    const count = async () => Number((await t.db.selectFrom("records").select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow()).n);
+    const count = async () =>
+      Number(
+        (
+          await t.db
+            .selectFrom("records")
+            .select((eb) => eb.fn.countAll<number>().as("n"))
+            .executeTakeFirstOrThrow()
+        ).n,
+      );
     const records = await count();
     expect(records).toBeGreaterThan(100);
     await seedDemo(t.db, { records: true });

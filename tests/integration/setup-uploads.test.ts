@@ -26,8 +26,15 @@ beforeAll(async () => {
   t = await createTestDatabase({ migrate: true });
   await seedDemo(t.db);
   projectId = (await t.db.selectFrom("projects").select("id").where("code", "=", "AYP").executeTakeFirstOrThrow()).id;
-  otherProjectId = (await t.db.selectFrom("projects").select("id").where("code", "=", "QHM").executeTakeFirstOrThrow()).id;
-  adminId = (await t.db.selectFrom("users").select("id").where("email", "=", "admin@demo.tautline.test").executeTakeFirstOrThrow()).id;
+  otherProjectId = (await t.db.selectFrom("projects").select("id").where("code", "=", "QHM").executeTakeFirstOrThrow())
+    .id;
+  adminId = (
+    await t.db
+      .selectFrom("users")
+      .select("id")
+      .where("email", "=", "admin@demo.tautline.test")
+      .executeTakeFirstOrThrow()
+  ).id;
 });
 afterAll(async () => {
   await t.drop();
@@ -43,15 +50,25 @@ describe("uploads", () => {
       originalName: "../../etc/lot AY-0871.pdf",
       uploadedBy: adminId,
     });
-    const pending = await t.db.selectFrom("attachments").select(["status", "object_key", "original_name"]).where("id", "=", started.attachmentId).executeTakeFirstOrThrow();
+    const pending = await t.db
+      .selectFrom("attachments")
+      .select(["status", "object_key", "original_name"])
+      .where("id", "=", started.attachmentId)
+      .executeTakeFirstOrThrow();
     expect(pending.status).toBe("pending");
     expect(pending.object_key).toContain(projectId);
     expect(pending.original_name).toBe("lot AY-0871.pdf");
-    await expect(confirmUpload(t.db, { projectId, attachmentId: started.attachmentId })).rejects.toMatchObject({ code: "CONFLICT" });
+    await expect(confirmUpload(t.db, { projectId, attachmentId: started.attachmentId })).rejects.toMatchObject({
+      code: "CONFLICT",
+    });
 
     await put(started.uploadUrl, started.headers, PDF);
     const stored = await confirmUpload(t.db, { projectId, attachmentId: started.attachmentId });
-    expect(stored).toMatchObject({ contentType: "application/pdf", sizeBytes: PDF.byteLength, sha256: createHash("sha256").update(PDF).digest("hex") });
+    expect(stored).toMatchObject({
+      contentType: "application/pdf",
+      sizeBytes: PDF.byteLength,
+      sha256: createHash("sha256").update(PDF).digest("hex"),
+    });
     // Confirming twice answers the same.
     expect(await confirmUpload(t.db, { projectId, attachmentId: started.attachmentId })).toEqual(stored);
 
@@ -59,7 +76,9 @@ describe("uploads", () => {
     expect(Buffer.from(read.body).equals(Buffer.from(PDF))).toBe(true);
     expect(read.headers["Content-Disposition"]).toMatch(/^attachment; filename="lot AY-0871.pdf"/);
     expect(read.headers["X-Content-Type-Options"]).toBe("nosniff");
-    await expect(readAttachment(t.db, { projectId: otherProjectId, attachmentId: started.attachmentId })).rejects.toMatchObject({ code: "NOT_FOUND" });
+    await expect(
+      readAttachment(t.db, { projectId: otherProjectId, attachmentId: started.attachmentId }),
+    ).rejects.toMatchObject({ code: "NOT_FOUND" });
   });
 
   it("delete and refuse a file whose content is not what its purpose allows", async () => {
@@ -76,19 +95,44 @@ describe("uploads", () => {
       code: "INVALID_INPUT",
       fields: { file: expect.any(Array) },
     });
-    expect(await t.db.selectFrom("attachments").select("id").where("id", "=", started.attachmentId).executeTakeFirst()).toBeUndefined();
+    expect(
+      await t.db.selectFrom("attachments").select("id").where("id", "=", started.attachmentId).executeTakeFirst(),
+    ).toBeUndefined();
   });
 
   it("accept a real image as a photo and refuse declared types and sizes outside the rules before any upload", async () => {
-    const started = await presignUpload(t.db, { projectId, purpose: "record_photo", contentType: "image/png", sizeBytes: PNG.byteLength, originalName: "g.png", uploadedBy: adminId });
+    const started = await presignUpload(t.db, {
+      projectId,
+      purpose: "record_photo",
+      contentType: "image/png",
+      sizeBytes: PNG.byteLength,
+      originalName: "g.png",
+      uploadedBy: adminId,
+    });
     await put(started.uploadUrl, started.headers, PNG);
-    expect((await confirmUpload(t.db, { projectId, attachmentId: started.attachmentId })).contentType).toBe("image/png");
+    expect((await confirmUpload(t.db, { projectId, attachmentId: started.attachmentId })).contentType).toBe(
+      "image/png",
+    );
 
     await expect(
-      presignUpload(t.db, { projectId, purpose: "record_photo", contentType: "application/pdf", sizeBytes: 10, originalName: "x.pdf", uploadedBy: adminId }),
+      presignUpload(t.db, {
+        projectId,
+        purpose: "record_photo",
+        contentType: "application/pdf",
+        sizeBytes: 10,
+        originalName: "x.pdf",
+        uploadedBy: adminId,
+      }),
     ).rejects.toMatchObject({ code: "INVALID_INPUT", fields: { contentType: expect.any(Array) } });
     await expect(
-      presignUpload(t.db, { projectId, purpose: "mill_certificate", contentType: "application/pdf", sizeBytes: 10 ** 10, originalName: "x.pdf", uploadedBy: adminId }),
+      presignUpload(t.db, {
+        projectId,
+        purpose: "mill_certificate",
+        contentType: "application/pdf",
+        sizeBytes: 10 ** 10,
+        originalName: "x.pdf",
+        uploadedBy: adminId,
+      }),
     ).rejects.toMatchObject({ code: "INVALID_INPUT", fields: { file: expect.any(Array) } });
   });
 });

@@ -363,9 +363,18 @@ describe("the read-only status board", () => {
   it("shows each pour's state and signed reports, and ends at expiry or revocation, auditing every view", async () => {
     const { createShareLink, revokeShareLink } = await import("@/lib/server/manage-share-links");
     const { getShareBoard, readSharedReport } = await import("@/lib/server/get-share-board");
-    const engineer = await t.db.selectFrom("users").select("id").where("email", "=", "engineer@demo.tautline.test").executeTakeFirstOrThrow();
+    const engineer = await t.db
+      .selectFrom("users")
+      .select("id")
+      .where("email", "=", "engineer@demo.tautline.test")
+      .executeTakeFirstOrThrow();
     const now = new Date("2026-12-02T12:00:00Z");
-    const link = await createShareLink(t.db, { projectId: fx.projectId, by: engineer, values: { label: "Building official (test)", days: 7 }, now });
+    const link = await createShareLink(t.db, {
+      projectId: fx.projectId,
+      by: engineer,
+      values: { label: "Building official (test)", days: 7 },
+      now,
+    });
     const board = await getShareBoard(t.db, { token: link.token, now });
     const signedPour = board.pours.find((p) => p.name === "Signed pour")!;
     // S-01 still has an open jacking-force flag; S-02 is not stressed.
@@ -376,13 +385,24 @@ describe("the read-only status board", () => {
     expect(Buffer.from(file.body.subarray(0, 5)).toString()).toBe("%PDF-");
 
     // Expired a moment after its last day.
-    await expect(getShareBoard(t.db, { token: link.token, now: new Date(link.expiresAt.getTime() + 1000) })).rejects.toMatchObject({ code: "GONE" });
+    await expect(
+      getShareBoard(t.db, { token: link.token, now: new Date(link.expiresAt.getTime() + 1000) }),
+    ).rejects.toMatchObject({ code: "GONE" });
     // Revoked: gone at once.
     await revokeShareLink(t.db, { projectId: fx.projectId, linkId: link.linkId, by: engineer });
     await expect(getShareBoard(t.db, { token: link.token, now })).rejects.toMatchObject({ code: "GONE" });
-    await expect(readSharedReport(t.db, { token: link.token, pourId, revision: 2, now })).rejects.toMatchObject({ code: "GONE" });
-    await expect(revokeShareLink(t.db, { projectId: fx.projectId, linkId: link.linkId, by: engineer })).rejects.toMatchObject({ code: "CONFLICT" });
-    const audits = await t.db.selectFrom("audit_events").select(["action", "outcome"]).where("target", "=", `share:${link.linkId}`).orderBy("at").execute();
+    await expect(readSharedReport(t.db, { token: link.token, pourId, revision: 2, now })).rejects.toMatchObject({
+      code: "GONE",
+    });
+    await expect(
+      revokeShareLink(t.db, { projectId: fx.projectId, linkId: link.linkId, by: engineer }),
+    ).rejects.toMatchObject({ code: "CONFLICT" });
+    const audits = await t.db
+      .selectFrom("audit_events")
+      .select(["action", "outcome"])
+      .where("target", "=", `share:${link.linkId}`)
+      .orderBy("at")
+      .execute();
     expect(audits.map((a) => `${a.action}/${a.outcome}`)).toEqual([
       "share.create/success",
       "share.view/success",

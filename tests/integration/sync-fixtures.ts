@@ -26,7 +26,11 @@ export interface SyncWorld {
 
 async function pusher(db: Db, email: string): Promise<Pusher & { email: string }> {
   const user = await db.selectFrom("users").select("id").where("email", "=", email).executeTakeFirstOrThrow();
-  const memberships = await db.selectFrom("project_members").select(["project_id as projectId", "role"]).where("user_id", "=", user.id).execute();
+  const memberships = await db
+    .selectFrom("project_members")
+    .select(["project_id as projectId", "role"])
+    .where("user_id", "=", user.id)
+    .execute();
   return { id: user.id, email, memberships };
 }
 
@@ -34,12 +38,30 @@ export async function buildWorld(db: Db): Promise<SyncWorld> {
   // The fixed dates of these tests are read against the demo seeded as on 2026-12-01.
   await seedDemo(db, { today: new Date("2026-12-01T12:00:00Z") });
   const project = await db.selectFrom("projects").selectAll().where("code", "=", "AYP").executeTakeFirstOrThrow();
-  const pour = await db.selectFrom("pours").select("id").where("project_id", "=", project.id).where("name", "=", "L2 Pour 1").executeTakeFirstOrThrow();
-  const tendons = await db.selectFrom("tendons").select(["id", "tag", "ends"]).where("pour_id", "=", pour.id).orderBy("tag").execute();
+  const pour = await db
+    .selectFrom("pours")
+    .select("id")
+    .where("project_id", "=", project.id)
+    .where("name", "=", "L2 Pour 1")
+    .executeTakeFirstOrThrow();
+  const tendons = await db
+    .selectFrom("tendons")
+    .select(["id", "tag", "ends"])
+    .where("pour_id", "=", pour.id)
+    .orderBy("tag")
+    .execute();
   const sets = await db
     .selectFrom("equipment_sets")
     .innerJoin("calibrations", "calibrations.equipment_set_id", "equipment_sets.id")
-    .select(["equipment_sets.id", "equipment_sets.name", "calibrations.id as calibrationId", "calibrations.slope_n_per_mpa", "calibrations.intercept_n", "calibrations.min_pressure_mpa", "calibrations.max_pressure_mpa"])
+    .select([
+      "equipment_sets.id",
+      "equipment_sets.name",
+      "calibrations.id as calibrationId",
+      "calibrations.slope_n_per_mpa",
+      "calibrations.intercept_n",
+      "calibrations.min_pressure_mpa",
+      "calibrations.max_pressure_mpa",
+    ])
     .where("equipment_sets.project_id", "=", project.id)
     .orderBy("equipment_sets.name")
     .execute();
@@ -47,7 +69,11 @@ export async function buildWorld(db: Db): Promise<SyncWorld> {
   if (!a || !b) throw new Error("the demo seed has no equipment sets with calibrations");
 
   const qhm = await db.selectFrom("projects").select("id").where("code", "=", "QHM").executeTakeFirstOrThrow();
-  const qPour = await db.insertInto("pours").values({ project_id: qhm.id, name: "Sync test pour" }).returning("id").executeTakeFirstOrThrow();
+  const qPour = await db
+    .insertInto("pours")
+    .values({ project_id: qhm.id, name: "Sync test pour" })
+    .returning("id")
+    .executeTakeFirstOrThrow();
   const qTendon = await db
     .insertInto("tendons")
     .values({
@@ -69,9 +95,24 @@ export async function buildWorld(db: Db): Promise<SyncWorld> {
     .executeTakeFirstOrThrow();
 
   const basisProject = projectBasisFromRow(project);
-  const line = { slope: a.slope_n_per_mpa, intercept: a.intercept_n, minPressureMPa: a.min_pressure_mpa, maxPressureMPa: a.max_pressure_mpa };
+  const line = {
+    slope: a.slope_n_per_mpa,
+    intercept: a.intercept_n,
+    minPressureMPa: a.min_pressure_mpa,
+    maxPressureMPa: a.max_pressure_mpa,
+  };
   const first = await db.selectFrom("tendons").selectAll().where("id", "=", tendons[0]!.id).executeTakeFirstOrThrow();
-  const jackingForce = predictTendon({ project: basisProject, tendon: { strandSize: first.strand_size, strandCount: first.strand_count, segments: first.segments, ends: first.ends, jackGripMm: first.jack_grip_mm }, lot: null }).jackingForceN;
+  const jackingForce = predictTendon({
+    project: basisProject,
+    tendon: {
+      strandSize: first.strand_size,
+      strandCount: first.strand_count,
+      segments: first.segments,
+      ends: first.ends,
+      jackGripMm: first.jack_grip_mm,
+    },
+    lot: null,
+  }).jackingForceN;
 
   return {
     projectId: project.id,
@@ -86,10 +127,18 @@ export async function buildWorld(db: Db): Promise<SyncWorld> {
     targetPsi: String(Math.round(mpaToPsi(targetPressureMPa(line, jackingForce)))),
     inBandAfter: async (tendonId) => {
       const t = await db.selectFrom("tendons").selectAll().where("id", "=", tendonId).executeTakeFirstOrThrow();
-      const lot = t.strand_lot_id ? await db.selectFrom("strand_lots").selectAll().where("id", "=", t.strand_lot_id).executeTakeFirst() : undefined;
+      const lot = t.strand_lot_id
+        ? await db.selectFrom("strand_lots").selectAll().where("id", "=", t.strand_lot_id).executeTakeFirst()
+        : undefined;
       const predicted = predictTendon({
         project: basisProject,
-        tendon: { strandSize: t.strand_size, strandCount: t.strand_count, segments: t.segments, ends: t.ends, jackGripMm: t.jack_grip_mm },
+        tendon: {
+          strandSize: t.strand_size,
+          strandCount: t.strand_count,
+          segments: t.segments,
+          ends: t.ends,
+          jackGripMm: t.jack_grip_mm,
+        },
         lot: lot ? { areaMm2: lot.area_mm2, modulusMPa: lot.modulus_mpa, breakingLoadN: lot.breaking_load_n } : null,
       });
       // For a two-end tendon one end's reading is judged on that end's share.
@@ -100,10 +149,22 @@ export async function buildWorld(db: Db): Promise<SyncWorld> {
 }
 
 /** A crew member's new record of end A of a tendon, as the tablet builds it from the form. */
-export function recordPayload(world: SyncWorld, tendonId: string, form: Partial<RecordFormValues> = {}, extra: Partial<RecordPayload> = {}): { recordId: string; payload: RecordPayload } {
+export function recordPayload(
+  world: SyncWorld,
+  tendonId: string,
+  form: Partial<RecordFormValues> = {},
+  extra: Partial<RecordPayload> = {},
+): { recordId: string; payload: RecordPayload } {
   const recordId = uuidv7();
   const payload = payloadFromForm(
-    { ...EMPTY_RECORD_FORM, equipmentSetId: world.setA.id, finalPressure: world.targetPsi, marksBefore: "0", marksAfter: "4 1/2", ...form },
+    {
+      ...EMPTY_RECORD_FORM,
+      equipmentSetId: world.setA.id,
+      finalPressure: world.targetPsi,
+      marksBefore: "0",
+      marksAfter: "4 1/2",
+      ...form,
+    },
     {
       units: { length: "in", pressure: "psi" },
       projectId: world.projectId,
@@ -122,24 +183,42 @@ export function recordPayload(world: SyncWorld, tendonId: string, form: Partial<
   return { recordId, payload: { ...payload, ...extra } };
 }
 
-export function createOp(world: SyncWorld, tendonId: string, form: Partial<RecordFormValues> = {}, extra: Partial<RecordPayload> = {}): SyncOp {
+export function createOp(
+  world: SyncWorld,
+  tendonId: string,
+  form: Partial<RecordFormValues> = {},
+  extra: Partial<RecordPayload> = {},
+): SyncOp {
   const { recordId, payload } = recordPayload(world, tendonId, form, extra);
   return { opId: crypto.randomUUID(), kind: "create", recordId, payload };
 }
 
 /** A correction of a stored revision: revision n+1 naming its base. */
-export function reviseOp(base: { recordId: string; revision: number; payload: RecordPayload }, changes: Partial<RecordPayload>, reason = "Misread the tape"): SyncOp & { payload: RecordPayload } {
+export function reviseOp(
+  base: { recordId: string; revision: number; payload: RecordPayload },
+  changes: Partial<RecordPayload>,
+  reason = "Misread the tape",
+): SyncOp & { payload: RecordPayload } {
   const recordId = uuidv7();
   return {
     opId: crypto.randomUUID(),
     kind: "revise",
     recordId,
     baseVersion: base.revision,
-    payload: { ...base.payload, ...changes, revision: base.revision + 1, baseRecordId: base.recordId, revisionReason: reason },
+    payload: {
+      ...base.payload,
+      ...changes,
+      revision: base.revision + 1,
+      baseRecordId: base.recordId,
+      revisionReason: reason,
+    },
   };
 }
 
 export async function rowsOf(db: Db, table: "records" | "applied_ops"): Promise<number> {
-  const row = await db.selectFrom(table).select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow();
+  const row = await db
+    .selectFrom(table)
+    .select((eb) => eb.fn.countAll<number>().as("n"))
+    .executeTakeFirstOrThrow();
   return Number(row.n);
 }

@@ -31,7 +31,13 @@ beforeAll(async () => {
   t = await createTestDatabase({ migrate: true });
   w = await buildWorld(t.db);
   routeState.db = t.db;
-  routeState.user = { id: w.crew.id, email: w.crew.email, name: "Crew", isOperator: false, memberships: w.crew.memberships.map((m) => ({ ...m, projectName: "", projectCode: "" })) };
+  routeState.user = {
+    id: w.crew.id,
+    email: w.crew.email,
+    name: "Crew",
+    isOperator: false,
+    memberships: w.crew.memberships.map((m) => ({ ...m, projectName: "", projectCode: "" })),
+  };
 });
 afterAll(async () => {
   await t.drop();
@@ -102,11 +108,20 @@ type Cmd = fc.AsyncCommand<Model, Tablet>;
 /** Server rows of this tablet: nothing it did not make, chains without gaps. */
 async function checkServer(model: Model, tablet: Tablet) {
   const device = await deviceId(tablet.db);
-  const rows = await t.db.selectFrom("records").select(["id", "chain_id", "revision"]).where("device_id", "=", device).execute();
-  for (const row of rows) expect(model.records.get(row.id), `server row ${row.id} not made by the tablet`).toEqual({ chainId: row.chain_id, revision: row.revision });
+  const rows = await t.db
+    .selectFrom("records")
+    .select(["id", "chain_id", "revision"])
+    .where("device_id", "=", device)
+    .execute();
+  for (const row of rows)
+    expect(model.records.get(row.id), `server row ${row.id} not made by the tablet`).toEqual({
+      chainId: row.chain_id,
+      revision: row.revision,
+    });
   const byChain = new Map<string, number[]>();
   for (const row of rows) byChain.set(row.chain_id, [...(byChain.get(row.chain_id) ?? []), row.revision]);
-  for (const revisions of byChain.values()) expect(revisions.sort((a, b) => a - b)).toEqual(revisions.map((_, i) => i + 1));
+  for (const revisions of byChain.values())
+    expect(revisions.sort((a, b) => a - b)).toEqual(revisions.map((_, i) => i + 1));
   return rows;
 }
 
@@ -117,7 +132,12 @@ class CreateCmd implements Cmd {
   constructor(readonly tendon: number) {}
   check = () => true;
   async run(model: Model, tablet: Tablet) {
-    const { recordId, payload } = recordPayload(w, w.tendons[this.tendon]!.id, {}, { deviceTime: new Date((stressedAt += 60_000)).toISOString() });
+    const { recordId, payload } = recordPayload(
+      w,
+      w.tendons[this.tendon]!.id,
+      {},
+      { deviceTime: new Date((stressedAt += 60_000)).toISOString() },
+    );
     await saveRecord(tablet.db, { recordId, payload, authorName: "Crew", local: null });
     model.records.set(recordId, { chainId: recordId, revision: 1 });
     model.heads.set(recordId, recordId);
@@ -187,7 +207,13 @@ describe("sync client against the real server (model-based)", () => {
       fc.asyncProperty(fc.commands(commands, { maxCommands: 40 }), async (cmds) => {
         const net: Net = { online: true, dropNextPush: false, duplicateNextPush: false };
         const tablet = new Tablet(`model-${crypto.randomUUID()}`, new IDBFactory(), net);
-        await writeMeta(tablet.db, "session", { userId: w.crew.id, name: "Crew", email: w.crew.email, projects: [], checkedAt: new Date().toISOString() });
+        await writeMeta(tablet.db, "session", {
+          userId: w.crew.id,
+          name: "Crew",
+          email: w.crew.email,
+          projects: [],
+          checkedAt: new Date().toISOString(),
+        });
         expect(await tablet.client.download(w.pourId)).toEqual({ ok: true });
         const model: Model = { records: new Map(), heads: new Map() };
         await fc.asyncModelRun(() => ({ model, real: tablet }), cmds);

@@ -33,7 +33,8 @@ const evaluationsOf = (tendonId: string) =>
     .where("tendon_id", "=", tendonId)
     .orderBy("created_at", "desc")
     .execute();
-const recordsOf = (recordIds: string[]) => t.db.selectFrom("records").select(["id", "revision"]).where("id", "in", recordIds).execute();
+const recordsOf = (recordIds: string[]) =>
+  t.db.selectFrom("records").select(["id", "revision"]).where("id", "in", recordIds).execute();
 
 describe("push: idempotency", () => {
   it("applies a batch once; the same batch again answers duplicate and writes nothing", async () => {
@@ -83,7 +84,11 @@ describe("push: idempotency", () => {
     expect(first.results[0]!.evaluation).toBeDefined();
     const again = await push([op]);
     expect(again.results[0]!.evaluation).toEqual(first.results[0]!.evaluation);
-    const evaluations = await t.db.selectFrom("evaluations").select("id").where("tendon_id", "=", w.tendons[5]!.id).execute();
+    const evaluations = await t.db
+      .selectFrom("evaluations")
+      .select("id")
+      .where("tendon_id", "=", w.tendons[5]!.id)
+      .execute();
     expect(evaluations).toHaveLength(1);
   });
 });
@@ -105,7 +110,12 @@ describe("push: corrections", () => {
     expect(answer.error?.message).toMatch(/revision 2/);
     expect(await rowsOf(t.db, "records")).toBe(recordsBefore);
     expect(await rowsOf(t.db, "applied_ops")).toBe(claimsBefore);
-    const chain = await t.db.selectFrom("records").select("revision").where("chain_id", "=", create.recordId).orderBy("revision").execute();
+    const chain = await t.db
+      .selectFrom("records")
+      .select("revision")
+      .where("chain_id", "=", create.recordId)
+      .orderBy("revision")
+      .execute();
     expect(chain.map((r) => r.revision)).toEqual([1, 2]);
   });
 
@@ -113,7 +123,10 @@ describe("push: corrections", () => {
     const create = createOp(w, w.tendons[7]!.id) as SyncOp & { payload: RecordPayload };
     await push([create]);
     const base = { recordId: create.recordId, revision: 1, payload: create.payload };
-    const [x, y] = await Promise.all([push([reviseOp(base, { remarks: "x" })]), push([reviseOp(base, { remarks: "y" })])]);
+    const [x, y] = await Promise.all([
+      push([reviseOp(base, { remarks: "x" })]),
+      push([reviseOp(base, { remarks: "y" })]),
+    ]);
     expect([...statuses(x!), ...statuses(y!)].sort()).toEqual(["applied", "conflict"]);
     const chain = await t.db.selectFrom("records").select("revision").where("chain_id", "=", create.recordId).execute();
     expect(chain).toHaveLength(2);
@@ -147,12 +160,19 @@ describe("push: bad operations", () => {
     p.entered = { ...p.entered, finalPressure: "lots", marks: { before: "0", after: "8 9/8" } };
     const answer = (await push([bad])).results[0]!;
     expect(answer.status).toBe("rejected");
-    expect(Object.keys(answer.error!.fields!)).toEqual(expect.arrayContaining(["entered.finalPressure", "entered.marksAfter"]));
+    expect(Object.keys(answer.error!.fields!)).toEqual(
+      expect.arrayContaining(["entered.finalPressure", "entered.marksAfter"]),
+    );
   });
 
   it("rejects another project's tendon, a project the person is not on, and a role that may not record", async () => {
     const viaOwnProject = createOp(w, w.foreign.tendonId);
-    const intoForeignProject = createOp(w, w.foreign.tendonId, {}, { projectId: w.foreign.projectId, pourId: w.foreign.pourId });
+    const intoForeignProject = createOp(
+      w,
+      w.foreign.tendonId,
+      {},
+      { projectId: w.foreign.projectId, pourId: w.foreign.pourId },
+    );
     const before = await rowsOf(t.db, "records");
     const { results } = await push([viaOwnProject, intoForeignProject]);
     expect(results.map((r) => [r.status, r.error?.code])).toEqual([
@@ -161,26 +181,47 @@ describe("push: bad operations", () => {
     ]);
     // The other project's crew member cannot record on this project either.
     const theirs = createOp(w, w.tendons[13]!.id, {}, { authorUserId: w.other.id });
-    expect((await push([theirs], w.other)).results[0]).toMatchObject({ status: "rejected", error: { code: "NOT_FOUND" } });
+    expect((await push([theirs], w.other)).results[0]).toMatchObject({
+      status: "rejected",
+      error: { code: "NOT_FOUND" },
+    });
     const inspectors = createOp(w, w.tendons[13]!.id, {}, { authorUserId: w.inspector.id });
-    expect((await push([inspectors], w.inspector)).results[0]).toMatchObject({ status: "rejected", error: { code: "FORBIDDEN" } });
+    expect((await push([inspectors], w.inspector)).results[0]).toMatchObject({
+      status: "rejected",
+      error: { code: "FORBIDDEN" },
+    });
     expect(await rowsOf(t.db, "records")).toBe(before);
   });
 
   it("refuses a record made by someone else than the person pushing", async () => {
     const op = createOp(w, w.tendons[14]!.id, {}, { authorUserId: w.inspector.id });
-    expect((await push([op])).results[0]).toMatchObject({ status: "rejected", error: { fields: { authorUserId: expect.any(Array) } } });
+    expect((await push([op])).results[0]).toMatchObject({
+      status: "rejected",
+      error: { fields: { authorUserId: expect.any(Array) } },
+    });
   });
 
   it("wants a reason for an equipment set whose calibration had expired that day", async () => {
     const day = new Date("2026-12-20T10:00:00-08:00");
-    const noReason = createOp(w, w.tendons[15]!.id, { equipmentSetId: w.setB.id }, { calibrationId: w.setB.calibrationId, deviceTime: day.toISOString() });
-    expect((await push([noReason])).results[0]).toMatchObject({ status: "rejected", error: { fields: { expiredCalibrationReason: expect.any(Array) } } });
+    const noReason = createOp(
+      w,
+      w.tendons[15]!.id,
+      { equipmentSetId: w.setB.id },
+      { calibrationId: w.setB.calibrationId, deviceTime: day.toISOString() },
+    );
+    expect((await push([noReason])).results[0]).toMatchObject({
+      status: "rejected",
+      error: { fields: { expiredCalibrationReason: expect.any(Array) } },
+    });
     const withReason = createOp(
       w,
       w.tendons[15]!.id,
       { equipmentSetId: w.setB.id },
-      { calibrationId: w.setB.calibrationId, deviceTime: day.toISOString(), expiredCalibrationReason: "Set A jack leaking; engineer told by phone" },
+      {
+        calibrationId: w.setB.calibrationId,
+        deviceTime: day.toISOString(),
+        expiredCalibrationReason: "Set A jack leaking; engineer told by phone",
+      },
     );
     const answer = (await push([withReason])).results[0]!;
     expect(answer.status).toBe("applied");
@@ -282,12 +323,19 @@ describe("push: another write between an op's read and its write", () => {
       hooks: {
         beforeWrite: async () => {
           const other = createOp(w, theirs.id);
-          const sameId = { ...other, recordId: op.recordId, payload: { ...(other.payload as RecordPayload), chainId: op.recordId } };
+          const sameId = {
+            ...other,
+            recordId: op.recordId,
+            payload: { ...(other.payload as RecordPayload), chainId: op.recordId },
+          };
           expect(statuses(await push([sameId]))).toEqual(["applied"]);
         },
       },
     });
-    expect(results[0]).toMatchObject({ status: "conflict", error: { code: "CONFLICT", message: expect.stringContaining("already stored elsewhere") } });
+    expect(results[0]).toMatchObject({
+      status: "conflict",
+      error: { code: "CONFLICT", message: expect.stringContaining("already stored elsewhere") },
+    });
     const claim = await t.db.selectFrom("applied_ops").select("op_id").where("op_id", "=", op.opId).execute();
     expect(claim).toHaveLength(0);
     expect(await evaluationsOf(mine.id)).toHaveLength(0);

@@ -42,7 +42,14 @@ afterAll(async () => {
 });
 
 function postPush(body: string, headers: Record<string, string> = {}): Promise<Response> {
-  return push(new NextRequest(`${ORIGIN}/api/sync/push`, { method: "POST", body, headers: { "content-type": "application/json", origin: ORIGIN, ...headers } }), noParams);
+  return push(
+    new NextRequest(`${ORIGIN}/api/sync/push`, {
+      method: "POST",
+      body,
+      headers: { "content-type": "application/json", origin: ORIGIN, ...headers },
+    }),
+    noParams,
+  );
 }
 const getJson = async <T>(res: Response) => ({ status: res.status, body: (await res.json()) as T });
 
@@ -51,14 +58,20 @@ describe("POST /api/sync/push through the route", () => {
     const body = JSON.stringify({ deviceId: "tablet-routes-01", ops: [createOp(w, w.tendons[0]!.id)] });
     routeState.user = null;
     expect((await postPush(body)).status).toBe(401);
-    routeState.user = { ...crew, id: w.inspector.id, memberships: w.inspector.memberships.map((m) => ({ ...m, projectName: "", projectCode: "" })) };
+    routeState.user = {
+      ...crew,
+      id: w.inspector.id,
+      memberships: w.inspector.memberships.map((m) => ({ ...m, projectName: "", projectCode: "" })),
+    };
     expect((await postPush(body)).status).toBe(403);
     routeState.user = crew;
     expect(await rowsOf(t.db, "records")).toBe(0);
   });
 
   it("answers 422 naming the fields of a malformed envelope", async () => {
-    const res = await getJson<{ error: { fields: Record<string, string[]> } }>(await postPush(JSON.stringify({ deviceId: "x", ops: [] })));
+    const res = await getJson<{ error: { fields: Record<string, string[]> } }>(
+      await postPush(JSON.stringify({ deviceId: "x", ops: [] })),
+    );
     expect(res.status).toBe(422);
     expect(Object.keys(res.body.error.fields).sort()).toEqual(["deviceId", "ops"]);
   });
@@ -67,18 +80,41 @@ describe("POST /api/sync/push through the route", () => {
     const valid = () => createOp(w, w.tendons[20]!.id);
     const payloadKeys = Object.keys(valid().payload as object);
     // Bodies from anything at all to valid envelopes whose payload has one field replaced by junk.
-    const junk = fc.oneof(fc.anything(), fc.string(), fc.double(), fc.integer(), fc.constant(null), fc.uuid(), fc.array(fc.anything(), { maxLength: 3 }));
-    const mutatedOp = fc.record({ key: fc.constantFrom(...payloadKeys, "opId", "kind", "recordId", "baseVersion", "extra"), value: junk }).map(({ key, value }) => {
-      const op = valid() as unknown as Record<string, unknown> & { payload: Record<string, unknown> };
-      if (["opId", "kind", "recordId", "baseVersion", "extra"].includes(key)) op[key] = value;
-      else op.payload[key] = value;
-      return op;
-    });
+    const junk = fc.oneof(
+      fc.anything(),
+      fc.string(),
+      fc.double(),
+      fc.integer(),
+      fc.constant(null),
+      fc.uuid(),
+      fc.array(fc.anything(), { maxLength: 3 }),
+    );
+    const mutatedOp = fc
+      .record({ key: fc.constantFrom(...payloadKeys, "opId", "kind", "recordId", "baseVersion", "extra"), value: junk })
+      .map(({ key, value }) => {
+        const op = valid() as unknown as Record<string, unknown> & { payload: Record<string, unknown> };
+        if (["opId", "kind", "recordId", "baseVersion", "extra"].includes(key)) op[key] = value;
+        else op.payload[key] = value;
+        return op;
+      });
     const body = fc.oneof(
       { weight: 1, arbitrary: fc.anything().map((v) => JSON.stringify(v) ?? "null") },
       { weight: 1, arbitrary: fc.string() },
-      { weight: 1, arbitrary: fc.record({ deviceId: fc.oneof(fc.string(), fc.constant("tablet-fuzz-0001")), ops: fc.array(junk, { maxLength: 3 }) }).map((b) => JSON.stringify(b)) },
-      { weight: 4, arbitrary: fc.array(mutatedOp, { minLength: 1, maxLength: 3 }).map((ops) => JSON.stringify({ deviceId: "tablet-fuzz-0001", ops })) },
+      {
+        weight: 1,
+        arbitrary: fc
+          .record({
+            deviceId: fc.oneof(fc.string(), fc.constant("tablet-fuzz-0001")),
+            ops: fc.array(junk, { maxLength: 3 }),
+          })
+          .map((b) => JSON.stringify(b)),
+      },
+      {
+        weight: 4,
+        arbitrary: fc
+          .array(mutatedOp, { minLength: 1, maxLength: 3 })
+          .map((ops) => JSON.stringify({ deviceId: "tablet-fuzz-0001", ops })),
+      },
     );
     let applied = 0;
     let answered422 = 0;
@@ -109,7 +145,9 @@ describe("pull and download through the routes", () => {
     handler(new NextRequest(`${ORIGIN}${url}`), { params: Promise.resolve(params) });
 
   it("lists the pours a crew member may take out, and downloads one with its tendons, sets and calibrations", async () => {
-    const list = await getJson<{ pours: { id: string; projectCode: string; tendonCount: number }[] }>(await get(listPours, "/api/field/pours"));
+    const list = await getJson<{ pours: { id: string; projectCode: string; tendonCount: number }[] }>(
+      await get(listPours, "/api/field/pours"),
+    );
     expect(list.status).toBe(200);
     expect(list.body.pours.every((p) => p.projectCode === "AYP")).toBe(true);
     expect(list.body.pours.find((p) => p.id === w.pourId)?.tendonCount).toBe(w.tendons.length);
@@ -124,7 +162,9 @@ describe("pull and download through the routes", () => {
   });
 
   it("does not download another project's pour (404), nor pull it (listed unavailable)", async () => {
-    expect((await get(download, `/api/field/pours/${w.foreign.pourId}`, { pourId: w.foreign.pourId })).status).toBe(404);
+    expect((await get(download, `/api/field/pours/${w.foreign.pourId}`, { pourId: w.foreign.pourId })).status).toBe(
+      404,
+    );
     const res = await getJson<PullResponse>(await get(pull, `/api/sync/pull?cursor=0&pours=${w.foreign.pourId}`));
     expect(res.body.unavailable).toEqual([w.foreign.pourId]);
     expect(res.body.tendons).toEqual([]);
@@ -134,21 +174,30 @@ describe("pull and download through the routes", () => {
   it("returns what changed since the cursor and nothing twice once the cursor has moved past it", async () => {
     const first = await getJson<PullResponse>(await get(pull, `/api/sync/pull?cursor=0&pours=${w.pourId}`));
     const op = createOp(w, w.tendons[21]!.id) as ReturnType<typeof createOp> & { payload: RecordPayload };
-    const pushed = await getJson<PushResponse>(await postPush(JSON.stringify({ deviceId: "tablet-routes-01", ops: [op] })));
+    const pushed = await getJson<PushResponse>(
+      await postPush(JSON.stringify({ deviceId: "tablet-routes-01", ops: [op] })),
+    );
     expect(pushed.body.results[0]!.status).toBe("applied");
     await t.db.updateTable("tendons").set({ jack_grip_mm: 400 }).where("id", "=", w.tendons[22]!.id).execute();
 
-    const second = await getJson<PullResponse>(await get(pull, `/api/sync/pull?cursor=${first.body.cursor}&pours=${w.pourId}`));
+    const second = await getJson<PullResponse>(
+      await get(pull, `/api/sync/pull?cursor=${first.body.cursor}&pours=${w.pourId}`),
+    );
     expect(second.body.records.map((r) => r.id)).toContain(op.recordId);
     expect(second.body.tendons.map((x) => x.id)).toContain(w.tendons[22]!.id);
     expect(second.body.evaluations.map((e) => e.tendonId)).toContain(w.tendons[21]!.id);
     expect(second.body.equipmentSets).toEqual([]);
 
     // A correction appears as the next revision; a deleted tendon as a tombstone.
-    const fix = reviseOp({ recordId: op.recordId, revision: 1, payload: op.payload }, { remarks: "Recorded the wrong end mark" });
+    const fix = reviseOp(
+      { recordId: op.recordId, revision: 1, payload: op.payload },
+      { remarks: "Recorded the wrong end mark" },
+    );
     await postPush(JSON.stringify({ deviceId: "tablet-routes-01", ops: [fix] }));
     await t.db.deleteFrom("tendons").where("id", "=", w.tendons[49]!.id).execute();
-    const third = await getJson<PullResponse>(await get(pull, `/api/sync/pull?cursor=${second.body.cursor}&pours=${w.pourId}`));
+    const third = await getJson<PullResponse>(
+      await get(pull, `/api/sync/pull?cursor=${second.body.cursor}&pours=${w.pourId}`),
+    );
     expect(third.body.records.map((r) => [r.id, r.revision])).toEqual([[fix.recordId, 2]]);
     expect(third.body.removed).toEqual([{ table: "tendons", id: w.tendons[49]!.id }]);
     expect(third.body.tendons.map((x) => x.id)).not.toContain(w.tendons[22]!.id);
@@ -167,11 +216,15 @@ describe("pull and download through the routes", () => {
       await gate;
     });
     await written;
-    const during = await getJson<PullResponse>(await get(pull, `/api/sync/pull?cursor=${start.body.cursor}&pours=${w.pourId}`));
+    const during = await getJson<PullResponse>(
+      await get(pull, `/api/sync/pull?cursor=${start.body.cursor}&pours=${w.pourId}`),
+    );
     expect(during.body.tendons.map((x) => x.id)).not.toContain(w.tendons[30]!.id);
     release();
     await writer;
-    const after = await getJson<PullResponse>(await get(pull, `/api/sync/pull?cursor=${during.body.cursor}&pours=${w.pourId}`));
+    const after = await getJson<PullResponse>(
+      await get(pull, `/api/sync/pull?cursor=${during.body.cursor}&pours=${w.pourId}`),
+    );
     expect(after.body.tendons.find((x) => x.id === w.tendons[30]!.id)?.jackGripMm).toBe(410);
   });
 });

@@ -6,10 +6,24 @@ import type { TendonEnd } from "@/db/types";
 
 export async function demoFixture(db: Db) {
   const project = await db.selectFrom("projects").select(["id"]).where("code", "=", "AYP").executeTakeFirstOrThrow();
-  const crew = await db.selectFrom("users").select("id").where("email", "=", "crew@demo.tautline.test").executeTakeFirstOrThrow();
-  const sets = await db.selectFrom("equipment_sets").select(["id", "name"]).where("project_id", "=", project.id).orderBy("name").execute();
+  const crew = await db
+    .selectFrom("users")
+    .select("id")
+    .where("email", "=", "crew@demo.tautline.test")
+    .executeTakeFirstOrThrow();
+  const sets = await db
+    .selectFrom("equipment_sets")
+    .select(["id", "name"])
+    .where("project_id", "=", project.id)
+    .orderBy("name")
+    .execute();
   const tendon = async (tag: string) =>
-    db.selectFrom("tendons").select(["id", "pour_id", "ends"]).where("project_id", "=", project.id).where("tag", "=", tag).executeTakeFirstOrThrow();
+    db
+      .selectFrom("tendons")
+      .select(["id", "pour_id", "ends"])
+      .where("project_id", "=", project.id)
+      .where("tag", "=", tag)
+      .executeTakeFirstOrThrow();
   return { projectId: project.id, crewId: crew.id, setA: sets[0]!.id, setB: sets[1]!.id, tendon };
 }
 

@@ -75,15 +75,24 @@ export default async function HomePage() {
 
       {roles.has("inspector") && (
         <Section id="open-flags" title={`Open flags (${summary.openFlags.length} tendons)`}>
-          <FlagQueue tendons={summary.openFlags.slice(0, 6)} empty="No open flag. Records that pass every check do not appear here." />
+          <FlagQueue
+            tendons={summary.openFlags.slice(0, 6)}
+            empty="No open flag. Records that pass every check do not appear here."
+          />
           {summary.openFlags.length > 6 && <Link href="/review">All {summary.openFlags.length} flagged tendons</Link>}
         </Section>
       )}
 
       {roles.has("engineer") && (
         <>
-          <Section id="awaiting-disposition" title={`Flags awaiting your disposition (${summary.waitingDisposition.length} tendons)`}>
-            <FlagQueue tendons={summary.waitingDisposition.slice(0, 6)} empty="Nothing is waiting for your disposition." />
+          <Section
+            id="awaiting-disposition"
+            title={`Flags awaiting your disposition (${summary.waitingDisposition.length} tendons)`}
+          >
+            <FlagQueue
+              tendons={summary.waitingDisposition.slice(0, 6)}
+              empty="Nothing is waiting for your disposition."
+            />
             {summary.waitingDisposition.length > 6 && <Link href="/decisions">All of them</Link>}
           </Section>
           <Section id="awaiting-release" title="Pours awaiting release">

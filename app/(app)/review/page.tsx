@@ -14,10 +14,18 @@ export const metadata = { title: "Flags to review" };
 
 const KINDS = flagFilterSchema.shape.kind.unwrap().options;
 
-export default async function ReviewPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+export default async function ReviewPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const user = await getSessionUser();
   if (!user) redirect("/sign-in");
-  const raw = Object.fromEntries(Object.entries(await searchParams).map(([k, v]) => [k, Array.isArray(v) ? v[0] : v]).filter(([, v]) => v));
+  const raw = Object.fromEntries(
+    Object.entries(await searchParams)
+      .map(([k, v]) => [k, Array.isArray(v) ? v[0] : v])
+      .filter(([, v]) => v),
+  );
   const parsed = flagFilterSchema.safeParse(raw);
   const filter = parsed.success ? parsed.data : flagFilterSchema.parse({});
   const projects = user.memberships.filter((m) => can(m.role, "flag.review"));
@@ -80,13 +88,26 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
           <label htmlFor="f-age" className="field-label">
             Older than (hours)
           </label>
-          <input id="f-age" name="olderThanHours" inputMode="numeric" defaultValue={filter.olderThanHours ?? ""} className="field-input mt-1" />
+          <input
+            id="f-age"
+            name="olderThanHours"
+            inputMode="numeric"
+            defaultValue={filter.olderThanHours ?? ""}
+            className="field-input mt-1"
+          />
         </div>
         <button type="submit" className="btn-primary">
           Filter
         </button>
       </form>
-      <FlagQueue tendons={tendons} empty={projects.length ? "No open flag matches. Records that pass every check do not appear here." : "You review no project."} />
+      <FlagQueue
+        tendons={tendons}
+        empty={
+          projects.length
+            ? "No open flag matches. Records that pass every check do not appear here."
+            : "You review no project."
+        }
+      />
       {releasable.length > 0 && (
         <section aria-labelledby="release-heading" className="space-y-3">
           <h2 id="release-heading" className="text-lead font-bold">

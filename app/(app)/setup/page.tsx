@@ -14,9 +14,13 @@ export default async function SetupPage() {
   return (
     <main>
       <h1 className="text-figure font-bold">Project setup</h1>
-      <p className="mt-2 text-ink-soft">The projects you administer, and what each still needs before the crew goes out.</p>
+      <p className="mt-2 text-ink-soft">
+        The projects you administer, and what each still needs before the crew goes out.
+      </p>
       {projects.length === 0 ? (
-        <p className="card mt-6">You are not an admin on any project. A site operator creates projects and their first admin.</p>
+        <p className="card mt-6">
+          You are not an admin on any project. A site operator creates projects and their first admin.
+        </p>
       ) : (
         <ul className="mt-6 grid gap-4 md:grid-cols-2">
           {projects.map((p, i) => {
@@ -25,7 +29,8 @@ export default async function SetupPage() {
               <li key={p.projectId} className="card">
                 <h2 className="text-lead font-semibold">{p.projectName}</h2>
                 <p className="text-label uppercase text-ink-faint">
-                  {p.projectCode} · {g.counts.pours} pours · {g.counts.tendons} tendons · {g.counts.lots} lots · {g.counts.sets} equipment sets
+                  {p.projectCode} · {g.counts.pours} pours · {g.counts.tendons} tendons · {g.counts.lots} lots ·{" "}
+                  {g.counts.sets} equipment sets
                 </p>
                 {g.gaps.length ? (
                   <>

@@ -7,7 +7,9 @@ export default function ResetPasswordPage() {
   return (
     <>
       <h1 className="text-figure font-bold">Reset your password</h1>
-      <p className="mt-2 text-ink-soft">Enter the address you sign in with; a link to choose a new password follows by e-mail.</p>
+      <p className="mt-2 text-ink-soft">
+        Enter the address you sign in with; a link to choose a new password follows by e-mail.
+      </p>
       <div className="mt-6">
         <RequestResetForm />
       </div>

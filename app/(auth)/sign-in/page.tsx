@@ -15,7 +15,11 @@ function safeCallback(value: string | string[] | undefined): string {
   return v && v.startsWith("/") && !v.startsWith("//") ? v : "/home";
 }
 
-export default async function SignInPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+export default async function SignInPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const params = await searchParams;
   const callbackUrl = safeCallback(params.callbackUrl);
   if (await getSessionUser()) redirect(callbackUrl);

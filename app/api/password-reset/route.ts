@@ -10,8 +10,5 @@ export const POST = route({ access: "public", body: passwordResetRequestSchema }
   // In the background: the answer never waits on the lookup or the e-mail, so its timing says nothing.
   const ip = clientIp(request);
   runInBackground("password-reset", () => requestPasswordReset(db, { email: body.email, ip }));
-  return NextResponse.json(
-    { message: "If this address has an account, a reset link is on its way." },
-    { status: 202 },
-  );
+  return NextResponse.json({ message: "If this address has an account, a reset link is on its way." }, { status: 202 });
 });

@@ -220,7 +220,11 @@ const cases: Record<RuleKind, Case[]> = {
     },
     {
       name: "not confirmed, but the pour already has an open concrete flag (one per pour)",
-      change: (i) => ({ ...i, pour: { concreteStrengthMpa: null, concreteFlagOpen: true }, records: [rec({ measuredMm: P })] }),
+      change: (i) => ({
+        ...i,
+        pour: { concreteStrengthMpa: null, concreteFlagOpen: true },
+        records: [rec({ measuredMm: P })],
+      }),
       raised: false,
     },
   ],

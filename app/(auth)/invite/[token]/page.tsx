@@ -18,9 +18,7 @@ export default async function InvitationPage({ params }: { params: Promise<{ tok
     return (
       <>
         <h1 className="text-figure font-bold">This invitation cannot be used</h1>
-        <p className="mt-3">
-          {preview?.message ?? "The link is not complete. Open it from the e-mail again."}
-        </p>
+        <p className="mt-3">{preview?.message ?? "The link is not complete. Open it from the e-mail again."}</p>
         <p className="mt-6">
           <Link href="/sign-in">Go to sign in</Link>
         </p>
@@ -31,7 +29,8 @@ export default async function InvitationPage({ params }: { params: Promise<{ tok
     <>
       <h1 className="text-figure font-bold">Join {preview.projectName}</h1>
       <p className="mt-3">
-        You are invited as <strong>{ROLE_LABELS[preview.role]}</strong> with the address <strong>{preview.email}</strong>.
+        You are invited as <strong>{ROLE_LABELS[preview.role]}</strong> with the address{" "}
+        <strong>{preview.email}</strong>.
       </p>
       <div className="mt-6">
         <AcceptInvitationForm token={token} email={preview.email} hasAccount={preview.hasAccount} />

@@ -5,6 +5,7 @@ import { pushOps } from "@/lib/server/push-ops";
 import { requireRecorder } from "@/lib/server/require-recorder";
 
 // The tablet's outbox lands here: one answer per operation, each op in its own transaction.
-export const POST = route({ body: pushRequestSchema, access: () => requireRecorder() }, async ({ body, access: user }) =>
-  pushOps(db, { user, deviceId: body.deviceId, ops: body.ops }),
+export const POST = route(
+  { body: pushRequestSchema, access: () => requireRecorder() },
+  async ({ body, access: user }) => pushOps(db, { user, deviceId: body.deviceId, ops: body.ops }),
 );

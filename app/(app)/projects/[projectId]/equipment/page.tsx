@@ -18,7 +18,10 @@ export default async function EquipmentPage({ params }: { params: Promise<{ proj
     <main className="space-y-6">
       <SetupTabs projectId={projectId} projectName={access.projectName} current="equipment" />
       <h1 className="text-figure font-bold">Equipment sets</h1>
-      <p className="text-ink-soft">A jack, its gauge and pump, calibrated together. A record on an expired set raises a flag; sets that run out within 14 days are marked.</p>
+      <p className="text-ink-soft">
+        A jack, its gauge and pump, calibrated together. A record on an expired set raises a flag; sets that run out
+        within 14 days are marked.
+      </p>
       <EquipmentList projectId={projectId} us={us} initial={initial} />
       <CalibrationForm projectId={projectId} us={us} initial={initial} validityDays={project.calibrationValidityDays} />
       <EquipmentSetForm projectId={projectId} us={us} />

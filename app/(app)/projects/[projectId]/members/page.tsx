@@ -18,7 +18,10 @@ export default async function MembersPage({ params }: { params: Promise<{ projec
     if (e.code === "UNAUTHENTICATED") redirect("/sign-in");
     notFound();
   });
-  const [{ members, invitations }, timeZone] = await Promise.all([listMembers(db, projectId), getProjectTimeZone(db, projectId)]);
+  const [{ members, invitations }, timeZone] = await Promise.all([
+    listMembers(db, projectId),
+    getProjectTimeZone(db, projectId),
+  ]);
   const project = access.user.memberships.find((m) => m.projectId === projectId);
   return (
     <main>

@@ -11,7 +11,10 @@ export const metadata = { title: "Project settings" };
 export default async function ProjectSetupPage({ params }: { params: Promise<{ projectId: string }> }) {
   const { projectId } = await params;
   const access = await pageAccess("project.configure", projectId);
-  const [{ id: _id, code: _code, ...settings }, { gaps, counts }] = await Promise.all([getProjectSettings(db, projectId), findSetupGaps(db, projectId)]);
+  const [{ id: _id, code: _code, ...settings }, { gaps, counts }] = await Promise.all([
+    getProjectSettings(db, projectId),
+    findSetupGaps(db, projectId),
+  ]);
   void _id;
   void _code;
   return (

@@ -17,7 +17,10 @@ export default async function StrandLotsPage({ params }: { params: Promise<{ pro
     <main>
       <SetupTabs projectId={projectId} projectName={access.projectName} current="strand-lots" />
       <h1 className="text-figure font-bold">Strand lots</h1>
-      <p className="mt-2 text-ink-soft">Tendons that use a lot are computed with its mill-certificate area and modulus. The change against nominal values (ASTM A416 area, 28,500 ksi modulus) is shown beside each.</p>
+      <p className="mt-2 text-ink-soft">
+        Tendons that use a lot are computed with its mill-certificate area and modulus. The change against nominal
+        values (ASTM A416 area, 28,500 ksi modulus) is shown beside each.
+      </p>
       <StrandLotTable projectId={projectId} us={us} initial={{ strandLots: lots }} />
       <div className="mt-8">
         <StrandLotForm projectId={projectId} us={us} />

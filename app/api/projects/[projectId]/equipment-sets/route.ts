@@ -7,11 +7,19 @@ import { projectParamsSchema } from "@/lib/schemas/member";
 import { createEquipmentSet } from "@/lib/server/create-equipment-set";
 import { listEquipmentSets } from "@/lib/server/list-equipment-sets";
 
-export const GET = route({ params: projectParamsSchema, access: ({ params }) => authorize("schedule.view", params.projectId) }, async ({ params }) => ({
-  equipmentSets: await listEquipmentSets(db, params.projectId),
-}));
+export const GET = route(
+  { params: projectParamsSchema, access: ({ params }) => authorize("schedule.view", params.projectId) },
+  async ({ params }) => ({
+    equipmentSets: await listEquipmentSets(db, params.projectId),
+  }),
+);
 
 export const POST = route(
-  { params: projectParamsSchema, body: equipmentSetSchema, access: ({ params }) => authorize("equipment.manage", params.projectId) },
-  async ({ params, body }) => NextResponse.json(await createEquipmentSet(db, { projectId: params.projectId, values: body }), { status: 201 }),
+  {
+    params: projectParamsSchema,
+    body: equipmentSetSchema,
+    access: ({ params }) => authorize("equipment.manage", params.projectId),
+  },
+  async ({ params, body }) =>
+    NextResponse.json(await createEquipmentSet(db, { projectId: params.projectId, values: body }), { status: 201 }),
 );

@@ -7,11 +7,19 @@ import { pourSchema } from "@/lib/schemas/pour";
 import { listPours } from "@/lib/server/list-pours";
 import { savePour } from "@/lib/server/save-pour";
 
-export const GET = route({ params: projectParamsSchema, access: ({ params }) => authorize("schedule.view", params.projectId) }, async ({ params }) => ({
-  pours: await listPours(db, params.projectId),
-}));
+export const GET = route(
+  { params: projectParamsSchema, access: ({ params }) => authorize("schedule.view", params.projectId) },
+  async ({ params }) => ({
+    pours: await listPours(db, params.projectId),
+  }),
+);
 
 export const POST = route(
-  { params: projectParamsSchema, body: pourSchema, access: ({ params }) => authorize("schedule.manage", params.projectId) },
-  async ({ params, body }) => NextResponse.json(await savePour(db, { projectId: params.projectId, values: body }), { status: 201 }),
+  {
+    params: projectParamsSchema,
+    body: pourSchema,
+    access: ({ params }) => authorize("schedule.manage", params.projectId),
+  },
+  async ({ params, body }) =>
+    NextResponse.json(await savePour(db, { projectId: params.projectId, values: body }), { status: 201 }),
 );

@@ -9,7 +9,11 @@ import { presignUpload } from "@/lib/storage";
 
 /** Starts an upload: a pending attachment row and a presigned PUT for the browser. */
 export const POST = route(
-  { params: projectParamsSchema, body: presignUploadSchema, access: ({ params }) => authorize("project.view", params.projectId) },
+  {
+    params: projectParamsSchema,
+    body: presignUploadSchema,
+    access: ({ params }) => authorize("project.view", params.projectId),
+  },
   async ({ params, body, access }) => {
     await authorize(UPLOAD_PERMISSION[body.purpose], params.projectId);
     const result = await presignUpload(db, { projectId: params.projectId, uploadedBy: access.user.id, ...body });

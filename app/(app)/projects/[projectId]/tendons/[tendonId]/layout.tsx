@@ -6,7 +6,13 @@ import { isUuid } from "../../page-access";
 
 // A tendon of this project, or 404. The project's own check ran in the layout above; this one is here, above every
 // loading state of the segment, so a missing one answers a real 404.
-export default async function Layout({ children, params }: { children: ReactNode; params: Promise<{ projectId: string; tendonId: string }> }) {
+export default async function Layout({
+  children,
+  params,
+}: {
+  children: ReactNode;
+  params: Promise<{ projectId: string; tendonId: string }>;
+}) {
   const { projectId, tendonId } = await params;
   if (!isUuid(tendonId) || !(await existsInProject(db, { projectId, table: "tendons", id: tendonId }))) notFound();
   return children;

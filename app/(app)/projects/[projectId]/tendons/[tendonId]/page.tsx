@@ -50,52 +50,94 @@ export default async function TendonPage({ params }: { params: Promise<{ project
     <main className="space-y-6">
       <p className="field-label">
         {access.projectName} ·{" "}
-        {canManage ? <Link href={`/projects/${projectId}/pours/${tendon.pour.id}`}>{tendon.pour.name}</Link> : tendon.pour.name}
+        {canManage ? (
+          <Link href={`/projects/${projectId}/pours/${tendon.pour.id}`}>{tendon.pour.name}</Link>
+        ) : (
+          tendon.pour.name
+        )}
       </p>
       <h1 className="text-hero font-bold">Tendon {tendon.tag}</h1>
       <p className="text-lead">
-        {KIND_LABELS[tendon.kind]} · {tendon.strandCount} × {tendon.strandSize} strand · stressed at {tendon.ends === "both" ? "both ends" : `end ${tendon.ends}`} ·{" "}
+        {KIND_LABELS[tendon.kind]} · {tendon.strandCount} × {tendon.strandSize} strand · stressed at{" "}
+        {tendon.ends === "both" ? "both ends" : `end ${tendon.ends}`} ·{" "}
         {long(tendon.segments.reduce((s, x) => s + x.lengthMm, 0))} in {tendon.segments.length} segments ·{" "}
         {tendon.lot ? `strand lot ${tendon.lot.lotNumber}` : "no strand lot (nominal values)"}
       </p>
 
       {!computed.ok ? (
-        <p role="alert" className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-4 font-semibold text-signal-stop">
+        <p
+          role="alert"
+          className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-4 font-semibold text-signal-stop"
+        >
           {computed.message}
         </p>
       ) : (
         <>
           <section aria-labelledby="prediction-heading" className="space-y-4">
             <h2 id="prediction-heading" className="text-lead font-semibold">
-              Predicted elongation ({project.comparisonBasis === "net" ? "net of anchor set, as marks read after lock-off" : "gross at jacking"})
+              Predicted elongation (
+              {project.comparisonBasis === "net"
+                ? "net of anchor set, as marks read after lock-off"
+                : "gross at jacking"}
+              )
             </h2>
             <div className="grid gap-4 md:grid-cols-4">
-              <Figure label="Compared with the readings" value={len(computed.prediction.predictedMm)} note={`${fine(computed.prediction.predictedMm)} · band ±${project.tolerancePct} %`} />
-              <Figure label="Gross at jacking" value={fine(computed.prediction.prediction.grossMm)} note={computed.prediction.gripMm > 0 ? `includes ${fine(computed.prediction.gripMm)} of strand in the jack per stressed end` : "strand in the jack not counted"} />
-              <Figure label="Net of anchor set" value={fine(computed.prediction.prediction.netMm)} note={`anchor set ${fine(project.anchorSetMm)} per stressed end`} />
-              <Figure label="Jacking force" value={force(computed.prediction.jackingForceN)} note="0.80 of the nominal breaking load (ACI 318-19 Table 20.3.2.5.1)" />
+              <Figure
+                label="Compared with the readings"
+                value={len(computed.prediction.predictedMm)}
+                note={`${fine(computed.prediction.predictedMm)} · band ±${project.tolerancePct} %`}
+              />
+              <Figure
+                label="Gross at jacking"
+                value={fine(computed.prediction.prediction.grossMm)}
+                note={
+                  computed.prediction.gripMm > 0
+                    ? `includes ${fine(computed.prediction.gripMm)} of strand in the jack per stressed end`
+                    : "strand in the jack not counted"
+                }
+              />
+              <Figure
+                label="Net of anchor set"
+                value={fine(computed.prediction.prediction.netMm)}
+                note={`anchor set ${fine(project.anchorSetMm)} per stressed end`}
+              />
+              <Figure
+                label="Jacking force"
+                value={force(computed.prediction.jackingForceN)}
+                note="0.80 of the nominal breaking load (ACI 318-19 Table 20.3.2.5.1)"
+              />
             </div>
             {tendon.ends === "both" && (
               <p>
-                Per end, for information: A {fine(computed.prediction.prediction.perEndMm.A ?? 0)}, B {fine(computed.prediction.prediction.perEndMm.B ?? 0)}.
+                Per end, for information: A {fine(computed.prediction.prediction.perEndMm.A ?? 0)}, B{" "}
+                {fine(computed.prediction.prediction.perEndMm.B ?? 0)}.
               </p>
             )}
             <p>
-              Strand values: {computed.prediction.strand.source === "strand lot" ? `mill certificate of lot ${tendon.lot?.lotNumber}` : "ASTM A416 nominal"} — area {computed.prediction.strand.areaMm2.toFixed(1)} mm²
-              {us ? ` (${(computed.prediction.strand.areaMm2 / 645.16).toFixed(4)} in²)` : ""}, modulus {(computed.prediction.strand.modulusMPa / 1000).toFixed(1)} GPa
+              Strand values:{" "}
+              {computed.prediction.strand.source === "strand lot"
+                ? `mill certificate of lot ${tendon.lot?.lotNumber}`
+                : "ASTM A416 nominal"}{" "}
+              — area {computed.prediction.strand.areaMm2.toFixed(1)} mm²
+              {us ? ` (${(computed.prediction.strand.areaMm2 / 645.16).toFixed(4)} in²)` : ""}, modulus{" "}
+              {(computed.prediction.strand.modulusMPa / 1000).toFixed(1)} GPa
               {us ? ` (${(computed.prediction.strand.modulusMPa / 6.894757293168).toFixed(0)} ksi)` : ""}.
               {computed.nominalPredictedMm !== null &&
                 ` On nominal values the prediction would be ${fine(computed.nominalPredictedMm)} (${(((computed.prediction.predictedMm - computed.nominalPredictedMm) / computed.nominalPredictedMm) * 100).toFixed(1)} % change from the lot).`}
             </p>
             {computed.prediction.prediction.seating && (
               <p>
-                Anchor set reaches {long(computed.prediction.prediction.seating.influenceMm)} from the stressed end; force at the anchor after seating {force(computed.prediction.prediction.seating.anchorForceAfterN)}.
+                Anchor set reaches {long(computed.prediction.prediction.seating.influenceMm)} from the stressed end;
+                force at the anchor after seating {force(computed.prediction.prediction.seating.anchorForceAfterN)}.
               </p>
             )}
             {computed.checks.length > 0 && (
               <ul className="space-y-1">
                 {computed.checks.map((c) => (
-                  <li key={c.code} className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-semibold text-signal-stop">
+                  <li
+                    key={c.code}
+                    className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-semibold text-signal-stop"
+                  >
                     <span aria-hidden="true">⚠ </span>
                     {c.message}
                   </li>
@@ -112,12 +154,14 @@ export default async function TendonPage({ params }: { params: Promise<{ project
               <p className="mt-1">The shop drawing gives no elongation for this tendon.</p>
             ) : computed.shopMarked ? (
               <p className="mt-2 rounded-md border-2 border-signal-long bg-signal-long-bg p-3 font-semibold text-signal-long">
-                <span aria-hidden="true">⚠ </span>Check with the detailer: the shop drawing gives {fine(tendon.shopElongationMm)}, {computed.shopDifferencePct > 0 ? "+" : ""}
+                <span aria-hidden="true">⚠ </span>Check with the detailer: the shop drawing gives{" "}
+                {fine(tendon.shopElongationMm)}, {computed.shopDifferencePct > 0 ? "+" : ""}
                 {computed.shopDifferencePct.toFixed(1)} % from ours (more than {SHOP_DRAWING_MARK_PCT} %).
               </p>
             ) : (
               <p className="mt-2 font-semibold">
-                <span aria-hidden="true">✓ </span>The shop drawing gives {fine(tendon.shopElongationMm)}, {computed.shopDifferencePct > 0 ? "+" : ""}
+                <span aria-hidden="true">✓ </span>The shop drawing gives {fine(tendon.shopElongationMm)},{" "}
+                {computed.shopDifferencePct > 0 ? "+" : ""}
                 {computed.shopDifferencePct.toFixed(1)} % from ours (within {SHOP_DRAWING_MARK_PCT} %).
               </p>
             )}
@@ -140,8 +184,14 @@ export default async function TendonPage({ params }: { params: Promise<{ project
                 const L = computed.profile.lengthMm;
                 const k = us ? 304.8 : 1000;
                 if (!s) return [];
-                const zoneAt = (end: "A" | "B", influence: number) => (end === "A" ? { from: 0, to: Math.min(L, influence) / k } : { from: Math.max(0, L - influence) / k, to: L / k });
-                return [zoneAt(s.end, s.influenceMm), ...(s.otherEnd ? [zoneAt(s.otherEnd.end, s.otherEnd.influenceMm)] : [])];
+                const zoneAt = (end: "A" | "B", influence: number) =>
+                  end === "A"
+                    ? { from: 0, to: Math.min(L, influence) / k }
+                    : { from: Math.max(0, L - influence) / k, to: L / k };
+                return [
+                  zoneAt(s.end, s.influenceMm),
+                  ...(s.otherEnd ? [zoneAt(s.otherEnd.end, s.otherEnd.influenceMm)] : []),
+                ];
               })()}
             />
           </section>
@@ -154,7 +204,11 @@ export default async function TendonPage({ params }: { params: Promise<{ project
             Readings
           </h2>
           {readings.evaluation && (
-            <VerdictBadge verdict={readings.evaluation.verdict} deviationPct={readings.evaluation.deviation_pct} provisional={readings.evaluation.provisional} />
+            <VerdictBadge
+              verdict={readings.evaluation.verdict}
+              deviationPct={readings.evaluation.deviation_pct}
+              provisional={readings.evaluation.provisional}
+            />
           )}
         </div>
         {readings.records.length === 0 ? (
@@ -192,7 +246,9 @@ export default async function TendonPage({ params }: { params: Promise<{ project
               </tbody>
             </table>
             <p className="mt-2">
-              <Link href={`/projects/${projectId}/tendons/${tendonId}/flags`}>Flags, the whole trail and the calculation sheet</Link>
+              <Link href={`/projects/${projectId}/tendons/${tendonId}/flags`}>
+                Flags, the whole trail and the calculation sheet
+              </Link>
             </p>
           </>
         )}
@@ -218,8 +274,12 @@ export default async function TendonPage({ params }: { params: Promise<{ project
               {targets.map((t) => (
                 <tr key={t.setId} className="border-b border-concrete-300">
                   <td className="p-2 font-semibold">{t.name}</td>
-                  <td className="p-2 text-right text-lead font-bold">{t.targetPressureMPa === null ? "—" : pressure(t.targetPressureMPa)}</td>
-                  <td className={`p-2 font-semibold ${t.state === "expired" || t.state === "none" ? "text-signal-stop" : t.state === "expiring" ? "text-signal-long" : ""}`}>
+                  <td className="p-2 text-right text-lead font-bold">
+                    {t.targetPressureMPa === null ? "—" : pressure(t.targetPressureMPa)}
+                  </td>
+                  <td
+                    className={`p-2 font-semibold ${t.state === "expired" || t.state === "none" ? "text-signal-stop" : t.state === "expiring" ? "text-signal-long" : ""}`}
+                  >
                     <span aria-hidden="true">{t.state === "valid" ? "✓ " : t.state === "expiring" ? "⚠ " : "⚠ "}</span>
                     {CALIBRATION_STATE_LABELS[t.state]}
                     {t.validUntil ? ` (to ${t.validUntil})` : ""}

@@ -7,7 +7,11 @@ import { previewBasisChange } from "@/lib/server/reevaluate-project";
 
 /** How many stressed tendons a settings change would judge again, and whose verdict would change; writes nothing. */
 export const POST = route(
-  { params: projectParamsSchema, body: projectSettingsSchema, access: ({ params }) => authorize("project.configure", params.projectId) },
+  {
+    params: projectParamsSchema,
+    body: projectSettingsSchema,
+    access: ({ params }) => authorize("project.configure", params.projectId),
+  },
   async ({ params, body }) =>
     previewBasisChange(db, {
       projectId: params.projectId,

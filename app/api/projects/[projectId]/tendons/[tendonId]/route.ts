@@ -5,8 +5,11 @@ import { tendonParamsSchema } from "@/lib/schemas/tendon";
 import { getTendonDetail } from "@/lib/server/get-tendon-detail";
 
 /** The tendon with its prediction, force profile and target gauge pressure per equipment set. */
-export const GET = route({ params: tendonParamsSchema, access: ({ params }) => authorize("schedule.view", params.projectId) }, async ({ params }) => {
-  const { project: _project, ...detail } = await getTendonDetail(db, params);
-  void _project;
-  return detail;
-});
+export const GET = route(
+  { params: tendonParamsSchema, access: ({ params }) => authorize("schedule.view", params.projectId) },
+  async ({ params }) => {
+    const { project: _project, ...detail } = await getTendonDetail(db, params);
+    void _project;
+    return detail;
+  },
+);

@@ -3,7 +3,13 @@ import { pageAccess } from "../../../page-access";
 
 // A pour's schedule is the admin's. Checked here, above this segment's loading state, so a refusal answers 404 before
 // the page starts streaming (a page under a loading state can no longer change its status).
-export default async function Layout({ children, params }: { children: ReactNode; params: Promise<{ projectId: string; pourId: string }> }) {
+export default async function Layout({
+  children,
+  params,
+}: {
+  children: ReactNode;
+  params: Promise<{ projectId: string; pourId: string }>;
+}) {
   await pageAccess("schedule.manage", (await params).projectId);
   return children;
 }

@@ -47,7 +47,15 @@ export default async function PourPage({ params }: { params: Promise<{ projectId
           </a>
         </div>
       </div>
-      <TendonTable base={base} projectId={projectId} pourId={pourId} initial={list} lots={lots.map((l) => l.lotNumber)} us={us} resolution={u.resolution} />
+      <TendonTable
+        base={base}
+        projectId={projectId}
+        pourId={pourId}
+        initial={list}
+        lots={lots.map((l) => l.lotNumber)}
+        us={us}
+        resolution={u.resolution}
+      />
       <Caution />
       <div className="grid gap-6 lg:grid-cols-2">
         <ScheduleImport projectId={projectId} pourId={pourId} />
@@ -69,7 +77,12 @@ export default async function PourPage({ params }: { params: Promise<{ projectId
           </dl>
         </section>
       </div>
-      <TendonForm projectId={projectId} pourId={pourId} us={us} lots={lots.map((l) => ({ id: l.id, lotNumber: l.lotNumber, strandSize: l.strandSize }))} />
+      <TendonForm
+        projectId={projectId}
+        pourId={pourId}
+        us={us}
+        lots={lots.map((l) => ({ id: l.id, lotNumber: l.lotNumber, strandSize: l.strandSize }))}
+      />
     </main>
   );
 }

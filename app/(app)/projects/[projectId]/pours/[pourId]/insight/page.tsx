@@ -32,11 +32,20 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
   const us = insight.project.unitSystem === "us";
   const lengthUnit = us ? "in" : "mm";
   const toUnit = (mm: number) => (us ? mm / 25.4 : mm);
-  const points = insight.points.map((p, i) => ({ index: i + 1, tag: p.tag, deviationPct: p.deviationPct, verdict: p.verdict, provisional: p.provisional }));
+  const points = insight.points.map((p, i) => ({
+    index: i + 1,
+    tag: p.tag,
+    deviationPct: p.deviationPct,
+    verdict: p.verdict,
+    provisional: p.provisional,
+  }));
   const api = `/api/projects/${projectId}/pours/${pourId}/report`;
   const signatures = can(access.role, "report.download") ? await listReportRevisions(db, { projectId, pourId }) : null;
   const { progress } = insight;
-  const [concrete, timeZone] = await Promise.all([listConcreteResults(db, { projectId, pourId }), getProjectTimeZone(db, projectId)]);
+  const [concrete, timeZone] = await Promise.all([
+    listConcreteResults(db, { projectId, pourId }),
+    getProjectTimeZone(db, projectId),
+  ]);
 
   return (
     <main className="space-y-10">
@@ -46,7 +55,8 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
           <h1 className="text-figure font-bold">{insight.pour.name}: what the records show</h1>
           <p className="mt-1 text-ink-soft">
             {progress.stressed} of {progress.tendons} tendons complete
-            {progress.provisional ? `, ${progress.provisional} with an end still to read` : ""}; pour {insight.pour.status}.
+            {progress.provisional ? `, ${progress.provisional} with an end still to read` : ""}; pour{" "}
+            {insight.pour.status}.
           </p>
         </div>
         {can(access.role, "report.download") && (
@@ -61,7 +71,14 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
         )}
       </header>
 
-      <ConcreteResults projectId={projectId} pourId={pourId} us={us} timeZone={timeZone} canEnter={can(access.role, "concrete.confirm")} initial={concrete} />
+      <ConcreteResults
+        projectId={projectId}
+        pourId={pourId}
+        us={us}
+        timeZone={timeZone}
+        canEnter={can(access.role, "concrete.confirm")}
+        initial={concrete}
+      />
 
       {signatures && (
         <section aria-labelledby="signatures-heading" className="space-y-3">
@@ -92,11 +109,19 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
         <h2 id="progress-heading" className="text-lead font-bold">
           Progress of the pour
         </h2>
-        <ProgressChart tendons={progress.tendons} stressed={progress.stressed} flagged={progress.flagged} released={progress.released} />
+        <ProgressChart
+          tendons={progress.tendons}
+          stressed={progress.stressed}
+          flagged={progress.flagged}
+          released={progress.released}
+        />
       </section>
 
       {points.length === 0 ? (
-        <p className="card">No tendon on this pour has been stressed yet. The charts appear here once the crew&apos;s records reach the server.</p>
+        <p className="card">
+          No tendon on this pour has been stressed yet. The charts appear here once the crew&apos;s records reach the
+          server.
+        </p>
       ) : (
         <div className="grid gap-8 xl:grid-cols-2">
           <section aria-labelledby="deviation-heading" className="space-y-3">
@@ -110,7 +135,12 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
               Measured against predicted
             </h2>
             <MeasuredPredictedChart
-              points={insight.points.map((p) => ({ tag: p.tag, predicted: toUnit(p.predictedMm), measured: toUnit(p.measuredMm), verdict: p.verdict }))}
+              points={insight.points.map((p) => ({
+                tag: p.tag,
+                predicted: toUnit(p.predictedMm),
+                measured: toUnit(p.measuredMm),
+                verdict: p.verdict,
+              }))}
               tolerancePct={insight.project.tolerancePct}
               unit={lengthUnit}
             />
@@ -123,9 +153,10 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
           Equipment sets: is one drifting?
         </h2>
         <p className="text-ink-soft">
-          Elongation follows force, so a gauge or jack out of calibration moves every tendon it stresses the same way. A set is marked when its
-          mean differs from the other sets&apos; pooled mean by at least {DRIFT_RULE.minDifferencePct} points, with at least {DRIFT_RULE.minSamples}{" "}
-          complete tendons on each side, and by at least {DRIFT_RULE.minT} standard errors (Welch&apos;s two-sample comparison).
+          Elongation follows force, so a gauge or jack out of calibration moves every tendon it stresses the same way. A
+          set is marked when its mean differs from the other sets&apos; pooled mean by at least{" "}
+          {DRIFT_RULE.minDifferencePct} points, with at least {DRIFT_RULE.minSamples} complete tendons on each side, and
+          by at least {DRIFT_RULE.minT} standard errors (Welch&apos;s two-sample comparison).
           {insight.mixedSets > 0 ? ` ${insight.mixedSets} tendons stressed with two different sets are left out.` : ""}
         </p>
         <DriftTable caption="On this pour" sets={insight.driftOnPour} />
@@ -137,8 +168,9 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
           Apparent modulus from gauge steps
         </h2>
         <p className="text-ink-soft">
-          Where the crew read the elongation at several gauge pressures, the slope of force against reading gives the modulus the tendon behaved
-          as if it had. Friction alone puts it above the mill value; a ratio far from the neighbours&apos; is worth a look.
+          Where the crew read the elongation at several gauge pressures, the slope of force against reading gives the
+          modulus the tendon behaved as if it had. Friction alone puts it above the mill value; a ratio far from the
+          neighbours&apos; is worth a look.
         </p>
         <ModulusTable moduli={insight.moduli} />
       </section>
@@ -147,7 +179,10 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
         <h2 id="resolution-heading" className="text-lead font-bold">
           Verdicts the reading division could change
         </h2>
-        <ResolutionSummary resolution={insight.resolution} division={readingResolution(insight.project.readingResolution)} />
+        <ResolutionSummary
+          resolution={insight.resolution}
+          division={readingResolution(insight.project.readingResolution)}
+        />
       </section>
 
       <Caution />

@@ -7,6 +7,13 @@ import { equipmentParamsSchema } from "@/lib/schemas/equipment";
 import { addCalibration } from "@/lib/server/add-calibration";
 
 export const POST = route(
-  { params: equipmentParamsSchema, body: calibrationSchema, access: ({ params }) => authorize("equipment.manage", params.projectId) },
-  async ({ params, body }) => NextResponse.json(await addCalibration(db, { projectId: params.projectId, setId: params.setId, values: body }), { status: 201 }),
+  {
+    params: equipmentParamsSchema,
+    body: calibrationSchema,
+    access: ({ params }) => authorize("equipment.manage", params.projectId),
+  },
+  async ({ params, body }) =>
+    NextResponse.json(await addCalibration(db, { projectId: params.projectId, setId: params.setId, values: body }), {
+      status: 201,
+    }),
 );

@@ -6,7 +6,11 @@ import { releaseParamsSchema, releaseSchema } from "@/lib/schemas/review";
 import { releasePour } from "@/lib/server/release-pour";
 
 export const POST = route(
-  { params: releaseParamsSchema, body: releaseSchema, access: ({ params }) => authorize("pour.release", params.projectId) },
+  {
+    params: releaseParamsSchema,
+    body: releaseSchema,
+    access: ({ params }) => authorize("pour.release", params.projectId),
+  },
   async ({ params, body, access }) => {
     const by = { id: access.user.id, name: access.user.name, role: access.role };
     const result = await releasePour(db, {

@@ -7,9 +7,16 @@ import { tendonSchema } from "@/lib/schemas/tendon";
 import { createTendon } from "@/lib/server/create-tendon";
 import { listTendons } from "@/lib/server/list-tendons";
 
-export const GET = route({ params: pourParamsSchema, access: ({ params }) => authorize("schedule.view", params.projectId) }, async ({ params }) => listTendons(db, params));
+export const GET = route(
+  { params: pourParamsSchema, access: ({ params }) => authorize("schedule.view", params.projectId) },
+  async ({ params }) => listTendons(db, params),
+);
 
 export const POST = route(
-  { params: pourParamsSchema, body: tendonSchema, access: ({ params }) => authorize("schedule.manage", params.projectId) },
+  {
+    params: pourParamsSchema,
+    body: tendonSchema,
+    access: ({ params }) => authorize("schedule.manage", params.projectId),
+  },
   async ({ params, body }) => NextResponse.json(await createTendon(db, { ...params, values: body }), { status: 201 }),
 );

@@ -8,6 +8,13 @@ import { importTendonSchedule } from "@/lib/server/import-tendon-schedule";
 
 /** Imports a schedule file (its text, as JSON) into the pour: all rows or none. */
 export const POST = route(
-  { params: pourParamsSchema, body: importScheduleSchema, access: ({ params }) => authorize("schedule.manage", params.projectId) },
-  async ({ params, body, access }) => NextResponse.json(await importTendonSchedule(db, { ...params, csv: body.csv, by: access.user.id }), { status: 201 }),
+  {
+    params: pourParamsSchema,
+    body: importScheduleSchema,
+    access: ({ params }) => authorize("schedule.manage", params.projectId),
+  },
+  async ({ params, body, access }) =>
+    NextResponse.json(await importTendonSchedule(db, { ...params, csv: body.csv, by: access.user.id }), {
+      status: 201,
+    }),
 );
