@@ -56,7 +56,7 @@ FAKES_PID=$LAST_PID
 passed=() failed=()
 # TEST_STEPS picks steps (default: all); UNIT_ARGS, INTEGRATION_ARGS and E2E_ARGS pass file filters or
 # flags to vitest and Playwright, e.g. TEST_STEPS="integration e2e" E2E_ARGS="tests/e2e/field.spec.ts --no-deps".
-TEST_STEPS="${TEST_STEPS:-typecheck lint unit integration e2e}"
+TEST_STEPS="${TEST_STEPS:-typecheck lint format unit integration e2e}"
 step() {
   local name="$1"; shift
   case " $TEST_STEPS " in *" $name "*) ;; *) say "── $name (skipped: not in TEST_STEPS)"; return 0 ;; esac
@@ -66,6 +66,7 @@ step() {
 
 step typecheck npm run --silent typecheck
 step lint node_modules/.bin/eslint . --max-warnings 0
+step format node_modules/.bin/prettier --check --log-level warn .
 step unit node_modules/.bin/vitest run --project unit ${UNIT_ARGS:-}
 step integration node_modules/.bin/vitest run --project integration ${INTEGRATION_ARGS:-}
 
