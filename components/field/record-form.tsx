@@ -294,16 +294,17 @@ export function RecordForm({
       <fieldset>
         <legend className="field-label">Tendon end</legend>
         <div className="mt-1 flex gap-2">
-          {(["A", "B"] as const).map((end) => (
+          {/* Only the ends this tendon stresses are offered; a correction keeps its record's end. */}
+          {ends.map((end) => (
             <label
               key={end}
-              className={`btn-quiet has-checked:bg-ink has-checked:text-concrete-50 ${ends.includes(end) && !correcting ? "" : "opacity-40"}`}
+              className={`btn-quiet has-checked:bg-ink has-checked:text-concrete-50 ${correcting ? "opacity-40" : ""}`}
             >
               <input
                 type="radio"
                 value={end}
                 className="sr-only"
-                disabled={!ends.includes(end) || Boolean(correcting)}
+                disabled={Boolean(correcting)}
                 {...register("tendonEnd")}
               />
               End {end}
