@@ -54,8 +54,8 @@ export function HoldPanel({ flags, heldOnTablet }: { flags: FieldFlag[]; heldOnT
                 {new Date(h.decision.createdAt).toLocaleDateString("en-CA")}): {h.decision.reasons}
               </p>
             )}
-            <p className="font-bold" data-testid="hold-todo">
-              What to do: {h.todo}
+            <p className="font-bold" data-testid="hold-instruction">
+              What to do: {h.instruction}
             </p>
           </li>
         ))}

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { FieldFlag } from "@/lib/schemas/sync";
-import { cutClearanceOf, holdsOf, holdSummary, WAITING_TODO } from "./hold-view";
+import { cutClearanceOf, holdsOf, holdSummary, WAITING_INSTRUCTION } from "./hold-view";
 
 const flag = (over: Partial<FieldFlag>): FieldFlag => ({
   id: crypto.randomUUID(),
@@ -24,7 +24,7 @@ describe("holdsOf", () => {
     expect(holds[0]).toMatchObject({
       reason: "Measured 14.4 % long against the prediction.",
       decision: null,
-      todo: WAITING_TODO,
+      instruction: WAITING_INSTRUCTION,
     });
   });
 
@@ -49,13 +49,20 @@ describe("holdsOf", () => {
       }),
     ]);
     expect(hold!.decision).toMatchObject({ decision: "restress", reasons: "Restress to 3,350 psi." });
-    expect(hold!.todo).toMatch(/Restress this tendon/);
+    expect(hold!.instruction).toMatch(/Restress this tendon/);
   });
 
   it("works on flags pulled before reasons were synced", () => {
     const old: FieldFlag = { id: "f", tendonId: "t1", kind: "out_of_band", status: "open" };
     expect(holdsOf([old])).toEqual([
-      { flagId: "f", kind: "out_of_band", status: "open", reason: null, decision: null, todo: WAITING_TODO },
+      {
+        flagId: "f",
+        kind: "out_of_band",
+        status: "open",
+        reason: null,
+        decision: null,
+        instruction: WAITING_INSTRUCTION,
+      },
     ]);
   });
 });

@@ -10,7 +10,7 @@ import type { LocalRecord } from "./db";
 export type Decision = FieldDisposition["decision"];
 
 /** What each disposition that orders work asks of the crew. Accept closes the flag. */
-export const DECISION_TODO: Record<Decision, string> = {
+export const DECISION_INSTRUCTIONS: Record<Decision, string> = {
   accept: "Accepted by the engineer of record.",
   restress: "Restress this tendon as the engineer instructs, then log it with “Record a restress”.",
   detension_restress: "Detension this tendon, restress it as the engineer instructs, then log the restress.",
@@ -28,7 +28,7 @@ export const DECISION_WORDS: Record<Decision, string> = {
   other: "instruction from the engineer",
 };
 
-export const WAITING_TODO = "Wait for the engineer of record's decision. Do not cut tails.";
+export const WAITING_INSTRUCTION = "Wait for the engineer of record's decision. Do not cut tails.";
 
 export interface Hold {
   flagId: string;
@@ -39,7 +39,7 @@ export interface Hold {
   /** The engineer's latest decision on it, or null while none is recorded. */
   decision: FieldDisposition | null;
   /** What to do now, in words. */
-  todo: string;
+  instruction: string;
 }
 
 export const isOpen = (f: Pick<FieldFlag, "status">) => f.status !== "closed";
@@ -57,7 +57,7 @@ export function holdsOf(flags: FieldFlag[]): Hold[] {
         status: f.status,
         reason: f.reason ?? null,
         decision,
-        todo: decision ? DECISION_TODO[decision.decision] : WAITING_TODO,
+        instruction: decision ? DECISION_INSTRUCTIONS[decision.decision] : WAITING_INSTRUCTION,
       };
     });
 }
