@@ -54,7 +54,7 @@ export function HoldPanel({ flags, heldOnTablet }: { flags: FieldFlag[]; heldOnT
                 {new Date(h.decision.createdAt).toLocaleDateString("en-CA")}): {h.decision.reasons}
               </p>
             )}
-            <p className="font-bold" data-testid="hold-instruction">
+            <p className="font-bold" data-testid="hold-what-to-do">
               What to do: {h.instruction}
             </p>
           </li>

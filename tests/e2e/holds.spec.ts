@@ -50,7 +50,7 @@ test("an engineer's restress order reaches the crew's tablet, the crew logs it a
   await expect(panel.getByTestId("hold").filter({ hasText: "Out of band" }).getByTestId("hold-why")).toContainText(
     /long/i,
   );
-  await expect(panel.getByTestId("hold-instruction")).toContainText("Wait for the engineer of record's decision");
+  await expect(panel.getByTestId("hold-what-to-do")).toContainText("Wait for the engineer of record's decision");
   // The hold sits above the verdict, so the green or amber chip is never read alone.
   const holdBox = await panel.boundingBox();
   const verdictBox = await crew.getByTestId("verdict").boundingBox();
@@ -73,7 +73,7 @@ test("an engineer's restress order reaches the crew's tablet, the crew logs it a
   await expect(panel.getByTestId("hold-instruction")).toContainText(
     "restress to the same gauge pressure and re-read the marks",
   );
-  await expect(panel.getByTestId("hold-instruction")).toContainText("Restress this tendon as the engineer instructs");
+  await expect(panel.getByTestId("hold-what-to-do")).toContainText("Restress this tendon as the engineer instructs");
   await screenshot(crew, "field-hold-restress-ordered");
 
   // The crew logs the restress on the tablet; it comes back in band and the hold lifts. The
