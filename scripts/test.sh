@@ -61,14 +61,24 @@ step() {
   local name="$1"; shift
   case " $TEST_STEPS " in *" $name "*) ;; *) say "── $name (skipped: not in TEST_STEPS)"; return 0 ;; esac
   say "── $name"
-  if "$@"; then passed+=("$name"); else failed+=("$name"); say "✗ $name failed"; fi
+  # Output goes to the screen and to a log, without a subshell (e2e starts servers cleanup stops).
+  if "$@" > >(tee "$LOGS/step-$name.log") 2>&1; then passed+=("$name"); else failed+=("$name"); say "✗ $name failed"; fi
+}
+
+# CI keeps only the end of the output: name there every test that failed or passed only on a retry.
+digest() {
+  node scripts/test-digest.mjs "$LOGS/unit.json" "$LOGS/integration.json"
+  [ ! -f "$LOGS/step-e2e.log" ] ||
+    sed 's/\x1b\[[0-9;]*m//g' "$LOGS/step-e2e.log" | grep -E "^\s+[0-9]+\) |✘|flaky" | head -n 40
 }
 
 step typecheck npm run --silent typecheck
 step lint node_modules/.bin/eslint . --max-warnings 0
 step format node_modules/.bin/prettier --check --log-level warn .
-step unit node_modules/.bin/vitest run --project unit ${UNIT_ARGS:-}
-step integration node_modules/.bin/vitest run --project integration ${INTEGRATION_ARGS:-}
+step unit node_modules/.bin/vitest run --project unit --reporter=default --reporter=json \
+  --outputFile.json="$LOGS/unit.json" ${UNIT_ARGS:-}
+step integration node_modules/.bin/vitest run --project integration --reporter=default --reporter=json \
+  --outputFile.json="$LOGS/integration.json" ${INTEGRATION_ARGS:-}
 
 e2e() {
   node_modules/.bin/tsx scripts/migrate.ts && node_modules/.bin/tsx --conditions=react-server scripts/seed.ts || return 1
@@ -83,6 +93,9 @@ e2e() {
 }
 step e2e e2e
 
+echo
+say "digest of failures and retries (empty when none):"
+digest
 echo
 say "passed: ${passed[*]:-none}"
 [ ${#failed[@]} -eq 0 ] || say "failed: ${failed[*]}"
