@@ -7,6 +7,7 @@ import { ENGINE_VERSION } from "@/lib/elongation";
 import { AppError } from "@/lib/errors";
 import type { StoredResolution } from "@/lib/stressing/display";
 import { findFlagTrail } from "./find-flag-trail";
+import { findStandingRelease } from "./find-standing-release";
 import { listPourRecords, type PourRecord } from "./list-pour-records";
 import { listTendonResults, type TendonResult } from "./list-tendon-results";
 import { sql } from "kysely";
@@ -146,12 +147,7 @@ export async function getPourReport(
       listTendonResults(db, input),
       listPourRecords(db, { ...input, projectBasis: project.comparison_basis, timeZone: projectTimeZone(project) }),
       findFlagTrail(db, { projectId: input.projectId, pourId: input.pourId }),
-      db
-        .selectFrom("releases")
-        .select(["released_by_name", "statement", "created_at", "signer_name", "licence", "content_sha256"])
-        .where("project_id", "=", input.projectId)
-        .where("pour_id", "=", input.pourId)
-        .executeTakeFirst(),
+      findStandingRelease(db, input),
       db
         .selectFrom("flags")
         .select(["id", sql<string>`row_number() over (order by created_at, id)`.as("n")])

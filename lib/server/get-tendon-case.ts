@@ -5,6 +5,7 @@ import { forceProfile, segmentBeta, type ForceProfile } from "@/lib/elongation";
 import { predictTendon, type TendonPrediction } from "@/lib/stressing/basis";
 import { clockSkew } from "@/lib/stressing/clock-skew";
 import { findFlagTrail } from "./find-flag-trail";
+import { findStandingRelease } from "./find-standing-release";
 import { loadTendonBasis, type LoadedTendon } from "./load-tendon-basis";
 
 /**
@@ -65,12 +66,7 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
       .where("attachments.status", "=", "stored")
       .where("attachments.purpose", "=", "record_photo")
       .execute(),
-    db
-      .selectFrom("releases")
-      .select(["released_by_name", "statement", "created_at"])
-      .where("project_id", "=", input.projectId)
-      .where("pour_id", "=", basis.pour.id)
-      .executeTakeFirst(),
+    findStandingRelease(db, { projectId: input.projectId, pourId: basis.pour.id }),
   ]);
 
   // Each record with its clock skew against the project's threshold (null when within it).

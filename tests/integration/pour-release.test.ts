@@ -5,6 +5,8 @@ import { releaseSchema, reopenSchema } from "@/lib/schemas/review";
 import { correctRecord } from "@/lib/server/correct-record";
 import { createTendon } from "@/lib/server/create-tendon";
 import { findReleaseCandidates } from "@/lib/server/find-release-candidates";
+import { findStandingRelease } from "@/lib/server/find-standing-release";
+import { getPourReport } from "@/lib/server/get-pour-report";
 import { importTendonSchedule } from "@/lib/server/import-tendon-schedule";
 import { pullChanges } from "@/lib/server/pull-changes";
 import { pushOps } from "@/lib/server/push-ops";
@@ -299,6 +301,9 @@ describe("reopen", () => {
     });
     const state = await stateOf();
     expect(state).toMatchObject({ status: "stressed", release_id: null, last_reopened_by_name: people.engineer.name });
+    // The reopened release no longer stands: the report and the tendon page show none.
+    expect(await findStandingRelease(t.db, { projectId: w.projectId, pourId })).toBeUndefined();
+    expect((await getPourReport(t.db, { projectId: w.projectId, pourId })).release).toBeNull();
     const audit = await t.db
       .selectFrom("audit_events")
       .select(["action", "outcome", "detail"])
@@ -358,6 +363,10 @@ describe("reopen", () => {
       "Both tendons in band; tails may be cut.",
       "Lift-off checked; released again.",
     ]);
+    // The report names the release that stands, not the first one found.
+    expect((await getPourReport(t.db, { projectId: w.projectId, pourId })).release).toMatchObject({
+      statement: "Lift-off checked; released again.",
+    });
   });
 });
 
