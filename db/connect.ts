@@ -70,6 +70,15 @@ export function createDb(connectionString: string, max = 10, options: { prepare?
       `${new Date().toISOString()} database connection lost (the pool reconnects on the next query): ${error.message}`,
     );
   });
+  // The pool listens only while a client is idle. A connection lost while a request holds it (in a
+  // transaction, between two queries) makes that client emit "error" with nobody listening, which
+  // would end the app in the middle of serving everyone else. The holder's next query fails and its
+  // transaction is rolled back by PostgreSQL; the pool discards the broken client on release.
+  pool.on("connect", (client) => {
+    client.on("error", (error) => {
+      console.error(`${new Date().toISOString()} database connection lost during a request: ${error.message}`);
+    });
+  });
   return new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
 }
 

@@ -68,6 +68,13 @@ step() {
 # CI keeps only the end of the output: name there every test that failed or passed only on a retry.
 digest() {
   node scripts/test-digest.mjs "$LOGS/unit.json" "$LOGS/integration.json"
+  local name
+  for name in unit integration; do
+    [ ! -f "$LOGS/step-$name.log" ] ||
+      sed 's/\x1b\[[0-9;]*m//g' "$LOGS/step-$name.log" |
+        awk '/Vitest caught|FAIL / { print; next } /Uncaught Exception|Unhandled Rejection/ { grab = 1; next } grab && NF { print "  " $0; grab = 0 }' |
+        head -n 12 | sed "s/^/[$name] /"
+  done
   [ ! -f "$LOGS/step-e2e.log" ] ||
     sed 's/\x1b\[[0-9;]*m//g' "$LOGS/step-e2e.log" | grep -E "^\s+[0-9]+\) |✘|flaky" | head -n 40
 }

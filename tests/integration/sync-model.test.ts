@@ -5,14 +5,19 @@ import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { deviceId, FieldDb, writeMeta } from "@/lib/offline/db";
 import { correctionOf, saveRecord } from "@/lib/offline/outbox";
 import { SyncClient, type Fetch } from "@/lib/offline/sync-client";
+import { setTimeout as sleep } from "node:timers/promises";
+import { createDb, type Db } from "@/db/connect";
 import { createTestDatabase, type TestDatabase } from "../support/database";
+import { startTcpCut, type TcpCut } from "../support/tcp-cut";
 import { routeState } from "./route-mocks";
 import { buildWorld, recordPayload, type SyncWorld } from "./sync-fixtures";
 
 /**
  * Model-based test of the sync client against the real server: fast-check drives a tablet
- * through creates, corrections, going offline and online, lost answers, double deliveries and
- * restarts; the model is the set of records the tablet committed. After every step the server
+ * through creates, corrections, going offline and online, lost answers, double deliveries, tablet
+ * restarts, the app killed in the middle of a push (every connection it holds reset at a drawn
+ * moment, and it never writes again) and PostgreSQL restarting under a push (every connection
+ * reset and new ones refused until it is back); the model is the set of records the tablet committed. After every step the server
  * holds nothing the tablet did not make and its chains have no gaps; after quiescence every
  * committed record is on the server exactly once.
  */
@@ -26,11 +31,23 @@ const { GET: download } = await import("@/app/api/field/pours/[pourId]/route");
 const ORIGIN = process.env.APP_URL ?? "http://localhost:3000";
 let t: TestDatabase;
 let w: SyncWorld;
+/** The path from the app to PostgreSQL, which a "database restart" cuts; the app connects through it. */
+let dbLink: TcpCut;
+let appDb: Db;
+
+/** A connection string to the test database, as the app's role, through a relay on `port`. */
+function appUrlThrough(port: number): string {
+  const url = new URL(t.appUrl);
+  url.port = String(port);
+  return url.toString();
+}
 
 beforeAll(async () => {
   t = await createTestDatabase({ migrate: true });
   w = await buildWorld(t.db);
-  routeState.db = t.db;
+  dbLink = await startTcpCut(Number(new URL(t.url).port));
+  appDb = createDb(appUrlThrough(dbLink.port), 5);
+  routeState.db = appDb;
   routeState.user = {
     id: w.crew.id,
     email: w.crew.email,
@@ -40,6 +57,8 @@ beforeAll(async () => {
   };
 });
 afterAll(async () => {
+  await appDb?.destroy();
+  await dbLink?.close();
   await t.drop();
 });
 
@@ -47,6 +66,31 @@ interface Net {
   online: boolean;
   dropNextPush: boolean;
   duplicateNextPush: boolean;
+  /** PostgreSQL restarts as the next push arrives: cut before it, back after its answer. */
+  dbRestartOnNextPush: boolean;
+  /** The app process dies this many milliseconds into the next push (null: it does not). */
+  killAppInNextPushAfterMs: number | null;
+}
+
+const ctx = () => ({ params: Promise.resolve({}) });
+
+/**
+ * The app killed in the middle of a push: the handler runs on a connection pool of its own, through
+ * a relay that is closed at the drawn moment. Every connection resets (PostgreSQL rolls back what
+ * was in flight, as when a process dies) and no new one opens, so the dead app writes nothing
+ * more; the tablet sees the connection drop. The handler's leftovers are awaited before going on.
+ */
+async function pushThenKill(request: NextRequest, afterMs: number): Promise<never> {
+  const link = await startTcpCut(Number(new URL(t.url).port));
+  const doomed = createDb(appUrlThrough(link.port), 3);
+  routeState.db = doomed;
+  const inFlight = push(request, ctx()).catch(() => undefined);
+  await sleep(afterMs);
+  await link.close();
+  await inFlight;
+  routeState.db = appDb;
+  await doomed.destroy().catch(() => undefined);
+  throw new TypeError("connection reset");
 }
 
 /** The tablet's network: the real route handlers behind switchable faults. */
@@ -60,17 +104,30 @@ function network(net: Net): Fetch {
         headers: { ...(init?.headers as Record<string, string> | undefined), origin: ORIGIN },
       });
     if (url.startsWith("/api/sync/push")) {
-      const ctx = { params: Promise.resolve({}) };
+      if (net.killAppInNextPushAfterMs !== null) {
+        const afterMs = net.killAppInNextPushAfterMs;
+        net.killAppInNextPushAfterMs = null;
+        return pushThenKill(request(), afterMs);
+      }
+      if (net.dbRestartOnNextPush) {
+        net.dbRestartOnNextPush = false;
+        await dbLink.cut();
+        try {
+          return await push(request(), ctx()); // answered without the database: nothing is stored
+        } finally {
+          await dbLink.restore();
+        }
+      }
       if (net.dropNextPush) {
         net.dropNextPush = false;
-        await push(request(), ctx); // the server commits…
+        await push(request(), ctx()); // the server commits…
         throw new TypeError("connection reset"); // …and the answer never arrives
       }
       if (net.duplicateNextPush) {
         net.duplicateNextPush = false;
-        await push(request(), ctx);
+        await push(request(), ctx());
       }
-      return push(request(), ctx);
+      return push(request(), ctx());
     }
     if (url.startsWith("/api/sync/pull")) return pull(request(), { params: Promise.resolve({}) });
     const pourId = url.split("/").pop()!;
@@ -200,12 +257,20 @@ describe("sync client against the real server (model-based)", () => {
       fc.constant(netCmd("online", (n) => (n.online = true))),
       fc.constant(netCmd("dropResponse", (n) => (n.dropNextPush = true))),
       fc.constant(netCmd("deliverTwice", (n) => (n.duplicateNextPush = true))),
+      fc.constant(netCmd("databaseRestart", (n) => (n.dbRestartOnNextPush = true))),
+      fc.nat(40).map((ms) => netCmd(`killApp(${ms} ms)`, (n) => (n.killAppInNextPushAfterMs = ms))),
       fc.constant(new SyncCmd()),
       fc.constant(new RestartCmd()),
     ];
     await fc.assert(
       fc.asyncProperty(fc.commands(commands, { maxCommands: 40 }), async (cmds) => {
-        const net: Net = { online: true, dropNextPush: false, duplicateNextPush: false };
+        const net: Net = {
+          online: true,
+          dropNextPush: false,
+          duplicateNextPush: false,
+          dbRestartOnNextPush: false,
+          killAppInNextPushAfterMs: null,
+        };
         const tablet = new Tablet(`model-${crypto.randomUUID()}`, new IDBFactory(), net);
         await writeMeta(tablet.db, "session", {
           userId: w.crew.id,
@@ -219,7 +284,13 @@ describe("sync client against the real server (model-based)", () => {
         await fc.asyncModelRun(() => ({ model, real: tablet }), cmds);
 
         // Quiescence: the connection comes back and stays.
-        Object.assign(net, { online: true, dropNextPush: false, duplicateNextPush: false });
+        Object.assign(net, {
+          online: true,
+          dropNextPush: false,
+          duplicateNextPush: false,
+          dbRestartOnNextPush: false,
+          killAppInNextPushAfterMs: null,
+        });
         for (let i = 0; i < 5 && (await tablet.db.outbox.count()) > 0; i++) await tablet.client.sync({ force: true });
         expect(await tablet.db.outbox.count()).toBe(0);
         const rows = await checkServer(model, tablet);
