@@ -618,8 +618,25 @@ export async function evaluateTendon(
   input: { projectId: string; tendonId: string; reason: string },
 ): Promise<EvaluationOutcome> {
   await raiseTendonVersion(db, input);
-  const row = await selectTendonState(db, input).executeTakeFirstOrThrow();
-  const plan = planEvaluation(stateFromRow(row), input);
-  await writeTogether(db, evaluationWrites(db, plan));
-  return plan.outcome;
+  for (let attempt = 1; ; attempt++) {
+    const row = await selectTendonState(db, input).executeTakeFirstOrThrow();
+    const plan = planEvaluation(stateFromRow(row), input);
+    try {
+      await writeTogether(db, evaluationWrites(db, plan));
+      return plan.outcome;
+    } catch (error) {
+      // Another tendon of the pour raised the pour's concrete flag since the read: read again.
+      if (!lostConcreteFlagRace(error) || attempt >= 5) throw error;
+    }
+  }
+}
+
+/**
+ * The write raised the pour's concrete flag after another evaluation had already raised it (the
+ * unique index of migration 2026-12-11T090000-one-open-concrete-flag). Nothing of the write was
+ * stored; reading the state again sees the open flag and raises none.
+ */
+export function lostConcreteFlagRace(error: unknown): boolean {
+  const e = error as { code?: unknown; constraint?: unknown } | null;
+  return e?.code === "23505" && e.constraint === "flags_one_open_concrete_per_pour";
 }

@@ -11,6 +11,7 @@ import { recordPayloadSchema, type RecordPayload } from "@/lib/schemas/record";
 import type { OpError, OpEvaluation, OpResult, PushResponse, SyncOp } from "@/lib/schemas/sync";
 import {
   evaluationWrites,
+  lostConcreteFlagRace,
   planEvaluation,
   raiseVersionFrom,
   selectTendonState,
@@ -403,7 +404,7 @@ async function attemptOp(
     // Another write came first: a concurrent delivery of this op (the claim), another record of
     // the tendon (its version) or a record taking this one's id or revision. The read covers each
     // of them, so reading again tells which answer is right.
-    if (refusedByGuard(error)) return RETRY;
+    if (refusedByGuard(error) || lostConcreteFlagRace(error)) return RETRY;
     if (isReleasedPourRefusal(error)) return rejected(op, "RELEASED", RELEASED_POUR_MESSAGE, { pourId: ["Released."] });
     const refusal = databaseRefusal(op, error);
     if (refusal) return refusal;

@@ -182,6 +182,43 @@ describe("the concrete gate of a pour", () => {
     expect(listed.confirmed.strengthMPa).toBeCloseTo(23, 10);
   });
 
+  it("tendons evaluated at the same moment still raise one open concrete flag for the pour", async () => {
+    const { pourId, tendons } = await newPour("Race pour", 6);
+    // Records first, then every evaluation at once: each reads "no concrete flag yet" before any writes.
+    const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tendons[0]!.id });
+    const predicted = predictTendon({ ...basis, equipmentGripMm: 457.2 }).predictedMm;
+    for (const tendon of tendons)
+      for (const end of basis.tendon.ends === "both" ? (["A", "B"] as const) : (["A"] as const))
+        await insertRecord(t.db, {
+          projectId: fx.projectId,
+          tendon,
+          end,
+          equipmentSetId: fx.setA,
+          authorId: fx.crewId,
+          measuredMm: predicted,
+          finalPressureMPa: pressure,
+        });
+    const outcomes = await Promise.all(
+      tendons.map((tendon) => evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" })),
+    );
+    const open = (await concreteFlags(pourId)).filter((f) => f.status === "open");
+    expect(open).toHaveLength(1);
+    expect(outcomes.filter((o) => o.flagKinds.includes("concrete_unconfirmed"))).toHaveLength(1);
+    // The database itself refuses a second open one, whatever path it comes by.
+    await expect(
+      t.db
+        .insertInto("flags")
+        .values({
+          project_id: fx.projectId,
+          pour_id: pourId,
+          tendon_id: tendons[1]!.id,
+          kind: "concrete_unconfirmed",
+          reason: "A second one",
+        })
+        .execute(),
+    ).rejects.toThrow(/flags_one_open_concrete_per_pour/);
+  });
+
   it("results entered before stressing: a clean pour of 5 tendons raises no concrete flag", async () => {
     const { pourId, tendons } = await newPour("Confirmed first", 5);
     const gate = await addConcreteResult(t.db, {
