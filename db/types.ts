@@ -46,6 +46,8 @@ export interface ProjectsTable {
   reading_resolution: Generated<ReadingResolution>;
   tolerance_pct: Generated<number>;
   group_tolerance_pct: number | null;
+  /** Steel lost to unreplaced wire breaks that a member may carry, % of its prestressing steel (default 2). */
+  wire_loss_limit_pct: Generated<number>;
   short_tendon_floor_mm: number | null;
   comparison_basis: Generated<ComparisonBasis>;
   count_jack_grip: Generated<boolean>;
@@ -128,6 +130,8 @@ export interface TendonsTable {
   jack_grip_mm: number | null;
   shop_elongation_mm: number | null;
   strand_lot_id: string | null;
+  /** The member (beam, slab strip, band) the schedule puts the tendon in; null: the pour is its group. */
+  member: Generated<string | null>;
   created_at: Timestamp;
   updated_at: Timestamp;
 }
@@ -300,7 +304,8 @@ export type FlagKind =
   | "under_force"
   | "seating_excess"
   | "cut_while_held"
-  | "group_out_of_band";
+  | "group_out_of_band"
+  | "member_wire_loss";
 export type FlagStatus = "open" | "with_engineer" | "closed";
 
 export interface FlagsTable {

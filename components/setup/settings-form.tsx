@@ -37,6 +37,7 @@ function fields(us: boolean) {
     releaseBy: z.enum(["engineer", "inspector"]),
     timeZone: z.string(),
     jackingForceFactor: units.number(),
+    wireLossLimitPct: units.number(),
     underForcePct: units.number(),
     seatingExcessMm: units.length(system, us ? "in" : "mm"),
     clockSkewMinutes: units.number(),
@@ -58,6 +59,7 @@ function resolver(us: boolean) {
       timeZone: (v.timeZone ?? "").trim(),
       // Required boxes: units.number() has already refused an empty one.
       jackingForceFactor: v.jackingForceFactor as number,
+      wireLossLimitPct: v.wireLossLimitPct as number,
       underForcePct: v.underForcePct as number,
       seatingExcessMm: v.seatingExcessMm as number,
       clockSkewMinutes: v.clockSkewMinutes as number,
@@ -65,6 +67,7 @@ function resolver(us: boolean) {
     projectSettingsSchema.required({
       timeZone: true,
       jackingForceFactor: true,
+      wireLossLimitPct: true,
       underForcePct: true,
       seatingExcessMm: true,
       clockSkewMinutes: true,
@@ -127,6 +130,7 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
       notifyEmails: settings.notifyEmails.join(", "),
       timeZone: settings.timeZone ?? "UTC",
       jackingForceFactor: String(settings.jackingForceFactor ?? 0.8),
+      wireLossLimitPct: String(settings.wireLossLimitPct ?? 2),
       underForcePct: String(settings.underForcePct ?? 2),
       seatingExcessMm: shown(settings.seatingExcessMm ?? 3.175, PER[len]),
       clockSkewMinutes: String(settings.clockSkewMinutes ?? 10),
@@ -271,6 +275,14 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
           error={err("jackingForceFactor")}
         >
           <input className="field-input" inputMode="decimal" {...reg("jackingForceFactor")} />
+        </Row>
+        <Row
+          id="s-wireLossLimitPct"
+          label="Broken wires a member may carry, % of its steel"
+          hint="2 % is the ACI 318 limit for unreplaced broken prestressing steel (ACI 318-02 §18.20.4)."
+          error={err("wireLossLimitPct")}
+        >
+          <input className="field-input" inputMode="decimal" {...reg("wireLossLimitPct")} />
         </Row>
         <Row id="s-underForcePct" label="Flag a gauge force short by more than, %" error={err("underForcePct")}>
           <input className="field-input" inputMode="decimal" {...reg("underForcePct")} />

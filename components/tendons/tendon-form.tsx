@@ -31,6 +31,7 @@ function fields(us: boolean) {
     jackGripMm: units.length(system, short, false),
     shopElongationMm: units.length(system, short, false),
     strandLotId: z.string(),
+    member: z.string(),
     mode: z.enum(["segments", "drape"]),
     segments: z.array(z.object({ length: units.length(system, long, false), angleDeg: units.number(false) })),
     spanLength: units.length(system, long, false),
@@ -56,7 +57,7 @@ function resolver(us: boolean) {
           .filter((s) => s.length !== null)
           .map((s) => ({ lengthMm: s.length!, angleRad: ((s.angleDeg ?? 0) * Math.PI) / 180 }));
       }
-      return { ...v, strandLotId: v.strandLotId || null, segments: profile };
+      return { ...v, strandLotId: v.strandLotId || null, member: v.member?.trim() || null, segments: profile };
     },
     tendonSchema,
     {},
@@ -92,6 +93,7 @@ export function TendonForm({
       jackGripMm: "",
       shopElongationMm: "",
       strandLotId: "",
+      member: "",
       mode: "drape",
       segments: [{ length: "", angleDeg: "" }],
       spanLength: "",
@@ -127,7 +129,7 @@ export function TendonForm({
       <input
         id={`t-${k}`}
         className="field-input mt-1"
-        inputMode={k === "tag" ? "text" : "decimal"}
+        inputMode={k === "tag" || k === "member" ? "text" : "decimal"}
         {...form.register(k)}
         aria-invalid={err(k) ? true : undefined}
       />
@@ -178,6 +180,11 @@ export function TendonForm({
         </div>
         {text("jackGripMm", `Jack grip, ${short}`, "Empty: the equipment set's value.")}
         {text("shopElongationMm", `Shop-drawing elongation, ${short}`, "When the detailer gives one.")}
+        {text(
+          "member",
+          "Member",
+          "The beam, slab strip or band, as drawn. Empty: the pour is its group for the group average and the wire-break ledger.",
+        )}
         <div>
           <label htmlFor="t-strandLotId" className="field-label">
             Strand lot

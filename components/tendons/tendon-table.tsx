@@ -34,7 +34,7 @@ export interface TendonList {
 /** The route handler that lists a pour's tendons; also the swr key the import and the form refresh. */
 export const tendonsKey = (projectId: string, pourId: string) => `/api/projects/${projectId}/pours/${pourId}/tendons`;
 
-export const SORTS = ["tag", "length", "predicted", "ends", "lot", "kind"] as const;
+export const SORTS = ["tag", "member", "length", "predicted", "ends", "lot", "kind"] as const;
 const DEFAULT_SORT: ColumnSort = { id: "tag", desc: false };
 const ENDS = ["A", "B", "both"] as const;
 
@@ -83,6 +83,12 @@ function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolu
       sortFn: (a, b, id) => compareText(a.getValue<string>(id), b.getValue<string>(id)),
       enableColumnFilter: false,
       cell: (c) => KIND_LABELS[c.getValue()],
+    }),
+    helper.accessor("member", {
+      header: "Member",
+      sortFn: (a, b, id) => compareText(a.getValue<string | null>(id), b.getValue<string | null>(id)),
+      enableColumnFilter: false,
+      cell: (c) => c.getValue() ?? <span className="text-ink-faint">pour</span>,
     }),
     helper.display({
       id: "strand",

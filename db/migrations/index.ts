@@ -20,6 +20,7 @@ import * as signedReleases from "./2026-12-10T150000-signed-releases";
 import * as calibrationRetirement from "./2026-12-10T150100-calibration-retirement";
 import * as allFlagKinds from "./2026-12-10T160000-all-flag-kinds";
 import * as oneOpenConcreteFlag from "./2026-12-11T090000-one-open-concrete-flag";
+import * as memberWireLedger from "./2026-12-11T100000-member-wire-ledger";
 
 // A static index: vitest and bundlers cannot import .ts migrations from a folder scan.
 // Keys sort in time order; append new migrations at the end.
@@ -45,4 +46,5 @@ export const migrations: Record<string, Migration> = {
   "2026-12-10T150100-calibration-retirement": calibrationRetirement,
   "2026-12-10T160000-all-flag-kinds": allFlagKinds,
   "2026-12-11T090000-one-open-concrete-flag": oneOpenConcreteFlag,
+  "2026-12-11T100000-member-wire-ledger": memberWireLedger,
 };

@@ -66,6 +66,17 @@ describe("tendon schedule CSV: good files", () => {
     expect(parseTendonSchedule(templateCsv("SI")).ok).toBe(true);
   });
 
+  it("reads the member each tendon belongs to, keeps it through an export, and leaves it empty when not given", () => {
+    const withMember = `${HEADER},member\nB3-1,monostrand,0.5,1,A,15@1.6,18,,,Beam B-3\nB3-2,monostrand,0.5,1,A,15@1.6,18,,,`;
+    const result = parseTendonSchedule(withMember);
+    expect(result.ok && result.tendons.map((t) => t.member)).toEqual(["Beam B-3", null]);
+    if (!result.ok) return;
+    const again = parseTendonSchedule(toTendonCsv(result.tendons, "SI"));
+    expect(again.ok && again.tendons.map((t) => t.member)).toEqual(["Beam B-3", null]);
+    const bad = parseTendonSchedule(`${HEADER},member\nB3-1,monostrand,0.5,1,A,15@1.6,18,,,=SUM(A1)`);
+    expect(bad.ok === false && bad.errors.map((e) => e.column)).toEqual(["member"]);
+  });
+
   it("reads 10,000 rows", () => {
     const rows = Array.from({ length: 10_000 }, (_, i) => `T-${i},monostrand,0.5,1,A,15@1.6 15@1.6,18,,`);
     const result = parseTendonSchedule(file(...rows));
@@ -176,13 +187,14 @@ describe("tendon schedule CSV: hostile files", () => {
           jackGripMm: null,
           shopElongationMm: null,
           strandLot: "@x",
+          member: "-1+2",
         },
       ],
       "SI",
     );
     const line = csv.split("\r\n")[1]!;
     expect(line.startsWith("'=HYPERLINK(1)")).toBe(true);
-    expect(line.endsWith(",'@x")).toBe(true);
+    expect(line.endsWith(",'@x,'-1+2")).toBe(true);
   });
 
   it("refuses more rows than allowed without reading them all, and caps the error list", () => {

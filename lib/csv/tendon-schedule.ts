@@ -9,7 +9,7 @@ import { FORMULA_START, STRAND_SIZES, tendonSchema, type TendonInput } from "@/l
  * column with its unit in brackets. Column order is free; the names and units are not.
  *
  *   tag, type, strand size [in], strands, ends, segments [ft@deg], jack grip [in],
- *   shop elongation [in], strand lot
+ *   shop elongation [in], strand lot, member
  *
  * `segments` lists each segment from end A to end B as length@angle-change, separated by
  * spaces: "15@1.62 15@1.62". Lengths may be given in ft or m (segments), in or mm (grip,
@@ -47,6 +47,11 @@ export const COLUMNS: readonly ColumnSpec[] = [
   },
   { key: "shop elongation", required: false, units: ["in", "mm"], hint: "the detailer's elongation, when given" },
   { key: "strand lot", required: false, hint: "lot or heat number registered on the project" },
+  {
+    key: "member",
+    required: false,
+    hint: "beam, slab strip or band the tendon belongs to; its group average and wire-break ledger are judged per member",
+  },
 ];
 
 export const MAX_ROWS = 20_000;
@@ -239,6 +244,7 @@ export function parseTendonSchedule(
       jackGripMm: jackGripMm ?? null,
       shopElongationMm: shopElongationMm ?? null,
       strandLotId: null,
+      member: cell(row, "member") || null,
     });
     if (!checked.success) {
       for (const issue of checked.error.issues) {
@@ -253,6 +259,7 @@ export function parseTendonSchedule(
             ends: "ends",
             jackGripMm: "jack grip",
             shopElongationMm: "shop elongation",
+            member: "member",
           }[field] ?? field;
         add(line, column, issue.message);
       }
@@ -285,6 +292,7 @@ export function scheduleHeader(system: UnitSystem): string[] {
     `jack grip [${short}]`,
     `shop elongation [${short}]`,
     "strand lot",
+    "member",
   ];
 }
 
@@ -298,6 +306,7 @@ export interface ExportTendon {
   jackGripMm: number | null;
   shopElongationMm: number | null;
   strandLot: string | null;
+  member?: string | null;
 }
 
 /** The same layout as the import, so an exported file imports again unchanged. */
@@ -318,6 +327,7 @@ export function toTendonCsv(tendons: readonly ExportTendon[], system: UnitSystem
     short(t.jackGripMm),
     short(t.shopElongationMm),
     neutralise(t.strandLot ?? ""),
+    neutralise(t.member ?? ""),
   ]);
   return Papa.unparse({ fields: scheduleHeader(system), data: safeRows(rows) }, { newline: "\r\n" }) + "\r\n";
 }

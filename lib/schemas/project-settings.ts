@@ -80,6 +80,11 @@ export const projectSettingsSchema = z.object({
     .min(0.5, "Below 0.50·fpu·A is not a stressing force.")
     .max(0.8, "Above 0.80·fpu·A exceeds the code limit (ACI 318-19 Table 20.3.2.5.1).")
     .optional(),
+  wireLossLimitPct: z
+    .number({ error: "Give the member's wire-break limit in %." })
+    .positive("The limit must be above 0 %.")
+    .max(10, "More than 10 % of a member's steel lost is not a check.")
+    .optional(),
   underForcePct: z
     .number({ error: "Give the under-force threshold in %." })
     .min(0, "The threshold cannot be negative.")

@@ -60,6 +60,8 @@ export const tendonSchema = z
       .max(5000, "Over 5 m looks wrong.")
       .nullable(),
     strandLotId: z.uuid({ error: "Pick a strand lot of this project." }).nullable(),
+    /** The beam, slab strip or band the tendon belongs to; none: the pour is its group. */
+    member: plainText("member", 80).nullable().optional(),
   })
   .superRefine((t, ctx) => {
     if (t.kind === "unbonded_monostrand" && t.strandCount !== 1) {

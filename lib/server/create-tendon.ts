@@ -61,6 +61,7 @@ export async function createTendon(
         jack_grip_mm: v.jackGripMm,
         shop_elongation_mm: v.shopElongationMm,
         strand_lot_id: v.strandLotId,
+        member: v.member ?? null,
       })
       .returning("id")
       .executeTakeFirstOrThrow();

@@ -15,11 +15,12 @@ import type {
   Verdict,
 } from "@/db/types";
 import { AppError } from "@/lib/errors";
-import { ENGINE_VERSION } from "@/lib/elongation";
+import { ENGINE_VERSION, findStrandSize } from "@/lib/elongation";
 import { env } from "@/lib/env";
 import { flagMail } from "@/lib/mail/templates";
 import type { JudgeInput, JudgeRecord } from "@/lib/stressing/judge";
 import { judgeAndFlag } from "@/lib/stressing/rules";
+import { WIRES_PER_STRAND } from "@/lib/stressing/rules/member-wire-loss";
 import { answeredOrder } from "@/lib/stressing/rules/stressed-twice";
 import { governsLine, showLength, showPct } from "@/lib/stressing/display";
 import { selectTendonBasis, toLoadedTendon, type LoadedTendon } from "./load-tendon-basis";
@@ -113,8 +114,12 @@ export interface TendonState {
   dispositions: { id: string; flag_id: string; decision: Decision; created_at: Date }[];
   /** The tendon's version as read with the rest (0 before its first record). */
   version: number;
-  /** The pour's other tendons (read when the project sets a group band). */
+  /** The other tendons of the tendon's member, or of its pour when it names none (read when the project sets a group band). */
   group?: { id: string; tag: string; deviation_pct: number | null; last_stressed_at: string | Date | null }[];
+  /** The member's strands by size and lot area (this tendon's included), for the wire-break ledger. */
+  memberSteel?: { strand_size: string; lot_area_mm2: number | null; strands: number | string }[];
+  /** Wires broken and not replaced on the member's other tendons, per tendon end. */
+  memberBreaks?: { tag: string; strand_size: string; lot_area_mm2: number | null; tendon_end: string; wires: number }[];
 }
 
 /**
@@ -229,9 +234,60 @@ export function selectTendonState(
         ])
         .where("g.project_id", "=", projectId)
         .whereRef("g.pour_id", "=", "tendons.pour_id")
+        .where(sql<boolean>`g.member is not distinct from tendons.member`)
         .where("g.id", "!=", tendonId)
         .where(sql<boolean>`projects.group_tolerance_pct is not null`),
     ).as("group"),
+    // The wire-break ledger of the tendon's member (the tendons of its pour naming the same member,
+    // or none): the member's strands by size and lot, this tendon's included ...
+    jsonArrayFrom(
+      eb
+        .selectFrom("tendons as m")
+        .leftJoin("strand_lots as ml", (j) =>
+          j.onRef("ml.id", "=", "m.strand_lot_id").onRef("ml.project_id", "=", "m.project_id"),
+        )
+        .select((m) => [
+          "m.strand_size",
+          "ml.area_mm2 as lot_area_mm2",
+          m.fn.sum<number>("m.strand_count").as("strands"),
+        ])
+        .where("m.project_id", "=", projectId)
+        .whereRef("m.pour_id", "=", "tendons.pour_id")
+        .where(sql<boolean>`m.member is not distinct from tendons.member`)
+        .groupBy(["m.strand_size", "ml.area_mm2"]),
+    ).as("memberSteel"),
+    // ... and the wires broken on its other tendons: per end, the most any current record reports.
+    jsonArrayFrom(
+      eb
+        .selectFrom("records as wr")
+        .innerJoin("tendons as wt", "wt.id", "wr.tendon_id")
+        .leftJoin("strand_lots as wl", (j) =>
+          j.onRef("wl.id", "=", "wt.strand_lot_id").onRef("wl.project_id", "=", "wt.project_id"),
+        )
+        .select((w) => [
+          "wt.tag",
+          "wt.strand_size",
+          "wl.area_mm2 as lot_area_mm2",
+          "wr.tendon_end",
+          w.fn.max("wr.wire_breaks").as("wires"),
+        ])
+        .where("wr.project_id", "=", projectId)
+        .whereRef("wr.pour_id", "=", "tendons.pour_id")
+        .where("wr.wire_breaks", ">", 0)
+        .where("wr.tendon_id", "!=", tendonId)
+        .where(sql<boolean>`wt.member is not distinct from tendons.member`)
+        .where(({ not, exists, selectFrom }) =>
+          not(
+            exists(
+              selectFrom("records as wn")
+                .select("wn.id")
+                .whereRef("wn.chain_id", "=", "wr.chain_id")
+                .whereRef("wn.revision", ">", "wr.revision"),
+            ),
+          ),
+        )
+        .groupBy(["wt.tag", "wt.strand_size", "wl.area_mm2", "wr.tendon_end"]),
+    ).as("memberBreaks"),
     eb
       .selectFrom("tendon_versions")
       .select("tendon_versions.version")
@@ -264,6 +320,8 @@ export function stateFromRow(row: StateRow, adding?: EvaluatedRecord): TendonSta
       .sort((a, b) => +a.created_at - +b.created_at),
     version: row.version ?? 0,
     group: row.group,
+    memberSteel: row.memberSteel,
+    memberBreaks: row.memberBreaks,
   };
 }
 
@@ -345,8 +403,9 @@ export function judgeInputFromState(state: TendonState): JudgeInput {
       decision: d.decision,
       createdAt: d.created_at,
     })),
+    ...(state.memberSteel && { member: memberLedger(state) }),
     group: {
-      label: `pour ${pour.name}`,
+      label: groupLabel(state.basis),
       tendons: (state.group ?? []).map((g) => ({
         tendonId: g.id,
         tag: g.tag,
@@ -354,6 +413,39 @@ export function judgeInputFromState(state: TendonState): JudgeInput {
         lastStressedAt: g.last_stressed_at,
       })),
     },
+  };
+}
+
+/** What the group and the ledger call the tendon's member: the schedule's member, else its pour. */
+const groupLabel = ({ tendon, pour }: LoadedTendon) =>
+  tendon.member ? `member ${tendon.member}` : `pour ${pour.name}`;
+
+/** The area of one strand: the lot's mill certificate when the tendon names a lot, else nominal. */
+function strandArea(size: string, lotAreaMm2: number | null): number {
+  const area = lotAreaMm2 ?? findStrandSize(size)?.areaMm2;
+  if (area === undefined) throw new Error(`Unknown strand size "${size}"`);
+  return area;
+}
+
+/** The member's steel and its other tendons' broken wires, for the ledger rule. */
+function memberLedger(state: TendonState): NonNullable<JudgeInput["member"]> {
+  const byTag = new Map<string, { tag: string; wires: number; wireAreaMm2: number }>();
+  for (const b of state.memberBreaks ?? []) {
+    const entry = byTag.get(b.tag) ?? {
+      tag: b.tag,
+      wires: 0,
+      wireAreaMm2: strandArea(b.strand_size, b.lot_area_mm2) / WIRES_PER_STRAND,
+    };
+    entry.wires += Number(b.wires);
+    byTag.set(b.tag, entry);
+  }
+  return {
+    label: groupLabel(state.basis),
+    steelMm2: (state.memberSteel ?? []).reduce(
+      (s, m) => s + Number(m.strands) * strandArea(m.strand_size, m.lot_area_mm2),
+      0,
+    ),
+    otherBreaks: [...byTag.values()].sort((a, b) => a.tag.localeCompare(b.tag)),
   };
 }
 

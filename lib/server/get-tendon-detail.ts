@@ -33,6 +33,7 @@ export interface TendonDetail {
     ends: StressingEnds;
     jackGripMm: number | null;
     shopElongationMm: number | null;
+    member: string | null;
     pour: { id: string; name: string };
     lot: { id: string; lotNumber: string } | null;
   };
@@ -129,6 +130,7 @@ export async function getTendonDetail(
       ends: tendon.ends,
       jackGripMm: tendon.jackGripMm,
       shopElongationMm: tendon.shopElongationMm,
+      member: tendon.member ?? null,
       pour: { id: loaded.pour.id, name: loaded.pour.name },
       lot: lot ? { id: lot.id, lotNumber: lot.lotNumber } : null,
     },

@@ -83,6 +83,7 @@ export async function importTendonSchedule(
             jack_grip_mm: t.jackGripMm,
             shop_elongation_mm: t.shopElongationMm,
             strand_lot_id: t.strandLot ? (lotId.get(t.strandLot) ?? null) : null,
+            member: t.member ?? null,
           })),
         )
         .execute();

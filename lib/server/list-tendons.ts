@@ -16,6 +16,8 @@ export interface TendonRow {
   jackGripMm: number | null;
   shopElongationMm: number | null;
   strandLot: string | null;
+  /** The member the schedule names, or null. */
+  member: string | null;
   lengthMm: number;
   /** The prediction on the project's basis and the tendon's lot; null when the schedule cannot be computed. */
   predictedMm: number | null;
@@ -84,6 +86,7 @@ export async function listTendons(
       "tendons.ends",
       "tendons.jack_grip_mm",
       "tendons.shop_elongation_mm",
+      "tendons.member",
       "strand_lots.lot_number",
       "strand_lots.area_mm2",
       "strand_lots.modulus_mpa",
@@ -128,6 +131,7 @@ export async function listTendons(
         jackGripMm: r.jack_grip_mm,
         shopElongationMm: r.shop_elongation_mm,
         strandLot: r.lot_number,
+        member: r.member,
         lengthMm: r.segments.reduce((s, x) => s + x.lengthMm, 0),
         predictedMm: prediction?.predictedMm ?? null,
         targets: sets

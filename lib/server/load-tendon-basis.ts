@@ -16,7 +16,14 @@ export interface LoadedTendon {
       notifyEmails: string[];
     };
   pour: { id: string; name: string; concreteStrengthMpa: number | null; status: string };
-  tendon: TendonBasis & { id: string; tag: string; kind: TendonKind; shopElongationMm: number | null };
+  tendon: TendonBasis & {
+    id: string;
+    tag: string;
+    kind: TendonKind;
+    shopElongationMm: number | null;
+    /** The member the schedule names; null when the pour is the tendon's group. */
+    member?: string | null;
+  };
   lot: (LotBasis & { id: string; lotNumber: string }) | null;
 }
 
@@ -55,6 +62,7 @@ export function selectTendonBasis(qc: QueryCreator<Database>, input: { projectId
       "projects.seating_excess_mm",
       "projects.governing_value",
       "projects.group_tolerance_pct",
+      "projects.wire_loss_limit_pct",
       "projects.required_concrete_mpa",
       "projects.engineer_of_record_name",
       "projects.engineer_of_record_email",
@@ -72,6 +80,7 @@ export function selectTendonBasis(qc: QueryCreator<Database>, input: { projectId
       "tendons.ends",
       "tendons.jack_grip_mm",
       "tendons.shop_elongation_mm",
+      "tendons.member",
       "strand_lots.id as lotId",
       "strand_lots.lot_number",
       "strand_lots.area_mm2",
@@ -124,6 +133,7 @@ export function toLoadedTendon(row: BasisRow): LoadedTendon {
       ends: row.ends,
       jackGripMm: row.jack_grip_mm,
       shopElongationMm: row.shop_elongation_mm,
+      member: row.member,
     },
     lot:
       row.lotId && row.lot_number && row.area_mm2 && row.modulus_mpa && row.breaking_load_n

@@ -19,6 +19,7 @@ const JUDGING_COLUMNS = [
   "seating_excess_mm",
   "governing_value",
   "group_tolerance_pct",
+  "wire_loss_limit_pct",
 ] as const;
 
 export async function updateProjectSettings(
@@ -58,6 +59,7 @@ export async function updateProjectSettings(
         release_by: v.releaseBy,
         ...(v.timeZone !== undefined && { time_zone: v.timeZone }),
         ...(v.jackingForceFactor !== undefined && { jacking_force_factor: v.jackingForceFactor }),
+        ...(v.wireLossLimitPct !== undefined && { wire_loss_limit_pct: v.wireLossLimitPct }),
         ...(v.underForcePct !== undefined && { under_force_pct: v.underForcePct }),
         ...(v.seatingExcessMm !== undefined && { seating_excess_mm: v.seatingExcessMm }),
         ...(v.clockSkewMinutes !== undefined && { clock_skew_minutes: v.clockSkewMinutes }),

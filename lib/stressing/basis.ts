@@ -38,6 +38,8 @@ export interface ProjectBasis {
   governing?: "tautline" | "shop_drawing";
   /** The band on a group's average deviation, ± %; none when null. */
   groupTolerancePct?: number | null;
+  /** Steel a member may lose to unreplaced wire breaks, % of its prestressing steel (default 2). */
+  wireLossLimitPct?: number;
 }
 
 /** The basis columns of a `projects` row. */
@@ -55,6 +57,7 @@ export interface ProjectBasisColumns {
   seating_excess_mm?: number;
   governing_value?: "tautline" | "shop_drawing";
   group_tolerance_pct?: number | null;
+  wire_loss_limit_pct?: number;
 }
 
 /** The basis of a project as stored. */
@@ -72,6 +75,7 @@ export const projectBasisFromRow = (p: ProjectBasisColumns): ProjectBasis => ({
   ...(p.seating_excess_mm !== undefined && { seatingExcessMm: p.seating_excess_mm }),
   ...(p.governing_value !== undefined && { governing: p.governing_value }),
   ...(p.group_tolerance_pct !== undefined && { groupTolerancePct: p.group_tolerance_pct }),
+  ...(p.wire_loss_limit_pct !== undefined && { wireLossLimitPct: p.wire_loss_limit_pct }),
 });
 
 export interface TendonBasis {

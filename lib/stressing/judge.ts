@@ -111,7 +111,7 @@ export interface JudgeRecord {
 
 export interface JudgeInput {
   project: JudgeProject;
-  tendon: TendonBasis & { shopElongationMm?: number | null };
+  tendon: TendonBasis & { shopElongationMm?: number | null; tag?: string };
   lot: LotBasis | null;
   /** `concreteFlagOpen`: the pour already has an open concrete flag (the concrete rule raises one per pour). */
   pour?: { concreteStrengthMpa: number | null; concreteFlagOpen?: boolean };
@@ -126,6 +126,16 @@ export interface JudgeInput {
   group?: {
     label: string;
     tendons: { tendonId: string; tag: string; deviationPct: number | null; lastStressedAt: string | Date | null }[];
+  };
+  /**
+   * The wire-break ledger of this tendon's member (its pour when the schedule names none): the
+   * member's prestressing steel, this tendon's included, and the wires broken and not replaced on
+   * its other tendons. Absent where it was not read (the tablet); the ledger rule then says nothing.
+   */
+  member?: {
+    label: string;
+    steelMm2: number;
+    otherBreaks: { tag: string; wires: number; wireAreaMm2: number }[];
   };
 }
 

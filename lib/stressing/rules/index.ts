@@ -4,6 +4,7 @@ import { calibrationRange } from "./calibration-range";
 import { concreteUnconfirmed } from "./concrete-unconfirmed";
 import { anchorOverLimit, jackingOverLimit, underForce } from "./forces";
 import { groupOutOfBand } from "./group-out-of-band";
+import { memberWireLoss } from "./member-wire-loss";
 import { outOfBand } from "./out-of-band";
 import { seatingExcess } from "./seating-excess";
 import { stressedTwice } from "./stressed-twice";
@@ -29,6 +30,7 @@ export const FLAG_RULES: { [K in RuleKind]: Rule } = {
   out_of_band: outOfBand,
   concrete_unconfirmed: concreteUnconfirmed,
   group_out_of_band: groupOutOfBand,
+  member_wire_loss: memberWireLoss,
 };
 
 /** Runs every rule over a judgement. */

@@ -293,7 +293,70 @@ const cases: Record<RuleKind, Case[]> = {
       raised: false,
     },
   ],
+  // 0.5 in strand: 98.71 mm² (ASTM A416 Table 1), one wire counted at 98.71 / 7 = 14.10 mm². A member of
+  // ten such strands has 987.1 mm²: one wire is 1.43 %, two are 2.86 %, against 2 % (ACI 318-02 §18.20.4).
+  member_wire_loss: [
+    {
+      name: "no ledger read (the tablet)",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P, wireBreaks: 3 })] }),
+      raised: false,
+    },
+    {
+      name: "one wire of ten strands: 1.43 %",
+      change: (i) => withMember(i, [rec({ measuredMm: P, wireBreaks: 1 })], []),
+      raised: false,
+    },
+    {
+      name: "one wire here and one on another tendon: 2.86 %",
+      change: (i) => withMember(i, [rec({ measuredMm: P, wireBreaks: 1 })], [1]),
+      raised: true,
+      reason:
+        /member B-3 has 2 broken wires not replaced, 2\.9 % .* 2 % limit \(ACI 318-02 §18\.20\.4\): this tendon \(1\), T0 \(1\)/,
+    },
+    {
+      name: "breaks only on other tendons: raised on theirs, not here",
+      change: (i) => withMember(i, [rec({ measuredMm: P })], [2, 1]),
+      raised: false,
+    },
+    {
+      name: "a correction that says no wire broke replaces the first revision",
+      change: (i) =>
+        withMember(
+          i,
+          [rec({ measuredMm: P, wireBreaks: 2 }), rec({ id: "r2", chainId: "r1", revision: 2, measuredMm: P })],
+          [],
+        ),
+      raised: false,
+    },
+    {
+      name: "a restress of the same end reporting fewer does not forget a wire",
+      change: (i) =>
+        withMember(i, [rec({ measuredMm: P, wireBreaks: 2 }), rec({ id: "r3", measuredMm: P, wireBreaks: 1 })], []),
+      raised: true,
+      reason: /2 broken wires/,
+    },
+    {
+      name: "the engineer's 3 % limit",
+      change: (i) => ({
+        ...withMember(i, [rec({ measuredMm: P, wireBreaks: 1 })], [1]),
+        project: { ...i.project, wireLossLimitPct: 3 },
+      }),
+      raised: false,
+    },
+  ],
 };
+
+function withMember(i: JudgeInput, records: JudgeRecord[], otherWires: number[]): JudgeInput {
+  return {
+    ...i,
+    records,
+    member: {
+      label: "member B-3",
+      steelMm2: 10 * strand.areaMm2,
+      otherBreaks: otherWires.map((wires, k) => ({ tag: `T${k}`, wires, wireAreaMm2: strand.areaMm2 / 7 })),
+    },
+  };
+}
 
 function withGroup(
   i: JudgeInput,

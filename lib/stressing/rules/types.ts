@@ -12,7 +12,8 @@ export type RuleKind =
   | "wire_break"
   | "concrete_unconfirmed"
   | "stressed_twice"
-  | "group_out_of_band";
+  | "group_out_of_band"
+  | "member_wire_loss";
 
 export interface Finding {
   kind: RuleKind;

@@ -62,6 +62,7 @@ export default async function TendonPage({ params }: { params: Promise<{ project
         {tendon.ends === "both" ? "both ends" : `end ${tendon.ends}`} ·{" "}
         {long(tendon.segments.reduce((s, x) => s + x.lengthMm, 0))} in {tendon.segments.length} segments ·{" "}
         {tendon.lot ? `strand lot ${tendon.lot.lotNumber}` : "no strand lot (nominal values)"}
+        {tendon.member ? ` · member ${tendon.member}` : ""}
       </p>
 
       {!computed.ok ? (
