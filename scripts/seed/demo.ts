@@ -45,6 +45,8 @@ interface DemoTendon {
   segments: TendonSegment[];
   ends: StressingEnds;
   lot: string;
+  /** The banded tendons form the column band, a member of its own; the uniform ones belong to the pour. */
+  member: string | null;
 }
 
 /** One pour's slab tendons: uniform tendons one way, banded tendons over the column lines. */
@@ -58,6 +60,7 @@ function pourTendons(prefix: string, uniformCount: number, bandedCount: number):
       segments: drapedSpans(spans, 30 * FT, 4.25 * IN),
       ends: spans === 3 ? "both" : "A",
       lot: i % 3 === 0 ? "AY-0903" : "AY-0871",
+      member: null,
     });
   }
   for (let i = 1; i <= bandedCount; i++) {
@@ -66,6 +69,7 @@ function pourTendons(prefix: string, uniformCount: number, bandedCount: number):
       segments: drapedSpans(4, 27.5 * FT, 5 * IN),
       ends: "both",
       lot: "AY-0871",
+      member: "Column band",
     });
   }
   return tendons;
@@ -326,6 +330,7 @@ export async function seedDemo(
             jack_grip_mm: 18 * IN,
             shop_elongation_mm: shopElongation(t),
             strand_lot_id: lots.find((l) => l.lot_number === t.lot)?.id ?? null,
+            member: t.member,
           })),
         )
         .onConflict((oc) => oc.columns(["pour_id", "tag"]).doNothing())
