@@ -1,6 +1,8 @@
 /**
  * A typed error with a closed set of codes, mapped to an HTTP status in one place.
- * Server operations throw these; the route wrapper turns them into JSON answers.
+ * Server operations throw these; `errorResponse` in lib/http/route.ts is the one place that turns
+ * them (and the units' InputError, and PostgreSQL's refusals through lib/server/database-refusal.ts)
+ * into JSON answers. Nothing else in app/api or lib writes an error status by hand.
  */
 export const ERROR_STATUS = {
   UNAUTHENTICATED: 401,
@@ -23,6 +25,9 @@ export class AppError extends Error {
   readonly code: ErrorCode;
   readonly fields?: FieldErrors;
 
+  /** Bad input always names its field(s), so a form can put the words beside the box. */
+  constructor(code: "INVALID_INPUT", message: string, fields: FieldErrors);
+  constructor(code: Exclude<ErrorCode, "INVALID_INPUT">, message: string, fields?: FieldErrors);
   constructor(code: ErrorCode, message: string, fields?: FieldErrors) {
     super(message);
     this.name = "AppError";
@@ -34,5 +39,8 @@ export class AppError extends Error {
     return ERROR_STATUS[this.code];
   }
 }
+
+/** The codes a push result may carry: the same set, plus the sync's own two. */
+export type OpErrorCode = ErrorCode | "RELEASED" | "RETRY_LATER";
 
 export const isAppError = (e: unknown): e is AppError => e instanceof AppError;

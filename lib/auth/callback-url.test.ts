@@ -21,7 +21,7 @@ describe("callbackUrl", () => {
     expect(isSafeCallbackUrl(url)).toBe(false);
   });
 
-  it("answers 400 naming the field for a bad one in the query, the form or the cookie, and null when all are ours", async () => {
+  it("answers 422 naming the field for a bad one in the query, the form or the cookie, and null when all are ours", async () => {
     const bad = [
       new Request("http://localhost:3000/api/auth/signin?callbackUrl=http%3A%2F%2F%5Bbad"),
       new Request("http://localhost:3000/api/auth/signin/credentials", {
@@ -33,7 +33,7 @@ describe("callbackUrl", () => {
     ];
     for (const request of bad) {
       const answer = await refuseBadCallbackUrl(request);
-      expect(answer?.status).toBe(400);
+      expect(answer?.status).toBe(422);
       expect(await answer!.json()).toMatchObject({ error: { fields: { callbackUrl: [expect.any(String)] } } });
     }
     const good = new Request("http://localhost:3000/api/auth/signin?callbackUrl=%2Fhome", {

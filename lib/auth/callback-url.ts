@@ -1,11 +1,12 @@
-import { NextResponse } from "next/server";
 import { env } from "@/lib/env";
+import { AppError } from "@/lib/errors";
+import { errorResponse } from "@/lib/http/route";
 import { hasControlCharacters } from "@/lib/schemas/text";
 
 /**
  * Where next-auth may send someone after signing in or out: a path of ours ("/home"), or a full
  * address on our own origin. Anything else (another site, "//evil", a string that is not an
- * address) is refused with 400 before next-auth sees it; next-auth answered some with a 500.
+ * address) is refused with 422 naming the field before next-auth sees it; next-auth answered some with a 500.
  */
 export function isSafeCallbackUrl(value: string): boolean {
   if (value.length > 2000 || hasControlCharacters(value)) return false;
@@ -20,7 +21,7 @@ export function isSafeCallbackUrl(value: string): boolean {
 
 const COOKIE = /(?:^|;\s*)(?:__Secure-)?next-auth\.callback-url=([^;]*)/;
 
-/** The 400 for a bad callbackUrl in the query, the form body or next-auth's cookie; null when all is well. */
+/** The 422 for a bad callbackUrl in the query, the form body or next-auth's cookie; null when all is well. */
 export async function refuseBadCallbackUrl(request: Request): Promise<Response | null> {
   const found: string[] = [];
   const query = new URL(request.url).searchParams.getAll("callbackUrl");
@@ -39,14 +40,9 @@ export async function refuseBadCallbackUrl(request: Request): Promise<Response |
     }
   }
   if (found.every(isSafeCallbackUrl)) return null;
-  return NextResponse.json(
-    {
-      error: {
-        code: "INVALID_INPUT",
-        message: "The address to return to after signing in is not one of Tautline's pages.",
-        fields: { callbackUrl: ["Use a page of this site, such as /home."] },
-      },
-    },
-    { status: 400 },
+  return errorResponse(
+    new AppError("INVALID_INPUT", "The address to return to after signing in is not one of Tautline's pages.", {
+      callbackUrl: ["Use a page of this site, such as /home."],
+    }),
   );
 }

@@ -1,18 +1,21 @@
 import "server-only";
+import { randomUUID } from "node:crypto";
 import { NextResponse, type NextRequest } from "next/server";
 import { z } from "zod";
 import { env } from "@/lib/env";
 import { AppError, isAppError, type FieldErrors } from "@/lib/errors";
 import { zodFields } from "@/lib/schemas/zod-fields";
 import { clientAddress } from "./client-address";
-import { isReleasedPourRefusal, RELEASED_POUR_MESSAGE } from "@/lib/server/require-open-pour";
+import { databaseRefusal } from "@/lib/server/database-refusal";
+import { isInputError } from "@/lib/units";
 
 /**
  * The one wrapper every Tautline route handler goes through.
  * - Mutating methods must come from our own origin (Origin or Sec-Fetch-Site) and, when they
  *   carry a body, as JSON: this is the CSRF defence for route handlers, which Next.js does not give.
  * - The body and the route params are parsed with zod; failures answer 422 naming each field.
- * - AppErrors answer with their status; anything else is logged and answers 500 without details.
+ * - Every failure is answered by `errorResponse`: AppErrors with their status, the units' InputError
+ *   and PostgreSQL's refusals in words; anything else is logged with a reference and answers 500.
  */
 
 type Params = Record<string, string | string[]>;
@@ -26,34 +29,43 @@ function describeFields(fields: FieldErrors): string {
     .join(" · ");
 }
 
+/**
+ * What a failure means to the caller, or null for a fault of ours: an AppError as it is, the
+ * units' and the computation's InputError as bad input naming its field, and PostgreSQL's
+ * refusal of a row in words (lib/server/database-refusal.ts).
+ */
+export function knownError(error: unknown): AppError | null {
+  if (isAppError(error)) return error;
+  if (isInputError(error)) {
+    return new AppError("INVALID_INPUT", `Check ${error.field}: ${error.reason}.`, { [error.field]: [error.reason] });
+  }
+  return databaseRefusal(error);
+}
+
+/**
+ * The one mapping from a thrown error to an HTTP answer. Anything not known answers 500 with a
+ * reference that is also in the server's log beside the whole error; the answer itself never
+ * carries the error's text, SQL, constraint names or a stack.
+ */
 export function errorResponse(error: unknown): NextResponse {
-  if (isAppError(error)) {
+  const known = knownError(error);
+  if (known) {
     return NextResponse.json(
-      { error: { code: error.code, message: error.message, ...(error.fields ? { fields: error.fields } : {}) } },
-      { status: error.status },
+      { error: { code: known.code, message: known.message, ...(known.fields ? { fields: known.fields } : {}) } },
+      { status: known.status, headers: { "Cache-Control": "no-store" } },
     );
   }
-  // Text PostgreSQL cannot store (a NUL that slipped past a schema, a byte sequence it refuses)
-  // is bad input, not a server fault, and the statement wrote nothing.
-  const pgCode = (error as { code?: unknown } | null)?.code;
-  if (pgCode === "22P05" || pgCode === "22021" || pgCode === "22001") {
-    return NextResponse.json(
-      {
-        error: {
-          code: "INVALID_INPUT",
-          message: "Some text holds characters that cannot be stored, or is too long. Nothing was saved.",
-        },
-      },
-      { status: 422 },
-    );
-  }
-  if (isReleasedPourRefusal(error)) {
-    return NextResponse.json({ error: { code: "CONFLICT", message: RELEASED_POUR_MESSAGE } }, { status: 409 });
-  }
-  console.error("unhandled error in route handler", error);
+  const reference = randomUUID().slice(0, 8);
+  console.error(`route handler failed (reference ${reference})`, error);
   return NextResponse.json(
-    { error: { code: "INTERNAL", message: "Something went wrong on the server. Nothing was saved." } },
-    { status: 500 },
+    {
+      error: {
+        code: "INTERNAL",
+        message: `Something went wrong on the server (reference ${reference}). Try again; if it happens again, give this reference to whoever runs Tautline.`,
+        reference,
+      },
+    },
+    { status: 500, headers: { "Cache-Control": "no-store" } },
   );
 }
 
@@ -79,7 +91,7 @@ async function readJson(request: Request): Promise<unknown> {
   try {
     return JSON.parse(text);
   } catch {
-    throw new AppError("INVALID_INPUT", "The request body is not valid JSON.");
+    throw new AppError("INVALID_INPUT", "The request body is not valid JSON.", { body: ["Not valid JSON."] });
   }
 }
 

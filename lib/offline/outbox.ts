@@ -154,7 +154,7 @@ export async function applyPushResults(
           state: "attention",
           status: result.status,
           error: result.error ?? {
-            code: result.status.toUpperCase(),
+            code: result.status === "conflict" ? "CONFLICT" : "INVALID_INPUT",
             message: `The server answered ${result.status}.`,
           },
           lastError: result.error?.message ?? null,

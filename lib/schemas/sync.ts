@@ -1,4 +1,5 @@
 import { z } from "zod";
+import type { OpErrorCode } from "@/lib/errors";
 
 /**
  * The sync protocol between the tablet's outbox and the server, shared by the sync client and
@@ -53,7 +54,7 @@ export const pushRequestSchema = z
 export type PushRequest = z.infer<typeof pushRequestSchema>;
 
 export interface OpError {
-  code: string;
+  code: OpErrorCode;
   message: string;
   fields?: Record<string, string[]>;
 }

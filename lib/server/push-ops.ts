@@ -6,6 +6,7 @@ import { reusableQuery } from "@/db/reusable-query";
 import type { Database } from "@/db/types";
 import { can } from "@/lib/auth/permissions";
 import type { SessionUser } from "@/lib/auth/session";
+import type { OpErrorCode } from "@/lib/errors";
 import { zodFields } from "@/lib/schemas/zod-fields";
 import { recordPayloadSchema, type RecordPayload } from "@/lib/schemas/record";
 import type { OpError, OpEvaluation, OpResult, PushResponse, SyncOp } from "@/lib/schemas/sync";
@@ -21,6 +22,7 @@ import {
 } from "./evaluate-tendon";
 import { auditInsert, recordAudit } from "./record-audit";
 import { recordTailCut } from "./record-tail-cut";
+import { databaseRefusal } from "./database-refusal";
 import { isReleasedPourRefusal, RELEASED_POUR_MESSAGE } from "./require-open-pour";
 
 /**
@@ -61,7 +63,7 @@ const CHAINS_AT_ONCE = 8;
 /** Reads again when another write of the same tendon came first; each lost round means one landed. */
 const MAX_ATTEMPTS = 20;
 
-const rejected = (op: SyncOp, code: string, message: string, fields?: Record<string, string[]>): OpResult => ({
+const rejected = (op: SyncOp, code: OpErrorCode, message: string, fields?: Record<string, string[]>): OpResult => ({
   opId: op.opId,
   status: "rejected",
   error: { code, message, ...(fields ? { fields } : {}) },
@@ -406,7 +408,7 @@ async function attemptOp(
     // of them, so reading again tells which answer is right.
     if (refusedByGuard(error) || lostConcreteFlagRace(error)) return RETRY;
     if (isReleasedPourRefusal(error)) return rejected(op, "RELEASED", RELEASED_POUR_MESSAGE, { pourId: ["Released."] });
-    const refusal = databaseRefusal(op, error);
+    const refusal = refusedRow(op, error);
     if (refusal) return refusal;
     throw error;
   }
@@ -528,13 +530,12 @@ function recordValues(recordId: string, deviceId: string, p: RecordPayload, rece
   };
 }
 
-function databaseRefusal(op: SyncOp, error: unknown): OpResult | null {
-  const code = (error as { code?: unknown })?.code;
-  // Class 22 (data exception) and 23 (integrity constraint): the row itself is refused.
-  if (typeof code === "string" && /^2[23]/.test(code)) {
-    return rejected(op, "INVALID_INPUT", `The database refused this record (${(error as Error).message}).`);
-  }
-  return null;
+/** PostgreSQL refused the row itself: the same words a route would answer, never its own text. */
+function refusedRow(op: SyncOp, error: unknown): OpResult | null {
+  const refusal = databaseRefusal(error);
+  return refusal
+    ? rejected(op, refusal.code, `The server refused this record: ${refusal.message}`, refusal.fields)
+    : null;
 }
 
 function chainKey(op: SyncOp): string {

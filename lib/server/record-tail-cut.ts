@@ -1,6 +1,7 @@
 import "server-only";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
+import type { OpErrorCode } from "@/lib/errors";
 import { can } from "@/lib/auth/permissions";
 import { zodFields } from "@/lib/schemas/zod-fields";
 import type { OpResult, SyncOp } from "@/lib/schemas/sync";
@@ -28,7 +29,7 @@ export interface TailCutter {
   memberships: { projectId: string; role: Parameters<typeof can>[0] }[];
 }
 
-const rejected = (op: SyncOp, code: string, message: string, fields?: Record<string, string[]>): OpResult => ({
+const rejected = (op: SyncOp, code: OpErrorCode, message: string, fields?: Record<string, string[]>): OpResult => ({
   opId: op.opId,
   status: "rejected",
   error: { code, message, ...(fields ? { fields } : {}) },

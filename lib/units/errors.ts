@@ -23,12 +23,15 @@ export type InputErrorCode = (typeof INPUT_ERROR_CODES)[number];
 export class InputError extends Error {
   readonly field: string;
   readonly code: InputErrorCode;
+  /** The words without the field's path in front, for a message beside the box. */
+  readonly reason: string;
 
   constructor(field: string, code: InputErrorCode, message: string) {
     super(`${field}: ${message}`);
     this.name = "InputError";
     this.field = field;
     this.code = code;
+    this.reason = message;
   }
 }
 

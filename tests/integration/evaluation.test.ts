@@ -2,7 +2,6 @@ import { sql } from "kysely";
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { seedDemo } from "@/scripts/seed/demo";
 import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
-import { lbfToN } from "@/lib/units";
 import { predictTendon } from "@/lib/stressing/basis";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
@@ -51,10 +50,15 @@ const notificationsOf = (tendonId: string) =>
     .where("flags.tendon_id", "=", tendonId)
     .execute();
 
-// ACI 318-19 Table 20.3.2.5.1 (from memory): jacking ≤ 0.80·fpu, at the anchorage after
-// transfer ≤ 0.70·fpu. ASTM A416 Grade 270, 0.5 in strand: 41,300 lbf minimum breaking strength.
-const HALF_INCH = ASTM_A416_GRADE_270.find((s) => s.designation === "0.5 in")!;
-const JACKING_TARGET_N = 0.8 * HALF_INCH.minBreakingStrengthN;
+// The jacking force of one 0.5 in strand worked by hand, outside the code under test:
+// - ASTM A416/A416M, Grade 270, 0.5 in seven-wire strand: minimum breaking strength 41,300 lbf (from memory).
+// - ACI 318-19 Table 20.3.2.5.1: jacking force at most 0.80·fpu (from memory); the demo project keeps
+//   the default jacking factor 0.80.
+// - 1 lbf = 4.4482216152605 N exactly (NIST SP 811, Appendix B.8).
+// 0.80 × 41,300 lbf = 33,040 lbf = 33.04 kip; 33,040 × 4.4482216152605 N = 146,969.24 N.
+// 41,300 × 4.4482216152605 N = 183,711.55 N.
+const BREAKING_HALF_INCH_N = 183_711.55;
+const JACKING_TARGET_N = 146_969.24;
 
 describe("the server's evaluation of a tendon", () => {
   let normalPressure: number;
@@ -62,9 +66,15 @@ describe("the server's evaluation of a tendon", () => {
     normalPressure = await pressureOnSetA(JACKING_TARGET_N);
   });
 
-  it("jacks 0.5 in strand to 0.80·fpu·A = 33.04 kips (ACI 318 limit; ASTM A416 strength)", () => {
-    expect(JACKING_TARGET_N).toBeCloseTo(lbfToN(0.8 * 41_300), 6);
-    expect(JACKING_TARGET_N / 4448.2216152605).toBeCloseTo(33.04, 2);
+  it("jacks a demo 0.5 in monostrand tendon to 0.80·fpu·A = 33.04 kip (worked by hand above)", async () => {
+    const half = ASTM_A416_GRADE_270.find((s) => s.designation === "0.5 in")!;
+    expect(half.minBreakingStrengthN).toBeCloseTo(BREAKING_HALF_INCH_N, 1);
+    const tendon = await fx.tendon("2-1-U01");
+    const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tendon.id });
+    expect(basis.tendon).toMatchObject({ strandSize: "0.5 in", strandCount: 1 });
+    const predicted = await predictedFor(tendon.id);
+    expect(predicted.jackingForceN).toBeCloseTo(JACKING_TARGET_N, 1);
+    expect(predicted.engineInput.jackingForceN).toBeCloseTo(JACKING_TARGET_N, 1);
   });
 
   it("stores an in-band verdict with every input and raises nothing", async () => {

@@ -1,6 +1,6 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { ForceProfileChart } from "@/components/tendons/force-profile-chart";
+import { ForceProfileChart } from "@/components/review/force-profile-chart";
 import { Caution } from "@/components/ui/caution";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
 import { db } from "@/db";
@@ -11,7 +11,7 @@ import { KIND_LABELS } from "@/lib/schemas/tendon";
 import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
 import { getTendonDetail, SHOP_DRAWING_MARK_PCT } from "@/lib/server/get-tendon-detail";
 import { listTendonReadings } from "@/lib/server/list-tendon-readings";
-import { formatForce, formatLength, formatPressure } from "@/lib/units";
+import { formatForce, formatLength, formatPressure, N_PER_KIP } from "@/lib/units";
 import { isUuid, pageAccess } from "../../page-access";
 
 export const metadata = { title: "Tendon" };
@@ -173,27 +173,10 @@ export default async function TendonPage({ params }: { params: Promise<{ project
               Force along the tendon
             </h2>
             <ForceProfileChart
-              xUnit={us ? "ft" : "m"}
-              forceUnit={u.force}
-              points={computed.profile.points.map((p) => ({
-                x: us ? p.xMm / 304.8 : p.xMm / 1000,
-                jacking: us ? p.jackingN / 4448.2216152605 : p.jackingN / 1000,
-                seated: us ? p.afterSeatingN / 4448.2216152605 : p.afterSeatingN / 1000,
-              }))}
-              zones={(() => {
-                const s = computed.prediction.prediction.seating;
-                const L = computed.profile.lengthMm;
-                const k = us ? 304.8 : 1000;
-                if (!s) return [];
-                const zoneAt = (end: "A" | "B", influence: number) =>
-                  end === "A"
-                    ? { from: 0, to: Math.min(L, influence) / k }
-                    : { from: Math.max(0, L - influence) / k, to: L / k };
-                return [
-                  zoneAt(s.end, s.influenceMm),
-                  ...(s.otherEnd ? [zoneAt(s.otherEnd.end, s.otherEnd.influenceMm)] : []),
-                ];
-              })()}
+              profile={computed.profile}
+              formatForce={force}
+              formatLength={long}
+              newtonsPerUnit={us ? N_PER_KIP : 1000}
             />
           </section>
         </>
