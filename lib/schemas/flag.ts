@@ -18,6 +18,7 @@ export const FLAG_LABELS: Record<FlagKind, string> = {
   seating_excess: "Seating larger than planned",
   cut_while_held: "Tails cut while held",
   group_out_of_band: "Group average out of band",
+  liftoff_out_of_band: "Lift-off force outside band",
 };
 
 export const flagLabel = (kind: string): string => FLAG_LABELS[kind as FlagKind] ?? kind.replaceAll("_", " ");
