@@ -139,32 +139,36 @@ function LiftoffChecks({
     );
   return (
     <ul className="mt-2 grid gap-2" aria-label="Lift-off checks">
-      {checks.map((l) => (
-        <li
-          key={l.id}
-          className={`rounded-md border-2 bg-white p-2 ${l.within_band ? "border-signal-band" : "border-signal-stop"}`}
-          data-testid="liftoff-check-result"
-          data-within={String(l.within_band)}
-        >
-          <p className={`font-bold ${l.within_band ? "text-signal-band" : "text-signal-stop"}`}>
-            {l.within_band ? "✓ Lift-off within band" : "⚠ Lift-off outside band"}
-          </p>
-          <p>
-            {liftoffLine(p, {
-              liftoffForceN: l.liftoff_force_n,
-              expectedForceN: l.expected_force_n,
-              deviationPct: l.deviation_pct,
-              bandPct: l.band_pct,
-              withinBand: l.within_band,
-            })}
-          </p>
-          <p className="text-label">
-            End {l.tendon_end} · gauge {l.entered.pressure}
-            {/[a-z]/i.test(l.entered.pressure) ? "" : ` ${l.entered.unit}`} ({showPressure(p, l.pressure_mpa)}) · set{" "}
-            {l.equipmentSet}, calibration of {l.calibratedOn} · {l.checkedBy}, {when(l.checked_at)}
-          </p>
-        </li>
-      ))}
+      {checks.map((l) => {
+        const typed = `${l.entered.pressure}${/[a-z]/i.test(l.entered.pressure) ? "" : ` ${l.entered.unit}`}`;
+        const shown = showPressure(p, l.pressure_mpa);
+        return (
+          <li
+            key={l.id}
+            className={`rounded-md border-2 bg-white p-2 ${l.within_band ? "border-signal-band" : "border-signal-stop"}`}
+            data-testid="liftoff-check-result"
+            data-within={String(l.within_band)}
+          >
+            <p className={`font-bold ${l.within_band ? "text-signal-band" : "text-signal-stop"}`}>
+              {l.within_band ? "✓ Lift-off within band" : "⚠ Lift-off outside band"}
+            </p>
+            <p>
+              {liftoffLine(p, {
+                liftoffForceN: l.liftoff_force_n,
+                expectedForceN: l.expected_force_n,
+                deviationPct: l.deviation_pct,
+                bandPct: l.band_pct,
+                withinBand: l.within_band,
+              })}
+            </p>
+            <p className="text-label">
+              End {l.tendon_end} · gauge {typed}
+              {shown.replaceAll(",", "") === typed.replaceAll(",", "") ? "" : ` (${shown})`} · set {l.equipmentSet},
+              calibration of {l.calibratedOn} · {l.checkedBy}, {when(l.checked_at)}
+            </p>
+          </li>
+        );
+      })}
     </ul>
   );
 }
