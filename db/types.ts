@@ -66,6 +66,8 @@ export interface ProjectsTable {
   under_force_pct: Generated<number>;
   seating_excess_mm: Generated<number>;
   clock_skew_minutes: Generated<number>;
+  /** Lift-off checks: the band on the lift-off force against the expected anchor force, ± %. */
+  liftoff_band_pct: Generated<number>;
   governing_value: Generated<"tautline" | "shop_drawing">;
   created_at: Timestamp;
   updated_at: Timestamp;
@@ -305,7 +307,8 @@ export type FlagKind =
   | "seating_excess"
   | "cut_while_held"
   | "group_out_of_band"
-  | "member_wire_loss";
+  | "member_wire_loss"
+  | "liftoff_out_of_band";
 export type FlagStatus = "open" | "with_engineer" | "closed";
 
 export interface FlagsTable {
@@ -493,6 +496,32 @@ export interface TailCutsTable {
   change_xid: Generated<string>;
 }
 
+/** A lift-off check ordered by a disposition, as the server judged it (never changed). */
+export interface LiftoffChecksTable {
+  id: string;
+  project_id: string;
+  pour_id: string;
+  tendon_id: string;
+  disposition_id: string;
+  tendon_end: TendonEnd;
+  equipment_set_id: string;
+  calibration_id: string;
+  /** The pressure exactly as typed, with the unit a bare number was read in. */
+  entered: Json<{ pressure: string; unit: "psi" | "MPa" }>;
+  pressure_mpa: number;
+  liftoff_force_n: number;
+  expected_force_n: number;
+  deviation_pct: number;
+  band_pct: number;
+  within_band: boolean;
+  raised_flag_id: string | null;
+  checked_by: string;
+  checked_at: Timestamp;
+  device_id: string;
+  received_at: Generated<Timestamp>;
+  change_xid: Generated<string>;
+}
+
 export interface Database {
   users: UsersTable;
   projects: ProjectsTable;
@@ -524,6 +553,7 @@ export interface Database {
   share_links: ShareLinksTable;
   worker_heartbeats: WorkerHeartbeatsTable;
   tail_cuts: TailCutsTable;
+  liftoff_checks: LiftoffChecksTable;
 }
 
 export type User = Selectable<UsersTable>;

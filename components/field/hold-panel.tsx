@@ -1,13 +1,23 @@
 import { flagLabel } from "@/components/ui/verdict-badge";
 import { holdsOf } from "@/lib/offline/hold-view";
-import type { FieldFlag } from "@/lib/schemas/sync";
+import type { FieldFlag, FieldTendon } from "@/lib/schemas/sync";
+import { LiftoffCheckPanel } from "./liftoff-check";
 
 /**
  * Above the verdict: why the tendon is held and what to do, in words, from the flags and the
  * engineer's decisions of the last sync. A tendon the tablet's own check finds out of band, with
  * no flag from the server yet, is held too.
  */
-export function HoldPanel({ flags, heldOnTablet }: { flags: FieldFlag[]; heldOnTablet: boolean }) {
+export function HoldPanel({
+  flags,
+  heldOnTablet,
+  tendon,
+}: {
+  flags: FieldFlag[];
+  heldOnTablet: boolean;
+  /** Given, a lift-off check the engineer ordered opens here (components/field/liftoff-check.tsx). */
+  tendon?: FieldTendon;
+}) {
   const holds = holdsOf(flags);
   if (!holds.length && !heldOnTablet) return null;
   return (
@@ -57,6 +67,7 @@ export function HoldPanel({ flags, heldOnTablet }: { flags: FieldFlag[]; heldOnT
             <p className="font-bold" data-testid="hold-what-to-do">
               What to do: {h.instruction}
             </p>
+            {tendon && h.decision?.decision === "liftoff_check" && <LiftoffCheckPanel tendon={tendon} hold={h} />}
           </li>
         ))}
       </ul>

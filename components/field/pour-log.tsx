@@ -377,7 +377,7 @@ function TendonPanel(props: {
         </p>
       </header>
 
-      <HoldPanel flags={props.flags} heldOnTablet={props.state === "flagged"} />
+      <HoldPanel flags={props.flags} heldOnTablet={props.state === "flagged"} tendon={tendon} />
 
       {records.length > 0 && (
         <>

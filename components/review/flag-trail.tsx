@@ -1,6 +1,8 @@
 import { FlagChip } from "@/components/ui/verdict-badge";
 import { formatDateTime } from "@/lib/format/dates";
+import { showPressure } from "@/lib/format/quantities";
 import { DECISION_LABELS } from "@/lib/schemas/review";
+import { liftoffLine } from "@/lib/stressing/liftoff";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
 
 const REVIEW_LABELS: Record<string, string> = {
@@ -95,6 +97,9 @@ export function FlagTrail({
                       <p className="mt-1 text-label">
                         {item.d.engineer_name} — {item.d.licence_statement}
                       </p>
+                      {item.d.decision === "liftoff_check" && (
+                        <LiftoffChecks c={c} dispositionId={item.d.id} when={when} />
+                      )}
                     </li>
                   ),
                 )}
@@ -111,5 +116,59 @@ export function FlagTrail({
         );
       })}
     </ol>
+  );
+}
+
+/** The lift-off checks a disposition ordered, as the server judged them, beside it. */
+function LiftoffChecks({
+  c,
+  dispositionId,
+  when,
+}: {
+  c: TendonCase;
+  dispositionId: string;
+  when: (d: Date | string) => string;
+}) {
+  const checks = c.liftoffChecks.filter((l) => l.disposition_id === dispositionId);
+  const p = c.basis.project;
+  if (!checks.length)
+    return (
+      <p className="mt-2 text-label" data-testid="liftoff-none">
+        No lift-off check has come in from the crew yet.
+      </p>
+    );
+  return (
+    <ul className="mt-2 grid gap-2" aria-label="Lift-off checks">
+      {checks.map((l) => {
+        const typed = `${l.entered.pressure}${/[a-z]/i.test(l.entered.pressure) ? "" : ` ${l.entered.unit}`}`;
+        const shown = showPressure(p, l.pressure_mpa);
+        return (
+          <li
+            key={l.id}
+            className={`rounded-md border-2 bg-white p-2 ${l.within_band ? "border-signal-band" : "border-signal-stop"}`}
+            data-testid="liftoff-check-result"
+            data-within={String(l.within_band)}
+          >
+            <p className={`font-bold ${l.within_band ? "text-signal-band" : "text-signal-stop"}`}>
+              {l.within_band ? "✓ Lift-off within band" : "⚠ Lift-off outside band"}
+            </p>
+            <p>
+              {liftoffLine(p, {
+                liftoffForceN: l.liftoff_force_n,
+                expectedForceN: l.expected_force_n,
+                deviationPct: l.deviation_pct,
+                bandPct: l.band_pct,
+                withinBand: l.within_band,
+              })}
+            </p>
+            <p className="text-label">
+              End {l.tendon_end} · gauge {typed}
+              {shown.replaceAll(",", "") === typed.replaceAll(",", "") ? "" : ` (${shown})`} · set {l.equipmentSet},
+              calibration of {l.calibratedOn} · {l.checkedBy}, {when(l.checked_at)}
+            </p>
+          </li>
+        );
+      })}
+    </ul>
   );
 }

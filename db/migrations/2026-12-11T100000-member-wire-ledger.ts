@@ -20,6 +20,7 @@ const KINDS = [
   "seating_excess",
   "cut_while_held",
   "group_out_of_band",
+  "liftoff_out_of_band",
 ];
 
 const check = (kinds: string[]) =>

@@ -1,5 +1,6 @@
 import Dexie, { type DexieOptions, type Table } from "dexie";
 import type { RecordPayload } from "@/lib/schemas/record";
+import type { LiftoffPayload } from "@/lib/schemas/liftoff";
 import type { TailCutPayload } from "@/lib/schemas/tail-cut";
 import type {
   FieldCalibration,
@@ -9,6 +10,8 @@ import type {
   FieldPour,
   FieldProject,
   FieldStrandLot,
+  FieldLiftoffCheck,
+  FieldLiftoffResult,
   FieldTailCut,
   FieldTendon,
   OpError,
@@ -68,8 +71,11 @@ export interface OutboxEntry {
   kind: OpKind;
   recordId: string;
   baseVersion?: number;
-  /** A record for create and revise; a tails cut for tails_cut (its recordId is the cut's id). */
-  payload: RecordPayload | TailCutPayload;
+  /**
+   * A record for create and revise; a tails cut for tails_cut (its recordId is the cut's id); a
+   * lift-off check for liftoff_check (its recordId is the check's id).
+   */
+  payload: RecordPayload | TailCutPayload | LiftoffPayload;
   authorUserId: string;
   /** "pending" waits for a push; "attention" was refused by the server and waits for a person. */
   state: "pending" | "attention";
@@ -82,6 +88,13 @@ export interface OutboxEntry {
 
 /** Tails cut on a tendon, made here or pulled; keyed by tendon, so the server's cut replaces a local one. */
 export interface LocalTailCut extends FieldTailCut {
+  syncState: "pending" | "synced" | "conflict" | "rejected";
+}
+
+/** A lift-off check made here or pulled; the server's result arrives with its answer or the pull. */
+export interface LocalLiftoffCheck
+  extends Omit<FieldLiftoffCheck, keyof FieldLiftoffResult | "pressureMPa">, Partial<FieldLiftoffResult> {
+  pressureMPa: number;
   syncState: "pending" | "synced" | "conflict" | "rejected";
 }
 
@@ -145,6 +158,7 @@ export class FieldDb extends Dexie {
   outbox!: Table<OutboxEntry, number>;
   photos!: Table<LocalPhoto, string>;
   tailCuts!: Table<LocalTailCut, string>;
+  liftoffChecks!: Table<LocalLiftoffCheck, string>;
 
   constructor(name = "tautline-field", options?: DexieOptions) {
     super(name, options);
@@ -163,6 +177,7 @@ export class FieldDb extends Dexie {
       photos: "id, recordId, state",
     });
     this.version(2).stores({ tailCuts: "tendonId, id, pourId" });
+    this.version(3).stores({ liftoffChecks: "id, tendonId, pourId" });
   }
 }
 

@@ -1,8 +1,9 @@
 import { uuidv7 } from "uuidv7";
 import type { RecordPayload } from "@/lib/schemas/record";
+import type { LiftoffPayload } from "@/lib/schemas/liftoff";
 import type { TailCutPayload } from "@/lib/schemas/tail-cut";
 import type { OpResult } from "@/lib/schemas/sync";
-import type { FieldDb, LocalPhoto, LocalRecord, LocalVerdict, OutboxEntry } from "./db";
+import type { FieldDb, LocalLiftoffCheck, LocalPhoto, LocalRecord, LocalVerdict, OutboxEntry } from "./db";
 
 /**
  * The durable outbox. A record and its operation are written in one IndexedDB transaction, so a
@@ -122,7 +123,7 @@ export async function applyPushResults(
 ): Promise<{ confirmed: number; attention: number }> {
   let confirmed = 0;
   let attention = 0;
-  await db.transaction("rw", [db.outbox, db.records, db.tailCuts], async () => {
+  await db.transaction("rw", [db.outbox, db.records, db.tailCuts, db.liftoffChecks], async () => {
     for (const result of results) {
       const entry = await db.outbox.where("opId").equals(result.opId).first();
       if (!entry || entry.state !== "pending") continue;
@@ -144,6 +145,11 @@ export async function applyPushResults(
           confirmed++;
           continue;
         }
+        if (entry.kind === "liftoff_check") {
+          await db.liftoffChecks.update(entry.recordId, { syncState: "synced", ...(result.liftoffCheck ?? {}) });
+          confirmed++;
+          continue;
+        }
         await db.records.update(entry.recordId, {
           syncState: "synced",
           ...(result.evaluation ? { server: result.evaluation } : {}),
@@ -161,6 +167,8 @@ export async function applyPushResults(
         });
         if (entry.kind === "tails_cut")
           await db.tailCuts.where("id").equals(entry.recordId).modify({ syncState: result.status });
+        else if (entry.kind === "liftoff_check")
+          await db.liftoffChecks.update(entry.recordId, { syncState: result.status });
         else await db.records.update(entry.recordId, { syncState: result.status });
         attention++;
       }
@@ -206,12 +214,13 @@ export async function outboxStatus(db: FieldDb): Promise<OutboxStatus> {
  * person has dealt with the cause, say by signing in as its author.
  */
 export async function requeue(db: FieldDb, opId: string): Promise<void> {
-  await db.transaction("rw", [db.outbox, db.records, db.tailCuts], async () => {
+  await db.transaction("rw", [db.outbox, db.records, db.tailCuts, db.liftoffChecks], async () => {
     const entry = await db.outbox.where("opId").equals(opId).first();
     if (entry?.state !== "attention") return;
     await db.outbox.update(entry.seq!, { state: "pending", status: undefined, error: undefined });
     if (entry.kind === "tails_cut")
       await db.tailCuts.where("id").equals(entry.recordId).modify({ syncState: "pending" });
+    else if (entry.kind === "liftoff_check") await db.liftoffChecks.update(entry.recordId, { syncState: "pending" });
     else await db.records.update(entry.recordId, { syncState: "pending" });
   });
 }
@@ -277,4 +286,57 @@ export async function saveTailCuts(db: FieldDb, input: TailCutInput): Promise<{ 
   if (saved !== opIds.length)
     throw new OutboxWriteError("The tablet did not keep the tails cut. Nothing was saved; try again.");
   return { opIds };
+}
+
+export interface LiftoffCheckInput {
+  payload: LiftoffPayload;
+  /** The pressure read into MPa on the tablet, for showing until the server answers. */
+  pressureMPa: number;
+  authorName: string;
+}
+
+/**
+ * Records a lift-off check with its outbox op (kind liftoff_check) in one transaction. The caller
+ * has read the pressure and checked it against the set's calibrated range; the server judges it.
+ */
+export async function saveLiftoffCheck(
+  db: FieldDb,
+  input: LiftoffCheckInput,
+): Promise<{ checkId: string; opId: string }> {
+  const { payload } = input;
+  const checkId = uuidv7();
+  const opId = crypto.randomUUID();
+  await db.transaction("rw", [db.liftoffChecks, db.outbox, db.tendons], async () => {
+    const tendon = await db.tendons.get(payload.tendonId);
+    if (!tendon || tendon.pourId !== payload.pourId)
+      throw new OutboxWriteError("The tendon is not in this pour on this tablet. Nothing was saved.");
+    const check: LocalLiftoffCheck = {
+      id: checkId,
+      projectId: payload.projectId,
+      pourId: payload.pourId,
+      tendonId: payload.tendonId,
+      dispositionId: payload.dispositionId,
+      tendonEnd: payload.tendonEnd,
+      equipmentSetId: payload.equipmentSetId,
+      pressureMPa: input.pressureMPa,
+      entered: { pressure: payload.pressure, unit: payload.pressureUnit },
+      checkedAt: payload.checkedAt,
+      checkedByName: input.authorName,
+      syncState: "pending",
+    };
+    await db.liftoffChecks.add(check);
+    await db.outbox.add({
+      opId,
+      kind: "liftoff_check",
+      recordId: checkId,
+      payload,
+      authorUserId: payload.authorUserId,
+      state: "pending",
+      createdAt: payload.checkedAt,
+      attempts: 0,
+    });
+  });
+  if (!(await db.outbox.where("opId").equals(opId).count()))
+    throw new OutboxWriteError("The tablet did not keep the lift-off check. Nothing was saved; try again.");
+  return { checkId, opId };
 }

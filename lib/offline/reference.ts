@@ -22,6 +22,7 @@ export async function applyPull(
     db.evaluations,
     db.flags,
     db.tailCuts,
+    db.liftoffChecks,
   ];
   await db.transaction("rw", tables, async () => {
     await db.projects.bulkPut(response.projects);
@@ -46,6 +47,8 @@ export async function applyPull(
     await db.flags.bulkPut(response.flags);
     // The server's cut of a tendon replaces any cut made here (keyed by tendon).
     await db.tailCuts.bulkPut((response.tailCuts ?? []).map((c) => ({ ...c, syncState: "synced" as const })));
+    // The server's lift-off checks, with its result, replace the ones made here (same id).
+    await db.liftoffChecks.bulkPut((response.liftoffChecks ?? []).map((c) => ({ ...c, syncState: "synced" as const })));
 
     for (const r of response.records) {
       const mine = await db.records.get(r.id);

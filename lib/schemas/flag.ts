@@ -19,6 +19,7 @@ export const FLAG_LABELS: Record<FlagKind, string> = {
   cut_while_held: "Tails cut while held",
   group_out_of_band: "Group average out of band",
   member_wire_loss: "Member over its wire-break limit",
+  liftoff_out_of_band: "Lift-off force outside band",
 };
 
 export const flagLabel = (kind: string): string => FLAG_LABELS[kind as FlagKind] ?? kind.replaceAll("_", " ");

@@ -129,6 +129,7 @@ export const flagFilterSchema = z.object({
       "reading_missing",
       "stressed_twice",
       "cut_while_held",
+      "liftoff_out_of_band",
     ])
     .optional(),
   olderThanHours: z.coerce

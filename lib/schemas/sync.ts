@@ -7,8 +7,11 @@ import type { OpErrorCode } from "@/lib/errors";
  * key: the server answers applied | duplicate | conflict | rejected per operation.
  */
 
-/** create and revise carry a stressing record; tails_cut records a tendon's tails cut (lib/schemas/tail-cut.ts). */
-export const OP_KINDS = ["create", "revise", "tails_cut"] as const;
+/**
+ * create and revise carry a stressing record; tails_cut records a tendon's tails cut
+ * (lib/schemas/tail-cut.ts); liftoff_check a lift-off check ordered by a disposition (lib/schemas/liftoff.ts).
+ */
+export const OP_KINDS = ["create", "revise", "tails_cut", "liftoff_check"] as const;
 export type OpKind = (typeof OP_KINDS)[number];
 
 /** "retry-later": nothing was stored for this op; the tablet keeps it and sends it again. */
@@ -26,7 +29,7 @@ export const deviceIdSchema = z
 export const syncOpSchema = z
   .object({
     opId: z.uuid({ error: "Each operation needs a UUID opId." }),
-    kind: z.enum(OP_KINDS, { error: "The kind of operation must be create, revise or tails_cut." }),
+    kind: z.enum(OP_KINDS, { error: "The kind of operation must be create, revise, tails_cut or liftoff_check." }),
     recordId: z.uuid({ error: "Each operation needs the record's UUID." }),
     baseVersion: z.number().int().min(1).optional(),
     payload: z.unknown(),
@@ -77,6 +80,8 @@ export interface OpResult {
   evaluation?: OpEvaluation;
   /** A tails cut: whether the server found the tendon held when the cut arrived, and why. */
   tailCut?: { held: boolean; reasons: string[] };
+  /** A lift-off check: the server's judgement of it. */
+  liftoffCheck?: FieldLiftoffResult;
   error?: OpError;
 }
 
@@ -243,6 +248,8 @@ export interface FieldEvaluation {
 
 /** The engineer's decision on a flag, as the crew needs it at the slab edge. */
 export interface FieldDisposition {
+  /** Absent from servers that predate lift-off checks. */
+  id?: string;
   decision: "accept" | "restress" | "detension_restress" | "liftoff_check" | "replace" | "other";
   reasons: string;
   engineerName: string;
@@ -273,6 +280,31 @@ export interface FieldTailCut {
   heldReasons: string[];
 }
 
+/** What the server found of a lift-off check (SI). */
+export interface FieldLiftoffResult {
+  liftoffForceN: number;
+  expectedForceN: number;
+  deviationPct: number;
+  bandPct: number;
+  withinBand: boolean;
+}
+
+/** A lift-off check as the server stored and judged it. */
+export interface FieldLiftoffCheck extends FieldLiftoffResult {
+  id: string;
+  projectId: string;
+  pourId: string;
+  tendonId: string;
+  dispositionId: string;
+  tendonEnd: "A" | "B";
+  equipmentSetId: string;
+  pressureMPa: number;
+  /** The pressure as typed, e.g. "5950" with unit psi. */
+  entered: { pressure: string; unit: "psi" | "MPa" };
+  checkedAt: string;
+  checkedByName: string;
+}
+
 export interface Tombstone {
   table: string;
   id: string;
@@ -292,6 +324,8 @@ export interface PullResponse {
   flags: FieldFlag[];
   /** Absent from servers that predate tails cut. */
   tailCuts?: FieldTailCut[];
+  /** Absent from servers that predate lift-off checks. */
+  liftoffChecks?: FieldLiftoffCheck[];
   removed: Tombstone[];
   /** Pours asked for that the caller may no longer take out (removed, or not on their crew). */
   unavailable: string[];

@@ -6,12 +6,14 @@ import { predictTendon, type TendonPrediction } from "@/lib/stressing/basis";
 import { clockSkew } from "@/lib/stressing/clock-skew";
 import { findFlagTrail } from "./find-flag-trail";
 import { findStandingRelease } from "./find-standing-release";
+import { listLiftoffChecks } from "./list-liftoff-checks";
 import { loadTendonBasis, type LoadedTendon } from "./load-tendon-basis";
 
 /**
  * Everything the review and decision page shows for one tendon: the basis and its sources, the
  * prediction with the force profile, every record (all revisions) with photos, the latest
- * evaluation, the flags with their review trail and dispositions, and the pour's release.
+ * evaluation, the flags with their review trail and dispositions, the lift-off checks the
+ * dispositions ordered, and the pour's release.
  */
 export async function getTendonCase(db: Kysely<Database>, input: { projectId: string; tendonId: string }) {
   const basis: LoadedTendon = await loadTendonBasis(db, input);
@@ -95,6 +97,8 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
     return { index: i + 1, lengthMm: s.lengthMm, angleRad: s.angleRad, beta, endMm: x, cumulativeAngleRad: alpha };
   });
 
+  const liftoffChecks = await listLiftoffChecks(db, input);
+
   return {
     basis,
     predicted,
@@ -106,6 +110,7 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
     flags,
     reviews,
     dispositions,
+    liftoffChecks,
     photos,
     release: release ?? null,
   };

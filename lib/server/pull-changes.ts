@@ -48,6 +48,7 @@ export async function pullChanges(
         evaluations: [],
         flags: [],
         tailCuts: [],
+        liftoffChecks: [],
         removed: [],
         unavailable: input.pourIds,
       });
@@ -64,6 +65,34 @@ export async function pullChanges(
       if (!pourIds.length) return { ...empty(), unavailable };
       const projectIds = [...new Set(found.map((p) => p.project_id))];
 
+      // Lift-off checks with the server's result (lib/server/record-liftoff-check.ts).
+      const liftoffChecksRead = trx
+        .selectFrom("liftoff_checks")
+        .innerJoin("users", "users.id", "liftoff_checks.checked_by")
+        .select([
+          "liftoff_checks.id",
+          "liftoff_checks.project_id",
+          "liftoff_checks.pour_id",
+          "liftoff_checks.tendon_id",
+          "liftoff_checks.disposition_id",
+          "liftoff_checks.tendon_end",
+          "liftoff_checks.equipment_set_id",
+          "liftoff_checks.entered",
+          "liftoff_checks.pressure_mpa",
+          "liftoff_checks.liftoff_force_n",
+          "liftoff_checks.expected_force_n",
+          "liftoff_checks.deviation_pct",
+          "liftoff_checks.band_pct",
+          "liftoff_checks.within_band",
+          "liftoff_checks.checked_at",
+          "users.name as checked_by_name",
+        ])
+        .where("liftoff_checks.project_id", "in", projectIds)
+        .where("liftoff_checks.pour_id", "in", pourIds)
+        .where(since("liftoff_checks.change_xid", cursor))
+        .execute();
+      // Awaited after the others; a failure then still reaches the caller, never as an unhandled rejection.
+      liftoffChecksRead.catch(() => undefined);
       const [projects, pours, tendons, lots, sets, calibrations, records, evaluations, flags, tailCuts, removed] =
         await Promise.all([
           trx
@@ -243,6 +272,7 @@ export async function pullChanges(
                 eb
                   .selectFrom("dispositions")
                   .select([
+                    "dispositions.id",
                     "dispositions.decision",
                     "dispositions.reasons",
                     "dispositions.engineer_name",
@@ -282,6 +312,7 @@ export async function pullChanges(
                 .where(since("change_xid", cursor))
                 .execute(),
         ]);
+      const liftoffChecks = await liftoffChecksRead;
 
       return {
         cursor: xmin,
@@ -412,6 +443,7 @@ export async function pullChanges(
           reason: f.reason,
           createdAt: new Date(f.created_at).toISOString(),
           dispositions: f.dispositions.map((d) => ({
+            id: d.id,
             decision: d.decision,
             reasons: d.reasons,
             engineerName: d.engineer_name,
@@ -426,6 +458,24 @@ export async function pullChanges(
           cutAt: new Date(c.cut_at).toISOString(),
           cutByName: c.cut_by_name,
           heldReasons: c.held_reasons,
+        })),
+        liftoffChecks: liftoffChecks.map((c) => ({
+          id: c.id,
+          projectId: c.project_id,
+          pourId: c.pour_id,
+          tendonId: c.tendon_id,
+          dispositionId: c.disposition_id,
+          tendonEnd: c.tendon_end,
+          equipmentSetId: c.equipment_set_id,
+          entered: c.entered,
+          pressureMPa: c.pressure_mpa,
+          liftoffForceN: c.liftoff_force_n,
+          expectedForceN: c.expected_force_n,
+          deviationPct: c.deviation_pct,
+          bandPct: c.band_pct,
+          withinBand: c.within_band,
+          checkedAt: new Date(c.checked_at).toISOString(),
+          checkedByName: c.checked_by_name,
         })),
         removed: removed.map((r) => ({ table: r.table_name, id: r.row_id })),
         unavailable,

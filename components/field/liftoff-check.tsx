@@ -1,0 +1,324 @@
+"use client";
+import { useId, useState } from "react";
+import { SafetyCaution } from "@/components/ui/caution";
+import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
+import { readMeta, type LocalLiftoffCheck, type SessionMeta } from "@/lib/offline/db";
+import type { Hold } from "@/lib/offline/hold-view";
+import { OutboxWriteError, saveLiftoffCheck } from "@/lib/offline/outbox";
+import { calibrationFor, calibrationLine, fieldDay } from "@/lib/offline/tendon-view";
+import { liftoffPayloadSchema, type LiftoffPayload } from "@/lib/schemas/liftoff";
+import { entryUnitsFor } from "@/lib/schemas/record";
+import type { FieldProject, FieldTendon } from "@/lib/schemas/sync";
+import { zodFields } from "@/lib/schemas/zod-fields";
+import { stressedEnds } from "@/lib/stressing/basis";
+import { liftoffLine, liftoffPressureProblem } from "@/lib/stressing/liftoff";
+import { isInputError, parsePressure } from "@/lib/units";
+import { useField } from "./field-provider";
+import { useLive } from "./use-live";
+
+/**
+ * The lift-off check an engineer ordered, opened from the hold panel: the crew records the gauge
+ * pressure at which the wedges lift off, the end and the equipment set; who and when are the
+ * person signed in and now. Saved on the tablet with its outbox op and sent with the next sync;
+ * the server converts the pressure on the calibration and judges it against the force expected
+ * at the anchor after seating. The tablet refuses what it can already tell is wrong (an
+ * unreadable pressure, one outside the set's calibrated range, a set without a calibration in
+ * force) and saves nothing then.
+ */
+
+type Field = "tendonEnd" | "equipmentSetId" | "pressure";
+
+export function LiftoffCheckPanel({ tendon, hold }: { tendon: FieldTendon; hold: Hold }) {
+  const { db, sendSaved } = useField();
+  const dispositionId = hold.decision?.id;
+  const data = useLive(async () => {
+    const [project, sets, calibrations, checks, session] = await Promise.all([
+      db.projects.get(tendon.projectId),
+      db.equipmentSets.where("projectId").equals(tendon.projectId).sortBy("name"),
+      db.calibrations.where("projectId").equals(tendon.projectId).toArray(),
+      db.liftoffChecks.where("tendonId").equals(tendon.id).sortBy("checkedAt"),
+      readMeta<SessionMeta>(db, "session"),
+    ]);
+    return { project, sets, calibrations, checks: checks.filter((c) => c.dispositionId === dispositionId), session };
+  }, [db, tendon.id, tendon.projectId, dispositionId]);
+  const [open, setOpen] = useState(false);
+
+  if (!data?.project) return null;
+  const { project, checks } = data;
+  const timeZone = projectTimeZone(project);
+
+  return (
+    <section
+      aria-label="Lift-off check"
+      className="grid gap-3 rounded-md border-2 border-ink bg-concrete-50 p-3"
+      data-testid="liftoff-check"
+    >
+      <h4 className="text-lead font-bold">Lift-off check</h4>
+      {checks.length > 0 && (
+        <ul className="grid gap-2" data-testid="liftoff-results">
+          {checks.map((c) => (
+            <LiftoffResult key={c.id} check={c} project={project} timeZone={timeZone} />
+          ))}
+        </ul>
+      )}
+      {!dispositionId ? (
+        <p className="font-semibold">
+          Sync with signal once: the engineer&apos;s order must reach this tablet in full.
+        </p>
+      ) : !data.session ? (
+        <p className="font-semibold">Sign in on this tablet to record the lift-off check.</p>
+      ) : open ? (
+        <LiftoffForm
+          tendon={tendon}
+          dispositionId={dispositionId}
+          project={project}
+          sets={data.sets}
+          calibrations={data.calibrations}
+          session={data.session}
+          onDone={(saved) => {
+            setOpen(false);
+            if (saved) sendSaved();
+          }}
+        />
+      ) : (
+        <button type="button" className="btn-primary w-full" onClick={() => setOpen(true)} data-testid="liftoff-open">
+          {checks.length ? "Record another lift-off check" : "Record the lift-off check"}
+        </button>
+      )}
+    </section>
+  );
+}
+
+function LiftoffResult(props: { check: LocalLiftoffCheck; project: FieldProject; timeZone: string }) {
+  const { check: c, project } = props;
+  const judged =
+    c.withinBand !== undefined &&
+    c.liftoffForceN !== undefined &&
+    c.expectedForceN !== undefined &&
+    c.deviationPct !== undefined &&
+    c.bandPct !== undefined;
+  const typed = `${c.entered.pressure}${/[a-z]/i.test(c.entered.pressure) ? "" : ` ${c.entered.unit}`}`;
+  return (
+    <li
+      className={`grid gap-1 rounded-md border-2 bg-white p-3 ${
+        !judged ? "border-concrete-500" : c.withinBand ? "border-signal-band" : "border-signal-stop"
+      }`}
+      data-testid="liftoff-result"
+      data-within={judged ? String(c.withinBand) : "pending"}
+    >
+      <p className="font-semibold">
+        End {c.tendonEnd} · gauge {typed} · by {c.checkedByName}, {formatDateTime(c.checkedAt, props.timeZone)}
+      </p>
+      {judged ? (
+        <p className={`flex items-start gap-2 font-bold ${c.withinBand ? "text-signal-band" : "text-signal-stop"}`}>
+          <svg viewBox="0 0 24 24" className="mt-0.5 h-6 w-6 shrink-0" aria-hidden="true">
+            <path
+              d={c.withinBand ? "M5 12l4 4 10-10" : "M12 4v10M12 18v2"}
+              fill="none"
+              stroke="currentColor"
+              strokeWidth="3"
+              strokeLinecap="round"
+            />
+          </svg>
+          <span data-testid="liftoff-verdict">
+            {c.withinBand ? "Within band" : "Outside band: the engineer is told"}.{" "}
+            {liftoffLine(project, {
+              liftoffForceN: c.liftoffForceN!,
+              expectedForceN: c.expectedForceN!,
+              deviationPct: c.deviationPct!,
+              bandPct: c.bandPct!,
+              withinBand: c.withinBand!,
+            })}
+          </span>
+        </p>
+      ) : (
+        <p data-testid="liftoff-verdict">
+          {c.syncState === "pending"
+            ? "Saved on this tablet, waiting to send. The server judges it on arrival."
+            : `Needs attention (${c.syncState}): see “Needs attention” on the field log.`}
+        </p>
+      )}
+      <p className="text-ink-soft">Do not cut tails: the engineer of record decides on this tendon next.</p>
+    </li>
+  );
+}
+
+function LiftoffForm(props: {
+  tendon: FieldTendon;
+  dispositionId: string;
+  project: FieldProject;
+  sets: { id: string; name: string; gaugeSerial: string }[];
+  calibrations: Parameters<typeof calibrationFor>[0];
+  session: SessionMeta;
+  onDone: (saved: boolean) => void;
+}) {
+  const { db } = useField();
+  const { tendon, project, sets, calibrations, session } = props;
+  const ends = stressedEnds(tendon.ends);
+  const unit = entryUnitsFor(project.unitSystem).pressure;
+  const today = fieldDay(project);
+  const [end, setEnd] = useState<"A" | "B" | "">(ends.length === 1 ? ends[0]! : "");
+  const [setId, setSetId] = useState(sets.length === 1 ? sets[0]!.id : "");
+  const [pressure, setPressure] = useState("");
+  const [errors, setErrors] = useState<Partial<Record<Field | "root", string>>>({});
+  const [busy, setBusy] = useState(false);
+  const ids = { end: useId(), set: useId(), pressure: useId() };
+
+  const submit = async (event: React.FormEvent) => {
+    event.preventDefault();
+    const found: Partial<Record<Field | "root", string>> = {};
+    if (!end) found.tendonEnd = "Choose the end the lift-off was read at.";
+    let pressureMPa: number | null = null;
+    if (!pressure.trim()) found.pressure = "Type the gauge pressure at lift-off.";
+    else {
+      try {
+        pressureMPa = parsePressure(pressure, { field: "pressure", system: "SI", defaultUnit: unit });
+      } catch (e) {
+        if (!isInputError(e)) throw e;
+        found.pressure = `“${pressure}” cannot be read as a pressure. Type a number, e.g. ${unit === "psi" ? "4200" : "29.0"}.`;
+      }
+    }
+    if (!setId) found.equipmentSetId = "Choose the equipment set used.";
+    else {
+      const { calibration, expired } = calibrationFor(calibrations, setId, today);
+      if (!calibration)
+        found.equipmentSetId = "This set has no calibration in force today: its gauge cannot give a force.";
+      else if (expired)
+        found.equipmentSetId = `This set's calibration expired on ${calibration.validUntil}: use a calibrated set.`;
+      else if (pressureMPa !== null) {
+        const problem = liftoffPressureProblem(project, calibrationLine(calibration), pressureMPa);
+        if (problem) found.pressure = problem.message;
+      }
+    }
+    const payload: LiftoffPayload = {
+      projectId: tendon.projectId,
+      pourId: tendon.pourId,
+      tendonId: tendon.id,
+      dispositionId: props.dispositionId,
+      tendonEnd: (end || "A") as "A" | "B",
+      equipmentSetId: setId,
+      pressure: pressure.trim(),
+      pressureUnit: unit,
+      checkedAt: new Date().toISOString(),
+      authorUserId: session.userId,
+    };
+    if (!Object.keys(found).length) {
+      const parsed = liftoffPayloadSchema.safeParse(payload);
+      if (!parsed.success)
+        for (const [field, messages] of Object.entries(zodFields(parsed.error)))
+          found[(["tendonEnd", "equipmentSetId", "pressure"].includes(field) ? field : "root") as Field | "root"] =
+            messages.join(" ");
+    }
+    setErrors(found);
+    if (Object.keys(found).length || pressureMPa === null) return;
+    setBusy(true);
+    try {
+      await saveLiftoffCheck(db, { payload, pressureMPa, authorName: session.name });
+      props.onDone(true);
+    } catch (e) {
+      setErrors({
+        root:
+          e instanceof OutboxWriteError
+            ? e.message
+            : "The tablet could not save the lift-off check. Nothing was saved.",
+      });
+    } finally {
+      setBusy(false);
+    }
+  };
+
+  return (
+    <form className="grid gap-4" onSubmit={(e) => void submit(e)} noValidate data-testid="liftoff-form">
+      {errors.root && (
+        <p role="alert" className="font-semibold text-signal-stop">
+          {errors.root}
+        </p>
+      )}
+      <fieldset aria-describedby={errors.tendonEnd ? `${ids.end}-error` : undefined}>
+        <legend className="field-label">End</legend>
+        <div className="mt-1 flex flex-wrap gap-2">
+          {ends.map((e) => (
+            <label key={e} className="btn-quiet has-checked:bg-ink has-checked:text-concrete-50">
+              <input
+                type="radio"
+                name="liftoff-end"
+                value={e}
+                className="sr-only"
+                checked={end === e}
+                onChange={() => setEnd(e)}
+              />
+              End {e}
+            </label>
+          ))}
+        </div>
+        <Problem id={`${ids.end}-error`} message={errors.tendonEnd} />
+      </fieldset>
+
+      <fieldset aria-describedby={errors.equipmentSetId ? `${ids.set}-error` : undefined}>
+        <legend className="field-label">Equipment set</legend>
+        <div className="mt-1 grid gap-2">
+          {sets.length === 0 && <p>No equipment sets were downloaded with this pour.</p>}
+          {sets.map((s) => (
+            <label
+              key={s.id}
+              className="flex min-h-touch cursor-pointer items-center gap-3 rounded-md border-2 border-concrete-500 px-3 has-checked:border-ink has-checked:bg-concrete-100"
+            >
+              <input
+                type="radio"
+                name="liftoff-set"
+                value={s.id}
+                className="h-6 w-6"
+                checked={setId === s.id}
+                onChange={() => setSetId(s.id)}
+              />
+              <span>
+                <strong>{s.name}</strong> · gauge {s.gaugeSerial}
+              </span>
+            </label>
+          ))}
+        </div>
+        <Problem id={`${ids.set}-error`} message={errors.equipmentSetId} />
+      </fieldset>
+
+      <div>
+        <label htmlFor={ids.pressure} className="field-label">
+          Gauge pressure at lift-off ({unit})
+        </label>
+        <input
+          id={ids.pressure}
+          className="field-input mt-1 text-lead"
+          inputMode="decimal"
+          autoComplete="off"
+          value={pressure}
+          onChange={(e) => setPressure(e.target.value)}
+          aria-invalid={Boolean(errors.pressure)}
+          aria-describedby={errors.pressure ? `${ids.pressure}-error` : undefined}
+          data-testid="liftoff-pressure"
+        />
+        <Problem id={`${ids.pressure}-error`} message={errors.pressure} />
+      </div>
+
+      <p>
+        Checked by <strong>{session.name}</strong>, now. Read the gauge the moment the wedges lift off the anchor plate.
+      </p>
+      <SafetyCaution />
+      <div className="flex flex-wrap gap-3">
+        <button type="submit" className="btn-primary grow" disabled={busy} data-testid="liftoff-save">
+          {busy ? "Saving…" : "Save lift-off check"}
+        </button>
+        <button type="button" className="btn-quiet" onClick={() => props.onDone(false)}>
+          Cancel
+        </button>
+      </div>
+    </form>
+  );
+}
+
+function Problem({ id, message }: { id: string; message: string | undefined }) {
+  if (!message) return null;
+  return (
+    <p id={id} role="alert" className="mt-1 font-semibold text-signal-stop">
+      {message}
+    </p>
+  );
+}

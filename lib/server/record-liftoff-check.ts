@@ -1,0 +1,361 @@
+import "server-only";
+import type { OpErrorCode } from "@/lib/errors";
+import type { Kysely } from "kysely";
+import type { Database } from "@/db/types";
+import { env } from "@/lib/env";
+import { can } from "@/lib/auth/permissions";
+import { dayInZone } from "@/lib/format/dates";
+import { showPressure } from "@/lib/format/quantities";
+import { flagMail } from "@/lib/mail/templates";
+import { pickCalibration } from "@/lib/schemas/calibration";
+import { liftoffPayloadSchema } from "@/lib/schemas/liftoff";
+import type { FieldLiftoffResult, OpResult, SyncOp } from "@/lib/schemas/sync";
+import { zodFields } from "@/lib/schemas/zod-fields";
+import { predictTendon } from "@/lib/stressing/basis";
+import {
+  expectedAnchorForceN,
+  judgeLiftoff,
+  liftoffEndProblem,
+  liftoffLine,
+  liftoffPressureProblem,
+} from "@/lib/stressing/liftoff";
+import { isInputError, parsePressure } from "@/lib/units";
+import { inTransaction } from "./in-transaction";
+import { selectTendonBasis, toLoadedTendon } from "./load-tendon-basis";
+import { auditInsert, recordAudit } from "./record-audit";
+
+/**
+ * Records a lift-off check from the tablet's outbox (op kind liftoff_check), exactly once: the
+ * op id is claimed in applied_ops in the same transaction as the check, so a second delivery
+ * answers "duplicate" with the stored result.
+ *
+ * The check answers a disposition of the tendon that ordered one (decision liftoff_check). The
+ * server reads the typed pressure again, converts it to force on the equipment set's calibration
+ * in force on the day of the check (in the project's time zone; `pickCalibration`, as the
+ * stressing records), and compares it with the force the engine expects at that anchorage after
+ * seating (lib/stressing/liftoff.ts) within the project's band (`liftoff_band_pct`). Outside the
+ * band it raises a flag of kind liftoff_out_of_band and e-mails the engineer like any other flag.
+ * The disposition's own flag stays with the engineer either way: the result informs their next
+ * decision, it does not make it.
+ *
+ * Bad input writes nothing and names the field: an unreadable pressure, a pressure outside the
+ * calibrated range, a dead end, a set of another project, no calibration in force, an expired one.
+ */
+
+type Db = Kysely<Database>;
+
+export interface LiftoffChecker {
+  id: string;
+  memberships: { projectId: string; role: Parameters<typeof can>[0] }[];
+}
+
+const rejected = (op: SyncOp, code: OpErrorCode, message: string, fields?: Record<string, string[]>): OpResult => ({
+  opId: op.opId,
+  status: "rejected",
+  error: { code, message, ...(fields ? { fields } : {}) },
+});
+
+const refused = (op: SyncOp, field: string, message: string): OpResult =>
+  rejected(op, "INVALID_INPUT", message, { [field]: [message] });
+
+interface StoredResult {
+  liftoffCheck?: FieldLiftoffResult;
+}
+
+export async function recordLiftoffCheck(
+  db: Db,
+  input: { user: LiftoffChecker; deviceId: string },
+  op: SyncOp,
+): Promise<OpResult> {
+  const { user, deviceId } = input;
+  const parsed = liftoffPayloadSchema.safeParse(op.payload);
+  if (!parsed.success) {
+    const fields = zodFields(parsed.error);
+    return rejected(op, "INVALID_INPUT", `Check the lift-off check: ${Object.keys(fields).join(", ")}.`, fields);
+  }
+  const p = parsed.data;
+  if (op.baseVersion !== undefined)
+    return rejected(op, "INVALID_INPUT", "A lift-off check is never a correction: send it without a base version.", {
+      baseVersion: ["Not allowed on a lift-off check."],
+    });
+  const membership = user.memberships.find((m) => m.projectId === p.projectId);
+  if (!membership || !can(membership.role, "record.create")) {
+    const result = membership
+      ? rejected(
+          op,
+          "FORBIDDEN",
+          `Your role on this project (${membership.role}) does not allow recording a lift-off check.`,
+        )
+      : rejected(op, "NOT_FOUND", "No such project among yours.");
+    await recordAudit(db, {
+      action: "liftoff.check",
+      outcome: "denied",
+      actorUserId: user.id,
+      target: op.recordId,
+      detail: { opId: op.opId, reason: result.error!.message },
+    });
+    return result;
+  }
+  if (p.authorUserId !== user.id)
+    return rejected(
+      op,
+      "FORBIDDEN",
+      "This lift-off check was recorded by another person on this tablet; it is sent when they sign in.",
+      { authorUserId: ["Not the signed-in person."] },
+    );
+  let pressureMPa: number;
+  try {
+    pressureMPa = parsePressure(p.pressure, { field: "pressure", system: "SI", defaultUnit: p.pressureUnit });
+  } catch (error) {
+    if (!isInputError(error)) throw error;
+    return refused(op, "pressure", `The lift-off gauge pressure “${p.pressure}” cannot be read as a pressure.`);
+  }
+
+  return inTransaction(db, async (trx) => {
+    const claim = await trx
+      .selectFrom("applied_ops")
+      .select(["user_id", "result"])
+      .where("op_id", "=", op.opId)
+      .executeTakeFirst();
+    if (claim) return duplicateOf(op, user, claim);
+
+    const row = await selectTendonBasis(trx, { projectId: p.projectId, tendonId: p.tendonId })
+      .select("projects.liftoff_band_pct")
+      .executeTakeFirst();
+    if (!row) return refused(op, "tendonId", "No such tendon on this project.");
+    const basis = toLoadedTendon(row);
+    if (basis.pour.id !== p.pourId) return refused(op, "pourId", "The tendon is not in that pour.");
+
+    const [disposition, set, calibrations, taken, person] = await Promise.all([
+      trx
+        .selectFrom("dispositions")
+        .select(["id", "decision", "flag_id"])
+        .where("project_id", "=", p.projectId)
+        .where("tendon_id", "=", p.tendonId)
+        .where("id", "=", p.dispositionId)
+        .executeTakeFirst(),
+      trx
+        .selectFrom("equipment_sets")
+        .select(["id", "name", "jack_grip_mm"])
+        .where("project_id", "=", p.projectId)
+        .where("id", "=", p.equipmentSetId)
+        .executeTakeFirst(),
+      trx
+        .selectFrom("calibrations")
+        .select([
+          "id",
+          "calibrated_on",
+          "valid_until",
+          "retired_at",
+          "slope_n_per_mpa",
+          "intercept_n",
+          "min_pressure_mpa",
+          "max_pressure_mpa",
+        ])
+        .where("project_id", "=", p.projectId)
+        .where("equipment_set_id", "=", p.equipmentSetId)
+        .execute(),
+      trx.selectFrom("liftoff_checks").select("id").where("id", "=", op.recordId).executeTakeFirst(),
+      trx.selectFrom("users").select("name").where("id", "=", user.id).executeTakeFirstOrThrow(),
+    ]);
+    if (!disposition || disposition.decision !== "liftoff_check")
+      return refused(op, "dispositionId", "No lift-off check was ordered on this tendon by that disposition.");
+    const endProblem = liftoffEndProblem(basis.tendon.ends, p.tendonEnd);
+    if (endProblem) return refused(op, endProblem.field, endProblem.message);
+    if (!set) return refused(op, "equipmentSetId", "No such equipment set on this project.");
+    if (taken) {
+      // A concurrent delivery of this same op committed between the first read and this one.
+      const again = await trx
+        .selectFrom("applied_ops")
+        .select(["user_id", "result"])
+        .where("op_id", "=", op.opId)
+        .executeTakeFirst();
+      if (again) return duplicateOf(op, user, again);
+      return {
+        opId: op.opId,
+        status: "conflict",
+        error: { code: "CONFLICT", message: "This lift-off check id is already used; nothing was saved." },
+      };
+    }
+
+    const day = dayInZone(p.checkedAt, basis.project.timeZone ?? "UTC");
+    const picked = pickCalibration(
+      calibrations.map((c) => ({ ...c, calibratedOn: c.calibrated_on, retiredAt: c.retired_at })),
+      day,
+    );
+    if (!picked)
+      return refused(
+        op,
+        "equipmentSetId",
+        `Set ${set.name} had no calibration in force on ${day}: the force cannot be known.`,
+      );
+    if (day > picked.valid_until)
+      return refused(
+        op,
+        "equipmentSetId",
+        `The calibration of set ${set.name} expired on ${picked.valid_until}, before this check (${day}): use a calibrated set.`,
+      );
+    const line = {
+      slope: picked.slope_n_per_mpa,
+      intercept: picked.intercept_n,
+      minPressureMPa: picked.min_pressure_mpa,
+      maxPressureMPa: picked.max_pressure_mpa,
+    };
+    const pressureProblem = liftoffPressureProblem(basis.project, line, pressureMPa);
+    if (pressureProblem) return refused(op, pressureProblem.field, pressureProblem.message);
+
+    let expectedForceN: number;
+    try {
+      const predicted = predictTendon({
+        project: basis.project,
+        tendon: basis.tendon,
+        lot: basis.lot,
+        equipmentGripMm: set.jack_grip_mm,
+      });
+      expectedForceN = expectedAnchorForceN(predicted, p.tendonEnd);
+    } catch (error) {
+      if (!isInputError(error) && !(error instanceof Error && /strand size/.test(error.message))) throw error;
+      return rejected(
+        op,
+        "CONFLICT",
+        `The expected force of ${basis.tendon.tag} cannot be computed from its schedule (${error.message}); nothing was saved. Ask the office to fix the schedule.`,
+      );
+    }
+    const judged = judgeLiftoff({ pressureMPa, calibration: line, expectedForceN, bandPct: row.liftoff_band_pct });
+    const result: FieldLiftoffResult = {
+      liftoffForceN: judged.liftoffForceN,
+      expectedForceN: judged.expectedForceN,
+      deviationPct: judged.deviationPct,
+      bandPct: judged.bandPct,
+      withinBand: judged.withinBand,
+    };
+    const stored: StoredResult = { liftoffCheck: result };
+
+    const claimed = await trx
+      .insertInto("applied_ops")
+      .values({
+        op_id: op.opId,
+        project_id: p.projectId,
+        device_id: deviceId,
+        user_id: user.id,
+        kind: op.kind,
+        record_id: op.recordId,
+        status: "applied",
+        result: JSON.stringify(stored),
+      })
+      .onConflict((oc) => oc.column("op_id").doNothing())
+      .returning("op_id")
+      .executeTakeFirst();
+    if (!claimed) {
+      // A concurrent delivery of the same op committed first.
+      const again = await trx
+        .selectFrom("applied_ops")
+        .select(["user_id", "result"])
+        .where("op_id", "=", op.opId)
+        .executeTakeFirstOrThrow();
+      return duplicateOf(op, user, again);
+    }
+
+    const line_ = liftoffLine(basis.project, judged);
+    const readAs = `${p.pressure}${/[a-z]/i.test(p.pressure) ? "" : ` ${p.pressureUnit}`}`;
+    let raisedFlagId: string | null = null;
+    if (!judged.withinBand) {
+      const reason =
+        `Lift-off check at end ${p.tendonEnd} of ${basis.tendon.tag} by ${person.name}: gauge ${readAs} ` +
+        `(${showPressure(basis.project, pressureMPa)}) on set ${set.name}, calibration of ${picked.calibrated_on}. ${line_}`;
+      const flag = await trx
+        .insertInto("flags")
+        .values({
+          project_id: p.projectId,
+          pour_id: p.pourId,
+          tendon_id: p.tendonId,
+          record_id: null,
+          evaluation_id: null,
+          kind: "liftoff_out_of_band",
+          reason,
+          created_at: new Date(),
+        })
+        .returning("id")
+        .executeTakeFirstOrThrow();
+      raisedFlagId = flag.id;
+      const recipients = [
+        ...new Set(
+          [basis.project.engineerOfRecordEmail, ...basis.project.notifyEmails].filter((e): e is string => Boolean(e)),
+        ),
+      ];
+      if (recipients.length) {
+        const mail = flagMail({
+          to: recipients,
+          projectName: basis.project.name,
+          pourName: basis.pour.name,
+          tendonTag: basis.tendon.tag,
+          flags: [{ id: flag.id, kind: "liftoff_out_of_band", reason }],
+          verdictLine: `lift-off ${judged.deviationPct >= 0 ? "+" : "−"}${Math.abs(judged.deviationPct).toFixed(1)} % from the expected anchor force`,
+          basisLine:
+            `expected force at end ${p.tendonEnd} after seating from Tautline's force profile ` +
+            `(μ ${basis.project.frictionMu}, K ${basis.project.wobblePerM.toFixed(4)} per m), ±${judged.bandPct} % lift-off band.`,
+          url: `${env.APP_URL}/projects/${p.projectId}/tendons/${p.tendonId}/flags`,
+        });
+        await trx
+          .insertInto("notifications")
+          .values({
+            project_id: p.projectId,
+            flag_id: flag.id,
+            dedupe_key: `liftoff:${op.recordId}`,
+            to_emails: recipients,
+            subject: mail.subject,
+            text_body: mail.text,
+            html_body: mail.html,
+          })
+          .onConflict((oc) => oc.column("dedupe_key").doNothing())
+          .execute();
+      }
+    }
+
+    await trx
+      .insertInto("liftoff_checks")
+      .values({
+        id: op.recordId,
+        project_id: p.projectId,
+        pour_id: p.pourId,
+        tendon_id: p.tendonId,
+        disposition_id: disposition.id,
+        tendon_end: p.tendonEnd,
+        equipment_set_id: set.id,
+        calibration_id: picked.id,
+        entered: JSON.stringify({ pressure: p.pressure, unit: p.pressureUnit }),
+        pressure_mpa: pressureMPa,
+        liftoff_force_n: judged.liftoffForceN,
+        expected_force_n: judged.expectedForceN,
+        deviation_pct: judged.deviationPct,
+        band_pct: judged.bandPct,
+        within_band: judged.withinBand,
+        raised_flag_id: raisedFlagId,
+        checked_by: user.id,
+        checked_at: p.checkedAt,
+        device_id: deviceId,
+      })
+      .execute();
+    await auditInsert(trx, {
+      action: "liftoff.check",
+      outcome: "success",
+      actorUserId: user.id,
+      projectId: p.projectId,
+      target: p.tendonId,
+      detail: {
+        opId: op.opId,
+        liftoffCheckId: op.recordId,
+        dispositionId: disposition.id,
+        withinBand: judged.withinBand,
+        deviceId,
+      },
+    }).execute();
+    return { opId: op.opId, status: "applied", ...stored };
+  });
+}
+
+function duplicateOf(op: SyncOp, user: LiftoffChecker, claim: { user_id: string; result: unknown }): OpResult {
+  if (claim.user_id !== user.id) return rejected(op, "CONFLICT", "This operation id was already used by someone else.");
+  const result = claim.result as StoredResult;
+  return { opId: op.opId, status: "duplicate", ...(result.liftoffCheck ? { liftoffCheck: result.liftoffCheck } : {}) };
+}
