@@ -6,6 +6,8 @@ import { equipmentSetSchema } from "@/lib/schemas/equipment";
 import { addCalibration } from "@/lib/server/add-calibration";
 import { createEquipmentSet } from "@/lib/server/create-equipment-set";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
+import { getPourReport } from "@/lib/server/get-pour-report";
+import { RECORD_COLUMNS, recordRows } from "@/lib/reports/pour-rows";
 import { listEquipmentSets } from "@/lib/server/list-equipment-sets";
 import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { judgeStressing } from "@/lib/stressing/judge";
@@ -225,6 +227,12 @@ describe("an equipment set's draw-in per re-grip", () => {
       drawInUsedMm: DRAW_IN_MM,
     });
     expect(reading.drawInDeductedMm as number).toBeCloseTo(2 * DRAW_IN_MM, 12);
+    // The report's row shows each stroke and the draw-in taken off, and whose it was (a US project).
+    const report = await getPourReport(t.db, { projectId: fx.projectId, pourId: tendon.pour_id });
+    const row = recordRows(report).find((r) => r[0] === "DI-1")!;
+    expect(row[RECORD_COLUMNS.indexOf("Readings as entered")]).toMatch(
+      /^stroke 1: .*, stroke 2: .*, stroke 3: .*; less 0\.50 in draw-in \(0\.25 in per re-grip, the equipment set's\)$/,
+    );
   });
 
   it("a draw-in typed on the record wins; a set without one deducts nothing", async () => {
