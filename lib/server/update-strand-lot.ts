@@ -1,4 +1,5 @@
 import "server-only";
+import { sql } from "kysely";
 import type { Db } from "@/db/connect";
 import { AppError } from "@/lib/errors";
 import type { StrandLotInput } from "@/lib/schemas/strand-lot";
@@ -81,6 +82,23 @@ export async function updateStrandLot(
     const moved = (Object.keys(JUDGING_FIELDS) as (keyof typeof JUDGING_FIELDS)[]).filter(
       (k) => before[k] !== after[k],
     );
+    // Raising the version of every tendon of the lot holds them until this transaction ends, so a
+    // record pushed meanwhile (read on the old values) is refused by its guard and judged again.
+    if (moved.length)
+      await trx
+        .insertInto("tendon_versions")
+        .columns(["tendon_id", "version"])
+        .expression((eb) =>
+          eb
+            .selectFrom("tendons")
+            .select(["tendons.id", sql<number>`1`.as("version")])
+            .where("tendons.project_id", "=", input.projectId)
+            .where("tendons.strand_lot_id", "=", input.strandLotId),
+        )
+        .onConflict((oc) =>
+          oc.column("tendon_id").doUpdateSet((eb) => ({ version: eb("tendon_versions.version", "+", 1) })),
+        )
+        .execute();
     const stressed = moved.length
       ? await trx
           .selectFrom("records")

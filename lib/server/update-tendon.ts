@@ -4,6 +4,7 @@ import { AppError } from "@/lib/errors";
 import type { TendonInput } from "@/lib/schemas/tendon";
 import { inTransaction } from "./in-transaction";
 import { recordAudit } from "./record-audit";
+import { raiseTendonVersion } from "./evaluate-tendon";
 import { reevaluateTendons } from "./reevaluate-project";
 import { requireOpenPour } from "./require-open-pour";
 
@@ -97,6 +98,9 @@ export async function updateTendon(
       ["strand lot", before.strand_lot_id, v.strandLotId],
     ];
     const moved = judging.filter(([, a, b]) => a !== b).map(([name]) => name);
+    // Raising the version holds the tendon until this transaction ends, so a record of it pushed
+    // meanwhile (read on the old schedule) is refused by its guard and judged again on the new one.
+    if (moved.length) await raiseTendonVersion(trx, { projectId: input.projectId, tendonId: input.tendonId });
     const stressed = await trx
       .selectFrom("records")
       .select("id")
