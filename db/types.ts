@@ -209,6 +209,8 @@ export interface EquipmentSetsTable {
   pump_serial: string | null;
   jack_grip_mm: number | null;
   max_force_n: number | null;
+  /** Wedge draw-in lost at each re-grip between strokes; a ram-travel record without its own uses it. */
+  draw_in_mm: number | null;
   created_at: Timestamp;
 }
 

@@ -44,6 +44,7 @@ function setFields(us: boolean) {
     pumpSerial: z.string(),
     jackGripMm: units.length(system, us ? "in" : "mm", false),
     maxForceN: units.force(system, us ? "kip" : "kN", false),
+    drawInMm: units.length(system, us ? "in" : "mm", false),
   };
 }
 
@@ -56,7 +57,15 @@ export function EquipmentSetForm({ projectId, us }: { projectId: string; us: boo
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
   const form = useForm<{ [K in keyof ReturnType<typeof setFields>]: string }, unknown, EquipmentSetInput>({
     resolver: setResolver(us),
-    defaultValues: { name: "", jackSerial: "", gaugeSerial: "", pumpSerial: "", jackGripMm: "", maxForceN: "" },
+    defaultValues: {
+      name: "",
+      jackSerial: "",
+      gaugeSerial: "",
+      pumpSerial: "",
+      jackGripMm: "",
+      maxForceN: "",
+      drawInMm: "",
+    },
   });
   const e = form.formState.errors as Errors;
   const onSubmit = form.handleSubmit(async (values) => {
@@ -97,6 +106,14 @@ export function EquipmentSetForm({ projectId, us }: { projectId: string; us: boo
           inputMode="decimal"
           error={e.maxForceN?.message}
           {...form.register("maxForceN")}
+        />
+        <Text
+          id="e-draw-in"
+          label={`Draw-in per re-grip, ${us ? "in" : "mm"} (optional)`}
+          inputMode="decimal"
+          hint="What the wedges give back each time the jack re-grips between strokes, from the jack maker or a trial pull. Ram-travel records that type none use it."
+          error={e.drawInMm?.message}
+          {...form.register("drawInMm")}
         />
       </div>
       <button className="btn-primary" type="submit">

@@ -1,6 +1,7 @@
 "use client";
 
 import { RefreshError, useRouteData } from "@/components/setup/use-route-data";
+import { showComputedLength } from "@/lib/format/quantities";
 import { CALIBRATION_STATE_LABELS } from "@/lib/schemas/calibration";
 import type { EquipmentSetView } from "@/lib/server/list-equipment-sets";
 import { CalibrationChart } from "./calibration-chart";
@@ -56,6 +57,11 @@ export function EquipmentList({
               <p>
                 Jack {s.jackSerial} · gauge {s.gaugeSerial}
                 {s.pumpSerial ? ` · pump ${s.pumpSerial}` : ""}
+              </p>
+              <p className="mt-1" data-testid="set-draw-in">
+                {s.drawInMm !== null
+                  ? `Draw-in per re-grip: ${showComputedLength({ unitSystem: us ? "us" : "si" }, s.drawInMm)}, used for ram travel typed without its own`
+                  : "No draw-in per re-grip: ram travel over several strokes deducts only what the crew types"}
               </p>
               <p
                 className={`mt-2 font-semibold ${s.state === "valid" ? "" : s.state === "expiring" ? "text-signal-long" : "text-signal-stop"}`}

@@ -476,7 +476,7 @@ export function RecordForm({
               unit={entryUnits.length}
               reg={register("drawIn")}
               error={err.drawIn?.message}
-              hint="Taken off the sum once per re-grip; leave empty if none."
+              hint="Taken off the sum once per re-grip. Left empty, the equipment set's draw-in is used if it has one; type 0 for none."
             />
           )}
           <p className="text-label text-ink-faint">

@@ -108,6 +108,7 @@ export function judgeInputFor(ctx: TendonContext & { sets?: FieldEquipmentSet[] 
       name: s?.name ?? "Equipment set",
       jackGripMm: s?.jackGripMm ?? null,
       maxForceN: s?.maxForceN ?? null,
+      drawInMm: s?.drawInMm ?? null,
       calibrations: ctx.calibrations
         .filter((c) => c.equipmentSetId === id)
         .map((c) => ({

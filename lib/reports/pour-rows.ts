@@ -73,12 +73,16 @@ function stressingLabel(r: PourRecord): string {
   return `${r.stressing} ${kind}${revised}`;
 }
 
-function readingsText(r: PourRecord): string {
+function readingsText(p: PourReport["project"], r: PourRecord): string {
   const parts: string[] = [];
   if (r.method === "marks" && r.entered.marks)
     parts.push(`marks ${r.entered.marks.before} before, ${r.entered.marks.after} after`);
   if (r.method === "strokes" && r.entered.strokes?.length)
     parts.push(r.entered.strokes.map((s, i) => `stroke ${i + 1}: ${s}`).join(", "));
+  if (r.method === "strokes" && r.drawIn && r.drawIn.deductedMm > 0)
+    parts.push(
+      `less ${showComputedLength(p, r.drawIn.deductedMm)} draw-in (${showComputedLength(p, r.drawIn.usedMm)} per re-grip, ${r.drawIn.source === "record" ? "as typed" : "the equipment set's"})`,
+    );
   if (!parts.length) parts.push(`${r.method === "marks" ? "marks" : "strokes"} (typed values not kept)`);
   return parts.join("; ");
 }
@@ -134,7 +138,7 @@ export function recordRows(report: PourReport): string[][] {
         "Final pressure": showPressure(p, r.finalPressureMPa),
         "Target pressure": r.targetPressureMPa !== null ? showPressure(p, r.targetPressureMPa) : "no calibration",
         Force: r.forceN !== null ? showForce(p, r.forceN) : "no calibration",
-        "Readings as entered": readingsText(r),
+        "Readings as entered": readingsText(p, r),
         Seating: r.entered.seating ?? (r.seatingMm !== null ? showLength(p, r.seatingMm) : "not read"),
         Measured: showLength(p, r.measuredMm),
         "Predicted (Tautline)": e?.predictedMm != null ? showComputedLength(p, e.predictedMm) : "",

@@ -16,6 +16,14 @@ export const equipmentSetSchema = z.object({
     .positive("The rated force must be above 0.")
     .max(20_000_000, "That force looks wrong.")
     .nullable(),
+  /** Wedge draw-in lost at each re-grip between strokes: the default of ram-travel records that type none. */
+  drawInMm: z
+    .number({ error: "Give the draw-in per re-grip." })
+    .finite()
+    .nonnegative("Draw-in cannot be negative.")
+    .max(49, "Draw-in over 49 mm per re-grip is not a reading.")
+    .nullable()
+    .default(null),
 });
 export type EquipmentSetInput = z.infer<typeof equipmentSetSchema>;
 

@@ -20,3 +20,8 @@ export const strandLotSchema = z.object({
   certificateAttachmentId: z.uuid({ error: "Upload the mill certificate again." }).nullable(),
 });
 export type StrandLotInput = z.infer<typeof strandLotSchema>;
+
+export const strandLotParamsSchema = z.object({
+  projectId: z.uuid({ error: "Not a project id." }),
+  strandLotId: z.uuid({ error: "Not a strand lot id." }),
+});

@@ -191,6 +191,8 @@ export interface FieldEquipmentSet {
   gaugeSerial: string;
   jackGripMm: number | null;
   maxForceN?: number | null;
+  /** Draw-in per re-grip for ram-travel records that type none (absent in pulls before it existed). */
+  drawInMm?: number | null;
 }
 
 export interface FieldCalibration {

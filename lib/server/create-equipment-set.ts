@@ -5,7 +5,7 @@ import type { EquipmentSetInput } from "@/lib/schemas/equipment";
 
 export async function createEquipmentSet(
   db: Db,
-  input: { projectId: string; values: EquipmentSetInput },
+  input: { projectId: string; values: Omit<EquipmentSetInput, "drawInMm"> & { drawInMm?: number | null } },
 ): Promise<{ setId: string }> {
   const v = input.values;
   const clash = await db
@@ -26,6 +26,7 @@ export async function createEquipmentSet(
       pump_serial: v.pumpSerial,
       jack_grip_mm: v.jackGripMm,
       max_force_n: v.maxForceN,
+      draw_in_mm: v.drawInMm ?? null,
     })
     .returning("id")
     .executeTakeFirstOrThrow();

@@ -172,6 +172,7 @@ export function selectTendonState(
           "equipment_sets.name",
           "equipment_sets.jack_grip_mm",
           "equipment_sets.max_force_n",
+          "equipment_sets.draw_in_mm",
           "calibrations.id",
           "calibrations.calibrated_on",
           "calibrations.valid_until",
@@ -350,6 +351,7 @@ export function judgeInputFromState(state: TendonState): JudgeInput {
       name: row.name,
       jackGripMm: row.jack_grip_mm,
       maxForceN: row.max_force_n,
+      drawInMm: row.draw_in_mm,
       calibrations: [],
     };
     if (row.id !== null && row.calibrated_on && row.valid_until)
@@ -475,6 +477,8 @@ export function planEvaluation(
     measuredMm: e.record.measuredMm,
     strokeCount: e.record.strokeCount,
     drawInMm: e.record.drawInMm,
+    drawInUsedMm: e.drawInUsedMm,
+    drawInSource: e.drawInSource,
     drawInDeductedMm: e.drawInDeductedMm,
     seatingMm: e.record.seatingMm,
     initialPressureMPa: e.record.initialPressureMPa,

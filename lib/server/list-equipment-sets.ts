@@ -28,6 +28,8 @@ export interface EquipmentSetView {
   pumpSerial: string | null;
   jackGripMm: number | null;
   maxForceN: number | null;
+  /** Draw-in per re-grip, the default of ram-travel records that type none. */
+  drawInMm: number | null;
   /** The calibration in force today (`pickCalibration`: the newest not retired), the one records use. */
   current: CalibrationView | null;
   state: CalibrationState;
@@ -43,7 +45,7 @@ export async function listEquipmentSets(db: Db, projectId: string, today = today
   const [sets, calibrations] = await Promise.all([
     db
       .selectFrom("equipment_sets")
-      .select(["id", "name", "jack_serial", "gauge_serial", "pump_serial", "jack_grip_mm", "max_force_n"])
+      .select(["id", "name", "jack_serial", "gauge_serial", "pump_serial", "jack_grip_mm", "max_force_n", "draw_in_mm"])
       .where("project_id", "=", projectId)
       .orderBy("name")
       .execute(),
@@ -97,6 +99,7 @@ export async function listEquipmentSets(db: Db, projectId: string, today = today
       pumpSerial: s.pump_serial,
       jackGripMm: s.jack_grip_mm,
       maxForceN: s.max_force_n,
+      drawInMm: s.draw_in_mm,
       current,
       state: calibrationState(current?.validUntil ?? null, today),
       history,

@@ -51,6 +51,8 @@ export interface PourRecord {
   };
   measuredMm: number;
   seatingMm: number | null;
+  /** Ram travel over several strokes: the draw-in per re-grip the evaluation deducted, and whose it was. */
+  drawIn: { usedMm: number; source: "record" | "equipment set"; deductedMm: number } | null;
   wireBreaks: number;
   remarks: string | null;
   photos: number[];
@@ -90,6 +92,18 @@ const inputsSchema = z.object({
   governs: z.enum(["tautline", "shop drawing", "shop"]).optional().catch(undefined),
   calibrations: z
     .array(z.object({ recordId: z.string(), slope_n_per_mpa: z.number(), intercept_n: z.number() }).passthrough())
+    .catch([]),
+  readings: z
+    .array(
+      z
+        .object({
+          recordId: z.string(),
+          drawInSource: z.enum(["record", "equipment set", "none"]).optional(),
+          drawInUsedMm: z.number().nullable().optional(),
+          drawInDeductedMm: z.number().optional(),
+        })
+        .passthrough(),
+    )
     .catch([]),
 });
 
@@ -243,6 +257,13 @@ export async function listPourRecords(
     const used = inputs?.success ? inputs.data : null;
     const line = used?.calibrations.find((c) => c.recordId === r.id);
     const calibrationLine = line ? { slope: line.slope_n_per_mpa, intercept: line.intercept_n } : null;
+    const reading = used?.readings.find((x) => x.recordId === r.id);
+    const drawIn =
+      reading &&
+      (reading.drawInSource === "record" || reading.drawInSource === "equipment set") &&
+      typeof reading.drawInUsedMm === "number"
+        ? { usedMm: reading.drawInUsedMm, source: reading.drawInSource, deductedMm: reading.drawInDeductedMm ?? 0 }
+        : null;
     const entered = enteredSchema.safeParse(r.entered);
     return {
       recordId: r.id,
@@ -276,6 +297,7 @@ export async function listPourRecords(
       entered: entered.success ? entered.data : noEntered,
       measuredMm: r.measured_mm,
       seatingMm: r.seating_mm,
+      drawIn,
       wireBreaks: r.wire_breaks,
       remarks: r.remarks,
       photos: photoNumbers.get(r.id) ?? [],

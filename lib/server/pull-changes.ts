@@ -183,7 +183,16 @@ export async function pullChanges(
             .execute(),
           trx
             .selectFrom("equipment_sets")
-            .select(["id", "project_id", "name", "jack_serial", "gauge_serial", "jack_grip_mm", "max_force_n"])
+            .select([
+              "id",
+              "project_id",
+              "name",
+              "jack_serial",
+              "gauge_serial",
+              "jack_grip_mm",
+              "max_force_n",
+              "draw_in_mm",
+            ])
             .where("project_id", "in", projectIds)
             .where(since("change_xid", cursor))
             .orderBy("name")
@@ -387,6 +396,7 @@ export async function pullChanges(
           gaugeSerial: s.gauge_serial,
           jackGripMm: s.jack_grip_mm,
           maxForceN: s.max_force_n,
+          drawInMm: s.draw_in_mm,
         })),
         calibrations: calibrations.map((c) => ({
           id: c.id,

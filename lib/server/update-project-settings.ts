@@ -20,6 +20,8 @@ const JUDGING_COLUMNS = [
   "governing_value",
   "group_tolerance_pct",
   "wire_loss_limit_pct",
+  // The basis the schedule's shop-drawing elongation is stated on (when the shop drawing governs).
+  "comparison_basis",
 ] as const;
 
 export async function updateProjectSettings(
@@ -69,23 +71,31 @@ export async function updateProjectSettings(
       .where("id", "=", input.projectId)
       .executeTakeFirst();
     if (!updated.numUpdatedRows) throw new AppError("NOT_FOUND", "No such project.");
-    await recordAudit(trx, {
-      action: "project.configure",
-      outcome: "success",
-      actorUserId: input.by,
-      projectId: input.projectId,
-      detail: { tolerancePct: v.tolerancePct, basis: v.comparisonBasis },
-    });
     const after = await trx
       .selectFrom("projects")
       .select(JUDGING_COLUMNS)
       .where("id", "=", input.projectId)
       .executeTakeFirstOrThrow();
     const moved = JUDGING_COLUMNS.filter((c) => before[c] !== after[c]);
-    if (!moved.length) return { reevaluated: 0, changed: 0, closedFlags: 0 };
-    return reevaluateTendons(trx, {
+    const reason = `project settings changed: ${moved.map((c) => c.replaceAll("_", " ")).join(", ")}`;
+    const result = moved.length
+      ? await reevaluateTendons(trx, { projectId: input.projectId, reason })
+      : { reevaluated: 0, changed: 0, closedFlags: 0 };
+    // Audited with its cause: what moved and how many stressed tendons it judged again.
+    await recordAudit(trx, {
+      action: "project.configure",
+      outcome: "success",
+      actorUserId: input.by,
       projectId: input.projectId,
-      reason: `project settings changed: ${moved.map((c) => c.replaceAll("_", " ")).join(", ")}`,
+      detail: {
+        tolerancePct: v.tolerancePct,
+        basis: v.comparisonBasis,
+        judgingChanged: moved,
+        reevaluated: result.reevaluated,
+        verdictsChanged: result.changed,
+        flagsClosed: result.closedFlags,
+      },
     });
+    return result;
   });
 }

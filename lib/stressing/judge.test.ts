@@ -133,6 +133,69 @@ describe("judgeStressing: each end the way it was read", () => {
     expect(raw.comparison!.absoluteDeviationMm).toBeCloseTo(12, 9);
   });
 
+  describe("the equipment set's draw-in per re-grip", () => {
+    // Worked by hand for this 40 ft straight tendon pulled from one end (values above):
+    //   fpu·A = 41,300 lbf × 4.44822 N/lbf = 183,711.6 N; Pj = 0.80 × 183,711.6 = 146,969.2 N
+    //   A·E = 98.71 mm² × 196,500.6 MPa = 19,396,573 N
+    //   K·L = 0.0033 /m × 12.192 m = 0.0402336; 1 − e^(−0.0402336) = 0.0394350
+    //   gross = Pj·(1 − e^(−KL))/(K·A·E) = 146,969.2 × 0.0394350 / (3.3e-6 /mm × 19,396,573 N) = 90.546 mm
+    //   grip  = Pj × 18 in (457.2 mm) / A·E = 146,969.2 × 457.2 / 19,396,573 = 3.464 mm
+    //   ram travel is compared with gross + grip = 94.010 mm
+    // Three strokes of 1 1/2 + 1 1/2 + 1.2 in = 4.2 in = 106.68 mm typed with no draw-in; the set's
+    // 1/4 in (6.35 mm, our test value) at each of the 2 re-grips: 106.68 − 2 × 6.35 = 93.98 mm,
+    // (93.98 − 94.010)/94.010 = −0.032 %: in band. Without the deduction it reads +13.5 %: long.
+    const SET_DRAW_IN = 0.25 * IN;
+    const STROKES_MM = 4.2 * IN;
+    const withSetDrawIn = (over: Partial<JudgeRecord>) =>
+      input({
+        sets: [
+          {
+            id: "set-1",
+            name: "Jack 1",
+            jackGripMm: GRIP_MM,
+            maxForceN: null,
+            drawInMm: SET_DRAW_IN,
+            calibrations: [CAL],
+          },
+        ],
+        records: [record({ readingMethod: "strokes", measuredMm: STROKES_MM, strokeCount: 3, ...over })],
+      });
+
+    it("a ram-travel record that types no draw-in uses the set's, and says so", () => {
+      const j = judgeStressing(withSetDrawIn({ drawInMm: null }));
+      const end = j.ends[0]!;
+      expect(end.predictedMm).toBeCloseTo(94.01, 2);
+      expect(end.drawInSource).toBe("equipment set");
+      expect(end.drawInUsedMm).toBe(6.35);
+      expect(end.drawInDeductedMm).toBeCloseTo(12.7, 12);
+      expect(end.totalMm).toBeCloseTo(93.98, 9);
+      expect(j.comparison!.deviationPct).toBeCloseTo(-0.032, 2); // to the hand values' 0.005 mm
+      expect(j.verdict).toBe("in band");
+      // The same strokes with no draw-in anywhere: +13.5 % (106.68 / 94.010 − 1), long.
+      const none = judgeStressing(
+        input({ records: [record({ readingMethod: "strokes", measuredMm: STROKES_MM, strokeCount: 3 })] }),
+      );
+      expect(none.ends[0]!.drawInSource).toBe("none");
+      expect(none.comparison!.deviationPct).toBeCloseTo(13.48, 2);
+      expect(none.verdict).toBe("long");
+    });
+
+    it("a draw-in typed on the record wins over the set's, 0 included", () => {
+      const typed = judgeStressing(withSetDrawIn({ drawInMm: 5 }));
+      expect(typed.ends[0]!).toMatchObject({ drawInSource: "record", drawInUsedMm: 5 });
+      expect(typed.ends[0]!.drawInDeductedMm).toBeCloseTo(10, 12); // 2 re-grips × 5 mm
+      const zero = judgeStressing(withSetDrawIn({ drawInMm: 0 }));
+      expect(zero.ends[0]!).toMatchObject({ drawInSource: "record", drawInUsedMm: 0, drawInDeductedMm: 0 });
+    });
+
+    it("one stroke or marks deduct nothing from the set's value", () => {
+      const one = judgeStressing(withSetDrawIn({ strokeCount: 1, measuredMm: 94.01 }));
+      expect(one.ends[0]!.drawInDeductedMm).toBe(0);
+      const marks = judgeStressing(withSetDrawIn({ readingMethod: "marks", strokeCount: 1, measuredMm: 84.5 }));
+      expect(marks.ends[0]!).toMatchObject({ drawInSource: "none", drawInUsedMm: null, drawInDeductedMm: 0 });
+    });
+  });
+
   describe("initial 20 % on both bases", () => {
     const Pi = 0.2 * TARGET_MPA;
     it("net: (m + set)·Pj/(Pj − Pi) − set", () => {

@@ -79,6 +79,8 @@ export interface JudgeSet {
   name: string;
   jackGripMm: number | null;
   maxForceN: number | null;
+  /** Draw-in the jack loses at each re-grip: used when a ram-travel record types none. */
+  drawInMm?: number | null;
   calibrations: JudgeCalibration[];
 }
 
@@ -155,6 +157,10 @@ export interface EndJudgement {
   /** Gauge pressures outside the calibrated range. */
   outsideRangeMPa: number[];
   gaugeForceN: number | null;
+  /** The draw-in per re-grip used (ram travel only): the record's own, else the equipment set's. */
+  drawInUsedMm: number | null;
+  /** Where it came from: typed on the record, the equipment set's default, or none. */
+  drawInSource: "record" | "equipment set" | "none";
   /** Draw-in deducted from the strokes: draw-in × (strokes − 1). */
   drawInDeductedMm: number;
   /** The reading brought to the full force on its basis; null when it cannot be (see `incomplete`). */
@@ -405,7 +411,19 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
     const predictedMm = predictedGrossMm + gripMm - setMm;
 
     const regrips = method === "strokes" ? Math.max(0, record.strokeCount - 1) : 0;
-    const drawInDeductedMm = regrips * (record.drawInMm ?? 0);
+    // Ram travel: the draw-in typed on the record, else the equipment set's (its wedges' usual
+    // loss at each re-grip), else none. Marks are read after lock-off and lose nothing to re-grips.
+    const drawInSource: EndJudgement["drawInSource"] =
+      method !== "strokes"
+        ? "none"
+        : record.drawInMm !== null
+          ? "record"
+          : set?.drawInMm !== undefined && set.drawInMm !== null
+            ? "equipment set"
+            : "none";
+    const drawInUsedMm =
+      drawInSource === "record" ? record.drawInMm : drawInSource === "equipment set" ? set!.drawInMm! : null;
+    const drawInDeductedMm = regrips * (drawInUsedMm ?? 0);
     const readMm = record.measuredMm - drawInDeductedMm;
 
     let incomplete: string | null = null;
@@ -454,6 +472,8 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
       calibrationExpired,
       outsideRangeMPa,
       gaugeForceN,
+      drawInUsedMm,
+      drawInSource,
       drawInDeductedMm,
       totalMm,
       predictedGrossMm,

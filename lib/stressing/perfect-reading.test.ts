@@ -31,6 +31,8 @@ type EndPlan = {
   initialShare: number | null;
   strokes: number;
   drawIn: number;
+  /** False: the record types no draw-in and the equipment set's is used. */
+  typeDrawIn: boolean;
   seating: number | null;
 };
 
@@ -39,6 +41,7 @@ const endPlan = fc.record({
   initialShare: fc.option(fc.double({ min: 0.1, max: 0.3, noNaN: true }), { nil: null }),
   strokes: fc.integer({ min: 1, max: 4 }),
   drawIn: fc.double({ min: 0, max: 8, noNaN: true }),
+  typeDrawIn: fc.boolean(),
   seating: fc.option(fc.double({ min: 3, max: 9, noNaN: true }), { nil: null }),
 });
 
@@ -60,14 +63,15 @@ const project: FieldProject = {
 };
 
 /** What the crew reads at one end for a tendon behaving exactly as predicted. */
-function perfectReading(plan: EndPlan, grossMm: number, axial: number) {
+function perfectReading(plan: EndPlan, grossMm: number, axial: number, setDrawIn: number | null) {
   const basisNet = plan.method === "marks";
   const set = plan.seating ?? project.anchorSetMm;
   const grip = basisNet ? 0 : (PJ * GRIP) / axial;
   const fromZero = grossMm + grip; // at the jacking force, before seating
   const share = plan.initialShare ?? 0;
   const sincePi = fromZero * (1 - share);
-  const measured = basisNet ? sincePi - set : sincePi + (plan.strokes - 1) * plan.drawIn;
+  const drawIn = plan.typeDrawIn ? plan.drawIn : (setDrawIn ?? 0);
+  const measured = basisNet ? sincePi - set : sincePi + (plan.strokes - 1) * drawIn;
   return { measured, initialMPa: plan.initialShare === null ? null : (plan.initialShare * PJ) / SLOPE };
 }
 
@@ -81,7 +85,8 @@ describe("a perfect reading is in band on every basis, method and order", () => 
         fc.constantFrom("sequential" as const, "simultaneous" as const),
         endPlan,
         endPlan,
-        (lengthMm, angleRad, ends, order, planA, planB) => {
+        fc.option(fc.double({ min: 0, max: 8, noNaN: true }), { nil: null }),
+        (lengthMm, angleRad, ends, order, planA, planB, setDrawIn) => {
           const segments = [{ lengthMm, angleRad }];
           const tendon: FieldTendon = {
             id: "0190a0b0-0000-7000-8000-0000000000cc",
@@ -120,7 +125,7 @@ describe("a perfect reading is in band on every basis, method and order", () => 
                 ];
 
           const local: LocalRecord[] = plans.map(([end, plan, gross], i) => {
-            const r = perfectReading(plan, gross, whole.axialStiffnessN);
+            const r = perfectReading(plan, gross, whole.axialStiffnessN, setDrawIn);
             const id = `0190a0b0-0000-7000-8000-00000000000${i + 1}`;
             return {
               id,
@@ -148,7 +153,7 @@ describe("a perfect reading is in band on every basis, method and order", () => 
               },
               measuredMm: r.measured,
               seatingMm: plan.seating,
-              drawInMm: plan.method === "strokes" ? plan.drawIn : null,
+              drawInMm: plan.method === "strokes" && plan.typeDrawIn ? plan.drawIn : null,
               stressingOrder: ends === "both" ? order : null,
               wireBreaks: 0,
               remarks: null,
@@ -167,6 +172,7 @@ describe("a perfect reading is in band on every basis, method and order", () => 
             jackSerial: "J",
             gaugeSerial: "G",
             jackGripMm: null,
+            drawInMm: setDrawIn,
           };
           const tablet = provisionalVerdict(
             {
@@ -223,6 +229,7 @@ describe("a perfect reading is in band on every basis, method and order", () => 
                 name: "Jack 1",
                 jack_grip_mm: null,
                 max_force_n: null,
+                draw_in_mm: setDrawIn,
                 id: CAL.id,
                 calibrated_on: CAL.calibratedOn,
                 valid_until: CAL.validUntil,

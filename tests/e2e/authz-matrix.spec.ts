@@ -136,6 +136,14 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     shopElongationMm: null,
     strandLotId: null,
   });
+  const lotBody = (lotNumber: string) => ({
+    lotNumber,
+    strandSize: "0.5 in",
+    areaMm2: 99,
+    modulusMPa: 197_000,
+    breakingLoadN: 186_000,
+    certificateAttachmentId: null,
+  });
   const SIGNATURE = {
     signerName: "Matrix Inspector",
     licence: "ICC special inspector 0000000 (matrix)",
@@ -328,6 +336,33 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
             breakingLoadN: 186_000,
             certificateAttachmentId: null,
           },
+        }),
+    },
+    "PATCH /api/projects/[projectId]/strand-lots/[strandLotId]": {
+      fixture: async () => {
+        const res = await contexts.admin.post(`/api/projects/${projectId}/strand-lots`, {
+          data: { ...lotBody(`M-${stamp()}`), modulusMPa: 197_000 },
+        });
+        expect(res.status()).toBe(201);
+        return ((await res.json()) as { strandLotId: string }).strandLotId;
+      },
+      call: (c, id) =>
+        c.patch(`/api/projects/${projectId}/strand-lots/${id}`, {
+          data: { ...lotBody(`M-${id.slice(0, 8)}`), modulusMPa: 196_500 },
+        }),
+    },
+    "PATCH /api/projects/[projectId]/tendons/[tendonId]": {
+      fixture: async () => {
+        const pourId = await throwawayPour();
+        const res = await contexts.admin.post(`/api/projects/${projectId}/pours/${pourId}/tendons`, {
+          data: tendonBody(`M-${stamp()}`),
+        });
+        expect(res.status()).toBe(201);
+        return ((await res.json()) as { tendonId: string }).tendonId;
+      },
+      call: (c, id) =>
+        c.patch(`/api/projects/${projectId}/tendons/${id}`, {
+          data: { ...tendonBody(`M-${id.slice(0, 8)}`), segments: [{ lengthMm: 9500, angleRad: 0.1 }] },
         }),
     },
     "GET /api/projects/[projectId]/equipment-sets": { call: (c) => c.get(`/api/projects/${projectId}/equipment-sets`) },

@@ -94,6 +94,8 @@ export const MATRIX: Record<string, Expected> = {
   "GET /api/projects/[projectId]/tendons/[tendonId]": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "GET /api/projects/[projectId]/strand-lots": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "POST /api/projects/[projectId]/strand-lots": projectAction(201, ["admin"]),
+  "PATCH /api/projects/[projectId]/strand-lots/[strandLotId]": projectAction(200, ["admin"]),
+  "PATCH /api/projects/[projectId]/tendons/[tendonId]": projectAction(200, ["admin"]),
   "GET /api/projects/[projectId]/equipment-sets": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "POST /api/projects/[projectId]/equipment-sets": projectAction(201, ["admin"]),
   "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations": projectAction(201, ["admin"]),

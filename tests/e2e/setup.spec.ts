@@ -121,6 +121,8 @@ test("an admin sets up a pour, imports its schedule, adds a strand lot and a cal
   await page.getByLabel("Set name").fill(SET);
   await page.getByLabel("Jack serial").fill("EJ-77");
   await page.getByLabel("Gauge serial").fill("EG-77");
+  // The wedges' draw-in at each re-grip, as a crew types it (1/4 in, our test value).
+  await page.getByLabel(/Draw-in per re-grip/).fill("1/4");
   await page.getByRole("button", { name: "Add set" }).click();
   await expect(page.getByText(`${SET} added. Add its calibration next.`)).toBeVisible();
   await page.getByLabel("Equipment set").selectOption({ label: SET });
@@ -138,6 +140,9 @@ test("an admin sets up a pour, imports its schedule, adds a strand lot and a cal
   await expect(page.getByText(/Calibration saved: r² = 1\.00000/)).toBeVisible();
   const setCard = page.locator("li", { has: page.getByRole("heading", { name: SET }) });
   await expect(setCard).toContainText(`Calibrated: calibrated ${today}`);
+  await expect(setCard.getByTestId("set-draw-in")).toHaveText(
+    "Draw-in per re-grip: 0.25 in, used for ram travel typed without its own",
+  );
   await expect(page.locator("li", { hasText: "Set B · Jack J-31" }).first()).toBeVisible();
   await screenshot(page, "setup-equipment");
 

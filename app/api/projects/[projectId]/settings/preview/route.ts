@@ -21,6 +21,7 @@ export const POST = route(
         frictionMu: body.frictionMu,
         wobblePerM: body.wobblePerM,
         anchorSetMm: body.anchorSetMm,
+        comparisonBasis: body.comparisonBasis,
         requiredConcreteMpa: body.requiredConcreteMPa,
         ...(body.timeZone !== undefined && { timeZone: body.timeZone }),
         ...(body.jackingForceFactor !== undefined && { jackingForceFactor: body.jackingForceFactor }),

@@ -1,0 +1,139 @@
+import "server-only";
+import type { Db } from "@/db/connect";
+import { AppError } from "@/lib/errors";
+import type { TendonInput } from "@/lib/schemas/tendon";
+import { inTransaction } from "./in-transaction";
+import { recordAudit } from "./record-audit";
+import { raiseTendonVersion } from "./evaluate-tendon";
+import { reevaluateTendons } from "./reevaluate-project";
+import { requireOpenPour } from "./require-open-pour";
+
+/**
+ * Edits one tendon's schedule row. When it has been stressed and a value its prediction reads
+ * changed, it is judged again in the same transaction with the cause as the reason (a new
+ * evaluation; flags raised and closed by the rules), and the edit is audited with what changed.
+ * Refused while its pour stands released, like every other schedule write.
+ */
+export async function updateTendon(
+  db: Db,
+  input: { projectId: string; tendonId: string; values: TendonInput; by: string },
+): Promise<{ tendonId: string; reevaluated: number; changed: number; closedFlags: number }> {
+  const v = input.values;
+  return inTransaction(db, async (trx) => {
+    const found = await trx
+      .selectFrom("tendons")
+      .select("pour_id")
+      .where("project_id", "=", input.projectId)
+      .where("id", "=", input.tendonId)
+      .executeTakeFirst();
+    if (!found) throw new AppError("NOT_FOUND", "No such tendon on this project.");
+    // The pour's row lock serialises the tag check with the pour's other schedule writers.
+    await trx
+      .selectFrom("pours")
+      .select("id")
+      .where("project_id", "=", input.projectId)
+      .where("id", "=", found.pour_id)
+      .forUpdate()
+      .executeTakeFirstOrThrow();
+    await requireOpenPour(trx, { projectId: input.projectId, pourId: found.pour_id });
+    const before = await trx
+      .selectFrom("tendons")
+      .selectAll()
+      .where("project_id", "=", input.projectId)
+      .where("id", "=", input.tendonId)
+      .forUpdate()
+      .executeTakeFirstOrThrow();
+    const clash = await trx
+      .selectFrom("tendons")
+      .select("id")
+      .where("project_id", "=", input.projectId)
+      .where("pour_id", "=", before.pour_id)
+      .where("id", "!=", input.tendonId)
+      .where((eb) => eb(eb.fn("lower", ["tag"]), "=", v.tag.toLowerCase()))
+      .executeTakeFirst();
+    if (clash)
+      throw new AppError("CONFLICT", `The tag ${v.tag} is already in this pour.`, { tag: ["Already in this pour."] });
+    if (v.strandLotId) {
+      const lot = await trx
+        .selectFrom("strand_lots")
+        .select("strand_size")
+        .where("project_id", "=", input.projectId)
+        .where("id", "=", v.strandLotId)
+        .executeTakeFirst();
+      if (!lot)
+        throw new AppError("INVALID_INPUT", "Pick a strand lot of this project.", {
+          strandLotId: ["Not a lot of this project."],
+        });
+      if (lot.strand_size !== v.strandSize)
+        throw new AppError("INVALID_INPUT", "The lot is another strand size.", {
+          strandLotId: [`This lot is ${lot.strand_size} strand.`],
+        });
+    }
+    await trx
+      .updateTable("tendons")
+      .set({
+        tag: v.tag,
+        kind: v.kind,
+        strand_size: v.strandSize,
+        strand_count: v.strandCount,
+        segments: JSON.stringify(v.segments),
+        ends: v.ends,
+        jack_grip_mm: v.jackGripMm,
+        shop_elongation_mm: v.shopElongationMm,
+        strand_lot_id: v.strandLotId,
+        updated_at: new Date(),
+      })
+      .where("project_id", "=", input.projectId)
+      .where("id", "=", input.tendonId)
+      .execute();
+
+    // What the judge reads of the schedule row; the tag and the kind's name feed no number.
+    const judging: [string, unknown, unknown][] = [
+      ["strand size", before.strand_size, v.strandSize],
+      ["strands", before.strand_count, v.strandCount],
+      ["segments", segmentsKey(before.segments), segmentsKey(v.segments)],
+      ["ends", before.ends, v.ends],
+      ["grip length", before.jack_grip_mm, v.jackGripMm],
+      ["shop-drawing elongation", before.shop_elongation_mm, v.shopElongationMm],
+      ["strand lot", before.strand_lot_id, v.strandLotId],
+    ];
+    const moved = judging.filter(([, a, b]) => a !== b).map(([name]) => name);
+    // Raising the version holds the tendon until this transaction ends, so a record of it pushed
+    // meanwhile (read on the old schedule) is refused by its guard and judged again on the new one.
+    if (moved.length) await raiseTendonVersion(trx, { projectId: input.projectId, tendonId: input.tendonId });
+    const stressed = await trx
+      .selectFrom("records")
+      .select("id")
+      .where("project_id", "=", input.projectId)
+      .where("tendon_id", "=", input.tendonId)
+      .limit(1)
+      .executeTakeFirst();
+    const reason = `tendon ${v.tag} schedule edited: ${moved.join(", ")}`;
+    const result =
+      stressed && moved.length
+        ? await reevaluateTendons(trx, { projectId: input.projectId, tendonIds: [input.tendonId], reason })
+        : { reevaluated: 0, changed: 0, closedFlags: 0 };
+    await recordAudit(trx, {
+      action: "tendon.update",
+      outcome: "success",
+      actorUserId: input.by,
+      projectId: input.projectId,
+      target: input.tendonId,
+      detail: {
+        tag: v.tag,
+        changed: [["tag", before.tag, v.tag] as [string, unknown, unknown], ["kind", before.kind, v.kind], ...judging]
+          .filter(([, a, b]) => a !== b)
+          .map(([field]) => field),
+        reevaluated: result.reevaluated,
+        verdictChanged: result.changed > 0,
+        flagsClosed: result.closedFlags,
+        ...(result.reevaluated && { reason }),
+      },
+    });
+    return { tendonId: input.tendonId, ...result };
+  });
+}
+
+/** Segments as comparable text (jsonb keeps its keys in its own order). */
+const segmentsKey = (segments: readonly { lengthMm: number; angleRad: number }[]) =>
+  JSON.stringify(segments.map((g) => [g.lengthMm, g.angleRad]));
