@@ -1,6 +1,7 @@
 import Dexie, { type DexieOptions, type Table } from "dexie";
 import type { RecordPayload } from "@/lib/schemas/record";
 import type { TailCutPayload } from "@/lib/schemas/tail-cut";
+import type { DecisionNotice } from "./decision-notices";
 import type {
   FieldCalibration,
   FieldEquipmentSet,
@@ -85,6 +86,15 @@ export interface LocalTailCut extends FieldTailCut {
   syncState: "pending" | "synced" | "conflict" | "rejected";
 }
 
+/** A change a sync brought (lib/offline/decision-notices.ts), kept until the crew acknowledges it. */
+export interface LocalNotice extends DecisionNotice {
+  /** When the pull that brought it was taken in. */
+  arrivedAt: string;
+  acknowledgedAt: string | null;
+  /** Who acknowledged it on this tablet. */
+  acknowledgedBy: string | null;
+}
+
 export interface LocalPour extends FieldPour {
   downloadedAt: string;
   /** The server's cursor this pour was last pulled at. */
@@ -145,6 +155,7 @@ export class FieldDb extends Dexie {
   outbox!: Table<OutboxEntry, number>;
   photos!: Table<LocalPhoto, string>;
   tailCuts!: Table<LocalTailCut, string>;
+  notices!: Table<LocalNotice, string>;
 
   constructor(name = "tautline-field", options?: DexieOptions) {
     super(name, options);
@@ -163,6 +174,8 @@ export class FieldDb extends Dexie {
       photos: "id, recordId, state",
     });
     this.version(2).stores({ tailCuts: "tendonId, id, pourId" });
+    // Version 3 adds the notices a sync brings; every table of version 2 is kept as it is.
+    this.version(3).stores({ notices: "id, pourId, arrivedAt" });
   }
 }
 
