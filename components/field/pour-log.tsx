@@ -14,6 +14,7 @@ import { projectTimeZone } from "@/lib/format/dates";
 import type { FieldEvaluation, FieldFlag, FieldTendon } from "@/lib/schemas/sync";
 import { stressedEnds } from "@/lib/stressing/basis";
 import { showLength, showPressure } from "@/lib/stressing/display";
+import { DecisionNotices } from "./decision-notices";
 import { useField } from "./field-provider";
 import { HoldPanel } from "./hold-panel";
 import { PourReleaseNote } from "./pour-release-note";
@@ -174,6 +175,7 @@ export function PourLog() {
 
   return (
     <main className="grid gap-4 p-4 landscape:grid-cols-[minmax(0,2fr)_minmax(0,3fr)] landscape:items-start">
+      <DecisionNotices pourId={pour.id} className="landscape:col-span-2" />
       <section
         aria-label="Tendons"
         className="grid gap-3 landscape:sticky landscape:top-28 landscape:max-h-[calc(100vh-8rem)] landscape:overflow-y-auto"

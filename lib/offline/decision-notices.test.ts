@@ -147,6 +147,9 @@ describe("noticesFromPull", () => {
     const reopened = { by: "P. Raman", at: "2026-12-02T19:00:00.000Z", reason: "U07 needs a lift-off check." };
     const [reopen] = diff({ pours: [{ ...POUR, release: first }] }, { pours: [{ ...POUR, reopened }] });
     expect(reopen).toMatchObject({ kind: "reopened", words: "U07 needs a lift-off check.", todo: REOPENED_TODO });
+    const signed = { ...reopened, by: "P. Raman, P.E." };
+    const [byEngineer] = diff({ pours: [{ ...POUR, release: first }] }, { pours: [{ ...POUR, reopened: signed }] });
+    expect(byEngineer!.what).toBe("Pour reopened by P. Raman, P.E.");
     const again = { ...first, at: "2026-12-02T20:00:00.000Z" };
     const notices = diff({ pours: [{ ...POUR, reopened }] }, { pours: [{ ...POUR, release: again, reopened }] });
     expect(notices.map((n) => n.kind)).toEqual(["released"]);

@@ -49,6 +49,8 @@ export const REOPENED_TODO =
   "The pour takes records again. Do the work the engineer's reason names, then sync so the engineer can release it again.";
 
 const dispositionKey = (d: FieldDisposition) => `${d.createdAt}|${d.decision}`;
+/** "by P. Raman, P.E." ends its sentence with its own full stop. */
+const endSentence = (s: string) => (/[.!?]$/.test(s) ? s : `${s}.`);
 
 /** The notices a pull brings, pour notices first, then by tendon tag and time. */
 export function noticesFromPull({ before, arrived, tendons }: NoticeDiffInput): DecisionNotice[] {
@@ -67,7 +69,7 @@ export function noticesFromPull({ before, arrived, tendons }: NoticeDiffInput): 
         pourName: pour.name,
         tendonId: null,
         tendonTag: null,
-        what: `Pour released by ${pour.release.by}.`,
+        what: endSentence(`Pour released by ${pour.release.by}`),
         words: pour.release.statement,
         by: pour.release.by,
         todo: RELEASED_TODO,
@@ -82,7 +84,7 @@ export function noticesFromPull({ before, arrived, tendons }: NoticeDiffInput): 
         pourName: pour.name,
         tendonId: null,
         tendonTag: null,
-        what: `Pour reopened by ${pour.reopened.by}.`,
+        what: endSentence(`Pour reopened by ${pour.reopened.by}`),
         words: pour.reopened.reason,
         by: pour.reopened.by,
         todo: REOPENED_TODO,
