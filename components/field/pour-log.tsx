@@ -155,6 +155,12 @@ export function PourLog() {
   );
   const clearToCut = tendons.filter((t) => !cutOf.has(t.id) && clearance.get(t.id)!.clear);
   const timeZone = projectTimeZone(project);
+  // The concrete gate in words (null when met or when the project sets no required strength).
+  const concreteGate = concreteGateMet(pour.concreteStrengthMpa ?? null, project.requiredConcreteMpa ?? null)
+    ? null
+    : pour.concreteStrengthMpa == null
+      ? `no lab results confirm the ${showPressure(units(project), project.requiredConcreteMpa!)} required yet.`
+      : `confirmed ${showPressure(units(project), pour.concreteStrengthMpa)}, below the ${showPressure(units(project), project.requiredConcreteMpa!)} required.`;
   // Held tendons first, so nobody at the slab edge has to scroll to find them.
   const shown = tendons
     .filter((t) => t.tag.toLowerCase().includes(query.trim().toLowerCase()))
@@ -191,7 +197,7 @@ export function PourLog() {
           {flaggedCount ? ` (${flaggedCount} flagged)` : ""}
         </p>
         <PourReleaseNote pour={pour} />
-        {!concreteGateMet(pour.concreteStrengthMpa ?? null, project.requiredConcreteMpa ?? null) && (
+        {concreteGate !== null && (
           <p
             role="status"
             className="rounded-md border-2 border-signal-stop p-3 font-bold text-signal-stop"
@@ -203,7 +209,7 @@ export function PourLog() {
               {pour.concreteStrengthMpa == null
                 ? `No lab results confirm the ${showPressure(units(project), project.requiredConcreteMpa!)} required yet.`
                 : `Confirmed ${showPressure(units(project), pour.concreteStrengthMpa)}, below the ${showPressure(units(project), project.requiredConcreteMpa!)} required.`}{" "}
-              Ask the inspector before the first pull.
+              Ask the inspector before the first pull; to stress anyway, the record form asks who confirmed it or why.
             </span>
           </p>
         )}
@@ -299,6 +305,7 @@ export function PourLog() {
             next={next ?? null}
             onNext={go}
             released={Boolean(pour.release)}
+            concreteGate={concreteGate}
             flags={flagsOf(selected)}
             tailsCut={cutOf.has(selected.id)}
             tailCut={
@@ -334,6 +341,8 @@ function TendonPanel(props: {
   onNext: (t: FieldTendon) => void;
   /** The pour is released: nothing new is recorded until the engineer reopens it. */
   released: boolean;
+  /** Why the concrete gate is not met, in words; null when it is met. */
+  concreteGate: string | null;
   flags: FieldFlag[];
   /** Held or clear to cut, or the cut as recorded. */
   tailCut: React.ReactNode;
@@ -464,6 +473,7 @@ function TendonPanel(props: {
             props.onSaved(id);
           }}
           onCancel={props.correcting || adding ? () => (props.onCorrect(null), setAdding(false)) : undefined}
+          concreteGate={props.concreteGate}
         />
       )}
     </>

@@ -19,6 +19,7 @@ import * as clockSkewThreshold from "./2026-12-10T140000-clock-skew-threshold";
 import * as signedReleases from "./2026-12-10T150000-signed-releases";
 import * as calibrationRetirement from "./2026-12-10T150100-calibration-retirement";
 import * as allFlagKinds from "./2026-12-10T160000-all-flag-kinds";
+import * as recordConcreteGoAhead from "./2026-12-10T171300-record-concrete-go-ahead";
 
 // A static index: vitest and bundlers cannot import .ts migrations from a folder scan.
 // Keys sort in time order; append new migrations at the end.
@@ -43,4 +44,5 @@ export const migrations: Record<string, Migration> = {
   "2026-12-10T150000-signed-releases": signedReleases,
   "2026-12-10T150100-calibration-retirement": calibrationRetirement,
   "2026-12-10T160000-all-flag-kinds": allFlagKinds,
+  "2026-12-10T171300-record-concrete-go-ahead": recordConcreteGoAhead,
 };
