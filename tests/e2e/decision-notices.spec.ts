@@ -1,7 +1,7 @@
 import { expect, test } from "@playwright/test";
 import { screenshot } from "./support";
 import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
-import { makePourFixture, pushEndA } from "./pour-fixture";
+import { makePourFixture, pushEndA, typedReading } from "./pour-fixture";
 
 /**
  * A decision reaches the slab edge as a notice: the engineer orders a restress; after the crew's
@@ -123,4 +123,66 @@ test("the engineer's decision shows on the crew's tablet after the next sync and
   await ctx.close();
   await crewApi.dispose();
   await engineer.dispose();
+});
+
+test("stressing a pour whose concrete is not confirmed asks the crew why, and the engineer reads it on the flag", async ({
+  browser,
+}) => {
+  test.setTimeout(120_000);
+  const pourName = `Go-ahead check ${stamp}`;
+  const fx = await makePourFixture(pourName, [`GA-${stamp}-1`]);
+  const [tendon] = fx.tendons as [(typeof fx.tendons)[number]];
+  await queryDemo("update pours set concrete_strength_mpa = null, concrete_confirmed_at = null where id = $1", [
+    fx.pourId,
+  ]);
+  const reading = typedReading(fx, 1.0);
+  const reason = "Inspector read the field-cured cylinders on site at 3,200 psi before the first pull.";
+
+  const ctx = await browser.newContext({ viewport: { width: 800, height: 1280 }, hasTouch: true });
+  const crew = await ctx.newPage();
+  await signInWithPassword(crew, PEOPLE.crew);
+  await crew.waitForURL(/\/home/);
+  await crew.goto("/field");
+  await crew.getByTestId("available-pour").filter({ hasText: pourName }).getByRole("button").click();
+  await crew
+    .getByTestId("ready-pour")
+    .filter({ hasText: pourName })
+    .getByRole("link", { name: "Open tendon list" })
+    .click();
+  await expect(crew.getByTestId("concrete-gate-field")).toContainText("Concrete not confirmed: do not stress");
+  await crew.getByTestId("tendon-row").filter({ hasText: tendon.tag }).click();
+  const gate = crew.getByTestId("concrete-go-ahead");
+  await expect(gate).toContainText("Concrete not confirmed: no lab results confirm");
+  await crew.getByRole("radio", { name: /Set A/ }).check();
+  await crew.getByLabel(/Final gauge pressure/).fill(reading.psi);
+  await crew.getByLabel(/Mark before/).fill(reading.before);
+  await crew.getByLabel(/Mark after/).fill(reading.after);
+  // Without a reason nothing is saved, and the box says what it wants.
+  await crew.getByRole("button", { name: "Save record" }).click();
+  await expect(gate.getByRole("alert")).toContainText("say who confirmed it on site, or why stressing goes ahead");
+  await expect(crew.getByTestId("end-A")).toHaveCount(0);
+  await screenshot(crew, "field-concrete-go-ahead-asked-portrait");
+  await crew.getByLabel(/Who confirmed the concrete on site/).fill(reason);
+  await crew.getByRole("button", { name: "Save record" }).click();
+  await expect(crew.getByTestId("end-A")).toBeVisible();
+  await crew.getByRole("button", { name: "Sync now" }).click();
+  await expect(crew.getByTestId("end-A").getByTestId("sync-state")).toHaveText("sent", { timeout: 15_000 });
+  const [stored] = await queryDemo<{ concrete_go_ahead: string }>(
+    "select concrete_go_ahead from records where tendon_id = $1",
+    [tendon.id],
+  );
+  expect(stored).toEqual({ concrete_go_ahead: reason });
+
+  // The engineer's page for the tendon: the concrete flag quotes the crew, and so does the record.
+  const engineerCtx = await browser.newContext();
+  const engineer = await engineerCtx.newPage();
+  await signInWithPassword(engineer, PEOPLE.engineer);
+  await engineer.waitForURL(/\/home/);
+  await engineer.goto(`/projects/${fx.projectId}/tendons/${tendon.id}/flags`);
+  await expect(engineer.getByText(`Crew's reason to go ahead: ${reason}`).first()).toBeVisible();
+  await expect(engineer.getByTestId("concrete-go-ahead-reason")).toContainText(reason);
+  await screenshot(engineer, "flag-concrete-go-ahead");
+
+  await ctx.close();
+  await engineerCtx.close();
 });
