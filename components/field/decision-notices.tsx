@@ -67,23 +67,25 @@ export function DecisionNotices({ pourId, className = "" }: { pourId?: string; c
       className={`grid gap-3 rounded-md border-4 border-ink bg-concrete-50 p-4 ${className}`}
       data-testid="decision-notices"
     >
-      <h2 id="notices-heading" className="flex items-center gap-2 text-lead font-bold" role="alert">
-        <svg viewBox="0 0 24 24" className="h-7 w-7 shrink-0" aria-hidden="true">
-          <path
-            d="M12 3a6 6 0 0 0-6 6v4l-2 3h16l-2-3V9a6 6 0 0 0-6-6zM10 19a2 2 0 0 0 4 0"
-            fill="none"
-            stroke="currentColor"
-            strokeWidth="2.5"
-            strokeLinecap="round"
-            strokeLinejoin="round"
-          />
-        </svg>
-        {notices.length === 1 ? "1 change came with the sync" : `${notices.length} changes came with the sync`}
-      </h2>
+      <div role="alert">
+        <h2 id="notices-heading" className="flex items-center gap-2 text-lead font-bold">
+          <svg viewBox="0 0 24 24" className="h-7 w-7 shrink-0" aria-hidden="true">
+            <path
+              d="M12 3a6 6 0 0 0-6 6v4l-2 3h16l-2-3V9a6 6 0 0 0-6-6zM10 19a2 2 0 0 0 4 0"
+              fill="none"
+              stroke="currentColor"
+              strokeWidth="2.5"
+              strokeLinecap="round"
+              strokeLinejoin="round"
+            />
+          </svg>
+          {notices.length === 1 ? "1 change came with the sync" : `${notices.length} changes came with the sync`}
+        </h2>
+      </div>
       <ul className="grid gap-3">
         {notices.map((n) => {
           const look = KIND_LOOK[n.kind];
-          const holds = n.kind === "flag" || (n.kind === "decision" && !n.todo.startsWith("Accepted"));
+          const holds = n.holds;
           return (
             <li
               key={n.id}

@@ -56,6 +56,7 @@ describe("noticesFromPull", () => {
       what: "New flag: Out of band.",
       words: "Measured 14.4 % long against the prediction.",
       todo: `Held: do not cut tails. ${WAITING_INSTRUCTION}`,
+      holds: true,
     });
   });
 
@@ -73,6 +74,7 @@ describe("noticesFromPull", () => {
         words: "Restress to 3,350 psi and re-read the marks.",
         by: "P. Raman",
         todo: DECISION_INSTRUCTIONS.restress,
+        holds: true,
         at: "2026-12-02T16:00:00.000Z",
       },
     ]);
@@ -101,7 +103,7 @@ describe("noticesFromPull", () => {
       { flags: [flag({ status: "closed", dispositions: [restress, accept] })] },
     );
     expect(notices).toHaveLength(1);
-    expect(notices[0]).toMatchObject({ words: "Accepted as is.", todo: DECISION_INSTRUCTIONS.accept });
+    expect(notices[0]).toMatchObject({ words: "Accepted as is.", todo: DECISION_INSTRUCTIONS.accept, holds: false });
   });
 
   it("says nothing of a flag that arrives already closed without a decision", () => {

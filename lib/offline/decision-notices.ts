@@ -28,6 +28,8 @@ export interface DecisionNotice {
   by: string | null;
   /** What the crew is to do now. */
   todo: string;
+  /** The change holds the tendon (a new flag, an order of work), as opposed to news that lifts or ends something. */
+  holds: boolean;
   /** When it happened on the server (the flag's, decision's, release's or reopening's time). */
   at: string;
 }
@@ -73,6 +75,7 @@ export function noticesFromPull({ before, arrived, tendons }: NoticeDiffInput): 
         words: pour.release.statement,
         by: pour.release.by,
         todo: RELEASED_TODO,
+        holds: false,
         at: pour.release.at,
       });
     }
@@ -88,6 +91,7 @@ export function noticesFromPull({ before, arrived, tendons }: NoticeDiffInput): 
         words: pour.reopened.reason,
         by: pour.reopened.by,
         todo: REOPENED_TODO,
+        holds: false,
         at: pour.reopened.at,
       });
     }
@@ -115,6 +119,7 @@ export function noticesFromPull({ before, arrived, tendons }: NoticeDiffInput): 
         words: flag.reason ?? null,
         by: null,
         todo: `Held: do not cut tails. ${WAITING_INSTRUCTION}`,
+        holds: true,
         at: flag.createdAt ?? "",
       });
     }
@@ -127,6 +132,7 @@ export function noticesFromPull({ before, arrived, tendons }: NoticeDiffInput): 
         words: d.reasons,
         by: d.engineerName,
         todo: DECISION_INSTRUCTIONS[d.decision],
+        holds: d.decision !== "accept",
         at: d.createdAt,
       });
     }
