@@ -258,6 +258,8 @@ export interface RecordsTable {
   equipment_set_id: string;
   calibration_id: string | null;
   expired_calibration_reason: string | null;
+  /** The crew's reason to stress while the pour's concrete strength was not confirmed. */
+  concrete_go_ahead: Generated<string | null>;
   initial_pressure_mpa: number | null;
   final_pressure_mpa: number;
   reading_method: ReadingMethod;

@@ -15,6 +15,7 @@ function ReleasedMark() {
   );
 }
 import { AttentionList } from "./attention-list";
+import { DecisionNotices } from "./decision-notices";
 import { useField } from "./field-provider";
 import { ago, clockTime, useLive, useNow } from "./use-live";
 
@@ -104,6 +105,8 @@ export function FieldHome() {
           </a>
         )}
       </header>
+
+      <DecisionNotices />
 
       <AttentionList />
 

@@ -14,6 +14,7 @@ import { projectTimeZone } from "@/lib/format/dates";
 import type { FieldEvaluation, FieldFlag, FieldTendon } from "@/lib/schemas/sync";
 import { stressedEnds } from "@/lib/stressing/basis";
 import { showLength, showPressure } from "@/lib/stressing/display";
+import { DecisionNotices } from "./decision-notices";
 import { useField } from "./field-provider";
 import { HoldPanel } from "./hold-panel";
 import { PourReleaseNote } from "./pour-release-note";
@@ -154,6 +155,12 @@ export function PourLog() {
   );
   const clearToCut = tendons.filter((t) => !cutOf.has(t.id) && clearance.get(t.id)!.clear);
   const timeZone = projectTimeZone(project);
+  // The concrete gate in words (null when met or when the project sets no required strength).
+  const concreteGate = concreteGateMet(pour.concreteStrengthMpa ?? null, project.requiredConcreteMpa ?? null)
+    ? null
+    : pour.concreteStrengthMpa == null
+      ? `no lab results confirm the ${showPressure(units(project), project.requiredConcreteMpa!)} required yet.`
+      : `confirmed ${showPressure(units(project), pour.concreteStrengthMpa)}, below the ${showPressure(units(project), project.requiredConcreteMpa!)} required.`;
   // Held tendons first, so nobody at the slab edge has to scroll to find them.
   const shown = tendons
     .filter((t) => t.tag.toLowerCase().includes(query.trim().toLowerCase()))
@@ -174,6 +181,7 @@ export function PourLog() {
 
   return (
     <main className="grid gap-4 p-4 landscape:grid-cols-[minmax(0,2fr)_minmax(0,3fr)] landscape:items-start">
+      <DecisionNotices pourId={pour.id} className="landscape:col-span-2" />
       <section
         aria-label="Tendons"
         className="grid gap-3 landscape:sticky landscape:top-28 landscape:max-h-[calc(100vh-8rem)] landscape:overflow-y-auto"
@@ -189,7 +197,7 @@ export function PourLog() {
           {flaggedCount ? ` (${flaggedCount} flagged)` : ""}
         </p>
         <PourReleaseNote pour={pour} />
-        {!concreteGateMet(pour.concreteStrengthMpa ?? null, project.requiredConcreteMpa ?? null) && (
+        {concreteGate !== null && (
           <p
             role="status"
             className="rounded-md border-2 border-signal-stop p-3 font-bold text-signal-stop"
@@ -201,7 +209,7 @@ export function PourLog() {
               {pour.concreteStrengthMpa == null
                 ? `No lab results confirm the ${showPressure(units(project), project.requiredConcreteMpa!)} required yet.`
                 : `Confirmed ${showPressure(units(project), pour.concreteStrengthMpa)}, below the ${showPressure(units(project), project.requiredConcreteMpa!)} required.`}{" "}
-              Ask the inspector before the first pull.
+              Ask the inspector before the first pull; to stress anyway, the record form asks who confirmed it or why.
             </span>
           </p>
         )}
@@ -297,6 +305,7 @@ export function PourLog() {
             next={next ?? null}
             onNext={go}
             released={Boolean(pour.release)}
+            concreteGate={concreteGate}
             flags={flagsOf(selected)}
             tailsCut={cutOf.has(selected.id)}
             tailCut={
@@ -332,6 +341,8 @@ function TendonPanel(props: {
   onNext: (t: FieldTendon) => void;
   /** The pour is released: nothing new is recorded until the engineer reopens it. */
   released: boolean;
+  /** Why the concrete gate is not met, in words; null when it is met. */
+  concreteGate: string | null;
   flags: FieldFlag[];
   /** Held or clear to cut, or the cut as recorded. */
   tailCut: React.ReactNode;
@@ -462,6 +473,7 @@ function TendonPanel(props: {
             props.onSaved(id);
           }}
           onCancel={props.correcting || adding ? () => (props.onCorrect(null), setAdding(false)) : undefined}
+          concreteGate={props.concreteGate}
         />
       )}
     </>

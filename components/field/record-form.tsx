@@ -89,6 +89,7 @@ function formFromEntered(base: LocalRecord): RecordFormValues {
     tendonEnd: base.tendonEnd,
     equipmentSetId: base.equipmentSetId,
     expiredCalibrationReason: base.expiredCalibrationReason ?? "",
+    concreteGoAhead: base.concreteGoAhead ?? "",
     readingMethod: base.readingMethod,
     initialPressure: e.initialPressure ?? "",
     finalPressure: e.finalPressure,
@@ -111,6 +112,7 @@ export function RecordForm({
   correcting,
   onSaved,
   onCancel,
+  concreteGate = null,
 }: {
   ctx: Omit<TendonContext, "set">;
   sets: TendonContext["set"][];
@@ -119,6 +121,8 @@ export function RecordForm({
   correcting: LocalRecord | null;
   onSaved: (recordId: string) => void;
   onCancel?: () => void;
+  /** Why the pour's concrete gate is not met, in words; null when it is met or the project sets none. */
+  concreteGate?: string | null;
 }) {
   const { db, sendSaved } = useField();
   const entryUnits = entryUnitsFor(ctx.project.unitSystem);
@@ -130,9 +134,17 @@ export function RecordForm({
     () => sets.filter((s) => s && calibrationFor(ctx.calibrations, s.id, today).expired).map((s) => s!.id),
     [sets, ctx.calibrations, today],
   );
+  const concreteUnconfirmed = concreteGate !== null;
   const schema = useMemo(
-    () => recordFormSchema({ units: entryUnits, expiredSetIds, ends, correction: Boolean(correcting) }),
-    [entryUnits, expiredSetIds, ends, correcting],
+    () =>
+      recordFormSchema({
+        units: entryUnits,
+        expiredSetIds,
+        ends,
+        correction: Boolean(correcting),
+        concreteUnconfirmed,
+      }),
+    [entryUnits, expiredSetIds, ends, correcting, concreteUnconfirmed],
   );
   const defaults = useMemo<RecordFormValues>(
     () =>
@@ -191,6 +203,7 @@ export function RecordForm({
         calibrationId: cal.calibration?.id ?? null,
         expired: cal.expired,
         twoEnds: ends.length === 2,
+        concreteUnconfirmed,
         authorUserId: session.userId,
         now: new Date(),
         timeZone: Intl.DateTimeFormat().resolvedOptions().timeZone || "UTC",
@@ -275,6 +288,29 @@ export function RecordForm({
           ? `Correct end ${correcting.tendonEnd} (revision ${correcting.revision + 1})`
           : `Record ${ctx.tendon.tag}`}
       </h3>
+
+      {concreteGate !== null && (
+        <div className="rounded-md border-2 border-signal-stop p-3" data-testid="concrete-go-ahead">
+          <p className="font-bold text-signal-stop">
+            <span aria-hidden="true">⚠ </span>Concrete not confirmed: {concreteGate}
+          </p>
+          <label htmlFor="concreteGoAhead" className="field-label mt-2">
+            Who confirmed the concrete on site, or why stressing goes ahead
+          </label>
+          <textarea
+            id="concreteGoAhead"
+            rows={2}
+            className="field-input py-2"
+            aria-invalid={Boolean(err.concreteGoAhead)}
+            {...register("concreteGoAhead")}
+            placeholder="e.g. inspector J. Ortiz read the field-cured cylinders at 3,100 psi"
+          />
+          <FieldError message={err.concreteGoAhead?.message} />
+          <p className="text-label text-ink-faint">
+            Kept on the record; the concrete flag quotes it to the engineer of record.
+          </p>
+        </div>
+      )}
 
       {correcting && (
         <div>

@@ -74,6 +74,11 @@ export function RecordsTable({
                   )}
                   {r.wire_breaks > 0 && <span className="block font-bold">{r.wire_breaks} wire break(s)</span>}
                   {r.remarks && <span className="block">{r.remarks}</span>}
+                  {r.concrete_go_ahead && (
+                    <span className="block" data-testid="concrete-go-ahead-reason">
+                      <strong>Concrete unconfirmed, crew:</strong> {r.concrete_go_ahead}
+                    </span>
+                  )}
                   {photos.map((p, i) => (
                     <a key={p.id} href={`/api/projects/${c.basis.project.id}/attachments/${p.id}`} className="block">
                       Photo {i + 1}

@@ -21,6 +21,7 @@ import * as calibrationRetirement from "./2026-12-10T150100-calibration-retireme
 import * as allFlagKinds from "./2026-12-10T160000-all-flag-kinds";
 import * as liftoffChecks from "./2026-12-10T170000-liftoff-checks";
 import * as setDrawIn from "./2026-12-10T170100-set-draw-in";
+import * as recordConcreteGoAhead from "./2026-12-10T171300-record-concrete-go-ahead";
 import * as oneOpenConcreteFlag from "./2026-12-11T090000-one-open-concrete-flag";
 import * as memberWireLedger from "./2026-12-11T100000-member-wire-ledger";
 
@@ -49,6 +50,7 @@ export const migrations: Record<string, Migration> = {
   "2026-12-10T160000-all-flag-kinds": allFlagKinds,
   "2026-12-10T170000-liftoff-checks": liftoffChecks,
   "2026-12-10T170100-set-draw-in": setDrawIn,
+  "2026-12-10T171300-record-concrete-go-ahead": recordConcreteGoAhead,
   "2026-12-11T090000-one-open-concrete-flag": oneOpenConcreteFlag,
   "2026-12-11T100000-member-wire-ledger": memberWireLedger,
 };

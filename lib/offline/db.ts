@@ -2,6 +2,7 @@ import Dexie, { type DexieOptions, type Table } from "dexie";
 import type { RecordPayload } from "@/lib/schemas/record";
 import type { LiftoffPayload } from "@/lib/schemas/liftoff";
 import type { TailCutPayload } from "@/lib/schemas/tail-cut";
+import type { DecisionNotice } from "./decision-notices";
 import type {
   FieldCalibration,
   FieldEquipmentSet,
@@ -98,6 +99,15 @@ export interface LocalLiftoffCheck
   syncState: "pending" | "synced" | "conflict" | "rejected";
 }
 
+/** A change a sync brought (lib/offline/decision-notices.ts), kept until the crew acknowledges it. */
+export interface LocalNotice extends DecisionNotice {
+  /** When the pull that brought it was taken in. */
+  arrivedAt: string;
+  acknowledgedAt: string | null;
+  /** Who acknowledged it on this tablet. */
+  acknowledgedBy: string | null;
+}
+
 export interface LocalPour extends FieldPour {
   downloadedAt: string;
   /** The server's cursor this pour was last pulled at. */
@@ -159,6 +169,7 @@ export class FieldDb extends Dexie {
   photos!: Table<LocalPhoto, string>;
   tailCuts!: Table<LocalTailCut, string>;
   liftoffChecks!: Table<LocalLiftoffCheck, string>;
+  notices!: Table<LocalNotice, string>;
 
   constructor(name = "tautline-field", options?: DexieOptions) {
     super(name, options);
@@ -177,7 +188,8 @@ export class FieldDb extends Dexie {
       photos: "id, recordId, state",
     });
     this.version(2).stores({ tailCuts: "tendonId, id, pourId" });
-    this.version(3).stores({ liftoffChecks: "id, tendonId, pourId" });
+    // Version 3 adds the lift-off checks and the notices a sync brings; every table of version 2 is kept.
+    this.version(3).stores({ liftoffChecks: "id, tendonId, pourId", notices: "id, pourId, arrivedAt" });
   }
 }
 

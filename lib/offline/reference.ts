@@ -1,10 +1,13 @@
 import type { PullResponse } from "@/lib/schemas/sync";
-import type { FieldDb, LocalRecord } from "./db";
+import type { FieldDb, LocalNotice, LocalRecord } from "./db";
+import { noticesFromPull } from "./decision-notices";
 
 /**
  * Takes a pull (or a pour download) into the tablet's database in one transaction. Rows are
  * stored by id, so a row the server sends twice changes nothing. A server record that this
- * tablet made is marked synced; records made elsewhere are kept as the server has them.
+ * tablet made is marked synced; records made elsewhere are kept as the server has them. What the
+ * pull changes on pours the tablet already held (a new flag, an engineer's decision, a release or
+ * a reopening) is kept as notices until the crew acknowledges them.
  */
 export async function applyPull(
   db: FieldDb,
@@ -23,8 +26,15 @@ export async function applyPull(
     db.flags,
     db.tailCuts,
     db.liftoffChecks,
+    db.notices,
   ];
   await db.transaction("rw", tables, async () => {
+    const arrivedAt = response.serverTime;
+    // What the tablet held before: every pour on it (a handful) and the flags the pull sends again.
+    const [pourRows, flagRows] = await Promise.all([
+      db.pours.toArray(),
+      db.flags.bulkGet(response.flags.map((f) => f.id)),
+    ]);
     await db.projects.bulkPut(response.projects);
     for (const pour of response.pours) {
       const existing = await db.pours.get(pour.id);
@@ -40,6 +50,24 @@ export async function applyPull(
       else await db.pours.update(id, { cursor: response.cursor });
     }
     await db.tendons.bulkPut(response.tendons);
+    const tendonIds = [...new Set(response.flags.map((f) => f.tendonId))];
+    const tendonRows = await db.tendons.bulkGet(tendonIds);
+    const notices = noticesFromPull({
+      before: {
+        pours: new Map(pourRows.flatMap((p) => (p.unavailable ? [] : [[p.id, p] as const]))),
+        flags: new Map(flagRows.flatMap((f) => (f ? [[f.id, f] as const] : []))),
+      },
+      arrived: { pours: response.pours, flags: response.flags },
+      tendons: new Map(tendonRows.flatMap((t) => (t ? [[t.id, t] as const] : []))),
+    });
+    if (notices.length) {
+      // A notice already kept (acknowledged or not) is left as it is.
+      const kept = new Set((await db.notices.bulkGet(notices.map((n) => n.id))).flatMap((n) => (n ? [n.id] : [])));
+      const fresh = new Map(notices.filter((n) => !kept.has(n.id)).map((n) => [n.id, n]));
+      await db.notices.bulkAdd(
+        [...fresh.values()].map((n): LocalNotice => ({ ...n, arrivedAt, acknowledgedAt: null, acknowledgedBy: null })),
+      );
+    }
     await db.strandLots.bulkPut(response.strandLots);
     await db.equipmentSets.bulkPut(response.equipmentSets);
     await db.calibrations.bulkPut(response.calibrations);

@@ -1,5 +1,12 @@
 import { describe, expect, it } from "vitest";
-import { deriveFromEntered, EMPTY_RECORD_FORM, recordFormSchema, type Entered } from "./record";
+import {
+  deriveFromEntered,
+  EMPTY_RECORD_FORM,
+  payloadFromForm,
+  recordFormSchema,
+  recordPayloadSchema,
+  type Entered,
+} from "./record";
 
 // Conversion factors are exact by definition: 1 in = 25.4 mm (NIST SP 811, B.8);
 // 1 psi = 6.894 757 kPa (NIST SP 811, B.8, to seven figures).
@@ -83,5 +90,67 @@ describe("recordFormSchema", () => {
     expect(result.success).toBe(false);
     const paths = result.error!.issues.map((i) => i.path.join("."));
     expect(paths.sort()).toEqual(["expiredCalibrationReason", "revisionReason", "strokes.1.value", "tendonEnd"]);
+  });
+
+  it("wants a reason to go ahead while the pour's concrete is not confirmed, and only then", () => {
+    const form = {
+      ...EMPTY_RECORD_FORM,
+      equipmentSetId: "set-new",
+      finalPressure: "4200",
+      marksBefore: "0",
+      marksAfter: "4 1/2",
+    };
+    const gated = recordFormSchema({ ...context, concreteUnconfirmed: true });
+    const refused = gated.safeParse(form);
+    expect(refused.success).toBe(false);
+    expect(refused.error!.issues).toEqual([
+      expect.objectContaining({
+        path: ["concreteGoAhead"],
+        message: expect.stringMatching(/who confirmed it on site/),
+      }),
+    ]);
+    expect(gated.safeParse({ ...form, concreteGoAhead: "Inspector read the cylinders at 3,200 psi." }).success).toBe(
+      true,
+    );
+    expect(recordFormSchema(context).safeParse(form).success).toBe(true);
+  });
+});
+
+describe("the reason to go ahead before the concrete is confirmed, in the payload", () => {
+  const form = {
+    ...EMPTY_RECORD_FORM,
+    equipmentSetId: "0190a0b0-0000-7000-8000-0000000000dd",
+    finalPressure: "4200",
+    marksBefore: "0",
+    marksAfter: "4 1/2",
+    concreteGoAhead: "Inspector read the cylinders at 3,200 psi.",
+  };
+  const ctx = {
+    units: US,
+    projectId: "0190a0b0-0000-7000-8000-0000000000aa",
+    pourId: "0190a0b0-0000-7000-8000-0000000000bb",
+    tendonId: "0190a0b0-0000-7000-8000-0000000000cc",
+    chainId: "0190a0b0-0000-7000-8000-0000000000ee",
+    revision: 1,
+    baseRecordId: null,
+    calibrationId: null,
+    expired: false,
+    authorUserId: "0190a0b0-0000-7000-8000-000000000001",
+    now: new Date("2026-12-02T15:30:00Z"),
+    timeZone: "UTC",
+  };
+
+  it("travels with the record only while the gate is not met, and the server's schema reads it", () => {
+    const gated = payloadFromForm(form, { ...ctx, concreteUnconfirmed: true });
+    expect(gated.concreteGoAhead).toBe("Inspector read the cylinders at 3,200 psi.");
+    expect(recordPayloadSchema.safeParse(gated).success).toBe(true);
+    expect(payloadFromForm(form, ctx)).not.toHaveProperty("concreteGoAhead");
+  });
+
+  it("is refused when too short, naming the field", () => {
+    const short = { ...payloadFromForm(form, { ...ctx, concreteUnconfirmed: true }), concreteGoAhead: "ok" };
+    const result = recordPayloadSchema.safeParse(short);
+    expect(result.success).toBe(false);
+    expect(result.error!.issues.map((i) => i.path.join("."))).toEqual(["concreteGoAhead"]);
   });
 });

@@ -157,6 +157,8 @@ export interface RecordFormContext {
   ends: readonly ("A" | "B")[];
   /** A correction of a record already saved: a reason is required. */
   correction: boolean;
+  /** The pour's concrete strength is not confirmed (the concrete gate): a reason to go ahead is required. */
+  concreteUnconfirmed?: boolean;
 }
 
 export const recordFormShape = z.object({
@@ -178,6 +180,7 @@ export const recordFormShape = z.object({
     .regex(/^\d{0,2}$/, "Type the number of broken wires as a whole number (0 if none)."),
   remarks: text().trim().max(2000, "Keep the remarks under 2000 characters."),
   revisionReason: text().trim().max(500, "Keep the reason under 500 characters."),
+  concreteGoAhead: text().trim().max(500, "Keep the reason under 500 characters."),
 });
 export type RecordFormValues = z.infer<typeof recordFormShape>;
 
@@ -197,6 +200,7 @@ export const EMPTY_RECORD_FORM: RecordFormValues = {
   wireBreaks: "0",
   remarks: "",
   revisionReason: "",
+  concreteGoAhead: "",
 };
 
 export function enteredFromForm(values: RecordFormValues, units: EntryUnits): Entered {
@@ -236,6 +240,13 @@ export function recordFormSchema(context: RecordFormContext) {
     }
     if (!values.finalPressure)
       ctx.addIssue({ code: "custom", path: ["finalPressure"], message: "Type the final gauge pressure." });
+    if (context.concreteUnconfirmed && values.concreteGoAhead.length < 3) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["concreteGoAhead"],
+        message: "The concrete strength is not confirmed: say who confirmed it on site, or why stressing goes ahead.",
+      });
+    }
     if (context.correction && values.revisionReason.length < 3) {
       ctx.addIssue({ code: "custom", path: ["revisionReason"], message: "Say why this record is corrected." });
     }
@@ -270,6 +281,13 @@ export const recordPayloadSchema = z
     equipmentSetId: uuid("equipment set"),
     calibrationId: uuid("calibration").nullable(),
     expiredCalibrationReason: optionalText(500, "reason for using an expired set"),
+    /** Absent from tablets that predate the concrete gate's question. */
+    concreteGoAhead: text()
+      .trim()
+      .min(3, "Say in a few words why stressing goes ahead before the concrete is confirmed.")
+      .max(500, "Keep the reason to stress before the concrete is confirmed under 500 characters.")
+      .nullable()
+      .optional(),
     initialPressureMPa: z.number().finite().nonnegative("The initial pressure cannot be negative.").nullable(),
     finalPressureMPa: z.number().finite().positive("The final pressure must be above zero."),
     readingMethod: z.enum(READING_METHODS, { error: "The reading method must be marks or strokes." }),
@@ -366,6 +384,8 @@ export function payloadFromForm(
     expired: boolean;
     /** The tendon is stressed at both ends: the order is recorded. */
     twoEnds?: boolean;
+    /** The concrete gate is not met: the crew's reason to go ahead travels with the record. */
+    concreteUnconfirmed?: boolean;
     authorUserId: string;
     now: Date;
     timeZone: string;
@@ -399,5 +419,6 @@ export function payloadFromForm(
     deviceTime: context.now.toISOString(),
     deviceTimeZone: context.timeZone,
     authorUserId: context.authorUserId,
+    ...(context.concreteUnconfirmed ? { concreteGoAhead: values.concreteGoAhead } : {}),
   };
 }

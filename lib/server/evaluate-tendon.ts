@@ -61,6 +61,7 @@ const EVALUATED_RECORD_COLUMNS = [
   "equipment_set_id",
   "calibration_id",
   "expired_calibration_reason",
+  "concrete_go_ahead",
   "initial_pressure_mpa",
   "final_pressure_mpa",
   "measured_mm",
@@ -83,6 +84,8 @@ export interface EvaluatedRecord {
   equipment_set_id: string;
   calibration_id: string | null;
   expired_calibration_reason: string | null;
+  /** The crew's reason to stress before the concrete was confirmed; absent where the record has none to give. */
+  concrete_go_ahead?: string | null;
   initial_pressure_mpa: number | null;
   final_pressure_mpa: number;
   measured_mm: number;
@@ -378,6 +381,7 @@ export function judgeInputFromState(state: TendonState): JudgeInput {
     equipmentSetId: r.equipment_set_id,
     calibrationId: r.calibration_id,
     expiredCalibrationReason: r.expired_calibration_reason,
+    concreteGoAhead: r.concrete_go_ahead ?? null,
     readingMethod: r.reading_method,
     initialPressureMPa: r.initial_pressure_mpa,
     finalPressureMPa: r.final_pressure_mpa,

@@ -37,6 +37,7 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
         "records.seating_mm",
         "records.wire_breaks",
         "records.remarks",
+        "records.concrete_go_ahead",
         "records.device_time",
         "records.device_time_zone",
         "records.received_at",

@@ -94,6 +94,8 @@ export interface JudgeRecord {
   equipmentSetId: string;
   calibrationId: string | null;
   expiredCalibrationReason: string | null;
+  /** The crew's reason to stress while the pour's concrete strength was not confirmed. */
+  concreteGoAhead?: string | null;
   readingMethod: ReadingMethod;
   initialPressureMPa: number | null;
   finalPressureMPa: number;

@@ -8,6 +8,8 @@ import { screenshot } from "./support";
 /** The field log's e2e steps, shared by the specs that drive the tablet. */
 
 export const POUR = "L3 Pour 1";
+/** What the crew says to stress L3 Pour 1, whose concrete strength the lab has not confirmed (demo data). */
+export const CONCRETE_GO_AHEAD = "Inspector read the field-cured cylinders on site at 3,200 psi this morning.";
 
 export interface Plan {
   pourId: string;
@@ -83,6 +85,9 @@ export async function logTendon(
       .setInputFiles({ name: "gauge.png", mimeType: "image/png", buffer: GAUGE_PHOTO });
     await expect(page.getByRole("img", { name: "Photo to keep with this record" })).toHaveCount(1);
   }
+  // The demo's L3 Pour 1 has no confirmed concrete strength: the form asks why stressing goes ahead.
+  await expect(page.getByTestId("concrete-go-ahead")).toContainText("Concrete not confirmed");
+  await page.getByLabel(/Who confirmed the concrete on site/).fill(CONCRETE_GO_AHEAD);
   if (shot) await shoot(page, shot);
   await page.getByRole("button", { name: "Save record" }).click();
   await expect(page.getByTestId("verdict").locator("[data-verdict]").first()).toContainText(t.verdict);

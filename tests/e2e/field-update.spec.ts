@@ -1,7 +1,7 @@
 import { readFileSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { expect, test, type Page } from "@playwright/test";
-import { POUR, plan, shoot } from "./field-steps";
+import { CONCRETE_GO_AHEAD, POUR, plan, shoot } from "./field-steps";
 import { PEOPLE, signInWithPassword } from "./people";
 
 /**
@@ -79,6 +79,7 @@ test("an update waits for a dirty form and an unsent record, then takes over whe
   await page.getByRole("radio", { name: /Set A/ }).check();
   await page.getByLabel(/Mark before/).fill("0");
   await page.getByLabel(/Mark after/).fill(t.after);
+  await page.getByLabel(/Who confirmed the concrete on site/).fill(CONCRETE_GO_AHEAD);
   await page.getByRole("button", { name: "Save record" }).click();
   await expect(page.getByTestId("end-A").getByTestId("sync-state")).toHaveText("waiting to send");
   await expect(page.getByTestId("pending-count")).toContainText("1 record");

@@ -1,6 +1,6 @@
 import { expect, test } from "@playwright/test";
 import pg from "pg";
-import { POUR, logTendon, plan, shoot } from "./field-steps";
+import { CONCRETE_GO_AHEAD, POUR, logTendon, plan, shoot } from "./field-steps";
 import { PEOPLE, signInWithPassword } from "./people";
 
 /**
@@ -90,6 +90,16 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
       [p.tendons.map((t) => t.id)],
     );
     expect(ops.rows[0]!.n).toBe(3);
+    // The crew's reason to stress before the concrete was confirmed is kept on every record.
+    const goAhead = await client.query<{ concrete_go_ahead: string | null }>(
+      "select concrete_go_ahead from records where tendon_id = any($1::uuid[])",
+      [p.tendons.map((t) => t.id)],
+    );
+    expect(goAhead.rows.map((r) => r.concrete_go_ahead)).toEqual([
+      CONCRETE_GO_AHEAD,
+      CONCRETE_GO_AHEAD,
+      CONCRETE_GO_AHEAD,
+    ]);
     // The gauge photo follows its record: uploaded, checked by content and stored once.
     await expect
       .poll(

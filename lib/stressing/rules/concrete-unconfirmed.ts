@@ -4,19 +4,26 @@ import type { Rule } from "./types";
  * Stressed before the pour's concrete strength reached what the project requires. One flag per
  * pour, not per tendon: while the pour has an open concrete flag (raised by any of its tendons),
  * no other tendon raises another; results that confirm the strength close it
- * (lib/server/add-concrete-result.ts).
+ * (lib/server/add-concrete-result.ts). The flag quotes the crew's reason to go ahead, as the
+ * tablet asked for it with the record, or says that none came.
  */
 export const concreteUnconfirmed: Rule = ({ input, judgement }) => {
   const required = input.project.requiredConcreteMpa ?? null;
   if (!judgement.ends.length || required === null || !input.pour || input.pour.concreteFlagOpen) return null;
   const strength = input.pour.concreteStrengthMpa;
   if (strength !== null && strength >= required) return null;
+  const goAhead = [
+    ...new Set(judgement.ends.flatMap((e) => (e.record.concreteGoAhead ? [e.record.concreteGoAhead] : []))),
+  ];
+  const crew = goAhead.length
+    ? ` Crew's reason to go ahead: ${goAhead.join(" / ")}`
+    : " No reason to go ahead came with the record.";
   return {
     kind: "concrete_unconfirmed",
     reason:
-      strength === null
+      (strength === null
         ? `Stressed before the pour's concrete strength (${required} MPa required) was confirmed.`
-        : `Confirmed concrete strength ${strength} MPa is below the ${required} MPa required before stressing.`,
+        : `Confirmed concrete strength ${strength} MPa is below the ${required} MPa required before stressing.`) + crew,
     recordId: judgement.ends[0]!.record.id,
   };
 };

@@ -210,7 +210,17 @@ const cases: Record<RuleKind, Case[]> = {
       name: "not confirmed",
       change: (i) => ({ ...i, pour: { concreteStrengthMpa: null }, records: [rec({ measuredMm: P })] }),
       raised: true,
-      reason: /before the pour's concrete strength/,
+      reason: /before the pour's concrete strength.*No reason to go ahead came with the record\./,
+    },
+    {
+      name: "not confirmed, with the crew's reason to go ahead",
+      change: (i) => ({
+        ...i,
+        pour: { concreteStrengthMpa: null },
+        records: [rec({ measuredMm: P, concreteGoAhead: "Inspector read the cylinders on site." })],
+      }),
+      raised: true,
+      reason: /was confirmed\. Crew's reason to go ahead: Inspector read the cylinders on site\.$/,
     },
     {
       name: "below",

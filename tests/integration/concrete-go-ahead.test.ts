@@ -1,0 +1,86 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { createDb, type Db } from "@/db/connect";
+import type { SyncOp } from "@/lib/schemas/sync";
+import { pushOps } from "@/lib/server/push-ops";
+import { createTestDatabase, type TestDatabase } from "../support/database";
+import { buildWorld, createOp, type SyncWorld } from "./sync-fixtures";
+
+// The crew's reason to stress a pour whose concrete strength is not confirmed, on real
+// PostgreSQL: it travels with the record, is kept on it, and the pour's one concrete flag quotes
+// it to the engineer. The demo project requires 20.7 MPa; the pour's confirmed strength is
+// cleared here so the gate is not met.
+
+let t: TestDatabase;
+let w: SyncWorld;
+let app: Db;
+const REASON = "Inspector read the field-cured cylinders on site at 3,200 psi.";
+
+beforeAll(async () => {
+  t = await createTestDatabase({ migrate: true });
+  w = await buildWorld(t.db);
+  app = createDb(t.url, 3, { prepare: true });
+  await t.db
+    .updateTable("pours")
+    .set({ concrete_strength_mpa: null, concrete_confirmed_at: null })
+    .where("id", "=", w.pourId)
+    .execute();
+  await t.db.deleteFrom("flags").where("pour_id", "=", w.pourId).where("kind", "=", "concrete_unconfirmed").execute();
+});
+afterAll(async () => {
+  await app.destroy();
+  await t.drop();
+});
+
+const push = (ops: SyncOp[]) => pushOps(app, { user: w.crew, deviceId: "tablet-go-ahead", ops });
+const recordRow = (id: string) =>
+  t.db.selectFrom("records").select(["concrete_go_ahead"]).where("id", "=", id).executeTakeFirst();
+const concreteFlags = () =>
+  t.db
+    .selectFrom("flags")
+    .select(["reason", "record_id", "status"])
+    .where("pour_id", "=", w.pourId)
+    .where("kind", "=", "concrete_unconfirmed")
+    .execute();
+
+describe("the reason to go ahead before the concrete is confirmed", () => {
+  it("refuses a reason too short to say anything, naming the field, and writes nothing", async () => {
+    const op = createOp(w, w.tendons[0]!.id, {}, { concreteGoAhead: "ok" });
+    const [answer] = (await push([op])).results;
+    expect(answer).toMatchObject({ status: "rejected", error: { code: "INVALID_INPUT" } });
+    expect(Object.keys(answer!.error!.fields!)).toEqual(["concreteGoAhead"]);
+    expect(await recordRow(op.recordId)).toBeUndefined();
+    expect(await concreteFlags()).toEqual([]);
+  });
+
+  it("is kept on the record and quoted on the pour's concrete flag", async () => {
+    const op = createOp(w, w.tendons[0]!.id, {}, { concreteGoAhead: REASON });
+    expect((await push([op])).results[0]).toMatchObject({ status: "applied" });
+    expect(await recordRow(op.recordId)).toEqual({ concrete_go_ahead: REASON });
+    const [flag, ...others] = await concreteFlags();
+    expect(others).toEqual([]);
+    expect(flag).toMatchObject({ record_id: op.recordId, status: "open" });
+    expect(flag!.reason).toMatch(/was confirmed\./);
+    expect(flag!.reason).toContain(`Crew's reason to go ahead: ${REASON}`);
+  });
+
+  it("takes a record from a tablet that did not ask (kept without a reason), and raises no second flag", async () => {
+    const op = createOp(w, w.tendons[1]!.id);
+    expect(op.payload).not.toHaveProperty("concreteGoAhead");
+    expect((await push([op])).results[0]).toMatchObject({ status: "applied" });
+    expect(await recordRow(op.recordId)).toEqual({ concrete_go_ahead: null });
+    expect(await concreteFlags()).toHaveLength(1);
+  });
+
+  it("says on the flag when no reason came with the record that raised it", async () => {
+    await t.db
+      .updateTable("flags")
+      .set({ status: "closed", closed_at: new Date() })
+      .where("pour_id", "=", w.pourId)
+      .execute();
+    const op = createOp(w, w.tendons[2]!.id);
+    expect((await push([op])).results[0]).toMatchObject({ status: "applied" });
+    const open = (await concreteFlags()).filter((f) => f.status === "open");
+    expect(open).toHaveLength(1);
+    expect(open[0]!.reason).toMatch(/No reason to go ahead came with the record\.$/);
+  });
+});
