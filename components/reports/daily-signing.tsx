@@ -151,7 +151,9 @@ export function DailySigning({
             <FieldError id="daily-sign-statement-error" messages={fields.statement} />
           </div>
           <button type="submit" className="btn-primary" disabled={busy}>
-            {busy ? "Signing…" : `Sign revision ${(last?.revision ?? 0) + 1} of ${day}`}
+            {busy
+              ? "Signing…"
+              : `Sign revision ${(last?.revision ?? 0) + 1} of ${day}${current.signed ? " with changed remarks" : ""}`}
           </button>
         </form>
       ) : (

@@ -33,10 +33,16 @@ export const dailyTime = (report: Pick<DailyReport, "timeZone">, d: Date) => for
 
 const status = (s: string) => (s === "with_engineer" ? "with the engineer" : s);
 
+/** A pour's records of the day in the pour report's order (tendon by tendon, each end in order). */
+function pourDayRecords(p: DailyPour): PourRecord[] {
+  const tendons = p.report.tendons.filter((t) => p.records.some((r) => r.tendonId === t.tendonId));
+  return tendons.flatMap((t) => p.records.filter((r) => r.tendonId === t.tendonId));
+}
+
 /** One row per stressing recorded that day, pour by pour, in the pour report's order. */
 function pourDayRows(p: DailyPour): string[][] {
-  const tendons = p.report.tendons.filter((t) => p.records.some((r) => r.tendonId === t.tendonId));
-  const ordered = tendons.flatMap((t) => p.records.filter((r) => r.tendonId === t.tendonId));
+  const ordered = pourDayRecords(p);
+  const tendons = p.report.tendons.filter((t) => ordered.some((r) => r.tendonId === t.tendonId));
   // The pour report's rows for just this day's records and flags.
   const rows = recordRows({ ...p.report, tendons, records: ordered, flags: p.flagsRaised });
   return rows.map((row, i) => [p.report.pour.name, METHOD_WORDS[ordered[i]!.method], ...row]);
@@ -44,6 +50,11 @@ function pourDayRows(p: DailyPour): string[][] {
 
 export function dailyRecordRows(report: DailyReport): string[][] {
   return report.pours.flatMap(pourDayRows);
+}
+
+/** The records behind dailyRecordRows, row for row (the screen draws each verdict from its record). */
+export function dailyRecordsInOrder(report: DailyReport): PourRecord[] {
+  return report.pours.flatMap(pourDayRecords);
 }
 
 export function dailySummary(report: DailyReport): string {

@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { DailySigning } from "@/components/reports/daily-signing";
 import { Caution } from "@/components/ui/caution";
+import { VerdictBadge } from "@/components/ui/verdict-badge";
 import { db } from "@/db";
 import { can } from "@/lib/auth/permissions";
 import { dayInZone, formatDateTime, shiftDay } from "@/lib/format/dates";
@@ -11,6 +12,7 @@ import {
   dailyEquipmentLines,
   dailyFlagLines,
   dailyRecordRows,
+  dailyRecordsInOrder,
   dailySummary,
   dailyTailCutLines,
   type DailyRecordColumn,
@@ -35,9 +37,10 @@ const SCREEN_COLUMNS: DailyRecordColumn[] = [
   "Final pressure",
   "Measured",
   "Predicted (Tautline)",
-  "Deviation",
   "Verdict",
 ];
+/** Short figures that read badly when wrapped. */
+const NO_WRAP = new Set<DailyRecordColumn>(["Final pressure", "Measured", "Predicted (Tautline)", "Stressing"]);
 
 function List({ id, title, items, empty }: { id: string; title: string; items: string[]; empty: string }) {
   return (
@@ -76,6 +79,7 @@ export default async function DailyReportPage({
   const view = day ? await listDailyRevisions(db, { projectId, day }) : null;
   const api = day ? `/api/projects/${projectId}/daily-reports/${day}` : "";
   const columnIndex = (c: DailyRecordColumn) => DAILY_RECORD_COLUMNS.indexOf(c);
+  const records = view ? dailyRecordsInOrder(view.report) : [];
 
   return (
     <main className="space-y-8">
@@ -158,21 +162,45 @@ export default async function DailyReportPage({
                     <tr className="border-b-2 border-ink">
                       {SCREEN_COLUMNS.map((c) => (
                         <th key={c} scope="col" className="px-2 py-2 text-label font-bold uppercase">
-                          {c === "Predicted (Tautline)" ? "Predicted" : c === "Final pressure" ? "Gauge" : c}
+                          {c === "Predicted (Tautline)"
+                            ? "Predicted"
+                            : c === "Final pressure"
+                              ? "Gauge"
+                              : c === "Verdict"
+                                ? "Verdict, deviation"
+                                : c}
                         </th>
                       ))}
                     </tr>
                   </thead>
                   <tbody>
-                    {dailyRecordRows(view.report).map((row) => (
-                      <tr key={row.join("|")} className="border-b border-concrete-300">
-                        {SCREEN_COLUMNS.map((c) => (
-                          <td key={c} className="px-2 py-2 align-top">
-                            {row[columnIndex(c)]}
-                          </td>
-                        ))}
-                      </tr>
-                    ))}
+                    {dailyRecordRows(view.report).map((row, i) => {
+                      const evaluation = records[i]?.evaluation;
+                      return (
+                        <tr key={row.join("|")} className="border-b border-concrete-300">
+                          {SCREEN_COLUMNS.map((c) => (
+                            <td key={c} className={`px-2 py-2 align-top ${NO_WRAP.has(c) ? "whitespace-nowrap" : ""}`}>
+                              {c === "Verdict" && evaluation ? (
+                                <>
+                                  <VerdictBadge
+                                    verdict={evaluation.verdict}
+                                    deviationPct={evaluation.deviationPct}
+                                    provisional={evaluation.provisional}
+                                  />
+                                  {!evaluation.current && (
+                                    <span className="block text-label text-ink-soft">
+                                      superseded by a later stressing
+                                    </span>
+                                  )}
+                                </>
+                              ) : (
+                                row[columnIndex(c)]
+                              )}
+                            </td>
+                          ))}
+                        </tr>
+                      );
+                    })}
                   </tbody>
                 </table>
               </div>
