@@ -2,6 +2,7 @@ import { createHash } from "node:crypto";
 import { mkdirSync, writeFileSync } from "node:fs";
 import Papa from "papaparse";
 import { PDFParse } from "pdf-parse";
+import { uuidv7 } from "uuidv7";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { renderDailyCsv } from "@/lib/reports/daily-csv";
 import { renderDailyPdf } from "@/lib/reports/daily-pdf";
@@ -115,6 +116,20 @@ beforeAll(async () => {
       entered_at: "2026-11-18T21:00:00Z",
     })
     .execute();
+  // S-01's tails cut at 17:15 CST, held by its open flag (the reason as the server words it; invented here).
+  await t.db
+    .insertInto("tail_cuts")
+    .values({
+      id: uuidv7(),
+      project_id: fx.projectId,
+      pour_id: pourId,
+      tendon_id: tendons["S-01"]!.id,
+      cut_by: fx.crewId,
+      cut_at: "2026-11-18T23:15:00Z",
+      device_id: "test-device",
+      held_reasons: ["an open flag on the tendon"],
+    })
+    .execute();
 }, 120_000);
 afterAll(async () => {
   await t?.drop();
@@ -129,6 +144,7 @@ describe("the day's special-inspection report", () => {
     // The flags the evaluations raised were raised when the test ran, not on that day.
     expect(pour?.flagsRaised).toEqual([]);
     expect(report.concrete).toMatchObject([{ pourName: "Daily pour", ageDays: 3, specimenCount: 2 }]);
+    expect(report.tailCuts).toMatchObject([{ pourName: "Daily pour", tag: "S-01" }]);
     const next = await getDailyReport(t.db, { projectId: fx.projectId, day: "2026-11-19" });
     expect(next.pours.find((p) => p.report.pour.name === "Daily pour")?.records.map((r) => r.tag)).toEqual(["S-03"]);
 
@@ -139,6 +155,7 @@ describe("the day's special-inspection report", () => {
     expect(text).toContain("2026-11-18 19:30 CST");
     expect(text).toContain("final: 4200 psi");
     expect(text).toContain("3,500 psi at 3 days, 2 cylinders");
+    expect(text).toContain("Daily pour, S-01: tails cut by Luis Ferreira 2026-11-18 17:15 CST; the tendon was held: an open flag");
     expect(text).toContain("licensed engineer of record");
     expect(text).not.toMatch(/[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}/);
     expect(text).not.toMatch(/MPa|mm²|\d\.\d{6,}/);
