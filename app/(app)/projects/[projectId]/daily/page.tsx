@@ -40,7 +40,15 @@ const SCREEN_COLUMNS: DailyRecordColumn[] = [
   "Verdict",
 ];
 /** Short figures that read badly when wrapped. */
-const NO_WRAP = new Set<DailyRecordColumn>(["Final pressure", "Measured", "Predicted (Tautline)", "Stressing"]);
+const NO_WRAP = new Set<DailyRecordColumn>([
+  "Pour",
+  "Tendon",
+  "Stressing",
+  "Final pressure",
+  "Measured",
+  "Predicted (Tautline)",
+  "Verdict",
+]);
 
 function List({ id, title, items, empty }: { id: string; title: string; items: string[]; empty: string }) {
   return (
