@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { dayInZone, formatAge, formatDateTime, projectTimeZone } from "./dates";
+import { dayBounds, dayInZone, formatAge, formatDateTime, projectTimeZone, shiftDay } from "./dates";
 
 describe("dates in the project's zone", () => {
   it("an evening record in Chicago belongs to that day, not to the next UTC day", () => {
@@ -21,5 +21,25 @@ describe("dates in the project's zone", () => {
     expect(projectTimeZone({ timeZone: "Europe/Berlin" })).toBe("Europe/Berlin");
     expect(projectTimeZone({ time_zone: null })).toBe("UTC");
     expect(projectTimeZone({})).toBe("UTC");
+  });
+
+  it("spans a day in the project's zone, 23 or 25 hours across a clock change", () => {
+    // Chicago is UTC−6 in winter and UTC−5 in summer (IANA tz database); clocks went back on 2026-11-01.
+    const winter = dayBounds("2026-12-02", "America/Chicago");
+    expect(winter.start.toISOString()).toBe("2026-12-02T06:00:00.000Z");
+    expect(winter.end.toISOString()).toBe("2026-12-03T06:00:00.000Z");
+    const fallBack = dayBounds("2026-11-01", "America/Chicago");
+    expect(fallBack.start.toISOString()).toBe("2026-11-01T05:00:00.000Z");
+    expect((fallBack.end.getTime() - fallBack.start.getTime()) / 3_600_000).toBe(25);
+    // The evening record above falls inside its Chicago day, not inside the UTC day it is stamped with.
+    const evening = new Date("2026-12-03T00:30:00Z").getTime();
+    expect(evening >= winter.start.getTime() && evening < winter.end.getTime()).toBe(true);
+    expect(dayBounds("2026-12-03", "UTC").start.getTime()).toBeLessThanOrEqual(evening);
+  });
+
+  it("steps from one calendar day to the next and back, across months and years", () => {
+    expect(shiftDay("2026-12-31", 1)).toBe("2027-01-01");
+    expect(shiftDay("2026-03-01", -1)).toBe("2026-02-28");
+    expect(shiftDay("2026-11-01", 1)).toBe("2026-11-02");
   });
 });

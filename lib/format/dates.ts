@@ -1,5 +1,5 @@
 import { TZDate } from "@date-fns/tz";
-import { format, formatDistanceStrict } from "date-fns";
+import { addDays, format, formatDistanceStrict } from "date-fns";
 
 /**
  * The one way Tautline writes dates and times, always in the project's time zone (an IANA name such
@@ -55,4 +55,22 @@ export function latestDayAnywhere(now: Instant = Date.now()): string {
 export function projectTimeZone(project: { time_zone?: string | null; timeZone?: string | null }): string {
   const zone = project.time_zone ?? project.timeZone;
   return typeof zone === "string" && zone !== "" ? zone : "UTC";
+}
+
+/**
+ * The instants a calendar day ("2026-12-02") spans in a time zone: from its first moment to the
+ * first moment of the next day (exclusive), so a day of a daylight-saving change is 23 or 25 hours.
+ */
+export function dayBounds(day: string, timeZone: string): { start: Date; end: Date } {
+  const [y, m, d] = day.split("-").map(Number) as [number, number, number];
+  return {
+    start: new Date(new TZDate(y, m - 1, d, timeZone).getTime()),
+    end: new Date(new TZDate(y, m - 1, d + 1, timeZone).getTime()),
+  };
+}
+
+/** The calendar day `by` days after (or before, when negative) a day: "2026-12-02", -1 → "2026-12-01". */
+export function shiftDay(day: string, by: number): string {
+  const [y, m, d] = day.split("-").map(Number) as [number, number, number];
+  return format(addDays(new Date(y, m - 1, d), by), "yyyy-MM-dd");
 }

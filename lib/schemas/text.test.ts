@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { z } from "zod";
 import * as account from "./account";
 import * as calibration from "./calibration";
+import * as dailyReport from "./daily-report";
 import * as member from "./member";
 import * as pour from "./pour";
 import * as projectSettings from "./project-settings";
@@ -36,7 +37,7 @@ describe("the shared text schema", () => {
     return cur;
   };
   const fields: [string, z.ZodObject, string][] = [];
-  const modules = { account, calibration, member, pour, projectSettings, record, review, tendon, upload };
+  const modules = { account, calibration, dailyReport, member, pour, projectSettings, record, review, tendon, upload };
   for (const [mod, exports] of Object.entries(modules)) {
     for (const [name, value] of Object.entries(exports)) {
       if (!(value instanceof z.ZodType)) continue;

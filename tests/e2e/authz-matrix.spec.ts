@@ -301,6 +301,32 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
       },
       call: (c, id) => c.get(`/api/projects/${projectId}/pours/${id}/report/signatures/1`),
     },
+    "GET /api/projects/[projectId]/daily-reports/[day]/pdf": {
+      call: (c) => c.get(`/api/projects/${projectId}/daily-reports/2026-12-01/pdf`),
+    },
+    "GET /api/projects/[projectId]/daily-reports/[day]/csv": {
+      call: (c) => c.get(`/api/projects/${projectId}/daily-reports/2026-12-01/csv`),
+    },
+    "GET /api/projects/[projectId]/daily-reports/[day]/signatures": {
+      call: (c) => c.get(`/api/projects/${projectId}/daily-reports/2026-12-01/signatures`),
+    },
+    // Each inspector call signs new remarks, so it is always a new revision.
+    "POST /api/projects/[projectId]/daily-reports/[day]/signatures": {
+      call: (c) =>
+        c.post(`/api/projects/${projectId}/daily-reports/2001-01-01/signatures`, {
+          data: { ...SIGNATURE, remarks: `Matrix remarks ${stamp()}` },
+        }),
+    },
+    "GET /api/projects/[projectId]/daily-reports/[day]/signatures/[revision]": {
+      fixture: async () => {
+        const res = await contexts.inspector.post(`/api/projects/${projectId}/daily-reports/2001-01-02/signatures`, {
+          data: { ...SIGNATURE, remarks: `Matrix remarks ${stamp()}` },
+        });
+        expect(res.status()).toBe(201);
+        return String(((await res.json()) as { revision: number }).revision);
+      },
+      call: (c, revision) => c.get(`/api/projects/${projectId}/daily-reports/2001-01-02/signatures/${revision}`),
+    },
     "GET /api/projects/[projectId]/share-links": { call: (c) => c.get(`/api/projects/${projectId}/share-links`) },
     "POST /api/projects/[projectId]/share-links": {
       call: (c) =>

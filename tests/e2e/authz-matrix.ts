@@ -83,6 +83,20 @@ export const MATRIX: Record<string, Expected> = {
     "inspector",
     "engineer",
   ]),
+  // The day's special-inspection report: the inspector signs; the engineer and the admin read; crew may not.
+  "GET /api/projects/[projectId]/daily-reports/[day]/pdf": projectAction(200, ["admin", "inspector", "engineer"]),
+  "GET /api/projects/[projectId]/daily-reports/[day]/csv": projectAction(200, ["admin", "inspector", "engineer"]),
+  "GET /api/projects/[projectId]/daily-reports/[day]/signatures": projectAction(200, [
+    "admin",
+    "inspector",
+    "engineer",
+  ]),
+  "POST /api/projects/[projectId]/daily-reports/[day]/signatures": projectAction(201, ["inspector"]),
+  "GET /api/projects/[projectId]/daily-reports/[day]/signatures/[revision]": projectAction(200, [
+    "admin",
+    "inspector",
+    "engineer",
+  ]),
   "GET /api/projects/[projectId]/share-links": projectAction(200, ["admin", "inspector", "engineer"]),
   "POST /api/projects/[projectId]/share-links": projectAction(201, ["admin", "inspector", "engineer"]),
   // Revoking a link that does not exist: the roles allowed pass the access check and get 404.

@@ -5,7 +5,7 @@ import { FlagQueue } from "@/components/review/flag-queue";
 import { ReleaseList } from "@/components/review/release-list";
 import { Caution } from "@/components/ui/caution";
 import { db } from "@/db";
-import { ROLE_LABELS } from "@/lib/auth/permissions";
+import { can, ROLE_LABELS } from "@/lib/auth/permissions";
 import { getSessionUser } from "@/lib/auth/session";
 import { getHomeSummary } from "@/lib/server/get-home-summary";
 
@@ -70,6 +70,22 @@ export default async function HomePage() {
           ) : (
             <p className="card">No pour is planned for stressing today.</p>
           )}
+        </Section>
+      )}
+
+      {user.memberships.some((m) => can(m.role, "report.download")) && (
+        <Section id="daily-reports" title="Daily inspection reports">
+          <ul className="flex flex-wrap gap-2">
+            {user.memberships
+              .filter((m) => can(m.role, "report.download"))
+              .map((m) => (
+                <li key={m.projectId}>
+                  <Link href={`/projects/${m.projectId}/daily`} className="btn-quiet">
+                    {m.projectName}: {m.role === "inspector" ? "write and sign the day's report" : "the day's report"}
+                  </Link>
+                </li>
+              ))}
+          </ul>
         </Section>
       )}
 

@@ -1,0 +1,279 @@
+import Link from "next/link";
+import { DailySigning } from "@/components/reports/daily-signing";
+import { Caution } from "@/components/ui/caution";
+import { VerdictBadge } from "@/components/ui/verdict-badge";
+import { db } from "@/db";
+import { can } from "@/lib/auth/permissions";
+import { dayInZone, formatDateTime, shiftDay } from "@/lib/format/dates";
+import {
+  DAILY_RECORD_COLUMNS,
+  dailyConcreteLines,
+  dailyDispositionLines,
+  dailyEquipmentLines,
+  dailyFlagLines,
+  dailyRecordRows,
+  dailyRecordsInOrder,
+  dailySummary,
+  dailyTailCutLines,
+  type DailyRecordColumn,
+} from "@/lib/reports/daily-rows";
+import { DEFAULT_DAILY_STATEMENT, reportDaySchema } from "@/lib/schemas/daily-report";
+import { getProjectTimeZone } from "@/lib/server/get-project-time-zone";
+import { listDailyRevisions } from "@/lib/server/list-daily-revisions";
+import { pageAccess } from "../page-access";
+
+export const metadata = { title: "Daily inspection report" };
+export const dynamic = "force-dynamic";
+
+/** The columns the screen shows of each stressing; the PDF and CSV carry every column. */
+const SCREEN_COLUMNS: DailyRecordColumn[] = [
+  "Pour",
+  "Tendon",
+  "End",
+  "Stressing",
+  "Stressed",
+  "Operator",
+  "Method",
+  "Final pressure",
+  "Measured",
+  "Predicted (Tautline)",
+  "Verdict",
+];
+/** Short figures that read badly when wrapped. */
+const NO_WRAP = new Set<DailyRecordColumn>([
+  "Pour",
+  "Tendon",
+  "Stressing",
+  "Final pressure",
+  "Measured",
+  "Predicted (Tautline)",
+  "Verdict",
+]);
+
+function List({ id, title, items, empty }: { id: string; title: string; items: string[]; empty: string }) {
+  return (
+    <section aria-labelledby={id} className="space-y-2">
+      <h2 id={id} className="text-lead font-bold">
+        {title}
+      </h2>
+      {items.length ? (
+        <ul className="list-disc space-y-1 pl-6">
+          {items.map((item) => (
+            <li key={item}>{item}</li>
+          ))}
+        </ul>
+      ) : (
+        <p className="text-ink-soft">{empty}</p>
+      )}
+    </section>
+  );
+}
+
+export default async function DailyReportPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ projectId: string }>;
+  searchParams: Promise<{ day?: string | string[] }>;
+}) {
+  const { projectId } = await params;
+  const access = await pageAccess("report.download", projectId);
+  const timeZone = await getProjectTimeZone(db, projectId);
+  const today = dayInZone(new Date(), timeZone);
+  const asked = (await searchParams).day;
+  const typed = typeof asked === "string" && asked !== "" ? asked : today;
+  const parsed = reportDaySchema.safeParse(typed);
+  const day = parsed.success ? parsed.data : null;
+  const view = day ? await listDailyRevisions(db, { projectId, day }) : null;
+  const api = day ? `/api/projects/${projectId}/daily-reports/${day}` : "";
+  const columnIndex = (c: DailyRecordColumn) => DAILY_RECORD_COLUMNS.indexOf(c);
+  const records = view ? dailyRecordsInOrder(view.report) : [];
+
+  return (
+    <main className="space-y-8">
+      <header className="flex flex-wrap items-end justify-between gap-4">
+        <div>
+          <p className="text-label uppercase text-ink-faint">{access.projectName}</p>
+          <h1 className="text-figure font-bold">Daily special-inspection report{day ? `: ${day}` : ""}</h1>
+          <p className="mt-1 text-ink-soft">
+            What was recorded on the project that day, in the project&apos;s time zone ({timeZone}). The inspector
+            writes the remarks and signs.
+          </p>
+        </div>
+        {view && (
+          <div className="flex flex-wrap gap-2">
+            <a className="btn-primary" href={`${api}/pdf`} download>
+              Day&apos;s report (PDF)
+            </a>
+            <a className="btn-quiet" href={`${api}/csv`} download>
+              Day as CSV
+            </a>
+          </div>
+        )}
+      </header>
+
+      <form method="get" className="flex flex-wrap items-end gap-3" aria-label="Pick the day">
+        <div>
+          <label htmlFor="report-day" className="field-label">
+            Day
+          </label>
+          <input
+            id="report-day"
+            name="day"
+            type="date"
+            defaultValue={day ?? typed}
+            max={today}
+            className="field-input mt-1"
+            aria-describedby={day ? undefined : "report-day-error"}
+          />
+        </div>
+        <button type="submit" className="btn-primary">
+          Show the day
+        </button>
+        {day && (
+          <>
+            <Link className="btn-quiet" href={`?day=${shiftDay(day, -1)}`}>
+              Day before
+            </Link>
+            {day < today && (
+              <Link className="btn-quiet" href={`?day=${shiftDay(day, 1)}`}>
+                Day after
+              </Link>
+            )}
+          </>
+        )}
+      </form>
+      {!parsed.success && (
+        <p id="report-day-error" role="alert" className="font-semibold text-signal-stop">
+          Day: {parsed.error.issues[0]?.message ?? "Give the day as YYYY-MM-DD."}
+        </p>
+      )}
+
+      {view && day && (
+        <>
+          <Caution />
+          <section aria-labelledby="daily-summary-heading" className="space-y-2">
+            <h2 id="daily-summary-heading" className="text-lead font-bold">
+              Summary
+            </h2>
+            <p data-testid="daily-summary">{dailySummary(view.report)}</p>
+          </section>
+
+          <section aria-labelledby="daily-records-heading" className="space-y-2">
+            <h2 id="daily-records-heading" className="text-lead font-bold">
+              Stressing records of the day
+            </h2>
+            {view.report.pours.some((p) => p.records.length) ? (
+              <div className="overflow-x-auto">
+                <table className="w-full border-collapse text-left tabular-nums">
+                  <thead>
+                    <tr className="border-b-2 border-ink">
+                      {SCREEN_COLUMNS.map((c) => (
+                        <th key={c} scope="col" className="px-2 py-2 text-label font-bold uppercase">
+                          {c === "Predicted (Tautline)"
+                            ? "Predicted"
+                            : c === "Final pressure"
+                              ? "Gauge"
+                              : c === "Verdict"
+                                ? "Verdict, deviation"
+                                : c}
+                        </th>
+                      ))}
+                    </tr>
+                  </thead>
+                  <tbody>
+                    {dailyRecordRows(view.report).map((row, i) => {
+                      const evaluation = records[i]?.evaluation;
+                      return (
+                        <tr key={row.join("|")} className="border-b border-concrete-300">
+                          {SCREEN_COLUMNS.map((c) => (
+                            <td key={c} className={`px-2 py-2 align-top ${NO_WRAP.has(c) ? "whitespace-nowrap" : ""}`}>
+                              {c === "Verdict" && evaluation ? (
+                                <>
+                                  <VerdictBadge
+                                    verdict={evaluation.verdict}
+                                    deviationPct={evaluation.deviationPct}
+                                    provisional={evaluation.provisional}
+                                  />
+                                  {!evaluation.current && (
+                                    <span className="block text-label text-ink-soft">
+                                      superseded by a later stressing
+                                    </span>
+                                  )}
+                                </>
+                              ) : (
+                                row[columnIndex(c)]
+                              )}
+                            </td>
+                          ))}
+                        </tr>
+                      );
+                    })}
+                  </tbody>
+                </table>
+              </div>
+            ) : (
+              <p className="text-ink-soft">No stressing was recorded this day.</p>
+            )}
+          </section>
+
+          <div className="grid gap-8 xl:grid-cols-2">
+            <List
+              id="daily-flags-heading"
+              title="Flags raised"
+              items={dailyFlagLines(view.report).map((f) => `${f.heading}. ${f.lines.join(" ")}`)}
+              empty="No flag was raised this day."
+            />
+            <List
+              id="daily-dispositions-heading"
+              title="Dispositions recorded"
+              items={dailyDispositionLines(view.report)}
+              empty="No disposition was recorded this day."
+            />
+            <List
+              id="daily-equipment-heading"
+              title="Equipment sets and calibrations used"
+              items={dailyEquipmentLines(view.report).map(([name, text]) => `${name}: ${text}`)}
+              empty="No equipment set was used this day."
+            />
+            <List
+              id="daily-concrete-heading"
+              title="Concrete results entered"
+              items={dailyConcreteLines(view.report)}
+              empty="No concrete result was entered this day."
+            />
+            <List
+              id="daily-tails-heading"
+              title="Tails cut"
+              items={dailyTailCutLines(view.report)}
+              empty="No tendon had its tails cut this day."
+            />
+          </div>
+
+          <section aria-labelledby="daily-signature-heading" className="space-y-3">
+            <h2 id="daily-signature-heading" className="text-lead font-bold">
+              Remarks and signature
+            </h2>
+            <DailySigning
+              projectId={projectId}
+              day={day}
+              revisions={view.revisions.map((r) => ({
+                revision: r.revision,
+                signerName: r.signerName,
+                licence: r.licence,
+                signedAt: formatDateTime(r.signedAt, view.report.timeZone),
+                fileSha256: r.fileSha256,
+                changes: r.changes,
+              }))}
+              current={view.current}
+              remarks={view.report.remarks}
+              canSign={can(access.role, "report.sign")}
+              signerName={access.user.name}
+              defaultStatement={DEFAULT_DAILY_STATEMENT}
+            />
+          </section>
+        </>
+      )}
+    </main>
+  );
+}

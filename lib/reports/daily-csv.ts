@@ -1,0 +1,14 @@
+import Papa from "papaparse";
+import { safeRows } from "@/lib/csv/safe-cell";
+import type { DailyReport } from "@/lib/server/get-daily-report";
+import { CSV_DAILY_COLUMNS, dailyCsvRows } from "./daily-rows";
+
+/**
+ * The day's inspection report as CSV: one row per stressing recorded that day (the stressing
+ * report's columns, with the pour and the reading method), then the flags, dispositions,
+ * equipment, concrete results, tail cuts and the inspector's remarks, each a row with its words.
+ */
+export function renderDailyCsv(report: DailyReport): string {
+  // Every cell through the one formula guard (lib/csv/safe-cell.ts).
+  return Papa.unparse({ fields: [...CSV_DAILY_COLUMNS], data: safeRows(dailyCsvRows(report)) }, { newline: "\r\n" });
+}

@@ -1,0 +1,203 @@
+import { dayInZone, formatDateTime } from "@/lib/format/dates";
+import { showLength, showPressure, showStrength } from "@/lib/format/quantities";
+import { flagLabel } from "@/lib/schemas/flag";
+import { DECISION_LABELS } from "@/lib/schemas/review";
+import type { DailyPour, DailyReport } from "@/lib/server/get-daily-report";
+import type { PourRecord } from "@/lib/server/list-pour-records";
+import { RECORD_COLUMNS, recordRows } from "./pour-rows";
+import type { ReportSnapshot } from "./report-changes";
+
+/**
+ * The daily special-inspection report's content as display strings in the project's units, once:
+ * the PDF draws them and the CSV writes them. The stressing rows are the pour report's own rows
+ * (lib/reports/pour-rows.ts) for the day's records, with the pour and the reading method added.
+ * Pure.
+ */
+
+/** Whether an instant falls on a calendar day of the project's time zone (the day's grouping). */
+export function onReportDay(instant: Date, day: string, timeZone: string): boolean {
+  return dayInZone(instant, timeZone) === day;
+}
+
+/** The records of a list that belong to a day of the project's zone, in their order. */
+export function recordsOnDay<T extends Pick<PourRecord, "deviceTime">>(records: T[], day: string, timeZone: string) {
+  return records.filter((r) => onReportDay(r.deviceTime, day, timeZone));
+}
+
+export const DAILY_RECORD_COLUMNS = ["Pour", "Method", ...RECORD_COLUMNS] as const;
+export type DailyRecordColumn = (typeof DAILY_RECORD_COLUMNS)[number];
+
+const METHOD_WORDS = { marks: "marks on the strand", strokes: "jack strokes" } as const;
+
+export const dailyTime = (report: Pick<DailyReport, "timeZone">, d: Date) => formatDateTime(d, report.timeZone);
+
+const status = (s: string) => (s === "with_engineer" ? "with the engineer" : s);
+
+/** A pour's records of the day in the pour report's order (tendon by tendon, each end in order). */
+function pourDayRecords(p: DailyPour): PourRecord[] {
+  const tendons = p.report.tendons.filter((t) => p.records.some((r) => r.tendonId === t.tendonId));
+  return tendons.flatMap((t) => p.records.filter((r) => r.tendonId === t.tendonId));
+}
+
+/** One row per stressing recorded that day, pour by pour, in the pour report's order. */
+function pourDayRows(p: DailyPour): string[][] {
+  const ordered = pourDayRecords(p);
+  const tendons = p.report.tendons.filter((t) => ordered.some((r) => r.tendonId === t.tendonId));
+  // The pour report's rows for just this day's records and flags.
+  const rows = recordRows({ ...p.report, tendons, records: ordered, flags: p.flagsRaised });
+  return rows.map((row, i) => [p.report.pour.name, METHOD_WORDS[ordered[i]!.method], ...row]);
+}
+
+export function dailyRecordRows(report: DailyReport): string[][] {
+  return report.pours.flatMap(pourDayRows);
+}
+
+/** The records behind dailyRecordRows, row for row (the screen draws each verdict from its record). */
+export function dailyRecordsInOrder(report: DailyReport): PourRecord[] {
+  return report.pours.flatMap(pourDayRecords);
+}
+
+export function dailySummary(report: DailyReport): string {
+  const records = report.pours.flatMap((p) => p.records);
+  const verdictOf = (r: PourRecord) => r.evaluation?.verdict;
+  const count = (v: string) => records.filter((r) => verdictOf(r) === v).length;
+  const flags = report.pours.reduce((n, p) => n + p.flagsRaised.length, 0);
+  const dispositions = report.pours.reduce((n, p) => n + p.dispositions.length, 0);
+  const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;
+  if (!records.length && !flags && !dispositions && !report.concrete.length && !report.tailCuts.length)
+    return `Nothing was recorded in Tautline on ${report.day}.`;
+  return (
+    `${plural(records.length, "stressing record")} on ${plural(report.pours.filter((p) => p.records.length).length, "pour")} ` +
+    `(${count("in band")} in band, ${count("long")} long, ${count("short")} short, ` +
+    `${records.length - count("in band") - count("long") - count("short")} incomplete or not evaluated); ` +
+    `${records.filter((r) => r.stressing > 1).length} of them restresses or lift-offs. ` +
+    `${plural(flags, "flag")} raised, ${plural(dispositions, "disposition")} recorded, ` +
+    `${plural(report.concrete.length, "concrete result")} entered, ${plural(report.tailCuts.length, "tendon")} with tails cut.`
+  );
+}
+
+export function dailyFlagLines(report: DailyReport): { heading: string; lines: string[] }[] {
+  return report.pours.flatMap((p) =>
+    p.flagsRaised.map((f) => ({
+      heading: `Flag ${f.reference} · ${p.report.pour.name} · ${f.tendonTag} · ${flagLabel(f.kind)} · ${status(f.status)}`,
+      lines: [
+        f.reason,
+        `Raised ${dailyTime(report, f.raisedAt)}.`,
+        ...(f.closedAt
+          ? [
+              `Closed ${dailyTime(report, f.closedAt)}${f.closedBy ? ` by ${f.closedBy}` : ""}${f.closeReason ? `: ${f.closeReason}` : "."}`,
+            ]
+          : []),
+      ],
+    })),
+  );
+}
+
+export function dailyDispositionLines(report: DailyReport): string[] {
+  return report.pours.flatMap((p) =>
+    p.dispositions.map(
+      ({ flag, disposition: d }) =>
+        `Disposition ${d.reference} on flag ${flag.reference} (${p.report.pour.name}, ${flag.tendonTag}): ` +
+        `${DECISION_LABELS[d.decision]}, by ${d.engineerName} (${d.licenceStatement}), ${dailyTime(report, d.at)}: ${d.reasons}`,
+    ),
+  );
+}
+
+/** The equipment sets the day's records used, each with the calibrations those records stood on. */
+export function dailyEquipmentLines(report: DailyReport): [string, string][] {
+  const sets = new Map<string, { serials: string; calibrations: Set<string> }>();
+  for (const p of report.pours)
+    for (const r of p.records) {
+      const e = r.equipment;
+      const set = sets.get(e.name) ?? {
+        serials: `Jack ${e.jackSerial}, gauge ${e.gaugeSerial}, pump ${e.pumpSerial ?? "not recorded"}.`,
+        calibrations: new Set<string>(),
+      };
+      const c = r.calibration;
+      set.calibrations.add(
+        c
+          ? `Calibrated ${c.calibratedOn}, valid until ${c.validUntil}${c.laboratory ? `, ${c.laboratory}` : ""}; ` +
+              `${c.certificate ? `certificate ${c.certificate}` : "no certificate uploaded"}` +
+              `${c.inForce ? `; in force on ${report.day}` : `; NOT IN FORCE on ${report.day}`}`
+          : "No calibration on file for that day.",
+      );
+      sets.set(e.name, set);
+    }
+  return [...sets.entries()]
+    .sort(([a], [b]) => a.localeCompare(b))
+    .map(([name, s]) => [name, `${s.serials} ${[...s.calibrations].join(" ")}`]);
+}
+
+export function dailyConcreteLines(report: DailyReport): string[] {
+  return report.concrete.map(
+    (c) =>
+      `${c.pourName}: ${showStrength(report.project, c.strengthMPa)} at ${c.ageDays} days, ` +
+      `${c.specimenCount} ${c.specimen}${c.specimenCount === 1 ? "" : "s"}, entered by ${c.enteredBy} ${dailyTime(report, c.at)}`,
+  );
+}
+
+export function dailyTailCutLines(report: DailyReport): string[] {
+  return report.tailCuts.map(
+    (t) =>
+      `${t.pourName}, ${t.tag}: tails cut by ${t.cutBy} ${dailyTime(report, t.at)}` +
+      (t.heldReasons.length ? `; the tendon was held: ${t.heldReasons.join("; ")}` : ""),
+  );
+}
+
+/** The remarks a signed snapshot holds (quoted there, "none" when there were none). */
+export function remarksOfSnapshot(snapshot: ReportSnapshot | null | undefined): string {
+  const stored = snapshot?.remarks;
+  return stored && stored !== "none" ? stored.replace(/^"|"$/g, "") : "";
+}
+
+/** What a signed revision of the day's report covers, key by key (compared by describeChanges). */
+export function dailySnapshot(report: DailyReport): ReportSnapshot {
+  const p = report.project;
+  const snapshot: ReportSnapshot = { remarks: report.remarks ? `"${report.remarks}"` : "none" };
+  for (const pour of report.pours) {
+    const name = pour.report.pour.name;
+    for (const r of pour.records)
+      snapshot[`record ${name} ${r.tag} end ${r.end} stressing ${r.stressing}`] =
+        `revision ${r.revision}, ${showLength(p, r.measuredMm)} at ${showPressure(p, r.finalPressureMPa)}` +
+        (r.evaluation ? `, ${r.evaluation.verdict}` : "");
+    for (const f of pour.flagsRaised) snapshot[`flag ${f.reference} (${name} ${f.tendonTag})`] = status(f.status);
+    for (const { flag, disposition } of pour.dispositions)
+      snapshot[`disposition ${disposition.reference} (${name} ${flag.tendonTag})`] = disposition.decision.replace(
+        /_/g,
+        " ",
+      );
+  }
+  for (const c of report.concrete)
+    snapshot[`concrete ${c.pourName} ${dailyTime(report, c.at)}`] =
+      `${showStrength(p, c.strengthMPa)} at ${c.ageDays} days`;
+  for (const t of report.tailCuts) snapshot[`tail cut ${t.pourName} ${t.tag}`] = dailyTime(report, t.at);
+  return snapshot;
+}
+
+export const CSV_DAILY_COLUMNS = ["Project", "Day", "Section", ...DAILY_RECORD_COLUMNS, "Details"] as const;
+
+/**
+ * The CSV's rows: one per stressing (section "stressing"), then one per flag, disposition, equipment
+ * set, concrete result and tail cut with its words in Details, and the inspector's remarks.
+ */
+export function dailyCsvRows(report: DailyReport): string[][] {
+  const blank = DAILY_RECORD_COLUMNS.map(() => "");
+  const head = (section: string) => [report.project.code, report.day, section];
+  const other = (section: string, details: string) => [...head(section), ...blank, details];
+  return [
+    ...dailyRecordRows(report).map((row) => [...head("stressing"), ...row, ""]),
+    ...dailyFlagLines(report).map((f) => other("flag", [f.heading, ...f.lines].join(" "))),
+    ...dailyDispositionLines(report).map((d) => other("disposition", d)),
+    ...dailyEquipmentLines(report).map(([name, text]) => other("equipment", `${name}: ${text}`)),
+    ...dailyConcreteLines(report).map((c) => other("concrete", c)),
+    ...dailyTailCutLines(report).map((t) => other("tail cut", t)),
+    other("remarks", report.remarks || "none"),
+  ];
+}
+
+export function dailyFileName(report: DailyReport, extension: "pdf" | "csv", revision?: number): string {
+  const suffix = revision ? `-rev${revision}` : "";
+  return (
+    `${report.project.code}-${report.day}-daily-inspection${suffix}`.replace(/[^A-Za-z0-9._-]+/g, "-") + `.${extension}`
+  );
+}

@@ -1,0 +1,204 @@
+import "server-only";
+import type { Kysely } from "kysely";
+import { sql } from "kysely";
+import type { Database } from "@/db/types";
+import { ENGINE_VERSION } from "@/lib/elongation";
+import { AppError } from "@/lib/errors";
+import { dayBounds, projectTimeZone } from "@/lib/format/dates";
+import { onReportDay, remarksOfSnapshot } from "@/lib/reports/daily-rows";
+import type { ReportSnapshot } from "@/lib/reports/report-changes";
+import type { StoredResolution } from "@/lib/stressing/display";
+import { getPourReport, type PourReport, type ReportFlag } from "./get-pour-report";
+import type { PourRecord } from "./list-pour-records";
+
+/**
+ * What the special inspector observed on a project on one calendar day of the project's time zone,
+ * in SI as stored: every stressing recorded that day by pour (from the pour's own report, so the
+ * stressing numbers, calibrations, predictions and verdicts are the stressing report's), the flags
+ * raised and the dispositions recorded that day, the concrete results entered and the tails cut.
+ * The remarks are the inspector's: the ones being signed when the caller gives them, else those of
+ * the day's last signed revision. The PDF and the CSV render this one object.
+ */
+
+export interface DailyPour {
+  /** The pour's whole stressing report: its references, basis and equipment. */
+  report: PourReport;
+  /** The stressings recorded this day, in the pour report's order. */
+  records: PourRecord[];
+  flagsRaised: ReportFlag[];
+  dispositions: { flag: ReportFlag; disposition: ReportFlag["dispositions"][number] }[];
+}
+
+export interface DailyReport {
+  /** "2026-12-02", in the project's zone. */
+  day: string;
+  timeZone: string;
+  /** The latest moment the report's content shows (the start of the day when it shows nothing). */
+  asOf: Date;
+  engineVersion: string;
+  project: PourReport["project"];
+  pours: DailyPour[];
+  concrete: {
+    pourName: string;
+    specimen: "cylinder" | "cube";
+    strengthMPa: number;
+    ageDays: number;
+    specimenCount: number;
+    enteredBy: string;
+    at: Date;
+  }[];
+  tailCuts: { pourName: string; tag: string; cutBy: string; at: Date; heldReasons: string[] }[];
+  remarks: string;
+}
+
+export async function getDailyReport(
+  db: Kysely<Database>,
+  input: { projectId: string; day: string; remarks?: string },
+): Promise<DailyReport> {
+  const project = await db.selectFrom("projects").selectAll().where("id", "=", input.projectId).executeTakeFirst();
+  if (!project) throw new AppError("NOT_FOUND", "No such project.");
+  const timeZone = projectTimeZone(project);
+  const { start, end } = dayBounds(input.day, timeZone);
+  const within = <T extends string>(column: T) =>
+    sql<boolean>`${sql.ref(column)} >= ${start} and ${sql.ref(column)} < ${end}`;
+
+  const [active, concrete, tailCuts, lastSigned] = await Promise.all([
+    // The pours something happened on that day.
+    db
+      .selectFrom("pours")
+      .select(["pours.id", "pours.name"])
+      .where("pours.project_id", "=", input.projectId)
+      .where((eb) =>
+        eb.or([
+          eb.exists(
+            eb
+              .selectFrom("records")
+              .select(sql`1`.as("x"))
+              .whereRef("records.pour_id", "=", "pours.id")
+              .where("records.project_id", "=", input.projectId)
+              .where(within("records.device_time")),
+          ),
+          eb.exists(
+            eb
+              .selectFrom("flags")
+              .select(sql`1`.as("x"))
+              .whereRef("flags.pour_id", "=", "pours.id")
+              .where("flags.project_id", "=", input.projectId)
+              .where(within("flags.created_at")),
+          ),
+          eb.exists(
+            eb
+              .selectFrom("dispositions")
+              .innerJoin("flags", "flags.id", "dispositions.flag_id")
+              .select(sql`1`.as("x"))
+              .whereRef("flags.pour_id", "=", "pours.id")
+              .where("dispositions.project_id", "=", input.projectId)
+              .where(within("dispositions.created_at")),
+          ),
+        ]),
+      )
+      .orderBy("pours.name")
+      .execute(),
+    db
+      .selectFrom("concrete_results as c")
+      .innerJoin("pours", "pours.id", "c.pour_id")
+      .innerJoin("users", "users.id", "c.entered_by")
+      .select([
+        "pours.name as pourName",
+        "c.specimen",
+        "c.strength_mpa",
+        "c.age_days",
+        "c.specimen_count",
+        "c.entered_at",
+        "users.name as enteredBy",
+      ])
+      .where("c.project_id", "=", input.projectId)
+      .where("pours.project_id", "=", input.projectId)
+      .where(within("c.entered_at"))
+      .orderBy("c.entered_at")
+      .orderBy("c.id")
+      .execute(),
+    db
+      .selectFrom("tail_cuts as t")
+      .innerJoin("pours", "pours.id", "t.pour_id")
+      .innerJoin("tendons", "tendons.id", "t.tendon_id")
+      .innerJoin("users", "users.id", "t.cut_by")
+      .select(["pours.name as pourName", "tendons.tag", "users.name as cutBy", "t.cut_at", "t.held_reasons"])
+      .where("t.project_id", "=", input.projectId)
+      .where("tendons.project_id", "=", input.projectId)
+      .where(within("t.cut_at"))
+      .orderBy("t.cut_at")
+      .orderBy("tendons.tag")
+      .execute(),
+    input.remarks === undefined
+      ? db
+          .selectFrom("report_revisions")
+          .select("snapshot")
+          .where("project_id", "=", input.projectId)
+          .where("kind", "=", "daily_inspection")
+          .where("report_day", "=", input.day)
+          .orderBy("revision", "desc")
+          .limit(1)
+          .executeTakeFirst()
+      : undefined,
+  ]);
+
+  const reports = await Promise.all(active.map((p) => getPourReport(db, { projectId: input.projectId, pourId: p.id })));
+  const inDay = (d: Date) => onReportDay(d, input.day, timeZone);
+  const pours: DailyPour[] = reports
+    .map((report) => ({
+      report,
+      records: report.records.filter((r) => inDay(r.deviceTime)),
+      flagsRaised: report.flags.filter((f) => inDay(f.raisedAt)),
+      dispositions: report.flags.flatMap((flag) =>
+        flag.dispositions.filter((d) => inDay(d.at)).map((disposition) => ({ flag, disposition })),
+      ),
+    }))
+    .filter((p) => p.records.length || p.flagsRaised.length || p.dispositions.length);
+
+  const moments = [
+    ...pours.flatMap((p) => [
+      ...p.records.flatMap((r) => [r.deviceTime, ...(r.evaluation ? [r.evaluation.at] : [])]),
+      ...p.flagsRaised.flatMap((f) => [f.raisedAt, ...(f.closedAt ? [f.closedAt] : [])]),
+      ...p.dispositions.map((d) => d.disposition.at),
+    ]),
+    ...concrete.map((c) => new Date(c.entered_at)),
+    ...tailCuts.map((t) => new Date(t.cut_at)),
+  ];
+  const asOf = moments.length ? new Date(Math.max(...moments.map((m) => m.getTime()))) : start;
+
+  return {
+    day: input.day,
+    timeZone,
+    asOf,
+    engineVersion: ENGINE_VERSION,
+    project: {
+      id: project.id,
+      code: project.code,
+      name: project.name,
+      address: project.address,
+      unitSystem: project.unit_system,
+      readingResolution: project.reading_resolution as StoredResolution,
+      engineerOfRecordName: project.engineer_of_record_name,
+      releaseBy: project.release_by,
+    },
+    pours,
+    concrete: concrete.map((c) => ({
+      pourName: c.pourName,
+      specimen: c.specimen,
+      strengthMPa: c.strength_mpa,
+      ageDays: c.age_days,
+      specimenCount: c.specimen_count,
+      enteredBy: c.enteredBy,
+      at: new Date(c.entered_at),
+    })),
+    tailCuts: tailCuts.map((t) => ({
+      pourName: t.pourName,
+      tag: t.tag,
+      cutBy: t.cutBy,
+      at: new Date(t.cut_at),
+      heldReasons: t.held_reasons,
+    })),
+    remarks: input.remarks ?? remarksOfSnapshot(lastSigned?.snapshot as ReportSnapshot | undefined),
+  };
+}

@@ -1,0 +1,100 @@
+import { expect, test } from "@playwright/test";
+import Papa from "papaparse";
+import { PEOPLE, queryDemo, signInWithPassword } from "./people";
+import { screenshot } from "./support";
+
+// The inspector opens the day of the demo project's latest stressing, reads the summary, writes
+// remarks and signs, then downloads the signed PDF, the PDF as it stands and the CSV. Then the
+// remarks change and the day is signed again as revision 2. Writes two signed revisions of that day.
+
+test("the inspector signs a day's special-inspection report and downloads its PDF and CSV", async ({ page }) => {
+  test.setTimeout(120_000);
+  const [row] = await queryDemo<{ projectId: string; day: string; tags: string }>(
+    `select p.id as "projectId",
+            to_char(r.device_time at time zone p.time_zone, 'YYYY-MM-DD') as day,
+            count(*)::text as tags
+       from records r join projects p on p.id = r.project_id
+      where p.code = 'AYP'
+      group by p.id, 2
+      order by 2 desc
+      limit 1`,
+  );
+  const { projectId, day } = row!;
+  await page.setViewportSize({ width: 1440, height: 900 });
+  await signInWithPassword(page, PEOPLE.inspector);
+  await page.waitForURL(/\/home/);
+  await page
+    .getByRole("link", { name: /write and sign the day's report/ })
+    .first()
+    .click();
+  await page.waitForURL(/\/daily/);
+
+  // A day not yet begun is refused with the field named, and nothing is shown for it.
+  await page.goto(`/projects/${projectId}/daily?day=2999-01-01`);
+  await expect(page.locator("#report-day-error")).toContainText("Day: That day has not begun yet");
+
+  await page.getByLabel("Day", { exact: true }).fill(day);
+  await page.getByRole("button", { name: "Show the day" }).click();
+  await expect(page.getByRole("heading", { level: 1 })).toHaveText(`Daily special-inspection report: ${day}`);
+  await expect(page.getByTestId("daily-summary")).toContainText(`${row!.tags} stressing record`);
+  await expect(page.getByRole("table")).toContainText("marks on the strand");
+  await expect(page.getByRole("note", { name: "Caution" })).toContainText("engineer of record");
+  await expect(page.getByTestId("daily-signature-state")).toHaveText(`The report of ${day} is not signed yet.`);
+
+  const form = page.getByRole("form", { name: `Sign the daily inspection report of ${day}` });
+  await form
+    .getByLabel("Your remarks for the day")
+    .fill("Witnessed the stressing from the east slab edge; barricades up.");
+  // Without a licence number the server names the field and signs nothing.
+  await form.getByRole("button", { name: `Sign revision 1 of ${day}` }).click();
+  await expect(form.locator("#daily-sign-licence-error")).toContainText("licence or certification number");
+  await form.getByLabel("Licence or certification number").fill("ICC special inspector 5551234 (demo)");
+  await screenshot(page, "daily-report-form");
+  await form.getByRole("button", { name: `Sign revision 1 of ${day}` }).click();
+  await expect(page.getByTestId("daily-signature-state")).toHaveText(
+    `The report of ${day} as it stands is signed: revision 1.`,
+    { timeout: 30_000 },
+  );
+  await screenshot(page, "daily-report-signed");
+
+  const signedHref = await page.getByRole("link", { name: "Signed PDF, revision 1" }).getAttribute("href");
+  const signed = await page.request.get(signedHref!);
+  expect(signed.status()).toBe(200);
+  expect((await signed.body()).subarray(0, 5).toString()).toBe("%PDF-");
+
+  const pdf = await page.request.get(`/api/projects/${projectId}/daily-reports/${day}/pdf`);
+  expect(pdf.status()).toBe(200);
+  expect(pdf.headers()["content-disposition"]).toContain(`${day}-daily-inspection.pdf`);
+  expect((await pdf.body()).subarray(0, 5).toString()).toBe("%PDF-");
+
+  const csv = await page.request.get(`/api/projects/${projectId}/daily-reports/${day}/csv`);
+  expect(csv.status()).toBe(200);
+  const table = Papa.parse<Record<string, string>>(await csv.text(), { header: true, skipEmptyLines: true });
+  expect(table.errors).toEqual([]);
+  expect(table.data.filter((r) => r.Section === "stressing")).toHaveLength(Number(row!.tags));
+  expect(table.data.find((r) => r.Section === "remarks")?.Details).toBe(
+    "Witnessed the stressing from the east slab edge; barricades up.",
+  );
+
+  // New remarks are a change: revision 2, which says what changed.
+  await form
+    .getByLabel("Your remarks for the day")
+    .fill("Witnessed the stressing from the east slab edge; rain after noon.");
+  await form.getByLabel("Licence or certification number").fill("ICC special inspector 5551234 (demo)");
+  await form.getByRole("button", { name: `Sign revision 2 of ${day}` }).click();
+  await expect(page.getByTestId("daily-signature-state")).toHaveText(
+    `The report of ${day} as it stands is signed: revision 2.`,
+    { timeout: 30_000 },
+  );
+  await expect(page.getByRole("list", { name: "Signed revisions" })).toContainText("remarks:");
+});
+
+test("the crew cannot open the day's report", async ({ page }) => {
+  const [row] = await queryDemo<{ id: string }>("select id from projects where code = 'AYP'");
+  await signInWithPassword(page, PEOPLE.crew);
+  await page.waitForURL(/\/home/);
+  const response = await page.goto(`/projects/${row!.id}/daily`);
+  expect(response?.status()).toBe(404);
+  const pdf = await page.request.get(`/api/projects/${row!.id}/daily-reports/2026-12-01/pdf`);
+  expect(pdf.status()).toBe(403);
+});

@@ -1,0 +1,239 @@
+import { createHash } from "node:crypto";
+import { mkdirSync, writeFileSync } from "node:fs";
+import Papa from "papaparse";
+import { PDFParse } from "pdf-parse";
+import { uuidv7 } from "uuidv7";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { renderDailyCsv } from "@/lib/reports/daily-csv";
+import { renderDailyPdf } from "@/lib/reports/daily-pdf";
+import { evaluateTendon } from "@/lib/server/evaluate-tendon";
+import { getDailyReport } from "@/lib/server/get-daily-report";
+import { listDailyRevisions } from "@/lib/server/list-daily-revisions";
+import { readSignedDailyReport } from "@/lib/server/read-signed-daily-report";
+import { signDailyReport } from "@/lib/server/sign-daily-report";
+import { verifyReportFile } from "@/lib/server/verify-report-file";
+import { seedDemo } from "@/scripts/seed/demo";
+import { createTestDatabase, type TestDatabase } from "../support/database";
+import { demoFixture, insertRecord } from "../support/records";
+
+// A pour of our own on the demo project, whose zone is set to America/Chicago. Day under test:
+// 2026-11-18 (CST, UTC−6). S-01 is stressed at 09:10 CST; S-02 at 19:30 CST, which is already
+// 2026-11-19 in UTC; S-03 the next morning. A concrete result is entered that afternoon.
+// All readings are invented demo values.
+
+const DAY = "2026-11-18";
+const PSI = 0.006894757293168; // MPa per psi (NIST SP 811, 1 psi = 6.894757 kPa)
+
+let t: TestDatabase;
+let fx: Awaited<ReturnType<typeof demoFixture>>;
+let pourId: string;
+let tendons: Record<string, { id: string; pour_id: string }>;
+let inspector: { id: string };
+
+async function pdfTextOf(buffer: Buffer | Uint8Array) {
+  const parser = new PDFParse({ data: new Uint8Array(buffer) });
+  try {
+    return (await parser.getText()).text.replace(/\s+/g, " ");
+  } finally {
+    await parser.destroy();
+  }
+}
+
+async function stress(tag: string, deviceTime: string, measuredMm: number) {
+  await insertRecord(t.db, {
+    projectId: fx.projectId,
+    tendon: tendons[tag]!,
+    end: "A",
+    equipmentSetId: fx.setA,
+    authorId: fx.crewId,
+    measuredMm,
+    finalPressureMPa: 4200 * PSI,
+    deviceTime,
+  });
+  await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendons[tag]!.id, reason: "sync" });
+}
+
+beforeAll(async () => {
+  mkdirSync("test-results/reports", { recursive: true });
+  t = await createTestDatabase({ migrate: true });
+  await seedDemo(t.db);
+  fx = await demoFixture(t.db);
+  await t.db.updateTable("projects").set({ time_zone: "America/Chicago" }).where("id", "=", fx.projectId).execute();
+  inspector = await t.db
+    .selectFrom("users")
+    .select("id")
+    .where("email", "=", "inspector@demo.tautline.test")
+    .executeTakeFirstOrThrow();
+  const template = await t.db
+    .selectFrom("tendons")
+    .selectAll()
+    .where("project_id", "=", fx.projectId)
+    .where("ends", "=", "A")
+    .orderBy("tag")
+    .limit(1)
+    .executeTakeFirstOrThrow();
+  pourId = (
+    await t.db
+      .insertInto("pours")
+      .values({ project_id: fx.projectId, name: "Daily pour", concrete_strength_mpa: 4000 * PSI })
+      .returning("id")
+      .executeTakeFirstOrThrow()
+  ).id;
+  tendons = {};
+  for (const tag of ["S-01", "S-02", "S-03"]) {
+    const row = await t.db
+      .insertInto("tendons")
+      .values({
+        project_id: fx.projectId,
+        pour_id: pourId,
+        tag,
+        kind: template.kind,
+        strand_size: template.strand_size,
+        strand_count: template.strand_count,
+        segments: JSON.stringify(template.segments),
+        ends: "A",
+        jack_grip_mm: template.jack_grip_mm,
+        strand_lot_id: template.strand_lot_id,
+        shop_elongation_mm: null,
+      })
+      .returning(["id", "pour_id"])
+      .executeTakeFirstOrThrow();
+    tendons[tag] = row;
+  }
+  await stress("S-01", "2026-11-18T15:10:00Z", 150);
+  await stress("S-02", "2026-11-19T01:30:00Z", 152);
+  await stress("S-03", "2026-11-19T14:00:00Z", 151);
+  await t.db
+    .insertInto("concrete_results")
+    .values({
+      project_id: fx.projectId,
+      pour_id: pourId,
+      specimen: "cylinder",
+      strength_mpa: 3500 * PSI,
+      age_days: 3,
+      specimen_count: 2,
+      entered_by: inspector.id,
+      entered_at: "2026-11-18T21:00:00Z",
+    })
+    .execute();
+  // S-01's tails cut at 17:15 CST, held by its open flag (the reason as the server words it; invented here).
+  await t.db
+    .insertInto("tail_cuts")
+    .values({
+      id: uuidv7(),
+      project_id: fx.projectId,
+      pour_id: pourId,
+      tendon_id: tendons["S-01"]!.id,
+      cut_by: fx.crewId,
+      cut_at: "2026-11-18T23:15:00Z",
+      device_id: "test-device",
+      held_reasons: ["an open flag on the tendon"],
+    })
+    .execute();
+}, 120_000);
+afterAll(async () => {
+  await t?.drop();
+});
+
+describe("the day's special-inspection report", () => {
+  it("holds the day's records in the project's zone: the Chicago evening record in, the next morning's out", async () => {
+    const report = await getDailyReport(t.db, { projectId: fx.projectId, day: DAY });
+    expect(report.timeZone).toBe("America/Chicago");
+    const pour = report.pours.find((p) => p.report.pour.name === "Daily pour");
+    expect(pour?.records.map((r) => r.tag)).toEqual(["S-01", "S-02"]);
+    // The flags the evaluations raised were raised when the test ran, not on that day.
+    expect(pour?.flagsRaised).toEqual([]);
+    expect(report.concrete).toMatchObject([{ pourName: "Daily pour", ageDays: 3, specimenCount: 2 }]);
+    expect(report.tailCuts).toMatchObject([{ pourName: "Daily pour", tag: "S-01" }]);
+    const next = await getDailyReport(t.db, { projectId: fx.projectId, day: "2026-11-19" });
+    expect(next.pours.find((p) => p.report.pour.name === "Daily pour")?.records.map((r) => r.tag)).toEqual(["S-03"]);
+
+    const pdf = await renderDailyPdf(report);
+    writeFileSync("test-results/reports/daily-report.pdf", pdf);
+    const text = await pdfTextOf(pdf);
+    expect(text).toContain(`Daily special-inspection report: ${DAY}`);
+    expect(text).toContain("2026-11-18 19:30 CST");
+    expect(text).toContain("final: 4200 psi");
+    expect(text).toContain("3,500 psi at 3 days, 2 cylinders");
+    expect(text).toContain("Daily pour, S-01: tails cut by Luis Ferreira 2026-11-18 17:15 CST; the tendon was held: an open flag");
+    expect(text).toContain("licensed engineer of record");
+    expect(text).not.toMatch(/[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}/);
+    expect(text).not.toMatch(/MPa|mm²|\d\.\d{6,}/);
+    // Same content, same bytes.
+    expect((await renderDailyPdf(await getDailyReport(t.db, { projectId: fx.projectId, day: DAY }))).equals(pdf)).toBe(
+      true,
+    );
+
+    const csv = renderDailyCsv(report);
+    writeFileSync("test-results/reports/daily-report.csv", csv);
+    const parsed = Papa.parse<Record<string, string>>(csv, { header: true, skipEmptyLines: true });
+    expect(parsed.errors).toEqual([]);
+    const rows = parsed.data.filter((r) => r.Section === "stressing" && r.Pour === "Daily pour");
+    expect(rows.map((r) => [r.Tendon, r.Stressed, r.Method, r["Final pressure"]])).toEqual([
+      ["S-01", "2026-11-18 09:10 CST", "marks on the strand", "4200 psi"],
+      ["S-02", "2026-11-18 19:30 CST", "marks on the strand", "4200 psi"],
+    ]);
+    expect(rows[0]!.Measured).toMatch(/^\d+ \d+\/\d+ in$|^\d+ in$/);
+    expect(rows[0]!.Deviation).toMatch(/%$/);
+    expect(parsed.data.find((r) => r.Section === "remarks")?.Details).toBe("none");
+  }, 60_000);
+
+  it("is signed as revision 1, refused unchanged, and signed as revision 2 after a new record; verification follows the file", async () => {
+    const sha = (b: Uint8Array) => createHash("sha256").update(b).digest("hex");
+    const values = {
+      signerName: "Dana Okafor",
+      licence: "ICC special inspector 5551234 (invented)",
+      statement: "I inspected the stressing listed in this report; the work was in conformance except as noted.",
+      remarks: "=Witnessed S-01 and S-02 from the east slab edge; barricades in place.",
+    };
+    const first = await signDailyReport(t.db, { projectId: fx.projectId, day: DAY, signer: inspector, values });
+    expect(first).toMatchObject({ revision: 1, changes: [] });
+    await expect(
+      signDailyReport(t.db, { projectId: fx.projectId, day: DAY, signer: inspector, values }),
+    ).rejects.toMatchObject({ code: "CONFLICT" });
+
+    // The unsigned report now carries the signed remarks, and stands signed.
+    const standing = await listDailyRevisions(t.db, { projectId: fx.projectId, day: DAY });
+    expect(standing.report.remarks).toBe(values.remarks);
+    expect(standing.current.signed).toBe(true);
+    const csv = Papa.parse<Record<string, string>>(renderDailyCsv(standing.report), { header: true });
+    // The remarks start with "=": the CSV opens them as text, not a formula.
+    expect(csv.data.find((r) => r.Section === "remarks")?.Details).toBe(`'${values.remarks}`);
+
+    const signed1 = await readSignedDailyReport(t.db, { projectId: fx.projectId, day: DAY, revision: 1 });
+    expect(sha(signed1.body)).toBe(first.fileSha256);
+    writeFileSync("test-results/reports/daily-report-signed-rev1.pdf", signed1.body);
+    const text1 = await pdfTextOf(signed1.body);
+    expect(text1).toContain("Signed by Dana Okafor, ICC special inspector 5551234 (invented)");
+    expect(text1).toContain(`Content sha256 ${first.contentSha256}`);
+    expect(text1).toContain("Witnessed S-01 and S-02 from the east slab edge");
+
+    // A restress of S-01 later that day (16:40 CST).
+    await stress("S-01", "2026-11-18T22:40:00Z", 153);
+    const pending = await listDailyRevisions(t.db, { projectId: fx.projectId, day: DAY });
+    expect(pending.current.signed).toBe(false);
+    expect(pending.current.changesSinceSigned.join("\n")).toMatch(/record Daily pour S-01 end A stressing 2: added/);
+
+    const second = await signDailyReport(t.db, { projectId: fx.projectId, day: DAY, signer: inspector, values });
+    expect(second.revision).toBe(2);
+    expect(second.changes.join("\n")).toMatch(/record Daily pour S-01 end A stressing 2: added/);
+    const signed2 = await readSignedDailyReport(t.db, { projectId: fx.projectId, day: DAY, revision: 2 });
+    writeFileSync("test-results/reports/daily-report-signed-rev2.pdf", signed2.body);
+    expect(await pdfTextOf(signed2.body)).toContain("2026-11-18 16:40 CST");
+
+    expect(await verifyReportFile(t.db, { sha256: second.fileSha256 })).toMatchObject({
+      match: true,
+      day: DAY,
+      pour: null,
+      revision: 2,
+      latest: true,
+    });
+    expect(await verifyReportFile(t.db, { sha256: first.fileSha256 })).toMatchObject({
+      match: true,
+      revision: 1,
+      latest: false,
+    });
+    // The unsigned file is not a signed revision.
+    expect(await verifyReportFile(t.db, { sha256: second.contentSha256 })).toEqual({ match: false });
+  }, 60_000);
+});
