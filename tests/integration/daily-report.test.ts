@@ -155,7 +155,9 @@ describe("the day's special-inspection report", () => {
     expect(text).toContain("2026-11-18 19:30 CST");
     expect(text).toContain("final: 4200 psi");
     expect(text).toContain("3,500 psi at 3 days, 2 cylinders");
-    expect(text).toContain("Daily pour, S-01: tails cut by Luis Ferreira 2026-11-18 17:15 CST; the tendon was held: an open flag");
+    expect(text).toContain(
+      "Daily pour, S-01: tails cut by Luis Ferreira 2026-11-18 17:15 CST; the tendon was held: an open flag",
+    );
     expect(text).toContain("licensed engineer of record");
     expect(text).not.toMatch(/[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}/);
     expect(text).not.toMatch(/MPa|mm²|\d\.\d{6,}/);
