@@ -108,6 +108,9 @@ test("one tendon end and Save fit on one tablet screen in both orientations, wit
   await expect(page.getByLabel(/Mark after/)).toHaveValue(reading.after);
   await save.click();
   await expect(page.getByTestId("verdict").locator("[data-verdict]").first()).toContainText("Long");
+  // The band as the tape reads it on this 1/8 in project: fractions, and no decimals for a reading on the division.
+  await expect(page.getByTestId("band")).toHaveText(/^\d+( \d\/\d)? in to \d+( \d\/\d)? in$/);
+  await expect(page.getByTestId("band-decimals")).toHaveCount(0);
 
   // End B next: the hold, the verdict so far and the whole form on one screen.
   await expect(page.getByRole("radio", { name: "End B" })).toBeChecked();
