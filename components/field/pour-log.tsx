@@ -178,7 +178,7 @@ export function PourLog() {
   };
 
   return (
-    <main className="grid gap-4 p-4 landscape:grid-cols-[16rem_minmax(0,1fr)] landscape:items-start">
+    <main className="grid gap-4 p-4 landscape:grid-cols-[14rem_minmax(0,1fr)] landscape:items-start">
       <section
         aria-label="Tendons"
         className="grid gap-3 landscape:sticky landscape:top-28 landscape:max-h-[calc(100vh-8rem)] landscape:overflow-y-auto"
@@ -210,17 +210,6 @@ export function PourLog() {
             </span>
           </p>
         )}
-        {selected && (
-          <button
-            type="button"
-            className="btn-quiet landscape:hidden"
-            aria-expanded={listOpen}
-            aria-controls="tendon-list"
-            onClick={() => setListOpen(!listOpen)}
-          >
-            {listOpen ? "Fold the tendon list" : `Change tendon (${tendons.length} in this pour)`}
-          </button>
-        )}
         <label htmlFor="tendon-search" className={`field-label ${folded}`}>
           Find a tendon by tag
         </label>
@@ -233,11 +222,24 @@ export function PourLog() {
           placeholder="e.g. U07"
           autoComplete="off"
         />
-        {next && (
-          <button type="button" className="btn-primary" onClick={() => go(next)} data-testid="next-tendon">
-            Next tendon: {next.tag}
-          </button>
-        )}
+        <div className="flex flex-wrap gap-2">
+          {selected && (
+            <button
+              type="button"
+              className="btn-quiet landscape:hidden"
+              aria-expanded={listOpen}
+              aria-controls="tendon-list"
+              onClick={() => setListOpen(!listOpen)}
+            >
+              {listOpen ? "Fold the tendon list" : `Change tendon (${tendons.length})`}
+            </button>
+          )}
+          {next && (
+            <button type="button" className="btn-primary" onClick={() => go(next)} data-testid="next-tendon">
+              Next tendon: {next.tag}
+            </button>
+          )}
+        </div>
         {session && (
           <CutAllClear
             projectId={pour.projectId}
@@ -381,13 +383,18 @@ function TendonPanel(props: {
   const showForm = !props.released && (Boolean(props.correcting) || adding || !allDone);
 
   return (
-    <div className={showForm ? "grid gap-4 md:grid-cols-[minmax(0,2fr)_minmax(0,3fr)] md:items-start" : "grid gap-4"}>
+    <div
+      className={
+        showForm ? "grid gap-4 landscape:grid-cols-[minmax(0,1fr)_minmax(0,2fr)] landscape:items-start" : "grid gap-4"
+      }
+    >
       {/* Beside the form: the tendon, why it is held, the verdict so far and the tails, never scrolled away by it. */}
       <div
-        className={`grid content-start gap-4 ${showForm ? "md:sticky md:top-28 md:max-h-[calc(100vh-8rem)] md:overflow-y-auto" : ""}`}
+        className={`grid content-start gap-4 ${showForm ? "overflow-y-auto landscape:sticky landscape:top-28 landscape:max-h-[calc(100vh-8rem)] portrait:max-h-[22vh] portrait:grid-cols-2 portrait:items-start" : ""}`}
         data-testid="tendon-status"
       >
-        <header className="card grid gap-1 p-4">
+        {/* In portrait the form's title names the tendon, so the hold and the verdict come first. */}
+        <header className={`card grid gap-1 p-4 ${showForm ? "portrait:order-last" : ""}`}>
           <div className="flex flex-wrap items-center gap-3">
             <h2 className="text-figure font-bold" data-testid="selected-tag">
               {tendon.tag}

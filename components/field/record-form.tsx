@@ -303,21 +303,45 @@ export function RecordForm({
   const moreHasSomething = photos.length > 0 || Boolean(err.wireBreaks || err.remarks);
   const showMore = moreOpen || moreHasSomething;
 
+  const endChoice = (
+    <fieldset>
+      <legend className="sr-only">Tendon end</legend>
+      <div className="flex gap-2">
+        {/* Only the ends this tendon stresses are offered; a correction keeps its record's end. */}
+        {ends.map((end) => (
+          <label key={end} className={`${CHIP} px-3 ${correcting ? "opacity-40" : ""}`}>
+            <input
+              type="radio"
+              value={end}
+              className="sr-only"
+              disabled={Boolean(correcting)}
+              {...register("tendonEnd")}
+            />
+            End {end}
+            {doneEnds.has(end) && !correcting ? " (done)" : ""}
+          </label>
+        ))}
+      </div>
+      <FieldError message={err.tendonEnd?.message} />
+    </fieldset>
+  );
+
   return (
     <form
       onSubmit={handleSubmit(submit)}
-      className="card grid gap-3 p-4"
+      className="card grid gap-3 p-3"
       aria-label={correcting ? "Correct the record" : "New record"}
       data-testid="record-form"
       noValidate
     >
-      <div className="flex flex-wrap items-start justify-between gap-x-4 gap-y-1">
+      <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
         <h3 className="text-lead font-bold">
           {correcting
             ? `Correct end ${correcting.tendonEnd} (revision ${correcting.revision + 1})`
             : `Record ${ctx.tendon.tag}`}
         </h3>
-        <div className="rounded-md bg-concrete-100 px-3 py-1 text-right" data-testid="target-pressure">
+        {endChoice}
+        <div className="ml-auto rounded-md bg-concrete-100 px-3 py-1 text-right" data-testid="target-pressure">
           <span className="field-label">Target gauge pressure</span>
           <p className="text-lead font-bold tabular-nums">
             {!set ? "Pick a set" : targetMPa === null ? "No calibration" : showPressure(units(ctx.project), targetMPa)}
@@ -346,46 +370,6 @@ export function RecordForm({
         </div>
       )}
 
-      <div className="flex flex-wrap gap-x-6 gap-y-3">
-        <fieldset>
-          <legend className="field-label">Tendon end</legend>
-          <div className="mt-1 flex gap-2">
-            {/* Only the ends this tendon stresses are offered; a correction keeps its record's end. */}
-            {ends.map((end) => (
-              <label key={end} className={`${CHIP} px-4 ${correcting ? "opacity-40" : ""}`}>
-                <input
-                  type="radio"
-                  value={end}
-                  className="sr-only"
-                  disabled={Boolean(correcting)}
-                  {...register("tendonEnd")}
-                />
-                End {end}
-                {doneEnds.has(end) && !correcting ? " (done)" : ""}
-              </label>
-            ))}
-          </div>
-          <FieldError message={err.tendonEnd?.message} />
-        </fieldset>
-
-        {ends.length === 2 && (
-          <fieldset>
-            <legend className="field-label">The two ends were stressed</legend>
-            <div className="mt-1 flex flex-wrap gap-2">
-              <label className={`${CHIP} px-4`}>
-                <input type="radio" value="sequential" className="sr-only" {...register("stressingOrder")} />
-                One after the other
-              </label>
-              <label className={`${CHIP} px-4`}>
-                <input type="radio" value="simultaneous" className="sr-only" {...register("stressingOrder")} />
-                Both at once
-              </label>
-            </div>
-            <FieldError message={err.stressingOrder?.message} />
-          </fieldset>
-        )}
-      </div>
-
       <fieldset>
         <legend className="field-label">Equipment set</legend>
         <div className="mt-1 flex flex-wrap gap-2">
@@ -399,12 +383,13 @@ export function RecordForm({
               >
                 <input type="radio" value={s!.id} className="h-6 w-6 shrink-0" {...register("equipmentSetId")} />
                 <span className="leading-tight">
-                  <strong>{s!.name}</strong> <span className="text-base">· gauge {s!.gaugeSerial}</span>
+                  <strong>{s!.name}</strong>
                   <br />
+                  <span className="text-base">gauge {s!.gaugeSerial} · </span>
                   <span className={`text-base ${c.expired ? "font-bold text-signal-stop" : "text-ink-soft"}`}>
                     {c.calibration
-                      ? `${c.expired ? "Calibration EXPIRED" : "Calibrated"} until ${c.calibration.validUntil}`
-                      : "No calibration"}
+                      ? `${c.expired ? "calibration EXPIRED" : "calibrated"} until ${c.calibration.validUntil}`
+                      : "no calibration"}
                   </span>
                 </span>
               </label>
@@ -441,22 +426,40 @@ export function RecordForm({
         />
       </div>
 
-      <fieldset>
-        <legend className="field-label">Elongation read as</legend>
-        <div className="mt-1 flex flex-wrap gap-2">
-          <label className={`${CHIP} px-4`}>
-            <input type="radio" value="marks" className="sr-only" {...register("readingMethod")} />
-            Marks before / after (after lock-off)
-          </label>
-          <label className={`${CHIP} px-4`}>
-            <input type="radio" value="strokes" className="sr-only" {...register("readingMethod")} />
-            Ram strokes
-          </label>
-        </div>
-      </fieldset>
+      <div className="flex flex-wrap gap-x-6 gap-y-3">
+        <fieldset>
+          <legend className="field-label">Elongation read as</legend>
+          <div className="mt-1 flex flex-wrap gap-2">
+            <label className={`${CHIP} px-3`}>
+              <input type="radio" value="marks" className="sr-only" {...register("readingMethod")} />
+              Marks
+            </label>
+            <label className={`${CHIP} px-3`}>
+              <input type="radio" value="strokes" className="sr-only" {...register("readingMethod")} />
+              Ram strokes
+            </label>
+          </div>
+        </fieldset>
+        {ends.length === 2 && (
+          <fieldset>
+            <legend className="field-label">The two ends were stressed</legend>
+            <div className="mt-1 flex flex-wrap gap-2">
+              <label className={`${CHIP} px-3`}>
+                <input type="radio" value="sequential" className="sr-only" {...register("stressingOrder")} />
+                One after the other
+              </label>
+              <label className={`${CHIP} px-3`}>
+                <input type="radio" value="simultaneous" className="sr-only" {...register("stressingOrder")} />
+                Both at once
+              </label>
+            </div>
+            <FieldError message={err.stressingOrder?.message} />
+          </fieldset>
+        )}
+      </div>
 
       {method === "marks" ? (
-        <div className="grid grid-cols-2 gap-3 xl:grid-cols-3">
+        <div className="grid grid-cols-3 gap-3">
           <NumberBox
             id="marksBefore"
             label="Mark before"
@@ -467,7 +470,7 @@ export function RecordForm({
           />
           <NumberBox
             id="marksAfter"
-            label="Mark after"
+            label="Mark after lock-off"
             unit={entryUnits.length}
             reg={register("marksAfter")}
             error={err.marksAfter?.message}
@@ -484,7 +487,7 @@ export function RecordForm({
         </div>
       ) : (
         <div className="grid gap-2">
-          <div className="grid grid-cols-2 gap-3 xl:grid-cols-3">
+          <div className="grid grid-cols-3 gap-3">
             {strokes.fields.map((f, i) => (
               <div key={f.id} className="grid content-end gap-1">
                 <NumberBox
@@ -544,74 +547,74 @@ export function RecordForm({
 
       {inches && <FractionKeys target={lengthLabel(typing)} onPick={pickFraction} />}
 
-      <div className="grid gap-3">
-        {!moreHasSomething && (
-          <button
-            type="button"
-            className="btn-quiet w-fit"
-            aria-expanded={showMore}
-            aria-controls="record-more"
-            onClick={() => setMoreOpen(!showMore)}
-          >
-            {showMore ? "Fold away wire breaks, remarks, photos" : "More: wire breaks, remarks, photos"}
-          </button>
-        )}
-        <div id="record-more" className="grid gap-3" hidden={!showMore}>
-          <div className="grid grid-cols-[minmax(0,1fr)_minmax(0,2fr)] gap-3">
-            <NumberBox
-              id="wireBreaks"
-              label="Wire breaks"
-              unit="count"
-              numeric
-              reg={register("wireBreaks")}
-              error={err.wireBreaks?.message}
-            />
-            <div>
-              <label htmlFor="remarks" className="field-label">
-                Remarks
-              </label>
-              <textarea id="remarks" rows={2} className="field-input py-2" {...register("remarks")} />
-              <FieldError message={err.remarks?.message} />
-            </div>
+      <div id="record-more" className="grid gap-3" hidden={!showMore}>
+        <div className="grid grid-cols-[minmax(0,1fr)_minmax(0,2fr)] gap-3">
+          <NumberBox
+            id="wireBreaks"
+            label="Wire breaks"
+            unit="count"
+            numeric
+            reg={register("wireBreaks")}
+            error={err.wireBreaks?.message}
+          />
+          <div>
+            <label htmlFor="remarks" className="field-label">
+              Remarks
+            </label>
+            <textarea id="remarks" rows={2} className="field-input py-2" {...register("remarks")} />
+            <FieldError message={err.remarks?.message} />
           </div>
-          <PhotoPicker photos={photos} onChange={setPhotos} />
         </div>
+        <PhotoPicker photos={photos} onChange={setPhotos} />
+        <p className="text-base text-ink-soft" data-testid="record-by">
+          Operator {session.name}; the device time and zone ({Intl.DateTimeFormat().resolvedOptions().timeZone}) are
+          stamped on saving.
+        </p>
       </div>
 
-      {offTarget && (
-        <div>
-          <label htmlFor="offTargetReason" className="field-label">
-            Why the gauge is off target
-          </label>
-          <input
-            id="offTargetReason"
-            className="field-input"
-            value={offTarget.reason}
-            onChange={(e) => setOffTarget({ ...offTarget, reason: e.target.value })}
-          />
-        </div>
-      )}
-      {saveError && (
-        <p role="alert" className="font-bold text-signal-stop">
-          {saveError}
-        </p>
-      )}
-      {/* Save stays on screen even when messages make the form taller than the tablet. */}
-      <div className="sticky bottom-0 -mx-4 -mb-4 grid gap-2 rounded-b-lg border-t-2 border-concrete-300 bg-white px-4 py-3">
-        <SafetyCaution />
-        <div className="flex flex-wrap items-center gap-2">
-          <button type="submit" className="btn-primary min-w-40" disabled={saving}>
-            {saving ? "Saving…" : correcting ? "Save correction" : "Save record"}
-          </button>
-          {onCancel && (
-            <button type="button" className="btn-quiet" onClick={onCancel}>
-              Cancel
-            </button>
-          )}
-          <p className="text-base text-ink-soft" data-testid="record-by">
-            Operator {session.name}; the device time and zone ({Intl.DateTimeFormat().resolvedOptions().timeZone}) are
-            stamped on saving.
+      {/* Save, and what stops it, stay on screen even when messages make the form taller than the tablet. */}
+      <div className="sticky bottom-0 -mx-3 -mb-3 grid gap-2 rounded-b-lg border-t-2 border-concrete-300 bg-white px-3 py-2">
+        {saveError && (
+          <p role="alert" className="font-bold text-signal-stop">
+            {saveError}
           </p>
+        )}
+        {offTarget && (
+          <div>
+            <label htmlFor="offTargetReason" className="field-label">
+              Why the gauge is off target
+            </label>
+            <input
+              id="offTargetReason"
+              className="field-input"
+              value={offTarget.reason}
+              onChange={(e) => setOffTarget({ ...offTarget, reason: e.target.value })}
+            />
+          </div>
+        )}
+        <div className="flex gap-3">
+          <div className="grid shrink-0 content-start gap-2">
+            <button type="submit" className="btn-primary min-w-40" disabled={saving}>
+              {saving ? "Saving…" : correcting ? "Save correction" : "Save record"}
+            </button>
+            {onCancel && (
+              <button type="button" className="btn-quiet" onClick={onCancel}>
+                Cancel
+              </button>
+            )}
+            {!moreHasSomething && (
+              <button
+                type="button"
+                className="btn-quiet px-3 text-base"
+                aria-expanded={showMore}
+                aria-controls="record-more"
+                onClick={() => setMoreOpen(!showMore)}
+              >
+                {showMore ? "Fold away details" : "Breaks, remarks, photos"}
+              </button>
+            )}
+          </div>
+          <SafetyCaution className="flex-1 self-start" />
         </div>
       </div>
     </form>
