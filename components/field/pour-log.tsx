@@ -178,7 +178,7 @@ export function PourLog() {
   };
 
   return (
-    <main className="grid gap-4 p-4 landscape:grid-cols-[14rem_minmax(0,1fr)] landscape:items-start">
+    <main className="grid gap-4 p-4 landscape:grid-cols-[15rem_minmax(0,1fr)] landscape:items-start">
       <section
         aria-label="Tendons"
         className="grid gap-3 landscape:sticky landscape:top-28 landscape:max-h-[calc(100vh-8rem)] landscape:overflow-y-auto"
@@ -414,7 +414,7 @@ function TendonPanel(props: {
         {records.length > 0 && (
           <>
             {props.justSaved && (
-              <p className="font-bold" role="status" data-testid="saved-note">
+              <p className="font-bold portrait:order-first portrait:col-span-2" role="status" data-testid="saved-note">
                 {newest?.syncState === "synced"
                   ? "Saved on this tablet and received by the server."
                   : "Saved on this tablet. It is sent when there is signal."}

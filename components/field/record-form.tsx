@@ -45,7 +45,8 @@ function FractionKeys({ target, onPick }: { target: string; onPick: (fraction: s
     <div
       className="flex flex-wrap items-center gap-1"
       role="group"
-      aria-label={`Add a fraction of an inch to ${target}`}
+      aria-label="Fraction keys"
+      data-testid="fraction-keys"
     >
       <span className="mr-1 text-base text-ink-soft" aria-hidden="true">
         Fraction for <strong>{target}</strong>:
@@ -385,10 +386,10 @@ export function RecordForm({
                 <span className="leading-tight">
                   <strong>{s!.name}</strong>
                   <br />
-                  <span className="text-base">gauge {s!.gaugeSerial} · </span>
+                  <span className="text-base">{s!.gaugeSerial} · </span>
                   <span className={`text-base ${c.expired ? "font-bold text-signal-stop" : "text-ink-soft"}`}>
                     {c.calibration
-                      ? `${c.expired ? "calibration EXPIRED" : "calibrated"} until ${c.calibration.validUntil}`
+                      ? `${c.expired ? "calibration EXPIRED" : "valid to"} ${c.calibration.validUntil}`
                       : "no calibration"}
                   </span>
                 </span>

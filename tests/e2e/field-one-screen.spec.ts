@@ -27,6 +27,8 @@ async function expectOnScreen(page: Page, target: Locator, what: string) {
   expect(box!.x, `${what}: left inside the screen`).toBeGreaterThanOrEqual(0);
   expect(box!.y + box!.height, `${what}: bottom inside the ${view.height} px screen`).toBeLessThanOrEqual(view.height);
   expect(box!.x + box!.width, `${what}: right inside the ${view.width} px screen`).toBeLessThanOrEqual(view.width);
+  // Wholly seen, not cut off by a column that scrolls on its own.
+  await expect(target, `${what} is wholly seen`).toBeInViewport({ ratio: 1 });
 }
 
 /** Every button, box and chip of the form is at least 48 px high and wide; boxes type at 16 px or more. */
@@ -120,11 +122,25 @@ test("one tendon end and Save fit on one tablet screen in both orientations, wit
   for (const size of SIZES) {
     await page.setViewportSize(size);
     await page.evaluate(() => window.scrollTo(0, 0));
-    await expectOnScreen(page, page.getByTestId("hold-panel"), "the hold");
+    await expectOnScreen(page, page.getByTestId("hold-panel").getByRole("heading"), "the hold's heading");
     await expectOnScreen(page, page.getByTestId("verdict").locator("[data-verdict]").first(), "the verdict");
     await expectOnScreen(page, form, "the record form");
     await expectOnScreen(page, save, "Save");
     await screenshot(page, `field-record-second-end-${size.name}`);
   }
+
+  // Storage the browser will not protect (headless Chromium refuses): the bar says what that means for unsent records.
+  await page.setViewportSize(SIZES[0]);
+  const storage = page.getByTestId("storage");
+  await expect(storage).toContainText("not protected");
+  await storage.click();
+  const help = page.getByTestId("storage-help");
+  await expect(help).toContainText("may clear it without asking");
+  await expect(help).toContainText(/not sent yet would be lost|every record saved so far is on the server/);
+  await help.getByRole("button", { name: "Ask the browser again" }).click();
+  await expect(help.getByRole("status")).toContainText(/The browser (now protects|refused again)/);
+  await screenshot(page, "field-storage-not-protected");
+  await help.getByRole("button", { name: "Close" }).click();
+  await expect(help).toHaveCount(0);
   await ctx.close();
 });
