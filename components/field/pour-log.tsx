@@ -181,7 +181,7 @@ export function PourLog() {
     <main className="grid gap-4 p-4 landscape:grid-cols-[15rem_minmax(0,1fr)] landscape:items-start">
       <section
         aria-label="Tendons"
-        className="grid gap-3 landscape:sticky landscape:top-28 landscape:max-h-[calc(100vh-8rem)] landscape:overflow-y-auto"
+        className="grid grid-cols-[minmax(0,1fr)] gap-3 landscape:sticky landscape:top-28 landscape:max-h-[calc(100vh-8rem)] landscape:overflow-y-auto"
       >
         <div className="flex flex-wrap items-baseline justify-between gap-2">
           <h1 className="text-figure font-bold">{pour.name}</h1>
@@ -265,7 +265,7 @@ export function PourLog() {
                 data-testid="tendon-row"
               >
                 <span className="grid">
-                  <span className="font-bold">{t.tag}</span>
+                  <span className="font-bold wrap-anywhere">{t.tag}</span>
                   {states.get(t.id) === "flagged" && (
                     <span className="text-label font-semibold text-signal-stop" data-testid="hold-summary">
                       Held · {holdWords.get(t.id) ?? "out of band on this tablet"}
@@ -390,7 +390,7 @@ function TendonPanel(props: {
     >
       {/* Beside the form: the tendon, why it is held, the verdict so far and the tails, never scrolled away by it. */}
       <div
-        className={`grid content-start gap-4 ${showForm ? "overflow-y-auto landscape:sticky landscape:top-28 landscape:max-h-[calc(100vh-8rem)] portrait:max-h-[22vh] portrait:grid-cols-2 portrait:items-start" : ""}`}
+        className={`grid content-start gap-4 ${showForm ? "overflow-y-auto landscape:sticky landscape:top-28 landscape:max-h-[calc(100vh-8rem)] portrait:max-h-[15vh] portrait:grid-cols-2 portrait:items-start" : ""}`}
         data-testid="tendon-status"
       >
         {/* In portrait the form's title names the tendon, so the hold and the verdict come first. */}

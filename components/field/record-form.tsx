@@ -409,25 +409,24 @@ export function RecordForm({
         )}
       </fieldset>
 
-      <div className="grid grid-cols-2 gap-3">
-        <NumberBox
-          id="initialPressure"
-          label="Initial gauge pressure"
-          unit={entryUnits.pressure}
-          reg={register("initialPressure")}
-          error={err.initialPressure?.message}
-          hint="empty if from zero"
-        />
-        <NumberBox
-          id="finalPressure"
-          label="Final gauge pressure"
-          unit={entryUnits.pressure}
-          reg={register("finalPressure")}
-          error={err.finalPressure?.message}
-        />
-      </div>
-
-      <div className="flex flex-wrap gap-x-6 gap-y-3">
+      <div className="flex flex-wrap items-end gap-x-6 gap-y-3">
+        <div className="grid w-[26rem] max-w-full grid-cols-2 gap-3">
+          <NumberBox
+            id="initialPressure"
+            label="Initial gauge pressure"
+            unit={entryUnits.pressure}
+            reg={register("initialPressure")}
+            error={err.initialPressure?.message}
+            hint="empty if from zero"
+          />
+          <NumberBox
+            id="finalPressure"
+            label="Final gauge pressure"
+            unit={entryUnits.pressure}
+            reg={register("finalPressure")}
+            error={err.finalPressure?.message}
+          />
+        </div>
         <fieldset>
           <legend className="field-label">Elongation read as</legend>
           <div className="mt-1 flex flex-wrap gap-2">

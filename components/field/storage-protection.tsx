@@ -43,7 +43,7 @@ export function StorageProtection({ pending }: { pending: number }) {
         data-testid="storage"
       >
         <span className="text-label font-semibold uppercase">Storage</span>
-        <span className="text-body font-bold underline underline-offset-4">not protected: what it means</span>
+        <span className="text-body font-bold underline underline-offset-4">not protected ›</span>
       </button>
       {open && (
         <div
