@@ -336,7 +336,8 @@ export function RecordForm({
       noValidate
     >
       <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
-        <h3 className="text-lead font-bold">
+        {/* In landscape the column beside names the tendon; the row keeps its room for the ends and the target. */}
+        <h3 className={`text-lead font-bold ${correcting ? "" : "landscape:sr-only"}`}>
           {correcting
             ? `Correct end ${correcting.tendonEnd} (revision ${correcting.revision + 1})`
             : `Record ${ctx.tendon.tag}`}
@@ -417,7 +418,7 @@ export function RecordForm({
             unit={entryUnits.pressure}
             reg={register("initialPressure")}
             error={err.initialPressure?.message}
-            hint="empty if from zero"
+            hint="blank = from 0"
           />
           <NumberBox
             id="finalPressure"
