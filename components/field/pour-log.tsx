@@ -390,7 +390,7 @@ function TendonPanel(props: {
     >
       {/* Beside the form: the tendon, why it is held, the verdict so far and the tails, never scrolled away by it. */}
       <div
-        className={`grid content-start gap-4 ${showForm ? "overflow-y-auto landscape:sticky landscape:top-28 landscape:max-h-[calc(100vh-8rem)] portrait:max-h-[15vh] portrait:grid-cols-2 portrait:items-start" : ""}`}
+        className={`grid content-start gap-4 ${showForm ? "overflow-y-auto landscape:sticky landscape:top-28 landscape:max-h-[calc(100vh-10rem)] portrait:max-h-[15vh] portrait:grid-cols-2 portrait:items-start" : ""}`}
         data-testid="tendon-status"
       >
         {/* In portrait the form's title names the tendon, so the hold and the verdict come first. */}

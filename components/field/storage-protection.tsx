@@ -33,7 +33,7 @@ export function StorageProtection({ pending }: { pending: number }) {
   }
 
   return (
-    <div className="relative">
+    <div>
       <button
         type="button"
         className="flex min-h-touch flex-col rounded-md bg-signal-stop-bg px-3 py-1 text-left text-signal-stop"
@@ -50,7 +50,7 @@ export function StorageProtection({ pending }: { pending: number }) {
           id="storage-protection-help"
           role="region"
           aria-label="What unprotected storage means"
-          className="absolute left-0 top-full z-30 mt-2 grid w-[min(32rem,90vw)] gap-2 rounded-md border-2 border-signal-stop bg-white p-4 text-ink shadow-lg"
+          className="fixed inset-x-4 top-20 z-30 mx-auto grid max-w-xl gap-2 rounded-md border-2 border-signal-stop bg-white p-4 text-ink shadow-lg"
           data-testid="storage-help"
         >
           <p>
