@@ -136,6 +136,7 @@ test("one tendon end and Save fit on one tablet screen in both orientations, wit
   await storage.click();
   const help = page.getByTestId("storage-help");
   await expect(help).toContainText("may clear it without asking");
+  await expect(help).toBeInViewport({ ratio: 1 });
   await expect(help).toContainText(/not sent yet would be lost|every record saved so far is on the server/);
   await help.getByRole("button", { name: "Ask the browser again" }).click();
   await expect(help.getByRole("status")).toContainText(/The browser (now protects|refused again)/);
