@@ -89,6 +89,8 @@ export function PourLog() {
   const [query, setQuery] = useState("");
   const [correcting, setCorrecting] = useState<LocalRecord | null>(null);
   const [justSaved, setJustSaved] = useState<string | null>(null);
+  // In portrait the list folds away once a tendon is chosen, so its record form fits the screen.
+  const [listOpen, setListOpen] = useState(false);
 
   const data = useLive(async () => {
     if (!pourId) return null;
@@ -173,18 +175,21 @@ export function PourLog() {
   const stressedCount = [...states.values()].filter((s) => s === "done" || s === "flagged").length;
   const flaggedCount = [...states.values()].filter((s) => s === "flagged").length;
 
+  const folded = selected && !listOpen ? "portrait:hidden" : "";
+
   const go = (t: FieldTendon) => {
     setCorrecting(null);
     setJustSaved(null);
+    setListOpen(false);
     selectTendon(t.id);
   };
 
   return (
-    <main className="grid gap-4 p-4 landscape:grid-cols-[minmax(0,2fr)_minmax(0,3fr)] landscape:items-start">
+    <main className="grid gap-4 p-4 landscape:grid-cols-[15rem_minmax(0,1fr)] landscape:items-start">
       <DecisionNotices pourId={pour.id} className="landscape:col-span-2" />
       <section
         aria-label="Tendons"
-        className="grid gap-3 landscape:sticky landscape:top-28 landscape:max-h-[calc(100vh-8rem)] landscape:overflow-y-auto"
+        className="grid grid-cols-[minmax(0,1fr)] gap-3 landscape:sticky landscape:top-28 landscape:max-h-[calc(100vh-8rem)] landscape:overflow-y-auto"
       >
         <div className="flex flex-wrap items-baseline justify-between gap-2">
           <h1 className="text-figure font-bold">{pour.name}</h1>
@@ -213,23 +218,36 @@ export function PourLog() {
             </span>
           </p>
         )}
-        <label htmlFor="tendon-search" className="field-label">
+        <label htmlFor="tendon-search" className={`field-label ${folded}`}>
           Find a tendon by tag
         </label>
         <input
           id="tendon-search"
           type="search"
-          className="field-input"
+          className={`field-input ${folded}`}
           value={query}
           onChange={(e) => setQuery(e.target.value)}
           placeholder="e.g. U07"
           autoComplete="off"
         />
-        {next && (
-          <button type="button" className="btn-primary" onClick={() => go(next)} data-testid="next-tendon">
-            Next tendon: {next.tag}
-          </button>
-        )}
+        <div className="flex flex-wrap gap-2">
+          {selected && (
+            <button
+              type="button"
+              className="btn-quiet landscape:hidden"
+              aria-expanded={listOpen}
+              aria-controls="tendon-list"
+              onClick={() => setListOpen(!listOpen)}
+            >
+              {listOpen ? "Fold the tendon list" : `Change tendon (${tendons.length})`}
+            </button>
+          )}
+          {next && (
+            <button type="button" className="btn-primary" onClick={() => go(next)} data-testid="next-tendon">
+              Next tendon: {next.tag}
+            </button>
+          )}
+        </div>
         {session && (
           <CutAllClear
             projectId={pour.projectId}
@@ -239,8 +257,12 @@ export function PourLog() {
             timeZone={timeZone}
           />
         )}
-        {shown.length === 0 && <p>No tendon tag contains “{query}”.</p>}
-        <ul className="grid gap-1 portrait:max-h-[34vh] portrait:overflow-y-auto" data-testid="tendon-list">
+        {shown.length === 0 && <p className={folded}>No tendon tag contains “{query}”.</p>}
+        <ul
+          id="tendon-list"
+          className={`grid gap-1 portrait:max-h-[34vh] portrait:overflow-y-auto ${folded}`}
+          data-testid="tendon-list"
+        >
           {shown.map((t) => (
             <li key={t.id}>
               <button
@@ -251,7 +273,7 @@ export function PourLog() {
                 data-testid="tendon-row"
               >
                 <span className="grid">
-                  <span className="font-bold">{t.tag}</span>
+                  <span className="font-bold wrap-anywhere">{t.tag}</span>
                   {states.get(t.id) === "flagged" && (
                     <span className="text-label font-semibold text-signal-stop" data-testid="hold-summary">
                       Held · {holdWords.get(t.id) ?? "out of band on this tablet"}
@@ -372,93 +394,104 @@ function TendonPanel(props: {
   const showForm = !props.released && (Boolean(props.correcting) || adding || !allDone);
 
   return (
-    <>
-      <header className="card grid gap-1">
-        <div className="flex flex-wrap items-center gap-3">
-          <h2 className="text-figure font-bold" data-testid="selected-tag">
-            {tendon.tag}
-          </h2>
-          <StateMark state={props.state} />
-        </div>
-        <p>
-          {tendon.strandCount} × {tendon.strandSize} strand ·{" "}
-          {project.unitSystem === "us" ? `${(lengthMm / 304.8).toFixed(1)} ft` : `${(lengthMm / 1000).toFixed(2)} m`}{" "}
-          long · stressed at {tendon.ends === "both" ? "both ends" : `end ${tendon.ends}`}
-          {lot ? ` · lot ${lot.lotNumber}` : ""}
-        </p>
-      </header>
+    <div
+      className={
+        showForm ? "grid gap-4 landscape:grid-cols-[minmax(0,1fr)_minmax(0,2fr)] landscape:items-start" : "grid gap-4"
+      }
+    >
+      {/* Beside the form: the tendon, why it is held, the verdict so far and the tails, never scrolled away by it. */}
+      <div
+        className={`grid content-start gap-4 ${showForm ? "overflow-y-auto landscape:sticky landscape:top-28 landscape:max-h-[calc(100vh-10rem)] portrait:max-h-[15vh] portrait:grid-cols-2 portrait:items-start" : ""}`}
+        data-testid="tendon-status"
+      >
+        {/* In portrait the form's title names the tendon, so the hold and the verdict come first. */}
+        <header className={`card grid gap-1 p-4 ${showForm ? "portrait:order-last" : ""}`}>
+          <div className="flex flex-wrap items-center gap-3">
+            <h2 className="text-figure font-bold" data-testid="selected-tag">
+              {tendon.tag}
+            </h2>
+            <StateMark state={props.state} />
+          </div>
+          <p>
+            {tendon.strandCount} × {tendon.strandSize} strand ·{" "}
+            {project.unitSystem === "us" ? `${(lengthMm / 304.8).toFixed(1)} ft` : `${(lengthMm / 1000).toFixed(2)} m`}{" "}
+            long · stressed at {tendon.ends === "both" ? "both ends" : `end ${tendon.ends}`}
+            {lot ? ` · lot ${lot.lotNumber}` : ""}
+          </p>
+        </header>
 
-      <HoldPanel flags={props.flags} heldOnTablet={props.state === "flagged"} tendon={tendon} />
+        <HoldPanel flags={props.flags} heldOnTablet={props.state === "flagged"} tendon={tendon} />
 
-      {records.length > 0 && (
-        <>
-          {props.justSaved && (
-            <p className="font-bold" role="status" data-testid="saved-note">
-              {newest?.syncState === "synced"
-                ? "Saved on this tablet and received by the server."
-                : "Saved on this tablet. It is sent when there is signal."}
-            </p>
-          )}
-          <VerdictPanel project={project} local={local} server={newest?.server} targetMPa={target} />
-          <section aria-label="Readings" className="card grid gap-2">
-            <h3 className="font-bold">Readings</h3>
-            {wanted.map((end) => {
-              const r = ends[end];
-              return (
-                <div
-                  key={end}
-                  className="flex flex-wrap items-center justify-between gap-2 border-t border-concrete-300 pt-2"
-                  data-testid={`end-${end}`}
-                >
-                  {r ? (
-                    <>
-                      <p>
-                        End {end}: <strong>{showLength(u, r.measuredMm)}</strong> at{" "}
-                        {showPressure(u, r.finalPressureMPa)} · {r.authorName} ·{" "}
-                        {new Date(r.deviceTime).toLocaleTimeString(undefined, { hour: "2-digit", minute: "2-digit" })}
-                        {r.revision > 1 ? ` · revision ${r.revision} (${r.revisionReason})` : ""} ·{" "}
-                        <span data-testid="sync-state">
-                          {r.syncState === "synced"
-                            ? "sent"
-                            : r.syncState === "pending"
-                              ? "waiting to send"
-                              : `needs attention (${r.syncState})`}
-                        </span>
-                      </p>
-                      {!props.released && (
-                        <button type="button" className="btn-quiet" onClick={() => props.onCorrect(r)}>
-                          Correct
-                        </button>
-                      )}
-                    </>
-                  ) : (
-                    <p>End {end}: not stressed yet.</p>
-                  )}
-                </div>
-              );
-            })}
-            {allDone && !adding && !props.correcting && !props.released && !props.tailsCut && (
-              <button type="button" className="btn-quiet w-fit" onClick={() => setAdding(true)}>
-                Record a restress
-              </button>
+        {records.length > 0 && (
+          <>
+            {props.justSaved && (
+              <p className="font-bold portrait:order-first portrait:col-span-2" role="status" data-testid="saved-note">
+                {newest?.syncState === "synced"
+                  ? "Saved on this tablet and received by the server."
+                  : "Saved on this tablet. It is sent when there is signal."}
+              </p>
             )}
-          </section>
-        </>
-      )}
+            <VerdictPanel project={project} local={local} server={newest?.server} targetMPa={target} />
+            <section aria-label="Readings" className="card grid gap-2">
+              <h3 className="font-bold">Readings</h3>
+              {wanted.map((end) => {
+                const r = ends[end];
+                return (
+                  <div
+                    key={end}
+                    className="flex flex-wrap items-center justify-between gap-2 border-t border-concrete-300 pt-2"
+                    data-testid={`end-${end}`}
+                  >
+                    {r ? (
+                      <>
+                        <p>
+                          End {end}: <strong>{showLength(u, r.measuredMm)}</strong> at{" "}
+                          {showPressure(u, r.finalPressureMPa)} · {r.authorName} ·{" "}
+                          {new Date(r.deviceTime).toLocaleTimeString(undefined, { hour: "2-digit", minute: "2-digit" })}
+                          {r.revision > 1 ? ` · revision ${r.revision} (${r.revisionReason})` : ""} ·{" "}
+                          <span data-testid="sync-state">
+                            {r.syncState === "synced"
+                              ? "sent"
+                              : r.syncState === "pending"
+                                ? "waiting to send"
+                                : `needs attention (${r.syncState})`}
+                          </span>
+                        </p>
+                        {!props.released && (
+                          <button type="button" className="btn-quiet" onClick={() => props.onCorrect(r)}>
+                            Correct
+                          </button>
+                        )}
+                      </>
+                    ) : (
+                      <p>End {end}: not stressed yet.</p>
+                    )}
+                  </div>
+                );
+              })}
+              {allDone && !adding && !props.correcting && !props.released && !props.tailsCut && (
+                <button type="button" className="btn-quiet w-fit" onClick={() => setAdding(true)}>
+                  Record a restress
+                </button>
+              )}
+            </section>
+          </>
+        )}
 
-      {records.length > 0 && props.tailCut}
+        {records.length > 0 && props.tailCut}
 
-      {props.justSaved && props.next && !props.correcting && (
-        <button type="button" className="btn-primary" onClick={() => props.onNext(props.next!)}>
-          Next tendon: {props.next.tag}
-        </button>
-      )}
+        {props.justSaved && props.next && !props.correcting && (
+          <button type="button" className="btn-primary" onClick={() => props.onNext(props.next!)}>
+            Next tendon: {props.next.tag}
+          </button>
+        )}
 
-      {props.released && (
-        <p className="card font-semibold" data-testid="record-refused">
-          The pour is released: this tablet saves no record for {tendon.tag} until the engineer of record reopens it.
-        </p>
-      )}
+        {props.released && (
+          <p className="card font-semibold" data-testid="record-refused">
+            The pour is released: this tablet saves no record for {tendon.tag} until the engineer of record reopens it.
+          </p>
+        )}
+      </div>
 
       {showForm && (
         <RecordForm
@@ -476,6 +509,6 @@ function TendonPanel(props: {
           concreteGate={props.concreteGate}
         />
       )}
-    </>
+    </div>
   );
 }

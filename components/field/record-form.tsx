@@ -33,17 +33,26 @@ function FieldError({ message }: { message?: string }) {
   ) : null;
 }
 
-/** Fraction keys for inch readings: the numeric keypad has no slash, gloves want big keys. */
-function FractionKeys({ value, onPick }: { value: string; onPick: (next: string) => void }) {
+/** A reading box the fraction keys write into. */
+type LengthBox = "marksBefore" | "marksAfter" | "seating" | "drawIn" | `strokes.${number}.value`;
+
+/**
+ * One row of fraction keys for every inch reading: the numeric keypad has no slash, gloves want
+ * big keys, and one row (for the box last touched) keeps the form on one screen.
+ */
+function FractionKeys({ target, onPick }: { target: string; onPick: (fraction: string) => void }) {
   return (
-    <div className="mt-2 flex flex-wrap gap-1" aria-label="Add a fraction of an inch">
+    <div
+      className="flex flex-wrap items-center gap-1"
+      role="group"
+      aria-label="Fraction keys"
+      data-testid="fraction-keys"
+    >
+      <span className="mr-1 text-base text-ink-soft" aria-hidden="true">
+        Fraction for <strong>{target}</strong>:
+      </span>
       {FRACTIONS.map((f) => (
-        <button
-          key={f}
-          type="button"
-          className="btn-quiet min-w-touch px-3"
-          onClick={() => onPick(`${value.replace(/\s*\d+\/\d+\s*$/, "").trim() || "0"} ${f}`)}
-        >
+        <button key={f} type="button" className="btn-quiet min-w-touch px-2" onClick={() => onPick(f)}>
           {f}
         </button>
       ))}
@@ -58,11 +67,11 @@ function NumberBox(props: {
   reg: UseFormRegisterReturn;
   error?: string;
   hint?: string;
-  keys?: React.ReactNode;
   numeric?: boolean;
+  onFocus?: () => void;
 }) {
   return (
-    <div>
+    <div className="grid content-end">
       <label htmlFor={props.id} className="field-label">
         {props.label} <span className="normal-case">({props.unit})</span>
       </label>
@@ -73,14 +82,23 @@ function NumberBox(props: {
         autoComplete="off"
         className="field-input text-lead tabular-nums"
         aria-invalid={Boolean(props.error)}
+        aria-describedby={props.hint ? `${props.id}-hint` : undefined}
+        placeholder={props.hint}
+        onFocus={props.onFocus}
         {...props.reg}
       />
-      {props.hint && <p className="text-label text-ink-faint">{props.hint}</p>}
-      {props.keys}
+      {props.hint && (
+        <span id={`${props.id}-hint`} className="sr-only">
+          {props.hint}
+        </span>
+      )}
       <FieldError message={props.error} />
     </div>
   );
 }
+
+/** A choice among a few, as big pressable chips (the radio itself is hidden, its label is the key). */
+const CHIP = "btn-quiet has-checked:bg-ink has-checked:text-concrete-50";
 
 function formFromEntered(base: LocalRecord): RecordFormValues {
   const e = base.entered as Entered;
@@ -164,7 +182,7 @@ export function RecordForm({
     [correcting?.id, ctx.tendon.id],
   );
   const form = useForm<RecordFormValues>({ resolver: zodResolver(schema), defaultValues: defaults, mode: "onSubmit" });
-  const { register, handleSubmit, setValue, formState, reset, control } = form;
+  const { register, handleSubmit, setValue, getValues, formState, reset, control } = form;
   const strokes = useFieldArray({ control, name: "strokes" });
   const [photos, setPhotos] = useState<PickedPhoto[]>([]);
   const [saveError, setSaveError] = useState<string | null>(null);
@@ -177,8 +195,6 @@ export function RecordForm({
 
   const setId = useWatch({ control, name: "equipmentSetId" });
   const method = useWatch({ control, name: "readingMethod" });
-  const marksBefore = useWatch({ control, name: "marksBefore" });
-  const marksAfter = useWatch({ control, name: "marksAfter" });
   const set = sets.find((s) => s?.id === setId) ?? null;
   const { calibration, expired } = calibrationFor(ctx.calibrations, setId, today);
   const targetMPa = set ? targetFor({ ...ctx, set }, calibration) : null;
@@ -276,18 +292,83 @@ export function RecordForm({
     }
   }
 
+  // The box the fraction keys write into: the last reading box touched, else the one read most.
+  const [fractionTarget, setFractionTarget] = useState<LengthBox | null>(null);
+  const typing = fractionTarget ?? (method === "marks" ? "marksAfter" : "strokes.0.value");
+  const lengthLabel = (box: LengthBox) =>
+    box === "marksBefore"
+      ? "Mark before"
+      : box === "marksAfter"
+        ? "Mark after"
+        : box === "seating"
+          ? "Seating"
+          : box === "drawIn"
+            ? "Draw-in"
+            : `Stroke ${Number(box.split(".")[1]) + 1}`;
+  const pickFraction = (fraction: string) => {
+    const now = String(getValues(typing) ?? "");
+    setValue(typing, `${now.replace(/\s*-?\s*\d+\/\d+\s*$/, "").trim() || "0"} ${fraction}`, {
+      shouldDirty: true,
+    });
+  };
+  // Rarely used on an ordinary end: folded away so the readings and Save fit on one screen, opened
+  // by itself when it holds something or an error.
+  const [moreOpen, setMoreOpen] = useState(false);
+  const moreHasSomething = photos.length > 0 || Boolean(err.wireBreaks || err.remarks);
+  const showMore = moreOpen || moreHasSomething;
+
+  const endChoice = (
+    <fieldset>
+      <legend className="sr-only">Tendon end</legend>
+      <div className="flex gap-2">
+        {/* Only the ends this tendon stresses are offered; a correction keeps its record's end. */}
+        {ends.map((end) => (
+          <label key={end} className={`${CHIP} px-3 ${correcting ? "opacity-40" : ""}`}>
+            <input
+              type="radio"
+              value={end}
+              className="sr-only"
+              disabled={Boolean(correcting)}
+              {...register("tendonEnd")}
+            />
+            End {end}
+            {doneEnds.has(end) && !correcting ? " (done)" : ""}
+          </label>
+        ))}
+      </div>
+      <FieldError message={err.tendonEnd?.message} />
+    </fieldset>
+  );
+
   return (
     <form
       onSubmit={handleSubmit(submit)}
-      className="card grid gap-5"
+      className="card grid gap-3 p-3"
       aria-label={correcting ? "Correct the record" : "New record"}
+      data-testid="record-form"
       noValidate
     >
-      <h3 className="text-lead font-bold">
-        {correcting
-          ? `Correct end ${correcting.tendonEnd} (revision ${correcting.revision + 1})`
-          : `Record ${ctx.tendon.tag}`}
-      </h3>
+      <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
+        {/* In landscape the column beside names the tendon; the row keeps its room for the ends and the target. */}
+        <h3 className={`text-lead font-bold ${correcting ? "" : "landscape:sr-only"}`}>
+          {correcting
+            ? `Correct end ${correcting.tendonEnd} (revision ${correcting.revision + 1})`
+            : `Record ${ctx.tendon.tag}`}
+        </h3>
+        {endChoice}
+        <div className="ml-auto rounded-md bg-concrete-100 px-3 py-1 text-right" data-testid="target-pressure">
+          <span className="field-label">Target gauge pressure</span>
+          <p className="text-lead font-bold tabular-nums">
+            {!set ? "Pick a set" : targetMPa === null ? "No calibration" : showPressure(units(ctx.project), targetMPa)}
+          </p>
+        </div>
+      </div>
+      {/* Blind entry keeps the predicted elongation and its band from the reader, never the pressure to pump to. */}
+      {blind && (
+        <p className="text-base text-ink-soft" data-testid="blind-note">
+          Blind entry: the predicted elongation and its band are shown after saving.
+        </p>
+      )}
 
       {concreteGate !== null && (
         <div className="rounded-md border-2 border-signal-stop p-3" data-testid="concrete-go-ahead">
@@ -328,48 +409,25 @@ export function RecordForm({
       )}
 
       <fieldset>
-        <legend className="field-label">Tendon end</legend>
-        <div className="mt-1 flex gap-2">
-          {/* Only the ends this tendon stresses are offered; a correction keeps its record's end. */}
-          {ends.map((end) => (
-            <label
-              key={end}
-              className={`btn-quiet has-checked:bg-ink has-checked:text-concrete-50 ${correcting ? "opacity-40" : ""}`}
-            >
-              <input
-                type="radio"
-                value={end}
-                className="sr-only"
-                disabled={Boolean(correcting)}
-                {...register("tendonEnd")}
-              />
-              End {end}
-              {doneEnds.has(end) && !correcting ? " (done)" : ""}
-            </label>
-          ))}
-        </div>
-        <FieldError message={err.tendonEnd?.message} />
-      </fieldset>
-
-      <fieldset>
         <legend className="field-label">Equipment set</legend>
-        <div className="mt-1 grid gap-2">
+        <div className="mt-1 flex flex-wrap gap-2">
           {sets.length === 0 && <p>No equipment sets were downloaded with this pour.</p>}
           {sets.map((s) => {
             const c = calibrationFor(ctx.calibrations, s!.id, today);
             return (
               <label
                 key={s!.id}
-                className="flex min-h-touch cursor-pointer items-center gap-3 rounded-md border-2 border-concrete-500 px-3 has-checked:border-ink has-checked:bg-concrete-100"
+                className="flex min-h-touch cursor-pointer items-center gap-2 rounded-md border-2 border-concrete-500 px-3 py-1 has-checked:border-ink has-checked:bg-concrete-100"
               >
-                <input type="radio" value={s!.id} className="h-6 w-6" {...register("equipmentSetId")} />
-                <span>
-                  <strong>{s!.name}</strong> · gauge {s!.gaugeSerial}
+                <input type="radio" value={s!.id} className="h-6 w-6 shrink-0" {...register("equipmentSetId")} />
+                <span className="leading-tight">
+                  <strong>{s!.name}</strong>
                   <br />
-                  <span className={c.expired ? "font-bold text-signal-stop" : "text-ink-soft"}>
+                  <span className="text-base">{s!.gaugeSerial} · </span>
+                  <span className={`text-base ${c.expired ? "font-bold text-signal-stop" : "text-ink-soft"}`}>
                     {c.calibration
-                      ? `${c.expired ? "Calibration EXPIRED" : "Calibrated"} until ${c.calibration.validUntil}`
-                      : "No calibration"}
+                      ? `${c.expired ? "calibration EXPIRED" : "valid to"} ${c.calibration.validUntil}`
+                      : "no calibration"}
                   </span>
                 </span>
               </label>
@@ -388,199 +446,213 @@ export function RecordForm({
         )}
       </fieldset>
 
-      <div className="rounded-md bg-concrete-100 p-3" data-testid="target-pressure">
-        <span className="field-label">Target gauge pressure</span>
-        <p className="text-figure font-bold">
-          {!set ? "Pick a set" : targetMPa === null ? "No calibration" : showPressure(units(ctx.project), targetMPa)}
-        </p>
-        {/* Blind entry keeps the predicted elongation and its band from the reader, never the pressure to pump to. */}
-        {blind && (
-          <p className="text-ink-soft" data-testid="blind-note">
-            Blind entry: the predicted elongation and its band are shown after saving.
-          </p>
+      <div className="flex flex-wrap items-end gap-x-6 gap-y-3">
+        <div className="grid w-[26rem] max-w-full grid-cols-2 gap-3">
+          <NumberBox
+            id="initialPressure"
+            label="Initial gauge pressure"
+            unit={entryUnits.pressure}
+            reg={register("initialPressure")}
+            error={err.initialPressure?.message}
+            hint="blank = from 0"
+          />
+          <NumberBox
+            id="finalPressure"
+            label="Final gauge pressure"
+            unit={entryUnits.pressure}
+            reg={register("finalPressure")}
+            error={err.finalPressure?.message}
+          />
+        </div>
+        <fieldset>
+          <legend className="field-label">Elongation read as</legend>
+          <div className="mt-1 flex flex-wrap gap-2">
+            <label className={`${CHIP} px-3`}>
+              <input type="radio" value="marks" className="sr-only" {...register("readingMethod")} />
+              Marks
+            </label>
+            <label className={`${CHIP} px-3`}>
+              <input type="radio" value="strokes" className="sr-only" {...register("readingMethod")} />
+              Ram strokes
+            </label>
+          </div>
+        </fieldset>
+        {ends.length === 2 && (
+          <fieldset>
+            <legend className="field-label">The two ends were stressed</legend>
+            <div className="mt-1 flex flex-wrap gap-2">
+              <label className={`${CHIP} px-3`}>
+                <input type="radio" value="sequential" className="sr-only" {...register("stressingOrder")} />
+                One after the other
+              </label>
+              <label className={`${CHIP} px-3`}>
+                <input type="radio" value="simultaneous" className="sr-only" {...register("stressingOrder")} />
+                Both at once
+              </label>
+            </div>
+            <FieldError message={err.stressingOrder?.message} />
+          </fieldset>
         )}
       </div>
 
-      <div className="grid gap-4 sm:grid-cols-2">
-        <NumberBox
-          id="initialPressure"
-          label="Initial gauge pressure"
-          unit={entryUnits.pressure}
-          reg={register("initialPressure")}
-          error={err.initialPressure?.message}
-          hint="Where the marks were set; leave empty if from zero."
-        />
-        <NumberBox
-          id="finalPressure"
-          label="Final gauge pressure"
-          unit={entryUnits.pressure}
-          reg={register("finalPressure")}
-          error={err.finalPressure?.message}
-        />
-      </div>
-
-      {ends.length === 2 && (
-        <fieldset>
-          <legend className="field-label">The two ends were stressed</legend>
-          <div className="mt-1 flex flex-wrap gap-2">
-            <label className="btn-quiet has-checked:bg-ink has-checked:text-concrete-50">
-              <input type="radio" value="sequential" className="sr-only" {...register("stressingOrder")} />
-              One after the other
-            </label>
-            <label className="btn-quiet has-checked:bg-ink has-checked:text-concrete-50">
-              <input type="radio" value="simultaneous" className="sr-only" {...register("stressingOrder")} />
-              Both at once
-            </label>
-          </div>
-          <FieldError message={err.stressingOrder?.message} />
-        </fieldset>
-      )}
-
-      <fieldset>
-        <legend className="field-label">Elongation read as</legend>
-        <div className="mt-1 flex flex-wrap gap-2">
-          <label className="btn-quiet has-checked:bg-ink has-checked:text-concrete-50">
-            <input type="radio" value="marks" className="sr-only" {...register("readingMethod")} />
-            Marks before / after (after lock-off)
-          </label>
-          <label className="btn-quiet has-checked:bg-ink has-checked:text-concrete-50">
-            <input type="radio" value="strokes" className="sr-only" {...register("readingMethod")} />
-            Ram strokes
-          </label>
-        </div>
-      </fieldset>
-
       {method === "marks" ? (
-        <div className="grid gap-4 sm:grid-cols-2">
+        <div className="grid grid-cols-3 gap-3">
           <NumberBox
             id="marksBefore"
             label="Mark before"
             unit={entryUnits.length}
             reg={register("marksBefore")}
             error={err.marksBefore?.message}
-            keys={
-              inches && (
-                <FractionKeys value={marksBefore} onPick={(v) => setValue("marksBefore", v, { shouldDirty: true })} />
-              )
-            }
+            onFocus={() => setFractionTarget("marksBefore")}
           />
           <NumberBox
             id="marksAfter"
-            label="Mark after"
+            label="Mark after lock-off"
             unit={entryUnits.length}
             reg={register("marksAfter")}
             error={err.marksAfter?.message}
-            keys={
-              inches && (
-                <FractionKeys value={marksAfter} onPick={(v) => setValue("marksAfter", v, { shouldDirty: true })} />
-              )
-            }
+            onFocus={() => setFractionTarget("marksAfter")}
+          />
+          <NumberBox
+            id="seating"
+            label="Seating, if measured"
+            unit={entryUnits.length}
+            reg={register("seating")}
+            error={err.seating?.message}
+            onFocus={() => setFractionTarget("seating")}
           />
         </div>
       ) : (
-        <div className="grid gap-3">
-          {strokes.fields.map((f, i) => (
-            <div key={f.id} className="flex items-end gap-2">
-              <div className="flex-1">
+        <div className="grid gap-2">
+          <div className="grid grid-cols-3 gap-3">
+            {strokes.fields.map((f, i) => (
+              <div key={f.id} className="grid content-end gap-1">
                 <NumberBox
                   id={`stroke-${i}`}
                   label={`Stroke ${i + 1}`}
                   unit={entryUnits.length}
                   reg={register(`strokes.${i}.value`)}
                   error={err.strokes?.[i]?.value?.message}
+                  onFocus={() => setFractionTarget(`strokes.${i}.value`)}
                 />
+                {strokes.fields.length > 1 && (
+                  <button
+                    type="button"
+                    className="btn-quiet"
+                    onClick={() => (setFractionTarget(null), strokes.remove(i))}
+                  >
+                    Remove stroke {i + 1}
+                  </button>
+                )}
               </div>
-              {strokes.fields.length > 1 && (
-                <button type="button" className="btn-quiet" onClick={() => strokes.remove(i)}>
-                  Remove
-                </button>
-              )}
-            </div>
-          ))}
-          <button
-            type="button"
-            className="btn-quiet w-fit"
-            onClick={() => strokes.append({ value: "" })}
-            disabled={strokes.fields.length >= 8}
-          >
-            Add a stroke
-          </button>
-          {strokes.fields.length > 1 && (
+            ))}
+            {strokes.fields.length > 1 && (
+              <NumberBox
+                id="drawIn"
+                label="Draw-in per re-grip"
+                unit={entryUnits.length}
+                reg={register("drawIn")}
+                error={err.drawIn?.message}
+                hint="empty: the set's, if it has one; 0 for none"
+                onFocus={() => setFractionTarget("drawIn")}
+              />
+            )}
             <NumberBox
-              id="drawIn"
-              label="Draw-in at each re-grip"
+              id="seating"
+              label="Seating, if measured"
               unit={entryUnits.length}
-              reg={register("drawIn")}
-              error={err.drawIn?.message}
-              hint="Taken off the sum once per re-grip. Left empty, the equipment set's draw-in is used if it has one; type 0 for none."
+              reg={register("seating")}
+              error={err.seating?.message}
+              onFocus={() => setFractionTarget("seating")}
             />
-          )}
-          <p className="text-label text-ink-faint">
-            The strokes are added up into the elongation and compared gross, with the strand inside the jack.
-          </p>
+          </div>
+          <div className="flex flex-wrap items-center gap-2">
+            <button
+              type="button"
+              className="btn-quiet"
+              onClick={() => strokes.append({ value: "" })}
+              disabled={strokes.fields.length >= 8}
+            >
+              Add a stroke
+            </button>
+            <p className="text-base text-ink-soft">
+              Strokes are added up and compared gross, with the strand inside the jack.
+            </p>
+          </div>
         </div>
       )}
 
-      <div className="grid gap-4 sm:grid-cols-2">
-        <NumberBox
-          id="seating"
-          label="Measured seating (if taken)"
-          unit={entryUnits.length}
-          reg={register("seating")}
-          error={err.seating?.message}
-        />
-        <NumberBox
-          id="wireBreaks"
-          label="Wire breaks"
-          unit="count"
-          numeric
-          reg={register("wireBreaks")}
-          error={err.wireBreaks?.message}
-        />
-      </div>
+      {inches && <FractionKeys target={lengthLabel(typing)} onPick={pickFraction} />}
 
-      <div>
-        <label htmlFor="remarks" className="field-label">
-          Remarks
-        </label>
-        <textarea id="remarks" rows={2} className="field-input py-2" {...register("remarks")} />
-        <FieldError message={err.remarks?.message} />
-      </div>
-
-      <PhotoPicker photos={photos} onChange={setPhotos} />
-
-      <p className="text-ink-soft" data-testid="record-by">
-        Operator {session.name} · device time and zone ({Intl.DateTimeFormat().resolvedOptions().timeZone}) are stamped
-        when you save.
-      </p>
-      {offTarget && (
-        <div>
-          <label htmlFor="offTargetReason" className="field-label">
-            Why the gauge is off target
-          </label>
-          <input
-            id="offTargetReason"
-            className="field-input"
-            value={offTarget.reason}
-            onChange={(e) => setOffTarget({ ...offTarget, reason: e.target.value })}
+      <div id="record-more" className="grid gap-3" hidden={!showMore}>
+        <div className="grid grid-cols-[minmax(0,1fr)_minmax(0,2fr)] gap-3">
+          <NumberBox
+            id="wireBreaks"
+            label="Wire breaks"
+            unit="count"
+            numeric
+            reg={register("wireBreaks")}
+            error={err.wireBreaks?.message}
           />
+          <div>
+            <label htmlFor="remarks" className="field-label">
+              Remarks
+            </label>
+            <textarea id="remarks" rows={2} className="field-input py-2" {...register("remarks")} />
+            <FieldError message={err.remarks?.message} />
+          </div>
         </div>
-      )}
-      {saveError && (
-        <p role="alert" className="font-bold text-signal-stop">
-          {saveError}
+        <PhotoPicker photos={photos} onChange={setPhotos} />
+        <p className="text-base text-ink-soft" data-testid="record-by">
+          Operator {session.name}; the device time and zone ({Intl.DateTimeFormat().resolvedOptions().timeZone}) are
+          stamped on saving.
         </p>
-      )}
-      <SafetyCaution />
-      <div className="flex flex-wrap gap-2">
-        <button type="submit" className="btn-primary min-w-40" disabled={saving}>
-          {saving ? "Saving…" : correcting ? "Save correction" : "Save record"}
-        </button>
-        {onCancel && (
-          <button type="button" className="btn-quiet" onClick={onCancel}>
-            Cancel
-          </button>
+      </div>
+
+      {/* Save, and what stops it, stay on screen even when messages make the form taller than the tablet. */}
+      <div className="sticky bottom-0 -mx-3 -mb-3 grid gap-2 rounded-b-lg border-t-2 border-concrete-300 bg-white px-3 py-2">
+        {saveError && (
+          <p role="alert" className="font-bold text-signal-stop">
+            {saveError}
+          </p>
         )}
+        {offTarget && (
+          <div>
+            <label htmlFor="offTargetReason" className="field-label">
+              Why the gauge is off target
+            </label>
+            <input
+              id="offTargetReason"
+              className="field-input"
+              value={offTarget.reason}
+              onChange={(e) => setOffTarget({ ...offTarget, reason: e.target.value })}
+            />
+          </div>
+        )}
+        <div className="flex gap-3">
+          <div className="grid shrink-0 content-start gap-2">
+            <button type="submit" className="btn-primary min-w-40" disabled={saving}>
+              {saving ? "Saving…" : correcting ? "Save correction" : "Save record"}
+            </button>
+            {onCancel && (
+              <button type="button" className="btn-quiet" onClick={onCancel}>
+                Cancel
+              </button>
+            )}
+            {!moreHasSomething && (
+              <button
+                type="button"
+                className="btn-quiet px-3 text-base"
+                aria-expanded={showMore}
+                aria-controls="record-more"
+                onClick={() => setMoreOpen(!showMore)}
+              >
+                {showMore ? "Fold away details" : "Breaks, remarks, photos"}
+              </button>
+            )}
+          </div>
+          <SafetyCaution className="flex-1 self-start" />
+        </div>
       </div>
     </form>
   );

@@ -2,6 +2,7 @@
 import { useEffect, useState } from "react";
 import { EMPTY_SYNC_META, readMeta, type SyncMeta } from "@/lib/offline/db";
 import { useField } from "./field-provider";
+import { StorageProtection } from "./storage-protection";
 import { ago, clockTime, useLive, useNow } from "./use-live";
 
 function useOnline(): boolean {
@@ -109,18 +110,15 @@ export function SyncStatusBar() {
           tone={status?.attention ? "warn" : "plain"}
         />
         {photos > 0 && <Item testId="photos-waiting" label="Photos to upload" value={String(photos)} />}
-        <Item
-          testId="storage"
-          label="Storage"
-          value={
-            meta?.storagePersisted === null || meta === undefined
-              ? "checking…"
-              : meta.storagePersisted
-                ? "protected"
-                : "not protected"
-          }
-          tone={meta?.storagePersisted === false ? "warn" : "plain"}
-        />
+        {meta?.storagePersisted === false ? (
+          <StorageProtection pending={pending} />
+        ) : (
+          <Item
+            testId="storage"
+            label="Storage"
+            value={meta?.storagePersisted === null || meta === undefined ? "checking…" : "protected"}
+          />
+        )}
         <button
           type="button"
           className="btn-primary ml-auto"

@@ -2,11 +2,12 @@ import { Caution } from "@/components/ui/caution";
 import type { LocalVerdict } from "@/lib/offline/db";
 import type { FieldProject, OpEvaluation } from "@/lib/schemas/sync";
 import {
-  showBandEdge,
+  showBandAsRead,
   showComputedLength,
   showForce,
   showLength,
   showPct,
+  showPredictedAsRead,
   showPressure,
   type StoredResolution,
 } from "@/lib/stressing/display";
@@ -47,6 +48,32 @@ export function VerdictMark({ verdict, children }: { verdict: keyof typeof LOOK;
       {look.word}
       {children}
     </span>
+  );
+}
+
+/**
+ * Measured, predicted and the band in the crew's own form: on an inch project fractions at the
+ * reading division, with the decimals beside them only where they decide (`showBandAsRead`).
+ */
+function BandLine({ project, local }: { project: FieldProject; local: LocalVerdict }) {
+  const u = units(project);
+  const band = showBandAsRead(u, { lowerMm: local.lowerMm!, upperMm: local.upperMm!, measuredMm: local.measuredMm });
+  const offDivision = band.decimals !== null;
+  return (
+    <p className="text-lead">
+      Measured <strong>{showLength(u, local.measuredMm!)}</strong>
+      {offDivision && <span className="text-body"> ({showComputedLength(u, local.measuredMm!)})</span>} against
+      predicted <strong>{showPredictedAsRead(u, local.predictedMm!)}</strong>
+      {offDivision && <span className="text-body"> ({showComputedLength(u, local.predictedMm!)})</span>}; the band is{" "}
+      <strong data-testid="band">{band.read}</strong>
+      {band.decimals && (
+        <span className="text-body" data-testid="band-decimals">
+          {" "}
+          ({band.decimals}, which decides here)
+        </span>
+      )}{" "}
+      (±{project.tolerancePct} %).
+    </p>
   );
 }
 
@@ -94,14 +121,7 @@ export function VerdictPanel({
           local.predictedMm !== null &&
           local.lowerMm !== null &&
           local.upperMm !== null ? (
-            <p className="text-lead">
-              Measured <strong>{showLength(u, local.measuredMm)}</strong> against predicted{" "}
-              <strong>{showComputedLength(u, local.predictedMm)}</strong>; the band is{" "}
-              <strong data-testid="band">
-                {showBandEdge(u, local.lowerMm, "lower")} to {showBandEdge(u, local.upperMm, "upper")}
-              </strong>{" "}
-              (±{project.tolerancePct} %).
-            </p>
+            <BandLine project={project} local={local} />
           ) : (
             <p
               className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-bold text-signal-stop"

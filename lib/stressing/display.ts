@@ -13,8 +13,8 @@ export {
   type DisplayUnits,
   type StoredResolution,
 } from "@/lib/format/quantities";
-import { mmToIn } from "@/lib/units";
-import { showComputedLength, showPct, type DisplayUnits } from "@/lib/format/quantities";
+import { formatLength, formatLengthInward, mmToIn, resolutionStepMm } from "@/lib/units";
+import { readingResolution, showComputedLength, showPct, type DisplayUnits } from "@/lib/format/quantities";
 
 /**
  * A band edge, shown at the precision of computed lengths but never rounded outward: the lower
@@ -55,4 +55,32 @@ export function governsLine(
       `difference ${j.shopDrawing.differenceMm >= 0 ? "+" : "−"}${showComputedLength(project, Math.abs(j.shopDrawing.differenceMm))}, ${showPct(j.shopDrawing.differencePct)}.`
     : " The schedule gives no shop-drawing elongation.";
   return `${who}.${side}${j.governsNote ? ` ${j.governsNote}` : ""}`;
+}
+
+/**
+ * The band on the tablet, the way the crew reads the tape. On an inch project each edge is the
+ * nearest division inside the band (`formatLengthInward`), so a reading on the division is in band
+ * exactly when it lies between the two fractions; the decimal band is added only when the
+ * elongation judged is not a reading on the division (an initial-pressure correction, a draw-in),
+ * where the fractions alone could not decide. Millimetre projects keep `showBandEdge`.
+ */
+export function showBandAsRead(
+  project: DisplayUnits,
+  band: { lowerMm: number; upperMm: number; measuredMm: number | null },
+): { read: string; decimals: string | null } {
+  const decimals = `${showBandEdge(project, band.lowerMm, "lower")} to ${showBandEdge(project, band.upperMm, "upper")}`;
+  if (project.unitSystem === "si") return { read: decimals, decimals: null };
+  const resolution = readingResolution(project.readingResolution);
+  const read = `${formatLengthInward(band.lowerMm, resolution, "lower")} to ${formatLengthInward(band.upperMm, resolution, "upper")}`;
+  const step = resolutionStepMm(resolution);
+  const onDivision =
+    band.measuredMm !== null && Math.abs(band.measuredMm / step - Math.round(band.measuredMm / step)) < 1e-6;
+  return { read, decimals: onDivision ? null : decimals };
+}
+
+/** A prediction on the tablet: to the reading division on an inch project, as computed otherwise. */
+export function showPredictedAsRead(project: DisplayUnits, mm: number): string {
+  return project.unitSystem === "si"
+    ? showComputedLength(project, mm)
+    : formatLength(mm, readingResolution(project.readingResolution));
 }

@@ -4,6 +4,7 @@ import { InputError } from "./errors";
 import {
   formatForce,
   formatLength,
+  formatLengthInward,
   formatPressure,
   READING_RESOLUTIONS,
   resolutionStepMm,
@@ -12,6 +13,51 @@ import {
 import { parseLength } from "./parse";
 
 const inch = (value: number): number => value * 25.4;
+
+describe("formatLengthInward", () => {
+  // Hand-rounded: a band of 5.14 in to 5.91 in read on a tape; 1/8 in = 0.125 in, 1/16 in = 0.0625 in.
+  it.each([
+    [inch(5.14), "1/8 in", "lower", "5 1/4 in"], // 5.125 < 5.14, so the first division inside is 5.25
+    [inch(5.91), "1/8 in", "upper", "5 7/8 in"], // 5.875 ≤ 5.91 < 6.0
+    [inch(5.14), "1/16 in", "lower", "5 3/16 in"], // 5.125 < 5.14 ≤ 5.1875
+    [inch(5.91), "1/16 in", "upper", "5 7/8 in"], // 5.875 ≤ 5.91 < 5.9375
+    [inch(5.5), "1/8 in", "lower", "5 1/2 in"], // on a division: stays
+    [inch(5.5), "1/8 in", "upper", "5 1/2 in"],
+    [inch(0.1), "1/8 in", "lower", "1/8 in"],
+    [inch(0.1), "1/8 in", "upper", "0 in"],
+    [130.4, "1 mm", "lower", "131 mm"],
+    [150.6, "1 mm", "upper", "150 mm"],
+  ] as const)("shows %d mm at %s as the %s edge %j", (mm, resolution, edge, text) => {
+    expect(formatLengthInward(mm, resolution, edge)).toBe(text);
+  });
+
+  it("decides a reading on the division exactly as the band itself does", () => {
+    const resolutions = ["1/16 in", "1/8 in"] as const;
+    fc.assert(
+      fc.property(
+        fc.constantFrom(...resolutions),
+        fc.double({ min: 10, max: 400, noNaN: true }),
+        fc.double({ min: 0.01, max: 0.2, noNaN: true }),
+        fc.integer({ min: 0, max: 8000 }),
+        (resolution, predictedMm, tolerance, steps) => {
+          const lower = predictedMm * (1 - tolerance);
+          const upper = predictedMm * (1 + tolerance);
+          const reading = steps * resolutionStepMm(resolution);
+          const read = (text: string) => parseLength(text, { field: "edge", system: "US" });
+          const shownLower = read(formatLengthInward(lower, resolution, "lower"));
+          const shownUpper = read(formatLengthInward(upper, resolution, "upper"));
+          const inBand = reading >= lower - 1e-6 && reading <= upper + 1e-6;
+          const inShown = reading >= shownLower - 1e-9 && reading <= shownUpper + 1e-9;
+          expect(inShown).toBe(inBand);
+        },
+      ),
+    );
+  });
+
+  it("refuses a value that is not finite", () => {
+    expect(() => formatLengthInward(Number.NaN, "1/8 in", "lower", "lowerMm")).toThrow(InputError);
+  });
+});
 
 describe("formatLength", () => {
   it.each([

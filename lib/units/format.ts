@@ -45,8 +45,30 @@ export function formatLength(mm: number, resolution: ReadingResolution, field = 
   requireFinite(mm, field);
   const divisions = INCH_DIVISIONS[resolution];
   if (divisions === undefined) return `${roundedSteps(mm, 1) + 0} mm`;
+  return divisionsText(roundedSteps(mm / MM_PER_INCH, 1 / divisions), divisions);
+}
 
-  const count = roundedSteps(mm / MM_PER_INCH, 1 / divisions);
+/**
+ * A band edge as the tape reads it: the nearest division inside the band (the lower edge rounded
+ * up, the upper edge down), so a reading taken on the division is inside the band exactly when it
+ * lies between the two edges shown. An edge that falls on a division (within a nanometre of
+ * conversion noise) stays on it.
+ */
+export function formatLengthInward(
+  mm: number,
+  resolution: ReadingResolution,
+  edge: "lower" | "upper",
+  field = "value",
+): string {
+  requireFinite(mm, field);
+  const divisions = INCH_DIVISIONS[resolution];
+  const steps = mm / resolutionStepMm(resolution);
+  const noise = 1e-6 / resolutionStepMm(resolution);
+  const count = (edge === "lower" ? Math.ceil(steps - noise) : Math.floor(steps + noise)) + 0;
+  return divisions === undefined ? `${count} mm` : divisionsText(count, divisions);
+}
+
+function divisionsText(count: number, divisions: number): string {
   const sign = count < 0 ? "-" : "";
   const whole = Math.floor(Math.abs(count) / divisions);
   const remainder = Math.abs(count) % divisions;

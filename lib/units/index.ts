@@ -6,6 +6,7 @@ export type { LengthParseOptions, ParseOptions } from "./parse";
 export {
   formatForce,
   formatLength,
+  formatLengthInward,
   formatPressure,
   READING_RESOLUTIONS,
   resolutionStepMm,

@@ -40,6 +40,40 @@ describe("parseLength", () => {
     expect(parseLength(typed, si)).toBeCloseTo(mm, 12);
   });
 
+  // Site notation, worked by hand from 1 in = 25.4 mm and 1 ft = 12 in exactly (NIST SP 811,
+  // Appendix B): 5 ft 6 1/2 in = 66.5 in = 1689.1 mm; 6 1/2 in = 165.1 mm; 5 ft 6 in = 1676.4 mm.
+  it.each([
+    [`5'-6 1/2"`, 1689.1],
+    [`5' 6 1/2"`, 1689.1],
+    [`5'-6-1/2"`, 1689.1],
+    [`5′-6½″`, 1689.1],
+    [`5 ft 6 1/2 in`, 1689.1],
+    [`5'6"`, 1676.4],
+    [`5 ft 6`, 1676.4],
+    [`5'-0"`, 1524],
+    [`0'-3/8"`, 9.525],
+    [`12'`, 3657.6],
+    [`6 1/2"`, 165.1],
+    [`6-1/2`, 165.1],
+    [`6.5 in`, 165.1],
+    [`165 mm`, 165],
+  ])("reads the site notation %j as %d mm on a US project", (typed, mm) => {
+    expect(parseLength(typed, us)).toBeCloseTo(mm, 9);
+  });
+
+  it("reads feet and inches on an SI project too, since the marks say which is which", () => {
+    expect(parseLength(`5'-6 1/2"`, si)).toBeCloseTo(1689.1, 9);
+  });
+
+  it("refuses feet followed by something that is not inches below 12, naming the field", () => {
+    expectInputError(() => parseLength(`5'-12"`, us), "readingA", "bad-fraction");
+    expectInputError(() => parseLength(`5'-6 mm`, us), "readingA", "unknown-unit");
+    expectInputError(() => parseLength(`5'-abc`, us), "readingA", "not-a-number");
+    expectInputError(() => parseLength(`5'-6" 3`, us), "readingA", "not-a-number");
+    expectInputError(() => parseLength(`-5'-6"`, us), "readingA", "negative");
+    expect(parseLength(`-5'-6"`, { ...us, allowNegative: true })).toBeCloseTo(-1676.4, 9);
+  });
+
   it("honours an explicit unit over the project's default", () => {
     expect(parseLength("212 mm", us)).toBe(212);
     expect(parseLength("8 3/8 in", si)).toBeCloseTo(8.375 * 25.4, 12);

@@ -1,5 +1,6 @@
 import { InputError } from "./errors";
-import { readTypedNumber } from "./read-number";
+import { MM_PER_FOOT, MM_PER_INCH } from "./factors";
+import { normalizeTyped, readTypedNumber } from "./read-number";
 import {
   DEFAULT_UNITS,
   FORCE_UNITS,
@@ -44,13 +45,50 @@ function resolveUnit<U extends string>(
   return spec;
 }
 
+// Whole feet, the foot mark, an optional dash, then the inches: "5'-6 1/2\"", "5' 6\"", "5 ft 6 in".
+const FEET_THEN_INCHES = /^([+-]?)\s*(\d+)\s*(?:'|ft\.?|feet|foot)\s*(?:-\s*)?(\S.*)$/i;
+
 /**
- * Reads a length as crews type it — "8 3/8", "8-3/8\"", "8.375 in", "212 mm", "212", "3/4" —
+ * Feet and inches as written on drawings and read off a tape ("5'-6 1/2\""): millimetres, or null
+ * when the text is not feet followed by inches (then the ordinary reading applies, so "5'" alone
+ * is five feet). The inches part takes any of the inch forms and must be below 12.
+ */
+function readFeetInches(text: string, field: string): number | null {
+  if (typeof text !== "string") return null;
+  const match = FEET_THEN_INCHES.exec(normalizeTyped(text));
+  if (!match) return null;
+  const [, sign, feet, rest] = match;
+  const inches = readTypedNumber(rest, field);
+  const unit = inches.unitText === "" ? "in" : findUnitByAlias(LENGTH_UNITS, inches.unitText)?.unit;
+  if (unit !== "in") {
+    throw new InputError(
+      field,
+      "unknown-unit",
+      `"${text}": after the feet, type inches ("5'-6 1/2\"") or give the whole length in one unit`,
+    );
+  }
+  if (inches.value < 0 || inches.value >= 12) {
+    throw new InputError(field, "bad-fraction", `"${text}": the inches after the feet must be from 0 to below 12`);
+  }
+  const mm = Number(feet) * MM_PER_FOOT + inches.value * MM_PER_INCH;
+  return sign === "-" ? -mm + 0 : mm;
+}
+
+/**
+ * Reads a length as crews type it — "8 3/8", "8-3/8\"", "8.375 in", "212 mm", "212", "3/4",
+ * "5'-6 1/2\"" —
  * and returns millimetres. A bare number is in the project's reading unit (inches for US,
  * millimetres for SI). Fractions are accepted for inches only.
  */
 export function parseLength(text: string, options: LengthParseOptions): number {
   const { field } = options;
+  const feetInches = readFeetInches(text, field);
+  if (feetInches !== null) {
+    if (feetInches < 0 && !options.allowNegative) {
+      throw new InputError(field, "negative", `"${text}" is negative; a length here cannot be`);
+    }
+    return feetInches;
+  }
   const typed = readTypedNumber(text, field);
   const fallback = options.defaultUnit ?? DEFAULT_UNITS[options.system].length;
   const spec = resolveUnit(LENGTH_UNITS, typed.unitText, fallback, field, text);
