@@ -47,8 +47,14 @@ export function tendonState(
   const wanted = stressedEnds(tendon.ends);
   const done = wanted.filter((e) => ends[e]).length;
   const localOut = Object.values(ends).some((r) => r?.local && r.local.verdict !== "in band");
-  const serverOut = latest && latest.verdict !== "in band" && latest.verdict !== "incomplete";
-  if (flags.some((f) => f.status !== "closed") || serverOut || localOut) return "flagged";
+  const serverOut = latest !== undefined && latest.verdict !== "in band" && latest.verdict !== "incomplete";
+  if (flags.some((f) => f.status !== "closed")) return "flagged";
+  // Once the server has judged every current record, its judgement governs: an out-of-band verdict
+  // whose flags are all closed (the engineer accepted it) no longer holds the tendon, and the tablet's
+  // own provisional check gives way. Before that, either verdict out of band holds it; so does the
+  // server's when its flags have not arrived yet.
+  const judged = latest !== undefined && Object.values(ends).every((r) => r?.syncState === "synced");
+  if (judged ? serverOut && flags.length === 0 : serverOut || localOut) return "flagged";
   if (done === 0) return "not stressed";
   return done < wanted.length ? "one end done" : "done";
 }
