@@ -396,6 +396,18 @@ function bodyArbitrary(seed: Record<string, unknown> | null, w: World): fc.Arbit
   const spoilOne = fc
     .record({ at: fc.constantFrom(...leafPaths(seed)), value: fc.oneof(junk, foreignIds) })
     .map(({ at, value }) => toText(replaceAt(seed, at, value)));
+  // A control character inside a text the body otherwise gets right.
+  const stringPaths = leafPaths(seed).filter(
+    (p) => typeof p.reduce<unknown>((v, k) => (v as never)[k], seed) === "string",
+  );
+  const controlInText = fc
+    .record({
+      at: fc.constantFrom(...(stringPaths.length ? stringPaths : leafPaths(seed))),
+      c: fc.constantFrom("\u0000", "\u0007", "\u001b", "\u007f", "\u0085"),
+    })
+    .map(({ at, c }) =>
+      toText(replaceAt(seed, at, `${String(at.reduce<unknown>((v, k) => (v as never)[k], seed))}${c}x`)),
+    );
   const dropOne = fc.constantFrom(...keys).map((key) => {
     const copy: Record<string, unknown> = { ...seed };
     delete copy[key];
@@ -410,6 +422,7 @@ function bodyArbitrary(seed: Record<string, unknown> | null, w: World): fc.Arbit
   return fc.oneof(
     { weight: 2, arbitrary: generic },
     { weight: 5, arbitrary: spoilOne },
+    { weight: 1, arbitrary: controlInText },
     { weight: 2, arbitrary: dropOne },
     { weight: 1, arbitrary: extra },
     { weight: 2, arbitrary: spoilMany },
