@@ -22,15 +22,22 @@ const nextConfig = {
           { key: "Referrer-Policy", value: "same-origin" },
           { key: "X-Frame-Options", value: "DENY" },
           {
-            key: "Content-Security-Policy",
-            value: "frame-ancestors 'none'; base-uri 'self'; object-src 'none'; form-action 'self'",
-          },
-          {
             key: "Permissions-Policy",
             value: "camera=(self), microphone=(), geolocation=(), payment=(), usb=(), interest-cohort=()",
           },
         ],
       },
+      // Pages get a policy with a fresh script nonce from proxy.ts; route handlers and the worker
+      // script, which proxy.ts leaves alone, get this one.
+      ...["/api/:path*", "/sw.js"].map((source) => ({
+        source,
+        headers: [
+          {
+            key: "Content-Security-Policy",
+            value: "frame-ancestors 'none'; base-uri 'self'; object-src 'none'; form-action 'self'",
+          },
+        ],
+      })),
     ];
   },
 };

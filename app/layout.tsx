@@ -1,4 +1,5 @@
 import type { Metadata, Viewport } from "next";
+import { connection } from "next/server";
 import type { ReactNode } from "react";
 import { sans } from "./fonts";
 import "./globals.css";
@@ -17,7 +18,10 @@ export const viewport: Viewport = {
   initialScale: 1,
 };
 
-export default function RootLayout({ children }: { children: ReactNode }) {
+// Every page is rendered per request, so Next.js can put the request's CSP nonce (proxy.ts) on
+// its scripts; a page prerendered at build time would carry none and its scripts would not run.
+export default async function RootLayout({ children }: { children: ReactNode }) {
+  await connection();
   return (
     <html lang="en" className={sans.variable}>
       <body className="min-h-screen">{children}</body>

@@ -1,15 +1,14 @@
 import { z } from "zod";
+import { text } from "./text";
 
 /** What the inspector types to sign a report: their name, licence or certification, and the statement. */
 export const reportSignatureSchema = z.object({
-  signerName: z.string().trim().min(2, "Type your name as you sign.").max(120, "Use at most 120 characters."),
-  licence: z
-    .string()
+  signerName: text().trim().min(2, "Type your name as you sign.").max(120, "Use at most 120 characters."),
+  licence: text()
     .trim()
     .min(3, "Type your licence or certification number (e.g. ICC special inspector 1234567).")
     .max(160, "Use at most 160 characters."),
-  statement: z
-    .string()
+  statement: text()
     .trim()
     .min(20, "Write the statement you sign, at least a sentence.")
     .max(2000, "Use at most 2,000 characters."),

@@ -1,12 +1,12 @@
 import { z } from "zod";
+import { text } from "./text";
 
 /** Longest a read-only link may live before it must be made again. */
 export const MAX_SHARE_DAYS = 180;
 
 /** A read-only link to the project's status board for the general contractor or the building official. */
 export const shareLinkSchema = z.object({
-  label: z
-    .string()
+  label: text()
     .trim()
     .min(2, "Say who the link is for (e.g. the general contractor).")
     .max(120, "Use at most 120 characters."),

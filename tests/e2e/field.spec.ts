@@ -129,6 +129,10 @@ test("a tablet whose sign-in ran out keeps what it holds and sends it once the c
   await signInWithPassword(page, PEOPLE.crew);
   await page.waitForURL(/\/home/);
   await page.goto("/field");
+  // As in the shift above: the offline worker controls the page before the signal goes (pages are
+  // rendered per request for their CSP nonce, so the tendon list's code comes from the worker).
+  await page.evaluate(() => navigator.serviceWorker.ready);
+  await page.waitForFunction(() => navigator.serviceWorker.controller !== null);
   await page.getByTestId("available-pour").filter({ hasText: POUR }).getByRole("button").click();
   const ready = page.getByTestId("ready-pour").filter({ hasText: POUR });
   await expect(ready.getByTestId("ready-offline")).toBeVisible();
