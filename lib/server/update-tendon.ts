@@ -81,6 +81,8 @@ export async function updateTendon(
         jack_grip_mm: v.jackGripMm,
         shop_elongation_mm: v.shopElongationMm,
         strand_lot_id: v.strandLotId,
+        // Absent from the body: the member stays as it was.
+        ...(v.member !== undefined && { member: v.member }),
         updated_at: new Date(),
       })
       .where("project_id", "=", input.projectId)
@@ -96,6 +98,7 @@ export async function updateTendon(
       ["grip length", before.jack_grip_mm, v.jackGripMm],
       ["shop-drawing elongation", before.shop_elongation_mm, v.shopElongationMm],
       ["strand lot", before.strand_lot_id, v.strandLotId],
+      ["member", before.member, v.member === undefined ? before.member : v.member],
     ];
     const moved = judging.filter(([, a, b]) => a !== b).map(([name]) => name);
     // Raising the version holds the tendon until this transaction ends, so a record of it pushed
@@ -109,9 +112,25 @@ export async function updateTendon(
       .limit(1)
       .executeTakeFirst();
     const reason = `tendon ${v.tag} schedule edited: ${moved.join(", ")}`;
+    // The member, and the steel the tendon adds to it, are also read by its neighbours' group band
+    // and wire-break ledger: then every stressed tendon of the pour is judged again.
+    const neighbours = moved.some((m) => ["member", "strand size", "strands", "strand lot"].includes(m));
+    const tendonIds = neighbours
+      ? (
+          await trx
+            .selectFrom("records")
+            .select("tendon_id")
+            .distinct()
+            .where("project_id", "=", input.projectId)
+            .where("pour_id", "=", before.pour_id)
+            .execute()
+        ).map((r) => r.tendon_id)
+      : stressed
+        ? [input.tendonId]
+        : [];
     const result =
-      stressed && moved.length
-        ? await reevaluateTendons(trx, { projectId: input.projectId, tendonIds: [input.tendonId], reason })
+      tendonIds.length && moved.length
+        ? await reevaluateTendons(trx, { projectId: input.projectId, tendonIds, reason })
         : { reevaluated: 0, changed: 0, closedFlags: 0 };
     await recordAudit(trx, {
       action: "tendon.update",

@@ -3,6 +3,7 @@ import { projectSettingsSchema } from "@/lib/schemas/project-settings";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getProjectSettings } from "@/lib/server/get-project-settings";
 import { updateProjectSettings } from "@/lib/server/update-project-settings";
+import { updateTendon } from "@/lib/server/update-tendon";
 import { importTendonSchedule } from "@/lib/server/import-tendon-schedule";
 import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { predictTendon } from "@/lib/stressing/basis";
@@ -121,5 +122,43 @@ describe("the wire-break ledger of a member", () => {
     expect(after).toEqual([
       expect.objectContaining({ status: "closed", close_reason: expect.stringMatching(/Re-evaluated/) }),
     ]);
+
+    // Back to 2 %, then B-3-2 (one wire) is moved into beam B-4: B-4 now holds 2 wires of 11 strands
+    // (2.6 %), so its own broken tendon B-4-1 is flagged, and B-3 keeps 1 wire of 9 (1.6 %).
+    await updateProjectSettings(t.db, { projectId: fx.projectId, values: settings, by: fx.crewId });
+    const row = await t.db
+      .selectFrom("tendons")
+      .selectAll()
+      .where("id", "=", tendon.get("B-3-2")!.id)
+      .executeTakeFirstOrThrow();
+    const moved = await updateTendon(t.db, {
+      projectId: fx.projectId,
+      tendonId: row.id,
+      by: fx.crewId,
+      values: {
+        tag: row.tag,
+        kind: row.kind,
+        strandSize: row.strand_size as "0.5 in",
+        strandCount: row.strand_count,
+        segments: row.segments,
+        ends: row.ends,
+        jackGripMm: row.jack_grip_mm,
+        shopElongationMm: row.shop_elongation_mm,
+        strandLotId: row.strand_lot_id,
+        member: "Beam B-4",
+      },
+    });
+    expect(moved.reevaluated).toBe(4); // every stressed tendon of the pour
+    const open = await t.db
+      .selectFrom("flags")
+      .innerJoin("tendons", "tendons.id", "flags.tendon_id")
+      .select(["tendons.tag", "flags.reason"])
+      .where("flags.pour_id", "=", pourId)
+      .where("flags.kind", "=", "member_wire_loss")
+      .where("flags.status", "!=", "closed")
+      .orderBy("tendons.tag")
+      .execute();
+    expect(open.map((f) => f.tag)).toEqual(["B-3-2", "B-4-1"]);
+    expect(open[1]!.reason).toMatch(/member Beam B-4 has 2 broken wires not replaced, 2\.6 %/);
   });
 });
