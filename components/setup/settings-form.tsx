@@ -38,6 +38,7 @@ function fields(us: boolean) {
     timeZone: z.string(),
     jackingForceFactor: units.number(),
     wireLossLimitPct: units.number(),
+    liftoffBandPct: units.number(),
     underForcePct: units.number(),
     seatingExcessMm: units.length(system, us ? "in" : "mm"),
     clockSkewMinutes: units.number(),
@@ -60,6 +61,7 @@ function resolver(us: boolean) {
       // Required boxes: units.number() has already refused an empty one.
       jackingForceFactor: v.jackingForceFactor as number,
       wireLossLimitPct: v.wireLossLimitPct as number,
+      liftoffBandPct: v.liftoffBandPct as number,
       underForcePct: v.underForcePct as number,
       seatingExcessMm: v.seatingExcessMm as number,
       clockSkewMinutes: v.clockSkewMinutes as number,
@@ -68,6 +70,7 @@ function resolver(us: boolean) {
       timeZone: true,
       jackingForceFactor: true,
       wireLossLimitPct: true,
+      liftoffBandPct: true,
       underForcePct: true,
       seatingExcessMm: true,
       clockSkewMinutes: true,
@@ -131,6 +134,7 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
       timeZone: settings.timeZone ?? "UTC",
       jackingForceFactor: String(settings.jackingForceFactor ?? 0.8),
       wireLossLimitPct: String(settings.wireLossLimitPct ?? 2),
+      liftoffBandPct: String(settings.liftoffBandPct ?? 5),
       underForcePct: String(settings.underForcePct ?? 2),
       seatingExcessMm: shown(settings.seatingExcessMm ?? 3.175, PER[len]),
       clockSkewMinutes: String(settings.clockSkewMinutes ?? 10),
@@ -283,6 +287,14 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
           error={err("wireLossLimitPct")}
         >
           <input className="field-input" inputMode="decimal" {...reg("wireLossLimitPct")} />
+        </Row>
+        <Row
+          id="s-liftoffBandPct"
+          label="Lift-off force band, ± % of the force after seating"
+          hint="5 % is a common specification (UFGS 02490 uses ±5 % of lock-off)."
+          error={err("liftoffBandPct")}
+        >
+          <input className="field-input" inputMode="decimal" {...reg("liftoffBandPct")} />
         </Row>
         <Row id="s-underForcePct" label="Flag a gauge force short by more than, %" error={err("underForcePct")}>
           <input className="field-input" inputMode="decimal" {...reg("underForcePct")} />

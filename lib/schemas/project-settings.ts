@@ -80,6 +80,11 @@ export const projectSettingsSchema = z.object({
     .min(0.5, "Below 0.50·fpu·A is not a stressing force.")
     .max(0.8, "Above 0.80·fpu·A exceeds the code limit (ACI 318-19 Table 20.3.2.5.1).")
     .optional(),
+  liftoffBandPct: z
+    .number({ error: "Give the lift-off band in %." })
+    .positive("The band must be above 0 %.")
+    .max(25, "A band above 25 % is not a check.")
+    .optional(),
   wireLossLimitPct: z
     .number({ error: "Give the member's wire-break limit in %." })
     .positive("The limit must be above 0 %.")

@@ -30,5 +30,6 @@ export async function getProjectSettings(db: Db, projectId: string): Promise<Pro
     blindEntry: p.blind_entry,
     releaseBy: p.release_by,
     clockSkewMinutes: p.clock_skew_minutes,
+    liftoffBandPct: p.liftoff_band_pct,
   };
 }

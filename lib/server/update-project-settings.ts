@@ -62,6 +62,7 @@ export async function updateProjectSettings(
         ...(v.timeZone !== undefined && { time_zone: v.timeZone }),
         ...(v.jackingForceFactor !== undefined && { jacking_force_factor: v.jackingForceFactor }),
         ...(v.wireLossLimitPct !== undefined && { wire_loss_limit_pct: v.wireLossLimitPct }),
+        ...(v.liftoffBandPct !== undefined && { liftoff_band_pct: v.liftoffBandPct }),
         ...(v.underForcePct !== undefined && { under_force_pct: v.underForcePct }),
         ...(v.seatingExcessMm !== undefined && { seating_excess_mm: v.seatingExcessMm }),
         ...(v.clockSkewMinutes !== undefined && { clock_skew_minutes: v.clockSkewMinutes }),

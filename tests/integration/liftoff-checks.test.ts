@@ -5,7 +5,9 @@ import { pressureForForce } from "@/lib/elongation";
 import type { LiftoffPayload } from "@/lib/schemas/liftoff";
 import type { SyncOp } from "@/lib/schemas/sync";
 import { pullChanges } from "@/lib/server/pull-changes";
+import { getProjectSettings } from "@/lib/server/get-project-settings";
 import { pushOps } from "@/lib/server/push-ops";
+import { updateProjectSettings } from "@/lib/server/update-project-settings";
 import { recordDisposition } from "@/lib/server/record-disposition";
 import { predictTendon, projectBasisFromRow } from "@/lib/stressing/basis";
 import { expectedAnchorForceN } from "@/lib/stressing/liftoff";
@@ -258,14 +260,18 @@ describe("a lift-off check outside the band", () => {
     expect(mail[0]!.text_body).toContain("kip"); // the project's units
   });
 
-  it("follows the project's band", async () => {
-    await t.db.updateTable("projects").set({ liftoff_band_pct: 12 }).where("id", "=", w.projectId).execute();
+  it("follows the project's band, as saved on the settings screen", async () => {
+    const settings = await getProjectSettings(t.db, w.projectId);
+    expect(settings.liftoffBandPct).toBe(5);
+    const save = (liftoffBandPct: number) =>
+      updateProjectSettings(t.db, { projectId: w.projectId, values: { ...settings, liftoffBandPct }, by: w.crew.id });
+    await save(12);
     try {
       const [result] = (await push(liftoffOp({ pressure: psiFor(1.1) }))).results;
       expect(result).toMatchObject({ status: "applied", liftoffCheck: { withinBand: true, bandPct: 12 } });
       expect(await liftoffFlags()).toHaveLength(1);
     } finally {
-      await t.db.updateTable("projects").set({ liftoff_band_pct: 5 }).where("id", "=", w.projectId).execute();
+      await save(5);
     }
   });
 });
