@@ -96,7 +96,7 @@ describe("cutClearanceOf", () => {
     ],
     flags: [flag({ status: "closed" })],
     heldOnTablet: false,
-    project: { requiredConcreteMpa: 20 },
+    project: { requiredConcreteMpa: 20, unitSystem: "si" as const },
     pour: { concreteStrengthMpa: 25 },
   };
 
@@ -125,6 +125,16 @@ describe("cutClearanceOf", () => {
 
   it("holds while the concrete strength is below the requirement or the gate was never pulled", () => {
     expect(cutClearanceOf({ ...clearCase, pour: { concreteStrengthMpa: 15 } }).clear).toBe(false);
-    expect(cutClearanceOf({ ...clearCase, project: {} }).clear).toBe(false);
+    expect(cutClearanceOf({ ...clearCase, project: { unitSystem: "si" } }).clear).toBe(false);
+  });
+
+  it("says the strengths in the project's units: psi on a US project", () => {
+    // 1 psi = 0.006894757 MPa (NIST SP 811): 15 MPa = 2,175.6 psi, 20.684 MPa = 2,999.9 psi.
+    const us = cutClearanceOf({
+      ...clearCase,
+      project: { requiredConcreteMpa: 20.684, unitSystem: "us" },
+      pour: { concreteStrengthMpa: 15 },
+    });
+    expect(us.reasons).toEqual(["Confirmed concrete strength 2,176 psi is below the 3,000 psi required."]);
   });
 });

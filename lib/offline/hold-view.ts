@@ -81,7 +81,7 @@ export function cutClearanceOf(input: {
   records: Pick<LocalRecord, "tendonEnd" | "syncState">[];
   flags: FieldFlag[];
   heldOnTablet: boolean;
-  project: Pick<FieldProject, "requiredConcreteMpa">;
+  project: Pick<FieldProject, "requiredConcreteMpa" | "unitSystem">;
   pour: Pick<FieldPour, "concreteStrengthMpa">;
 }): Clearance {
   const received = input.records.filter((r) => r.syncState === "synced");
@@ -92,6 +92,7 @@ export function cutClearanceOf(input: {
     openFlags: open,
     requiredConcreteMpa: input.project.requiredConcreteMpa ?? null,
     concreteStrengthMpa: input.pour.concreteStrengthMpa ?? null,
+    unitSystem: input.project.unitSystem,
   });
   const reasons = [...shared.reasons];
   if (input.records.some((r) => r.syncState !== "synced"))

@@ -1,4 +1,5 @@
 import "server-only";
+import { showStrength } from "@/lib/format/quantities";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { AppError } from "@/lib/errors";
@@ -30,7 +31,7 @@ export async function addConcreteResult(
     const pour = await trx
       .selectFrom("pours")
       .innerJoin("projects", "projects.id", "pours.project_id")
-      .select(["pours.id", "projects.required_concrete_mpa"])
+      .select(["pours.id", "projects.required_concrete_mpa", "projects.unit_system"])
       .where("pours.project_id", "=", input.projectId)
       .where("pours.id", "=", input.pourId)
       .forUpdate("pours")
@@ -84,6 +85,7 @@ export async function addConcreteResult(
     const required = pour.required_concrete_mpa;
     const met = concreteGateMet(confirmed.strengthMPa, required);
     let closedFlags = 0;
+    const units = { unitSystem: pour.unit_system };
     if (met && confirmed.strengthMPa !== null) {
       const closed = await trx
         .updateTable("flags")
@@ -92,8 +94,8 @@ export async function addConcreteResult(
           closed_at: new Date(),
           closed_by: input.by.id,
           close_reason:
-            `Concrete confirmed by ${input.by.name}: ${confirmed.strengthMPa.toFixed(1)} MPa (${confirmed.basis.toLowerCase()})` +
-            (required === null ? "." : ` reaches the ${required} MPa required before stressing.`),
+            `Concrete confirmed by ${input.by.name}: ${showStrength(units, confirmed.strengthMPa)} (${confirmed.basis.toLowerCase().replace(/\.$/, "")})` +
+            (required === null ? "." : ` reaches the ${showStrength(units, required)} required before stressing.`),
         })
         .where("project_id", "=", input.projectId)
         .where("pour_id", "=", pour.id)

@@ -32,7 +32,7 @@ describe("tailClearance", () => {
 
   it("holds while the concrete strength is unconfirmed or below the requirement, and passes at equality", () => {
     expect(tailClearance({ ...base, concreteStrengthMpa: null }).reasons).toEqual([
-      "Concrete strength not confirmed (20 MPa required).",
+      "Concrete strength not confirmed (20.0 MPa required).",
     ]);
     expect(tailClearance({ ...base, concreteStrengthMpa: 19.9 }).clear).toBe(false);
     expect(tailClearance({ ...base, concreteStrengthMpa: 20 }).clear).toBe(true);

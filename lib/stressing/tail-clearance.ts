@@ -7,6 +7,8 @@
  * strength at least the project's required strength; no requirement set means no gate).
  */
 
+import { showStrength } from "@/lib/format/quantities";
+
 export type TendonEnds = "A" | "B" | "both";
 
 export interface ClearanceInput {
@@ -17,6 +19,8 @@ export interface ClearanceInput {
   openFlags: readonly { kind: string }[];
   requiredConcreteMpa: number | null;
   concreteStrengthMpa: number | null;
+  /** The project's units for the strengths in the reasons (SI when not given). */
+  unitSystem?: "us" | "si";
 }
 
 export interface Clearance {
@@ -36,9 +40,10 @@ export function tailClearance(input: ClearanceInput): Clearance {
   const required = input.requiredConcreteMpa;
   if (required !== null) {
     const strength = input.concreteStrengthMpa;
-    if (strength === null) reasons.push(`Concrete strength not confirmed (${required} MPa required).`);
+    const show = (mpa: number) => showStrength({ unitSystem: input.unitSystem ?? "si" }, mpa);
+    if (strength === null) reasons.push(`Concrete strength not confirmed (${show(required)} required).`);
     else if (strength < required)
-      reasons.push(`Confirmed concrete strength ${strength} MPa is below the ${required} MPa required.`);
+      reasons.push(`Confirmed concrete strength ${show(strength)} is below the ${show(required)} required.`);
   }
   return { clear: reasons.length === 0, reasons };
 }

@@ -165,7 +165,8 @@ describe("the concrete gate of a pour", () => {
     expect(more).toMatchObject({ met: true, closedFlags: 0 });
     const [closed] = await concreteFlags(pourId);
     expect(closed).toMatchObject({ status: "closed", closed_by: inspector.id });
-    expect(closed!.close_reason).toContain("22.0 MPa");
+    // The demo project is in US units: 22.0 MPa / 0.006894757 MPa per psi (NIST SP 811) = 3,190.8 psi.
+    expect(closed!.close_reason).toContain("3,191 psi (average of 2 specimens at 4 days) reaches");
     const pour = await t.db
       .selectFrom("pours")
       .select(["concrete_strength_mpa", "concrete_confirmed_by", "concrete_confirmed_at"])

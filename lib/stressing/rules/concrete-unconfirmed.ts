@@ -1,3 +1,4 @@
+import { showStrength } from "@/lib/format/quantities";
 import type { Rule } from "./types";
 
 /**
@@ -12,6 +13,7 @@ export const concreteUnconfirmed: Rule = ({ input, judgement }) => {
   if (!judgement.ends.length || required === null || !input.pour || input.pour.concreteFlagOpen) return null;
   const strength = input.pour.concreteStrengthMpa;
   if (strength !== null && strength >= required) return null;
+  const show = (mpa: number) => showStrength(input.project, mpa);
   const goAhead = [
     ...new Set(judgement.ends.flatMap((e) => (e.record.concreteGoAhead ? [e.record.concreteGoAhead] : []))),
   ];
@@ -22,8 +24,9 @@ export const concreteUnconfirmed: Rule = ({ input, judgement }) => {
     kind: "concrete_unconfirmed",
     reason:
       (strength === null
-        ? `Stressed before the pour's concrete strength (${required} MPa required) was confirmed.`
-        : `Confirmed concrete strength ${strength} MPa is below the ${required} MPa required before stressing.`) + crew,
+        ? `Stressed before the pour's concrete strength (${show(required)} required) was confirmed.`
+        : `Confirmed concrete strength ${show(strength)} is below the ${show(required)} required before stressing.`) +
+      crew,
     recordId: judgement.ends[0]!.record.id,
   };
 };

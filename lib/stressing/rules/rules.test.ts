@@ -226,7 +226,7 @@ const cases: Record<RuleKind, Case[]> = {
       name: "below",
       change: (i) => ({ ...i, pour: { concreteStrengthMpa: 15 }, records: [rec({ measuredMm: P })] }),
       raised: true,
-      reason: /below the 20 MPa/,
+      reason: /below the 20.0 MPa/,
     },
     {
       name: "not confirmed, but the pour already has an open concrete flag (one per pour)",
