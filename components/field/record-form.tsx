@@ -164,6 +164,11 @@ export function RecordForm({
       }),
     [entryUnits, expiredSetIds, ends, correcting, concreteUnconfirmed],
   );
+  // A set with no calibration on file gives no force: it is not offered (a correction keeps its own).
+  const offered = sets.filter(
+    (s) => calibrationFor(ctx.calibrations, s!.id, today).calibration || s!.id === correcting?.equipmentSetId,
+  );
+  const notOffered = sets.length - offered.length;
   const defaults = useMemo<RecordFormValues>(
     () =>
       correcting
@@ -171,7 +176,7 @@ export function RecordForm({
         : {
             ...EMPTY_RECORD_FORM,
             tendonEnd: ends.find((e) => !doneEnds.has(e)) ?? ends[0]!,
-            equipmentSetId: sets.length === 1 ? sets[0]!.id : "",
+            equipmentSetId: offered.length === 1 ? offered[0]!.id : "",
             // Asked once per tendon: the order the other end's record gave, else one end after the other.
             stressingOrder: records.find((r) => r.stressingOrder)?.stressingOrder ?? "sequential",
             // The project's comparison basis is the form's default reading method.
@@ -409,15 +414,24 @@ export function RecordForm({
       )}
 
       <fieldset>
-        <legend className="field-label">Equipment set</legend>
-        <div className="mt-1 flex flex-wrap gap-2">
-          {sets.length === 0 && <p>No equipment sets were downloaded with this pour.</p>}
-          {sets.map((s) => {
+        <legend className="field-label">
+          Equipment set
+          {notOffered > 0 && (
+            <span className="font-normal normal-case text-ink-soft">
+              {" "}
+              · {notOffered} without a calibration not offered
+            </span>
+          )}
+        </legend>
+        {/* One row whatever the number of jacks: more sets scroll sideways, so Save stays on screen. */}
+        <div className="mt-1 flex gap-2 overflow-x-auto pb-1">
+          {offered.length === 0 && <p>No equipment set with a calibration was downloaded with this pour.</p>}
+          {offered.map((s) => {
             const c = calibrationFor(ctx.calibrations, s!.id, today);
             return (
               <label
                 key={s!.id}
-                className="flex min-h-touch cursor-pointer items-center gap-2 rounded-md border-2 border-concrete-500 px-3 py-1 has-checked:border-ink has-checked:bg-concrete-100"
+                className="flex min-h-touch shrink-0 cursor-pointer items-center gap-2 rounded-md border-2 border-concrete-500 px-3 py-1 has-checked:border-ink has-checked:bg-concrete-100"
               >
                 <input type="radio" value={s!.id} className="h-6 w-6 shrink-0" {...register("equipmentSetId")} />
                 <span className="leading-tight">
