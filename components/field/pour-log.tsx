@@ -329,6 +329,7 @@ export function PourLog() {
             released={Boolean(pour.release)}
             concreteGate={concreteGate}
             flags={flagsOf(selected)}
+            latest={latestOf(evaluations, selected.id)}
             tailsCut={cutOf.has(selected.id)}
             tailCut={
               <TailCutPanel
@@ -366,6 +367,8 @@ function TendonPanel(props: {
   /** Why the concrete gate is not met, in words; null when it is met. */
   concreteGate: string | null;
   flags: FieldFlag[];
+  /** The server's latest evaluation of the tendon, as pulled. */
+  latest: FieldEvaluation | undefined;
   /** Held or clear to cut, or the cut as recorded. */
   tailCut: React.ReactNode;
   /** The tails are cut: the jack can no longer grip the tendon, so no restress is offered. */
@@ -431,7 +434,19 @@ function TendonPanel(props: {
                   : "Saved on this tablet. It is sent when there is signal."}
               </p>
             )}
-            <VerdictPanel project={project} local={local} server={newest?.server} targetMPa={target} />
+            <VerdictPanel
+              project={project}
+              local={local}
+              // A record the server has (sent from here, or pulled) is judged by the server's latest evaluation.
+              server={
+                newest?.server ??
+                (newest?.syncState === "synced" && props.latest
+                  ? { ...props.latest, flagKinds: props.flags.filter((f) => f.status !== "closed").map((f) => f.kind) }
+                  : undefined)
+              }
+              settled={props.state !== "flagged"}
+              targetMPa={target}
+            />
             <section aria-label="Readings" className="card grid gap-2">
               <h3 className="font-bold">Readings</h3>
               {wanted.map((end) => {

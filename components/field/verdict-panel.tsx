@@ -82,11 +82,14 @@ export function VerdictPanel({
   project,
   local,
   server,
+  settled = false,
   targetMPa,
 }: {
   project: FieldProject;
   local: LocalVerdict | null;
   server: OpEvaluation | null | undefined;
+  /** The tendon is not held: every flag on it is closed by the engineer's or inspector's decision. */
+  settled?: boolean;
   targetMPa: number | null;
 }) {
   const u = units(project);
@@ -156,7 +159,7 @@ export function VerdictPanel({
               ))}
             </p>
           ) : null}
-          {local.flagKinds && local.flagKinds.length > 0 && (
+          {!server && local.flagKinds && local.flagKinds.length > 0 && (
             <p className="font-semibold">The server will flag: {local.flagKinds.join(", ").replaceAll("_", " ")}.</p>
           )}
           {local.missingEnds.length > 0 && (
@@ -178,14 +181,20 @@ export function VerdictPanel({
               The server evaluates it again when the record is sent; a flag goes to the engineer of record.
             </p>
           )}
-          {shown!.verdict !== "in band" && (
-            <p
-              className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-bold text-signal-stop"
-              role="alert"
-            >
-              Out of band: do not cut the tails or grout until the engineer of record gives a disposition.
-            </p>
-          )}
+          {shown!.verdict !== "in band" &&
+            (settled && server && (shown!.verdict === "long" || shown!.verdict === "short") ? (
+              <p className="font-semibold" data-testid="verdict-settled">
+                Decided: every flag on this tendon is closed by the engineer&apos;s or inspector&apos;s decision (see
+                the tendon&apos;s holds and tails below).
+              </p>
+            ) : (
+              <p
+                className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-bold text-signal-stop"
+                role="alert"
+              >
+                Out of band: do not cut the tails or grout until the engineer of record gives a disposition.
+              </p>
+            ))}
         </>
       ) : (
         <p>No reading yet on this tendon.</p>

@@ -116,6 +116,10 @@ test("the engineer's decision shows on the crew's tablet after the next sync and
     `${POUR} is released for tail cutting.`,
   );
   await expect(crew.locator('[data-testid="decision-notice"][data-kind="decision"]')).toContainText("accepted");
+  // The accepted tendon is no longer held: the server's verdict stands, decided, with no "do not cut" alarm.
+  await expect(crew.getByTestId("server-verdict")).toContainText("Long");
+  await expect(crew.getByTestId("verdict-settled")).toBeVisible();
+  await expect(crew.getByText("Out of band: do not cut the tails")).toHaveCount(0);
   await screenshot(crew, "field-notice-released-portrait");
   await crew.getByTestId("acknowledge-notices").click();
   await expect(crew.getByTestId("decision-notices")).toHaveCount(0);
