@@ -44,6 +44,7 @@ const NO_WRAP = new Set<DailyRecordColumn>([
   "Pour",
   "Tendon",
   "Stressing",
+  "Stressed",
   "Final pressure",
   "Measured",
   "Predicted (Tautline)",
