@@ -137,8 +137,8 @@ export function DecisionNotices({ pourId, className = "" }: { pourId?: string; c
                   )}
                 </p>
               )}
-              <p className="font-bold" data-testid="notice-todo">
-                What to do: {n.todo}
+              <p className="font-bold" data-testid="notice-instruction">
+                What to do: {n.instruction}
               </p>
             </li>
           );

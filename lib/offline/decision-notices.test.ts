@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { FieldDisposition, FieldFlag } from "@/lib/schemas/sync";
-import { noticesFromPull, RELEASED_TODO, REOPENED_TODO, type PourState } from "./decision-notices";
+import { noticesFromPull, RELEASED_INSTRUCTION, REOPENED_INSTRUCTION, type PourState } from "./decision-notices";
 import { DECISION_INSTRUCTIONS, WAITING_INSTRUCTION } from "./hold-view";
 
 const POUR: PourState = { id: "p1", name: "Level 3 east", release: null, reopened: null };
@@ -55,7 +55,7 @@ describe("noticesFromPull", () => {
       tendonTag: "U07",
       what: "New flag: Out of band.",
       words: "Measured 14.4 % long against the prediction.",
-      todo: `Held: do not cut tails. ${WAITING_INSTRUCTION}`,
+      instruction: `Held: do not cut tails. ${WAITING_INSTRUCTION}`,
       holds: true,
     });
   });
@@ -73,7 +73,7 @@ describe("noticesFromPull", () => {
         what: "Engineer's decision on the out of band flag: restress ordered.",
         words: "Restress to 3,350 psi and re-read the marks.",
         by: "P. Raman",
-        todo: DECISION_INSTRUCTIONS.restress,
+        instruction: DECISION_INSTRUCTIONS.restress,
         holds: true,
         at: "2026-12-02T16:00:00.000Z",
       },
@@ -103,7 +103,11 @@ describe("noticesFromPull", () => {
       { flags: [flag({ status: "closed", dispositions: [restress, accept] })] },
     );
     expect(notices).toHaveLength(1);
-    expect(notices[0]).toMatchObject({ words: "Accepted as is.", todo: DECISION_INSTRUCTIONS.accept, holds: false });
+    expect(notices[0]).toMatchObject({
+      words: "Accepted as is.",
+      instruction: DECISION_INSTRUCTIONS.accept,
+      holds: false,
+    });
   });
 
   it("says nothing of a flag that arrives already closed without a decision", () => {
@@ -139,7 +143,7 @@ describe("noticesFromPull", () => {
       tendonTag: null,
       what: "Pour released by P. Raman.",
       words: release.statement,
-      todo: RELEASED_TODO,
+      instruction: RELEASED_INSTRUCTION,
     });
     expect(diff({ pours: [released] }, { pours: [released] })).toEqual([]);
   });
@@ -148,7 +152,11 @@ describe("noticesFromPull", () => {
     const first = { by: "P. Raman", at: "2026-12-02T18:00:00.000Z", statement: "Released." };
     const reopened = { by: "P. Raman", at: "2026-12-02T19:00:00.000Z", reason: "U07 needs a lift-off check." };
     const [reopen] = diff({ pours: [{ ...POUR, release: first }] }, { pours: [{ ...POUR, reopened }] });
-    expect(reopen).toMatchObject({ kind: "reopened", words: "U07 needs a lift-off check.", todo: REOPENED_TODO });
+    expect(reopen).toMatchObject({
+      kind: "reopened",
+      words: "U07 needs a lift-off check.",
+      instruction: REOPENED_INSTRUCTION,
+    });
     const signed = { ...reopened, by: "P. Raman, P.E." };
     const [byEngineer] = diff({ pours: [{ ...POUR, release: first }] }, { pours: [{ ...POUR, reopened: signed }] });
     expect(byEngineer!.what).toBe("Pour reopened by P. Raman, P.E.");

@@ -27,7 +27,7 @@ export interface DecisionNotice {
   /** Who decided, when someone did. */
   by: string | null;
   /** What the crew is to do now. */
-  todo: string;
+  instruction: string;
   /** The change holds the tendon (a new flag, an order of work), as opposed to news that lifts or ends something. */
   holds: boolean;
   /** When it happened on the server (the flag's, decision's, release's or reopening's time). */
@@ -45,9 +45,9 @@ export interface NoticeDiffInput {
   tendons: Map<string, Pick<FieldTendon, "id" | "tag" | "pourId">>;
 }
 
-export const RELEASED_TODO =
+export const RELEASED_INSTRUCTION =
   "Record nothing more on this pour. Tails may be cut only on tendons shown clear to cut. If more work is needed, the engineer of record must reopen the pour first.";
-export const REOPENED_TODO =
+export const REOPENED_INSTRUCTION =
   "The pour takes records again. Do the work the engineer's reason names, then sync so the engineer can release it again.";
 
 const dispositionKey = (d: FieldDisposition) => `${d.createdAt}|${d.decision}`;
@@ -74,7 +74,7 @@ export function noticesFromPull({ before, arrived, tendons }: NoticeDiffInput): 
         what: endSentence(`Pour released by ${pour.release.by}`),
         words: pour.release.statement,
         by: pour.release.by,
-        todo: RELEASED_TODO,
+        instruction: RELEASED_INSTRUCTION,
         holds: false,
         at: pour.release.at,
       });
@@ -90,7 +90,7 @@ export function noticesFromPull({ before, arrived, tendons }: NoticeDiffInput): 
         what: endSentence(`Pour reopened by ${pour.reopened.by}`),
         words: pour.reopened.reason,
         by: pour.reopened.by,
-        todo: REOPENED_TODO,
+        instruction: REOPENED_INSTRUCTION,
         holds: false,
         at: pour.reopened.at,
       });
@@ -118,7 +118,7 @@ export function noticesFromPull({ before, arrived, tendons }: NoticeDiffInput): 
         what: `New flag: ${label}.`,
         words: flag.reason ?? null,
         by: null,
-        todo: `Held: do not cut tails. ${WAITING_INSTRUCTION}`,
+        instruction: `Held: do not cut tails. ${WAITING_INSTRUCTION}`,
         holds: true,
         at: flag.createdAt ?? "",
       });
@@ -131,7 +131,7 @@ export function noticesFromPull({ before, arrived, tendons }: NoticeDiffInput): 
         what: `Engineer's decision on the ${label.toLowerCase()} flag: ${DECISION_WORDS[d.decision]}.`,
         words: d.reasons,
         by: d.engineerName,
-        todo: DECISION_INSTRUCTIONS[d.decision],
+        instruction: DECISION_INSTRUCTIONS[d.decision],
         holds: d.decision !== "accept",
         at: d.createdAt,
       });

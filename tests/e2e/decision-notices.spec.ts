@@ -59,7 +59,7 @@ test("the engineer's decision shows on the crew's tablet after the next sync and
     "Engineer's decision on the out of band flag: restress ordered.",
   );
   await expect(notice.getByTestId("notice-words")).toContainText(ORDER);
-  await expect(notice.getByTestId("notice-todo")).toContainText(
+  await expect(notice.getByTestId("notice-instruction")).toContainText(
     "What to do: Restress this tendon as the engineer instructs",
   );
   // At the top of the pour view, above the tendon list, with a button a gloved hand can hit.
