@@ -1,5 +1,4 @@
 import "server-only";
-import { createHash } from "node:crypto";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { renderDailyPdf } from "@/lib/reports/daily-pdf";
@@ -7,6 +6,7 @@ import { dailySnapshot } from "@/lib/reports/daily-rows";
 import { describeChanges, type ReportSnapshot } from "@/lib/reports/report-changes";
 import { getDailyReport, type DailyReport } from "./get-daily-report";
 import type { ReportRevision } from "./list-report-revisions";
+import { sha256 } from "./sign-report-revision";
 
 /**
  * The day's report as it stands (with the remarks of its last signed revision), its signed
@@ -42,9 +42,7 @@ export async function listDailyRevisions(
       .orderBy("revision", "desc")
       .execute(),
   ]);
-  const contentSha256 = createHash("sha256")
-    .update(await renderDailyPdf(report))
-    .digest("hex");
+  const contentSha256 = sha256(await renderDailyPdf(report));
   const last = rows[0];
   return {
     report,

@@ -1,10 +1,10 @@
 import "server-only";
-import { createHash } from "node:crypto";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { renderPourPdf } from "@/lib/reports/pour-pdf";
 import { describeChanges, pourSnapshot, type ReportSnapshot } from "@/lib/reports/report-changes";
 import { getPourReport } from "./get-pour-report";
+import { sha256 } from "./sign-report-revision";
 
 export interface ReportRevision {
   revision: number;
@@ -51,9 +51,7 @@ export async function listReportRevisions(
       .orderBy("revision", "desc")
       .execute(),
   ]);
-  const contentSha256 = createHash("sha256")
-    .update(await renderPourPdf(report))
-    .digest("hex");
+  const contentSha256 = sha256(await renderPourPdf(report));
   const last = rows[0];
   return {
     timeZone: report.timeZone,
