@@ -1,4 +1,5 @@
 import "server-only";
+import { duplicateOf, rejectedOp } from "./applied-ops";
 import { setTimeout as sleep } from "node:timers/promises";
 import { sql, type Kysely } from "kysely";
 import { jsonArrayFrom, jsonObjectFrom } from "kysely/helpers/postgres";
@@ -6,7 +7,6 @@ import { reusableQuery } from "@/db/reusable-query";
 import type { Database } from "@/db/types";
 import { can } from "@/lib/auth/permissions";
 import type { SessionUser } from "@/lib/auth/session";
-import type { OpErrorCode } from "@/lib/errors";
 import { zodFields } from "@/lib/schemas/zod-fields";
 import { recordPayloadSchema, type RecordPayload } from "@/lib/schemas/record";
 import type { OpError, OpEvaluation, OpResult, PushResponse, SyncOp } from "@/lib/schemas/sync";
@@ -64,11 +64,7 @@ const CHAINS_AT_ONCE = 8;
 /** Reads again when another write of the same tendon came first; each lost round means one landed. */
 const MAX_ATTEMPTS = 20;
 
-const rejected = (op: SyncOp, code: OpErrorCode, message: string, fields?: Record<string, string[]>): OpResult => ({
-  opId: op.opId,
-  status: "rejected",
-  error: { code, message, ...(fields ? { fields } : {}) },
-});
+const rejected = rejectedOp;
 
 class AnswerLost extends Error {
   constructor(cause: unknown) {
@@ -239,24 +235,9 @@ function sameValues(row: NonNullable<OpRead["sameId"]>, p: RecordPayload): boole
   );
 }
 
-function duplicateFrom(
-  op: SyncOp,
-  user: Pusher,
-  claim: { user_id: string; result: Record<string, unknown> },
-): OpResult {
-  if (claim.user_id !== user.id) return rejected(op, "CONFLICT", "This operation id was already used by someone else.");
-  const result = claim.result as { revision?: number; evaluation?: OpEvaluation };
-  return {
-    opId: op.opId,
-    status: "duplicate",
-    ...(result.revision ? { revision: result.revision } : {}),
-    ...(result.evaluation ? { evaluation: result.evaluation } : {}),
-  };
-}
-
 /** What the read says of the op before anything is written: an answer, or null to go on. */
 function answerFromRead(op: SyncOp, user: Pusher, p: RecordPayload, day: string, read: OpRead): OpResult | null {
-  if (read.claim) return duplicateFrom(op, user, read.claim);
+  if (read.claim) return duplicateOf(op, user.id, read.claim);
   const problem = refProblem(op, p, day, {
     pour_id: read.pourId,
     ends: read.ends,

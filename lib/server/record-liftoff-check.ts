@@ -1,5 +1,5 @@
 import "server-only";
-import type { OpErrorCode } from "@/lib/errors";
+import { claimOp, duplicateOf, rejectedOp } from "./applied-ops";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { env } from "@/lib/env";
@@ -49,14 +49,8 @@ export interface LiftoffChecker {
   memberships: { projectId: string; role: Parameters<typeof can>[0] }[];
 }
 
-const rejected = (op: SyncOp, code: OpErrorCode, message: string, fields?: Record<string, string[]>): OpResult => ({
-  opId: op.opId,
-  status: "rejected",
-  error: { code, message, ...(fields ? { fields } : {}) },
-});
-
 const refused = (op: SyncOp, field: string, message: string): OpResult =>
-  rejected(op, "INVALID_INPUT", message, { [field]: [message] });
+  rejectedOp(op, "INVALID_INPUT", message, { [field]: [message] });
 
 interface StoredResult {
   liftoffCheck?: FieldLiftoffResult;
@@ -71,22 +65,22 @@ export async function recordLiftoffCheck(
   const parsed = liftoffPayloadSchema.safeParse(op.payload);
   if (!parsed.success) {
     const fields = zodFields(parsed.error);
-    return rejected(op, "INVALID_INPUT", `Check the lift-off check: ${Object.keys(fields).join(", ")}.`, fields);
+    return rejectedOp(op, "INVALID_INPUT", `Check the lift-off check: ${Object.keys(fields).join(", ")}.`, fields);
   }
   const p = parsed.data;
   if (op.baseVersion !== undefined)
-    return rejected(op, "INVALID_INPUT", "A lift-off check is never a correction: send it without a base version.", {
+    return rejectedOp(op, "INVALID_INPUT", "A lift-off check is never a correction: send it without a base version.", {
       baseVersion: ["Not allowed on a lift-off check."],
     });
   const membership = user.memberships.find((m) => m.projectId === p.projectId);
   if (!membership || !can(membership.role, "record.create")) {
     const result = membership
-      ? rejected(
+      ? rejectedOp(
           op,
           "FORBIDDEN",
           `Your role on this project (${membership.role}) does not allow recording a lift-off check.`,
         )
-      : rejected(op, "NOT_FOUND", "No such project among yours.");
+      : rejectedOp(op, "NOT_FOUND", "No such project among yours.");
     await recordAudit(db, {
       action: "liftoff.check",
       outcome: "denied",
@@ -97,7 +91,7 @@ export async function recordLiftoffCheck(
     return result;
   }
   if (p.authorUserId !== user.id)
-    return rejected(
+    return rejectedOp(
       op,
       "FORBIDDEN",
       "This lift-off check was recorded by another person on this tablet; it is sent when they sign in.",
@@ -117,7 +111,7 @@ export async function recordLiftoffCheck(
       .select(["user_id", "result"])
       .where("op_id", "=", op.opId)
       .executeTakeFirst();
-    if (claim) return duplicateOf(op, user, claim);
+    if (claim) return duplicateOf(op, user.id, claim);
 
     const row = await selectTendonBasis(trx, { projectId: p.projectId, tendonId: p.tendonId })
       .select("projects.liftoff_band_pct")
@@ -170,7 +164,7 @@ export async function recordLiftoffCheck(
         .select(["user_id", "result"])
         .where("op_id", "=", op.opId)
         .executeTakeFirst();
-      if (again) return duplicateOf(op, user, again);
+      if (again) return duplicateOf(op, user.id, again);
       return {
         opId: op.opId,
         status: "conflict",
@@ -215,7 +209,7 @@ export async function recordLiftoffCheck(
       expectedForceN = expectedAnchorForceN(predicted, p.tendonEnd);
     } catch (error) {
       if (!isInputError(error) && !(error instanceof Error && /strand size/.test(error.message))) throw error;
-      return rejected(
+      return rejectedOp(
         op,
         "CONFLICT",
         `The expected force of ${basis.tendon.tag} cannot be computed from its schedule (${error.message}); nothing was saved. Ask the office to fix the schedule.`,
@@ -231,30 +225,15 @@ export async function recordLiftoffCheck(
     };
     const stored: StoredResult = { liftoffCheck: result };
 
-    const claimed = await trx
-      .insertInto("applied_ops")
-      .values({
-        op_id: op.opId,
-        project_id: p.projectId,
-        device_id: deviceId,
-        user_id: user.id,
-        kind: op.kind,
-        record_id: op.recordId,
-        status: "applied",
-        result: JSON.stringify(stored),
-      })
-      .onConflict((oc) => oc.column("op_id").doNothing())
-      .returning("op_id")
-      .executeTakeFirst();
-    if (!claimed) {
-      // A concurrent delivery of the same op committed first.
-      const again = await trx
-        .selectFrom("applied_ops")
-        .select(["user_id", "result"])
-        .where("op_id", "=", op.opId)
-        .executeTakeFirstOrThrow();
-      return duplicateOf(op, user, again);
-    }
+    const concurrent = await claimOp(trx, {
+      op,
+      projectId: p.projectId,
+      deviceId,
+      userId: user.id,
+      result: stored,
+    });
+    // A concurrent delivery of the same op committed first.
+    if (concurrent) return duplicateOf(op, user.id, concurrent);
 
     const line_ = liftoffLine(basis.project, judged);
     const readAs = `${p.pressure}${/[a-z]/i.test(p.pressure) ? "" : ` ${p.pressureUnit}`}`;
@@ -352,10 +331,4 @@ export async function recordLiftoffCheck(
     }).execute();
     return { opId: op.opId, status: "applied", ...stored };
   });
-}
-
-function duplicateOf(op: SyncOp, user: LiftoffChecker, claim: { user_id: string; result: unknown }): OpResult {
-  if (claim.user_id !== user.id) return rejected(op, "CONFLICT", "This operation id was already used by someone else.");
-  const result = claim.result as StoredResult;
-  return { opId: op.opId, status: "duplicate", ...(result.liftoffCheck ? { liftoffCheck: result.liftoffCheck } : {}) };
 }

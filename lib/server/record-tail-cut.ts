@@ -1,7 +1,7 @@
 import "server-only";
+import { claimOp, duplicateOf, rejectedOp } from "./applied-ops";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
-import type { OpErrorCode } from "@/lib/errors";
 import { can } from "@/lib/auth/permissions";
 import { zodFields } from "@/lib/schemas/zod-fields";
 import type { OpResult, SyncOp } from "@/lib/schemas/sync";
@@ -29,12 +29,6 @@ export interface TailCutter {
   memberships: { projectId: string; role: Parameters<typeof can>[0] }[];
 }
 
-const rejected = (op: SyncOp, code: OpErrorCode, message: string, fields?: Record<string, string[]>): OpResult => ({
-  opId: op.opId,
-  status: "rejected",
-  error: { code, message, ...(fields ? { fields } : {}) },
-});
-
 interface StoredResult {
   tailCut?: { held: boolean; reasons: string[] };
 }
@@ -48,18 +42,22 @@ export async function recordTailCut(
   const parsed = tailCutPayloadSchema.safeParse(op.payload);
   if (!parsed.success) {
     const fields = zodFields(parsed.error);
-    return rejected(op, "INVALID_INPUT", `Check the tails cut: ${Object.keys(fields).join(", ")}.`, fields);
+    return rejectedOp(op, "INVALID_INPUT", `Check the tails cut: ${Object.keys(fields).join(", ")}.`, fields);
   }
   const p = parsed.data;
   if (op.baseVersion !== undefined)
-    return rejected(op, "INVALID_INPUT", "A tails cut is never a correction: send it without a base version.", {
+    return rejectedOp(op, "INVALID_INPUT", "A tails cut is never a correction: send it without a base version.", {
       baseVersion: ["Not allowed on a tails cut."],
     });
   const membership = user.memberships.find((m) => m.projectId === p.projectId);
   if (!membership || !can(membership.role, "record.create")) {
     const result = membership
-      ? rejected(op, "FORBIDDEN", `Your role on this project (${membership.role}) does not allow recording tails cut.`)
-      : rejected(op, "NOT_FOUND", "No such project among yours.");
+      ? rejectedOp(
+          op,
+          "FORBIDDEN",
+          `Your role on this project (${membership.role}) does not allow recording tails cut.`,
+        )
+      : rejectedOp(op, "NOT_FOUND", "No such project among yours.");
     await recordAudit(db, {
       action: "tails.cut",
       outcome: "denied",
@@ -70,7 +68,7 @@ export async function recordTailCut(
     return result;
   }
   if (p.authorUserId !== user.id)
-    return rejected(
+    return rejectedOp(
       op,
       "FORBIDDEN",
       "This tails cut was recorded by another person on this tablet; it is sent when they sign in.",
@@ -85,7 +83,7 @@ export async function recordTailCut(
       .select(["user_id", "result"])
       .where("op_id", "=", op.opId)
       .executeTakeFirst();
-    if (claim) return duplicateOf(op, user, claim);
+    if (claim) return duplicateOf(op, user.id, claim);
 
     const tendon = await trx
       .selectFrom("tendons")
@@ -107,11 +105,11 @@ export async function recordTailCut(
       .forNoKeyUpdate("tendons")
       .executeTakeFirst();
     if (!tendon)
-      return rejected(op, "NOT_FOUND", "No such tendon on this project.", {
+      return rejectedOp(op, "NOT_FOUND", "No such tendon on this project.", {
         tendonId: ["Not a tendon of this project."],
       });
     if (tendon.pour_id !== p.pourId)
-      return rejected(op, "INVALID_INPUT", "The tendon is not in that pour.", { pourId: ["Not the tendon's pour."] });
+      return rejectedOp(op, "INVALID_INPUT", "The tendon is not in that pour.", { pourId: ["Not the tendon's pour."] });
 
     const existing = await trx
       .selectFrom("tail_cuts")
@@ -157,30 +155,15 @@ export async function recordTailCut(
       tailCut: { held: !alreadyCut && !clearance.clear, reasons: alreadyCut ? [] : clearance.reasons },
     };
 
-    const claimed = await trx
-      .insertInto("applied_ops")
-      .values({
-        op_id: op.opId,
-        project_id: p.projectId,
-        device_id: deviceId,
-        user_id: user.id,
-        kind: op.kind,
-        record_id: op.recordId,
-        status: "applied",
-        result: JSON.stringify(stored),
-      })
-      .onConflict((oc) => oc.column("op_id").doNothing())
-      .returning("op_id")
-      .executeTakeFirst();
-    if (!claimed) {
-      // A concurrent delivery of the same op committed first.
-      const again = await trx
-        .selectFrom("applied_ops")
-        .select(["user_id", "result"])
-        .where("op_id", "=", op.opId)
-        .executeTakeFirstOrThrow();
-      return duplicateOf(op, user, again);
-    }
+    const concurrent = await claimOp(trx, {
+      op,
+      projectId: p.projectId,
+      deviceId,
+      userId: user.id,
+      result: stored,
+    });
+    // A concurrent delivery of the same op committed first.
+    if (concurrent) return duplicateOf(op, user.id, concurrent);
     // The tendon's tails are already cut (recorded from elsewhere): nothing more to store.
     if (alreadyCut) return { opId: op.opId, status: "duplicate", ...stored };
 
@@ -222,10 +205,4 @@ export async function recordTailCut(
     }).execute();
     return { opId: op.opId, status: "applied", ...stored };
   });
-}
-
-function duplicateOf(op: SyncOp, user: TailCutter, claim: { user_id: string; result: unknown }): OpResult {
-  if (claim.user_id !== user.id) return rejected(op, "CONFLICT", "This operation id was already used by someone else.");
-  const result = claim.result as StoredResult;
-  return { opId: op.opId, status: "duplicate", ...(result.tailCut ? { tailCut: result.tailCut } : {}) };
 }
