@@ -1,5 +1,7 @@
 import "server-only";
+import type { Kysely } from "kysely";
 import type { Db } from "@/db/connect";
+import type { Database } from "@/db/types";
 import { AppError } from "@/lib/errors";
 import type { TendonInput } from "@/lib/schemas/tendon";
 import { requireOpenPour } from "./require-open-pour";
@@ -22,31 +24,7 @@ export async function createTendon(
       .executeTakeFirst();
     if (!pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
     await requireOpenPour(trx, input);
-    const clash = await trx
-      .selectFrom("tendons")
-      .select("id")
-      .where("project_id", "=", input.projectId)
-      .where("pour_id", "=", input.pourId)
-      .where((eb) => eb(eb.fn("lower", ["tag"]), "=", v.tag.toLowerCase()))
-      .executeTakeFirst();
-    if (clash)
-      throw new AppError("CONFLICT", `The tag ${v.tag} is already in this pour.`, { tag: ["Already in this pour."] });
-    if (v.strandLotId) {
-      const lot = await trx
-        .selectFrom("strand_lots")
-        .select("strand_size")
-        .where("project_id", "=", input.projectId)
-        .where("id", "=", v.strandLotId)
-        .executeTakeFirst();
-      if (!lot)
-        throw new AppError("INVALID_INPUT", "Pick a strand lot of this project.", {
-          strandLotId: ["Not a lot of this project."],
-        });
-      if (lot.strand_size !== v.strandSize)
-        throw new AppError("INVALID_INPUT", "The lot is another strand size.", {
-          strandLotId: [`This lot is ${lot.strand_size} strand.`],
-        });
-    }
+    await checkScheduleRow(trx, { projectId: input.projectId, pourId: input.pourId, values: v });
     const row = await trx
       .insertInto("tendons")
       .values({
@@ -67,4 +45,41 @@ export async function createTendon(
       .executeTakeFirstOrThrow();
     return { tendonId: row.id };
   });
+}
+
+/**
+ * What a tendon's schedule row must satisfy on create and on edit: a tag not already in the pour
+ * (case aside; `exceptTendonId` for the row being edited) and, when it names one, a strand lot of
+ * this project of the tendon's strand size. Run under the pour's row lock.
+ */
+export async function checkScheduleRow(
+  trx: Kysely<Database>,
+  input: { projectId: string; pourId: string; values: TendonInput; exceptTendonId?: string },
+): Promise<void> {
+  const v = input.values;
+  const clash = await trx
+    .selectFrom("tendons")
+    .select("id")
+    .where("project_id", "=", input.projectId)
+    .where("pour_id", "=", input.pourId)
+    .$if(input.exceptTendonId !== undefined, (q) => q.where("id", "!=", input.exceptTendonId!))
+    .where((eb) => eb(eb.fn("lower", ["tag"]), "=", v.tag.toLowerCase()))
+    .executeTakeFirst();
+  if (clash)
+    throw new AppError("CONFLICT", `The tag ${v.tag} is already in this pour.`, { tag: ["Already in this pour."] });
+  if (!v.strandLotId) return;
+  const lot = await trx
+    .selectFrom("strand_lots")
+    .select("strand_size")
+    .where("project_id", "=", input.projectId)
+    .where("id", "=", v.strandLotId)
+    .executeTakeFirst();
+  if (!lot)
+    throw new AppError("INVALID_INPUT", "Pick a strand lot of this project.", {
+      strandLotId: ["Not a lot of this project."],
+    });
+  if (lot.strand_size !== v.strandSize)
+    throw new AppError("INVALID_INPUT", "The lot is another strand size.", {
+      strandLotId: [`This lot is ${lot.strand_size} strand.`],
+    });
 }

@@ -2,6 +2,7 @@ import "server-only";
 import type { Db } from "@/db/connect";
 import { AppError } from "@/lib/errors";
 import type { TendonInput } from "@/lib/schemas/tendon";
+import { checkScheduleRow } from "./create-tendon";
 import { inTransaction } from "./in-transaction";
 import { recordAudit } from "./record-audit";
 import { raiseTendonVersion } from "./evaluate-tendon";
@@ -43,32 +44,12 @@ export async function updateTendon(
       .where("id", "=", input.tendonId)
       .forUpdate()
       .executeTakeFirstOrThrow();
-    const clash = await trx
-      .selectFrom("tendons")
-      .select("id")
-      .where("project_id", "=", input.projectId)
-      .where("pour_id", "=", before.pour_id)
-      .where("id", "!=", input.tendonId)
-      .where((eb) => eb(eb.fn("lower", ["tag"]), "=", v.tag.toLowerCase()))
-      .executeTakeFirst();
-    if (clash)
-      throw new AppError("CONFLICT", `The tag ${v.tag} is already in this pour.`, { tag: ["Already in this pour."] });
-    if (v.strandLotId) {
-      const lot = await trx
-        .selectFrom("strand_lots")
-        .select("strand_size")
-        .where("project_id", "=", input.projectId)
-        .where("id", "=", v.strandLotId)
-        .executeTakeFirst();
-      if (!lot)
-        throw new AppError("INVALID_INPUT", "Pick a strand lot of this project.", {
-          strandLotId: ["Not a lot of this project."],
-        });
-      if (lot.strand_size !== v.strandSize)
-        throw new AppError("INVALID_INPUT", "The lot is another strand size.", {
-          strandLotId: [`This lot is ${lot.strand_size} strand.`],
-        });
-    }
+    await checkScheduleRow(trx, {
+      projectId: input.projectId,
+      pourId: before.pour_id,
+      values: v,
+      exceptTendonId: input.tendonId,
+    });
     await trx
       .updateTable("tendons")
       .set({
