@@ -13,7 +13,7 @@ import {
   dailyTime,
   type DailyRecordColumn,
 } from "./daily-rows";
-import { pdfText, type SignatureBlock } from "./pour-pdf";
+import { drawTable, pdfText, type SignatureBlock } from "./pour-pdf";
 
 /**
  * The daily special-inspection report as a PDF, drawn like the pour's stressing report (pdfkit's
@@ -24,7 +24,6 @@ import { pdfText, type SignatureBlock } from "./pour-pdf";
 
 const BODY = 9;
 const MARGIN = 36;
-const PAD = 2;
 
 const PDF_COLUMNS: { title: string; width: number; from: DailyRecordColumn[] }[] = [
   { title: "Pour, tendon, end, stressing", width: 70, from: ["Pour", "Tendon", "End", "Stressing"] },
@@ -221,44 +220,11 @@ export async function renderDailyPdf(report: DailyReport, signature?: SignatureB
   font(true, 12);
   text("Stressing records of the day, pour by pour, every stressing of every end in order");
   doc.moveDown(0.3);
-  const scale = width / PDF_COLUMNS.reduce((a, c) => a + c.width, 0);
-  const colWidths = PDF_COLUMNS.map((c) => c.width * scale);
-  const cellHeight = (cells: string[]) =>
-    Math.max(...cells.map((c, i) => doc.heightOfString(pdfText(c) || " ", { width: colWidths[i]! - 2 * PAD }))) +
-    2 * PAD;
-  const drawRow = (cells: string[], bold: boolean) => {
-    font(bold, bold ? BODY : BODY - 1);
-    const h = cellHeight(cells);
-    const top = doc.y;
-    let x = left;
-    cells.forEach((c, i) => {
-      doc.text(pdfText(c), x + PAD, top + PAD, { width: colWidths[i]! - 2 * PAD, lineBreak: true });
-      x += colWidths[i]!;
-    });
-    doc
-      .lineWidth(bold ? 1 : 0.5)
-      .strokeColor("black")
-      .moveTo(left, top + h)
-      .lineTo(left + width, top + h)
-      .stroke();
-    doc.x = left;
-    doc.y = top + h;
-  };
-  const header = PDF_COLUMNS.map((c) => c.title);
-  const rows = dailyRecordRows(report);
+  const rows = dailyRecordRows(report).map(pdfCells);
   if (!rows.length) {
     font(false);
     text("No stressing was recorded this day.");
-  } else drawRow(header, true);
-  for (const row of rows) {
-    const cells = pdfCells(row);
-    font(false, BODY - 1);
-    if (doc.y + cellHeight(cells) > bottom()) {
-      doc.addPage();
-      drawRow(header, true);
-    }
-    drawRow(cells, false);
-  }
+  } else drawTable(doc, { left, width, bottom, font, columns: PDF_COLUMNS, rows });
   font(false);
   doc.moveDown(0.8);
   caution();

@@ -257,40 +257,14 @@ export async function renderPourPdf(report: PourReport, signature?: SignatureBlo
   font(true, 12);
   text("Stressing records, every stressing of every end in order", { width });
   doc.moveDown(0.3);
-  const scale = width / PDF_COLUMNS.reduce((a, c) => a + c.width, 0);
-  const colWidths = PDF_COLUMNS.map((c) => c.width * scale);
-  const cellHeight = (cells: string[]) =>
-    Math.max(...cells.map((c, i) => doc.heightOfString(pdfText(c) || " ", { width: colWidths[i]! - 2 * PAD }))) +
-    2 * PAD;
-  const drawRow = (cells: string[], bold: boolean) => {
-    font(bold, bold ? BODY : BODY - 1);
-    const h = cellHeight(cells);
-    const top = doc.y;
-    let x = left;
-    cells.forEach((c, i) => {
-      doc.text(pdfText(c), x + PAD, top + PAD, { width: colWidths[i]! - 2 * PAD, lineBreak: true });
-      x += colWidths[i]!;
-    });
-    doc
-      .lineWidth(bold ? 1 : 0.5)
-      .strokeColor("black")
-      .moveTo(left, top + h)
-      .lineTo(left + width, top + h)
-      .stroke();
-    doc.x = left;
-    doc.y = top + h;
-  };
-  const header = PDF_COLUMNS.map((c) => c.title);
-  drawRow(header, true);
-  for (const row of recordRows(report)) {
-    const cells = pdfCells(row);
-    font(false, BODY - 1);
-    if (doc.y + cellHeight(cells) > bottom()) {
-      doc.addPage();
-      drawRow(header, true);
-    }
-    drawRow(cells, false);
-  }
+  drawTable(doc, {
+    left,
+    width,
+    bottom,
+    font,
+    columns: PDF_COLUMNS,
+    rows: recordRows(report).map(pdfCells),
+  });
   font(false);
   if (!report.tendons.length) text("This pour has no tendons on its schedule.", { width });
 
@@ -330,4 +304,54 @@ export async function renderPourPdf(report: PourReport, signature?: SignatureBlo
   }
   doc.end();
   return done;
+}
+
+/**
+ * A table of wrapped cells with a rule under each row, its header drawn again at the top of every
+ * page it runs onto; the stressing report and the daily report draw their records with it.
+ */
+export function drawTable(
+  doc: PDFKit.PDFDocument,
+  t: {
+    left: number;
+    width: number;
+    bottom: () => number;
+    font: (bold: boolean, size?: number) => unknown;
+    columns: readonly { title: string; width: number }[];
+    rows: string[][];
+  },
+): void {
+  const scale = t.width / t.columns.reduce((a, c) => a + c.width, 0);
+  const colWidths = t.columns.map((c) => c.width * scale);
+  const cellHeight = (cells: string[]) =>
+    Math.max(...cells.map((c, i) => doc.heightOfString(pdfText(c) || " ", { width: colWidths[i]! - 2 * PAD }))) +
+    2 * PAD;
+  const drawRow = (cells: string[], bold: boolean) => {
+    t.font(bold, bold ? BODY : BODY - 1);
+    const h = cellHeight(cells);
+    const top = doc.y;
+    let x = t.left;
+    cells.forEach((c, i) => {
+      doc.text(pdfText(c), x + PAD, top + PAD, { width: colWidths[i]! - 2 * PAD, lineBreak: true });
+      x += colWidths[i]!;
+    });
+    doc
+      .lineWidth(bold ? 1 : 0.5)
+      .strokeColor("black")
+      .moveTo(t.left, top + h)
+      .lineTo(t.left + t.width, top + h)
+      .stroke();
+    doc.x = t.left;
+    doc.y = top + h;
+  };
+  const header = t.columns.map((c) => c.title);
+  drawRow(header, true);
+  for (const cells of t.rows) {
+    t.font(false, BODY - 1);
+    if (doc.y + cellHeight(cells) > t.bottom()) {
+      doc.addPage();
+      drawRow(header, true);
+    }
+    drawRow(cells, false);
+  }
 }
