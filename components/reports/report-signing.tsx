@@ -4,6 +4,7 @@ import { useRouter } from "next/navigation";
 import { FieldError, FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
+import { SignedRevisions } from "./signed-revisions";
 
 export interface SignedRevisionView {
   revision: number;
@@ -50,35 +51,7 @@ export function ReportSigning({
             ? `The report as it stands is signed: revision ${last.revision}.`
             : `Changed since revision ${last.revision} was signed; it needs a new signature.`}
       </p>
-      {last && !current.signed && current.changesSinceSigned.length > 0 && (
-        <ul className="list-disc pl-6 text-ink-soft" aria-label="Changes since the last signature">
-          {current.changesSinceSigned.map((c) => (
-            <li key={c}>{c}</li>
-          ))}
-        </ul>
-      )}
-      {revisions.length > 0 && (
-        <ol className="space-y-3" aria-label="Signed revisions">
-          {revisions.map((r) => (
-            <li key={r.revision} className="rounded-md border border-concrete-300 p-3">
-              <p className="font-semibold">
-                Revision {r.revision}: {r.signerName}, {r.licence}, {r.signedAt}
-              </p>
-              <p className="break-all text-label text-ink-soft">File sha256 {r.fileSha256}</p>
-              {r.changes.length > 0 && (
-                <ul className="mt-1 list-disc pl-6 text-label">
-                  {r.changes.map((c) => (
-                    <li key={c}>{c}</li>
-                  ))}
-                </ul>
-              )}
-              <a className="btn-quiet mt-2" href={`${api}/${r.revision}`} download>
-                Signed PDF, revision {r.revision}
-              </a>
-            </li>
-          ))}
-        </ol>
-      )}
+      <SignedRevisions api={api} revisions={revisions} current={current} />
       {canSign && !current.signed && (
         <form
           className="space-y-3"
