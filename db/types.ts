@@ -312,7 +312,8 @@ export type FlagKind =
   | "cut_while_held"
   | "group_out_of_band"
   | "member_wire_loss"
-  | "liftoff_out_of_band";
+  | "liftoff_out_of_band"
+  | "force_disagreement";
 export type FlagStatus = "open" | "with_engineer" | "closed";
 
 export interface FlagsTable {

@@ -20,6 +20,7 @@ export const FLAG_LABELS: Record<FlagKind, string> = {
   group_out_of_band: "Group average out of band",
   member_wire_loss: "Member over its wire-break limit",
   liftoff_out_of_band: "Lift-off force outside band",
+  force_disagreement: "Elongation and gauge force disagree",
 };
 
 export const flagLabel = (kind: string): string => FLAG_LABELS[kind as FlagKind] ?? kind.replaceAll("_", " ");

@@ -1,4 +1,6 @@
 import { z } from "zod";
+import type { FlagKind } from "@/db/types";
+import { FLAG_LABELS } from "./flag";
 import { text } from "./text";
 
 const reasonText = (what: string) =>
@@ -117,21 +119,8 @@ export type CorrectionInput = z.infer<typeof correctionSchema>;
 export const flagFilterSchema = z.object({
   projectId: z.uuid().optional(),
   pourId: z.uuid().optional(),
-  kind: z
-    .enum([
-      "out_of_band",
-      "jacking_over_limit",
-      "anchor_over_limit",
-      "calibration_expired",
-      "calibration_range",
-      "wire_break",
-      "concrete_unconfirmed",
-      "reading_missing",
-      "stressed_twice",
-      "cut_while_held",
-      "liftoff_out_of_band",
-    ])
-    .optional(),
+  // Every kind there is, so the list to filter by never misses one.
+  kind: z.enum(Object.keys(FLAG_LABELS) as [FlagKind, ...FlagKind[]]).optional(),
   olderThanHours: z.coerce
     .number()
     .int()

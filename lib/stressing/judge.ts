@@ -176,7 +176,16 @@ export interface EndJudgement {
   /** What this end's reading is compared with. */
   predictedMm: number;
   comparison: Comparison | null;
-  /** Pj·(m + set)/gross on net, Pj·(m − grip)/gross on gross: the force the elongation implies. */
+  /**
+   * Tautline's elongation of this end at the specified force on the record's own basis before any
+   * seating: the gross share plus the grip on gross (ram travel), the gross share on net (marks).
+   * The force the elongation implies scales with it; never the shop drawing's value.
+   */
+  forceBasisMm: number;
+  /**
+   * The force the elongation implies, Pj·(m + set)/forceBasis: Pj·(m + set)/gross on net,
+   * Pj·m/(gross + grip) on gross (m the reading brought to the full force, draw-in deducted).
+   */
   impliedForceN: number | null;
   incomplete: string | null;
 }
@@ -459,10 +468,12 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
             tolerancePct: project.tolerancePct,
             floorMm: project.shortTendonFloorMm ?? undefined,
           });
+    // Elongation is proportional to the force (P·L/(A·E) with friction losses proportional to P), the
+    // strand inside the jack included, while the wedges' seating is a fixed draw-in: so the reading
+    // plus the set, over the elongation at Pj, is the share of Pj reached.
+    const forceBasisMm = tautlineGrossMm + gripMm;
     const impliedForceN =
-      totalMm === null || !(tautlineGrossMm > 0)
-        ? null
-        : (specifiedForceN * (totalMm + setMm - gripMm)) / tautlineGrossMm;
+      totalMm === null || !(forceBasisMm > 0) ? null : (specifiedForceN * (totalMm + setMm)) / forceBasisMm;
     return {
       end: record.end,
       record,
@@ -484,6 +495,7 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
       setSource,
       predictedMm,
       comparison,
+      forceBasisMm,
       impliedForceN,
       incomplete,
     };

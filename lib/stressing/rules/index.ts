@@ -2,6 +2,7 @@ import { judgeStressing, type JudgeInput, type StressingJudgement } from "../jud
 import { calibrationExpired } from "./calibration-expired";
 import { calibrationRange } from "./calibration-range";
 import { concreteUnconfirmed } from "./concrete-unconfirmed";
+import { forceDisagreement } from "./force-disagreement";
 import { anchorOverLimit, jackingOverLimit, underForce } from "./forces";
 import { groupOutOfBand } from "./group-out-of-band";
 import { memberWireLoss } from "./member-wire-loss";
@@ -26,6 +27,7 @@ export const FLAG_RULES: { [K in RuleKind]: Rule } = {
   jacking_over_limit: jackingOverLimit,
   anchor_over_limit: anchorOverLimit,
   under_force: underForce,
+  force_disagreement: forceDisagreement,
   seating_excess: seatingExcess,
   out_of_band: outOfBand,
   concrete_unconfirmed: concreteUnconfirmed,

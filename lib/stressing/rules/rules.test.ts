@@ -50,6 +50,13 @@ function base(): JudgeInput {
   };
 }
 
+/** Ram travel of a perfect pull at Pj with a grip length inside the jack: gross plus grip. */
+function gripGross(gripLengthMm: number): number {
+  const i = { ...base(), tendon: { ...base().tendon, jackGripMm: gripLengthMm } };
+  const e = judgeStressing({ ...i, records: [rec({ readingMethod: "strokes", measuredMm: 100 })] }).ends[0]!;
+  return e.predictedGrossMm + e.gripMm;
+}
+
 function perfectNet(): number {
   const j = judgeStressing({ ...base(), records: [rec({ measuredMm: 100 })] });
   return j.ends[0]!.predictedMm;
@@ -124,6 +131,89 @@ const cases: Record<RuleKind, Case[]> = {
         project: { ...i.project, jackingForceFactor: 0.75 },
         records: [rec({ measuredMm: P, finalPressureMPa: (0.75 / 0.8) * TARGET })],
       }),
+      raised: false,
+    },
+  ],
+  // ACI 318-11 §18.20.1 (from memory): force by elongation and by gauge, a difference over 7 % in
+  // post-tensioning to be explained. Hand arithmetic on this tendon: gross ≈ 216.4 mm at Pj ≈ 147.0 kN
+  // (146,969 × (1 − e^(−0.099))/3.3e-6 / (98.71 × 196,500)); marks are net of the 6 mm set, so a
+  // perfect reading gives (m + 6)/gross = 1 and the elongation implies Pj. The gauge at 94 % of Pj
+  // then reads 1/0.94 − 1 = +6.4 % below what the elongation says (in), at 93 % +7.5 % (out), at
+  // 108 % 1/1.08 − 1 = −7.4 % (out). A net reading 7.5 % long implies (1.075·210.4 + 6)/216.4 − 1
+  // = +7.3 %. Ram travel: m = k·(gross + grip) implies k·Pj, whatever the grip.
+  force_disagreement: [
+    { name: "perfect reading at Pj", change: (i) => ({ ...i, records: [rec({ measuredMm: P })] }), raised: false },
+    {
+      name: "gauge at 94 % with the elongation of Pj: +6.4 %",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P, finalPressureMPa: 0.94 * TARGET })] }),
+      raised: false,
+    },
+    {
+      name: "gauge at 93 % with the elongation of Pj: +7.5 %",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P, finalPressureMPa: 0.93 * TARGET })] }),
+      raised: true,
+      reason: /End A: gauge 136\.7 kN, elongation implies 147\.0 kN \(\+7\.5 %, outside ±7 %\).*ACI 318-11 §18\.20\.1/,
+    },
+    {
+      name: "gauge at 108 % with the elongation of Pj: −7.4 %",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P, finalPressureMPa: 1.08 * TARGET })] }),
+      raised: true,
+      reason: /\(−7\.4 %, outside ±7 %\)/,
+    },
+    {
+      name: "net reading 7.5 % long at Pj: +7.3 %",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P * 1.075 })] }),
+      raised: true,
+      reason: /\(\+7\.3 %, outside/,
+    },
+    {
+      name: "net reading 7.2 % long at Pj: +7.0 % (the edge inside)",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P * 1.07 })] }),
+      raised: false,
+    },
+    {
+      name: "ram travel with 18 in of grip, 5 % long at a gauge of 100 %",
+      change: (i) => ({
+        ...i,
+        tendon: { ...i.tendon, jackGripMm: 457.2 },
+        records: [rec({ readingMethod: "strokes", measuredMm: 1.05 * gripGross(457.2) })],
+      }),
+      raised: false,
+    },
+    {
+      name: "ram travel with 18 in of grip, 8 % long at a gauge of 100 %",
+      change: (i) => ({
+        ...i,
+        tendon: { ...i.tendon, jackGripMm: 457.2 },
+        records: [rec({ readingMethod: "strokes", measuredMm: 1.08 * gripGross(457.2) })],
+      }),
+      raised: true,
+      reason: /\(\+8\.0 %, outside ±7 %\)/,
+    },
+    {
+      name: "ram travel read to a gauge at 95 %, elongation of 95 %: they agree",
+      change: (i) => ({
+        ...i,
+        tendon: { ...i.tendon, jackGripMm: 457.2 },
+        records: [
+          rec({ readingMethod: "strokes", measuredMm: 0.95 * gripGross(457.2), finalPressureMPa: 0.95 * TARGET }),
+        ],
+      }),
+      raised: false,
+    },
+    {
+      // A 20 mm floor on a 216.4 mm tendon stands for 20/216.4 = 9.2 % of Pj: +7.5 % is inside it.
+      name: "short-tendon floor of 20 mm widens the band to 9.9 % of a 93 % gauge",
+      change: (i) => ({
+        ...i,
+        project: { ...i.project, shortTendonFloorMm: 20 },
+        records: [rec({ measuredMm: P, finalPressureMPa: 0.93 * TARGET })],
+      }),
+      raised: false,
+    },
+    {
+      name: "gauge outside the calibrated range: no force to compare (calibration_range says so)",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P, finalPressureMPa: 41 })] }),
       raised: false,
     },
   ],

@@ -13,7 +13,8 @@ export type RuleKind =
   | "concrete_unconfirmed"
   | "stressed_twice"
   | "group_out_of_band"
-  | "member_wire_loss";
+  | "member_wire_loss"
+  | "force_disagreement";
 
 export interface Finding {
   kind: RuleKind;
