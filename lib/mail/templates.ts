@@ -97,6 +97,8 @@ export function flagMail(input: {
   flags: { id?: string; kind: string; reason: string }[];
   verdictLine: string;
   basisLine: string;
+  /** Per end, the gauge force and the force the elongation implies, with their difference. */
+  forcesLine?: string;
   url: string;
 }): OutgoingMail {
   // The link names the first new flag, so the page opens on the flag this e-mail is about.
@@ -107,6 +109,7 @@ export function flagMail(input: {
     `${input.projectName}, ${input.pourName}, tendon ${input.tendonTag}.`,
     `Verdict: ${input.verdictLine}.`,
     ...input.flags.map((f) => `Flag (${flagLabel(f.kind)}): ${f.reason}`),
+    ...(input.forcesLine ? [`Force, gauge and elongation: ${input.forcesLine}.`] : []),
     `Basis: ${input.basisLine}`,
     "Do not cut tails or grout this tendon until a disposition is recorded.",
   ];

@@ -20,6 +20,7 @@ import { env } from "@/lib/env";
 import { flagMail } from "@/lib/mail/templates";
 import type { JudgeInput, JudgeRecord } from "@/lib/stressing/judge";
 import { judgeAndFlag } from "@/lib/stressing/rules";
+import { forceAgreement, forceAgreementWords } from "@/lib/stressing/rules/force-disagreement";
 import { WIRES_PER_STRAND } from "@/lib/stressing/rules/member-wire-loss";
 import { answeredOrder } from "@/lib/stressing/rules/stressed-twice";
 import { governsLine, showLength, showPct } from "@/lib/stressing/display";
@@ -471,6 +472,9 @@ export function planEvaluation(
   const provisional = judgement.provisional;
   const deviationPct = judgement.comparison?.deviationPct ?? null;
   const measuredMm = judgement.measuredMm;
+  // Per end, the gauge force against the force the elongation implies (the force-agreement rule's figures).
+  const agreementOf = (e: (typeof judgement.ends)[number]) =>
+    forceAgreement(e, judgeInput.project, judgement.specifiedForceN);
   const readings = judgement.ends.map((e) => ({
     end: e.end,
     recordId: e.record.id,
@@ -495,6 +499,9 @@ export function planEvaluation(
     predictedMm: e.predictedMm,
     gaugeForceN: e.gaugeForceN,
     impliedForceN: e.impliedForceN,
+    forceBasisMm: e.forceBasisMm,
+    forceDifferencePct: agreementOf(e)?.differencePct ?? null,
+    forceBandPct: agreementOf(e)?.bandPct ?? null,
     incomplete: e.incomplete,
   }));
   const usedCalibrations = judgement.ends
@@ -610,6 +617,11 @@ export function planEvaluation(
         `μ ${project.frictionMu}, K ${project.wobblePerM.toFixed(4)} per m, anchor set ${showLength(project, project.anchorSetMm)}, ` +
         `${judgement.strand.source === "strand lot" ? `strand lot ${basis.lot?.lotNumber}` : "nominal strand values"}. ` +
         governsLine(project, judgement),
+      forcesLine: judgement.ends
+        .map(agreementOf)
+        .filter((f) => f !== null)
+        .map((f) => forceAgreementWords(project, f))
+        .join("; "),
       url: `${env.APP_URL}/projects/${input.projectId}/tendons/${input.tendonId}/flags`,
     });
     notification = {

@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import bcrypt from "bcryptjs";
+import { getPourInsight } from "@/lib/server/get-pour-insight";
 import { DEMO_PASSWORD, DEMO_PEOPLE, seedDemo } from "@/scripts/seed/demo";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
@@ -74,15 +75,34 @@ describe("demo seed", () => {
       .select(["tendons.tag", "flags.kind", "flags.status"])
       .orderBy("tendons.tag")
       .execute();
-    expect(flags).toEqual([
+    // The out-of-band tendons, read at the gauge's force, also disagree with the gauge on the force
+    // (the elongation's force more than 7 % from the gauge's); Set B's drift is within both bands.
+    const sorted = [...flags].sort((a, b) => a.tag.localeCompare(b.tag) || a.kind.localeCompare(b.kind));
+    expect(sorted).toEqual([
+      { tag: "2-1-U14", kind: "force_disagreement", status: "closed" },
       { tag: "2-1-U14", kind: "out_of_band", status: "closed" },
       { tag: "2-2-B03", kind: "wire_break", status: "open" },
+      { tag: "2-2-U08", kind: "force_disagreement", status: "open" },
       { tag: "2-2-U08", kind: "out_of_band", status: "open" },
+      { tag: "2-2-U17", kind: "force_disagreement", status: "open" },
       { tag: "2-2-U17", kind: "out_of_band", status: "with_engineer" },
+      { tag: "2-2-U23", kind: "force_disagreement", status: "open" },
       { tag: "2-2-U23", kind: "out_of_band", status: "with_engineer" },
     ]);
     const decisions = await t.db.selectFrom("dispositions").select("decision").orderBy("created_at").execute();
-    expect(decisions.map((d) => d.decision)).toEqual(["accept", "restress", "liftoff_check"]);
+    expect(decisions.map((d) => d.decision)).toEqual(["accept", "accept", "restress", "liftoff_check"]);
+
+    // The released pour stays clean, and its insight still marks Set B, whose gauge reads low.
+    const released = await t.db
+      .selectFrom("pours")
+      .select(["id", "project_id"])
+      .where("name", "=", "L2 Pour 1")
+      .executeTakeFirstOrThrow();
+    const insight = await getPourInsight(t.db, { projectId: released.project_id, pourId: released.id });
+    expect(insight.progress.flagged).toBe(0);
+    const drifting = insight.driftOnPour.filter((d) => d.drifting);
+    expect(drifting.map((d) => d.setName)).toEqual([expect.stringMatching(/^Set B/)]);
+    expect(drifting[0]!.differencePct).toBeGreaterThan(2);
   });
 
   it("keeps data a person added between runs", async () => {
