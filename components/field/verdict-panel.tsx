@@ -155,6 +155,14 @@ export function VerdictPanel({
                   · end {f.end} ({f.role}): gauge{" "}
                   {f.gaugeForceN === null ? "no calibration" : showForce(u, f.gaugeForceN)}, elongation implies{" "}
                   {f.impliedForceN === null ? "—" : showForce(u, f.impliedForceN)}
+                  {typeof f.differencePct === "number" && typeof f.bandPct === "number" && (
+                    <span data-testid={`force-agreement-${f.end}`}>
+                      {" "}
+                      ({showPct(f.differencePct)},{" "}
+                      {Math.abs(f.differencePct) <= f.bandPct + 1e-9 ? "within" : <strong>outside</strong>} ±
+                      {Number(f.bandPct.toFixed(1))} %)
+                    </span>
+                  )}
                 </span>
               ))}
             </p>

@@ -1,6 +1,5 @@
 import { ForceProfileChart } from "@/components/review/force-profile-chart";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
-import type { Verdict } from "@/db/types";
 import { showComputedLength, showForce, showLength, showPct } from "@/lib/stressing/display";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
 import { N_PER_KIP } from "@/lib/units";
@@ -60,17 +59,38 @@ function Section({
   );
 }
 
-interface Judgement {
-  measuredMm: number;
-  missingEnds: string[];
-  comparison: {
-    deviationPct: number;
-    verdict: Verdict;
-    bandMm: number;
-    lowerMm: number;
-    upperMm: number;
-    impliedForceN: number | null;
-  };
+/** One end's force both ways: the gauge's, the elongation's, and their difference against the band. */
+function ForceRows({
+  p,
+  e,
+}: {
+  p: TendonCase["basis"]["project"];
+  e: NonNullable<TendonCase["figures"]>["ends"][number];
+}) {
+  const band = e.forceBandPct !== null ? `±${Number(e.forceBandPct.toFixed(1))} %` : null;
+  const agrees =
+    e.forceDifferencePct !== null && band !== null ? Math.abs(e.forceDifferencePct) <= e.forceBandPct! + 1e-9 : null;
+  return (
+    <>
+      <Row
+        label={`Force from the gauge, end ${e.end}`}
+        value={showForce(p, e.gaugeForceN!)}
+        source="Calibration line at the final pressure"
+      />
+      <Row
+        label={`Force implied by the elongation, end ${e.end}`}
+        value={showForce(p, e.impliedForceN!)}
+        source="Pj · (m + set)/gross on net; Pj · m/(gross + grip) on gross"
+      />
+      {e.forceDifferencePct !== null && (
+        <Row
+          label={`Difference, end ${e.end}`}
+          value={`${showPct(e.forceDifferencePct)}${agrees === null ? "" : agrees ? `, within ${band}` : `, outside ${band}`}`}
+          source="(elongation − gauge)/gauge; both determinations, ACI 318-11 §18.20.1 (from memory)"
+        />
+      )}
+    </>
+  );
 }
 
 /** The computation, read top to bottom like a calculation sheet: inputs, steps, result. */
@@ -81,7 +101,7 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
     return <p className="card">The prediction could not be computed: {c.computationError}</p>;
   }
   const e = predicted.prediction;
-  const judgement = (c.evaluation?.result as { judgement?: Judgement | null } | undefined)?.judgement ?? null;
+  const judgement = c.figures;
   const totalLength = segments.at(-1)?.endMm ?? 0;
   return (
     <div className="space-y-3">
@@ -235,20 +255,16 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
                 />
                 <Row
                   label={`Band ±${p.tolerancePct} %${p.shortTendonFloorMm ? `, at least ±${showComputedLength(p, p.shortTendonFloorMm)}` : ""}`}
-                  value={`${showComputedLength(p, judgement.comparison.lowerMm)} to ${showComputedLength(p, judgement.comparison.upperMm)}`}
+                  value={`${showComputedLength(p, judgement.lowerMm)} to ${showComputedLength(p, judgement.upperMm)}`}
                   source="ACI 318 §26.10 practice; project rule"
                 />
                 <Row
                   label="Deviation"
-                  value={showPct(judgement.comparison.deviationPct)}
+                  value={showPct(judgement.deviationPct)}
                   source="(measured − predicted)/predicted"
                 />
-                {judgement.comparison.impliedForceN !== null && (
-                  <Row
-                    label="Force implied by the elongation"
-                    value={showForce(p, judgement.comparison.impliedForceN)}
-                    source="Pj · measured/predicted"
-                  />
+                {judgement.ends.map((e) =>
+                  e.gaugeForceN !== null && e.impliedForceN !== null ? <ForceRows key={e.end} p={p} e={e} /> : null,
                 )}
               </>
             )}

@@ -47,7 +47,15 @@ export interface LocalVerdict {
   /** The flags the server's rules will raise on these readings, as the tablet sees them. */
   flagKinds?: string[];
   /** Gauge force and the force the elongation implies, per end read. */
-  forces?: { end: "A" | "B"; gaugeForceN: number | null; impliedForceN: number | null; role: string }[];
+  forces?: {
+    end: "A" | "B";
+    gaugeForceN: number | null;
+    impliedForceN: number | null;
+    role: string;
+    /** (implied − gauge)/gauge, %, and the band it is judged in (the force-agreement rule's). */
+    differencePct?: number | null;
+    bandPct?: number | null;
+  }[];
   specifiedForceN?: number;
   /** The reading division alone could flip the verdict: read again, finer, before it is final. */
   reread?: boolean;

@@ -1,6 +1,7 @@
 import { predictTendon, stressedEnds, targetPressureMPa, type CalibrationLine } from "@/lib/stressing/basis";
 import { governsLine } from "@/lib/stressing/display";
 import { judgeAndFlag } from "@/lib/stressing/rules";
+import { forceAgreement } from "@/lib/stressing/rules/force-disagreement";
 import { stressingDay, type JudgeInput, type JudgeRecord } from "@/lib/stressing/judge";
 import type {
   FieldCalibration,
@@ -164,7 +165,8 @@ export function provisionalVerdict(
   records: LocalRecord[],
 ): LocalVerdict | null {
   if (!records.length) return null;
-  const { judgement: j, findings } = judgeAndFlag(judgeInputFor(ctx, records));
+  const input = judgeInputFor(ctx, records);
+  const { judgement: j, findings } = judgeAndFlag(input);
   if (!j.ends.length) return null;
   const c = j.comparison;
   return {
@@ -184,6 +186,8 @@ export function provisionalVerdict(
       gaugeForceN: e.gaugeForceN,
       impliedForceN: e.impliedForceN,
       role: e.role,
+      differencePct: forceAgreement(e, input.project, j.specifiedForceN)?.differencePct ?? null,
+      bandPct: forceAgreement(e, input.project, j.specifiedForceN)?.bandPct ?? null,
     })),
     specifiedForceN: j.specifiedForceN,
     reread: j.divisionCouldFlip,

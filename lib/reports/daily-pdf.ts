@@ -35,7 +35,7 @@ const PDF_COLUMNS: { title: string; width: number; from: DailyRecordColumn[] }[]
     width: 62,
     from: ["Initial pressure", "Final pressure", "Target pressure"],
   },
-  { title: "Force", width: 42, from: ["Force"] },
+  { title: "Force: gauge, elongation", width: 56, from: ["Force", "Force from elongation"] },
   { title: "Measured", width: 52, from: ["Measured"] },
   {
     title: "Predicted: Tautline, shop, governs",
@@ -55,6 +55,8 @@ const LABELS: Partial<Record<DailyRecordColumn, string>> = {
   Governs: "governs",
   "Wire breaks": "wire breaks",
   Seating: "seating",
+  Force: "gauge",
+  "Force from elongation": "elongation",
 };
 
 function pdfCells(row: string[]): string[] {

@@ -37,7 +37,7 @@ const PDF_COLUMNS: { title: string; width: number; from: RecordColumn[] }[] = [
     width: 54,
     from: ["Initial pressure", "Final pressure", "Target pressure"],
   },
-  { title: "Force", width: 40, from: ["Force"] },
+  { title: "Force: gauge, elongation", width: 54, from: ["Force", "Force from elongation"] },
   { title: "Readings as entered, seating", width: 74, from: ["Readings as entered", "Seating"] },
   { title: "Measured", width: 56, from: ["Measured"] },
   {
@@ -59,6 +59,8 @@ const LABELLED = new Set<RecordColumn>([
   "Governs",
   "Wire breaks",
   "Seating",
+  "Force",
+  "Force from elongation",
 ]);
 const LABELS: Partial<Record<RecordColumn, string>> = {
   "Initial pressure": "initial",
@@ -69,6 +71,8 @@ const LABELS: Partial<Record<RecordColumn, string>> = {
   Governs: "governs",
   "Wire breaks": "wire breaks",
   Seating: "seating",
+  Force: "gauge",
+  "Force from elongation": "elongation",
 };
 
 function pdfCells(row: string[]): string[] {

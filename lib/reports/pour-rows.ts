@@ -38,6 +38,7 @@ export const RECORD_COLUMNS = [
   "Final pressure",
   "Target pressure",
   "Force",
+  "Force from elongation",
   "Readings as entered",
   "Seating",
   "Measured",
@@ -138,6 +139,10 @@ export function recordRows(report: PourReport): string[][] {
         "Final pressure": showPressure(p, r.finalPressureMPa),
         "Target pressure": r.targetPressureMPa !== null ? showPressure(p, r.targetPressureMPa) : "no calibration",
         Force: r.forceN !== null ? showForce(p, r.forceN) : "no calibration",
+        "Force from elongation": r.elongationForce
+          ? showForce(p, r.elongationForce.forceN) +
+            (r.elongationForce.differencePct !== null ? ` (${showPct(r.elongationForce.differencePct)})` : "")
+          : "",
         "Readings as entered": readingsText(p, r),
         Seating: r.entered.seating ?? (r.seatingMm !== null ? showLength(p, r.seatingMm) : "not read"),
         Measured: showLength(p, r.measuredMm),

@@ -1,5 +1,6 @@
 import "server-only";
 import type { Kysely } from "kysely";
+import { z } from "zod";
 import type { Database } from "@/db/types";
 import { forceProfile, segmentBeta, type ForceProfile } from "@/lib/elongation";
 import { predictTendon, type TendonPrediction } from "@/lib/stressing/basis";
@@ -108,6 +109,7 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
     segments,
     records,
     evaluation: evaluation ?? null,
+    figures: evaluation ? evaluationFigures(evaluation) : null,
     flags,
     reviews,
     dispositions,
@@ -118,3 +120,59 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
 }
 
 export type TendonCase = Awaited<ReturnType<typeof getTendonCase>>;
+
+// Read defensively: evaluations of every engine version are kept. Since the per-record judge the
+// comparison sits in `result.comparison` and the ends in `inputs.readings`; before it, in
+// `result.judgement`. The force figures of an end are absent on evaluations older than them.
+const comparisonSchema = z.object({
+  deviationPct: z.number(),
+  lowerMm: z.number(),
+  upperMm: z.number(),
+});
+const resultSchema = z.object({
+  comparison: comparisonSchema.nullable().catch(null),
+  judgement: z.object({ measuredMm: z.number(), comparison: comparisonSchema }).nullable().catch(null),
+});
+const endSchema = z.object({
+  end: z.enum(["A", "B"]),
+  role: z.string().catch(""),
+  gaugeForceN: z.number().nullable().catch(null),
+  impliedForceN: z.number().nullable().catch(null),
+  forceDifferencePct: z.number().nullable().catch(null),
+  forceBandPct: z.number().nullable().catch(null),
+});
+const inputsSchema = z.object({
+  jackingForceN: z.number().nullable().catch(null),
+  readings: z.array(z.unknown()).catch([]),
+});
+
+export interface EvaluationFigures {
+  measuredMm: number;
+  deviationPct: number;
+  lowerMm: number;
+  upperMm: number;
+  specifiedForceN: number | null;
+  /** Per end read: the gauge force and the force the elongation implies, with their difference. */
+  ends: z.infer<typeof endSchema>[];
+}
+
+/** The few numbers of the latest evaluation the decision and the sheet show; null when it has none. */
+export function evaluationFigures(e: { result: unknown; inputs: unknown; measured_mm: number | null }) {
+  const result = resultSchema.safeParse(e.result);
+  const inputs = inputsSchema.safeParse(e.inputs);
+  const comparison = result.success ? (result.data.comparison ?? result.data.judgement?.comparison ?? null) : null;
+  const measuredMm = e.measured_mm ?? (result.success ? (result.data.judgement?.measuredMm ?? null) : null);
+  if (!comparison || measuredMm === null) return null;
+  const readings = inputs.success ? inputs.data.readings : [];
+  return {
+    measuredMm,
+    deviationPct: comparison.deviationPct,
+    lowerMm: comparison.lowerMm,
+    upperMm: comparison.upperMm,
+    specifiedForceN: inputs.success ? inputs.data.jackingForceN : null,
+    ends: readings.flatMap((r) => {
+      const end = endSchema.safeParse(r);
+      return end.success ? [end.data] : [];
+    }),
+  } satisfies EvaluationFigures;
+}

@@ -41,6 +41,11 @@ export interface PourRecord {
   finalPressureMPa: number;
   targetPressureMPa: number | null;
   forceN: number | null;
+  /**
+   * The force the elongation implies and its difference from the gauge force, % of the gauge's, as
+   * the evaluation that used the record judged them (absent on evaluations older than the check).
+   */
+  elongationForce: { forceN: number; differencePct: number | null } | null;
   method: ReadingMethod;
   entered: {
     marks: { before: string; after: string } | null;
@@ -101,6 +106,8 @@ const inputsSchema = z.object({
           drawInSource: z.enum(["record", "equipment set", "none"]).optional(),
           drawInUsedMm: z.number().nullable().optional(),
           drawInDeductedMm: z.number().optional(),
+          impliedForceN: z.number().nullable().optional(),
+          forceDifferencePct: z.number().nullable().optional(),
         })
         .passthrough(),
     )
@@ -293,6 +300,10 @@ export async function listPourRecords(
       targetPressureMPa:
         calibrationLine && used?.jackingForceN ? pressureForForce(calibrationLine, used.jackingForceN) : null,
       forceN: calibrationLine ? forceFromPressure(calibrationLine, r.final_pressure_mpa) : null,
+      elongationForce:
+        typeof reading?.impliedForceN === "number"
+          ? { forceN: reading.impliedForceN, differencePct: reading.forceDifferencePct ?? null }
+          : null,
       method: r.reading_method,
       entered: entered.success ? entered.data : noEntered,
       measuredMm: r.measured_mm,

@@ -202,8 +202,7 @@ export async function seedDemoRecords(
       .executeTakeFirstOrThrow();
   const licence = "Licensed professional engineer, demo licence PE-00000 (invented)";
 
-  // Last week's long tendon: checked, lifted off, accepted; then the pour was released. Long by
-  // about 10 % at the gauge's force, its elongation also disagrees with the gauge on the force.
+  // Last week's long tendon: checked, lifted off, accepted; then the pour was released.
   const u14 = await flagOf("2-1-U14");
   await addReview(trx, {
     projectId: input.projectId,
@@ -221,18 +220,17 @@ export async function seedDemoRecords(
     author: inspector,
     review: { kind: "sent_to_engineer", body: "Long by about 9 %; wedges and dead end look normal." },
   });
-  for (const flag of [u14, await flagOf("2-1-U14", "force_disagreement")])
-    await recordDisposition(trx, {
-      projectId: input.projectId,
-      flagId: flag.id,
-      engineer,
-      disposition: {
-        decision: "accept",
-        reasons:
-          "Lift-off at the live end matched the gauge within 2 %; friction lower than assumed on this run. Accepted as stressed.",
-        licenceStatement: licence,
-      },
-    });
+  await recordDisposition(trx, {
+    projectId: input.projectId,
+    flagId: u14.id,
+    engineer,
+    disposition: {
+      decision: "accept",
+      reasons:
+        "Lift-off at the live end matched the gauge within 2 %; friction lower than assumed on this run. Accepted as stressed.",
+      licenceStatement: licence,
+    },
+  });
   await releasePour(trx, {
     projectId: input.projectId,
     pourId: pourId("L2 Pour 1"),

@@ -75,22 +75,17 @@ describe("demo seed", () => {
       .select(["tendons.tag", "flags.kind", "flags.status"])
       .orderBy("tendons.tag")
       .execute();
-    // The out-of-band tendons, read at the gauge's force, also disagree with the gauge on the force
-    // (the elongation's force more than 7 % from the gauge's); Set B's drift is within both bands.
-    const sorted = [...flags].sort((a, b) => a.tag.localeCompare(b.tag) || a.kind.localeCompare(b.kind));
-    expect(sorted).toEqual([
-      { tag: "2-1-U14", kind: "force_disagreement", status: "closed" },
+    // The out-of-band tendons' force figures are left to their out-of-band flags; Set B's drift
+    // (2.7 % long, its gauge 1.2 % under the mark) keeps elongation and gauge within ±7 % of each other.
+    expect(flags).toEqual([
       { tag: "2-1-U14", kind: "out_of_band", status: "closed" },
       { tag: "2-2-B03", kind: "wire_break", status: "open" },
-      { tag: "2-2-U08", kind: "force_disagreement", status: "open" },
       { tag: "2-2-U08", kind: "out_of_band", status: "open" },
-      { tag: "2-2-U17", kind: "force_disagreement", status: "open" },
       { tag: "2-2-U17", kind: "out_of_band", status: "with_engineer" },
-      { tag: "2-2-U23", kind: "force_disagreement", status: "open" },
       { tag: "2-2-U23", kind: "out_of_band", status: "with_engineer" },
     ]);
     const decisions = await t.db.selectFrom("dispositions").select("decision").orderBy("created_at").execute();
-    expect(decisions.map((d) => d.decision)).toEqual(["accept", "accept", "restress", "liftoff_check"]);
+    expect(decisions.map((d) => d.decision)).toEqual(["accept", "restress", "liftoff_check"]);
 
     // The released pour stays clean, and its insight still marks Set B, whose gauge reads low.
     const released = await t.db

@@ -54,10 +54,21 @@ export function forceAgreementWords(project: Parameters<typeof showForce>[0], f:
   );
 }
 
-/** An end whose two force determinations differ by more than the band. */
+/**
+ * An end whose two force determinations differ by more than the band. An end whose elongation is
+ * itself out of band, or a tendon the out-of-band rule flags, is left to that flag: with the gauge
+ * near the specified force the two ask the engineer the same question, and one flag for one fact
+ * keeps flags worth reading (the flag's e-mail and the sheet show both forces all the same). What
+ * this rule adds is the elongation in band while the gauge says another force: a gauge, a
+ * calibration or a reading to check before more force goes in or the tendon is accepted.
+ */
 export const forceDisagreement: Rule = ({ input, judgement }) => {
   const p = input.project;
+  const tendonOut =
+    !judgement.provisional && judgement.comparison !== null && judgement.comparison.verdict !== "in band";
+  if (tendonOut) return null;
   const off = judgement.ends
+    .filter((e) => e.comparison === null || e.comparison.verdict === "in band")
     .map((e) => ({ e, f: forceAgreement(e, p, judgement.specifiedForceN) }))
     .filter((x): x is { e: EndJudgement; f: ForceAgreement } => x.f !== null && !x.f.agrees);
   if (!off.length) return null;

@@ -139,8 +139,10 @@ const cases: Record<RuleKind, Case[]> = {
   // (146,969 × (1 − e^(−0.099))/3.3e-6 / (98.71 × 196,500)); marks are net of the 6 mm set, so a
   // perfect reading gives (m + 6)/gross = 1 and the elongation implies Pj. The gauge at 94 % of Pj
   // then reads 1/0.94 − 1 = +6.4 % below what the elongation says (in), at 93 % +7.5 % (out), at
-  // 108 % 1/1.08 − 1 = −7.4 % (out). A net reading 7.5 % long implies (1.075·210.4 + 6)/216.4 − 1
-  // = +7.3 %. Ram travel: m = k·(gross + grip) implies k·Pj, whatever the grip.
+  // 108 % 1/1.08 − 1 = −7.4 % (out). A net reading 4 % short implies (0.96·210.4 + 6)/216.4 = 0.961
+  // of Pj: against a gauge at 104 %, 0.961/1.04 − 1 = −7.6 % (out). A net reading 7.5 % long implies
+  // (1.075·210.4 + 6)/216.4 − 1 = +7.3 %, but its elongation is out of band: that flag asks the same.
+  // Ram travel: m = k·(gross + grip) implies k·Pj, whatever the grip.
   force_disagreement: [
     { name: "perfect reading at Pj", change: (i) => ({ ...i, records: [rec({ measuredMm: P })] }), raised: false },
     {
@@ -161,10 +163,15 @@ const cases: Record<RuleKind, Case[]> = {
       reason: /\(−7\.4 %, outside ±7 %\)/,
     },
     {
-      name: "net reading 7.5 % long at Pj: +7.3 %",
-      change: (i) => ({ ...i, records: [rec({ measuredMm: P * 1.075 })] }),
+      name: "net reading 4 % short, gauge at 104 %: −7.6 %",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P * 0.96, finalPressureMPa: 1.04 * TARGET })] }),
       raised: true,
-      reason: /\(\+7\.3 %, outside/,
+      reason: /\(−7\.6 %, outside ±7 %\)/,
+    },
+    {
+      name: "net reading 7.5 % long at Pj: +7.3 %, left to the out-of-band flag",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P * 1.075 })] }),
+      raised: false,
     },
     {
       name: "net reading 7.2 % long at Pj: +7.0 % (the edge inside)",
@@ -181,14 +188,14 @@ const cases: Record<RuleKind, Case[]> = {
       raised: false,
     },
     {
-      name: "ram travel with 18 in of grip, 8 % long at a gauge of 100 %",
+      name: "ram travel with 18 in of grip, perfect at Pj, gauge at 92 %: +8.7 %",
       change: (i) => ({
         ...i,
         tendon: { ...i.tendon, jackGripMm: 457.2 },
-        records: [rec({ readingMethod: "strokes", measuredMm: 1.08 * gripGross(457.2) })],
+        records: [rec({ readingMethod: "strokes", measuredMm: gripGross(457.2), finalPressureMPa: 0.92 * TARGET })],
       }),
       raised: true,
-      reason: /\(\+8\.0 %, outside ±7 %\)/,
+      reason: /\(\+8\.7 %, outside ±7 %\)/,
     },
     {
       name: "ram travel read to a gauge at 95 %, elongation of 95 %: they agree",
