@@ -9,7 +9,11 @@ import { planEvaluation, type EvaluatedRecord, type TendonState } from "@/lib/se
 // Property: a reading generated from the prediction itself (the engine's elongation at the
 // specified force, turned into what the crew would read by each method) is in band, with no
 // deviation, on every basis, reading method and stressing order, on the tablet's path and on the
-// server's path, and the two paths give the same numbers to the digit.
+// server's path, and the two paths give the same numbers to the digit. The force it implies is the
+// gauge force. And at any gauge force a reading generated from the prediction at that force
+// (elongation proportional to force, P·L/(A·E) with friction losses proportional to P; the seating
+// a fixed draw-in) implies that force: elongation and gauge agree, on both paths, and no
+// force_disagreement is raised.
 
 const strand = findStrandSize("0.5 in")!;
 const PJ = 0.8 * strand.minBreakingStrengthN;
@@ -63,12 +67,13 @@ const project: FieldProject = {
 };
 
 /** What the crew reads at one end for a tendon behaving exactly as predicted. */
-function perfectReading(plan: EndPlan, grossMm: number, axial: number, setDrawIn: number | null) {
+function perfectReading(plan: EndPlan, grossMm: number, axial: number, setDrawIn: number | null, k = 1) {
   const basisNet = plan.method === "marks";
   const set = plan.seating ?? project.anchorSetMm;
   const grip = basisNet ? 0 : (PJ * GRIP) / axial;
-  const fromZero = grossMm + grip; // at the jacking force, before seating
-  const share = plan.initialShare ?? 0;
+  const fromZero = k * (grossMm + grip); // at the gauge force k·Pj, before seating
+  // The initial pressure is a share of the specified force; from zero it is a share k·… of the pull.
+  const share = plan.initialShare === null ? 0 : plan.initialShare / k;
   const sincePi = fromZero * (1 - share);
   const drawIn = plan.typeDrawIn ? plan.drawIn : (setDrawIn ?? 0);
   const measured = basisNet ? sincePi - set : sincePi + (plan.strokes - 1) * drawIn;
@@ -86,7 +91,12 @@ describe("a perfect reading is in band on every basis, method and order", () => 
         endPlan,
         endPlan,
         fc.option(fc.double({ min: 0, max: 8, noNaN: true }), { nil: null }),
-        (lengthMm, angleRad, ends, order, planA, planB, setDrawIn) => {
+        fc.constantFrom(1, 1, 0.9, 0.95, 0.97, 1.02, 1.05),
+        fc.double({ min: 0.9, max: 1.05, noNaN: true }),
+        (lengthMm, angleRad, ends, order, planA, planB, setDrawIn, kA, kB) => {
+          // The gauge force of each end, a share k of the specified force; with kA = 1 both ends are
+          // pulled to the specified force and the reading is also the prediction itself (in band, 0 %).
+          const kOf = (end: "A" | "B") => (end === "A" ? kA : kA === 1 ? 1 : kB);
           const segments = [{ lengthMm, angleRad }];
           const tendon: FieldTendon = {
             id: "0190a0b0-0000-7000-8000-0000000000cc",
@@ -125,7 +135,7 @@ describe("a perfect reading is in band on every basis, method and order", () => 
                 ];
 
           const local: LocalRecord[] = plans.map(([end, plan, gross], i) => {
-            const r = perfectReading(plan, gross, whole.axialStiffnessN, setDrawIn);
+            const r = perfectReading(plan, gross, whole.axialStiffnessN, setDrawIn, kOf(end));
             const id = `0190a0b0-0000-7000-8000-00000000000${i + 1}`;
             return {
               id,
@@ -141,7 +151,7 @@ describe("a perfect reading is in band on every basis, method and order", () => 
               calibrationId: CAL.id,
               expiredCalibrationReason: null,
               initialPressureMPa: r.initialMPa,
-              finalPressureMPa: PJ / SLOPE,
+              finalPressureMPa: (kOf(end) * PJ) / SLOPE,
               readingMethod: plan.method,
               entered: {
                 units: { length: "mm", pressure: "MPa" },
@@ -184,8 +194,17 @@ describe("a perfect reading is in band on every basis, method and order", () => 
             },
             local,
           )!;
-          expect(tablet.verdict).toBe("in band");
-          expect(Math.abs(tablet.deviationPct!)).toBeLessThan(1e-9);
+          // The force the elongation implies is the gauge force, on every basis and method.
+          for (const f of tablet.forces!) {
+            expect(f.gaugeForceN).toBeCloseTo(kOf(f.end) * PJ, 6);
+            expect(Math.abs(f.impliedForceN! - f.gaugeForceN!)).toBeLessThan(1e-6 * PJ);
+            expect(Math.abs(f.differencePct!)).toBeLessThan(1e-6);
+          }
+          expect(tablet.flagKinds).not.toContain("force_disagreement");
+          if (kA === 1) {
+            expect(tablet.verdict).toBe("in band");
+            expect(Math.abs(tablet.deviationPct!)).toBeLessThan(1e-9);
+          }
 
           const state: TendonState = {
             basis: {
@@ -243,9 +262,16 @@ describe("a perfect reading is in band on every basis, method and order", () => 
             version: 0,
           };
           const server = planEvaluation(state, { projectId: project.id, tendonId: tendon.id, reason: "property" });
-          expect(server.outcome.verdict).toBe("in band");
+          expect(server.outcome.verdict).toBe(tablet.verdict);
           expect(server.outcome.deviationPct).toBe(tablet.deviationPct);
-          expect(server.outcome.flagKinds).not.toContain("out_of_band");
+          expect(server.outcome.flagKinds).not.toContain("force_disagreement");
+          const stored = JSON.parse(String(server.evaluation.inputs)) as {
+            readings: { end: "A" | "B"; impliedForceN: number; gaugeForceN: number; forceDifferencePct: number }[];
+          };
+          expect(stored.readings.map((r) => [r.end, r.impliedForceN, r.forceDifferencePct])).toEqual(
+            tablet.forces!.map((f) => [f.end, f.impliedForceN, f.differencePct]),
+          );
+          if (kA === 1) expect(server.outcome.flagKinds).not.toContain("out_of_band");
         },
       ),
       { numRuns: 150 },
