@@ -5,6 +5,9 @@ import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 import { predictTendon } from "@/lib/stressing/basis";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
+import { getPourReport } from "@/lib/server/get-pour-report";
+import { getTendonCase } from "@/lib/server/get-tendon-case";
+import { RECORD_COLUMNS, recordRows } from "@/lib/reports/pour-rows";
 import { demoFixture, insertRecord } from "../support/records";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
@@ -280,6 +283,44 @@ describe("the server's evaluation of a tendon", () => {
     await insertRecord(t.db, { ...base, deviceTime: new Date(Date.now() - 3600_000).toISOString() });
     const outcome = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
     expect(outcome.flagKinds).toEqual(["stressed_twice"]);
+  });
+
+  // Force agreement (ACI 318-11 §18.20.1, from memory: the force by elongation and by the gauge, a
+  // difference over 7 % to be explained). A perfect net reading implies Pj = 33.04 kip (worked above);
+  // the gauge at 92 % of it reads 0.92 × 33.04 = 30.40 kip, and 33.04/30.40 − 1 = +8.7 %.
+  it("flags an elongation and a gauge that disagree on the force, naming both on the flag, the e-mail, the sheet and the report", async () => {
+    const tendon = await fx.tendon("2-1-U07");
+    const predicted = await predictedFor(tendon.id);
+    await insertRecord(t.db, {
+      projectId: fx.projectId,
+      tendon,
+      end: "A",
+      equipmentSetId: fx.setA,
+      authorId: fx.crewId,
+      measuredMm: predicted.predictedMm,
+      finalPressureMPa: await pressureOnSetA(JACKING_TARGET_N * 0.92),
+    });
+    const outcome = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+    expect(outcome.verdict).toBe("in band");
+    expect([...outcome.flagKinds].sort()).toEqual(["force_disagreement", "under_force"]);
+    const flag = (await flagsOf(tendon.id)).find((f) => f.kind === "force_disagreement")!;
+    expect(flag.reason).toMatch(/^End A: gauge 30\.40 kip, elongation implies 33\.04 kip \(\+8\.7 %, outside ±7 %\)/);
+    const [mail] = await notificationsOf(tendon.id);
+    expect(mail!.text_body).toContain(
+      "Force, gauge and elongation: End A: gauge 30.40 kip, elongation implies 33.04 kip (+8.7 %, outside ±7 %).",
+    );
+
+    const c = await getTendonCase(t.db, { projectId: fx.projectId, tendonId: tendon.id });
+    expect(c.figures!.ends).toHaveLength(1);
+    expect(c.figures!.ends[0]!.gaugeForceN).toBeCloseTo(JACKING_TARGET_N * 0.92, 1);
+    expect(c.figures!.ends[0]!.impliedForceN).toBeCloseTo(JACKING_TARGET_N, 1);
+    expect(c.figures!.ends[0]!.forceDifferencePct).toBeCloseTo((1 / 0.92 - 1) * 100, 4);
+    expect(c.figures!.ends[0]!.forceBandPct).toBe(7);
+
+    const report = await getPourReport(t.db, { projectId: fx.projectId, pourId: tendon.pour_id });
+    const row = recordRows(report).find((r) => r[RECORD_COLUMNS.indexOf("Tendon")] === "2-1-U07")!;
+    expect(row[RECORD_COLUMNS.indexOf("Force")]).toBe("30.40 kip");
+    expect(row[RECORD_COLUMNS.indexOf("Force from elongation")]).toBe("33.04 kip (+8.7 %)");
   });
 
   it("never rewrites an evaluation: the database refuses UPDATE and DELETE", async () => {
