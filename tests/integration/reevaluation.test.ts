@@ -130,6 +130,88 @@ describe("re-evaluation when the project's basis changes", () => {
     expect(same.reevaluated).toBe(0);
   });
 
+  // The force-agreement band is the project's band (ACI 318-11 §18.20.1, from memory: 7 % for
+  // post-tensioning). A perfect net reading with the gauge at 92 % of Pj: 1/0.92 − 1 = +8.7 %, out
+  // of ±7 %, inside ±10 %.
+  it("a band widened past a force disagreement closes its flag; narrowed again, the flag is raised again", async () => {
+    const tendon = await fx.tendon("2-1-U09");
+    const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tendon.id });
+    const probe = judgeStressing({
+      project: basis.project,
+      tendon: basis.tendon,
+      lot: basis.lot,
+      sets: [{ id: "s", name: "s", jackGripMm: null, maxForceN: null, calibrations: [] }],
+      records: [
+        {
+          id: "p",
+          chainId: "p",
+          revision: 1,
+          end: "A",
+          deviceTime: "2026-12-01T16:00:00Z",
+          equipmentSetId: "s",
+          calibrationId: null,
+          expiredCalibrationReason: null,
+          readingMethod: "marks",
+          initialPressureMPa: null,
+          finalPressureMPa: 30,
+          measuredMm: 100,
+          strokeCount: 1,
+          drawInMm: null,
+          seatingMm: null,
+          stressingOrder: null,
+          wireBreaks: 0,
+        },
+      ],
+    });
+    const c = await t.db
+      .selectFrom("calibrations")
+      .select(["slope_n_per_mpa", "intercept_n"])
+      .where("equipment_set_id", "=", fx.setA)
+      .executeTakeFirstOrThrow();
+    await insertRecord(t.db, {
+      projectId: fx.projectId,
+      tendon,
+      end: "A",
+      equipmentSetId: fx.setA,
+      authorId: fx.crewId,
+      measuredMm: probe.ends[0]!.predictedMm,
+      finalPressureMPa: (0.92 * 0.8 * HALF_INCH.minBreakingStrengthN - c.intercept_n) / c.slope_n_per_mpa,
+    });
+    const first = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+    expect([...first.flagKinds].sort()).toEqual(["force_disagreement", "under_force"]);
+    const flags = () =>
+      t.db
+        .selectFrom("flags")
+        .select(["kind", "status", "close_reason"])
+        .where("tendon_id", "=", tendon.id)
+        .orderBy("created_at")
+        .orderBy("kind")
+        .execute();
+
+    const settings = await getProjectSettings(t.db, fx.projectId);
+    await updateProjectSettings(t.db, {
+      projectId: fx.projectId,
+      values: { ...settings, tolerancePct: 10 },
+      by: fx.crewId,
+    });
+    expect(await flags()).toEqual([
+      expect.objectContaining({
+        kind: "force_disagreement",
+        status: "closed",
+        close_reason: expect.stringMatching(/no longer finds this/),
+      }),
+      expect.objectContaining({ kind: "under_force", status: "open" }),
+    ]);
+
+    await updateProjectSettings(t.db, {
+      projectId: fx.projectId,
+      values: { ...settings, tolerancePct: 7 },
+      by: fx.crewId,
+    });
+    const again = await flags();
+    expect(again.filter((f) => f.kind === "force_disagreement").map((f) => f.status)).toEqual(["closed", "open"]);
+  });
+
   it("choosing the shop drawing to govern judges again against it, and back", async () => {
     // Follows the case above: 2-1-U06 read 6 % long against Tautline's prediction, in the ±7 % band.
     const tendon = await fx.tendon("2-1-U06");
