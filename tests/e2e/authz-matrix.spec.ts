@@ -314,13 +314,13 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     "POST /api/projects/[projectId]/daily-reports/[day]/signatures": {
       call: (c) =>
         c.post(`/api/projects/${projectId}/daily-reports/2001-01-01/signatures`, {
-          data: { ...SIGNATURE, remarks: `Matrix remarks ${stamp()}` },
+          data: { ...SIGNATURE, remarks: `Matrix remarks ${stamp()}`, conformance: "conforming", witness: [] },
         }),
     },
     "GET /api/projects/[projectId]/daily-reports/[day]/signatures/[revision]": {
       fixture: async () => {
         const res = await contexts.inspector.post(`/api/projects/${projectId}/daily-reports/2001-01-02/signatures`, {
-          data: { ...SIGNATURE, remarks: `Matrix remarks ${stamp()}` },
+          data: { ...SIGNATURE, remarks: `Matrix remarks ${stamp()}`, conformance: "conforming", witness: [] },
         });
         expect(res.status()).toBe(201);
         return String(((await res.json()) as { revision: number }).revision);
