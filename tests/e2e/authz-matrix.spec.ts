@@ -451,6 +451,24 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
           },
         }),
     },
+    "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/correction/preview": {
+      call: (c) =>
+        c.post(
+          `/api/projects/${projectId}/equipment-sets/${MISSING_ID}/calibrations/${MISSING_ID}/correction/preview`,
+          {
+            data: {
+              reason: "Matrix check of who may preview a correction.",
+              calibration: {
+                calibratedOn: "2026-12-01",
+                validUntil: null,
+                points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })),
+                laboratory: null,
+                certificateAttachmentId: null,
+              },
+            },
+          },
+        ),
+    },
     "GET /api/projects/[projectId]/flags": { call: (c) => c.get(`/api/projects/${projectId}/flags?status=any_open`) },
     "POST /api/projects/[projectId]/flags/[flagId]/reviews": {
       call: (c) =>

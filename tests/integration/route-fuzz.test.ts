@@ -336,6 +336,10 @@ function seedBody(endpoint: string, w: World): Record<string, unknown> | null {
       reason: "Fuzz check of a correction.",
       calibration,
     },
+    "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/correction/preview": {
+      reason: "Fuzz check of a correction preview.",
+      calibration,
+    },
     "POST /api/projects/[projectId]/flags/[flagId]/reviews": { kind: "note", body: "Checked the gauge photo." },
     "POST /api/projects/[projectId]/flags/[flagId]/dispositions": {
       decision: "accept",
