@@ -466,6 +466,8 @@ export interface ReportRevisionsTable {
   licence: string;
   statement: string;
   signed_at: Timestamp;
+  /** What the inspector attested on a daily report (lib/schemas/daily-report.ts DailyAttestation); null otherwise. */
+  attestation: ColumnType<Record<string, unknown> | null, string | undefined, string>;
 }
 
 export interface ShareLinksTable {

@@ -13,7 +13,7 @@ const distDir = process.env.NEXT_DIST_DIR || ".next";
 const buildId = readFileSync(path.join(distDir, "BUILD_ID"), "utf8").trim();
 const fileRevision = (file: string) => createHash("sha256").update(readFileSync(file)).digest("hex").slice(0, 16);
 
-const PAGES = ["/field", "/field/pour", "/offline"];
+const PAGES = ["/field", "/field/pour", "/field/sign", "/offline"];
 const PUBLIC_FILES = [
   "manifest.webmanifest",
   "icon.svg",

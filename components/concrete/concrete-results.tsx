@@ -76,16 +76,38 @@ export function ConcreteResults(props: {
       <h2 id="concrete-heading" className="text-lead font-semibold">
         Concrete strength before stressing
       </h2>
-      <p role="status" className={data.met ? "font-semibold" : "font-bold text-signal-stop"} data-met={data.met}>
-        <span aria-hidden="true">{data.met ? "✓ " : "⚠ "}</span>
+      <p
+        role="status"
+        className={data.met || data.release ? "font-semibold" : "font-bold text-signal-stop"}
+        data-met={data.met}
+        data-released={Boolean(data.release)}
+      >
+        <span aria-hidden="true">{data.met ? "✓ " : data.release ? "" : "⚠ "}</span>
         {data.requiredMPa === null
           ? "The project sets no required strength before stressing."
-          : c.strengthMPa === null
-            ? `Concrete not confirmed: do not stress. ${show(data.requiredMPa)} required. ${c.basis}`
-            : data.met
-              ? `Confirmed ${show(c.strengthMPa)} (${c.basis.toLowerCase().replace(/\.$/, "")}), at least the ${show(data.requiredMPa)} required.`
-              : `Concrete not confirmed: do not stress. ${show(c.strengthMPa)} (${c.basis.toLowerCase().replace(/\.$/, "")}) is below the ${show(data.requiredMPa)} required.`}
+          : data.met && c.strengthMPa !== null
+            ? `Confirmed ${show(c.strengthMPa)} (${c.basis.toLowerCase().replace(/\.$/, "")}), at least the ${show(data.requiredMPa)} required.`
+            : data.release
+              ? `Released by ${data.release.by} on ${formatDateTime(data.release.at, props.timeZone)}. ` +
+                (c.strengthMPa === null
+                  ? `No lab result in Tautline confirms the ${show(data.requiredMPa)} required; the release stands on the engineer's statement.`
+                  : `The results confirm ${show(c.strengthMPa)}, below the ${show(data.requiredMPa)} required; the release stands on the engineer's statement.`)
+              : c.strengthMPa === null
+                ? `Concrete not confirmed: do not stress. ${show(data.requiredMPa)} required. ${c.basis}`
+                : `Concrete not confirmed: do not stress. ${show(c.strengthMPa)} (${c.basis.toLowerCase().replace(/\.$/, "")}) is below the ${show(data.requiredMPa)} required.`}
       </p>
+      {data.goAheads.length > 0 && (
+        <div data-testid="concrete-go-aheads">
+          <p className="font-semibold">Stressed before the strength was confirmed, with the crew&apos;s reason:</p>
+          <ul className="list-disc pl-6">
+            {data.goAheads.map((g) => (
+              <li key={`${g.tag}-${g.end}-${g.at}`}>
+                {g.tag}, end {g.end}, {formatDateTime(g.at, props.timeZone)}, {g.by}: “{g.reason}”
+              </li>
+            ))}
+          </ul>
+        </div>
+      )}
       <p className="text-ink-soft">
         The rule: the results at the latest test age count, averaged over every specimen; at least two specimens are
         needed.

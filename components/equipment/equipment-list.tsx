@@ -5,6 +5,7 @@ import { showComputedLength } from "@/lib/format/quantities";
 import { CALIBRATION_STATE_LABELS } from "@/lib/schemas/calibration";
 import type { EquipmentSetView } from "@/lib/server/list-equipment-sets";
 import { CalibrationChart } from "./calibration-chart";
+import { CorrectCalibration } from "./correct-calibration";
 import { RetireCalibration } from "./retire-calibration";
 
 export interface EquipmentSetList {
@@ -100,6 +101,7 @@ export function EquipmentList({
                   {s.history.length > 1 && (
                     <p className="text-label text-ink-faint">{s.history.length - 1} earlier calibration(s) kept.</p>
                   )}
+                  <CorrectCalibration projectId={projectId} setId={s.id} calibration={c} us={us} />
                   <RetireCalibration
                     projectId={projectId}
                     setId={s.id}

@@ -104,6 +104,9 @@ export function FieldHome() {
             Sign in
           </a>
         )}
+        <a className="btn-quiet mt-3" href="/field/sign">
+          Sign reports (inspector, needs signal)
+        </a>
       </header>
 
       <DecisionNotices />

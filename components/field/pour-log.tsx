@@ -202,7 +202,13 @@ export function PourLog() {
           {flaggedCount ? ` (${flaggedCount} flagged)` : ""}
         </p>
         <PourReleaseNote pour={pour} />
-        {concreteGate !== null && (
+        {concreteGate !== null && pour.release && (
+          // Released: stressing is over, so the warning gives way to how the gate stood at release.
+          <p className="text-ink-soft" data-testid="concrete-gate-field">
+            Concrete strength at release: {concreteGate} The release stands on the engineer&apos;s statement.
+          </p>
+        )}
+        {concreteGate !== null && !pour.release && (
           <p
             role="status"
             className="rounded-md border-2 border-signal-stop p-3 font-bold text-signal-stop"

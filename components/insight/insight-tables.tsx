@@ -1,3 +1,4 @@
+import { showModulus, type DisplayUnits } from "@/lib/format/quantities";
 import type { ApparentModulus, ResolutionShare, SetDrift } from "@/lib/insights";
 
 /** The insight page's tables: plain server-rendered markup, numbers in tabular figures. */
@@ -68,7 +69,14 @@ export function DriftTable({ caption, sets }: { caption: string; sets: SetDrift[
   );
 }
 
-export function ModulusTable({ moduli }: { moduli: ApparentModulus[] }) {
+export function ModulusTable({
+  moduli,
+  project,
+}: {
+  moduli: ApparentModulus[];
+  /** The project's units: the moduli show in ksi on a US project, GPa on an SI one. */
+  project: Pick<DisplayUnits, "unitSystem">;
+}) {
   if (!moduli.length)
     return (
       <p className="card">
@@ -107,10 +115,10 @@ export function ModulusTable({ moduli }: { moduli: ApparentModulus[] }) {
               ) : (
                 <>
                   <td className="whitespace-nowrap p-2 text-right tabular-nums">
-                    {Math.round(m.apparentModulusMPa).toLocaleString("en-US")} MPa
+                    {showModulus(project, m.apparentModulusMPa)}
                   </td>
                   <td className="whitespace-nowrap p-2 text-right tabular-nums">
-                    {m.millModulusMPa ? `${Math.round(m.millModulusMPa).toLocaleString("en-US")} MPa` : "—"}
+                    {m.millModulusMPa ? showModulus(project, m.millModulusMPa) : "—"}
                   </td>
                   <td className="whitespace-nowrap p-2 text-right tabular-nums">
                     {m.modulusRatio ? m.modulusRatio.toFixed(3) : "—"}

@@ -36,13 +36,13 @@ export function ReleaseList({
             </a>
             {p.reopened && (
               <p className="mt-2 rounded-md bg-concrete-100 p-2" data-testid="pour-reopened">
-                Reopened by {p.reopened.by} on {formatDateTime(p.reopened.at, "UTC")}: {p.reopened.reason}
+                Reopened by {p.reopened.by} on {formatDateTime(p.reopened.at, p.timeZone)}: {p.reopened.reason}
               </p>
             )}
             {p.releasedBy ? (
               <>
                 <p className="mt-2 font-semibold">
-                  ✓ Released by {p.releasedBy} on {p.releasedAt ? formatDateTime(p.releasedAt, "UTC") : ""}
+                  ✓ Released by {p.releasedBy} on {p.releasedAt ? formatDateTime(p.releasedAt, p.timeZone) : ""}
                 </p>
                 {p.releaseStatement && <p className="mt-1 text-ink-soft">“{p.releaseStatement}”</p>}
                 {p.releaseSignature && (

@@ -4,6 +4,7 @@ import type { DailyReport } from "@/lib/server/get-daily-report";
 import {
   DAILY_RECORD_COLUMNS,
   dailyConcreteLines,
+  dailyConformanceLine,
   dailyDispositionLines,
   dailyEquipmentLines,
   dailyFlagLines,
@@ -11,6 +12,7 @@ import {
   dailySummary,
   dailyTailCutLines,
   dailyTime,
+  dailyWitnessLines,
   type DailyRecordColumn,
 } from "./daily-rows";
 import { drawTable, pdfText, type SignatureBlock } from "./pour-pdf";
@@ -171,6 +173,18 @@ export async function renderDailyPdf(report: DailyReport, signature?: SignatureB
 
   heading("Summary");
   text(dailySummary(report));
+
+  heading("What was stressed and what the inspector witnessed");
+  const witnessed = dailyWitnessLines(report);
+  if (!witnessed.length) text("No tendon was stressed this day.");
+  keyValues(
+    witnessed.map((w) => [w.label, `Stressed: ${w.stressed}. ${w.stated[0]!.toUpperCase()}${w.stated.slice(1).replace(/\.+$/, "")}.`]),
+  );
+
+  heading("Statement of conformance");
+  font(true);
+  text(dailyConformanceLine(report));
+  font(false);
 
   heading("Inspector's remarks");
   text(report.remarks || "No remarks.");

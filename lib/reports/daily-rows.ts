@@ -1,8 +1,9 @@
 import { dayInZone, formatDateTime } from "@/lib/format/dates";
 import { showLength, showPressure, showStrength } from "@/lib/format/quantities";
 import { flagLabel } from "@/lib/schemas/flag";
+import { type DailyAttestation, type WitnessEntry, WITNESS_WORDS } from "@/lib/schemas/daily-report";
 import { DECISION_LABELS } from "@/lib/schemas/review";
-import type { DailyPour, DailyReport } from "@/lib/server/get-daily-report";
+import type { DailyPour, DailyReport, WitnessGroup } from "@/lib/server/get-daily-report";
 import type { PourRecord } from "@/lib/server/list-pour-records";
 import { RECORD_COLUMNS, recordRows } from "./pour-rows";
 import type { ReportSnapshot } from "./report-changes";
@@ -144,6 +145,103 @@ export function dailyTailCutLines(report: DailyReport): string[] {
   );
 }
 
+/** "S-01, member B3" or "S-01" (tendons with no member named): how a witness group is called. */
+export function witnessGroupLabel(g: Pick<WitnessGroup, "pourName" | "group">): string {
+  return g.group ? `${g.pourName}, member ${g.group}` : g.pourName;
+}
+
+const sameGroup = (g: Pick<WitnessGroup, "pourId" | "group">, w: Pick<WitnessEntry, "pourId" | "group">) =>
+  g.pourId === w.pourId && g.group === w.group;
+
+/** One line per group stressed that day: what was stressed and what the inspector states was witnessed. */
+export function dailyWitnessLines(report: DailyReport): { label: string; stressed: string; stated: string }[] {
+  return report.witnessGroups.map((g) => {
+    const w = report.attestation?.witness.find((e) => sameGroup(g, e));
+    const plural = g.stressings === 1 ? "stressing" : "stressings";
+    return {
+      label: witnessGroupLabel(g),
+      stressed: `${g.tags.join(", ")} (${g.stressings} ${plural})`,
+      stated: !w
+        ? "not stated yet: the inspector states it when signing"
+        : w.extent === "none"
+          ? `${WITNESS_WORDS.none}: ${w.note}`
+          : `${WITNESS_WORDS[w.extent]} by ${w.witnessedBy}${w.note ? `: ${w.note}` : ""}`,
+    };
+  });
+}
+
+/** A group as the signing form asks about it. */
+export interface WitnessGroupView {
+  pourId: string;
+  /** The schedule's member; "" for the pour's tendons with no member named. */
+  group: string;
+  /** "S-01, member B3". */
+  label: string;
+  /** "U01, U02 (3 stressings)". */
+  stressed: string;
+}
+
+export function witnessGroupViews(report: DailyReport): WitnessGroupView[] {
+  const lines = dailyWitnessLines(report);
+  return report.witnessGroups.map((g, i) => ({
+    pourId: g.pourId,
+    group: g.group,
+    label: lines[i]!.label,
+    stressed: lines[i]!.stressed,
+  }));
+}
+
+/** The open exceptions in words: "flag F-0012 (S-01, U03): elongation out of band, open". */
+export function openExceptionLines(report: Pick<DailyReport, "openExceptions">): string[] {
+  return report.openExceptions.map(
+    (f) => `flag ${f.reference} (${f.pourName}, ${f.tendonTag}): ${flagLabel(f.kind)}, ${status(f.status)}`,
+  );
+}
+
+/** The statement of conformance as it prints, with the open exceptions when the work was not in conformance. */
+export function dailyConformanceLine(report: DailyReport): string {
+  const a = report.attestation;
+  if (!a) return "Not stated yet: the inspector states whether the work was in conformance when signing.";
+  if (a.conformance === "conforming")
+    return "The work inspected this day WAS IN CONFORMANCE with the approved construction documents.";
+  const open = openExceptionLines(report);
+  return (
+    "The work inspected this day WAS NOT IN CONFORMANCE with the approved construction documents. " +
+    (open.length
+      ? `Open exceptions: ${open.join("; ")}.`
+      : "No flag is open in Tautline; the inspector's remarks say what was not in conformance.")
+  );
+}
+
+/**
+ * What is wrong with what the inspector attests for this day, field by field (empty when nothing):
+ * every group stressed that day stated once and no other; "in conformance" refused while an
+ * exception of the day's work is open; "not in conformance" with no open flag needs the remarks to
+ * say why.
+ */
+export function attestationProblems(
+  report: Pick<DailyReport, "witnessGroups" | "openExceptions">,
+  values: DailyAttestation & { remarks: string },
+): Record<string, string[]> {
+  const problems: Record<string, string[]> = {};
+  values.witness.forEach((w, i) => {
+    const matches = report.witnessGroups.some((g) => sameGroup(g, w));
+    const earlier = values.witness.slice(0, i).some((e) => sameGroup(e, w));
+    if (!matches)
+      problems[`witness.${i}.group`] = ["No tendon of that pour or member was stressed this day; reload the day."];
+    else if (earlier) problems[`witness.${i}.group`] = ["This group is stated twice; keep one statement."];
+  });
+  const missing = report.witnessGroups.filter((g) => !values.witness.some((w) => sameGroup(g, w)));
+  if (missing.length) problems.witness = [`State what was witnessed for ${missing.map(witnessGroupLabel).join("; ")}.`];
+  if (values.conformance === "conforming" && report.openExceptions.length)
+    problems.conformance = [
+      `Open exceptions remain (${report.openExceptions.map((f) => f.reference).join(", ")}): choose not in conformance, which lists them, or wait for the engineer's dispositions.`,
+    ];
+  if (values.conformance === "not_conforming" && !report.openExceptions.length && !values.remarks)
+    problems.remarks = ["No flag is open: say in the remarks what was not in conformance."];
+  return problems;
+}
+
 /** The remarks a signed snapshot holds (quoted there, "none" when there were none). */
 export function remarksOfSnapshot(snapshot: ReportSnapshot | null | undefined): string {
   const stored = snapshot?.remarks;
@@ -154,6 +252,9 @@ export function remarksOfSnapshot(snapshot: ReportSnapshot | null | undefined): 
 export function dailySnapshot(report: DailyReport): ReportSnapshot {
   const p = report.project;
   const snapshot: ReportSnapshot = { remarks: report.remarks ? `"${report.remarks}"` : "none" };
+  if (report.attestation)
+    snapshot.conformance = report.attestation.conformance === "conforming" ? "in conformance" : "not in conformance";
+  for (const w of dailyWitnessLines(report)) snapshot[`witness ${w.label}`] = w.stated;
   for (const pour of report.pours) {
     const name = pour.report.pour.name;
     for (const r of pour.records)
@@ -178,7 +279,8 @@ export const CSV_DAILY_COLUMNS = ["Project", "Day", "Section", ...DAILY_RECORD_C
 
 /**
  * The CSV's rows: one per stressing (section "stressing"), then one per flag, disposition, equipment
- * set, concrete result and tail cut with its words in Details, and the inspector's remarks.
+ * set, concrete result and tail cut with its words in Details, then what the inspector states was
+ * witnessed of each group (section "witness"), the statement of conformance and the remarks.
  */
 export function dailyCsvRows(report: DailyReport): string[][] {
   const blank = DAILY_RECORD_COLUMNS.map(() => "");
@@ -191,6 +293,8 @@ export function dailyCsvRows(report: DailyReport): string[][] {
     ...dailyEquipmentLines(report).map(([name, text]) => other("equipment", `${name}: ${text}`)),
     ...dailyConcreteLines(report).map((c) => other("concrete", c)),
     ...dailyTailCutLines(report).map((t) => other("tail cut", t)),
+    ...dailyWitnessLines(report).map((w) => other("witness", `${w.label}: ${w.stressed}; ${w.stated}`)),
+    other("conformance", dailyConformanceLine(report)),
     other("remarks", report.remarks || "none"),
   ];
 }

@@ -24,10 +24,54 @@ export const dailyRevisionParamsSchema = dailyReportParamsSchema.extend({
     .max(100_000, "Not a revision number."),
 });
 
+/** How much of a pour's (or a group's) stressing of the day the inspector states was witnessed. */
+export const WITNESS_EXTENTS = ["full", "part", "none"] as const;
+export type WitnessExtent = (typeof WITNESS_EXTENTS)[number];
+export const WITNESS_WORDS: Record<WitnessExtent, string> = {
+  full: "witnessed in full",
+  part: "witnessed in part",
+  none: "not witnessed",
+};
+
+/** Whether the work inspected that day was in conformance with the approved construction documents. */
+export const CONFORMANCE = ["conforming", "not_conforming"] as const;
+export type Conformance = (typeof CONFORMANCE)[number];
+
+/**
+ * One witness statement: the stressing of a pour's group of tendons on the day (the schedule's
+ * member, a beam, slab strip or band; "" for the pour's tendons with no member named), how much of it
+ * was witnessed, by whom, and which part or why not.
+ */
+export const witnessEntrySchema = z
+  .object({
+    pourId: z.uuid({ error: "Not a pour id." }),
+    group: text().trim().max(120, "Use at most 120 characters."),
+    extent: z.enum(WITNESS_EXTENTS, { error: "Choose witnessed in full, in part, or not witnessed." }),
+    witnessedBy: text().trim().max(120, "Use at most 120 characters."),
+    note: text().trim().max(500, "Use at most 500 characters."),
+  })
+  .superRefine((w, ctx) => {
+    if (w.extent !== "none" && w.witnessedBy.length < 2)
+      ctx.addIssue({ code: "custom", path: ["witnessedBy"], message: "Name who witnessed it." });
+    if (w.extent === "part" && w.note.length < 3)
+      ctx.addIssue({ code: "custom", path: ["note"], message: "Say which part was witnessed (tendons or ends)." });
+    if (w.extent === "none" && w.note.length < 3)
+      ctx.addIssue({ code: "custom", path: ["note"], message: "Say why it was not witnessed." });
+  });
+export type WitnessEntry = z.infer<typeof witnessEntrySchema>;
+
+/** What the inspector attests on the day's report; kept with the signed revision. */
+export interface DailyAttestation {
+  conformance: Conformance;
+  witness: WitnessEntry[];
+}
+
 /**
  * What the inspector types to sign the day's report: their name, licence or certification, the
- * statement of conformance, and the remarks the report prints (what they saw that the records do
- * not say). The remarks are part of the signed content: changing them gives a new revision.
+ * statement, the remarks the report prints (what they saw that the records do not say), whether the
+ * work was in conformance (chosen, never assumed) and what was witnessed of each pour or group
+ * stressed that day. Remarks, conformance and witness are part of the signed content: changing them
+ * gives a new revision. The server checks the witness list against the day (every group once).
  */
 export const dailySignatureSchema = z.object({
   signerName: text().trim().min(2, "Type your name as you sign.").max(120, "Use at most 120 characters."),
@@ -40,8 +84,12 @@ export const dailySignatureSchema = z.object({
     .min(20, "Write the statement you sign, at least a sentence.")
     .max(2000, "Use at most 2,000 characters."),
   remarks: text().trim().max(4000, "Use at most 4,000 characters in the remarks."),
+  conformance: z.enum(CONFORMANCE, {
+    error: "Choose whether the work was in conformance or not in conformance.",
+  }),
+  witness: z.array(witnessEntrySchema, { error: "List what was witnessed." }).max(500, "At most 500 groups."),
 });
 export type DailySignatureInput = z.infer<typeof dailySignatureSchema>;
 
 export const DEFAULT_DAILY_STATEMENT =
-  "I performed the special inspection of post-tensioning described in this report on this day. Except as noted in the flags, dispositions and remarks, the work I inspected was in conformance with the approved construction documents.";
+  "I performed the special inspection of post-tensioning described in this report on this day, to the extent stated under what was witnessed. My statement of conformance is given in this report.";

@@ -1,6 +1,7 @@
 import "server-only";
 import type { Kysely } from "kysely";
 import type { Database, PourStatus } from "@/db/types";
+import { projectTimeZone } from "@/lib/format/dates";
 import { findReleaseBlockers, type ReleaseBlockers } from "./release-pour";
 
 export interface ReleaseCandidate {
@@ -10,6 +11,8 @@ export interface ReleaseCandidate {
   pourName: string;
   /** Who releases this project's pours (the project's rule). */
   releaseBy: "engineer" | "inspector";
+  /** The project's time zone: the release and reopening times are shown in it. */
+  timeZone: string;
   tendonCount: number;
   blockers: ReleaseBlockers;
   /** Derived: planned, stressing, stressed or released. */
@@ -37,6 +40,7 @@ export async function findReleaseCandidates(db: Kysely<Database>, projectIds: st
       "pours.project_id",
       "projects.name as projectName",
       "projects.release_by",
+      "projects.time_zone",
       "pour_states.status",
       "pour_states.released_by_name",
       "pour_states.released_at as releasedAt",
@@ -66,6 +70,7 @@ export async function findReleaseCandidates(db: Kysely<Database>, projectIds: st
       pourId: p.id,
       pourName: p.name,
       releaseBy: p.release_by,
+      timeZone: projectTimeZone(p),
       tendonCount: Number(p.tendonCount ?? 0),
       blockers: p.released_by_name
         ? { noSchedule: false, openFlags: [], unstressed: [] }

@@ -6,6 +6,7 @@ import { ENGINE_VERSION } from "@/lib/elongation";
 import { AppError } from "@/lib/errors";
 import { dayBounds, projectTimeZone } from "@/lib/format/dates";
 import { onReportDay, remarksOfSnapshot } from "@/lib/reports/daily-rows";
+import type { DailyAttestation } from "@/lib/schemas/daily-report";
 import type { ReportSnapshot } from "@/lib/reports/report-changes";
 import type { StoredResolution } from "@/lib/stressing/display";
 import { getPourReport, type PourReport, type ReportFlag } from "./get-pour-report";
@@ -16,9 +17,32 @@ import type { PourRecord } from "./list-pour-records";
  * in SI as stored: every stressing recorded that day by pour (from the pour's own report, so the
  * stressing numbers, calibrations, predictions and verdicts are the stressing report's), the flags
  * raised and the dispositions recorded that day, the concrete results entered and the tails cut.
- * The remarks are the inspector's: the ones being signed when the caller gives them, else those of
- * the day's last signed revision. The PDF and the CSV render this one object.
+ * The remarks, the statement of conformance and what was witnessed are the inspector's: the ones
+ * being signed when the caller gives them, else those of the day's last signed revision. The groups
+ * a witness statement is asked for are the day's: per pour, the schedule's members of the tendons
+ * stressed that day (the pour itself for tendons with no member). The open exceptions are the flags
+ * of the day's work (raised that day, or on a tendon stressed that day) not closed. The PDF and the
+ * CSV render this one object.
  */
+
+/** A pour's group of tendons stressed on the day, which the inspector states was witnessed or not. */
+export interface WitnessGroup {
+  pourId: string;
+  pourName: string;
+  /** The schedule's member; "" for the pour's tendons with no member named. */
+  group: string;
+  /** The tags stressed that day, in the pour report's order. */
+  tags: string[];
+  stressings: number;
+}
+
+export interface OpenException {
+  reference: string;
+  pourName: string;
+  tendonTag: string;
+  kind: ReportFlag["kind"];
+  status: ReportFlag["status"];
+}
 
 export interface DailyPour {
   /** The pour's whole stressing report: its references, basis and equipment. */
@@ -49,11 +73,15 @@ export interface DailyReport {
   }[];
   tailCuts: { pourName: string; tag: string; cutBy: string; at: Date; heldReasons: string[] }[];
   remarks: string;
+  witnessGroups: WitnessGroup[];
+  openExceptions: OpenException[];
+  /** What the inspector attests (being signed, else last signed); null before any such signature. */
+  attestation: DailyAttestation | null;
 }
 
 export async function getDailyReport(
   db: Kysely<Database>,
-  input: { projectId: string; day: string; remarks?: string },
+  input: { projectId: string; day: string; remarks?: string; attestation?: DailyAttestation },
 ): Promise<DailyReport> {
   const project = await db.selectFrom("projects").selectAll().where("id", "=", input.projectId).executeTakeFirst();
   if (!project) throw new AppError("NOT_FOUND", "No such project.");
@@ -133,7 +161,7 @@ export async function getDailyReport(
     input.remarks === undefined
       ? db
           .selectFrom("report_revisions")
-          .select("snapshot")
+          .select(["snapshot", "attestation"])
           .where("project_id", "=", input.projectId)
           .where("kind", "=", "daily_inspection")
           .where("report_day", "=", input.day)
@@ -155,6 +183,52 @@ export async function getDailyReport(
       ),
     }))
     .filter((p) => p.records.length || p.flagsRaised.length || p.dispositions.length);
+
+  // The members of the day's tendons, for the witness groups.
+  const dayTendonIds = [...new Set(pours.flatMap((p) => p.records.map((r) => r.tendonId)))];
+  const members = new Map(
+    dayTendonIds.length
+      ? (
+          await db
+            .selectFrom("tendons")
+            .select(["id", "member"])
+            .where("project_id", "=", input.projectId)
+            .where("id", "in", dayTendonIds)
+            .execute()
+        ).map((t) => [t.id, t.member ?? ""])
+      : [],
+  );
+  const witnessGroups: WitnessGroup[] = pours.flatMap((p) => {
+    const groups = new Map<string, WitnessGroup>();
+    for (const t of p.report.tendons) {
+      const stressings = p.records.filter((r) => r.tendonId === t.tendonId).length;
+      if (!stressings) continue;
+      const group = members.get(t.tendonId) ?? "";
+      const g = groups.get(group) ?? {
+        pourId: p.report.pour.id,
+        pourName: p.report.pour.name,
+        group,
+        tags: [],
+        stressings: 0,
+      };
+      g.tags.push(t.tag);
+      g.stressings += stressings;
+      groups.set(group, g);
+    }
+    return [...groups.values()].sort((a, b) => a.group.localeCompare(b.group));
+  });
+  const openExceptions: OpenException[] = pours.flatMap((p) => {
+    const dayTags = new Set(p.records.map((r) => r.tag));
+    return p.report.flags
+      .filter((f) => f.status !== "closed" && (inDay(f.raisedAt) || dayTags.has(f.tendonTag)))
+      .map((f) => ({
+        reference: f.reference,
+        pourName: p.report.pour.name,
+        tendonTag: f.tendonTag,
+        kind: f.kind,
+        status: f.status,
+      }));
+  });
 
   const moments = [
     ...pours.flatMap((p) => [
@@ -200,5 +274,8 @@ export async function getDailyReport(
       heldReasons: t.held_reasons,
     })),
     remarks: input.remarks ?? remarksOfSnapshot(lastSigned?.snapshot as ReportSnapshot | undefined),
+    witnessGroups,
+    openExceptions,
+    attestation: input.attestation ?? (lastSigned?.attestation as DailyAttestation | null | undefined) ?? null,
   };
 }

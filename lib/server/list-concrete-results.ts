@@ -16,11 +16,25 @@ export interface ConcreteResultRow {
   enteredBy: string;
 }
 
+/** A crew's reason to stress before the strength was confirmed, as kept on its record. */
+export interface ConcreteGoAhead {
+  tag: string;
+  end: "A" | "B";
+  reason: string;
+  by: string;
+  /** ISO instant the end was stressed. */
+  at: string;
+}
+
 export interface ConcreteGateView {
   results: ConcreteResultRow[];
   requiredMPa: number | null;
   confirmed: ConfirmedStrength;
   met: boolean;
+  /** The pour's standing release (who and when, ISO instant), null while it is not released. */
+  release: { by: string; at: string } | null;
+  /** The reasons the crew gave to stress ahead of the confirmation, current records only, in time order. */
+  goAheads: ConcreteGoAhead[];
 }
 
 /** The pour's results as entered (newest first, with who entered each) and the gate they give. */
@@ -28,11 +42,18 @@ export async function listConcreteResults(
   db: Kysely<Database>,
   input: { projectId: string; pourId: string },
 ): Promise<ConcreteGateView> {
-  const [pour, rows] = await Promise.all([
+  const [pour, rows, goAheads] = await Promise.all([
     db
       .selectFrom("pours")
       .innerJoin("projects", "projects.id", "pours.project_id")
-      .select(["pours.id", "projects.required_concrete_mpa"])
+      .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
+      .select([
+        "pours.id",
+        "projects.required_concrete_mpa",
+        "pour_states.status",
+        "pour_states.released_by_name",
+        "pour_states.released_at",
+      ])
       .where("pours.project_id", "=", input.projectId)
       .where("pours.id", "=", input.pourId)
       .executeTakeFirst(),
@@ -53,6 +74,29 @@ export async function listConcreteResults(
       .where("concrete_results.pour_id", "=", input.pourId)
       .orderBy("concrete_results.entered_at", "desc")
       .execute(),
+    // Each record's latest revision only: a corrected record carries its reason forward.
+    db
+      .selectFrom("records")
+      .innerJoin("tendons", "tendons.id", "records.tendon_id")
+      .innerJoin("users", "users.id", "records.author_user_id")
+      .select(["tendons.tag", "records.tendon_end", "records.concrete_go_ahead", "records.device_time", "users.name"])
+      .where("records.project_id", "=", input.projectId)
+      .where("records.pour_id", "=", input.pourId)
+      .where("records.concrete_go_ahead", "is not", null)
+      .where(({ not, exists, selectFrom }) =>
+        not(
+          exists(
+            selectFrom("records as later")
+              .select("later.id")
+              .whereRef("later.chain_id", "=", "records.chain_id")
+              .where("later.project_id", "=", input.projectId)
+              .whereRef("later.revision", ">", "records.revision"),
+          ),
+        ),
+      )
+      .orderBy("records.device_time")
+      .orderBy("tendons.tag")
+      .execute(),
   ]);
   if (!pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
   const results: ConcreteResultRow[] = rows.map((r) => ({
@@ -69,5 +113,21 @@ export async function listConcreteResults(
     results.map((r) => ({ strengthMPa: r.strengthMPa, ageDays: r.ageDays, specimenCount: r.specimenCount })),
   );
   const requiredMPa = pour.required_concrete_mpa;
-  return { results, requiredMPa, confirmed, met: concreteGateMet(confirmed.strengthMPa, requiredMPa) };
+  return {
+    results,
+    requiredMPa,
+    confirmed,
+    met: concreteGateMet(confirmed.strengthMPa, requiredMPa),
+    release:
+      pour.status === "released" && pour.released_by_name && pour.released_at
+        ? { by: pour.released_by_name, at: new Date(pour.released_at).toISOString() }
+        : null,
+    goAheads: goAheads.map((r) => ({
+      tag: r.tag,
+      end: r.tendon_end,
+      reason: r.concrete_go_ahead ?? "",
+      by: r.name,
+      at: new Date(r.device_time).toISOString(),
+    })),
+  };
 }

@@ -32,6 +32,8 @@ export async function signReportRevision(
     unlisted: string;
     sign: (block: SignatureBlock) => Promise<Uint8Array>;
     fileName: (revision: number) => string;
+    /** What a daily report's inspector attests (conformance, witness), kept with the revision. */
+    attestation?: Record<string, unknown>;
   },
 ): Promise<{ revision: number; fileSha256: string; contentSha256: string; changes: string[] }> {
   const which = input.report;
@@ -85,6 +87,7 @@ export async function signReportRevision(
         licence: input.values.licence,
         statement: input.values.statement,
         signed_at: signedAt,
+        ...(input.attestation && { attestation: JSON.stringify(input.attestation) }),
       })
       .execute();
   } catch (error) {

@@ -1,6 +1,7 @@
 import bcrypt from "bcryptjs";
 import { fitCalibration } from "@/lib/elongation";
 import { predictTendon, projectBasisFromRow } from "@/lib/stressing/basis";
+import { psiToMPa } from "@/lib/units";
 import { seedDemoRecords } from "./demo-records";
 import type { Kysely } from "kysely";
 import type { Database, Role, StressingEnds, TendonSegment } from "@/db/types";
@@ -162,7 +163,7 @@ export async function seedDemo(
           wobble_per_m: 0.0015 * 3.280839895, // 0.0015 per ft, within ACI R18.6.2 greased monostrand range
           anchor_set_mm: 6.35,
           calibration_validity_days: 182,
-          required_concrete_mpa: 20.7,
+          required_concrete_mpa: psiToMPa(3000), // exactly 3,000 psi, as the demo drawings state it
           engineer_of_record_name: "Priya Raman, P.E.",
           engineer_of_record_email: "engineer@demo.tautline.test",
           notify_emails: ["inspector@demo.tautline.test"],

@@ -314,13 +314,13 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     "POST /api/projects/[projectId]/daily-reports/[day]/signatures": {
       call: (c) =>
         c.post(`/api/projects/${projectId}/daily-reports/2001-01-01/signatures`, {
-          data: { ...SIGNATURE, remarks: `Matrix remarks ${stamp()}` },
+          data: { ...SIGNATURE, remarks: `Matrix remarks ${stamp()}`, conformance: "conforming", witness: [] },
         }),
     },
     "GET /api/projects/[projectId]/daily-reports/[day]/signatures/[revision]": {
       fixture: async () => {
         const res = await contexts.inspector.post(`/api/projects/${projectId}/daily-reports/2001-01-02/signatures`, {
-          data: { ...SIGNATURE, remarks: `Matrix remarks ${stamp()}` },
+          data: { ...SIGNATURE, remarks: `Matrix remarks ${stamp()}`, conformance: "conforming", witness: [] },
         });
         expect(res.status()).toBe(201);
         return String(((await res.json()) as { revision: number }).revision);
@@ -450,6 +450,24 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
             },
           },
         }),
+    },
+    "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/correction/preview": {
+      call: (c) =>
+        c.post(
+          `/api/projects/${projectId}/equipment-sets/${MISSING_ID}/calibrations/${MISSING_ID}/correction/preview`,
+          {
+            data: {
+              reason: "Matrix check of who may preview a correction.",
+              calibration: {
+                calibratedOn: "2026-12-01",
+                validUntil: null,
+                points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })),
+                laboratory: null,
+                certificateAttachmentId: null,
+              },
+            },
+          },
+        ),
     },
     "GET /api/projects/[projectId]/flags": { call: (c) => c.get(`/api/projects/${projectId}/flags?status=any_open`) },
     "POST /api/projects/[projectId]/flags/[flagId]/reviews": {

@@ -6,7 +6,7 @@ import { makePourFixture, pushEndA } from "./pour-fixture";
 /**
  * The concrete gate of a pour, from the inspector's entry of the lab's results to a clean pour:
  * before results the pour's page says "do not stress"; the inspector enters a set in psi (the
- * demo project is a US one, 20.7 MPa ≈ 3,002 psi required before stressing); five tendons then
+ * demo project is a US one, 3,000 psi required before stressing); five tendons then
  * stressed in band raise no concrete flag. The pour is made for this spec.
  */
 

@@ -42,19 +42,38 @@ test("the inspector signs a day's special-inspection report and downloads its PD
   await expect(page.getByTestId("daily-signature-state")).toHaveText(`The report of ${day} is not signed yet.`);
 
   const form = page.getByRole("form", { name: `Sign the daily inspection report of ${day}` });
+  const confirm = async () => {
+    const dialog = page.getByRole("dialog", { name: /^Sign revision/ });
+    await expect(dialog).toBeVisible();
+    await dialog.getByRole("button", { name: "Sign", exact: true }).click();
+  };
   await form
     .getByLabel("Your remarks for the day")
     .fill("Witnessed the stressing from the east slab edge; barricades up.");
-  // Without a licence number the server names the field and signs nothing.
+  // Without a licence number, a statement of conformance or what was witnessed, the server names
+  // each field and signs nothing.
   await form.getByRole("button", { name: `Sign revision 1 of ${day}` }).click();
+  await confirm();
   await expect(form.locator("#daily-sign-licence-error")).toContainText("licence or certification number");
+  await expect(form.locator("#daily-conformance-error")).toContainText("Choose whether the work was in conformance");
+  await expect(form.locator("#daily-witness-0-extent-error")).toContainText("Choose witnessed in full");
+  await expect(page.getByTestId("daily-signature-state")).toHaveText(`The report of ${day} is not signed yet.`);
+
   await form.getByLabel("Licence or certification number").fill("ICC special inspector 5551234 (demo)");
+  const groups = form.locator("[data-witness-group]");
+  const groupCount = await groups.count();
+  expect(groupCount).toBeGreaterThan(0);
+  for (let i = 0; i < groupCount; i++) await groups.nth(i).getByLabel("In full").check();
+  await form.getByLabel("The work was not in conformance").check();
   await screenshot(page, "daily-report-form");
   await form.getByRole("button", { name: `Sign revision 1 of ${day}` }).click();
+  await screenshot(page, "daily-report-confirm");
+  await confirm();
   await expect(page.getByTestId("daily-signature-state")).toHaveText(
     `The report of ${day} as it stands is signed: revision 1.`,
     { timeout: 30_000 },
   );
+  await expect(page.getByTestId("daily-conformance")).toContainText("WAS NOT IN CONFORMANCE");
   await screenshot(page, "daily-report-signed");
 
   const signedHref = await page.getByRole("link", { name: "Signed PDF, revision 1" }).getAttribute("href");
@@ -75,13 +94,19 @@ test("the inspector signs a day's special-inspection report and downloads its PD
   expect(table.data.find((r) => r.Section === "remarks")?.Details).toBe(
     "Witnessed the stressing from the east slab edge; barricades up.",
   );
+  const witness = table.data.filter((r) => r.Section === "witness");
+  expect(witness).toHaveLength(groupCount);
+  for (const w of witness) expect(w.Details).toContain("witnessed in full by Mei Lindqvist");
+  expect(table.data.find((r) => r.Section === "conformance")?.Details).toMatch(/WAS NOT IN CONFORMANCE/);
 
   // New remarks are a change: revision 2, which says what changed.
   await form
     .getByLabel("Your remarks for the day")
     .fill("Witnessed the stressing from the east slab edge; rain after noon.");
   await form.getByLabel("Licence or certification number").fill("ICC special inspector 5551234 (demo)");
+  await form.getByLabel("The work was not in conformance").check();
   await form.getByRole("button", { name: `Sign revision 2 of ${day}` }).click();
+  await confirm();
   await expect(page.getByTestId("daily-signature-state")).toHaveText(
     `The report of ${day} as it stands is signed: revision 2.`,
     { timeout: 30_000 },

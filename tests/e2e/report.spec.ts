@@ -29,6 +29,10 @@ test("the engineer reads a pour's insight and downloads its stressing report", a
   await expect(page.locator('[data-chart="deviation"]').getByText("In band (circle)")).toBeVisible();
   await expect(page.getByRole("table").filter({ hasText: "Equipment set" }).first()).toBeVisible();
   await expect(page.getByRole("note", { name: "Caution" })).toBeVisible();
+  // The demo job is a US one: the apparent and mill moduli read in ksi (its B01–B06 were read at gauge steps).
+  const moduli = page.locator('[data-table="modulus"]');
+  await expect(moduli).toContainText(/\d{2},\d{3} ksi/);
+  await expect(moduli).not.toContainText("MPa");
   await screenshot(page, "report-insight-landscape");
   await page.setViewportSize({ width: 800, height: 1280 });
   await page.waitForTimeout(300);

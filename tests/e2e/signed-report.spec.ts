@@ -20,11 +20,18 @@ test("the inspector signs a pour's stressing report and anyone can check the sig
   const form = page.getByRole("form", { name: /Sign the stressing report of L2 Pour 1/ });
   // Without a licence number the server names the field and signs nothing.
   await form.getByLabel("Licence or certification number").fill("");
+  const confirm = () =>
+    page
+      .getByRole("dialog", { name: /^Sign revision 1 of the stressing report/ })
+      .getByRole("button", { name: "Sign", exact: true })
+      .click();
   await form.getByRole("button", { name: "Sign revision 1" }).click();
+  await confirm();
   await expect(form.locator("#sign-licence-error")).toContainText("licence or certification number");
   await form.getByLabel("Licence or certification number").fill("ICC special inspector 5551234 (demo)");
   await screenshot(page, "report-sign-form");
   await form.getByRole("button", { name: "Sign revision 1" }).click();
+  await confirm();
   await expect(page.getByTestId("signature-state")).toHaveText("The report as it stands is signed: revision 1.", {
     // Signing draws the report twice and stores it; on a busy CI machine that takes a while.
     timeout: 30_000,

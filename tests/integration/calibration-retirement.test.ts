@@ -5,6 +5,7 @@ import { addCalibration } from "@/lib/server/add-calibration";
 import { correctCalibration } from "@/lib/server/correct-calibration";
 import { createEquipmentSet } from "@/lib/server/create-equipment-set";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
+import { previewCalibrationCorrection } from "@/lib/server/preview-calibration-correction";
 import { retireCalibration } from "@/lib/server/retire-calibration";
 import { demoFixture, insertRecord } from "../support/records";
 import { createTestDatabase, type TestDatabase } from "../support/database";
@@ -112,6 +113,44 @@ describe("correcting and retiring a calibration", () => {
     });
     expect(future.error?.issues.map((i) => i.path.join("."))).toEqual(["calibration.calibratedOn"]);
 
+    // The preview runs the correction and rolls it back: it says how many tendons would be judged
+    // again and whose verdict would change, and writes nothing (no calibration, evaluation or audit).
+    const correction = {
+      projectId: fx.projectId,
+      setId,
+      calibrationId: first.calibrationId,
+      by: admin,
+      reason: "Forces were copied from the 2025 certificate; these are the 2026 ones.",
+      values: {
+        calibratedOn: "2026-11-02",
+        validUntil: null,
+        laboratory: null,
+        certificateAttachmentId: null,
+        points: points(5300),
+      },
+    };
+    const counts = async () => ({
+      calibrations: (await t.db.selectFrom("calibrations").select("id").where("equipment_set_id", "=", setId).execute())
+        .length,
+      evaluations: (await evaluations()).length,
+      audit: (await t.db.selectFrom("audit_events").select("id").where("action", "like", "calibration.%").execute())
+        .length,
+    });
+    const untouched = await counts();
+    const preview = await previewCalibrationCorrection(t.db, correction);
+    expect(preview.rejudged).toBe(1);
+    expect(await counts()).toEqual(untouched);
+    const retiredYet = await t.db
+      .selectFrom("calibrations")
+      .select("retired_at")
+      .where("id", "=", first.calibrationId)
+      .executeTakeFirstOrThrow();
+    expect(retiredYet.retired_at).toBeNull();
+    // A calibration that does not exist on this set is refused by the preview as by the correction.
+    await expect(previewCalibrationCorrection(t.db, { ...correction, calibrationId: fx.setA })).rejects.toMatchObject({
+      code: "NOT_FOUND",
+    });
+
     // The correction: a new calibration replaces the old, whose figures stay as they were.
     const corrected = await correctCalibration(t.db, {
       projectId: fx.projectId,
@@ -143,6 +182,13 @@ describe("correcting and retiring a calibration", () => {
     expect(usedOf(afterCorrection[0]!.inputs)[0]!.id).toBe(first.calibrationId);
     const latest = afterCorrection.at(-1)!;
     expect(latest.reason).toMatch(/^calibration of 2026-11-02 corrected: Forces were copied/);
+    // The preview said what the correction then did: the same verdict change (or none).
+    const changed = latest.verdict !== stored!.verdict;
+    expect(preview).toEqual({
+      rejudged: 1,
+      verdictsChanging: changed ? 1 : 0,
+      tags: changed ? [expect.any(String)] : [],
+    });
     expect(usedOf(latest.inputs)).toMatchObject([
       { id: corrected.calibrationId, slope_n_per_mpa: expect.closeTo(5300, 6) },
     ]);

@@ -11,7 +11,9 @@ import { createTestDatabase, type TestDatabase } from "../support/database";
 // The concrete gate on real PostgreSQL: one concrete flag per pour however many tendons are
 // stressed before the strength is confirmed, the pour's strength from the lab's results by the
 // rule of lib/stressing/concrete-strength.ts, and the flag closed by results that confirm it.
-// The demo project requires 20.7 MPa before stressing (its seed).
+// The demo project requires 3,000 psi before stressing (its seed): 3000 × 0.006894757293168 =
+// 20.684 MPa (psi to MPa, NIST SP 811 Appendix B factor).
+const REQUIRED_MPA = 3000 * 0.006894757293168;
 
 let t: TestDatabase;
 let fx: Awaited<ReturnType<typeof demoFixture>>;
@@ -133,19 +135,19 @@ describe("the concrete gate of a pour", () => {
     });
     expect(one).toMatchObject({ met: false, closedFlags: 0, confirmed: { strengthMPa: null } });
 
-    // Two at 3 days average 18 MPa: confirmed but below the 20.7 MPa required.
+    // Two at 3 days average 18 MPa: confirmed but below the 20.68 MPa required.
     const low = await addConcreteResult(t.db, {
       projectId: fx.projectId,
       pourId,
       by: inspector,
       result: { specimen: "cylinder", strengthMPa: 18, ageDays: 3, specimenCount: 2 },
     });
-    // Hand check at 3 days: (1 × 25 + 2 × 18) / 3 = 61 / 3 = 20.33 MPa, below 20.7.
+    // Hand check at 3 days: (1 × 25 + 2 × 18) / 3 = 61 / 3 = 20.33 MPa, below 20.68.
     expect(low.confirmed.strengthMPa).toBeCloseTo(61 / 3, 10);
-    expect(low).toMatchObject({ met: false, closedFlags: 0, requiredMPa: 20.7 });
+    expect(low).toMatchObject({ met: false, closedFlags: 0, requiredMPa: REQUIRED_MPA });
     expect((await concreteFlags(pourId))[0]!.status).toBe("open");
 
-    // At 4 days, 2 × 22 MPa: 22.0 MPa ≥ 20.7, the earlier age no longer counts, and the flag closes.
+    // At 4 days, 2 × 22 MPa: 22.0 MPa ≥ 20.68, the earlier age no longer counts, and the flag closes.
     const met = await addConcreteResult(t.db, {
       projectId: fx.projectId,
       pourId,
@@ -179,7 +181,7 @@ describe("the concrete gate of a pour", () => {
     const listed = await listConcreteResults(t.db, { projectId: fx.projectId, pourId });
     expect(listed.results).toHaveLength(4);
     expect(listed.results.every((r) => r.enteredBy === inspector.name)).toBe(true);
-    expect(listed).toMatchObject({ met: true, requiredMPa: 20.7 });
+    expect(listed).toMatchObject({ met: true, requiredMPa: REQUIRED_MPA });
     expect(listed.confirmed.strengthMPa).toBeCloseTo(23, 10);
   });
 

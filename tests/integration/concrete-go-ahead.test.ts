@@ -1,13 +1,14 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createDb, type Db } from "@/db/connect";
 import type { SyncOp } from "@/lib/schemas/sync";
+import { listConcreteResults } from "@/lib/server/list-concrete-results";
 import { pushOps } from "@/lib/server/push-ops";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 import { buildWorld, createOp, type SyncWorld } from "./sync-fixtures";
 
 // The crew's reason to stress a pour whose concrete strength is not confirmed, on real
 // PostgreSQL: it travels with the record, is kept on it, and the pour's one concrete flag quotes
-// it to the engineer. The demo project requires 20.7 MPa; the pour's confirmed strength is
+// it to the engineer. The demo project requires 3,000 psi (20.68 MPa); the pour's confirmed strength is
 // cleared here so the gate is not met.
 
 let t: TestDatabase;
@@ -82,5 +83,21 @@ describe("the reason to go ahead before the concrete is confirmed", () => {
     const open = (await concreteFlags()).filter((f) => f.status === "open");
     expect(open).toHaveLength(1);
     expect(open[0]!.reason).toMatch(/No reason to go ahead came with the record\.$/);
+  });
+
+  it("is listed with the pour's concrete results, by tendon, end and who recorded it, while the pour is not released", async () => {
+    const gate = await listConcreteResults(t.db, { projectId: w.projectId, pourId: w.pourId });
+    expect(gate.met).toBe(false);
+    expect(gate.release).toBeNull();
+    // Only the first tendon's record came with a reason (the refused one was never stored).
+    expect(gate.goAheads).toEqual([
+      {
+        tag: w.tendons[0]!.tag,
+        end: expect.stringMatching(/^[AB]$/),
+        reason: REASON,
+        by: expect.any(String),
+        at: expect.any(String),
+      },
+    ]);
   });
 });

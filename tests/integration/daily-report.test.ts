@@ -178,7 +178,46 @@ describe("the day's special-inspection report", () => {
     expect(rows[0]!.Measured).toMatch(/^\d+ \d+\/\d+ in$|^\d+ in$/);
     expect(rows[0]!.Deviation).toMatch(/%$/);
     expect(parsed.data.find((r) => r.Section === "remarks")?.Details).toBe("none");
+    // Before any signature: one witness group (no member on these tendons), nothing stated yet.
+    expect(report.witnessGroups).toEqual([
+      { pourId, pourName: "Daily pour", group: "", tags: ["S-01", "S-02"], stressings: 2 },
+    ]);
+    expect(parsed.data.find((r) => r.Section === "witness")?.Details).toBe(
+      "Daily pour: S-01, S-02 (2 stressings); not stated yet: the inspector states it when signing",
+    );
+    expect(parsed.data.find((r) => r.Section === "conformance")?.Details).toMatch(/^Not stated yet/);
+    expect(text).toContain("Statement of conformance Not stated yet");
   }, 60_000);
+
+  it("refuses an attestation that does not fit the day, naming the field, and signs nothing", async () => {
+    const report = await getDailyReport(t.db, { projectId: fx.projectId, day: DAY });
+    // S-01 and S-02 were flagged by their evaluations (raised today, open): exceptions of the day's work.
+    expect(report.openExceptions.length).toBeGreaterThan(0);
+    const base = {
+      signerName: "Dana Okafor",
+      licence: "ICC special inspector 5551234 (invented)",
+      statement: "I inspected the stressing listed in this report, to the extent stated under what was witnessed.",
+      remarks: "",
+    };
+    const full = { pourId, group: "", extent: "full" as const, witnessedBy: "Dana Okafor", note: "" };
+    const sign = (values: Parameters<typeof signDailyReport>[1]["values"]) =>
+      signDailyReport(t.db, { projectId: fx.projectId, day: DAY, signer: inspector, values });
+    await expect(sign({ ...base, conformance: "not_conforming", witness: [] })).rejects.toMatchObject({
+      code: "INVALID_INPUT",
+      fields: { witness: ["State what was witnessed for Daily pour."] },
+    });
+    await expect(
+      sign({ ...base, conformance: "not_conforming", witness: [full, { ...full, group: "B9" }] }),
+    ).rejects.toMatchObject({
+      code: "INVALID_INPUT",
+      fields: { "witness.1.group": [expect.stringMatching(/B9|stressed/)] },
+    });
+    await expect(sign({ ...base, conformance: "conforming", witness: [full] })).rejects.toMatchObject({
+      code: "INVALID_INPUT",
+      fields: { conformance: [expect.stringContaining(report.openExceptions[0]!.reference)] },
+    });
+    expect(await t.db.selectFrom("report_revisions").select("id").where("report_day", "=", DAY).execute()).toEqual([]);
+  });
 
   it("is signed as revision 1, refused unchanged, and signed as revision 2 after a new record; verification follows the file", async () => {
     const sha = (b: Uint8Array) => createHash("sha256").update(b).digest("hex");
@@ -187,6 +226,10 @@ describe("the day's special-inspection report", () => {
       licence: "ICC special inspector 5551234 (invented)",
       statement: "I inspected the stressing listed in this report; the work was in conformance except as noted.",
       remarks: "=Witnessed S-01 and S-02 from the east slab edge; barricades in place.",
+      conformance: "not_conforming" as const,
+      witness: [
+        { pourId, group: "", extent: "part" as const, witnessedBy: "Dana Okafor", note: "S-01 only; S-02 after dark" },
+      ],
     };
     const first = await signDailyReport(t.db, { projectId: fx.projectId, day: DAY, signer: inspector, values });
     expect(first).toMatchObject({ revision: 1, changes: [] });
@@ -209,6 +252,22 @@ describe("the day's special-inspection report", () => {
     expect(text1).toContain("Signed by Dana Okafor, ICC special inspector 5551234 (invented)");
     expect(text1).toContain(`Content sha256 ${first.contentSha256}`);
     expect(text1).toContain("Witnessed S-01 and S-02 from the east slab edge");
+    // What was witnessed, by whom, and the statement with the open exceptions, on the signed PDF and the CSV.
+    const refs = standing.report.openExceptions.map((f) => f.reference);
+    expect(text1).toContain(
+      "Daily pour Stressed: S-01, S-02 (2 stressings). Witnessed in part by Dana Okafor: S-01 only; S-02 after dark.",
+    );
+    expect(text1).toContain(
+      "WAS NOT IN CONFORMANCE with the approved construction documents. Open exceptions: flag " + refs[0],
+    );
+    expect(csv.data.find((r) => r.Section === "witness")?.Details).toBe(
+      "Daily pour: S-01, S-02 (2 stressings); witnessed in part by Dana Okafor: S-01 only; S-02 after dark",
+    );
+    const conformance = csv.data.find((r) => r.Section === "conformance")?.Details ?? "";
+    expect(conformance).toMatch(/^The work inspected this day WAS NOT IN CONFORMANCE/);
+    for (const ref of refs) expect(conformance).toContain(`flag ${ref} (Daily pour, S-0`);
+    // The unsigned copy as it stands prints what was last signed: same content, same hash as signed.
+    expect(await pdfTextOf(await renderDailyPdf(standing.report))).toContain("Witnessed in part by Dana Okafor");
 
     // A restress of S-01 later that day (16:40 CST).
     await stress("S-01", "2026-11-18T22:40:00Z", 153);
@@ -237,5 +296,28 @@ describe("the day's special-inspection report", () => {
     });
     // The unsigned file is not a signed revision.
     expect(await verifyReportFile(t.db, { sha256: second.contentSha256 })).toEqual({ match: false });
+
+    // Changing only what was witnessed is a change of the signed content: revision 3, which says so;
+    // revision 2's file no longer verifies as the latest, revision 3's does.
+    const witnessedInFull = {
+      ...values,
+      witness: [{ pourId, group: "", extent: "full" as const, witnessedBy: "Dana Okafor", note: "" }],
+    };
+    const third = await signDailyReport(t.db, {
+      projectId: fx.projectId,
+      day: DAY,
+      signer: inspector,
+      values: witnessedInFull,
+    });
+    expect(third.revision).toBe(3);
+    expect(third.contentSha256).not.toBe(second.contentSha256);
+    expect(third.changes).toEqual([
+      "witness Daily pour: witnessed in part by Dana Okafor: S-01 only; S-02 after dark → witnessed in full by Dana Okafor",
+    ]);
+    expect(await verifyReportFile(t.db, { sha256: second.fileSha256 })).toMatchObject({ match: true, latest: false });
+    expect(await verifyReportFile(t.db, { sha256: third.fileSha256 })).toMatchObject({ match: true, latest: true });
+    const signed3 = await readSignedDailyReport(t.db, { projectId: fx.projectId, day: DAY, revision: 3 });
+    writeFileSync("test-results/reports/daily-report-signed-rev3.pdf", signed3.body);
+    expect(await pdfTextOf(signed3.body)).toContain("Witnessed in full by Dana Okafor.");
   }, 60_000);
 });

@@ -11,6 +11,7 @@ import { importTendonSchedule } from "@/lib/server/import-tendon-schedule";
 import { pullChanges } from "@/lib/server/pull-changes";
 import { pushOps } from "@/lib/server/push-ops";
 import { recordDisposition } from "@/lib/server/record-disposition";
+import { listConcreteResults } from "@/lib/server/list-concrete-results";
 import { releasePour } from "@/lib/server/release-pour";
 import { reopenPour } from "@/lib/server/reopen-pour";
 import { createTestDatabase, type TestDatabase } from "../support/database";
@@ -341,8 +342,15 @@ describe("reopen", () => {
     });
     expect(corrected.evaluation).toMatchObject({ verdict: "in band" });
 
+    // The list shows its times in the project's zone, not the server's or UTC.
+    await t.db.updateTable("projects").set({ time_zone: "America/Denver" }).where("id", "=", w.projectId).execute();
     const [candidate] = (await findReleaseCandidates(t.db, [w.projectId])).filter((c) => c.pourId === pourId);
-    expect(candidate).toMatchObject({ status: "stressed", releasedBy: null, reopened: { by: people.engineer.name } });
+    expect(candidate).toMatchObject({
+      status: "stressed",
+      releasedBy: null,
+      reopened: { by: people.engineer.name },
+      timeZone: "America/Denver",
+    });
 
     await releasePour(t.db, {
       projectId: w.projectId,
@@ -367,6 +375,10 @@ describe("reopen", () => {
     expect((await getPourReport(t.db, { projectId: w.projectId, pourId })).release).toMatchObject({
       statement: "Lift-off checked; released again.",
     });
+    // The concrete box of a released pour shows the release that stands (it never says "do not stress").
+    const gate = await listConcreteResults(t.db, { projectId: w.projectId, pourId });
+    expect(gate.release).toMatchObject({ by: engineer().name });
+    expect(new Date(gate.release!.at).getTime()).toBeGreaterThan(Date.now() - 60_000);
   });
 });
 

@@ -302,6 +302,14 @@ function seedBody(endpoint: string, w: World): Record<string, unknown> | null {
       licence: "ICC special inspector 0000000 (fuzz)",
       statement: "Fuzz check of the stressing report.",
     },
+    "POST /api/projects/[projectId]/daily-reports/[day]/signatures": {
+      signerName: "Fuzz Inspector",
+      licence: "ICC special inspector 0000000 (fuzz)",
+      statement: "Fuzz check of the day's inspection report.",
+      remarks: "",
+      conformance: "not_conforming",
+      witness: [],
+    },
     "POST /api/projects/[projectId]/share-links": { label: "Fuzz general contractor", days: 1 },
     "POST /api/report-verifications": { sha256: "0".repeat(64) },
     "POST /api/projects/[projectId]/strand-lots": {
@@ -326,6 +334,10 @@ function seedBody(endpoint: string, w: World): Record<string, unknown> | null {
     },
     "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/correction": {
       reason: "Fuzz check of a correction.",
+      calibration,
+    },
+    "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/correction/preview": {
+      reason: "Fuzz check of a correction preview.",
       calibration,
     },
     "POST /api/projects/[projectId]/flags/[flagId]/reviews": { kind: "note", body: "Checked the gauge photo." },

@@ -8,6 +8,7 @@ import { dayInZone, formatDateTime, shiftDay } from "@/lib/format/dates";
 import {
   DAILY_RECORD_COLUMNS,
   dailyConcreteLines,
+  dailyConformanceLine,
   dailyDispositionLines,
   dailyEquipmentLines,
   dailyFlagLines,
@@ -15,6 +16,9 @@ import {
   dailyRecordsInOrder,
   dailySummary,
   dailyTailCutLines,
+  dailyWitnessLines,
+  openExceptionLines,
+  witnessGroupViews,
   type DailyRecordColumn,
 } from "@/lib/reports/daily-rows";
 import { DEFAULT_DAILY_STATEMENT, reportDaySchema } from "@/lib/schemas/daily-report";
@@ -220,6 +224,18 @@ export default async function DailyReportPage({
 
           <div className="grid gap-8 xl:grid-cols-2">
             <List
+              id="daily-witness-heading"
+              title="What was stressed and witnessed (as last signed)"
+              items={dailyWitnessLines(view.report).map((w) => `${w.label}: ${w.stressed}; ${w.stated}.`)}
+              empty="No tendon was stressed this day."
+            />
+            <section aria-labelledby="daily-conformance-heading" className="space-y-2">
+              <h2 id="daily-conformance-heading" className="text-lead font-bold">
+                Statement of conformance (as last signed)
+              </h2>
+              <p data-testid="daily-conformance">{dailyConformanceLine(view.report)}</p>
+            </section>
+            <List
               id="daily-flags-heading"
               title="Flags raised"
               items={dailyFlagLines(view.report).map((f) => `${f.heading}. ${f.lines.join(" ")}`)}
@@ -271,6 +287,9 @@ export default async function DailyReportPage({
               canSign={can(access.role, "report.sign")}
               signerName={access.user.name}
               defaultStatement={DEFAULT_DAILY_STATEMENT}
+              groups={witnessGroupViews(view.report)}
+              exceptions={openExceptionLines(view.report)}
+              previous={view.report.attestation}
             />
           </section>
         </>

@@ -172,7 +172,7 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
           modulus the tendon behaved as if it had. Friction alone puts it above the mill value; a ratio far from the
           neighbours&apos; is worth a look.
         </p>
-        <ModulusTable moduli={insight.moduli} />
+        <ModulusTable moduli={insight.moduli} project={insight.project} />
       </section>
 
       <section aria-labelledby="resolution-heading" className="space-y-3">

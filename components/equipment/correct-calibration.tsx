@@ -1,0 +1,227 @@
+"use client";
+
+import { useState } from "react";
+import { useForm } from "react-hook-form";
+import { useSWRConfig } from "swr";
+import { z } from "zod";
+import { FormMessage } from "@/components/ui/form-message";
+import { formResolver } from "@/lib/client/form-resolver";
+import { sendJson } from "@/lib/client/send-json";
+import { calibrationCorrectionSchema, calibrationSchema, type CalibrationInput } from "@/lib/schemas/calibration";
+import type { CalibrationCorrectionPreview } from "@/lib/server/preview-calibration-correction";
+import { mpaToPsi, nToKip, nToKN } from "@/lib/units";
+import { readPoints } from "./equipment-forms";
+import { equipmentSetsKey } from "./equipment-list";
+
+type CalibrationPoint = CalibrationInput["points"][number];
+type Boxes = { calibratedOn: string; validUntil: string; pointsText: string; laboratory: string; reason: string };
+type Corrected = CalibrationInput & { reason: string };
+
+/** A stored point as the admin would type it, in the project's units, without rounding that matters. */
+const asTyped = (n: number, decimals: number) => String(Number(n.toFixed(decimals)));
+const pointsText = (points: CalibrationPoint[], us: boolean) =>
+  points
+    .map((p) =>
+      us
+        ? `${asTyped(mpaToPsi(p.pressureMPa), 1)}, ${asTyped(nToKip(p.forceN), 4)}`
+        : `${asTyped(p.pressureMPa, 3)}, ${asTyped(nToKN(p.forceN), 3)}`,
+    )
+    .join("\n");
+
+function resolver(us: boolean) {
+  return formResolver(
+    {
+      calibratedOn: z.string(),
+      validUntil: z.string(),
+      pointsText: z.string().transform((text, ctx) => {
+        const { points, error } = readPoints(text, us);
+        if (error) ctx.addIssue({ code: "custom", message: error });
+        return points;
+      }),
+      laboratory: z.string(),
+      reason: z.string(),
+    },
+    (v) => ({
+      calibratedOn: v.calibratedOn,
+      validUntil: v.validUntil || null,
+      points: v.pointsText ?? [],
+      laboratory: v.laboratory?.trim() || null,
+      reason: v.reason ?? "",
+    }),
+    z.intersection(calibrationSchema, z.object({ reason: calibrationCorrectionSchema.shape.reason })),
+    { points: "pointsText" },
+    { pointsText: "Line" },
+  ) as unknown as ReturnType<typeof formResolver<never, Corrected>>;
+}
+
+/**
+ * Corrects the set's calibration in force: the certificate's figures as they should have been typed
+ * (readings, date, expiry, laboratory) and why. The first press asks the server what the correction
+ * would do (how many stressed tendons it judges again, whose verdict changes; nothing is written),
+ * the second corrects. Any edit after the check asks for a new check. A future date is refused,
+ * naming the box. The old figures are kept; stored evaluations keep the calibration they used.
+ */
+export function CorrectCalibration(props: {
+  projectId: string;
+  setId: string;
+  calibration: {
+    id: string;
+    calibratedOn: string;
+    points: CalibrationPoint[];
+    laboratory: string | null;
+    certificateAttachmentId: string | null;
+  };
+  us: boolean;
+}) {
+  const { mutate } = useSWRConfig();
+  const c = props.calibration;
+  const id = `correct-${c.id}`;
+  const api = `/api/projects/${props.projectId}/equipment-sets/${props.setId}/calibrations/${c.id}/correction`;
+  const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
+  const [preview, setPreview] = useState<CalibrationCorrectionPreview | null>(null);
+  const [busy, setBusy] = useState(false);
+  const form = useForm<Boxes, unknown, Corrected>({
+    resolver: resolver(props.us),
+    defaultValues: {
+      calibratedOn: c.calibratedOn,
+      validUntil: "",
+      pointsText: pointsText(c.points, props.us),
+      laboratory: c.laboratory ?? "",
+      reason: "",
+    },
+  });
+  const e = form.formState.errors;
+  const fieldOf = (path: string) => {
+    const key = path.replace(/^calibration\./, "").split(".")[0]!;
+    return (key === "points" ? "pointsText" : key) as keyof Boxes;
+  };
+
+  const onSubmit = form.handleSubmit(async ({ reason, ...values }) => {
+    const body = { reason, calibration: { ...values, certificateAttachmentId: c.certificateAttachmentId } };
+    setBusy(true);
+    const r = preview
+      ? await sendJson<{ reevaluated: number; validUntil: string }>("POST", api, body)
+      : await sendJson<CalibrationCorrectionPreview>("POST", `${api}/preview`, body);
+    setBusy(false);
+    if (!r.ok) {
+      setPreview(null);
+      for (const [k, m] of Object.entries(r.error.fields ?? {}))
+        form.setError(fieldOf(k) in form.getValues() ? fieldOf(k) : ("root" as keyof Boxes), { message: m.join(" ") });
+      return setMessage({ tone: "error", text: r.error.message });
+    }
+    if (!preview) {
+      setPreview(r.data as CalibrationCorrectionPreview);
+      return setMessage(undefined);
+    }
+    const done = r.data as { reevaluated: number; validUntil: string };
+    setPreview(null);
+    setMessage({
+      tone: "info",
+      text: `Corrected: the new figures are in force, valid to ${done.validUntil}; ${done.reevaluated} tendon(s) judged again.`,
+    });
+    void mutate(equipmentSetsKey(props.projectId));
+  });
+
+  return (
+    <details className="mt-2">
+      <summary className="btn-quiet w-fit cursor-pointer">Correct this calibration…</summary>
+      <form
+        onSubmit={onSubmit}
+        onChange={() => preview && setPreview(null)}
+        noValidate
+        className="mt-2 space-y-3"
+        aria-label={`Correct the calibration of ${c.calibratedOn}`}
+      >
+        <p className="text-ink-soft">
+          Type the certificate&apos;s figures as they should have been. The figures typed before are kept beside the
+          correction, and evaluations already stored keep the calibration they used; the tendons read with it are judged
+          again on the correction.
+        </p>
+        <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
+        <FormMessage tone="error">{e.root?.message}</FormMessage>
+        <div className="grid gap-3 md:grid-cols-3">
+          {(
+            [
+              ["calibratedOn", "Calibrated on", "date"],
+              ["validUntil", "Valid until (optional)", "date"],
+              ["laboratory", "Laboratory (optional)", "text"],
+            ] as const
+          ).map(([name, label, type]) => (
+            <div key={name}>
+              <label htmlFor={`${id}-${name}`} className="field-label">
+                {label}
+              </label>
+              <input
+                id={`${id}-${name}`}
+                type={type}
+                className="field-input mt-1"
+                aria-invalid={e[name] ? true : undefined}
+                aria-describedby={`${id}-${name}-error`}
+                {...form.register(name)}
+              />
+              {e[name]?.message && (
+                <p id={`${id}-${name}-error`} className="mt-1 font-semibold text-signal-stop">
+                  {e[name]?.message}
+                </p>
+              )}
+            </div>
+          ))}
+        </div>
+        <div>
+          <label htmlFor={`${id}-points`} className="field-label">
+            Calibration points: gauge pressure, force ({props.us ? "psi, kip" : "MPa, kN"}), one pair per line
+          </label>
+          <textarea
+            id={`${id}-points`}
+            rows={6}
+            className="field-input mt-1 py-2 font-mono"
+            aria-describedby={`${id}-points-error`}
+            {...form.register("pointsText")}
+          />
+          {e.pointsText?.message && (
+            <p id={`${id}-points-error`} className="mt-1 font-semibold text-signal-stop">
+              {e.pointsText.message}
+            </p>
+          )}
+        </div>
+        <div>
+          <label htmlFor={`${id}-reason`} className="field-label">
+            Why it is corrected
+          </label>
+          <textarea
+            id={`${id}-reason`}
+            rows={2}
+            className="field-input mt-1 py-2"
+            aria-describedby={`${id}-reason-error`}
+            {...form.register("reason")}
+          />
+          {e.reason?.message && (
+            <p id={`${id}-reason-error`} className="mt-1 font-semibold text-signal-stop">
+              {e.reason.message}
+            </p>
+          )}
+        </div>
+        {preview && (
+          <p
+            role="status"
+            className="rounded-md border-2 border-ink p-3 font-semibold"
+            data-testid="correction-preview"
+          >
+            This correction judges {preview.rejudged} stressed tendon{preview.rejudged === 1 ? "" : "s"} again;{" "}
+            {preview.verdictsChanging === 0
+              ? "no verdict changes."
+              : `${preview.verdictsChanging} verdict${preview.verdictsChanging === 1 ? "" : "s"} change${preview.verdictsChanging === 1 ? "s" : ""}: ${preview.tags.join(", ")}.`}{" "}
+            Press again to correct.
+          </p>
+        )}
+        <button type="submit" className="btn-primary" disabled={busy}>
+          {busy
+            ? "Checking…"
+            : preview
+              ? `Correct the calibration of ${c.calibratedOn}`
+              : "Check what the correction changes"}
+        </button>
+      </form>
+    </details>
+  );
+}

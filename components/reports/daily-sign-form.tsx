@@ -1,0 +1,289 @@
+"use client";
+
+import { useState } from "react";
+import { ConfirmDialog } from "@/components/ui/confirm-dialog";
+import { FieldError, FormMessage } from "@/components/ui/form-message";
+import { sendJson } from "@/lib/client/send-json";
+import { useApiCall } from "@/lib/client/use-api-call";
+import type { WitnessGroupView } from "@/lib/reports/daily-rows";
+import { WITNESS_EXTENTS, type DailyAttestation } from "@/lib/schemas/daily-report";
+
+const EXTENT_BUTTONS = { full: "In full", part: "In part", none: "Not witnessed" } as const;
+
+/**
+ * The inspector's signature of the day's report, the same in the office and on the tablet: the
+ * remarks, per pour or group stressed that day what was witnessed and by whom, the statement of
+ * conformance (chosen, never preselected; "not in conformance" lists the open exceptions), the typed
+ * name, licence or certification and statement, then one confirmation before the signature is
+ * final. The server checks everything again and names the field of any fault.
+ */
+export function DailySignForm({
+  api,
+  day,
+  nextRevision,
+  groups,
+  exceptions,
+  previous,
+  remarks,
+  signerName,
+  defaultStatement,
+  onSigned,
+  idPrefix = "daily",
+}: {
+  /** The day's signatures endpoint. */
+  api: string;
+  day: string;
+  nextRevision: number;
+  groups: WitnessGroupView[];
+  /** The open exceptions of the day's work, in words. */
+  exceptions: string[];
+  /** What the last signed revision attested (the witness statements start from it). */
+  previous: DailyAttestation | null;
+  remarks: string;
+  signerName: string;
+  defaultStatement: string;
+  onSigned: (revision: number) => void;
+  idPrefix?: string;
+}) {
+  const { message, fields, busy, call } = useApiCall();
+  const [pending, setPending] = useState<Record<string, unknown> | null>(null);
+  const [conformance, setConformance] = useState<string>("");
+  const id = (name: string) => `${idPrefix}-${name}`;
+  const before = (g: WitnessGroupView) => previous?.witness.find((w) => w.pourId === g.pourId && w.group === g.group);
+
+  async function sign() {
+    const body = pending;
+    setPending(null);
+    if (!body) return;
+    const result = await call(sendJson<{ revision: number }>("POST", api, body));
+    if (result.ok) onSigned(result.data.revision);
+  }
+
+  return (
+    <form
+      className="space-y-4"
+      aria-label={`Sign the daily inspection report of ${day}`}
+      noValidate
+      onSubmit={(e) => {
+        e.preventDefault();
+        const data = new FormData(e.currentTarget);
+        const value = (name: string) => String(data.get(name) ?? "");
+        setPending({
+          signerName: value("signerName"),
+          licence: value("licence"),
+          statement: value("statement"),
+          remarks: value("remarks"),
+          // Not chosen is sent as not chosen: the server names the field.
+          ...(data.get("conformance") !== null && { conformance: value("conformance") }),
+          witness: groups.map((g, i) => ({
+            pourId: g.pourId,
+            group: g.group,
+            ...(data.get(`witness.${i}.extent`) !== null && { extent: value(`witness.${i}.extent`) }),
+            witnessedBy: value(`witness.${i}.witnessedBy`),
+            note: value(`witness.${i}.note`),
+          })),
+        });
+      }}
+    >
+      <FormMessage tone="error">{message?.text}</FormMessage>
+
+      <fieldset className="space-y-3" aria-describedby={id("witness-error")}>
+        <legend className="text-lead font-bold">What you witnessed</legend>
+        {groups.length === 0 && <p className="text-ink-soft">No tendon was stressed this day.</p>}
+        <FieldError id={id("witness-error")} messages={fields.witness} />
+        {groups.map((g, i) => {
+          const was = before(g);
+          const err = (name: string) => fields[`witness.${i}.${name}`];
+          return (
+            <fieldset
+              key={`${g.pourId}|${g.group}`}
+              className="space-y-2 rounded-md border border-concrete-300 p-3"
+              data-witness-group={g.label}
+            >
+              <legend className="px-1 font-semibold">
+                {g.label}: {g.stressed}
+              </legend>
+              <div
+                className="flex flex-wrap gap-2"
+                role="radiogroup"
+                aria-label={`How much of ${g.label} you witnessed`}
+              >
+                {WITNESS_EXTENTS.map((extent) => (
+                  <label
+                    key={extent}
+                    className="flex min-h-12 cursor-pointer items-center gap-2 rounded-md border-2 border-concrete-400 px-3 has-[:checked]:border-ink has-[:checked]:bg-concrete-100"
+                  >
+                    <input
+                      type="radio"
+                      name={`witness.${i}.extent`}
+                      value={extent}
+                      defaultChecked={was?.extent === extent}
+                      className="h-5 w-5"
+                    />
+                    {EXTENT_BUTTONS[extent]}
+                  </label>
+                ))}
+              </div>
+              <FieldError
+                id={id(`witness-${i}-extent-error`)}
+                messages={[...(err("extent") ?? []), ...(err("group") ?? [])]}
+              />
+              <div className="grid gap-2 md:grid-cols-2">
+                <div>
+                  <label htmlFor={id(`witness-${i}-by`)} className="field-label">
+                    Witnessed by
+                  </label>
+                  <input
+                    id={id(`witness-${i}-by`)}
+                    name={`witness.${i}.witnessedBy`}
+                    defaultValue={was?.witnessedBy ?? signerName}
+                    className="field-input mt-1"
+                    aria-describedby={id(`witness-${i}-by-error`)}
+                  />
+                  <FieldError id={id(`witness-${i}-by-error`)} messages={err("witnessedBy")} />
+                </div>
+                <div>
+                  <label htmlFor={id(`witness-${i}-note`)} className="field-label">
+                    Which part, or why not
+                  </label>
+                  <input
+                    id={id(`witness-${i}-note`)}
+                    name={`witness.${i}.note`}
+                    defaultValue={was?.note ?? ""}
+                    className="field-input mt-1"
+                    aria-describedby={id(`witness-${i}-note-error`)}
+                  />
+                  <FieldError id={id(`witness-${i}-note-error`)} messages={err("note")} />
+                </div>
+              </div>
+            </fieldset>
+          );
+        })}
+      </fieldset>
+
+      <fieldset className="space-y-2" aria-describedby={id("conformance-error")}>
+        <legend className="text-lead font-bold">Statement of conformance</legend>
+        <p className="text-ink-soft">Choose one; nothing is assumed.</p>
+        <div className="flex flex-wrap gap-2">
+          {(
+            [
+              ["conforming", "The work was in conformance"],
+              ["not_conforming", "The work was not in conformance"],
+            ] as const
+          ).map(([value, words]) => (
+            <label
+              key={value}
+              className="flex min-h-12 cursor-pointer items-center gap-2 rounded-md border-2 border-concrete-400 px-3 has-[:checked]:border-ink has-[:checked]:bg-concrete-100"
+            >
+              <input
+                type="radio"
+                name="conformance"
+                value={value}
+                className="h-5 w-5"
+                onChange={() => setConformance(value)}
+              />
+              {words}
+            </label>
+          ))}
+        </div>
+        <FieldError id={id("conformance-error")} messages={fields.conformance} />
+        {exceptions.length > 0 ? (
+          <div className={conformance === "not_conforming" ? "font-semibold" : "text-ink-soft"}>
+            <p>
+              Open exceptions of the day&apos;s work{conformance === "not_conforming" ? ", listed on the report" : ""}:
+            </p>
+            <ul className="list-disc pl-6" data-testid="open-exceptions">
+              {exceptions.map((x) => (
+                <li key={x}>{x}</li>
+              ))}
+            </ul>
+          </div>
+        ) : (
+          <p className="text-ink-soft">No exception of the day&apos;s work is open.</p>
+        )}
+      </fieldset>
+
+      <div>
+        <label htmlFor={id("remarks")} className="field-label">
+          Your remarks for the day
+        </label>
+        <p id={id("remarks-hint")} className="text-label text-ink-soft">
+          What you observed that the records do not say: weather, access, what you asked for. Printed on the report;
+          changing them needs a new signature.
+        </p>
+        <textarea
+          id={id("remarks")}
+          name="remarks"
+          rows={3}
+          defaultValue={remarks}
+          className="field-input mt-1 py-2"
+          aria-describedby={`${id("remarks-hint")} ${id("remarks-error")}`}
+        />
+        <FieldError id={id("remarks-error")} messages={fields.remarks} />
+      </div>
+      <div className="grid gap-3 md:grid-cols-2">
+        <div>
+          <label htmlFor={id("sign-name")} className="field-label">
+            Your name as you sign
+          </label>
+          <input
+            id={id("sign-name")}
+            name="signerName"
+            defaultValue={signerName}
+            className="field-input mt-1"
+            aria-describedby={id("sign-name-error")}
+          />
+          <FieldError id={id("sign-name-error")} messages={fields.signerName} />
+        </div>
+        <div>
+          <label htmlFor={id("sign-licence")} className="field-label">
+            Licence or certification number
+          </label>
+          <input
+            id={id("sign-licence")}
+            name="licence"
+            className="field-input mt-1"
+            aria-describedby={id("sign-licence-error")}
+          />
+          <FieldError id={id("sign-licence-error")} messages={fields.licence} />
+        </div>
+      </div>
+      <div>
+        <label htmlFor={id("sign-statement")} className="field-label">
+          Statement
+        </label>
+        <textarea
+          id={id("sign-statement")}
+          name="statement"
+          rows={3}
+          defaultValue={defaultStatement}
+          className="field-input mt-1 py-2"
+          aria-describedby={id("sign-statement-error")}
+        />
+        <FieldError id={id("sign-statement-error")} messages={fields.statement} />
+      </div>
+      <button type="submit" className="btn-primary min-h-12" disabled={busy}>
+        {busy ? "Signing…" : `Sign revision ${nextRevision} of ${day}`}
+      </button>
+      <ConfirmDialog
+        open={pending !== null}
+        title={`Sign revision ${nextRevision} of ${day}?`}
+        confirmLabel="Sign"
+        onConfirm={() => void sign()}
+        onCancel={() => setPending(null)}
+      >
+        <p>
+          Your typed name, licence and statement sign the day&apos;s report as it stands, with what you state was
+          witnessed and{" "}
+          {conformance === "not_conforming"
+            ? "that the work was NOT in conformance"
+            : conformance
+              ? "that the work was in conformance"
+              : "your statement of conformance"}
+          .
+        </p>
+        <p>The signed copy is frozen; a later change needs a new revision and a new signature.</p>
+      </ConfirmDialog>
+    </form>
+  );
+}

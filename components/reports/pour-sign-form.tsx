@@ -1,0 +1,116 @@
+"use client";
+
+import { useState } from "react";
+import { ConfirmDialog } from "@/components/ui/confirm-dialog";
+import { FieldError, FormMessage } from "@/components/ui/form-message";
+import { sendJson } from "@/lib/client/send-json";
+import { useApiCall } from "@/lib/client/use-api-call";
+
+/**
+ * The inspector's signature of a pour's stressing report, the same in the office and on the
+ * tablet: typed name, licence or certification number and statement, then one confirmation before
+ * the signature is final. The server checks everything again and names the field of any fault.
+ */
+export function PourSignForm({
+  api,
+  pourName,
+  nextRevision,
+  signerName,
+  defaultStatement,
+  onSigned,
+  idPrefix = "sign",
+}: {
+  /** The pour's signatures endpoint. */
+  api: string;
+  pourName: string;
+  nextRevision: number;
+  signerName: string;
+  defaultStatement: string;
+  onSigned: (revision: number) => void;
+  idPrefix?: string;
+}) {
+  const { message, fields, busy, call } = useApiCall();
+  const [pending, setPending] = useState<Record<string, string> | null>(null);
+  const id = (name: string) => `${idPrefix}-${name}`;
+
+  async function sign() {
+    const body = pending;
+    setPending(null);
+    if (!body) return;
+    const result = await call(sendJson<{ revision: number }>("POST", api, body));
+    if (result.ok) onSigned(result.data.revision);
+  }
+
+  return (
+    <form
+      className="space-y-3"
+      aria-label={`Sign the stressing report of ${pourName}`}
+      noValidate
+      onSubmit={(e) => {
+        e.preventDefault();
+        const data = new FormData(e.currentTarget);
+        setPending({
+          signerName: String(data.get("signerName") ?? ""),
+          licence: String(data.get("licence") ?? ""),
+          statement: String(data.get("statement") ?? ""),
+        });
+      }}
+    >
+      <FormMessage tone="error">{message?.text}</FormMessage>
+      <div className="grid gap-3 md:grid-cols-2">
+        <div>
+          <label htmlFor={id("name")} className="field-label">
+            Your name as you sign
+          </label>
+          <input
+            id={id("name")}
+            name="signerName"
+            defaultValue={signerName}
+            className="field-input mt-1"
+            aria-describedby={id("name-error")}
+          />
+          <FieldError id={id("name-error")} messages={fields.signerName} />
+        </div>
+        <div>
+          <label htmlFor={id("licence")} className="field-label">
+            Licence or certification number
+          </label>
+          <input
+            id={id("licence")}
+            name="licence"
+            className="field-input mt-1"
+            aria-describedby={id("licence-error")}
+          />
+          <FieldError id={id("licence-error")} messages={fields.licence} />
+        </div>
+      </div>
+      <div>
+        <label htmlFor={id("statement")} className="field-label">
+          Statement
+        </label>
+        <textarea
+          id={id("statement")}
+          name="statement"
+          rows={3}
+          defaultValue={defaultStatement}
+          className="field-input mt-1 py-2"
+          aria-describedby={id("statement-error")}
+        />
+        <FieldError id={id("statement-error")} messages={fields.statement} />
+      </div>
+      <button type="submit" className="btn-primary min-h-12" disabled={busy}>
+        {busy ? "Signing…" : `Sign revision ${nextRevision}`}
+      </button>
+      <ConfirmDialog
+        open={pending !== null}
+        title={`Sign revision ${nextRevision} of the stressing report of ${pourName}?`}
+        confirmLabel="Sign"
+        onConfirm={() => void sign()}
+        onCancel={() => setPending(null)}
+      >
+        <p>Your typed name, licence and statement sign the report as it stands now.</p>
+        <p>The signed copy is frozen; a later change needs a new revision and a new signature.</p>
+      </ConfirmDialog>
+    </form>
+  );
+}
