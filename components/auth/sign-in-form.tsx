@@ -1,9 +1,16 @@
 "use client";
 
-import { signIn } from "next-auth/react";
+import type { SignInOptions, SignInResponse } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { FormMessage } from "@/components/ui/form-message";
+
+// next-auth's client code loads only when a button is pressed, not with the page: the page's
+// first load stays the framework's, and the form is usable as soon as it is drawn.
+async function signIn(provider: "credentials" | "email", options: SignInOptions): Promise<SignInResponse | undefined> {
+  const { signIn: send } = await import("next-auth/react");
+  return send<typeof provider>(provider, options);
+}
 
 // The same words for every failure, so the form never tells whether an account exists.
 const FAILED =

@@ -1,8 +1,17 @@
 "use client";
 
-import { CartesianGrid, ComposedChart, Line, ResponsiveContainer, Scatter, XAxis, YAxis } from "recharts";
+import dynamic from "next/dynamic";
+import { PlotLoading } from "@/components/ui/plot-loading";
 
-/** The certificate's points and the fitted line, in display units. */
+const CalibrationPlot = dynamic(() => import("./calibration-plot").then((m) => m.CalibrationPlot), {
+  ssr: false,
+  loading: PlotLoading,
+});
+
+/**
+ * The certificate's points and the fitted line, in display units. The box and its text alternative
+ * come with the page; the drawing (recharts) loads after it.
+ */
 export function CalibrationChart(props: {
   points: { p: number; f: number }[];
   line: { p: number; f: number }[];
@@ -12,28 +21,12 @@ export function CalibrationChart(props: {
 }) {
   return (
     <div className="h-48 w-full" role="img" aria-label={props.label}>
-      <ResponsiveContainer width="100%" height="100%">
-        <ComposedChart margin={{ top: 8, right: 12, bottom: 18, left: 4 }}>
-          <CartesianGrid stroke="#c3c0b6" strokeDasharray="3 3" />
-          <XAxis
-            dataKey="p"
-            type="number"
-            domain={[0, "dataMax"]}
-            tickFormatter={(v: number) => v.toFixed(0)}
-            label={{ value: props.pressureUnit, position: "insideBottom", offset: -8 }}
-          />
-          <YAxis
-            dataKey="f"
-            type="number"
-            domain={[0, "auto"]}
-            allowDataOverflow
-            tickFormatter={(v: number) => v.toFixed(0)}
-            label={{ value: props.forceUnit, angle: -90, position: "insideLeft" }}
-          />
-          <Line data={props.line} dataKey="f" stroke="#14213d" strokeWidth={2} dot={false} isAnimationActive={false} />
-          <Scatter data={props.points} dataKey="f" fill="#8a4b00" isAnimationActive={false} />
-        </ComposedChart>
-      </ResponsiveContainer>
+      <CalibrationPlot
+        points={props.points}
+        line={props.line}
+        pressureUnit={props.pressureUnit}
+        forceUnit={props.forceUnit}
+      />
     </div>
   );
 }

@@ -1,4 +1,5 @@
 "use client";
+import dynamic from "next/dynamic";
 import { useMemo, useState, useSyncExternalStore } from "react";
 import { readMeta, type LocalRecord, type SessionMeta } from "@/lib/offline/db";
 import {
@@ -16,13 +17,25 @@ import { stressedEnds } from "@/lib/stressing/basis";
 import { showLength, showPressure } from "@/lib/stressing/display";
 import { DecisionNotices } from "./decision-notices";
 import { useField } from "./field-provider";
-import { HoldPanel } from "./hold-panel";
 import { PourReleaseNote } from "./pour-release-note";
 import { concreteGateMet } from "@/lib/stressing/concrete-strength";
-import { RecordForm } from "./record-form";
 import { CutAllClear, TailCutPanel } from "./tail-cut";
 import { useLive } from "./use-live";
 import { units, VerdictPanel } from "./verdict-panel";
+
+// The record form and its checks (zod, react-hook-form) and the hold panel with its lift-off check
+// load once a tendon is chosen, not with the tendon list; the offline worker keeps their chunks with
+// the page's, so this works without signal.
+const RecordForm = dynamic(() => import("./record-form").then((m) => m.RecordForm), {
+  ssr: false,
+  loading: () => (
+    <p className="card grid min-h-[24rem] place-items-center text-ink-soft" role="status">
+      Opening the record form…
+    </p>
+  ),
+});
+
+const HoldPanel = dynamic(() => import("./hold-panel").then((m) => m.HoldPanel), { ssr: false });
 
 const STATE_LOOK: Record<TendonState, { icon: string; cls: string }> = {
   "not stressed": { icon: "M6 12h12", cls: "border-concrete-400" },

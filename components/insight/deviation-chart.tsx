@@ -1,39 +1,20 @@
 "use client";
 
-import {
-  CartesianGrid,
-  Legend,
-  ReferenceLine,
-  ResponsiveContainer,
-  Scatter,
-  ScatterChart,
-  Tooltip,
-  XAxis,
-  YAxis,
-} from "recharts";
+import dynamic from "next/dynamic";
+import { PlotLoading } from "@/components/ui/plot-loading";
+import type { DeviationPoint } from "./verdict-marks";
+
+const DeviationPlot = dynamic(() => import("./deviation-plot").then((m) => m.DeviationPlot), {
+  ssr: false,
+  loading: PlotLoading,
+});
 
 /**
  * Deviation of each tendon against the band: tendon on x (in schedule order), deviation % on y,
- * the band's edges as lines, and each verdict with its own shape and its own colour.
+ * the band's edges as lines, and each verdict with its own shape and its own colour. The figure,
+ * its text alternative and its caption come with the page; the drawing (recharts) loads after it.
  */
-
-export interface DeviationPoint {
-  index: number;
-  tag: string;
-  deviationPct: number;
-  verdict: "in band" | "long" | "short";
-  provisional: boolean;
-}
-
-export const VERDICT_MARKS = {
-  "in band": { name: "In band (circle)", shape: "circle", colour: "#1d6b3a" },
-  long: { name: "Long (triangle)", shape: "triangle", colour: "#8a4b00" },
-  short: { name: "Short (square)", shape: "square", colour: "#1f4e99" },
-} as const;
-
 export function DeviationChart({ points, tolerancePct }: { points: DeviationPoint[]; tolerancePct: number }) {
-  const extent = Math.max(tolerancePct * 1.6, ...points.map((p) => Math.abs(p.deviationPct) + 1));
-  const tagAt = (i: number) => points.find((p) => p.index === i)?.tag ?? "";
   return (
     <figure>
       <div
@@ -42,68 +23,7 @@ export function DeviationChart({ points, tolerancePct }: { points: DeviationPoin
         aria-label={`Deviation of ${points.length} tendons from their predicted elongation, against the ±${tolerancePct} % band`}
         data-chart="deviation"
       >
-        <ResponsiveContainer width="100%" height="100%">
-          <ScatterChart margin={{ top: 10, right: 48, bottom: 30, left: 16 }}>
-            <CartesianGrid stroke="#c3c0b6" strokeDasharray="3 3" />
-            <XAxis
-              dataKey="index"
-              type="number"
-              domain={[0, points.length + 1]}
-              allowDecimals={false}
-              tickFormatter={(v: number) => tagAt(v)}
-              label={{ value: "tendon, in schedule order", position: "insideBottom", offset: -18 }}
-            />
-            <YAxis
-              dataKey="deviationPct"
-              type="number"
-              domain={[-Math.ceil(extent), Math.ceil(extent)]}
-              tickFormatter={(v: number) => `${v > 0 ? "+" : ""}${v} %`}
-              label={{ value: "deviation, %", angle: -90, position: "left", offset: 0 }}
-            />
-            <ReferenceLine
-              y={tolerancePct}
-              stroke="#14213d"
-              strokeWidth={2}
-              strokeDasharray="6 4"
-              label={{ value: `+${tolerancePct} %`, position: "right", fill: "#14213d" }}
-            />
-            <ReferenceLine y={0} stroke="#77746a" />
-            <ReferenceLine
-              y={-tolerancePct}
-              stroke="#14213d"
-              strokeWidth={2}
-              strokeDasharray="6 4"
-              label={{ value: `−${tolerancePct} %`, position: "right", fill: "#14213d" }}
-            />
-            <Tooltip
-              cursor={{ strokeDasharray: "3 3" }}
-              formatter={(value, name) => (name === "deviation" ? `${Number(value).toFixed(1)} %` : String(value))}
-              labelFormatter={() => ""}
-              content={({ payload }) => {
-                const p = payload?.[0]?.payload as DeviationPoint | undefined;
-                if (!p) return null;
-                return (
-                  <div className="rounded-md border-2 border-ink bg-white p-2 text-label">
-                    <strong>{p.tag}</strong>: {p.deviationPct >= 0 ? "+" : "−"}
-                    {Math.abs(p.deviationPct).toFixed(1)} %, {p.verdict}
-                    {p.provisional ? " (provisional)" : ""}
-                  </div>
-                );
-              }}
-            />
-            <Legend verticalAlign="top" />
-            {(Object.keys(VERDICT_MARKS) as (keyof typeof VERDICT_MARKS)[]).map((v) => (
-              <Scatter
-                key={v}
-                name={VERDICT_MARKS[v].name}
-                data={points.filter((p) => p.verdict === v)}
-                fill={VERDICT_MARKS[v].colour}
-                shape={VERDICT_MARKS[v].shape}
-                isAnimationActive={false}
-              />
-            ))}
-          </ScatterChart>
-        </ResponsiveContainer>
+        <DeviationPlot points={points} tolerancePct={tolerancePct} />
       </div>
       <figcaption className="mt-1 text-label text-ink-faint">
         Dashed lines: the ±{tolerancePct} % band. Circle: in band; triangle: long; square: short. Hover a mark for its

@@ -1,8 +1,17 @@
 "use client";
 
-import { Bar, BarChart, CartesianGrid, Cell, LabelList, ResponsiveContainer, XAxis, YAxis } from "recharts";
+import dynamic from "next/dynamic";
+import { PlotLoading } from "@/components/ui/plot-loading";
 
-/** The pour's progress: tendons stressed, with open flags, and released, out of the schedule. */
+const ProgressPlot = dynamic(() => import("./progress-plot").then((m) => m.ProgressPlot), {
+  ssr: false,
+  loading: PlotLoading,
+});
+
+/**
+ * The pour's progress: tendons stressed, with open flags, and released, out of the schedule. The
+ * figure and its text alternative come with the page; the drawing (recharts) loads after it.
+ */
 export function ProgressChart({
   tendons,
   stressed,
@@ -14,11 +23,6 @@ export function ProgressChart({
   flagged: number;
   released: number;
 }) {
-  const data = [
-    { label: "Stressed", value: stressed, fill: "#14213d" },
-    { label: "With open flags", value: flagged, fill: "#a3181b" },
-    { label: "Released", value: released, fill: "#1d6b3a" },
-  ];
   return (
     <figure>
       <div
@@ -27,19 +31,7 @@ export function ProgressChart({
         aria-label={`${stressed} of ${tendons} tendons stressed, ${flagged} with open flags, ${released} released`}
         data-chart="progress"
       >
-        <ResponsiveContainer width="100%" height="100%">
-          <BarChart data={data} layout="vertical" margin={{ top: 4, right: 48, bottom: 4, left: 24 }}>
-            <CartesianGrid stroke="#c3c0b6" strokeDasharray="3 3" horizontal={false} />
-            <XAxis type="number" domain={[0, Math.max(1, tendons)]} allowDecimals={false} />
-            <YAxis type="category" dataKey="label" width={130} />
-            <Bar dataKey="value" isAnimationActive={false}>
-              {data.map((d) => (
-                <Cell key={d.label} fill={d.fill} />
-              ))}
-              <LabelList dataKey="value" position="right" fill="#14213d" />
-            </Bar>
-          </BarChart>
-        </ResponsiveContainer>
+        <ProgressPlot tendons={tendons} stressed={stressed} flagged={flagged} released={released} />
       </div>
       <figcaption className="mt-1 text-label text-ink-faint">Out of {tendons} tendons on the schedule.</figcaption>
     </figure>

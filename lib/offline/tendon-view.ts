@@ -12,7 +12,7 @@ import type {
   FieldStrandLot,
   FieldTendon,
 } from "@/lib/schemas/sync";
-import { pickCalibration } from "@/lib/schemas/calibration";
+import { pickCalibration } from "@/lib/schemas/pick-calibration";
 import type { LocalRecord, LocalVerdict } from "./db";
 
 /**

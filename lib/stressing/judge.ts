@@ -10,7 +10,7 @@ import {
   type Verdict,
 } from "@/lib/elongation";
 import { dayInZone } from "@/lib/format/dates";
-import { pickCalibration } from "@/lib/schemas/calibration";
+import { pickCalibration } from "@/lib/schemas/pick-calibration";
 import { resolutionStepMm } from "@/lib/units";
 import { strandValues, type LotBasis, type ProjectBasis, type StrandValues, type TendonBasis } from "./basis";
 import { readingResolution, type DisplayUnits } from "./display";

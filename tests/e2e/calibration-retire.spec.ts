@@ -41,6 +41,13 @@ test("the admin retires a calibration with a reason from the equipment page", as
   await page.goto(`/projects/${projectId}/equipment`);
   const card = page.locator("li.card").filter({ hasText: `Zeta retire set ${stamp}` });
   await expect(card).toContainText("calibrated 2026-11-20");
+  // The calibration chart: its box is named with the page, its drawing (recharts) loads after it.
+  const chart = card.getByRole("img", {
+    name: new RegExp(`^Calibration of Zeta retire set ${stamp}.*: 5 points and the fitted line$`),
+  });
+  await expect(chart.locator("svg.recharts-surface")).toBeVisible();
+  await expect(chart.locator(".recharts-scatter-symbol")).toHaveCount(5);
+  await screenshot(page, "equipment-calibration-chart");
   await card.getByText("Retire this calibration…").click();
   await card.getByLabel("Why it is retired").fill("bad");
   await card.getByRole("button", { name: "Retire the calibration of 2026-11-20" }).click();

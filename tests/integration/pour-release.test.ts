@@ -14,6 +14,7 @@ import { recordDisposition } from "@/lib/server/record-disposition";
 import { listConcreteResults } from "@/lib/server/list-concrete-results";
 import { releasePour } from "@/lib/server/release-pour";
 import { reopenPour } from "@/lib/server/reopen-pour";
+import { pourReportContentSha256 } from "@/lib/server/sign-pour-report";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 import { buildWorld, createOp, type SyncWorld } from "./sync-fixtures";
 
@@ -416,5 +417,112 @@ describe("decisions sync down", () => {
         },
       ],
     });
+  });
+});
+
+describe("the release's report hash", () => {
+  /** A pour of our own with one one-end tendon copied from the demo schedule, stressed in band. */
+  async function stressedPour(name: string): Promise<{ pourId: string; tendonId: string }> {
+    const source = w.tendons.find((x) => x.ends === "A")!;
+    const s = await t.db.selectFrom("tendons").selectAll().where("id", "=", source.id).executeTakeFirstOrThrow();
+    const demoPour = await t.db
+      .selectFrom("pours")
+      .select(["concrete_strength_mpa"])
+      .where("id", "=", w.pourId)
+      .executeTakeFirstOrThrow();
+    const pour = await t.db
+      .insertInto("pours")
+      .values({ project_id: w.projectId, name, concrete_strength_mpa: demoPour.concrete_strength_mpa })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    const tendon = await t.db
+      .insertInto("tendons")
+      .values({
+        project_id: s.project_id,
+        pour_id: pour.id,
+        tag: "HT-1",
+        kind: s.kind,
+        strand_size: s.strand_size,
+        strand_count: s.strand_count,
+        segments: JSON.stringify(s.segments),
+        ends: s.ends,
+        jack_grip_mm: s.jack_grip_mm,
+        strand_lot_id: s.strand_lot_id,
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    const op = createOp(w, tendon.id, { marksAfter: await w.inBandAfter(tendon.id) }, { pourId: pour.id });
+    const pushed = await pushOps(app, { user: w.crew, deviceId: DEVICE, ops: [op] });
+    expect(pushed.results[0]).toMatchObject({ status: "applied", evaluation: { verdict: "in band" } });
+    return { pourId: pour.id, tendonId: tendon.id };
+  }
+  const release = (pour: string, hooks?: Parameters<typeof releasePour>[1]["hooks"]) =>
+    releasePour(t.db, {
+      projectId: w.projectId,
+      pourId: pour,
+      by: engineer(),
+      statement: "Tendon in band; tails may be cut.",
+      signerName: "Dana Okafor",
+      licence: "PE 048213 (invented)",
+      hooks,
+    });
+
+  it("is the report drawn before the lock when nothing changed in between", async () => {
+    const pour = await stressedPour("Hash pour, quiet");
+    const before = await pourReportContentSha256(t.db, { projectId: w.projectId, pourId: pour.pourId });
+    const released = await release(pour.pourId);
+    expect(released).toMatchObject({ contentSha256: before, redrawn: false });
+  });
+
+  it("covers a record that arrives between the draw and the lock: the report is drawn again under the lock", async () => {
+    const pour = await stressedPour("Hash pour, late record");
+    const before = await pourReportContentSha256(t.db, { projectId: w.projectId, pourId: pour.pourId });
+    let withLateRecord = "";
+    let lateRecordId = "";
+    const released = await release(pour.pourId, {
+      afterDraw: async () => {
+        // A paperwork correction stores a new record revision of the tendon while the report is drawn.
+        const record = await t.db
+          .selectFrom("records")
+          .select(["id", "measured_mm"])
+          .where("tendon_id", "=", pour.tendonId)
+          .executeTakeFirstOrThrow();
+        const corrected = await correctRecord(t.db, {
+          projectId: w.projectId,
+          recordId: record.id,
+          by: { id: people.inspector.id },
+          correction: { reason: "Copied from the wrong line.", measuredMm: record.measured_mm + 1 },
+        });
+        expect(corrected.evaluation).toMatchObject({ verdict: "in band" });
+        lateRecordId = corrected.recordId;
+        withLateRecord = await pourReportContentSha256(t.db, { projectId: w.projectId, pourId: pour.pourId });
+      },
+    });
+    expect(lateRecordId).not.toBe("");
+    expect(withLateRecord).not.toBe(before);
+    expect(released).toMatchObject({ contentSha256: withLateRecord, redrawn: true });
+    const stored = await t.db
+      .selectFrom("releases")
+      .select("content_sha256")
+      .where("id", "=", released.releaseId)
+      .executeTakeFirstOrThrow();
+    expect(stored.content_sha256).toBe(withLateRecord);
+  });
+
+  it("draws nothing for a release that is refused", async () => {
+    const pour = await stressedPour("Hash pour, refused");
+    let drawn = false;
+    await expect(
+      releasePour(t.db, {
+        projectId: w.projectId,
+        pourId: pour.pourId,
+        by: { ...people.inspector, role: "inspector" },
+        statement: "Inspector release.",
+        signerName: "Dana Okafor",
+        licence: "PE 048213 (invented)",
+        hooks: { afterDraw: () => void (drawn = true) },
+      }),
+    ).rejects.toMatchObject({ code: "FORBIDDEN" });
+    expect(drawn).toBe(false);
   });
 });
