@@ -28,7 +28,8 @@ const pointsText = (points: CalibrationPoint[], us: boolean) =>
     )
     .join("\n");
 
-function resolver(us: boolean) {
+/** The boxes read in the project's units; the certificate file stays the one on record. */
+function resolver(us: boolean, certificateAttachmentId: string | null) {
   return formResolver(
     {
       calibratedOn: z.string(),
@@ -46,6 +47,7 @@ function resolver(us: boolean) {
       validUntil: v.validUntil || null,
       points: v.pointsText ?? [],
       laboratory: v.laboratory?.trim() || null,
+      certificateAttachmentId,
       reason: v.reason ?? "",
     }),
     z.intersection(calibrationSchema, z.object({ reason: calibrationCorrectionSchema.shape.reason })),
@@ -81,7 +83,7 @@ export function CorrectCalibration(props: {
   const [preview, setPreview] = useState<CalibrationCorrectionPreview | null>(null);
   const [busy, setBusy] = useState(false);
   const form = useForm<Boxes, unknown, Corrected>({
-    resolver: resolver(props.us),
+    resolver: resolver(props.us, c.certificateAttachmentId),
     defaultValues: {
       calibratedOn: c.calibratedOn,
       validUntil: "",

@@ -101,7 +101,7 @@ export function EquipmentList({
                   {s.history.length > 1 && (
                     <p className="text-label text-ink-faint">{s.history.length - 1} earlier calibration(s) kept.</p>
                   )}
-                  <CorrectCalibration projectId={projectId} setId={s.id} calibration={c} us={us} />
+                  <CorrectCalibration key={c.id} projectId={projectId} setId={s.id} calibration={c} us={us} />
                   <RetireCalibration
                     projectId={projectId}
                     setId={s.id}

@@ -19,6 +19,7 @@ test("the inspector signs the day's report and a pour's stressing report on the 
        from records r join projects p on p.id = r.project_id join pours po on po.id = r.pour_id
       where p.code = 'AYP'
         and not exists (select 1 from report_revisions v where v.pour_id = po.id)
+        and po.name <> 'L2 Pour 1' -- signed-report.spec.ts signs that one first
       order by 1, 2
       limit 1`,
   );

@@ -212,6 +212,21 @@ describe("the stressing report shows every stressing of every end", () => {
     expect(text).toMatch(/Disposition D-\d{4}: Restress/);
     expect(text).toContain("Concrete strength 4,000 psi confirmed");
     expect(text).toMatch(/Restressed as ordered by disposition D-\d{4}; the new evaluation/);
+    // The rest of issue 14's list for each record: the set's serials and its calibration with the
+    // certificate, the target pressure and the force from the calibration, the deviation, verdict
+    // basis and wire breaks; a summary first page and page numbers.
+    const e = s01[0]!.equipment;
+    expect(text).toContain(`jack ${e.jackSerial}, gauge ${e.gaugeSerial}, pump ${e.pumpSerial ?? "not recorded"}`);
+    const c = s01[0]!.calibration!;
+    expect(text).toContain(`${c.calibratedOn} to ${c.validUntil}`);
+    expect(text).toMatch(/certificate \S+|no certificate uploaded/);
+    expect(text).toMatch(/target: \d,?\d{3} psi/);
+    expect(text).toMatch(/\d+(\.\d+)? kip/);
+    expect(text).toMatch(/[+−]\d+\.\d %/);
+    expect(text).toContain("net of anchor set");
+    expect(text).toMatch(/wire breaks: \d/);
+    expect(text).toMatch(/Page 1 of \d+/);
+    expect(text.indexOf("Summary")).toBeLessThan(text.indexOf("1 original"));
     expect(text).not.toMatch(/[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}/);
     expect(text).not.toMatch(/MPa|mm²|\d\.\d{6,}/);
     // The same content draws the same bytes: nothing in the file depends on when it was drawn.
