@@ -4,6 +4,9 @@ import { createDb, type Db } from "@/db/connect";
 import type { DetensionPayload } from "@/lib/schemas/detension";
 import type { SyncOp } from "@/lib/schemas/sync";
 import type { TailCutPayload } from "@/lib/schemas/tail-cut";
+import { recordRows, RECORD_COLUMNS } from "@/lib/reports/pour-rows";
+import { getPourReport } from "@/lib/server/get-pour-report";
+import { getTendonCase } from "@/lib/server/get-tendon-case";
 import { pullChanges } from "@/lib/server/pull-changes";
 import { pushOps } from "@/lib/server/push-ops";
 import { recordDisposition } from "@/lib/server/record-disposition";
@@ -230,5 +233,40 @@ describe("a detension ordered by the engineer", () => {
     expect(mine[0]!.recordedByName).toBeTruthy();
     const later = await pullChanges(app, { user: crewSession(), cursor: pulled.cursor, pourIds: [held.pourId] });
     expect(later.detensions ?? []).toHaveLength(0);
+  });
+});
+
+describe("the office and the stressing report", () => {
+  it("show each detension in the tendon's record sequence, and whether it waits for its restress", async () => {
+    const report = await getPourReport(t.db, { projectId: w.projectId, pourId: held.pourId });
+    const col = (name: (typeof RECORD_COLUMNS)[number]) => RECORD_COLUMNS.indexOf(name);
+    const tagOf = async (id: string) =>
+      (await t.db.selectFrom("tendons").select("tag").where("id", "=", id).executeTakeFirstOrThrow()).tag;
+    const rowsOf = async (id: string) => {
+      const tag = await tagOf(id);
+      return recordRows(report).filter((r) => r[col("Tendon")] === tag);
+    };
+    const heldRows = await rowsOf(held.id);
+    expect(heldRows.map((r) => r[col("Stressing")])).toEqual([
+      expect.not.stringMatching(/Detension/),
+      expect.stringMatching(/^Detension \(ordered by disposition D-\d{4}\)$/),
+    ]);
+    expect(heldRows[1]![col("Verdict")]).toBe("Detensioned: restress required");
+    expect(heldRows[1]![col("Operator")]).toBe("R. Okafor");
+    expect(heldRows[1]![col("Final pressure")]).toBe("at release: 1200 psi");
+    expect(heldRows[1]![col("Readings as entered")]).toBe("1 strand detensioned");
+    // Detensioned between the first stressing and the restress.
+    const again = await rowsOf(restressed.id);
+    expect(again.map((r) => /Detension/.test(r[col("Stressing")]!))).toEqual([false, true, false]);
+    expect(again[1]![col("Verdict")]).toBe("Detensioned; stressed again after");
+    expect(again[1]![col("Final pressure")]).toBe("at release: not read");
+
+    const office = await getTendonCase(t.db, { projectId: w.projectId, tendonId: held.id });
+    expect(office.detensions).toHaveLength(1);
+    expect(office.detensions[0]!.disposition_id).toBe(held.dispositionId);
+    expect(office.awaitingRestress).toEqual(["A"]);
+    expect((await getTendonCase(t.db, { projectId: w.projectId, tendonId: restressed.id })).awaitingRestress).toEqual(
+      [],
+    );
   });
 });
