@@ -150,7 +150,9 @@ function DetensionForm(props: {
   const { tendon, project, sets, session } = props;
   const unit = entryUnitsFor(project.unitSystem).pressure;
   const timeZone = projectTimeZone(project);
-  const [when, setWhen] = useState(() => localInputValue(new Date(), timeZone));
+  // The box shows minutes; left as it was offered, the detension is stamped with the moment of saving.
+  const [offered] = useState(() => localInputValue(new Date(), timeZone));
+  const [when, setWhen] = useState(offered);
   const [operator, setOperator] = useState(session.name);
   const [setId, setSetId] = useState(sets.length === 1 ? sets[0]!.id : "");
   const [pressure, setPressure] = useState("");
@@ -170,7 +172,7 @@ function DetensionForm(props: {
   const submit = async (event: React.FormEvent) => {
     event.preventDefault();
     const found: Partial<Record<Field | "root", string>> = {};
-    const at = instantFromLocalInput(when, timeZone);
+    const at = when === offered ? new Date() : instantFromLocalInput(when, timeZone);
     if (!at) found.detensionedAt = "Give the date and time of the detension.";
     else if (at.getTime() > Date.now() + FUTURE_SLACK_MS)
       found.detensionedAt = "The detension cannot be in the future: give the time it was done.";
