@@ -113,6 +113,9 @@ function DetensionItem(props: {
   const typed = d.entered
     ? `${d.entered.pressure}${/[a-z]/i.test(d.entered.pressure) ? "" : ` ${d.entered.unit}`}`
     : null;
+  // The project's units beside what was typed, only when they read differently (a bare MPa on a psi job).
+  const shown =
+    d.releasePressureMPa !== null ? showPressure({ unitSystem: project.unitSystem }, d.releasePressureMPa) : null;
   return (
     <li className="grid gap-1 rounded-md border-2 border-concrete-500 bg-white p-3" data-testid="detension-item">
       <p className="font-semibold">
@@ -121,8 +124,8 @@ function DetensionItem(props: {
       </p>
       <p>
         Gauge at release:{" "}
-        {typed && d.releasePressureMPa !== null
-          ? `${typed} (${showPressure({ unitSystem: project.unitSystem }, d.releasePressureMPa)})`
+        {typed
+          ? `${typed}${shown && shown.replaceAll(",", "") !== typed.replaceAll(",", "") ? ` (${shown})` : ""}`
           : "not read"}
         {d.remarks ? ` · ${d.remarks}` : ""}
       </p>
