@@ -529,6 +529,27 @@ export interface LiftoffChecksTable {
   change_xid: Generated<string>;
 }
 
+/** A detension ordered by a disposition (decision detension_restress), as the crew reported it (never changed). */
+export interface DetensionsTable {
+  id: string;
+  project_id: string;
+  pour_id: string;
+  tendon_id: string;
+  disposition_id: string;
+  equipment_set_id: string;
+  operator_name: string;
+  /** The gauge pressure at release exactly as typed, with the unit a bare number was read in; null when not read. */
+  entered: ColumnType<{ pressure: string; unit: "psi" | "MPa" } | null, string | null, string | null>;
+  release_pressure_mpa: number | null;
+  strands_detensioned: number;
+  remarks: string | null;
+  detensioned_at: Timestamp;
+  recorded_by: string;
+  device_id: string;
+  received_at: Generated<Timestamp>;
+  change_xid: Generated<string>;
+}
+
 export interface Database {
   users: UsersTable;
   projects: ProjectsTable;
@@ -561,6 +582,7 @@ export interface Database {
   worker_heartbeats: WorkerHeartbeatsTable;
   tail_cuts: TailCutsTable;
   liftoff_checks: LiftoffChecksTable;
+  detensions: DetensionsTable;
 }
 
 export type User = Selectable<UsersTable>;

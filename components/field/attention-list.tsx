@@ -22,11 +22,13 @@ export function AttentionList() {
           <li key={entry.opId} className="rounded-md border border-concrete-300 p-3" data-testid="attention-item">
             <p className="font-bold">
               {tendon?.tag ?? "Tendon"} ·{" "}
-              {entry.kind === "liftoff_check" && "dispositionId" in entry.payload
-                ? `end ${entry.payload.tendonEnd} · lift-off check`
-                : "revision" in entry.payload
-                  ? `end ${entry.payload.tendonEnd} · revision ${entry.payload.revision}`
-                  : "tails cut"}{" "}
+              {entry.kind === "detension"
+                ? "detension"
+                : entry.kind === "liftoff_check" && "checkedAt" in entry.payload
+                  ? `end ${entry.payload.tendonEnd} · lift-off check`
+                  : "revision" in entry.payload
+                    ? `end ${entry.payload.tendonEnd} · revision ${entry.payload.revision}`
+                    : "tails cut"}{" "}
               — {entry.status === "conflict" ? "changed elsewhere first" : "refused"}
             </p>
             <p className="mt-1">{entry.error?.message}</p>

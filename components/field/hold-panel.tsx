@@ -1,6 +1,7 @@
 import { flagLabel } from "@/components/ui/verdict-badge";
 import { holdsOf } from "@/lib/offline/hold-view";
 import type { FieldFlag, FieldTendon } from "@/lib/schemas/sync";
+import { DetensionPanel } from "./detension";
 import { LiftoffCheckPanel } from "./liftoff-check";
 
 /**
@@ -15,7 +16,10 @@ export function HoldPanel({
 }: {
   flags: FieldFlag[];
   heldOnTablet: boolean;
-  /** Given, a lift-off check the engineer ordered opens here (components/field/liftoff-check.tsx). */
+  /**
+   * Given, a lift-off check the engineer ordered opens here (components/field/liftoff-check.tsx), and
+   * a detension (components/field/detension.tsx).
+   */
   tendon?: FieldTendon;
 }) {
   const holds = holdsOf(flags);
@@ -68,6 +72,7 @@ export function HoldPanel({
               What to do: {h.instruction}
             </p>
             {tendon && h.decision?.decision === "liftoff_check" && <LiftoffCheckPanel tendon={tendon} hold={h} />}
+            {tendon && h.decision?.decision === "detension_restress" && <DetensionPanel tendon={tendon} hold={h} />}
           </li>
         ))}
       </ul>

@@ -10,7 +10,7 @@ import {
   tendonState,
   type TendonState,
 } from "@/lib/offline/tendon-view";
-import { cutClearanceOf, holdsOf, holdSummary } from "@/lib/offline/hold-view";
+import { awaitingRestressOf, cutClearanceOf, holdsOf, holdSummary } from "@/lib/offline/hold-view";
 import { projectTimeZone } from "@/lib/format/dates";
 import type { FieldEvaluation, FieldFlag, FieldTendon } from "@/lib/schemas/sync";
 import { stressedEnds } from "@/lib/stressing/basis";
@@ -119,12 +119,28 @@ export function PourLog() {
       readMeta<SessionMeta>(db, "session"),
     ]);
     const ids = tendons.map((t) => t.id);
-    const [evaluations, flags, tailCuts] = await Promise.all([
+    const [evaluations, flags, tailCuts, liftoffChecks, detensions] = await Promise.all([
       db.evaluations.where("tendonId").anyOf(ids).toArray(),
       db.flags.where("tendonId").anyOf(ids).toArray(),
       db.tailCuts.where("pourId").equals(pourId).toArray(),
+      db.liftoffChecks.where("pourId").equals(pourId).toArray(),
+      db.detensions.where("pourId").equals(pourId).toArray(),
     ]);
-    return { pour, project, tendons, records, sets, calibrations, lots, session, evaluations, flags, tailCuts };
+    return {
+      pour,
+      project,
+      tendons,
+      records,
+      sets,
+      calibrations,
+      lots,
+      session,
+      evaluations,
+      flags,
+      tailCuts,
+      liftoffChecks,
+      detensions,
+    };
   }, [db, pourId]);
 
   if (!pourId) return <p className="card m-4">No pour was chosen. Go back to the field log and open one.</p>;
@@ -140,6 +156,7 @@ export function PourLog() {
     );
   }
   const { pour, project, tendons, records, sets, calibrations, lots, session, evaluations, flags, tailCuts } = data;
+  const { liftoffChecks, detensions } = data;
   const recordsOf = (t: FieldTendon) => records.filter((r) => r.tendonId === t.id);
   const states = new Map(
     tendons.map((t) => [
@@ -153,7 +170,27 @@ export function PourLog() {
     ]),
   );
   const flagsOf = (t: FieldTendon) => flags.filter((f) => f.tendonId === t.id);
-  const holdWords = new Map(tendons.map((t) => [t.id, holdSummary(holdsOf(flagsOf(t)))]));
+  // Ends a detensioned tendon waits to be stressed again at: it stays held until then.
+  const awaiting = new Map(
+    tendons.map((t) => [
+      t.id,
+      awaitingRestressOf(
+        t,
+        detensions.filter((d) => d.tendonId === t.id),
+        recordsOf(t),
+      ),
+    ]),
+  );
+  const holdWords = new Map(
+    tendons.map((t) => [
+      t.id,
+      holdSummary(holdsOf(flagsOf(t)), {
+        liftoffChecks: liftoffChecks.filter((c) => c.tendonId === t.id),
+        detensions: detensions.filter((d) => d.tendonId === t.id),
+        awaitingRestress: awaiting.get(t.id),
+      }),
+    ]),
+  );
   const cutOf = new Map(tailCuts.map((c) => [c.tendonId, c]));
   const clearance = new Map(
     tendons.map((t) => [
@@ -163,6 +200,7 @@ export function PourLog() {
         records: recordsOf(t),
         flags: flagsOf(t),
         heldOnTablet: states.get(t.id) === "flagged",
+        awaitingRestress: awaiting.get(t.id),
         project,
         pour,
       }),
@@ -293,7 +331,7 @@ export function PourLog() {
               >
                 <span className="grid">
                   <span className="font-bold wrap-anywhere">{t.tag}</span>
-                  {states.get(t.id) === "flagged" && (
+                  {(states.get(t.id) === "flagged" || Boolean(awaiting.get(t.id)?.length)) && (
                     <span className="text-label font-semibold text-signal-stop" data-testid="hold-summary">
                       Held · {holdWords.get(t.id) ?? "out of band on this tablet"}
                     </span>

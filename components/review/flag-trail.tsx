@@ -100,6 +100,9 @@ export function FlagTrail({
                       {item.d.decision === "liftoff_check" && (
                         <LiftoffChecks c={c} dispositionId={item.d.id} when={when} />
                       )}
+                      {item.d.decision === "detension_restress" && (
+                        <Detensions c={c} dispositionId={item.d.id} when={when} />
+                      )}
                     </li>
                   ),
                 )}
@@ -170,5 +173,60 @@ function LiftoffChecks({
         );
       })}
     </ul>
+  );
+}
+
+/** The detensions a disposition ordered, as the crew recorded them, beside it. */
+function Detensions({
+  c,
+  dispositionId,
+  when,
+}: {
+  c: TendonCase;
+  dispositionId: string;
+  when: (d: Date | string) => string;
+}) {
+  const detensions = c.detensions.filter((d) => d.disposition_id === dispositionId);
+  const p = c.basis.project;
+  if (!detensions.length)
+    return (
+      <p className="mt-2 text-label" data-testid="detension-none">
+        No detension has come in from the crew yet.
+      </p>
+    );
+  return (
+    <div className="mt-2 grid gap-2">
+      <ul className="grid gap-2" aria-label="Detensions">
+        {detensions.map((d) => {
+          const typed = d.entered
+            ? `${d.entered.pressure}${/[a-z]/i.test(d.entered.pressure) ? "" : ` ${d.entered.unit}`}`
+            : null;
+          const shown = d.release_pressure_mpa !== null ? showPressure(p, d.release_pressure_mpa) : null;
+          return (
+            <li key={d.id} className="rounded-md border-2 border-ink bg-white p-2" data-testid="detension-record">
+              <p className="font-bold">
+                Detensioned {when(d.detensioned_at)}: {d.strands_detensioned} of {c.basis.tendon.strandCount} strand
+                {c.basis.tendon.strandCount === 1 ? "" : "s"}
+              </p>
+              <p>
+                Gauge at release:{" "}
+                {typed
+                  ? `${typed}${shown && shown.replaceAll(",", "") !== typed.replaceAll(",", "") ? ` (${shown})` : ""}`
+                  : "not read"}
+                {d.remarks ? ` · ${d.remarks}` : ""}
+              </p>
+              <p className="text-label">
+                Jack run by {d.operator_name} · set {d.equipmentSet} · recorded by {d.recordedBy}
+              </p>
+            </li>
+          );
+        })}
+      </ul>
+      <p className="font-semibold" data-testid="detension-restress-state">
+        {c.awaitingRestress.length
+          ? `Held: restress required at end ${c.awaitingRestress.join(" and ")} (no record since the detension).`
+          : "Stressed again since the detension: the new record is judged above."}
+      </p>
+    </div>
   );
 }

@@ -1,5 +1,14 @@
 import { describe, expect, it } from "vitest";
-import { dayBounds, dayInZone, formatAge, formatDateTime, projectTimeZone, shiftDay } from "./dates";
+import {
+  dayBounds,
+  dayInZone,
+  formatAge,
+  formatDateTime,
+  instantFromLocalInput,
+  localInputValue,
+  projectTimeZone,
+  shiftDay,
+} from "./dates";
 
 describe("dates in the project's zone", () => {
   it("an evening record in Chicago belongs to that day, not to the next UTC day", () => {
@@ -41,5 +50,21 @@ describe("dates in the project's zone", () => {
     expect(shiftDay("2026-12-31", 1)).toBe("2027-01-01");
     expect(shiftDay("2026-03-01", -1)).toBe("2026-02-28");
     expect(shiftDay("2026-11-01", 1)).toBe("2026-11-02");
+  });
+});
+
+describe("a date-and-time box in the project's zone", () => {
+  it("shows and reads a moment in the zone, not in the browser's", () => {
+    // 2026-12-03T00:30Z is 18:30 on 2 Dec in Chicago (UTC−6 in December).
+    expect(localInputValue("2026-12-03T00:30:00Z", "America/Chicago")).toBe("2026-12-02T18:30");
+    expect(instantFromLocalInput("2026-12-02T18:30", "America/Chicago")?.toISOString()).toBe(
+      "2026-12-03T00:30:00.000Z",
+    );
+  });
+
+  it("reads nothing from a value that is not a date and time", () => {
+    expect(instantFromLocalInput("", "UTC")).toBeNull();
+    expect(instantFromLocalInput("2026-06-31T10:00", "UTC")).toBeNull();
+    expect(instantFromLocalInput("yesterday", "UTC")).toBeNull();
   });
 });

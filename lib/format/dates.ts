@@ -74,3 +74,22 @@ export function shiftDay(day: string, by: number): string {
   const [y, m, d] = day.split("-").map(Number) as [number, number, number];
   return format(addDays(new Date(y, m - 1, d), by), "yyyy-MM-dd");
 }
+
+/** "2026-12-02T14:05": a moment as a `datetime-local` box shows it, in the project's zone. */
+export function localInputValue(instant: Instant, timeZone: string): string {
+  return format(inZone(instant, timeZone), "yyyy-MM-dd'T'HH:mm");
+}
+
+/**
+ * The instant a `datetime-local` box's value ("2026-12-02T14:05") names in the project's zone; null
+ * when the value is not such a date and time.
+ */
+export function instantFromLocalInput(value: string, timeZone: string): Date | null {
+  const m = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})$/.exec(value.trim());
+  if (!m) return null;
+  const [y, mo, d, h, mi] = m.slice(1).map(Number) as [number, number, number, number, number];
+  if (mo < 1 || mo > 12 || d < 1 || d > 31 || h > 23 || mi > 59) return null;
+  const instant = new Date(new TZDate(y, mo - 1, d, h, mi, timeZone).getTime());
+  // A day past the month's end (31 June) rolls over: refuse it rather than move it.
+  return localInputValue(instant, timeZone) === value.trim() ? instant : null;
+}

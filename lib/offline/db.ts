@@ -1,5 +1,6 @@
 import Dexie, { type DexieOptions, type Table } from "dexie";
 import type { RecordPayload } from "@/lib/schemas/record";
+import type { DetensionPayload } from "@/lib/schemas/detension";
 import type { LiftoffPayload } from "@/lib/schemas/liftoff";
 import type { TailCutPayload } from "@/lib/schemas/tail-cut";
 import type { DecisionNotice } from "./decision-notices";
@@ -11,6 +12,7 @@ import type {
   FieldPour,
   FieldProject,
   FieldStrandLot,
+  FieldDetension,
   FieldLiftoffCheck,
   FieldLiftoffResult,
   FieldTailCut,
@@ -82,9 +84,10 @@ export interface OutboxEntry {
   baseVersion?: number;
   /**
    * A record for create and revise; a tails cut for tails_cut (its recordId is the cut's id); a
-   * lift-off check for liftoff_check (its recordId is the check's id).
+   * lift-off check for liftoff_check (its recordId is the check's id); a detension for detension
+   * (its recordId is the detension's id).
    */
-  payload: RecordPayload | TailCutPayload | LiftoffPayload;
+  payload: RecordPayload | TailCutPayload | LiftoffPayload | DetensionPayload;
   authorUserId: string;
   /** "pending" waits for a push; "attention" was refused by the server and waits for a person. */
   state: "pending" | "attention";
@@ -104,6 +107,11 @@ export interface LocalTailCut extends FieldTailCut {
 export interface LocalLiftoffCheck
   extends Omit<FieldLiftoffCheck, keyof FieldLiftoffResult | "pressureMPa">, Partial<FieldLiftoffResult> {
   pressureMPa: number;
+  syncState: "pending" | "synced" | "conflict" | "rejected";
+}
+
+/** A detension recorded here or pulled. */
+export interface LocalDetension extends FieldDetension {
   syncState: "pending" | "synced" | "conflict" | "rejected";
 }
 
@@ -177,6 +185,7 @@ export class FieldDb extends Dexie {
   photos!: Table<LocalPhoto, string>;
   tailCuts!: Table<LocalTailCut, string>;
   liftoffChecks!: Table<LocalLiftoffCheck, string>;
+  detensions!: Table<LocalDetension, string>;
   notices!: Table<LocalNotice, string>;
 
   constructor(name = "tautline-field", options?: DexieOptions) {
@@ -198,6 +207,8 @@ export class FieldDb extends Dexie {
     this.version(2).stores({ tailCuts: "tendonId, id, pourId" });
     // Version 3 adds the lift-off checks and the notices a sync brings; every table of version 2 is kept.
     this.version(3).stores({ liftoffChecks: "id, tendonId, pourId", notices: "id, pourId, arrivedAt" });
+    // Version 5 adds the detensions; every table of version 3 is kept.
+    this.version(5).stores({ detensions: "id, tendonId, pourId" });
   }
 }
 

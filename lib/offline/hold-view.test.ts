@@ -87,6 +87,62 @@ describe("holdSummary", () => {
   });
 });
 
+describe("holdSummary after the crew's follow-up", () => {
+  const order = (decision: "liftoff_check" | "detension_restress", id: string) =>
+    flag({
+      status: "with_engineer",
+      dispositions: [
+        { id, decision, reasons: "As instructed.", engineerName: "P. Raman", createdAt: "2026-12-02T16:00:00.000Z" },
+      ],
+    });
+  const check = (over: {
+    withinBand?: boolean;
+    syncState?: "pending" | "synced" | "rejected";
+    checkedAt?: string;
+  }) => ({
+    dispositionId: "d1",
+    checkedAt: "2026-12-02T17:00:00.000Z",
+    syncState: "synced" as const,
+    ...over,
+  });
+
+  it("says the lift-off result once it has come in, not the order again", () => {
+    const holds = holdsOf([order("liftoff_check", "d1")]);
+    expect(holdSummary(holds)).toBe("lift-off check ordered");
+    expect(holdSummary(holds, { liftoffChecks: [check({ syncState: "pending" })] })).toBe(
+      "lift-off check waiting to send",
+    );
+    expect(holdSummary(holds, { liftoffChecks: [check({ withinBand: true })] })).toBe(
+      "lift-off within band: engineer to decide",
+    );
+    // The latest check speaks: outside the band after an earlier one within it.
+    expect(
+      holdSummary(holds, {
+        liftoffChecks: [
+          check({ withinBand: false, checkedAt: "2026-12-02T18:00:00.000Z" }),
+          check({ withinBand: true }),
+        ],
+      }),
+    ).toBe("lift-off outside band: engineer to decide");
+    // A check answering another order does not count.
+    expect(holdSummary(holds, { liftoffChecks: [{ ...check({ withinBand: true }), dispositionId: "d0" }] })).toBe(
+      "lift-off check ordered",
+    );
+  });
+
+  it("says a detensioned tendon waits for its restress", () => {
+    const holds = holdsOf([order("detension_restress", "d2")]);
+    expect(holdSummary(holds, { detensions: [{ dispositionId: "d2" }], awaitingRestress: ["A"] })).toBe(
+      "detensioned: restress required",
+    );
+    expect(holdSummary(holds, { detensions: [{ dispositionId: "d2" }], awaitingRestress: [] })).toBe(
+      "detensioned and restressed: waiting for the verdict",
+    );
+    // Held for the detension even when no flag is open on this tablet.
+    expect(holdSummary([], { awaitingRestress: ["B"] })).toBe("detensioned: restress required");
+  });
+});
+
 describe("cutClearanceOf", () => {
   const clearCase = {
     tendon: { ends: "both" as const },

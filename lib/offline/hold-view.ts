@@ -1,6 +1,6 @@
 import type { FieldDisposition, FieldFlag, FieldPour, FieldProject, FieldTendon } from "@/lib/schemas/sync";
-import { tailClearance, type Clearance } from "@/lib/stressing/tail-clearance";
-import type { LocalRecord } from "./db";
+import { awaitingRestress, DETENSIONED_WORDS, tailClearance, type Clearance } from "@/lib/stressing/tail-clearance";
+import type { LocalDetension, LocalLiftoffCheck, LocalRecord } from "./db";
 
 /**
  * Why a tendon is held and what the crew is to do, in words, from the flags and the engineer's
@@ -13,7 +13,8 @@ export type Decision = FieldDisposition["decision"];
 export const DECISION_INSTRUCTIONS: Record<Decision, string> = {
   accept: "Accepted by the engineer of record.",
   restress: "Restress this tendon as the engineer instructs, then log it with “Record a restress”.",
-  detension_restress: "Detension this tendon, restress it as the engineer instructs, then log the restress.",
+  detension_restress:
+    "Detension this tendon as the engineer instructs and record it with “Record the detension”, then restress it and log the restress.",
   liftoff_check: "Do a lift-off check as the engineer instructs and report the lift-off gauge pressure.",
   replace: "Do not stress again or cut tails: the engineer orders this tendon replaced.",
   other: "Follow the engineer's instruction below.",
@@ -62,12 +63,56 @@ export function holdsOf(flags: FieldFlag[]): Hold[] {
     });
 }
 
-/** One line for the tendon list: what holds the tendon, e.g. "restress ordered" or "waiting for the engineer". */
-export function holdSummary(holds: Hold[]): string | null {
+/** What the tablet holds of the follow-up work on a tendon, for the words of its hold. */
+export interface FollowUps {
+  liftoffChecks?: Pick<LocalLiftoffCheck, "dispositionId" | "checkedAt" | "withinBand" | "syncState">[];
+  detensions?: Pick<LocalDetension, "dispositionId">[];
+  /** Ends not stressed again since the last detension (`awaitingRestressOf`). */
+  awaitingRestress?: readonly ("A" | "B")[];
+}
+
+/** How far the work an order asks for has come, in words; null while nothing has been done. */
+function progressOf(decision: FieldDisposition, followUps: FollowUps): string | null {
+  if (decision.decision === "liftoff_check") {
+    const last = (followUps.liftoffChecks ?? [])
+      .filter((c) => decision.id !== undefined && c.dispositionId === decision.id)
+      .sort((a, b) => a.checkedAt.localeCompare(b.checkedAt))
+      .at(-1);
+    if (!last) return null;
+    if (last.withinBand === true) return "lift-off within band: engineer to decide";
+    if (last.withinBand === false) return "lift-off outside band: engineer to decide";
+    return last.syncState === "pending" ? "lift-off check waiting to send" : "lift-off check needs attention";
+  }
+  if (decision.decision === "detension_restress") {
+    const done = (followUps.detensions ?? []).some((d) => decision.id !== undefined && d.dispositionId === decision.id);
+    return done ? "detensioned and restressed: waiting for the verdict" : null;
+  }
+  return null;
+}
+
+/**
+ * One line for the tendon list: what holds the tendon, e.g. "restress ordered", "lift-off within
+ * band: engineer to decide", "detensioned: restress required" or "waiting for the engineer".
+ */
+export function holdSummary(holds: Hold[], followUps: FollowUps = {}): string | null {
+  if (followUps.awaitingRestress?.length) return DETENSIONED_WORDS;
   if (!holds.length) return null;
   const ordered = holds.find((h) => h.decision && h.decision.decision !== "accept");
-  if (ordered?.decision) return DECISION_WORDS[ordered.decision.decision];
+  if (ordered?.decision) return progressOf(ordered.decision, followUps) ?? DECISION_WORDS[ordered.decision.decision];
   return holds.some((h) => h.status === "with_engineer") ? "with the engineer" : "waiting for the engineer";
+}
+
+/** The ends a detensioned tendon waits to be stressed again at, from the detensions and records on this tablet. */
+export function awaitingRestressOf(
+  tendon: Pick<FieldTendon, "ends">,
+  detensions: Pick<LocalDetension, "detensionedAt">[],
+  records: Pick<LocalRecord, "tendonEnd" | "deviceTime">[],
+): ("A" | "B")[] {
+  return awaitingRestress({
+    ends: tendon.ends,
+    detensionedAt: detensions.map((d) => d.detensionedAt),
+    records: records.map((r) => ({ tendonEnd: r.tendonEnd, stressedAt: r.deviceTime })),
+  });
 }
 
 /**
@@ -81,6 +126,8 @@ export function cutClearanceOf(input: {
   records: Pick<LocalRecord, "tendonEnd" | "syncState">[];
   flags: FieldFlag[];
   heldOnTablet: boolean;
+  /** Ends not stressed again since the tendon's last detension (`awaitingRestressOf`). */
+  awaitingRestress?: readonly ("A" | "B")[];
   project: Pick<FieldProject, "requiredConcreteMpa" | "unitSystem">;
   pour: Pick<FieldPour, "concreteStrengthMpa">;
 }): Clearance {
@@ -93,6 +140,7 @@ export function cutClearanceOf(input: {
     requiredConcreteMpa: input.project.requiredConcreteMpa ?? null,
     concreteStrengthMpa: input.pour.concreteStrengthMpa ?? null,
     unitSystem: input.project.unitSystem,
+    awaitingRestress: input.awaitingRestress,
   });
   const reasons = [...shared.reasons];
   if (input.records.some((r) => r.syncState !== "synced"))

@@ -1,9 +1,18 @@
 import { uuidv7 } from "uuidv7";
 import type { RecordPayload } from "@/lib/schemas/record";
+import type { DetensionPayload } from "@/lib/schemas/detension";
 import type { LiftoffPayload } from "@/lib/schemas/liftoff";
 import type { TailCutPayload } from "@/lib/schemas/tail-cut";
 import type { OpResult } from "@/lib/schemas/sync";
-import type { FieldDb, LocalLiftoffCheck, LocalPhoto, LocalRecord, LocalVerdict, OutboxEntry } from "./db";
+import type {
+  FieldDb,
+  LocalDetension,
+  LocalLiftoffCheck,
+  LocalPhoto,
+  LocalRecord,
+  LocalVerdict,
+  OutboxEntry,
+} from "./db";
 
 /**
  * The durable outbox. A record and its operation are written in one IndexedDB transaction, so a
@@ -123,7 +132,7 @@ export async function applyPushResults(
 ): Promise<{ confirmed: number; attention: number }> {
   let confirmed = 0;
   let attention = 0;
-  await db.transaction("rw", [db.outbox, db.records, db.tailCuts, db.liftoffChecks], async () => {
+  await db.transaction("rw", [db.outbox, db.records, db.tailCuts, db.liftoffChecks, db.detensions], async () => {
     for (const result of results) {
       const entry = await db.outbox.where("opId").equals(result.opId).first();
       if (!entry || entry.state !== "pending") continue;
@@ -150,6 +159,11 @@ export async function applyPushResults(
           confirmed++;
           continue;
         }
+        if (entry.kind === "detension") {
+          await db.detensions.update(entry.recordId, { syncState: "synced" });
+          confirmed++;
+          continue;
+        }
         await db.records.update(entry.recordId, {
           syncState: "synced",
           ...(result.evaluation ? { server: result.evaluation } : {}),
@@ -169,6 +183,7 @@ export async function applyPushResults(
           await db.tailCuts.where("id").equals(entry.recordId).modify({ syncState: result.status });
         else if (entry.kind === "liftoff_check")
           await db.liftoffChecks.update(entry.recordId, { syncState: result.status });
+        else if (entry.kind === "detension") await db.detensions.update(entry.recordId, { syncState: result.status });
         else await db.records.update(entry.recordId, { syncState: result.status });
         attention++;
       }
@@ -214,13 +229,14 @@ export async function outboxStatus(db: FieldDb): Promise<OutboxStatus> {
  * person has dealt with the cause, say by signing in as its author.
  */
 export async function requeue(db: FieldDb, opId: string): Promise<void> {
-  await db.transaction("rw", [db.outbox, db.records, db.tailCuts, db.liftoffChecks], async () => {
+  await db.transaction("rw", [db.outbox, db.records, db.tailCuts, db.liftoffChecks, db.detensions], async () => {
     const entry = await db.outbox.where("opId").equals(opId).first();
     if (entry?.state !== "attention") return;
     await db.outbox.update(entry.seq!, { state: "pending", status: undefined, error: undefined });
     if (entry.kind === "tails_cut")
       await db.tailCuts.where("id").equals(entry.recordId).modify({ syncState: "pending" });
     else if (entry.kind === "liftoff_check") await db.liftoffChecks.update(entry.recordId, { syncState: "pending" });
+    else if (entry.kind === "detension") await db.detensions.update(entry.recordId, { syncState: "pending" });
     else await db.records.update(entry.recordId, { syncState: "pending" });
   });
 }
@@ -339,4 +355,59 @@ export async function saveLiftoffCheck(
   if (!(await db.outbox.where("opId").equals(opId).count()))
     throw new OutboxWriteError("The tablet did not keep the lift-off check. Nothing was saved; try again.");
   return { checkId, opId };
+}
+
+export interface DetensionInput {
+  payload: DetensionPayload;
+  /** The pressure at release read into MPa on the tablet, null when none was read. */
+  releasePressureMPa: number | null;
+  authorName: string;
+}
+
+/**
+ * Records a detension with its outbox op (kind detension) in one transaction. The caller has
+ * checked the form; the server checks again that the engineer ordered it.
+ */
+export async function saveDetension(
+  db: FieldDb,
+  input: DetensionInput,
+): Promise<{ detensionId: string; opId: string }> {
+  const { payload } = input;
+  const detensionId = uuidv7();
+  const opId = crypto.randomUUID();
+  await db.transaction("rw", [db.detensions, db.outbox, db.tendons], async () => {
+    const tendon = await db.tendons.get(payload.tendonId);
+    if (!tendon || tendon.pourId !== payload.pourId)
+      throw new OutboxWriteError("The tendon is not in this pour on this tablet. Nothing was saved.");
+    const detension: LocalDetension = {
+      id: detensionId,
+      projectId: payload.projectId,
+      pourId: payload.pourId,
+      tendonId: payload.tendonId,
+      dispositionId: payload.dispositionId,
+      detensionedAt: payload.detensionedAt,
+      operatorName: payload.operatorName,
+      equipmentSetId: payload.equipmentSetId,
+      entered: payload.pressure ? { pressure: payload.pressure, unit: payload.pressureUnit } : null,
+      releasePressureMPa: input.releasePressureMPa,
+      strandsDetensioned: payload.strandsDetensioned,
+      remarks: payload.remarks || null,
+      recordedByName: input.authorName,
+      syncState: "pending",
+    };
+    await db.detensions.add(detension);
+    await db.outbox.add({
+      opId,
+      kind: "detension",
+      recordId: detensionId,
+      payload,
+      authorUserId: payload.authorUserId,
+      state: "pending",
+      createdAt: new Date().toISOString(),
+      attempts: 0,
+    });
+  });
+  if (!(await db.outbox.where("opId").equals(opId).count()))
+    throw new OutboxWriteError("The tablet did not keep the detension. Nothing was saved; try again.");
+  return { detensionId, opId };
 }

@@ -26,6 +26,7 @@ export async function applyPull(
     db.flags,
     db.tailCuts,
     db.liftoffChecks,
+    db.detensions,
     db.notices,
   ];
   await db.transaction("rw", tables, async () => {
@@ -77,6 +78,8 @@ export async function applyPull(
     await db.tailCuts.bulkPut((response.tailCuts ?? []).map((c) => ({ ...c, syncState: "synced" as const })));
     // The server's lift-off checks, with its result, replace the ones made here (same id).
     await db.liftoffChecks.bulkPut((response.liftoffChecks ?? []).map((c) => ({ ...c, syncState: "synced" as const })));
+    // The server's detensions replace the ones recorded here (same id).
+    await db.detensions.bulkPut((response.detensions ?? []).map((d) => ({ ...d, syncState: "synced" as const })));
 
     for (const r of response.records) {
       const mine = await db.records.get(r.id);

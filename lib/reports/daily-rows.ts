@@ -45,7 +45,7 @@ function pourDayRows(p: DailyPour): string[][] {
   const ordered = pourDayRecords(p);
   const tendons = p.report.tendons.filter((t) => ordered.some((r) => r.tendonId === t.tendonId));
   // The pour report's rows for just this day's records and flags.
-  const rows = recordRows({ ...p.report, tendons, records: ordered, flags: p.flagsRaised });
+  const rows = recordRows({ ...p.report, tendons, records: ordered, detensions: [], flags: p.flagsRaised });
   return rows.map((row, i) => [p.report.pour.name, METHOD_WORDS[ordered[i]!.method], ...row]);
 }
 

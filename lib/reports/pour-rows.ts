@@ -97,6 +97,17 @@ function calibrationText(report: PourReport, r: PourRecord): string {
   return `${c.calibratedOn} to ${c.validUntil}${c.laboratory ? `, ${c.laboratory}` : ""}; ${certificate}${state}${reason}`;
 }
 
+/** The gauge pressure at release as typed, with the project's units beside when they read differently. */
+function releaseText(
+  p: PourReport["project"],
+  entered: { pressure: string; unit: "psi" | "MPa" },
+  mpa: number | null,
+): string {
+  const typed = `${entered.pressure}${/[a-z]/i.test(entered.pressure) ? "" : ` ${entered.unit}`}`;
+  const shown = mpa !== null ? showPressure(p, mpa) : null;
+  return shown && shown.replaceAll(",", "") !== typed.replaceAll(",", "") ? `${typed} (${shown})` : typed;
+}
+
 /** One row per stressing of each end in order; a tendon not yet stressed has one row saying so. */
 export function recordRows(report: PourReport): string[][] {
   const p = report.project;
@@ -121,7 +132,31 @@ export function recordRows(report: PourReport): string[][] {
       } as Record<RecordColumn, string>);
       continue;
     }
+    // The tendon's detensions stand in its sequence, before the first stressing made after them.
+    const detensions = (report.detensions ?? []).filter((d) => d.tendonId === t.tendonId);
+    const detensionRow = (d: (typeof detensions)[number]): Record<RecordColumn, string> => ({
+      ...(Object.fromEntries(RECORD_COLUMNS.map((c) => [c, ""])) as Record<RecordColumn, string>),
+      Tendon: t.tag,
+      End: "",
+      Stressing: `Detension (ordered by disposition ${d.dispositionReference})`,
+      Stressed: formatDateTime(d.at, report.timeZone),
+      Operator: d.operator,
+      "Equipment set": d.equipment.name,
+      "Jack, gauge, pump": `jack ${d.equipment.jackSerial}, gauge ${d.equipment.gaugeSerial}, pump ${d.equipment.pumpSerial ?? "not recorded"}`,
+      "Final pressure": d.entered
+        ? `at release: ${releaseText(p, d.entered, d.releasePressureMPa)}`
+        : "at release: not read",
+      "Readings as entered": `${d.strands} strand${d.strands === 1 ? "" : "s"} detensioned`,
+      Verdict: records.some((r) => r.deviceTime.getTime() > d.at.getTime())
+        ? "Detensioned; stressed again after"
+        : "Detensioned: restress required",
+      Remarks: [d.remarks, `recorded by ${d.recordedBy}`].filter(Boolean).join("; "),
+      Flags: flagsOf(t.tag),
+    });
+    let shown = 0;
     for (const r of records) {
+      while (shown < detensions.length && detensions[shown]!.at.getTime() < r.deviceTime.getTime())
+        rows.push(detensionRow(detensions[shown++]!));
       const e = r.evaluation;
       const verdict = e
         ? VERDICT_WORDS[e.verdict] + (e.provisional ? " (provisional)" : "") + (e.current ? "" : " (superseded)")
@@ -161,6 +196,7 @@ export function recordRows(report: PourReport): string[][] {
         Flags: flagsOf(t.tag),
       });
     }
+    while (shown < detensions.length) rows.push(detensionRow(detensions[shown++]!));
   }
   return rows.map((row) => RECORD_COLUMNS.map((c) => row[c]));
 }

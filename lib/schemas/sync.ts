@@ -9,9 +9,10 @@ import type { OpErrorCode } from "@/lib/errors";
 
 /**
  * create and revise carry a stressing record; tails_cut records a tendon's tails cut
- * (lib/schemas/tail-cut.ts); liftoff_check a lift-off check ordered by a disposition (lib/schemas/liftoff.ts).
+ * (lib/schemas/tail-cut.ts); liftoff_check a lift-off check ordered by a disposition (lib/schemas/liftoff.ts);
+ * detension a detension ordered by a disposition (lib/schemas/detension.ts).
  */
-export const OP_KINDS = ["create", "revise", "tails_cut", "liftoff_check"] as const;
+export const OP_KINDS = ["create", "revise", "tails_cut", "liftoff_check", "detension"] as const;
 export type OpKind = (typeof OP_KINDS)[number];
 
 /** "retry-later": nothing was stored for this op; the tablet keeps it and sends it again. */
@@ -29,7 +30,9 @@ export const deviceIdSchema = z
 export const syncOpSchema = z
   .object({
     opId: z.uuid({ error: "Each operation needs a UUID opId." }),
-    kind: z.enum(OP_KINDS, { error: "The kind of operation must be create, revise, tails_cut or liftoff_check." }),
+    kind: z.enum(OP_KINDS, {
+      error: "The kind of operation must be create, revise, tails_cut, liftoff_check or detension.",
+    }),
     recordId: z.uuid({ error: "Each operation needs the record's UUID." }),
     baseVersion: z.number().int().min(1).optional(),
     payload: z.unknown(),
@@ -307,6 +310,24 @@ export interface FieldLiftoffCheck extends FieldLiftoffResult {
   checkedByName: string;
 }
 
+/** A detension as the server stored it, answering the disposition that ordered it. */
+export interface FieldDetension {
+  id: string;
+  projectId: string;
+  pourId: string;
+  tendonId: string;
+  dispositionId: string;
+  detensionedAt: string;
+  operatorName: string;
+  equipmentSetId: string;
+  /** The gauge pressure at release as typed, null when it was not read. */
+  entered: { pressure: string; unit: "psi" | "MPa" } | null;
+  releasePressureMPa: number | null;
+  strandsDetensioned: number;
+  remarks: string | null;
+  recordedByName: string;
+}
+
 export interface Tombstone {
   table: string;
   id: string;
@@ -328,6 +349,8 @@ export interface PullResponse {
   tailCuts?: FieldTailCut[];
   /** Absent from servers that predate lift-off checks. */
   liftoffChecks?: FieldLiftoffCheck[];
+  /** Absent from servers that predate detensions. */
+  detensions?: FieldDetension[];
   removed: Tombstone[];
   /** Pours asked for that the caller may no longer take out (removed, or not on their crew). */
   unavailable: string[];

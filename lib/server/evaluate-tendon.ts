@@ -337,6 +337,11 @@ export interface EvaluationPlan {
   flags: (Insertable<FlagsTable> & { id: string })[];
   notification: Insertable<NotificationsTable> | null;
   closures: { flagId: string; reason: string }[];
+  /**
+   * The crew's reasons to go ahead before the concrete was confirmed, on records of a pour whose one
+   * concrete flag another evaluation raised: each is added to that flag's reason once.
+   */
+  concreteNotes?: { pourId: string; goAhead: string; note: string }[];
 }
 
 /** How many strokes a record's typed values sum (1 for marks). */
@@ -635,12 +640,23 @@ export function planEvaluation(
     };
   }
 
+  // The pour's concrete flag is already open: the reasons of this tendon's records are added to it.
+  const concreteNotes = judgeInput.pour?.concreteFlagOpen
+    ? judgement.ends.flatMap((e) => {
+        const goAhead = e.record.concreteGoAhead?.trim();
+        return goAhead
+          ? [{ pourId: pour.id, goAhead, note: ` Crew's reason to go ahead on ${tendon.tag} end ${e.end}: ${goAhead}` }]
+          : [];
+      })
+    : [];
+
   return {
     outcome: { evaluationId, verdict, provisional, deviationPct, flagKinds: flags.map((f) => f.kind) },
     evaluation,
     flags,
     notification,
     closures,
+    concreteNotes,
   };
 }
 
@@ -662,6 +678,18 @@ export function evaluationWrites(db: Kysely<Database>, plan: EvaluationPlan): Re
       .where("project_id", "=", plan.evaluation.project_id)
       .where("id", "=", c.flagId)
       .where("status", "!=", "closed");
+  });
+  // Each reason once: a reason the flag already quotes (from the record that raised it, or an
+  // earlier delivery or revision) is not added again.
+  (plan.concreteNotes ?? []).forEach((n, i) => {
+    writes[`concrete_note_${i}`] = db
+      .updateTable("flags")
+      .set({ reason: sql`reason || ${n.note}` })
+      .where("project_id", "=", plan.evaluation.project_id)
+      .where("pour_id", "=", n.pourId)
+      .where("kind", "=", "concrete_unconfirmed")
+      .where("status", "!=", "closed")
+      .where(sql<boolean>`strpos(reason, ${n.goAhead}) = 0`);
   });
   return writes;
 }

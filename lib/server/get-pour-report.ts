@@ -42,6 +42,22 @@ export interface ReportFlag {
   }[];
 }
 
+/** A detension the crew recorded on the engineer's order, for the tendon's record sequence. */
+export interface ReportDetension {
+  tendonId: string;
+  at: Date;
+  operator: string;
+  recordedBy: string;
+  equipment: { name: string; jackSerial: string; gaugeSerial: string; pumpSerial: string | null };
+  /** The gauge pressure at release as typed; null when not read. */
+  entered: { pressure: string; unit: "psi" | "MPa" } | null;
+  releasePressureMPa: number | null;
+  strands: number;
+  remarks: string | null;
+  /** The disposition that ordered it, "D-0003". */
+  dispositionReference: string;
+}
+
 export interface PourReport {
   /**
    * The moment of the latest change the report shows (a record, an evaluation, a flag's trail,
@@ -102,6 +118,8 @@ export interface PourReport {
   tendons: TendonResult[];
   /** Every stressing of every end, in order: the original and each restress, never only the latest. */
   records: PourRecord[];
+  /** The detensions of the pour's tendons, oldest first; the records table shows them in each tendon's sequence. */
+  detensions: ReportDetension[];
   flags: ReportFlag[];
   release: {
     byName: string;
@@ -142,7 +160,7 @@ export async function getPourReport(
     .executeTakeFirst();
   if (!project || !pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
 
-  const [tendons, records, { flags, reviews, dispositions }, release, flagNumbers, dispositionNumbers] =
+  const [tendons, records, { flags, reviews, dispositions }, release, flagNumbers, dispositionNumbers, detensions] =
     await Promise.all([
       listTendonResults(db, input),
       listPourRecords(db, { ...input, projectBasis: project.comparison_basis, timeZone: projectTimeZone(project) }),
@@ -157,6 +175,34 @@ export async function getPourReport(
         .selectFrom("dispositions")
         .select(["id", sql<string>`row_number() over (order by created_at, id)`.as("n")])
         .where("project_id", "=", input.projectId)
+        .execute(),
+      db
+        .selectFrom("detensions")
+        .innerJoin("equipment_sets", (j) =>
+          j
+            .onRef("equipment_sets.id", "=", "detensions.equipment_set_id")
+            .onRef("equipment_sets.project_id", "=", "detensions.project_id"),
+        )
+        .innerJoin("users", "users.id", "detensions.recorded_by")
+        .select([
+          "detensions.tendon_id",
+          "detensions.disposition_id",
+          "detensions.detensioned_at",
+          "detensions.operator_name",
+          "detensions.entered",
+          "detensions.release_pressure_mpa",
+          "detensions.strands_detensioned",
+          "detensions.remarks",
+          "equipment_sets.name",
+          "equipment_sets.jack_serial",
+          "equipment_sets.gauge_serial",
+          "equipment_sets.pump_serial",
+          "users.name as recorded_by_name",
+        ])
+        .where("detensions.project_id", "=", input.projectId)
+        .where("detensions.pour_id", "=", input.pourId)
+        .orderBy("detensions.detensioned_at")
+        .orderBy("detensions.id")
         .execute(),
     ]);
   const flagRef = new Map(flagNumbers.map((f) => [f.id, reference("F", Number(f.n))]));
@@ -211,6 +257,7 @@ export async function getPourReport(
     ...reviews.map((r) => new Date(r.created_at)),
     ...dispositions.map((d) => new Date(d.created_at)),
     ...(release ? [new Date(release.created_at)] : []),
+    ...detensions.map((d) => new Date(d.detensioned_at)),
   ];
   const asOf = new Date(Math.max(...moments.map((m) => m.getTime())));
 
@@ -272,6 +319,23 @@ export async function getPourReport(
     })),
     tendons,
     records,
+    detensions: detensions.map((d) => ({
+      tendonId: d.tendon_id,
+      at: new Date(d.detensioned_at),
+      operator: d.operator_name,
+      recordedBy: d.recorded_by_name,
+      equipment: {
+        name: d.name,
+        jackSerial: d.jack_serial,
+        gaugeSerial: d.gauge_serial,
+        pumpSerial: d.pump_serial,
+      },
+      entered: d.entered,
+      releasePressureMPa: d.release_pressure_mpa,
+      strands: d.strands_detensioned,
+      remarks: d.remarks,
+      dispositionReference: dispositionRef.get(d.disposition_id) ?? "D-?",
+    })),
     flags: flags.map((f) => ({
       id: f.id,
       reference: flagRef.get(f.id) ?? "F-?",

@@ -5,8 +5,10 @@ import type { Database } from "@/db/types";
 import { forceProfile, segmentBeta, type ForceProfile } from "@/lib/elongation";
 import { predictTendon, type TendonPrediction } from "@/lib/stressing/basis";
 import { clockSkew } from "@/lib/stressing/clock-skew";
+import { awaitingRestress } from "@/lib/stressing/tail-clearance";
 import { findFlagTrail } from "./find-flag-trail";
 import { findStandingRelease } from "./find-standing-release";
+import { listDetensions } from "./list-detensions";
 import { listLiftoffChecks } from "./list-liftoff-checks";
 import { loadTendonBasis, type LoadedTendon } from "./load-tendon-basis";
 
@@ -99,7 +101,13 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
     return { index: i + 1, lengthMm: s.lengthMm, angleRad: s.angleRad, beta, endMm: x, cumulativeAngleRad: alpha };
   });
 
-  const liftoffChecks = await listLiftoffChecks(db, input);
+  const [liftoffChecks, detensions] = await Promise.all([listLiftoffChecks(db, input), listDetensions(db, input)]);
+  // The ends stressed again since the latest detension: until every stressed end has one, the tendon is held.
+  const awaiting = awaitingRestress({
+    ends: basis.tendon.ends,
+    detensionedAt: detensions.map((d) => new Date(d.detensioned_at).toISOString()),
+    records: records.map((r) => ({ tendonEnd: r.tendon_end, stressedAt: new Date(r.device_time).toISOString() })),
+  });
 
   return {
     basis,
@@ -114,6 +122,8 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
     reviews,
     dispositions,
     liftoffChecks,
+    detensions,
+    awaitingRestress: awaiting,
     photos,
     release: release ?? null,
   };

@@ -49,6 +49,7 @@ export async function pullChanges(
         flags: [],
         tailCuts: [],
         liftoffChecks: [],
+        detensions: [],
         removed: [],
         unavailable: input.pourIds,
       });
@@ -91,8 +92,32 @@ export async function pullChanges(
         .where("liftoff_checks.pour_id", "in", pourIds)
         .where(since("liftoff_checks.change_xid", cursor))
         .execute();
+      // Detensions as the crew reported them (lib/server/record-detension.ts).
+      const detensionsRead = trx
+        .selectFrom("detensions")
+        .innerJoin("users", "users.id", "detensions.recorded_by")
+        .select([
+          "detensions.id",
+          "detensions.project_id",
+          "detensions.pour_id",
+          "detensions.tendon_id",
+          "detensions.disposition_id",
+          "detensions.detensioned_at",
+          "detensions.operator_name",
+          "detensions.equipment_set_id",
+          "detensions.entered",
+          "detensions.release_pressure_mpa",
+          "detensions.strands_detensioned",
+          "detensions.remarks",
+          "users.name as recorded_by_name",
+        ])
+        .where("detensions.project_id", "in", projectIds)
+        .where("detensions.pour_id", "in", pourIds)
+        .where(since("detensions.change_xid", cursor))
+        .execute();
       // Awaited after the others; a failure then still reaches the caller, never as an unhandled rejection.
       liftoffChecksRead.catch(() => undefined);
+      detensionsRead.catch(() => undefined);
       const [projects, pours, tendons, lots, sets, calibrations, records, evaluations, flags, tailCuts, removed] =
         await Promise.all([
           trx
@@ -322,6 +347,7 @@ export async function pullChanges(
                 .execute(),
         ]);
       const liftoffChecks = await liftoffChecksRead;
+      const detensions = await detensionsRead;
 
       return {
         cursor: xmin,
@@ -486,6 +512,21 @@ export async function pullChanges(
           withinBand: c.within_band,
           checkedAt: new Date(c.checked_at).toISOString(),
           checkedByName: c.checked_by_name,
+        })),
+        detensions: detensions.map((d) => ({
+          id: d.id,
+          projectId: d.project_id,
+          pourId: d.pour_id,
+          tendonId: d.tendon_id,
+          dispositionId: d.disposition_id,
+          detensionedAt: new Date(d.detensioned_at).toISOString(),
+          operatorName: d.operator_name,
+          equipmentSetId: d.equipment_set_id,
+          entered: d.entered,
+          releasePressureMPa: d.release_pressure_mpa,
+          strandsDetensioned: d.strands_detensioned,
+          remarks: d.remarks,
+          recordedByName: d.recorded_by_name,
         })),
         removed: removed.map((r) => ({ table: r.table_name, id: r.row_id })),
         unavailable,

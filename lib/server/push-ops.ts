@@ -21,6 +21,7 @@ import {
   type EvaluatedRecord,
 } from "./evaluate-tendon";
 import { auditInsert, recordAudit } from "./record-audit";
+import { recordDetension } from "./record-detension";
 import { recordLiftoffCheck } from "./record-liftoff-check";
 import { recordTailCut } from "./record-tail-cut";
 import { databaseRefusal } from "./database-refusal";
@@ -406,6 +407,7 @@ async function applyOp(
   const { user } = input;
   if (op.kind === "tails_cut") return answered(op, await recordTailCut(db, input, op), input.hooks);
   if (op.kind === "liftoff_check") return answered(op, await recordLiftoffCheck(db, input, op), input.hooks);
+  if (op.kind === "detension") return answered(op, await recordDetension(db, input, op), input.hooks);
   const checked = precheck(op, user);
   if ("status" in checked) {
     if (checked.error?.code === "FORBIDDEN" || checked.error?.code === "NOT_FOUND") {

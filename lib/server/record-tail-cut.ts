@@ -6,7 +6,7 @@ import { can } from "@/lib/auth/permissions";
 import { zodFields } from "@/lib/schemas/zod-fields";
 import type { OpResult, SyncOp } from "@/lib/schemas/sync";
 import { tailCutPayloadSchema } from "@/lib/schemas/tail-cut";
-import { tailClearance } from "@/lib/stressing/tail-clearance";
+import { awaitingRestress, tailClearance } from "@/lib/stressing/tail-clearance";
 import { inTransaction } from "./in-transaction";
 import { auditInsert, recordAudit } from "./record-audit";
 
@@ -126,11 +126,10 @@ export async function recordTailCut(
         },
       };
 
-    const [ends, openFlags, person] = await Promise.all([
+    const [stressings, openFlags, person, detensions] = await Promise.all([
       trx
         .selectFrom("records")
-        .select("tendon_end")
-        .distinct()
+        .select(["tendon_end", "device_time"])
         .where("project_id", "=", p.projectId)
         .where("tendon_id", "=", p.tendonId)
         .execute(),
@@ -142,10 +141,24 @@ export async function recordTailCut(
         .where("status", "!=", "closed")
         .execute(),
       trx.selectFrom("users").select("name").where("id", "=", user.id).executeTakeFirstOrThrow(),
+      trx
+        .selectFrom("detensions")
+        .select("detensioned_at")
+        .where("project_id", "=", p.projectId)
+        .where("tendon_id", "=", p.tendonId)
+        .execute(),
     ]);
     const clearance = tailClearance({
       ends: tendon.ends,
-      recordedEnds: ends.map((e) => e.tendon_end),
+      recordedEnds: [...new Set(stressings.map((e) => e.tendon_end))],
+      awaitingRestress: awaitingRestress({
+        ends: tendon.ends,
+        detensionedAt: detensions.map((d) => new Date(d.detensioned_at).toISOString()),
+        records: stressings.map((r) => ({
+          tendonEnd: r.tendon_end,
+          stressedAt: new Date(r.device_time).toISOString(),
+        })),
+      }),
       openFlags,
       requiredConcreteMpa: tendon.required_concrete_mpa,
       concreteStrengthMpa: tendon.concrete_strength_mpa,

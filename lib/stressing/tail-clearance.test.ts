@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { tailClearance, type ClearanceInput } from "./tail-clearance";
+import { awaitingRestress, tailClearance, type ClearanceInput } from "./tail-clearance";
 
 const base: ClearanceInput = {
   ends: "both",
@@ -52,5 +52,36 @@ describe("tailClearance", () => {
     expect(c.reasons).toHaveLength(3);
     expect(c.reasons[0]).toBe("2 flags are still open.");
     expect(c.reasons[1]).toBe("No record yet for end A and B.");
+  });
+});
+
+describe("a detensioned tendon", () => {
+  const detensionedAt = ["2026-12-02T15:10:00.000Z"];
+  const before = { stressedAt: "2026-12-02T14:00:00.000Z" };
+  const after = { stressedAt: "2026-12-02T15:40:00.000Z" };
+
+  it("waits for a record after the detension at every end it is stressed from", () => {
+    const records = [
+      { tendonEnd: "A" as const, ...before },
+      { tendonEnd: "B" as const, ...before },
+      { tendonEnd: "A" as const, ...after },
+    ];
+    expect(awaitingRestress({ ends: "both", detensionedAt, records })).toEqual(["B"]);
+    expect(awaitingRestress({ ends: "A", detensionedAt, records })).toEqual([]);
+    expect(awaitingRestress({ ends: "both", detensionedAt: [], records })).toEqual([]);
+  });
+
+  it("counts from the latest detension when there were several", () => {
+    const records = [{ tendonEnd: "A" as const, ...after }];
+    expect(
+      awaitingRestress({ ends: "A", detensionedAt: [...detensionedAt, "2026-12-02T16:00:00.000Z"], records }),
+    ).toEqual(["A"]);
+  });
+
+  it("is held with the reason in words until then", () => {
+    const c = tailClearance({ ...base, awaitingRestress: ["A", "B"] });
+    expect(c.clear).toBe(false);
+    expect(c.reasons).toEqual(["Detensioned: restress required (no record since the detension at end A and B)."]);
+    expect(tailClearance({ ...base, awaitingRestress: [] }).clear).toBe(true);
   });
 });

@@ -4,7 +4,9 @@
  *
  * Clear only when every flag on the tendon is closed, every end the schedule stresses has a
  * record, and the concrete gate is met (the same gate as the concrete rule: the pour's confirmed
- * strength at least the project's required strength; no requirement set means no gate).
+ * strength at least the project's required strength; no requirement set means no gate). A tendon
+ * detensioned on the engineer's order stays held ("detensioned: restress required") until every end
+ * it is stressed from has a record made after the detension (`awaitingRestress`).
  */
 
 import { showStrength } from "@/lib/format/quantities";
@@ -21,6 +23,27 @@ export interface ClearanceInput {
   concreteStrengthMpa: number | null;
   /** The project's units for the strengths in the reasons (SI when not given). */
   unitSystem?: "us" | "si";
+  /** Ends not stressed again since the tendon's last detension (`awaitingRestress`); empty or absent when none. */
+  awaitingRestress?: readonly ("A" | "B")[];
+}
+
+export const DETENSIONED_WORDS = "detensioned: restress required";
+
+/**
+ * The ends a detensioned tendon still waits to be stressed again at: every end the schedule
+ * stresses that has no record made (device time) after the latest detension. Empty when the
+ * tendon was never detensioned or has been stressed again at every end.
+ */
+export function awaitingRestress(input: {
+  ends: TendonEnds;
+  detensionedAt: readonly string[];
+  records: readonly { tendonEnd: "A" | "B"; stressedAt: string }[];
+}): ("A" | "B")[] {
+  if (!input.detensionedAt.length) return [];
+  const last = Math.max(...input.detensionedAt.map((t) => new Date(t).getTime()));
+  return scheduledEnds(input.ends).filter(
+    (end) => !input.records.some((r) => r.tendonEnd === end && new Date(r.stressedAt).getTime() > last),
+  );
 }
 
 export interface Clearance {
@@ -35,6 +58,9 @@ export function tailClearance(input: ClearanceInput): Clearance {
   const reasons: string[] = [];
   const open = input.openFlags.length;
   if (open) reasons.push(open === 1 ? "1 flag is still open." : `${open} flags are still open.`);
+  const waiting = input.awaitingRestress ?? [];
+  if (waiting.length)
+    reasons.push(`Detensioned: restress required (no record since the detension at end ${waiting.join(" and ")}).`);
   const missing = scheduledEnds(input.ends).filter((e) => !input.recordedEnds.includes(e));
   if (missing.length) reasons.push(`No record yet for end ${missing.join(" and ")}.`);
   const required = input.requiredConcreteMpa;

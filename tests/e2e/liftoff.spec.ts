@@ -110,6 +110,8 @@ test("the crew records an ordered lift-off check offline and sees the server's r
   await expect(result.getByTestId("liftoff-verdict")).toContainText("within the ±5 % band");
   // The order stays with the engineer: the tendon is still held and no cut is offered.
   await expect(panel).toContainText("Held: do not cut tails");
+  // The tendon list says the result, no longer the order.
+  await expect(rows.first().getByTestId("hold-summary")).toHaveText("Held · lift-off within band: engineer to decide");
   await screenshot(crew, "field-liftoff-result-portrait");
 
   const [stored] = await queryDemo<{ within_band: boolean; deviation_pct: number; disposition_id: string }>(

@@ -145,5 +145,5 @@ export async function pushEndA(crew: APIRequestContext, fx: PourFixture, tendonI
     data: { deviceId: "release-check-tablet", ops: [{ opId: randomUUID(), kind: "create", recordId: id, payload }] },
   });
   const body = (await res.json()) as { results: { status: string; error?: { code: string; message: string } }[] };
-  return { httpStatus: res.status(), result: body.results[0]! };
+  return { httpStatus: res.status(), result: body.results[0]!, recordId: id };
 }

@@ -72,6 +72,26 @@ describe("the reason to go ahead before the concrete is confirmed", () => {
     expect(await concreteFlags()).toHaveLength(1);
   });
 
+  it("adds the reasons of later records to the pour's one flag, once each", async () => {
+    const LATER = "Lab phoned: 7-day breaks at 3,400 psi, report to follow.";
+    const later = createOp(w, w.tendons[3]!.id, {}, { concreteGoAhead: LATER });
+    // Delivered twice, and the same reason again on another tendon, and the first reason again.
+    expect((await push([later])).results[0]).toMatchObject({ status: "applied" });
+    expect((await push([later])).results[0]).toMatchObject({ status: "duplicate" });
+    const same = createOp(w, w.tendons[4]!.id, {}, { concreteGoAhead: LATER });
+    expect((await push([same])).results[0]).toMatchObject({ status: "applied" });
+    const first = createOp(w, w.tendons[5]!.id, {}, { concreteGoAhead: REASON });
+    expect((await push([first])).results[0]).toMatchObject({ status: "applied" });
+
+    const [flag, ...others] = await concreteFlags();
+    expect(others).toEqual([]);
+    const count = (text: string) => flag!.reason.split(text).length - 1;
+    expect(count(REASON)).toBe(1);
+    expect(count(LATER)).toBe(1);
+    expect(flag!.reason).toContain(`Crew's reason to go ahead on ${w.tendons[3]!.tag} end `);
+    expect(flag!.reason.endsWith(LATER)).toBe(true);
+  });
+
   it("says on the flag when no reason came with the record that raised it", async () => {
     await t.db
       .updateTable("flags")

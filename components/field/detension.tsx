@@ -1,0 +1,369 @@
+"use client";
+import { useId, useState } from "react";
+import { SafetyCaution } from "@/components/ui/caution";
+import { formatDateTime, instantFromLocalInput, localInputValue, projectTimeZone } from "@/lib/format/dates";
+import { showPressure } from "@/lib/format/quantities";
+import { readMeta, type LocalDetension, type SessionMeta } from "@/lib/offline/db";
+import { awaitingRestressOf, type Hold } from "@/lib/offline/hold-view";
+import { OutboxWriteError, saveDetension } from "@/lib/offline/outbox";
+import { detensionPayloadSchema, type DetensionPayload } from "@/lib/schemas/detension";
+import { entryUnitsFor } from "@/lib/schemas/record";
+import type { FieldProject, FieldTendon } from "@/lib/schemas/sync";
+import { zodFields } from "@/lib/schemas/zod-fields";
+import { isInputError, parsePressure } from "@/lib/units";
+import { useField } from "./field-provider";
+import { useLive } from "./use-live";
+
+/**
+ * The detension an engineer ordered (decision detension_restress), opened from the hold panel:
+ * when, who ran the jack, the equipment set, the gauge pressure at release when it was read, how
+ * many strands were released, and remarks. Saved on the tablet with its outbox op and sent with
+ * the next sync. Once recorded, the tendon stays held ("detensioned: restress required") until a
+ * stressing record made after it has been logged at every end it is stressed from.
+ */
+
+type Field = "detensionedAt" | "operatorName" | "equipmentSetId" | "pressure" | "strandsDetensioned" | "remarks";
+const FIELDS: readonly string[] = [
+  "detensionedAt",
+  "operatorName",
+  "equipmentSetId",
+  "pressure",
+  "strandsDetensioned",
+  "remarks",
+];
+/** A tablet clock a little ahead of the server is no fault; the server allows the same. */
+const FUTURE_SLACK_MS = 10 * 60 * 1000;
+
+export function DetensionPanel({ tendon, hold }: { tendon: FieldTendon; hold: Hold }) {
+  const { db, sendSaved } = useField();
+  const dispositionId = hold.decision?.id;
+  const data = useLive(async () => {
+    const [project, sets, detensions, records, session] = await Promise.all([
+      db.projects.get(tendon.projectId),
+      db.equipmentSets.where("projectId").equals(tendon.projectId).sortBy("name"),
+      db.detensions.where("tendonId").equals(tendon.id).sortBy("detensionedAt"),
+      db.records.where("tendonId").equals(tendon.id).toArray(),
+      readMeta<SessionMeta>(db, "session"),
+    ]);
+    return { project, sets, detensions, records, session };
+  }, [db, tendon.id, tendon.projectId]);
+  const [open, setOpen] = useState(false);
+
+  if (!data?.project) return null;
+  const { project, sets } = data;
+  const timeZone = projectTimeZone(project);
+  const mine = data.detensions.filter((d) => d.dispositionId === dispositionId);
+  const waiting = awaitingRestressOf(tendon, data.detensions, data.records);
+
+  return (
+    <section
+      aria-label="Detension"
+      className="grid gap-3 rounded-md border-2 border-ink bg-concrete-50 p-3"
+      data-testid="detension"
+    >
+      <h4 className="text-lead font-bold">Detension</h4>
+      {mine.length > 0 && (
+        <ul className="grid gap-2" data-testid="detension-list">
+          {mine.map((d) => (
+            <DetensionItem key={d.id} detension={d} project={project} timeZone={timeZone} sets={sets} />
+          ))}
+        </ul>
+      )}
+      {waiting.length > 0 && (
+        <p className="font-bold text-signal-stop" data-testid="detension-restress-required">
+          Detensioned: restress required at end {waiting.join(" and ")}. The tendon stays held until the restress is
+          logged.
+        </p>
+      )}
+      {!dispositionId ? (
+        <p className="font-semibold">
+          Sync with signal once: the engineer&apos;s order must reach this tablet in full.
+        </p>
+      ) : !data.session ? (
+        <p className="font-semibold">Sign in on this tablet to record the detension.</p>
+      ) : open ? (
+        <DetensionForm
+          tendon={tendon}
+          dispositionId={dispositionId}
+          project={project}
+          sets={sets}
+          session={data.session}
+          onDone={(saved) => {
+            setOpen(false);
+            if (saved) sendSaved();
+          }}
+        />
+      ) : (
+        <button type="button" className="btn-primary w-full" onClick={() => setOpen(true)} data-testid="detension-open">
+          {mine.length ? "Record another detension" : "Record the detension"}
+        </button>
+      )}
+    </section>
+  );
+}
+
+function DetensionItem(props: {
+  detension: LocalDetension;
+  project: FieldProject;
+  timeZone: string;
+  sets: { id: string; name: string }[];
+}) {
+  const { detension: d, project } = props;
+  const set = props.sets.find((s) => s.id === d.equipmentSetId);
+  const typed = d.entered
+    ? `${d.entered.pressure}${/[a-z]/i.test(d.entered.pressure) ? "" : ` ${d.entered.unit}`}`
+    : null;
+  // The project's units beside what was typed, only when they read differently (a bare MPa on a psi job).
+  const shown =
+    d.releasePressureMPa !== null ? showPressure({ unitSystem: project.unitSystem }, d.releasePressureMPa) : null;
+  return (
+    <li className="grid gap-1 rounded-md border-2 border-concrete-500 bg-white p-3" data-testid="detension-item">
+      <p className="font-semibold">
+        Detensioned {formatDateTime(d.detensionedAt, props.timeZone)} · {d.strandsDetensioned} strand
+        {d.strandsDetensioned === 1 ? "" : "s"} · jack run by {d.operatorName} · set {set?.name ?? "not on this tablet"}
+      </p>
+      <p>
+        Gauge at release:{" "}
+        {typed
+          ? `${typed}${shown && shown.replaceAll(",", "") !== typed.replaceAll(",", "") ? ` (${shown})` : ""}`
+          : "not read"}
+        {d.remarks ? ` · ${d.remarks}` : ""}
+      </p>
+      <p className="text-ink-soft" data-testid="detension-state">
+        Recorded by {d.recordedByName} ·{" "}
+        {d.syncState === "synced"
+          ? "received by the server"
+          : d.syncState === "pending"
+            ? "saved on this tablet, waiting to send"
+            : `needs attention (${d.syncState}): see “Needs attention” on the field log`}
+      </p>
+    </li>
+  );
+}
+
+function DetensionForm(props: {
+  tendon: FieldTendon;
+  dispositionId: string;
+  project: FieldProject;
+  sets: { id: string; name: string; gaugeSerial: string }[];
+  session: SessionMeta;
+  onDone: (saved: boolean) => void;
+}) {
+  const { db } = useField();
+  const { tendon, project, sets, session } = props;
+  const unit = entryUnitsFor(project.unitSystem).pressure;
+  const timeZone = projectTimeZone(project);
+  // The box shows minutes; left as it was offered, the detension is stamped with the moment of saving.
+  const [offered] = useState(() => localInputValue(new Date(), timeZone));
+  const [when, setWhen] = useState(offered);
+  const [operator, setOperator] = useState(session.name);
+  const [setId, setSetId] = useState(sets.length === 1 ? sets[0]!.id : "");
+  const [pressure, setPressure] = useState("");
+  const [strands, setStrands] = useState(String(tendon.strandCount));
+  const [remarks, setRemarks] = useState("");
+  const [errors, setErrors] = useState<Partial<Record<Field | "root", string>>>({});
+  const [busy, setBusy] = useState(false);
+  const ids = {
+    when: useId(),
+    operator: useId(),
+    set: useId(),
+    pressure: useId(),
+    strands: useId(),
+    remarks: useId(),
+  };
+
+  const submit = async (event: React.FormEvent) => {
+    event.preventDefault();
+    const found: Partial<Record<Field | "root", string>> = {};
+    const at = when === offered ? new Date() : instantFromLocalInput(when, timeZone);
+    if (!at) found.detensionedAt = "Give the date and time of the detension.";
+    else if (at.getTime() > Date.now() + FUTURE_SLACK_MS)
+      found.detensionedAt = "The detension cannot be in the future: give the time it was done.";
+    let pressureMPa: number | null = null;
+    if (pressure.trim()) {
+      try {
+        pressureMPa = parsePressure(pressure, { field: "pressure", system: "SI", defaultUnit: unit });
+        if (!(pressureMPa > 0)) found.pressure = "The gauge pressure at release must be above zero.";
+      } catch (e) {
+        if (!isInputError(e)) throw e;
+        found.pressure = `“${pressure}” cannot be read as a pressure. Type a number, e.g. ${unit === "psi" ? "4200" : "29.0"}, or leave it empty if it was not read.`;
+      }
+    }
+    if (!setId) found.equipmentSetId = "Choose the equipment set used.";
+    const count = Number(strands.trim());
+    if (!/^\d+$/.test(strands.trim()) || count < 1)
+      found.strandsDetensioned = "Type how many strands were detensioned (a whole number, at least 1).";
+    else if (count > tendon.strandCount)
+      found.strandsDetensioned = `${tendon.tag} has ${tendon.strandCount} strand${tendon.strandCount === 1 ? "" : "s"}.`;
+    const payload: DetensionPayload = {
+      projectId: tendon.projectId,
+      pourId: tendon.pourId,
+      tendonId: tendon.id,
+      dispositionId: props.dispositionId,
+      detensionedAt: (at ?? new Date()).toISOString(),
+      operatorName: operator.trim(),
+      equipmentSetId: setId,
+      ...(pressure.trim() ? { pressure: pressure.trim() } : {}),
+      pressureUnit: unit,
+      strandsDetensioned: count,
+      ...(remarks.trim() ? { remarks: remarks.trim() } : {}),
+      authorUserId: session.userId,
+    };
+    const parsed = detensionPayloadSchema.safeParse(payload);
+    if (!parsed.success)
+      for (const [field, messages] of Object.entries(zodFields(parsed.error))) {
+        const key = (FIELDS.includes(field) ? field : "root") as Field | "root";
+        found[key] ??= messages.join(" ");
+      }
+    setErrors(found);
+    if (Object.keys(found).length) return;
+    setBusy(true);
+    try {
+      await saveDetension(db, { payload, releasePressureMPa: pressureMPa, authorName: session.name });
+      props.onDone(true);
+    } catch (e) {
+      setErrors({
+        root: e instanceof OutboxWriteError ? e.message : "The tablet could not save the detension. Nothing was saved.",
+      });
+    } finally {
+      setBusy(false);
+    }
+  };
+
+  const box = (field: Field, id: string) => ({
+    id,
+    "aria-invalid": Boolean(errors[field]),
+    "aria-describedby": errors[field] ? `${id}-error` : undefined,
+  });
+
+  return (
+    <form className="grid gap-4" onSubmit={(e) => void submit(e)} noValidate data-testid="detension-form">
+      {errors.root && (
+        <p role="alert" className="font-semibold text-signal-stop">
+          {errors.root}
+        </p>
+      )}
+      <div>
+        <label htmlFor={ids.when} className="field-label">
+          When ({timeZone})
+        </label>
+        <input
+          {...box("detensionedAt", ids.when)}
+          type="datetime-local"
+          className="field-input mt-1"
+          value={when}
+          onChange={(e) => setWhen(e.target.value)}
+          data-testid="detension-when"
+        />
+        <Problem id={`${ids.when}-error`} message={errors.detensionedAt} />
+      </div>
+      <div>
+        <label htmlFor={ids.operator} className="field-label">
+          Jack operator
+        </label>
+        <input
+          {...box("operatorName", ids.operator)}
+          className="field-input mt-1"
+          autoComplete="off"
+          value={operator}
+          onChange={(e) => setOperator(e.target.value)}
+          data-testid="detension-operator"
+        />
+        <Problem id={`${ids.operator}-error`} message={errors.operatorName} />
+      </div>
+      <fieldset aria-describedby={errors.equipmentSetId ? `${ids.set}-error` : undefined}>
+        <legend className="field-label">Equipment set</legend>
+        <div className="mt-1 grid gap-2">
+          {sets.length === 0 && <p>No equipment sets were downloaded with this pour.</p>}
+          {sets.map((s) => (
+            <label
+              key={s.id}
+              className="flex min-h-touch cursor-pointer items-center gap-3 rounded-md border-2 border-concrete-500 px-3 has-checked:border-ink has-checked:bg-concrete-100"
+            >
+              <input
+                type="radio"
+                name="detension-set"
+                value={s.id}
+                className="h-6 w-6"
+                checked={setId === s.id}
+                onChange={() => setSetId(s.id)}
+              />
+              <span>
+                <strong>{s.name}</strong> · gauge {s.gaugeSerial}
+              </span>
+            </label>
+          ))}
+        </div>
+        <Problem id={`${ids.set}-error`} message={errors.equipmentSetId} />
+      </fieldset>
+      <div className="grid gap-4 landscape:grid-cols-2">
+        <div>
+          <label htmlFor={ids.pressure} className="field-label">
+            Gauge pressure at release ({unit}, if read)
+          </label>
+          <input
+            {...box("pressure", ids.pressure)}
+            className="field-input mt-1"
+            inputMode="decimal"
+            autoComplete="off"
+            value={pressure}
+            onChange={(e) => setPressure(e.target.value)}
+            data-testid="detension-pressure"
+          />
+          <Problem id={`${ids.pressure}-error`} message={errors.pressure} />
+        </div>
+        <div>
+          <label htmlFor={ids.strands} className="field-label">
+            Strands detensioned (of {tendon.strandCount})
+          </label>
+          <input
+            {...box("strandsDetensioned", ids.strands)}
+            className="field-input mt-1"
+            inputMode="numeric"
+            autoComplete="off"
+            value={strands}
+            onChange={(e) => setStrands(e.target.value)}
+            data-testid="detension-strands"
+          />
+          <Problem id={`${ids.strands}-error`} message={errors.strandsDetensioned} />
+        </div>
+      </div>
+      <div>
+        <label htmlFor={ids.remarks} className="field-label">
+          Remarks
+        </label>
+        <textarea
+          {...box("remarks", ids.remarks)}
+          className="field-input mt-1"
+          rows={2}
+          value={remarks}
+          onChange={(e) => setRemarks(e.target.value)}
+          data-testid="detension-remarks"
+        />
+        <Problem id={`${ids.remarks}-error`} message={errors.remarks} />
+      </div>
+      <p>
+        Recorded by <strong>{session.name}</strong>. After the detension the tendon stays held until its restress is
+        logged.
+      </p>
+      <SafetyCaution />
+      <div className="flex flex-wrap gap-3">
+        <button type="submit" className="btn-primary grow" disabled={busy} data-testid="detension-save">
+          {busy ? "Saving…" : "Save detension"}
+        </button>
+        <button type="button" className="btn-quiet" onClick={() => props.onDone(false)}>
+          Cancel
+        </button>
+      </div>
+    </form>
+  );
+}
+
+function Problem({ id, message }: { id: string; message: string | undefined }) {
+  if (!message) return null;
+  return (
+    <p id={id} role="alert" className="mt-1 font-semibold text-signal-stop">
+      {message}
+    </p>
+  );
+}

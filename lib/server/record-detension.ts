@@ -1,0 +1,208 @@
+import "server-only";
+import type { Kysely } from "kysely";
+import type { Database } from "@/db/types";
+import { can } from "@/lib/auth/permissions";
+import { detensionPayloadSchema } from "@/lib/schemas/detension";
+import { DECISION_LABELS } from "@/lib/schemas/review";
+import type { OpResult, SyncOp } from "@/lib/schemas/sync";
+import { zodFields } from "@/lib/schemas/zod-fields";
+import { isInputError, parsePressure } from "@/lib/units";
+import { claimOp, duplicateOf, rejectedOp } from "./applied-ops";
+import { inTransaction } from "./in-transaction";
+import { auditInsert, recordAudit } from "./record-audit";
+import { isReleasedPourRefusal, RELEASED_POUR_MESSAGE } from "./require-open-pour";
+
+/**
+ * Records a detension from the tablet's outbox (op kind detension), exactly once: the op id is
+ * claimed in applied_ops in the same transaction as the detension, so a second delivery answers
+ * "duplicate" with nothing written again.
+ *
+ * A detension answers a disposition of the tendon that ordered one (decision detension_restress);
+ * any other is refused with the reason, and nothing is written. The tendon then stays held
+ * ("detensioned: restress required", lib/stressing/tail-clearance.ts) until a stressing record made
+ * after the detension has come in for every end the tendon is stressed from.
+ *
+ * Bad input writes nothing and names the field: an unreadable or non-positive pressure, a time in
+ * the future, more strands than the tendon has, a set of another project, a released pour.
+ */
+
+type Db = Kysely<Database>;
+
+export interface Detensioner {
+  id: string;
+  memberships: { projectId: string; role: Parameters<typeof can>[0] }[];
+}
+
+/** How far ahead of the server's clock a tablet's time may be before it is refused as in the future. */
+const FUTURE_SLACK_MS = 10 * 60 * 1000;
+
+const refused = (op: SyncOp, field: string, message: string): OpResult =>
+  rejectedOp(op, "INVALID_INPUT", message, { [field]: [message] });
+
+export async function recordDetension(
+  db: Db,
+  input: { user: Detensioner; deviceId: string; now?: Date },
+  op: SyncOp,
+): Promise<OpResult> {
+  const { user, deviceId } = input;
+  const parsed = detensionPayloadSchema.safeParse(op.payload);
+  if (!parsed.success) {
+    const fields = zodFields(parsed.error);
+    return rejectedOp(op, "INVALID_INPUT", `Check the detension: ${Object.keys(fields).join(", ")}.`, fields);
+  }
+  const p = parsed.data;
+  if (op.baseVersion !== undefined)
+    return rejectedOp(op, "INVALID_INPUT", "A detension is never a correction: send it without a base version.", {
+      baseVersion: ["Not allowed on a detension."],
+    });
+  const membership = user.memberships.find((m) => m.projectId === p.projectId);
+  if (!membership || !can(membership.role, "record.create")) {
+    const result = membership
+      ? rejectedOp(
+          op,
+          "FORBIDDEN",
+          `Your role on this project (${membership.role}) does not allow recording a detension.`,
+        )
+      : rejectedOp(op, "NOT_FOUND", "No such project among yours.");
+    await recordAudit(db, {
+      action: "detension.record",
+      outcome: "denied",
+      actorUserId: user.id,
+      target: op.recordId,
+      detail: { opId: op.opId, reason: result.error!.message },
+    });
+    return result;
+  }
+  if (p.authorUserId !== user.id)
+    return rejectedOp(
+      op,
+      "FORBIDDEN",
+      "This detension was recorded by another person on this tablet; it is sent when they sign in.",
+      { authorUserId: ["Not the signed-in person."] },
+    );
+  const now = input.now ?? new Date();
+  if (new Date(p.detensionedAt).getTime() > now.getTime() + FUTURE_SLACK_MS)
+    return refused(op, "detensionedAt", "The time of the detension lies in the future: check the tablet's clock.");
+  let pressureMPa: number | null = null;
+  if (p.pressure) {
+    try {
+      pressureMPa = parsePressure(p.pressure, { field: "pressure", system: "SI", defaultUnit: p.pressureUnit });
+    } catch (error) {
+      if (!isInputError(error)) throw error;
+      return refused(op, "pressure", `The gauge pressure at release “${p.pressure}” cannot be read as a pressure.`);
+    }
+    if (!(pressureMPa > 0)) return refused(op, "pressure", "The gauge pressure at release must be above zero.");
+  }
+
+  try {
+    return await inTransaction(db, async (trx) => {
+      const claim = await trx
+        .selectFrom("applied_ops")
+        .select(["user_id", "result"])
+        .where("op_id", "=", op.opId)
+        .executeTakeFirst();
+      if (claim) return duplicateOf(op, user.id, claim);
+
+      const [tendon, disposition, set, taken] = await Promise.all([
+        trx
+          .selectFrom("tendons")
+          .select(["id", "pour_id", "tag", "strand_count"])
+          .where("project_id", "=", p.projectId)
+          .where("id", "=", p.tendonId)
+          .executeTakeFirst(),
+        trx
+          .selectFrom("dispositions")
+          .select(["id", "decision"])
+          .where("project_id", "=", p.projectId)
+          .where("tendon_id", "=", p.tendonId)
+          .where("id", "=", p.dispositionId)
+          .executeTakeFirst(),
+        trx
+          .selectFrom("equipment_sets")
+          .select(["id", "name"])
+          .where("project_id", "=", p.projectId)
+          .where("id", "=", p.equipmentSetId)
+          .executeTakeFirst(),
+        trx.selectFrom("detensions").select("id").where("id", "=", op.recordId).executeTakeFirst(),
+      ]);
+      if (!tendon) return refused(op, "tendonId", "No such tendon on this project.");
+      if (tendon.pour_id !== p.pourId) return refused(op, "pourId", "The tendon is not in that pour.");
+      if (!disposition)
+        return refused(
+          op,
+          "dispositionId",
+          `No disposition of the engineer on ${tendon.tag} ordered a detension: nothing was saved. Detension only on the engineer of record's order.`,
+        );
+      if (disposition.decision !== "detension_restress")
+        return refused(
+          op,
+          "dispositionId",
+          `The engineer's disposition on ${tendon.tag} is “${DECISION_LABELS[disposition.decision]}”, not a detension: nothing was saved. Detension only on the engineer of record's order.`,
+        );
+      if (p.strandsDetensioned > tendon.strand_count)
+        return refused(
+          op,
+          "strandsDetensioned",
+          `${tendon.tag} has ${tendon.strand_count} strand${tendon.strand_count === 1 ? "" : "s"}: ${p.strandsDetensioned} cannot have been detensioned.`,
+        );
+      if (!set) return refused(op, "equipmentSetId", "No such equipment set on this project.");
+      if (taken) {
+        // A concurrent delivery of this same op committed between the first read and this one.
+        const again = await trx
+          .selectFrom("applied_ops")
+          .select(["user_id", "result"])
+          .where("op_id", "=", op.opId)
+          .executeTakeFirst();
+        if (again) return duplicateOf(op, user.id, again);
+        return {
+          opId: op.opId,
+          status: "conflict",
+          error: { code: "CONFLICT", message: "This detension id is already used; nothing was saved." },
+        };
+      }
+
+      const concurrent = await claimOp(trx, {
+        op,
+        projectId: p.projectId,
+        deviceId,
+        userId: user.id,
+        result: {},
+      });
+      // A concurrent delivery of the same op committed first.
+      if (concurrent) return duplicateOf(op, user.id, concurrent);
+
+      await trx
+        .insertInto("detensions")
+        .values({
+          id: op.recordId,
+          project_id: p.projectId,
+          pour_id: p.pourId,
+          tendon_id: p.tendonId,
+          disposition_id: disposition.id,
+          equipment_set_id: set.id,
+          operator_name: p.operatorName,
+          entered: pressureMPa === null ? null : JSON.stringify({ pressure: p.pressure, unit: p.pressureUnit }),
+          release_pressure_mpa: pressureMPa,
+          strands_detensioned: p.strandsDetensioned,
+          remarks: p.remarks ? p.remarks : null,
+          detensioned_at: p.detensionedAt,
+          recorded_by: user.id,
+          device_id: deviceId,
+        })
+        .execute();
+      await auditInsert(trx, {
+        action: "detension.record",
+        outcome: "success",
+        actorUserId: user.id,
+        projectId: p.projectId,
+        target: p.tendonId,
+        detail: { opId: op.opId, detensionId: op.recordId, dispositionId: disposition.id, deviceId },
+      }).execute();
+      return { opId: op.opId, status: "applied" } satisfies OpResult;
+    });
+  } catch (error) {
+    if (isReleasedPourRefusal(error))
+      return rejectedOp(op, "RELEASED", RELEASED_POUR_MESSAGE, { pourId: ["Released."] });
+    throw error;
+  }
+}

@@ -1,0 +1,171 @@
+import { expect, test } from "@playwright/test";
+import { screenshot } from "./support";
+import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
+import { makePourFixture, pushEndA } from "./pour-fixture";
+
+/**
+ * A detension from order to office: a tendon reads short and is flagged; the engineer orders a
+ * detension and restress; the crew's tablet (portrait, 800 × 1280) shows the order after the
+ * sync; with no signal the crew records the detension in the hold panel (too many strands is
+ * refused first and nothing is saved); back online the sync sends it once, the tendon stays
+ * held as "detensioned: restress required", and the engineer's tendon page shows it beside the
+ * disposition. On the way: the restress form offers only the end the tendon is stressed from, and
+ * the record photo link on the engineer's page answers with the photo. The pour is made for this spec.
+ */
+
+test.use({ viewport: { width: 800, height: 1280 }, hasTouch: true });
+
+const stamp = Date.now().toString(36);
+const POUR = `Detension ${stamp}`;
+/** A 1 × 1 PNG: enough for the upload's check by content. */
+const PNG = Buffer.from(
+  "iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNkYPhfDwAChwGA60e6kgAAAABJRU5ErkJggg==",
+  "base64",
+);
+
+test("the crew records an ordered detension offline; the tendon stays held and the office sees it", async ({
+  browser,
+}) => {
+  test.setTimeout(150_000);
+  const fx = await makePourFixture(POUR, [`DT-${stamp}-1`]);
+  const tendon = fx.tendons[0]!;
+  const crewApi = await apiAs(PEOPLE.crew);
+  const pushed = await pushEndA(crewApi, fx, tendon.id, 0.85);
+  expect(pushed.result).toMatchObject({ status: "applied" });
+
+  // A gauge photo with the record, uploaded as the tablet does (presign, PUT, confirm).
+  const started = await crewApi.post(`/api/projects/${fx.projectId}/uploads`, {
+    data: {
+      purpose: "record_photo",
+      contentType: "image/png",
+      sizeBytes: PNG.byteLength,
+      originalName: "gauge.png",
+      recordId: pushed.recordId,
+    },
+  });
+  expect(started.status()).toBe(201);
+  const upload = (await started.json()) as { attachmentId: string; uploadUrl: string; headers: Record<string, string> };
+  expect((await fetch(upload.uploadUrl, { method: "PUT", headers: upload.headers, body: PNG })).status).toBe(200);
+  expect((await crewApi.post(`/api/projects/${fx.projectId}/uploads/${upload.attachmentId}/confirm`)).status()).toBe(
+    200,
+  );
+
+  const [flag] = await queryDemo<{ id: string }>("select id from flags where tendon_id = $1 and kind = 'out_of_band'", [
+    tendon.id,
+  ]);
+  expect(flag).toBeTruthy();
+  const engineerApi = await apiAs(PEOPLE.engineer);
+  const ordered = await engineerApi.post(`/api/projects/${fx.projectId}/flags/${flag!.id}/dispositions`, {
+    data: {
+      decision: "detension_restress",
+      reasons: "Short by about 15 %: release the strand, check the sheathing at the live end, then stress it again.",
+      licenceStatement: "Licensed professional engineer (test)",
+    },
+  });
+  expect(ordered.status()).toBe(201);
+  const [strands] = await queryDemo<{ strand_count: number; ends: string }>(
+    "select strand_count, ends from tendons where id = $1",
+    [tendon.id],
+  );
+  const [set] = await queryDemo<{ name: string }>("select name from equipment_sets where id = $1", [fx.setId]);
+
+  const ctx = await browser.newContext({ viewport: { width: 800, height: 1280 }, hasTouch: true });
+  const crew = await ctx.newPage();
+  await signInWithPassword(crew, PEOPLE.crew);
+  await crew.waitForURL(/\/home/);
+  await crew.goto("/field");
+  await crew.getByTestId("available-pour").filter({ hasText: POUR }).getByRole("button").click();
+  await crew
+    .getByTestId("ready-pour")
+    .filter({ hasText: POUR })
+    .getByRole("link", { name: "Open tendon list" })
+    .click();
+  const rows = crew.getByTestId("tendon-row");
+  await expect(rows.first().getByTestId("hold-summary")).toHaveText("Held · detension and restress ordered");
+  await rows.first().click();
+  const panel = crew.getByTestId("hold-panel");
+  await expect(panel.getByTestId("hold-what-to-do")).toContainText("Record the detension");
+  const section = panel.getByTestId("detension");
+
+  // The signal goes; the detension is recorded on the tablet all the same.
+  await ctx.setOffline(true);
+  await expect(crew.getByTestId("connection")).toHaveText("No signal");
+  await section.getByTestId("detension-open").click();
+  const form = section.getByTestId("detension-form");
+  await form.getByRole("radio", { name: new RegExp(set!.name) }).check();
+  await form.getByTestId("detension-pressure").fill("1200");
+  await form
+    .getByTestId("detension-remarks")
+    .fill("Wedges released with the jack; sheathing split 300 mm from the live end.");
+  // More strands than the tendon has is refused, naming the box; nothing is saved.
+  await form.getByTestId("detension-strands").fill(String(strands!.strand_count + 1));
+  await form.getByTestId("detension-save").click();
+  await expect(form.getByRole("alert")).toContainText(`has ${strands!.strand_count} strand`);
+  await expect(form.getByTestId("detension-strands")).toHaveAttribute("aria-invalid", "true");
+  await expect(section.getByTestId("detension-item")).toHaveCount(0);
+  await screenshot(crew, "field-detension-refused-portrait");
+
+  await form.getByTestId("detension-strands").fill(String(strands!.strand_count));
+  await form.getByTestId("detension-save").click();
+  const item = section.getByTestId("detension-item");
+  await expect(item).toHaveCount(1);
+  await expect(item.getByTestId("detension-state")).toContainText("waiting to send");
+  await expect(item).toContainText("Gauge at release: 1200 psi");
+  await expect(section.getByTestId("detension-restress-required")).toContainText("restress required at end A");
+  await expect(crew.getByTestId("pending-count")).toContainText("1");
+  await screenshot(crew, "field-detension-saved-offline-portrait");
+  expect(await queryDemo("select id from detensions where tendon_id = $1", [tendon.id])).toHaveLength(0);
+
+  // Back in signal: the sync sends it, once.
+  await ctx.setOffline(false);
+  await crew.getByRole("button", { name: "Sync now" }).click();
+  await expect(item.getByTestId("detension-state")).toContainText("received by the server", { timeout: 20_000 });
+  await crew.getByRole("button", { name: "Sync now" }).click();
+  const stored = await queryDemo<{ disposition_id: string; strands_detensioned: number }>(
+    "select disposition_id, strands_detensioned from detensions where tendon_id = $1",
+    [tendon.id],
+  );
+  expect(stored).toHaveLength(1);
+  expect(stored[0]!.strands_detensioned).toBe(strands!.strand_count);
+  const [order] = await queryDemo<{ id: string }>("select id from dispositions where flag_id = $1", [flag!.id]);
+  expect(stored[0]!.disposition_id).toBe(order!.id);
+
+  // Held until the restress: the list says so and the tails stay uncut.
+  await expect(rows.first().getByTestId("hold-summary")).toHaveText("Held · detensioned: restress required");
+  await expect(crew.getByTestId("tail-held-reasons")).toContainText("Detensioned: restress required");
+  await screenshot(crew, "field-detension-held-portrait");
+
+  // The restress form offers only the end this tendon is stressed from.
+  await crew.getByRole("button", { name: "Record a restress" }).click();
+  const endChoices = crew.locator('input[type="radio"][name="tendonEnd"]');
+  await expect(endChoices).toHaveCount(strands!.ends === "both" ? 2 : 1);
+  if (strands!.ends !== "both") await expect(endChoices.first()).toHaveAttribute("value", strands!.ends);
+
+  // The engineer's tendon page shows the detension beside the disposition that ordered it.
+  const office = await browser.newContext({ viewport: { width: 800, height: 1280 } });
+  const engineer = await office.newPage();
+  await signInWithPassword(engineer, PEOPLE.engineer);
+  await engineer.waitForURL(/\/home/);
+  await engineer.goto(`/projects/${fx.projectId}/tendons/${tendon.id}/flags`);
+  const shown = engineer.getByTestId("detension-record");
+  await expect(shown).toContainText(`${strands!.strand_count} of ${strands!.strand_count} strand`);
+  await expect(shown).toContainText("Gauge at release: 1200 psi");
+  await expect(shown).toContainText("sheathing split");
+  await expect(engineer.getByTestId("detension-restress-state")).toContainText("Held: restress required at end A");
+  await shown.scrollIntoViewIfNeeded();
+  await screenshot(engineer, "office-detension-beside-disposition");
+
+  // The record's photo link answers with the photo.
+  const photo = engineer.getByRole("link", { name: "Photo 1" });
+  const href = await photo.getAttribute("href");
+  expect(href).toBe(`/api/projects/${fx.projectId}/attachments/${upload.attachmentId}`);
+  const answer = await engineer.request.get(href!);
+  expect(answer.status()).toBe(200);
+  expect(answer.headers()["content-type"]).toBe("image/png");
+  expect(Buffer.from(await answer.body()).equals(PNG)).toBe(true);
+
+  await office.close();
+  await ctx.close();
+  await crewApi.dispose();
+  await engineerApi.dispose();
+});
