@@ -74,3 +74,12 @@ export function shiftDay(day: string, by: number): string {
   const [y, m, d] = day.split("-").map(Number) as [number, number, number];
   return format(addDays(new Date(y, m - 1, d), by), "yyyy-MM-dd");
 }
+
+/**
+ * The instant a local time of day ("minutes" after midnight) falls on a calendar day in a time
+ * zone. A time the clocks skip on a spring-forward day comes out as the instant just after the jump.
+ */
+export function instantOnDay(day: string, minutes: number, timeZone: string): Date {
+  const [y, m, d] = day.split("-").map(Number) as [number, number, number];
+  return new Date(new TZDate(y, m - 1, d, Math.floor(minutes / 60), minutes % 60, timeZone).getTime());
+}

@@ -19,6 +19,7 @@ import { ENGINE_VERSION, findStrandSize } from "@/lib/elongation";
 import { env } from "@/lib/env";
 import { flagMail } from "@/lib/mail/templates";
 import type { JudgeInput, JudgeRecord } from "@/lib/stressing/judge";
+import { flagRecipientsNow } from "@/lib/stressing/flag-mail";
 import { judgeAndFlag } from "@/lib/stressing/rules";
 import { WIRES_PER_STRAND } from "@/lib/stressing/rules/member-wire-loss";
 import { answeredOrder } from "@/lib/stressing/rules/stressed-twice";
@@ -589,9 +590,12 @@ export function planEvaluation(
           }));
 
   let notification: EvaluationPlan["notification"] = null;
-  const recipients = [
-    ...new Set([project.engineerOfRecordEmail, ...project.notifyEmails].filter((e): e is string => Boolean(e))),
-  ];
+  // Members who take a digest get these flags at the shift's end, unless one must go at once.
+  const recipients = flagRecipientsNow(
+    project,
+    project.digestEmails ?? [],
+    flags.map((f) => f.kind),
+  );
   if (flags.length && recipients.length) {
     const mail = flagMail({
       to: recipients,

@@ -11,6 +11,7 @@ import { pickCalibration } from "@/lib/schemas/calibration";
 import { liftoffPayloadSchema } from "@/lib/schemas/liftoff";
 import type { FieldLiftoffResult, OpResult, SyncOp } from "@/lib/schemas/sync";
 import { zodFields } from "@/lib/schemas/zod-fields";
+import { flagRecipientsNow } from "@/lib/stressing/flag-mail";
 import { predictTendon } from "@/lib/stressing/basis";
 import {
   expectedAnchorForceN,
@@ -257,11 +258,7 @@ export async function recordLiftoffCheck(
         .returning("id")
         .executeTakeFirstOrThrow();
       raisedFlagId = flag.id;
-      const recipients = [
-        ...new Set(
-          [basis.project.engineerOfRecordEmail, ...basis.project.notifyEmails].filter((e): e is string => Boolean(e)),
-        ),
-      ];
+      const recipients = flagRecipientsNow(basis.project, basis.project.digestEmails ?? [], ["liftoff_out_of_band"]);
       if (recipients.length) {
         const mail = flagMail({
           to: recipients,
