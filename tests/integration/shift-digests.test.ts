@@ -5,6 +5,9 @@ import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { queueShiftDigests } from "@/lib/server/queue-shift-digests";
 import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { setFlagMail } from "@/lib/server/set-flag-mail";
+import { getProjectSettings } from "@/lib/server/get-project-settings";
+import { updateProjectSettings } from "@/lib/server/update-project-settings";
+import { projectSettingsSchema } from "@/lib/schemas/project-settings";
 import { predictTendon } from "@/lib/stressing/basis";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 import { demoFixture, insertRecord } from "../support/records";
@@ -170,5 +173,32 @@ describe("the engineer's shift digest", () => {
       .where("flags.tendon_id", "=", tendon.id)
       .execute();
     expect(mails.map((m) => m.to_emails)).toEqual([["inspector@demo.tautline.test"]]);
+  });
+
+  it("follows the shift ends the admin sets: with 06:00 and 18:00 a night shift ends at 06:00", async () => {
+    const settings = await getProjectSettings(t.db, fx.projectId);
+    const refused = projectSettingsSchema.safeParse({ ...settings, shiftEndMinutes: [1080, 1080] });
+    expect(refused.success).toBe(false);
+    expect(JSON.stringify(refused.error?.issues)).toContain("A shift end is given twice.");
+    const values = projectSettingsSchema.parse({ ...settings, shiftEndMinutes: [1080, 360] });
+    const admin = await t.db
+      .selectFrom("users")
+      .select("id")
+      .where("email", "=", "admin@demo.tautline.test")
+      .executeTakeFirstOrThrow();
+    await updateProjectSettings(t.db, { projectId: fx.projectId, values, by: admin.id });
+    expect((await getProjectSettings(t.db, fx.projectId)).shiftEndMinutes).toEqual([360, 1080]);
+
+    await t.db
+      .updateTable("project_members")
+      .set({ flag_mail: "digest", digest_from: new Date("2025-06-20T23:00:00Z") })
+      .where("project_id", "=", fx.projectId)
+      .where("user_id", "=", engineerId)
+      .execute();
+    // 02:00 CDT on 2025-06-21, in the night shift that ends at 06:00 CDT (11:00 UTC).
+    await raiseFlag("2-1-U04", "seating_excess", "2025-06-21T07:00:00Z", "Seating 0.45 in, over the limit.");
+    expect(await queueShiftDigests(t.db, { now: new Date("2025-06-21T10:59:00Z") })).toBe(0);
+    expect(await queueShiftDigests(t.db, { now: new Date("2025-06-21T11:00:00Z") })).toBe(1);
+    expect((await digestsOf(engineerId)).at(-1)!.text_body).toContain("2025-06-20 18:00 CDT to 2025-06-21 06:00 CDT");
   });
 });
