@@ -139,7 +139,7 @@ export function workOrderMail(input: {
     `${input.projectName}, ${input.pourName}, tendon ${input.tendonTag}.`,
     `The engineer of record, ${input.engineerName}, ordered: ${input.decisionLabel}.`,
     `Instructions: ${input.instructions}`,
-    `It answers the flag: ${input.flagKind.replaceAll("_", " ")}.`,
+    `It answers the flag: ${flagLabel(input.flagKind).toLowerCase()}.`,
     ...(input.lastStressing ? [`Last stressing on the server: ${input.lastStressing}.`] : []),
     "The tendon stays held: do not cut tails or grout it until the work is recorded and its flags are closed.",
   ];

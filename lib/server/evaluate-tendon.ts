@@ -23,6 +23,7 @@ import { flagRecipientsNow } from "@/lib/stressing/flag-mail";
 import { judgeAndFlag } from "@/lib/stressing/rules";
 import { WIRES_PER_STRAND } from "@/lib/stressing/rules/member-wire-loss";
 import { answeredOrder } from "@/lib/stressing/rules/stressed-twice";
+import { showWobble } from "@/lib/format/quantities";
 import { governsLine, showLength, showPct } from "@/lib/stressing/display";
 import { selectTendonBasis, toLoadedTendon, type LoadedTendon } from "./load-tendon-basis";
 
@@ -611,7 +612,7 @@ export function planEvaluation(
           : `${verdict}${provisional ? " (provisional: not every end read)" : ""}, ${showPct(deviationPct)}`,
       basisLine:
         `Compared ${judgement.basisLabel}, ±${project.tolerancePct} % band, ` +
-        `μ ${project.frictionMu}, K ${project.wobblePerM.toFixed(4)} per m, anchor set ${showLength(project, project.anchorSetMm)}, ` +
+        `μ ${project.frictionMu}, K ${showWobble(project, project.wobblePerM)}, anchor set ${showLength(project, project.anchorSetMm)}, ` +
         `${judgement.strand.source === "strand lot" ? `strand lot ${basis.lot?.lotNumber}` : "nominal strand values"}. ` +
         governsLine(project, judgement),
       url: `${env.APP_URL}/projects/${input.projectId}/tendons/${input.tendonId}/flags`,

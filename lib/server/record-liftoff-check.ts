@@ -5,7 +5,7 @@ import type { Database } from "@/db/types";
 import { env } from "@/lib/env";
 import { can } from "@/lib/auth/permissions";
 import { dayInZone } from "@/lib/format/dates";
-import { showPressure } from "@/lib/format/quantities";
+import { showPressure, showWobble } from "@/lib/format/quantities";
 import { flagMail } from "@/lib/mail/templates";
 import { pickCalibration } from "@/lib/schemas/calibration";
 import { liftoffPayloadSchema } from "@/lib/schemas/liftoff";
@@ -269,7 +269,7 @@ export async function recordLiftoffCheck(
           verdictLine: `lift-off ${judged.deviationPct >= 0 ? "+" : "−"}${Math.abs(judged.deviationPct).toFixed(1)} % from the expected anchor force`,
           basisLine:
             `expected force at end ${p.tendonEnd} after seating from Tautline's force profile ` +
-            `(μ ${basis.project.frictionMu}, K ${basis.project.wobblePerM.toFixed(4)} per m), ±${judged.bandPct} % lift-off band.`,
+            `(μ ${basis.project.frictionMu}, K ${showWobble(basis.project, basis.project.wobblePerM)}), ±${judged.bandPct} % lift-off band.`,
           url: `${env.APP_URL}/projects/${p.projectId}/tendons/${p.tendonId}/flags`,
         });
         await trx

@@ -169,10 +169,13 @@ describe("the engineer's shift digest", () => {
     const mails = await t.db
       .selectFrom("notifications")
       .innerJoin("flags", "flags.id", "notifications.flag_id")
-      .select("notifications.to_emails")
+      .select(["notifications.to_emails", "notifications.text_body"])
       .where("flags.tendon_id", "=", tendon.id)
       .execute();
     expect(mails.map((m) => m.to_emails)).toEqual([["inspector@demo.tautline.test"]]);
+    // A US project: the basis line's wobble is per foot, and no SI unit appears.
+    expect(mails[0]!.text_body).toMatch(/K 0\.\d{4} per ft/);
+    expect(mails[0]!.text_body).not.toMatch(/MPa|per m\b| mm\b/);
   });
 
   it("follows the shift ends the admin sets: with 06:00 and 18:00 a night shift ends at 06:00", async () => {
