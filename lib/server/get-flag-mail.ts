@@ -10,11 +10,23 @@ import { nextShiftEnd } from "@/lib/stressing/shift";
 export async function getFlagMail(
   db: Kysely<Database>,
   input: { projectId: string; userId: string; now?: Date },
-): Promise<{ mode: FlagMailMode; digestFrom: Date | null; timeZone: string; shiftEnds: number[]; nextEnd: Date }> {
+): Promise<{
+  mode: FlagMailMode;
+  digestFrom: Date | null;
+  timeZone: string;
+  shiftEnds: number[];
+  nextEnd: Date;
+  /** Whether the project's settings list the member's address for flag e-mails. */
+  listed: boolean;
+}> {
   const row = await db
     .selectFrom("project_members")
     .innerJoin("projects", "projects.id", "project_members.project_id")
+    .innerJoin("users", "users.id", "project_members.user_id")
     .select([
+      "users.email",
+      "projects.engineer_of_record_email",
+      "projects.notify_emails",
       "project_members.flag_mail",
       "project_members.digest_from",
       "projects.time_zone",
@@ -31,5 +43,8 @@ export async function getFlagMail(
     timeZone,
     shiftEnds: row.shift_end_minutes,
     nextEnd: nextShiftEnd(input.now ?? new Date(), timeZone, row.shift_end_minutes),
+    listed: [row.engineer_of_record_email, ...row.notify_emails].some(
+      (e) => e?.toLowerCase() === row.email.toLowerCase(),
+    ),
   };
 }

@@ -6,6 +6,7 @@ import { queueShiftDigests } from "@/lib/server/queue-shift-digests";
 import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { setFlagMail } from "@/lib/server/set-flag-mail";
 import { getProjectSettings } from "@/lib/server/get-project-settings";
+import { getFlagMail } from "@/lib/server/get-flag-mail";
 import { updateProjectSettings } from "@/lib/server/update-project-settings";
 import { projectSettingsSchema } from "@/lib/schemas/project-settings";
 import { predictTendon } from "@/lib/stressing/basis";
@@ -136,6 +137,14 @@ describe("the engineer's shift digest", () => {
       .where("user_id", "=", engineerId)
       .executeTakeFirstOrThrow();
     expect(member).toEqual({ flag_mail: "each", digest_from: null });
+    // The engineer's own screen reads the choice, the project's shift and that the address is listed.
+    const shown = await getFlagMail(t.db, {
+      projectId: fx.projectId,
+      userId: engineerId,
+      now: new Date("2025-06-12T16:00:00Z"),
+    });
+    expect(shown).toMatchObject({ mode: "each", timeZone: "America/Chicago", shiftEnds: [1080], listed: true });
+    expect(shown.nextEnd.toISOString()).toBe("2025-06-12T23:00:00.000Z");
   });
 
   it("keeps a digest reader off the flag's own e-mail, and the inspector still gets it", async () => {

@@ -22,6 +22,13 @@ export default async function FlagMailPage({ params }: { params: Promise<{ proje
           {choice.shiftEnds.map(formatShiftEnd).join(", ")} ({choice.timeZone}); the next ends{" "}
           {formatDateTime(choice.nextEnd, choice.timeZone)}.
         </p>
+        {!choice.listed && (
+          <p className="mt-2 border-l-4 border-signal-stop pl-2 font-semibold" data-testid="flag-mail-unlisted">
+            The project&apos;s settings do not list your address for flag e-mails, so no e-mail per flag comes to you;
+            the project admin adds it under the project&apos;s settings. A digest you choose here comes to you either
+            way.
+          </p>
+        )}
       </header>
       <FlagMailForm
         projectId={projectId}

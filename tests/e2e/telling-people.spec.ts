@@ -4,11 +4,12 @@ import { makePourFixture, pushEndA } from "./pour-fixture";
 import { screenshot } from "./support";
 
 /**
- * The drift alarm during the shift: on a pour made for this spec, five tendons stressed with the
+ * Telling people during the shift. The drift alarm: on a pour made for this spec, five tendons stressed with the
  * demo's first set come out close to the prediction and five stressed with its second set come out
  * about 5 % long. The crew's tablet (landscape 1280 × 800, then portrait) shows "check this gauge
  * against the master gauge" with the second set's figures at the top of the pour, and the
- * inspector gets one e-mail about it.
+ * inspector gets one e-mail about it. The flag e-mail choice: an engineer sets a digest per shift
+ * for themself on their own screen.
  */
 
 const stamp = Date.now().toString(36);
@@ -80,5 +81,51 @@ test("a set that reads long on the pour raises the gauge check on the tablet and
   expect(mail.subject).toBe(`Tautline gauge check: ${second!.name}, ${POUR}`);
   expect(mail.text).toContain(`${second!.name}: mean deviation +`);
   expect(mail.text).not.toMatch(/MPa/);
+  await ctx.close();
+});
+
+test("an engineer chooses a digest per shift for themself on the project, on their own screen", async ({ browser }) => {
+  test.setTimeout(90_000);
+  // An engineer of our own, so the demo engineer's flag e-mails stay as they are for other specs.
+  const email = `digest-${stamp}@demo.tautline.test`;
+  const [user] = await queryDemo<{ id: string }>(
+    `insert into users (email, name, password_hash, email_verified)
+     select $1, 'Dana Digest', password_hash, now() from users where email = $2 returning id`,
+    [email, PEOPLE.engineer],
+  );
+  const [project] = await queryDemo<{ id: string }>("select id from projects where code = 'AYP'");
+  await queryDemo("insert into project_members (project_id, user_id, role) values ($1, $2, 'engineer')", [
+    project!.id,
+    user!.id,
+  ]);
+
+  const ctx = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+  const page = await ctx.newPage();
+  await signInWithPassword(page, email);
+  await page.waitForURL(/\/home/);
+  await page
+    .getByRole("link", { name: /your flag e-mails on/ })
+    .first()
+    .click();
+  await expect(page.getByRole("heading", { name: "Your flag e-mails" })).toBeVisible();
+  await expect(page.getByText(/shifts end at 18:00/)).toBeVisible();
+  // Dana is not on the project's list of flag addresses, and the page says so.
+  await expect(page.getByTestId("flag-mail-unlisted")).toBeVisible();
+  const each = page.getByRole("radio", { name: /One e-mail per flag/ });
+  const digest = page.getByRole("radio", { name: /One digest per shift/ });
+  await expect(each).toBeChecked();
+  await expect(page.getByRole("button", { name: "Save my choice" })).toBeDisabled();
+  await digest.check();
+  await page.getByRole("button", { name: "Save my choice" }).click();
+  await expect(page.getByRole("status")).toContainText("Your first digest comes after the shift that ends");
+  await screenshot(page, "flag-mail-digest");
+  const [member] = await queryDemo<{ flag_mail: string; digest_from: Date | null }>(
+    "select flag_mail, digest_from from project_members where project_id = $1 and user_id = $2",
+    [project!.id, user!.id],
+  );
+  expect(member!.flag_mail).toBe("digest");
+  expect(member!.digest_from).not.toBeNull();
+  await page.reload();
+  await expect(digest).toBeChecked();
   await ctx.close();
 });
