@@ -68,6 +68,8 @@ export interface ProjectsTable {
   clock_skew_minutes: Generated<number>;
   /** Lift-off checks: the band on the lift-off force against the expected anchor force, ± %. */
   liftoff_band_pct: Generated<number>;
+  /** When the project's shifts end, minutes after local midnight (default [1080], 18:00). */
+  shift_end_minutes: Generated<number[]>;
   governing_value: Generated<"tautline" | "shop_drawing">;
   created_at: Timestamp;
   updated_at: Timestamp;
@@ -78,6 +80,17 @@ export interface ProjectMembersTable {
   user_id: string;
   role: Role;
   created_at: Timestamp;
+  /** Flag e-mails one per flag ("each") or one digest per shift ("digest"). */
+  flag_mail: Generated<"each" | "digest">;
+  /** Where the member's next shift digest begins; set while flag_mail is "digest". */
+  digest_from: Timestamp | null;
+}
+
+export interface GaugeDriftScansTable {
+  pour_id: string;
+  project_id: string;
+  /** The latest evaluation of the pour already looked at for a drifting gauge. */
+  scanned_through: Timestamp;
 }
 
 export interface PoursTable {
@@ -583,6 +596,7 @@ export interface Database {
   tail_cuts: TailCutsTable;
   liftoff_checks: LiftoffChecksTable;
   detensions: DetensionsTable;
+  gauge_drift_scans: GaugeDriftScansTable;
 }
 
 export type User = Selectable<UsersTable>;

@@ -3,11 +3,15 @@
 // if it ever dies) and `npm test`. A lost database connection or a PostgreSQL restart never ends
 // it: the pool has an error listener (db/connect.ts), a failed pass is logged and retried with
 // exponential backoff (1 s doubling to 30 s), and every good pass stamps a heartbeat that
-// /api/health and the engineer's and admin's screens read. Once an hour it also deletes uploads
-// that were never confirmed within a day.
+// /api/health and the engineer's and admin's screens read. Each pass first queues the shift
+// digests of shifts that have ended (lib/server/queue-shift-digests.ts) and the inspectors'
+// gauge checks of pours judged since the last pass (lib/server/queue-gauge-checks.ts). Once an hour it also
+// deletes uploads that were never confirmed within a day.
 import { createDb } from "@/db/connect";
 import { env } from "@/lib/env";
 import { drainNotifications } from "@/lib/server/dispatch-notifications";
+import { queueGaugeChecks } from "@/lib/server/queue-gauge-checks";
+import { queueShiftDigests } from "@/lib/server/queue-shift-digests";
 import { recordHeartbeat, recordWorkerError } from "@/lib/server/record-heartbeat";
 import { cleanPendingUploads } from "@/lib/storage";
 
@@ -26,6 +30,11 @@ const log = (message: string) => console.log(`${new Date().toISOString()} ${mess
 /** One pass; returns how long to wait before the next. */
 async function tick(): Promise<number> {
   try {
+    // Digests of shifts that have ended go in the outbox first, so this pass sends them.
+    const digests = await queueShiftDigests(db);
+    if (digests) log(`queued ${digests} shift digest${digests > 1 ? "s" : ""}`);
+    const gauges = await queueGaugeChecks(db);
+    if (gauges) log(`queued ${gauges} gauge check${gauges > 1 ? "s" : ""}`);
     const sent = await drainNotifications(db);
     await recordHeartbeat(db, "dispatcher");
     if (sent) log(`sent ${sent} e-mail${sent > 1 ? "s" : ""}`);

@@ -17,6 +17,7 @@ import { stressedEnds } from "@/lib/stressing/basis";
 import { showLength, showPressure } from "@/lib/stressing/display";
 import { DecisionNotices } from "./decision-notices";
 import { useField } from "./field-provider";
+import { GaugeCheck } from "./gauge-check";
 import { PourReleaseNote } from "./pour-release-note";
 import { concreteGateMet } from "@/lib/stressing/concrete-strength";
 import { CutAllClear, TailCutPanel } from "./tail-cut";
@@ -238,6 +239,13 @@ export function PourLog() {
   return (
     <main className="grid gap-4 p-4 landscape:grid-cols-[15rem_minmax(0,1fr)] landscape:items-start">
       <DecisionNotices pourId={pour.id} className="landscape:col-span-2" />
+      <GaugeCheck
+        className="landscape:col-span-2"
+        tendons={tendons}
+        latest={(id) => latestOf(evaluations, id)}
+        records={records}
+        sets={sets}
+      />
       <section
         aria-label="Tendons"
         className="grid grid-cols-[minmax(0,1fr)] gap-3 landscape:sticky landscape:top-28 landscape:max-h-[calc(100vh-8rem)] landscape:overflow-y-auto"

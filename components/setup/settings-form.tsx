@@ -9,6 +9,7 @@ import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { projectSettingsSchema, type ProjectSettings } from "@/lib/schemas/project-settings";
 import { PER, shown, units } from "@/lib/client/unit-fields";
+import { DEFAULT_SHIFT_ENDS, formatShiftEnd, parseShiftEnds } from "@/lib/stressing/shift";
 
 type KUnit = "per ft" | "per m";
 
@@ -42,6 +43,14 @@ function fields(us: boolean) {
     underForcePct: units.number(),
     seatingExcessMm: units.length(system, us ? "in" : "mm"),
     clockSkewMinutes: units.number(),
+    shiftEnds: z.string().transform((typed, ctx) => {
+      const read = parseShiftEnds(typed);
+      if ("error" in read) {
+        ctx.addIssue({ code: "custom", message: read.error });
+        return z.NEVER;
+      }
+      return read.ends;
+    }),
     governing: z.enum(["tautline", "shop_drawing"]),
   };
 }
@@ -49,7 +58,7 @@ function fields(us: boolean) {
 function resolver(us: boolean) {
   return formResolver(
     fields(us),
-    ({ wobble, wobbleUnit, ...v }) => ({
+    ({ wobble, wobbleUnit, shiftEnds, ...v }) => ({
       ...v,
       address: v.address?.trim() || null,
       engineerOfRecordName: v.engineerOfRecordName?.trim() || null,
@@ -65,6 +74,8 @@ function resolver(us: boolean) {
       underForcePct: v.underForcePct as number,
       seatingExcessMm: v.seatingExcessMm as number,
       clockSkewMinutes: v.clockSkewMinutes as number,
+      // A box that could not be read has its own message; the SI check leaves it alone.
+      shiftEndMinutes: shiftEnds ?? undefined,
     }),
     projectSettingsSchema.required({
       timeZone: true,
@@ -75,7 +86,7 @@ function resolver(us: boolean) {
       seatingExcessMm: true,
       clockSkewMinutes: true,
     }),
-    { wobblePerM: "wobble" },
+    { wobblePerM: "wobble", shiftEndMinutes: "shiftEnds" },
   );
 }
 
@@ -138,6 +149,7 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
       underForcePct: String(settings.underForcePct ?? 2),
       seatingExcessMm: shown(settings.seatingExcessMm ?? 3.175, PER[len]),
       clockSkewMinutes: String(settings.clockSkewMinutes ?? 10),
+      shiftEnds: (settings.shiftEndMinutes ?? DEFAULT_SHIFT_ENDS).map(formatShiftEnd).join(", "),
       governing: settings.governing ?? "tautline",
     },
   });
@@ -313,6 +325,14 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
           error={err("clockSkewMinutes")}
         >
           <input className="field-input" inputMode="numeric" {...reg("clockSkewMinutes")} />
+        </Row>
+        <Row
+          id="s-shiftEnds"
+          label="Shifts end at (site time, 24-hour clock)"
+          hint="One to four times, e.g. 18:00 or 06:00, 18:00. An engineer who takes a digest gets it after each."
+          error={err("shiftEnds")}
+        >
+          <input className="field-input" autoComplete="off" {...reg("shiftEnds")} />
         </Row>
         <Row
           id="s-timeZone"

@@ -26,6 +26,7 @@ import * as oneOpenConcreteFlag from "./2026-12-11T090000-one-open-concrete-flag
 import * as memberWireLedger from "./2026-12-11T100000-member-wire-ledger";
 import * as forceAgreement from "./2026-12-12T100000-force-agreement";
 import * as detensions from "./2026-12-12T120000-detensions";
+import * as shiftDigests from "./2026-12-12T130000-shift-digests";
 import * as dailyAttestation from "./2026-12-12T140000-daily-attestation";
 
 // A static index: vitest and bundlers cannot import .ts migrations from a folder scan.
@@ -58,5 +59,6 @@ export const migrations: Record<string, Migration> = {
   "2026-12-11T100000-member-wire-ledger": memberWireLedger,
   "2026-12-12T100000-force-agreement": forceAgreement,
   "2026-12-12T120000-detensions": detensions,
+  "2026-12-12T130000-shift-digests": shiftDigests,
   "2026-12-12T140000-daily-attestation": dailyAttestation,
 };

@@ -20,6 +20,8 @@ export const PERMISSIONS = {
   "concrete.confirm": ["inspector", "admin"],
   "flag.review": ["inspector", "engineer"],
   "disposition.create": ["engineer"],
+  // The engineer's own choice of one e-mail per flag or a digest per shift.
+  "flag_mail.choose": ["engineer"],
   // Which of the two releases a given project is the project's own rule (projects.release_by).
   "pour.release": ["inspector", "engineer"],
   // Undoing a release is the engineer of record's act alone, with a reason.

@@ -93,3 +93,12 @@ export function instantFromLocalInput(value: string, timeZone: string): Date | n
   // A day past the month's end (31 June) rolls over: refuse it rather than move it.
   return localInputValue(instant, timeZone) === value.trim() ? instant : null;
 }
+
+/**
+ * The instant a local time of day ("minutes" after midnight) falls on a calendar day in a time
+ * zone. A time the clocks skip on a spring-forward day comes out as the instant just after the jump.
+ */
+export function instantOnDay(day: string, minutes: number, timeZone: string): Date {
+  const [y, m, d] = day.split("-").map(Number) as [number, number, number];
+  return new Date(new TZDate(y, m - 1, d, Math.floor(minutes / 60), minutes % 60, timeZone).getTime());
+}

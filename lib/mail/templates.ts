@@ -142,7 +142,7 @@ export function workOrderMail(input: {
     `${input.projectName}, ${input.pourName}, tendon ${input.tendonTag}.`,
     `The engineer of record, ${input.engineerName}, ordered: ${input.decisionLabel}.`,
     `Instructions: ${input.instructions}`,
-    `It answers the flag: ${input.flagKind.replaceAll("_", " ")}.`,
+    `It answers the flag: ${flagLabel(input.flagKind).toLowerCase()}.`,
     ...(input.lastStressing ? [`Last stressing on the server: ${input.lastStressing}.`] : []),
     "The tendon stays held: do not cut tails or grout it until the work is recorded and its flags are closed.",
   ];
@@ -176,6 +176,62 @@ export function releaseMail(input: {
   return {
     to: input.to.join(", "),
     subject: `Tautline release: ${input.pourName}, ${input.projectName}`,
+    html: layout(title, paragraphs, action, CAUTION_LINE),
+    text: text(title, paragraphs, action, CAUTION_LINE),
+  };
+}
+
+/**
+ * To one engineer who takes flags as a digest: every flag raised on the project in the shift,
+ * one line each, figures already written in the project's units.
+ */
+export function shiftDigestMail(input: {
+  to: string;
+  projectName: string;
+  /** The digest's span in words, e.g. "2026-12-02 18:00 CST to 2026-12-03 18:00 CST". */
+  period: string;
+  flags: { line: string }[];
+  url: string;
+}): OutgoingMail {
+  const n = input.flags.length;
+  const title = `${n} flag${n === 1 ? "" : "s"} raised in the shift on ${input.projectName}`;
+  const paragraphs = [
+    `Flags raised from ${input.period}.`,
+    ...input.flags.map((f, i) => `${i + 1}. ${f.line}`),
+    "A flagged tendon stays held on the crew's tablet: no tails cut or grout until a disposition is recorded.",
+  ];
+  const action = { label: "Open the review queue", url: input.url };
+  return {
+    to: input.to,
+    subject: `Tautline shift digest: ${n} flag${n === 1 ? "" : "s"}, ${input.projectName}`,
+    html: layout(title, paragraphs, action, CAUTION_LINE),
+    text: text(title, paragraphs, action, CAUTION_LINE),
+  };
+}
+
+/**
+ * To the inspectors: an equipment set's tendons on a pour come out long or short against the
+ * other sets by more than the scatter explains. Figures arrive already in words.
+ */
+export function gaugeCheckMail(input: {
+  to: string[];
+  projectName: string;
+  pourName: string;
+  setName: string;
+  figures: string;
+  note: string;
+  url: string;
+}): OutgoingMail {
+  const title = `Check the gauge of ${input.setName} against the master gauge`;
+  const paragraphs = [
+    `${input.projectName}, ${input.pourName}: ${input.figures}.`,
+    input.note,
+    "Check this gauge against the master gauge (or have the set recalibrated) before it stresses more tendons; the engineer of record decides what the tendons already stressed need.",
+  ];
+  const action = { label: "Open the pour's insight", url: input.url };
+  return {
+    to: input.to.join(", "),
+    subject: `Tautline gauge check: ${input.setName}, ${input.pourName}`,
     html: layout(title, paragraphs, action, CAUTION_LINE),
     text: text(title, paragraphs, action, CAUTION_LINE),
   };

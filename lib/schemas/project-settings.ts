@@ -106,6 +106,20 @@ export const projectSettingsSchema = z.object({
     .min(1, "The clock check must be at least 1 minute.")
     .max(1440, "The clock check must be at most 1440 minutes (a day).")
     .optional(),
+  // When the project's shifts end, minutes after local midnight; the engineer's digest goes after each.
+  shiftEndMinutes: z
+    .array(
+      z
+        .number({ error: "Give each shift end as a time of day, e.g. 18:00." })
+        .int("Give each shift end in whole minutes.")
+        .min(0, "A shift end is a time of day, 00:00 to 23:59.")
+        .max(1439, "A shift end is a time of day, 00:00 to 23:59."),
+      { error: "Give the shift ends as times of day, e.g. 18:00." },
+    )
+    .min(1, "Give at least one shift end, e.g. 18:00.")
+    .max(4, "At most 4 shift ends a day.")
+    .refine((ends) => new Set(ends).size === ends.length, "A shift end is given twice.")
+    .optional(),
   governing: z
     .enum(["tautline", "shop_drawing"], {
       error: "Pick which elongation governs the verdict: Tautline's prediction or the approved shop drawing.",

@@ -249,6 +249,8 @@ export interface FieldEvaluation {
   provisional: boolean;
   deviationPct: number | null;
   createdAt: string;
+  /** The records the evaluation judged (absent from servers before the gauge check on the tablet). */
+  recordIds?: string[];
 }
 
 /** The engineer's decision on a flag, as the crew needs it at the slab edge. */

@@ -19,10 +19,12 @@ import { ENGINE_VERSION, findStrandSize } from "@/lib/elongation";
 import { env } from "@/lib/env";
 import { flagMail } from "@/lib/mail/templates";
 import type { JudgeInput, JudgeRecord } from "@/lib/stressing/judge";
+import { flagRecipientsNow } from "@/lib/stressing/flag-mail";
 import { judgeAndFlag } from "@/lib/stressing/rules";
 import { forceAgreement, forceAgreementWords } from "@/lib/stressing/rules/force-disagreement";
 import { WIRES_PER_STRAND } from "@/lib/stressing/rules/member-wire-loss";
 import { answeredOrder } from "@/lib/stressing/rules/stressed-twice";
+import { showWobble } from "@/lib/format/quantities";
 import { governsLine, showLength, showPct } from "@/lib/stressing/display";
 import { selectTendonBasis, toLoadedTendon, type LoadedTendon } from "./load-tendon-basis";
 
@@ -601,9 +603,12 @@ export function planEvaluation(
           }));
 
   let notification: EvaluationPlan["notification"] = null;
-  const recipients = [
-    ...new Set([project.engineerOfRecordEmail, ...project.notifyEmails].filter((e): e is string => Boolean(e))),
-  ];
+  // Members who take a digest get these flags at the shift's end, unless one must go at once.
+  const recipients = flagRecipientsNow(
+    project,
+    project.digestEmails ?? [],
+    flags.map((f) => f.kind),
+  );
   if (flags.length && recipients.length) {
     const mail = flagMail({
       to: recipients,
@@ -619,7 +624,7 @@ export function planEvaluation(
           : `${verdict}${provisional ? " (provisional: not every end read)" : ""}, ${showPct(deviationPct)}`,
       basisLine:
         `Compared ${judgement.basisLabel}, ±${project.tolerancePct} % band, ` +
-        `μ ${project.frictionMu}, K ${project.wobblePerM.toFixed(4)} per m, anchor set ${showLength(project, project.anchorSetMm)}, ` +
+        `μ ${project.frictionMu}, K ${showWobble(project, project.wobblePerM)}, anchor set ${showLength(project, project.anchorSetMm)}, ` +
         `${judgement.strand.source === "strand lot" ? `strand lot ${basis.lot?.lotNumber}` : "nominal strand values"}. ` +
         governsLine(project, judgement),
       forcesLine: judgement.ends

@@ -6,12 +6,12 @@ import {
   equipmentDrift,
   resolutionShare,
   type ApparentModulus,
-  type DeviationSample,
   type ResolutionShare,
   type SetDrift,
 } from "@/lib/insights";
 import { AppError } from "@/lib/errors";
 import { readingResolution, type StoredResolution } from "@/lib/stressing/display";
+import { deviationSamples, type JudgedTendon } from "@/lib/stressing/gauge-check";
 import { resolutionStepMm } from "@/lib/units";
 import { listTendonResults, type TendonResult } from "./list-tendon-results";
 
@@ -50,21 +50,15 @@ export interface PourInsight {
   resolution: ResolutionShare;
 }
 
-/** A complete evaluation's deviation, attributed to the one set that stressed every end. */
-function deviationSamples(results: TendonResult[]): { samples: DeviationSample[]; mixed: number } {
-  const samples: DeviationSample[] = [];
-  let mixed = 0;
-  for (const t of results) {
-    const e = t.evaluation;
-    if (!e || e.provisional || e.deviationPct === null || e.verdict === "incomplete") continue;
-    const sets = [...new Set(t.endResults.map((r) => r.equipmentSetId))];
-    if (sets.length !== 1) {
-      mixed++;
-      continue;
-    }
-    samples.push({ setId: sets[0]!, setName: t.endResults[0]!.equipmentSetName, deviationPct: e.deviationPct });
-  }
-  return { samples, mixed };
+/** A tendon's latest evaluation with the set of each end it used, for the drift rule. */
+export function judgedTendon(t: TendonResult): JudgedTendon {
+  const e = t.evaluation;
+  return {
+    verdict: e?.verdict ?? "incomplete",
+    provisional: e?.provisional ?? true,
+    deviationPct: e?.deviationPct ?? null,
+    sets: t.endResults.map((r) => ({ id: r.equipmentSetId, name: r.equipmentSetName })),
+  };
 }
 
 export async function getPourInsight(
@@ -113,8 +107,8 @@ export async function getPourInsight(
     predictedMm: t.evaluation!.predictedMm ?? 0,
   }));
 
-  const pourSamples = deviationSamples(onPour);
-  const projectSamples = deviationSamples(all);
+  const pourSamples = deviationSamples(onPour.map(judgedTendon));
+  const projectSamples = deviationSamples(all.map(judgedTendon));
 
   const moduli = apparentModuli(
     onPour

@@ -31,5 +31,6 @@ export async function getProjectSettings(db: Db, projectId: string): Promise<Pro
     releaseBy: p.release_by,
     clockSkewMinutes: p.clock_skew_minutes,
     liftoffBandPct: p.liftoff_band_pct,
+    shiftEndMinutes: p.shift_end_minutes,
   };
 }

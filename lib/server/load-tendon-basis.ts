@@ -1,5 +1,5 @@
 import "server-only";
-import type { Kysely, QueryCreator } from "kysely";
+import { sql, type Kysely, type QueryCreator } from "kysely";
 import type { Database, TendonKind } from "@/db/types";
 import { AppError } from "@/lib/errors";
 import { projectBasisFromRow, type LotBasis, type ProjectBasis, type TendonBasis } from "@/lib/stressing/basis";
@@ -14,6 +14,8 @@ export interface LoadedTendon {
       engineerOfRecordName: string | null;
       engineerOfRecordEmail: string | null;
       notifyEmails: string[];
+      /** Members of the project who take flag e-mails as a digest per shift. */
+      digestEmails?: string[];
     };
   pour: { id: string; name: string; concreteStrengthMpa: number | null; status: string };
   tendon: TendonBasis & {
@@ -86,6 +88,15 @@ export function selectTendonBasis(qc: QueryCreator<Database>, input: { projectId
       "strand_lots.area_mm2",
       "strand_lots.modulus_mpa",
       "strand_lots.breaking_load_n",
+      (eb) =>
+        eb
+          .selectFrom("project_members")
+          .innerJoin("users", "users.id", "project_members.user_id")
+          .select(sql<string[]>`coalesce(array_agg(users.email order by users.email), '{}')`.as("emails"))
+          .whereRef("project_members.project_id", "=", "projects.id")
+          .where("project_members.flag_mail", "=", "digest")
+          .where("users.is_active", "=", true)
+          .as("digestEmails"),
     ])
     .where("tendons.project_id", "=", input.projectId)
     .where("tendons.id", "=", input.tendonId);
@@ -116,6 +127,7 @@ export function toLoadedTendon(row: BasisRow): LoadedTendon {
       engineerOfRecordName: row.engineer_of_record_name,
       engineerOfRecordEmail: row.engineer_of_record_email,
       notifyEmails: row.notify_emails,
+      digestEmails: row.digestEmails ?? [],
     },
     pour: {
       id: row.pourId,

@@ -287,6 +287,7 @@ export async function pullChanges(
               "evaluations.provisional",
               "evaluations.deviation_pct",
               "evaluations.created_at",
+              "evaluations.record_ids",
             ])
             .where("evaluations.project_id", "in", projectIds)
             .where("tendons.pour_id", "in", pourIds)
@@ -470,6 +471,7 @@ export async function pullChanges(
           provisional: e.provisional,
           deviationPct: e.deviation_pct,
           createdAt: new Date(e.created_at).toISOString(),
+          recordIds: e.record_ids,
         })),
         flags: flags.map((f) => ({
           id: f.id,

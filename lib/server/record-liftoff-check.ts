@@ -5,12 +5,13 @@ import type { Database } from "@/db/types";
 import { env } from "@/lib/env";
 import { can } from "@/lib/auth/permissions";
 import { dayInZone } from "@/lib/format/dates";
-import { showPressure } from "@/lib/format/quantities";
+import { showPressure, showWobble } from "@/lib/format/quantities";
 import { flagMail } from "@/lib/mail/templates";
 import { pickCalibration } from "@/lib/schemas/calibration";
 import { liftoffPayloadSchema } from "@/lib/schemas/liftoff";
 import type { FieldLiftoffResult, OpResult, SyncOp } from "@/lib/schemas/sync";
 import { zodFields } from "@/lib/schemas/zod-fields";
+import { flagRecipientsNow } from "@/lib/stressing/flag-mail";
 import { predictTendon } from "@/lib/stressing/basis";
 import {
   expectedAnchorForceN,
@@ -257,11 +258,7 @@ export async function recordLiftoffCheck(
         .returning("id")
         .executeTakeFirstOrThrow();
       raisedFlagId = flag.id;
-      const recipients = [
-        ...new Set(
-          [basis.project.engineerOfRecordEmail, ...basis.project.notifyEmails].filter((e): e is string => Boolean(e)),
-        ),
-      ];
+      const recipients = flagRecipientsNow(basis.project, basis.project.digestEmails ?? [], ["liftoff_out_of_band"]);
       if (recipients.length) {
         const mail = flagMail({
           to: recipients,
@@ -272,7 +269,7 @@ export async function recordLiftoffCheck(
           verdictLine: `lift-off ${judged.deviationPct >= 0 ? "+" : "−"}${Math.abs(judged.deviationPct).toFixed(1)} % from the expected anchor force`,
           basisLine:
             `expected force at end ${p.tendonEnd} after seating from Tautline's force profile ` +
-            `(μ ${basis.project.frictionMu}, K ${basis.project.wobblePerM.toFixed(4)} per m), ±${judged.bandPct} % lift-off band.`,
+            `(μ ${basis.project.frictionMu}, K ${showWobble(basis.project, basis.project.wobblePerM)}), ±${judged.bandPct} % lift-off band.`,
           url: `${env.APP_URL}/projects/${p.projectId}/tendons/${p.tendonId}/flags`,
         });
         await trx

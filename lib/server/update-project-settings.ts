@@ -66,6 +66,7 @@ export async function updateProjectSettings(
         ...(v.underForcePct !== undefined && { under_force_pct: v.underForcePct }),
         ...(v.seatingExcessMm !== undefined && { seating_excess_mm: v.seatingExcessMm }),
         ...(v.clockSkewMinutes !== undefined && { clock_skew_minutes: v.clockSkewMinutes }),
+        ...(v.shiftEndMinutes !== undefined && { shift_end_minutes: [...v.shiftEndMinutes].sort((a, b) => a - b) }),
         ...(v.governing !== undefined && { governing_value: v.governing }),
         updated_at: new Date(),
       })

@@ -327,6 +327,10 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
       },
       call: (c, revision) => c.get(`/api/projects/${projectId}/daily-reports/2001-01-02/signatures/${revision}`),
     },
+    // The engineer's own choice, set to what the demo engineer already has: one e-mail per flag.
+    "PATCH /api/projects/[projectId]/flag-mail": {
+      call: (c) => c.patch(`/api/projects/${projectId}/flag-mail`, { data: { mode: "each" } }),
+    },
     "GET /api/projects/[projectId]/share-links": { call: (c) => c.get(`/api/projects/${projectId}/share-links`) },
     "POST /api/projects/[projectId]/share-links": {
       call: (c) =>

@@ -51,6 +51,7 @@ export const MATRIX: Record<string, Expected> = {
   ]),
   "GET /api/projects/[projectId]/settings": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "PATCH /api/projects/[projectId]/settings": projectAction(200, ["admin"]),
+  "PATCH /api/projects/[projectId]/flag-mail": projectAction(200, ["engineer"]),
   "POST /api/projects/[projectId]/settings/preview": projectAction(200, ["admin"]),
   "GET /api/projects/[projectId]/pours": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "POST /api/projects/[projectId]/pours": projectAction(201, ["admin"]),

@@ -270,6 +270,7 @@ function seedBody(endpoint: string, w: World): Record<string, unknown> | null {
       originalName: "fuzz.pdf",
     },
     "PATCH /api/projects/[projectId]/settings": { tolerancePct: 7 },
+    "PATCH /api/projects/[projectId]/flag-mail": { mode: "each" },
     "POST /api/projects/[projectId]/settings/preview": { tolerancePct: 5 },
     "POST /api/projects/[projectId]/pours": {
       name: "Fuzz pour",

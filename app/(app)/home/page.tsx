@@ -110,6 +110,17 @@ export default async function HomePage() {
               empty="Nothing is waiting for your disposition."
             />
             {summary.waitingDisposition.length > 6 && <Link href="/decisions">All of them</Link>}
+            <p>
+              How flags reach you:{" "}
+              {user.memberships
+                .filter((m) => m.role === "engineer")
+                .map((m, i) => (
+                  <span key={m.projectId}>
+                    {i > 0 && " · "}
+                    <Link href={`/projects/${m.projectId}/flag-mail`}>your flag e-mails on {m.projectName}</Link>
+                  </span>
+                ))}
+            </p>
           </Section>
           <Section id="awaiting-release" title="Pours awaiting release">
             <ReleaseList pours={summary.awaitingRelease} canRelease={() => false} />
