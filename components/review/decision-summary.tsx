@@ -1,8 +1,14 @@
 import { FlagChip, VerdictBadge } from "@/components/ui/verdict-badge";
+import type { Verdict } from "@/db/types";
 import { formatDateTime } from "@/lib/format/dates";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
-import { showComputedLength, showForce, showLength, showPct } from "@/lib/stressing/display";
+import { showComputedLength, showLength, showPct } from "@/lib/stressing/display";
 import { inWords } from "./flag-trail";
+
+interface Judgement {
+  measuredMm: number;
+  comparison: { deviationPct: number; verdict: Verdict; lowerMm: number; upperMm: number };
+}
 
 /**
  * What a decision needs at a glance: the flag in question with its reason, the verdict, and the
@@ -19,7 +25,7 @@ export function DecisionSummary({
 }) {
   const p = c.basis.project;
   const flag = c.flags.find((f) => f.id === flagId) ?? c.flags.find((f) => f.status !== "closed") ?? c.flags.at(-1);
-  const judgement = c.figures;
+  const judgement = (c.evaluation?.result as { judgement?: Judgement | null } | undefined)?.judgement ?? null;
   // Which prediction governed, with the shop drawing's value beside Tautline's (evaluations since the project chooses).
   const governs = (c.evaluation?.result as { governsLine?: unknown } | undefined)?.governsLine;
   const figures: [string, string][] = [];
@@ -32,17 +38,9 @@ export function DecisionSummary({
     figures.push(["Measured", showLength(p, judgement.measuredMm)]);
     figures.push([
       `Band ±${p.tolerancePct} %`,
-      `${showComputedLength(p, judgement.lowerMm)} to ${showComputedLength(p, judgement.upperMm)}`,
+      `${showComputedLength(p, judgement.comparison.lowerMm)} to ${showComputedLength(p, judgement.comparison.upperMm)}`,
     ]);
-    figures.push(["Deviation", showPct(judgement.deviationPct)]);
-    // Force both ways, as the code asks: the gauge's and the elongation's, per end read.
-    for (const e of judgement.ends)
-      if (e.gaugeForceN !== null && e.impliedForceN !== null)
-        figures.push([
-          `Force end ${e.end}: gauge / elongation`,
-          `${showForce(p, e.gaugeForceN)} / ${showForce(p, e.impliedForceN)}` +
-            (e.forceDifferencePct !== null ? ` (${showPct(e.forceDifferencePct)})` : ""),
-        ]);
+    figures.push(["Deviation", showPct(judgement.comparison.deviationPct)]);
   }
   return (
     <section aria-labelledby="decision-summary-heading" className="card space-y-3 p-4" data-flag-id={flag?.id}>

@@ -52,6 +52,10 @@ test.describe("the engineer's flag page", () => {
     await expect(page.locator("#review-flag")).toHaveValue(flag.id);
     await expect(page.locator(`[data-flag-id="${flag.id}"]`)).toBeVisible();
     await expect(page.getByRole("button", { name: "Record the disposition" })).toBeVisible();
+    // The force both ways, as ACI 318 asks: the gauge's and the elongation's, on the sheet's result.
+    const result = page.locator('[data-sheet-section="result"]');
+    await expect(result).toContainText("Force from the gauge, end A");
+    await expect(result).toContainText("Force implied by the elongation, end A");
     expect(await page.evaluate(() => window.scrollY)).toBe(0);
     await insideViewport(page, 'form[aria-label="Record a disposition"]');
 
