@@ -22,6 +22,7 @@ import { concreteGateMet } from "@/lib/stressing/concrete-strength";
 import { RecordForm } from "./record-form";
 import { CutAllClear, TailCutPanel } from "./tail-cut";
 import { useLive } from "./use-live";
+import { mmToFt } from "@/lib/units";
 import { units, VerdictPanel } from "./verdict-panel";
 
 const STATE_LOOK: Record<TendonState, { icon: string; cls: string }> = {
@@ -417,7 +418,7 @@ function TendonPanel(props: {
           </div>
           <p>
             {tendon.strandCount} × {tendon.strandSize} strand ·{" "}
-            {project.unitSystem === "us" ? `${(lengthMm / 304.8).toFixed(1)} ft` : `${(lengthMm / 1000).toFixed(2)} m`}{" "}
+            {project.unitSystem === "us" ? `${mmToFt(lengthMm).toFixed(1)} ft` : `${(lengthMm / 1000).toFixed(2)} m`}{" "}
             long · stressed at {tendon.ends === "both" ? "both ends" : `end ${tendon.ends}`}
             {lot ? ` · lot ${lot.lotNumber}` : ""}
           </p>
