@@ -7,6 +7,7 @@
 // that were never confirmed within a day.
 import { createDb } from "@/db/connect";
 import { env } from "@/lib/env";
+import { backoffDelayMs } from "@/lib/retry/backoff";
 import { drainNotifications } from "@/lib/server/dispatch-notifications";
 import { recordHeartbeat, recordWorkerError } from "@/lib/server/record-heartbeat";
 import { cleanPendingUploads } from "@/lib/storage";
@@ -43,7 +44,7 @@ async function tick(): Promise<number> {
   } catch (error) {
     failures++;
     const message = error instanceof Error ? error.message : String(error);
-    const wait = Math.min(1000 * 2 ** (failures - 1), MAX_BACKOFF_MS);
+    const wait = backoffDelayMs(failures, { baseMs: 1000, capMs: MAX_BACKOFF_MS, jitter: 0 });
     log(`dispatcher pass failed (${message}); trying again in ${wait} ms`);
     // Best effort: the database may be the thing that is down.
     await recordWorkerError(db, "dispatcher", message).catch(() => undefined);
