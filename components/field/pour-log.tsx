@@ -13,7 +13,7 @@ import { cutClearanceOf, holdsOf, holdSummary } from "@/lib/offline/hold-view";
 import { projectTimeZone } from "@/lib/format/dates";
 import type { FieldEvaluation, FieldFlag, FieldTendon } from "@/lib/schemas/sync";
 import { stressedEnds } from "@/lib/stressing/basis";
-import { showLength, showPressure } from "@/lib/stressing/display";
+import { showLength, showPressure } from "@/lib/format/quantities";
 import { DecisionNotices } from "./decision-notices";
 import { useField } from "./field-provider";
 import { HoldPanel } from "./hold-panel";

@@ -23,7 +23,7 @@ import { RefreshError, useRouteData } from "@/components/setup/use-route-data";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
 import { KIND_LABELS } from "@/lib/schemas/tendon";
 import type { TendonRow } from "@/lib/server/list-tendons";
-import { showComputedLength, showPressure, type DisplayUnits } from "@/lib/stressing/display";
+import { showComputedLength, showPressure, type DisplayUnits } from "@/lib/format/quantities";
 import { formatLength, MM_PER_FOOT, type ReadingResolution } from "@/lib/units";
 
 export interface TendonList {

@@ -22,7 +22,8 @@ import type { JudgeInput, JudgeRecord } from "@/lib/stressing/judge";
 import { judgeAndFlag } from "@/lib/stressing/rules";
 import { WIRES_PER_STRAND } from "@/lib/stressing/rules/member-wire-loss";
 import { answeredOrder } from "@/lib/stressing/rules/stressed-twice";
-import { governsLine, showLength, showPct } from "@/lib/stressing/display";
+import { showLength, showPct } from "@/lib/format/quantities";
+import { governsLine } from "@/lib/stressing/display";
 import { selectTendonBasis, toLoadedTendon, type LoadedTendon } from "./load-tendon-basis";
 
 /**

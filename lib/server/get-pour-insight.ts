@@ -11,7 +11,7 @@ import {
   type SetDrift,
 } from "@/lib/insights";
 import { AppError } from "@/lib/errors";
-import { readingResolution, type StoredResolution } from "@/lib/stressing/display";
+import { readingResolution, type StoredResolution } from "@/lib/format/quantities";
 import { resolutionStepMm } from "@/lib/units";
 import { listTendonResults, type TendonResult } from "./list-tendon-results";
 

@@ -16,7 +16,7 @@ import { getPourInsight } from "@/lib/server/get-pour-insight";
 import { getProjectTimeZone } from "@/lib/server/get-project-time-zone";
 import { listConcreteResults } from "@/lib/server/list-concrete-results";
 import { listReportRevisions } from "@/lib/server/list-report-revisions";
-import { readingResolution } from "@/lib/stressing/display";
+import { readingResolution } from "@/lib/format/quantities";
 import { isUuid, pageAccess } from "../../../page-access";
 import { MM_PER_INCH } from "@/lib/units";
 
