@@ -21,7 +21,7 @@ import { PourReleaseNote } from "./pour-release-note";
 import { concreteGateMet } from "@/lib/stressing/concrete-strength";
 import { RecordForm } from "./record-form";
 import { CutAllClear, TailCutPanel } from "./tail-cut";
-import { useLive } from "./use-live";
+import { useLiveQuery as useLive } from "dexie-react-hooks";
 import { mmToFt } from "@/lib/units";
 import { units, VerdictPanel } from "./verdict-panel";
 
