@@ -29,7 +29,7 @@ export const dailyRevisionParamsSchema = dailyReportParamsSchema.extend({
  * statement of conformance, and the remarks the report prints (what they saw that the records do
  * not say). The remarks are part of the signed content: changing them gives a new revision.
  */
-export const dailySignatureSchema = z.object({
+export const dailySignatureSchema = z.strictObject({
   signerName: text().trim().min(2, "Type your name as you sign.").max(120, "Use at most 120 characters."),
   licence: text()
     .trim()
