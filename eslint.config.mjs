@@ -1,5 +1,6 @@
 import nextVitals from "eslint-config-next/core-web-vitals";
 import nextTs from "eslint-config-next/typescript";
+import noUnitFactorLiteral from "./eslint/no-unit-factor-literal.mjs";
 
 const config = [
   ...nextVitals,
@@ -18,26 +19,11 @@ const config = [
     ],
   },
   {
-    // Unit factors live in lib/units only; display code formats through lib/format/quantities.
-    // Scoped to the folders already clean; widen it as the other screens move over.
-    files: [
-      "lib/format/**/*.ts",
-      "lib/reports/**/*.ts",
-      "lib/stressing/**/*.ts",
-      "lib/server/**/*.ts",
-      "components/reports/**/*.tsx",
-    ],
-    ignores: ["**/*.test.ts"],
-    rules: {
-      "no-restricted-syntax": [
-        "error",
-        {
-          selector:
-            "Literal[value=25.4], Literal[value=304.8], Literal[value=645.16], Literal[value=0.3048], Literal[value=6.894757293168], Literal[value=0.006894757293168], Literal[value=4.4482216152605], Literal[value=4448.2216152605]",
-          message: "Unit factor literal: import it from lib/units (or format through lib/format/quantities).",
-        },
-      ],
-    },
+    // Unit factors live in lib/units only (tests included); display code formats through
+    // lib/format/quantities. The rule and its reasoning: eslint/no-unit-factor-literal.mjs.
+    plugins: { tautline: { rules: { "no-unit-factor-literal": noUnitFactorLiteral } } },
+    ignores: ["lib/units/**", "eslint/**"],
+    rules: { "tautline/no-unit-factor-literal": "error" },
   },
   // The layers point one way: app → components → lib → db. The pure computation imports nothing of
   // the app, lib never reaches into components, server operations never into the HTTP transport.

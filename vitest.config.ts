@@ -16,7 +16,7 @@ export default defineConfig({
         extends: true,
         test: {
           name: "unit",
-          include: ["lib/**/*.test.ts", "tests/reference/**/*.test.ts"],
+          include: ["lib/**/*.test.ts", "tests/reference/**/*.test.ts", "eslint/**/*.test.ts"],
           environment: "node",
           // A unit test failed once in CI and never here; a retry keeps one bad draw from hiding a
           // whole run, and `npm test` names any test that needed it at the end of its output.

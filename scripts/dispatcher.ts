@@ -9,6 +9,7 @@
 // deletes uploads that were never confirmed within a day.
 import { createDb } from "@/db/connect";
 import { env } from "@/lib/env";
+import { backoffDelayMs } from "@/lib/retry/backoff";
 import { drainNotifications } from "@/lib/server/dispatch-notifications";
 import { queueGaugeChecks } from "@/lib/server/queue-gauge-checks";
 import { queueShiftDigests } from "@/lib/server/queue-shift-digests";
@@ -52,7 +53,7 @@ async function tick(): Promise<number> {
   } catch (error) {
     failures++;
     const message = error instanceof Error ? error.message : String(error);
-    const wait = Math.min(1000 * 2 ** (failures - 1), MAX_BACKOFF_MS);
+    const wait = backoffDelayMs(failures, { baseMs: 1000, capMs: MAX_BACKOFF_MS, jitter: 0 });
     log(`dispatcher pass failed (${message}); trying again in ${wait} ms`);
     // Best effort: the database may be the thing that is down.
     await recordWorkerError(db, "dispatcher", message).catch(() => undefined);

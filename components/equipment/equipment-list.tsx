@@ -7,6 +7,7 @@ import type { EquipmentSetView } from "@/lib/server/list-equipment-sets";
 import { CalibrationChart } from "./calibration-chart";
 import { CorrectCalibration } from "./correct-calibration";
 import { RetireCalibration } from "./retire-calibration";
+import { MPA_PER_PSI, N_PER_KIP } from "@/lib/units";
 
 export interface EquipmentSetList {
   equipmentSets: EquipmentSetView[];
@@ -19,9 +20,6 @@ export const equipmentSetsKey = (projectId: string) => `/api/projects/${projectI
 export function useEquipmentSets(projectId: string, initial: EquipmentSetList) {
   return useRouteData(equipmentSetsKey(projectId), initial);
 }
-
-const MPA_PER_PSI = 0.006894757293168;
-const N_PER_KIP = 4448.2216152605;
 
 /** Each set with its calibration state, fitted line, chart and certificate. */
 export function EquipmentList({

@@ -1,7 +1,7 @@
 "use client";
 import { requeue } from "@/lib/offline/outbox";
 import { useField } from "./field-provider";
-import { useLive } from "./use-live";
+import { useLiveQuery as useLive } from "dexie-react-hooks";
 
 /** Operations the server refused, with its reason, kept until a person deals with them. */
 export function AttentionList() {

@@ -5,7 +5,7 @@ import { readMeta, type LocalNotice, type SessionMeta } from "@/lib/offline/db";
 import type { NoticeKind } from "@/lib/offline/decision-notices";
 import { acknowledgeNotices, openNotices } from "@/lib/offline/notices";
 import { useField } from "./field-provider";
-import { useLive } from "./use-live";
+import { useLiveQuery as useLive } from "dexie-react-hooks";
 
 const KIND_LOOK: Record<NoticeKind, { word: string; icon: string }> = {
   flag: { word: "New flag", icon: "M6 3v18M6 4h11l-3 4 3 4H6" },

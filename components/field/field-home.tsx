@@ -17,7 +17,8 @@ function ReleasedMark() {
 import { AttentionList } from "./attention-list";
 import { DecisionNotices } from "./decision-notices";
 import { useField } from "./field-provider";
-import { ago, clockTime, useLive, useNow } from "./use-live";
+import { useLiveQuery as useLive } from "dexie-react-hooks";
+import { ago, clockTime, useNow } from "./use-live";
 
 const DAY_MS = 86_400_000;
 const isoDay = (ms: number) => new Date(ms).toLocaleDateString("en-CA");

@@ -4,7 +4,7 @@ import { fieldDb, readMeta, updateSyncMeta, writeMeta, type FieldDb, type Sessio
 import { outboxStatus, type OutboxStatus } from "@/lib/offline/outbox";
 import { uploadPhotos } from "@/lib/offline/photo-upload";
 import { SyncClient } from "@/lib/offline/sync-client";
-import { useLive } from "./use-live";
+import { useLiveQuery as useLive } from "dexie-react-hooks";
 
 interface FieldApi {
   db: FieldDb;

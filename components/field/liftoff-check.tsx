@@ -14,7 +14,7 @@ import { stressedEnds } from "@/lib/stressing/basis";
 import { liftoffLine, liftoffPressureProblem } from "@/lib/stressing/liftoff";
 import { isInputError, parsePressure } from "@/lib/units";
 import { useField } from "./field-provider";
-import { useLive } from "./use-live";
+import { useLiveQuery as useLive } from "dexie-react-hooks";
 
 /**
  * The lift-off check an engineer ordered, opened from the hold panel: the crew records the gauge

@@ -14,14 +14,15 @@ import { awaitingRestressOf, cutClearanceOf, holdsOf, holdSummary } from "@/lib/
 import { projectTimeZone } from "@/lib/format/dates";
 import type { FieldEvaluation, FieldFlag, FieldTendon } from "@/lib/schemas/sync";
 import { stressedEnds } from "@/lib/stressing/basis";
-import { showLength, showPressure } from "@/lib/stressing/display";
+import { showLength, showPressure } from "@/lib/format/quantities";
 import { DecisionNotices } from "./decision-notices";
 import { useField } from "./field-provider";
 import { GaugeCheck } from "./gauge-check";
 import { PourReleaseNote } from "./pour-release-note";
 import { concreteGateMet } from "@/lib/stressing/concrete-strength";
 import { CutAllClear, TailCutPanel } from "./tail-cut";
-import { useLive } from "./use-live";
+import { useLiveQuery as useLive } from "dexie-react-hooks";
+import { mmToFt } from "@/lib/units";
 import { units, VerdictPanel } from "./verdict-panel";
 
 // The record form and its checks (zod, react-hook-form) and the hold panel with its lift-off check
@@ -482,7 +483,7 @@ function TendonPanel(props: {
           </div>
           <p>
             {tendon.strandCount} × {tendon.strandSize} strand ·{" "}
-            {project.unitSystem === "us" ? `${(lengthMm / 304.8).toFixed(1)} ft` : `${(lengthMm / 1000).toFixed(2)} m`}{" "}
+            {project.unitSystem === "us" ? `${mmToFt(lengthMm).toFixed(1)} ft` : `${(lengthMm / 1000).toFixed(2)} m`}{" "}
             long · stressed at {tendon.ends === "both" ? "both ends" : `end ${tendon.ends}`}
             {lot ? ` · lot ${lot.lotNumber}` : ""}
           </p>

@@ -3,7 +3,8 @@ import { useEffect, useState } from "react";
 import { EMPTY_SYNC_META, readMeta, type SyncMeta } from "@/lib/offline/db";
 import { useField } from "./field-provider";
 import { StorageProtection } from "./storage-protection";
-import { ago, clockTime, useLive, useNow } from "./use-live";
+import { useLiveQuery as useLive } from "dexie-react-hooks";
+import { ago, clockTime, useNow } from "./use-live";
 
 function useOnline(): boolean {
   const [online, setOnline] = useState(true);

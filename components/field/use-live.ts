@@ -1,21 +1,5 @@
 "use client";
-import { liveQuery } from "dexie";
 import { useEffect, useState } from "react";
-
-/** The current answer of a Dexie query, re-run whenever the tables it read change. Undefined while loading. */
-export function useLive<T>(query: () => Promise<T>, deps: readonly unknown[]): T | undefined {
-  const [value, setValue] = useState<T | undefined>(undefined);
-  useEffect(() => {
-    const subscription = liveQuery(query).subscribe({
-      next: (v) => setValue(() => v),
-      error: (e) => console.error("tablet database query failed", e),
-    });
-    return () => subscription.unsubscribe();
-    // The query closes over exactly the values listed in deps.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, deps);
-  return value;
-}
 
 /** A clock that ticks, for "5 min ago" labels. */
 export function useNow(intervalMs = 15_000): number {

@@ -2,15 +2,14 @@ import { Caution } from "@/components/ui/caution";
 import type { LocalVerdict } from "@/lib/offline/db";
 import type { FieldProject, OpEvaluation } from "@/lib/schemas/sync";
 import {
-  showBandAsRead,
   showComputedLength,
   showForce,
   showLength,
   showPct,
-  showPredictedAsRead,
   showPressure,
   type StoredResolution,
-} from "@/lib/stressing/display";
+} from "@/lib/format/quantities";
+import { showBandAsRead, showPredictedAsRead } from "@/lib/stressing/display";
 
 const LOOK = {
   "in band": { word: "In band", icon: "M5 12l4 4 10-10", cls: "border-signal-band bg-signal-band-bg text-signal-band" },

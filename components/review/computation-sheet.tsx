@@ -1,8 +1,9 @@
 import { ForceProfileChart } from "@/components/review/force-profile-chart";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
-import { showComputedLength, showForce, showLength, showPct } from "@/lib/stressing/display";
+import type { Verdict } from "@/db/types";
+import { showComputedLength, showForce, showLength, showPct } from "@/lib/format/quantities";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
-import { N_PER_KIP } from "@/lib/units";
+import { N_PER_KIP, wobblePerMToPerFt } from "@/lib/units";
 
 const deg = (rad: number) => `${((rad * 180) / Math.PI).toFixed(2)}°`;
 
@@ -144,7 +145,7 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
             <Row label="Curvature friction μ" value={String(p.frictionMu)} source="Project setting" />
             <Row
               label="Wobble K"
-              value={`${p.wobblePerM.toFixed(5)} per m (${(p.wobblePerM / 3.280839895).toFixed(5)} per ft)`}
+              value={`${p.wobblePerM.toFixed(5)} per m (${wobblePerMToPerFt(p.wobblePerM).toFixed(5)} per ft)`}
               source="Project setting"
             />
             <Row label="Anchor set" value={showComputedLength(p, p.anchorSetMm)} source="Project setting" />

@@ -2,7 +2,7 @@ import { FlagChip, VerdictBadge } from "@/components/ui/verdict-badge";
 import type { Verdict } from "@/db/types";
 import { formatDateTime } from "@/lib/format/dates";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
-import { showComputedLength, showLength, showPct } from "@/lib/stressing/display";
+import { showComputedLength, showLength, showPct } from "@/lib/format/quantities";
 import { inWords } from "./flag-trail";
 
 interface Judgement {

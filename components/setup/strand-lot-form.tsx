@@ -12,6 +12,7 @@ import { strandLotSchema, type StrandLotInput } from "@/lib/schemas/strand-lot";
 import { STRAND_SIZES } from "@/lib/schemas/tendon";
 import { strandLotsKey } from "./strand-lot-table";
 import { units } from "@/lib/client/unit-fields";
+import { MM2_PER_IN2 } from "@/lib/units";
 
 function fields(us: boolean) {
   const system = us ? "US" : "SI";
@@ -32,7 +33,7 @@ function resolver(us: boolean) {
     // 1 in² = 645.16 mm² exactly.
     ({ area, ...v }) => ({
       ...v,
-      areaMm2: area === null ? null : us ? area * 645.16 : area,
+      areaMm2: area === null ? null : us ? area * MM2_PER_IN2 : area,
       certificateAttachmentId: v.certificateAttachmentId || null,
     }),
     strandLotSchema,

@@ -5,6 +5,7 @@ import { useMemo } from "react";
 import type { StrandLotView } from "@/lib/server/list-strand-lots";
 import { compareText, readSorting, SetupTable, setupFeatures, sortingParams, useUrlView } from "./url-table";
 import { RefreshError, useRouteData } from "./use-route-data";
+import { MM2_PER_IN2, MPA_PER_KSI, N_PER_KIP } from "@/lib/units";
 
 /** The route handler that lists the project's strand lots; also the swr key the lot form refreshes. */
 export const strandLotsKey = (projectId: string) => `/api/projects/${projectId}/strand-lots`;
@@ -39,7 +40,7 @@ function lotColumns(projectId: string, us: boolean) {
       sortFn: (a, b, id) => a.getValue<number>(id) - b.getValue<number>(id),
       cell: (c) => (
         <>
-          {us ? `${(c.getValue() / 645.16).toFixed(4)} in²` : `${c.getValue().toFixed(1)} mm²`}
+          {us ? `${(c.getValue() / MM2_PER_IN2).toFixed(4)} in²` : `${c.getValue().toFixed(1)} mm²`}
           <Against pct={c.row.original.againstNominal?.areaPct} />
         </>
       ),
@@ -51,7 +52,7 @@ function lotColumns(projectId: string, us: boolean) {
       sortFn: (a, b, id) => a.getValue<number>(id) - b.getValue<number>(id),
       cell: (c) => (
         <>
-          {us ? `${(c.getValue() / 6.894757293168).toFixed(0)} ksi` : `${(c.getValue() / 1000).toFixed(1)} GPa`}
+          {us ? `${(c.getValue() / MPA_PER_KSI).toFixed(0)} ksi` : `${(c.getValue() / 1000).toFixed(1)} GPa`}
           <Against pct={c.row.original.againstNominal?.modulusPct} />
         </>
       ),
@@ -63,7 +64,7 @@ function lotColumns(projectId: string, us: boolean) {
       sortFn: (a, b, id) => a.getValue<number>(id) - b.getValue<number>(id),
       cell: (c) => (
         <>
-          {us ? `${(c.getValue() / 4448.2216152605).toFixed(1)} kip` : `${(c.getValue() / 1000).toFixed(1)} kN`}
+          {us ? `${(c.getValue() / N_PER_KIP).toFixed(1)} kip` : `${(c.getValue() / 1000).toFixed(1)} kN`}
           <Against pct={c.row.original.againstNominal?.breakingPct} />
         </>
       ),

@@ -23,8 +23,8 @@ import { RefreshError, useRouteData } from "@/components/setup/use-route-data";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
 import { KIND_LABELS } from "@/lib/schemas/tendon";
 import type { TendonRow } from "@/lib/server/list-tendons";
-import { showComputedLength, showPressure, type DisplayUnits } from "@/lib/stressing/display";
-import { formatLength, type ReadingResolution } from "@/lib/units";
+import { showComputedLength, showPressure, type DisplayUnits } from "@/lib/format/quantities";
+import { formatLength, MM_PER_FOOT, type ReadingResolution } from "@/lib/units";
 
 export interface TendonList {
   pour: { id: string; name: string };
@@ -61,7 +61,7 @@ function filterParams(filters: ColumnFiltersState): Record<"q" | "ends" | "lot",
 const helper = createColumnHelper<typeof setupFeatures, TendonRow>();
 
 function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolution) {
-  const long = (mm: number) => (us ? `${(mm / 304.8).toFixed(1)} ft` : `${(mm / 1000).toFixed(2)} m`);
+  const long = (mm: number) => (us ? `${(mm / MM_PER_FOOT).toFixed(1)} ft` : `${(mm / 1000).toFixed(2)} m`);
   // Only the unit system matters to the computed-length and pressure formats.
   const units: DisplayUnits = { unitSystem: us ? "us" : "si", readingResolution: us ? "1/8in" : "1mm" };
   return helper.columns([

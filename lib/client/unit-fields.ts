@@ -1,5 +1,16 @@
 import { z } from "zod";
-import { isInputError, parseForce, parseLength, parsePressure, type UnitSystem } from "@/lib/units";
+import {
+  isInputError,
+  MM_PER_FOOT,
+  MM_PER_INCH,
+  MPA_PER_PSI,
+  N_PER_KIP,
+  N_PER_LBF,
+  parseForce,
+  parseLength,
+  parsePressure,
+  type UnitSystem,
+} from "@/lib/units";
 
 /**
  * Form fields that hold what a person typed (in the project's units, or with a unit of their
@@ -51,14 +62,14 @@ export function shown(value: number | null | undefined, per: number, decimals = 
 }
 
 export const PER = {
-  in: 25.4,
+  in: MM_PER_INCH,
   mm: 1,
-  ft: 304.8,
+  ft: MM_PER_FOOT,
   m: 1000,
-  psi: 0.006894757293168,
+  psi: MPA_PER_PSI,
   MPa: 1,
-  kip: 4448.2216152605,
+  kip: N_PER_KIP,
   kN: 1000,
-  lbf: 4.4482216152605,
+  lbf: N_PER_LBF,
   N: 1,
 } as const;

@@ -1,7 +1,7 @@
 import Papa from "papaparse";
 import { safeCell, safeRows } from "./safe-cell";
 import { findStrandSize } from "@/lib/elongation";
-import { parseLength, type UnitSystem } from "@/lib/units";
+import { MM_PER_FOOT, MM_PER_INCH, parseLength, type UnitSystem } from "@/lib/units";
 import { FORMULA_START, STRAND_SIZES, tendonSchema, type TendonInput } from "@/lib/schemas/tendon";
 
 /**
@@ -147,7 +147,7 @@ export function parseTendonSchedule(
   };
   const unitOf = (key: string) => index.get(key)?.unit ?? "";
   const [segLength, segAngle] = unitOf("segments").split("@") as [LengthHeaderUnit, AngleUnit];
-  const segmentFactor = segLength === "ft" ? 304.8 : 1000;
+  const segmentFactor = segLength === "ft" ? MM_PER_FOOT : 1000;
   const angleFactor = segAngle === "deg" ? Math.PI / 180 : 1;
   const optionalLength = (row: string[], key: string, line: number): number | null | undefined => {
     const text = cell(row, key);
@@ -165,7 +165,7 @@ export function parseTendonSchedule(
       );
       return undefined;
     }
-    return unit === "in" ? n * 25.4 : n;
+    return unit === "in" ? n * MM_PER_INCH : n;
   };
 
   const seen = new Map<string, number>();
@@ -311,7 +311,7 @@ export interface ExportTendon {
 
 /** The same layout as the import, so an exported file imports again unchanged. */
 export function toTendonCsv(tendons: readonly ExportTendon[], system: UnitSystem): string {
-  const short = (mm: number | null) => (mm === null ? "" : system === "US" ? round(mm / 25.4, 4) : round(mm, 2));
+  const short = (mm: number | null) => (mm === null ? "" : system === "US" ? round(mm / MM_PER_INCH, 4) : round(mm, 2));
   const rows = tendons.map((t) => [
     neutralise(t.tag),
     t.kind === "unbonded_monostrand" ? "monostrand" : "multistrand",
@@ -321,7 +321,7 @@ export function toTendonCsv(tendons: readonly ExportTendon[], system: UnitSystem
     t.segments
       .map(
         (s) =>
-          `${round(system === "US" ? s.lengthMm / 304.8 : s.lengthMm / 1000, 4)}@${round((s.angleRad * 180) / Math.PI, 4)}`,
+          `${round(system === "US" ? s.lengthMm / MM_PER_FOOT : s.lengthMm / 1000, 4)}@${round((s.angleRad * 180) / Math.PI, 4)}`,
       )
       .join(" "),
     short(t.jackGripMm),
@@ -342,8 +342,8 @@ export function templateCsv(system: UnitSystem): string {
       strandSize: "0.5 in",
       strandCount: 1,
       ends: "A",
-      segments: [1, 2, 3, 4].map(() => ({ lengthMm: us ? 15 * 304.8 : 4500, angleRad: (1.62 * Math.PI) / 180 })),
-      jackGripMm: us ? 18 * 25.4 : 450,
+      segments: [1, 2, 3, 4].map(() => ({ lengthMm: us ? 15 * MM_PER_FOOT : 4500, angleRad: (1.62 * Math.PI) / 180 })),
+      jackGripMm: us ? 18 * MM_PER_INCH : 450,
       shopElongationMm: null,
       strandLot: null,
     },
@@ -353,9 +353,9 @@ export function templateCsv(system: UnitSystem): string {
       strandSize: "0.6 in",
       strandCount: 12,
       ends: "both",
-      segments: [1, 2].map(() => ({ lengthMm: us ? 40 * 304.8 : 12_000, angleRad: (5.7 * Math.PI) / 180 })),
-      jackGripMm: us ? 24 * 25.4 : 600,
-      shopElongationMm: us ? 6.5 * 25.4 : 165,
+      segments: [1, 2].map(() => ({ lengthMm: us ? 40 * MM_PER_FOOT : 12_000, angleRad: (5.7 * Math.PI) / 180 })),
+      jackGripMm: us ? 24 * MM_PER_INCH : 600,
+      shopElongationMm: us ? 6.5 * MM_PER_INCH : 165,
       strandLot: null,
     },
   ];

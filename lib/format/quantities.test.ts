@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import { METRES_PER_FOOT, MM_PER_FOOT, MM_PER_INCH, MPA_PER_KSI, MPA_PER_PSI, N_PER_KIP } from "@/lib/units";
 import {
   groupedNumber,
   showArea,
@@ -28,42 +29,42 @@ describe("quantities in the project's units", () => {
 
   it("prints moduli in ksi on a US project and GPa on an SI project", () => {
     // AASHTO LRFD §5.4.4.2: 28,500 ksi (from memory); 28,500 ksi = 196,500 MPa (DOMAIN.md §2.1, computed).
-    expect(showModulus(us, 28_500 * 6.894757293168)).toBe("28,500 ksi");
+    expect(showModulus(us, 28_500 * MPA_PER_KSI)).toBe("28,500 ksi");
     expect(showModulus(si, 195_000)).toBe("195.0 GPa");
     expect(showModulus(us, 196_500)).not.toMatch(/MPa|GPa/);
   });
 
   it("prints concrete strengths in psi or MPa and steel stresses in ksi or MPa", () => {
-    expect(showStrength(us, 4000 * 0.006894757293168)).toBe("4,000 psi");
+    expect(showStrength(us, 4000 * MPA_PER_PSI)).toBe("4,000 psi");
     expect(showStrength(si, 30)).toBe("30.0 MPa");
     // ASTM A416 Grade 270: fpu = 270 ksi = 1860 MPa (nominal SI grade).
-    expect(showSteelStress(us, 270 * 6.894757293168)).toBe("270.0 ksi");
+    expect(showSteelStress(us, 270 * MPA_PER_KSI)).toBe("270.0 ksi");
     expect(showSteelStress(si, 1860)).toBe("1,860 MPa");
   });
 
   it("prints readings to the reading division and computed lengths one step finer", () => {
-    expect(showLength(us, 8.375 * 25.4)).toBe("8 3/8 in");
-    expect(showLength(us16, 8.4375 * 25.4)).toBe("8 7/16 in");
+    expect(showLength(us, 8.375 * MM_PER_INCH)).toBe("8 3/8 in");
+    expect(showLength(us16, 8.4375 * MM_PER_INCH)).toBe("8 7/16 in");
     expect(showLength(si, 212.4)).toBe("212 mm");
-    expect(showComputedLength(us, 2.754 * 25.4)).toBe("2.75 in");
-    expect(showComputedLength(us, 130 * 25.4)).toBe("10.83 ft");
+    expect(showComputedLength(us, 2.754 * MM_PER_INCH)).toBe("2.75 in");
+    expect(showComputedLength(us, 130 * MM_PER_INCH)).toBe("10.83 ft");
     expect(showComputedLength(si, 70.04)).toBe("70.0 mm");
-    expect(showLongLength(us, 90 * 304.8)).toBe("90.0 ft");
+    expect(showLongLength(us, 90 * MM_PER_FOOT)).toBe("90.0 ft");
     expect(showLongLength(si, 27_432)).toBe("27.43 m");
   });
 
   it("prints forces and gauge pressures in the project's units", () => {
     // ACI 318-19 Table 20.3.2.5.1 (from memory): 0.80·fpu·A = 0.80 × 270 ksi × 0.153 in² = 33.05 kip.
-    expect(showForce(us, 33.048 * 4448.2216152605)).toBe("33.05 kip");
+    expect(showForce(us, 33.048 * N_PER_KIP)).toBe("33.05 kip");
     expect(showForce(si, 147_000)).toBe("147.0 kN");
-    expect(showPressure(us, 4227 * 0.006894757293168)).toBe("4227 psi");
+    expect(showPressure(us, 4227 * MPA_PER_PSI)).toBe("4227 psi");
     expect(showPressure(si, 29.14)).toBe("29.14 MPa");
     expect(showPressure(us, 29.14)).not.toContain("MPa");
   });
 
   it("prints the wobble coefficient per foot or per metre", () => {
     // K per ft × 3.2808 = K per m (DOMAIN.md §1.2).
-    expect(showWobble(us, 0.001 / 0.3048)).toBe("0.0010 per ft");
+    expect(showWobble(us, 0.001 / METRES_PER_FOOT)).toBe("0.0010 per ft");
     expect(showWobble(si, 0.0033)).toBe("0.0033 per m");
   });
 

@@ -1,9 +1,10 @@
 import { describe, expect, it } from "vitest";
+import { MM_PER_INCH } from "@/lib/units";
 import { resolutionShare, type ResolutionItem } from "./resolution";
 
 // Constructed tendons read to 1/8 in (3.175 mm) on a ±7 % band. A 60 ft monostrand tendon
 // predicts about 125 mm; a 120 ft one about 250 mm (rounded figures for constructed data).
-const EIGHTH = 25.4 / 8;
+const EIGHTH = MM_PER_INCH / 8;
 const item = (tag: string, predictedMm: number, measuredMm: number, endsRead = 1): ResolutionItem => ({
   tag,
   predictedMm,

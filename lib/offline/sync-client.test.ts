@@ -2,7 +2,7 @@ import { afterEach, describe, expect, it } from "vitest";
 import type { PushResponse } from "@/lib/schemas/sync";
 import { readMeta, type SyncMeta } from "./db";
 import { saveRecord } from "./outbox";
-import { backoffDelayMs, NO_CONNECTION, SyncClient, type Fetch, type LockManagerLike } from "./sync-client";
+import { NO_CONNECTION, SyncClient, type Fetch, type LockManagerLike } from "./sync-client";
 import { samplePayload, signIn, testDb } from "./test-support";
 
 const opened: { close: () => void }[] = [];
@@ -209,14 +209,5 @@ describe("SyncClient.sendSoon (after a save)", () => {
     expect(await after).toMatchObject({ kind: "done", pushed: 1 });
     expect(server.pushes).toHaveLength(2);
     expect(await db.outbox.count()).toBe(0);
-  });
-});
-
-describe("backoffDelayMs", () => {
-  it("grows exponentially under the jitter and stops at the cap", () => {
-    expect(backoffDelayMs(1, () => 0.999999, 2_000, 300_000)).toBe(1_999);
-    expect(backoffDelayMs(3, () => 0.999999, 2_000, 300_000)).toBe(7_999);
-    expect(backoffDelayMs(30, () => 0.999999, 2_000, 300_000)).toBe(299_999);
-    expect(backoffDelayMs(5, () => 0, 2_000, 300_000)).toBe(0);
   });
 });

@@ -1,4 +1,5 @@
 import type { PullResponse, PushResponse } from "@/lib/schemas/sync";
+import { backoffDelayMs } from "@/lib/retry/backoff";
 import { deviceId, readMeta, updateSyncMeta, type FieldDb, type SessionMeta } from "./db";
 import { applyPushResults, notePushFailure, pendingOps } from "./outbox";
 import { applyPull } from "./reference";
@@ -45,12 +46,6 @@ class Unauthenticated extends Error {}
 class Retryable extends Error {}
 
 const LOCK_NAME = "tautline-sync";
-
-/** Full jitter: a random wait between zero and the capped exponential step. */
-export function backoffDelayMs(failures: number, random: () => number, baseMs = 2_000, capMs = 300_000): number {
-  const ceiling = Math.min(capMs, baseMs * 2 ** Math.max(0, failures - 1));
-  return Math.floor(random() * ceiling);
-}
 
 export class SyncClient {
   readonly db: FieldDb;
@@ -203,7 +198,12 @@ export class SyncClient {
       if (error instanceof Retryable) {
         if (inFlight.length) await notePushFailure(db, inFlight, error.message);
         this.failures++;
-        const wait = backoffDelayMs(this.failures, this.random, this.baseDelayMs, this.maxDelayMs);
+        // Full jitter: many tablets regaining signal together do not come back together.
+        const wait = backoffDelayMs(this.failures, {
+          baseMs: this.baseDelayMs,
+          capMs: this.maxDelayMs,
+          random: this.random,
+        });
         this.nextAttemptAt = this.now() + wait;
         await updateSyncMeta(db, { lastError: error.message });
         return { kind: "offline", retryInMs: wait, message: error.message };

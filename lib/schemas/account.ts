@@ -21,12 +21,12 @@ export const tokenSchema = text().regex(
   "This link is not complete; open it from the e-mail again.",
 );
 
-export const acceptInvitationSchema = z.object({
+export const acceptInvitationSchema = z.strictObject({
   token: tokenSchema,
   name: personNameSchema.optional(),
   password: passwordSchema.optional(),
 });
 
-export const passwordResetRequestSchema = z.object({ email: emailSchema });
+export const passwordResetRequestSchema = z.strictObject({ email: emailSchema });
 
-export const passwordResetSchema = z.object({ token: tokenSchema, password: passwordSchema });
+export const passwordResetSchema = z.strictObject({ token: tokenSchema, password: passwordSchema });

@@ -4,12 +4,12 @@ import { text } from "./text";
 
 /** A calibration as the certificate gives it: load-cell forces at gauge pressures, in SI. */
 export const calibrationSchema = z
-  .object({
+  .strictObject({
     calibratedOn: z.iso.date({ error: "Give the calibration date as YYYY-MM-DD." }),
     validUntil: z.iso.date({ error: "Give the expiry as YYYY-MM-DD." }).nullable(),
     points: z
       .array(
-        z.object({
+        z.strictObject({
           pressureMPa: z
             .number({ error: "Give the pressure." })
             .min(0, "Pressure cannot be negative.")
@@ -87,11 +87,11 @@ const calibrationReason = (what: string) =>
     .max(2000, "Use at most 2,000 characters.");
 
 /** Retiring a calibration: it is never picked again; the reason is kept and audited. */
-export const calibrationRetirementSchema = z.object({ reason: calibrationReason("retired") });
+export const calibrationRetirementSchema = z.strictObject({ reason: calibrationReason("retired") });
 export type CalibrationRetirementInput = z.infer<typeof calibrationRetirementSchema>;
 
 /** Correcting a calibration: the certificate's figures as they should have been typed, and why. */
-export const calibrationCorrectionSchema = z.object({
+export const calibrationCorrectionSchema = z.strictObject({
   reason: calibrationReason("corrected"),
   calibration: calibrationSchema,
 });

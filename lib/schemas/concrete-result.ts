@@ -6,7 +6,7 @@ export const concreteResultParamsSchema = z.object({
 });
 
 /** One set of specimens broken by the lab, in SI (the form converts psi first). */
-export const concreteResultSchema = z.object({
+export const concreteResultSchema = z.strictObject({
   specimen: z.enum(["cylinder", "cube"], { error: "Say whether the specimens are cylinders or cubes." }),
   strengthMPa: z
     .number({ error: "Enter the strength." })

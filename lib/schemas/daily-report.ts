@@ -73,7 +73,7 @@ export interface DailyAttestation {
  * stressed that day. Remarks, conformance and witness are part of the signed content: changing them
  * gives a new revision. The server checks the witness list against the day (every group once).
  */
-export const dailySignatureSchema = z.object({
+export const dailySignatureSchema = z.strictObject({
   signerName: text().trim().min(2, "Type your name as you sign.").max(120, "Use at most 120 characters."),
   licence: text()
     .trim()

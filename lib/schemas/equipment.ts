@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { plainText } from "./tendon";
 
-export const equipmentSetSchema = z.object({
+export const equipmentSetSchema = z.strictObject({
   name: plainText("set name", 80),
   jackSerial: plainText("jack serial", 60),
   gaugeSerial: plainText("gauge serial", 60),

@@ -12,10 +12,10 @@ export const invitationParamsSchema = projectParamsSchema.extend({
   invitationId: z.uuid({ error: "Not an invitation id." }),
 });
 
-export const inviteSchema = z.object({ email: emailSchema, role: roleSchema });
-export const changeRoleSchema = z.object({ role: roleSchema });
+export const inviteSchema = z.strictObject({ email: emailSchema, role: roleSchema });
+export const changeRoleSchema = z.strictObject({ role: roleSchema });
 
-export const createProjectSchema = z.object({
+export const createProjectSchema = z.strictObject({
   code: text()
     .trim()
     .toUpperCase()

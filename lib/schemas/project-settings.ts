@@ -22,7 +22,7 @@ export function isTimeZone(name: string): boolean {
 const optionalPositive = (message: string, max: number, maxMessage: string) =>
   z.number({ error: message }).positive(message).max(max, maxMessage).nullable();
 
-export const projectSettingsSchema = z.object({
+export const projectSettingsSchema = z.strictObject({
   name: text().trim().min(2, "Give the project a name.").max(160, "Use at most 160 characters."),
   address: text().trim().max(300, "Use at most 300 characters.").nullable(),
   unitSystem: z.enum(["us", "si"], { error: "Pick US customary or SI units." }),

@@ -26,8 +26,10 @@ describe("deriveFromEntered", () => {
       "marks",
     );
     expect(problems).toEqual([]);
+    // eslint-disable-next-line tautline/no-unit-factor-literal -- 1 in = 25.4 mm exactly (NIST SP 811, B.8)
     expect(values!.measuredMm).toBeCloseTo((8.375 - 1.25) * 25.4, 9); // 180.975 mm
     expect(values!.finalPressureMPa).toBeCloseTo(29.1441, 4); // 4227 × 6.894757 kPa
+    // eslint-disable-next-line tautline/no-unit-factor-literal -- 1000 psi = 6.894757 MPa (NIST SP 811, B.8)
     expect(values!.initialPressureMPa).toBeCloseTo(6.894757, 5);
     expect(values!.seatingMm).toBeCloseTo(6.35, 9);
   });

@@ -2,7 +2,7 @@ import { z } from "zod";
 import { text } from "./text";
 
 /** What the inspector types to sign a report: their name, licence or certification, and the statement. */
-export const reportSignatureSchema = z.object({
+export const reportSignatureSchema = z.strictObject({
   signerName: text().trim().min(2, "Type your name as you sign.").max(120, "Use at most 120 characters."),
   licence: text()
     .trim()
@@ -29,7 +29,7 @@ export const signedRevisionParamsSchema = z.object({
 });
 
 /** A report file's sha256, computed in the browser from the file the reader holds. */
-export const reportVerificationSchema = z.object({
+export const reportVerificationSchema = z.strictObject({
   sha256: z
     .string()
     .trim()

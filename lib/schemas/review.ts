@@ -15,9 +15,9 @@ export const flagParamsSchema = z.object({
 });
 
 export const reviewSchema = z.discriminatedUnion("kind", [
-  z.object({ kind: z.literal("note"), body: reasonText("note") }),
-  z.object({ kind: z.literal("paperwork_error"), body: reasonText("paperwork error you found") }),
-  z.object({
+  z.strictObject({ kind: z.literal("note"), body: reasonText("note") }),
+  z.strictObject({ kind: z.literal("paperwork_error"), body: reasonText("paperwork error you found") }),
+  z.strictObject({
     kind: z.literal("remeasured"),
     body: reasonText("how and where it was re-measured"),
     remeasuredMm: z
@@ -25,13 +25,13 @@ export const reviewSchema = z.discriminatedUnion("kind", [
       .positive("The re-measured elongation must be above zero.")
       .max(5000, "That is longer than any tendon stretches."),
   }),
-  z.object({
+  z.strictObject({
     kind: z.literal("photo"),
     body: reasonText("what the photo shows"),
     attachmentId: z.uuid({ error: "Upload the photo first." }),
   }),
-  z.object({ kind: z.literal("sent_to_engineer"), body: reasonText("note for the engineer") }),
-  z.object({ kind: z.literal("closed_paperwork"), body: reasonText("reason for closing") }),
+  z.strictObject({ kind: z.literal("sent_to_engineer"), body: reasonText("note for the engineer") }),
+  z.strictObject({ kind: z.literal("closed_paperwork"), body: reasonText("reason for closing") }),
 ]);
 export type ReviewInput = z.infer<typeof reviewSchema>;
 
@@ -46,7 +46,7 @@ export const DECISION_LABELS: Record<(typeof DECISIONS)[number], string> = {
   other: "Other instruction",
 };
 
-export const dispositionSchema = z.object({
+export const dispositionSchema = z.strictObject({
   decision: z.enum(DECISIONS, { error: "Pick a disposition." }),
   reasons: reasonText("reasons for the disposition"),
   licenceStatement: text({ error: "State your licence." })
@@ -69,7 +69,7 @@ const confirmedStatement = z.literal(true, {
  * The engineer signs a release: the name typed as signed, the licence number and the statement,
  * read and confirmed. The server adds the time and the sha256 of the pour's report at signing.
  */
-export const releaseSchema = z.object({
+export const releaseSchema = z.strictObject({
   statement: reasonText("release statement"),
   signerName: text({ error: "Type your name as you sign." })
     .trim()
@@ -84,7 +84,7 @@ export const releaseSchema = z.object({
 export type ReleaseInput = z.infer<typeof releaseSchema>;
 
 /** Reopening a released pour: the engineer's reason, read and confirmed like a release. */
-export const reopenSchema = z.object({
+export const reopenSchema = z.strictObject({
   reason: reasonText("reason for reopening the pour"),
   confirmed: confirmedStatement,
 });
@@ -96,7 +96,7 @@ export const correctionParamsSchema = z.object({
 
 /** A paperwork correction: the values that were written down wrong, and why. */
 export const correctionSchema = z
-  .object({
+  .strictObject({
     reason: reasonText("reason for the correction"),
     measuredMm: z.number().positive("The elongation must be above zero.").max(5000).optional(),
     finalPressureMPa: z.number().positive("The gauge pressure must be above zero.").max(200).optional(),

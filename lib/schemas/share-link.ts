@@ -5,7 +5,7 @@ import { text } from "./text";
 export const MAX_SHARE_DAYS = 180;
 
 /** A read-only link to the project's status board for the general contractor or the building official. */
-export const shareLinkSchema = z.object({
+export const shareLinkSchema = z.strictObject({
   label: text()
     .trim()
     .min(2, "Say who the link is for (e.g. the general contractor).")

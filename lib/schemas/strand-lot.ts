@@ -2,7 +2,7 @@ import { z } from "zod";
 import { plainText, STRAND_SIZES } from "./tendon";
 
 /** Mill-certificate values of one strand lot, in SI. */
-export const strandLotSchema = z.object({
+export const strandLotSchema = z.strictObject({
   lotNumber: plainText("lot or heat number", 60),
   strandSize: z.enum(STRAND_SIZES, { error: `Pick a strand size: ${STRAND_SIZES.join(", ")}.` }),
   areaMm2: z

@@ -26,7 +26,7 @@ export const plainText = (what: string, max: number) =>
 
 export const tagSchema = plainText("tag as drawn", 40);
 
-export const segmentSchema = z.object({
+export const segmentSchema = z.strictObject({
   lengthMm: z
     .number({ error: "Give the segment length." })
     .positive("A segment must be longer than 0.")
@@ -38,7 +38,7 @@ export const segmentSchema = z.object({
 });
 
 export const tendonSchema = z
-  .object({
+  .strictObject({
     tag: tagSchema,
     kind: z.enum(TENDON_KINDS, { error: "Pick unbonded monostrand or bonded multistrand." }),
     strandSize: z.enum(STRAND_SIZES, { error: `Pick a strand size: ${STRAND_SIZES.join(", ")}.` }),
@@ -80,7 +80,7 @@ export function drapeAngleRad(drapeMm: number, halfSpanMm: number): number {
   return (2 * drapeMm) / halfSpanMm;
 }
 
-export const importScheduleSchema = z.object({
+export const importScheduleSchema = z.strictObject({
   csv: text({ error: "Send the CSV file's text." })
     .min(1, "The file is empty.")
     .max(8_000_000, "The file is over 8 MB; split it by pour."),

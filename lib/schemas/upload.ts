@@ -41,7 +41,7 @@ export function acceptedTypesText(purpose: StoredPurpose): string {
 }
 
 export const presignUploadSchema = z
-  .object({
+  .strictObject({
     purpose: z.enum(UPLOAD_PURPOSES, { error: "Say what the file is for." }),
     contentType: text().trim().min(3, "Say what type of file this is.").max(100),
     sizeBytes: z

@@ -2,6 +2,7 @@ import "server-only";
 import { sql, type Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { sendMail, type OutgoingMail } from "@/lib/mail/send-mail";
+import { backoffDelayMs } from "@/lib/retry/backoff";
 
 /**
  * Sends what the notifications outbox holds. Each row is claimed, sent and marked in its own
@@ -13,10 +14,8 @@ import { sendMail, type OutgoingMail } from "@/lib/mail/send-mail";
 
 export const MAX_ATTEMPTS = 10;
 
-export function backoffMs(attempts: number, random = Math.random): number {
-  const base = Math.min(5_000 * 2 ** Math.max(0, attempts - 1), 30 * 60_000);
-  return Math.round(base * (0.75 + random() * 0.5));
-}
+/** 5 s doubling to half an hour, at least half of each step waited (lib/retry/backoff). */
+const MAIL_BACKOFF = { baseMs: 5_000, capMs: 30 * 60_000, jitter: 0.5 } as const;
 
 export type Send = (mail: OutgoingMail & { messageId: string }) => Promise<void>;
 
@@ -55,7 +54,7 @@ export async function dispatchOne(
           attempts,
           status: failed ? "failed" : "pending",
           last_error: String(error instanceof Error ? error.message : error).slice(0, 500),
-          next_attempt_at: new Date(Date.now() + backoffMs(attempts)),
+          next_attempt_at: new Date(Date.now() + backoffDelayMs(attempts, MAIL_BACKOFF)),
         })
         .where("id", "=", row.id)
         .execute();

@@ -24,8 +24,8 @@ import { judgeAndFlag } from "@/lib/stressing/rules";
 import { forceAgreement, forceAgreementWords } from "@/lib/stressing/rules/force-disagreement";
 import { WIRES_PER_STRAND } from "@/lib/stressing/rules/member-wire-loss";
 import { answeredOrder } from "@/lib/stressing/rules/stressed-twice";
-import { showWobble } from "@/lib/format/quantities";
-import { governsLine, showLength, showPct } from "@/lib/stressing/display";
+import { showLength, showPct, showWobble } from "@/lib/format/quantities";
+import { governsLine } from "@/lib/stressing/display";
 import { selectTendonBasis, toLoadedTendon, type LoadedTendon } from "./load-tendon-basis";
 
 /**

@@ -8,7 +8,7 @@ import { dayBounds, projectTimeZone } from "@/lib/format/dates";
 import { onReportDay, remarksOfSnapshot } from "@/lib/reports/daily-rows";
 import type { DailyAttestation } from "@/lib/schemas/daily-report";
 import type { ReportSnapshot } from "@/lib/reports/report-changes";
-import type { StoredResolution } from "@/lib/stressing/display";
+import type { StoredResolution } from "@/lib/format/quantities";
 import { getPourReport, type PourReport, type ReportFlag } from "./get-pour-report";
 import type { PourRecord } from "./list-pour-records";
 

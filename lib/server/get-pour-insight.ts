@@ -10,7 +10,7 @@ import {
   type SetDrift,
 } from "@/lib/insights";
 import { AppError } from "@/lib/errors";
-import { readingResolution, type StoredResolution } from "@/lib/stressing/display";
+import { readingResolution, type StoredResolution } from "@/lib/format/quantities";
 import { deviationSamples, type JudgedTendon } from "@/lib/stressing/gauge-check";
 import { resolutionStepMm } from "@/lib/units";
 import { listTendonResults, type TendonResult } from "./list-tendon-results";

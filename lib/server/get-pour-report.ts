@@ -5,7 +5,7 @@ import type { Kysely } from "kysely";
 import type { Database, Decision, FlagKind, FlagStatus, ReviewKind } from "@/db/types";
 import { ENGINE_VERSION } from "@/lib/elongation";
 import { AppError } from "@/lib/errors";
-import type { StoredResolution } from "@/lib/stressing/display";
+import type { StoredResolution } from "@/lib/format/quantities";
 import { findFlagTrail } from "./find-flag-trail";
 import { findStandingRelease } from "./find-standing-release";
 import { listPourRecords, type PourRecord } from "./list-pour-records";

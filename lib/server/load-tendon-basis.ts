@@ -3,7 +3,7 @@ import { sql, type Kysely, type QueryCreator } from "kysely";
 import type { Database, TendonKind } from "@/db/types";
 import { AppError } from "@/lib/errors";
 import { projectBasisFromRow, type LotBasis, type ProjectBasis, type TendonBasis } from "@/lib/stressing/basis";
-import type { DisplayUnits, StoredResolution } from "@/lib/stressing/display";
+import type { DisplayUnits, StoredResolution } from "@/lib/format/quantities";
 
 export interface LoadedTendon {
   project: ProjectBasis &

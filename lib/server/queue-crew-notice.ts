@@ -5,7 +5,7 @@ import { env } from "@/lib/env";
 import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
 import { releaseMail, workOrderMail } from "@/lib/mail/templates";
 import { DECISION_LABELS } from "@/lib/schemas/review";
-import { showLength, showPct, showPressure, type StoredResolution } from "@/lib/stressing/display";
+import { showLength, showPct, showPressure, type StoredResolution } from "@/lib/format/quantities";
 
 /** Dispositions that send the crew back to the tendon. */
 export const ORDERS_WORK: readonly Decision[] = ["restress", "detension_restress", "liftoff_check", "replace"];

@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import { MM_PER_INCH } from "@/lib/units";
 import { showBandAsRead, showBandEdge, showPredictedAsRead } from "./display";
 
 // A band printed wider than it is contradicts its own verdict ("short of the band 4 1/2 in to
@@ -9,10 +10,10 @@ const si = { unitSystem: "si" as const, readingResolution: "1mm" as const };
 describe("showBandEdge", () => {
   it.each([
     // [mm, edge, shown]
-    [4.4963 * 25.4, "lower", "4.50 in"], // rounded up, inside the band
-    [5.2537 * 25.4, "upper", "5.25 in"], // rounded down, inside the band
-    [4.5 * 25.4, "lower", "4.50 in"], // exactly on a step stays there despite conversion noise
-    [5.25 * 25.4, "upper", "5.25 in"],
+    [4.4963 * MM_PER_INCH, "lower", "4.50 in"], // rounded up, inside the band
+    [5.2537 * MM_PER_INCH, "upper", "5.25 in"], // rounded down, inside the band
+    [4.5 * MM_PER_INCH, "lower", "4.50 in"], // exactly on a step stays there despite conversion noise
+    [5.25 * MM_PER_INCH, "upper", "5.25 in"],
     [112.04, "lower", "112.1 mm"],
     [131.96, "upper", "131.9 mm"],
   ] as const)("%f mm as the %s edge is %s", (mm, edge, shown) => {
@@ -23,11 +24,11 @@ describe("showBandEdge", () => {
 describe("showBandAsRead", () => {
   // Hand-worked: predicted 5.525 in, ±7 % gives 5.13825 in to 5.91175 in; at 1/8 in the first
   // divisions inside are 5 1/4 (5.125 < 5.138) and 5 7/8 (5.875 ≤ 5.912 < 6.0).
-  const lowerMm = 5.13825 * 25.4;
-  const upperMm = 5.91175 * 25.4;
+  const lowerMm = 5.13825 * MM_PER_INCH;
+  const upperMm = 5.91175 * MM_PER_INCH;
 
   it("shows fractions alone when the elongation judged is a reading on the division", () => {
-    expect(showBandAsRead(us, { lowerMm, upperMm, measuredMm: 5.75 * 25.4 })).toEqual({
+    expect(showBandAsRead(us, { lowerMm, upperMm, measuredMm: 5.75 * MM_PER_INCH })).toEqual({
       read: "5 1/4 in to 5 7/8 in",
       decimals: null,
     });
@@ -35,7 +36,7 @@ describe("showBandAsRead", () => {
 
   it("adds the decimal band when the judged elongation is off the division", () => {
     // 5.13 in reads 5 1/8 on the tape but is corrected, not read: the decimals decide.
-    expect(showBandAsRead(us, { lowerMm, upperMm, measuredMm: 5.13 * 25.4 })).toEqual({
+    expect(showBandAsRead(us, { lowerMm, upperMm, measuredMm: 5.13 * MM_PER_INCH })).toEqual({
       read: "5 1/4 in to 5 7/8 in",
       decimals: "5.14 in to 5.91 in",
     });
@@ -43,7 +44,9 @@ describe("showBandAsRead", () => {
 
   it("reads to 1/16 in where the project does", () => {
     const fine = { unitSystem: "us" as const, readingResolution: "1/16in" as const };
-    expect(showBandAsRead(fine, { lowerMm, upperMm, measuredMm: 5.75 * 25.4 }).read).toBe("5 3/16 in to 5 7/8 in");
+    expect(showBandAsRead(fine, { lowerMm, upperMm, measuredMm: 5.75 * MM_PER_INCH }).read).toBe(
+      "5 3/16 in to 5 7/8 in",
+    );
   });
 
   it("keeps the millimetre band as it was on an SI project", () => {
@@ -56,7 +59,7 @@ describe("showBandAsRead", () => {
 
 describe("showPredictedAsRead", () => {
   it("rounds a prediction to the nearest division on an inch project", () => {
-    expect(showPredictedAsRead(us, 5.525 * 25.4)).toBe("5 1/2 in"); // 5.525 is 44.2 eighths → 44
+    expect(showPredictedAsRead(us, 5.525 * MM_PER_INCH)).toBe("5 1/2 in"); // 5.525 is 44.2 eighths → 44
     expect(showPredictedAsRead(si, 140.34)).toBe("140.3 mm");
   });
 });

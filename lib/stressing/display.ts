@@ -1,18 +1,10 @@
 /**
- * Shows SI values in a project's display units. The formatting itself lives in
- * `lib/format/quantities.ts`; this module keeps the names the screens already import.
+ * How the verdict's band, its prediction and the governing prediction are put in words. Plain
+ * quantities are formatted by `lib/format/quantities.ts`, imported from there directly.
  */
-export {
-  readingResolution,
-  showComputedLength,
-  showForce,
-  showLength,
-  showPct,
-  showPressure,
-  unitsOf,
-  type DisplayUnits,
-  type StoredResolution,
-} from "@/lib/format/quantities";
+// record-form.tsx (another branch's this round) still imports showPressure from here; move it to
+// lib/format/quantities and delete this line.
+export { showPressure } from "@/lib/format/quantities";
 import { formatLength, formatLengthInward, mmToIn, resolutionStepMm } from "@/lib/units";
 import { readingResolution, showComputedLength, showPct, type DisplayUnits } from "@/lib/format/quantities";
 

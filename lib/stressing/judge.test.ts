@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import { MM_PER_FOOT, MM_PER_INCH, MPA_PER_PSI } from "@/lib/units";
 import { findStrandSize } from "@/lib/elongation";
 import { judgeStressing, stressingDay, type JudgeInput, type JudgeRecord } from "./judge";
 import { findFlags } from "./rules";
@@ -12,11 +13,11 @@ import { findFlags } from "./rules";
 
 const strand = findStrandSize("0.5 in")!;
 const A = strand.areaMm2;
-const E = 28_500_000 * 0.006894757293168; // 28,500 ksi in MPa
+const E = 28_500_000 * MPA_PER_PSI; // 28,500 ksi in MPa
 const PJ = 0.8 * strand.minBreakingStrengthN;
 const K = 0.0033 / 1000; // per mm
-const FT = 304.8;
-const IN = 25.4;
+const FT = MM_PER_FOOT;
+const IN = MM_PER_INCH;
 
 /** Gross elongation of a straight tendon of length L pulled from one end, mm. */
 const oneEndGross = (L: number) => (PJ * (1 - Math.exp(-K * L))) / K / (A * E);
@@ -327,7 +328,7 @@ describe("force and gauge", () => {
   });
 
   it("a gauge reading outside the calibrated range is never in band", () => {
-    const psi = 0.006894757293168;
+    const psi = MPA_PER_PSI;
     const j = judgeStressing(input({ records: [record({ measuredMm: perfect, finalPressureMPa: 99_999 * psi })] }));
     expect(j.verdict).toBe("incomplete");
     expect(findFlags(input(), j).map((f) => f.kind)).toContain("calibration_range");

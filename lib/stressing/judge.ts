@@ -13,7 +13,7 @@ import { dayInZone } from "@/lib/format/dates";
 import { pickCalibration } from "@/lib/schemas/pick-calibration";
 import { resolutionStepMm } from "@/lib/units";
 import { strandValues, type LotBasis, type ProjectBasis, type StrandValues, type TendonBasis } from "./basis";
-import { readingResolution, type DisplayUnits } from "./display";
+import { readingResolution, type DisplayUnits } from "@/lib/format/quantities";
 
 /**
  * The one judge of a tendon's stressing, pure and shared: the server's evaluation and the tablet's

@@ -1,5 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
+import { MPA_PER_PSI } from "@/lib/units";
 import { findStrandSize, predictElongation, type TendonInput } from "@/lib/elongation";
 import type { LocalRecord } from "@/lib/offline/db";
 import { provisionalVerdict } from "@/lib/offline/tendon-view";
@@ -116,7 +117,7 @@ describe("a perfect reading is in band on every basis, method and order", () => 
               segments,
               strandAreaMm2: strand.areaMm2,
               strandCount: 1,
-              modulusMPa: 28_500_000 * 0.006894757293168,
+              modulusMPa: 28_500_000 * MPA_PER_PSI,
               jackingForceN: PJ,
               wobblePerM: project.wobblePerM,
               mu: project.frictionMu,

@@ -8,7 +8,7 @@ import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { recordDisposition } from "@/lib/server/record-disposition";
 import { releasePour } from "@/lib/server/release-pour";
 import { predictTendon } from "@/lib/stressing/basis";
-import { formatLength, parseLength } from "@/lib/units";
+import { formatLength, MM_PER_INCH, MPA_PER_PSI, parseLength } from "@/lib/units";
 
 /**
  * The demo job's stressing, all invented: L2 Pour 1 was stressed a week ago, one tendon came out
@@ -19,8 +19,8 @@ import { formatLength, parseLength } from "@/lib/units";
  * within the band). Every record goes through the same evaluation as a synced one.
  */
 
-const IN = 25.4;
-const PSI_PER_MPA = 145.03773773;
+const IN = MM_PER_INCH;
+const PSI_PER_MPA = 1 / MPA_PER_PSI;
 
 /** A stable UUID from a name, so a second seeding finds the rows of the first. */
 export function demoUuid(name: string): string {

@@ -1,5 +1,6 @@
 import bcrypt from "bcryptjs";
 import { fitCalibration } from "@/lib/elongation";
+import { METRES_PER_FOOT, MM_PER_INCH } from "@/lib/units";
 import { predictTendon, projectBasisFromRow } from "@/lib/stressing/basis";
 import { psiToMPa } from "@/lib/units";
 import { seedDemoRecords } from "./demo-records";
@@ -31,7 +32,7 @@ export const DEMO_PEOPLE: ReadonlyArray<{
   { email: "crew@other.tautline.test", name: "Sam Whitcombe", project: "QHM", role: "crew" },
 ];
 
-const IN = 25.4;
+const IN = MM_PER_INCH;
 const FT = 12 * IN;
 
 /** Half-span parabolic segments: a drop h over a half span l turns the tendon by 2h/l. */
@@ -160,7 +161,7 @@ export async function seedDemo(
           comparison_basis: "net",
           count_jack_grip: false,
           friction_mu: 0.07,
-          wobble_per_m: 0.0015 * 3.280839895, // 0.0015 per ft, within ACI R18.6.2 greased monostrand range
+          wobble_per_m: 0.0015 / METRES_PER_FOOT, // 0.0015 per ft, within ACI R18.6.2 greased monostrand range
           anchor_set_mm: 6.35,
           calibration_validity_days: 182,
           required_concrete_mpa: psiToMPa(3000), // exactly 3,000 psi, as the demo drawings state it

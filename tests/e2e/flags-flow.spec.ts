@@ -3,7 +3,7 @@ import { randomUUID } from "node:crypto";
 import { uuidv7 } from "uuidv7";
 import { pressureForForce } from "@/lib/elongation";
 import { predictTendon, type ProjectBasis, type TendonBasis } from "@/lib/stressing/basis";
-import { formatLength, parseLength, parsePressure } from "@/lib/units";
+import { formatLength, MM_PER_INCH, MPA_PER_PSI, parseLength, parsePressure } from "@/lib/units";
 import { screenshot } from "./support";
 import { PEOPLE, apiAs, lastMailId, latestMailTo, queryDemo, signInWithPassword } from "./people";
 
@@ -17,7 +17,7 @@ import { PEOPLE, apiAs, lastMailId, latestMailTo, queryDemo, signInWithPassword 
 const stamp = Date.now().toString(36);
 const TAG = `FLOW-${stamp}`;
 const POUR = `Flow check ${stamp}`;
-const PSI_PER_MPA = 145.03773773;
+const PSI_PER_MPA = 1 / MPA_PER_PSI;
 
 interface Fixture {
   projectId: string;
@@ -101,7 +101,7 @@ async function makeFixture(): Promise<Fixture> {
 async function pushRecord(crew: APIRequestContext, fx: Fixture, factor: number, minutesAgo: number) {
   const predicted = predictTendon({ project: fx.project, tendon: fx.tendon, lot: fx.lot });
   const psi = String(Math.floor((pressureForForce(fx.line, predicted.jackingForceN) * PSI_PER_MPA) / 50) * 50);
-  const after = formatLength(2 * 25.4 + predicted.predictedMm * factor, "1/8 in").replace(/ in$/, "");
+  const after = formatLength(2 * MM_PER_INCH + predicted.predictedMm * factor, "1/8 in").replace(/ in$/, "");
   const measuredMm =
     parseLength(after, { field: "marksAfter", system: "US", defaultUnit: "in" }) -
     parseLength("2", { field: "marksBefore", system: "US", defaultUnit: "in" });

@@ -2,6 +2,7 @@ import { expect, test } from "@playwright/test";
 import { pressureForForce } from "@/lib/elongation";
 import { predictTendon } from "@/lib/stressing/basis";
 import { expectedAnchorForceN } from "@/lib/stressing/liftoff";
+import { MPA_PER_PSI } from "@/lib/units";
 import { screenshot } from "./support";
 import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
 import { makePourFixture, pushEndA } from "./pour-fixture";
@@ -19,7 +20,7 @@ test.use({ viewport: { width: 800, height: 1280 }, hasTouch: true });
 
 const stamp = Date.now().toString(36);
 const POUR = `Lift-off check ${stamp}`;
-const PSI_PER_MPA = 145.03773773;
+const PSI_PER_MPA = 1 / MPA_PER_PSI;
 
 test("the crew records an ordered lift-off check offline and sees the server's result after the sync", async ({
   browser,

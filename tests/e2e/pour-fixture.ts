@@ -3,10 +3,10 @@ import { randomUUID } from "node:crypto";
 import { uuidv7 } from "uuidv7";
 import { pressureForForce } from "@/lib/elongation";
 import { predictTendon, type ProjectBasis, type TendonBasis } from "@/lib/stressing/basis";
-import { formatLength, parseLength, parsePressure } from "@/lib/units";
+import { formatLength, MM_PER_INCH, MPA_PER_PSI, parseLength, parsePressure } from "@/lib/units";
 import { PEOPLE, queryDemo } from "./people";
 
-const PSI_PER_MPA = 145.03773773;
+const PSI_PER_MPA = 1 / MPA_PER_PSI;
 
 /** A pour of the demo project made for one spec, with one-end tendons copied from the demo schedule. */
 export interface PourFixture {
@@ -100,7 +100,7 @@ export async function makePourFixture(pourName: string, tags: string[]): Promise
 export function typedReading(fx: PourFixture, factor: number): { psi: string; before: string; after: string } {
   const predicted = predictTendon({ project: fx.project, tendon: fx.tendon, lot: fx.lot });
   const psi = String(Math.floor((pressureForForce(fx.line, predicted.jackingForceN) * PSI_PER_MPA) / 50) * 50);
-  const after = formatLength(2 * 25.4 + predicted.predictedMm * factor, "1/8 in").replace(/ in$/, "");
+  const after = formatLength(2 * MM_PER_INCH + predicted.predictedMm * factor, "1/8 in").replace(/ in$/, "");
   return { psi, before: "2", after };
 }
 

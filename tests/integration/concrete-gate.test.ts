@@ -6,6 +6,7 @@ import { listConcreteResults } from "@/lib/server/list-concrete-results";
 import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { predictTendon } from "@/lib/stressing/basis";
 import { demoFixture, insertRecord } from "../support/records";
+import { makePour, makeProject, makeTendons } from "../support/factories";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
 // The concrete gate on real PostgreSQL: one concrete flag per pour however many tendons are
@@ -51,38 +52,23 @@ afterAll(async () => {
 
 /** A new pour with no confirmed concrete and `count` one-end tendons copied from the demo schedule. */
 async function newPour(name: string, count: number) {
-  const pour = await t.db
-    .insertInto("pours")
-    .values({ project_id: fx.projectId, name })
-    .returning("id")
-    .executeTakeFirstOrThrow();
+  const pour = await makePour(t.db, fx.projectId, { name });
   const template = await t.db
     .selectFrom("tendons")
     .selectAll()
     .where("project_id", "=", fx.projectId)
     .where("tag", "=", "2-1-U01")
     .executeTakeFirstOrThrow();
-  const tendons: { id: string; pour_id: string; tag: string }[] = [];
-  for (let i = 1; i <= count; i++) {
-    tendons.push(
-      await t.db
-        .insertInto("tendons")
-        .values({
-          project_id: template.project_id,
-          pour_id: pour.id,
-          tag: `C-${i}`,
-          kind: template.kind,
-          strand_size: template.strand_size,
-          strand_count: template.strand_count,
-          segments: JSON.stringify(template.segments),
-          ends: template.ends,
-          jack_grip_mm: template.jack_grip_mm,
-          strand_lot_id: template.strand_lot_id,
-        })
-        .returning(["id", "pour_id", "tag"])
-        .executeTakeFirstOrThrow(),
-    );
-  }
+  const tags = Array.from({ length: count }, (_, i) => `C-${i + 1}`);
+  const tendons = await makeTendons(t.db, { projectId: fx.projectId, pourId: pour.id }, tags, {
+    kind: template.kind,
+    strandSize: template.strand_size,
+    strandCount: template.strand_count,
+    segments: template.segments,
+    ends: template.ends,
+    jackGripMm: template.jack_grip_mm,
+    strandLotId: template.strand_lot_id,
+  });
   return { pourId: pour.id, tendons };
 }
 
@@ -237,11 +223,7 @@ describe("the concrete gate of a pour", () => {
 
   it("refuses a pour of another project and a lab report that was not uploaded, and writes nothing", async () => {
     const { pourId } = await newPour("Refusals", 1);
-    const other = await t.db
-      .insertInto("projects")
-      .values({ name: "Elsewhere", code: "ELSE-1" })
-      .returning("id")
-      .executeTakeFirstOrThrow();
+    const other = await makeProject(t.db, { name: "Elsewhere", code: "ELSE-1" });
     const result = { specimen: "cube" as const, strengthMPa: 30, ageDays: 7, specimenCount: 3 };
     await expect(addConcreteResult(t.db, { projectId: other.id, pourId, by: inspector, result })).rejects.toMatchObject(
       { code: "NOT_FOUND" },

@@ -4,6 +4,7 @@ import Papa from "papaparse";
 import { PDFParse } from "pdf-parse";
 import { uuidv7 } from "uuidv7";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { MPA_PER_PSI } from "@/lib/units";
 import { renderDailyCsv } from "@/lib/reports/daily-csv";
 import { renderDailyPdf } from "@/lib/reports/daily-pdf";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
@@ -22,7 +23,7 @@ import { demoFixture, insertRecord } from "../support/records";
 // All readings are invented demo values.
 
 const DAY = "2026-11-18";
-const PSI = 0.006894757293168; // MPa per psi (NIST SP 811, 1 psi = 6.894757 kPa)
+const PSI = MPA_PER_PSI; // MPa per psi (NIST SP 811, 1 psi = 6.894757 kPa)
 
 let t: TestDatabase;
 let fx: Awaited<ReturnType<typeof demoFixture>>;

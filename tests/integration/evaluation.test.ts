@@ -1,5 +1,6 @@
 import { sql } from "kysely";
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
+import { MPA_PER_PSI } from "@/lib/units";
 import { seedDemo } from "@/scripts/seed/demo";
 import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 import { predictTendon } from "@/lib/stressing/basis";
@@ -191,7 +192,7 @@ describe("the server's evaluation of a tendon", () => {
   it("reads a gauge within half a 100 psi graduation of the mark as at the mark (graduation per UFGS 02490)", async () => {
     const tendon = await fx.tendon("2-1-U05");
     const predicted = await predictedFor(tendon.id);
-    const psi = 0.006894757293168;
+    const psi = MPA_PER_PSI;
     const base = { projectId: fx.projectId, tendon, equipmentSetId: fx.setA, authorId: fx.crewId };
     await insertRecord(t.db, {
       ...base,

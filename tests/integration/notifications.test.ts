@@ -1,7 +1,7 @@
 import { spawn } from "node:child_process";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { seedDemo } from "@/scripts/seed/demo";
-import { MAX_ATTEMPTS, backoffMs, dispatchOne, drainNotifications } from "@/lib/server/dispatch-notifications";
+import { MAX_ATTEMPTS, dispatchOne, drainNotifications } from "@/lib/server/dispatch-notifications";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
 const INBOX = process.env.MAIL_INBOX_URL ?? "http://127.0.0.1:1081";
@@ -96,12 +96,27 @@ describe("the e-mail dispatcher", () => {
     expect(failed).toEqual({ status: "failed", attempts: MAX_ATTEMPTS });
   });
 
-  it("backs off exponentially within ±25 % jitter and never waits more than half an hour", () => {
-    expect(backoffMs(1, () => 0.5)).toBe(5_000);
-    expect(backoffMs(2, () => 0.5)).toBe(10_000);
-    expect(backoffMs(4, () => 0)).toBe(30_000);
-    expect(backoffMs(4, () => 1)).toBe(50_000);
-    expect(backoffMs(30, () => 0.5)).toBe(30 * 60_000);
+  it("waits half to all of a doubling step after a failed send", async () => {
+    // The schedule itself (and its half-hour cap) is tested in lib/retry/backoff.test.ts; here:
+    // the outbox follows it. First failure: a step of 5 s; fourth: 5 s × 2³ = 40 s.
+    for (const [before, lowMs, highMs] of [
+      [0, 2_500, 5_000],
+      [3, 20_000, 40_000],
+    ] as const) {
+      const id = await queue(`backoff-${before}-${Date.now()}`);
+      await t.db.updateTable("notifications").set({ attempts: before }).where("id", "=", id).execute();
+      const started = Date.now();
+      expect(await dispatchOne(t.db, async () => Promise.reject(new Error("relay down")))).toBe("retry");
+      const row = await t.db
+        .selectFrom("notifications")
+        .select("next_attempt_at")
+        .where("id", "=", id)
+        .executeTakeFirstOrThrow();
+      const waitMs = new Date(row.next_attempt_at).getTime() - started;
+      expect(waitMs).toBeGreaterThanOrEqual(lowMs - 1_000);
+      expect(waitMs).toBeLessThanOrEqual(highMs + 1_000);
+      await t.db.deleteFrom("notifications").where("id", "=", id).execute();
+    }
   });
 
   it("sends exactly once when a dispatcher dies in the middle of sending", async () => {

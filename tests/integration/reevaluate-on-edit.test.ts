@@ -9,6 +9,7 @@ import { judgeStressing } from "@/lib/stressing/judge";
 import type { TendonInput } from "@/lib/schemas/tendon";
 import { AppError } from "@/lib/errors";
 import { demoFixture, insertRecord } from "../support/records";
+import { makePour, makeStrandLot, makeTendons } from "../support/factories";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
 // Editing what a prediction reads (a strand lot's modulus, a tendon's schedule) judges the stressed
@@ -47,27 +48,11 @@ async function stressedTendon(tag: string) {
     .select("concrete_strength_mpa")
     .where("id", "=", source.pour_id)
     .executeTakeFirstOrThrow();
-  const pour = await t.db
-    .insertInto("pours")
-    .values({
-      project_id: fx.projectId,
-      name: `Edit pour ${tag}`,
-      concrete_strength_mpa: sourcePour.concrete_strength_mpa,
-    })
-    .returning("id")
-    .executeTakeFirstOrThrow();
-  const lot = await t.db
-    .insertInto("strand_lots")
-    .values({
-      project_id: fx.projectId,
-      lot_number: `${LOT.lotNumber}-${tag}`,
-      strand_size: LOT.strandSize,
-      area_mm2: LOT.areaMm2,
-      modulus_mpa: LOT.modulusMPa,
-      breaking_load_n: LOT.breakingLoadN,
-    })
-    .returning("id")
-    .executeTakeFirstOrThrow();
+  const pour = await makePour(t.db, fx.projectId, {
+    name: `Edit pour ${tag}`,
+    concreteStrengthMPa: sourcePour.concrete_strength_mpa,
+  });
+  const lot = await makeStrandLot(t.db, fx.projectId, { ...LOT, lotNumber: `${LOT.lotNumber}-${tag}` });
   const values: TendonInput = {
     tag,
     kind: source.kind,
@@ -79,23 +64,7 @@ async function stressedTendon(tag: string) {
     shopElongationMm: null,
     strandLotId: lot.id,
   };
-  const tendon = await t.db
-    .insertInto("tendons")
-    .values({
-      project_id: fx.projectId,
-      pour_id: pour.id,
-      tag,
-      kind: values.kind,
-      strand_size: values.strandSize,
-      strand_count: values.strandCount,
-      segments: JSON.stringify(values.segments),
-      ends: values.ends,
-      jack_grip_mm: values.jackGripMm,
-      shop_elongation_mm: null,
-      strand_lot_id: lot.id,
-    })
-    .returning(["id", "pour_id"])
-    .executeTakeFirstOrThrow();
+  const tendon = (await makeTendons(t.db, { projectId: fx.projectId, pourId: pour.id }, [tag], values))[0]!;
   const predicted = await netPrediction(tendon.id);
   const c = await t.db
     .selectFrom("calibrations")

@@ -503,6 +503,40 @@ describe("every route handler answers generated bad input without a 5xx, naming 
     expect(missing).toEqual([]);
   });
 
+  it("answers 422 naming an unknown field in any body, on every endpoint that takes one", async () => {
+    const unnamed: string[] = [];
+    for (const endpoint of Object.keys(MATRIX).filter((k) => !NOT_FUZZED.has(k))) {
+      const seed = seedBody(endpoint, world);
+      if (!seed) continue;
+      const { file, method } = ROUTE_FILES.get(endpoint)!;
+      const mod = (await import(file)) as Record<
+        string,
+        (req: NextRequest, ctx: { params: Promise<Record<string, string>> }) => Promise<Response>
+      >;
+      const caller = callerFor(endpoint);
+      routeState.user = caller === "anonymous" ? null : world.users[caller];
+      const params = Object.fromEntries(paramNames(endpoint).map((n) => [n, world.ids[n] ?? MISSING_ID]));
+      const url = new URL(
+        endpoint.split(" ")[1]!.replace(/\[(\w+)\]/g, (_, name: string) => encodeURIComponent(params[name]!)),
+        ORIGIN,
+      );
+      const before = await rowCounts();
+      const res = await mod[method]!(
+        new NextRequest(url, {
+          method,
+          headers: { origin: ORIGIN, "content-type": "application/json" },
+          body: JSON.stringify({ ...seed, colourOfTheJack: "red" }),
+        }),
+        { params: Promise.resolve(params) },
+      );
+      await settleBackground();
+      const answer = (await res.json()) as { error?: { fields?: Record<string, string[]> } };
+      if (res.status !== 422 || !answer.error?.fields?.colourOfTheJack) unnamed.push(`${endpoint} → ${res.status}`);
+      expect(await rowCounts(), endpoint).toEqual(before);
+    }
+    expect(unnamed).toEqual([]);
+  });
+
   const endpoints = Object.keys(MATRIX).filter((k) => !NOT_FUZZED.has(k));
   let index = 0;
   for (const endpoint of endpoints) {

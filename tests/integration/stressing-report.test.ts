@@ -3,6 +3,7 @@ import Papa from "papaparse";
 import { PDFParse } from "pdf-parse";
 import { uuidv7 } from "uuidv7";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { MM_PER_INCH, MPA_PER_PSI } from "@/lib/units";
 import { seedDemo } from "@/scripts/seed/demo";
 import { pourCsvTable, renderPourCsv } from "@/lib/reports/pour-csv";
 import { renderPourPdf } from "@/lib/reports/pour-pdf";
@@ -28,7 +29,7 @@ let fx: Awaited<ReturnType<typeof demoFixture>>;
 let pourId: string;
 let crewName: string;
 let predicted: { predictedMm: number; jackingForceN: number };
-const SHOP_MM = 5.5 * 25.4; // the shop drawing's elongation for S-01 (invented, 5 1/2 in)
+const SHOP_MM = 5.5 * MM_PER_INCH; // the shop drawing's elongation for S-01 (invented, 5 1/2 in)
 
 async function insertTyped(values: {
   tendon: { id: string };
@@ -64,7 +65,7 @@ async function insertTyped(values: {
         seating: values.typed.seating,
       }),
       measured_mm: values.measuredMm,
-      seating_mm: 0.25 * 25.4,
+      seating_mm: 0.25 * MM_PER_INCH,
       remarks: values.remarks ?? null,
       device_time: values.deviceTime,
       device_time_zone: "America/Chicago",
@@ -101,7 +102,7 @@ beforeAll(async () => {
     .executeTakeFirstOrThrow();
   const pour = await t.db
     .insertInto("pours")
-    .values({ project_id: fx.projectId, name: "Signed pour", concrete_strength_mpa: 4000 * 0.006894757293168 })
+    .values({ project_id: fx.projectId, name: "Signed pour", concrete_strength_mpa: 4000 * MPA_PER_PSI })
     .returning("id")
     .executeTakeFirstOrThrow();
   pourId = pour.id;
@@ -136,7 +137,7 @@ beforeAll(async () => {
     tendon: s01,
     measuredMm: 0.85 * predicted.predictedMm,
     typed: { before: "12", after: "16 1/4", seating: "1/4", final: "4150", initial: null },
-    finalPressureMPa: 4150 * 0.006894757293168,
+    finalPressureMPa: 4150 * MPA_PER_PSI,
     initialPressureMPa: null,
     deviceTime: "2026-11-30T15:10:00Z",
     remarks: "Jack chattered near the end of the pull",
@@ -169,8 +170,8 @@ beforeAll(async () => {
     tendon: s01,
     measuredMm: (predicted.predictedMm * (4230 - 800)) / 4230,
     typed: { before: "12", after: "17 3/8", seating: "5/16", final: "4230", initial: "800" },
-    finalPressureMPa: 4230 * 0.006894757293168,
-    initialPressureMPa: 800 * 0.006894757293168,
+    finalPressureMPa: 4230 * MPA_PER_PSI,
+    initialPressureMPa: 800 * MPA_PER_PSI,
     deviceTime: "2026-12-01T14:40:00Z",
     restressOf: dispositionId,
   });

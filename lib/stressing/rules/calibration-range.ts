@@ -1,4 +1,4 @@
-import { showPressure } from "../display";
+import { showPressure } from "@/lib/format/quantities";
 import type { Rule } from "./types";
 
 /** A gauge reading outside the range the calibration was made over: the force there is not known. */

@@ -1,6 +1,6 @@
 import { checkStressLimits, findStrandSize, forceFromPressure, predictElongation, type Check } from "@/lib/elongation";
 import { MPA_PER_PSI } from "@/lib/units";
-import { showForce } from "../display";
+import { showForce } from "@/lib/format/quantities";
 import { JUDGING_DEFAULTS, type EndJudgement } from "../judge";
 import type { Rule, RuleState } from "./types";
 

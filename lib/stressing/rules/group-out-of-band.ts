@@ -1,4 +1,4 @@
-import { showPct } from "../display";
+import { showPct } from "@/lib/format/quantities";
 import type { Rule } from "./types";
 
 /**

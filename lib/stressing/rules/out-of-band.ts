@@ -1,4 +1,4 @@
-import { showLength, showPct } from "../display";
+import { showLength, showPct } from "@/lib/format/quantities";
 import type { Rule } from "./types";
 
 /**

@@ -1,4 +1,4 @@
-import { showLength } from "../display";
+import { showLength } from "@/lib/format/quantities";
 import { JUDGING_DEFAULTS } from "../judge";
 import type { Rule } from "./types";
 

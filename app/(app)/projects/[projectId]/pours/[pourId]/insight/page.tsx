@@ -16,8 +16,9 @@ import { getPourInsight } from "@/lib/server/get-pour-insight";
 import { getProjectTimeZone } from "@/lib/server/get-project-time-zone";
 import { listConcreteResults } from "@/lib/server/list-concrete-results";
 import { listReportRevisions } from "@/lib/server/list-report-revisions";
-import { readingResolution } from "@/lib/stressing/display";
+import { readingResolution } from "@/lib/format/quantities";
 import { isUuid, pageAccess } from "../../../page-access";
+import { MM_PER_INCH } from "@/lib/units";
 
 export const metadata = { title: "Pour insight" };
 
@@ -31,7 +32,7 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
   });
   const us = insight.project.unitSystem === "us";
   const lengthUnit = us ? "in" : "mm";
-  const toUnit = (mm: number) => (us ? mm / 25.4 : mm);
+  const toUnit = (mm: number) => (us ? mm / MM_PER_INCH : mm);
   const points = insight.points.map((p, i) => ({
     index: i + 1,
     tag: p.tag,

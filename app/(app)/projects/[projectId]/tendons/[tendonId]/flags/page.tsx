@@ -12,7 +12,7 @@ import { can } from "@/lib/auth/permissions";
 import { isAppError } from "@/lib/errors";
 import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
 import { getTendonCase } from "@/lib/server/get-tendon-case";
-import { showLength, showPressure } from "@/lib/stressing/display";
+import { showLength, showPressure } from "@/lib/format/quantities";
 import { isUuid, pageAccess } from "../../../page-access";
 
 export const metadata = { title: "Tendon flags" };
