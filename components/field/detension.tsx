@@ -12,7 +12,7 @@ import type { FieldProject, FieldTendon } from "@/lib/schemas/sync";
 import { zodFields } from "@/lib/schemas/zod-fields";
 import { isInputError, parsePressure } from "@/lib/units";
 import { useField } from "./field-provider";
-import { useLive } from "./use-live";
+import { useLiveQuery as useLive } from "dexie-react-hooks";
 
 /**
  * The detension an engineer ordered (decision detension_restress), opened from the hold panel:

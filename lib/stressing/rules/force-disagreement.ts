@@ -1,4 +1,4 @@
-import { showForce, showPct } from "../display";
+import { showForce, showPct } from "@/lib/format/quantities";
 import type { EndJudgement, JudgeProject } from "../judge";
 import type { Rule } from "./types";
 
