@@ -268,6 +268,10 @@ export interface RecordsTable {
   seating_mm: number | null;
   stressing_order: StressingOrder | null;
   draw_in_mm: number | null;
+  /** The first, coarser reading when the elongation was read again finer (measured_mm is the re-read). */
+  first_reading_mm: Generated<number | null>;
+  /** Why the finer second reading the tablet asked for could not be taken. */
+  reread_declined_reason: Generated<string | null>;
   wire_breaks: Generated<number>;
   remarks: string | null;
   device_time: Timestamp;

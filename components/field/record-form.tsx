@@ -16,7 +16,7 @@ import {
   type RecordFormValues,
 } from "@/lib/schemas/record";
 import { stressedEnds } from "@/lib/stressing/basis";
-import { showPressure } from "@/lib/stressing/display";
+import { finerDivision, showPressure } from "@/lib/stressing/display";
 import { setFormDirty } from "./form-dirty";
 import { SafetyCaution } from "@/components/ui/caution";
 import { useField } from "./field-provider";
@@ -24,6 +24,8 @@ import { PhotoPicker, type PickedPhoto } from "./photo-picker";
 import { units } from "./verdict-panel";
 
 const FRACTIONS = ["1/8", "1/4", "3/8", "1/2", "5/8", "3/4", "7/8"];
+/** The odd sixteenths, added to the keys while a finer second reading is typed. */
+const SIXTEENTHS = ["1/16", "3/16", "5/16", "7/16", "9/16", "11/16", "13/16", "15/16"];
 
 function FieldError({ message }: { message?: string }) {
   return message ? (
@@ -34,13 +36,29 @@ function FieldError({ message }: { message?: string }) {
 }
 
 /** A reading box the fraction keys write into. */
-type LengthBox = "marksBefore" | "marksAfter" | "seating" | "drawIn" | `strokes.${number}.value`;
+type LengthBox =
+  | "marksBefore"
+  | "marksAfter"
+  | "seating"
+  | "drawIn"
+  | "rereadMarksAfter"
+  | `strokes.${number}.value`
+  | `rereadStrokes.${number}.value`;
 
 /**
  * One row of fraction keys for every inch reading: the numeric keypad has no slash, gloves want
  * big keys, and one row (for the box last touched) keeps the form on one screen.
  */
-function FractionKeys({ target, onPick }: { target: string; onPick: (fraction: string) => void }) {
+function FractionKeys({
+  target,
+  onPick,
+  fine,
+}: {
+  target: string;
+  onPick: (fraction: string) => void;
+  /** A finer second reading is typed: the sixteenths join the eighths. */
+  fine: boolean;
+}) {
   return (
     <div
       className="flex flex-wrap items-center gap-1"
@@ -51,13 +69,19 @@ function FractionKeys({ target, onPick }: { target: string; onPick: (fraction: s
       <span className="mr-1 text-base text-ink-soft" aria-hidden="true">
         Fraction for <strong>{target}</strong>:
       </span>
-      {FRACTIONS.map((f) => (
+      {(fine ? [...FRACTIONS, ...SIXTEENTHS].sort((a, b) => inSixteenths(a) - inSixteenths(b)) : FRACTIONS).map((f) => (
         <button key={f} type="button" className="btn-quiet min-w-touch px-2" onClick={() => onPick(f)}>
           {f}
         </button>
       ))}
     </div>
   );
+}
+
+/** A fraction in sixteenths, for ordering the keys. */
+function inSixteenths(fraction: string): number {
+  const [n, d] = fraction.split("/").map(Number);
+  return (n! * 16) / d!;
 }
 
 function NumberBox(props: {
@@ -116,6 +140,9 @@ function formFromEntered(base: LocalRecord): RecordFormValues {
     strokes: e.strokes?.length ? e.strokes.map((value) => ({ value })) : [{ value: "" }],
     seating: e.seating ?? "",
     drawIn: e.drawIn ?? "",
+    rereadMarksAfter: e.reread?.marksAfter ?? "",
+    rereadStrokes: (e.reread?.strokes ?? []).map((value) => ({ value })),
+    rereadDeclinedReason: base.rereadDeclinedReason ?? "",
     stressingOrder: base.stressingOrder ?? "sequential",
     wireBreaks: String(base.wireBreaks),
     remarks: base.remarks ?? "",
@@ -153,6 +180,10 @@ export function RecordForm({
     [sets, ctx.calibrations, today],
   );
   const concreteUnconfirmed = concreteGate !== null;
+  // The reading division alone could change the verdict: the finer second reading is asked before saving.
+  const [rereadAsked, setRereadAsked] = useState(
+    Boolean(correcting?.firstReadingMm || correcting?.rereadDeclinedReason),
+  );
   const schema = useMemo(
     () =>
       recordFormSchema({
@@ -161,8 +192,9 @@ export function RecordForm({
         ends,
         correction: Boolean(correcting),
         concreteUnconfirmed,
+        rereadAsked,
       }),
-    [entryUnits, expiredSetIds, ends, correcting, concreteUnconfirmed],
+    [entryUnits, expiredSetIds, ends, correcting, concreteUnconfirmed, rereadAsked],
   );
   // A set with no calibration on file gives no force: it is not offered (a correction keeps its own).
   const offered = sets.filter(
@@ -200,6 +232,7 @@ export function RecordForm({
 
   const setId = useWatch({ control, name: "equipmentSetId" });
   const method = useWatch({ control, name: "readingMethod" });
+  const rereadStrokes = useWatch({ control, name: "rereadStrokes" });
   const set = sets.find((s) => s?.id === setId) ?? null;
   const { calibration, expired } = calibrationFor(ctx.calibrations, setId, today);
   const targetMPa = set ? targetFor({ ...ctx, set }, calibration) : null;
@@ -276,6 +309,20 @@ export function RecordForm({
         ...records.filter((r) => r.id !== correcting?.id),
         draft,
       ]);
+      // The division alone could flip the verdict and this end was not read again: ask before it is final.
+      if (local?.reread && !payload.firstReadingMm && !payload.rereadDeclinedReason) {
+        if (values.readingMethod === "strokes")
+          setValue(
+            "rereadStrokes",
+            values.strokes.filter((s) => s.value !== "").map(() => ({ value: "" })),
+          );
+        setRereadAsked(true);
+        setFractionTarget(values.readingMethod === "marks" ? "rereadMarksAfter" : "rereadStrokes.0.value");
+        setSaveError(
+          `Not saved yet: the reading division alone could change the verdict. Read the elongation again to ${finerDivision(units(ctx.project))} below, or say why it cannot be read again.`,
+        );
+        return;
+      }
       await saveRecord(db, {
         recordId,
         payload,
@@ -286,6 +333,7 @@ export function RecordForm({
       photos.forEach((p) => URL.revokeObjectURL(p.url));
       setPhotos([]);
       setOffTarget(null);
+      setRereadAsked(false);
       reset(defaults);
       setFormDirty(false);
       onSaved(recordId);
@@ -309,7 +357,11 @@ export function RecordForm({
           ? "Seating"
           : box === "drawIn"
             ? "Draw-in"
-            : `Stroke ${Number(box.split(".")[1]) + 1}`;
+            : box === "rereadMarksAfter"
+              ? "Mark after, read again"
+              : box.startsWith("rereadStrokes")
+                ? `Stroke ${Number(box.split(".")[1]) + 1}, read again`
+                : `Stroke ${Number(box.split(".")[1]) + 1}`;
   const pickFraction = (fraction: string) => {
     const now = String(getValues(typing) ?? "");
     setValue(typing, `${now.replace(/\s*-?\s*\d+\/\d+\s*$/, "").trim() || "0"} ${fraction}`, {
@@ -596,7 +648,53 @@ export function RecordForm({
         </div>
       )}
 
-      {inches && <FractionKeys target={lengthLabel(typing)} onPick={pickFraction} />}
+      {rereadAsked && (
+        <div className="grid gap-2 rounded-md border-2 border-signal-stop p-3" data-testid="reread-step">
+          <p className="font-bold">
+            Read again to {finerDivision(units(ctx.project))}: the reading division alone could change the verdict. Both
+            readings are kept; the finer one is judged.
+          </p>
+          <div className="grid grid-cols-3 gap-3">
+            {method === "marks" ? (
+              <NumberBox
+                id="rereadMarksAfter"
+                label="Mark after, read again"
+                unit={entryUnits.length}
+                reg={register("rereadMarksAfter")}
+                error={err.rereadMarksAfter?.message}
+                onFocus={() => setFractionTarget("rereadMarksAfter")}
+              />
+            ) : (
+              rereadStrokes.map((_, i) => (
+                <NumberBox
+                  key={i}
+                  id={`reread-stroke-${i}`}
+                  label={`Stroke ${i + 1}, read again`}
+                  unit={entryUnits.length}
+                  reg={register(`rereadStrokes.${i}.value`)}
+                  error={err.rereadStrokes?.[i]?.value?.message}
+                  onFocus={() => setFractionTarget(`rereadStrokes.${i}.value`)}
+                />
+              ))
+            )}
+            <div className="col-span-2">
+              <label htmlFor="rereadDeclinedReason" className="field-label">
+                Or why it cannot be read again
+              </label>
+              <input
+                id="rereadDeclinedReason"
+                className="field-input"
+                aria-invalid={Boolean(err.rereadDeclinedReason)}
+                placeholder="e.g. tails already cut"
+                {...register("rereadDeclinedReason")}
+              />
+              <FieldError message={err.rereadDeclinedReason?.message} />
+            </div>
+          </div>
+        </div>
+      )}
+
+      {inches && <FractionKeys target={lengthLabel(typing)} onPick={pickFraction} fine={typing.startsWith("reread")} />}
 
       <div id="record-more" className="grid gap-3" hidden={!showMore}>
         <div className="grid grid-cols-[minmax(0,1fr)_minmax(0,2fr)] gap-3">

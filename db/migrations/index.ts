@@ -24,6 +24,7 @@ import * as setDrawIn from "./2026-12-10T170100-set-draw-in";
 import * as recordConcreteGoAhead from "./2026-12-10T171300-record-concrete-go-ahead";
 import * as oneOpenConcreteFlag from "./2026-12-11T090000-one-open-concrete-flag";
 import * as memberWireLedger from "./2026-12-11T100000-member-wire-ledger";
+import * as recordReread from "./2026-12-12T110000-record-reread";
 
 // A static index: vitest and bundlers cannot import .ts migrations from a folder scan.
 // Keys sort in time order; append new migrations at the end.
@@ -53,4 +54,5 @@ export const migrations: Record<string, Migration> = {
   "2026-12-10T171300-record-concrete-go-ahead": recordConcreteGoAhead,
   "2026-12-11T090000-one-open-concrete-flag": oneOpenConcreteFlag,
   "2026-12-11T100000-member-wire-ledger": memberWireLedger,
+  "2026-12-12T110000-record-reread": recordReread,
 };

@@ -148,6 +148,8 @@ export function judgeInputFor(ctx: TendonContext & { sets?: FieldEquipmentSet[] 
     seatingMm: r.seatingMm,
     stressingOrder: r.stressingOrder ?? null,
     wireBreaks: r.wireBreaks,
+    firstReadingMm: r.firstReadingMm ?? null,
+    rereadDeclinedReason: r.rereadDeclinedReason ?? null,
   }));
   return {
     project: { ...ctx.project, readingResolution: ctx.project.readingResolution as "1/8in" | "1/16in" | "1mm" },
@@ -186,7 +188,7 @@ export function provisionalVerdict(
       role: e.role,
     })),
     specifiedForceN: j.specifiedForceN,
-    reread: j.divisionCouldFlip,
+    reread: j.rereadWanted,
     governsLine: governsLine(
       {
         unitSystem: ctx.project.unitSystem,

@@ -79,6 +79,12 @@ function readingsText(p: PourReport["project"], r: PourRecord): string {
     parts.push(`marks ${r.entered.marks.before} before, ${r.entered.marks.after} after`);
   if (r.method === "strokes" && r.entered.strokes?.length)
     parts.push(r.entered.strokes.map((s, i) => `stroke ${i + 1}: ${s}`).join(", "));
+  // Read again finer: the first reading above, the re-read judged.
+  if (r.firstReadingMm && r.entered.reread?.marksAfter)
+    parts.push(`read again: ${r.entered.reread.marksAfter} after (judged)`);
+  if (r.firstReadingMm && r.entered.reread?.strokes?.length)
+    parts.push(`read again: ${r.entered.reread.strokes.map((s, i) => `stroke ${i + 1}: ${s}`).join(", ")} (judged)`);
+  if (r.rereadDeclinedReason) parts.push(`not read again finer: ${r.rereadDeclinedReason}`);
   if (r.method === "strokes" && r.drawIn && r.drawIn.deductedMm > 0)
     parts.push(
       `less ${showComputedLength(p, r.drawIn.deductedMm)} draw-in (${showComputedLength(p, r.drawIn.usedMm)} per re-grip, ${r.drawIn.source === "record" ? "as typed" : "the equipment set's"})`,

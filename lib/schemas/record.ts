@@ -39,6 +39,18 @@ export const enteredSchema = z.object({
   seating: typed("seating").nullable(),
   /** Draw-in lost at each re-grip between strokes; absent on records made before it was asked. */
   drawIn: typed("draw-in").nullable().optional(),
+  /**
+   * The second, finer reading the tablet asks for when the reading division alone could change the
+   * verdict: marks, the mark after lock-off read again (the mark before was set, not read); ram
+   * strokes, each stroke read again. The first reading stays in `marks` / `strokes`.
+   */
+  reread: z
+    .object({
+      marksAfter: typed("mark after, read again").nullable(),
+      strokes: z.array(typed("stroke, read again")).max(MAX_STROKES, `At most ${MAX_STROKES} strokes.`).nullable(),
+    })
+    .nullable()
+    .optional(),
 });
 export type Entered = z.infer<typeof enteredSchema>;
 
@@ -48,6 +60,8 @@ export interface DerivedValues {
   measuredMm: number;
   seatingMm: number | null;
   drawInMm: number | null;
+  /** The first, coarser reading when the elongation was read again (measuredMm is then the re-read). */
+  firstReadingMm: number | null;
 }
 
 /** A typed value that could not be read, named by its form field. */
@@ -122,6 +136,59 @@ export function deriveFromEntered(
     });
     if (ok) measured = sum;
   }
+  // Read again, finer: the re-read is the elongation judged, the first reading is kept beside it.
+  let firstReadingMm: number | null = null;
+  const again = entered.reread ?? null;
+  if (again && measured !== null) {
+    let fine: number | null = null;
+    if (method === "marks") {
+      if (!again.marksAfter) problems.push({ field: "rereadMarksAfter", message: "Type the mark after, read again." });
+      else {
+        const before = parseLength(entered.marks!.before, lengthOpts("marksBefore"));
+        const after = read(problems, "rereadMarksAfter", () =>
+          parseLength(again.marksAfter!, lengthOpts("rereadMarksAfter")),
+        );
+        if (after !== null) {
+          fine = after - before;
+          if (fine <= 0)
+            problems.push({
+              field: "rereadMarksAfter",
+              message: "The mark after, read again, must be farther out than the mark before.",
+            });
+        }
+      }
+    } else {
+      const first = (entered.strokes ?? []).filter((s) => s.trim() !== "");
+      const strokesAgain = again.strokes ?? [];
+      let sum = 0;
+      let ok = true;
+      first.forEach((_, i) => {
+        const typedAgain = strokesAgain[i]?.trim() ?? "";
+        if (!typedAgain) {
+          problems.push({ field: `rereadStrokes.${i}`, message: `Type stroke ${i + 1}, read again.` });
+          ok = false;
+          return;
+        }
+        const v = read(problems, `rereadStrokes.${i}`, () => parseLength(typedAgain, lengthOpts(`rereadStrokes.${i}`)));
+        if (v === null) ok = false;
+        else if (v <= 0) {
+          problems.push({ field: `rereadStrokes.${i}`, message: "A stroke must be longer than zero." });
+          ok = false;
+        } else sum += v;
+      });
+      if (strokesAgain.length > first.length)
+        problems.push({
+          field: `rereadStrokes.${first.length}`,
+          message: "More strokes read again than first read: clear the extra one.",
+        });
+      else if (ok) fine = sum;
+    }
+    if (fine !== null && fine > 0) {
+      firstReadingMm = measured;
+      measured = fine;
+    }
+  }
+
   const seating = entered.seating
     ? read(problems, "seating", () => parseLength(entered.seating!, lengthOpts("seating")))
     : null;
@@ -141,6 +208,7 @@ export function deriveFromEntered(
       measuredMm: measured,
       seatingMm: seating,
       drawInMm: drawIn,
+      firstReadingMm,
     },
     problems,
   };
@@ -157,6 +225,8 @@ export interface RecordFormContext {
   ends: readonly ("A" | "B")[];
   /** A correction of a record already saved: a reason is required. */
   correction: boolean;
+  /** The tablet asked for a finer second reading: the re-read, or a reason it cannot be taken, is required. */
+  rereadAsked?: boolean;
   /** The pour's concrete strength is not confirmed (the concrete gate): a reason to go ahead is required. */
   concreteUnconfirmed?: boolean;
 }
@@ -173,6 +243,10 @@ export const recordFormShape = z.object({
   strokes: z.array(z.object({ value: text().trim().max(40) })).max(MAX_STROKES),
   seating: text().trim().max(40),
   drawIn: text().trim().max(40),
+  /** The finer second reading (see `Entered.reread`) and the crew's reason when it cannot be taken. */
+  rereadMarksAfter: text().trim().max(40),
+  rereadStrokes: z.array(z.object({ value: text().trim().max(40) })).max(MAX_STROKES),
+  rereadDeclinedReason: text().trim().max(500, "Keep the reason under 500 characters."),
   /** Two-end tendons: one end after the other, or both at once. */
   stressingOrder: z.enum(STRESSING_ORDERS, { error: "Say how the two ends were stressed." }),
   wireBreaks: text()
@@ -196,6 +270,9 @@ export const EMPTY_RECORD_FORM: RecordFormValues = {
   strokes: [{ value: "" }],
   seating: "",
   drawIn: "",
+  rereadMarksAfter: "",
+  rereadStrokes: [],
+  rereadDeclinedReason: "",
   stressingOrder: "sequential",
   wireBreaks: "0",
   remarks: "",
@@ -212,13 +289,22 @@ export function enteredFromForm(values: RecordFormValues, units: EntryUnits): En
     strokes: values.readingMethod === "strokes" ? values.strokes.map((s) => s.value).filter((s) => s !== "") : null,
     seating: values.seating || null,
     drawIn: values.readingMethod === "strokes" ? values.drawIn || null : null,
+    reread: rereadFromForm(values),
   };
+}
+
+/** The finer second reading as typed, or null when none was typed. */
+function rereadFromForm(values: RecordFormValues): Entered["reread"] {
+  if (values.readingMethod === "marks")
+    return values.rereadMarksAfter ? { marksAfter: values.rereadMarksAfter, strokes: null } : null;
+  const strokes = values.rereadStrokes.map((s) => s.value);
+  return strokes.some((s) => s !== "") ? { marksAfter: null, strokes } : null;
 }
 
 /** "strokes.2" names the third stroke box, whose value sits at strokes[2].value in the form. */
 function formPath(field: string): (string | number)[] {
-  const stroke = /^strokes\.(\d+)$/.exec(field);
-  return stroke ? ["strokes", Number(stroke[1]), "value"] : [field];
+  const stroke = /^(strokes|rereadStrokes)\.(\d+)$/.exec(field);
+  return stroke ? [stroke[1]!, Number(stroke[2]), "value"] : [field];
 }
 
 /** The form's schema for one tendon and project: every message names the box it belongs to. */
@@ -249,6 +335,21 @@ export function recordFormSchema(context: RecordFormContext) {
     }
     if (context.correction && values.revisionReason.length < 3) {
       ctx.addIssue({ code: "custom", path: ["revisionReason"], message: "Say why this record is corrected." });
+    }
+    const rereadTyped = rereadFromForm(values) !== null;
+    if (rereadTyped && values.rereadDeclinedReason) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["rereadDeclinedReason"],
+        message: "A finer reading was typed: clear this reason, or clear the finer reading.",
+      });
+    }
+    if (context.rereadAsked && !rereadTyped && values.rereadDeclinedReason.length < 3) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["rereadDeclinedReason"],
+        message: "Read the elongation again to the finer division, or say why it cannot be read again.",
+      });
     }
     if (values.finalPressure) {
       const { problems } = deriveFromEntered(enteredFromForm(values, context.units), values.readingMethod);
@@ -314,6 +415,21 @@ export const recordPayloadSchema = z
       .enum(STRESSING_ORDERS, { error: "The stressing order must be sequential or simultaneous." })
       .nullable()
       .optional(),
+    /** The first reading when the elongation was read again finer (measuredMm is the re-read). */
+    firstReadingMm: z
+      .number()
+      .finite()
+      .positive("The first reading must be above zero.")
+      .max(5000, "The first reading is over 5 m.")
+      .nullable()
+      .optional(),
+    /** Why the finer second reading the tablet asked for could not be taken. */
+    rereadDeclinedReason: text()
+      .trim()
+      .min(3, "Say in a few words why the elongation could not be read again.")
+      .max(500, "Keep the reason the elongation was not read again under 500 characters.")
+      .nullable()
+      .optional(),
     wireBreaks: z.number().int("Wire breaks are a whole number.").min(0).max(99),
     remarks: optionalText(2000, "remarks"),
     deviceTime: z.iso.datetime({ offset: true, error: "The device time must be an ISO date and time." }),
@@ -366,6 +482,18 @@ export const recordPayloadSchema = z
       ctx.addIssue({ code: "custom", path: ["seatingMm"], message: "The seating does not match the value as typed." });
     if (!agrees(v.drawInMm, p.drawInMm ?? null))
       ctx.addIssue({ code: "custom", path: ["drawInMm"], message: "The draw-in does not match the value as typed." });
+    if (!agrees(v.firstReadingMm, p.firstReadingMm ?? null))
+      ctx.addIssue({
+        code: "custom",
+        path: ["firstReadingMm"],
+        message: "The first reading does not match the readings as typed.",
+      });
+    if (v.firstReadingMm !== null && p.rereadDeclinedReason)
+      ctx.addIssue({
+        code: "custom",
+        path: ["rereadDeclinedReason"],
+        message: "The elongation was read again: a reason for not reading it again does not belong here.",
+      });
   });
 export type RecordPayload = z.infer<typeof recordPayloadSchema>;
 
@@ -414,6 +542,8 @@ export function payloadFromForm(
     seatingMm: v.seatingMm,
     drawInMm: v.drawInMm,
     stressingOrder: context.twoEnds ? values.stressingOrder : null,
+    firstReadingMm: v.firstReadingMm,
+    rereadDeclinedReason: v.firstReadingMm === null && values.rereadDeclinedReason ? values.rereadDeclinedReason : null,
     wireBreaks: Number(values.wireBreaks || "0"),
     remarks: values.remarks || null,
     deviceTime: context.now.toISOString(),

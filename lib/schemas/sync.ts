@@ -232,6 +232,9 @@ export interface FieldRecord {
   seatingMm: number | null;
   drawInMm?: number | null;
   stressingOrder?: "sequential" | "simultaneous" | null;
+  /** The first reading when the elongation was read again finer (absent in pulls before it existed). */
+  firstReadingMm?: number | null;
+  rereadDeclinedReason?: string | null;
   wireBreaks: number;
   remarks: string | null;
   deviceTime: string;

@@ -71,6 +71,8 @@ const EVALUATED_RECORD_COLUMNS = [
   "draw_in_mm",
   "stressing_order",
   "wire_breaks",
+  "first_reading_mm",
+  "reread_declined_reason",
 ] as const;
 
 export interface EvaluatedRecord {
@@ -96,6 +98,9 @@ export interface EvaluatedRecord {
   draw_in_mm: number | null;
   stressing_order: StressingOrder | null;
   wire_breaks: number;
+  /** The first reading when the elongation was read again finer; absent before it was asked. */
+  first_reading_mm?: number | null;
+  reread_declined_reason?: string | null;
 }
 
 /** A record as it comes out of a JSON aggregate: its instants as text. */
@@ -392,6 +397,8 @@ export function judgeInputFromState(state: TendonState): JudgeInput {
     stressingOrder: r.stressing_order,
     wireBreaks: r.wire_breaks,
     restressOfDispositionId: r.restress_of_disposition_id,
+    firstReadingMm: r.first_reading_mm ?? null,
+    rereadDeclinedReason: r.reread_declined_reason ?? null,
   }));
   for (const r of records)
     if (!sets.has(r.equipmentSetId))
@@ -479,6 +486,8 @@ export function planEvaluation(
     role: e.role,
     day: e.day,
     measuredMm: e.record.measuredMm,
+    firstReadingMm: e.record.firstReadingMm ?? null,
+    rereadDeclinedReason: e.record.rereadDeclinedReason ?? null,
     strokeCount: e.record.strokeCount,
     drawInMm: e.record.drawInMm,
     drawInUsedMm: e.drawInUsedMm,
@@ -551,6 +560,7 @@ export function planEvaluation(
       incomplete: judgement.incomplete,
       missingEnds: judgement.missingEnds,
       divisionCouldFlip: judgement.divisionCouldFlip,
+      rereadWanted: judgement.rereadWanted,
       findings,
     }),
     verdict,

@@ -36,6 +36,8 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
         "records.measured_mm",
         "records.seating_mm",
         "records.wire_breaks",
+        "records.first_reading_mm",
+        "records.reread_declined_reason",
         "records.remarks",
         "records.concrete_go_ahead",
         "records.device_time",

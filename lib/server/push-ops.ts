@@ -315,6 +315,8 @@ function asEvaluated(op: SyncOp, p: RecordPayload, receivedAt: Date): EvaluatedR
     draw_in_mm: p.drawInMm ?? null,
     stressing_order: p.stressingOrder ?? null,
     wire_breaks: p.wireBreaks,
+    first_reading_mm: p.firstReadingMm ?? null,
+    reread_declined_reason: p.rereadDeclinedReason ?? null,
   };
 }
 
@@ -506,6 +508,8 @@ function recordValues(recordId: string, deviceId: string, p: RecordPayload, rece
     draw_in_mm: p.drawInMm ?? null,
     stressing_order: p.stressingOrder ?? null,
     wire_breaks: p.wireBreaks,
+    first_reading_mm: p.firstReadingMm ?? null,
+    reread_declined_reason: p.rereadDeclinedReason ?? null,
     remarks: p.remarks,
     device_time: p.deviceTime,
     device_time_zone: p.deviceTimeZone,

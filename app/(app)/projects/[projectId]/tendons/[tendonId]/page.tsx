@@ -11,6 +11,7 @@ import { KIND_LABELS } from "@/lib/schemas/tendon";
 import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
 import { getTendonDetail, SHOP_DRAWING_MARK_PCT } from "@/lib/server/get-tendon-detail";
 import { listTendonReadings } from "@/lib/server/list-tendon-readings";
+import { rereadLine } from "@/lib/stressing/display";
 import { formatForce, formatLength, formatPressure, N_PER_KIP } from "@/lib/units";
 import { isUuid, pageAccess } from "../../page-access";
 
@@ -23,6 +24,15 @@ const Figure = ({ label, value, note }: { label: string; value: string; note?: s
     {note && <p className="mt-1 text-label text-ink-soft">{note}</p>}
   </div>
 );
+
+/** The finer second reading of a record, or why it was not taken, under its elongation. */
+function RereadNote({ line }: { line: string | null }) {
+  return line ? (
+    <span className="block text-base font-normal" data-testid="reread-line">
+      {line}
+    </span>
+  ) : null;
+}
 
 export default async function TendonPage({ params }: { params: Promise<{ projectId: string; tendonId: string }> }) {
   const { projectId, tendonId } = await params;
@@ -220,6 +230,13 @@ export default async function TendonPage({ params }: { params: Promise<{ project
                     <td className="p-2 text-right font-semibold">
                       {len(r.measured_mm)}
                       {r.wire_breaks > 0 ? ` · ${r.wire_breaks} wire break${r.wire_breaks > 1 ? "s" : ""}` : ""}
+                      <RereadNote
+                        line={rereadLine(project, {
+                          measuredMm: r.measured_mm,
+                          firstReadingMm: r.first_reading_mm,
+                          rereadDeclinedReason: r.reread_declined_reason,
+                        })}
+                      />
                     </td>
                     <td className="p-2">
                       {r.author}
