@@ -272,6 +272,8 @@ export interface RecordsTable {
   first_reading_mm: Generated<number | null>;
   /** Why the finer second reading the tablet asked for could not be taken. */
   reread_declined_reason: Generated<string | null>;
+  /** One entry per broken wire: the strand's number (null when not known) and where it broke. */
+  wire_break_details: ColumnType<{ strand: number | null; where: string }[] | null, string | null, string | null>;
   wire_breaks: Generated<number>;
   remarks: string | null;
   device_time: Timestamp;

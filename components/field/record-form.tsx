@@ -14,6 +14,8 @@ import {
   recordPayloadSchema,
   type Entered,
   type RecordFormValues,
+  WIRE_BREAK_PLACE_WORDS,
+  WIRE_BREAK_PLACES,
 } from "@/lib/schemas/record";
 import { stressedEnds } from "@/lib/stressing/basis";
 import { finerDivision, showPressure } from "@/lib/stressing/display";
@@ -145,6 +147,11 @@ function formFromEntered(base: LocalRecord): RecordFormValues {
     rereadDeclinedReason: base.rereadDeclinedReason ?? "",
     stressingOrder: base.stressingOrder ?? "sequential",
     wireBreaks: String(base.wireBreaks),
+    wireBreakDetails: (base.wireBreakDetails ?? []).map((b) => ({
+      strand: b.strand === null ? "" : String(b.strand),
+      strandNotKnown: b.strand === null,
+      where: b.where,
+    })),
     remarks: base.remarks ?? "",
   };
 }
@@ -193,8 +200,9 @@ export function RecordForm({
         correction: Boolean(correcting),
         concreteUnconfirmed,
         rereadAsked,
+        strandCount: ctx.tendon.strandCount,
       }),
-    [entryUnits, expiredSetIds, ends, correcting, concreteUnconfirmed, rereadAsked],
+    [entryUnits, expiredSetIds, ends, correcting, concreteUnconfirmed, rereadAsked, ctx.tendon.strandCount],
   );
   // A set with no calibration on file gives no force: it is not offered (a correction keeps its own).
   const offered = sets.filter(
@@ -221,6 +229,18 @@ export function RecordForm({
   const form = useForm<RecordFormValues>({ resolver: zodResolver(schema), defaultValues: defaults, mode: "onSubmit" });
   const { register, handleSubmit, setValue, getValues, formState, reset, control } = form;
   const strokes = useFieldArray({ control, name: "strokes" });
+  // One row per broken wire, following the count typed.
+  const breakRows = useFieldArray({ control, name: "wireBreakDetails" });
+  const breakCount = useWatch({ control, name: "wireBreaks" });
+  useEffect(() => {
+    const wanted = /^\d{1,2}$/.test(breakCount ?? "") ? Number(breakCount) : 0;
+    const have = breakRows.fields.length;
+    if (wanted > have)
+      breakRows.append(
+        Array.from({ length: wanted - have }, () => ({ strand: "", strandNotKnown: false, where: "" as const })),
+      );
+    else if (wanted < have) breakRows.remove(Array.from({ length: have - wanted }, (_, i) => wanted + i));
+  }, [breakCount, breakRows]);
   const [photos, setPhotos] = useState<PickedPhoto[]>([]);
   const [saveError, setSaveError] = useState<string | null>(null);
   const [saving, setSaving] = useState(false);
@@ -371,7 +391,8 @@ export function RecordForm({
   // Rarely used on an ordinary end: folded away so the readings and Save fit on one screen, opened
   // by itself when it holds something or an error.
   const [moreOpen, setMoreOpen] = useState(false);
-  const moreHasSomething = photos.length > 0 || Boolean(err.wireBreaks || err.remarks);
+  const moreHasSomething =
+    photos.length > 0 || Boolean(err.wireBreaks || err.wireBreakDetails || err.remarks) || breakRows.fields.length > 0;
   const showMore = moreOpen || moreHasSomething;
 
   const endChoice = (
@@ -714,6 +735,40 @@ export function RecordForm({
             <FieldError message={err.remarks?.message} />
           </div>
         </div>
+        {breakRows.fields.map((f, i) => (
+          <fieldset
+            key={f.id}
+            className="grid gap-2 rounded-md border-2 border-concrete-300 p-2"
+            data-testid="wire-break"
+          >
+            <legend className="field-label px-1">Broken wire {i + 1}</legend>
+            <div className="flex flex-wrap items-end gap-3">
+              <div className="w-40">
+                <NumberBox
+                  id={`break-strand-${i}`}
+                  label={`Strand (1–${ctx.tendon.strandCount})`}
+                  unit="no."
+                  numeric
+                  reg={register(`wireBreakDetails.${i}.strand`)}
+                  error={err.wireBreakDetails?.[i]?.strand?.message}
+                />
+              </div>
+              <label className={`${CHIP} px-3`}>
+                <input type="checkbox" className="sr-only" {...register(`wireBreakDetails.${i}.strandNotKnown`)} />
+                Strand not known
+              </label>
+            </div>
+            <div className="flex flex-wrap gap-2" role="radiogroup" aria-label={`Where wire ${i + 1} broke`}>
+              {WIRE_BREAK_PLACES.map((place) => (
+                <label key={place} className={`${CHIP} px-3`}>
+                  <input type="radio" value={place} className="sr-only" {...register(`wireBreakDetails.${i}.where`)} />
+                  {WIRE_BREAK_PLACE_WORDS[place].replace(/^./, (c) => c.toUpperCase())}
+                </label>
+              ))}
+            </div>
+            <FieldError message={err.wireBreakDetails?.[i]?.where?.message} />
+          </fieldset>
+        ))}
         <PhotoPicker photos={photos} onChange={setPhotos} />
         <p className="text-base text-ink-soft" data-testid="record-by">
           Operator {session.name}; the device time and zone ({Intl.DateTimeFormat().resolvedOptions().timeZone}) are

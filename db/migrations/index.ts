@@ -25,6 +25,7 @@ import * as recordConcreteGoAhead from "./2026-12-10T171300-record-concrete-go-a
 import * as oneOpenConcreteFlag from "./2026-12-11T090000-one-open-concrete-flag";
 import * as memberWireLedger from "./2026-12-11T100000-member-wire-ledger";
 import * as recordReread from "./2026-12-12T110000-record-reread";
+import * as recordWireBreakDetails from "./2026-12-12T110100-record-wire-break-details";
 
 // A static index: vitest and bundlers cannot import .ts migrations from a folder scan.
 // Keys sort in time order; append new migrations at the end.
@@ -55,4 +56,5 @@ export const migrations: Record<string, Migration> = {
   "2026-12-11T090000-one-open-concrete-flag": oneOpenConcreteFlag,
   "2026-12-11T100000-member-wire-ledger": memberWireLedger,
   "2026-12-12T110000-record-reread": recordReread,
+  "2026-12-12T110100-record-wire-break-details": recordWireBreakDetails,
 };

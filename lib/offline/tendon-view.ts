@@ -150,6 +150,7 @@ export function judgeInputFor(ctx: TendonContext & { sets?: FieldEquipmentSet[] 
     wireBreaks: r.wireBreaks,
     firstReadingMm: r.firstReadingMm ?? null,
     rereadDeclinedReason: r.rereadDeclinedReason ?? null,
+    wireBreakDetails: r.wireBreakDetails ?? null,
   }));
   return {
     project: { ...ctx.project, readingResolution: ctx.project.readingResolution as "1/8in" | "1/16in" | "1mm" },

@@ -15,6 +15,7 @@ import {
 } from "@/lib/format/quantities";
 import { MPA_PER_PSI } from "@/lib/units";
 import { DECISION_LABELS } from "@/lib/schemas/review";
+import { wireBreakWords } from "@/lib/schemas/record";
 import type { PourReport } from "@/lib/server/get-pour-report";
 import type { PourRecord } from "@/lib/server/list-pour-records";
 import type { TendonResult } from "@/lib/server/list-tendon-results";
@@ -154,7 +155,9 @@ export function recordRows(report: PourReport): string[][] {
         Deviation: e?.deviationPct != null ? showPct(e.deviationPct) : "",
         Verdict: verdict,
         Basis: e ? (e.basis === "net" ? "net of anchor set" : "gross at jacking") : "",
-        "Wire breaks": String(r.wireBreaks),
+        "Wire breaks": r.wireBreakDetails?.length
+          ? `${r.wireBreaks}: ${r.wireBreakDetails.map(wireBreakWords).join("; ")}`
+          : String(r.wireBreaks),
         Remarks: [r.remarks, ...r.corrections.map((c) => `corrected to revision ${c.revision}: ${c.reason}`)]
           .filter(Boolean)
           .join("; "),

@@ -233,3 +233,72 @@ describe("the finer second reading", () => {
     expect(recordPayloadSchema.safeParse(declined).success).toBe(true);
   });
 });
+
+describe("wire breaks: which strand and where", () => {
+  const base = {
+    ...EMPTY_RECORD_FORM,
+    equipmentSetId: "0190a0b0-0000-7000-8000-0000000000dd",
+    finalPressure: "4200",
+    marksBefore: "0",
+    marksAfter: "4 1/2",
+    wireBreaks: "2",
+    wireBreakDetails: [
+      { strand: "3", strandNotKnown: false, where: "jack_end" as const },
+      { strand: "", strandNotKnown: true, where: "along_length" as const },
+    ],
+  };
+  const formContext = { units: US, expiredSetIds: [], ends: ["A"] as const, correction: false, strandCount: 4 };
+  const ctx = {
+    units: US,
+    projectId: "0190a0b0-0000-7000-8000-0000000000aa",
+    pourId: "0190a0b0-0000-7000-8000-0000000000bb",
+    tendonId: "0190a0b0-0000-7000-8000-0000000000cc",
+    chainId: "0190a0b0-0000-7000-8000-0000000000ee",
+    revision: 1,
+    baseRecordId: null,
+    calibrationId: null,
+    expired: false,
+    authorUserId: "0190a0b0-0000-7000-8000-000000000001",
+    now: new Date("2026-12-02T15:30:00Z"),
+    timeZone: "UTC",
+  };
+
+  it("travels one entry per broken wire, a strand not known as null", () => {
+    expect(recordFormSchema(formContext).safeParse(base).success).toBe(true);
+    const payload = payloadFromForm(base, ctx);
+    expect(payload.wireBreakDetails).toEqual([
+      { strand: 3, where: "jack_end" },
+      { strand: null, where: "along_length" },
+    ]);
+    expect(recordPayloadSchema.safeParse(payload).success).toBe(true);
+  });
+
+  it("names the box: a strand the tendon does not have, a strand left blank, a place not chosen", () => {
+    const bad = recordFormSchema(formContext).safeParse({
+      ...base,
+      wireBreakDetails: [
+        { strand: "5", strandNotKnown: false, where: "far_end" },
+        { strand: "", strandNotKnown: false, where: "" },
+      ],
+    });
+    expect(bad.success).toBe(false);
+    expect(bad.error!.issues.map((i) => [i.path.join("."), i.message])).toEqual([
+      ["wireBreakDetails.0.strand", "Break 1: this tendon has 4 strands."],
+      ["wireBreakDetails.1.strand", 'Break 2: type the strand\'s number, or press "Not known".'],
+      ["wireBreakDetails.1.where", "Break 2: say where the wire broke."],
+    ]);
+  });
+
+  it("the server refuses details that do not match the count", () => {
+    const payload = payloadFromForm(base, ctx);
+    const short = recordPayloadSchema.safeParse({ ...payload, wireBreakDetails: payload.wireBreakDetails!.slice(1) });
+    expect(short.success).toBe(false);
+    expect(short.error!.issues.map((i) => i.path.join("."))).toEqual(["wireBreakDetails"]);
+    const place = recordPayloadSchema.safeParse({
+      ...payload,
+      wireBreakDetails: [{ strand: 1, where: "somewhere" }, payload.wireBreakDetails![1]],
+    });
+    expect(place.success).toBe(false);
+    expect(place.error!.issues.map((i) => i.path.join("."))).toEqual(["wireBreakDetails.0.where"]);
+  });
+});

@@ -13,6 +13,34 @@ export const TENDON_ENDS = ["A", "B"] as const;
 export const READING_METHODS = ["marks", "strokes"] as const;
 export const MAX_STROKES = 8;
 export const STRESSING_ORDERS = ["sequential", "simultaneous"] as const;
+/** Where along the tendon a wire broke, as the crew saw it. */
+export const WIRE_BREAK_PLACES = ["jack_end", "far_end", "along_length", "not_known"] as const;
+export type WireBreakPlace = (typeof WIRE_BREAK_PLACES)[number];
+export const WIRE_BREAK_PLACE_WORDS: Record<WireBreakPlace, string> = {
+  jack_end: "at the jack",
+  far_end: "at the far end",
+  along_length: "along the length",
+  not_known: "place not known",
+};
+
+/** One broken wire: the strand it is on (its number in the tendon, null when not known) and where. */
+export const wireBreakSchema = z
+  .object({
+    strand: z
+      .number({ error: "The strand must be a number, or null when not known." })
+      .int("The strand is a whole number.")
+      .min(1, "Strands are numbered from 1.")
+      .max(99, "The strand number is over 99.")
+      .nullable(),
+    where: z.enum(WIRE_BREAK_PLACES, { error: "Say where the wire broke." }),
+  })
+  .strict();
+export type WireBreak = z.infer<typeof wireBreakSchema>;
+
+/** "strand 3, at the jack" / "strand not known, along the length". */
+export function wireBreakWords(b: WireBreak): string {
+  return `${b.strand === null ? "strand not known" : `strand ${b.strand}`}, ${WIRE_BREAK_PLACE_WORDS[b.where]}`;
+}
 
 /** The units bare numbers are read in, from the project's unit system. */
 export interface EntryUnits {
@@ -227,6 +255,8 @@ export interface RecordFormContext {
   correction: boolean;
   /** The tablet asked for a finer second reading: the re-read, or a reason it cannot be taken, is required. */
   rereadAsked?: boolean;
+  /** Strands in the tendon: a broken wire's strand number is at most this. */
+  strandCount?: number;
   /** The pour's concrete strength is not confirmed (the concrete gate): a reason to go ahead is required. */
   concreteUnconfirmed?: boolean;
 }
@@ -252,6 +282,16 @@ export const recordFormShape = z.object({
   wireBreaks: text()
     .trim()
     .regex(/^\d{0,2}$/, "Type the number of broken wires as a whole number (0 if none)."),
+  /** One row per broken wire: the strand's number as typed (or not known) and where it broke. */
+  wireBreakDetails: z
+    .array(
+      z.object({
+        strand: text().trim().max(4),
+        strandNotKnown: z.boolean(),
+        where: z.enum([...WIRE_BREAK_PLACES, ""]),
+      }),
+    )
+    .max(99),
   remarks: text().trim().max(2000, "Keep the remarks under 2000 characters."),
   revisionReason: text().trim().max(500, "Keep the reason under 500 characters."),
   concreteGoAhead: text().trim().max(500, "Keep the reason under 500 characters."),
@@ -275,6 +315,7 @@ export const EMPTY_RECORD_FORM: RecordFormValues = {
   rereadDeclinedReason: "",
   stressingOrder: "sequential",
   wireBreaks: "0",
+  wireBreakDetails: [],
   remarks: "",
   revisionReason: "",
   concreteGoAhead: "",
@@ -351,6 +392,36 @@ export function recordFormSchema(context: RecordFormContext) {
         message: "Read the elongation again to the finer division, or say why it cannot be read again.",
       });
     }
+    const breaks = Number(values.wireBreaks || "0");
+    values.wireBreakDetails.slice(0, breaks).forEach((b, i) => {
+      if (!b.strandNotKnown) {
+        const n = Number(b.strand);
+        if (!/^\d{1,2}$/.test(b.strand) || n < 1)
+          ctx.addIssue({
+            code: "custom",
+            path: ["wireBreakDetails", i, "strand"],
+            message: `Break ${i + 1}: type the strand's number, or press "Not known".`,
+          });
+        else if (context.strandCount !== undefined && n > context.strandCount)
+          ctx.addIssue({
+            code: "custom",
+            path: ["wireBreakDetails", i, "strand"],
+            message: `Break ${i + 1}: this tendon has ${context.strandCount} strand${context.strandCount > 1 ? "s" : ""}.`,
+          });
+      }
+      if (!b.where)
+        ctx.addIssue({
+          code: "custom",
+          path: ["wireBreakDetails", i, "where"],
+          message: `Break ${i + 1}: say where the wire broke.`,
+        });
+    });
+    if (breaks > 0 && values.wireBreakDetails.length < breaks)
+      ctx.addIssue({
+        code: "custom",
+        path: ["wireBreaks"],
+        message: "Say which strand and where for each broken wire.",
+      });
     if (values.finalPressure) {
       const { problems } = deriveFromEntered(enteredFromForm(values, context.units), values.readingMethod);
       for (const p of problems) ctx.addIssue({ code: "custom", path: formPath(p.field), message: p.message });
@@ -431,6 +502,8 @@ export const recordPayloadSchema = z
       .nullable()
       .optional(),
     wireBreaks: z.number().int("Wire breaks are a whole number.").min(0).max(99),
+    /** Which strand and where, one per broken wire; absent from tablets that predate the question. */
+    wireBreakDetails: z.array(wireBreakSchema).max(99).optional(),
     remarks: optionalText(2000, "remarks"),
     deviceTime: z.iso.datetime({ offset: true, error: "The device time must be an ISO date and time." }),
     deviceTimeZone: text()
@@ -441,6 +514,12 @@ export const recordPayloadSchema = z
   })
   .strict()
   .superRefine((p, ctx) => {
+    if (p.wireBreakDetails && p.wireBreakDetails.length !== p.wireBreaks)
+      ctx.addIssue({
+        code: "custom",
+        path: ["wireBreakDetails"],
+        message: `Name the strand and place of each of the ${p.wireBreaks} broken wires (${p.wireBreakDetails.length} given).`,
+      });
     if (p.revision === 1 && (p.baseRecordId !== null || p.revisionReason !== null)) {
       ctx.addIssue({
         code: "custom",
@@ -545,10 +624,22 @@ export function payloadFromForm(
     firstReadingMm: v.firstReadingMm,
     rereadDeclinedReason: v.firstReadingMm === null && values.rereadDeclinedReason ? values.rereadDeclinedReason : null,
     wireBreaks: Number(values.wireBreaks || "0"),
+    wireBreakDetails: values.wireBreakDetails.slice(0, Number(values.wireBreaks || "0")).map((b) => ({
+      strand: b.strandNotKnown ? null : Number(b.strand),
+      where: b.where as WireBreakPlace,
+    })),
     remarks: values.remarks || null,
     deviceTime: context.now.toISOString(),
     deviceTimeZone: context.timeZone,
     authorUserId: context.authorUserId,
     ...(context.concreteUnconfirmed ? { concreteGoAhead: values.concreteGoAhead } : {}),
   };
+}
+
+const storedBreaks = z.array(wireBreakSchema);
+
+/** The wire breaks' strand and place as a row stores them (jsonb); null when absent or not readable. */
+export function storedWireBreaks(value: unknown): WireBreak[] | null {
+  const parsed = storedBreaks.safeParse(value);
+  return parsed.success ? parsed.data : null;
 }

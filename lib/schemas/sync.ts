@@ -236,6 +236,7 @@ export interface FieldRecord {
   firstReadingMm?: number | null;
   rereadDeclinedReason?: string | null;
   wireBreaks: number;
+  wireBreakDetails?: { strand: number | null; where: "jack_end" | "far_end" | "along_length" | "not_known" }[];
   remarks: string | null;
   deviceTime: string;
   authorUserId: string;

@@ -23,6 +23,7 @@ import { judgeAndFlag } from "@/lib/stressing/rules";
 import { WIRES_PER_STRAND } from "@/lib/stressing/rules/member-wire-loss";
 import { answeredOrder } from "@/lib/stressing/rules/stressed-twice";
 import { governsLine, showLength, showPct } from "@/lib/stressing/display";
+import { storedWireBreaks } from "@/lib/schemas/record";
 import { selectTendonBasis, toLoadedTendon, type LoadedTendon } from "./load-tendon-basis";
 
 /**
@@ -73,6 +74,7 @@ const EVALUATED_RECORD_COLUMNS = [
   "wire_breaks",
   "first_reading_mm",
   "reread_declined_reason",
+  "wire_break_details",
 ] as const;
 
 export interface EvaluatedRecord {
@@ -101,6 +103,7 @@ export interface EvaluatedRecord {
   /** The first reading when the elongation was read again finer; absent before it was asked. */
   first_reading_mm?: number | null;
   reread_declined_reason?: string | null;
+  wire_break_details?: unknown;
 }
 
 /** A record as it comes out of a JSON aggregate: its instants as text. */
@@ -399,6 +402,7 @@ export function judgeInputFromState(state: TendonState): JudgeInput {
     restressOfDispositionId: r.restress_of_disposition_id,
     firstReadingMm: r.first_reading_mm ?? null,
     rereadDeclinedReason: r.reread_declined_reason ?? null,
+    wireBreakDetails: storedWireBreaks(r.wire_break_details),
   }));
   for (const r of records)
     if (!sets.has(r.equipmentSetId))

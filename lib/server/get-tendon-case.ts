@@ -37,6 +37,7 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
         "records.seating_mm",
         "records.wire_breaks",
         "records.first_reading_mm",
+        "records.wire_break_details",
         "records.reread_declined_reason",
         "records.remarks",
         "records.concrete_go_ahead",

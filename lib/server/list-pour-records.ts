@@ -1,4 +1,5 @@
 import { stressingDay } from "@/lib/stressing/judge";
+import { storedWireBreaks, type WireBreak } from "@/lib/schemas/record";
 import "server-only";
 import type { Kysely } from "kysely";
 import { z } from "zod";
@@ -59,6 +60,8 @@ export interface PourRecord {
   /** Ram travel over several strokes: the draw-in per re-grip the evaluation deducted, and whose it was. */
   drawIn: { usedMm: number; source: "record" | "equipment set"; deductedMm: number } | null;
   wireBreaks: number;
+  /** Which strand and where, per broken wire; null on records made before it was asked. */
+  wireBreakDetails: WireBreak[] | null;
   remarks: string | null;
   photos: number[];
   shopElongationMm: number | null;
@@ -153,6 +156,7 @@ export async function listPourRecords(
       "records.measured_mm",
       "records.seating_mm",
       "records.wire_breaks",
+      "records.wire_break_details",
       "records.first_reading_mm",
       "records.reread_declined_reason",
       "records.remarks",
@@ -319,6 +323,7 @@ export async function listPourRecords(
       seatingMm: r.seating_mm,
       drawIn,
       wireBreaks: r.wire_breaks,
+      wireBreakDetails: storedWireBreaks(r.wire_break_details),
       remarks: r.remarks,
       photos: photoNumbers.get(r.id) ?? [],
       shopElongationMm: r.shop_elongation_mm,

@@ -5,6 +5,7 @@ import { jsonArrayFrom } from "kysely/helpers/postgres";
 import type { Database } from "@/db/types";
 import type { SessionUser } from "@/lib/auth/session";
 import type { PullResponse } from "@/lib/schemas/sync";
+import { storedWireBreaks } from "@/lib/schemas/record";
 import { recordingProjectIds } from "./require-recorder";
 
 /**
@@ -241,6 +242,7 @@ export async function pullChanges(
               "records.first_reading_mm",
               "records.reread_declined_reason",
               "records.wire_breaks",
+              "records.wire_break_details",
               "records.remarks",
               "records.device_time",
               "records.author_user_id",
@@ -436,6 +438,7 @@ export async function pullChanges(
           firstReadingMm: r.first_reading_mm,
           rereadDeclinedReason: r.reread_declined_reason,
           wireBreaks: r.wire_breaks,
+          wireBreakDetails: storedWireBreaks(r.wire_break_details) ?? undefined,
           remarks: r.remarks,
           deviceTime: new Date(r.device_time).toISOString(),
           authorUserId: r.author_user_id,

@@ -11,6 +11,7 @@ import {
 } from "@/lib/elongation";
 import { dayInZone } from "@/lib/format/dates";
 import { pickCalibration } from "@/lib/schemas/calibration";
+import type { WireBreak } from "@/lib/schemas/record";
 import { resolutionStepMm } from "@/lib/units";
 import { strandValues, type LotBasis, type ProjectBasis, type StrandValues, type TendonBasis } from "./basis";
 import { readingResolution, type DisplayUnits } from "./display";
@@ -115,6 +116,8 @@ export interface JudgeRecord {
   firstReadingMm?: number | null;
   /** Why the finer second reading the tablet asked for could not be taken. */
   rereadDeclinedReason?: string | null;
+  /** Which strand and where, per broken wire; absent on records made before it was asked. */
+  wireBreakDetails?: WireBreak[] | null;
 }
 
 export interface JudgeInput {

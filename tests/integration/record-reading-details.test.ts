@@ -86,3 +86,49 @@ describe("push: the finer second reading", () => {
     expect(after.n).toBe(before.n);
   });
 });
+
+describe("push: wire breaks, which strand and where", () => {
+  it("stores each break's strand and place, and the wire-break flag names them", async () => {
+    const tendon = oneEnd()[3]!;
+    const op = createOp(tendon.id, {
+      wireBreaks: "1",
+      wireBreakDetails: [{ strand: "1", strandNotKnown: false, where: "far_end" }],
+    });
+    expect((await push([op])).results[0]!.status).toBe("applied");
+    const row = await t.db
+      .selectFrom("records")
+      .select(["wire_breaks", "wire_break_details"])
+      .where("id", "=", op.recordId)
+      .executeTakeFirstOrThrow();
+    expect(row).toEqual({ wire_breaks: 1, wire_break_details: [{ strand: 1, where: "far_end" }] });
+    const flag = await t.db
+      .selectFrom("flags")
+      .select("reason")
+      .where("tendon_id", "=", tendon.id)
+      .where("kind", "=", "wire_break")
+      .executeTakeFirstOrThrow();
+    expect(flag.reason).toContain("strand 1, at the far end");
+  });
+
+  it("refuses a strand the tendon does not have, naming the field, and writes nothing", async () => {
+    const tendon = oneEnd()[4]!;
+    const strands = await t.db
+      .selectFrom("tendons")
+      .select("strand_count")
+      .where("id", "=", tendon.id)
+      .executeTakeFirstOrThrow();
+    const op = createOp(
+      tendon.id,
+      { wireBreaks: "0" },
+      {
+        wireBreaks: 1,
+        wireBreakDetails: [{ strand: strands.strand_count + 1, where: "jack_end" }],
+      },
+    );
+    const [answer] = (await push([op])).results;
+    expect(answer!.status).toBe("rejected");
+    expect(answer!.error?.fields).toHaveProperty("wireBreakDetails.0.strand");
+    const stored = await t.db.selectFrom("records").select("id").where("id", "=", op.recordId).execute();
+    expect(stored).toEqual([]);
+  });
+});
