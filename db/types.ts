@@ -134,6 +134,8 @@ export interface TendonsTable {
   strand_lot_id: string | null;
   /** The member (beam, slab strip, band) the schedule puts the tendon in; null: the pour is its group. */
   member: Generated<string | null>;
+  /** How the schedule says a two-end tendon is stressed; null when it does not say. */
+  stressing_order: Generated<StressingOrder | null>;
   created_at: Timestamp;
   updated_at: Timestamp;
 }

@@ -217,8 +217,9 @@ export function RecordForm({
             ...EMPTY_RECORD_FORM,
             tendonEnd: ends.find((e) => !doneEnds.has(e)) ?? ends[0]!,
             equipmentSetId: offered.length === 1 ? offered[0]!.id : "",
-            // Asked once per tendon: the order the other end's record gave, else one end after the other.
-            stressingOrder: records.find((r) => r.stressingOrder)?.stressingOrder ?? "sequential",
+            // Asked once per tendon: the other end's record, else the schedule, else one end after the other.
+            stressingOrder:
+              records.find((r) => r.stressingOrder)?.stressingOrder ?? ctx.tendon.stressingOrder ?? "sequential",
             // The project's comparison basis is the form's default reading method.
             readingMethod: ctx.project.comparisonBasis === "gross" ? "strokes" : "marks",
           },

@@ -26,6 +26,7 @@ import * as oneOpenConcreteFlag from "./2026-12-11T090000-one-open-concrete-flag
 import * as memberWireLedger from "./2026-12-11T100000-member-wire-ledger";
 import * as recordReread from "./2026-12-12T110000-record-reread";
 import * as recordWireBreakDetails from "./2026-12-12T110100-record-wire-break-details";
+import * as tendonStressingOrder from "./2026-12-12T110200-tendon-stressing-order";
 
 // A static index: vitest and bundlers cannot import .ts migrations from a folder scan.
 // Keys sort in time order; append new migrations at the end.
@@ -57,4 +58,5 @@ export const migrations: Record<string, Migration> = {
   "2026-12-11T100000-member-wire-ledger": memberWireLedger,
   "2026-12-12T110000-record-reread": recordReread,
   "2026-12-12T110100-record-wire-break-details": recordWireBreakDetails,
+  "2026-12-12T110200-tendon-stressing-order": tendonStressingOrder,
 };

@@ -171,6 +171,8 @@ export interface FieldTendon {
   strandLotId: string | null;
   /** The approved shop-drawing elongation of the whole tendon, when the schedule gives one. */
   shopElongationMm?: number | null;
+  /** How the schedule says a two-end tendon is stressed (absent in pulls before it existed). */
+  stressingOrder?: "sequential" | "simultaneous" | null;
 }
 
 export interface FieldStrandLot {

@@ -170,6 +170,7 @@ export async function pullChanges(
               "jack_grip_mm",
               "strand_lot_id",
               "shop_elongation_mm",
+              "stressing_order",
             ])
             .where("project_id", "in", projectIds)
             .where("pour_id", "in", pourIds)
@@ -382,6 +383,7 @@ export async function pullChanges(
           jackGripMm: t.jack_grip_mm,
           strandLotId: t.strand_lot_id,
           shopElongationMm: t.shop_elongation_mm,
+          stressingOrder: t.stressing_order,
         })),
         strandLots: lots.map((l) => ({
           id: l.id,

@@ -1,4 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { importTendonSchedule } from "@/lib/server/import-tendon-schedule";
+import { pullChanges } from "@/lib/server/pull-changes";
 import { pushOps } from "@/lib/server/push-ops";
 import type { SyncOp } from "@/lib/schemas/sync";
 import { formatLength, parseLength } from "@/lib/units";
@@ -130,5 +132,39 @@ describe("push: wire breaks, which strand and where", () => {
     expect(answer!.error?.fields).toHaveProperty("wireBreakDetails.0.strand");
     const stored = await t.db.selectFrom("records").select("id").where("id", "=", op.recordId).execute();
     expect(stored).toEqual([]);
+  });
+});
+
+describe("the schedule's stressing order", () => {
+  it("is imported into the tendon row, which the tablet pulls as the form's default", async () => {
+    const admin = await t.db
+      .selectFrom("users")
+      .select("id")
+      .where("email", "=", "admin@demo.tautline.test")
+      .executeTakeFirstOrThrow();
+    const csv = [
+      "tag,type,strand size [in],strands,ends,segments [ft@deg],stressing order",
+      "SO-1,multistrand,0.6,12,both,40@5.7 40@5.7,simultaneous",
+      "SO-2,multistrand,0.6,12,both,40@5.7 40@5.7,",
+    ].join("\n");
+    expect(await importTendonSchedule(t.db, { projectId: w.projectId, pourId: w.pourId, csv, by: admin.id })).toEqual({
+      imported: 2,
+    });
+    const rows = await t.db
+      .selectFrom("tendons")
+      .select(["tag", "stressing_order"])
+      .where("pour_id", "=", w.pourId)
+      .where("tag", "in", ["SO-1", "SO-2"])
+      .orderBy("tag")
+      .execute();
+    expect(rows).toEqual([
+      { tag: "SO-1", stressing_order: "simultaneous" },
+      { tag: "SO-2", stressing_order: null },
+    ]);
+    const user = {
+      memberships: w.crew.memberships.map((m) => ({ ...m, projectName: "", projectCode: "" })),
+    };
+    const pulled = await pullChanges(t.db, { user, cursor: "0", pourIds: [w.pourId] });
+    expect(pulled.tendons.find((x) => x.tag === "SO-1")?.stressingOrder).toBe("simultaneous");
   });
 });
