@@ -147,6 +147,8 @@ export interface TendonsTable {
   strand_lot_id: string | null;
   /** The member (beam, slab strip, band) the schedule puts the tendon in; null: the pour is its group. */
   member: Generated<string | null>;
+  /** How the schedule says a two-end tendon is stressed; null when it does not say. */
+  stressing_order: Generated<StressingOrder | null>;
   created_at: Timestamp;
   updated_at: Timestamp;
 }
@@ -281,6 +283,12 @@ export interface RecordsTable {
   seating_mm: number | null;
   stressing_order: StressingOrder | null;
   draw_in_mm: number | null;
+  /** The first, coarser reading when the elongation was read again finer (measured_mm is the re-read). */
+  first_reading_mm: Generated<number | null>;
+  /** Why the finer second reading the tablet asked for could not be taken. */
+  reread_declined_reason: Generated<string | null>;
+  /** One entry per broken wire: the strand's number (null when not known) and where it broke. */
+  wire_break_details: ColumnType<{ strand: number | null; where: string }[] | null, string | null, string | null>;
   wire_breaks: Generated<number>;
   remarks: string | null;
   device_time: Timestamp;

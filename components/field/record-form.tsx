@@ -14,9 +14,11 @@ import {
   recordPayloadSchema,
   type Entered,
   type RecordFormValues,
+  WIRE_BREAK_PLACE_WORDS,
+  WIRE_BREAK_PLACES,
 } from "@/lib/schemas/record";
 import { stressedEnds } from "@/lib/stressing/basis";
-import { showPressure } from "@/lib/stressing/display";
+import { finerDivision, showPressure } from "@/lib/stressing/display";
 import { setFormDirty } from "./form-dirty";
 import { SafetyCaution } from "@/components/ui/caution";
 import { useField } from "./field-provider";
@@ -24,6 +26,8 @@ import { PhotoPicker, type PickedPhoto } from "./photo-picker";
 import { units } from "./verdict-panel";
 
 const FRACTIONS = ["1/8", "1/4", "3/8", "1/2", "5/8", "3/4", "7/8"];
+/** The odd sixteenths, added to the keys while a finer second reading is typed. */
+const SIXTEENTHS = ["1/16", "3/16", "5/16", "7/16", "9/16", "11/16", "13/16", "15/16"];
 
 function FieldError({ message }: { message?: string }) {
   return message ? (
@@ -34,13 +38,29 @@ function FieldError({ message }: { message?: string }) {
 }
 
 /** A reading box the fraction keys write into. */
-type LengthBox = "marksBefore" | "marksAfter" | "seating" | "drawIn" | `strokes.${number}.value`;
+type LengthBox =
+  | "marksBefore"
+  | "marksAfter"
+  | "seating"
+  | "drawIn"
+  | "rereadMarksAfter"
+  | `strokes.${number}.value`
+  | `rereadStrokes.${number}.value`;
 
 /**
  * One row of fraction keys for every inch reading: the numeric keypad has no slash, gloves want
  * big keys, and one row (for the box last touched) keeps the form on one screen.
  */
-function FractionKeys({ target, onPick }: { target: string; onPick: (fraction: string) => void }) {
+function FractionKeys({
+  target,
+  onPick,
+  fine,
+}: {
+  target: string;
+  onPick: (fraction: string) => void;
+  /** A finer second reading is typed: the sixteenths join the eighths. */
+  fine: boolean;
+}) {
   return (
     <div
       className="flex flex-wrap items-center gap-1"
@@ -51,13 +71,19 @@ function FractionKeys({ target, onPick }: { target: string; onPick: (fraction: s
       <span className="mr-1 text-base text-ink-soft" aria-hidden="true">
         Fraction for <strong>{target}</strong>:
       </span>
-      {FRACTIONS.map((f) => (
+      {(fine ? [...FRACTIONS, ...SIXTEENTHS].sort((a, b) => inSixteenths(a) - inSixteenths(b)) : FRACTIONS).map((f) => (
         <button key={f} type="button" className="btn-quiet min-w-touch px-2" onClick={() => onPick(f)}>
           {f}
         </button>
       ))}
     </div>
   );
+}
+
+/** A fraction in sixteenths, for ordering the keys. */
+function inSixteenths(fraction: string): number {
+  const [n, d] = fraction.split("/").map(Number);
+  return (n! * 16) / d!;
 }
 
 function NumberBox(props: {
@@ -116,8 +142,16 @@ function formFromEntered(base: LocalRecord): RecordFormValues {
     strokes: e.strokes?.length ? e.strokes.map((value) => ({ value })) : [{ value: "" }],
     seating: e.seating ?? "",
     drawIn: e.drawIn ?? "",
+    rereadMarksAfter: e.reread?.marksAfter ?? "",
+    rereadStrokes: (e.reread?.strokes ?? []).map((value) => ({ value })),
+    rereadDeclinedReason: base.rereadDeclinedReason ?? "",
     stressingOrder: base.stressingOrder ?? "sequential",
     wireBreaks: String(base.wireBreaks),
+    wireBreakDetails: (base.wireBreakDetails ?? []).map((b) => ({
+      strand: b.strand === null ? "" : String(b.strand),
+      strandNotKnown: b.strand === null,
+      where: b.where,
+    })),
     remarks: base.remarks ?? "",
   };
 }
@@ -153,6 +187,10 @@ export function RecordForm({
     [sets, ctx.calibrations, today],
   );
   const concreteUnconfirmed = concreteGate !== null;
+  // The reading division alone could change the verdict: the finer second reading is asked before saving.
+  const [rereadAsked, setRereadAsked] = useState(
+    Boolean(correcting?.firstReadingMm || correcting?.rereadDeclinedReason),
+  );
   const schema = useMemo(
     () =>
       recordFormSchema({
@@ -161,8 +199,10 @@ export function RecordForm({
         ends,
         correction: Boolean(correcting),
         concreteUnconfirmed,
+        rereadAsked,
+        strandCount: ctx.tendon.strandCount,
       }),
-    [entryUnits, expiredSetIds, ends, correcting, concreteUnconfirmed],
+    [entryUnits, expiredSetIds, ends, correcting, concreteUnconfirmed, rereadAsked, ctx.tendon.strandCount],
   );
   // A set with no calibration on file gives no force: it is not offered (a correction keeps its own).
   const offered = sets.filter(
@@ -177,8 +217,9 @@ export function RecordForm({
             ...EMPTY_RECORD_FORM,
             tendonEnd: ends.find((e) => !doneEnds.has(e)) ?? ends[0]!,
             equipmentSetId: offered.length === 1 ? offered[0]!.id : "",
-            // Asked once per tendon: the order the other end's record gave, else one end after the other.
-            stressingOrder: records.find((r) => r.stressingOrder)?.stressingOrder ?? "sequential",
+            // Asked once per tendon: the other end's record, else the schedule, else one end after the other.
+            stressingOrder:
+              records.find((r) => r.stressingOrder)?.stressingOrder ?? ctx.tendon.stressingOrder ?? "sequential",
             // The project's comparison basis is the form's default reading method.
             readingMethod: ctx.project.comparisonBasis === "gross" ? "strokes" : "marks",
           },
@@ -189,6 +230,18 @@ export function RecordForm({
   const form = useForm<RecordFormValues>({ resolver: zodResolver(schema), defaultValues: defaults, mode: "onSubmit" });
   const { register, handleSubmit, setValue, getValues, formState, reset, control } = form;
   const strokes = useFieldArray({ control, name: "strokes" });
+  // One row per broken wire, following the count typed.
+  const breakRows = useFieldArray({ control, name: "wireBreakDetails" });
+  const breakCount = useWatch({ control, name: "wireBreaks" });
+  useEffect(() => {
+    const wanted = /^\d{1,2}$/.test(breakCount ?? "") ? Number(breakCount) : 0;
+    const have = breakRows.fields.length;
+    if (wanted > have)
+      breakRows.append(
+        Array.from({ length: wanted - have }, () => ({ strand: "", strandNotKnown: false, where: "" as const })),
+      );
+    else if (wanted < have) breakRows.remove(Array.from({ length: have - wanted }, (_, i) => wanted + i));
+  }, [breakCount, breakRows]);
   const [photos, setPhotos] = useState<PickedPhoto[]>([]);
   const [saveError, setSaveError] = useState<string | null>(null);
   const [saving, setSaving] = useState(false);
@@ -200,6 +253,7 @@ export function RecordForm({
 
   const setId = useWatch({ control, name: "equipmentSetId" });
   const method = useWatch({ control, name: "readingMethod" });
+  const rereadStrokes = useWatch({ control, name: "rereadStrokes" });
   const set = sets.find((s) => s?.id === setId) ?? null;
   const { calibration, expired } = calibrationFor(ctx.calibrations, setId, today);
   const targetMPa = set ? targetFor({ ...ctx, set }, calibration) : null;
@@ -276,6 +330,20 @@ export function RecordForm({
         ...records.filter((r) => r.id !== correcting?.id),
         draft,
       ]);
+      // The division alone could flip the verdict and this end was not read again: ask before it is final.
+      if (local?.reread && !payload.firstReadingMm && !payload.rereadDeclinedReason) {
+        if (values.readingMethod === "strokes")
+          setValue(
+            "rereadStrokes",
+            values.strokes.filter((s) => s.value !== "").map(() => ({ value: "" })),
+          );
+        setRereadAsked(true);
+        setFractionTarget(values.readingMethod === "marks" ? "rereadMarksAfter" : "rereadStrokes.0.value");
+        setSaveError(
+          `Not saved yet: the reading division alone could change the verdict. Read the elongation again to ${finerDivision(units(ctx.project))} below, or say why it cannot be read again.`,
+        );
+        return;
+      }
       await saveRecord(db, {
         recordId,
         payload,
@@ -286,6 +354,7 @@ export function RecordForm({
       photos.forEach((p) => URL.revokeObjectURL(p.url));
       setPhotos([]);
       setOffTarget(null);
+      setRereadAsked(false);
       reset(defaults);
       setFormDirty(false);
       onSaved(recordId);
@@ -309,7 +378,11 @@ export function RecordForm({
           ? "Seating"
           : box === "drawIn"
             ? "Draw-in"
-            : `Stroke ${Number(box.split(".")[1]) + 1}`;
+            : box === "rereadMarksAfter"
+              ? "Mark after, read again"
+              : box.startsWith("rereadStrokes")
+                ? `Stroke ${Number(box.split(".")[1]) + 1}, read again`
+                : `Stroke ${Number(box.split(".")[1]) + 1}`;
   const pickFraction = (fraction: string) => {
     const now = String(getValues(typing) ?? "");
     setValue(typing, `${now.replace(/\s*-?\s*\d+\/\d+\s*$/, "").trim() || "0"} ${fraction}`, {
@@ -319,7 +392,8 @@ export function RecordForm({
   // Rarely used on an ordinary end: folded away so the readings and Save fit on one screen, opened
   // by itself when it holds something or an error.
   const [moreOpen, setMoreOpen] = useState(false);
-  const moreHasSomething = photos.length > 0 || Boolean(err.wireBreaks || err.remarks);
+  const moreHasSomething =
+    photos.length > 0 || Boolean(err.wireBreaks || err.wireBreakDetails || err.remarks) || breakRows.fields.length > 0;
   const showMore = moreOpen || moreHasSomething;
 
   const endChoice = (
@@ -596,7 +670,53 @@ export function RecordForm({
         </div>
       )}
 
-      {inches && <FractionKeys target={lengthLabel(typing)} onPick={pickFraction} />}
+      {rereadAsked && (
+        <div className="grid gap-2 rounded-md border-2 border-signal-stop p-3" data-testid="reread-step">
+          <p className="font-bold">
+            Read again to {finerDivision(units(ctx.project))}: the reading division alone could change the verdict. Both
+            readings are kept; the finer one is judged.
+          </p>
+          <div className="grid grid-cols-3 gap-3">
+            {method === "marks" ? (
+              <NumberBox
+                id="rereadMarksAfter"
+                label="Mark after, read again"
+                unit={entryUnits.length}
+                reg={register("rereadMarksAfter")}
+                error={err.rereadMarksAfter?.message}
+                onFocus={() => setFractionTarget("rereadMarksAfter")}
+              />
+            ) : (
+              rereadStrokes.map((_, i) => (
+                <NumberBox
+                  key={i}
+                  id={`reread-stroke-${i}`}
+                  label={`Stroke ${i + 1}, read again`}
+                  unit={entryUnits.length}
+                  reg={register(`rereadStrokes.${i}.value`)}
+                  error={err.rereadStrokes?.[i]?.value?.message}
+                  onFocus={() => setFractionTarget(`rereadStrokes.${i}.value`)}
+                />
+              ))
+            )}
+            <div className="col-span-2">
+              <label htmlFor="rereadDeclinedReason" className="field-label">
+                Or why it cannot be read again
+              </label>
+              <input
+                id="rereadDeclinedReason"
+                className="field-input"
+                aria-invalid={Boolean(err.rereadDeclinedReason)}
+                placeholder="e.g. tails already cut"
+                {...register("rereadDeclinedReason")}
+              />
+              <FieldError message={err.rereadDeclinedReason?.message} />
+            </div>
+          </div>
+        </div>
+      )}
+
+      {inches && <FractionKeys target={lengthLabel(typing)} onPick={pickFraction} fine={typing.startsWith("reread")} />}
 
       <div id="record-more" className="grid gap-3" hidden={!showMore}>
         <div className="grid grid-cols-[minmax(0,1fr)_minmax(0,2fr)] gap-3">
@@ -616,6 +736,40 @@ export function RecordForm({
             <FieldError message={err.remarks?.message} />
           </div>
         </div>
+        {breakRows.fields.map((f, i) => (
+          <fieldset
+            key={f.id}
+            className="grid gap-2 rounded-md border-2 border-concrete-300 p-2"
+            data-testid="wire-break"
+          >
+            <legend className="field-label px-1">Broken wire {i + 1}</legend>
+            <div className="flex flex-wrap items-end gap-3">
+              <div className="w-40">
+                <NumberBox
+                  id={`break-strand-${i}`}
+                  label={`Strand (1–${ctx.tendon.strandCount})`}
+                  unit="no."
+                  numeric
+                  reg={register(`wireBreakDetails.${i}.strand`)}
+                  error={err.wireBreakDetails?.[i]?.strand?.message}
+                />
+              </div>
+              <label className={`${CHIP} px-3`}>
+                <input type="checkbox" className="sr-only" {...register(`wireBreakDetails.${i}.strandNotKnown`)} />
+                Strand not known
+              </label>
+            </div>
+            <div className="flex flex-wrap gap-2" role="radiogroup" aria-label={`Where wire ${i + 1} broke`}>
+              {WIRE_BREAK_PLACES.map((place) => (
+                <label key={place} className={`${CHIP} px-3`}>
+                  <input type="radio" value={place} className="sr-only" {...register(`wireBreakDetails.${i}.where`)} />
+                  {WIRE_BREAK_PLACE_WORDS[place].replace(/^./, (c) => c.toUpperCase())}
+                </label>
+              ))}
+            </div>
+            <FieldError message={err.wireBreakDetails?.[i]?.where?.message} />
+          </fieldset>
+        ))}
         <PhotoPicker photos={photos} onChange={setPhotos} />
         <p className="text-base text-ink-soft" data-testid="record-by">
           Operator {session.name}; the device time and zone ({Intl.DateTimeFormat().resolvedOptions().timeZone}) are

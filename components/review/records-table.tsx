@@ -1,5 +1,7 @@
 import { formatDateTime } from "@/lib/format/dates";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
+import { rereadLine } from "@/lib/stressing/display";
+import { storedWireBreaks, wireBreakWords } from "@/lib/schemas/record";
 import { CorrectionForm } from "./flag-actions";
 
 /** Every stressing record of the tendon, all revisions, oldest first; photos link to the files. */
@@ -72,7 +74,26 @@ export function RecordsTable({
                       Revision {r.revision}: {r.revision_reason}
                     </span>
                   )}
-                  {r.wire_breaks > 0 && <span className="block font-bold">{r.wire_breaks} wire break(s)</span>}
+                  {r.wire_breaks > 0 && (
+                    <span className="block font-bold" data-testid="wire-breaks">
+                      {r.wire_breaks} wire break(s)
+                      {storedWireBreaks(r.wire_break_details)?.length
+                        ? `: ${storedWireBreaks(r.wire_break_details)!.map(wireBreakWords).join("; ")}`
+                        : ""}
+                    </span>
+                  )}
+                  {(() => {
+                    const line = rereadLine(c.basis.project, {
+                      measuredMm: r.measured_mm,
+                      firstReadingMm: r.first_reading_mm,
+                      rereadDeclinedReason: r.reread_declined_reason,
+                    });
+                    return line ? (
+                      <span className="block" data-testid="reread-line">
+                        {line}
+                      </span>
+                    ) : null;
+                  })()}
                   {r.remarks && <span className="block">{r.remarks}</span>}
                   {r.concrete_go_ahead && (
                     <span className="block" data-testid="concrete-go-ahead-reason">

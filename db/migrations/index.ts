@@ -25,6 +25,9 @@ import * as recordConcreteGoAhead from "./2026-12-10T171300-record-concrete-go-a
 import * as oneOpenConcreteFlag from "./2026-12-11T090000-one-open-concrete-flag";
 import * as memberWireLedger from "./2026-12-11T100000-member-wire-ledger";
 import * as forceAgreement from "./2026-12-12T100000-force-agreement";
+import * as recordReread from "./2026-12-12T110000-record-reread";
+import * as recordWireBreakDetails from "./2026-12-12T110100-record-wire-break-details";
+import * as tendonStressingOrder from "./2026-12-12T110200-tendon-stressing-order";
 import * as detensions from "./2026-12-12T120000-detensions";
 import * as shiftDigests from "./2026-12-12T130000-shift-digests";
 import * as dailyAttestation from "./2026-12-12T140000-daily-attestation";
@@ -58,6 +61,9 @@ export const migrations: Record<string, Migration> = {
   "2026-12-11T090000-one-open-concrete-flag": oneOpenConcreteFlag,
   "2026-12-11T100000-member-wire-ledger": memberWireLedger,
   "2026-12-12T100000-force-agreement": forceAgreement,
+  "2026-12-12T110000-record-reread": recordReread,
+  "2026-12-12T110100-record-wire-break-details": recordWireBreakDetails,
+  "2026-12-12T110200-tendon-stressing-order": tendonStressingOrder,
   "2026-12-12T120000-detensions": detensions,
   "2026-12-12T130000-shift-digests": shiftDigests,
   "2026-12-12T140000-daily-attestation": dailyAttestation,

@@ -194,7 +194,7 @@ describe("tendon schedule CSV: hostile files", () => {
     );
     const line = csv.split("\r\n")[1]!;
     expect(line.startsWith("'=HYPERLINK(1)")).toBe(true);
-    expect(line.endsWith(",'@x,'-1+2")).toBe(true);
+    expect(line.endsWith(",'@x,'-1+2,")).toBe(true); // the stressing order, empty, last
   });
 
   it("refuses more rows than allowed without reading them all, and caps the error list", () => {
@@ -216,5 +216,48 @@ describe("tendon schedule CSV: hostile files", () => {
       column: "tag",
       message: expect.stringContaining("control"),
     });
+  });
+});
+
+describe("tendon schedule CSV: the stressing order of two-end tendons", () => {
+  const header = `${HEADER},member,stressing order`;
+  it("reads sequential or simultaneous (any case), empty as not given, and exports it again", () => {
+    const result = parseTendonSchedule(
+      [
+        header,
+        "B-1,multistrand,0.6,12,both,40@5.7 40@5.7,24,,,,Simultaneous",
+        "B-2,multistrand,0.6,12,both,40@5.7 40@5.7,24,,,,sequential",
+        "B-3,multistrand,0.6,12,both,40@5.7 40@5.7,24,,,,",
+      ].join("\n"),
+    );
+    expect(result.ok).toBe(true);
+    if (!result.ok) return;
+    expect(result.tendons.map((t) => t.stressingOrder)).toEqual(["simultaneous", "sequential", null]);
+    const again = parseTendonSchedule(toTendonCsv(result.tendons, "US"));
+    expect(again.ok && again.tendons.map((t) => t.stressingOrder)).toEqual(["simultaneous", "sequential", null]);
+  });
+
+  it("refuses a word it does not know and an order on a one-end tendon, naming the column", () => {
+    const result = parseTendonSchedule(
+      [
+        header,
+        "B-1,multistrand,0.6,12,both,40@5.7 40@5.7,24,,,,together",
+        "U-1,monostrand,0.5,1,A,30@3.1,18,,,,sequential",
+      ].join("\n"),
+    );
+    expect(result.ok).toBe(false);
+    if (result.ok) return;
+    expect(result.errors).toEqual([
+      {
+        row: 2,
+        column: "stressing order",
+        message: '"together" is not a stressing order; use sequential, simultaneous or leave it empty.',
+      },
+      {
+        row: 3,
+        column: "stressing order",
+        message: "Only a tendon stressed at both ends has a stressing order; leave it empty.",
+      },
+    ]);
   });
 });

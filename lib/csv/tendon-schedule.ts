@@ -52,6 +52,11 @@ export const COLUMNS: readonly ColumnSpec[] = [
     required: false,
     hint: "beam, slab strip or band the tendon belongs to; its group average and wire-break ledger are judged per member",
   },
+  {
+    key: "stressing order",
+    required: false,
+    hint: "two-end tendons: sequential (one end after the other) or simultaneous (both at once); empty when not decided",
+  },
 ];
 
 export const MAX_ROWS = 20_000;
@@ -233,6 +238,16 @@ export function parseTendonSchedule(
     if (lot && context.lotNumbers && !context.lotNumbers.has(lot))
       add(line, "strand lot", `The strand lot "${lot}" is not registered on this project.`);
 
+    const orderText = cell(row, "stressing order").toLowerCase();
+    const stressingOrder =
+      orderText === "" ? null : orderText === "sequential" || orderText === "simultaneous" ? orderText : undefined;
+    if (stressingOrder === undefined)
+      add(
+        line,
+        "stressing order",
+        `"${cell(row, "stressing order")}" is not a stressing order; use sequential, simultaneous or leave it empty.`,
+      );
+
     if (errors.some((e) => e.row === line)) return;
     const checked = tendonSchema.safeParse({
       tag,
@@ -245,6 +260,7 @@ export function parseTendonSchedule(
       shopElongationMm: shopElongationMm ?? null,
       strandLotId: null,
       member: cell(row, "member") || null,
+      stressingOrder,
     });
     if (!checked.success) {
       for (const issue of checked.error.issues) {
@@ -260,6 +276,7 @@ export function parseTendonSchedule(
             jackGripMm: "jack grip",
             shopElongationMm: "shop elongation",
             member: "member",
+            stressingOrder: "stressing order",
           }[field] ?? field;
         add(line, column, issue.message);
       }
@@ -293,6 +310,7 @@ export function scheduleHeader(system: UnitSystem): string[] {
     `shop elongation [${short}]`,
     "strand lot",
     "member",
+    "stressing order",
   ];
 }
 
@@ -307,6 +325,7 @@ export interface ExportTendon {
   shopElongationMm: number | null;
   strandLot: string | null;
   member?: string | null;
+  stressingOrder?: "sequential" | "simultaneous" | null;
 }
 
 /** The same layout as the import, so an exported file imports again unchanged. */
@@ -328,6 +347,7 @@ export function toTendonCsv(tendons: readonly ExportTendon[], system: UnitSystem
     short(t.shopElongationMm),
     neutralise(t.strandLot ?? ""),
     neutralise(t.member ?? ""),
+    t.stressingOrder ?? "",
   ]);
   return Papa.unparse({ fields: scheduleHeader(system), data: safeRows(rows) }, { newline: "\r\n" }) + "\r\n";
 }

@@ -149,6 +149,9 @@ export function judgeInputFor(ctx: TendonContext & { sets?: FieldEquipmentSet[] 
     seatingMm: r.seatingMm,
     stressingOrder: r.stressingOrder ?? null,
     wireBreaks: r.wireBreaks,
+    firstReadingMm: r.firstReadingMm ?? null,
+    rereadDeclinedReason: r.rereadDeclinedReason ?? null,
+    wireBreakDetails: r.wireBreakDetails ?? null,
   }));
   return {
     project: { ...ctx.project, readingResolution: ctx.project.readingResolution as "1/8in" | "1/16in" | "1mm" },
@@ -190,7 +193,7 @@ export function provisionalVerdict(
       bandPct: forceAgreement(e, input.project, j.specifiedForceN)?.bandPct ?? null,
     })),
     specifiedForceN: j.specifiedForceN,
-    reread: j.divisionCouldFlip,
+    reread: j.rereadWanted,
     governsLine: governsLine(
       {
         unitSystem: ctx.project.unitSystem,

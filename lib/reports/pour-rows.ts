@@ -15,6 +15,7 @@ import {
 } from "@/lib/format/quantities";
 import { MPA_PER_PSI } from "@/lib/units";
 import { DECISION_LABELS } from "@/lib/schemas/review";
+import { wireBreakWords } from "@/lib/schemas/record";
 import type { PourReport } from "@/lib/server/get-pour-report";
 import type { PourRecord } from "@/lib/server/list-pour-records";
 import type { TendonResult } from "@/lib/server/list-tendon-results";
@@ -80,6 +81,12 @@ function readingsText(p: PourReport["project"], r: PourRecord): string {
     parts.push(`marks ${r.entered.marks.before} before, ${r.entered.marks.after} after`);
   if (r.method === "strokes" && r.entered.strokes?.length)
     parts.push(r.entered.strokes.map((s, i) => `stroke ${i + 1}: ${s}`).join(", "));
+  // Read again finer: the first reading above, the re-read judged.
+  if (r.firstReadingMm && r.entered.reread?.marksAfter)
+    parts.push(`read again: ${r.entered.reread.marksAfter} after (judged)`);
+  if (r.firstReadingMm && r.entered.reread?.strokes?.length)
+    parts.push(`read again: ${r.entered.reread.strokes.map((s, i) => `stroke ${i + 1}: ${s}`).join(", ")} (judged)`);
+  if (r.rereadDeclinedReason) parts.push(`not read again finer: ${r.rereadDeclinedReason}`);
   if (r.method === "strokes" && r.drawIn && r.drawIn.deductedMm > 0)
     parts.push(
       `less ${showComputedLength(p, r.drawIn.deductedMm)} draw-in (${showComputedLength(p, r.drawIn.usedMm)} per re-grip, ${r.drawIn.source === "record" ? "as typed" : "the equipment set's"})`,
@@ -188,7 +195,9 @@ export function recordRows(report: PourReport): string[][] {
         Deviation: e?.deviationPct != null ? showPct(e.deviationPct) : "",
         Verdict: verdict,
         Basis: e ? (e.basis === "net" ? "net of anchor set" : "gross at jacking") : "",
-        "Wire breaks": String(r.wireBreaks),
+        "Wire breaks": r.wireBreakDetails?.length
+          ? `${r.wireBreaks}: ${r.wireBreakDetails.map(wireBreakWords).join("; ")}`
+          : String(r.wireBreaks),
         Remarks: [r.remarks, ...r.corrections.map((c) => `corrected to revision ${c.revision}: ${c.reason}`)]
           .filter(Boolean)
           .join("; "),

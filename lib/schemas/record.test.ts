@@ -156,3 +156,151 @@ describe("the reason to go ahead before the concrete is confirmed, in the payloa
     expect(result.error!.issues.map((i) => i.path.join("."))).toEqual(["concreteGoAhead"]);
   });
 });
+
+describe("the finer second reading", () => {
+  const base = {
+    ...EMPTY_RECORD_FORM,
+    equipmentSetId: "0190a0b0-0000-7000-8000-0000000000dd",
+    finalPressure: "4200",
+    marksBefore: "1",
+    marksAfter: "5 1/2",
+  };
+  const ctx = {
+    units: US,
+    projectId: "0190a0b0-0000-7000-8000-0000000000aa",
+    pourId: "0190a0b0-0000-7000-8000-0000000000bb",
+    tendonId: "0190a0b0-0000-7000-8000-0000000000cc",
+    chainId: "0190a0b0-0000-7000-8000-0000000000ee",
+    revision: 1,
+    baseRecordId: null,
+    calibrationId: null,
+    expired: false,
+    authorUserId: "0190a0b0-0000-7000-8000-000000000001",
+    now: new Date("2026-12-02T15:30:00Z"),
+    timeZone: "UTC",
+  };
+  const formContext = { units: US, expiredSetIds: [], ends: ["A"] as const, correction: false };
+
+  it("marks: the mark after read again is judged, the first reading kept beside it", () => {
+    const payload = payloadFromForm({ ...base, rereadMarksAfter: "5 7/16" }, ctx);
+    // 1 in = 25.4 mm exactly (NIST SP 811, B.8): 4 1/2 in first, 4 7/16 in again.
+    expect(payload.firstReadingMm).toBeCloseTo(4.5 * 25.4, 9);
+    expect(payload.measuredMm).toBeCloseTo(4.4375 * 25.4, 9);
+    expect(payload.entered.marks).toEqual({ before: "1", after: "5 1/2" });
+    expect(payload.entered.reread).toEqual({ marksAfter: "5 7/16", strokes: null });
+    expect(payload.rereadDeclinedReason).toBeNull();
+    expect(recordPayloadSchema.safeParse(payload).success).toBe(true);
+  });
+
+  it("ram strokes: each stroke read again, summed; a stroke not read again is named", () => {
+    const strokes = {
+      ...base,
+      readingMethod: "strokes" as const,
+      strokes: [{ value: "6" }, { value: "2 1/4" }],
+    };
+    const payload = payloadFromForm({ ...strokes, rereadStrokes: [{ value: "6" }, { value: "2 3/16" }] }, ctx);
+    expect(payload.firstReadingMm).toBeCloseTo(8.25 * 25.4, 9);
+    expect(payload.measuredMm).toBeCloseTo(8.1875 * 25.4, 9);
+    const missing = recordFormSchema(formContext).safeParse({
+      ...strokes,
+      rereadStrokes: [{ value: "6" }, { value: "" }],
+    });
+    expect(missing.success).toBe(false);
+    expect(missing.error!.issues.map((i) => i.path.join("."))).toEqual(["rereadStrokes.1.value"]);
+  });
+
+  it("once asked, the form wants the re-read or a reason, and not both", () => {
+    const asked = recordFormSchema({ ...formContext, rereadAsked: true });
+    const neither = asked.safeParse(base);
+    expect(neither.success).toBe(false);
+    expect(neither.error!.issues.map((i) => i.path.join("."))).toEqual(["rereadDeclinedReason"]);
+    expect(asked.safeParse({ ...base, rereadDeclinedReason: "tails already cut" }).success).toBe(true);
+    expect(asked.safeParse({ ...base, rereadMarksAfter: "5 7/16" }).success).toBe(true);
+    const both = asked.safeParse({ ...base, rereadMarksAfter: "5 7/16", rereadDeclinedReason: "tails cut" });
+    expect(both.success).toBe(false);
+    expect(both.error!.issues.map((i) => i.path.join("."))).toEqual(["rereadDeclinedReason"]);
+  });
+
+  it("the server refuses a first reading that the typed values do not give, and a reason beside a re-read", () => {
+    const payload = payloadFromForm({ ...base, rereadMarksAfter: "5 7/16" }, ctx);
+    const forged = recordPayloadSchema.safeParse({ ...payload, firstReadingMm: payload.measuredMm });
+    expect(forged.success).toBe(false);
+    expect(forged.error!.issues.map((i) => i.path.join("."))).toEqual(["firstReadingMm"]);
+    const both = recordPayloadSchema.safeParse({ ...payload, rereadDeclinedReason: "tails already cut" });
+    expect(both.success).toBe(false);
+    expect(both.error!.issues.map((i) => i.path.join("."))).toEqual(["rereadDeclinedReason"]);
+    const declined = payloadFromForm({ ...base, rereadDeclinedReason: "tails already cut" }, ctx);
+    expect(declined.firstReadingMm).toBeNull();
+    expect(declined.rereadDeclinedReason).toBe("tails already cut");
+    expect(recordPayloadSchema.safeParse(declined).success).toBe(true);
+  });
+});
+
+describe("wire breaks: which strand and where", () => {
+  const base = {
+    ...EMPTY_RECORD_FORM,
+    equipmentSetId: "0190a0b0-0000-7000-8000-0000000000dd",
+    finalPressure: "4200",
+    marksBefore: "0",
+    marksAfter: "4 1/2",
+    wireBreaks: "2",
+    wireBreakDetails: [
+      { strand: "3", strandNotKnown: false, where: "jack_end" as const },
+      { strand: "", strandNotKnown: true, where: "along_length" as const },
+    ],
+  };
+  const formContext = { units: US, expiredSetIds: [], ends: ["A"] as const, correction: false, strandCount: 4 };
+  const ctx = {
+    units: US,
+    projectId: "0190a0b0-0000-7000-8000-0000000000aa",
+    pourId: "0190a0b0-0000-7000-8000-0000000000bb",
+    tendonId: "0190a0b0-0000-7000-8000-0000000000cc",
+    chainId: "0190a0b0-0000-7000-8000-0000000000ee",
+    revision: 1,
+    baseRecordId: null,
+    calibrationId: null,
+    expired: false,
+    authorUserId: "0190a0b0-0000-7000-8000-000000000001",
+    now: new Date("2026-12-02T15:30:00Z"),
+    timeZone: "UTC",
+  };
+
+  it("travels one entry per broken wire, a strand not known as null", () => {
+    expect(recordFormSchema(formContext).safeParse(base).success).toBe(true);
+    const payload = payloadFromForm(base, ctx);
+    expect(payload.wireBreakDetails).toEqual([
+      { strand: 3, where: "jack_end" },
+      { strand: null, where: "along_length" },
+    ]);
+    expect(recordPayloadSchema.safeParse(payload).success).toBe(true);
+  });
+
+  it("names the box: a strand the tendon does not have, a strand left blank, a place not chosen", () => {
+    const bad = recordFormSchema(formContext).safeParse({
+      ...base,
+      wireBreakDetails: [
+        { strand: "5", strandNotKnown: false, where: "far_end" },
+        { strand: "", strandNotKnown: false, where: "" },
+      ],
+    });
+    expect(bad.success).toBe(false);
+    expect(bad.error!.issues.map((i) => [i.path.join("."), i.message])).toEqual([
+      ["wireBreakDetails.0.strand", "Break 1: this tendon has 4 strands."],
+      ["wireBreakDetails.1.strand", 'Break 2: type the strand\'s number, or press "Not known".'],
+      ["wireBreakDetails.1.where", "Break 2: say where the wire broke."],
+    ]);
+  });
+
+  it("the server refuses details that do not match the count", () => {
+    const payload = payloadFromForm(base, ctx);
+    const short = recordPayloadSchema.safeParse({ ...payload, wireBreakDetails: payload.wireBreakDetails!.slice(1) });
+    expect(short.success).toBe(false);
+    expect(short.error!.issues.map((i) => i.path.join("."))).toEqual(["wireBreakDetails"]);
+    const place = recordPayloadSchema.safeParse({
+      ...payload,
+      wireBreakDetails: [{ strand: 1, where: "somewhere" }, payload.wireBreakDetails![1]],
+    });
+    expect(place.success).toBe(false);
+    expect(place.error!.issues.map((i) => i.path.join("."))).toEqual(["wireBreakDetails.0.where"]);
+  });
+});

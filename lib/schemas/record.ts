@@ -13,6 +13,34 @@ export const TENDON_ENDS = ["A", "B"] as const;
 export const READING_METHODS = ["marks", "strokes"] as const;
 export const MAX_STROKES = 8;
 export const STRESSING_ORDERS = ["sequential", "simultaneous"] as const;
+/** Where along the tendon a wire broke, as the crew saw it. */
+export const WIRE_BREAK_PLACES = ["jack_end", "far_end", "along_length", "not_known"] as const;
+export type WireBreakPlace = (typeof WIRE_BREAK_PLACES)[number];
+export const WIRE_BREAK_PLACE_WORDS: Record<WireBreakPlace, string> = {
+  jack_end: "at the jack",
+  far_end: "at the far end",
+  along_length: "along the length",
+  not_known: "place not known",
+};
+
+/** One broken wire: the strand it is on (its number in the tendon, null when not known) and where. */
+export const wireBreakSchema = z
+  .object({
+    strand: z
+      .number({ error: "The strand must be a number, or null when not known." })
+      .int("The strand is a whole number.")
+      .min(1, "Strands are numbered from 1.")
+      .max(99, "The strand number is over 99.")
+      .nullable(),
+    where: z.enum(WIRE_BREAK_PLACES, { error: "Say where the wire broke." }),
+  })
+  .strict();
+export type WireBreak = z.infer<typeof wireBreakSchema>;
+
+/** "strand 3, at the jack" / "strand not known, along the length". */
+export function wireBreakWords(b: WireBreak): string {
+  return `${b.strand === null ? "strand not known" : `strand ${b.strand}`}, ${WIRE_BREAK_PLACE_WORDS[b.where]}`;
+}
 
 /** The units bare numbers are read in, from the project's unit system. */
 export interface EntryUnits {
@@ -39,6 +67,18 @@ export const enteredSchema = z.object({
   seating: typed("seating").nullable(),
   /** Draw-in lost at each re-grip between strokes; absent on records made before it was asked. */
   drawIn: typed("draw-in").nullable().optional(),
+  /**
+   * The second, finer reading the tablet asks for when the reading division alone could change the
+   * verdict: marks, the mark after lock-off read again (the mark before was set, not read); ram
+   * strokes, each stroke read again. The first reading stays in `marks` / `strokes`.
+   */
+  reread: z
+    .object({
+      marksAfter: typed("mark after, read again").nullable(),
+      strokes: z.array(typed("stroke, read again")).max(MAX_STROKES, `At most ${MAX_STROKES} strokes.`).nullable(),
+    })
+    .nullable()
+    .optional(),
 });
 export type Entered = z.infer<typeof enteredSchema>;
 
@@ -48,6 +88,8 @@ export interface DerivedValues {
   measuredMm: number;
   seatingMm: number | null;
   drawInMm: number | null;
+  /** The first, coarser reading when the elongation was read again (measuredMm is then the re-read). */
+  firstReadingMm: number | null;
 }
 
 /** A typed value that could not be read, named by its form field. */
@@ -122,6 +164,59 @@ export function deriveFromEntered(
     });
     if (ok) measured = sum;
   }
+  // Read again, finer: the re-read is the elongation judged, the first reading is kept beside it.
+  let firstReadingMm: number | null = null;
+  const again = entered.reread ?? null;
+  if (again && measured !== null) {
+    let fine: number | null = null;
+    if (method === "marks") {
+      if (!again.marksAfter) problems.push({ field: "rereadMarksAfter", message: "Type the mark after, read again." });
+      else {
+        const before = parseLength(entered.marks!.before, lengthOpts("marksBefore"));
+        const after = read(problems, "rereadMarksAfter", () =>
+          parseLength(again.marksAfter!, lengthOpts("rereadMarksAfter")),
+        );
+        if (after !== null) {
+          fine = after - before;
+          if (fine <= 0)
+            problems.push({
+              field: "rereadMarksAfter",
+              message: "The mark after, read again, must be farther out than the mark before.",
+            });
+        }
+      }
+    } else {
+      const first = (entered.strokes ?? []).filter((s) => s.trim() !== "");
+      const strokesAgain = again.strokes ?? [];
+      let sum = 0;
+      let ok = true;
+      first.forEach((_, i) => {
+        const typedAgain = strokesAgain[i]?.trim() ?? "";
+        if (!typedAgain) {
+          problems.push({ field: `rereadStrokes.${i}`, message: `Type stroke ${i + 1}, read again.` });
+          ok = false;
+          return;
+        }
+        const v = read(problems, `rereadStrokes.${i}`, () => parseLength(typedAgain, lengthOpts(`rereadStrokes.${i}`)));
+        if (v === null) ok = false;
+        else if (v <= 0) {
+          problems.push({ field: `rereadStrokes.${i}`, message: "A stroke must be longer than zero." });
+          ok = false;
+        } else sum += v;
+      });
+      if (strokesAgain.length > first.length)
+        problems.push({
+          field: `rereadStrokes.${first.length}`,
+          message: "More strokes read again than first read: clear the extra one.",
+        });
+      else if (ok) fine = sum;
+    }
+    if (fine !== null && fine > 0) {
+      firstReadingMm = measured;
+      measured = fine;
+    }
+  }
+
   const seating = entered.seating
     ? read(problems, "seating", () => parseLength(entered.seating!, lengthOpts("seating")))
     : null;
@@ -141,6 +236,7 @@ export function deriveFromEntered(
       measuredMm: measured,
       seatingMm: seating,
       drawInMm: drawIn,
+      firstReadingMm,
     },
     problems,
   };
@@ -157,6 +253,10 @@ export interface RecordFormContext {
   ends: readonly ("A" | "B")[];
   /** A correction of a record already saved: a reason is required. */
   correction: boolean;
+  /** The tablet asked for a finer second reading: the re-read, or a reason it cannot be taken, is required. */
+  rereadAsked?: boolean;
+  /** Strands in the tendon: a broken wire's strand number is at most this. */
+  strandCount?: number;
   /** The pour's concrete strength is not confirmed (the concrete gate): a reason to go ahead is required. */
   concreteUnconfirmed?: boolean;
 }
@@ -173,11 +273,25 @@ export const recordFormShape = z.object({
   strokes: z.array(z.object({ value: text().trim().max(40) })).max(MAX_STROKES),
   seating: text().trim().max(40),
   drawIn: text().trim().max(40),
+  /** The finer second reading (see `Entered.reread`) and the crew's reason when it cannot be taken. */
+  rereadMarksAfter: text().trim().max(40),
+  rereadStrokes: z.array(z.object({ value: text().trim().max(40) })).max(MAX_STROKES),
+  rereadDeclinedReason: text().trim().max(500, "Keep the reason under 500 characters."),
   /** Two-end tendons: one end after the other, or both at once. */
   stressingOrder: z.enum(STRESSING_ORDERS, { error: "Say how the two ends were stressed." }),
   wireBreaks: text()
     .trim()
     .regex(/^\d{0,2}$/, "Type the number of broken wires as a whole number (0 if none)."),
+  /** One row per broken wire: the strand's number as typed (or not known) and where it broke. */
+  wireBreakDetails: z
+    .array(
+      z.object({
+        strand: text().trim().max(4),
+        strandNotKnown: z.boolean(),
+        where: z.enum([...WIRE_BREAK_PLACES, ""]),
+      }),
+    )
+    .max(99),
   remarks: text().trim().max(2000, "Keep the remarks under 2000 characters."),
   revisionReason: text().trim().max(500, "Keep the reason under 500 characters."),
   concreteGoAhead: text().trim().max(500, "Keep the reason under 500 characters."),
@@ -196,8 +310,12 @@ export const EMPTY_RECORD_FORM: RecordFormValues = {
   strokes: [{ value: "" }],
   seating: "",
   drawIn: "",
+  rereadMarksAfter: "",
+  rereadStrokes: [],
+  rereadDeclinedReason: "",
   stressingOrder: "sequential",
   wireBreaks: "0",
+  wireBreakDetails: [],
   remarks: "",
   revisionReason: "",
   concreteGoAhead: "",
@@ -212,13 +330,22 @@ export function enteredFromForm(values: RecordFormValues, units: EntryUnits): En
     strokes: values.readingMethod === "strokes" ? values.strokes.map((s) => s.value).filter((s) => s !== "") : null,
     seating: values.seating || null,
     drawIn: values.readingMethod === "strokes" ? values.drawIn || null : null,
+    reread: rereadFromForm(values),
   };
+}
+
+/** The finer second reading as typed, or null when none was typed. */
+function rereadFromForm(values: RecordFormValues): Entered["reread"] {
+  if (values.readingMethod === "marks")
+    return values.rereadMarksAfter ? { marksAfter: values.rereadMarksAfter, strokes: null } : null;
+  const strokes = values.rereadStrokes.map((s) => s.value);
+  return strokes.some((s) => s !== "") ? { marksAfter: null, strokes } : null;
 }
 
 /** "strokes.2" names the third stroke box, whose value sits at strokes[2].value in the form. */
 function formPath(field: string): (string | number)[] {
-  const stroke = /^strokes\.(\d+)$/.exec(field);
-  return stroke ? ["strokes", Number(stroke[1]), "value"] : [field];
+  const stroke = /^(strokes|rereadStrokes)\.(\d+)$/.exec(field);
+  return stroke ? [stroke[1]!, Number(stroke[2]), "value"] : [field];
 }
 
 /** The form's schema for one tendon and project: every message names the box it belongs to. */
@@ -250,6 +377,51 @@ export function recordFormSchema(context: RecordFormContext) {
     if (context.correction && values.revisionReason.length < 3) {
       ctx.addIssue({ code: "custom", path: ["revisionReason"], message: "Say why this record is corrected." });
     }
+    const rereadTyped = rereadFromForm(values) !== null;
+    if (rereadTyped && values.rereadDeclinedReason) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["rereadDeclinedReason"],
+        message: "A finer reading was typed: clear this reason, or clear the finer reading.",
+      });
+    }
+    if (context.rereadAsked && !rereadTyped && values.rereadDeclinedReason.length < 3) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["rereadDeclinedReason"],
+        message: "Read the elongation again to the finer division, or say why it cannot be read again.",
+      });
+    }
+    const breaks = Number(values.wireBreaks || "0");
+    values.wireBreakDetails.slice(0, breaks).forEach((b, i) => {
+      if (!b.strandNotKnown) {
+        const n = Number(b.strand);
+        if (!/^\d{1,2}$/.test(b.strand) || n < 1)
+          ctx.addIssue({
+            code: "custom",
+            path: ["wireBreakDetails", i, "strand"],
+            message: `Break ${i + 1}: type the strand's number, or press "Not known".`,
+          });
+        else if (context.strandCount !== undefined && n > context.strandCount)
+          ctx.addIssue({
+            code: "custom",
+            path: ["wireBreakDetails", i, "strand"],
+            message: `Break ${i + 1}: this tendon has ${context.strandCount} strand${context.strandCount > 1 ? "s" : ""}.`,
+          });
+      }
+      if (!b.where)
+        ctx.addIssue({
+          code: "custom",
+          path: ["wireBreakDetails", i, "where"],
+          message: `Break ${i + 1}: say where the wire broke.`,
+        });
+    });
+    if (breaks > 0 && values.wireBreakDetails.length < breaks)
+      ctx.addIssue({
+        code: "custom",
+        path: ["wireBreaks"],
+        message: "Say which strand and where for each broken wire.",
+      });
     if (values.finalPressure) {
       const { problems } = deriveFromEntered(enteredFromForm(values, context.units), values.readingMethod);
       for (const p of problems) ctx.addIssue({ code: "custom", path: formPath(p.field), message: p.message });
@@ -314,7 +486,24 @@ export const recordPayloadSchema = z
       .enum(STRESSING_ORDERS, { error: "The stressing order must be sequential or simultaneous." })
       .nullable()
       .optional(),
+    /** The first reading when the elongation was read again finer (measuredMm is the re-read). */
+    firstReadingMm: z
+      .number()
+      .finite()
+      .positive("The first reading must be above zero.")
+      .max(5000, "The first reading is over 5 m.")
+      .nullable()
+      .optional(),
+    /** Why the finer second reading the tablet asked for could not be taken. */
+    rereadDeclinedReason: text()
+      .trim()
+      .min(3, "Say in a few words why the elongation could not be read again.")
+      .max(500, "Keep the reason the elongation was not read again under 500 characters.")
+      .nullable()
+      .optional(),
     wireBreaks: z.number().int("Wire breaks are a whole number.").min(0).max(99),
+    /** Which strand and where, one per broken wire; absent from tablets that predate the question. */
+    wireBreakDetails: z.array(wireBreakSchema).max(99).optional(),
     remarks: optionalText(2000, "remarks"),
     deviceTime: z.iso.datetime({ offset: true, error: "The device time must be an ISO date and time." }),
     deviceTimeZone: text()
@@ -325,6 +514,12 @@ export const recordPayloadSchema = z
   })
   .strict()
   .superRefine((p, ctx) => {
+    if (p.wireBreakDetails && p.wireBreakDetails.length !== p.wireBreaks)
+      ctx.addIssue({
+        code: "custom",
+        path: ["wireBreakDetails"],
+        message: `Name the strand and place of each of the ${p.wireBreaks} broken wires (${p.wireBreakDetails.length} given).`,
+      });
     if (p.revision === 1 && (p.baseRecordId !== null || p.revisionReason !== null)) {
       ctx.addIssue({
         code: "custom",
@@ -366,6 +561,18 @@ export const recordPayloadSchema = z
       ctx.addIssue({ code: "custom", path: ["seatingMm"], message: "The seating does not match the value as typed." });
     if (!agrees(v.drawInMm, p.drawInMm ?? null))
       ctx.addIssue({ code: "custom", path: ["drawInMm"], message: "The draw-in does not match the value as typed." });
+    if (!agrees(v.firstReadingMm, p.firstReadingMm ?? null))
+      ctx.addIssue({
+        code: "custom",
+        path: ["firstReadingMm"],
+        message: "The first reading does not match the readings as typed.",
+      });
+    if (v.firstReadingMm !== null && p.rereadDeclinedReason)
+      ctx.addIssue({
+        code: "custom",
+        path: ["rereadDeclinedReason"],
+        message: "The elongation was read again: a reason for not reading it again does not belong here.",
+      });
   });
 export type RecordPayload = z.infer<typeof recordPayloadSchema>;
 
@@ -414,11 +621,25 @@ export function payloadFromForm(
     seatingMm: v.seatingMm,
     drawInMm: v.drawInMm,
     stressingOrder: context.twoEnds ? values.stressingOrder : null,
+    firstReadingMm: v.firstReadingMm,
+    rereadDeclinedReason: v.firstReadingMm === null && values.rereadDeclinedReason ? values.rereadDeclinedReason : null,
     wireBreaks: Number(values.wireBreaks || "0"),
+    wireBreakDetails: values.wireBreakDetails.slice(0, Number(values.wireBreaks || "0")).map((b) => ({
+      strand: b.strandNotKnown ? null : Number(b.strand),
+      where: b.where as WireBreakPlace,
+    })),
     remarks: values.remarks || null,
     deviceTime: context.now.toISOString(),
     deviceTimeZone: context.timeZone,
     authorUserId: context.authorUserId,
     ...(context.concreteUnconfirmed ? { concreteGoAhead: values.concreteGoAhead } : {}),
   };
+}
+
+const storedBreaks = z.array(wireBreakSchema);
+
+/** The wire breaks' strand and place as a row stores them (jsonb); null when absent or not readable. */
+export function storedWireBreaks(value: unknown): WireBreak[] | null {
+  const parsed = storedBreaks.safeParse(value);
+  return parsed.success ? parsed.data : null;
 }

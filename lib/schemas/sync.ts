@@ -174,6 +174,8 @@ export interface FieldTendon {
   strandLotId: string | null;
   /** The approved shop-drawing elongation of the whole tendon, when the schedule gives one. */
   shopElongationMm?: number | null;
+  /** How the schedule says a two-end tendon is stressed (absent in pulls before it existed). */
+  stressingOrder?: "sequential" | "simultaneous" | null;
 }
 
 export interface FieldStrandLot {
@@ -235,7 +237,11 @@ export interface FieldRecord {
   seatingMm: number | null;
   drawInMm?: number | null;
   stressingOrder?: "sequential" | "simultaneous" | null;
+  /** The first reading when the elongation was read again finer (absent in pulls before it existed). */
+  firstReadingMm?: number | null;
+  rereadDeclinedReason?: string | null;
   wireBreaks: number;
+  wireBreakDetails?: { strand: number | null; where: "jack_end" | "far_end" | "along_length" | "not_known" }[];
   remarks: string | null;
   deviceTime: string;
   authorUserId: string;

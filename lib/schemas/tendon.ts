@@ -62,8 +62,19 @@ export const tendonSchema = z
     strandLotId: z.uuid({ error: "Pick a strand lot of this project." }).nullable(),
     /** The beam, slab strip or band the tendon belongs to; none: the pour is its group. */
     member: plainText("member", 80).nullable().optional(),
+    /** How a two-end tendon is stressed, as the schedule says; the record form's default. */
+    stressingOrder: z
+      .enum(["sequential", "simultaneous"], { error: "The stressing order is sequential or simultaneous." })
+      .nullable()
+      .optional(),
   })
   .superRefine((t, ctx) => {
+    if (t.stressingOrder && t.ends !== "both")
+      ctx.addIssue({
+        code: "custom",
+        path: ["stressingOrder"],
+        message: "Only a tendon stressed at both ends has a stressing order; leave it empty.",
+      });
     if (t.kind === "unbonded_monostrand" && t.strandCount !== 1) {
       ctx.addIssue({ code: "custom", path: ["strandCount"], message: "An unbonded monostrand tendon has 1 strand." });
     }

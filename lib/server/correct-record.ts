@@ -55,6 +55,9 @@ export async function correctRecord(
         final_pressure_mpa: c.finalPressureMPa ?? base.final_pressure_mpa,
         initial_pressure_mpa: c.initialPressureMPa === undefined ? base.initial_pressure_mpa : c.initialPressureMPa,
         entered: JSON.stringify({ ...base.entered, correctedBy: input.by.id, correction: c }),
+        wire_break_details: base.wire_break_details ? JSON.stringify(base.wire_break_details) : null,
+        // A corrected elongation is no longer the tablet's re-read: the first reading goes with it.
+        first_reading_mm: c.measuredMm === undefined ? base.first_reading_mm : null,
         author_user_id: input.by.id,
         received_at: new Date(),
       })

@@ -40,6 +40,7 @@ export async function createTendon(
         shop_elongation_mm: v.shopElongationMm,
         strand_lot_id: v.strandLotId,
         member: v.member ?? null,
+        stressing_order: v.stressingOrder ?? null,
       })
       .returning("id")
       .executeTakeFirstOrThrow();

@@ -26,6 +26,7 @@ import { WIRES_PER_STRAND } from "@/lib/stressing/rules/member-wire-loss";
 import { answeredOrder } from "@/lib/stressing/rules/stressed-twice";
 import { showLength, showPct, showWobble } from "@/lib/format/quantities";
 import { governsLine } from "@/lib/stressing/display";
+import { storedWireBreaks } from "@/lib/schemas/record";
 import { selectTendonBasis, toLoadedTendon, type LoadedTendon } from "./load-tendon-basis";
 
 /**
@@ -74,6 +75,9 @@ const EVALUATED_RECORD_COLUMNS = [
   "draw_in_mm",
   "stressing_order",
   "wire_breaks",
+  "first_reading_mm",
+  "reread_declined_reason",
+  "wire_break_details",
 ] as const;
 
 export interface EvaluatedRecord {
@@ -99,6 +103,10 @@ export interface EvaluatedRecord {
   draw_in_mm: number | null;
   stressing_order: StressingOrder | null;
   wire_breaks: number;
+  /** The first reading when the elongation was read again finer; absent before it was asked. */
+  first_reading_mm?: number | null;
+  reread_declined_reason?: string | null;
+  wire_break_details?: unknown;
 }
 
 /** A record as it comes out of a JSON aggregate: its instants as text. */
@@ -400,6 +408,9 @@ export function judgeInputFromState(state: TendonState): JudgeInput {
     stressingOrder: r.stressing_order,
     wireBreaks: r.wire_breaks,
     restressOfDispositionId: r.restress_of_disposition_id,
+    firstReadingMm: r.first_reading_mm ?? null,
+    rereadDeclinedReason: r.reread_declined_reason ?? null,
+    wireBreakDetails: storedWireBreaks(r.wire_break_details),
   }));
   for (const r of records)
     if (!sets.has(r.equipmentSetId))
@@ -490,6 +501,8 @@ export function planEvaluation(
     role: e.role,
     day: e.day,
     measuredMm: e.record.measuredMm,
+    firstReadingMm: e.record.firstReadingMm ?? null,
+    rereadDeclinedReason: e.record.rereadDeclinedReason ?? null,
     strokeCount: e.record.strokeCount,
     drawInMm: e.record.drawInMm,
     drawInUsedMm: e.drawInUsedMm,
@@ -565,6 +578,7 @@ export function planEvaluation(
       incomplete: judgement.incomplete,
       missingEnds: judgement.missingEnds,
       divisionCouldFlip: judgement.divisionCouldFlip,
+      rereadWanted: judgement.rereadWanted,
       findings,
     }),
     verdict,

@@ -84,6 +84,7 @@ export async function importTendonSchedule(
             shop_elongation_mm: t.shopElongationMm,
             strand_lot_id: t.strandLot ? (lotId.get(t.strandLot) ?? null) : null,
             member: t.member ?? null,
+            stressing_order: t.stressingOrder ?? null,
           })),
         )
         .execute();

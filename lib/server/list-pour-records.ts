@@ -1,4 +1,5 @@
 import { stressingDay } from "@/lib/stressing/judge";
+import { storedWireBreaks, type WireBreak } from "@/lib/schemas/record";
 import "server-only";
 import type { Kysely } from "kysely";
 import { z } from "zod";
@@ -53,12 +54,19 @@ export interface PourRecord {
     seating: string | null;
     initialPressure: string | null;
     finalPressure: string | null;
+    /** The finer second reading as typed (marks: the mark after; strokes: each stroke). */
+    reread: { marksAfter: string | null; strokes: string[] | null } | null;
   };
   measuredMm: number;
+  /** The first reading when the elongation was read again finer (measuredMm is the re-read). */
+  firstReadingMm: number | null;
+  rereadDeclinedReason: string | null;
   seatingMm: number | null;
   /** Ram travel over several strokes: the draw-in per re-grip the evaluation deducted, and whose it was. */
   drawIn: { usedMm: number; source: "record" | "equipment set"; deductedMm: number } | null;
   wireBreaks: number;
+  /** Which strand and where, per broken wire; null on records made before it was asked. */
+  wireBreakDetails: WireBreak[] | null;
   remarks: string | null;
   photos: number[];
   shopElongationMm: number | null;
@@ -82,8 +90,19 @@ const enteredSchema = z.object({
   seating: z.string().nullable().catch(null),
   initialPressure: z.string().nullable().catch(null),
   finalPressure: z.string().nullable().catch(null),
+  reread: z
+    .object({ marksAfter: z.string().nullable().catch(null), strokes: z.array(z.string()).nullable().catch(null) })
+    .nullable()
+    .catch(null),
 });
-const noEntered = { marks: null, strokes: null, seating: null, initialPressure: null, finalPressure: null };
+const noEntered = {
+  marks: null,
+  strokes: null,
+  seating: null,
+  initialPressure: null,
+  finalPressure: null,
+  reread: null,
+};
 
 // Read defensively: evaluations written before a per-record basis or both predictions were stored
 // fall back to the project's basis and to Tautline's prediction governing.
@@ -144,6 +163,9 @@ export async function listPourRecords(
       "records.measured_mm",
       "records.seating_mm",
       "records.wire_breaks",
+      "records.wire_break_details",
+      "records.first_reading_mm",
+      "records.reread_declined_reason",
       "records.remarks",
       "records.device_time",
       "records.device_time_zone",
@@ -307,9 +329,12 @@ export async function listPourRecords(
       method: r.reading_method,
       entered: entered.success ? entered.data : noEntered,
       measuredMm: r.measured_mm,
+      firstReadingMm: r.first_reading_mm,
+      rereadDeclinedReason: r.reread_declined_reason,
       seatingMm: r.seating_mm,
       drawIn,
       wireBreaks: r.wire_breaks,
+      wireBreakDetails: storedWireBreaks(r.wire_break_details),
       remarks: r.remarks,
       photos: photoNumbers.get(r.id) ?? [],
       shopElongationMm: r.shop_elongation_mm,

@@ -20,6 +20,8 @@ export async function listTendonReadings(db: Kysely<Database>, input: { projectI
         "records.final_pressure_mpa",
         "records.measured_mm",
         "records.wire_breaks",
+        "records.first_reading_mm",
+        "records.reread_declined_reason",
         "records.device_time",
         "users.name as author",
         "equipment_sets.name as equipmentSet",

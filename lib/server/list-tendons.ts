@@ -18,6 +18,8 @@ export interface TendonRow {
   strandLot: string | null;
   /** The member the schedule names, or null. */
   member: string | null;
+  /** How the schedule says the two-end tendon is stressed, or null. */
+  stressingOrder: "sequential" | "simultaneous" | null;
   lengthMm: number;
   /** The prediction on the project's basis and the tendon's lot; null when the schedule cannot be computed. */
   predictedMm: number | null;
@@ -87,6 +89,7 @@ export async function listTendons(
       "tendons.jack_grip_mm",
       "tendons.shop_elongation_mm",
       "tendons.member",
+      "tendons.stressing_order",
       "strand_lots.lot_number",
       "strand_lots.area_mm2",
       "strand_lots.modulus_mpa",
@@ -132,6 +135,7 @@ export async function listTendons(
         shopElongationMm: r.shop_elongation_mm,
         strandLot: r.lot_number,
         member: r.member,
+        stressingOrder: r.stressing_order,
         lengthMm: r.segments.reduce((s, x) => s + x.lengthMm, 0),
         predictedMm: prediction?.predictedMm ?? null,
         targets: sets

@@ -5,6 +5,7 @@ import { jsonArrayFrom } from "kysely/helpers/postgres";
 import type { Database } from "@/db/types";
 import type { SessionUser } from "@/lib/auth/session";
 import type { PullResponse } from "@/lib/schemas/sync";
+import { storedWireBreaks } from "@/lib/schemas/record";
 import { recordingProjectIds } from "./require-recorder";
 
 /**
@@ -194,6 +195,7 @@ export async function pullChanges(
               "jack_grip_mm",
               "strand_lot_id",
               "shop_elongation_mm",
+              "stressing_order",
             ])
             .where("project_id", "in", projectIds)
             .where("pour_id", "in", pourIds)
@@ -263,7 +265,10 @@ export async function pullChanges(
               "records.seating_mm",
               "records.draw_in_mm",
               "records.stressing_order",
+              "records.first_reading_mm",
+              "records.reread_declined_reason",
               "records.wire_breaks",
+              "records.wire_break_details",
               "records.remarks",
               "records.device_time",
               "records.author_user_id",
@@ -405,6 +410,7 @@ export async function pullChanges(
           jackGripMm: t.jack_grip_mm,
           strandLotId: t.strand_lot_id,
           shopElongationMm: t.shop_elongation_mm,
+          stressingOrder: t.stressing_order,
         })),
         strandLots: lots.map((l) => ({
           id: l.id,
@@ -458,7 +464,10 @@ export async function pullChanges(
           seatingMm: r.seating_mm,
           drawInMm: r.draw_in_mm,
           stressingOrder: r.stressing_order,
+          firstReadingMm: r.first_reading_mm,
+          rereadDeclinedReason: r.reread_declined_reason,
           wireBreaks: r.wire_breaks,
+          wireBreakDetails: storedWireBreaks(r.wire_break_details) ?? undefined,
           remarks: r.remarks,
           deviceTime: new Date(r.device_time).toISOString(),
           authorUserId: r.author_user_id,

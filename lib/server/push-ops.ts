@@ -316,6 +316,9 @@ function asEvaluated(op: SyncOp, p: RecordPayload, receivedAt: Date): EvaluatedR
     draw_in_mm: p.drawInMm ?? null,
     stressing_order: p.stressingOrder ?? null,
     wire_breaks: p.wireBreaks,
+    first_reading_mm: p.firstReadingMm ?? null,
+    reread_declined_reason: p.rereadDeclinedReason ?? null,
+    wire_break_details: p.wireBreakDetails ?? null,
   };
 }
 
@@ -342,7 +345,15 @@ async function attemptOp(
   if (answer) return answer;
 
   const receivedAt = new Date();
-  const plan = planEvaluation(stateFromRow(read, asEvaluated(op, p, receivedAt)), {
+  const state = stateFromRow(read, asEvaluated(op, p, receivedAt));
+  // A broken wire names a strand the tendon has.
+  const strands = state.basis.tendon.strandCount;
+  const beyond = (p.wireBreakDetails ?? []).findIndex((b) => b.strand !== null && b.strand > strands);
+  if (beyond >= 0)
+    return rejected(op, "INVALID_INPUT", `Break ${beyond + 1} names a strand this tendon does not have.`, {
+      [`wireBreakDetails.${beyond}.strand`]: [`This tendon has ${strands} strand${strands > 1 ? "s" : ""}.`],
+    });
+  const plan = planEvaluation(state, {
     projectId: p.projectId,
     tendonId: p.tendonId,
     reason: "sync",
@@ -508,6 +519,9 @@ function recordValues(recordId: string, deviceId: string, p: RecordPayload, rece
     draw_in_mm: p.drawInMm ?? null,
     stressing_order: p.stressingOrder ?? null,
     wire_breaks: p.wireBreaks,
+    first_reading_mm: p.firstReadingMm ?? null,
+    reread_declined_reason: p.rereadDeclinedReason ?? null,
+    wire_break_details: p.wireBreakDetails ? JSON.stringify(p.wireBreakDetails) : null,
     remarks: p.remarks,
     device_time: p.deviceTime,
     device_time_zone: p.deviceTimeZone,

@@ -64,6 +64,8 @@ export async function updateTendon(
         strand_lot_id: v.strandLotId,
         // Absent from the body: the member stays as it was.
         ...(v.member !== undefined && { member: v.member }),
+        // Absent from the body: the schedule's stressing order stays as it was.
+        ...(v.stressingOrder !== undefined && { stressing_order: v.stressingOrder }),
         updated_at: new Date(),
       })
       .where("project_id", "=", input.projectId)

@@ -76,3 +76,26 @@ export function showPredictedAsRead(project: DisplayUnits, mm: number): string {
     ? showComputedLength(project, mm)
     : formatLength(mm, readingResolution(project.readingResolution));
 }
+
+/** The division the second reading is taken to: half the project's (1/8 in → 1/16 in, 1 mm → 0.5 mm). */
+export function finerDivision(project: Pick<DisplayUnits, "readingResolution">): string {
+  return { "1/8in": "1/16 in", "1/16in": "1/32 in", "1mm": "0.5 mm" }[project.readingResolution];
+}
+
+/**
+ * A record's second, finer reading in words, for the office screens and the report: the first
+ * reading beside the re-read that was judged, or the crew's reason it could not be taken; null when
+ * the tablet did not ask.
+ */
+export function rereadLine(
+  project: DisplayUnits,
+  r: { measuredMm: number; firstReadingMm?: number | null; rereadDeclinedReason?: string | null },
+): string | null {
+  // The first reading at the project's division; the re-read at 1/16 in where the scale has it.
+  const fine = (mm: number) =>
+    project.readingResolution === "1/8in" ? formatLength(mm, "1/16 in") : showComputedLength(project, mm);
+  if (r.firstReadingMm)
+    return `Read again to ${finerDivision(project)}: first ${formatLength(r.firstReadingMm, readingResolution(project.readingResolution))}, again ${fine(r.measuredMm)} (judged)`;
+  if (r.rereadDeclinedReason) return `Not read again finer: ${r.rereadDeclinedReason}`;
+  return null;
+}

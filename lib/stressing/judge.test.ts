@@ -284,6 +284,77 @@ describe("re-read prompt", () => {
     const clear = judgeStressing(input({ records: [record({ measuredMm: perfect })] }));
     expect(clear.divisionCouldFlip).toBe(false);
   });
+
+  // A reading is good to half its division (common practice); the second reading is taken to half
+  // the project's division, 1/16 in on a 1/8 in project, so it is good to ±1/32 in.
+  const edge = perfect * 1.07;
+  const nearEdge = edge - (3 / 64) * IN; // 3/64 in inside the upper edge
+
+  it("wants the re-read while an end that could flip was read only once", () => {
+    const j = judgeStressing(input({ records: [record({ measuredMm: nearEdge })] }));
+    // ±1/16 in around the reading straddles the edge.
+    expect(j.divisionCouldFlip).toBe(true);
+    expect(j.rereadWanted).toBe(true);
+  });
+
+  it("judges the finer reading with half the division: 3/64 in inside the edge no longer straddles it", () => {
+    const first = nearEdge + (5 / 64) * IN; // read 1/8 in-wise as past the edge
+    const j = judgeStressing(input({ records: [record({ measuredMm: nearEdge, firstReadingMm: first })] }));
+    expect(first).toBeGreaterThan(edge);
+    expect(j.verdict).toBe("in band"); // the re-read is judged, not the first reading
+    expect(j.ends[0]!.totalMm).toBeCloseTo(nearEdge, 9);
+    expect(j.divisionCouldFlip).toBe(false); // ±1/32 in stays inside
+    expect(j.rereadWanted).toBe(false);
+  });
+
+  it("a re-read that still straddles the edge is not asked for again", () => {
+    const j = judgeStressing(
+      input({ records: [record({ measuredMm: edge - IN / 64, firstReadingMm: edge - IN / 64 + IN / 16 })] }),
+    );
+    expect(j.divisionCouldFlip).toBe(true);
+    expect(j.rereadWanted).toBe(false);
+  });
+
+  it("a reason the crew could not read again settles the ask, and the division still could flip", () => {
+    const j = judgeStressing(
+      input({ records: [record({ measuredMm: nearEdge, rereadDeclinedReason: "tails already cut" })] }),
+    );
+    expect(j.divisionCouldFlip).toBe(true);
+    expect(j.rereadWanted).toBe(false);
+  });
+
+  it("on a two-end tendon each end carries its own division: one end re-read, the other not, still asks", () => {
+    const whole = judgeStressing(
+      input({
+        ends: "both",
+        records: [
+          record({ end: "A", measuredMm: 10, stressingOrder: "simultaneous" }),
+          record({ end: "B", measuredMm: 10, stressingOrder: "simultaneous" }),
+        ],
+      }),
+    );
+    const predicted = whole.predictedMm!;
+    // The sum sits 5/64 in inside the upper edge: ±(1/16 + 1/16) in straddles it, ±(1/32 + 1/16) in
+    // does too, ±(1/32 + 1/32) in does not.
+    const sum = predicted * 1.07 - (5 / 64) * IN;
+    const twoEnds = (aFirst: number | null, bFirst: number | null) =>
+      judgeStressing(
+        input({
+          ends: "both",
+          records: [
+            record({ end: "A", measuredMm: sum / 2, firstReadingMm: aFirst, stressingOrder: "simultaneous" }),
+            record({ end: "B", measuredMm: sum / 2, firstReadingMm: bFirst, stressingOrder: "simultaneous" }),
+          ],
+        }),
+      );
+    expect(twoEnds(null, null).rereadWanted).toBe(true);
+    const oneReread = twoEnds(sum / 2 + IN / 8, null);
+    expect(oneReread.divisionCouldFlip).toBe(true);
+    expect(oneReread.rereadWanted).toBe(true);
+    const bothReread = twoEnds(sum / 2 + IN / 8, sum / 2 + IN / 8);
+    expect(bothReread.divisionCouldFlip).toBe(false);
+    expect(bothReread.rereadWanted).toBe(false);
+  });
 });
 
 describe("stressingDay", () => {

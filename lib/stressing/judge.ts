@@ -11,6 +11,7 @@ import {
 } from "@/lib/elongation";
 import { dayInZone } from "@/lib/format/dates";
 import { pickCalibration } from "@/lib/schemas/pick-calibration";
+import type { WireBreak } from "@/lib/schemas/record";
 import { resolutionStepMm } from "@/lib/units";
 import { strandValues, type LotBasis, type ProjectBasis, type StrandValues, type TendonBasis } from "./basis";
 import { readingResolution, type DisplayUnits } from "@/lib/format/quantities";
@@ -111,6 +112,12 @@ export interface JudgeRecord {
   stressingOrder: StressingOrder | null;
   wireBreaks: number;
   restressOfDispositionId?: string | null;
+  /** The first, coarser reading when the elongation was read again finer; `measuredMm` is the re-read. */
+  firstReadingMm?: number | null;
+  /** Why the finer second reading the tablet asked for could not be taken. */
+  rereadDeclinedReason?: string | null;
+  /** Which strand and where, per broken wire; absent on records made before it was asked. */
+  wireBreakDetails?: WireBreak[] | null;
 }
 
 export interface JudgeInput {
@@ -216,6 +223,11 @@ export interface StressingJudgement {
    */
   divisionCouldFlip: boolean;
   /**
+   * The division could flip the verdict and an end was neither read again finer nor declined with a
+   * reason: the tablet asks for the second reading before the record is final.
+   */
+  rereadWanted: boolean;
+  /**
    * The approved shop-drawing elongation beside Tautline's prediction on the same basis (the
    * project's usual comparison basis, as the schedule states it), and their difference, when the
    * schedule gives one.
@@ -257,6 +269,9 @@ export function compareShopDrawing(input: {
   const differenceMm = shop - tautlineMm;
   return { mm: shop, basis: input.basis, tautlineMm, differenceMm, differencePct: (differenceMm / tautlineMm) * 100 };
 }
+
+/** The second reading is taken to half the project's division (1/8 in → 1/16 in, 1 mm → 0.5 mm). */
+export const REREAD_FRACTION = 0.5;
 
 /** The basis a reading method is compared on. */
 export const basisOf = (method: ReadingMethod): ComparisonBasis => (method === "marks" ? "net" : "gross");
@@ -516,6 +531,22 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
       jackingForceN: specifiedForceN,
     });
   }
+  // Each end read to within half a division; an end read again carries half of the finer division.
+  const divisionMm = resolutionStepMm(readingResolution(project.readingResolution));
+  const divisionCouldFlip =
+    comparison !== null &&
+    measuredMm !== null &&
+    predictedMm !== null &&
+    resolutionEffect({
+      measuredMm,
+      predictedMm,
+      tolerancePct: project.tolerancePct,
+      floorMm: project.shortTendonFloorMm ?? undefined,
+      resolutionMm: ends.reduce(
+        (sum, e) => sum + (e.record.firstReadingMm ? divisionMm * REREAD_FRACTION : divisionMm),
+        0,
+      ),
+    }).couldChangeVerdict;
   const bases = [...new Set(ends.map((e) => e.basis))];
   const basisLabel =
     bases.length === 1
@@ -539,17 +570,8 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
     grossMm: whole.grossMm,
     netMm,
     meetingPointMm: whole.meetingPointMm,
-    divisionCouldFlip:
-      comparison !== null &&
-      measuredMm !== null &&
-      predictedMm !== null &&
-      resolutionEffect({
-        measuredMm,
-        predictedMm,
-        tolerancePct: project.tolerancePct,
-        floorMm: project.shortTendonFloorMm ?? undefined,
-        resolutionMm: resolutionStepMm(readingResolution(project.readingResolution)) * ends.length,
-      }).couldChangeVerdict,
+    divisionCouldFlip,
+    rereadWanted: divisionCouldFlip && ends.some((e) => !e.record.firstReadingMm && !e.record.rereadDeclinedReason),
     shopDrawing,
     governs,
     governsNote,

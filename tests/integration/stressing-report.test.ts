@@ -321,6 +321,7 @@ describe("signing the stressing report", () => {
       .insertInto("records")
       .values({
         ...(rest as Omit<typeof restress, "id" | "received_at">),
+        wire_break_details: null,
         id: uuidv7(),
         revision: 2,
         base_record_id: restress.id,

@@ -300,6 +300,24 @@ const cases: Record<RuleKind, Case[]> = {
       raised: true,
       reason: /2 wire breaks/,
     },
+    {
+      name: "two, each with its strand and place",
+      change: (i) => ({
+        ...i,
+        records: [
+          rec({
+            measuredMm: P,
+            wireBreaks: 2,
+            wireBreakDetails: [
+              { strand: 3, where: "jack_end" },
+              { strand: null, where: "along_length" },
+            ],
+          }),
+        ],
+      }),
+      raised: true,
+      reason: /2 wire breaks reported at end A: strand 3, at the jack; strand not known, along the length\./,
+    },
   ],
   concrete_unconfirmed: [
     { name: "confirmed above", change: (i) => ({ ...i, records: [rec({ measuredMm: P })] }), raised: false },

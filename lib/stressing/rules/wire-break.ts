@@ -1,3 +1,4 @@
+import { wireBreakWords } from "@/lib/schemas/record";
 import type { Rule } from "./types";
 
 export const wireBreak: Rule = ({ judgement }) => {
@@ -6,7 +7,12 @@ export const wireBreak: Rule = ({ judgement }) => {
   return {
     kind: "wire_break",
     reason: bad
-      .map((e) => `${e.record.wireBreaks} wire break${e.record.wireBreaks > 1 ? "s" : ""} reported at end ${e.end}.`)
+      .map((e) => {
+        const details = e.record.wireBreakDetails?.length
+          ? `: ${e.record.wireBreakDetails.map(wireBreakWords).join("; ")}`
+          : "";
+        return `${e.record.wireBreaks} wire break${e.record.wireBreaks > 1 ? "s" : ""} reported at end ${e.end}${details}.`;
+      })
       .join(" "),
     recordId: bad[0]!.record.id,
   };

@@ -21,6 +21,7 @@ import {
   MPA_PER_KSI,
   N_PER_KIP,
 } from "@/lib/units";
+import { rereadLine } from "@/lib/stressing/display";
 import { isUuid, pageAccess } from "../../page-access";
 
 export const metadata = { title: "Tendon" };
@@ -32,6 +33,15 @@ const Figure = ({ label, value, note }: { label: string; value: string; note?: s
     {note && <p className="mt-1 text-label text-ink-soft">{note}</p>}
   </div>
 );
+
+/** The finer second reading of a record, or why it was not taken, under its elongation. */
+function RereadNote({ line }: { line: string | null }) {
+  return line ? (
+    <span className="block text-base font-normal" data-testid="reread-line">
+      {line}
+    </span>
+  ) : null;
+}
 
 export default async function TendonPage({ params }: { params: Promise<{ projectId: string; tendonId: string }> }) {
   const { projectId, tendonId } = await params;
@@ -229,6 +239,13 @@ export default async function TendonPage({ params }: { params: Promise<{ project
                     <td className="p-2 text-right font-semibold">
                       {len(r.measured_mm)}
                       {r.wire_breaks > 0 ? ` · ${r.wire_breaks} wire break${r.wire_breaks > 1 ? "s" : ""}` : ""}
+                      <RereadNote
+                        line={rereadLine(project, {
+                          measuredMm: r.measured_mm,
+                          firstReadingMm: r.first_reading_mm,
+                          rereadDeclinedReason: r.reread_declined_reason,
+                        })}
+                      />
                     </td>
                     <td className="p-2">
                       {r.author}

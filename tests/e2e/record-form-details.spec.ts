@@ -1,0 +1,181 @@
+import { expect, test, type Locator, type Page } from "@playwright/test";
+import { judgeStressing } from "@/lib/stressing/judge";
+import { formatLength, parsePressure } from "@/lib/units";
+import { PEOPLE, queryDemo, signInWithPassword } from "./people";
+import { makePourFixture, typedReading } from "./pour-fixture";
+import { screenshot } from "./support";
+
+/**
+ * The record form's second reading and wire-break details on a tablet: a mark read to 1/8 in on
+ * the band's edge makes the form ask for the mark again to 1/16 in before anything is saved; the
+ * re-read and one broken wire (its strand and place) are saved, reach the server and are stored
+ * beside the first reading. Save stays on screen with the extra step open, in both orientations.
+ */
+
+const IN = 25.4;
+const stamp = Date.now().toString(36);
+const POUR = `Re-read ${stamp}`;
+
+async function expectOnScreen(page: Page, target: Locator, what: string) {
+  const box = await target.boundingBox();
+  const view = page.viewportSize()!;
+  expect(box, `${what} is shown`).not.toBeNull();
+  expect(box!.y + box!.height, `${what}: inside the ${view.height} px screen`).toBeLessThanOrEqual(view.height);
+  await expect(target, `${what} is wholly seen`).toBeInViewport({ ratio: 1 });
+}
+
+test("a reading the division could flip is read again finer before saving; a broken wire names its strand and place", async ({
+  browser,
+}) => {
+  test.setTimeout(120_000);
+  const fx = await makePourFixture(POUR, [`RR-${stamp}-1`]);
+  const tendon = fx.tendons[0]!;
+  const [set] = await queryDemo<{ name: string }>("select name from equipment_sets where id = $1", [fx.setId]);
+  const [project] = await queryDemo<{ reading_resolution: string; jacking_force_factor: number; time_zone: string }>(
+    "select reading_resolution, jacking_force_factor, time_zone from projects where id = $1",
+    [fx.projectId],
+  );
+  expect(project!.reading_resolution).toBe("1/8in");
+
+  // The band's upper edge for marks, from the same judge the tablet runs.
+  const { psi } = typedReading(fx, 1);
+  const finalMPa = parsePressure(psi, { field: "finalPressure", system: "SI", defaultUnit: "psi" });
+  const judged = judgeStressing({
+    project: {
+      ...fx.project,
+      unitSystem: "us",
+      readingResolution: "1/8in",
+      jackingForceFactor: project!.jacking_force_factor,
+      timeZone: project!.time_zone,
+    },
+    tendon: fx.tendon,
+    lot: fx.lot,
+    sets: [
+      {
+        id: fx.setId,
+        name: "set",
+        jackGripMm: null,
+        maxForceN: null,
+        calibrations: [
+          {
+            id: fx.calibrationId,
+            calibratedOn: "2000-01-01",
+            validUntil: "2100-01-01",
+            ...fx.line,
+            minPressureMPa: 0,
+            maxPressureMPa: 1000,
+          },
+        ],
+      },
+    ],
+    records: [
+      {
+        id: "probe",
+        chainId: "probe",
+        revision: 1,
+        end: "A",
+        deviceTime: new Date(),
+        equipmentSetId: fx.setId,
+        calibrationId: fx.calibrationId,
+        expiredCalibrationReason: null,
+        readingMethod: "marks",
+        initialPressureMPa: null,
+        finalPressureMPa: finalMPa,
+        measuredMm: 100,
+        strokeCount: 1,
+        drawInMm: null,
+        seatingMm: null,
+        stressingOrder: null,
+        wireBreaks: 0,
+      },
+    ],
+  });
+  const upperMm = judged.comparison!.upperMm;
+  // The 1/8 in division nearest the edge: ±1/16 in around it always straddles the edge.
+  const firstAfter = formatLength(2 * IN + upperMm, "1/8 in").replace(/ in$/, "");
+  // Read again to 1/16 in, 1/32 in or more inside the band.
+  const sixteenth = IN / 16;
+  const fineMm = Math.floor((upperMm - IN / 32) / sixteenth) * sixteenth;
+  const fineAfter = formatLength(2 * IN + fineMm, "1/16 in").replace(/ in$/, "");
+
+  const ctx = await browser.newContext({ viewport: { width: 1280, height: 800 }, hasTouch: true });
+  const page = await ctx.newPage();
+  await signInWithPassword(page, PEOPLE.crew);
+  await page.waitForURL(/\/home/);
+  await page.goto("/field");
+  await page.getByTestId("available-pour").filter({ hasText: POUR }).getByRole("button").click();
+  await page
+    .getByTestId("ready-pour")
+    .filter({ hasText: POUR })
+    .getByRole("link", { name: "Open tendon list" })
+    .click();
+  await page.getByTestId("tendon-row").filter({ hasText: tendon.tag }).click();
+
+  const form = page.getByTestId("record-form");
+  const save = page.getByRole("button", { name: "Save record" });
+  await page.getByRole("radio", { name: new RegExp(set!.name) }).check();
+  await page.getByLabel(/Final gauge pressure/).fill(psi);
+  await page.getByLabel(/Mark before/).fill("2");
+  await page.getByLabel(/Mark after lock-off/).fill(firstAfter);
+  await save.click();
+
+  // Not saved: the form asks for the mark again to 1/16 in, with the sixteenths on the keys.
+  const step = page.getByTestId("reread-step");
+  await expect(step).toContainText("Read again to 1/16 in");
+  await expect(form.getByRole("alert").filter({ hasText: "Not saved yet" })).toBeVisible();
+  await expect(page.getByTestId("verdict")).toHaveCount(0);
+  const again = page.getByLabel(/Mark after, read again/);
+  await expect(again).toHaveAttribute("inputmode", "decimal");
+  await expect(page.getByTestId("fraction-keys").getByRole("button", { name: "7/16", exact: true })).toBeVisible();
+  for (const size of [
+    { name: "landscape", width: 1280, height: 800 },
+    { name: "portrait", width: 800, height: 1280 },
+  ]) {
+    await page.setViewportSize(size);
+    await again.scrollIntoViewIfNeeded();
+    await expectOnScreen(page, again, "the re-read box");
+    await expectOnScreen(page, save, "Save");
+    await screenshot(page, `record-reread-step-${size.name}`);
+  }
+  await page.setViewportSize({ width: 1280, height: 800 });
+
+  // Saving with neither the re-read nor a reason is refused, naming the box.
+  await save.click();
+  await expect(form.getByText("Read the elongation again to the finer division")).toBeVisible();
+
+  await again.fill(fineAfter);
+  // One broken wire: its strand and where.
+  await page.getByRole("button", { name: "Breaks, remarks, photos" }).click();
+  await page.getByLabel(/Wire breaks/).fill("1");
+  const brk = page.getByTestId("wire-break");
+  await expect(brk).toHaveCount(1);
+  await save.click();
+  await expect(brk.getByText("Break 1: type the strand's number")).toBeVisible();
+  await expect(brk.getByText("Break 1: say where the wire broke.")).toBeVisible();
+  await brk.getByLabel(/Strand \(1–/).fill("1");
+  await brk.getByText("At the far end").click();
+  await brk.scrollIntoViewIfNeeded();
+  await screenshot(page, "record-wire-break-details");
+  await save.click();
+  await expect(page.getByTestId("verdict")).toBeVisible();
+  await expect(page.getByTestId("reread")).toHaveCount(0);
+  await screenshot(page, "record-reread-saved");
+
+  // On the server: the first reading beside the re-read that was judged, the break's strand and place.
+  await expect
+    .poll(
+      async () =>
+        (await queryDemo<{ n: string }>("select count(*) as n from records where tendon_id = $1", [tendon.id]))[0]!.n,
+      { timeout: 30_000 },
+    )
+    .toBe("1");
+  const [row] = await queryDemo<{
+    measured_mm: number;
+    first_reading_mm: number;
+    wire_break_details: unknown;
+  }>("select measured_mm, first_reading_mm, wire_break_details from records where tendon_id = $1", [tendon.id]);
+  expect(row!.measured_mm).toBeCloseTo(fineMm, 6);
+  expect(row!.first_reading_mm).toBeGreaterThan(row!.measured_mm);
+  expect(row!.wire_break_details).toEqual([{ strand: 1, where: "far_end" }]);
+  await ctx.close();
+});
