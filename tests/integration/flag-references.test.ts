@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { findFlagTrail } from "@/lib/server/find-flag-trail";
+import { findFlags } from "@/lib/server/find-flags";
 import { getPourReport } from "@/lib/server/get-pour-report";
 import { seedDemo } from "@/scripts/seed/demo";
 import { createTestDatabase, type TestDatabase } from "../support/database";
@@ -16,6 +17,9 @@ beforeAll(async () => {
 afterAll(async () => {
   await t.drop();
 });
+
+const tendonOf = async (flagId: string) =>
+  (await t.db.selectFrom("flags").select("tendon_id").where("id", "=", flagId).executeTakeFirst())?.tendon_id;
 
 describe("flag and disposition references", () => {
   it("the trail's references are the stressing report's, and each is used once in the project", async () => {
@@ -53,5 +57,16 @@ describe("flag and disposition references", () => {
       .executeTakeFirstOrThrow();
     expect(seenFlags.has(`F-${String(Number(total.n)).padStart(4, "0")}`)).toBe(true);
     expect(seenFlags.has("F-0001")).toBe(true);
+
+    // The review queue names each open flag by the same reference.
+    const queue = await findFlags(t.db, { projectIds: [project.id], filter: { status: "any_open" } });
+    const queued = queue.flatMap((tendon) => tendon.flags);
+    expect(queued.length).toBeGreaterThan(0);
+    for (const f of queued) {
+      const [trail] = (
+        await findFlagTrail(t.db, { projectId: project.id, tendonId: (await tendonOf(f.id))! })
+      ).flags.filter((x) => x.id === f.id);
+      expect(f.reference).toBe(trail!.reference);
+    }
   });
 });
