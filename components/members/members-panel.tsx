@@ -99,6 +99,8 @@ export function MembersPanel(props: {
         </h2>
         <form
           className="mt-4 grid gap-4 md:grid-cols-[2fr_1fr_auto] md:items-end"
+          // The server's words beside the box, not the browser's bubble, answer a bad address.
+          noValidate
           onSubmit={async (e) => {
             e.preventDefault();
             const form = e.currentTarget;
@@ -116,13 +118,21 @@ export function MembersPanel(props: {
             <label htmlFor="invite-role" className="field-label">
               Role
             </label>
-            <select id="invite-role" name="role" className="field-input mt-1" defaultValue="crew">
+            <select
+              id="invite-role"
+              name="role"
+              className="field-input mt-1"
+              defaultValue="crew"
+              aria-invalid={fields.role ? true : undefined}
+              aria-describedby={fields.role ? "invite-role-error" : undefined}
+            >
               {ROLES.map((r) => (
                 <option key={r} value={r}>
                   {ROLE_LABELS[r]}
                 </option>
               ))}
             </select>
+            <FieldError id="invite-role-error" messages={fields.role} />
           </div>
           <button type="submit" className="btn-primary">
             Send invitation

@@ -43,13 +43,16 @@ export function DecisionSummary({
     figures.push(["Deviation", showPct(judgement.comparison.deviationPct)]);
   }
   return (
-    <section aria-labelledby="decision-summary-heading" className="card space-y-3 p-4" data-flag-id={flag?.id}>
+    <section aria-labelledby="decision-summary-heading" className="card space-y-3 p-3" data-flag-id={flag?.id}>
       <h2 id="decision-summary-heading" className="sr-only">
         The flag in question
       </h2>
       <div className="flex flex-wrap items-center gap-3">
         {flag ? (
-          <FlagChip kind={flag.kind} status={flag.status} />
+          <>
+            <span className="font-bold tabular-nums">{flag.reference}</span>
+            <FlagChip kind={flag.kind} status={flag.status} />
+          </>
         ) : (
           <span className="text-ink-soft">No flag on this tendon</span>
         )}

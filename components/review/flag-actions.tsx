@@ -40,10 +40,24 @@ function readLength(text: string, unit: "in" | "mm", field: string): { mm: numbe
   }
 }
 
-function FlagPicker({ flags, id, selected }: { flags: OpenFlag[]; id: string; selected?: string }) {
-  const chosen = selected && flags.some((f) => f.id === selected) ? selected : flags[0]?.id;
-  // One open flag: nothing to choose, so it is named, not offered.
-  if (flags.length === 1)
+/**
+ * The flag a form acts on. `selected` is the flag the page opened on; an empty string means the
+ * link named a flag that is no longer open, so nothing is chosen for the person: they pick one.
+ */
+function FlagPicker({
+  flags,
+  id,
+  selected,
+  errors,
+}: {
+  flags: OpenFlag[];
+  id: string;
+  selected?: string;
+  errors?: string[];
+}) {
+  const chosen = selected === "" ? "" : selected && flags.some((f) => f.id === selected) ? selected : flags[0]?.id;
+  // One open flag and nothing against choosing it: nothing to choose, so it is named, not offered.
+  if (flags.length === 1 && chosen)
     return (
       <p>
         <span className="text-label font-semibold uppercase text-ink-faint">Flag: </span>
@@ -56,15 +70,34 @@ function FlagPicker({ flags, id, selected }: { flags: OpenFlag[]; id: string; se
       <label htmlFor={id} className="field-label">
         Flag
       </label>
-      <select id={id} name="flagId" className="field-input mt-1" defaultValue={chosen}>
+      <select
+        id={id}
+        name="flagId"
+        className="field-input mt-1"
+        defaultValue={chosen}
+        aria-invalid={errors?.length ? true : undefined}
+        aria-describedby={errors?.length ? `${id}-error` : undefined}
+      >
+        {chosen === "" && (
+          <option value="" disabled>
+            Choose the flag
+          </option>
+        )}
         {flags.map((f) => (
           <option key={f.id} value={f.id}>
             {f.label}
           </option>
         ))}
       </select>
+      <FieldError id={`${id}-error`} messages={errors} />
     </div>
   );
+}
+
+/** The chosen flag's id, or the words to show beside the picker when none is chosen. */
+function chosenFlag(data: FormData): { id: string } | { error: string[] } {
+  const id = String(data.get("flagId") ?? "");
+  return id ? { id } : { error: ["Choose the flag this is about."] };
 }
 
 /** The inspector's findings: a note, a re-measured reading, a paperwork error, send on, close as paperwork. */
@@ -82,6 +115,7 @@ export function ReviewForm({
   const { message, fields, busy, submit } = useSubmit();
   const [kind, setKind] = useState("note");
   const [lengthError, setLengthError] = useState<string[]>();
+  const [flagError, setFlagError] = useState<string[]>();
   if (!flags.length) return null;
   return (
     <form
@@ -96,6 +130,9 @@ export function ReviewForm({
         const read =
           kind === "remeasured" ? readLength(String(data.get("remeasured") ?? ""), unit, "remeasuredMm") : null;
         setLengthError(read && "error" in read ? [read.error] : undefined);
+        const flag = chosenFlag(data);
+        setFlagError("error" in flag ? flag.error : undefined);
+        if ("error" in flag) return;
         const body = {
           kind,
           body: String(data.get("body") ?? ""),
@@ -103,7 +140,7 @@ export function ReviewForm({
         };
         if (
           await submit(
-            `/api/projects/${projectId}/flags/${String(data.get("flagId"))}/reviews`,
+            `/api/projects/${projectId}/flags/${flag.id}/reviews`,
             body,
             "Finding added to the flag's trail.",
           )
@@ -113,7 +150,7 @@ export function ReviewForm({
     >
       <h3 className="text-lead font-bold">Add a finding</h3>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
-      <FlagPicker flags={flags} id="review-flag" selected={selected} />
+      <FlagPicker flags={flags} id="review-flag" selected={selected} errors={flagError} />
       <fieldset>
         <legend className="field-label">Finding</legend>
         <div className="mt-1 flex flex-wrap gap-2">
@@ -185,6 +222,7 @@ export function DispositionForm({
   selected?: string;
 }) {
   const { message, fields, busy, submit } = useSubmit();
+  const [flagError, setFlagError] = useState<string[]>();
   if (!flags.length) return null;
   return (
     <form
@@ -194,24 +232,21 @@ export function DispositionForm({
         e.preventDefault();
         const form = e.currentTarget;
         const data = new FormData(form);
+        const flag = chosenFlag(data);
+        setFlagError("error" in flag ? flag.error : undefined);
+        if ("error" in flag) return;
         const body = {
           decision: String(data.get("decision") ?? ""),
           reasons: String(data.get("reasons") ?? ""),
           licenceStatement: String(data.get("licence") ?? ""),
         };
-        if (
-          await submit(
-            `/api/projects/${projectId}/flags/${String(data.get("flagId"))}/dispositions`,
-            body,
-            "Disposition recorded.",
-          )
-        )
+        if (await submit(`/api/projects/${projectId}/flags/${flag.id}/dispositions`, body, "Disposition recorded."))
           form.reset();
       }}
     >
       <h3 className="text-lead font-bold">Decision of the engineer of record</h3>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
-      <FlagPicker flags={flags} id="disposition-flag" selected={selected} />
+      <FlagPicker flags={flags} id="disposition-flag" selected={selected} errors={flagError} />
       <fieldset>
         <legend className="field-label">Disposition</legend>
         <div className="mt-1 grid gap-2 sm:grid-cols-3" aria-describedby="decision-error">
@@ -227,7 +262,7 @@ export function DispositionForm({
         </div>
         <FieldError id="decision-error" messages={fields.decision} />
       </fieldset>
-      <TextField id="reasons" name="reasons" rows={3} label="Reasons" errors={fields.reasons} />
+      <TextField id="reasons" name="reasons" rows={2} label="Reasons" errors={fields.reasons} />
       <TextField
         id="licence"
         name="licence"

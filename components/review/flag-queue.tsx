@@ -25,7 +25,10 @@ export function FlagQueue({ tendons, empty }: { tendons: FlaggedTendon[]; empty:
             </Link>
             <div className="mt-2 flex flex-wrap gap-2">
               {t.flags.map((f) => (
-                <FlagChip key={f.id} kind={f.kind} status={f.status} />
+                <span key={f.id} className="inline-flex items-center gap-2">
+                  <span className="font-bold tabular-nums">{f.reference}</span>
+                  <FlagChip kind={f.kind} status={f.status} />
+                </span>
               ))}
             </div>
             {t.clockSkewRecords > 0 && (

@@ -21,7 +21,7 @@ export function inWords(text: string, c: TendonCase, when: (d: Date | string) =>
   return text
     .replace(new RegExp(`disposition (${UUID})`, "gi"), (_, id: string) => {
       const d = c.dispositions.find((x) => x.id === id);
-      return d ? `the disposition of ${when(d.created_at)}` : "the engineer's disposition";
+      return d ? `disposition ${d.reference} of ${when(d.created_at)}` : "the engineer's disposition";
     })
     .replace(new RegExp(`evaluation ${UUID}`, "gi"), "the new evaluation")
     .replace(new RegExp(`record ${UUID}`, "gi"), "the record")
@@ -61,6 +61,7 @@ export function FlagTrail({
             aria-current={flag.id === selected ? "true" : undefined}
           >
             <div className="flex flex-wrap items-center gap-3">
+              <span className="font-bold tabular-nums">{flag.reference}</span>
               <FlagChip kind={flag.kind} status={flag.status} />
               <span className="text-label text-ink-faint">raised {when(flag.created_at)}</span>
             </div>
@@ -91,7 +92,7 @@ export function FlagTrail({
                   ) : (
                     <li key={item.d.id} className="rounded-md bg-concrete-100 p-3">
                       <p className="text-label font-bold uppercase">
-                        Disposition: {DECISION_LABELS[item.d.decision]} · {when(item.d.created_at)}
+                        {item.d.reference} · Disposition: {DECISION_LABELS[item.d.decision]} · {when(item.d.created_at)}
                       </p>
                       <p>{item.d.reasons}</p>
                       <p className="mt-1 text-label">

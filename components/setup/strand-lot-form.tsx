@@ -1,5 +1,6 @@
 "use client";
 
+import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { useSWRConfig } from "swr";
@@ -10,9 +11,11 @@ import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { strandLotSchema, type StrandLotInput } from "@/lib/schemas/strand-lot";
 import { STRAND_SIZES } from "@/lib/schemas/tendon";
+import type { StrandLotView } from "@/lib/server/list-strand-lots";
+import { MM2_PER_IN2, MPA_PER_KSI, N_PER_KIP } from "@/lib/units";
+import { EditPreviewDialog, type EditPreview } from "./edit-preview";
 import { strandLotsKey } from "./strand-lot-table";
-import { units } from "@/lib/client/unit-fields";
-import { MM2_PER_IN2 } from "@/lib/units";
+import { shown, units } from "@/lib/client/unit-fields";
 
 function fields(us: boolean) {
   const system = us ? "US" : "SI";
@@ -41,14 +44,34 @@ function resolver(us: boolean) {
   );
 }
 
-/** Registers a strand lot with its mill-certificate values and the certificate file. */
-export function StrandLotForm({ projectId, us }: { projectId: string; us: boolean }) {
+/** A stored lot's values as the form shows them, in the project's units. */
+function valuesOf(lot: StrandLotView, us: boolean): FormIn {
+  return {
+    lotNumber: lot.lotNumber,
+    strandSize: lot.strandSize,
+    area: shown(lot.areaMm2, us ? MM2_PER_IN2 : 1, us ? 5 : 2),
+    modulusMPa: shown(lot.modulusMPa, us ? MPA_PER_KSI : 1, 0),
+    breakingLoadN: shown(lot.breakingLoadN, us ? N_PER_KIP : 1000, 2),
+    certificateAttachmentId: lot.certificateAttachmentId ?? "",
+  };
+}
+
+/**
+ * Registers a strand lot with its mill-certificate values and the certificate file, or, given a
+ * `lot`, corrects one: before an edit that moves a value a prediction reads is saved, the edit's
+ * preview says how many stressed tendons it judges again and how many verdicts change.
+ */
+export function StrandLotForm({ projectId, us, lot }: { projectId: string; us: boolean; lot?: StrandLotView }) {
   const { mutate } = useSWRConfig();
+  const router = useRouter();
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
   const [file, setFile] = useState<UploadedFile | null>(null);
+  const [asked, setAsked] = useState<{ values: StrandLotInput; preview: EditPreview } | null>(null);
+  const [saving, setSaving] = useState(false);
+  const initial = lot ? valuesOf(lot, us) : undefined;
   const form = useForm<FormIn, unknown, StrandLotInput>({
     resolver: resolver(us),
-    defaultValues: {
+    defaultValues: initial ?? {
       lotNumber: "",
       strandSize: "0.5 in",
       area: "",
@@ -58,53 +81,130 @@ export function StrandLotForm({ projectId, us }: { projectId: string; us: boolea
     },
   });
   const errors = form.formState.errors as Record<string, { message?: string } | undefined>;
-  const onSubmit = form.handleSubmit(async (values) => {
-    const result = await sendJson("POST", `/api/projects/${projectId}/strand-lots`, values);
-    if (!result.ok) {
-      for (const [k, m] of Object.entries(result.error.fields ?? {}))
-        form.setError((k === "areaMm2" ? "area" : k) as keyof FormIn, { message: m.join(" ") });
-      setMessage({ tone: "error", text: result.error.message });
-      return;
+  const refused = (error: { message: string; fields?: Record<string, string[]> }) => {
+    for (const [k, m] of Object.entries(error.fields ?? {}))
+      form.setError((k === "areaMm2" ? "area" : k in fields(us) ? k : "root") as keyof FormIn, {
+        message: m.join(" "),
+      });
+    setMessage({ tone: "error", text: error.message });
+  };
+  /** A box left as it was shown keeps the stored value to the last digit, so it moves nothing. */
+  const unchangedKept = (values: StrandLotInput): StrandLotInput => {
+    if (!lot || !initial) return values;
+    const typed = form.getValues();
+    return {
+      ...values,
+      areaMm2: typed.area === initial.area ? lot.areaMm2 : values.areaMm2,
+      modulusMPa: typed.modulusMPa === initial.modulusMPa ? lot.modulusMPa : values.modulusMPa,
+      breakingLoadN: typed.breakingLoadN === initial.breakingLoadN ? lot.breakingLoadN : values.breakingLoadN,
+    };
+  };
+  const save = async (values: StrandLotInput) => {
+    if (!lot) return;
+    setSaving(true);
+    const result = await sendJson<{ reevaluated: number; changed: number }>(
+      "PATCH",
+      `/api/projects/${projectId}/strand-lots/${lot.id}`,
+      values,
+    );
+    setSaving(false);
+    setAsked(null);
+    if (!result.ok) return refused(result.error);
+    setMessage({
+      tone: "info",
+      text: `Lot ${values.lotNumber} saved${result.data.reevaluated ? `; ${result.data.reevaluated} stressed tendon${result.data.reevaluated === 1 ? " was" : "s were"} judged again` : ""}.`,
+    });
+    void mutate(strandLotsKey(projectId));
+    router.refresh();
+  };
+  const onSubmit = form.handleSubmit(async (typed) => {
+    setMessage(undefined);
+    if (lot) {
+      const values = unchangedKept(typed);
+      const preview = await sendJson<EditPreview>(
+        "POST",
+        `/api/projects/${projectId}/strand-lots/${lot.id}/preview`,
+        values,
+      );
+      if (!preview.ok) return refused(preview.error);
+      if (preview.data.rejudged > 0) return setAsked({ values, preview: preview.data });
+      return save(values);
     }
-    setMessage({ tone: "info", text: `Lot ${values.lotNumber} registered.` });
+    const result = await sendJson("POST", `/api/projects/${projectId}/strand-lots`, typed);
+    if (!result.ok) return refused(result.error);
+    setMessage({ tone: "info", text: `Lot ${typed.lotNumber} registered.` });
     form.reset();
     setFile(null);
     void mutate(strandLotsKey(projectId));
   });
+  // The edit form and the register form may share the page: each box keeps an id of its own.
+  const idp = lot ? "e" : "l";
   const input = (k: keyof FormIn, label: string, hint?: string) => (
     <div>
-      <label htmlFor={`l-${k}`} className="field-label">
+      <label htmlFor={`${idp}-${k}`} className="field-label">
         {label}
       </label>
       <input
-        id={`l-${k}`}
+        id={`${idp}-${k}`}
         className="field-input mt-1"
         inputMode={k === "lotNumber" ? "text" : "decimal"}
         {...form.register(k)}
         aria-invalid={errors[k] ? true : undefined}
+        aria-describedby={errors[k] ? `${idp}-${k}-error` : hint ? `${idp}-${k}-hint` : undefined}
       />
-      {hint && <p className="mt-1 text-label text-ink-faint">{hint}</p>}
-      {(errors[k]?.message || (k === "area" && errors.areaMm2?.message)) && (
-        <p className="mt-1 font-semibold text-signal-stop">{errors[k]?.message ?? errors.areaMm2?.message}</p>
+      {hint && (
+        <p id={`${idp}-${k}-hint`} className="mt-1 text-label text-ink-faint">
+          {hint}
+        </p>
+      )}
+      {errors[k]?.message && (
+        <p id={`${idp}-${k}-error`} className="mt-1 font-semibold text-signal-stop">
+          {errors[k]?.message}
+        </p>
       )}
     </div>
   );
   return (
-    <form onSubmit={onSubmit} noValidate className="card space-y-4">
-      <h2 className="text-lead font-semibold">Register a strand lot</h2>
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      className="card space-y-4"
+      id={lot ? "edit-lot" : undefined}
+      aria-labelledby={`${idp}-heading`}
+    >
+      <h2 id={`${idp}-heading`} className="text-lead font-semibold">
+        {lot ? `Edit lot ${lot.lotNumber}` : "Register a strand lot"}
+      </h2>
+      {lot && (
+        <p className="text-ink-soft">
+          A change of area, modulus or strand size judges the lot&apos;s stressed tendons again ({lot.tendonCount}{" "}
+          tendon{lot.tendonCount === 1 ? "" : "s"} use it); you are told how many verdicts change before it is saved.
+        </p>
+      )}
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
       <FormMessage tone="error">{errors.root?.message}</FormMessage>
       <div className="grid gap-4 md:grid-cols-3">
         {input("lotNumber", "Lot or heat number")}
         <div>
-          <label htmlFor="l-strandSize" className="field-label">
+          <label htmlFor={`${idp}-strandSize`} className="field-label">
             Strand size
           </label>
-          <select id="l-strandSize" className="field-input mt-1" {...form.register("strandSize")}>
+          <select
+            id={`${idp}-strandSize`}
+            className="field-input mt-1"
+            {...form.register("strandSize")}
+            aria-invalid={errors.strandSize ? true : undefined}
+            aria-describedby={errors.strandSize ? `${idp}-strandSize-error` : undefined}
+          >
             {STRAND_SIZES.map((s) => (
               <option key={s}>{s}</option>
             ))}
           </select>
+          {errors.strandSize?.message && (
+            <p id={`${idp}-strandSize-error`} className="mt-1 font-semibold text-signal-stop">
+              {errors.strandSize.message}
+            </p>
+          )}
         </div>
         {input(
           "area",
@@ -121,7 +221,7 @@ export function StrandLotForm({ projectId, us }: { projectId: string; us: boolea
       <FileUpload
         projectId={projectId}
         purpose="mill_certificate"
-        label="Mill certificate file"
+        label={lot ? "Replace the mill certificate file" : "Mill certificate file"}
         onUploaded={(f) => {
           setFile(f);
           form.setValue("certificateAttachmentId", f.id);
@@ -132,9 +232,28 @@ export function StrandLotForm({ projectId, us }: { projectId: string; us: boolea
           Attached: {file.originalName} ({(file.sizeBytes / 1024).toFixed(0)} KB, sha256 {file.sha256.slice(0, 12)}…)
         </p>
       )}
-      <button className="btn-primary" type="submit" disabled={form.formState.isSubmitting}>
-        Register lot
-      </button>
+      {errors.certificateAttachmentId?.message && (
+        <p className="font-semibold text-signal-stop">{errors.certificateAttachmentId.message}</p>
+      )}
+      <div className="flex flex-wrap items-center gap-3">
+        <button className="btn-primary" type="submit" disabled={form.formState.isSubmitting || saving}>
+          {lot ? "Save changes" : "Register lot"}
+        </button>
+        {lot && (
+          <a className="btn-quiet" href={`/projects/${projectId}/strand-lots`}>
+            Close without saving
+          </a>
+        )}
+      </div>
+      {lot && (
+        <EditPreviewDialog
+          preview={asked?.preview ?? null}
+          what={`lot ${lot.lotNumber}`}
+          busy={saving}
+          onConfirm={() => asked && void save(asked.values)}
+          onCancel={() => setAsked(null)}
+        />
+      )}
     </form>
   );
 }

@@ -1,7 +1,8 @@
 "use client";
 
+import Link from "next/link";
 import { createColumnHelper, functionalUpdate, useTable, type SortingState } from "@tanstack/react-table";
-import { useMemo } from "react";
+import { useCallback, useMemo } from "react";
 import type { StrandLotView } from "@/lib/server/list-strand-lots";
 import { compareText, readSorting, SetupTable, setupFeatures, sortingParams, useUrlView } from "./url-table";
 import { RefreshError, useRouteData } from "./use-route-data";
@@ -20,7 +21,7 @@ function Against({ pct }: { pct: number | undefined }) {
   return pct === undefined ? null : <span className="block text-label text-ink-soft">{signed(pct)}</span>;
 }
 
-function lotColumns(projectId: string, us: boolean) {
+function lotColumns(projectId: string, us: boolean, editHref: (lotId: string) => string) {
   return helper.columns([
     helper.accessor("lotNumber", {
       id: "lot",
@@ -104,6 +105,19 @@ function lotColumns(projectId: string, us: boolean) {
         );
       },
     }),
+    helper.display({
+      id: "edit",
+      header: () => <span className="sr-only">Edit</span>,
+      cell: (c) => (
+        <Link
+          href={editHref(c.row.original.id)}
+          className="inline-flex min-h-touch items-center"
+          aria-label={`Edit lot ${c.row.original.lotNumber}`}
+        >
+          Edit
+        </Link>
+      ),
+    }),
   ]);
 }
 
@@ -112,7 +126,8 @@ export function StrandLotTable(props: { projectId: string; us: boolean; initial:
   const { data, error } = useRouteData(strandLotsKey(props.projectId), props.initial);
   const { params, hrefWith, go } = useUrlView(`/projects/${props.projectId}/strand-lots`);
   const sorting = useMemo(() => readSorting(params, SORTS, null), [params]);
-  const columns = useMemo(() => lotColumns(props.projectId, props.us), [props.projectId, props.us]);
+  const editHref = useCallback((lotId: string) => `${hrefWith({ edit: lotId })}#edit-lot`, [hrefWith]);
+  const columns = useMemo(() => lotColumns(props.projectId, props.us, editHref), [props.projectId, props.us, editHref]);
   const hrefFor = (next: SortingState) => hrefWith(sortingParams(next, null));
   const table = useTable({
     features: setupFeatures,

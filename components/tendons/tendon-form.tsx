@@ -1,10 +1,12 @@
 "use client";
 
+import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useFieldArray, useForm, useWatch } from "react-hook-form";
 import { useSWRConfig } from "swr";
 import { z } from "zod";
-import { units } from "@/lib/client/unit-fields";
+import { PER, shown, units } from "@/lib/client/unit-fields";
+import { EditPreviewDialog, type EditPreview } from "@/components/setup/edit-preview";
 import { FormMessage } from "@/components/ui/form-message";
 import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
@@ -66,25 +68,63 @@ function resolver(us: boolean) {
 }
 type FormIn = { [K in keyof ReturnType<typeof fields>]: z.input<ReturnType<typeof fields>[K]> };
 
-/** Adds one tendon by hand: profile as segments, or as a drape height over equal spans. */
+/** A stored schedule row, as the edit form starts from it. */
+export type StoredTendon = Omit<TendonInput, "member"> & { id: string; member: string | null };
+
+/** A stored row as the form shows it, in the project's units; the profile as its segments. */
+function valuesOf(t: StoredTendon, us: boolean): FormIn {
+  const long = PER[us ? "ft" : "m"];
+  const short = PER[us ? "in" : "mm"];
+  return {
+    tag: t.tag,
+    kind: t.kind,
+    strandSize: t.strandSize,
+    strandCount: String(t.strandCount),
+    ends: t.ends,
+    jackGripMm: shown(t.jackGripMm, short),
+    shopElongationMm: shown(t.shopElongationMm, short),
+    strandLotId: t.strandLotId ?? "",
+    member: t.member ?? "",
+    mode: "segments",
+    segments: t.segments.map((g) => ({
+      length: shown(g.lengthMm, long),
+      angleDeg: shown((g.angleRad * 180) / Math.PI, 1),
+    })),
+    spanLength: "",
+    spans: "2",
+    drape: "",
+  };
+}
+
+/**
+ * Adds one tendon by hand: profile as segments, or as a drape height over equal spans. Given a
+ * stored `tendon`, edits its schedule row instead: before an edit that judges stressed tendons
+ * again is saved, its preview says how many and how many verdicts change.
+ */
 export function TendonForm({
   projectId,
   pourId,
   us,
   lots,
+  tendon,
 }: {
   projectId: string;
   pourId: string;
   us: boolean;
   lots: { id: string; lotNumber: string; strandSize: string }[];
+  tendon?: StoredTendon;
 }) {
   const { mutate } = useSWRConfig();
+  const router = useRouter();
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
+  const [asked, setAsked] = useState<{ values: TendonInput; preview: EditPreview } | null>(null);
+  const [saving, setSaving] = useState(false);
   const long = us ? "ft" : "m";
   const short = us ? "in" : "mm";
+  const initial = tendon ? valuesOf(tendon, us) : undefined;
   const form = useForm<FormIn, unknown, TendonInput>({
     resolver: resolver(us),
-    defaultValues: {
+    defaultValues: initial ?? {
       tag: "",
       kind: "unbonded_monostrand",
       strandSize: "0.5 in",
@@ -106,17 +146,64 @@ export function TendonForm({
   const errors = form.formState.errors as Record<string, { message?: string } | undefined>;
   const err = (k: string) => errors[k]?.message;
 
-  const onSubmit = form.handleSubmit(async (values) => {
-    const result = await sendJson("POST", `/api/projects/${projectId}/pours/${pourId}/tendons`, values);
-    if (!result.ok) {
-      for (const [k, m] of Object.entries(result.error.fields ?? {}))
-        form.setError((k.startsWith("segments") ? "segments" : k in fields(us) ? k : "root") as keyof FormIn, {
-          message: m.join(" "),
-        });
-      setMessage({ tone: "error", text: result.error.message });
-      return;
+  const refused = (error: { message: string; fields?: Record<string, string[]> }) => {
+    for (const [k, m] of Object.entries(error.fields ?? {}))
+      form.setError((k.startsWith("segments") ? "segments" : k in fields(us) ? k : "root") as keyof FormIn, {
+        message: m.join(" "),
+      });
+    setMessage({ tone: "error", text: error.message });
+  };
+  /** Boxes left as they were shown keep the stored values to the last digit, so they move nothing. */
+  const unchangedKept = (values: TendonInput): TendonInput => {
+    if (!tendon || !initial) return values;
+    const typed = form.getValues();
+    const sameProfile =
+      typed.mode === "segments" &&
+      typed.segments.length === initial.segments.length &&
+      typed.segments.every(
+        (g, i) => g.length === initial.segments[i]!.length && g.angleDeg === initial.segments[i]!.angleDeg,
+      );
+    return {
+      ...values,
+      segments: sameProfile ? tendon.segments : values.segments,
+      jackGripMm: typed.jackGripMm === initial.jackGripMm ? tendon.jackGripMm : values.jackGripMm,
+      shopElongationMm:
+        typed.shopElongationMm === initial.shopElongationMm ? tendon.shopElongationMm : values.shopElongationMm,
+    };
+  };
+  const save = async (values: TendonInput) => {
+    if (!tendon) return;
+    setSaving(true);
+    const result = await sendJson<{ reevaluated: number }>(
+      "PATCH",
+      `/api/projects/${projectId}/tendons/${tendon.id}`,
+      values,
+    );
+    setSaving(false);
+    setAsked(null);
+    if (!result.ok) return refused(result.error);
+    setMessage({
+      tone: "info",
+      text: `Tendon ${values.tag} saved${result.data.reevaluated ? `; ${result.data.reevaluated} stressed tendon${result.data.reevaluated === 1 ? " was" : "s were"} judged again` : ""}.`,
+    });
+    router.refresh();
+  };
+  const onSubmit = form.handleSubmit(async (typed) => {
+    setMessage(undefined);
+    if (tendon) {
+      const values = unchangedKept(typed);
+      const preview = await sendJson<EditPreview>(
+        "POST",
+        `/api/projects/${projectId}/tendons/${tendon.id}/preview`,
+        values,
+      );
+      if (!preview.ok) return refused(preview.error);
+      if (preview.data.rejudged > 0) return setAsked({ values, preview: preview.data });
+      return save(values);
     }
-    setMessage({ tone: "info", text: `Tendon ${values.tag} added.` });
+    const result = await sendJson("POST", `/api/projects/${projectId}/pours/${pourId}/tendons`, typed);
+    if (!result.ok) return refused(result.error);
+    setMessage({ tone: "info", text: `Tendon ${typed.tag} added.` });
     form.reset();
     void mutate(tendonsKey(projectId, pourId));
   });
@@ -132,15 +219,42 @@ export function TendonForm({
         inputMode={k === "tag" || k === "member" ? "text" : "decimal"}
         {...form.register(k)}
         aria-invalid={err(k) ? true : undefined}
+        aria-describedby={err(k) ? `t-${k}-error` : hint ? `t-${k}-hint` : undefined}
       />
-      {hint && <p className="mt-1 text-label text-ink-faint">{hint}</p>}
-      {err(k) && <p className="mt-1 font-semibold text-signal-stop">{err(k)}</p>}
+      {hint && (
+        <p id={`t-${k}-hint`} className="mt-1 text-label text-ink-faint">
+          {hint}
+        </p>
+      )}
+      {fieldMessage(k)}
     </div>
   );
+  /** The words beside a box or a choice; the box points at them. */
+  const fieldMessage = (k: string) =>
+    err(k) ? (
+      <p id={`t-${k}-error`} className="mt-1 font-semibold text-signal-stop">
+        {err(k)}
+      </p>
+    ) : null;
+  const choice = (k: "kind" | "strandSize" | "ends" | "strandLotId") => ({
+    id: `t-${k}`,
+    className: "field-input mt-1",
+    ...form.register(k),
+    "aria-invalid": err(k) ? true : undefined,
+    "aria-describedby": err(k) ? `t-${k}-error` : undefined,
+  });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="card space-y-4">
-      <h2 className="text-lead font-semibold">Add a tendon</h2>
+    <form onSubmit={onSubmit} noValidate className="card space-y-4" aria-labelledby="t-heading">
+      <h2 id="t-heading" className="text-lead font-semibold">
+        {tendon ? `Edit the schedule row of ${tendon.tag}` : "Add a tendon"}
+      </h2>
+      {tendon && (
+        <p className="text-ink-soft">
+          A change of strand, profile, ends, grip, shop-drawing elongation, lot or member judges the stressed tendons it
+          touches again; you are told how many verdicts change before it is saved.
+        </p>
+      )}
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
       <FormMessage tone="error">{form.formState.errors.root?.message}</FormMessage>
       <div className="grid gap-4 md:grid-cols-4">
@@ -149,34 +263,37 @@ export function TendonForm({
           <label htmlFor="t-kind" className="field-label">
             Type
           </label>
-          <select id="t-kind" className="field-input mt-1" {...form.register("kind")}>
+          <select {...choice("kind")}>
             {TENDON_KINDS.map((k) => (
               <option key={k} value={k}>
                 {KIND_LABELS[k]}
               </option>
             ))}
           </select>
+          {fieldMessage("kind")}
         </div>
         <div>
           <label htmlFor="t-strandSize" className="field-label">
             Strand size
           </label>
-          <select id="t-strandSize" className="field-input mt-1" {...form.register("strandSize")}>
+          <select {...choice("strandSize")}>
             {STRAND_SIZES.map((s) => (
               <option key={s}>{s}</option>
             ))}
           </select>
+          {fieldMessage("strandSize")}
         </div>
         {text("strandCount", "Strands")}
         <div>
           <label htmlFor="t-ends" className="field-label">
             Stressing end
           </label>
-          <select id="t-ends" className="field-input mt-1" {...form.register("ends")}>
+          <select {...choice("ends")}>
             <option value="A">A</option>
             <option value="B">B</option>
             <option value="both">Both</option>
           </select>
+          {fieldMessage("ends")}
         </div>
         {text("jackGripMm", `Jack grip, ${short}`, "Empty: the equipment set's value.")}
         {text("shopElongationMm", `Shop-drawing elongation, ${short}`, "When the detailer gives one.")}
@@ -189,7 +306,7 @@ export function TendonForm({
           <label htmlFor="t-strandLotId" className="field-label">
             Strand lot
           </label>
-          <select id="t-strandLotId" className="field-input mt-1" {...form.register("strandLotId")}>
+          <select {...choice("strandLotId")}>
             <option value="">None (nominal values)</option>
             {lots.map((l) => (
               <option key={l.id} value={l.id}>
@@ -197,7 +314,7 @@ export function TendonForm({
               </option>
             ))}
           </select>
-          {err("strandLotId") && <p className="mt-1 font-semibold text-signal-stop">{err("strandLotId")}</p>}
+          {fieldMessage("strandLotId")}
         </div>
       </div>
       <fieldset>
@@ -257,11 +374,20 @@ export function TendonForm({
             </button>
           </div>
         )}
-        {err("segments") && <p className="mt-1 font-semibold text-signal-stop">{err("segments")}</p>}
+        {fieldMessage("segments")}
       </fieldset>
-      <button className="btn-primary" type="submit" disabled={form.formState.isSubmitting}>
-        Add tendon
+      <button className="btn-primary" type="submit" disabled={form.formState.isSubmitting || saving}>
+        {tendon ? "Save changes" : "Add tendon"}
       </button>
+      {tendon && (
+        <EditPreviewDialog
+          preview={asked?.preview ?? null}
+          what={`tendon ${tendon.tag}`}
+          busy={saving}
+          onConfirm={() => asked && void save(asked.values)}
+          onCancel={() => setAsked(null)}
+        />
+      )}
     </form>
   );
 }

@@ -1,6 +1,7 @@
 import "server-only";
-import type { Kysely } from "kysely";
+import { sql, type Kysely } from "kysely";
 import type { Database } from "@/db/types";
+import { reference } from "@/lib/format/references";
 
 /**
  * The flags of a tendon or of a pour with their whole trail: the inspector's findings and the
@@ -31,6 +32,10 @@ export async function findFlagTrail(
         "flags.closed_at",
         "flags.close_reason",
         "users.name as closedByName",
+        // Its number in the project, in the order flags were made (as the stressing report numbers them).
+        sql<string>`(select count(*) from flags f2 where f2.project_id = flags.project_id and (f2.created_at, f2.id) <= (flags.created_at, flags.id))`.as(
+          "number",
+        ),
       ])
       .where("flags.project_id", "=", input.projectId)
       .where(scopeColumn, "=", scopeId)
@@ -66,13 +71,20 @@ export async function findFlagTrail(
         "dispositions.engineer_name",
         "dispositions.licence_statement",
         "dispositions.created_at",
+        sql<string>`(select count(*) from dispositions d2 where d2.project_id = dispositions.project_id and (d2.created_at, d2.id) <= (dispositions.created_at, dispositions.id))`.as(
+          "number",
+        ),
       ])
       .where("dispositions.project_id", "=", input.projectId)
       .where(scopeColumn, "=", scopeId)
       .orderBy("dispositions.created_at")
       .execute(),
   ]);
-  return { flags, reviews, dispositions };
+  return {
+    flags: flags.map(({ number, ...f }) => ({ ...f, reference: reference("F", Number(number)) })),
+    reviews,
+    dispositions: dispositions.map(({ number, ...d }) => ({ ...d, reference: reference("D", Number(number)) })),
+  };
 }
 
 export type FlagTrail = Awaited<ReturnType<typeof findFlagTrail>>;

@@ -1,6 +1,7 @@
 import "server-only";
 import { sql, type Kysely } from "kysely";
 import type { Database, FlagKind, FlagStatus, Verdict } from "@/db/types";
+import { reference } from "@/lib/format/references";
 import type { FlagFilter } from "@/lib/schemas/review";
 import { FUTURE_GRACE_MS } from "@/lib/stressing/clock-skew";
 
@@ -12,7 +13,8 @@ export interface FlaggedTendon {
   tendonId: string;
   tag: string;
   oldest: Date;
-  flags: { id: string; kind: FlagKind; reason: string; status: FlagStatus; createdAt: Date }[];
+  /** Each flag with its project reference ("F-0012"). */
+  flags: { id: string; reference: string; kind: FlagKind; reason: string; status: FlagStatus; createdAt: Date }[];
   /** The tendon's latest evaluation (as it stands now), not the one that raised a flag. */
   verdict: Verdict | null;
   deviationPct: number | null;
@@ -71,6 +73,10 @@ export async function findFlags(
               or records.device_time > records.received_at + make_interval(secs => ${FUTURE_GRACE_MS / 1000}))`,
           )
           .as("clockSkewRecords"),
+      // The flag's number in its project, in the order flags were made (as the stressing report numbers them).
+      sql<string>`(select count(*) from flags f2 where f2.project_id = flags.project_id and (f2.created_at, f2.id) <= (flags.created_at, flags.id))`.as(
+        "number",
+      ),
     ])
     .where("flags.project_id", "in", input.projectIds)
     .orderBy("flags.created_at");
@@ -106,7 +112,14 @@ export async function findFlags(
       };
       byTendon.set(r.tendon_id, group);
     }
-    group.flags.push({ id: r.id, kind: r.kind, reason: r.reason, status: r.status, createdAt: r.created_at });
+    group.flags.push({
+      id: r.id,
+      reference: reference("F", Number(r.number)),
+      kind: r.kind,
+      reason: r.reason,
+      status: r.status,
+      createdAt: r.created_at,
+    });
   }
   return [...byTendon.values()];
 }

@@ -1,5 +1,6 @@
 import { projectTimeZone } from "@/lib/format/dates";
 import "server-only";
+import { reference } from "@/lib/format/references";
 import { projectBasisFromRow } from "@/lib/stressing/basis";
 import type { Kysely } from "kysely";
 import type { Database, Decision, FlagKind, FlagStatus, ReviewKind } from "@/db/types";
@@ -130,8 +131,7 @@ export interface PourReport {
   } | null;
 }
 
-/** "F-0012": a flag's or a disposition's number in its project, in the order they were made. */
-export const reference = (prefix: "F" | "D", n: number) => `${prefix}-${String(n).padStart(4, "0")}`;
+export { reference };
 
 const asDay = (d: Date | string) => (typeof d === "string" ? d.slice(0, 10) : d.toISOString().slice(0, 10));
 

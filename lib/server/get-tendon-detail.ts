@@ -34,7 +34,7 @@ export interface TendonDetail {
     jackGripMm: number | null;
     shopElongationMm: number | null;
     member: string | null;
-    pour: { id: string; name: string };
+    pour: { id: string; name: string; released: boolean };
     lot: { id: string; lotNumber: string } | null;
   };
   computed:
@@ -131,7 +131,7 @@ export async function getTendonDetail(
       jackGripMm: tendon.jackGripMm,
       shopElongationMm: tendon.shopElongationMm,
       member: tendon.member ?? null,
-      pour: { id: loaded.pour.id, name: loaded.pour.name },
+      pour: { id: loaded.pour.id, name: loaded.pour.name, released: loaded.pour.status === "released" },
       lot: lot ? { id: lot.id, lotNumber: lot.lotNumber } : null,
     },
     computed,

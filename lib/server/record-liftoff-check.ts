@@ -182,13 +182,13 @@ export async function recordLiftoffCheck(
       return refused(
         op,
         "equipmentSetId",
-        `Set ${set.name} had no calibration in force on ${day}: the force cannot be known.`,
+        `${set.name} had no calibration in force on ${day}: the force cannot be known.`,
       );
     if (day > picked.valid_until)
       return refused(
         op,
         "equipmentSetId",
-        `The calibration of set ${set.name} expired on ${picked.valid_until}, before this check (${day}): use a calibrated set.`,
+        `The calibration of ${set.name} expired on ${picked.valid_until}, before this check (${day}): use a calibrated set.`,
       );
     const line = {
       slope: picked.slope_n_per_mpa,
@@ -242,7 +242,7 @@ export async function recordLiftoffCheck(
     if (!judged.withinBand) {
       const reason =
         `Lift-off check at end ${p.tendonEnd} of ${basis.tendon.tag} by ${person.name}: gauge ${readAs} ` +
-        `(${showPressure(basis.project, pressureMPa)}) on set ${set.name}, calibration of ${picked.calibrated_on}. ${line_}`;
+        `(${showPressure(basis.project, pressureMPa)}) on ${set.name}, calibration of ${picked.calibrated_on}. ${line_}`;
       const flag = await trx
         .insertInto("flags")
         .values({

@@ -30,6 +30,9 @@ test("every office page has no axe violation at all, charts included", async ({ 
   const [tendon] = await queryDemo<{ id: string }>("select id from tendons where project_id = $1 and tag = '2-2-U17'", [
     project!.id,
   ]);
+  const [lot] = await queryDemo<{ id: string }>("select id from strand_lots where project_id = $1 limit 1", [
+    project!.id,
+  ]);
   const base = `/projects/${project!.id}`;
 
   await signInWithPassword(page, PEOPLE.admin);
@@ -42,6 +45,7 @@ test("every office page has no axe violation at all, charts included", async ({ 
     `${base}/pours/${pour!.id}`,
     `${base}/tendons/${tendon!.id}`,
     `${base}/strand-lots`,
+    `${base}/strand-lots?edit=${lot!.id}`,
     `${base}/equipment`,
     `${base}/members`,
     `${base}/pours/${pour!.id}/insight`,

@@ -395,6 +395,33 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
           data: { ...tendonBody(`M-${id.slice(0, 8)}`), segments: [{ lengthMm: 9500, angleRad: 0.1 }] },
         }),
     },
+    "POST /api/projects/[projectId]/strand-lots/[strandLotId]/preview": {
+      fixture: async () => {
+        const res = await contexts.admin.post(`/api/projects/${projectId}/strand-lots`, {
+          data: { ...lotBody(`P-${stamp()}`), modulusMPa: 197_000 },
+        });
+        expect(res.status()).toBe(201);
+        return ((await res.json()) as { strandLotId: string }).strandLotId;
+      },
+      call: (c, id) =>
+        c.post(`/api/projects/${projectId}/strand-lots/${id}/preview`, {
+          data: { ...lotBody(`P-${id.slice(0, 8)}`), modulusMPa: 196_500 },
+        }),
+    },
+    "POST /api/projects/[projectId]/tendons/[tendonId]/preview": {
+      fixture: async () => {
+        const pourId = await throwawayPour();
+        const res = await contexts.admin.post(`/api/projects/${projectId}/pours/${pourId}/tendons`, {
+          data: tendonBody(`P-${stamp()}`),
+        });
+        expect(res.status()).toBe(201);
+        return ((await res.json()) as { tendonId: string }).tendonId;
+      },
+      call: (c, id) =>
+        c.post(`/api/projects/${projectId}/tendons/${id}/preview`, {
+          data: { ...tendonBody(`P-${id.slice(0, 8)}`), segments: [{ lengthMm: 9500, angleRad: 0.1 }] },
+        }),
+    },
     "GET /api/projects/[projectId]/equipment-sets": { call: (c) => c.get(`/api/projects/${projectId}/equipment-sets`) },
     "POST /api/projects/[projectId]/equipment-sets": {
       call: (c) =>

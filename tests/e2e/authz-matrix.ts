@@ -111,6 +111,8 @@ export const MATRIX: Record<string, Expected> = {
   "POST /api/projects/[projectId]/strand-lots": projectAction(201, ["admin"]),
   "PATCH /api/projects/[projectId]/strand-lots/[strandLotId]": projectAction(200, ["admin"]),
   "PATCH /api/projects/[projectId]/tendons/[tendonId]": projectAction(200, ["admin"]),
+  "POST /api/projects/[projectId]/strand-lots/[strandLotId]/preview": projectAction(200, ["admin"]),
+  "POST /api/projects/[projectId]/tendons/[tendonId]/preview": projectAction(200, ["admin"]),
   "GET /api/projects/[projectId]/equipment-sets": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
   "POST /api/projects/[projectId]/equipment-sets": projectAction(201, ["admin"]),
   "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations": projectAction(201, ["admin"]),

@@ -208,3 +208,19 @@ test("a missing or foreign pour, tendon or project answers 404 and keeps the nav
   // The engineer may read a pour's insight but not its schedule page, which is the admin's.
   expect((await page.goto(`/projects/${ayp}/pours/${own!.id}`))?.status()).toBe(404);
 });
+
+test("a bad invitation address is answered beside the box in our words, and nobody is invited", async ({ page }) => {
+  const projectId = await demoProjectId();
+  const address = `not-an-address-${stamp}`;
+  await signInWithPassword(page, PEOPLE.admin);
+  await page.waitForURL(/\/home$/);
+  await page.goto(`/projects/${projectId}/members`);
+  await page.getByLabel("E-mail").fill(address);
+  await page.getByRole("button", { name: "Send invitation" }).click();
+  // The form does not leave it to the browser's bubble: the server's message sits under the box.
+  const error = page.locator("#invite-email-error");
+  await expect(error).toBeVisible();
+  await expect(page.getByLabel("E-mail")).toHaveAccessibleDescription(await error.innerText());
+  expect(await queryDemo("select id from invitations where email = $1", [address])).toHaveLength(0);
+  await screenshot(page, "members-invite-bad-address");
+});

@@ -135,6 +135,7 @@ async function buildWorld(db: Db): Promise<World> {
     const calibration = set
       ? await db.selectFrom("calibrations").select("id").where("equipment_set_id", "=", set.id).executeTakeFirst()
       : undefined;
+    const lot = await db.selectFrom("strand_lots").select("id").where("project_id", "=", projectId).executeTakeFirst();
     const attachment = await db
       .selectFrom("attachments")
       .select("id")
@@ -149,6 +150,7 @@ async function buildWorld(db: Db): Promise<World> {
       setId: set?.id ?? MISSING_ID,
       calibrationId: calibration?.id ?? MISSING_ID,
       attachmentId: attachment?.id ?? MISSING_ID,
+      strandLotId: lot?.id ?? MISSING_ID,
       invitationId: MISSING_ID,
       linkId: MISSING_ID,
       revision: "1",
@@ -320,6 +322,25 @@ function seedBody(endpoint: string, w: World): Record<string, unknown> | null {
       modulusMPa: 197_000,
       breakingLoadN: 186_000,
       certificateAttachmentId: null,
+    },
+    "POST /api/projects/[projectId]/strand-lots/[strandLotId]/preview": {
+      lotNumber: "FZ-LOT-P",
+      strandSize: "0.5 in",
+      areaMm2: 99,
+      modulusMPa: 197_000,
+      breakingLoadN: 186_000,
+      certificateAttachmentId: null,
+    },
+    "POST /api/projects/[projectId]/tendons/[tendonId]/preview": {
+      tag: "FZ-P",
+      kind: "unbonded_monostrand",
+      strandSize: "0.5 in",
+      strandCount: 1,
+      segments: [{ lengthMm: 9000, angleRad: 0.1 }],
+      ends: "A",
+      jackGripMm: null,
+      shopElongationMm: null,
+      strandLotId: null,
     },
     "POST /api/projects/[projectId]/equipment-sets": {
       name: "Fuzz set",

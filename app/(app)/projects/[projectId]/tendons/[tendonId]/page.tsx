@@ -1,15 +1,17 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { ForceProfileChart } from "@/components/review/force-profile-chart";
+import { TendonForm } from "@/components/tendons/tendon-form";
 import { Caution } from "@/components/ui/caution";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
 import { db } from "@/db";
 import { isAppError } from "@/lib/errors";
 import { CALIBRATION_STATE_LABELS } from "@/lib/schemas/calibration";
 import { displayUnits } from "@/lib/schemas/project-settings";
-import { KIND_LABELS } from "@/lib/schemas/tendon";
+import { KIND_LABELS, type TendonInput } from "@/lib/schemas/tendon";
 import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
 import { getTendonDetail, SHOP_DRAWING_MARK_PCT } from "@/lib/server/get-tendon-detail";
+import { listStrandLots } from "@/lib/server/list-strand-lots";
 import { listTendonReadings } from "@/lib/server/list-tendon-readings";
 import {
   formatForce,
@@ -64,6 +66,7 @@ export default async function TendonPage({ params }: { params: Promise<{ project
   const pressure = (mpa: number) => formatPressure(mpa, { unit: u.pressure });
   const long = (mm: number) => (us ? `${(mm / MM_PER_FOOT).toFixed(1)} ft` : `${(mm / 1000).toFixed(2)} m`);
   const canManage = access.role === "admin";
+  const lots = canManage && !tendon.pour.released ? await listStrandLots(db, projectId) : [];
 
   return (
     <main className="space-y-6">
@@ -301,6 +304,39 @@ export default async function TendonPage({ params }: { params: Promise<{ project
           </table>
         )}
       </section>
+      {canManage &&
+        (tendon.pour.released ? (
+          <p className="card">
+            {tendon.pour.name} is released: its schedule takes no edit unless the engineer of record reopens it.
+          </p>
+        ) : (
+          <details id="edit-tendon">
+            <summary className="btn-quiet inline-flex min-h-touch cursor-pointer items-center">
+              Edit this tendon&apos;s schedule row
+            </summary>
+            <div className="mt-3">
+              <TendonForm
+                projectId={projectId}
+                pourId={tendon.pour.id}
+                us={us}
+                lots={lots.map((l) => ({ id: l.id, lotNumber: l.lotNumber, strandSize: l.strandSize }))}
+                tendon={{
+                  id: tendon.id,
+                  tag: tendon.tag,
+                  kind: tendon.kind,
+                  strandSize: tendon.strandSize as TendonInput["strandSize"],
+                  strandCount: tendon.strandCount,
+                  segments: tendon.segments,
+                  ends: tendon.ends,
+                  jackGripMm: tendon.jackGripMm,
+                  shopElongationMm: tendon.shopElongationMm,
+                  strandLotId: tendon.lot?.id ?? null,
+                  member: tendon.member,
+                }}
+              />
+            </div>
+          </details>
+        ))}
       <Caution />
     </main>
   );

@@ -41,9 +41,16 @@ export default async function TendonFlagsPage({
   const timeZone = projectTimeZone(p);
   const open = c.flags
     .filter((f) => f.status !== "closed")
-    .map((f) => ({ id: f.id, label: `${flagLabel(f.kind)} (${f.status === "open" ? "open" : "with the engineer"})` }));
-  const requested = typeof flagParam === "string" && c.flags.some((f) => f.id === flagParam) ? flagParam : undefined;
-  const selected = requested ?? open[0]?.id;
+    .map((f) => ({
+      id: f.id,
+      label: `${f.reference} · ${flagLabel(f.kind)} (${f.status === "open" ? "open" : "with the engineer"})`,
+    }));
+  const requestedFlag = typeof flagParam === "string" ? c.flags.find((f) => f.id === flagParam) : undefined;
+  const requested = requestedFlag?.id;
+  // The flag the link named, never another: when it is closed the summary shows it as closed and
+  // the forms choose nothing, so an open flag is decided only by choosing it.
+  const requestedClosed = requestedFlag !== undefined && requestedFlag.status === "closed";
+  const selected = requestedClosed ? "" : (requested ?? open[0]?.id);
   const unit = p.unitSystem === "us" ? "in" : "mm";
   const length = (mm: number) => showLength(p, mm);
   const mayDecide = can(access.role, "disposition.create");
@@ -72,7 +79,21 @@ export default async function TendonFlagsPage({
             instead.
           </p>
         )}
-        <DecisionSummary c={c} flagId={selected} timeZone={timeZone} />
+        {requestedClosed && (
+          <p
+            role="status"
+            className="rounded-md border-2 border-ink bg-concrete-100 p-3"
+            data-testid="link-flag-closed"
+          >
+            {requestedFlag.reference}, the flag in the link, is closed
+            {requestedFlag.closed_at ? ` since ${formatDateTime(requestedFlag.closed_at, timeZone)}` : ""}
+            {requestedFlag.closedByName ? ` by ${requestedFlag.closedByName}` : ""}; nothing more waits on it.
+            {open.length > 0
+              ? ` ${open.length === 1 ? "One other flag is" : `${open.length} other flags are`} open on this tendon: choose below the one you decide.`
+              : ""}
+          </p>
+        )}
+        <DecisionSummary c={c} flagId={requested ?? selected} timeZone={timeZone} />
         {open.length > 0 && (mayDecide || mayReview) ? (
           <section aria-labelledby="actions-heading" className="space-y-4">
             <h2 id="actions-heading" className="sr-only">
