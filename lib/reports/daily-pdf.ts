@@ -178,7 +178,10 @@ export async function renderDailyPdf(report: DailyReport, signature?: SignatureB
   const witnessed = dailyWitnessLines(report);
   if (!witnessed.length) text("No tendon was stressed this day.");
   keyValues(
-    witnessed.map((w) => [w.label, `Stressed: ${w.stressed}. ${w.stated[0]!.toUpperCase()}${w.stated.slice(1).replace(/\.+$/, "")}.`]),
+    witnessed.map((w) => [
+      w.label,
+      `Stressed: ${w.stressed}. ${w.stated[0]!.toUpperCase()}${w.stated.slice(1).replace(/\.+$/, "")}.`,
+    ]),
   );
 
   heading("Statement of conformance");
