@@ -1,6 +1,5 @@
 import { ForceProfileChart } from "@/components/review/force-profile-chart";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
-import type { Verdict } from "@/db/types";
 import { showComputedLength, showForce, showLength, showPct } from "@/lib/format/quantities";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
 import { N_PER_KIP, wobblePerMToPerFt } from "@/lib/units";

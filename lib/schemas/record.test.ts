@@ -7,6 +7,7 @@ import {
   recordPayloadSchema,
   type Entered,
 } from "./record";
+import { MM_PER_INCH } from "@/lib/units";
 
 // Conversion factors are exact by definition: 1 in = 25.4 mm (NIST SP 811, B.8);
 // 1 psi = 6.894 757 kPa (NIST SP 811, B.8, to seven figures).
@@ -26,8 +27,8 @@ describe("deriveFromEntered", () => {
       "marks",
     );
     expect(problems).toEqual([]);
-    // eslint-disable-next-line tautline/no-unit-factor-literal -- 1 in = 25.4 mm exactly (NIST SP 811, B.8)
-    expect(values!.measuredMm).toBeCloseTo((8.375 - 1.25) * 25.4, 9); // 180.975 mm
+    // 1 in = 25.4 mm exactly (NIST SP 811, B.8), the factor lib/units holds
+    expect(values!.measuredMm).toBeCloseTo((8.375 - 1.25) * MM_PER_INCH, 9); // 180.975 mm
     expect(values!.finalPressureMPa).toBeCloseTo(29.1441, 4); // 4227 × 6.894757 kPa
     // eslint-disable-next-line tautline/no-unit-factor-literal -- 1000 psi = 6.894757 MPa (NIST SP 811, B.8)
     expect(values!.initialPressureMPa).toBeCloseTo(6.894757, 5);
@@ -184,8 +185,8 @@ describe("the finer second reading", () => {
   it("marks: the mark after read again is judged, the first reading kept beside it", () => {
     const payload = payloadFromForm({ ...base, rereadMarksAfter: "5 7/16" }, ctx);
     // 1 in = 25.4 mm exactly (NIST SP 811, B.8): 4 1/2 in first, 4 7/16 in again.
-    expect(payload.firstReadingMm).toBeCloseTo(4.5 * 25.4, 9);
-    expect(payload.measuredMm).toBeCloseTo(4.4375 * 25.4, 9);
+    expect(payload.firstReadingMm).toBeCloseTo(4.5 * MM_PER_INCH, 9);
+    expect(payload.measuredMm).toBeCloseTo(4.4375 * MM_PER_INCH, 9);
     expect(payload.entered.marks).toEqual({ before: "1", after: "5 1/2" });
     expect(payload.entered.reread).toEqual({ marksAfter: "5 7/16", strokes: null });
     expect(payload.rereadDeclinedReason).toBeNull();
@@ -199,8 +200,8 @@ describe("the finer second reading", () => {
       strokes: [{ value: "6" }, { value: "2 1/4" }],
     };
     const payload = payloadFromForm({ ...strokes, rereadStrokes: [{ value: "6" }, { value: "2 3/16" }] }, ctx);
-    expect(payload.firstReadingMm).toBeCloseTo(8.25 * 25.4, 9);
-    expect(payload.measuredMm).toBeCloseTo(8.1875 * 25.4, 9);
+    expect(payload.firstReadingMm).toBeCloseTo(8.25 * MM_PER_INCH, 9);
+    expect(payload.measuredMm).toBeCloseTo(8.1875 * MM_PER_INCH, 9);
     const missing = recordFormSchema(formContext).safeParse({
       ...strokes,
       rereadStrokes: [{ value: "6" }, { value: "" }],

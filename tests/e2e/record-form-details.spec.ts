@@ -1,6 +1,6 @@
 import { expect, test, type Locator, type Page } from "@playwright/test";
 import { judgeStressing } from "@/lib/stressing/judge";
-import { formatLength, parsePressure } from "@/lib/units";
+import { formatLength, parsePressure, MM_PER_INCH } from "@/lib/units";
 import { PEOPLE, queryDemo, signInWithPassword } from "./people";
 import { makePourFixture, typedReading } from "./pour-fixture";
 import { screenshot } from "./support";
@@ -12,7 +12,7 @@ import { screenshot } from "./support";
  * beside the first reading. Save stays on screen with the extra step open, in both orientations.
  */
 
-const IN = 25.4;
+const IN = MM_PER_INCH;
 const stamp = Date.now().toString(36);
 const POUR = `Re-read ${stamp}`;
 

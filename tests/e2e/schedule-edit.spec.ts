@@ -3,6 +3,7 @@ import { expect, test, type Page } from "@playwright/test";
 import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
 import { makePourFixture, pushEndA, type PourFixture } from "./pour-fixture";
 import { screenshot } from "./support";
+import { MPA_PER_KSI } from "@/lib/units";
 
 /**
  * The admin corrects a strand lot and a tendon's schedule row from the office. Before an edit
@@ -75,7 +76,7 @@ test.describe("editing from the office", () => {
     await expect(form).toBeVisible();
     const modulus = form.getByLabel("Modulus, ksi");
     // The stored modulus, in ksi, as the box shows it.
-    const ksi = fx.lot!.modulusMPa / 6.894757293168;
+    const ksi = fx.lot!.modulusMPa / MPA_PER_KSI;
     await expect(modulus).toHaveValue(String(Math.round(ksi)));
 
     // Bad input is answered beside the box, and nothing is sent.
@@ -114,7 +115,7 @@ test.describe("editing from the office", () => {
     const [saved] = await queryDemo<{ modulus_mpa: number }>("select modulus_mpa from strand_lots where id = $1", [
       lotId,
     ]);
-    expect(saved!.modulus_mpa).toBeCloseTo(Math.round(ksi * 0.9) * 6.894757293168, 6);
+    expect(saved!.modulus_mpa).toBeCloseTo(Math.round(ksi * 0.9) * MPA_PER_KSI, 6);
     expect(await evaluations(fx.pourId)).toBe(before + 2);
     const reasons = await queryDemo<{ reason: string }>(
       `select distinct on (e.tendon_id) e.reason from evaluations e join tendons t on t.id = e.tendon_id

@@ -8,13 +8,14 @@ import { predictTendon } from "@/lib/stressing/basis";
 import { demoFixture, insertRecord } from "../support/records";
 import { makePour, makeProject, makeTendons } from "../support/factories";
 import { createTestDatabase, type TestDatabase } from "../support/database";
+import { MPA_PER_PSI } from "@/lib/units";
 
 // The concrete gate on real PostgreSQL: one concrete flag per pour however many tendons are
 // stressed before the strength is confirmed, the pour's strength from the lab's results by the
 // rule of lib/stressing/concrete-strength.ts, and the flag closed by results that confirm it.
 // The demo project requires 3,000 psi before stressing (its seed): 3000 × 0.006894757293168 =
 // 20.684 MPa (psi to MPa, NIST SP 811 Appendix B factor).
-const REQUIRED_MPA = 3000 * 0.006894757293168;
+const REQUIRED_MPA = 3000 * MPA_PER_PSI;
 
 let t: TestDatabase;
 let fx: Awaited<ReturnType<typeof demoFixture>>;

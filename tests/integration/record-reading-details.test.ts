@@ -3,7 +3,7 @@ import { importTendonSchedule } from "@/lib/server/import-tendon-schedule";
 import { pullChanges } from "@/lib/server/pull-changes";
 import { pushOps } from "@/lib/server/push-ops";
 import type { SyncOp } from "@/lib/schemas/sync";
-import { formatLength, parseLength } from "@/lib/units";
+import { formatLength, parseLength, MM_PER_INCH } from "@/lib/units";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 import type { RecordFormValues, RecordPayload } from "@/lib/schemas/record";
 import { buildWorld, recordPayload, type SyncWorld } from "./sync-fixtures";
@@ -45,7 +45,7 @@ describe("push: the finer second reading", () => {
     const after = await w.inBandAfter(tendon.id);
     // The first reading 1/8 in long, the re-read on the prediction (to the nearest 1/8 in).
     const first = formatLength(
-      parseLength(after, { field: "after", system: "SI", defaultUnit: "in" }) + 25.4 / 8,
+      parseLength(after, { field: "after", system: "SI", defaultUnit: "in" }) + MM_PER_INCH / 8,
       "1/8 in",
     );
     const op = createOp(tendon.id, { marksAfter: first, rereadMarksAfter: after });
