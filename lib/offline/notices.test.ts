@@ -127,8 +127,8 @@ describe("notices kept by applyPull", () => {
   });
 });
 
-describe("tablet database version 3", () => {
-  it("opens a version 2 database and keeps its data, adding the notices table", async () => {
+describe("tablet database version 3 and later", () => {
+  it("opens a version 2 database and keeps its data, adding the notices and detensions tables", async () => {
     const { factory, name } = testDb();
     const old = new Dexie(name, { indexedDB: factory, IDBKeyRange });
     old.version(1).stores({
@@ -154,11 +154,13 @@ describe("tablet database version 3", () => {
 
     const db = new FieldDb(name, { indexedDB: factory, IDBKeyRange });
     await db.open();
-    expect(db.verno).toBe(3);
+    // Version 5 (detensions) keeps every table of version 3.
+    expect(db.verno).toBe(5);
     expect(await db.pours.get("p1")).toMatchObject({ name: "Level 3 east", cursor: "5" });
     expect(await db.flags.get("f1")).toEqual(FLAG);
     expect(await db.outbox.where("opId").equals("op1").count()).toBe(1);
     expect(await db.tailCuts.get("t1")).toMatchObject({ id: "c1" });
     expect(await db.notices.count()).toBe(0);
+    expect(await db.detensions.count()).toBe(0);
   });
 });
