@@ -7,7 +7,7 @@ import { z } from "zod";
 import { FormMessage } from "@/components/ui/form-message";
 import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
-import { projectSettingsSchema, type ProjectSettings } from "@/lib/schemas/project-settings";
+import { projectSettingsSchema, settingsFields, type ProjectSettings } from "@/lib/schemas/project-settings";
 import { PER, shown, units } from "@/lib/client/unit-fields";
 import { DEFAULT_SHIFT_ENDS, formatShiftEnd, parseShiftEnds } from "@/lib/stressing/shift";
 import { METRES_PER_FOOT } from "@/lib/units";
@@ -129,7 +129,7 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
   const form = useForm<FormIn, unknown, ProjectSettings>({
     resolver: resolver(us),
     defaultValues: {
-      ...settings,
+      ...settingsFields(settings),
       address: settings.address ?? "",
       tolerancePct: String(settings.tolerancePct),
       groupTolerancePct: settings.groupTolerancePct === null ? "" : String(settings.groupTolerancePct),

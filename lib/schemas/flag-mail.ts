@@ -5,6 +5,6 @@ export const flagMailModeSchema = z.enum(["each", "digest"], {
   error: "Pick one e-mail per flag or one digest per shift.",
 });
 
-export const flagMailSchema = z.object({ mode: flagMailModeSchema });
+export const flagMailSchema = z.strictObject({ mode: flagMailModeSchema });
 
 export type FlagMailMode = z.infer<typeof flagMailModeSchema>;

@@ -143,3 +143,13 @@ export function displayUnits(project: { unitSystem: DbSystem; readingResolution:
     ? { system: "US", resolution, length: "in", longLength: "ft", pressure: "psi", force: "kip" }
     : { system: "SI", resolution, length: "mm", longLength: "m", pressure: "MPa", force: "kN" };
 }
+
+/**
+ * Exactly the fields the settings schema takes, from a wider view of the project (the screens read
+ * its id and code too): what the settings form starts from and sends, since the schema refuses any
+ * other field by name.
+ */
+export function settingsFields(view: ProjectSettings): ProjectSettings {
+  const keys = Object.keys(projectSettingsSchema.shape) as (keyof ProjectSettings)[];
+  return Object.fromEntries(keys.map((k) => [k, view[k]])) as ProjectSettings;
+}

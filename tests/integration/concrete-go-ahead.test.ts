@@ -72,6 +72,22 @@ describe("the reason to go ahead before the concrete is confirmed", () => {
     expect(await concreteFlags()).toHaveLength(1);
   });
 
+  it("is listed with the pour's concrete results, by tendon, end and who recorded it, while the pour is not released", async () => {
+    const gate = await listConcreteResults(t.db, { projectId: w.projectId, pourId: w.pourId });
+    expect(gate.met).toBe(false);
+    expect(gate.release).toBeNull();
+    // Only the first tendon's record came with a reason (the refused one was never stored).
+    expect(gate.goAheads).toEqual([
+      {
+        tag: w.tendons[0]!.tag,
+        end: expect.stringMatching(/^[AB]$/),
+        reason: REASON,
+        by: expect.any(String),
+        at: expect.any(String),
+      },
+    ]);
+  });
+
   it("adds the reasons of later records to the pour's one flag, once each", async () => {
     const LATER = "Lab phoned: 7-day breaks at 3,400 psi, report to follow.";
     const later = createOp(w, w.tendons[3]!.id, {}, { concreteGoAhead: LATER });
@@ -103,21 +119,5 @@ describe("the reason to go ahead before the concrete is confirmed", () => {
     const open = (await concreteFlags()).filter((f) => f.status === "open");
     expect(open).toHaveLength(1);
     expect(open[0]!.reason).toMatch(/No reason to go ahead came with the record\.$/);
-  });
-
-  it("is listed with the pour's concrete results, by tendon, end and who recorded it, while the pour is not released", async () => {
-    const gate = await listConcreteResults(t.db, { projectId: w.projectId, pourId: w.pourId });
-    expect(gate.met).toBe(false);
-    expect(gate.release).toBeNull();
-    // Only the first tendon's record came with a reason (the refused one was never stored).
-    expect(gate.goAheads).toEqual([
-      {
-        tag: w.tendons[0]!.tag,
-        end: expect.stringMatching(/^[AB]$/),
-        reason: REASON,
-        by: expect.any(String),
-        at: expect.any(String),
-      },
-    ]);
   });
 });

@@ -14,6 +14,7 @@ import { expectedAnchorForceN } from "@/lib/stressing/liftoff";
 import { mpaToPsi } from "@/lib/units";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 import { buildWorld, createOp, type SyncWorld } from "./sync-fixtures";
+import { settingsFields } from "@/lib/schemas/project-settings";
 
 /**
  * Lift-off checks through the sync push on real PostgreSQL: the check answers an engineer's
@@ -261,7 +262,7 @@ describe("a lift-off check outside the band", () => {
   });
 
   it("follows the project's band, as saved on the settings screen", async () => {
-    const settings = await getProjectSettings(t.db, w.projectId);
+    const settings = settingsFields(await getProjectSettings(t.db, w.projectId));
     expect(settings.liftoffBandPct).toBe(5);
     const save = (liftoffBandPct: number) =>
       updateProjectSettings(t.db, { projectId: w.projectId, values: { ...settings, liftoffBandPct }, by: w.crew.id });

@@ -10,6 +10,7 @@ import { updateProjectSettings } from "@/lib/server/update-project-settings";
 import { judgeStressing } from "@/lib/stressing/judge";
 import { demoFixture, insertRecord } from "../support/records";
 import { createTestDatabase, type TestDatabase } from "../support/database";
+import { settingsFields } from "@/lib/schemas/project-settings";
 
 // A change of the project's basis judges the stressed tendons again, on real PostgreSQL: the admin
 // sees how many verdicts it touches before saving; saving writes new evaluations with the reason,
@@ -87,7 +88,7 @@ describe("re-evaluation when the project's basis changes", () => {
     const untouched = await t.db.selectFrom("evaluations").select("id").where("tendon_id", "=", tendon.id).execute();
     expect(untouched).toHaveLength(1); // the preview wrote nothing
 
-    const settings = await getProjectSettings(t.db, fx.projectId);
+    const settings = settingsFields(await getProjectSettings(t.db, fx.projectId));
     const narrowed = await updateProjectSettings(t.db, {
       projectId: fx.projectId,
       values: { ...settings, tolerancePct: 5 },
@@ -188,7 +189,7 @@ describe("re-evaluation when the project's basis changes", () => {
         .orderBy("kind")
         .execute();
 
-    const settings = await getProjectSettings(t.db, fx.projectId);
+    const settings = settingsFields(await getProjectSettings(t.db, fx.projectId));
     await updateProjectSettings(t.db, {
       projectId: fx.projectId,
       values: { ...settings, tolerancePct: 10 },
@@ -230,7 +231,7 @@ describe("re-evaluation when the project's basis changes", () => {
       .set({ shop_elongation_mm: 0.9 * oursOnBasis })
       .where("id", "=", tendon.id)
       .execute();
-    const settings = await getProjectSettings(t.db, fx.projectId);
+    const settings = settingsFields(await getProjectSettings(t.db, fx.projectId));
     expect(settings.governing).toBe("tautline");
     const preview = await previewBasisChange(t.db, { projectId: fx.projectId, basis: { governing: "shop_drawing" } });
     expect(preview.tags).toContain("2-1-U06");
@@ -318,7 +319,7 @@ describe("re-evaluation when the project's basis changes", () => {
         .executeTakeFirstOrThrow();
       ids.push(row.id);
     }
-    const settings = await getProjectSettings(t.db, fx.projectId);
+    const settings = settingsFields(await getProjectSettings(t.db, fx.projectId));
     await updateProjectSettings(t.db, {
       projectId: fx.projectId,
       values: { ...settings, groupTolerancePct: 5 },
@@ -450,7 +451,7 @@ describe("re-evaluation when the project's basis changes", () => {
 
   it("refuses an unknown time zone by name", async () => {
     const { projectSettingsSchema } = await import("@/lib/schemas/project-settings");
-    const settings = await getProjectSettings(t.db, fx.projectId);
+    const settings = settingsFields(await getProjectSettings(t.db, fx.projectId));
     const bad = projectSettingsSchema.safeParse({ ...settings, timeZone: "Mars/Olympus" });
     expect(bad.success).toBe(false);
     expect(bad.error!.issues[0]!.path).toEqual(["timeZone"]);

@@ -175,8 +175,9 @@ async function buildWorld(db: Db): Promise<World> {
     return user;
   };
   return {
-    ids: { ...(await idsOf(ayp)), userId: throwaway.id },
-    foreign: { ...(await idsOf(qhm)), userId: (await person("crew@other.tautline.test")).id },
+    // A day in the daily report's own form, so its routes reach the body.
+    ids: { ...(await idsOf(ayp)), userId: throwaway.id, day: "2026-12-01" },
+    foreign: { ...(await idsOf(qhm)), userId: (await person("crew@other.tautline.test")).id, day: "2026-12-01" },
     users: {
       admin: await person("admin@demo.tautline.test"),
       crew: await person("crew@demo.tautline.test"),

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { projectSettingsSchema } from "@/lib/schemas/project-settings";
+import { projectSettingsSchema, settingsFields } from "@/lib/schemas/project-settings";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getProjectSettings } from "@/lib/server/get-project-settings";
 import { updateProjectSettings } from "@/lib/server/update-project-settings";
@@ -103,7 +103,7 @@ describe("the wire-break ledger of a member", () => {
     expect((await stress("B-4-2", 0)).flagKinds).not.toContain("member_wire_loss");
 
     // The engineer allows 3 %: saving the setting judges the pour again and closes the member flag.
-    const settings = await getProjectSettings(t.db, fx.projectId);
+    const settings = settingsFields(await getProjectSettings(t.db, fx.projectId));
     expect(settings.wireLossLimitPct).toBe(2);
     expect(
       projectSettingsSchema.safeParse({ ...settings, wireLossLimitPct: 20 }).error?.issues.map((i) => i.path[0]),
