@@ -9,6 +9,7 @@ import {
   showPressure,
   type StoredResolution,
 } from "@/lib/format/quantities";
+import { flagLabel } from "@/lib/schemas/flag";
 import { showBandAsRead, showPredictedAsRead } from "@/lib/stressing/display";
 
 const LOOK = {
@@ -27,12 +28,25 @@ export const units = (p: FieldProject) => ({
   readingResolution: p.readingResolution as StoredResolution,
 });
 
-export function VerdictMark({ verdict, children }: { verdict: keyof typeof LOOK; children?: React.ReactNode }) {
-  const look = LOOK[verdict];
+/** An elongation in band on a tendon something else holds: never green. */
+const HELD = { icon: "M12 5v9M12 19h.01", cls: "border-signal-stop bg-signal-stop-bg text-signal-stop" } as const;
+
+export function VerdictMark({
+  verdict,
+  held = false,
+  children,
+}: {
+  verdict: keyof typeof LOOK;
+  /** A flag holds the tendon although its elongation is in band: the mark is not the green one. */
+  held?: boolean;
+  children?: React.ReactNode;
+}) {
+  const look = held && verdict === "in band" ? { ...LOOK[verdict], ...HELD } : LOOK[verdict];
   return (
     <span
       className={`inline-flex min-h-touch items-center gap-2 rounded-md border-2 px-3 text-lead font-bold ${look.cls}`}
       data-verdict={verdict}
+      data-held={held && verdict === "in band" ? "true" : undefined}
     >
       <svg viewBox="0 0 24 24" className="h-6 w-6" aria-hidden="true">
         <path
@@ -46,6 +60,7 @@ export function VerdictMark({ verdict, children }: { verdict: keyof typeof LOOK;
       </svg>
       {look.word}
       {children}
+      {held && verdict === "in band" && <span>· held</span>}
     </span>
   );
 }
@@ -103,12 +118,16 @@ export function VerdictPanel({
     : local?.provisional
       ? "Provisional, on this tablet until sent"
       : "On this tablet until sent";
+  // What holds the tendon besides its elongation: the server's flags once it has judged, else the
+  // flags the tablet's own judge expects the server to raise (under-force, a gauge off its target…).
+  const holding = settled ? [] : server ? server.flagKinds : (local?.flagKinds ?? []);
+  const held = shown?.verdict === "in band" && holding.length > 0;
   return (
     <section aria-label="Verdict" className="card grid gap-3" data-testid="verdict">
       {local ? (
         <>
           <div className="flex flex-wrap items-center gap-3">
-            <VerdictMark verdict={shown!.verdict}>
+            <VerdictMark verdict={shown!.verdict} held={held}>
               {shown!.deviationPct !== null && (
                 <span className="tabular-nums" data-testid="deviation">
                   {showPct(shown!.deviationPct)}
@@ -119,6 +138,16 @@ export function VerdictPanel({
               {judgedBy}
             </span>
           </div>
+          {held && (
+            <p
+              className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-bold text-signal-stop"
+              role="alert"
+              data-testid="held-in-band"
+            >
+              Elongation in band, but {server ? "flagged" : "the server will flag"}: {holding.map(flagLabel).join("; ")}
+              . Do not cut the tails or grout until the engineer of record decides.
+            </p>
+          )}
           {local.measuredMm !== null &&
           local.predictedMm !== null &&
           local.lowerMm !== null &&
@@ -167,7 +196,7 @@ export function VerdictPanel({
             </p>
           ) : null}
           {!server && local.flagKinds && local.flagKinds.length > 0 && (
-            <p className="font-semibold">The server will flag: {local.flagKinds.join(", ").replaceAll("_", " ")}.</p>
+            <p className="font-semibold">The server will flag: {local.flagKinds.map(flagLabel).join("; ")}.</p>
           )}
           {local.missingEnds.length > 0 && (
             <p>
@@ -181,7 +210,7 @@ export function VerdictPanel({
               Server evaluation: <strong>{LOOK[server.verdict].word}</strong>
               {server.deviationPct !== null ? ` ${showPct(server.deviationPct)}` : ""}
               {server.provisional ? " (provisional)" : ""}
-              {server.flagKinds.length ? ` · flagged: ${server.flagKinds.join(", ").replaceAll("_", " ")}` : ""}
+              {server.flagKinds.length ? ` · flagged: ${server.flagKinds.map(flagLabel).join("; ")}` : ""}
             </p>
           ) : (
             <p className="text-ink-soft">
