@@ -9,6 +9,7 @@ import {
   showPressure,
   type StoredResolution,
 } from "@/lib/format/quantities";
+import { verdictHolds } from "@/lib/offline/hold-view";
 import { flagLabel } from "@/lib/schemas/flag";
 import { showBandAsRead, showPredictedAsRead } from "@/lib/stressing/display";
 
@@ -120,7 +121,7 @@ export function VerdictPanel({
       : "On this tablet until sent";
   // What holds the tendon besides its elongation: the server's flags once it has judged, else the
   // flags the tablet's own judge expects the server to raise (under-force, a gauge off its target…).
-  const holding = settled ? [] : server ? server.flagKinds : (local?.flagKinds ?? []);
+  const holding = verdictHolds({ settled, server, local });
   const held = shown?.verdict === "in band" && holding.length > 0;
   return (
     <section aria-label="Verdict" className="card grid gap-3" data-testid="verdict">

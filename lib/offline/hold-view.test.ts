@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { FieldFlag } from "@/lib/schemas/sync";
-import { cutClearanceOf, holdsOf, holdSummary, WAITING_INSTRUCTION } from "./hold-view";
+import { cutClearanceOf, holdsOf, holdSummary, verdictHolds, WAITING_INSTRUCTION } from "./hold-view";
 
 const flag = (over: Partial<FieldFlag>): FieldFlag => ({
   id: crypto.randomUUID(),
@@ -192,5 +192,20 @@ describe("cutClearanceOf", () => {
       pour: { concreteStrengthMpa: 15 },
     });
     expect(us.reasons).toEqual(["Confirmed concrete strength 2,176 psi is below the 3,000 psi required."]);
+  });
+});
+
+describe("verdictHolds", () => {
+  it("takes the tablet's expected flags until the server has judged, then the server's", () => {
+    const local = { flagKinds: ["under_force"] };
+    expect(verdictHolds({ settled: false, server: undefined, local })).toEqual(["under_force"]);
+    expect(verdictHolds({ settled: false, server: { flagKinds: ["wire_break"] }, local })).toEqual(["wire_break"]);
+    // The server judged and raised nothing: the tablet's expectation no longer holds the tendon.
+    expect(verdictHolds({ settled: false, server: { flagKinds: [] }, local })).toEqual([]);
+  });
+
+  it("holds nothing once every flag is closed by a decision, and nothing without a verdict", () => {
+    expect(verdictHolds({ settled: true, server: { flagKinds: ["out_of_band"] }, local: null })).toEqual([]);
+    expect(verdictHolds({ settled: false, server: null, local: null })).toEqual([]);
   });
 });

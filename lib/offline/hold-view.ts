@@ -151,3 +151,19 @@ export function cutClearanceOf(input: {
     reasons.push("The concrete gate is not on this tablet yet: sync with signal.");
   return { clear: reasons.length === 0, reasons };
 }
+
+/**
+ * The flags that hold a tendon beside its elongation verdict on the tablet: none once every flag on
+ * it is closed by a decision (`settled`); the server's flags once it has judged; before that, the
+ * flags the tablet's own judge expects the server to raise (under force, a gauge off its target…).
+ * An elongation in band with any of these is never shown green.
+ */
+export function verdictHolds(input: {
+  settled: boolean;
+  server: { flagKinds: string[] } | null | undefined;
+  local: { flagKinds?: string[] } | null;
+}): string[] {
+  if (input.settled) return [];
+  if (input.server) return input.server.flagKinds;
+  return input.local?.flagKinds ?? [];
+}
