@@ -403,7 +403,7 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
         <Row
           id="s-engineerOfRecordEmail"
           label="Engineer of record's e-mail"
-          hint="Flags are e-mailed here at once."
+          hint="Flags are e-mailed here at once, unless this engineer chose one digest per shift (their own choice, on their Today page)."
           error={err("engineerOfRecordEmail")}
         >
           <input className="field-input" type="email" {...reg("engineerOfRecordEmail")} />
