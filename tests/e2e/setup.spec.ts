@@ -125,18 +125,20 @@ test("an admin sets up a pour, imports its schedule, adds a strand lot and a cal
   await page.getByLabel(/Draw-in per re-grip/).fill("1/4");
   await page.getByRole("button", { name: "Add set" }).click();
   await expect(page.getByText(`${SET} added. Add its calibration next.`)).toBeVisible();
-  await page.getByLabel("Equipment set").selectOption({ label: SET });
+  // The add form, not the correction forms folded on each stored calibration's card.
+  const addCalibration = page.locator("form", { has: page.getByRole("heading", { name: "Add a calibration" }) });
+  await addCalibration.getByLabel("Equipment set").selectOption({ label: SET });
   const today = new Date().toISOString().slice(0, 10);
-  await page.getByLabel("Calibrated on").fill(today);
+  await addCalibration.getByLabel("Calibrated on").fill(today);
   // 1000 psi steps at 5.9 kip per 1000 psi, less 0.2 kip: an invented line for the test.
-  await page
+  await addCalibration
     .getByLabel(/Calibration points/)
     .fill([1, 2, 3, 4, 5, 6].map((k) => `${k * 1000}, ${(5.9 * k - 0.2).toFixed(2)}`).join("\n"));
-  await page
+  await addCalibration
     .getByLabel("Calibration certificate file")
     .setInputFiles({ name: "cal.pdf", mimeType: "application/pdf", buffer: CERTIFICATE });
   await expect(page.getByText("Uploaded and checked: cal.pdf.")).toBeVisible();
-  await page.getByRole("button", { name: "Save calibration" }).click();
+  await addCalibration.getByRole("button", { name: "Save calibration" }).click();
   await expect(page.getByText(/Calibration saved: r² = 1\.00000/)).toBeVisible();
   const setCard = page.locator("li", { has: page.getByRole("heading", { name: SET }) });
   await expect(setCard).toContainText(`Calibrated: calibrated ${today}`);
