@@ -339,6 +339,10 @@ export function RecordForm({
           );
         setRereadAsked(true);
         setFractionTarget(values.readingMethod === "marks" ? "rereadMarksAfter" : "rereadStrokes.0.value");
+        // Bring the new step above the sticky Save row (landscape puts it below the fold).
+        requestAnimationFrame(() =>
+          document.querySelector('[data-testid="reread-step"]')?.scrollIntoView({ block: "center" }),
+        );
         setSaveError(
           `Not saved yet: the reading division alone could change the verdict. Read the elongation again to ${finerDivision(units(ctx.project))} below, or say why it cannot be read again.`,
         );
