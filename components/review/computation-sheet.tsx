@@ -2,6 +2,7 @@ import { ForceProfileChart } from "@/components/review/force-profile-chart";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
 import { showComputedLength, showForce, showLength, showPct } from "@/lib/format/quantities";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
+import { showBandEdge } from "@/lib/stressing/display";
 import { N_PER_KIP, wobblePerMToPerFt } from "@/lib/units";
 
 const deg = (rad: number) => `${((rad * 180) / Math.PI).toFixed(2)}°`;
@@ -255,7 +256,7 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
                 />
                 <Row
                   label={`Band ±${p.tolerancePct} %${p.shortTendonFloorMm ? `, at least ±${showComputedLength(p, p.shortTendonFloorMm)}` : ""}`}
-                  value={`${showComputedLength(p, judgement.lowerMm)} to ${showComputedLength(p, judgement.upperMm)}`}
+                  value={`${showBandEdge(p, judgement.lowerMm, "lower")} to ${showBandEdge(p, judgement.upperMm, "upper")}`}
                   source="ACI 318 §26.10 practice; project rule"
                 />
                 <Row

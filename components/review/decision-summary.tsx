@@ -1,14 +1,9 @@
 import { FlagChip, VerdictBadge } from "@/components/ui/verdict-badge";
-import type { Verdict } from "@/db/types";
 import { formatDateTime } from "@/lib/format/dates";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
 import { showComputedLength, showLength, showPct } from "@/lib/format/quantities";
+import { showBandEdge } from "@/lib/stressing/display";
 import { inWords } from "./flag-trail";
-
-interface Judgement {
-  measuredMm: number;
-  comparison: { deviationPct: number; verdict: Verdict; lowerMm: number; upperMm: number };
-}
 
 /**
  * What a decision needs at a glance: the flag in question with its reason, the verdict, and the
@@ -25,7 +20,8 @@ export function DecisionSummary({
 }) {
   const p = c.basis.project;
   const flag = c.flags.find((f) => f.id === flagId) ?? c.flags.find((f) => f.status !== "closed") ?? c.flags.at(-1);
-  const judgement = (c.evaluation?.result as { judgement?: Judgement | null } | undefined)?.judgement ?? null;
+  // Read from the evaluation as stored (every judge's layout), as the calculation sheet reads it.
+  const f = c.figures;
   // Which prediction governed, with the shop drawing's value beside Tautline's (evaluations since the project chooses).
   const governs = (c.evaluation?.result as { governsLine?: unknown } | undefined)?.governsLine;
   const figures: [string, string][] = [];
@@ -34,16 +30,16 @@ export function DecisionSummary({
       `Predicted (${p.comparisonBasis === "net" ? "net" : "gross"})`,
       showComputedLength(p, c.predicted.predictedMm),
     ]);
-  if (judgement) {
-    figures.push(["Measured", showLength(p, judgement.measuredMm)]);
+  if (f) {
+    figures.push(["Measured", showLength(p, f.measuredMm)]);
     figures.push([
       `Band ±${p.tolerancePct} %`,
-      `${showComputedLength(p, judgement.comparison.lowerMm)} to ${showComputedLength(p, judgement.comparison.upperMm)}`,
+      `${showBandEdge(p, f.lowerMm, "lower")} to ${showBandEdge(p, f.upperMm, "upper")}`,
     ]);
-    figures.push(["Deviation", showPct(judgement.comparison.deviationPct)]);
+    figures.push(["Deviation", showPct(f.deviationPct)]);
   }
   return (
-    <section aria-labelledby="decision-summary-heading" className="card space-y-3 p-3" data-flag-id={flag?.id}>
+    <section aria-labelledby="decision-summary-heading" className="card space-y-2 p-3" data-flag-id={flag?.id}>
       <h2 id="decision-summary-heading" className="sr-only">
         The flag in question
       </h2>
@@ -71,7 +67,7 @@ export function DecisionSummary({
         <p>{inWords(flag.reason, c, (d) => formatDateTime(d, timeZone))}</p>
       )}
       {figures.length > 0 && (
-        <dl className="grid grid-cols-2 gap-x-4 gap-y-1 sm:grid-cols-4">
+        <dl className="grid grid-cols-2 gap-x-4 gap-y-1 sm:grid-cols-[1fr_1fr_1.7fr_1fr]">
           {figures.map(([label, value]) => (
             <div key={label}>
               <dt className="field-label">{label}</dt>

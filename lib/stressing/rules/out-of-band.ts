@@ -1,4 +1,5 @@
 import { showLength, showPct } from "@/lib/format/quantities";
+import { showBandEdge } from "../display";
 import type { Rule } from "./types";
 
 /**
@@ -14,7 +15,7 @@ export const outOfBand: Rule = ({ input, judgement: j }) => {
     reason:
       `Measured ${showLength(p, j.measuredMm)} against ${showLength(p, j.predictedMm)} predicted ` +
       `(${j.basisLabel}): ${showPct(c.deviationPct)}, ${c.verdict} of the ±${p.tolerancePct} % band ` +
-      `(${showLength(p, c.lowerMm)} to ${showLength(p, c.upperMm)}).`,
+      `(${showBandEdge(p, c.lowerMm, "lower")} to ${showBandEdge(p, c.upperMm, "upper")}, never rounded outward).`,
     recordId: j.ends.at(-1)?.record.id ?? null,
   };
 };

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { findStrandSize } from "@/lib/elongation";
 import { judgeStressing, type JudgeInput, type JudgeRecord } from "../judge";
 import { FLAG_RULES, type RuleKind } from ".";
+import { MM_PER_INCH } from "@/lib/units";
 
 // Each rule as a table of cases. Strand 0.5 in Grade 270 (ASTM A416 Table 1); jacking at 0.80·fpu·A
 // and the anchorage at 0.70·fpu·A (ACI 318-19 Table 20.3.2.5.1); ±7 % (ACI 318-11 §18.20.1, from
@@ -515,5 +516,19 @@ describe.each(Object.entries(cases))("rule %s", (kind, table) => {
       expect(finding?.kind).toBe(kind);
       expect(finding?.reason).toMatch(reason!);
     }
+  });
+});
+
+describe("the out-of-band reason's band", () => {
+  it.each([0.8, 0.925, 1.075, 1.2])("at %s of the prediction, neither edge is printed outside the band", (k) => {
+    const input = { ...base(), records: [rec({ measuredMm: P * k })] };
+    const judgement = judgeStressing(input);
+    const finding = FLAG_RULES.out_of_band({ input, judgement });
+    const m = /\(([\d.]+) (mm|in) to ([\d.]+) (mm|in), never rounded outward\)/.exec(finding!.reason);
+    expect(m).not.toBeNull();
+    const mm = (v: string, unit: string) => Number(v) * (unit === "in" ? MM_PER_INCH : 1);
+    const c = judgement.comparison!;
+    expect(mm(m![1]!, m![2]!)).toBeGreaterThanOrEqual(c.lowerMm - 1e-9);
+    expect(mm(m![3]!, m![4]!)).toBeLessThanOrEqual(c.upperMm + 1e-9);
   });
 });
