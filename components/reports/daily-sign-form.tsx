@@ -2,6 +2,7 @@
 
 import { useState } from "react";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
+import { SignerFields } from "./signer-fields";
 import { FieldError, FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
@@ -221,47 +222,7 @@ export function DailySignForm({
         />
         <FieldError id={id("remarks-error")} messages={fields.remarks} />
       </div>
-      <div className="grid gap-3 md:grid-cols-2">
-        <div>
-          <label htmlFor={id("sign-name")} className="field-label">
-            Your name as you sign
-          </label>
-          <input
-            id={id("sign-name")}
-            name="signerName"
-            defaultValue={signerName}
-            className="field-input mt-1"
-            aria-describedby={id("sign-name-error")}
-          />
-          <FieldError id={id("sign-name-error")} messages={fields.signerName} />
-        </div>
-        <div>
-          <label htmlFor={id("sign-licence")} className="field-label">
-            Licence or certification number
-          </label>
-          <input
-            id={id("sign-licence")}
-            name="licence"
-            className="field-input mt-1"
-            aria-describedby={id("sign-licence-error")}
-          />
-          <FieldError id={id("sign-licence-error")} messages={fields.licence} />
-        </div>
-      </div>
-      <div>
-        <label htmlFor={id("sign-statement")} className="field-label">
-          Statement
-        </label>
-        <textarea
-          id={id("sign-statement")}
-          name="statement"
-          rows={3}
-          defaultValue={defaultStatement}
-          className="field-input mt-1 py-2"
-          aria-describedby={id("sign-statement-error")}
-        />
-        <FieldError id={id("sign-statement-error")} messages={fields.statement} />
-      </div>
+      <SignerFields id={id} signerName={signerName} defaultStatement={defaultStatement} fields={fields} />
       <button type="submit" className="btn-primary min-h-12" disabled={busy}>
         {busy ? "Signing…" : `Sign revision ${nextRevision} of ${day}`}
       </button>

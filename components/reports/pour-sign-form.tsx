@@ -2,7 +2,8 @@
 
 import { useState } from "react";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
-import { FieldError, FormMessage } from "@/components/ui/form-message";
+import { SignerFields } from "./signer-fields";
+import { FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
 
@@ -57,47 +58,7 @@ export function PourSignForm({
       }}
     >
       <FormMessage tone="error">{message?.text}</FormMessage>
-      <div className="grid gap-3 md:grid-cols-2">
-        <div>
-          <label htmlFor={id("name")} className="field-label">
-            Your name as you sign
-          </label>
-          <input
-            id={id("name")}
-            name="signerName"
-            defaultValue={signerName}
-            className="field-input mt-1"
-            aria-describedby={id("name-error")}
-          />
-          <FieldError id={id("name-error")} messages={fields.signerName} />
-        </div>
-        <div>
-          <label htmlFor={id("licence")} className="field-label">
-            Licence or certification number
-          </label>
-          <input
-            id={id("licence")}
-            name="licence"
-            className="field-input mt-1"
-            aria-describedby={id("licence-error")}
-          />
-          <FieldError id={id("licence-error")} messages={fields.licence} />
-        </div>
-      </div>
-      <div>
-        <label htmlFor={id("statement")} className="field-label">
-          Statement
-        </label>
-        <textarea
-          id={id("statement")}
-          name="statement"
-          rows={3}
-          defaultValue={defaultStatement}
-          className="field-input mt-1 py-2"
-          aria-describedby={id("statement-error")}
-        />
-        <FieldError id={id("statement-error")} messages={fields.statement} />
-      </div>
+      <SignerFields id={id} signerName={signerName} defaultStatement={defaultStatement} fields={fields} />
       <button type="submit" className="btn-primary min-h-12" disabled={busy}>
         {busy ? "Signing…" : `Sign revision ${nextRevision}`}
       </button>
