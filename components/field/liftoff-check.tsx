@@ -13,6 +13,7 @@ import { zodFields } from "@/lib/schemas/zod-fields";
 import { stressedEnds } from "@/lib/stressing/basis";
 import { liftoffLine, liftoffPressureProblem } from "@/lib/stressing/liftoff";
 import { isInputError, parsePressure } from "@/lib/units";
+import { Problem, SetChoice } from "./follow-up-fields";
 import { useField } from "./field-provider";
 import { useLiveQuery as useLive } from "dexie-react-hooks";
 
@@ -254,31 +255,14 @@ function LiftoffForm(props: {
         <Problem id={`${ids.end}-error`} message={errors.tendonEnd} />
       </fieldset>
 
-      <fieldset aria-describedby={errors.equipmentSetId ? `${ids.set}-error` : undefined}>
-        <legend className="field-label">Equipment set</legend>
-        <div className="mt-1 grid gap-2">
-          {sets.length === 0 && <p>No equipment sets were downloaded with this pour.</p>}
-          {sets.map((s) => (
-            <label
-              key={s.id}
-              className="flex min-h-touch cursor-pointer items-center gap-3 rounded-md border-2 border-concrete-500 px-3 has-checked:border-ink has-checked:bg-concrete-100"
-            >
-              <input
-                type="radio"
-                name="liftoff-set"
-                value={s.id}
-                className="h-6 w-6"
-                checked={setId === s.id}
-                onChange={() => setSetId(s.id)}
-              />
-              <span>
-                <strong>{s.name}</strong> · gauge {s.gaugeSerial}
-              </span>
-            </label>
-          ))}
-        </div>
-        <Problem id={`${ids.set}-error`} message={errors.equipmentSetId} />
-      </fieldset>
+      <SetChoice
+        name="liftoff-set"
+        sets={sets}
+        value={setId}
+        onChange={setSetId}
+        errorId={`${ids.set}-error`}
+        error={errors.equipmentSetId}
+      />
 
       <div>
         <label htmlFor={ids.pressure} className="field-label">
@@ -311,14 +295,5 @@ function LiftoffForm(props: {
         </button>
       </div>
     </form>
-  );
-}
-
-function Problem({ id, message }: { id: string; message: string | undefined }) {
-  if (!message) return null;
-  return (
-    <p id={id} role="alert" className="mt-1 font-semibold text-signal-stop">
-      {message}
-    </p>
   );
 }
