@@ -222,7 +222,12 @@ export function DailySignForm({
         />
         <FieldError id={id("remarks-error")} messages={fields.remarks} />
       </div>
-      <SignerFields id={id} signerName={signerName} defaultStatement={defaultStatement} fields={fields} />
+      <SignerFields
+        id={(part) => id(`sign-${part}`)}
+        signerName={signerName}
+        defaultStatement={defaultStatement}
+        fields={fields}
+      />
       <button type="submit" className="btn-primary min-h-12" disabled={busy}>
         {busy ? "Signing…" : `Sign revision ${nextRevision} of ${day}`}
       </button>

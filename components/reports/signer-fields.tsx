@@ -20,44 +20,44 @@ export function SignerFields({
     <>
       <div className="grid gap-3 md:grid-cols-2">
         <div>
-          <label htmlFor={id("sign-name")} className="field-label">
+          <label htmlFor={id("name")} className="field-label">
             Your name as you sign
           </label>
           <input
-            id={id("sign-name")}
+            id={id("name")}
             name="signerName"
             defaultValue={signerName}
             className="field-input mt-1"
-            aria-describedby={id("sign-name-error")}
+            aria-describedby={id("name-error")}
           />
-          <FieldError id={id("sign-name-error")} messages={fields.signerName} />
+          <FieldError id={id("name-error")} messages={fields.signerName} />
         </div>
         <div>
-          <label htmlFor={id("sign-licence")} className="field-label">
+          <label htmlFor={id("licence")} className="field-label">
             Licence or certification number
           </label>
           <input
-            id={id("sign-licence")}
+            id={id("licence")}
             name="licence"
             className="field-input mt-1"
-            aria-describedby={id("sign-licence-error")}
+            aria-describedby={id("licence-error")}
           />
-          <FieldError id={id("sign-licence-error")} messages={fields.licence} />
+          <FieldError id={id("licence-error")} messages={fields.licence} />
         </div>
       </div>
       <div>
-        <label htmlFor={id("sign-statement")} className="field-label">
+        <label htmlFor={id("statement")} className="field-label">
           Statement
         </label>
         <textarea
-          id={id("sign-statement")}
+          id={id("statement")}
           name="statement"
           rows={3}
           defaultValue={defaultStatement}
           className="field-input mt-1 py-2"
-          aria-describedby={id("sign-statement-error")}
+          aria-describedby={id("statement-error")}
         />
-        <FieldError id={id("sign-statement-error")} messages={fields.statement} />
+        <FieldError id={id("statement-error")} messages={fields.statement} />
       </div>
     </>
   );
