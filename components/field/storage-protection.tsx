@@ -1,6 +1,5 @@
 "use client";
 import { useState } from "react";
-import { updateSyncMeta } from "@/lib/offline/db";
 import { useField } from "./field-provider";
 
 /**
@@ -19,6 +18,8 @@ export function StorageProtection({ pending }: { pending: number }) {
     setAsking(true);
     try {
       const granted = Boolean(await navigator.storage?.persist?.());
+      // Already loaded with the shell's database code (lib/offline/open-field.ts), so no wait and no signal needed.
+      const { updateSyncMeta } = await import("@/lib/offline/db");
       await updateSyncMeta(db, { storagePersisted: granted });
       setAnswer(
         granted

@@ -1,9 +1,7 @@
 "use client";
 import { useEffect, useState } from "react";
-import { EMPTY_SYNC_META, readMeta, type SyncMeta } from "@/lib/offline/db";
-import { useField } from "./field-provider";
+import { useFieldIfOpen } from "./field-provider";
 import { StorageProtection } from "./storage-protection";
-import { useLiveQuery as useLive } from "dexie-react-hooks";
 import { ago, clockTime, useNow } from "./use-live";
 
 function useOnline(): boolean {
@@ -43,13 +41,17 @@ function Item({
   );
 }
 
-/** Always on screen: what waits to be sent, since when, the last sync the server confirmed, what needs a person, and storage protection. */
+/**
+ * Always on screen: what waits to be sent, since when, the last sync the server confirmed, what needs a person, and
+ * storage protection. It paints with the page and fills in once the tablet's database is open ("…" until then).
+ */
 export function SyncStatusBar() {
-  const { db, syncNow, outbox: status } = useField();
+  const field = useFieldIfOpen();
+  const status = field?.outbox;
+  const meta = field?.syncMeta;
   const now = useNow();
   const online = useOnline();
   const [busy, setBusy] = useState(false);
-  const meta = useLive(async () => ({ ...EMPTY_SYNC_META, ...(await readMeta<SyncMeta>(db, "sync")) }), [db]);
 
   const pending = status?.pending ?? 0;
   const photos = status?.photosQueued ?? 0;
@@ -99,15 +101,17 @@ export function SyncStatusBar() {
           testId="last-sync"
           label="Last confirmed sync"
           value={
-            meta?.lastConfirmedSyncAt
-              ? `${clockTime(meta.lastConfirmedSyncAt)} (${ago(meta.lastConfirmedSyncAt, now)})`
-              : "never"
+            meta === undefined
+              ? "…"
+              : meta.lastConfirmedSyncAt
+                ? `${clockTime(meta.lastConfirmedSyncAt)} (${ago(meta.lastConfirmedSyncAt, now)})`
+                : "never"
           }
         />
         <Item
           testId="attention-count"
           label="Records the server refused"
-          value={String(status?.attention ?? 0)}
+          value={status ? String(status.attention) : "…"}
           tone={status?.attention ? "warn" : "plain"}
         />
         {photos > 0 && <Item testId="photos-waiting" label="Photos to upload" value={String(photos)} />}
@@ -123,11 +127,12 @@ export function SyncStatusBar() {
         <button
           type="button"
           className="btn-primary ml-auto"
-          disabled={busy}
+          disabled={busy || !field}
           onClick={async () => {
+            if (!field) return;
             setBusy(true);
             try {
-              await syncNow();
+              await field.syncNow();
             } finally {
               setBusy(false);
             }

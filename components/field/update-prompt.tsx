@@ -1,7 +1,7 @@
 "use client";
 import { useEffect, useRef, useState } from "react";
 import type { Workbox } from "workbox-window";
-import { useField } from "./field-provider";
+import { useFieldIfOpen } from "./field-provider";
 import { useFormDirty } from "./form-dirty";
 
 /**
@@ -10,7 +10,7 @@ import { useFormDirty } from "./form-dirty";
  * be sent, so an update never interrupts a reading or strands an op.
  */
 export function UpdatePrompt() {
-  const { outbox: status } = useField();
+  const status = useFieldIfOpen()?.outbox;
   const dirty = useFormDirty();
   const [waiting, setWaiting] = useState(false);
   const wb = useRef<Workbox | null>(null);

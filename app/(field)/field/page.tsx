@@ -1,7 +1,7 @@
-import { FieldHome } from "@/components/field/field-home";
+import { FieldHomeScreen } from "@/components/field/field-screens";
 
 export const metadata = { title: "Field log" };
 
 export default function FieldPage() {
-  return <FieldHome />;
+  return <FieldHomeScreen />;
 }

@@ -1,0 +1,58 @@
+"use client";
+import dynamic from "next/dynamic";
+import { useEffect } from "react";
+import { FieldGate } from "./field-provider";
+
+// Each field screen's code (its reads of the tablet's database, the tendon list, the signing forms)
+// loads after the page's frame has painted, fetched beside the shell's database code; the screen
+// shows once both are there. The offline worker precaches every chunk, so none of this needs signal.
+
+function Reading({ heading }: { heading?: string }) {
+  return (
+    <main className="mx-auto grid max-w-6xl gap-6 px-4 py-6">
+      {heading && <h1 className="text-figure font-bold">{heading}</h1>}
+      <p role="status">Reading the tablet&apos;s storage…</p>
+    </main>
+  );
+}
+
+const loadHome = () => import("./field-home").then((m) => m.FieldHome);
+const loadPourLog = () => import("./pour-log").then((m) => m.PourLog);
+const loadSigning = () => import("./field-signing").then((m) => m.FieldSigning);
+
+const FieldHome = dynamic(loadHome, { ssr: false, loading: () => <Reading heading="Field log" /> });
+const PourLog = dynamic(loadPourLog, { ssr: false, loading: () => <Reading /> });
+const FieldSigning = dynamic(loadSigning, {
+  ssr: false,
+  loading: () => (
+    <main className="mx-auto grid max-w-3xl gap-4 p-4">
+      <h1 className="text-figure font-bold">Sign reports</h1>
+      <p role="status">Opening…</p>
+    </main>
+  ),
+});
+
+/** The field log's landing. */
+export function FieldHomeScreen() {
+  useEffect(() => void loadHome(), []);
+  return (
+    <FieldGate placeholder={<Reading heading="Field log" />}>
+      <FieldHome />
+    </FieldGate>
+  );
+}
+
+/** A pour's tendons and the record form. */
+export function PourLogScreen() {
+  useEffect(() => void loadPourLog(), []);
+  return (
+    <FieldGate placeholder={<Reading />}>
+      <PourLog />
+    </FieldGate>
+  );
+}
+
+/** Signing the reports: reads the server, not the tablet's database, so it does not wait for it. */
+export function FieldSigningScreen() {
+  return <FieldSigning />;
+}
