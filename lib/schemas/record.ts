@@ -1,6 +1,9 @@
 import { z } from "zod";
 import { text } from "./text";
 import { isInputError, parseLength, parsePressure, type LengthUnit, type PressureUnit } from "@/lib/units";
+import { WIRE_BREAK_PLACES, type WireBreakPlace } from "./wire-break-words";
+
+export { WIRE_BREAK_PLACES, WIRE_BREAK_PLACE_WORDS, wireBreakWords, type WireBreakPlace } from "./wire-break-words";
 
 /**
  * One stressing record of one tendon end, as the crew types it on the tablet and as it travels
@@ -13,16 +16,6 @@ export const TENDON_ENDS = ["A", "B"] as const;
 export const READING_METHODS = ["marks", "strokes"] as const;
 export const MAX_STROKES = 8;
 export const STRESSING_ORDERS = ["sequential", "simultaneous"] as const;
-/** Where along the tendon a wire broke, as the crew saw it. */
-export const WIRE_BREAK_PLACES = ["jack_end", "far_end", "along_length", "not_known"] as const;
-export type WireBreakPlace = (typeof WIRE_BREAK_PLACES)[number];
-export const WIRE_BREAK_PLACE_WORDS: Record<WireBreakPlace, string> = {
-  jack_end: "at the jack",
-  far_end: "at the far end",
-  along_length: "along the length",
-  not_known: "place not known",
-};
-
 /** One broken wire: the strand it is on (its number in the tendon, null when not known) and where. */
 export const wireBreakSchema = z
   .object({
@@ -36,11 +29,6 @@ export const wireBreakSchema = z
   })
   .strict();
 export type WireBreak = z.infer<typeof wireBreakSchema>;
-
-/** "strand 3, at the jack" / "strand not known, along the length". */
-export function wireBreakWords(b: WireBreak): string {
-  return `${b.strand === null ? "strand not known" : `strand ${b.strand}`}, ${WIRE_BREAK_PLACE_WORDS[b.where]}`;
-}
 
 /** The units bare numbers are read in, from the project's unit system. */
 export interface EntryUnits {

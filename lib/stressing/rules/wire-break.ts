@@ -1,4 +1,4 @@
-import { wireBreakWords } from "@/lib/schemas/record";
+import { wireBreakWords } from "@/lib/schemas/wire-break-words";
 import type { Rule } from "./types";
 
 export const wireBreak: Rule = ({ judgement }) => {
