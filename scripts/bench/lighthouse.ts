@@ -6,6 +6,8 @@
  * against DATABASE_URL, which must hold the demo seed (npm run bench seeds it).
  * Targets: performance ≥ 95, accessibility 100, best practices 100.
  */
+import { writeFileSync } from "node:fs";
+import path from "node:path";
 import * as chromeLauncher from "chrome-launcher";
 import lighthouse from "lighthouse";
 import { report, signIn, startApp, waitForUrl } from "./harness";
@@ -52,6 +54,25 @@ try {
       (categories[id]?.auditRefs ?? [])
         .filter((ref) => ref.weight > 0 && (audits[ref.id]?.score ?? 1) < 1)
         .map((ref) => ref.id);
+    // What the figures come from: the element Lighthouse took as the largest paint, and the scripts
+    // with the most main-thread time (its bootup-time audit). The whole report is kept beside the logs.
+    const lcpItem = (
+      audits["largest-contentful-paint-element"]?.details as
+        { items?: { items?: { node?: { snippet?: string; nodeLabel?: string } }[] }[] } | undefined
+    )?.items?.[0]?.items?.[0]?.node;
+    if (lcpItem)
+      console.log(`  ${p.name} largest paint: ${lcpItem.snippet ?? ""} "${(lcpItem.nodeLabel ?? "").slice(0, 60)}"`);
+    const bootup = (
+      (audits["bootup-time"]?.details as { items?: { url: string; scripting: number }[] } | undefined)?.items ?? []
+    )
+      .slice(0, 4)
+      .map((i) => `${i.url.replace(BASE, "")} ${i.scripting.toFixed(0)} ms`);
+    if (bootup.length) console.log(`  ${p.name} script time: ${bootup.join("; ")}`);
+    if (process.env.BENCH_RESULTS)
+      writeFileSync(
+        path.join(path.dirname(process.env.BENCH_RESULTS), `lighthouse-${p.name.replace(/\W+/g, "-")}.json`),
+        JSON.stringify(result.lhr),
+      );
     if (a11y < 100)
       console.log(`  ${p.name} accessibility audits below full marks: ${failing("accessibility").join(", ")}`);
     if (bp < 100)

@@ -30,9 +30,28 @@ try {
       const sizes = await request.sizes();
       scripts.push({ url: request.url(), bytes: sizes.responseBodySize });
     });
+    const inFlight = new Set<string>();
+    const others = new Map<string, number>();
+    page.on("request", (r) => {
+      inFlight.add(r.url());
+      if (r.resourceType() !== "script") {
+        const key = `${r.method()} ${r.url().replace(BASE, "")}`;
+        others.set(key, (others.get(key) ?? 0) + 1);
+      }
+    });
+    page.on("requestfinished", (r) => inFlight.delete(r.url()));
+    page.on("requestfailed", (r) => inFlight.delete(r.url()));
     await page.goto(`${BASE}${ROUTE}`, { waitUntil: "load" });
-    await page.waitForLoadState("networkidle");
-    await page.waitForTimeout(500);
+    // Settled: no script requested for 2 s (the page's own calls to the server may go on).
+    let quietSince = Date.now();
+    let seen = 0;
+    for (const until = Date.now() + 30_000; Date.now() < until && Date.now() - quietSince < 2000;) {
+      await page.waitForTimeout(100);
+      const now = scripts.length + [...inFlight].filter((u) => u.endsWith(".js")).length;
+      if (now !== seen) [seen, quietSince] = [now, Date.now()];
+    }
+    console.log(`  other requests: ${[...others].map(([k, n]) => `${k} ×${n}`).join(", ")}`);
+    if (Date.now() - quietSince < 2000) console.log(`  still loading after 30 s: ${[...inFlight].join(", ")}`);
     const manifest = routeChunks().find((r) => r.route === ROUTE);
     if (!manifest) throw new Error(`no build manifest for ${ROUTE}`);
     const manifestKb = manifest.files.reduce((n, f) => n + gzipBytes(f), 0) / 1024;
