@@ -25,6 +25,12 @@ export function useFieldIfOpen(): FieldApi | null {
   return useContext(FieldContext);
 }
 
+// The database code starts loading as soon as this module runs in the browser, beside the page's
+// hydration rather than after it; the page has painted from the server's HTML by then.
+let opening: Promise<typeof import("@/lib/offline/open-field")> | undefined;
+const openingRuntime = () => (opening ??= import("@/lib/offline/open-field"));
+if (typeof window !== "undefined") void openingRuntime().catch(() => undefined);
+
 const openingProblem =
   "The field log could not open this tablet's storage code. Reload the page; if it keeps happening, reload once with signal.";
 
@@ -42,7 +48,7 @@ export function FieldProvider({ children }: { children: ReactNode }) {
   useEffect(() => {
     let cancelled = false;
     let stop: (() => void) | undefined;
-    import("@/lib/offline/open-field").then(
+    openingRuntime().then(
       ({ openField }) => {
         if (cancelled) return;
         const opened = openField();

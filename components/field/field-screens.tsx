@@ -1,6 +1,5 @@
 "use client";
 import dynamic from "next/dynamic";
-import { useEffect } from "react";
 import { FieldGate } from "./field-provider";
 
 // Each field screen's code (its reads of the tablet's database, the tendon list, the signing forms)
@@ -14,6 +13,11 @@ function Reading({ heading }: { heading?: string }) {
       <p role="status">Reading the tablet&apos;s storage…</p>
     </main>
   );
+}
+
+/** Starts fetching a screen's code while the page hydrates (once: the bundler keeps the promise). */
+function preload(load: () => Promise<unknown>) {
+  if (typeof window !== "undefined") void load().catch(() => undefined);
 }
 
 const loadHome = () => import("./field-home").then((m) => m.FieldHome);
@@ -34,7 +38,7 @@ const FieldSigning = dynamic(loadSigning, {
 
 /** The field log's landing. */
 export function FieldHomeScreen() {
-  useEffect(() => void loadHome(), []);
+  preload(loadHome);
   return (
     <FieldGate placeholder={<Reading heading="Field log" />}>
       <FieldHome />
@@ -44,7 +48,7 @@ export function FieldHomeScreen() {
 
 /** A pour's tendons and the record form. */
 export function PourLogScreen() {
-  useEffect(() => void loadPourLog(), []);
+  preload(loadPourLog);
   return (
     <FieldGate placeholder={<Reading />}>
       <PourLog />
