@@ -100,5 +100,7 @@ test("the crew's field log passes", async ({ page }) => {
   await expectNoSeriousViolations(page, "crew home");
   await page.goto("/field");
   await expect(page.getByRole("heading", { name: "Field log", level: 1 })).toBeVisible();
+  // The screen itself, not its placeholder: it loads with the tablet's database after the first paint.
+  await expect(page.getByRole("heading", { name: "Ready offline", level: 2 })).toBeVisible();
   await expectNoSeriousViolations(page, "field log");
 });
