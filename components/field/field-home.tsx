@@ -19,6 +19,7 @@ import { DecisionNotices } from "./decision-notices";
 import { useField } from "./field-provider";
 import { useLiveQuery as useLive } from "dexie-react-hooks";
 import { ago, clockTime, useNow } from "./use-live";
+import { countOf } from "@/lib/format/count";
 
 const DAY_MS = 86_400_000;
 const isoDay = (ms: number) => new Date(ms).toLocaleDateString("en-CA");
@@ -156,8 +157,8 @@ export function FieldHome() {
                   Ready offline
                 </p>
                 <p data-testid="ready-counts">
-                  {tendons} tendons ({stressed} with records) · {sets.length} equipment sets · {calibrations.length}{" "}
-                  calibrations · {lots} strand lots
+                  {countOf(tendons, "tendon")} ({stressed} with records) · {countOf(sets.length, "equipment set")} ·{" "}
+                  {countOf(calibrations.length, "calibration")} · {countOf(lots, "strand lot")}
                 </p>
                 <p className="text-ink-soft" data-testid="ready-age">
                   Data from {clockTime(pour.downloadedAt)} ({ago(pour.downloadedAt, now)}), kept up to date at each
@@ -228,7 +229,7 @@ export function FieldHome() {
               <div>
                 <p className="font-bold">{p.name}</p>
                 <p className="text-ink-soft">
-                  {p.projectCode} · {p.tendonCount} tendons
+                  {p.projectCode} · {countOf(p.tendonCount, "tendon")}
                   {p.plannedStressingDate ? ` · stressing ${p.plannedStressingDate}` : ""}
                 </p>
                 {p.status === "released" && <ReleasedMark />}

@@ -24,6 +24,7 @@ import { CutAllClear, TailCutPanel } from "./tail-cut";
 import { useLiveQuery as useLive } from "dexie-react-hooks";
 import { mmToFt } from "@/lib/units";
 import { units, VerdictPanel } from "./verdict-panel";
+import { countOf } from "@/lib/format/count";
 
 // The record form and its checks (zod, react-hook-form) and the hold panel with its lift-off check
 // load once a tendon is chosen, not with the tendon list; the offline worker keeps their chunks with
@@ -258,7 +259,7 @@ export function PourLog() {
           </a>
         </div>
         <p className="text-ink-soft" data-testid="pour-progress">
-          {project.code} · {tendons.length} tendons · {stressedCount} stressed
+          {project.code} · {countOf(tendons.length, "tendon")} · {stressedCount} stressed
           {flaggedCount ? ` (${flaggedCount} flagged)` : ""}
         </p>
         <PourReleaseNote pour={pour} />

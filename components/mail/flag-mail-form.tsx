@@ -45,7 +45,7 @@ export function FlagMailForm(props: { projectId: string; mode: FlagMailMode; shi
             type="radio"
             name="mode"
             value="each"
-            className="mt-1 size-5"
+            className="mt-1 size-5 shrink-0"
             checked={mode === "each"}
             onChange={() => setMode("each")}
           />
@@ -58,7 +58,7 @@ export function FlagMailForm(props: { projectId: string; mode: FlagMailMode; shi
             type="radio"
             name="mode"
             value="digest"
-            className="mt-1 size-5"
+            className="mt-1 size-5 shrink-0"
             checked={mode === "digest"}
             onChange={() => setMode("digest")}
           />

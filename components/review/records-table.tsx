@@ -25,7 +25,7 @@ export function RecordsTable({
   // The Map above keeps the last revision of each chain, since records come ordered by revision.
   return (
     <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Stressing records, scrolls sideways">
-      <table className="w-full min-w-[720px] bg-white">
+      <table className="w-full min-w-[36rem] bg-white">
         <thead>
           <tr className="border-b-2 border-ink text-left text-label uppercase">
             <th className="p-2">End</th>
@@ -47,7 +47,9 @@ export function RecordsTable({
               >
                 <td className="p-2 font-bold">{r.tendon_end}</td>
                 <td className="p-2">
-                  <span className="whitespace-nowrap">{formatDateTime(r.device_time, timeZone)}</span>
+                  <span className="whitespace-nowrap xl:whitespace-normal">
+                    {formatDateTime(r.device_time, timeZone)}
+                  </span>
                   {r.skew && (
                     <span className="mt-1 block border-l-4 border-signal-stop pl-2 font-bold" data-clock-skew>
                       Check the time:{" "}

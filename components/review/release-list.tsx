@@ -1,6 +1,7 @@
 import { ReleaseForm, ReopenForm } from "@/components/review/release-card";
 import { formatDateTime } from "@/lib/format/dates";
 import type { ReleaseCandidate } from "@/lib/server/find-release-candidates";
+import { countOf } from "@/lib/format/count";
 
 const STATUS_WORDS: Record<ReleaseCandidate["status"], string> = {
   planned: "Planned: no record yet",
@@ -61,8 +62,8 @@ export function ReleaseList({
             ) : (
               <>
                 <p className="mt-2">
-                  {p.tendonCount} tendons · {openTendons.length} with open flags · {p.blockers.unstressed.length} with
-                  ends not recorded
+                  {countOf(p.tendonCount, "tendon")} · {openTendons.length} with open flags ·{" "}
+                  {p.blockers.unstressed.length} with ends not recorded
                 </p>
                 {p.blockers.noSchedule && (
                   <p className="mt-1 text-ink-soft">No tendon schedule yet: nothing to release.</p>

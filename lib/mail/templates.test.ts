@@ -25,6 +25,22 @@ describe("the flag e-mail", () => {
     expect(mail.text).not.toContain("000000000002\n");
   });
 
+  it("names each flag by its project reference, as the screens do", () => {
+    const mail = flagMail({
+      ...base,
+      flags: [
+        {
+          id: "0190c3a4-0000-7000-8000-000000000001",
+          reference: "F-0012",
+          kind: "out_of_band",
+          reason: "Short by 9 %.",
+        },
+      ],
+    });
+    expect(mail.text).toContain("Flag F-0012 (Out of band): Short by 9 %.");
+    expect(mail.html).toContain("Flag F-0012 (Out of band)");
+  });
+
   it("keeps the plain link when the flags carry no id", () => {
     const mail = flagMail({ ...base, flags: [{ kind: "out_of_band", reason: "Short by 9 %." }] });
     expect(mail.text).toContain(`${base.url}\n`);

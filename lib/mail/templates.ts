@@ -94,7 +94,8 @@ export function flagMail(input: {
   projectName: string;
   pourName: string;
   tendonTag: string;
-  flags: { id?: string; kind: string; reason: string }[];
+  /** Each new flag; `reference` is its number in the project ("F-0012"), as every screen shows it. */
+  flags: { id?: string; reference?: string; kind: string; reason: string }[];
   verdictLine: string;
   basisLine: string;
   /** Per end, the gauge force and the force the elongation implies, with their difference. */
@@ -108,7 +109,7 @@ export function flagMail(input: {
   const paragraphs = [
     `${input.projectName}, ${input.pourName}, tendon ${input.tendonTag}.`,
     `Verdict: ${input.verdictLine}.`,
-    ...input.flags.map((f) => `Flag (${flagLabel(f.kind)}): ${f.reason}`),
+    ...input.flags.map((f) => `Flag ${f.reference ? `${f.reference} ` : ""}(${flagLabel(f.kind)}): ${f.reason}`),
     ...(input.forcesLine ? [`Force, gauge and elongation: ${input.forcesLine}.`] : []),
     `Basis: ${input.basisLine}`,
     "Do not cut tails or grout this tendon until a disposition is recorded.",

@@ -55,9 +55,12 @@ describe("noticesFromPull", () => {
       tendonTag: "U07",
       what: "New flag: Out of band.",
       words: "Measured 14.4 % long against the prediction.",
-      instruction: `Held: do not cut tails. ${WAITING_INSTRUCTION}`,
+      instruction: `Held. ${WAITING_INSTRUCTION}`,
       holds: true,
     });
+    // Each thing is said once: "do not cut tails" was written twice in one line.
+    expect(notice!.instruction).toBe("Held. Wait for the engineer of record's decision. Do not cut tails.");
+    expect(notice!.instruction.match(/do not cut tails/gi)).toHaveLength(1);
   });
 
   it("tells of a new disposition with the engineer's instruction in words and what to do", () => {

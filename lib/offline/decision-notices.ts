@@ -118,7 +118,7 @@ export function noticesFromPull({ before, arrived, tendons }: NoticeDiffInput): 
         what: `New flag: ${label}.`,
         words: flag.reason ?? null,
         by: null,
-        instruction: `Held: do not cut tails. ${WAITING_INSTRUCTION}`,
+        instruction: `Held. ${WAITING_INSTRUCTION}`,
         holds: true,
         at: flag.createdAt ?? "",
       });

@@ -13,6 +13,7 @@ import {
   strandLotLines,
   type RecordColumn,
 } from "./pour-rows";
+import { countOf } from "@/lib/format/count";
 
 /**
  * The pour's stressing report as a PDF, drawn with pdfkit's built-in Helvetica: black on white,
@@ -219,11 +220,11 @@ export async function renderPourPdf(report: PourReport, signature?: SignatureBlo
   const restresses = report.records.filter((r) => r.stressing > 1).length;
   heading("Summary");
   text(
-    `${report.tendons.length} tendons on the schedule; ${stressed.length} evaluated with every end read ` +
+    `${countOf(report.tendons.length, "tendon")} on the schedule; ${stressed.length} evaluated with every end read ` +
       `(${count("in band")} in band, ${count("long")} long, ${count("short")} short); ` +
       `${report.tendons.length - stressed.length} not yet complete. ` +
-      `${report.records.length} stressing records, ${restresses} of them restresses or lift-offs. ` +
-      `${report.flags.length} flags, ${report.flags.filter((f) => f.status !== "closed").length} still open.`,
+      `${countOf(report.records.length, "stressing record")}, ${restresses} of them restresses or lift-offs. ` +
+      `${countOf(report.flags.length, "flag")}, ${report.flags.filter((f) => f.status !== "closed").length} still open.`,
     { width },
   );
 

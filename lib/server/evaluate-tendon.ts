@@ -17,6 +17,7 @@ import type {
 import { AppError } from "@/lib/errors";
 import { ENGINE_VERSION, findStrandSize } from "@/lib/elongation";
 import { env } from "@/lib/env";
+import { newFlagReference } from "@/lib/format/references";
 import { flagMail } from "@/lib/mail/templates";
 import type { JudgeInput, JudgeRecord } from "@/lib/stressing/judge";
 import { flagRecipientsNow } from "@/lib/stressing/flag-mail";
@@ -121,6 +122,8 @@ export interface TendonState {
   /** Every revision of every record of the tendon, by device time then revision. */
   records: EvaluatedRecord[];
   openFlagKinds: FlagKind[];
+  /** How many flags the project had when the state was read (numbers the new ones: "F-0012"). */
+  projectFlagCount?: number;
   /** Whether the tendon's pour already has an open concrete flag (on any tendon): one per pour. */
   pourConcreteFlagOpen?: boolean;
   /** The project's equipment sets used on the tendon, one row per calibration (or one with none). */
@@ -162,6 +165,12 @@ export function selectTendonState(
         .where("flags.tendon_id", "=", tendonId)
         .where("flags.status", "!=", "closed"),
     ).as("openFlags"),
+    // How many flags the project has, so a new flag's reference ("F-0012") can be named in its e-mail.
+    eb
+      .selectFrom("flags")
+      .select((f) => f.fn.countAll<string>().as("n"))
+      .where("flags.project_id", "=", projectId)
+      .as("projectFlagCount"),
     eb
       .exists(
         eb
@@ -328,6 +337,7 @@ export function stateFromRow(row: StateRow, adding?: EvaluatedRecord): TendonSta
     basis: toLoadedTendon(row),
     records,
     openFlagKinds: row.openFlags.map((f) => f.kind),
+    projectFlagCount: Number(row.projectFlagCount ?? 0),
     pourConcreteFlagOpen: Boolean(row.pourConcreteFlagOpen),
     sets: row.sets,
     dispositions: row.dispositions
@@ -629,7 +639,12 @@ export function planEvaluation(
       projectName: project.name,
       pourName: pour.name,
       tendonTag: tendon.tag,
-      flags: flags.map((f) => ({ id: f.id, kind: f.kind, reason: f.reason })),
+      flags: flags.map((f) => ({
+        id: f.id,
+        kind: f.kind,
+        reason: f.reason,
+        reference: newFlagReference(state.projectFlagCount ?? 0, flags, f.id),
+      })),
       verdictLine:
         deviationPct === null
           ? judgement.incomplete.length

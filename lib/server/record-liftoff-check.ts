@@ -1,10 +1,11 @@
 import "server-only";
 import { claimOp, duplicateOf, rejectedOp } from "./applied-ops";
-import type { Kysely } from "kysely";
+import { sql, type Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { env } from "@/lib/env";
 import { can } from "@/lib/auth/permissions";
 import { dayInZone } from "@/lib/format/dates";
+import { reference } from "@/lib/format/references";
 import { showPressure, showWobble } from "@/lib/format/quantities";
 import { flagMail } from "@/lib/mail/templates";
 import { pickCalibration } from "@/lib/schemas/calibration";
@@ -258,6 +259,13 @@ export async function recordLiftoffCheck(
         .returning("id")
         .executeTakeFirstOrThrow();
       raisedFlagId = flag.id;
+      // Its reference in the project ("F-0012"), counted as the screens and the report count it.
+      const { n } = await trx
+        .selectFrom("flags")
+        .select((eb) => eb.fn.countAll<string>().as("n"))
+        .where("project_id", "=", p.projectId)
+        .where(sql<boolean>`(created_at, id) <= (select f.created_at, f.id from flags f where f.id = ${flag.id})`)
+        .executeTakeFirstOrThrow();
       const recipients = flagRecipientsNow(basis.project, basis.project.digestEmails ?? [], ["liftoff_out_of_band"]);
       if (recipients.length) {
         const mail = flagMail({
@@ -265,7 +273,7 @@ export async function recordLiftoffCheck(
           projectName: basis.project.name,
           pourName: basis.pour.name,
           tendonTag: basis.tendon.tag,
-          flags: [{ id: flag.id, kind: "liftoff_out_of_band", reason }],
+          flags: [{ id: flag.id, reference: reference("F", Number(n)), kind: "liftoff_out_of_band", reason }],
           verdictLine: `lift-off ${judged.deviationPct >= 0 ? "+" : "−"}${Math.abs(judged.deviationPct).toFixed(1)} % from the expected anchor force`,
           basisLine:
             `expected force at end ${p.tendonEnd} after seating from Tautline's force profile ` +

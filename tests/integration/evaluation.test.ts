@@ -131,6 +131,10 @@ describe("the server's evaluation of a tendon", () => {
     expect(mails[0]!.to_emails.sort()).toEqual(["engineer@demo.tautline.test", "inspector@demo.tautline.test"]);
     expect(mails[0]!.text_body).toContain("2-1-U02");
     expect(mails[0]!.text_body).toContain("Caution");
+    // The e-mail names the flag by the same reference as the engineer's page.
+    const shown = await getTendonCase(t.db, { projectId: fx.projectId, tendonId: tendon.id });
+    expect(shown.flags[0]!.reference).toMatch(/^F-\d{4}$/);
+    expect(mails[0]!.text_body).toContain(`Flag ${shown.flags[0]!.reference} (Out of band):`);
 
     const again = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
     expect(again.flagKinds).toEqual([]);

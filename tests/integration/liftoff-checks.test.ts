@@ -6,6 +6,7 @@ import type { LiftoffPayload } from "@/lib/schemas/liftoff";
 import type { SyncOp } from "@/lib/schemas/sync";
 import { pullChanges } from "@/lib/server/pull-changes";
 import { getProjectSettings } from "@/lib/server/get-project-settings";
+import { getTendonCase } from "@/lib/server/get-tendon-case";
 import { pushOps } from "@/lib/server/push-ops";
 import { updateProjectSettings } from "@/lib/server/update-project-settings";
 import { recordDisposition } from "@/lib/server/record-disposition";
@@ -259,6 +260,10 @@ describe("a lift-off check outside the band", () => {
     expect(mail[0]!.to_emails).toContain("engineer@demo.tautline.test");
     expect(mail[0]!.subject).toMatch(/Lift-off force outside band/);
     expect(mail[0]!.text_body).toContain("kip"); // the project's units
+    // The e-mail names the flag by the reference the engineer's page shows.
+    const shown = await getTendonCase(t.db, { projectId: w.projectId, tendonId: flags[0]!.tendon_id });
+    const ref = shown.flags.find((f) => f.id === flags[0]!.id)!.reference;
+    expect(mail[0]!.text_body).toContain(`Flag ${ref} (Lift-off force outside band):`);
   });
 
   it("follows the project's band, as saved on the settings screen", async () => {
