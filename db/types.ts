@@ -351,6 +351,8 @@ export interface FlagsTable {
   closed_by: string | null;
   close_reason: string | null;
   created_at: Timestamp;
+  /** The flag's number in its project ("F-0012"), given by a trigger at insert, never changed. */
+  number: Generated<number>;
 }
 
 export type ReviewKind = "note" | "remeasured" | "paperwork_error" | "photo" | "sent_to_engineer" | "closed_paperwork";
@@ -380,6 +382,8 @@ export interface DispositionsTable {
   engineer_name: string;
   licence_statement: string;
   created_at: Timestamp;
+  /** The disposition's number in its project ("D-0007"), given by a trigger at insert, never changed. */
+  number: Generated<number>;
 }
 
 export interface ReleasesTable {

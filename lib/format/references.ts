@@ -2,11 +2,8 @@
 export const reference = (prefix: "F" | "D", n: number): string => `${prefix}-${String(n).padStart(4, "0")}`;
 
 /**
- * The reference a flag about to be written will have: the project had `existing` flags; flags made
- * together share their creation time and are numbered in the order of their ids, as the screens
- * and the report count them ((created_at, id) order).
+ * Stands in a flag e-mail for the reference of a flag not yet written: its number is given by the
+ * database at insert (the flags_reference_number trigger), and the insert of the e-mail puts the
+ * reference in its place in the same statement (`evaluationWrites`).
  */
-export function newFlagReference(existing: number, together: { id: string }[], id: string): string {
-  const ids = together.map((f) => f.id).sort();
-  return reference("F", existing + ids.indexOf(id) + 1);
-}
+export const flagReferenceToken = (flagId: string): string => `{flag-reference:${flagId}}`;

@@ -17,7 +17,7 @@ import type {
 import { AppError } from "@/lib/errors";
 import { ENGINE_VERSION, findStrandSize } from "@/lib/elongation";
 import { env } from "@/lib/env";
-import { newFlagReference } from "@/lib/format/references";
+import { flagReferenceToken } from "@/lib/format/references";
 import { flagMail } from "@/lib/mail/templates";
 import type { JudgeInput, JudgeRecord } from "@/lib/stressing/judge";
 import { flagRecipientsNow } from "@/lib/stressing/flag-mail";
@@ -122,8 +122,6 @@ export interface TendonState {
   /** Every revision of every record of the tendon, by device time then revision. */
   records: EvaluatedRecord[];
   openFlagKinds: FlagKind[];
-  /** How many flags the project had when the state was read (numbers the new ones: "F-0012"). */
-  projectFlagCount?: number;
   /** Whether the tendon's pour already has an open concrete flag (on any tendon): one per pour. */
   pourConcreteFlagOpen?: boolean;
   /** The project's equipment sets used on the tendon, one row per calibration (or one with none). */
@@ -165,12 +163,6 @@ export function selectTendonState(
         .where("flags.tendon_id", "=", tendonId)
         .where("flags.status", "!=", "closed"),
     ).as("openFlags"),
-    // How many flags the project has, so a new flag's reference ("F-0012") can be named in its e-mail.
-    eb
-      .selectFrom("flags")
-      .select((f) => f.fn.countAll<string>().as("n"))
-      .where("flags.project_id", "=", projectId)
-      .as("projectFlagCount"),
     eb
       .exists(
         eb
@@ -337,7 +329,6 @@ export function stateFromRow(row: StateRow, adding?: EvaluatedRecord): TendonSta
     basis: toLoadedTendon(row),
     records,
     openFlagKinds: row.openFlags.map((f) => f.kind),
-    projectFlagCount: Number(row.projectFlagCount ?? 0),
     pourConcreteFlagOpen: Boolean(row.pourConcreteFlagOpen),
     sets: row.sets,
     dispositions: row.dispositions
@@ -643,7 +634,7 @@ export function planEvaluation(
         id: f.id,
         kind: f.kind,
         reason: f.reason,
-        reference: newFlagReference(state.projectFlagCount ?? 0, flags, f.id),
+        reference: flagReferenceToken(f.id),
       })),
       verdictLine:
         deviationPct === null
@@ -703,8 +694,22 @@ export function evaluationWrites(db: Kysely<Database>, plan: EvaluationPlan): Re
   const writes: Record<string, Compilable> = {
     evaluation: db.insertInto("evaluations").values({ ...plan.evaluation, created_at: sql`clock_timestamp()` }),
   };
-  if (plan.flags.length) writes.flags = db.insertInto("flags").values(plan.flags);
-  if (plan.notification) writes.notification = db.insertInto("notifications").values(plan.notification);
+  if (plan.flags.length) writes.flags = db.insertInto("flags").values(plan.flags).returning(["id", "number"]);
+  if (plan.notification) {
+    // The e-mail names each new flag by the number the insert above gave it ("F-0012"): within
+    // this statement `flags` is that insert's RETURNING.
+    const withReferences = (body: string) =>
+      plan.flags.reduce<RawBuilder<string>>(
+        (text, f) =>
+          sql<string>`replace(${text}, ${flagReferenceToken(f.id!)}, (select 'F-' || lpad(number::text, greatest(4, length(number::text)), '0') from flags where id = ${f.id!}))`,
+        sql<string>`${body}::text`,
+      );
+    writes.notification = db.insertInto("notifications").values({
+      ...plan.notification,
+      text_body: withReferences(plan.notification.text_body),
+      html_body: withReferences(plan.notification.html_body),
+    });
+  }
   plan.closures.forEach((c, i) => {
     writes[`closure_${i}`] = db
       .updateTable("flags")

@@ -1,5 +1,5 @@
 import "server-only";
-import { sql, type Kysely } from "kysely";
+import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { reference } from "@/lib/format/references";
 
@@ -32,10 +32,8 @@ export async function findFlagTrail(
         "flags.closed_at",
         "flags.close_reason",
         "users.name as closedByName",
-        // Its number in the project, in the order flags were made (as the stressing report numbers them).
-        sql<string>`(select count(*) from flags f2 where f2.project_id = flags.project_id and (f2.created_at, f2.id) <= (flags.created_at, flags.id))`.as(
-          "number",
-        ),
+        // Its number in the project, given at insert.
+        "flags.number",
       ])
       .where("flags.project_id", "=", input.projectId)
       .where(scopeColumn, "=", scopeId)
@@ -71,9 +69,7 @@ export async function findFlagTrail(
         "dispositions.engineer_name",
         "dispositions.licence_statement",
         "dispositions.created_at",
-        sql<string>`(select count(*) from dispositions d2 where d2.project_id = dispositions.project_id and (d2.created_at, d2.id) <= (dispositions.created_at, dispositions.id))`.as(
-          "number",
-        ),
+        "dispositions.number",
       ])
       .where("dispositions.project_id", "=", input.projectId)
       .where(scopeColumn, "=", scopeId)

@@ -73,10 +73,8 @@ export async function findFlags(
               or records.device_time > records.received_at + make_interval(secs => ${FUTURE_GRACE_MS / 1000}))`,
           )
           .as("clockSkewRecords"),
-      // The flag's number in its project, in the order flags were made (as the stressing report numbers them).
-      sql<string>`(select count(*) from flags f2 where f2.project_id = flags.project_id and (f2.created_at, f2.id) <= (flags.created_at, flags.id))`.as(
-        "number",
-      ),
+      // The flag's number in its project, given at insert.
+      "flags.number",
     ])
     .where("flags.project_id", "in", input.projectIds)
     .orderBy("flags.created_at");

@@ -11,7 +11,6 @@ import { findFlagTrail } from "./find-flag-trail";
 import { findStandingRelease } from "./find-standing-release";
 import { listPourRecords, type PourRecord } from "./list-pour-records";
 import { listTendonResults, type TendonResult } from "./list-tendon-results";
-import { sql } from "kysely";
 
 /**
  * Everything the pour's stressing report says, in SI as stored: the project and its computation
@@ -166,16 +165,8 @@ export async function getPourReport(
       listPourRecords(db, { ...input, projectBasis: project.comparison_basis, timeZone: projectTimeZone(project) }),
       findFlagTrail(db, { projectId: input.projectId, pourId: input.pourId }),
       findStandingRelease(db, input),
-      db
-        .selectFrom("flags")
-        .select(["id", sql<string>`row_number() over (order by created_at, id)`.as("n")])
-        .where("project_id", "=", input.projectId)
-        .execute(),
-      db
-        .selectFrom("dispositions")
-        .select(["id", sql<string>`row_number() over (order by created_at, id)`.as("n")])
-        .where("project_id", "=", input.projectId)
-        .execute(),
+      db.selectFrom("flags").select(["id", "number as n"]).where("project_id", "=", input.projectId).execute(),
+      db.selectFrom("dispositions").select(["id", "number as n"]).where("project_id", "=", input.projectId).execute(),
       db
         .selectFrom("detensions")
         .innerJoin("equipment_sets", (j) =>

@@ -1,6 +1,6 @@
 import "server-only";
 import { claimOp, duplicateOf, rejectedOp } from "./applied-ops";
-import { sql, type Kysely } from "kysely";
+import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { env } from "@/lib/env";
 import { can } from "@/lib/auth/permissions";
@@ -256,16 +256,9 @@ export async function recordLiftoffCheck(
           reason,
           created_at: new Date(),
         })
-        .returning("id")
+        .returning(["id", "number"])
         .executeTakeFirstOrThrow();
       raisedFlagId = flag.id;
-      // Its reference in the project ("F-0012"), counted as the screens and the report count it.
-      const { n } = await trx
-        .selectFrom("flags")
-        .select((eb) => eb.fn.countAll<string>().as("n"))
-        .where("project_id", "=", p.projectId)
-        .where(sql<boolean>`(created_at, id) <= (select f.created_at, f.id from flags f where f.id = ${flag.id})`)
-        .executeTakeFirstOrThrow();
       const recipients = flagRecipientsNow(basis.project, basis.project.digestEmails ?? [], ["liftoff_out_of_band"]);
       if (recipients.length) {
         const mail = flagMail({
@@ -273,7 +266,7 @@ export async function recordLiftoffCheck(
           projectName: basis.project.name,
           pourName: basis.pour.name,
           tendonTag: basis.tendon.tag,
-          flags: [{ id: flag.id, reference: reference("F", Number(n)), kind: "liftoff_out_of_band", reason }],
+          flags: [{ id: flag.id, reference: reference("F", flag.number), kind: "liftoff_out_of_band", reason }],
           verdictLine: `lift-off ${judged.deviationPct >= 0 ? "+" : "−"}${Math.abs(judged.deviationPct).toFixed(1)} % from the expected anchor force`,
           basisLine:
             `expected force at end ${p.tendonEnd} after seating from Tautline's force profile ` +

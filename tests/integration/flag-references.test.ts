@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { findFlagTrail } from "@/lib/server/find-flag-trail";
 import { findFlags } from "@/lib/server/find-flags";
 import { getPourReport } from "@/lib/server/get-pour-report";
+import { reference } from "@/lib/format/references";
 import { seedDemo } from "@/scripts/seed/demo";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
@@ -68,5 +69,66 @@ describe("flag and disposition references", () => {
       ).flags.filter((x) => x.id === f.id);
       expect(f.reference).toBe(trail!.reference);
     }
+  });
+
+  it("a reference is given once at insert and never moves, even for a flag stamped earlier that commits later", async () => {
+    const project = await t.db.selectFrom("projects").select("id").where("code", "=", "AYP").executeTakeFirstOrThrow();
+    const tendon = await t.db
+      .selectFrom("tendons")
+      .select(["id", "pour_id"])
+      .where("project_id", "=", project.id)
+      .limit(1)
+      .executeTakeFirstOrThrow();
+    const flag = (created_at: Date) => ({
+      project_id: project.id,
+      pour_id: tendon.pour_id,
+      tendon_id: tendon.id,
+      record_id: null,
+      evaluation_id: null,
+      kind: "wire_break" as const,
+      reason: "Reference numbering check.",
+      created_at,
+    });
+    const before = await t.db
+      .selectFrom("flags")
+      .select(["id", "number"])
+      .where("project_id", "=", project.id)
+      .orderBy("number")
+      .execute();
+    const last = before.at(-1)!.number;
+
+    // Two writers at once: each waits for the other's number, neither takes the same one.
+    const [a, b] = await Promise.all(
+      [new Date(), new Date()].map((at) =>
+        t.db
+          .transaction()
+          .execute((trx) =>
+            trx.insertInto("flags").values(flag(at)).returning(["id", "number"]).executeTakeFirstOrThrow(),
+          ),
+      ),
+    );
+    expect([a!.number, b!.number].sort((x, y) => x - y)).toEqual([last + 1, last + 2]);
+
+    // A flag stamped a year back (as a transaction that began long ago would stamp it) comes last.
+    const late = await t.db
+      .insertInto("flags")
+      .values(flag(new Date(Date.now() - 365 * 24 * 3600 * 1000)))
+      .returning(["id", "number"])
+      .executeTakeFirstOrThrow();
+    expect(late.number).toBe(last + 3);
+    const after = await t.db
+      .selectFrom("flags")
+      .select(["id", "number"])
+      .where("project_id", "=", project.id)
+      .where(
+        "id",
+        "in",
+        before.map((f) => f.id),
+      )
+      .orderBy("number")
+      .execute();
+    expect(after).toEqual(before);
+    const trail = await findFlagTrail(t.db, { projectId: project.id, tendonId: tendon.id });
+    expect(trail.flags.find((f) => f.id === late.id)?.reference).toBe(reference("F", last + 3));
   });
 });
