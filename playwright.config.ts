@@ -31,7 +31,9 @@ export default defineConfig({
     },
   },
   projects: [
-    // The README's tour runs first, on the demo job as seeded, before other specs add their own data.
+    // Every spec passes alone and in any order (each makes the pours it stresses, signs or releases;
+    // see DEVELOPERS.md). The order here is for the pictures: the README's tour runs first, so its
+    // screenshots show the demo job as seeded, before other specs add their own pours.
     { name: "tour", testMatch: /demo-tour\.spec\.ts/, use: { viewport: { width: 1280, height: 800 }, hasTouch: true } },
     {
       name: "tablet",
@@ -39,7 +41,8 @@ export default defineConfig({
       dependencies: ["tour"],
       use: { viewport: { width: 1280, height: 800 }, hasTouch: true },
     },
-    // Last, alone: it deploys a next build of the offline worker into public/ and puts it back.
+    // Last: it deploys a next build of the offline worker into public/ and puts it back, which no
+    // other spec must see. Alone: `playwright test tests/e2e/field-update.spec.ts --no-deps`.
     {
       name: "update",
       testMatch: /field-update\.spec\.ts/,

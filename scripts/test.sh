@@ -55,7 +55,8 @@ FAKES_PID=$LAST_PID
 
 passed=() failed=()
 # TEST_STEPS picks steps (default: all); UNIT_ARGS, INTEGRATION_ARGS and E2E_ARGS pass file filters or
-# flags to vitest and Playwright, e.g. TEST_STEPS="integration e2e" E2E_ARGS="tests/e2e/field.spec.ts --no-deps".
+# flags to vitest and Playwright, e.g. TEST_STEPS="integration e2e" E2E_ARGS="tests/e2e/field.spec.ts --no-deps";
+# E2E_REUSE_BUILD and E2E_EACH are described at the e2e step below.
 TEST_STEPS="${TEST_STEPS:-typecheck lint format unit integration e2e}"
 step() {
   local name="$1"; shift
@@ -87,15 +88,57 @@ step unit node_modules/.bin/vitest run --project unit --reporter=default --repor
 step integration node_modules/.bin/vitest run --project integration --reporter=default --reporter=json \
   --outputFile.json="$LOGS/integration.json" ${INTEGRATION_ARGS:-}
 
-e2e() {
-  node_modules/.bin/tsx scripts/migrate.ts && node_modules/.bin/tsx --conditions=react-server scripts/seed.ts || return 1
-  npm run --silent build || return 1
+# The app and the dispatcher against the e2e database.
+e2e_app_up() {
   start_group "$LOGS/app.log" node_modules/.bin/next start -p "$APP_PORT" -H 127.0.0.1
   APP_PID=$LAST_PID
   start_group "$LOGS/dispatcher.log" node_modules/.bin/tsx --conditions=react-server scripts/dispatcher.ts
   DISPATCH_PID=$LAST_PID
   wait_for_url "http://127.0.0.1:$APP_PORT/api/health" 60 || { tail -n 40 "$LOGS/app.log"; return 1; }
   wait_for_url "$MAIL_INBOX_URL" 20 || { tail -n 40 "$LOGS/fakes.log"; return 1; }
+}
+e2e_app_down() {
+  stop_group "$APP_PID"; APP_PID=""
+  stop_group "$DISPATCH_PID"; DISPATCH_PID=""
+}
+e2e_sql() { PGPASSWORD=tautline "$(pg_bin psql)" -h 127.0.0.1 -p "$TAUTLINE_PG_PORT" -U tautline -d postgres -qtAc "$1"; }
+
+# E2E_EACH runs every spec file (or the files E2E_ARGS names) alone, one Playwright run each
+# (--no-deps): "fresh" on a new copy of the seeded database each time, so a spec that leans on
+# another's data fails; "shared" one after another on one database, so a spec that breaks on
+# another's leftovers fails. E2E_ORDER=reverse or shuffle changes the order of the files.
+e2e_each() {
+  local specs=() spec failed_specs=()
+  for spec in ${E2E_ARGS:-tests/e2e/*.spec.ts}; do specs+=("$spec"); done
+  case "${E2E_ORDER:-}" in
+    reverse) mapfile -t specs < <(printf '%s\n' "${specs[@]}" | tac) ;;
+    shuffle) mapfile -t specs < <(printf '%s\n' "${specs[@]}" | shuf) ;;
+  esac
+  say "each spec alone (${E2E_EACH}): ${specs[*]}"
+  [ "$E2E_EACH" = shared ] || e2e_sql "create database tautline_seeded template tautline" || return 1
+  [ "$E2E_EACH" != shared ] || e2e_app_up || return 1
+  for spec in "${specs[@]}"; do
+    if [ "$E2E_EACH" != shared ]; then
+      e2e_app_down
+      e2e_sql "drop database tautline with (force)" && e2e_sql "create database tautline template tautline_seeded" &&
+        e2e_app_up || return 1
+    fi
+    say "── alone: $spec"
+    node_modules/.bin/playwright test "$spec" --no-deps || failed_specs+=("$spec")
+  done
+  [ ${#failed_specs[@]} -eq 0 ] || { say "failed alone: ${failed_specs[*]}"; return 1; }
+}
+
+e2e() {
+  node_modules/.bin/tsx scripts/migrate.ts && node_modules/.bin/tsx --conditions=react-server scripts/seed.ts || return 1
+  # E2E_REUSE_BUILD=1 keeps the build in .next when there is one (after a change to the app, build again).
+  if [ -n "${E2E_REUSE_BUILD:-}" ] && [ -f .next/BUILD_ID ]; then
+    say "reusing the build in .next ($(cat .next/BUILD_ID))"
+  else
+    npm run --silent build || return 1
+  fi
+  if [ -n "${E2E_EACH:-}" ]; then e2e_each; return; fi
+  e2e_app_up || return 1
   node_modules/.bin/playwright test ${E2E_ARGS:-}
 }
 step e2e e2e

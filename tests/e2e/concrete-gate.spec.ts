@@ -19,11 +19,9 @@ test("results entered by the inspector confirm the concrete: a pour of 5 tendons
   const fx = await makePourFixture(
     `Concrete gate ${stamp}`,
     [1, 2, 3, 4, 5].map((i) => `CG-${stamp}-${i}`),
+    // This pour starts without results.
+    { concreteConfirmed: false },
   );
-  // The fixture confirms the concrete; this pour starts without results.
-  await queryDemo("update pours set concrete_strength_mpa = null, concrete_confirmed_at = null where id = $1", [
-    fx.pourId,
-  ]);
 
   await signInWithPassword(page, PEOPLE.inspector);
   await page.waitForURL(/\/home/);
@@ -66,10 +64,8 @@ test("stressed before results: one concrete flag for the pour, closed by results
   const fx = await makePourFixture(
     `Concrete late ${stamp}`,
     [1, 2, 3].map((i) => `CL-${stamp}-${i}`),
+    { concreteConfirmed: false },
   );
-  await queryDemo("update pours set concrete_strength_mpa = null, concrete_confirmed_at = null where id = $1", [
-    fx.pourId,
-  ]);
   const crew = await apiAs(PEOPLE.crew);
   for (const t of fx.tendons) expect((await pushEndA(crew, fx, t.id, 1.0)).result).toMatchObject({ status: "applied" });
   const open = await queryDemo<{ status: string }>(

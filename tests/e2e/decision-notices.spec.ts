@@ -134,11 +134,8 @@ test("stressing a pour whose concrete is not confirmed asks the crew why, and th
 }) => {
   test.setTimeout(120_000);
   const pourName = `Go-ahead check ${stamp}`;
-  const fx = await makePourFixture(pourName, [`GA-${stamp}-1`]);
+  const fx = await makePourFixture(pourName, [`GA-${stamp}-1`], { concreteConfirmed: false });
   const [tendon] = fx.tendons as [(typeof fx.tendons)[number]];
-  await queryDemo("update pours set concrete_strength_mpa = null, concrete_confirmed_at = null where id = $1", [
-    fx.pourId,
-  ]);
   const reading = typedReading(fx, 1.0);
   const reason = "Inspector read the field-cured cylinders on site at 3,200 psi before the first pull.";
 

@@ -3,25 +3,40 @@ import type { AvailablePour, PullResponse } from "@/lib/schemas/sync";
 import { predictTendon, targetPressureMPa } from "@/lib/stressing/basis";
 import { formatLength, mpaToPsi } from "@/lib/units";
 import { PEOPLE, apiAs } from "./people";
+import { makePourFixture } from "./pour-fixture";
 import { screenshot } from "./support";
 
 /** The field log's e2e steps, shared by the specs that drive the tablet. */
 
-export const POUR = "L3 Pour 1";
-/** What the crew says to stress L3 Pour 1, whose concrete strength the lab has not confirmed (demo data). */
+/** What the crew says to stress a pour whose concrete strength the lab has not confirmed. */
 export const CONCRETE_GO_AHEAD = "Inspector read the field-cured cylinders on site at 3,200 psi this morning.";
+
+/**
+ * A pour of the test's own, planned like the demo's L3 Pour 1: `count` one-end tendons copied from
+ * the demo schedule and no concrete results yet, so the tablet asks why stressing goes ahead.
+ * Each test stresses only its own pour, so it passes alone and in any order.
+ */
+export async function makeFieldPour(label: string, count: number): Promise<{ name: string; count: number }> {
+  const stamp = `${Date.now().toString(36)}${Math.floor(Math.random() * 1296).toString(36)}`;
+  const name = `${label} ${stamp}`;
+  const tags = Array.from({ length: count }, (_, i) => `FL-${stamp}-${String(i + 1).padStart(2, "0")}`);
+  await makePourFixture(name, tags, { concreteConfirmed: false });
+  return { name, count };
+}
 
 export interface Plan {
   pourId: string;
+  pourName: string;
   tendons: { id: string; tag: string; after: string; verdict: "In band" | "Long" }[];
   finalPsi: string;
 }
 
 /** Three one-end tendons of the pour with nothing recorded yet, with readings worked out on the same basis as the app. */
-export async function plan(): Promise<Plan> {
+export async function plan(pourName: string): Promise<Plan> {
   const crew = await apiAs(PEOPLE.crew);
   const { pours } = (await (await crew.get("/api/field/pours")).json()) as { pours: AvailablePour[] };
-  const pour = pours.find((p) => p.name === POUR && p.projectCode === "AYP")!;
+  const pour = pours.find((p) => p.name === pourName && p.projectCode === "AYP")!;
+  expect(pour, `the crew's download list offers ${pourName}`).toBeTruthy();
   const data = (await (await crew.get(`/api/field/pours/${pour.id}`)).json()) as PullResponse;
   await crew.dispose();
   const project = data.projects[0]!;
@@ -50,7 +65,12 @@ export async function plan(): Promise<Plan> {
     minPressureMPa: cal.minPressureMPa,
     maxPressureMPa: cal.maxPressureMPa,
   };
-  return { pourId: pour.id, tendons, finalPsi: String(Math.round(mpaToPsi(targetPressureMPa(line, jackingForceN)))) };
+  return {
+    pourId: pour.id,
+    pourName,
+    tendons,
+    finalPsi: String(Math.round(mpaToPsi(targetPressureMPa(line, jackingForceN)))),
+  };
 }
 
 /** Full-page shots from the top, so the sticky status bar sits where the crew sees it. */
@@ -85,7 +105,7 @@ export async function logTendon(
       .setInputFiles({ name: "gauge.png", mimeType: "image/png", buffer: GAUGE_PHOTO });
     await expect(page.getByRole("img", { name: "Photo to keep with this record" })).toHaveCount(1);
   }
-  // The demo's L3 Pour 1 has no confirmed concrete strength: the form asks why stressing goes ahead.
+  // The pour has no confirmed concrete strength: the form asks why stressing goes ahead.
   await expect(page.getByTestId("concrete-go-ahead")).toContainText("Concrete not confirmed");
   await page.getByLabel(/Who confirmed the concrete on site/).fill(CONCRETE_GO_AHEAD);
   if (shot) await shoot(page, shot);

@@ -1,7 +1,7 @@
 import { readFileSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { expect, test, type Page } from "@playwright/test";
-import { CONCRETE_GO_AHEAD, POUR, plan, shoot } from "./field-steps";
+import { CONCRETE_GO_AHEAD, makeFieldPour, plan, shoot } from "./field-steps";
 import { PEOPLE, signInWithPassword } from "./people";
 
 /**
@@ -48,7 +48,8 @@ test("an update waits for a dirty form and an unsent record, then takes over whe
   context,
 }) => {
   test.setTimeout(120_000);
-  const p = await plan();
+  const POUR = (await makeFieldPour("Update check", 3)).name;
+  const p = await plan(POUR);
   await signInWithPassword(page, PEOPLE.crew);
   await page.waitForURL(/\/home/);
   await page.goto("/field");

@@ -1,12 +1,12 @@
 import { expect, test } from "@playwright/test";
 import pg from "pg";
-import { CONCRETE_GO_AHEAD, POUR, logTendon, plan, shoot } from "./field-steps";
+import { CONCRETE_GO_AHEAD, logTendon, makeFieldPour, plan, shoot } from "./field-steps";
 import { PEOPLE, signInWithPassword } from "./people";
 
 /**
  * The crew's whole offline shift in Chromium: sign in, take a pour out, lose the signal, log
  * three tendons (one out of band), reload with no signal and find them, get the signal back,
- * watch them go, and check PostgreSQL holds each exactly once.
+ * watch them go, and check PostgreSQL holds each exactly once. Each test stresses a pour of its own.
  */
 
 test("a crew logs a pour with no signal and every record reaches PostgreSQL exactly once", async ({
@@ -14,7 +14,9 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
   context,
 }) => {
   test.setTimeout(120_000);
-  const p = await plan();
+  const pour = await makeFieldPour("Offline shift", 12);
+  const POUR = pour.name;
+  const p = await plan(POUR);
 
   await signInWithPassword(page, PEOPLE.crew);
   await page.waitForURL(/\/home/);
@@ -27,20 +29,20 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
   await page.getByTestId("available-pour").filter({ hasText: POUR }).getByRole("button").click();
   const ready = page.getByTestId("ready-pour").filter({ hasText: POUR });
   await expect(ready.getByTestId("ready-offline")).toBeVisible();
-  await expect(ready.getByTestId("ready-counts")).toContainText("50 tendons");
+  await expect(ready.getByTestId("ready-counts")).toContainText(`${pour.count} tendons`);
   await expect(ready.getByTestId("ready-age")).toContainText("Data from");
   await shoot(page, "field-ready-offline-landscape");
 
   await context.setOffline(true);
   await ready.getByRole("link", { name: "Open tendon list" }).click();
   await expect(page.getByTestId("connection")).toHaveText("No signal");
-  // The demo's L3 Pour 1 has no lab results yet: the tablet says so before the first pull.
+  // The pour has no lab results yet: the tablet says so before the first pull.
   await expect(page.getByTestId("concrete-gate-field")).toContainText("Concrete not confirmed: do not stress");
   for (const [i, t] of p.tendons.entries())
     await logTendon(page, t, p.finalPsi, i === 0 ? "field-form-offline-landscape" : undefined, i === 0);
   await expect(page.getByTestId("pending-count")).toContainText("3 records");
   await expect(page.getByRole("alert").filter({ hasText: "Out of band" })).toHaveCount(0); // the last one logged is in band
-  await expect(page.getByTestId("pour-progress")).toContainText("50 tendons · 3 stressed (1 flagged)");
+  await expect(page.getByTestId("pour-progress")).toContainText(`${pour.count} tendons · 3 stressed (1 flagged)`);
   await shoot(page, "field-log-offline-landscape");
 
   // Reload with no signal: the worker serves the page, the tablet database still has the records.
@@ -123,7 +125,8 @@ test("a tablet whose sign-in ran out keeps what it holds and sends it once the c
   context,
 }) => {
   test.setTimeout(120_000);
-  const p = await plan();
+  const POUR = (await makeFieldPour("Signed out", 3)).name;
+  const p = await plan(POUR);
   const t = p.tendons[0]!;
 
   await signInWithPassword(page, PEOPLE.crew);

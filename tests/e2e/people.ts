@@ -1,5 +1,6 @@
 import { request as playwrightRequest, type APIRequestContext, type Page } from "@playwright/test";
 import pg from "pg";
+import { assertLocalDatabase } from "../support/local-database";
 
 export const BASE_URL = process.env.E2E_BASE_URL ?? "http://localhost:3100";
 export const INBOX_URL = process.env.MAIL_INBOX_URL ?? "http://127.0.0.1:1081";
@@ -75,8 +76,12 @@ export function linkIn(mail: CaughtMail, path: string): string {
   return match[0];
 }
 
-/** Reads the seeded demo straight from the app's database (the e2e run's throwaway one). */
+/**
+ * Reads the seeded demo straight from the app's database (the e2e run's throwaway one), and writes
+ * the rows a spec makes for itself; refuses a database that is not on loopback.
+ */
 export async function queryDemo<T extends Record<string, unknown>>(text: string, values: unknown[] = []): Promise<T[]> {
+  assertLocalDatabase(process.env.DATABASE_URL, "DATABASE_URL");
   const client = new pg.Client({ connectionString: process.env.DATABASE_URL });
   await client.connect();
   try {

@@ -8,7 +8,11 @@ import { PEOPLE, queryDemo } from "./people";
 
 const PSI_PER_MPA = 1 / MPA_PER_PSI;
 
-/** A pour of the demo project made for one spec, with one-end tendons copied from the demo schedule. */
+/**
+ * A pour of the demo project made for one spec, with one-end tendons copied from the demo schedule.
+ * A spec stresses, flags, signs or releases only pours it made this way (or through the app), so
+ * it passes alone and in any order: the demo's own pours stay as seeded for the specs that read them.
+ */
 export interface PourFixture {
   projectId: string;
   pourId: string;
@@ -23,15 +27,26 @@ export interface PourFixture {
   lot: { areaMm2: number; modulusMPa: number; breakingLoadN: number } | null;
 }
 
-export async function makePourFixture(pourName: string, tags: string[]): Promise<PourFixture> {
+export interface PourFixtureOptions {
+  /** false: the pour starts with no concrete results, so the concrete gate is not met (default true). */
+  concreteConfirmed?: boolean;
+}
+
+export async function makePourFixture(
+  pourName: string,
+  tags: string[],
+  options: PourFixtureOptions = {},
+): Promise<PourFixture> {
+  const confirmed = options.concreteConfirmed ?? true;
   const [p] = await queryDemo<Record<string, unknown>>("select * from projects where code = 'AYP'");
   const [template] = await queryDemo<Record<string, unknown>>(
     "select * from tendons where project_id = $1 and ends = 'A' order by tag limit 1",
     [p!.id],
   );
   const [pour] = await queryDemo<{ id: string }>(
-    "insert into pours (project_id, name, level, concrete_strength_mpa, concrete_confirmed_at, planned_stressing_date) values ($1, $2, 'Level 2', 25, now(), current_date) returning id",
-    [p!.id, pourName],
+    `insert into pours (project_id, name, level, concrete_strength_mpa, concrete_confirmed_at, planned_stressing_date)
+     values ($1, $2, 'Level 2', $3, $4, current_date) returning id`,
+    [p!.id, pourName, confirmed ? 25 : null, confirmed ? new Date() : null],
   );
   const tendons: { id: string; tag: string }[] = [];
   for (const tag of tags) {
@@ -57,11 +72,14 @@ export async function makePourFixture(pourName: string, tags: string[]): Promise
     "select * from strand_lots where id = $1",
     [template!.strand_lot_id],
   );
+  // The demo's Set A by name, with its calibration in force: other specs add sets and retire or
+  // correct calibrations of their own, and none of that may change what this pour is stressed with.
   const [set] = await queryDemo<{ id: string; calibration_id: string; slope_n_per_mpa: number; intercept_n: number }>(
     `select s.id, c.id as calibration_id, c.slope_n_per_mpa, c.intercept_n from equipment_sets s join calibrations c on c.equipment_set_id = s.id
-     where s.project_id = $1 order by s.name limit 1`,
+     where s.project_id = $1 and s.name like 'Set A%' and c.retired_at is null order by c.calibrated_on desc limit 1`,
     [p!.id],
   );
+  if (!set) throw new Error("the demo's Set A with a calibration in force was not found");
   const [crew] = await queryDemo<{ id: string }>("select id from users where email = $1", [PEOPLE.crew]);
   return {
     projectId: p!.id as string,

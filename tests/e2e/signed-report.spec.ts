@@ -1,23 +1,29 @@
 import { expect, test } from "@playwright/test";
-import { PEOPLE, pourIdByName, queryDemo, signInWithPassword } from "./people";
+import { PEOPLE, apiAs, signInWithPassword } from "./people";
+import { makePourFixture, pushEndA } from "./pour-fixture";
 import { screenshot } from "./support";
 
-// The inspector signs the stressing report of "L2 Pour 1" from its page, downloads the signed PDF,
-// and a building official with no account checks the file on /verify: the signed file matches,
-// an altered copy does not. Writes one signed revision on the demo pour.
+// The inspector signs the stressing report of a pour from its page, downloads the signed PDF, and a
+// building official with no account checks the file on /verify: the signed file matches, an altered
+// copy does not. The pour, two tendons stressed in band, is made for this spec.
+
+const stamp = Date.now().toString(36);
+const POUR = `Signed report ${stamp}`;
 
 test("the inspector signs a pour's stressing report and anyone can check the signed file", async ({
   page,
   browser,
 }) => {
-  const pourId = await pourIdByName("L2 Pour 1");
-  const [project] = await queryDemo<{ id: string }>("select project_id as id from pours where id = $1", [pourId]);
+  const fx = await makePourFixture(POUR, [`SR-${stamp}-1`, `SR-${stamp}-2`]);
+  const crew = await apiAs(PEOPLE.crew);
+  for (const t of fx.tendons) expect((await pushEndA(crew, fx, t.id, 1.0)).result).toMatchObject({ status: "applied" });
+  await crew.dispose();
   await signInWithPassword(page, PEOPLE.inspector);
   await page.waitForURL(/\/home/);
-  await page.goto(`/projects/${project!.id}/pours/${pourId}/insight`);
+  await page.goto(`/projects/${fx.projectId}/pours/${fx.pourId}/insight`);
   await expect(page.getByTestId("signature-state")).toHaveText("Not signed yet.");
 
-  const form = page.getByRole("form", { name: /Sign the stressing report of L2 Pour 1/ });
+  const form = page.getByRole("form", { name: `Sign the stressing report of ${POUR}` });
   // Without a licence number the server names the field and signs nothing.
   await form.getByLabel("Licence or certification number").fill("");
   const confirm = () =>
@@ -54,7 +60,7 @@ test("the inspector signs a pour's stressing report and anyone can check the sig
   await check
     .getByLabel("Report file (PDF)")
     .setInputFiles({ name: "report.pdf", mimeType: "application/pdf", buffer: bytes });
-  await expect(check.getByRole("status")).toContainText("Matches revision 1 of the stressing report of L2 Pour 1");
+  await expect(check.getByRole("status")).toContainText(`Matches revision 1 of the stressing report of ${POUR}`);
   await expect(check.getByRole("status")).toContainText("It is the latest signed revision.");
   await screenshot(check, "report-verify-match");
   const altered = Buffer.from(bytes);

@@ -193,25 +193,29 @@ describe("the server's evaluation of a tendon", () => {
     expect(flag.reason).toMatch(/above 0\.80·fpu·A = 33\.04 kip/);
   });
 
-  it("reads a gauge within half a 100 psi graduation of the mark as at the mark (graduation per UFGS 02490)", async () => {
-    const tendon = await fx.tendon("2-1-U05");
-    const predicted = await predictedFor(tendon.id);
-    const psi = MPA_PER_PSI;
-    const base = { projectId: fx.projectId, tendon, equipmentSetId: fx.setA, authorId: fx.crewId };
-    await insertRecord(t.db, {
-      ...base,
-      end: "A",
-      measuredMm: (predicted.predictedMm * predicted.prediction.perEndMm.A!) / predicted.prediction.grossMm,
-      finalPressureMPa: normalPressure + 40 * psi,
-    });
-    await insertRecord(t.db, {
-      ...base,
-      end: "B",
-      measuredMm: (predicted.predictedMm * predicted.prediction.perEndMm.B!) / predicted.prediction.grossMm,
-      finalPressureMPa: normalPressure + 40 * psi,
-    });
-    const outcome = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
-    expect(outcome.flagKinds).not.toContain("jacking_over_limit");
+  // A dial is read to its graduation: the rule takes the lowest force the reading allows, half a
+  // 100 psi graduation under it (UFGS 02490, from memory). The jacking target sits exactly at
+  // 0.80·fpu·A, so 40 psi over it is still at the mark, 60 psi over it is past it.
+  it("reads a gauge within half a 100 psi graduation of the mark as at the mark, and one past it as over the limit", async () => {
+    const judgedWithGaugeOver = async (tag: string, psiOver: number) => {
+      const tendon = await fx.tendon(tag);
+      const predicted = await predictedFor(tendon.id);
+      const ends = tendon.ends === "both" ? (["A", "B"] as const) : [tendon.ends];
+      for (const end of ends) {
+        await insertRecord(t.db, {
+          projectId: fx.projectId,
+          tendon,
+          end,
+          equipmentSetId: fx.setA,
+          authorId: fx.crewId,
+          measuredMm: (predicted.predictedMm * predicted.prediction.perEndMm[end]!) / predicted.prediction.grossMm,
+          finalPressureMPa: normalPressure + psiOver * MPA_PER_PSI,
+        });
+      }
+      return evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+    };
+    expect((await judgedWithGaugeOver("2-1-U05", 40)).flagKinds).not.toContain("jacking_over_limit");
+    expect((await judgedWithGaugeOver("2-1-U08", 60)).flagKinds).toContain("jacking_over_limit");
   });
 
   it("flags a wire break, an expired calibration with the crew's reason, and a reading outside the calibrated range", async () => {

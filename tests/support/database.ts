@@ -3,6 +3,7 @@ import { Kysely, PostgresDialect, sql } from "kysely";
 import pg from "pg";
 import { createDb, type Db } from "@/db/connect";
 import { migrateToLatest } from "@/db/migrate";
+import { assertLocalDatabase } from "./local-database";
 
 /**
  * Each integration test file gets a database of its own on the throwaway test server that
@@ -11,20 +12,13 @@ import { migrateToLatest } from "@/db/migrate";
 
 const adminUrl = process.env.TEST_DATABASE_ADMIN_URL;
 
-export function assertLocalDatabase(url: string): void {
-  const host = new URL(url).hostname;
-  if (!["127.0.0.1", "localhost", "::1", "[::1]"].includes(host)) {
-    throw new Error(`Refusing to run tests against a non-local database host: ${host}`);
-  }
-}
-
 function requireAdminUrl(): string {
   if (!adminUrl) {
     throw new Error(
       "TEST_DATABASE_ADMIN_URL is not set. Run the integration tests through `npm test`, which starts a throwaway PostgreSQL.",
     );
   }
-  assertLocalDatabase(adminUrl);
+  assertLocalDatabase(adminUrl, "TEST_DATABASE_ADMIN_URL");
   return adminUrl;
 }
 
