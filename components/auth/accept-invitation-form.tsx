@@ -4,7 +4,7 @@ import { signIn } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { FormMessage } from "@/components/ui/form-message";
-import { TextField } from "@/components/ui/text-field";
+import { FormField } from "@/components/ui/form-field";
 import { sendJson } from "@/lib/client/send-json";
 
 export function AcceptInvitationForm({
@@ -56,14 +56,14 @@ export function AcceptInvitationForm({
         <p>You already have a Tautline account as {email}. Accept, then sign in as usual.</p>
       ) : (
         <>
-          <TextField id="name" name="name" autoComplete="name" label="Your name" errors={fields.name} />
-          <TextField
+          <FormField id="name" name="name" autoComplete="name" label="Your name" error={fields.name} />
+          <FormField
             id="password"
             name="password"
             type="password"
             autoComplete="new-password"
             label="Choose a password (10 characters or more)"
-            errors={fields.password}
+            error={fields.password}
           />
         </>
       )}
