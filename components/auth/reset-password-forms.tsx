@@ -28,7 +28,7 @@ export function RequestResetForm() {
 
 export function NewPasswordForm({ token }: { token: string }) {
   const router = useRouter();
-  const { message, fields, call } = useApiCall(["password", "token"]);
+  const { message, fields, call } = useApiCall(["password"]);
   return (
     <form
       className="space-y-5"
