@@ -21,6 +21,8 @@ export interface FieldFrame {
   frameClassName?: string;
   /** Messages shown elsewhere that also speak of this control (a list's one message under its rows). */
   alsoDescribedBy?: string;
+  /** Read the error out as it appears (the tablet's forms, used with gloves and without looking). */
+  announce?: boolean;
 }
 
 /** What a control needs to be read with its hint, unit and error by a screen reader. */
@@ -62,6 +64,7 @@ export function Field({
   unit,
   frameClassName,
   alsoDescribedBy,
+  announce,
   children,
 }: FieldFrame & { children: (aria: FieldAria) => ReactNode }) {
   const aria = fieldAria(id, { hint, error, unit, alsoDescribedBy });
@@ -83,7 +86,7 @@ export function Field({
           {hint}
         </p>
       )}
-      <FieldError id={`${id}-error`} messages={listed(error)} />
+      <FieldError id={`${id}-error`} messages={listed(error)} alert={announce} />
     </div>
   );
 }
@@ -96,6 +99,13 @@ type InputProps = Omit<ComponentPropsWithRef<"input">, "id"> & {
 type SelectProps = Omit<ComponentPropsWithRef<"select">, "id"> & { as: "select" };
 type TextareaProps = Omit<ComponentPropsWithRef<"textarea">, "id"> & { as: "textarea" };
 
+/** The control's own props, without the choice of control. */
+function withoutAs<T extends { as?: string }>(control: T): Omit<T, "as"> {
+  const rest = { ...control };
+  delete rest.as;
+  return rest;
+}
+
 /**
  * The one form field: label, optional hint, the control (a box, a choice or a text area), an
  * optional unit after it and the error under it, the hint and error tied to the control with
@@ -104,7 +114,7 @@ type TextareaProps = Omit<ComponentPropsWithRef<"textarea">, "id"> & { as: "text
  * form. `className` adds to the control's own classes.
  */
 export function FormField(props: FieldFrame & (InputProps | SelectProps | TextareaProps)) {
-  const { id, label, hint, error, unit, frameClassName, alsoDescribedBy, className, ...control } = props;
+  const { id, label, hint, error, unit, frameClassName, alsoDescribedBy, announce, className, ...control } = props;
   const classes = `field-input${className ? ` ${className}` : ""}`;
   return (
     <Field
@@ -115,17 +125,13 @@ export function FormField(props: FieldFrame & (InputProps | SelectProps | Textar
       unit={unit}
       frameClassName={frameClassName}
       alsoDescribedBy={alsoDescribedBy}
+      announce={announce}
     >
       {(aria) => {
-        if (control.as === "select") {
-          const { as: _select, ...rest } = control;
-          return <select {...rest} {...aria} className={classes} />;
-        }
-        if (control.as === "textarea") {
-          const { as: _textarea, ...rest } = control;
-          return <textarea {...rest} {...aria} className={`${classes} py-2`} />;
-        }
-        const { as: _input, numeric, ...rest } = control;
+        if (control.as === "select") return <select {...withoutAs(control)} {...aria} className={classes} />;
+        if (control.as === "textarea")
+          return <textarea {...withoutAs(control)} {...aria} className={`${classes} py-2`} />;
+        const { numeric, ...rest } = withoutAs(control);
         const keypad = numeric ? { inputMode: numeric === "integer" ? "numeric" : "decimal", autoComplete: "off" } : {};
         return <input {...(keypad as object)} {...rest} {...aria} className={classes} />;
       }}

@@ -31,7 +31,12 @@ export function FractionKeys({
   fine?: boolean;
 }) {
   return (
-    <div className="flex flex-wrap items-center gap-1" role="group" aria-label="Fraction keys" data-testid="fraction-keys">
+    <div
+      className="flex flex-wrap items-center gap-1"
+      role="group"
+      aria-label="Fraction keys"
+      data-testid="fraction-keys"
+    >
       <span className="mr-1 text-base text-ink-soft" aria-hidden="true">
         Fraction for <strong>{target}</strong>:
       </span>
