@@ -4,6 +4,7 @@ import { signIn } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { FormMessage } from "@/components/ui/form-message";
+import { placeFields, refusedWords } from "@/lib/client/field-errors";
 import { FormField } from "@/components/ui/form-field";
 import { sendJson } from "@/lib/client/send-json";
 
@@ -30,8 +31,9 @@ export function AcceptInvitationForm({
     const result = await sendJson("POST", "/api/invitations/accept", body);
     if (!result.ok) {
       setBusy(false);
-      setError(result.error.message);
-      setFields(result.error.fields ?? {});
+      const placed = placeFields(result.error.fields, (k) => (k === "name" || k === "password" ? k : null));
+      setError(refusedWords(result.error, placed));
+      setFields(placed.boxes);
       return;
     }
     if (hasAccount) {
