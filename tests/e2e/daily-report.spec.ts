@@ -35,7 +35,10 @@ test("the inspector signs a day's special-inspection report and downloads its PD
 
   await page.getByLabel("Day", { exact: true }).fill(day);
   await page.getByRole("button", { name: "Show the day" }).click();
-  await expect(page.getByRole("heading", { level: 1 })).toHaveText(`Daily special-inspection report: ${day}`);
+  // A whole day of records is read on the server first (the segment's loading state shows meanwhile).
+  await expect(page.getByRole("heading", { level: 1 })).toHaveText(`Daily special-inspection report: ${day}`, {
+    timeout: 30_000,
+  });
   await expect(page.getByTestId("daily-summary")).toContainText(`${row!.tags} stressing record`);
   await expect(page.getByRole("table")).toContainText("marks on the strand");
   await expect(page.getByRole("note", { name: "Caution" })).toContainText("engineer of record");
