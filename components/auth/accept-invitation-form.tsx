@@ -4,7 +4,8 @@ import { signIn } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { FormMessage } from "@/components/ui/form-message";
-import { TextField } from "@/components/ui/text-field";
+import { placeFields, refusedWords } from "@/lib/client/field-errors";
+import { FormField } from "@/components/ui/form-field";
 import { sendJson } from "@/lib/client/send-json";
 
 export function AcceptInvitationForm({
@@ -30,8 +31,9 @@ export function AcceptInvitationForm({
     const result = await sendJson("POST", "/api/invitations/accept", body);
     if (!result.ok) {
       setBusy(false);
-      setError(result.error.message);
-      setFields(result.error.fields ?? {});
+      const placed = placeFields(result.error.fields, (k) => (k === "name" || k === "password" ? k : null));
+      setError(refusedWords(result.error, placed));
+      setFields(placed.boxes);
       return;
     }
     if (hasAccount) {
@@ -56,14 +58,14 @@ export function AcceptInvitationForm({
         <p>You already have a Tautline account as {email}. Accept, then sign in as usual.</p>
       ) : (
         <>
-          <TextField id="name" name="name" autoComplete="name" label="Your name" errors={fields.name} />
-          <TextField
+          <FormField id="name" name="name" autoComplete="name" label="Your name" error={fields.name} />
+          <FormField
             id="password"
             name="password"
             type="password"
             autoComplete="new-password"
             label="Choose a password (10 characters or more)"
-            errors={fields.password}
+            error={fields.password}
           />
         </>
       )}

@@ -2,12 +2,12 @@
 
 import { useRouter } from "next/navigation";
 import { FormMessage } from "@/components/ui/form-message";
-import { TextField } from "@/components/ui/text-field";
+import { FormField } from "@/components/ui/form-field";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
 
 export function RequestResetForm() {
-  const { message, fields, call } = useApiCall();
+  const { message, fields, call } = useApiCall(["email"]);
   return (
     <form
       className="space-y-5"
@@ -18,7 +18,7 @@ export function RequestResetForm() {
       }}
     >
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
-      <TextField id="email" name="email" type="email" autoComplete="username" label="E-mail" errors={fields.email} />
+      <FormField id="email" name="email" type="email" autoComplete="username" label="E-mail" error={fields.email} />
       <button type="submit" className="btn-primary">
         Send a reset link
       </button>
@@ -28,7 +28,7 @@ export function RequestResetForm() {
 
 export function NewPasswordForm({ token }: { token: string }) {
   const router = useRouter();
-  const { message, fields, call } = useApiCall();
+  const { message, fields, call } = useApiCall(["password"]);
   return (
     <form
       className="space-y-5"
@@ -40,13 +40,13 @@ export function NewPasswordForm({ token }: { token: string }) {
       }}
     >
       <FormMessage tone="error">{message?.text}</FormMessage>
-      <TextField
+      <FormField
         id="password"
         name="password"
         type="password"
         autoComplete="new-password"
         label="New password (10 characters or more)"
-        errors={fields.password}
+        error={fields.password}
       />
       <button type="submit" className="btn-primary">
         Save the new password

@@ -3,6 +3,7 @@
 import type { SignInOptions, SignInResponse } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
+import { FormField } from "@/components/ui/form-field";
 import { FormMessage } from "@/components/ui/form-message";
 
 // next-auth's client code loads only when a button is pressed, not with the page: the page's
@@ -20,10 +21,12 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
   const router = useRouter();
   const [error, setError] = useState<string | undefined>(initialError);
   const [busy, setBusy] = useState<"password" | "link" | null>(null);
+  const [emailError, setEmailError] = useState<string>();
 
   async function withPassword(form: FormData) {
     setBusy("password");
     setError(undefined);
+    setEmailError(undefined);
     const result = await signIn("credentials", {
       email: String(form.get("email") ?? ""),
       password: String(form.get("password") ?? ""),
@@ -38,9 +41,10 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
 
   async function withLink(form: FormData) {
     const email = String(form.get("email") ?? "").trim();
-    if (!email) return setError("Enter your e-mail address first, then ask for a link.");
-    setBusy("link");
     setError(undefined);
+    if (!email) return setEmailError("Enter your e-mail address first, then ask for a link.");
+    setEmailError(undefined);
+    setBusy("link");
     await signIn("email", { email, callbackUrl, redirect: false });
     router.push("/sign-in/check-email");
   }
@@ -54,24 +58,16 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
       }}
     >
       <FormMessage tone="error">{error}</FormMessage>
-      <div>
-        <label htmlFor="email" className="field-label">
-          E-mail
-        </label>
-        <input id="email" name="email" type="email" autoComplete="username" required className="field-input mt-1" />
-      </div>
-      <div>
-        <label htmlFor="password" className="field-label">
-          Password
-        </label>
-        <input
-          id="password"
-          name="password"
-          type="password"
-          autoComplete="current-password"
-          className="field-input mt-1"
-        />
-      </div>
+      <FormField
+        id="email"
+        name="email"
+        type="email"
+        label="E-mail"
+        autoComplete="username"
+        required
+        error={emailError}
+      />
+      <FormField id="password" name="password" type="password" label="Password" autoComplete="current-password" />
       <div className="flex flex-wrap gap-3">
         <button type="submit" className="btn-primary" disabled={busy !== null}>
           {busy === "password" ? "Signing in…" : "Sign in"}

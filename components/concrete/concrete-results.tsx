@@ -4,7 +4,8 @@ import { useState, type FormEvent } from "react";
 import { mutate } from "swr";
 import { RefreshError, useRouteData } from "@/components/setup/use-route-data";
 import { FormMessage } from "@/components/ui/form-message";
-import { TextField } from "@/components/ui/text-field";
+import { FormField } from "@/components/ui/form-field";
+import { FieldError } from "@/components/ui/form-message";
 import { FileUpload } from "@/components/uploads/file-upload";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
@@ -28,7 +29,7 @@ export function ConcreteResults(props: {
 }) {
   const key = `/api/projects/${props.projectId}/pours/${props.pourId}/concrete-results`;
   const { data, error } = useRouteData(key, props.initial);
-  const { message, fields, busy, call } = useApiCall();
+  const { message, fields, busy, call } = useApiCall(["strengthMPa", "ageDays", "specimenCount", "attachmentId"]);
   const [local, setLocal] = useState<Record<string, string[]>>({});
   const [attachmentId, setAttachmentId] = useState<string | null>(null);
   const unit = props.us ? "psi" : "MPa";
@@ -170,26 +171,26 @@ export function ConcreteResults(props: {
               </label>
             </div>
           </fieldset>
-          <TextField
+          <FormField
             id="concrete-strength"
             name="strength"
             label={`Average strength of the set (${unit})`}
-            inputMode="decimal"
-            errors={err("strengthMPa")}
+            numeric
+            error={err("strengthMPa")}
           />
-          <TextField
+          <FormField
             id="concrete-age"
             name="ageDays"
             label="Age at test (days)"
-            inputMode="numeric"
-            errors={err("ageDays")}
+            numeric="integer"
+            error={err("ageDays")}
           />
-          <TextField
+          <FormField
             id="concrete-count"
             name="specimenCount"
             label="Specimens broken"
-            inputMode="numeric"
-            errors={err("specimenCount")}
+            numeric="integer"
+            error={err("specimenCount")}
           />
           <div>
             <FileUpload
@@ -198,9 +199,7 @@ export function ConcreteResults(props: {
               label="Lab report (optional)"
               onUploaded={(f) => setAttachmentId(f.id)}
             />
-            {err("attachmentId").length > 0 && (
-              <p className="font-semibold text-signal-stop">{err("attachmentId").join(" ")}</p>
-            )}
+            <FieldError id="concrete-attachment-error" messages={err("attachmentId")} />
           </div>
           <div className="sm:col-span-2">
             <button type="submit" className="btn-primary" disabled={busy}>

@@ -4,7 +4,9 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { useSWRConfig } from "swr";
 import { z } from "zod";
+import { FormField } from "@/components/ui/form-field";
 import { FormMessage } from "@/components/ui/form-message";
+import { placeFields, refusedWords } from "@/lib/client/field-errors";
 import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { calibrationCorrectionSchema, calibrationSchema, type CalibrationInput } from "@/lib/schemas/calibration";
@@ -107,9 +109,9 @@ export function CorrectCalibration(props: {
     setBusy(false);
     if (!r.ok) {
       setPreview(null);
-      for (const [k, m] of Object.entries(r.error.fields ?? {}))
-        form.setError(fieldOf(k) in form.getValues() ? fieldOf(k) : ("root" as keyof Boxes), { message: m.join(" ") });
-      return setMessage({ tone: "error", text: r.error.message });
+      const placed = placeFields(r.error.fields, (k) => (fieldOf(k) in form.getValues() ? fieldOf(k) : null));
+      for (const [k, m] of Object.entries(placed.boxes)) form.setError(k as keyof Boxes, { message: m.join(" ") });
+      return setMessage({ tone: "error", text: refusedWords(r.error, placed) });
     }
     if (!preview) {
       setPreview(r.data as CalibrationCorrectionPreview);
@@ -149,60 +151,33 @@ export function CorrectCalibration(props: {
               ["laboratory", "Laboratory (optional)", "text"],
             ] as const
           ).map(([name, label, type]) => (
-            <div key={name}>
-              <label htmlFor={`${id}-${name}`} className="field-label">
-                {label}
-              </label>
-              <input
-                id={`${id}-${name}`}
-                type={type}
-                className="field-input mt-1"
-                aria-invalid={e[name] ? true : undefined}
-                aria-describedby={`${id}-${name}-error`}
-                {...form.register(name)}
-              />
-              {e[name]?.message && (
-                <p id={`${id}-${name}-error`} className="mt-1 font-semibold text-signal-stop">
-                  {e[name]?.message}
-                </p>
-              )}
-            </div>
+            <FormField
+              key={name}
+              id={`${id}-${name}`}
+              type={type}
+              label={label}
+              error={e[name]?.message}
+              {...form.register(name)}
+            />
           ))}
         </div>
-        <div>
-          <label htmlFor={`${id}-points`} className="field-label">
-            Calibration points: gauge pressure, force ({props.us ? "psi, kip" : "MPa, kN"}), one pair per line
-          </label>
-          <textarea
-            id={`${id}-points`}
-            rows={6}
-            className="field-input mt-1 py-2 font-mono"
-            aria-describedby={`${id}-points-error`}
-            {...form.register("pointsText")}
-          />
-          {e.pointsText?.message && (
-            <p id={`${id}-points-error`} className="mt-1 font-semibold text-signal-stop">
-              {e.pointsText.message}
-            </p>
-          )}
-        </div>
-        <div>
-          <label htmlFor={`${id}-reason`} className="field-label">
-            Why it is corrected
-          </label>
-          <textarea
-            id={`${id}-reason`}
-            rows={2}
-            className="field-input mt-1 py-2"
-            aria-describedby={`${id}-reason-error`}
-            {...form.register("reason")}
-          />
-          {e.reason?.message && (
-            <p id={`${id}-reason-error`} className="mt-1 font-semibold text-signal-stop">
-              {e.reason.message}
-            </p>
-          )}
-        </div>
+        <FormField
+          as="textarea"
+          id={`${id}-points`}
+          rows={6}
+          className="font-mono"
+          label={`Calibration points: gauge pressure, force (${props.us ? "psi, kip" : "MPa, kN"}), one pair per line`}
+          error={e.pointsText?.message}
+          {...form.register("pointsText")}
+        />
+        <FormField
+          as="textarea"
+          id={`${id}-reason`}
+          rows={2}
+          label="Why it is corrected"
+          error={e.reason?.message}
+          {...form.register("reason")}
+        />
         {preview && (
           <p
             role="status"

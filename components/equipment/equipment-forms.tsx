@@ -6,7 +6,9 @@ import { useSWRConfig } from "swr";
 import { z } from "zod";
 import { units } from "@/lib/client/unit-fields";
 import { FileUpload } from "@/components/uploads/file-upload";
-import { FormMessage } from "@/components/ui/form-message";
+import { FormField } from "@/components/ui/form-field";
+import { FieldError, FormMessage } from "@/components/ui/form-message";
+import { placeFields, refusedWords } from "@/lib/client/field-errors";
 import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { calibrationSchema, type CalibrationInput } from "@/lib/schemas/calibration";
@@ -15,25 +17,6 @@ import { isInputError, parseForce, parsePressure } from "@/lib/units";
 import { equipmentSetsKey, useEquipmentSets, type EquipmentSetList } from "./equipment-list";
 
 type Errors = Record<string, { message?: string } | undefined>;
-
-function Text({
-  id,
-  label,
-  error,
-  hint,
-  ...rest
-}: { id: string; label: string; error?: string; hint?: string } & React.InputHTMLAttributes<HTMLInputElement>) {
-  return (
-    <div>
-      <label htmlFor={id} className="field-label">
-        {label}
-      </label>
-      <input id={id} className="field-input mt-1" aria-invalid={error ? true : undefined} {...rest} />
-      {hint && <p className="mt-1 text-label text-ink-faint">{hint}</p>}
-      {error && <p className="mt-1 font-semibold text-signal-stop">{error}</p>}
-    </div>
-  );
-}
 
 function setFields(us: boolean) {
   const system = us ? "US" : "SI";
@@ -71,8 +54,9 @@ export function EquipmentSetForm({ projectId, us }: { projectId: string; us: boo
   const onSubmit = form.handleSubmit(async (values) => {
     const r = await sendJson("POST", `/api/projects/${projectId}/equipment-sets`, values);
     if (!r.ok) {
-      for (const [k, m] of Object.entries(r.error.fields ?? {})) form.setError(k as "name", { message: m.join(" ") });
-      return setMessage({ tone: "error", text: r.error.message });
+      const placed = placeFields(r.error.fields, (k) => (k in setFields(us) ? k : null));
+      for (const [k, m] of Object.entries(placed.boxes)) form.setError(k as "name", { message: m.join(" ") });
+      return setMessage({ tone: "error", text: refusedWords(r.error, placed) });
     }
     setMessage({ tone: "info", text: `${values.name} added. Add its calibration next.` });
     form.reset();
@@ -84,33 +68,33 @@ export function EquipmentSetForm({ projectId, us }: { projectId: string; us: boo
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
       <FormMessage tone="error">{e.root?.message}</FormMessage>
       <div className="grid gap-4 md:grid-cols-3">
-        <Text id="e-name" label="Set name" error={e.name?.message} {...form.register("name")} />
-        <Text id="e-jack" label="Jack serial" error={e.jackSerial?.message} {...form.register("jackSerial")} />
-        <Text id="e-gauge" label="Gauge serial" error={e.gaugeSerial?.message} {...form.register("gaugeSerial")} />
-        <Text
+        <FormField id="e-name" label="Set name" error={e.name?.message} {...form.register("name")} />
+        <FormField id="e-jack" label="Jack serial" error={e.jackSerial?.message} {...form.register("jackSerial")} />
+        <FormField id="e-gauge" label="Gauge serial" error={e.gaugeSerial?.message} {...form.register("gaugeSerial")} />
+        <FormField
           id="e-pump"
           label="Pump serial (optional)"
           error={e.pumpSerial?.message}
           {...form.register("pumpSerial")}
         />
-        <Text
+        <FormField
           id="e-grip"
           label={`Jack grip length, ${us ? "in" : "mm"} (optional)`}
-          inputMode="decimal"
+          numeric
           error={e.jackGripMm?.message}
           {...form.register("jackGripMm")}
         />
-        <Text
+        <FormField
           id="e-max"
           label={`Rated force, ${us ? "kip" : "kN"} (optional)`}
-          inputMode="decimal"
+          numeric
           error={e.maxForceN?.message}
           {...form.register("maxForceN")}
         />
-        <Text
+        <FormField
           id="e-draw-in"
           label={`Draw-in per re-grip, ${us ? "in" : "mm"} (optional)`}
-          inputMode="decimal"
+          numeric
           hint="What the wedges give back each time the jack re-grips between strokes, from the jack maker or a trial pull. Ram-travel records that type none use it."
           error={e.drawInMm?.message}
           {...form.register("drawInMm")}
@@ -208,9 +192,11 @@ export function CalibrationForm({
       values,
     );
     if (!r.ok) {
-      for (const [k, m] of Object.entries(r.error.fields ?? {}))
-        form.setError((k.startsWith("points") ? "pointsText" : k) as "calibratedOn", { message: m.join(" ") });
-      return setMessage({ tone: "error", text: r.error.message });
+      const placed = placeFields(r.error.fields, (k) =>
+        k.startsWith("points") ? "pointsText" : k in calFields(us) ? k : null,
+      );
+      for (const [k, m] of Object.entries(placed.boxes)) form.setError(k as "calibratedOn", { message: m.join(" ") });
+      return setMessage({ tone: "error", text: refusedWords(r.error, placed) });
     }
     setMessage({
       tone: "info",
@@ -226,26 +212,27 @@ export function CalibrationForm({
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
       <FormMessage tone="error">{e.root?.message}</FormMessage>
       <div className="grid gap-4 md:grid-cols-3">
-        <div>
-          <label htmlFor="c-set" className="field-label">
-            Equipment set
-          </label>
-          <select id="c-set" className="field-input mt-1" value={setId} onChange={(ev) => setChosen(ev.target.value)}>
-            {sets.map((s) => (
-              <option key={s.id} value={s.id}>
-                {s.name}
-              </option>
-            ))}
-          </select>
-        </div>
-        <Text
+        <FormField
+          as="select"
+          id="c-set"
+          label="Equipment set"
+          value={setId}
+          onChange={(ev) => setChosen(ev.target.value)}
+        >
+          {sets.map((s) => (
+            <option key={s.id} value={s.id}>
+              {s.name}
+            </option>
+          ))}
+        </FormField>
+        <FormField
           id="c-on"
           type="date"
           label="Calibrated on"
           error={e.calibratedOn?.message}
           {...form.register("calibratedOn")}
         />
-        <Text
+        <FormField
           id="c-until"
           type="date"
           label="Valid until (optional)"
@@ -254,27 +241,31 @@ export function CalibrationForm({
           {...form.register("validUntil")}
         />
       </div>
-      <div>
-        <label htmlFor="c-points" className="field-label">
-          Calibration points: gauge pressure, force ({us ? "psi, kip" : "MPa, kN"}), one pair per line
-        </label>
-        <textarea
-          id="c-points"
-          rows={6}
-          className="field-input mt-1 py-2 font-mono"
-          placeholder={us ? "1000, 6.3\n2000, 13.4" : "10, 50.2\n20, 101.6"}
-          {...form.register("pointsText")}
-        />
-        {(e.pointsText?.message || e.points?.message) && (
-          <p className="mt-1 font-semibold text-signal-stop">{e.pointsText?.message ?? e.points?.message}</p>
-        )}
-      </div>
-      <Text id="c-lab" label="Laboratory (optional)" {...form.register("laboratory")} />
+      <FormField
+        as="textarea"
+        id="c-points"
+        rows={6}
+        className="font-mono"
+        label={`Calibration points: gauge pressure, force (${us ? "psi, kip" : "MPa, kN"}), one pair per line`}
+        placeholder={us ? "1000, 6.3\n2000, 13.4" : "10, 50.2\n20, 101.6"}
+        error={e.pointsText?.message ?? e.points?.message}
+        {...form.register("pointsText")}
+      />
+      <FormField
+        id="c-lab"
+        label="Laboratory (optional)"
+        error={e.laboratory?.message}
+        {...form.register("laboratory")}
+      />
       <FileUpload
         projectId={projectId}
         purpose="calibration_certificate"
         label="Calibration certificate file"
         onUploaded={(f) => form.setValue("certificateAttachmentId", f.id)}
+      />
+      <FieldError
+        id="c-certificate-error"
+        messages={e.certificateAttachmentId?.message ? [e.certificateAttachmentId.message] : undefined}
       />
       <button className="btn-primary" type="submit">
         Save calibration

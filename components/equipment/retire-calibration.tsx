@@ -2,7 +2,8 @@
 
 import { useState } from "react";
 import { useSWRConfig } from "swr";
-import { FieldError, FormMessage } from "@/components/ui/form-message";
+import { FormField } from "@/components/ui/form-field";
+import { FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
 import { equipmentSetsKey } from "./equipment-list";
@@ -18,7 +19,7 @@ export function RetireCalibration(props: {
   calibratedOn: string;
 }) {
   const { mutate } = useSWRConfig();
-  const { message, fields, busy, call } = useApiCall();
+  const { message, fields, busy, call } = useApiCall(["reason"]);
   const [reason, setReason] = useState("");
   const id = `retire-${props.calibrationId}`;
   return (
@@ -41,21 +42,16 @@ export function RetireCalibration(props: {
         }}
       >
         <FormMessage tone={message?.tone ?? "error"}>{message?.text}</FormMessage>
-        <label htmlFor={`${id}-reason`} className="field-label">
-          Why it is retired
-        </label>
-        <textarea
+        <FormField
+          as="textarea"
           id={`${id}-reason`}
           rows={2}
-          className="field-input py-2"
+          label="Why it is retired"
+          hint="It will not be used again; the tendons read with it are judged again. Evaluations already stored keep it."
           value={reason}
           onChange={(e) => setReason(e.target.value)}
-          aria-describedby={`${id}-error`}
+          error={fields.reason}
         />
-        <FieldError id={`${id}-error`} messages={fields.reason} />
-        <p className="text-label text-ink-soft">
-          It will not be used again; the tendons read with it are judged again. Evaluations already stored keep it.
-        </p>
         <button type="submit" className="btn-primary" disabled={busy}>
           Retire the calibration of {props.calibratedOn}
         </button>

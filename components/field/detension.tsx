@@ -1,4 +1,5 @@
 "use client";
+import { FormField } from "@/components/ui/form-field";
 import { useId, useState } from "react";
 import { SafetyCaution } from "@/components/ui/caution";
 import { formatDateTime, instantFromLocalInput, localInputValue, projectTimeZone } from "@/lib/format/dates";
@@ -11,7 +12,7 @@ import { entryUnitsFor } from "@/lib/schemas/record";
 import type { FieldProject, FieldTendon } from "@/lib/schemas/sync";
 import { zodFields } from "@/lib/schemas/zod-fields";
 import { isInputError, parsePressure } from "@/lib/units";
-import { Problem, SetChoice } from "./follow-up-fields";
+import { SetChoice } from "./follow-up-fields";
 import { useField } from "./field-provider";
 import { useLiveQuery as useLive } from "dexie-react-hooks";
 
@@ -231,12 +232,6 @@ function DetensionForm(props: {
     }
   };
 
-  const box = (field: Field, id: string) => ({
-    id,
-    "aria-invalid": Boolean(errors[field]),
-    "aria-describedby": errors[field] ? `${id}-error` : undefined,
-  });
-
   return (
     <form className="grid gap-4" onSubmit={(e) => void submit(e)} noValidate data-testid="detension-form">
       {errors.root && (
@@ -244,34 +239,26 @@ function DetensionForm(props: {
           {errors.root}
         </p>
       )}
-      <div>
-        <label htmlFor={ids.when} className="field-label">
-          When ({timeZone})
-        </label>
-        <input
-          {...box("detensionedAt", ids.when)}
-          type="datetime-local"
-          className="field-input mt-1"
-          value={when}
-          onChange={(e) => setWhen(e.target.value)}
-          data-testid="detension-when"
-        />
-        <Problem id={`${ids.when}-error`} message={errors.detensionedAt} />
-      </div>
-      <div>
-        <label htmlFor={ids.operator} className="field-label">
-          Jack operator
-        </label>
-        <input
-          {...box("operatorName", ids.operator)}
-          className="field-input mt-1"
-          autoComplete="off"
-          value={operator}
-          onChange={(e) => setOperator(e.target.value)}
-          data-testid="detension-operator"
-        />
-        <Problem id={`${ids.operator}-error`} message={errors.operatorName} />
-      </div>
+      <FormField
+        id={ids.when}
+        label={`When (${timeZone})`}
+        type="datetime-local"
+        value={when}
+        onChange={(e) => setWhen(e.target.value)}
+        data-testid="detension-when"
+        error={errors.detensionedAt}
+        announce
+      />
+      <FormField
+        id={ids.operator}
+        label="Jack operator"
+        autoComplete="off"
+        value={operator}
+        onChange={(e) => setOperator(e.target.value)}
+        data-testid="detension-operator"
+        error={errors.operatorName}
+        announce
+      />
       <SetChoice
         name="detension-set"
         sets={sets}
@@ -281,51 +268,38 @@ function DetensionForm(props: {
         error={errors.equipmentSetId}
       />
       <div className="grid gap-4 landscape:grid-cols-2">
-        <div>
-          <label htmlFor={ids.pressure} className="field-label">
-            Gauge pressure at release ({unit}, if read)
-          </label>
-          <input
-            {...box("pressure", ids.pressure)}
-            className="field-input mt-1"
-            inputMode="decimal"
-            autoComplete="off"
-            value={pressure}
-            onChange={(e) => setPressure(e.target.value)}
-            data-testid="detension-pressure"
-          />
-          <Problem id={`${ids.pressure}-error`} message={errors.pressure} />
-        </div>
-        <div>
-          <label htmlFor={ids.strands} className="field-label">
-            Strands detensioned (of {tendon.strandCount})
-          </label>
-          <input
-            {...box("strandsDetensioned", ids.strands)}
-            className="field-input mt-1"
-            inputMode="numeric"
-            autoComplete="off"
-            value={strands}
-            onChange={(e) => setStrands(e.target.value)}
-            data-testid="detension-strands"
-          />
-          <Problem id={`${ids.strands}-error`} message={errors.strandsDetensioned} />
-        </div>
-      </div>
-      <div>
-        <label htmlFor={ids.remarks} className="field-label">
-          Remarks
-        </label>
-        <textarea
-          {...box("remarks", ids.remarks)}
-          className="field-input mt-1"
-          rows={2}
-          value={remarks}
-          onChange={(e) => setRemarks(e.target.value)}
-          data-testid="detension-remarks"
+        <FormField
+          id={ids.pressure}
+          label={`Gauge pressure at release (${unit}, if read)`}
+          numeric
+          value={pressure}
+          onChange={(e) => setPressure(e.target.value)}
+          data-testid="detension-pressure"
+          error={errors.pressure}
+          announce
         />
-        <Problem id={`${ids.remarks}-error`} message={errors.remarks} />
+        <FormField
+          id={ids.strands}
+          label={`Strands detensioned (of ${tendon.strandCount})`}
+          numeric="integer"
+          value={strands}
+          onChange={(e) => setStrands(e.target.value)}
+          data-testid="detension-strands"
+          error={errors.strandsDetensioned}
+          announce
+        />
       </div>
+      <FormField
+        as="textarea"
+        id={ids.remarks}
+        label="Remarks"
+        rows={2}
+        value={remarks}
+        onChange={(e) => setRemarks(e.target.value)}
+        data-testid="detension-remarks"
+        error={errors.remarks}
+        announce
+      />
       <p>
         Recorded by <strong>{session.name}</strong>. After the detension the tendon stays held until its restress is
         logged.

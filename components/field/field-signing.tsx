@@ -1,5 +1,6 @@
 "use client";
 
+import { FormField } from "@/components/ui/form-field";
 import { useEffect, useState } from "react";
 import useSWR from "swr";
 import { DailySignForm } from "@/components/reports/daily-sign-form";
@@ -134,39 +135,30 @@ export function FieldSigning() {
       {inspecting.length > 0 && (
         <div className="grid gap-3 md:grid-cols-2">
           {inspecting.length > 1 && (
-            <div>
-              <label htmlFor="sign-project" className="field-label">
-                Project
-              </label>
-              <select
-                id="sign-project"
-                className="field-input mt-1"
-                value={projectId}
-                onChange={(e) => {
-                  setProjectId(e.target.value);
-                  setPourId("");
-                }}
-              >
-                {inspecting.map((m) => (
-                  <option key={m.projectId} value={m.projectId}>
-                    {m.projectCode} · {m.projectName}
-                  </option>
-                ))}
-              </select>
-            </div>
+            <FormField
+              as="select"
+              id="sign-project"
+              label="Project"
+              value={projectId}
+              onChange={(e) => {
+                setProjectId(e.target.value);
+                setPourId("");
+              }}
+            >
+              {inspecting.map((m) => (
+                <option key={m.projectId} value={m.projectId}>
+                  {m.projectCode} · {m.projectName}
+                </option>
+              ))}
+            </FormField>
           )}
-          <div>
-            <label htmlFor="sign-day" className="field-label">
-              Day{daily ? ` (${daily.timeZone})` : ""}
-            </label>
-            <input
-              id="sign-day"
-              type="date"
-              className="field-input mt-1"
-              value={day}
-              onChange={(e) => setDay(e.target.value)}
-            />
-          </div>
+          <FormField
+            id="sign-day"
+            type="date"
+            label={`Day${daily ? ` (${daily.timeZone})` : ""}`}
+            value={day}
+            onChange={(e) => setDay(e.target.value)}
+          />
         </div>
       )}
 

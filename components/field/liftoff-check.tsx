@@ -1,4 +1,5 @@
 "use client";
+import { FormField } from "@/components/ui/form-field";
 import { useId, useState } from "react";
 import { SafetyCaution } from "@/components/ui/caution";
 import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
@@ -264,23 +265,17 @@ function LiftoffForm(props: {
         error={errors.equipmentSetId}
       />
 
-      <div>
-        <label htmlFor={ids.pressure} className="field-label">
-          Gauge pressure at lift-off ({unit})
-        </label>
-        <input
-          id={ids.pressure}
-          className="field-input mt-1 text-lead"
-          inputMode="decimal"
-          autoComplete="off"
-          value={pressure}
-          onChange={(e) => setPressure(e.target.value)}
-          aria-invalid={Boolean(errors.pressure)}
-          aria-describedby={errors.pressure ? `${ids.pressure}-error` : undefined}
-          data-testid="liftoff-pressure"
-        />
-        <Problem id={`${ids.pressure}-error`} message={errors.pressure} />
-      </div>
+      <FormField
+        id={ids.pressure}
+        label={`Gauge pressure at lift-off (${unit})`}
+        className="text-lead"
+        numeric
+        value={pressure}
+        onChange={(e) => setPressure(e.target.value)}
+        data-testid="liftoff-pressure"
+        error={errors.pressure}
+        announce
+      />
 
       <p>
         Checked by <strong>{session.name}</strong>, now. Read the gauge the moment the wedges lift off the anchor plate.

@@ -10,7 +10,7 @@ import type { FlagMailMode } from "@/lib/schemas/flag-mail";
 /** The engineer's own choice on one project: an e-mail for each flag, or one digest per shift. */
 export function FlagMailForm(props: { projectId: string; mode: FlagMailMode; shiftEnds: string; nextEnd: string }) {
   const router = useRouter();
-  const { message, fields, busy, call } = useApiCall();
+  const { message, fields, busy, call } = useApiCall(["mode"]);
   const [mode, setMode] = useState<FlagMailMode>(props.mode);
   const changed = mode !== props.mode;
   return (
@@ -38,7 +38,7 @@ export function FlagMailForm(props: { projectId: string; mode: FlagMailMode; shi
       }}
     >
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
-      <fieldset aria-describedby="flag-mail-error" className="space-y-3">
+      <fieldset aria-describedby={fields.mode ? "flag-mail-error" : undefined} className="space-y-3">
         <legend className="field-label">How flags reach you on this project</legend>
         <label className="flex min-h-12 items-start gap-3 rounded-md border border-concrete-300 p-3">
           <input

@@ -4,7 +4,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import { FieldError, FormMessage } from "@/components/ui/form-message";
-import { TextField } from "@/components/ui/text-field";
+import { FormField } from "@/components/ui/form-field";
 import type { Role } from "@/db/types";
 import { ROLE_LABELS, ROLES } from "@/lib/auth/permissions";
 import { sendJson } from "@/lib/client/send-json";
@@ -53,7 +53,10 @@ export function MembersPanel(props: {
   timeZone: string;
 }) {
   const router = useRouter();
-  const { message, fields, call } = useApiCall();
+  // The invitation's refusals beside its boxes; a change of role or a removal answers in the table.
+  const invite = useApiCall(["email", "role"]);
+  const { message, call } = useApiCall(["role"]);
+  const fields = invite.fields;
   const base = `/api/projects/${props.projectId}`;
   const [pending, setPending] = useState<Pending | null>(null);
   // What each select shows while a change waits for its confirmation or for the server.
@@ -106,34 +109,29 @@ export function MembersPanel(props: {
             const form = e.currentTarget;
             const data = new FormData(form);
             const email = String(data.get("email") ?? "");
-            const ok = await run(
+            const result = await invite.call(
               sendJson("POST", `${base}/invitations`, { email, role: data.get("role") }),
               `Invitation sent to ${email}.`,
             );
-            if (ok) form.reset();
+            if (result.ok) {
+              form.reset();
+              router.refresh();
+            }
           }}
         >
-          <TextField id="invite-email" name="email" type="email" label="E-mail" errors={fields.email} />
-          <div>
-            <label htmlFor="invite-role" className="field-label">
-              Role
-            </label>
-            <select
-              id="invite-role"
-              name="role"
-              className="field-input mt-1"
-              defaultValue="crew"
-              aria-invalid={fields.role ? true : undefined}
-              aria-describedby={fields.role ? "invite-role-error" : undefined}
-            >
-              {ROLES.map((r) => (
-                <option key={r} value={r}>
-                  {ROLE_LABELS[r]}
-                </option>
-              ))}
-            </select>
-            <FieldError id="invite-role-error" messages={fields.role} />
-          </div>
+          {invite.message && (
+            <div className="md:col-span-3">
+              <FormMessage tone={invite.message.tone}>{invite.message.text}</FormMessage>
+            </div>
+          )}
+          <FormField id="invite-email" name="email" type="email" label="E-mail" error={fields.email} />
+          <FormField as="select" id="invite-role" name="role" label="Role" defaultValue="crew" error={fields.role}>
+            {ROLES.map((r) => (
+              <option key={r} value={r}>
+                {ROLE_LABELS[r]}
+              </option>
+            ))}
+          </FormField>
           <button type="submit" className="btn-primary">
             Send invitation
           </button>
@@ -168,7 +166,8 @@ export function MembersPanel(props: {
                     id={`role-${m.userId}`}
                     className="field-input"
                     value={shownRole[m.userId] ?? m.role}
-                    aria-describedby={`role-${m.userId}-error`}
+                    aria-invalid={rowError[m.userId]?.length ? true : undefined}
+                    aria-describedby={rowError[m.userId]?.length ? `role-${m.userId}-error` : undefined}
                     onChange={(e) => {
                       const to = e.target.value as Role;
                       if (to === m.role) return;

@@ -3,6 +3,7 @@
 import { useState } from "react";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import { SignerFields } from "./signer-fields";
+import { FormField } from "@/components/ui/form-field";
 import { FieldError, FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
@@ -10,6 +11,13 @@ import type { WitnessGroupView } from "@/lib/reports/daily-rows";
 import { WITNESS_EXTENTS, type DailyAttestation } from "@/lib/schemas/daily-report";
 
 const EXTENT_BUTTONS = { full: "In full", part: "In part", none: "Not witnessed" } as const;
+
+/** The boxes and choices the form shows, as the route names them. */
+const DAILY_BOXES = (path: string) =>
+  /^witness(\.\d+\.(extent|group|witnessedBy|note))?$/.test(path) ||
+  ["conformance", "remarks", "signerName", "licence", "statement"].includes(path)
+    ? path
+    : null;
 
 /**
  * The inspector's signature of the day's report, the same in the office and on the tablet: the
@@ -46,7 +54,7 @@ export function DailySignForm({
   onSigned: (revision: number) => void;
   idPrefix?: string;
 }) {
-  const { message, fields, busy, call } = useApiCall();
+  const { message, fields, busy, call } = useApiCall(DAILY_BOXES);
   const [pending, setPending] = useState<Record<string, unknown> | null>(null);
   const [conformance, setConformance] = useState<string>("");
   const id = (name: string) => `${idPrefix}-${name}`;
@@ -88,7 +96,7 @@ export function DailySignForm({
     >
       <FormMessage tone="error">{message?.text}</FormMessage>
 
-      <fieldset className="space-y-3" aria-describedby={id("witness-error")}>
+      <fieldset className="space-y-3" aria-describedby={fields.witness ? id("witness-error") : undefined}>
         <legend className="text-lead font-bold">What you witnessed</legend>
         {groups.length === 0 && <p className="text-ink-soft">No tendon was stressed this day.</p>}
         <FieldError id={id("witness-error")} messages={fields.witness} />
@@ -130,39 +138,27 @@ export function DailySignForm({
                 messages={[...(err("extent") ?? []), ...(err("group") ?? [])]}
               />
               <div className="grid gap-2 md:grid-cols-2">
-                <div>
-                  <label htmlFor={id(`witness-${i}-by`)} className="field-label">
-                    Witnessed by
-                  </label>
-                  <input
-                    id={id(`witness-${i}-by`)}
-                    name={`witness.${i}.witnessedBy`}
-                    defaultValue={was?.witnessedBy ?? signerName}
-                    className="field-input mt-1"
-                    aria-describedby={id(`witness-${i}-by-error`)}
-                  />
-                  <FieldError id={id(`witness-${i}-by-error`)} messages={err("witnessedBy")} />
-                </div>
-                <div>
-                  <label htmlFor={id(`witness-${i}-note`)} className="field-label">
-                    Which part, or why not
-                  </label>
-                  <input
-                    id={id(`witness-${i}-note`)}
-                    name={`witness.${i}.note`}
-                    defaultValue={was?.note ?? ""}
-                    className="field-input mt-1"
-                    aria-describedby={id(`witness-${i}-note-error`)}
-                  />
-                  <FieldError id={id(`witness-${i}-note-error`)} messages={err("note")} />
-                </div>
+                <FormField
+                  id={id(`witness-${i}-by`)}
+                  name={`witness.${i}.witnessedBy`}
+                  label="Witnessed by"
+                  defaultValue={was?.witnessedBy ?? signerName}
+                  error={err("witnessedBy")}
+                />
+                <FormField
+                  id={id(`witness-${i}-note`)}
+                  name={`witness.${i}.note`}
+                  label="Which part, or why not"
+                  defaultValue={was?.note ?? ""}
+                  error={err("note")}
+                />
               </div>
             </fieldset>
           );
         })}
       </fieldset>
 
-      <fieldset className="space-y-2" aria-describedby={id("conformance-error")}>
+      <fieldset className="space-y-2" aria-describedby={fields.conformance ? id("conformance-error") : undefined}>
         <legend className="text-lead font-bold">Statement of conformance</legend>
         <p className="text-ink-soft">Choose one; nothing is assumed.</p>
         <div className="flex flex-wrap gap-2">
@@ -204,24 +200,16 @@ export function DailySignForm({
         )}
       </fieldset>
 
-      <div>
-        <label htmlFor={id("remarks")} className="field-label">
-          Your remarks for the day
-        </label>
-        <p id={id("remarks-hint")} className="text-label text-ink-soft">
-          What you observed that the records do not say: weather, access, what you asked for. Printed on the report;
-          changing them needs a new signature.
-        </p>
-        <textarea
-          id={id("remarks")}
-          name="remarks"
-          rows={3}
-          defaultValue={remarks}
-          className="field-input mt-1 py-2"
-          aria-describedby={`${id("remarks-hint")} ${id("remarks-error")}`}
-        />
-        <FieldError id={id("remarks-error")} messages={fields.remarks} />
-      </div>
+      <FormField
+        as="textarea"
+        id={id("remarks")}
+        name="remarks"
+        label="Your remarks for the day"
+        hint="What you observed that the records do not say: weather, access, what you asked for. Printed on the report; changing them needs a new signature."
+        rows={3}
+        defaultValue={remarks}
+        error={fields.remarks}
+      />
       <SignerFields
         id={(part) => id(`sign-${part}`)}
         signerName={signerName}

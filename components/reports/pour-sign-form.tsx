@@ -30,7 +30,7 @@ export function PourSignForm({
   onSigned: (revision: number) => void;
   idPrefix?: string;
 }) {
-  const { message, fields, busy, call } = useApiCall();
+  const { message, fields, busy, call } = useApiCall(["signerName", "licence", "statement"]);
   const [pending, setPending] = useState<Record<string, string> | null>(null);
   const id = (name: string) => `${idPrefix}-${name}`;
 

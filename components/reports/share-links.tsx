@@ -2,7 +2,8 @@
 
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { FieldError, FormMessage } from "@/components/ui/form-message";
+import { FormField } from "@/components/ui/form-field";
+import { FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
 
@@ -17,7 +18,7 @@ export interface ShareLinkView {
 /** Makes and revokes the project's read-only links; a new link's address is shown once. */
 export function ShareLinks({ projectId, links }: { projectId: string; links: ShareLinkView[] }) {
   const router = useRouter();
-  const { message, fields, busy, call } = useApiCall();
+  const { message, fields, busy, call } = useApiCall(["label", "days"]);
   const [made, setMade] = useState<string>();
   const api = `/api/projects/${projectId}/share-links`;
   return (
@@ -42,34 +43,22 @@ export function ShareLinks({ projectId, links }: { projectId: string; links: Sha
       >
         <FormMessage tone="error">{message?.text}</FormMessage>
         <div className="grid gap-3 md:grid-cols-2">
-          <div>
-            <label htmlFor="share-label" className="field-label">
-              Who it is for
-            </label>
-            <input
-              id="share-label"
-              name="label"
-              className="field-input mt-1"
-              placeholder="General contractor"
-              aria-describedby="share-label-error"
-            />
-            <FieldError id="share-label-error" messages={fields.label} />
-          </div>
-          <div>
-            <label htmlFor="share-days" className="field-label">
-              Works for (days)
-            </label>
-            <input
-              id="share-days"
-              name="days"
-              type="number"
-              inputMode="numeric"
-              defaultValue={30}
-              className="field-input mt-1"
-              aria-describedby="share-days-error"
-            />
-            <FieldError id="share-days-error" messages={fields.days} />
-          </div>
+          <FormField
+            id="share-label"
+            name="label"
+            label="Who it is for"
+            placeholder="General contractor"
+            error={fields.label}
+          />
+          <FormField
+            id="share-days"
+            name="days"
+            type="number"
+            numeric="integer"
+            label="Works for (days)"
+            defaultValue={30}
+            error={fields.days}
+          />
         </div>
         <button type="submit" className="btn-primary" disabled={busy}>
           Make link

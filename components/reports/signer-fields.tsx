@@ -1,4 +1,4 @@
-import { FieldError } from "@/components/ui/form-message";
+import { FormField } from "@/components/ui/form-field";
 
 /**
  * What every signature asks of its signer, the same on the stressing report and the day's
@@ -19,46 +19,24 @@ export function SignerFields({
   return (
     <>
       <div className="grid gap-3 md:grid-cols-2">
-        <div>
-          <label htmlFor={id("name")} className="field-label">
-            Your name as you sign
-          </label>
-          <input
-            id={id("name")}
-            name="signerName"
-            defaultValue={signerName}
-            className="field-input mt-1"
-            aria-describedby={id("name-error")}
-          />
-          <FieldError id={id("name-error")} messages={fields.signerName} />
-        </div>
-        <div>
-          <label htmlFor={id("licence")} className="field-label">
-            Licence or certification number
-          </label>
-          <input
-            id={id("licence")}
-            name="licence"
-            className="field-input mt-1"
-            aria-describedby={id("licence-error")}
-          />
-          <FieldError id={id("licence-error")} messages={fields.licence} />
-        </div>
-      </div>
-      <div>
-        <label htmlFor={id("statement")} className="field-label">
-          Statement
-        </label>
-        <textarea
-          id={id("statement")}
-          name="statement"
-          rows={3}
-          defaultValue={defaultStatement}
-          className="field-input mt-1 py-2"
-          aria-describedby={id("statement-error")}
+        <FormField
+          id={id("name")}
+          name="signerName"
+          label="Your name as you sign"
+          defaultValue={signerName}
+          error={fields.signerName}
         />
-        <FieldError id={id("statement-error")} messages={fields.statement} />
+        <FormField id={id("licence")} name="licence" label="Licence or certification number" error={fields.licence} />
       </div>
+      <FormField
+        as="textarea"
+        id={id("statement")}
+        name="statement"
+        label="Statement"
+        rows={3}
+        defaultValue={defaultStatement}
+        error={fields.statement}
+      />
     </>
   );
 }

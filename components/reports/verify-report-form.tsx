@@ -1,5 +1,6 @@
 "use client";
 
+import { FormField } from "@/components/ui/form-field";
 import { useState } from "react";
 import { FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
@@ -30,14 +31,12 @@ export function VerifyReportForm() {
   const [busy, setBusy] = useState(false);
   return (
     <form className="space-y-3" aria-label="Check a report file" onSubmit={(e) => e.preventDefault()}>
-      <label htmlFor="report-file" className="field-label">
-        Report file (PDF)
-      </label>
-      <input
+      <FormField
         id="report-file"
+        label="Report file (PDF)"
         type="file"
         accept="application/pdf"
-        className="field-input mt-1 py-2"
+        className="py-2"
         disabled={busy}
         onChange={async (e) => {
           const file = e.currentTarget.files?.[0];

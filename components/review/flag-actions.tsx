@@ -3,9 +3,10 @@
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { FieldError, FormMessage } from "@/components/ui/form-message";
-import { TextField } from "@/components/ui/text-field";
+import { FormField } from "@/components/ui/form-field";
+import { FractionKeysFor } from "@/components/ui/fraction-keys";
 import { sendJson } from "@/lib/client/send-json";
-import { useApiCall } from "@/lib/client/use-api-call";
+import { useApiCall, type Shown } from "@/lib/client/use-api-call";
 import { DECISION_LABELS, DECISIONS } from "@/lib/schemas/review";
 import { isInputError, parseLength } from "@/lib/units";
 
@@ -15,9 +16,9 @@ interface OpenFlag {
 }
 
 /** A POST to a route handler; the page is read again when it succeeds. */
-function useSubmit() {
+function useSubmit(shown: Shown) {
   const router = useRouter();
-  const { message, fields, busy, call } = useApiCall();
+  const { message, fields, busy, call } = useApiCall(shown);
   async function submit(url: string, body: unknown, done: string): Promise<boolean> {
     const result = await call(sendJson("POST", url, body), done);
     if (result.ok) router.refresh();
@@ -39,6 +40,12 @@ function readLength(text: string, unit: "in" | "mm", field: string): { mm: numbe
     return { error: isInputError(error) ? error.message.replace(/^[^:]*: /, "") : "Type the elongation as a number." };
   }
 }
+
+/** What a length box takes, as the field log takes it. */
+const LENGTH_HINT = {
+  in: "Decimals, fractions or feet and inches, as on the field log: 7 1/8, 7.125, 181 mm.",
+  mm: "Millimetres, or with a unit: 181, 18.1 cm, 7 1/8 in.",
+} as const;
 
 /**
  * The flag a form acts on. `selected` is the flag the page opened on; an empty string means the
@@ -66,31 +73,18 @@ function FlagPicker({
       </p>
     );
   return (
-    <div>
-      <label htmlFor={id} className="field-label">
-        Flag
-      </label>
-      <select
-        id={id}
-        name="flagId"
-        className="field-input mt-1"
-        defaultValue={chosen}
-        aria-invalid={errors?.length ? true : undefined}
-        aria-describedby={errors?.length ? `${id}-error` : undefined}
-      >
-        {chosen === "" && (
-          <option value="" disabled>
-            Choose the flag
-          </option>
-        )}
-        {flags.map((f) => (
-          <option key={f.id} value={f.id}>
-            {f.label}
-          </option>
-        ))}
-      </select>
-      <FieldError id={`${id}-error`} messages={errors} />
-    </div>
+    <FormField as="select" id={id} name="flagId" label="Flag" defaultValue={chosen} error={errors}>
+      {chosen === "" && (
+        <option value="" disabled>
+          Choose the flag
+        </option>
+      )}
+      {flags.map((f) => (
+        <option key={f.id} value={f.id}>
+          {f.label}
+        </option>
+      ))}
+    </FormField>
   );
 }
 
@@ -112,7 +106,7 @@ export function ReviewForm({
   unit: "in" | "mm";
   selected?: string;
 }) {
-  const { message, fields, busy, submit } = useSubmit();
+  const { message, fields, busy, submit } = useSubmit(["remeasuredMm", "body"]);
   const [kind, setKind] = useState("note");
   const [lengthError, setLengthError] = useState<string[]>();
   const [flagError, setFlagError] = useState<string[]>();
@@ -179,17 +173,21 @@ export function ReviewForm({
         </div>
       </fieldset>
       {kind === "remeasured" && (
-        <TextField
-          id="remeasured"
-          name="remeasured"
-          inputMode="text"
-          autoComplete="off"
-          placeholder={unit === "in" ? "e.g. 7 1/8" : "e.g. 181"}
-          label={`Re-measured elongation (${unit})`}
-          errors={lengthError ?? fields.remeasuredMm}
-        />
+        <div className="space-y-2">
+          <FormField
+            id="remeasured"
+            name="remeasured"
+            numeric
+            placeholder={unit === "in" ? "e.g. 7 1/8" : "e.g. 181"}
+            label={`Re-measured elongation (${unit})`}
+            hint={LENGTH_HINT[unit]}
+            error={lengthError ?? fields.remeasuredMm}
+          />
+          {unit === "in" && <FractionKeysFor boxId="remeasured" target="Re-measured elongation" />}
+        </div>
       )}
-      <TextField
+      <FormField
+        as="textarea"
         id="review-body"
         name="body"
         rows={3}
@@ -200,7 +198,7 @@ export function ReviewForm({
               ? "Note for the engineer"
               : "What you found"
         }
-        errors={fields.body}
+        error={fields.body}
       />
       <button type="submit" className="btn-primary" disabled={busy}>
         {busy ? "Saving…" : "Add to the trail"}
@@ -221,7 +219,7 @@ export function DispositionForm({
   engineerName: string;
   selected?: string;
 }) {
-  const { message, fields, busy, submit } = useSubmit();
+  const { message, fields, busy, submit } = useSubmit(["decision", "reasons", "licenceStatement"]);
   const [flagError, setFlagError] = useState<string[]>();
   if (!flags.length) return null;
   return (
@@ -262,13 +260,13 @@ export function DispositionForm({
         </div>
         <FieldError id="decision-error" messages={fields.decision} />
       </fieldset>
-      <TextField id="reasons" name="reasons" rows={2} label="Reasons" errors={fields.reasons} />
-      <TextField
+      <FormField as="textarea" id="reasons" name="reasons" rows={2} label="Reasons" error={fields.reasons} />
+      <FormField
         id="licence"
         name="licence"
         placeholder="Licensed professional engineer, jurisdiction and number"
         label={`Licence statement of ${engineerName}`}
-        errors={fields.licenceStatement}
+        error={fields.licenceStatement}
       />
       <button type="submit" className="btn-primary" disabled={busy}>
         {busy ? "Recording…" : "Record the disposition"}
@@ -287,7 +285,7 @@ export function CorrectionForm({
   recordId: string;
   unit: "in" | "mm";
 }) {
-  const { message, fields, busy, submit } = useSubmit();
+  const { message, fields, busy, submit } = useSubmit(["measuredMm", "reason"]);
   const [open, setOpen] = useState(false);
   const [lengthError, setLengthError] = useState<string[]>();
   if (!open) {
@@ -314,15 +312,16 @@ export function CorrectionForm({
       }}
     >
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
-      <TextField
+      <FormField
         id={`measured-${recordId}`}
         name="measured"
-        inputMode="text"
-        autoComplete="off"
+        numeric
         label={`Correct elongation (${unit})`}
-        errors={lengthError ?? fields.measuredMm}
+        hint={LENGTH_HINT[unit]}
+        error={lengthError ?? fields.measuredMm}
       />
-      <TextField id={`reason-${recordId}`} name="reason" label="Why the record was wrong" errors={fields.reason} />
+      {unit === "in" && <FractionKeysFor boxId={`measured-${recordId}`} target="Correct elongation" />}
+      <FormField id={`reason-${recordId}`} name="reason" label="Why the record was wrong" error={fields.reason} />
       <button type="submit" className="btn-primary" disabled={busy}>
         Save the correction
       </button>

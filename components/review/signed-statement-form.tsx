@@ -2,6 +2,7 @@
 
 import { useRouter } from "next/navigation";
 import { useState } from "react";
+import { FormField } from "@/components/ui/form-field";
 import { FieldError, FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
@@ -23,7 +24,7 @@ export function SignedStatementForm(props: {
   signed?: boolean;
 }) {
   const router = useRouter();
-  const { message, fields, busy, call } = useApiCall();
+  const { message, fields, busy, call } = useApiCall([props.field, "signerName", "licence", "confirmed"]);
   const [text, setText] = useState(props.suggested);
   const [signerName, setSignerName] = useState("");
   const [licence, setLicence] = useState("");
@@ -46,64 +47,49 @@ export function SignedStatementForm(props: {
       }}
     >
       <FormMessage tone="error">{message?.text}</FormMessage>
-      <div>
-        <label htmlFor={`${props.id}-text`} className="field-label">
-          {props.label}
-        </label>
-        <textarea
-          id={`${props.id}-text`}
-          rows={3}
-          className="field-input mt-1 py-2"
-          value={text}
-          onChange={(e) => {
-            setText(e.target.value);
-            setConfirming(false);
-          }}
-          aria-describedby={`${props.id}-error`}
-        />
-        <FieldError id={`${props.id}-error`} messages={fields[props.field]} />
-      </div>
+      <FormField
+        as="textarea"
+        id={`${props.id}-text`}
+        label={props.label}
+        rows={3}
+        value={text}
+        onChange={(e) => {
+          setText(e.target.value);
+          setConfirming(false);
+        }}
+        error={fields[props.field]}
+      />
       {props.signed && (
         <div className="grid gap-3 sm:grid-cols-2">
-          <div>
-            <label htmlFor={`${props.id}-signer`} className="field-label">
-              Your name, as you sign
-            </label>
-            <input
-              id={`${props.id}-signer`}
-              className="field-input mt-1"
-              autoComplete="name"
-              value={signerName}
-              onChange={(e) => {
-                setSignerName(e.target.value);
-                setConfirming(false);
-              }}
-              aria-describedby={`${props.id}-signer-error`}
-            />
-            <FieldError id={`${props.id}-signer-error`} messages={fields.signerName} />
-          </div>
-          <div>
-            <label htmlFor={`${props.id}-licence`} className="field-label">
-              Licence number
-            </label>
-            <input
-              id={`${props.id}-licence`}
-              className="field-input mt-1"
-              value={licence}
-              onChange={(e) => {
-                setLicence(e.target.value);
-                setConfirming(false);
-              }}
-              aria-describedby={`${props.id}-licence-error`}
-            />
-            <FieldError id={`${props.id}-licence-error`} messages={fields.licence} />
-          </div>
+          <FormField
+            id={`${props.id}-signer`}
+            label="Your name, as you sign"
+            autoComplete="name"
+            value={signerName}
+            onChange={(e) => {
+              setSignerName(e.target.value);
+              setConfirming(false);
+            }}
+            error={fields.signerName}
+          />
+          <FormField
+            id={`${props.id}-licence`}
+            label="Licence number"
+            value={licence}
+            onChange={(e) => {
+              setLicence(e.target.value);
+              setConfirming(false);
+            }}
+            error={fields.licence}
+          />
         </div>
       )}
       <label className="flex items-start gap-3 font-semibold">
         <input
           type="checkbox"
           className="mt-1 h-6 w-6 shrink-0"
+          aria-invalid={fields.confirmed ? true : undefined}
+          aria-describedby={fields.confirmed ? `${props.id}-confirmed-error` : undefined}
           checked={owned}
           onChange={(e) => {
             setOwned(e.target.checked);

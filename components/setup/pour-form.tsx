@@ -4,7 +4,9 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { useSWRConfig } from "swr";
 import { z } from "zod";
+import { FormField } from "@/components/ui/form-field";
 import { FormMessage } from "@/components/ui/form-message";
+import { placeFields, refusedWords } from "@/lib/client/field-errors";
 import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { pourSchema, type PourInput } from "@/lib/schemas/pour";
@@ -43,34 +45,17 @@ export function PourForm({ projectId, us }: { projectId: string; us: boolean }) 
   const onSubmit = form.handleSubmit(async (values) => {
     const result = await sendJson("POST", `/api/projects/${projectId}/pours`, values);
     if (!result.ok) {
-      for (const [k, m] of Object.entries(result.error.fields ?? {}))
-        form.setError((k === "areaM2" ? "area" : k in FIELDS ? k : "root") as keyof FormIn, { message: m.join(" ") });
-      setMessage({ tone: "error", text: result.error.message });
+      const placed = placeFields(result.error.fields, (k) => (k === "areaM2" ? "area" : k in FIELDS ? k : null));
+      for (const [k, m] of Object.entries(placed.boxes)) form.setError(k as keyof FormIn, { message: m.join(" ") });
+      setMessage({ tone: "error", text: refusedWords(result.error, placed) });
       return;
     }
     setMessage({ tone: "info", text: `Pour ${values.name} added. Import its tendon schedule next.` });
     form.reset();
     void mutate(poursKey(projectId));
   });
-  const input = (k: keyof FormIn, label: string, props: React.InputHTMLAttributes<HTMLInputElement> = {}) => (
-    <div>
-      <label htmlFor={`p-${k}`} className="field-label">
-        {label}
-      </label>
-      <input
-        id={`p-${k}`}
-        className="field-input mt-1"
-        {...props}
-        {...form.register(k)}
-        aria-invalid={errors[k] ? true : undefined}
-        aria-describedby={`p-${k}-error`}
-      />
-      {errors[k]?.message && (
-        <p id={`p-${k}-error`} className="mt-1 font-semibold text-signal-stop">
-          {errors[k]?.message}
-        </p>
-      )}
-    </div>
+  const input = (k: keyof FormIn, label: string, props: { numeric?: boolean; type?: string } = {}) => (
+    <FormField id={`p-${k}`} label={label} error={errors[k]?.message} {...props} {...form.register(k)} />
   );
   return (
     <form onSubmit={onSubmit} noValidate className="card space-y-4">
@@ -80,7 +65,7 @@ export function PourForm({ projectId, us }: { projectId: string; us: boolean }) 
       <div className="grid gap-4 md:grid-cols-5">
         {input("name", "Name, as drawn")}
         {input("level", "Level")}
-        {input("area", `Area, ${us ? "ft²" : "m²"}`, { inputMode: "decimal", autoComplete: "off" })}
+        {input("area", `Area, ${us ? "ft²" : "m²"}`, { numeric: true })}
         {input("plannedStressingDate", "Planned stressing", { type: "date" })}
       </div>
       <p className="text-ink-soft">

@@ -4,7 +4,9 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { z } from "zod";
+import { Field, FormField } from "@/components/ui/form-field";
 import { FormMessage } from "@/components/ui/form-message";
+import { placeFields, refusedWords } from "@/lib/client/field-errors";
 import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { projectSettingsSchema, settingsFields, type ProjectSettings } from "@/lib/schemas/project-settings";
@@ -93,33 +95,6 @@ function resolver(us: boolean) {
 
 type FormIn = { [K in keyof ReturnType<typeof fields>]: z.input<ReturnType<typeof fields>[K]> };
 
-const Row = ({
-  id,
-  label,
-  hint,
-  error,
-  children,
-}: {
-  id: string;
-  label: string;
-  hint?: string;
-  error?: string;
-  children: React.ReactNode;
-}) => (
-  <div>
-    <label htmlFor={id} className="field-label">
-      {label}
-    </label>
-    <div className="mt-1">{children}</div>
-    {hint && <p className="mt-1 text-label text-ink-faint">{hint}</p>}
-    {error && (
-      <p id={`${id}-error`} className="mt-1 font-semibold text-signal-stop">
-        {error}
-      </p>
-    )}
-  </div>
-);
-
 /** The project's computation basis and who is told; values in the project's units, stored in SI. */
 export function SettingsForm({ projectId, settings }: { projectId: string; settings: ProjectSettings }) {
   const router = useRouter();
@@ -156,12 +131,15 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
   });
   const err = (k: keyof FormIn | "wobblePerM") =>
     (form.formState.errors as Record<string, { message?: string } | undefined>)[k]?.message;
-  const reg = (k: keyof FormIn) => ({
-    id: `s-${k}`,
-    "aria-invalid": err(k) ? true : undefined,
-    "aria-describedby": err(k) ? `s-${k}-error` : undefined,
-    ...form.register(k),
-  });
+  /** A refusal's messages beside their boxes (shiftEndMinutes is typed in "Shifts end at"). */
+  const refused = (error: { message: string; fields?: Record<string, string[]> }) => {
+    const placed = placeFields(error.fields, (k) => {
+      const box = k === "wobblePerM" ? "wobble" : k.startsWith("shiftEndMinutes") ? "shiftEnds" : k.split(".")[0]!;
+      return box in fields(us) ? box : null;
+    });
+    for (const [k, msgs] of Object.entries(placed.boxes)) form.setError(k as keyof FormIn, { message: msgs.join(" ") });
+    setMessage({ tone: "error", text: refusedWords(error, placed) });
+  };
 
   // A change that re-judges stressed tendons is shown first and saved on a second press.
   const [confirmed, setConfirmed] = useState<string | null>(null);
@@ -173,12 +151,7 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
         `/api/projects/${projectId}/settings/preview`,
         values,
       );
-      if (!preview.ok) {
-        for (const [k, msgs] of Object.entries(preview.error.fields ?? {}))
-          form.setError(k as keyof FormIn, { message: msgs.join(" ") });
-        setMessage({ tone: "error", text: preview.error.message });
-        return;
-      }
+      if (!preview.ok) return refused(preview.error);
       if (preview.data.verdictsChanging > 0) {
         setConfirmed(key);
         setMessage({
@@ -189,14 +162,7 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
       }
     }
     const result = await sendJson("PATCH", `/api/projects/${projectId}/settings`, values);
-    if (!result.ok) {
-      for (const [k, msgs] of Object.entries(result.error.fields ?? {}))
-        form.setError((k === "wobblePerM" ? "wobble" : k in fields(us) ? k : "root") as keyof FormIn, {
-          message: msgs.join(" "),
-        });
-      setMessage({ tone: "error", text: result.error.message });
-      return;
-    }
+    if (!result.ok) return refused(result.error);
     setConfirmed(null);
     const done = result.data as { reevaluated?: number };
     setMessage({
@@ -212,211 +178,247 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
       <FormMessage tone="error">{form.formState.errors.root?.message}</FormMessage>
       <fieldset className="card grid gap-4 md:grid-cols-2">
         <legend className="px-1 text-lead font-semibold">Project</legend>
-        <Row id="s-name" label="Name" error={err("name")}>
-          <input className="field-input" {...reg("name")} />
-        </Row>
-        <Row id="s-address" label="Address" error={err("address")}>
-          <input className="field-input" {...reg("address")} />
-        </Row>
-        <Row
+        <FormField id="s-name" label="Name" error={err("name")} {...form.register("name")} />
+        <FormField id="s-address" label="Address" error={err("address")} {...form.register("address")} />
+        <FormField
+          as="select"
           id="s-unitSystem"
           label="Units shown"
           hint="Display only: everything is stored in SI."
           error={err("unitSystem")}
+          {...form.register("unitSystem")}
         >
-          <select className="field-input" {...reg("unitSystem")}>
-            <option value="us">US customary (in, ft, psi, kip)</option>
-            <option value="si">SI (mm, m, MPa, kN)</option>
-          </select>
-        </Row>
-        <Row id="s-readingResolution" label="Reading division" error={err("readingResolution")}>
-          <select className="field-input" {...reg("readingResolution")}>
-            <option value="1/8in">1/8 in</option>
-            <option value="1/16in">1/16 in</option>
-            <option value="1mm">1 mm</option>
-          </select>
-        </Row>
+          <option value="us">US customary (in, ft, psi, kip)</option>
+          <option value="si">SI (mm, m, MPa, kN)</option>
+        </FormField>
+        <FormField
+          as="select"
+          id="s-readingResolution"
+          label="Reading division"
+          error={err("readingResolution")}
+          {...form.register("readingResolution")}
+        >
+          <option value="1/8in">1/8 in</option>
+          <option value="1/16in">1/16 in</option>
+          <option value="1mm">1 mm</option>
+        </FormField>
       </fieldset>
 
       <fieldset className="card grid gap-4 md:grid-cols-3">
         <legend className="px-1 text-lead font-semibold">Tolerance rule</legend>
-        <Row
+        <FormField
           id="s-tolerancePct"
           label="Band per tendon, ± %"
           hint="7 % is the usual building rule (ACI 318); 5 % is common on bridges."
           error={err("tolerancePct")}
-        >
-          <input className="field-input" inputMode="decimal" {...reg("tolerancePct")} />
-        </Row>
-        <Row id="s-groupTolerancePct" label="Group-average band, ± % (optional)" error={err("groupTolerancePct")}>
-          <input className="field-input" inputMode="decimal" {...reg("groupTolerancePct")} />
-        </Row>
-        <Row
+          numeric
+          {...form.register("tolerancePct")}
+        />
+        <FormField
+          id="s-groupTolerancePct"
+          label="Group-average band, ± % (optional)"
+          error={err("groupTolerancePct")}
+          numeric
+          {...form.register("groupTolerancePct")}
+        />
+        <FormField
           id="s-shortTendonFloorMm"
           label={`Floor for short tendons, ${len} (optional)`}
           hint="The band is never narrower than this length."
           error={err("shortTendonFloorMm")}
-        >
-          <input className="field-input" inputMode="decimal" {...reg("shortTendonFloorMm")} />
-        </Row>
-        <Row
+          numeric
+          {...form.register("shortTendonFloorMm")}
+        />
+        <FormField
+          as="select"
           id="s-comparisonBasis"
           label="Usual reading method (the tablet's default)"
           hint="Each record is judged the way it was read: marks net of anchor set, ram travel gross plus the strand inside the jack."
           error={err("comparisonBasis")}
+          {...form.register("comparisonBasis")}
         >
-          <select className="field-input" {...reg("comparisonBasis")}>
-            <option value="gross">Ram travel (gross, with the strand inside the jack)</option>
-            <option value="net">Marks read after lock-off (net of anchor set)</option>
-          </select>
-        </Row>
-        <Row
+          <option value="gross">Ram travel (gross, with the strand inside the jack)</option>
+          <option value="net">Marks read after lock-off (net of anchor set)</option>
+        </FormField>
+        <FormField
+          as="select"
           id="s-governing"
           label="Elongation the verdict is judged against"
           hint="The shop drawing's value is taken as the whole tendon's, stated on the usual reading method's basis above. Both values are always shown with their difference."
           error={err("governing")}
+          {...form.register("governing")}
         >
-          <select className="field-input" {...reg("governing")}>
-            <option value="tautline">Tautline&rsquo;s prediction</option>
-            <option value="shop_drawing">Approved shop drawing (where the schedule gives one)</option>
-          </select>
-        </Row>
+          <option value="tautline">Tautline&rsquo;s prediction</option>
+          <option value="shop_drawing">Approved shop drawing (where the schedule gives one)</option>
+        </FormField>
       </fieldset>
 
       <fieldset className="card grid gap-4 md:grid-cols-2">
         <legend className="px-1 text-lead font-semibold">Force and time</legend>
-        <Row
+        <FormField
           id="s-jackingForceFactor"
           label="Specified jacking force, × fpu·A"
           hint="0.80 is the ACI 318 limit for buildings; 0.75 is usual on bridges."
           error={err("jackingForceFactor")}
-        >
-          <input className="field-input" inputMode="decimal" {...reg("jackingForceFactor")} />
-        </Row>
-        <Row
+          numeric
+          {...form.register("jackingForceFactor")}
+        />
+        <FormField
           id="s-wireLossLimitPct"
           label="Broken wires a member may carry, % of its steel"
           hint="2 % is the ACI 318 limit for unreplaced broken prestressing steel (ACI 318-02 §18.20.4)."
           error={err("wireLossLimitPct")}
-        >
-          <input className="field-input" inputMode="decimal" {...reg("wireLossLimitPct")} />
-        </Row>
-        <Row
+          numeric
+          {...form.register("wireLossLimitPct")}
+        />
+        <FormField
           id="s-liftoffBandPct"
           label="Lift-off force band, ± % of the force after seating"
           hint="5 % is a common specification (UFGS 02490 uses ±5 % of lock-off)."
           error={err("liftoffBandPct")}
-        >
-          <input className="field-input" inputMode="decimal" {...reg("liftoffBandPct")} />
-        </Row>
-        <Row id="s-underForcePct" label="Flag a gauge force short by more than, %" error={err("underForcePct")}>
-          <input className="field-input" inputMode="decimal" {...reg("underForcePct")} />
-        </Row>
-        <Row
+          numeric
+          {...form.register("liftoffBandPct")}
+        />
+        <FormField
+          id="s-underForcePct"
+          label="Flag a gauge force short by more than, %"
+          error={err("underForcePct")}
+          numeric
+          {...form.register("underForcePct")}
+        />
+        <FormField
           id="s-seatingExcessMm"
           label={`Flag measured seating above plan by more than, ${len}`}
           error={err("seatingExcessMm")}
-        >
-          <input className="field-input" inputMode="decimal" {...reg("seatingExcessMm")} />
-        </Row>
-        <Row
+          numeric
+          {...form.register("seatingExcessMm")}
+        />
+        <FormField
           id="s-clockSkewMinutes"
           label="Mark a record whose tablet time is off the server's by more than, minutes"
           hint="The inspector sees both times on the review queue and the tendon's records."
           error={err("clockSkewMinutes")}
-        >
-          <input className="field-input" inputMode="numeric" {...reg("clockSkewMinutes")} />
-        </Row>
-        <Row
+          numeric="integer"
+          {...form.register("clockSkewMinutes")}
+        />
+        <FormField
           id="s-shiftEnds"
           label="Shifts end at (site time, 24-hour clock)"
           hint="One to four times, e.g. 18:00 or 06:00, 18:00. An engineer who takes a digest gets it after each."
           error={err("shiftEnds")}
-        >
-          <input className="field-input" autoComplete="off" {...reg("shiftEnds")} />
-        </Row>
-        <Row
+          autoComplete="off"
+          {...form.register("shiftEnds")}
+        />
+        <FormField
           id="s-timeZone"
           label="Time zone of the site"
           hint="The stressing day for calibrations and the concrete gate, e.g. America/Chicago."
           error={err("timeZone")}
-        >
-          <input className="field-input" autoComplete="off" {...reg("timeZone")} />
-        </Row>
+          autoComplete="off"
+          {...form.register("timeZone")}
+        />
       </fieldset>
 
       <fieldset className="card grid gap-4 md:grid-cols-3">
         <legend className="px-1 text-lead font-semibold">Friction and anchor set defaults</legend>
-        <Row id="s-frictionMu" label="Curvature μ" error={err("frictionMu")}>
-          <input className="field-input" inputMode="decimal" {...reg("frictionMu")} />
-        </Row>
-        <Row
+        <FormField
+          id="s-frictionMu"
+          label="Curvature μ"
+          error={err("frictionMu")}
+          numeric
+          {...form.register("frictionMu")}
+        />
+        <Field
           id="s-wobble"
           label="Wobble K"
           hint="Per ft × 3.2808 = per m. Check which one your data gives."
           error={err("wobble") ?? err("wobblePerM")}
         >
-          <div className="flex gap-2">
-            <input className="field-input" inputMode="decimal" {...reg("wobble")} />
-            <select className="field-input w-36" aria-label="Unit of K" {...form.register("wobbleUnit")}>
-              {(["per ft", "per m"] as KUnit[]).map((u) => (
-                <option key={u}>{u}</option>
-              ))}
-            </select>
-          </div>
-        </Row>
-        <Row
+          {(aria) => (
+            <div className="flex w-full gap-2">
+              <input
+                className="field-input"
+                inputMode="decimal"
+                autoComplete="off"
+                {...aria}
+                {...form.register("wobble")}
+              />
+              <select className="field-input w-36" aria-label="Unit of K" {...form.register("wobbleUnit")}>
+                {(["per ft", "per m"] as KUnit[]).map((u) => (
+                  <option key={u}>{u}</option>
+                ))}
+              </select>
+            </div>
+          )}
+        </Field>
+        <FormField
           id="s-anchorSetMm"
           label={`Anchor set, ${len}`}
           hint="About 1/4 in (6 mm) for monostrand, 3/8 in (10 mm) for multistrand."
           error={err("anchorSetMm")}
-        >
-          <input className="field-input" inputMode="decimal" {...reg("anchorSetMm")} />
-        </Row>
+          numeric
+          {...form.register("anchorSetMm")}
+        />
       </fieldset>
 
       <fieldset className="card grid gap-4 md:grid-cols-3">
         <legend className="px-1 text-lead font-semibold">Before stressing</legend>
-        <Row id="s-calibrationValidityDays" label="Calibration valid for, days" error={err("calibrationValidityDays")}>
-          <input className="field-input" inputMode="numeric" {...reg("calibrationValidityDays")} />
-        </Row>
-        <Row
+        <FormField
+          id="s-calibrationValidityDays"
+          label="Calibration valid for, days"
+          error={err("calibrationValidityDays")}
+          numeric="integer"
+          {...form.register("calibrationValidityDays")}
+        />
+        <FormField
           id="s-requiredConcreteMPa"
           label={`Concrete strength required, ${us ? "psi" : "MPa"}`}
           error={err("requiredConcreteMPa")}
-        >
-          <input className="field-input" inputMode="decimal" {...reg("requiredConcreteMPa")} />
-        </Row>
-        <Row id="s-blindEntry" label="Crew sees predicted values">
-          <label className="flex min-h-touch items-center gap-3">
-            <input type="checkbox" className="h-6 w-6" {...form.register("blindEntry")} id="s-blindEntry" />
-            Hide them until readings are entered
-          </label>
-        </Row>
+          numeric
+          {...form.register("requiredConcreteMPa")}
+        />
+        <Field id="s-blindEntry" label="Crew sees predicted values" error={err("blindEntry")}>
+          {(aria) => (
+            <label className="flex min-h-touch items-center gap-3">
+              <input type="checkbox" className="h-6 w-6" {...aria} {...form.register("blindEntry")} />
+              Hide them until readings are entered
+            </label>
+          )}
+        </Field>
       </fieldset>
 
       <fieldset className="card grid gap-4 md:grid-cols-2">
         <legend className="px-1 text-lead font-semibold">Engineer of record and e-mails</legend>
-        <Row id="s-engineerOfRecordName" label="Engineer of record" error={err("engineerOfRecordName")}>
-          <input className="field-input" {...reg("engineerOfRecordName")} />
-        </Row>
-        <Row
+        <FormField
+          id="s-engineerOfRecordName"
+          label="Engineer of record"
+          error={err("engineerOfRecordName")}
+          {...form.register("engineerOfRecordName")}
+        />
+        <FormField
           id="s-engineerOfRecordEmail"
           label="Engineer of record's e-mail"
           hint="Flags are e-mailed here at once, unless this engineer chose one digest per shift (their own choice, on their Today page)."
           error={err("engineerOfRecordEmail")}
+          type="email"
+          {...form.register("engineerOfRecordEmail")}
+        />
+        <FormField
+          id="s-notifyEmails"
+          label="Also e-mail (commas between addresses)"
+          error={err("notifyEmails")}
+          {...form.register("notifyEmails")}
+        />
+        <FormField
+          as="select"
+          id="s-releaseBy"
+          label="Who releases a pour"
+          error={err("releaseBy")}
+          {...form.register("releaseBy")}
         >
-          <input className="field-input" type="email" {...reg("engineerOfRecordEmail")} />
-        </Row>
-        <Row id="s-notifyEmails" label="Also e-mail (commas between addresses)" error={err("notifyEmails")}>
-          <input className="field-input" {...reg("notifyEmails")} />
-        </Row>
-        <Row id="s-releaseBy" label="Who releases a pour" error={err("releaseBy")}>
-          <select className="field-input" {...reg("releaseBy")}>
-            <option value="engineer">The engineer of record</option>
-            <option value="inspector">The special inspector</option>
-          </select>
-        </Row>
+          <option value="engineer">The engineer of record</option>
+          <option value="inspector">The special inspector</option>
+        </FormField>
       </fieldset>
       <button type="submit" className="btn-primary" disabled={form.formState.isSubmitting}>
         {form.formState.isSubmitting ? "Saving…" : "Save settings"}

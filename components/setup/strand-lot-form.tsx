@@ -6,7 +6,9 @@ import { useForm } from "react-hook-form";
 import { useSWRConfig } from "swr";
 import { z } from "zod";
 import { FileUpload, type UploadedFile } from "@/components/uploads/file-upload";
-import { FormMessage } from "@/components/ui/form-message";
+import { FormField } from "@/components/ui/form-field";
+import { FieldError, FormMessage } from "@/components/ui/form-message";
+import { placeFields, refusedWords } from "@/lib/client/field-errors";
 import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { strandLotSchema, type StrandLotInput } from "@/lib/schemas/strand-lot";
@@ -82,11 +84,9 @@ export function StrandLotForm({ projectId, us, lot }: { projectId: string; us: b
   });
   const errors = form.formState.errors as Record<string, { message?: string } | undefined>;
   const refused = (error: { message: string; fields?: Record<string, string[]> }) => {
-    for (const [k, m] of Object.entries(error.fields ?? {}))
-      form.setError((k === "areaMm2" ? "area" : k in fields(us) ? k : "root") as keyof FormIn, {
-        message: m.join(" "),
-      });
-    setMessage({ tone: "error", text: error.message });
+    const placed = placeFields(error.fields, (k) => (k === "areaMm2" ? "area" : k in fields(us) ? k : null));
+    for (const [k, m] of Object.entries(placed.boxes)) form.setError(k as keyof FormIn, { message: m.join(" ") });
+    setMessage({ tone: "error", text: refusedWords(error, placed) });
   };
   /** A box left as it was shown keeps the stored value to the last digit, so it moves nothing. */
   const unchangedKept = (values: StrandLotInput): StrandLotInput => {
@@ -140,29 +140,14 @@ export function StrandLotForm({ projectId, us, lot }: { projectId: string; us: b
   // The edit form and the register form may share the page: each box keeps an id of its own.
   const idp = lot ? "e" : "l";
   const input = (k: keyof FormIn, label: string, hint?: string) => (
-    <div>
-      <label htmlFor={`${idp}-${k}`} className="field-label">
-        {label}
-      </label>
-      <input
-        id={`${idp}-${k}`}
-        className="field-input mt-1"
-        inputMode={k === "lotNumber" ? "text" : "decimal"}
-        {...form.register(k)}
-        aria-invalid={errors[k] ? true : undefined}
-        aria-describedby={errors[k] ? `${idp}-${k}-error` : hint ? `${idp}-${k}-hint` : undefined}
-      />
-      {hint && (
-        <p id={`${idp}-${k}-hint`} className="mt-1 text-label text-ink-faint">
-          {hint}
-        </p>
-      )}
-      {errors[k]?.message && (
-        <p id={`${idp}-${k}-error`} className="mt-1 font-semibold text-signal-stop">
-          {errors[k]?.message}
-        </p>
-      )}
-    </div>
+    <FormField
+      id={`${idp}-${k}`}
+      label={label}
+      hint={hint}
+      numeric={k !== "lotNumber"}
+      error={errors[k]?.message}
+      {...form.register(k)}
+    />
   );
   return (
     <form
@@ -185,27 +170,17 @@ export function StrandLotForm({ projectId, us, lot }: { projectId: string; us: b
       <FormMessage tone="error">{errors.root?.message}</FormMessage>
       <div className="grid gap-4 md:grid-cols-3">
         {input("lotNumber", "Lot or heat number")}
-        <div>
-          <label htmlFor={`${idp}-strandSize`} className="field-label">
-            Strand size
-          </label>
-          <select
-            id={`${idp}-strandSize`}
-            className="field-input mt-1"
-            {...form.register("strandSize")}
-            aria-invalid={errors.strandSize ? true : undefined}
-            aria-describedby={errors.strandSize ? `${idp}-strandSize-error` : undefined}
-          >
-            {STRAND_SIZES.map((s) => (
-              <option key={s}>{s}</option>
-            ))}
-          </select>
-          {errors.strandSize?.message && (
-            <p id={`${idp}-strandSize-error`} className="mt-1 font-semibold text-signal-stop">
-              {errors.strandSize.message}
-            </p>
-          )}
-        </div>
+        <FormField
+          as="select"
+          id={`${idp}-strandSize`}
+          label="Strand size"
+          error={errors.strandSize?.message}
+          {...form.register("strandSize")}
+        >
+          {STRAND_SIZES.map((s) => (
+            <option key={s}>{s}</option>
+          ))}
+        </FormField>
         {input(
           "area",
           `Area, ${us ? "in²" : "mm²"}`,
@@ -232,9 +207,10 @@ export function StrandLotForm({ projectId, us, lot }: { projectId: string; us: b
           Attached: {file.originalName} ({(file.sizeBytes / 1024).toFixed(0)} KB, sha256 {file.sha256.slice(0, 12)}…)
         </p>
       )}
-      {errors.certificateAttachmentId?.message && (
-        <p className="font-semibold text-signal-stop">{errors.certificateAttachmentId.message}</p>
-      )}
+      <FieldError
+        id={`${idp}-certificateAttachmentId-error`}
+        messages={errors.certificateAttachmentId?.message ? [errors.certificateAttachmentId.message] : undefined}
+      />
       <div className="flex flex-wrap items-center gap-3">
         <button className="btn-primary" type="submit" disabled={form.formState.isSubmitting || saving}>
           {lot ? "Save changes" : "Register lot"}

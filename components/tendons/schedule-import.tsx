@@ -1,5 +1,6 @@
 "use client";
 
+import { FormField } from "@/components/ui/form-field";
 import { useState } from "react";
 import { useSWRConfig } from "swr";
 import { sendJson } from "@/lib/client/send-json";
@@ -37,14 +38,13 @@ export function ScheduleImport({ projectId, pourId }: { projectId: string; pourI
         Import a schedule file
       </h2>
       <p className="mt-1">Nothing is written unless every row is good; tags already in this pour are refused.</p>
-      <label htmlFor="schedule-file" className="field-label mt-3">
-        Schedule CSV
-      </label>
-      <input
+      <FormField
         id="schedule-file"
+        label="Schedule CSV"
+        frameClassName="mt-3"
         type="file"
         accept=".csv,text/csv"
-        className="field-input mt-1 py-2"
+        className="py-2"
         disabled={busy}
         onChange={(e) => {
           const f = e.currentTarget.files?.[0];

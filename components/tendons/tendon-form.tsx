@@ -7,7 +7,9 @@ import { useSWRConfig } from "swr";
 import { z } from "zod";
 import { PER, shown, units } from "@/lib/client/unit-fields";
 import { EditPreviewDialog, type EditPreview } from "@/components/setup/edit-preview";
-import { FormMessage } from "@/components/ui/form-message";
+import { FormField } from "@/components/ui/form-field";
+import { FieldError, FormMessage } from "@/components/ui/form-message";
+import { placeFields, refusedWords } from "@/lib/client/field-errors";
 import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import {
@@ -147,11 +149,12 @@ export function TendonForm({
   const err = (k: string) => errors[k]?.message;
 
   const refused = (error: { message: string; fields?: Record<string, string[]> }) => {
-    for (const [k, m] of Object.entries(error.fields ?? {}))
-      form.setError((k.startsWith("segments") ? "segments" : k in fields(us) ? k : "root") as keyof FormIn, {
-        message: m.join(" "),
-      });
-    setMessage({ tone: "error", text: error.message });
+    const placed = placeFields(error.fields, (k) => {
+      const box = k.split(".")[0]!;
+      return box in fields(us) ? box : null;
+    });
+    for (const [k, m] of Object.entries(placed.boxes)) form.setError(k as keyof FormIn, { message: m.join(" ") });
+    setMessage({ tone: "error", text: refusedWords(error, placed) });
   };
   /** Boxes left as they were shown keep the stored values to the last digit, so they move nothing. */
   const unchangedKept = (values: TendonInput): TendonInput => {
@@ -209,40 +212,20 @@ export function TendonForm({
   });
 
   const text = (k: keyof FormIn, label: string, hint?: string) => (
-    <div>
-      <label htmlFor={`t-${k}`} className="field-label">
-        {label}
-      </label>
-      <input
-        id={`t-${k}`}
-        className="field-input mt-1"
-        inputMode={k === "tag" || k === "member" ? "text" : "decimal"}
-        {...form.register(k)}
-        aria-invalid={err(k) ? true : undefined}
-        aria-describedby={err(k) ? `t-${k}-error` : hint ? `t-${k}-hint` : undefined}
-      />
-      {hint && (
-        <p id={`t-${k}-hint`} className="mt-1 text-label text-ink-faint">
-          {hint}
-        </p>
-      )}
-      {fieldMessage(k)}
-    </div>
+    <FormField
+      id={`t-${k}`}
+      label={label}
+      hint={hint}
+      numeric={k !== "tag" && k !== "member"}
+      error={err(k)}
+      {...form.register(k)}
+    />
   );
-  /** The words beside a box or a choice; the box points at them. */
-  const fieldMessage = (k: string) =>
-    err(k) ? (
-      <p id={`t-${k}-error`} className="mt-1 font-semibold text-signal-stop">
-        {err(k)}
-      </p>
-    ) : null;
-  const choice = (k: "kind" | "strandSize" | "ends" | "strandLotId") => ({
-    id: `t-${k}`,
-    className: "field-input mt-1",
-    ...form.register(k),
-    "aria-invalid": err(k) ? true : undefined,
-    "aria-describedby": err(k) ? `t-${k}-error` : undefined,
-  });
+  const choice = (k: "kind" | "strandSize" | "ends" | "strandLotId", label: string, options: React.ReactNode) => (
+    <FormField as="select" id={`t-${k}`} label={label} error={err(k)} {...form.register(k)}>
+      {options}
+    </FormField>
+  );
 
   return (
     <form onSubmit={onSubmit} noValidate className="card space-y-4" aria-labelledby="t-heading">
@@ -259,42 +242,30 @@ export function TendonForm({
       <FormMessage tone="error">{form.formState.errors.root?.message}</FormMessage>
       <div className="grid gap-4 md:grid-cols-4">
         {text("tag", "Tag as drawn")}
-        <div>
-          <label htmlFor="t-kind" className="field-label">
-            Type
-          </label>
-          <select {...choice("kind")}>
-            {TENDON_KINDS.map((k) => (
-              <option key={k} value={k}>
-                {KIND_LABELS[k]}
-              </option>
-            ))}
-          </select>
-          {fieldMessage("kind")}
-        </div>
-        <div>
-          <label htmlFor="t-strandSize" className="field-label">
-            Strand size
-          </label>
-          <select {...choice("strandSize")}>
-            {STRAND_SIZES.map((s) => (
-              <option key={s}>{s}</option>
-            ))}
-          </select>
-          {fieldMessage("strandSize")}
-        </div>
+        {choice(
+          "kind",
+          "Type",
+          TENDON_KINDS.map((k) => (
+            <option key={k} value={k}>
+              {KIND_LABELS[k]}
+            </option>
+          )),
+        )}
+        {choice(
+          "strandSize",
+          "Strand size",
+          STRAND_SIZES.map((s) => <option key={s}>{s}</option>),
+        )}
         {text("strandCount", "Strands")}
-        <div>
-          <label htmlFor="t-ends" className="field-label">
-            Stressing end
-          </label>
-          <select {...choice("ends")}>
+        {choice(
+          "ends",
+          "Stressing end",
+          <>
             <option value="A">A</option>
             <option value="B">B</option>
             <option value="both">Both</option>
-          </select>
-          {fieldMessage("ends")}
-        </div>
+          </>,
+        )}
         {text("jackGripMm", `Jack grip, ${short}`, "Empty: the equipment set's value.")}
         {text("shopElongationMm", `Shop-drawing elongation, ${short}`, "When the detailer gives one.")}
         {text(
@@ -302,20 +273,18 @@ export function TendonForm({
           "Member",
           "The beam, slab strip or band, as drawn. Empty: the pour is its group for the group average and the wire-break ledger.",
         )}
-        <div>
-          <label htmlFor="t-strandLotId" className="field-label">
-            Strand lot
-          </label>
-          <select {...choice("strandLotId")}>
+        {choice(
+          "strandLotId",
+          "Strand lot",
+          <>
             <option value="">None (nominal values)</option>
             {lots.map((l) => (
               <option key={l.id} value={l.id}>
                 {l.lotNumber} ({l.strandSize})
               </option>
             ))}
-          </select>
-          {fieldMessage("strandLotId")}
-        </div>
+          </>,
+        )}
       </div>
       <fieldset>
         <legend className="field-label">Profile</legend>
@@ -337,28 +306,20 @@ export function TendonForm({
           <div className="mt-2 space-y-2">
             {rows.fields.map((f, i) => (
               <div key={f.id} className="grid grid-cols-[1fr_1fr_auto] items-end gap-2">
-                <div>
-                  <label htmlFor={`seg-${i}-l`} className="field-label">
-                    Segment {i + 1} length, {long}
-                  </label>
-                  <input
-                    id={`seg-${i}-l`}
-                    className="field-input mt-1"
-                    inputMode="decimal"
-                    {...form.register(`segments.${i}.length`)}
-                  />
-                </div>
-                <div>
-                  <label htmlFor={`seg-${i}-a`} className="field-label">
-                    Angle change, degrees
-                  </label>
-                  <input
-                    id={`seg-${i}-a`}
-                    className="field-input mt-1"
-                    inputMode="decimal"
-                    {...form.register(`segments.${i}.angleDeg`)}
-                  />
-                </div>
+                <FormField
+                  id={`seg-${i}-l`}
+                  label={`Segment ${i + 1} length, ${long}`}
+                  numeric
+                  alsoDescribedBy={err("segments") ? "t-segments-error" : undefined}
+                  {...form.register(`segments.${i}.length`)}
+                />
+                <FormField
+                  id={`seg-${i}-a`}
+                  label="Angle change, degrees"
+                  numeric
+                  alsoDescribedBy={err("segments") ? "t-segments-error" : undefined}
+                  {...form.register(`segments.${i}.angleDeg`)}
+                />
                 <button
                   type="button"
                   className="btn-quiet"
@@ -374,7 +335,7 @@ export function TendonForm({
             </button>
           </div>
         )}
-        {fieldMessage("segments")}
+        <FieldError id="t-segments-error" messages={err("segments") ? [err("segments")!] : undefined} />
       </fieldset>
       <button className="btn-primary" type="submit" disabled={form.formState.isSubmitting || saving}>
         {tendon ? "Save changes" : "Add tendon"}

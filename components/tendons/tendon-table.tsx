@@ -1,5 +1,6 @@
 "use client";
 
+import { FormField } from "@/components/ui/form-field";
 import {
   createColumnHelper,
   functionalUpdate,
@@ -244,35 +245,20 @@ export function TendonTable(props: {
           table.setColumnFilters(next);
         }}
       >
-        <div>
-          <label htmlFor="f-q" className="field-label">
-            Show tags containing
-          </label>
-          <input id="f-q" name="q" defaultValue={current.q ?? ""} className="field-input mt-1" />
-        </div>
-        <div>
-          <label htmlFor="f-ends" className="field-label">
-            Show stressing end
-          </label>
-          <select id="f-ends" name="ends" defaultValue={current.ends ?? ""} className="field-input mt-1">
-            <option value="">Any</option>
-            <option value="A">A</option>
-            <option value="B">B</option>
-            <option value="both">Both</option>
-          </select>
-        </div>
-        <div>
-          <label htmlFor="f-lot" className="field-label">
-            Show strand lot
-          </label>
-          <select id="f-lot" name="lot" defaultValue={current.lot ?? ""} className="field-input mt-1">
-            <option value="">Any</option>
-            <option value="none">No lot</option>
-            {props.lots.map((l) => (
-              <option key={l}>{l}</option>
-            ))}
-          </select>
-        </div>
+        <FormField id="f-q" name="q" label="Show tags containing" defaultValue={current.q ?? ""} />
+        <FormField as="select" id="f-ends" name="ends" label="Show stressing end" defaultValue={current.ends ?? ""}>
+          <option value="">Any</option>
+          <option value="A">A</option>
+          <option value="B">B</option>
+          <option value="both">Both</option>
+        </FormField>
+        <FormField as="select" id="f-lot" name="lot" label="Show strand lot" defaultValue={current.lot ?? ""}>
+          <option value="">Any</option>
+          <option value="none">No lot</option>
+          {props.lots.map((l) => (
+            <option key={l}>{l}</option>
+          ))}
+        </FormField>
         {/* Without the script the form is an ordinary GET of the same view. */}
         {params.get("sort") && <input type="hidden" name="sort" value={params.get("sort") ?? ""} />}
         {params.get("dir") && <input type="hidden" name="dir" value={params.get("dir") ?? ""} />}

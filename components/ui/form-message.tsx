@@ -15,10 +15,11 @@ export function FormMessage({ tone, children }: { tone: "error" | "info"; childr
   );
 }
 
-export function FieldError({ id, messages }: { id: string; messages?: string[] }) {
+/** A field's messages under it; `alert` also reads them out as they appear (the tablet's forms). */
+export function FieldError({ id, messages, alert }: { id: string; messages?: string[]; alert?: boolean }) {
   if (!messages?.length) return null;
   return (
-    <p id={id} className="mt-1 font-semibold text-signal-stop">
+    <p id={id} role={alert ? "alert" : undefined} className="mt-1 font-semibold text-signal-stop">
       {messages.join(" ")}
     </p>
   );

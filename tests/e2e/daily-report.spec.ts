@@ -33,7 +33,7 @@ test("the inspector signs a day's special-inspection report and downloads its PD
 
   // A day not yet begun is refused with the field named, and nothing is shown for it.
   await page.goto(`/projects/${projectId}/daily?day=2999-01-01`);
-  await expect(page.locator("#report-day-error")).toContainText("Day: That day has not begun yet");
+  await expect(page.locator("#report-day-error")).toContainText("That day has not begun yet");
 
   await page.getByLabel("Day", { exact: true }).fill(day);
   await page.getByRole("button", { name: "Show the day" }).click();

@@ -193,6 +193,36 @@ test("an out-of-band tendon is flagged, mailed, reviewed, restressed and only th
   await expect(inspector.locator("[data-clock-skew]").first()).toContainText("Server received:");
   await expect(inspector.locator("[data-verdict=short]").first()).toBeVisible();
   await expect(inspector.getByRole("note", { name: "Caution" }).first()).toBeVisible();
+  // The re-measured reading takes what the field log takes: "7 1/8", typed or with a fraction key.
+  await inspector.getByLabel("Re-measured reading").check();
+  const remeasured = inspector.getByLabel("Re-measured elongation (in)");
+  await remeasured.fill("7 1/8");
+  await inspector.getByRole("button", { name: "Add to the trail" }).click();
+  // Two faults at once: no note, and (below) a reading that cannot be read, each beside its box.
+  await expect(inspector.locator("#review-body-error")).toBeVisible();
+  await expect(inspector.locator("#remeasured-error")).toHaveCount(0);
+  await remeasured.fill("seven");
+  await inspector.getByRole("button", { name: "Add to the trail" }).click();
+  await expect(inspector.locator("#remeasured-error")).toBeVisible();
+  await expect(remeasured).toHaveAttribute("aria-describedby", /\bremeasured-error\b/);
+  await expect(inspector.locator("#review-body-error")).toBeVisible();
+  await remeasured.fill("7 3/8");
+  await inspector
+    .getByRole("group", { name: "Fraction keys" })
+    .getByRole("button", { name: "1/8", exact: true })
+    .click();
+  await expect(remeasured).toHaveValue("7 1/8");
+  await inspector.getByLabel("What you found").fill("Mark re-measured with a steel tape from the plate.");
+  await inspector.getByRole("button", { name: "Add to the trail" }).click();
+  await expect(inspector.getByText("Finding added to the flag's trail.")).toBeVisible();
+  const [review] = await queryDemo<{ remeasured_mm: string }>(
+    "select r.remeasured_mm from reviews r join flags f on f.id = r.flag_id where f.tendon_id = $1 and r.kind = 'remeasured'",
+    [fx.tendonId],
+  );
+  // 7 1/8 in, at 25.4 mm to the inch (lib/units).
+  expect(Number(review!.remeasured_mm)).toBeCloseTo(7.125 * MM_PER_INCH, 3);
+  await screenshot(inspector, "flag-inspector-remeasured");
+
   await inspector.getByLabel("Send to the engineer").check();
   await inspector
     .getByLabel("Note for the engineer")

@@ -172,6 +172,14 @@ test("a bad pour area is answered beside the box and nothing is saved", async ({
   await page.getByRole("button", { name: "Add pour" }).click();
   await expect(page.locator("#p-area-error")).toHaveText("Type a number.");
   await expect(page.locator("#p-name-error")).toContainText("Give the pour a name");
+  // Each message is read with its own box.
+  const name = page.getByLabel("Name, as drawn");
+  await expect(name).toHaveAttribute("aria-invalid", "true");
+  await expect(name).toHaveAttribute("aria-describedby", "p-name-error");
+  await expect(name).toHaveAccessibleDescription(/Give the pour a name/);
+  await expect(area).toHaveAttribute("aria-describedby", "p-area-error");
+  await expect(area).toHaveAccessibleDescription("Type a number.");
+  await screenshot(page, "pour-form-two-errors");
   expect(await queryDemo("select id from pours where name = $1", [pour])).toHaveLength(0);
 });
 

@@ -84,7 +84,10 @@ test.describe("editing from the office", () => {
     await form.getByRole("button", { name: "Save changes" }).click();
     await expect(modulus).toHaveAttribute("aria-invalid", "true");
     await expect(form.locator("#e-modulusMPa-error")).toBeVisible();
-    await expect(modulus).toHaveAccessibleDescription(await form.locator("#e-modulusMPa-error").innerText());
+    // The message is read with the box, after the box's hint.
+    const said = await form.locator("#e-modulusMPa-error").innerText();
+    await expect(modulus).toHaveAttribute("aria-describedby", /\be-modulusMPa-error\b/);
+    await expect(modulus).toHaveAccessibleDescription(new RegExp(`${said.replace(/[.*+?^${}()|[\]\\]/g, "\\$&")}$`));
     await expect(page.getByRole("dialog")).toHaveCount(0);
     // Below the strand range: the shared schema's words, beside the same box.
     await modulus.fill("100");

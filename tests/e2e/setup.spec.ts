@@ -40,9 +40,30 @@ test("an admin sets up a pour, imports its schedule, adds a strand lot and a cal
   await page.getByLabel("Band per tendon, ± %").fill("30");
   await page.getByRole("button", { name: "Save settings" }).click();
   await expect(page.getByText("A band above 25 % is not a check.")).toBeVisible();
+  // Two bad boxes at once: each is answered beside its box, tied to it, and nothing is saved.
+  const band = page.getByLabel("Band per tendon, ± %");
+  const skew = page.getByLabel(/tablet time is off the server's/);
+  await skew.fill("lots");
+  await page.getByRole("button", { name: "Save settings" }).click();
+  await expect(page.locator("#s-tolerancePct-error")).toHaveText("A band above 25 % is not a check.");
+  await expect(page.locator("#s-clockSkewMinutes-error")).toHaveText("Type a number.");
+  for (const [box, id] of [
+    [band, "s-tolerancePct"],
+    [skew, "s-clockSkewMinutes"],
+  ] as const) {
+    await expect(box).toHaveAttribute("aria-invalid", "true");
+    await expect(box).toHaveAttribute("aria-describedby", new RegExp(`\\b${id}-error\\b`));
+  }
+  await expect(band).toHaveAccessibleDescription(/A band above 25 % is not a check\./);
+  await expect(skew).toHaveAccessibleDescription(/Type a number\./);
+  await screenshot(page, "setup-settings-two-errors");
+  await skew.fill("10");
   await page.getByLabel("Band per tendon, ± %").fill("7");
+  // A length in the settings is read as the field log reads it: a fraction of an inch.
+  await page.getByLabel("Anchor set, in").fill("1/4");
   await page.getByRole("button", { name: "Save settings" }).click();
   await expect(page.getByText("Settings saved.")).toBeVisible();
+  await expect(band).not.toHaveAttribute("aria-invalid", "true");
   await screenshot(page, "setup-settings");
   // A narrower band would change stressed tendons' verdicts: the admin is told how many before saving.
   await page.getByLabel("Band per tendon, ± %").fill("1");

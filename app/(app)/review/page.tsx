@@ -1,4 +1,5 @@
 import { redirect } from "next/navigation";
+import { FormField } from "@/components/ui/form-field";
 import { FlagQueue } from "@/components/review/flag-queue";
 import { ReleaseList } from "@/components/review/release-list";
 import { Caution } from "@/components/ui/caution";
@@ -7,6 +8,7 @@ import { db } from "@/db";
 import { can } from "@/lib/auth/permissions";
 import { getSessionUser } from "@/lib/auth/session";
 import { flagFilterSchema } from "@/lib/schemas/review";
+import { zodFields } from "@/lib/schemas/zod-fields";
 import { findFlags } from "@/lib/server/find-flags";
 import { findReleaseCandidates } from "@/lib/server/find-release-candidates";
 
@@ -28,6 +30,8 @@ export default async function ReviewPage({
   );
   const parsed = flagFilterSchema.safeParse(raw);
   const filter = parsed.success ? parsed.data : flagFilterSchema.parse({});
+  // A filter that cannot be read is said beside its box, never dropped without a word.
+  const bad: Record<string, string[] | undefined> = parsed.success ? {} : zodFields(parsed.error);
   const projects = user.memberships.filter((m) => can(m.role, "flag.review"));
   const allowedIds = projects.map((p) => p.projectId);
   const tendons = await findFlags(db, {
@@ -45,57 +49,52 @@ export default async function ReviewPage({
       <p className="text-ink-soft">Every open flag on your projects, one tendon per card, oldest first.</p>
       {!parsed.success && <p className="card">Some filters in the address were not understood and were left out.</p>}
       <form className="card grid gap-4 md:grid-cols-5 md:items-end" method="get" aria-label="Filter the flags">
-        <div>
-          <label htmlFor="f-project" className="field-label">
-            Project
-          </label>
-          <select id="f-project" name="projectId" defaultValue={filter.projectId ?? ""} className="field-input mt-1">
-            <option value="">All</option>
-            {projects.map((p) => (
-              <option key={p.projectId} value={p.projectId}>
-                {p.projectName}
-              </option>
-            ))}
-          </select>
-        </div>
-        <div>
-          <label htmlFor="f-pour" className="field-label">
-            Pour
-          </label>
-          <select id="f-pour" name="pourId" defaultValue={filter.pourId ?? ""} className="field-input mt-1">
-            <option value="">All</option>
-            {pours.map(([id, name]) => (
-              <option key={id} value={id}>
-                {name}
-              </option>
-            ))}
-          </select>
-        </div>
-        <div>
-          <label htmlFor="f-kind" className="field-label">
-            Flag
-          </label>
-          <select id="f-kind" name="kind" defaultValue={filter.kind ?? ""} className="field-input mt-1">
-            <option value="">All</option>
-            {KINDS.map((k) => (
-              <option key={k} value={k}>
-                {flagLabel(k)}
-              </option>
-            ))}
-          </select>
-        </div>
-        <div>
-          <label htmlFor="f-age" className="field-label">
-            Older than (hours)
-          </label>
-          <input
-            id="f-age"
-            name="olderThanHours"
-            inputMode="numeric"
-            defaultValue={filter.olderThanHours ?? ""}
-            className="field-input mt-1"
-          />
-        </div>
+        <FormField
+          as="select"
+          id="f-project"
+          name="projectId"
+          label="Project"
+          defaultValue={filter.projectId ?? ""}
+          error={bad.projectId}
+        >
+          <option value="">All</option>
+          {projects.map((p) => (
+            <option key={p.projectId} value={p.projectId}>
+              {p.projectName}
+            </option>
+          ))}
+        </FormField>
+        <FormField
+          as="select"
+          id="f-pour"
+          name="pourId"
+          label="Pour"
+          defaultValue={filter.pourId ?? ""}
+          error={bad.pourId}
+        >
+          <option value="">All</option>
+          {pours.map(([id, name]) => (
+            <option key={id} value={id}>
+              {name}
+            </option>
+          ))}
+        </FormField>
+        <FormField as="select" id="f-kind" name="kind" label="Flag" defaultValue={filter.kind ?? ""} error={bad.kind}>
+          <option value="">All</option>
+          {KINDS.map((k) => (
+            <option key={k} value={k}>
+              {flagLabel(k)}
+            </option>
+          ))}
+        </FormField>
+        <FormField
+          id="f-age"
+          name="olderThanHours"
+          label="Older than (hours)"
+          numeric="integer"
+          defaultValue={filter.olderThanHours ?? (typeof raw.olderThanHours === "string" ? raw.olderThanHours : "")}
+          error={bad.olderThanHours}
+        />
         <button type="submit" className="btn-primary">
           Filter
         </button>

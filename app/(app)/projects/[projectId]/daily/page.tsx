@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { FormField } from "@/components/ui/form-field";
 import { DailySigning } from "@/components/reports/daily-signing";
 import { Caution } from "@/components/ui/caution";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
@@ -118,20 +119,15 @@ export default async function DailyReportPage({
       </header>
 
       <form method="get" className="flex flex-wrap items-end gap-3" aria-label="Pick the day">
-        <div>
-          <label htmlFor="report-day" className="field-label">
-            Day
-          </label>
-          <input
-            id="report-day"
-            name="day"
-            type="date"
-            defaultValue={day ?? typed}
-            max={today}
-            className="field-input mt-1"
-            aria-describedby={day ? undefined : "report-day-error"}
-          />
-        </div>
+        <FormField
+          id="report-day"
+          name="day"
+          type="date"
+          label="Day"
+          defaultValue={day ?? typed}
+          max={today}
+          error={parsed.success ? undefined : (parsed.error.issues[0]?.message ?? "Give the day as YYYY-MM-DD.")}
+        />
         <button type="submit" className="btn-primary">
           Show the day
         </button>
@@ -148,11 +144,6 @@ export default async function DailyReportPage({
           </>
         )}
       </form>
-      {!parsed.success && (
-        <p id="report-day-error" role="alert" className="font-semibold text-signal-stop">
-          Day: {parsed.error.issues[0]?.message ?? "Give the day as YYYY-MM-DD."}
-        </p>
-      )}
 
       {view && day && (
         <>
