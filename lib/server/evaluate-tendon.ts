@@ -26,7 +26,7 @@ import { WIRES_PER_STRAND } from "@/lib/stressing/rules/member-wire-loss";
 import { answeredOrder } from "@/lib/stressing/rules/stressed-twice";
 import { showLength, showPct, showWobble } from "@/lib/format/quantities";
 import { governsLine } from "@/lib/stressing/display";
-import { storedWireBreaks } from "@/lib/schemas/record";
+import { storedGaugeOffTarget, storedGaugeSteps, storedWireBreaks } from "@/lib/schemas/record";
 import { selectTendonBasis, toLoadedTendon, type LoadedTendon } from "./load-tendon-basis";
 
 /**
@@ -411,6 +411,8 @@ export function judgeInputFromState(state: TendonState): JudgeInput {
     firstReadingMm: r.first_reading_mm ?? null,
     rereadDeclinedReason: r.reread_declined_reason ?? null,
     wireBreakDetails: storedWireBreaks(r.wire_break_details),
+    gaugeSteps: storedGaugeSteps(r.entered),
+    gaugeOffTarget: storedGaugeOffTarget(r.entered),
   }));
   for (const r of records)
     if (!sets.has(r.equipmentSetId))
