@@ -431,8 +431,8 @@ export function RecordForm({
               : box.startsWith("gaugeSteps")
                 ? `Step ${Number(box.split(".")[1]) + 1} reading`
                 : box.startsWith("rereadStrokes")
-                ? `Stroke ${Number(box.split(".")[1]) + 1}, read again`
-                : `Stroke ${Number(box.split(".")[1]) + 1}`;
+                  ? `Stroke ${Number(box.split(".")[1]) + 1}, read again`
+                  : `Stroke ${Number(box.split(".")[1]) + 1}`;
   const pickFraction = (fraction: string) => {
     const now = String(getValues(typing) ?? "");
     setValue(typing, `${now.replace(/\s*-?\s*\d+\/\d+\s*$/, "").trim() || "0"} ${fraction}`, {

@@ -524,6 +524,11 @@ export function planEvaluation(
     forceBasisMm: e.forceBasisMm,
     forceDifferencePct: agreementOf(e)?.differencePct ?? null,
     forceBandPct: agreementOf(e)?.bandPct ?? null,
+    // The gauge steps' line as judged (r², what it put below the initial pressure), and the target.
+    stepFit: e.stepFit,
+    targetPressureMPa: e.targetPressureMPa,
+    offTargetPct: e.offTargetPct,
+    gaugeOffTarget: e.record.gaugeOffTarget ?? null,
     incomplete: e.incomplete,
   }));
   const usedCalibrations = judgement.ends
