@@ -111,7 +111,7 @@ export function gaugeStepsText(p: PourReport["project"], r: Pick<PourRecord, "ga
   return `gauge steps ${steps}${line}`;
 }
 
-/** "+9.5 % off target; crew: needle sticks" — the crew's confirmation of a gauge off its target. */
+/** "final +9.5 % off target, confirmed by the crew: needle sticks"; empty without a confirmation. */
 export function offTargetText(r: Pick<PourRecord, "gaugeOffTarget">): string {
   const o = r.gaugeOffTarget;
   return o ? `final ${showPct(o.pct)} off target, confirmed by the crew: ${o.reason}` : "";
