@@ -101,13 +101,14 @@ const cases: Record<RuleKind, Case[]> = {
       raised: false,
     },
     {
-      name: "7.5 % over, confirmed with a reason",
+      name: "7.5 % over, confirmed with a reason (a 0.70 project: 0.7525·fpu·A, under the limit)",
       change: (i) => ({
         ...i,
+        project: { ...i.project, jackingForceFactor: 0.7 },
         records: [
           rec({
             measuredMm: P,
-            finalPressureMPa: 1.075 * TARGET,
+            finalPressureMPa: 1.075 * (0.7 / 0.8) * TARGET,
             gaugeOffTarget: { pct: 7.5, reason: "needle sticks, read twice" },
           }),
         ],
@@ -116,10 +117,19 @@ const cases: Record<RuleKind, Case[]> = {
       reason: /End A: final gauge .* is \+7\.5 % from the target .*band ±7 %.*“needle sticks, read twice”/,
     },
     {
-      name: "8 % under, no reason with the record",
-      change: (i) => ({ ...i, records: [rec({ measuredMm: P, finalPressureMPa: 0.92 * TARGET })] }),
+      name: "8 % under, no reason with the record, on a project whose under-force threshold is 10 %",
+      change: (i) => ({
+        ...i,
+        project: { ...i.project, underForcePct: 10 },
+        records: [rec({ measuredMm: P, finalPressureMPa: 0.92 * TARGET })],
+      }),
       raised: true,
       reason: /−8\.0 % from the target.*no reason came with the record/,
+    },
+    {
+      name: "8 % under with the default 2 % threshold: the under-force flag holds it (one flag for one fact)",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P, finalPressureMPa: 0.92 * TARGET })] }),
+      raised: false,
     },
     {
       name: "no calibration: no target to be off",
