@@ -602,6 +602,23 @@ export function RecordForm({
             error={err.finalPressure?.message}
           />
         </div>
+        {/* Beside the pressures, where there is room on either orientation: the rows fold out below. */}
+        <button
+          type="button"
+          className="btn-quiet px-3"
+          aria-expanded={showSteps}
+          aria-controls="gauge-steps"
+          onClick={() =>
+            showSteps
+              ? (setFractionTarget(null), stepRows.remove())
+              : stepRows.append([
+                  { pressure: "", reading: "" },
+                  { pressure: "", reading: "" },
+                ])
+          }
+        >
+          {showSteps ? "No gauge steps" : "Gauge steps…"}
+        </button>
         <fieldset>
           <legend className="field-label">Elongation read as</legend>
           <div className="mt-1 flex flex-wrap gap-2">
@@ -613,22 +630,6 @@ export function RecordForm({
               <input type="radio" value="strokes" className="sr-only" {...register("readingMethod")} />
               Ram strokes
             </label>
-            <button
-              type="button"
-              className="btn-quiet px-3"
-              aria-expanded={showSteps}
-              aria-controls="gauge-steps"
-              onClick={() =>
-                showSteps
-                  ? (setFractionTarget(null), stepRows.remove())
-                  : stepRows.append([
-                      { pressure: "", reading: "" },
-                      { pressure: "", reading: "" },
-                    ])
-              }
-            >
-              {showSteps ? "No gauge steps" : "Gauge steps…"}
-            </button>
           </div>
         </fieldset>
         {ends.length === 2 && (
