@@ -334,7 +334,8 @@ export type FlagKind =
   | "group_out_of_band"
   | "member_wire_loss"
   | "liftoff_out_of_band"
-  | "force_disagreement";
+  | "force_disagreement"
+  | "gauge_off_target";
 export type FlagStatus = "open" | "with_engineer" | "closed";
 
 export interface FlagsTable {

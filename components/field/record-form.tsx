@@ -9,6 +9,7 @@ import { calibrationFor, fieldDay, provisionalVerdict, targetFor, type TendonCon
 import {
   EMPTY_RECORD_FORM,
   entryUnitsFor,
+  MAX_GAUGE_STEPS,
   payloadFromForm,
   recordFormSchema,
   recordPayloadSchema,
@@ -19,6 +20,7 @@ import {
 } from "@/lib/schemas/record";
 import { stressedEnds } from "@/lib/stressing/basis";
 import { finerDivision, showPressure } from "@/lib/stressing/display";
+import { MM_PER_INCH, MPA_PER_PSI } from "@/lib/units";
 import { setFormDirty } from "./form-dirty";
 import { SafetyCaution } from "@/components/ui/caution";
 import { useField } from "./field-provider";
@@ -45,7 +47,8 @@ type LengthBox =
   | "drawIn"
   | "rereadMarksAfter"
   | `strokes.${number}.value`
-  | `rereadStrokes.${number}.value`;
+  | `rereadStrokes.${number}.value`
+  | `gaugeSteps.${number}.reading`;
 
 /**
  * One row of fraction keys for every inch reading: the numeric keypad has no slash, gloves want
@@ -145,6 +148,23 @@ function formFromEntered(base: LocalRecord): RecordFormValues {
     rereadMarksAfter: e.reread?.marksAfter ?? "",
     rereadStrokes: (e.reread?.strokes ?? []).map((value) => ({ value })),
     rereadDeclinedReason: base.rereadDeclinedReason ?? "",
+    // Steps typed on a tablet carry their text; older ones only their SI values, shown in the entry units.
+    gaugeSteps: (e.gaugeSteps ?? []).map((st) => ({
+      pressure:
+        st.pressure ??
+        (st.pressureMPa === undefined
+          ? ""
+          : e.units.pressure === "psi"
+            ? String(Math.round(st.pressureMPa / MPA_PER_PSI))
+            : String(Number(st.pressureMPa.toFixed(2)))),
+      reading:
+        st.reading ??
+        (st.readingMm === undefined
+          ? ""
+          : e.units.length === "in"
+            ? String(Number((st.readingMm / MM_PER_INCH).toFixed(4)))
+            : String(Number(st.readingMm.toFixed(1)))),
+    })),
     stressingOrder: base.stressingOrder ?? "sequential",
     wireBreaks: String(base.wireBreaks),
     wireBreakDetails: (base.wireBreakDetails ?? []).map((b) => ({
@@ -230,6 +250,7 @@ export function RecordForm({
   const form = useForm<RecordFormValues>({ resolver: zodResolver(schema), defaultValues: defaults, mode: "onSubmit" });
   const { register, handleSubmit, setValue, getValues, formState, reset, control } = form;
   const strokes = useFieldArray({ control, name: "strokes" });
+  const stepRows = useFieldArray({ control, name: "gaugeSteps" });
   // One row per broken wire, following the count typed.
   const breakRows = useFieldArray({ control, name: "wireBreakDetails" });
   const breakCount = useWatch({ control, name: "wireBreaks" });
@@ -246,7 +267,9 @@ export function RecordForm({
   const [saveError, setSaveError] = useState<string | null>(null);
   const [saving, setSaving] = useState(false);
   // A final pressure farther from the target than the band asks for a reason before it is saved.
-  const [offTarget, setOffTarget] = useState<{ pct: number; reason: string } | null>(null);
+  const [offTarget, setOffTarget] = useState<{ pct: number; reason: string } | null>(
+    (correcting?.entered as Entered | undefined)?.gaugeOffTarget ?? null,
+  );
 
   useEffect(() => setFormDirty(formState.isDirty || photos.length > 0), [formState.isDirty, photos.length]);
   useEffect(() => () => setFormDirty(false), []);
@@ -267,6 +290,9 @@ export function RecordForm({
     try {
       const recordId = uuidv7();
       const cal = calibrationFor(ctx.calibrations, values.equipmentSetId, today);
+      const target = cal.calibration
+        ? targetFor({ ...ctx, set: sets.find((s) => s?.id === values.equipmentSetId) ?? null }, cal.calibration)
+        : null;
       const payload = payloadFromForm(values, {
         units: entryUnits,
         projectId: ctx.project.id,
@@ -284,19 +310,36 @@ export function RecordForm({
         timeZone: Intl.DateTimeFormat().resolvedOptions().timeZone || "UTC",
       });
       // A gauge reading the calibration does not cover gives no known force: refused, never judged.
-      if (
-        cal.calibration &&
-        (payload.finalPressureMPa < cal.calibration.minPressureMPa ||
-          payload.finalPressureMPa > cal.calibration.maxPressureMPa)
-      ) {
-        form.setError("finalPressure", {
-          message: `Outside the calibrated range ${showPressure(units(ctx.project), cal.calibration.minPressureMPa)} to ${showPressure(units(ctx.project), cal.calibration.maxPressureMPa)}: read the gauge again.`,
+      // Each pressure is named by its box: the initial, the final, and every gauge step.
+      if (cal.calibration) {
+        const { minPressureMPa: lo, maxPressureMPa: hi } = cal.calibration;
+        const range = `the calibrated range ${showPressure(units(ctx.project), lo)} to ${showPressure(units(ctx.project), hi)} of this set`;
+        const outside = (mpa: number | null | undefined) => mpa !== null && mpa !== undefined && (mpa < lo || mpa > hi);
+        let refused = false;
+        if (outside(payload.finalPressureMPa)) {
+          form.setError("finalPressure", {
+            message: `Final gauge pressure outside ${range}: read the gauge again.`,
+          });
+          refused = true;
+        }
+        if (outside(payload.initialPressureMPa)) {
+          form.setError("initialPressure", {
+            message: `Initial gauge pressure outside ${range}: the force there is not known.`,
+          });
+          refused = true;
+        }
+        const typedRows = values.gaugeSteps.flatMap((st, i) => (st.pressure !== "" || st.reading !== "" ? [i] : []));
+        (payload.entered.gaugeSteps ?? []).forEach((st, k) => {
+          const row = typedRows[k] ?? k;
+          if (outside(st.pressureMPa)) {
+            form.setError(`gaugeSteps.${row}.pressure`, {
+              message: `Step ${row + 1} pressure outside ${range}: the force there is not known.`,
+            });
+            refused = true;
+          }
         });
-        return;
+        if (refused) return;
       }
-      const target = cal.calibration
-        ? targetFor({ ...ctx, set: sets.find((s) => s?.id === values.equipmentSetId) ?? null }, cal.calibration)
-        : null;
       const offPct = target ? ((payload.finalPressureMPa - target) / target) * 100 : 0;
       if (Math.abs(offPct) > ctx.project.tolerancePct) {
         if (!offTarget || offTarget.reason.trim().length < 3) {
@@ -306,13 +349,11 @@ export function RecordForm({
           );
           return;
         }
-        payload.remarks = [
-          `Gauge ${offPct >= 0 ? "+" : "−"}${Math.abs(offPct).toFixed(1)} % off target: ${offTarget.reason.trim()}`,
-          payload.remarks,
-        ]
-          .filter(Boolean)
-          .join(" · ")
-          .slice(0, 2000);
+        // Kept as a field of the record (schema-checked on the server), not in the remarks.
+        payload.entered.gaugeOffTarget = {
+          pct: Math.round(offPct * 100) / 100,
+          reason: offTarget.reason.trim().slice(0, 500),
+        };
       }
       // The same check the server makes, before anything is stored.
       const checked = recordPayloadSchema.safeParse(payload);
@@ -373,6 +414,9 @@ export function RecordForm({
   // The box the fraction keys write into: the last reading box touched, else the one read most.
   const [fractionTarget, setFractionTarget] = useState<LengthBox | null>(null);
   const typing = fractionTarget ?? (method === "marks" ? "marksAfter" : "strokes.0.value");
+  // Gauge steps are rarely read: folded away until the crew opens them (two rows), and folded again
+  // only by taking every row away, so nothing typed travels unseen.
+  const showSteps = stepRows.fields.length > 0;
   const lengthLabel = (box: LengthBox) =>
     box === "marksBefore"
       ? "Mark before"
@@ -384,9 +428,11 @@ export function RecordForm({
             ? "Draw-in"
             : box === "rereadMarksAfter"
               ? "Mark after, read again"
-              : box.startsWith("rereadStrokes")
-                ? `Stroke ${Number(box.split(".")[1]) + 1}, read again`
-                : `Stroke ${Number(box.split(".")[1]) + 1}`;
+              : box.startsWith("gaugeSteps")
+                ? `Step ${Number(box.split(".")[1]) + 1} reading`
+                : box.startsWith("rereadStrokes")
+                  ? `Stroke ${Number(box.split(".")[1]) + 1}, read again`
+                  : `Stroke ${Number(box.split(".")[1]) + 1}`;
   const pickFraction = (fraction: string) => {
     const now = String(getValues(typing) ?? "");
     setValue(typing, `${now.replace(/\s*-?\s*\d+\/\d+\s*$/, "").trim() || "0"} ${fraction}`, {
@@ -556,6 +602,23 @@ export function RecordForm({
             error={err.finalPressure?.message}
           />
         </div>
+        {/* Beside the pressures, where there is room on either orientation: the rows fold out below. */}
+        <button
+          type="button"
+          className="btn-quiet px-3"
+          aria-expanded={showSteps}
+          aria-controls="gauge-steps"
+          onClick={() =>
+            showSteps
+              ? (setFractionTarget(null), stepRows.remove())
+              : stepRows.append([
+                  { pressure: "", reading: "" },
+                  { pressure: "", reading: "" },
+                ])
+          }
+        >
+          {showSteps ? "No gauge steps" : "Gauge steps…"}
+        </button>
         <fieldset>
           <legend className="field-label">Elongation read as</legend>
           <div className="mt-1 flex flex-wrap gap-2">
@@ -672,6 +735,58 @@ export function RecordForm({
             </p>
           </div>
         </div>
+      )}
+
+      {showSteps && (
+        <fieldset
+          id="gauge-steps"
+          className="grid gap-2 rounded-md border-2 border-concrete-300 p-2"
+          data-testid="gauge-steps"
+        >
+          <legend className="field-label px-1">Gauge steps on the way up</legend>
+          <p className="text-base text-ink-soft">
+            The pressure and the reading at each step (e.g. 20, 40, 60, 80, 100 %), from one fixed origin. The
+            elongation above counts from the initial pressure; the steps&apos; least-squares line adds what lies below
+            it.
+          </p>
+          {stepRows.fields.map((f, i) => (
+            <div key={f.id} className="grid grid-cols-[minmax(0,1fr)_minmax(0,1fr)_auto] items-end gap-3">
+              <NumberBox
+                id={`step-pressure-${i}`}
+                label={`Step ${i + 1} pressure`}
+                unit={entryUnits.pressure}
+                reg={register(`gaugeSteps.${i}.pressure`)}
+                error={err.gaugeSteps?.[i]?.pressure?.message}
+              />
+              <NumberBox
+                id={`step-reading-${i}`}
+                label={`Step ${i + 1} reading`}
+                unit={entryUnits.length}
+                reg={register(`gaugeSteps.${i}.reading`)}
+                error={err.gaugeSteps?.[i]?.reading?.message}
+                onFocus={() => setFractionTarget(`gaugeSteps.${i}.reading`)}
+              />
+              <button
+                type="button"
+                className="btn-quiet"
+                aria-label={`Remove step ${i + 1}`}
+                onClick={() => (setFractionTarget(null), stepRows.remove(i))}
+              >
+                Remove
+              </button>
+            </div>
+          ))}
+          <div>
+            <button
+              type="button"
+              className="btn-quiet"
+              onClick={() => stepRows.append({ pressure: "", reading: "" })}
+              disabled={stepRows.fields.length >= MAX_GAUGE_STEPS}
+            >
+              Add a step
+            </button>
+          </div>
+        </fieldset>
       )}
 
       {rereadAsked && (

@@ -1,6 +1,6 @@
 import { ForceProfileChart } from "@/components/review/force-profile-chart";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
-import { showComputedLength, showForce, showLength, showPct } from "@/lib/format/quantities";
+import { showComputedLength, showForce, showLength, showPct, showPressure } from "@/lib/format/quantities";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
 import { showBandEdge } from "@/lib/stressing/display";
 import { N_PER_KIP, wobblePerMToPerFt } from "@/lib/units";
@@ -88,6 +88,47 @@ function ForceRows({
           label={`Difference, end ${e.end}`}
           value={`${showPct(e.forceDifferencePct)}${agrees === null ? "" : agrees ? `, within ${band}` : `, outside ${band}`}`}
           source="(elongation − gauge)/gauge; both determinations, ACI 318-11 §18.20.1 (from memory)"
+        />
+      )}
+    </>
+  );
+}
+
+/** One end's gauge steps and their least-squares line, and a final pressure kept off its target. */
+function GaugeRows({
+  p,
+  e,
+}: {
+  p: TendonCase["basis"]["project"];
+  e: NonNullable<TendonCase["figures"]>["ends"][number];
+}) {
+  const fit = e.stepFit;
+  const off = e.offTargetPct !== null && Math.abs(e.offTargetPct) > p.tolerancePct + 1e-9;
+  return (
+    <>
+      {fit && (
+        <>
+          <Row
+            label={`Gauge steps, end ${e.end}`}
+            value={fit.steps.map((s) => `${showPressure(p, s.pressureMPa)}: ${showLength(p, s.readingMm)}`).join("; ")}
+            source="As read on the way up, pressure: reading"
+          />
+          <Row
+            label={`Steps' line, end ${e.end}`}
+            value={`r² ${fit.r2.toFixed(4)}; adds ${showComputedLength(p, fit.belowReferenceMm)} below ${
+              e.initialPressureMPa !== null ? showPressure(p, e.initialPressureMPa) : "zero"
+            }`}
+            source="Least squares of force on reading; force ÷ slope below the initial pressure"
+          />
+        </>
+      )}
+      {(off || e.gaugeOffTarget) && e.targetPressureMPa !== null && e.offTargetPct !== null && (
+        <Row
+          label={`Final pressure off target, end ${e.end}`}
+          value={`${showPct(e.offTargetPct)} from ${showPressure(p, e.targetPressureMPa)}`}
+          source={
+            e.gaugeOffTarget ? `Kept by the crew: “${e.gaugeOffTarget.reason}”` : "No reason came with the record"
+          }
         />
       )}
     </>
@@ -267,6 +308,9 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
                 {judgement.ends.map((e) =>
                   e.gaugeForceN !== null && e.impliedForceN !== null ? <ForceRows key={e.end} p={p} e={e} /> : null,
                 )}
+                {judgement.ends.map((e) => (
+                  <GaugeRows key={`gauge-${e.end}`} p={p} e={e} />
+                ))}
               </>
             )}
           </tbody>

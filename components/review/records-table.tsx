@@ -1,7 +1,8 @@
 import { formatDateTime } from "@/lib/format/dates";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
 import { rereadLine } from "@/lib/stressing/display";
-import { storedWireBreaks, wireBreakWords } from "@/lib/schemas/record";
+import { showPct } from "@/lib/format/quantities";
+import { storedGaugeOffTarget, storedGaugeSteps, storedWireBreaks, wireBreakWords } from "@/lib/schemas/record";
 import { CorrectionForm } from "./flag-actions";
 
 /** Every stressing record of the tendon, all revisions, oldest first; photos link to the files. */
@@ -93,6 +94,23 @@ export function RecordsTable({
                     return line ? (
                       <span className="block" data-testid="reread-line">
                         {line}
+                      </span>
+                    ) : null;
+                  })()}
+                  {(() => {
+                    const steps = storedGaugeSteps(r.entered);
+                    return steps ? (
+                      <span className="block" data-testid="gauge-steps-line">
+                        Gauge steps:{" "}
+                        {steps.map((s) => `${showPressure(s.pressureMPa)}: ${showLength(s.readingMm)}`).join("; ")}
+                      </span>
+                    ) : null;
+                  })()}
+                  {(() => {
+                    const off = storedGaugeOffTarget(r.entered);
+                    return off ? (
+                      <span className="block font-bold" data-testid="gauge-off-target">
+                        Gauge {showPct(off.pct)} off target, kept by the crew: {off.reason}
                       </span>
                     ) : null;
                   })()}

@@ -31,6 +31,7 @@ import * as tendonStressingOrder from "./2026-12-12T110200-tendon-stressing-orde
 import * as detensions from "./2026-12-12T120000-detensions";
 import * as shiftDigests from "./2026-12-12T130000-shift-digests";
 import * as dailyAttestation from "./2026-12-12T140000-daily-attestation";
+import * as gaugeOffTarget from "./2026-12-13T100000-gauge-off-target";
 import * as referenceNumbers from "./2026-12-13T140000-reference-numbers";
 
 // A static index: vitest and bundlers cannot import .ts migrations from a folder scan.
@@ -68,5 +69,6 @@ export const migrations: Record<string, Migration> = {
   "2026-12-12T120000-detensions": detensions,
   "2026-12-12T130000-shift-digests": shiftDigests,
   "2026-12-12T140000-daily-attestation": dailyAttestation,
+  "2026-12-13T100000-gauge-off-target": gaugeOffTarget,
   "2026-12-13T140000-reference-numbers": referenceNumbers,
 };

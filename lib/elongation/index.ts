@@ -25,8 +25,8 @@ export { meanForceFactor, segmentBeta } from "./friction";
 
 export { checkReadingInCalibration, fitCalibration, forceFromPressure, pressureForForce } from "./calibration";
 export type { CalibrationFit, CalibrationPoint } from "./calibration";
-export { fitApparentStiffness, totalFromInitial } from "./initial-stress";
-export type { ApparentStiffness, GaugeStep } from "./initial-stress";
+export { fitApparentStiffness, totalFromInitial, totalFromSteps } from "./initial-stress";
+export type { ApparentStiffness, GaugeStep, StepExtrapolation } from "./initial-stress";
 
 export { bandHalfWidthMm, compareElongation, resolutionEffect } from "./compare";
 export type { Comparison, ComparisonInput, ResolutionEffect, Verdict } from "./compare";

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { expectInputError } from "../../tests/reference/support";
-import { fitApparentStiffness, totalFromInitial } from "./initial-stress";
+import { fitApparentStiffness, totalFromInitial, totalFromSteps } from "./initial-stress";
 
 // Arbitrary readings. Expected values follow from linear load–elongation: Δ(0→Pj) =
 // Δ(Pi→Pj)·Pj/(Pj − Pi), and for steps on a line F = k·(reading − r0) the slope is k, the zero r0.
@@ -135,6 +135,90 @@ describe("fitApparentStiffness", () => {
       () => fitApparentStiffness({ ...base, steps, millModulusMPa: -5 }),
       "millModulusMPa",
       "not-positive",
+    );
+  });
+});
+
+describe("totalFromSteps", () => {
+  const pj = 147_000;
+  // Two steps are the single initial reading: marks set at 20 %, m + set = 160 mm between the steps,
+  // read 154 mm after a 6 mm seating → 194 mm net, as the hand-worked case of totalFromInitial above.
+  it("with two steps equals the initial-stress formula on the net and the gross basis", () => {
+    const steps = [
+      { forceN: 0.2 * pj, readingMm: 5 },
+      { forceN: pj, readingMm: 165 },
+    ];
+    const net = totalFromSteps({ measuredMm: 154, referenceForceN: 0.2 * pj, steps });
+    expect(net.totalMm).toBeCloseTo(
+      totalFromInitial({ measuredMm: 154, initialForceN: 0.2 * pj, jackingForceN: pj, seatingMm: 6 }),
+      9,
+    );
+    expect(net.totalMm).toBeCloseTo(194, 9);
+    // Ram travel read 160 mm from 20 %: 160·Pj/(0.8·Pj) = 200 mm gross.
+    const gross = totalFromSteps({ measuredMm: 160, referenceForceN: 0.2 * pj, steps });
+    expect(gross.totalMm).toBeCloseTo(200, 9);
+    expect(net.r2).toBeCloseTo(1, 12);
+  });
+
+  it("with five collinear steps at 20/40/60/80/100 % gives the same total as two", () => {
+    const steps = [0.2, 0.4, 0.6, 0.8, 1].map((f) => ({ forceN: f * pj, readingMm: 5 + 200 * f }));
+    const fit = totalFromSteps({ measuredMm: 154, referenceForceN: 0.2 * pj, steps });
+    expect(fit.totalMm).toBeCloseTo(194, 9);
+    expect(fit.zeroReadingMm).toBeCloseTo(5, 9);
+    expect(fit.stiffnessNPerMm).toBeCloseTo(pj / 200, 9);
+  });
+
+  // Hand-computed least squares (force on reading, as fitApparentStiffness): readings 10, 36, 61, 87,
+  // 112 mm at 20, 40, 60, 80, 100 kN. Mean reading 61.2 mm, mean force 60 kN; Sxy = 5100 kN·mm,
+  // Sxx = 6502.8 mm², Syy = 4000 kN². Stiffness 5100/6502.8 kN/mm; below the 20 kN reference
+  // 20·6502.8/5100 = 25.501176… mm; r² = 5100²/(6502.8·4000) = 0.9999538…; zero reading
+  // 61.2 − 60·6502.8/5100 = −15.303529… mm.
+  it("fits scattered steps by least squares (hand-computed)", () => {
+    const steps = [10, 36, 61, 87, 112].map((r, i) => ({ forceN: (i + 1) * 20_000, readingMm: r }));
+    const fit = totalFromSteps({ measuredMm: 96, referenceForceN: 20_000, steps });
+    expect(fit.belowReferenceMm).toBeCloseTo(25.50117647, 7);
+    expect(fit.totalMm).toBeCloseTo(121.50117647, 7);
+    expect(fit.r2).toBeCloseTo(0.99995386, 7);
+    expect(fit.zeroReadingMm).toBeCloseTo(-15.30352941, 7);
+    expect(fit.stiffnessNPerMm).toBeCloseTo(5_100_000 / 6502.8, 6);
+  });
+
+  it("adds nothing when the elongation was read from zero force", () => {
+    const steps = [10, 36, 61].map((r, i) => ({ forceN: (i + 1) * 20_000, readingMm: r }));
+    expect(totalFromSteps({ measuredMm: 96, referenceForceN: 0, steps }).totalMm).toBe(96);
+  });
+
+  it("refuses steps that give no line", () => {
+    expectInputError(
+      () => totalFromSteps({ measuredMm: 96, referenceForceN: 0, steps: [{ forceN: 1, readingMm: 2 }] }),
+      "steps",
+      "too-few",
+    );
+    expectInputError(
+      () =>
+        totalFromSteps({
+          measuredMm: 96,
+          referenceForceN: 0,
+          steps: [
+            { forceN: 20_000, readingMm: 2 },
+            { forceN: 20_000, readingMm: 9 },
+          ],
+        }),
+      "steps",
+      "too-few",
+    );
+    expectInputError(
+      () =>
+        totalFromSteps({
+          measuredMm: 96,
+          referenceForceN: 0,
+          steps: [
+            { forceN: 20_000, readingMm: 9 },
+            { forceN: 40_000, readingMm: 2 },
+          ],
+        }),
+      "steps",
+      "out-of-range",
     );
   });
 });

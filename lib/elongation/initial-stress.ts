@@ -107,3 +107,61 @@ export function fitApparentStiffness(input: {
     elongationFromZeroMm: readings[topIndex]! - zeroReadingMm,
   };
 }
+
+export interface StepExtrapolation {
+  /** The reading brought to zero force: the typed elongation plus what the line puts below its reference. */
+  totalMm: number;
+  /** Elongation between zero force and the reference force, on the fitted line: referenceForce ÷ stiffness. */
+  belowReferenceMm: number;
+  /** Slope of force against reading, N per mm (the engine's `fitApparentStiffness` line). */
+  stiffnessNPerMm: number;
+  /** Reading where the fitted line reaches zero force. */
+  zeroReadingMm: number;
+  r2: number;
+}
+
+/**
+ * Several gauge steps generalise the single initial reading: the least-squares line of force
+ * against reading (the same line `fitApparentStiffness` draws) gives the elongation below the
+ * reference force the elongation was read from, `Fref ÷ stiffness`, which is added to the reading.
+ * On either basis the seating is not scaled: marks read after lock-off lost it after the pull, so
+ * with two steps at Pi and Pj read m + set apart this is exactly `(m + set)·Pj/(Pj − Pi) − set`,
+ * and ram travel read m apart gives `m·Pj/(Pj − Pi)`.
+ */
+export function totalFromSteps(input: {
+  /** The elongation as read from the reference force (marks after lock-off, or strokes). */
+  measuredMm: number;
+  /** The force the elongation was read from (0 when read from zero: nothing is added). */
+  referenceForceN: number;
+  steps: readonly GaugeStep[];
+}): StepExtrapolation {
+  const measuredMm = requireFinite(input.measuredMm, "measuredMm");
+  const referenceForceN = requireNonNegative(input.referenceForceN, "referenceForceN");
+  const { steps } = input;
+  if (!Array.isArray(steps) || steps.length < 2) {
+    throw new InputError("steps", "too-few", "need at least two gauge steps to fit a line");
+  }
+  const readings: number[] = [];
+  const forces: number[] = [];
+  steps.forEach((step, i) => {
+    if (step === null || typeof step !== "object") throw new InputError(`steps[${i}]`, "required", "step is missing");
+    readings.push(requireFinite(step.readingMm, `steps[${i}].readingMm`));
+    forces.push(requireNonNegative(step.forceN, `steps[${i}].forceN`));
+  });
+  if (Math.min(...forces) === Math.max(...forces)) {
+    throw new InputError("steps", "too-few", "need at least two different gauge pressures");
+  }
+  if (Math.min(...readings) === Math.max(...readings)) {
+    throw new InputError("steps", "out-of-range", "readings did not change between steps");
+  }
+  const { slope, intercept, r2 } = fitLine(readings, forces);
+  if (!(slope > 0)) throw new InputError("steps", "out-of-range", "force must rise as the strand elongates");
+  const belowReferenceMm = referenceForceN / slope;
+  return {
+    totalMm: measuredMm + belowReferenceMm,
+    belowReferenceMm,
+    stiffnessNPerMm: slope,
+    zeroReadingMm: -intercept / slope,
+    r2,
+  };
+}

@@ -13,6 +13,7 @@ import type {
   FieldTendon,
 } from "@/lib/schemas/sync";
 import { pickCalibration } from "@/lib/schemas/pick-calibration";
+import { storedGaugeOffTarget, storedGaugeSteps } from "@/lib/schemas/record";
 import type { LocalRecord, LocalVerdict } from "./db";
 
 /**
@@ -152,6 +153,8 @@ export function judgeInputFor(ctx: TendonContext & { sets?: FieldEquipmentSet[] 
     firstReadingMm: r.firstReadingMm ?? null,
     rereadDeclinedReason: r.rereadDeclinedReason ?? null,
     wireBreakDetails: r.wireBreakDetails ?? null,
+    gaugeSteps: storedGaugeSteps(r.entered),
+    gaugeOffTarget: storedGaugeOffTarget(r.entered),
   }));
   return {
     project: { ...ctx.project, readingResolution: ctx.project.readingResolution as "1/8in" | "1/16in" | "1mm" },

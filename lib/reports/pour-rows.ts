@@ -87,12 +87,34 @@ function readingsText(p: PourReport["project"], r: PourRecord): string {
   if (r.firstReadingMm && r.entered.reread?.strokes?.length)
     parts.push(`read again: ${r.entered.reread.strokes.map((s, i) => `stroke ${i + 1}: ${s}`).join(", ")} (judged)`);
   if (r.rereadDeclinedReason) parts.push(`not read again finer: ${r.rereadDeclinedReason}`);
+  if (r.gaugeSteps?.length) parts.push(gaugeStepsText(p, r));
   if (r.method === "strokes" && r.drawIn && r.drawIn.deductedMm > 0)
     parts.push(
       `less ${showComputedLength(p, r.drawIn.deductedMm)} draw-in (${showComputedLength(p, r.drawIn.usedMm)} per re-grip, ${r.drawIn.source === "record" ? "as typed" : "the equipment set's"})`,
     );
   if (!parts.length) parts.push(`${r.method === "marks" ? "marks" : "strokes"} (typed values not kept)`);
   return parts.join("; ");
+}
+
+/** "gauge steps 800 psi: 1 in, 1,600 psi: 2 1/4 in …; line r² 0.9995, adds 1 in below the initial pressure". */
+export function gaugeStepsText(p: PourReport["project"], r: Pick<PourRecord, "gaugeSteps" | "stepFit">): string {
+  const steps = (r.gaugeSteps ?? [])
+    .map(
+      (st) =>
+        `${st.pressure ?? showPressure(p, st.pressureMPa)}${st.pressure && !/[a-z]/i.test(st.pressure) ? ` ${p.unitSystem === "us" ? "psi" : "MPa"}` : ""}: ` +
+        `${st.reading ?? showLength(p, st.readingMm)}${st.reading && !/[a-z"']/i.test(st.reading) ? ` ${p.unitSystem === "us" ? "in" : "mm"}` : ""}`,
+    )
+    .join(", ");
+  const line = r.stepFit
+    ? `; least-squares line r² ${r.stepFit.r2.toFixed(4)}, adds ${showComputedLength(p, r.stepFit.belowReferenceMm)} below the initial pressure`
+    : "; no line judged";
+  return `gauge steps ${steps}${line}`;
+}
+
+/** "final +9.5 % off target, confirmed by the crew: needle sticks"; empty without a confirmation. */
+export function offTargetText(r: Pick<PourRecord, "gaugeOffTarget">): string {
+  const o = r.gaugeOffTarget;
+  return o ? `final ${showPct(o.pct)} off target, confirmed by the crew: ${o.reason}` : "";
 }
 
 function calibrationText(report: PourReport, r: PourRecord): string {
@@ -179,7 +201,9 @@ export function recordRows(report: PourReport): string[][] {
         Calibration: calibrationText(report, r),
         "Initial pressure": r.initialPressureMPa !== null ? showPressure(p, r.initialPressureMPa) : "none (from zero)",
         "Final pressure": showPressure(p, r.finalPressureMPa),
-        "Target pressure": r.targetPressureMPa !== null ? showPressure(p, r.targetPressureMPa) : "no calibration",
+        "Target pressure":
+          (r.targetPressureMPa !== null ? showPressure(p, r.targetPressureMPa) : "no calibration") +
+          (r.gaugeOffTarget ? `; ${offTargetText(r)}` : ""),
         Force: r.forceN !== null ? showForce(p, r.forceN) : "no calibration",
         "Force from elongation": r.elongationForce
           ? showForce(p, r.elongationForce.forceN) +

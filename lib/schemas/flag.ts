@@ -21,6 +21,7 @@ export const FLAG_LABELS: Record<FlagKind, string> = {
   member_wire_loss: "Member over its wire-break limit",
   liftoff_out_of_band: "Lift-off force outside band",
   force_disagreement: "Elongation and gauge force disagree",
+  gauge_off_target: "Gauge off its target pressure",
 };
 
 export const flagLabel = (kind: string): string => FLAG_LABELS[kind as FlagKind] ?? kind.replaceAll("_", " ");

@@ -305,3 +305,145 @@ describe("wire breaks: which strand and where", () => {
     expect(place.error!.issues.map((i) => i.path.join("."))).toEqual(["wireBreakDetails.0.where"]);
   });
 });
+
+describe("gauge steps", () => {
+  const base = {
+    ...EMPTY_RECORD_FORM,
+    equipmentSetId: "0190a0b0-0000-7000-8000-0000000000dd",
+    initialPressure: "800",
+    finalPressure: "4000",
+    marksBefore: "1",
+    marksAfter: "5 1/2",
+    gaugeSteps: [
+      { pressure: "800", reading: "1" },
+      { pressure: "1600", reading: "2 1/4" },
+      { pressure: "", reading: "" },
+      { pressure: "2400", reading: "3 1/2" },
+    ],
+  };
+  const ctx = {
+    units: US,
+    projectId: "0190a0b0-0000-7000-8000-0000000000aa",
+    pourId: "0190a0b0-0000-7000-8000-0000000000bb",
+    tendonId: "0190a0b0-0000-7000-8000-0000000000cc",
+    chainId: "0190a0b0-0000-7000-8000-0000000000ee",
+    revision: 1,
+    baseRecordId: null,
+    calibrationId: null,
+    expired: false,
+    authorUserId: "0190a0b0-0000-7000-8000-000000000001",
+    now: new Date("2026-12-02T15:30:00Z"),
+    timeZone: "UTC",
+  };
+  const formContext = { units: US, expiredSetIds: [], ends: ["A"] as const, correction: false };
+  const issues = (values: typeof base) => {
+    const r = recordFormSchema(formContext).safeParse(values);
+    return r.success ? [] : r.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`);
+  };
+
+  it("travel as typed with their SI values, blank rows dropped, and the server's schema reads them", () => {
+    expect(issues(base)).toEqual([]);
+    const payload = payloadFromForm(base, ctx);
+    expect(payload.entered.gaugeSteps).toHaveLength(3);
+    // 2 1/4 in = 57.15 mm; 1600 psi = 11.0316 MPa (NIST SP 811, B.8)
+    expect(payload.entered.gaugeSteps![1]!.reading).toBe("2 1/4");
+    expect(payload.entered.gaugeSteps![1]!.readingMm).toBeCloseTo(2.25 * MM_PER_INCH, 9);
+    expect(payload.entered.gaugeSteps![1]!.pressureMPa).toBeCloseTo(11.0316, 4);
+    expect(recordPayloadSchema.safeParse(payload).success).toBe(true);
+  });
+
+  it("name the row and box: one pressure only, a reading that falls, a box left blank, no initial pressure", () => {
+    const same = {
+      ...base,
+      gaugeSteps: [
+        { pressure: "800", reading: "1" },
+        { pressure: "800", reading: "2" },
+      ],
+    };
+    expect(issues(same)).toEqual(["gaugeSteps.1.pressure: Gauge steps need at least two different pressures."]);
+    const falls = {
+      ...base,
+      gaugeSteps: [
+        { pressure: "800", reading: "2" },
+        { pressure: "", reading: "" },
+        { pressure: "1600", reading: "1" },
+      ],
+    };
+    expect(issues(falls)).toEqual([
+      "gaugeSteps.2.reading: The reading must grow with the pressure: it is not above the step below it.",
+    ]);
+    const blank = {
+      ...base,
+      gaugeSteps: [
+        { pressure: "800", reading: "1" },
+        { pressure: "1600", reading: "" },
+      ],
+    };
+    expect(issues(blank)).toEqual(["gaugeSteps.1.reading: Type a value here."]);
+    expect(issues({ ...base, initialPressure: "" })).toEqual([
+      "initialPressure: With gauge steps, type the initial pressure the elongation was read from (usually the first step's).",
+    ]);
+  });
+
+  it("the server refuses SI values the typed steps do not give, and unknown keys in a step", () => {
+    const payload = payloadFromForm(base, ctx);
+    const forged = {
+      ...payload,
+      entered: {
+        ...payload.entered,
+        gaugeSteps: payload.entered.gaugeSteps!.map((s, i) => (i === 2 ? { ...s, readingMm: 1 } : s)),
+      },
+    };
+    const r = recordPayloadSchema.safeParse(forged);
+    expect(r.error!.issues.map((i) => `${i.path.join(".")}: ${i.message}`)).toEqual([
+      "entered.gaugeSteps.2.readingMm: Gauge step 3: the reading does not match the value as typed.",
+    ]);
+    const extra = {
+      ...payload,
+      entered: { ...payload.entered, gaugeSteps: [{ ...payload.entered.gaugeSteps![0]!, force: 3 }] },
+    };
+    expect(recordPayloadSchema.safeParse(extra).success).toBe(false);
+  });
+});
+
+describe("the gauge off its target, confirmed", () => {
+  const form = {
+    ...EMPTY_RECORD_FORM,
+    equipmentSetId: "0190a0b0-0000-7000-8000-0000000000dd",
+    finalPressure: "4600",
+    marksBefore: "0",
+    marksAfter: "4 1/2",
+  };
+  const ctx = {
+    units: US,
+    projectId: "0190a0b0-0000-7000-8000-0000000000aa",
+    pourId: "0190a0b0-0000-7000-8000-0000000000bb",
+    tendonId: "0190a0b0-0000-7000-8000-0000000000cc",
+    chainId: "0190a0b0-0000-7000-8000-0000000000ee",
+    revision: 1,
+    baseRecordId: null,
+    calibrationId: null,
+    expired: false,
+    authorUserId: "0190a0b0-0000-7000-8000-000000000001",
+    now: new Date("2026-12-02T15:30:00Z"),
+    timeZone: "UTC",
+  };
+
+  it("travels as a field of the record, not in the remarks", () => {
+    const p = payloadFromForm(form, { ...ctx, gaugeOffTarget: { pct: 9.5, reason: "needle stuck, read twice" } });
+    expect(p.entered.gaugeOffTarget).toEqual({ pct: 9.5, reason: "needle stuck, read twice" });
+    expect(p.remarks).toBeNull();
+    expect(recordPayloadSchema.safeParse(p).success).toBe(true);
+  });
+
+  it("is refused without a reason, naming the field", () => {
+    const p = payloadFromForm(form, ctx);
+    const r = recordPayloadSchema.safeParse({
+      ...p,
+      entered: { ...p.entered, gaugeOffTarget: { pct: 9.5, reason: "" } },
+    });
+    expect(r.error!.issues.map((i) => `${i.path.join(".")}: ${i.message}`)).toEqual([
+      "entered.gaugeOffTarget.reason: Say in a few words why the gauge is off its target.",
+    ]);
+  });
+});

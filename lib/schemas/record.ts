@@ -15,6 +15,8 @@ export { WIRE_BREAK_PLACES, WIRE_BREAK_PLACE_WORDS, wireBreakWords, type WireBre
 export const TENDON_ENDS = ["A", "B"] as const;
 export const READING_METHODS = ["marks", "strokes"] as const;
 export const MAX_STROKES = 8;
+/** Gauge steps on the way up (e.g. 20/40/60/80/100 %): a handful, at least two pressures. */
+export const MAX_GAUGE_STEPS = 10;
 export const STRESSING_ORDERS = ["sequential", "simultaneous"] as const;
 /** One broken wire: the strand it is on (its number in the tendon, null when not known) and where. */
 export const wireBreakSchema = z
@@ -45,6 +47,38 @@ const typed = (label: string) =>
     .trim()
     .max(40, `Keep the ${label} under 40 characters.`);
 
+/**
+ * One gauge step as typed (pressure and the reading there, from any fixed origin), with the SI
+ * values the tablet read from it; the server re-reads the text and checks they agree.
+ */
+export const gaugeStepEnteredSchema = z
+  .object({
+    pressure: typed("gauge step pressure").min(1, "Type the gauge step's pressure."),
+    reading: typed("gauge step reading").min(1, "Type the reading at the gauge step."),
+    pressureMPa: z.number({ error: "The gauge step's pressure in MPa must be a number." }).finite().optional(),
+    readingMm: z.number({ error: "The gauge step's reading in mm must be a number." }).finite().optional(),
+  })
+  .strict();
+
+/**
+ * The crew's confirmation of a final pressure farther from the target than the band: how far off
+ * (%, as the tablet computed it on the calibration it used) and why it was kept.
+ */
+export const gaugeOffTargetSchema = z
+  .object({
+    pct: z
+      .number({ error: "The gauge's distance from its target must be a number (%)." })
+      .finite()
+      .min(-100, "The gauge cannot be more than 100 % below its target.")
+      .max(1000, "The gauge's distance from its target is over 1000 %."),
+    reason: text({ error: "Say why the gauge is off its target." })
+      .trim()
+      .min(3, "Say in a few words why the gauge is off its target.")
+      .max(500, "Keep the reason the gauge is off its target under 500 characters."),
+  })
+  .strict();
+export type GaugeOffTarget = z.infer<typeof gaugeOffTargetSchema>;
+
 /** The values exactly as typed, with the units bare numbers were read in. */
 export const enteredSchema = z.object({
   units: z.object({ length: z.enum(["in", "mm"]), pressure: z.enum(["psi", "MPa"]) }),
@@ -67,8 +101,41 @@ export const enteredSchema = z.object({
     })
     .nullable()
     .optional(),
+  /** Pressures read on the way up with the reading at each; absent on records made before they were asked. */
+  gaugeSteps: z
+    .array(gaugeStepEnteredSchema)
+    .max(MAX_GAUGE_STEPS, `At most ${MAX_GAUGE_STEPS} gauge steps.`)
+    .nullable()
+    .optional(),
+  /** The crew's confirmation of a final pressure off its target by more than the band. */
+  gaugeOffTarget: gaugeOffTargetSchema.nullable().optional(),
 });
 export type Entered = z.infer<typeof enteredSchema>;
+
+/** A gauge step in SI: what the judge, the calculation sheet and the insight read. */
+export interface GaugeStepSI {
+  pressureMPa: number;
+  readingMm: number;
+}
+
+const storedStepsSchema = z.object({
+  gaugeSteps: z.array(z.object({ pressureMPa: z.number().finite(), readingMm: z.number().finite() })),
+});
+
+/** The gauge steps a stored record's `entered` carries (SI), or null when it has none. */
+export function storedGaugeSteps(entered: unknown): GaugeStepSI[] | null {
+  const parsed = storedStepsSchema.safeParse(entered);
+  if (!parsed.success || !parsed.data.gaugeSteps.length) return null;
+  return parsed.data.gaugeSteps.map((s) => ({ pressureMPa: s.pressureMPa, readingMm: s.readingMm }));
+}
+
+const storedOffTargetSchema = z.object({ gaugeOffTarget: gaugeOffTargetSchema });
+
+/** The crew's off-target confirmation a stored record carries, or null. */
+export function storedGaugeOffTarget(entered: unknown): GaugeOffTarget | null {
+  const parsed = storedOffTargetSchema.safeParse(entered);
+  return parsed.success ? parsed.data.gaugeOffTarget : null;
+}
 
 export interface DerivedValues {
   initialPressureMPa: number | null;
@@ -78,6 +145,8 @@ export interface DerivedValues {
   drawInMm: number | null;
   /** The first, coarser reading when the elongation was read again (measuredMm is then the re-read). */
   firstReadingMm: number | null;
+  /** The gauge steps in SI, in the order typed; null when none were typed. */
+  gaugeSteps: GaugeStepSI[] | null;
 }
 
 /** A typed value that could not be read, named by its form field. */
@@ -216,6 +285,8 @@ export function deriveFromEntered(
   if (method === "marks" && entered.drawIn)
     problems.push({ field: "drawIn", message: "Draw-in per re-grip applies to ram strokes only; clear it." });
 
+  const gaugeSteps = readGaugeSteps(entered, initial, problems);
+
   if (problems.length || final === null || measured === null) return { values: null, problems };
   return {
     values: {
@@ -225,9 +296,60 @@ export function deriveFromEntered(
       seatingMm: seating,
       drawInMm: drawIn,
       firstReadingMm,
+      gaugeSteps,
     },
     problems,
   };
+}
+
+/**
+ * The gauge steps read into SI. At least two different pressures, the readings rising with the
+ * pressure (the strand lengthens as the force rises), and the initial pressure the elongation was
+ * read from typed: the steps' line brings the reading from there to zero force.
+ */
+function readGaugeSteps(entered: Entered, initial: number | null, problems: EntryProblem[]): GaugeStepSI[] | null {
+  const typedSteps = entered.gaugeSteps ?? [];
+  if (!typedSteps.length) return null;
+  const steps: GaugeStepSI[] = [];
+  typedSteps.forEach((step, i) => {
+    const pressure = read(problems, `gaugeSteps.${i}.pressure`, () =>
+      parsePressure(step.pressure, {
+        field: `gaugeSteps.${i}.pressure`,
+        system: "SI",
+        defaultUnit: entered.units.pressure,
+      }),
+    );
+    const reading = read(problems, `gaugeSteps.${i}.reading`, () =>
+      parseLength(step.reading, { field: `gaugeSteps.${i}.reading`, system: "SI", defaultUnit: entered.units.length }),
+    );
+    if (pressure !== null && pressure <= 0)
+      problems.push({ field: `gaugeSteps.${i}.pressure`, message: "The gauge step's pressure must be above zero." });
+    if (pressure !== null && reading !== null) steps.push({ pressureMPa: pressure, readingMm: reading });
+  });
+  if (steps.length !== typedSteps.length) return null;
+  const pressures = new Set(steps.map((s) => s.pressureMPa));
+  if (pressures.size < 2) {
+    problems.push({
+      field: `gaugeSteps.${Math.min(1, steps.length - 1)}.pressure`,
+      message: "Gauge steps need at least two different pressures.",
+    });
+    return null;
+  }
+  const byPressure = [...steps].sort((a, b) => a.pressureMPa - b.pressureMPa);
+  const falls = byPressure.findIndex((s, k) => k > 0 && s.readingMm <= byPressure[k - 1]!.readingMm);
+  if (falls > 0) {
+    const i = steps.indexOf(byPressure[falls]!);
+    problems.push({
+      field: `gaugeSteps.${i}.reading`,
+      message: "The reading must grow with the pressure: it is not above the step below it.",
+    });
+  }
+  if (initial === null)
+    problems.push({
+      field: "initialPressure",
+      message: "With gauge steps, type the initial pressure the elongation was read from (usually the first step's).",
+    });
+  return steps;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -265,6 +387,10 @@ export const recordFormShape = z.object({
   rereadMarksAfter: text().trim().max(40),
   rereadStrokes: z.array(z.object({ value: text().trim().max(40) })).max(MAX_STROKES),
   rereadDeclinedReason: text().trim().max(500, "Keep the reason under 500 characters."),
+  /** Gauge steps as typed, one row each; rows left blank are dropped. */
+  gaugeSteps: z
+    .array(z.object({ pressure: text().trim().max(40), reading: text().trim().max(40) }))
+    .max(MAX_GAUGE_STEPS),
   /** Two-end tendons: one end after the other, or both at once. */
   stressingOrder: z.enum(STRESSING_ORDERS, { error: "Say how the two ends were stressed." }),
   wireBreaks: text()
@@ -301,6 +427,7 @@ export const EMPTY_RECORD_FORM: RecordFormValues = {
   rereadMarksAfter: "",
   rereadStrokes: [],
   rereadDeclinedReason: "",
+  gaugeSteps: [],
   stressingOrder: "sequential",
   wireBreaks: "0",
   wireBreakDetails: [],
@@ -319,7 +446,14 @@ export function enteredFromForm(values: RecordFormValues, units: EntryUnits): En
     seating: values.seating || null,
     drawIn: values.readingMethod === "strokes" ? values.drawIn || null : null,
     reread: rereadFromForm(values),
+    gaugeSteps: stepsFromForm(values),
   };
+}
+
+/** The gauge step rows with anything typed, as typed; null when none. */
+function stepsFromForm(values: RecordFormValues): Entered["gaugeSteps"] {
+  const rows = values.gaugeSteps.filter((s) => s.pressure !== "" || s.reading !== "");
+  return rows.length ? rows.map((s) => ({ pressure: s.pressure, reading: s.reading })) : null;
 }
 
 /** The finer second reading as typed, or null when none was typed. */
@@ -332,6 +466,8 @@ function rereadFromForm(values: RecordFormValues): Entered["reread"] {
 
 /** "strokes.2" names the third stroke box, whose value sits at strokes[2].value in the form. */
 function formPath(field: string): (string | number)[] {
+  const step = /^gaugeSteps\.(\d+)\.(pressure|reading)$/.exec(field);
+  if (step) return ["gaugeSteps", Number(step[1]), step[2]!];
   const stroke = /^(strokes|rereadStrokes)\.(\d+)$/.exec(field);
   return stroke ? [stroke[1]!, Number(stroke[2]), "value"] : [field];
 }
@@ -412,7 +548,13 @@ export function recordFormSchema(context: RecordFormContext) {
       });
     if (values.finalPressure) {
       const { problems } = deriveFromEntered(enteredFromForm(values, context.units), values.readingMethod);
-      for (const p of problems) ctx.addIssue({ code: "custom", path: formPath(p.field), message: p.message });
+      // Blank step rows are dropped from what is read: a step's problem goes to its own row.
+      const stepRows = values.gaugeSteps.flatMap((s, i) => (s.pressure !== "" || s.reading !== "" ? [i] : []));
+      for (const p of problems) {
+        const path = formPath(p.field);
+        if (path[0] === "gaugeSteps") path[1] = stepRows[path[1] as number] ?? path[1]!;
+        ctx.addIssue({ code: "custom", path, message: p.message });
+      }
     }
   });
 }
@@ -555,6 +697,22 @@ export const recordPayloadSchema = z
         path: ["firstReadingMm"],
         message: "The first reading does not match the readings as typed.",
       });
+    (p.entered.gaugeSteps ?? []).forEach((step, i) => {
+      const read = v.gaugeSteps?.[i];
+      if (!read) return;
+      if (step.pressureMPa === undefined || !agrees(read.pressureMPa, step.pressureMPa))
+        ctx.addIssue({
+          code: "custom",
+          path: ["entered", "gaugeSteps", i, "pressureMPa"],
+          message: `Gauge step ${i + 1}: the pressure does not match the value as typed.`,
+        });
+      if (step.readingMm === undefined || !agrees(read.readingMm, step.readingMm))
+        ctx.addIssue({
+          code: "custom",
+          path: ["entered", "gaugeSteps", i, "readingMm"],
+          message: `Gauge step ${i + 1}: the reading does not match the value as typed.`,
+        });
+    });
     if (v.firstReadingMm !== null && p.rereadDeclinedReason)
       ctx.addIssue({
         code: "custom",
@@ -581,6 +739,8 @@ export function payloadFromForm(
     twoEnds?: boolean;
     /** The concrete gate is not met: the crew's reason to go ahead travels with the record. */
     concreteUnconfirmed?: boolean;
+    /** The crew confirmed a final pressure off its target by more than the band. */
+    gaugeOffTarget?: GaugeOffTarget | null;
     authorUserId: string;
     now: Date;
     timeZone: string;
@@ -589,6 +749,9 @@ export function payloadFromForm(
   const entered = enteredFromForm(values, context.units);
   const { values: v, problems } = deriveFromEntered(entered, values.readingMethod);
   if (!v) throw new Error(`the record form does not read: ${problems.map((p) => p.field).join(", ")}`);
+  if (entered.gaugeSteps && v.gaugeSteps)
+    entered.gaugeSteps = entered.gaugeSteps.map((s, i) => ({ ...s, ...v.gaugeSteps![i]! }));
+  if (context.gaugeOffTarget) entered.gaugeOffTarget = context.gaugeOffTarget;
   return {
     projectId: context.projectId,
     pourId: context.pourId,

@@ -27,7 +27,7 @@ import { WIRES_PER_STRAND } from "@/lib/stressing/rules/member-wire-loss";
 import { answeredOrder } from "@/lib/stressing/rules/stressed-twice";
 import { showLength, showPct, showWobble } from "@/lib/format/quantities";
 import { governsLine } from "@/lib/stressing/display";
-import { storedWireBreaks } from "@/lib/schemas/record";
+import { storedGaugeOffTarget, storedGaugeSteps, storedWireBreaks } from "@/lib/schemas/record";
 import { selectTendonBasis, toLoadedTendon, type LoadedTendon } from "./load-tendon-basis";
 
 /**
@@ -412,6 +412,8 @@ export function judgeInputFromState(state: TendonState): JudgeInput {
     firstReadingMm: r.first_reading_mm ?? null,
     rereadDeclinedReason: r.reread_declined_reason ?? null,
     wireBreakDetails: storedWireBreaks(r.wire_break_details),
+    gaugeSteps: storedGaugeSteps(r.entered),
+    gaugeOffTarget: storedGaugeOffTarget(r.entered),
   }));
   for (const r of records)
     if (!sets.has(r.equipmentSetId))
@@ -523,6 +525,11 @@ export function planEvaluation(
     forceBasisMm: e.forceBasisMm,
     forceDifferencePct: agreementOf(e)?.differencePct ?? null,
     forceBandPct: agreementOf(e)?.bandPct ?? null,
+    // The gauge steps' line as judged (r², what it put below the initial pressure), and the target.
+    stepFit: e.stepFit,
+    targetPressureMPa: e.targetPressureMPa,
+    offTargetPct: e.offTargetPct,
+    gaugeOffTarget: e.record.gaugeOffTarget ?? null,
     incomplete: e.incomplete,
   }));
   const usedCalibrations = judgement.ends

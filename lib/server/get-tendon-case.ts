@@ -153,6 +153,21 @@ const endSchema = z.object({
   impliedForceN: z.number().nullable().catch(null),
   forceDifferencePct: z.number().nullable().catch(null),
   forceBandPct: z.number().nullable().catch(null),
+  /** The gauge steps' line as judged; absent on records without steps and on older evaluations. */
+  stepFit: z
+    .object({
+      steps: z.array(z.object({ pressureMPa: z.number(), readingMm: z.number(), forceN: z.number() })),
+      r2: z.number(),
+      belowReferenceMm: z.number(),
+    })
+    .nullable()
+    .catch(null),
+  initialPressureMPa: z.number().nullable().catch(null),
+  finalPressureMPa: z.number().nullable().catch(null),
+  targetPressureMPa: z.number().nullable().catch(null),
+  offTargetPct: z.number().nullable().catch(null),
+  /** The crew's confirmation of a final pressure off its target by more than the band. */
+  gaugeOffTarget: z.object({ pct: z.number(), reason: z.string() }).nullable().catch(null),
 });
 const inputsSchema = z.object({
   jackingForceN: z.number().nullable().catch(null),

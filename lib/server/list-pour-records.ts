@@ -1,5 +1,5 @@
 import { stressingDay } from "@/lib/stressing/judge";
-import { storedWireBreaks, type WireBreak } from "@/lib/schemas/record";
+import { storedGaugeOffTarget, storedWireBreaks, type GaugeOffTarget, type WireBreak } from "@/lib/schemas/record";
 import "server-only";
 import type { Kysely } from "kysely";
 import { z } from "zod";
@@ -62,6 +62,12 @@ export interface PourRecord {
   firstReadingMm: number | null;
   rereadDeclinedReason: string | null;
   seatingMm: number | null;
+  /** Gauge steps as typed (text when the tablet kept it, else null) with their SI values. */
+  gaugeSteps: { pressure: string | null; reading: string | null; pressureMPa: number; readingMm: number }[] | null;
+  /** The steps' least-squares line as the evaluation used it: r² and what it put below the initial pressure. */
+  stepFit: { r2: number; belowReferenceMm: number } | null;
+  /** The crew's confirmation of a final pressure off its target by more than the band. */
+  gaugeOffTarget: GaugeOffTarget | null;
   /** Ram travel over several strokes: the draw-in per re-grip the evaluation deducted, and whose it was. */
   drawIn: { usedMm: number; source: "record" | "equipment set"; deductedMm: number } | null;
   wireBreaks: number;
@@ -95,6 +101,18 @@ const enteredSchema = z.object({
     .nullable()
     .catch(null),
 });
+const stepsSchema = z.object({
+  gaugeSteps: z
+    .array(
+      z.object({
+        pressure: z.string().optional(),
+        reading: z.string().optional(),
+        pressureMPa: z.number(),
+        readingMm: z.number(),
+      }),
+    )
+    .min(1),
+});
 const noEntered = {
   marks: null,
   strokes: null,
@@ -127,6 +145,7 @@ const inputsSchema = z.object({
           drawInDeductedMm: z.number().optional(),
           impliedForceN: z.number().nullable().optional(),
           forceDifferencePct: z.number().nullable().optional(),
+          stepFit: z.object({ r2: z.number(), belowReferenceMm: z.number() }).nullable().optional().catch(null),
         })
         .passthrough(),
     )
@@ -332,6 +351,19 @@ export async function listPourRecords(
       firstReadingMm: r.first_reading_mm,
       rereadDeclinedReason: r.reread_declined_reason,
       seatingMm: r.seating_mm,
+      gaugeSteps: (() => {
+        const steps = stepsSchema.safeParse(r.entered);
+        return steps.success
+          ? steps.data.gaugeSteps.map((st) => ({
+              pressure: st.pressure ?? null,
+              reading: st.reading ?? null,
+              pressureMPa: st.pressureMPa,
+              readingMm: st.readingMm,
+            }))
+          : null;
+      })(),
+      stepFit: reading?.stepFit ? { r2: reading.stepFit.r2, belowReferenceMm: reading.stepFit.belowReferenceMm } : null,
+      gaugeOffTarget: storedGaugeOffTarget(r.entered),
       drawIn,
       wireBreaks: r.wire_breaks,
       wireBreakDetails: storedWireBreaks(r.wire_break_details),

@@ -23,6 +23,7 @@ export async function listTendonReadings(db: Kysely<Database>, input: { projectI
         "records.first_reading_mm",
         "records.reread_declined_reason",
         "records.device_time",
+        "records.entered",
         "users.name as author",
         "equipment_sets.name as equipmentSet",
       ])

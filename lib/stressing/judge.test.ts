@@ -227,6 +227,72 @@ describe("judgeStressing: each end the way it was read", () => {
     });
   });
 
+  describe("gauge steps", () => {
+    // Hand-computed least squares of force on reading (the line fitApparentStiffness draws): readings
+    // 10, 36, 61, 87, 112 mm at 20, 40, 60, 80, 100 kN (pressures on the 6000 N/MPa line), the marks set
+    // at 20 kN and 96 mm apart after lock-off. Mean reading 61.2 mm, mean force 60 kN, Sxy = 5100 kN·mm,
+    // Sxx = 6502.8 mm²: the line puts 20·6502.8/5100 = 25.501176… mm below 20 kN, so the total is
+    // 121.501176… mm on either basis (the seating is not scaled); r² = 5100²/(6502.8·4000) = 0.9999538….
+    // The two-point formula with the final pressure alone would give (96 + 6)·24.49/(24.49 − 3.33) − 6 ≈ 112.1 mm.
+    const steps = [10, 36, 61, 87, 112].map((r, i) => ({ pressureMPa: ((i + 1) * 20_000) / SLOPE, readingMm: r }));
+    const Pi = 20_000 / SLOPE;
+    it("replace the two-point extrapolation by the least-squares line, on marks and on ram travel", () => {
+      for (const readingMethod of ["marks", "strokes"] as const) {
+        const j = judgeStressing(
+          input({ records: [record({ readingMethod, measuredMm: 96, initialPressureMPa: Pi, gaugeSteps: steps })] }),
+        );
+        const e = j.ends[0]!;
+        expect(e.totalMm).toBeCloseTo(121.50117647, 6);
+        expect(e.stepFit!.belowReferenceMm).toBeCloseTo(25.50117647, 6);
+        expect(e.stepFit!.r2).toBeCloseTo(0.99995386, 7);
+        expect(e.stepFit!.steps.map((s) => s.forceN)).toEqual(
+          [20_000, 40_000, 60_000, 80_000, 100_000].map((f) => expect.closeTo(f, 6)),
+        );
+        expect(j.verdict).not.toBe("incomplete");
+      }
+    });
+    it("a step pressure outside the calibrated range makes the verdict incomplete, never a raw comparison", () => {
+      const j = judgeStressing(
+        input({
+          records: [
+            record({
+              measuredMm: 96,
+              initialPressureMPa: Pi,
+              gaugeSteps: [...steps.slice(0, 4), { pressureMPa: 55, readingMm: 300 }],
+            }),
+          ],
+        }),
+      );
+      expect(j.verdict).toBe("incomplete");
+      expect(j.ends[0]!.outsideRangeMPa).toEqual([55]);
+      expect(j.ends[0]!.totalMm).toBeNull();
+      expect(j.comparison).toBeNull();
+    });
+    it("with no usable calibration, or steps that make no line, the verdict is incomplete", () => {
+      const none = judgeStressing(
+        input({
+          sets: [{ id: "set-1", name: "Jack 1", jackGripMm: null, maxForceN: null, calibrations: [] }],
+          records: [record({ measuredMm: 96, initialPressureMPa: Pi, gaugeSteps: steps })],
+        }),
+      );
+      expect(none.verdict).toBe("incomplete");
+      expect(none.incomplete[0]).toMatch(/gauge steps but its equipment set has no usable calibration/);
+      const flat = judgeStressing(
+        input({
+          records: [
+            record({
+              measuredMm: 96,
+              initialPressureMPa: Pi,
+              gaugeSteps: steps.map((s) => ({ ...s, readingMm: 40 })),
+            }),
+          ],
+        }),
+      );
+      expect(flat.verdict).toBe("incomplete");
+      expect(flat.incomplete[0]).toMatch(/gauge steps give no line/);
+    });
+  });
+
   describe("two ends", () => {
     const L2 = 120 * FT;
     const net = (mm: number) => mm - 6;

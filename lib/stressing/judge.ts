@@ -2,16 +2,19 @@ import {
   compareElongation,
   findStrandSize,
   forceFromPressure,
+  isInputError,
   predictElongation,
+  pressureForForce,
   resolutionEffect,
   totalFromInitial,
+  totalFromSteps,
   type Comparison,
   type TendonInput,
   type Verdict,
 } from "@/lib/elongation";
 import { dayInZone } from "@/lib/format/dates";
 import { pickCalibration } from "@/lib/schemas/pick-calibration";
-import type { WireBreak } from "@/lib/schemas/record";
+import type { GaugeOffTarget, GaugeStepSI, WireBreak } from "@/lib/schemas/record";
 import { resolutionStepMm } from "@/lib/units";
 import { strandValues, type LotBasis, type ProjectBasis, type StrandValues, type TendonBasis } from "./basis";
 import { readingResolution, type DisplayUnits } from "@/lib/format/quantities";
@@ -118,6 +121,23 @@ export interface JudgeRecord {
   rereadDeclinedReason?: string | null;
   /** Which strand and where, per broken wire; absent on records made before it was asked. */
   wireBreakDetails?: WireBreak[] | null;
+  /**
+   * Pressures read on the way up with the reading at each (from any fixed origin): their
+   * least-squares line brings the elongation from the initial pressure to zero force.
+   */
+  gaugeSteps?: GaugeStepSI[] | null;
+  /** The crew's confirmation of a final pressure off its target by more than the band. */
+  gaugeOffTarget?: GaugeOffTarget | null;
+}
+
+/** The gauge steps' line as the judge used it. */
+export interface StepFit {
+  steps: { pressureMPa: number; readingMm: number; forceN: number }[];
+  r2: number;
+  stiffnessNPerMm: number;
+  zeroReadingMm: number;
+  /** What the line puts between zero force and the initial pressure: added to the reading. */
+  belowReferenceMm: number;
 }
 
 export interface JudgeInput {
@@ -163,8 +183,14 @@ export interface EndJudgement {
   calibration: JudgeCalibration | null;
   /** The day is outside the calibration's dates, or there is none. */
   calibrationExpired: boolean;
-  /** Gauge pressures outside the calibrated range. */
+  /** Gauge pressures outside the calibrated range (initial, final and each gauge step). */
   outsideRangeMPa: number[];
+  /** The gauge steps' least-squares line, when the record has steps and they made one. */
+  stepFit: StepFit | null;
+  /** The gauge pressure of the specified force on the calibration used; null without one. */
+  targetPressureMPa: number | null;
+  /** The final pressure's distance from that target, % of it. */
+  offTargetPct: number | null;
   gaugeForceN: number | null;
   /** The draw-in per re-grip used (ram travel only): the record's own, else the equipment set's. */
   drawInUsedMm: number | null;
@@ -401,12 +427,18 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
     const day = stressingDay(record.deviceTime, project.timeZone);
     const calibration = chooseCalibration(set, record.calibrationId, day);
     const calibrationExpired = !calibration || day > calibration.validUntil || day < calibration.calibratedOn;
+    const steps = record.gaugeSteps?.length ? record.gaugeSteps : null;
     const outsideRangeMPa = calibration
-      ? [record.initialPressureMPa, record.finalPressureMPa].filter(
+      ? [record.initialPressureMPa, record.finalPressureMPa, ...(steps ?? []).map((s) => s.pressureMPa)].filter(
           (p): p is number => p !== null && p > 0 && (p < calibration.minPressureMPa || p > calibration.maxPressureMPa),
         )
       : [];
     const gaugeForceN = calibration ? forceFromPressure(calibration, record.finalPressureMPa) : null;
+    const targetPressureMPa = calibration ? pressureForForce(calibration, specifiedForceN) : null;
+    const offTargetPct =
+      targetPressureMPa !== null && targetPressureMPa > 0
+        ? ((record.finalPressureMPa - targetPressureMPa) / targetPressureMPa) * 100
+        : null;
 
     let role: EndRole = "one end";
     let predictedGrossMm: number;
@@ -454,7 +486,34 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
 
     let incomplete: string | null = null;
     let totalMm: number | null = readMm;
-    if (record.initialPressureMPa !== null && record.initialPressureMPa > 0) {
+    let stepFit: StepFit | null = null;
+    if (steps) {
+      // The steps' line replaces the two-point extrapolation: what it puts below the initial pressure
+      // is added to the reading on either basis (see totalFromSteps).
+      if (!calibration) {
+        incomplete = `End ${record.end} was read at gauge steps but its equipment set has no usable calibration to give their forces.`;
+      } else {
+        const forced = steps.map((st) => ({ ...st, forceN: forceFromPressure(calibration, st.pressureMPa) }));
+        const referenceForceN =
+          record.initialPressureMPa !== null && record.initialPressureMPa > 0
+            ? forceFromPressure(calibration, record.initialPressureMPa)
+            : 0;
+        try {
+          const fit = totalFromSteps({ measuredMm: readMm, referenceForceN, steps: forced });
+          totalMm = fit.totalMm;
+          stepFit = {
+            steps: forced,
+            r2: fit.r2,
+            stiffnessNPerMm: fit.stiffnessNPerMm,
+            zeroReadingMm: fit.zeroReadingMm,
+            belowReferenceMm: fit.belowReferenceMm,
+          };
+        } catch (error) {
+          if (!isInputError(error)) throw error;
+          incomplete = `End ${record.end}: the gauge steps give no line on the calibration (${error.message.replace(/^[^:]+:\s*/, "")}).`;
+        }
+      }
+    } else if (record.initialPressureMPa !== null && record.initialPressureMPa > 0) {
       const initialForceN = calibration ? forceFromPressure(calibration, record.initialPressureMPa) : null;
       if (!calibration || gaugeForceN === null || initialForceN === null) {
         incomplete = `End ${record.end} was read from an initial pressure but its equipment set has no usable calibration to bring the reading to the full force.`;
@@ -499,6 +558,9 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
       calibration,
       calibrationExpired,
       outsideRangeMPa,
+      stepFit,
+      targetPressureMPa,
+      offTargetPct,
       gaugeForceN,
       drawInUsedMm,
       drawInSource,

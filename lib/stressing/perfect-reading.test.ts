@@ -39,6 +39,8 @@ type EndPlan = {
   /** False: the record types no draw-in and the equipment set's is used. */
   typeDrawIn: boolean;
   seating: number | null;
+  /** Read also at gauge steps of 20/40/60/80/100 % of the gauge force, the marks set at 20 % of Pj. */
+  steps: boolean;
 };
 
 const endPlan = fc.record({
@@ -48,6 +50,7 @@ const endPlan = fc.record({
   drawIn: fc.double({ min: 0, max: 8, noNaN: true }),
   typeDrawIn: fc.boolean(),
   seating: fc.option(fc.double({ min: 3, max: 9, noNaN: true }), { nil: null }),
+  steps: fc.boolean(),
 });
 
 const project: FieldProject = {
@@ -74,14 +77,20 @@ function perfectReading(plan: EndPlan, grossMm: number, axial: number, setDrawIn
   const grip = basisNet ? 0 : (PJ * GRIP) / axial;
   const fromZero = k * (grossMm + grip); // at the gauge force k·Pj, before seating
   // The initial pressure is a share of the specified force; from zero it is a share k·… of the pull.
-  const share = plan.initialShare === null ? 0 : plan.initialShare / k;
+  // With gauge steps the marks are set at 20 % of Pj and read again at each step (from a mark 37 mm out).
+  const initialShare = plan.steps ? 0.2 : plan.initialShare;
+  const share = initialShare === null ? 0 : initialShare / k;
   const sincePi = fromZero * (1 - share);
   const drawIn = plan.typeDrawIn ? plan.drawIn : (setDrawIn ?? 0);
   const measured = basisNet ? sincePi - set : sincePi + (plan.strokes - 1) * drawIn;
-  return { measured, initialMPa: plan.initialShare === null ? null : (plan.initialShare * PJ) / SLOPE };
+  const steps = plan.steps
+    ? [0.2, 0.4, 0.6, 0.8, 1].map((f) => ({ pressureMPa: (f * k * PJ) / SLOPE, readingMm: 37 + f * fromZero }))
+    : null;
+  return { measured, initialMPa: initialShare === null ? null : (initialShare * PJ) / SLOPE, steps };
 }
 
 describe("a perfect reading is in band on every basis, method and order", () => {
+  // Gauge steps at 20/40/60/80/100 % on marks (net) and on ram travel (gross) are among the plans.
   it("on the tablet and on the server, to the digit", () => {
     fc.assert(
       fc.property(
@@ -161,6 +170,9 @@ describe("a perfect reading is in band on every basis, method and order", () => 
                 marks: null,
                 strokes: plan.method === "strokes" ? Array.from({ length: plan.strokes }, () => "x") : null,
                 seating: null,
+                ...(r.steps && {
+                  gaugeSteps: r.steps.map((st) => ({ pressure: "x", reading: "x", ...st })),
+                }),
               },
               measuredMm: r.measured,
               seatingMm: plan.seating,

@@ -343,3 +343,85 @@ describe("push: another write between an op's read and its write", () => {
     expect(stored).toEqual([{ tendon_id: theirs.id }]);
   });
 });
+
+describe("push: gauge steps and a gauge kept off its target", () => {
+  const flagsOf = (tendonId: string) =>
+    t.db.selectFrom("flags").select(["kind", "reason"]).where("tendon_id", "=", tendonId).execute();
+
+  it("stores the steps as typed with their SI values and judges along their line; forged SI values are refused by field", async () => {
+    const psi = Number(w.targetPsi);
+    const p = (f: number) => String(Math.round((psi * f) / 50) * 50);
+    const form = {
+      initialPressure: p(0.2),
+      marksBefore: "0",
+      marksAfter: "3 1/2",
+      gaugeSteps: [
+        { pressure: p(0.2), reading: "1" },
+        { pressure: p(0.6), reading: "2 3/4" },
+        { pressure: w.targetPsi, reading: "4 1/2" },
+      ],
+    };
+    const op = createOp(w, w.tendons[30]!.id, form);
+    expect(statuses(await push([op]))).toEqual(["applied"]);
+    const row = await t.db
+      .selectFrom("records")
+      .select("entered")
+      .where("id", "=", op.recordId)
+      .executeTakeFirstOrThrow();
+    const stored = row.entered as { gaugeSteps: { pressure: string; reading: string; readingMm: number }[] };
+    expect(stored.gaugeSteps.map((s) => [s.pressure, s.reading])).toEqual(
+      form.gaugeSteps.map((s) => [s.pressure, s.reading]),
+    );
+    const evaluation = await t.db
+      .selectFrom("evaluations")
+      .select("inputs")
+      .where("tendon_id", "=", w.tendons[30]!.id)
+      .orderBy("created_at", "desc")
+      .executeTakeFirstOrThrow();
+    const reading = (evaluation.inputs as { readings: { stepFit: { r2: number; steps: unknown[] } | null }[] })
+      .readings[0]!;
+    expect(reading.stepFit!.steps).toHaveLength(3);
+    expect(reading.stepFit!.r2).toBeGreaterThan(0.99);
+
+    const forged = createOp(w, w.tendons[31]!.id, form);
+    const fp = forged.payload as RecordPayload;
+    fp.entered = {
+      ...fp.entered,
+      gaugeSteps: fp.entered.gaugeSteps!.map((s, i) => (i === 1 ? { ...s, readingMm: 1 } : s)),
+    };
+    const answer = (await push([forged])).results[0]!;
+    expect(answer.status).toBe("rejected");
+    expect(Object.keys(answer.error!.fields!)).toEqual(["entered.gaugeSteps.1.readingMm"]);
+  });
+
+  it("a final pressure off its target beyond the band raises its own flag, quoting the crew's reason or saying none came", async () => {
+    // Under-force past 10 % only (the most a project may set), so the off-target flag is the one that holds these tendons.
+    const { under_force_pct: before } = await t.db
+      .selectFrom("projects")
+      .select("under_force_pct")
+      .where("id", "=", w.projectId)
+      .executeTakeFirstOrThrow();
+    await t.db.updateTable("projects").set({ under_force_pct: 10 }).where("id", "=", w.projectId).execute();
+    try {
+      const low = String(Math.round((Number(w.targetPsi) * 0.92) / 50) * 50);
+      const confirmed = createOp(w, w.tendons[32]!.id, { finalPressure: low }, {});
+      const cp = confirmed.payload as RecordPayload;
+      cp.entered = { ...cp.entered, gaugeOffTarget: { pct: -8, reason: "pump lost pressure, held at the mark" } };
+      const silent = createOp(w, w.tendons[33]!.id, { finalPressure: low });
+      expect(statuses(await push([confirmed, silent]))).toEqual(["applied", "applied"]);
+      const withReason = (await flagsOf(w.tendons[32]!.id)).find((f) => f.kind === "gauge_off_target");
+      expect(withReason!.reason).toMatch(/from the target .*“pump lost pressure, held at the mark”/);
+      const without = (await flagsOf(w.tendons[33]!.id)).find((f) => f.kind === "gauge_off_target");
+      expect(without!.reason).toMatch(/no reason came with the record/);
+
+      const noReason = createOp(w, w.tendons[34]!.id, { finalPressure: low });
+      const np = noReason.payload as RecordPayload;
+      np.entered = { ...np.entered, gaugeOffTarget: { pct: -8, reason: "" } };
+      const refused = (await push([noReason])).results[0]!;
+      expect(refused.status).toBe("rejected");
+      expect(Object.keys(refused.error!.fields!)).toEqual(["entered.gaugeOffTarget.reason"]);
+    } finally {
+      await t.db.updateTable("projects").set({ under_force_pct: before }).where("id", "=", w.projectId).execute();
+    }
+  });
+});

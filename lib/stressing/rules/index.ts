@@ -3,6 +3,7 @@ import { calibrationExpired } from "./calibration-expired";
 import { calibrationRange } from "./calibration-range";
 import { concreteUnconfirmed } from "./concrete-unconfirmed";
 import { forceDisagreement } from "./force-disagreement";
+import { gaugeOffTarget } from "./gauge-off-target";
 import { anchorOverLimit, jackingOverLimit, underForce } from "./forces";
 import { groupOutOfBand } from "./group-out-of-band";
 import { memberWireLoss } from "./member-wire-loss";
@@ -28,6 +29,7 @@ export const FLAG_RULES: { [K in RuleKind]: Rule } = {
   anchor_over_limit: anchorOverLimit,
   under_force: underForce,
   force_disagreement: forceDisagreement,
+  gauge_off_target: gaugeOffTarget,
   seating_excess: seatingExcess,
   out_of_band: outOfBand,
   concrete_unconfirmed: concreteUnconfirmed,

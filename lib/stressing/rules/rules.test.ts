@@ -91,6 +91,56 @@ type Case = { name: string; change: (i: JudgeInput) => JudgeInput; raised: boole
 
 const P = perfectNet();
 const cases: Record<RuleKind, Case[]> = {
+  // The target is the pressure of the specified force on the calibration (Pj/6000 here); a final
+  // pressure farther from it than the ±7 % band is off target (the band: ACI 318-11 §18.20.1, from memory).
+  gauge_off_target: [
+    { name: "at the target", change: (i) => ({ ...i, records: [rec({ measuredMm: P })] }), raised: false },
+    {
+      name: "6.9 % over",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P, finalPressureMPa: 1.069 * TARGET })] }),
+      raised: false,
+    },
+    {
+      name: "7.5 % over, confirmed with a reason (a 0.70 project: 0.7525·fpu·A, under the limit)",
+      change: (i) => ({
+        ...i,
+        project: { ...i.project, jackingForceFactor: 0.7 },
+        records: [
+          rec({
+            measuredMm: P,
+            finalPressureMPa: 1.075 * (0.7 / 0.8) * TARGET,
+            gaugeOffTarget: { pct: 7.5, reason: "needle sticks, read twice" },
+          }),
+        ],
+      }),
+      raised: true,
+      reason: /End A: final gauge .* is \+7\.5 % from the target .*band ±7 %.*“needle sticks, read twice”/,
+    },
+    {
+      name: "8 % under, no reason with the record, on a project whose under-force threshold is 10 %",
+      change: (i) => ({
+        ...i,
+        project: { ...i.project, underForcePct: 10 },
+        records: [rec({ measuredMm: P, finalPressureMPa: 0.92 * TARGET })],
+      }),
+      raised: true,
+      reason: /−8\.0 % from the target.*no reason came with the record/,
+    },
+    {
+      name: "8 % under with the default 2 % threshold: the under-force flag holds it (one flag for one fact)",
+      change: (i) => ({ ...i, records: [rec({ measuredMm: P, finalPressureMPa: 0.92 * TARGET })] }),
+      raised: false,
+    },
+    {
+      name: "no calibration: no target to be off",
+      change: (i) => ({
+        ...i,
+        sets: [{ ...i.sets[0]!, calibrations: [] }],
+        records: [rec({ measuredMm: P, finalPressureMPa: 2 * TARGET })],
+      }),
+      raised: false,
+    },
+  ],
   out_of_band: [
     { name: "perfect reading", change: (i) => ({ ...i, records: [rec({ measuredMm: P })] }), raised: false },
     { name: "6.9 % long", change: (i) => ({ ...i, records: [rec({ measuredMm: P * 1.069 })] }), raised: false },

@@ -14,7 +14,8 @@ export type RuleKind =
   | "stressed_twice"
   | "group_out_of_band"
   | "member_wire_loss"
-  | "force_disagreement";
+  | "force_disagreement"
+  | "gauge_off_target";
 
 export interface Finding {
   kind: RuleKind;

@@ -24,6 +24,8 @@ import {
   N_PER_KIP,
 } from "@/lib/units";
 import { rereadLine } from "@/lib/stressing/display";
+import { storedGaugeOffTarget, storedGaugeSteps } from "@/lib/schemas/record";
+import { showPct } from "@/lib/format/quantities";
 import { isUuid, pageAccess } from "../../page-access";
 
 export const metadata = { title: "Tendon" };
@@ -238,7 +240,25 @@ export default async function TendonPage({ params }: { params: Promise<{ project
                     <td className="p-2 font-semibold">{r.tendon_end}</td>
                     <td className="p-2 whitespace-nowrap">{formatDateTime(r.device_time, projectTimeZone(project))}</td>
                     <td className="p-2">{r.equipmentSet}</td>
-                    <td className="p-2 text-right">{pressure(r.final_pressure_mpa)}</td>
+                    <td className="p-2 text-right">
+                      {pressure(r.final_pressure_mpa)}
+                      {(() => {
+                        const off = storedGaugeOffTarget(r.entered);
+                        return off ? (
+                          <span className="block text-base font-bold" data-testid="gauge-off-target">
+                            {showPct(off.pct)} off target, kept by the crew: {off.reason}
+                          </span>
+                        ) : null;
+                      })()}
+                      {(() => {
+                        const steps = storedGaugeSteps(r.entered);
+                        return steps ? (
+                          <span className="block text-base text-ink-soft" data-testid="gauge-steps-line">
+                            Steps: {steps.map((s) => `${pressure(s.pressureMPa)}: ${len(s.readingMm)}`).join("; ")}
+                          </span>
+                        ) : null;
+                      })()}
+                    </td>
                     <td className="p-2 text-right font-semibold">
                       {len(r.measured_mm)}
                       {r.wire_breaks > 0 ? ` · ${r.wire_breaks} wire break${r.wire_breaks > 1 ? "s" : ""}` : ""}
