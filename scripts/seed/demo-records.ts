@@ -9,6 +9,7 @@ import { recordDisposition } from "@/lib/server/record-disposition";
 import { releasePour } from "@/lib/server/release-pour";
 import { predictTendon } from "@/lib/stressing/basis";
 import { formatLength, MM_PER_INCH, MPA_PER_PSI, parseLength } from "@/lib/units";
+import { DEMO_TIME_ZONE, demoInstant } from "./demo-site";
 
 /**
  * The demo job's stressing, all invented: L2 Pour 1 was stressed a week ago, one tendon came out
@@ -138,7 +139,8 @@ export async function seedDemoRecords(
         const afterText = formatLength(before + target, "1/8 in").replace(/ in$/, "");
         const measuredMm = parseLength(afterText, { field: "marksAfter", system: "US", defaultUnit: "in" }) - before;
         const id = demoUuid(`${plan.tag}:${end}`);
-        const at = new Date(`${input.dayOf(dayOffset)}T13:00:00Z`).getTime() + minute++ * 6 * 60_000;
+        // From 07:00 on the site's clock, one end every six minutes.
+        const at = demoInstant(input.dayOf(dayOffset), 7 * 60).getTime() + minute++ * 6 * 60_000;
         await trx
           .insertInto("records")
           .values({
@@ -171,7 +173,7 @@ export async function seedDemoRecords(
             wire_breaks: plan.wireBreakEnd === end ? 1 : 0,
             remarks: plan.wireBreakEnd === end ? "One wire heard to go at lock-off." : null,
             device_time: new Date(at),
-            device_time_zone: "America/Chicago",
+            device_time_zone: DEMO_TIME_ZONE,
             device_id: "demo-tablet-1",
             author_user_id: crew.id,
             // In signal at the slab edge: the record reaches the server within minutes of its save.
