@@ -19,9 +19,7 @@ import { DecisionNotices } from "./decision-notices";
 import { useField } from "./field-provider";
 import { useLiveQuery as useLive } from "dexie-react-hooks";
 import { ago, clockTime, useNow } from "./use-live";
-
-const DAY_MS = 86_400_000;
-const isoDay = (ms: number) => new Date(ms).toLocaleDateString("en-CA");
+import { dayInZone, formatDateTime, projectTimeZone, shiftDay } from "@/lib/format/dates";
 
 async function availablePours(): Promise<{ pours: AvailablePour[] | null; error: string | null }> {
   try {
@@ -85,8 +83,6 @@ export function FieldHome() {
       setDownloadError(result.status === 401 ? "Sign in again to download." : `Could not download: ${result.message}`);
   }
 
-  const today = isoDay(now);
-  const tomorrow = isoDay(now + DAY_MS);
   const readyIds = new Set(ready?.map((r) => r.pour.id));
 
   return (
@@ -124,6 +120,9 @@ export function FieldHome() {
         )}
         <ul className="grid gap-4 md:grid-cols-2">
           {ready?.map(({ pour, project, tendons, stressed, sets, calibrations, lots }) => {
+            // Today and tomorrow at the site, in the project's zone, not the tablet's.
+            const today = dayInZone(now, projectTimeZone(project ?? {}));
+            const tomorrow = shiftDay(today, 1);
             const warnings = sets.flatMap((set) => {
               const current = calibrations
                 .filter((c) => c.equipmentSetId === set.id)
@@ -160,8 +159,9 @@ export function FieldHome() {
                   calibrations · {lots} strand lots
                 </p>
                 <p className="text-ink-soft" data-testid="ready-age">
-                  Data from {clockTime(pour.downloadedAt)} ({ago(pour.downloadedAt, now)}), kept up to date at each
-                  sync.
+                  Data from{" "}
+                  {project ? formatDateTime(pour.downloadedAt, projectTimeZone(project)) : clockTime(pour.downloadedAt)}{" "}
+                  ({ago(pour.downloadedAt, now)}), kept up to date at each sync.
                 </p>
                 {pour.unavailable && (
                   <p className="font-bold text-signal-stop">

@@ -11,7 +11,7 @@ import {
   type TendonState,
 } from "@/lib/offline/tendon-view";
 import { awaitingRestressOf, cutClearanceOf, holdsOf, holdSummary } from "@/lib/offline/hold-view";
-import { projectTimeZone } from "@/lib/format/dates";
+import { dayInZone, formatDateTime, projectTimeZone } from "@/lib/format/dates";
 import type { FieldEvaluation, FieldFlag, FieldTendon } from "@/lib/schemas/sync";
 import { stressedEnds } from "@/lib/stressing/basis";
 import { showLength, showPressure } from "@/lib/format/quantities";
@@ -261,7 +261,7 @@ export function PourLog() {
           {project.code} · {tendons.length} tendons · {stressedCount} stressed
           {flaggedCount ? ` (${flaggedCount} flagged)` : ""}
         </p>
-        <PourReleaseNote pour={pour} />
+        <PourReleaseNote pour={pour} timeZone={timeZone} />
         {concreteGate !== null && pour.release && (
           // Released: stressing is over, so the warning gives way to how the gate stood at release.
           <p className="text-ink-soft" data-testid="concrete-gate-field">
@@ -447,7 +447,9 @@ function TendonPanel(props: {
   const allDone = wanted.every((e) => ends[e]);
   const lengthMm = tendon.segments.reduce((s, seg) => s + seg.lengthMm, 0);
   const newest = Object.values(ends).sort((a, b) => (a!.savedAt < b!.savedAt ? 1 : -1))[0] ?? null;
-  const today = new Date().toLocaleDateString("en-CA");
+  // The stressing day at the site (the project's zone), as the server judges it.
+  const timeZone = projectTimeZone(project);
+  const today = dayInZone(new Date(), timeZone);
   const newestSet = newest ? (sets.find((s) => s.id === newest.equipmentSetId) ?? null) : null;
   const local = records.length
     ? provisionalVerdict({ project, tendon, lot, set: newestSet, calibrations }, records)
@@ -489,7 +491,7 @@ function TendonPanel(props: {
           </p>
         </header>
 
-        <HoldPanel flags={props.flags} heldOnTablet={props.state === "flagged"} tendon={tendon} />
+        <HoldPanel flags={props.flags} heldOnTablet={props.state === "flagged"} tendon={tendon} timeZone={timeZone} />
 
         {records.length > 0 && (
           <>
@@ -528,7 +530,7 @@ function TendonPanel(props: {
                         <p>
                           End {end}: <strong>{showLength(u, r.measuredMm)}</strong> at{" "}
                           {showPressure(u, r.finalPressureMPa)} · {r.authorName} ·{" "}
-                          {new Date(r.deviceTime).toLocaleTimeString(undefined, { hour: "2-digit", minute: "2-digit" })}
+                          <span data-testid="stressed-at">{formatDateTime(r.deviceTime, timeZone)}</span>
                           {r.revision > 1 ? ` · revision ${r.revision} (${r.revisionReason})` : ""} ·{" "}
                           <span data-testid="sync-state">
                             {r.syncState === "synced"
