@@ -9,9 +9,11 @@ import {
   targetFor,
   tendonState,
   type TendonState,
+  fieldTime,
+  fieldDay,
 } from "@/lib/offline/tendon-view";
 import { awaitingRestressOf, cutClearanceOf, holdsOf, holdSummary } from "@/lib/offline/hold-view";
-import { dayInZone, formatDateTime, projectTimeZone } from "@/lib/format/dates";
+import { projectTimeZone } from "@/lib/format/dates";
 import type { FieldEvaluation, FieldFlag, FieldTendon } from "@/lib/schemas/sync";
 import { stressedEnds } from "@/lib/stressing/basis";
 import { showLength, showPressure } from "@/lib/format/quantities";
@@ -448,8 +450,7 @@ function TendonPanel(props: {
   const lengthMm = tendon.segments.reduce((s, seg) => s + seg.lengthMm, 0);
   const newest = Object.values(ends).sort((a, b) => (a!.savedAt < b!.savedAt ? 1 : -1))[0] ?? null;
   // The stressing day at the site (the project's zone), as the server judges it.
-  const timeZone = projectTimeZone(project);
-  const today = dayInZone(new Date(), timeZone);
+  const today = fieldDay(project);
   const newestSet = newest ? (sets.find((s) => s.id === newest.equipmentSetId) ?? null) : null;
   const local = records.length
     ? provisionalVerdict({ project, tendon, lot, set: newestSet, calibrations }, records)
@@ -491,7 +492,12 @@ function TendonPanel(props: {
           </p>
         </header>
 
-        <HoldPanel flags={props.flags} heldOnTablet={props.state === "flagged"} tendon={tendon} timeZone={timeZone} />
+        <HoldPanel
+          flags={props.flags}
+          heldOnTablet={props.state === "flagged"}
+          tendon={tendon}
+          timeZone={projectTimeZone(project)}
+        />
 
         {records.length > 0 && (
           <>
@@ -530,7 +536,7 @@ function TendonPanel(props: {
                         <p>
                           End {end}: <strong>{showLength(u, r.measuredMm)}</strong> at{" "}
                           {showPressure(u, r.finalPressureMPa)} · {r.authorName} ·{" "}
-                          <span data-testid="stressed-at">{formatDateTime(r.deviceTime, timeZone)}</span>
+                          <span data-testid="stressed-at">{fieldTime(project, r.deviceTime)}</span>
                           {r.revision > 1 ? ` · revision ${r.revision} (${r.revisionReason})` : ""} ·{" "}
                           <span data-testid="sync-state">
                             {r.syncState === "synced"
