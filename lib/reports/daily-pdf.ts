@@ -13,7 +13,7 @@ import {
   dailyWitnessLines,
   type DailyRecordColumn,
 } from "./daily-rows";
-import { openReportPdf, type SignatureBlock } from "./pdf-frame";
+import { groupedCells, openReportPdf, type GroupedColumn, type SignatureBlock } from "./pdf-frame";
 
 /**
  * The daily special-inspection report as a PDF, in the same frame as the pour's stressing report
@@ -22,7 +22,7 @@ import { openReportPdf, type SignatureBlock } from "./pdf-frame";
  * is the content's own time.
  */
 
-const PDF_COLUMNS: { title: string; width: number; from: DailyRecordColumn[] }[] = [
+const PDF_COLUMNS: GroupedColumn<DailyRecordColumn>[] = [
   { title: "Pour, tendon, end, stressing", width: 70, from: ["Pour", "Tendon", "End", "Stressing"] },
   { title: "Stressed, operator", width: 66, from: ["Stressed", "Operator"] },
   { title: "Method, readings as entered", width: 84, from: ["Method", "Readings as entered", "Seating"] },
@@ -43,29 +43,6 @@ const PDF_COLUMNS: { title: string; width: number; from: DailyRecordColumn[] }[]
   { title: "Verdict, basis", width: 66, from: ["Verdict", "Basis"] },
   { title: "Breaks, remarks, photos, flags", width: 90, from: ["Wire breaks", "Remarks", "Photos", "Flags"] },
 ];
-const LABELS: Partial<Record<DailyRecordColumn, string>> = {
-  "Initial pressure": "initial",
-  "Final pressure": "final",
-  "Target pressure": "target",
-  "Predicted (Tautline)": "Tautline",
-  "Predicted (shop drawing)": "shop",
-  Governs: "governs",
-  "Wire breaks": "wire breaks",
-  Seating: "seating",
-  Force: "gauge",
-  "Force from elongation": "elongation",
-};
-
-function pdfCells(row: string[]): string[] {
-  const value = (c: DailyRecordColumn) => row[DAILY_RECORD_COLUMNS.indexOf(c)] ?? "";
-  return PDF_COLUMNS.map((col) =>
-    col.from
-      .map((c) => (value(c) && LABELS[c] ? `${LABELS[c]}: ${value(c)}` : value(c)))
-      .filter(Boolean)
-      .join("\n"),
-  );
-}
-
 export async function renderDailyPdf(report: DailyReport, signature?: SignatureBlock): Promise<Buffer> {
   const pdf = openReportPdf({
     unitSystem: report.project.unitSystem,
@@ -145,7 +122,7 @@ export async function renderDailyPdf(report: DailyReport, signature?: SignatureB
   pdf.table(
     "Stressing records of the day, pour by pour, every stressing of every end in order",
     PDF_COLUMNS,
-    dailyRecordRows(report).map(pdfCells),
+    dailyRecordRows(report).map((row) => groupedCells(PDF_COLUMNS, DAILY_RECORD_COLUMNS, row)),
     "No stressing was recorded this day.",
   );
   doc.moveDown(0.8);

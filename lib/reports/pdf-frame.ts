@@ -47,6 +47,40 @@ export interface TableColumn {
   width: number;
 }
 
+/** A column on paper made of several of the CSV's columns, each cell their strings line by line. */
+export interface GroupedColumn<C extends string> extends TableColumn {
+  from: readonly C[];
+}
+
+/** How a value is introduced inside a grouped cell, where several share it ("final: 4150 psi"). */
+const CELL_LABELS: Record<string, string> = {
+  "Initial pressure": "initial",
+  "Final pressure": "final",
+  "Target pressure": "target",
+  "Predicted (Tautline)": "Tautline",
+  "Predicted (shop drawing)": "shop",
+  Governs: "governs",
+  "Wire breaks": "wire breaks",
+  Seating: "seating",
+  Force: "gauge",
+  "Force from elongation": "elongation",
+};
+
+/** A CSV row (its values in the order of `names`) as the cells of the grouped columns on paper. */
+export function groupedCells<C extends string>(
+  columns: readonly GroupedColumn<C>[],
+  names: readonly C[],
+  row: string[],
+): string[] {
+  const value = (c: C) => row[names.indexOf(c)] ?? "";
+  return columns.map((col) =>
+    col.from
+      .map((c) => (value(c) && CELL_LABELS[c] ? `${CELL_LABELS[c]}: ${value(c)}` : value(c)))
+      .filter(Boolean)
+      .join("\n"),
+  );
+}
+
 export interface ReportPdf {
   doc: PDFKit.PDFDocument;
   /** Left edge and width of the text block. */

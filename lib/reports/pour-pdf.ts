@@ -11,7 +11,7 @@ import {
   strandLotLines,
   type RecordColumn,
 } from "./pour-rows";
-import { openReportPdf, pdfText, type SignatureBlock } from "./pdf-frame";
+import { groupedCells, openReportPdf, pdfText, type GroupedColumn, type SignatureBlock } from "./pdf-frame";
 
 export { pdfText, type SignatureBlock };
 
@@ -25,7 +25,7 @@ export { pdfText, type SignatureBlock };
  * The record table's columns on paper: the CSV's columns grouped so a landscape page holds them,
  * each cell the CSV's strings joined line by line.
  */
-const PDF_COLUMNS: { title: string; width: number; from: RecordColumn[] }[] = [
+const PDF_COLUMNS: GroupedColumn<RecordColumn>[] = [
   { title: "Tendon, end, stressing", width: 62, from: ["Tendon", "End", "Stressing"] },
   { title: "Stressed, operator", width: 62, from: ["Stressed", "Operator"] },
   { title: "Equipment, calibration", width: 94, from: ["Equipment set", "Jack, gauge, pump", "Calibration"] },
@@ -47,41 +47,6 @@ const PDF_COLUMNS: { title: string; width: number; from: RecordColumn[] }[] = [
   { title: "Breaks, remarks, photos", width: 70, from: ["Wire breaks", "Remarks", "Photos"] },
   { title: "Flags", width: 62, from: ["Flags"] },
 ];
-const LABELLED = new Set<RecordColumn>([
-  "Initial pressure",
-  "Final pressure",
-  "Target pressure",
-  "Predicted (Tautline)",
-  "Predicted (shop drawing)",
-  "Governs",
-  "Wire breaks",
-  "Seating",
-  "Force",
-  "Force from elongation",
-]);
-const LABELS: Partial<Record<RecordColumn, string>> = {
-  "Initial pressure": "initial",
-  "Final pressure": "final",
-  "Target pressure": "target",
-  "Predicted (Tautline)": "Tautline",
-  "Predicted (shop drawing)": "shop",
-  Governs: "governs",
-  "Wire breaks": "wire breaks",
-  Seating: "seating",
-  Force: "gauge",
-  "Force from elongation": "elongation",
-};
-
-function pdfCells(row: string[]): string[] {
-  const value = (c: RecordColumn) => row[RECORD_COLUMNS.indexOf(c)] ?? "";
-  return PDF_COLUMNS.map((col) =>
-    col.from
-      .map((c) => (value(c) && LABELLED.has(c) ? `${LABELS[c]}: ${value(c)}` : value(c)))
-      .filter(Boolean)
-      .join("\n"),
-  );
-}
-
 export async function renderPourPdf(report: PourReport, signature?: SignatureBlock): Promise<Buffer> {
   const pdf = openReportPdf({
     unitSystem: report.project.unitSystem,
@@ -151,7 +116,7 @@ export async function renderPourPdf(report: PourReport, signature?: SignatureBlo
   pdf.table(
     "Stressing records, every stressing of every end in order",
     PDF_COLUMNS,
-    recordRows(report).map(pdfCells),
+    recordRows(report).map((row) => groupedCells(PDF_COLUMNS, RECORD_COLUMNS, row)),
     "This pour has no tendons on its schedule.",
   );
 
