@@ -202,7 +202,9 @@ export function openReportPdf(options: {
     font(true, 10);
     text(title);
     font(false);
-    for (const line of items) text(line, { indent: 10 });
+    // Each line indented as a whole, its wrapped lines under its first.
+    for (const line of items) doc.text(pdfText(line), left + 10, doc.y, { width: width - 10 });
+    doc.x = left;
     doc.moveDown(0.4);
   };
   const caution = () => {
