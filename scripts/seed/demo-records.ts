@@ -202,7 +202,7 @@ export async function seedDemoRecords(
       .where("tendons.tag", "=", tag)
       .where("flags.kind", "=", kind as never)
       .executeTakeFirstOrThrow();
-  const licence = "Licensed professional engineer, demo licence PE-00000 (invented)";
+  const licence = "Licensed professional engineer, demo licence PE-00000, invented";
 
   // Last week's long tendon: checked, lifted off, accepted; then the pour was released.
   const u14 = await flagOf("2-1-U14");
