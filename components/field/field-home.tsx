@@ -20,9 +20,7 @@ import { useField } from "./field-provider";
 import { useLiveQuery as useLive } from "dexie-react-hooks";
 import { ago, clockTime, useNow } from "./use-live";
 import { countOf } from "@/lib/format/count";
-
-const DAY_MS = 86_400_000;
-const isoDay = (ms: number) => new Date(ms).toLocaleDateString("en-CA");
+import { dayInZone, formatDateTime, projectTimeZone, shiftDay } from "@/lib/format/dates";
 
 async function availablePours(): Promise<{ pours: AvailablePour[] | null; error: string | null }> {
   try {
@@ -86,8 +84,6 @@ export function FieldHome() {
       setDownloadError(result.status === 401 ? "Sign in again to download." : `Could not download: ${result.message}`);
   }
 
-  const today = isoDay(now);
-  const tomorrow = isoDay(now + DAY_MS);
   const readyIds = new Set(ready?.map((r) => r.pour.id));
 
   return (
@@ -125,6 +121,9 @@ export function FieldHome() {
         )}
         <ul className="grid gap-4 md:grid-cols-2">
           {ready?.map(({ pour, project, tendons, stressed, sets, calibrations, lots }) => {
+            // Today and tomorrow at the site, in the project's zone, not the tablet's.
+            const today = dayInZone(now, projectTimeZone(project ?? {}));
+            const tomorrow = shiftDay(today, 1);
             const warnings = sets.flatMap((set) => {
               const current = calibrations
                 .filter((c) => c.equipmentSetId === set.id)
@@ -161,8 +160,9 @@ export function FieldHome() {
                   {countOf(calibrations.length, "calibration")} · {countOf(lots, "strand lot")}
                 </p>
                 <p className="text-ink-soft" data-testid="ready-age">
-                  Data from {clockTime(pour.downloadedAt)} ({ago(pour.downloadedAt, now)}), kept up to date at each
-                  sync.
+                  Data from{" "}
+                  {project ? formatDateTime(pour.downloadedAt, projectTimeZone(project)) : clockTime(pour.downloadedAt)}{" "}
+                  ({ago(pour.downloadedAt, now)}), kept up to date at each sync.
                 </p>
                 {pour.unavailable && (
                   <p className="font-bold text-signal-stop">

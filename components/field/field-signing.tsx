@@ -62,6 +62,7 @@ function useOnline(): boolean {
   return online;
 }
 
+/** The first guess at today before the project's zone is known: the tablet's own day. */
 const deviceDay = () => dayInZone(new Date(), Intl.DateTimeFormat().resolvedOptions().timeZone);
 const shown = (revisions: Revision[], timeZone: string) =>
   revisions.map((r) => ({ ...r, signedAt: formatDateTime(r.signedAt, timeZone) }));
@@ -76,6 +77,8 @@ export function FieldSigning() {
   const online = useOnline();
   const [chosenProject, setProjectId] = useState("");
   const [day, setDay] = useState(deviceDay);
+  // Until the inspector picks a day, the day is today at the site (the project's zone), once known.
+  const [dayPicked, setDayPicked] = useState(false);
   const [pourId, setPourId] = useState(() =>
     typeof window === "undefined" ? "" : (new URLSearchParams(window.location.search).get("pour") ?? ""),
   );
@@ -90,6 +93,12 @@ export function FieldSigning() {
   const dailyRead = useSWR<DailyView, FetchError>(
     online && projectId && day ? `/api/projects/${projectId}/daily-reports/${day}/signatures` : null,
     fetchJson,
+    {
+      onSuccess: (view) => {
+        const siteToday = dayInZone(new Date(), view.timeZone);
+        if (!dayPicked && siteToday !== view.day) setDay(siteToday);
+      },
+    },
   );
   const daily = dailyRead.data ?? null;
   const pourRead = useSWR<PourView, FetchError>(
@@ -157,7 +166,10 @@ export function FieldSigning() {
             type="date"
             label={`Day${daily ? ` (${daily.timeZone})` : ""}`}
             value={day}
-            onChange={(e) => setDay(e.target.value)}
+            onChange={(e) => {
+              setDayPicked(true);
+              setDay(e.target.value);
+            }}
           />
         </div>
       )}

@@ -1,4 +1,5 @@
 import { flagLabel } from "@/components/ui/verdict-badge";
+import { formatDateTime } from "@/lib/format/dates";
 import { holdsOf } from "@/lib/offline/hold-view";
 import type { FieldFlag, FieldTendon } from "@/lib/schemas/sync";
 import { DetensionPanel } from "./detension";
@@ -13,9 +14,12 @@ export function HoldPanel({
   flags,
   heldOnTablet,
   tendon,
+  timeZone,
 }: {
   flags: FieldFlag[];
   heldOnTablet: boolean;
+  /** The project's time zone, for the date of the engineer's instruction. */
+  timeZone: string;
   /**
    * Given, a lift-off check the engineer ordered opens here (components/field/liftoff-check.tsx), and
    * a detension (components/field/detension.tsx).
@@ -65,7 +69,7 @@ export function HoldPanel({
             {h.decision && (
               <p data-testid="hold-instruction">
                 <strong>Engineer&apos;s instruction</strong> ({h.decision.engineerName},{" "}
-                {new Date(h.decision.createdAt).toLocaleDateString("en-CA")}): {h.decision.reasons}
+                {formatDateTime(h.decision.createdAt, timeZone)}): {h.decision.reasons}
               </p>
             )}
             <p className="font-bold" data-testid="hold-what-to-do">

@@ -9,6 +9,8 @@ import {
   targetFor,
   tendonState,
   type TendonState,
+  fieldTime,
+  fieldDay,
 } from "@/lib/offline/tendon-view";
 import { awaitingRestressOf, cutClearanceOf, holdsOf, holdSummary } from "@/lib/offline/hold-view";
 import { projectTimeZone } from "@/lib/format/dates";
@@ -262,7 +264,7 @@ export function PourLog() {
           {project.code} · {countOf(tendons.length, "tendon")} · {stressedCount} stressed
           {flaggedCount ? ` (${flaggedCount} flagged)` : ""}
         </p>
-        <PourReleaseNote pour={pour} />
+        <PourReleaseNote pour={pour} timeZone={timeZone} />
         {concreteGate !== null && pour.release && (
           // Released: stressing is over, so the warning gives way to how the gate stood at release.
           <p className="text-ink-soft" data-testid="concrete-gate-field">
@@ -448,7 +450,8 @@ function TendonPanel(props: {
   const allDone = wanted.every((e) => ends[e]);
   const lengthMm = tendon.segments.reduce((s, seg) => s + seg.lengthMm, 0);
   const newest = Object.values(ends).sort((a, b) => (a!.savedAt < b!.savedAt ? 1 : -1))[0] ?? null;
-  const today = new Date().toLocaleDateString("en-CA");
+  // The stressing day at the site (the project's zone), as the server judges it.
+  const today = fieldDay(project);
   const newestSet = newest ? (sets.find((s) => s.id === newest.equipmentSetId) ?? null) : null;
   const local = records.length
     ? provisionalVerdict({ project, tendon, lot, set: newestSet, calibrations }, records)
@@ -490,7 +493,12 @@ function TendonPanel(props: {
           </p>
         </header>
 
-        <HoldPanel flags={props.flags} heldOnTablet={props.state === "flagged"} tendon={tendon} />
+        <HoldPanel
+          flags={props.flags}
+          heldOnTablet={props.state === "flagged"}
+          tendon={tendon}
+          timeZone={projectTimeZone(project)}
+        />
 
         {records.length > 0 && (
           <>
@@ -529,7 +537,7 @@ function TendonPanel(props: {
                         <p>
                           End {end}: <strong>{showLength(u, r.measuredMm)}</strong> at{" "}
                           {showPressure(u, r.finalPressureMPa)} · {r.authorName} ·{" "}
-                          {new Date(r.deviceTime).toLocaleTimeString(undefined, { hour: "2-digit", minute: "2-digit" })}
+                          <span data-testid="stressed-at">{fieldTime(project, r.deviceTime)}</span>
                           {r.revision > 1 ? ` · revision ${r.revision} (${r.revisionReason})` : ""} ·{" "}
                           <span data-testid="sync-state">
                             {r.syncState === "synced"

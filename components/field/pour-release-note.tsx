@@ -1,3 +1,4 @@
+import { formatDateTime } from "@/lib/format/dates";
 import type { FieldPour } from "@/lib/schemas/sync";
 
 const STATUS_WORDS: Record<string, string> = {
@@ -13,15 +14,18 @@ const STATUS_WORDS: Record<string, string> = {
  */
 export function PourReleaseNote({
   pour,
+  timeZone,
 }: {
   pour: Pick<FieldPour, "name" | "status"> & Partial<Pick<FieldPour, "release" | "reopened">>;
+  /** The project's time zone: the release is dated at the site, as on the office screens. */
+  timeZone: string;
 }) {
   if (pour.release) {
     return (
       <div className="rounded-md border-2 border-ink bg-concrete-100 p-3" data-testid="pour-frozen" role="status">
         <p className="font-bold">
-          Released by {pour.release.by} on {new Date(pour.release.at).toLocaleDateString("en-CA")}. No new record or
-          restress can be saved for {pour.name}.
+          Released by {pour.release.by} on {formatDateTime(pour.release.at, timeZone)}. No new record or restress can be
+          saved for {pour.name}.
         </p>
         <p className="text-ink-soft">If more work is needed, the engineer of record must reopen the pour first.</p>
       </div>
@@ -37,8 +41,7 @@ export function PourReleaseNote({
           className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-semibold text-signal-stop"
           data-testid="pour-reopened"
         >
-          Reopened by {pour.reopened.by} on {new Date(pour.reopened.at).toLocaleDateString("en-CA")}:{" "}
-          {pour.reopened.reason}
+          Reopened by {pour.reopened.by} on {formatDateTime(pour.reopened.at, timeZone)}: {pour.reopened.reason}
         </p>
       )}
     </>

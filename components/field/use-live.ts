@@ -1,4 +1,5 @@
 "use client";
+import { formatDateTime } from "@/lib/format/dates";
 import { useEffect, useState } from "react";
 
 /** A clock that ticks, for "5 min ago" labels. */
@@ -21,7 +22,11 @@ export function ago(iso: string | null | undefined, now: number): string {
   return `${Math.floor(hours / 24)} d ago`;
 }
 
+/**
+ * A moment of the tablet's own (the last sync, which spans its projects), in the one date format;
+ * written in the tablet's zone, since no single project's applies. Project dates use fieldTime.
+ */
 export function clockTime(iso: string | null | undefined): string {
   if (!iso) return "—";
-  return new Date(iso).toLocaleString(undefined, { weekday: "short", hour: "2-digit", minute: "2-digit" });
+  return formatDateTime(iso, Intl.DateTimeFormat().resolvedOptions().timeZone || "UTC");
 }

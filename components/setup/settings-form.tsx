@@ -312,7 +312,7 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
         <FormField
           id="s-timeZone"
           label="Time zone of the site"
-          hint="The stressing day for calibrations and the concrete gate, e.g. America/Chicago."
+          hint="Every date and time on the screens, the tablet, the e-mails and the reports is in this zone, and it sets the stressing day; an IANA name, e.g. America/Chicago."
           error={err("timeZone")}
           autoComplete="off"
           {...form.register("timeZone")}

@@ -1,4 +1,5 @@
 import { CAUTION_LINE } from "@/lib/cautions";
+import { formatDateTime } from "@/lib/format/dates";
 import { flagLabel } from "@/lib/schemas/flag";
 import type { OutgoingMail } from "./send-mail";
 
@@ -62,6 +63,8 @@ export function invitationMail(input: {
   roleLabel: string;
   invitedBy: string;
   expiresAt: Date;
+  /** The project's time zone, the one the expiry is written in. */
+  timeZone: string;
 }): OutgoingMail {
   return mail(
     input.to,
@@ -69,7 +72,7 @@ export function invitationMail(input: {
     `Join ${input.projectName}`,
     [
       `${input.invitedBy} has invited you to the project ${input.projectName} as ${input.roleLabel}.`,
-      `The link works once and expires on ${input.expiresAt.toUTCString()}.`,
+      `The link works once and expires on ${formatDateTime(input.expiresAt, input.timeZone)}.`,
     ],
     { label: "Accept the invitation", url: input.url },
     "If you were not expecting this invitation, ignore this message and nothing will happen.",

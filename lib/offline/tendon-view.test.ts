@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
-import type { FieldEvaluation, FieldFlag, FieldTendon } from "@/lib/schemas/sync";
+import type { FieldEvaluation, FieldFlag, FieldProject, FieldTendon } from "@/lib/schemas/sync";
 import type { LocalRecord } from "./db";
-import { tendonState } from "./tendon-view";
+import { fieldDay, fieldTime, tendonState } from "./tendon-view";
 
 const tendon = { id: "t1", ends: "A" } as FieldTendon;
 
@@ -52,5 +52,22 @@ describe("whether the tablet holds a tendon", () => {
   it("holds again when a new record has not reached the server", () => {
     const restress = record({ id: "r2", deviceTime: "2026-12-02T16:00:00.000Z", syncState: "pending" });
     expect(tendonState(tendon, [record({}), restress], [flag("closed")], evaluation("long"))).toBe("flagged");
+  });
+});
+
+describe("the day and time the tablet shows for a record, on the site's clock", () => {
+  // 18:30 PST on 2026-12-02 is 02:30 UTC on 2026-12-03: America/Los_Angeles is UTC−8 in December
+  // (IANA time zone database).
+  const evening = "2026-12-03T02:30:00.000Z";
+  const site = { timeZone: "America/Los_Angeles" };
+
+  it("puts a record stressed at 18:30 in Los Angeles on that day, not the next", () => {
+    expect(fieldDay(site as FieldProject, evening)).toBe("2026-12-02");
+    expect(fieldTime(site, evening)).toBe("2026-12-02 18:30 PST");
+  });
+
+  it("follows the project's zone, whatever zone the tablet runs in", () => {
+    expect(fieldTime({ timeZone: "America/Chicago" }, evening)).toBe("2026-12-02 20:30 CST");
+    expect(fieldTime({ timeZone: "UTC" }, evening)).toBe("2026-12-03 02:30 UTC");
   });
 });

@@ -14,6 +14,7 @@ import type {
 } from "@/lib/schemas/sync";
 import { pickCalibration } from "@/lib/schemas/pick-calibration";
 import { storedGaugeOffTarget, storedGaugeSteps } from "@/lib/schemas/record";
+import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
 import type { LocalRecord, LocalVerdict } from "./db";
 
 /**
@@ -100,6 +101,11 @@ export function targetFor(ctx: TendonContext, calibration: FieldCalibration | nu
 /** The stressing day now (or at an instant), in the project's time zone: the same day the server uses. */
 export function fieldDay(project: FieldProject, at: Date | string = new Date()): string {
   return stressingDay(at, project.timeZone);
+}
+
+/** When a record was stressed, as the tablet shows it: on the site's clock (the project's zone), not the tablet's. */
+export function fieldTime(project: Pick<FieldProject, "timeZone">, at: Date | string): string {
+  return formatDateTime(at, projectTimeZone(project));
 }
 
 const strokeCount = (r: LocalRecord): number =>

@@ -23,7 +23,7 @@ import type { TendonResult } from "@/lib/server/list-tendon-results";
 /**
  * The report's content as display strings in the project's units, once: the PDF draws them and
  * the CSV writes them, so both carry exactly the same rows and columns. Dates and times go through
- * lib/format/dates in the time zone the pour was stressed in; people and flags by name and reference.
+ * lib/format/dates in the project's time zone (the site's, not the tablet's); people and flags by name and reference.
  */
 
 export const RECORD_COLUMNS = [
@@ -194,7 +194,7 @@ export function recordRows(report: PourReport): string[][] {
         Tendon: t.tag,
         End: r.end,
         Stressing: stressingLabel(r),
-        Stressed: formatDateTime(r.deviceTime, r.deviceTimeZone),
+        Stressed: formatDateTime(r.deviceTime, report.timeZone),
         Operator: r.operator,
         "Equipment set": r.equipment.name,
         "Jack, gauge, pump": `jack ${r.equipment.jackSerial}, gauge ${r.equipment.gaugeSerial}, pump ${r.equipment.pumpSerial ?? "not recorded"}`,

@@ -71,9 +71,9 @@ export const projectSettingsSchema = z.strictObject({
   releaseBy: z.enum(["engineer", "inspector"], { error: "Pick who releases a pour." }),
   // Judging settings (lib/stressing/judge.ts); left out, the stored values stay.
   timeZone: z
-    .string({ error: "Give the project's time zone, e.g. America/Chicago." })
+    .string({ error: "Give the site's time zone, e.g. America/Chicago." })
     .trim()
-    .refine(isTimeZone, "Not a time zone name; use one like America/Chicago.")
+    .refine(isTimeZone, "The site's time zone is not a time zone name; use one like America/Chicago.")
     .optional(),
   jackingForceFactor: z
     .number({ error: "Give the jacking force as a fraction of fpu·A, e.g. 0.80." })

@@ -1,6 +1,7 @@
 import "server-only";
 import { sql, type Kysely } from "kysely";
 import type { Database, Role } from "@/db/types";
+import { dayInZone } from "@/lib/format/dates";
 import { findFlags, type FlaggedTendon } from "./find-flags";
 import { findReleaseCandidates, type ReleaseCandidate } from "./find-release-candidates";
 
@@ -24,8 +25,11 @@ export interface SetupGap {
 /** What each role's home page shows, for the projects where the person holds that role. */
 export async function getHomeSummary(
   db: Kysely<Database>,
-  input: { memberships: { projectId: string; projectName: string; role: Role }[]; today: string },
+  input: { memberships: { projectId: string; projectName: string; role: Role }[]; now?: Date },
 ) {
+  const now = input.now ?? new Date();
+  // Today at each project's site: the calendar date of `now` in the project's time zone.
+  const siteToday = sql<string>`(${now.toISOString()}::timestamptz at time zone projects.time_zone)::date`;
   const ids = (role: Role) => input.memberships.filter((m) => m.role === role).map((m) => m.projectId);
   const crew = ids("crew");
   const inspector = ids("inspector");
@@ -61,7 +65,7 @@ export async function getHomeSummary(
           .where("pours.project_id", "in", watching)
           .where("pour_states.status", "!=", "released")
           .where((eb) =>
-            eb.or([eb("pours.planned_stressing_date", "=", input.today), eb("pour_states.status", "=", "stressing")]),
+            eb.or([eb("pours.planned_stressing_date", "=", siteToday), eb("pour_states.status", "=", "stressing")]),
           )
           .orderBy("projects.name")
           .orderBy("pours.name")
@@ -79,7 +83,6 @@ export async function getHomeSummary(
 
   const gaps: SetupGap[] = [];
   if (admin.length) {
-    const soon = new Date(new Date(`${input.today}T00:00:00Z`).getTime() + 14 * 86_400_000).toISOString().slice(0, 10);
     const [noLot, expiring, emptyPours] = await Promise.all([
       db
         .selectFrom("tendons")
@@ -102,9 +105,10 @@ export async function getHomeSummary(
           "projects.name as projectName",
           "equipment_sets.name as setName",
           "calibrations.valid_until as validUntil",
+          "projects.time_zone as timeZone",
         ])
         .where("calibrations.project_id", "in", admin)
-        .where("calibrations.valid_until", "<=", soon)
+        .where("calibrations.valid_until", "<=", sql<string>`${siteToday} + 14`)
         .where(({ not, exists, selectFrom }) =>
           not(
             exists(
@@ -136,7 +140,7 @@ export async function getHomeSummary(
       });
     }
     for (const c of expiring) {
-      const expired = c.validUntil < input.today;
+      const expired = c.validUntil < dayInZone(now, c.timeZone);
       gaps.push({
         projectId: c.projectId,
         projectName: c.projectName,

@@ -7,6 +7,7 @@ import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
 import { sendMail } from "@/lib/mail/send-mail";
 import { invitationMail } from "@/lib/mail/templates";
+import { projectTimeZone } from "@/lib/format/dates";
 import { recordAudit } from "./record-audit";
 
 export const INVITATION_DAYS = 7;
@@ -25,10 +26,10 @@ export async function inviteMember(
   const { token, hash } = newToken();
   const expiresAt = new Date(Date.now() + INVITATION_DAYS * 24 * 3600 * 1000);
 
-  const { invitationId, projectName } = await db.transaction().execute(async (trx) => {
+  const { invitationId, projectName, timeZone } = await db.transaction().execute(async (trx) => {
     const project = await trx
       .selectFrom("projects")
-      .select("name")
+      .select(["name", "time_zone"])
       .where("id", "=", input.projectId)
       .executeTakeFirstOrThrow();
     const member = await trx
@@ -69,7 +70,7 @@ export async function inviteMember(
       target: input.email,
       detail: { role: input.role },
     });
-    return { invitationId: row.id, projectName: project.name };
+    return { invitationId: row.id, projectName: project.name, timeZone: projectTimeZone(project) };
   });
 
   await sendMail(
@@ -80,6 +81,7 @@ export async function inviteMember(
       roleLabel: ROLE_LABELS[input.role],
       invitedBy: input.invitedBy.name,
       expiresAt,
+      timeZone,
     }),
   );
   return { invitationId };

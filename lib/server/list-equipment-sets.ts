@@ -2,6 +2,8 @@ import "server-only";
 import type { Db } from "@/db/connect";
 import type { CalibrationPoint } from "@/db/types";
 import { calibrationState, pickCalibration, type CalibrationState } from "@/lib/schemas/calibration";
+import { dayInZone } from "@/lib/format/dates";
+import { getProjectTimeZone } from "./get-project-time-zone";
 
 export interface CalibrationView {
   id: string;
@@ -36,12 +38,14 @@ export interface EquipmentSetView {
   history: CalibrationView[];
 }
 
-export function todayIso(): string {
-  return new Date().toISOString().slice(0, 10);
+/** Today's date at the project's site (its time zone), the day a calibration's state is judged on. */
+export async function projectToday(db: Db, projectId: string): Promise<string> {
+  return dayInZone(new Date(), await getProjectTimeZone(db, projectId));
 }
 
 /** Every set with its calibrations, newest first, and its state today (expired, running out, valid). */
-export async function listEquipmentSets(db: Db, projectId: string, today = todayIso()): Promise<EquipmentSetView[]> {
+export async function listEquipmentSets(db: Db, projectId: string, day?: string): Promise<EquipmentSetView[]> {
+  const today = day ?? (await projectToday(db, projectId));
   const [sets, calibrations] = await Promise.all([
     db
       .selectFrom("equipment_sets")

@@ -1,20 +1,15 @@
 import "server-only";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
+import type { SignatureBlock } from "@/lib/reports/pdf-frame";
 import { renderPourPdf } from "@/lib/reports/pour-pdf";
 import { describeChanges, pourSnapshot, type ReportSnapshot } from "@/lib/reports/report-changes";
 import { getPourReport } from "./get-pour-report";
 import { sha256 } from "./sign-report-revision";
 
-export interface ReportRevision {
-  revision: number;
-  signerName: string;
-  licence: string;
-  statement: string;
-  signedAt: Date;
-  contentSha256: string;
+/** A signed revision: what its signature block prints, and the sha256 of the file as stored. */
+export interface ReportRevision extends SignatureBlock {
   fileSha256: string;
-  changes: string[];
 }
 
 /**

@@ -7,6 +7,8 @@ import { zodFields } from "@/lib/schemas/zod-fields";
 import type { OpResult, SyncOp } from "@/lib/schemas/sync";
 import { tailCutPayloadSchema } from "@/lib/schemas/tail-cut";
 import { awaitingRestress, tailClearance } from "@/lib/stressing/tail-clearance";
+import { formatDateTime } from "@/lib/format/dates";
+import { getProjectTimeZone } from "./get-project-time-zone";
 import { inTransaction } from "./in-transaction";
 import { auditInsert, recordAudit } from "./record-audit";
 
@@ -194,6 +196,7 @@ export async function recordTailCut(
       })
       .execute();
     if (!clearance.clear) {
+      const cutAt = formatDateTime(p.cutAt, await getProjectTimeZone(trx, p.projectId));
       await trx
         .insertInto("flags")
         .values({
@@ -203,7 +206,7 @@ export async function recordTailCut(
           record_id: null,
           evaluation_id: null,
           kind: "cut_while_held",
-          reason: `Tails of ${tendon.tag} were cut by ${person.name} at ${new Date(p.cutAt).toISOString()} while the tendon was held: ${clearance.reasons.join(" ")}`,
+          reason: `Tails of ${tendon.tag} were cut by ${person.name} at ${cutAt} while the tendon was held: ${clearance.reasons.join(" ")}`,
           created_at: new Date(),
         })
         .execute();

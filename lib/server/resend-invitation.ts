@@ -6,6 +6,7 @@ import { AppError } from "@/lib/errors";
 import { sendMail } from "@/lib/mail/send-mail";
 import { invitationMail } from "@/lib/mail/templates";
 import { INVITATION_DAYS, invitationUrl } from "./invite-member";
+import { projectTimeZone } from "@/lib/format/dates";
 import { recordAudit } from "./record-audit";
 
 /** Sends an open invitation again with a fresh link; the old link stops working. */
@@ -27,7 +28,7 @@ export async function resendInvitation(
   if (!invitation) throw new AppError("NOT_FOUND", "No open invitation with this id on this project.");
   const project = await db
     .selectFrom("projects")
-    .select("name")
+    .select(["name", "time_zone"])
     .where("id", "=", input.projectId)
     .executeTakeFirstOrThrow();
   await recordAudit(db, {
@@ -45,6 +46,7 @@ export async function resendInvitation(
       roleLabel: ROLE_LABELS[invitation.role],
       invitedBy: input.by.name,
       expiresAt,
+      timeZone: projectTimeZone(project),
     }),
   );
 }

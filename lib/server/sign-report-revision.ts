@@ -3,7 +3,7 @@ import { createHash } from "node:crypto";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { AppError } from "@/lib/errors";
-import type { SignatureBlock } from "@/lib/reports/pour-pdf";
+import type { SignatureBlock } from "@/lib/reports/pdf-frame";
 import { describeChanges, type ReportSnapshot } from "@/lib/reports/report-changes";
 import type { ReportSignatureInput } from "@/lib/schemas/report-signature";
 import { storeGeneratedFile } from "@/lib/storage";

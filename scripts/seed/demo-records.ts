@@ -9,6 +9,7 @@ import { recordDisposition } from "@/lib/server/record-disposition";
 import { releasePour } from "@/lib/server/release-pour";
 import { predictTendon } from "@/lib/stressing/basis";
 import { formatLength, MM_PER_INCH, MPA_PER_PSI, parseLength } from "@/lib/units";
+import { DEMO_TIME_ZONE, demoInstant } from "./demo-site";
 
 /**
  * The demo job's stressing, all invented: L2 Pour 1 was stressed a week ago, one tendon came out
@@ -138,7 +139,8 @@ export async function seedDemoRecords(
         const afterText = formatLength(before + target, "1/8 in").replace(/ in$/, "");
         const measuredMm = parseLength(afterText, { field: "marksAfter", system: "US", defaultUnit: "in" }) - before;
         const id = demoUuid(`${plan.tag}:${end}`);
-        const at = new Date(`${input.dayOf(dayOffset)}T13:00:00Z`).getTime() + minute++ * 6 * 60_000;
+        // From 07:00 on the site's clock, one end every six minutes.
+        const at = demoInstant(input.dayOf(dayOffset), 7 * 60).getTime() + minute++ * 6 * 60_000;
         await trx
           .insertInto("records")
           .values({
@@ -171,7 +173,7 @@ export async function seedDemoRecords(
             wire_breaks: plan.wireBreakEnd === end ? 1 : 0,
             remarks: plan.wireBreakEnd === end ? "One wire heard to go at lock-off." : null,
             device_time: new Date(at),
-            device_time_zone: "America/Chicago",
+            device_time_zone: DEMO_TIME_ZONE,
             device_id: "demo-tablet-1",
             author_user_id: crew.id,
             // In signal at the slab edge: the record reaches the server within minutes of its save.
@@ -200,7 +202,7 @@ export async function seedDemoRecords(
       .where("tendons.tag", "=", tag)
       .where("flags.kind", "=", kind as never)
       .executeTakeFirstOrThrow();
-  const licence = "Licensed professional engineer, demo licence PE-00000 (invented)";
+  const licence = "Licensed professional engineer, demo licence PE-00000, invented";
 
   // Last week's long tendon: checked, lifted off, accepted; then the pour was released.
   const u14 = await flagOf("2-1-U14");
@@ -237,7 +239,8 @@ export async function seedDemoRecords(
     by: { ...engineer, role: "engineer" },
     statement: "All tendons of L2 Pour 1 are stressed and accepted; tails may be cut.",
     signerName: engineer.name,
-    licence,
+    // The release asks for the licence number itself; the statement goes with each disposition.
+    licence: "PE-00000 (invented demo licence)",
   });
 
   // Today: one long tendon ordered restressed, one short waiting on a lift-off check, one short

@@ -3,9 +3,12 @@ import { fitCalibration } from "@/lib/elongation";
 import { METRES_PER_FOOT, MM_PER_INCH } from "@/lib/units";
 import { predictTendon, projectBasisFromRow } from "@/lib/stressing/basis";
 import { psiToMPa } from "@/lib/units";
+import { DEMO_TIME_ZONE, demoDay, demoInstant } from "./demo-site";
 import { seedDemoRecords } from "./demo-records";
 import type { Kysely } from "kysely";
 import type { Database, Role, StressingEnds, TendonSegment } from "@/db/types";
+
+export { DEMO_TIME_ZONE, demoDay, demoInstant };
 
 /**
  * The demo job: an invented four-level parking structure, "Alder Yard Parking", with
@@ -75,11 +78,6 @@ function pourTendons(prefix: string, uniformCount: number, bandedCount: number):
     });
   }
   return tendons;
-}
-
-/** A calendar day relative to the day the demo is first seeded, as "YYYY-MM-DD". */
-export function demoDay(today: Date, offsetDays: number): string {
-  return new Date(today.getTime() + offsetDays * 86_400_000).toISOString().slice(0, 10);
 }
 
 // Cylinder breaks (invented) confirmed on the first two pours; the third waits for its test.
@@ -168,6 +166,7 @@ export async function seedDemo(
           engineer_of_record_name: "Priya Raman, P.E.",
           engineer_of_record_email: "engineer@demo.tautline.test",
           notify_emails: ["inspector@demo.tautline.test"],
+          time_zone: DEMO_TIME_ZONE,
         },
         {
           code: "QHM",
@@ -175,6 +174,7 @@ export async function seedDemo(
           address: "88 Slate Terrace (invented demo site)",
           unit_system: "si",
           reading_resolution: "1mm",
+          time_zone: DEMO_TIME_ZONE,
         },
       ])
       .onConflict((oc) => oc.column("code").doNothing())
@@ -266,7 +266,8 @@ export async function seedDemo(
           area_m2: p.areaM2,
           planned_stressing_date: demoDay(today, p.dayOffset),
           concrete_strength_mpa: p.concreteMpa,
-          concrete_confirmed_at: p.concreteMpa === null ? null : new Date(`${demoDay(today, p.dayOffset)}T07:00:00Z`),
+          // The lab result came in at 06:00 site time, before the crew started.
+          concrete_confirmed_at: p.concreteMpa === null ? null : demoInstant(demoDay(today, p.dayOffset), 6 * 60),
         })),
       )
       .onConflict((oc) => oc.columns(["project_id", "name"]).doNothing())

@@ -131,7 +131,7 @@ describe("queues show the tendon as it stands", () => {
       .executeTakeFirstOrThrow();
     const home = await getHomeSummary(t.db, {
       memberships: [{ projectId: fx.projectId, projectName: project.name, role: "engineer" }],
-      today: "2026-12-10",
+      now: new Date("2026-12-10T18:00:00Z"),
     });
     const card = home.waitingDisposition.find((w) => w.tendonId === q1.id);
     expect(card?.verdict).toBe("in band");

@@ -27,8 +27,8 @@ export default async function HomePage() {
   const user = await getSessionUser();
   if (!user) redirect("/sign-in");
   const roles = new Set(user.memberships.map((m) => m.role));
-  const today = new Date().toISOString().slice(0, 10);
-  const summary = await getHomeSummary(db, { memberships: user.memberships, today });
+  // Each project's "today" is its site's, in the project's time zone (getHomeSummary).
+  const summary = await getHomeSummary(db, { memberships: user.memberships });
 
   return (
     <main className="space-y-10">
