@@ -23,13 +23,12 @@ import { finerDivision, showPressure } from "@/lib/stressing/display";
 import { MM_PER_INCH, MPA_PER_PSI } from "@/lib/units";
 import { setFormDirty } from "./form-dirty";
 import { SafetyCaution } from "@/components/ui/caution";
+import { fieldAria } from "@/components/ui/form-field";
+import { FieldError as BoxError } from "@/components/ui/form-message";
+import { FractionKeys, withFraction } from "@/components/ui/fraction-keys";
 import { useField } from "./field-provider";
 import { PhotoPicker, type PickedPhoto } from "./photo-picker";
 import { units } from "./verdict-panel";
-
-const FRACTIONS = ["1/8", "1/4", "3/8", "1/2", "5/8", "3/4", "7/8"];
-/** The odd sixteenths, added to the keys while a finer second reading is typed. */
-const SIXTEENTHS = ["1/16", "3/16", "5/16", "7/16", "9/16", "11/16", "13/16", "15/16"];
 
 function FieldError({ message }: { message?: string }) {
   return message ? (
@@ -50,45 +49,6 @@ type LengthBox =
   | `rereadStrokes.${number}.value`
   | `gaugeSteps.${number}.reading`;
 
-/**
- * One row of fraction keys for every inch reading: the numeric keypad has no slash, gloves want
- * big keys, and one row (for the box last touched) keeps the form on one screen.
- */
-function FractionKeys({
-  target,
-  onPick,
-  fine,
-}: {
-  target: string;
-  onPick: (fraction: string) => void;
-  /** A finer second reading is typed: the sixteenths join the eighths. */
-  fine: boolean;
-}) {
-  return (
-    <div
-      className="flex flex-wrap items-center gap-1"
-      role="group"
-      aria-label="Fraction keys"
-      data-testid="fraction-keys"
-    >
-      <span className="mr-1 text-base text-ink-soft" aria-hidden="true">
-        Fraction for <strong>{target}</strong>:
-      </span>
-      {(fine ? [...FRACTIONS, ...SIXTEENTHS].sort((a, b) => inSixteenths(a) - inSixteenths(b)) : FRACTIONS).map((f) => (
-        <button key={f} type="button" className="btn-quiet min-w-touch px-2" onClick={() => onPick(f)}>
-          {f}
-        </button>
-      ))}
-    </div>
-  );
-}
-
-/** A fraction in sixteenths, for ordering the keys. */
-function inSixteenths(fraction: string): number {
-  const [n, d] = fraction.split("/").map(Number);
-  return (n! * 16) / d!;
-}
-
 function NumberBox(props: {
   id: string;
   label: string;
@@ -105,13 +65,11 @@ function NumberBox(props: {
         {props.label} <span className="normal-case">({props.unit})</span>
       </label>
       <input
-        id={props.id}
         type="text"
         inputMode={props.numeric ? "numeric" : "decimal"}
         autoComplete="off"
         className="field-input text-lead tabular-nums"
-        aria-invalid={Boolean(props.error)}
-        aria-describedby={props.hint ? `${props.id}-hint` : undefined}
+        {...fieldAria(props.id, { hint: props.hint, error: props.error })}
         placeholder={props.hint}
         onFocus={props.onFocus}
         {...props.reg}
@@ -121,7 +79,7 @@ function NumberBox(props: {
           {props.hint}
         </span>
       )}
-      <FieldError message={props.error} />
+      <BoxError id={`${props.id}-error`} messages={props.error ? [props.error] : undefined} alert />
     </div>
   );
 }
@@ -435,7 +393,7 @@ export function RecordForm({
                   : `Stroke ${Number(box.split(".")[1]) + 1}`;
   const pickFraction = (fraction: string) => {
     const now = String(getValues(typing) ?? "");
-    setValue(typing, `${now.replace(/\s*-?\s*\d+\/\d+\s*$/, "").trim() || "0"} ${fraction}`, {
+    setValue(typing, withFraction(now, fraction), {
       shouldDirty: true,
     });
   };

@@ -290,6 +290,9 @@ test("gauge steps entered offline are saved, synced and judged along their least
   await steps.getByLabel("Step 5 pressure").fill(tooHigh);
   await save.click();
   await expect(steps.getByText(/Step 5 pressure outside the calibrated range .* psi to .* psi/)).toBeVisible();
+  // The message is tied to its box, so a screen reader reads it with the box.
+  await expect(steps.getByLabel("Step 5 pressure")).toHaveAttribute("aria-invalid", "true");
+  await expect(steps.getByLabel("Step 5 pressure")).toHaveAccessibleDescription(/outside the calibrated range/);
   await expect(page.getByTestId("verdict")).toHaveCount(0);
   await steps.getByLabel("Step 5 pressure").fill(psi);
   await steps.scrollIntoViewIfNeeded();
