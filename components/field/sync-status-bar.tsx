@@ -2,7 +2,7 @@
 import { useEffect, useState } from "react";
 import { useFieldIfOpen } from "./field-provider";
 import { StorageProtection } from "./storage-protection";
-import { ago, clockTime, useNow } from "./use-live";
+import { ago, recentClockTime, useNow } from "./use-live";
 
 function useOnline(): boolean {
   const [online, setOnline] = useState(true);
@@ -104,7 +104,7 @@ export function SyncStatusBar() {
             meta === undefined
               ? "…"
               : meta.lastConfirmedSyncAt
-                ? `${clockTime(meta.lastConfirmedSyncAt)} (${ago(meta.lastConfirmedSyncAt, now)})`
+                ? `${recentClockTime(meta.lastConfirmedSyncAt, now)} (${ago(meta.lastConfirmedSyncAt, now)})`
                 : "never"
           }
         />

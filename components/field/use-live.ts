@@ -1,5 +1,5 @@
 "use client";
-import { formatDateTime } from "@/lib/format/dates";
+import { formatDateTime, formatRecentDateTime } from "@/lib/format/dates";
 import { useEffect, useState } from "react";
 
 /** A clock that ticks, for "5 min ago" labels. */
@@ -28,5 +28,13 @@ export function ago(iso: string | null | undefined, now: number): string {
  */
 export function clockTime(iso: string | null | undefined): string {
   if (!iso) return "—";
-  return formatDateTime(iso, Intl.DateTimeFormat().resolvedOptions().timeZone || "UTC");
+  return formatDateTime(iso, tabletZone());
 }
+
+/** As `clockTime`, the date left out when it is today (the status bar has one line to hold it). */
+export function recentClockTime(iso: string | null | undefined, now: number): string {
+  if (!iso) return "—";
+  return formatRecentDateTime(iso, tabletZone(), now);
+}
+
+const tabletZone = () => Intl.DateTimeFormat().resolvedOptions().timeZone || "UTC";

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import {
+  formatRecentDateTime,
   dayBounds,
   dayInZone,
   formatAge,
@@ -66,5 +67,16 @@ describe("a date-and-time box in the project's zone", () => {
     expect(instantFromLocalInput("", "UTC")).toBeNull();
     expect(instantFromLocalInput("2026-06-31T10:00", "UTC")).toBeNull();
     expect(instantFromLocalInput("yesterday", "UTC")).toBeNull();
+  });
+});
+
+describe("formatRecentDateTime", () => {
+  it("gives the time alone on the same day in the zone, the date too on another", () => {
+    // 2026-12-02 23:30 UTC is 17:30 CST the same day in Chicago (UTC−6 in December; IANA tz database).
+    const now = "2026-12-02T23:40:00Z";
+    expect(formatRecentDateTime("2026-12-02T23:30:00Z", "America/Chicago", now)).toBe("17:30 CST");
+    // 05:30 UTC on the 2nd is 23:30 CST on the 1st: another day in Chicago.
+    expect(formatRecentDateTime("2026-12-02T05:30:00Z", "America/Chicago", now)).toBe("2026-12-01 23:30 CST");
+    expect(formatRecentDateTime("2026-12-02T05:30:00Z", "UTC", now)).toBe("05:30 UTC");
   });
 });

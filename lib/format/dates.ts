@@ -22,6 +22,15 @@ export function formatDateTime(instant: Instant, timeZone: string): string {
   return `${format(inZone(instant, timeZone), "yyyy-MM-dd HH:mm")} ${zoneName(instant, timeZone)}`;
 }
 
+/**
+ * "14:05 CST" for a moment of the same day as `now` in the zone, else as `formatDateTime`: where
+ * room is short and the moment is usually recent (the tablet's last sync).
+ */
+export function formatRecentDateTime(instant: Instant, timeZone: string, now: Instant = Date.now()): string {
+  if (formatDay(instant, timeZone) !== formatDay(now, timeZone)) return formatDateTime(instant, timeZone);
+  return `${format(inZone(instant, timeZone), "HH:mm")} ${zoneName(instant, timeZone)}`;
+}
+
 /** The zone's short name at that moment ("CST", "CDT"; "UTC+1" where no short name is in use). */
 export function zoneName(instant: Instant, timeZone: string): string {
   const part = new Intl.DateTimeFormat("en-US", { timeZone, timeZoneName: "short" })

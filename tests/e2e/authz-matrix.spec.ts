@@ -247,7 +247,8 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     },
     "PATCH /api/projects/[projectId]/pours/[pourId]": {
       fixture: throwawayPour,
-      call: (c, id) => c.patch(`/api/projects/${projectId}/pours/${id}`, { data: pourBody(`Matrix pour ${id}`) }),
+      call: (c, id) =>
+        c.patch(`/api/projects/${projectId}/pours/${id}`, { data: pourBody(`Matrix pour renamed ${stamp()}`) }),
     },
     "GET /api/projects/[projectId]/pours/[pourId]/tendons": {
       fixture: demoPourId,

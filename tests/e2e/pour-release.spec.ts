@@ -10,7 +10,7 @@ import { makePourFixture, pushEndA } from "./pour-fixture";
  */
 
 const stamp = Date.now().toString(36);
-const POUR = `Release check ${stamp}`;
+const POUR = `Sign-off pour ${stamp}`;
 
 test("an admin cannot release a pour, and the pour form offers no status", async ({ page }) => {
   const fx = await makePourFixture(`Admin check ${stamp}`, [`AD-${stamp}`]);

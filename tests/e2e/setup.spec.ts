@@ -1,6 +1,7 @@
 import { expect, test } from "@playwright/test";
-import { PEOPLE, signInWithPassword } from "./people";
+import { PEOPLE, queryDemo, signInWithPassword } from "./people";
 import { screenshot } from "./support";
+import { dayInZone } from "@/lib/format/dates";
 
 // Builds a throwaway pour, lot and equipment set of its own on the demo project, so the demo
 // data other specs rely on stays as it is.
@@ -149,7 +150,9 @@ test("an admin sets up a pour, imports its schedule, adds a strand lot and a cal
   // The add form, not the correction forms folded on each stored calibration's card.
   const addCalibration = page.locator("form", { has: page.getByRole("heading", { name: "Add a calibration" }) });
   await addCalibration.getByLabel("Equipment set").selectOption({ label: SET });
-  const today = new Date().toISOString().slice(0, 10);
+  // Today at the site: a calibration dated after the site's day would not be in force yet.
+  const [site] = await queryDemo<{ time_zone: string }>("select time_zone from projects where code = 'AYP'");
+  const today = dayInZone(Date.now(), site!.time_zone);
   await addCalibration.getByLabel("Calibrated on").fill(today);
   // 1000 psi steps at 5.9 kip per 1000 psi, less 0.2 kip: an invented line for the test.
   await addCalibration
