@@ -503,7 +503,13 @@ function TendonPanel(props: {
         {records.length > 0 && (
           <>
             {props.justSaved && (
-              <p className="font-bold portrait:order-first portrait:col-span-2" role="status" data-testid="saved-note">
+              <p
+                // Spanning two columns is only for the two-column portrait beside the form: in a one-column
+                // grid a span of two makes an implicit second column and squeezes every card into it.
+                className={`font-bold ${showForm ? "portrait:order-first portrait:col-span-2" : ""}`}
+                role="status"
+                data-testid="saved-note"
+              >
                 {newest?.syncState === "synced"
                   ? "Saved on this tablet and received by the server."
                   : "Saved on this tablet. It is sent when there is signal."}
@@ -521,6 +527,7 @@ function TendonPanel(props: {
               }
               settled={props.state !== "flagged"}
               targetMPa={target}
+              holds={holdsOf(props.flags)}
             />
             <section aria-label="Readings" className="card grid gap-2">
               <h3 className="font-bold">Readings</h3>

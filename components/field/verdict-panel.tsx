@@ -9,7 +9,7 @@ import {
   showPressure,
   type StoredResolution,
 } from "@/lib/format/quantities";
-import { verdictHolds } from "@/lib/offline/hold-view";
+import { heldUntil, type Hold, verdictHolds } from "@/lib/offline/hold-view";
 import { flagLabel } from "@/lib/schemas/flag";
 import { showBandAsRead, showPredictedAsRead } from "@/lib/stressing/display";
 
@@ -99,6 +99,7 @@ export function VerdictPanel({
   server,
   settled = false,
   targetMPa,
+  holds = [],
 }: {
   project: FieldProject;
   local: LocalVerdict | null;
@@ -106,6 +107,8 @@ export function VerdictPanel({
   /** The tendon is not held: every flag on it is closed by the engineer's or inspector's decision. */
   settled?: boolean;
   targetMPa: number | null;
+  /** The tendon's open flags with the engineer's dispositions of the last sync: the words about the tails follow them. */
+  holds?: Hold[];
 }) {
   const u = units(project);
   // Once the server has judged, its verdict is the one that stands; the tablet's own is only until then.
@@ -146,7 +149,7 @@ export function VerdictPanel({
               data-testid="held-in-band"
             >
               Elongation in band, but {server ? "flagged" : "the server will flag"}: {holding.map(flagLabel).join("; ")}
-              . Do not cut the tails or grout until the engineer of record decides.
+              . {heldUntil(holds)}
             </p>
           )}
           {local.measuredMm !== null &&
@@ -228,8 +231,9 @@ export function VerdictPanel({
               <p
                 className="rounded-md border-2 border-signal-stop bg-signal-stop-bg p-3 font-bold text-signal-stop"
                 role="alert"
+                data-testid="out-of-band-hold"
               >
-                Out of band: do not cut the tails or grout until the engineer of record gives a disposition.
+                Out of band. {heldUntil(holds)}
               </p>
             ))}
         </>

@@ -11,6 +11,7 @@ import {
   XAxis,
   YAxis,
 } from "recharts";
+import { showPct } from "@/lib/format/quantities";
 import { VERDICT_MARKS, type DeviationPoint } from "./verdict-marks";
 
 /** The deviation chart's drawing (recharts), loaded only where the chart is shown. */
@@ -33,7 +34,7 @@ export function DeviationPlot({ points, tolerancePct }: { points: DeviationPoint
           dataKey="deviationPct"
           type="number"
           domain={[-Math.ceil(extent), Math.ceil(extent)]}
-          tickFormatter={(v: number) => `${v > 0 ? "+" : ""}${v} %`}
+          tickFormatter={(v: number) => `${v > 0 ? "+" : v < 0 ? "−" : ""}${Math.abs(v)} %`}
           label={{ value: "deviation, %", angle: -90, position: "left", offset: 0 }}
         />
         <ReferenceLine
@@ -53,7 +54,7 @@ export function DeviationPlot({ points, tolerancePct }: { points: DeviationPoint
         />
         <Tooltip
           cursor={{ strokeDasharray: "3 3" }}
-          formatter={(value, name) => (name === "deviation" ? `${Number(value).toFixed(1)} %` : String(value))}
+          formatter={(value, name) => (name === "deviation" ? showPct(Number(value)) : String(value))}
           labelFormatter={() => ""}
           content={({ payload }) => {
             const p = payload?.[0]?.payload as DeviationPoint | undefined;

@@ -78,7 +78,9 @@ export function ReleaseList({
                   <ReleaseForm projectId={p.projectId} pourId={p.pourId} pourName={p.pourName} />
                 ) : (
                   <p className="mt-2 font-semibold">
-                    {clear ? "Ready; released by the role the project names." : "Cannot be released yet."}
+                    {clear
+                      ? `Ready for release: the ${p.releaseBy === "engineer" ? "engineer of record" : "special inspector"} releases it.`
+                      : "Cannot be released yet."}
                   </p>
                 )}
               </>

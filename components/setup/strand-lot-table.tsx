@@ -6,19 +6,19 @@ import { useCallback, useMemo } from "react";
 import type { StrandLotView } from "@/lib/server/list-strand-lots";
 import { compareText, readSorting, SetupTable, setupFeatures, sortingParams, useUrlView } from "./url-table";
 import { RefreshError, useRouteData } from "./use-route-data";
+import { showPct } from "@/lib/format/quantities";
 import { MM2_PER_IN2, MPA_PER_KSI, N_PER_KIP } from "@/lib/units";
 
 /** The route handler that lists the project's strand lots; also the swr key the lot form refreshes. */
 export const strandLotsKey = (projectId: string) => `/api/projects/${projectId}/strand-lots`;
 
 const SORTS = ["lot", "size", "area", "modulus", "breaking", "ae", "tendons"] as const;
-const signed = (pct: number) => `${pct > 0 ? "+" : ""}${pct.toFixed(1)} %`;
 const byNumber = (a: number | null | undefined, b: number | null | undefined) =>
   (a ?? -Infinity) - (b ?? -Infinity) || 0;
 const helper = createColumnHelper<typeof setupFeatures, StrandLotView>();
 
 function Against({ pct }: { pct: number | undefined }) {
-  return pct === undefined ? null : <span className="block text-label text-ink-soft">{signed(pct)}</span>;
+  return pct === undefined ? null : <span className="block text-label text-ink-soft">{showPct(pct)}</span>;
 }
 
 function lotColumns(projectId: string, us: boolean, editHref: (lotId: string) => string) {
@@ -77,7 +77,7 @@ function lotColumns(projectId: string, us: boolean, editHref: (lotId: string) =>
       sortFn: (a, b, id) => byNumber(a.getValue<number | null>(id), b.getValue<number | null>(id)),
       cell: (c) => {
         const pct = c.getValue();
-        return <span className="font-semibold">{pct === null ? "—" : signed(pct)}</span>;
+        return <span className="font-semibold">{pct === null ? "—" : showPct(pct)}</span>;
       },
     }),
     helper.accessor("tendonCount", {

@@ -73,11 +73,31 @@ function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolu
       cell: (c) => (
         <Link
           href={`/projects/${projectId}/tendons/${c.row.original.id}`}
-          className="inline-flex min-h-touch items-center font-semibold"
+          className="inline-flex min-h-touch items-center whitespace-nowrap font-semibold"
         >
           {c.getValue()}
         </Link>
       ),
+    }),
+    // The latest verdict beside the tag: the two columns people look for stay in sight when the rest scrolls.
+    helper.display({
+      id: "verdict",
+      header: "Latest verdict",
+      cell: (c) => {
+        const latest = c.row.original.latest;
+        return latest ? (
+          <Link href={`/projects/${projectId}/tendons/${c.row.original.id}/flags`} className="no-underline">
+            <VerdictBadge
+              verdict={latest.verdict}
+              deviationPct={latest.deviationPct}
+              provisional={latest.provisional}
+            />
+            <span className="sr-only"> readings and flags of {c.row.original.tag}</span>
+          </Link>
+        ) : (
+          <span className="text-ink-faint">not stressed</span>
+        );
+      },
     }),
     helper.accessor("kind", {
       header: "Type",
@@ -144,25 +164,6 @@ function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolu
             ))}
           </ul>
         ),
-    }),
-    helper.display({
-      id: "verdict",
-      header: "Latest verdict",
-      cell: (c) => {
-        const latest = c.row.original.latest;
-        return latest ? (
-          <Link href={`/projects/${projectId}/tendons/${c.row.original.id}/flags`} className="no-underline">
-            <VerdictBadge
-              verdict={latest.verdict}
-              deviationPct={latest.deviationPct}
-              provisional={latest.provisional}
-            />
-            <span className="sr-only"> readings and flags of {c.row.original.tag}</span>
-          </Link>
-        ) : (
-          <span className="text-ink-faint">not stressed</span>
-        );
-      },
     }),
     helper.display({
       id: "shop",

@@ -27,7 +27,7 @@ export function VerdictBadge({
   const s = STYLE[verdict];
   return (
     <span
-      className={`inline-flex min-h-touch items-center gap-2 rounded-md border-2 px-3 font-bold ${s.cls}`}
+      className={`inline-flex min-h-touch items-center gap-2 whitespace-nowrap rounded-md border-2 px-3 font-bold ${s.cls}`}
       data-verdict={verdict}
     >
       <svg viewBox="0 0 24 24" className="h-5 w-5" aria-hidden="true">

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { FieldFlag } from "@/lib/schemas/sync";
-import { cutClearanceOf, holdsOf, holdSummary, verdictHolds, WAITING_INSTRUCTION } from "./hold-view";
+import { cutClearanceOf, heldUntil, holdsOf, holdSummary, verdictHolds, WAITING_INSTRUCTION } from "./hold-view";
 
 const flag = (over: Partial<FieldFlag>): FieldFlag => ({
   id: crypto.randomUUID(),
@@ -207,5 +207,39 @@ describe("verdictHolds", () => {
   it("holds nothing once every flag is closed by a decision, and nothing without a verdict", () => {
     expect(verdictHolds({ settled: true, server: { flagKinds: ["out_of_band"] }, local: null })).toEqual([]);
     expect(verdictHolds({ settled: false, server: null, local: null })).toEqual([]);
+  });
+});
+
+describe("heldUntil", () => {
+  const decided = (decision: "restress" | "accept" | "replace") => ({
+    decision,
+    reasons: "As discussed on site.",
+    engineerName: "P. Raman",
+    createdAt: "2026-12-02T16:00:00.000Z",
+  });
+
+  it("waits for a disposition while no flag has one, and on the tablet's own check", () => {
+    expect(heldUntil(holdsOf([flag({})]))).toBe(
+      "Do not cut the tails or grout until the engineer of record gives a disposition.",
+    );
+    expect(heldUntil([])).toMatch(/until the engineer of record gives a disposition/);
+  });
+
+  it("says what the disposition orders once it has come, not that one is awaited", () => {
+    const words = heldUntil(holdsOf([flag({ status: "with_engineer", dispositions: [decided("restress")] })]));
+    expect(words).toMatch(/^The engineer of record's disposition: restress ordered\. Restress this tendon/);
+    expect(words).not.toMatch(/gives a disposition/);
+    // An order on one flag is said even while another flag still waits for its own.
+    const both = holdsOf([
+      flag({ kind: "wire_break", createdAt: "2026-12-02T14:00:00.000Z" }),
+      flag({ dispositions: [decided("replace")] }),
+    ]);
+    expect(heldUntil(both)).toMatch(/disposition: replacement ordered/);
+  });
+
+  it("with every disposition an acceptance, names what is left: the flag's closing at the next sync", () => {
+    const words = heldUntil(holdsOf([flag({ dispositions: [decided("accept")] })]));
+    expect(words).toMatch(/^Accepted by the engineer of record: the hold lifts when the next sync closes the flag/);
+    expect(words).not.toMatch(/gives a disposition/);
   });
 });

@@ -167,3 +167,17 @@ export function verdictHolds(input: {
   if (input.server) return input.server.flagKinds;
   return input.local?.flagKinds ?? [];
 }
+
+/**
+ * What the verdict box tells the crew about the tails, after why the tendon is held: the order once
+ * the engineer of record has given one, the disposition still awaited while some flag has none, and
+ * the flag's closing at the next sync once every disposition accepts.
+ */
+export function heldUntil(holds: Hold[]): string {
+  const ordered = holds.find((h) => h.decision && h.decision.decision !== "accept");
+  if (ordered?.decision)
+    return `The engineer of record's disposition: ${DECISION_WORDS[ordered.decision.decision]}. ${ordered.instruction} Tails and grout wait until the tendon is clear.`;
+  if (!holds.length || holds.some((h) => !h.decision))
+    return "Do not cut the tails or grout until the engineer of record gives a disposition.";
+  return "Accepted by the engineer of record: the hold lifts when the next sync closes the flag. Do not cut the tails or grout until then.";
+}

@@ -171,7 +171,10 @@ export async function getDailyReport(
       : undefined,
   ]);
 
-  const reports = await Promise.all(active.map((p) => getPourReport(db, { projectId: input.projectId, pourId: p.id })));
+  // Each pour's report from the project row read above: one read of the project, not one per pour.
+  const reports = await Promise.all(
+    active.map((p) => getPourReport(db, { projectId: input.projectId, pourId: p.id }, { project })),
+  );
   const inDay = (d: Date) => onReportDay(d, input.day, timeZone);
   const pours: DailyPour[] = reports
     .map((report) => ({

@@ -2,7 +2,7 @@ import { projectTimeZone } from "@/lib/format/dates";
 import "server-only";
 import { reference } from "@/lib/format/references";
 import { projectBasisFromRow } from "@/lib/stressing/basis";
-import type { Kysely } from "kysely";
+import type { Kysely, Selectable } from "kysely";
 import type { Database, Decision, FlagKind, FlagStatus, ReviewKind } from "@/db/types";
 import { ENGINE_VERSION } from "@/lib/elongation";
 import { AppError } from "@/lib/errors";
@@ -134,11 +134,21 @@ export { reference };
 
 const asDay = (d: Date | string) => (typeof d === "string" ? d.slice(0, 10) : d.toISOString().slice(0, 10));
 
+type ProjectRow = Selectable<Database["projects"]>;
+
+/**
+ * `project` is the project's row when the caller has read it already (the daily report draws
+ * every pour of a day from one read); it must be the row of `input.projectId`.
+ */
 export async function getPourReport(
   db: Kysely<Database>,
   input: { projectId: string; pourId: string },
+  preread?: { project?: ProjectRow },
 ): Promise<PourReport> {
-  const project = await db.selectFrom("projects").selectAll().where("id", "=", input.projectId).executeTakeFirst();
+  const project =
+    preread?.project && preread.project.id === input.projectId
+      ? preread.project
+      : await db.selectFrom("projects").selectAll().where("id", "=", input.projectId).executeTakeFirst();
   const pour = await db
     .selectFrom("pours")
     .leftJoin("users", "users.id", "pours.concrete_confirmed_by")
@@ -159,45 +169,58 @@ export async function getPourReport(
     .executeTakeFirst();
   if (!project || !pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
 
-  const [tendons, records, { flags, reviews, dispositions }, release, flagNumbers, dispositionNumbers, detensions] =
-    await Promise.all([
-      listTendonResults(db, input),
-      listPourRecords(db, { ...input, projectBasis: project.comparison_basis, timeZone: projectTimeZone(project) }),
-      findFlagTrail(db, { projectId: input.projectId, pourId: input.pourId }),
-      findStandingRelease(db, input),
-      db.selectFrom("flags").select(["id", "number as n"]).where("project_id", "=", input.projectId).execute(),
-      db.selectFrom("dispositions").select(["id", "number as n"]).where("project_id", "=", input.projectId).execute(),
-      db
-        .selectFrom("detensions")
-        .innerJoin("equipment_sets", (j) =>
-          j
-            .onRef("equipment_sets.id", "=", "detensions.equipment_set_id")
-            .onRef("equipment_sets.project_id", "=", "detensions.project_id"),
-        )
-        .innerJoin("users", "users.id", "detensions.recorded_by")
-        .select([
-          "detensions.tendon_id",
-          "detensions.disposition_id",
-          "detensions.detensioned_at",
-          "detensions.operator_name",
-          "detensions.entered",
-          "detensions.release_pressure_mpa",
-          "detensions.strands_detensioned",
-          "detensions.remarks",
-          "equipment_sets.name",
-          "equipment_sets.jack_serial",
-          "equipment_sets.gauge_serial",
-          "equipment_sets.pump_serial",
-          "users.name as recorded_by_name",
-        ])
-        .where("detensions.project_id", "=", input.projectId)
-        .where("detensions.pour_id", "=", input.pourId)
-        .orderBy("detensions.detensioned_at")
-        .orderBy("detensions.id")
-        .execute(),
-    ]);
-  const flagRef = new Map(flagNumbers.map((f) => [f.id, reference("F", Number(f.n))]));
-  const dispositionRef = new Map(dispositionNumbers.map((d) => [d.id, reference("D", Number(d.n))]));
+  const [tendons, records, { flags, reviews, dispositions }, release, detensions] = await Promise.all([
+    listTendonResults(db, input),
+    listPourRecords(db, { ...input, projectBasis: project.comparison_basis, timeZone: projectTimeZone(project) }),
+    findFlagTrail(db, { projectId: input.projectId, pourId: input.pourId }),
+    findStandingRelease(db, input),
+    db
+      .selectFrom("detensions")
+      .innerJoin("equipment_sets", (j) =>
+        j
+          .onRef("equipment_sets.id", "=", "detensions.equipment_set_id")
+          .onRef("equipment_sets.project_id", "=", "detensions.project_id"),
+      )
+      .innerJoin("users", "users.id", "detensions.recorded_by")
+      .select([
+        "detensions.tendon_id",
+        "detensions.disposition_id",
+        "detensions.detensioned_at",
+        "detensions.operator_name",
+        "detensions.entered",
+        "detensions.release_pressure_mpa",
+        "detensions.strands_detensioned",
+        "detensions.remarks",
+        "equipment_sets.name",
+        "equipment_sets.jack_serial",
+        "equipment_sets.gauge_serial",
+        "equipment_sets.pump_serial",
+        "users.name as recorded_by_name",
+      ])
+      .where("detensions.project_id", "=", input.projectId)
+      .where("detensions.pour_id", "=", input.pourId)
+      .orderBy("detensions.detensioned_at")
+      .orderBy("detensions.id")
+      .execute(),
+  ]);
+  // The references come with the pour's flag trail (each row keeps its number). A disposition named
+  // elsewhere (a detension's order, a closing's words) that is not on this pour's flags is read by id,
+  // on this project only: none in the usual case, so no read of the project's every flag per report.
+  const flagRef = new Map(flags.map((f) => [f.id, f.reference]));
+  const dispositionRef = new Map(dispositions.map((d) => [d.id, d.reference]));
+  const named = [
+    ...detensions.map((d) => d.disposition_id),
+    ...flags.flatMap((f) => [...(f.close_reason ?? "").matchAll(/disposition ([0-9a-f-]{36})/g)].map((m) => m[1]!)),
+  ];
+  const stray = [...new Set(named.filter((id) => !dispositionRef.has(id)))];
+  if (stray.length)
+    for (const d of await db
+      .selectFrom("dispositions")
+      .select(["id", "number as n"])
+      .where("project_id", "=", input.projectId)
+      .where("id", "in", stray)
+      .execute())
+      dispositionRef.set(d.id, reference("D", Number(d.n)));
 
   // The sets used on this pour and the lots its tendons name.
   const setIds = [...new Set(tendons.flatMap((t) => t.endResults.map((r) => r.equipmentSetId)))];

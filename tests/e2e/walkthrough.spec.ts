@@ -64,6 +64,7 @@ async function look(page: Page, name: string, { addresses = false } = {}): Promi
   expect.soft(text, `${name}: the browser's own error words`).not.toContain("Failed to fetch");
   expect.soft(doubledWords(text), `${name}: a word written twice`).toEqual([]);
   expect.soft(text, `${name}: one thing counted in the plural`).not.toMatch(ONE_IN_PLURAL);
+  expect.soft(text, `${name}: a hyphen for the minus sign`).not.toMatch(/(?<![\w-])-\d+(\.\d+)? ?%/);
   if (!addresses) expect.soft(text, `${name}: a person named by e-mail address`).not.toMatch(DEMO_ADDRESS);
   // Wherever a verdict is shown, the caution is on the same page.
   if ((await page.locator("[data-verdict]").count()) > 0)
@@ -71,6 +72,29 @@ async function look(page: Page, name: string, { addresses = false } = {}): Promi
       .soft(page.getByRole("note", { name: "Caution" }).first(), `${name}: a verdict without the caution`)
       .toBeVisible();
   return text;
+}
+
+/**
+ * On a desktop the pour schedule shows its key columns, the tag and the latest verdict, inside the
+ * table's own box without scrolling it sideways, and the verdict chip stands on one line.
+ */
+async function expectKeyColumnsInSight(page: Page) {
+  const region = page.getByRole("region", { name: "Tendon schedule, scrolls sideways" });
+  const box = (await region.boundingBox())!;
+  for (const name of ["Tag", "Latest verdict"]) {
+    const header = (await region.getByRole("columnheader", { name }).boundingBox())!;
+    expect(header.x + header.width, `the ${name} column inside the schedule's box`).toBeLessThanOrEqual(
+      box.x + box.width,
+    );
+  }
+  const chip = region.locator("[data-verdict]").first();
+  const lines = await chip.evaluate((el) => {
+    const height = el.getBoundingClientRect().height;
+    const line = parseFloat(getComputedStyle(el).lineHeight);
+    return { height, line, wraps: getComputedStyle(el).whiteSpace };
+  });
+  expect(lines.wraps, "the verdict chip does not wrap").toBe("nowrap");
+  expect(lines.height, "the verdict chip on one line").toBeLessThan(2 * lines.line);
 }
 
 /** On a desktop the photo link is in sight, not cut off past the side of the records table. */
@@ -236,11 +260,25 @@ test("one pour from the slab edge to the signed report, as each person sees it",
   await expect(hold.getByTestId("hold-instruction")).toContainText("restress to the same gauge pressure");
   await expect(hold).toContainText(people!.engineer);
   await expect(tablet.getByTestId("tail-cut")).toHaveAttribute("data-cut", "held");
+  // The verdict box follows the disposition: it says what was ordered, not that one is awaited.
+  const outOfBand = tablet.getByTestId("out-of-band-hold");
+  await expect(outOfBand).toContainText("The engineer of record's disposition: restress ordered.");
+  await expect(outOfBand).not.toContainText("gives a disposition");
   await look(tablet, "crew-order-landscape");
   await tablet.setViewportSize(PORTRAIT);
   await look(tablet, "crew-order-portrait");
   // What the crew sees without scrolling, as the full-page shot stretches the page.
   await tablet.screenshot({ path: "test-results/screens/walk-crew-order-portrait-screen.png" });
+  // In portrait with no form open the tendon's cards stand in one column, at their own heights: the
+  // restress button keeps its glove size and is not stretched to the height of a card beside it.
+  const status = tablet.getByTestId("tendon-status");
+  expect(
+    await status.evaluate((el) => getComputedStyle(el).gridTemplateColumns.split(" ").length),
+    "one column of tendon cards in portrait",
+  ).toBe(1);
+  const restress = await tablet.getByRole("button", { name: "Record a restress" }).boundingBox();
+  expect(restress!.height, "the restress button at glove size, not stretched").toBeGreaterThanOrEqual(48);
+  expect(restress!.height, "the restress button at glove size, not stretched").toBeLessThan(100);
 
   await tablet.getByRole("button", { name: "Record a restress" }).click();
   const form = tablet.getByRole("form", { name: "New record" });
@@ -316,6 +354,12 @@ test("one pour from the slab edge to the signed report, as each person sees it",
   await office.goto(`/projects/${fx.projectId}/daily`);
   await expect(office.getByRole("heading", { level: 1 })).toBeVisible();
   await look(office, "inspector-daily");
+  // The pour is clear now: the engineer's Today says in plain words who releases it.
+  await desk.goto("/home");
+  await expect(desk.locator(`[data-pour="${POUR}"]`)).toContainText(
+    "Ready for release: the engineer of record releases it.",
+  );
+  await look(desk, "engineer-home-ready");
   await desk.goto(`/projects/${fx.projectId}/flag-mail`);
   await expect(desk.getByRole("heading", { level: 1 })).toBeVisible();
   // Both choices have a radio of the same size: the long label does not squeeze its box.
@@ -343,6 +387,7 @@ test("one pour from the slab edge to the signed report, as each person sees it",
     await a.goto(path);
     await expect(a.getByRole("heading", { level: 1 })).toBeVisible();
     await look(a, name, opts);
+    if (name === "admin-schedule") await expectKeyColumnsInSight(a);
   }
   await a.goto(`/projects/${fx.projectId}/tendons/${tendonId}`);
   await expect(a.locator("main:not([aria-busy])")).toContainText(TAG);

@@ -3,6 +3,7 @@ import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Database } from "@/db/types";
 import { findFlags } from "@/lib/server/find-flags";
+import { getDailyReport } from "@/lib/server/get-daily-report";
 import { getPourReport } from "@/lib/server/get-pour-report";
 import { listTendonResults } from "@/lib/server/list-tendon-results";
 import { listTendons } from "@/lib/server/list-tendons";
@@ -22,12 +23,21 @@ import { createTestDatabase, type TestDatabase } from "../support/database";
 let t: TestDatabase;
 let counting: Kysely<Database>;
 let statements = 0;
+let sent: string[] = [];
 type Crew = Pusher & Pick<SessionUser, "memberships">;
-const small = { tendons: 3 } as { tendons: number; project: BenchProject; crew: Crew };
-const large = { tendons: 40 } as { tendons: number; project: BenchProject; crew: Crew };
+type Stored = { tendons: number; pours?: number; project: BenchProject; crew: Crew };
+const small = { tendons: 3 } as Stored;
+const large = { tendons: 40 } as Stored;
+/** Three pours of two tendons, every pour stressed on the same day, for the daily report. */
+const several = { tendons: 2, pours: 3 } as Stored;
 
-async function stored(which: typeof small, code: string) {
-  which.project = await seedBenchProject(t.db, { code, pours: 1, tendonsPerPour: which.tendons, outOfBandEvery: 1 });
+async function stored(which: Stored, code: string) {
+  which.project = await seedBenchProject(t.db, {
+    code,
+    pours: which.pours ?? 1,
+    tendonsPerPour: which.tendons,
+    outOfBandEvery: 1,
+  });
   const user = await t.db
     .selectFrom("users")
     .select("id")
@@ -37,26 +47,33 @@ async function stored(which: typeof small, code: string) {
     id: user.id,
     memberships: [{ projectId: which.project.projectId, projectName: "Bench", projectCode: code, role: "crew" }],
   };
-  const ops = which.project.opsByPour[0]!.map(toSyncOp);
+  const ops = which.project.opsByPour.flat().map(toSyncOp);
   const { results } = await pushOps(t.db, { user: which.crew, deviceId: `count-${code}-tablet`, ops });
   expect(results.map((r) => r.status)).toEqual(ops.map(() => "applied"));
 }
 
 /** Runs a read through the counting instance; answers what it returned and how many statements it sent. */
-async function count<T>(read: (db: Kysely<Database>) => Promise<T>): Promise<{ result: T; statements: number }> {
+async function count<T>(
+  read: (db: Kysely<Database>) => Promise<T>,
+): Promise<{ result: T; statements: number; sent: string[] }> {
   statements = 0;
+  sent = [];
   const result = await read(counting);
-  return { result, statements };
+  return { result, statements, sent };
 }
 
 beforeAll(async () => {
   t = await createTestDatabase({ migrate: true });
   await stored(small, "QCS");
   await stored(large, "QCL");
+  await stored(several, "QCD");
   counting = new Kysely<Database>({
     dialect: new PostgresDialect({ pool: new pg.Pool({ connectionString: t.url, max: 2 }) }),
     log: (event) => {
-      if (event.level === "query") statements++;
+      if (event.level === "query") {
+        statements++;
+        sent.push(event.query.sql);
+      }
     },
   });
 }, 120_000);
@@ -66,7 +83,7 @@ afterAll(async () => {
   await t?.drop();
 });
 
-const at = (w: typeof small) => ({ projectId: w.project.projectId, pourId: w.project.pourIds[0]! });
+const at = (w: Stored) => ({ projectId: w.project.projectId, pourId: w.project.pourIds[0]! });
 
 describe("statements per read do not grow with the tendons", () => {
   it("the tendon list of a pour", async () => {
@@ -92,6 +109,29 @@ describe("statements per read do not grow with the tendons", () => {
     const b = await count((db) => getPourReport(db, at(large)));
     expect(a.statements).toBeGreaterThan(0);
     expect(b.statements).toBe(a.statements);
+  });
+
+  it("the daily report: per pour only the pour's own reads, the project read once", async () => {
+    // The bench's records are all stressed at 10:00 UTC on 2026-12-02 (scripts/bench/harness.ts).
+    const day = (w: Stored) => (db: Kysely<Database>) =>
+      getDailyReport(db, { projectId: w.project.projectId, day: "2026-12-02" });
+    const a = await count(day(small));
+    const b = await count(day(large));
+    const c = await count(day(several));
+    expect(a.result.pours.map((p) => p.records.length)).toEqual([3]);
+    expect(b.result.pours.map((p) => p.records.length)).toEqual([40]);
+    expect(c.result.pours.map((p) => p.records.length)).toEqual([2, 2, 2]);
+    expect(a.statements).toBeGreaterThan(0);
+    expect(b.statements).toBe(a.statements);
+    // Three pours cost three pours' own reads, no more: the project row is read once for the day,
+    // and no report reads the project's every flag or disposition to name them.
+    const fromProjects = (sql: string[]) => sql.filter((q) => /from "projects"/.test(q)).length;
+    expect(fromProjects(a.sent)).toBe(1);
+    expect(fromProjects(c.sent)).toBe(1);
+    const projectWide = /^select "id", "number" as "n" from "(flags|dispositions)" where "project_id" = \$1$/;
+    expect(c.sent.filter((q) => projectWide.test(q))).toEqual([]);
+    const pourReport = await count((d) => getPourReport(d, at(small)));
+    expect(c.statements - a.statements).toBe(2 * (pourReport.statements - fromProjects(pourReport.sent)));
   });
 
   it("the review queue", async () => {

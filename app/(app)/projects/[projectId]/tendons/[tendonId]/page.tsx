@@ -148,7 +148,7 @@ export default async function TendonPage({ params }: { params: Promise<{ project
               {(computed.prediction.strand.modulusMPa / 1000).toFixed(1)} GPa
               {us ? ` (${(computed.prediction.strand.modulusMPa / MPA_PER_KSI).toFixed(0)} ksi)` : ""}.
               {computed.nominalPredictedMm !== null &&
-                ` On nominal values the prediction would be ${fine(computed.nominalPredictedMm)} (${(((computed.prediction.predictedMm - computed.nominalPredictedMm) / computed.nominalPredictedMm) * 100).toFixed(1)} % change from the lot).`}
+                ` On nominal values the prediction would be ${fine(computed.nominalPredictedMm)} (${showPct(((computed.prediction.predictedMm - computed.nominalPredictedMm) / computed.nominalPredictedMm) * 100)} change from the lot).`}
             </p>
             {computed.prediction.prediction.seating && (
               <p>
