@@ -1,6 +1,14 @@
 import { ForceProfileChart } from "@/components/review/force-profile-chart";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
-import { showComputedLength, showForce, showLength, showPct, showPressure } from "@/lib/format/quantities";
+import {
+  showArea,
+  showComputedLength,
+  showForce,
+  showLength,
+  showModulus,
+  showPct,
+  showPressure,
+} from "@/lib/format/quantities";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
 import { showBandEdge } from "@/lib/stressing/display";
 import { N_PER_KIP, wobblePerMToPerFt } from "@/lib/units";
@@ -157,7 +165,7 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
             />
             <Row
               label="Area per strand"
-              value={`${predicted.strand.areaMm2.toFixed(1)} mm²`}
+              value={showArea(p, predicted.strand.areaMm2)}
               source={
                 predicted.strand.source === "strand lot"
                   ? `Mill certificate, lot ${basis.lot?.lotNumber}`
@@ -166,7 +174,7 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
             />
             <Row
               label="Modulus E"
-              value={`${(predicted.strand.modulusMPa / 1000).toFixed(1)} GPa`}
+              value={showModulus(p, predicted.strand.modulusMPa)}
               source={
                 predicted.strand.source === "strand lot"
                   ? `Mill certificate, lot ${basis.lot?.lotNumber}`
