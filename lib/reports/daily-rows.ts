@@ -198,19 +198,37 @@ export function openExceptionLines(report: Pick<DailyReport, "openExceptions">):
   );
 }
 
+/**
+ * The statement of conformance and, when the work was not in conformance, the open exceptions
+ * (a screen lists them one per line; the PDF prints them in the sentence, `dailyConformanceLine`).
+ */
+export function dailyConformance(report: DailyReport): { statement: string; exceptions: string[] } {
+  const a = report.attestation;
+  if (!a)
+    return {
+      statement: "Not stated yet: the inspector states whether the work was in conformance when signing.",
+      exceptions: [],
+    };
+  if (a.conformance === "conforming")
+    return {
+      statement: "The work inspected this day WAS IN CONFORMANCE with the approved construction documents.",
+      exceptions: [],
+    };
+  const exceptions = openExceptionLines(report);
+  return {
+    statement:
+      "The work inspected this day WAS NOT IN CONFORMANCE with the approved construction documents. " +
+      (exceptions.length
+        ? "Open exceptions:"
+        : "No flag is open in Tautline; the inspector's remarks say what was not in conformance."),
+    exceptions,
+  };
+}
+
 /** The statement of conformance as it prints, with the open exceptions when the work was not in conformance. */
 export function dailyConformanceLine(report: DailyReport): string {
-  const a = report.attestation;
-  if (!a) return "Not stated yet: the inspector states whether the work was in conformance when signing.";
-  if (a.conformance === "conforming")
-    return "The work inspected this day WAS IN CONFORMANCE with the approved construction documents.";
-  const open = openExceptionLines(report);
-  return (
-    "The work inspected this day WAS NOT IN CONFORMANCE with the approved construction documents. " +
-    (open.length
-      ? `Open exceptions: ${open.join("; ")}.`
-      : "No flag is open in Tautline; the inspector's remarks say what was not in conformance.")
-  );
+  const { statement, exceptions } = dailyConformance(report);
+  return exceptions.length ? `${statement} ${exceptions.join("; ")}.` : statement;
 }
 
 /**

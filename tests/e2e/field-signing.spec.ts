@@ -37,6 +37,8 @@ test("the inspector signs the day's report and a pour's stressing report on the 
   await page.getByRole("link", { name: /Sign reports/ }).click();
   await page.waitForURL(/\/field\/sign/);
 
+  // The screen is loaded (its code arrives after the page's first paint) before the signal goes.
+  await expect(page.getByRole("heading", { name: "Sign reports", level: 1 })).toBeVisible();
   // No signal: a clear word, no form.
   await context.setOffline(true);
   await expect(page.getByTestId("sign-offline")).toContainText("No connection: signing needs the server");

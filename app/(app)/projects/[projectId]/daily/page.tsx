@@ -9,7 +9,7 @@ import { dayInZone, formatDateTime, shiftDay } from "@/lib/format/dates";
 import {
   DAILY_RECORD_COLUMNS,
   dailyConcreteLines,
-  dailyConformanceLine,
+  dailyConformance,
   dailyDispositionLines,
   dailyEquipmentLines,
   dailyFlagLines,
@@ -224,7 +224,7 @@ export default async function DailyReportPage({
               <h2 id="daily-conformance-heading" className="text-lead font-bold">
                 Statement of conformance (as last signed)
               </h2>
-              <p data-testid="daily-conformance">{dailyConformanceLine(view.report)}</p>
+              <Conformance {...dailyConformance(view.report)} />
             </section>
             <List
               id="daily-flags-heading"
@@ -286,5 +286,21 @@ export default async function DailyReportPage({
         </>
       )}
     </main>
+  );
+}
+
+/** The statement of conformance, the open exceptions one per line under it. */
+function Conformance({ statement, exceptions }: { statement: string; exceptions: string[] }) {
+  return (
+    <div data-testid="daily-conformance">
+      <p>{statement}</p>
+      {exceptions.length > 0 && (
+        <ul className="list-disc pl-6">
+          {exceptions.map((line) => (
+            <li key={line}>{line}</li>
+          ))}
+        </ul>
+      )}
+    </div>
   );
 }
