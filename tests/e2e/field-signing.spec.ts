@@ -37,8 +37,9 @@ test("the inspector signs the day's report and a pour's stressing report on the 
   await page.getByRole("link", { name: /Sign reports/ }).click();
   await page.waitForURL(/\/field\/sign/);
 
-  // The screen is loaded (its code arrives after the page's first paint) before the signal goes.
-  await expect(page.getByRole("heading", { name: "Sign reports", level: 1 })).toBeVisible();
+  // The screen itself is loaded before the signal goes: its code arrives after the page's first
+  // paint (the placeholder has the same heading), and this first visit has no offline worker yet.
+  await expect(page.getByTestId("field-daily-state")).toBeVisible({ timeout: 30_000 });
   // No signal: a clear word, no form.
   await context.setOffline(true);
   await expect(page.getByTestId("sign-offline")).toContainText("No connection: signing needs the server");

@@ -30,12 +30,13 @@ const GAUGE_PHOTO = Buffer.from(
   "base64",
 );
 
-/** The same word twice in a row ("Set Set W"), and the same four words twice on one line. */
+/** The same word twice in a row ("Set Set W"), and the same four words twice on one line (each side of a change alone). */
 function doubledWords(text: string): string[] {
   const found: string[] = [];
   const re = /\b([A-Za-z][A-Za-z'-]*)[ \t]+\1\b/g;
   for (let m = re.exec(text); m; m = re.exec(text)) found.push(m[0]);
-  for (const line of text.split("\n")) {
+  // A change written as `"before" → "after"` gives the text twice by design: each side is read alone.
+  for (const line of text.split("\n").flatMap((l) => l.split(" → "))) {
     // Words only: the letters of a tag ("2-2-U01") are not words.
     const words = line.toLowerCase().match(/(?<![\w-])[a-z][a-z']+(?![\w-])/g) ?? [];
     const seen = new Set<string>();
