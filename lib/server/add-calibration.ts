@@ -4,6 +4,7 @@ import { reevaluateTendons } from "./reevaluate-project";
 import type { Db } from "@/db/connect";
 import { fitCalibration, isInputError } from "@/lib/elongation";
 import { AppError } from "@/lib/errors";
+import { dayInZone, projectTimeZone } from "@/lib/format/dates";
 import { addDays, type CalibrationInput } from "@/lib/schemas/calibration";
 import { requireStoredAttachment } from "@/lib/storage";
 
@@ -20,6 +21,8 @@ export async function addCalibration(
     values: CalibrationInput;
     /** False when the caller judges the tendons again itself (a correction). */
     reevaluate?: boolean;
+    /** The site's day ("2026-12-03") the date is checked against; today in the project's zone by default. */
+    today?: string;
   },
 ): Promise<{ calibrationId: string; validUntil: string; r2: number; warnings: string[] }> {
   const v = input.values;
@@ -32,11 +35,17 @@ export async function addCalibration(
       .executeTakeFirst(),
     db
       .selectFrom("projects")
-      .select("calibration_validity_days")
+      .select(["calibration_validity_days", "time_zone"])
       .where("id", "=", input.projectId)
       .executeTakeFirstOrThrow(),
   ]);
   if (!set) throw new AppError("NOT_FOUND", "No such equipment set on this project.");
+  // The form's check only knows the day has begun somewhere on Earth; the site's own day decides.
+  const siteToday = input.today ?? dayInZone(Date.now(), projectTimeZone(project));
+  if (v.calibratedOn > siteToday) {
+    const message = `The calibration date is after today on site (${siteToday}); give the day the set was calibrated.`;
+    throw new AppError("INVALID_INPUT", message, { calibratedOn: [message] });
+  }
   let fit;
   try {
     fit = fitCalibration(v.points);

@@ -3,6 +3,7 @@ import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { renderDailyPdf } from "@/lib/reports/daily-pdf";
 import { AppError } from "@/lib/errors";
+import { dayInZone } from "@/lib/format/dates";
 import { attestationProblems, dailyFileName, dailySnapshot } from "@/lib/reports/daily-rows";
 import type { DailySignatureInput } from "@/lib/schemas/daily-report";
 import { getDailyReport } from "./get-daily-report";
@@ -26,6 +27,11 @@ export async function signDailyReport(
   const { conformance, witness, remarks } = input.values;
   const attestation = { conformance, witness };
   const report = await getDailyReport(db, { ...input, remarks, attestation });
+  // The route's check only knows the day has begun somewhere on Earth; the site's own day decides.
+  if (input.day > dayInZone(Date.now(), report.timeZone)) {
+    const message = "That day has not begun on site yet; sign today's report or an earlier day's.";
+    throw new AppError("INVALID_INPUT", message, { day: [message] });
+  }
   const problems = attestationProblems(report, { ...attestation, remarks });
   if (Object.keys(problems).length)
     throw new AppError("INVALID_INPUT", Object.values(problems).flat()[0] ?? "Check the statement.", problems);

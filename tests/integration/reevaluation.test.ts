@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { seedDemo } from "@/scripts/seed/demo";
 import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
+import { dayInZone } from "@/lib/format/dates";
 import { addCalibration } from "@/lib/server/add-calibration";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getProjectSettings } from "@/lib/server/get-project-settings";
@@ -425,7 +426,12 @@ describe("re-evaluation when the project's basis changes", () => {
       finalPressureMPa: pressure,
     });
     await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
-    const today = new Date().toISOString().slice(0, 10);
+    const { time_zone } = await t.db
+      .selectFrom("projects")
+      .select("time_zone")
+      .where("id", "=", fx.projectId)
+      .executeTakeFirstOrThrow();
+    const today = dayInZone(Date.now(), time_zone);
     await addCalibration(t.db, {
       projectId: fx.projectId,
       setId: fx.setA,

@@ -170,6 +170,7 @@ describe("strand lots, calibrations and the tendon detail", () => {
     const { validUntil } = await addCalibration(t.db, {
       projectId: ayp,
       setId: setB.id,
+      today: "2026-12-20",
       values: {
         calibratedOn: "2026-12-15",
         validUntil: "2028-01-01",
@@ -251,6 +252,7 @@ describe("strand lots, calibrations and the tendon detail", () => {
       addCalibration(t.db, {
         projectId: ayp,
         setId: setA.id,
+        today: "2026-12-20",
         values: {
           calibratedOn: "2026-12-15",
           validUntil: null,

@@ -12,11 +12,18 @@ import type { TendonInput } from "@/lib/schemas/tendon";
 let counter = 0;
 const next = () => ++counter;
 
-export async function makeProject(db: Db, values: { code?: string; name?: string } = {}): Promise<{ id: string }> {
+export async function makeProject(
+  db: Db,
+  values: { code?: string; name?: string; timeZone?: string } = {},
+): Promise<{ id: string }> {
   const n = next();
   return db
     .insertInto("projects")
-    .values({ code: values.code ?? `TF-${n}`, name: values.name ?? `Factory project ${n}` })
+    .values({
+      code: values.code ?? `TF-${n}`,
+      name: values.name ?? `Factory project ${n}`,
+      ...(values.timeZone ? { time_zone: values.timeZone } : {}),
+    })
     .returning("id")
     .executeTakeFirstOrThrow();
 }
