@@ -23,20 +23,21 @@ import { finerDivision, showPressure } from "@/lib/stressing/display";
 import { MM_PER_INCH, MPA_PER_PSI } from "@/lib/units";
 import { setFormDirty } from "./form-dirty";
 import { SafetyCaution } from "@/components/ui/caution";
-import { fieldAria } from "@/components/ui/form-field";
-import { FieldError as BoxError } from "@/components/ui/form-message";
+import { fieldAria, FormField } from "@/components/ui/form-field";
+import { FieldError } from "@/components/ui/form-message";
 import { FractionKeys, withFraction } from "@/components/ui/fraction-keys";
 import { useField } from "./field-provider";
 import { PhotoPicker, type PickedPhoto } from "./photo-picker";
 import { units } from "./verdict-panel";
 
-function FieldError({ message }: { message?: string }) {
-  return message ? (
-    <p className="mt-1 font-semibold text-signal-stop" role="alert">
-      {message}
-    </p>
-  ) : null;
+/**
+ * The message under a group of choices (a fieldset), read out as it appears: the group points at
+ * it with `aria-describedby={groupError(id, message)}`.
+ */
+function GroupError({ id, message }: { id: string; message?: string }) {
+  return <FieldError id={`${id}-error`} messages={message ? [message] : undefined} alert />;
 }
+const groupError = (id: string, message?: string) => (message ? `${id}-error` : undefined);
 
 /** A reading box the fraction keys write into. */
 type LengthBox =
@@ -79,7 +80,7 @@ function NumberBox(props: {
           {props.hint}
         </span>
       )}
-      <BoxError id={`${props.id}-error`} messages={props.error ? [props.error] : undefined} alert />
+      <FieldError id={`${props.id}-error`} messages={props.error ? [props.error] : undefined} alert />
     </div>
   );
 }
@@ -405,7 +406,7 @@ export function RecordForm({
   const showMore = moreOpen || moreHasSomething;
 
   const endChoice = (
-    <fieldset>
+    <fieldset aria-describedby={groupError("tendonEnd", err.tendonEnd?.message)}>
       <legend className="sr-only">Tendon end</legend>
       <div className="flex gap-2">
         {/* Only the ends this tendon stresses are offered; a correction keeps its record's end. */}
@@ -423,7 +424,7 @@ export function RecordForm({
           </label>
         ))}
       </div>
-      <FieldError message={err.tendonEnd?.message} />
+      <GroupError id="tendonEnd" message={err.tendonEnd?.message} />
     </fieldset>
   );
 
@@ -462,40 +463,33 @@ export function RecordForm({
           <p className="font-bold text-signal-stop">
             <span aria-hidden="true">⚠ </span>Concrete not confirmed: {concreteGate}
           </p>
-          <label htmlFor="concreteGoAhead" className="field-label mt-2">
-            Who confirmed the concrete on site, or why stressing goes ahead
-          </label>
-          <textarea
+          <FormField
+            as="textarea"
             id="concreteGoAhead"
+            frameClassName="mt-2"
+            label="Who confirmed the concrete on site, or why stressing goes ahead"
+            hint="Kept on the record; the concrete flag quotes it to the engineer of record."
+            error={err.concreteGoAhead?.message}
+            announce
             rows={2}
-            className="field-input py-2"
-            aria-invalid={Boolean(err.concreteGoAhead)}
             {...register("concreteGoAhead")}
             placeholder="e.g. inspector J. Ortiz read the field-cured cylinders at 3,100 psi"
           />
-          <FieldError message={err.concreteGoAhead?.message} />
-          <p className="text-label text-ink-faint">
-            Kept on the record; the concrete flag quotes it to the engineer of record.
-          </p>
         </div>
       )}
 
       {correcting && (
-        <div>
-          <label htmlFor="revisionReason" className="field-label">
-            Why is it corrected?
-          </label>
-          <input
-            id="revisionReason"
-            className="field-input"
-            {...register("revisionReason")}
-            placeholder="e.g. read the wrong mark"
-          />
-          <FieldError message={err.revisionReason?.message} />
-        </div>
+        <FormField
+          id="revisionReason"
+          label="Why is it corrected?"
+          error={err.revisionReason?.message}
+          announce
+          {...register("revisionReason")}
+          placeholder="e.g. read the wrong mark"
+        />
       )}
 
-      <fieldset>
+      <fieldset aria-describedby={groupError("equipmentSetId", err.equipmentSetId?.message)}>
         <legend className="field-label">
           Equipment set
           {notOffered > 0 && (
@@ -530,15 +524,16 @@ export function RecordForm({
             );
           })}
         </div>
-        <FieldError message={err.equipmentSetId?.message} />
+        <GroupError id="equipmentSetId" message={err.equipmentSetId?.message} />
         {expired && setId && (
-          <div className="mt-2">
-            <label htmlFor="expiredCalibrationReason" className="field-label">
-              Reason to use a set whose calibration has expired
-            </label>
-            <input id="expiredCalibrationReason" className="field-input" {...register("expiredCalibrationReason")} />
-            <FieldError message={err.expiredCalibrationReason?.message} />
-          </div>
+          <FormField
+            id="expiredCalibrationReason"
+            frameClassName="mt-2"
+            label="Reason to use a set whose calibration has expired"
+            error={err.expiredCalibrationReason?.message}
+            announce
+            {...register("expiredCalibrationReason")}
+          />
         )}
       </fieldset>
 
@@ -591,7 +586,7 @@ export function RecordForm({
           </div>
         </fieldset>
         {ends.length === 2 && (
-          <fieldset>
+          <fieldset aria-describedby={groupError("stressingOrder", err.stressingOrder?.message)}>
             <legend className="field-label">The two ends were stressed</legend>
             <div className="mt-1 flex flex-wrap gap-2">
               <label className={`${CHIP} px-3`}>
@@ -603,7 +598,7 @@ export function RecordForm({
                 Both at once
               </label>
             </div>
-            <FieldError message={err.stressingOrder?.message} />
+            <GroupError id="stressingOrder" message={err.stressingOrder?.message} />
           </fieldset>
         )}
       </div>
@@ -776,19 +771,15 @@ export function RecordForm({
                 />
               ))
             )}
-            <div className="col-span-2">
-              <label htmlFor="rereadDeclinedReason" className="field-label">
-                Or why it cannot be read again
-              </label>
-              <input
-                id="rereadDeclinedReason"
-                className="field-input"
-                aria-invalid={Boolean(err.rereadDeclinedReason)}
-                placeholder="e.g. tails already cut"
-                {...register("rereadDeclinedReason")}
-              />
-              <FieldError message={err.rereadDeclinedReason?.message} />
-            </div>
+            <FormField
+              id="rereadDeclinedReason"
+              frameClassName="col-span-2"
+              label="Or why it cannot be read again"
+              error={err.rereadDeclinedReason?.message}
+              announce
+              placeholder="e.g. tails already cut"
+              {...register("rereadDeclinedReason")}
+            />
           </div>
         </div>
       )}
@@ -805,13 +796,15 @@ export function RecordForm({
             reg={register("wireBreaks")}
             error={err.wireBreaks?.message}
           />
-          <div>
-            <label htmlFor="remarks" className="field-label">
-              Remarks
-            </label>
-            <textarea id="remarks" rows={2} className="field-input py-2" {...register("remarks")} />
-            <FieldError message={err.remarks?.message} />
-          </div>
+          <FormField
+            as="textarea"
+            id="remarks"
+            label="Remarks"
+            error={err.remarks?.message}
+            announce
+            rows={2}
+            {...register("remarks")}
+          />
         </div>
         {breakRows.fields.map((f, i) => (
           <fieldset
@@ -836,7 +829,12 @@ export function RecordForm({
                 Strand not known
               </label>
             </div>
-            <div className="flex flex-wrap gap-2" role="radiogroup" aria-label={`Where wire ${i + 1} broke`}>
+            <div
+              className="flex flex-wrap gap-2"
+              role="radiogroup"
+              aria-label={`Where wire ${i + 1} broke`}
+              aria-describedby={groupError(`break-where-${i}`, err.wireBreakDetails?.[i]?.where?.message)}
+            >
               {WIRE_BREAK_PLACES.map((place) => (
                 <label key={place} className={`${CHIP} px-3`}>
                   <input type="radio" value={place} className="sr-only" {...register(`wireBreakDetails.${i}.where`)} />
@@ -844,7 +842,7 @@ export function RecordForm({
                 </label>
               ))}
             </div>
-            <FieldError message={err.wireBreakDetails?.[i]?.where?.message} />
+            <GroupError id={`break-where-${i}`} message={err.wireBreakDetails?.[i]?.where?.message} />
           </fieldset>
         ))}
         <PhotoPicker photos={photos} onChange={setPhotos} />
