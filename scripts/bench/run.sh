@@ -29,13 +29,13 @@ cleanup() {
   stop_group "$FAKES_PID"
   pg_down "$PG_DATA"
 }
-trap cleanup EXIT
-
 port_of() { local rest="${1##*:}"; echo "${rest%%/*}"; }
 require_free_port "$BENCH_PORT" "the app under benchmark" BENCH_PORT
 require_free_port "$SMTP_PORT" "the mail fake" BENCH_SMTP_PORT
 require_free_port "$(port_of "$MAIL_INBOX_URL")" "the mail inbox" BENCH_INBOX_PORT
 require_free_port "$(port_of "$S3_ENDPOINT")" "the upload fake" BENCH_S3_PORT
+# Set only now: a run refused for a taken port must not stop the database of the run that holds it.
+trap cleanup EXIT
 
 pg_down "$PG_DATA"
 rm -rf "$PG_DATA" "$PG_DATA.run" "$TAUTLINE_S3_DIR" "$LOGS"
@@ -57,7 +57,7 @@ start_group "$LOGS/fakes.log" node_modules/.bin/tsx scripts/fakes.ts
 FAKES_PID=$LAST_PID
 wait_for_url "$MAIL_INBOX_URL" 20 || { tail -n 20 "$LOGS/fakes.log"; die "the mail fake did not start"; }
 
-BENCH_ONLY="${BENCH_ONLY:-elongation pages pages-browser sync explain load latency lighthouse offline}"
+BENCH_ONLY="${BENCH_ONLY:-elongation pages pages-browser sync explain load latency save-latency lighthouse offline}"
 bench_step() {
   local name="$1" seconds="$2"; shift 2
   case " $BENCH_ONLY " in *" $name "*) ;; *) return 0 ;; esac
@@ -74,6 +74,7 @@ bench_step sync 240 node_modules/.bin/tsx scripts/bench/sync.ts
 bench_step explain 300 node_modules/.bin/tsx --conditions=react-server --import ./scripts/bench/support/no-auth-options.mjs scripts/bench/explain.ts
 bench_step load 720 node_modules/.bin/tsx scripts/bench/load.ts
 bench_step latency 300 node_modules/.bin/tsx scripts/bench/latency.ts
+bench_step save-latency 600 node_modules/.bin/tsx scripts/bench/save-latency.ts
 bench_step lighthouse 420 node_modules/.bin/tsx scripts/bench/lighthouse.ts
 bench_step offline 180 node_modules/.bin/tsx scripts/bench/offline-start.ts
 
