@@ -5,6 +5,7 @@ import {
   dayInZone,
   formatAge,
   formatDateTime,
+  formatSpan,
   instantFromLocalInput,
   localInputValue,
   projectTimeZone,
@@ -20,6 +21,13 @@ describe("dates in the project's zone", () => {
 
   it("writes a moment with the zone's name", () => {
     expect(formatDateTime("2026-12-03T00:30:00Z", "America/Chicago")).toBe("2026-12-02 18:30 CST");
+  });
+
+  it("writes the span between two moments in words, to the minute, either order", () => {
+    expect(formatSpan("2026-12-02T10:00:00Z", "2026-12-02T10:32:00Z")).toBe("32 minutes");
+    expect(formatSpan("2026-12-02T11:05:40Z", "2026-12-02T10:00:00Z")).toBe("1 hour 5 minutes");
+    expect(formatSpan("2026-12-02T10:00:00Z", "2026-12-04T13:00:00Z")).toBe("2 days 3 hours");
+    expect(formatSpan("2026-12-02T10:00:00Z", "2026-12-02T10:00:30Z")).toBe("under a minute");
   });
 
   it("writes ages in words", () => {

@@ -1,5 +1,5 @@
 import { TZDate } from "@date-fns/tz";
-import { addDays, format, formatDistanceStrict } from "date-fns";
+import { addDays, format, formatDistanceStrict, formatDuration, intervalToDuration } from "date-fns";
 
 /**
  * The one way Tautline writes dates and times, always in the project's time zone (an IANA name such
@@ -42,6 +42,18 @@ export function zoneName(instant: Instant, timeZone: string): string {
 /** "3 hours ago", "in 2 days": ages of flags, outboxes and syncs. */
 export function formatAge(instant: Instant, now: Instant = Date.now()): string {
   return formatDistanceStrict(new Date(instant), new Date(now), { addSuffix: true });
+}
+
+/**
+ * "32 minutes", "1 hour 5 minutes", "2 days 3 hours": the span between two moments in words, to the
+ * minute, without a direction (whichever comes first). "under a minute" below one.
+ */
+export function formatSpan(a: Instant, b: Instant): string {
+  const [start, end] = [new Date(a), new Date(b)].sort((x, y) => x.getTime() - y.getTime()) as [Date, Date];
+  const words = formatDuration(intervalToDuration({ start, end }), {
+    format: ["years", "months", "days", "hours", "minutes"],
+  });
+  return words || "under a minute";
 }
 
 /** The calendar day of an instant in a time zone ("2026-12-02"): the stressing day on tablet and server. */

@@ -3,7 +3,7 @@ import { sql, type Kysely } from "kysely";
 import type { Database, FlagKind, FlagStatus, Verdict } from "@/db/types";
 import { reference } from "@/lib/format/references";
 import type { FlagFilter } from "@/lib/schemas/review";
-import { FUTURE_GRACE_MS } from "@/lib/stressing/clock-skew";
+import { recordIsSkewed } from "./find-clock-skews";
 
 export interface FlaggedTendon {
   projectId: string;
@@ -19,7 +19,7 @@ export interface FlaggedTendon {
   verdict: Verdict | null;
   deviationPct: number | null;
   provisional: boolean;
-  /** Records of the tendon whose device time is off the server's receipt (see lib/stressing/clock-skew.ts). */
+  /** Records the tablet sent for the tendon whose device time is off the server's receipt (see find-clock-skews.ts). */
   clockSkewRecords: number;
 }
 
@@ -68,10 +68,8 @@ export async function findFlags(
           .select(sql<number>`count(*)::int`.as("n"))
           .whereRef("records.tendon_id", "=", "flags.tendon_id")
           .whereRef("records.project_id", "=", "flags.project_id")
-          .where(
-            sql<boolean>`(abs(extract(epoch from records.device_time - records.received_at)) > projects.clock_skew_minutes * 60
-              or records.device_time > records.received_at + make_interval(secs => ${FUTURE_GRACE_MS / 1000}))`,
-          )
+          .where("records.revision", "=", 1)
+          .where(recordIsSkewed)
           .as("clockSkewRecords"),
       // The flag's number in its project, given at insert.
       "flags.number",

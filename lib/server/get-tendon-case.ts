@@ -78,10 +78,12 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
     findStandingRelease(db, { projectId: input.projectId, pourId: basis.pour.id }),
   ]);
 
-  // Each record with its clock skew against the project's threshold (null when within it).
+  // Each record with its clock skew against the project's threshold (null when within it). Only
+  // the tablet's own records: a paperwork correction keeps the original's device time and is
+  // received when the office writes it (as findClockSkews).
   const records = rows.map(({ clock_skew_minutes, ...r }) => ({
     ...r,
-    skew: clockSkew(r.device_time, r.received_at, clock_skew_minutes),
+    skew: r.revision === 1 ? clockSkew(r.device_time, r.received_at, clock_skew_minutes) : null,
   }));
   const equipmentGripMm = records.find((r) => r.equipmentGripMm !== null)?.equipmentGripMm ?? null;
   let predicted: TendonPrediction | null = null;

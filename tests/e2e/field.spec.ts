@@ -1,5 +1,6 @@
 import { expect, test } from "@playwright/test";
 import pg from "pg";
+import { STRESSING_SAFETY_CAUTION } from "@/lib/cautions";
 import { CONCRETE_GO_AHEAD, logTendon, makeFieldPour, plan, shoot } from "./field-steps";
 import { PEOPLE, signInWithPassword } from "./people";
 
@@ -38,6 +39,11 @@ test("a crew logs a pour with no signal and every record reaches PostgreSQL exac
   await expect(page.getByTestId("connection")).toHaveText("No signal");
   // The pour has no lab results yet: the tablet says so before the first pull.
   await expect(page.getByTestId("concrete-gate-field")).toContainText("Concrete not confirmed: do not stress");
+  // Where the jack is pulled, the record form carries the stressing safety caution in the one wording.
+  await page.getByTestId("tendon-row").filter({ hasText: p.tendons[0]!.tag }).click();
+  await expect(
+    page.getByRole("form", { name: "New record" }).getByRole("note", { name: "Safety caution" }),
+  ).toContainText(STRESSING_SAFETY_CAUTION);
   for (const [i, t] of p.tendons.entries())
     await logTendon(page, t, p.finalPsi, i === 0 ? "field-form-offline-landscape" : undefined, i === 0);
   await expect(page.getByTestId("pending-count")).toContainText("3 records");

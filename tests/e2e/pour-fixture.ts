@@ -122,7 +122,13 @@ export function typedReading(fx: PourFixture, factor: number): { psi: string; be
   return { psi, before: "2", after };
 }
 
-export async function pushEndA(crew: APIRequestContext, fx: PourFixture, tendonId: string, factor: number) {
+export async function pushEndA(
+  crew: APIRequestContext,
+  fx: PourFixture,
+  tendonId: string,
+  factor: number,
+  options: { deviceTime?: Date } = {},
+) {
   const { psi, after } = typedReading(fx, factor);
   const measuredMm =
     parseLength(after, { field: "marksAfter", system: "US", defaultUnit: "in" }) -
@@ -155,7 +161,7 @@ export async function pushEndA(crew: APIRequestContext, fx: PourFixture, tendonI
     seatingMm: null,
     wireBreaks: 0,
     remarks: null,
-    deviceTime: new Date().toISOString(),
+    deviceTime: (options.deviceTime ?? new Date()).toISOString(),
     deviceTimeZone: "America/Chicago",
     authorUserId: fx.crewId,
   };

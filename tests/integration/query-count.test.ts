@@ -2,6 +2,7 @@ import { Kysely, PostgresDialect } from "kysely";
 import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Database } from "@/db/types";
+import { findClockSkews } from "@/lib/server/find-clock-skews";
 import { findFlags } from "@/lib/server/find-flags";
 import { getDailyReport } from "@/lib/server/get-daily-report";
 import { getPourReport } from "@/lib/server/get-pour-report";
@@ -138,6 +139,17 @@ describe("statements per read do not grow with the tendons", () => {
     const filter = { status: "any_open" as const };
     const a = await count((db) => findFlags(db, { projectIds: [small.project.projectId], filter }));
     const b = await count((db) => findFlags(db, { projectIds: [large.project.projectId], filter }));
+    expect(a.result).toHaveLength(3);
+    expect(b.result).toHaveLength(40);
+    expect(a.statements).toBeGreaterThan(0);
+    expect(b.statements).toBe(a.statements);
+  });
+
+  it("the review queue's records whose time is off", async () => {
+    // The bench's records carry a device time of 2026-12-02 10:00 UTC and were received when this
+    // test stored them, so every one is off the receipt by more than the default 10 minutes.
+    const a = await count((db) => findClockSkews(db, { projectIds: [small.project.projectId] }));
+    const b = await count((db) => findClockSkews(db, { projectIds: [large.project.projectId] }));
     expect(a.result).toHaveLength(3);
     expect(b.result).toHaveLength(40);
     expect(a.statements).toBeGreaterThan(0);

@@ -3,6 +3,7 @@ import { seedDemo } from "@/scripts/seed/demo";
 import { predictTendon } from "@/lib/stressing/basis";
 import { correctRecord } from "@/lib/server/correct-record";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
+import { findClockSkews } from "@/lib/server/find-clock-skews";
 import { findFlags } from "@/lib/server/find-flags";
 import { getHomeSummary } from "@/lib/server/get-home-summary";
 import { getTendonCase } from "@/lib/server/get-tendon-case";
@@ -168,6 +169,119 @@ describe("clock skew is visible", () => {
     const c3 = await getTendonCase(t.db, { projectId: fx.projectId, tendonId: q3.id });
     expect(c3.records[0]!.skew?.future).toBe(true);
     await t.db.updateTable("projects").set({ clock_skew_minutes: 10 }).where("id", "=", fx.projectId).execute();
+  });
+});
+
+/** A one-end tendon like the demo's 2-1-U01 on the given pour. */
+async function addTendon(onPour: string, tag: string) {
+  const template = await t.db
+    .selectFrom("tendons")
+    .selectAll()
+    .where("project_id", "=", fx.projectId)
+    .where("tag", "=", "2-1-U01")
+    .executeTakeFirstOrThrow();
+  return t.db
+    .insertInto("tendons")
+    .values({
+      project_id: fx.projectId,
+      pour_id: onPour,
+      tag,
+      kind: template.kind,
+      strand_size: template.strand_size,
+      strand_count: template.strand_count,
+      segments: JSON.stringify(template.segments),
+      ends: template.ends,
+      jack_grip_mm: template.jack_grip_mm,
+      strand_lot_id: template.strand_lot_id,
+    })
+    .returning(["id", "pour_id", "tag"])
+    .executeTakeFirstOrThrow();
+}
+
+describe("the review queue lists every record whose time is off, flagged tendon or not", () => {
+  it("lists a skewed record on an unflagged tendon with both times, and no record with a right clock", async () => {
+    // In band, so nothing flags the tendon; its tablet was 45 minutes behind the server.
+    const unflagged = await addTendon(pourId, "Q-4");
+    const deviceTime = new Date(Date.now() - 45 * 60_000).toISOString();
+    const { recordId, evaluation } = await stress(unflagged, 1.0, { deviceTime });
+    expect(evaluation.flagKinds).toEqual([]);
+    const flagged = await findFlags(t.db, { projectIds: [fx.projectId], filter: { status: "any_open", pourId } });
+    expect(flagged.map((q) => q.tendonId)).not.toContain(unflagged.id);
+
+    const skewed = await findClockSkews(t.db, { projectIds: [fx.projectId], pourId });
+    const row = skewed.find((r) => r.recordId === recordId);
+    expect(row).toMatchObject({ tendonId: unflagged.id, tag: "Q-4", end: "A", pourId, timeZone: "America/Chicago" });
+    expect(row!.deviceTime.toISOString()).toBe(deviceTime);
+    expect(row!.receivedAt.getTime() - row!.deviceTime.getTime()).toBeGreaterThan(44 * 60_000);
+    expect(row!.skew.future).toBe(false);
+    expect(row!.skew.minutes).toBeLessThan(-44);
+    // The skewed records of the flagged tendons are listed too (Q-2 behind, Q-3 ahead); Q-1,
+    // stressed with a right clock, is not.
+    const tags = skewed.map((r) => r.tag);
+    expect(tags).toEqual(expect.arrayContaining(["Q-2", "Q-3", "Q-4"]));
+    expect(tags).not.toContain("Q-1");
+    expect(skewed.find((r) => r.tag === "Q-3")!.skew.future).toBe(true);
+    // Without the pour filter the same records are there; another project's reviewer sees none.
+    const all = await findClockSkews(t.db, { projectIds: [fx.projectId] });
+    expect(all.map((r) => r.recordId)).toEqual(expect.arrayContaining(skewed.map((r) => r.recordId)));
+    expect(await findClockSkews(t.db, { projectIds: [] })).toEqual([]);
+  });
+
+  it("does not list an office correction whose receipt is later than the original's tablet time", async () => {
+    const tendon = await addTendon(pourId, "Q-5");
+    // Received two hours ago with a right clock, then corrected in the office now.
+    const twoHoursAgo = new Date(Date.now() - 2 * 3600_000);
+    const recordId = await insertRecord(t.db, {
+      projectId: fx.projectId,
+      tendon,
+      end: "A",
+      equipmentSetId: fx.setA,
+      authorId: fx.crewId,
+      measuredMm: await predicted(tendon.id),
+      finalPressureMPa: pressure,
+      deviceTime: twoHoursAgo.toISOString(),
+      receivedAt: twoHoursAgo,
+    });
+    await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+    await correctRecord(t.db, {
+      projectId: fx.projectId,
+      recordId,
+      by: inspector,
+      correction: { reason: "Tail mark copied from the wrong line.", measuredMm: (await predicted(tendon.id)) * 1.01 },
+    });
+    const skewed = await findClockSkews(t.db, { projectIds: [fx.projectId], pourId });
+    expect(skewed.map((r) => r.tag)).not.toContain("Q-5");
+    const c = await getTendonCase(t.db, { projectId: fx.projectId, tendonId: tendon.id });
+    expect(c.records.map((r) => [r.revision, r.skew])).toEqual([
+      [1, null],
+      [2, null],
+    ]);
+  });
+
+  it("leaves a released pour's records out", async () => {
+    const pour = await t.db
+      .insertInto("pours")
+      .values({ project_id: fx.projectId, name: "Skew release pour", concrete_strength_mpa: 30 })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    const tendon = await addTendon(pour.id, "S-1");
+    const { recordId } = await stress(tendon, 1.0, { deviceTime: new Date(Date.now() - 20 * 60_000).toISOString() });
+    const listed = async () => (await findClockSkews(t.db, { projectIds: [fx.projectId] })).map((r) => r.recordId);
+    expect(await listed()).toContain(recordId);
+    const by = await t.db
+      .selectFrom("users")
+      .select(["id", "name"])
+      .where("email", "=", "engineer@demo.tautline.test")
+      .executeTakeFirstOrThrow();
+    await releasePour(t.db, {
+      projectId: fx.projectId,
+      pourId: pour.id,
+      by: { ...by, role: "engineer" },
+      statement: "Tendon S-1 stressed and accepted; the tablet's late clock was checked with the crew.",
+      signerName: by.name,
+      licence: "PE 048213 (invented)",
+    });
+    expect(await listed()).not.toContain(recordId);
   });
 });
 

@@ -40,6 +40,8 @@ export async function insertRecord(
     initialPressureMPa?: number | null;
     wireBreaks?: number;
     deviceTime?: string;
+    /** When the server received it (default now, the column's own). */
+    receivedAt?: Date;
     restressOfDispositionId?: string;
     base?: { id: string; chainId: string; revision: number; reason: string };
   },
@@ -69,6 +71,7 @@ export async function insertRecord(
       device_id: "test-device",
       author_user_id: input.authorId,
       restress_of_disposition_id: input.restressOfDispositionId ?? null,
+      ...(input.receivedAt ? { received_at: input.receivedAt } : {}),
     })
     .execute();
   return id;

@@ -1,5 +1,6 @@
 import { redirect } from "next/navigation";
 import { FormField } from "@/components/ui/form-field";
+import { ClockSkewList } from "@/components/review/clock-skew-list";
 import { FlagQueue } from "@/components/review/flag-queue";
 import { ReleaseList } from "@/components/review/release-list";
 import { Caution } from "@/components/ui/caution";
@@ -9,6 +10,7 @@ import { can } from "@/lib/auth/permissions";
 import { getSessionUser } from "@/lib/auth/session";
 import { flagFilterSchema } from "@/lib/schemas/review";
 import { zodFields } from "@/lib/schemas/zod-fields";
+import { findClockSkews } from "@/lib/server/find-clock-skews";
 import { findFlags } from "@/lib/server/find-flags";
 import { findReleaseCandidates } from "@/lib/server/find-release-candidates";
 
@@ -34,11 +36,13 @@ export default async function ReviewPage({
   const bad: Record<string, string[] | undefined> = parsed.success ? {} : zodFields(parsed.error);
   const projects = user.memberships.filter((m) => can(m.role, "flag.review"));
   const allowedIds = projects.map((p) => p.projectId);
-  const tendons = await findFlags(db, {
-    projectIds: filter.projectId ? allowedIds.filter((id) => id === filter.projectId) : allowedIds,
-    filter,
-  });
-  const pours = [...new Map(tendons.map((t) => [t.pourId, t.pourName])).entries()];
+  const projectIds = filter.projectId ? allowedIds.filter((id) => id === filter.projectId) : allowedIds;
+  const [tendons, skewed] = await Promise.all([
+    findFlags(db, { projectIds, filter }),
+    // Records whose tablet time is off, on flagged tendons or not: the project and pour filters apply.
+    findClockSkews(db, { projectIds, pourId: filter.pourId }),
+  ]);
+  const pours = [...new Map([...tendons, ...skewed].map((t) => [t.pourId, t.pourName] as const)).entries()];
   // On projects whose rule gives the release to the inspector, the pours to release are here too.
   const inspectorProjects = projects.filter((p) => p.role === "inspector").map((p) => p.projectId);
   const releasable = (await findReleaseCandidates(db, inspectorProjects)).filter((p) => p.releaseBy === "inspector");
@@ -46,7 +50,10 @@ export default async function ReviewPage({
   return (
     <main className="space-y-6">
       <h1 className="text-figure font-bold">Flags to review</h1>
-      <p className="text-ink-soft">Every open flag on your projects, one tendon per card, oldest first.</p>
+      <p className="text-ink-soft">
+        Every open flag on your projects, one tendon per card, oldest first; below them, every record whose tablet time
+        needs checking.
+      </p>
       {!parsed.success && <p className="card">Some filters in the address were not understood and were left out.</p>}
       <form className="card grid gap-4 md:grid-cols-5 md:items-end" method="get" aria-label="Filter the flags">
         <FormField
@@ -107,6 +114,7 @@ export default async function ReviewPage({
             : "You review no project."
         }
       />
+      {projects.length > 0 && <ClockSkewList records={skewed} />}
       {releasable.length > 0 && (
         <section aria-labelledby="release-heading" className="space-y-3">
           <h2 id="release-heading" className="text-lead font-bold">
