@@ -46,6 +46,8 @@ test("adding a calibration shows first what it judges again, then saves on a sec
     { ...fx, setId, calibrationId: null as unknown as string, line: { slope: 5100, intercept: -900 } },
     fx.tendons[0]!.id,
     1.0,
+    // A record that names no calibration: the tablet asks why the set was used without one.
+    { expiredCalibrationReason: "The set's new certificate had not reached the tablet yet." },
   );
   expect(pushed.result).toMatchObject({ status: "applied" });
   await crew.dispose();

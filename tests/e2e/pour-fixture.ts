@@ -122,7 +122,14 @@ export function typedReading(fx: PourFixture, factor: number): { psi: string; be
   return { psi, before: "2", after };
 }
 
-export async function pushEndA(crew: APIRequestContext, fx: PourFixture, tendonId: string, factor: number) {
+export async function pushEndA(
+  crew: APIRequestContext,
+  fx: PourFixture,
+  tendonId: string,
+  factor: number,
+  /** Fields of the record's payload to send otherwise (a reason for a set used without its calibration). */
+  overrides: { expiredCalibrationReason?: string | null } = {},
+) {
   const { psi, after } = typedReading(fx, factor);
   const measuredMm =
     parseLength(after, { field: "marksAfter", system: "US", defaultUnit: "in" }) -
@@ -158,6 +165,7 @@ export async function pushEndA(crew: APIRequestContext, fx: PourFixture, tendonI
     deviceTime: new Date().toISOString(),
     deviceTimeZone: "America/Chicago",
     authorUserId: fx.crewId,
+    ...overrides,
   };
   const res = await crew.post("/api/sync/push", {
     data: { deviceId: "release-check-tablet", ops: [{ opId: randomUUID(), kind: "create", recordId: id, payload }] },
