@@ -4,13 +4,13 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { useSWRConfig } from "swr";
 import { z } from "zod";
+import { RejudgePreviewNote, type RejudgePreview } from "@/components/setup/edit-preview";
 import { FormField } from "@/components/ui/form-field";
 import { FormMessage } from "@/components/ui/form-message";
 import { placeFields, refusedWords } from "@/lib/client/field-errors";
 import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { calibrationCorrectionSchema, calibrationSchema, type CalibrationInput } from "@/lib/schemas/calibration";
-import type { CalibrationCorrectionPreview } from "@/lib/server/preview-calibration-correction";
 import { mpaToPsi, nToKip, nToKN } from "@/lib/units";
 import { readPoints } from "./equipment-forms";
 import { equipmentSetsKey } from "./equipment-list";
@@ -82,7 +82,7 @@ export function CorrectCalibration(props: {
   const id = `correct-${c.id}`;
   const api = `/api/projects/${props.projectId}/equipment-sets/${props.setId}/calibrations/${c.id}/correction`;
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
-  const [preview, setPreview] = useState<CalibrationCorrectionPreview | null>(null);
+  const [preview, setPreview] = useState<RejudgePreview | null>(null);
   const [busy, setBusy] = useState(false);
   const form = useForm<Boxes, unknown, Corrected>({
     resolver: resolver(props.us, c.certificateAttachmentId),
@@ -105,7 +105,7 @@ export function CorrectCalibration(props: {
     setBusy(true);
     const r = preview
       ? await sendJson<{ reevaluated: number; validUntil: string }>("POST", api, body)
-      : await sendJson<CalibrationCorrectionPreview>("POST", `${api}/preview`, body);
+      : await sendJson<RejudgePreview>("POST", `${api}/preview`, body);
     setBusy(false);
     if (!r.ok) {
       setPreview(null);
@@ -114,7 +114,7 @@ export function CorrectCalibration(props: {
       return setMessage({ tone: "error", text: refusedWords(r.error, placed) });
     }
     if (!preview) {
-      setPreview(r.data as CalibrationCorrectionPreview);
+      setPreview(r.data as RejudgePreview);
       return setMessage(undefined);
     }
     const done = r.data as { reevaluated: number; validUntil: string };
@@ -179,17 +179,12 @@ export function CorrectCalibration(props: {
           {...form.register("reason")}
         />
         {preview && (
-          <p
-            role="status"
-            className="rounded-md border-2 border-ink p-3 font-semibold"
-            data-testid="correction-preview"
-          >
-            This correction judges {preview.rejudged} stressed tendon{preview.rejudged === 1 ? "" : "s"} again;{" "}
-            {preview.verdictsChanging === 0
-              ? "no verdict changes."
-              : `${preview.verdictsChanging} verdict${preview.verdictsChanging === 1 ? "" : "s"} change${preview.verdictsChanging === 1 ? "s" : ""}: ${preview.tags.join(", ")}.`}{" "}
-            Press again to correct.
-          </p>
+          <RejudgePreviewNote
+            preview={preview}
+            subject="This correction"
+            then="Press again to correct."
+            testId="correction-preview"
+          />
         )}
         <button type="submit" className="btn-primary" disabled={busy}>
           {busy

@@ -6,11 +6,12 @@ import { useSWRConfig } from "swr";
 import { z } from "zod";
 import { units } from "@/lib/client/unit-fields";
 import { FileUpload } from "@/components/uploads/file-upload";
+import { RejudgePreviewNote, type RejudgePreview } from "@/components/setup/edit-preview";
 import { FormField } from "@/components/ui/form-field";
 import { FieldError, FormMessage } from "@/components/ui/form-message";
 import { placeFields, refusedWords } from "@/lib/client/field-errors";
 import { formResolver } from "@/lib/client/form-resolver";
-import { sendJson } from "@/lib/client/send-json";
+import { sendJson, type ApiError } from "@/lib/client/send-json";
 import { calibrationSchema, type CalibrationInput } from "@/lib/schemas/calibration";
 import { equipmentSetSchema, type EquipmentSetInput } from "@/lib/schemas/equipment";
 import { isInputError, parseForce, parsePressure } from "@/lib/units";
@@ -185,19 +186,36 @@ export function CalibrationForm({
     defaultValues: { calibratedOn: "", validUntil: "", pointsText: "", laboratory: "", certificateAttachmentId: "" },
   });
   const e = form.formState.errors as Errors;
-  const onSubmit = form.handleSubmit(async (values) => {
-    const r = await sendJson<{ validUntil: string; r2: number; warnings: string[] }>(
-      "POST",
-      `/api/projects/${projectId}/equipment-sets/${setId}/calibrations`,
-      values,
+  // A calibration that judges stressed tendons again is shown first and saved on a second press.
+  const [preview, setPreview] = useState<RejudgePreview | null>(null);
+  const [busy, setBusy] = useState(false);
+  const refused = (error: ApiError) => {
+    setPreview(null);
+    const placed = placeFields(error.fields, (k) =>
+      k.startsWith("points") ? "pointsText" : k in calFields(us) ? k : null,
     );
-    if (!r.ok) {
-      const placed = placeFields(r.error.fields, (k) =>
-        k.startsWith("points") ? "pointsText" : k in calFields(us) ? k : null,
-      );
-      for (const [k, m] of Object.entries(placed.boxes)) form.setError(k as "calibratedOn", { message: m.join(" ") });
-      return setMessage({ tone: "error", text: refusedWords(r.error, placed) });
+    for (const [k, m] of Object.entries(placed.boxes)) form.setError(k as "calibratedOn", { message: m.join(" ") });
+    setMessage({ tone: "error", text: refusedWords(error, placed) });
+  };
+  const onSubmit = form.handleSubmit(async (values) => {
+    const api = `/api/projects/${projectId}/equipment-sets/${setId}/calibrations`;
+    setBusy(true);
+    if (!preview) {
+      const checked = await sendJson<RejudgePreview>("POST", `${api}/preview`, values);
+      if (!checked.ok) {
+        setBusy(false);
+        return refused(checked.error);
+      }
+      if (checked.data.rejudged > 0) {
+        setBusy(false);
+        setMessage(undefined);
+        return setPreview(checked.data);
+      }
     }
+    const r = await sendJson<{ validUntil: string; r2: number; warnings: string[] }>("POST", api, values);
+    setBusy(false);
+    if (!r.ok) return refused(r.error);
+    setPreview(null);
     setMessage({
       tone: "info",
       text: `Calibration saved: r² = ${r.data.r2.toFixed(5)}, valid to ${r.data.validUntil}. ${r.data.warnings.join(" ")}`,
@@ -207,7 +225,13 @@ export function CalibrationForm({
   });
   if (!sets.length) return null;
   return (
-    <form onSubmit={onSubmit} noValidate className="card space-y-4">
+    <form
+      onSubmit={onSubmit}
+      onChange={() => preview && setPreview(null)}
+      noValidate
+      className="card space-y-4"
+      aria-label="Add a calibration"
+    >
       <h2 className="text-lead font-semibold">Add a calibration</h2>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
       <FormMessage tone="error">{e.root?.message}</FormMessage>
@@ -267,8 +291,16 @@ export function CalibrationForm({
         id="c-certificate-error"
         messages={e.certificateAttachmentId?.message ? [e.certificateAttachmentId.message] : undefined}
       />
-      <button className="btn-primary" type="submit">
-        Save calibration
+      {preview && (
+        <RejudgePreviewNote
+          preview={preview}
+          subject="This calibration"
+          then="Press again to save it."
+          testId="calibration-preview"
+        />
+      )}
+      <button className="btn-primary" type="submit" disabled={busy}>
+        {busy ? "Checking…" : preview ? "Save the calibration and judge again" : "Save calibration"}
       </button>
     </form>
   );

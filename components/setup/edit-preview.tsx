@@ -56,3 +56,52 @@ export function EditPreviewDialog({
     </ConfirmDialog>
   );
 }
+
+/** What a calibration or settings change would do (the answer of its preview route, `trialRejudging`). */
+export interface RejudgePreview {
+  rejudged: number;
+  verdictsChanging: number;
+  tags: string[];
+  flagsRaising: number;
+  flagsClosing: number;
+}
+
+/** True when the change touches any stored verdict or flag, so the admin is asked before it is saved. */
+export const rejudgeMatters = (p: RejudgePreview) => p.verdictsChanging > 0 || p.flagsRaising > 0 || p.flagsClosing > 0;
+
+/**
+ * The preview in words, one wording for every screen that asks it ("This correction judges 2
+ * stressed tendons again; 1 verdict changes: 2-1-U06; 1 flag is raised."). Flags are told
+ * apart from verdicts: a group-average band or a member's wire-loss limit moves only flags.
+ */
+export function rejudgeWords(p: RejudgePreview, subject: string): string {
+  const shown = p.tags.slice(0, 12).join(", ") + (p.tags.length > 12 ? ", …" : "");
+  const verdicts =
+    p.verdictsChanging === 0
+      ? "no verdict changes"
+      : `${count(p.verdictsChanging, "verdict changes", "verdicts change")}: ${shown}`;
+  const flags = [
+    p.flagsRaising ? `${count(p.flagsRaising, "flag is", "flags are")} raised` : "",
+    p.flagsClosing ? `${count(p.flagsClosing, "open flag closes", "open flags close")}` : "",
+  ].filter(Boolean);
+  return `${subject} judges ${count(p.rejudged, "stressed tendon", "stressed tendons")} again; ${verdicts}${flags.map((f) => `; ${f}`).join("")}.`;
+}
+
+/** The preview shown above a form's confirming button, with what the second press does. */
+export function RejudgePreviewNote({
+  preview,
+  subject,
+  then,
+  testId,
+}: {
+  preview: RejudgePreview;
+  subject: string;
+  then: string;
+  testId: string;
+}) {
+  return (
+    <p role="status" className="rounded-md border-2 border-ink p-3 font-semibold" data-testid={testId}>
+      {rejudgeWords(preview, subject)} {then}
+    </p>
+  );
+}

@@ -6,6 +6,7 @@ import { useForm } from "react-hook-form";
 import { z } from "zod";
 import { Field, FormField } from "@/components/ui/form-field";
 import { FormMessage } from "@/components/ui/form-message";
+import { rejudgeMatters, rejudgeWords, type RejudgePreview } from "./edit-preview";
 import { placeFields, refusedWords } from "@/lib/client/field-errors";
 import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
@@ -146,17 +147,13 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
   const onSubmit = form.handleSubmit(async (values) => {
     const key = JSON.stringify(values);
     if (confirmed !== key) {
-      const preview = await sendJson<{ stressed: number; verdictsChanging: number; tags: string[] }>(
-        "POST",
-        `/api/projects/${projectId}/settings/preview`,
-        values,
-      );
+      const preview = await sendJson<RejudgePreview>("POST", `/api/projects/${projectId}/settings/preview`, values);
       if (!preview.ok) return refused(preview.error);
-      if (preview.data.verdictsChanging > 0) {
+      if (rejudgeMatters(preview.data)) {
         setConfirmed(key);
         setMessage({
           tone: "error",
-          text: `Saving judges the ${preview.data.stressed} stressed tendons again; ${preview.data.verdictsChanging} verdict${preview.data.verdictsChanging > 1 ? "s" : ""} change (${preview.data.tags.slice(0, 12).join(", ")}${preview.data.tags.length > 12 ? ", …" : ""}). Press Save settings again to confirm.`,
+          text: `${rejudgeWords(preview.data, "Saving")} Press Save settings again to confirm.`,
         });
         return;
       }

@@ -1,7 +1,6 @@
 import "server-only";
 import type { Kysely } from "kysely";
 import type { Database, FlagKind, Verdict } from "@/db/types";
-import type { ProjectBasis } from "@/lib/stressing/basis";
 import {
   evaluationWrites,
   planEvaluation,
@@ -51,27 +50,6 @@ export async function reevaluateTendons(
       changed += 1;
   }
   return { reevaluated: tendonIds.length, changed, closedFlags };
-}
-
-/**
- * How many verdicts a change of the project's basis would touch, judged in memory on the new
- * basis without writing anything: what the admin sees before saving.
- */
-export async function previewBasisChange(
-  db: Kysely<Database>,
-  input: { projectId: string; basis: Partial<ProjectBasis> & { requiredConcreteMpa?: number | null } },
-): Promise<{ stressed: number; verdictsChanging: number; tags: string[] }> {
-  const ids = await stressedTendonIds(db, input.projectId);
-  const tags: string[] = [];
-  for (const tendonId of ids) {
-    const row = await selectTendonState(db, { projectId: input.projectId, tendonId }).executeTakeFirstOrThrow();
-    const state = stateFromRow(row);
-    const now = planEvaluation(state, { projectId: input.projectId, tendonId, reason: "preview" });
-    state.basis = { ...state.basis, project: { ...state.basis.project, ...input.basis } };
-    const next = planEvaluation(state, { projectId: input.projectId, tendonId, reason: "preview" });
-    if (now.outcome.verdict !== next.outcome.verdict) tags.push(state.basis.tendon.tag);
-  }
-  return { stressed: ids.length, verdictsChanging: tags.length, tags: tags.sort() };
 }
 
 async function stressedTendonIds(db: Kysely<Database>, projectId: string): Promise<string[]> {

@@ -1,6 +1,7 @@
 import "server-only";
 import type { Db } from "@/db/connect";
 import { AppError } from "@/lib/errors";
+import { inTransaction } from "./in-transaction";
 import type { ProjectSettings } from "@/lib/schemas/project-settings";
 import { recordAudit } from "./record-audit";
 import { reevaluateTendons } from "./reevaluate-project";
@@ -29,7 +30,7 @@ export async function updateProjectSettings(
   input: { projectId: string; values: ProjectSettings; by: string },
 ): Promise<{ reevaluated: number; changed: number; closedFlags: number }> {
   const v = input.values;
-  return db.transaction().execute(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const before = await trx
       .selectFrom("projects")
       .select(JUDGING_COLUMNS)

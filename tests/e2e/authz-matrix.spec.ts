@@ -462,6 +462,25 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
           },
         }),
     },
+    "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/preview": {
+      call: (c) =>
+        c.post(`/api/projects/${projectId}/equipment-sets/${MISSING_ID}/calibrations/preview`, {
+          data: {
+            calibratedOn: "2026-12-01",
+            validUntil: null,
+            points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })),
+            laboratory: null,
+            certificateAttachmentId: null,
+          },
+        }),
+    },
+    "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/retirement/preview": {
+      call: (c) =>
+        c.post(
+          `/api/projects/${projectId}/equipment-sets/${MISSING_ID}/calibrations/${MISSING_ID}/retirement/preview`,
+          { data: { reason: "Matrix check of who may preview a retirement." } },
+        ),
+    },
     "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/retirement": {
       call: (c) =>
         c.post(`/api/projects/${projectId}/equipment-sets/${MISSING_ID}/calibrations/${MISSING_ID}/retirement`, {

@@ -125,6 +125,10 @@ export const MATRIX: Record<string, Expected> = {
   ]),
   "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/correction/preview":
     projectAction(404, ["admin"]),
+  // The previews of adding a calibration to a set that does not exist, and of retiring one that does not: 404.
+  "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/preview": projectAction(404, ["admin"]),
+  "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/retirement/preview":
+    projectAction(404, ["admin"]),
   // Flags, reviews, dispositions and corrections on an id that does not exist: the roles allowed
   // pass the access check and get 404 from the operation; the release is refused by the
   // project's rule (inspector: 403) or by the pour's unstressed tendons (engineer: 409).

@@ -1,4 +1,5 @@
 import { expect, test } from "@playwright/test";
+import { makePourFixture, pushEndA } from "./pour-fixture";
 import { screenshot } from "./support";
 import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
 
@@ -50,9 +51,20 @@ test("the admin retires a calibration with a reason from the equipment page", as
   await screenshot(page, "equipment-calibration-chart");
   await card.getByText("Retire this calibration…").click();
   await card.getByLabel("Why it is retired").fill("bad");
-  await card.getByRole("button", { name: "Retire the calibration of 2026-11-20" }).click();
+  await card.getByRole("button", { name: "Check what the retirement changes" }).click();
   await expect(card).toContainText("Write why the calibration is retired, in a sentence");
+  await expect(card.getByTestId("retirement-preview")).toHaveCount(0);
   await card.getByLabel("Why it is retired").fill("Gauge dropped on the deck; sent back to the laboratory.");
+  await card.getByRole("button", { name: "Check what the retirement changes" }).click();
+  // No record stands on this set's calibration: nothing is judged again, and nothing is written yet.
+  await expect(card.getByTestId("retirement-preview")).toHaveText(
+    "This retirement judges 0 stressed tendons again; no verdict changes. Press again to retire.",
+  );
+  const [standing] = await queryDemo<{ retired_at: Date | null }>(
+    "select retired_at from calibrations where equipment_set_id = $1",
+    [setId],
+  );
+  expect(standing!.retired_at).toBeNull();
   await card.getByRole("button", { name: "Retire the calibration of 2026-11-20" }).click();
   await expect(card.getByTestId("retired-calibration")).toHaveText(
     "Calibration of 2026-11-20 retired: Gauge dropped on the deck; sent back to the laboratory.",
@@ -64,4 +76,77 @@ test("the admin retires a calibration with a reason from the equipment page", as
     [setId],
   );
   expect(row!.retired_reason).toBe("Gauge dropped on the deck; sent back to the laboratory.");
+});
+
+test("the retirement's check says how many stressed tendons stand on the calibration, and writes nothing", async ({
+  page,
+}) => {
+  test.setTimeout(120_000);
+  const fx = await makePourFixture(`Calibration retire ${stamp}`, [`CR-${stamp}-1`, `CR-${stamp}-2`]);
+  const admin = await apiAs(PEOPLE.admin);
+  const setName = `Zeta retire check set ${stamp}`;
+  const set = await admin.post(`/api/projects/${fx.projectId}/equipment-sets`, {
+    data: {
+      name: setName,
+      jackSerial: `RCJ-${stamp}`,
+      gaugeSerial: `RCG-${stamp}`,
+      pumpSerial: null,
+      jackGripMm: null,
+      maxForceN: null,
+    },
+  });
+  expect(set.status()).toBe(201);
+  const { setId } = (await set.json()) as { setId: string };
+  const calibration = await admin.post(`/api/projects/${fx.projectId}/equipment-sets/${setId}/calibrations`, {
+    data: {
+      calibratedOn: "2026-11-20",
+      validUntil: null,
+      points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })),
+      laboratory: null,
+      certificateAttachmentId: null,
+    },
+  });
+  expect(calibration.status()).toBe(201);
+  const { calibrationId } = (await calibration.json()) as { calibrationId: string };
+  await admin.dispose();
+  // Both tendons stressed with this set, their records naming the calibration.
+  const crew = await apiAs(PEOPLE.crew);
+  const withSet = { ...fx, setId, calibrationId, line: { slope: 5100, intercept: -900 } };
+  for (const t of fx.tendons)
+    expect((await pushEndA(crew, withSet, t.id, 1.0)).result).toMatchObject({ status: "applied" });
+  await crew.dispose();
+  const evaluations = async () =>
+    (
+      await queryDemo<{ n: string }>(
+        "select count(*)::text as n from evaluations where tendon_id in (select id from tendons where pour_id = $1)",
+        [fx.pourId],
+      )
+    )[0]!.n;
+  const before = await evaluations();
+
+  await page.setViewportSize({ width: 1440, height: 900 });
+  await signInWithPassword(page, PEOPLE.admin);
+  await page.waitForURL(/\/(home|setup)/);
+  await page.goto(`/projects/${fx.projectId}/equipment`);
+  const card = page.locator("li.card").filter({ hasText: setName });
+  await card.getByText("Retire this calibration…").click();
+  const form = card.getByRole("form", { name: "Retire the calibration of 2026-11-20" });
+  await form.getByLabel("Why it is retired").fill("The gauge was dropped; checking what retiring it re-judges.");
+  await form.getByRole("button", { name: "Check what the retirement changes" }).click();
+  const preview = form.getByTestId("retirement-preview");
+  // Without a calibration the gauge gives no force: the verdicts may stand, so the words are matched loosely.
+  await expect(preview).toHaveText(
+    /^This retirement judges 2 stressed tendons again; (no verdict changes|\d verdicts? changes?: CR-.+?)(; .+)?\. Press again to retire\.$/,
+  );
+  await screenshot(page, "calibration-retire-preview");
+  // The check wrote nothing: the calibration stands and no evaluation was added.
+  expect(await evaluations()).toBe(before);
+  const [standing] = await queryDemo<{ retired_at: Date | null }>("select retired_at from calibrations where id = $1", [
+    calibrationId,
+  ]);
+  expect(standing!.retired_at).toBeNull();
+  // Editing the reason asks for a new check.
+  await form.getByLabel("Why it is retired").fill("The gauge was dropped on the deck.");
+  await expect(preview).toHaveCount(0);
+  await expect(form.getByRole("button", { name: "Check what the retirement changes" })).toBeVisible();
 });

@@ -127,7 +127,11 @@ export async function pushEndA(
   fx: PourFixture,
   tendonId: string,
   factor: number,
-  options: { deviceTime?: Date } = {},
+  /**
+   * The tablet's clock at the save (now by default), and fields of the record's payload to send
+   * otherwise (a reason for a set used without its calibration).
+   */
+  options: { deviceTime?: Date; expiredCalibrationReason?: string | null } = {},
 ) {
   const { psi, after } = typedReading(fx, factor);
   const measuredMm =
@@ -164,6 +168,9 @@ export async function pushEndA(
     deviceTime: (options.deviceTime ?? new Date()).toISOString(),
     deviceTimeZone: "America/Chicago",
     authorUserId: fx.crewId,
+    ...("expiredCalibrationReason" in options
+      ? { expiredCalibrationReason: options.expiredCalibrationReason ?? null }
+      : {}),
   };
   const res = await crew.post("/api/sync/push", {
     data: { deviceId: "release-check-tablet", ops: [{ opId: randomUUID(), kind: "create", recordId: id, payload }] },

@@ -5,7 +5,11 @@ import { addCalibration } from "@/lib/server/add-calibration";
 import { correctCalibration } from "@/lib/server/correct-calibration";
 import { createEquipmentSet } from "@/lib/server/create-equipment-set";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
-import { previewCalibrationCorrection } from "@/lib/server/preview-calibration-correction";
+import {
+  previewAddCalibration,
+  previewCalibrationCorrection,
+  previewCalibrationRetirement,
+} from "@/lib/server/preview-calibration-correction";
 import { retireCalibration } from "@/lib/server/retire-calibration";
 import { demoFixture, insertRecord } from "../support/records";
 import { createTestDatabase, type TestDatabase } from "../support/database";
@@ -137,6 +141,50 @@ describe("correcting and retiring a calibration", () => {
         .length,
     });
     const untouched = await counts();
+    const flagRows = () =>
+      t.db.selectFrom("flags").select(["id", "status"]).where("tendon_id", "=", tendon.id).execute();
+    /** Flags a change raised and open flags it closed, counted from the rows before and after. */
+    const flagChange = (before: { id: string; status: string }[], after: { id: string; status: string }[]) => ({
+      flagsRaising: after.filter((f) => !before.some((b) => b.id === f.id)).length,
+      flagsClosing: before.filter((b) => b.status === "open" && after.find((f) => f.id === b.id)?.status === "closed")
+        .length,
+    });
+
+    // Adding a calibration: the record named none, so its tendon would be judged again on the new
+    // one; the preview says so and writes nothing. A date after the site's day is refused, naming it.
+    const addition = {
+      projectId: fx.projectId,
+      setId,
+      values: { ...correction.values, calibratedOn: "2026-11-20", points: points(5250) },
+    };
+    const added = await previewAddCalibration(t.db, addition);
+    expect(added).toMatchObject({ rejudged: 1 });
+    expect(added.verdictsChanging).toBe(added.tags.length);
+    expect(await counts()).toEqual(untouched);
+    await expect(
+      previewAddCalibration(t.db, { ...addition, values: { ...addition.values, calibratedOn: "2999-01-01" } }),
+    ).rejects.toMatchObject({ code: "INVALID_INPUT", fields: { calibratedOn: [expect.any(String)] } });
+    // A set with no record that names no calibration: nothing judged again.
+    const { setId: emptySet } = await createEquipmentSet(t.db, {
+      projectId: fx.projectId,
+      values: {
+        name: "Preview empty set",
+        jackSerial: "PE-J1",
+        gaugeSerial: "PE-G1",
+        pumpSerial: null,
+        jackGripMm: null,
+        maxForceN: null,
+      },
+    });
+    expect(await previewAddCalibration(t.db, { ...addition, setId: emptySet })).toEqual({
+      rejudged: 0,
+      verdictsChanging: 0,
+      tags: [],
+      flagsRaising: 0,
+      flagsClosing: 0,
+    });
+
+    const flagsBeforeCorrection = await flagRows();
     const preview = await previewCalibrationCorrection(t.db, correction);
     expect(preview.rejudged).toBe(1);
     expect(await counts()).toEqual(untouched);
@@ -188,6 +236,7 @@ describe("correcting and retiring a calibration", () => {
       rejudged: 1,
       verdictsChanging: changed ? 1 : 0,
       tags: changed ? [expect.any(String)] : [],
+      ...flagChange(flagsBeforeCorrection, await flagRows()),
     });
     expect(usedOf(latest.inputs)).toMatchObject([
       { id: corrected.calibrationId, slope_n_per_mpa: expect.closeTo(5300, 6) },
@@ -214,15 +263,40 @@ describe("correcting and retiring a calibration", () => {
     expect(pickCalibration(await rows(), "2026-12-01")?.id).toBe(corrected.calibrationId);
 
     // Retiring the correction leaves the set with no calibration for the day: the tendon is judged
-    // again without one, so no force is read from the gauge.
-    const retired = await retireCalibration(t.db, {
+    // again without one, so no force is read from the gauge. The preview first: it writes nothing,
+    // refuses what the retirement refuses, and says what the retirement then does.
+    const retirement = {
       projectId: fx.projectId,
       setId,
       calibrationId: corrected.calibrationId,
       by: admin,
       reason: "The gauge was dropped after calibration; sent back to the laboratory.",
-    });
+    };
+    await expect(
+      previewCalibrationRetirement(t.db, { ...retirement, calibrationId: first.calibrationId }),
+    ).rejects.toMatchObject({ code: "CONFLICT" });
+    const beforeRetirement = await counts();
+    const verdictBeforeRetirement = (await evaluations()).at(-1)!.verdict;
+    const flagsBeforeRetirement = await flagRows();
+    const retirePreview = await previewCalibrationRetirement(t.db, retirement);
+    expect(await counts()).toEqual(beforeRetirement);
+    expect(await flagRows()).toEqual(flagsBeforeRetirement);
+    const stillStanding = await t.db
+      .selectFrom("calibrations")
+      .select("retired_at")
+      .where("id", "=", corrected.calibrationId)
+      .executeTakeFirstOrThrow();
+    expect(stillStanding.retired_at).toBeNull();
+    const retired = await retireCalibration(t.db, retirement);
     expect(retired.reevaluated).toBe(1);
+    const retiredVerdict = (await evaluations()).at(-1)!.verdict;
+    const retirementChanged = retiredVerdict !== verdictBeforeRetirement;
+    expect(retirePreview).toEqual({
+      rejudged: 1,
+      verdictsChanging: retirementChanged ? 1 : 0,
+      tags: retirementChanged ? [expect.any(String)] : [],
+      ...flagChange(flagsBeforeRetirement, await flagRows()),
+    });
     expect(pickCalibration(await rows(), "2026-12-01")).toBeNull();
     const final = (await evaluations()).at(-1)!;
     expect(final.reason).toMatch(/retired: The gauge was dropped/);

@@ -6,7 +6,7 @@ import { addCalibration } from "@/lib/server/add-calibration";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getProjectSettings } from "@/lib/server/get-project-settings";
 import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
-import { previewBasisChange } from "@/lib/server/reevaluate-project";
+import { previewSettingsChange } from "@/lib/server/preview-settings-change";
 import { updateProjectSettings } from "@/lib/server/update-project-settings";
 import { judgeStressing } from "@/lib/stressing/judge";
 import { demoFixture, insertRecord } from "../support/records";
@@ -83,19 +83,28 @@ describe("re-evaluation when the project's basis changes", () => {
     expect(first).toMatchObject({ verdict: "in band", flagKinds: [] });
     expect(first.deviationPct).toBeCloseTo(6, 6);
 
-    const preview = await previewBasisChange(t.db, { projectId: fx.projectId, basis: { tolerancePct: 5 } });
+    const settings = settingsFields(await getProjectSettings(t.db, fx.projectId));
+    const preview = await previewSettingsChange(t.db, {
+      projectId: fx.projectId,
+      values: { ...settings, tolerancePct: 5 },
+      by: fx.crewId,
+    });
     expect(preview.tags).toContain("2-1-U06");
-    expect(preview.stressed).toBeGreaterThanOrEqual(preview.verdictsChanging);
+    expect(preview.rejudged).toBeGreaterThanOrEqual(preview.verdictsChanging);
+    // The 6 % tendon leaves the ±5 % band: its out-of-band flag is counted among those raised.
+    expect(preview.flagsRaising).toBeGreaterThanOrEqual(1);
     const untouched = await t.db.selectFrom("evaluations").select("id").where("tendon_id", "=", tendon.id).execute();
     expect(untouched).toHaveLength(1); // the preview wrote nothing
+    expect(await t.db.selectFrom("flags").select("id").where("tendon_id", "=", tendon.id).execute()).toEqual([]);
+    const stored = await getProjectSettings(t.db, fx.projectId);
+    expect(stored.tolerancePct).toBe(settings.tolerancePct);
 
-    const settings = settingsFields(await getProjectSettings(t.db, fx.projectId));
     const narrowed = await updateProjectSettings(t.db, {
       projectId: fx.projectId,
       values: { ...settings, tolerancePct: 5 },
       by: fx.crewId,
     });
-    expect(narrowed.reevaluated).toBe(preview.stressed);
+    expect(narrowed.reevaluated).toBe(preview.rejudged);
     expect(narrowed.changed).toBeGreaterThanOrEqual(1);
     const latest = () =>
       t.db
@@ -234,7 +243,11 @@ describe("re-evaluation when the project's basis changes", () => {
       .execute();
     const settings = settingsFields(await getProjectSettings(t.db, fx.projectId));
     expect(settings.governing).toBe("tautline");
-    const preview = await previewBasisChange(t.db, { projectId: fx.projectId, basis: { governing: "shop_drawing" } });
+    const preview = await previewSettingsChange(t.db, {
+      projectId: fx.projectId,
+      values: { ...settings, governing: "shop_drawing" },
+      by: fx.crewId,
+    });
     expect(preview.tags).toContain("2-1-U06");
 
     const toShop = await updateProjectSettings(t.db, {
@@ -242,7 +255,7 @@ describe("re-evaluation when the project's basis changes", () => {
       values: { ...settings, governing: "shop_drawing" },
       by: fx.crewId,
     });
-    expect(toShop.reevaluated).toBe(preview.stressed);
+    expect(toShop.reevaluated).toBe(preview.rejudged);
     const latest = () =>
       t.db
         .selectFrom("evaluations")

@@ -352,8 +352,12 @@ function seedBody(endpoint: string, w: World): Record<string, unknown> | null {
       maxForceN: null,
     },
     "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations": calibration,
+    "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/preview": calibration,
     "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/retirement": {
       reason: "Fuzz check of a retirement.",
+    },
+    "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/retirement/preview": {
+      reason: "Fuzz check of a retirement preview.",
     },
     "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/correction": {
       reason: "Fuzz check of a correction.",

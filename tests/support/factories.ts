@@ -79,6 +79,8 @@ export interface TendonShape {
   jackGripMm: number | null;
   shopElongationMm?: number | null;
   strandLotId?: string | null;
+  /** The member (beam, slab strip, band) the schedule puts the tendon in; none: the pour is its group. */
+  member?: string | null;
 }
 
 /** Tendons of one shape in a pour, tagged as given; returned in the same order. */
@@ -105,6 +107,7 @@ export async function makeTendons(
           jack_grip_mm: shape.jackGripMm,
           shop_elongation_mm: shape.shopElongationMm ?? null,
           strand_lot_id: shape.strandLotId ?? null,
+          ...(shape.member !== undefined && { member: shape.member }),
         })
         .returning(["id", "pour_id", "tag"])
         .executeTakeFirstOrThrow(),
