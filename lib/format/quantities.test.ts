@@ -1,7 +1,10 @@
 import { describe, expect, it } from "vitest";
 import { METRES_PER_FOOT, MM_PER_FOOT, MM_PER_INCH, MPA_PER_KSI, MPA_PER_PSI, N_PER_KIP } from "@/lib/units";
 import {
+  displayUnit,
+  fromDisplayUnit,
   groupedNumber,
+  inDisplayUnit,
   showArea,
   showComputedLength,
   showForce,
@@ -9,7 +12,10 @@ import {
   showLongLength,
   showModulus,
   showPct,
+  showNumber,
+  showPctPoints,
   showPressure,
+  showShare,
   showSteelStress,
   showStrength,
   showWobble,
@@ -79,5 +85,34 @@ describe("quantities in the project's units", () => {
   it("refuses a value that is not finite, naming what it is", () => {
     expect(() => showArea(us, Number.NaN)).toThrow(/area/);
     expect(() => showModulus(si, Number.POSITIVE_INFINITY)).toThrow(/modulus/);
+  });
+
+  it("gives a chart the project's unit and the value in it", () => {
+    // NIST SP 811 Appendix B.8: 1 in = 2.54 cm exactly, so 63.5 mm = 2.5 in.
+    expect(displayUnit(us, "length")).toBe("in");
+    expect(inDisplayUnit(us, "length", 63.5)).toBeCloseTo(2.5, 12);
+    expect(fromDisplayUnit(us, "length", 2.5)).toBeCloseTo(63.5, 12);
+    expect(displayUnit(si, "length")).toBe("mm");
+    expect(inDisplayUnit(si, "length", 63.5)).toBe(63.5);
+    // NIST SP 811 Appendix B.8: 1 kip = 4.448222 kN, so 30 kip = 133.4467 kN.
+    expect(displayUnit(us, "force")).toBe("kip");
+    expect(inDisplayUnit(us, "force", 133_446.7)).toBeCloseTo(30, 4);
+    expect(displayUnit(si, "force")).toBe("kN");
+    expect(inDisplayUnit(si, "force", 133_446.7)).toBeCloseTo(133.4467, 10);
+    expect(fromDisplayUnit(si, "force", 150)).toBe(150_000);
+    // NIST SP 811 Appendix B.8: 1 psi = 6.894757 kPa, so 4,000 psi = 27.579 MPa.
+    expect(displayUnit(us, "pressure")).toBe("psi");
+    expect(inDisplayUnit(us, "pressure", 27.579)).toBeCloseTo(4000, 1);
+    expect(fromDisplayUnit(us, "pressure", 4000)).toBeCloseTo(27.579, 3);
+    expect(() => inDisplayUnit(us, "force", Number.NaN)).toThrow(/force/);
+  });
+
+  it("prints fits, shares and differences of percentages", () => {
+    expect(showNumber(0.99871, 4)).toBe("0.9987");
+    expect(showNumber(1.0415, 3)).toBe("1.042");
+    expect(showPctPoints(2.449)).toBe("2.4 pts");
+    expect(showShare(0.346)).toBe("35 %");
+    expect(showShare(null)).toBe("—");
+    expect(() => showShare(Number.NaN)).toThrow(/share/);
   });
 });
