@@ -1,13 +1,16 @@
 import { describe, expect, it } from "vitest";
-import { METRES_PER_FOOT, MM_PER_FOOT, MM_PER_INCH, MPA_PER_KSI, MPA_PER_PSI, N_PER_KIP } from "@/lib/units";
+import { in2ToMm2, METRES_PER_FOOT, MM_PER_FOOT, MM_PER_INCH, MPA_PER_KSI, MPA_PER_PSI, N_PER_KIP } from "@/lib/units";
 import {
   displayUnit,
   fromDisplayUnit,
   groupedNumber,
   inDisplayUnit,
+  showAngle,
+  showBandPct,
   showArea,
   showComputedLength,
   showForce,
+  showForcePerPressure,
   showLength,
   showLongLength,
   showModulus,
@@ -105,6 +108,29 @@ describe("quantities in the project's units", () => {
     expect(inDisplayUnit(us, "pressure", 27.579)).toBeCloseTo(4000, 1);
     expect(fromDisplayUnit(us, "pressure", 4000)).toBeCloseTo(27.579, 3);
     expect(() => inDisplayUnit(us, "force", Number.NaN)).toThrow(/force/);
+  });
+
+  it("prints a calibration line's slope in force per unit of gauge pressure", () => {
+    // Force = pressure × ram area: 1 psi on 15.5 in² is 15.5 lbf = 0.0155 kip; 1 MPa on 10,000 mm² is 10 kN.
+    expect(showForcePerPressure(us, in2ToMm2(15.5))).toBe("0.01550 kip/psi");
+    expect(showForcePerPressure(si, 10_000)).toBe("10.0000 kN/MPa");
+    expect(() => showForcePerPressure(si, Number.NaN)).toThrow(/slope/);
+  });
+
+  it("prints the wobble coefficient to more decimals on a calculation sheet", () => {
+    // 0.0002 per ft ÷ 0.3048 = 0.00065617 per m (1 ft = 0.3048 m exactly, NIST SP 811 B.8).
+    expect(showWobble(si, 0.0002 / METRES_PER_FOOT, 5)).toBe("0.00066 per m");
+    expect(showWobble(us, 0.0002 / METRES_PER_FOOT, 5)).toBe("0.00020 per ft");
+  });
+
+  it("prints a band as the setting is written and an angle in radians and degrees", () => {
+    // ACI 318-11 §18.20.1 (from memory): ±7 %.
+    expect(showBandPct(7)).toBe("±7 %");
+    expect(showBandPct(7.46)).toBe("±7.5 %");
+    // π/4 rad = 45° = 0.785398 rad.
+    expect(showAngle(Math.PI / 4)).toBe("0.7854 rad (45.00°)");
+    expect(showAngle(0)).toBe("0.0000 rad (0.00°)");
+    expect(() => showAngle(Number.NaN)).toThrow(/angle/);
   });
 
   it("prints fits, shares and differences of percentages", () => {

@@ -13,6 +13,7 @@ import {
   MPA_PER_KSI,
   MPA_PER_PSI,
   PRESSURE_UNITS,
+  radToDeg,
   wobblePerMToPerFt,
   type ReadingResolution,
   type UnitSpec,
@@ -126,6 +127,24 @@ export function showWobble(project: Pick<DisplayUnits, "unitSystem">, perM: numb
   return project.unitSystem === "us"
     ? `${wobblePerMToPerFt(perM).toFixed(decimals)} per ft`
     : `${perM.toFixed(decimals)} per m`;
+}
+
+/** A band either side of zero, as the project setting is written: "±7 %", "±7.5 %". */
+export function showBandPct(pct: number): string {
+  return `±${Number(Math.abs(finite(pct, "band")).toFixed(1))} %`;
+}
+
+/** An angle change of a tendon's profile, in radians as the friction formula takes it and in degrees: "0.7854 rad (45.00°)". */
+export function showAngle(rad: number): string {
+  finite(rad, "angle");
+  return `${groupedNumber(rad, 4)} rad (${groupedNumber(radToDeg(rad), 2)}°)`;
+}
+
+/** A calibration line's slope, force per unit of gauge pressure: "0.01550 kip/psi", "10.0000 kN/MPa". */
+export function showForcePerPressure(project: Pick<DisplayUnits, "unitSystem">, nPerMPa: number): string {
+  const perShownPressure = finite(nPerMPa, "slope") * fromDisplayUnit(project, "pressure", 1);
+  const value = inDisplayUnit(project, "force", perShownPressure);
+  return `${groupedNumber(value, project.unitSystem === "us" ? 5 : 4)} ${displayUnit(project, "force")}/${displayUnit(project, "pressure")}`;
 }
 
 /** A quantity a chart draws or a line states in the project's unit rather than as text. */
