@@ -1,6 +1,15 @@
 import nextVitals from "eslint-config-next/core-web-vitals";
 import nextTs from "eslint-config-next/typescript";
+import { readFileSync } from "node:fs";
 import noUnitFactorLiteral from "./eslint/no-unit-factor-literal.mjs";
+
+/**
+ * Every export of lib/units/factors.ts (the factors and the conversions built on them) and the unit
+ * tables that carry them: read from the file, so a factor added there is refused here too.
+ */
+const UNIT_FACTOR_EXPORTS = [
+  ...readFileSync(new URL("./lib/units/factors.ts", import.meta.url), "utf8").matchAll(/^export const (\w+)/gm),
+].map((m) => m[1]);
 
 const config = [
   ...nextVitals,
@@ -24,6 +33,32 @@ const config = [
     plugins: { tautline: { rules: { "no-unit-factor-literal": noUnitFactorLiteral } } },
     ignores: ["lib/units/**", "eslint/**"],
     rules: { "tautline/no-unit-factor-literal": "error" },
+  },
+  {
+    // Screens and routes show quantities through lib/format/quantities (and fill form boxes through
+    // lib/client/unit-fields), never with a factor of their own: what the literal rule cannot see.
+    files: ["app/**/*.{ts,tsx}", "components/**/*.{ts,tsx}"],
+    rules: {
+      "no-restricted-imports": [
+        "error",
+        {
+          paths: [
+            {
+              name: "@/lib/units",
+              importNames: [...UNIT_FACTOR_EXPORTS, "LENGTH_UNITS", "PRESSURE_UNITS", "FORCE_UNITS"],
+              message:
+                "Show a quantity through lib/format/quantities (showLength, showForce, inDisplayUnit …) or fill a form box through PER and shown() of lib/client/unit-fields.",
+            },
+          ],
+          patterns: [
+            {
+              group: ["@/lib/units/*"],
+              message: "Import from @/lib/units (parsing and formatting), not from its files.",
+            },
+          ],
+        },
+      ],
+    },
   },
   // The layers point one way: app → components → lib → db. The pure computation imports nothing of
   // the app, lib never reaches into components, server operations never into the HTTP transport.

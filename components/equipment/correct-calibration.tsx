@@ -11,7 +11,7 @@ import { placeFields, refusedWords } from "@/lib/client/field-errors";
 import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { calibrationCorrectionSchema, calibrationSchema, type CalibrationInput } from "@/lib/schemas/calibration";
-import { mpaToPsi, nToKip, nToKN } from "@/lib/units";
+import { PER, shown } from "@/lib/client/unit-fields";
 import { readPoints } from "./equipment-forms";
 import { equipmentSetsKey } from "./equipment-list";
 
@@ -20,13 +20,12 @@ type Boxes = { calibratedOn: string; validUntil: string; pointsText: string; lab
 type Corrected = CalibrationInput & { reason: string };
 
 /** A stored point as the admin would type it, in the project's units, without rounding that matters. */
-const asTyped = (n: number, decimals: number) => String(Number(n.toFixed(decimals)));
 const pointsText = (points: CalibrationPoint[], us: boolean) =>
   points
     .map((p) =>
       us
-        ? `${asTyped(mpaToPsi(p.pressureMPa), 1)}, ${asTyped(nToKip(p.forceN), 4)}`
-        : `${asTyped(p.pressureMPa, 3)}, ${asTyped(nToKN(p.forceN), 3)}`,
+        ? `${shown(p.pressureMPa, PER.psi, 1)}, ${shown(p.forceN, PER.kip, 4)}`
+        : `${shown(p.pressureMPa, PER.MPa, 3)}, ${shown(p.forceN, PER.kN, 3)}`,
     )
     .join("\n");
 

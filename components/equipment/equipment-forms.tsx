@@ -15,6 +15,7 @@ import { sendJson, type ApiError } from "@/lib/client/send-json";
 import { calibrationSchema, type CalibrationInput } from "@/lib/schemas/calibration";
 import { equipmentSetSchema, type EquipmentSetInput } from "@/lib/schemas/equipment";
 import { isInputError, parseForce, parsePressure } from "@/lib/units";
+import { showNumber } from "@/lib/format/quantities";
 import { equipmentSetsKey, useEquipmentSets, type EquipmentSetList } from "./equipment-list";
 
 type Errors = Record<string, { message?: string } | undefined>;
@@ -218,7 +219,7 @@ export function CalibrationForm({
     setPreview(null);
     setMessage({
       tone: "info",
-      text: `Calibration saved: r² = ${r.data.r2.toFixed(5)}, valid to ${r.data.validUntil}. ${r.data.warnings.join(" ")}`,
+      text: `Calibration saved: r² = ${showNumber(r.data.r2, 5)}, valid to ${r.data.validUntil}. ${r.data.warnings.join(" ")}`,
     });
     form.reset();
     void mutate(equipmentSetsKey(projectId));

@@ -1,13 +1,19 @@
 "use client";
 
 import { RefreshError, useRouteData } from "@/components/setup/use-route-data";
-import { showComputedLength } from "@/lib/format/quantities";
+import {
+  displayUnit,
+  inDisplayUnit,
+  showComputedLength,
+  showForce,
+  showForcePerPressure,
+  showNumber,
+} from "@/lib/format/quantities";
 import { CALIBRATION_STATE_LABELS } from "@/lib/schemas/calibration";
 import type { EquipmentSetView } from "@/lib/server/list-equipment-sets";
 import { CalibrationChart } from "./calibration-chart";
 import { CorrectCalibration } from "./correct-calibration";
 import { RetireCalibration } from "./retire-calibration";
-import { MPA_PER_PSI, N_PER_KIP } from "@/lib/units";
 
 export interface EquipmentSetList {
   equipmentSets: EquipmentSetView[];
@@ -33,10 +39,11 @@ export function EquipmentList({
 }) {
   const { data, error } = useEquipmentSets(projectId, initial);
   const sets = data.equipmentSets;
-  const p = (mpa: number) => (us ? mpa / MPA_PER_PSI : mpa);
-  const f = (n: number) => (us ? n / N_PER_KIP : n / 1000);
-  const pu = us ? "psi" : "MPa";
-  const fu = us ? "kip" : "kN";
+  const shown = { unitSystem: us ? "us" : "si" } as const;
+  const p = (mpa: number) => inDisplayUnit(shown, "pressure", mpa);
+  const f = (n: number) => inDisplayUnit(shown, "force", n);
+  const pu = displayUnit(shown, "pressure");
+  const fu = displayUnit(shown, "force");
   return (
     <>
       <RefreshError error={error} what="list of equipment sets" />
@@ -72,9 +79,9 @@ export function EquipmentList({
               {c && (
                 <>
                   <p className="mt-1">
-                    Line: force = {f(c.slope * (us ? MPA_PER_PSI : 1)).toFixed(us ? 5 : 4)} {fu}/{pu} × pressure{" "}
-                    {c.intercept >= 0 ? "+" : "−"} {Math.abs(f(c.intercept)).toFixed(2)} {fu} · r² = {c.r2.toFixed(5)} ·{" "}
-                    {c.points.length} points, {p(c.minPressureMPa).toFixed(0)}–{p(c.maxPressureMPa).toFixed(0)} {pu}
+                    Line: force = {showForcePerPressure(shown, c.slope)} × pressure {c.intercept >= 0 ? "+" : "−"}{" "}
+                    {showForce(shown, Math.abs(c.intercept))} · r² = {showNumber(c.r2, 5)} · {c.points.length} points,{" "}
+                    {showNumber(p(c.minPressureMPa), 0)}–{showNumber(p(c.maxPressureMPa), 0)} {pu}
                     {c.laboratory ? ` · ${c.laboratory}` : ""}
                   </p>
                   <CalibrationChart

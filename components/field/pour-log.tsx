@@ -16,7 +16,7 @@ import { awaitingRestressOf, cutClearanceOf, holdsOf, holdSummary } from "@/lib/
 import { projectTimeZone } from "@/lib/format/dates";
 import type { FieldEvaluation, FieldFlag, FieldTendon } from "@/lib/schemas/sync";
 import { stressedEnds } from "@/lib/stressing/basis";
-import { showLength, showPressure } from "@/lib/format/quantities";
+import { showLength, showLongLength, showPressure } from "@/lib/format/quantities";
 import { DecisionNotices } from "./decision-notices";
 import { useField } from "./field-provider";
 import { GaugeCheck } from "./gauge-check";
@@ -24,7 +24,6 @@ import { PourReleaseNote } from "./pour-release-note";
 import { concreteGateMet } from "@/lib/stressing/concrete-strength";
 import { CutAllClear, TailCutPanel } from "./tail-cut";
 import { useLiveQuery as useLive } from "dexie-react-hooks";
-import { mmToFt } from "@/lib/units";
 import { units, VerdictPanel } from "./verdict-panel";
 import { countOf } from "@/lib/format/count";
 
@@ -486,9 +485,8 @@ function TendonPanel(props: {
             <StateMark state={props.state} />
           </div>
           <p>
-            {tendon.strandCount} × {tendon.strandSize} strand ·{" "}
-            {project.unitSystem === "us" ? `${mmToFt(lengthMm).toFixed(1)} ft` : `${(lengthMm / 1000).toFixed(2)} m`}{" "}
-            long · stressed at {tendon.ends === "both" ? "both ends" : `end ${tendon.ends}`}
+            {tendon.strandCount} × {tendon.strandSize} strand · {showLongLength(units(project), lengthMm)} long ·
+            stressed at {tendon.ends === "both" ? "both ends" : `end ${tendon.ends}`}
             {lot ? ` · lot ${lot.lotNumber}` : ""}
           </p>
         </header>

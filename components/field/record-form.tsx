@@ -20,7 +20,8 @@ import {
 } from "@/lib/schemas/record";
 import { stressedEnds } from "@/lib/stressing/basis";
 import { finerDivision, showPressure } from "@/lib/stressing/display";
-import { MM_PER_INCH, MPA_PER_PSI } from "@/lib/units";
+import { PER, shown } from "@/lib/client/unit-fields";
+import { showPct } from "@/lib/format/quantities";
 import { setFormDirty } from "./form-dirty";
 import { SafetyCaution } from "@/components/ui/caution";
 import { fieldAria, FormField } from "@/components/ui/form-field";
@@ -114,15 +115,15 @@ function formFromEntered(base: LocalRecord): RecordFormValues {
         (st.pressureMPa === undefined
           ? ""
           : e.units.pressure === "psi"
-            ? String(Math.round(st.pressureMPa / MPA_PER_PSI))
-            : String(Number(st.pressureMPa.toFixed(2)))),
+            ? shown(st.pressureMPa, PER.psi, 0)
+            : shown(st.pressureMPa, PER.MPa, 2)),
       reading:
         st.reading ??
         (st.readingMm === undefined
           ? ""
           : e.units.length === "in"
-            ? String(Number((st.readingMm / MM_PER_INCH).toFixed(4)))
-            : String(Number(st.readingMm.toFixed(1)))),
+            ? shown(st.readingMm, PER.in, 4)
+            : shown(st.readingMm, PER.mm, 1)),
     })),
     stressingOrder: base.stressingOrder ?? "sequential",
     wireBreaks: String(base.wireBreaks),
@@ -304,7 +305,7 @@ export function RecordForm({
         if (!offTarget || offTarget.reason.trim().length < 3) {
           setOffTarget({ pct: offPct, reason: offTarget?.reason ?? "" });
           setSaveError(
-            `The final pressure is ${offPct >= 0 ? "+" : "−"}${Math.abs(offPct).toFixed(1)} % from the target ${showPressure(units(ctx.project), target!)}: read the gauge again, or say why below and save again.`,
+            `The final pressure is ${showPct(offPct)} from the target ${showPressure(units(ctx.project), target!)}: read the gauge again, or say why below and save again.`,
           );
           return;
         }

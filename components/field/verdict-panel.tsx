@@ -2,6 +2,7 @@ import { Caution } from "@/components/ui/caution";
 import type { LocalVerdict } from "@/lib/offline/db";
 import type { FieldProject, OpEvaluation } from "@/lib/schemas/sync";
 import {
+  showBandPct,
   showComputedLength,
   showForce,
   showLength,
@@ -191,8 +192,8 @@ export function VerdictPanel({
                     <span data-testid={`force-agreement-${f.end}`}>
                       {" "}
                       ({showPct(f.differencePct)},{" "}
-                      {Math.abs(f.differencePct) <= f.bandPct + 1e-9 ? "within" : <strong>outside</strong>} ±
-                      {Number(f.bandPct.toFixed(1))} %)
+                      {Math.abs(f.differencePct) <= f.bandPct + 1e-9 ? "within" : <strong>outside</strong>}{" "}
+                      {showBandPct(f.bandPct)})
                     </span>
                   )}
                 </span>

@@ -11,12 +11,15 @@ import {
   XAxis,
   YAxis,
 } from "recharts";
-import { showPct } from "@/lib/format/quantities";
+import { niceAxis } from "@/lib/format/axis";
+import { showNumber, showPct } from "@/lib/format/quantities";
 import { VERDICT_MARKS, type DeviationPoint } from "./verdict-marks";
 
 /** The deviation chart's drawing (recharts), loaded only where the chart is shown. */
 export function DeviationPlot({ points, tolerancePct }: { points: DeviationPoint[]; tolerancePct: number }) {
   const extent = Math.max(tolerancePct * 1.6, ...points.map((p) => Math.abs(p.deviationPct) + 1));
+  // Symmetric about zero, on round percentages.
+  const axis = niceAxis(-extent, extent, 6);
   const tagAt = (i: number) => points.find((p) => p.index === i)?.tag ?? "";
   return (
     <ResponsiveContainer width="100%" height="100%">
@@ -33,8 +36,9 @@ export function DeviationPlot({ points, tolerancePct }: { points: DeviationPoint
         <YAxis
           dataKey="deviationPct"
           type="number"
-          domain={[-Math.ceil(extent), Math.ceil(extent)]}
-          tickFormatter={(v: number) => `${v > 0 ? "+" : v < 0 ? "−" : ""}${Math.abs(v)} %`}
+          domain={axis.domain}
+          ticks={axis.ticks}
+          tickFormatter={(v: number) => `${v > 0 ? "+" : v < 0 ? "−" : ""}${showNumber(Math.abs(v), axis.decimals)} %`}
           label={{ value: "deviation, %", angle: -90, position: "left", offset: 0 }}
         />
         <ReferenceLine
@@ -61,8 +65,7 @@ export function DeviationPlot({ points, tolerancePct }: { points: DeviationPoint
             if (!p) return null;
             return (
               <div className="rounded-md border-2 border-ink bg-white p-2 text-label">
-                <strong>{p.tag}</strong>: {p.deviationPct >= 0 ? "+" : "−"}
-                {Math.abs(p.deviationPct).toFixed(1)} %, {p.verdict}
+                <strong>{p.tag}</strong>: {showPct(p.deviationPct)}, {p.verdict}
                 {p.provisional ? " (provisional)" : ""}
               </div>
             );

@@ -1,10 +1,7 @@
-import { showModulus, type DisplayUnits } from "@/lib/format/quantities";
+import { showModulus, showNumber, showPct, showPctPoints, showShare, type DisplayUnits } from "@/lib/format/quantities";
 import type { ApparentModulus, ResolutionShare, SetDrift } from "@/lib/insights";
 
 /** The insight page's tables: plain server-rendered markup, numbers in tabular figures. */
-
-const pct = (v: number) => `${v >= 0 ? "+" : "−"}${Math.abs(v).toFixed(1)} %`;
-const share = (s: number | null) => (s === null ? "—" : `${Math.round(s * 100)} %`);
 
 export function DriftTable({ caption, sets }: { caption: string; sets: SetDrift[] }) {
   if (!sets.length)
@@ -36,11 +33,11 @@ export function DriftTable({ caption, sets }: { caption: string; sets: SetDrift[
               </th>
               <td className="whitespace-nowrap p-2 text-right tabular-nums">{s.n}</td>
               <td className="whitespace-nowrap p-2 text-right tabular-nums">
-                {pct(s.meanPct)} <span className="text-label text-ink-faint">± {s.sePct.toFixed(1)}</span>
+                {showPct(s.meanPct)} <span className="text-label text-ink-faint">± {showNumber(s.sePct, 1)}</span>
               </td>
-              <td className="whitespace-nowrap p-2 text-right tabular-nums">{s.sdPct.toFixed(1)} pts</td>
+              <td className="whitespace-nowrap p-2 text-right tabular-nums">{showPctPoints(s.sdPct)}</td>
               <td className="whitespace-nowrap p-2 text-right tabular-nums">
-                {s.others ? `${pct(s.others.meanPct)} (${s.others.n})` : "—"}
+                {s.others ? `${showPct(s.others.meanPct)} (${s.others.n})` : "—"}
               </td>
               <td className="p-2">
                 {s.drifting ? (
@@ -121,9 +118,9 @@ export function ModulusTable({
                     {m.millModulusMPa ? showModulus(project, m.millModulusMPa) : "—"}
                   </td>
                   <td className="whitespace-nowrap p-2 text-right tabular-nums">
-                    {m.modulusRatio ? m.modulusRatio.toFixed(3) : "—"}
+                    {m.modulusRatio ? showNumber(m.modulusRatio, 3) : "—"}
                   </td>
-                  <td className="whitespace-nowrap p-2 text-right tabular-nums">{m.r2.toFixed(4)}</td>
+                  <td className="whitespace-nowrap p-2 text-right tabular-nums">{showNumber(m.r2, 4)}</td>
                 </>
               )}
             </tr>
@@ -142,9 +139,9 @@ export function ResolutionSummary({ resolution, division }: { resolution: Resolu
   return (
     <div className="card space-y-2" data-table="resolution">
       <p>
-        <strong className="tabular-nums">{share(resolution.short.share)}</strong> of short tendons (
+        <strong className="tabular-nums">{showShare(resolution.short.share)}</strong> of short tendons (
         {resolution.short.couldChange} of {resolution.short.n}) and{" "}
-        <strong className="tabular-nums">{share(resolution.all.share)}</strong> of all complete tendons (
+        <strong className="tabular-nums">{showShare(resolution.all.share)}</strong> of all complete tendons (
         {resolution.all.couldChange} of {resolution.all.n}) have a verdict that the reading division ({division}) alone
         could change: half a division either way on each end read crosses a band edge.
       </p>

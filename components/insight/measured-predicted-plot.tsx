@@ -11,6 +11,8 @@ import {
   XAxis,
   YAxis,
 } from "recharts";
+import { niceAxis } from "@/lib/format/axis";
+import { showNumber } from "@/lib/format/quantities";
 import { VERDICT_MARKS, type ElongationPoint } from "./verdict-marks";
 
 /** The measured-against-predicted chart's drawing (recharts), loaded only where the chart is shown. */
@@ -24,8 +26,10 @@ export function MeasuredPredictedPlot({
   unit: string;
 }) {
   const values = points.flatMap((p) => [p.predicted, p.measured]);
-  const lo = Math.max(0, Math.floor(Math.min(...values) * 0.85));
-  const hi = Math.ceil(Math.max(...values) * 1.1);
+  // Both axes alike, on round values of the unit shown, so the equal line runs corner to corner.
+  const axis = niceAxis(Math.max(0, Math.min(...values) * 0.85), Math.max(...values) * 1.1, 5);
+  const [lo, hi] = axis.domain;
+  const tick = (v: number) => showNumber(v, axis.decimals);
   const t = tolerancePct / 100;
   const line = (k: number): [{ x: number; y: number }, { x: number; y: number }] => [
     { x: lo, y: lo * k },
@@ -38,15 +42,17 @@ export function MeasuredPredictedPlot({
         <XAxis
           dataKey="predicted"
           type="number"
-          domain={[lo, hi]}
-          tickFormatter={(v: number) => v.toFixed(unit === "in" ? 1 : 0)}
+          domain={axis.domain}
+          ticks={axis.ticks}
+          tickFormatter={tick}
           label={{ value: `predicted, ${unit}`, position: "insideBottom", offset: -18 }}
         />
         <YAxis
           dataKey="measured"
           type="number"
-          domain={[lo, hi]}
-          tickFormatter={(v: number) => v.toFixed(unit === "in" ? 1 : 0)}
+          domain={axis.domain}
+          ticks={axis.ticks}
+          tickFormatter={tick}
           label={{ value: `measured, ${unit}`, angle: -90, position: "left", offset: 0 }}
         />
         <ReferenceLine segment={line(1)} stroke="#14213d" strokeWidth={2} ifOverflow="hidden" />
@@ -58,8 +64,7 @@ export function MeasuredPredictedPlot({
             if (!p) return null;
             return (
               <div className="rounded-md border-2 border-ink bg-white p-2 text-label">
-                <strong>{p.tag}</strong>: measured {p.measured.toFixed(2)} {unit}, predicted {p.predicted.toFixed(2)}{" "}
-                {unit}, {p.verdict}
+                <strong>{p.tag}</strong>: measured {p.measuredText}, predicted {p.predictedText}, {p.verdict}
               </div>
             );
           }}

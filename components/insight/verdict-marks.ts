@@ -14,9 +14,12 @@ export const VERDICT_MARKS = {
   short: { name: "Short (square)", shape: "square", colour: "#1f4e99" },
 } as const;
 
+/** A tendon on the measured-against-predicted chart: the values in the display unit, and as printed. */
 export interface ElongationPoint {
   tag: string;
   predicted: number;
   measured: number;
+  predictedText: string;
+  measuredText: string;
   verdict: "in band" | "long" | "short";
 }

@@ -1,19 +1,20 @@
 import { ForceProfileChart } from "@/components/review/force-profile-chart";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
 import {
+  showAngle,
   showArea,
+  showBandPct,
   showComputedLength,
   showForce,
   showLength,
   showModulus,
+  showNumber,
   showPct,
   showPressure,
+  showWobble,
 } from "@/lib/format/quantities";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
 import { showBandEdge } from "@/lib/stressing/display";
-import { N_PER_KIP, wobblePerMToPerFt } from "@/lib/units";
-
-const deg = (rad: number) => `${((rad * 180) / Math.PI).toFixed(2)}°`;
 
 function Row({ label, value, source }: { label: string; value: string; source?: string }) {
   return (
@@ -76,7 +77,7 @@ function ForceRows({
   p: TendonCase["basis"]["project"];
   e: NonNullable<TendonCase["figures"]>["ends"][number];
 }) {
-  const band = e.forceBandPct !== null ? `±${Number(e.forceBandPct.toFixed(1))} %` : null;
+  const band = e.forceBandPct !== null ? showBandPct(e.forceBandPct) : null;
   const agrees =
     e.forceDifferencePct !== null && band !== null ? Math.abs(e.forceDifferencePct) <= e.forceBandPct! + 1e-9 : null;
   return (
@@ -123,7 +124,7 @@ function GaugeRows({
           />
           <Row
             label={`Steps' line, end ${e.end}`}
-            value={`r² ${fit.r2.toFixed(4)}; adds ${showComputedLength(p, fit.belowReferenceMm)} below ${
+            value={`r² ${showNumber(fit.r2, 4)}; adds ${showComputedLength(p, fit.belowReferenceMm)} below ${
               e.initialPressureMPa !== null ? showPressure(p, e.initialPressureMPa) : "zero"
             }`}
             source="Least squares of force on reading; force ÷ slope below the initial pressure"
@@ -194,7 +195,7 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
             <Row label="Curvature friction μ" value={String(p.frictionMu)} source="Project setting" />
             <Row
               label="Wobble K"
-              value={`${p.wobblePerM.toFixed(5)} per m (${wobblePerMToPerFt(p.wobblePerM).toFixed(5)} per ft)`}
+              value={`${showWobble({ unitSystem: "si" }, p.wobblePerM, 5)} (${showWobble({ unitSystem: "us" }, p.wobblePerM, 5)})`}
               source="Project setting"
             />
             <Row label="Anchor set" value={showComputedLength(p, p.anchorSetMm)} source="Project setting" />
@@ -233,10 +234,8 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
                 <tr key={s.index} className="border-b border-concrete-200">
                   <td className="py-1">{s.index}</td>
                   <td className="py-1 text-right">{showComputedLength(p, s.lengthMm)}</td>
-                  <td className="py-1 text-right">
-                    {s.angleRad.toFixed(4)} rad ({deg(s.angleRad)})
-                  </td>
-                  <td className="py-1 text-right">{s.beta.toFixed(5)}</td>
+                  <td className="py-1 text-right">{showAngle(s.angleRad)}</td>
+                  <td className="py-1 text-right">{showNumber(s.beta, 5)}</td>
                   <td className="py-1 text-right">{showComputedLength(p, s.endMm)}</td>
                 </tr>
               ))}
@@ -244,12 +243,7 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
           </table>
         </div>
         <div className="card mt-4">
-          <ForceProfileChart
-            profile={profile}
-            formatForce={(n) => showForce(p, n)}
-            formatLength={(mm) => showComputedLength(p, mm)}
-            newtonsPerUnit={p.unitSystem === "us" ? N_PER_KIP : 1000}
-          />
+          <ForceProfileChart profile={profile} project={p} formatLength={(mm) => showComputedLength(p, mm)} />
         </div>
       </Section>
 

@@ -1,5 +1,6 @@
-import { ticks as niceTicks } from "d3-array";
 import type { ForceProfile } from "@/lib/elongation";
+import { niceAxis } from "@/lib/format/axis";
+import { displayUnit, fromDisplayUnit, inDisplayUnit, showNumber, type DisplayUnits } from "@/lib/format/quantities";
 
 /**
  * The force along the tendon at jacking and after seating, drawn as plain SVG (no script), with
@@ -7,15 +8,13 @@ import type { ForceProfile } from "@/lib/elongation";
  */
 export function ForceProfileChart({
   profile,
-  formatForce,
+  project,
   formatLength,
-  newtonsPerUnit,
 }: {
   profile: ForceProfile;
-  formatForce: (n: number) => string;
+  /** The project's units: the force axis is in kip or kN, its ticks on round numbers of that unit. */
+  project: Pick<DisplayUnits, "unitSystem">;
   formatLength: (mm: number) => string;
-  /** Newtons in one unit of the axis (4448.2216 for kip, 1000 for kN), so the ticks fall on round numbers of it. */
-  newtonsPerUnit: number;
 }) {
   const W = 720;
   const H = 240;
@@ -23,8 +22,18 @@ export function ForceProfileChart({
   const forces = profile.points.flatMap((p) => [p.jackingN, p.afterSeatingN]);
   const max = Math.max(...forces);
   const min = Math.min(...forces);
-  const lo = min - (max - min) * 0.1;
-  const hi = max + (max - min) * 0.05 || max * 1.01;
+  // Round numbers in the unit shown, the axis widened to the ticks at either end.
+  const axis = niceAxis(
+    inDisplayUnit(project, "force", min - (max - min) * 0.1),
+    inDisplayUnit(project, "force", max + (max - min) * 0.05 || max * 1.01),
+    4,
+  );
+  const [lo, hi] = axis.domain.map((v) => fromDisplayUnit(project, "force", v)) as [number, number];
+  const ticks = axis.ticks.map((t) => ({
+    n: fromDisplayUnit(project, "force", t),
+    label: showNumber(t, axis.decimals),
+  }));
+  const unit = displayUnit(project, "force");
   const x = (mm: number) => pad.l + (mm / profile.lengthMm) * (W - pad.l - pad.r);
   const y = (n: number) => pad.t + (1 - (n - lo) / (hi - lo)) * (H - pad.t - pad.b);
   const line = (key: "jackingN" | "afterSeatingN") =>
@@ -40,10 +49,6 @@ export function ForceProfileChart({
     }
   }
   if (start !== null) zones.push([start, profile.lengthMm]);
-  // Round numbers in the unit shown (d3-array's ticks: 1, 2 or 5 times a power of ten apart).
-  const ticks = niceTicks(lo / newtonsPerUnit, hi / newtonsPerUnit, 4)
-    .map((t) => t * newtonsPerUnit)
-    .filter((t) => t >= lo && t <= hi);
 
   return (
     <figure>
@@ -59,10 +64,10 @@ export function ForceProfileChart({
         <line x1={pad.l} x2={W - pad.r} y1={H - pad.b} y2={H - pad.b} stroke="#44433d" />
         <line x1={pad.l} x2={pad.l} y1={pad.t} y2={H - pad.b} stroke="#44433d" />
         {ticks.map((t) => (
-          <g key={t}>
-            <line x1={pad.l - 4} x2={pad.l} y1={y(t)} y2={y(t)} stroke="#44433d" />
-            <text x={pad.l - 6} y={y(t) + 4} textAnchor="end" fontSize="12" fill="#2b3a5c">
-              {formatForce(t)}
+          <g key={t.label}>
+            <line x1={pad.l - 4} x2={pad.l} y1={y(t.n)} y2={y(t.n)} stroke="#44433d" />
+            <text x={pad.l - 6} y={y(t.n) + 4} textAnchor="end" fontSize="12" fill="#2b3a5c">
+              {t.label} {unit}
             </text>
           </g>
         ))}

@@ -13,7 +13,6 @@ import { sendJson } from "@/lib/client/send-json";
 import { projectSettingsSchema, settingsFields, type ProjectSettings } from "@/lib/schemas/project-settings";
 import { PER, shown, units } from "@/lib/client/unit-fields";
 import { DEFAULT_SHIFT_ENDS, formatShiftEnd, parseShiftEnds } from "@/lib/stressing/shift";
-import { METRES_PER_FOOT } from "@/lib/units";
 
 type KUnit = "per ft" | "per m";
 
@@ -69,7 +68,7 @@ function resolver(us: boolean) {
       engineerOfRecordEmail: v.engineerOfRecordEmail?.trim() || null,
       notifyEmails: (v.notifyEmails ?? "").split(/[\s,;]+/).filter(Boolean),
       // K per ft × 3.2808 = K per m (1 m = 3.2808 ft).
-      wobblePerM: wobble === null ? null : wobbleUnit === "per ft" ? wobble / METRES_PER_FOOT : wobble,
+      wobblePerM: wobble === null ? null : wobble * (wobbleUnit === "per ft" ? PER.perFt : PER.perM),
       timeZone: (v.timeZone ?? "").trim(),
       // Required boxes: units.number() has already refused an empty one.
       jackingForceFactor: v.jackingForceFactor as number,
@@ -111,7 +110,7 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
       groupTolerancePct: settings.groupTolerancePct === null ? "" : String(settings.groupTolerancePct),
       shortTendonFloorMm: shown(settings.shortTendonFloorMm, PER[len]),
       frictionMu: String(settings.frictionMu),
-      wobble: us ? shown(settings.wobblePerM * METRES_PER_FOOT, 1, 6) : shown(settings.wobblePerM, 1, 6),
+      wobble: shown(settings.wobblePerM, us ? PER.perFt : PER.perM, 6),
       wobbleUnit: us ? "per ft" : "per m",
       anchorSetMm: shown(settings.anchorSetMm, PER[len]),
       calibrationValidityDays: String(settings.calibrationValidityDays),

@@ -14,10 +14,9 @@ import { sendJson } from "@/lib/client/send-json";
 import { strandLotSchema, type StrandLotInput } from "@/lib/schemas/strand-lot";
 import { STRAND_SIZES } from "@/lib/schemas/tendon";
 import type { StrandLotView } from "@/lib/server/list-strand-lots";
-import { MM2_PER_IN2, MPA_PER_KSI, N_PER_KIP } from "@/lib/units";
 import { EditPreviewDialog, type EditPreview } from "./edit-preview";
 import { strandLotsKey } from "./strand-lot-table";
-import { shown, units } from "@/lib/client/unit-fields";
+import { PER, shown, units } from "@/lib/client/unit-fields";
 
 function fields(us: boolean) {
   const system = us ? "US" : "SI";
@@ -38,7 +37,7 @@ function resolver(us: boolean) {
     // 1 in² = 645.16 mm² exactly.
     ({ area, ...v }) => ({
       ...v,
-      areaMm2: area === null ? null : us ? area * MM2_PER_IN2 : area,
+      areaMm2: area === null ? null : area * (us ? PER.in2 : PER.mm2),
       certificateAttachmentId: v.certificateAttachmentId || null,
     }),
     strandLotSchema,
@@ -51,9 +50,9 @@ function valuesOf(lot: StrandLotView, us: boolean): FormIn {
   return {
     lotNumber: lot.lotNumber,
     strandSize: lot.strandSize,
-    area: shown(lot.areaMm2, us ? MM2_PER_IN2 : 1, us ? 5 : 2),
-    modulusMPa: shown(lot.modulusMPa, us ? MPA_PER_KSI : 1, 0),
-    breakingLoadN: shown(lot.breakingLoadN, us ? N_PER_KIP : 1000, 2),
+    area: shown(lot.areaMm2, us ? PER.in2 : PER.mm2, us ? 5 : 2),
+    modulusMPa: shown(lot.modulusMPa, us ? PER.ksi : PER.MPa, 0),
+    breakingLoadN: shown(lot.breakingLoadN, us ? PER.kip : PER.kN, 2),
     certificateAttachmentId: lot.certificateAttachmentId ?? "",
   };
 }

@@ -6,8 +6,7 @@ import { useCallback, useMemo } from "react";
 import type { StrandLotView } from "@/lib/server/list-strand-lots";
 import { compareText, readSorting, SetupTable, setupFeatures, sortingParams, useUrlView } from "./url-table";
 import { RefreshError, useRouteData } from "./use-route-data";
-import { showPct } from "@/lib/format/quantities";
-import { MM2_PER_IN2, MPA_PER_KSI, N_PER_KIP } from "@/lib/units";
+import { showArea, showForce, showModulus, showPct } from "@/lib/format/quantities";
 
 /** The route handler that lists the project's strand lots; also the swr key the lot form refreshes. */
 export const strandLotsKey = (projectId: string) => `/api/projects/${projectId}/strand-lots`;
@@ -22,6 +21,7 @@ function Against({ pct }: { pct: number | undefined }) {
 }
 
 function lotColumns(projectId: string, us: boolean, editHref: (lotId: string) => string) {
+  const shown = { unitSystem: us ? "us" : "si" } as const;
   return helper.columns([
     helper.accessor("lotNumber", {
       id: "lot",
@@ -41,7 +41,7 @@ function lotColumns(projectId: string, us: boolean, editHref: (lotId: string) =>
       sortFn: (a, b, id) => a.getValue<number>(id) - b.getValue<number>(id),
       cell: (c) => (
         <>
-          {us ? `${(c.getValue() / MM2_PER_IN2).toFixed(4)} in²` : `${c.getValue().toFixed(1)} mm²`}
+          {showArea(shown, c.getValue())}
           <Against pct={c.row.original.againstNominal?.areaPct} />
         </>
       ),
@@ -53,7 +53,7 @@ function lotColumns(projectId: string, us: boolean, editHref: (lotId: string) =>
       sortFn: (a, b, id) => a.getValue<number>(id) - b.getValue<number>(id),
       cell: (c) => (
         <>
-          {us ? `${(c.getValue() / MPA_PER_KSI).toFixed(0)} ksi` : `${(c.getValue() / 1000).toFixed(1)} GPa`}
+          {showModulus(shown, c.getValue())}
           <Against pct={c.row.original.againstNominal?.modulusPct} />
         </>
       ),
@@ -65,7 +65,7 @@ function lotColumns(projectId: string, us: boolean, editHref: (lotId: string) =>
       sortFn: (a, b, id) => a.getValue<number>(id) - b.getValue<number>(id),
       cell: (c) => (
         <>
-          {us ? `${(c.getValue() / N_PER_KIP).toFixed(1)} kip` : `${(c.getValue() / 1000).toFixed(1)} kN`}
+          {showForce(shown, c.getValue())}
           <Against pct={c.row.original.againstNominal?.breakingPct} />
         </>
       ),

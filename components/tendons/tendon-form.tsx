@@ -59,7 +59,7 @@ function resolver(us: boolean) {
       } else {
         profile = (segments ?? [])
           .filter((s) => s.length !== null)
-          .map((s) => ({ lengthMm: s.length!, angleRad: ((s.angleDeg ?? 0) * Math.PI) / 180 }));
+          .map((s) => ({ lengthMm: s.length!, angleRad: (s.angleDeg ?? 0) * PER.deg }));
       }
       return { ...v, strandLotId: v.strandLotId || null, member: v.member?.trim() || null, segments: profile };
     },
@@ -90,7 +90,7 @@ function valuesOf(t: StoredTendon, us: boolean): FormIn {
     mode: "segments",
     segments: t.segments.map((g) => ({
       length: shown(g.lengthMm, long),
-      angleDeg: shown((g.angleRad * 180) / Math.PI, 1),
+      angleDeg: shown(g.angleRad, PER.deg),
     })),
     spanLength: "",
     spans: "2",

@@ -24,8 +24,8 @@ import { RefreshError, useRouteData } from "@/components/setup/use-route-data";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
 import { KIND_LABELS } from "@/lib/schemas/tendon";
 import type { TendonRow } from "@/lib/server/list-tendons";
-import { showComputedLength, showPressure, type DisplayUnits } from "@/lib/format/quantities";
-import { formatLength, MM_PER_FOOT, type ReadingResolution } from "@/lib/units";
+import { showComputedLength, showLongLength, showPressure, type DisplayUnits } from "@/lib/format/quantities";
+import { formatLength, type ReadingResolution } from "@/lib/units";
 
 export interface TendonList {
   pour: { id: string; name: string };
@@ -62,9 +62,9 @@ function filterParams(filters: ColumnFiltersState): Record<"q" | "ends" | "lot",
 const helper = createColumnHelper<typeof setupFeatures, TendonRow>();
 
 function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolution) {
-  const long = (mm: number) => (us ? `${(mm / MM_PER_FOOT).toFixed(1)} ft` : `${(mm / 1000).toFixed(2)} m`);
-  // Only the unit system matters to the computed-length and pressure formats.
+  // Only the unit system matters to the computed-length, long-length and pressure formats.
   const units: DisplayUnits = { unitSystem: us ? "us" : "si", readingResolution: us ? "1/8in" : "1mm" };
+  const long = (mm: number) => showLongLength(units, mm);
   return helper.columns([
     helper.accessor("tag", {
       header: "Tag",

@@ -1,5 +1,6 @@
 import type { FlagStatus, Verdict } from "@/db/types";
 import { FLAG_STATUS_LABELS, flagLabel } from "@/lib/schemas/flag";
+import { showPct } from "@/lib/format/quantities";
 
 export { flagLabel } from "@/lib/schemas/flag";
 
@@ -42,10 +43,7 @@ export function VerdictBadge({
       </svg>
       <span>{s.word}</span>
       {deviationPct !== null && deviationPct !== undefined && (
-        <span className="tabular-nums">
-          {deviationPct >= 0 ? "+" : "−"}
-          {Math.abs(deviationPct).toFixed(1)} %
-        </span>
+        <span className="tabular-nums">{showPct(deviationPct)}</span>
       )}
       {provisional && <span className="text-label font-semibold uppercase">provisional</span>}
     </span>

@@ -1,11 +1,15 @@
 import { z } from "zod";
 import {
+  degToRad,
   isInputError,
+  MM2_PER_IN2,
   MM_PER_FOOT,
   MM_PER_INCH,
+  MPA_PER_KSI,
   MPA_PER_PSI,
   N_PER_KIP,
   N_PER_LBF,
+  wobblePerFtToPerM,
   parseForce,
   parseLength,
   parsePressure,
@@ -61,6 +65,11 @@ export function shown(value: number | null | undefined, per: number, decimals = 
   return String(Number((value / per).toFixed(decimals)));
 }
 
+/**
+ * How many stored SI units one unit of a box is (mm, mm², MPa, N, wobble per m): a box's number
+ * times PER[unit] is the stored value, and `shown(stored, PER[unit])` writes it back. Forms convert
+ * through this table only, never with a factor of their own.
+ */
 export const PER = {
   in: MM_PER_INCH,
   mm: 1,
@@ -72,4 +81,13 @@ export const PER = {
   kN: 1000,
   lbf: N_PER_LBF,
   N: 1,
+  in2: MM2_PER_IN2,
+  mm2: 1,
+  ksi: MPA_PER_KSI,
+  /** A wobble coefficient per foot is this many per metre (1 ÷ 0.3048). */
+  perFt: wobblePerFtToPerM(1),
+  perM: 1,
+  /** An angle typed in degrees is stored in radians. */
+  deg: degToRad(1),
+  rad: 1,
 } as const;

@@ -1,15 +1,24 @@
 import { describe, expect, it } from "vitest";
-import { METRES_PER_FOOT, MM_PER_FOOT, MM_PER_INCH, MPA_PER_KSI, MPA_PER_PSI, N_PER_KIP } from "@/lib/units";
+import { in2ToMm2, METRES_PER_FOOT, MM_PER_FOOT, MM_PER_INCH, MPA_PER_KSI, MPA_PER_PSI, N_PER_KIP } from "@/lib/units";
 import {
+  displayUnit,
+  fromDisplayUnit,
   groupedNumber,
+  inDisplayUnit,
+  showAngle,
+  showBandPct,
   showArea,
   showComputedLength,
   showForce,
+  showForcePerPressure,
   showLength,
   showLongLength,
   showModulus,
   showPct,
+  showNumber,
+  showPctPoints,
   showPressure,
+  showShare,
   showSteelStress,
   showStrength,
   showWobble,
@@ -79,5 +88,57 @@ describe("quantities in the project's units", () => {
   it("refuses a value that is not finite, naming what it is", () => {
     expect(() => showArea(us, Number.NaN)).toThrow(/area/);
     expect(() => showModulus(si, Number.POSITIVE_INFINITY)).toThrow(/modulus/);
+  });
+
+  it("gives a chart the project's unit and the value in it", () => {
+    // NIST SP 811 Appendix B.8: 1 in = 2.54 cm exactly, so 63.5 mm = 2.5 in.
+    expect(displayUnit(us, "length")).toBe("in");
+    expect(inDisplayUnit(us, "length", 63.5)).toBeCloseTo(2.5, 12);
+    expect(fromDisplayUnit(us, "length", 2.5)).toBeCloseTo(63.5, 12);
+    expect(displayUnit(si, "length")).toBe("mm");
+    expect(inDisplayUnit(si, "length", 63.5)).toBe(63.5);
+    // NIST SP 811 Appendix B.8: 1 kip = 4.448222 kN, so 30 kip = 133.4467 kN.
+    expect(displayUnit(us, "force")).toBe("kip");
+    expect(inDisplayUnit(us, "force", 133_446.7)).toBeCloseTo(30, 4);
+    expect(displayUnit(si, "force")).toBe("kN");
+    expect(inDisplayUnit(si, "force", 133_446.7)).toBeCloseTo(133.4467, 10);
+    expect(fromDisplayUnit(si, "force", 150)).toBe(150_000);
+    // NIST SP 811 Appendix B.8: 1 psi = 6.894757 kPa, so 4,000 psi = 27.579 MPa.
+    expect(displayUnit(us, "pressure")).toBe("psi");
+    expect(inDisplayUnit(us, "pressure", 27.579)).toBeCloseTo(4000, 1);
+    expect(fromDisplayUnit(us, "pressure", 4000)).toBeCloseTo(27.579, 3);
+    expect(() => inDisplayUnit(us, "force", Number.NaN)).toThrow(/force/);
+  });
+
+  it("prints a calibration line's slope in force per unit of gauge pressure", () => {
+    // Force = pressure × ram area: 1 psi on 15.5 in² is 15.5 lbf = 0.0155 kip; 1 MPa on 10,000 mm² is 10 kN.
+    expect(showForcePerPressure(us, in2ToMm2(15.5))).toBe("0.01550 kip/psi");
+    expect(showForcePerPressure(si, 10_000)).toBe("10.0000 kN/MPa");
+    expect(() => showForcePerPressure(si, Number.NaN)).toThrow(/slope/);
+  });
+
+  it("prints the wobble coefficient to more decimals on a calculation sheet", () => {
+    // 0.0002 per ft ÷ 0.3048 = 0.00065617 per m (1 ft = 0.3048 m exactly, NIST SP 811 B.8).
+    expect(showWobble(si, 0.0002 / METRES_PER_FOOT, 5)).toBe("0.00066 per m");
+    expect(showWobble(us, 0.0002 / METRES_PER_FOOT, 5)).toBe("0.00020 per ft");
+  });
+
+  it("prints a band as the setting is written and an angle in radians and degrees", () => {
+    // ACI 318-11 §18.20.1 (from memory): ±7 %.
+    expect(showBandPct(7)).toBe("±7 %");
+    expect(showBandPct(7.46)).toBe("±7.5 %");
+    // π/4 rad = 45° = 0.785398 rad.
+    expect(showAngle(Math.PI / 4)).toBe("0.7854 rad (45.00°)");
+    expect(showAngle(0)).toBe("0.0000 rad (0.00°)");
+    expect(() => showAngle(Number.NaN)).toThrow(/angle/);
+  });
+
+  it("prints fits, shares and differences of percentages", () => {
+    expect(showNumber(0.99871, 4)).toBe("0.9987");
+    expect(showNumber(1.0415, 3)).toBe("1.042");
+    expect(showPctPoints(2.449)).toBe("2.4 pts");
+    expect(showShare(0.346)).toBe("35 %");
+    expect(showShare(null)).toBe("—");
+    expect(() => showShare(Number.NaN)).toThrow(/share/);
   });
 });

@@ -1,16 +1,22 @@
 import {
   DEFAULT_UNITS,
+  FORCE_UNITS,
   formatForce,
   formatLength,
   formatPressure,
+  getUnit,
   InputError,
+  LENGTH_UNITS,
   MM_PER_FOOT,
   MM_PER_INCH,
   MM2_PER_IN2,
   MPA_PER_KSI,
   MPA_PER_PSI,
+  PRESSURE_UNITS,
+  radToDeg,
   wobblePerMToPerFt,
   type ReadingResolution,
+  type UnitSpec,
 } from "@/lib/units";
 
 /**
@@ -112,10 +118,81 @@ export function showSteelStress(project: Pick<DisplayUnits, "unitSystem">, mpa: 
   return project.unitSystem === "us" ? `${groupedNumber(mpa / MPA_PER_KSI, 1)} ksi` : `${groupedNumber(mpa, 0)} MPa`;
 }
 
-/** The wobble coefficient in the convention of the project's units: "0.0010 per ft", "0.0033 per m". */
-export function showWobble(project: Pick<DisplayUnits, "unitSystem">, perM: number): string {
+/**
+ * The wobble coefficient in the convention of the project's units: "0.0010 per ft", "0.0033 per m";
+ * a calculation sheet asks for more decimals.
+ */
+export function showWobble(project: Pick<DisplayUnits, "unitSystem">, perM: number, decimals = 4): string {
   finite(perM, "wobble");
-  return project.unitSystem === "us" ? `${wobblePerMToPerFt(perM).toFixed(4)} per ft` : `${perM.toFixed(4)} per m`;
+  return project.unitSystem === "us"
+    ? `${wobblePerMToPerFt(perM).toFixed(decimals)} per ft`
+    : `${perM.toFixed(decimals)} per m`;
+}
+
+/** A band either side of zero, as the project setting is written: "±7 %", "±7.5 %". */
+export function showBandPct(pct: number): string {
+  return `±${Number(Math.abs(finite(pct, "band")).toFixed(1))} %`;
+}
+
+/** An angle change of a tendon's profile, in radians as the friction formula takes it and in degrees: "0.7854 rad (45.00°)". */
+export function showAngle(rad: number): string {
+  finite(rad, "angle");
+  return `${groupedNumber(rad, 4)} rad (${groupedNumber(radToDeg(rad), 2)}°)`;
+}
+
+/** A calibration line's slope, force per unit of gauge pressure: "0.01550 kip/psi", "10.0000 kN/MPa". */
+export function showForcePerPressure(project: Pick<DisplayUnits, "unitSystem">, nPerMPa: number): string {
+  const perShownPressure = finite(nPerMPa, "slope") * fromDisplayUnit(project, "pressure", 1);
+  const value = inDisplayUnit(project, "force", perShownPressure);
+  return `${groupedNumber(value, project.unitSystem === "us" ? 5 : 4)} ${displayUnit(project, "force")}/${displayUnit(project, "pressure")}`;
+}
+
+/** A quantity a chart draws or a line states in the project's unit rather than as text. */
+export type DisplayQuantity = "length" | "force" | "pressure";
+
+const TABLES = { length: LENGTH_UNITS, force: FORCE_UNITS, pressure: PRESSURE_UNITS } as const;
+
+function unitSpec(project: Pick<DisplayUnits, "unitSystem">, quantity: DisplayQuantity) {
+  const table: readonly UnitSpec<string>[] = TABLES[quantity];
+  return getUnit(table, unitsOf(project)[quantity]);
+}
+
+/** The unit a quantity is shown in on this project: "in" or "mm", "kip" or "kN", "psi" or "MPa". */
+export function displayUnit(project: Pick<DisplayUnits, "unitSystem">, quantity: DisplayQuantity): string {
+  return unitSpec(project, quantity).unit;
+}
+
+/** A stored SI value (mm, N, MPa) as a number in the project's unit, for a chart's axis. */
+export function inDisplayUnit(
+  project: Pick<DisplayUnits, "unitSystem">,
+  quantity: DisplayQuantity,
+  si: number,
+): number {
+  return finite(si, quantity) / unitSpec(project, quantity).toBase;
+}
+
+/** A number in the project's unit (a chart's tick) back to SI (mm, N, MPa). */
+export function fromDisplayUnit(
+  project: Pick<DisplayUnits, "unitSystem">,
+  quantity: DisplayQuantity,
+  shown: number,
+): number {
+  return finite(shown, quantity) * unitSpec(project, quantity).toBase;
+}
+
+/** A plain number of a chart's axis or a fit (r², a ratio) at the given decimals: "0.9987", "1.042". */
+export function showNumber(value: number, decimals: number): string {
+  return groupedNumber(finite(value, "number"), decimals);
+}
+
+/** A difference of two percentages, in points: "2.4 pts". */
+export function showPctPoints(points: number): string {
+  return `${groupedNumber(finite(points, "percentage points"), 1)} pts`;
+}
+
+/** A share (0 to 1) as a whole percentage: "35 %"; nothing to share shows as a dash. */
+export function showShare(share: number | null): string {
+  return share === null ? "—" : `${groupedNumber(finite(share, "share") * 100, 0)} %`;
 }
 
 /** A signed percentage with a true minus: "+4.5 %", "−12.0 %". */

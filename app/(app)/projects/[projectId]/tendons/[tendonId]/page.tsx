@@ -13,19 +13,17 @@ import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
 import { getTendonDetail, SHOP_DRAWING_MARK_PCT } from "@/lib/server/get-tendon-detail";
 import { listStrandLots } from "@/lib/server/list-strand-lots";
 import { listTendonReadings } from "@/lib/server/list-tendon-readings";
-import {
-  formatForce,
-  formatLength,
-  formatPressure,
-  MM2_PER_IN2,
-  MM_PER_FOOT,
-  MM_PER_INCH,
-  MPA_PER_KSI,
-  N_PER_KIP,
-} from "@/lib/units";
+import { formatForce, formatLength, formatPressure } from "@/lib/units";
 import { rereadLine } from "@/lib/stressing/display";
 import { storedGaugeOffTarget, storedGaugeSteps } from "@/lib/schemas/record";
-import { showPct } from "@/lib/format/quantities";
+import {
+  showArea,
+  showComputedLength,
+  showLongLength,
+  showModulus,
+  showPct,
+  type DisplayUnits,
+} from "@/lib/format/quantities";
 import { isUuid, pageAccess } from "../../page-access";
 
 export const metadata = { title: "Tendon" };
@@ -63,10 +61,11 @@ export default async function TendonPage({ params }: { params: Promise<{ project
   const us = u.system === "US";
   const len = (mm: number) => formatLength(mm, u.resolution);
   // Elongations to 0.01 in or 0.1 mm on this sheet, finer than a reading, so differences show.
-  const fine = (mm: number) => (us ? `${(mm / MM_PER_INCH).toFixed(2)} in` : `${mm.toFixed(1)} mm`);
+  const shown: Pick<DisplayUnits, "unitSystem"> = { unitSystem: us ? "us" : "si" };
+  const fine = (mm: number) => showComputedLength(shown, mm);
   const force = (n: number) => formatForce(n, { unit: u.force });
   const pressure = (mpa: number) => formatPressure(mpa, { unit: u.pressure });
-  const long = (mm: number) => (us ? `${(mm / MM_PER_FOOT).toFixed(1)} ft` : `${(mm / 1000).toFixed(2)} m`);
+  const long = (mm: number) => showLongLength(shown, mm);
   const canManage = access.role === "admin";
   const lots = canManage && !tendon.pour.released ? await listStrandLots(db, projectId) : [];
 
@@ -143,10 +142,10 @@ export default async function TendonPage({ params }: { params: Promise<{ project
               {computed.prediction.strand.source === "strand lot"
                 ? `mill certificate of lot ${tendon.lot?.lotNumber}`
                 : "ASTM A416 nominal"}{" "}
-              — area {computed.prediction.strand.areaMm2.toFixed(1)} mm²
-              {us ? ` (${(computed.prediction.strand.areaMm2 / MM2_PER_IN2).toFixed(4)} in²)` : ""}, modulus{" "}
-              {(computed.prediction.strand.modulusMPa / 1000).toFixed(1)} GPa
-              {us ? ` (${(computed.prediction.strand.modulusMPa / MPA_PER_KSI).toFixed(0)} ksi)` : ""}.
+              — area {showArea(shown, computed.prediction.strand.areaMm2)}
+              {us ? ` (${showArea({ unitSystem: "si" }, computed.prediction.strand.areaMm2)})` : ""}, modulus{" "}
+              {showModulus(shown, computed.prediction.strand.modulusMPa)}
+              {us ? ` (${showModulus({ unitSystem: "si" }, computed.prediction.strand.modulusMPa)})` : ""}.
               {computed.nominalPredictedMm !== null &&
                 ` On nominal values the prediction would be ${fine(computed.nominalPredictedMm)} (${showPct(((computed.prediction.predictedMm - computed.nominalPredictedMm) / computed.nominalPredictedMm) * 100)} change from the lot).`}
             </p>
@@ -180,14 +179,13 @@ export default async function TendonPage({ params }: { params: Promise<{ project
             ) : computed.shopMarked ? (
               <p className="mt-2 rounded-md border-2 border-signal-long bg-signal-long-bg p-3 font-semibold text-signal-long">
                 <span aria-hidden="true">⚠ </span>Check with the detailer: the shop drawing gives{" "}
-                {fine(tendon.shopElongationMm)}, {computed.shopDifferencePct > 0 ? "+" : ""}
-                {computed.shopDifferencePct.toFixed(1)} % from ours (more than {SHOP_DRAWING_MARK_PCT} %).
+                {fine(tendon.shopElongationMm)}, {showPct(computed.shopDifferencePct)} from ours (more than{" "}
+                {SHOP_DRAWING_MARK_PCT} %).
               </p>
             ) : (
               <p className="mt-2 font-semibold">
                 <span aria-hidden="true">✓ </span>The shop drawing gives {fine(tendon.shopElongationMm)},{" "}
-                {computed.shopDifferencePct > 0 ? "+" : ""}
-                {computed.shopDifferencePct.toFixed(1)} % from ours (within {SHOP_DRAWING_MARK_PCT} %).
+                {showPct(computed.shopDifferencePct)} from ours (within {SHOP_DRAWING_MARK_PCT} %).
               </p>
             )}
           </section>
@@ -196,12 +194,7 @@ export default async function TendonPage({ params }: { params: Promise<{ project
             <h2 id="profile-heading" className="text-lead font-semibold">
               Force along the tendon
             </h2>
-            <ForceProfileChart
-              profile={computed.profile}
-              formatForce={force}
-              formatLength={long}
-              newtonsPerUnit={us ? N_PER_KIP : 1000}
-            />
+            <ForceProfileChart profile={computed.profile} project={shown} formatLength={long} />
           </section>
         </>
       )}

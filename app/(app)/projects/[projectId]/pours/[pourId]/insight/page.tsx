@@ -16,9 +16,8 @@ import { getPourInsight } from "@/lib/server/get-pour-insight";
 import { getProjectTimeZone } from "@/lib/server/get-project-time-zone";
 import { listConcreteResults } from "@/lib/server/list-concrete-results";
 import { listReportRevisions } from "@/lib/server/list-report-revisions";
-import { readingResolution } from "@/lib/format/quantities";
+import { displayUnit, inDisplayUnit, readingResolution, showComputedLength } from "@/lib/format/quantities";
 import { isUuid, pageAccess } from "../../../page-access";
-import { MM_PER_INCH } from "@/lib/units";
 
 export const metadata = { title: "Pour insight" };
 
@@ -31,8 +30,7 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
     throw e;
   });
   const us = insight.project.unitSystem === "us";
-  const lengthUnit = us ? "in" : "mm";
-  const toUnit = (mm: number) => (us ? mm / MM_PER_INCH : mm);
+  const lengthUnit = displayUnit(insight.project, "length");
   const points = insight.points.map((p, i) => ({
     index: i + 1,
     tag: p.tag,
@@ -138,8 +136,10 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
             <MeasuredPredictedChart
               points={insight.points.map((p) => ({
                 tag: p.tag,
-                predicted: toUnit(p.predictedMm),
-                measured: toUnit(p.measuredMm),
+                predicted: inDisplayUnit(insight.project, "length", p.predictedMm),
+                measured: inDisplayUnit(insight.project, "length", p.measuredMm),
+                predictedText: showComputedLength(insight.project, p.predictedMm),
+                measuredText: showComputedLength(insight.project, p.measuredMm),
                 verdict: p.verdict,
               }))}
               tolerancePct={insight.project.tolerancePct}
