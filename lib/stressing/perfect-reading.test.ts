@@ -14,10 +14,11 @@ import { planEvaluation, type EvaluatedRecord, type TendonState } from "@/lib/se
 // gauge force. And at any gauge force a reading generated from the prediction at that force
 // (elongation proportional to force, P·L/(A·E) with friction losses proportional to P; the seating
 // a fixed draw-in) implies that force: elongation and gauge agree, on both paths, and no
-// force_disagreement is raised.
+// force_disagreement is raised. The specified force is the project's 0.80·fpu·A or, when the
+// tendon's schedule row gives one, that force (0.60 to 0.80·fpu·A): both paths read it alike.
 
 const strand = findStrandSize("0.5 in")!;
-const PJ = 0.8 * strand.minBreakingStrengthN;
+const PJ_DEFAULT = 0.8 * strand.minBreakingStrengthN;
 const SLOPE = 6000;
 const CAL = {
   id: "0190a0b0-0000-7000-8000-00000000ca11",
@@ -25,7 +26,7 @@ const CAL = {
   validUntil: "2027-04-30",
   slope: SLOPE,
   intercept: 0,
-  minPressureMPa: 2,
+  minPressureMPa: 1, // below an initial 10 % of a 0.60·fpu·A schedule force
   maxPressureMPa: 60,
 };
 const SET_ID = "0190a0b0-0000-7000-8000-0000000000dd";
@@ -71,7 +72,14 @@ const project: FieldProject = {
 };
 
 /** What the crew reads at one end for a tendon behaving exactly as predicted. */
-function perfectReading(plan: EndPlan, grossMm: number, axial: number, setDrawIn: number | null, k = 1) {
+function perfectReading(
+  plan: EndPlan,
+  grossMm: number,
+  axial: number,
+  setDrawIn: number | null,
+  k = 1,
+  PJ = PJ_DEFAULT,
+) {
   const basisNet = plan.method === "marks";
   const set = plan.seating ?? project.anchorSetMm;
   const grip = basisNet ? 0 : (PJ * GRIP) / axial;
@@ -103,7 +111,10 @@ describe("a perfect reading is in band on every basis, method and order", () => 
         fc.option(fc.double({ min: 0, max: 8, noNaN: true }), { nil: null }),
         fc.constantFrom(1, 1, 0.9, 0.95, 0.97, 1.02, 1.05),
         fc.double({ min: 0.9, max: 1.05, noNaN: true }),
-        (lengthMm, angleRad, ends, order, planA, planB, setDrawIn, kA, kB) => {
+        fc.option(fc.double({ min: 0.6, max: 0.8, noNaN: true }), { nil: null }),
+        (lengthMm, angleRad, ends, order, planA, planB, setDrawIn, kA, kB, scheduleShare) => {
+          // The schedule's force when the row gives one, else the project's 0.80·fpu·A.
+          const PJ = scheduleShare === null ? PJ_DEFAULT : scheduleShare * strand.minBreakingStrengthN;
           // The gauge force of each end, a share k of the specified force; with kA = 1 both ends are
           // pulled to the specified force and the reading is also the prediction itself (in band, 0 %).
           const kOf = (end: "A" | "B") => (end === "A" ? kA : kA === 1 ? 1 : kB);
@@ -120,6 +131,7 @@ describe("a perfect reading is in band on every basis, method and order", () => 
             ends,
             jackGripMm: GRIP,
             strandLotId: null,
+            jackingForceN: scheduleShare === null ? null : PJ,
           };
           const engine = (e: TendonInput["ends"]) =>
             predictElongation({
@@ -145,7 +157,7 @@ describe("a perfect reading is in band on every basis, method and order", () => 
                 ];
 
           const local: LocalRecord[] = plans.map(([end, plan, gross], i) => {
-            const r = perfectReading(plan, gross, whole.axialStiffnessN, setDrawIn, kOf(end));
+            const r = perfectReading(plan, gross, whole.axialStiffnessN, setDrawIn, kOf(end), PJ);
             const id = `0190a0b0-0000-7000-8000-00000000000${i + 1}`;
             return {
               id,
@@ -214,6 +226,8 @@ describe("a perfect reading is in band on every basis, method and order", () => 
             expect(Math.abs(f.differencePct!)).toBeLessThan(1e-6);
           }
           expect(tablet.flagKinds).not.toContain("force_disagreement");
+          expect(tablet.specifiedForceN).toBe(PJ);
+          expect(tablet.specifiedForceFrom).toBe(scheduleShare === null ? "0.80·fpu·A" : "from the schedule");
           if (kA === 1) {
             expect(tablet.verdict).toBe("in band");
             expect(Math.abs(tablet.deviationPct!)).toBeLessThan(1e-9);
@@ -279,8 +293,12 @@ describe("a perfect reading is in band on every basis, method and order", () => 
           expect(server.outcome.deviationPct).toBe(tablet.deviationPct);
           expect(server.outcome.flagKinds).not.toContain("force_disagreement");
           const stored = JSON.parse(String(server.evaluation.inputs)) as {
+            jackingForceN: number;
+            jackingForceSource: string;
             readings: { end: "A" | "B"; impliedForceN: number; gaugeForceN: number; forceDifferencePct: number }[];
           };
+          expect(stored.jackingForceN).toBe(tablet.specifiedForceN);
+          expect(stored.jackingForceSource).toBe(scheduleShare === null ? "project" : "schedule");
           expect(stored.readings.map((r) => [r.end, r.impliedForceN, r.forceDifferencePct])).toEqual(
             tablet.forces!.map((f) => [f.end, f.impliedForceN, f.differencePct]),
           );
