@@ -149,6 +149,8 @@ export interface TendonsTable {
   member: Generated<string | null>;
   /** How the schedule says a two-end tendon is stressed; null when it does not say. */
   stressing_order: Generated<StressingOrder | null>;
+  /** The schedule's specified jacking force, N; null: the project's factor of fpu·A. */
+  jacking_force_n: Generated<number | null>;
   created_at: Timestamp;
   updated_at: Timestamp;
 }

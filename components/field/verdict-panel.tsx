@@ -182,6 +182,7 @@ export function VerdictPanel({
           {local.forces?.length && local.specifiedForceN ? (
             <p data-testid="forces">
               Specified {showForce(u, local.specifiedForceN)}
+              {local.specifiedForceFrom && ` (${local.specifiedForceFrom})`}
               {local.forces.map((f) => (
                 <span key={f.end}>
                   {" "}

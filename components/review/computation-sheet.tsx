@@ -14,7 +14,7 @@ import {
   showWobble,
 } from "@/lib/format/quantities";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
-import { showBandEdge } from "@/lib/stressing/display";
+import { showBandEdge, specifiedForceSourceWords } from "@/lib/stressing/display";
 
 function Row({ label, value, source }: { label: string; value: string; source?: string }) {
   return (
@@ -184,8 +184,15 @@ export function ComputationSheet({ c }: { c: TendonCase }) {
             />
             <Row
               label="Jacking force Pj"
-              value={showForce(p, predicted.jackingForceN)}
-              source="0.80 × specified breaking load (ACI 318-19 Table 20.3.2.5.1)"
+              value={`${showForce(p, predicted.jackingForceN)}, ${specifiedForceSourceWords(
+                predicted.jackingForceSource === "schedule" ? "schedule" : "project",
+                predicted.jackingForceFactor,
+              )}`}
+              source={
+                predicted.jackingForceSource === "schedule"
+                  ? "The tendon's schedule row (at most 0.80·fpu·A, ACI 318-19 Table 20.3.2.5.1)"
+                  : "Project setting: its factor × specified breaking load of the nominal strand (at most 0.80, ACI 318-19 Table 20.3.2.5.1)"
+              }
             />
             <Row
               label="Tendon length"

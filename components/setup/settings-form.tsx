@@ -254,7 +254,7 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
         <FormField
           id="s-jackingForceFactor"
           label="Specified jacking force, × fpu·A"
-          hint="0.80 is the ACI 318 limit for buildings; 0.75 is usual on bridges."
+          hint="0.80 is the ACI 318 limit for buildings; 0.75 is usual on bridges. A tendon whose schedule row gives its own jacking force uses that instead."
           error={err("jackingForceFactor")}
           numeric
           {...form.register("jackingForceFactor")}

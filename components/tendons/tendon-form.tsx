@@ -36,6 +36,7 @@ function fields(us: boolean) {
     shopElongationMm: units.length(system, short, false),
     strandLotId: z.string(),
     member: z.string(),
+    jackingForceN: units.force(system, us ? "kip" : "kN", false),
     mode: z.enum(["segments", "drape"]),
     segments: z.array(z.object({ length: units.length(system, long, false), angleDeg: units.number(false) })),
     spanLength: units.length(system, long, false),
@@ -87,6 +88,7 @@ function valuesOf(t: StoredTendon, us: boolean): FormIn {
     shopElongationMm: shown(t.shopElongationMm, short),
     strandLotId: t.strandLotId ?? "",
     member: t.member ?? "",
+    jackingForceN: shown(t.jackingForceN, PER[us ? "kip" : "kN"]),
     mode: "segments",
     segments: t.segments.map((g) => ({
       length: shown(g.lengthMm, long),
@@ -136,6 +138,7 @@ export function TendonForm({
       shopElongationMm: "",
       strandLotId: "",
       member: "",
+      jackingForceN: "",
       mode: "drape",
       segments: [{ length: "", angleDeg: "" }],
       spanLength: "",
@@ -172,6 +175,8 @@ export function TendonForm({
       jackGripMm: typed.jackGripMm === initial.jackGripMm ? tendon.jackGripMm : values.jackGripMm,
       shopElongationMm:
         typed.shopElongationMm === initial.shopElongationMm ? tendon.shopElongationMm : values.shopElongationMm,
+      jackingForceN:
+        typed.jackingForceN === initial.jackingForceN ? (tendon.jackingForceN ?? null) : values.jackingForceN,
     };
   };
   const save = async (values: TendonInput) => {
@@ -234,8 +239,8 @@ export function TendonForm({
       </h2>
       {tendon && (
         <p className="text-ink-soft">
-          A change of strand, profile, ends, grip, shop-drawing elongation, lot or member judges the stressed tendons it
-          touches again; you are told how many verdicts change before it is saved.
+          A change of strand, profile, ends, grip, shop-drawing elongation, lot, member or jacking force judges the
+          stressed tendons it touches again; you are told how many verdicts change before it is saved.
         </p>
       )}
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
@@ -268,6 +273,11 @@ export function TendonForm({
         )}
         {text("jackGripMm", `Jack grip, ${short}`, "Empty: the equipment set's value.")}
         {text("shopElongationMm", `Shop-drawing elongation, ${short}`, "When the detailer gives one.")}
+        {text(
+          "jackingForceN",
+          `Jacking force, ${us ? "kip" : "kN"}`,
+          "When the schedule specifies one; at most 0.80·fpu·A. Empty: the project's factor of fpu·A.",
+        )}
         {text(
           "member",
           "Member",

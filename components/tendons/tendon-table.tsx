@@ -24,7 +24,7 @@ import { RefreshError, useRouteData } from "@/components/setup/use-route-data";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
 import { KIND_LABELS } from "@/lib/schemas/tendon";
 import type { TendonRow } from "@/lib/server/list-tendons";
-import { showComputedLength, showLongLength, showPressure, type DisplayUnits } from "@/lib/format/quantities";
+import { showComputedLength, showForce, showLongLength, showPressure, type DisplayUnits } from "@/lib/format/quantities";
 import { formatLength, type ReadingResolution } from "@/lib/units";
 
 export interface TendonList {
@@ -171,6 +171,17 @@ function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolu
       meta: { right: true },
       cell: (c) =>
         c.row.original.shopElongationMm === null ? "—" : formatLength(c.row.original.shopElongationMm, resolution),
+    }),
+    helper.display({
+      id: "jackingForce",
+      header: "Jacking force",
+      meta: { right: true },
+      cell: (c) =>
+        c.row.original.jackingForceN === null ? (
+          <span className="text-ink-faint">project&apos;s factor</span>
+        ) : (
+          <span className="tabular-nums">{showForce(units, c.row.original.jackingForceN)}</span>
+        ),
     }),
     helper.accessor("strandLot", {
       id: "lot",

@@ -33,6 +33,7 @@ import * as shiftDigests from "./2026-12-12T130000-shift-digests";
 import * as dailyAttestation from "./2026-12-12T140000-daily-attestation";
 import * as gaugeOffTarget from "./2026-12-13T100000-gauge-off-target";
 import * as referenceNumbers from "./2026-12-13T140000-reference-numbers";
+import * as tendonJackingForce from "./2026-12-14T010000-tendon-jacking-force";
 
 // A static index: vitest and bundlers cannot import .ts migrations from a folder scan.
 // Keys sort in time order; append new migrations at the end.
@@ -71,4 +72,5 @@ export const migrations: Record<string, Migration> = {
   "2026-12-12T140000-daily-attestation": dailyAttestation,
   "2026-12-13T100000-gauge-off-target": gaugeOffTarget,
   "2026-12-13T140000-reference-numbers": referenceNumbers,
+  "2026-12-14T010000-tendon-jacking-force": tendonJackingForce,
 };

@@ -194,7 +194,7 @@ describe("tendon schedule CSV: hostile files", () => {
     );
     const line = csv.split("\r\n")[1]!;
     expect(line.startsWith("'=HYPERLINK(1)")).toBe(true);
-    expect(line.endsWith(",'@x,'-1+2,")).toBe(true); // the stressing order, empty, last
+    expect(line.endsWith(",'@x,'-1+2,,")).toBe(true); // the stressing order and the jacking force, empty, last
   });
 
   it("refuses more rows than allowed without reading them all, and caps the error list", () => {
@@ -259,5 +259,73 @@ describe("tendon schedule CSV: the stressing order of two-end tendons", () => {
         message: "Only a tendon stressed at both ends has a stressing order; leave it empty.",
       },
     ]);
+  });
+});
+
+describe("tendon schedule CSV: the tendon's own jacking force", () => {
+  const header = `${HEADER},member,stressing order`;
+  // ASTM A416 Table 1 (from memory): grade 270 0.5 in strand breaks at no less than 41,300 lbf, so
+  // 0.80·fpu·A = 33,040 lbf = 33.04 kip per strand (ACI 318-19 Table 20.3.2.5.1, from memory);
+  // 1 lbf = 4.4482216152605 N exactly (NIST SP 811), so 33.04 kip = 146,969.24 N.
+  // eslint-disable-next-line tautline/no-unit-factor-literal -- NIST SP 811, the pound-force
+  const LIMIT_N = 33_040 * 4.4482216152605;
+
+  it("reads kip on a US file and kN on an SI file into newtons, empty as not given, and exports it again", () => {
+    const us = parseTendonSchedule(
+      [
+        `${header},jacking force [kip]`,
+        "U-1,monostrand,0.5,1,A,30@3.1,18,,,,,31.5",
+        "U-2,monostrand,0.5,1,A,30@3.1,18,,,,,",
+        "U-3,monostrand,0.5,1,A,30@3.1,18,,,,,33.04",
+      ].join("\n"),
+    );
+    expect(us.ok).toBe(true);
+    if (!us.ok) return;
+    // eslint-disable-next-line tautline/no-unit-factor-literal -- NIST SP 811, the kip
+    expect(us.tendons[0]!.jackingForceN).toBeCloseTo(31.5 * 4448.2216152605, 6);
+    expect(us.tendons[1]!.jackingForceN).toBeNull();
+    // Exactly at the limit is allowed: the rule refuses a force above it.
+    expect(us.tendons[2]!.jackingForceN).toBeCloseTo(LIMIT_N, 6);
+    const csv = toTendonCsv(us.tendons, "US");
+    expect(csv.split("\r\n")[0]).toMatch(/,jacking force \[kip\]$/);
+    expect(csv.split("\r\n")[1]).toMatch(/,31\.5$/);
+    const again = parseTendonSchedule(csv);
+    expect(again.ok && again.tendons.map((t) => t.jackingForceN)).toEqual(us.tendons.map((t) => t.jackingForceN));
+
+    const si = parseTendonSchedule(
+      [`${header},jacking force [kN]`, "U-1,monostrand,0.5,1,A,30@3.1,18,,,,,140"].join("\n"),
+    );
+    expect(si.ok && si.tendons[0]!.jackingForceN).toBe(140_000);
+    const siCsv = toTendonCsv(si.ok ? si.tendons : [], "SI");
+    expect(siCsv.split("\r\n")[0]).toMatch(/,jacking force \[kN\]$/);
+    expect(siCsv.split("\r\n")[1]).toMatch(/,140$/);
+  });
+
+  it("refuses a force above 0.80·fpu·A, a word that is no force and a column without its unit, naming the column", () => {
+    const result = parseTendonSchedule(
+      [
+        `${header},jacking force [kip]`,
+        "U-1,monostrand,0.5,1,A,30@3.1,18,,,,,33.05",
+        "U-2,monostrand,0.5,1,A,30@3.1,18,,,,,full",
+      ].join("\n"),
+    );
+    expect(result.ok).toBe(false);
+    if (result.ok) return;
+    expect(result.errors).toEqual([
+      {
+        row: 2,
+        column: "jacking force",
+        message:
+          "The jacking force is above 0.80·fpu·A = 33.04 kip (146.96 kN) for 1 × 0.5 in strand (ACI 318-19 Table 20.3.2.5.1); give at most that, or leave it empty for the project's factor.",
+      },
+      { row: 3, column: "jacking force", message: '"full" is not a force in kip.' },
+    ]);
+    const noUnit = parseTendonSchedule(
+      [`${header},jacking force`, "U-1,monostrand,0.5,1,A,30@3.1,18,,,,,30"].join("\n"),
+    );
+    expect(noUnit.ok).toBe(false);
+    expect(!noUnit.ok && noUnit.errors[0]!.message).toBe(
+      'Give "jacking force" a unit in brackets, one of [kip], [kN], [lbf], [N].',
+    );
   });
 });

@@ -1,7 +1,17 @@
 import Papa from "papaparse";
 import { safeCell, safeRows } from "./safe-cell";
 import { findStrandSize } from "@/lib/elongation";
-import { MM_PER_FOOT, MM_PER_INCH, parseLength, type UnitSystem } from "@/lib/units";
+import {
+  FORCE_UNITS,
+  getUnit,
+  isInputError,
+  MM_PER_FOOT,
+  MM_PER_INCH,
+  parseForce,
+  parseLength,
+  type ForceUnit,
+  type UnitSystem,
+} from "@/lib/units";
 import { FORMULA_START, STRAND_SIZES, tendonSchema, type TendonInput } from "@/lib/schemas/tendon";
 
 /**
@@ -9,11 +19,12 @@ import { FORMULA_START, STRAND_SIZES, tendonSchema, type TendonInput } from "@/l
  * column with its unit in brackets. Column order is free; the names and units are not.
  *
  *   tag, type, strand size [in], strands, ends, segments [ft@deg], jack grip [in],
- *   shop elongation [in], strand lot, member
+ *   shop elongation [in], strand lot, member, stressing order, jacking force [kip]
  *
  * `segments` lists each segment from end A to end B as length@angle-change, separated by
  * spaces: "15@1.62 15@1.62". Lengths may be given in ft or m (segments), in or mm (grip,
- * elongation); angles in deg or rad, as the header says. Everything is stored in SI.
+ * elongation); angles in deg or rad; forces in kip, kN, lbf or N, as the header says. Everything
+ * is stored in SI.
  */
 
 export type LengthHeaderUnit = "ft" | "m" | "in" | "mm";
@@ -56,6 +67,12 @@ export const COLUMNS: readonly ColumnSpec[] = [
     key: "stressing order",
     required: false,
     hint: "two-end tendons: sequential (one end after the other) or simultaneous (both at once); empty when not decided",
+  },
+  {
+    key: "jacking force",
+    required: false,
+    units: ["kip", "kN", "lbf", "N"],
+    hint: "the tendon's specified jacking force, at most 0.80·fpu·A; empty to use the project's factor of fpu·A",
   },
 ];
 
@@ -131,7 +148,7 @@ export function parseTendonSchedule(
     const spec = COLUMNS.find((c) => c.key === key);
     if (!spec) return add(1, raw, `Unknown column "${raw}". The columns are: ${COLUMNS.map((c) => c.key).join(", ")}.`);
     if (index.has(key)) return add(1, raw, `The column "${key}" appears twice.`);
-    if (spec.units && (!unit || !spec.units.includes(unit))) {
+    if (spec.units && (!unit || !spec.units.some((u) => u.toLowerCase() === unit))) {
       return add(1, raw, `Give "${key}" a unit in brackets, one of ${spec.units.map((u) => `[${u}]`).join(", ")}.`);
     }
     if (!spec.units && unit) return add(1, raw, `The column "${key}" takes no unit.`);
@@ -154,6 +171,8 @@ export function parseTendonSchedule(
   const [segLength, segAngle] = unitOf("segments").split("@") as [LengthHeaderUnit, AngleUnit];
   const segmentFactor = segLength === "ft" ? MM_PER_FOOT : 1000;
   const angleFactor = segAngle === "deg" ? Math.PI / 180 : 1;
+  const forceUnit = (FORCE_UNITS.find((u) => u.unit.toLowerCase() === unitOf("jacking force"))?.unit ??
+    "kN") satisfies ForceUnit;
   const optionalLength = (row: string[], key: string, line: number): number | null | undefined => {
     const text = cell(row, key);
     if (!text) return null;
@@ -248,6 +267,17 @@ export function parseTendonSchedule(
         `"${cell(row, "stressing order")}" is not a stressing order; use sequential, simultaneous or leave it empty.`,
       );
 
+    const forceText = cell(row, "jacking force");
+    let jackingForceN: number | null = null;
+    if (forceText) {
+      try {
+        jackingForceN = parseForce(forceText, { field: "jacking force", system: "SI", defaultUnit: forceUnit });
+      } catch (error) {
+        if (!isInputError(error)) throw error;
+        add(line, "jacking force", `"${forceText}" is not a force in ${forceUnit}.`);
+      }
+    }
+
     if (errors.some((e) => e.row === line)) return;
     const checked = tendonSchema.safeParse({
       tag,
@@ -261,6 +291,7 @@ export function parseTendonSchedule(
       strandLotId: null,
       member: cell(row, "member") || null,
       stressingOrder,
+      jackingForceN,
     });
     if (!checked.success) {
       for (const issue of checked.error.issues) {
@@ -277,6 +308,7 @@ export function parseTendonSchedule(
             shopElongationMm: "shop elongation",
             member: "member",
             stressingOrder: "stressing order",
+            jackingForceN: "jacking force",
           }[field] ?? field;
         add(line, column, issue.message);
       }
@@ -311,6 +343,7 @@ export function scheduleHeader(system: UnitSystem): string[] {
     "strand lot",
     "member",
     "stressing order",
+    `jacking force [${system === "US" ? "kip" : "kN"}]`,
   ];
 }
 
@@ -326,6 +359,7 @@ export interface ExportTendon {
   strandLot: string | null;
   member?: string | null;
   stressingOrder?: "sequential" | "simultaneous" | null;
+  jackingForceN?: number | null;
 }
 
 /** The same layout as the import, so an exported file imports again unchanged. */
@@ -348,6 +382,11 @@ export function toTendonCsv(tendons: readonly ExportTendon[], system: UnitSystem
     neutralise(t.strandLot ?? ""),
     neutralise(t.member ?? ""),
     t.stressingOrder ?? "",
+    // Ten significant figures: a force typed as 33.04 kip comes back as 33.04, and any stored force
+    // imports again within the limit check's noise.
+    t.jackingForceN === null || t.jackingForceN === undefined
+      ? ""
+      : String(Number((t.jackingForceN / getUnit(FORCE_UNITS, system === "US" ? "kip" : "kN").toBase).toPrecision(10))),
   ]);
   return Papa.unparse({ fields: scheduleHeader(system), data: safeRows(rows) }, { newline: "\r\n" }) + "\r\n";
 }

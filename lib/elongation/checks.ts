@@ -77,6 +77,14 @@ export function stressLimits(input: StrandStrength & { strandCount: number }): S
   };
 }
 
+/**
+ * The one jacking rule: a force above 0.80·fpu·A (ACI 318-19 Table 20.3.2.5.1, from memory). The
+ * flag on the force reached and the refusal of a schedule's specified force both ask it.
+ */
+export function jackingAboveLimit(jackingForceN: number, limits: Pick<StressLimits, "jackingLimitN">): boolean {
+  return exceeds(jackingForceN, limits.jackingLimitN);
+}
+
 /** Jacking and anchorage force limits (ACI 318-19 Table 20.3.2.5.1), and the equipment maximum. */
 export function checkStressLimits(input: StressLimitInput): Check[] {
   const limits = stressLimits(input);
@@ -85,7 +93,7 @@ export function checkStressLimits(input: StressLimitInput): Check[] {
   const equipmentMaxForceN = optionalPositive(input.equipmentMaxForceN, "equipmentMaxForceN");
   const checks: Check[] = [];
 
-  if (exceeds(jackingForceN, limits.jackingLimitN)) {
+  if (jackingAboveLimit(jackingForceN, limits)) {
     checks.push({
       code: "jacking-over-limit",
       message: `Jacking force ${kN(jackingForceN)} is above 0.80·fpu·A = ${kN(limits.jackingLimitN)}.`,

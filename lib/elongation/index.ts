@@ -31,7 +31,7 @@ export type { ApparentStiffness, GaugeStep, StepExtrapolation } from "./initial-
 export { bandHalfWidthMm, compareElongation, resolutionEffect } from "./compare";
 export type { Comparison, ComparisonInput, ResolutionEffect, Verdict } from "./compare";
 
-export { CHECK_CODES, checkStressLimits, stressLimits } from "./checks";
+export { CHECK_CODES, checkStressLimits, jackingAboveLimit, stressLimits } from "./checks";
 export type { Check, CheckCode, CheckQuantity, StrandStrength, StressLimitInput, StressLimits } from "./checks";
 export * from "./limits";
 export { ASTM_A416_GRADE_270, DEFAULT_STRAND_MODULUS_MPA, findStrandSize, GRADE_270_FPU_MPA } from "./strands";

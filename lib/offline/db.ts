@@ -59,6 +59,8 @@ export interface LocalVerdict {
     bandPct?: number | null;
   }[];
   specifiedForceN?: number;
+  /** Where it came from in words: "from the schedule" or the project's factor ("0.80·fpu·A"). */
+  specifiedForceFrom?: string;
   /** The reading division alone could flip the verdict: read again, finer, before it is final. */
   reread?: boolean;
   /** Which prediction governed, and the shop drawing's value beside Tautline's, in words. */

@@ -1,5 +1,5 @@
 import { predictTendon, stressedEnds, targetPressureMPa, type CalibrationLine } from "@/lib/stressing/basis";
-import { governsLine } from "@/lib/stressing/display";
+import { governsLine, specifiedForceSourceWords } from "@/lib/stressing/display";
 import { judgeAndFlag } from "@/lib/stressing/rules";
 import { forceAgreement } from "@/lib/stressing/rules/force-disagreement";
 import { stressingDay, type JudgeInput, type JudgeRecord } from "@/lib/stressing/judge";
@@ -202,6 +202,7 @@ export function provisionalVerdict(
       bandPct: forceAgreement(e, input.project, j.specifiedForceN)?.bandPct ?? null,
     })),
     specifiedForceN: j.specifiedForceN,
+    specifiedForceFrom: specifiedForceSourceWords(j.specifiedForceSource, j.specifiedForceFactor),
     reread: j.rereadWanted,
     governsLine: governsLine(
       {

@@ -14,6 +14,7 @@ import {
   showWobble,
 } from "@/lib/format/quantities";
 import { MPA_PER_PSI } from "@/lib/units";
+import { JACKING_LIMIT_FPU_FRACTION } from "@/lib/elongation";
 import { DECISION_LABELS } from "@/lib/schemas/review";
 import { wireBreakWords } from "@/lib/schemas/record";
 import type { PourReport } from "@/lib/server/get-pour-report";
@@ -246,6 +247,20 @@ export function concreteLine(report: PourReport): string {
   return "Concrete strength: not confirmed in Tautline";
 }
 
+/** The project's factor of fpu·A, and the tendons whose schedule row gives their own force. */
+function jackingForceLine(report: PourReport): string {
+  const factor = report.basis.jackingForceFactor ?? JACKING_LIMIT_FPU_FRACTION;
+  const own = report.tendons.filter((t) => t.jackingForceN !== null);
+  if (factor === JACKING_LIMIT_FPU_FRACTION && !own.length)
+    return "0.80 · fpu · A of the specified strand (ACI 318-19 Table 20.3.2.5.1)";
+  return (
+    `${factor.toFixed(2)} · fpu · A of the specified strand (project setting; ACI 318-19 Table 20.3.2.5.1 allows at most 0.80)` +
+    (own.length
+      ? `; from the schedule for ${own.map((t) => `${t.tag} (${showForce(report.project, t.jackingForceN!)})`).join(", ")}`
+      : "")
+  );
+}
+
 export function basisLines(report: PourReport): [string, string][] {
   const p = report.project;
   const b = report.basis;
@@ -275,7 +290,7 @@ export function basisLines(report: PourReport): [string, string][] {
     ],
     ["Strand area A and modulus E", sources.length ? sources.join("; ") : "no tendon evaluated yet"],
     ["Nominal strand values", "ASTM A416 nominal area and breaking strength where a tendon names no strand lot"],
-    ["Jacking force", "0.80 · fpu · A of the specified strand (ACI 318-19 Table 20.3.2.5.1)"],
+    ["Jacking force", jackingForceLine(report)],
     ["Forces from gauge pressure", "least-squares line of the equipment set's calibration"],
     [
       "Predicted elongation",

@@ -176,6 +176,11 @@ export interface FieldTendon {
   shopElongationMm?: number | null;
   /** How the schedule says a two-end tendon is stressed (absent in pulls before it existed). */
   stressingOrder?: "sequential" | "simultaneous" | null;
+  /**
+   * The schedule's specified jacking force, N; null: the project's factor of fpu·A (absent in pulls
+   * before it existed). The tablet's target pressure and judge read it as the server's do.
+   */
+  jackingForceN?: number | null;
 }
 
 export interface FieldStrandLot {

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { text } from "./text";
-import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
+import { ASTM_A416_GRADE_270, findStrandSize, jackingAboveLimit, stressLimits } from "@/lib/elongation";
+import { N_PER_KIP } from "@/lib/units";
 
 export const STRAND_SIZES = ASTM_A416_GRADE_270.map((s) => s.designation) as [string, ...string[]];
 export const TENDON_KINDS = ["unbonded_monostrand", "bonded_multistrand"] as const;
@@ -67,8 +68,24 @@ export const tendonSchema = z
       .enum(["sequential", "simultaneous"], { error: "The stressing order is sequential or simultaneous." })
       .nullable()
       .optional(),
+    /**
+     * The tendon's own specified jacking force, N; null: the project's factor of fpu·A. Absent from a
+     * body: an edit keeps the stored value.
+     */
+    jackingForceN: z
+      .number({ error: "Give the jacking force." })
+      .positive("The jacking force must be above 0.")
+      .nullable()
+      .optional(),
   })
   .superRefine((t, ctx) => {
+    const over = jackingForceOverLimit(t);
+    if (over)
+      ctx.addIssue({
+        code: "custom",
+        path: ["jackingForceN"],
+        message: `The jacking force is above 0.80·fpu·A = ${over} for ${t.strandCount} × ${t.strandSize} strand (ACI 318-19 Table 20.3.2.5.1); give at most that, or leave it empty for the project's factor.`,
+      });
     if (t.stressingOrder && t.ends !== "both")
       ctx.addIssue({
         code: "custom",
@@ -80,6 +97,26 @@ export const tendonSchema = z
     }
   });
 export type TendonInput = z.infer<typeof tendonSchema>;
+
+// Shown rounded down, so a force typed as shown is never above the limit.
+const down = (n: number, per: number) => (Math.floor((n / per) * 100) / 100).toFixed(2);
+
+/**
+ * The 0.80·fpu·A ceiling (nominal strand, as the judge's jacking rule reads it) in kip and kN when a
+ * schedule's force is above it, else null: the same rule as the jacking-over-limit flag.
+ */
+export function jackingForceOverLimit(t: {
+  strandSize: string;
+  strandCount: number;
+  jackingForceN?: number | null;
+}): string | null {
+  const nominal = findStrandSize(t.strandSize);
+  if (t.jackingForceN === null || t.jackingForceN === undefined || !nominal) return null;
+  if (!Number.isInteger(t.strandCount) || t.strandCount < 1) return null;
+  const limits = stressLimits({ breakingLoadPerStrandN: nominal.minBreakingStrengthN, strandCount: t.strandCount });
+  if (!jackingAboveLimit(t.jackingForceN, limits)) return null;
+  return `${down(limits.jackingLimitN, N_PER_KIP)} kip (${down(limits.jackingLimitN, 1000)} kN)`;
+}
 
 export const tendonParamsSchema = z.object({
   projectId: z.uuid({ error: "Not a project id." }),

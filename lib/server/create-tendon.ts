@@ -41,6 +41,7 @@ export async function createTendon(
         strand_lot_id: v.strandLotId,
         member: v.member ?? null,
         stressing_order: v.stressingOrder ?? null,
+        jacking_force_n: v.jackingForceN ?? null,
       })
       .returning("id")
       .executeTakeFirstOrThrow();

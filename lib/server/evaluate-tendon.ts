@@ -562,6 +562,9 @@ export function planEvaluation(
       strand: judgement.strand,
       lot: basis.lot,
       jackingForceN: judgement.specifiedForceN,
+      // The tendon's schedule row, or the project's factor of fpu·A (with the factor).
+      jackingForceSource: judgement.specifiedForceSource,
+      jackingForceFactor: judgement.specifiedForceFactor,
       order: judgement.order,
       governs: judgement.governs,
       pour: {

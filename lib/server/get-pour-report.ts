@@ -87,6 +87,8 @@ export interface PourReport {
     frictionMu: number;
     wobblePerM: number;
     anchorSetMm: number;
+    /** The project's factor of fpu·A for the specified jacking force (0.80 when absent). */
+    jackingForceFactor?: number;
     requiredConcreteMpa: number | null;
   };
   pour: {

@@ -173,6 +173,9 @@ const endSchema = z.object({
 });
 const inputsSchema = z.object({
   jackingForceN: z.number().nullable().catch(null),
+  /** Absent on evaluations stored before the schedule could give the force: the project's factor. */
+  jackingForceSource: z.enum(["schedule", "project"]).nullable().catch(null),
+  jackingForceFactor: z.number().nullable().catch(null),
   readings: z.array(z.unknown()).catch([]),
 });
 
@@ -182,6 +185,9 @@ export interface EvaluationFigures {
   lowerMm: number;
   upperMm: number;
   specifiedForceN: number | null;
+  /** Where the specified force came from: the schedule, or the project's factor (null: stored before it was said). */
+  specifiedForceSource: "schedule" | "project" | null;
+  specifiedForceFactor: number | null;
   /** Per end read: the gauge force and the force the elongation implies, with their difference. */
   ends: z.infer<typeof endSchema>[];
 }
@@ -200,6 +206,8 @@ export function evaluationFigures(e: { result: unknown; inputs: unknown; measure
     lowerMm: comparison.lowerMm,
     upperMm: comparison.upperMm,
     specifiedForceN: inputs.success ? inputs.data.jackingForceN : null,
+    specifiedForceSource: inputs.success ? inputs.data.jackingForceSource : null,
+    specifiedForceFactor: inputs.success ? inputs.data.jackingForceFactor : null,
     ends: readings.flatMap((r) => {
       const end = endSchema.safeParse(r);
       return end.success ? [end.data] : [];

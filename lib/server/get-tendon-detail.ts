@@ -34,6 +34,8 @@ export interface TendonDetail {
     jackGripMm: number | null;
     shopElongationMm: number | null;
     member: string | null;
+    /** The schedule's specified jacking force, N; null: the project's factor of fpu·A. */
+    jackingForceN: number | null;
     pour: { id: string; name: string; released: boolean };
     lot: { id: string; lotNumber: string } | null;
   };
@@ -131,6 +133,7 @@ export async function getTendonDetail(
       jackGripMm: tendon.jackGripMm,
       shopElongationMm: tendon.shopElongationMm,
       member: tendon.member ?? null,
+      jackingForceN: tendon.jackingForceN ?? null,
       pour: { id: loaded.pour.id, name: loaded.pour.name, released: loaded.pour.status === "released" },
       lot: lot ? { id: lot.id, lotNumber: lot.lotNumber } : null,
     },

@@ -85,6 +85,7 @@ export async function importTendonSchedule(
             strand_lot_id: t.strandLot ? (lotId.get(t.strandLot) ?? null) : null,
             member: t.member ?? null,
             stressing_order: t.stressingOrder ?? null,
+            jacking_force_n: t.jackingForceN ?? null,
           })),
         )
         .execute();

@@ -44,6 +44,8 @@ export interface TendonResult {
   /** Length of each stressed end's friction path: to the meeting point when both ends are stressed. */
   pathMm: { A?: number; B?: number };
   lotNumber: string | null;
+  /** The schedule's own specified jacking force, N; null: the project's factor of fpu·A. */
+  jackingForceN: number | null;
   /** Area and modulus the evaluation used, and where they came from. */
   strand: { areaMm2: number; modulusMPa: number; source: string } | null;
   evaluation: {
@@ -91,6 +93,7 @@ export async function listTendonResults(
       "tendons.strand_count",
       "tendons.ends",
       "tendons.segments",
+      "tendons.jacking_force_n",
       "strand_lots.lot_number",
     ])
     .where("tendons.project_id", "=", input.projectId)
@@ -216,6 +219,7 @@ export async function listTendonResults(
       lengthMm,
       pathMm,
       lotNumber: t.lot_number,
+      jackingForceN: t.jacking_force_n,
       strand: used.strand
         ? {
             ...used.strand,

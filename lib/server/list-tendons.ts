@@ -20,6 +20,8 @@ export interface TendonRow {
   member: string | null;
   /** How the schedule says the two-end tendon is stressed, or null. */
   stressingOrder: "sequential" | "simultaneous" | null;
+  /** The schedule's specified jacking force, N, or null (the project's factor of fpu·A). */
+  jackingForceN: number | null;
   lengthMm: number;
   /** The prediction on the project's basis and the tendon's lot; null when the schedule cannot be computed. */
   predictedMm: number | null;
@@ -55,6 +57,7 @@ export async function listTendons(
         "friction_mu",
         "wobble_per_m",
         "anchor_set_mm",
+        "jacking_force_factor",
       ])
       .where("id", "=", input.projectId)
       .executeTakeFirstOrThrow(),
@@ -90,6 +93,7 @@ export async function listTendons(
       "tendons.shop_elongation_mm",
       "tendons.member",
       "tendons.stressing_order",
+      "tendons.jacking_force_n",
       "strand_lots.lot_number",
       "strand_lots.area_mm2",
       "strand_lots.modulus_mpa",
@@ -116,6 +120,7 @@ export async function listTendons(
             segments: r.segments,
             ends: r.ends,
             jackGripMm: r.jack_grip_mm,
+            jackingForceN: r.jacking_force_n,
           },
           lot,
         });
@@ -136,6 +141,7 @@ export async function listTendons(
         strandLot: r.lot_number,
         member: r.member,
         stressingOrder: r.stressing_order,
+        jackingForceN: r.jacking_force_n,
         lengthMm: r.segments.reduce((s, x) => s + x.lengthMm, 0),
         predictedMm: prediction?.predictedMm ?? null,
         targets: sets

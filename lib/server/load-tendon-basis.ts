@@ -83,6 +83,7 @@ export function selectTendonBasis(qc: QueryCreator<Database>, input: { projectId
       "tendons.jack_grip_mm",
       "tendons.shop_elongation_mm",
       "tendons.member",
+      "tendons.jacking_force_n",
       "strand_lots.id as lotId",
       "strand_lots.lot_number",
       "strand_lots.area_mm2",
@@ -146,6 +147,7 @@ export function toLoadedTendon(row: BasisRow): LoadedTendon {
       jackGripMm: row.jack_grip_mm,
       shopElongationMm: row.shop_elongation_mm,
       member: row.member,
+      jackingForceN: row.jacking_force_n,
     },
     lot:
       row.lotId && row.lot_number && row.area_mm2 && row.modulus_mpa && row.breaking_load_n

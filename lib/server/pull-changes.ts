@@ -196,6 +196,7 @@ export async function pullChanges(
               "strand_lot_id",
               "shop_elongation_mm",
               "stressing_order",
+              "jacking_force_n",
             ])
             .where("project_id", "in", projectIds)
             .where("pour_id", "in", pourIds)
@@ -411,6 +412,7 @@ export async function pullChanges(
           strandLotId: t.strand_lot_id,
           shopElongationMm: t.shop_elongation_mm,
           stressingOrder: t.stressing_order,
+          jackingForceN: t.jacking_force_n,
         })),
         strandLots: lots.map((l) => ({
           id: l.id,

@@ -1,7 +1,7 @@
 import "server-only";
 import type { Db } from "@/db/connect";
 import { AppError } from "@/lib/errors";
-import type { TendonInput } from "@/lib/schemas/tendon";
+import { jackingForceOverLimit, type TendonInput } from "@/lib/schemas/tendon";
 import { checkScheduleRow } from "./create-tendon";
 import { inTransaction } from "./in-transaction";
 import { recordAudit } from "./record-audit";
@@ -50,6 +50,13 @@ export async function updateTendon(
       values: v,
       exceptTendonId: input.tendonId,
     });
+    // A body without the jacking force keeps the stored one: it must still suit the strands sent.
+    const jackingForceN = v.jackingForceN === undefined ? before.jacking_force_n : v.jackingForceN;
+    const over = jackingForceOverLimit({ strandSize: v.strandSize, strandCount: v.strandCount, jackingForceN });
+    if (over) {
+      const message = `The tendon's jacking force is above 0.80·fpu·A = ${over} for ${v.strandCount} × ${v.strandSize} strand (ACI 318-19 Table 20.3.2.5.1); lower it or leave it empty for the project's factor.`;
+      throw new AppError("INVALID_INPUT", message, { jackingForceN: [message] });
+    }
     await trx
       .updateTable("tendons")
       .set({
@@ -66,6 +73,8 @@ export async function updateTendon(
         ...(v.member !== undefined && { member: v.member }),
         // Absent from the body: the schedule's stressing order stays as it was.
         ...(v.stressingOrder !== undefined && { stressing_order: v.stressingOrder }),
+        // Absent from the body: the schedule's jacking force stays as it was.
+        ...(v.jackingForceN !== undefined && { jacking_force_n: v.jackingForceN }),
         updated_at: new Date(),
       })
       .where("project_id", "=", input.projectId)
@@ -82,6 +91,7 @@ export async function updateTendon(
       ["shop-drawing elongation", before.shop_elongation_mm, v.shopElongationMm],
       ["strand lot", before.strand_lot_id, v.strandLotId],
       ["member", before.member, v.member === undefined ? before.member : v.member],
+      ["jacking force", before.jacking_force_n, jackingForceN],
     ];
     const moved = judging.filter(([, a, b]) => a !== b).map(([name]) => name);
     // Raising the version holds the tendon until this transaction ends, so a record of it pushed

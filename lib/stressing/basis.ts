@@ -84,6 +84,11 @@ export interface TendonBasis {
   segments: TendonSegment[];
   ends: "A" | "B" | "both";
   jackGripMm: number | null;
+  /**
+   * The schedule's specified jacking force for this tendon, N; null or absent: the project's factor
+   * of fpu·A (see `specifiedJackingForce`).
+   */
+  jackingForceN?: number | null;
 }
 
 /** Mill-certificate values of the strand lot, when the tendon has one. */
@@ -136,10 +141,43 @@ export function targetJackingForceN(tendon: TendonBasis): number {
   return JACKING_LIMIT_FPU_FRACTION * nominal.minBreakingStrengthN * tendon.strandCount;
 }
 
+/** Where a tendon's specified jacking force comes from: its schedule row, or the project's factor. */
+export type JackingForceSource = "schedule" | "project";
+
+export interface SpecifiedJackingForce {
+  forceN: number;
+  source: JackingForceSource;
+  /** The project's factor of fpu·A when it gave the force; null when the schedule did. */
+  factor: number | null;
+}
+
+/**
+ * The specified jacking force of a tendon: the schedule row's own force when it gives one, else the
+ * project's factor (default 0.80) of fpu·A of the nominal strand. One function for the judge, the
+ * target gauge pressure and the screens, on the tablet and the server.
+ */
+export function specifiedJackingForce(
+  project: Pick<ProjectBasis, "jackingForceFactor">,
+  tendon: TendonBasis,
+): SpecifiedJackingForce {
+  const own = tendon.jackingForceN ?? null;
+  if (own !== null && own > 0) return { forceN: own, source: "schedule", factor: null };
+  const factor = project.jackingForceFactor ?? JACKING_LIMIT_FPU_FRACTION;
+  return {
+    forceN: (targetJackingForceN(tendon) * factor) / JACKING_LIMIT_FPU_FRACTION,
+    source: "project",
+    factor,
+  };
+}
+
 export interface TendonPrediction {
   /** Exactly what the engine was given, for drawing the force profile with the same figures. */
   engineInput: TendonInput;
   jackingForceN: number;
+  /** Where the jacking force came from; "given" when the caller passed one. */
+  jackingForceSource: JackingForceSource | "given";
+  /** The project's factor of fpu·A when it gave the force. */
+  jackingForceFactor: number | null;
   strand: StrandValues;
   prediction: ElongationPrediction;
   /** The value the measured sum is compared with, on the project's basis. */
@@ -158,10 +196,8 @@ export function predictTendon(input: {
 }): TendonPrediction {
   const { project, tendon } = input;
   const strand = strandValues(tendon, input.lot);
-  const jackingForceN =
-    input.jackingForceN ??
-    (targetJackingForceN(tendon) * (project.jackingForceFactor ?? JACKING_LIMIT_FPU_FRACTION)) /
-      JACKING_LIMIT_FPU_FRACTION;
+  const specified = input.jackingForceN === undefined ? specifiedJackingForce(project, tendon) : null;
+  const jackingForceN = input.jackingForceN ?? specified!.forceN;
   const gripMm = project.countJackGrip ? (tendon.jackGripMm ?? input.equipmentGripMm ?? 0) : 0;
   const engineInput: TendonInput = {
     segments: tendon.segments,
@@ -185,6 +221,8 @@ export function predictTendon(input: {
   return {
     engineInput,
     jackingForceN,
+    jackingForceSource: specified?.source ?? "given",
+    jackingForceFactor: specified?.factor ?? null,
     strand,
     prediction,
     predictedMm: project.comparisonBasis === "net" ? prediction.netMm : prediction.grossMm,

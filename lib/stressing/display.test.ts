@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { MM_PER_INCH } from "@/lib/units";
-import { showBandAsRead, showBandEdge, showPredictedAsRead } from "./display";
+import { showBandAsRead, showBandEdge, showPredictedAsRead, specifiedForceSourceWords } from "./display";
 
 // A band printed wider than it is contradicts its own verdict ("short of the band 4 1/2 in to
 // 5 1/4 in" for a 4 1/2 in reading): edges are rounded inward, never outward.
@@ -61,5 +61,13 @@ describe("showPredictedAsRead", () => {
   it("rounds a prediction to the nearest division on an inch project", () => {
     expect(showPredictedAsRead(us, 5.525 * MM_PER_INCH)).toBe("5 1/2 in"); // 5.525 is 44.2 eighths → 44
     expect(showPredictedAsRead(si, 140.34)).toBe("140.3 mm");
+  });
+});
+
+describe("specifiedForceSourceWords", () => {
+  it("names the schedule, else the project's factor of fpu·A (0.80 on evaluations that stored none)", () => {
+    expect(specifiedForceSourceWords("schedule", null)).toBe("from the schedule");
+    expect(specifiedForceSourceWords("project", 0.75)).toBe("0.75·fpu·A");
+    expect(specifiedForceSourceWords(null, null)).toBe("0.80·fpu·A");
   });
 });

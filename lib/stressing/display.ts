@@ -5,6 +5,7 @@
 // record-form.tsx (another branch's this round) still imports showPressure from here; move it to
 // lib/format/quantities and delete this line.
 export { showPressure } from "@/lib/format/quantities";
+import { JACKING_LIMIT_FPU_FRACTION } from "@/lib/elongation";
 import { formatLength, formatLengthInward, mmToIn, resolutionStepMm } from "@/lib/units";
 import { readingResolution, showComputedLength, showPct, type DisplayUnits } from "@/lib/format/quantities";
 
@@ -98,4 +99,17 @@ export function rereadLine(
     return `Read again to ${finerDivision(project)}: first ${formatLength(r.firstReadingMm, readingResolution(project.readingResolution))}, again ${fine(r.measuredMm)} (judged)`;
   if (r.rereadDeclinedReason) return `Not read again finer: ${r.rereadDeclinedReason}`;
   return null;
+}
+
+/**
+ * Where the specified jacking force came from, in words: "from the schedule" when the tendon's row
+ * gives it, else the project's factor of fpu·A ("0.80·fpu·A"). Null or absent on evaluations stored
+ * before the schedule could give one: the project's factor.
+ */
+export function specifiedForceSourceWords(
+  source: "schedule" | "project" | null | undefined,
+  factor?: number | null,
+): string {
+  if (source === "schedule") return "from the schedule";
+  return `${(factor ?? JACKING_LIMIT_FPU_FRACTION).toFixed(2)}·fpu·A`;
 }

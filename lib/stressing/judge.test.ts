@@ -472,6 +472,70 @@ describe("force and gauge", () => {
   });
 });
 
+describe("the specified jacking force: the tendon's schedule row first, else the project's factor", () => {
+  const L = 40 * FT;
+  // 0.75·fpu·A, the bridge practice the issue names (common practice); fpu·A = 41,300 lbf (ASTM A416).
+  const FPU_A = strand.minBreakingStrengthN;
+  const scheduled = (forceN: number, over: Partial<JudgeInput> = {}) => {
+    const base = input(over);
+    return { ...base, tendon: { ...base.tendon, jackingForceN: forceN } };
+  };
+
+  it("judges the elongation at the schedule's force and says where the force came from", () => {
+    const F = 0.75 * FPU_A;
+    // P·L/(A·E) with the friction integral is proportional to the force: at F it is F/Pj of the hand value.
+    const net = (F / PJ) * oneEndGross(L) - 6;
+    const j = judgeStressing({ ...scheduled(F), records: [record({ measuredMm: net, finalPressureMPa: F / SLOPE })] });
+    expect(j.specifiedForceN).toBe(F);
+    expect(j.specifiedForceSource).toBe("schedule");
+    expect(j.specifiedForceFactor).toBeNull();
+    expect(j.ends[0]!.predictedMm).toBeCloseTo(net, 9);
+    expect(j.ends[0]!.targetPressureMPa).toBeCloseTo(F / SLOPE, 12);
+    expect(j.verdict).toBe("in band");
+    expect(Math.abs(j.comparison!.deviationPct)).toBeLessThan(1e-9);
+
+    const none = judgeStressing(input({ records: [record({ measuredMm: oneEndGross(L) - 6 })] }));
+    expect(none.specifiedForceN).toBeCloseTo(PJ, 9);
+    expect(none.specifiedForceSource).toBe("project");
+    expect(none.specifiedForceFactor).toBe(0.8);
+  });
+
+  it("under-force is judged against the schedule's force, not the project's", () => {
+    // The project specifies 0.70·fpu·A; this tendon's schedule row 0.80·fpu·A. A gauge reaching
+    // 0.76·fpu·A is 108.6 % of the project's force but 95.0 % of the schedule's: short by more than 2 %.
+    const project = { jackingForceFactor: 0.7 };
+    const reached = 0.76 * FPU_A;
+    const base = input();
+    const rec = () => record({ measuredMm: (reached / PJ) * oneEndGross(L) - 6, finalPressureMPa: reached / SLOPE });
+    const withRow = scheduled(0.8 * FPU_A, { project: { ...base.project, ...project } });
+    const j = judgeStressing({ ...withRow, records: [rec()] });
+    const under = findFlags(withRow, j).find((f) => f.kind === "under_force");
+    expect(under).toBeDefined();
+    expect(under!.reason).toMatch(/95\.0 % of the specified/);
+    expect(under!.reason).toMatch(/from the schedule/);
+
+    // The same reading without a schedule force: judged against 0.70·fpu·A, nothing short.
+    const withoutRow = input({ project: { ...base.project, ...project } });
+    const k = judgeStressing({ ...withoutRow, records: [rec()] });
+    expect(k.specifiedForceN).toBeCloseTo(0.7 * FPU_A, 9);
+    expect(findFlags(withoutRow, k).map((f) => f.kind)).not.toContain("under_force");
+  });
+
+  it("a schedule force the gauge reached within the threshold raises nothing, where the project's 0.80 would", () => {
+    // Schedule 0.75·fpu·A, reached 0.74·fpu·A: 98.7 %, within 2 %; against 0.80·fpu·A it is 92.5 %.
+    const reached = 0.74 * FPU_A;
+    const rec = () => record({ measuredMm: (reached / PJ) * oneEndGross(L) - 6, finalPressureMPa: reached / SLOPE });
+    const withRow = scheduled(0.75 * FPU_A);
+    expect(findFlags(withRow, judgeStressing({ ...withRow, records: [rec()] })).map((f) => f.kind)).not.toContain(
+      "under_force",
+    );
+    const under = findFlags(input(), judgeStressing({ ...input(), records: [rec()] })).find(
+      (f) => f.kind === "under_force",
+    );
+    expect(under!.reason).toMatch(/92\.5 % of the specified .*0\.80·fpu·A/);
+  });
+});
+
 describe("the governing value: Tautline's prediction or the approved shop drawing", () => {
   const L = 40 * FT;
   const gross = oneEndGross(L); // ≈ 90.5 mm, hand value as above

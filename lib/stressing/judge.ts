@@ -1,6 +1,5 @@
 import {
   compareElongation,
-  findStrandSize,
   forceFromPressure,
   isInputError,
   predictElongation,
@@ -16,7 +15,15 @@ import { dayInZone } from "@/lib/format/dates";
 import { pickCalibration } from "@/lib/schemas/pick-calibration";
 import type { GaugeOffTarget, GaugeStepSI, WireBreak } from "@/lib/schemas/record";
 import { resolutionStepMm } from "@/lib/units";
-import { strandValues, type LotBasis, type ProjectBasis, type StrandValues, type TendonBasis } from "./basis";
+import {
+  specifiedJackingForce,
+  strandValues,
+  type JackingForceSource,
+  type LotBasis,
+  type ProjectBasis,
+  type StrandValues,
+  type TendonBasis,
+} from "./basis";
 import { readingResolution, type DisplayUnits } from "@/lib/format/quantities";
 
 /**
@@ -237,6 +244,10 @@ export interface StressingJudgement {
   /** "net of anchor set (marks)", "gross plus grip (ram travel)", or both named per end. */
   basisLabel: string;
   specifiedForceN: number;
+  /** Where the specified force came from: the tendon's schedule row, or the project's factor of fpu·A. */
+  specifiedForceSource: JackingForceSource;
+  /** The project's factor of fpu·A when it gave the force; null when the schedule did. */
+  specifiedForceFactor: number | null;
   strand: StrandValues;
   /** Whole tendon gross at the specified force (no grip), on the schedule's ends, and net. */
   grossMm: number;
@@ -352,12 +363,15 @@ export function chooseCalibration(set: JudgeSet | undefined, calibrationId: stri
   return pickCalibration(set.calibrations, day);
 }
 
-/** The specified jacking force: the project's factor (default 0.80) of fpu·A of the nominal strand. */
+/**
+ * The specified jacking force: the tendon's schedule row when it gives one, else the project's
+ * factor (default 0.80) of fpu·A of the nominal strand (`specifiedJackingForce` in basis.ts).
+ */
 export function specifiedJackingForceN(project: JudgeProject, tendon: TendonBasis): number {
-  const nominal = findStrandSize(tendon.strandSize);
-  if (!nominal) throw new Error(`Unknown strand size "${tendon.strandSize}"`);
-  const factor = project.jackingForceFactor ?? JUDGING_DEFAULTS.jackingForceFactor;
-  return factor * nominal.minBreakingStrengthN * tendon.strandCount;
+  return specifiedJackingForce(
+    { jackingForceFactor: project.jackingForceFactor ?? JUDGING_DEFAULTS.jackingForceFactor },
+    tendon,
+  ).forceN;
 }
 
 function engineInput(input: JudgeInput, strand: StrandValues, jackingForceN: number, ends: TendonInput["ends"]) {
@@ -377,7 +391,11 @@ function engineInput(input: JudgeInput, strand: StrandValues, jackingForceN: num
 export function judgeStressing(input: JudgeInput): StressingJudgement {
   const { project, tendon } = input;
   const strand = strandValues(tendon, input.lot);
-  const specifiedForceN = specifiedJackingForceN(project, tendon);
+  const specified = specifiedJackingForce(
+    { jackingForceFactor: project.jackingForceFactor ?? JUDGING_DEFAULTS.jackingForceFactor },
+    tendon,
+  );
+  const specifiedForceN = specified.forceN;
   const wanted: ("A" | "B")[] = tendon.ends === "both" ? ["A", "B"] : [tendon.ends];
   const current = currentRecords(input.records).filter((r) => wanted.includes(r.end));
   const missingEnds = wanted.filter((e) => !current.some((r) => r.end === e));
@@ -628,6 +646,8 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
     comparison,
     basisLabel,
     specifiedForceN,
+    specifiedForceSource: specified.source,
+    specifiedForceFactor: specified.factor,
     strand,
     grossMm: whole.grossMm,
     netMm,

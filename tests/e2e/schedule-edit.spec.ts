@@ -3,7 +3,8 @@ import { expect, test, type Page } from "@playwright/test";
 import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
 import { makePourFixture, pushEndA, type PourFixture } from "./pour-fixture";
 import { screenshot } from "./support";
-import { MPA_PER_KSI } from "@/lib/units";
+import { findStrandSize } from "@/lib/elongation";
+import { MPA_PER_KSI, N_PER_KIP } from "@/lib/units";
 
 /**
  * The admin corrects a strand lot and a tendon's schedule row from the office. Before an edit
@@ -183,6 +184,39 @@ test.describe("editing from the office", () => {
     );
     expect(latest!.reason).toBe(`tendon ${tag} schedule edited: segments`);
     await screenshot(page, "tendon-edit-saved");
+
+    // The schedule's own jacking force: above 0.80·fpu·A (ACI 318-19 Table 20.3.2.5.1, from memory)
+    // it is refused beside its box and nothing is asked; 0.75·fpu·A is counted by the preview.
+    const force = form.getByLabel("Jacking force, kip");
+    await expect(force).toHaveValue("");
+    await force.fill("999");
+    await form.getByRole("button", { name: "Save changes" }).click();
+    await expect(form.locator("#t-jackingForceN-error")).toContainText("above 0.80·fpu·A");
+    await expect(force).toHaveAttribute("aria-invalid", "true");
+    await expect(dialog).toBeHidden();
+    await screenshot(page, "tendon-edit-force-over-limit");
+    const nominal = findStrandSize(fx.tendon.strandSize)!;
+    const kip = (0.75 * nominal.minBreakingStrengthN * fx.tendon.strandCount) / N_PER_KIP;
+    await force.fill(kip.toFixed(2));
+    await form.getByRole("button", { name: "Save changes" }).click();
+    await expect(dialog).toContainText("Saving judges 1 stressed tendon again on the new values");
+    await dialog.getByRole("button", { name: "Save and judge again" }).click();
+    await expect(form.getByText(`Tendon ${tag} saved; 1 stressed tendon was judged again.`)).toHaveRole("status");
+    await expect
+      .poll(
+        async () =>
+          (
+            await queryDemo<{ reason: string }>(
+              "select reason from evaluations where tendon_id = $1 order by created_at desc limit 1",
+              [fx.tendons[0]!.id],
+            )
+          )[0]!.reason,
+      )
+      .toBe(`tendon ${tag} schedule edited: jacking force`);
+    // The tendon page says where the force came from.
+    await page.reload();
+    await expect(page.getByText("from the schedule (at most 0.80·fpu·A")).toBeVisible();
+    await screenshot(page, "tendon-edit-force-saved");
   });
 });
 

@@ -22,7 +22,7 @@ export const CAL = {
   validUntil: "2027-04-30",
   slope: SLOPE,
   intercept: 0,
-  minPressureMPa: 2,
+  minPressureMPa: 1, // below an initial 10 % of a 0.60·fpu·A schedule force
   maxPressureMPa: 60,
 };
 export const SET_ID = "0190a0b0-0000-7000-8000-0000000000dd";
@@ -80,10 +80,11 @@ export function perfectReading(
   k = 1,
   stretch = 1,
   anchorSetMm = project.anchorSetMm,
+  pj = PJ,
 ) {
   const basisNet = plan.method === "marks";
   const set = plan.seating ?? anchorSetMm;
-  const grip = basisNet ? 0 : (PJ * GRIP) / axial;
+  const grip = basisNet ? 0 : (pj * GRIP) / axial;
   const fromZero = stretch * k * (grossMm + grip); // at the gauge force k·Pj, before seating
   // The initial pressure is a share of the specified force; from zero it is a share k·… of the pull.
   // With gauge steps the marks are set at 20 % of Pj and read again at each step (from a mark 37 mm out).
@@ -93,9 +94,9 @@ export function perfectReading(
   const drawIn = plan.typeDrawIn ? plan.drawIn : (setDrawIn ?? 0);
   const measured = basisNet ? sincePi - set : sincePi + (plan.strokes - 1) * drawIn;
   const steps = plan.steps
-    ? [0.2, 0.4, 0.6, 0.8, 1].map((f) => ({ pressureMPa: (f * k * PJ) / SLOPE, readingMm: 37 + f * fromZero }))
+    ? [0.2, 0.4, 0.6, 0.8, 1].map((f) => ({ pressureMPa: (f * k * pj) / SLOPE, readingMm: 37 + f * fromZero }))
     : null;
-  return { measured, initialMPa: initialShare === null ? null : (initialShare * PJ) / SLOPE, steps };
+  return { measured, initialMPa: initialShare === null ? null : (initialShare * pj) / SLOPE, steps };
 }
 
 export interface ReadingCase {
@@ -112,12 +113,15 @@ export interface ReadingCase {
   stretch?: number;
   /** The project's settings this case changes (its form default basis, its band). */
   project?: Partial<FieldProject>;
+  /** The jacking force the tendon's schedule row gives; none: the project's 0.80·fpu·A (PJ). */
+  scheduleForceN?: number | null;
 }
 
 /** Reads the case's tendon at every end and judges it on the tablet's path and on the server's. */
 export function judgeOnBothPaths(c: ReadingCase) {
   const p: FieldProject = { ...project, ...c.project };
   const { lengthMm, angleRad, ends, order, planA, planB, setDrawIn, kOf } = c;
+  const pj = c.scheduleForceN ?? PJ;
   const segments = [{ lengthMm, angleRad }];
   const tendon: FieldTendon = {
     id: "0190a0b0-0000-7000-8000-0000000000cc",
@@ -131,6 +135,7 @@ export function judgeOnBothPaths(c: ReadingCase) {
     ends,
     jackGripMm: GRIP,
     strandLotId: null,
+    jackingForceN: c.scheduleForceN ?? null,
   };
   const engine = (e: TendonInput["ends"]) =>
     predictElongation({
@@ -138,7 +143,7 @@ export function judgeOnBothPaths(c: ReadingCase) {
       strandAreaMm2: strand.areaMm2,
       strandCount: 1,
       modulusMPa: 28_500_000 * MPA_PER_PSI,
-      jackingForceN: PJ,
+      jackingForceN: pj,
       wobblePerM: p.wobblePerM,
       mu: p.frictionMu,
       ends: e,
@@ -155,7 +160,16 @@ export function judgeOnBothPaths(c: ReadingCase) {
         ];
 
   const local: LocalRecord[] = plans.map(([end, plan, gross], i) => {
-    const r = perfectReading(plan, gross, whole.axialStiffnessN, setDrawIn, kOf(end), c.stretch ?? 1, p.anchorSetMm);
+    const r = perfectReading(
+      plan,
+      gross,
+      whole.axialStiffnessN,
+      setDrawIn,
+      kOf(end),
+      c.stretch ?? 1,
+      p.anchorSetMm,
+      pj,
+    );
     const id = `0190a0b0-0000-7000-8000-00000000000${i + 1}`;
     return {
       id,
@@ -171,7 +185,7 @@ export function judgeOnBothPaths(c: ReadingCase) {
       calibrationId: CAL.id,
       expiredCalibrationReason: null,
       initialPressureMPa: r.initialMPa,
-      finalPressureMPa: (kOf(end) * PJ) / SLOPE,
+      finalPressureMPa: (kOf(end) * pj) / SLOPE,
       readingMethod: plan.method,
       entered: {
         units: { length: "mm", pressure: "MPa" },

@@ -2,6 +2,7 @@ import { checkStressLimits, findStrandSize, forceFromPressure, predictElongation
 import { MPA_PER_PSI } from "@/lib/units";
 import { showForce } from "@/lib/format/quantities";
 import { JUDGING_DEFAULTS, type EndJudgement } from "../judge";
+import { specifiedForceSourceWords } from "../display";
 import type { Rule, RuleState } from "./types";
 
 /** Half of a 100 psi gauge graduation, in MPa: a dial is read to its graduation (UFGS 02490, from memory). */
@@ -98,7 +99,7 @@ export const underForce: Rule = ({ input, judgement }) => {
     reason: low
       .map(
         (e) =>
-          `End ${e.end} reached ${showForce(p, e.gaugeForceN!)} on the gauge, ${((e.gaugeForceN! / judgement.specifiedForceN) * 100).toFixed(1)} % of the specified ${showForce(p, judgement.specifiedForceN)} (more than ${pct} % short)` +
+          `End ${e.end} reached ${showForce(p, e.gaugeForceN!)} on the gauge, ${((e.gaugeForceN! / judgement.specifiedForceN) * 100).toFixed(1)} % of the specified ${showForce(p, judgement.specifiedForceN)} (${specifiedForceSourceWords(judgement.specifiedForceSource, judgement.specifiedForceFactor)}; more than ${pct} % short)` +
           (e.impliedForceN !== null ? `; the elongation implies ${showForce(p, e.impliedForceN)}.` : "."),
       )
       .join(" "),

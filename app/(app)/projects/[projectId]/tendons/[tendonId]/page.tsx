@@ -14,7 +14,7 @@ import { getTendonDetail, SHOP_DRAWING_MARK_PCT } from "@/lib/server/get-tendon-
 import { listStrandLots } from "@/lib/server/list-strand-lots";
 import { listTendonReadings } from "@/lib/server/list-tendon-readings";
 import { formatForce, formatLength, formatPressure } from "@/lib/units";
-import { rereadLine } from "@/lib/stressing/display";
+import { rereadLine, specifiedForceSourceWords } from "@/lib/stressing/display";
 import { storedGaugeOffTarget, storedGaugeSteps } from "@/lib/schemas/record";
 import {
   showArea,
@@ -128,7 +128,11 @@ export default async function TendonPage({ params }: { params: Promise<{ project
               <Figure
                 label="Jacking force"
                 value={force(computed.prediction.jackingForceN)}
-                note="0.80 of the nominal breaking load (ACI 318-19 Table 20.3.2.5.1)"
+                note={
+                  computed.prediction.jackingForceSource === "schedule"
+                    ? "from the schedule (at most 0.80·fpu·A, ACI 318-19 Table 20.3.2.5.1)"
+                    : `${specifiedForceSourceWords("project", computed.prediction.jackingForceFactor)} of the nominal strand, the project's factor (ACI 318-19 Table 20.3.2.5.1 allows at most 0.80·fpu·A)`
+                }
               />
             </div>
             {tendon.ends === "both" && (
@@ -345,6 +349,7 @@ export default async function TendonPage({ params }: { params: Promise<{ project
                   shopElongationMm: tendon.shopElongationMm,
                   strandLotId: tendon.lot?.id ?? null,
                   member: tendon.member,
+                  jackingForceN: tendon.jackingForceN,
                 }}
               />
             </div>
