@@ -3,7 +3,6 @@ import { claimOp, duplicateOf, rejectedOp } from "./applied-ops";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { env } from "@/lib/env";
-import { can } from "@/lib/auth/permissions";
 import { dayInZone } from "@/lib/format/dates";
 import { reference } from "@/lib/format/references";
 import { showPressure, showWobble } from "@/lib/format/quantities";
@@ -11,7 +10,6 @@ import { flagMail } from "@/lib/mail/templates";
 import { pickCalibration } from "@/lib/schemas/calibration";
 import { liftoffPayloadSchema } from "@/lib/schemas/liftoff";
 import type { FieldLiftoffResult, OpResult, SyncOp } from "@/lib/schemas/sync";
-import { zodFields } from "@/lib/schemas/zod-fields";
 import { flagRecipientsNow } from "@/lib/stressing/flag-mail";
 import { predictTendon } from "@/lib/stressing/basis";
 import {
@@ -22,9 +20,10 @@ import {
   liftoffPressureProblem,
 } from "@/lib/stressing/liftoff";
 import { isInputError, parsePressure } from "@/lib/units";
+import { admitEventOp, type OpSender } from "./admit-event-op";
 import { inTransaction } from "./in-transaction";
 import { selectTendonBasis, toLoadedTendon } from "./load-tendon-basis";
-import { auditInsert, recordAudit } from "./record-audit";
+import { auditInsert } from "./record-audit";
 
 /**
  * Records a lift-off check from the tablet's outbox (op kind liftoff_check), exactly once: the
@@ -46,10 +45,7 @@ import { auditInsert, recordAudit } from "./record-audit";
 
 type Db = Kysely<Database>;
 
-export interface LiftoffChecker {
-  id: string;
-  memberships: { projectId: string; role: Parameters<typeof can>[0] }[];
-}
+export type LiftoffChecker = OpSender;
 
 const refused = (op: SyncOp, field: string, message: string): OpResult =>
   rejectedOp(op, "INVALID_INPUT", message, { [field]: [message] });
@@ -64,41 +60,14 @@ export async function recordLiftoffCheck(
   op: SyncOp,
 ): Promise<OpResult> {
   const { user, deviceId } = input;
-  const parsed = liftoffPayloadSchema.safeParse(op.payload);
-  if (!parsed.success) {
-    const fields = zodFields(parsed.error);
-    return rejectedOp(op, "INVALID_INPUT", `Check the lift-off check: ${Object.keys(fields).join(", ")}.`, fields);
-  }
-  const p = parsed.data;
-  if (op.baseVersion !== undefined)
-    return rejectedOp(op, "INVALID_INPUT", "A lift-off check is never a correction: send it without a base version.", {
-      baseVersion: ["Not allowed on a lift-off check."],
-    });
-  const membership = user.memberships.find((m) => m.projectId === p.projectId);
-  if (!membership || !can(membership.role, "record.create")) {
-    const result = membership
-      ? rejectedOp(
-          op,
-          "FORBIDDEN",
-          `Your role on this project (${membership.role}) does not allow recording a lift-off check.`,
-        )
-      : rejectedOp(op, "NOT_FOUND", "No such project among yours.");
-    await recordAudit(db, {
-      action: "liftoff.check",
-      outcome: "denied",
-      actorUserId: user.id,
-      target: op.recordId,
-      detail: { opId: op.opId, reason: result.error!.message },
-    });
-    return result;
-  }
-  if (p.authorUserId !== user.id)
-    return rejectedOp(
-      op,
-      "FORBIDDEN",
-      "This lift-off check was recorded by another person on this tablet; it is sent when they sign in.",
-      { authorUserId: ["Not the signed-in person."] },
-    );
+  const admitted = await admitEventOp(db, user, op, {
+    schema: liftoffPayloadSchema,
+    noun: "lift-off check",
+    recording: "a lift-off check",
+    auditAction: "liftoff.check",
+  });
+  if (!admitted.ok) return admitted.result;
+  const p = admitted.payload;
   let pressureMPa: number;
   try {
     pressureMPa = parsePressure(p.pressure, { field: "pressure", system: "SI", defaultUnit: p.pressureUnit });
