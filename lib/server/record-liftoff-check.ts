@@ -7,7 +7,7 @@ import { dayInZone } from "@/lib/format/dates";
 import { reference } from "@/lib/format/references";
 import { showPressure, showWobble } from "@/lib/format/quantities";
 import { flagMail } from "@/lib/mail/templates";
-import { pickCalibration } from "@/lib/schemas/calibration";
+import { CALIBRATION_COLUMNS, calibrationFromRow, pickCalibration } from "@/lib/schemas/calibration";
 import { liftoffPayloadSchema } from "@/lib/schemas/liftoff";
 import type { FieldLiftoffResult, OpResult, SyncOp } from "@/lib/schemas/sync";
 import { flagRecipientsNow } from "@/lib/stressing/flag-mail";
@@ -107,16 +107,7 @@ export async function recordLiftoffCheck(
         .executeTakeFirst(),
       trx
         .selectFrom("calibrations")
-        .select([
-          "id",
-          "calibrated_on",
-          "valid_until",
-          "retired_at",
-          "slope_n_per_mpa",
-          "intercept_n",
-          "min_pressure_mpa",
-          "max_pressure_mpa",
-        ])
+        .select(CALIBRATION_COLUMNS)
         .where("project_id", "=", p.projectId)
         .where("equipment_set_id", "=", p.equipmentSetId)
         .execute(),
@@ -144,28 +135,21 @@ export async function recordLiftoffCheck(
     }
 
     const day = dayInZone(p.checkedAt, basis.project.timeZone ?? "UTC");
-    const picked = pickCalibration(
-      calibrations.map((c) => ({ ...c, calibratedOn: c.calibrated_on, retiredAt: c.retired_at })),
-      day,
-    );
+    const picked = pickCalibration(calibrations.map(calibrationFromRow), day);
     if (!picked)
       return refused(
         op,
         "equipmentSetId",
         `${set.name} had no calibration in force on ${day}: the force cannot be known.`,
       );
-    if (day > picked.valid_until)
+    if (day > picked.validUntil)
       return refused(
         op,
         "equipmentSetId",
-        `The calibration of ${set.name} expired on ${picked.valid_until}, before this check (${day}): use a calibrated set.`,
+        `The calibration of ${set.name} expired on ${picked.validUntil}, before this check (${day}): use a calibrated set.`,
       );
-    const line = {
-      slope: picked.slope_n_per_mpa,
-      intercept: picked.intercept_n,
-      minPressureMPa: picked.min_pressure_mpa,
-      maxPressureMPa: picked.max_pressure_mpa,
-    };
+    const { slope, intercept, minPressureMPa, maxPressureMPa } = picked;
+    const line = { slope, intercept, minPressureMPa, maxPressureMPa };
     const pressureProblem = liftoffPressureProblem(basis.project, line, pressureMPa);
     if (pressureProblem) return refused(op, pressureProblem.field, pressureProblem.message);
 
@@ -212,7 +196,7 @@ export async function recordLiftoffCheck(
     if (!judged.withinBand) {
       const reason =
         `Lift-off check at end ${p.tendonEnd} of ${basis.tendon.tag} by ${person.name}: gauge ${readAs} ` +
-        `(${showPressure(basis.project, pressureMPa)}) on ${set.name}, calibration of ${picked.calibrated_on}. ${line_}`;
+        `(${showPressure(basis.project, pressureMPa)}) on ${set.name}, calibration of ${picked.calibratedOn}. ${line_}`;
       const flag = await trx
         .insertInto("flags")
         .values({
