@@ -22,17 +22,6 @@ import { ago, clockTime, useNow } from "./use-live";
 import { countOf } from "@/lib/format/count";
 import { dayInZone, formatDateTime, projectTimeZone, shiftDay } from "@/lib/format/dates";
 
-async function availablePours(): Promise<{ pours: AvailablePour[] | null; error: string | null }> {
-  try {
-    const response = await fetch("/api/field/pours", { credentials: "same-origin", cache: "no-store" });
-    if (response.status === 401) return { pours: null, error: "Sign in to see the pours you can take out." };
-    if (!response.ok) return { pours: null, error: `The server answered ${response.status}; try again.` };
-    return { pours: ((await response.json()) as { pours: AvailablePour[] }).pours, error: null };
-  } catch {
-    return { pours: null, error: "No signal: pours can be taken out once the tablet is online again." };
-  }
-}
-
 /** The crew's landing: pours ready offline with what they hold, and pours to take out. */
 export function FieldHome() {
   const { db, client } = useField();
@@ -62,7 +51,7 @@ export function FieldHome() {
   const [listVersion, setListVersion] = useState(0);
   useEffect(() => {
     let cancelled = false;
-    void availablePours().then((answer) => {
+    void client.availablePours().then((answer) => {
       if (cancelled) return;
       setListError(answer.error);
       if (answer.pours) setAvailable(answer.pours);
@@ -73,7 +62,7 @@ export function FieldHome() {
       cancelled = true;
       window.removeEventListener("online", again);
     };
-  }, [listVersion]);
+  }, [client, listVersion]);
 
   async function download(pourId: string) {
     setDownloading(pourId);

@@ -24,7 +24,13 @@ import { RefreshError, useRouteData } from "@/components/setup/use-route-data";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
 import { KIND_LABELS } from "@/lib/schemas/tendon";
 import type { TendonRow } from "@/lib/server/list-tendons";
-import { showComputedLength, showForce, showLongLength, showPressure, type DisplayUnits } from "@/lib/format/quantities";
+import {
+  showComputedLength,
+  showForce,
+  showLongLength,
+  showPressure,
+  type DisplayUnits,
+} from "@/lib/format/quantities";
 import { formatLength, type ReadingResolution } from "@/lib/units";
 
 export interface TendonList {

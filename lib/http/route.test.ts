@@ -1,4 +1,5 @@
 import { DatabaseError } from "pg";
+import { z as mini } from "zod/mini";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { AppError, ERROR_STATUS, type ErrorCode } from "@/lib/errors";
 import { InputError } from "@/lib/units";
@@ -201,5 +202,30 @@ describe("route(): what a handler throws goes through the same mapping", () => {
     const response = await call(async () => ({ done: 1 }));
     expect(response.status).toBe(200);
     expect(await response.json()).toEqual({ done: 1 });
+  });
+
+  describe("a declared response schema", () => {
+    const schema = mini.object({ results: mini.array(mini.object({ opId: mini.string() })) });
+    const answerWith = (result: unknown) =>
+      route({ access: "public", response: schema }, async () => result as { results: { opId: string }[] })(
+        new Request("http://localhost/api/x") as never,
+        { params: Promise.resolve({}) },
+      );
+
+    it("sends the answer parsed through it, without keys the contract does not name", async () => {
+      const response = await answerWith({ results: [{ opId: "a", internal: "x" }], debug: true });
+      expect(response.status).toBe(200);
+      expect(await response.json()).toEqual({ results: [{ opId: "a" }] });
+    });
+
+    it("answers 500 with a reference, never the parse's words, when the handler's answer breaks it", async () => {
+      const logged = vi.spyOn(console, "error").mockImplementation(() => undefined);
+      const response = await answerWith({ results: [{ opId: 7 }] });
+      expect(response.status).toBe(500);
+      const text = await response.text();
+      expect(text).toMatch(/reference [0-9a-f]{8}/);
+      expect(text).not.toMatch(/opId|expected|invalid_type/i);
+      expect(logged).toHaveBeenCalled();
+    });
   });
 });

@@ -14,6 +14,7 @@ import { isInputError } from "@/lib/units";
  * - Mutating methods must come from our own origin (Origin or Sec-Fetch-Site) and, when they
  *   carry a body, as JSON: this is the CSRF defence for route handlers, which Next.js does not give.
  * - The body and the route params are parsed with zod; failures answer 422 naming each field.
+ * - A route that declares a `response` schema has its answer parsed through it before it is sent.
  * - Every failure is answered by `errorResponse`: AppErrors with their status, the units' InputError
  *   and PostgreSQL's refusals in words; anything else is logged with a reference and answers 500.
  */
@@ -109,11 +110,26 @@ type Infer<S> = S extends z.ZodType ? z.infer<S> : undefined;
 /** Who may call a route. "public" is for the few routes whose token is the authorization. */
 type Access<P, A> = "public" | ((input: { params: P; request: NextRequest }) => Promise<A>);
 
-interface RouteOptions<B extends z.ZodType | undefined, P extends z.ZodType | undefined, A> {
+/** A response schema: classic zod or zod/mini (the tablet's contracts, lib/schemas/sync-response.ts). */
+type ResponseSchema = z.core.$ZodType;
+
+interface RouteOptions<
+  B extends z.ZodType | undefined,
+  P extends z.ZodType | undefined,
+  A,
+  R extends ResponseSchema | undefined,
+> {
   params?: P;
   body?: B;
   access: Access<Infer<P>, A>;
+  /**
+   * What the handler answers: the wrapper parses it before sending (unknown keys dropped), so a
+   * caller gets exactly the contract. An answer that does not match is a fault of ours (500).
+   */
+  response?: R;
 }
+
+type Answer<R> = R extends ResponseSchema ? z.input<R> : unknown;
 
 /**
  * Order matters: origin check, params, then access (so an anonymous caller always gets 401 and
@@ -123,14 +139,15 @@ export function route<
   B extends z.ZodType | undefined = undefined,
   P extends z.ZodType | undefined = undefined,
   A = undefined,
+  R extends ResponseSchema | undefined = undefined,
 >(
-  options: RouteOptions<B, P, A>,
+  options: RouteOptions<B, P, A, R>,
   handler: (input: {
     request: NextRequest;
     body: Infer<B>;
     params: Infer<P>;
     access: A;
-  }) => Promise<Response | unknown>,
+  }) => Promise<Response | Answer<R>>,
 ) {
   return async (request: NextRequest, ctx: Ctx): Promise<Response> => {
     try {
@@ -142,7 +159,8 @@ export function route<
       if (options.body) body = parseWith(options.body, await readJson(request), "form") as Infer<B>;
       const result = await handler({ request, body, params, access });
       if (result instanceof Response) return result;
-      return NextResponse.json(result ?? { ok: true }, { headers: { "Cache-Control": "no-store" } });
+      const answer = options.response ? z.parse(options.response, result) : result;
+      return NextResponse.json(answer ?? { ok: true }, { headers: { "Cache-Control": "no-store" } });
     } catch (error) {
       return errorResponse(error);
     }

@@ -1,9 +1,9 @@
 import { afterEach, describe, expect, it } from "vitest";
 import type { LiftoffPayload } from "@/lib/schemas/liftoff";
-import type { OpResult, PullResponse } from "@/lib/schemas/sync";
+import type { OpResult } from "@/lib/schemas/sync";
 import { applyPushResults, OutboxWriteError, requeue, saveLiftoffCheck } from "./outbox";
 import { applyPull } from "./reference";
-import { testDb, TEST_USER } from "./test-support";
+import { emptyPull, testDb, TEST_USER } from "./test-support";
 
 const opened: { db: { close: () => void } }[] = [];
 function freshDb() {
@@ -105,18 +105,7 @@ describe("saveLiftoffCheck", () => {
 
   it("takes the server's checks from the pull, with their results", async () => {
     const db = freshDb();
-    const pulled = {
-      cursor: "10",
-      serverTime: "2026-12-02T16:00:00.000Z",
-      projects: [],
-      pours: [],
-      tendons: [],
-      strandLots: [],
-      equipmentSets: [],
-      calibrations: [],
-      records: [],
-      evaluations: [],
-      flags: [],
+    const pulled = emptyPull("10", {
       liftoffChecks: [
         {
           id: "0190a0b0-0000-7000-8000-0000000000f1",
@@ -133,9 +122,7 @@ describe("saveLiftoffCheck", () => {
           ...result,
         },
       ],
-      removed: [],
-      unavailable: [],
-    } satisfies PullResponse;
+    });
     await applyPull(db, pulled, { pourIds: [] });
     expect(await db.liftoffChecks.where("tendonId").equals(T1).toArray()).toEqual([
       expect.objectContaining({ checkedByName: "Another Crew", withinBand: true, syncState: "synced" }),

@@ -6,7 +6,7 @@ import type { FieldFlag, FieldPour, FieldProject, FieldTendon, PullResponse } fr
 import { FieldDb } from "./db";
 import { acknowledgeNotices, openNotices } from "./notices";
 import { applyPull } from "./reference";
-import { testDb } from "./test-support";
+import { emptyPull, testDb } from "./test-support";
 
 const PROJECT = { id: "pr1", code: "T1", name: "Test project" } as FieldProject;
 const POUR: FieldPour = {
@@ -33,23 +33,10 @@ const FLAG: FieldFlag = {
 let cursor = 100;
 function pull(over: Partial<PullResponse>): PullResponse {
   cursor++;
-  return {
-    cursor: String(cursor),
+  return emptyPull(String(cursor), {
     serverTime: `2026-12-02T16:${String(cursor % 60).padStart(2, "0")}:00.000Z`,
-    projects: [],
-    pours: [],
-    tendons: [],
-    strandLots: [],
-    equipmentSets: [],
-    calibrations: [],
-    records: [],
-    evaluations: [],
-    flags: [],
-    tailCuts: [],
-    removed: [],
-    unavailable: [],
     ...over,
-  };
+  });
 }
 
 const download = (db: FieldDb, over: Partial<PullResponse> = {}) =>

@@ -1,9 +1,9 @@
 import Dexie from "dexie";
 import { afterEach, describe, expect, it, onTestFinished, vi } from "vitest";
-import type { SyncMeta } from "./db";
-import { openField } from "./open-field";
+import { readMeta, type SessionMeta, type SyncMeta } from "./db";
+import { openField, UNREADABLE_SESSION } from "./open-field";
 import { saveRecord, type OutboxStatus } from "./outbox";
-import { samplePayload, signIn, testDb } from "./test-support";
+import { samplePayload, signIn, TEST_USER, testDb } from "./test-support";
 
 afterEach(() => {
   vi.unstubAllGlobals();
@@ -59,6 +59,20 @@ describe("openField (the shell's database, loaded after the first paint)", () =>
     await new Promise((r) => setTimeout(r, 100));
     expect(outbox.length).toBe(seen);
     expect(await db.outbox.count()).toBe(2);
+    db.close();
+  });
+
+  it("keeps the person it had when the server's answer about who is signed in breaks its contract", async () => {
+    vi.stubGlobal("fetch", async (url: string) =>
+      url === "/api/me"
+        ? new Response(JSON.stringify({ id: "someone-else", memberships: "all of them" }), { status: 200 })
+        : new Response("{}", { status: 404 }),
+    );
+    const { db } = testDb();
+    await signIn(db);
+    await openField(db).syncNow();
+    expect(await readMeta<SessionMeta>(db, "session")).toEqual(TEST_USER);
+    expect((await readMeta<SyncMeta>(db, "sync"))!.lastError).toBe(UNREADABLE_SESSION);
     db.close();
   });
 });

@@ -16,6 +16,7 @@ import {
   type SessionMeta,
   type SyncMeta,
 } from "./db";
+import { meResponseSchema } from "@/lib/schemas/me";
 import { outboxStatus, type OutboxStatus } from "./outbox";
 import { uploadPhotos } from "./photo-upload";
 import { SyncClient } from "./sync-client";
@@ -34,12 +35,9 @@ export interface FieldRuntime {
   start: (watch: { outbox: (status: OutboxStatus) => void; sync: (meta: SyncMeta) => void }) => () => void;
 }
 
-interface Me {
-  id: string;
-  name: string;
-  email: string;
-  memberships: { projectId: string; projectName: string; projectCode: string; role: string }[];
-}
+/** What the crew reads when the server's word on who is signed in cannot be read. */
+export const UNREADABLE_SESSION =
+  "The server's answer about who is signed in could not be read; the tablet keeps the person it had.";
 
 /** Who is signed in, asked of the server when there is signal and kept for offline work. */
 async function refreshSession(db: FieldDb): Promise<void> {
@@ -54,7 +52,13 @@ async function refreshSession(db: FieldDb): Promise<void> {
     return;
   }
   if (!response.ok) return;
-  const me = (await response.json()) as Me;
+  // The person is kept only when the answer matches its contract; otherwise the one we had stays.
+  const parsed = meResponseSchema.safeParse(await response.json().catch(() => null));
+  if (!parsed.success) {
+    await updateSyncMeta(db, { lastError: UNREADABLE_SESSION });
+    return;
+  }
+  const me = parsed.data;
   const previous = await readMeta<SessionMeta>(db, "session");
   const session: SessionMeta = {
     userId: me.id,

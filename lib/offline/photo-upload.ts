@@ -1,3 +1,4 @@
+import { presignUploadResponseSchema } from "@/lib/schemas/upload-response";
 import type { FieldDb, LocalPhoto } from "./db";
 
 /**
@@ -38,11 +39,9 @@ async function uploadOne(db: FieldDb, photo: LocalPhoto): Promise<void> {
     }),
   });
   if (!start.ok) throw new Error(`The server would not take the photo (${start.status}).`);
-  const { attachmentId, uploadUrl, headers } = (await start.json()) as {
-    attachmentId: string;
-    uploadUrl: string;
-    headers: Record<string, string>;
-  };
+  const presigned = presignUploadResponseSchema.safeParse(await start.json().catch(() => null));
+  if (!presigned.success) throw new Error(PHOTO_UNREADABLE);
+  const { attachmentId, uploadUrl, headers } = presigned.data;
   await db.photos.update(photo.id, { attachmentId });
   let lastWrite = 0;
   const status = await put(uploadUrl, photo.blob, headers ?? {}, (loaded) => {
@@ -60,6 +59,10 @@ async function uploadOne(db: FieldDb, photo: LocalPhoto): Promise<void> {
   if (!confirm.ok) throw new Error(`The server did not accept the photo (${confirm.status}).`);
   await db.photos.update(photo.id, { state: "stored", uploadedBytes: photo.sizeBytes });
 }
+
+/** The server's answer to starting an upload does not match its contract: nothing is sent, the photo waits. */
+export const PHOTO_UNREADABLE =
+  "The server's answer could not be read, so the photo was not sent. It stays on this tablet and is sent later.";
 
 export const PHOTO_NO_CONNECTION =
   "No connection to the server. The photo stays on this tablet and is sent when there is signal.";

@@ -1,9 +1,9 @@
-import { afterEach, describe, expect, it } from "vitest";
-import type { PushResponse } from "@/lib/schemas/sync";
+import { afterEach, describe, expect, it, vi } from "vitest";
+import type { PullResponse, PushResponse } from "@/lib/schemas/sync";
 import { readMeta, type SyncMeta } from "./db";
 import { saveRecord } from "./outbox";
-import { NO_CONNECTION, SyncClient, type Fetch, type LockManagerLike } from "./sync-client";
-import { samplePayload, signIn, testDb } from "./test-support";
+import { NO_CONNECTION, SyncClient, UNREADABLE_ANSWER, type Fetch, type LockManagerLike } from "./sync-client";
+import { emptyPull, samplePayload, signIn, testDb } from "./test-support";
 
 const opened: { close: () => void }[] = [];
 afterEach(() => {
@@ -209,5 +209,164 @@ describe("SyncClient.sendSoon (after a save)", () => {
     expect(await after).toMatchObject({ kind: "done", pushed: 1 });
     expect(server.pushes).toHaveLength(2);
     expect(await db.outbox.count()).toBe(0);
+  });
+});
+
+describe("SyncClient: the server's answers are parsed before anything is stored", () => {
+  const PROJECT_ID = "0190a0b0-0000-7000-8000-0000000000aa";
+  const POUR_ID = "0190a0b0-0000-7000-8000-0000000000bb";
+  const goodPull = (cursor: string, over: Partial<PullResponse> = {}): PullResponse =>
+    emptyPull(cursor, {
+      projects: [
+        {
+          id: PROJECT_ID,
+          code: "T1",
+          name: "Test project",
+          unitSystem: "si",
+          readingResolution: "1 mm",
+          tolerancePct: 7,
+          shortTendonFloorMm: null,
+          comparisonBasis: "gross",
+          countJackGrip: true,
+          frictionMu: 0.07,
+          wobblePerM: 0.0014,
+          anchorSetMm: 6,
+          blindEntry: false,
+        },
+      ],
+      pours: [
+        {
+          id: POUR_ID,
+          projectId: PROJECT_ID,
+          name: "Level 3 east",
+          level: "3",
+          plannedStressingDate: null,
+          status: "planned",
+          release: null,
+          reopened: null,
+        },
+      ],
+      tendons: [
+        {
+          id: "t1",
+          projectId: PROJECT_ID,
+          pourId: POUR_ID,
+          tag: "U07",
+          kind: "uniform",
+          strandSize: "0.5",
+          strandCount: 1,
+          segments: [{ lengthMm: 12_000, angleRad: 0 }],
+          ends: "A",
+          jackGripMm: null,
+          strandLotId: null,
+        },
+      ],
+      ...over,
+    });
+  /** A pull whose one tendon says its strand count in words: it breaks the contract. */
+  const badPull = (cursor: string) => {
+    const pull = goodPull(cursor);
+    return { ...pull, tendons: [{ ...pull.tendons[0], id: "t2", strandCount: "twelve" }] };
+  };
+  const counts = async (db: Awaited<ReturnType<typeof tablet>>["db"]) => ({
+    projects: await db.projects.count(),
+    pours: await db.pours.count(),
+    tendons: await db.tendons.count(),
+  });
+
+  it("stores a download that matches the contract, without keys it does not name", async () => {
+    const { db } = await tablet(0);
+    const pull = goodPull("40");
+    const withExtra = { ...pull, tendons: [{ ...pull.tendons[0], internalNote: "not for the tablet" }] };
+    const client = new SyncClient({ db, fetch: async () => json(200, withExtra), locks: null });
+    expect(await client.download(POUR_ID)).toEqual({ ok: true });
+    expect(await counts(db)).toEqual({ projects: 1, pours: 1, tendons: 1 });
+    expect(await db.pours.get(POUR_ID)).toMatchObject({ cursor: "40", name: "Level 3 east" });
+    expect(await db.tendons.get("t1")).not.toHaveProperty("internalNote");
+  });
+
+  it("refuses a download that breaks the contract: nothing written, the crew's words", async () => {
+    const { db } = await tablet(0);
+    const warn = vi.spyOn(console, "warn").mockImplementation(() => undefined);
+    const client = new SyncClient({ db, fetch: async () => json(200, badPull("40")), locks: null });
+    expect(await client.download(POUR_ID)).toEqual({ ok: false, status: 200, message: UNREADABLE_ANSWER });
+    expect(await counts(db)).toEqual({ projects: 0, pours: 0, tendons: 0 });
+    // The console says where, for whoever looks; the crew never reads the parse's own words.
+    expect(String(warn.mock.calls[0]?.[1])).toContain("tendons.0.strandCount");
+    expect(UNREADABLE_ANSWER).not.toMatch(/fetch|invalid|expected/i);
+    warn.mockRestore();
+  });
+
+  it("refuses a pull that breaks the contract: the pour keeps its cursor, nothing new is stored, the outbox is sent", async () => {
+    const { db } = await tablet(1);
+    await new SyncClient({ db, fetch: async () => json(200, goodPull("40")), locks: null }).download(POUR_ID);
+    const before = await counts(db);
+    const server = applyingServer();
+    const warn = vi.spyOn(console, "warn").mockImplementation(() => undefined);
+    const fetch: Fetch = async (url, init) =>
+      url.startsWith("/api/sync/pull") ? json(200, badPull("41")) : server.fetch(url, init);
+    const outcome = await new SyncClient({ db, fetch, locks: null, random: () => 0.5 }).sync();
+    warn.mockRestore();
+    expect(outcome).toMatchObject({ kind: "offline", message: UNREADABLE_ANSWER });
+    expect(server.pushes).toHaveLength(1);
+    expect(await counts(db)).toEqual(before);
+    expect(await db.tendons.get("t2")).toBeUndefined();
+    expect((await db.pours.get(POUR_ID))!.cursor).toBe("40");
+    expect((await readMeta<SyncMeta>(db, "sync"))!.lastError).toBe(UNREADABLE_ANSWER);
+  });
+
+  it("stores a pull that matches the contract and moves the pour's cursor", async () => {
+    const { db } = await tablet(0);
+    await new SyncClient({ db, fetch: async () => json(200, goodPull("40")), locks: null }).download(POUR_ID);
+    const later = goodPull("41", { tendons: [{ ...goodPull("41").tendons[0]!, id: "t3", tag: "U08" }] });
+    const fetch: Fetch = async (url) => (url.startsWith("/api/sync/pull") ? json(200, later) : json(404, {}));
+    expect(await new SyncClient({ db, fetch, locks: null }).sync()).toMatchObject({ kind: "done", pulled: true });
+    expect(await db.tendons.get("t3")).toMatchObject({ tag: "U08" });
+    expect((await db.pours.get(POUR_ID))!.cursor).toBe("41");
+  });
+
+  it("keeps the outbox when the push's answer breaks the contract, and says so in plain words", async () => {
+    const { db, ids } = await tablet(2);
+    const warn = vi.spyOn(console, "warn").mockImplementation(() => undefined);
+    const fetch: Fetch = async (url, init) => {
+      const body = JSON.parse(String(init!.body)) as { ops: { opId: string }[] };
+      return json(200, { results: body.ops.map((o) => ({ opId: o.opId, status: "stored" })) });
+    };
+    const outcome = await new SyncClient({ db, fetch, locks: null, random: () => 0.5 }).sync();
+    warn.mockRestore();
+    expect(outcome).toMatchObject({ kind: "offline", message: UNREADABLE_ANSWER });
+    const outbox = await db.outbox.toArray();
+    expect(outbox.map((e) => [e.recordId, e.state, e.lastError])).toEqual(
+      ids.map((id) => [id, "pending", UNREADABLE_ANSWER]),
+    );
+    expect((await db.records.toArray()).every((r) => r.syncState === "pending")).toBe(true);
+  });
+
+  it("lists the pours to take out only from an answer that matches, else in the crew's words", async () => {
+    const { db } = await tablet(0);
+    const warn = vi.spyOn(console, "warn").mockImplementation(() => undefined);
+    const pour = {
+      id: POUR_ID,
+      projectId: PROJECT_ID,
+      projectCode: "T1",
+      projectName: "Test project",
+      name: "Level 3 east",
+      level: "3",
+      plannedStressingDate: null,
+      status: "planned",
+      tendonCount: 12,
+    };
+    const good = new SyncClient({ db, fetch: async () => json(200, { pours: [pour] }), locks: null });
+    expect(await good.availablePours()).toEqual({ pours: [pour], error: null });
+    const bad = new SyncClient({
+      db,
+      fetch: async () => json(200, { pours: [{ ...pour, tendonCount: null }] }),
+      locks: null,
+    });
+    expect(await bad.availablePours()).toEqual({
+      pours: null,
+      error: "The server's list of pours could not be read; try again.",
+    });
+    warn.mockRestore();
   });
 });

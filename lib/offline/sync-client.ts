@@ -1,4 +1,10 @@
-import type { PullResponse, PushResponse } from "@/lib/schemas/sync";
+import type { z } from "zod/mini";
+import {
+  availablePoursResponseSchema,
+  pullResponseSchema,
+  pushResponseSchema,
+  type AvailablePour,
+} from "@/lib/schemas/sync-response";
 import { backoffDelayMs } from "@/lib/retry/backoff";
 import { deviceId, readMeta, updateSyncMeta, type FieldDb, type SessionMeta } from "./db";
 import { applyPushResults, notePushFailure, pendingOps } from "./outbox";
@@ -9,11 +15,20 @@ export const NO_CONNECTION =
   "No connection to the server. Records stay on this tablet and are sent when there is signal.";
 
 /**
+ * What the crew reads when the server's answer does not match the contract (lib/schemas/sync-response.ts):
+ * nothing from it is stored, the outbox is kept and sent again after the usual wait.
+ */
+export const UNREADABLE_ANSWER =
+  "The server's answer could not be read, so nothing from it was stored. Records stay on this tablet and are sent again shortly.";
+
+/**
  * Moves the outbox to the server and the server's changes to the tablet. Runs in the page (the
  * service worker never holds records). One tab at a time: a Web Lock guards each round, and a
  * tab that finds it taken leaves the round to the holder. Network errors, 5xx and 429 back off
  * exponentially with full jitter (capped at five minutes); going online or "Sync now" resets the
- * wait. A 401 keeps everything and asks for sign-in again.
+ * wait. A 401 keeps everything and asks for sign-in again. Every answer is parsed against its
+ * schema before anything of it is stored; one that does not match is treated like a lost
+ * connection (kept, retried later) with its own words.
  */
 
 export type Fetch = (input: string, init?: RequestInit) => Promise<Response>;
@@ -131,6 +146,25 @@ export class SyncClient {
     return response;
   }
 
+  /** The answer's body parsed against its schema; anything else throws UNREADABLE_ANSWER. */
+  private async read<T>(response: Response, schema: z.ZodMiniType<T>, what: string): Promise<T> {
+    let body: unknown;
+    try {
+      body = await response.json();
+    } catch {
+      console.warn(`${what}: the server's answer is not JSON.`);
+      throw new Retryable(UNREADABLE_ANSWER);
+    }
+    const parsed = schema.safeParse(body);
+    if (!parsed.success) {
+      // For whoever looks at the console; the crew reads UNREADABLE_ANSWER.
+      const where = parsed.error.issues.slice(0, 5).map((i) => `${i.path.join(".") || "(answer)"}: ${i.message}`);
+      console.warn(`${what}: the server's answer does not match the contract.`, where);
+      throw new Retryable(UNREADABLE_ANSWER);
+    }
+    return parsed.data;
+  }
+
   private async round(): Promise<RoundOutcome> {
     const db = this.db;
     const session = await readMeta<SessionMeta>(db, "session");
@@ -167,7 +201,7 @@ export class SyncClient {
           await updateSyncMeta(db, { lastError: message });
           break;
         }
-        const body = (await response.json()) as PushResponse;
+        const body = await this.read(response, pushResponseSchema, "push");
         const applied = await applyPushResults(db, body.results);
         inFlight = [];
         pushed += batch.length;
@@ -223,7 +257,8 @@ export class SyncClient {
         const chunk = ids.slice(i, i + 20);
         const response = await this.call(`/api/sync/pull?cursor=${cursor}&pours=${chunk.join(",")}`);
         if (!response.ok) continue;
-        await applyPull(this.db, (await response.json()) as PullResponse, { pourIds: chunk });
+        const pull = await this.read(response, pullResponseSchema, "pull");
+        await applyPull(this.db, pull, { pourIds: chunk });
       }
     }
     await updateSyncMeta(this.db, { lastConfirmedSyncAt: new Date(this.now()).toISOString(), needsSignIn: false });
@@ -243,11 +278,34 @@ export class SyncClient {
       return { ok: false, status: 0, message: (error as Error).message };
     }
     if (!response.ok) return { ok: false, status: response.status, message: `The server answered ${response.status}.` };
-    await applyPull(this.db, (await response.json()) as PullResponse, {
-      pourIds: [pourId],
-      downloadedAt: new Date(this.now()).toISOString(),
-    });
+    let pull;
+    try {
+      pull = await this.read(response, pullResponseSchema, "download");
+    } catch (error) {
+      return { ok: false, status: response.status, message: (error as Error).message };
+    }
+    await applyPull(this.db, pull, { pourIds: [pourId], downloadedAt: new Date(this.now()).toISOString() });
     return { ok: true };
+  }
+
+  /** The pours the signed-in person may take out, for the download list; an error in the crew's words. */
+  async availablePours(): Promise<{ pours: AvailablePour[] | null; error: string | null }> {
+    let response: Response;
+    try {
+      response = await this.fetch("/api/field/pours", { credentials: "same-origin", cache: "no-store" });
+    } catch {
+      return { pours: null, error: "No signal: pours can be taken out once the tablet is online again." };
+    }
+    if (response.status === 401) return { pours: null, error: "Sign in to see the pours you can take out." };
+    if (!response.ok) return { pours: null, error: `The server answered ${response.status}; try again.` };
+    try {
+      return {
+        pours: (await this.read(response, availablePoursResponseSchema, "pours to take out")).pours,
+        error: null,
+      };
+    } catch {
+      return { pours: null, error: "The server's list of pours could not be read; try again." };
+    }
   }
 
   /**

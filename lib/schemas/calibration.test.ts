@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { addDays, calibrationSchema, pickCalibration } from "./calibration";
+import { addDays, calibrationFromRow, calibrationSchema, pickCalibration, type CalibrationRow } from "./calibration";
 import { latestDayAnywhere } from "@/lib/format/dates";
 
 const points = [0, 10, 20, 30].map((p) => ({ pressureMPa: p, forceN: 5000 * p }));
@@ -46,5 +46,55 @@ describe("pickCalibration", () => {
     const reversed = [...list].reverse();
     for (const day of ["2026-11-20", "2026-11-26", "2026-12-11"])
       expect(pickCalibration(reversed, day)?.id).toBe(pickCalibration(list, day)?.id);
+  });
+});
+
+describe("calibrationFromRow", () => {
+  const row: CalibrationRow = {
+    id: "c1",
+    project_id: "p1",
+    equipment_set_id: "s1",
+    calibrated_on: "2026-03-02",
+    valid_until: "2027-03-01",
+    points,
+    slope_n_per_mpa: 5000,
+    intercept_n: -120,
+    r2: 0.9998,
+    min_pressure_mpa: 0,
+    max_pressure_mpa: 30,
+    laboratory: "Site lab",
+    certificate_attachment_id: null,
+    retired_at: null,
+    retired_reason: null,
+    replaced_by: null,
+  };
+
+  it("names every column in the DTO's words", () => {
+    expect(calibrationFromRow(row)).toEqual({
+      id: "c1",
+      projectId: "p1",
+      equipmentSetId: "s1",
+      calibratedOn: "2026-03-02",
+      validUntil: "2027-03-01",
+      points,
+      slope: 5000,
+      intercept: -120,
+      r2: 0.9998,
+      minPressureMPa: 0,
+      maxPressureMPa: 30,
+      laboratory: "Site lab",
+      certificateAttachmentId: null,
+      retiredAt: null,
+      retiredReason: null,
+      replacedBy: null,
+    });
+  });
+
+  it("gives the retirement instant as ISO text whether the row holds a Date or JSON text", () => {
+    const asDate = calibrationFromRow({ ...row, retired_at: new Date("2026-04-01T08:30:00Z"), replaced_by: "c2" });
+    const asText = calibrationFromRow({ ...row, retired_at: "2026-04-01T08:30:00+00:00", replaced_by: "c2" });
+    expect(asDate.retiredAt).toBe("2026-04-01T08:30:00.000Z");
+    expect(asText.retiredAt).toBe("2026-04-01T08:30:00.000Z");
+    expect(pickCalibration([asDate], "2026-05-01")).toBeNull();
   });
 });

@@ -1,4 +1,6 @@
+import type { Selectable } from "kysely";
 import { z } from "zod";
+import type { CalibrationPoint, CalibrationsTable } from "@/db/types";
 import { latestDayAnywhere } from "@/lib/format/dates";
 import { text } from "./text";
 
@@ -69,6 +71,85 @@ export function calibrationState(validUntil: string | null, today: string): Cali
   const left = daysBetween(today, validUntil);
   if (left < 0) return "expired";
   return left <= EXPIRING_WITHIN_DAYS ? "expiring" : "valid";
+}
+
+/**
+ * A calibration as every reader gets it (the tablet's pull, the equipment list, the evaluation,
+ * the pour report, the lift-off check): the one DTO, made from a row by `calibrationFromRow` only.
+ */
+export interface Calibration {
+  id: string;
+  projectId: string;
+  equipmentSetId: string;
+  /** YYYY-MM-DD. */
+  calibratedOn: string;
+  /** YYYY-MM-DD, the last valid day. */
+  validUntil: string;
+  /** The certificate's points, SI. */
+  points: CalibrationPoint[];
+  /** The fitted line: force (N) = slope × pressure (MPa) + intercept, with its r². */
+  slope: number;
+  intercept: number;
+  r2: number;
+  /** The calibrated range of gauge pressure. */
+  minPressureMPa: number;
+  maxPressureMPa: number;
+  laboratory: string | null;
+  certificateAttachmentId: string | null;
+  /** Retired or corrected (an ISO instant): never picked again (`pickCalibration`). */
+  retiredAt: string | null;
+  retiredReason: string | null;
+  /** The calibration that corrects this one. */
+  replacedBy: string | null;
+}
+
+/** The columns `calibrationFromRow` reads: select these (`.select(CALIBRATION_COLUMNS)`). */
+export const CALIBRATION_COLUMNS = [
+  "id",
+  "project_id",
+  "equipment_set_id",
+  "calibrated_on",
+  "valid_until",
+  "points",
+  "slope_n_per_mpa",
+  "intercept_n",
+  "r2",
+  "min_pressure_mpa",
+  "max_pressure_mpa",
+  "laboratory",
+  "certificate_attachment_id",
+  "retired_at",
+  "retired_reason",
+  "replaced_by",
+] as const satisfies readonly (keyof CalibrationsTable)[];
+
+/** A calibrations row as read directly (instants as Date) or out of a JSON aggregate (as text). */
+export type CalibrationRow = Omit<
+  Pick<Selectable<CalibrationsTable>, (typeof CALIBRATION_COLUMNS)[number]>,
+  "retired_at"
+> & {
+  retired_at: Date | string | null;
+};
+
+export function calibrationFromRow(row: CalibrationRow): Calibration {
+  return {
+    id: row.id,
+    projectId: row.project_id,
+    equipmentSetId: row.equipment_set_id,
+    calibratedOn: row.calibrated_on,
+    validUntil: row.valid_until,
+    points: row.points,
+    slope: row.slope_n_per_mpa,
+    intercept: row.intercept_n,
+    r2: row.r2,
+    minPressureMPa: row.min_pressure_mpa,
+    maxPressureMPa: row.max_pressure_mpa,
+    laboratory: row.laboratory,
+    certificateAttachmentId: row.certificate_attachment_id,
+    retiredAt: row.retired_at ? new Date(row.retired_at).toISOString() : null,
+    retiredReason: row.retired_reason,
+    replacedBy: row.replaced_by,
+  };
 }
 
 // Kept in a module without zod, so the tablet's tendon list can pick a calibration without loading zod.

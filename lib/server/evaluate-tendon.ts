@@ -28,6 +28,7 @@ import { answeredOrder } from "@/lib/stressing/rules/stressed-twice";
 import { showLength, showPct, showWobble } from "@/lib/format/quantities";
 import { governsLine } from "@/lib/stressing/display";
 import { storedGaugeOffTarget, storedGaugeSteps, storedWireBreaks } from "@/lib/schemas/record";
+import { CALIBRATION_COLUMNS, calibrationFromRow, type CalibrationRow } from "@/lib/schemas/calibration";
 import { selectTendonBasis, toLoadedTendon, type LoadedTendon } from "./load-tendon-basis";
 
 /**
@@ -188,15 +189,7 @@ export function selectTendonState(
           "equipment_sets.jack_grip_mm",
           "equipment_sets.max_force_n",
           "equipment_sets.draw_in_mm",
-          "calibrations.id",
-          "calibrations.calibrated_on",
-          "calibrations.valid_until",
-          "calibrations.slope_n_per_mpa",
-          "calibrations.intercept_n",
-          "calibrations.min_pressure_mpa",
-          "calibrations.max_pressure_mpa",
-          "calibrations.retired_at",
-          "calibrations.replaced_by",
+          ...CALIBRATION_COLUMNS.map((c) => `calibrations.${c}` as const),
         ])
         .where("equipment_sets.project_id", "=", projectId)
         .where((w) =>
@@ -374,18 +367,8 @@ export function judgeInputFromState(state: TendonState): JudgeInput {
       drawInMm: row.draw_in_mm,
       calibrations: [],
     };
-    if (row.id !== null && row.calibrated_on && row.valid_until)
-      set.calibrations.push({
-        id: row.id,
-        calibratedOn: row.calibrated_on,
-        validUntil: row.valid_until,
-        slope: row.slope_n_per_mpa!,
-        intercept: row.intercept_n!,
-        minPressureMPa: row.min_pressure_mpa!,
-        maxPressureMPa: row.max_pressure_mpa!,
-        retiredAt: row.retired_at,
-        replacedBy: row.replaced_by,
-      });
+    // The left join: a row with a calibration id carries the whole calibration.
+    if (row.id !== null) set.calibrations.push(calibrationFromRow(row as CalibrationRow));
     sets.set(row.setId, set);
   }
   const records: JudgeRecord[] = state.records.map((r) => ({

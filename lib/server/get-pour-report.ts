@@ -6,6 +6,7 @@ import type { Kysely, Selectable } from "kysely";
 import type { Database, Decision, FlagKind, FlagStatus, ReviewKind } from "@/db/types";
 import { ENGINE_VERSION } from "@/lib/elongation";
 import { AppError } from "@/lib/errors";
+import { CALIBRATION_COLUMNS, calibrationFromRow, type Calibration } from "@/lib/schemas/calibration";
 import type { StoredResolution } from "@/lib/format/quantities";
 import { findFlagTrail } from "./find-flag-trail";
 import { findStandingRelease } from "./find-standing-release";
@@ -107,14 +108,7 @@ export interface PourReport {
     jackSerial: string;
     gaugeSerial: string;
     pumpSerial: string | null;
-    calibrations: {
-      calibratedOn: string;
-      validUntil: string;
-      slope: number;
-      intercept: number;
-      r2: number;
-      laboratory: string | null;
-    }[];
+    calibrations: Pick<Calibration, "calibratedOn" | "validUntil" | "slope" | "intercept" | "r2" | "laboratory">[];
   }[];
   strandLots: { lotNumber: string; strandSize: string; areaMm2: number; modulusMPa: number; breakingLoadN: number }[];
   tendons: TendonResult[];
@@ -240,15 +234,7 @@ export async function getPourReport(
     setIds.length
       ? db
           .selectFrom("calibrations")
-          .select([
-            "equipment_set_id",
-            "calibrated_on",
-            "valid_until",
-            "slope_n_per_mpa",
-            "intercept_n",
-            "r2",
-            "laboratory",
-          ])
+          .select(CALIBRATION_COLUMNS)
           .where("project_id", "=", input.projectId)
           .where("equipment_set_id", "in", setIds)
           .orderBy("calibrated_on")
@@ -316,14 +302,15 @@ export async function getPourReport(
       gaugeSerial: s.gauge_serial,
       pumpSerial: s.pump_serial,
       calibrations: calibrations
-        .filter((c) => c.equipment_set_id === s.id)
-        .map((c) => ({
-          calibratedOn: asDay(c.calibrated_on),
-          validUntil: asDay(c.valid_until),
-          slope: c.slope_n_per_mpa,
-          intercept: c.intercept_n,
-          r2: c.r2,
-          laboratory: c.laboratory,
+        .map(calibrationFromRow)
+        .filter((c) => c.equipmentSetId === s.id)
+        .map(({ calibratedOn, validUntil, slope, intercept, r2, laboratory }) => ({
+          calibratedOn,
+          validUntil,
+          slope,
+          intercept,
+          r2,
+          laboratory,
         })),
     })),
     strandLots: lots.map((l) => ({

@@ -1,26 +1,18 @@
 import "server-only";
 import type { Db } from "@/db/connect";
-import type { CalibrationPoint } from "@/db/types";
-import { calibrationState, pickCalibration, type CalibrationState } from "@/lib/schemas/calibration";
+import {
+  CALIBRATION_COLUMNS,
+  calibrationFromRow,
+  calibrationState,
+  pickCalibration,
+  type Calibration,
+  type CalibrationState,
+} from "@/lib/schemas/calibration";
 import { dayInZone } from "@/lib/format/dates";
 import { getProjectTimeZone } from "./get-project-time-zone";
 
-export interface CalibrationView {
-  id: string;
-  calibratedOn: string;
-  validUntil: string;
-  points: CalibrationPoint[];
-  slope: number;
-  intercept: number;
-  r2: number;
-  minPressureMPa: number;
-  maxPressureMPa: number;
-  laboratory: string | null;
-  certificateAttachmentId: string | null;
-  /** Retired (or corrected): never picked again. */
-  retiredAt: string | null;
-  retiredReason: string | null;
-}
+/** A calibration on the equipment screen: the one calibration DTO. */
+export type CalibrationView = Calibration;
 
 export interface EquipmentSetView {
   id: string;
@@ -55,45 +47,14 @@ export async function listEquipmentSets(db: Db, projectId: string, day?: string)
       .execute(),
     db
       .selectFrom("calibrations")
-      .select([
-        "id",
-        "equipment_set_id",
-        "calibrated_on",
-        "valid_until",
-        "points",
-        "slope_n_per_mpa",
-        "intercept_n",
-        "r2",
-        "min_pressure_mpa",
-        "max_pressure_mpa",
-        "laboratory",
-        "certificate_attachment_id",
-        "retired_at",
-        "retired_reason",
-      ])
+      .select(CALIBRATION_COLUMNS)
       .where("project_id", "=", projectId)
       .orderBy("calibrated_on", "desc")
       .orderBy("created_at", "desc")
       .execute(),
   ]);
   return sets.map((s) => {
-    const history: CalibrationView[] = calibrations
-      .filter((c) => c.equipment_set_id === s.id)
-      .map((c) => ({
-        id: c.id,
-        calibratedOn: c.calibrated_on,
-        validUntil: c.valid_until,
-        points: c.points,
-        slope: c.slope_n_per_mpa,
-        intercept: c.intercept_n,
-        r2: c.r2,
-        minPressureMPa: c.min_pressure_mpa,
-        maxPressureMPa: c.max_pressure_mpa,
-        laboratory: c.laboratory,
-        certificateAttachmentId: c.certificate_attachment_id,
-        retiredAt: c.retired_at ? new Date(c.retired_at).toISOString() : null,
-        retiredReason: c.retired_reason,
-      }));
+    const history: CalibrationView[] = calibrations.filter((c) => c.equipment_set_id === s.id).map(calibrationFromRow);
     const current = pickCalibration(history, today);
     return {
       id: s.id,

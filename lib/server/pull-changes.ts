@@ -5,6 +5,7 @@ import { jsonArrayFrom } from "kysely/helpers/postgres";
 import type { Database } from "@/db/types";
 import type { SessionUser } from "@/lib/auth/session";
 import type { PullResponse } from "@/lib/schemas/sync";
+import { CALIBRATION_COLUMNS, calibrationFromRow } from "@/lib/schemas/calibration";
 import { storedWireBreaks } from "@/lib/schemas/record";
 import { recordingProjectIds } from "./require-recorder";
 
@@ -227,19 +228,7 @@ export async function pullChanges(
             .execute(),
           trx
             .selectFrom("calibrations")
-            .select([
-              "id",
-              "project_id",
-              "equipment_set_id",
-              "calibrated_on",
-              "valid_until",
-              "slope_n_per_mpa",
-              "intercept_n",
-              "min_pressure_mpa",
-              "max_pressure_mpa",
-              "retired_at",
-              "replaced_by",
-            ])
+            .select(CALIBRATION_COLUMNS)
             .where("project_id", "in", projectIds)
             .where(since("change_xid", cursor))
             .execute(),
@@ -433,19 +422,7 @@ export async function pullChanges(
           maxForceN: s.max_force_n,
           drawInMm: s.draw_in_mm,
         })),
-        calibrations: calibrations.map((c) => ({
-          id: c.id,
-          projectId: c.project_id,
-          equipmentSetId: c.equipment_set_id,
-          calibratedOn: c.calibrated_on,
-          validUntil: c.valid_until,
-          slope: c.slope_n_per_mpa,
-          intercept: c.intercept_n,
-          minPressureMPa: c.min_pressure_mpa,
-          maxPressureMPa: c.max_pressure_mpa,
-          retiredAt: c.retired_at ? new Date(c.retired_at).toISOString() : null,
-          replacedBy: c.replaced_by,
-        })),
+        calibrations: calibrations.map(calibrationFromRow),
         records: records.map((r) => ({
           id: r.id,
           projectId: r.project_id,

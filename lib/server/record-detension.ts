@@ -1,15 +1,14 @@
 import "server-only";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
-import { can } from "@/lib/auth/permissions";
 import { detensionPayloadSchema } from "@/lib/schemas/detension";
 import { DECISION_LABELS } from "@/lib/schemas/review";
 import type { OpResult, SyncOp } from "@/lib/schemas/sync";
-import { zodFields } from "@/lib/schemas/zod-fields";
 import { isInputError, parsePressure } from "@/lib/units";
 import { claimOp, duplicateOf, rejectedOp } from "./applied-ops";
+import { admitEventOp, type OpSender } from "./admit-event-op";
 import { inTransaction } from "./in-transaction";
-import { auditInsert, recordAudit } from "./record-audit";
+import { auditInsert } from "./record-audit";
 import { isReleasedPourRefusal, RELEASED_POUR_MESSAGE } from "./require-open-pour";
 
 /**
@@ -28,10 +27,7 @@ import { isReleasedPourRefusal, RELEASED_POUR_MESSAGE } from "./require-open-pou
 
 type Db = Kysely<Database>;
 
-export interface Detensioner {
-  id: string;
-  memberships: { projectId: string; role: Parameters<typeof can>[0] }[];
-}
+export type Detensioner = OpSender;
 
 /** How far ahead of the server's clock a tablet's time may be before it is refused as in the future. */
 const FUTURE_SLACK_MS = 10 * 60 * 1000;
@@ -45,41 +41,14 @@ export async function recordDetension(
   op: SyncOp,
 ): Promise<OpResult> {
   const { user, deviceId } = input;
-  const parsed = detensionPayloadSchema.safeParse(op.payload);
-  if (!parsed.success) {
-    const fields = zodFields(parsed.error);
-    return rejectedOp(op, "INVALID_INPUT", `Check the detension: ${Object.keys(fields).join(", ")}.`, fields);
-  }
-  const p = parsed.data;
-  if (op.baseVersion !== undefined)
-    return rejectedOp(op, "INVALID_INPUT", "A detension is never a correction: send it without a base version.", {
-      baseVersion: ["Not allowed on a detension."],
-    });
-  const membership = user.memberships.find((m) => m.projectId === p.projectId);
-  if (!membership || !can(membership.role, "record.create")) {
-    const result = membership
-      ? rejectedOp(
-          op,
-          "FORBIDDEN",
-          `Your role on this project (${membership.role}) does not allow recording a detension.`,
-        )
-      : rejectedOp(op, "NOT_FOUND", "No such project among yours.");
-    await recordAudit(db, {
-      action: "detension.record",
-      outcome: "denied",
-      actorUserId: user.id,
-      target: op.recordId,
-      detail: { opId: op.opId, reason: result.error!.message },
-    });
-    return result;
-  }
-  if (p.authorUserId !== user.id)
-    return rejectedOp(
-      op,
-      "FORBIDDEN",
-      "This detension was recorded by another person on this tablet; it is sent when they sign in.",
-      { authorUserId: ["Not the signed-in person."] },
-    );
+  const admitted = await admitEventOp(db, user, op, {
+    schema: detensionPayloadSchema,
+    noun: "detension",
+    recording: "a detension",
+    auditAction: "detension.record",
+  });
+  if (!admitted.ok) return admitted.result;
+  const p = admitted.payload;
   const now = input.now ?? new Date();
   if (new Date(p.detensionedAt).getTime() > now.getTime() + FUTURE_SLACK_MS)
     return refused(op, "detensionedAt", "The time of the detension lies in the future: check the tablet's clock.");

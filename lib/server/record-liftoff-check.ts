@@ -3,15 +3,13 @@ import { claimOp, duplicateOf, rejectedOp } from "./applied-ops";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { env } from "@/lib/env";
-import { can } from "@/lib/auth/permissions";
 import { dayInZone } from "@/lib/format/dates";
 import { reference } from "@/lib/format/references";
 import { showPressure, showWobble } from "@/lib/format/quantities";
 import { flagMail } from "@/lib/mail/templates";
-import { pickCalibration } from "@/lib/schemas/calibration";
+import { CALIBRATION_COLUMNS, calibrationFromRow, pickCalibration } from "@/lib/schemas/calibration";
 import { liftoffPayloadSchema } from "@/lib/schemas/liftoff";
 import type { FieldLiftoffResult, OpResult, SyncOp } from "@/lib/schemas/sync";
-import { zodFields } from "@/lib/schemas/zod-fields";
 import { flagRecipientsNow } from "@/lib/stressing/flag-mail";
 import { predictTendon } from "@/lib/stressing/basis";
 import {
@@ -22,9 +20,10 @@ import {
   liftoffPressureProblem,
 } from "@/lib/stressing/liftoff";
 import { isInputError, parsePressure } from "@/lib/units";
+import { admitEventOp, type OpSender } from "./admit-event-op";
 import { inTransaction } from "./in-transaction";
 import { selectTendonBasis, toLoadedTendon } from "./load-tendon-basis";
-import { auditInsert, recordAudit } from "./record-audit";
+import { auditInsert } from "./record-audit";
 
 /**
  * Records a lift-off check from the tablet's outbox (op kind liftoff_check), exactly once: the
@@ -46,10 +45,7 @@ import { auditInsert, recordAudit } from "./record-audit";
 
 type Db = Kysely<Database>;
 
-export interface LiftoffChecker {
-  id: string;
-  memberships: { projectId: string; role: Parameters<typeof can>[0] }[];
-}
+export type LiftoffChecker = OpSender;
 
 const refused = (op: SyncOp, field: string, message: string): OpResult =>
   rejectedOp(op, "INVALID_INPUT", message, { [field]: [message] });
@@ -64,41 +60,14 @@ export async function recordLiftoffCheck(
   op: SyncOp,
 ): Promise<OpResult> {
   const { user, deviceId } = input;
-  const parsed = liftoffPayloadSchema.safeParse(op.payload);
-  if (!parsed.success) {
-    const fields = zodFields(parsed.error);
-    return rejectedOp(op, "INVALID_INPUT", `Check the lift-off check: ${Object.keys(fields).join(", ")}.`, fields);
-  }
-  const p = parsed.data;
-  if (op.baseVersion !== undefined)
-    return rejectedOp(op, "INVALID_INPUT", "A lift-off check is never a correction: send it without a base version.", {
-      baseVersion: ["Not allowed on a lift-off check."],
-    });
-  const membership = user.memberships.find((m) => m.projectId === p.projectId);
-  if (!membership || !can(membership.role, "record.create")) {
-    const result = membership
-      ? rejectedOp(
-          op,
-          "FORBIDDEN",
-          `Your role on this project (${membership.role}) does not allow recording a lift-off check.`,
-        )
-      : rejectedOp(op, "NOT_FOUND", "No such project among yours.");
-    await recordAudit(db, {
-      action: "liftoff.check",
-      outcome: "denied",
-      actorUserId: user.id,
-      target: op.recordId,
-      detail: { opId: op.opId, reason: result.error!.message },
-    });
-    return result;
-  }
-  if (p.authorUserId !== user.id)
-    return rejectedOp(
-      op,
-      "FORBIDDEN",
-      "This lift-off check was recorded by another person on this tablet; it is sent when they sign in.",
-      { authorUserId: ["Not the signed-in person."] },
-    );
+  const admitted = await admitEventOp(db, user, op, {
+    schema: liftoffPayloadSchema,
+    noun: "lift-off check",
+    recording: "a lift-off check",
+    auditAction: "liftoff.check",
+  });
+  if (!admitted.ok) return admitted.result;
+  const p = admitted.payload;
   let pressureMPa: number;
   try {
     pressureMPa = parsePressure(p.pressure, { field: "pressure", system: "SI", defaultUnit: p.pressureUnit });
@@ -138,16 +107,7 @@ export async function recordLiftoffCheck(
         .executeTakeFirst(),
       trx
         .selectFrom("calibrations")
-        .select([
-          "id",
-          "calibrated_on",
-          "valid_until",
-          "retired_at",
-          "slope_n_per_mpa",
-          "intercept_n",
-          "min_pressure_mpa",
-          "max_pressure_mpa",
-        ])
+        .select(CALIBRATION_COLUMNS)
         .where("project_id", "=", p.projectId)
         .where("equipment_set_id", "=", p.equipmentSetId)
         .execute(),
@@ -175,28 +135,21 @@ export async function recordLiftoffCheck(
     }
 
     const day = dayInZone(p.checkedAt, basis.project.timeZone ?? "UTC");
-    const picked = pickCalibration(
-      calibrations.map((c) => ({ ...c, calibratedOn: c.calibrated_on, retiredAt: c.retired_at })),
-      day,
-    );
+    const picked = pickCalibration(calibrations.map(calibrationFromRow), day);
     if (!picked)
       return refused(
         op,
         "equipmentSetId",
         `${set.name} had no calibration in force on ${day}: the force cannot be known.`,
       );
-    if (day > picked.valid_until)
+    if (day > picked.validUntil)
       return refused(
         op,
         "equipmentSetId",
-        `The calibration of ${set.name} expired on ${picked.valid_until}, before this check (${day}): use a calibrated set.`,
+        `The calibration of ${set.name} expired on ${picked.validUntil}, before this check (${day}): use a calibrated set.`,
       );
-    const line = {
-      slope: picked.slope_n_per_mpa,
-      intercept: picked.intercept_n,
-      minPressureMPa: picked.min_pressure_mpa,
-      maxPressureMPa: picked.max_pressure_mpa,
-    };
+    const { slope, intercept, minPressureMPa, maxPressureMPa } = picked;
+    const line = { slope, intercept, minPressureMPa, maxPressureMPa };
     const pressureProblem = liftoffPressureProblem(basis.project, line, pressureMPa);
     if (pressureProblem) return refused(op, pressureProblem.field, pressureProblem.message);
 
@@ -243,7 +196,7 @@ export async function recordLiftoffCheck(
     if (!judged.withinBand) {
       const reason =
         `Lift-off check at end ${p.tendonEnd} of ${basis.tendon.tag} by ${person.name}: gauge ${readAs} ` +
-        `(${showPressure(basis.project, pressureMPa)}) on ${set.name}, calibration of ${picked.calibrated_on}. ${line_}`;
+        `(${showPressure(basis.project, pressureMPa)}) on ${set.name}, calibration of ${picked.calibratedOn}. ${line_}`;
       const flag = await trx
         .insertInto("flags")
         .values({

@@ -2,15 +2,14 @@ import "server-only";
 import { claimOp, duplicateOf, rejectedOp } from "./applied-ops";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
-import { can } from "@/lib/auth/permissions";
-import { zodFields } from "@/lib/schemas/zod-fields";
 import type { OpResult, SyncOp } from "@/lib/schemas/sync";
 import { tailCutPayloadSchema } from "@/lib/schemas/tail-cut";
 import { awaitingRestress, tailClearance } from "@/lib/stressing/tail-clearance";
 import { formatDateTime } from "@/lib/format/dates";
 import { getProjectTimeZone } from "./get-project-time-zone";
+import { admitEventOp, type OpSender } from "./admit-event-op";
 import { inTransaction } from "./in-transaction";
-import { auditInsert, recordAudit } from "./record-audit";
+import { auditInsert } from "./record-audit";
 
 /**
  * Records "tails cut" on a tendon from the tablet's outbox (op kind tails_cut), exactly once:
@@ -26,10 +25,7 @@ import { auditInsert, recordAudit } from "./record-audit";
 
 type Db = Kysely<Database>;
 
-export interface TailCutter {
-  id: string;
-  memberships: { projectId: string; role: Parameters<typeof can>[0] }[];
-}
+export type TailCutter = OpSender;
 
 interface StoredResult {
   tailCut?: { held: boolean; reasons: string[] };
@@ -41,43 +37,14 @@ export async function recordTailCut(
   op: SyncOp,
 ): Promise<OpResult> {
   const { user, deviceId } = input;
-  const parsed = tailCutPayloadSchema.safeParse(op.payload);
-  if (!parsed.success) {
-    const fields = zodFields(parsed.error);
-    return rejectedOp(op, "INVALID_INPUT", `Check the tails cut: ${Object.keys(fields).join(", ")}.`, fields);
-  }
-  const p = parsed.data;
-  if (op.baseVersion !== undefined)
-    return rejectedOp(op, "INVALID_INPUT", "A tails cut is never a correction: send it without a base version.", {
-      baseVersion: ["Not allowed on a tails cut."],
-    });
-  const membership = user.memberships.find((m) => m.projectId === p.projectId);
-  if (!membership || !can(membership.role, "record.create")) {
-    const result = membership
-      ? rejectedOp(
-          op,
-          "FORBIDDEN",
-          `Your role on this project (${membership.role}) does not allow recording tails cut.`,
-        )
-      : rejectedOp(op, "NOT_FOUND", "No such project among yours.");
-    await recordAudit(db, {
-      action: "tails.cut",
-      outcome: "denied",
-      actorUserId: user.id,
-      target: op.recordId,
-      detail: { opId: op.opId, reason: result.error!.message },
-    });
-    return result;
-  }
-  if (p.authorUserId !== user.id)
-    return rejectedOp(
-      op,
-      "FORBIDDEN",
-      "This tails cut was recorded by another person on this tablet; it is sent when they sign in.",
-      {
-        authorUserId: ["Not the signed-in person."],
-      },
-    );
+  const admitted = await admitEventOp(db, user, op, {
+    schema: tailCutPayloadSchema,
+    noun: "tails cut",
+    recording: "tails cut",
+    auditAction: "tails.cut",
+  });
+  if (!admitted.ok) return admitted.result;
+  const p = admitted.payload;
 
   return inTransaction(db, async (trx) => {
     const claim = await trx

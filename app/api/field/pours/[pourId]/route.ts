@@ -2,6 +2,7 @@ import { db } from "@/db";
 import { authorize } from "@/lib/auth/authorize";
 import { route } from "@/lib/http/route";
 import { pourParamsSchema } from "@/lib/schemas/sync";
+import { pullResponseSchema } from "@/lib/schemas/sync-response";
 import { projectOfPour } from "@/lib/server/list-field-pours";
 import { pullChanges } from "@/lib/server/pull-changes";
 
@@ -10,6 +11,7 @@ export const GET = route(
   {
     params: pourParamsSchema,
     access: async ({ params }) => authorize("record.create", await projectOfPour(db, params.pourId)),
+    response: pullResponseSchema,
   },
   async ({ params, access }) => pullChanges(db, { user: access.user, cursor: "0", pourIds: [params.pourId] }),
 );

@@ -5,6 +5,7 @@ import { UPLOAD_PERMISSION } from "@/lib/auth/permissions";
 import { route } from "@/lib/http/route";
 import { projectParamsSchema } from "@/lib/schemas/member";
 import { presignUploadSchema } from "@/lib/schemas/upload";
+import { presignUploadResponseSchema } from "@/lib/schemas/upload-response";
 import { presignUpload } from "@/lib/storage";
 
 /** Starts an upload: a pending attachment row and a presigned PUT for the browser. */
@@ -17,6 +18,9 @@ export const POST = route(
   async ({ params, body, access }) => {
     await authorize(UPLOAD_PERMISSION[body.purpose], params.projectId);
     const result = await presignUpload(db, { projectId: params.projectId, uploadedBy: access.user.id, ...body });
-    return NextResponse.json(result, { status: 201, headers: { "Cache-Control": "no-store" } });
+    return NextResponse.json(presignUploadResponseSchema.parse(result), {
+      status: 201,
+      headers: { "Cache-Control": "no-store" },
+    });
   },
 );

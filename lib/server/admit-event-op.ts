@@ -1,0 +1,85 @@
+import "server-only";
+import type { Kysely } from "kysely";
+import type { z } from "zod";
+import type { Database } from "@/db/types";
+import { can } from "@/lib/auth/permissions";
+import type { OpResult, SyncOp } from "@/lib/schemas/sync";
+import { zodFields } from "@/lib/schemas/zod-fields";
+import { rejectedOp } from "./applied-ops";
+import { recordAudit } from "./record-audit";
+
+/**
+ * What the crew's event ops (a tails cut, a lift-off check, a detension) check before anything is
+ * read: the payload against its schema, no base version (an event is never a correction), the
+ * sender a member of the payload's project whose role may record (else NOT_FOUND or FORBIDDEN,
+ * audited as a denial), and the payload's author the signed-in person (a tablet shared by a crew
+ * sends each person's ops under their own sign-in). Nothing is written when it refuses.
+ */
+
+export interface OpSender {
+  id: string;
+  memberships: { projectId: string; role: Parameters<typeof can>[0] }[];
+}
+
+export interface EventOpKind<S extends z.ZodType<{ projectId: string; authorUserId: string }>> {
+  schema: S;
+  /** The op in words, after an article: "detension", "lift-off check", "tails cut". */
+  noun: string;
+  /** What the role must allow, in words: "a detension", "tails cut". */
+  recording: string;
+  /** The audit action of a denial. */
+  auditAction: string;
+}
+
+export type Admission<T> = { ok: true; payload: T } | { ok: false; result: OpResult };
+
+export async function admitEventOp<S extends z.ZodType<{ projectId: string; authorUserId: string }>>(
+  db: Kysely<Database>,
+  user: OpSender,
+  op: SyncOp,
+  kind: EventOpKind<S>,
+): Promise<Admission<z.infer<S>>> {
+  const refuse = (result: OpResult) => ({ ok: false as const, result });
+  const parsed = kind.schema.safeParse(op.payload);
+  if (!parsed.success) {
+    const fields = zodFields(parsed.error);
+    return refuse(
+      rejectedOp(op, "INVALID_INPUT", `Check the ${kind.noun}: ${Object.keys(fields).join(", ")}.`, fields),
+    );
+  }
+  const payload = parsed.data;
+  if (op.baseVersion !== undefined)
+    return refuse(
+      rejectedOp(op, "INVALID_INPUT", `A ${kind.noun} is never a correction: send it without a base version.`, {
+        baseVersion: [`Not allowed on a ${kind.noun}.`],
+      }),
+    );
+  const membership = user.memberships.find((m) => m.projectId === payload.projectId);
+  if (!membership || !can(membership.role, "record.create")) {
+    const result = membership
+      ? rejectedOp(
+          op,
+          "FORBIDDEN",
+          `Your role on this project (${membership.role}) does not allow recording ${kind.recording}.`,
+        )
+      : rejectedOp(op, "NOT_FOUND", "No such project among yours.");
+    await recordAudit(db, {
+      action: kind.auditAction,
+      outcome: "denied",
+      actorUserId: user.id,
+      target: op.recordId,
+      detail: { opId: op.opId, reason: result.error!.message },
+    });
+    return refuse(result);
+  }
+  if (payload.authorUserId !== user.id)
+    return refuse(
+      rejectedOp(
+        op,
+        "FORBIDDEN",
+        `This ${kind.noun} was recorded by another person on this tablet; it is sent when they sign in.`,
+        { authorUserId: ["Not the signed-in person."] },
+      ),
+    );
+  return { ok: true, payload };
+}
