@@ -1,3 +1,4 @@
+import type { StoredResolution } from "@/lib/schemas/domain";
 import {
   DEFAULT_UNITS,
   formatForce,
@@ -21,7 +22,7 @@ import {
  * strengths as mill certificates and drawings print them. Pure: no React, no database.
  */
 
-export type StoredResolution = "1/8in" | "1/16in" | "1mm";
+export type { StoredResolution };
 
 export interface DisplayUnits {
   unitSystem: "us" | "si";

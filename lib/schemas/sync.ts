@@ -1,5 +1,6 @@
 import { z } from "zod";
 import type { OpErrorCode } from "@/lib/errors";
+import type { Decision } from "./domain";
 
 /**
  * The sync protocol between the tablet's outbox and the server, shared by the sync client and
@@ -263,7 +264,7 @@ export interface FieldEvaluation {
 export interface FieldDisposition {
   /** Absent from servers that predate lift-off checks. */
   id?: string;
-  decision: "accept" | "restress" | "detension_restress" | "liftoff_check" | "replace" | "other";
+  decision: Decision;
   reasons: string;
   engineerName: string;
   createdAt: string;

@@ -2,18 +2,8 @@ import "server-only";
 import { randomUUID } from "node:crypto";
 import { sql, type Compilable, type Insertable, type Kysely, type QueryCreator, type RawBuilder } from "kysely";
 import { jsonArrayFrom } from "kysely/helpers/postgres";
-import type {
-  Database,
-  Decision,
-  EvaluationsTable,
-  FlagKind,
-  FlagsTable,
-  NotificationsTable,
-  ReadingMethod,
-  StressingOrder,
-  TendonEnd,
-  Verdict,
-} from "@/db/types";
+import type { Database, EvaluationsTable, FlagsTable, NotificationsTable } from "@/db/types";
+import type { Decision, FlagKind, ReadingMethod, StressingOrder, TendonEnd, Verdict } from "@/lib/schemas/domain";
 import { AppError } from "@/lib/errors";
 import { ENGINE_VERSION, findStrandSize } from "@/lib/elongation";
 import { env } from "@/lib/env";

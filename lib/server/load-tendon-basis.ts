@@ -1,6 +1,7 @@
 import "server-only";
 import { sql, type Kysely, type QueryCreator } from "kysely";
-import type { Database, TendonKind } from "@/db/types";
+import type { Database } from "@/db/types";
+import type { TendonKind } from "@/lib/schemas/domain";
 import { AppError } from "@/lib/errors";
 import { projectBasisFromRow, type LotBasis, type ProjectBasis, type TendonBasis } from "@/lib/stressing/basis";
 import type { DisplayUnits, StoredResolution } from "@/lib/format/quantities";

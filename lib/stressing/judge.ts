@@ -13,6 +13,7 @@ import {
   type Verdict,
 } from "@/lib/elongation";
 import { dayInZone } from "@/lib/format/dates";
+import type { ComparisonBasis, GoverningValue, ReadingMethod, StressingOrder } from "@/lib/schemas/domain";
 import { pickCalibration } from "@/lib/schemas/pick-calibration";
 import type { GaugeOffTarget, GaugeStepSI, WireBreak } from "@/lib/schemas/record";
 import { resolutionStepMm } from "@/lib/units";
@@ -35,9 +36,7 @@ import { readingResolution, type DisplayUnits } from "@/lib/format/quantities";
  * share meets where the two friction paths give equal force.
  */
 
-export type ReadingMethod = "marks" | "strokes";
-export type ComparisonBasis = "net" | "gross";
-export type StressingOrder = "sequential" | "simultaneous";
+export type { ComparisonBasis, GoverningValue, ReadingMethod, StressingOrder };
 
 /** Defaults of the settings this module added; a project row may not carry them yet. */
 export const JUDGING_DEFAULTS = {
@@ -50,9 +49,6 @@ export const JUDGING_DEFAULTS = {
   seatingExcessMm: 3.175,
   governing: "tautline" as GoverningValue,
 } as const;
-
-/** Which prediction a verdict is judged against: Tautline's, or the approved shop drawing's. */
-export type GoverningValue = "tautline" | "shop_drawing";
 
 export interface JudgeProject extends ProjectBasis, DisplayUnits {
   timeZone?: string;
