@@ -115,7 +115,7 @@ export const pullQuerySchema = z.object({
 });
 export type PullQuery = z.infer<typeof pullQuerySchema>;
 
-export const pourParamsSchema = z.object({ pourId: z.uuid({ error: "Not a pour id." }) });
+export const fieldPourParamsSchema = z.object({ pourId: z.uuid({ error: "Not a pour id." }) });
 
 // ---------------------------------------------------------------------------------------------
 // What the tablet stores: reference data and record states, as the server sends them.

@@ -412,7 +412,7 @@ export function judgeInputFromState(state: TendonState): JudgeInput {
     project,
     tendon,
     lot,
-    pour: { concreteStrengthMpa: pour.concreteStrengthMpa, concreteFlagOpen: state.pourConcreteFlagOpen ?? false },
+    pour: { concreteStrengthMPa: pour.concreteStrengthMPa, concreteFlagOpen: state.pourConcreteFlagOpen ?? false },
     sets: [...sets.values()],
     records,
     dispositions: state.dispositions.map((d) => ({
@@ -556,7 +556,7 @@ export function planEvaluation(
       governs: judgement.governs,
       pour: {
         id: pour.id,
-        concreteStrengthMpa: pour.concreteStrengthMpa,
+        concreteStrengthMPa: pour.concreteStrengthMPa,
         concreteFlagOpen: state.pourConcreteFlagOpen ?? false,
       },
       readings,

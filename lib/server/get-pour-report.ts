@@ -88,7 +88,7 @@ export interface PourReport {
     frictionMu: number;
     wobblePerM: number;
     anchorSetMm: number;
-    requiredConcreteMpa: number | null;
+    requiredConcreteMPa: number | null;
   };
   pour: {
     id: string;
@@ -96,7 +96,7 @@ export interface PourReport {
     level: string | null;
     status: string;
     plannedStressingDate: string | null;
-    concreteStrengthMpa: number | null;
+    concreteStrengthMPa: number | null;
     concreteConfirmedBy: string | null;
     concreteConfirmedAt: Date | null;
   };
@@ -296,7 +296,7 @@ export async function getPourReport(
     basis: {
       ...projectBasisFromRow(project),
       groupTolerancePct: project.group_tolerance_pct,
-      requiredConcreteMpa: project.required_concrete_mpa,
+      requiredConcreteMPa: project.required_concrete_mpa,
     },
     pour: {
       id: pour.id,
@@ -304,7 +304,7 @@ export async function getPourReport(
       level: pour.level,
       status: pour.status,
       plannedStressingDate: pour.planned_stressing_date ? asDay(pour.planned_stressing_date) : null,
-      concreteStrengthMpa: pour.concrete_strength_mpa,
+      concreteStrengthMPa: pour.concrete_strength_mpa,
       concreteConfirmedBy: pour.concreteConfirmedBy,
       concreteConfirmedAt: pour.concrete_confirmed_at ? new Date(pour.concrete_confirmed_at) : null,
     },

@@ -11,14 +11,14 @@ export interface LoadedTendon {
     DisplayUnits & {
       id: string;
       name: string;
-      requiredConcreteMpa: number | null;
+      requiredConcreteMPa: number | null;
       engineerOfRecordName: string | null;
       engineerOfRecordEmail: string | null;
       notifyEmails: string[];
       /** Members of the project who take flag e-mails as a digest per shift. */
       digestEmails?: string[];
     };
-  pour: { id: string; name: string; concreteStrengthMpa: number | null; status: string };
+  pour: { id: string; name: string; concreteStrengthMPa: number | null; status: string };
   tendon: TendonBasis & {
     id: string;
     tag: string;
@@ -124,7 +124,7 @@ export function toLoadedTendon(row: BasisRow): LoadedTendon {
       unitSystem: row.unit_system,
       readingResolution: row.reading_resolution as StoredResolution,
       ...projectBasisFromRow(row),
-      requiredConcreteMpa: row.required_concrete_mpa,
+      requiredConcreteMPa: row.required_concrete_mpa,
       engineerOfRecordName: row.engineer_of_record_name,
       engineerOfRecordEmail: row.engineer_of_record_email,
       notifyEmails: row.notify_emails,
@@ -133,7 +133,7 @@ export function toLoadedTendon(row: BasisRow): LoadedTendon {
     pour: {
       id: row.pourId,
       name: row.pourName,
-      concreteStrengthMpa: row.concrete_strength_mpa,
+      concreteStrengthMPa: row.concrete_strength_mpa,
       status: row.pourStatus,
     },
     tendon: {

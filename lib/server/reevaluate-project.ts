@@ -60,7 +60,7 @@ export async function reevaluateTendons(
  */
 export async function previewBasisChange(
   db: Kysely<Database>,
-  input: { projectId: string; basis: Partial<ProjectBasis> & { requiredConcreteMpa?: number | null } },
+  input: { projectId: string; basis: Partial<ProjectBasis> & { requiredConcreteMPa?: number | null } },
 ): Promise<{ stressed: number; verdictsChanging: number; tags: string[] }> {
   const ids = await stressedTendonIds(db, input.projectId);
   const tags: string[] = [];

@@ -57,7 +57,7 @@ export interface JudgeProject extends ProjectBasis, DisplayUnits {
   jackingForceFactor?: number;
   underForcePct?: number;
   seatingExcessMm?: number;
-  requiredConcreteMpa?: number | null;
+  requiredConcreteMPa?: number | null;
 }
 
 export interface JudgeCalibration {
@@ -141,7 +141,7 @@ export interface JudgeInput {
   tendon: TendonBasis & { shopElongationMm?: number | null; tag?: string };
   lot: LotBasis | null;
   /** `concreteFlagOpen`: the pour already has an open concrete flag (the concrete rule raises one per pour). */
-  pour?: { concreteStrengthMpa: number | null; concreteFlagOpen?: boolean };
+  pour?: { concreteStrengthMPa: number | null; concreteFlagOpen?: boolean };
   sets: JudgeSet[];
   /** Every revision of every record of the tendon. */
   records: JudgeRecord[];

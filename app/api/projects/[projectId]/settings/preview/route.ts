@@ -22,7 +22,7 @@ export const POST = route(
         wobblePerM: body.wobblePerM,
         anchorSetMm: body.anchorSetMm,
         comparisonBasis: body.comparisonBasis,
-        requiredConcreteMpa: body.requiredConcreteMPa,
+        requiredConcreteMPa: body.requiredConcreteMPa,
         ...(body.timeZone !== undefined && { timeZone: body.timeZone }),
         ...(body.jackingForceFactor !== undefined && { jackingForceFactor: body.jackingForceFactor }),
         ...(body.underForcePct !== undefined && { underForcePct: body.underForcePct }),
