@@ -7,7 +7,7 @@ import type { EquipmentSetView } from "@/lib/server/list-equipment-sets";
 import { CalibrationChart } from "./calibration-chart";
 import { CorrectCalibration } from "./correct-calibration";
 import { RetireCalibration } from "./retire-calibration";
-import { MPA_PER_PSI, N_PER_KIP } from "@/lib/units";
+import { MPA_PER_PSI, mpaToPsi, nToKip, nToKN } from "@/lib/units";
 
 export interface EquipmentSetList {
   equipmentSets: EquipmentSetView[];
@@ -33,8 +33,8 @@ export function EquipmentList({
 }) {
   const { data, error } = useEquipmentSets(projectId, initial);
   const sets = data.equipmentSets;
-  const p = (mpa: number) => (us ? mpa / MPA_PER_PSI : mpa);
-  const f = (n: number) => (us ? n / N_PER_KIP : n / 1000);
+  const p = (mpa: number) => (us ? mpaToPsi(mpa) : mpa);
+  const f = (n: number) => (us ? nToKip(n) : nToKN(n));
   const pu = us ? "psi" : "MPa";
   const fu = us ? "kip" : "kN";
   return (

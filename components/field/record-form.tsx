@@ -20,7 +20,7 @@ import {
 } from "@/lib/schemas/record";
 import { stressedEnds } from "@/lib/stressing/basis";
 import { finerDivision, showPressure } from "@/lib/stressing/display";
-import { MM_PER_INCH, MPA_PER_PSI } from "@/lib/units";
+import { mmToIn, mpaToPsi } from "@/lib/units";
 import { setFormDirty } from "./form-dirty";
 import { SafetyCaution } from "@/components/ui/caution";
 import { fieldAria, FormField } from "@/components/ui/form-field";
@@ -114,14 +114,14 @@ function formFromEntered(base: LocalRecord): RecordFormValues {
         (st.pressureMPa === undefined
           ? ""
           : e.units.pressure === "psi"
-            ? String(Math.round(st.pressureMPa / MPA_PER_PSI))
+            ? String(Math.round(mpaToPsi(st.pressureMPa)))
             : String(Number(st.pressureMPa.toFixed(2)))),
       reading:
         st.reading ??
         (st.readingMm === undefined
           ? ""
           : e.units.length === "in"
-            ? String(Number((st.readingMm / MM_PER_INCH).toFixed(4)))
+            ? String(Number(mmToIn(st.readingMm).toFixed(4)))
             : String(Number(st.readingMm.toFixed(1)))),
     })),
     stressingOrder: base.stressingOrder ?? "sequential",

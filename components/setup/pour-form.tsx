@@ -12,8 +12,7 @@ import { sendJson } from "@/lib/client/send-json";
 import { pourSchema, type PourInput } from "@/lib/schemas/pour";
 import { poursKey } from "./pour-table";
 import { units } from "@/lib/client/unit-fields";
-
-const FT2_PER_M2 = 10.7639104167;
+import { ft2ToM2 } from "@/lib/units";
 
 const FIELDS = { name: z.string(), level: z.string(), area: units.number(false), plannedStressingDate: z.string() };
 type FormIn = { [K in keyof typeof FIELDS]: string };
@@ -25,8 +24,7 @@ function resolver(us: boolean) {
       ...v,
       level: v.level?.trim() || null,
       plannedStressingDate: v.plannedStressingDate || null,
-      // 1 m² = 10.7639 ft² (from 1 ft = 0.3048 m exactly).
-      areaM2: area === null ? null : us ? area / FT2_PER_M2 : area,
+      areaM2: area === null ? null : us ? ft2ToM2(area) : area,
     }),
     pourSchema,
     { areaM2: "area" },

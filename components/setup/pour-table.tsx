@@ -6,13 +6,12 @@ import { useMemo } from "react";
 import type { PourSummary } from "@/lib/server/list-pours";
 import { compareText, readSorting, SetupTable, setupFeatures, sortingParams, useUrlView } from "./url-table";
 import { RefreshError, useRouteData } from "./use-route-data";
+import { m2ToFt2 } from "@/lib/units";
 
 /** The route handler that lists the project's pours; also the swr key the pour form refreshes. */
 export const poursKey = (projectId: string) => `/api/projects/${projectId}/pours`;
 
 const SORTS = ["name", "level", "area", "planned", "status", "tendons"] as const;
-// 1 m² = 10.7639 ft² (from 1 ft = 0.3048 m exactly).
-const FT2_PER_M2 = 10.7639104167;
 const helper = createColumnHelper<typeof setupFeatures, PourSummary>();
 const byNumber = (a: number | null, b: number | null) => (a ?? -Infinity) - (b ?? -Infinity) || 0;
 
@@ -42,7 +41,7 @@ function pourColumns(projectId: string, us: boolean) {
       sortFn: (a, b, id) => byNumber(a.getValue<number | null>(id), b.getValue<number | null>(id)),
       cell: (c) => {
         const m2 = c.getValue();
-        return m2 === null ? "—" : Math.round(us ? m2 * FT2_PER_M2 : m2).toLocaleString("en-US");
+        return m2 === null ? "—" : Math.round(us ? m2ToFt2(m2) : m2).toLocaleString("en-US");
       },
     }),
     helper.accessor("plannedStressingDate", {

@@ -14,7 +14,7 @@ import { sendJson } from "@/lib/client/send-json";
 import { strandLotSchema, type StrandLotInput } from "@/lib/schemas/strand-lot";
 import { STRAND_SIZES } from "@/lib/schemas/tendon";
 import type { StrandLotView } from "@/lib/server/list-strand-lots";
-import { MM2_PER_IN2, MPA_PER_KSI, N_PER_KIP } from "@/lib/units";
+import { in2ToMm2, MM2_PER_IN2, MPA_PER_KSI, N_PER_KIP } from "@/lib/units";
 import { EditPreviewDialog, type EditPreview } from "./edit-preview";
 import { strandLotsKey } from "./strand-lot-table";
 import { shown, units } from "@/lib/client/unit-fields";
@@ -35,10 +35,9 @@ type FormIn = { [K in keyof ReturnType<typeof fields>]: string };
 function resolver(us: boolean) {
   return formResolver(
     fields(us),
-    // 1 in² = 645.16 mm² exactly.
     ({ area, ...v }) => ({
       ...v,
-      areaMm2: area === null ? null : us ? area * MM2_PER_IN2 : area,
+      areaMm2: area === null ? null : us ? in2ToMm2(area) : area,
       certificateAttachmentId: v.certificateAttachmentId || null,
     }),
     strandLotSchema,

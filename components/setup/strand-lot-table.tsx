@@ -7,7 +7,7 @@ import type { StrandLotView } from "@/lib/server/list-strand-lots";
 import { compareText, readSorting, SetupTable, setupFeatures, sortingParams, useUrlView } from "./url-table";
 import { RefreshError, useRouteData } from "./use-route-data";
 import { showPct } from "@/lib/format/quantities";
-import { MM2_PER_IN2, MPA_PER_KSI, N_PER_KIP } from "@/lib/units";
+import { mm2ToIn2, mpaToKsi, nToKip, nToKN } from "@/lib/units";
 
 /** The route handler that lists the project's strand lots; also the swr key the lot form refreshes. */
 export const strandLotsKey = (projectId: string) => `/api/projects/${projectId}/strand-lots`;
@@ -41,7 +41,7 @@ function lotColumns(projectId: string, us: boolean, editHref: (lotId: string) =>
       sortFn: (a, b, id) => a.getValue<number>(id) - b.getValue<number>(id),
       cell: (c) => (
         <>
-          {us ? `${(c.getValue() / MM2_PER_IN2).toFixed(4)} in²` : `${c.getValue().toFixed(1)} mm²`}
+          {us ? `${mm2ToIn2(c.getValue()).toFixed(4)} in²` : `${c.getValue().toFixed(1)} mm²`}
           <Against pct={c.row.original.againstNominal?.areaPct} />
         </>
       ),
@@ -53,7 +53,7 @@ function lotColumns(projectId: string, us: boolean, editHref: (lotId: string) =>
       sortFn: (a, b, id) => a.getValue<number>(id) - b.getValue<number>(id),
       cell: (c) => (
         <>
-          {us ? `${(c.getValue() / MPA_PER_KSI).toFixed(0)} ksi` : `${(c.getValue() / 1000).toFixed(1)} GPa`}
+          {us ? `${mpaToKsi(c.getValue()).toFixed(0)} ksi` : `${(c.getValue() / 1000).toFixed(1)} GPa`}
           <Against pct={c.row.original.againstNominal?.modulusPct} />
         </>
       ),
@@ -65,7 +65,7 @@ function lotColumns(projectId: string, us: boolean, editHref: (lotId: string) =>
       sortFn: (a, b, id) => a.getValue<number>(id) - b.getValue<number>(id),
       cell: (c) => (
         <>
-          {us ? `${(c.getValue() / N_PER_KIP).toFixed(1)} kip` : `${(c.getValue() / 1000).toFixed(1)} kN`}
+          {us ? `${nToKip(c.getValue()).toFixed(1)} kip` : `${nToKN(c.getValue()).toFixed(1)} kN`}
           <Against pct={c.row.original.againstNominal?.breakingPct} />
         </>
       ),

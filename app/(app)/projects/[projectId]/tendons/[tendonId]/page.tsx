@@ -13,16 +13,7 @@ import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
 import { getTendonDetail, SHOP_DRAWING_MARK_PCT } from "@/lib/server/get-tendon-detail";
 import { listStrandLots } from "@/lib/server/list-strand-lots";
 import { listTendonReadings } from "@/lib/server/list-tendon-readings";
-import {
-  formatForce,
-  formatLength,
-  formatPressure,
-  MM2_PER_IN2,
-  MM_PER_FOOT,
-  MM_PER_INCH,
-  MPA_PER_KSI,
-  N_PER_KIP,
-} from "@/lib/units";
+import { formatForce, formatLength, formatPressure, mm2ToIn2, mmToFt, mmToIn, mpaToKsi, N_PER_KIP } from "@/lib/units";
 import { rereadLine } from "@/lib/stressing/display";
 import { storedGaugeOffTarget, storedGaugeSteps } from "@/lib/schemas/record";
 import { showPct } from "@/lib/format/quantities";
@@ -63,10 +54,10 @@ export default async function TendonPage({ params }: { params: Promise<{ project
   const us = u.system === "US";
   const len = (mm: number) => formatLength(mm, u.resolution);
   // Elongations to 0.01 in or 0.1 mm on this sheet, finer than a reading, so differences show.
-  const fine = (mm: number) => (us ? `${(mm / MM_PER_INCH).toFixed(2)} in` : `${mm.toFixed(1)} mm`);
+  const fine = (mm: number) => (us ? `${mmToIn(mm).toFixed(2)} in` : `${mm.toFixed(1)} mm`);
   const force = (n: number) => formatForce(n, { unit: u.force });
   const pressure = (mpa: number) => formatPressure(mpa, { unit: u.pressure });
-  const long = (mm: number) => (us ? `${(mm / MM_PER_FOOT).toFixed(1)} ft` : `${(mm / 1000).toFixed(2)} m`);
+  const long = (mm: number) => (us ? `${mmToFt(mm).toFixed(1)} ft` : `${(mm / 1000).toFixed(2)} m`);
   const canManage = access.role === "admin";
   const lots = canManage && !tendon.pour.released ? await listStrandLots(db, projectId) : [];
 
@@ -144,9 +135,9 @@ export default async function TendonPage({ params }: { params: Promise<{ project
                 ? `mill certificate of lot ${tendon.lot?.lotNumber}`
                 : "ASTM A416 nominal"}{" "}
               — area {computed.prediction.strand.areaMm2.toFixed(1)} mm²
-              {us ? ` (${(computed.prediction.strand.areaMm2 / MM2_PER_IN2).toFixed(4)} in²)` : ""}, modulus{" "}
+              {us ? ` (${mm2ToIn2(computed.prediction.strand.areaMm2).toFixed(4)} in²)` : ""}, modulus{" "}
               {(computed.prediction.strand.modulusMPa / 1000).toFixed(1)} GPa
-              {us ? ` (${(computed.prediction.strand.modulusMPa / MPA_PER_KSI).toFixed(0)} ksi)` : ""}.
+              {us ? ` (${mpaToKsi(computed.prediction.strand.modulusMPa).toFixed(0)} ksi)` : ""}.
               {computed.nominalPredictedMm !== null &&
                 ` On nominal values the prediction would be ${fine(computed.nominalPredictedMm)} (${showPct(((computed.prediction.predictedMm - computed.nominalPredictedMm) / computed.nominalPredictedMm) * 100)} change from the lot).`}
             </p>
