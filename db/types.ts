@@ -1,23 +1,39 @@
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "kysely";
+import type {
+  AttachmentPurpose,
+  AuditOutcome,
+  ComparisonBasis,
+  ConcreteSpecimen,
+  Decision,
+  FlagKind,
+  FlagMailMode,
+  FlagStatus,
+  GoverningValue,
+  PourStatus,
+  ReadingMethod,
+  Releaser,
+  ReportKind,
+  ReviewKind,
+  Role,
+  StoredResolution,
+  StressingEnds,
+  StressingOrder,
+  TendonEnd,
+  TendonKind,
+  UnitSystem,
+  Verdict,
+} from "@/lib/schemas/domain";
 
 /**
  * The database as Kysely sees it. One interface per table; `Generated<>` marks defaults,
  * `T | null` marks nullable columns. Every value is stored in SI units; where a person typed
- * a value in another unit, the value as entered is kept beside it.
+ * a value in another unit, the value as entered is kept beside it. The closed sets of words
+ * (roles, verdicts, flag kinds …) are the domain's own, from `lib/schemas/domain.ts`.
  */
 
 // Optional on insert: every timestamp column has a default or is nullable.
 type Timestamp = ColumnType<Date, Date | string | undefined, Date | string>;
 type Json<T> = ColumnType<T, string, string>;
-
-export type Role = "crew" | "inspector" | "engineer" | "admin";
-export type UnitSystem = "us" | "si";
-export type ReadingResolution = "1/8in" | "1/16in" | "1mm";
-export type ComparisonBasis = "gross" | "net";
-/** Derived, never set: see the pour_states view. */
-export type PourStatus = "planned" | "stressing" | "stressed" | "released";
-export type TendonKind = "unbonded_monostrand" | "bonded_multistrand";
-export type StressingEnds = "A" | "B" | "both";
 
 export interface TendonSegment {
   lengthMm: number;
@@ -43,7 +59,7 @@ export interface ProjectsTable {
   name: string;
   address: string | null;
   unit_system: Generated<UnitSystem>;
-  reading_resolution: Generated<ReadingResolution>;
+  reading_resolution: Generated<StoredResolution>;
   tolerance_pct: Generated<number>;
   group_tolerance_pct: number | null;
   /** Steel lost to unreplaced wire breaks that a member may carry, % of its prestressing steel (default 2). */
@@ -60,7 +76,7 @@ export interface ProjectsTable {
   engineer_of_record_email: string | null;
   notify_emails: Generated<string[]>;
   blind_entry: Generated<boolean>;
-  release_by: Generated<"engineer" | "inspector">;
+  release_by: Generated<Releaser>;
   time_zone: Generated<string>;
   jacking_force_factor: Generated<number>;
   under_force_pct: Generated<number>;
@@ -70,7 +86,7 @@ export interface ProjectsTable {
   liftoff_band_pct: Generated<number>;
   /** When the project's shifts end, minutes after local midnight (default [1080], 18:00). */
   shift_end_minutes: Generated<number[]>;
-  governing_value: Generated<"tautline" | "shop_drawing">;
+  governing_value: Generated<GoverningValue>;
   created_at: Timestamp;
   updated_at: Timestamp;
 }
@@ -81,7 +97,7 @@ export interface ProjectMembersTable {
   role: Role;
   created_at: Timestamp;
   /** Flag e-mails one per flag ("each") or one digest per shift ("digest"). */
-  flag_mail: Generated<"each" | "digest">;
+  flag_mail: Generated<FlagMailMode>;
   /** Where the member's next shift digest begins; set while flag_mail is "digest". */
   digest_from: Timestamp | null;
 }
@@ -111,7 +127,7 @@ export interface ConcreteResultsTable {
   id: Generated<string>;
   project_id: string;
   pour_id: string;
-  specimen: "cylinder" | "cube";
+  specimen: ConcreteSpecimen;
   strength_mpa: number;
   age_days: number;
   specimen_count: number;
@@ -184,8 +200,6 @@ export interface PasswordResetsTable {
   created_at: Timestamp;
 }
 
-export type AuditOutcome = "success" | "failure" | "denied";
-
 export interface AuditEventsTable {
   id: Generated<string>;
   at: Timestamp;
@@ -198,9 +212,6 @@ export interface AuditEventsTable {
   ip: string | null;
   detail: ColumnType<Record<string, unknown>, string | undefined, string>;
 }
-
-export type AttachmentPurpose =
-  "mill_certificate" | "calibration_certificate" | "record_photo" | "review_photo" | "lab_report" | "signed_report";
 
 export interface AttachmentsTable {
   id: Generated<string>;
@@ -258,10 +269,6 @@ export interface CalibrationsTable {
   created_at: Timestamp;
 }
 
-export type TendonEnd = "A" | "B";
-export type ReadingMethod = "marks" | "strokes";
-export type StressingOrder = "sequential" | "simultaneous";
-
 export interface RecordsTable {
   id: string;
   project_id: string;
@@ -301,8 +308,6 @@ export interface RecordsTable {
   received_at: Timestamp;
 }
 
-export type Verdict = "in band" | "long" | "short" | "incomplete";
-
 export interface EvaluationsTable {
   id: Generated<string>;
   project_id: string;
@@ -319,26 +324,6 @@ export interface EvaluationsTable {
   measured_mm: number | null;
   created_at: Timestamp;
 }
-
-export type FlagKind =
-  | "out_of_band"
-  | "jacking_over_limit"
-  | "anchor_over_limit"
-  | "calibration_expired"
-  | "calibration_range"
-  | "wire_break"
-  | "concrete_unconfirmed"
-  | "reading_missing"
-  | "stressed_twice"
-  | "under_force"
-  | "seating_excess"
-  | "cut_while_held"
-  | "group_out_of_band"
-  | "member_wire_loss"
-  | "liftoff_out_of_band"
-  | "force_disagreement"
-  | "gauge_off_target";
-export type FlagStatus = "open" | "with_engineer" | "closed";
 
 export interface FlagsTable {
   id: Generated<string>;
@@ -358,8 +343,6 @@ export interface FlagsTable {
   number: Generated<number>;
 }
 
-export type ReviewKind = "note" | "remeasured" | "paperwork_error" | "photo" | "sent_to_engineer" | "closed_paperwork";
-
 export interface ReviewsTable {
   id: Generated<string>;
   project_id: string;
@@ -371,8 +354,6 @@ export interface ReviewsTable {
   attachment_id: string | null;
   created_at: Timestamp;
 }
-
-export type Decision = "accept" | "restress" | "detension_restress" | "liftoff_check" | "replace" | "other";
 
 export interface DispositionsTable {
   id: Generated<string>;
@@ -474,8 +455,6 @@ export interface SyncTombstonesTable {
   change_xid: Generated<string>;
   deleted_at: Timestamp;
 }
-
-export type ReportKind = "pour_stressing" | "daily_inspection";
 
 export interface ReportRevisionsTable {
   id: Generated<string>;

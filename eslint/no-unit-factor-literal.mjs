@@ -1,7 +1,7 @@
 /**
  * Refuses a number literal that is one of the unit conversion factors of `lib/units/factors.ts`
  * (or its reciprocal, or either shifted by a power of ten: 0.0254 m per inch, 6894.757 Pa per psi,
- * 3.2808 ft per m, 145.04 psi per MPa), so every conversion goes through `lib/units`.
+ * 3.2808 ft per m, 145.04 psi per MPa, 10.7639 ft² per m²), so every conversion goes through `lib/units`.
  *
  * A literal matches when its significant digits are those of a factor: the defined factors match
  * exactly (25.4, 304.8, 0.3048, 645.16, 4.4482216152605, …) or rounded to four figures or more
@@ -13,7 +13,7 @@
 
 /** The defined factors of lib/units/factors.ts, bar excepted (see above). */
 export const UNIT_FACTORS = [
-  25.4, 304.8, 645.16, 4.4482216152605, 4448.2216152605, 0.006894757293168, 6.894757293168, 0.3048,
+  25.4, 304.8, 645.16, 0.09290304, 4.4482216152605, 4448.2216152605, 0.006894757293168, 6.894757293168, 0.3048,
 ];
 
 const mantissa = (value) => {

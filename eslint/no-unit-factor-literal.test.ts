@@ -9,6 +9,7 @@ import {
   N_PER_KIP,
   N_PER_LBF,
   METRES_PER_FOOT,
+  M2_PER_FT2,
 } from "@/lib/units";
 import rule, { UNIT_FACTORS } from "./no-unit-factor-literal.mjs";
 
@@ -26,7 +27,17 @@ function lint(code: string): string[] {
 describe("no-unit-factor-literal", () => {
   it("lists exactly the factors lib/units defines (bar's 0.1 excepted)", () => {
     expect([...UNIT_FACTORS].sort()).toEqual(
-      [MM_PER_INCH, MM_PER_FOOT, MM2_PER_IN2, N_PER_LBF, N_PER_KIP, MPA_PER_PSI, MPA_PER_KSI, METRES_PER_FOOT].sort(),
+      [
+        MM_PER_INCH,
+        MM_PER_FOOT,
+        MM2_PER_IN2,
+        M2_PER_FT2,
+        N_PER_LBF,
+        N_PER_KIP,
+        MPA_PER_PSI,
+        MPA_PER_KSI,
+        METRES_PER_FOOT,
+      ].sort(),
     );
   });
 
@@ -35,6 +46,7 @@ describe("no-unit-factor-literal", () => {
     "304.8",
     "0.3048",
     "645.16",
+    "0.09290304",
     "4.4482216152605",
     "4448.2216152605",
     "0.006894757293168",
@@ -54,16 +66,33 @@ describe("no-unit-factor-literal", () => {
     "3.280839895",
     "145.03773773",
     "0.2248",
+    // square feet per square metre and its rounding, written as a pour's area was converted
+    "10.7639104167",
+    "10.7639",
+    "0.092903",
+    "9.2903",
   ])("refuses %s", (literal) => {
     expect(lint(`const x = ${literal};`)).toEqual([expect.stringContaining("unit conversion factor")]);
   });
 
-  it.each(["1000", "0.1", "254", "4.45", "6.89", "3.28", "12", "4.5", "1550", "180.975", "29.1441", "0.001"])(
-    "lets %s pass",
-    (literal) => {
-      expect(lint(`const x = ${literal};`)).toEqual([]);
-    },
-  );
+  it.each([
+    "1000",
+    "0.1",
+    "254",
+    "4.45",
+    "6.89",
+    "3.28",
+    "12",
+    "4.5",
+    "1550",
+    "180.975",
+    "29.1441",
+    "0.001",
+    "10.5",
+    "0.0929",
+  ])("lets %s pass", (literal) => {
+    expect(lint(`const x = ${literal};`)).toEqual([]);
+  });
 
   it("reads a negative factor and one with separators", () => {
     expect(lint("const x = -25.4;")).toHaveLength(1);

@@ -1,4 +1,4 @@
-import type { Role } from "@/db/types";
+import type { Role } from "@/lib/schemas/domain";
 
 /** The signed-in areas of Tautline and which project roles see each in the navigation. */
 export interface NavItem {

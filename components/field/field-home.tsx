@@ -18,9 +18,9 @@ import { AttentionList } from "./attention-list";
 import { DecisionNotices } from "./decision-notices";
 import { useField } from "./field-provider";
 import { useLiveQuery as useLive } from "dexie-react-hooks";
-import { ago, clockTime, useNow } from "./use-live";
+import { clockTime, useNow } from "./use-live";
 import { countOf } from "@/lib/format/count";
-import { dayInZone, formatDateTime, projectTimeZone, shiftDay } from "@/lib/format/dates";
+import { dayInZone, formatDateTime, formatShortAge, projectTimeZone, shiftDay } from "@/lib/format/dates";
 
 /** The crew's landing: pours ready offline with what they hold, and pours to take out. */
 export function FieldHome() {
@@ -151,7 +151,7 @@ export function FieldHome() {
                 <p className="text-ink-soft" data-testid="ready-age">
                   Data from{" "}
                   {project ? formatDateTime(pour.downloadedAt, projectTimeZone(project)) : clockTime(pour.downloadedAt)}{" "}
-                  ({ago(pour.downloadedAt, now)}), kept up to date at each sync.
+                  ({formatShortAge(pour.downloadedAt, now)}), kept up to date at each sync.
                 </p>
                 {pour.unavailable && (
                   <p className="font-bold text-signal-stop">

@@ -2,7 +2,8 @@
 import { useEffect, useState } from "react";
 import { useFieldIfOpen } from "./field-provider";
 import { StorageProtection } from "./storage-protection";
-import { ago, recentClockTime, useNow } from "./use-live";
+import { formatShortAge } from "@/lib/format/dates";
+import { recentClockTime, useNow } from "./use-live";
 
 function useOnline(): boolean {
   const [online, setOnline] = useState(true);
@@ -95,7 +96,7 @@ export function SyncStatusBar() {
         <Item
           testId="oldest-pending"
           label="Oldest waiting"
-          value={status?.oldestPendingAt ? ago(status.oldestPendingAt, now) : "none"}
+          value={status?.oldestPendingAt ? formatShortAge(status.oldestPendingAt, now) : "none"}
         />
         <Item
           testId="last-sync"
@@ -104,7 +105,7 @@ export function SyncStatusBar() {
             meta === undefined
               ? "…"
               : meta.lastConfirmedSyncAt
-                ? `${recentClockTime(meta.lastConfirmedSyncAt, now)} (${ago(meta.lastConfirmedSyncAt, now)})`
+                ? `${recentClockTime(meta.lastConfirmedSyncAt, now)} (${formatShortAge(meta.lastConfirmedSyncAt, now)})`
                 : "never"
           }
         />

@@ -12,16 +12,6 @@ export function useNow(intervalMs = 15_000): number {
   return now;
 }
 
-export function ago(iso: string | null | undefined, now: number): string {
-  if (!iso) return "never";
-  const minutes = Math.round((now - new Date(iso).getTime()) / 60_000);
-  if (minutes < 1) return "just now";
-  if (minutes < 60) return `${minutes} min ago`;
-  const hours = Math.floor(minutes / 60);
-  if (hours < 24) return `${hours} h ${minutes % 60} min ago`;
-  return `${Math.floor(hours / 24)} d ago`;
-}
-
 /**
  * A moment of the tablet's own (the last sync, which spans its projects), in the one date format;
  * written in the tablet's zone, since no single project's applies. Project dates use fieldTime.

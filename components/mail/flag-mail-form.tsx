@@ -5,7 +5,7 @@ import { useState } from "react";
 import { FieldError, FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
-import type { FlagMailMode } from "@/lib/schemas/flag-mail";
+import type { FlagMailMode } from "@/lib/schemas/domain";
 
 /** The engineer's own choice on one project: an e-mail for each flag, or one digest per shift. */
 export function FlagMailForm(props: { projectId: string; mode: FlagMailMode; shiftEnds: string; nextEnd: string }) {

@@ -5,7 +5,7 @@ import { useState } from "react";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import { FieldError, FormMessage } from "@/components/ui/form-message";
 import { FormField } from "@/components/ui/form-field";
-import type { Role } from "@/db/types";
+import type { Role } from "@/lib/schemas/domain";
 import { ROLE_LABELS, ROLES } from "@/lib/auth/permissions";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";

@@ -7,7 +7,8 @@ import { FormField } from "@/components/ui/form-field";
 import { FractionKeysFor } from "@/components/ui/fraction-keys";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall, type Shown } from "@/lib/client/use-api-call";
-import { DECISION_LABELS, DECISIONS } from "@/lib/schemas/review";
+import { DECISIONS } from "@/lib/schemas/domain";
+import { DECISION_LABELS } from "@/lib/schemas/review";
 import { isInputError, parseLength } from "@/lib/units";
 
 interface OpenFlag {

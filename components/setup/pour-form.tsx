@@ -11,9 +11,7 @@ import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { pourSchema, type PourInput } from "@/lib/schemas/pour";
 import { poursKey } from "./pour-table";
-import { units } from "@/lib/client/unit-fields";
-
-const FT2_PER_M2 = 10.7639104167;
+import { PER, units } from "@/lib/client/unit-fields";
 
 const FIELDS = { name: z.string(), level: z.string(), area: units.number(false), plannedStressingDate: z.string() };
 type FormIn = { [K in keyof typeof FIELDS]: string };
@@ -25,8 +23,7 @@ function resolver(us: boolean) {
       ...v,
       level: v.level?.trim() || null,
       plannedStressingDate: v.plannedStressingDate || null,
-      // 1 m² = 10.7639 ft² (from 1 ft = 0.3048 m exactly).
-      areaM2: area === null ? null : us ? area / FT2_PER_M2 : area,
+      areaM2: area === null ? null : area * (us ? PER.ft2 : PER.m2),
     }),
     pourSchema,
     { areaM2: "area" },

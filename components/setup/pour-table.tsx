@@ -3,6 +3,7 @@
 import { createColumnHelper, functionalUpdate, useTable, type SortingState } from "@tanstack/react-table";
 import Link from "next/link";
 import { useMemo } from "react";
+import { showPlanArea } from "@/lib/format/quantities";
 import type { PourSummary } from "@/lib/server/list-pours";
 import { compareText, readSorting, SetupTable, setupFeatures, sortingParams, useUrlView } from "./url-table";
 import { RefreshError, useRouteData } from "./use-route-data";
@@ -11,8 +12,6 @@ import { RefreshError, useRouteData } from "./use-route-data";
 export const poursKey = (projectId: string) => `/api/projects/${projectId}/pours`;
 
 const SORTS = ["name", "level", "area", "planned", "status", "tendons"] as const;
-// 1 m² = 10.7639 ft² (from 1 ft = 0.3048 m exactly).
-const FT2_PER_M2 = 10.7639104167;
 const helper = createColumnHelper<typeof setupFeatures, PourSummary>();
 const byNumber = (a: number | null, b: number | null) => (a ?? -Infinity) - (b ?? -Infinity) || 0;
 
@@ -37,12 +36,12 @@ function pourColumns(projectId: string, us: boolean) {
     }),
     helper.accessor("areaM2", {
       id: "area",
-      header: `Area, ${us ? "ft²" : "m²"}`,
+      header: "Area",
       meta: { right: true },
       sortFn: (a, b, id) => byNumber(a.getValue<number | null>(id), b.getValue<number | null>(id)),
       cell: (c) => {
         const m2 = c.getValue();
-        return m2 === null ? "—" : Math.round(us ? m2 * FT2_PER_M2 : m2).toLocaleString("en-US");
+        return m2 === null ? "—" : showPlanArea({ unitSystem: us ? "us" : "si" }, m2);
       },
     }),
     helper.accessor("plannedStressingDate", {

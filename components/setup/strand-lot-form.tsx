@@ -34,7 +34,6 @@ type FormIn = { [K in keyof ReturnType<typeof fields>]: string };
 function resolver(us: boolean) {
   return formResolver(
     fields(us),
-    // 1 in² = 645.16 mm² exactly.
     ({ area, ...v }) => ({
       ...v,
       areaMm2: area === null ? null : area * (us ? PER.in2 : PER.mm2),

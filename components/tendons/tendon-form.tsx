@@ -12,14 +12,8 @@ import { FieldError, FormMessage } from "@/components/ui/form-message";
 import { placeFields, refusedWords } from "@/lib/client/field-errors";
 import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
-import {
-  drapeAngleRad,
-  KIND_LABELS,
-  STRAND_SIZES,
-  TENDON_KINDS,
-  tendonSchema,
-  type TendonInput,
-} from "@/lib/schemas/tendon";
+import { drapeAngleRad, KIND_LABELS, STRAND_SIZES, tendonSchema, type TendonInput } from "@/lib/schemas/tendon";
+import { TENDON_KINDS } from "@/lib/schemas/domain";
 import { tendonsKey } from "./tendon-table";
 
 function fields(us: boolean) {

@@ -1,4 +1,4 @@
-import type { FlagStatus, Verdict } from "@/db/types";
+import type { FlagStatus, Verdict } from "@/lib/schemas/domain";
 import { FLAG_STATUS_LABELS, flagLabel } from "@/lib/schemas/flag";
 import { showPct } from "@/lib/format/quantities";
 

@@ -2,7 +2,8 @@
 
 import { useId, useState } from "react";
 import { sendJson } from "@/lib/client/send-json";
-import { ALLOWED_TYPES, PURPOSE_LABELS, acceptedTypesText, type UploadPurpose } from "@/lib/schemas/upload";
+import type { UploadPurpose } from "@/lib/schemas/domain";
+import { ALLOWED_TYPES, PURPOSE_LABELS, acceptedTypesText } from "@/lib/schemas/upload";
 
 export interface UploadedFile {
   id: string;

@@ -1,7 +1,7 @@
 import "server-only";
 import { headers } from "next/headers";
 import { db } from "@/db";
-import type { Role } from "@/db/types";
+import type { Role } from "@/lib/schemas/domain";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/server/record-audit";
 import { can, type Action } from "./permissions";

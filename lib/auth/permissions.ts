@@ -1,4 +1,4 @@
-import type { Role } from "@/db/types";
+import type { Role } from "@/lib/schemas/domain";
 
 /**
  * The one permission table: which project role may do what. Anything not listed is denied.

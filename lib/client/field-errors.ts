@@ -20,9 +20,9 @@ export function placeFields(
 }
 
 /**
- * The words above a refused form. The route's own message names the schema's fields
- * ("requiredConcreteMPa: …"), which a person does not know, so when the refusal came with fields
- * the form says what no box shows and points at the marked boxes instead.
+ * The words above a refused form. The route's own message repeats every field's message (in words,
+ * never the schema's names), so when the refusal came with fields the form says only what no box
+ * shows and points at the marked boxes for the rest.
  */
 export function refusedWords(
   error: { message: string; fields?: FieldErrors },

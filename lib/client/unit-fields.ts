@@ -2,6 +2,7 @@ import { z } from "zod";
 import {
   degToRad,
   isInputError,
+  M2_PER_FT2,
   MM2_PER_IN2,
   MM_PER_FOOT,
   MM_PER_INCH,
@@ -83,6 +84,9 @@ export const PER = {
   N: 1,
   in2: MM2_PER_IN2,
   mm2: 1,
+  /** A pour's plan area is stored in m², not mm². */
+  ft2: M2_PER_FT2,
+  m2: 1,
   ksi: MPA_PER_KSI,
   /** A wobble coefficient per foot is this many per metre (1 ÷ 0.3048). */
   perFt: wobblePerFtToPerM(1),

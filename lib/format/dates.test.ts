@@ -4,6 +4,7 @@ import {
   dayBounds,
   dayInZone,
   formatAge,
+  formatShortAge,
   formatDateTime,
   formatSpan,
   instantFromLocalInput,
@@ -32,6 +33,16 @@ describe("dates in the project's zone", () => {
 
   it("writes ages in words", () => {
     expect(formatAge("2026-12-02T10:00:00Z", "2026-12-02T13:00:00Z")).toBe("3 hours ago");
+  });
+
+  it("writes short ages for the tablet's status bar, counted down to the unit", () => {
+    const now = "2026-12-02T13:00:00Z";
+    expect(formatShortAge("2026-12-02T12:59:30Z", now)).toBe("just now");
+    expect(formatShortAge("2026-12-02T12:55:00Z", now)).toBe("5 min ago");
+    expect(formatShortAge("2026-12-02T12:00:01Z", now)).toBe("59 min ago");
+    expect(formatShortAge("2026-12-02T11:00:00Z", now)).toBe("2 h ago");
+    expect(formatShortAge("2026-11-29T12:00:00Z", now)).toBe("3 d ago");
+    expect(formatShortAge("2026-12-02T13:05:00Z", now)).toBe("just now");
   });
 
   it("shows a project in its own zone, and in UTC when it names none", () => {

@@ -1,5 +1,14 @@
 import { TZDate } from "@date-fns/tz";
-import { addDays, format, formatDistanceStrict, formatDuration, intervalToDuration } from "date-fns";
+import {
+  addDays,
+  format,
+  formatDistanceStrict,
+  formatDuration,
+  intervalToDuration,
+  type FormatDistanceToken,
+  type Locale,
+} from "date-fns";
+import { enUS } from "date-fns/locale/en-US";
 
 /**
  * The one way Tautline writes dates and times, always in the project's time zone (an IANA name such
@@ -54,6 +63,36 @@ export function formatSpan(a: Instant, b: Instant): string {
     format: ["years", "months", "days", "hours", "minutes"],
   });
   return words || "under a minute";
+}
+
+const SHORT_UNITS: Partial<Record<FormatDistanceToken, string>> = {
+  xMinutes: "min",
+  xHours: "h",
+  xDays: "d",
+  xMonths: "mo",
+  xYears: "y",
+};
+
+/** English with short units ("5 min", "2 h", "3 d") and "just now" below a minute. */
+const shortAges: Locale = {
+  ...enUS,
+  formatDistance: (token, count, options) => {
+    const unit = SHORT_UNITS[token];
+    if (!unit) return "just now";
+    const distance = `${count} ${unit}`;
+    if (!options?.addSuffix) return distance;
+    return options.comparison !== undefined && options.comparison > 0 ? `in ${distance}` : `${distance} ago`;
+  },
+};
+
+/**
+ * "just now", "5 min ago", "2 h ago", "3 d ago": `formatAge` in short units, where one line holds it
+ * (the tablet's status bar at 800 px). Counted down to the unit (59 min is not yet "1 h"); a moment
+ * after `now`, as a clock a little ahead would give, is "just now".
+ */
+export function formatShortAge(instant: Instant, now: Instant = Date.now()): string {
+  const at = Math.min(new Date(instant).getTime(), new Date(now).getTime());
+  return formatDistanceStrict(at, new Date(now), { addSuffix: true, locale: shortAges, roundingMethod: "floor" });
 }
 
 /** The calendar day of an instant in a time zone ("2026-12-02"): the stressing day on tablet and server. */

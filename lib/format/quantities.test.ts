@@ -1,6 +1,16 @@
 import { describe, expect, it } from "vitest";
-import { in2ToMm2, METRES_PER_FOOT, MM_PER_FOOT, MM_PER_INCH, MPA_PER_KSI, MPA_PER_PSI, N_PER_KIP } from "@/lib/units";
 import {
+  in2ToMm2,
+  M2_PER_FT2,
+  METRES_PER_FOOT,
+  MM_PER_FOOT,
+  MM_PER_INCH,
+  MPA_PER_KSI,
+  MPA_PER_PSI,
+  N_PER_KIP,
+} from "@/lib/units";
+import {
+  showPlanArea,
   displayUnit,
   fromDisplayUnit,
   groupedNumber,
@@ -140,5 +150,15 @@ describe("quantities in the project's units", () => {
     expect(showShare(0.346)).toBe("35 %");
     expect(showShare(null)).toBe("—");
     expect(() => showShare(Number.NaN)).toThrow(/share/);
+  });
+});
+
+describe("showPlanArea", () => {
+  // 1 ft² = 0.09290304 m² exactly (NIST SP 811, App. B.8: 0.3048² m²).
+  it("gives a pour's plan area to the whole unit, grouped", () => {
+    expect(showPlanArea({ unitSystem: "si" }, 1480)).toBe("1,480 m²");
+    expect(showPlanArea({ unitSystem: "us" }, 1480)).toBe("15,931 ft²"); // 1480 m² ÷ 0.0929… = 15,930.6 ft²
+    expect(showPlanArea({ unitSystem: "us" }, M2_PER_FT2 * 1000)).toBe("1,000 ft²");
+    expect(() => showPlanArea({ unitSystem: "si" }, Number.NaN)).toThrow();
   });
 });

@@ -1,3 +1,4 @@
+import type { StoredResolution } from "@/lib/schemas/domain";
 import {
   DEFAULT_UNITS,
   FORCE_UNITS,
@@ -13,6 +14,7 @@ import {
   MPA_PER_KSI,
   MPA_PER_PSI,
   PRESSURE_UNITS,
+  m2ToFt2,
   radToDeg,
   wobblePerMToPerFt,
   type ReadingResolution,
@@ -27,7 +29,7 @@ import {
  * strengths as mill certificates and drawings print them. Pure: no React, no database.
  */
 
-export type StoredResolution = "1/8in" | "1/16in" | "1mm";
+export type { StoredResolution };
 
 export interface DisplayUnits {
   unitSystem: "us" | "si";
@@ -96,6 +98,12 @@ export function showPressure(project: Pick<DisplayUnits, "unitSystem">, mpa: num
 export function showArea(project: Pick<DisplayUnits, "unitSystem">, mm2: number): string {
   finite(mm2, "area");
   return project.unitSystem === "us" ? `${groupedNumber(mm2 / MM2_PER_IN2, 3)} in²` : `${groupedNumber(mm2, 1)} mm²`;
+}
+
+/** A slab's or a pour's plan area, to the whole unit: "15,930 ft²", "1,480 m²". */
+export function showPlanArea(project: Pick<DisplayUnits, "unitSystem">, m2: number): string {
+  finite(m2, "plan area");
+  return project.unitSystem === "us" ? `${groupedNumber(m2ToFt2(m2), 0)} ft²` : `${groupedNumber(m2, 0)} m²`;
 }
 
 /** A modulus of elasticity: "28,500 ksi", "196.5 GPa". */

@@ -1,5 +1,6 @@
 import { DatabaseError } from "pg";
 import { z as mini } from "zod/mini";
+import { z } from "zod";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { AppError, ERROR_STATUS, type ErrorCode } from "@/lib/errors";
 import { InputError } from "@/lib/units";
@@ -44,12 +45,12 @@ describe("errorResponse: the one mapping from an error to an answer", () => {
     expect(body.error).toEqual({ code: "INVALID_INPUT", message: "Check the form.", fields });
   });
 
-  it("answers the units' InputError with 422 naming its field, without the path twice", async () => {
+  it("answers the units' InputError with 422 naming its field in fields, never in the words", async () => {
     const { status, body } = await answer(new InputError("segments[2].lengthMm", "negative", "must not be negative"));
     expect(status).toBe(422);
     expect(body.error).toEqual({
       code: "INVALID_INPUT",
-      message: "Check segments[2].lengthMm: must not be negative.",
+      message: "Check the values: must not be negative.",
       fields: { "segments[2].lengthMm": ["must not be negative"] },
     });
   });
@@ -196,6 +197,35 @@ describe("route(): what a handler throws goes through the same mapping", () => {
     });
     expect(response.status).toBe(422);
     expect(await response.json()).toMatchObject({ error: { fields: { points: [expect.any(String)] } } });
+  });
+
+  it("answers a refused body with 422: the messages in words, the schema's names only in fields", async () => {
+    const handler = route(
+      {
+        access: "public",
+        body: z.strictObject({
+          requiredConcreteMPa: z.number({ error: "Give the strength, or leave it empty." }).nullable(),
+          areaM2: z.number().positive("The area must be above 0."),
+          name: z.string().min(1, "Give the pour a name"),
+        }),
+      },
+      async () => ({ saved: true }),
+    );
+    const response = await handler(
+      new Request("http://localhost/api/x", {
+        method: "POST",
+        headers: { "content-type": "application/json", origin: "http://localhost" },
+        body: JSON.stringify({ requiredConcreteMPa: "high", areaM2: -1, name: "" }),
+      }) as never,
+      { params: Promise.resolve({}) },
+    );
+    expect(response.status).toBe(422);
+    const { error } = (await response.json()) as { error: { message: string; fields: Record<string, string[]> } };
+    expect(error.message).toBe(
+      "Check the form: Give the strength, or leave it empty. The area must be above 0. Give the pour a name.",
+    );
+    expect(error.message).not.toMatch(/requiredConcreteMPa|areaM2|name:/);
+    expect(Object.keys(error.fields).sort()).toEqual(["areaM2", "name", "requiredConcreteMPa"]);
   });
 
   it("answers a handler's result as JSON 200", async () => {

@@ -24,10 +24,14 @@ type Ctx = { params: Promise<Params> };
 
 const MUTATING = new Set(["POST", "PUT", "PATCH", "DELETE"]);
 
-function describeFields(fields: FieldErrors): string {
-  return Object.entries(fields)
-    .map(([field, messages]) => `${field}: ${messages.join("; ")}`)
-    .join(" · ");
+/**
+ * A refusal's summary in the user's words: every distinct message once, without the schema's field
+ * names ("requiredConcreteMPa" means nothing to a person). The names stay in `fields`, from which a
+ * form puts each message beside its box.
+ */
+export function describeFields(fields: FieldErrors): string {
+  const messages = [...new Set(Object.values(fields).flat())].map((m) => m.trim()).filter(Boolean);
+  return messages.map((m) => (/[.!?]$/.test(m) ? m : `${m}.`)).join(" ");
 }
 
 /**
@@ -38,7 +42,8 @@ function describeFields(fields: FieldErrors): string {
 export function knownError(error: unknown): AppError | null {
   if (isAppError(error)) return error;
   if (isInputError(error)) {
-    return new AppError("INVALID_INPUT", `Check ${error.field}: ${error.reason}.`, { [error.field]: [error.reason] });
+    const fields = { [error.field]: [error.reason] };
+    return new AppError("INVALID_INPUT", `Check the values: ${describeFields(fields)}`, fields);
   }
   return databaseRefusal(error);
 }

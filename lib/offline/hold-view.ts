@@ -137,8 +137,10 @@ export function cutClearanceOf(input: {
     ends: input.tendon.ends,
     recordedEnds: [...new Set(received.map((r) => r.tendonEnd))],
     openFlags: open,
-    requiredConcreteMpa: input.project.requiredConcreteMpa ?? null,
-    concreteStrengthMpa: input.pour.concreteStrengthMpa ?? null,
+    // The pull spells these two `…Mpa`: tablets keep them so in their stored rows, and a pull sends a
+    // project or pour again only when it changes, so a new spelling there waits for a tablet database upgrade.
+    requiredConcreteMPa: input.project.requiredConcreteMpa ?? null,
+    concreteStrengthMPa: input.pour.concreteStrengthMpa ?? null,
     unitSystem: input.project.unitSystem,
     awaitingRestress: input.awaitingRestress,
   });

@@ -237,10 +237,10 @@ export function recordRows(report: PourReport): string[][] {
 
 export function concreteLine(report: PourReport): string {
   const pour = report.pour;
-  if (pour.concreteStrengthMpa !== null) {
+  if (pour.concreteStrengthMPa !== null) {
     const by = pour.concreteConfirmedBy ? ` by ${pour.concreteConfirmedBy}` : "";
     const at = pour.concreteConfirmedAt ? ` on ${reportDay(report, pour.concreteConfirmedAt)}` : "";
-    return `Concrete strength ${showStrength(report.project, pour.concreteStrengthMpa)} confirmed${by}${at}`;
+    return `Concrete strength ${showStrength(report.project, pour.concreteStrengthMPa)} confirmed${by}${at}`;
   }
   if (report.release)
     return "Concrete strength: no test result entered in Tautline; the release stands on the engineer's statement";
@@ -297,7 +297,7 @@ export function basisLines(report: PourReport): [string, string][] {
       "Tautline's computation governs unless a record says the shop drawing's does; both are listed",
     ],
     ["Reading resolution", readingResolution(p.readingResolution)],
-    ["Required concrete strength", b.requiredConcreteMpa !== null ? showStrength(p, b.requiredConcreteMpa) : "not set"],
+    ["Required concrete strength", b.requiredConcreteMPa !== null ? showStrength(p, b.requiredConcreteMPa) : "not set"],
     ["Engine", report.engineVersion],
   ];
 }

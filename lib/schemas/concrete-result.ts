@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { CONCRETE_SPECIMENS } from "./domain";
 
 export const concreteResultParamsSchema = z.object({
   projectId: z.uuid({ error: "Not a project id." }),
@@ -7,7 +8,7 @@ export const concreteResultParamsSchema = z.object({
 
 /** One set of specimens broken by the lab, in SI (the form converts psi first). */
 export const concreteResultSchema = z.strictObject({
-  specimen: z.enum(["cylinder", "cube"], { error: "Say whether the specimens are cylinders or cubes." }),
+  specimen: z.enum(CONCRETE_SPECIMENS, { error: "Say whether the specimens are cylinders or cubes." }),
   strengthMPa: z
     .number({ error: "Enter the strength." })
     .positive("The strength must be above zero.")

@@ -1,4 +1,4 @@
-import type { FlagKind, FlagStatus } from "@/db/types";
+import type { FlagKind, FlagStatus } from "./domain";
 
 /**
  * What each flag is called on screens, e-mails and reports. Keyed by every kind, so a new kind

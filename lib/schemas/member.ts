@@ -1,8 +1,9 @@
 import { z } from "zod";
 import { text } from "./text";
 import { emailSchema } from "./account";
+import { ROLES, UNIT_SYSTEMS } from "./domain";
 
-export const roleSchema = z.enum(["crew", "inspector", "engineer", "admin"], {
+export const roleSchema = z.enum(ROLES, {
   error: "Pick a role: crew, inspector, engineer or admin.",
 });
 
@@ -21,6 +22,6 @@ export const createProjectSchema = z.strictObject({
     .toUpperCase()
     .regex(/^[A-Z0-9-]{2,12}$/, "Use 2 to 12 letters, digits or dashes."),
   name: text().trim().min(2, "Give the project a name.").max(160, "Use at most 160 characters."),
-  unitSystem: z.enum(["us", "si"], { error: "Pick US customary or SI units." }).default("us"),
+  unitSystem: z.enum(UNIT_SYSTEMS, { error: "Pick US customary or SI units." }).default("us"),
   firstAdminEmail: emailSchema,
 });

@@ -1,9 +1,6 @@
 import { z } from "zod";
 import { text } from "./text";
 
-/** Derived from records and the release (the pour_states view); never set by a form. */
-export const POUR_STATUSES = ["planned", "stressing", "stressed", "released"] as const;
-
 export const pourSchema = z.strictObject({
   name: text().trim().min(1, "Give the pour a name, as on the drawings.").max(80, "Use at most 80 characters."),
   level: text().trim().max(80, "Use at most 80 characters.").nullable(),

@@ -1,6 +1,13 @@
 import { z } from "zod";
 import { text } from "./text";
-import type { ReadingResolution as DbResolution, UnitSystem as DbSystem } from "@/db/types";
+import {
+  COMPARISON_BASES,
+  RELEASERS,
+  STORED_RESOLUTIONS,
+  UNIT_SYSTEMS,
+  type StoredResolution as DbResolution,
+  type UnitSystem as DbSystem,
+} from "./domain";
 import type { ReadingResolution, UnitSystem } from "@/lib/units";
 import { emailSchema } from "./account";
 
@@ -25,8 +32,8 @@ const optionalPositive = (message: string, max: number, maxMessage: string) =>
 export const projectSettingsSchema = z.strictObject({
   name: text().trim().min(2, "Give the project a name.").max(160, "Use at most 160 characters."),
   address: text().trim().max(300, "Use at most 300 characters.").nullable(),
-  unitSystem: z.enum(["us", "si"], { error: "Pick US customary or SI units." }),
-  readingResolution: z.enum(["1/8in", "1/16in", "1mm"], {
+  unitSystem: z.enum(UNIT_SYSTEMS, { error: "Pick US customary or SI units." }),
+  readingResolution: z.enum(STORED_RESOLUTIONS, {
     error: "Pick the reading division: 1/8 in, 1/16 in or 1 mm.",
   }),
   tolerancePct: z
@@ -43,7 +50,7 @@ export const projectSettingsSchema = z.strictObject({
     50,
     "A floor above 50 mm (2 in) would hide real problems.",
   ),
-  comparisonBasis: z.enum(["gross", "net"], { error: "Pick gross at jacking or net of anchor set." }),
+  comparisonBasis: z.enum(COMPARISON_BASES, { error: "Pick gross at jacking or net of anchor set." }),
   countJackGrip: z.boolean({ error: "Say whether strand inside the jack is counted." }),
   frictionMu: z.number({ error: "Give μ as a number." }).min(0, "μ cannot be negative.").lt(1, "μ must be below 1."),
   wobblePerM: z
@@ -68,7 +75,7 @@ export const projectSettingsSchema = z.strictObject({
   engineerOfRecordEmail: emailSchema.nullable(),
   notifyEmails: z.array(emailSchema).max(20, "At most 20 addresses."),
   blindEntry: z.boolean({ error: "Say whether the crew sees predicted values before entering readings." }),
-  releaseBy: z.enum(["engineer", "inspector"], { error: "Pick who releases a pour." }),
+  releaseBy: z.enum(RELEASERS, { error: "Pick who releases a pour." }),
   // Judging settings (lib/stressing/judge.ts); left out, the stored values stay.
   timeZone: z
     .string({ error: "Give the site's time zone, e.g. America/Chicago." })

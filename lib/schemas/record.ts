@@ -2,6 +2,7 @@ import { z } from "zod";
 import { text } from "./text";
 import { isInputError, parseLength, parsePressure, type LengthUnit, type PressureUnit } from "@/lib/units";
 import { WIRE_BREAK_PLACES, type WireBreakPlace } from "./wire-break-words";
+import { READING_METHODS, STRESSING_ORDERS, TENDON_ENDS } from "./domain";
 
 export { WIRE_BREAK_PLACES, WIRE_BREAK_PLACE_WORDS, wireBreakWords, type WireBreakPlace } from "./wire-break-words";
 
@@ -12,12 +13,9 @@ export { WIRE_BREAK_PLACES, WIRE_BREAK_PLACE_WORDS, wireBreakWords, type WireBre
  * were derived from it. Shared by the record form (zodResolver), the outbox and the push route.
  */
 
-export const TENDON_ENDS = ["A", "B"] as const;
-export const READING_METHODS = ["marks", "strokes"] as const;
 export const MAX_STROKES = 8;
 /** Gauge steps on the way up (e.g. 20/40/60/80/100 %): a handful, at least two pressures. */
 export const MAX_GAUGE_STEPS = 10;
-export const STRESSING_ORDERS = ["sequential", "simultaneous"] as const;
 /** One broken wire: the strand it is on (its number in the tendon, null when not known) and where. */
 export const wireBreakSchema = z
   .object({

@@ -1,6 +1,5 @@
 import { z } from "zod";
-import type { FlagKind } from "@/db/types";
-import { FLAG_LABELS } from "./flag";
+import { DECISIONS, FLAG_KINDS, TENDON_ENDS, type Decision } from "./domain";
 import { text } from "./text";
 
 const reasonText = (what: string) =>
@@ -35,9 +34,7 @@ export const reviewSchema = z.discriminatedUnion("kind", [
 ]);
 export type ReviewInput = z.infer<typeof reviewSchema>;
 
-export const DECISIONS = ["accept", "restress", "detension_restress", "liftoff_check", "replace", "other"] as const;
-
-export const DECISION_LABELS: Record<(typeof DECISIONS)[number], string> = {
+export const DECISION_LABELS: Record<Decision, string> = {
   accept: "Accept as stressed",
   restress: "Restress",
   detension_restress: "Detension and restress",
@@ -101,7 +98,7 @@ export const correctionSchema = z
     measuredMm: z.number().positive("The elongation must be above zero.").max(5000).optional(),
     finalPressureMPa: z.number().positive("The gauge pressure must be above zero.").max(200).optional(),
     initialPressureMPa: z.number().min(0).max(200).nullable().optional(),
-    tendonEnd: z.enum(["A", "B"]).optional(),
+    tendonEnd: z.enum(TENDON_ENDS).optional(),
   })
   .refine(
     (v) =>
@@ -120,7 +117,7 @@ export const flagFilterSchema = z.object({
   projectId: z.uuid().optional(),
   pourId: z.uuid().optional(),
   // Every kind there is, so the list to filter by never misses one.
-  kind: z.enum(Object.keys(FLAG_LABELS) as [FlagKind, ...FlagKind[]]).optional(),
+  kind: z.enum(FLAG_KINDS).optional(),
   olderThanHours: z.coerce
     .number()
     .int()

@@ -1,5 +1,6 @@
 import { z } from "zod/mini";
 import { ERROR_STATUS, type ErrorCode } from "@/lib/errors";
+import { DECISIONS } from "./domain";
 
 /**
  * What the server answers the tablet, as zod schemas: the route handlers build their answer
@@ -241,7 +242,7 @@ export type FieldEvaluation = z.infer<typeof fieldEvaluationSchema>;
 export const fieldDispositionSchema = z.object({
   /** Absent from servers that predate lift-off checks. */
   id: z.optional(id),
-  decision: z.enum(["accept", "restress", "detension_restress", "liftoff_check", "replace", "other"]),
+  decision: z.enum(DECISIONS),
   reasons: z.string(),
   engineerName: z.string(),
   createdAt: z.string(),

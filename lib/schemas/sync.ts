@@ -80,7 +80,7 @@ export const pullQuerySchema = z.object({
 });
 export type PullQuery = z.infer<typeof pullQuerySchema>;
 
-export const pourParamsSchema = z.object({ pourId: z.uuid({ error: "Not a pour id." }) });
+export const fieldPourParamsSchema = z.object({ pourId: z.uuid({ error: "Not a pour id." }) });
 
 // What the server answers (push results, pulls, the pours to take out): the response schemas and
 // their types live beside these, in ./sync-response.ts (zod/mini, for the tablet's sync chunk).

@@ -2,10 +2,10 @@ import { z } from "zod";
 import { text } from "./text";
 import { ASTM_A416_GRADE_270, findStrandSize, jackingAboveLimit, stressLimits } from "@/lib/elongation";
 import { N_PER_KIP } from "@/lib/units";
+import { STRESSING_ENDS, TENDON_KINDS, type TendonKind } from "./domain";
 
 export const STRAND_SIZES = ASTM_A416_GRADE_270.map((s) => s.designation) as [string, ...string[]];
-export const TENDON_KINDS = ["unbonded_monostrand", "bonded_multistrand"] as const;
-export const KIND_LABELS: Record<(typeof TENDON_KINDS)[number], string> = {
+export const KIND_LABELS: Record<TendonKind, string> = {
   unbonded_monostrand: "Unbonded monostrand",
   bonded_multistrand: "Bonded multistrand",
 };
@@ -49,7 +49,7 @@ export const tendonSchema = z
       .min(1, "At least 1 strand.")
       .max(61, "At most 61 strands."),
     segments: z.array(segmentSchema).min(1, "Give at least one segment.").max(200, "At most 200 segments."),
-    ends: z.enum(["A", "B", "both"], { error: "Pick the stressing end: A, B or both." }),
+    ends: z.enum(STRESSING_ENDS, { error: "Pick the stressing end: A, B or both." }),
     jackGripMm: z
       .number({ error: "Give the grip length." })
       .min(0, "The grip length cannot be negative.")

@@ -1,23 +1,12 @@
 import { z } from "zod";
 import { text } from "./text";
-
-/** What each kind of upload is for, and the file types its content may be (checked by magic bytes). */
-export const UPLOAD_PURPOSES = [
-  "mill_certificate",
-  "calibration_certificate",
-  "record_photo",
-  "review_photo",
-  "lab_report",
-] as const;
-export type UploadPurpose = (typeof UPLOAD_PURPOSES)[number];
+import { UPLOAD_PURPOSES, type AttachmentPurpose } from "./domain";
 
 const IMAGES = ["image/jpeg", "image/png", "image/webp"] as const;
 const CERTIFICATES = ["application/pdf", "image/jpeg", "image/png"] as const;
 
-/** Files the server makes itself (a signed report) and stores beside the uploads; never uploaded. */
-export type StoredPurpose = UploadPurpose | "signed_report";
-
-export const ALLOWED_TYPES: Record<StoredPurpose, readonly string[]> = {
+/** The file types each purpose's content may be (checked by magic bytes). */
+export const ALLOWED_TYPES: Record<AttachmentPurpose, readonly string[]> = {
   signed_report: ["application/pdf"],
   mill_certificate: CERTIFICATES,
   calibration_certificate: CERTIFICATES,
@@ -26,7 +15,7 @@ export const ALLOWED_TYPES: Record<StoredPurpose, readonly string[]> = {
   lab_report: CERTIFICATES,
 };
 
-export const PURPOSE_LABELS: Record<StoredPurpose, string> = {
+export const PURPOSE_LABELS: Record<AttachmentPurpose, string> = {
   signed_report: "signed report",
   mill_certificate: "mill certificate",
   calibration_certificate: "calibration certificate",
@@ -36,7 +25,7 @@ export const PURPOSE_LABELS: Record<StoredPurpose, string> = {
 };
 
 /** Plain words for the accepted types, for messages and the file picker's hint. */
-export function acceptedTypesText(purpose: StoredPurpose): string {
+export function acceptedTypesText(purpose: AttachmentPurpose): string {
   return ALLOWED_TYPES[purpose].map((t) => t.split("/")[1]!.toUpperCase()).join(", ");
 }
 

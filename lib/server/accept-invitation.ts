@@ -1,6 +1,6 @@
 import "server-only";
 import type { Db } from "@/db/connect";
-import type { Role } from "@/db/types";
+import type { Role } from "@/lib/schemas/domain";
 import { hashPassword } from "@/lib/auth/passwords";
 import { hashToken } from "@/lib/auth/tokens";
 import { AppError } from "@/lib/errors";

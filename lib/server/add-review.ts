@@ -1,6 +1,7 @@
 import "server-only";
 import type { Kysely } from "kysely";
-import type { Database, FlagKind } from "@/db/types";
+import type { Database } from "@/db/types";
+import type { FlagKind } from "@/lib/schemas/domain";
 import { AppError } from "@/lib/errors";
 import type { ReviewInput } from "@/lib/schemas/review";
 import { inTransaction } from "./in-transaction";

@@ -1,7 +1,8 @@
 import "server-only";
 import type { Kysely } from "kysely";
 import type { Db } from "@/db/connect";
-import type { Database, Role } from "@/db/types";
+import type { Database } from "@/db/types";
+import type { Role } from "@/lib/schemas/domain";
 import { AppError } from "@/lib/errors";
 import { endSessions } from "./end-sessions";
 import { recordAudit } from "./record-audit";

@@ -2,18 +2,8 @@ import "server-only";
 import { randomUUID } from "node:crypto";
 import { sql, type Compilable, type Insertable, type Kysely, type QueryCreator, type RawBuilder } from "kysely";
 import { jsonArrayFrom } from "kysely/helpers/postgres";
-import type {
-  Database,
-  Decision,
-  EvaluationsTable,
-  FlagKind,
-  FlagsTable,
-  NotificationsTable,
-  ReadingMethod,
-  StressingOrder,
-  TendonEnd,
-  Verdict,
-} from "@/db/types";
+import type { Database, EvaluationsTable, FlagsTable, NotificationsTable } from "@/db/types";
+import type { Decision, FlagKind, ReadingMethod, StressingOrder, TendonEnd, Verdict } from "@/lib/schemas/domain";
 import { AppError } from "@/lib/errors";
 import { ENGINE_VERSION, findStrandSize } from "@/lib/elongation";
 import { env } from "@/lib/env";
@@ -405,7 +395,7 @@ export function judgeInputFromState(state: TendonState): JudgeInput {
     project,
     tendon,
     lot,
-    pour: { concreteStrengthMpa: pour.concreteStrengthMpa, concreteFlagOpen: state.pourConcreteFlagOpen ?? false },
+    pour: { concreteStrengthMPa: pour.concreteStrengthMPa, concreteFlagOpen: state.pourConcreteFlagOpen ?? false },
     sets: [...sets.values()],
     records,
     dispositions: state.dispositions.map((d) => ({
@@ -552,7 +542,7 @@ export function planEvaluation(
       governs: judgement.governs,
       pour: {
         id: pour.id,
-        concreteStrengthMpa: pour.concreteStrengthMpa,
+        concreteStrengthMPa: pour.concreteStrengthMPa,
         concreteFlagOpen: state.pourConcreteFlagOpen ?? false,
       },
       readings,

@@ -1,6 +1,7 @@
 import "server-only";
 import { sql, type Kysely } from "kysely";
-import type { Database, FlagKind, FlagStatus, Verdict } from "@/db/types";
+import type { Database } from "@/db/types";
+import type { FlagKind, FlagStatus, Verdict } from "@/lib/schemas/domain";
 import { reference } from "@/lib/format/references";
 import type { FlagFilter } from "@/lib/schemas/review";
 import { recordIsSkewed } from "./find-clock-skews";

@@ -1,6 +1,7 @@
 import "server-only";
 import type { Kysely } from "kysely";
-import type { Database, PourStatus } from "@/db/types";
+import type { Database } from "@/db/types";
+import type { PourStatus } from "@/lib/schemas/domain";
 import { projectTimeZone } from "@/lib/format/dates";
 import { findReleaseBlockers, type ReleaseBlockers } from "./release-pour";
 

@@ -3,7 +3,7 @@ import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { AppError } from "@/lib/errors";
 import { projectTimeZone } from "@/lib/format/dates";
-import type { FlagMailMode } from "@/lib/schemas/flag-mail";
+import type { FlagMailMode } from "@/lib/schemas/domain";
 import { nextShiftEnd } from "@/lib/stressing/shift";
 
 /** A member's flag e-mail choice on a project, with the project's shift ends and the next one. */

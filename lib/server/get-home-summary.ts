@@ -1,6 +1,7 @@
 import "server-only";
 import { sql, type Kysely } from "kysely";
-import type { Database, Role } from "@/db/types";
+import type { Database } from "@/db/types";
+import type { Role } from "@/lib/schemas/domain";
 import { dayInZone } from "@/lib/format/dates";
 import { findFlags, type FlaggedTendon } from "./find-flags";
 import { findReleaseCandidates, type ReleaseCandidate } from "./find-release-candidates";

@@ -1,6 +1,7 @@
 import "server-only";
 import type { Kysely } from "kysely";
-import type { Database, Verdict } from "@/db/types";
+import type { Database } from "@/db/types";
+import type { Verdict } from "@/lib/schemas/domain";
 import {
   apparentModuli,
   equipmentDrift,

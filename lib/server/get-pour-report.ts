@@ -3,7 +3,8 @@ import "server-only";
 import { reference } from "@/lib/format/references";
 import { projectBasisFromRow } from "@/lib/stressing/basis";
 import type { Kysely, Selectable } from "kysely";
-import type { Database, Decision, FlagKind, FlagStatus, ReviewKind } from "@/db/types";
+import type { Database } from "@/db/types";
+import type { Decision, FlagKind, FlagStatus, ReviewKind } from "@/lib/schemas/domain";
 import { ENGINE_VERSION } from "@/lib/elongation";
 import { AppError } from "@/lib/errors";
 import { CALIBRATION_COLUMNS, calibrationFromRow, type Calibration } from "@/lib/schemas/calibration";
@@ -90,7 +91,7 @@ export interface PourReport {
     anchorSetMm: number;
     /** The project's factor of fpu·A for the specified jacking force (0.80 when absent). */
     jackingForceFactor?: number;
-    requiredConcreteMpa: number | null;
+    requiredConcreteMPa: number | null;
   };
   pour: {
     id: string;
@@ -98,7 +99,7 @@ export interface PourReport {
     level: string | null;
     status: string;
     plannedStressingDate: string | null;
-    concreteStrengthMpa: number | null;
+    concreteStrengthMPa: number | null;
     concreteConfirmedBy: string | null;
     concreteConfirmedAt: Date | null;
   };
@@ -283,7 +284,7 @@ export async function getPourReport(
     basis: {
       ...projectBasisFromRow(project),
       groupTolerancePct: project.group_tolerance_pct,
-      requiredConcreteMpa: project.required_concrete_mpa,
+      requiredConcreteMPa: project.required_concrete_mpa,
     },
     pour: {
       id: pour.id,
@@ -291,7 +292,7 @@ export async function getPourReport(
       level: pour.level,
       status: pour.status,
       plannedStressingDate: pour.planned_stressing_date ? asDay(pour.planned_stressing_date) : null,
-      concreteStrengthMpa: pour.concrete_strength_mpa,
+      concreteStrengthMPa: pour.concrete_strength_mpa,
       concreteConfirmedBy: pour.concreteConfirmedBy,
       concreteConfirmedAt: pour.concrete_confirmed_at ? new Date(pour.concrete_confirmed_at) : null,
     },

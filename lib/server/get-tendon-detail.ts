@@ -1,6 +1,7 @@
 import "server-only";
 import type { Db } from "@/db/connect";
-import type { StressingEnds, TendonKind, TendonSegment } from "@/db/types";
+import type { TendonSegment } from "@/db/types";
+import type { StressingEnds, TendonKind } from "@/lib/schemas/domain";
 import { forceProfile, isInputError, type Check, type ForceProfile } from "@/lib/elongation";
 import type { CalibrationState } from "@/lib/schemas/calibration";
 import { predictTendon, targetPressureMPa, type TendonPrediction } from "@/lib/stressing/basis";

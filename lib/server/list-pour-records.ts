@@ -3,7 +3,8 @@ import { storedGaugeOffTarget, storedWireBreaks, type GaugeOffTarget, type WireB
 import "server-only";
 import type { Kysely } from "kysely";
 import { z } from "zod";
-import type { Database, ReadingMethod, TendonEnd, Verdict } from "@/db/types";
+import type { Database } from "@/db/types";
+import type { ReadingMethod, TendonEnd, Verdict } from "@/lib/schemas/domain";
 import { forceFromPressure, pressureForForce } from "@/lib/elongation";
 import { pickCalibration } from "@/lib/schemas/calibration";
 

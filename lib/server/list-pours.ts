@@ -1,6 +1,6 @@
 import "server-only";
 import type { Db } from "@/db/connect";
-import type { PourStatus } from "@/db/types";
+import type { PourStatus } from "@/lib/schemas/domain";
 
 export interface PourSummary {
   id: string;

@@ -1,7 +1,8 @@
 import "server-only";
 import type { Kysely } from "kysely";
 import { z } from "zod";
-import type { Database, StressingEnds, TendonEnd, TendonSegment, Verdict } from "@/db/types";
+import type { Database, TendonSegment } from "@/db/types";
+import type { StressingEnds, TendonEnd, Verdict } from "@/lib/schemas/domain";
 import { forceFromPressure } from "@/lib/elongation";
 import { endTotalMm } from "@/lib/stressing/basis";
 

@@ -1,6 +1,7 @@
 import "server-only";
 import type { Db } from "@/db/connect";
-import type { StressingEnds, TendonKind, TendonSegment, Verdict } from "@/db/types";
+import type { TendonSegment } from "@/db/types";
+import type { StressingEnds, TendonKind, Verdict } from "@/lib/schemas/domain";
 import { AppError } from "@/lib/errors";
 import { predictTendon, projectBasisFromRow, targetPressureMPa } from "@/lib/stressing/basis";
 import { listEquipmentSets } from "./list-equipment-sets";

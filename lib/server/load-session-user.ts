@@ -1,6 +1,6 @@
 import "server-only";
 import type { Db } from "@/db/connect";
-import type { Role } from "@/db/types";
+import type { Role } from "@/lib/schemas/domain";
 
 export interface SessionUser {
   id: string;

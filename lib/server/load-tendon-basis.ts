@@ -1,6 +1,7 @@
 import "server-only";
 import { sql, type Kysely, type QueryCreator } from "kysely";
-import type { Database, TendonKind } from "@/db/types";
+import type { Database } from "@/db/types";
+import type { TendonKind } from "@/lib/schemas/domain";
 import { AppError } from "@/lib/errors";
 import { projectBasisFromRow, type LotBasis, type ProjectBasis, type TendonBasis } from "@/lib/stressing/basis";
 import type { DisplayUnits, StoredResolution } from "@/lib/format/quantities";
@@ -10,14 +11,14 @@ export interface LoadedTendon {
     DisplayUnits & {
       id: string;
       name: string;
-      requiredConcreteMpa: number | null;
+      requiredConcreteMPa: number | null;
       engineerOfRecordName: string | null;
       engineerOfRecordEmail: string | null;
       notifyEmails: string[];
       /** Members of the project who take flag e-mails as a digest per shift. */
       digestEmails?: string[];
     };
-  pour: { id: string; name: string; concreteStrengthMpa: number | null; status: string };
+  pour: { id: string; name: string; concreteStrengthMPa: number | null; status: string };
   tendon: TendonBasis & {
     id: string;
     tag: string;
@@ -124,7 +125,7 @@ export function toLoadedTendon(row: BasisRow): LoadedTendon {
       unitSystem: row.unit_system,
       readingResolution: row.reading_resolution as StoredResolution,
       ...projectBasisFromRow(row),
-      requiredConcreteMpa: row.required_concrete_mpa,
+      requiredConcreteMPa: row.required_concrete_mpa,
       engineerOfRecordName: row.engineer_of_record_name,
       engineerOfRecordEmail: row.engineer_of_record_email,
       notifyEmails: row.notify_emails,
@@ -133,7 +134,7 @@ export function toLoadedTendon(row: BasisRow): LoadedTendon {
     pour: {
       id: row.pourId,
       name: row.pourName,
-      concreteStrengthMpa: row.concrete_strength_mpa,
+      concreteStrengthMPa: row.concrete_strength_mpa,
       status: row.pourStatus,
     },
     tendon: {

@@ -1,6 +1,7 @@
 import "server-only";
 import type { Kysely } from "kysely";
-import type { Database, Decision } from "@/db/types";
+import type { Database } from "@/db/types";
+import type { Decision } from "@/lib/schemas/domain";
 import { env } from "@/lib/env";
 import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
 import { releaseMail, workOrderMail } from "@/lib/mail/templates";

@@ -1,6 +1,7 @@
 import "server-only";
 import type { Kysely, QueryCreator, Transaction } from "kysely";
-import type { AuditOutcome, Database } from "@/db/types";
+import type { Database } from "@/db/types";
+import type { AuditOutcome } from "@/lib/schemas/domain";
 
 export interface AuditEvent {
   action: string;

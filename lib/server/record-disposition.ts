@@ -1,6 +1,7 @@
 import "server-only";
 import type { Kysely } from "kysely";
-import type { Database, Decision } from "@/db/types";
+import type { Database } from "@/db/types";
+import type { Decision } from "@/lib/schemas/domain";
 import { AppError } from "@/lib/errors";
 import type { DispositionInput } from "@/lib/schemas/review";
 import { inTransaction } from "./in-transaction";

@@ -129,8 +129,8 @@ export async function recordTailCut(
         })),
       }),
       openFlags,
-      requiredConcreteMpa: tendon.required_concrete_mpa,
-      concreteStrengthMpa: tendon.concrete_strength_mpa,
+      requiredConcreteMPa: tendon.required_concrete_mpa,
+      concreteStrengthMPa: tendon.concrete_strength_mpa,
     });
     const alreadyCut = existing.length > 0;
     const stored: StoredResult = {

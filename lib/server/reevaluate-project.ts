@@ -1,6 +1,7 @@
 import "server-only";
 import type { Kysely } from "kysely";
-import type { Database, FlagKind, Verdict } from "@/db/types";
+import type { Database } from "@/db/types";
+import type { FlagKind, Verdict } from "@/lib/schemas/domain";
 import {
   evaluationWrites,
   planEvaluation,

@@ -1,7 +1,8 @@
 import "server-only";
 import { isDeepStrictEqual } from "node:util";
 import type { Kysely } from "kysely";
-import type { Database, Role } from "@/db/types";
+import type { Database } from "@/db/types";
+import type { Role } from "@/lib/schemas/domain";
 import { AppError } from "@/lib/errors";
 import { stressedEnds } from "@/lib/stressing/basis";
 import { inTransaction } from "./in-transaction";

@@ -1,6 +1,7 @@
 import "server-only";
 import type { Kysely } from "kysely";
-import type { Database, Role } from "@/db/types";
+import type { Database } from "@/db/types";
+import type { Role } from "@/lib/schemas/domain";
 import { AppError } from "@/lib/errors";
 import { inTransaction } from "./in-transaction";
 import { recordAudit } from "./record-audit";

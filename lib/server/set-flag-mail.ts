@@ -2,7 +2,7 @@ import "server-only";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { AppError } from "@/lib/errors";
-import type { FlagMailMode } from "@/lib/schemas/flag-mail";
+import type { FlagMailMode } from "@/lib/schemas/domain";
 import { queueDigest } from "./queue-shift-digests";
 import { recordAudit } from "./record-audit";
 

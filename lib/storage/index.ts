@@ -4,7 +4,8 @@ import { DeleteObjectCommand, GetObjectCommand, PutObjectCommand } from "@aws-sd
 import { getSignedUrl } from "@aws-sdk/s3-request-presigner";
 import { fileTypeFromBuffer } from "file-type";
 import type { Kysely, Transaction } from "kysely";
-import type { AttachmentPurpose, Database } from "@/db/types";
+import type { Database } from "@/db/types";
+import type { AttachmentPurpose } from "@/lib/schemas/domain";
 import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
 import { ALLOWED_TYPES, PURPOSE_LABELS, acceptedTypesText } from "@/lib/schemas/upload";

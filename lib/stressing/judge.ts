@@ -12,6 +12,7 @@ import {
   type Verdict,
 } from "@/lib/elongation";
 import { dayInZone } from "@/lib/format/dates";
+import type { ComparisonBasis, GoverningValue, ReadingMethod, StressingOrder } from "@/lib/schemas/domain";
 import { pickCalibration } from "@/lib/schemas/pick-calibration";
 import type { GaugeOffTarget, GaugeStepSI, WireBreak } from "@/lib/schemas/record";
 import { resolutionStepMm } from "@/lib/units";
@@ -42,9 +43,7 @@ import { readingResolution, type DisplayUnits } from "@/lib/format/quantities";
  * share meets where the two friction paths give equal force.
  */
 
-export type ReadingMethod = "marks" | "strokes";
-export type ComparisonBasis = "net" | "gross";
-export type StressingOrder = "sequential" | "simultaneous";
+export type { ComparisonBasis, GoverningValue, ReadingMethod, StressingOrder };
 
 /** Defaults of the settings this module added; a project row may not carry them yet. */
 export const JUDGING_DEFAULTS = {
@@ -58,9 +57,6 @@ export const JUDGING_DEFAULTS = {
   governing: "tautline" as GoverningValue,
 } as const;
 
-/** Which prediction a verdict is judged against: Tautline's, or the approved shop drawing's. */
-export type GoverningValue = "tautline" | "shop_drawing";
-
 export interface JudgeProject extends ProjectBasis, DisplayUnits {
   timeZone?: string;
   /** Which prediction governs the verdict; Tautline's when absent. */
@@ -68,7 +64,7 @@ export interface JudgeProject extends ProjectBasis, DisplayUnits {
   jackingForceFactor?: number;
   underForcePct?: number;
   seatingExcessMm?: number;
-  requiredConcreteMpa?: number | null;
+  requiredConcreteMPa?: number | null;
 }
 
 export interface JudgeCalibration {
@@ -152,7 +148,7 @@ export interface JudgeInput {
   tendon: TendonBasis & { shopElongationMm?: number | null; tag?: string };
   lot: LotBasis | null;
   /** `concreteFlagOpen`: the pour already has an open concrete flag (the concrete rule raises one per pour). */
-  pour?: { concreteStrengthMpa: number | null; concreteFlagOpen?: boolean };
+  pour?: { concreteStrengthMPa: number | null; concreteFlagOpen?: boolean };
   sets: JudgeSet[];
   /** Every revision of every record of the tendon. */
   records: JudgeRecord[];

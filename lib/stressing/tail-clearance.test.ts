@@ -5,8 +5,8 @@ const base: ClearanceInput = {
   ends: "both",
   recordedEnds: ["A", "B"],
   openFlags: [],
-  requiredConcreteMpa: 20,
-  concreteStrengthMpa: 24,
+  requiredConcreteMPa: 20,
+  concreteStrengthMPa: 24,
 };
 
 describe("tailClearance", () => {
@@ -31,15 +31,15 @@ describe("tailClearance", () => {
   });
 
   it("holds while the concrete strength is unconfirmed or below the requirement, and passes at equality", () => {
-    expect(tailClearance({ ...base, concreteStrengthMpa: null }).reasons).toEqual([
+    expect(tailClearance({ ...base, concreteStrengthMPa: null }).reasons).toEqual([
       "Concrete strength not confirmed (20.0 MPa required).",
     ]);
-    expect(tailClearance({ ...base, concreteStrengthMpa: 19.9 }).clear).toBe(false);
-    expect(tailClearance({ ...base, concreteStrengthMpa: 20 }).clear).toBe(true);
+    expect(tailClearance({ ...base, concreteStrengthMPa: 19.9 }).clear).toBe(false);
+    expect(tailClearance({ ...base, concreteStrengthMPa: 20 }).clear).toBe(true);
   });
 
   it("has no concrete gate when the project requires no strength", () => {
-    expect(tailClearance({ ...base, requiredConcreteMpa: null, concreteStrengthMpa: null }).clear).toBe(true);
+    expect(tailClearance({ ...base, requiredConcreteMPa: null, concreteStrengthMPa: null }).clear).toBe(true);
   });
 
   it("lists every reason at once", () => {
@@ -47,7 +47,7 @@ describe("tailClearance", () => {
       ...base,
       openFlags: [{ kind: "a" }, { kind: "b" }],
       recordedEnds: [],
-      concreteStrengthMpa: null,
+      concreteStrengthMPa: null,
     });
     expect(c.reasons).toHaveLength(3);
     expect(c.reasons[0]).toBe("2 flags are still open.");

@@ -19,8 +19,8 @@ export interface ClearanceInput {
   recordedEnds: readonly ("A" | "B")[];
   /** Flags on the tendon that are not closed. */
   openFlags: readonly { kind: string }[];
-  requiredConcreteMpa: number | null;
-  concreteStrengthMpa: number | null;
+  requiredConcreteMPa: number | null;
+  concreteStrengthMPa: number | null;
   /** The project's units for the strengths in the reasons (SI when not given). */
   unitSystem?: "us" | "si";
   /** Ends not stressed again since the tendon's last detension (`awaitingRestress`); empty or absent when none. */
@@ -63,9 +63,9 @@ export function tailClearance(input: ClearanceInput): Clearance {
     reasons.push(`Detensioned: restress required (no record since the detension at end ${waiting.join(" and ")}).`);
   const missing = scheduledEnds(input.ends).filter((e) => !input.recordedEnds.includes(e));
   if (missing.length) reasons.push(`No record yet for end ${missing.join(" and ")}.`);
-  const required = input.requiredConcreteMpa;
+  const required = input.requiredConcreteMPa;
   if (required !== null) {
-    const strength = input.concreteStrengthMpa;
+    const strength = input.concreteStrengthMPa;
     const show = (mpa: number) => showStrength({ unitSystem: input.unitSystem ?? "si" }, mpa);
     if (strength === null) reasons.push(`Concrete strength not confirmed (${show(required)} required).`);
     else if (strength < required)

@@ -6,6 +6,8 @@
 export const MM_PER_INCH = 25.4;
 export const MM_PER_FOOT = 304.8;
 export const MM2_PER_IN2 = 645.16;
+/** 1 ft² = 0.3048² m² exactly (a pour's area). */
+export const M2_PER_FT2 = 0.09290304;
 /** 1 lbf = 0.45359237 kg × 9.80665 m/s². */
 export const N_PER_LBF = 4.4482216152605;
 export const N_PER_KIP = 4448.2216152605;
@@ -21,6 +23,8 @@ export const ftToMm = (feet: number): number => feet * MM_PER_FOOT;
 export const mmToFt = (mm: number): number => mm / MM_PER_FOOT;
 export const in2ToMm2 = (in2: number): number => in2 * MM2_PER_IN2;
 export const mm2ToIn2 = (mm2: number): number => mm2 / MM2_PER_IN2;
+export const ft2ToM2 = (ft2: number): number => ft2 * M2_PER_FT2;
+export const m2ToFt2 = (m2: number): number => m2 / M2_PER_FT2;
 
 export const lbfToN = (lbf: number): number => lbf * N_PER_LBF;
 export const nToLbf = (n: number): number => n / N_PER_LBF;

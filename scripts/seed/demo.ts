@@ -6,7 +6,8 @@ import { psiToMPa } from "@/lib/units";
 import { DEMO_TIME_ZONE, demoDay, demoInstant } from "./demo-site";
 import { seedDemoRecords } from "./demo-records";
 import type { Kysely } from "kysely";
-import type { Database, Role, StressingEnds, TendonSegment } from "@/db/types";
+import type { Database, TendonSegment } from "@/db/types";
+import type { Role, StressingEnds } from "@/lib/schemas/domain";
 
 export { DEMO_TIME_ZONE, demoDay, demoInstant };
 

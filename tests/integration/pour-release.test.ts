@@ -1,4 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it, onTestFinished } from "vitest";
 import { createDb, type Db } from "@/db/connect";
 import { pourSchema } from "@/lib/schemas/pour";
 import { releaseSchema, reopenSchema } from "@/lib/schemas/review";
@@ -16,19 +16,83 @@ import { releasePour } from "@/lib/server/release-pour";
 import { reopenPour } from "@/lib/server/reopen-pour";
 import { pourReportContentSha256 } from "@/lib/server/sign-pour-report";
 import { createTestDatabase, type TestDatabase } from "../support/database";
+import { makePour, makeTendons } from "../support/factories";
 import { buildWorld, createOp, type SyncWorld } from "./sync-fixtures";
 
 let t: TestDatabase;
 let w: SyncWorld;
 let app: Db;
-let pourId: string;
-let tendonIds: string[];
 let people: Record<"admin" | "inspector" | "engineer", { id: string; name: string }>;
-const DEVICE = "tablet-release-01";
 
-const stateOf = async () =>
+/**
+ * Each test makes the pour it is about (`newPour`, `stressedPour`, `releasedPour`), so any of them
+ * passes alone and in any order: a pour of our own in the demo project with one-end tendons copied
+ * from the demo schedule, its concrete confirmed, and a tablet of its own.
+ */
+interface TestPour {
+  pourId: string;
+  tendonIds: string[];
+  device: string;
+}
+
+async function newPour(name: string, tendons = 2): Promise<TestPour> {
+  const demoPour = await t.db
+    .selectFrom("pours")
+    .select(["concrete_strength_mpa"])
+    .where("id", "=", w.pourId)
+    .executeTakeFirstOrThrow();
+  const pour = await makePour(t.db, w.projectId, { name, concreteStrengthMPa: demoPour.concrete_strength_mpa });
+  const sources = w.tendons.filter((x) => x.ends === "A").slice(0, tendons);
+  const tendonIds: string[] = [];
+  for (const [i, source] of sources.entries()) {
+    const s = await t.db.selectFrom("tendons").selectAll().where("id", "=", source.id).executeTakeFirstOrThrow();
+    const [row] = await makeTendons(t.db, { projectId: w.projectId, pourId: pour.id }, [`RT-${i + 1}`], {
+      kind: s.kind,
+      strandSize: s.strand_size,
+      strandCount: s.strand_count,
+      segments: s.segments,
+      ends: s.ends,
+      jackGripMm: s.jack_grip_mm,
+      strandLotId: s.strand_lot_id,
+    });
+    tendonIds.push(row!.id);
+  }
+  return { pourId: pour.id, tendonIds, device: `tablet-${pour.id.slice(0, 8)}` };
+}
+
+/** The crew's in-band record of one tendon of the pour, as the tablet sends it. */
+const inBandOp = async (pour: TestPour, tendonId: string) =>
+  createOp(w, tendonId, { marksAfter: await w.inBandAfter(tendonId) }, { pourId: pour.pourId });
+
+/** A pour whose every tendon has an in-band record (status "stressed"). */
+async function stressedPour(name: string, tendons = 2): Promise<TestPour> {
+  const pour = await newPour(name, tendons);
+  for (const tendonId of pour.tendonIds) {
+    const pushed = await pushOps(app, { user: w.crew, deviceId: pour.device, ops: [await inBandOp(pour, tendonId)] });
+    expect(pushed.results[0]).toMatchObject({ status: "applied", evaluation: { verdict: "in band", flagKinds: [] } });
+  }
+  return pour;
+}
+
+const FIRST_RELEASE = "Both tendons in band; tails may be cut.";
+
+/** A stressed pour the engineer has released. */
+async function releasedPour(name: string): Promise<TestPour> {
+  const pour = await stressedPour(name);
+  await releasePour(t.db, {
+    projectId: w.projectId,
+    pourId: pour.pourId,
+    by: engineer(),
+    statement: FIRST_RELEASE,
+    signerName: "Dana Okafor",
+    licence: "PE 048213 (invented)",
+  });
+  return pour;
+}
+
+const stateOf = async (pourId: string) =>
   t.db.selectFrom("pour_states").selectAll().where("pour_id", "=", pourId).executeTakeFirstOrThrow();
-const recordCount = async () =>
+const recordCount = async (pourId: string) =>
   Number(
     (
       await t.db
@@ -38,8 +102,6 @@ const recordCount = async () =>
         .executeTakeFirstOrThrow()
     ).n,
   );
-const inBandOp = async (tendonId: string) =>
-  createOp(w, tendonId, { marksAfter: await w.inBandAfter(tendonId) }, { pourId });
 /** The crew member as the pull sees a session: their project memberships. */
 const crewSession = () =>
   ({
@@ -51,44 +113,6 @@ beforeAll(async () => {
   t = await createTestDatabase({ migrate: true });
   w = await buildWorld(t.db);
   app = createDb(t.url, 3, { prepare: true });
-  // A pour of our own with two one-end tendons copied from the demo schedule, its concrete confirmed.
-  const demoPour = await t.db
-    .selectFrom("pours")
-    .select(["concrete_strength_mpa"])
-    .where("id", "=", w.pourId)
-    .executeTakeFirstOrThrow();
-  const pour = await t.db
-    .insertInto("pours")
-    .values({
-      project_id: w.projectId,
-      name: "Release test pour",
-      concrete_strength_mpa: demoPour.concrete_strength_mpa,
-    })
-    .returning("id")
-    .executeTakeFirstOrThrow();
-  pourId = pour.id;
-  const oneEnd = w.tendons.filter((x) => x.ends === "A").slice(0, 2);
-  tendonIds = [];
-  for (const [i, source] of oneEnd.entries()) {
-    const s = await t.db.selectFrom("tendons").selectAll().where("id", "=", source.id).executeTakeFirstOrThrow();
-    const row = await t.db
-      .insertInto("tendons")
-      .values({
-        project_id: s.project_id,
-        pour_id: pourId,
-        tag: `RT-${i + 1}`,
-        kind: s.kind,
-        strand_size: s.strand_size,
-        strand_count: s.strand_count,
-        segments: JSON.stringify(s.segments),
-        ends: s.ends,
-        jack_grip_mm: s.jack_grip_mm,
-        strand_lot_id: s.strand_lot_id,
-      })
-      .returning("id")
-      .executeTakeFirstOrThrow();
-    tendonIds.push(row.id);
-  }
   const user = (email: string) =>
     t.db.selectFrom("users").select(["id", "name"]).where("email", "=", email).executeTakeFirstOrThrow();
   people = {
@@ -104,13 +128,23 @@ afterAll(async () => {
 
 describe("a pour's status follows from its records and its release", () => {
   it("is planned, then stressing, then stressed, and the pour form cannot set it", async () => {
-    expect((await stateOf()).status).toBe("planned");
-    const first = await pushOps(app, { user: w.crew, deviceId: DEVICE, ops: [await inBandOp(tendonIds[0]!)] });
+    const pour = await newPour("Status pour");
+    const { pourId, tendonIds } = pour;
+    expect((await stateOf(pourId)).status).toBe("planned");
+    const first = await pushOps(app, {
+      user: w.crew,
+      deviceId: pour.device,
+      ops: [await inBandOp(pour, tendonIds[0]!)],
+    });
     expect(first.results[0]).toMatchObject({ status: "applied", evaluation: { verdict: "in band", flagKinds: [] } });
-    expect((await stateOf()).status).toBe("stressing");
-    const second = await pushOps(app, { user: w.crew, deviceId: DEVICE, ops: [await inBandOp(tendonIds[1]!)] });
+    expect((await stateOf(pourId)).status).toBe("stressing");
+    const second = await pushOps(app, {
+      user: w.crew,
+      deviceId: pour.device,
+      ops: [await inBandOp(pour, tendonIds[1]!)],
+    });
     expect(second.results[0]).toMatchObject({ status: "applied", evaluation: { flagKinds: [] } });
-    expect((await stateOf()).status).toBe("stressed");
+    expect((await stateOf(pourId)).status).toBe("stressed");
 
     const set = pourSchema.safeParse({
       name: "X",
@@ -132,6 +166,7 @@ describe("a pour's status follows from its records and its release", () => {
 
 describe("release", () => {
   it("is refused to an admin, the inspector (on an engineer-released project) and the crew; the statement must be confirmed", async () => {
+    const { pourId } = await stressedPour("Release refused pour");
     for (const role of ["admin", "inspector"] as const) {
       await expect(
         releasePour(t.db, {
@@ -154,7 +189,7 @@ describe("release", () => {
         licence: "PE 048213 (invented)",
       }),
     ).rejects.toMatchObject({ code: "FORBIDDEN" });
-    expect((await stateOf()).status).toBe("stressed");
+    expect((await stateOf(pourId)).status).toBe("stressed");
     const unconfirmed = releaseSchema.safeParse({ statement: "All tendons accepted; tails may be cut." });
     expect(unconfirmed.error?.issues.map((i) => i.path.join("."))).toEqual(["signerName", "licence", "confirmed"]);
     expect(
@@ -163,6 +198,8 @@ describe("release", () => {
   });
 
   it("by the engineer freezes the pour: the push answers rejected, and no tendon or correction is taken", async () => {
+    const pour = await stressedPour("Release pour");
+    const { pourId, tendonIds } = pour;
     const cursorBefore = (await pullChanges(t.db, { user: crewSession(), cursor: "0", pourIds: [pourId] })).cursor;
     await releasePour(t.db, {
       projectId: w.projectId,
@@ -172,7 +209,7 @@ describe("release", () => {
       signerName: "Dana Okafor",
       licence: "PE 048213 (invented)",
     });
-    const state = await stateOf();
+    const state = await stateOf(pourId);
     expect(state).toMatchObject({ status: "released", released_by_name: people.engineer.name });
     await expect(
       releasePour(t.db, {
@@ -196,8 +233,12 @@ describe("release", () => {
       }),
     ]);
 
-    const before = await recordCount();
-    const pushed = await pushOps(app, { user: w.crew, deviceId: DEVICE, ops: [await inBandOp(tendonIds[0]!)] });
+    const before = await recordCount(pourId);
+    const pushed = await pushOps(app, {
+      user: w.crew,
+      deviceId: pour.device,
+      ops: [await inBandOp(pour, tendonIds[0]!)],
+    });
     expect(pushed.results[0]).toMatchObject({
       status: "rejected",
       error: {
@@ -207,8 +248,8 @@ describe("release", () => {
         ),
       },
     });
-    expect(await recordCount()).toBe(before);
-    const claims = await t.db.selectFrom("applied_ops").select("op_id").where("device_id", "=", DEVICE).execute();
+    expect(await recordCount(pourId)).toBe(before);
+    const claims = await t.db.selectFrom("applied_ops").select("op_id").where("device_id", "=", pour.device).execute();
     expect(claims).toHaveLength(2);
 
     const template = await t.db
@@ -249,11 +290,12 @@ describe("release", () => {
         correction: { reason: "Copied from the wrong line.", measuredMm: 200 },
       }),
     ).rejects.toMatchObject({ code: "CONFLICT" });
-    expect(await recordCount()).toBe(before);
+    expect(await recordCount(pourId)).toBe(before);
     expect(await t.db.selectFrom("tendons").select("id").where("pour_id", "=", pourId).execute()).toHaveLength(2);
   });
 
   it("is also enforced by the database, whatever path a write comes by", async () => {
+    const { pourId, tendonIds } = await releasedPour("Database-guarded pour");
     const source = await t.db.selectFrom("records").selectAll().where("pour_id", "=", pourId).executeTakeFirstOrThrow();
     await expect(
       t.db
@@ -275,6 +317,7 @@ describe("release", () => {
 
 describe("reopen", () => {
   it("is the engineer's alone, needs a confirmed reason, and is refused on a pour that is not released", async () => {
+    const { pourId } = await releasedPour("Reopen refused pour");
     for (const role of ["admin", "inspector"] as const) {
       await expect(
         reopenPour(t.db, {
@@ -287,13 +330,19 @@ describe("reopen", () => {
     }
     expect(reopenSchema.safeParse({ reason: "short", confirmed: true }).success).toBe(false);
     expect(reopenSchema.safeParse({ reason: "Lift-off check ordered on RT-1.", confirmed: false }).success).toBe(false);
-    const other = await t.db.selectFrom("pours").select("id").where("name", "=", "L3 Pour 1").executeTakeFirstOrThrow();
+    const stressed = await stressedPour("Never released pour");
     await expect(
-      reopenPour(t.db, { projectId: w.projectId, pourId: other.id, by: engineer(), reason: "Nothing to reopen here." }),
+      reopenPour(t.db, {
+        projectId: w.projectId,
+        pourId: stressed.pourId,
+        by: engineer(),
+        reason: "Nothing to reopen here.",
+      }),
     ).rejects.toMatchObject({ code: "CONFLICT" });
   });
 
   it("lets records in again, is audited and shown with the pour, and the pour can be released anew", async () => {
+    const { pourId, tendonIds } = await releasedPour("Reopened pour");
     const cursorBefore = (await pullChanges(t.db, { user: crewSession(), cursor: "0", pourIds: [pourId] })).cursor;
     await reopenPour(t.db, {
       projectId: w.projectId,
@@ -301,7 +350,7 @@ describe("reopen", () => {
       by: engineer(),
       reason: "Lift-off check ordered on RT-1 after the site visit.",
     });
-    const state = await stateOf();
+    const state = await stateOf(pourId);
     expect(state).toMatchObject({ status: "stressed", release_id: null, last_reopened_by_name: people.engineer.name });
     // The reopened release no longer stands: the report and the tendon page show none.
     expect(await findStandingRelease(t.db, { projectId: w.projectId, pourId })).toBeUndefined();
@@ -344,6 +393,14 @@ describe("reopen", () => {
     expect(corrected.evaluation).toMatchObject({ verdict: "in band" });
 
     // The list shows its times in the project's zone, not the server's or UTC.
+    const { time_zone: zoneBefore } = await t.db
+      .selectFrom("projects")
+      .select("time_zone")
+      .where("id", "=", w.projectId)
+      .executeTakeFirstOrThrow();
+    onTestFinished(async () => {
+      await t.db.updateTable("projects").set({ time_zone: zoneBefore }).where("id", "=", w.projectId).execute();
+    });
     await t.db.updateTable("projects").set({ time_zone: "America/Denver" }).where("id", "=", w.projectId).execute();
     const [candidate] = (await findReleaseCandidates(t.db, [w.projectId])).filter((c) => c.pourId === pourId);
     expect(candidate).toMatchObject({
@@ -361,17 +418,14 @@ describe("reopen", () => {
       signerName: "Dana Okafor",
       licence: "PE 048213 (invented)",
     });
-    expect((await stateOf()).status).toBe("released");
+    expect((await stateOf(pourId)).status).toBe("released");
     const releases = await t.db
       .selectFrom("releases")
       .select("statement")
       .where("pour_id", "=", pourId)
       .orderBy("created_at")
       .execute();
-    expect(releases.map((r) => r.statement)).toEqual([
-      "Both tendons in band; tails may be cut.",
-      "Lift-off checked; released again.",
-    ]);
+    expect(releases.map((r) => r.statement)).toEqual([FIRST_RELEASE, "Lift-off checked; released again."]);
     // The report names the release that stands, not the first one found.
     expect((await getPourReport(t.db, { projectId: w.projectId, pourId })).release).toMatchObject({
       statement: "Lift-off checked; released again.",
@@ -388,7 +442,7 @@ describe("decisions sync down", () => {
     const tendonId = w.tendons.find((x) => x.ends === "A")!.id;
     const start = (await pullChanges(t.db, { user: crewSession(), cursor: "0", pourIds: [w.pourId] })).cursor;
     const long = createOp(w, tendonId, { marksAfter: "9" });
-    const pushed = await pushOps(app, { user: w.crew, deviceId: DEVICE, ops: [long] });
+    const pushed = await pushOps(app, { user: w.crew, deviceId: "tablet-decisions", ops: [long] });
     expect(pushed.results[0]).toMatchObject({ status: "applied", evaluation: { verdict: "long" } });
 
     const first = await pullChanges(t.db, { user: crewSession(), cursor: start, pourIds: [w.pourId] });
@@ -421,41 +475,6 @@ describe("decisions sync down", () => {
 });
 
 describe("the release's report hash", () => {
-  /** A pour of our own with one one-end tendon copied from the demo schedule, stressed in band. */
-  async function stressedPour(name: string): Promise<{ pourId: string; tendonId: string }> {
-    const source = w.tendons.find((x) => x.ends === "A")!;
-    const s = await t.db.selectFrom("tendons").selectAll().where("id", "=", source.id).executeTakeFirstOrThrow();
-    const demoPour = await t.db
-      .selectFrom("pours")
-      .select(["concrete_strength_mpa"])
-      .where("id", "=", w.pourId)
-      .executeTakeFirstOrThrow();
-    const pour = await t.db
-      .insertInto("pours")
-      .values({ project_id: w.projectId, name, concrete_strength_mpa: demoPour.concrete_strength_mpa })
-      .returning("id")
-      .executeTakeFirstOrThrow();
-    const tendon = await t.db
-      .insertInto("tendons")
-      .values({
-        project_id: s.project_id,
-        pour_id: pour.id,
-        tag: "HT-1",
-        kind: s.kind,
-        strand_size: s.strand_size,
-        strand_count: s.strand_count,
-        segments: JSON.stringify(s.segments),
-        ends: s.ends,
-        jack_grip_mm: s.jack_grip_mm,
-        strand_lot_id: s.strand_lot_id,
-      })
-      .returning("id")
-      .executeTakeFirstOrThrow();
-    const op = createOp(w, tendon.id, { marksAfter: await w.inBandAfter(tendon.id) }, { pourId: pour.id });
-    const pushed = await pushOps(app, { user: w.crew, deviceId: DEVICE, ops: [op] });
-    expect(pushed.results[0]).toMatchObject({ status: "applied", evaluation: { verdict: "in band" } });
-    return { pourId: pour.id, tendonId: tendon.id };
-  }
   const release = (pour: string, hooks?: Parameters<typeof releasePour>[1]["hooks"]) =>
     releasePour(t.db, {
       projectId: w.projectId,
@@ -468,14 +487,14 @@ describe("the release's report hash", () => {
     });
 
   it("is the report drawn before the lock when nothing changed in between", async () => {
-    const pour = await stressedPour("Hash pour, quiet");
+    const pour = await stressedPour("Hash pour, quiet", 1);
     const before = await pourReportContentSha256(t.db, { projectId: w.projectId, pourId: pour.pourId });
     const released = await release(pour.pourId);
     expect(released).toMatchObject({ contentSha256: before, redrawn: false });
   });
 
   it("covers a record that arrives between the draw and the lock: the report is drawn again under the lock", async () => {
-    const pour = await stressedPour("Hash pour, late record");
+    const pour = await stressedPour("Hash pour, late record", 1);
     const before = await pourReportContentSha256(t.db, { projectId: w.projectId, pourId: pour.pourId });
     let withLateRecord = "";
     let lateRecordId = "";
@@ -485,7 +504,7 @@ describe("the release's report hash", () => {
         const record = await t.db
           .selectFrom("records")
           .select(["id", "measured_mm"])
-          .where("tendon_id", "=", pour.tendonId)
+          .where("tendon_id", "=", pour.tendonIds[0]!)
           .executeTakeFirstOrThrow();
         const corrected = await correctRecord(t.db, {
           projectId: w.projectId,
@@ -510,7 +529,7 @@ describe("the release's report hash", () => {
   });
 
   it("draws nothing for a release that is refused", async () => {
-    const pour = await stressedPour("Hash pour, refused");
+    const pour = await stressedPour("Hash pour, refused", 1);
     let drawn = false;
     await expect(
       releasePour(t.db, {

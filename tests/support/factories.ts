@@ -1,5 +1,6 @@
 import type { Db } from "@/db/connect";
-import type { StressingEnds, TendonSegment } from "@/db/types";
+import type { TendonSegment } from "@/db/types";
+import type { StressingEnds } from "@/lib/schemas/domain";
 import type { TendonInput } from "@/lib/schemas/tendon";
 
 /**

@@ -1,6 +1,6 @@
 import { uuidv7 } from "uuidv7";
 import type { Db } from "@/db/connect";
-import type { TendonEnd } from "@/db/types";
+import type { TendonEnd } from "@/lib/schemas/domain";
 
 /** Fixtures for tests that need stressing records without going through the tablet's sync. */
 

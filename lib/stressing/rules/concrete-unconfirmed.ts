@@ -9,9 +9,9 @@ import type { Rule } from "./types";
  * tablet asked for it with the record, or says that none came.
  */
 export const concreteUnconfirmed: Rule = ({ input, judgement }) => {
-  const required = input.project.requiredConcreteMpa ?? null;
+  const required = input.project.requiredConcreteMPa ?? null;
   if (!judgement.ends.length || required === null || !input.pour || input.pour.concreteFlagOpen) return null;
-  const strength = input.pour.concreteStrengthMpa;
+  const strength = input.pour.concreteStrengthMPa;
   if (strength !== null && strength >= required) return null;
   const show = (mpa: number) => showStrength(input.project, mpa);
   const goAhead = [

@@ -35,7 +35,7 @@ function base(): JudgeInput {
       unitSystem: "si",
       readingResolution: "1mm",
       timeZone: "America/Chicago",
-      requiredConcreteMpa: 20,
+      requiredConcreteMPa: 20,
     },
     tendon: {
       strandSize: "0.5 in",
@@ -45,7 +45,7 @@ function base(): JudgeInput {
       jackGripMm: null,
     },
     lot: null,
-    pour: { concreteStrengthMpa: 25 },
+    pour: { concreteStrengthMPa: 25 },
     sets: [{ id: "set", name: "Jack 1", jackGripMm: null, maxForceN: null, calibrations: [CAL] }],
     records: [],
   };
@@ -374,7 +374,7 @@ const cases: Record<RuleKind, Case[]> = {
     { name: "confirmed above", change: (i) => ({ ...i, records: [rec({ measuredMm: P })] }), raised: false },
     {
       name: "not confirmed",
-      change: (i) => ({ ...i, pour: { concreteStrengthMpa: null }, records: [rec({ measuredMm: P })] }),
+      change: (i) => ({ ...i, pour: { concreteStrengthMPa: null }, records: [rec({ measuredMm: P })] }),
       raised: true,
       reason: /before the pour's concrete strength.*No reason to go ahead came with the record\./,
     },
@@ -382,7 +382,7 @@ const cases: Record<RuleKind, Case[]> = {
       name: "not confirmed, with the crew's reason to go ahead",
       change: (i) => ({
         ...i,
-        pour: { concreteStrengthMpa: null },
+        pour: { concreteStrengthMPa: null },
         records: [rec({ measuredMm: P, concreteGoAhead: "Inspector read the cylinders on site." })],
       }),
       raised: true,
@@ -390,7 +390,7 @@ const cases: Record<RuleKind, Case[]> = {
     },
     {
       name: "below",
-      change: (i) => ({ ...i, pour: { concreteStrengthMpa: 15 }, records: [rec({ measuredMm: P })] }),
+      change: (i) => ({ ...i, pour: { concreteStrengthMPa: 15 }, records: [rec({ measuredMm: P })] }),
       raised: true,
       reason: /below the 20.0 MPa/,
     },
@@ -398,7 +398,7 @@ const cases: Record<RuleKind, Case[]> = {
       name: "not confirmed, but the pour already has an open concrete flag (one per pour)",
       change: (i) => ({
         ...i,
-        pour: { concreteStrengthMpa: null, concreteFlagOpen: true },
+        pour: { concreteStrengthMPa: null, concreteFlagOpen: true },
         records: [rec({ measuredMm: P })],
       }),
       raised: false,

@@ -1,7 +1,7 @@
 import { db } from "@/db";
 import { authorize } from "@/lib/auth/authorize";
 import { route } from "@/lib/http/route";
-import { pourParamsSchema } from "@/lib/schemas/sync";
+import { fieldPourParamsSchema } from "@/lib/schemas/sync";
 import { pullResponseSchema } from "@/lib/schemas/sync-response";
 import { projectOfPour } from "@/lib/server/list-field-pours";
 import { pullChanges } from "@/lib/server/pull-changes";
@@ -9,7 +9,7 @@ import { pullChanges } from "@/lib/server/pull-changes";
 // Download for offline: everything the tablet needs about one pour, with the cursor to pull from.
 export const GET = route(
   {
-    params: pourParamsSchema,
+    params: fieldPourParamsSchema,
     access: async ({ params }) => authorize("record.create", await projectOfPour(db, params.pourId)),
     response: pullResponseSchema,
   },
