@@ -4,7 +4,7 @@ import type { Database } from "@/db/types";
 import type { SignatureBlock } from "@/lib/reports/pdf-frame";
 import { renderPourPdf } from "@/lib/reports/pour-pdf";
 import { describeChanges, pourSnapshot, type ReportSnapshot } from "@/lib/reports/report-changes";
-import { getPourReport } from "./get-pour-report";
+import { getPourReport, type PourReport } from "./get-pour-report";
 import { sha256 } from "./sign-report-revision";
 
 /** A signed revision: what its signature block prints, and the sha256 of the file as stored. */
@@ -13,7 +13,7 @@ export interface ReportRevision extends SignatureBlock {
 }
 
 /**
- * The signed revisions of a pour's stressing report, newest first, and whether the report as it
+ * The pour's stressing report as it stands, its signed revisions newest first, and whether the report as it
  * stands now is the last one signed or has changed since (and what changed), so a new signature
  * is asked for.
  */
@@ -21,6 +21,7 @@ export async function listReportRevisions(
   db: Kysely<Database>,
   input: { projectId: string; pourId: string },
 ): Promise<{
+  report: PourReport;
   timeZone: string;
   revisions: ReportRevision[];
   current: { contentSha256: string; signed: boolean; changesSinceSigned: string[] };
@@ -49,6 +50,7 @@ export async function listReportRevisions(
   const contentSha256 = sha256(await renderPourPdf(report));
   const last = rows[0];
   return {
+    report,
     timeZone: report.timeZone,
     revisions: rows.map((r) => ({
       revision: r.revision,
