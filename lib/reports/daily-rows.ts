@@ -80,7 +80,7 @@ export function dailySummary(report: DailyReport): string {
     `${plural(records.length, "stressing record")} on ${plural(report.pours.filter((p) => p.records.length).length, "pour")} ` +
     `(${count("in band")} in band, ${count("long")} long, ${count("short")} short, ` +
     `${records.length - count("in band") - count("long") - count("short")} incomplete or not evaluated); ` +
-    `${records.filter((r) => r.stressing > 1).length} of them restresses or lift-offs. ` +
+    `${records.filter((r) => r.stressing > 1).length} of them restresses. ` +
     `${plural(flags, "flag")} raised, ${plural(dispositions, "disposition")} recorded, ` +
     `${plural(report.concrete.length, "concrete result")} entered, ${plural(report.tailCuts.length, "tendon")} with tails cut.`
   );
