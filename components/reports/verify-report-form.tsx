@@ -18,6 +18,7 @@ type Answer =
       licence: string;
       signedAt: string;
       latest: boolean;
+      supersededBy: number | null;
     };
 
 async function sha256Hex(file: File): Promise<string> {
@@ -59,7 +60,7 @@ export function VerifyReportForm() {
               `Matches revision ${a.revision} of ${what}, ${a.project}, signed by ${a.signerName} (${a.licence}) on ${formatDateTime(a.signedAt, "UTC")}. ` +
               (a.latest
                 ? "It is the latest signed revision."
-                : "A later revision has been signed since: ask for the current one."),
+                : `Superseded: revision ${a.supersededBy ?? "a later one"} has been signed since; ask for the current one.`),
           });
         }}
       />

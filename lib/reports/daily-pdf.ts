@@ -65,7 +65,9 @@ export async function renderDailyPdf(report: DailyReport, signature?: SignatureB
       `Times in ${report.timeZone}`,
       `Content as of ${dailyTime(report, report.asOf)}`,
     ]
-      .filter(Boolean)
+      .filter((item): item is string => Boolean(item))
+      // Each item kept on one line (a date and its time never split); the line wraps between items.
+      .map((item) => item.replace(/ /g, "\u00a0"))
       .join("   ·   "),
   );
   doc.moveDown(0.6);

@@ -6,7 +6,9 @@ import { DECISION_LABELS } from "@/lib/schemas/review";
 import type { DailyPour, DailyReport, WitnessGroup } from "@/lib/server/get-daily-report";
 import type { PourRecord } from "@/lib/server/list-pour-records";
 import { RECORD_COLUMNS, recordRows } from "./pour-rows";
+import { concreteResultText } from "./concrete-lines";
 import type { ReportSnapshot } from "./report-changes";
+import { signatureLines, type SignatureState } from "./signature-lines";
 
 /**
  * The daily special-inspection report's content as display strings in the project's units, once:
@@ -44,8 +46,15 @@ function pourDayRecords(p: DailyPour): PourRecord[] {
 function pourDayRows(p: DailyPour): string[][] {
   const ordered = pourDayRecords(p);
   const tendons = p.report.tendons.filter((t) => ordered.some((r) => r.tendonId === t.tendonId));
-  // The pour report's rows for just this day's records and flags.
-  const rows = recordRows({ ...p.report, tendons, records: ordered, detensions: [], flags: p.flagsRaised });
+  // The pour report's rows for just this day's records and flags (one row per record: the method is added by index).
+  const rows = recordRows({
+    ...p.report,
+    tendons,
+    records: ordered,
+    detensions: [],
+    liftoffChecks: [],
+    flags: p.flagsRaised,
+  });
   return rows.map((row, i) => [p.report.pour.name, METHOD_WORDS[ordered[i]!.method], ...row]);
 }
 
@@ -71,7 +80,7 @@ export function dailySummary(report: DailyReport): string {
     `${plural(records.length, "stressing record")} on ${plural(report.pours.filter((p) => p.records.length).length, "pour")} ` +
     `(${count("in band")} in band, ${count("long")} long, ${count("short")} short, ` +
     `${records.length - count("in band") - count("long") - count("short")} incomplete or not evaluated); ` +
-    `${records.filter((r) => r.stressing > 1).length} of them restresses or lift-offs. ` +
+    `${records.filter((r) => r.stressing > 1).length} of them restresses. ` +
     `${plural(flags, "flag")} raised, ${plural(dispositions, "disposition")} recorded, ` +
     `${plural(report.concrete.length, "concrete result")} entered, ${plural(report.tailCuts.length, "tendon")} with tails cut.`
   );
@@ -130,11 +139,7 @@ export function dailyEquipmentLines(report: DailyReport): [string, string][] {
 }
 
 export function dailyConcreteLines(report: DailyReport): string[] {
-  return report.concrete.map(
-    (c) =>
-      `${c.pourName}: ${showStrength(report.project, c.strengthMPa)} at ${c.ageDays} days, ` +
-      `${c.specimenCount} ${c.specimen}${c.specimenCount === 1 ? "" : "s"}, entered by ${c.enteredBy} ${dailyTime(report, c.at)}`,
-  );
+  return report.concrete.map((c) => `${c.pourName}: ${concreteResultText(report.project, report.timeZone, c)}`);
 }
 
 export function dailyTailCutLines(report: DailyReport): string[] {
@@ -298,9 +303,10 @@ export const CSV_DAILY_COLUMNS = ["Project", "Day", "Section", ...DAILY_RECORD_C
 /**
  * The CSV's rows: one per stressing (section "stressing"), then one per flag, disposition, equipment
  * set, concrete result and tail cut with its words in Details, then what the inspector states was
- * witnessed of each group (section "witness"), the statement of conformance and the remarks.
+ * witnessed of each group (section "witness"), the statement of conformance, the remarks and the
+ * signature (section "signature": who signed this content and when, or that it is not signed).
  */
-export function dailyCsvRows(report: DailyReport): string[][] {
+export function dailyCsvRows(report: DailyReport, signature: SignatureState): string[][] {
   const blank = DAILY_RECORD_COLUMNS.map(() => "");
   const head = (section: string) => [report.project.code, report.day, section];
   const other = (section: string, details: string) => [...head(section), ...blank, details];
@@ -314,6 +320,7 @@ export function dailyCsvRows(report: DailyReport): string[][] {
     ...dailyWitnessLines(report).map((w) => other("witness", `${w.label}: ${w.stressed}; ${w.stated}`)),
     other("conformance", dailyConformanceLine(report)),
     other("remarks", report.remarks || "none"),
+    ...signatureLines(signature, report.timeZone).map(([label, value]) => other("signature", `${label}: ${value}`)),
   ];
 }
 

@@ -295,6 +295,14 @@ const KEEP_ROWS = 2;
  * they and the first rows do not fit; on every page the table runs onto, the title (marked
  * continued) and the header are drawn again.
  */
+/**
+ * A table cell's text for paper: a figure and its unit ("32.64 kip", "4150 psi", "+3.6 %") never
+ * split over two lines of a narrow column.
+ */
+export function cellText(text: string): string {
+  return pdfText(text).replace(/(\d) (kip|kN|psi|MPa|ksi|in|mm|ft|m|%)(?=$|[\s,;:.)])/g, "$1\u00a0$2");
+}
+
 export function drawTable(
   doc: PDFKit.PDFDocument,
   t: {
@@ -313,7 +321,7 @@ export function drawTable(
   const cellHeight = (cells: string[], bold: boolean) => {
     t.font(bold, bold ? BODY : BODY - 1);
     return (
-      Math.max(...cells.map((c, i) => doc.heightOfString(pdfText(c) || " ", { width: colWidths[i]! - 2 * PAD }))) +
+      Math.max(...cells.map((c, i) => doc.heightOfString(cellText(c) || " ", { width: colWidths[i]! - 2 * PAD }))) +
       2 * PAD
     );
   };
@@ -322,7 +330,7 @@ export function drawTable(
     const top = doc.y;
     let x = t.left;
     cells.forEach((c, i) => {
-      doc.text(pdfText(c), x + PAD, top + PAD, { width: colWidths[i]! - 2 * PAD, lineBreak: true });
+      doc.text(cellText(c), x + PAD, top + PAD, { width: colWidths[i]! - 2 * PAD, lineBreak: true });
       x += colWidths[i]!;
     });
     doc

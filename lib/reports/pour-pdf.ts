@@ -3,10 +3,12 @@ import {
   basisLines,
   calibrationLines,
   concreteLine,
+  concreteResultLines,
   flagLines,
   RECORD_COLUMNS,
   recordRows,
   releaseLine,
+  reopeningLines,
   reportTime,
   strandLotLines,
   type RecordColumn,
@@ -24,20 +26,21 @@ export { pdfText, type SignatureBlock };
 
 /**
  * The record table's columns on paper: the CSV's columns grouped so a landscape page holds them,
- * each cell the CSV's strings joined line by line.
+ * each cell the CSV's strings joined line by line. The equipment and the readings as entered, the
+ * cells that set a row's height, take the widest columns; every title fits its column whole.
  */
 const PDF_COLUMNS: GroupedColumn<RecordColumn>[] = [
   { title: "Tendon, end, stressing", width: 62, from: ["Tendon", "End", "Stressing"] },
   { title: "Stressed, operator", width: 62, from: ["Stressed", "Operator"] },
-  { title: "Equipment, calibration", width: 94, from: ["Equipment set", "Jack, gauge, pump", "Calibration"] },
+  { title: "Equipment, calibration", width: 100, from: ["Equipment set", "Jack, gauge, pump", "Calibration"] },
   {
     title: "Gauge: initial, final, target",
     width: 54,
     from: ["Initial pressure", "Final pressure", "Target pressure"],
   },
   { title: "Force: gauge, elongation", width: 54, from: ["Force", "Force from elongation"] },
-  { title: "Readings as entered, seating", width: 74, from: ["Readings as entered", "Seating"] },
-  { title: "Measured", width: 56, from: ["Measured"] },
+  { title: "Readings as entered, seating", width: 84, from: ["Readings as entered", "Seating"] },
+  { title: "Measured", width: 50, from: ["Measured"] },
   {
     title: "Predicted: Tautline, shop, governs",
     width: 68,
@@ -45,8 +48,8 @@ const PDF_COLUMNS: GroupedColumn<RecordColumn>[] = [
   },
   { title: "Deviation", width: 48, from: ["Deviation"] },
   { title: "Verdict, basis", width: 68, from: ["Verdict", "Basis"] },
-  { title: "Breaks, remarks, photos", width: 70, from: ["Wire breaks", "Remarks", "Photos"] },
-  { title: "Flags", width: 62, from: ["Flags"] },
+  { title: "Breaks, remarks, photos", width: 64, from: ["Wire breaks", "Remarks", "Photos"] },
+  { title: "Flags", width: 58, from: ["Flags"] },
 ];
 export async function renderPourPdf(report: PourReport, signature?: SignatureBlock): Promise<Buffer> {
   const pdf = openReportPdf({
@@ -65,14 +68,21 @@ export async function renderPourPdf(report: PourReport, signature?: SignatureBlo
   font(false);
   text(
     [
-      report.pour.level ? `Level: ${report.pour.level}` : null,
+      // A level named "Level 2" prints as it is, not "Level: Level 2".
+      report.pour.level
+        ? /^level\b/i.test(report.pour.level)
+          ? report.pour.level
+          : `Level: ${report.pour.level}`
+        : null,
       `Pour status: ${report.pour.status}`,
       report.pour.plannedStressingDate ? `Planned stressing: ${report.pour.plannedStressingDate}` : null,
       report.project.engineerOfRecordName ? `Engineer of record: ${report.project.engineerOfRecordName}` : null,
       `Times in ${report.timeZone}`,
       `Content as of ${reportTime(report, report.asOf)}`,
     ]
-      .filter(Boolean)
+      .filter((item): item is string => Boolean(item))
+      // Each item kept on one line (a date and its time never split); the line wraps between items.
+      .map((item) => item.replace(/ /g, "\u00a0"))
       .join("   ·   "),
   );
   text(concreteLine(report));
@@ -81,6 +91,7 @@ export async function renderPourPdf(report: PourReport, signature?: SignatureBlo
 
   heading("Release");
   text(releaseLine(report));
+  for (const line of reopeningLines(report)) text(line);
 
   const stressed = report.tendons.filter((t) => t.evaluation && !t.evaluation.provisional);
   const count = (v: string) => stressed.filter((t) => t.evaluation?.verdict === v).length;
@@ -90,7 +101,8 @@ export async function renderPourPdf(report: PourReport, signature?: SignatureBlo
     `${countOf(report.tendons.length, "tendon")} on the schedule; ${stressed.length} evaluated with every end read ` +
       `(${count("in band")} in band, ${count("long")} long, ${count("short")} short); ` +
       `${report.tendons.length - stressed.length} not yet complete. ` +
-      `${countOf(report.records.length, "stressing record")}, ${restresses} of them restresses or lift-offs. ` +
+      `${countOf(report.records.length, "stressing record")}, ${restresses} of them restresses; ` +
+      `${countOf(report.liftoffChecks.length, "lift-off check")}, ${countOf(report.detensions.length, "detension")}. ` +
       `${countOf(report.flags.length, "flag")}, ${report.flags.filter((f) => f.status !== "closed").length} still open.`,
   );
 
@@ -100,6 +112,9 @@ export async function renderPourPdf(report: PourReport, signature?: SignatureBlo
     (d) => reportTime(report, d),
     "Not signed. This copy shows the records as they stand; a signed revision is downloaded from the pour's report page.",
   );
+
+  heading("Concrete results");
+  pdf.lines(concreteResultLines(report), "No concrete test result has been entered for this pour.");
 
   heading("Computation basis and its sources");
   keyValues(basisLines(report));

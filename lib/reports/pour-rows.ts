@@ -17,7 +17,8 @@ import { MPA_PER_PSI } from "@/lib/units";
 import { JACKING_LIMIT_FPU_FRACTION } from "@/lib/elongation";
 import { DECISION_LABELS } from "@/lib/schemas/review";
 import { wireBreakWords } from "@/lib/schemas/record";
-import type { PourReport } from "@/lib/server/get-pour-report";
+import type { PourReport, ReportLiftoff } from "@/lib/server/get-pour-report";
+import { concreteResultText } from "./concrete-lines";
 import type { PourRecord } from "@/lib/server/list-pour-records";
 import type { TendonResult } from "@/lib/server/list-tendon-results";
 
@@ -183,10 +184,35 @@ export function recordRows(report: PourReport): string[][] {
       Remarks: [d.remarks, `recorded by ${d.recordedBy}`].filter(Boolean).join("; "),
       Flags: flagsOf(t.tag),
     });
+    // The tendon's lift-off checks stand in its sequence the same way.
+    const liftoffRow = (l: ReportLiftoff): Record<RecordColumn, string> => ({
+      ...(Object.fromEntries(RECORD_COLUMNS.map((c) => [c, ""])) as Record<RecordColumn, string>),
+      Tendon: t.tag,
+      End: l.end,
+      Stressing: `Lift-off check (ordered by disposition ${l.dispositionReference})`,
+      Stressed: formatDateTime(l.at, report.timeZone),
+      Operator: l.operator,
+      "Equipment set": l.equipment.name,
+      "Jack, gauge, pump": `jack ${l.equipment.jackSerial}, gauge ${l.equipment.gaugeSerial}, pump ${l.equipment.pumpSerial ?? "not recorded"}`,
+      Calibration: `${l.calibration.calibratedOn} to ${l.calibration.validUntil}${l.calibration.laboratory ? `, ${l.calibration.laboratory}` : ""}`,
+      "Final pressure": `${releaseText(p, l.entered, l.pressureMPa)} at lift-off`,
+      Force: `${showForce(p, l.liftoffForceN)} at lift-off; ${showForce(p, l.expectedForceN)} expected after seating`,
+      Deviation: showPct(l.deviationPct),
+      Verdict: `Lift-off ${l.withinBand ? "within" : "outside"} the ±${l.bandPct} % band`,
+      Basis: "force at the anchorage after seating (Tautline's force profile)",
+      Remarks: l.raisedFlagReference ? `raised flag ${l.raisedFlagReference}` : "",
+      Flags: flagsOf(t.tag),
+    });
+    const between: { at: Date; row: () => Record<RecordColumn, string> }[] = [
+      ...detensions.map((d) => ({ at: d.at, row: () => detensionRow(d) })),
+      ...(report.liftoffChecks ?? [])
+        .filter((l) => l.tendonId === t.tendonId)
+        .map((l) => ({ at: l.at, row: () => liftoffRow(l) })),
+    ].sort((a, b) => a.at.getTime() - b.at.getTime());
     let shown = 0;
     for (const r of records) {
-      while (shown < detensions.length && detensions[shown]!.at.getTime() < r.deviceTime.getTime())
-        rows.push(detensionRow(detensions[shown++]!));
+      while (shown < between.length && between[shown]!.at.getTime() < r.deviceTime.getTime())
+        rows.push(between[shown++]!.row());
       const e = r.evaluation;
       const verdict = e
         ? VERDICT_WORDS[e.verdict] + (e.provisional ? " (provisional)" : "") + (e.current ? "" : " (superseded)")
@@ -230,7 +256,7 @@ export function recordRows(report: PourReport): string[][] {
         Flags: flagsOf(t.tag),
       });
     }
-    while (shown < detensions.length) rows.push(detensionRow(detensions[shown++]!));
+    while (shown < between.length) rows.push(between[shown++]!.row());
   }
   return rows.map((row) => RECORD_COLUMNS.map((c) => row[c]));
 }
@@ -259,6 +285,11 @@ function jackingForceLine(report: PourReport): string {
       ? `; from the schedule for ${own.map((t) => `${t.tag} (${showForce(report.project, t.jackingForceN!)})`).join(", ")}`
       : "")
   );
+}
+
+/** The pour's concrete test results, oldest first, in the daily report's words. */
+export function concreteResultLines(report: PourReport): string[] {
+  return (report.concreteResults ?? []).map((c) => concreteResultText(report.project, report.timeZone, c));
 }
 
 export function basisLines(report: PourReport): [string, string][] {
@@ -356,6 +387,14 @@ export function flagLines(report: PourReport): { heading: string; lines: string[
     const status = f.status === "with_engineer" ? "with the engineer" : f.status;
     return { heading: `Flag ${f.reference} · ${f.tendonTag} · ${flagLabel(f.kind)} · ${status}`, lines };
   });
+}
+
+/** "Released by A on …, reopened by B on …: reason", one line per reopened release, oldest first. */
+export function reopeningLines(report: PourReport): string[] {
+  return (report.reopenings ?? []).map(
+    (o) =>
+      `Released by ${o.releasedBy} on ${reportTime(report, o.releasedAt)}, reopened by ${o.byName} on ${reportTime(report, o.at)}: ${o.reason}`,
+  );
 }
 
 export function releaseLine(report: PourReport): string {

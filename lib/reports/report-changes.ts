@@ -1,5 +1,7 @@
-import { showLength, showPressure } from "@/lib/format/quantities";
+import { formatDateTime } from "@/lib/format/dates";
+import { showForce, showLength, showPct, showPressure } from "@/lib/format/quantities";
 import type { PourReport } from "@/lib/server/get-pour-report";
+import { concreteResultText } from "./concrete-lines";
 import { concreteLine } from "./pour-rows";
 
 /**
@@ -22,6 +24,16 @@ export function pourSnapshot(report: PourReport): ReportSnapshot {
       `revision ${r.revision}, ${showLength(p, r.measuredMm)} at ${showPressure(p, r.finalPressureMPa)}` +
       (r.evaluation ? `, ${r.evaluation.verdict}` : "");
   }
+  for (const l of report.liftoffChecks ?? [])
+    snapshot[
+      `lift-off ${report.tendons.find((t) => t.tendonId === l.tendonId)?.tag ?? "?"} end ${l.end} ${formatDateTime(l.at, report.timeZone)}`
+    ] =
+      `${showForce(p, l.liftoffForceN)} at ${showPressure(p, l.pressureMPa)}, ${showPct(l.deviationPct)}, ${l.withinBand ? "within" : "outside"} the band`;
+  for (const c of report.concreteResults ?? [])
+    snapshot[`concrete result ${formatDateTime(c.at, report.timeZone)}`] = concreteResultText(p, report.timeZone, c);
+  (report.reopenings ?? []).forEach((o, i) => {
+    snapshot[`reopening ${i + 1}`] = `reopened by ${o.byName} on ${formatDateTime(o.at, report.timeZone)}: ${o.reason}`;
+  });
   for (const f of report.flags) {
     snapshot[`flag ${f.reference} (${f.tendonTag})`] = f.status === "with_engineer" ? "with the engineer" : f.status;
     for (const d of f.dispositions)

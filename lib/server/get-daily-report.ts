@@ -68,6 +68,8 @@ export interface DailyReport {
     strengthMPa: number;
     ageDays: number;
     specimenCount: number;
+    /** The laboratory's report by its file name; null when none was attached. */
+    labReport: string | null;
     enteredBy: string;
     at: Date;
   }[];
@@ -131,7 +133,12 @@ export async function getDailyReport(
       .selectFrom("concrete_results as c")
       .innerJoin("pours", "pours.id", "c.pour_id")
       .innerJoin("users", "users.id", "c.entered_by")
+      .leftJoin("attachments", (j) =>
+        j.onRef("attachments.id", "=", "c.attachment_id").onRef("attachments.project_id", "=", "c.project_id"),
+      )
       .select([
+        "attachments.id as attachment_id",
+        "attachments.original_name",
         "pours.name as pourName",
         "c.specimen",
         "c.strength_mpa",
@@ -266,6 +273,7 @@ export async function getDailyReport(
       strengthMPa: c.strength_mpa,
       ageDays: c.age_days,
       specimenCount: c.specimen_count,
+      labReport: c.attachment_id ? (c.original_name ?? "uploaded (no file name)") : null,
       enteredBy: c.enteredBy,
       at: new Date(c.entered_at),
     })),

@@ -60,6 +60,41 @@ export interface ReportDetension {
   dispositionReference: string;
 }
 
+/** A lift-off check the crew made on the engineer's order, for the tendon's record sequence. */
+export interface ReportLiftoff {
+  tendonId: string;
+  end: "A" | "B";
+  at: Date;
+  /** Who made the check (the person signed in on the tablet). */
+  operator: string;
+  equipment: { name: string; jackSerial: string; gaugeSerial: string; pumpSerial: string | null };
+  calibration: { calibratedOn: string; validUntil: string; laboratory: string | null };
+  /** The gauge pressure at lift-off as typed. */
+  entered: { pressure: string; unit: "psi" | "MPa" };
+  pressureMPa: number;
+  liftoffForceN: number;
+  expectedForceN: number;
+  deviationPct: number;
+  bandPct: number;
+  withinBand: boolean;
+  /** The disposition that ordered it, "D-0003". */
+  dispositionReference: string;
+  /** The flag it raised outside the band, "F-0004"; null within it. */
+  raisedFlagReference: string | null;
+}
+
+/** A concrete test result of the pour, as entered. */
+export interface ReportConcreteResult {
+  specimen: "cylinder" | "cube";
+  strengthMPa: number;
+  ageDays: number;
+  specimenCount: number;
+  /** The laboratory's report as uploaded, by its file name; null when none was attached. */
+  labReport: string | null;
+  enteredBy: string;
+  at: Date;
+}
+
 export interface PourReport {
   /**
    * The moment of the latest change the report shows (a record, an evaluation, a flag's trail,
@@ -117,6 +152,12 @@ export interface PourReport {
   records: PourRecord[];
   /** The detensions of the pour's tendons, oldest first; the records table shows them in each tendon's sequence. */
   detensions: ReportDetension[];
+  /** The lift-off checks on the pour's tendons, oldest first; the records table shows them in each tendon's sequence. */
+  liftoffChecks: ReportLiftoff[];
+  /** The pour's concrete test results, oldest first. */
+  concreteResults: ReportConcreteResult[];
+  /** Each time the engineer reopened a release of this pour, oldest first. */
+  reopenings: { byName: string; at: Date; reason: string; releasedBy: string; releasedAt: Date }[];
   flags: ReportFlag[];
   release: {
     byName: string;
@@ -166,40 +207,119 @@ export async function getPourReport(
     .executeTakeFirst();
   if (!project || !pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
 
-  const [tendons, records, { flags, reviews, dispositions }, release, detensions] = await Promise.all([
-    listTendonResults(db, input),
-    listPourRecords(db, { ...input, projectBasis: project.comparison_basis, timeZone: projectTimeZone(project) }),
-    findFlagTrail(db, { projectId: input.projectId, pourId: input.pourId }),
-    findStandingRelease(db, input),
-    db
-      .selectFrom("detensions")
-      .innerJoin("equipment_sets", (j) =>
-        j
-          .onRef("equipment_sets.id", "=", "detensions.equipment_set_id")
-          .onRef("equipment_sets.project_id", "=", "detensions.project_id"),
-      )
-      .innerJoin("users", "users.id", "detensions.recorded_by")
-      .select([
-        "detensions.tendon_id",
-        "detensions.disposition_id",
-        "detensions.detensioned_at",
-        "detensions.operator_name",
-        "detensions.entered",
-        "detensions.release_pressure_mpa",
-        "detensions.strands_detensioned",
-        "detensions.remarks",
-        "equipment_sets.name",
-        "equipment_sets.jack_serial",
-        "equipment_sets.gauge_serial",
-        "equipment_sets.pump_serial",
-        "users.name as recorded_by_name",
-      ])
-      .where("detensions.project_id", "=", input.projectId)
-      .where("detensions.pour_id", "=", input.pourId)
-      .orderBy("detensions.detensioned_at")
-      .orderBy("detensions.id")
-      .execute(),
-  ]);
+  const [tendons, records, { flags, reviews, dispositions }, release, detensions, liftoffs, concrete, reopenings] =
+    await Promise.all([
+      listTendonResults(db, input),
+      listPourRecords(db, { ...input, projectBasis: project.comparison_basis, timeZone: projectTimeZone(project) }),
+      findFlagTrail(db, { projectId: input.projectId, pourId: input.pourId }),
+      findStandingRelease(db, input),
+      db
+        .selectFrom("detensions")
+        .innerJoin("equipment_sets", (j) =>
+          j
+            .onRef("equipment_sets.id", "=", "detensions.equipment_set_id")
+            .onRef("equipment_sets.project_id", "=", "detensions.project_id"),
+        )
+        .innerJoin("users", "users.id", "detensions.recorded_by")
+        .select([
+          "detensions.tendon_id",
+          "detensions.disposition_id",
+          "detensions.detensioned_at",
+          "detensions.operator_name",
+          "detensions.entered",
+          "detensions.release_pressure_mpa",
+          "detensions.strands_detensioned",
+          "detensions.remarks",
+          "equipment_sets.name",
+          "equipment_sets.jack_serial",
+          "equipment_sets.gauge_serial",
+          "equipment_sets.pump_serial",
+          "users.name as recorded_by_name",
+        ])
+        .where("detensions.project_id", "=", input.projectId)
+        .where("detensions.pour_id", "=", input.pourId)
+        .orderBy("detensions.detensioned_at")
+        .orderBy("detensions.id")
+        .execute(),
+      db
+        .selectFrom("liftoff_checks")
+        .innerJoin("equipment_sets", (j) =>
+          j
+            .onRef("equipment_sets.id", "=", "liftoff_checks.equipment_set_id")
+            .onRef("equipment_sets.project_id", "=", "liftoff_checks.project_id"),
+        )
+        .innerJoin("calibrations", (j) =>
+          j
+            .onRef("calibrations.id", "=", "liftoff_checks.calibration_id")
+            .onRef("calibrations.project_id", "=", "liftoff_checks.project_id"),
+        )
+        .innerJoin("users", "users.id", "liftoff_checks.checked_by")
+        .select([
+          "liftoff_checks.tendon_id",
+          "liftoff_checks.tendon_end",
+          "liftoff_checks.disposition_id",
+          "liftoff_checks.raised_flag_id",
+          "liftoff_checks.checked_at",
+          "liftoff_checks.entered",
+          "liftoff_checks.pressure_mpa",
+          "liftoff_checks.liftoff_force_n",
+          "liftoff_checks.expected_force_n",
+          "liftoff_checks.deviation_pct",
+          "liftoff_checks.band_pct",
+          "liftoff_checks.within_band",
+          "equipment_sets.name",
+          "equipment_sets.jack_serial",
+          "equipment_sets.gauge_serial",
+          "equipment_sets.pump_serial",
+          "calibrations.calibrated_on",
+          "calibrations.valid_until",
+          "calibrations.laboratory",
+          "users.name as checked_by_name",
+        ])
+        .where("liftoff_checks.project_id", "=", input.projectId)
+        .where("liftoff_checks.pour_id", "=", input.pourId)
+        .orderBy("liftoff_checks.checked_at")
+        .orderBy("liftoff_checks.id")
+        .execute(),
+      db
+        .selectFrom("concrete_results as c")
+        .innerJoin("users", "users.id", "c.entered_by")
+        .leftJoin("attachments", (j) =>
+          j.onRef("attachments.id", "=", "c.attachment_id").onRef("attachments.project_id", "=", "c.project_id"),
+        )
+        .select([
+          "c.specimen",
+          "c.strength_mpa",
+          "c.age_days",
+          "c.specimen_count",
+          "c.entered_at",
+          "users.name as entered_by_name",
+          "attachments.original_name",
+          "attachments.id as attachment_id",
+        ])
+        .where("c.project_id", "=", input.projectId)
+        .where("c.pour_id", "=", input.pourId)
+        .orderBy("c.entered_at")
+        .orderBy("c.id")
+        .execute(),
+      db
+        .selectFrom("pour_reopenings as o")
+        .innerJoin("releases", (j) =>
+          j.onRef("releases.id", "=", "o.release_id").onRef("releases.project_id", "=", "o.project_id"),
+        )
+        .select([
+          "o.reopened_by_name",
+          "o.reason",
+          "o.created_at",
+          "releases.released_by_name",
+          "releases.created_at as released_at",
+        ])
+        .where("o.project_id", "=", input.projectId)
+        .where("o.pour_id", "=", input.pourId)
+        .orderBy("o.created_at")
+        .orderBy("o.id")
+        .execute(),
+    ]);
   // The references come with the pour's flag trail (each row keeps its number). A disposition named
   // elsewhere (a detension's order, a closing's words) that is not on this pour's flags is read by id,
   // on this project only: none in the usual case, so no read of the project's every flag per report.
@@ -207,6 +327,7 @@ export async function getPourReport(
   const dispositionRef = new Map(dispositions.map((d) => [d.id, d.reference]));
   const named = [
     ...detensions.map((d) => d.disposition_id),
+    ...liftoffs.map((l) => l.disposition_id),
     ...flags.flatMap((f) => [...(f.close_reason ?? "").matchAll(/disposition ([0-9a-f-]{36})/g)].map((m) => m[1]!)),
   ];
   const stray = [...new Set(named.filter((id) => !dispositionRef.has(id)))];
@@ -261,6 +382,9 @@ export async function getPourReport(
     ...dispositions.map((d) => new Date(d.created_at)),
     ...(release ? [new Date(release.created_at)] : []),
     ...detensions.map((d) => new Date(d.detensioned_at)),
+    ...liftoffs.map((l) => new Date(l.checked_at)),
+    ...concrete.map((c) => new Date(c.entered_at)),
+    ...reopenings.map((o) => new Date(o.created_at)),
   ];
   const asOf = new Date(Math.max(...moments.map((m) => m.getTime())));
 
@@ -339,6 +463,43 @@ export async function getPourReport(
       strands: d.strands_detensioned,
       remarks: d.remarks,
       dispositionReference: dispositionRef.get(d.disposition_id) ?? "D-?",
+    })),
+    liftoffChecks: liftoffs.map((l) => ({
+      tendonId: l.tendon_id,
+      end: l.tendon_end,
+      at: new Date(l.checked_at),
+      operator: l.checked_by_name,
+      equipment: { name: l.name, jackSerial: l.jack_serial, gaugeSerial: l.gauge_serial, pumpSerial: l.pump_serial },
+      calibration: {
+        calibratedOn: asDay(l.calibrated_on),
+        validUntil: asDay(l.valid_until),
+        laboratory: l.laboratory,
+      },
+      entered: l.entered,
+      pressureMPa: l.pressure_mpa,
+      liftoffForceN: l.liftoff_force_n,
+      expectedForceN: l.expected_force_n,
+      deviationPct: l.deviation_pct,
+      bandPct: l.band_pct,
+      withinBand: l.within_band,
+      dispositionReference: dispositionRef.get(l.disposition_id) ?? "D-?",
+      raisedFlagReference: l.raised_flag_id ? (flagRef.get(l.raised_flag_id) ?? "F-?") : null,
+    })),
+    concreteResults: concrete.map((c) => ({
+      specimen: c.specimen,
+      strengthMPa: c.strength_mpa,
+      ageDays: c.age_days,
+      specimenCount: c.specimen_count,
+      labReport: c.attachment_id ? (c.original_name ?? "uploaded (no file name)") : null,
+      enteredBy: c.entered_by_name,
+      at: new Date(c.entered_at),
+    })),
+    reopenings: reopenings.map((o) => ({
+      byName: o.reopened_by_name,
+      at: new Date(o.created_at),
+      reason: o.reason,
+      releasedBy: o.released_by_name,
+      releasedAt: new Date(o.released_at),
     })),
     flags: flags.map((f) => ({
       id: f.id,

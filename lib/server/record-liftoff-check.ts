@@ -192,11 +192,14 @@ export async function recordLiftoffCheck(
 
     const line_ = liftoffLine(basis.project, judged);
     const readAs = `${p.pressure}${/[a-z]/i.test(p.pressure) ? "" : ` ${p.pressureUnit}`}`;
+    const shown = showPressure(basis.project, pressureMPa);
     let raisedFlagId: string | null = null;
     if (!judged.withinBand) {
       const reason =
-        `Lift-off check at end ${p.tendonEnd} of ${basis.tendon.tag} by ${person.name}: gauge ${readAs} ` +
-        `(${showPressure(basis.project, pressureMPa)}) on ${set.name}, calibration of ${picked.calibratedOn}. ${line_}`;
+        `Lift-off check at end ${p.tendonEnd} of ${basis.tendon.tag} by ${person.name}: gauge ${readAs}` +
+        // The project's units beside the typed value only when they read differently.
+        `${shown.replaceAll(",", "") === readAs.replaceAll(",", "") ? "" : ` (${shown})`} on ${set.name}, ` +
+        `calibration of ${picked.calibratedOn}. ${line_}`;
       const flag = await trx
         .insertInto("flags")
         .values({

@@ -16,6 +16,8 @@ export type Verification =
       signedAt: Date;
       /** False when a later revision has been signed since. */
       latest: boolean;
+      /** The latest signed revision when this one is superseded by it; null when this one is the latest. */
+      supersededBy: number | null;
     };
 
 /**
@@ -63,7 +65,7 @@ export async function verifyReportFile(
     .where("kind", "=", row.kind)
     .where("revision", ">", row.revision);
   later = row.pour_id ? later.where("pour_id", "=", row.pour_id) : later.where("report_day", "=", row.report_day);
-  const newer = await later.limit(1).executeTakeFirst();
+  const newer = await later.orderBy("revision", "desc").limit(1).executeTakeFirst();
   return {
     match: true,
     project: `${row.projectName} (${row.code})`,
@@ -74,5 +76,6 @@ export async function verifyReportFile(
     licence: row.licence,
     signedAt: new Date(row.signed_at),
     latest: !newer,
+    supersededBy: newer?.revision ?? null,
   };
 }

@@ -104,6 +104,10 @@ test("the inspector signs a day's special-inspection report and downloads its PD
   expect(witness).toHaveLength(groupCount);
   for (const w of witness) expect(w.Details).toContain("witnessed in full by Mei Lindqvist");
   expect(table.data.find((r) => r.Section === "conformance")?.Details).toMatch(/WAS NOT IN CONFORMANCE/);
+  // The CSV of the signed content carries its signature: the content hash and the revision.
+  const signature = table.data.filter((r) => r.Section === "signature").map((r) => r.Details);
+  expect(signature).toContain("Revision: 1");
+  expect(signature.join("\n")).toMatch(/^Content sha256: [0-9a-f]{64}$/m);
 
   // New remarks are a change: revision 2, which says what changed.
   await form

@@ -70,5 +70,29 @@ test("the inspector signs a pour's stressing report and anyone can check the sig
     .setInputFiles({ name: "altered.pdf", mimeType: "application/pdf", buffer: altered });
   await expect(check.getByRole("alert").filter({ hasText: "Not a signed revision." })).toBeVisible();
   await screenshot(check, "report-verify-no-match");
+
+  // A second stressing of the first tendon changes the report; once revision 2 is signed, the
+  // revision 1 file still matches but is said to be superseded by revision 2.
+  const crewAgain = await apiAs(PEOPLE.crew);
+  expect((await pushEndA(crewAgain, fx, fx.tendons[0]!.id, 1.0)).result).toMatchObject({ status: "applied" });
+  await crewAgain.dispose();
+  const inspector = await apiAs(PEOPLE.inspector);
+  const second = await inspector.post(`/api/projects/${fx.projectId}/pours/${fx.pourId}/report/signatures`, {
+    data: {
+      signerName: "Mei Lindqvist",
+      licence: "ICC special inspector 5551234 (demo)",
+      statement: "I inspected the stressing of the tendons listed in this report.",
+    },
+  });
+  expect(second.status()).toBe(201);
+  expect(await second.json()).toMatchObject({ revision: 2 });
+  await inspector.dispose();
+  await check
+    .getByLabel("Report file (PDF)")
+    .setInputFiles({ name: "report.pdf", mimeType: "application/pdf", buffer: bytes });
+  const superseded = check.getByRole("alert").filter({ hasText: "Matches revision 1" });
+  await expect(superseded).toContainText(`Matches revision 1 of the stressing report of ${POUR}`);
+  await expect(superseded).toContainText("Superseded: revision 2 has been signed since");
+  await screenshot(check, "report-verify-superseded");
   await visitor.close();
 });

@@ -1,11 +1,12 @@
 import { createHash } from "node:crypto";
 import { mkdirSync, writeFileSync } from "node:fs";
 import Papa from "papaparse";
-import { PDFParse } from "pdf-parse";
 import { uuidv7 } from "uuidv7";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { MPA_PER_PSI } from "@/lib/units";
 import { renderDailyCsv } from "@/lib/reports/daily-csv";
+import { getDailyCsv } from "@/lib/server/get-daily-csv";
+import { pdfText } from "../support/pdf-text";
 import { renderDailyPdf } from "@/lib/reports/daily-pdf";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getDailyReport } from "@/lib/server/get-daily-report";
@@ -31,14 +32,7 @@ let pourId: string;
 let tendons: Record<string, { id: string; pour_id: string }>;
 let inspector: { id: string };
 
-async function pdfTextOf(buffer: Buffer | Uint8Array) {
-  const parser = new PDFParse({ data: new Uint8Array(buffer) });
-  try {
-    return (await parser.getText()).text.replace(/\s+/g, " ");
-  } finally {
-    await parser.destroy();
-  }
-}
+const pdfTextOf = pdfText;
 
 async function stress(tag: string, deviceTime: string, measuredMm: number) {
   await insertRecord(t.db, {
@@ -167,7 +161,7 @@ describe("the day's special-inspection report", () => {
       true,
     );
 
-    const csv = renderDailyCsv(report);
+    const csv = renderDailyCsv(report, { last: null, current: false });
     writeFileSync("test-results/reports/daily-report.csv", csv);
     const parsed = Papa.parse<Record<string, string>>(csv, { header: true, skipEmptyLines: true });
     expect(parsed.errors).toEqual([]);
@@ -187,6 +181,9 @@ describe("the day's special-inspection report", () => {
       "Daily pour: S-01, S-02 (2 stressings); not stated yet: the inspector states it when signing",
     );
     expect(parsed.data.find((r) => r.Section === "conformance")?.Details).toMatch(/^Not stated yet/);
+    expect(parsed.data.filter((r) => r.Section === "signature").map((r) => r.Details)).toEqual([
+      "Signature: Not signed: no revision of this report has been signed.",
+    ]);
     expect(text).toContain("Statement of conformance Not stated yet");
   }, 60_000);
 
@@ -242,7 +239,19 @@ describe("the day's special-inspection report", () => {
     const standing = await listDailyRevisions(t.db, { projectId: fx.projectId, day: DAY });
     expect(standing.report.remarks).toBe(values.remarks);
     expect(standing.current.signed).toBe(true);
-    const csv = Papa.parse<Record<string, string>>(renderDailyCsv(standing.report), { header: true });
+    // The CSV as downloaded: the same content, so it carries the signature section.
+    const csv = Papa.parse<Record<string, string>>(
+      (await getDailyCsv(t.db, { projectId: fx.projectId, day: DAY })).csv,
+      { header: true },
+    );
+    expect(csv.data.filter((r) => r.Section === "signature").map((r) => r.Details)).toEqual([
+      "Signed by: Dana Okafor",
+      "Licence or certification: ICC special inspector 5551234 (invented)",
+      `Statement: ${values.statement}`,
+      expect.stringMatching(/^Signed: \d{4}-\d\d-\d\d \d\d:\d\d C[SD]T$/),
+      `Content sha256: ${first.contentSha256}`,
+      "Revision: 1",
+    ]);
     // The remarks start with "=": the CSV opens them as text, not a formula.
     expect(csv.data.find((r) => r.Section === "remarks")?.Details).toBe(`'${values.remarks}`);
 
@@ -275,6 +284,16 @@ describe("the day's special-inspection report", () => {
     const pending = await listDailyRevisions(t.db, { projectId: fx.projectId, day: DAY });
     expect(pending.current.signed).toBe(false);
     expect(pending.current.changesSinceSigned.join("\n")).toMatch(/record Daily pour S-01 end A stressing 2: added/);
+    // The CSV of the new content is not signed: revision 1 no longer matches it.
+    const changed = Papa.parse<Record<string, string>>(
+      (await getDailyCsv(t.db, { projectId: fx.projectId, day: DAY })).csv,
+      { header: true, skipEmptyLines: true },
+    ).data.filter((r) => r.Section === "signature");
+    expect(changed.map((r) => r.Details)).toEqual([
+      expect.stringMatching(
+        /^Signature: Not signed: the content changed after revision 1 was signed by Dana Okafor on .*; the signed revision no longer matches this content/,
+      ),
+    ]);
 
     const second = await signDailyReport(t.db, { projectId: fx.projectId, day: DAY, signer: inspector, values });
     expect(second.revision).toBe(2);

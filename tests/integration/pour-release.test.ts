@@ -14,7 +14,11 @@ import { recordDisposition } from "@/lib/server/record-disposition";
 import { listConcreteResults } from "@/lib/server/list-concrete-results";
 import { releasePour } from "@/lib/server/release-pour";
 import { reopenPour } from "@/lib/server/reopen-pour";
-import { pourReportContentSha256 } from "@/lib/server/sign-pour-report";
+import { renderPourPdf } from "@/lib/reports/pour-pdf";
+import { readSignedReport } from "@/lib/server/read-signed-report";
+import { pourReportContentSha256, reportContentSha256, signPourReport } from "@/lib/server/sign-pour-report";
+import { verifyReportFile } from "@/lib/server/verify-report-file";
+import { pdfText } from "../support/pdf-text";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 import { makePour, makeTendons } from "../support/factories";
 import { buildWorld, createOp, type SyncWorld } from "./sync-fixtures";
@@ -344,11 +348,51 @@ describe("reopen", () => {
   it("lets records in again, is audited and shown with the pour, and the pour can be released anew", async () => {
     const { pourId, tendonIds } = await releasedPour("Reopened pour");
     const cursorBefore = (await pullChanges(t.db, { user: crewSession(), cursor: "0", pourIds: [pourId] })).cursor;
+    // The inspector signed the released pour's report before the reopen.
+    const signValues = {
+      signerName: "Dana Okafor",
+      licence: "ICC special inspector 5551234 (invented)",
+      statement: "I inspected the stressing of the tendons listed.",
+    };
+    const signer = { id: people.inspector.id };
+    const first = await signPourReport(t.db, { projectId: w.projectId, pourId, signer, values: signValues });
+    expect(first.revision).toBe(1);
     await reopenPour(t.db, {
       projectId: w.projectId,
       pourId,
       by: engineer(),
       reason: "Lift-off check ordered on RT-1 after the site visit.",
+    });
+    // The reopen is in the report's content: a new content hash, the reopening printed under the release.
+    const reopened = await getPourReport(t.db, { projectId: w.projectId, pourId });
+    expect(await reportContentSha256(reopened)).not.toBe(first.contentSha256);
+    const reopenedText = await pdfText(await renderPourPdf(reopened));
+    expect(reopenedText).toMatch(
+      new RegExp(
+        `Released by ${people.engineer.name} on [^,]+, reopened by ${people.engineer.name} on \\d{4}-\\d\\d-\\d\\d \\d\\d:\\d\\d [A-Z]+: Lift-off check ordered on RT-1 after the site visit\\.`,
+      ),
+    );
+    expect(reopenedText).toContain("Not released.");
+    // Signing again gives revision 2, whose "what changed" names the reopen; the old file is superseded.
+    const second = await signPourReport(t.db, { projectId: w.projectId, pourId, signer, values: signValues });
+    expect(second.revision).toBe(2);
+    expect(second.changes.join("\n")).toMatch(
+      new RegExp(`reopening 1: added \\(reopened by ${people.engineer.name} on .*: Lift-off check ordered on RT-1`),
+    );
+    expect(second.changes).toContain(`release: released by ${people.engineer.name} → not released`);
+    const signed2 = await readSignedReport(t.db, { projectId: w.projectId, pourId, revision: 2 });
+    expect(await pdfText(signed2.body)).toMatch(/What changed .*reopening 1: added/);
+    expect(await verifyReportFile(t.db, { sha256: first.fileSha256 })).toMatchObject({
+      match: true,
+      revision: 1,
+      latest: false,
+      supersededBy: 2,
+    });
+    expect(await verifyReportFile(t.db, { sha256: second.fileSha256 })).toMatchObject({
+      match: true,
+      revision: 2,
+      latest: true,
+      supersededBy: null,
     });
     const state = await stateOf(pourId);
     expect(state).toMatchObject({ status: "stressed", release_id: null, last_reopened_by_name: people.engineer.name });

@@ -8,6 +8,7 @@ import { seedDemo } from "@/scripts/seed/demo";
 import { pourCsvTable, renderPourCsv } from "@/lib/reports/pour-csv";
 import { renderPourPdf } from "@/lib/reports/pour-pdf";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
+import { getPourCsv } from "@/lib/server/get-pour-csv";
 import { getPourReport } from "@/lib/server/get-pour-report";
 import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { recordDisposition } from "@/lib/server/record-disposition";
@@ -238,11 +239,11 @@ describe("the stressing report shows every stressing of every end", () => {
 
   it("as CSV has one row per stressing, in order, with the same strings", async () => {
     const report = await getPourReport(t.db, { projectId: fx.projectId, pourId });
-    const csv = renderPourCsv(report);
+    const csv = renderPourCsv(report, { last: null, current: false });
     writeFileSync("test-results/reports/stressing-report.csv", csv);
     const parsed = Papa.parse<Record<string, string>>(csv, { header: true, skipEmptyLines: true });
     expect(parsed.errors).toEqual([]);
-    const rows = parsed.data.filter((r) => r.Tendon === "S-01");
+    const rows = parsed.data.filter((r) => r.Tendon === "S-01" && r.Section === "stressing");
     expect(rows.map((r) => r.Stressing)).toEqual(["1 original", "2 restress (ordered)"]);
     expect(rows[0]).toMatchObject({
       Operator: crewName,
@@ -260,7 +261,13 @@ describe("the stressing report shows every stressing of every end", () => {
     expect(rows[1]!["Target pressure"]).toMatch(/^\d+ psi$/);
     expect(rows[1]!.Force).toMatch(/^\d+\.\d\d kip$/);
     expect(parsed.data.find((r) => r.Tendon === "S-02")).toMatchObject({ Verdict: "Not stressed", Stressing: "" });
-    expect(pourCsvTable(report).data).toHaveLength(3);
+    expect(pourCsvTable(report, { last: null, current: false }).data.filter((r) => r[2] === "stressing")).toHaveLength(
+      3,
+    );
+    // Nothing signed yet: the CSV says so, in its own section.
+    expect(parsed.data.filter((r) => r.Section === "signature").map((r) => r.Details)).toEqual([
+      "Signature: Not signed: no revision of this report has been signed.",
+    ]);
   }, 60_000);
 });
 
@@ -300,6 +307,24 @@ describe("signing the stressing report", () => {
       signerName: "Dana Okafor",
       pour: "Signed pour",
     });
+    // The CSV as downloaded carries the signature of this content: who, licence, statement, when
+    // (in the project's zone), the content hash and the revision.
+    const signatureOf = async () =>
+      Papa.parse<Record<string, string>>((await getPourCsv(t.db, { projectId: fx.projectId, pourId })).csv, {
+        header: true,
+        skipEmptyLines: true,
+      })
+        .data.filter((r) => r.Section === "signature")
+        .map((r) => r.Details);
+    const signedRows = await signatureOf();
+    expect(signedRows).toEqual([
+      "Signed by: Dana Okafor",
+      "Licence or certification: ICC special inspector 5551234 (invented)",
+      `Statement: ${values.statement}`,
+      expect.stringMatching(/^Signed: \d{4}-\d\d-\d\d \d\d:\d\d C[SD]T$/),
+      `Content sha256: ${first.contentSha256}`,
+      "Revision: 1",
+    ]);
 
     // A paperwork correction of the restress: a new revision of that record, evaluated again.
     const s01 = await t.db
@@ -334,6 +359,13 @@ describe("signing the stressing report", () => {
 
     const pending = await listReportRevisions(t.db, { projectId: fx.projectId, pourId });
     expect(pending.current.signed).toBe(false);
+    // The CSV of the changed content is not signed: revision 1 no longer matches it.
+    const changedRows = await signatureOf();
+    expect(changedRows).toHaveLength(1);
+    expect(changedRows[0]).toMatch(
+      /^Signature: Not signed: the content changed after revision 1 was signed by Dana Okafor on .*; the signed revision no longer matches this content/,
+    );
+    expect(changedRows.join(" ")).not.toContain(first.contentSha256);
     expect(pending.current.changesSinceSigned.join("\n")).toMatch(
       /record S-01 end A stressing 2: revision 1, .* → revision 2/,
     );
@@ -430,4 +462,174 @@ describe("the read-only status board", () => {
       "share.download/denied",
     ]);
   }, 60_000);
+});
+
+describe("lift-off checks and concrete results on the stressing report", () => {
+  it("places each lift-off check in its tendon's sequence and lists the pour's concrete results, on the PDF and the CSV", async () => {
+    const { recordLiftoffCheck } = await import("@/lib/server/record-liftoff-check");
+    const { addConcreteResult } = await import("@/lib/server/add-concrete-result");
+    const { showForce, showPct } = await import("@/lib/format/quantities");
+    const person = (email: string) =>
+      t.db.selectFrom("users").select(["id", "name"]).where("email", "=", email).executeTakeFirstOrThrow();
+    const engineer = await person("engineer@demo.tautline.test");
+    const inspector = await person("inspector@demo.tautline.test");
+    const s01 = await t.db
+      .selectFrom("tendons")
+      .select("id")
+      .where("pour_id", "=", pourId)
+      .where("tag", "=", "S-01")
+      .executeTakeFirstOrThrow();
+    // The engineer orders a lift-off check on S-01's open flag; the crew reads 3,900 psi at lift-off.
+    const open = await t.db
+      .selectFrom("flags")
+      .select("id")
+      .where("tendon_id", "=", s01.id)
+      .where("status", "!=", "closed")
+      .orderBy("created_at")
+      .executeTakeFirstOrThrow();
+    const { dispositionId } = await recordDisposition(t.db, {
+      projectId: fx.projectId,
+      flagId: open.id,
+      engineer,
+      disposition: {
+        decision: "liftoff_check",
+        reasons: "Check the force at the live end by lift-off before deciding.",
+        licenceStatement: "Licensed professional engineer (test)",
+      },
+    });
+    const disposition = await t.db
+      .selectFrom("dispositions")
+      .select("number")
+      .where("id", "=", dispositionId)
+      .executeTakeFirstOrThrow();
+    const dRef = `D-${String(disposition.number).padStart(4, "0")}`;
+    const checked = await recordLiftoffCheck(
+      t.db,
+      { user: { id: fx.crewId, memberships: [{ projectId: fx.projectId, role: "crew" }] }, deviceId: "test-device" },
+      {
+        opId: uuidv7(),
+        kind: "liftoff_check",
+        recordId: uuidv7(),
+        payload: {
+          projectId: fx.projectId,
+          pourId,
+          tendonId: s01.id,
+          dispositionId,
+          tendonEnd: "A",
+          equipmentSetId: fx.setA,
+          pressure: "3900",
+          pressureUnit: "psi",
+          checkedAt: "2026-12-02T16:20:00Z",
+          authorUserId: fx.crewId,
+        },
+      },
+    );
+    expect(checked.status).toBe("applied");
+    const stored = await t.db
+      .selectFrom("liftoff_checks")
+      .selectAll()
+      .where("tendon_id", "=", s01.id)
+      .executeTakeFirstOrThrow();
+
+    // Two concrete results: a 7-day set with no lab report, then a 28-day set with the lab's report.
+    const lab = await t.db
+      .insertInto("attachments")
+      .values({
+        project_id: fx.projectId,
+        purpose: "lab_report",
+        object_key: `test/${uuidv7()}.pdf`,
+        content_type: "application/pdf",
+        size_bytes: 1024,
+        sha256: "0".repeat(64),
+        original_name: "Signed-pour-cylinders-28-day.pdf",
+        status: "stored",
+        uploaded_by: inspector.id,
+        created_at: new Date(),
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    await addConcreteResult(t.db, {
+      projectId: fx.projectId,
+      pourId,
+      by: inspector,
+      result: { specimen: "cylinder", strengthMPa: 3100 * MPA_PER_PSI, ageDays: 7, specimenCount: 2 },
+    });
+    await addConcreteResult(t.db, {
+      projectId: fx.projectId,
+      pourId,
+      by: inspector,
+      result: {
+        specimen: "cylinder",
+        strengthMPa: 5000 * MPA_PER_PSI,
+        ageDays: 28,
+        specimenCount: 3,
+        attachmentId: lab.id,
+      },
+    });
+
+    const report = await getPourReport(t.db, { projectId: fx.projectId, pourId });
+    const units = { unitSystem: "us" as const };
+    const liftoffForce = showForce(units, stored.liftoff_force_n);
+    const expectedForce = showForce(units, stored.expected_force_n);
+    const band = `Lift-off ${stored.within_band ? "within" : "outside"} the ±${stored.band_pct} % band`;
+
+    const pdf = await renderPourPdf(report);
+    writeFileSync("test-results/reports/stressing-report-liftoff.pdf", pdf);
+    // A narrow column may break "lift-off" after its hyphen: the words are read back whole.
+    const text = (await pdfTextOf(pdf)).text.replace(/\s+/g, " ").replace(/(\w)- (\w)/g, "$1-$2");
+    expect(text).toContain(`Lift-off check (ordered by disposition ${dRef})`);
+    expect(text).toContain("final: 3900 psi at lift-off");
+    expect(text).toContain(`gauge: ${liftoffForce} at lift-off; ${expectedForce} expected after seating`);
+    expect(text).toContain(band);
+    // In time order: after the restress of 2026-12-01, at 10:20 on the site's clock.
+    expect(text.indexOf("2 restress (ordered)")).toBeLessThan(text.indexOf("Lift-off check (ordered"));
+    expect(text).toContain("2026-12-02 10:20 CST");
+    expect(text).toContain("Concrete results");
+    expect(text).toMatch(
+      /3,100 psi at 7 days, 2 cylinders, no lab report attached, entered by [^,]+ \d{4}-\d\d-\d\d \d\d:\d\d CST/,
+    );
+    expect(text).toContain(
+      `5,000 psi at 28 days, 3 cylinders, lab report Signed-pour-cylinders-28-day.pdf, entered by ${inspector.name}`,
+    );
+    expect(text.indexOf("3,100 psi at 7 days")).toBeLessThan(text.indexOf("5,000 psi at 28 days"));
+    expect(text).not.toMatch(/[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}/);
+
+    const csv = Papa.parse<Record<string, string>>(renderPourCsv(report, { last: null, current: false }), {
+      header: true,
+      skipEmptyLines: true,
+    });
+    expect(csv.errors).toEqual([]);
+    const s01Rows = csv.data.filter((r) => r.Section === "stressing" && r.Tendon === "S-01");
+    expect(s01Rows.map((r) => r.Stressing)).toEqual([
+      "1 original",
+      // The restress as corrected in the signing test above.
+      "2 restress (ordered), revision 2",
+      `Lift-off check (ordered by disposition ${dRef})`,
+    ]);
+    expect(s01Rows[2]).toMatchObject({
+      End: "A",
+      Stressed: "2026-12-02 10:20 CST",
+      Operator: crewName,
+      "Final pressure": "3900 psi at lift-off",
+      Force: `${liftoffForce} at lift-off; ${expectedForce} expected after seating`,
+      Deviation: showPct(stored.deviation_pct),
+      Verdict: band,
+    });
+    expect(s01Rows[2]!.Calibration).toMatch(/^\d{4}-\d\d-\d\d to \d{4}-\d\d-\d\d/);
+    expect(s01Rows[2]!["Equipment set"]).toBe(s01Rows[1]!["Equipment set"]);
+    expect(csv.data.filter((r) => r.Section === "concrete result").map((r) => r.Details)).toEqual([
+      expect.stringMatching(/^3,100 psi at 7 days, 2 cylinders, no lab report attached, entered by /),
+      expect.stringMatching(
+        /^5,000 psi at 28 days, 3 cylinders, lab report Signed-pour-cylinders-28-day\.pdf, entered by .* CST$/,
+      ),
+    ]);
+
+    // Signing again: the new revision names the lift-off check and the results among what changed.
+    const signer = { id: inspector.id };
+    const values = { signerName: "Dana Okafor", licence: "ICC 5551234 (invented)", statement: "Inspected as listed." };
+    const signed = await signPourReport(t.db, { projectId: fx.projectId, pourId, signer, values });
+    const changes = signed.changes.join("\n");
+    expect(changes).toMatch(/lift-off S-01 end A 2026-12-02 10:20 CST: added/);
+    expect(changes).toMatch(/concrete result .*: added \(5,000 psi at 28 days/);
+  }, 120_000);
 });

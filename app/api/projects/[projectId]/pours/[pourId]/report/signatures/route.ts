@@ -10,7 +10,10 @@ import { signPourReport } from "@/lib/server/sign-pour-report";
 /** The signed revisions of the pour's stressing report, and whether the report has changed since. */
 export const GET = route(
   { params: pourParamsSchema, access: ({ params }) => authorize("report.download", params.projectId) },
-  async ({ params }) => listReportRevisions(db, params),
+  async ({ params }) => {
+    const { timeZone, revisions, current } = await listReportRevisions(db, params);
+    return { timeZone, revisions, current };
+  },
 );
 
 /** The inspector signs the report as it stands: a new frozen revision. */

@@ -1,0 +1,37 @@
+import { formatDateTime } from "@/lib/format/dates";
+import type { SignatureBlock } from "./pdf-frame";
+
+/**
+ * The signature section of a report's CSV (the pour's stressing report and the day's inspection
+ * report alike). The CSV is drawn live from the records, so it carries the signature only when the
+ * last signed revision is of exactly this content (the same content sha256); otherwise it says it
+ * is not signed, and why. Pure.
+ */
+export interface SignatureState {
+  /** The last signed revision, or null when none has been signed. */
+  last: Pick<SignatureBlock, "revision" | "signerName" | "licence" | "statement" | "signedAt" | "contentSha256"> | null;
+  /** Whether the content as it stands is the last signed revision's (same content sha256). */
+  current: boolean;
+}
+
+export function signatureLines(state: SignatureState, timeZone: string): [string, string][] {
+  const s = state.last;
+  if (!s) return [["Signature", "Not signed: no revision of this report has been signed."]];
+  const signedAt = formatDateTime(s.signedAt, timeZone);
+  if (!state.current)
+    return [
+      [
+        "Signature",
+        `Not signed: the content changed after revision ${s.revision} was signed by ${s.signerName} on ${signedAt}; ` +
+          `the signed revision no longer matches this content, which needs a new signature.`,
+      ],
+    ];
+  return [
+    ["Signed by", s.signerName],
+    ["Licence or certification", s.licence],
+    ["Statement", s.statement],
+    ["Signed", signedAt],
+    ["Content sha256", s.contentSha256],
+    ["Revision", String(s.revision)],
+  ];
+}
