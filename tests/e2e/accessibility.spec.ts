@@ -5,9 +5,13 @@ import { screenshot } from "./support";
 
 /** Automated accessibility checks (axe-core, WCAG 2 A and AA rules) on the main screens. */
 
-/** Every violation axe finds (any impact): no page may have one. */
-async function expectNoViolations(page: Page, where: string) {
-  const results = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
+/**
+ * Every violation axe finds (any impact): no page may have one. `bestPractice` adds axe's
+ * best-practice rules (one main landmark, content inside landmarks, heading order…).
+ */
+async function expectNoViolations(page: Page, where: string, bestPractice = false) {
+  const tags = ["wcag2a", "wcag2aa", "wcag21a", "wcag21aa", ...(bestPractice ? ["best-practice"] : [])];
+  const results = await new AxeBuilder({ page }).withTags(tags).analyze();
   const found = results.violations.map(
     (v) => `${v.id} (${v.impact}): ${v.help} (${v.nodes.length}× e.g. ${v.nodes[0]?.target.join(" ")})`,
   );
@@ -67,14 +71,17 @@ test("every office page has no axe violation at all, charts included", async ({ 
   }
 });
 
-/** The desktop (1440×900) and the tablet (1280×800) picture of a page, each checked by axe at that size. */
+/**
+ * The desktop (1440×900) and the tablet (1280×800) picture of a page, each checked by axe at that
+ * size, best practice (landmarks, heading order) included.
+ */
 async function checkAtBothSizes(page: Page, name: string, where: string) {
   for (const size of [
     { width: 1440, height: 900 },
     { width: 1280, height: 800 },
   ]) {
     await page.setViewportSize(size);
-    await expectNoViolations(page, `${where} at ${size.width}×${size.height}`);
+    await expectNoViolations(page, `${where} at ${size.width}×${size.height}`, true);
     await page.evaluate(() => window.scrollTo(0, 0));
     await screenshot(page, `a11y-${name}-${size.width}`);
   }
