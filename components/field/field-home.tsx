@@ -21,6 +21,7 @@ import { useLiveQuery as useLive } from "dexie-react-hooks";
 import { clockTime, useNow } from "./use-live";
 import { countOf } from "@/lib/format/count";
 import { dayInZone, formatDateTime, formatShortAge, projectTimeZone, shiftDay } from "@/lib/format/dates";
+import { orderPoursForCrew } from "@/lib/format/pour-order";
 
 /** The crew's landing: pours ready offline with what they hold, and pours to take out. */
 export function FieldHome() {
@@ -28,9 +29,13 @@ export function FieldHome() {
   const now = useNow();
   const session = useLive(() => readMeta<SessionMeta>(db, "session"), [db]);
   const ready = useLive(async () => {
-    const pours = await db.pours.toArray();
+    const [pours, projects] = await Promise.all([db.pours.toArray(), db.projects.toArray()]);
+    // The crew's order, as on the server's list: today's on site first, then coming, past, undated.
+    const zoneOf = new Map(projects.map((p) => [p.id, projectTimeZone(p)]));
+    const at = Date.now();
+    const ordered = orderPoursForCrew(pours, (pour) => dayInZone(at, zoneOf.get(pour.projectId) ?? "UTC"));
     return Promise.all(
-      pours.map(async (pour) => {
+      ordered.map(async (pour) => {
         const tendons = await db.tendons.where("pourId").equals(pour.id).toArray();
         const records = await db.records.where("pourId").equals(pour.id).toArray();
         const sets = await db.equipmentSets.where("projectId").equals(pour.projectId).toArray();

@@ -4,22 +4,34 @@ import Link from "next/link";
  * The states every office page shares, shown inside the signed-in layout so the navigation stays:
  * loading (what is being gathered), not found (what may have happened, and where to go).
  * The error state is in segment-error.tsx, since error boundaries run in the browser.
+ * `inMain`: the layout already wraps its pages in <main> (the sign-in and public shells), so the
+ * state is a plain block there; a page has one main landmark.
  */
-export function SegmentLoading({ what }: { what: string }) {
+export function SegmentLoading({ what, inMain = false }: { what: string; inMain?: boolean }) {
+  const Wrapper = inMain ? "div" : "main";
   return (
-    <main className="space-y-4" aria-busy="true">
+    <Wrapper className="space-y-4" aria-busy="true">
       <p role="status" className="text-lead font-semibold">
         Gathering {what}…
       </p>
       <div className="h-10 w-2/3 animate-pulse rounded-md bg-concrete-200" />
       <div className="h-48 animate-pulse rounded-md bg-concrete-200" />
-    </main>
+    </Wrapper>
   );
 }
 
-export function SegmentNotFound({ what, back }: { what: string; back: { href: string; label: string } }) {
+export function SegmentNotFound({
+  what,
+  back,
+  inMain = false,
+}: {
+  what: string;
+  back: { href: string; label: string };
+  inMain?: boolean;
+}) {
+  const Wrapper = inMain ? "div" : "main";
   return (
-    <main className="max-w-2xl space-y-4">
+    <Wrapper className="max-w-2xl space-y-4">
       <p className="field-label">Not found</p>
       <h1 className="text-figure font-bold">There is no {what} at this address.</h1>
       <p className="text-ink-soft">
@@ -29,6 +41,6 @@ export function SegmentNotFound({ what, back }: { what: string; back: { href: st
       <Link href={back.href} className="btn-primary">
         {back.label}
       </Link>
-    </main>
+    </Wrapper>
   );
 }

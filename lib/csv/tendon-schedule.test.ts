@@ -84,6 +84,115 @@ describe("tendon schedule CSV: good files", () => {
   });
 });
 
+describe("tendon schedule CSV: lengths as people write them", () => {
+  // Read like every length box of the app (lib/units parseLength). Check values from 1 in = 25.4 mm and
+  // 1 ft = 304.8 mm exactly (international yard and pound agreement, 1959): 40' 6" = 12,344.4 mm,
+  // 15 ft = 4,572 mm, 10' 0 1/2" = 3,060.7 mm, 5 1/4 in = 133.35 mm, 8 3/8 in = 212.725 mm.
+  const one = (segments: string, grip = "", shop = "", header = HEADER) =>
+    parseTendonSchedule([header, `T1,monostrand,0.5,1,A,${segments},${grip},${shop},`].join("\n"));
+  const cases: {
+    title: string;
+    segments: string;
+    grip?: string;
+    shop?: string;
+    mm: number[];
+    gripMm?: number;
+    shopMm?: number;
+  }[] = [
+    { title: "feet and inches with marks", segments: `"40' 6""@1.6"`, mm: [12_344.4] },
+    { title: "feet and inches in words", segments: "40 ft 6 in@1.6", mm: [12_344.4] },
+    { title: "a length in metres in a feet column", segments: "12.5 m@1.6", mm: [12_500] },
+    {
+      title: "segments of different forms in one cell",
+      segments: `"15@1.6 40 ft 6 in@0.5 12.5 m@0 10' 0 1/2""@2"`,
+      mm: [4572, 12_344.4, 12_500, 3060.7],
+    },
+    {
+      title: "an inch fraction in an inch column",
+      segments: "15@1.6",
+      grip: "5 1/4",
+      mm: [4572],
+      gripMm: 133.35,
+    },
+    { title: "millimetres in an inch column", segments: "15@1.6", shop: "212 mm", mm: [4572], shopMm: 212 },
+    {
+      title: "inches with the inch mark",
+      segments: "15@1.6",
+      shop: `"8 3/8"""`,
+      mm: [4572],
+      shopMm: 212.725,
+    },
+  ];
+  for (const c of cases)
+    it(`reads ${c.title}`, () => {
+      const result = one(c.segments, c.grip, c.shop);
+      expect(result.ok ? "" : result.errors.map((e) => e.message).join("; ")).toBe("");
+      if (!result.ok) return;
+      const [t] = result.tendons;
+      expect(t!.segments.map((s) => s.lengthMm)).toHaveLength(c.mm.length);
+      t!.segments.forEach((s, i) => expect(s.lengthMm).toBeCloseTo(c.mm[i]!, 9));
+      if (c.gripMm !== undefined) expect(t!.jackGripMm).toBeCloseTo(c.gripMm, 9);
+      if (c.shopMm !== undefined) expect(t!.shopElongationMm).toBeCloseTo(c.shopMm, 9);
+    });
+
+  it("reads feet and inches in a metre column too: a bare number there is metres", () => {
+    const result = one("40 ft 6 in@1.6 12@0", "", "", HEADER.replace("[ft@deg]", "[m@deg]"));
+    expect(result.ok && result.tendons[0]!.segments.map((s) => Math.round(s.lengthMm * 1000) / 1000)).toEqual([
+      12_344.4, 12_000,
+    ]);
+  });
+
+  const bad: { title: string; segments: string; grip?: string; column: string; says: RegExp }[] = [
+    {
+      title: "a word for a length",
+      segments: "15@1.6",
+      grip: "eighteen",
+      column: "jack grip",
+      says: /"eighteen" is not a number/,
+    },
+    { title: "an unknown unit", segments: "15 yd@1.6", column: "segments", says: /^Segment 1: .*unit "yd"/ },
+    {
+      title: "inches of 12 or more after the feet",
+      segments: `"15@1 40' 13""@1.6"`,
+      column: "segments",
+      says: /^Segment 2: .*below 12/,
+    },
+    {
+      title: "a fraction of a metre",
+      segments: "5 1/4 m@1.6",
+      column: "segments",
+      says: /fractions are read as inches only/,
+    },
+    {
+      title: "a negative length",
+      segments: "-15@1.6",
+      column: "segments",
+      says: /^Segment 1: "-15" is negative/,
+    },
+    {
+      title: "a segment without its angle",
+      segments: "40 ft 6 in@",
+      column: "segments",
+      says: /"40 ft 6 in@" is not length@angle/,
+    },
+    {
+      title: "a length without an angle after the last segment",
+      segments: "15@1.6 20",
+      column: "segments",
+      says: /is not length@angle/,
+    },
+  ];
+  for (const c of bad)
+    it(`refuses ${c.title}, naming the line and the column`, () => {
+      const result = one(c.segments, c.grip);
+      expect(result.ok).toBe(false);
+      if (result.ok) return;
+      expect(result.errors).toHaveLength(1);
+      expect(result.errors[0]).toMatchObject({ row: 2, column: c.column });
+      expect(result.errors[0]!.message).toMatch(c.says);
+    });
+});
+
 describe("tendon schedule CSV: bad files, every error by line and column", () => {
   it("names a missing column and a wrong unit in the header", () => {
     const result = parseTendonSchedule("tag,type,strand size [in],strands,segments [yd@deg]\nT1,monostrand,0.5,1,10@1");

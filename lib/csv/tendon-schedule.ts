@@ -4,6 +4,7 @@ import { findStrandSize } from "@/lib/elongation";
 import {
   FORCE_UNITS,
   getUnit,
+  InputError,
   isInputError,
   MM_PER_FOOT,
   MM_PER_INCH,
@@ -169,27 +170,36 @@ export function parseTendonSchedule(
   };
   const unitOf = (key: string) => index.get(key)?.unit ?? "";
   const [segLength, segAngle] = unitOf("segments").split("@") as [LengthHeaderUnit, AngleUnit];
-  const segmentFactor = segLength === "ft" ? MM_PER_FOOT : 1000;
   const angleFactor = segAngle === "deg" ? Math.PI / 180 : 1;
   const forceUnit = (FORCE_UNITS.find((u) => u.unit.toLowerCase() === unitOf("jacking force"))?.unit ??
     "kN") satisfies ForceUnit;
-  const optionalLength = (row: string[], key: string, line: number): number | null | undefined => {
-    const text = cell(row, key);
-    if (!text) return null;
-    const unit = unitOf(key) as "in" | "mm";
-    if (unit === "in" && /^[0-9]+(\s+[0-9]+\/[0-9]+)?$|^[0-9]+\/[0-9]+$|^[0-9]*\.[0-9]+$/.test(text)) {
-      return parseLength(text, { field: key, system: "US", defaultUnit: "in" });
-    }
-    const n = parseNumber(text);
-    if (n === null) {
+  /**
+   * A length cell, read like every length box of the app (`parseLength` of lib/units): decimals, inch
+   * fractions ("5 1/4"), feet and inches ("40' 6\"", "40 ft 6 in") or a number with its own unit
+   * ("12.5 m"); a bare number is in the header's unit. Undefined after naming the fault.
+   */
+  const UNIT_WORDS = { ft: "feet", m: "metres", in: "inches", mm: "millimetres" } as const;
+  const readLength = (text: string, unit: LengthHeaderUnit, column: string, line: number, what = "") => {
+    try {
+      return parseLength(text, {
+        field: column,
+        system: unit === "ft" || unit === "in" ? "US" : "SI",
+        defaultUnit: unit,
+      });
+    } catch (e) {
+      if (!(e instanceof InputError)) throw e;
       add(
         line,
-        key,
-        `"${text}" is not a length in ${unit}${unit === "in" ? " (decimal or a fraction like 8 3/8)" : ""}.`,
+        column,
+        `${what}${e.reason}. Write a number of ${UNIT_WORDS[unit]} or a length with its unit: 8 3/8 in, 40' 6", 40 ft 6 in, 12.5 m.`,
       );
       return undefined;
     }
-    return unit === "in" ? n * MM_PER_INCH : n;
+  };
+  const optionalLength = (row: string[], key: string, line: number): number | null | undefined => {
+    const text = cell(row, key);
+    if (!text) return null;
+    return readLength(text, unitOf(key) as LengthHeaderUnit, key, line);
   };
 
   const seen = new Map<string, number>();
@@ -240,16 +250,25 @@ export function parseTendonSchedule(
     const segments: { lengthMm: number; angleRad: number }[] = [];
     const segText = cell(row, "segments");
     if (!segText) add(line, "segments", "Give the profile as length@angle per segment, like 15@1.6 15@1.6.");
-    for (const part of segText.split(/\s+/).filter(Boolean)) {
-      const [l, a, extra] = part.split("@");
-      const length = parseNumber(l ?? "");
-      const angle = parseNumber(a ?? "");
-      if (length === null || angle === null || extra !== undefined) {
-        add(line, "segments", `"${part}" is not length@angle (in ${segLength}@${segAngle}).`);
+    // "L1@A1 L2@A2": a length may hold spaces (40 ft 6 in), an angle does not, so the text between two
+    // "@" is the angle before the first space and the next segment's length after it.
+    const pieces = segText ? segText.split("@") : [];
+    let lengthText = pieces[0]?.trim() ?? "";
+    for (let k = 1; k < pieces.length; k++) {
+      const rest = pieces[k]!.trim();
+      const split = k === pieces.length - 1 ? [rest, ""] : (/^(\S+)\s+(\S.*)$/.exec(rest)?.slice(1) ?? null);
+      const angle = split ? parseNumber(split[0]!) : null;
+      if (!split || angle === null || !lengthText) {
+        add(line, "segments", `"${lengthText}@${rest}" is not length@angle (in ${segLength}@${segAngle}).`);
         break;
       }
-      segments.push({ lengthMm: length * segmentFactor, angleRad: angle * angleFactor });
+      const lengthMm = readLength(lengthText, segLength, "segments", line, `Segment ${k}: `);
+      if (lengthMm === undefined) break;
+      segments.push({ lengthMm, angleRad: angle * angleFactor });
+      lengthText = split[1]!.trim();
     }
+    if (segText && pieces.length < 2)
+      add(line, "segments", `"${segText}" is not length@angle (in ${segLength}@${segAngle}).`);
 
     const jackGripMm = optionalLength(row, "jack grip", line);
     const shopElongationMm = optionalLength(row, "shop elongation", line);

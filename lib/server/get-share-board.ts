@@ -10,7 +10,8 @@ import { recordAudit } from "./record-audit";
 /**
  * What a read-only link shows: the project's pours with their state on the board and the signed
  * revisions of each stressing report. Nothing about the crew: the only names are the signers', as
- * the signed reports print them. A revoked or expired link is gone (410); every view is audited.
+ * the signed reports print them. A revoked or expired link is gone (410), a token that was never
+ * issued is not found (404); every view is audited.
  */
 
 export interface BoardPour {
@@ -53,9 +54,34 @@ async function resolveLink(db: Kysely<Database>, token: string, ip: string | nul
       ? { label: link.label, ...(ended ? { reason: link.revoked_at ? "revoked" : "expired" } : {}) }
       : { reason: "unknown" },
   });
-  if (!link || ended)
-    throw new AppError("GONE", "This link has expired or was revoked. Ask the project team for a new one.");
+  if (!link) throw new AppError("NOT_FOUND", "There is no read-only link at this address.");
+  if (ended) throw new AppError("GONE", "This link has expired or was revoked. Ask the project team for a new one.");
   return link;
+}
+
+/**
+ * Whether a token was ever issued (live, expired or revoked), for the page's 404 before it streams.
+ * A token never issued is audited as a denied view, as `getShareBoard` would; the page audits the rest.
+ */
+export async function shareLinkIssued(
+  db: Kysely<Database>,
+  input: { token: string; ip?: string | null },
+): Promise<boolean> {
+  const row = await db
+    .selectFrom("share_links")
+    .select("id")
+    .where("token_sha256", "=", hashToken(input.token))
+    .executeTakeFirst();
+  if (!row)
+    await recordAudit(db, {
+      action: "share.view",
+      outcome: "denied",
+      projectId: null,
+      target: null,
+      ip: input.ip ?? null,
+      detail: { reason: "unknown" },
+    });
+  return row !== undefined;
 }
 
 export async function getShareBoard(

@@ -3,13 +3,19 @@ import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { AppError } from "@/lib/errors";
 import type { SessionUser } from "@/lib/auth/session";
+import { dayInZone, projectTimeZone } from "@/lib/format/dates";
+import { orderPoursForCrew } from "@/lib/format/pour-order";
 import type { AvailablePour } from "@/lib/schemas/sync";
 import { recordingProjectIds } from "./require-recorder";
 
-/** The pours a crew member may take out on the tablet, newest stressing date first. */
+/**
+ * The pours a crew member may take out on the tablet, in the crew's order (`orderPoursForCrew`):
+ * today's on site first (each project's own time zone), then the coming ones, the past ones, the undated.
+ */
 export async function listFieldPours(
   db: Kysely<Database>,
   user: Pick<SessionUser, "memberships">,
+  now: Date = new Date(),
 ): Promise<{ pours: AvailablePour[] }> {
   const projectIds = recordingProjectIds(user);
   if (!projectIds.length) return { pours: [] };
@@ -25,6 +31,7 @@ export async function listFieldPours(
       "pours.project_id",
       "projects.code",
       "projects.name as project_name",
+      "projects.time_zone",
       "pours.name",
       "pours.level",
       "pours.planned_stressing_date",
@@ -34,11 +41,16 @@ export async function listFieldPours(
     .where("pours.project_id", "in", projectIds)
     .groupBy(["pours.id", "projects.id", "pour_states.status"])
     .orderBy("projects.name")
-    .orderBy("pours.planned_stressing_date", "desc")
     .orderBy("pours.name")
     .execute();
+  const todayIn = new Map<string, string>();
+  const today = (zone: string) => todayIn.get(zone) ?? todayIn.set(zone, dayInZone(now, zone)).get(zone)!;
+  const ordered = orderPoursForCrew(
+    rows.map((r) => ({ ...r, plannedStressingDate: r.planned_stressing_date })),
+    (r) => today(projectTimeZone(r)),
+  );
   return {
-    pours: rows.map((r) => ({
+    pours: ordered.map((r) => ({
       id: r.id,
       projectId: r.project_id,
       projectCode: r.code,

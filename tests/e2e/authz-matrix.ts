@@ -102,8 +102,9 @@ export const MATRIX: Record<string, Expected> = {
   "POST /api/projects/[projectId]/share-links": projectAction(201, ["admin", "inspector", "engineer"]),
   // Revoking a link that does not exist: the roles allowed pass the access check and get 404.
   "DELETE /api/projects/[projectId]/share-links/[linkId]": projectAction(404, ["admin", "inspector", "engineer"]),
-  // A read-only link's token is the authorization: an unknown one is gone for everyone.
-  "GET /api/share/[token]/reports/[pourId]/[revision]": everyone(410),
+  // A read-only link's token is the authorization: one never issued is not found for everyone
+  // (an expired or revoked one is gone, 410: share-board.spec.ts).
+  "GET /api/share/[token]/reports/[pourId]/[revision]": everyone(404),
   // Public: a report file's sha256 in, whether it is a signed revision out (audited).
   "POST /api/report-verifications": everyone(200),
   "GET /api/projects/[projectId]/tendons/[tendonId]": projectAction(200, ["admin", "crew", "inspector", "engineer"]),

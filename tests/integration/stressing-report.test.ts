@@ -433,6 +433,8 @@ describe("the read-only status board", () => {
     const file = await readSharedReport(t.db, { token: link.token, pourId, revision: 2, now });
     expect(Buffer.from(file.body.subarray(0, 5)).toString()).toBe("%PDF-");
 
+    // A token never issued is not found, unlike one that ended.
+    await expect(getShareBoard(t.db, { token: "A".repeat(43), now })).rejects.toMatchObject({ code: "NOT_FOUND" });
     // Expired a moment after its last day.
     await expect(
       getShareBoard(t.db, { token: link.token, now: new Date(link.expiresAt.getTime() + 1000) }),

@@ -1,4 +1,5 @@
 import { headers } from "next/headers";
+import { notFound } from "next/navigation";
 import { db } from "@/db";
 import { isAppError } from "@/lib/errors";
 import { formatDateTime } from "@/lib/format/dates";
@@ -16,12 +17,13 @@ export const dynamic = "force-dynamic";
 export default async function SharedBoardPage({ params }: { params: Promise<{ token: string }> }) {
   const { token } = await params;
   const forwarded = (await headers()).get("x-forwarded-for")?.split(",")[0]?.trim() ?? null;
-  const board = shareTokenSchema.safeParse(token).success
-    ? await getShareBoard(db, { token, ip: forwarded }).catch((e: unknown) => {
-        if (isAppError(e) && e.code === "GONE") return null;
-        throw e;
-      })
-    : null;
+  // A token that is not one of ours, or was never issued, answers 404 with the not-found state.
+  if (!shareTokenSchema.safeParse(token).success) notFound();
+  const board = await getShareBoard(db, { token, ip: forwarded }).catch((e: unknown) => {
+    if (isAppError(e) && e.code === "GONE") return null;
+    if (isAppError(e) && e.code === "NOT_FOUND") notFound();
+    throw e;
+  });
   if (!board)
     return (
       <div className="card space-y-3">
@@ -51,7 +53,7 @@ export default async function SharedBoardPage({ params }: { params: Promise<{ to
         <tbody>
           {board.pours.map((p) => (
             <tr key={p.pourId} className="border-b border-concrete-300 align-top" data-pour={p.name}>
-              <td className="py-2 pr-4 font-semibold">
+              <td className="whitespace-nowrap py-2 pr-4 font-semibold">
                 {p.name}
                 {p.level ? <span className="block text-label text-ink-soft">{p.level}</span> : null}
               </td>
