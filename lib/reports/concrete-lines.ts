@@ -1,5 +1,6 @@
 import { formatDateTime } from "@/lib/format/dates";
 import { type DisplayUnits, showStrength } from "@/lib/format/quantities";
+import type { ConcreteSpecimen } from "@/lib/schemas/domain";
 
 /**
  * One concrete test result in words, the same on the pour's stressing report and the day's
@@ -8,7 +9,7 @@ import { type DisplayUnits, showStrength } from "@/lib/format/quantities";
  * Pure.
  */
 export interface ConcreteResultWords {
-  specimen: "cylinder" | "cube";
+  specimen: ConcreteSpecimen;
   strengthMPa: number;
   ageDays: number;
   specimenCount: number;

@@ -9,7 +9,7 @@ import { onReportDay, remarksOfSnapshot } from "@/lib/reports/daily-rows";
 import type { DailyAttestation } from "@/lib/schemas/daily-report";
 import type { ReportSnapshot } from "@/lib/reports/report-changes";
 import type { StoredResolution } from "@/lib/format/quantities";
-import { getPourReport, type PourReport, type ReportFlag } from "./get-pour-report";
+import { getPourReport, type PourReport, type ReportConcreteResult, type ReportFlag } from "./get-pour-report";
 import type { PourRecord } from "./list-pour-records";
 
 /**
@@ -62,17 +62,8 @@ export interface DailyReport {
   engineVersion: string;
   project: PourReport["project"];
   pours: DailyPour[];
-  concrete: {
-    pourName: string;
-    specimen: "cylinder" | "cube";
-    strengthMPa: number;
-    ageDays: number;
-    specimenCount: number;
-    /** The laboratory's report by its file name; null when none was attached. */
-    labReport: string | null;
-    enteredBy: string;
-    at: Date;
-  }[];
+  /** The concrete results entered that day, each as the pour's report gives it, with its pour. */
+  concrete: (ReportConcreteResult & { pourName: string })[];
   tailCuts: { pourName: string; tag: string; cutBy: string; at: Date; heldReasons: string[] }[];
   remarks: string;
   witnessGroups: WitnessGroup[];

@@ -13,6 +13,7 @@ import { findFlagTrail } from "./find-flag-trail";
 import { findStandingRelease } from "./find-standing-release";
 import { listPourRecords, type PourRecord } from "./list-pour-records";
 import { listTendonResults, type TendonResult } from "./list-tendon-results";
+import type { ConcreteResultWords } from "@/lib/reports/concrete-lines";
 
 /**
  * Everything the pour's stressing report says, in SI as stored: the project and its computation
@@ -83,17 +84,8 @@ export interface ReportLiftoff {
   raisedFlagReference: string | null;
 }
 
-/** A concrete test result of the pour, as entered. */
-export interface ReportConcreteResult {
-  specimen: "cylinder" | "cube";
-  strengthMPa: number;
-  ageDays: number;
-  specimenCount: number;
-  /** The laboratory's report as uploaded, by its file name; null when none was attached. */
-  labReport: string | null;
-  enteredBy: string;
-  at: Date;
-}
+/** A concrete test result of the pour, as entered (the words of `lib/reports/concrete-lines.ts`). */
+export type ReportConcreteResult = ConcreteResultWords;
 
 export interface PourReport {
   /**
