@@ -432,7 +432,7 @@ export function RecordForm({
   return (
     <form
       onSubmit={handleSubmit(submit)}
-      className="card grid gap-3 p-3"
+      className="card grid min-w-0 gap-3 p-3"
       aria-label={correcting ? "Correct the record" : "New record"}
       data-testid="record-form"
       noValidate
@@ -490,7 +490,9 @@ export function RecordForm({
         />
       )}
 
-      <fieldset aria-describedby={groupError("equipmentSetId", err.equipmentSetId?.message)}>
+      {/* min-w-0: a fieldset is at least as wide as its content by default, which would let the
+          sets' row widen the form instead of scrolling inside it. */}
+      <fieldset className="min-w-0" aria-describedby={groupError("equipmentSetId", err.equipmentSetId?.message)}>
         <legend className="field-label">
           Equipment set
           {notOffered > 0 && (

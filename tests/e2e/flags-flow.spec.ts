@@ -175,9 +175,13 @@ test("an out-of-band tendon is flagged, mailed, reviewed, restressed and only th
     await signInWithPassword(page, PEOPLE.inspector);
     await page.waitForURL(/\/home$/);
     await page.goto("/review");
-    await expect(page.getByRole("link", { name: `Tendon ${TAG}` })).toBeVisible();
     // The record's tablet time is 30 minutes before the server got it: beyond the default 10 minutes.
+    // The flag's card says so, and the list of times to check names the record too.
     const card = page.getByRole("listitem").filter({ has: page.getByRole("link", { name: `Tendon ${TAG}` }) });
+    await expect(card).toBeVisible();
+    await expect(
+      page.getByRole("region", { name: /Times to check/ }).getByRole("link", { name: `Tendon ${TAG}` }),
+    ).toBeVisible();
     await expect(card.locator("[data-clock-skew]")).toContainText("Check the time");
     await expect(card).toContainText("Latest verdict");
     await screenshot(page, `review-queue-${viewport.name}`);

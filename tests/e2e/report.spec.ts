@@ -51,7 +51,7 @@ test("the engineer reads a pour's insight and downloads its stressing report", a
   expect(csv.status()).toBe(200);
   expect(csv.headers()["content-type"]).toMatch(/^text\/csv/);
   expect(csv.headers()["content-disposition"]).toMatch(/filename="AYP-L2-Pour-1-stressing-report\.csv"/);
-  expect(await csv.text()).toMatch(/^Project,Pour,Tendon,/);
+  expect(await csv.text()).toMatch(/^Project,Pour,Section,Tendon,/);
 
   const unknown = await page.request.get(
     pdfLink &&
