@@ -15,7 +15,7 @@ export const outOfBand: Rule = ({ input, judgement: j }) => {
     reason:
       `Measured ${showLength(p, j.measuredMm)} against ${showLength(p, j.predictedMm)} predicted ` +
       `(${j.basisLabel}): ${showPct(c.deviationPct)}, ${c.verdict} of the ±${p.tolerancePct} % band ` +
-      `(${showBandEdge(p, c.lowerMm, "lower")} to ${showBandEdge(p, c.upperMm, "upper")}, never rounded outward).`,
+      `(${showBandEdge(p, c.lowerMm, "lower")} to ${showBandEdge(p, c.upperMm, "upper")}).`,
     recordId: j.ends.at(-1)?.record.id ?? null,
   };
 };
