@@ -41,6 +41,15 @@ const FIELDS: readonly string[] = [
   "strandsDetensioned",
   "remarks",
 ];
+/** The boxes typed into, and the field of the payload each one's problem belongs to. */
+type Box = "when" | "operator" | "pressure" | "strands" | "remarks";
+const BOX_FIELD: Record<Box, Field> = {
+  when: "detensionedAt",
+  operator: "operatorName",
+  pressure: "pressure",
+  strands: "strandsDetensioned",
+  remarks: "remarks",
+};
 /** A tablet clock a little ahead of the server is no fault; the server allows the same. */
 const FUTURE_SLACK_MS = 10 * 60 * 1000;
 
@@ -146,22 +155,30 @@ function DetensionForm(
   const timeZone = projectTimeZone(project);
   // The box shows minutes; left as it was offered, the detension is stamped with the moment of saving.
   const [offered] = useState(() => localInputValue(new Date(), timeZone));
-  const [when, setWhen] = useState(offered);
-  const [operator, setOperator] = useState(session.name);
+  const [values, setValues] = useState<Record<Box, string>>(() => ({
+    when: offered,
+    operator: session.name,
+    pressure: "",
+    strands: String(tendon.strandCount),
+    remarks: "",
+  }));
+  const { when, operator, pressure, strands, remarks } = values;
   const [setId, setSetId] = useState(sets.length === 1 ? sets[0]!.id : "");
-  const [pressure, setPressure] = useState("");
-  const [strands, setStrands] = useState(String(tendon.strandCount));
-  const [remarks, setRemarks] = useState("");
   const [errors, setErrors] = useState<Partial<Record<Field | "root", string>>>({});
   const [busy, setBusy] = useState(false);
-  const ids = {
-    when: useId(),
-    operator: useId(),
-    set: useId(),
-    pressure: useId(),
-    strands: useId(),
-    remarks: useId(),
-  };
+  const formId = useId();
+  /** What ties a box to its value, its problem and its test id. */
+  const box = (name: Box) => ({
+    id: `${formId}-${name}`,
+    value: values[name],
+    onChange: (e: React.ChangeEvent<HTMLInputElement | HTMLTextAreaElement>) => {
+      const value = e.target.value;
+      setValues((v) => ({ ...v, [name]: value }));
+    },
+    "data-testid": `detension-${name}`,
+    error: errors[BOX_FIELD[name]],
+    announce: true,
+  });
 
   const submit = async (event: React.FormEvent) => {
     event.preventDefault();
@@ -222,67 +239,21 @@ function DetensionForm(
   return (
     <form className="grid gap-4" onSubmit={(e) => void submit(e)} noValidate data-testid="detension-form">
       <FormProblem message={errors.root} />
-      <FormField
-        id={ids.when}
-        label={`When (${timeZone})`}
-        type="datetime-local"
-        value={when}
-        onChange={(e) => setWhen(e.target.value)}
-        data-testid="detension-when"
-        error={errors.detensionedAt}
-        announce
-      />
-      <FormField
-        id={ids.operator}
-        label="Jack operator"
-        autoComplete="off"
-        value={operator}
-        onChange={(e) => setOperator(e.target.value)}
-        data-testid="detension-operator"
-        error={errors.operatorName}
-        announce
-      />
+      <FormField {...box("when")} label={`When (${timeZone})`} type="datetime-local" />
+      <FormField {...box("operator")} label="Jack operator" autoComplete="off" />
       <SetChoice
         name="detension-set"
         sets={sets}
         value={setId}
         onChange={setSetId}
-        errorId={`${ids.set}-error`}
+        errorId={`${formId}-set-error`}
         error={errors.equipmentSetId}
       />
       <div className="grid gap-4 landscape:grid-cols-2">
-        <FormField
-          id={ids.pressure}
-          label={`Gauge pressure at release (${unit}, if read)`}
-          numeric
-          value={pressure}
-          onChange={(e) => setPressure(e.target.value)}
-          data-testid="detension-pressure"
-          error={errors.pressure}
-          announce
-        />
-        <FormField
-          id={ids.strands}
-          label={`Strands detensioned (of ${tendon.strandCount})`}
-          numeric="integer"
-          value={strands}
-          onChange={(e) => setStrands(e.target.value)}
-          data-testid="detension-strands"
-          error={errors.strandsDetensioned}
-          announce
-        />
+        <FormField {...box("pressure")} label={`Gauge pressure at release (${unit}, if read)`} numeric />
+        <FormField {...box("strands")} label={`Strands detensioned (of ${tendon.strandCount})`} numeric="integer" />
       </div>
-      <FormField
-        as="textarea"
-        id={ids.remarks}
-        label="Remarks"
-        rows={2}
-        value={remarks}
-        onChange={(e) => setRemarks(e.target.value)}
-        data-testid="detension-remarks"
-        error={errors.remarks}
-        announce
-      />
+      <FormField as="textarea" {...box("remarks")} label="Remarks" rows={2} />
       <p>
         Recorded by <strong>{session.name}</strong>. After the detension the tendon stays held until its restress is
         logged.
