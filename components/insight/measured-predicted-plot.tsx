@@ -3,19 +3,11 @@
 import { ReferenceLine, XAxis, YAxis } from "recharts";
 import { niceAxis } from "@/lib/format/axis";
 import { showNumber } from "@/lib/format/quantities";
-import type { ElongationPoint } from "./verdict-marks";
+import type { MeasuredPredictedData } from "./verdict-marks";
 import { VerdictScatter } from "./verdict-scatter";
 
 /** The measured-against-predicted chart's drawing (recharts), loaded only where the chart is shown. */
-export function MeasuredPredictedPlot({
-  points,
-  tolerancePct,
-  unit,
-}: {
-  points: ElongationPoint[];
-  tolerancePct: number;
-  unit: string;
-}) {
+export function MeasuredPredictedPlot({ points, tolerancePct, unit }: MeasuredPredictedData) {
   const values = points.flatMap((p) => [p.predicted, p.measured]);
   // Both axes alike, on round values of the unit shown, so the equal line runs corner to corner.
   const axis = niceAxis(Math.max(0, Math.min(...values) * 0.85), Math.max(...values) * 1.1, 5);
