@@ -1,18 +1,26 @@
 "use client";
 import { FormField } from "@/components/ui/form-field";
 import { useId, useState } from "react";
-import { SafetyCaution } from "@/components/ui/caution";
 import { formatDateTime, instantFromLocalInput, localInputValue, projectTimeZone } from "@/lib/format/dates";
 import { showPressure } from "@/lib/format/quantities";
 import { readMeta, type LocalDetension, type SessionMeta } from "@/lib/offline/db";
 import { awaitingRestressOf, type Hold } from "@/lib/offline/hold-view";
-import { OutboxWriteError, saveDetension } from "@/lib/offline/outbox";
+import { saveDetension } from "@/lib/offline/outbox";
 import { detensionPayloadSchema, type DetensionPayload } from "@/lib/schemas/detension";
 import { entryUnitsFor } from "@/lib/schemas/record";
 import type { FieldProject, FieldTendon } from "@/lib/schemas/sync";
 import { zodFields } from "@/lib/schemas/zod-fields";
 import { isInputError, parsePressure } from "@/lib/units";
-import { SetChoice } from "./follow-up-fields";
+import {
+  type FollowUpOrder,
+  type FollowUpNames,
+  FollowUpActions,
+  FollowUpPanel,
+  FormProblem,
+  SetChoice,
+  saveFailure,
+  typedPressure,
+} from "./follow-up-fields";
 import { useField } from "./field-provider";
 import { useLiveQuery as useLive } from "dexie-react-hooks";
 
@@ -33,11 +41,27 @@ const FIELDS: readonly string[] = [
   "strandsDetensioned",
   "remarks",
 ];
+/** The boxes typed into, and the field of the payload each one's problem belongs to. */
+type Box = "when" | "operator" | "pressure" | "strands" | "remarks";
+const BOX_FIELD: Record<Box, Field> = {
+  when: "detensionedAt",
+  operator: "operatorName",
+  pressure: "pressure",
+  strands: "strandsDetensioned",
+  remarks: "remarks",
+};
 /** A tablet clock a little ahead of the server is no fault; the server allows the same. */
 const FUTURE_SLACK_MS = 10 * 60 * 1000;
 
+const DETENSION: FollowUpNames = {
+  title: "Detension",
+  what: "the detension",
+  testId: "detension",
+  openTestId: "detension-open",
+};
+
 export function DetensionPanel({ tendon, hold }: { tendon: FieldTendon; hold: Hold }) {
-  const { db, sendSaved } = useField();
+  const { db } = useField();
   const dispositionId = hold.decision?.id;
   const data = useLive(async () => {
     const [project, sets, detensions, records, session] = await Promise.all([
@@ -49,7 +73,6 @@ export function DetensionPanel({ tendon, hold }: { tendon: FieldTendon; hold: Ho
     ]);
     return { project, sets, detensions, records, session };
   }, [db, tendon.id, tendon.projectId]);
-  const [open, setOpen] = useState(false);
 
   if (!data?.project) return null;
   const { project, sets } = data;
@@ -58,12 +81,13 @@ export function DetensionPanel({ tendon, hold }: { tendon: FieldTendon; hold: Ho
   const waiting = awaitingRestressOf(tendon, data.detensions, data.records);
 
   return (
-    <section
-      aria-label="Detension"
-      className="grid gap-3 rounded-md border-2 border-ink bg-concrete-50 p-3"
-      data-testid="detension"
+    <FollowUpPanel
+      names={DETENSION}
+      dispositionId={dispositionId}
+      session={data.session}
+      recorded={mine.length}
+      form={(order) => <DetensionForm tendon={tendon} {...order} project={project} sets={sets} />}
     >
-      <h4 className="text-lead font-bold">Detension</h4>
       {mine.length > 0 && (
         <ul className="grid gap-2" data-testid="detension-list">
           {mine.map((d) => (
@@ -77,30 +101,7 @@ export function DetensionPanel({ tendon, hold }: { tendon: FieldTendon; hold: Ho
           logged.
         </p>
       )}
-      {!dispositionId ? (
-        <p className="font-semibold">
-          Sync with signal once: the engineer&apos;s order must reach this tablet in full.
-        </p>
-      ) : !data.session ? (
-        <p className="font-semibold">Sign in on this tablet to record the detension.</p>
-      ) : open ? (
-        <DetensionForm
-          tendon={tendon}
-          dispositionId={dispositionId}
-          project={project}
-          sets={sets}
-          session={data.session}
-          onDone={(saved) => {
-            setOpen(false);
-            if (saved) sendSaved();
-          }}
-        />
-      ) : (
-        <button type="button" className="btn-primary w-full" onClick={() => setOpen(true)} data-testid="detension-open">
-          {mine.length ? "Record another detension" : "Record the detension"}
-        </button>
-      )}
-    </section>
+    </FollowUpPanel>
   );
 }
 
@@ -112,9 +113,7 @@ function DetensionItem(props: {
 }) {
   const { detension: d, project } = props;
   const set = props.sets.find((s) => s.id === d.equipmentSetId);
-  const typed = d.entered
-    ? `${d.entered.pressure}${/[a-z]/i.test(d.entered.pressure) ? "" : ` ${d.entered.unit}`}`
-    : null;
+  const typed = d.entered ? typedPressure(d.entered) : null;
   // The project's units beside what was typed, only when they read differently (a bare MPa on a psi job).
   const shown =
     d.releasePressureMPa !== null ? showPressure({ unitSystem: project.unitSystem }, d.releasePressureMPa) : null;
@@ -143,36 +142,43 @@ function DetensionItem(props: {
   );
 }
 
-function DetensionForm(props: {
-  tendon: FieldTendon;
-  dispositionId: string;
-  project: FieldProject;
-  sets: { id: string; name: string; gaugeSerial: string }[];
-  session: SessionMeta;
-  onDone: (saved: boolean) => void;
-}) {
+function DetensionForm(
+  props: FollowUpOrder<SessionMeta> & {
+    tendon: FieldTendon;
+    project: FieldProject;
+    sets: { id: string; name: string; gaugeSerial: string }[];
+  },
+) {
   const { db } = useField();
   const { tendon, project, sets, session } = props;
   const unit = entryUnitsFor(project.unitSystem).pressure;
   const timeZone = projectTimeZone(project);
   // The box shows minutes; left as it was offered, the detension is stamped with the moment of saving.
   const [offered] = useState(() => localInputValue(new Date(), timeZone));
-  const [when, setWhen] = useState(offered);
-  const [operator, setOperator] = useState(session.name);
+  const [values, setValues] = useState<Record<Box, string>>(() => ({
+    when: offered,
+    operator: session.name,
+    pressure: "",
+    strands: String(tendon.strandCount),
+    remarks: "",
+  }));
+  const { when, operator, pressure, strands, remarks } = values;
   const [setId, setSetId] = useState(sets.length === 1 ? sets[0]!.id : "");
-  const [pressure, setPressure] = useState("");
-  const [strands, setStrands] = useState(String(tendon.strandCount));
-  const [remarks, setRemarks] = useState("");
   const [errors, setErrors] = useState<Partial<Record<Field | "root", string>>>({});
   const [busy, setBusy] = useState(false);
-  const ids = {
-    when: useId(),
-    operator: useId(),
-    set: useId(),
-    pressure: useId(),
-    strands: useId(),
-    remarks: useId(),
-  };
+  const formId = useId();
+  /** What ties a box to its value, its problem and its test id. */
+  const box = (name: Box) => ({
+    id: `${formId}-${name}`,
+    value: values[name],
+    onChange: (e: React.ChangeEvent<HTMLInputElement | HTMLTextAreaElement>) => {
+      const value = e.target.value;
+      setValues((v) => ({ ...v, [name]: value }));
+    },
+    "data-testid": `detension-${name}`,
+    error: errors[BOX_FIELD[name]],
+    announce: true,
+  });
 
   const submit = async (event: React.FormEvent) => {
     event.preventDefault();
@@ -224,9 +230,7 @@ function DetensionForm(props: {
       await saveDetension(db, { payload, releasePressureMPa: pressureMPa, authorName: session.name });
       props.onDone(true);
     } catch (e) {
-      setErrors({
-        root: e instanceof OutboxWriteError ? e.message : "The tablet could not save the detension. Nothing was saved.",
-      });
+      setErrors({ root: saveFailure(e, "the detension") });
     } finally {
       setBusy(false);
     }
@@ -234,85 +238,32 @@ function DetensionForm(props: {
 
   return (
     <form className="grid gap-4" onSubmit={(e) => void submit(e)} noValidate data-testid="detension-form">
-      {errors.root && (
-        <p role="alert" className="font-semibold text-signal-stop">
-          {errors.root}
-        </p>
-      )}
-      <FormField
-        id={ids.when}
-        label={`When (${timeZone})`}
-        type="datetime-local"
-        value={when}
-        onChange={(e) => setWhen(e.target.value)}
-        data-testid="detension-when"
-        error={errors.detensionedAt}
-        announce
-      />
-      <FormField
-        id={ids.operator}
-        label="Jack operator"
-        autoComplete="off"
-        value={operator}
-        onChange={(e) => setOperator(e.target.value)}
-        data-testid="detension-operator"
-        error={errors.operatorName}
-        announce
-      />
+      <FormProblem message={errors.root} />
+      <FormField {...box("when")} label={`When (${timeZone})`} type="datetime-local" />
+      <FormField {...box("operator")} label="Jack operator" autoComplete="off" />
       <SetChoice
         name="detension-set"
         sets={sets}
         value={setId}
         onChange={setSetId}
-        errorId={`${ids.set}-error`}
+        errorId={`${formId}-set-error`}
         error={errors.equipmentSetId}
       />
       <div className="grid gap-4 landscape:grid-cols-2">
-        <FormField
-          id={ids.pressure}
-          label={`Gauge pressure at release (${unit}, if read)`}
-          numeric
-          value={pressure}
-          onChange={(e) => setPressure(e.target.value)}
-          data-testid="detension-pressure"
-          error={errors.pressure}
-          announce
-        />
-        <FormField
-          id={ids.strands}
-          label={`Strands detensioned (of ${tendon.strandCount})`}
-          numeric="integer"
-          value={strands}
-          onChange={(e) => setStrands(e.target.value)}
-          data-testid="detension-strands"
-          error={errors.strandsDetensioned}
-          announce
-        />
+        <FormField {...box("pressure")} label={`Gauge pressure at release (${unit}, if read)`} numeric />
+        <FormField {...box("strands")} label={`Strands detensioned (of ${tendon.strandCount})`} numeric="integer" />
       </div>
-      <FormField
-        as="textarea"
-        id={ids.remarks}
-        label="Remarks"
-        rows={2}
-        value={remarks}
-        onChange={(e) => setRemarks(e.target.value)}
-        data-testid="detension-remarks"
-        error={errors.remarks}
-        announce
-      />
+      <FormField as="textarea" {...box("remarks")} label="Remarks" rows={2} />
       <p>
         Recorded by <strong>{session.name}</strong>. After the detension the tendon stays held until its restress is
         logged.
       </p>
-      <SafetyCaution />
-      <div className="flex flex-wrap gap-3">
-        <button type="submit" className="btn-primary grow" disabled={busy} data-testid="detension-save">
-          {busy ? "Saving…" : "Save detension"}
-        </button>
-        <button type="button" className="btn-quiet" onClick={() => props.onDone(false)}>
-          Cancel
-        </button>
-      </div>
+      <FollowUpActions
+        busy={busy}
+        saveLabel="Save detension"
+        saveTestId="detension-save"
+        onCancel={() => props.onDone(false)}
+      />
     </form>
   );
 }

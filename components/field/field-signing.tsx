@@ -1,7 +1,7 @@
 "use client";
 
 import { FormField } from "@/components/ui/form-field";
-import { useEffect, useState } from "react";
+import { useState } from "react";
 import useSWR from "swr";
 import { DailySignForm } from "@/components/reports/daily-sign-form";
 import { PourSignForm } from "@/components/reports/pour-sign-form";
@@ -12,6 +12,7 @@ import { dayInZone, formatDateTime } from "@/lib/format/dates";
 import type { WitnessGroupView } from "@/lib/reports/daily-rows";
 import { DEFAULT_DAILY_STATEMENT, type DailyAttestation } from "@/lib/schemas/daily-report";
 import { DEFAULT_POUR_STATEMENT } from "@/lib/schemas/report-signature";
+import { useOnline } from "./use-live";
 
 interface Me {
   name: string;
@@ -44,22 +45,6 @@ interface PourView {
   timeZone: string;
   revisions: Revision[];
   current: Current;
-}
-
-/** Whether the browser says it has a network, kept up to date. */
-function useOnline(): boolean {
-  const [online, setOnline] = useState(true);
-  useEffect(() => {
-    const update = () => setOnline(navigator.onLine);
-    update();
-    window.addEventListener("online", update);
-    window.addEventListener("offline", update);
-    return () => {
-      window.removeEventListener("online", update);
-      window.removeEventListener("offline", update);
-    };
-  }, []);
-  return online;
 }
 
 /** The first guess at today before the project's zone is known: the tablet's own day. */

@@ -1,3 +1,9 @@
+"use client";
+import { SafetyCaution } from "@/components/ui/caution";
+import { OutboxWriteError } from "@/lib/offline/outbox";
+import { useState } from "react";
+import { useField } from "./field-provider";
+
 /**
  * The parts the tablet's follow-up forms share (the lift-off check and the detension): a field's
  * problem tied to its box, and the choice of the equipment set that was on the tendon.
@@ -55,4 +61,108 @@ export function SetChoice({
       <Problem id={errorId} message={error} />
     </fieldset>
   );
+}
+
+/** What a follow-up form is opened with: the order it answers, who records it, and how it closes. */
+export interface FollowUpOrder<Session> {
+  dispositionId: string;
+  session: Session;
+  onDone: (saved: boolean) => void;
+}
+
+/**
+ * The frame of a follow-up an engineer ordered, on the hold panel: its heading, what was recorded
+ * already, and then either why it cannot be recorded on this tablet yet, the form, or the button
+ * that opens the form; a saved one is sent with the next sync.
+ */
+export interface FollowUpNames {
+  /** The follow-up's name, as heading and region label ("Detension"). */
+  title: string;
+  /** Its name inside a sentence ("the detension"). */
+  what: string;
+  testId: string;
+  openTestId: string;
+}
+
+export function FollowUpPanel<Session>(props: {
+  names: FollowUpNames;
+  /** The engineer's order the follow-up answers, once it is on this tablet in full. */
+  dispositionId: string | undefined;
+  /** Who is signed in on this tablet. */
+  session: Session | undefined;
+  /** How many were recorded under this order already (the button then offers "another"). */
+  recorded: number;
+  /** What was recorded, shown above the rest. */
+  children?: React.ReactNode;
+  /** The form, shown while open. */
+  form: (order: FollowUpOrder<Session>) => React.ReactNode;
+}) {
+  const { sendSaved } = useField();
+  const [open, setOpen] = useState(false);
+  const done = (saved: boolean) => {
+    setOpen(false);
+    if (saved) sendSaved();
+  };
+  const { title, what, testId, openTestId } = props.names;
+  const another = what.replace(/^the /, "another ");
+  return (
+    <section
+      aria-label={title}
+      className="grid gap-3 rounded-md border-2 border-ink bg-concrete-50 p-3"
+      data-testid={testId}
+    >
+      <h4 className="text-lead font-bold">{title}</h4>
+      {props.children}
+      {!props.dispositionId ? (
+        <p className="font-semibold">
+          Sync with signal once: the engineer&apos;s order must reach this tablet in full.
+        </p>
+      ) : !props.session ? (
+        <p className="font-semibold">Sign in on this tablet to record {what}.</p>
+      ) : open ? (
+        props.form({ dispositionId: props.dispositionId, session: props.session, onDone: done })
+      ) : (
+        <button type="button" className="btn-primary w-full" onClick={() => setOpen(true)} data-testid={openTestId}>
+          {props.recorded ? `Record ${another}` : `Record ${what}`}
+        </button>
+      )}
+    </section>
+  );
+}
+
+/** The problem that belongs to no one field, at the head of a follow-up form. */
+export function FormProblem({ message }: { message: string | undefined }) {
+  if (!message) return null;
+  return (
+    <p role="alert" className="font-semibold text-signal-stop">
+      {message}
+    </p>
+  );
+}
+
+/** The caution and the save and cancel buttons at the foot of a follow-up form. */
+export function FollowUpActions(props: { busy: boolean; saveLabel: string; saveTestId: string; onCancel: () => void }) {
+  return (
+    <>
+      <SafetyCaution />
+      <div className="flex flex-wrap gap-3">
+        <button type="submit" className="btn-primary grow" disabled={props.busy} data-testid={props.saveTestId}>
+          {props.busy ? "Saving…" : props.saveLabel}
+        </button>
+        <button type="button" className="btn-quiet" onClick={props.onCancel}>
+          Cancel
+        </button>
+      </div>
+    </>
+  );
+}
+
+/** What to tell the crew when the tablet could not save a follow-up ("the detension"). */
+export function saveFailure(e: unknown, what: string): string {
+  return e instanceof OutboxWriteError ? e.message : `The tablet could not save ${what}. Nothing was saved.`;
+}
+
+/** A pressure as the crew typed it, its unit added when they typed a bare number. */
+export function typedPressure(entered: { pressure: string; unit: string }): string {
+  return `${entered.pressure}${/[a-z]/i.test(entered.pressure) ? "" : ` ${entered.unit}`}`;
 }

@@ -1,11 +1,10 @@
 "use client";
 import { FormField } from "@/components/ui/form-field";
 import { useId, useState } from "react";
-import { SafetyCaution } from "@/components/ui/caution";
 import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
 import { readMeta, type LocalLiftoffCheck, type SessionMeta } from "@/lib/offline/db";
 import type { Hold } from "@/lib/offline/hold-view";
-import { OutboxWriteError, saveLiftoffCheck } from "@/lib/offline/outbox";
+import { saveLiftoffCheck } from "@/lib/offline/outbox";
 import { calibrationFor, calibrationLine, fieldDay } from "@/lib/offline/tendon-view";
 import { liftoffPayloadSchema, type LiftoffPayload } from "@/lib/schemas/liftoff";
 import { entryUnitsFor } from "@/lib/schemas/record";
@@ -14,7 +13,17 @@ import { zodFields } from "@/lib/schemas/zod-fields";
 import { stressedEnds } from "@/lib/stressing/basis";
 import { liftoffLine, liftoffPressureProblem } from "@/lib/stressing/liftoff";
 import { isInputError, parsePressure } from "@/lib/units";
-import { Problem, SetChoice } from "./follow-up-fields";
+import {
+  FollowUpActions,
+  type FollowUpNames,
+  type FollowUpOrder,
+  FollowUpPanel,
+  FormProblem,
+  Problem,
+  SetChoice,
+  saveFailure,
+  typedPressure,
+} from "./follow-up-fields";
 import { useField } from "./field-provider";
 import { useLiveQuery as useLive } from "dexie-react-hooks";
 
@@ -30,8 +39,15 @@ import { useLiveQuery as useLive } from "dexie-react-hooks";
 
 type Field = "tendonEnd" | "equipmentSetId" | "pressure";
 
+const LIFTOFF_CHECK: FollowUpNames = {
+  title: "Lift-off check",
+  what: "the lift-off check",
+  testId: "liftoff-check",
+  openTestId: "liftoff-open",
+};
+
 export function LiftoffCheckPanel({ tendon, hold }: { tendon: FieldTendon; hold: Hold }) {
-  const { db, sendSaved } = useField();
+  const { db } = useField();
   const dispositionId = hold.decision?.id;
   const data = useLive(async () => {
     const [project, sets, calibrations, checks, session] = await Promise.all([
@@ -43,19 +59,21 @@ export function LiftoffCheckPanel({ tendon, hold }: { tendon: FieldTendon; hold:
     ]);
     return { project, sets, calibrations, checks: checks.filter((c) => c.dispositionId === dispositionId), session };
   }, [db, tendon.id, tendon.projectId, dispositionId]);
-  const [open, setOpen] = useState(false);
 
   if (!data?.project) return null;
   const { project, checks } = data;
   const timeZone = projectTimeZone(project);
 
   return (
-    <section
-      aria-label="Lift-off check"
-      className="grid gap-3 rounded-md border-2 border-ink bg-concrete-50 p-3"
-      data-testid="liftoff-check"
+    <FollowUpPanel
+      names={LIFTOFF_CHECK}
+      dispositionId={dispositionId}
+      session={data.session}
+      recorded={checks.length}
+      form={(order) => (
+        <LiftoffForm tendon={tendon} {...order} project={project} sets={data.sets} calibrations={data.calibrations} />
+      )}
     >
-      <h4 className="text-lead font-bold">Lift-off check</h4>
       {checks.length > 0 && (
         <ul className="grid gap-2" data-testid="liftoff-results">
           {checks.map((c) => (
@@ -63,31 +81,7 @@ export function LiftoffCheckPanel({ tendon, hold }: { tendon: FieldTendon; hold:
           ))}
         </ul>
       )}
-      {!dispositionId ? (
-        <p className="font-semibold">
-          Sync with signal once: the engineer&apos;s order must reach this tablet in full.
-        </p>
-      ) : !data.session ? (
-        <p className="font-semibold">Sign in on this tablet to record the lift-off check.</p>
-      ) : open ? (
-        <LiftoffForm
-          tendon={tendon}
-          dispositionId={dispositionId}
-          project={project}
-          sets={data.sets}
-          calibrations={data.calibrations}
-          session={data.session}
-          onDone={(saved) => {
-            setOpen(false);
-            if (saved) sendSaved();
-          }}
-        />
-      ) : (
-        <button type="button" className="btn-primary w-full" onClick={() => setOpen(true)} data-testid="liftoff-open">
-          {checks.length ? "Record another lift-off check" : "Record the lift-off check"}
-        </button>
-      )}
-    </section>
+    </FollowUpPanel>
   );
 }
 
@@ -99,7 +93,7 @@ function LiftoffResult(props: { check: LocalLiftoffCheck; project: FieldProject;
     c.expectedForceN !== undefined &&
     c.deviationPct !== undefined &&
     c.bandPct !== undefined;
-  const typed = `${c.entered.pressure}${/[a-z]/i.test(c.entered.pressure) ? "" : ` ${c.entered.unit}`}`;
+  const typed = typedPressure(c.entered);
   return (
     <li
       className={`grid gap-1 rounded-md border-2 bg-white p-3 ${
@@ -145,15 +139,14 @@ function LiftoffResult(props: { check: LocalLiftoffCheck; project: FieldProject;
   );
 }
 
-function LiftoffForm(props: {
-  tendon: FieldTendon;
-  dispositionId: string;
-  project: FieldProject;
-  sets: { id: string; name: string; gaugeSerial: string }[];
-  calibrations: Parameters<typeof calibrationFor>[0];
-  session: SessionMeta;
-  onDone: (saved: boolean) => void;
-}) {
+function LiftoffForm(
+  props: FollowUpOrder<SessionMeta> & {
+    tendon: FieldTendon;
+    project: FieldProject;
+    sets: { id: string; name: string; gaugeSerial: string }[];
+    calibrations: Parameters<typeof calibrationFor>[0];
+  },
+) {
   const { db } = useField();
   const { tendon, project, sets, calibrations, session } = props;
   const ends = stressedEnds(tendon.ends);
@@ -218,12 +211,7 @@ function LiftoffForm(props: {
       await saveLiftoffCheck(db, { payload, pressureMPa, authorName: session.name });
       props.onDone(true);
     } catch (e) {
-      setErrors({
-        root:
-          e instanceof OutboxWriteError
-            ? e.message
-            : "The tablet could not save the lift-off check. Nothing was saved.",
-      });
+      setErrors({ root: saveFailure(e, "the lift-off check") });
     } finally {
       setBusy(false);
     }
@@ -231,11 +219,7 @@ function LiftoffForm(props: {
 
   return (
     <form className="grid gap-4" onSubmit={(e) => void submit(e)} noValidate data-testid="liftoff-form">
-      {errors.root && (
-        <p role="alert" className="font-semibold text-signal-stop">
-          {errors.root}
-        </p>
-      )}
+      <FormProblem message={errors.root} />
       <fieldset aria-describedby={errors.tendonEnd ? `${ids.end}-error` : undefined}>
         <legend className="field-label">End</legend>
         <div className="mt-1 flex flex-wrap gap-2">
@@ -280,15 +264,12 @@ function LiftoffForm(props: {
       <p>
         Checked by <strong>{session.name}</strong>, now. Read the gauge the moment the wedges lift off the anchor plate.
       </p>
-      <SafetyCaution />
-      <div className="flex flex-wrap gap-3">
-        <button type="submit" className="btn-primary grow" disabled={busy} data-testid="liftoff-save">
-          {busy ? "Saving…" : "Save lift-off check"}
-        </button>
-        <button type="button" className="btn-quiet" onClick={() => props.onDone(false)}>
-          Cancel
-        </button>
-      </div>
+      <FollowUpActions
+        busy={busy}
+        saveLabel="Save lift-off check"
+        saveTestId="liftoff-save"
+        onCancel={() => props.onDone(false)}
+      />
     </form>
   );
 }

@@ -1,7 +1,14 @@
 "use client";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useEffect, useMemo, useState } from "react";
-import { useFieldArray, useForm, useWatch, type UseFormRegisterReturn } from "react-hook-form";
+import {
+  get,
+  useFieldArray,
+  useForm,
+  useWatch,
+  type FieldError as HookFieldError,
+  type UseFormRegisterReturn,
+} from "react-hook-form";
 import { uuidv7 } from "uuidv7";
 import type { LocalRecord, SessionMeta } from "@/lib/offline/db";
 import { saveRecord } from "@/lib/offline/outbox";
@@ -374,6 +381,19 @@ export function RecordForm({
   // The box the fraction keys write into: the last reading box touched, else the one read most.
   const [fractionTarget, setFractionTarget] = useState<LengthBox | null>(null);
   const typing = fractionTarget ?? (method === "marks" ? "marksAfter" : "strokes.0.value");
+  /** A reading box for a length, registered under its name, that the fraction keys write into once touched. */
+  const lengthBox = (name: LengthBox, label: string, more: { id?: string; hint?: string; key?: number } = {}) => (
+    <NumberBox
+      key={more.key}
+      id={more.id ?? name}
+      label={label}
+      unit={entryUnits.length}
+      reg={register(name)}
+      error={(get(err, name) as HookFieldError | undefined)?.message}
+      hint={more.hint}
+      onFocus={() => setFractionTarget(name)}
+    />
+  );
   // Gauge steps are rarely read: folded away until the crew opens them (two rows), and folded again
   // only by taking every row away, so nothing typed travels unseen.
   const showSteps = stepRows.fields.length > 0;
@@ -608,44 +628,16 @@ export function RecordForm({
 
       {method === "marks" ? (
         <div className="grid grid-cols-3 gap-3">
-          <NumberBox
-            id="marksBefore"
-            label="Mark before"
-            unit={entryUnits.length}
-            reg={register("marksBefore")}
-            error={err.marksBefore?.message}
-            onFocus={() => setFractionTarget("marksBefore")}
-          />
-          <NumberBox
-            id="marksAfter"
-            label="Mark after lock-off"
-            unit={entryUnits.length}
-            reg={register("marksAfter")}
-            error={err.marksAfter?.message}
-            onFocus={() => setFractionTarget("marksAfter")}
-          />
-          <NumberBox
-            id="seating"
-            label="Seating, if measured"
-            unit={entryUnits.length}
-            reg={register("seating")}
-            error={err.seating?.message}
-            onFocus={() => setFractionTarget("seating")}
-          />
+          {lengthBox("marksBefore", "Mark before")}
+          {lengthBox("marksAfter", "Mark after lock-off")}
+          {lengthBox("seating", "Seating, if measured")}
         </div>
       ) : (
         <div className="grid gap-2">
           <div className="grid grid-cols-3 gap-3">
             {strokes.fields.map((f, i) => (
               <div key={f.id} className="grid content-end gap-1">
-                <NumberBox
-                  id={`stroke-${i}`}
-                  label={`Stroke ${i + 1}`}
-                  unit={entryUnits.length}
-                  reg={register(`strokes.${i}.value`)}
-                  error={err.strokes?.[i]?.value?.message}
-                  onFocus={() => setFractionTarget(`strokes.${i}.value`)}
-                />
+                {lengthBox(`strokes.${i}.value`, `Stroke ${i + 1}`, { id: `stroke-${i}` })}
                 {strokes.fields.length > 1 && (
                   <button
                     type="button"
@@ -657,25 +649,9 @@ export function RecordForm({
                 )}
               </div>
             ))}
-            {strokes.fields.length > 1 && (
-              <NumberBox
-                id="drawIn"
-                label="Draw-in per re-grip"
-                unit={entryUnits.length}
-                reg={register("drawIn")}
-                error={err.drawIn?.message}
-                hint="empty: the set's, if it has one; 0 for none"
-                onFocus={() => setFractionTarget("drawIn")}
-              />
-            )}
-            <NumberBox
-              id="seating"
-              label="Seating, if measured"
-              unit={entryUnits.length}
-              reg={register("seating")}
-              error={err.seating?.message}
-              onFocus={() => setFractionTarget("seating")}
-            />
+            {strokes.fields.length > 1 &&
+              lengthBox("drawIn", "Draw-in per re-grip", { hint: "empty: the set's, if it has one; 0 for none" })}
+            {lengthBox("seating", "Seating, if measured")}
           </div>
           <div className="flex flex-wrap items-center gap-2">
             <button
@@ -714,14 +690,7 @@ export function RecordForm({
                 reg={register(`gaugeSteps.${i}.pressure`)}
                 error={err.gaugeSteps?.[i]?.pressure?.message}
               />
-              <NumberBox
-                id={`step-reading-${i}`}
-                label={`Step ${i + 1} reading`}
-                unit={entryUnits.length}
-                reg={register(`gaugeSteps.${i}.reading`)}
-                error={err.gaugeSteps?.[i]?.reading?.message}
-                onFocus={() => setFractionTarget(`gaugeSteps.${i}.reading`)}
-              />
+              {lengthBox(`gaugeSteps.${i}.reading`, `Step ${i + 1} reading`, { id: `step-reading-${i}` })}
               <button
                 type="button"
                 className="btn-quiet"
@@ -752,28 +721,14 @@ export function RecordForm({
             readings are kept; the finer one is judged.
           </p>
           <div className="grid grid-cols-3 gap-3">
-            {method === "marks" ? (
-              <NumberBox
-                id="rereadMarksAfter"
-                label="Mark after, read again"
-                unit={entryUnits.length}
-                reg={register("rereadMarksAfter")}
-                error={err.rereadMarksAfter?.message}
-                onFocus={() => setFractionTarget("rereadMarksAfter")}
-              />
-            ) : (
-              rereadStrokes.map((_, i) => (
-                <NumberBox
-                  key={i}
-                  id={`reread-stroke-${i}`}
-                  label={`Stroke ${i + 1}, read again`}
-                  unit={entryUnits.length}
-                  reg={register(`rereadStrokes.${i}.value`)}
-                  error={err.rereadStrokes?.[i]?.value?.message}
-                  onFocus={() => setFractionTarget(`rereadStrokes.${i}.value`)}
-                />
-              ))
-            )}
+            {method === "marks"
+              ? lengthBox("rereadMarksAfter", "Mark after, read again")
+              : rereadStrokes.map((_, i) =>
+                  lengthBox(`rereadStrokes.${i}.value`, `Stroke ${i + 1}, read again`, {
+                    id: `reread-stroke-${i}`,
+                    key: i,
+                  }),
+                )}
             <FormField
               id="rereadDeclinedReason"
               frameClassName="col-span-2"

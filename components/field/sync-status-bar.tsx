@@ -1,24 +1,9 @@
 "use client";
-import { useEffect, useState } from "react";
+import { useState } from "react";
 import { useFieldIfOpen } from "./field-provider";
 import { StorageProtection } from "./storage-protection";
 import { formatShortAge } from "@/lib/format/dates";
-import { recentClockTime, useNow } from "./use-live";
-
-function useOnline(): boolean {
-  const [online, setOnline] = useState(true);
-  useEffect(() => {
-    const update = () => setOnline(navigator.onLine);
-    update();
-    window.addEventListener("online", update);
-    window.addEventListener("offline", update);
-    return () => {
-      window.removeEventListener("online", update);
-      window.removeEventListener("offline", update);
-    };
-  }, []);
-  return online;
-}
+import { recentClockTime, useNow, useOnline } from "./use-live";
 
 function Item({
   label,

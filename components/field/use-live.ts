@@ -12,6 +12,22 @@ export function useNow(intervalMs = 15_000): number {
   return now;
 }
 
+/** Whether the browser says it has a network, kept up to date. */
+export function useOnline(): boolean {
+  const [online, setOnline] = useState(true);
+  useEffect(() => {
+    const update = () => setOnline(navigator.onLine);
+    update();
+    window.addEventListener("online", update);
+    window.addEventListener("offline", update);
+    return () => {
+      window.removeEventListener("online", update);
+      window.removeEventListener("offline", update);
+    };
+  }, []);
+  return online;
+}
+
 /**
  * A moment of the tablet's own (the last sync, which spans its projects), in the one date format;
  * written in the tablet's zone, since no single project's applies. Project dates use fieldTime.

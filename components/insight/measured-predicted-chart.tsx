@@ -2,7 +2,7 @@
 
 import dynamic from "next/dynamic";
 import { PlotLoading } from "@/components/ui/plot-loading";
-import type { ElongationPoint } from "./verdict-marks";
+import type { MeasuredPredictedData } from "./verdict-marks";
 
 const MeasuredPredictedPlot = dynamic(() => import("./measured-predicted-plot").then((m) => m.MeasuredPredictedPlot), {
   ssr: false,
@@ -13,15 +13,7 @@ const MeasuredPredictedPlot = dynamic(() => import("./measured-predicted-plot").
  * Measured against predicted elongation, in display units, with the 1:1 line and the band. The figure,
  * its text alternative and its caption come with the page; the drawing (recharts) loads after it.
  */
-export function MeasuredPredictedChart({
-  points,
-  tolerancePct,
-  unit,
-}: {
-  points: ElongationPoint[];
-  tolerancePct: number;
-  unit: string;
-}) {
+export function MeasuredPredictedChart({ points, tolerancePct, unit }: MeasuredPredictedData) {
   return (
     <figure>
       <div

@@ -23,3 +23,10 @@ export interface ElongationPoint {
   measuredText: string;
   verdict: "in band" | "long" | "short";
 }
+
+/** What the measured-against-predicted chart draws: the tendons, the band and the unit shown. */
+export interface MeasuredPredictedData {
+  points: ElongationPoint[];
+  tolerancePct: number;
+  unit: string;
+}

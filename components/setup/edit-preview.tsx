@@ -1,6 +1,8 @@
 "use client";
 
+import { useState } from "react";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
+import { sendJson, type ApiError } from "@/lib/client/send-json";
 
 /** What saving an edit would do to the stressed tendons (the answer of the edit's preview route). */
 export interface EditPreview {
@@ -55,6 +57,55 @@ export function EditPreviewDialog({
       </p>
     </ConfirmDialog>
   );
+}
+
+/**
+ * The save of an edit that may judge stressed tendons again: the edit goes to its preview route
+ * first; when it judges any again, the dialog asks before the save, otherwise it is saved at once.
+ * `url` is the stored row's route (PATCH there, POST to its `/preview`).
+ */
+export function usePreviewedEdit<V>(props: {
+  url: string;
+  /** What `what` the dialog names ("lot H-231"). */
+  what: string;
+  refused: (error: ApiError) => void;
+  /** Once saved: how many stressed tendons were judged again. */
+  saved: (values: V, reevaluated: number) => void;
+}) {
+  const [asked, setAsked] = useState<{ values: V; preview: EditPreview } | null>(null);
+  const [saving, setSaving] = useState(false);
+  const save = async (values: V) => {
+    setSaving(true);
+    const result = await sendJson<{ reevaluated: number }>("PATCH", props.url, values);
+    setSaving(false);
+    setAsked(null);
+    if (!result.ok) return props.refused(result.error);
+    props.saved(values, result.data.reevaluated);
+  };
+  const submit = async (values: V) => {
+    const preview = await sendJson<EditPreview>("POST", `${props.url}/preview`, values);
+    if (!preview.ok) return props.refused(preview.error);
+    if (preview.data.rejudged > 0) return setAsked({ values, preview: preview.data });
+    return save(values);
+  };
+  const dialog = (
+    <EditPreviewDialog
+      preview={asked?.preview ?? null}
+      what={props.what}
+      busy={saving}
+      onConfirm={() => asked && void save(asked.values)}
+      onCancel={() => setAsked(null)}
+    />
+  );
+  return { saving, submit, dialog };
+}
+
+/** The words once an edit is saved ("Lot H-231 saved; 3 stressed tendons were judged again."). */
+export function savedWords(subject: string, reevaluated: number): string {
+  const again = reevaluated
+    ? `; ${reevaluated} stressed tendon${reevaluated === 1 ? " was" : "s were"} judged again`
+    : "";
+  return `${subject} saved${again}.`;
 }
 
 /** What a calibration or settings change would do (the answer of its preview route, `trialRejudging`). */

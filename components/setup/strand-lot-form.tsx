@@ -10,11 +10,11 @@ import { FormField } from "@/components/ui/form-field";
 import { FieldError, FormMessage } from "@/components/ui/form-message";
 import { placeFields, refusedWords } from "@/lib/client/field-errors";
 import { formResolver } from "@/lib/client/form-resolver";
-import { sendJson } from "@/lib/client/send-json";
+import { sendJson, type ApiError } from "@/lib/client/send-json";
 import { strandLotSchema, type StrandLotInput } from "@/lib/schemas/strand-lot";
 import { STRAND_SIZES } from "@/lib/schemas/tendon";
 import type { StrandLotView } from "@/lib/server/list-strand-lots";
-import { EditPreviewDialog, type EditPreview } from "./edit-preview";
+import { savedWords, usePreviewedEdit } from "./edit-preview";
 import { strandLotsKey } from "./strand-lot-table";
 import { PER, shown, units } from "@/lib/client/unit-fields";
 
@@ -66,8 +66,6 @@ export function StrandLotForm({ projectId, us, lot }: { projectId: string; us: b
   const router = useRouter();
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
   const [file, setFile] = useState<UploadedFile | null>(null);
-  const [asked, setAsked] = useState<{ values: StrandLotInput; preview: EditPreview } | null>(null);
-  const [saving, setSaving] = useState(false);
   const initial = lot ? valuesOf(lot, us) : undefined;
   const form = useForm<FormIn, unknown, StrandLotInput>({
     resolver: resolver(us),
@@ -81,7 +79,7 @@ export function StrandLotForm({ projectId, us, lot }: { projectId: string; us: b
     },
   });
   const errors = form.formState.errors as Record<string, { message?: string } | undefined>;
-  const refused = (error: { message: string; fields?: Record<string, string[]> }) => {
+  const refused = (error: ApiError) => {
     const placed = placeFields(error.fields, (k) => (k === "areaMm2" ? "area" : k in fields(us) ? k : null));
     for (const [k, m] of Object.entries(placed.boxes)) form.setError(k as keyof FormIn, { message: m.join(" ") });
     setMessage({ tone: "error", text: refusedWords(error, placed) });
@@ -97,37 +95,19 @@ export function StrandLotForm({ projectId, us, lot }: { projectId: string; us: b
       breakingLoadN: typed.breakingLoadN === initial.breakingLoadN ? lot.breakingLoadN : values.breakingLoadN,
     };
   };
-  const save = async (values: StrandLotInput) => {
-    if (!lot) return;
-    setSaving(true);
-    const result = await sendJson<{ reevaluated: number; changed: number }>(
-      "PATCH",
-      `/api/projects/${projectId}/strand-lots/${lot.id}`,
-      values,
-    );
-    setSaving(false);
-    setAsked(null);
-    if (!result.ok) return refused(result.error);
-    setMessage({
-      tone: "info",
-      text: `Lot ${values.lotNumber} saved${result.data.reevaluated ? `; ${result.data.reevaluated} stressed tendon${result.data.reevaluated === 1 ? " was" : "s were"} judged again` : ""}.`,
-    });
-    void mutate(strandLotsKey(projectId));
-    router.refresh();
-  };
+  const edit = usePreviewedEdit<StrandLotInput>({
+    url: `/api/projects/${projectId}/strand-lots/${lot?.id}`,
+    what: `lot ${lot?.lotNumber}`,
+    refused,
+    saved: (values, reevaluated) => {
+      setMessage({ tone: "info", text: savedWords(`Lot ${values.lotNumber}`, reevaluated) });
+      void mutate(strandLotsKey(projectId));
+      router.refresh();
+    },
+  });
   const onSubmit = form.handleSubmit(async (typed) => {
     setMessage(undefined);
-    if (lot) {
-      const values = unchangedKept(typed);
-      const preview = await sendJson<EditPreview>(
-        "POST",
-        `/api/projects/${projectId}/strand-lots/${lot.id}/preview`,
-        values,
-      );
-      if (!preview.ok) return refused(preview.error);
-      if (preview.data.rejudged > 0) return setAsked({ values, preview: preview.data });
-      return save(values);
-    }
+    if (lot) return edit.submit(unchangedKept(typed));
     const result = await sendJson("POST", `/api/projects/${projectId}/strand-lots`, typed);
     if (!result.ok) return refused(result.error);
     setMessage({ tone: "info", text: `Lot ${typed.lotNumber} registered.` });
@@ -210,7 +190,7 @@ export function StrandLotForm({ projectId, us, lot }: { projectId: string; us: b
         messages={errors.certificateAttachmentId?.message ? [errors.certificateAttachmentId.message] : undefined}
       />
       <div className="flex flex-wrap items-center gap-3">
-        <button className="btn-primary" type="submit" disabled={form.formState.isSubmitting || saving}>
+        <button className="btn-primary" type="submit" disabled={form.formState.isSubmitting || edit.saving}>
           {lot ? "Save changes" : "Register lot"}
         </button>
         {lot && (
@@ -219,15 +199,7 @@ export function StrandLotForm({ projectId, us, lot }: { projectId: string; us: b
           </a>
         )}
       </div>
-      {lot && (
-        <EditPreviewDialog
-          preview={asked?.preview ?? null}
-          what={`lot ${lot.lotNumber}`}
-          busy={saving}
-          onConfirm={() => asked && void save(asked.values)}
-          onCancel={() => setAsked(null)}
-        />
-      )}
+      {lot && edit.dialog}
     </form>
   );
 }

@@ -6,12 +6,12 @@ import { useFieldArray, useForm, useWatch } from "react-hook-form";
 import { useSWRConfig } from "swr";
 import { z } from "zod";
 import { PER, shown, units } from "@/lib/client/unit-fields";
-import { EditPreviewDialog, type EditPreview } from "@/components/setup/edit-preview";
+import { savedWords, usePreviewedEdit } from "@/components/setup/edit-preview";
 import { FormField } from "@/components/ui/form-field";
 import { FieldError, FormMessage } from "@/components/ui/form-message";
 import { placeFields, refusedWords } from "@/lib/client/field-errors";
 import { formResolver } from "@/lib/client/form-resolver";
-import { sendJson } from "@/lib/client/send-json";
+import { sendJson, type ApiError } from "@/lib/client/send-json";
 import { drapeAngleRad, KIND_LABELS, STRAND_SIZES, tendonSchema, type TendonInput } from "@/lib/schemas/tendon";
 import { TENDON_KINDS } from "@/lib/schemas/domain";
 import { tendonsKey } from "./tendon-table";
@@ -115,8 +115,6 @@ export function TendonForm({
   const { mutate } = useSWRConfig();
   const router = useRouter();
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
-  const [asked, setAsked] = useState<{ values: TendonInput; preview: EditPreview } | null>(null);
-  const [saving, setSaving] = useState(false);
   const long = us ? "ft" : "m";
   const short = us ? "in" : "mm";
   const initial = tendon ? valuesOf(tendon, us) : undefined;
@@ -145,7 +143,7 @@ export function TendonForm({
   const errors = form.formState.errors as Record<string, { message?: string } | undefined>;
   const err = (k: string) => errors[k]?.message;
 
-  const refused = (error: { message: string; fields?: Record<string, string[]> }) => {
+  const refused = (error: ApiError) => {
     const placed = placeFields(error.fields, (k) => {
       const box = k.split(".")[0]!;
       return box in fields(us) ? box : null;
@@ -173,36 +171,18 @@ export function TendonForm({
         typed.jackingForceN === initial.jackingForceN ? (tendon.jackingForceN ?? null) : values.jackingForceN,
     };
   };
-  const save = async (values: TendonInput) => {
-    if (!tendon) return;
-    setSaving(true);
-    const result = await sendJson<{ reevaluated: number }>(
-      "PATCH",
-      `/api/projects/${projectId}/tendons/${tendon.id}`,
-      values,
-    );
-    setSaving(false);
-    setAsked(null);
-    if (!result.ok) return refused(result.error);
-    setMessage({
-      tone: "info",
-      text: `Tendon ${values.tag} saved${result.data.reevaluated ? `; ${result.data.reevaluated} stressed tendon${result.data.reevaluated === 1 ? " was" : "s were"} judged again` : ""}.`,
-    });
-    router.refresh();
-  };
+  const edit = usePreviewedEdit<TendonInput>({
+    url: `/api/projects/${projectId}/tendons/${tendon?.id}`,
+    what: `tendon ${tendon?.tag}`,
+    refused,
+    saved: (values, reevaluated) => {
+      setMessage({ tone: "info", text: savedWords(`Tendon ${values.tag}`, reevaluated) });
+      router.refresh();
+    },
+  });
   const onSubmit = form.handleSubmit(async (typed) => {
     setMessage(undefined);
-    if (tendon) {
-      const values = unchangedKept(typed);
-      const preview = await sendJson<EditPreview>(
-        "POST",
-        `/api/projects/${projectId}/tendons/${tendon.id}/preview`,
-        values,
-      );
-      if (!preview.ok) return refused(preview.error);
-      if (preview.data.rejudged > 0) return setAsked({ values, preview: preview.data });
-      return save(values);
-    }
+    if (tendon) return edit.submit(unchangedKept(typed));
     const result = await sendJson("POST", `/api/projects/${projectId}/pours/${pourId}/tendons`, typed);
     if (!result.ok) return refused(result.error);
     setMessage({ tone: "info", text: `Tendon ${typed.tag} added.` });
@@ -341,18 +321,10 @@ export function TendonForm({
         )}
         <FieldError id="t-segments-error" messages={err("segments") ? [err("segments")!] : undefined} />
       </fieldset>
-      <button className="btn-primary" type="submit" disabled={form.formState.isSubmitting || saving}>
+      <button className="btn-primary" type="submit" disabled={form.formState.isSubmitting || edit.saving}>
         {tendon ? "Save changes" : "Add tendon"}
       </button>
-      {tendon && (
-        <EditPreviewDialog
-          preview={asked?.preview ?? null}
-          what={`tendon ${tendon.tag}`}
-          busy={saving}
-          onConfirm={() => asked && void save(asked.values)}
-          onCancel={() => setAsked(null)}
-        />
-      )}
+      {tendon && edit.dialog}
     </form>
   );
 }
