@@ -6,7 +6,7 @@ import { can } from "@/lib/auth/permissions";
 import type { OpResult, SyncOp } from "@/lib/schemas/sync";
 import { zodFields } from "@/lib/schemas/zod-fields";
 import { rejectedOp } from "./applied-ops";
-import { recordAudit } from "./record-audit";
+import { auditInsert, recordAudit } from "./record-audit";
 
 /**
  * What the crew's event ops (a tails cut, a lift-off check, a detension) check before anything is
@@ -82,4 +82,29 @@ export async function admitEventOp<S extends z.ZodType<{ projectId: string; auth
       ),
     );
   return { ok: true, payload };
+}
+
+/** A refusal of one field, the message standing for the field too. */
+export const refusedField = (op: SyncOp, field: string, message: string): OpResult =>
+  rejectedOp(op, "INVALID_INPUT", message, { [field]: [message] });
+
+/** The audit of an event op applied, on the payload's tendon, with the op id and device. */
+export function auditEventOp(
+  trx: Kysely<Database>,
+  input: {
+    action: string;
+    user: OpSender;
+    payload: { projectId: string; tendonId: string };
+    deviceId: string;
+    detail: Record<string, unknown>;
+  },
+): Promise<unknown> {
+  return auditInsert(trx, {
+    action: input.action,
+    outcome: "success",
+    actorUserId: input.user.id,
+    projectId: input.payload.projectId,
+    target: input.payload.tendonId,
+    detail: { ...input.detail, deviceId: input.deviceId },
+  }).execute();
 }
