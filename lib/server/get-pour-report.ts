@@ -10,6 +10,8 @@ import { AppError } from "@/lib/errors";
 import { CALIBRATION_COLUMNS, calibrationFromRow, type Calibration } from "@/lib/schemas/calibration";
 import type { StoredResolution } from "@/lib/format/quantities";
 import { findFlagTrail } from "./find-flag-trail";
+import { selectDetensions } from "./list-detensions";
+import { selectLiftoffChecks } from "./list-liftoff-checks";
 import { findStandingRelease } from "./find-standing-release";
 import { listPourRecords, type PourRecord } from "./list-pour-records";
 import { listTendonResults, type TendonResult } from "./list-tendon-results";
@@ -205,60 +207,22 @@ export async function getPourReport(
       listPourRecords(db, { ...input, projectBasis: project.comparison_basis, timeZone: projectTimeZone(project) }),
       findFlagTrail(db, { projectId: input.projectId, pourId: input.pourId }),
       findStandingRelease(db, input),
-      db
-        .selectFrom("detensions")
-        .innerJoin("equipment_sets", (j) =>
-          j
-            .onRef("equipment_sets.id", "=", "detensions.equipment_set_id")
-            .onRef("equipment_sets.project_id", "=", "detensions.project_id"),
-        )
-        .innerJoin("users", "users.id", "detensions.recorded_by")
+      selectDetensions(db, input.projectId)
         .select([
           "detensions.tendon_id",
-          "detensions.disposition_id",
-          "detensions.detensioned_at",
-          "detensions.operator_name",
-          "detensions.entered",
-          "detensions.release_pressure_mpa",
-          "detensions.strands_detensioned",
-          "detensions.remarks",
           "equipment_sets.name",
           "equipment_sets.jack_serial",
           "equipment_sets.gauge_serial",
           "equipment_sets.pump_serial",
           "users.name as recorded_by_name",
         ])
-        .where("detensions.project_id", "=", input.projectId)
         .where("detensions.pour_id", "=", input.pourId)
         .orderBy("detensions.detensioned_at")
         .orderBy("detensions.id")
         .execute(),
-      db
-        .selectFrom("liftoff_checks")
-        .innerJoin("equipment_sets", (j) =>
-          j
-            .onRef("equipment_sets.id", "=", "liftoff_checks.equipment_set_id")
-            .onRef("equipment_sets.project_id", "=", "liftoff_checks.project_id"),
-        )
-        .innerJoin("calibrations", (j) =>
-          j
-            .onRef("calibrations.id", "=", "liftoff_checks.calibration_id")
-            .onRef("calibrations.project_id", "=", "liftoff_checks.project_id"),
-        )
-        .innerJoin("users", "users.id", "liftoff_checks.checked_by")
+      selectLiftoffChecks(db, input.projectId)
         .select([
           "liftoff_checks.tendon_id",
-          "liftoff_checks.tendon_end",
-          "liftoff_checks.disposition_id",
-          "liftoff_checks.raised_flag_id",
-          "liftoff_checks.checked_at",
-          "liftoff_checks.entered",
-          "liftoff_checks.pressure_mpa",
-          "liftoff_checks.liftoff_force_n",
-          "liftoff_checks.expected_force_n",
-          "liftoff_checks.deviation_pct",
-          "liftoff_checks.band_pct",
-          "liftoff_checks.within_band",
           "equipment_sets.name",
           "equipment_sets.jack_serial",
           "equipment_sets.gauge_serial",
@@ -268,7 +232,6 @@ export async function getPourReport(
           "calibrations.laboratory",
           "users.name as checked_by_name",
         ])
-        .where("liftoff_checks.project_id", "=", input.projectId)
         .where("liftoff_checks.pour_id", "=", input.pourId)
         .orderBy("liftoff_checks.checked_at")
         .orderBy("liftoff_checks.id")
