@@ -8,8 +8,13 @@ import { dayBounds, projectTimeZone } from "@/lib/format/dates";
 import { onReportDay, remarksOfSnapshot } from "@/lib/reports/daily-rows";
 import type { DailyAttestation } from "@/lib/schemas/daily-report";
 import type { ReportSnapshot } from "@/lib/reports/report-changes";
-import type { StoredResolution } from "@/lib/format/quantities";
-import { getPourReport, type PourReport, type ReportConcreteResult, type ReportFlag } from "./get-pour-report";
+import {
+  getPourReport,
+  reportProjectHead,
+  type PourReport,
+  type ReportConcreteResult,
+  type ReportFlag,
+} from "./get-pour-report";
 import type { PourRecord } from "./list-pour-records";
 
 /**
@@ -247,16 +252,7 @@ export async function getDailyReport(
     timeZone,
     asOf,
     engineVersion: ENGINE_VERSION,
-    project: {
-      id: project.id,
-      code: project.code,
-      name: project.name,
-      address: project.address,
-      unitSystem: project.unit_system,
-      readingResolution: project.reading_resolution as StoredResolution,
-      engineerOfRecordName: project.engineer_of_record_name,
-      releaseBy: project.release_by,
-    },
+    project: reportProjectHead(project),
     pours,
     concrete: concrete.map((c) => ({
       pourName: c.pourName,

@@ -350,16 +350,7 @@ export async function getPourReport(
     asOf,
     timeZone,
     engineVersion: ENGINE_VERSION,
-    project: {
-      id: project.id,
-      code: project.code,
-      name: project.name,
-      address: project.address,
-      unitSystem: project.unit_system,
-      readingResolution: project.reading_resolution as StoredResolution,
-      engineerOfRecordName: project.engineer_of_record_name,
-      releaseBy: project.release_by,
-    },
+    project: reportProjectHead(project),
     basis: {
       ...projectBasisFromRow(project),
       groupTolerancePct: project.group_tolerance_pct,
@@ -500,5 +491,24 @@ export async function getPourReport(
               : null,
         }
       : null,
+  };
+}
+
+/** The project as a report's head names it (the pour's and the day's reports). */
+export function reportProjectHead(
+  project: Pick<
+    Selectable<Database["projects"]>,
+    "id" | "code" | "name" | "address" | "unit_system" | "reading_resolution" | "engineer_of_record_name" | "release_by"
+  >,
+): PourReport["project"] {
+  return {
+    id: project.id,
+    code: project.code,
+    name: project.name,
+    address: project.address,
+    unitSystem: project.unit_system,
+    readingResolution: project.reading_resolution as StoredResolution,
+    engineerOfRecordName: project.engineer_of_record_name,
+    releaseBy: project.release_by,
   };
 }
