@@ -15,6 +15,7 @@ import {
   type ReportConcreteResult,
   type ReportFlag,
 } from "./get-pour-report";
+import { selectConcreteResults } from "./list-concrete-results";
 import type { PourRecord } from "./list-pour-records";
 
 /**
@@ -125,25 +126,9 @@ export async function getDailyReport(
       )
       .orderBy("pours.name")
       .execute(),
-    db
-      .selectFrom("concrete_results as c")
+    selectConcreteResults(db, input.projectId)
       .innerJoin("pours", "pours.id", "c.pour_id")
-      .innerJoin("users", "users.id", "c.entered_by")
-      .leftJoin("attachments", (j) =>
-        j.onRef("attachments.id", "=", "c.attachment_id").onRef("attachments.project_id", "=", "c.project_id"),
-      )
-      .select([
-        "attachments.id as attachment_id",
-        "attachments.original_name",
-        "pours.name as pourName",
-        "c.specimen",
-        "c.strength_mpa",
-        "c.age_days",
-        "c.specimen_count",
-        "c.entered_at",
-        "users.name as enteredBy",
-      ])
-      .where("c.project_id", "=", input.projectId)
+      .select(["pours.name as pourName", "users.name as enteredBy"])
       .where("pours.project_id", "=", input.projectId)
       .where(within("c.entered_at"))
       .orderBy("c.entered_at")

@@ -10,6 +10,7 @@ import { AppError } from "@/lib/errors";
 import { CALIBRATION_COLUMNS, calibrationFromRow, type Calibration } from "@/lib/schemas/calibration";
 import type { StoredResolution } from "@/lib/format/quantities";
 import { findFlagTrail } from "./find-flag-trail";
+import { selectConcreteResults } from "./list-concrete-results";
 import { selectDetensions } from "./list-detensions";
 import { selectLiftoffChecks } from "./list-liftoff-checks";
 import { findStandingRelease } from "./find-standing-release";
@@ -236,23 +237,8 @@ export async function getPourReport(
         .orderBy("liftoff_checks.checked_at")
         .orderBy("liftoff_checks.id")
         .execute(),
-      db
-        .selectFrom("concrete_results as c")
-        .innerJoin("users", "users.id", "c.entered_by")
-        .leftJoin("attachments", (j) =>
-          j.onRef("attachments.id", "=", "c.attachment_id").onRef("attachments.project_id", "=", "c.project_id"),
-        )
-        .select([
-          "c.specimen",
-          "c.strength_mpa",
-          "c.age_days",
-          "c.specimen_count",
-          "c.entered_at",
-          "users.name as entered_by_name",
-          "attachments.original_name",
-          "attachments.id as attachment_id",
-        ])
-        .where("c.project_id", "=", input.projectId)
+      selectConcreteResults(db, input.projectId)
+        .select("users.name as entered_by_name")
         .where("c.pour_id", "=", input.pourId)
         .orderBy("c.entered_at")
         .orderBy("c.id")
