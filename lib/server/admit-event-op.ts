@@ -1,11 +1,11 @@
 import "server-only";
-import type { Kysely } from "kysely";
+import type { Insertable, Kysely } from "kysely";
 import type { z } from "zod";
 import type { Database } from "@/db/types";
 import { can } from "@/lib/auth/permissions";
 import type { OpResult, SyncOp } from "@/lib/schemas/sync";
 import { zodFields } from "@/lib/schemas/zod-fields";
-import { rejectedOp } from "./applied-ops";
+import { claimOrRepeat, rejectedOp } from "./applied-ops";
 import { auditInsert, recordAudit } from "./record-audit";
 
 /**
@@ -107,4 +107,41 @@ export function auditEventOp(
     target: input.payload.tendonId,
     detail: { ...input.detail, deviceId: input.deviceId },
   }).execute();
+}
+
+/**
+ * Claims the event op's id for its sender (`claimOrRepeat`), with the answer a repeat will get: null
+ * when this delivery claimed it, else the answer to the concurrent delivery that committed first.
+ */
+export function claimEventOp(
+  trx: Kysely<Database>,
+  op: SyncOp,
+  sender: { user: OpSender; deviceId: string; projectId: string },
+  result: object,
+): Promise<OpResult | null> {
+  return claimOrRepeat(trx, {
+    op,
+    projectId: sender.projectId,
+    deviceId: sender.deviceId,
+    userId: sender.user.id,
+    result,
+  });
+}
+
+/** The insert of a flag an event raises on the payload's tendon (of no record, no evaluation), as of now. */
+export function insertEventFlag(
+  trx: Kysely<Database>,
+  payload: { projectId: string; pourId: string; tendonId: string },
+  flag: { kind: Insertable<Database["flags"]>["kind"]; reason: string },
+) {
+  return trx.insertInto("flags").values({
+    project_id: payload.projectId,
+    pour_id: payload.pourId,
+    tendon_id: payload.tendonId,
+    record_id: null,
+    evaluation_id: null,
+    kind: flag.kind,
+    reason: flag.reason,
+    created_at: new Date(),
+  });
 }

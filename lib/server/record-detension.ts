@@ -5,8 +5,8 @@ import { detensionPayloadSchema } from "@/lib/schemas/detension";
 import { DECISION_LABELS } from "@/lib/schemas/review";
 import type { OpResult, SyncOp } from "@/lib/schemas/sync";
 import { isInputError, parsePressure } from "@/lib/units";
-import { claimOrRepeat, rejectedOp, repeatOf, takenRecordId } from "./applied-ops";
-import { admitEventOp, auditEventOp, refusedField as refused, type OpSender } from "./admit-event-op";
+import { rejectedOp, repeatOf, takenRecordId } from "./applied-ops";
+import { admitEventOp, auditEventOp, claimEventOp, refusedField as refused, type OpSender } from "./admit-event-op";
 import { inTransaction } from "./in-transaction";
 import { isReleasedPourRefusal, RELEASED_POUR_MESSAGE } from "./require-open-pour";
 
@@ -111,13 +111,7 @@ export async function recordDetension(
       if (!set) return refused(op, "equipmentSetId", "No such equipment set on this project.");
       if (taken) return takenRecordId(trx, op, user.id, "detension");
 
-      const concurrent = await claimOrRepeat(trx, {
-        op,
-        projectId: p.projectId,
-        deviceId,
-        userId: user.id,
-        result: {},
-      });
+      const concurrent = await claimEventOp(trx, op, { ...input, projectId: p.projectId }, {});
       if (concurrent) return concurrent;
 
       await trx

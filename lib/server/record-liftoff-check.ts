@@ -1,5 +1,5 @@
 import "server-only";
-import { claimOrRepeat, rejectedOp, repeatOf, takenRecordId } from "./applied-ops";
+import { rejectedOp, repeatOf, takenRecordId } from "./applied-ops";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { env } from "@/lib/env";
@@ -20,7 +20,14 @@ import {
   liftoffPressureProblem,
 } from "@/lib/stressing/liftoff";
 import { isInputError, parsePressure } from "@/lib/units";
-import { admitEventOp, auditEventOp, refusedField as refused, type OpSender } from "./admit-event-op";
+import {
+  admitEventOp,
+  auditEventOp,
+  claimEventOp,
+  insertEventFlag,
+  refusedField as refused,
+  type OpSender,
+} from "./admit-event-op";
 import { inTransaction } from "./in-transaction";
 import { selectTendonBasis, toLoadedTendon } from "./load-tendon-basis";
 
@@ -161,13 +168,7 @@ export async function recordLiftoffCheck(
     };
     const stored: StoredResult = { liftoffCheck: result };
 
-    const concurrent = await claimOrRepeat(trx, {
-      op,
-      projectId: p.projectId,
-      deviceId,
-      userId: user.id,
-      result: stored,
-    });
+    const concurrent = await claimEventOp(trx, op, { ...input, projectId: p.projectId }, stored);
     if (concurrent) return concurrent;
 
     const line_ = liftoffLine(basis.project, judged);
@@ -180,18 +181,7 @@ export async function recordLiftoffCheck(
         // The project's units beside the typed value only when they read differently.
         `${shown.replaceAll(",", "") === readAs.replaceAll(",", "") ? "" : ` (${shown})`} on ${set.name}, ` +
         `calibration of ${picked.calibratedOn}. ${line_}`;
-      const flag = await trx
-        .insertInto("flags")
-        .values({
-          project_id: p.projectId,
-          pour_id: p.pourId,
-          tendon_id: p.tendonId,
-          record_id: null,
-          evaluation_id: null,
-          kind: "liftoff_out_of_band",
-          reason,
-          created_at: new Date(),
-        })
+      const flag = await insertEventFlag(trx, p, { kind: "liftoff_out_of_band", reason })
         .returning(["id", "number"])
         .executeTakeFirstOrThrow();
       raisedFlagId = flag.id;

@@ -1,5 +1,5 @@
 import "server-only";
-import { claimOrRepeat, rejectedOp, repeatOf } from "./applied-ops";
+import { rejectedOp, repeatOf } from "./applied-ops";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import type { OpResult, SyncOp } from "@/lib/schemas/sync";
@@ -7,7 +7,7 @@ import { tailCutPayloadSchema } from "@/lib/schemas/tail-cut";
 import { awaitingRestress, tailClearance } from "@/lib/stressing/tail-clearance";
 import { formatDateTime } from "@/lib/format/dates";
 import { getProjectTimeZone } from "./get-project-time-zone";
-import { admitEventOp, auditEventOp, type OpSender } from "./admit-event-op";
+import { admitEventOp, auditEventOp, claimEventOp, insertEventFlag, type OpSender } from "./admit-event-op";
 import { inTransaction } from "./in-transaction";
 
 /**
@@ -134,13 +134,7 @@ export async function recordTailCut(
       tailCut: { held: !alreadyCut && !clearance.clear, reasons: alreadyCut ? [] : clearance.reasons },
     };
 
-    const concurrent = await claimOrRepeat(trx, {
-      op,
-      projectId: p.projectId,
-      deviceId,
-      userId: user.id,
-      result: stored,
-    });
+    const concurrent = await claimEventOp(trx, op, { ...input, projectId: p.projectId }, stored);
     if (concurrent) return concurrent;
     // The tendon's tails are already cut (recorded from elsewhere): nothing more to store.
     if (alreadyCut) return { opId: op.opId, status: "duplicate", ...stored };
@@ -160,19 +154,10 @@ export async function recordTailCut(
       .execute();
     if (!clearance.clear) {
       const cutAt = formatDateTime(p.cutAt, await getProjectTimeZone(trx, p.projectId));
-      await trx
-        .insertInto("flags")
-        .values({
-          project_id: p.projectId,
-          pour_id: p.pourId,
-          tendon_id: p.tendonId,
-          record_id: null,
-          evaluation_id: null,
-          kind: "cut_while_held",
-          reason: `Tails of ${tendon.tag} were cut by ${person.name} at ${cutAt} while the tendon was held: ${clearance.reasons.join(" ")}`,
-          created_at: new Date(),
-        })
-        .execute();
+      await insertEventFlag(trx, p, {
+        kind: "cut_while_held",
+        reason: `Tails of ${tendon.tag} were cut by ${person.name} at ${cutAt} while the tendon was held: ${clearance.reasons.join(" ")}`,
+      }).execute();
     }
     await auditEventOp(trx, {
       action: "tails.cut",
