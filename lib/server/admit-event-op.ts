@@ -1,12 +1,12 @@
 import "server-only";
-import type { Kysely } from "kysely";
+import type { Insertable, Kysely } from "kysely";
 import type { z } from "zod";
 import type { Database } from "@/db/types";
 import { can } from "@/lib/auth/permissions";
 import type { OpResult, SyncOp } from "@/lib/schemas/sync";
 import { zodFields } from "@/lib/schemas/zod-fields";
-import { rejectedOp } from "./applied-ops";
-import { recordAudit } from "./record-audit";
+import { claimOrRepeat, rejectedOp } from "./applied-ops";
+import { auditInsert, recordAudit } from "./record-audit";
 
 /**
  * What the crew's event ops (a tails cut, a lift-off check, a detension) check before anything is
@@ -82,4 +82,66 @@ export async function admitEventOp<S extends z.ZodType<{ projectId: string; auth
       ),
     );
   return { ok: true, payload };
+}
+
+/** A refusal of one field, the message standing for the field too. */
+export const refusedField = (op: SyncOp, field: string, message: string): OpResult =>
+  rejectedOp(op, "INVALID_INPUT", message, { [field]: [message] });
+
+/** The audit of an event op applied, on the payload's tendon, with the op id and device. */
+export function auditEventOp(
+  trx: Kysely<Database>,
+  input: {
+    action: string;
+    user: OpSender;
+    payload: { projectId: string; tendonId: string };
+    deviceId: string;
+    detail: Record<string, unknown>;
+  },
+): Promise<unknown> {
+  return auditInsert(trx, {
+    action: input.action,
+    outcome: "success",
+    actorUserId: input.user.id,
+    projectId: input.payload.projectId,
+    target: input.payload.tendonId,
+    detail: { ...input.detail, deviceId: input.deviceId },
+  }).execute();
+}
+
+/**
+ * Claims the event op's id for its sender (`claimOrRepeat`), with the answer a repeat will get: null
+ * when this delivery claimed it, else the answer to the concurrent delivery that committed first.
+ */
+export function claimEventOp(
+  trx: Kysely<Database>,
+  op: SyncOp,
+  sender: { user: OpSender; deviceId: string; projectId: string },
+  result: object,
+): Promise<OpResult | null> {
+  return claimOrRepeat(trx, {
+    op,
+    projectId: sender.projectId,
+    deviceId: sender.deviceId,
+    userId: sender.user.id,
+    result,
+  });
+}
+
+/** The insert of a flag an event raises on the payload's tendon (of no record, no evaluation), as of now. */
+export function insertEventFlag(
+  trx: Kysely<Database>,
+  payload: { projectId: string; pourId: string; tendonId: string },
+  flag: { kind: Insertable<Database["flags"]>["kind"]; reason: string },
+) {
+  return trx.insertInto("flags").values({
+    project_id: payload.projectId,
+    pour_id: payload.pourId,
+    tendon_id: payload.tendonId,
+    record_id: null,
+    evaluation_id: null,
+    kind: flag.kind,
+    reason: flag.reason,
+    created_at: new Date(),
+  });
 }

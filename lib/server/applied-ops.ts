@@ -34,6 +34,48 @@ export function duplicateOf(op: SyncOp, userId: string, claim: OpClaim): OpResul
   return { ...(claim.result as Partial<OpResult>), opId: op.opId, status: "duplicate" };
 }
 
+/** The claim of the op id, if any delivery has made one. */
+export function findClaim(trx: Kysely<Database>, opId: string): Promise<OpClaim | undefined> {
+  return trx.selectFrom("applied_ops").select(["user_id", "result"]).where("op_id", "=", opId).executeTakeFirst();
+}
+
+/** The answer to a repeat of an op already applied, or null when its id is not claimed yet. */
+export async function repeatOf(trx: Kysely<Database>, op: SyncOp, userId: string): Promise<OpResult | null> {
+  const claim = await findClaim(trx, op.opId);
+  return claim ? duplicateOf(op, userId, claim) : null;
+}
+
+/**
+ * The answer when the op's record id is already taken: a concurrent delivery of this same op that
+ * committed between the first read and this one, else a conflict naming the kind of record.
+ */
+export async function takenRecordId(
+  trx: Kysely<Database>,
+  op: SyncOp,
+  userId: string,
+  noun: string,
+): Promise<OpResult> {
+  return (
+    (await repeatOf(trx, op, userId)) ?? {
+      opId: op.opId,
+      status: "conflict",
+      error: { code: "CONFLICT", message: `This ${noun} id is already used; nothing was saved.` },
+    }
+  );
+}
+
+/**
+ * Claims the op id (`claimOp`): null when this delivery claimed it, else the answer to the
+ * concurrent delivery of the same op that committed first.
+ */
+export async function claimOrRepeat(
+  trx: Kysely<Database>,
+  input: { op: SyncOp; projectId: string; deviceId: string; userId: string; result: object },
+): Promise<OpResult | null> {
+  const concurrent = await claimOp(trx, input);
+  return concurrent ? duplicateOf(input.op, input.userId, concurrent) : null;
+}
+
 /**
  * Claims the op id inside the op's transaction, with the answer a repeat will get. Null when this
  * delivery claimed it; otherwise the claim of a concurrent delivery that committed first.

@@ -8,8 +8,14 @@ import { dayBounds, projectTimeZone } from "@/lib/format/dates";
 import { onReportDay, remarksOfSnapshot } from "@/lib/reports/daily-rows";
 import type { DailyAttestation } from "@/lib/schemas/daily-report";
 import type { ReportSnapshot } from "@/lib/reports/report-changes";
-import type { StoredResolution } from "@/lib/format/quantities";
-import { getPourReport, type PourReport, type ReportConcreteResult, type ReportFlag } from "./get-pour-report";
+import {
+  getPourReport,
+  reportProjectHead,
+  type PourReport,
+  type ReportConcreteResult,
+  type ReportFlag,
+} from "./get-pour-report";
+import { selectConcreteResults } from "./list-concrete-results";
 import type { PourRecord } from "./list-pour-records";
 
 /**
@@ -120,25 +126,9 @@ export async function getDailyReport(
       )
       .orderBy("pours.name")
       .execute(),
-    db
-      .selectFrom("concrete_results as c")
+    selectConcreteResults(db, input.projectId)
       .innerJoin("pours", "pours.id", "c.pour_id")
-      .innerJoin("users", "users.id", "c.entered_by")
-      .leftJoin("attachments", (j) =>
-        j.onRef("attachments.id", "=", "c.attachment_id").onRef("attachments.project_id", "=", "c.project_id"),
-      )
-      .select([
-        "attachments.id as attachment_id",
-        "attachments.original_name",
-        "pours.name as pourName",
-        "c.specimen",
-        "c.strength_mpa",
-        "c.age_days",
-        "c.specimen_count",
-        "c.entered_at",
-        "users.name as enteredBy",
-      ])
-      .where("c.project_id", "=", input.projectId)
+      .select(["pours.name as pourName", "users.name as enteredBy"])
       .where("pours.project_id", "=", input.projectId)
       .where(within("c.entered_at"))
       .orderBy("c.entered_at")
@@ -247,16 +237,7 @@ export async function getDailyReport(
     timeZone,
     asOf,
     engineVersion: ENGINE_VERSION,
-    project: {
-      id: project.id,
-      code: project.code,
-      name: project.name,
-      address: project.address,
-      unitSystem: project.unit_system,
-      readingResolution: project.reading_resolution as StoredResolution,
-      engineerOfRecordName: project.engineer_of_record_name,
-      releaseBy: project.release_by,
-    },
+    project: reportProjectHead(project),
     pours,
     concrete: concrete.map((c) => ({
       pourName: c.pourName,

@@ -10,6 +10,9 @@ import { AppError } from "@/lib/errors";
 import { CALIBRATION_COLUMNS, calibrationFromRow, type Calibration } from "@/lib/schemas/calibration";
 import type { StoredResolution } from "@/lib/format/quantities";
 import { findFlagTrail } from "./find-flag-trail";
+import { selectConcreteResults } from "./list-concrete-results";
+import { selectDetensions } from "./list-detensions";
+import { selectLiftoffChecks } from "./list-liftoff-checks";
 import { findStandingRelease } from "./find-standing-release";
 import { listPourRecords, type PourRecord } from "./list-pour-records";
 import { listTendonResults, type TendonResult } from "./list-tendon-results";
@@ -205,60 +208,22 @@ export async function getPourReport(
       listPourRecords(db, { ...input, projectBasis: project.comparison_basis, timeZone: projectTimeZone(project) }),
       findFlagTrail(db, { projectId: input.projectId, pourId: input.pourId }),
       findStandingRelease(db, input),
-      db
-        .selectFrom("detensions")
-        .innerJoin("equipment_sets", (j) =>
-          j
-            .onRef("equipment_sets.id", "=", "detensions.equipment_set_id")
-            .onRef("equipment_sets.project_id", "=", "detensions.project_id"),
-        )
-        .innerJoin("users", "users.id", "detensions.recorded_by")
+      selectDetensions(db, input.projectId)
         .select([
           "detensions.tendon_id",
-          "detensions.disposition_id",
-          "detensions.detensioned_at",
-          "detensions.operator_name",
-          "detensions.entered",
-          "detensions.release_pressure_mpa",
-          "detensions.strands_detensioned",
-          "detensions.remarks",
           "equipment_sets.name",
           "equipment_sets.jack_serial",
           "equipment_sets.gauge_serial",
           "equipment_sets.pump_serial",
           "users.name as recorded_by_name",
         ])
-        .where("detensions.project_id", "=", input.projectId)
         .where("detensions.pour_id", "=", input.pourId)
         .orderBy("detensions.detensioned_at")
         .orderBy("detensions.id")
         .execute(),
-      db
-        .selectFrom("liftoff_checks")
-        .innerJoin("equipment_sets", (j) =>
-          j
-            .onRef("equipment_sets.id", "=", "liftoff_checks.equipment_set_id")
-            .onRef("equipment_sets.project_id", "=", "liftoff_checks.project_id"),
-        )
-        .innerJoin("calibrations", (j) =>
-          j
-            .onRef("calibrations.id", "=", "liftoff_checks.calibration_id")
-            .onRef("calibrations.project_id", "=", "liftoff_checks.project_id"),
-        )
-        .innerJoin("users", "users.id", "liftoff_checks.checked_by")
+      selectLiftoffChecks(db, input.projectId)
         .select([
           "liftoff_checks.tendon_id",
-          "liftoff_checks.tendon_end",
-          "liftoff_checks.disposition_id",
-          "liftoff_checks.raised_flag_id",
-          "liftoff_checks.checked_at",
-          "liftoff_checks.entered",
-          "liftoff_checks.pressure_mpa",
-          "liftoff_checks.liftoff_force_n",
-          "liftoff_checks.expected_force_n",
-          "liftoff_checks.deviation_pct",
-          "liftoff_checks.band_pct",
-          "liftoff_checks.within_band",
           "equipment_sets.name",
           "equipment_sets.jack_serial",
           "equipment_sets.gauge_serial",
@@ -268,28 +233,12 @@ export async function getPourReport(
           "calibrations.laboratory",
           "users.name as checked_by_name",
         ])
-        .where("liftoff_checks.project_id", "=", input.projectId)
         .where("liftoff_checks.pour_id", "=", input.pourId)
         .orderBy("liftoff_checks.checked_at")
         .orderBy("liftoff_checks.id")
         .execute(),
-      db
-        .selectFrom("concrete_results as c")
-        .innerJoin("users", "users.id", "c.entered_by")
-        .leftJoin("attachments", (j) =>
-          j.onRef("attachments.id", "=", "c.attachment_id").onRef("attachments.project_id", "=", "c.project_id"),
-        )
-        .select([
-          "c.specimen",
-          "c.strength_mpa",
-          "c.age_days",
-          "c.specimen_count",
-          "c.entered_at",
-          "users.name as entered_by_name",
-          "attachments.original_name",
-          "attachments.id as attachment_id",
-        ])
-        .where("c.project_id", "=", input.projectId)
+      selectConcreteResults(db, input.projectId)
+        .select("users.name as entered_by_name")
         .where("c.pour_id", "=", input.pourId)
         .orderBy("c.entered_at")
         .orderBy("c.id")
@@ -387,16 +336,7 @@ export async function getPourReport(
     asOf,
     timeZone,
     engineVersion: ENGINE_VERSION,
-    project: {
-      id: project.id,
-      code: project.code,
-      name: project.name,
-      address: project.address,
-      unitSystem: project.unit_system,
-      readingResolution: project.reading_resolution as StoredResolution,
-      engineerOfRecordName: project.engineer_of_record_name,
-      releaseBy: project.release_by,
-    },
+    project: reportProjectHead(project),
     basis: {
       ...projectBasisFromRow(project),
       groupTolerancePct: project.group_tolerance_pct,
@@ -537,5 +477,24 @@ export async function getPourReport(
               : null,
         }
       : null,
+  };
+}
+
+/** The project as a report's head names it (the pour's and the day's reports). */
+export function reportProjectHead(
+  project: Pick<
+    Selectable<Database["projects"]>,
+    "id" | "code" | "name" | "address" | "unit_system" | "reading_resolution" | "engineer_of_record_name" | "release_by"
+  >,
+): PourReport["project"] {
+  return {
+    id: project.id,
+    code: project.code,
+    name: project.name,
+    address: project.address,
+    unitSystem: project.unit_system,
+    readingResolution: project.reading_resolution as StoredResolution,
+    engineerOfRecordName: project.engineer_of_record_name,
+    releaseBy: project.release_by,
   };
 }

@@ -37,6 +37,29 @@ export interface ConcreteGateView {
   goAheads: ConcreteGoAhead[];
 }
 
+/**
+ * A project's concrete results with who entered each and the lab sheet attached, and the columns
+ * every report shows; a report adds its filter (a pour, a day), its own columns and its order.
+ */
+export function selectConcreteResults(db: Kysely<Database>, projectId: string) {
+  return db
+    .selectFrom("concrete_results as c")
+    .innerJoin("users", "users.id", "c.entered_by")
+    .leftJoin("attachments", (j) =>
+      j.onRef("attachments.id", "=", "c.attachment_id").onRef("attachments.project_id", "=", "c.project_id"),
+    )
+    .select([
+      "c.specimen",
+      "c.strength_mpa",
+      "c.age_days",
+      "c.specimen_count",
+      "c.entered_at",
+      "attachments.original_name",
+      "attachments.id as attachment_id",
+    ])
+    .where("c.project_id", "=", projectId);
+}
+
 /** The pour's results as entered (newest first, with who entered each) and the gate they give. */
 export async function listConcreteResults(
   db: Kysely<Database>,

@@ -21,6 +21,12 @@ type Trx = Transaction<Database>;
 
 const since = (column: string, cursor: string) => sql<boolean>`${sql.ref(column)} >= ${cursor}::xid8`;
 
+/** The rows of a table, kept by project and pour, that changed since the cursor. */
+const changedIn = (table: string, scope: { projectIds: string[]; pourIds: string[]; cursor: string }) =>
+  sql<boolean>`${sql.ref(`${table}.project_id`)} in (${sql.join(scope.projectIds)}) and ${sql.ref(
+    `${table}.pour_id`,
+  )} in (${sql.join(scope.pourIds)}) and ${since(`${table}.change_xid`, scope.cursor)}`;
+
 export async function pullChanges(
   db: Kysely<Database>,
   input: { user: Pick<SessionUser, "memberships">; cursor: string; pourIds: string[] },
@@ -67,6 +73,7 @@ export async function pullChanges(
       const unavailable = input.pourIds.filter((id) => !pourIds.includes(id));
       if (!pourIds.length) return { ...empty(), unavailable };
       const projectIds = [...new Set(found.map((p) => p.project_id))];
+      const scope = { projectIds, pourIds, cursor };
 
       // Lift-off checks with the server's result (lib/server/record-liftoff-check.ts).
       const liftoffChecksRead = trx
@@ -90,9 +97,7 @@ export async function pullChanges(
           "liftoff_checks.checked_at",
           "users.name as checked_by_name",
         ])
-        .where("liftoff_checks.project_id", "in", projectIds)
-        .where("liftoff_checks.pour_id", "in", pourIds)
-        .where(since("liftoff_checks.change_xid", cursor))
+        .where(changedIn("liftoff_checks", scope))
         .execute();
       // Detensions as the crew reported them (lib/server/record-detension.ts).
       const detensionsRead = trx
@@ -113,9 +118,7 @@ export async function pullChanges(
           "detensions.remarks",
           "users.name as recorded_by_name",
         ])
-        .where("detensions.project_id", "in", projectIds)
-        .where("detensions.pour_id", "in", pourIds)
-        .where(since("detensions.change_xid", cursor))
+        .where(changedIn("detensions", scope))
         .execute();
       // Awaited after the others; a failure then still reaches the caller, never as an unhandled rejection.
       liftoffChecksRead.catch(() => undefined);
@@ -199,9 +202,7 @@ export async function pullChanges(
               "stressing_order",
               "jacking_force_n",
             ])
-            .where("project_id", "in", projectIds)
-            .where("pour_id", "in", pourIds)
-            .where(since("change_xid", cursor))
+            .where(changedIn("tendons", scope))
             .orderBy("tag")
             .execute(),
           trx
@@ -264,9 +265,7 @@ export async function pullChanges(
               "records.author_user_id",
               "users.name as author_name",
             ])
-            .where("records.project_id", "in", projectIds)
-            .where("records.pour_id", "in", pourIds)
-            .where(since("records.change_xid", cursor))
+            .where(changedIn("records", scope))
             .execute(),
           trx
             .selectFrom("evaluations")
@@ -312,9 +311,7 @@ export async function pullChanges(
                   .orderBy("dispositions.created_at"),
               ).as("dispositions"),
             ])
-            .where("project_id", "in", projectIds)
-            .where("pour_id", "in", pourIds)
-            .where(since("change_xid", cursor))
+            .where(changedIn("flags", scope))
             .execute(),
           trx
             .selectFrom("tail_cuts")
@@ -328,9 +325,7 @@ export async function pullChanges(
               "tail_cuts.held_reasons",
               "users.name as cut_by_name",
             ])
-            .where("tail_cuts.project_id", "in", projectIds)
-            .where("tail_cuts.pour_id", "in", pourIds)
-            .where(since("tail_cuts.change_xid", cursor))
+            .where(changedIn("tail_cuts", scope))
             .execute(),
           cursor === "0"
             ? Promise.resolve([])

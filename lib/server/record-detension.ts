@@ -5,10 +5,9 @@ import { detensionPayloadSchema } from "@/lib/schemas/detension";
 import { DECISION_LABELS } from "@/lib/schemas/review";
 import type { OpResult, SyncOp } from "@/lib/schemas/sync";
 import { isInputError, parsePressure } from "@/lib/units";
-import { claimOp, duplicateOf, rejectedOp } from "./applied-ops";
-import { admitEventOp, type OpSender } from "./admit-event-op";
+import { rejectedOp, repeatOf, takenRecordId } from "./applied-ops";
+import { admitEventOp, auditEventOp, claimEventOp, refusedField as refused, type OpSender } from "./admit-event-op";
 import { inTransaction } from "./in-transaction";
-import { auditInsert } from "./record-audit";
 import { isReleasedPourRefusal, RELEASED_POUR_MESSAGE } from "./require-open-pour";
 
 /**
@@ -32,23 +31,22 @@ export type Detensioner = OpSender;
 /** How far ahead of the server's clock a tablet's time may be before it is refused as in the future. */
 const FUTURE_SLACK_MS = 10 * 60 * 1000;
 
-const refused = (op: SyncOp, field: string, message: string): OpResult =>
-  rejectedOp(op, "INVALID_INPUT", message, { [field]: [message] });
+const DETENSION = {
+  schema: detensionPayloadSchema,
+  noun: "detension",
+  recording: "a detension",
+  auditAction: "detension.record",
+};
 
 export async function recordDetension(
   db: Db,
   input: { user: Detensioner; deviceId: string; now?: Date },
   op: SyncOp,
 ): Promise<OpResult> {
-  const { user, deviceId } = input;
-  const admitted = await admitEventOp(db, user, op, {
-    schema: detensionPayloadSchema,
-    noun: "detension",
-    recording: "a detension",
-    auditAction: "detension.record",
-  });
+  const admitted = await admitEventOp(db, input.user, op, DETENSION);
   if (!admitted.ok) return admitted.result;
   const p = admitted.payload;
+  const { user, deviceId } = input;
   const now = input.now ?? new Date();
   if (new Date(p.detensionedAt).getTime() > now.getTime() + FUTURE_SLACK_MS)
     return refused(op, "detensionedAt", "The time of the detension lies in the future: check the tablet's clock.");
@@ -65,12 +63,8 @@ export async function recordDetension(
 
   try {
     return await inTransaction(db, async (trx) => {
-      const claim = await trx
-        .selectFrom("applied_ops")
-        .select(["user_id", "result"])
-        .where("op_id", "=", op.opId)
-        .executeTakeFirst();
-      if (claim) return duplicateOf(op, user.id, claim);
+      const repeat = await repeatOf(trx, op, user.id);
+      if (repeat) return repeat;
 
       const [tendon, disposition, set, taken] = await Promise.all([
         trx
@@ -115,30 +109,10 @@ export async function recordDetension(
           `${tendon.tag} has ${tendon.strand_count} strand${tendon.strand_count === 1 ? "" : "s"}: ${p.strandsDetensioned} cannot have been detensioned.`,
         );
       if (!set) return refused(op, "equipmentSetId", "No such equipment set on this project.");
-      if (taken) {
-        // A concurrent delivery of this same op committed between the first read and this one.
-        const again = await trx
-          .selectFrom("applied_ops")
-          .select(["user_id", "result"])
-          .where("op_id", "=", op.opId)
-          .executeTakeFirst();
-        if (again) return duplicateOf(op, user.id, again);
-        return {
-          opId: op.opId,
-          status: "conflict",
-          error: { code: "CONFLICT", message: "This detension id is already used; nothing was saved." },
-        };
-      }
+      if (taken) return takenRecordId(trx, op, user.id, "detension");
 
-      const concurrent = await claimOp(trx, {
-        op,
-        projectId: p.projectId,
-        deviceId,
-        userId: user.id,
-        result: {},
-      });
-      // A concurrent delivery of the same op committed first.
-      if (concurrent) return duplicateOf(op, user.id, concurrent);
+      const concurrent = await claimEventOp(trx, op, { ...input, projectId: p.projectId }, {});
+      if (concurrent) return concurrent;
 
       await trx
         .insertInto("detensions")
@@ -159,14 +133,13 @@ export async function recordDetension(
           device_id: deviceId,
         })
         .execute();
-      await auditInsert(trx, {
+      await auditEventOp(trx, {
         action: "detension.record",
-        outcome: "success",
-        actorUserId: user.id,
-        projectId: p.projectId,
-        target: p.tendonId,
-        detail: { opId: op.opId, detensionId: op.recordId, dispositionId: disposition.id, deviceId },
-      }).execute();
+        user,
+        payload: p,
+        deviceId,
+        detail: { opId: op.opId, detensionId: op.recordId, dispositionId: disposition.id },
+      });
       return { opId: op.opId, status: "applied" } satisfies OpResult;
     });
   } catch (error) {

@@ -1,5 +1,5 @@
 import "server-only";
-import { claimOp, duplicateOf, rejectedOp } from "./applied-ops";
+import { rejectedOp, repeatOf, takenRecordId } from "./applied-ops";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { env } from "@/lib/env";
@@ -20,10 +20,16 @@ import {
   liftoffPressureProblem,
 } from "@/lib/stressing/liftoff";
 import { isInputError, parsePressure } from "@/lib/units";
-import { admitEventOp, type OpSender } from "./admit-event-op";
+import {
+  admitEventOp,
+  auditEventOp,
+  claimEventOp,
+  insertEventFlag,
+  refusedField as refused,
+  type OpSender,
+} from "./admit-event-op";
 import { inTransaction } from "./in-transaction";
 import { selectTendonBasis, toLoadedTendon } from "./load-tendon-basis";
-import { auditInsert } from "./record-audit";
 
 /**
  * Records a lift-off check from the tablet's outbox (op kind liftoff_check), exactly once: the
@@ -47,27 +53,26 @@ type Db = Kysely<Database>;
 
 export type LiftoffChecker = OpSender;
 
-const refused = (op: SyncOp, field: string, message: string): OpResult =>
-  rejectedOp(op, "INVALID_INPUT", message, { [field]: [message] });
-
 interface StoredResult {
   liftoffCheck?: FieldLiftoffResult;
 }
+
+const LIFTOFF_CHECK = {
+  schema: liftoffPayloadSchema,
+  noun: "lift-off check",
+  recording: "a lift-off check",
+  auditAction: "liftoff.check",
+};
 
 export async function recordLiftoffCheck(
   db: Db,
   input: { user: LiftoffChecker; deviceId: string },
   op: SyncOp,
 ): Promise<OpResult> {
-  const { user, deviceId } = input;
-  const admitted = await admitEventOp(db, user, op, {
-    schema: liftoffPayloadSchema,
-    noun: "lift-off check",
-    recording: "a lift-off check",
-    auditAction: "liftoff.check",
-  });
+  const admitted = await admitEventOp(db, input.user, op, LIFTOFF_CHECK);
   if (!admitted.ok) return admitted.result;
   const p = admitted.payload;
+  const { user, deviceId } = input;
   let pressureMPa: number;
   try {
     pressureMPa = parsePressure(p.pressure, { field: "pressure", system: "SI", defaultUnit: p.pressureUnit });
@@ -77,12 +82,8 @@ export async function recordLiftoffCheck(
   }
 
   return inTransaction(db, async (trx) => {
-    const claim = await trx
-      .selectFrom("applied_ops")
-      .select(["user_id", "result"])
-      .where("op_id", "=", op.opId)
-      .executeTakeFirst();
-    if (claim) return duplicateOf(op, user.id, claim);
+    const repeat = await repeatOf(trx, op, user.id);
+    if (repeat) return repeat;
 
     const row = await selectTendonBasis(trx, { projectId: p.projectId, tendonId: p.tendonId })
       .select("projects.liftoff_band_pct")
@@ -119,20 +120,7 @@ export async function recordLiftoffCheck(
     const endProblem = liftoffEndProblem(basis.tendon.ends, p.tendonEnd);
     if (endProblem) return refused(op, endProblem.field, endProblem.message);
     if (!set) return refused(op, "equipmentSetId", "No such equipment set on this project.");
-    if (taken) {
-      // A concurrent delivery of this same op committed between the first read and this one.
-      const again = await trx
-        .selectFrom("applied_ops")
-        .select(["user_id", "result"])
-        .where("op_id", "=", op.opId)
-        .executeTakeFirst();
-      if (again) return duplicateOf(op, user.id, again);
-      return {
-        opId: op.opId,
-        status: "conflict",
-        error: { code: "CONFLICT", message: "This lift-off check id is already used; nothing was saved." },
-      };
-    }
+    if (taken) return takenRecordId(trx, op, user.id, "lift-off check");
 
     const day = dayInZone(p.checkedAt, basis.project.timeZone ?? "UTC");
     const picked = pickCalibration(calibrations.map(calibrationFromRow), day);
@@ -180,15 +168,8 @@ export async function recordLiftoffCheck(
     };
     const stored: StoredResult = { liftoffCheck: result };
 
-    const concurrent = await claimOp(trx, {
-      op,
-      projectId: p.projectId,
-      deviceId,
-      userId: user.id,
-      result: stored,
-    });
-    // A concurrent delivery of the same op committed first.
-    if (concurrent) return duplicateOf(op, user.id, concurrent);
+    const concurrent = await claimEventOp(trx, op, { ...input, projectId: p.projectId }, stored);
+    if (concurrent) return concurrent;
 
     const line_ = liftoffLine(basis.project, judged);
     const readAs = `${p.pressure}${/[a-z]/i.test(p.pressure) ? "" : ` ${p.pressureUnit}`}`;
@@ -200,18 +181,7 @@ export async function recordLiftoffCheck(
         // The project's units beside the typed value only when they read differently.
         `${shown.replaceAll(",", "") === readAs.replaceAll(",", "") ? "" : ` (${shown})`} on ${set.name}, ` +
         `calibration of ${picked.calibratedOn}. ${line_}`;
-      const flag = await trx
-        .insertInto("flags")
-        .values({
-          project_id: p.projectId,
-          pour_id: p.pourId,
-          tendon_id: p.tendonId,
-          record_id: null,
-          evaluation_id: null,
-          kind: "liftoff_out_of_band",
-          reason,
-          created_at: new Date(),
-        })
+      const flag = await insertEventFlag(trx, p, { kind: "liftoff_out_of_band", reason })
         .returning(["id", "number"])
         .executeTakeFirstOrThrow();
       raisedFlagId = flag.id;
@@ -269,20 +239,18 @@ export async function recordLiftoffCheck(
         device_id: deviceId,
       })
       .execute();
-    await auditInsert(trx, {
+    await auditEventOp(trx, {
       action: "liftoff.check",
-      outcome: "success",
-      actorUserId: user.id,
-      projectId: p.projectId,
-      target: p.tendonId,
+      user,
+      payload: p,
+      deviceId,
       detail: {
         opId: op.opId,
         liftoffCheckId: op.recordId,
         dispositionId: disposition.id,
         withinBand: judged.withinBand,
-        deviceId,
       },
-    }).execute();
+    });
     return { opId: op.opId, status: "applied", ...stored };
   });
 }

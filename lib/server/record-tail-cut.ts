@@ -1,5 +1,5 @@
 import "server-only";
-import { claimOp, duplicateOf, rejectedOp } from "./applied-ops";
+import { rejectedOp, repeatOf } from "./applied-ops";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import type { OpResult, SyncOp } from "@/lib/schemas/sync";
@@ -7,9 +7,8 @@ import { tailCutPayloadSchema } from "@/lib/schemas/tail-cut";
 import { awaitingRestress, tailClearance } from "@/lib/stressing/tail-clearance";
 import { formatDateTime } from "@/lib/format/dates";
 import { getProjectTimeZone } from "./get-project-time-zone";
-import { admitEventOp, type OpSender } from "./admit-event-op";
+import { admitEventOp, auditEventOp, claimEventOp, insertEventFlag, type OpSender } from "./admit-event-op";
 import { inTransaction } from "./in-transaction";
-import { auditInsert } from "./record-audit";
 
 /**
  * Records "tails cut" on a tendon from the tablet's outbox (op kind tails_cut), exactly once:
@@ -31,28 +30,26 @@ interface StoredResult {
   tailCut?: { held: boolean; reasons: string[] };
 }
 
+const TAILS_CUT = {
+  schema: tailCutPayloadSchema,
+  noun: "tails cut",
+  recording: "tails cut",
+  auditAction: "tails.cut",
+};
+
 export async function recordTailCut(
   db: Db,
   input: { user: TailCutter; deviceId: string },
   op: SyncOp,
 ): Promise<OpResult> {
-  const { user, deviceId } = input;
-  const admitted = await admitEventOp(db, user, op, {
-    schema: tailCutPayloadSchema,
-    noun: "tails cut",
-    recording: "tails cut",
-    auditAction: "tails.cut",
-  });
+  const admitted = await admitEventOp(db, input.user, op, TAILS_CUT);
   if (!admitted.ok) return admitted.result;
   const p = admitted.payload;
+  const { user, deviceId } = input;
 
   return inTransaction(db, async (trx) => {
-    const claim = await trx
-      .selectFrom("applied_ops")
-      .select(["user_id", "result"])
-      .where("op_id", "=", op.opId)
-      .executeTakeFirst();
-    if (claim) return duplicateOf(op, user.id, claim);
+    const repeat = await repeatOf(trx, op, user.id);
+    if (repeat) return repeat;
 
     const tendon = await trx
       .selectFrom("tendons")
@@ -137,15 +134,8 @@ export async function recordTailCut(
       tailCut: { held: !alreadyCut && !clearance.clear, reasons: alreadyCut ? [] : clearance.reasons },
     };
 
-    const concurrent = await claimOp(trx, {
-      op,
-      projectId: p.projectId,
-      deviceId,
-      userId: user.id,
-      result: stored,
-    });
-    // A concurrent delivery of the same op committed first.
-    if (concurrent) return duplicateOf(op, user.id, concurrent);
+    const concurrent = await claimEventOp(trx, op, { ...input, projectId: p.projectId }, stored);
+    if (concurrent) return concurrent;
     // The tendon's tails are already cut (recorded from elsewhere): nothing more to store.
     if (alreadyCut) return { opId: op.opId, status: "duplicate", ...stored };
 
@@ -164,28 +154,18 @@ export async function recordTailCut(
       .execute();
     if (!clearance.clear) {
       const cutAt = formatDateTime(p.cutAt, await getProjectTimeZone(trx, p.projectId));
-      await trx
-        .insertInto("flags")
-        .values({
-          project_id: p.projectId,
-          pour_id: p.pourId,
-          tendon_id: p.tendonId,
-          record_id: null,
-          evaluation_id: null,
-          kind: "cut_while_held",
-          reason: `Tails of ${tendon.tag} were cut by ${person.name} at ${cutAt} while the tendon was held: ${clearance.reasons.join(" ")}`,
-          created_at: new Date(),
-        })
-        .execute();
+      await insertEventFlag(trx, p, {
+        kind: "cut_while_held",
+        reason: `Tails of ${tendon.tag} were cut by ${person.name} at ${cutAt} while the tendon was held: ${clearance.reasons.join(" ")}`,
+      }).execute();
     }
-    await auditInsert(trx, {
+    await auditEventOp(trx, {
       action: "tails.cut",
-      outcome: "success",
-      actorUserId: user.id,
-      projectId: p.projectId,
-      target: p.tendonId,
-      detail: { opId: op.opId, tailCutId: op.recordId, held: !clearance.clear, deviceId },
-    }).execute();
+      user,
+      payload: p,
+      deviceId,
+      detail: { opId: op.opId, tailCutId: op.recordId, held: !clearance.clear },
+    });
     return { opId: op.opId, status: "applied", ...stored };
   });
 }

@@ -7,7 +7,7 @@ import { AppError } from "@/lib/errors";
 import { stressedEnds } from "@/lib/stressing/basis";
 import { inTransaction } from "./in-transaction";
 import { queueCrewNotice } from "./queue-crew-notice";
-import { recordAudit } from "./record-audit";
+import { touchReleasedPour } from "./touch-released-pour";
 import { getPourReport } from "./get-pour-report";
 import { reportContentSha256 } from "./sign-pour-report";
 
@@ -162,19 +162,11 @@ export async function releasePour(
       })
       .returning(["id", "created_at"])
       .executeTakeFirstOrThrow();
-    await trx
-      .updateTable("pours")
-      // Touching the pour sends its new state to the tablets on their next pull.
-      .set({ updated_at: new Date() })
-      .where("project_id", "=", input.projectId)
-      .where("id", "=", input.pourId)
-      .execute();
-    await recordAudit(trx, {
-      action: "pour.release",
-      outcome: "success",
-      actorUserId: input.by.id,
+    await touchReleasedPour(trx, {
       projectId: input.projectId,
-      target: input.pourId,
+      pourId: input.pourId,
+      byUserId: input.by.id,
+      action: "pour.release",
       detail: { contentSha256, redrawnUnderLock: redrawn },
     });
     await queueCrewNotice(trx, { projectId: input.projectId, notice: { kind: "release", releaseId: row.id } });

@@ -4,7 +4,7 @@ import type { Database } from "@/db/types";
 import type { Role } from "@/lib/schemas/domain";
 import { AppError } from "@/lib/errors";
 import { inTransaction } from "./in-transaction";
-import { recordAudit } from "./record-audit";
+import { touchReleasedPour } from "./touch-released-pour";
 
 /**
  * Reopens a released pour: the engineer of record's act, with a reason, written beside the
@@ -45,19 +45,11 @@ export async function reopenPour(
       })
       .returning("id")
       .executeTakeFirstOrThrow();
-    // Touching the pour sends its new state to the tablets on their next pull.
-    await trx
-      .updateTable("pours")
-      .set({ updated_at: new Date() })
-      .where("project_id", "=", input.projectId)
-      .where("id", "=", input.pourId)
-      .execute();
-    await recordAudit(trx, {
-      action: "pour.reopen",
-      outcome: "success",
-      actorUserId: input.by.id,
+    await touchReleasedPour(trx, {
       projectId: input.projectId,
-      target: input.pourId,
+      pourId: input.pourId,
+      byUserId: input.by.id,
+      action: "pour.reopen",
       detail: { releaseId: state.release_id, reason: input.reason },
     });
     return { reopeningId: row.id };
