@@ -5,11 +5,9 @@ import { addCalibration } from "@/lib/server/add-calibration";
 import { createEquipmentSet } from "@/lib/server/create-equipment-set";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getProjectSettings } from "@/lib/server/get-project-settings";
-import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { previewSettingsChange } from "@/lib/server/preview-settings-change";
 import { updateProjectSettings } from "@/lib/server/update-project-settings";
-import { judgeStressing } from "@/lib/stressing/judge";
-import { insertRecord } from "../support/records";
+import { insertRecord, netPrediction } from "../support/records";
 import { makePour, makeProject, makeTendons } from "../support/factories";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
@@ -33,39 +31,6 @@ beforeAll(async () => {
 afterAll(async () => {
   await t.drop();
 });
-
-/** The net prediction of a one-end tendon read by its marks, as the judge computes it. */
-async function netPrediction(projectId: string, tendonId: string): Promise<number> {
-  const basis = await loadTendonBasis(t.db, { projectId, tendonId });
-  const probe = judgeStressing({
-    project: basis.project,
-    tendon: basis.tendon,
-    lot: basis.lot,
-    sets: [{ id: "s", name: "s", jackGripMm: null, maxForceN: null, calibrations: [] }],
-    records: [
-      {
-        id: "p",
-        chainId: "p",
-        revision: 1,
-        end: "A",
-        deviceTime: "2026-12-01T16:00:00Z",
-        equipmentSetId: "s",
-        calibrationId: null,
-        expiredCalibrationReason: null,
-        readingMethod: "marks",
-        initialPressureMPa: null,
-        finalPressureMPa: 30,
-        measuredMm: 100,
-        strokeCount: 1,
-        drawInMm: null,
-        seatingMm: null,
-        stressingOrder: null,
-        wireBreaks: 0,
-      },
-    ],
-  });
-  return probe.ends[0]!.predictedMm;
-}
 
 describe("the group-average band of a schedule with member groups", () => {
   it("averages each member on its own: the member outside the band is flagged, the other member of the pour is not", async () => {
@@ -125,7 +90,7 @@ describe("the group-average band of a schedule with member groups", () => {
         end: "A",
         equipmentSetId: setId,
         authorId: crew.id,
-        measuredMm: (await netPrediction(project.id, tendon.id)) * factor,
+        measuredMm: (await netPrediction(t.db, { projectId: project.id, tendonId: tendon.id })).mm * factor,
         finalPressureMPa: pressure,
         deviceTime: `2026-12-01T1${4 + k}:00:00Z`,
       });

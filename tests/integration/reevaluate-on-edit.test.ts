@@ -2,13 +2,11 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { seedDemo } from "@/scripts/seed/demo";
 import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
-import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { updateStrandLot } from "@/lib/server/update-strand-lot";
 import { updateTendon } from "@/lib/server/update-tendon";
-import { judgeStressing } from "@/lib/stressing/judge";
 import type { TendonInput } from "@/lib/schemas/tendon";
 import { AppError } from "@/lib/errors";
-import { demoFixture, insertRecord } from "../support/records";
+import { demoFixture, insertRecord, netPrediction } from "../support/records";
 import { makePour, makeStrandLot, makeTendons } from "../support/factories";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
@@ -65,7 +63,7 @@ async function stressedTendon(tag: string) {
     strandLotId: lot.id,
   };
   const tendon = (await makeTendons(t.db, { projectId: fx.projectId, pourId: pour.id }, [tag], values))[0]!;
-  const predicted = await netPrediction(tendon.id);
+  const predicted = await netPredictionOf(tendon.id);
   const c = await t.db
     .selectFrom("calibrations")
     .select(["slope_n_per_mpa", "intercept_n"])
@@ -86,37 +84,7 @@ async function stressedTendon(tag: string) {
 }
 
 /** The judge's prediction for marks read after lock-off on the tendon as stored now. */
-async function netPrediction(tendonId: string) {
-  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId });
-  const probe = judgeStressing({
-    project: basis.project,
-    tendon: basis.tendon,
-    lot: basis.lot,
-    sets: [{ id: "s", name: "s", jackGripMm: null, maxForceN: null, calibrations: [] }],
-    records: [
-      {
-        id: "p",
-        chainId: "p",
-        revision: 1,
-        end: "A",
-        deviceTime: "2026-12-01T16:00:00Z",
-        equipmentSetId: "s",
-        calibrationId: null,
-        expiredCalibrationReason: null,
-        readingMethod: "marks",
-        initialPressureMPa: null,
-        finalPressureMPa: 30,
-        measuredMm: 100,
-        strokeCount: 1,
-        drawInMm: null,
-        seatingMm: null,
-        stressingOrder: null,
-        wireBreaks: 0,
-      },
-    ],
-  });
-  return { mm: probe.ends[0]!.predictedMm, setMm: probe.ends[0]!.setMm };
-}
+const netPredictionOf = (tendonId: string) => netPrediction(t.db, { projectId: fx.projectId, tendonId });
 
 const latest = (tendonId: string) =>
   t.db
@@ -230,7 +198,7 @@ describe("editing a tendon's schedule judges it again", () => {
     expect(after.reason).toBe("tendon RE-T1 schedule edited: segments");
     expect(after.verdict).toBe("short");
     // Against the judge's own prediction for the stored schedule: the same reading, a longer tendon.
-    const predicted = await netPrediction(s.tendonId);
+    const predicted = await netPredictionOf(s.tendonId);
     expect(predicted.mm).toBeGreaterThan(s.measuredMm * 1.1);
     expect(after.predicted_mm!).toBeCloseTo(predicted.mm, 6);
     expect(after.deviation_pct!).toBeCloseTo((s.measuredMm / predicted.mm - 1) * 100, 6);

@@ -9,7 +9,7 @@ import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { previewSettingsChange } from "@/lib/server/preview-settings-change";
 import { updateProjectSettings } from "@/lib/server/update-project-settings";
 import { judgeStressing } from "@/lib/stressing/judge";
-import { demoFixture, insertRecord } from "../support/records";
+import { demoFixture, insertRecord, netPrediction } from "../support/records";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 import { settingsFields } from "@/lib/schemas/project-settings";
 
@@ -34,35 +34,8 @@ const HALF_INCH = ASTM_A416_GRADE_270.find((s) => s.designation === "0.5 in")!;
 describe("re-evaluation when the project's basis changes", () => {
   it("previews, re-judges with the reason, raises and closes flags by the rules", async () => {
     const tendon = await fx.tendon("2-1-U06");
-    const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tendon.id });
     // The net prediction for marks on this tendon, from the same judge.
-    const probe = judgeStressing({
-      project: basis.project,
-      tendon: basis.tendon,
-      lot: basis.lot,
-      sets: [{ id: "s", name: "s", jackGripMm: null, maxForceN: null, calibrations: [] }],
-      records: [
-        {
-          id: "p",
-          chainId: "p",
-          revision: 1,
-          end: "A",
-          deviceTime: "2026-12-01T16:00:00Z",
-          equipmentSetId: "s",
-          calibrationId: null,
-          expiredCalibrationReason: null,
-          readingMethod: "marks",
-          initialPressureMPa: null,
-          finalPressureMPa: 30,
-          measuredMm: 100,
-          strokeCount: 1,
-          drawInMm: null,
-          seatingMm: null,
-          stressingOrder: null,
-          wireBreaks: 0,
-        },
-      ],
-    });
+    const predicted = await netPrediction(t.db, { projectId: fx.projectId, tendonId: tendon.id });
     const c = await t.db
       .selectFrom("calibrations")
       .select(["slope_n_per_mpa", "intercept_n"])
@@ -76,7 +49,7 @@ describe("re-evaluation when the project's basis changes", () => {
       end: "A",
       equipmentSetId: fx.setA,
       authorId: fx.crewId,
-      measuredMm: probe.ends[0]!.predictedMm * 1.06,
+      measuredMm: predicted.mm * 1.06,
       finalPressureMPa: pressure,
     });
     const first = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
@@ -146,34 +119,8 @@ describe("re-evaluation when the project's basis changes", () => {
   // of ±7 %, inside ±10 %.
   it("a band widened past a force disagreement closes its flag; narrowed again, the flag is raised again", async () => {
     const tendon = await fx.tendon("2-1-U09");
-    const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tendon.id });
-    const probe = judgeStressing({
-      project: basis.project,
-      tendon: basis.tendon,
-      lot: basis.lot,
-      sets: [{ id: "s", name: "s", jackGripMm: null, maxForceN: null, calibrations: [] }],
-      records: [
-        {
-          id: "p",
-          chainId: "p",
-          revision: 1,
-          end: "A",
-          deviceTime: "2026-12-01T16:00:00Z",
-          equipmentSetId: "s",
-          calibrationId: null,
-          expiredCalibrationReason: null,
-          readingMethod: "marks",
-          initialPressureMPa: null,
-          finalPressureMPa: 30,
-          measuredMm: 100,
-          strokeCount: 1,
-          drawInMm: null,
-          seatingMm: null,
-          stressingOrder: null,
-          wireBreaks: 0,
-        },
-      ],
-    });
+    // The net prediction for marks on this tendon, from the same judge.
+    const predicted = await netPrediction(t.db, { projectId: fx.projectId, tendonId: tendon.id });
     const c = await t.db
       .selectFrom("calibrations")
       .select(["slope_n_per_mpa", "intercept_n"])
@@ -185,7 +132,7 @@ describe("re-evaluation when the project's basis changes", () => {
       end: "A",
       equipmentSetId: fx.setA,
       authorId: fx.crewId,
-      measuredMm: probe.ends[0]!.predictedMm,
+      measuredMm: predicted.mm,
       finalPressureMPa: (0.92 * 0.8 * HALF_INCH.minBreakingStrengthN - c.intercept_n) / c.slope_n_per_mpa,
     });
     const first = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
@@ -347,41 +294,15 @@ describe("re-evaluation when the project's basis changes", () => {
     const pressure = (0.8 * HALF_INCH.minBreakingStrengthN - c.intercept_n) / c.slope_n_per_mpa;
     const outcomes = [];
     for (const [k, tendonId] of ids.entries()) {
-      const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId });
-      const probe = judgeStressing({
-        project: basis.project,
-        tendon: basis.tendon,
-        lot: basis.lot,
-        sets: [{ id: "s", name: "s", jackGripMm: null, maxForceN: null, calibrations: [] }],
-        records: [
-          {
-            id: "p",
-            chainId: "p",
-            revision: 1,
-            end: "A",
-            deviceTime: "2026-12-01T16:00:00Z",
-            equipmentSetId: "s",
-            calibrationId: null,
-            expiredCalibrationReason: null,
-            readingMethod: "marks",
-            initialPressureMPa: null,
-            finalPressureMPa: 30,
-            measuredMm: 100,
-            strokeCount: 1,
-            drawInMm: null,
-            seatingMm: null,
-            stressingOrder: null,
-            wireBreaks: 0,
-          },
-        ],
-      });
+      // The net prediction for marks on this tendon, from the same judge.
+      const predicted = await netPrediction(t.db, { projectId: fx.projectId, tendonId });
       await insertRecord(t.db, {
         projectId: fx.projectId,
         tendon: { id: tendonId, pour_id: pour.id },
         end: "A",
         equipmentSetId: fx.setA,
         authorId: fx.crewId,
-        measuredMm: probe.ends[0]!.predictedMm * 1.06,
+        measuredMm: predicted.mm * 1.06,
         finalPressureMPa: pressure,
         deviceTime: `2026-12-01T1${6 + k}:00:00Z`,
       });

@@ -1,6 +1,8 @@
 import { uuidv7 } from "uuidv7";
 import type { Db } from "@/db/connect";
 import type { TendonEnd } from "@/lib/schemas/domain";
+import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
+import { judgeStressing } from "@/lib/stressing/judge";
 
 /** Fixtures for tests that need stressing records without going through the tablet's sync. */
 
@@ -75,4 +77,44 @@ export async function insertRecord(
     })
     .execute();
   return id;
+}
+
+/**
+ * The judge's prediction for marks read after lock-off at end A of a one-end tendon as stored now
+ * (net of the anchor set), and that set: what a perfect reading would measure. Asked of the same
+ * judge the server uses, with the tendon's own basis.
+ */
+export async function netPrediction(
+  db: Db,
+  input: { projectId: string; tendonId: string },
+): Promise<{ mm: number; setMm: number }> {
+  const basis = await loadTendonBasis(db, input);
+  const probe = judgeStressing({
+    project: basis.project,
+    tendon: basis.tendon,
+    lot: basis.lot,
+    sets: [{ id: "s", name: "s", jackGripMm: null, maxForceN: null, calibrations: [] }],
+    records: [
+      {
+        id: "p",
+        chainId: "p",
+        revision: 1,
+        end: "A",
+        deviceTime: "2026-12-01T16:00:00Z",
+        equipmentSetId: "s",
+        calibrationId: null,
+        expiredCalibrationReason: null,
+        readingMethod: "marks",
+        initialPressureMPa: null,
+        finalPressureMPa: 30,
+        measuredMm: 100,
+        strokeCount: 1,
+        drawInMm: null,
+        seatingMm: null,
+        stressingOrder: null,
+        wireBreaks: 0,
+      },
+    ],
+  });
+  return { mm: probe.ends[0]!.predictedMm!, setMm: probe.ends[0]!.setMm! };
 }
