@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { BASIS_WORDS } from "@/lib/stressing/judge";
-import { endPlan, judgeOnBothPaths } from "@/tests/support/reading-paths";
+import { tendonCase, judgeOnBothPaths } from "@/tests/support/reading-paths";
 
 // Property, the other half of perfect-reading.test.ts: a reading generated from the prediction
 // itself and then moved off by more than the band, long or short, is judged out of band and flagged
@@ -17,13 +17,7 @@ describe("a reading off by more than the band is out of band and flagged on ever
   it("on the tablet and on the server, to the digit", () => {
     fc.assert(
       fc.property(
-        fc.double({ min: 8_000, max: 60_000, noNaN: true }),
-        fc.double({ min: 0, max: 1.2, noNaN: true }),
-        fc.constantFrom("A" as const, "both" as const),
-        fc.constantFrom("sequential" as const, "simultaneous" as const),
-        endPlan,
-        endPlan,
-        fc.option(fc.double({ min: 0, max: 8, noNaN: true }), { nil: null }),
+        ...tendonCase,
         // ±7 % is the usual building band (ACI 318-11 §18.20.1, from memory), ±5 % common on bridges.
         fc.constantFrom(5, 7, 10),
         fc.constantFrom(1, -1),

@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { PJ as PJ_DEFAULT, endPlan, judgeOnBothPaths, strand } from "@/tests/support/reading-paths";
+import { PJ as PJ_DEFAULT, tendonCase, judgeOnBothPaths, strand } from "@/tests/support/reading-paths";
 
 // Property: a reading generated from the prediction itself (the engine's elongation at the
 // specified force, turned into what the crew would read by each method) is in band, with no
@@ -17,13 +17,7 @@ describe("a perfect reading is in band on every basis, method and order", () => 
   it("on the tablet and on the server, to the digit", () => {
     fc.assert(
       fc.property(
-        fc.double({ min: 8_000, max: 60_000, noNaN: true }),
-        fc.double({ min: 0, max: 1.2, noNaN: true }),
-        fc.constantFrom("A" as const, "both" as const),
-        fc.constantFrom("sequential" as const, "simultaneous" as const),
-        endPlan,
-        endPlan,
-        fc.option(fc.double({ min: 0, max: 8, noNaN: true }), { nil: null }),
+        ...tendonCase,
         fc.constantFrom(1, 1, 0.9, 0.95, 0.97, 1.02, 1.05),
         fc.double({ min: 0.9, max: 1.05, noNaN: true }),
         fc.option(fc.double({ min: 0.6, max: 0.8, noNaN: true }), { nil: null }),

@@ -99,6 +99,21 @@ export function perfectReading(
   return { measured, initialMPa: initialShare === null ? null : (initialShare * pj) / SLOPE, steps };
 }
 
+/**
+ * The shape of a generated case: length (mm) and angle change (rad) of its one segment, the ends
+ * it is stressed from and in what order, each end's reading plan, and the set's draw-in per
+ * re-grip (none: only what a record types). Spread into `fc.property` before a test's own draws.
+ */
+export const tendonCase = [
+  fc.double({ min: 8_000, max: 60_000, noNaN: true }),
+  fc.double({ min: 0, max: 1.2, noNaN: true }),
+  fc.constantFrom("A" as const, "both" as const),
+  fc.constantFrom("sequential" as const, "simultaneous" as const),
+  endPlan,
+  endPlan,
+  fc.option(fc.double({ min: 0, max: 8, noNaN: true }), { nil: null }),
+] as const;
+
 export interface ReadingCase {
   lengthMm: number;
   angleRad: number;
