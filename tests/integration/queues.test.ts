@@ -30,32 +30,8 @@ beforeAll(async () => {
     .returning("id")
     .executeTakeFirstOrThrow();
   pourId = pour.id;
-  const template = await t.db
-    .selectFrom("tendons")
-    .selectAll()
-    .where("project_id", "=", fx.projectId)
-    .where("tag", "=", "2-1-U01")
-    .executeTakeFirstOrThrow();
   tendons = [];
-  for (const tag of ["Q-1", "Q-2", "Q-3"]) {
-    const row = await t.db
-      .insertInto("tendons")
-      .values({
-        project_id: template.project_id,
-        pour_id: pourId,
-        tag,
-        kind: template.kind,
-        strand_size: template.strand_size,
-        strand_count: template.strand_count,
-        segments: JSON.stringify(template.segments),
-        ends: template.ends,
-        jack_grip_mm: template.jack_grip_mm,
-        strand_lot_id: template.strand_lot_id,
-      })
-      .returning(["id", "pour_id", "tag"])
-      .executeTakeFirstOrThrow();
-    tendons.push(row);
-  }
+  for (const tag of ["Q-1", "Q-2", "Q-3"]) tendons.push(await addTendon(pourId, tag));
   inspector = await t.db
     .selectFrom("users")
     .select(["id", "name"])
