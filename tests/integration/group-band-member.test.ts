@@ -7,7 +7,7 @@ import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getProjectSettings } from "@/lib/server/get-project-settings";
 import { previewSettingsChange } from "@/lib/server/preview-settings-change";
 import { updateProjectSettings } from "@/lib/server/update-project-settings";
-import { insertRecord, netPrediction } from "../support/records";
+import { insertRecord, predictionAsRead } from "../support/records";
 import { makePour, makeProject, makeTendons } from "../support/factories";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
@@ -90,7 +90,7 @@ describe("the group-average band of a schedule with member groups", () => {
         end: "A",
         equipmentSetId: setId,
         authorId: crew.id,
-        measuredMm: (await netPrediction(t.db, { projectId: project.id, tendonId: tendon.id })).mm * factor,
+        measuredMm: (await predictionAsRead(t.db, { projectId: project.id, tendonId: tendon.id })).mm * factor,
         finalPressureMPa: pressure,
         deviceTime: `2026-12-01T1${4 + k}:00:00Z`,
       });

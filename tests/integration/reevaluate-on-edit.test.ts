@@ -6,7 +6,7 @@ import { updateStrandLot } from "@/lib/server/update-strand-lot";
 import { updateTendon } from "@/lib/server/update-tendon";
 import type { TendonInput } from "@/lib/schemas/tendon";
 import { AppError } from "@/lib/errors";
-import { demoFixture, insertRecord, netPrediction } from "../support/records";
+import { demoFixture, insertRecord, predictionAsRead } from "../support/records";
 import { makePour, makeStrandLot, makeTendons } from "../support/factories";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
@@ -63,7 +63,7 @@ async function stressedTendon(tag: string) {
     strandLotId: lot.id,
   };
   const tendon = (await makeTendons(t.db, { projectId: fx.projectId, pourId: pour.id }, [tag], values))[0]!;
-  const predicted = await netPredictionOf(tendon.id);
+  const predicted = await predictionOf(tendon.id);
   const c = await t.db
     .selectFrom("calibrations")
     .select(["slope_n_per_mpa", "intercept_n"])
@@ -84,7 +84,7 @@ async function stressedTendon(tag: string) {
 }
 
 /** The judge's prediction for marks read after lock-off on the tendon as stored now. */
-const netPredictionOf = (tendonId: string) => netPrediction(t.db, { projectId: fx.projectId, tendonId });
+const predictionOf = (tendonId: string) => predictionAsRead(t.db, { projectId: fx.projectId, tendonId });
 
 const latest = (tendonId: string) =>
   t.db
@@ -198,7 +198,7 @@ describe("editing a tendon's schedule judges it again", () => {
     expect(after.reason).toBe("tendon RE-T1 schedule edited: segments");
     expect(after.verdict).toBe("short");
     // Against the judge's own prediction for the stored schedule: the same reading, a longer tendon.
-    const predicted = await netPredictionOf(s.tendonId);
+    const predicted = await predictionOf(s.tendonId);
     expect(predicted.mm).toBeGreaterThan(s.measuredMm * 1.1);
     expect(after.predicted_mm!).toBeCloseTo(predicted.mm, 6);
     expect(after.deviation_pct!).toBeCloseTo((s.measuredMm / predicted.mm - 1) * 100, 6);

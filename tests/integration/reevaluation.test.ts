@@ -9,7 +9,7 @@ import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { previewSettingsChange } from "@/lib/server/preview-settings-change";
 import { updateProjectSettings } from "@/lib/server/update-project-settings";
 import { judgeStressing } from "@/lib/stressing/judge";
-import { demoFixture, insertRecord, netPrediction } from "../support/records";
+import { demoFixture, insertRecord, predictionAsRead } from "../support/records";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 import { settingsFields } from "@/lib/schemas/project-settings";
 
@@ -35,7 +35,7 @@ describe("re-evaluation when the project's basis changes", () => {
   it("previews, re-judges with the reason, raises and closes flags by the rules", async () => {
     const tendon = await fx.tendon("2-1-U06");
     // The net prediction for marks on this tendon, from the same judge.
-    const predicted = await netPrediction(t.db, { projectId: fx.projectId, tendonId: tendon.id });
+    const predicted = await predictionAsRead(t.db, { projectId: fx.projectId, tendonId: tendon.id });
     const c = await t.db
       .selectFrom("calibrations")
       .select(["slope_n_per_mpa", "intercept_n"])
@@ -120,7 +120,7 @@ describe("re-evaluation when the project's basis changes", () => {
   it("a band widened past a force disagreement closes its flag; narrowed again, the flag is raised again", async () => {
     const tendon = await fx.tendon("2-1-U09");
     // The net prediction for marks on this tendon, from the same judge.
-    const predicted = await netPrediction(t.db, { projectId: fx.projectId, tendonId: tendon.id });
+    const predicted = await predictionAsRead(t.db, { projectId: fx.projectId, tendonId: tendon.id });
     const c = await t.db
       .selectFrom("calibrations")
       .select(["slope_n_per_mpa", "intercept_n"])
@@ -295,7 +295,7 @@ describe("re-evaluation when the project's basis changes", () => {
     const outcomes = [];
     for (const [k, tendonId] of ids.entries()) {
       // The net prediction for marks on this tendon, from the same judge.
-      const predicted = await netPrediction(t.db, { projectId: fx.projectId, tendonId });
+      const predicted = await predictionAsRead(t.db, { projectId: fx.projectId, tendonId });
       await insertRecord(t.db, {
         projectId: fx.projectId,
         tendon: { id: tendonId, pour_id: pour.id },

@@ -9,9 +9,7 @@ import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getPourReport } from "@/lib/server/get-pour-report";
 import { RECORD_COLUMNS, recordRows } from "@/lib/reports/pour-rows";
 import { listEquipmentSets } from "@/lib/server/list-equipment-sets";
-import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
-import { judgeStressing } from "@/lib/stressing/judge";
-import { demoFixture } from "../support/records";
+import { demoFixture, predictionAsRead } from "../support/records";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
 // An equipment set's draw-in per re-grip, on real PostgreSQL: stored with the set, listed, and used
@@ -100,35 +98,8 @@ async function tendonCopy(tag: string) {
 
 /** Gross plus grip for ram travel on this tendon, from the judge (one stroke, nothing deducted). */
 async function ramTravelPrediction(tendonId: string) {
-  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId });
-  const j = judgeStressing({
-    project: basis.project,
-    tendon: basis.tendon,
-    lot: basis.lot,
-    sets: [{ id: "s", name: "s", jackGripMm: GRIP_MM, maxForceN: null, calibrations: [] }],
-    records: [
-      {
-        id: "p",
-        chainId: "p",
-        revision: 1,
-        end: "A",
-        deviceTime: "2026-12-01T16:00:00Z",
-        equipmentSetId: "s",
-        calibrationId: null,
-        expiredCalibrationReason: null,
-        readingMethod: "strokes",
-        initialPressureMPa: null,
-        finalPressureMPa: 30,
-        measuredMm: 100,
-        strokeCount: 1,
-        drawInMm: null,
-        seatingMm: null,
-        stressingOrder: null,
-        wireBreaks: 0,
-      },
-    ],
-  });
-  return j.ends[0]!.predictedMm;
+  return (await predictionAsRead(t.db, { projectId: fx.projectId, tendonId, method: "strokes", jackGripMm: GRIP_MM }))
+    .mm;
 }
 
 /** Three strokes summing `measuredMm`, with the draw-in typed or not. */

@@ -80,20 +80,21 @@ export async function insertRecord(
 }
 
 /**
- * The judge's prediction for marks read after lock-off at end A of a one-end tendon as stored now
- * (net of the anchor set), and that set: what a perfect reading would measure. Asked of the same
- * judge the server uses, with the tendon's own basis.
+ * The judge's prediction for end A of a one-end tendon as stored now, read the way `method` says:
+ * marks after lock-off (net of the anchor set, the default) or ram travel over one stroke (gross
+ * plus the strand in a jack of `jackGripMm`); with the set it took off. What a perfect reading
+ * would measure, asked of the same judge the server uses, with the tendon's own basis.
  */
-export async function netPrediction(
+export async function predictionAsRead(
   db: Db,
-  input: { projectId: string; tendonId: string },
+  input: { projectId: string; tendonId: string; method?: "marks" | "strokes"; jackGripMm?: number | null },
 ): Promise<{ mm: number; setMm: number }> {
   const basis = await loadTendonBasis(db, input);
   const probe = judgeStressing({
     project: basis.project,
     tendon: basis.tendon,
     lot: basis.lot,
-    sets: [{ id: "s", name: "s", jackGripMm: null, maxForceN: null, calibrations: [] }],
+    sets: [{ id: "s", name: "s", jackGripMm: input.jackGripMm ?? null, maxForceN: null, calibrations: [] }],
     records: [
       {
         id: "p",
@@ -104,7 +105,7 @@ export async function netPrediction(
         equipmentSetId: "s",
         calibrationId: null,
         expiredCalibrationReason: null,
-        readingMethod: "marks",
+        readingMethod: input.method ?? "marks",
         initialPressureMPa: null,
         finalPressureMPa: 30,
         measuredMm: 100,
@@ -116,5 +117,5 @@ export async function netPrediction(
       },
     ],
   });
-  return { mm: probe.ends[0]!.predictedMm!, setMm: probe.ends[0]!.setMm! };
+  return { mm: probe.ends[0]!.predictedMm, setMm: probe.ends[0]!.setMm };
 }
