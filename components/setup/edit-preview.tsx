@@ -3,6 +3,7 @@
 import { useState } from "react";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import { sendJson, type ApiError } from "@/lib/client/send-json";
+import type { RejudgePreview } from "@/lib/server/preview-rejudging";
 
 /** What saving an edit would do to the stressed tendons (the answer of the edit's preview route). */
 export interface EditPreview {
@@ -108,14 +109,8 @@ export function savedWords(subject: string, reevaluated: number): string {
   return `${subject} saved${again}.`;
 }
 
-/** What a calibration or settings change would do (the answer of its preview route, `trialRejudging`). */
-export interface RejudgePreview {
-  rejudged: number;
-  verdictsChanging: number;
-  tags: string[];
-  flagsRaising: number;
-  flagsClosing: number;
-}
+/** What a calibration or settings change would do: the answer of its preview route (`trialRejudging`). */
+export type { RejudgePreview };
 
 /** True when the change touches any stored verdict or flag, so the admin is asked before it is saved. */
 export const rejudgeMatters = (p: RejudgePreview) => p.verdictsChanging > 0 || p.flagsRaising > 0 || p.flagsClosing > 0;

@@ -7,6 +7,7 @@
 import { spawn, type ChildProcess } from "node:child_process";
 import { appendFileSync } from "node:fs";
 import { randomBytes } from "node:crypto";
+import type { Browser, BrowserContext } from "@playwright/test";
 import bcrypt from "bcryptjs";
 import { sql, type Kysely } from "kysely";
 import { uuidv7 } from "uuidv7";
@@ -147,6 +148,45 @@ export async function signIn(base: string, email: string, password: string): Pro
     );
   }
   return cookie;
+}
+
+/**
+ * Notes, in `arrivedAt`, when each tendon tag (`tagPattern`) first shows in the subject or text of
+ * an e-mail to `to` in the local inbox: one look at the inbox, stamped with the moment of looking.
+ */
+export async function noteArrivals(
+  inbox: string,
+  to: string,
+  tagPattern: RegExp,
+  arrivedAt: Map<string, number>,
+): Promise<void> {
+  assertLoopback(inbox);
+  const messages = (await (await fetch(`${inbox}/api/messages?to=${encodeURIComponent(to)}`)).json()) as {
+    subject: string;
+    text: string;
+  }[];
+  const now = performance.now();
+  for (const m of messages) {
+    const tag = tagPattern.exec(`${m.subject} ${m.text}`)?.[0];
+    if (tag && !arrivedAt.has(tag)) arrivedAt.set(tag, now);
+  }
+}
+
+/** A browser context signed in with the session cookie header `signIn` answered. */
+export async function contextWithSession(
+  browser: Browser,
+  base: string,
+  cookie: string,
+  viewport = { width: 1280, height: 800 },
+): Promise<BrowserContext> {
+  const context = await browser.newContext({ viewport });
+  await context.addCookies(
+    cookie.split("; ").map((c) => {
+      const [name, ...value] = c.split("=");
+      return { name: name!, value: value.join("="), url: base };
+    }),
+  );
+  return context;
 }
 
 export interface BenchOp {

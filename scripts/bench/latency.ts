@@ -12,6 +12,7 @@ import { migrateToLatest } from "../../db/migrate";
 import {
   assertLoopback,
   makeDatabase,
+  noteArrivals,
   percentile,
   pushOps,
   report,
@@ -69,14 +70,7 @@ async function main() {
         ),
     );
     while (arrivedAt.size < RECORDS && Date.now() < deadline) {
-      const inbox = (await (
-        await fetch(`${INBOX}/api/messages?to=${encodeURIComponent(bench.engineerEmail)}`)
-      ).json()) as { subject: string; text: string }[];
-      const now = performance.now();
-      for (const m of inbox) {
-        const tag = /P1-\d{4}/.exec(`${m.subject} ${m.text}`)?.[0];
-        if (tag && !arrivedAt.has(tag)) arrivedAt.set(tag, now);
-      }
+      await noteArrivals(INBOX, bench.engineerEmail, /P1-\d{4}/, arrivedAt);
       await new Promise((r) => setTimeout(r, 100));
     }
     await Promise.all(pushes);

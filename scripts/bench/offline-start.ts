@@ -6,7 +6,7 @@
  * Starts the app on BENCH_PORT (default 3390) against DATABASE_URL.
  */
 import { chromium, type Page } from "@playwright/test";
-import { percentile, report, signIn, startApp, waitForUrl } from "./harness";
+import { contextWithSession, percentile, report, signIn, startApp, waitForUrl } from "./harness";
 
 const PORT = Number(process.env.BENCH_PORT ?? 3390);
 const BASE = `http://localhost:${PORT}`;
@@ -28,13 +28,7 @@ const browser = await chromium.launch({ executablePath: "/usr/bin/chromium" });
 try {
   await waitForUrl(`${BASE}/api/health`);
   const cookie = await signIn(BASE, "crew@demo.tautline.test", "tautline-demo");
-  const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
-  await context.addCookies(
-    cookie.split("; ").map((c) => {
-      const [name, ...value] = c.split("=");
-      return { name: name!, value: value.join("="), url: BASE };
-    }),
-  );
+  const context = await contextWithSession(browser, BASE, cookie);
   const page = await context.newPage();
   await page.goto(`${BASE}/field`);
   await page.evaluate(() => navigator.serviceWorker.ready);

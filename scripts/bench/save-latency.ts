@@ -12,7 +12,9 @@ import { createDb } from "../../db/connect";
 import { migrateToLatest } from "../../db/migrate";
 import {
   assertLoopback,
+  contextWithSession,
   makeDatabase,
+  noteArrivals,
   percentile,
   report,
   seedBenchProject,
@@ -77,13 +79,7 @@ async function main() {
     const cookie = await signIn(BASE, bench.crewEmail, bench.password);
     await fetch(`${INBOX}/api/messages`, { method: "DELETE" });
 
-    const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
-    await context.addCookies(
-      cookie.split("; ").map((c) => {
-        const [name, ...value] = c.split("=");
-        return { name: name!, value: value.join("="), url: BASE };
-      }),
-    );
+    const context = await contextWithSession(browser, BASE, cookie);
     const page = await context.newPage();
     await page.goto(`${BASE}/field`);
     await page.getByTestId("available-pour").filter({ hasText: "Bench pour 1" }).getByRole("button").click();
@@ -94,16 +90,7 @@ async function main() {
 
     const savedAt = new Map<string, number>();
     const arrivedAt = new Map<string, number>();
-    const poll = async () => {
-      const inbox = (await (
-        await fetch(`${INBOX}/api/messages?to=${encodeURIComponent(bench.engineerEmail)}`)
-      ).json()) as { subject: string; text: string }[];
-      const now = performance.now();
-      for (const m of inbox) {
-        const tag = /P1-\d{4}/.exec(`${m.subject} ${m.text}`)?.[0];
-        if (tag && !arrivedAt.has(tag)) arrivedAt.set(tag, now);
-      }
-    };
+    const poll = () => noteArrivals(INBOX, bench.engineerEmail, /P1-\d{4}/, arrivedAt);
     let polling = true;
     const poller = (async () => {
       while (polling) {
