@@ -67,7 +67,16 @@ function filterParams(filters: ColumnFiltersState): Record<"q" | "ends" | "lot",
 
 const helper = createColumnHelper<typeof setupFeatures, TendonRow>();
 
-function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolution) {
+/** The equipment sets the rows give gauge targets for, by name. */
+function targetSets(tendons: TendonRow[]): string[] {
+  return [...new Set(tendons.flatMap((t) => t.targets.map((g) => g.set)))].sort(compareText);
+}
+
+/**
+ * The columns; `gaugeSet` names the one equipment set whose target gauge pressure is shown, or is
+ * null for every set's.
+ */
+function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolution, gaugeSet: string | null) {
   // Only the unit system matters to the computed-length, long-length and pressure formats.
   const units: DisplayUnits = { unitSystem: us ? "us" : "si", readingResolution: us ? "1/8in" : "1mm" };
   const long = (mm: number) => showLongLength(units, mm);
@@ -153,32 +162,6 @@ function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolu
       },
     }),
     helper.display({
-      id: "targets",
-      header: "Target gauge",
-      cell: (c) =>
-        c.row.original.targets.length === 0 ? (
-          <span className="text-ink-faint">no calibrated set</span>
-        ) : (
-          <ul className="whitespace-nowrap">
-            {c.row.original.targets.map((t) => (
-              <li key={t.set}>
-                <span className="text-ink-faint">{t.set}:</span>{" "}
-                <span className="tabular-nums">
-                  {t.pressureMPa === null ? "—" : showPressure(units, t.pressureMPa)}
-                </span>
-              </li>
-            ))}
-          </ul>
-        ),
-    }),
-    helper.display({
-      id: "shop",
-      header: "Shop elongation",
-      meta: { right: true },
-      cell: (c) =>
-        c.row.original.shopElongationMm === null ? "—" : formatLength(c.row.original.shopElongationMm, resolution),
-    }),
-    helper.display({
       id: "jackingForce",
       header: "Jacking force",
       meta: { right: true },
@@ -188,6 +171,37 @@ function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolu
         ) : (
           <span className="tabular-nums">{showForce(units, c.row.original.jackingForceN)}</span>
         ),
+    }),
+    helper.display({
+      id: "targets",
+      header: gaugeSet === null ? "Target gauge" : `Target gauge, ${gaugeSet}`,
+      cell: (c) => {
+        const targets = c.row.original.targets.filter((t) => gaugeSet === null || t.set === gaugeSet);
+        return targets.length === 0 ? (
+          <span className="text-ink-faint">
+            {gaugeSet === null ? "no calibrated set" : `${gaugeSet} not calibrated`}
+          </span>
+        ) : (
+          // Long set names wrap inside the cell; each pressure stays on one line.
+          <ul className="min-w-[10rem]">
+            {targets.map((t) => (
+              <li key={t.set}>
+                {gaugeSet === null && <span className="text-ink-faint">{t.set}: </span>}
+                <span className="whitespace-nowrap tabular-nums">
+                  {t.pressureMPa === null ? "—" : showPressure(units, t.pressureMPa)}
+                </span>
+              </li>
+            ))}
+          </ul>
+        );
+      },
+    }),
+    helper.display({
+      id: "shop",
+      header: "Shop elongation",
+      meta: { right: true },
+      cell: (c) =>
+        c.row.original.shopElongationMm === null ? "—" : formatLength(c.row.original.shopElongationMm, resolution),
     }),
     helper.accessor("strandLot", {
       id: "lot",
@@ -219,9 +233,12 @@ export function TendonTable(props: {
   const { params, hrefWith, go } = useUrlView(props.base);
   const sorting = useMemo(() => readSorting(params, SORTS, DEFAULT_SORT), [params]);
   const columnFilters = useMemo(() => readFilters(params), [params]);
+  const sets = useMemo(() => targetSets(tendons), [tendons]);
+  // One set's targets when the view names a set the rows know; every set's otherwise.
+  const gaugeSet = sets.find((s) => s === params.get("set")) ?? null;
   const columns = useMemo(
-    () => tendonColumns(props.projectId, props.us, props.resolution),
-    [props.projectId, props.us, props.resolution],
+    () => tendonColumns(props.projectId, props.us, props.resolution, gaugeSet),
+    [props.projectId, props.us, props.resolution, gaugeSet],
   );
   const hrefFor = (next: SortingState) => hrefWith(sortingParams(next, DEFAULT_SORT));
 
@@ -250,7 +267,9 @@ export function TendonTable(props: {
         key={params.toString()}
         method="get"
         action={props.base}
-        className="mt-3 grid gap-3 md:grid-cols-[2fr_1fr_1fr_auto_auto] md:items-end"
+        className={`mt-3 grid gap-3 md:items-end ${
+          sets.length > 1 ? "md:grid-cols-[2fr_1fr_1fr_1fr_auto_auto]" : "md:grid-cols-[2fr_1fr_1fr_auto_auto]"
+        }`}
         onSubmit={(e) => {
           e.preventDefault();
           const form = new FormData(e.currentTarget);
@@ -260,7 +279,7 @@ export function TendonTable(props: {
             { id: "ends", value: text("ends") },
             { id: "lot", value: text("lot").slice(0, 60) },
           ].filter((f) => f.value);
-          table.setColumnFilters(next);
+          go(hrefWith({ ...filterParams(next), set: text("set").slice(0, 120) || null }));
         }}
       >
         <FormField id="f-q" name="q" label="Show tags containing" defaultValue={current.q ?? ""} />
@@ -277,6 +296,14 @@ export function TendonTable(props: {
             <option key={l}>{l}</option>
           ))}
         </FormField>
+        {sets.length > 1 && (
+          <FormField as="select" id="f-set" name="set" label="Show gauge targets for" defaultValue={gaugeSet ?? ""}>
+            <option value="">Every set</option>
+            {sets.map((s) => (
+              <option key={s}>{s}</option>
+            ))}
+          </FormField>
+        )}
         {/* Without the script the form is an ordinary GET of the same view. */}
         {params.get("sort") && <input type="hidden" name="sort" value={params.get("sort") ?? ""} />}
         {params.get("dir") && <input type="hidden" name="dir" value={params.get("dir") ?? ""} />}

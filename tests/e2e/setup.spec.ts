@@ -175,6 +175,17 @@ test("an admin sets up a pour, imports its schedule, adds a strand lot and a cal
   // The tendon: prediction, profile and the target pressure on the new set.
   await page.goto(`${new URL(page.url()).pathname.replace(/equipment$/, "pours")}`);
   await page.getByRole("link", { name: POUR }).click();
+  // The schedule shows one set's target gauge when asked, under a header naming the set.
+  const scheduleTable = page.getByRole("region", { name: "Tendon schedule, scrolls sideways" });
+  await expect(scheduleTable.getByRole("columnheader", { name: "Target gauge" })).toBeVisible();
+  await page.getByLabel("Show gauge targets for").selectOption({ label: SET });
+  await page.getByRole("button", { name: "Filter" }).click();
+  await expect(page).toHaveURL(/[?&]set=/);
+  await expect(scheduleTable.getByRole("columnheader", { name: `Target gauge, ${SET}` })).toBeVisible();
+  const row = scheduleTable.locator("tr", { hasText: `E${stamp}-001` });
+  await expect(row).toContainText("5634 psi");
+  await expect(row).not.toContainText("Set B · Jack J-31");
+  await screenshot(page, "setup-schedule-one-set");
   await page.getByRole("link", { name: `E${stamp}-001` }).click();
   await expect(page.getByRole("heading", { name: `Tendon E${stamp}-001` })).toBeVisible();
   const target = page.locator("tr", { hasText: SET });
