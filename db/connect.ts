@@ -55,11 +55,19 @@ export class PreparingClient extends pg.Client {
  * `prepare` on; scripts and tests that change the schema keep it off, since a statement
  * prepared before a schema change can no longer run after it.
  */
-export function createDb(connectionString: string, max = 10, options: { prepare?: boolean } = {}): Kysely<Database> {
+export function createDb(
+  connectionString: string,
+  max = 10,
+  options: {
+    prepare?: boolean;
+    /** Give up opening a connection after this long (default: wait). */ connectTimeoutMs?: number;
+  } = {},
+): Kysely<Database> {
   const pool = new pg.Pool({
     connectionString,
     max,
     idleTimeoutMillis: 30_000,
+    ...(options.connectTimeoutMs ? { connectionTimeoutMillis: options.connectTimeoutMs } : {}),
     ...(options.prepare ? { Client: PreparingClient } : {}),
   });
   // An idle connection that PostgreSQL drops (a restart, a network cut, an administrator ending

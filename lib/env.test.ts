@@ -30,4 +30,14 @@ describe("parseEnv", () => {
       /RATE_LIMIT_DATABASE_URL: RATE_LIMIT_DATABASE_URL must be a postgres:\/\/ connection string/,
     );
   });
+
+  it("reads the replica only when DATABASE_REPLICA_URL is set, and checks it", () => {
+    expect(parseEnv({}).DATABASE_REPLICA_URL).toBeUndefined();
+    expect(parseEnv({ DATABASE_REPLICA_URL: "postgres://r:r@127.0.0.1:54352/tautline" }).DATABASE_REPLICA_URL).toBe(
+      "postgres://r:r@127.0.0.1:54352/tautline",
+    );
+    expect(() => parseEnv({ DATABASE_REPLICA_URL: "replica.internal:5432" })).toThrow(
+      /DATABASE_REPLICA_URL: DATABASE_REPLICA_URL must be a postgres:\/\/ connection string/,
+    );
+  });
 });

@@ -19,6 +19,13 @@ const schema = z.object({
     .string()
     .regex(/^postgres(ql)?:\/\//, "MIGRATION_DATABASE_URL must be a postgres:// connection string")
     .optional(),
+  // A streaming replica for the reads that may be a moment old: the pour insight page and the
+  // read-only status board (`momentOld` in db/index.ts). Unset, they read DATABASE_URL like
+  // everything else; unreachable, they fall back to DATABASE_URL with a log line.
+  DATABASE_REPLICA_URL: z
+    .string()
+    .regex(/^postgres(ql)?:\/\//, "DATABASE_REPLICA_URL must be a postgres:// connection string")
+    .optional(),
   DATABASE_POOL_MAX: z.coerce.number().int().min(1).max(100).default(10),
   // Named prepared statements (db/connect.ts); off behind a pooler in transaction mode that cannot
   // keep them (PgBouncer before 1.21, e.g. Debian 12's 1.18): see docs/SCALING.md.

@@ -1,5 +1,6 @@
 import "server-only";
 import type { Kysely } from "kysely";
+import type { MomentOld } from "@/db/moment-old";
 import type { Database } from "@/db/types";
 import type { Verdict } from "@/lib/schemas/domain";
 import {
@@ -62,7 +63,19 @@ export function judgedTendon(t: TendonResult): JudgedTendon {
   };
 }
 
+/**
+ * A moment-old read (the replica when there is one): the page is a look back over the records, and
+ * a record that reached the primary a moment ago shows on the next load. The signatures, concrete
+ * results and anything the page lets someone act on are read from the primary by the page itself.
+ */
 export async function getPourInsight(
+  reads: MomentOld,
+  input: { projectId: string; pourId: string },
+): Promise<PourInsight> {
+  return reads.read((db) => readPourInsight(db, input));
+}
+
+async function readPourInsight(
   db: Kysely<Database>,
   input: { projectId: string; pourId: string },
 ): Promise<PourInsight> {

@@ -1,5 +1,6 @@
 import "server-only";
 import { sql, type Kysely } from "kysely";
+import type { MomentOld } from "@/db/moment-old";
 import type { Database } from "@/db/types";
 import { hashToken } from "@/lib/auth/tokens";
 import { AppError } from "@/lib/errors";
@@ -84,8 +85,13 @@ export async function shareLinkIssued(
   return row !== undefined;
 }
 
+/**
+ * The link is checked on the primary (a link revoked a moment ago is refused at once, and the view's
+ * audit row is a write); the board itself is a moment-old read, from the replica when there is one.
+ */
 export async function getShareBoard(
   db: Kysely<Database>,
+  reads: MomentOld,
   input: { token: string; ip?: string | null; now?: Date },
 ): Promise<{
   project: { code: string; name: string; address: string | null };
@@ -95,72 +101,74 @@ export async function getShareBoard(
 }> {
   const link = await resolveLink(db, input.token, input.ip ?? null, "share.view", input.now ?? new Date());
   const projectId = link.project_id;
-  const [pours, revisions] = await Promise.all([
-    db
-      .selectFrom("pours")
-      .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
-      .leftJoin("releases", "releases.id", "pour_states.release_id")
-      .select([
-        "pours.id",
-        "pours.name",
-        "pours.level",
-        "releases.signer_name",
-        "releases.licence",
-        "releases.content_sha256",
-        "releases.created_at as release_signed_at",
-        (eb) =>
-          eb
-            .selectFrom("tendons")
-            .select(sql<string>`count(*)`.as("n"))
-            .whereRef("tendons.pour_id", "=", "pours.id")
-            .as("tendons"),
-        (eb) =>
-          eb
-            .selectFrom("tendons")
-            .select(sql<string>`count(*)`.as("n"))
-            .whereRef("tendons.pour_id", "=", "pours.id")
-            .where((w) =>
-              w.exists(w.selectFrom("records").select("records.id").whereRef("records.tendon_id", "=", "tendons.id")),
-            )
-            .as("started"),
-        (eb) =>
-          eb
-            .selectFrom("tendons")
-            .select(sql<string>`count(*)`.as("n"))
-            .whereRef("tendons.pour_id", "=", "pours.id")
-            .where(
-              sql<boolean>`(select e.provisional = false from evaluations e where e.tendon_id = tendons.id order by e.created_at desc, e.id desc limit 1)`,
-            )
-            .as("complete"),
-        (eb) =>
-          eb
-            .selectFrom("tendons")
-            .select(sql<string>`count(*)`.as("n"))
-            .whereRef("tendons.pour_id", "=", "pours.id")
-            .where((w) =>
-              w.exists(
-                w
-                  .selectFrom("flags")
-                  .select("flags.id")
-                  .whereRef("flags.tendon_id", "=", "tendons.id")
-                  .where("flags.status", "!=", "closed"),
-              ),
-            )
-            .as("held"),
-        // A standing release (one the engineer has not reopened), from the one definition of a pour's status.
-        sql<boolean>`pour_states.status = 'released'`.as("released"),
-      ])
-      .where("pours.project_id", "=", projectId)
-      .orderBy("pours.name")
-      .execute(),
-    db
-      .selectFrom("report_revisions")
-      .select(["pour_id", "revision", "signer_name", "signed_at"])
-      .where("project_id", "=", projectId)
-      .where("kind", "=", "pour_stressing")
-      .orderBy("revision", "desc")
-      .execute(),
-  ]);
+  const [pours, revisions] = await reads.read((db) =>
+    Promise.all([
+      db
+        .selectFrom("pours")
+        .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
+        .leftJoin("releases", "releases.id", "pour_states.release_id")
+        .select([
+          "pours.id",
+          "pours.name",
+          "pours.level",
+          "releases.signer_name",
+          "releases.licence",
+          "releases.content_sha256",
+          "releases.created_at as release_signed_at",
+          (eb) =>
+            eb
+              .selectFrom("tendons")
+              .select(sql<string>`count(*)`.as("n"))
+              .whereRef("tendons.pour_id", "=", "pours.id")
+              .as("tendons"),
+          (eb) =>
+            eb
+              .selectFrom("tendons")
+              .select(sql<string>`count(*)`.as("n"))
+              .whereRef("tendons.pour_id", "=", "pours.id")
+              .where((w) =>
+                w.exists(w.selectFrom("records").select("records.id").whereRef("records.tendon_id", "=", "tendons.id")),
+              )
+              .as("started"),
+          (eb) =>
+            eb
+              .selectFrom("tendons")
+              .select(sql<string>`count(*)`.as("n"))
+              .whereRef("tendons.pour_id", "=", "pours.id")
+              .where(
+                sql<boolean>`(select e.provisional = false from evaluations e where e.tendon_id = tendons.id order by e.created_at desc, e.id desc limit 1)`,
+              )
+              .as("complete"),
+          (eb) =>
+            eb
+              .selectFrom("tendons")
+              .select(sql<string>`count(*)`.as("n"))
+              .whereRef("tendons.pour_id", "=", "pours.id")
+              .where((w) =>
+                w.exists(
+                  w
+                    .selectFrom("flags")
+                    .select("flags.id")
+                    .whereRef("flags.tendon_id", "=", "tendons.id")
+                    .where("flags.status", "!=", "closed"),
+                ),
+              )
+              .as("held"),
+          // A standing release (one the engineer has not reopened), from the one definition of a pour's status.
+          sql<boolean>`pour_states.status = 'released'`.as("released"),
+        ])
+        .where("pours.project_id", "=", projectId)
+        .orderBy("pours.name")
+        .execute(),
+      db
+        .selectFrom("report_revisions")
+        .select(["pour_id", "revision", "signer_name", "signed_at"])
+        .where("project_id", "=", projectId)
+        .where("kind", "=", "pour_stressing")
+        .orderBy("revision", "desc")
+        .execute(),
+    ]),
+  );
   return {
     project: { code: link.code, name: link.name, address: link.address },
     label: link.label,

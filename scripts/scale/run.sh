@@ -1,9 +1,11 @@
 #!/usr/bin/env bash
 # Past one machine, on one machine: two app servers behind HAProxy, two e-mail dispatchers,
-# PgBouncer in transaction mode in front of PostgreSQL, and a streaming replica; then the load
-# benchmark (scripts/bench/load.ts) through the proxy, with its exactly-once and sent-once checks,
-# and the replica's lag. Debian's haproxy, pgbouncer and postgresql; loopback only; everything
-# started here is stopped at the end. Needs a production build (npm run build).
+# PgBouncer in transaction mode in front of PostgreSQL, and a streaming replica that the app
+# servers read the moment-old pages from (DATABASE_REPLICA_URL: insight, status board); then the
+# load benchmark (scripts/bench/load.ts) through the proxy, with its exactly-once and sent-once
+# checks, the replica's lag, and a batch of insight and board loads counted on the replica.
+# Debian's haproxy, pgbouncer and postgresql; loopback only; everything started here is stopped at
+# the end. Needs a production build (npm run build).
 #
 #   bash scripts/scale/run.sh        (LOAD_TABLETS, LOAD_RECORDS pass through to the load)
 #
@@ -96,12 +98,13 @@ PIDS+=("$LAST_PID")
 # 4. Schema on the primary (directly: migrations are DDL in one session).
 DATABASE_URL="$PRIMARY_URL" node_modules/.bin/tsx scripts/migrate.ts >"$DIR/logs/migrate.log" 2>&1 || { cat "$DIR/logs/migrate.log"; die "migration failed"; }
 
-# 5. The mail and upload fakes, two app servers and two dispatchers, all through PgBouncer.
+# 5. The mail and upload fakes, two app servers and two dispatchers, all through PgBouncer (the
+#    app servers' moment-old reads straight to the replica).
 start_group "$DIR/logs/fakes.log" node_modules/.bin/tsx scripts/fakes.ts
 PIDS+=("$LAST_PID")
 for port in $APP1 $APP2; do
   start_group "$DIR/logs/app-$port.log" env DATABASE_URL="$BOUNCER_URL" DATABASE_PREPARE=false DATABASE_POOL_MAX=10 \
-    RATE_LIMIT_DATABASE_URL="${BOUNCER_URL%/*}/tautline_session" \
+    RATE_LIMIT_DATABASE_URL="${BOUNCER_URL%/*}/tautline_session" DATABASE_REPLICA_URL="$REPLICA_URL" \
     node_modules/.bin/next start -p "$port" -H 127.0.0.1
   PIDS+=("$LAST_PID")
 done
@@ -154,6 +157,10 @@ status=$?
 # 8. What each app server took (HAProxy's counters), and the replica: same rows, how far behind.
 curl -fsS "http://127.0.0.1:8091/stats;csv" | awk -F, '$1 == "apps" && $2 ~ /^app/ { print "  HAProxy sent " $8 " sessions to " $2 }'
 node_modules/.bin/tsx scripts/scale/replica-check.ts "$PRIMARY_URL" "$REPLICA_URL"
+# 9. The reads that may be a moment old (insight, status board) served by the replica, counted there.
+node_modules/.bin/tsx scripts/scale/replica-reads.ts "http://localhost:$PROXY_PORT" "$PRIMARY_URL" "$REPLICA_URL" || status=1
+fallbacks=$(cat "$DIR/logs/app-$APP1.log" "$DIR/logs/app-$APP2.log" | grep -c "read replica out of reach")
+say "app servers that fell back from the replica to the primary: $fallbacks log line(s)"
 curl -fsS "http://127.0.0.1:$PROXY_PORT/api/health" >/dev/null && say "proxy still healthy"
 grep -c "sent" "$DIR/logs/dispatcher-1.log" "$DIR/logs/dispatcher-2.log" | sed 's/^/  dispatcher passes that sent mail: /'
 exit $status

@@ -5,6 +5,7 @@ import { getPourInsight } from "@/lib/server/get-pour-insight";
 import { pullChanges } from "@/lib/server/pull-changes";
 import { queueGaugeChecks } from "@/lib/server/queue-gauge-checks";
 import { gaugeChecks, judgedFromRecords } from "@/lib/stressing/gauge-check";
+import { MomentOld } from "@/db/moment-old";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
 // The demo seed has a set whose gauge reads off on one pour; its size may be retuned, so these
@@ -23,7 +24,7 @@ beforeAll(async () => {
     .execute();
   drifting = [];
   for (const p of pours) {
-    const insight = await getPourInsight(t.db, { projectId: p.project_id, pourId: p.id });
+    const insight = await getPourInsight(new MomentOld(t.db, null), { projectId: p.project_id, pourId: p.id });
     const sets = insight.driftOnPour.filter((d) => d.drifting).map((d) => ({ id: d.setId, name: d.setName }));
     if (sets.length) drifting.push({ projectId: p.project_id, pourId: p.id, unitSystem: p.unit_system, sets });
   }
@@ -103,7 +104,7 @@ describe("the inspector's gauge check e-mail", () => {
     expect(judged.every(Boolean)).toBe(true);
     const onTablet = gaugeChecks(judged.filter((j) => j !== null));
     expect(onTablet.map((c) => c.setId).sort()).toEqual(p.sets.map((s) => s.id).sort());
-    const insight = await getPourInsight(t.db, { projectId: p.projectId, pourId: p.pourId });
+    const insight = await getPourInsight(new MomentOld(t.db, null), { projectId: p.projectId, pourId: p.pourId });
     const server = insight.driftOnPour.find((d) => d.setId === onTablet[0]!.setId)!;
     expect(onTablet[0]!.meanPct).toBeCloseTo(server.meanPct, 9);
     expect(onTablet[0]!.n).toBe(server.n);

@@ -15,6 +15,7 @@ import { recordDisposition } from "@/lib/server/record-disposition";
 import { releasePour } from "@/lib/server/release-pour";
 import { predictTendon } from "@/lib/stressing/basis";
 import { demoFixture, insertRecord } from "../support/records";
+import { MomentOld } from "@/db/moment-old";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
 let t: TestDatabase;
@@ -230,7 +231,9 @@ describe("the pour's stressing report", () => {
       by: { id: engineer.id },
       values: { label: "Contractor (test)", days: 7 },
     });
-    const boardPour = (await getShareBoard(t.db, { token: link.token })).pours.find((p) => p.pourId === pourId);
+    const boardPour = (await getShareBoard(t.db, new MomentOld(t.db, null), { token: link.token })).pours.find(
+      (p) => p.pourId === pourId,
+    );
     expect(boardPour).toMatchObject({ status: "released", release: { ...signature, signedAt: release.signedAt } });
 
     const report = await getPourReport(t.db, { projectId: fx.projectId, pourId });
@@ -312,7 +315,7 @@ describe("the pour's stressing report", () => {
 
 describe("insight across the pour", () => {
   it("marks the set that comes out long, finds the gauge steps' modulus and counts verdicts the division could change", async () => {
-    const insight = await getPourInsight(t.db, { projectId: fx.projectId, pourId });
+    const insight = await getPourInsight(new MomentOld(t.db, null), { projectId: fx.projectId, pourId });
     expect(insight.progress).toMatchObject({ tendons: 50, stressed: 50, released: 50, flagged: 0 });
     const b = insight.driftOnPour.find((s) => s.setId === fx.setB)!;
     const a = insight.driftOnPour.find((s) => s.setId === fx.setA)!;

@@ -1,4 +1,5 @@
 import type { Db } from "@/db/connect";
+import { MomentOld } from "@/db/moment-old";
 import type { SessionUser } from "@/lib/auth/session";
 import { AppError } from "@/lib/errors";
 
@@ -15,6 +16,10 @@ export const routeState: { db: Db | null; user: SessionUser | null } = { db: nul
 export const mockedDb = {
   get db() {
     return routeState.db;
+  },
+  /** No replica under the route tests: the moment-old reads go to the test's database. */
+  get momentOld() {
+    return routeState.db ? new MomentOld(routeState.db, null) : null;
   },
 };
 

@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import bcrypt from "bcryptjs";
 import { getPourInsight } from "@/lib/server/get-pour-insight";
 import { DEMO_PASSWORD, DEMO_PEOPLE, seedDemo } from "@/scripts/seed/demo";
+import { MomentOld } from "@/db/moment-old";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
 let t: TestDatabase;
@@ -93,7 +94,10 @@ describe("demo seed", () => {
       .select(["id", "project_id"])
       .where("name", "=", "L2 Pour 1")
       .executeTakeFirstOrThrow();
-    const insight = await getPourInsight(t.db, { projectId: released.project_id, pourId: released.id });
+    const insight = await getPourInsight(new MomentOld(t.db, null), {
+      projectId: released.project_id,
+      pourId: released.id,
+    });
     expect(insight.progress.flagged).toBe(0);
     const drifting = insight.driftOnPour.filter((d) => d.drifting);
     expect(drifting.map((d) => d.setName)).toEqual([expect.stringMatching(/^Set B/)]);

@@ -19,6 +19,7 @@ import { signPourReport } from "@/lib/server/sign-pour-report";
 import { verifyReportFile } from "@/lib/server/verify-report-file";
 import { predictTendon } from "@/lib/stressing/basis";
 import { demoFixture } from "../support/records";
+import { MomentOld } from "@/db/moment-old";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
 // A pour of our own with two tendons copied from the demo schedule. Tendon S-01 is stressed short
@@ -424,7 +425,7 @@ describe("the read-only status board", () => {
       values: { label: "Building official (test)", days: 7 },
       now,
     });
-    const board = await getShareBoard(t.db, { token: link.token, now });
+    const board = await getShareBoard(t.db, new MomentOld(t.db, null), { token: link.token, now });
     const signedPour = board.pours.find((p) => p.name === "Signed pour")!;
     // S-01 still has an open jacking-force flag; S-02 is not stressed.
     expect(signedPour).toMatchObject({ status: "held", held: 1, tendons: 2, complete: 1 });
@@ -434,14 +435,21 @@ describe("the read-only status board", () => {
     expect(Buffer.from(file.body.subarray(0, 5)).toString()).toBe("%PDF-");
 
     // A token never issued is not found, unlike one that ended.
-    await expect(getShareBoard(t.db, { token: "A".repeat(43), now })).rejects.toMatchObject({ code: "NOT_FOUND" });
+    await expect(getShareBoard(t.db, new MomentOld(t.db, null), { token: "A".repeat(43), now })).rejects.toMatchObject({
+      code: "NOT_FOUND",
+    });
     // Expired a moment after its last day.
     await expect(
-      getShareBoard(t.db, { token: link.token, now: new Date(link.expiresAt.getTime() + 1000) }),
+      getShareBoard(t.db, new MomentOld(t.db, null), {
+        token: link.token,
+        now: new Date(link.expiresAt.getTime() + 1000),
+      }),
     ).rejects.toMatchObject({ code: "GONE" });
     // Revoked: gone at once.
     await revokeShareLink(t.db, { projectId: fx.projectId, linkId: link.linkId, by: engineer });
-    await expect(getShareBoard(t.db, { token: link.token, now })).rejects.toMatchObject({ code: "GONE" });
+    await expect(getShareBoard(t.db, new MomentOld(t.db, null), { token: link.token, now })).rejects.toMatchObject({
+      code: "GONE",
+    });
     await expect(readSharedReport(t.db, { token: link.token, pourId, revision: 2, now })).rejects.toMatchObject({
       code: "GONE",
     });

@@ -1,6 +1,6 @@
 import { headers } from "next/headers";
 import { notFound } from "next/navigation";
-import { db } from "@/db";
+import { db, momentOld } from "@/db";
 import { isAppError } from "@/lib/errors";
 import { formatDateTime } from "@/lib/format/dates";
 import { shareTokenSchema } from "@/lib/schemas/share-link";
@@ -19,7 +19,7 @@ export default async function SharedBoardPage({ params }: { params: Promise<{ to
   const forwarded = (await headers()).get("x-forwarded-for")?.split(",")[0]?.trim() ?? null;
   // A token that is not one of ours, or was never issued, answers 404 with the not-found state.
   if (!shareTokenSchema.safeParse(token).success) notFound();
-  const board = await getShareBoard(db, { token, ip: forwarded }).catch((e: unknown) => {
+  const board = await getShareBoard(db, momentOld, { token, ip: forwarded }).catch((e: unknown) => {
     if (isAppError(e) && e.code === "GONE") return null;
     if (isAppError(e) && e.code === "NOT_FOUND") notFound();
     throw e;

@@ -6,7 +6,7 @@ import { ProgressChart } from "@/components/insight/progress-chart";
 import { ReportSigning } from "@/components/reports/report-signing";
 import { ConcreteResults } from "@/components/concrete/concrete-results";
 import { Caution } from "@/components/ui/caution";
-import { db } from "@/db";
+import { db, momentOld } from "@/db";
 import { can } from "@/lib/auth/permissions";
 import { isAppError } from "@/lib/errors";
 import { DRIFT_RULE } from "@/lib/insights";
@@ -25,7 +25,7 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
   const { projectId, pourId } = await params;
   const access = await pageAccess("record.view", projectId);
   if (!isUuid(pourId)) notFound();
-  const insight = await getPourInsight(db, { projectId, pourId }).catch((e: unknown) => {
+  const insight = await getPourInsight(momentOld, { projectId, pourId }).catch((e: unknown) => {
     if (isAppError(e) && e.code === "NOT_FOUND") notFound();
     throw e;
   });
