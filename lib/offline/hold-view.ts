@@ -1,3 +1,4 @@
+import type { TendonEnd } from "@/lib/schemas/domain";
 import type { FieldDisposition, FieldFlag, FieldPour, FieldProject, FieldTendon } from "@/lib/schemas/sync";
 import { awaitingRestress, DETENSIONED_WORDS, tailClearance, type Clearance } from "@/lib/stressing/tail-clearance";
 import type { LocalDetension, LocalLiftoffCheck, LocalRecord } from "./db";
@@ -68,7 +69,7 @@ export interface FollowUps {
   liftoffChecks?: Pick<LocalLiftoffCheck, "dispositionId" | "checkedAt" | "withinBand" | "syncState">[];
   detensions?: Pick<LocalDetension, "dispositionId">[];
   /** Ends not stressed again since the last detension (`awaitingRestressOf`). */
-  awaitingRestress?: readonly ("A" | "B")[];
+  awaitingRestress?: readonly TendonEnd[];
 }
 
 /** How far the work an order asks for has come, in words; null while nothing has been done. */
@@ -107,7 +108,7 @@ export function awaitingRestressOf(
   tendon: Pick<FieldTendon, "ends">,
   detensions: Pick<LocalDetension, "detensionedAt">[],
   records: Pick<LocalRecord, "tendonEnd" | "deviceTime">[],
-): ("A" | "B")[] {
+): TendonEnd[] {
   return awaitingRestress({
     ends: tendon.ends,
     detensionedAt: detensions.map((d) => d.detensionedAt),
@@ -127,7 +128,7 @@ export function cutClearanceOf(input: {
   flags: FieldFlag[];
   heldOnTablet: boolean;
   /** Ends not stressed again since the tendon's last detension (`awaitingRestressOf`). */
-  awaitingRestress?: readonly ("A" | "B")[];
+  awaitingRestress?: readonly TendonEnd[];
   project: Pick<FieldProject, "requiredConcreteMpa" | "unitSystem">;
   pour: Pick<FieldPour, "concreteStrengthMpa">;
 }): Clearance {

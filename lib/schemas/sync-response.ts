@@ -1,6 +1,17 @@
 import { z } from "zod/mini";
 import { ERROR_STATUS, type ErrorCode } from "@/lib/errors";
-import { DECISIONS } from "./domain";
+import {
+  COMPARISON_BASES,
+  DECISIONS,
+  GOVERNING_VALUES,
+  READING_METHODS,
+  STORED_RESOLUTIONS,
+  STRESSING_ENDS,
+  STRESSING_ORDERS,
+  TENDON_ENDS,
+  UNIT_SYSTEMS,
+  VERDICTS,
+} from "./domain";
 
 /**
  * What the server answers the tablet, as zod schemas: the route handlers build their answer
@@ -17,8 +28,9 @@ import { DECISIONS } from "./domain";
 const id = z.string();
 const nullableNumber = z.nullable(z.number());
 const nullableString = z.nullable(z.string());
-const end = z.enum(["A", "B"]);
-const verdict = z.enum(["in band", "long", "short", "incomplete"]);
+const end = z.enum(TENDON_ENDS);
+const verdict = z.enum(VERDICTS);
+const stressingOrder = z.optional(z.nullable(z.enum(STRESSING_ORDERS)));
 const enteredPressure = z.object({ pressure: z.string(), unit: z.enum(["psi", "MPa"]) });
 
 // ---------------------------------------------------------------------------------------------
@@ -79,11 +91,11 @@ export const fieldProjectSchema = z.object({
   id,
   code: z.string(),
   name: z.string(),
-  unitSystem: z.enum(["us", "si"]),
-  readingResolution: z.string(),
+  unitSystem: z.enum(UNIT_SYSTEMS),
+  readingResolution: z.enum(STORED_RESOLUTIONS),
   tolerancePct: z.number(),
   shortTendonFloorMm: nullableNumber,
-  comparisonBasis: z.enum(["gross", "net"]),
+  comparisonBasis: z.enum(COMPARISON_BASES),
   countJackGrip: z.boolean(),
   frictionMu: z.number(),
   wobblePerM: z.number(),
@@ -97,7 +109,7 @@ export const fieldProjectSchema = z.object({
   /** The concrete strength the project requires before stressing (MPa), null when it sets none. */
   requiredConcreteMpa: z.optional(nullableNumber),
   /** Which prediction governs the verdict (projectBasisFromRow names it `governing`). */
-  governing: z.optional(z.enum(["tautline", "shop_drawing"])),
+  governing: z.optional(z.enum(GOVERNING_VALUES)),
 });
 export type FieldProject = z.infer<typeof fieldProjectSchema>;
 
@@ -127,13 +139,13 @@ export const fieldTendonSchema = z.object({
   strandSize: z.string(),
   strandCount: z.number(),
   segments: z.array(z.object({ lengthMm: z.number(), angleRad: z.number() })),
-  ends: z.enum(["A", "B", "both"]),
+  ends: z.enum(STRESSING_ENDS),
   jackGripMm: nullableNumber,
   strandLotId: nullableString,
   /** The approved shop-drawing elongation of the whole tendon, when the schedule gives one. */
   shopElongationMm: z.optional(nullableNumber),
   /** How the schedule says a two-end tendon is stressed (absent in pulls before it existed). */
-  stressingOrder: z.optional(z.nullable(z.enum(["sequential", "simultaneous"]))),
+  stressingOrder,
   /**
    * The schedule's specified jacking force, N; null: the project's factor of fpu·A (absent in pulls
    * before it existed). The tablet's target pressure and judge read it as the server's do.
@@ -208,12 +220,12 @@ export const fieldRecordSchema = z.object({
   calibrationId: nullableString,
   initialPressureMPa: nullableNumber,
   finalPressureMPa: z.number(),
-  readingMethod: z.enum(["marks", "strokes"]),
+  readingMethod: z.enum(READING_METHODS),
   entered: z.unknown(),
   measuredMm: z.number(),
   seatingMm: nullableNumber,
   drawInMm: z.optional(nullableNumber),
-  stressingOrder: z.optional(z.nullable(z.enum(["sequential", "simultaneous"]))),
+  stressingOrder,
   /** The first reading when the elongation was read again finer (absent in pulls before it existed). */
   firstReadingMm: z.optional(nullableNumber),
   rereadDeclinedReason: z.optional(nullableString),
