@@ -225,7 +225,27 @@ export class FieldDb extends Dexie {
     this.version(3).stores({ liftoffChecks: "id, tendonId, pourId", notices: "id, pourId, arrivedAt" });
     // Version 5 adds the detensions; every table of version 3 is kept.
     this.version(5).stores({ detensions: "id, tendonId, pourId" });
+    // Version 6 keeps every table and renames two fields on the rows already stored: the project's
+    // `requiredConcreteMpa` and the pour's `concreteStrengthMpa`, pulled by apps before the one MPa
+    // spelling, become `requiredConcreteMPa` and `concreteStrengthMPa`. The pull sends a project or a
+    // pour again only when it changes, so without this a tablet would keep the old name (and lose the
+    // concrete gate) until then.
+    this.version(6)
+      .stores({})
+      .upgrade(async (tx) => {
+        await tx.table("projects").toCollection().modify(renameField("requiredConcreteMpa", "requiredConcreteMPa"));
+        await tx.table("pours").toCollection().modify(renameField("concreteStrengthMpa", "concreteStrengthMPa"));
+      });
   }
+}
+
+/** A row change that moves a field to its new name; a value already under the new name is kept. */
+function renameField(from: string, to: string) {
+  return (row: Record<string, unknown>) => {
+    if (!(from in row)) return;
+    if (!(to in row)) row[to] = row[from];
+    delete row[from];
+  };
 }
 
 let shared: FieldDb | undefined;

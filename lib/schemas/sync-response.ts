@@ -107,7 +107,7 @@ export const fieldProjectSchema = z.object({
   underForcePct: z.optional(z.number()),
   seatingExcessMm: z.optional(z.number()),
   /** The concrete strength the project requires before stressing (MPa), null when it sets none. */
-  requiredConcreteMpa: z.optional(nullableNumber),
+  requiredConcreteMPa: z.optional(nullableNumber),
   /** Which prediction governs the verdict (projectBasisFromRow names it `governing`). */
   governing: z.optional(z.enum(GOVERNING_VALUES)),
 });
@@ -126,7 +126,7 @@ export const fieldPourSchema = z.object({
   /** The last time the engineer reopened a release, with the reason. */
   reopened: z.nullable(z.object({ by: z.string(), at: z.string(), reason: z.string() })),
   /** The pour's confirmed concrete strength (MPa) from the lab's results, null until confirmed. */
-  concreteStrengthMpa: z.optional(nullableNumber),
+  concreteStrengthMPa: z.optional(nullableNumber),
 });
 export type FieldPour = z.infer<typeof fieldPourSchema>;
 
@@ -350,6 +350,29 @@ export const pullResponseSchema = z.object({
   unavailable: z.array(id),
 });
 export type PullResponse = z.infer<typeof pullResponseSchema>;
+
+/**
+ * The pull and the download as the server sends them: the contract above, plus the two concrete
+ * strengths again under the spelling apps cached before the one MPa spelling read
+ * (`requiredConcreteMpa`, `concreteStrengthMpa`). Such an app parses with its own schema, which
+ * drops keys it does not know: without these it would store projects and pours with no concrete
+ * gate, show none, and keep them so after its update (a pull sends a row again only when it
+ * changes). What it stores under the old names, tablet database version 6 renames. Current apps
+ * never see them: `pullResponseSchema` drops them on parse. Remove once every tablet runs an app
+ * with database version 6.
+ */
+export const pullAnswerSchema = z.extend(pullResponseSchema, {
+  projects: z.array(z.extend(fieldProjectSchema, { requiredConcreteMpa: z.optional(nullableNumber) })),
+  pours: z.array(z.extend(fieldPourSchema, { concreteStrengthMpa: z.optional(nullableNumber) })),
+});
+export type PullAnswer = z.infer<typeof pullAnswerSchema>;
+
+/** A pull as the server sends it: the old spelling of the concrete strengths beside the new (see above). */
+export const pullAnswer = (pull: PullResponse): PullAnswer => ({
+  ...pull,
+  projects: pull.projects.map((p) => ({ ...p, requiredConcreteMpa: p.requiredConcreteMPa })),
+  pours: pull.pours.map((p) => ({ ...p, concreteStrengthMpa: p.concreteStrengthMPa })),
+});
 
 // ---------------------------------------------------------------------------------------------
 // The pours a crew member may take out, for the download list.
