@@ -213,11 +213,11 @@ export function PourLog() {
   const clearToCut = tendons.filter((t) => !cutOf.has(t.id) && clearance.get(t.id)!.clear);
   const timeZone = projectTimeZone(project);
   // The concrete gate in words (null when met or when the project sets no required strength).
-  const concreteGate = concreteGateMet(pour.concreteStrengthMpa ?? null, project.requiredConcreteMpa ?? null)
+  const concreteGate = concreteGateMet(pour.concreteStrengthMPa ?? null, project.requiredConcreteMPa ?? null)
     ? null
-    : pour.concreteStrengthMpa == null
-      ? `no lab results confirm the ${showPressure(units(project), project.requiredConcreteMpa!)} required yet.`
-      : `confirmed ${showPressure(units(project), pour.concreteStrengthMpa)}, below the ${showPressure(units(project), project.requiredConcreteMpa!)} required.`;
+    : pour.concreteStrengthMPa == null
+      ? `no lab results confirm the ${showPressure(units(project), project.requiredConcreteMPa!)} required yet.`
+      : `confirmed ${showPressure(units(project), pour.concreteStrengthMPa)}, below the ${showPressure(units(project), project.requiredConcreteMPa!)} required.`;
   // Held tendons first, so nobody at the slab edge has to scroll to find them.
   const shown = tendons
     .filter((t) => t.tag.toLowerCase().includes(query.trim().toLowerCase()))
@@ -279,9 +279,9 @@ export function PourLog() {
             <span aria-hidden="true">⚠ </span>
             Concrete not confirmed: do not stress.{" "}
             <span className="font-normal text-ink">
-              {pour.concreteStrengthMpa == null
-                ? `No lab results confirm the ${showPressure(units(project), project.requiredConcreteMpa!)} required yet.`
-                : `Confirmed ${showPressure(units(project), pour.concreteStrengthMpa)}, below the ${showPressure(units(project), project.requiredConcreteMpa!)} required.`}{" "}
+              {pour.concreteStrengthMPa == null
+                ? `No lab results confirm the ${showPressure(units(project), project.requiredConcreteMPa!)} required yet.`
+                : `Confirmed ${showPressure(units(project), pour.concreteStrengthMPa)}, below the ${showPressure(units(project), project.requiredConcreteMPa!)} required.`}{" "}
               Ask the inspector before the first pull; to stress anyway, the record form asks who confirmed it or why.
             </span>
           </p>

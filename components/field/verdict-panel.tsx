@@ -1,15 +1,7 @@
 import { Caution } from "@/components/ui/caution";
 import type { LocalVerdict } from "@/lib/offline/db";
 import type { FieldProject, OpEvaluation } from "@/lib/schemas/sync";
-import {
-  showBandPct,
-  showComputedLength,
-  showForce,
-  showLength,
-  showPct,
-  showPressure,
-  type StoredResolution,
-} from "@/lib/format/quantities";
+import { showBandPct, showComputedLength, showForce, showLength, showPct, showPressure } from "@/lib/format/quantities";
 import { heldUntil, type Hold, verdictHolds } from "@/lib/offline/hold-view";
 import { flagLabel } from "@/lib/schemas/flag";
 import { showBandAsRead, showPredictedAsRead } from "@/lib/stressing/display";
@@ -27,7 +19,7 @@ const LOOK = {
 
 export const units = (p: FieldProject) => ({
   unitSystem: p.unitSystem,
-  readingResolution: p.readingResolution as StoredResolution,
+  readingResolution: p.readingResolution,
 });
 
 /** An elongation in band on a tendon something else holds: never green. */

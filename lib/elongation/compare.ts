@@ -1,7 +1,6 @@
 import type { Check } from "./checks";
 import { optionalNonNegative, optionalPositive, requireFinite, requireNonNegative, requirePositive } from "./errors";
-
-export type Verdict = "in band" | "long" | "short";
+import type { Verdict } from "./types";
 
 export interface ComparisonInput {
   measuredMm: number;

@@ -8,7 +8,10 @@ export type { InputErrorCode } from "../units/errors";
 // one-line test that V8 inlines; building the message lives in a separate function that only
 // runs on failure. (Comparisons are false for NaN and non-numbers, so one test covers those.)
 
-function reject(value: unknown, field: string, wanted: "finite" | "positive" | "non-negative" | "integer"): never {
+/** What a guard asks of a number. */
+type NumberRule = "finite" | "positive" | "non-negative" | "integer";
+
+function reject(value: unknown, field: string, wanted: NumberRule): never {
   if (value === undefined || value === null) throw new InputError(field, "required", "a value is required");
   if (typeof value !== "number") throw new InputError(field, "not-a-number", `expected a number, got ${typeof value}`);
   if (!Number.isFinite(value)) throw new InputError(field, "not-finite", `must be a finite number, got ${value}`);

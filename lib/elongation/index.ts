@@ -10,13 +10,16 @@ export const ENGINE_VERSION = "tautline-elongation/1.0.0";
 export { predictElongation } from "./predict";
 export { forceProfile } from "./profile";
 export type { ForceProfile, ForceProfilePoint } from "./profile";
+export { COMPARISON_VERDICTS, STRESSED_ENDS, TENDON_ENDS } from "./types";
 export type {
   ElongationPrediction,
   SeatingResult,
   StressedEndSeating,
   StressedEnds,
+  TendonEnd,
   TendonInput,
   TendonSegment,
+  Verdict,
 } from "./types";
 
 export { influenceLengthMm, mirrorLevelN, seatPolyline } from "./anchor-set";
@@ -29,7 +32,7 @@ export { fitApparentStiffness, totalFromInitial, totalFromSteps } from "./initia
 export type { ApparentStiffness, GaugeStep, StepExtrapolation } from "./initial-stress";
 
 export { bandHalfWidthMm, compareElongation, resolutionEffect } from "./compare";
-export type { Comparison, ComparisonInput, ResolutionEffect, Verdict } from "./compare";
+export type { Comparison, ComparisonInput, ResolutionEffect } from "./compare";
 
 export { CHECK_CODES, checkStressLimits, jackingAboveLimit, stressLimits } from "./checks";
 export type { Check, CheckCode, CheckQuantity, StrandStrength, StressLimitInput, StressLimits } from "./checks";

@@ -2,7 +2,14 @@ import { createSeating, type EndSeating } from "./anchor-set";
 import { createEndWalk, findMeetingPoint, seatingOfWalk, walkEndPath } from "./end-path";
 import { InputError, optionalNonNegative, requireNonNegative, requirePositive, requirePositiveInteger } from "./errors";
 import { checkEnds, checkSegments } from "./tendon-input";
-import type { ElongationPrediction, SeatingResult, StressedEndSeating, TendonInput } from "./types";
+import type {
+  ElongationPrediction,
+  SeatingResult,
+  StressedEnds,
+  StressedEndSeating,
+  TendonEnd,
+  TendonInput,
+} from "./types";
 
 // Reused between calls (see end-path.ts): the walk record and each end's seating figures, which
 // are copied into the result only once both ends are known.
@@ -11,7 +18,7 @@ const seatingA = createSeating();
 const seatingB = createSeating();
 const NO_SEGMENTS: readonly never[] = [];
 
-function copyEnd(end: "A" | "B", seating: EndSeating): StressedEndSeating {
+function copyEnd(end: TendonEnd, seating: EndSeating): StressedEndSeating {
   return {
     end,
     influenceMm: seating.influenceMm,
@@ -23,7 +30,7 @@ function copyEnd(end: "A" | "B", seating: EndSeating): StressedEndSeating {
 }
 
 function seatingResult(
-  end: "A" | "B",
+  end: TendonEnd,
   seating: EndSeating,
   otherEnd: StressedEndSeating | null,
   averageForceAfterN: number,
@@ -40,7 +47,7 @@ function seatingResult(
   };
 }
 
-function combineSeating(ends: "A" | "B" | "both", averageForceAfterN: number): SeatingResult {
+function combineSeating(ends: StressedEnds, averageForceAfterN: number): SeatingResult {
   if (ends === "A") return seatingResult("A", seatingA, null, averageForceAfterN);
   if (ends === "B") return seatingResult("B", seatingB, null, averageForceAfterN);
   // The 0.70·fpu check looks at the highest force left at an anchor, so that end governs.

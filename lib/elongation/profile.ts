@@ -2,7 +2,7 @@ import { mirrorLevelN } from "./anchor-set";
 import { InputError } from "./errors";
 import { segmentBeta } from "./friction";
 import { predictElongation } from "./predict";
-import type { TendonInput } from "./types";
+import type { TendonEnd, TendonInput } from "./types";
 
 export interface ForceProfilePoint {
   /** Distance from end A. */
@@ -33,7 +33,7 @@ export function forceProfile(input: TendonInput, options: { samplesPerSegment?: 
   const { segments, wobblePerM, mu, jackingForceN, ends } = input;
   const { lengthMm, meetingPointMm } = prediction;
   const { seating } = prediction;
-  const seatingAt = (end: "A" | "B") =>
+  const seatingAt = (end: TendonEnd) =>
     seating === null ? undefined : seating.end === end ? seating : (seating.otherEnd ?? undefined);
   const seatingA = seatingAt("A");
   const seatingB = seatingAt("B");

@@ -1,11 +1,9 @@
 import { InputError, requireNonNegative, requirePositive } from "./errors";
 import { segmentBeta } from "./friction";
-import type { StressedEnds, TendonSegment } from "./types";
-
-export const STRESSED_ENDS: readonly StressedEnds[] = ["A", "B", "both"];
+import { STRESSED_ENDS, type StressedEnds, type TendonSegment } from "./types";
 
 export function checkEnds(ends: unknown): StressedEnds {
-  if (ends === "A" || ends === "B" || ends === "both") return ends;
+  if (STRESSED_ENDS.includes(ends as StressedEnds)) return ends as StressedEnds;
   throw new InputError("ends", "not-allowed", `must be one of ${STRESSED_ENDS.join(", ")}, got ${String(ends)}`);
 }
 

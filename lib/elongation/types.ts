@@ -1,6 +1,21 @@
 import type { EndSeating } from "./anchor-set";
 
-export type StressedEnds = "A" | "B" | "both";
+/**
+ * The tendon's own closed sets of words, written once here: the computation imports nothing of the
+ * app, and `lib/schemas/domain.ts` takes these lists for the domain (schemas, database types).
+ */
+
+/** One end of a tendon. */
+export const TENDON_ENDS = ["A", "B"] as const;
+export type TendonEnd = (typeof TENDON_ENDS)[number];
+
+/** The end(s) a tendon is stressed from: one end, or both. */
+export const STRESSED_ENDS = [...TENDON_ENDS, "both"] as const;
+export type StressedEnds = (typeof STRESSED_ENDS)[number];
+
+/** What comparing a measured elongation with its band finds (the domain adds "incomplete"). */
+export const COMPARISON_VERDICTS = ["in band", "long", "short"] as const;
+export type Verdict = (typeof COMPARISON_VERDICTS)[number];
 
 export interface TendonSegment {
   lengthMm: number;
@@ -29,7 +44,7 @@ export interface TendonInput {
 
 /** Seating at one stressed end, tagged with the end. */
 export interface StressedEndSeating extends EndSeating {
-  end: "A" | "B";
+  end: TendonEnd;
 }
 
 /**

@@ -1,4 +1,5 @@
 import Dexie, { type DexieOptions, type Table } from "dexie";
+import type { TendonEnd, Verdict } from "@/lib/schemas/domain";
 import type { RecordPayload } from "@/lib/schemas/record";
 import type { DetensionPayload } from "@/lib/schemas/detension";
 import type { LiftoffPayload } from "@/lib/schemas/liftoff";
@@ -29,11 +30,24 @@ import type {
  * by the server; the outbox's auto-increment seq only orders this tablet's own operations.
  */
 
-export type RecordSyncState = "pending" | "synced" | "conflict" | "rejected";
+/** What the server said of an op it did not take: it lost to another revision, or it was refused. */
+export type RefusedState = "conflict" | "rejected";
+
+/** Where a row made on this tablet stands with the server. */
+export type RecordSyncState = "pending" | "synced" | RefusedState;
+
+/** An outbox entry waits for a push, or was refused by the server and waits for a person. */
+export type OutboxState = "pending" | "attention";
+
+/** Where a photo stands on its way to the server. */
+export type PhotoState = "queued" | "uploading" | "stored" | "failed";
+
+/** The keys of the meta table. */
+export type MetaKey = "device" | "session" | "sync";
 
 /** The tablet's provisional verdict, worked out from lib/stressing at the moment of saving. */
 export interface LocalVerdict {
-  verdict: "in band" | "long" | "short" | "incomplete";
+  verdict: Verdict;
   /** Null when the verdict is incomplete. */
   deviationPct: number | null;
   measuredMm: number | null;
@@ -41,7 +55,7 @@ export interface LocalVerdict {
   lowerMm: number | null;
   upperMm: number | null;
   provisional: boolean;
-  missingEnds: ("A" | "B")[];
+  missingEnds: TendonEnd[];
   /** Which prediction each end was compared with, in words. */
   basisLabel?: string;
   /** Why the verdict is incomplete. */
@@ -50,7 +64,7 @@ export interface LocalVerdict {
   flagKinds?: string[];
   /** Gauge force and the force the elongation implies, per end read. */
   forces?: {
-    end: "A" | "B";
+    end: TendonEnd;
     gaugeForceN: number | null;
     impliedForceN: number | null;
     role: string;
@@ -92,29 +106,29 @@ export interface OutboxEntry {
   payload: RecordPayload | TailCutPayload | LiftoffPayload | DetensionPayload;
   authorUserId: string;
   /** "pending" waits for a push; "attention" was refused by the server and waits for a person. */
-  state: "pending" | "attention";
+  state: OutboxState;
   createdAt: string;
   attempts: number;
   lastError?: string | null;
-  status?: "conflict" | "rejected";
+  status?: RefusedState;
   error?: OpError;
 }
 
 /** Tails cut on a tendon, made here or pulled; keyed by tendon, so the server's cut replaces a local one. */
 export interface LocalTailCut extends FieldTailCut {
-  syncState: "pending" | "synced" | "conflict" | "rejected";
+  syncState: RecordSyncState;
 }
 
 /** A lift-off check made here or pulled; the server's result arrives with its answer or the pull. */
 export interface LocalLiftoffCheck
   extends Omit<FieldLiftoffCheck, keyof FieldLiftoffResult | "pressureMPa">, Partial<FieldLiftoffResult> {
   pressureMPa: number;
-  syncState: "pending" | "synced" | "conflict" | "rejected";
+  syncState: RecordSyncState;
 }
 
 /** A detension recorded here or pulled. */
 export interface LocalDetension extends FieldDetension {
-  syncState: "pending" | "synced" | "conflict" | "rejected";
+  syncState: RecordSyncState;
 }
 
 /** A change a sync brought (lib/offline/decision-notices.ts), kept until the crew acknowledges it. */
@@ -144,7 +158,7 @@ export interface LocalPhoto {
   width: number;
   height: number;
   takenAt: string;
-  state: "queued" | "uploading" | "stored" | "failed";
+  state: PhotoState;
   uploadedBytes: number;
   attachmentId?: string | null;
   lastError?: string | null;
@@ -168,7 +182,7 @@ export interface SyncMeta {
 }
 
 export interface MetaRow {
-  key: "device" | "session" | "sync";
+  key: MetaKey;
   value: unknown;
 }
 
@@ -211,7 +225,27 @@ export class FieldDb extends Dexie {
     this.version(3).stores({ liftoffChecks: "id, tendonId, pourId", notices: "id, pourId, arrivedAt" });
     // Version 5 adds the detensions; every table of version 3 is kept.
     this.version(5).stores({ detensions: "id, tendonId, pourId" });
+    // Version 6 keeps every table and renames two fields on the rows already stored: the project's
+    // `requiredConcreteMpa` and the pour's `concreteStrengthMpa`, pulled by apps before the one MPa
+    // spelling, become `requiredConcreteMPa` and `concreteStrengthMPa`. The pull sends a project or a
+    // pour again only when it changes, so without this a tablet would keep the old name (and lose the
+    // concrete gate) until then.
+    this.version(6)
+      .stores({})
+      .upgrade(async (tx) => {
+        await tx.table("projects").toCollection().modify(renameField("requiredConcreteMpa", "requiredConcreteMPa"));
+        await tx.table("pours").toCollection().modify(renameField("concreteStrengthMpa", "concreteStrengthMPa"));
+      });
   }
+}
+
+/** A row change that moves a field to its new name; a value already under the new name is kept. */
+function renameField(from: string, to: string) {
+  return (row: Record<string, unknown>) => {
+    if (!(from in row)) return;
+    if (!(to in row)) row[to] = row[from];
+    delete row[from];
+  };
 }
 
 let shared: FieldDb | undefined;

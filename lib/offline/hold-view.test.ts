@@ -152,8 +152,8 @@ describe("cutClearanceOf", () => {
     ],
     flags: [flag({ status: "closed" })],
     heldOnTablet: false,
-    project: { requiredConcreteMpa: 20, unitSystem: "si" as const },
-    pour: { concreteStrengthMpa: 25 },
+    project: { requiredConcreteMPa: 20, unitSystem: "si" as const },
+    pour: { concreteStrengthMPa: 25 },
   };
 
   it("is clear when the server has both ends, every flag is closed and the concrete gate is met", () => {
@@ -180,7 +180,7 @@ describe("cutClearanceOf", () => {
   });
 
   it("holds while the concrete strength is below the requirement or the gate was never pulled", () => {
-    expect(cutClearanceOf({ ...clearCase, pour: { concreteStrengthMpa: 15 } }).clear).toBe(false);
+    expect(cutClearanceOf({ ...clearCase, pour: { concreteStrengthMPa: 15 } }).clear).toBe(false);
     expect(cutClearanceOf({ ...clearCase, project: { unitSystem: "si" } }).clear).toBe(false);
   });
 
@@ -188,8 +188,8 @@ describe("cutClearanceOf", () => {
     // 1 psi = 0.006894757 MPa (NIST SP 811): 15 MPa = 2,175.6 psi, 20.684 MPa = 2,999.9 psi.
     const us = cutClearanceOf({
       ...clearCase,
-      project: { requiredConcreteMpa: 20.684, unitSystem: "us" },
-      pour: { concreteStrengthMpa: 15 },
+      project: { requiredConcreteMPa: 20.684, unitSystem: "us" },
+      pour: { concreteStrengthMPa: 15 },
     });
     expect(us.reasons).toEqual(["Confirmed concrete strength 2,176 psi is below the 3,000 psi required."]);
   });

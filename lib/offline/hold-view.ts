@@ -1,3 +1,4 @@
+import type { TendonEnd } from "@/lib/schemas/domain";
 import type { FieldDisposition, FieldFlag, FieldPour, FieldProject, FieldTendon } from "@/lib/schemas/sync";
 import { awaitingRestress, DETENSIONED_WORDS, tailClearance, type Clearance } from "@/lib/stressing/tail-clearance";
 import type { LocalDetension, LocalLiftoffCheck, LocalRecord } from "./db";
@@ -68,7 +69,7 @@ export interface FollowUps {
   liftoffChecks?: Pick<LocalLiftoffCheck, "dispositionId" | "checkedAt" | "withinBand" | "syncState">[];
   detensions?: Pick<LocalDetension, "dispositionId">[];
   /** Ends not stressed again since the last detension (`awaitingRestressOf`). */
-  awaitingRestress?: readonly ("A" | "B")[];
+  awaitingRestress?: readonly TendonEnd[];
 }
 
 /** How far the work an order asks for has come, in words; null while nothing has been done. */
@@ -107,7 +108,7 @@ export function awaitingRestressOf(
   tendon: Pick<FieldTendon, "ends">,
   detensions: Pick<LocalDetension, "detensionedAt">[],
   records: Pick<LocalRecord, "tendonEnd" | "deviceTime">[],
-): ("A" | "B")[] {
+): TendonEnd[] {
   return awaitingRestress({
     ends: tendon.ends,
     detensionedAt: detensions.map((d) => d.detensionedAt),
@@ -127,9 +128,9 @@ export function cutClearanceOf(input: {
   flags: FieldFlag[];
   heldOnTablet: boolean;
   /** Ends not stressed again since the tendon's last detension (`awaitingRestressOf`). */
-  awaitingRestress?: readonly ("A" | "B")[];
-  project: Pick<FieldProject, "requiredConcreteMpa" | "unitSystem">;
-  pour: Pick<FieldPour, "concreteStrengthMpa">;
+  awaitingRestress?: readonly TendonEnd[];
+  project: Pick<FieldProject, "requiredConcreteMPa" | "unitSystem">;
+  pour: Pick<FieldPour, "concreteStrengthMPa">;
 }): Clearance {
   const received = input.records.filter((r) => r.syncState === "synced");
   const open = input.flags.filter(isOpen);
@@ -137,10 +138,8 @@ export function cutClearanceOf(input: {
     ends: input.tendon.ends,
     recordedEnds: [...new Set(received.map((r) => r.tendonEnd))],
     openFlags: open,
-    // The pull spells these two `…Mpa`: tablets keep them so in their stored rows, and a pull sends a
-    // project or pour again only when it changes, so a new spelling there waits for a tablet database upgrade.
-    requiredConcreteMPa: input.project.requiredConcreteMpa ?? null,
-    concreteStrengthMPa: input.pour.concreteStrengthMpa ?? null,
+    requiredConcreteMPa: input.project.requiredConcreteMPa ?? null,
+    concreteStrengthMPa: input.pour.concreteStrengthMPa ?? null,
     unitSystem: input.project.unitSystem,
     awaitingRestress: input.awaitingRestress,
   });
@@ -148,8 +147,8 @@ export function cutClearanceOf(input: {
   if (input.records.some((r) => r.syncState !== "synced"))
     reasons.push("A record of this tendon has not reached the server yet: it judges the record first.");
   if (input.heldOnTablet && !open.length) reasons.push("This tablet's own check puts the tendon out of band.");
-  const required = input.project.requiredConcreteMpa;
-  if (required === undefined || (required !== null && input.pour.concreteStrengthMpa === undefined))
+  const required = input.project.requiredConcreteMPa;
+  if (required === undefined || (required !== null && input.pour.concreteStrengthMPa === undefined))
     reasons.push("The concrete gate is not on this tablet yet: sync with signal.");
   return { clear: reasons.length === 0, reasons };
 }

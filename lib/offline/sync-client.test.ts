@@ -223,7 +223,7 @@ describe("SyncClient: the server's answers are parsed before anything is stored"
           code: "T1",
           name: "Test project",
           unitSystem: "si",
-          readingResolution: "1 mm",
+          readingResolution: "1mm",
           tolerancePct: 7,
           shortTendonFloorMm: null,
           comparisonBasis: "gross",

@@ -15,6 +15,7 @@ import type {
 import { pickCalibration } from "@/lib/schemas/pick-calibration";
 import { storedGaugeOffTarget, storedGaugeSteps } from "@/lib/schemas/record";
 import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
+import type { TendonEnd } from "@/lib/schemas/domain";
 import type { LocalRecord, LocalVerdict } from "./db";
 
 /**
@@ -33,9 +34,9 @@ export const calibrationLine = (c: FieldCalibration): CalibrationLine => ({
 });
 
 /** The newest revision of each record chain of the tendon; per end, the chain stressed last. */
-export function currentEnds(records: LocalRecord[]): Partial<Record<"A" | "B", LocalRecord>> {
+export function currentEnds(records: LocalRecord[]): Partial<Record<TendonEnd, LocalRecord>> {
   const heads = records.filter((r) => !r.supersededBy);
-  const out: Partial<Record<"A" | "B", LocalRecord>> = {};
+  const out: Partial<Record<TendonEnd, LocalRecord>> = {};
   for (const r of heads.sort((a, b) => a.deviceTime.localeCompare(b.deviceTime))) out[r.tendonEnd] = r;
   return out;
 }
@@ -163,7 +164,7 @@ export function judgeInputFor(ctx: TendonContext & { sets?: FieldEquipmentSet[] 
     gaugeOffTarget: storedGaugeOffTarget(r.entered),
   }));
   return {
-    project: { ...ctx.project, readingResolution: ctx.project.readingResolution as "1/8in" | "1/16in" | "1mm" },
+    project: { ...ctx.project, readingResolution: ctx.project.readingResolution },
     tendon: ctx.tendon,
     lot: lotBasis(ctx.lot),
     sets,
@@ -207,7 +208,7 @@ export function provisionalVerdict(
     governsLine: governsLine(
       {
         unitSystem: ctx.project.unitSystem,
-        readingResolution: ctx.project.readingResolution as "1/8in" | "1/16in" | "1mm",
+        readingResolution: ctx.project.readingResolution,
       },
       j,
     ),

@@ -4,8 +4,13 @@
  * types (`db/types.ts`) re-use these types for their columns; the PostgreSQL check constraints of
  * the migrations hold the same words.
  *
- * Nothing here imports anything, so the database types, the tablet and the server may all use it.
+ * The tendon's own words (its ends, the comparison's verdicts) are the elongation engine's, which
+ * imports nothing of the app: they are taken from `lib/elongation/types.ts`, the one place they are
+ * written. Nothing else is imported here, so the database types, the tablet and the server may all
+ * use it.
  */
+
+import { COMPARISON_VERDICTS, STRESSED_ENDS } from "@/lib/elongation/types";
 
 /** A person's role in a project. */
 export const ROLES = ["crew", "inspector", "engineer", "admin"] as const;
@@ -46,13 +51,12 @@ export type ConcreteSpecimen = (typeof CONCRETE_SPECIMENS)[number];
 export const TENDON_KINDS = ["unbonded_monostrand", "bonded_multistrand"] as const;
 export type TendonKind = (typeof TENDON_KINDS)[number];
 
-/** The end(s) a tendon is stressed from. */
-export const STRESSING_ENDS = ["A", "B", "both"] as const;
+/** The end(s) a tendon is stressed from (the engine's `STRESSED_ENDS`). */
+export const STRESSING_ENDS = STRESSED_ENDS;
 export type StressingEnds = (typeof STRESSING_ENDS)[number];
 
-/** One end of a tendon. */
-export const TENDON_ENDS = ["A", "B"] as const;
-export type TendonEnd = (typeof TENDON_ENDS)[number];
+/** One end of a tendon (the engine's own list). */
+export { TENDON_ENDS, type TendonEnd } from "@/lib/elongation/types";
 
 /** How an elongation was read: marks after lock-off or ram strokes. */
 export const READING_METHODS = ["marks", "strokes"] as const;
@@ -62,7 +66,8 @@ export type ReadingMethod = (typeof READING_METHODS)[number];
 export const STRESSING_ORDERS = ["sequential", "simultaneous"] as const;
 export type StressingOrder = (typeof STRESSING_ORDERS)[number];
 
-export const VERDICTS = ["in band", "long", "short", "incomplete"] as const;
+/** The comparison's verdicts, and "incomplete" when a tendon cannot be judged yet. */
+export const VERDICTS = [...COMPARISON_VERDICTS, "incomplete"] as const;
 export type Verdict = (typeof VERDICTS)[number];
 
 /** One kind per flag rule (`lib/stressing/rules/`), held by the `flags.kind` check too. */

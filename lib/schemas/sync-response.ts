@@ -1,6 +1,17 @@
 import { z } from "zod/mini";
 import { ERROR_STATUS, type ErrorCode } from "@/lib/errors";
-import { DECISIONS } from "./domain";
+import {
+  COMPARISON_BASES,
+  DECISIONS,
+  GOVERNING_VALUES,
+  READING_METHODS,
+  STORED_RESOLUTIONS,
+  STRESSING_ENDS,
+  STRESSING_ORDERS,
+  TENDON_ENDS,
+  UNIT_SYSTEMS,
+  VERDICTS,
+} from "./domain";
 
 /**
  * What the server answers the tablet, as zod schemas: the route handlers build their answer
@@ -17,8 +28,9 @@ import { DECISIONS } from "./domain";
 const id = z.string();
 const nullableNumber = z.nullable(z.number());
 const nullableString = z.nullable(z.string());
-const end = z.enum(["A", "B"]);
-const verdict = z.enum(["in band", "long", "short", "incomplete"]);
+const end = z.enum(TENDON_ENDS);
+const verdict = z.enum(VERDICTS);
+const stressingOrder = z.optional(z.nullable(z.enum(STRESSING_ORDERS)));
 const enteredPressure = z.object({ pressure: z.string(), unit: z.enum(["psi", "MPa"]) });
 
 // ---------------------------------------------------------------------------------------------
@@ -79,11 +91,11 @@ export const fieldProjectSchema = z.object({
   id,
   code: z.string(),
   name: z.string(),
-  unitSystem: z.enum(["us", "si"]),
-  readingResolution: z.string(),
+  unitSystem: z.enum(UNIT_SYSTEMS),
+  readingResolution: z.enum(STORED_RESOLUTIONS),
   tolerancePct: z.number(),
   shortTendonFloorMm: nullableNumber,
-  comparisonBasis: z.enum(["gross", "net"]),
+  comparisonBasis: z.enum(COMPARISON_BASES),
   countJackGrip: z.boolean(),
   frictionMu: z.number(),
   wobblePerM: z.number(),
@@ -95,9 +107,9 @@ export const fieldProjectSchema = z.object({
   underForcePct: z.optional(z.number()),
   seatingExcessMm: z.optional(z.number()),
   /** The concrete strength the project requires before stressing (MPa), null when it sets none. */
-  requiredConcreteMpa: z.optional(nullableNumber),
+  requiredConcreteMPa: z.optional(nullableNumber),
   /** Which prediction governs the verdict (projectBasisFromRow names it `governing`). */
-  governing: z.optional(z.enum(["tautline", "shop_drawing"])),
+  governing: z.optional(z.enum(GOVERNING_VALUES)),
 });
 export type FieldProject = z.infer<typeof fieldProjectSchema>;
 
@@ -114,7 +126,7 @@ export const fieldPourSchema = z.object({
   /** The last time the engineer reopened a release, with the reason. */
   reopened: z.nullable(z.object({ by: z.string(), at: z.string(), reason: z.string() })),
   /** The pour's confirmed concrete strength (MPa) from the lab's results, null until confirmed. */
-  concreteStrengthMpa: z.optional(nullableNumber),
+  concreteStrengthMPa: z.optional(nullableNumber),
 });
 export type FieldPour = z.infer<typeof fieldPourSchema>;
 
@@ -127,13 +139,13 @@ export const fieldTendonSchema = z.object({
   strandSize: z.string(),
   strandCount: z.number(),
   segments: z.array(z.object({ lengthMm: z.number(), angleRad: z.number() })),
-  ends: z.enum(["A", "B", "both"]),
+  ends: z.enum(STRESSING_ENDS),
   jackGripMm: nullableNumber,
   strandLotId: nullableString,
   /** The approved shop-drawing elongation of the whole tendon, when the schedule gives one. */
   shopElongationMm: z.optional(nullableNumber),
   /** How the schedule says a two-end tendon is stressed (absent in pulls before it existed). */
-  stressingOrder: z.optional(z.nullable(z.enum(["sequential", "simultaneous"]))),
+  stressingOrder,
   /**
    * The schedule's specified jacking force, N; null: the project's factor of fpu·A (absent in pulls
    * before it existed). The tablet's target pressure and judge read it as the server's do.
@@ -208,12 +220,12 @@ export const fieldRecordSchema = z.object({
   calibrationId: nullableString,
   initialPressureMPa: nullableNumber,
   finalPressureMPa: z.number(),
-  readingMethod: z.enum(["marks", "strokes"]),
+  readingMethod: z.enum(READING_METHODS),
   entered: z.unknown(),
   measuredMm: z.number(),
   seatingMm: nullableNumber,
   drawInMm: z.optional(nullableNumber),
-  stressingOrder: z.optional(z.nullable(z.enum(["sequential", "simultaneous"]))),
+  stressingOrder,
   /** The first reading when the elongation was read again finer (absent in pulls before it existed). */
   firstReadingMm: z.optional(nullableNumber),
   rereadDeclinedReason: z.optional(nullableString),
@@ -338,6 +350,29 @@ export const pullResponseSchema = z.object({
   unavailable: z.array(id),
 });
 export type PullResponse = z.infer<typeof pullResponseSchema>;
+
+/**
+ * The pull and the download as the server sends them: the contract above, plus the two concrete
+ * strengths again under the spelling apps cached before the one MPa spelling read
+ * (`requiredConcreteMpa`, `concreteStrengthMpa`). Such an app parses with its own schema, which
+ * drops keys it does not know: without these it would store projects and pours with no concrete
+ * gate, show none, and keep them so after its update (a pull sends a row again only when it
+ * changes). What it stores under the old names, tablet database version 6 renames. Current apps
+ * never see them: `pullResponseSchema` drops them on parse. Remove once every tablet runs an app
+ * with database version 6.
+ */
+export const pullAnswerSchema = z.extend(pullResponseSchema, {
+  projects: z.array(z.extend(fieldProjectSchema, { requiredConcreteMpa: z.optional(nullableNumber) })),
+  pours: z.array(z.extend(fieldPourSchema, { concreteStrengthMpa: z.optional(nullableNumber) })),
+});
+export type PullAnswer = z.infer<typeof pullAnswerSchema>;
+
+/** A pull as the server sends it: the old spelling of the concrete strengths beside the new (see above). */
+export const pullAnswer = (pull: PullResponse): PullAnswer => ({
+  ...pull,
+  projects: pull.projects.map((p) => ({ ...p, requiredConcreteMpa: p.requiredConcreteMPa })),
+  pours: pull.pours.map((p) => ({ ...p, concreteStrengthMpa: p.concreteStrengthMPa })),
+});
 
 // ---------------------------------------------------------------------------------------------
 // The pours a crew member may take out, for the download list.

@@ -355,7 +355,7 @@ export async function pullChanges(
           jackingForceFactor: p.jacking_force_factor,
           underForcePct: p.under_force_pct,
           seatingExcessMm: p.seating_excess_mm,
-          requiredConcreteMpa: p.required_concrete_mpa,
+          requiredConcreteMPa: p.required_concrete_mpa,
         })),
         pours: pours.map((p) => ({
           id: p.id,
@@ -363,7 +363,7 @@ export async function pullChanges(
           name: p.name,
           level: p.level,
           plannedStressingDate: p.planned_stressing_date,
-          concreteStrengthMpa: p.concrete_strength_mpa,
+          concreteStrengthMPa: p.concrete_strength_mpa,
           status: p.status,
           release:
             p.released_by_name && p.released_at

@@ -14,6 +14,7 @@ import {
   type TendonInput,
   type TendonSegment,
 } from "@/lib/elongation";
+import type { ComparisonBasis, GoverningValue, StressingEnds, TendonEnd } from "@/lib/schemas/domain";
 
 /**
  * The computation basis of one tendon: which values feed the engine and how the measured sum is
@@ -24,7 +25,7 @@ import {
 export interface ProjectBasis {
   tolerancePct: number;
   shortTendonFloorMm: number | null;
-  comparisonBasis: "gross" | "net";
+  comparisonBasis: ComparisonBasis;
   countJackGrip: boolean;
   frictionMu: number;
   wobblePerM: number;
@@ -35,7 +36,7 @@ export interface ProjectBasis {
   underForcePct?: number;
   seatingExcessMm?: number;
   /** Which prediction governs the verdict: Tautline's or the approved shop drawing's. */
-  governing?: "tautline" | "shop_drawing";
+  governing?: GoverningValue;
   /** The band on a group's average deviation, ± %; none when null. */
   groupTolerancePct?: number | null;
   /** Steel a member may lose to unreplaced wire breaks, % of its prestressing steel (default 2). */
@@ -46,7 +47,7 @@ export interface ProjectBasis {
 export interface ProjectBasisColumns {
   tolerance_pct: number;
   short_tendon_floor_mm: number | null;
-  comparison_basis: "gross" | "net";
+  comparison_basis: ComparisonBasis;
   count_jack_grip: boolean;
   friction_mu: number;
   wobble_per_m: number;
@@ -55,7 +56,7 @@ export interface ProjectBasisColumns {
   jacking_force_factor?: number;
   under_force_pct?: number;
   seating_excess_mm?: number;
-  governing_value?: "tautline" | "shop_drawing";
+  governing_value?: GoverningValue;
   group_tolerance_pct?: number | null;
   wire_loss_limit_pct?: number;
 }
@@ -82,7 +83,7 @@ export interface TendonBasis {
   strandSize: string;
   strandCount: number;
   segments: TendonSegment[];
-  ends: "A" | "B" | "both";
+  ends: StressingEnds;
   jackGripMm: number | null;
   /**
    * The schedule's specified jacking force for this tendon, N; null or absent: the project's factor
@@ -109,8 +110,11 @@ export interface StrandValues {
   areaMm2: number;
   modulusMPa: number;
   breakingLoadPerStrandN: number;
-  source: "strand lot" | "nominal";
+  source: StrandValuesSource;
 }
+
+/** Where the strand's values come from: the lot's mill certificate or the nominal table. */
+export type StrandValuesSource = "strand lot" | "nominal";
 
 /** Area, modulus and breaking load: the lot's mill certificate, else ASTM A416 nominal values. */
 export function strandValues(tendon: TendonBasis, lot: LotBasis | null): StrandValues {
@@ -237,7 +241,7 @@ export function targetPressureMPa(calibration: CalibrationLine, jackingForceN: n
 }
 
 export interface EndReading {
-  end: "A" | "B";
+  end: TendonEnd;
   measuredMm: number;
   initialPressureMPa: number | null;
   finalPressureMPa: number;
@@ -258,14 +262,14 @@ export function endTotalMm(reading: EndReading): number {
 
 export interface TendonJudgement {
   /** Ends the schedule stresses that have no reading yet. */
-  missingEnds: ("A" | "B")[];
+  missingEnds: TendonEnd[];
   measuredMm: number;
   comparison: Comparison;
   /** True until every end the schedule stresses has a reading. */
   provisional: boolean;
 }
 
-export function stressedEnds(ends: TendonBasis["ends"]): ("A" | "B")[] {
+export function stressedEnds(ends: TendonBasis["ends"]): TendonEnd[] {
   return ends === "both" ? ["A", "B"] : [ends];
 }
 

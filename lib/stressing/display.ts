@@ -8,13 +8,19 @@ export { showPressure } from "@/lib/format/quantities";
 import { JACKING_LIMIT_FPU_FRACTION } from "@/lib/elongation";
 import { formatLength, formatLengthInward, mmToIn, resolutionStepMm } from "@/lib/units";
 import { readingResolution, showComputedLength, showPct, type DisplayUnits } from "@/lib/format/quantities";
+import type { ComparisonBasis } from "@/lib/schemas/domain";
+import type { JackingForceSource } from "./basis";
+import type { GoverningWords } from "./judge";
+
+/** Which edge of a band. */
+export type BandEdge = "lower" | "upper";
 
 /**
  * A band edge, shown at the precision of computed lengths but never rounded outward: the lower
  * edge is rounded up and the upper edge down, so a reading shown outside the printed band is
  * outside the band itself.
  */
-export function showBandEdge(project: DisplayUnits, mm: number, edge: "lower" | "upper"): string {
+export function showBandEdge(project: DisplayUnits, mm: number, edge: BandEdge): string {
   const round = edge === "lower" ? Math.ceil : Math.floor;
   // Ten-billionths absorb conversion noise, so an edge exactly on a step is not moved a step in.
   const step = (value: number, per: number) => round(value * per - (edge === "lower" ? 1e-9 : -1e-9)) / per;
@@ -30,11 +36,11 @@ export function showBandEdge(project: DisplayUnits, mm: number, edge: "lower" | 
 export function governsLine(
   project: DisplayUnits,
   j: {
-    governs: "tautline" | "shop drawing";
+    governs: GoverningWords;
     governsNote: string | null;
     shopDrawing: {
       mm: number;
-      basis: "net" | "gross";
+      basis: ComparisonBasis;
       tautlineMm: number;
       differenceMm: number;
       differencePct: number;
@@ -107,7 +113,7 @@ export function rereadLine(
  * before the schedule could give one: the project's factor.
  */
 export function specifiedForceSourceWords(
-  source: "schedule" | "project" | null | undefined,
+  source: JackingForceSource | null | undefined,
   factor?: number | null,
 ): string {
   if (source === "schedule") return "from the schedule";

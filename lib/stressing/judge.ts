@@ -12,12 +12,13 @@ import {
   type Verdict,
 } from "@/lib/elongation";
 import { dayInZone } from "@/lib/format/dates";
-import type { ComparisonBasis, GoverningValue, ReadingMethod, StressingOrder } from "@/lib/schemas/domain";
+import type { ComparisonBasis, GoverningValue, ReadingMethod, StressingOrder, TendonEnd } from "@/lib/schemas/domain";
 import { pickCalibration } from "@/lib/schemas/pick-calibration";
 import type { GaugeOffTarget, GaugeStepSI, WireBreak } from "@/lib/schemas/record";
 import { resolutionStepMm } from "@/lib/units";
 import {
   specifiedJackingForce,
+  stressedEnds,
   strandValues,
   type JackingForceSource,
   type LotBasis,
@@ -95,7 +96,7 @@ export interface JudgeRecord {
   id: string;
   chainId: string;
   revision: number;
-  end: "A" | "B";
+  end: TendonEnd;
   deviceTime: string | Date;
   receivedAt?: string | Date | null;
   equipmentSetId: string;
@@ -175,8 +176,17 @@ export interface JudgeInput {
 
 export type EndRole = "one end" | "first end" | "second end" | "simultaneous";
 
+/** Where an end's draw-in per re-grip came from (stored in the evaluation's readings). */
+export type DrawInSource = "record" | "equipment set" | "none";
+
+/** Where the anchor set taken off on the net basis came from: measured on the record, or the plan's. */
+export type SetSource = "measured" | "plan" | "none";
+
+/** The prediction the verdict was judged against, as the evaluation stores it (`GoverningValue` in words). */
+export type GoverningWords = "tautline" | "shop drawing";
+
 export interface EndJudgement {
-  end: "A" | "B";
+  end: TendonEnd;
   record: JudgeRecord;
   method: ReadingMethod;
   basis: ComparisonBasis;
@@ -198,7 +208,7 @@ export interface EndJudgement {
   /** The draw-in per re-grip used (ram travel only): the record's own, else the equipment set's. */
   drawInUsedMm: number | null;
   /** Where it came from: typed on the record, the equipment set's default, or none. */
-  drawInSource: "record" | "equipment set" | "none";
+  drawInSource: DrawInSource;
   /** Draw-in deducted from the strokes: draw-in × (strokes − 1). */
   drawInDeductedMm: number;
   /** The reading brought to the full force on its basis; null when it cannot be (see `incomplete`). */
@@ -208,7 +218,7 @@ export interface EndJudgement {
   gripMm: number;
   /** The anchor set taken off on the net basis (0 on gross). */
   setMm: number;
-  setSource: "measured" | "plan" | "none";
+  setSource: SetSource;
   /** What this end's reading is compared with. */
   predictedMm: number;
   comparison: Comparison | null;
@@ -229,7 +239,7 @@ export interface EndJudgement {
 export interface StressingJudgement {
   ends: EndJudgement[];
   order: StressingOrder;
-  missingEnds: ("A" | "B")[];
+  missingEnds: TendonEnd[];
   provisional: boolean;
   verdict: Verdict | "incomplete";
   /** Why the verdict is incomplete, in words. */
@@ -267,7 +277,7 @@ export interface StressingJudgement {
    */
   shopDrawing: ShopDrawingComparison | null;
   /** The prediction the verdict was judged against. */
-  governs: "tautline" | "shop drawing";
+  governs: GoverningWords;
   /** Why the project's choice could not be followed (shop drawing chosen, none on the schedule). */
   governsNote: string | null;
 }
@@ -320,7 +330,7 @@ export function stressingDay(deviceTime: string | Date, timeZone: string | undef
 }
 
 /** The head revision of each chain; per end, the chains by device time (the current one last). */
-export function chainsByEnd(records: readonly JudgeRecord[]): Record<"A" | "B", JudgeRecord[]> {
+export function chainsByEnd(records: readonly JudgeRecord[]): Record<TendonEnd, JudgeRecord[]> {
   const heads = new Map<string, JudgeRecord>();
   for (const r of records) {
     const seen = heads.get(r.chainId);
@@ -392,7 +402,7 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
     tendon,
   );
   const specifiedForceN = specified.forceN;
-  const wanted: ("A" | "B")[] = tendon.ends === "both" ? ["A", "B"] : [tendon.ends];
+  const wanted = stressedEnds(tendon.ends);
   const current = currentRecords(input.records).filter((r) => wanted.includes(r.end));
   const missingEnds = wanted.filter((e) => !current.some((r) => r.end === e));
 
@@ -433,7 +443,7 @@ export function judgeStressing(input: JudgeInput): StressingJudgement {
           .filter(Boolean)
           .at(-1) ?? "sequential")
       : "sequential";
-  const oneEnd = (end: "A" | "B") => predictElongation(engineInput(input, strand, specifiedForceN, end)).grossMm;
+  const oneEnd = (end: TendonEnd) => predictElongation(engineInput(input, strand, specifiedForceN, end)).grossMm;
   const first = said[0]?.end;
 
   const ends: EndJudgement[] = current.map((record) => {

@@ -2,6 +2,7 @@ import { forceFromPressure } from "@/lib/elongation";
 import { exceeds } from "@/lib/elongation/checks";
 import type { DisplayUnits } from "@/lib/format/quantities";
 import { showForce, showPressure } from "@/lib/format/quantities";
+import type { StressingEnds, TendonEnd } from "@/lib/schemas/domain";
 import { stressedEnds, type CalibrationLine, type TendonPrediction } from "./basis";
 
 /**
@@ -26,9 +27,12 @@ export interface LiftoffJudgement {
   withinBand: boolean;
 }
 
+/** The fields of a lift-off check a problem can name. */
+export type LiftoffField = "tendonEnd" | "pressure" | "equipmentSetId";
+
 /** A lift-off check that cannot be judged, named by its field. */
 export interface LiftoffProblem {
-  field: "tendonEnd" | "pressure" | "equipmentSetId";
+  field: LiftoffField;
   message: string;
 }
 
@@ -39,7 +43,7 @@ export interface LiftoffProblem {
  */
 export function expectedAnchorForceN(
   predicted: Pick<TendonPrediction, "prediction" | "jackingForceN">,
-  end: "A" | "B",
+  end: TendonEnd,
 ): number {
   const seating = predicted.prediction.seating;
   if (!seating) return predicted.jackingForceN;
@@ -49,7 +53,7 @@ export function expectedAnchorForceN(
 }
 
 /** The end must be one the schedule stresses: a dead end has no wedges to lift. */
-export function liftoffEndProblem(ends: "A" | "B" | "both", end: "A" | "B"): LiftoffProblem | null {
+export function liftoffEndProblem(ends: StressingEnds, end: TendonEnd): LiftoffProblem | null {
   if (stressedEnds(ends).includes(end)) return null;
   return {
     field: "tendonEnd",

@@ -1,10 +1,12 @@
+import type { PourStatus } from "@/lib/schemas/domain";
+
 /**
  * A pour's state on the status board, from its counts alone (pure, so the office screens, the
  * shared board and the tests agree): released once released; held while any tendon has an open
  * flag (with how many); planned before any record; stressing until every tendon has every end read;
  * then stressed.
  */
-export type BoardStatus = "planned" | "stressing" | "stressed" | "held" | "released";
+export type BoardStatus = PourStatus | "held";
 
 export interface PourCounts {
   released: boolean;

@@ -10,21 +10,21 @@
  */
 
 import { showStrength } from "@/lib/format/quantities";
-
-export type TendonEnds = "A" | "B" | "both";
+import type { StressingEnds, TendonEnd, UnitSystem } from "@/lib/schemas/domain";
+import { stressedEnds } from "./basis";
 
 export interface ClearanceInput {
-  ends: TendonEnds;
+  ends: StressingEnds;
   /** Ends that have at least one stored record. */
-  recordedEnds: readonly ("A" | "B")[];
+  recordedEnds: readonly TendonEnd[];
   /** Flags on the tendon that are not closed. */
   openFlags: readonly { kind: string }[];
   requiredConcreteMPa: number | null;
   concreteStrengthMPa: number | null;
   /** The project's units for the strengths in the reasons (SI when not given). */
-  unitSystem?: "us" | "si";
+  unitSystem?: UnitSystem;
   /** Ends not stressed again since the tendon's last detension (`awaitingRestress`); empty or absent when none. */
-  awaitingRestress?: readonly ("A" | "B")[];
+  awaitingRestress?: readonly TendonEnd[];
 }
 
 export const DETENSIONED_WORDS = "detensioned: restress required";
@@ -35,13 +35,13 @@ export const DETENSIONED_WORDS = "detensioned: restress required";
  * tendon was never detensioned or has been stressed again at every end.
  */
 export function awaitingRestress(input: {
-  ends: TendonEnds;
+  ends: StressingEnds;
   detensionedAt: readonly string[];
-  records: readonly { tendonEnd: "A" | "B"; stressedAt: string }[];
-}): ("A" | "B")[] {
+  records: readonly { tendonEnd: TendonEnd; stressedAt: string }[];
+}): TendonEnd[] {
   if (!input.detensionedAt.length) return [];
   const last = Math.max(...input.detensionedAt.map((t) => new Date(t).getTime()));
-  return scheduledEnds(input.ends).filter(
+  return stressedEnds(input.ends).filter(
     (end) => !input.records.some((r) => r.tendonEnd === end && new Date(r.stressedAt).getTime() > last),
   );
 }
@@ -52,8 +52,6 @@ export interface Clearance {
   reasons: string[];
 }
 
-export const scheduledEnds = (ends: TendonEnds): ("A" | "B")[] => (ends === "both" ? ["A", "B"] : [ends]);
-
 export function tailClearance(input: ClearanceInput): Clearance {
   const reasons: string[] = [];
   const open = input.openFlags.length;
@@ -61,7 +59,7 @@ export function tailClearance(input: ClearanceInput): Clearance {
   const waiting = input.awaitingRestress ?? [];
   if (waiting.length)
     reasons.push(`Detensioned: restress required (no record since the detension at end ${waiting.join(" and ")}).`);
-  const missing = scheduledEnds(input.ends).filter((e) => !input.recordedEnds.includes(e));
+  const missing = stressedEnds(input.ends).filter((e) => !input.recordedEnds.includes(e));
   if (missing.length) reasons.push(`No record yet for end ${missing.join(" and ")}.`);
   const required = input.requiredConcreteMPa;
   if (required !== null) {

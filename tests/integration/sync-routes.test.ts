@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { SessionUser } from "@/lib/auth/session";
 import type { RecordPayload } from "@/lib/schemas/record";
 import type { PullResponse, PushResponse } from "@/lib/schemas/sync";
+import { pullResponseSchema, type PullAnswer } from "@/lib/schemas/sync-response";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 import { routeState } from "./route-mocks";
 import { buildWorld, createOp, reviseOp, rowsOf, type SyncWorld } from "./sync-fixtures";
@@ -159,6 +160,47 @@ describe("pull and download through the routes", () => {
     expect(res.body.equipmentSets).toHaveLength(2);
     expect(res.body.calibrations).toHaveLength(2);
     expect(res.body.cursor).toMatch(/^\d+$/);
+  });
+
+  it("sends the concrete strengths spelt MPa, and the old spelling beside them for apps cached before it", async () => {
+    const before = await t.db
+      .selectFrom("projects")
+      .innerJoin("pours", "pours.project_id", "projects.id")
+      .select(["projects.required_concrete_mpa", "pours.concrete_strength_mpa"])
+      .where("pours.id", "=", w.pourId)
+      .executeTakeFirstOrThrow();
+    await t.db.updateTable("projects").set({ required_concrete_mpa: 28 }).where("id", "=", w.projectId).execute();
+    await t.db.updateTable("pours").set({ concrete_strength_mpa: 31.5 }).where("id", "=", w.pourId).execute();
+    try {
+      for (const res of [
+        await getJson<PullAnswer>(await get(download, `/api/field/pours/${w.pourId}`, { pourId: w.pourId })),
+        await getJson<PullAnswer>(await get(pull, `/api/sync/pull?cursor=0&pours=${w.pourId}`)),
+      ]) {
+        expect(res.status).toBe(200);
+        const project = res.body.projects.find((p) => p.id === w.projectId);
+        const pour = res.body.pours.find((p) => p.id === w.pourId);
+        expect(project).toMatchObject({ requiredConcreteMPa: 28, requiredConcreteMpa: 28 });
+        expect(pour).toMatchObject({ concreteStrengthMPa: 31.5, concreteStrengthMpa: 31.5 });
+
+        // The tablet parses the answer before storing it and keeps the contract's names only.
+        const kept = pullResponseSchema.parse(res.body);
+        expect(kept.projects.find((p) => p.id === w.projectId)).not.toHaveProperty("requiredConcreteMpa");
+        expect(kept.projects.find((p) => p.id === w.projectId)?.requiredConcreteMPa).toBe(28);
+        expect(kept.pours.find((p) => p.id === w.pourId)).not.toHaveProperty("concreteStrengthMpa");
+        expect(kept.pours.find((p) => p.id === w.pourId)?.concreteStrengthMPa).toBe(31.5);
+      }
+    } finally {
+      await t.db
+        .updateTable("projects")
+        .set({ required_concrete_mpa: before.required_concrete_mpa })
+        .where("id", "=", w.projectId)
+        .execute();
+      await t.db
+        .updateTable("pours")
+        .set({ concrete_strength_mpa: before.concrete_strength_mpa })
+        .where("id", "=", w.pourId)
+        .execute();
+    }
   });
 
   it("does not download another project's pour (404), nor pull it (listed unavailable)", async () => {

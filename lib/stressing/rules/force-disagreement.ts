@@ -1,4 +1,5 @@
 import { showForce, showPct } from "@/lib/format/quantities";
+import type { TendonEnd } from "@/lib/schemas/domain";
 import type { EndJudgement, JudgeProject } from "../judge";
 import type { Rule } from "./types";
 
@@ -11,7 +12,7 @@ import type { Rule } from "./types";
  * short-tendon floor of elongation stands for, since a reading cannot tell the force any closer.
  */
 export interface ForceAgreement {
-  end: "A" | "B";
+  end: TendonEnd;
   gaugeForceN: number;
   impliedForceN: number;
   /** (implied − gauge)/gauge, %. */

@@ -2,7 +2,7 @@ import { db } from "@/db";
 import { authorize } from "@/lib/auth/authorize";
 import { route } from "@/lib/http/route";
 import { fieldPourParamsSchema } from "@/lib/schemas/sync";
-import { pullResponseSchema } from "@/lib/schemas/sync-response";
+import { pullAnswer, pullAnswerSchema } from "@/lib/schemas/sync-response";
 import { projectOfPour } from "@/lib/server/list-field-pours";
 import { pullChanges } from "@/lib/server/pull-changes";
 
@@ -11,7 +11,8 @@ export const GET = route(
   {
     params: fieldPourParamsSchema,
     access: async ({ params }) => authorize("record.create", await projectOfPour(db, params.pourId)),
-    response: pullResponseSchema,
+    response: pullAnswerSchema,
   },
-  async ({ params, access }) => pullChanges(db, { user: access.user, cursor: "0", pourIds: [params.pourId] }),
+  async ({ params, access }) =>
+    pullAnswer(await pullChanges(db, { user: access.user, cursor: "0", pourIds: [params.pourId] })),
 );
