@@ -5,8 +5,9 @@ import { CSV_DAILY_COLUMNS, dailyCsvRows } from "./daily-rows";
 import type { SignatureState } from "./signature-lines";
 
 /**
- * The day's inspection report as CSV: one row per stressing recorded that day (the stressing
- * report's columns, with the pour and the reading method), then the flags, dispositions,
+ * The day's inspection report as CSV: one row per stressing, lift-off check and detension recorded
+ * that day (section "stressing": the stressing report's rows and columns, with the pour and the
+ * reading method), then the flags, dispositions,
  * equipment, concrete results, tail cuts, the inspector's remarks and the signature of this content
  * (or that it is not signed), each a row with its words.
  */

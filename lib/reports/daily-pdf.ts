@@ -120,12 +120,12 @@ export async function renderDailyPdf(report: DailyReport, signature?: SignatureB
   heading("Tails cut");
   lines(dailyTailCutLines(report), "No tendon had its tails cut this day.");
 
-  // Every stressing of the day, straight after; its header drawn again on every page it runs onto.
+  // Every stressing, lift-off check and detension of the day, straight after; its header drawn again on every page it runs onto.
   pdf.table(
-    "Stressing records of the day, pour by pour, every stressing of every end in order",
+    "Stressing records, lift-off checks and detensions of the day, pour by pour, every end in order",
     PDF_COLUMNS,
     dailyRecordRows(report).map((row) => groupedCells(PDF_COLUMNS, DAILY_RECORD_COLUMNS, row)),
-    "No stressing was recorded this day.",
+    "No stressing, lift-off check or detension was recorded this day.",
   );
   doc.moveDown(0.8);
   caution();

@@ -5,15 +5,16 @@ import { type DailyAttestation, type WitnessEntry, WITNESS_WORDS } from "@/lib/s
 import { DECISION_LABELS } from "@/lib/schemas/review";
 import type { DailyPour, DailyReport, WitnessGroup } from "@/lib/server/get-daily-report";
 import type { PourRecord } from "@/lib/server/list-pour-records";
-import { RECORD_COLUMNS, recordRows } from "./pour-rows";
+import { RECORD_COLUMNS, recordRowsWithSources } from "./pour-rows";
 import { concreteResultText } from "./concrete-lines";
-import type { ReportSnapshot } from "./report-changes";
+import { addEntry, detensionEntry, liftoffEntry, type ReportSnapshot } from "./report-changes";
 import { signatureLines, type SignatureState } from "./signature-lines";
 
 /**
  * The daily special-inspection report's content as display strings in the project's units, once:
  * the PDF draws them and the CSV writes them. The stressing rows are the pour report's own rows
- * (lib/reports/pour-rows.ts) for the day's records, with the pour and the reading method added.
+ * (lib/reports/pour-rows.ts) for the day's stressings, lift-off checks and detensions, with the
+ * pour and the reading method added.
  * Pure.
  */
 
@@ -36,35 +37,41 @@ export const dailyTime = (report: Pick<DailyReport, "timeZone">, d: Date) => for
 
 const status = (s: string) => (s === "with_engineer" ? "with the engineer" : s);
 
-/** A pour's records of the day in the pour report's order (tendon by tendon, each end in order). */
-function pourDayRecords(p: DailyPour): PourRecord[] {
-  const tendons = p.report.tendons.filter((t) => p.records.some((r) => r.tendonId === t.tendonId));
-  return tendons.flatMap((t) => p.records.filter((r) => r.tendonId === t.tendonId));
+/** A row of the day's records table: its cells, and the stressing it stands for (null for a lift-off check or a detension). */
+export interface DailyRecordLine {
+  cells: string[];
+  record: PourRecord | null;
 }
 
-/** One row per stressing recorded that day, pour by pour, in the pour report's order. */
-function pourDayRows(p: DailyPour): string[][] {
-  const ordered = pourDayRecords(p);
-  const tendons = p.report.tendons.filter((t) => ordered.some((r) => r.tendonId === t.tendonId));
-  // The pour report's rows for just this day's records and flags (one row per record: the method is added by index).
-  const rows = recordRows({
+/**
+ * A pour's rows of the day: the pour report's own rows (`recordRowsWithSources`) for the tendons
+ * worked that day, with just the day's stressings, lift-off checks, detensions and flags, tendon by
+ * tendon in the report's order; the pour and the reading method are added in front.
+ */
+function pourDayLines(p: DailyPour): DailyRecordLine[] {
+  const worked = new Set([...p.records, ...p.liftoffChecks, ...p.detensions].map((e) => e.tendonId));
+  const rows = recordRowsWithSources({
     ...p.report,
-    tendons,
-    records: ordered,
-    detensions: [],
-    liftoffChecks: [],
+    tendons: p.report.tendons.filter((t) => worked.has(t.tendonId)),
+    records: p.records,
+    detensions: p.detensions,
+    liftoffChecks: p.liftoffChecks,
     flags: p.flagsRaised,
   });
-  return rows.map((row, i) => [p.report.pour.name, METHOD_WORDS[ordered[i]!.method], ...row]);
+  return rows.map(({ cells, source }) => {
+    const record = source.kind === "stressing" ? source.record : null;
+    return { cells: [p.report.pour.name, record ? METHOD_WORDS[record.method] : "", ...cells], record };
+  });
 }
 
+/** Every row of the day's records table, pour by pour, each with its stressing (the screen draws a verdict from it). */
+export function dailyRecordLines(report: DailyReport): DailyRecordLine[] {
+  return report.pours.flatMap(pourDayLines);
+}
+
+/** One row per stressing, lift-off check and detension of the day, pour by pour, in the pour report's order. */
 export function dailyRecordRows(report: DailyReport): string[][] {
-  return report.pours.flatMap(pourDayRows);
-}
-
-/** The records behind dailyRecordRows, row for row (the screen draws each verdict from its record). */
-export function dailyRecordsInOrder(report: DailyReport): PourRecord[] {
-  return report.pours.flatMap(pourDayRecords);
+  return dailyRecordLines(report).map((line) => line.cells);
 }
 
 export function dailySummary(report: DailyReport): string {
@@ -73,14 +80,20 @@ export function dailySummary(report: DailyReport): string {
   const count = (v: string) => records.filter((r) => verdictOf(r) === v).length;
   const flags = report.pours.reduce((n, p) => n + p.flagsRaised.length, 0);
   const dispositions = report.pours.reduce((n, p) => n + p.dispositions.length, 0);
+  const liftoffs = report.pours.flatMap((p) => p.liftoffChecks);
+  const detensions = report.pours.reduce((n, p) => n + p.detensions.length, 0);
   const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;
-  if (!records.length && !flags && !dispositions && !report.concrete.length && !report.tailCuts.length)
+  if (!report.pours.length && !report.concrete.length && !report.tailCuts.length)
     return `Nothing was recorded in Tautline on ${report.day}.`;
+  const within = liftoffs.filter((l) => l.withinBand).length;
   return (
     `${plural(records.length, "stressing record")} on ${plural(report.pours.filter((p) => p.records.length).length, "pour")} ` +
     `(${count("in band")} in band, ${count("long")} long, ${count("short")} short, ` +
     `${records.length - count("in band") - count("long") - count("short")} incomplete or not evaluated); ` +
     `${records.filter((r) => r.stressing > 1).length} of them restresses. ` +
+    `${plural(liftoffs.length, "lift-off check")}` +
+    (liftoffs.length ? ` (${within} within the band, ${liftoffs.length - within} outside)` : "") +
+    `, ${plural(detensions, "detension")}. ` +
     `${plural(flags, "flag")} raised, ${plural(dispositions, "disposition")} recorded, ` +
     `${plural(report.concrete.length, "concrete result")} entered, ${plural(report.tailCuts.length, "tendon")} with tails cut.`
   );
@@ -113,29 +126,46 @@ export function dailyDispositionLines(report: DailyReport): string[] {
   );
 }
 
-/** The equipment sets the day's records used, each with the calibrations those records stood on. */
+/**
+ * The equipment sets the day's stressings, lift-off checks and detensions used, each with the
+ * calibrations those stood on (a lift-off check names its calibration's dates; a detension none).
+ */
 export function dailyEquipmentLines(report: DailyReport): [string, string][] {
-  const sets = new Map<string, { serials: string; calibrations: Set<string> }>();
+  const sets = new Map<string, { serials: string; calibrations: Map<string, string> }>();
+  const setOf = (e: PourRecord["equipment"]) => {
+    const set = sets.get(e.name) ?? {
+      serials: `Jack ${e.jackSerial}, gauge ${e.gaugeSerial}, pump ${e.pumpSerial ?? "not recorded"}.`,
+      calibrations: new Map<string, string>(),
+    };
+    sets.set(e.name, set);
+    return set.calibrations;
+  };
+  const dated = (c: { calibratedOn: string; validUntil: string; laboratory: string | null }) =>
+    `Calibrated ${c.calibratedOn}, valid until ${c.validUntil}${c.laboratory ? `, ${c.laboratory}` : ""}`;
   for (const p of report.pours)
     for (const r of p.records) {
-      const e = r.equipment;
-      const set = sets.get(e.name) ?? {
-        serials: `Jack ${e.jackSerial}, gauge ${e.gaugeSerial}, pump ${e.pumpSerial ?? "not recorded"}.`,
-        calibrations: new Set<string>(),
-      };
       const c = r.calibration;
-      set.calibrations.add(
+      // Keyed by the calibration's dates, so a lift-off check on the same calibration adds no line.
+      setOf(r.equipment).set(
+        c ? dated(c) : "none",
         c
-          ? `Calibrated ${c.calibratedOn}, valid until ${c.validUntil}${c.laboratory ? `, ${c.laboratory}` : ""}; ` +
+          ? `${dated(c)}; ` +
               `${c.certificate ? `certificate ${c.certificate}` : "no certificate uploaded"}` +
               `${c.inForce ? `; in force on ${report.day}` : `; NOT IN FORCE on ${report.day}`}`
           : "No calibration on file for that day.",
       );
-      sets.set(e.name, set);
     }
+  for (const p of report.pours) {
+    for (const l of p.liftoffChecks) {
+      const calibrations = setOf(l.equipment);
+      const key = dated(l.calibration);
+      if (!calibrations.has(key)) calibrations.set(key, `${key} (used for a lift-off check).`);
+    }
+    for (const d of p.detensions) setOf(d.equipment);
+  }
   return [...sets.entries()]
     .sort(([a], [b]) => a.localeCompare(b))
-    .map(([name, s]) => [name, `${s.serials} ${[...s.calibrations].join(" ")}`]);
+    .map(([name, s]) => [name, [s.serials, ...s.calibrations.values()].join(" ")]);
 }
 
 export function dailyConcreteLines(report: DailyReport): string[] {
@@ -284,6 +314,8 @@ export function dailySnapshot(report: DailyReport): ReportSnapshot {
       snapshot[`record ${name} ${r.tag} end ${r.end} stressing ${r.stressing}`] =
         `revision ${r.revision}, ${showLength(p, r.measuredMm)} at ${showPressure(p, r.finalPressureMPa)}` +
         (r.evaluation ? `, ${r.evaluation.verdict}` : "");
+    for (const l of pour.liftoffChecks) addEntry(snapshot, liftoffEntry(pour.report, l, name));
+    for (const d of pour.detensions) addEntry(snapshot, detensionEntry(pour.report, d, name));
     for (const f of pour.flagsRaised) snapshot[`flag ${f.reference} (${name} ${f.tendonTag})`] = status(f.status);
     for (const { flag, disposition } of pour.dispositions)
       snapshot[`disposition ${disposition.reference} (${name} ${flag.tendonTag})`] = disposition.decision.replace(
@@ -301,7 +333,7 @@ export function dailySnapshot(report: DailyReport): ReportSnapshot {
 export const CSV_DAILY_COLUMNS = ["Project", "Day", "Section", ...DAILY_RECORD_COLUMNS, "Details"] as const;
 
 /**
- * The CSV's rows: one per stressing (section "stressing"), then one per flag, disposition, equipment
+ * The CSV's rows: one per stressing, lift-off check and detension (section "stressing"), then one per flag, disposition, equipment
  * set, concrete result and tail cut with its words in Details, then what the inspector states was
  * witnessed of each group (section "witness"), the statement of conformance, the remarks and the
  * signature (section "signature": who signed this content and when, or that it is not signed).

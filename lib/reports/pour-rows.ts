@@ -17,7 +17,7 @@ import { MPA_PER_PSI } from "@/lib/units";
 import { JACKING_LIMIT_FPU_FRACTION } from "@/lib/elongation";
 import { DECISION_LABELS } from "@/lib/schemas/review";
 import { wireBreakWords } from "@/lib/schemas/record";
-import type { PourReport, ReportLiftoff } from "@/lib/server/get-pour-report";
+import type { PourReport, ReportDetension, ReportLiftoff } from "@/lib/server/get-pour-report";
 import { concreteResultText } from "./concrete-lines";
 import type { PourRecord } from "@/lib/server/list-pour-records";
 import type { TendonResult } from "@/lib/server/list-tendon-results";
@@ -139,8 +139,24 @@ function releaseText(
   return shown && shown.replaceAll(",", "") !== typed.replaceAll(",", "") ? `${typed} (${shown})` : typed;
 }
 
+/** What a row of the records table stands for. */
+export type RecordRowSource =
+  | { kind: "stressing"; record: PourRecord }
+  | { kind: "detension"; detension: ReportDetension }
+  | { kind: "liftoff"; liftoff: ReportLiftoff }
+  | { kind: "not stressed"; tendon: TendonResult };
+
 /** One row per stressing of each end in order; a tendon not yet stressed has one row saying so. */
 export function recordRows(report: PourReport): string[][] {
+  return recordRowsWithSources(report).map((row) => row.cells);
+}
+
+/**
+ * The rows of `recordRows`, each with what it stands for (a stressing, a detension, a lift-off
+ * check, or a tendon with nothing recorded), for a reader that adds columns of its own or draws a
+ * row from its record.
+ */
+export function recordRowsWithSources(report: PourReport): { cells: string[]; source: RecordRowSource }[] {
   const p = report.project;
   const flagsOf = (tag: string) =>
     report.flags
@@ -150,19 +166,9 @@ export function recordRows(report: PourReport): string[][] {
           `flag ${f.reference} ${flagLabel(f.kind)}: ${f.status === "with_engineer" ? "with the engineer" : f.status}`,
       )
       .join("; ");
-  const rows: Record<RecordColumn, string>[] = [];
+  const rows: { row: Record<RecordColumn, string>; source: RecordRowSource }[] = [];
   for (const t of report.tendons) {
     const records = report.records.filter((r) => r.tendonId === t.tendonId);
-    if (!records.length) {
-      rows.push({
-        ...Object.fromEntries(RECORD_COLUMNS.map((c) => [c, ""])),
-        Tendon: t.tag,
-        Verdict: "Not stressed",
-        "Predicted (Tautline)": "",
-        Flags: flagsOf(t.tag),
-      } as Record<RecordColumn, string>);
-      continue;
-    }
     // The tendon's detensions stand in its sequence, before the first stressing made after them.
     const detensions = (report.detensions ?? []).filter((d) => d.tendonId === t.tendonId);
     const detensionRow = (d: (typeof detensions)[number]): Record<RecordColumn, string> => ({
@@ -203,21 +209,41 @@ export function recordRows(report: PourReport): string[][] {
       Remarks: l.raisedFlagReference ? `raised flag ${l.raisedFlagReference}` : "",
       Flags: flagsOf(t.tag),
     });
-    const between: { at: Date; row: () => Record<RecordColumn, string> }[] = [
-      ...detensions.map((d) => ({ at: d.at, row: () => detensionRow(d) })),
+    const between: { at: Date; row: () => Record<RecordColumn, string>; source: RecordRowSource }[] = [
+      ...detensions.map((d) => ({
+        at: d.at,
+        row: () => detensionRow(d),
+        source: { kind: "detension" as const, detension: d },
+      })),
       ...(report.liftoffChecks ?? [])
         .filter((l) => l.tendonId === t.tendonId)
-        .map((l) => ({ at: l.at, row: () => liftoffRow(l) })),
+        .map((l) => ({ at: l.at, row: () => liftoffRow(l), source: { kind: "liftoff" as const, liftoff: l } })),
     ].sort((a, b) => a.at.getTime() - b.at.getTime());
+    if (!records.length && !between.length) {
+      rows.push({
+        row: {
+          ...Object.fromEntries(RECORD_COLUMNS.map((c) => [c, ""])),
+          Tendon: t.tag,
+          Verdict: "Not stressed",
+          "Predicted (Tautline)": "",
+          Flags: flagsOf(t.tag),
+        } as Record<RecordColumn, string>,
+        source: { kind: "not stressed", tendon: t },
+      });
+      continue;
+    }
     let shown = 0;
+    const next = () => {
+      const item = between[shown++]!;
+      rows.push({ row: item.row(), source: item.source });
+    };
     for (const r of records) {
-      while (shown < between.length && between[shown]!.at.getTime() < r.deviceTime.getTime())
-        rows.push(between[shown++]!.row());
+      while (shown < between.length && between[shown]!.at.getTime() < r.deviceTime.getTime()) next();
       const e = r.evaluation;
       const verdict = e
         ? VERDICT_WORDS[e.verdict] + (e.provisional ? " (provisional)" : "") + (e.current ? "" : " (superseded)")
         : "Not evaluated";
-      rows.push({
+      const row: Record<RecordColumn, string> = {
         Tendon: t.tag,
         End: r.end,
         Stressing: stressingLabel(r),
@@ -254,11 +280,12 @@ export function recordRows(report: PourReport): string[][] {
           .join("; "),
         Photos: r.photos.map((n) => `photo ${n}`).join(", "),
         Flags: flagsOf(t.tag),
-      });
+      };
+      rows.push({ row, source: { kind: "stressing", record: r } });
     }
-    while (shown < between.length) rows.push(between[shown++]!.row());
+    while (shown < between.length) next();
   }
-  return rows.map((row) => RECORD_COLUMNS.map((c) => row[c]));
+  return rows.map(({ row, source }) => ({ cells: RECORD_COLUMNS.map((c) => row[c]), source }));
 }
 
 export function concreteLine(report: PourReport): string {

@@ -1,6 +1,6 @@
 import "server-only";
 import type { Kysely } from "kysely";
-import { sql } from "kysely";
+import { sql, type RawBuilder } from "kysely";
 import type { Database } from "@/db/types";
 import { ENGINE_VERSION } from "@/lib/elongation";
 import { AppError } from "@/lib/errors";
@@ -16,13 +16,13 @@ import {
   type ReportFlag,
 } from "./get-pour-report";
 import { selectConcreteResults } from "./list-concrete-results";
-import type { PourRecord } from "./list-pour-records";
 
 /**
  * What the special inspector observed on a project on one calendar day of the project's time zone,
- * in SI as stored: every stressing recorded that day by pour (from the pour's own report, so the
- * stressing numbers, calibrations, predictions and verdicts are the stressing report's), the flags
- * raised and the dispositions recorded that day, the concrete results entered and the tails cut.
+ * in SI as stored: per pour, the day's events of each kind of `DAY_EVENTS` (the stressings, the
+ * flags raised, the dispositions recorded, the lift-off checks and the detensions made that day,
+ * each from the pour's own report, so the numbers, calibrations, predictions, verdicts and
+ * references are the stressing report's); the concrete results entered and the tails cut.
  * The remarks, the statement of conformance and what was witnessed are the inspector's: the ones
  * being signed when the caller gives them, else those of the day's last signed revision. The groups
  * a witness statement is asked for are the day's: per pour, the schedule's members of the tendons
@@ -50,13 +50,113 @@ export interface OpenException {
   status: ReportFlag["status"];
 }
 
-export interface DailyPour {
+type Table = keyof Database & string;
+type Column<T extends Table> = `${T}.${keyof Database[T] & string}`;
+
+/**
+ * A kind of event that puts a pour on the day's report: where the server keeps it (the table, the
+ * column naming its pour, through a joined table when its rows name none, and the column of its
+ * moment), and where the pour's own report holds it (`pick`, the day's events in the report's
+ * order) with the moments each shows (for the report's `asOf`).
+ */
+interface DayEventKind<T extends Table, J extends Table, Item> {
+  table: T;
+  through?: { table: J; on: [NoInfer<Column<J>>, NoInfer<Column<T>>] };
+  pour: NoInfer<Column<T> | Column<J>>;
+  time: NoInfer<Column<T>>;
+  pick: (report: PourReport, inDay: (instant: Date) => boolean) => Item[];
+  moments: (item: Item) => Date[];
+}
+const eventKind = <T extends Table, Item, J extends Table = T>(kind: DayEventKind<T, J, Item>) => kind;
+
+/**
+ * The day's events per pour, once: the SQL that finds the pours something happened on that day
+ * and the filter that picks each pour's events of the day from its report are both drawn from
+ * this list, so a new kind of event is added here and nowhere else.
+ */
+const DAY_EVENTS = {
+  /** The stressings recorded this day (by the tablet's time), in the pour report's order. */
+  records: eventKind({
+    table: "records",
+    pour: "records.pour_id",
+    time: "records.device_time",
+    pick: (report, inDay) => report.records.filter((r) => inDay(r.deviceTime)),
+    moments: (r) => [r.deviceTime, ...(r.evaluation ? [r.evaluation.at] : [])],
+  }),
+  /** The flags raised this day. */
+  flagsRaised: eventKind({
+    table: "flags",
+    pour: "flags.pour_id",
+    time: "flags.created_at",
+    pick: (report, inDay) => report.flags.filter((f) => inDay(f.raisedAt)),
+    moments: (f) => [f.raisedAt, ...(f.closedAt ? [f.closedAt] : [])],
+  }),
+  /** The engineer's dispositions recorded this day, each with its flag. */
+  dispositions: eventKind({
+    table: "dispositions",
+    through: { table: "flags", on: ["flags.id", "dispositions.flag_id"] },
+    pour: "flags.pour_id",
+    time: "dispositions.created_at",
+    pick: (report, inDay) =>
+      report.flags.flatMap((flag) =>
+        flag.dispositions.filter((d) => inDay(d.at)).map((disposition) => ({ flag, disposition })),
+      ),
+    moments: (d) => [d.disposition.at],
+  }),
+  /** The lift-off checks made this day, as the pour report lists them. */
+  liftoffChecks: eventKind({
+    table: "liftoff_checks",
+    pour: "liftoff_checks.pour_id",
+    time: "liftoff_checks.checked_at",
+    pick: (report, inDay) => report.liftoffChecks.filter((l) => inDay(l.at)),
+    moments: (l) => [l.at],
+  }),
+  /** The detensions made this day, as the pour report lists them. */
+  detensions: eventKind({
+    table: "detensions",
+    pour: "detensions.pour_id",
+    time: "detensions.detensioned_at",
+    pick: (report, inDay) => report.detensions.filter((d) => inDay(d.at)),
+    moments: (d) => [d.at],
+  }),
+};
+type DayEventKinds = typeof DAY_EVENTS;
+type EventKey = keyof DayEventKinds;
+const EVENT_KEYS = Object.keys(DAY_EVENTS) as EventKey[];
+
+/** A pour's events of one day, kind by kind (the keys of the list above). */
+export type DayEvents = { [K in EventKey]: ReturnType<DayEventKinds[K]["pick"]> };
+
+export type DailyPour = DayEvents & {
   /** The pour's whole stressing report: its references, basis and equipment. */
   report: PourReport;
-  /** The stressings recorded this day, in the pour report's order. */
-  records: PourRecord[];
-  flagsRaised: ReportFlag[];
-  dispositions: { flag: ReportFlag; disposition: ReportFlag["dispositions"][number] }[];
+};
+
+/** Whether something of a kind happened on the pour (`pours.id`) between the instants, in SQL. */
+function happenedWithin(
+  kind: DayEventKinds[EventKey],
+  projectId: string,
+  { start, end }: { start: Date; end: Date },
+): RawBuilder<boolean> {
+  const joined = kind.through
+    ? sql` join ${sql.table(kind.through.table)} on ${sql.ref(kind.through.on[0])} = ${sql.ref(kind.through.on[1])}`
+    : sql``;
+  const time = sql.ref(kind.time);
+  return sql<boolean>`exists (select 1 from ${sql.table(kind.table)}${joined} where ${sql.ref(kind.pour)} = ${sql.ref("pours.id")} and ${sql.ref(`${kind.table}.project_id`)} = ${projectId} and ${time} >= ${start} and ${time} < ${end})`;
+}
+
+/** A pour's events of the day, picked from its report kind by kind. */
+export function dayEventsOf(report: PourReport, inDay: (instant: Date) => boolean): DayEvents {
+  return Object.fromEntries(EVENT_KEYS.map((key) => [key, DAY_EVENTS[key].pick(report, inDay)])) as DayEvents;
+}
+
+const anyEvent = (events: DayEvents) => EVENT_KEYS.some((key) => events[key].length > 0);
+
+/** Every moment the events show, kind by kind. */
+function eventMoments(events: DayEvents): Date[] {
+  return EVENT_KEYS.flatMap((key) =>
+    (events[key] as unknown[]).flatMap(DAY_EVENTS[key].moments as (item: unknown) => Date[]),
+  );
 }
 
 export interface DailyReport {
@@ -90,40 +190,12 @@ export async function getDailyReport(
     sql<boolean>`${sql.ref(column)} >= ${start} and ${sql.ref(column)} < ${end}`;
 
   const [active, concrete, tailCuts, lastSigned] = await Promise.all([
-    // The pours something happened on that day.
+    // The pours something happened on that day, of any kind of the day's events.
     db
       .selectFrom("pours")
       .select(["pours.id", "pours.name"])
       .where("pours.project_id", "=", input.projectId)
-      .where((eb) =>
-        eb.or([
-          eb.exists(
-            eb
-              .selectFrom("records")
-              .select(sql`1`.as("x"))
-              .whereRef("records.pour_id", "=", "pours.id")
-              .where("records.project_id", "=", input.projectId)
-              .where(within("records.device_time")),
-          ),
-          eb.exists(
-            eb
-              .selectFrom("flags")
-              .select(sql`1`.as("x"))
-              .whereRef("flags.pour_id", "=", "pours.id")
-              .where("flags.project_id", "=", input.projectId)
-              .where(within("flags.created_at")),
-          ),
-          eb.exists(
-            eb
-              .selectFrom("dispositions")
-              .innerJoin("flags", "flags.id", "dispositions.flag_id")
-              .select(sql`1`.as("x"))
-              .whereRef("flags.pour_id", "=", "pours.id")
-              .where("dispositions.project_id", "=", input.projectId)
-              .where(within("dispositions.created_at")),
-          ),
-        ]),
-      )
+      .where((eb) => eb.or(EVENT_KEYS.map((key) => happenedWithin(DAY_EVENTS[key], input.projectId, { start, end }))))
       .orderBy("pours.name")
       .execute(),
     selectConcreteResults(db, input.projectId)
@@ -164,16 +236,7 @@ export async function getDailyReport(
     active.map((p) => getPourReport(db, { projectId: input.projectId, pourId: p.id }, { project })),
   );
   const inDay = (d: Date) => onReportDay(d, input.day, timeZone);
-  const pours: DailyPour[] = reports
-    .map((report) => ({
-      report,
-      records: report.records.filter((r) => inDay(r.deviceTime)),
-      flagsRaised: report.flags.filter((f) => inDay(f.raisedAt)),
-      dispositions: report.flags.flatMap((flag) =>
-        flag.dispositions.filter((d) => inDay(d.at)).map((disposition) => ({ flag, disposition })),
-      ),
-    }))
-    .filter((p) => p.records.length || p.flagsRaised.length || p.dispositions.length);
+  const pours: DailyPour[] = reports.map((report) => ({ report, ...dayEventsOf(report, inDay) })).filter(anyEvent);
 
   // The members of the day's tendons, for the witness groups.
   const dayTendonIds = [...new Set(pours.flatMap((p) => p.records.map((r) => r.tendonId)))];
@@ -222,11 +285,7 @@ export async function getDailyReport(
   });
 
   const moments = [
-    ...pours.flatMap((p) => [
-      ...p.records.flatMap((r) => [r.deviceTime, ...(r.evaluation ? [r.evaluation.at] : [])]),
-      ...p.flagsRaised.flatMap((f) => [f.raisedAt, ...(f.closedAt ? [f.closedAt] : [])]),
-      ...p.dispositions.map((d) => d.disposition.at),
-    ]),
+    ...pours.flatMap(eventMoments),
     ...concrete.map((c) => new Date(c.entered_at)),
     ...tailCuts.map((t) => new Date(t.cut_at)),
   ];

@@ -1,8 +1,13 @@
 import { expect, test } from "@playwright/test";
 import Papa from "papaparse";
-import { PEOPLE, queryDemo, signInWithPassword } from "./people";
+import { randomUUID } from "node:crypto";
+import { uuidv7 } from "uuidv7";
+import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
+import { makePourFixture, pushEndA, typedReading } from "./pour-fixture";
 import { screenshot } from "./support";
 
+// The spec stresses a pour of its own today and has a lift-off check made on it through the API
+// (the engineer's order, the crew's push), so the day lists one.
 // The inspector opens the day of the demo project's latest stressing, reads the summary, writes
 // remarks and signs, then downloads the signed PDF, the PDF as it stands and the CSV. Then the
 // remarks change and the day is signed again as revision 2. Writes two signed revisions of that day,
@@ -10,7 +15,54 @@ import { screenshot } from "./support";
 // last week's day), so this passes alone and in any order; the day's counts are read here.
 
 test("the inspector signs a day's special-inspection report and downloads its PDF and CSV", async ({ page }) => {
-  test.setTimeout(120_000);
+  test.setTimeout(180_000);
+  // A pour of this spec's own, stressed today and read short: the engineer orders a lift-off check
+  // and the crew's tablet sends it, so today's report has a lift-off check to list.
+  const stamp = Date.now().toString(36);
+  const fx = await makePourFixture(`Daily lift-off ${stamp}`, [`DL-${stamp}`]);
+  const crewApi = await apiAs(PEOPLE.crew);
+  expect((await pushEndA(crewApi, fx, fx.tendons[0]!.id, 0.85)).result).toMatchObject({ status: "applied" });
+  const [flag] = await queryDemo<{ id: string }>("select id from flags where tendon_id = $1 and kind = 'out_of_band'", [
+    fx.tendons[0]!.id,
+  ]);
+  const ordered = await (
+    await apiAs(PEOPLE.engineer)
+  ).post(`/api/projects/${fx.projectId}/flags/${flag!.id}/dispositions`, {
+    data: {
+      decision: "liftoff_check",
+      reasons: "Short: check the force at the live end by lift-off and report the gauge pressure.",
+      licenceStatement: "Licensed professional engineer (test)",
+    },
+  });
+  expect(ordered.status()).toBe(201);
+  const { dispositionId } = (await ordered.json()) as { dispositionId: string };
+  const pushed = await crewApi.post("/api/sync/push", {
+    data: {
+      deviceId: "daily-report-tablet",
+      ops: [
+        {
+          opId: randomUUID(),
+          kind: "liftoff_check",
+          recordId: uuidv7(),
+          payload: {
+            projectId: fx.projectId,
+            pourId: fx.pourId,
+            tendonId: fx.tendons[0]!.id,
+            dispositionId,
+            tendonEnd: "A",
+            equipmentSetId: fx.setId,
+            // The gauge pressure of the stressing itself: within the calibrated range.
+            pressure: typedReading(fx, 1).psi,
+            pressureUnit: "psi",
+            checkedAt: new Date().toISOString(),
+            authorUserId: fx.crewId,
+          },
+        },
+      ],
+    },
+  });
+  expect(((await pushed.json()) as { results: { status: string }[] }).results[0]).toMatchObject({ status: "applied" });
+
   const [row] = await queryDemo<{ projectId: string; day: string; tags: string }>(
     `select p.id as "projectId",
             to_char(r.device_time at time zone p.time_zone, 'YYYY-MM-DD') as day,
@@ -22,6 +74,18 @@ test("the inspector signs a day's special-inspection report and downloads its PD
       limit 1`,
   );
   const { projectId, day } = row!;
+  // The lift-off checks and detensions made that day (other specs may make some today): the CSV
+  // lists them among the stressing rows, in the stressing report's words.
+  const [events] = await queryDemo<{ liftoffs: string; detensions: string }>(
+    `select (select count(*) from liftoff_checks l
+              where l.project_id = p.id
+                and to_char(l.checked_at at time zone p.time_zone, 'YYYY-MM-DD') = $2)::text as liftoffs,
+            (select count(*) from detensions d
+              where d.project_id = p.id
+                and to_char(d.detensioned_at at time zone p.time_zone, 'YYYY-MM-DD') = $2)::text as detensions
+       from projects p where p.id = $1`,
+    [projectId, day],
+  );
   await page.setViewportSize({ width: 1440, height: 900 });
   await signInWithPassword(page, PEOPLE.inspector);
   await page.waitForURL(/\/home/);
@@ -44,6 +108,16 @@ test("the inspector signs a day's special-inspection report and downloads its PD
   });
   await expect(page.getByTestId("daily-summary")).toContainText(`${row!.tags} stressing record`);
   await expect(page.getByRole("table")).toContainText("marks on the strand");
+  // This spec's lift-off check, in the stressing report's words, in its pour's rows.
+  const liftoffRow = page
+    .getByRole("row")
+    .filter({ hasText: `DL-${stamp}` })
+    .filter({ hasText: "Lift-off check" });
+  await expect(liftoffRow).toContainText(/Lift-off check \(ordered by disposition D-\d{4}\)/);
+  await expect(liftoffRow).toContainText(/Lift-off (within|outside) the ±\d+ % band/);
+  await expect(page.getByTestId("daily-summary")).toContainText(/\d+ lift-off checks? \(/);
+  await liftoffRow.scrollIntoViewIfNeeded();
+  await screenshot(page, "daily-report-liftoff");
   await expect(page.getByRole("note", { name: "Caution" })).toContainText("engineer of record");
   await expect(page.getByTestId("daily-signature-state")).toHaveText(`The report of ${day} is not signed yet.`);
 
@@ -96,7 +170,14 @@ test("the inspector signs a day's special-inspection report and downloads its PD
   expect(csv.status()).toBe(200);
   const table = Papa.parse<Record<string, string>>(await csv.text(), { header: true, skipEmptyLines: true });
   expect(table.errors).toEqual([]);
-  expect(table.data.filter((r) => r.Section === "stressing")).toHaveLength(Number(row!.tags));
+  const stressing = table.data.filter((r) => r.Section === "stressing");
+  expect(stressing).toHaveLength(Number(row!.tags) + Number(events!.liftoffs) + Number(events!.detensions));
+  expect(stressing.filter((r) => r.Stressing?.startsWith("Lift-off check (ordered by disposition D-"))).toHaveLength(
+    Number(events!.liftoffs),
+  );
+  expect(stressing.filter((r) => r.Stressing?.startsWith("Detension (ordered by disposition D-"))).toHaveLength(
+    Number(events!.detensions),
+  );
   expect(table.data.find((r) => r.Section === "remarks")?.Details).toBe(
     "Witnessed the stressing from the east slab edge; barricades up.",
   );

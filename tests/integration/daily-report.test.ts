@@ -12,6 +12,12 @@ import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getDailyReport } from "@/lib/server/get-daily-report";
 import { listDailyRevisions } from "@/lib/server/list-daily-revisions";
 import { readSignedDailyReport } from "@/lib/server/read-signed-daily-report";
+import { recordDetension } from "@/lib/server/record-detension";
+import { recordDisposition } from "@/lib/server/record-disposition";
+import { recordLiftoffCheck } from "@/lib/server/record-liftoff-check";
+import { getPourReport } from "@/lib/server/get-pour-report";
+import { RECORD_COLUMNS, recordRows } from "@/lib/reports/pour-rows";
+import { dailySnapshot } from "@/lib/reports/daily-rows";
 import { signDailyReport } from "@/lib/server/sign-daily-report";
 import { verifyReportFile } from "@/lib/server/verify-report-file";
 import { seedDemo } from "@/scripts/seed/demo";
@@ -21,6 +27,10 @@ import { demoFixture, insertRecord } from "../support/records";
 // A pour of our own on the demo project, whose zone is set to America/Chicago. Day under test:
 // 2026-11-18 (CST, UTC−6). S-01 is stressed at 09:10 CST; S-02 at 19:30 CST, which is already
 // 2026-11-19 in UTC; S-03 the next morning. A concrete result is entered that afternoon.
+// A second pour, "Check pour", is stressed on 2026-11-16 (C-01, C-02, both flagged); on the
+// engineer's orders C-01 gets a lift-off check on 2026-11-17 at 21:00 CST (already 2026-11-18 in
+// UTC) and another on the day at 10:00 CST, and C-02 is detensioned on the day at 23:30 CST
+// (2026-11-19 in UTC): on the day that pour has a lift-off check and a detension and no stressing.
 // All readings are invented demo values.
 
 const DAY = "2026-11-18";
@@ -31,13 +41,44 @@ let fx: Awaited<ReturnType<typeof demoFixture>>;
 let pourId: string;
 let tendons: Record<string, { id: string; pour_id: string }>;
 let inspector: { id: string };
+let checkPourId: string;
+let checkTendons: Record<string, { id: string; pour_id: string }>;
+/** The references of the dispositions that ordered C-01's lift-off check and C-02's detension. */
+const ordered = { liftoff: "", detension: "", liftoffId: "" };
+const crewSender = () => ({ id: fx.crewId, memberships: [{ projectId: fx.projectId, role: "crew" as const }] });
+
+/** A lift-off check on C-01 at that instant, through the server's own operation; 3,900 psi read at lift-off. */
+async function liftoff(checkedAt: string) {
+  const result = await recordLiftoffCheck(
+    t.db,
+    { user: crewSender(), deviceId: "test-device" },
+    {
+      opId: uuidv7(),
+      kind: "liftoff_check",
+      recordId: uuidv7(),
+      payload: {
+        projectId: fx.projectId,
+        pourId: checkPourId,
+        tendonId: checkTendons["C-01"]!.id,
+        dispositionId: ordered.liftoffId,
+        tendonEnd: "A",
+        equipmentSetId: fx.setA,
+        pressure: "3900",
+        pressureUnit: "psi",
+        checkedAt,
+        authorUserId: fx.crewId,
+      },
+    },
+  );
+  expect(result.status).toBe("applied");
+}
 
 const pdfTextOf = pdfText;
 
-async function stress(tag: string, deviceTime: string, measuredMm: number) {
+async function stress(tag: string, deviceTime: string, measuredMm: number, on = tendons) {
   await insertRecord(t.db, {
     projectId: fx.projectId,
-    tendon: tendons[tag]!,
+    tendon: on[tag]!,
     end: "A",
     equipmentSetId: fx.setA,
     authorId: fx.crewId,
@@ -45,7 +86,7 @@ async function stress(tag: string, deviceTime: string, measuredMm: number) {
     finalPressureMPa: 4200 * PSI,
     deviceTime,
   });
-  await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendons[tag]!.id, reason: "sync" });
+  await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: on[tag]!.id, reason: "sync" });
 }
 
 beforeAll(async () => {
@@ -67,20 +108,24 @@ beforeAll(async () => {
     .orderBy("tag")
     .limit(1)
     .executeTakeFirstOrThrow();
-  pourId = (
-    await t.db
-      .insertInto("pours")
-      .values({ project_id: fx.projectId, name: "Daily pour", concrete_strength_mpa: 4000 * PSI })
-      .returning("id")
-      .executeTakeFirstOrThrow()
-  ).id;
-  tendons = {};
-  for (const tag of ["S-01", "S-02", "S-03"]) {
-    const row = await t.db
+  const addPour = async (name: string, tags: string[]) => {
+    const id = (
+      await t.db
+        .insertInto("pours")
+        .values({ project_id: fx.projectId, name, concrete_strength_mpa: 4000 * PSI })
+        .returning("id")
+        .executeTakeFirstOrThrow()
+    ).id;
+    const rows: Record<string, { id: string; pour_id: string }> = {};
+    for (const tag of tags) rows[tag] = await addTendon(id, tag);
+    return { id, rows };
+  };
+  const addTendon = (pour: string, tag: string) =>
+    t.db
       .insertInto("tendons")
       .values({
         project_id: fx.projectId,
-        pour_id: pourId,
+        pour_id: pour,
         tag,
         kind: template.kind,
         strand_size: template.strand_size,
@@ -93,8 +138,8 @@ beforeAll(async () => {
       })
       .returning(["id", "pour_id"])
       .executeTakeFirstOrThrow();
-    tendons[tag] = row;
-  }
+  ({ id: pourId, rows: tendons } = await addPour("Daily pour", ["S-01", "S-02", "S-03"]));
+  ({ id: checkPourId, rows: checkTendons } = await addPour("Check pour", ["C-01", "C-02"]));
   await stress("S-01", "2026-11-18T15:10:00Z", 150);
   await stress("S-02", "2026-11-19T01:30:00Z", 152);
   await stress("S-03", "2026-11-19T14:00:00Z", 151);
@@ -125,6 +170,74 @@ beforeAll(async () => {
       held_reasons: ["an open flag on the tendon"],
     })
     .execute();
+
+  // The Check pour: stressed on 2026-11-16, both tendons flagged; the engineer orders a lift-off
+  // check on C-01 and a detension and restress on C-02.
+  await stress("C-01", "2026-11-16T16:00:00Z", 150, checkTendons);
+  await stress("C-02", "2026-11-16T16:30:00Z", 150, checkTendons);
+  const engineer = await t.db
+    .selectFrom("users")
+    .select(["id", "name"])
+    .where("email", "=", "engineer@demo.tautline.test")
+    .executeTakeFirstOrThrow();
+  for (const [tag, decision] of [
+    ["C-01", "liftoff_check"],
+    ["C-02", "detension_restress"],
+  ] as const) {
+    const flag = await t.db
+      .selectFrom("flags")
+      .select("id")
+      .where("tendon_id", "=", checkTendons[tag]!.id)
+      .where("status", "!=", "closed")
+      .orderBy("created_at")
+      .executeTakeFirstOrThrow();
+    const { dispositionId } = await recordDisposition(t.db, {
+      projectId: fx.projectId,
+      flagId: flag.id,
+      engineer,
+      disposition: {
+        decision,
+        reasons: "Check the force in the tendon before deciding (invented).",
+        licenceStatement: "Licensed professional engineer (test)",
+      },
+    });
+    const { number } = await t.db
+      .selectFrom("dispositions")
+      .select("number")
+      .where("id", "=", dispositionId)
+      .executeTakeFirstOrThrow();
+    const ref = `D-${String(number).padStart(4, "0")}`;
+    if (decision === "liftoff_check") Object.assign(ordered, { liftoff: ref, liftoffId: dispositionId });
+    else ordered.detension = ref;
+    if (decision === "detension_restress") {
+      const result = await recordDetension(
+        t.db,
+        { user: crewSender(), deviceId: "test-device" },
+        {
+          opId: uuidv7(),
+          kind: "detension",
+          recordId: uuidv7(),
+          payload: {
+            projectId: fx.projectId,
+            pourId: checkPourId,
+            tendonId: checkTendons["C-02"]!.id,
+            dispositionId,
+            detensionedAt: "2026-11-19T05:30:00Z", // 23:30 CST on the day
+            operatorName: "Luis Ferreira",
+            equipmentSetId: fx.setA,
+            pressure: "600",
+            pressureUnit: "psi",
+            strandsDetensioned: 1,
+            remarks: "Released from the live end.",
+            authorUserId: fx.crewId,
+          },
+        },
+      );
+      expect(result.status).toBe("applied");
+    }
+  }
+  await liftoff("2026-11-18T03:00:00Z"); // 21:00 CST on 2026-11-17
+  await liftoff("2026-11-18T16:00:00Z"); // 10:00 CST on the day
 }, 120_000);
 afterAll(async () => {
   await t?.drop();
@@ -185,6 +298,96 @@ describe("the day's special-inspection report", () => {
       "Signature: Not signed: no revision of this report has been signed.",
     ]);
     expect(text).toContain("Statement of conformance Not stated yet");
+  }, 60_000);
+
+  it("lists the day's lift-off checks and detensions per pour in the stressing report's words, and no other day's", async () => {
+    const report = await getDailyReport(t.db, { projectId: fx.projectId, day: DAY });
+    // The Check pour is on the day for its lift-off check and detension alone.
+    const check = report.pours.find((p) => p.report.pour.name === "Check pour");
+    expect(check?.records).toEqual([]);
+    expect(check?.liftoffChecks.map((l) => l.at.toISOString())).toEqual(["2026-11-18T16:00:00.000Z"]);
+    expect(check?.detensions.map((d) => d.at.toISOString())).toEqual(["2026-11-19T05:30:00.000Z"]);
+    expect(report.pours.find((p) => p.report.pour.name === "Daily pour")?.liftoffChecks).toEqual([]);
+
+    // The CSV rows are the pour's stressing report's rows for those two, column for column (the
+    // Flags column names the flags raised that day only, none here).
+    const csv = Papa.parse<Record<string, string>>(renderDailyCsv(report, { last: null, current: false }), {
+      header: true,
+      skipEmptyLines: true,
+    });
+    expect(csv.errors).toEqual([]);
+    const rows = csv.data.filter((r) => r.Section === "stressing" && r.Pour === "Check pour");
+    expect(rows.map((r) => [r.Tendon, r.End, r.Stressing, r.Stressed, r.Method])).toEqual([
+      ["C-01", "A", `Lift-off check (ordered by disposition ${ordered.liftoff})`, "2026-11-18 10:00 CST", ""],
+      ["C-02", "", `Detension (ordered by disposition ${ordered.detension})`, "2026-11-18 23:30 CST", ""],
+    ]);
+    const pourRows = recordRows(await getPourReport(t.db, { projectId: fx.projectId, pourId: checkPourId }));
+    for (const row of rows) {
+      const same = pourRows.find((r) => r[RECORD_COLUMNS.indexOf("Stressed")] === row.Stressed)!;
+      for (const column of RECORD_COLUMNS.filter((c) => c !== "Flags"))
+        expect(row[column]).toBe(same[RECORD_COLUMNS.indexOf(column)]);
+    }
+    expect(rows[0]).toMatchObject({ "Final pressure": "3900 psi at lift-off", Operator: "Luis Ferreira" });
+    expect(rows[0]!.Verdict).toMatch(/^Lift-off (within|outside) the ±\d+ % band$/);
+    expect(rows[1]).toMatchObject({
+      "Final pressure": "at release: 600 psi",
+      "Readings as entered": "1 strand detensioned",
+      Verdict: "Detensioned: restress required",
+    });
+
+    // The PDF prints them in the same words; the lift-off of the evening before (already the day in UTC) is left out.
+    const pdf = await renderDailyPdf(report);
+    writeFileSync("test-results/reports/daily-report-liftoff-detension.pdf", pdf);
+    // A narrow column may break a word after its hyphen: the words are read back whole.
+    const text = (await pdfTextOf(pdf)).replace(/(\w)- (\w)/g, "$1-$2");
+    expect(text).toContain(`Lift-off check (ordered by disposition ${ordered.liftoff})`);
+    expect(text).toContain(`Detension (ordered by disposition ${ordered.detension})`);
+    expect(text).toContain("3900 psi at lift-off");
+    expect(text).toContain("1 lift-off check (");
+    expect(text).toContain("1 detension.");
+    expect(text).toContain("2026-11-18 23:30 CST");
+    expect(text).not.toContain("2026-11-17 21:00 CST");
+    // The signed content names them, so a change of either is a new revision that says so.
+    expect(Object.keys(dailySnapshot(report))).toEqual(
+      expect.arrayContaining([
+        "lift-off Check pour C-01 end A 2026-11-18 10:00 CST",
+        "detension Check pour C-02 2026-11-18 23:30 CST",
+      ]),
+    );
+
+    // The evening before: only that lift-off check, and the report's content is as of it.
+    const before = await getDailyReport(t.db, { projectId: fx.projectId, day: "2026-11-17" });
+    expect(
+      before.pours.map((p) => [p.report.pour.name, p.records.length, p.liftoffChecks.length, p.detensions.length]),
+    ).toEqual([["Check pour", 0, 1, 0]]);
+    expect(before.asOf.toISOString()).toBe("2026-11-18T03:00:00.000Z");
+    const beforeCsv = Papa.parse<Record<string, string>>(renderDailyCsv(before, { last: null, current: false }), {
+      header: true,
+      skipEmptyLines: true,
+    }).data;
+    const beforeRows = beforeCsv.filter((r) => r.Section === "stressing");
+    // The set used for the lift-off check is listed with the calibration the check stood on.
+    expect(beforeCsv.filter((r) => r.Section === "equipment").map((r) => r.Details)).toEqual([
+      expect.stringMatching(
+        /: Jack .*\. Calibrated \d{4}-\d\d-\d\d, valid until \d{4}-\d\d-\d\d.* \(used for a lift-off check\)\.$/,
+      ),
+    ]);
+    expect(beforeRows.map((r) => [r.Pour, r.Tendon, r.Stressing, r.Stressed])).toEqual([
+      ["Check pour", "C-01", `Lift-off check (ordered by disposition ${ordered.liftoff})`, "2026-11-17 21:00 CST"],
+    ]);
+    // The day after (the detension's UTC day): nothing of the Check pour.
+    const after = await getDailyReport(t.db, { projectId: fx.projectId, day: "2026-11-19" });
+    expect(after.pours.map((p) => p.report.pour.name)).not.toContain("Check pour");
+    expect(after.pours.flatMap((p) => [...p.liftoffChecks, ...p.detensions])).toEqual([]);
+    // The day the pour was stressed: its stressings, without the later lift-off checks and detension.
+    const stressed = await getDailyReport(t.db, { projectId: fx.projectId, day: "2026-11-16" });
+    const stressedText = await pdfTextOf(await renderDailyPdf(stressed));
+    expect(stressed.pours.find((p) => p.report.pour.name === "Check pour")?.records.map((r) => r.tag)).toEqual([
+      "C-01",
+      "C-02",
+    ]);
+    expect(stressedText).toContain("0 lift-off checks, 0 detensions.");
+    expect(stressedText).not.toMatch(/Lift-? ?off check \(ordered|Detension \(ordered/);
   }, 60_000);
 
   it("refuses an attestation that does not fit the day, naming the field, and signs nothing", async () => {
@@ -339,5 +542,42 @@ describe("the day's special-inspection report", () => {
     const signed3 = await readSignedDailyReport(t.db, { projectId: fx.projectId, day: DAY, revision: 3 });
     writeFileSync("test-results/reports/daily-report-signed-rev3.pdf", signed3.body);
     expect(await pdfTextOf(signed3.body)).toContain("Witnessed in full by Dana Okafor.");
+  }, 60_000);
+
+  it("a lift-off check made later on a signed day is a change: the signed revision no longer matches", async () => {
+    const standing = await listDailyRevisions(t.db, { projectId: fx.projectId, day: DAY });
+    expect(standing.current.signed).toBe(true);
+    const last = standing.revisions[0]!.revision;
+    // The signed file holds the day's lift-off check and detension.
+    const signed = (
+      await pdfTextOf((await readSignedDailyReport(t.db, { projectId: fx.projectId, day: DAY, revision: last })).body)
+    ).replace(/(\w)- (\w)/g, "$1-$2");
+    expect(signed).toContain(`Lift-off check (ordered by disposition ${ordered.liftoff})`);
+    expect(signed).toContain(`Detension (ordered by disposition ${ordered.detension})`);
+
+    await liftoff("2026-11-18T22:00:00Z"); // 16:00 CST on the day
+    const pending = await listDailyRevisions(t.db, { projectId: fx.projectId, day: DAY });
+    expect(pending.current.signed).toBe(false);
+    expect(pending.current.changesSinceSigned).toEqual([
+      expect.stringMatching(
+        /^lift-off Check pour C-01 end A 2026-11-18 16:00 CST: added \(.* at 3900 psi, .*the band\)$/,
+      ),
+    ]);
+    expect(pending.report.asOf.getTime()).toBeGreaterThanOrEqual(new Date("2026-11-18T22:00:00Z").getTime());
+    const signature = Papa.parse<Record<string, string>>(
+      (await getDailyCsv(t.db, { projectId: fx.projectId, day: DAY })).csv,
+      { header: true, skipEmptyLines: true },
+    ).data.filter((r) => r.Section === "signature");
+    expect(signature.map((r) => r.Details)).toEqual([
+      expect.stringMatching(
+        new RegExp(
+          `^Signature: Not signed: the content changed after revision ${last} was signed .*no longer matches this content`,
+        ),
+      ),
+    ]);
+    // A lift-off check on the next day in the project's zone changes nothing of this day.
+    await liftoff("2026-11-19T06:30:00Z"); // 00:30 CST on 2026-11-19
+    const again = await listDailyRevisions(t.db, { projectId: fx.projectId, day: DAY });
+    expect(again.current.contentSha256).toBe(pending.current.contentSha256);
   }, 60_000);
 });

@@ -13,8 +13,7 @@ import {
   dailyDispositionLines,
   dailyEquipmentLines,
   dailyFlagLines,
-  dailyRecordRows,
-  dailyRecordsInOrder,
+  dailyRecordLines,
   dailySummary,
   dailyTailCutLines,
   dailyWitnessLines,
@@ -93,7 +92,7 @@ export default async function DailyReportPage({
   const view = day ? await listDailyRevisions(db, { projectId, day }) : null;
   const api = day ? `/api/projects/${projectId}/daily-reports/${day}` : "";
   const columnIndex = (c: DailyRecordColumn) => DAILY_RECORD_COLUMNS.indexOf(c);
-  const records = view ? dailyRecordsInOrder(view.report) : [];
+  const lines = view ? dailyRecordLines(view.report) : [];
 
   return (
     <main className="space-y-8">
@@ -157,9 +156,9 @@ export default async function DailyReportPage({
 
           <section aria-labelledby="daily-records-heading" className="space-y-2">
             <h2 id="daily-records-heading" className="text-lead font-bold">
-              Stressing records of the day
+              Stressing records, lift-off checks and detensions of the day
             </h2>
-            {view.report.pours.some((p) => p.records.length) ? (
+            {lines.length ? (
               <div className="overflow-x-auto">
                 <table className="w-full border-collapse text-left tabular-nums">
                   <thead>
@@ -178,8 +177,8 @@ export default async function DailyReportPage({
                     </tr>
                   </thead>
                   <tbody>
-                    {dailyRecordRows(view.report).map((row, i) => {
-                      const evaluation = records[i]?.evaluation;
+                    {lines.map(({ cells: row, record }) => {
+                      const evaluation = record?.evaluation;
                       return (
                         <tr key={row.join("|")} className="border-b border-concrete-300">
                           {SCREEN_COLUMNS.map((c) => (
@@ -209,7 +208,7 @@ export default async function DailyReportPage({
                 </table>
               </div>
             ) : (
-              <p className="text-ink-soft">No stressing was recorded this day.</p>
+              <p className="text-ink-soft">No stressing, lift-off check or detension was recorded this day.</p>
             )}
           </section>
 
