@@ -1,6 +1,14 @@
 import "server-only";
 import { randomUUID } from "node:crypto";
-import { sql, type Compilable, type Insertable, type Kysely, type QueryCreator, type RawBuilder } from "kysely";
+import {
+  expressionBuilder,
+  sql,
+  type Compilable,
+  type Insertable,
+  type Kysely,
+  type QueryCreator,
+  type RawBuilder,
+} from "kysely";
 import { jsonArrayFrom } from "kysely/helpers/postgres";
 import type { Database, EvaluationsTable, FlagsTable, NotificationsTable } from "@/db/types";
 import type { Decision, FlagKind, ReadingMethod, StressingOrder, TendonEnd, Verdict } from "@/lib/schemas/domain";
@@ -122,7 +130,7 @@ export interface TendonState {
   version: number;
   /** The other tendons of the tendon's member, or of its pour when it names none (read when the project sets a group band). */
   group?: { id: string; tag: string; deviation_pct: number | null; last_stressed_at: string | Date | null }[];
-  /** The member's strands by size and lot area (this tendon's included), for the wire-break ledger. */
+  /** The member's strands by size and lot area (this tendon's included), for the wire-break ledger; empty when no record of the tendon reports a broken wire. */
   memberSteel?: { strand_size: string; lot_area_mm2: number | null; strands: number | string }[];
   /** Wires broken and not replaced on the member's other tendons, per tendon end. */
   memberBreaks?: { tag: string; strand_size: string; lot_area_mm2: number | null; tendon_end: string; wires: number }[];
@@ -132,12 +140,29 @@ export interface TendonState {
  * One query for the whole state of a tendon: its basis, records, open flags, the equipment sets
  * its records name (and `alsoSetId`, for a record about to be stored) with their calibrations,
  * its dispositions and its version.
+ *
+ * The member's wire-break ledger sums every tendon of the member (a whole pour when the schedule
+ * names no member), so it is read only when it can matter: when a record of the tendon reports a
+ * broken wire, stored or about to be (`addingWireBreaks`, that record's count). The ledger's rule
+ * raises nothing for a tendon with no broken wire of its own, whatever the ledger says.
  */
 export function selectTendonState(
   qc: QueryCreator<Database>,
-  input: { projectId: string; tendonId: string; alsoSetId?: string },
+  input: { projectId: string; tendonId: string; alsoSetId?: string; addingWireBreaks?: string },
 ) {
   const { projectId, tendonId } = input;
+  const w = expressionBuilder<Database, never>();
+  const ledgerWanted = w.or([
+    w.exists(
+      w
+        .selectFrom("records as lb")
+        .select("lb.id")
+        .where("lb.project_id", "=", projectId)
+        .where("lb.tendon_id", "=", tendonId)
+        .where("lb.wire_breaks", ">", 0),
+    ),
+    ...(input.addingWireBreaks === undefined ? [] : [sql<boolean>`${input.addingWireBreaks}::int > 0`]),
+  ]);
   return selectTendonBasis(qc, input).select((eb) => [
     jsonArrayFrom(
       eb
@@ -253,6 +278,7 @@ export function selectTendonState(
         .where("m.project_id", "=", projectId)
         .whereRef("m.pour_id", "=", "tendons.pour_id")
         .where(sql<boolean>`m.member is not distinct from tendons.member`)
+        .where(ledgerWanted)
         .groupBy(["m.strand_size", "ml.area_mm2"]),
     ).as("memberSteel"),
     // ... and the wires broken on its other tendons: per end, the most any current record reports.
@@ -275,6 +301,7 @@ export function selectTendonState(
         .where("wr.wire_breaks", ">", 0)
         .where("wr.tendon_id", "!=", tendonId)
         .where(sql<boolean>`wt.member is not distinct from tendons.member`)
+        .where(ledgerWanted)
         .where(({ not, exists, selectFrom }) =>
           not(
             exists(

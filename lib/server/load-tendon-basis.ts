@@ -18,7 +18,13 @@ export interface LoadedTendon {
       /** Members of the project who take flag e-mails as a digest per shift. */
       digestEmails?: string[];
     };
-  pour: { id: string; name: string; concreteStrengthMPa: number | null; status: string };
+  pour: {
+    id: string;
+    name: string;
+    concreteStrengthMPa: number | null;
+    /** The pour's state (planned, stressing, stressed, released): read by `loadTendonBasis` only. */
+    status?: string;
+  };
   tendon: TendonBasis & {
     id: string;
     tag: string;
@@ -32,7 +38,9 @@ export interface LoadedTendon {
 
 /**
  * The select that reads one tendon's basis, with the project in every WHERE; others add their
- * own columns to it (the evaluation reads the tendon's records and flags in the same query).
+ * own columns to it (the evaluation reads the tendon's records and flags in the same query). It
+ * leaves out the pour's state (`pour_states`), which the evaluation does not use and which looks
+ * at every tendon and record of the pour: the sync push runs this read once per record.
  */
 export function selectTendonBasis(qc: QueryCreator<Database>, input: { projectId: string; tendonId: string }) {
   return qc
@@ -41,7 +49,6 @@ export function selectTendonBasis(qc: QueryCreator<Database>, input: { projectId
     .innerJoin("pours", (j) =>
       j.onRef("pours.id", "=", "tendons.pour_id").onRef("pours.project_id", "=", "tendons.project_id"),
     )
-    .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
     .leftJoin("strand_lots", (j) =>
       j
         .onRef("strand_lots.id", "=", "tendons.strand_lot_id")
@@ -73,7 +80,6 @@ export function selectTendonBasis(qc: QueryCreator<Database>, input: { projectId
       "pours.id as pourId",
       "pours.name as pourName",
       "pours.concrete_strength_mpa",
-      "pour_states.status as pourStatus",
       "tendons.id as tendonId",
       "tendons.tag",
       "tendons.kind",
@@ -111,13 +117,16 @@ export async function loadTendonBasis(
   db: Kysely<Database>,
   input: { projectId: string; tendonId: string },
 ): Promise<LoadedTendon> {
-  const row = await selectTendonBasis(db, input).executeTakeFirst();
+  const row = await selectTendonBasis(db, input)
+    .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
+    .select("pour_states.status as pourStatus")
+    .executeTakeFirst();
   if (!row) throw new AppError("NOT_FOUND", "No such tendon on this project.");
   return toLoadedTendon(row);
 }
 
 /** The basis columns of a row read with `selectTendonBasis`, shaped for the computation. */
-export function toLoadedTendon(row: BasisRow): LoadedTendon {
+export function toLoadedTendon(row: BasisRow & { pourStatus?: string }): LoadedTendon {
   return {
     project: {
       id: row.projectId,
@@ -135,7 +144,7 @@ export function toLoadedTendon(row: BasisRow): LoadedTendon {
       id: row.pourId,
       name: row.pourName,
       concreteStrengthMPa: row.concrete_strength_mpa,
-      status: row.pourStatus,
+      ...(row.pourStatus !== undefined && { status: row.pourStatus }),
     },
     tendon: {
       id: row.tendonId,

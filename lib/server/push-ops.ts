@@ -1,5 +1,5 @@
 import "server-only";
-import { duplicateOf, rejectedOp } from "./applied-ops";
+import { duplicateOf, rejectedOp, type OpClaim } from "./applied-ops";
 import { setTimeout as sleep } from "node:timers/promises";
 import { sql, type Kysely } from "kysely";
 import { jsonArrayFrom, jsonObjectFrom } from "kysely/helpers/postgres";
@@ -35,15 +35,16 @@ import { isReleasedPourRefusal, RELEASED_POUR_MESSAGE } from "./require-open-pou
  * refuses the whole statement unless the claim, the version and the record each wrote their
  * row, so nothing at all is written for an op that loses:
  *
- * - a second delivery finds the claim and answers "duplicate" with the stored result; a
- *   concurrent one waits on the key and then does the same;
+ * - a second delivery finds the claim and answers "duplicate" with the stored result (the
+ *   claims of a whole batch are looked up in one query before its ops run, so a re-sent batch
+ *   costs no read of any tendon); a concurrent one waits on the key and then does the same;
  * - when another write stored a record of the tendon since the state was read, the op reads the
  *   state again and retries, so two ends stored at the same moment are judged together;
  * - a conflict or a rejection is decided from the read, before anything is written; the read
  *   covers every row the write could collide with, so a refused write always reads again.
  *
  * An applied op costs two round trips: the read of the tendon's state with the op's references,
- * and the write. Operations on different record chains run side by side; those on one chain run
+ * and the write; a batch adds one, the look-up of its claims. Operations on different record chains run side by side; those on one chain run
  * in the order sent.
  */
 
@@ -150,9 +151,14 @@ function precheck(op: SyncOp, user: Pusher): { payload: RecordPayload; day: stri
  * project, a record already stored under its id and the head of its chain.
  */
 const opRead = reusableQuery(
-  ["projectId", "tendonId", "setId", "calibrationId", "opId", "recordId", "chainId"],
+  ["projectId", "tendonId", "setId", "calibrationId", "opId", "recordId", "chainId", "wireBreaks"],
   (db, a) =>
-    selectTendonState(db, { projectId: a.projectId, tendonId: a.tendonId, alsoSetId: a.setId }).select((eb) => [
+    selectTendonState(db, {
+      projectId: a.projectId,
+      tendonId: a.tendonId,
+      alsoSetId: a.setId,
+      addingWireBreaks: a.wireBreaks,
+    }).select((eb) => [
       jsonObjectFrom(
         eb
           .selectFrom("applied_ops")
@@ -215,6 +221,7 @@ function readForOp(db: Db, op: SyncOp, p: RecordPayload) {
     opId: op.opId,
     recordId: op.recordId,
     chainId: p.chainId,
+    wireBreaks: String(p.wireBreaks),
   });
 }
 
@@ -410,10 +417,27 @@ async function attemptOp(
   return { opId: op.opId, status: "applied", revision: p.revision, evaluation };
 }
 
+/**
+ * The claims already made for the batch's record ops, by op id, in one query: a re-delivered op
+ * is answered from its claim without the read of its tendon's state. An op whose claim is not
+ * there yet goes the whole way, where its read and the write's guard decide as before.
+ */
+async function claimsOf(db: Db, ops: SyncOp[]): Promise<Map<string, OpClaim>> {
+  const ids = ops.filter((op) => op.kind === "create" || op.kind === "revise").map((op) => op.opId);
+  if (!ids.length) return new Map();
+  const rows = await db
+    .selectFrom("applied_ops")
+    .select(["op_id", "user_id", "result"])
+    .where("op_id", "=", sql<string>`any(${ids}::uuid[])`)
+    .execute();
+  return new Map(rows.map((r) => [r.op_id, { user_id: r.user_id, result: r.result }]));
+}
+
 async function applyOp(
   db: Db,
   input: { user: Pusher; deviceId: string; hooks?: PushHooks },
   op: SyncOp,
+  claimed: OpClaim | undefined,
 ): Promise<OpResult> {
   const { user } = input;
   if (op.kind === "tails_cut") return answered(op, await recordTailCut(db, input, op), input.hooks);
@@ -432,6 +456,7 @@ async function applyOp(
     }
     return checked;
   }
+  if (claimed) return duplicateOf(op, user.id, claimed);
   for (let attempt = 1; ; attempt++) {
     const result = await attemptOp(db, input, op, checked.payload, checked.day, attempt);
     if (result !== RETRY) return answered(op, result, input.hooks);
@@ -554,6 +579,11 @@ export async function pushOps(
     const key = chainKey(op);
     chains.set(key, [...(chains.get(key) ?? []), i]);
   });
+  // A failed look-up only loses the shortcut: each op then reads its claim with its state.
+  const claims = await claimsOf(db, input.ops).catch((error: unknown) => {
+    console.error("push: the batch's claims could not be read; each op reads its own", error);
+    return new Map<string, OpClaim>();
+  });
   const queue = [...chains.values()];
   const worker = async () => {
     for (let chain = queue.shift(); chain; chain = queue.shift()) {
@@ -567,7 +597,7 @@ export async function pushOps(
           continue;
         }
         try {
-          results[i] = await applyOp(db, input, input.ops[i]!);
+          results[i] = await applyOp(db, input, input.ops[i]!, claims.get(input.ops[i]!.opId));
         } catch (error) {
           // The op committed and its answer was lost (a test hook's stand-in for a dropped connection).
           if (error instanceof AnswerLost) throw error.cause;

@@ -164,4 +164,21 @@ describe("statements per read do not grow with the tendons", () => {
     expect(a.statements).toBeGreaterThan(0);
     expect(b.statements).toBe(a.statements);
   });
+
+  it("a batch pushed again: answered from its claims in one statement, no tendon read", async () => {
+    const again = (w: Stored) => (db: Kysely<Database>) =>
+      pushOps(db, {
+        user: w.crew,
+        deviceId: `count-${w.tendons}-again`,
+        ops: w.project.opsByPour.flat().map(toSyncOp),
+      });
+    const a = await count(again(small));
+    const b = await count(again(large));
+    expect(a.result.results.map((r) => r.status)).toEqual(Array(3).fill("duplicate"));
+    expect(b.result.results.map((r) => r.status)).toEqual(Array(40).fill("duplicate"));
+    // The stored answer comes back: the verdict the first delivery got (every bench record here reads 15 % long).
+    expect(b.result.results.every((r) => r.evaluation?.verdict === "long")).toBe(true);
+    expect(a.sent).toEqual([expect.stringMatching(/^select .* from "applied_ops" where "op_id" = any\(/)]);
+    expect(b.statements).toBe(1);
+  });
 });
