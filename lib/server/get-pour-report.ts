@@ -8,6 +8,13 @@ import type { Decision, FlagKind, FlagStatus, ReviewKind } from "@/lib/schemas/d
 import { ENGINE_VERSION } from "@/lib/elongation";
 import { AppError } from "@/lib/errors";
 import { CALIBRATION_COLUMNS, calibrationFromRow, type Calibration } from "@/lib/schemas/calibration";
+import {
+  EQUIPMENT_SET_COLUMNS,
+  equipmentNamedFromRow,
+  equipmentSetFromRow,
+  type EquipmentNamed,
+  type EquipmentSet,
+} from "@/lib/schemas/equipment";
 import type { StoredResolution } from "@/lib/format/quantities";
 import { findFlagTrail } from "./find-flag-trail";
 import { selectConcreteResults } from "./list-concrete-results";
@@ -54,7 +61,7 @@ export interface ReportDetension {
   at: Date;
   operator: string;
   recordedBy: string;
-  equipment: { name: string; jackSerial: string; gaugeSerial: string; pumpSerial: string | null };
+  equipment: EquipmentNamed;
   /** The gauge pressure at release as typed; null when not read. */
   entered: { pressure: string; unit: "psi" | "MPa" } | null;
   releasePressureMPa: number | null;
@@ -71,7 +78,7 @@ export interface ReportLiftoff {
   at: Date;
   /** Who made the check (the person signed in on the tablet). */
   operator: string;
-  equipment: { name: string; jackSerial: string; gaugeSerial: string; pumpSerial: string | null };
+  equipment: EquipmentNamed;
   calibration: { calibratedOn: string; validUntil: string; laboratory: string | null };
   /** The gauge pressure at lift-off as typed. */
   entered: { pressure: string; unit: "psi" | "MPa" };
@@ -133,14 +140,9 @@ export interface PourReport {
     concreteConfirmedBy: string | null;
     concreteConfirmedAt: Date | null;
   };
-  equipment: {
-    id: string;
-    name: string;
-    jackSerial: string;
-    gaugeSerial: string;
-    pumpSerial: string | null;
+  equipment: (Pick<EquipmentSet, "id" | "name" | "jackSerial" | "gaugeSerial" | "pumpSerial"> & {
     calibrations: Pick<Calibration, "calibratedOn" | "validUntil" | "slope" | "intercept" | "r2" | "laboratory">[];
-  }[];
+  })[];
   strandLots: { lotNumber: string; strandSize: string; areaMm2: number; modulusMPa: number; breakingLoadN: number }[];
   tendons: TendonResult[];
   /** Every stressing of every end, in order: the original and each restress, never only the latest. */
@@ -288,7 +290,7 @@ export async function getPourReport(
     setIds.length
       ? db
           .selectFrom("equipment_sets")
-          .select(["id", "name", "jack_serial", "gauge_serial", "pump_serial"])
+          .select(EQUIPMENT_SET_COLUMNS)
           .where("project_id", "=", input.projectId)
           .where("id", "in", setIds)
           .orderBy("name")
@@ -352,15 +354,15 @@ export async function getPourReport(
       concreteConfirmedBy: pour.concreteConfirmedBy,
       concreteConfirmedAt: pour.concrete_confirmed_at ? new Date(pour.concrete_confirmed_at) : null,
     },
-    equipment: sets.map((s) => ({
-      id: s.id,
-      name: s.name,
-      jackSerial: s.jack_serial,
-      gaugeSerial: s.gauge_serial,
-      pumpSerial: s.pump_serial,
+    equipment: sets.map(equipmentSetFromRow).map(({ id, name, jackSerial, gaugeSerial, pumpSerial }) => ({
+      id,
+      name,
+      jackSerial,
+      gaugeSerial,
+      pumpSerial,
       calibrations: calibrations
         .map(calibrationFromRow)
-        .filter((c) => c.equipmentSetId === s.id)
+        .filter((c) => c.equipmentSetId === id)
         .map(({ calibratedOn, validUntil, slope, intercept, r2, laboratory }) => ({
           calibratedOn,
           validUntil,
@@ -384,12 +386,7 @@ export async function getPourReport(
       at: new Date(d.detensioned_at),
       operator: d.operator_name,
       recordedBy: d.recorded_by_name,
-      equipment: {
-        name: d.name,
-        jackSerial: d.jack_serial,
-        gaugeSerial: d.gauge_serial,
-        pumpSerial: d.pump_serial,
-      },
+      equipment: equipmentNamedFromRow(d),
       entered: d.entered,
       releasePressureMPa: d.release_pressure_mpa,
       strands: d.strands_detensioned,
@@ -401,7 +398,7 @@ export async function getPourReport(
       end: l.tendon_end,
       at: new Date(l.checked_at),
       operator: l.checked_by_name,
-      equipment: { name: l.name, jackSerial: l.jack_serial, gaugeSerial: l.gauge_serial, pumpSerial: l.pump_serial },
+      equipment: equipmentNamedFromRow(l),
       calibration: {
         calibratedOn: asDay(l.calibrated_on),
         validUntil: asDay(l.valid_until),

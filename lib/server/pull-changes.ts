@@ -6,6 +6,7 @@ import type { Database } from "@/db/types";
 import type { SessionUser } from "@/lib/auth/session";
 import type { PullResponse } from "@/lib/schemas/sync";
 import { CALIBRATION_COLUMNS, calibrationFromRow } from "@/lib/schemas/calibration";
+import { EQUIPMENT_SET_COLUMNS, equipmentSetFromRow } from "@/lib/schemas/equipment";
 import { storedWireBreaks } from "@/lib/schemas/record";
 import { recordingProjectIds } from "./require-recorder";
 
@@ -213,16 +214,7 @@ export async function pullChanges(
             .execute(),
           trx
             .selectFrom("equipment_sets")
-            .select([
-              "id",
-              "project_id",
-              "name",
-              "jack_serial",
-              "gauge_serial",
-              "jack_grip_mm",
-              "max_force_n",
-              "draw_in_mm",
-            ])
+            .select(EQUIPMENT_SET_COLUMNS)
             .where("project_id", "in", projectIds)
             .where(since("change_xid", cursor))
             .orderBy("name")
@@ -407,16 +399,7 @@ export async function pullChanges(
           modulusMPa: l.modulus_mpa,
           breakingLoadN: l.breaking_load_n,
         })),
-        equipmentSets: sets.map((s) => ({
-          id: s.id,
-          projectId: s.project_id,
-          name: s.name,
-          jackSerial: s.jack_serial,
-          gaugeSerial: s.gauge_serial,
-          jackGripMm: s.jack_grip_mm,
-          maxForceN: s.max_force_n,
-          drawInMm: s.draw_in_mm,
-        })),
+        equipmentSets: sets.map(equipmentSetFromRow),
         calibrations: calibrations.map(calibrationFromRow),
         records: records.map((r) => ({
           id: r.id,
