@@ -15,6 +15,7 @@ import {
   type EquipmentNamed,
   type EquipmentSet,
 } from "@/lib/schemas/equipment";
+import { STRAND_LOT_COLUMNS, strandLotFromRow, type StrandLot } from "@/lib/schemas/strand-lot";
 import type { StoredResolution } from "@/lib/format/quantities";
 import { findFlagTrail } from "./find-flag-trail";
 import { selectConcreteResults } from "./list-concrete-results";
@@ -143,7 +144,7 @@ export interface PourReport {
   equipment: (Pick<EquipmentSet, "id" | "name" | "jackSerial" | "gaugeSerial" | "pumpSerial"> & {
     calibrations: Pick<Calibration, "calibratedOn" | "validUntil" | "slope" | "intercept" | "r2" | "laboratory">[];
   })[];
-  strandLots: { lotNumber: string; strandSize: string; areaMm2: number; modulusMPa: number; breakingLoadN: number }[];
+  strandLots: Pick<StrandLot, "lotNumber" | "strandSize" | "areaMm2" | "modulusMPa" | "breakingLoadN">[];
   tendons: TendonResult[];
   /** Every stressing of every end, in order: the original and each restress, never only the latest. */
   records: PourRecord[];
@@ -308,7 +309,7 @@ export async function getPourReport(
     lotNumbers.length
       ? db
           .selectFrom("strand_lots")
-          .select(["lot_number", "strand_size", "area_mm2", "modulus_mpa", "breaking_load_n"])
+          .select(STRAND_LOT_COLUMNS)
           .where("project_id", "=", input.projectId)
           .where("lot_number", "in", lotNumbers)
           .orderBy("lot_number")
@@ -372,12 +373,12 @@ export async function getPourReport(
           laboratory,
         })),
     })),
-    strandLots: lots.map((l) => ({
-      lotNumber: l.lot_number,
-      strandSize: l.strand_size,
-      areaMm2: l.area_mm2,
-      modulusMPa: l.modulus_mpa,
-      breakingLoadN: l.breaking_load_n,
+    strandLots: lots.map(strandLotFromRow).map(({ lotNumber, strandSize, areaMm2, modulusMPa, breakingLoadN }) => ({
+      lotNumber,
+      strandSize,
+      areaMm2,
+      modulusMPa,
+      breakingLoadN,
     })),
     tendons,
     records,

@@ -2,6 +2,7 @@ import "server-only";
 import { sql, type Kysely, type QueryCreator } from "kysely";
 import type { Database } from "@/db/types";
 import type { TendonKind } from "@/lib/schemas/domain";
+import type { StrandLot } from "@/lib/schemas/strand-lot";
 import { AppError } from "@/lib/errors";
 import { projectBasisFromRow, type LotBasis, type ProjectBasis, type TendonBasis } from "@/lib/stressing/basis";
 import type { DisplayUnits, StoredResolution } from "@/lib/format/quantities";
@@ -27,7 +28,7 @@ export interface LoadedTendon {
     /** The member the schedule names; null when the pour is the tendon's group. */
     member?: string | null;
   };
-  lot: (LotBasis & { id: string; lotNumber: string }) | null;
+  lot: (LotBasis & Pick<StrandLot, "id" | "lotNumber">) | null;
 }
 
 /**

@@ -7,6 +7,7 @@ import type { SessionUser } from "@/lib/auth/session";
 import type { PullResponse } from "@/lib/schemas/sync";
 import { CALIBRATION_COLUMNS, calibrationFromRow } from "@/lib/schemas/calibration";
 import { EQUIPMENT_SET_COLUMNS, equipmentSetFromRow } from "@/lib/schemas/equipment";
+import { STRAND_LOT_COLUMNS, strandLotFromRow } from "@/lib/schemas/strand-lot";
 import { storedWireBreaks } from "@/lib/schemas/record";
 import { recordingProjectIds } from "./require-recorder";
 
@@ -208,7 +209,7 @@ export async function pullChanges(
             .execute(),
           trx
             .selectFrom("strand_lots")
-            .select(["id", "project_id", "lot_number", "strand_size", "area_mm2", "modulus_mpa", "breaking_load_n"])
+            .select(STRAND_LOT_COLUMNS)
             .where("project_id", "in", projectIds)
             .where(since("change_xid", cursor))
             .execute(),
@@ -390,15 +391,7 @@ export async function pullChanges(
           stressingOrder: t.stressing_order,
           jackingForceN: t.jacking_force_n,
         })),
-        strandLots: lots.map((l) => ({
-          id: l.id,
-          projectId: l.project_id,
-          lotNumber: l.lot_number,
-          strandSize: l.strand_size,
-          areaMm2: l.area_mm2,
-          modulusMPa: l.modulus_mpa,
-          breakingLoadN: l.breaking_load_n,
-        })),
+        strandLots: lots.map(strandLotFromRow),
         equipmentSets: sets.map(equipmentSetFromRow),
         calibrations: calibrations.map(calibrationFromRow),
         records: records.map((r) => ({
