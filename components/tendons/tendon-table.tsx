@@ -23,7 +23,7 @@ import {
 import { RefreshError, useRouteData } from "@/components/setup/use-route-data";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
 import { KIND_LABELS } from "@/lib/schemas/tendon";
-import type { TendonRow } from "@/lib/server/list-tendons";
+import type { TendonListItem } from "@/lib/server/list-tendons";
 import {
   showComputedLength,
   showForce,
@@ -35,7 +35,7 @@ import { formatLength, type ReadingResolution } from "@/lib/units";
 
 export interface TendonList {
   pour: { id: string; name: string };
-  tendons: TendonRow[];
+  tendons: TendonListItem[];
 }
 
 /** The route handler that lists a pour's tendons; also the swr key the import and the form refresh. */
@@ -65,7 +65,7 @@ function filterParams(filters: ColumnFiltersState): Record<"q" | "ends" | "lot",
   return { q: value("tag"), ends: value("ends"), lot: value("lot") };
 }
 
-const helper = createColumnHelper<typeof setupFeatures, TendonRow>();
+const helper = createColumnHelper<typeof setupFeatures, TendonListItem>();
 
 function tendonColumns(projectId: string, us: boolean, resolution: ReadingResolution) {
   // Only the unit system matters to the computed-length, long-length and pressure formats.

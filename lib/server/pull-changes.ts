@@ -8,6 +8,7 @@ import type { PullResponse } from "@/lib/schemas/sync";
 import { CALIBRATION_COLUMNS, calibrationFromRow } from "@/lib/schemas/calibration";
 import { EQUIPMENT_SET_COLUMNS, equipmentSetFromRow } from "@/lib/schemas/equipment";
 import { STRAND_LOT_COLUMNS, strandLotFromRow } from "@/lib/schemas/strand-lot";
+import { TENDON_COLUMNS, tendonFromRow } from "@/lib/schemas/tendon";
 import { storedWireBreaks } from "@/lib/schemas/record";
 import { recordingProjectIds } from "./require-recorder";
 
@@ -186,27 +187,7 @@ export async function pullChanges(
               ]),
             )
             .execute(),
-          trx
-            .selectFrom("tendons")
-            .select([
-              "id",
-              "project_id",
-              "pour_id",
-              "tag",
-              "kind",
-              "strand_size",
-              "strand_count",
-              "segments",
-              "ends",
-              "jack_grip_mm",
-              "strand_lot_id",
-              "shop_elongation_mm",
-              "stressing_order",
-              "jacking_force_n",
-            ])
-            .where(changedIn("tendons", scope))
-            .orderBy("tag")
-            .execute(),
+          trx.selectFrom("tendons").select(TENDON_COLUMNS).where(changedIn("tendons", scope)).orderBy("tag").execute(),
           trx
             .selectFrom("strand_lots")
             .select(STRAND_LOT_COLUMNS)
@@ -375,22 +356,7 @@ export async function pullChanges(
                 }
               : null,
         })),
-        tendons: tendons.map((t) => ({
-          id: t.id,
-          projectId: t.project_id,
-          pourId: t.pour_id,
-          tag: t.tag,
-          kind: t.kind,
-          strandSize: t.strand_size,
-          strandCount: t.strand_count,
-          segments: t.segments,
-          ends: t.ends,
-          jackGripMm: t.jack_grip_mm,
-          strandLotId: t.strand_lot_id,
-          shopElongationMm: t.shop_elongation_mm,
-          stressingOrder: t.stressing_order,
-          jackingForceN: t.jacking_force_n,
-        })),
+        tendons: tendons.map(tendonFromRow),
         strandLots: lots.map(strandLotFromRow),
         equipmentSets: sets.map(equipmentSetFromRow),
         calibrations: calibrations.map(calibrationFromRow),
