@@ -16,6 +16,8 @@ import {
   type EquipmentSet,
 } from "@/lib/schemas/equipment";
 import { STRAND_LOT_COLUMNS, strandLotFromRow, type StrandLot } from "@/lib/schemas/strand-lot";
+import { qualified } from "@/lib/schemas/columns";
+import { POUR_COLUMNS, pourFromRow, type Pour } from "@/lib/schemas/pour";
 import type { StoredResolution } from "@/lib/format/quantities";
 import { findFlagTrail } from "./find-flag-trail";
 import { selectConcreteResults } from "./list-concrete-results";
@@ -131,13 +133,7 @@ export interface PourReport {
     jackingForceFactor?: number;
     requiredConcreteMPa: number | null;
   };
-  pour: {
-    id: string;
-    name: string;
-    level: string | null;
-    status: string;
-    plannedStressingDate: string | null;
-    concreteStrengthMPa: number | null;
+  pour: Pick<Pour, "id" | "name" | "level" | "status" | "plannedStressingDate" | "concreteStrengthMPa"> & {
     concreteConfirmedBy: string | null;
     concreteConfirmedAt: Date | null;
   };
@@ -190,12 +186,8 @@ export async function getPourReport(
     .leftJoin("users", "users.id", "pours.concrete_confirmed_by")
     .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
     .select([
-      "pours.id",
-      "pours.name",
-      "pours.level",
+      ...qualified("pours", POUR_COLUMNS),
       "pour_states.status",
-      "pours.planned_stressing_date",
-      "pours.concrete_strength_mpa",
       "pours.concrete_confirmed_at",
       "pours.updated_at",
       "users.name as concreteConfirmedBy",
@@ -332,6 +324,7 @@ export async function getPourReport(
   ];
   const asOf = new Date(Math.max(...moments.map((m) => m.getTime())));
 
+  const shown = pourFromRow(pour);
   // Every date on the report is written in the project's own time zone (the site's), like the screens.
   const timeZone = projectTimeZone(project);
 
@@ -346,12 +339,12 @@ export async function getPourReport(
       requiredConcreteMPa: project.required_concrete_mpa,
     },
     pour: {
-      id: pour.id,
-      name: pour.name,
-      level: pour.level,
-      status: pour.status,
-      plannedStressingDate: pour.planned_stressing_date ? asDay(pour.planned_stressing_date) : null,
-      concreteStrengthMPa: pour.concrete_strength_mpa,
+      id: shown.id,
+      name: shown.name,
+      level: shown.level,
+      status: shown.status,
+      plannedStressingDate: shown.plannedStressingDate,
+      concreteStrengthMPa: shown.concreteStrengthMPa,
       concreteConfirmedBy: pour.concreteConfirmedBy,
       concreteConfirmedAt: pour.concrete_confirmed_at ? new Date(pour.concrete_confirmed_at) : null,
     },

@@ -9,6 +9,8 @@ import { CALIBRATION_COLUMNS, calibrationFromRow } from "@/lib/schemas/calibrati
 import { EQUIPMENT_SET_COLUMNS, equipmentSetFromRow } from "@/lib/schemas/equipment";
 import { STRAND_LOT_COLUMNS, strandLotFromRow } from "@/lib/schemas/strand-lot";
 import { TENDON_COLUMNS, tendonFromRow } from "@/lib/schemas/tendon";
+import { qualified } from "@/lib/schemas/columns";
+import { POUR_COLUMNS, pourFromRow } from "@/lib/schemas/pour";
 import { storedWireBreaks } from "@/lib/schemas/record";
 import { recordingProjectIds } from "./require-recorder";
 
@@ -158,12 +160,7 @@ export async function pullChanges(
             .selectFrom("pours")
             .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
             .select([
-              "pours.id",
-              "pours.project_id",
-              "pours.name",
-              "pours.level",
-              "pours.planned_stressing_date",
-              "pours.concrete_strength_mpa",
+              ...qualified("pours", POUR_COLUMNS),
               "pour_states.status",
               "pour_states.released_by_name",
               "pour_states.released_at",
@@ -332,13 +329,9 @@ export async function pullChanges(
           requiredConcreteMpa: p.required_concrete_mpa,
         })),
         pours: pours.map((p) => ({
-          id: p.id,
-          projectId: p.project_id,
-          name: p.name,
-          level: p.level,
-          plannedStressingDate: p.planned_stressing_date,
+          ...pourFromRow(p),
+          // The tablet's contract spells it so (lib/schemas/sync-response.ts).
           concreteStrengthMpa: p.concrete_strength_mpa,
-          status: p.status,
           release:
             p.released_by_name && p.released_at
               ? {
