@@ -18,6 +18,8 @@ import {
 import { STRAND_LOT_COLUMNS, strandLotFromRow, type StrandLot } from "@/lib/schemas/strand-lot";
 import { qualified } from "@/lib/schemas/columns";
 import { POUR_COLUMNS, pourFromRow, type Pour } from "@/lib/schemas/pour";
+import { detensionFromRow, type Detension } from "@/lib/schemas/detension";
+import { liftoffCheckFromRow, type LiftoffCheck } from "@/lib/schemas/liftoff";
 import type { StoredResolution } from "@/lib/format/quantities";
 import { findFlagTrail } from "./find-flag-trail";
 import { selectConcreteResults } from "./list-concrete-results";
@@ -58,39 +60,35 @@ export interface ReportFlag {
   }[];
 }
 
-/** A detension the crew recorded on the engineer's order, for the tendon's record sequence. */
-export interface ReportDetension {
-  tendonId: string;
+/** A detension the crew recorded on the engineer's order, for the tendon's record sequence (from the one `Detension`). */
+export interface ReportDetension extends Pick<Detension, "tendonId" | "entered" | "releasePressureMPa" | "remarks"> {
   at: Date;
   operator: string;
   recordedBy: string;
   equipment: EquipmentNamed;
-  /** The gauge pressure at release as typed; null when not read. */
-  entered: { pressure: string; unit: "psi" | "MPa" } | null;
-  releasePressureMPa: number | null;
   strands: number;
-  remarks: string | null;
   /** The disposition that ordered it, "D-0003". */
   dispositionReference: string;
 }
 
-/** A lift-off check the crew made on the engineer's order, for the tendon's record sequence. */
-export interface ReportLiftoff {
-  tendonId: string;
+/** A lift-off check the crew made on the engineer's order, for the tendon's record sequence (from the one `LiftoffCheck`). */
+export interface ReportLiftoff extends Pick<
+  LiftoffCheck,
+  | "tendonId"
+  | "entered"
+  | "pressureMPa"
+  | "liftoffForceN"
+  | "expectedForceN"
+  | "deviationPct"
+  | "bandPct"
+  | "withinBand"
+> {
   end: "A" | "B";
   at: Date;
   /** Who made the check (the person signed in on the tablet). */
   operator: string;
   equipment: EquipmentNamed;
   calibration: { calibratedOn: string; validUntil: string; laboratory: string | null };
-  /** The gauge pressure at lift-off as typed. */
-  entered: { pressure: string; unit: "psi" | "MPa" };
-  pressureMPa: number;
-  liftoffForceN: number;
-  expectedForceN: number;
-  deviationPct: number;
-  bandPct: number;
-  withinBand: boolean;
   /** The disposition that ordered it, "D-0003". */
   dispositionReference: string;
   /** The flag it raised outside the band, "F-0004"; null within it. */
@@ -205,12 +203,10 @@ export async function getPourReport(
       findStandingRelease(db, input),
       selectDetensions(db, input.projectId)
         .select([
-          "detensions.tendon_id",
           "equipment_sets.name",
           "equipment_sets.jack_serial",
           "equipment_sets.gauge_serial",
           "equipment_sets.pump_serial",
-          "users.name as recorded_by_name",
         ])
         .where("detensions.pour_id", "=", input.pourId)
         .orderBy("detensions.detensioned_at")
@@ -218,7 +214,6 @@ export async function getPourReport(
         .execute(),
       selectLiftoffChecks(db, input.projectId)
         .select([
-          "liftoff_checks.tendon_id",
           "equipment_sets.name",
           "equipment_sets.jack_serial",
           "equipment_sets.gauge_serial",
@@ -226,7 +221,6 @@ export async function getPourReport(
           "calibrations.calibrated_on",
           "calibrations.valid_until",
           "calibrations.laboratory",
-          "users.name as checked_by_name",
         ])
         .where("liftoff_checks.pour_id", "=", input.pourId)
         .orderBy("liftoff_checks.checked_at")
@@ -375,39 +369,45 @@ export async function getPourReport(
     })),
     tendons,
     records,
-    detensions: detensions.map((d) => ({
-      tendonId: d.tendon_id,
-      at: new Date(d.detensioned_at),
-      operator: d.operator_name,
-      recordedBy: d.recorded_by_name,
-      equipment: equipmentNamedFromRow(d),
-      entered: d.entered,
-      releasePressureMPa: d.release_pressure_mpa,
-      strands: d.strands_detensioned,
-      remarks: d.remarks,
-      dispositionReference: dispositionRef.get(d.disposition_id) ?? "D-?",
-    })),
-    liftoffChecks: liftoffs.map((l) => ({
-      tendonId: l.tendon_id,
-      end: l.tendon_end,
-      at: new Date(l.checked_at),
-      operator: l.checked_by_name,
-      equipment: equipmentNamedFromRow(l),
-      calibration: {
-        calibratedOn: asDay(l.calibrated_on),
-        validUntil: asDay(l.valid_until),
-        laboratory: l.laboratory,
-      },
-      entered: l.entered,
-      pressureMPa: l.pressure_mpa,
-      liftoffForceN: l.liftoff_force_n,
-      expectedForceN: l.expected_force_n,
-      deviationPct: l.deviation_pct,
-      bandPct: l.band_pct,
-      withinBand: l.within_band,
-      dispositionReference: dispositionRef.get(l.disposition_id) ?? "D-?",
-      raisedFlagReference: l.raised_flag_id ? (flagRef.get(l.raised_flag_id) ?? "F-?") : null,
-    })),
+    detensions: detensions.map((row) => {
+      const d = detensionFromRow(row);
+      return {
+        tendonId: d.tendonId,
+        at: new Date(d.detensionedAt),
+        operator: d.operatorName,
+        recordedBy: d.recordedByName,
+        equipment: equipmentNamedFromRow(row),
+        entered: d.entered,
+        releasePressureMPa: d.releasePressureMPa,
+        strands: d.strandsDetensioned,
+        remarks: d.remarks,
+        dispositionReference: dispositionRef.get(d.dispositionId) ?? "D-?",
+      };
+    }),
+    liftoffChecks: liftoffs.map((row) => {
+      const l = liftoffCheckFromRow(row);
+      return {
+        tendonId: l.tendonId,
+        end: l.tendonEnd,
+        at: new Date(l.checkedAt),
+        operator: l.checkedByName,
+        equipment: equipmentNamedFromRow(row),
+        calibration: {
+          calibratedOn: asDay(row.calibrated_on),
+          validUntil: asDay(row.valid_until),
+          laboratory: row.laboratory,
+        },
+        entered: l.entered,
+        pressureMPa: l.pressureMPa,
+        liftoffForceN: l.liftoffForceN,
+        expectedForceN: l.expectedForceN,
+        deviationPct: l.deviationPct,
+        bandPct: l.bandPct,
+        withinBand: l.withinBand,
+        dispositionReference: dispositionRef.get(l.dispositionId) ?? "D-?",
+        raisedFlagReference: l.raisedFlagId ? (flagRef.get(l.raisedFlagId) ?? "F-?") : null,
+      };
+    }),
     concreteResults: concrete.map((c) => ({
       specimen: c.specimen,
       strengthMPa: c.strength_mpa,

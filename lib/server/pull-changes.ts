@@ -11,6 +11,8 @@ import { STRAND_LOT_COLUMNS, strandLotFromRow } from "@/lib/schemas/strand-lot";
 import { TENDON_COLUMNS, tendonFromRow } from "@/lib/schemas/tendon";
 import { qualified } from "@/lib/schemas/columns";
 import { POUR_COLUMNS, pourFromRow } from "@/lib/schemas/pour";
+import { DETENSION_COLUMNS, detensionFromRow } from "@/lib/schemas/detension";
+import { LIFTOFF_CHECK_COLUMNS, liftoffCheckFromRow } from "@/lib/schemas/liftoff";
 import { storedWireBreaks } from "@/lib/schemas/record";
 import { recordingProjectIds } from "./require-recorder";
 
@@ -84,45 +86,14 @@ export async function pullChanges(
       const liftoffChecksRead = trx
         .selectFrom("liftoff_checks")
         .innerJoin("users", "users.id", "liftoff_checks.checked_by")
-        .select([
-          "liftoff_checks.id",
-          "liftoff_checks.project_id",
-          "liftoff_checks.pour_id",
-          "liftoff_checks.tendon_id",
-          "liftoff_checks.disposition_id",
-          "liftoff_checks.tendon_end",
-          "liftoff_checks.equipment_set_id",
-          "liftoff_checks.entered",
-          "liftoff_checks.pressure_mpa",
-          "liftoff_checks.liftoff_force_n",
-          "liftoff_checks.expected_force_n",
-          "liftoff_checks.deviation_pct",
-          "liftoff_checks.band_pct",
-          "liftoff_checks.within_band",
-          "liftoff_checks.checked_at",
-          "users.name as checked_by_name",
-        ])
+        .select([...qualified("liftoff_checks", LIFTOFF_CHECK_COLUMNS), "users.name as checked_by_name"])
         .where(changedIn("liftoff_checks", scope))
         .execute();
       // Detensions as the crew reported them (lib/server/record-detension.ts).
       const detensionsRead = trx
         .selectFrom("detensions")
         .innerJoin("users", "users.id", "detensions.recorded_by")
-        .select([
-          "detensions.id",
-          "detensions.project_id",
-          "detensions.pour_id",
-          "detensions.tendon_id",
-          "detensions.disposition_id",
-          "detensions.detensioned_at",
-          "detensions.operator_name",
-          "detensions.equipment_set_id",
-          "detensions.entered",
-          "detensions.release_pressure_mpa",
-          "detensions.strands_detensioned",
-          "detensions.remarks",
-          "users.name as recorded_by_name",
-        ])
+        .select([...qualified("detensions", DETENSION_COLUMNS), "users.name as recorded_by_name"])
         .where(changedIn("detensions", scope))
         .execute();
       // Awaited after the others; a failure then still reaches the caller, never as an unhandled rejection.
@@ -415,39 +386,8 @@ export async function pullChanges(
           cutByName: c.cut_by_name,
           heldReasons: c.held_reasons,
         })),
-        liftoffChecks: liftoffChecks.map((c) => ({
-          id: c.id,
-          projectId: c.project_id,
-          pourId: c.pour_id,
-          tendonId: c.tendon_id,
-          dispositionId: c.disposition_id,
-          tendonEnd: c.tendon_end,
-          equipmentSetId: c.equipment_set_id,
-          entered: c.entered,
-          pressureMPa: c.pressure_mpa,
-          liftoffForceN: c.liftoff_force_n,
-          expectedForceN: c.expected_force_n,
-          deviationPct: c.deviation_pct,
-          bandPct: c.band_pct,
-          withinBand: c.within_band,
-          checkedAt: new Date(c.checked_at).toISOString(),
-          checkedByName: c.checked_by_name,
-        })),
-        detensions: detensions.map((d) => ({
-          id: d.id,
-          projectId: d.project_id,
-          pourId: d.pour_id,
-          tendonId: d.tendon_id,
-          dispositionId: d.disposition_id,
-          detensionedAt: new Date(d.detensioned_at).toISOString(),
-          operatorName: d.operator_name,
-          equipmentSetId: d.equipment_set_id,
-          entered: d.entered,
-          releasePressureMPa: d.release_pressure_mpa,
-          strandsDetensioned: d.strands_detensioned,
-          remarks: d.remarks,
-          recordedByName: d.recorded_by_name,
-        })),
+        liftoffChecks: liftoffChecks.map(liftoffCheckFromRow),
+        detensions: detensions.map(detensionFromRow),
         removed: removed.map((r) => ({ table: r.table_name, id: r.row_id })),
         unavailable,
       };
