@@ -1,6 +1,7 @@
 import type { Selectable } from "kysely";
 import { z } from "zod";
 import type { LiftoffChecksTable } from "@/db/types";
+import type { LiftoffJudgement } from "@/lib/stressing/liftoff";
 import type { TendonEnd } from "./domain";
 import { text } from "./text";
 
@@ -36,7 +37,7 @@ export type LiftoffPayload = z.infer<typeof liftoffPayloadSchema>;
  * the tendon's review page, the stressing report): the one DTO, made from a row by
  * `liftoffCheckFromRow` only. SI; the pressure as typed beside it.
  */
-export interface LiftoffCheck {
+export interface LiftoffCheck extends LiftoffJudgement {
   id: string;
   projectId: string;
   pourId: string;
@@ -46,14 +47,8 @@ export interface LiftoffCheck {
   tendonEnd: TendonEnd;
   equipmentSetId: string;
   calibrationId: string;
-  /** The gauge pressure at lift-off as typed, e.g. "5950" with unit psi. */
+  /** The gauge pressure at lift-off as typed, e.g. "5950" with unit psi; the judge's figures beside it. */
   entered: { pressure: string; unit: "psi" | "MPa" };
-  pressureMPa: number;
-  liftoffForceN: number;
-  expectedForceN: number;
-  deviationPct: number;
-  bandPct: number;
-  withinBand: boolean;
   /** The flag it raised outside the band; null within it. */
   raisedFlagId: string | null;
   /** ISO instant, the tablet's time of the check. */
