@@ -133,7 +133,7 @@ function LiftoffChecks({
   dispositionId: string;
   when: (d: Date | string) => string;
 }) {
-  const checks = c.liftoffChecks.filter((l) => l.disposition_id === dispositionId);
+  const checks = c.liftoffChecks.filter((l) => l.dispositionId === dispositionId);
   const p = c.basis.project;
   if (!checks.length)
     return (
@@ -145,30 +145,22 @@ function LiftoffChecks({
     <ul className="mt-2 grid gap-2" aria-label="Lift-off checks">
       {checks.map((l) => {
         const typed = `${l.entered.pressure}${/[a-z]/i.test(l.entered.pressure) ? "" : ` ${l.entered.unit}`}`;
-        const shown = showPressure(p, l.pressure_mpa);
+        const shown = showPressure(p, l.pressureMPa);
         return (
           <li
             key={l.id}
-            className={`rounded-md border-2 bg-white p-2 ${l.within_band ? "border-signal-band" : "border-signal-stop"}`}
+            className={`rounded-md border-2 bg-white p-2 ${l.withinBand ? "border-signal-band" : "border-signal-stop"}`}
             data-testid="liftoff-check-result"
-            data-within={String(l.within_band)}
+            data-within={String(l.withinBand)}
           >
-            <p className={`font-bold ${l.within_band ? "text-signal-band" : "text-signal-stop"}`}>
-              {l.within_band ? "✓ Lift-off within band" : "⚠ Lift-off outside band"}
+            <p className={`font-bold ${l.withinBand ? "text-signal-band" : "text-signal-stop"}`}>
+              {l.withinBand ? "✓ Lift-off within band" : "⚠ Lift-off outside band"}
             </p>
-            <p>
-              {liftoffLine(p, {
-                liftoffForceN: l.liftoff_force_n,
-                expectedForceN: l.expected_force_n,
-                deviationPct: l.deviation_pct,
-                bandPct: l.band_pct,
-                withinBand: l.within_band,
-              })}
-            </p>
+            <p>{liftoffLine(p, l)}</p>
             <p className="text-label">
-              End {l.tendon_end} · gauge {typed}
+              End {l.tendonEnd} · gauge {typed}
               {shown.replaceAll(",", "") === typed.replaceAll(",", "") ? "" : ` (${shown})`} · set {l.equipmentSet},
-              calibration of {l.calibratedOn} · {l.checkedBy}, {when(l.checked_at)}
+              calibration of {l.calibratedOn} · {l.checkedByName}, {when(l.checkedAt)}
             </p>
           </li>
         );
@@ -187,7 +179,7 @@ function Detensions({
   dispositionId: string;
   when: (d: Date | string) => string;
 }) {
-  const detensions = c.detensions.filter((d) => d.disposition_id === dispositionId);
+  const detensions = c.detensions.filter((d) => d.dispositionId === dispositionId);
   const p = c.basis.project;
   if (!detensions.length)
     return (
@@ -202,11 +194,11 @@ function Detensions({
           const typed = d.entered
             ? `${d.entered.pressure}${/[a-z]/i.test(d.entered.pressure) ? "" : ` ${d.entered.unit}`}`
             : null;
-          const shown = d.release_pressure_mpa !== null ? showPressure(p, d.release_pressure_mpa) : null;
+          const shown = d.releasePressureMPa !== null ? showPressure(p, d.releasePressureMPa) : null;
           return (
             <li key={d.id} className="rounded-md border-2 border-ink bg-white p-2" data-testid="detension-record">
               <p className="font-bold">
-                Detensioned {when(d.detensioned_at)}: {d.strands_detensioned} of {c.basis.tendon.strandCount} strand
+                Detensioned {when(d.detensionedAt)}: {d.strandsDetensioned} of {c.basis.tendon.strandCount} strand
                 {c.basis.tendon.strandCount === 1 ? "" : "s"}
               </p>
               <p>
@@ -217,7 +209,7 @@ function Detensions({
                 {d.remarks ? ` · ${d.remarks}` : ""}
               </p>
               <p className="text-label">
-                Jack run by {d.operator_name} · set {d.equipmentSet} · recorded by {d.recordedBy}
+                Jack run by {d.operatorName} · set {d.equipmentSet} · recorded by {d.recordedByName}
               </p>
             </li>
           );

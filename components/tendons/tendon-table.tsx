@@ -23,7 +23,7 @@ import {
 import { RefreshError, useRouteData } from "@/components/setup/use-route-data";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
 import { KIND_LABELS } from "@/lib/schemas/tendon";
-import type { TendonRow } from "@/lib/server/list-tendons";
+import type { TendonListItem } from "@/lib/server/list-tendons";
 import {
   showComputedLength,
   showForce,
@@ -35,7 +35,7 @@ import { formatLength, type ReadingResolution } from "@/lib/units";
 
 export interface TendonList {
   pour: { id: string; name: string };
-  tendons: TendonRow[];
+  tendons: TendonListItem[];
 }
 
 /** The route handler that lists a pour's tendons; also the swr key the import and the form refresh. */
@@ -65,10 +65,10 @@ function filterParams(filters: ColumnFiltersState): Record<"q" | "ends" | "lot",
   return { q: value("tag"), ends: value("ends"), lot: value("lot") };
 }
 
-const helper = createColumnHelper<typeof setupFeatures, TendonRow>();
+const helper = createColumnHelper<typeof setupFeatures, TendonListItem>();
 
 /** The equipment sets the rows give gauge targets for, by name. */
-function targetSets(tendons: TendonRow[]): string[] {
+function targetSets(tendons: TendonListItem[]): string[] {
   return [...new Set(tendons.flatMap((t) => t.targets.map((g) => g.set)))].sort(compareText);
 }
 

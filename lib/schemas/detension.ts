@@ -1,4 +1,6 @@
+import type { Selectable } from "kysely";
 import { z } from "zod";
+import type { DetensionsTable } from "@/db/types";
 import { text } from "./text";
 
 /**
@@ -39,3 +41,70 @@ export const detensionPayloadSchema = z
   })
   .strict();
 export type DetensionPayload = z.infer<typeof detensionPayloadSchema>;
+
+/**
+ * A detension as the crew reported it, as every reader gets it (the tablet's pull, the tendon's
+ * review page, the stressing report): the one DTO, made from a row by `detensionFromRow` only.
+ */
+export interface Detension {
+  id: string;
+  projectId: string;
+  pourId: string;
+  tendonId: string;
+  /** The disposition that ordered it. */
+  dispositionId: string;
+  /** ISO instant the strands were released. */
+  detensionedAt: string;
+  /** Who ran the jack. */
+  operatorName: string;
+  equipmentSetId: string;
+  /** The gauge pressure at release as typed, null when it was not read. */
+  entered: { pressure: string; unit: "psi" | "MPa" } | null;
+  releasePressureMPa: number | null;
+  strandsDetensioned: number;
+  remarks: string | null;
+  /** The person signed in on the tablet. */
+  recordedByName: string;
+}
+
+/** The columns of `detensions` that `detensionFromRow` reads, beside `users.name as recorded_by_name`. */
+export const DETENSION_COLUMNS = [
+  "id",
+  "project_id",
+  "pour_id",
+  "tendon_id",
+  "disposition_id",
+  "detensioned_at",
+  "operator_name",
+  "equipment_set_id",
+  "entered",
+  "release_pressure_mpa",
+  "strands_detensioned",
+  "remarks",
+] as const satisfies readonly (keyof DetensionsTable)[];
+
+export type DetensionRow = Omit<
+  Pick<Selectable<DetensionsTable>, (typeof DETENSION_COLUMNS)[number]>,
+  "detensioned_at"
+> & {
+  detensioned_at: Date | string;
+  recorded_by_name: string;
+};
+
+export function detensionFromRow(row: DetensionRow): Detension {
+  return {
+    id: row.id,
+    projectId: row.project_id,
+    pourId: row.pour_id,
+    tendonId: row.tendon_id,
+    dispositionId: row.disposition_id,
+    detensionedAt: new Date(row.detensioned_at).toISOString(),
+    operatorName: row.operator_name,
+    equipmentSetId: row.equipment_set_id,
+    entered: row.entered,
+    releasePressureMPa: row.release_pressure_mpa,
+    strandsDetensioned: row.strands_detensioned,
+    remarks: row.remarks,
+    recordedByName: row.recorded_by_name,
+  };
+}

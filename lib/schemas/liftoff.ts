@@ -1,4 +1,8 @@
+import type { Selectable } from "kysely";
 import { z } from "zod";
+import type { LiftoffChecksTable } from "@/db/types";
+import type { LiftoffJudgement } from "@/lib/stressing/liftoff";
+import type { TendonEnd } from "./domain";
 import { text } from "./text";
 
 /**
@@ -27,3 +31,77 @@ export const liftoffPayloadSchema = z
   })
   .strict();
 export type LiftoffPayload = z.infer<typeof liftoffPayloadSchema>;
+
+/**
+ * A lift-off check as the server stored and judged it, as every reader gets it (the tablet's pull,
+ * the tendon's review page, the stressing report): the one DTO, made from a row by
+ * `liftoffCheckFromRow` only. SI; the pressure as typed beside it.
+ */
+export interface LiftoffCheck extends LiftoffJudgement {
+  id: string;
+  projectId: string;
+  pourId: string;
+  tendonId: string;
+  /** The disposition that ordered it. */
+  dispositionId: string;
+  tendonEnd: TendonEnd;
+  equipmentSetId: string;
+  calibrationId: string;
+  /** The gauge pressure at lift-off as typed, e.g. "5950" with unit psi; the judge's figures beside it. */
+  entered: { pressure: string; unit: "psi" | "MPa" };
+  /** The flag it raised outside the band; null within it. */
+  raisedFlagId: string | null;
+  /** ISO instant, the tablet's time of the check. */
+  checkedAt: string;
+  /** Who made the check (the person signed in on the tablet). */
+  checkedByName: string;
+}
+
+/** The columns of `liftoff_checks` that `liftoffCheckFromRow` reads, beside `users.name as checked_by_name`. */
+export const LIFTOFF_CHECK_COLUMNS = [
+  "id",
+  "project_id",
+  "pour_id",
+  "tendon_id",
+  "disposition_id",
+  "tendon_end",
+  "equipment_set_id",
+  "calibration_id",
+  "entered",
+  "pressure_mpa",
+  "liftoff_force_n",
+  "expected_force_n",
+  "deviation_pct",
+  "band_pct",
+  "within_band",
+  "raised_flag_id",
+  "checked_at",
+] as const satisfies readonly (keyof LiftoffChecksTable)[];
+
+export type LiftoffCheckRow = Omit<
+  Pick<Selectable<LiftoffChecksTable>, (typeof LIFTOFF_CHECK_COLUMNS)[number]>,
+  "checked_at"
+> & { checked_at: Date | string; checked_by_name: string };
+
+export function liftoffCheckFromRow(row: LiftoffCheckRow): LiftoffCheck {
+  return {
+    id: row.id,
+    projectId: row.project_id,
+    pourId: row.pour_id,
+    tendonId: row.tendon_id,
+    dispositionId: row.disposition_id,
+    tendonEnd: row.tendon_end,
+    equipmentSetId: row.equipment_set_id,
+    calibrationId: row.calibration_id,
+    entered: row.entered,
+    pressureMPa: row.pressure_mpa,
+    liftoffForceN: row.liftoff_force_n,
+    expectedForceN: row.expected_force_n,
+    deviationPct: row.deviation_pct,
+    bandPct: row.band_pct,
+    withinBand: row.within_band,
+    raisedFlagId: row.raised_flag_id,
+    checkedAt: new Date(row.checked_at).toISOString(),
+    checkedByName: row.checked_by_name,
+  };
+}

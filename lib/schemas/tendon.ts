@@ -1,8 +1,10 @@
+import type { Selectable } from "kysely";
 import { z } from "zod";
+import type { TendonSegment, TendonsTable } from "@/db/types";
 import { text } from "./text";
 import { ASTM_A416_GRADE_270, findStrandSize, jackingAboveLimit, stressLimits } from "@/lib/elongation";
 import { N_PER_KIP } from "@/lib/units";
-import { STRESSING_ENDS, TENDON_KINDS, type TendonKind } from "./domain";
+import { STRESSING_ENDS, TENDON_KINDS, type StressingEnds, type StressingOrder, type TendonKind } from "./domain";
 
 export const STRAND_SIZES = ASTM_A416_GRADE_270.map((s) => s.designation) as [string, ...string[]];
 export const KIND_LABELS: Record<TendonKind, string> = {
@@ -133,3 +135,71 @@ export const importScheduleSchema = z.strictObject({
     .min(1, "The file is empty.")
     .max(8_000_000, "The file is over 8 MB; split it by pour."),
 });
+
+/**
+ * A tendon as every reader gets it (the tablet's pull, the pour's tendon list, the tendon's basis
+ * and screen): the one DTO, made from a row by `tendonFromRow` only. SI, as scheduled.
+ */
+export interface Tendon {
+  id: string;
+  projectId: string;
+  pourId: string;
+  tag: string;
+  kind: TendonKind;
+  strandSize: string;
+  strandCount: number;
+  /** From end A. */
+  segments: TendonSegment[];
+  ends: StressingEnds;
+  jackGripMm: number | null;
+  strandLotId: string | null;
+  /** The approved shop-drawing elongation of the whole tendon, when the schedule gives one. */
+  shopElongationMm: number | null;
+  /** The member the schedule names; null when the pour is the tendon's group. */
+  member: string | null;
+  /** How the schedule says a two-end tendon is stressed, or null. */
+  stressingOrder: StressingOrder | null;
+  /** The schedule's specified jacking force, N; null: the project's factor of fpu·A. */
+  jackingForceN: number | null;
+}
+
+/** The columns `tendonFromRow` reads: select these (`.select(TENDON_COLUMNS)`). */
+export const TENDON_COLUMNS = [
+  "id",
+  "project_id",
+  "pour_id",
+  "tag",
+  "kind",
+  "strand_size",
+  "strand_count",
+  "segments",
+  "ends",
+  "jack_grip_mm",
+  "strand_lot_id",
+  "shop_elongation_mm",
+  "member",
+  "stressing_order",
+  "jacking_force_n",
+] as const satisfies readonly (keyof TendonsTable)[];
+
+export type TendonRow = Pick<Selectable<TendonsTable>, (typeof TENDON_COLUMNS)[number]>;
+
+export function tendonFromRow(row: TendonRow): Tendon {
+  return {
+    id: row.id,
+    projectId: row.project_id,
+    pourId: row.pour_id,
+    tag: row.tag,
+    kind: row.kind,
+    strandSize: row.strand_size,
+    strandCount: row.strand_count,
+    segments: row.segments,
+    ends: row.ends,
+    jackGripMm: row.jack_grip_mm,
+    strandLotId: row.strand_lot_id,
+    shopElongationMm: row.shop_elongation_mm,
+    member: row.member,
+    stressingOrder: row.stressing_order,
+    jackingForceN: row.jacking_force_n,
+  };
+}

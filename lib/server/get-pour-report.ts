@@ -8,6 +8,18 @@ import type { Decision, FlagKind, FlagStatus, ReviewKind } from "@/lib/schemas/d
 import { ENGINE_VERSION } from "@/lib/elongation";
 import { AppError } from "@/lib/errors";
 import { CALIBRATION_COLUMNS, calibrationFromRow, type Calibration } from "@/lib/schemas/calibration";
+import {
+  EQUIPMENT_SET_COLUMNS,
+  equipmentNamedFromRow,
+  equipmentSetFromRow,
+  type EquipmentNamed,
+  type EquipmentSet,
+} from "@/lib/schemas/equipment";
+import { STRAND_LOT_COLUMNS, strandLotFromRow, type StrandLot } from "@/lib/schemas/strand-lot";
+import { qualified } from "@/lib/schemas/columns";
+import { POUR_COLUMNS, pourFromRow, type Pour } from "@/lib/schemas/pour";
+import { detensionFromRow, type Detension } from "@/lib/schemas/detension";
+import { liftoffCheckFromRow, type LiftoffCheck } from "@/lib/schemas/liftoff";
 import type { StoredResolution } from "@/lib/format/quantities";
 import { findFlagTrail } from "./find-flag-trail";
 import { selectConcreteResults } from "./list-concrete-results";
@@ -48,39 +60,35 @@ export interface ReportFlag {
   }[];
 }
 
-/** A detension the crew recorded on the engineer's order, for the tendon's record sequence. */
-export interface ReportDetension {
-  tendonId: string;
+/** A detension the crew recorded on the engineer's order, for the tendon's record sequence (from the one `Detension`). */
+export interface ReportDetension extends Pick<Detension, "tendonId" | "entered" | "releasePressureMPa" | "remarks"> {
   at: Date;
   operator: string;
   recordedBy: string;
-  equipment: { name: string; jackSerial: string; gaugeSerial: string; pumpSerial: string | null };
-  /** The gauge pressure at release as typed; null when not read. */
-  entered: { pressure: string; unit: "psi" | "MPa" } | null;
-  releasePressureMPa: number | null;
+  equipment: EquipmentNamed;
   strands: number;
-  remarks: string | null;
   /** The disposition that ordered it, "D-0003". */
   dispositionReference: string;
 }
 
-/** A lift-off check the crew made on the engineer's order, for the tendon's record sequence. */
-export interface ReportLiftoff {
-  tendonId: string;
+/** A lift-off check the crew made on the engineer's order, for the tendon's record sequence (from the one `LiftoffCheck`). */
+export interface ReportLiftoff extends Pick<
+  LiftoffCheck,
+  | "tendonId"
+  | "entered"
+  | "pressureMPa"
+  | "liftoffForceN"
+  | "expectedForceN"
+  | "deviationPct"
+  | "bandPct"
+  | "withinBand"
+> {
   end: "A" | "B";
   at: Date;
   /** Who made the check (the person signed in on the tablet). */
   operator: string;
-  equipment: { name: string; jackSerial: string; gaugeSerial: string; pumpSerial: string | null };
+  equipment: EquipmentNamed;
   calibration: { calibratedOn: string; validUntil: string; laboratory: string | null };
-  /** The gauge pressure at lift-off as typed. */
-  entered: { pressure: string; unit: "psi" | "MPa" };
-  pressureMPa: number;
-  liftoffForceN: number;
-  expectedForceN: number;
-  deviationPct: number;
-  bandPct: number;
-  withinBand: boolean;
   /** The disposition that ordered it, "D-0003". */
   dispositionReference: string;
   /** The flag it raised outside the band, "F-0004"; null within it. */
@@ -123,25 +131,14 @@ export interface PourReport {
     jackingForceFactor?: number;
     requiredConcreteMPa: number | null;
   };
-  pour: {
-    id: string;
-    name: string;
-    level: string | null;
-    status: string;
-    plannedStressingDate: string | null;
-    concreteStrengthMPa: number | null;
+  pour: Pick<Pour, "id" | "name" | "level" | "status" | "plannedStressingDate" | "concreteStrengthMPa"> & {
     concreteConfirmedBy: string | null;
     concreteConfirmedAt: Date | null;
   };
-  equipment: {
-    id: string;
-    name: string;
-    jackSerial: string;
-    gaugeSerial: string;
-    pumpSerial: string | null;
+  equipment: (Pick<EquipmentSet, "id" | "name" | "jackSerial" | "gaugeSerial" | "pumpSerial"> & {
     calibrations: Pick<Calibration, "calibratedOn" | "validUntil" | "slope" | "intercept" | "r2" | "laboratory">[];
-  }[];
-  strandLots: { lotNumber: string; strandSize: string; areaMm2: number; modulusMPa: number; breakingLoadN: number }[];
+  })[];
+  strandLots: Pick<StrandLot, "lotNumber" | "strandSize" | "areaMm2" | "modulusMPa" | "breakingLoadN">[];
   tendons: TendonResult[];
   /** Every stressing of every end, in order: the original and each restress, never only the latest. */
   records: PourRecord[];
@@ -187,12 +184,8 @@ export async function getPourReport(
     .leftJoin("users", "users.id", "pours.concrete_confirmed_by")
     .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
     .select([
-      "pours.id",
-      "pours.name",
-      "pours.level",
+      ...qualified("pours", POUR_COLUMNS),
       "pour_states.status",
-      "pours.planned_stressing_date",
-      "pours.concrete_strength_mpa",
       "pours.concrete_confirmed_at",
       "pours.updated_at",
       "users.name as concreteConfirmedBy",
@@ -210,12 +203,10 @@ export async function getPourReport(
       findStandingRelease(db, input),
       selectDetensions(db, input.projectId)
         .select([
-          "detensions.tendon_id",
           "equipment_sets.name",
           "equipment_sets.jack_serial",
           "equipment_sets.gauge_serial",
           "equipment_sets.pump_serial",
-          "users.name as recorded_by_name",
         ])
         .where("detensions.pour_id", "=", input.pourId)
         .orderBy("detensions.detensioned_at")
@@ -223,7 +214,6 @@ export async function getPourReport(
         .execute(),
       selectLiftoffChecks(db, input.projectId)
         .select([
-          "liftoff_checks.tendon_id",
           "equipment_sets.name",
           "equipment_sets.jack_serial",
           "equipment_sets.gauge_serial",
@@ -231,7 +221,6 @@ export async function getPourReport(
           "calibrations.calibrated_on",
           "calibrations.valid_until",
           "calibrations.laboratory",
-          "users.name as checked_by_name",
         ])
         .where("liftoff_checks.pour_id", "=", input.pourId)
         .orderBy("liftoff_checks.checked_at")
@@ -288,7 +277,7 @@ export async function getPourReport(
     setIds.length
       ? db
           .selectFrom("equipment_sets")
-          .select(["id", "name", "jack_serial", "gauge_serial", "pump_serial"])
+          .select(EQUIPMENT_SET_COLUMNS)
           .where("project_id", "=", input.projectId)
           .where("id", "in", setIds)
           .orderBy("name")
@@ -306,7 +295,7 @@ export async function getPourReport(
     lotNumbers.length
       ? db
           .selectFrom("strand_lots")
-          .select(["lot_number", "strand_size", "area_mm2", "modulus_mpa", "breaking_load_n"])
+          .select(STRAND_LOT_COLUMNS)
           .where("project_id", "=", input.projectId)
           .where("lot_number", "in", lotNumbers)
           .orderBy("lot_number")
@@ -329,6 +318,7 @@ export async function getPourReport(
   ];
   const asOf = new Date(Math.max(...moments.map((m) => m.getTime())));
 
+  const shown = pourFromRow(pour);
   // Every date on the report is written in the project's own time zone (the site's), like the screens.
   const timeZone = projectTimeZone(project);
 
@@ -343,24 +333,24 @@ export async function getPourReport(
       requiredConcreteMPa: project.required_concrete_mpa,
     },
     pour: {
-      id: pour.id,
-      name: pour.name,
-      level: pour.level,
-      status: pour.status,
-      plannedStressingDate: pour.planned_stressing_date ? asDay(pour.planned_stressing_date) : null,
-      concreteStrengthMPa: pour.concrete_strength_mpa,
+      id: shown.id,
+      name: shown.name,
+      level: shown.level,
+      status: shown.status,
+      plannedStressingDate: shown.plannedStressingDate,
+      concreteStrengthMPa: shown.concreteStrengthMPa,
       concreteConfirmedBy: pour.concreteConfirmedBy,
       concreteConfirmedAt: pour.concrete_confirmed_at ? new Date(pour.concrete_confirmed_at) : null,
     },
-    equipment: sets.map((s) => ({
-      id: s.id,
-      name: s.name,
-      jackSerial: s.jack_serial,
-      gaugeSerial: s.gauge_serial,
-      pumpSerial: s.pump_serial,
+    equipment: sets.map(equipmentSetFromRow).map(({ id, name, jackSerial, gaugeSerial, pumpSerial }) => ({
+      id,
+      name,
+      jackSerial,
+      gaugeSerial,
+      pumpSerial,
       calibrations: calibrations
         .map(calibrationFromRow)
-        .filter((c) => c.equipmentSetId === s.id)
+        .filter((c) => c.equipmentSetId === id)
         .map(({ calibratedOn, validUntil, slope, intercept, r2, laboratory }) => ({
           calibratedOn,
           validUntil,
@@ -370,53 +360,54 @@ export async function getPourReport(
           laboratory,
         })),
     })),
-    strandLots: lots.map((l) => ({
-      lotNumber: l.lot_number,
-      strandSize: l.strand_size,
-      areaMm2: l.area_mm2,
-      modulusMPa: l.modulus_mpa,
-      breakingLoadN: l.breaking_load_n,
+    strandLots: lots.map(strandLotFromRow).map(({ lotNumber, strandSize, areaMm2, modulusMPa, breakingLoadN }) => ({
+      lotNumber,
+      strandSize,
+      areaMm2,
+      modulusMPa,
+      breakingLoadN,
     })),
     tendons,
     records,
-    detensions: detensions.map((d) => ({
-      tendonId: d.tendon_id,
-      at: new Date(d.detensioned_at),
-      operator: d.operator_name,
-      recordedBy: d.recorded_by_name,
-      equipment: {
-        name: d.name,
-        jackSerial: d.jack_serial,
-        gaugeSerial: d.gauge_serial,
-        pumpSerial: d.pump_serial,
-      },
-      entered: d.entered,
-      releasePressureMPa: d.release_pressure_mpa,
-      strands: d.strands_detensioned,
-      remarks: d.remarks,
-      dispositionReference: dispositionRef.get(d.disposition_id) ?? "D-?",
-    })),
-    liftoffChecks: liftoffs.map((l) => ({
-      tendonId: l.tendon_id,
-      end: l.tendon_end,
-      at: new Date(l.checked_at),
-      operator: l.checked_by_name,
-      equipment: { name: l.name, jackSerial: l.jack_serial, gaugeSerial: l.gauge_serial, pumpSerial: l.pump_serial },
-      calibration: {
-        calibratedOn: asDay(l.calibrated_on),
-        validUntil: asDay(l.valid_until),
-        laboratory: l.laboratory,
-      },
-      entered: l.entered,
-      pressureMPa: l.pressure_mpa,
-      liftoffForceN: l.liftoff_force_n,
-      expectedForceN: l.expected_force_n,
-      deviationPct: l.deviation_pct,
-      bandPct: l.band_pct,
-      withinBand: l.within_band,
-      dispositionReference: dispositionRef.get(l.disposition_id) ?? "D-?",
-      raisedFlagReference: l.raised_flag_id ? (flagRef.get(l.raised_flag_id) ?? "F-?") : null,
-    })),
+    detensions: detensions.map((row) => {
+      const d = detensionFromRow(row);
+      return {
+        tendonId: d.tendonId,
+        at: new Date(d.detensionedAt),
+        operator: d.operatorName,
+        recordedBy: d.recordedByName,
+        equipment: equipmentNamedFromRow(row),
+        entered: d.entered,
+        releasePressureMPa: d.releasePressureMPa,
+        strands: d.strandsDetensioned,
+        remarks: d.remarks,
+        dispositionReference: dispositionRef.get(d.dispositionId) ?? "D-?",
+      };
+    }),
+    liftoffChecks: liftoffs.map((row) => {
+      const l = liftoffCheckFromRow(row);
+      return {
+        tendonId: l.tendonId,
+        end: l.tendonEnd,
+        at: new Date(l.checkedAt),
+        operator: l.checkedByName,
+        equipment: equipmentNamedFromRow(row),
+        calibration: {
+          calibratedOn: asDay(row.calibrated_on),
+          validUntil: asDay(row.valid_until),
+          laboratory: row.laboratory,
+        },
+        entered: l.entered,
+        pressureMPa: l.pressureMPa,
+        liftoffForceN: l.liftoffForceN,
+        expectedForceN: l.expectedForceN,
+        deviationPct: l.deviationPct,
+        bandPct: l.bandPct,
+        withinBand: l.withinBand,
+        dispositionReference: dispositionRef.get(l.dispositionId) ?? "D-?",
+        raisedFlagReference: l.raisedFlagId ? (flagRef.get(l.raisedFlagId) ?? "F-?") : null,
+      };
+    }),
     concreteResults: concrete.map((c) => ({
       specimen: c.specimen,
       strengthMPa: c.strength_mpa,

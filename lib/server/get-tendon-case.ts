@@ -110,7 +110,7 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
   // The ends stressed again since the latest detension: until every stressed end has one, the tendon is held.
   const awaiting = awaitingRestress({
     ends: basis.tendon.ends,
-    detensionedAt: detensions.map((d) => new Date(d.detensioned_at).toISOString()),
+    detensionedAt: detensions.map((d) => d.detensionedAt),
     records: records.map((r) => ({ tendonEnd: r.tendon_end, stressedAt: new Date(r.device_time).toISOString() })),
   });
 

@@ -1,7 +1,7 @@
 import "server-only";
 import type { Db } from "@/db/connect";
-import type { TendonSegment } from "@/db/types";
-import type { StressingEnds, TendonKind } from "@/lib/schemas/domain";
+import type { StrandLot } from "@/lib/schemas/strand-lot";
+import type { Tendon } from "@/lib/schemas/tendon";
 import { forceProfile, isInputError, type Check, type ForceProfile } from "@/lib/elongation";
 import type { CalibrationState } from "@/lib/schemas/calibration";
 import { predictTendon, targetPressureMPa, type TendonPrediction } from "@/lib/stressing/basis";
@@ -24,21 +24,23 @@ export interface TargetForSet {
 
 export interface TendonDetail {
   project: ProjectSettingsView;
-  tendon: {
-    id: string;
-    tag: string;
-    kind: TendonKind;
-    strandSize: string;
-    strandCount: number;
-    segments: TendonSegment[];
-    ends: StressingEnds;
-    jackGripMm: number | null;
-    shopElongationMm: number | null;
-    member: string | null;
-    /** The schedule's specified jacking force, N; null: the project's factor of fpu·A. */
-    jackingForceN: number | null;
+  /** The schedule's part of the one tendon DTO (`Tendon`), with its pour and lot. */
+  tendon: Pick<
+    Tendon,
+    | "id"
+    | "tag"
+    | "kind"
+    | "strandSize"
+    | "strandCount"
+    | "segments"
+    | "ends"
+    | "jackGripMm"
+    | "shopElongationMm"
+    | "member"
+    | "jackingForceN"
+  > & {
     pour: { id: string; name: string; released: boolean };
-    lot: { id: string; lotNumber: string } | null;
+    lot: Pick<StrandLot, "id" | "lotNumber"> | null;
   };
   computed:
     | {

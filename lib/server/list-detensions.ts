@@ -1,10 +1,12 @@
 import "server-only";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
+import { qualified } from "@/lib/schemas/columns";
+import { DETENSION_COLUMNS, detensionFromRow, type Detension } from "@/lib/schemas/detension";
 
 /**
  * A project's detensions as the crew recorded them, with the equipment set and who recorded each,
- * and the columns every reader shows; a reader adds its filter (a tendon, a pour), its own columns
+ * and the columns of the one DTO (`detensionFromRow`); a reader adds its filter (a tendon, a pour), its own columns
  * and its order. Each names the disposition that ordered it.
  */
 export function selectDetensions(db: Kysely<Database>, projectId: string) {
@@ -16,30 +18,26 @@ export function selectDetensions(db: Kysely<Database>, projectId: string) {
         .onRef("equipment_sets.id", "=", "detensions.equipment_set_id")
         .onRef("equipment_sets.project_id", "=", "detensions.project_id"),
     )
-    .select([
-      "detensions.disposition_id",
-      "detensions.detensioned_at",
-      "detensions.operator_name",
-      "detensions.entered",
-      "detensions.release_pressure_mpa",
-      "detensions.strands_detensioned",
-      "detensions.remarks",
-    ])
+    .select([...qualified("detensions", DETENSION_COLUMNS), "users.name as recorded_by_name"])
     .where("detensions.project_id", "=", projectId);
+}
+
+/** A detension on the engineer's tendon page: the one DTO with its set's name. */
+export interface DetensionView extends Detension {
+  equipmentSet: string;
 }
 
 /**
  * A tendon's detensions, oldest first. For the engineer's tendon page, beside the disposition.
  */
-export async function listDetensions(db: Kysely<Database>, input: { projectId: string; tendonId: string }) {
-  return selectDetensions(db, input.projectId)
-    .select([
-      "detensions.id",
-      "detensions.received_at",
-      "users.name as recordedBy",
-      "equipment_sets.name as equipmentSet",
-    ])
+export async function listDetensions(
+  db: Kysely<Database>,
+  input: { projectId: string; tendonId: string },
+): Promise<DetensionView[]> {
+  const rows = await selectDetensions(db, input.projectId)
+    .select("equipment_sets.name as equipmentSet")
     .where("detensions.tendon_id", "=", input.tendonId)
     .orderBy("detensions.detensioned_at")
     .execute();
+  return rows.map((r) => ({ ...detensionFromRow(r), equipmentSet: r.equipmentSet }));
 }

@@ -8,22 +8,15 @@ import {
   type Calibration,
   type CalibrationState,
 } from "@/lib/schemas/calibration";
+import { EQUIPMENT_SET_COLUMNS, equipmentSetFromRow, type EquipmentSet } from "@/lib/schemas/equipment";
 import { dayInZone } from "@/lib/format/dates";
 import { getProjectTimeZone } from "./get-project-time-zone";
 
 /** A calibration on the equipment screen: the one calibration DTO. */
 export type CalibrationView = Calibration;
 
-export interface EquipmentSetView {
-  id: string;
-  name: string;
-  jackSerial: string;
-  gaugeSerial: string;
-  pumpSerial: string | null;
-  jackGripMm: number | null;
-  maxForceN: number | null;
-  /** Draw-in per re-grip, the default of ram-travel records that type none. */
-  drawInMm: number | null;
+/** A set on the equipment screen: the one set DTO with its calibrations and their state today. */
+export interface EquipmentSetView extends EquipmentSet {
   /** The calibration in force today (`pickCalibration`: the newest not retired), the one records use. */
   current: CalibrationView | null;
   state: CalibrationState;
@@ -41,7 +34,7 @@ export async function listEquipmentSets(db: Db, projectId: string, day?: string)
   const [sets, calibrations] = await Promise.all([
     db
       .selectFrom("equipment_sets")
-      .select(["id", "name", "jack_serial", "gauge_serial", "pump_serial", "jack_grip_mm", "max_force_n", "draw_in_mm"])
+      .select(EQUIPMENT_SET_COLUMNS)
       .where("project_id", "=", projectId)
       .orderBy("name")
       .execute(),
@@ -57,14 +50,7 @@ export async function listEquipmentSets(db: Db, projectId: string, day?: string)
     const history: CalibrationView[] = calibrations.filter((c) => c.equipment_set_id === s.id).map(calibrationFromRow);
     const current = pickCalibration(history, today);
     return {
-      id: s.id,
-      name: s.name,
-      jackSerial: s.jack_serial,
-      gaugeSerial: s.gauge_serial,
-      pumpSerial: s.pump_serial,
-      jackGripMm: s.jack_grip_mm,
-      maxForceN: s.max_force_n,
-      drawInMm: s.draw_in_mm,
+      ...equipmentSetFromRow(s),
       current,
       state: calibrationState(current?.validUntil ?? null, today),
       history,

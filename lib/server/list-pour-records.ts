@@ -7,6 +7,7 @@ import type { Database } from "@/db/types";
 import type { ReadingMethod, TendonEnd, Verdict } from "@/lib/schemas/domain";
 import { forceFromPressure, pressureForForce } from "@/lib/elongation";
 import { pickCalibration } from "@/lib/schemas/calibration";
+import { equipmentNamedFromRow, type EquipmentNamed } from "@/lib/schemas/equipment";
 
 /**
  * Every stressing of every tendon end of a pour, in the order it happened: the original and each
@@ -30,7 +31,7 @@ export interface PourRecord {
   deviceTime: Date;
   deviceTimeZone: string;
   operator: string;
-  equipment: { name: string; jackSerial: string; gaugeSerial: string; pumpSerial: string | null };
+  equipment: EquipmentNamed;
   calibration: {
     calibratedOn: string;
     validUntil: string;
@@ -191,7 +192,7 @@ export async function listPourRecords(
       "records.device_time_zone",
       "records.restress_of_disposition_id",
       "users.name as operator",
-      "equipment_sets.name as setName",
+      "equipment_sets.name",
       "equipment_sets.jack_serial",
       "equipment_sets.gauge_serial",
       "equipment_sets.pump_serial",
@@ -326,7 +327,7 @@ export async function listPourRecords(
       deviceTime: new Date(r.device_time),
       deviceTimeZone: r.device_time_zone,
       operator: r.operator,
-      equipment: { name: r.setName, jackSerial: r.jack_serial, gaugeSerial: r.gauge_serial, pumpSerial: r.pump_serial },
+      equipment: equipmentNamedFromRow(r),
       calibration: cal
         ? {
             calibratedOn: cal.calibratedOn,

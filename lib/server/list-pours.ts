@@ -1,14 +1,10 @@
 import "server-only";
 import type { Db } from "@/db/connect";
-import type { PourStatus } from "@/lib/schemas/domain";
+import { qualified } from "@/lib/schemas/columns";
+import { POUR_COLUMNS, pourFromRow, type Pour } from "@/lib/schemas/pour";
 
-export interface PourSummary {
-  id: string;
-  name: string;
-  level: string | null;
-  areaM2: number | null;
-  plannedStressingDate: string | null;
-  status: PourStatus;
+/** A pour on the project's pour list: the one pour DTO with its count of tendons. */
+export interface PourSummary extends Pour {
   tendonCount: number;
 }
 
@@ -18,11 +14,7 @@ export async function listPours(db: Db, projectId: string): Promise<PourSummary[
     .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
     .leftJoin("tendons", (j) => j.onRef("tendons.pour_id", "=", "pours.id").on("tendons.project_id", "=", projectId))
     .select((eb) => [
-      "pours.id",
-      "pours.name",
-      "pours.level",
-      "pours.area_m2",
-      "pours.planned_stressing_date",
+      ...qualified("pours", POUR_COLUMNS),
       "pour_states.status",
       eb.fn.count<number>("tendons.id").as("tendon_count"),
     ])
@@ -32,12 +24,7 @@ export async function listPours(db: Db, projectId: string): Promise<PourSummary[
     .orderBy("pours.name")
     .execute();
   return rows.map((r) => ({
-    id: r.id,
-    name: r.name,
-    level: r.level,
-    areaM2: r.area_m2,
-    plannedStressingDate: r.planned_stressing_date,
-    status: r.status,
+    ...pourFromRow(r),
     tendonCount: Number(r.tendon_count),
   }));
 }

@@ -1,14 +1,12 @@
 import "server-only";
 import type { Db } from "@/db/connect";
+import { qualified } from "@/lib/schemas/columns";
+import { STRAND_LOT_COLUMNS, strandLotFromRow, type StrandLot } from "@/lib/schemas/strand-lot";
 import { DEFAULT_STRAND_MODULUS_MPA, findStrandSize } from "@/lib/elongation";
 
-export interface StrandLotView {
-  id: string;
-  lotNumber: string;
-  strandSize: string;
-  areaMm2: number;
-  modulusMPa: number;
-  breakingLoadN: number;
+/** A lot on the lot list: the one lot DTO with its certificate on file, its use and its change against nominal. */
+export interface StrandLotView extends StrandLot {
+  /** The mill certificate, when it is stored. */
   certificateAttachmentId: string | null;
   certificateName: string | null;
   tendonCount: number;
@@ -16,12 +14,9 @@ export interface StrandLotView {
   againstNominal: { areaPct: number; modulusPct: number; areaTimesModulusPct: number; breakingPct: number } | null;
 }
 
-export function againstNominal(lot: {
-  strandSize: string;
-  areaMm2: number;
-  modulusMPa: number;
-  breakingLoadN: number;
-}): StrandLotView["againstNominal"] {
+export function againstNominal(
+  lot: Pick<StrandLot, "strandSize" | "areaMm2" | "modulusMPa" | "breakingLoadN">,
+): StrandLotView["againstNominal"] {
   const nominal = findStrandSize(lot.strandSize);
   if (!nominal) return null;
   const e = DEFAULT_STRAND_MODULUS_MPA.aashto;
@@ -44,12 +39,7 @@ export async function listStrandLots(db: Db, projectId: string): Promise<StrandL
         .on("attachments.status", "=", "stored"),
     )
     .select((eb) => [
-      "strand_lots.id",
-      "strand_lots.lot_number",
-      "strand_lots.strand_size",
-      "strand_lots.area_mm2",
-      "strand_lots.modulus_mpa",
-      "strand_lots.breaking_load_n",
+      ...qualified("strand_lots", STRAND_LOT_COLUMNS),
       "attachments.id as attachment_id",
       "attachments.original_name",
       eb
@@ -63,15 +53,8 @@ export async function listStrandLots(db: Db, projectId: string): Promise<StrandL
     .orderBy("strand_lots.lot_number")
     .execute();
   return rows.map((r) => {
-    const lot = {
-      strandSize: r.strand_size,
-      areaMm2: r.area_mm2,
-      modulusMPa: r.modulus_mpa,
-      breakingLoadN: r.breaking_load_n,
-    };
+    const lot = strandLotFromRow(r);
     return {
-      id: r.id,
-      lotNumber: r.lot_number,
       ...lot,
       certificateAttachmentId: r.attachment_id,
       certificateName: r.original_name,

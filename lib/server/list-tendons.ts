@@ -1,28 +1,16 @@
 import "server-only";
 import type { Db } from "@/db/connect";
-import type { TendonSegment } from "@/db/types";
-import type { StressingEnds, TendonKind, Verdict } from "@/lib/schemas/domain";
+import type { Verdict } from "@/lib/schemas/domain";
+import { qualified } from "@/lib/schemas/columns";
+import { TENDON_COLUMNS, tendonFromRow, type Tendon } from "@/lib/schemas/tendon";
 import { AppError } from "@/lib/errors";
 import { predictTendon, projectBasisFromRow, targetPressureMPa } from "@/lib/stressing/basis";
 import { listEquipmentSets } from "./list-equipment-sets";
 
-export interface TendonRow {
-  id: string;
-  tag: string;
-  kind: TendonKind;
-  strandSize: string;
-  strandCount: number;
-  segments: TendonSegment[];
-  ends: StressingEnds;
-  jackGripMm: number | null;
-  shopElongationMm: number | null;
+/** A tendon on the pour's list: the one tendon DTO with its lot, length, prediction, targets and latest verdict. */
+export interface TendonListItem extends Tendon {
+  /** The lot number, or null. */
   strandLot: string | null;
-  /** The member the schedule names, or null. */
-  member: string | null;
-  /** How the schedule says the two-end tendon is stressed, or null. */
-  stressingOrder: "sequential" | "simultaneous" | null;
-  /** The schedule's specified jacking force, N, or null (the project's factor of fpu·A). */
-  jackingForceN: number | null;
   lengthMm: number;
   /** The prediction on the project's basis and the tendon's lot; null when the schedule cannot be computed. */
   predictedMm: number | null;
@@ -39,7 +27,7 @@ export interface TendonRow {
 export async function listTendons(
   db: Db,
   input: { projectId: string; pourId: string },
-): Promise<{ pour: { id: string; name: string }; tendons: TendonRow[] }> {
+): Promise<{ pour: { id: string; name: string }; tendons: TendonListItem[] }> {
   const pour = await db
     .selectFrom("pours")
     .select(["id", "name"])
@@ -83,18 +71,7 @@ export async function listTendons(
       j.onRef("strand_lots.id", "=", "tendons.strand_lot_id").on("strand_lots.project_id", "=", input.projectId),
     )
     .select([
-      "tendons.id",
-      "tendons.tag",
-      "tendons.kind",
-      "tendons.strand_size",
-      "tendons.strand_count",
-      "tendons.segments",
-      "tendons.ends",
-      "tendons.jack_grip_mm",
-      "tendons.shop_elongation_mm",
-      "tendons.member",
-      "tendons.stressing_order",
-      "tendons.jacking_force_n",
+      ...qualified("tendons", TENDON_COLUMNS),
       "strand_lots.lot_number",
       "strand_lots.area_mm2",
       "strand_lots.modulus_mpa",
@@ -107,43 +84,22 @@ export async function listTendons(
   return {
     pour,
     tendons: rows.map((r) => {
+      const tendon = tendonFromRow(r);
       let prediction: ReturnType<typeof predictTendon> | null = null;
       try {
         const lot =
           r.area_mm2 && r.modulus_mpa && r.breaking_load_n
             ? { areaMm2: r.area_mm2, modulusMPa: r.modulus_mpa, breakingLoadN: r.breaking_load_n }
             : null;
-        prediction = predictTendon({
-          project: basis,
-          tendon: {
-            strandSize: r.strand_size,
-            strandCount: r.strand_count,
-            segments: r.segments,
-            ends: r.ends,
-            jackGripMm: r.jack_grip_mm,
-            jackingForceN: r.jacking_force_n,
-          },
-          lot,
-        });
+        prediction = predictTendon({ project: basis, tendon, lot });
       } catch {
         // A schedule row the engine refuses shows no prediction here; the tendon's page says why.
       }
       const evaluation = latest.get(r.id);
       return {
-        id: r.id,
-        tag: r.tag,
-        kind: r.kind,
-        strandSize: r.strand_size,
-        strandCount: r.strand_count,
-        segments: r.segments,
-        ends: r.ends,
-        jackGripMm: r.jack_grip_mm,
-        shopElongationMm: r.shop_elongation_mm,
+        ...tendon,
         strandLot: r.lot_number,
-        member: r.member,
-        stressingOrder: r.stressing_order,
-        jackingForceN: r.jacking_force_n,
-        lengthMm: r.segments.reduce((s, x) => s + x.lengthMm, 0),
+        lengthMm: tendon.segments.reduce((s, x) => s + x.lengthMm, 0),
         predictedMm: prediction?.predictedMm ?? null,
         targets: sets
           .filter((s) => s.current)

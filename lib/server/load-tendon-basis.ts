@@ -1,7 +1,8 @@
 import "server-only";
 import { sql, type Kysely, type QueryCreator } from "kysely";
 import type { Database } from "@/db/types";
-import type { TendonKind } from "@/lib/schemas/domain";
+import type { StrandLot } from "@/lib/schemas/strand-lot";
+import type { Tendon } from "@/lib/schemas/tendon";
 import { AppError } from "@/lib/errors";
 import { projectBasisFromRow, type LotBasis, type ProjectBasis, type TendonBasis } from "@/lib/stressing/basis";
 import type { DisplayUnits, StoredResolution } from "@/lib/format/quantities";
@@ -25,15 +26,9 @@ export interface LoadedTendon {
     /** The pour's state (planned, stressing, stressed, released): read by `loadTendonBasis` only. */
     status?: string;
   };
-  tendon: TendonBasis & {
-    id: string;
-    tag: string;
-    kind: TendonKind;
-    shopElongationMm: number | null;
-    /** The member the schedule names; null when the pour is the tendon's group. */
-    member?: string | null;
-  };
-  lot: (LotBasis & { id: string; lotNumber: string }) | null;
+  /** The part of the one tendon DTO (`Tendon`) the computation and the screens read. */
+  tendon: TendonBasis & Pick<Tendon, "id" | "tag" | "kind" | "shopElongationMm"> & Partial<Pick<Tendon, "member">>;
+  lot: (LotBasis & Pick<StrandLot, "id" | "lotNumber">) | null;
 }
 
 /**

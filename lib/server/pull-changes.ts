@@ -6,6 +6,13 @@ import type { Database } from "@/db/types";
 import type { SessionUser } from "@/lib/auth/session";
 import type { PullResponse } from "@/lib/schemas/sync";
 import { CALIBRATION_COLUMNS, calibrationFromRow } from "@/lib/schemas/calibration";
+import { EQUIPMENT_SET_COLUMNS, equipmentSetFromRow } from "@/lib/schemas/equipment";
+import { STRAND_LOT_COLUMNS, strandLotFromRow } from "@/lib/schemas/strand-lot";
+import { TENDON_COLUMNS, tendonFromRow } from "@/lib/schemas/tendon";
+import { qualified } from "@/lib/schemas/columns";
+import { POUR_COLUMNS, pourFromRow } from "@/lib/schemas/pour";
+import { DETENSION_COLUMNS, detensionFromRow } from "@/lib/schemas/detension";
+import { LIFTOFF_CHECK_COLUMNS, liftoffCheckFromRow } from "@/lib/schemas/liftoff";
 import { storedWireBreaks } from "@/lib/schemas/record";
 import { recordingProjectIds } from "./require-recorder";
 
@@ -79,45 +86,14 @@ export async function pullChanges(
       const liftoffChecksRead = trx
         .selectFrom("liftoff_checks")
         .innerJoin("users", "users.id", "liftoff_checks.checked_by")
-        .select([
-          "liftoff_checks.id",
-          "liftoff_checks.project_id",
-          "liftoff_checks.pour_id",
-          "liftoff_checks.tendon_id",
-          "liftoff_checks.disposition_id",
-          "liftoff_checks.tendon_end",
-          "liftoff_checks.equipment_set_id",
-          "liftoff_checks.entered",
-          "liftoff_checks.pressure_mpa",
-          "liftoff_checks.liftoff_force_n",
-          "liftoff_checks.expected_force_n",
-          "liftoff_checks.deviation_pct",
-          "liftoff_checks.band_pct",
-          "liftoff_checks.within_band",
-          "liftoff_checks.checked_at",
-          "users.name as checked_by_name",
-        ])
+        .select([...qualified("liftoff_checks", LIFTOFF_CHECK_COLUMNS), "users.name as checked_by_name"])
         .where(changedIn("liftoff_checks", scope))
         .execute();
       // Detensions as the crew reported them (lib/server/record-detension.ts).
       const detensionsRead = trx
         .selectFrom("detensions")
         .innerJoin("users", "users.id", "detensions.recorded_by")
-        .select([
-          "detensions.id",
-          "detensions.project_id",
-          "detensions.pour_id",
-          "detensions.tendon_id",
-          "detensions.disposition_id",
-          "detensions.detensioned_at",
-          "detensions.operator_name",
-          "detensions.equipment_set_id",
-          "detensions.entered",
-          "detensions.release_pressure_mpa",
-          "detensions.strands_detensioned",
-          "detensions.remarks",
-          "users.name as recorded_by_name",
-        ])
+        .select([...qualified("detensions", DETENSION_COLUMNS), "users.name as recorded_by_name"])
         .where(changedIn("detensions", scope))
         .execute();
       // Awaited after the others; a failure then still reaches the caller, never as an unhandled rejection.
@@ -155,12 +131,7 @@ export async function pullChanges(
             .selectFrom("pours")
             .innerJoin("pour_states", "pour_states.pour_id", "pours.id")
             .select([
-              "pours.id",
-              "pours.project_id",
-              "pours.name",
-              "pours.level",
-              "pours.planned_stressing_date",
-              "pours.concrete_strength_mpa",
+              ...qualified("pours", POUR_COLUMNS),
               "pour_states.status",
               "pour_states.released_by_name",
               "pour_states.released_at",
@@ -184,45 +155,16 @@ export async function pullChanges(
               ]),
             )
             .execute(),
-          trx
-            .selectFrom("tendons")
-            .select([
-              "id",
-              "project_id",
-              "pour_id",
-              "tag",
-              "kind",
-              "strand_size",
-              "strand_count",
-              "segments",
-              "ends",
-              "jack_grip_mm",
-              "strand_lot_id",
-              "shop_elongation_mm",
-              "stressing_order",
-              "jacking_force_n",
-            ])
-            .where(changedIn("tendons", scope))
-            .orderBy("tag")
-            .execute(),
+          trx.selectFrom("tendons").select(TENDON_COLUMNS).where(changedIn("tendons", scope)).orderBy("tag").execute(),
           trx
             .selectFrom("strand_lots")
-            .select(["id", "project_id", "lot_number", "strand_size", "area_mm2", "modulus_mpa", "breaking_load_n"])
+            .select(STRAND_LOT_COLUMNS)
             .where("project_id", "in", projectIds)
             .where(since("change_xid", cursor))
             .execute(),
           trx
             .selectFrom("equipment_sets")
-            .select([
-              "id",
-              "project_id",
-              "name",
-              "jack_serial",
-              "gauge_serial",
-              "jack_grip_mm",
-              "max_force_n",
-              "draw_in_mm",
-            ])
+            .select(EQUIPMENT_SET_COLUMNS)
             .where("project_id", "in", projectIds)
             .where(since("change_xid", cursor))
             .orderBy("name")
@@ -358,13 +300,7 @@ export async function pullChanges(
           requiredConcreteMPa: p.required_concrete_mpa,
         })),
         pours: pours.map((p) => ({
-          id: p.id,
-          projectId: p.project_id,
-          name: p.name,
-          level: p.level,
-          plannedStressingDate: p.planned_stressing_date,
-          concreteStrengthMPa: p.concrete_strength_mpa,
-          status: p.status,
+          ...pourFromRow(p),
           release:
             p.released_by_name && p.released_at
               ? {
@@ -382,41 +318,9 @@ export async function pullChanges(
                 }
               : null,
         })),
-        tendons: tendons.map((t) => ({
-          id: t.id,
-          projectId: t.project_id,
-          pourId: t.pour_id,
-          tag: t.tag,
-          kind: t.kind,
-          strandSize: t.strand_size,
-          strandCount: t.strand_count,
-          segments: t.segments,
-          ends: t.ends,
-          jackGripMm: t.jack_grip_mm,
-          strandLotId: t.strand_lot_id,
-          shopElongationMm: t.shop_elongation_mm,
-          stressingOrder: t.stressing_order,
-          jackingForceN: t.jacking_force_n,
-        })),
-        strandLots: lots.map((l) => ({
-          id: l.id,
-          projectId: l.project_id,
-          lotNumber: l.lot_number,
-          strandSize: l.strand_size,
-          areaMm2: l.area_mm2,
-          modulusMPa: l.modulus_mpa,
-          breakingLoadN: l.breaking_load_n,
-        })),
-        equipmentSets: sets.map((s) => ({
-          id: s.id,
-          projectId: s.project_id,
-          name: s.name,
-          jackSerial: s.jack_serial,
-          gaugeSerial: s.gauge_serial,
-          jackGripMm: s.jack_grip_mm,
-          maxForceN: s.max_force_n,
-          drawInMm: s.draw_in_mm,
-        })),
+        tendons: tendons.map(tendonFromRow),
+        strandLots: lots.map(strandLotFromRow),
+        equipmentSets: sets.map(equipmentSetFromRow),
         calibrations: calibrations.map(calibrationFromRow),
         records: records.map((r) => ({
           id: r.id,
@@ -480,39 +384,8 @@ export async function pullChanges(
           cutByName: c.cut_by_name,
           heldReasons: c.held_reasons,
         })),
-        liftoffChecks: liftoffChecks.map((c) => ({
-          id: c.id,
-          projectId: c.project_id,
-          pourId: c.pour_id,
-          tendonId: c.tendon_id,
-          dispositionId: c.disposition_id,
-          tendonEnd: c.tendon_end,
-          equipmentSetId: c.equipment_set_id,
-          entered: c.entered,
-          pressureMPa: c.pressure_mpa,
-          liftoffForceN: c.liftoff_force_n,
-          expectedForceN: c.expected_force_n,
-          deviationPct: c.deviation_pct,
-          bandPct: c.band_pct,
-          withinBand: c.within_band,
-          checkedAt: new Date(c.checked_at).toISOString(),
-          checkedByName: c.checked_by_name,
-        })),
-        detensions: detensions.map((d) => ({
-          id: d.id,
-          projectId: d.project_id,
-          pourId: d.pour_id,
-          tendonId: d.tendon_id,
-          dispositionId: d.disposition_id,
-          detensionedAt: new Date(d.detensioned_at).toISOString(),
-          operatorName: d.operator_name,
-          equipmentSetId: d.equipment_set_id,
-          entered: d.entered,
-          releasePressureMPa: d.release_pressure_mpa,
-          strandsDetensioned: d.strands_detensioned,
-          remarks: d.remarks,
-          recordedByName: d.recorded_by_name,
-        })),
+        liftoffChecks: liftoffChecks.map(liftoffCheckFromRow),
+        detensions: detensions.map(detensionFromRow),
         removed: removed.map((r) => ({ table: r.table_name, id: r.row_id })),
         unavailable,
       };

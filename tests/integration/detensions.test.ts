@@ -263,7 +263,7 @@ describe("the office and the stressing report", () => {
 
     const office = await getTendonCase(t.db, { projectId: w.projectId, tendonId: held.id });
     expect(office.detensions).toHaveLength(1);
-    expect(office.detensions[0]!.disposition_id).toBe(held.dispositionId);
+    expect(office.detensions[0]!.dispositionId).toBe(held.dispositionId);
     expect(office.awaitingRestress).toEqual(["A"]);
     expect((await getTendonCase(t.db, { projectId: w.projectId, tendonId: restressed.id })).awaitingRestress).toEqual(
       [],
