@@ -2,7 +2,7 @@
 
 import type { SignInOptions, SignInResponse } from "next-auth/react";
 import { useRouter } from "next/navigation";
-import { useState } from "react";
+import { useState, useSyncExternalStore } from "react";
 import { FormField } from "@/components/ui/form-field";
 import { FormMessage } from "@/components/ui/form-message";
 
@@ -17,8 +17,17 @@ async function signIn(provider: "credentials" | "email", options: SignInOptions)
 const FAILED =
   "That e-mail and password did not open an account. Check both and try again; after several failed tries, sign-in pauses for 15 minutes.";
 
+const noSubscription = () => () => {};
+
 export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string; initialError?: string }) {
   const router = useRouter();
+  // The page paints before its script has run; until then the buttons stay disabled, so a press (or
+  // Enter) cannot send the form the browser's own way, which would put the password in the address.
+  const hydrated = useSyncExternalStore(
+    noSubscription,
+    () => true,
+    () => false,
+  );
   const [error, setError] = useState<string | undefined>(initialError);
   const [busy, setBusy] = useState<"password" | "link" | null>(null);
   const [emailError, setEmailError] = useState<string>();
@@ -52,6 +61,7 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
   return (
     <form
       className="space-y-5"
+      method="post"
       onSubmit={(e) => {
         e.preventDefault();
         void withPassword(new FormData(e.currentTarget));
@@ -69,13 +79,13 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
       />
       <FormField id="password" name="password" type="password" label="Password" autoComplete="current-password" />
       <div className="flex flex-wrap gap-3">
-        <button type="submit" className="btn-primary" disabled={busy !== null}>
+        <button type="submit" className="btn-primary" disabled={!hydrated || busy !== null}>
           {busy === "password" ? "Signing in…" : "Sign in"}
         </button>
         <button
           type="button"
           className="btn-quiet"
-          disabled={busy !== null}
+          disabled={!hydrated || busy !== null}
           onClick={(e) => void withLink(new FormData(e.currentTarget.form ?? undefined))}
         >
           {busy === "link" ? "Sending…" : "E-mail me a sign-in link"}

@@ -2,15 +2,24 @@
 
 import Link from "next/link";
 import { useEffect, useState } from "react";
-import { fieldDb } from "@/lib/offline/db";
-import { outboxStatus, type OutboxStatus } from "@/lib/offline/outbox";
+import type { OutboxStatus } from "@/lib/offline/outbox";
+
+// The tablet's database code (Dexie, about 30 KB gzip) loads after the page has painted, and not
+// at all with a prefetch of this page from a link on another office screen.
+async function readOutbox(): Promise<OutboxStatus> {
+  const [{ fieldDb }, { outboxStatus }] = await Promise.all([
+    import("@/lib/offline/db"),
+    import("@/lib/offline/outbox"),
+  ]);
+  return outboxStatus(fieldDb());
+}
 
 /** What this tablet still holds for the server, read from its own database. */
 export function DeviceOutbox() {
   const [status, setStatus] = useState<OutboxStatus | null | "unavailable">(null);
   useEffect(() => {
     let live = true;
-    outboxStatus(fieldDb())
+    readOutbox()
       .then((s) => live && setStatus(s))
       .catch(() => live && setStatus("unavailable"));
     return () => {

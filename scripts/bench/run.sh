@@ -77,7 +77,7 @@ bench_step explain 300 node_modules/.bin/tsx --conditions=react-server --import 
 bench_step load 720 node_modules/.bin/tsx scripts/bench/load.ts
 bench_step latency 300 node_modules/.bin/tsx scripts/bench/latency.ts
 bench_step save-latency 600 node_modules/.bin/tsx scripts/bench/save-latency.ts
-bench_step lighthouse 420 node_modules/.bin/tsx scripts/bench/lighthouse.ts
+bench_step lighthouse 900 node_modules/.bin/tsx scripts/bench/lighthouse.ts
 bench_step offline 180 node_modules/.bin/tsx scripts/bench/offline-start.ts
 
 echo

@@ -22,6 +22,17 @@ test.describe("signing in", () => {
     });
   }
 
+  test("Today reads what this tablet holds, and Sign out in the navigation ends the session", async ({ page }) => {
+    // Both load code on demand (the tablet's database, next-auth's client): neither is in the first load.
+    await signInWithPassword(page, PEOPLE.other);
+    await expect(page.getByTestId("device-outbox")).toContainText("On this tablet: 0 records waiting to sync");
+    await page.getByRole("navigation", { name: "Main" }).getByRole("button", { name: "Sign out" }).click();
+    await expect(page).toHaveURL(/\/sign-in/);
+    expect((await page.request.get("/api/me")).status()).toBe(401);
+    await page.goto("/home");
+    await expect(page).toHaveURL(/\/sign-in/);
+  });
+
   test("a wrong password gets the generic message and no session", async ({ page }) => {
     await signInWithPassword(page, PEOPLE.crew, "not-the-password");
     await expect(page.locator('p[role="alert"]')).toContainText("did not open an account");
