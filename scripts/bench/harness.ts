@@ -76,15 +76,38 @@ export async function makeDatabase(
   };
 }
 
+/** The process groups of the children still running (app servers, dispatchers). */
+const running = new Set<number>();
+
+function stopGroup(pid: number): boolean {
+  running.delete(pid);
+  try {
+    process.kill(-pid, "SIGTERM");
+    return true;
+  } catch {
+    return false; // already gone
+  }
+}
+
+// A step stopped by run.sh's time limit (SIGTERM) or by hand (SIGINT) stops its children too: they
+// run in their own process groups, so they would otherwise keep their ports for the next step.
+for (const signal of ["SIGTERM", "SIGINT"] as const) {
+  process.once(signal, () => {
+    for (const pid of [...running]) stopGroup(pid);
+    process.exit(signal === "SIGTERM" ? 143 : 130);
+  });
+}
+process.once("exit", () => {
+  for (const pid of [...running]) stopGroup(pid);
+});
+
 /** A stop function for a child started in its own process group: TERM, then wait for it (5 s at most). */
 function stopper(child: ChildProcess): () => Promise<void> {
   const exited = new Promise<void>((resolve) => child.once("exit", () => resolve()));
+  if (child.pid) running.add(child.pid);
+  child.once("exit", () => running.delete(child.pid!));
   return async () => {
-    try {
-      process.kill(-child.pid!, "SIGTERM");
-    } catch {
-      return; // already gone
-    }
+    if (!stopGroup(child.pid!)) return;
     await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))]);
   };
 }
