@@ -15,7 +15,7 @@ import { screenshot } from "./support";
 // last week's day), so this passes alone and in any order; the day's counts are read here.
 
 test("the inspector signs a day's special-inspection report and downloads its PDF and CSV", async ({ page }) => {
-  test.setTimeout(180_000);
+  test.setTimeout(300_000);
   // A pour of this spec's own, stressed today and read short: the engineer orders a lift-off check
   // and the crew's tablet sends it, so today's report has a lift-off check to list.
   const stamp = Date.now().toString(36);

@@ -43,11 +43,10 @@ const SCREEN_COLUMNS: DailyRecordColumn[] = [
   "Predicted (Tautline)",
   "Verdict",
 ];
-/** Short figures that read badly when wrapped. */
+/** Short figures that read badly when wrapped (a lift-off check's or a detension's "Stressing" wraps). */
 const NO_WRAP = new Set<DailyRecordColumn>([
   "Pour",
   "Tendon",
-  "Stressing",
   "Stressed",
   "Final pressure",
   "Measured",
