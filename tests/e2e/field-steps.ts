@@ -2,7 +2,7 @@ import { expect, type Page } from "@playwright/test";
 import type { AvailablePour, PullResponse } from "@/lib/schemas/sync";
 import { predictTendon, targetPressureMPa } from "@/lib/stressing/basis";
 import { formatLength, mpaToPsi } from "@/lib/units";
-import { PEOPLE, apiAs } from "./people";
+import { PEOPLE, apiAs, signInWithPassword } from "./people";
 import { makePourFixture } from "./pour-fixture";
 import { screenshot } from "./support";
 
@@ -71,6 +71,19 @@ export async function plan(pourName: string): Promise<Plan> {
     tendons,
     finalPsi: String(Math.round(mpaToPsi(targetPressureMPa(line, jackingForceN)))),
   };
+}
+
+/** Signs the crew in and opens the pour's tendon list on the field log, taking the pour out first. */
+export async function openPourAsCrew(page: Page, pourName: string): Promise<void> {
+  await signInWithPassword(page, PEOPLE.crew);
+  await page.waitForURL(/\/home/);
+  await page.goto("/field");
+  await page.getByTestId("available-pour").filter({ hasText: pourName }).getByRole("button").click();
+  await page
+    .getByTestId("ready-pour")
+    .filter({ hasText: pourName })
+    .getByRole("link", { name: "Open tendon list" })
+    .click();
 }
 
 /** Full-page shots from the top, so the sticky status bar sits where the crew sees it. */

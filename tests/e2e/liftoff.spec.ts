@@ -5,7 +5,8 @@ import { expectedAnchorForceN } from "@/lib/stressing/liftoff";
 import { MPA_PER_PSI } from "@/lib/units";
 import { screenshot } from "./support";
 import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
-import { makePourFixture, pushEndA } from "./pour-fixture";
+import { makePourFixture, pushReadings, outOfBandFlagId, decideFlag } from "./pour-fixture";
+import { openPourAsCrew } from "./field-steps";
 
 /**
  * A lift-off check from order to result: a tendon reads short and is flagged; the engineer orders
@@ -29,20 +30,16 @@ test("the crew records an ordered lift-off check offline and sees the server's r
   const fx = await makePourFixture(POUR, [`LO-${stamp}-1`]);
   const tendon = fx.tendons[0]!;
   const crewApi = await apiAs(PEOPLE.crew);
-  expect((await pushEndA(crewApi, fx, tendon.id, 0.85)).result).toMatchObject({ status: "applied" });
-  const [flag] = await queryDemo<{ id: string }>("select id from flags where tendon_id = $1 and kind = 'out_of_band'", [
-    tendon.id,
-  ]);
-  expect(flag).toBeTruthy();
+  await pushReadings(crewApi, fx, [[tendon.id, 0.85]]);
+  const flagId = await outOfBandFlagId(tendon.id);
   const engineerApi = await apiAs(PEOPLE.engineer);
-  const ordered = await engineerApi.post(`/api/projects/${fx.projectId}/flags/${flag!.id}/dispositions`, {
-    data: {
-      decision: "liftoff_check",
-      reasons: "Short by about 15 %: check the force at the live end by lift-off and report the gauge pressure.",
-      licenceStatement: "Licensed professional engineer (test)",
-    },
-  });
-  expect(ordered.status()).toBe(201);
+  await decideFlag(
+    engineerApi,
+    fx,
+    flagId,
+    "liftoff_check",
+    "Short by about 15 %: check the force at the live end by lift-off and report the gauge pressure.",
+  );
 
   // The pressure a crew would read for a lift-off 2 % above the force expected after seating,
   // to the nearest 10 psi, on the set's calibration.
@@ -61,15 +58,7 @@ test("the crew records an ordered lift-off check offline and sees the server's r
 
   const ctx = await browser.newContext({ viewport: { width: 800, height: 1280 }, hasTouch: true });
   const crew = await ctx.newPage();
-  await signInWithPassword(crew, PEOPLE.crew);
-  await crew.waitForURL(/\/home/);
-  await crew.goto("/field");
-  await crew.getByTestId("available-pour").filter({ hasText: POUR }).getByRole("button").click();
-  await crew
-    .getByTestId("ready-pour")
-    .filter({ hasText: POUR })
-    .getByRole("link", { name: "Open tendon list" })
-    .click();
+  await openPourAsCrew(crew, POUR);
   const rows = crew.getByTestId("tendon-row");
   await expect(rows.first().getByTestId("hold-summary")).toHaveText("Held · lift-off check ordered");
   await rows.first().click();

@@ -1,4 +1,4 @@
-import type { APIRequestContext } from "@playwright/test";
+import { expect, type APIRequestContext } from "@playwright/test";
 import { randomUUID } from "node:crypto";
 import { uuidv7 } from "uuidv7";
 import { pressureForForce } from "@/lib/elongation";
@@ -177,4 +177,38 @@ export async function pushEndA(
   });
   const body = (await res.json()) as { results: { status: string; error?: { code: string; message: string } }[] };
   return { httpStatus: res.status(), result: body.results[0]!, recordId: id };
+}
+
+/** Pushes end A of each tendon at its factor of the prediction (`pushEndA`); each must be applied. */
+export async function pushReadings(
+  crew: APIRequestContext,
+  fx: PourFixture,
+  readings: readonly (readonly [tendonId: string, factor: number])[],
+): Promise<void> {
+  for (const [tendonId, factor] of readings) {
+    expect((await pushEndA(crew, fx, tendonId, factor)).result).toMatchObject({ status: "applied" });
+  }
+}
+
+/** The id of the out-of-band flag a reading raised on the tendon; the test fails if there is none. */
+export async function outOfBandFlagId(tendonId: string): Promise<string> {
+  const [flag] = await queryDemo<{ id: string }>("select id from flags where tendon_id = $1 and kind = 'out_of_band'", [
+    tendonId,
+  ]);
+  expect(flag, "the reading raised an out-of-band flag").toBeTruthy();
+  return flag!.id;
+}
+
+/** The engineer records a decision on the flag, with a licence statement, through the app's route (201). */
+export async function decideFlag(
+  engineer: APIRequestContext,
+  fx: PourFixture,
+  flagId: string,
+  decision: string,
+  reasons: string,
+): Promise<void> {
+  const ordered = await engineer.post(`/api/projects/${fx.projectId}/flags/${flagId}/dispositions`, {
+    data: { decision, reasons, licenceStatement: "Licensed professional engineer (test)" },
+  });
+  expect(ordered.status()).toBe(201);
 }
