@@ -1,11 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/scripts/seed/demo";
 import { addConcreteResult } from "@/lib/server/add-concrete-result";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { listConcreteResults } from "@/lib/server/list-concrete-results";
-import { copyDemoTendons, demoFixture, demoPerson, demoStressing } from "../support/records";
+import { copyDemoTendons, demoPerson, demoStressing, seededDemo, type DemoFixture } from "../support/records";
 import { makePour, makeProject } from "../support/factories";
-import { createTestDatabase, type TestDatabase } from "../support/database";
+import { type TestDatabase } from "../support/database";
 import { MPA_PER_PSI } from "@/lib/units";
 
 // The concrete gate on real PostgreSQL: one concrete flag per pour however many tendons are
@@ -16,14 +15,12 @@ import { MPA_PER_PSI } from "@/lib/units";
 const REQUIRED_MPA = 3000 * MPA_PER_PSI;
 
 let t: TestDatabase;
-let fx: Awaited<ReturnType<typeof demoFixture>>;
+let fx: DemoFixture;
 let inspector: { id: string; name: string };
 let stressing: Awaited<ReturnType<typeof demoStressing>>;
 
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  await seedDemo(t.db);
-  fx = await demoFixture(t.db);
+  ({ t, fx } = await seededDemo());
   inspector = await demoPerson(t.db, "inspector@demo.tautline.test");
   stressing = await demoStressing(t.db, fx);
 });

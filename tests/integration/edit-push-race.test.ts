@@ -1,11 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createDb, type Db } from "@/db/connect";
+import type { Db } from "@/db/connect";
 import { pushOps } from "@/lib/server/push-ops";
 import { updateTendon } from "@/lib/server/update-tendon";
 import { updateStrandLot } from "@/lib/server/update-strand-lot";
 import type { TendonInput } from "@/lib/schemas/tendon";
-import { createTestDatabase, type TestDatabase } from "../support/database";
-import { buildWorld, createOp, type SyncWorld } from "./sync-fixtures";
+import type { TestDatabase } from "../support/database";
+import { syncWorld, createOp, type SyncWorld } from "./sync-fixtures";
 
 // A schedule or strand-lot edit that commits between a pushed record's read and its write: the
 // edit raises the tendons' versions, so the push's guard refuses its first write and the record is
@@ -17,14 +17,9 @@ let app: Db;
 const DEVICE = "tablet-edit-race";
 
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  w = await buildWorld(t.db);
-  app = createDb(t.url, 5, { prepare: true });
+  ({ t, w, app } = await syncWorld(5));
 });
-afterAll(async () => {
-  await app.destroy();
-  await t.drop();
-});
+afterAll(() => t.drop());
 
 async function scheduleOf(tendonId: string): Promise<TendonInput> {
   const r = await t.db.selectFrom("tendons").selectAll().where("id", "=", tendonId).executeTakeFirstOrThrow();

@@ -1,5 +1,4 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/scripts/seed/demo";
 import { correctRecord } from "@/lib/server/correct-record";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { findClockSkews } from "@/lib/server/find-clock-skews";
@@ -8,12 +7,19 @@ import { getHomeSummary } from "@/lib/server/get-home-summary";
 import { getTendonCase } from "@/lib/server/get-tendon-case";
 import { recordDisposition } from "@/lib/server/record-disposition";
 import { releasePour } from "@/lib/server/release-pour";
-import { copyDemoTendons, demoFixture, demoPerson, demoStressing, insertRecord } from "../support/records";
+import {
+  copyDemoTendons,
+  demoPerson,
+  demoStressing,
+  seededDemo,
+  type DemoFixture,
+  insertDemoRecord,
+} from "../support/records";
 import { makePour } from "../support/factories";
-import { createTestDatabase, type TestDatabase } from "../support/database";
+import { type TestDatabase } from "../support/database";
 
 let t: TestDatabase;
-let fx: Awaited<ReturnType<typeof demoFixture>>;
+let fx: DemoFixture;
 let pourId: string;
 let tendons: { id: string; pour_id: string; tag: string }[];
 let inspector: { id: string; name: string };
@@ -22,9 +28,7 @@ let predicted: (tendonId: string) => Promise<number>;
 let stress: Awaited<ReturnType<typeof demoStressing>>["stress"];
 
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  await seedDemo(t.db);
-  fx = await demoFixture(t.db);
+  ({ t, fx } = await seededDemo());
   pourId = (await makePour(t.db, fx.projectId, { name: "Queue test pour", concreteStrengthMPa: 30 })).id;
   tendons = await copyDemoTendons(t.db, { projectId: fx.projectId, pourId }, ["Q-1", "Q-2", "Q-3"]);
   inspector = await demoPerson(t.db, "inspector@demo.tautline.test");
@@ -146,12 +150,8 @@ describe("the review queue lists every record whose time is off, flagged tendon 
     const tendon = await addTendon(pourId, "Q-5");
     // Received two hours ago with a right clock, then corrected in the office now.
     const twoHoursAgo = new Date(Date.now() - 2 * 3600_000);
-    const recordId = await insertRecord(t.db, {
-      projectId: fx.projectId,
+    const recordId = await insertDemoRecord(t.db, fx, {
       tendon,
-      end: "A",
-      equipmentSetId: fx.setA,
-      authorId: fx.crewId,
       measuredMm: await predicted(tendon.id),
       finalPressureMPa: pressure,
       deviceTime: twoHoursAgo.toISOString(),
@@ -183,11 +183,7 @@ describe("the review queue lists every record whose time is off, flagged tendon 
     const { recordId } = await stress(tendon, 1.0, { deviceTime: new Date(Date.now() - 20 * 60_000).toISOString() });
     const listed = async () => (await findClockSkews(t.db, { projectIds: [fx.projectId] })).map((r) => r.recordId);
     expect(await listed()).toContain(recordId);
-    const by = await t.db
-      .selectFrom("users")
-      .select(["id", "name"])
-      .where("email", "=", "engineer@demo.tautline.test")
-      .executeTakeFirstOrThrow();
+    const by = await demoPerson(t.db, "engineer@demo.tautline.test");
     await releasePour(t.db, {
       projectId: fx.projectId,
       pourId: pour.id,

@@ -1,17 +1,16 @@
 import { sql } from "kysely";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/scripts/seed/demo";
 import { addReview } from "@/lib/server/add-review";
 import { correctRecord } from "@/lib/server/correct-record";
 import { findFlags } from "@/lib/server/find-flags";
 import { recordDisposition } from "@/lib/server/record-disposition";
 import { findReleaseBlockers, releasePour } from "@/lib/server/release-pour";
-import { copyDemoTendons, demoFixture, demoPerson, demoStressing } from "../support/records";
+import { copyDemoTendons, demoPerson, demoStressing, seededDemo, type DemoFixture } from "../support/records";
 import { makePour } from "../support/factories";
-import { createTestDatabase, type TestDatabase } from "../support/database";
+import { type TestDatabase } from "../support/database";
 
 let t: TestDatabase;
-let fx: Awaited<ReturnType<typeof demoFixture>>;
+let fx: DemoFixture;
 let pourId: string;
 let tendons: { id: string; pour_id: string; tag: string }[];
 let people: Record<"inspector" | "engineer", { id: string; name: string }>;
@@ -19,9 +18,7 @@ let predicted: (tendonId: string) => Promise<number>;
 let stress: Awaited<ReturnType<typeof demoStressing>>["stress"];
 
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  await seedDemo(t.db);
-  fx = await demoFixture(t.db);
+  ({ t, fx } = await seededDemo());
   // A small pour of our own: two one-end tendons copied from the demo schedule.
   pourId = (await makePour(t.db, fx.projectId, { name: "Review test pour", concreteStrengthMPa: 30 })).id;
   tendons = await copyDemoTendons(t.db, { projectId: fx.projectId, pourId }, ["R-1", "R-2"]);

@@ -5,9 +5,23 @@ import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { judgeStressing } from "@/lib/stressing/judge";
 import { predictTendon } from "@/lib/stressing/basis";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
-import { makeTendons } from "./factories";
+import { seedDemo } from "@/scripts/seed/demo";
+import { createTestDatabase, type TestDatabase } from "./database";
+import { makeTendons, type TendonShape } from "./factories";
 
 /** Fixtures for tests that need stressing records without going through the tablet's sync. */
+
+export type DemoFixture = Awaited<ReturnType<typeof demoFixture>>;
+
+/**
+ * A database of the test file's own, migrated and seeded with the demo project, and the demo's
+ * ids a test starts from. Each file calls it in its beforeAll and drops the database after.
+ */
+export async function seededDemo(): Promise<{ t: TestDatabase; fx: DemoFixture }> {
+  const t = await createTestDatabase({ migrate: true });
+  await seedDemo(t.db);
+  return { t, fx: await demoFixture(t.db) };
+}
 
 export async function demoFixture(db: Db) {
   const project = await db.selectFrom("projects").select(["id"]).where("code", "=", "AYP").executeTakeFirstOrThrow();
@@ -83,6 +97,25 @@ export async function insertRecord(
 }
 
 /**
+ * A record of end A by the demo crew with the demo's Set A (as `insertRecord`); give another end,
+ * set or author where the test is about it.
+ */
+export function insertDemoRecord(
+  db: Db,
+  fx: DemoFixture,
+  input: Omit<Parameters<typeof insertRecord>[1], "projectId" | "end" | "equipmentSetId" | "authorId"> &
+    Partial<Pick<Parameters<typeof insertRecord>[1], "end" | "equipmentSetId" | "authorId">>,
+): Promise<string> {
+  return insertRecord(db, {
+    projectId: fx.projectId,
+    end: "A",
+    equipmentSetId: fx.setA,
+    authorId: fx.crewId,
+    ...input,
+  });
+}
+
+/**
  * The judge's prediction for end A of a one-end tendon as stored now, read the way `method` says:
  * marks after lock-off (net of the anchor set, the default) or ram travel over one stroke (gross
  * plus the strand in a jack of `jackGripMm`); with the set it took off. What a perfect reading
@@ -154,14 +187,15 @@ export async function demoPrediction(db: Db, input: { projectId: string; tendonI
 
 /**
  * Tendons on the given pour shaped like one of the demo schedule's (by default the one-end
- * 2-1-U01: same kind, strands, profile, ends, grip and lot), tagged as given, in that order.
+ * 2-1-U01: same kind, strands, profile, ends, grip and lot) but for `options`, tagged as given, in that order.
  */
 export async function copyDemoTendons(
   db: Db,
   where: { projectId: string; pourId: string },
   tags: readonly string[],
-  templateTag = "2-1-U01",
+  options: Partial<TendonShape> & { templateTag?: string } = {},
 ) {
+  const { templateTag = "2-1-U01", ...changes } = options;
   const template = await db
     .selectFrom("tendons")
     .selectAll()
@@ -176,6 +210,7 @@ export async function copyDemoTendons(
     ends: template.ends,
     jackGripMm: template.jack_grip_mm,
     strandLotId: template.strand_lot_id,
+    ...changes,
   });
 }
 
@@ -185,7 +220,7 @@ export async function copyDemoTendons(
  * elongation (1: a perfect reading) and evaluates it as a sync would; it returns the first end's
  * record id and the evaluation. `record` does the same without the evaluation.
  */
-export async function demoStressing(db: Db, fx: Awaited<ReturnType<typeof demoFixture>>) {
+export async function demoStressing(db: Db, fx: DemoFixture) {
   const template = await fx.tendon("2-1-U01");
   const { jackingForceN } = await demoPrediction(db, { projectId: fx.projectId, tendonId: template.id });
   const pressure = await pressureForForce(db, fx.setA, jackingForceN);
