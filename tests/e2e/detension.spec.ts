@@ -2,7 +2,7 @@ import { expect, test } from "@playwright/test";
 import { screenshot } from "./support";
 import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
 import { makePourFixture, pushEndA, outOfBandFlagId, decideFlag } from "./pour-fixture";
-import { openPourAsCrew } from "./field-steps";
+import { heldTendonOffline } from "./field-steps";
 
 /**
  * A detension from order to office: a tendon reads short and is flagged; the engineer orders a
@@ -64,24 +64,18 @@ test("the crew records an ordered detension offline; the tendon stays held and t
     "select strand_count, ends from tendons where id = $1",
     [tendon.id],
   );
-  const [set] = await queryDemo<{ name: string }>("select name from equipment_sets where id = $1", [fx.setId]);
-
-  const ctx = await browser.newContext({ viewport: { width: 800, height: 1280 }, hasTouch: true });
-  const crew = await ctx.newPage();
-  await openPourAsCrew(crew, POUR);
-  const rows = crew.getByTestId("tendon-row");
-  await expect(rows.first().getByTestId("hold-summary")).toHaveText("Held · detension and restress ordered");
-  await rows.first().click();
-  const panel = crew.getByTestId("hold-panel");
-  await expect(panel.getByTestId("hold-what-to-do")).toContainText("Record the detension");
-  const section = panel.getByTestId("detension");
 
   // The signal goes; the detension is recorded on the tablet all the same.
-  await ctx.setOffline(true);
-  await expect(crew.getByTestId("connection")).toHaveText("No signal");
+  const { ctx, crew, rows, panel } = await heldTendonOffline(
+    browser,
+    POUR,
+    "Held · detension and restress ordered",
+    "Record the detension",
+  );
+  const section = panel.getByTestId("detension");
   await section.getByTestId("detension-open").click();
   const form = section.getByTestId("detension-form");
-  await form.getByRole("radio", { name: new RegExp(set!.name) }).check();
+  await form.getByRole("radio", { name: new RegExp(fx.setName) }).check();
   await form.getByTestId("detension-pressure").fill("1200");
   await form
     .getByTestId("detension-remarks")

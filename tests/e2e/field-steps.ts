@@ -1,4 +1,4 @@
-import { expect, type Page } from "@playwright/test";
+import { expect, type Browser, type Page } from "@playwright/test";
 import type { AvailablePour, PullResponse } from "@/lib/schemas/sync";
 import { predictTendon, targetPressureMPa } from "@/lib/stressing/basis";
 import { formatLength, mpaToPsi } from "@/lib/units";
@@ -84,6 +84,24 @@ export async function openPourAsCrew(page: Page, pourName: string): Promise<void
     .filter({ hasText: pourName })
     .getByRole("link", { name: "Open tendon list" })
     .click();
+}
+
+/**
+ * On a portrait tablet (800 × 1280), the crew opens the pour, whose first tendon is held as
+ * `summary` says; opens that tendon, whose hold panel says `whatToDo`; then the signal goes.
+ */
+export async function heldTendonOffline(browser: Browser, pourName: string, summary: string, whatToDo: string) {
+  const ctx = await browser.newContext({ viewport: { width: 800, height: 1280 }, hasTouch: true });
+  const crew = await ctx.newPage();
+  await openPourAsCrew(crew, pourName);
+  const rows = crew.getByTestId("tendon-row");
+  await expect(rows.first().getByTestId("hold-summary")).toHaveText(summary);
+  await rows.first().click();
+  const panel = crew.getByTestId("hold-panel");
+  await expect(panel.getByTestId("hold-what-to-do")).toContainText(whatToDo);
+  await ctx.setOffline(true);
+  await expect(crew.getByTestId("connection")).toHaveText("No signal");
+  return { ctx, crew, rows, panel };
 }
 
 /** Full-page shots from the top, so the sticky status bar sits where the crew sees it. */

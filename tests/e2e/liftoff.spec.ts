@@ -6,7 +6,7 @@ import { MPA_PER_PSI } from "@/lib/units";
 import { screenshot } from "./support";
 import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
 import { makePourFixture, pushReadings, outOfBandFlagId, decideFlag } from "./pour-fixture";
-import { openPourAsCrew } from "./field-steps";
+import { heldTendonOffline } from "./field-steps";
 
 /**
  * A lift-off check from order to result: a tendon reads short and is flagged; the engineer orders
@@ -54,24 +54,18 @@ test("the crew records an ordered lift-off check offline and sees the server's r
   });
   const expectedN = expectedAnchorForceN(predicted, "A");
   const psi = String(Math.round((pressureForForce(fx.line, expectedN * 1.02) * PSI_PER_MPA) / 10) * 10);
-  const [set] = await queryDemo<{ name: string }>("select name from equipment_sets where id = $1", [fx.setId]);
-
-  const ctx = await browser.newContext({ viewport: { width: 800, height: 1280 }, hasTouch: true });
-  const crew = await ctx.newPage();
-  await openPourAsCrew(crew, POUR);
-  const rows = crew.getByTestId("tendon-row");
-  await expect(rows.first().getByTestId("hold-summary")).toHaveText("Held · lift-off check ordered");
-  await rows.first().click();
-  const panel = crew.getByTestId("hold-panel");
-  await expect(panel.getByTestId("hold-what-to-do")).toContainText("Do a lift-off check");
-  const check = panel.getByTestId("liftoff-check");
 
   // The signal goes; the check is recorded on the tablet all the same.
-  await ctx.setOffline(true);
-  await expect(crew.getByTestId("connection")).toHaveText("No signal");
+  const { ctx, crew, rows, panel } = await heldTendonOffline(
+    browser,
+    POUR,
+    "Held · lift-off check ordered",
+    "Do a lift-off check",
+  );
+  const check = panel.getByTestId("liftoff-check");
   await check.getByTestId("liftoff-open").click();
   const form = check.getByTestId("liftoff-form");
-  await form.getByRole("radio", { name: new RegExp(set!.name) }).check();
+  await form.getByRole("radio", { name: new RegExp(fx.setName) }).check();
   // A pressure beyond what the set was calibrated over is refused, naming the field; nothing is saved.
   await form.getByTestId("liftoff-pressure").fill("20000");
   await form.getByTestId("liftoff-save").click();
