@@ -193,20 +193,7 @@ describe("correcting and retiring a calibration", () => {
     });
 
     // The correction: a new calibration replaces the old, whose figures stay as they were.
-    const corrected = await correctCalibration(t.db, {
-      projectId: fx.projectId,
-      setId,
-      calibrationId: first.calibrationId,
-      by: admin,
-      reason: "Forces were copied from the 2025 certificate; these are the 2026 ones.",
-      values: {
-        calibratedOn: "2026-11-02",
-        validUntil: null,
-        laboratory: null,
-        certificateAttachmentId: null,
-        points: points(5300),
-      },
-    });
+    const corrected = await correctCalibration(t.db, correction);
     expect(corrected.reevaluated).toBe(1);
     const old = await t.db
       .selectFrom("calibrations")
