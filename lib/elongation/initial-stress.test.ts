@@ -189,36 +189,25 @@ describe("totalFromSteps", () => {
   });
 
   it("refuses steps that give no line", () => {
-    expectInputError(
-      () => totalFromSteps({ measuredMm: 96, referenceForceN: 0, steps: [{ forceN: 1, readingMm: 2 }] }),
-      "steps",
-      "too-few",
-    );
-    expectInputError(
-      () =>
-        totalFromSteps({
-          measuredMm: 96,
-          referenceForceN: 0,
-          steps: [
-            { forceN: 20_000, readingMm: 2 },
-            { forceN: 20_000, readingMm: 9 },
-          ],
-        }),
-      "steps",
-      "too-few",
-    );
-    expectInputError(
-      () =>
-        totalFromSteps({
-          measuredMm: 96,
-          referenceForceN: 0,
-          steps: [
-            { forceN: 20_000, readingMm: 9 },
-            { forceN: 40_000, readingMm: 2 },
-          ],
-        }),
-      "steps",
-      "out-of-range",
-    );
+    const cases: [steps: { forceN: number; readingMm: number }[], code: "too-few" | "out-of-range"][] = [
+      [[{ forceN: 1, readingMm: 2 }], "too-few"],
+      [
+        [
+          { forceN: 20_000, readingMm: 2 },
+          { forceN: 20_000, readingMm: 9 },
+        ],
+        "too-few",
+      ],
+      [
+        [
+          { forceN: 20_000, readingMm: 9 },
+          { forceN: 40_000, readingMm: 2 },
+        ],
+        "out-of-range",
+      ],
+    ];
+    for (const [steps, code] of cases) {
+      expectInputError(() => totalFromSteps({ measuredMm: 96, referenceForceN: 0, steps }), "steps", code);
+    }
   });
 });

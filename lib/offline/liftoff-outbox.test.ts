@@ -1,19 +1,12 @@
-import { afterEach, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
+import { tabletDbsClosedAfterEach } from "../../tests/support/tablet-db";
 import type { LiftoffPayload } from "@/lib/schemas/liftoff";
 import type { OpResult } from "@/lib/schemas/sync";
 import { applyPushResults, OutboxWriteError, requeue, saveLiftoffCheck } from "./outbox";
 import { applyPull } from "./reference";
-import { emptyPull, testDb, TEST_USER } from "./test-support";
+import { emptyPull, TEST_USER } from "./test-support";
 
-const opened: { db: { close: () => void } }[] = [];
-function freshDb() {
-  const t = testDb();
-  opened.push(t);
-  return t.db;
-}
-afterEach(() => {
-  for (const t of opened.splice(0)) t.db.close();
-});
+const freshDb = tabletDbsClosedAfterEach();
 
 const PROJECT = "0190a0b0-0000-7000-8000-0000000000a1";
 const POUR = "0190a0b0-0000-7000-8000-0000000000b1";

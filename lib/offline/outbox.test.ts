@@ -1,4 +1,5 @@
-import { afterEach, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
+import { tabletDbsClosedAfterEach } from "../../tests/support/tablet-db";
 import type { OpResult } from "@/lib/schemas/sync";
 import {
   applyPushResults,
@@ -10,17 +11,9 @@ import {
   saveRecord,
   saveTailCuts,
 } from "./outbox";
-import { samplePayload, testDb, TEST_USER } from "./test-support";
+import { samplePayload, TEST_USER } from "./test-support";
 
-const opened: { db: { close: () => void } }[] = [];
-function freshDb() {
-  const t = testDb();
-  opened.push(t);
-  return t.db;
-}
-afterEach(() => {
-  for (const t of opened.splice(0)) t.db.close();
-});
+const freshDb = tabletDbsClosedAfterEach();
 
 describe("saveRecord", () => {
   it("writes the record and its op together, and the op carries the payload as saved", async () => {

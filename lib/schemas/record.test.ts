@@ -13,6 +13,37 @@ import { MM_PER_INCH } from "@/lib/units";
 // 1 psi = 6.894 757 kPa (NIST SP 811, B.8, to seven figures).
 const US: Entered["units"] = { length: "in", pressure: "psi" };
 
+/** What payloadFromForm needs besides the form: a first revision by one crew member, in inches and psi. */
+const ctx = {
+  units: US,
+  projectId: "0190a0b0-0000-7000-8000-0000000000aa",
+  pourId: "0190a0b0-0000-7000-8000-0000000000bb",
+  tendonId: "0190a0b0-0000-7000-8000-0000000000cc",
+  chainId: "0190a0b0-0000-7000-8000-0000000000ee",
+  revision: 1,
+  baseRecordId: null,
+  calibrationId: null,
+  expired: false,
+  authorUserId: "0190a0b0-0000-7000-8000-000000000001",
+  now: new Date("2026-12-02T15:30:00Z"),
+  timeZone: "UTC",
+};
+
+/** A complete form read by marks in inches and psi (end A), with the given boxes changed. */
+function filledForm<T extends object = object>(changes: T = {} as T) {
+  return {
+    ...EMPTY_RECORD_FORM,
+    equipmentSetId: "0190a0b0-0000-7000-8000-0000000000dd",
+    finalPressure: "4200",
+    marksBefore: "0",
+    marksAfter: "4 1/2",
+    ...changes,
+  };
+}
+
+/** The form's own context for a tendon stressed at end A, no correction, no expired set. */
+const formContext = { units: US, expiredSetIds: [] as string[], ends: ["A"] as const, correction: false };
+
 describe("deriveFromEntered", () => {
   it("reads marks in fractional inches and gauge pressure in psi into mm and MPa", () => {
     const { values, problems } = deriveFromEntered(
@@ -68,16 +99,10 @@ describe("deriveFromEntered", () => {
 });
 
 describe("recordFormSchema", () => {
-  const context = { units: US, expiredSetIds: ["set-old"], ends: ["A"] as const, correction: false };
+  const context = { ...formContext, expiredSetIds: ["set-old"] };
 
   it("accepts a complete form", () => {
-    const ok = recordFormSchema({ ...context, ends: ["A"] }).safeParse({
-      ...EMPTY_RECORD_FORM,
-      equipmentSetId: "set-new",
-      finalPressure: "4200",
-      marksBefore: "0",
-      marksAfter: "4 1/2",
-    });
+    const ok = recordFormSchema({ ...context, ends: ["A"] }).safeParse(filledForm({ equipmentSetId: "set-new" }));
     expect(ok.success).toBe(true);
   });
 
@@ -96,13 +121,7 @@ describe("recordFormSchema", () => {
   });
 
   it("wants a reason to go ahead while the pour's concrete is not confirmed, and only then", () => {
-    const form = {
-      ...EMPTY_RECORD_FORM,
-      equipmentSetId: "set-new",
-      finalPressure: "4200",
-      marksBefore: "0",
-      marksAfter: "4 1/2",
-    };
+    const form = filledForm({ equipmentSetId: "set-new" });
     const gated = recordFormSchema({ ...context, concreteUnconfirmed: true });
     const refused = gated.safeParse(form);
     expect(refused.success).toBe(false);
@@ -120,28 +139,7 @@ describe("recordFormSchema", () => {
 });
 
 describe("the reason to go ahead before the concrete is confirmed, in the payload", () => {
-  const form = {
-    ...EMPTY_RECORD_FORM,
-    equipmentSetId: "0190a0b0-0000-7000-8000-0000000000dd",
-    finalPressure: "4200",
-    marksBefore: "0",
-    marksAfter: "4 1/2",
-    concreteGoAhead: "Inspector read the cylinders at 3,200 psi.",
-  };
-  const ctx = {
-    units: US,
-    projectId: "0190a0b0-0000-7000-8000-0000000000aa",
-    pourId: "0190a0b0-0000-7000-8000-0000000000bb",
-    tendonId: "0190a0b0-0000-7000-8000-0000000000cc",
-    chainId: "0190a0b0-0000-7000-8000-0000000000ee",
-    revision: 1,
-    baseRecordId: null,
-    calibrationId: null,
-    expired: false,
-    authorUserId: "0190a0b0-0000-7000-8000-000000000001",
-    now: new Date("2026-12-02T15:30:00Z"),
-    timeZone: "UTC",
-  };
+  const form = filledForm({ concreteGoAhead: "Inspector read the cylinders at 3,200 psi." });
 
   it("travels with the record only while the gate is not met, and the server's schema reads it", () => {
     const gated = payloadFromForm(form, { ...ctx, concreteUnconfirmed: true });
@@ -159,28 +157,7 @@ describe("the reason to go ahead before the concrete is confirmed, in the payloa
 });
 
 describe("the finer second reading", () => {
-  const base = {
-    ...EMPTY_RECORD_FORM,
-    equipmentSetId: "0190a0b0-0000-7000-8000-0000000000dd",
-    finalPressure: "4200",
-    marksBefore: "1",
-    marksAfter: "5 1/2",
-  };
-  const ctx = {
-    units: US,
-    projectId: "0190a0b0-0000-7000-8000-0000000000aa",
-    pourId: "0190a0b0-0000-7000-8000-0000000000bb",
-    tendonId: "0190a0b0-0000-7000-8000-0000000000cc",
-    chainId: "0190a0b0-0000-7000-8000-0000000000ee",
-    revision: 1,
-    baseRecordId: null,
-    calibrationId: null,
-    expired: false,
-    authorUserId: "0190a0b0-0000-7000-8000-000000000001",
-    now: new Date("2026-12-02T15:30:00Z"),
-    timeZone: "UTC",
-  };
-  const formContext = { units: US, expiredSetIds: [], ends: ["A"] as const, correction: false };
+  const base = filledForm({ marksBefore: "1", marksAfter: "5 1/2" });
 
   it("marks: the mark after read again is judged, the first reading kept beside it", () => {
     const payload = payloadFromForm({ ...base, rereadMarksAfter: "5 7/16" }, ctx);
@@ -238,36 +215,17 @@ describe("the finer second reading", () => {
 });
 
 describe("wire breaks: which strand and where", () => {
-  const base = {
-    ...EMPTY_RECORD_FORM,
-    equipmentSetId: "0190a0b0-0000-7000-8000-0000000000dd",
-    finalPressure: "4200",
-    marksBefore: "0",
-    marksAfter: "4 1/2",
+  const base = filledForm({
     wireBreaks: "2",
     wireBreakDetails: [
       { strand: "3", strandNotKnown: false, where: "jack_end" as const },
       { strand: "", strandNotKnown: true, where: "along_length" as const },
     ],
-  };
-  const formContext = { units: US, expiredSetIds: [], ends: ["A"] as const, correction: false, strandCount: 4 };
-  const ctx = {
-    units: US,
-    projectId: "0190a0b0-0000-7000-8000-0000000000aa",
-    pourId: "0190a0b0-0000-7000-8000-0000000000bb",
-    tendonId: "0190a0b0-0000-7000-8000-0000000000cc",
-    chainId: "0190a0b0-0000-7000-8000-0000000000ee",
-    revision: 1,
-    baseRecordId: null,
-    calibrationId: null,
-    expired: false,
-    authorUserId: "0190a0b0-0000-7000-8000-000000000001",
-    now: new Date("2026-12-02T15:30:00Z"),
-    timeZone: "UTC",
-  };
+  });
+  const fourStrands = { ...formContext, strandCount: 4 };
 
   it("travels one entry per broken wire, a strand not known as null", () => {
-    expect(recordFormSchema(formContext).safeParse(base).success).toBe(true);
+    expect(recordFormSchema(fourStrands).safeParse(base).success).toBe(true);
     const payload = payloadFromForm(base, ctx);
     expect(payload.wireBreakDetails).toEqual([
       { strand: 3, where: "jack_end" },
@@ -277,7 +235,7 @@ describe("wire breaks: which strand and where", () => {
   });
 
   it("names the box: a strand the tendon does not have, a strand left blank, a place not chosen", () => {
-    const bad = recordFormSchema(formContext).safeParse({
+    const bad = recordFormSchema(fourStrands).safeParse({
       ...base,
       wireBreakDetails: [
         { strand: "5", strandNotKnown: false, where: "far_end" },
@@ -307,9 +265,7 @@ describe("wire breaks: which strand and where", () => {
 });
 
 describe("gauge steps", () => {
-  const base = {
-    ...EMPTY_RECORD_FORM,
-    equipmentSetId: "0190a0b0-0000-7000-8000-0000000000dd",
+  const base = filledForm({
     initialPressure: "800",
     finalPressure: "4000",
     marksBefore: "1",
@@ -320,22 +276,7 @@ describe("gauge steps", () => {
       { pressure: "", reading: "" },
       { pressure: "2400", reading: "3 1/2" },
     ],
-  };
-  const ctx = {
-    units: US,
-    projectId: "0190a0b0-0000-7000-8000-0000000000aa",
-    pourId: "0190a0b0-0000-7000-8000-0000000000bb",
-    tendonId: "0190a0b0-0000-7000-8000-0000000000cc",
-    chainId: "0190a0b0-0000-7000-8000-0000000000ee",
-    revision: 1,
-    baseRecordId: null,
-    calibrationId: null,
-    expired: false,
-    authorUserId: "0190a0b0-0000-7000-8000-000000000001",
-    now: new Date("2026-12-02T15:30:00Z"),
-    timeZone: "UTC",
-  };
-  const formContext = { units: US, expiredSetIds: [], ends: ["A"] as const, correction: false };
+  });
   const issues = (values: typeof base) => {
     const r = recordFormSchema(formContext).safeParse(values);
     return r.success ? [] : r.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`);
@@ -407,27 +348,7 @@ describe("gauge steps", () => {
 });
 
 describe("the gauge off its target, confirmed", () => {
-  const form = {
-    ...EMPTY_RECORD_FORM,
-    equipmentSetId: "0190a0b0-0000-7000-8000-0000000000dd",
-    finalPressure: "4600",
-    marksBefore: "0",
-    marksAfter: "4 1/2",
-  };
-  const ctx = {
-    units: US,
-    projectId: "0190a0b0-0000-7000-8000-0000000000aa",
-    pourId: "0190a0b0-0000-7000-8000-0000000000bb",
-    tendonId: "0190a0b0-0000-7000-8000-0000000000cc",
-    chainId: "0190a0b0-0000-7000-8000-0000000000ee",
-    revision: 1,
-    baseRecordId: null,
-    calibrationId: null,
-    expired: false,
-    authorUserId: "0190a0b0-0000-7000-8000-000000000001",
-    now: new Date("2026-12-02T15:30:00Z"),
-    timeZone: "UTC",
-  };
+  const form = filledForm({ finalPressure: "4600" });
 
   it("travels as a field of the record, not in the remarks", () => {
     const p = payloadFromForm(form, { ...ctx, gaugeOffTarget: { pct: 9.5, reason: "needle stuck, read twice" } });

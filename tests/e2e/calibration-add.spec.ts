@@ -1,5 +1,5 @@
 import { expect, test } from "@playwright/test";
-import { makePourFixture, pushEndA } from "./pour-fixture";
+import { makePourFixture, pushEndA, makeCalibratedSet } from "./pour-fixture";
 import { screenshot } from "./support";
 import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
 
@@ -10,35 +10,18 @@ import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
  * Calibration figures invented (about 5.1 kN per MPa).
  */
 const stamp = Date.now().toString(36);
-const line = (slope: number) => [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: slope * p - 900 }));
 
 test("adding a calibration shows first what it judges again, then saves on a second press", async ({ page }) => {
   test.setTimeout(120_000);
   const fx = await makePourFixture(`Calibration add ${stamp}`, [`CA-${stamp}-1`]);
   const admin = await apiAs(PEOPLE.admin);
   const setName = `Zeta add set ${stamp}`;
-  const set = await admin.post(`/api/projects/${fx.projectId}/equipment-sets`, {
-    data: {
-      name: setName,
-      jackSerial: `AJ-${stamp}`,
-      gaugeSerial: `AG-${stamp}`,
-      pumpSerial: null,
-      jackGripMm: null,
-      maxForceN: null,
-    },
-  });
-  expect(set.status()).toBe(201);
-  const { setId } = (await set.json()) as { setId: string };
-  const first = await admin.post(`/api/projects/${fx.projectId}/equipment-sets/${setId}/calibrations`, {
-    data: {
-      calibratedOn: "2026-11-01",
-      validUntil: null,
-      points: line(5100),
-      laboratory: null,
-      certificateAttachmentId: null,
-    },
-  });
-  expect(first.status()).toBe(201);
+  const { setId } = await makeCalibratedSet(
+    admin,
+    fx.projectId,
+    { name: setName, jackSerial: `AJ-${stamp}`, gaugeSerial: `AG-${stamp}` },
+    "2026-11-01",
+  );
   // The crew's record names the set and no calibration: it is judged on the one in force that day.
   const crew = await apiAs(PEOPLE.crew);
   const pushed = await pushEndA(

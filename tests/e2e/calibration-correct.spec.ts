@@ -1,6 +1,7 @@
 import { expect, test } from "@playwright/test";
 import { screenshot } from "./support";
 import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
+import { makeCalibratedSet, demoProjectId } from "./pour-fixture";
 
 /**
  * The admin corrects a calibration from the equipment page: a future date is named on its box;
@@ -12,32 +13,14 @@ import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
 const stamp = Date.now().toString(36);
 
 test("the admin corrects a calibration after seeing what it re-judges", async ({ page }) => {
-  const [project] = await queryDemo<{ id: string }>("select id from projects where code = 'AYP'");
-  const projectId = project!.id;
+  const projectId = await demoProjectId();
   const admin = await apiAs(PEOPLE.admin);
-  const set = await admin.post(`/api/projects/${projectId}/equipment-sets`, {
-    data: {
-      name: `Zeta correct set ${stamp}`,
-      jackSerial: `CJ-${stamp}`,
-      gaugeSerial: `CG-${stamp}`,
-      pumpSerial: null,
-      jackGripMm: null,
-      maxForceN: null,
-    },
-  });
-  expect(set.status()).toBe(201);
-  const { setId } = (await set.json()) as { setId: string };
-  const calibration = await admin.post(`/api/projects/${projectId}/equipment-sets/${setId}/calibrations`, {
-    data: {
-      calibratedOn: "2026-11-20",
-      validUntil: null,
-      points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })),
-      laboratory: null,
-      certificateAttachmentId: null,
-    },
-  });
-  expect(calibration.status()).toBe(201);
-  const { calibrationId } = (await calibration.json()) as { calibrationId: string };
+  const { setId, calibrationId } = await makeCalibratedSet(
+    admin,
+    projectId,
+    { name: `Zeta correct set ${stamp}`, jackSerial: `CJ-${stamp}`, gaugeSerial: `CG-${stamp}` },
+    "2026-11-20",
+  );
 
   await page.setViewportSize({ width: 1280, height: 900 });
   await signInWithPassword(page, PEOPLE.admin);

@@ -1,5 +1,5 @@
 import { expect, test } from "@playwright/test";
-import { makePourFixture, pushEndA } from "./pour-fixture";
+import { makePourFixture, pushReadings, makeCalibratedSet, demoProjectId } from "./pour-fixture";
 import { screenshot } from "./support";
 import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
 
@@ -11,31 +11,14 @@ import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
 const stamp = Date.now().toString(36);
 
 test("the admin retires a calibration with a reason from the equipment page", async ({ page }) => {
-  const [project] = await queryDemo<{ id: string }>("select id from projects where code = 'AYP'");
-  const projectId = project!.id;
+  const projectId = await demoProjectId();
   const admin = await apiAs(PEOPLE.admin);
-  const set = await admin.post(`/api/projects/${projectId}/equipment-sets`, {
-    data: {
-      name: `Zeta retire set ${stamp}`,
-      jackSerial: `RJ-${stamp}`,
-      gaugeSerial: `RG-${stamp}`,
-      pumpSerial: null,
-      jackGripMm: null,
-      maxForceN: null,
-    },
-  });
-  expect(set.status()).toBe(201);
-  const { setId } = (await set.json()) as { setId: string };
-  const calibration = await admin.post(`/api/projects/${projectId}/equipment-sets/${setId}/calibrations`, {
-    data: {
-      calibratedOn: "2026-11-20",
-      validUntil: null,
-      points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })),
-      laboratory: null,
-      certificateAttachmentId: null,
-    },
-  });
-  expect(calibration.status()).toBe(201);
+  const { setId } = await makeCalibratedSet(
+    admin,
+    projectId,
+    { name: `Zeta retire set ${stamp}`, jackSerial: `RJ-${stamp}`, gaugeSerial: `RG-${stamp}` },
+    "2026-11-20",
+  );
 
   await signInWithPassword(page, PEOPLE.admin);
   await page.waitForURL(/\/(home|setup)/);
@@ -85,35 +68,21 @@ test("the retirement's check says how many stressed tendons stand on the calibra
   const fx = await makePourFixture(`Calibration retire ${stamp}`, [`CR-${stamp}-1`, `CR-${stamp}-2`]);
   const admin = await apiAs(PEOPLE.admin);
   const setName = `Zeta retire check set ${stamp}`;
-  const set = await admin.post(`/api/projects/${fx.projectId}/equipment-sets`, {
-    data: {
-      name: setName,
-      jackSerial: `RCJ-${stamp}`,
-      gaugeSerial: `RCG-${stamp}`,
-      pumpSerial: null,
-      jackGripMm: null,
-      maxForceN: null,
-    },
-  });
-  expect(set.status()).toBe(201);
-  const { setId } = (await set.json()) as { setId: string };
-  const calibration = await admin.post(`/api/projects/${fx.projectId}/equipment-sets/${setId}/calibrations`, {
-    data: {
-      calibratedOn: "2026-11-20",
-      validUntil: null,
-      points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })),
-      laboratory: null,
-      certificateAttachmentId: null,
-    },
-  });
-  expect(calibration.status()).toBe(201);
-  const { calibrationId } = (await calibration.json()) as { calibrationId: string };
+  const { setId, calibrationId } = await makeCalibratedSet(
+    admin,
+    fx.projectId,
+    { name: setName, jackSerial: `RCJ-${stamp}`, gaugeSerial: `RCG-${stamp}` },
+    "2026-11-20",
+  );
   await admin.dispose();
   // Both tendons stressed with this set, their records naming the calibration.
   const crew = await apiAs(PEOPLE.crew);
   const withSet = { ...fx, setId, calibrationId, line: { slope: 5100, intercept: -900 } };
-  for (const t of fx.tendons)
-    expect((await pushEndA(crew, withSet, t.id, 1.0)).result).toMatchObject({ status: "applied" });
+  await pushReadings(
+    crew,
+    withSet,
+    fx.tendons.map((t) => [t.id, 1.0] as const),
+  );
   await crew.dispose();
   const evaluations = async () =>
     (

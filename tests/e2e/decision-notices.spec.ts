@@ -1,7 +1,8 @@
 import { expect, test } from "@playwright/test";
 import { screenshot } from "./support";
 import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
-import { makePourFixture, pushEndA, typedReading } from "./pour-fixture";
+import { makePourFixture, typedReading, pushReadings, outOfBandFlagId, decideFlag } from "./pour-fixture";
+import { openPourAsCrew } from "./field-steps";
 
 /**
  * A decision reaches the slab edge as a notice: the engineer orders a restress; after the crew's
@@ -21,33 +22,21 @@ test("the engineer's decision shows on the crew's tablet after the next sync and
   const fx = await makePourFixture(POUR, [`NT-${stamp}-1`, `NT-${stamp}-2`]);
   const [clear, held] = fx.tendons as [(typeof fx.tendons)[number], (typeof fx.tendons)[number]];
   const crewApi = await apiAs(PEOPLE.crew);
-  expect((await pushEndA(crewApi, fx, clear.id, 1.0)).result).toMatchObject({ status: "applied" });
-  expect((await pushEndA(crewApi, fx, held.id, 1.15)).result).toMatchObject({ status: "applied" });
-  const [flag] = await queryDemo<{ id: string }>("select id from flags where tendon_id = $1 and kind = 'out_of_band'", [
-    held.id,
+  await pushReadings(crewApi, fx, [
+    [clear.id, 1.0],
+    [held.id, 1.15],
   ]);
-  expect(flag).toBeTruthy();
+  const flagId = await outOfBandFlagId(held.id);
 
   const ctx = await browser.newContext({ viewport: { width: 800, height: 1280 }, hasTouch: true });
   const crew = await ctx.newPage();
-  await signInWithPassword(crew, PEOPLE.crew);
-  await crew.waitForURL(/\/home/);
-  await crew.goto("/field");
-  await crew.getByTestId("available-pour").filter({ hasText: POUR }).getByRole("button").click();
-  await crew
-    .getByTestId("ready-pour")
-    .filter({ hasText: POUR })
-    .getByRole("link", { name: "Open tendon list" })
-    .click();
+  await openPourAsCrew(crew, POUR);
   await expect(crew.getByTestId("tendon-row").first()).toContainText(held.tag);
   // A first download is read fresh: what it holds is on the tendon panels, not in a notice.
   await expect(crew.getByTestId("decision-notices")).toHaveCount(0);
 
   const engineer = await apiAs(PEOPLE.engineer);
-  const ordered = await engineer.post(`/api/projects/${fx.projectId}/flags/${flag!.id}/dispositions`, {
-    data: { decision: "restress", reasons: ORDER, licenceStatement: "Licensed professional engineer (test)" },
-  });
-  expect(ordered.status()).toBe(201);
+  await decideFlag(engineer, fx, flagId, "restress", ORDER);
 
   await crew.getByRole("button", { name: "Sync now" }).click();
   const notices = crew.getByTestId("decision-notices");
@@ -93,14 +82,7 @@ test("the engineer's decision shows on the crew's tablet after the next sync and
   );
 
   // The engineer accepts the tendon after all and releases the pour: both arrive with the next sync.
-  const accepted = await engineer.post(`/api/projects/${fx.projectId}/flags/${flag!.id}/dispositions`, {
-    data: {
-      decision: "accept",
-      reasons: "Accepted as stressed: the wedges were found seated on inspection.",
-      licenceStatement: "Licensed professional engineer (test)",
-    },
-  });
-  expect(accepted.status()).toBe(201);
+  await decideFlag(engineer, fx, flagId, "accept", "Accepted as stressed: the wedges were found seated on inspection.");
   const released = await engineer.post(`/api/projects/${fx.projectId}/pours/${fx.pourId}/release`, {
     data: {
       statement: `${POUR} is released for tail cutting.`,
@@ -141,15 +123,7 @@ test("stressing a pour whose concrete is not confirmed asks the crew why, and th
 
   const ctx = await browser.newContext({ viewport: { width: 800, height: 1280 }, hasTouch: true });
   const crew = await ctx.newPage();
-  await signInWithPassword(crew, PEOPLE.crew);
-  await crew.waitForURL(/\/home/);
-  await crew.goto("/field");
-  await crew.getByTestId("available-pour").filter({ hasText: pourName }).getByRole("button").click();
-  await crew
-    .getByTestId("ready-pour")
-    .filter({ hasText: pourName })
-    .getByRole("link", { name: "Open tendon list" })
-    .click();
+  await openPourAsCrew(crew, pourName);
   await expect(crew.getByTestId("concrete-gate-field")).toContainText("Concrete not confirmed: do not stress");
   await crew.getByTestId("tendon-row").filter({ hasText: tendon.tag }).click();
   const gate = crew.getByTestId("concrete-go-ahead");

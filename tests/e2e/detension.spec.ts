@@ -1,7 +1,8 @@
 import { expect, test } from "@playwright/test";
 import { screenshot } from "./support";
 import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
-import { makePourFixture, pushEndA } from "./pour-fixture";
+import { makePourFixture, pushEndA, outOfBandFlagId, decideFlag } from "./pour-fixture";
+import { heldTendonOffline } from "./field-steps";
 
 /**
  * A detension from order to office: a tendon reads short and is flagged; the engineer orders a
@@ -50,49 +51,31 @@ test("the crew records an ordered detension offline; the tendon stays held and t
     200,
   );
 
-  const [flag] = await queryDemo<{ id: string }>("select id from flags where tendon_id = $1 and kind = 'out_of_band'", [
-    tendon.id,
-  ]);
-  expect(flag).toBeTruthy();
+  const flagId = await outOfBandFlagId(tendon.id);
   const engineerApi = await apiAs(PEOPLE.engineer);
-  const ordered = await engineerApi.post(`/api/projects/${fx.projectId}/flags/${flag!.id}/dispositions`, {
-    data: {
-      decision: "detension_restress",
-      reasons: "Short by about 15 %: release the strand, check the sheathing at the live end, then stress it again.",
-      licenceStatement: "Licensed professional engineer (test)",
-    },
-  });
-  expect(ordered.status()).toBe(201);
+  await decideFlag(
+    engineerApi,
+    fx,
+    flagId,
+    "detension_restress",
+    "Short by about 15 %: release the strand, check the sheathing at the live end, then stress it again.",
+  );
   const [strands] = await queryDemo<{ strand_count: number; ends: string }>(
     "select strand_count, ends from tendons where id = $1",
     [tendon.id],
   );
-  const [set] = await queryDemo<{ name: string }>("select name from equipment_sets where id = $1", [fx.setId]);
-
-  const ctx = await browser.newContext({ viewport: { width: 800, height: 1280 }, hasTouch: true });
-  const crew = await ctx.newPage();
-  await signInWithPassword(crew, PEOPLE.crew);
-  await crew.waitForURL(/\/home/);
-  await crew.goto("/field");
-  await crew.getByTestId("available-pour").filter({ hasText: POUR }).getByRole("button").click();
-  await crew
-    .getByTestId("ready-pour")
-    .filter({ hasText: POUR })
-    .getByRole("link", { name: "Open tendon list" })
-    .click();
-  const rows = crew.getByTestId("tendon-row");
-  await expect(rows.first().getByTestId("hold-summary")).toHaveText("Held · detension and restress ordered");
-  await rows.first().click();
-  const panel = crew.getByTestId("hold-panel");
-  await expect(panel.getByTestId("hold-what-to-do")).toContainText("Record the detension");
-  const section = panel.getByTestId("detension");
 
   // The signal goes; the detension is recorded on the tablet all the same.
-  await ctx.setOffline(true);
-  await expect(crew.getByTestId("connection")).toHaveText("No signal");
+  const { ctx, crew, rows, panel } = await heldTendonOffline(
+    browser,
+    POUR,
+    "Held · detension and restress ordered",
+    "Record the detension",
+  );
+  const section = panel.getByTestId("detension");
   await section.getByTestId("detension-open").click();
   const form = section.getByTestId("detension-form");
-  await form.getByRole("radio", { name: new RegExp(set!.name) }).check();
+  await form.getByRole("radio", { name: new RegExp(fx.setName) }).check();
   await form.getByTestId("detension-pressure").fill("1200");
   await form
     .getByTestId("detension-remarks")
@@ -127,7 +110,7 @@ test("the crew records an ordered detension offline; the tendon stays held and t
   );
   expect(stored).toHaveLength(1);
   expect(stored[0]!.strands_detensioned).toBe(strands!.strand_count);
-  const [order] = await queryDemo<{ id: string }>("select id from dispositions where flag_id = $1", [flag!.id]);
+  const [order] = await queryDemo<{ id: string }>("select id from dispositions where flag_id = $1", [flagId]);
   expect(stored[0]!.disposition_id).toBe(order!.id);
 
   // Held until the restress: the list says so and the tails stay uncut.

@@ -1,7 +1,8 @@
 import { expect, test, type Locator, type Page } from "@playwright/test";
-import { PEOPLE, queryDemo, signInWithPassword } from "./people";
+import { queryDemo } from "./people";
 import { makePourFixture, typedReading } from "./pour-fixture";
 import { screenshot } from "./support";
+import { openPourAsCrew } from "./field-steps";
 
 /**
  * One tendon end on one screen: on a landscape (1280×800) and a portrait (800×1280) tablet the
@@ -62,15 +63,7 @@ test("one tendon end and Save fit on one tablet screen in both orientations, wit
 
   const ctx = await browser.newContext({ viewport: { width: 1280, height: 800 }, hasTouch: true });
   const page = await ctx.newPage();
-  await signInWithPassword(page, PEOPLE.crew);
-  await page.waitForURL(/\/home/);
-  await page.goto("/field");
-  await page.getByTestId("available-pour").filter({ hasText: POUR }).getByRole("button").click();
-  await page
-    .getByTestId("ready-pour")
-    .filter({ hasText: POUR })
-    .getByRole("link", { name: "Open tendon list" })
-    .click();
+  await openPourAsCrew(page, POUR);
 
   // A tendon with nothing recorded: the whole form, its readings and Save on the first screen.
   await page.getByTestId("tendon-row").filter({ hasText: fresh.tag }).click();

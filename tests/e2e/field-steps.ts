@@ -1,8 +1,8 @@
-import { expect, type Page } from "@playwright/test";
+import { expect, type Browser, type Page } from "@playwright/test";
 import type { AvailablePour, PullResponse } from "@/lib/schemas/sync";
 import { predictTendon, targetPressureMPa } from "@/lib/stressing/basis";
 import { formatLength, mpaToPsi } from "@/lib/units";
-import { PEOPLE, apiAs } from "./people";
+import { PEOPLE, apiAs, signInWithPassword } from "./people";
 import { makePourFixture } from "./pour-fixture";
 import { screenshot } from "./support";
 
@@ -71,6 +71,37 @@ export async function plan(pourName: string): Promise<Plan> {
     tendons,
     finalPsi: String(Math.round(mpaToPsi(targetPressureMPa(line, jackingForceN)))),
   };
+}
+
+/** Signs the crew in and opens the pour's tendon list on the field log, taking the pour out first. */
+export async function openPourAsCrew(page: Page, pourName: string): Promise<void> {
+  await signInWithPassword(page, PEOPLE.crew);
+  await page.waitForURL(/\/home/);
+  await page.goto("/field");
+  await page.getByTestId("available-pour").filter({ hasText: pourName }).getByRole("button").click();
+  await page
+    .getByTestId("ready-pour")
+    .filter({ hasText: pourName })
+    .getByRole("link", { name: "Open tendon list" })
+    .click();
+}
+
+/**
+ * On a portrait tablet (800 × 1280), the crew opens the pour, whose first tendon is held as
+ * `summary` says; opens that tendon, whose hold panel says `whatToDo`; then the signal goes.
+ */
+export async function heldTendonOffline(browser: Browser, pourName: string, summary: string, whatToDo: string) {
+  const ctx = await browser.newContext({ viewport: { width: 800, height: 1280 }, hasTouch: true });
+  const crew = await ctx.newPage();
+  await openPourAsCrew(crew, pourName);
+  const rows = crew.getByTestId("tendon-row");
+  await expect(rows.first().getByTestId("hold-summary")).toHaveText(summary);
+  await rows.first().click();
+  const panel = crew.getByTestId("hold-panel");
+  await expect(panel.getByTestId("hold-what-to-do")).toContainText(whatToDo);
+  await ctx.setOffline(true);
+  await expect(crew.getByTestId("connection")).toHaveText("No signal");
+  return { ctx, crew, rows, panel };
 }
 
 /** Full-page shots from the top, so the sticky status bar sits where the crew sees it. */

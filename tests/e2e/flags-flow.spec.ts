@@ -1,10 +1,7 @@
 import { expect, test, type APIRequestContext } from "@playwright/test";
-import { randomUUID } from "node:crypto";
-import { uuidv7 } from "uuidv7";
-import { pressureForForce } from "@/lib/elongation";
-import { predictTendon, type ProjectBasis, type TendonBasis } from "@/lib/stressing/basis";
-import { formatLength, MM_PER_INCH, MPA_PER_PSI, parseLength, parsePressure } from "@/lib/units";
 import { screenshot } from "./support";
+import { MM_PER_INCH } from "@/lib/units";
+import { makePourFixture, pushEndA, type PourFixture } from "./pour-fixture";
 import { PEOPLE, apiAs, lastMailId, latestMailTo, queryDemo, signInWithPassword } from "./people";
 
 /**
@@ -17,138 +14,20 @@ import { PEOPLE, apiAs, lastMailId, latestMailTo, queryDemo, signInWithPassword 
 const stamp = Date.now().toString(36);
 const TAG = `FLOW-${stamp}`;
 const POUR = `Flow check ${stamp}`;
-const PSI_PER_MPA = 1 / MPA_PER_PSI;
 
-interface Fixture {
-  projectId: string;
-  pourId: string;
-  tendonId: string;
-  crewId: string;
-  setId: string;
-  calibrationId: string;
-  line: { slope: number; intercept: number };
-  project: ProjectBasis;
-  tendon: TendonBasis;
-  lot: { areaMm2: number; modulusMPa: number; breakingLoadN: number } | null;
-}
-
-async function makeFixture(): Promise<Fixture> {
-  const [project] = await queryDemo<Record<string, never>>("select * from projects where code = 'AYP'");
-  const p = project as unknown as Record<string, unknown>;
-  const [template] = await queryDemo<Record<string, unknown>>(
-    "select * from tendons where project_id = $1 and tag = '2-1-U01'",
-    [p.id],
-  );
-  const [pour] = await queryDemo<{ id: string }>(
-    "insert into pours (project_id, name, level, concrete_strength_mpa, concrete_confirmed_at, planned_stressing_date) values ($1, $2, 'Level 2', 25, now(), current_date) returning id",
-    [p.id, POUR],
-  );
-  const [tendon] = await queryDemo<{ id: string }>(
-    `insert into tendons (project_id, pour_id, tag, kind, strand_size, strand_count, segments, ends, jack_grip_mm, strand_lot_id)
-     values ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10) returning id`,
-    [
-      p.id,
-      pour!.id,
-      TAG,
-      template!.kind,
-      template!.strand_size,
-      template!.strand_count,
-      JSON.stringify(template!.segments),
-      template!.ends,
-      template!.jack_grip_mm,
-      template!.strand_lot_id,
-    ],
-  );
-  const [lot] = await queryDemo<{ area_mm2: number; modulus_mpa: number; breaking_load_n: number }>(
-    "select * from strand_lots where id = $1",
-    [template!.strand_lot_id],
-  );
-  const [set] = await queryDemo<{ id: string; calibration_id: string; slope_n_per_mpa: number; intercept_n: number }>(
-    `select s.id, c.id as calibration_id, c.slope_n_per_mpa, c.intercept_n from equipment_sets s join calibrations c on c.equipment_set_id = s.id
-     where s.project_id = $1 order by s.name limit 1`,
-    [p.id],
-  );
-  const [crew] = await queryDemo<{ id: string }>("select id from users where email = $1", [PEOPLE.crew]);
-  return {
-    projectId: p.id as string,
-    pourId: pour!.id,
-    tendonId: tendon!.id,
-    crewId: crew!.id,
-    setId: set!.id,
-    calibrationId: set!.calibration_id,
-    line: { slope: set!.slope_n_per_mpa, intercept: set!.intercept_n },
-    project: {
-      tolerancePct: p.tolerance_pct as number,
-      shortTendonFloorMm: p.short_tendon_floor_mm as number | null,
-      comparisonBasis: p.comparison_basis as "gross" | "net",
-      countJackGrip: p.count_jack_grip as boolean,
-      frictionMu: p.friction_mu as number,
-      wobblePerM: p.wobble_per_m as number,
-      anchorSetMm: p.anchor_set_mm as number,
-    },
-    tendon: {
-      strandSize: template!.strand_size as string,
-      strandCount: template!.strand_count as number,
-      segments: template!.segments as TendonBasis["segments"],
-      ends: template!.ends as TendonBasis["ends"],
-      jackGripMm: template!.jack_grip_mm as number | null,
-    },
-    lot: lot ? { areaMm2: lot.area_mm2, modulusMPa: lot.modulus_mpa, breakingLoadN: lot.breaking_load_n } : null,
-  };
-}
-
-/** Pushes one record, typed as the crew would type it, through the tablet's sync route. */
-async function pushRecord(crew: APIRequestContext, fx: Fixture, factor: number, minutesAgo: number) {
-  const predicted = predictTendon({ project: fx.project, tendon: fx.tendon, lot: fx.lot });
-  const psi = String(Math.floor((pressureForForce(fx.line, predicted.jackingForceN) * PSI_PER_MPA) / 50) * 50);
-  const after = formatLength(2 * MM_PER_INCH + predicted.predictedMm * factor, "1/8 in").replace(/ in$/, "");
-  const measuredMm =
-    parseLength(after, { field: "marksAfter", system: "US", defaultUnit: "in" }) -
-    parseLength("2", { field: "marksBefore", system: "US", defaultUnit: "in" });
-  const id = uuidv7();
-  const payload = {
-    projectId: fx.projectId,
-    pourId: fx.pourId,
-    tendonId: fx.tendonId,
-    tendonEnd: "A",
-    chainId: id,
-    revision: 1,
-    baseRecordId: null,
-    revisionReason: null,
-    equipmentSetId: fx.setId,
-    calibrationId: fx.calibrationId,
-    expiredCalibrationReason: null,
-    initialPressureMPa: null,
-    finalPressureMPa: parsePressure(psi, { field: "finalPressure", system: "SI", defaultUnit: "psi" }),
-    readingMethod: "marks",
-    entered: {
-      units: { length: "in", pressure: "psi" },
-      initialPressure: null,
-      finalPressure: psi,
-      marks: { before: "2", after },
-      strokes: null,
-      seating: null,
-    },
-    measuredMm,
-    seatingMm: null,
-    wireBreaks: 0,
-    remarks: null,
-    deviceTime: new Date(Date.now() - minutesAgo * 60_000).toISOString(),
-    deviceTimeZone: "America/Chicago",
-    authorUserId: fx.crewId,
-  };
-  const res = await crew.post("/api/sync/push", {
-    data: { deviceId: "flow-check-tablet", ops: [{ opId: randomUUID(), kind: "create", recordId: id, payload }] },
+/** Pushes one record of the flow's tendon, typed as the crew would type it, through the tablet's sync route. */
+async function pushRecord(crew: APIRequestContext, fx: PourFixture, factor: number, minutesAgo: number) {
+  const pushed = await pushEndA(crew, fx, fx.tendons[0]!.id, factor, {
+    deviceTime: new Date(Date.now() - minutesAgo * 60_000),
   });
-  expect(res.status()).toBe(200);
-  const body = (await res.json()) as { results: { status: string; error?: unknown }[] };
-  expect(body.results[0], JSON.stringify(body)).toMatchObject({ status: "applied" });
-  return id;
+  expect(pushed.httpStatus).toBe(200);
+  expect(pushed.result, JSON.stringify(pushed.result)).toMatchObject({ status: "applied" });
+  return pushed.recordId;
 }
 
 test("an out-of-band tendon is flagged, mailed, reviewed, restressed and only then released", async ({ browser }) => {
   test.setTimeout(180_000);
-  const fx = await makeFixture();
+  const fx = await makePourFixture(POUR, [TAG]);
   const crew = await apiAs(PEOPLE.crew);
 
   // 1. The crew's record comes in 12 % short.
@@ -221,7 +100,7 @@ test("an out-of-band tendon is flagged, mailed, reviewed, restressed and only th
   await expect(inspector.getByText("Finding added to the flag's trail.")).toBeVisible();
   const [review] = await queryDemo<{ remeasured_mm: string }>(
     "select r.remeasured_mm from reviews r join flags f on f.id = r.flag_id where f.tendon_id = $1 and r.kind = 'remeasured'",
-    [fx.tendonId],
+    [fx.tendons[0]!.id],
   );
   // 7 1/8 in, at 25.4 mm to the inch (lib/units).
   expect(Number(review!.remeasured_mm)).toBeCloseTo(7.125 * MM_PER_INCH, 3);
@@ -285,7 +164,7 @@ test("an out-of-band tendon is flagged, mailed, reviewed, restressed and only th
   await pushRecord(crew, fx, 1.0, 0);
   const [flag] = await queryDemo<{ status: string; close_reason: string }>(
     "select status, close_reason from flags where tendon_id = $1",
-    [fx.tendonId],
+    [fx.tendons[0]!.id],
   );
   expect(flag).toMatchObject({ status: "closed" });
   expect(flag!.close_reason).toMatch(/Restressed as ordered by disposition/);

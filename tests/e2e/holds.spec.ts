@@ -2,7 +2,8 @@ import { expect, test } from "@playwright/test";
 import type { PullResponse } from "@/lib/schemas/sync";
 import { screenshot } from "./support";
 import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
-import { makePourFixture, pushEndA, typedReading } from "./pour-fixture";
+import { makePourFixture, pushEndA, typedReading, pushReadings, outOfBandFlagId, decideFlag } from "./pour-fixture";
+import { openPourAsCrew } from "./field-steps";
 
 /**
  * The engineer's decision reaches the slab edge: a long tendon is held on the tablet with the
@@ -32,12 +33,11 @@ test("an engineer's restress order reaches the crew's tablet, the crew logs it, 
   const late = new Date(Date.now() - 30 * 60_000);
   const clearPush = await pushEndA(crewApi, fx, clear.id, 1.0, { deviceTime: late });
   expect(clearPush.result).toMatchObject({ status: "applied" });
-  expect((await pushEndA(crewApi, fx, held.id, 1.15)).result).toMatchObject({ status: "applied" });
-  expect((await pushEndA(crewApi, fx, stillHeld.id, 1.15)).result).toMatchObject({ status: "applied" });
-  const [flag] = await queryDemo<{ id: string }>("select id from flags where tendon_id = $1 and kind = 'out_of_band'", [
-    held.id,
+  await pushReadings(crewApi, fx, [
+    [held.id, 1.15],
+    [stillHeld.id, 1.15],
   ]);
-  expect(flag).toBeTruthy();
+  const flagId = await outOfBandFlagId(held.id);
   expect(await queryDemo("select id from flags where tendon_id = $1", [clear.id])).toHaveLength(0);
 
   // The inspector's review queue lists the record whose time is off, though no flag holds its
@@ -63,15 +63,7 @@ test("an engineer's restress order reaches the crew's tablet, the crew logs it, 
 
   const ctx = await browser.newContext();
   const crew = await ctx.newPage();
-  await signInWithPassword(crew, PEOPLE.crew);
-  await crew.waitForURL(/\/home/);
-  await crew.goto("/field");
-  await crew.getByTestId("available-pour").filter({ hasText: POUR }).getByRole("button").click();
-  await crew
-    .getByTestId("ready-pour")
-    .filter({ hasText: POUR })
-    .getByRole("link", { name: "Open tendon list" })
-    .click();
+  await openPourAsCrew(crew, POUR);
 
   // Held tendons come first in the list, with what holds them in words.
   const rows = crew.getByTestId("tendon-row");
@@ -98,15 +90,13 @@ test("an engineer's restress order reaches the crew's tablet, the crew logs it, 
 
   // The engineer orders a restress; the next sync brings the order down.
   const engineer = await apiAs(PEOPLE.engineer);
-  const ordered = await engineer.post(`/api/projects/${fx.projectId}/flags/${flag!.id}/dispositions`, {
-    data: {
-      decision: "restress",
-      reasons:
-        "Long by about 15 %: check the wedges seated, restress to the same gauge pressure and re-read the marks.",
-      licenceStatement: "Licensed professional engineer (test)",
-    },
-  });
-  expect(ordered.status()).toBe(201);
+  await decideFlag(
+    engineer,
+    fx,
+    flagId,
+    "restress",
+    "Long by about 15 %: check the wedges seated, restress to the same gauge pressure and re-read the marks.",
+  );
   await crew.getByRole("button", { name: "Sync now" }).click();
   await expect(heldRow.getByTestId("hold-summary")).toHaveText("Held · restress ordered");
   await expect(panel.getByTestId("hold-instruction")).toContainText(
@@ -146,7 +136,7 @@ test("an engineer's restress order reaches the crew's tablet, the crew logs it, 
   await expect(rows.filter({ hasText: held.tag }).getByTestId("hold-summary")).toHaveCount(0);
   const [closed] = await queryDemo<{ status: string; close_reason: string }>(
     "select status, close_reason from flags where id = $1",
-    [flag!.id],
+    [flagId],
   );
   expect(closed).toMatchObject({ status: "closed" });
   expect(closed!.close_reason).toMatch(/Restressed as ordered/);

@@ -5,7 +5,8 @@ import { expectedAnchorForceN } from "@/lib/stressing/liftoff";
 import { MPA_PER_PSI } from "@/lib/units";
 import { screenshot } from "./support";
 import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
-import { makePourFixture, pushEndA } from "./pour-fixture";
+import { makePourFixture, pushReadings, outOfBandFlagId, decideFlag } from "./pour-fixture";
+import { heldTendonOffline } from "./field-steps";
 
 /**
  * A lift-off check from order to result: a tendon reads short and is flagged; the engineer orders
@@ -29,20 +30,16 @@ test("the crew records an ordered lift-off check offline and sees the server's r
   const fx = await makePourFixture(POUR, [`LO-${stamp}-1`]);
   const tendon = fx.tendons[0]!;
   const crewApi = await apiAs(PEOPLE.crew);
-  expect((await pushEndA(crewApi, fx, tendon.id, 0.85)).result).toMatchObject({ status: "applied" });
-  const [flag] = await queryDemo<{ id: string }>("select id from flags where tendon_id = $1 and kind = 'out_of_band'", [
-    tendon.id,
-  ]);
-  expect(flag).toBeTruthy();
+  await pushReadings(crewApi, fx, [[tendon.id, 0.85]]);
+  const flagId = await outOfBandFlagId(tendon.id);
   const engineerApi = await apiAs(PEOPLE.engineer);
-  const ordered = await engineerApi.post(`/api/projects/${fx.projectId}/flags/${flag!.id}/dispositions`, {
-    data: {
-      decision: "liftoff_check",
-      reasons: "Short by about 15 %: check the force at the live end by lift-off and report the gauge pressure.",
-      licenceStatement: "Licensed professional engineer (test)",
-    },
-  });
-  expect(ordered.status()).toBe(201);
+  await decideFlag(
+    engineerApi,
+    fx,
+    flagId,
+    "liftoff_check",
+    "Short by about 15 %: check the force at the live end by lift-off and report the gauge pressure.",
+  );
 
   // The pressure a crew would read for a lift-off 2 % above the force expected after seating,
   // to the nearest 10 psi, on the set's calibration.
@@ -57,32 +54,18 @@ test("the crew records an ordered lift-off check offline and sees the server's r
   });
   const expectedN = expectedAnchorForceN(predicted, "A");
   const psi = String(Math.round((pressureForForce(fx.line, expectedN * 1.02) * PSI_PER_MPA) / 10) * 10);
-  const [set] = await queryDemo<{ name: string }>("select name from equipment_sets where id = $1", [fx.setId]);
-
-  const ctx = await browser.newContext({ viewport: { width: 800, height: 1280 }, hasTouch: true });
-  const crew = await ctx.newPage();
-  await signInWithPassword(crew, PEOPLE.crew);
-  await crew.waitForURL(/\/home/);
-  await crew.goto("/field");
-  await crew.getByTestId("available-pour").filter({ hasText: POUR }).getByRole("button").click();
-  await crew
-    .getByTestId("ready-pour")
-    .filter({ hasText: POUR })
-    .getByRole("link", { name: "Open tendon list" })
-    .click();
-  const rows = crew.getByTestId("tendon-row");
-  await expect(rows.first().getByTestId("hold-summary")).toHaveText("Held · lift-off check ordered");
-  await rows.first().click();
-  const panel = crew.getByTestId("hold-panel");
-  await expect(panel.getByTestId("hold-what-to-do")).toContainText("Do a lift-off check");
-  const check = panel.getByTestId("liftoff-check");
 
   // The signal goes; the check is recorded on the tablet all the same.
-  await ctx.setOffline(true);
-  await expect(crew.getByTestId("connection")).toHaveText("No signal");
+  const { ctx, crew, rows, panel } = await heldTendonOffline(
+    browser,
+    POUR,
+    "Held · lift-off check ordered",
+    "Do a lift-off check",
+  );
+  const check = panel.getByTestId("liftoff-check");
   await check.getByTestId("liftoff-open").click();
   const form = check.getByTestId("liftoff-form");
-  await form.getByRole("radio", { name: new RegExp(set!.name) }).check();
+  await form.getByRole("radio", { name: new RegExp(fx.setName) }).check();
   // A pressure beyond what the set was calibrated over is refused, naming the field; nothing is saved.
   await form.getByTestId("liftoff-pressure").fill("20000");
   await form.getByTestId("liftoff-save").click();

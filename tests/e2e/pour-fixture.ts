@@ -1,4 +1,4 @@
-import type { APIRequestContext } from "@playwright/test";
+import { expect, type APIRequestContext } from "@playwright/test";
 import { randomUUID } from "node:crypto";
 import { uuidv7 } from "uuidv7";
 import { pressureForForce } from "@/lib/elongation";
@@ -20,6 +20,7 @@ export interface PourFixture {
   tendons: { id: string; tag: string }[];
   crewId: string;
   setId: string;
+  setName: string;
   calibrationId: string;
   line: { slope: number; intercept: number };
   project: ProjectBasis;
@@ -74,8 +75,14 @@ export async function makePourFixture(
   );
   // The demo's Set A by name, with its calibration in force: other specs add sets and retire or
   // correct calibrations of their own, and none of that may change what this pour is stressed with.
-  const [set] = await queryDemo<{ id: string; calibration_id: string; slope_n_per_mpa: number; intercept_n: number }>(
-    `select s.id, c.id as calibration_id, c.slope_n_per_mpa, c.intercept_n from equipment_sets s join calibrations c on c.equipment_set_id = s.id
+  const [set] = await queryDemo<{
+    id: string;
+    name: string;
+    calibration_id: string;
+    slope_n_per_mpa: number;
+    intercept_n: number;
+  }>(
+    `select s.id, s.name, c.id as calibration_id, c.slope_n_per_mpa, c.intercept_n from equipment_sets s join calibrations c on c.equipment_set_id = s.id
      where s.project_id = $1 and s.name like 'Set A%' and c.retired_at is null order by c.calibrated_on desc limit 1`,
     [p!.id],
   );
@@ -88,6 +95,7 @@ export async function makePourFixture(
     tendons,
     crewId: crew!.id,
     setId: set!.id,
+    setName: set!.name,
     calibrationId: set!.calibration_id,
     line: { slope: set!.slope_n_per_mpa, intercept: set!.intercept_n },
     project: {
@@ -177,4 +185,78 @@ export async function pushEndA(
   });
   const body = (await res.json()) as { results: { status: string; error?: { code: string; message: string } }[] };
   return { httpStatus: res.status(), result: body.results[0]!, recordId: id };
+}
+
+/** Pushes end A of each tendon at its factor of the prediction (`pushEndA`); each must be applied. */
+export async function pushReadings(
+  crew: APIRequestContext,
+  fx: PourFixture,
+  readings: readonly (readonly [tendonId: string, factor: number])[],
+): Promise<void> {
+  for (const [tendonId, factor] of readings) {
+    expect((await pushEndA(crew, fx, tendonId, factor)).result).toMatchObject({ status: "applied" });
+  }
+}
+
+/** The id of the out-of-band flag a reading raised on the tendon; the test fails if there is none. */
+export async function outOfBandFlagId(tendonId: string): Promise<string> {
+  const [flag] = await queryDemo<{ id: string }>("select id from flags where tendon_id = $1 and kind = 'out_of_band'", [
+    tendonId,
+  ]);
+  expect(flag, "the reading raised an out-of-band flag").toBeTruthy();
+  return flag!.id;
+}
+
+/** The engineer records a decision on the flag, with a licence statement, through the app's route (201). */
+export async function decideFlag(
+  engineer: APIRequestContext,
+  fx: PourFixture,
+  flagId: string,
+  decision: string,
+  reasons: string,
+): Promise<void> {
+  const ordered = await engineer.post(`/api/projects/${fx.projectId}/flags/${flagId}/dispositions`, {
+    data: { decision, reasons, licenceStatement: "Licensed professional engineer (test)" },
+  });
+  expect(ordered.status()).toBe(201);
+}
+
+/** The demo project's id (a spec that only needs the project, not a pour of its own). */
+export async function demoProjectId(): Promise<string> {
+  const [project] = await queryDemo<{ id: string }>("select id from projects where code = 'AYP'");
+  return project!.id;
+}
+
+/** Five calibration points on a line of `slope` N per MPa less 900 N (invented figures, about 5.1 kN per MPa). */
+export const calibrationLine = (slope = 5100) =>
+  [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: slope * p - 900 }));
+
+/**
+ * An equipment set of the spec's own on the project, made by the admin through the app's route
+ * (201), named and serialled as given, with no grip and no force limit; and one calibration of
+ * `calibratedOn` on `calibrationLine()` (201). Their ids.
+ */
+export async function makeCalibratedSet(
+  admin: APIRequestContext,
+  projectId: string,
+  set: { name: string; jackSerial: string; gaugeSerial: string },
+  calibratedOn: string,
+): Promise<{ setId: string; calibrationId: string }> {
+  const made = await admin.post(`/api/projects/${projectId}/equipment-sets`, {
+    data: { ...set, pumpSerial: null, jackGripMm: null, maxForceN: null },
+  });
+  expect(made.status()).toBe(201);
+  const { setId } = (await made.json()) as { setId: string };
+  const calibration = await admin.post(`/api/projects/${projectId}/equipment-sets/${setId}/calibrations`, {
+    data: {
+      calibratedOn,
+      validUntil: null,
+      points: calibrationLine(),
+      laboratory: null,
+      certificateAttachmentId: null,
+    },
+  });
+  expect(calibration.status()).toBe(201);
+  const { calibrationId } = (await calibration.json()) as { calibrationId: string };
+  return { setId, calibrationId };
 }

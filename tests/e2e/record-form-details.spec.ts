@@ -4,6 +4,7 @@ import { formatLength, parsePressure, MM_PER_INCH, MPA_PER_PSI } from "@/lib/uni
 import { PEOPLE, queryDemo, signInWithPassword } from "./people";
 import { makePourFixture, typedReading } from "./pour-fixture";
 import { screenshot } from "./support";
+import { openPourAsCrew } from "./field-steps";
 
 /**
  * The record form's second reading and wire-break details on a tablet: a mark read to 1/8 in on
@@ -100,15 +101,7 @@ test("a reading the division could flip is read again finer before saving; a bro
 
   const ctx = await browser.newContext({ viewport: { width: 1280, height: 800 }, hasTouch: true });
   const page = await ctx.newPage();
-  await signInWithPassword(page, PEOPLE.crew);
-  await page.waitForURL(/\/home/);
-  await page.goto("/field");
-  await page.getByTestId("available-pour").filter({ hasText: POUR }).getByRole("button").click();
-  await page
-    .getByTestId("ready-pour")
-    .filter({ hasText: POUR })
-    .getByRole("link", { name: "Open tendon list" })
-    .click();
+  await openPourAsCrew(page, POUR);
   await page.getByTestId("tendon-row").filter({ hasText: tendon.tag }).click();
 
   const form = page.getByTestId("record-form");

@@ -1,7 +1,8 @@
 import { expect, test } from "@playwright/test";
 import { screenshot } from "./support";
-import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
-import { makePourFixture, pushEndA } from "./pour-fixture";
+import { PEOPLE, apiAs, queryDemo } from "./people";
+import { makePourFixture, pushReadings } from "./pour-fixture";
+import { openPourAsCrew } from "./field-steps";
 
 /**
  * Tails cut at the slab edge, on a tablet: a held tendon (out of band, flag open) offers no cut;
@@ -17,20 +18,14 @@ test("a held tendon cannot be marked cut; a clear one is cut once after confirma
   const fx = await makePourFixture(POUR, [`TC-${stamp}-1`, `TC-${stamp}-2`]);
   const [clear, held] = fx.tendons as [(typeof fx.tendons)[number], (typeof fx.tendons)[number]];
   const crewApi = await apiAs(PEOPLE.crew);
-  expect((await pushEndA(crewApi, fx, clear.id, 1.0)).result).toMatchObject({ status: "applied" });
-  expect((await pushEndA(crewApi, fx, held.id, 1.15)).result).toMatchObject({ status: "applied" });
+  await pushReadings(crewApi, fx, [
+    [clear.id, 1.0],
+    [held.id, 1.15],
+  ]);
 
   const ctx = await browser.newContext();
   const crew = await ctx.newPage();
-  await signInWithPassword(crew, PEOPLE.crew);
-  await crew.waitForURL(/\/home/);
-  await crew.goto("/field");
-  await crew.getByTestId("available-pour").filter({ hasText: POUR }).getByRole("button").click();
-  await crew
-    .getByTestId("ready-pour")
-    .filter({ hasText: POUR })
-    .getByRole("link", { name: "Open tendon list" })
-    .click();
+  await openPourAsCrew(crew, POUR);
 
   const rows = crew.getByTestId("tendon-row");
   await expect(rows.filter({ hasText: clear.tag }).getByTestId("tail-state")).toHaveText("Clear to cut tails");

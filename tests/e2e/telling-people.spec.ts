@@ -1,7 +1,8 @@
 import { expect, test } from "@playwright/test";
 import { PEOPLE, apiAs, lastMailId, latestMailTo, queryDemo, signInWithPassword } from "./people";
-import { makePourFixture, pushEndA } from "./pour-fixture";
+import { makePourFixture, pushReadings } from "./pour-fixture";
 import { screenshot } from "./support";
+import { openPourAsCrew } from "./field-steps";
 
 /**
  * Telling people during the shift. The drift alarm: on a pour made for this spec, five tendons stressed with the
@@ -44,22 +45,20 @@ test("a set that reads long on the pour raises the gauge check on the tablet and
   };
   const mailsBefore = await lastMailId();
   const crewApi = await apiAs(PEOPLE.crew);
-  for (const [i, factor] of NEAR.entries())
-    expect((await pushEndA(crewApi, fx, fx.tendons[i]!.id, factor)).result.status).toBe("applied");
-  for (const [i, factor] of LONG.entries())
-    expect((await pushEndA(crewApi, onSecond, fx.tendons[NEAR.length + i]!.id, factor)).result.status).toBe("applied");
+  await pushReadings(
+    crewApi,
+    fx,
+    NEAR.map((factor, i) => [fx.tendons[i]!.id, factor] as const),
+  );
+  await pushReadings(
+    crewApi,
+    onSecond,
+    LONG.map((factor, i) => [fx.tendons[NEAR.length + i]!.id, factor] as const),
+  );
 
   const ctx = await browser.newContext({ viewport: { width: 1280, height: 800 }, hasTouch: true });
   const crew = await ctx.newPage();
-  await signInWithPassword(crew, PEOPLE.crew);
-  await crew.waitForURL(/\/home/);
-  await crew.goto("/field");
-  await crew.getByTestId("available-pour").filter({ hasText: POUR }).getByRole("button").click();
-  await crew
-    .getByTestId("ready-pour")
-    .filter({ hasText: POUR })
-    .getByRole("link", { name: "Open tendon list" })
-    .click();
+  await openPourAsCrew(crew, POUR);
 
   const alarm = crew.getByTestId("gauge-check");
   await expect(alarm).toBeVisible({ timeout: 15_000 });

@@ -11,6 +11,7 @@ import { recordAudit } from "@/lib/server/record-audit";
 import { requestPasswordReset, resetPassword } from "@/lib/server/reset-password";
 import { revokeInvitation } from "@/lib/server/revoke-invitation";
 import { createTestDatabase, type TestDatabase } from "../support/database";
+import { demoPerson } from "../support/records";
 
 const INBOX = process.env.MAIL_INBOX_URL ?? "http://127.0.0.1:1081";
 
@@ -36,11 +37,7 @@ beforeAll(async () => {
   t = await createTestDatabase({ migrate: true });
   await seedDemo(t.db);
   projectId = (await t.db.selectFrom("projects").select("id").where("code", "=", "AYP").executeTakeFirstOrThrow()).id;
-  admin = await t.db
-    .selectFrom("users")
-    .select(["id", "name"])
-    .where("email", "=", "admin@demo.tautline.test")
-    .executeTakeFirstOrThrow();
+  admin = await demoPerson(t.db, "admin@demo.tautline.test");
 });
 afterAll(async () => {
   await t.drop();
@@ -123,11 +120,7 @@ describe("members", () => {
   });
 
   it("change role and removal are written to the audit trail", async () => {
-    const crew = await t.db
-      .selectFrom("users")
-      .select("id")
-      .where("email", "=", "crew@demo.tautline.test")
-      .executeTakeFirstOrThrow();
+    const crew = await demoPerson(t.db, "crew@demo.tautline.test");
     await changeMemberRole(t.db, { projectId, userId: crew.id, role: "inspector", by: admin.id });
     await changeMemberRole(t.db, { projectId, userId: crew.id, role: "crew", by: admin.id });
     const events = await t.db

@@ -1,5 +1,4 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/scripts/seed/demo";
 import { calibrationCorrectionSchema, calibrationRetirementSchema, pickCalibration } from "@/lib/schemas/calibration";
 import { addCalibration } from "@/lib/server/add-calibration";
 import { correctCalibration } from "@/lib/server/correct-calibration";
@@ -11,8 +10,8 @@ import {
   previewCalibrationRetirement,
 } from "@/lib/server/preview-calibration-correction";
 import { retireCalibration } from "@/lib/server/retire-calibration";
-import { demoFixture, insertRecord } from "../support/records";
-import { createTestDatabase, type TestDatabase } from "../support/database";
+import { insertRecord, seededDemo, type DemoFixture, demoPerson } from "../support/records";
+import { type TestDatabase } from "../support/database";
 
 // A calibration typed wrong is corrected, one found bad is retired, each with a reason and audited,
 // on real PostgreSQL: the old figures stay, so the stored evaluation keeps the calibration it used;
@@ -20,11 +19,9 @@ import { createTestDatabase, type TestDatabase } from "../support/database";
 // Calibration figures are invented (a straight line of about 5.1 kN per MPa, like a 100 t jack).
 
 let t: TestDatabase;
-let fx: Awaited<ReturnType<typeof demoFixture>>;
+let fx: DemoFixture;
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  await seedDemo(t.db);
-  fx = await demoFixture(t.db);
+  ({ t, fx } = await seededDemo());
 });
 afterAll(async () => {
   await t.drop();
@@ -37,11 +34,7 @@ const usedOf = (inputs: unknown) =>
 
 describe("correcting and retiring a calibration", () => {
   it("keeps the stored evaluation's calibration, re-judges on the correction, and never picks a retired one", async () => {
-    const admin = await t.db
-      .selectFrom("users")
-      .select("id")
-      .where("email", "=", "admin@demo.tautline.test")
-      .executeTakeFirstOrThrow();
+    const admin = await demoPerson(t.db, "admin@demo.tautline.test");
     const { setId } = await createEquipmentSet(t.db, {
       projectId: fx.projectId,
       values: {
@@ -200,20 +193,7 @@ describe("correcting and retiring a calibration", () => {
     });
 
     // The correction: a new calibration replaces the old, whose figures stay as they were.
-    const corrected = await correctCalibration(t.db, {
-      projectId: fx.projectId,
-      setId,
-      calibrationId: first.calibrationId,
-      by: admin,
-      reason: "Forces were copied from the 2025 certificate; these are the 2026 ones.",
-      values: {
-        calibratedOn: "2026-11-02",
-        validUntil: null,
-        laboratory: null,
-        certificateAttachmentId: null,
-        points: points(5300),
-      },
-    });
+    const corrected = await correctCalibration(t.db, correction);
     expect(corrected.reevaluated).toBe(1);
     const old = await t.db
       .selectFrom("calibrations")

@@ -1,13 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/scripts/seed/demo";
 import { addConcreteResult } from "@/lib/server/add-concrete-result";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { listConcreteResults } from "@/lib/server/list-concrete-results";
-import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
-import { predictTendon } from "@/lib/stressing/basis";
-import { demoFixture, insertRecord } from "../support/records";
-import { makePour, makeProject, makeTendons } from "../support/factories";
-import { createTestDatabase, type TestDatabase } from "../support/database";
+import { copyDemoTendons, demoPerson, demoStressing, seededDemo, type DemoFixture } from "../support/records";
+import { makePour, makeProject } from "../support/factories";
+import { type TestDatabase } from "../support/database";
 import { MPA_PER_PSI } from "@/lib/units";
 
 // The concrete gate on real PostgreSQL: one concrete flag per pour however many tendons are
@@ -18,34 +15,14 @@ import { MPA_PER_PSI } from "@/lib/units";
 const REQUIRED_MPA = 3000 * MPA_PER_PSI;
 
 let t: TestDatabase;
-let fx: Awaited<ReturnType<typeof demoFixture>>;
+let fx: DemoFixture;
 let inspector: { id: string; name: string };
-let pressure: number;
+let stressing: Awaited<ReturnType<typeof demoStressing>>;
 
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  await seedDemo(t.db);
-  fx = await demoFixture(t.db);
-  inspector = await t.db
-    .selectFrom("users")
-    .select(["id", "name"])
-    .where("email", "=", "inspector@demo.tautline.test")
-    .executeTakeFirstOrThrow();
-  const c = await t.db
-    .selectFrom("calibrations")
-    .select(["slope_n_per_mpa", "intercept_n"])
-    .where("equipment_set_id", "=", fx.setA)
-    .executeTakeFirstOrThrow();
-  const template = await t.db
-    .selectFrom("tendons")
-    .select("id")
-    .where("project_id", "=", fx.projectId)
-    .where("tag", "=", "2-1-U01")
-    .executeTakeFirstOrThrow();
-  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: template.id });
-  pressure =
-    (predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot }).jackingForceN - c.intercept_n) /
-    c.slope_n_per_mpa;
+  ({ t, fx } = await seededDemo());
+  inspector = await demoPerson(t.db, "inspector@demo.tautline.test");
+  stressing = await demoStressing(t.db, fx);
 });
 afterAll(async () => {
   await t.drop();
@@ -54,44 +31,14 @@ afterAll(async () => {
 /** A new pour with no confirmed concrete and `count` one-end tendons copied from the demo schedule. */
 async function newPour(name: string, count: number) {
   const pour = await makePour(t.db, fx.projectId, { name });
-  const template = await t.db
-    .selectFrom("tendons")
-    .selectAll()
-    .where("project_id", "=", fx.projectId)
-    .where("tag", "=", "2-1-U01")
-    .executeTakeFirstOrThrow();
   const tags = Array.from({ length: count }, (_, i) => `C-${i + 1}`);
-  const tendons = await makeTendons(t.db, { projectId: fx.projectId, pourId: pour.id }, tags, {
-    kind: template.kind,
-    strandSize: template.strand_size,
-    strandCount: template.strand_count,
-    segments: template.segments,
-    ends: template.ends,
-    jackGripMm: template.jack_grip_mm,
-    strandLotId: template.strand_lot_id,
-  });
+  const tendons = await copyDemoTendons(t.db, { projectId: fx.projectId, pourId: pour.id }, tags);
   return { pourId: pour.id, tendons };
 }
 
+/** Each end of the tendon read as predicted, then the tendon evaluated. */
 async function stress(tendon: { id: string; pour_id: string }) {
-  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tendon.id });
-  const predicted = predictTendon({
-    project: basis.project,
-    tendon: basis.tendon,
-    lot: basis.lot,
-    equipmentGripMm: 457.2,
-  }).predictedMm;
-  for (const end of basis.tendon.ends === "both" ? (["A", "B"] as const) : (["A"] as const))
-    await insertRecord(t.db, {
-      projectId: fx.projectId,
-      tendon,
-      end,
-      equipmentSetId: fx.setA,
-      authorId: fx.crewId,
-      measuredMm: predicted,
-      finalPressureMPa: pressure,
-    });
-  return evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+  return (await stressing.stress(tendon, 1)).evaluation;
 }
 
 const concreteFlags = (pourId: string) =>
@@ -175,19 +122,7 @@ describe("the concrete gate of a pour", () => {
   it("tendons evaluated at the same moment still raise one open concrete flag for the pour", async () => {
     const { pourId, tendons } = await newPour("Race pour", 6);
     // Records first, then every evaluation at once: each reads "no concrete flag yet" before any writes.
-    const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tendons[0]!.id });
-    const predicted = predictTendon({ ...basis, equipmentGripMm: 457.2 }).predictedMm;
-    for (const tendon of tendons)
-      for (const end of basis.tendon.ends === "both" ? (["A", "B"] as const) : (["A"] as const))
-        await insertRecord(t.db, {
-          projectId: fx.projectId,
-          tendon,
-          end,
-          equipmentSetId: fx.setA,
-          authorId: fx.crewId,
-          measuredMm: predicted,
-          finalPressureMPa: pressure,
-        });
+    for (const tendon of tendons) await stressing.record(tendon, 1);
     const outcomes = await Promise.all(
       tendons.map((tendon) => evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" })),
     );

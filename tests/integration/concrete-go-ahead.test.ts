@@ -1,11 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createDb, type Db } from "@/db/connect";
+import type { Db } from "@/db/connect";
 import type { SyncOp } from "@/lib/schemas/sync";
 import { listConcreteResults } from "@/lib/server/list-concrete-results";
 import { pushOps } from "@/lib/server/push-ops";
-import { createTestDatabase, type TestDatabase } from "../support/database";
+import type { TestDatabase } from "../support/database";
 import { makePour, makeTendons } from "../support/factories";
-import { buildWorld, createOp, type SyncWorld } from "./sync-fixtures";
+import { syncWorld, createOp, type SyncWorld } from "./sync-fixtures";
 
 // The crew's reason to stress a pour whose concrete strength is not confirmed, on real
 // PostgreSQL: it travels with the record, is kept on it, and the pour's one concrete flag quotes
@@ -19,14 +19,9 @@ let app: Db;
 const REASON = "Inspector read the field-cured cylinders on site at 3,200 psi.";
 
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  w = await buildWorld(t.db);
-  app = createDb(t.url, 3, { prepare: true });
+  ({ t, w, app } = await syncWorld(3));
 });
-afterAll(async () => {
-  await app.destroy();
-  await t.drop();
-});
+afterAll(() => t.drop());
 
 let pours = 0;
 /** A pour of the test's own, its concrete not confirmed, with six tendons copied from the demo's. */

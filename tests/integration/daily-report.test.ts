@@ -20,9 +20,9 @@ import { RECORD_COLUMNS, recordRows } from "@/lib/reports/pour-rows";
 import { dailySnapshot } from "@/lib/reports/daily-rows";
 import { signDailyReport } from "@/lib/server/sign-daily-report";
 import { verifyReportFile } from "@/lib/server/verify-report-file";
-import { seedDemo } from "@/scripts/seed/demo";
-import { createTestDatabase, type TestDatabase } from "../support/database";
-import { demoFixture, insertRecord } from "../support/records";
+import { type TestDatabase } from "../support/database";
+import { copyDemoTendons, seededDemo, type DemoFixture, insertDemoRecord, demoPerson } from "../support/records";
+import { makePour } from "../support/factories";
 
 // A pour of our own on the demo project, whose zone is set to America/Chicago. Day under test:
 // 2026-11-18 (CST, UTC−6). S-01 is stressed at 09:10 CST; S-02 at 19:30 CST, which is already
@@ -37,7 +37,7 @@ const DAY = "2026-11-18";
 const PSI = MPA_PER_PSI; // MPa per psi (NIST SP 811, 1 psi = 6.894757 kPa)
 
 let t: TestDatabase;
-let fx: Awaited<ReturnType<typeof demoFixture>>;
+let fx: DemoFixture;
 let pourId: string;
 let tendons: Record<string, { id: string; pour_id: string }>;
 let inspector: { id: string };
@@ -76,12 +76,8 @@ async function liftoff(checkedAt: string) {
 const pdfTextOf = pdfText;
 
 async function stress(tag: string, deviceTime: string, measuredMm: number, on = tendons) {
-  await insertRecord(t.db, {
-    projectId: fx.projectId,
+  await insertDemoRecord(t.db, fx, {
     tendon: on[tag]!,
-    end: "A",
-    equipmentSetId: fx.setA,
-    authorId: fx.crewId,
     measuredMm,
     finalPressureMPa: 4200 * PSI,
     deviceTime,
@@ -91,53 +87,17 @@ async function stress(tag: string, deviceTime: string, measuredMm: number, on = 
 
 beforeAll(async () => {
   mkdirSync("test-results/reports", { recursive: true });
-  t = await createTestDatabase({ migrate: true });
-  await seedDemo(t.db);
-  fx = await demoFixture(t.db);
+  ({ t, fx } = await seededDemo());
   await t.db.updateTable("projects").set({ time_zone: "America/Chicago" }).where("id", "=", fx.projectId).execute();
-  inspector = await t.db
-    .selectFrom("users")
-    .select("id")
-    .where("email", "=", "inspector@demo.tautline.test")
-    .executeTakeFirstOrThrow();
-  const template = await t.db
-    .selectFrom("tendons")
-    .selectAll()
-    .where("project_id", "=", fx.projectId)
-    .where("ends", "=", "A")
-    .orderBy("tag")
-    .limit(1)
-    .executeTakeFirstOrThrow();
+  inspector = await demoPerson(t.db, "inspector@demo.tautline.test");
+  // Two pours of one-end tendons like 2-1-U01: the day's stressings, and one checked and detensioned.
   const addPour = async (name: string, tags: string[]) => {
-    const id = (
-      await t.db
-        .insertInto("pours")
-        .values({ project_id: fx.projectId, name, concrete_strength_mpa: 4000 * PSI })
-        .returning("id")
-        .executeTakeFirstOrThrow()
-    ).id;
+    const id = (await makePour(t.db, fx.projectId, { name, concreteStrengthMPa: 4000 * PSI })).id;
     const rows: Record<string, { id: string; pour_id: string }> = {};
-    for (const tag of tags) rows[tag] = await addTendon(id, tag);
+    for (const row of await copyDemoTendons(t.db, { projectId: fx.projectId, pourId: id }, tags, { ends: "A" }))
+      rows[row.tag] = row;
     return { id, rows };
   };
-  const addTendon = (pour: string, tag: string) =>
-    t.db
-      .insertInto("tendons")
-      .values({
-        project_id: fx.projectId,
-        pour_id: pour,
-        tag,
-        kind: template.kind,
-        strand_size: template.strand_size,
-        strand_count: template.strand_count,
-        segments: JSON.stringify(template.segments),
-        ends: "A",
-        jack_grip_mm: template.jack_grip_mm,
-        strand_lot_id: template.strand_lot_id,
-        shop_elongation_mm: null,
-      })
-      .returning(["id", "pour_id"])
-      .executeTakeFirstOrThrow();
   ({ id: pourId, rows: tendons } = await addPour("Daily pour", ["S-01", "S-02", "S-03"]));
   ({ id: checkPourId, rows: checkTendons } = await addPour("Check pour", ["C-01", "C-02"]));
   await stress("S-01", "2026-11-18T15:10:00Z", 150);

@@ -1,6 +1,6 @@
 import { randomUUID } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createDb, type Db } from "@/db/connect";
+import type { Db } from "@/db/connect";
 import type { DetensionPayload } from "@/lib/schemas/detension";
 import type { SyncOp } from "@/lib/schemas/sync";
 import type { TailCutPayload } from "@/lib/schemas/tail-cut";
@@ -10,8 +10,9 @@ import { getTendonCase } from "@/lib/server/get-tendon-case";
 import { pullChanges } from "@/lib/server/pull-changes";
 import { pushOps } from "@/lib/server/push-ops";
 import { recordDisposition } from "@/lib/server/record-disposition";
-import { createTestDatabase, type TestDatabase } from "../support/database";
-import { buildWorld, createOp, type SyncWorld } from "./sync-fixtures";
+import type { TestDatabase } from "../support/database";
+import { demoPerson } from "../support/records";
+import { syncWorld, createOp, type SyncWorld } from "./sync-fixtures";
 
 /**
  * Detensions through the sync push on real PostgreSQL: a detension answers an engineer's
@@ -78,14 +79,8 @@ const detensionsOf = (tendonId: string) =>
 const claims = async () => (await t.db.selectFrom("applied_ops").select("op_id").execute()).length;
 
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  w = await buildWorld(t.db);
-  app = createDb(t.url, 4, { prepare: true });
-  const engineer = await t.db
-    .selectFrom("users")
-    .select("id")
-    .where("email", "=", "engineer@demo.tautline.test")
-    .executeTakeFirstOrThrow();
+  ({ t, w, app } = await syncWorld(4));
+  const engineer = await demoPerson(t.db, "engineer@demo.tautline.test");
   // Three one-end tendons read short: the engineer orders a detension and restress on two, a plain restress on the third.
   const [x, y, z] = w.tendons.filter((tt) => tt.ends === "A");
   const ordered: string[] = [];
@@ -122,10 +117,7 @@ beforeAll(async () => {
   otherDispositionId = ordered[2]!;
   otherTendonId = z!.id;
 });
-afterAll(async () => {
-  await app.destroy();
-  await t.drop();
-});
+afterAll(() => t.drop());
 
 describe("a detension not ordered by a disposition is refused, and nothing is written", () => {
   it.each([

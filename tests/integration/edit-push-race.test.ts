@@ -1,11 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createDb, type Db } from "@/db/connect";
+import type { Db } from "@/db/connect";
 import { pushOps } from "@/lib/server/push-ops";
 import { updateTendon } from "@/lib/server/update-tendon";
 import { updateStrandLot } from "@/lib/server/update-strand-lot";
 import type { TendonInput } from "@/lib/schemas/tendon";
-import { createTestDatabase, type TestDatabase } from "../support/database";
-import { buildWorld, createOp, type SyncWorld } from "./sync-fixtures";
+import type { TestDatabase } from "../support/database";
+import { syncWorld, createOp, type SyncWorld } from "./sync-fixtures";
 
 // A schedule or strand-lot edit that commits between a pushed record's read and its write: the
 // edit raises the tendons' versions, so the push's guard refuses its first write and the record is
@@ -17,14 +17,9 @@ let app: Db;
 const DEVICE = "tablet-edit-race";
 
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  w = await buildWorld(t.db);
-  app = createDb(t.url, 5, { prepare: true });
+  ({ t, w, app } = await syncWorld(5));
 });
-afterAll(async () => {
-  await app.destroy();
-  await t.drop();
-});
+afterAll(() => t.drop());
 
 async function scheduleOf(tendonId: string): Promise<TendonInput> {
   const r = await t.db.selectFrom("tendons").selectAll().where("id", "=", tendonId).executeTakeFirstOrThrow();
@@ -50,29 +45,39 @@ const latestEvaluation = (tendonId: string) =>
     .orderBy("created_at", "desc")
     .executeTakeFirstOrThrow();
 
+/**
+ * Pushes an in-band reading of the tendon, running `edit` between the push's read and its first
+ * write; answers the attempts the push made and its results.
+ */
+async function pushWithEditBetween(tendonId: string, edit: () => Promise<unknown>) {
+  const op = createOp(w, tendonId, { marksAfter: await w.inBandAfter(tendonId) });
+  const attempts: number[] = [];
+  const { results } = await pushOps(app, {
+    user: w.crew,
+    deviceId: DEVICE,
+    ops: [op],
+    hooks: {
+      beforeWrite: async (_op, attempt) => {
+        attempts.push(attempt);
+        if (attempt === 1) await edit();
+      },
+    },
+  });
+  return { attempts, results };
+}
+
 describe("an edit racing a pushed record", () => {
   it("a schedule edit between the push's read and write: the record is judged on the new schedule", async () => {
     const tendon = oneEnded(0);
     const schedule = await scheduleOf(tendon.id);
-    const op = createOp(w, tendon.id, { marksAfter: await w.inBandAfter(tendon.id) });
-    const attempts: number[] = [];
-    const { results } = await pushOps(app, {
-      user: w.crew,
-      deviceId: DEVICE,
-      ops: [op],
-      hooks: {
-        beforeWrite: async (_op, attempt) => {
-          attempts.push(attempt);
-          if (attempt === 1)
-            await updateTendon(t.db, {
-              projectId: w.projectId,
-              tendonId: tendon.id,
-              values: { ...schedule, segments: schedule.segments.map((g) => ({ ...g, lengthMm: g.lengthMm * 1.2 })) },
-              by: w.crew.id,
-            });
-        },
-      },
-    });
+    const { attempts, results } = await pushWithEditBetween(tendon.id, () =>
+      updateTendon(t.db, {
+        projectId: w.projectId,
+        tendonId: tendon.id,
+        values: { ...schedule, segments: schedule.segments.map((g) => ({ ...g, lengthMm: g.lengthMm * 1.2 })) },
+        by: w.crew.id,
+      }),
+    );
     expect(attempts).toEqual([1, 2]);
     expect(results[0]).toMatchObject({ status: "applied", evaluation: { verdict: "short" } });
     expect(await latestEvaluation(tendon.id)).toMatchObject({ verdict: "short", reason: expect.any(String) });
@@ -94,32 +99,21 @@ describe("an edit racing a pushed record", () => {
       .selectAll()
       .where("id", "=", tendon.strand_lot_id!)
       .executeTakeFirstOrThrow();
-    const op = createOp(w, tendon.id, { marksAfter: await w.inBandAfter(tendon.id) });
-    const attempts: number[] = [];
-    const { results } = await pushOps(app, {
-      user: w.crew,
-      deviceId: DEVICE,
-      ops: [op],
-      hooks: {
-        beforeWrite: async (_op, attempt) => {
-          attempts.push(attempt);
-          if (attempt === 1)
-            await updateStrandLot(t.db, {
-              projectId: w.projectId,
-              strandLotId: lot.id,
-              values: {
-                lotNumber: lot.lot_number,
-                strandSize: lot.strand_size,
-                areaMm2: lot.area_mm2,
-                modulusMPa: lot.modulus_mpa * 0.9,
-                breakingLoadN: lot.breaking_load_n,
-                certificateAttachmentId: lot.certificate_attachment_id,
-              },
-              by: w.crew.id,
-            });
+    const { attempts, results } = await pushWithEditBetween(tendon.id, () =>
+      updateStrandLot(t.db, {
+        projectId: w.projectId,
+        strandLotId: lot.id,
+        values: {
+          lotNumber: lot.lot_number,
+          strandSize: lot.strand_size,
+          areaMm2: lot.area_mm2,
+          modulusMPa: lot.modulus_mpa * 0.9,
+          breakingLoadN: lot.breaking_load_n,
+          certificateAttachmentId: lot.certificate_attachment_id,
         },
-      },
-    });
+        by: w.crew.id,
+      }),
+    );
     expect(attempts).toEqual([1, 2]);
     expect(results[0]).toMatchObject({ status: "applied", evaluation: { verdict: "short" } });
   });

@@ -1,43 +1,36 @@
 import { sql } from "kysely";
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { MPA_PER_PSI } from "@/lib/units";
-import { seedDemo } from "@/scripts/seed/demo";
 import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
-import { predictTendon } from "@/lib/stressing/basis";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { getPourReport } from "@/lib/server/get-pour-report";
 import { getTendonCase } from "@/lib/server/get-tendon-case";
 import { RECORD_COLUMNS, recordRows } from "@/lib/reports/pour-rows";
-import { demoFixture, insertRecord } from "../support/records";
-import { createTestDatabase, type TestDatabase } from "../support/database";
+import {
+  insertRecord,
+  seededDemo,
+  type DemoFixture,
+  insertDemoRecord,
+  pressureForForce,
+  demoPrediction,
+} from "../support/records";
+import { type TestDatabase } from "../support/database";
 
 let t: TestDatabase;
-let fx: Awaited<ReturnType<typeof demoFixture>>;
+let fx: DemoFixture;
 
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  await seedDemo(t.db);
-  fx = await demoFixture(t.db);
+  ({ t, fx } = await seededDemo());
 });
 afterAll(async () => {
   await t.drop();
 });
 
-async function predictedFor(tendonId: string) {
-  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId });
-  return predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot, equipmentGripMm: 457.2 });
-}
+const predictedFor = (tendonId: string) => demoPrediction(t.db, { projectId: fx.projectId, tendonId });
 
 /** The gauge pressure on demo Set A that gives a force, from its stored calibration line. */
-async function pressureOnSetA(forceN: number): Promise<number> {
-  const c = await t.db
-    .selectFrom("calibrations")
-    .select(["slope_n_per_mpa", "intercept_n"])
-    .where("equipment_set_id", "=", fx.setA)
-    .executeTakeFirstOrThrow();
-  return (forceN - c.intercept_n) / c.slope_n_per_mpa;
-}
+const pressureOnSetA = (forceN: number) => pressureForForce(t.db, fx.setA, forceN);
 
 const flagsOf = (tendonId: string) =>
   t.db
@@ -84,12 +77,8 @@ describe("the server's evaluation of a tendon", () => {
   it("stores an in-band verdict with every input and raises nothing", async () => {
     const tendon = await fx.tendon("2-1-U01");
     const predicted = await predictedFor(tendon.id);
-    await insertRecord(t.db, {
-      projectId: fx.projectId,
+    await insertDemoRecord(t.db, fx, {
       tendon,
-      end: "A",
-      equipmentSetId: fx.setA,
-      authorId: fx.crewId,
       measuredMm: predicted.predictedMm * 1.02,
       finalPressureMPa: normalPressure,
     });
@@ -112,12 +101,8 @@ describe("the server's evaluation of a tendon", () => {
   it("flags a long tendon once, queues one e-mail to the engineer with the inspector copied, and a replay adds nothing", async () => {
     const tendon = await fx.tendon("2-1-U02");
     const predicted = await predictedFor(tendon.id);
-    await insertRecord(t.db, {
-      projectId: fx.projectId,
+    await insertDemoRecord(t.db, fx, {
       tendon,
-      end: "A",
-      equipmentSetId: fx.setA,
-      authorId: fx.crewId,
       measuredMm: predicted.predictedMm * 1.1,
       finalPressureMPa: normalPressure,
     });
@@ -149,12 +134,8 @@ describe("the server's evaluation of a tendon", () => {
     const a = predicted.prediction.perEndMm.A!;
     const b = predicted.prediction.perEndMm.B!;
     const share = (x: number) => (x / predicted.prediction.grossMm) * predicted.predictedMm;
-    await insertRecord(t.db, {
-      projectId: fx.projectId,
+    await insertDemoRecord(t.db, fx, {
       tendon,
-      end: "A",
-      equipmentSetId: fx.setA,
-      authorId: fx.crewId,
       measuredMm: share(a) * 0.9,
       finalPressureMPa: normalPressure,
     });
@@ -178,12 +159,8 @@ describe("the server's evaluation of a tendon", () => {
     const tendon = await fx.tendon("2-1-U03");
     const predicted = await predictedFor(tendon.id);
     const over = await pressureOnSetA(JACKING_TARGET_N * 1.04);
-    await insertRecord(t.db, {
-      projectId: fx.projectId,
+    await insertDemoRecord(t.db, fx, {
       tendon,
-      end: "A",
-      equipmentSetId: fx.setA,
-      authorId: fx.crewId,
       measuredMm: predicted.predictedMm,
       finalPressureMPa: over,
     });
@@ -263,12 +240,8 @@ describe("the server's evaluation of a tendon", () => {
       .where("tag", "=", "3-1-U01")
       .executeTakeFirstOrThrow();
     const predicted = await predictedFor(tendon.id);
-    await insertRecord(t.db, {
-      projectId: fx.projectId,
+    await insertDemoRecord(t.db, fx, {
       tendon,
-      end: "A",
-      equipmentSetId: fx.setA,
-      authorId: fx.crewId,
       measuredMm: predicted.predictedMm,
       finalPressureMPa: normalPressure,
     });
@@ -300,12 +273,8 @@ describe("the server's evaluation of a tendon", () => {
   it("flags an elongation and a gauge that disagree on the force, naming both on the flag, the e-mail, the sheet and the report", async () => {
     const tendon = await fx.tendon("2-1-U07");
     const predicted = await predictedFor(tendon.id);
-    await insertRecord(t.db, {
-      projectId: fx.projectId,
+    await insertDemoRecord(t.db, fx, {
       tendon,
-      end: "A",
-      equipmentSetId: fx.setA,
-      authorId: fx.crewId,
       measuredMm: predicted.predictedMm,
       finalPressureMPa: await pressureOnSetA(JACKING_TARGET_N * 0.92),
     });

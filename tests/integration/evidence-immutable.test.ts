@@ -5,6 +5,7 @@ import { seedDemo } from "@/scripts/seed/demo";
 import { cleanPendingUploads, confirmUpload, presignUpload, readAttachment } from "@/lib/storage";
 import { bucket, s3 } from "@/lib/storage/client";
 import { createTestDatabase, type TestDatabase } from "../support/database";
+import { demoPerson } from "../support/records";
 
 // Before: a confirmed certificate could be replaced through its still-valid presigned URL while
 // the stored hash stayed the old one. Now confirmation copies the checked bytes to a key no URL
@@ -22,13 +23,7 @@ beforeAll(async () => {
   t = await createTestDatabase({ migrate: true });
   await seedDemo(t.db);
   projectId = (await t.db.selectFrom("projects").select("id").where("code", "=", "AYP").executeTakeFirstOrThrow()).id;
-  adminId = (
-    await t.db
-      .selectFrom("users")
-      .select("id")
-      .where("email", "=", "admin@demo.tautline.test")
-      .executeTakeFirstOrThrow()
-  ).id;
+  adminId = (await demoPerson(t.db, "admin@demo.tautline.test")).id;
 });
 afterAll(async () => {
   await t.drop();

@@ -1,6 +1,6 @@
 import { randomUUID } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createDb, type Db } from "@/db/connect";
+import type { Db } from "@/db/connect";
 import { pressureForForce } from "@/lib/elongation";
 import type { LiftoffPayload } from "@/lib/schemas/liftoff";
 import type { SyncOp } from "@/lib/schemas/sync";
@@ -13,8 +13,9 @@ import { recordDisposition } from "@/lib/server/record-disposition";
 import { predictTendon, projectBasisFromRow } from "@/lib/stressing/basis";
 import { expectedAnchorForceN } from "@/lib/stressing/liftoff";
 import { mpaToPsi } from "@/lib/units";
-import { createTestDatabase, type TestDatabase } from "../support/database";
-import { buildWorld, createOp, type SyncWorld } from "./sync-fixtures";
+import type { TestDatabase } from "../support/database";
+import { demoPerson } from "../support/records";
+import { syncWorld, createOp, type SyncWorld } from "./sync-fixtures";
 import { settingsFields } from "@/lib/schemas/project-settings";
 
 /**
@@ -72,14 +73,8 @@ const liftoffFlags = () =>
     .execute();
 
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  w = await buildWorld(t.db);
-  app = createDb(t.url, 4, { prepare: true });
-  const engineer = await t.db
-    .selectFrom("users")
-    .select("id")
-    .where("email", "=", "engineer@demo.tautline.test")
-    .executeTakeFirstOrThrow();
+  ({ t, w, app } = await syncWorld(4));
+  const engineer = await demoPerson(t.db, "engineer@demo.tautline.test");
   // Two one-end tendons read short: the engineer orders a lift-off check on the first and a
   // restress on the second.
   const [first, second] = w.tendons.filter((x) => x.ends === "A");
@@ -146,10 +141,7 @@ beforeAll(async () => {
     maxPressureMPa: cal.max_pressure_mpa,
   };
 });
-afterAll(async () => {
-  await app.destroy();
-  await t.drop();
-});
+afterAll(() => t.drop());
 
 describe("bad input names the field and writes nothing", () => {
   it.each([

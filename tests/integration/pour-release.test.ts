@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it, onTestFinished } from "vitest";
-import { createDb, type Db } from "@/db/connect";
+import type { Db } from "@/db/connect";
 import { pourSchema } from "@/lib/schemas/pour";
 import { releaseSchema, reopenSchema } from "@/lib/schemas/review";
 import { correctRecord } from "@/lib/server/correct-record";
@@ -19,9 +19,10 @@ import { readSignedReport } from "@/lib/server/read-signed-report";
 import { pourReportContentSha256, reportContentSha256, signPourReport } from "@/lib/server/sign-pour-report";
 import { verifyReportFile } from "@/lib/server/verify-report-file";
 import { pdfText } from "../support/pdf-text";
-import { createTestDatabase, type TestDatabase } from "../support/database";
+import type { TestDatabase } from "../support/database";
+import { demoPerson } from "../support/records";
 import { makePour, makeTendons } from "../support/factories";
-import { buildWorld, createOp, type SyncWorld } from "./sync-fixtures";
+import { syncWorld, createOp, type SyncWorld } from "./sync-fixtures";
 
 let t: TestDatabase;
 let w: SyncWorld;
@@ -114,21 +115,15 @@ const crewSession = () =>
 const engineer = () => ({ ...people.engineer, role: "engineer" as const });
 
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  w = await buildWorld(t.db);
-  app = createDb(t.url, 3, { prepare: true });
-  const user = (email: string) =>
-    t.db.selectFrom("users").select(["id", "name"]).where("email", "=", email).executeTakeFirstOrThrow();
+  ({ t, w, app } = await syncWorld(3));
+  const user = (email: string) => demoPerson(t.db, email);
   people = {
     admin: await user("admin@demo.tautline.test"),
     inspector: await user("inspector@demo.tautline.test"),
     engineer: await user("engineer@demo.tautline.test"),
   };
 });
-afterAll(async () => {
-  await app.destroy();
-  await t.drop();
-});
+afterAll(() => t.drop());
 
 describe("a pour's status follows from its records and its release", () => {
   it("is planned, then stressing, then stressed, and the pour form cannot set it", async () => {

@@ -4,7 +4,6 @@ import { PDFParse } from "pdf-parse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { uuidv7 } from "uuidv7";
 import { CAUTION_TEXT } from "@/lib/cautions";
-import { seedDemo } from "@/scripts/seed/demo";
 import { pourCsvTable, renderPourCsv } from "@/lib/reports/pour-csv";
 import { pdfText, renderPourPdf } from "@/lib/reports/pour-pdf";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
@@ -14,12 +13,12 @@ import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { recordDisposition } from "@/lib/server/record-disposition";
 import { releasePour } from "@/lib/server/release-pour";
 import { predictTendon } from "@/lib/stressing/basis";
-import { demoFixture, insertRecord } from "../support/records";
+import { insertRecord, seededDemo, type DemoFixture, demoPerson } from "../support/records";
 import { MomentOld } from "@/db/moment-old";
-import { createTestDatabase, type TestDatabase } from "../support/database";
+import { type TestDatabase } from "../support/database";
 
 let t: TestDatabase;
-let fx: Awaited<ReturnType<typeof demoFixture>>;
+let fx: DemoFixture;
 let pourId: string;
 let tags: string[];
 let engineer: { id: string; name: string };
@@ -27,9 +26,7 @@ let engineer: { id: string; name: string };
 // A pour of our own with the 50 tendons of the demo's "L2 Pour 2" schedule (tags prefixed R),
 // so the report runs over several pages whatever the demo seed holds.
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  await seedDemo(t.db);
-  fx = await demoFixture(t.db);
+  ({ t, fx } = await seededDemo());
   const source = await t.db
     .selectFrom("pours")
     .select("id")
@@ -70,11 +67,7 @@ beforeAll(async () => {
       })
       .execute();
   }
-  engineer = await t.db
-    .selectFrom("users")
-    .select(["id", "name"])
-    .where("email", "=", "engineer@demo.tautline.test")
-    .executeTakeFirstOrThrow();
+  engineer = await demoPerson(t.db, "engineer@demo.tautline.test");
 
   const calibration = async (setId: string) =>
     t.db

@@ -1,79 +1,42 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/scripts/seed/demo";
-import { predictTendon } from "@/lib/stressing/basis";
 import { correctRecord } from "@/lib/server/correct-record";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { findClockSkews } from "@/lib/server/find-clock-skews";
 import { findFlags } from "@/lib/server/find-flags";
 import { getHomeSummary } from "@/lib/server/get-home-summary";
 import { getTendonCase } from "@/lib/server/get-tendon-case";
-import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { recordDisposition } from "@/lib/server/record-disposition";
 import { releasePour } from "@/lib/server/release-pour";
-import { demoFixture, insertRecord } from "../support/records";
-import { createTestDatabase, type TestDatabase } from "../support/database";
+import {
+  copyDemoTendons,
+  demoPerson,
+  demoStressing,
+  seededDemo,
+  type DemoFixture,
+  insertDemoRecord,
+} from "../support/records";
+import { makePour } from "../support/factories";
+import { type TestDatabase } from "../support/database";
 
 let t: TestDatabase;
-let fx: Awaited<ReturnType<typeof demoFixture>>;
+let fx: DemoFixture;
 let pourId: string;
 let tendons: { id: string; pour_id: string; tag: string }[];
 let inspector: { id: string; name: string };
 let pressure: number;
+let predicted: (tendonId: string) => Promise<number>;
+let stress: Awaited<ReturnType<typeof demoStressing>>["stress"];
 
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  await seedDemo(t.db);
-  fx = await demoFixture(t.db);
-  const pour = await t.db
-    .insertInto("pours")
-    .values({ project_id: fx.projectId, name: "Queue test pour", concrete_strength_mpa: 30 })
-    .returning("id")
-    .executeTakeFirstOrThrow();
-  pourId = pour.id;
-  tendons = [];
-  for (const tag of ["Q-1", "Q-2", "Q-3"]) tendons.push(await addTendon(pourId, tag));
-  inspector = await t.db
-    .selectFrom("users")
-    .select(["id", "name"])
-    .where("email", "=", "inspector@demo.tautline.test")
-    .executeTakeFirstOrThrow();
-  const c = await t.db
-    .selectFrom("calibrations")
-    .select(["slope_n_per_mpa", "intercept_n"])
-    .where("equipment_set_id", "=", fx.setA)
-    .executeTakeFirstOrThrow();
-  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tendons[0]!.id });
-  const target = predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot }).jackingForceN;
-  pressure = (target - c.intercept_n) / c.slope_n_per_mpa;
+  ({ t, fx } = await seededDemo());
+  pourId = (await makePour(t.db, fx.projectId, { name: "Queue test pour", concreteStrengthMPa: 30 })).id;
+  tendons = await copyDemoTendons(t.db, { projectId: fx.projectId, pourId }, ["Q-1", "Q-2", "Q-3"]);
+  inspector = await demoPerson(t.db, "inspector@demo.tautline.test");
+  ({ pressure, predicted, stress } = await demoStressing(t.db, fx));
 });
 afterAll(async () => {
   await t.drop();
 });
-
-async function predicted(tendonId: string) {
-  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId });
-  return predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot, equipmentGripMm: 457.2 })
-    .predictedMm;
-}
-
-async function stress(
-  tendon: { id: string; pour_id: string },
-  factor: number,
-  extra: { deviceTime?: string; wireBreaks?: number } = {},
-) {
-  const recordId = await insertRecord(t.db, {
-    projectId: fx.projectId,
-    tendon,
-    end: "A",
-    equipmentSetId: fx.setA,
-    authorId: fx.crewId,
-    measuredMm: (await predicted(tendon.id)) * factor,
-    finalPressureMPa: pressure,
-    ...extra,
-  });
-  const evaluation = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
-  return { recordId, evaluation };
-}
 
 describe("queues show the tendon as it stands", () => {
   it("a flagged tendon whose reading was corrected into band shows the latest verdict, with its flag still open", async () => {
@@ -150,28 +113,8 @@ describe("clock skew is visible", () => {
 
 /** A one-end tendon like the demo's 2-1-U01 on the given pour. */
 async function addTendon(onPour: string, tag: string) {
-  const template = await t.db
-    .selectFrom("tendons")
-    .selectAll()
-    .where("project_id", "=", fx.projectId)
-    .where("tag", "=", "2-1-U01")
-    .executeTakeFirstOrThrow();
-  return t.db
-    .insertInto("tendons")
-    .values({
-      project_id: fx.projectId,
-      pour_id: onPour,
-      tag,
-      kind: template.kind,
-      strand_size: template.strand_size,
-      strand_count: template.strand_count,
-      segments: JSON.stringify(template.segments),
-      ends: template.ends,
-      jack_grip_mm: template.jack_grip_mm,
-      strand_lot_id: template.strand_lot_id,
-    })
-    .returning(["id", "pour_id", "tag"])
-    .executeTakeFirstOrThrow();
+  const [tendon] = await copyDemoTendons(t.db, { projectId: fx.projectId, pourId: onPour }, [tag]);
+  return tendon!;
 }
 
 describe("the review queue lists every record whose time is off, flagged tendon or not", () => {
@@ -207,12 +150,8 @@ describe("the review queue lists every record whose time is off, flagged tendon 
     const tendon = await addTendon(pourId, "Q-5");
     // Received two hours ago with a right clock, then corrected in the office now.
     const twoHoursAgo = new Date(Date.now() - 2 * 3600_000);
-    const recordId = await insertRecord(t.db, {
-      projectId: fx.projectId,
+    const recordId = await insertDemoRecord(t.db, fx, {
       tendon,
-      end: "A",
-      equipmentSetId: fx.setA,
-      authorId: fx.crewId,
       measuredMm: await predicted(tendon.id),
       finalPressureMPa: pressure,
       deviceTime: twoHoursAgo.toISOString(),
@@ -244,11 +183,7 @@ describe("the review queue lists every record whose time is off, flagged tendon 
     const { recordId } = await stress(tendon, 1.0, { deviceTime: new Date(Date.now() - 20 * 60_000).toISOString() });
     const listed = async () => (await findClockSkews(t.db, { projectIds: [fx.projectId] })).map((r) => r.recordId);
     expect(await listed()).toContain(recordId);
-    const by = await t.db
-      .selectFrom("users")
-      .select(["id", "name"])
-      .where("email", "=", "engineer@demo.tautline.test")
-      .executeTakeFirstOrThrow();
+    const by = await demoPerson(t.db, "engineer@demo.tautline.test");
     await releasePour(t.db, {
       projectId: fx.projectId,
       pourId: pour.id,

@@ -5,6 +5,7 @@ import { pushOps } from "@/lib/server/push-ops";
 import type { SyncOp } from "@/lib/schemas/sync";
 import { formatLength, parseLength, MM_PER_INCH } from "@/lib/units";
 import { createTestDatabase, type TestDatabase } from "../support/database";
+import { demoPerson } from "../support/records";
 import type { RecordFormValues, RecordPayload } from "@/lib/schemas/record";
 import { buildWorld, recordPayload, type SyncWorld } from "./sync-fixtures";
 
@@ -137,11 +138,7 @@ describe("push: wire breaks, which strand and where", () => {
 
 describe("the schedule's stressing order", () => {
   it("is imported into the tendon row, which the tablet pulls as the form's default", async () => {
-    const admin = await t.db
-      .selectFrom("users")
-      .select("id")
-      .where("email", "=", "admin@demo.tautline.test")
-      .executeTakeFirstOrThrow();
+    const admin = await demoPerson(t.db, "admin@demo.tautline.test");
     const csv = [
       "tag,type,strand size [in],strands,ends,segments [ft@deg],stressing order",
       "SO-1,multistrand,0.6,12,both,40@5.7 40@5.7,simultaneous",

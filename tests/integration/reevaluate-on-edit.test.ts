@@ -1,14 +1,13 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/scripts/seed/demo";
 import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { updateStrandLot } from "@/lib/server/update-strand-lot";
 import { updateTendon } from "@/lib/server/update-tendon";
 import type { TendonInput } from "@/lib/schemas/tendon";
 import { AppError } from "@/lib/errors";
-import { demoFixture, insertRecord, predictionAsRead } from "../support/records";
+import { predictionAsRead, seededDemo, type DemoFixture, insertDemoRecord, pressureForForce } from "../support/records";
 import { makePour, makeStrandLot, makeTendons } from "../support/factories";
-import { createTestDatabase, type TestDatabase } from "../support/database";
+import { type TestDatabase } from "../support/database";
 
 // Editing what a prediction reads (a strand lot's modulus, a tendon's schedule) judges the stressed
 // tendons again on real PostgreSQL, in the edit's own transaction: a new evaluation with the cause,
@@ -17,11 +16,9 @@ import { createTestDatabase, type TestDatabase } from "../support/database";
 // (ASTM A416 Table 1). Elongation P·L/(A·E): the gross prediction is inversely proportional to E.
 
 let t: TestDatabase;
-let fx: Awaited<ReturnType<typeof demoFixture>>;
+let fx: DemoFixture;
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  await seedDemo(t.db);
-  fx = await demoFixture(t.db);
+  ({ t, fx } = await seededDemo());
 });
 afterAll(async () => {
   await t.drop();
@@ -64,19 +61,10 @@ async function stressedTendon(tag: string) {
   };
   const tendon = (await makeTendons(t.db, { projectId: fx.projectId, pourId: pour.id }, [tag], values))[0]!;
   const predicted = await predictionOf(tendon.id);
-  const c = await t.db
-    .selectFrom("calibrations")
-    .select(["slope_n_per_mpa", "intercept_n"])
-    .where("equipment_set_id", "=", fx.setA)
-    .executeTakeFirstOrThrow();
-  await insertRecord(t.db, {
-    projectId: fx.projectId,
+  await insertDemoRecord(t.db, fx, {
     tendon,
-    end: "A",
-    equipmentSetId: fx.setA,
-    authorId: fx.crewId,
     measuredMm: predicted.mm,
-    finalPressureMPa: (0.8 * HALF_INCH.minBreakingStrengthN - c.intercept_n) / c.slope_n_per_mpa,
+    finalPressureMPa: await pressureForForce(t.db, fx.setA, 0.8 * HALF_INCH.minBreakingStrengthN),
   });
   const first = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
   expect(first).toMatchObject({ verdict: "in band", flagKinds: [] });

@@ -1,5 +1,4 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/scripts/seed/demo";
 import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 import { dayInZone } from "@/lib/format/dates";
 import { addCalibration } from "@/lib/server/add-calibration";
@@ -9,8 +8,8 @@ import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { previewSettingsChange } from "@/lib/server/preview-settings-change";
 import { updateProjectSettings } from "@/lib/server/update-project-settings";
 import { judgeStressing } from "@/lib/stressing/judge";
-import { demoFixture, insertRecord, predictionAsRead } from "../support/records";
-import { createTestDatabase, type TestDatabase } from "../support/database";
+import { predictionAsRead, seededDemo, type DemoFixture, insertDemoRecord, pressureForForce } from "../support/records";
+import { type TestDatabase } from "../support/database";
 import { settingsFields } from "@/lib/schemas/project-settings";
 
 // A change of the project's basis judges the stressed tendons again, on real PostgreSQL: the admin
@@ -19,11 +18,9 @@ import { settingsFields } from "@/lib/schemas/project-settings";
 // Jacking at 0.80·fpu·A (ACI 318-19 Table 20.3.2.5.1), 0.5 in strand 41,300 lbf (ASTM A416 Table 1).
 
 let t: TestDatabase;
-let fx: Awaited<ReturnType<typeof demoFixture>>;
+let fx: DemoFixture;
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  await seedDemo(t.db);
-  fx = await demoFixture(t.db);
+  ({ t, fx } = await seededDemo());
 });
 afterAll(async () => {
   await t.drop();
@@ -36,19 +33,10 @@ describe("re-evaluation when the project's basis changes", () => {
     const tendon = await fx.tendon("2-1-U06");
     // The net prediction for marks on this tendon, from the same judge.
     const predicted = await predictionAsRead(t.db, { projectId: fx.projectId, tendonId: tendon.id });
-    const c = await t.db
-      .selectFrom("calibrations")
-      .select(["slope_n_per_mpa", "intercept_n"])
-      .where("equipment_set_id", "=", fx.setA)
-      .executeTakeFirstOrThrow();
-    const pressure = (0.8 * HALF_INCH.minBreakingStrengthN - c.intercept_n) / c.slope_n_per_mpa;
+    const pressure = await pressureForForce(t.db, fx.setA, 0.8 * HALF_INCH.minBreakingStrengthN);
     // 6 % long: in the ±7 % band, out of a ±5 % one.
-    await insertRecord(t.db, {
-      projectId: fx.projectId,
+    await insertDemoRecord(t.db, fx, {
       tendon,
-      end: "A",
-      equipmentSetId: fx.setA,
-      authorId: fx.crewId,
       measuredMm: predicted.mm * 1.06,
       finalPressureMPa: pressure,
     });
@@ -121,19 +109,10 @@ describe("re-evaluation when the project's basis changes", () => {
     const tendon = await fx.tendon("2-1-U09");
     // The net prediction for marks on this tendon, from the same judge.
     const predicted = await predictionAsRead(t.db, { projectId: fx.projectId, tendonId: tendon.id });
-    const c = await t.db
-      .selectFrom("calibrations")
-      .select(["slope_n_per_mpa", "intercept_n"])
-      .where("equipment_set_id", "=", fx.setA)
-      .executeTakeFirstOrThrow();
-    await insertRecord(t.db, {
-      projectId: fx.projectId,
+    await insertDemoRecord(t.db, fx, {
       tendon,
-      end: "A",
-      equipmentSetId: fx.setA,
-      authorId: fx.crewId,
       measuredMm: predicted.mm,
-      finalPressureMPa: (0.92 * 0.8 * HALF_INCH.minBreakingStrengthN - c.intercept_n) / c.slope_n_per_mpa,
+      finalPressureMPa: await pressureForForce(t.db, fx.setA, 0.92 * 0.8 * HALF_INCH.minBreakingStrengthN),
     });
     const first = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
     expect([...first.flagKinds].sort()).toEqual(["force_disagreement", "under_force"]);
@@ -286,22 +265,13 @@ describe("re-evaluation when the project's basis changes", () => {
       values: { ...settings, groupTolerancePct: 5 },
       by: fx.crewId,
     });
-    const c = await t.db
-      .selectFrom("calibrations")
-      .select(["slope_n_per_mpa", "intercept_n"])
-      .where("equipment_set_id", "=", fx.setA)
-      .executeTakeFirstOrThrow();
-    const pressure = (0.8 * HALF_INCH.minBreakingStrengthN - c.intercept_n) / c.slope_n_per_mpa;
+    const pressure = await pressureForForce(t.db, fx.setA, 0.8 * HALF_INCH.minBreakingStrengthN);
     const outcomes = [];
     for (const [k, tendonId] of ids.entries()) {
       // The net prediction for marks on this tendon, from the same judge.
       const predicted = await predictionAsRead(t.db, { projectId: fx.projectId, tendonId });
-      await insertRecord(t.db, {
-        projectId: fx.projectId,
+      await insertDemoRecord(t.db, fx, {
         tendon: { id: tendonId, pour_id: pour.id },
-        end: "A",
-        equipmentSetId: fx.setA,
-        authorId: fx.crewId,
         measuredMm: predicted.mm * 1.06,
         finalPressureMPa: pressure,
         deviceTime: `2026-12-01T1${6 + k}:00:00Z`,
@@ -344,18 +314,15 @@ describe("re-evaluation when the project's basis changes", () => {
 
   it("a calibration added to a set judges again the tendons whose records named none", async () => {
     const tendon = await fx.tendon("2-1-U08");
+    // The new calibration draws the same line as the one in force: only its presence is new.
     const c = await t.db
       .selectFrom("calibrations")
       .select(["slope_n_per_mpa", "intercept_n"])
       .where("equipment_set_id", "=", fx.setA)
       .executeTakeFirstOrThrow();
-    const pressure = (0.8 * HALF_INCH.minBreakingStrengthN - c.intercept_n) / c.slope_n_per_mpa;
-    await insertRecord(t.db, {
-      projectId: fx.projectId,
+    const pressure = await pressureForForce(t.db, fx.setA, 0.8 * HALF_INCH.minBreakingStrengthN);
+    await insertDemoRecord(t.db, fx, {
       tendon,
-      end: "A",
-      equipmentSetId: fx.setA,
-      authorId: fx.crewId,
       measuredMm: 150,
       finalPressureMPa: pressure,
     });

@@ -1,99 +1,36 @@
 import { sql } from "kysely";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/scripts/seed/demo";
-import { predictTendon } from "@/lib/stressing/basis";
 import { addReview } from "@/lib/server/add-review";
 import { correctRecord } from "@/lib/server/correct-record";
-import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { findFlags } from "@/lib/server/find-flags";
-import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { recordDisposition } from "@/lib/server/record-disposition";
 import { findReleaseBlockers, releasePour } from "@/lib/server/release-pour";
-import { demoFixture, insertRecord } from "../support/records";
-import { createTestDatabase, type TestDatabase } from "../support/database";
+import { copyDemoTendons, demoPerson, demoStressing, seededDemo, type DemoFixture } from "../support/records";
+import { makePour } from "../support/factories";
+import { type TestDatabase } from "../support/database";
 
 let t: TestDatabase;
-let fx: Awaited<ReturnType<typeof demoFixture>>;
+let fx: DemoFixture;
 let pourId: string;
 let tendons: { id: string; pour_id: string; tag: string }[];
 let people: Record<"inspector" | "engineer", { id: string; name: string }>;
-let pressure: number;
+let predicted: (tendonId: string) => Promise<number>;
+let stress: Awaited<ReturnType<typeof demoStressing>>["stress"];
 
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  await seedDemo(t.db);
-  fx = await demoFixture(t.db);
+  ({ t, fx } = await seededDemo());
   // A small pour of our own: two one-end tendons copied from the demo schedule.
-  const pour = await t.db
-    .insertInto("pours")
-    .values({ project_id: fx.projectId, name: "Review test pour", concrete_strength_mpa: 30 })
-    .returning("id")
-    .executeTakeFirstOrThrow();
-  pourId = pour.id;
-  const template = await t.db
-    .selectFrom("tendons")
-    .selectAll()
-    .where("project_id", "=", fx.projectId)
-    .where("tag", "=", "2-1-U01")
-    .executeTakeFirstOrThrow();
-  tendons = [];
-  for (const tag of ["R-1", "R-2"]) {
-    const row = await t.db
-      .insertInto("tendons")
-      .values({
-        project_id: template.project_id,
-        pour_id: pourId,
-        tag,
-        kind: template.kind,
-        strand_size: template.strand_size,
-        strand_count: template.strand_count,
-        segments: JSON.stringify(template.segments),
-        ends: template.ends,
-        jack_grip_mm: template.jack_grip_mm,
-        strand_lot_id: template.strand_lot_id,
-      })
-      .returning(["id", "pour_id", "tag"])
-      .executeTakeFirstOrThrow();
-    tendons.push(row);
-  }
-  const user = (email: string) =>
-    t.db.selectFrom("users").select(["id", "name"]).where("email", "=", email).executeTakeFirstOrThrow();
+  pourId = (await makePour(t.db, fx.projectId, { name: "Review test pour", concreteStrengthMPa: 30 })).id;
+  tendons = await copyDemoTendons(t.db, { projectId: fx.projectId, pourId }, ["R-1", "R-2"]);
   people = {
-    inspector: await user("inspector@demo.tautline.test"),
-    engineer: await user("engineer@demo.tautline.test"),
+    inspector: await demoPerson(t.db, "inspector@demo.tautline.test"),
+    engineer: await demoPerson(t.db, "engineer@demo.tautline.test"),
   };
-  const c = await t.db
-    .selectFrom("calibrations")
-    .select(["slope_n_per_mpa", "intercept_n"])
-    .where("equipment_set_id", "=", fx.setA)
-    .executeTakeFirstOrThrow();
-  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tendons[0]!.id });
-  const target = predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot }).jackingForceN;
-  pressure = (target - c.intercept_n) / c.slope_n_per_mpa;
+  ({ predicted, stress } = await demoStressing(t.db, fx));
 });
 afterAll(async () => {
   await t.drop();
 });
-
-async function predicted(tendonId: string) {
-  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId });
-  return predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot, equipmentGripMm: 457.2 })
-    .predictedMm;
-}
-
-async function stress(tendon: { id: string; pour_id: string }, factor: number) {
-  const recordId = await insertRecord(t.db, {
-    projectId: fx.projectId,
-    tendon,
-    end: "A",
-    equipmentSetId: fx.setA,
-    authorId: fx.crewId,
-    measuredMm: (await predicted(tendon.id)) * factor,
-    finalPressureMPa: pressure,
-  });
-  const evaluation = await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
-  return { recordId, evaluation };
-}
 
 describe("from flag to release", () => {
   it("an out-of-band tendon holds the pour until the engineer's restress comes back in band", async () => {

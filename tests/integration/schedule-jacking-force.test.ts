@@ -1,5 +1,4 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/scripts/seed/demo";
 import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 import { AppError } from "@/lib/errors";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
@@ -11,9 +10,9 @@ import { updateTendon } from "@/lib/server/update-tendon";
 import { judgeStressing } from "@/lib/stressing/judge";
 import type { TendonInput } from "@/lib/schemas/tendon";
 import { N_PER_KIP } from "@/lib/units";
-import { demoFixture, insertRecord } from "../support/records";
+import { seededDemo, type DemoFixture, insertDemoRecord } from "../support/records";
 import { makePour } from "../support/factories";
-import { createTestDatabase, type TestDatabase } from "../support/database";
+import { type TestDatabase } from "../support/database";
 
 // A tendon schedule imported with its own jacking force, on real PostgreSQL: the tendon is judged
 // against that force, a tendon without one against the project's 0.80·fpu·A, an edit of the force
@@ -23,12 +22,10 @@ import { createTestDatabase, type TestDatabase } from "../support/database";
 // is the bridge practice the issue names, common practice).
 
 let t: TestDatabase;
-let fx: Awaited<ReturnType<typeof demoFixture>>;
+let fx: DemoFixture;
 let pourId: string;
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  await seedDemo(t.db);
-  fx = await demoFixture(t.db);
+  ({ t, fx } = await seededDemo());
   const confirmed = await t.db
     .selectFrom("pours")
     .select("concrete_strength_mpa")
@@ -121,12 +118,8 @@ describe("the schedule's jacking force, imported and judged", () => {
     const pressure = (0.75 * FPU_A - c.intercept_n) / c.slope_n_per_mpa;
     const measuredMm = await netPrediction(sched.id);
     for (const tendon of [sched, proj])
-      await insertRecord(t.db, {
-        projectId: fx.projectId,
+      await insertDemoRecord(t.db, fx, {
         tendon,
-        end: "A",
-        equipmentSetId: fx.setA,
-        authorId: fx.crewId,
         measuredMm,
         finalPressureMPa: pressure,
       });

@@ -1,6 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { uuidv7 } from "uuidv7";
-import { seedDemo } from "@/scripts/seed/demo";
 import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 import { equipmentSetSchema } from "@/lib/schemas/equipment";
 import { addCalibration } from "@/lib/server/add-calibration";
@@ -9,8 +8,8 @@ import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getPourReport } from "@/lib/server/get-pour-report";
 import { RECORD_COLUMNS, recordRows } from "@/lib/reports/pour-rows";
 import { listEquipmentSets } from "@/lib/server/list-equipment-sets";
-import { demoFixture, predictionAsRead } from "../support/records";
-import { createTestDatabase, type TestDatabase } from "../support/database";
+import { predictionAsRead, seededDemo, type DemoFixture } from "../support/records";
+import { type TestDatabase } from "../support/database";
 
 // An equipment set's draw-in per re-grip, on real PostgreSQL: stored with the set, listed, and used
 // by the server's evaluation for a ram-travel record that types none, which says which value it used.
@@ -18,11 +17,9 @@ import { createTestDatabase, type TestDatabase } from "../support/database";
 // (ASTM A416 Table 1). The 1/4 in draw-in and 18 in grip are our test values.
 
 let t: TestDatabase;
-let fx: Awaited<ReturnType<typeof demoFixture>>;
+let fx: DemoFixture;
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  await seedDemo(t.db);
-  fx = await demoFixture(t.db);
+  ({ t, fx } = await seededDemo());
 });
 afterAll(async () => {
   await t.drop();

@@ -10,6 +10,7 @@ import { listEquipmentSets } from "@/lib/server/list-equipment-sets";
 import { listTendons } from "@/lib/server/list-tendons";
 import { savePour } from "@/lib/server/save-pour";
 import { createTestDatabase, type TestDatabase } from "../support/database";
+import { demoPerson } from "../support/records";
 
 let t: TestDatabase;
 let ayp: string;
@@ -36,13 +37,7 @@ beforeAll(async () => {
   await seedDemo(t.db, { today: new Date("2026-12-01T12:00:00Z") });
   ayp = (await t.db.selectFrom("projects").select("id").where("code", "=", "AYP").executeTakeFirstOrThrow()).id;
   qhm = (await t.db.selectFrom("projects").select("id").where("code", "=", "QHM").executeTakeFirstOrThrow()).id;
-  adminId = (
-    await t.db
-      .selectFrom("users")
-      .select("id")
-      .where("email", "=", "admin@demo.tautline.test")
-      .executeTakeFirstOrThrow()
-  ).id;
+  adminId = (await demoPerson(t.db, "admin@demo.tautline.test")).id;
   pourId = (
     await savePour(t.db, {
       projectId: ayp,

@@ -3,6 +3,7 @@ import { createHash } from "node:crypto";
 import { seedDemo } from "@/scripts/seed/demo";
 import { confirmUpload, presignUpload, readAttachment } from "@/lib/storage";
 import { createTestDatabase, type TestDatabase } from "../support/database";
+import { demoPerson } from "../support/records";
 
 // Needs the upload fake (scripts/fakes.ts) that `npm test` starts, at S3_ENDPOINT.
 let t: TestDatabase;
@@ -28,13 +29,7 @@ beforeAll(async () => {
   projectId = (await t.db.selectFrom("projects").select("id").where("code", "=", "AYP").executeTakeFirstOrThrow()).id;
   otherProjectId = (await t.db.selectFrom("projects").select("id").where("code", "=", "QHM").executeTakeFirstOrThrow())
     .id;
-  adminId = (
-    await t.db
-      .selectFrom("users")
-      .select("id")
-      .where("email", "=", "admin@demo.tautline.test")
-      .executeTakeFirstOrThrow()
-  ).id;
+  adminId = (await demoPerson(t.db, "admin@demo.tautline.test")).id;
 });
 afterAll(async () => {
   await t.drop();

@@ -1,5 +1,4 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { seedDemo } from "@/scripts/seed/demo";
 import { drainNotifications } from "@/lib/server/dispatch-notifications";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { queueShiftDigests } from "@/lib/server/queue-shift-digests";
@@ -10,27 +9,19 @@ import { getFlagMail } from "@/lib/server/get-flag-mail";
 import { updateProjectSettings } from "@/lib/server/update-project-settings";
 import { projectSettingsSchema, settingsFields } from "@/lib/schemas/project-settings";
 import { predictTendon } from "@/lib/stressing/basis";
-import { createTestDatabase, type TestDatabase } from "../support/database";
-import { demoFixture, insertRecord } from "../support/records";
+import { type TestDatabase } from "../support/database";
+import { seededDemo, type DemoFixture, insertDemoRecord, demoPerson } from "../support/records";
 
 // The project's zone is America/Chicago, UTC−5 in June (CDT) and UTC−6 in December (CST), from
 // the IANA time zone database. A shift end of 18:00 local is 23:00 UTC on 2025-06-10.
 
 let t: TestDatabase;
-let fx: Awaited<ReturnType<typeof demoFixture>>;
+let fx: DemoFixture;
 let engineerId: string;
 
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  await seedDemo(t.db);
-  fx = await demoFixture(t.db);
-  engineerId = (
-    await t.db
-      .selectFrom("users")
-      .select("id")
-      .where("email", "=", "engineer@demo.tautline.test")
-      .executeTakeFirstOrThrow()
-  ).id;
+  ({ t, fx } = await seededDemo());
+  engineerId = (await demoPerson(t.db, "engineer@demo.tautline.test")).id;
   await t.db
     .updateTable("projects")
     .set({ time_zone: "America/Chicago", shift_end_minutes: [18 * 60] })
@@ -164,12 +155,8 @@ describe("the engineer's shift digest", () => {
       .select(["slope_n_per_mpa", "intercept_n"])
       .where("equipment_set_id", "=", fx.setA)
       .executeTakeFirstOrThrow();
-    await insertRecord(t.db, {
-      projectId: fx.projectId,
+    await insertDemoRecord(t.db, fx, {
       tendon,
-      end: "A",
-      equipmentSetId: fx.setA,
-      authorId: fx.crewId,
       measuredMm: predicted.predictedMm * 1.12,
       finalPressureMPa: (predicted.jackingForceN - calibration.intercept_n) / calibration.slope_n_per_mpa,
     });
@@ -193,11 +180,7 @@ describe("the engineer's shift digest", () => {
     expect(refused.success).toBe(false);
     expect(JSON.stringify(refused.error?.issues)).toContain("A shift end is given twice.");
     const values = projectSettingsSchema.parse({ ...settings, shiftEndMinutes: [1080, 360] });
-    const admin = await t.db
-      .selectFrom("users")
-      .select("id")
-      .where("email", "=", "admin@demo.tautline.test")
-      .executeTakeFirstOrThrow();
+    const admin = await demoPerson(t.db, "admin@demo.tautline.test");
     await updateProjectSettings(t.db, { projectId: fx.projectId, values, by: admin.id });
     expect((await getProjectSettings(t.db, fx.projectId)).shiftEndMinutes).toEqual([360, 1080]);
 

@@ -4,7 +4,6 @@ import { PDFParse } from "pdf-parse";
 import { uuidv7 } from "uuidv7";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { MM_PER_INCH, MPA_PER_PSI } from "@/lib/units";
-import { seedDemo } from "@/scripts/seed/demo";
 import { pourCsvTable, renderPourCsv } from "@/lib/reports/pour-csv";
 import { renderPourPdf } from "@/lib/reports/pour-pdf";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
@@ -18,16 +17,17 @@ import { readSignedReport } from "@/lib/server/read-signed-report";
 import { signPourReport } from "@/lib/server/sign-pour-report";
 import { verifyReportFile } from "@/lib/server/verify-report-file";
 import { predictTendon } from "@/lib/stressing/basis";
-import { demoFixture } from "../support/records";
+import { copyDemoTendons, seededDemo, type DemoFixture, demoPerson } from "../support/records";
 import { MomentOld } from "@/db/moment-old";
-import { createTestDatabase, type TestDatabase } from "../support/database";
+import { makePour } from "../support/factories";
+import type { TestDatabase } from "../support/database";
 
 // A pour of our own with two tendons copied from the demo schedule. Tendon S-01 is stressed short
 // (invented: 85 % of the prediction), flagged, ordered restressed by the engineer and restressed in
 // band; S-02 is not stressed. The report must show both stressings of S-01 with everything typed.
 
 let t: TestDatabase;
-let fx: Awaited<ReturnType<typeof demoFixture>>;
+let fx: DemoFixture;
 let pourId: string;
 let crewName: string;
 let predicted: { predictedMm: number; jackingForceN: number };
@@ -90,47 +90,12 @@ export async function pdfTextOf(buffer: Buffer) {
 
 beforeAll(async () => {
   mkdirSync("test-results/reports", { recursive: true });
-  t = await createTestDatabase({ migrate: true });
-  await seedDemo(t.db);
-  fx = await demoFixture(t.db);
+  ({ t, fx } = await seededDemo());
   crewName = (await t.db.selectFrom("users").select("name").where("id", "=", fx.crewId).executeTakeFirstOrThrow()).name;
-  const template = await t.db
-    .selectFrom("tendons")
-    .selectAll()
-    .where("project_id", "=", fx.projectId)
-    .where("ends", "=", "A")
-    .orderBy("tag")
-    .limit(1)
-    .executeTakeFirstOrThrow();
-  const pour = await t.db
-    .insertInto("pours")
-    .values({ project_id: fx.projectId, name: "Signed pour", concrete_strength_mpa: 4000 * MPA_PER_PSI })
-    .returning("id")
-    .executeTakeFirstOrThrow();
-  pourId = pour.id;
-  for (const tag of ["S-01", "S-02"])
-    await t.db
-      .insertInto("tendons")
-      .values({
-        project_id: fx.projectId,
-        pour_id: pourId,
-        tag,
-        kind: template.kind,
-        strand_size: template.strand_size,
-        strand_count: template.strand_count,
-        segments: JSON.stringify(template.segments),
-        ends: "A",
-        jack_grip_mm: template.jack_grip_mm,
-        strand_lot_id: template.strand_lot_id,
-        shop_elongation_mm: tag === "S-01" ? SHOP_MM : null,
-      })
-      .execute();
-  const s01 = await t.db
-    .selectFrom("tendons")
-    .select(["id"])
-    .where("pour_id", "=", pourId)
-    .where("tag", "=", "S-01")
-    .executeTakeFirstOrThrow();
+  pourId = (await makePour(t.db, fx.projectId, { name: "Signed pour", concreteStrengthMPa: 4000 * MPA_PER_PSI })).id;
+  const where = { projectId: fx.projectId, pourId };
+  const s01 = (await copyDemoTendons(t.db, where, ["S-01"], { shopElongationMm: SHOP_MM }))[0]!;
+  await copyDemoTendons(t.db, where, ["S-02"]);
   const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: s01.id });
   predicted = predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot, equipmentGripMm: 457.2 });
 
@@ -151,11 +116,7 @@ beforeAll(async () => {
     .where("tendon_id", "=", s01.id)
     .where("kind", "=", "out_of_band")
     .executeTakeFirstOrThrow();
-  const engineer = await t.db
-    .selectFrom("users")
-    .select(["id", "name"])
-    .where("email", "=", "engineer@demo.tautline.test")
-    .executeTakeFirstOrThrow();
+  const engineer = await demoPerson(t.db, "engineer@demo.tautline.test");
   const { dispositionId } = await recordDisposition(t.db, {
     projectId: fx.projectId,
     flagId: flag.id,
@@ -282,11 +243,7 @@ describe("signing the stressing report", () => {
   };
 
   it("freezes a signed revision; a correction makes a new revision that says what changed; verification follows the file", async () => {
-    const inspector = await t.db
-      .selectFrom("users")
-      .select("id")
-      .where("email", "=", "inspector@demo.tautline.test")
-      .executeTakeFirstOrThrow();
+    const inspector = await demoPerson(t.db, "inspector@demo.tautline.test");
     const first = await signPourReport(t.db, { projectId: fx.projectId, pourId, signer: inspector, values });
     expect(first).toMatchObject({ revision: 1, changes: [] });
     // Signing the same content again is refused: nothing changed.
@@ -413,11 +370,7 @@ describe("the read-only status board", () => {
   it("shows each pour's state and signed reports, and ends at expiry or revocation, auditing every view", async () => {
     const { createShareLink, revokeShareLink } = await import("@/lib/server/manage-share-links");
     const { getShareBoard, readSharedReport } = await import("@/lib/server/get-share-board");
-    const engineer = await t.db
-      .selectFrom("users")
-      .select("id")
-      .where("email", "=", "engineer@demo.tautline.test")
-      .executeTakeFirstOrThrow();
+    const engineer = await demoPerson(t.db, "engineer@demo.tautline.test");
     const now = new Date("2026-12-02T12:00:00Z");
     const link = await createShareLink(t.db, {
       projectId: fx.projectId,

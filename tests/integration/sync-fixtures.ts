@@ -1,5 +1,6 @@
 import { uuidv7 } from "uuidv7";
-import type { Db } from "@/db/connect";
+import { createDb, type Db } from "@/db/connect";
+import { createTestDatabase, type TestDatabase } from "../support/database";
 import { seedDemo } from "@/scripts/seed/demo";
 import { payloadFromForm, EMPTY_RECORD_FORM, type RecordFormValues, type RecordPayload } from "@/lib/schemas/record";
 import type { SyncOp } from "@/lib/schemas/sync";
@@ -32,6 +33,21 @@ async function pusher(db: Db, email: string): Promise<Pusher & { email: string }
     .where("user_id", "=", user.id)
     .execute();
   return { id: user.id, email, memberships };
+}
+
+/**
+ * A database of the test file's own with the sync world built in it, and `app`, a client like the
+ * app's (prepared statements, `poolSize` connections); `t.drop()` closes the client first.
+ */
+export async function syncWorld(poolSize: number): Promise<{ t: TestDatabase; w: SyncWorld; app: Db }> {
+  const t = await createTestDatabase({ migrate: true });
+  const w = await buildWorld(t.db);
+  const app = createDb(t.url, poolSize, { prepare: true });
+  const drop = async () => {
+    await app.destroy();
+    await t.drop();
+  };
+  return { t: { ...t, drop }, w, app };
 }
 
 export async function buildWorld(db: Db): Promise<SyncWorld> {

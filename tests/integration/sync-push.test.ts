@@ -1,11 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createDb, type Db } from "@/db/connect";
+import type { Db } from "@/db/connect";
 import type { RecordPayload } from "@/lib/schemas/record";
 import type { SyncOp } from "@/lib/schemas/sync";
 import { correctRecord } from "@/lib/server/correct-record";
 import { pushOps, type Pusher } from "@/lib/server/push-ops";
-import { createTestDatabase, type TestDatabase } from "../support/database";
-import { buildWorld, createOp, reviseOp, rowsOf, type SyncWorld } from "./sync-fixtures";
+import type { TestDatabase } from "../support/database";
+import { syncWorld, createOp, reviseOp, rowsOf, type SyncWorld } from "./sync-fixtures";
 
 let t: TestDatabase;
 let w: SyncWorld;
@@ -14,14 +14,9 @@ let app: Db;
 const DEVICE = "tablet-test-0001";
 
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  w = await buildWorld(t.db);
-  app = createDb(t.url, 5, { prepare: true });
+  ({ t, w, app } = await syncWorld(5));
 });
-afterAll(async () => {
-  await app.destroy();
-  await t.drop();
-});
+afterAll(() => t.drop());
 
 const push = (ops: SyncOp[], user: Pusher = w.crew) => pushOps(app, { user, deviceId: DEVICE, ops });
 const statuses = (r: { results: { status: string }[] }) => r.results.map((x) => x.status);

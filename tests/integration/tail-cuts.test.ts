@@ -1,13 +1,14 @@
 import { randomUUID } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createDb, type Db } from "@/db/connect";
+import type { Db } from "@/db/connect";
 import type { SyncOp } from "@/lib/schemas/sync";
 import type { TailCutPayload } from "@/lib/schemas/tail-cut";
 import { pullChanges } from "@/lib/server/pull-changes";
 import { pushOps } from "@/lib/server/push-ops";
 import { releasePour } from "@/lib/server/release-pour";
-import { createTestDatabase, type TestDatabase } from "../support/database";
-import { buildWorld, createOp, type SyncWorld } from "./sync-fixtures";
+import type { TestDatabase } from "../support/database";
+import { demoPerson } from "../support/records";
+import { syncWorld, createOp, type SyncWorld } from "./sync-fixtures";
 
 /**
  * Tails cut through the sync push on real PostgreSQL: stored exactly once under duplicate and
@@ -100,9 +101,7 @@ const recordInBand = async (tendonId: string, pour: string) => {
 };
 
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  w = await buildWorld(t.db);
-  app = createDb(t.url, 4, { prepare: true });
+  ({ t, w, app } = await syncWorld(4));
   const project = await t.db
     .selectFrom("projects")
     .select("required_concrete_mpa")
@@ -113,10 +112,7 @@ beforeAll(async () => {
   ({ pourId, tendonIds } = await pourWith("Tails pour", 2));
   ({ pourId: releasedPourId } = await pourWith("Released pour", 1));
 });
-afterAll(async () => {
-  await app.destroy();
-  await t.drop();
-});
+afterAll(() => t.drop());
 
 describe("tails cut of a clear tendon", () => {
   it("lands once under repeated and concurrent delivery of the same op", async () => {
@@ -189,11 +185,7 @@ describe("tails cut on a released pour, refusals and the pull", () => {
   it("a released pour takes the cut: cutting tails is what the release is for", async () => {
     const [pour] = await t.db.selectFrom("tendons").select("id").where("pour_id", "=", releasedPourId).execute();
     await recordInBand(pour!.id, releasedPourId);
-    const engineer = await t.db
-      .selectFrom("users")
-      .select(["id", "name"])
-      .where("email", "=", "engineer@demo.tautline.test")
-      .executeTakeFirstOrThrow();
+    const engineer = await demoPerson(t.db, "engineer@demo.tautline.test");
     await releasePour(t.db, {
       projectId: w.projectId,
       pourId: releasedPourId,

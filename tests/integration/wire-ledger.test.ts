@@ -7,9 +7,8 @@ import { updateTendon } from "@/lib/server/update-tendon";
 import { importTendonSchedule } from "@/lib/server/import-tendon-schedule";
 import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { predictTendon } from "@/lib/stressing/basis";
-import { seedDemo } from "@/scripts/seed/demo";
-import { createTestDatabase, type TestDatabase } from "../support/database";
-import { demoFixture, insertRecord } from "../support/records";
+import type { TestDatabase } from "../support/database";
+import { seededDemo, type DemoFixture, insertDemoRecord } from "../support/records";
 
 // The wire-break ledger on real PostgreSQL: two beams of ten 0.5 in monostrand tendons each in one
 // pour, named in the schedule's member column. 0.5 in strand is 98.71 mm² (ASTM A416 Table 1), a wire
@@ -17,7 +16,7 @@ import { demoFixture, insertRecord } from "../support/records";
 // the 2 % limit for unreplaced broken prestressing steel (ACI 318-02 §18.20.4).
 
 let t: TestDatabase;
-let fx: Awaited<ReturnType<typeof demoFixture>>;
+let fx: DemoFixture;
 let pourId: string;
 let pressure: number;
 const tendon = new Map<string, { id: string; pour_id: string }>();
@@ -26,9 +25,7 @@ const HEADER =
   "tag,type,strand size [in],strands,ends,segments [ft@deg],jack grip [in],shop elongation [in],strand lot,member";
 
 beforeAll(async () => {
-  t = await createTestDatabase({ migrate: true });
-  await seedDemo(t.db);
-  fx = await demoFixture(t.db);
+  ({ t, fx } = await seededDemo());
   const pour = await t.db
     .insertInto("pours")
     .values({ project_id: fx.projectId, name: "Ledger pour", concrete_strength_mpa: 30 })
@@ -69,12 +66,8 @@ async function stress(tag: string, wireBreaks: number) {
   const tn = tendon.get(tag)!;
   const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tn.id });
   const predicted = predictTendon({ ...basis, equipmentGripMm: 457.2 }).predictedMm;
-  await insertRecord(t.db, {
-    projectId: fx.projectId,
+  await insertDemoRecord(t.db, fx, {
     tendon: tn,
-    end: "A",
-    equipmentSetId: fx.setA,
-    authorId: fx.crewId,
     measuredMm: predicted,
     finalPressureMPa: pressure,
     wireBreaks,

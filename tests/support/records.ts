@@ -3,8 +3,25 @@ import type { Db } from "@/db/connect";
 import type { TendonEnd } from "@/lib/schemas/domain";
 import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { judgeStressing } from "@/lib/stressing/judge";
+import { predictTendon } from "@/lib/stressing/basis";
+import { evaluateTendon } from "@/lib/server/evaluate-tendon";
+import { seedDemo } from "@/scripts/seed/demo";
+import { createTestDatabase, type TestDatabase } from "./database";
+import { makeTendons, type TendonShape } from "./factories";
 
 /** Fixtures for tests that need stressing records without going through the tablet's sync. */
+
+export type DemoFixture = Awaited<ReturnType<typeof demoFixture>>;
+
+/**
+ * A database of the test file's own, migrated and seeded with the demo project, and the demo's
+ * ids a test starts from. Each file calls it in its beforeAll and drops the database after.
+ */
+export async function seededDemo(): Promise<{ t: TestDatabase; fx: DemoFixture }> {
+  const t = await createTestDatabase({ migrate: true });
+  await seedDemo(t.db);
+  return { t, fx: await demoFixture(t.db) };
+}
 
 export async function demoFixture(db: Db) {
   const project = await db.selectFrom("projects").select(["id"]).where("code", "=", "AYP").executeTakeFirstOrThrow();
@@ -80,6 +97,25 @@ export async function insertRecord(
 }
 
 /**
+ * A record of end A by the demo crew with the demo's Set A (as `insertRecord`); give another end,
+ * set or author where the test is about it.
+ */
+export function insertDemoRecord(
+  db: Db,
+  fx: DemoFixture,
+  input: Omit<Parameters<typeof insertRecord>[1], "projectId" | "end" | "equipmentSetId" | "authorId"> &
+    Partial<Pick<Parameters<typeof insertRecord>[1], "end" | "equipmentSetId" | "authorId">>,
+): Promise<string> {
+  return insertRecord(db, {
+    projectId: fx.projectId,
+    end: "A",
+    equipmentSetId: fx.setA,
+    authorId: fx.crewId,
+    ...input,
+  });
+}
+
+/**
  * The judge's prediction for end A of a one-end tendon as stored now, read the way `method` says:
  * marks after lock-off (net of the anchor set, the default) or ram travel over one stroke (gross
  * plus the strand in a jack of `jackGripMm`); with the set it took off. What a perfect reading
@@ -118,4 +154,115 @@ export async function predictionAsRead(
     ],
   });
   return { mm: probe.ends[0]!.predictedMm, setMm: probe.ends[0]!.setMm };
+}
+
+/** The demo jacks grip 18 in (457.2 mm) of strand behind the anchor (the demo seed's sets). */
+export const DEMO_JACK_GRIP_MM = 457.2;
+
+/** A demo person by e-mail, in the shape the server's operations take as `by`. */
+export function demoPerson(db: Db, email: string): Promise<{ id: string; name: string }> {
+  return db.selectFrom("users").select(["id", "name"]).where("email", "=", email).executeTakeFirstOrThrow();
+}
+
+/** The gauge pressure (MPa) at which the set's calibration line gives `forceN`. */
+export async function pressureForForce(db: Db, equipmentSetId: string, forceN: number): Promise<number> {
+  const line = await db
+    .selectFrom("calibrations")
+    .select(["slope_n_per_mpa", "intercept_n"])
+    .where("equipment_set_id", "=", equipmentSetId)
+    .executeTakeFirstOrThrow();
+  return (forceN - line.intercept_n) / line.slope_n_per_mpa;
+}
+
+/** The tendon's prediction (jacking force, elongation) from its basis as stored, with a demo jack's grip. */
+export async function demoPrediction(db: Db, input: { projectId: string; tendonId: string }) {
+  const basis = await loadTendonBasis(db, input);
+  return predictTendon({
+    project: basis.project,
+    tendon: basis.tendon,
+    lot: basis.lot,
+    equipmentGripMm: DEMO_JACK_GRIP_MM,
+  });
+}
+
+/**
+ * Tendons on the given pour shaped like one of the demo schedule's (by default the one-end
+ * 2-1-U01: same kind, strands, profile, ends, grip and lot) but for `options`, tagged as given, in that order.
+ */
+export async function copyDemoTendons(
+  db: Db,
+  where: { projectId: string; pourId: string },
+  tags: readonly string[],
+  options: Partial<TendonShape> & { templateTag?: string } = {},
+) {
+  const { templateTag = "2-1-U01", ...changes } = options;
+  const template = await db
+    .selectFrom("tendons")
+    .selectAll()
+    .where("project_id", "=", where.projectId)
+    .where("tag", "=", templateTag)
+    .executeTakeFirstOrThrow();
+  return makeTendons(db, where, tags, {
+    kind: template.kind,
+    strandSize: template.strand_size,
+    strandCount: template.strand_count,
+    segments: template.segments,
+    ends: template.ends,
+    jackGripMm: template.jack_grip_mm,
+    strandLotId: template.strand_lot_id,
+    ...changes,
+  });
+}
+
+/**
+ * Stressing on the demo project with its set A, at the gauge pressure that gives the jacking force
+ * of a tendon like 2-1-U01. `stress` records each end of the tendon at `factor` × its predicted
+ * elongation (1: a perfect reading) and evaluates it as a sync would; it returns the first end's
+ * record id and the evaluation. `record` does the same without the evaluation.
+ */
+export async function demoStressing(db: Db, fx: DemoFixture) {
+  const template = await fx.tendon("2-1-U01");
+  const { jackingForceN } = await demoPrediction(db, { projectId: fx.projectId, tendonId: template.id });
+  const pressure = await pressureForForce(db, fx.setA, jackingForceN);
+  const predicted = async (tendonId: string) =>
+    (await demoPrediction(db, { projectId: fx.projectId, tendonId })).predictedMm;
+  /** Records each end of the tendon at `factor` × its prediction, not yet evaluated; the records' ids. */
+  const record = async (
+    tendon: { id: string; pour_id: string },
+    factor: number,
+    extra: { deviceTime?: string; wireBreaks?: number } = {},
+  ) => {
+    const measuredMm = (await predicted(tendon.id)) * factor;
+    const { ends } = await db
+      .selectFrom("tendons")
+      .select("ends")
+      .where("id", "=", tendon.id)
+      .executeTakeFirstOrThrow();
+    const recordIds: string[] = [];
+    for (const end of ends === "both" ? (["A", "B"] as const) : (["A"] as const)) {
+      recordIds.push(
+        await insertRecord(db, {
+          projectId: fx.projectId,
+          tendon,
+          end,
+          equipmentSetId: fx.setA,
+          authorId: fx.crewId,
+          measuredMm,
+          finalPressureMPa: pressure,
+          ...extra,
+        }),
+      );
+    }
+    return recordIds;
+  };
+  const stress = async (
+    tendon: { id: string; pour_id: string },
+    factor: number,
+    extra: { deviceTime?: string; wireBreaks?: number } = {},
+  ) => {
+    const [recordId] = await record(tendon, factor, extra);
+    const evaluation = await evaluateTendon(db, { projectId: fx.projectId, tendonId: tendon.id, reason: "sync" });
+    return { recordId: recordId!, evaluation };
+  };
+  return { pressure, predicted, record, stress };
 }
