@@ -2,7 +2,8 @@
 
 import type { SignInOptions, SignInResponse } from "next-auth/react";
 import { useRouter } from "next/navigation";
-import { useState, useSyncExternalStore } from "react";
+import { useState } from "react";
+import { useHydrated } from "@/lib/client/use-hydrated";
 import { FormField } from "@/components/ui/form-field";
 import { FormMessage } from "@/components/ui/form-message";
 
@@ -17,17 +18,11 @@ async function signIn(provider: "credentials" | "email", options: SignInOptions)
 const FAILED =
   "That e-mail and password did not open an account. Check both and try again; after several failed tries, sign-in pauses for 15 minutes.";
 
-const noSubscription = () => () => {};
-
 export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string; initialError?: string }) {
   const router = useRouter();
   // The page paints before its script has run; until then the buttons stay disabled, so a press (or
   // Enter) cannot send the form the browser's own way, which would put the password in the address.
-  const hydrated = useSyncExternalStore(
-    noSubscription,
-    () => true,
-    () => false,
-  );
+  const hydrated = useHydrated();
   const [error, setError] = useState<string | undefined>(initialError);
   const [busy, setBusy] = useState<"password" | "link" | null>(null);
   const [emailError, setEmailError] = useState<string>();

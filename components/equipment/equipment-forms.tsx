@@ -2,6 +2,7 @@
 
 import { useState } from "react";
 import { useForm } from "react-hook-form";
+import { useHydrated } from "@/lib/client/use-hydrated";
 import { useSWRConfig } from "swr";
 import { z } from "zod";
 import { units } from "@/lib/client/unit-fields";
@@ -179,6 +180,7 @@ export function CalibrationForm({
   const { mutate } = useSWRConfig();
   // The same list as the cards above, so a set added a moment ago can be chosen at once.
   const sets = useEquipmentSets(projectId, initial).data.equipmentSets;
+  const hydrated = useHydrated();
   const [chosen, setChosen] = useState("");
   const setId = sets.some((s) => s.id === chosen) ? chosen : (sets[0]?.id ?? "");
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
@@ -236,73 +238,76 @@ export function CalibrationForm({
       <h2 className="text-lead font-semibold">Add a calibration</h2>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
       <FormMessage tone="error">{e.root?.message}</FormMessage>
-      <div className="grid gap-4 md:grid-cols-3">
+      {/* Until the page's script runs a choice made here would be set back to the first set. */}
+      <fieldset disabled={!hydrated} className="min-w-0 space-y-4">
+        <div className="grid gap-4 md:grid-cols-3">
+          <FormField
+            as="select"
+            id="c-set"
+            label="Equipment set"
+            value={setId}
+            onChange={(ev) => setChosen(ev.target.value)}
+          >
+            {sets.map((s) => (
+              <option key={s.id} value={s.id}>
+                {s.name}
+              </option>
+            ))}
+          </FormField>
+          <FormField
+            id="c-on"
+            type="date"
+            label="Calibrated on"
+            error={e.calibratedOn?.message}
+            {...form.register("calibratedOn")}
+          />
+          <FormField
+            id="c-until"
+            type="date"
+            label="Valid until (optional)"
+            hint={`Empty: ${validityDays} days after calibration, the project's rule; the earlier date wins.`}
+            error={e.validUntil?.message}
+            {...form.register("validUntil")}
+          />
+        </div>
         <FormField
-          as="select"
-          id="c-set"
-          label="Equipment set"
-          value={setId}
-          onChange={(ev) => setChosen(ev.target.value)}
-        >
-          {sets.map((s) => (
-            <option key={s.id} value={s.id}>
-              {s.name}
-            </option>
-          ))}
-        </FormField>
-        <FormField
-          id="c-on"
-          type="date"
-          label="Calibrated on"
-          error={e.calibratedOn?.message}
-          {...form.register("calibratedOn")}
+          as="textarea"
+          id="c-points"
+          rows={6}
+          className="font-mono"
+          label={`Calibration points: gauge pressure, force (${us ? "psi, kip" : "MPa, kN"}), one pair per line`}
+          placeholder={us ? "1000, 6.3\n2000, 13.4" : "10, 50.2\n20, 101.6"}
+          error={e.pointsText?.message ?? e.points?.message}
+          {...form.register("pointsText")}
         />
         <FormField
-          id="c-until"
-          type="date"
-          label="Valid until (optional)"
-          hint={`Empty: ${validityDays} days after calibration, the project's rule; the earlier date wins.`}
-          error={e.validUntil?.message}
-          {...form.register("validUntil")}
+          id="c-lab"
+          label="Laboratory (optional)"
+          error={e.laboratory?.message}
+          {...form.register("laboratory")}
         />
-      </div>
-      <FormField
-        as="textarea"
-        id="c-points"
-        rows={6}
-        className="font-mono"
-        label={`Calibration points: gauge pressure, force (${us ? "psi, kip" : "MPa, kN"}), one pair per line`}
-        placeholder={us ? "1000, 6.3\n2000, 13.4" : "10, 50.2\n20, 101.6"}
-        error={e.pointsText?.message ?? e.points?.message}
-        {...form.register("pointsText")}
-      />
-      <FormField
-        id="c-lab"
-        label="Laboratory (optional)"
-        error={e.laboratory?.message}
-        {...form.register("laboratory")}
-      />
-      <FileUpload
-        projectId={projectId}
-        purpose="calibration_certificate"
-        label="Calibration certificate file"
-        onUploaded={(f) => form.setValue("certificateAttachmentId", f.id)}
-      />
-      <FieldError
-        id="c-certificate-error"
-        messages={e.certificateAttachmentId?.message ? [e.certificateAttachmentId.message] : undefined}
-      />
-      {preview && (
-        <RejudgePreviewNote
-          preview={preview}
-          subject="This calibration"
-          then="Press again to save it."
-          testId="calibration-preview"
+        <FileUpload
+          projectId={projectId}
+          purpose="calibration_certificate"
+          label="Calibration certificate file"
+          onUploaded={(f) => form.setValue("certificateAttachmentId", f.id)}
         />
-      )}
-      <button className="btn-primary" type="submit" disabled={busy}>
-        {busy ? "Checking…" : preview ? "Save the calibration and judge again" : "Save calibration"}
-      </button>
+        <FieldError
+          id="c-certificate-error"
+          messages={e.certificateAttachmentId?.message ? [e.certificateAttachmentId.message] : undefined}
+        />
+        {preview && (
+          <RejudgePreviewNote
+            preview={preview}
+            subject="This calibration"
+            then="Press again to save it."
+            testId="calibration-preview"
+          />
+        )}
+        <button className="btn-primary" type="submit" disabled={busy}>
+          {busy ? "Checking…" : preview ? "Save the calibration and judge again" : "Save calibration"}
+        </button>
+      </fieldset>
     </form>
   );
 }
