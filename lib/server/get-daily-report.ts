@@ -27,8 +27,9 @@ import { selectConcreteResults } from "./list-concrete-results";
  * being signed when the caller gives them, else those of the day's last signed revision. The groups
  * a witness statement is asked for are the day's: per pour, the schedule's members of the tendons
  * stressed that day (the pour itself for tendons with no member). The open exceptions are the flags
- * of the day's work (raised that day, or on a tendon stressed that day) not closed. The PDF and the
- * CSV render this one object.
+ * of the day's work not closed when the report is read or signed: raised that day, raised by work
+ * done that day (its stressing or lift-off check), or on a tendon stressed, lift-off checked or
+ * detensioned that day by work done before the day's end (not a later stressing's or check's flag). The PDF and the CSV render this one object.
  */
 
 /** A pour's group of tendons stressed on the day, which the inspector states was witnessed or not. */
@@ -272,9 +273,21 @@ export async function getDailyReport(
     return [...groups.values()].sort((a, b) => a.group.localeCompare(b.group));
   });
   const openExceptions: OpenException[] = pours.flatMap((p) => {
-    const dayTags = new Set(p.records.map((r) => r.tag));
+    const worked = new Set([...p.records, ...p.liftoffChecks, ...p.detensions].map((e) => e.tendonId));
+    const dayTags = new Set(p.report.tendons.filter((t) => worked.has(t.tendonId)).map((t) => t.tag));
+    // When the work that raised each flag was done: its stressing (a flag whose record is no longer
+    // the standing revision came from a stressing before), the lift-off check that raised it, else
+    // the moment it was raised.
+    const stressedAt = new Map(p.report.records.map((r) => [r.recordId, r.deviceTime]));
+    const checkedAt = new Map(p.report.liftoffChecks.map((l) => [l.raisedFlagReference, l.at]));
+    const doneAt = (f: ReportFlag) =>
+      f.recordId ? (stressedAt.get(f.recordId) ?? start) : (checkedAt.get(f.reference) ?? f.raisedAt);
     return p.report.flags
-      .filter((f) => f.status !== "closed" && (inDay(f.raisedAt) || dayTags.has(f.tendonTag)))
+      .filter(
+        (f) =>
+          f.status !== "closed" &&
+          (inDay(f.raisedAt) || inDay(doneAt(f)) || (dayTags.has(f.tendonTag) && doneAt(f) < end)),
+      )
       .map((f) => ({
         reference: f.reference,
         pourName: p.report.pour.name,

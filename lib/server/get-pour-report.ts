@@ -42,6 +42,8 @@ export interface ReportFlag {
   /** The project's running reference, "F-0012". */
   reference: string;
   tendonTag: string;
+  /** The stressing record whose evaluation raised it; null for a flag raised by another event. */
+  recordId: string | null;
   kind: FlagKind;
   reason: string;
   status: FlagStatus;
@@ -428,6 +430,7 @@ export async function getPourReport(
       id: f.id,
       reference: flagRef.get(f.id) ?? "F-?",
       tendonTag: f.tag,
+      recordId: f.record_id,
       kind: f.kind,
       reason: f.reason,
       status: f.status,

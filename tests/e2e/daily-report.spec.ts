@@ -108,6 +108,14 @@ test("the inspector signs a day's special-inspection report and downloads its PD
   });
   await expect(page.getByTestId("daily-summary")).toContainText(`${row!.tags} stressing record`);
   await expect(page.getByRole("table")).toContainText("marks on the strand");
+  // Every column, the verdict last, stands in the page's width: each pour heads its own rows and the
+  // time is shown without the day the page is about.
+  const fits = await page
+    .getByRole("table")
+    .evaluate((table) => ({ table: table.scrollWidth, box: table.parentElement!.clientWidth }));
+  expect(fits.table, "the day's table is no wider than its box").toBeLessThanOrEqual(fits.box);
+  await expect(page.locator('th[scope="rowgroup"]').first()).toBeVisible();
+  await expect(page.getByRole("table")).not.toContainText(`${day} `);
   // This spec's lift-off check, in the stressing report's words, in its pour's rows.
   const liftoffRow = page
     .getByRole("row")

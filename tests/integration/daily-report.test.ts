@@ -314,6 +314,24 @@ describe("the day's special-inspection report", () => {
         "detension Check pour C-02 2026-11-18 23:30 CST",
       ]),
     );
+    // C-01 and C-02 were not stressed that day, but checked and detensioned on it: the flags they
+    // still carry open are exceptions of the day's work, for the inspector's statement of conformance.
+    // C-01 carries three: its stressing's and its two lift-off checks' (the evening before and that
+    // morning), all raised when this test ran, so they count by when the work was done.
+    const stillOpen = await t.db
+      .selectFrom("flags")
+      .innerJoin("tendons", "tendons.id", "flags.tendon_id")
+      .select("tendons.tag")
+      .where("tendons.pour_id", "=", checkPourId)
+      .where("flags.status", "!=", "closed")
+      .execute();
+    expect(stillOpen.map((f) => f.tag).sort()).toEqual(["C-01", "C-01", "C-01", "C-02"]);
+    expect(
+      report.openExceptions
+        .filter((f) => f.pourName === "Check pour")
+        .map((f) => f.tendonTag)
+        .sort(),
+    ).toEqual(stillOpen.map((f) => f.tag).sort());
 
     // The evening before: only that lift-off check, and the report's content is as of it.
     const before = await getDailyReport(t.db, { projectId: fx.projectId, day: "2026-11-17" });
@@ -438,7 +456,8 @@ describe("the day's special-inspection report", () => {
     );
     const conformance = csv.data.find((r) => r.Section === "conformance")?.Details ?? "";
     expect(conformance).toMatch(/^The work inspected this day WAS NOT IN CONFORMANCE/);
-    for (const ref of refs) expect(conformance).toContain(`flag ${ref} (Daily pour, S-0`);
+    for (const f of standing.report.openExceptions)
+      expect(conformance).toContain(`flag ${f.reference} (${f.pourName}, ${f.tendonTag}`);
     // The unsigned copy as it stands prints what was last signed: same content, same hash as signed.
     expect(await pdfTextOf(await renderDailyPdf(standing.report))).toContain("Witnessed in part by Dana Okafor");
 

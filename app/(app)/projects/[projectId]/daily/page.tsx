@@ -20,6 +20,7 @@ import {
   openExceptionLines,
   witnessGroupViews,
   type DailyRecordColumn,
+  type DailyRecordLine,
 } from "@/lib/reports/daily-rows";
 import { DEFAULT_DAILY_STATEMENT, reportDaySchema } from "@/lib/schemas/daily-report";
 import { getProjectTimeZone } from "@/lib/server/get-project-time-zone";
@@ -29,9 +30,12 @@ import { pageAccess } from "../page-access";
 export const metadata = { title: "Daily inspection report" };
 export const dynamic = "force-dynamic";
 
-/** The columns the screen shows of each stressing; the PDF and CSV carry every column. */
+/**
+ * The columns the screen shows of each stressing; the PDF and CSV carry every column. The pour heads
+ * its group of rows instead of a column, and the time is shown without the day the page is about, so
+ * the verdict stays on screen at 1280 and 1440.
+ */
 const SCREEN_COLUMNS: DailyRecordColumn[] = [
-  "Pour",
   "Tendon",
   "End",
   "Stressing",
@@ -45,7 +49,6 @@ const SCREEN_COLUMNS: DailyRecordColumn[] = [
 ];
 /** Short figures that read badly when wrapped (a lift-off check's or a detension's "Stressing" wraps). */
 const NO_WRAP = new Set<DailyRecordColumn>([
-  "Pour",
   "Tendon",
   "Stressed",
   "Final pressure",
@@ -53,6 +56,22 @@ const NO_WRAP = new Set<DailyRecordColumn>([
   "Predicted (Tautline)",
   "Verdict",
 ]);
+
+/** The day's rows in runs of one pour, in their order (the rows come pour by pour). */
+function pourGroups(lines: DailyRecordLine[], pourColumn: number): { pour: string; lines: DailyRecordLine[] }[] {
+  const groups: { pour: string; lines: DailyRecordLine[] }[] = [];
+  for (const line of lines) {
+    const pour = line.cells[pourColumn] ?? "";
+    const last = groups.at(-1);
+    if (last?.pour === pour) last.lines.push(line);
+    else groups.push({ pour, lines: [line] });
+  }
+  return groups;
+}
+
+/** "2026-12-02 21:31 CST" on the page of 2026-12-02 reads "21:31 CST"; another day's moment keeps its date. */
+const timeOnDay = (moment: string, day: string) =>
+  moment.startsWith(`${day} `) ? moment.slice(day.length + 1) : moment;
 
 function List({ id, title, items, empty }: { id: string; title: string; items: string[]; empty: string }) {
   return (
@@ -170,40 +189,54 @@ export default async function DailyReportPage({
                               ? "Gauge"
                               : c === "Verdict"
                                 ? "Verdict, deviation"
-                                : c}
+                                : c === "Stressed"
+                                  ? "Time"
+                                  : c}
                         </th>
                       ))}
                     </tr>
                   </thead>
-                  <tbody>
-                    {lines.map(({ cells: row, record }) => {
-                      const evaluation = record?.evaluation;
-                      return (
-                        <tr key={row.join("|")} className="border-b border-concrete-300">
-                          {SCREEN_COLUMNS.map((c) => (
-                            <td key={c} className={`px-2 py-2 align-top ${NO_WRAP.has(c) ? "whitespace-nowrap" : ""}`}>
-                              {c === "Verdict" && evaluation ? (
-                                <>
-                                  <VerdictBadge
-                                    verdict={evaluation.verdict}
-                                    deviationPct={evaluation.deviationPct}
-                                    provisional={evaluation.provisional}
-                                  />
-                                  {!evaluation.current && (
-                                    <span className="block text-label text-ink-soft">
-                                      superseded by a later stressing
-                                    </span>
-                                  )}
-                                </>
-                              ) : (
-                                row[columnIndex(c)]
-                              )}
-                            </td>
-                          ))}
-                        </tr>
-                      );
-                    })}
-                  </tbody>
+                  {pourGroups(lines, columnIndex("Pour")).map(({ pour, lines: group }) => (
+                    <tbody key={pour}>
+                      <tr className="border-b border-ink">
+                        <th scope="rowgroup" colSpan={SCREEN_COLUMNS.length} className="px-2 pb-1 pt-4 text-left">
+                          {pour}
+                        </th>
+                      </tr>
+                      {group.map(({ cells: row, record }) => {
+                        const evaluation = record?.evaluation;
+                        return (
+                          <tr key={row.join("|")} className="border-b border-concrete-300">
+                            {SCREEN_COLUMNS.map((c) => (
+                              <td
+                                key={c}
+                                className={`px-2 py-2 align-top ${NO_WRAP.has(c) ? "whitespace-nowrap" : ""}`}
+                              >
+                                {c === "Verdict" && evaluation ? (
+                                  <>
+                                    <VerdictBadge
+                                      verdict={evaluation.verdict}
+                                      deviationPct={evaluation.deviationPct}
+                                      provisional={evaluation.provisional}
+                                    />
+                                    {!evaluation.current && (
+                                      <span className="block text-label text-ink-soft">
+                                        superseded by a later stressing
+                                      </span>
+                                    )}
+                                  </>
+                                ) : c === "Stressed" && day ? (
+                                  timeOnDay(row[columnIndex(c)] ?? "", day)
+                                ) : (
+                                  row[columnIndex(c)]
+                                )}
+                              </td>
+                            ))}
+                          </tr>
+                        );
+                      })}
+                    </tbody>
+                  ))}
                 </table>
               </div>
             ) : (
