@@ -1,3 +1,4 @@
+import { Fragment } from "react";
 import { formatDateTime } from "@/lib/format/dates";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
 import { rereadLine } from "@/lib/stressing/display";
@@ -41,95 +42,97 @@ export function RecordsTable({
         <tbody className="tabular-nums">
           {c.records.map((r) => {
             const photos = c.photos.filter((p) => p.record_id === r.id);
+            const struck = heads.has(r.id) ? "" : "text-ink-faint line-through decoration-1";
             return (
-              <tr
-                key={r.id}
-                className={`border-b border-concrete-200 align-top ${heads.has(r.id) ? "" : "text-ink-faint line-through decoration-1"}`}
-              >
-                <td className="p-2 font-bold">{r.tendon_end}</td>
-                <td className="p-2">
-                  <span className="whitespace-nowrap xl:whitespace-normal">
-                    {formatDateTime(r.device_time, timeZone)}
-                  </span>
-                  {r.skew && (
-                    <span className="mt-1 block border-l-4 border-signal-stop pl-2 font-bold" data-clock-skew>
-                      Check the time:{" "}
-                      {r.skew.future
-                        ? "the tablet's time is after the server received it"
-                        : "the tablet's clock and the server disagree"}
-                      <span className="block font-normal">Tablet: {formatDateTime(r.device_time, timeZone)}</span>
-                      <span className="block font-normal">
-                        Server received: {formatDateTime(r.received_at, timeZone)}
+              <Fragment key={r.id}>
+                <tr className={`align-top ${r.skew ? "" : "border-b border-concrete-200"} ${struck}`}>
+                  <td className="p-2 font-bold">{r.tendon_end}</td>
+                  <td className="whitespace-nowrap p-2">{formatDateTime(r.device_time, timeZone)}</td>
+                  <td className="p-2">{r.equipmentSet}</td>
+                  <td className="p-2 text-right">
+                    {r.initial_pressure_mpa ? `${showPressure(r.initial_pressure_mpa)} → ` : ""}
+                    {showPressure(r.final_pressure_mpa)}
+                  </td>
+                  <td className="p-2 text-right font-semibold">{showLength(r.measured_mm)}</td>
+                  <td className="p-2">{r.author}</td>
+                  <td className="p-2">
+                    {r.revision > 1 && (
+                      <span className="block">
+                        Revision {r.revision}: {r.revision_reason}
                       </span>
-                    </span>
-                  )}
-                </td>
-                <td className="p-2">{r.equipmentSet}</td>
-                <td className="p-2 text-right">
-                  {r.initial_pressure_mpa ? `${showPressure(r.initial_pressure_mpa)} → ` : ""}
-                  {showPressure(r.final_pressure_mpa)}
-                </td>
-                <td className="p-2 text-right font-semibold">{showLength(r.measured_mm)}</td>
-                <td className="p-2">{r.author}</td>
-                <td className="p-2">
-                  {r.revision > 1 && (
-                    <span className="block">
-                      Revision {r.revision}: {r.revision_reason}
-                    </span>
-                  )}
-                  {r.wire_breaks > 0 && (
-                    <span className="block font-bold" data-testid="wire-breaks">
-                      {r.wire_breaks} wire break(s)
-                      {storedWireBreaks(r.wire_break_details)?.length
-                        ? `: ${storedWireBreaks(r.wire_break_details)!.map(wireBreakWords).join("; ")}`
-                        : ""}
-                    </span>
-                  )}
-                  {(() => {
-                    const line = rereadLine(c.basis.project, {
-                      measuredMm: r.measured_mm,
-                      firstReadingMm: r.first_reading_mm,
-                      rereadDeclinedReason: r.reread_declined_reason,
-                    });
-                    return line ? (
-                      <span className="block" data-testid="reread-line">
-                        {line}
+                    )}
+                    {r.wire_breaks > 0 && (
+                      <span className="block font-bold" data-testid="wire-breaks">
+                        {r.wire_breaks} wire break(s)
+                        {storedWireBreaks(r.wire_break_details)?.length
+                          ? `: ${storedWireBreaks(r.wire_break_details)!.map(wireBreakWords).join("; ")}`
+                          : ""}
                       </span>
-                    ) : null;
-                  })()}
-                  {(() => {
-                    const steps = storedGaugeSteps(r.entered);
-                    return steps ? (
-                      <span className="block" data-testid="gauge-steps-line">
-                        Gauge steps:{" "}
-                        {steps.map((s) => `${showPressure(s.pressureMPa)}: ${showLength(s.readingMm)}`).join("; ")}
+                    )}
+                    {(() => {
+                      const line = rereadLine(c.basis.project, {
+                        measuredMm: r.measured_mm,
+                        firstReadingMm: r.first_reading_mm,
+                        rereadDeclinedReason: r.reread_declined_reason,
+                      });
+                      return line ? (
+                        <span className="block" data-testid="reread-line">
+                          {line}
+                        </span>
+                      ) : null;
+                    })()}
+                    {(() => {
+                      const steps = storedGaugeSteps(r.entered);
+                      return steps ? (
+                        <span className="block" data-testid="gauge-steps-line">
+                          Gauge steps:{" "}
+                          {steps.map((s) => `${showPressure(s.pressureMPa)}: ${showLength(s.readingMm)}`).join("; ")}
+                        </span>
+                      ) : null;
+                    })()}
+                    {(() => {
+                      const off = storedGaugeOffTarget(r.entered);
+                      return off ? (
+                        <span className="block font-bold" data-testid="gauge-off-target">
+                          Gauge {showPct(off.pct)} off target, kept by the crew: {off.reason}
+                        </span>
+                      ) : null;
+                    })()}
+                    {r.remarks && <span className="block">{r.remarks}</span>}
+                    {r.concrete_go_ahead && (
+                      <span className="block" data-testid="concrete-go-ahead-reason">
+                        <strong>Concrete unconfirmed, crew:</strong> {r.concrete_go_ahead}
                       </span>
-                    ) : null;
-                  })()}
-                  {(() => {
-                    const off = storedGaugeOffTarget(r.entered);
-                    return off ? (
-                      <span className="block font-bold" data-testid="gauge-off-target">
-                        Gauge {showPct(off.pct)} off target, kept by the crew: {off.reason}
-                      </span>
-                    ) : null;
-                  })()}
-                  {r.remarks && <span className="block">{r.remarks}</span>}
-                  {r.concrete_go_ahead && (
-                    <span className="block" data-testid="concrete-go-ahead-reason">
-                      <strong>Concrete unconfirmed, crew:</strong> {r.concrete_go_ahead}
-                    </span>
-                  )}
-                  {photos.map((p, i) => (
-                    <a key={p.id} href={`/api/projects/${c.basis.project.id}/attachments/${p.id}`} className="block">
-                      Photo {i + 1}
-                    </a>
-                  ))}
-                  {canCorrect && heads.has(r.id) && (
-                    <CorrectionForm projectId={c.basis.project.id} recordId={r.id} unit={unit} />
-                  )}
-                </td>
-              </tr>
+                    )}
+                    {photos.map((p, i) => (
+                      <a key={p.id} href={`/api/projects/${c.basis.project.id}/attachments/${p.id}`} className="block">
+                        Photo {i + 1}
+                      </a>
+                    ))}
+                    {canCorrect && heads.has(r.id) && (
+                      <CorrectionForm projectId={c.basis.project.id} recordId={r.id} unit={unit} />
+                    )}
+                  </td>
+                </tr>
+                {r.skew && (
+                  // Under its record across the whole width: in the Stressed column it made a tall, narrow block.
+                  <tr className={`border-b border-concrete-200 ${struck}`}>
+                    <td colSpan={7} className="px-2 pb-2">
+                      <p className="border-l-4 border-signal-stop pl-2" data-clock-skew>
+                        <strong>
+                          Check the time:{" "}
+                          {r.skew.future
+                            ? "the tablet's time is after the server received it"
+                            : "the tablet's clock and the server disagree"}
+                          .
+                        </strong>{" "}
+                        Tablet: {formatDateTime(r.device_time, timeZone)} · Server received:{" "}
+                        {formatDateTime(r.received_at, timeZone)}
+                      </p>
+                    </td>
+                  </tr>
+                )}
+              </Fragment>
             );
           })}
         </tbody>
