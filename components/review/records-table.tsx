@@ -6,6 +6,17 @@ import { showPct } from "@/lib/format/quantities";
 import { storedGaugeOffTarget, storedGaugeSteps, storedWireBreaks, wireBreakWords } from "@/lib/schemas/record";
 import { CorrectionForm } from "./flag-actions";
 
+/** "2026-12-03 04:39 CST" as the day over the time, each unbroken, so the column stays narrow. */
+function DateThenTime({ text }: { text: string }) {
+  const [date, ...time] = text.split(" ");
+  return (
+    <>
+      <span className="block whitespace-nowrap">{date}</span>
+      <span className="block whitespace-nowrap">{time.join(" ")}</span>
+    </>
+  );
+}
+
 /** Every stressing record of the tendon, all revisions, oldest first; photos link to the files. */
 export function RecordsTable({
   c,
@@ -47,7 +58,9 @@ export function RecordsTable({
               <Fragment key={r.id}>
                 <tr className={`align-top ${r.skew ? "" : "border-b border-concrete-200"} ${struck}`}>
                   <td className="p-2 font-bold">{r.tendon_end}</td>
-                  <td className="whitespace-nowrap p-2">{formatDateTime(r.device_time, timeZone)}</td>
+                  <td className="p-2">
+                    <DateThenTime text={formatDateTime(r.device_time, timeZone)} />
+                  </td>
                   <td className="p-2">{r.equipmentSet}</td>
                   <td className="p-2 text-right">
                     {r.initial_pressure_mpa ? `${showPressure(r.initial_pressure_mpa)} → ` : ""}

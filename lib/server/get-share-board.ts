@@ -2,6 +2,7 @@ import "server-only";
 import { sql, type Kysely } from "kysely";
 import type { MomentOld } from "@/db/moment-old";
 import type { Database } from "@/db/types";
+import { projectTimeZone } from "@/lib/format/dates";
 import { hashToken } from "@/lib/auth/tokens";
 import { AppError } from "@/lib/errors";
 import { pourBoardStatus, type BoardStatus } from "@/lib/stressing/pour-status";
@@ -41,6 +42,7 @@ async function resolveLink(db: Kysely<Database>, token: string, ip: string | nul
       "projects.code",
       "projects.name",
       "projects.address",
+      "projects.time_zone",
     ])
     .where("share_links.token_sha256", "=", hashToken(token))
     .executeTakeFirst();
@@ -94,7 +96,8 @@ export async function getShareBoard(
   reads: MomentOld,
   input: { token: string; ip?: string | null; now?: Date },
 ): Promise<{
-  project: { code: string; name: string; address: string | null };
+  /** The project's time zone, in which the board shows its moments, as the reports do. */
+  project: { code: string; name: string; address: string | null; timeZone: string };
   label: string;
   expiresAt: Date;
   pours: BoardPour[];
@@ -170,7 +173,7 @@ export async function getShareBoard(
     ]),
   );
   return {
-    project: { code: link.code, name: link.name, address: link.address },
+    project: { code: link.code, name: link.name, address: link.address, timeZone: projectTimeZone(link) },
     label: link.label,
     expiresAt: new Date(link.expires_at),
     pours: pours.map((p) => {

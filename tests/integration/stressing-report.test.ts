@@ -384,6 +384,8 @@ describe("the read-only status board", () => {
     expect(signedPour).toMatchObject({ status: "held", held: 1, tendons: 2, complete: 1 });
     expect(signedPour.signed.map((s) => s.revision)).toEqual([2, 1]);
     expect(JSON.stringify(board)).not.toContain(crewName);
+    // The board shows its moments in the project's zone, as the reports do (the demo's: scripts/seed/demo-site.ts).
+    expect(board.project.timeZone).toBe("America/Chicago");
     const file = await readSharedReport(t.db, { token: link.token, pourId, revision: 2, now });
     expect(Buffer.from(file.body.subarray(0, 5)).toString()).toBe("%PDF-");
 

@@ -39,7 +39,9 @@ export default async function SharedBoardPage({ params }: { params: Promise<{ to
           {board.project.name} ({board.project.code})
         </h1>
         {board.project.address && <p className="text-ink-soft">{board.project.address}</p>}
-        <p className="mt-1 text-ink-soft">This link works until {formatDateTime(board.expiresAt, "UTC")}.</p>
+        <p className="mt-1 text-ink-soft">
+          This link works until {formatDateTime(board.expiresAt, board.project.timeZone)}.
+        </p>
       </header>
       <table className="w-full border-collapse text-left" aria-label="Pours">
         <thead>
@@ -62,7 +64,7 @@ export default async function SharedBoardPage({ params }: { params: Promise<{ to
                 {p.release && (
                   <span className="mt-1 block text-label text-ink-soft" data-testid="release-signature">
                     Release signed by {p.release.signerName} (licence {p.release.licence}),{" "}
-                    {formatDateTime(p.release.signedAt, "UTC")}; report sha256 at signing{" "}
+                    {formatDateTime(p.release.signedAt, board.project.timeZone)}; report sha256 at signing{" "}
                     <span className="break-all font-mono">{p.release.contentSha256}</span>
                   </span>
                 )}
@@ -80,7 +82,7 @@ export default async function SharedBoardPage({ params }: { params: Promise<{ to
                         <a href={`/api/share/${token}/reports/${p.pourId}/${s.revision}`} download>
                           Revision {s.revision}
                         </a>{" "}
-                        signed by {s.signerName}, {formatDateTime(s.signedAt, "UTC")}
+                        signed by {s.signerName}, {formatDateTime(s.signedAt, board.project.timeZone)}
                         {i > 0 ? " (superseded)" : ""}
                       </li>
                     ))}
