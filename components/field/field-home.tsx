@@ -80,10 +80,10 @@ export function FieldHome() {
 
   const readyIds = new Set(ready?.map((r) => r.pour.id));
 
+  // The page's heading and lead come from the server (app/(field)/field/page.tsx); this fills in below them.
   return (
-    <main className="mx-auto grid max-w-6xl gap-6 px-4 py-6">
-      <header>
-        <h1 className="text-figure font-bold">Field log</h1>
+    <>
+      <div>
         <p className="text-lead" data-testid="operator">
           {session === undefined
             ? "Checking who is signed in…"
@@ -99,7 +99,7 @@ export function FieldHome() {
         <a className="btn-quiet mt-3" href="/field/sign">
           Sign reports (inspector, needs signal)
         </a>
-      </header>
+      </div>
 
       <DecisionNotices />
 
@@ -240,6 +240,6 @@ export function FieldHome() {
           ))}
         </ul>
       </section>
-    </main>
+    </>
   );
 }

@@ -6,13 +6,10 @@ import { FieldGate } from "./field-provider";
 // loads after the page's frame has painted, fetched beside the shell's database code; the screen
 // shows once both are there. The offline worker precaches every chunk, so none of this needs signal.
 
-function Reading({ heading }: { heading?: string }) {
-  return (
-    <main className="mx-auto grid max-w-6xl gap-6 px-4 py-6">
-      {heading && <h1 className="text-figure font-bold">{heading}</h1>}
-      <p role="status">Reading the tablet&apos;s storage…</p>
-    </main>
-  );
+const readingWords = <p role="status">Reading the tablet&apos;s storage…</p>;
+
+function Reading() {
+  return <main className="mx-auto grid max-w-6xl gap-6 px-4 py-6">{readingWords}</main>;
 }
 
 /** Starts fetching a screen's code while the page hydrates (once: the bundler keeps the promise). */
@@ -24,7 +21,8 @@ const loadHome = () => import("./field-home").then((m) => m.FieldHome);
 const loadPourLog = () => import("./pour-log").then((m) => m.PourLog);
 const loadSigning = () => import("./field-signing").then((m) => m.FieldSigning);
 
-const FieldHome = dynamic(loadHome, { ssr: false, loading: () => <Reading heading="Field log" /> });
+// The landing's page holds its heading and lead (server HTML); only this line waits below them.
+const FieldHome = dynamic(loadHome, { ssr: false, loading: () => readingWords });
 const PourLog = dynamic(loadPourLog, { ssr: false, loading: () => <Reading /> });
 const FieldSigning = dynamic(loadSigning, {
   ssr: false,
@@ -40,7 +38,7 @@ const FieldSigning = dynamic(loadSigning, {
 export function FieldHomeScreen() {
   preload(loadHome);
   return (
-    <FieldGate placeholder={<Reading heading="Field log" />}>
+    <FieldGate placeholder={readingWords}>
       <FieldHome />
     </FieldGate>
   );

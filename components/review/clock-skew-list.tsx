@@ -52,6 +52,7 @@ export function ClockSkewList({ records }: { records: SkewedRecord[] }) {
                     </span>
                     <Link
                       href={`/projects/${r.projectId}/tendons/${r.tendonId}/flags`}
+                      prefetch={false}
                       className="font-bold underline underline-offset-2"
                     >
                       Tendon {r.tag}

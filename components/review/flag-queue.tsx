@@ -9,7 +9,13 @@ const age = (d: Date) => {
   return `${Math.round(hours / 24)} days`;
 };
 
-/** Flagged tendons, one card each, oldest first. */
+const flagsHref = (t: FlaggedTendon) => `/projects/${t.projectId}/tendons/${t.tendonId}/flags`;
+
+/**
+ * Flagged tendons, one card each, oldest first. The cards' links are not prefetched: a queue of
+ * dozens would have Next.js fetch every tendon's page after the load, on the inspector's phone too,
+ * for the one or two opened.
+ */
 export function FlagQueue({ tendons, empty }: { tendons: FlaggedTendon[]; empty: string }) {
   if (!tendons.length) return <p className="card">{empty}</p>;
   return (
@@ -20,7 +26,7 @@ export function FlagQueue({ tendons, empty }: { tendons: FlaggedTendon[]; empty:
             <p className="text-label uppercase text-ink-faint">
               {t.projectName} · {t.pourName} · oldest flag {age(t.oldest)} ago
             </p>
-            <Link href={`/projects/${t.projectId}/tendons/${t.tendonId}/flags`} className="text-lead font-bold">
+            <Link href={flagsHref(t)} prefetch={false} className="text-lead font-bold">
               Tendon {t.tag}
             </Link>
             <div className="mt-2 flex flex-wrap gap-2">
@@ -44,7 +50,7 @@ export function FlagQueue({ tendons, empty }: { tendons: FlaggedTendon[]; empty:
               <VerdictBadge verdict={t.verdict} deviationPct={t.deviationPct} provisional={t.provisional} />
             </div>
           )}
-          <Link href={`/projects/${t.projectId}/tendons/${t.tendonId}/flags`} className="btn-primary">
+          <Link href={flagsHref(t)} prefetch={false} className="btn-primary">
             Open
           </Link>
         </li>

@@ -13,7 +13,7 @@ import type {
   FieldTendon,
 } from "@/lib/schemas/sync";
 import { pickCalibration } from "@/lib/schemas/pick-calibration";
-import { storedGaugeOffTarget, storedGaugeSteps } from "@/lib/schemas/record";
+import { storedGaugeOffTarget, storedGaugeSteps } from "@/lib/schemas/stored-entered";
 import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
 import type { TendonEnd } from "@/lib/schemas/domain";
 import type { LocalRecord, LocalVerdict } from "./db";

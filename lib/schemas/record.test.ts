@@ -7,6 +7,7 @@ import {
   recordPayloadSchema,
   type Entered,
 } from "./record";
+import { CONTROL_CHARACTERS_MESSAGE } from "./text";
 import { MM_PER_INCH } from "@/lib/units";
 
 // Conversion factors are exact by definition: 1 in = 25.4 mm (NIST SP 811, B.8);
@@ -366,5 +367,31 @@ describe("the gauge off its target, confirmed", () => {
     expect(r.error!.issues.map((i) => `${i.path.join(".")}: ${i.message}`)).toEqual([
       "entered.gaugeOffTarget.reason: Say in a few words why the gauge is off its target.",
     ]);
+  });
+
+  // The confirmation's schema is written with zod/mini (./stored-entered.ts) inside this full-API one.
+  it("is refused with a control character in the reason, or a distance out of range, naming the field", () => {
+    const p = payloadFromForm(form, ctx);
+    const refused = (gaugeOffTarget: unknown) =>
+      recordPayloadSchema
+        .safeParse({ ...p, entered: { ...p.entered, gaugeOffTarget } })
+        .error!.issues.map((i) => `${i.path.join(".")}: ${i.message}`);
+    expect(refused({ pct: 9.5, reason: "needle\u0000 stuck" })).toEqual([
+      `entered.gaugeOffTarget.reason: ${CONTROL_CHARACTERS_MESSAGE}`,
+    ]);
+    expect(refused({ pct: -120, reason: "needle stuck" })).toEqual([
+      "entered.gaugeOffTarget.pct: The gauge cannot be more than 100 % below its target.",
+    ]);
+    expect(refused({ pct: 9.5, reason: "needle stuck", by: "crew" })).toHaveLength(1);
+  });
+
+  it("keeps the reason trimmed, and no confirmation at all is allowed", () => {
+    const p = payloadFromForm(form, ctx);
+    const parsed = recordPayloadSchema.parse({
+      ...p,
+      entered: { ...p.entered, gaugeOffTarget: { pct: 9.5, reason: "  needle stuck  " } },
+    });
+    expect(parsed.entered.gaugeOffTarget).toEqual({ pct: 9.5, reason: "needle stuck" });
+    expect(recordPayloadSchema.safeParse({ ...p, entered: { ...p.entered, gaugeOffTarget: null } }).success).toBe(true);
   });
 });

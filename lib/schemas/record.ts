@@ -3,8 +3,11 @@ import { text } from "./text";
 import { isInputError, parseLength, parsePressure, type LengthUnit, type PressureUnit } from "@/lib/units";
 import { WIRE_BREAK_PLACES, type WireBreakPlace } from "./wire-break-words";
 import { READING_METHODS, STRESSING_ORDERS, TENDON_ENDS } from "./domain";
+import { gaugeOffTargetSchema, type GaugeOffTarget, type GaugeStepSI } from "./stored-entered";
 
 export { WIRE_BREAK_PLACES, WIRE_BREAK_PLACE_WORDS, wireBreakWords, type WireBreakPlace } from "./wire-break-words";
+// What stored records' `entered` is read back with (zod/mini, for the tablet's tendon list), here too for the server's readers.
+export { storedGaugeOffTarget, storedGaugeSteps, type GaugeOffTarget, type GaugeStepSI } from "./stored-entered";
 
 /**
  * One stressing record of one tendon end, as the crew types it on the tablet and as it travels
@@ -58,25 +61,6 @@ export const gaugeStepEnteredSchema = z
   })
   .strict();
 
-/**
- * The crew's confirmation of a final pressure farther from the target than the band: how far off
- * (%, as the tablet computed it on the calibration it used) and why it was kept.
- */
-export const gaugeOffTargetSchema = z
-  .object({
-    pct: z
-      .number({ error: "The gauge's distance from its target must be a number (%)." })
-      .finite()
-      .min(-100, "The gauge cannot be more than 100 % below its target.")
-      .max(1000, "The gauge's distance from its target is over 1000 %."),
-    reason: text({ error: "Say why the gauge is off its target." })
-      .trim()
-      .min(3, "Say in a few words why the gauge is off its target.")
-      .max(500, "Keep the reason the gauge is off its target under 500 characters."),
-  })
-  .strict();
-export type GaugeOffTarget = z.infer<typeof gaugeOffTargetSchema>;
-
 /** The values exactly as typed, with the units bare numbers were read in. */
 export const enteredSchema = z.object({
   units: z.object({ length: z.enum(["in", "mm"]), pressure: z.enum(["psi", "MPa"]) }),
@@ -106,34 +90,9 @@ export const enteredSchema = z.object({
     .nullable()
     .optional(),
   /** The crew's confirmation of a final pressure off its target by more than the band. */
-  gaugeOffTarget: gaugeOffTargetSchema.nullable().optional(),
+  gaugeOffTarget: z.nullable(gaugeOffTargetSchema).optional(),
 });
 export type Entered = z.infer<typeof enteredSchema>;
-
-/** A gauge step in SI: what the judge, the calculation sheet and the insight read. */
-export interface GaugeStepSI {
-  pressureMPa: number;
-  readingMm: number;
-}
-
-const storedStepsSchema = z.object({
-  gaugeSteps: z.array(z.object({ pressureMPa: z.number().finite(), readingMm: z.number().finite() })),
-});
-
-/** The gauge steps a stored record's `entered` carries (SI), or null when it has none. */
-export function storedGaugeSteps(entered: unknown): GaugeStepSI[] | null {
-  const parsed = storedStepsSchema.safeParse(entered);
-  if (!parsed.success || !parsed.data.gaugeSteps.length) return null;
-  return parsed.data.gaugeSteps.map((s) => ({ pressureMPa: s.pressureMPa, readingMm: s.readingMm }));
-}
-
-const storedOffTargetSchema = z.object({ gaugeOffTarget: gaugeOffTargetSchema });
-
-/** The crew's off-target confirmation a stored record carries, or null. */
-export function storedGaugeOffTarget(entered: unknown): GaugeOffTarget | null {
-  const parsed = storedOffTargetSchema.safeParse(entered);
-  return parsed.success ? parsed.data.gaugeOffTarget : null;
-}
 
 export interface DerivedValues {
   initialPressureMPa: number | null;
