@@ -7,6 +7,7 @@ import { FormMessage } from "@/components/ui/form-message";
 import { placeFields, refusedWords } from "@/lib/client/field-errors";
 import { FormField } from "@/components/ui/form-field";
 import { sendJson } from "@/lib/client/send-json";
+import { ClientForm } from "@/components/ui/client-form";
 
 export function AcceptInvitationForm({
   token,
@@ -46,7 +47,7 @@ export function AcceptInvitationForm({
   }
 
   return (
-    <form
+    <ClientForm
       className="space-y-5"
       onSubmit={(e) => {
         e.preventDefault();
@@ -72,6 +73,6 @@ export function AcceptInvitationForm({
       <button type="submit" className="btn-primary" disabled={busy}>
         {busy ? "Joining…" : "Accept and join"}
       </button>
-    </form>
+    </ClientForm>
   );
 }

@@ -5,11 +5,12 @@ import { FormMessage } from "@/components/ui/form-message";
 import { FormField } from "@/components/ui/form-field";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
+import { ClientForm } from "@/components/ui/client-form";
 
 export function RequestResetForm() {
   const { message, fields, call } = useApiCall(["email"]);
   return (
-    <form
+    <ClientForm
       className="space-y-5"
       onSubmit={async (e) => {
         e.preventDefault();
@@ -22,7 +23,7 @@ export function RequestResetForm() {
       <button type="submit" className="btn-primary">
         Send a reset link
       </button>
-    </form>
+    </ClientForm>
   );
 }
 
@@ -30,7 +31,7 @@ export function NewPasswordForm({ token }: { token: string }) {
   const router = useRouter();
   const { message, fields, call } = useApiCall(["password"]);
   return (
-    <form
+    <ClientForm
       className="space-y-5"
       onSubmit={async (e) => {
         e.preventDefault();
@@ -51,6 +52,6 @@ export function NewPasswordForm({ token }: { token: string }) {
       <button type="submit" className="btn-primary">
         Save the new password
       </button>
-    </form>
+    </ClientForm>
   );
 }

@@ -3,9 +3,9 @@
 import type { SignInOptions, SignInResponse } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { useHydrated } from "@/lib/client/use-hydrated";
 import { FormField } from "@/components/ui/form-field";
 import { FormMessage } from "@/components/ui/form-message";
+import { ClientForm } from "@/components/ui/client-form";
 
 // next-auth's client code loads only when a button is pressed, not with the page: the page's
 // first load stays the framework's, and the form is usable as soon as it is drawn.
@@ -20,9 +20,6 @@ const FAILED =
 
 export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string; initialError?: string }) {
   const router = useRouter();
-  // The page paints before its script has run; until then the buttons stay disabled, so a press (or
-  // Enter) cannot send the form the browser's own way, which would put the password in the address.
-  const hydrated = useHydrated();
   const [error, setError] = useState<string | undefined>(initialError);
   const [busy, setBusy] = useState<"password" | "link" | null>(null);
   const [emailError, setEmailError] = useState<string>();
@@ -54,7 +51,9 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
   }
 
   return (
-    <form
+    // ClientForm keeps the boxes and buttons disabled until the page's script runs, so a press (or
+    // Enter) cannot send the form the browser's own way, which would put the password in the address.
+    <ClientForm
       className="space-y-5"
       method="post"
       onSubmit={(e) => {
@@ -74,18 +73,18 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
       />
       <FormField id="password" name="password" type="password" label="Password" autoComplete="current-password" />
       <div className="flex flex-wrap gap-3">
-        <button type="submit" className="btn-primary" disabled={!hydrated || busy !== null}>
+        <button type="submit" className="btn-primary" disabled={busy !== null}>
           {busy === "password" ? "Signing in…" : "Sign in"}
         </button>
         <button
           type="button"
           className="btn-quiet"
-          disabled={!hydrated || busy !== null}
+          disabled={busy !== null}
           onClick={(e) => void withLink(new FormData(e.currentTarget.form ?? undefined))}
         >
           {busy === "link" ? "Sending…" : "E-mail me a sign-in link"}
         </button>
       </div>
-    </form>
+    </ClientForm>
   );
 }

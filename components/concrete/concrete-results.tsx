@@ -12,6 +12,7 @@ import { useApiCall } from "@/lib/client/use-api-call";
 import { formatDateTime } from "@/lib/format/dates";
 import type { ConcreteGateView } from "@/lib/server/list-concrete-results";
 import { formatPressure, InputError, parsePressure } from "@/lib/units";
+import { ClientForm } from "@/components/ui/client-form";
 
 /**
  * The pour's concrete strength gate: the lab's results as entered, the strength they confirm
@@ -152,7 +153,12 @@ export function ConcreteResults(props: {
         </table>
       )}
       {props.canEnter && (
-        <form onSubmit={submit} noValidate className="grid gap-4 sm:grid-cols-2" aria-label="Enter concrete results">
+        <ClientForm
+          onSubmit={submit}
+          noValidate
+          className="grid gap-4 sm:grid-cols-2"
+          aria-label="Enter concrete results"
+        >
           {message && (
             <div className="sm:col-span-2">
               <FormMessage tone={message.tone}>{message.text}</FormMessage>
@@ -206,7 +212,7 @@ export function ConcreteResults(props: {
               {busy ? "Saving…" : "Save results"}
             </button>
           </div>
-        </form>
+        </ClientForm>
       )}
     </section>
   );

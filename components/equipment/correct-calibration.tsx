@@ -12,8 +12,15 @@ import { formResolver } from "@/lib/client/form-resolver";
 import { sendJson } from "@/lib/client/send-json";
 import { calibrationCorrectionSchema, calibrationSchema, type CalibrationInput } from "@/lib/schemas/calibration";
 import { PER, shown } from "@/lib/client/unit-fields";
-import { readPoints } from "./equipment-forms";
+import {
+  CALIBRATION_PATHS,
+  CALIBRATION_ROWS,
+  CalibrationPointsField,
+  calibrationBoxes,
+  calibrationFromBoxes,
+} from "./equipment-forms";
 import { equipmentSetsKey } from "./equipment-list";
+import { ClientForm } from "@/components/ui/client-form";
 
 type CalibrationPoint = CalibrationInput["points"][number];
 type Boxes = { calibratedOn: string; validUntil: string; pointsText: string; laboratory: string; reason: string };
@@ -32,28 +39,11 @@ const pointsText = (points: CalibrationPoint[], us: boolean) =>
 /** The boxes read in the project's units; the certificate file stays the one on record. */
 function resolver(us: boolean, certificateAttachmentId: string | null) {
   return formResolver(
-    {
-      calibratedOn: z.string(),
-      validUntil: z.string(),
-      pointsText: z.string().transform((text, ctx) => {
-        const { points, error } = readPoints(text, us);
-        if (error) ctx.addIssue({ code: "custom", message: error });
-        return points;
-      }),
-      laboratory: z.string(),
-      reason: z.string(),
-    },
-    (v) => ({
-      calibratedOn: v.calibratedOn,
-      validUntil: v.validUntil || null,
-      points: v.pointsText ?? [],
-      laboratory: v.laboratory?.trim() || null,
-      certificateAttachmentId,
-      reason: v.reason ?? "",
-    }),
+    { ...calibrationBoxes(us), reason: z.string() },
+    (v) => ({ ...calibrationFromBoxes(v, certificateAttachmentId), reason: v.reason ?? "" }),
     z.intersection(calibrationSchema, z.object({ reason: calibrationCorrectionSchema.shape.reason })),
-    { points: "pointsText" },
-    { pointsText: "Line" },
+    CALIBRATION_PATHS,
+    CALIBRATION_ROWS,
   ) as unknown as ReturnType<typeof formResolver<never, Corrected>>;
 }
 
@@ -128,7 +118,7 @@ export function CorrectCalibration(props: {
   return (
     <details className="mt-2">
       <summary className="btn-quiet w-fit cursor-pointer">Correct this calibration…</summary>
-      <form
+      <ClientForm
         onSubmit={onSubmit}
         onChange={() => preview && setPreview(null)}
         noValidate
@@ -160,12 +150,9 @@ export function CorrectCalibration(props: {
             />
           ))}
         </div>
-        <FormField
-          as="textarea"
+        <CalibrationPointsField
           id={`${id}-points`}
-          rows={6}
-          className="font-mono"
-          label={`Calibration points: gauge pressure, force (${props.us ? "psi, kip" : "MPa, kN"}), one pair per line`}
+          us={props.us}
           error={e.pointsText?.message}
           {...form.register("pointsText")}
         />
@@ -192,7 +179,7 @@ export function CorrectCalibration(props: {
               ? `Correct the calibration of ${c.calibratedOn}`
               : "Check what the correction changes"}
         </button>
-      </form>
+      </ClientForm>
     </details>
   );
 }

@@ -1,8 +1,7 @@
 "use client";
 
 import { useState } from "react";
-import { useForm } from "react-hook-form";
-import { useHydrated } from "@/lib/client/use-hydrated";
+import { useForm, type UseFormRegisterReturn } from "react-hook-form";
 import { useSWRConfig } from "swr";
 import { z } from "zod";
 import { units } from "@/lib/client/unit-fields";
@@ -18,6 +17,7 @@ import { equipmentSetSchema, type EquipmentSetInput } from "@/lib/schemas/equipm
 import { isInputError, parseForce, parsePressure } from "@/lib/units";
 import { showNumber } from "@/lib/format/quantities";
 import { equipmentSetsKey, useEquipmentSets, type EquipmentSetList } from "./equipment-list";
+import { ClientForm } from "@/components/ui/client-form";
 
 type Errors = Record<string, { message?: string } | undefined>;
 
@@ -66,7 +66,7 @@ export function EquipmentSetForm({ projectId, us }: { projectId: string; us: boo
     void mutate(equipmentSetsKey(projectId));
   });
   return (
-    <form onSubmit={onSubmit} noValidate className="card space-y-4">
+    <ClientForm onSubmit={onSubmit} noValidate className="card space-y-4">
       <h2 className="text-lead font-semibold">Add an equipment set</h2>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
       <FormMessage tone="error">{e.root?.message}</FormMessage>
@@ -106,7 +106,7 @@ export function EquipmentSetForm({ projectId, us }: { projectId: string; us: boo
       <button className="btn-primary" type="submit">
         Add set
       </button>
-    </form>
+    </ClientForm>
   );
 }
 
@@ -136,7 +136,8 @@ export function readPoints(text: string, us: boolean): { points: CalibrationInpu
   return { points, error: null };
 }
 
-function calFields(us: boolean) {
+/** The boxes of a calibration's figures, read in the project's units (the points one pair a line). */
+export function calibrationBoxes(us: boolean) {
   return {
     calibratedOn: z.string(),
     validUntil: z.string(),
@@ -146,23 +147,64 @@ function calFields(us: boolean) {
       return points;
     }),
     laboratory: z.string(),
-    certificateAttachmentId: z.string(),
   };
+}
+
+/** A calibration for `calibrationSchema` from its boxes as read (null: could not be read) and its certificate. */
+export function calibrationFromBoxes(
+  v: {
+    calibratedOn: string | null;
+    validUntil: string | null;
+    pointsText: CalibrationInput["points"] | null;
+    laboratory: string | null;
+  },
+  certificateAttachmentId: string | null,
+) {
+  return {
+    calibratedOn: v.calibratedOn,
+    validUntil: v.validUntil || null,
+    points: v.pointsText ?? [],
+    laboratory: v.laboratory?.trim() || null,
+    certificateAttachmentId,
+  };
+}
+
+/** `formResolver`'s paths and rows for `calibrationBoxes`: the points' messages go to their box, by line. */
+export const CALIBRATION_PATHS = { points: "pointsText" } as const;
+export const CALIBRATION_ROWS = { pointsText: "Line" } as const;
+
+/** The points box of a calibration form, its label naming the units they are read in. */
+export function CalibrationPointsField({
+  id,
+  us,
+  error,
+  ...box
+}: { id: string; us: boolean; error?: string } & UseFormRegisterReturn) {
+  return (
+    <FormField
+      as="textarea"
+      id={id}
+      rows={6}
+      className="font-mono"
+      label={`Calibration points: gauge pressure, force (${us ? "psi, kip" : "MPa, kN"}), one pair per line`}
+      placeholder={us ? "1000, 6.3\n2000, 13.4" : "10, 50.2\n20, 101.6"}
+      error={error}
+      {...box}
+    />
+  );
+}
+
+function calFields(us: boolean) {
+  return { ...calibrationBoxes(us), certificateAttachmentId: z.string() };
 }
 
 function calResolver(us: boolean) {
   return formResolver(
     calFields(us),
-    (v) => ({
-      calibratedOn: v.calibratedOn,
-      validUntil: v.validUntil || null,
-      points: v.pointsText ?? [],
-      laboratory: v.laboratory?.trim() || null,
-      certificateAttachmentId: v.certificateAttachmentId || null,
-    }),
+    (v) => calibrationFromBoxes(v, v.certificateAttachmentId || null),
     calibrationSchema,
-    { points: "pointsText" },
-    { pointsText: "Line" },
+    CALIBRATION_PATHS,
+    CALIBRATION_ROWS,
   );
 }
 
@@ -180,7 +222,6 @@ export function CalibrationForm({
   const { mutate } = useSWRConfig();
   // The same list as the cards above, so a set added a moment ago can be chosen at once.
   const sets = useEquipmentSets(projectId, initial).data.equipmentSets;
-  const hydrated = useHydrated();
   const [chosen, setChosen] = useState("");
   const setId = sets.some((s) => s.id === chosen) ? chosen : (sets[0]?.id ?? "");
   const [message, setMessage] = useState<{ tone: "error" | "info"; text: string }>();
@@ -228,7 +269,7 @@ export function CalibrationForm({
   });
   if (!sets.length) return null;
   return (
-    <form
+    <ClientForm
       onSubmit={onSubmit}
       onChange={() => preview && setPreview(null)}
       noValidate
@@ -238,76 +279,69 @@ export function CalibrationForm({
       <h2 className="text-lead font-semibold">Add a calibration</h2>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
       <FormMessage tone="error">{e.root?.message}</FormMessage>
-      {/* Until the page's script runs a choice made here would be set back to the first set. */}
-      <fieldset disabled={!hydrated} className="min-w-0 space-y-4">
-        <div className="grid gap-4 md:grid-cols-3">
-          <FormField
-            as="select"
-            id="c-set"
-            label="Equipment set"
-            value={setId}
-            onChange={(ev) => setChosen(ev.target.value)}
-          >
-            {sets.map((s) => (
-              <option key={s.id} value={s.id}>
-                {s.name}
-              </option>
-            ))}
-          </FormField>
-          <FormField
-            id="c-on"
-            type="date"
-            label="Calibrated on"
-            error={e.calibratedOn?.message}
-            {...form.register("calibratedOn")}
-          />
-          <FormField
-            id="c-until"
-            type="date"
-            label="Valid until (optional)"
-            hint={`Empty: ${validityDays} days after calibration, the project's rule; the earlier date wins.`}
-            error={e.validUntil?.message}
-            {...form.register("validUntil")}
-          />
-        </div>
+      <div className="grid gap-4 md:grid-cols-3">
         <FormField
-          as="textarea"
-          id="c-points"
-          rows={6}
-          className="font-mono"
-          label={`Calibration points: gauge pressure, force (${us ? "psi, kip" : "MPa, kN"}), one pair per line`}
-          placeholder={us ? "1000, 6.3\n2000, 13.4" : "10, 50.2\n20, 101.6"}
-          error={e.pointsText?.message ?? e.points?.message}
-          {...form.register("pointsText")}
+          as="select"
+          id="c-set"
+          label="Equipment set"
+          value={setId}
+          onChange={(ev) => setChosen(ev.target.value)}
+        >
+          {sets.map((s) => (
+            <option key={s.id} value={s.id}>
+              {s.name}
+            </option>
+          ))}
+        </FormField>
+        <FormField
+          id="c-on"
+          type="date"
+          label="Calibrated on"
+          error={e.calibratedOn?.message}
+          {...form.register("calibratedOn")}
         />
         <FormField
-          id="c-lab"
-          label="Laboratory (optional)"
-          error={e.laboratory?.message}
-          {...form.register("laboratory")}
+          id="c-until"
+          type="date"
+          label="Valid until (optional)"
+          hint={`Empty: ${validityDays} days after calibration, the project's rule; the earlier date wins.`}
+          error={e.validUntil?.message}
+          {...form.register("validUntil")}
         />
-        <FileUpload
-          projectId={projectId}
-          purpose="calibration_certificate"
-          label="Calibration certificate file"
-          onUploaded={(f) => form.setValue("certificateAttachmentId", f.id)}
+      </div>
+      <CalibrationPointsField
+        id="c-points"
+        us={us}
+        error={e.pointsText?.message ?? e.points?.message}
+        {...form.register("pointsText")}
+      />
+      <FormField
+        id="c-lab"
+        label="Laboratory (optional)"
+        error={e.laboratory?.message}
+        {...form.register("laboratory")}
+      />
+      <FileUpload
+        projectId={projectId}
+        purpose="calibration_certificate"
+        label="Calibration certificate file"
+        onUploaded={(f) => form.setValue("certificateAttachmentId", f.id)}
+      />
+      <FieldError
+        id="c-certificate-error"
+        messages={e.certificateAttachmentId?.message ? [e.certificateAttachmentId.message] : undefined}
+      />
+      {preview && (
+        <RejudgePreviewNote
+          preview={preview}
+          subject="This calibration"
+          then="Press again to save it."
+          testId="calibration-preview"
         />
-        <FieldError
-          id="c-certificate-error"
-          messages={e.certificateAttachmentId?.message ? [e.certificateAttachmentId.message] : undefined}
-        />
-        {preview && (
-          <RejudgePreviewNote
-            preview={preview}
-            subject="This calibration"
-            then="Press again to save it."
-            testId="calibration-preview"
-          />
-        )}
-        <button className="btn-primary" type="submit" disabled={busy}>
-          {busy ? "Checking…" : preview ? "Save the calibration and judge again" : "Save calibration"}
-        </button>
-      </fieldset>
-    </form>
+      )}
+      <button className="btn-primary" type="submit" disabled={busy}>
+        {busy ? "Checking…" : preview ? "Save the calibration and judge again" : "Save calibration"}
+      </button>
+    </ClientForm>
   );
 }

@@ -8,6 +8,7 @@ import { FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
 import { equipmentSetsKey } from "./equipment-list";
+import { ClientForm } from "@/components/ui/client-form";
 
 /**
  * Retires a set's calibration with a reason: it is never picked again, and the tendons that stood
@@ -31,7 +32,7 @@ export function RetireCalibration(props: {
   return (
     <details className="mt-2">
       <summary className="btn-quiet w-fit cursor-pointer">Retire this calibration…</summary>
-      <form
+      <ClientForm
         className="mt-2 space-y-2"
         aria-label={`Retire the calibration of ${props.calibratedOn}`}
         onSubmit={async (e) => {
@@ -80,7 +81,7 @@ export function RetireCalibration(props: {
               ? `Retire the calibration of ${props.calibratedOn}`
               : "Check what the retirement changes"}
         </button>
-      </form>
+      </ClientForm>
     </details>
   );
 }

@@ -23,6 +23,7 @@ import {
 } from "./follow-up-fields";
 import { useField } from "./field-provider";
 import { useLiveQuery as useLive } from "dexie-react-hooks";
+import { ClientForm } from "@/components/ui/client-form";
 
 /**
  * The detension an engineer ordered (decision detension_restress), opened from the hold panel:
@@ -237,7 +238,7 @@ function DetensionForm(
   };
 
   return (
-    <form className="grid gap-4" onSubmit={(e) => void submit(e)} noValidate data-testid="detension-form">
+    <ClientForm className="grid gap-4" onSubmit={(e) => void submit(e)} noValidate data-testid="detension-form">
       <FormProblem message={errors.root} />
       <FormField {...box("when")} label={`When (${timeZone})`} type="datetime-local" />
       <FormField {...box("operator")} label="Jack operator" autoComplete="off" />
@@ -264,6 +265,6 @@ function DetensionForm(
         saveTestId="detension-save"
         onCancel={() => props.onDone(false)}
       />
-    </form>
+    </ClientForm>
   );
 }

@@ -5,6 +5,7 @@ import { useState } from "react";
 import useSWR from "swr";
 import { DailySignForm } from "@/components/reports/daily-sign-form";
 import { PourSignForm } from "@/components/reports/pour-sign-form";
+import type { SignedRevisionView } from "@/components/reports/report-signing";
 import { SignedRevisions } from "@/components/reports/signed-revisions";
 import { FormMessage } from "@/components/ui/form-message";
 import { FetchError, fetchJson } from "@/lib/client/fetcher";
@@ -18,14 +19,7 @@ interface Me {
   name: string;
   memberships: { projectId: string; projectName: string; projectCode: string; role: string }[];
 }
-interface Revision {
-  revision: number;
-  signerName: string;
-  licence: string;
-  signedAt: string;
-  fileSha256: string;
-  changes: string[];
-}
+type Revision = SignedRevisionView;
 interface Current {
   signed: boolean;
   changesSinceSigned: string[];

@@ -26,6 +26,7 @@ import {
 } from "./follow-up-fields";
 import { useField } from "./field-provider";
 import { useLiveQuery as useLive } from "dexie-react-hooks";
+import { ClientForm } from "@/components/ui/client-form";
 
 /**
  * The lift-off check an engineer ordered, opened from the hold panel: the crew records the gauge
@@ -218,7 +219,7 @@ function LiftoffForm(
   };
 
   return (
-    <form className="grid gap-4" onSubmit={(e) => void submit(e)} noValidate data-testid="liftoff-form">
+    <ClientForm className="grid gap-4" onSubmit={(e) => void submit(e)} noValidate data-testid="liftoff-form">
       <FormProblem message={errors.root} />
       <fieldset aria-describedby={errors.tendonEnd ? `${ids.end}-error` : undefined}>
         <legend className="field-label">End</legend>
@@ -270,6 +271,6 @@ function LiftoffForm(
         saveTestId="liftoff-save"
         onCancel={() => props.onDone(false)}
       />
-    </form>
+    </ClientForm>
   );
 }

@@ -37,6 +37,7 @@ import { FractionKeys, withFraction } from "@/components/ui/fraction-keys";
 import { useField } from "./field-provider";
 import { PhotoPicker, type PickedPhoto } from "./photo-picker";
 import { units } from "./verdict-panel";
+import { ClientForm } from "@/components/ui/client-form";
 
 /**
  * The message under a group of choices (a fieldset), read out as it appears: the group points at
@@ -96,6 +97,10 @@ function NumberBox(props: {
 /** A choice among a few, as big pressable chips (the radio itself is hidden, its label is the key). */
 const CHIP = "btn-quiet has-checked:bg-ink has-checked:text-concrete-50";
 
+/** A box as typed, else its SI value shown in the record's entry units (steps saved by older apps). */
+const typedOr = (typed: string | undefined, si: number | undefined, show: (value: number) => string) =>
+  typed ?? (si === undefined ? "" : show(si));
+
 function formFromEntered(base: LocalRecord): RecordFormValues {
   const e = base.entered as Entered;
   return {
@@ -117,20 +122,12 @@ function formFromEntered(base: LocalRecord): RecordFormValues {
     rereadDeclinedReason: base.rereadDeclinedReason ?? "",
     // Steps typed on a tablet carry their text; older ones only their SI values, shown in the entry units.
     gaugeSteps: (e.gaugeSteps ?? []).map((st) => ({
-      pressure:
-        st.pressure ??
-        (st.pressureMPa === undefined
-          ? ""
-          : e.units.pressure === "psi"
-            ? shown(st.pressureMPa, PER.psi, 0)
-            : shown(st.pressureMPa, PER.MPa, 2)),
-      reading:
-        st.reading ??
-        (st.readingMm === undefined
-          ? ""
-          : e.units.length === "in"
-            ? shown(st.readingMm, PER.in, 4)
-            : shown(st.readingMm, PER.mm, 1)),
+      pressure: typedOr(st.pressure, st.pressureMPa, (mpa) =>
+        e.units.pressure === "psi" ? shown(mpa, PER.psi, 0) : shown(mpa, PER.MPa, 2),
+      ),
+      reading: typedOr(st.reading, st.readingMm, (mm) =>
+        e.units.length === "in" ? shown(mm, PER.in, 4) : shown(mm, PER.mm, 1),
+      ),
     })),
     stressingOrder: base.stressingOrder ?? "sequential",
     wireBreaks: String(base.wireBreaks),
@@ -450,7 +447,7 @@ export function RecordForm({
   );
 
   return (
-    <form
+    <ClientForm
       onSubmit={handleSubmit(submit)}
       className="card grid min-w-0 gap-3 p-3"
       aria-label={correcting ? "Correct the record" : "New record"}
@@ -855,6 +852,6 @@ export function RecordForm({
           <SafetyCaution className="flex-1 self-start" />
         </div>
       </div>
-    </form>
+    </ClientForm>
   );
 }

@@ -6,6 +6,7 @@ import { FieldError, FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
 import type { FlagMailMode } from "@/lib/schemas/domain";
+import { ClientForm } from "@/components/ui/client-form";
 
 /** The engineer's own choice on one project: an e-mail for each flag, or one digest per shift. */
 export function FlagMailForm(props: { projectId: string; mode: FlagMailMode; shiftEnds: string; nextEnd: string }) {
@@ -14,7 +15,7 @@ export function FlagMailForm(props: { projectId: string; mode: FlagMailMode; shi
   const [mode, setMode] = useState<FlagMailMode>(props.mode);
   const changed = mode !== props.mode;
   return (
-    <form
+    <ClientForm
       className="card space-y-4"
       aria-label="Flag e-mails"
       onSubmit={async (e) => {
@@ -74,6 +75,6 @@ export function FlagMailForm(props: { projectId: string; mode: FlagMailMode; shi
       <button type="submit" className="btn-primary" disabled={busy || !changed}>
         {busy ? "Saving…" : "Save my choice"}
       </button>
-    </form>
+    </ClientForm>
   );
 }

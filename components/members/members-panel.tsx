@@ -10,6 +10,7 @@ import { ROLE_LABELS, ROLES } from "@/lib/auth/permissions";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
 import { formatDay } from "@/lib/format/dates";
+import { ClientForm } from "@/components/ui/client-form";
 
 /** Roles whose rights cannot be handed out or taken back in passing: deciding on flags, running the project. */
 const WEIGHTY: ReadonlySet<Role> = new Set(["engineer", "admin"]);
@@ -100,7 +101,7 @@ export function MembersPanel(props: {
         <h2 id="invite-heading" className="text-lead font-semibold">
           Invite someone
         </h2>
-        <form
+        <ClientForm
           className="mt-4 grid gap-4 md:grid-cols-[2fr_1fr_auto] md:items-end"
           // The server's words beside the box, not the browser's bubble, answer a bad address.
           noValidate
@@ -135,7 +136,7 @@ export function MembersPanel(props: {
           <button type="submit" className="btn-primary">
             Send invitation
           </button>
-        </form>
+        </ClientForm>
       </section>
 
       <section aria-labelledby="members-heading">

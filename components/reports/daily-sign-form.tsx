@@ -1,14 +1,11 @@
 "use client";
 
 import { useState } from "react";
-import { ConfirmDialog } from "@/components/ui/confirm-dialog";
-import { SignerFields } from "./signer-fields";
 import { FormField } from "@/components/ui/form-field";
-import { FieldError, FormMessage } from "@/components/ui/form-message";
-import { sendJson } from "@/lib/client/send-json";
-import { useApiCall } from "@/lib/client/use-api-call";
+import { FieldError } from "@/components/ui/form-message";
 import type { WitnessGroupView } from "@/lib/reports/daily-rows";
 import { WITNESS_EXTENTS, type DailyAttestation } from "@/lib/schemas/daily-report";
+import { SigningForm } from "./signing-form";
 
 const EXTENT_BUTTONS = { full: "In full", part: "In part", none: "Not witnessed" } as const;
 
@@ -54,33 +51,22 @@ export function DailySignForm({
   onSigned: (revision: number) => void;
   idPrefix?: string;
 }) {
-  const { message, fields, busy, call } = useApiCall(DAILY_BOXES);
-  const [pending, setPending] = useState<Record<string, unknown> | null>(null);
   const [conformance, setConformance] = useState<string>("");
   const id = (name: string) => `${idPrefix}-${name}`;
   const before = (g: WitnessGroupView) => previous?.witness.find((w) => w.pourId === g.pourId && w.group === g.group);
 
-  async function sign() {
-    const body = pending;
-    setPending(null);
-    if (!body) return;
-    const result = await call(sendJson<{ revision: number }>("POST", api, body));
-    if (result.ok) onSigned(result.data.revision);
-  }
-
   return (
-    <form
+    <SigningForm
+      api={api}
+      shown={DAILY_BOXES}
+      label={`Sign the daily inspection report of ${day}`}
       className="space-y-4"
-      aria-label={`Sign the daily inspection report of ${day}`}
-      noValidate
-      onSubmit={(e) => {
-        e.preventDefault();
-        const data = new FormData(e.currentTarget);
+      signerId={(part) => id(`sign-${part}`)}
+      signerName={signerName}
+      defaultStatement={defaultStatement}
+      read={(data) => {
         const value = (name: string) => String(data.get(name) ?? "");
-        setPending({
-          signerName: value("signerName"),
-          licence: value("licence"),
-          statement: value("statement"),
+        return {
           remarks: value("remarks"),
           // Not chosen is sent as not chosen: the server names the field.
           ...(data.get("conformance") !== null && { conformance: value("conformance") }),
@@ -91,141 +77,11 @@ export function DailySignForm({
             witnessedBy: value(`witness.${i}.witnessedBy`),
             note: value(`witness.${i}.note`),
           })),
-        });
+        };
       }}
-    >
-      <FormMessage tone="error">{message?.text}</FormMessage>
-
-      <fieldset className="space-y-3" aria-describedby={fields.witness ? id("witness-error") : undefined}>
-        <legend className="text-lead font-bold">What you witnessed</legend>
-        {groups.length === 0 && <p className="text-ink-soft">No tendon was stressed this day.</p>}
-        <FieldError id={id("witness-error")} messages={fields.witness} />
-        {groups.map((g, i) => {
-          const was = before(g);
-          const err = (name: string) => fields[`witness.${i}.${name}`];
-          return (
-            <fieldset
-              key={`${g.pourId}|${g.group}`}
-              className="space-y-2 rounded-md border border-concrete-300 p-3"
-              data-witness-group={g.label}
-            >
-              <legend className="px-1 font-semibold">
-                {g.label}: {g.stressed}
-              </legend>
-              <div
-                className="flex flex-wrap gap-2"
-                role="radiogroup"
-                aria-label={`How much of ${g.label} you witnessed`}
-              >
-                {WITNESS_EXTENTS.map((extent) => (
-                  <label
-                    key={extent}
-                    className="flex min-h-12 cursor-pointer items-center gap-2 rounded-md border-2 border-concrete-400 px-3 has-[:checked]:border-ink has-[:checked]:bg-concrete-100"
-                  >
-                    <input
-                      type="radio"
-                      name={`witness.${i}.extent`}
-                      value={extent}
-                      defaultChecked={was?.extent === extent}
-                      className="h-5 w-5"
-                    />
-                    {EXTENT_BUTTONS[extent]}
-                  </label>
-                ))}
-              </div>
-              <FieldError
-                id={id(`witness-${i}-extent-error`)}
-                messages={[...(err("extent") ?? []), ...(err("group") ?? [])]}
-              />
-              <div className="grid gap-2 md:grid-cols-2">
-                <FormField
-                  id={id(`witness-${i}-by`)}
-                  name={`witness.${i}.witnessedBy`}
-                  label="Witnessed by"
-                  defaultValue={was?.witnessedBy ?? signerName}
-                  error={err("witnessedBy")}
-                />
-                <FormField
-                  id={id(`witness-${i}-note`)}
-                  name={`witness.${i}.note`}
-                  label="Which part, or why not"
-                  defaultValue={was?.note ?? ""}
-                  error={err("note")}
-                />
-              </div>
-            </fieldset>
-          );
-        })}
-      </fieldset>
-
-      <fieldset className="space-y-2" aria-describedby={fields.conformance ? id("conformance-error") : undefined}>
-        <legend className="text-lead font-bold">Statement of conformance</legend>
-        <p className="text-ink-soft">Choose one; nothing is assumed.</p>
-        <div className="flex flex-wrap gap-2">
-          {(
-            [
-              ["conforming", "The work was in conformance"],
-              ["not_conforming", "The work was not in conformance"],
-            ] as const
-          ).map(([value, words]) => (
-            <label
-              key={value}
-              className="flex min-h-12 cursor-pointer items-center gap-2 rounded-md border-2 border-concrete-400 px-3 has-[:checked]:border-ink has-[:checked]:bg-concrete-100"
-            >
-              <input
-                type="radio"
-                name="conformance"
-                value={value}
-                className="h-5 w-5"
-                onChange={() => setConformance(value)}
-              />
-              {words}
-            </label>
-          ))}
-        </div>
-        <FieldError id={id("conformance-error")} messages={fields.conformance} />
-        {exceptions.length > 0 ? (
-          <div className={conformance === "not_conforming" ? "font-semibold" : "text-ink-soft"}>
-            <p>
-              Open exceptions of the day&apos;s work{conformance === "not_conforming" ? ", listed on the report" : ""}:
-            </p>
-            <ul className="list-disc pl-6" data-testid="open-exceptions">
-              {exceptions.map((x) => (
-                <li key={x}>{x}</li>
-              ))}
-            </ul>
-          </div>
-        ) : (
-          <p className="text-ink-soft">No exception of the day&apos;s work is open.</p>
-        )}
-      </fieldset>
-
-      <FormField
-        as="textarea"
-        id={id("remarks")}
-        name="remarks"
-        label="Your remarks for the day"
-        hint="What you observed that the records do not say: weather, access, what you asked for. Printed on the report; changing them needs a new signature."
-        rows={3}
-        defaultValue={remarks}
-        error={fields.remarks}
-      />
-      <SignerFields
-        id={(part) => id(`sign-${part}`)}
-        signerName={signerName}
-        defaultStatement={defaultStatement}
-        fields={fields}
-      />
-      <button type="submit" className="btn-primary min-h-12" disabled={busy}>
-        {busy ? "Signing…" : `Sign revision ${nextRevision} of ${day}`}
-      </button>
-      <ConfirmDialog
-        open={pending !== null}
-        title={`Sign revision ${nextRevision} of ${day}?`}
-        confirmLabel="Sign"
-        onConfirm={() => void sign()}
-        onCancel={() => setPending(null)}
-      >
+      submitLabel={`Sign revision ${nextRevision} of ${day}`}
+      confirmTitle={`Sign revision ${nextRevision} of ${day}?`}
+      confirmText={
         <p>
           Your typed name, licence and statement sign the day&apos;s report as it stands, with what you state was
           witnessed and{" "}
@@ -236,8 +92,128 @@ export function DailySignForm({
               : "your statement of conformance"}
           .
         </p>
-        <p>The signed copy is frozen; a later change needs a new revision and a new signature.</p>
-      </ConfirmDialog>
-    </form>
+      }
+      onSigned={onSigned}
+    >
+      {(fields) => (
+        <>
+          <fieldset className="space-y-3" aria-describedby={fields.witness ? id("witness-error") : undefined}>
+            <legend className="text-lead font-bold">What you witnessed</legend>
+            {groups.length === 0 && <p className="text-ink-soft">No tendon was stressed this day.</p>}
+            <FieldError id={id("witness-error")} messages={fields.witness} />
+            {groups.map((g, i) => {
+              const was = before(g);
+              const err = (name: string) => fields[`witness.${i}.${name}`];
+              return (
+                <fieldset
+                  key={`${g.pourId}|${g.group}`}
+                  className="space-y-2 rounded-md border border-concrete-300 p-3"
+                  data-witness-group={g.label}
+                >
+                  <legend className="px-1 font-semibold">
+                    {g.label}: {g.stressed}
+                  </legend>
+                  <div
+                    className="flex flex-wrap gap-2"
+                    role="radiogroup"
+                    aria-label={`How much of ${g.label} you witnessed`}
+                  >
+                    {WITNESS_EXTENTS.map((extent) => (
+                      <label
+                        key={extent}
+                        className="flex min-h-12 cursor-pointer items-center gap-2 rounded-md border-2 border-concrete-400 px-3 has-[:checked]:border-ink has-[:checked]:bg-concrete-100"
+                      >
+                        <input
+                          type="radio"
+                          name={`witness.${i}.extent`}
+                          value={extent}
+                          defaultChecked={was?.extent === extent}
+                          className="h-5 w-5"
+                        />
+                        {EXTENT_BUTTONS[extent]}
+                      </label>
+                    ))}
+                  </div>
+                  <FieldError
+                    id={id(`witness-${i}-extent-error`)}
+                    messages={[...(err("extent") ?? []), ...(err("group") ?? [])]}
+                  />
+                  <div className="grid gap-2 md:grid-cols-2">
+                    <FormField
+                      id={id(`witness-${i}-by`)}
+                      name={`witness.${i}.witnessedBy`}
+                      label="Witnessed by"
+                      defaultValue={was?.witnessedBy ?? signerName}
+                      error={err("witnessedBy")}
+                    />
+                    <FormField
+                      id={id(`witness-${i}-note`)}
+                      name={`witness.${i}.note`}
+                      label="Which part, or why not"
+                      defaultValue={was?.note ?? ""}
+                      error={err("note")}
+                    />
+                  </div>
+                </fieldset>
+              );
+            })}
+          </fieldset>
+
+          <fieldset className="space-y-2" aria-describedby={fields.conformance ? id("conformance-error") : undefined}>
+            <legend className="text-lead font-bold">Statement of conformance</legend>
+            <p className="text-ink-soft">Choose one; nothing is assumed.</p>
+            <div className="flex flex-wrap gap-2">
+              {(
+                [
+                  ["conforming", "The work was in conformance"],
+                  ["not_conforming", "The work was not in conformance"],
+                ] as const
+              ).map(([value, words]) => (
+                <label
+                  key={value}
+                  className="flex min-h-12 cursor-pointer items-center gap-2 rounded-md border-2 border-concrete-400 px-3 has-[:checked]:border-ink has-[:checked]:bg-concrete-100"
+                >
+                  <input
+                    type="radio"
+                    name="conformance"
+                    value={value}
+                    className="h-5 w-5"
+                    onChange={() => setConformance(value)}
+                  />
+                  {words}
+                </label>
+              ))}
+            </div>
+            <FieldError id={id("conformance-error")} messages={fields.conformance} />
+            {exceptions.length > 0 ? (
+              <div className={conformance === "not_conforming" ? "font-semibold" : "text-ink-soft"}>
+                <p>
+                  Open exceptions of the day&apos;s work
+                  {conformance === "not_conforming" ? ", listed on the report" : ""}:
+                </p>
+                <ul className="list-disc pl-6" data-testid="open-exceptions">
+                  {exceptions.map((x) => (
+                    <li key={x}>{x}</li>
+                  ))}
+                </ul>
+              </div>
+            ) : (
+              <p className="text-ink-soft">No exception of the day&apos;s work is open.</p>
+            )}
+          </fieldset>
+
+          <FormField
+            as="textarea"
+            id={id("remarks")}
+            name="remarks"
+            label="Your remarks for the day"
+            hint="What you observed that the records do not say: weather, access, what you asked for. Printed on the report; changing them needs a new signature."
+            rows={3}
+            defaultValue={remarks}
+            error={fields.remarks}
+          />
+        </>
+      )}
+    </SigningForm>
   );
 }

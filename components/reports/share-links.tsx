@@ -6,6 +6,7 @@ import { FormField } from "@/components/ui/form-field";
 import { FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
+import { ClientForm } from "@/components/ui/client-form";
 
 export interface ShareLinkView {
   id: string;
@@ -23,7 +24,7 @@ export function ShareLinks({ projectId, links }: { projectId: string; links: Sha
   const api = `/api/projects/${projectId}/share-links`;
   return (
     <div className="space-y-6">
-      <form
+      <ClientForm
         className="card space-y-3"
         aria-label="Make a read-only link"
         onSubmit={async (e) => {
@@ -68,7 +69,7 @@ export function ShareLinks({ projectId, links }: { projectId: string; links: Sha
             Copy this address now; it is not shown again: <span data-testid="share-url">{made}</span>
           </p>
         )}
-      </form>
+      </ClientForm>
       <ul className="space-y-2" aria-label="Read-only links">
         {links.map((l) => (
           <li

@@ -5,6 +5,7 @@ import { useState } from "react";
 import { FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
 import { formatDateTime } from "@/lib/format/dates";
+import { ClientForm } from "@/components/ui/client-form";
 
 type Answer =
   | { match: false }
@@ -31,7 +32,7 @@ export function VerifyReportForm() {
   const [answer, setAnswer] = useState<{ tone: "error" | "info"; text: string }>();
   const [busy, setBusy] = useState(false);
   return (
-    <form className="space-y-3" aria-label="Check a report file" onSubmit={(e) => e.preventDefault()}>
+    <ClientForm className="space-y-3" aria-label="Check a report file" onSubmit={(e) => e.preventDefault()}>
       <FormField
         id="report-file"
         label="Report file (PDF)"
@@ -65,6 +66,6 @@ export function VerifyReportForm() {
         }}
       />
       <FormMessage tone={answer?.tone ?? "info"}>{busy ? "Checking…" : answer?.text}</FormMessage>
-    </form>
+    </ClientForm>
   );
 }

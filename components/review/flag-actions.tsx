@@ -10,6 +10,7 @@ import { useApiCall, type Shown } from "@/lib/client/use-api-call";
 import { DECISIONS } from "@/lib/schemas/domain";
 import { DECISION_LABELS } from "@/lib/schemas/review";
 import { isInputError, parseLength } from "@/lib/units";
+import { ClientForm } from "@/components/ui/client-form";
 
 interface OpenFlag {
   id: string;
@@ -113,7 +114,7 @@ export function ReviewForm({
   const [flagError, setFlagError] = useState<string[]>();
   if (!flags.length) return null;
   return (
-    <form
+    <ClientForm
       className="card space-y-4"
       aria-label="Add a finding"
       onSubmit={async (e) => {
@@ -204,7 +205,7 @@ export function ReviewForm({
       <button type="submit" className="btn-primary" disabled={busy}>
         {busy ? "Saving…" : "Add to the trail"}
       </button>
-    </form>
+    </ClientForm>
   );
 }
 
@@ -224,7 +225,7 @@ export function DispositionForm({
   const [flagError, setFlagError] = useState<string[]>();
   if (!flags.length) return null;
   return (
-    <form
+    <ClientForm
       className="card space-y-3 border-2 border-ink"
       aria-label="Record a disposition"
       onSubmit={async (e) => {
@@ -272,7 +273,7 @@ export function DispositionForm({
       <button type="submit" className="btn-primary" disabled={busy}>
         {busy ? "Recording…" : "Record the disposition"}
       </button>
-    </form>
+    </ClientForm>
   );
 }
 
@@ -297,7 +298,7 @@ export function CorrectionForm({
     );
   }
   return (
-    <form
+    <ClientForm
       className="mt-2 space-y-3 rounded-md border-2 border-concrete-400 p-3"
       aria-label="Correct this record"
       onSubmit={async (e) => {
@@ -326,6 +327,6 @@ export function CorrectionForm({
       <button type="submit" className="btn-primary" disabled={busy}>
         Save the correction
       </button>
-    </form>
+    </ClientForm>
   );
 }

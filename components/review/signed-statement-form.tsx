@@ -6,6 +6,7 @@ import { FormField } from "@/components/ui/form-field";
 import { FieldError, FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
 import { useApiCall } from "@/lib/client/use-api-call";
+import { ClientForm } from "@/components/ui/client-form";
 
 /**
  * A statement a person signs for an act that changes a pour (its release, its reopening): the
@@ -31,7 +32,7 @@ export function SignedStatementForm(props: {
   const [owned, setOwned] = useState(false);
   const [confirming, setConfirming] = useState(false);
   return (
-    <form
+    <ClientForm
       className="mt-3 space-y-3"
       aria-label={props.act}
       onSubmit={async (e) => {
@@ -123,6 +124,6 @@ export function SignedStatementForm(props: {
           {props.act}
         </button>
       )}
-    </form>
+    </ClientForm>
   );
 }

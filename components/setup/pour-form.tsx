@@ -12,6 +12,7 @@ import { sendJson } from "@/lib/client/send-json";
 import { pourSchema, type PourInput } from "@/lib/schemas/pour";
 import { poursKey } from "./pour-table";
 import { PER, units } from "@/lib/client/unit-fields";
+import { ClientForm } from "@/components/ui/client-form";
 
 const FIELDS = { name: z.string(), level: z.string(), area: units.number(false), plannedStressingDate: z.string() };
 type FormIn = { [K in keyof typeof FIELDS]: string };
@@ -55,7 +56,7 @@ export function PourForm({ projectId, us }: { projectId: string; us: boolean }) 
     <FormField id={`p-${k}`} label={label} error={errors[k]?.message} {...props} {...form.register(k)} />
   );
   return (
-    <form onSubmit={onSubmit} noValidate className="card space-y-4">
+    <ClientForm onSubmit={onSubmit} noValidate className="card space-y-4">
       <h2 className="text-lead font-semibold">Add a pour</h2>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
       <FormMessage tone="error">{errors.root?.message}</FormMessage>
@@ -72,6 +73,6 @@ export function PourForm({ projectId, us }: { projectId: string; us: boolean }) 
       <button className="btn-primary" type="submit" disabled={form.formState.isSubmitting}>
         Add pour
       </button>
-    </form>
+    </ClientForm>
   );
 }

@@ -13,6 +13,7 @@ import { sendJson } from "@/lib/client/send-json";
 import { projectSettingsSchema, settingsFields, type ProjectSettings } from "@/lib/schemas/project-settings";
 import { PER, shown, units } from "@/lib/client/unit-fields";
 import { DEFAULT_SHIFT_ENDS, formatShiftEnd, parseShiftEnds } from "@/lib/stressing/shift";
+import { ClientForm } from "@/components/ui/client-form";
 
 type KUnit = "per ft" | "per m";
 
@@ -169,7 +170,7 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
   });
 
   return (
-    <form onSubmit={onSubmit} className="space-y-6" noValidate>
+    <ClientForm onSubmit={onSubmit} className="space-y-6" noValidate>
       <FormMessage tone={message?.tone ?? "info"}>{message?.text}</FormMessage>
       <FormMessage tone="error">{form.formState.errors.root?.message}</FormMessage>
       <fieldset className="card grid gap-4 md:grid-cols-2">
@@ -419,6 +420,6 @@ export function SettingsForm({ projectId, settings }: { projectId: string; setti
       <button type="submit" className="btn-primary" disabled={form.formState.isSubmitting}>
         {form.formState.isSubmitting ? "Saving…" : "Save settings"}
       </button>
-    </form>
+    </ClientForm>
   );
 }

@@ -17,6 +17,7 @@ import type { StrandLotView } from "@/lib/server/list-strand-lots";
 import { savedWords, usePreviewedEdit } from "./edit-preview";
 import { strandLotsKey } from "./strand-lot-table";
 import { PER, shown, units } from "@/lib/client/unit-fields";
+import { ClientForm } from "@/components/ui/client-form";
 
 function fields(us: boolean) {
   const system = us ? "US" : "SI";
@@ -128,7 +129,7 @@ export function StrandLotForm({ projectId, us, lot }: { projectId: string; us: b
     />
   );
   return (
-    <form
+    <ClientForm
       onSubmit={onSubmit}
       noValidate
       className="card space-y-4"
@@ -200,6 +201,6 @@ export function StrandLotForm({ projectId, us, lot }: { projectId: string; us: b
         )}
       </div>
       {lot && edit.dialog}
-    </form>
+    </ClientForm>
   );
 }

@@ -15,6 +15,7 @@ import { sendJson, type ApiError } from "@/lib/client/send-json";
 import { drapeAngleRad, KIND_LABELS, STRAND_SIZES, tendonSchema, type TendonInput } from "@/lib/schemas/tendon";
 import { TENDON_KINDS } from "@/lib/schemas/domain";
 import { tendonsKey } from "./tendon-table";
+import { ClientForm } from "@/components/ui/client-form";
 
 function fields(us: boolean) {
   const system = us ? "US" : "SI";
@@ -207,7 +208,7 @@ export function TendonForm({
   );
 
   return (
-    <form onSubmit={onSubmit} noValidate className="card space-y-4" aria-labelledby="t-heading">
+    <ClientForm onSubmit={onSubmit} noValidate className="card space-y-4" aria-labelledby="t-heading">
       <h2 id="t-heading" className="text-lead font-semibold">
         {tendon ? `Edit the schedule row of ${tendon.tag}` : "Add a tendon"}
       </h2>
@@ -325,6 +326,6 @@ export function TendonForm({
         {tendon ? "Save changes" : "Add tendon"}
       </button>
       {tendon && edit.dialog}
-    </form>
+    </ClientForm>
   );
 }
