@@ -2,7 +2,7 @@ import { formatDateTime } from "@/lib/format/dates";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
 import { rereadLine } from "@/lib/stressing/display";
 import { showPct } from "@/lib/format/quantities";
-import { storedGaugeOffTarget, storedGaugeSteps, storedWireBreaks, wireBreakWords } from "@/lib/schemas/record";
+import { storedGaugeOffTarget, storedGaugeSteps, wireBreakWords } from "@/lib/schemas/record";
 import { CorrectionForm } from "./flag-actions";
 
 /** Every stressing record of the tendon, all revisions, oldest first; photos link to the files. */
@@ -22,7 +22,7 @@ export function RecordsTable({
   unit: "in" | "mm";
 }) {
   if (!c.records.length) return <p className="card">No stressing record has reached the server for this tendon yet.</p>;
-  const heads = new Set([...new Map(c.records.map((r) => [r.chain_id, r])).values()].map((r) => r.id));
+  const heads = new Set([...new Map(c.records.map((r) => [r.chainId, r])).values()].map((r) => r.id));
   // The Map above keeps the last revision of each chain, since records come ordered by revision.
   return (
     <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Stressing records, scrolls sideways">
@@ -46,10 +46,10 @@ export function RecordsTable({
                 key={r.id}
                 className={`border-b border-concrete-200 align-top ${heads.has(r.id) ? "" : "text-ink-faint line-through decoration-1"}`}
               >
-                <td className="p-2 font-bold">{r.tendon_end}</td>
+                <td className="p-2 font-bold">{r.tendonEnd}</td>
                 <td className="p-2">
                   <span className="whitespace-nowrap xl:whitespace-normal">
-                    {formatDateTime(r.device_time, timeZone)}
+                    {formatDateTime(r.deviceTime, timeZone)}
                   </span>
                   {r.skew && (
                     <span className="mt-1 block border-l-4 border-signal-stop pl-2 font-bold" data-clock-skew>
@@ -57,40 +57,34 @@ export function RecordsTable({
                       {r.skew.future
                         ? "the tablet's time is after the server received it"
                         : "the tablet's clock and the server disagree"}
-                      <span className="block font-normal">Tablet: {formatDateTime(r.device_time, timeZone)}</span>
+                      <span className="block font-normal">Tablet: {formatDateTime(r.deviceTime, timeZone)}</span>
                       <span className="block font-normal">
-                        Server received: {formatDateTime(r.received_at, timeZone)}
+                        Server received: {formatDateTime(r.receivedAt, timeZone)}
                       </span>
                     </span>
                   )}
                 </td>
                 <td className="p-2">{r.equipmentSet}</td>
                 <td className="p-2 text-right">
-                  {r.initial_pressure_mpa ? `${showPressure(r.initial_pressure_mpa)} → ` : ""}
-                  {showPressure(r.final_pressure_mpa)}
+                  {r.initialPressureMPa ? `${showPressure(r.initialPressureMPa)} → ` : ""}
+                  {showPressure(r.finalPressureMPa)}
                 </td>
-                <td className="p-2 text-right font-semibold">{showLength(r.measured_mm)}</td>
-                <td className="p-2">{r.author}</td>
+                <td className="p-2 text-right font-semibold">{showLength(r.measuredMm)}</td>
+                <td className="p-2">{r.authorName}</td>
                 <td className="p-2">
                   {r.revision > 1 && (
                     <span className="block">
-                      Revision {r.revision}: {r.revision_reason}
+                      Revision {r.revision}: {r.revisionReason}
                     </span>
                   )}
-                  {r.wire_breaks > 0 && (
+                  {r.wireBreaks > 0 && (
                     <span className="block font-bold" data-testid="wire-breaks">
-                      {r.wire_breaks} wire break(s)
-                      {storedWireBreaks(r.wire_break_details)?.length
-                        ? `: ${storedWireBreaks(r.wire_break_details)!.map(wireBreakWords).join("; ")}`
-                        : ""}
+                      {r.wireBreaks} wire break(s)
+                      {r.wireBreakDetails?.length ? `: ${r.wireBreakDetails.map(wireBreakWords).join("; ")}` : ""}
                     </span>
                   )}
                   {(() => {
-                    const line = rereadLine(c.basis.project, {
-                      measuredMm: r.measured_mm,
-                      firstReadingMm: r.first_reading_mm,
-                      rereadDeclinedReason: r.reread_declined_reason,
-                    });
+                    const line = rereadLine(c.basis.project, r);
                     return line ? (
                       <span className="block" data-testid="reread-line">
                         {line}
@@ -115,9 +109,9 @@ export function RecordsTable({
                     ) : null;
                   })()}
                   {r.remarks && <span className="block">{r.remarks}</span>}
-                  {r.concrete_go_ahead && (
+                  {r.concreteGoAhead && (
                     <span className="block" data-testid="concrete-go-ahead-reason">
-                      <strong>Concrete unconfirmed, crew:</strong> {r.concrete_go_ahead}
+                      <strong>Concrete unconfirmed, crew:</strong> {r.concreteGoAhead}
                     </span>
                   )}
                   {photos.map((p, i) => (
