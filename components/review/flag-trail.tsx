@@ -21,7 +21,7 @@ export function inWords(text: string, c: TendonCase, when: (d: Date | string) =>
   return text
     .replace(new RegExp(`disposition (${UUID})`, "gi"), (_, id: string) => {
       const d = c.dispositions.find((x) => x.id === id);
-      return d ? `disposition ${d.reference} of ${when(d.created_at)}` : "the engineer's disposition";
+      return d ? `disposition ${d.reference} of ${when(d.createdAt)}` : "the engineer's disposition";
     })
     .replace(new RegExp(`evaluation ${UUID}`, "gi"), "the new evaluation")
     .replace(new RegExp(`record ${UUID}`, "gi"), "the record")
@@ -50,8 +50,8 @@ export function FlagTrail({
             .filter((r) => r.flag_id === flag.id)
             .map((r) => ({ at: r.created_at, kind: "review" as const, r })),
           ...c.dispositions
-            .filter((d) => d.flag_id === flag.id)
-            .map((d) => ({ at: d.created_at, kind: "disposition" as const, d })),
+            .filter((d) => d.flagId === flag.id)
+            .map((d) => ({ at: d.createdAt, kind: "disposition" as const, d })),
         ].sort((a, b) => +new Date(a.at) - +new Date(b.at));
         return (
           <li
@@ -63,7 +63,7 @@ export function FlagTrail({
             <div className="flex flex-wrap items-center gap-3">
               <span className="font-bold tabular-nums">{flag.reference}</span>
               <FlagChip kind={flag.kind} status={flag.status} />
-              <span className="text-label text-ink-faint">raised {when(flag.created_at)}</span>
+              <span className="text-label text-ink-faint">raised {when(flag.createdAt)}</span>
             </div>
             <p className="mt-2">{inWords(flag.reason, c, when)}</p>
             {trail.length > 0 && (
@@ -92,11 +92,11 @@ export function FlagTrail({
                   ) : (
                     <li key={item.d.id} className="rounded-md bg-concrete-100 p-3">
                       <p className="text-label font-bold uppercase">
-                        {item.d.reference} · Disposition: {DECISION_LABELS[item.d.decision]} · {when(item.d.created_at)}
+                        {item.d.reference} · Disposition: {DECISION_LABELS[item.d.decision]} · {when(item.d.createdAt)}
                       </p>
                       <p>{item.d.reasons}</p>
                       <p className="mt-1 text-label">
-                        {item.d.engineer_name} — {item.d.licence_statement}
+                        {item.d.engineerName} — {item.d.licenceStatement}
                       </p>
                       {item.d.decision === "liftoff_check" && (
                         <LiftoffChecks c={c} dispositionId={item.d.id} when={when} />
@@ -111,9 +111,9 @@ export function FlagTrail({
             )}
             {flag.status === "closed" && (
               <p className="mt-3 text-label">
-                Closed {flag.closed_at ? when(flag.closed_at) : ""}
+                Closed {flag.closedAt ? when(flag.closedAt) : ""}
                 {flag.closedByName ? ` by ${flag.closedByName}` : ""}:{" "}
-                {flag.close_reason ? inWords(flag.close_reason, c, when) : ""}
+                {flag.closeReason ? inWords(flag.closeReason, c, when) : ""}
               </p>
             )}
           </li>

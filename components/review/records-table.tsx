@@ -3,7 +3,7 @@ import { formatDateTime } from "@/lib/format/dates";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
 import { rereadLine } from "@/lib/stressing/display";
 import { showPct } from "@/lib/format/quantities";
-import { storedGaugeOffTarget, storedGaugeSteps, storedWireBreaks, wireBreakWords } from "@/lib/schemas/record";
+import { storedGaugeOffTarget, storedGaugeSteps, wireBreakWords } from "@/lib/schemas/record";
 import { CorrectionForm } from "./flag-actions";
 
 /** "2026-12-03 04:39 CST" as the day over the time, each unbroken, so the column stays narrow. */
@@ -34,7 +34,7 @@ export function RecordsTable({
   unit: "in" | "mm";
 }) {
   if (!c.records.length) return <p className="card">No stressing record has reached the server for this tendon yet.</p>;
-  const heads = new Set([...new Map(c.records.map((r) => [r.chain_id, r])).values()].map((r) => r.id));
+  const heads = new Set([...new Map(c.records.map((r) => [r.chainId, r])).values()].map((r) => r.id));
   // The Map above keeps the last revision of each chain, since records come ordered by revision.
   return (
     <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Stressing records, scrolls sideways">
@@ -57,37 +57,31 @@ export function RecordsTable({
             return (
               <Fragment key={r.id}>
                 <tr className={`align-top ${r.skew ? "" : "border-b border-concrete-200"} ${struck}`}>
-                  <td className="p-2 font-bold">{r.tendon_end}</td>
+                  <td className="p-2 font-bold">{r.tendonEnd}</td>
                   <td className="p-2">
-                    <DateThenTime text={formatDateTime(r.device_time, timeZone)} />
+                    <DateThenTime text={formatDateTime(r.deviceTime, timeZone)} />
                   </td>
                   <td className="p-2">{r.equipmentSet}</td>
                   <td className="p-2 text-right">
-                    {r.initial_pressure_mpa ? `${showPressure(r.initial_pressure_mpa)} → ` : ""}
-                    {showPressure(r.final_pressure_mpa)}
+                    {r.initialPressureMPa ? `${showPressure(r.initialPressureMPa)} → ` : ""}
+                    {showPressure(r.finalPressureMPa)}
                   </td>
-                  <td className="p-2 text-right font-semibold">{showLength(r.measured_mm)}</td>
-                  <td className="p-2">{r.author}</td>
+                  <td className="p-2 text-right font-semibold">{showLength(r.measuredMm)}</td>
+                  <td className="p-2">{r.authorName}</td>
                   <td className="p-2">
                     {r.revision > 1 && (
                       <span className="block">
-                        Revision {r.revision}: {r.revision_reason}
+                        Revision {r.revision}: {r.revisionReason}
                       </span>
                     )}
-                    {r.wire_breaks > 0 && (
+                    {r.wireBreaks > 0 && (
                       <span className="block font-bold" data-testid="wire-breaks">
-                        {r.wire_breaks} wire break(s)
-                        {storedWireBreaks(r.wire_break_details)?.length
-                          ? `: ${storedWireBreaks(r.wire_break_details)!.map(wireBreakWords).join("; ")}`
-                          : ""}
+                        {r.wireBreaks} wire break(s)
+                        {r.wireBreakDetails?.length ? `: ${r.wireBreakDetails.map(wireBreakWords).join("; ")}` : ""}
                       </span>
                     )}
                     {(() => {
-                      const line = rereadLine(c.basis.project, {
-                        measuredMm: r.measured_mm,
-                        firstReadingMm: r.first_reading_mm,
-                        rereadDeclinedReason: r.reread_declined_reason,
-                      });
+                      const line = rereadLine(c.basis.project, r);
                       return line ? (
                         <span className="block" data-testid="reread-line">
                           {line}
@@ -112,9 +106,9 @@ export function RecordsTable({
                       ) : null;
                     })()}
                     {r.remarks && <span className="block">{r.remarks}</span>}
-                    {r.concrete_go_ahead && (
+                    {r.concreteGoAhead && (
                       <span className="block" data-testid="concrete-go-ahead-reason">
-                        <strong>Concrete unconfirmed, crew:</strong> {r.concrete_go_ahead}
+                        <strong>Concrete unconfirmed, crew:</strong> {r.concreteGoAhead}
                       </span>
                     )}
                     {photos.map((p, i) => (
@@ -139,8 +133,8 @@ export function RecordsTable({
                             : "the tablet's clock and the server disagree"}
                           .
                         </strong>{" "}
-                        Tablet: {formatDateTime(r.device_time, timeZone)} · Server received:{" "}
-                        {formatDateTime(r.received_at, timeZone)}
+                        Tablet: {formatDateTime(r.deviceTime, timeZone)} · Server received:{" "}
+                        {formatDateTime(r.receivedAt, timeZone)}
                       </p>
                     </td>
                   </tr>

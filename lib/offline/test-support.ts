@@ -2,6 +2,7 @@ import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import { uuidv7 } from "uuidv7";
 import type { RecordPayload } from "@/lib/schemas/record";
 import type { PullResponse } from "@/lib/schemas/sync";
+import { emptyPull as emptyPullAt } from "@/lib/schemas/sync-response";
 import { FieldDb, writeMeta, type SessionMeta } from "./db";
 
 /** A tablet database on fake-indexeddb for tests; `factory` lets a test reopen the same data. */
@@ -66,21 +67,5 @@ export function samplePayload(overrides: Partial<RecordPayload> = {}): { recordI
 
 /** A pull that changes nothing, at a cursor: a test names what it brings. */
 export function emptyPull(cursor: string, over: Partial<PullResponse> = {}): PullResponse {
-  return {
-    cursor,
-    serverTime: "2026-12-02T16:00:00.000Z",
-    projects: [],
-    pours: [],
-    tendons: [],
-    strandLots: [],
-    equipmentSets: [],
-    calibrations: [],
-    records: [],
-    evaluations: [],
-    flags: [],
-    tailCuts: [],
-    removed: [],
-    unavailable: [],
-    ...over,
-  };
+  return { ...emptyPullAt(cursor, "2026-12-02T16:00:00.000Z"), ...over };
 }

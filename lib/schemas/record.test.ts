@@ -4,10 +4,13 @@ import {
   EMPTY_RECORD_FORM,
   payloadFromForm,
   recordFormSchema,
+  recordFromRow,
   recordPayloadSchema,
   type Entered,
+  type RecordRow,
 } from "./record";
 import { CONTROL_CHARACTERS_MESSAGE } from "./text";
+import { fieldRecordFrom, fieldRecordSchema } from "./sync-response";
 import { MM_PER_INCH } from "@/lib/units";
 
 // Conversion factors are exact by definition: 1 in = 25.4 mm (NIST SP 811, B.8);
@@ -393,5 +396,93 @@ describe("the gauge off its target, confirmed", () => {
     });
     expect(parsed.entered.gaugeOffTarget).toEqual({ pct: 9.5, reason: "needle stuck" });
     expect(recordPayloadSchema.safeParse({ ...p, entered: { ...p.entered, gaugeOffTarget: null } }).success).toBe(true);
+  });
+});
+
+describe("recordFromRow and the pull's record", () => {
+  const row: RecordRow = {
+    id: "r1",
+    project_id: "p1",
+    pour_id: "o1",
+    tendon_id: "t1",
+    tendon_end: "A",
+    chain_id: "c1",
+    revision: 2,
+    base_record_id: "r0",
+    revision_reason: "Mark after misread",
+    equipment_set_id: "s1",
+    calibration_id: "k1",
+    expired_calibration_reason: null,
+    concrete_go_ahead: "Cylinders read on site",
+    initial_pressure_mpa: 3.5,
+    final_pressure_mpa: 28.5,
+    reading_method: "marks",
+    entered: { finalPressure: "28.5" },
+    measured_mm: 112,
+    seating_mm: 6,
+    draw_in_mm: null,
+    stressing_order: null,
+    first_reading_mm: null,
+    reread_declined_reason: null,
+    wire_breaks: 1,
+    wire_break_details: [{ strand: 3, where: "jack_end" }],
+    remarks: null,
+    device_time: new Date("2026-12-02T09:00:00Z"),
+    device_time_zone: "America/Chicago",
+    received_at: "2026-12-02T09:05:00+00:00",
+    author_user_id: "u1",
+    author_name: "Crew One",
+    restress_of_disposition_id: null,
+  };
+
+  it("names every column in the DTO's words, instants as ISO text whether read as Date or text", () => {
+    expect(recordFromRow(row)).toEqual({
+      id: "r1",
+      projectId: "p1",
+      pourId: "o1",
+      tendonId: "t1",
+      tendonEnd: "A",
+      chainId: "c1",
+      revision: 2,
+      baseRecordId: "r0",
+      revisionReason: "Mark after misread",
+      equipmentSetId: "s1",
+      calibrationId: "k1",
+      expiredCalibrationReason: null,
+      concreteGoAhead: "Cylinders read on site",
+      initialPressureMPa: 3.5,
+      finalPressureMPa: 28.5,
+      readingMethod: "marks",
+      entered: { finalPressure: "28.5" },
+      measuredMm: 112,
+      seatingMm: 6,
+      drawInMm: null,
+      stressingOrder: null,
+      firstReadingMm: null,
+      rereadDeclinedReason: null,
+      wireBreaks: 1,
+      wireBreakDetails: [{ strand: 3, where: "jack_end" }],
+      remarks: null,
+      deviceTime: "2026-12-02T09:00:00.000Z",
+      deviceTimeZone: "America/Chicago",
+      receivedAt: "2026-12-02T09:05:00.000Z",
+      authorUserId: "u1",
+      authorName: "Crew One",
+      restressOfDispositionId: null,
+    });
+  });
+
+  it("reads broken wires it cannot read as none rather than passing them on", () => {
+    const odd = recordFromRow({ ...row, wire_break_details: [{ strand: "three", where: "somewhere" }] as never });
+    expect(odd.wireBreakDetails).toBeNull();
+  });
+
+  it("sends the tablet the contract's part, broken wires absent when the record has none", () => {
+    const sent = fieldRecordSchema.parse(fieldRecordFrom(recordFromRow({ ...row, wire_break_details: null })));
+    expect(sent.wireBreakDetails).toBeUndefined();
+    expect(sent).not.toHaveProperty("concreteGoAhead");
+    expect(sent).not.toHaveProperty("receivedAt");
+    expect(sent).toMatchObject({ id: "r1", revision: 2, measuredMm: 112, authorName: "Crew One" });
+    expect(fieldRecordFrom(recordFromRow(row)).wireBreakDetails).toEqual([{ strand: 3, where: "jack_end" }]);
   });
 });

@@ -1,8 +1,17 @@
+import type { Selectable } from "kysely";
 import { z } from "zod";
+import type { RecordsTable } from "@/db/types";
 import { text } from "./text";
 import { isInputError, parseLength, parsePressure, type LengthUnit, type PressureUnit } from "@/lib/units";
 import { WIRE_BREAK_PLACES, type WireBreakPlace } from "./wire-break-words";
-import { READING_METHODS, STRESSING_ORDERS, TENDON_ENDS } from "./domain";
+import {
+  READING_METHODS,
+  STRESSING_ORDERS,
+  TENDON_ENDS,
+  type ReadingMethod,
+  type StressingOrder,
+  type TendonEnd,
+} from "./domain";
 import { gaugeOffTargetSchema, type GaugeOffTarget, type GaugeStepSI } from "./stored-entered";
 
 export { WIRE_BREAK_PLACES, WIRE_BREAK_PLACE_WORDS, wireBreakWords, type WireBreakPlace } from "./wire-break-words";
@@ -750,4 +759,133 @@ const storedBreaks = z.array(wireBreakSchema);
 export function storedWireBreaks(value: unknown): WireBreak[] | null {
   const parsed = storedBreaks.safeParse(value);
   return parsed.success ? parsed.data : null;
+}
+
+// ---------------------------------------------------------------------------------------------
+// The record as stored, for every reader.
+
+/**
+ * One stored revision of a stressing record as every reader gets it (the tablet's pull, the
+ * tendon's review page and screen, the stressing report): the one DTO, made from a row by
+ * `recordFromRow` only. SI, with the text as typed in `entered`; instants as ISO text.
+ */
+export interface StressingRecord {
+  id: string;
+  projectId: string;
+  pourId: string;
+  tendonId: string;
+  tendonEnd: TendonEnd;
+  /** The record's revisions share a chain; revision 1 is the tablet's own. */
+  chainId: string;
+  revision: number;
+  baseRecordId: string | null;
+  revisionReason: string | null;
+  equipmentSetId: string;
+  calibrationId: string | null;
+  expiredCalibrationReason: string | null;
+  /** The crew's reason to stress while the pour's concrete strength was not confirmed. */
+  concreteGoAhead: string | null;
+  initialPressureMPa: number | null;
+  finalPressureMPa: number;
+  readingMethod: ReadingMethod;
+  /** The values exactly as typed (`Entered`, as stored: read it with `storedGaugeSteps` and the like). */
+  entered: Record<string, unknown>;
+  measuredMm: number;
+  seatingMm: number | null;
+  drawInMm: number | null;
+  stressingOrder: StressingOrder | null;
+  /** The first, coarser reading when the elongation was read again finer (measuredMm is the re-read). */
+  firstReadingMm: number | null;
+  rereadDeclinedReason: string | null;
+  wireBreaks: number;
+  /** One entry per broken wire; null on records made before they were asked. */
+  wireBreakDetails: WireBreak[] | null;
+  remarks: string | null;
+  /** The tablet's time of the stressing, and its time zone. */
+  deviceTime: string;
+  deviceTimeZone: string;
+  /** When the server stored it. */
+  receivedAt: string;
+  authorUserId: string;
+  /** Who recorded it (the person signed in on the tablet). */
+  authorName: string;
+  /** The disposition a re-stressing answers. */
+  restressOfDispositionId: string | null;
+}
+
+/** The columns of `records` that `recordFromRow` reads, beside `users.name as author_name`. */
+export const RECORD_COLUMNS = [
+  "id",
+  "project_id",
+  "pour_id",
+  "tendon_id",
+  "tendon_end",
+  "chain_id",
+  "revision",
+  "base_record_id",
+  "revision_reason",
+  "equipment_set_id",
+  "calibration_id",
+  "expired_calibration_reason",
+  "concrete_go_ahead",
+  "initial_pressure_mpa",
+  "final_pressure_mpa",
+  "reading_method",
+  "entered",
+  "measured_mm",
+  "seating_mm",
+  "draw_in_mm",
+  "stressing_order",
+  "first_reading_mm",
+  "reread_declined_reason",
+  "wire_breaks",
+  "wire_break_details",
+  "remarks",
+  "device_time",
+  "device_time_zone",
+  "received_at",
+  "author_user_id",
+  "restress_of_disposition_id",
+] as const satisfies readonly (keyof RecordsTable)[];
+
+export type RecordRow = Omit<
+  Pick<Selectable<RecordsTable>, (typeof RECORD_COLUMNS)[number]>,
+  "device_time" | "received_at"
+> & { device_time: Date | string; received_at: Date | string; author_name: string };
+
+export function recordFromRow(row: RecordRow): StressingRecord {
+  return {
+    id: row.id,
+    projectId: row.project_id,
+    pourId: row.pour_id,
+    tendonId: row.tendon_id,
+    tendonEnd: row.tendon_end,
+    chainId: row.chain_id,
+    revision: row.revision,
+    baseRecordId: row.base_record_id,
+    revisionReason: row.revision_reason,
+    equipmentSetId: row.equipment_set_id,
+    calibrationId: row.calibration_id,
+    expiredCalibrationReason: row.expired_calibration_reason,
+    concreteGoAhead: row.concrete_go_ahead,
+    initialPressureMPa: row.initial_pressure_mpa,
+    finalPressureMPa: row.final_pressure_mpa,
+    readingMethod: row.reading_method,
+    entered: row.entered,
+    measuredMm: row.measured_mm,
+    seatingMm: row.seating_mm,
+    drawInMm: row.draw_in_mm,
+    stressingOrder: row.stressing_order,
+    firstReadingMm: row.first_reading_mm,
+    rereadDeclinedReason: row.reread_declined_reason,
+    wireBreaks: row.wire_breaks,
+    wireBreakDetails: storedWireBreaks(row.wire_break_details),
+    remarks: row.remarks,
+    deviceTime: new Date(row.device_time).toISOString(),
+    deviceTimeZone: row.device_time_zone,
+    receivedAt: new Date(row.received_at).toISOString(),
+    authorUserId: row.author_user_id,
+    authorName: row.author_name,
+    restressOfDispositionId: row.restress_of_disposition_id,
+  };
 }

@@ -12,6 +12,9 @@ import {
   UNIT_SYSTEMS,
   VERDICTS,
 } from "./domain";
+import type { Disposition } from "./disposition";
+import type { Flag } from "./flag";
+import type { StressingRecord } from "./record";
 
 /**
  * What the server answers the tablet, as zod schemas: the route handlers build their answer
@@ -238,6 +241,14 @@ export const fieldRecordSchema = z.object({
 });
 export type FieldRecord = z.infer<typeof fieldRecordSchema>;
 
+/**
+ * A record as the pull sends it, made from the DTO: broken wires absent rather than null (records
+ * made before they were asked). The route's parse keeps the contract's part of the rest.
+ */
+export function fieldRecordFrom(record: StressingRecord): FieldRecord {
+  return { ...record, wireBreakDetails: record.wireBreakDetails ?? undefined };
+}
+
 export const fieldEvaluationSchema = z.object({
   id,
   tendonId: id,
@@ -273,6 +284,11 @@ export const fieldFlagSchema = z.object({
   dispositions: z.optional(z.array(fieldDispositionSchema)),
 });
 export type FieldFlag = z.infer<typeof fieldFlagSchema>;
+
+/** A flag as the pull sends it, made from the DTOs: the engineer's decisions on it (oldest first) inside it. */
+export function fieldFlagFrom(flag: Flag, dispositions: Disposition[]): FieldFlag {
+  return { ...flag, dispositions };
+}
 
 /** Tails cut on a tendon, as the server stored it. */
 export const fieldTailCutSchema = z.object({
@@ -350,6 +366,28 @@ export const pullResponseSchema = z.object({
   unavailable: z.array(id),
 });
 export type PullResponse = z.infer<typeof pullResponseSchema>;
+
+/** A pull that brings nothing at a cursor (the pours asked for that the caller may not take out in `unavailable`). */
+export function emptyPull(cursor: string, serverTime: string, unavailable: string[] = []): PullResponse {
+  return {
+    cursor,
+    serverTime,
+    projects: [],
+    pours: [],
+    tendons: [],
+    strandLots: [],
+    equipmentSets: [],
+    calibrations: [],
+    records: [],
+    evaluations: [],
+    flags: [],
+    tailCuts: [],
+    liftoffChecks: [],
+    detensions: [],
+    removed: [],
+    unavailable,
+  };
+}
 
 /**
  * The pull and the download as the server sends them: the contract above, plus the two concrete

@@ -25,7 +25,7 @@ import { WIRES_PER_STRAND } from "@/lib/stressing/rules/member-wire-loss";
 import { answeredOrder } from "@/lib/stressing/rules/stressed-twice";
 import { showLength, showPct, showWobble } from "@/lib/format/quantities";
 import { governsLine } from "@/lib/stressing/display";
-import { storedGaugeOffTarget, storedGaugeSteps, storedWireBreaks } from "@/lib/schemas/record";
+import { RECORD_COLUMNS, storedGaugeOffTarget, storedGaugeSteps, storedWireBreaks } from "@/lib/schemas/record";
 import { CALIBRATION_COLUMNS, calibrationFromRow, type CalibrationRow } from "@/lib/schemas/calibration";
 import { selectTendonBasis, toLoadedTendon, type LoadedTendon } from "./load-tendon-basis";
 
@@ -52,33 +52,6 @@ export interface EvaluationOutcome {
   deviationPct: number | null;
   flagKinds: FlagKind[];
 }
-
-/** The columns of a stored record that the evaluation reads. */
-const EVALUATED_RECORD_COLUMNS = [
-  "id",
-  "chain_id",
-  "revision",
-  "tendon_end",
-  "device_time",
-  "received_at",
-  "restress_of_disposition_id",
-  "equipment_set_id",
-  "calibration_id",
-  "expired_calibration_reason",
-  "concrete_go_ahead",
-  "initial_pressure_mpa",
-  "final_pressure_mpa",
-  "measured_mm",
-  "reading_method",
-  "entered",
-  "seating_mm",
-  "draw_in_mm",
-  "stressing_order",
-  "wire_breaks",
-  "first_reading_mm",
-  "reread_declined_reason",
-  "wire_break_details",
-] as const;
 
 export interface EvaluatedRecord {
   id: string;
@@ -167,7 +140,8 @@ export function selectTendonState(
     jsonArrayFrom(
       eb
         .selectFrom("records")
-        .select(EVALUATED_RECORD_COLUMNS)
+        // The record DTO's columns; the judge takes its part of them (`judgeInputFromState`).
+        .select(RECORD_COLUMNS)
         .where("records.project_id", "=", projectId)
         .where("records.tendon_id", "=", tendonId),
     ).as("records"),

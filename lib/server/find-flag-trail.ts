@@ -1,7 +1,15 @@
 import "server-only";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
-import { reference } from "@/lib/format/references";
+import { qualified } from "@/lib/schemas/columns";
+import { DISPOSITION_COLUMNS, dispositionFromRow } from "@/lib/schemas/disposition";
+import { FLAG_COLUMNS, flagFromRow, type Flag } from "@/lib/schemas/flag";
+
+/** A flag as its trail shows it: the DTO with the tendon's tag and the name of whoever closed it. */
+export interface FlagInTrail extends Flag {
+  tendonTag: string;
+  closedByName: string | null;
+}
 
 /**
  * The flags of a tendon or of a pour with their whole trail: the inspector's findings and the
@@ -21,20 +29,7 @@ export async function findFlagTrail(
       .selectFrom("flags")
       .innerJoin("tendons", "tendons.id", "flags.tendon_id")
       .leftJoin("users", "users.id", "flags.closed_by")
-      .select([
-        "flags.id",
-        "tendons.tag",
-        "flags.kind",
-        "flags.reason",
-        "flags.status",
-        "flags.record_id",
-        "flags.created_at",
-        "flags.closed_at",
-        "flags.close_reason",
-        "users.name as closedByName",
-        // Its number in the project, given at insert.
-        "flags.number",
-      ])
+      .select([...qualified("flags", FLAG_COLUMNS), "tendons.tag", "users.name as closed_by_name"])
       .where("flags.project_id", "=", input.projectId)
       .where(scopeColumn, "=", scopeId)
       .orderBy("tendons.tag")
@@ -61,25 +56,16 @@ export async function findFlagTrail(
     db
       .selectFrom("dispositions")
       .innerJoin("flags", "flags.id", "dispositions.flag_id")
-      .select([
-        "dispositions.id",
-        "dispositions.flag_id",
-        "dispositions.decision",
-        "dispositions.reasons",
-        "dispositions.engineer_name",
-        "dispositions.licence_statement",
-        "dispositions.created_at",
-        "dispositions.number",
-      ])
+      .select(qualified("dispositions", DISPOSITION_COLUMNS))
       .where("dispositions.project_id", "=", input.projectId)
       .where(scopeColumn, "=", scopeId)
       .orderBy("dispositions.created_at")
       .execute(),
   ]);
   return {
-    flags: flags.map(({ number, ...f }) => ({ ...f, reference: reference("F", Number(number)) })),
+    flags: flags.map((f): FlagInTrail => ({ ...flagFromRow(f), tendonTag: f.tag, closedByName: f.closed_by_name })),
     reviews,
-    dispositions: dispositions.map(({ number, ...d }) => ({ ...d, reference: reference("D", Number(number)) })),
+    dispositions: dispositions.map(dispositionFromRow),
   };
 }
 

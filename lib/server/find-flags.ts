@@ -1,10 +1,21 @@
 import "server-only";
 import { sql, type Kysely } from "kysely";
 import type { Database } from "@/db/types";
-import type { FlagKind, FlagStatus, Verdict } from "@/lib/schemas/domain";
-import { reference } from "@/lib/format/references";
+import type { Verdict } from "@/lib/schemas/domain";
+import { pick, qualified } from "@/lib/schemas/columns";
+import { FLAG_COLUMNS, flagFromRow, type Flag } from "@/lib/schemas/flag";
 import type { FlagFilter } from "@/lib/schemas/review";
 import { recordIsSkewed } from "./find-clock-skews";
+
+/** The part of each flag the queue shows. */
+const QUEUED_FLAG_KEYS = [
+  "id",
+  "reference",
+  "kind",
+  "reason",
+  "status",
+  "createdAt",
+] as const satisfies readonly (keyof Flag)[];
 
 export interface FlaggedTendon {
   projectId: string;
@@ -15,7 +26,7 @@ export interface FlaggedTendon {
   tag: string;
   oldest: Date;
   /** Each flag with its project reference ("F-0012"). */
-  flags: { id: string; reference: string; kind: FlagKind; reason: string; status: FlagStatus; createdAt: Date }[];
+  flags: Pick<Flag, (typeof QUEUED_FLAG_KEYS)[number]>[];
   /** The tendon's latest evaluation (as it stands now), not the one that raised a flag. */
   verdict: Verdict | null;
   deviationPct: number | null;
@@ -49,16 +60,9 @@ export async function findFlags(
       (join) => join.onTrue(),
     )
     .select([
-      "flags.id",
-      "flags.kind",
-      "flags.reason",
-      "flags.status",
-      "flags.created_at",
-      "flags.project_id",
+      ...qualified("flags", FLAG_COLUMNS),
       "projects.name as projectName",
-      "flags.pour_id",
       "pours.name as pourName",
-      "flags.tendon_id",
       "tendons.tag",
       "latest.verdict",
       "latest.deviation_pct",
@@ -72,8 +76,6 @@ export async function findFlags(
           .where("records.revision", "=", 1)
           .where(recordIsSkewed)
           .as("clockSkewRecords"),
-      // The flag's number in its project, given at insert.
-      "flags.number",
     ])
     .where("flags.project_id", "in", input.projectIds)
     .orderBy("flags.created_at");
@@ -109,14 +111,7 @@ export async function findFlags(
       };
       byTendon.set(r.tendon_id, group);
     }
-    group.flags.push({
-      id: r.id,
-      reference: reference("F", Number(r.number)),
-      kind: r.kind,
-      reason: r.reason,
-      status: r.status,
-      createdAt: r.created_at,
-    });
+    group.flags.push(pick(flagFromRow(r), QUEUED_FLAG_KEYS));
   }
   return [...byTendon.values()];
 }

@@ -260,7 +260,7 @@ export async function getPourReport(
   const named = [
     ...detensions.map((d) => d.disposition_id),
     ...liftoffs.map((l) => l.disposition_id),
-    ...flags.flatMap((f) => [...(f.close_reason ?? "").matchAll(/disposition ([0-9a-f-]{36})/g)].map((m) => m[1]!)),
+    ...flags.flatMap((f) => [...(f.closeReason ?? "").matchAll(/disposition ([0-9a-f-]{36})/g)].map((m) => m[1]!)),
   ];
   const stray = [...new Set(named.filter((id) => !dispositionRef.has(id)))];
   if (stray.length)
@@ -309,9 +309,9 @@ export async function getPourReport(
     new Date(pour.updated_at),
     ...records.flatMap((r) => [r.deviceTime, ...(r.evaluation ? [r.evaluation.at] : [])]),
     ...tendons.flatMap((t) => (t.evaluation ? [t.evaluation.createdAt] : [])),
-    ...flags.flatMap((f) => [new Date(f.created_at), ...(f.closed_at ? [new Date(f.closed_at)] : [])]),
+    ...flags.flatMap((f) => [new Date(f.createdAt), ...(f.closedAt ? [new Date(f.closedAt)] : [])]),
     ...reviews.map((r) => new Date(r.created_at)),
-    ...dispositions.map((d) => new Date(d.created_at)),
+    ...dispositions.map((d) => new Date(d.createdAt)),
     ...(release ? [new Date(release.created_at)] : []),
     ...detensions.map((d) => new Date(d.detensioned_at)),
     ...liftoffs.map((l) => new Date(l.checked_at)),
@@ -429,17 +429,17 @@ export async function getPourReport(
     flags: flags.map((f) => ({
       id: f.id,
       reference: flagRef.get(f.id) ?? "F-?",
-      tendonTag: f.tag,
-      recordId: f.record_id,
+      tendonTag: f.tendonTag,
+      recordId: f.recordId,
       kind: f.kind,
       reason: f.reason,
       status: f.status,
-      raisedAt: new Date(f.created_at),
-      closedAt: f.closed_at ? new Date(f.closed_at) : null,
+      raisedAt: new Date(f.createdAt),
+      closedAt: f.closedAt ? new Date(f.closedAt) : null,
       closedBy: f.closedByName,
       // Closures written by the evaluation name rows by id; the report names them by reference.
-      closeReason: f.close_reason
-        ? f.close_reason
+      closeReason: f.closeReason
+        ? f.closeReason
             .replace(
               /disposition ([0-9a-f-]{36})/g,
               (_, id: string) => `disposition ${dispositionRef.get(id) ?? "of another project"}`,
@@ -450,14 +450,14 @@ export async function getPourReport(
         .filter((r) => r.flag_id === f.id)
         .map((r) => ({ kind: r.kind, body: r.body, author: r.author, at: new Date(r.created_at) })),
       dispositions: dispositions
-        .filter((d) => d.flag_id === f.id)
+        .filter((d) => d.flagId === f.id)
         .map((d) => ({
           reference: dispositionRef.get(d.id) ?? "D-?",
           decision: d.decision,
           reasons: d.reasons,
-          engineerName: d.engineer_name,
-          licenceStatement: d.licence_statement,
-          at: new Date(d.created_at),
+          engineerName: d.engineerName,
+          licenceStatement: d.licenceStatement,
+          at: new Date(d.createdAt),
         })),
     })),
     release: release

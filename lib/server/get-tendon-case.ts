@@ -4,13 +4,23 @@ import { z } from "zod";
 import type { Database } from "@/db/types";
 import { forceProfile, segmentBeta, type ForceProfile } from "@/lib/elongation";
 import { predictTendon, type TendonPrediction } from "@/lib/stressing/basis";
-import { clockSkew } from "@/lib/stressing/clock-skew";
+import { clockSkew, type ClockSkew } from "@/lib/stressing/clock-skew";
+import { qualified } from "@/lib/schemas/columns";
+import { RECORD_COLUMNS, recordFromRow, type StressingRecord } from "@/lib/schemas/record";
 import { awaitingRestress } from "@/lib/stressing/tail-clearance";
 import { findFlagTrail } from "./find-flag-trail";
 import { findStandingRelease } from "./find-standing-release";
 import { listDetensions } from "./list-detensions";
 import { listLiftoffChecks } from "./list-liftoff-checks";
 import { loadTendonBasis, type LoadedTendon } from "./load-tendon-basis";
+
+/** A record as the review page lists it: the DTO with its set and the clock skew of a tablet's own record. */
+export interface CaseRecord extends StressingRecord {
+  equipmentSet: string;
+  equipmentGripMm: number | null;
+  /** Against the project's threshold; null within it, and on paperwork corrections. */
+  skew: ClockSkew | null;
+}
 
 /**
  * Everything the review and decision page shows for one tendon: the basis and its sources, the
@@ -28,27 +38,9 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
       .innerJoin("equipment_sets", "equipment_sets.id", "records.equipment_set_id")
       .innerJoin("projects", "projects.id", "records.project_id")
       .select([
+        ...qualified("records", RECORD_COLUMNS),
+        "users.name as author_name",
         "projects.clock_skew_minutes",
-        "records.id",
-        "records.chain_id",
-        "records.revision",
-        "records.revision_reason",
-        "records.tendon_end",
-        "records.initial_pressure_mpa",
-        "records.final_pressure_mpa",
-        "records.measured_mm",
-        "records.seating_mm",
-        "records.wire_breaks",
-        "records.first_reading_mm",
-        "records.wire_break_details",
-        "records.reread_declined_reason",
-        "records.remarks",
-        "records.concrete_go_ahead",
-        "records.device_time",
-        "records.device_time_zone",
-        "records.received_at",
-        "records.entered",
-        "users.name as author",
         "equipment_sets.name as equipmentSet",
         "equipment_sets.jack_grip_mm as equipmentGripMm",
       ])
@@ -81,10 +73,15 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
   // Each record with its clock skew against the project's threshold (null when within it). Only
   // the tablet's own records: a paperwork correction keeps the original's device time and is
   // received when the office writes it (as findClockSkews).
-  const records = rows.map(({ clock_skew_minutes, ...r }) => ({
-    ...r,
-    skew: r.revision === 1 ? clockSkew(r.device_time, r.received_at, clock_skew_minutes) : null,
-  }));
+  const records = rows.map((row): CaseRecord => {
+    const r = recordFromRow(row);
+    return {
+      ...r,
+      equipmentSet: row.equipmentSet,
+      equipmentGripMm: row.equipmentGripMm,
+      skew: r.revision === 1 ? clockSkew(r.deviceTime, r.receivedAt, row.clock_skew_minutes) : null,
+    };
+  });
   const equipmentGripMm = records.find((r) => r.equipmentGripMm !== null)?.equipmentGripMm ?? null;
   let predicted: TendonPrediction | null = null;
   let profile: ForceProfile | null = null;
@@ -111,7 +108,7 @@ export async function getTendonCase(db: Kysely<Database>, input: { projectId: st
   const awaiting = awaitingRestress({
     ends: basis.tendon.ends,
     detensionedAt: detensions.map((d) => d.detensionedAt),
-    records: records.map((r) => ({ tendonEnd: r.tendon_end, stressedAt: new Date(r.device_time).toISOString() })),
+    records: records.map((r) => ({ tendonEnd: r.tendonEnd, stressedAt: r.deviceTime })),
   });
 
   return {

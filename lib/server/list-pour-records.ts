@@ -1,5 +1,12 @@
 import { stressingDay } from "@/lib/stressing/judge";
-import { storedGaugeOffTarget, storedWireBreaks, type GaugeOffTarget, type WireBreak } from "@/lib/schemas/record";
+import {
+  RECORD_COLUMNS,
+  recordFromRow,
+  storedGaugeOffTarget,
+  type GaugeOffTarget,
+  type WireBreak,
+} from "@/lib/schemas/record";
+import { qualified } from "@/lib/schemas/columns";
 import "server-only";
 import type { Kysely } from "kysely";
 import { z } from "zod";
@@ -166,32 +173,10 @@ export async function listPourRecords(
     .innerJoin("equipment_sets", "equipment_sets.id", "records.equipment_set_id")
     .innerJoin("users", "users.id", "records.author_user_id")
     .select([
-      "records.id",
-      "records.tendon_id",
+      ...qualified("records", RECORD_COLUMNS),
+      "users.name as author_name",
       "tendons.tag",
       "tendons.shop_elongation_mm",
-      "records.tendon_end",
-      "records.chain_id",
-      "records.revision",
-      "records.revision_reason",
-      "records.equipment_set_id",
-      "records.calibration_id",
-      "records.expired_calibration_reason",
-      "records.initial_pressure_mpa",
-      "records.final_pressure_mpa",
-      "records.reading_method",
-      "records.entered",
-      "records.measured_mm",
-      "records.seating_mm",
-      "records.wire_breaks",
-      "records.wire_break_details",
-      "records.first_reading_mm",
-      "records.reread_declined_reason",
-      "records.remarks",
-      "records.device_time",
-      "records.device_time_zone",
-      "records.restress_of_disposition_id",
-      "users.name as operator",
       "equipment_sets.name",
       "equipment_sets.jack_serial",
       "equipment_sets.gauge_serial",
@@ -207,10 +192,16 @@ export async function listPourRecords(
     .orderBy("records.revision")
     .execute();
   if (!rows.length) return [];
+  const records = rows.map((row) => ({
+    ...recordFromRow(row),
+    tag: row.tag,
+    shopElongationMm: row.shop_elongation_mm,
+    equipment: equipmentNamedFromRow(row),
+  }));
 
-  const recordIds = rows.map((r) => r.id);
-  const setIds = [...new Set(rows.map((r) => r.equipment_set_id))];
-  const tendonIds = [...new Set(rows.map((r) => r.tendon_id))];
+  const recordIds = records.map((r) => r.id);
+  const setIds = [...new Set(records.map((r) => r.equipmentSetId))];
+  const tendonIds = [...new Set(records.map((r) => r.tendonId))];
   const [calibrations, photos, evaluations] = await Promise.all([
     db
       .selectFrom("calibrations")
@@ -276,8 +267,8 @@ export async function listPourRecords(
   }
 
   // The current revision of each chain, with the corrections before it.
-  const chains = new Map<string, typeof rows>();
-  for (const r of rows) chains.set(r.chain_id, [...(chains.get(r.chain_id) ?? []), r]);
+  const chains = new Map<string, typeof records>();
+  for (const r of records) chains.set(r.chainId, [...(chains.get(r.chainId) ?? []), r]);
   const current = [...chains.values()].map((revisions) => {
     const sorted = [...revisions].sort((a, b) => a.revision - b.revision);
     return { row: sorted.at(-1)!, first: sorted[0]!, corrections: sorted.slice(1) };
@@ -285,22 +276,22 @@ export async function listPourRecords(
   current.sort(
     (a, b) =>
       a.row.tag.localeCompare(b.row.tag) ||
-      a.row.tendon_end.localeCompare(b.row.tendon_end) ||
-      new Date(a.first.device_time).getTime() - new Date(b.first.device_time).getTime(),
+      a.row.tendonEnd.localeCompare(b.row.tendonEnd) ||
+      new Date(a.first.deviceTime).getTime() - new Date(b.first.deviceTime).getTime(),
   );
 
   const stressingCount = new Map<string, number>();
   return current.map(({ row: r, corrections }) => {
-    const endKey = `${r.tendon_id}/${r.tendon_end}`;
+    const endKey = `${r.tendonId}/${r.tendonEnd}`;
     const stressing = (stressingCount.get(endKey) ?? 0) + 1;
     stressingCount.set(endKey, stressing);
     // The stressing day in the project's time zone, the same day the judge used (stressingDay).
-    const stressedOn = stressingDay(r.device_time, input.timeZone);
+    const stressedOn = stressingDay(r.deviceTime, input.timeZone);
     const ofSet = calibrations
-      .filter((c) => c.equipment_set_id === r.equipment_set_id)
+      .filter((c) => c.equipment_set_id === r.equipmentSetId)
       .map((c) => ({ ...c, calibratedOn: day(c.calibrated_on) }));
-    const cal = r.calibration_id
-      ? (ofSet.find((c) => c.id === r.calibration_id) ?? null)
+    const cal = r.calibrationId
+      ? (ofSet.find((c) => c.id === r.calibrationId) ?? null)
       : pickCalibration(ofSet, stressedOn);
     const e = latestEvaluationOf.get(r.id);
     const inputs = e ? inputsSchema.safeParse(e.inputs) : null;
@@ -317,17 +308,17 @@ export async function listPourRecords(
     const entered = enteredSchema.safeParse(r.entered);
     return {
       recordId: r.id,
-      tendonId: r.tendon_id,
+      tendonId: r.tendonId,
       tag: r.tag,
-      end: r.tendon_end,
+      end: r.tendonEnd,
       stressing,
-      restressOrdered: r.restress_of_disposition_id !== null,
+      restressOrdered: r.restressOfDispositionId !== null,
       revision: r.revision,
-      corrections: corrections.map((c) => ({ revision: c.revision, reason: c.revision_reason ?? "no reason given" })),
-      deviceTime: new Date(r.device_time),
-      deviceTimeZone: r.device_time_zone,
-      operator: r.operator,
-      equipment: equipmentNamedFromRow(r),
+      corrections: corrections.map((c) => ({ revision: c.revision, reason: c.revisionReason ?? "no reason given" })),
+      deviceTime: new Date(r.deviceTime),
+      deviceTimeZone: r.deviceTimeZone,
+      operator: r.authorName,
+      equipment: r.equipment,
       calibration: cal
         ? {
             calibratedOn: cal.calibratedOn,
@@ -337,22 +328,22 @@ export async function listPourRecords(
             inForce: cal.calibratedOn <= stressedOn && stressedOn <= day(cal.valid_until),
           }
         : null,
-      expiredCalibrationReason: r.expired_calibration_reason,
-      initialPressureMPa: r.initial_pressure_mpa,
-      finalPressureMPa: r.final_pressure_mpa,
+      expiredCalibrationReason: r.expiredCalibrationReason,
+      initialPressureMPa: r.initialPressureMPa,
+      finalPressureMPa: r.finalPressureMPa,
       targetPressureMPa:
         calibrationLine && used?.jackingForceN ? pressureForForce(calibrationLine, used.jackingForceN) : null,
-      forceN: calibrationLine ? forceFromPressure(calibrationLine, r.final_pressure_mpa) : null,
+      forceN: calibrationLine ? forceFromPressure(calibrationLine, r.finalPressureMPa) : null,
       elongationForce:
         typeof reading?.impliedForceN === "number"
           ? { forceN: reading.impliedForceN, differencePct: reading.forceDifferencePct ?? null }
           : null,
-      method: r.reading_method,
+      method: r.readingMethod,
       entered: entered.success ? entered.data : noEntered,
-      measuredMm: r.measured_mm,
-      firstReadingMm: r.first_reading_mm,
-      rereadDeclinedReason: r.reread_declined_reason,
-      seatingMm: r.seating_mm,
+      measuredMm: r.measuredMm,
+      firstReadingMm: r.firstReadingMm,
+      rereadDeclinedReason: r.rereadDeclinedReason,
+      seatingMm: r.seatingMm,
       gaugeSteps: (() => {
         const steps = stepsSchema.safeParse(r.entered);
         return steps.success
@@ -367,11 +358,11 @@ export async function listPourRecords(
       stepFit: reading?.stepFit ? { r2: reading.stepFit.r2, belowReferenceMm: reading.stepFit.belowReferenceMm } : null,
       gaugeOffTarget: storedGaugeOffTarget(r.entered),
       drawIn,
-      wireBreaks: r.wire_breaks,
-      wireBreakDetails: storedWireBreaks(r.wire_break_details),
+      wireBreaks: r.wireBreaks,
+      wireBreakDetails: r.wireBreakDetails,
       remarks: r.remarks,
       photos: photoNumbers.get(r.id) ?? [],
-      shopElongationMm: r.shop_elongation_mm,
+      shopElongationMm: r.shopElongationMm,
       evaluation: e
         ? {
             verdict: e.verdict,
@@ -382,7 +373,7 @@ export async function listPourRecords(
             basis: used?.basis ?? used?.project.comparisonBasis ?? input.projectBasis,
             governs: used?.governs === "shop drawing" || used?.governs === "shop" ? "shop drawing" : "tautline",
             at: new Date(e.created_at),
-            current: latestOfTendon.get(r.tendon_id) === e.id,
+            current: latestOfTendon.get(r.tendonId) === e.id,
           }
         : null,
     };

@@ -1,6 +1,13 @@
 import "server-only";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
+import { qualified } from "@/lib/schemas/columns";
+import { RECORD_COLUMNS, recordFromRow, type StressingRecord } from "@/lib/schemas/record";
+
+/** A reading as the tendon screen lists it: the record's DTO with the name of the set it was read on. */
+export interface TendonReading extends StressingRecord {
+  equipmentSet: string;
+}
 
 /**
  * The readings of one tendon as they stand (the latest revision of each record), oldest first,
@@ -13,18 +20,8 @@ export async function listTendonReadings(db: Kysely<Database>, input: { projectI
       .innerJoin("users", "users.id", "records.author_user_id")
       .innerJoin("equipment_sets", "equipment_sets.id", "records.equipment_set_id")
       .select([
-        "records.id",
-        "records.chain_id",
-        "records.revision",
-        "records.tendon_end",
-        "records.final_pressure_mpa",
-        "records.measured_mm",
-        "records.wire_breaks",
-        "records.first_reading_mm",
-        "records.reread_declined_reason",
-        "records.device_time",
-        "records.entered",
-        "users.name as author",
+        ...qualified("records", RECORD_COLUMNS),
+        "users.name as author_name",
         "equipment_sets.name as equipmentSet",
       ])
       .distinctOn("records.chain_id")
@@ -43,6 +40,7 @@ export async function listTendonReadings(db: Kysely<Database>, input: { projectI
       .limit(1)
       .executeTakeFirst(),
   ]);
-  records.sort((a, b) => +new Date(a.device_time) - +new Date(b.device_time));
-  return { records, evaluation: evaluation ?? null };
+  const readings = records.map((row): TendonReading => ({ ...recordFromRow(row), equipmentSet: row.equipmentSet }));
+  readings.sort((a, b) => +new Date(a.deviceTime) - +new Date(b.deviceTime));
+  return { records: readings, evaluation: evaluation ?? null };
 }

@@ -5,6 +5,8 @@ import type { Database, TendonSegment } from "@/db/types";
 import type { StressingEnds, TendonEnd, Verdict } from "@/lib/schemas/domain";
 import { forceFromPressure } from "@/lib/elongation";
 import { endTotalMm } from "@/lib/stressing/basis";
+import { qualified } from "@/lib/schemas/columns";
+import { RECORD_COLUMNS, recordFromRow } from "@/lib/schemas/record";
 
 /**
  * Each tendon of a pour (or of the whole project) with its latest evaluation and the records that
@@ -137,26 +139,16 @@ export async function listTendonResults(
         .innerJoin("equipment_sets", "equipment_sets.id", "records.equipment_set_id")
         .innerJoin("users", "users.id", "records.author_user_id")
         .select([
-          "records.id",
-          "records.tendon_end",
-          "records.revision",
-          "records.equipment_set_id",
+          ...qualified("records", RECORD_COLUMNS),
+          "users.name as author_name",
           "equipment_sets.name as setName",
-          "records.initial_pressure_mpa",
-          "records.final_pressure_mpa",
-          "records.measured_mm",
-          "records.device_time",
-          "records.wire_breaks",
-          "records.remarks",
-          "records.entered",
-          "users.name as author",
         ])
         .where("records.project_id", "=", input.projectId)
         .where("equipment_sets.project_id", "=", input.projectId)
         .where("records.id", "in", recordIds)
         .execute()
     : [];
-  const recordById = new Map(records.map((r) => [r.id, r]));
+  const recordById = new Map(records.map((row) => [row.id, { ...recordFromRow(row), setName: row.setName }]));
 
   const evaluationByTendon = new Map(evaluations.map((e) => [e.tendon_id, e]));
   return tendons.map((t) => {
@@ -166,34 +158,34 @@ export async function listTendonResults(
     const endResults: EndResult[] = (e?.record_ids ?? [])
       .map((id) => recordById.get(id))
       .filter((r): r is NonNullable<typeof r> => Boolean(r))
-      .sort((a, b) => a.tendon_end.localeCompare(b.tendon_end))
+      .sort((a, b) => a.tendonEnd.localeCompare(b.tendonEnd))
       .map((r) => {
         const c = used.calibrations.find((x) => x.recordId === r.id);
         const line = c ? { slope: c.slope_n_per_mpa, intercept: c.intercept_n } : null;
         const steps = gaugeStepsSchema.safeParse(r.entered);
         return {
           recordId: r.id,
-          end: r.tendon_end,
+          end: r.tendonEnd,
           revision: r.revision,
-          equipmentSetId: r.equipment_set_id,
+          equipmentSetId: r.equipmentSetId,
           equipmentSetName: r.setName,
-          initialPressureMPa: r.initial_pressure_mpa,
-          finalPressureMPa: r.final_pressure_mpa,
-          forceN: line ? forceFromPressure(line, r.final_pressure_mpa) : null,
-          measuredMm: r.measured_mm,
+          initialPressureMPa: r.initialPressureMPa,
+          finalPressureMPa: r.finalPressureMPa,
+          forceN: line ? forceFromPressure(line, r.finalPressureMPa) : null,
+          measuredMm: r.measuredMm,
           // The evaluation's own total on the end's basis; older evaluations are recomputed as before.
           totalMm:
             used.readings.find((x) => x.recordId === r.id)?.totalMm ??
             endTotalMm({
-              end: r.tendon_end,
-              measuredMm: r.measured_mm,
-              initialPressureMPa: r.initial_pressure_mpa,
-              finalPressureMPa: r.final_pressure_mpa,
+              end: r.tendonEnd,
+              measuredMm: r.measuredMm,
+              initialPressureMPa: r.initialPressureMPa,
+              finalPressureMPa: r.finalPressureMPa,
               calibration: line ? { ...line, minPressureMPa: 0, maxPressureMPa: Infinity } : null,
             }),
-          deviceTime: new Date(r.device_time),
-          author: r.author,
-          wireBreaks: r.wire_breaks,
+          deviceTime: new Date(r.deviceTime),
+          author: r.authorName,
+          wireBreaks: r.wireBreaks,
           remarks: r.remarks,
           calibration: line,
           gaugeSteps: steps.success ? steps.data.gaugeSteps : [],

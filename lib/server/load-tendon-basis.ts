@@ -2,7 +2,8 @@ import "server-only";
 import { sql, type Kysely, type QueryCreator } from "kysely";
 import type { Database } from "@/db/types";
 import type { StrandLot } from "@/lib/schemas/strand-lot";
-import type { Tendon } from "@/lib/schemas/tendon";
+import { pick, qualified } from "@/lib/schemas/columns";
+import { TENDON_COLUMNS, tendonFromRow, type Tendon } from "@/lib/schemas/tendon";
 import { AppError } from "@/lib/errors";
 import { projectBasisFromRow, type LotBasis, type ProjectBasis, type TendonBasis } from "@/lib/stressing/basis";
 import type { DisplayUnits, StoredResolution } from "@/lib/format/quantities";
@@ -75,17 +76,7 @@ export function selectTendonBasis(qc: QueryCreator<Database>, input: { projectId
       "pours.id as pourId",
       "pours.name as pourName",
       "pours.concrete_strength_mpa",
-      "tendons.id as tendonId",
-      "tendons.tag",
-      "tendons.kind",
-      "tendons.strand_size",
-      "tendons.strand_count",
-      "tendons.segments",
-      "tendons.ends",
-      "tendons.jack_grip_mm",
-      "tendons.shop_elongation_mm",
-      "tendons.member",
-      "tendons.jacking_force_n",
+      ...qualified("tendons", TENDON_COLUMNS),
       "strand_lots.id as lotId",
       "strand_lots.lot_number",
       "strand_lots.area_mm2",
@@ -120,6 +111,21 @@ export async function loadTendonBasis(
   return toLoadedTendon(row);
 }
 
+/** The part of the tendon DTO the computation reads, in this order: it is stored with each evaluation's inputs. */
+const BASIS_TENDON_KEYS = [
+  "id",
+  "tag",
+  "kind",
+  "strandSize",
+  "strandCount",
+  "segments",
+  "ends",
+  "jackGripMm",
+  "shopElongationMm",
+  "member",
+  "jackingForceN",
+] as const satisfies readonly (keyof Tendon)[];
+
 /** The basis columns of a row read with `selectTendonBasis`, shaped for the computation. */
 export function toLoadedTendon(row: BasisRow & { pourStatus?: string }): LoadedTendon {
   return {
@@ -141,19 +147,7 @@ export function toLoadedTendon(row: BasisRow & { pourStatus?: string }): LoadedT
       concreteStrengthMPa: row.concrete_strength_mpa,
       ...(row.pourStatus !== undefined && { status: row.pourStatus }),
     },
-    tendon: {
-      id: row.tendonId,
-      tag: row.tag,
-      kind: row.kind,
-      strandSize: row.strand_size,
-      strandCount: row.strand_count,
-      segments: row.segments,
-      ends: row.ends,
-      jackGripMm: row.jack_grip_mm,
-      shopElongationMm: row.shop_elongation_mm,
-      member: row.member,
-      jackingForceN: row.jacking_force_n,
-    },
+    tendon: pick(tendonFromRow(row), BASIS_TENDON_KEYS),
     lot:
       row.lotId && row.lot_number && row.area_mm2 && row.modulus_mpa && row.breaking_load_n
         ? {

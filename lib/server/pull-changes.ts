@@ -13,7 +13,10 @@ import { qualified } from "@/lib/schemas/columns";
 import { POUR_COLUMNS, pourFromRow } from "@/lib/schemas/pour";
 import { DETENSION_COLUMNS, detensionFromRow } from "@/lib/schemas/detension";
 import { LIFTOFF_CHECK_COLUMNS, liftoffCheckFromRow } from "@/lib/schemas/liftoff";
-import { storedWireBreaks } from "@/lib/schemas/record";
+import { RECORD_COLUMNS, recordFromRow } from "@/lib/schemas/record";
+import { FLAG_COLUMNS, flagFromRow } from "@/lib/schemas/flag";
+import { DISPOSITION_COLUMNS, dispositionFromRow } from "@/lib/schemas/disposition";
+import { emptyPull, fieldFlagFrom, fieldRecordFrom } from "@/lib/schemas/sync-response";
 import { recordingProjectIds } from "./require-recorder";
 
 /**
@@ -50,24 +53,7 @@ export async function pullChanges(
       }>`select pg_snapshot_xmin(pg_current_snapshot())::text as xmin, now() as now`.execute(trx);
       const { xmin, now } = rows[0]!;
       const cursor = input.cursor;
-      const empty = (): PullResponse => ({
-        cursor: xmin,
-        serverTime: new Date(now).toISOString(),
-        projects: [],
-        pours: [],
-        tendons: [],
-        strandLots: [],
-        equipmentSets: [],
-        calibrations: [],
-        records: [],
-        evaluations: [],
-        flags: [],
-        tailCuts: [],
-        liftoffChecks: [],
-        detensions: [],
-        removed: [],
-        unavailable: input.pourIds,
-      });
+      const empty = () => emptyPull(xmin, new Date(now).toISOString(), input.pourIds);
       if (!allowed.length) return empty();
 
       const found = await trx
@@ -178,35 +164,7 @@ export async function pullChanges(
           trx
             .selectFrom("records")
             .innerJoin("users", "users.id", "records.author_user_id")
-            .select([
-              "records.id",
-              "records.project_id",
-              "records.pour_id",
-              "records.tendon_id",
-              "records.tendon_end",
-              "records.chain_id",
-              "records.revision",
-              "records.base_record_id",
-              "records.revision_reason",
-              "records.equipment_set_id",
-              "records.calibration_id",
-              "records.initial_pressure_mpa",
-              "records.final_pressure_mpa",
-              "records.reading_method",
-              "records.entered",
-              "records.measured_mm",
-              "records.seating_mm",
-              "records.draw_in_mm",
-              "records.stressing_order",
-              "records.first_reading_mm",
-              "records.reread_declined_reason",
-              "records.wire_breaks",
-              "records.wire_break_details",
-              "records.remarks",
-              "records.device_time",
-              "records.author_user_id",
-              "users.name as author_name",
-            ])
+            .select([...qualified("records", RECORD_COLUMNS), "users.name as author_name"])
             .where(changedIn("records", scope))
             .execute(),
           trx
@@ -232,23 +190,12 @@ export async function pullChanges(
           trx
             .selectFrom("flags")
             .select((eb) => [
-              "flags.id",
-              "flags.tendon_id",
-              "flags.kind",
-              "flags.status",
-              "flags.reason",
-              "flags.created_at",
+              ...qualified("flags", FLAG_COLUMNS),
               // The engineer's decisions on the flag; each one updates the flag, so it is sent again.
               jsonArrayFrom(
                 eb
                   .selectFrom("dispositions")
-                  .select([
-                    "dispositions.id",
-                    "dispositions.decision",
-                    "dispositions.reasons",
-                    "dispositions.engineer_name",
-                    "dispositions.created_at",
-                  ])
+                  .select(qualified("dispositions", DISPOSITION_COLUMNS))
                   .whereRef("dispositions.flag_id", "=", "flags.id")
                   .orderBy("dispositions.created_at"),
               ).as("dispositions"),
@@ -322,35 +269,7 @@ export async function pullChanges(
         strandLots: lots.map(strandLotFromRow),
         equipmentSets: sets.map(equipmentSetFromRow),
         calibrations: calibrations.map(calibrationFromRow),
-        records: records.map((r) => ({
-          id: r.id,
-          projectId: r.project_id,
-          pourId: r.pour_id,
-          tendonId: r.tendon_id,
-          tendonEnd: r.tendon_end,
-          chainId: r.chain_id,
-          revision: r.revision,
-          baseRecordId: r.base_record_id,
-          revisionReason: r.revision_reason,
-          equipmentSetId: r.equipment_set_id,
-          calibrationId: r.calibration_id,
-          initialPressureMPa: r.initial_pressure_mpa,
-          finalPressureMPa: r.final_pressure_mpa,
-          readingMethod: r.reading_method,
-          entered: r.entered,
-          measuredMm: r.measured_mm,
-          seatingMm: r.seating_mm,
-          drawInMm: r.draw_in_mm,
-          stressingOrder: r.stressing_order,
-          firstReadingMm: r.first_reading_mm,
-          rereadDeclinedReason: r.reread_declined_reason,
-          wireBreaks: r.wire_breaks,
-          wireBreakDetails: storedWireBreaks(r.wire_break_details) ?? undefined,
-          remarks: r.remarks,
-          deviceTime: new Date(r.device_time).toISOString(),
-          authorUserId: r.author_user_id,
-          authorName: r.author_name,
-        })),
+        records: records.map((r) => fieldRecordFrom(recordFromRow(r))),
         evaluations: evaluations.map((e) => ({
           id: e.id,
           tendonId: e.tendon_id,
@@ -360,21 +279,7 @@ export async function pullChanges(
           createdAt: new Date(e.created_at).toISOString(),
           recordIds: e.record_ids,
         })),
-        flags: flags.map((f) => ({
-          id: f.id,
-          tendonId: f.tendon_id,
-          kind: f.kind,
-          status: f.status,
-          reason: f.reason,
-          createdAt: new Date(f.created_at).toISOString(),
-          dispositions: f.dispositions.map((d) => ({
-            id: d.id,
-            decision: d.decision,
-            reasons: d.reasons,
-            engineerName: d.engineer_name,
-            createdAt: new Date(d.created_at).toISOString(),
-          })),
-        })),
+        flags: flags.map((f) => fieldFlagFrom(flagFromRow(f), f.dispositions.map(dispositionFromRow))),
         tailCuts: tailCuts.map((c) => ({
           id: c.id,
           projectId: c.project_id,

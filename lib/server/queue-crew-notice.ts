@@ -6,6 +6,8 @@ import { env } from "@/lib/env";
 import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
 import { releaseMail, workOrderMail } from "@/lib/mail/templates";
 import { DECISION_LABELS } from "@/lib/schemas/review";
+import { qualified } from "@/lib/schemas/columns";
+import { DISPOSITION_COLUMNS, dispositionFromRow } from "@/lib/schemas/disposition";
 import { showLength, showPct, showPressure, type StoredResolution } from "@/lib/format/quantities";
 
 /** Dispositions that send the crew back to the tendon. */
@@ -43,19 +45,14 @@ export async function queueCrewNotice(
   const notice = input.notice;
 
   if (notice.kind === "disposition") {
-    const d = await db
+    const row = await db
       .selectFrom("dispositions")
       .innerJoin("flags", "flags.id", "dispositions.flag_id")
       .innerJoin("tendons", "tendons.id", "dispositions.tendon_id")
       .innerJoin("pours", "pours.id", "tendons.pour_id")
       .select([
-        "dispositions.id",
-        "dispositions.decision",
-        "dispositions.reasons",
-        "dispositions.engineer_name",
-        "dispositions.flag_id",
+        ...qualified("dispositions", DISPOSITION_COLUMNS),
         "flags.kind",
-        "tendons.id as tendonId",
         "tendons.tag",
         "pours.id as pourId",
         "pours.name as pourName",
@@ -63,6 +60,13 @@ export async function queueCrewNotice(
       .where("dispositions.project_id", "=", input.projectId)
       .where("dispositions.id", "=", notice.dispositionId)
       .executeTakeFirstOrThrow();
+    const d = {
+      ...dispositionFromRow(row),
+      flagKind: row.kind,
+      tag: row.tag,
+      pourId: row.pourId,
+      pourName: row.pourName,
+    };
     if (!ORDERS_WORK.includes(d.decision)) return false;
     const [record, evaluation] = await Promise.all([
       db
@@ -98,9 +102,9 @@ export async function queueCrewNotice(
       pourName: d.pourName,
       tendonTag: d.tag,
       decisionLabel: DECISION_LABELS[d.decision],
-      engineerName: d.engineer_name,
+      engineerName: d.engineerName,
       instructions: d.reasons,
-      flagKind: d.kind,
+      flagKind: d.flagKind,
       lastStressing,
       url: `${env.APP_URL}/field/pour?id=${d.pourId}&tendon=${d.tendonId}`,
     });
@@ -108,7 +112,7 @@ export async function queueCrewNotice(
       .insertInto("notifications")
       .values({
         project_id: input.projectId,
-        flag_id: d.flag_id,
+        flag_id: d.flagId,
         dedupe_key: `disposition:${d.id}`,
         to_emails: to,
         subject: mail.subject,

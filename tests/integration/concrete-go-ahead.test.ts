@@ -4,7 +4,8 @@ import type { SyncOp } from "@/lib/schemas/sync";
 import { listConcreteResults } from "@/lib/server/list-concrete-results";
 import { pushOps } from "@/lib/server/push-ops";
 import type { TestDatabase } from "../support/database";
-import { makePour, makeTendons } from "../support/factories";
+import { makePour } from "../support/factories";
+import { copyDemoTendons } from "../support/records";
 import { syncWorld, createOp, type SyncWorld } from "./sync-fixtures";
 
 // The crew's reason to stress a pour whose concrete strength is not confirmed, on real
@@ -30,17 +31,10 @@ async function unconfirmedPour(): Promise<{ world: SyncWorld; tendons: SyncWorld
   const pour = await makePour(t.db, w.projectId, { name: `Go-ahead pour ${n}`, concreteStrengthMPa: null });
   const tendons: SyncWorld["tendons"] = [];
   for (const [i, source] of w.tendons.slice(0, 6).entries()) {
-    const row = await t.db.selectFrom("tendons").selectAll().where("id", "=", source.id).executeTakeFirstOrThrow();
-    const [made] = await makeTendons(t.db, { projectId: w.projectId, pourId: pour.id }, [`GA${n}-${i + 1}`], {
-      kind: row.kind,
-      strandSize: row.strand_size,
-      strandCount: row.strand_count,
-      segments: row.segments,
-      ends: row.ends,
-      jackGripMm: row.jack_grip_mm,
-      strandLotId: row.strand_lot_id,
+    const [made] = await copyDemoTendons(t.db, { projectId: w.projectId, pourId: pour.id }, [`GA${n}-${i + 1}`], {
+      templateTag: source.tag,
     });
-    tendons.push({ id: made!.id, tag: made!.tag, ends: row.ends });
+    tendons.push({ id: made!.id, tag: made!.tag, ends: source.ends });
   }
   return { world: { ...w, pourId: pour.id, tendons }, tendons };
 }

@@ -39,7 +39,7 @@ describe("flag and disposition references", () => {
         expect(seenFlags.has(f.reference)).toBe(false);
         seenFlags.add(f.reference);
         const reportDispositions = inReport!.dispositions.map((d) => d.reference);
-        const trailDispositions = trail.dispositions.filter((d) => d.flag_id === f.id).map((d) => d.reference);
+        const trailDispositions = trail.dispositions.filter((d) => d.flagId === f.id).map((d) => d.reference);
         expect(trailDispositions).toEqual(reportDispositions);
         for (const d of trailDispositions) {
           expect(seenDispositions.has(d)).toBe(false);

@@ -92,7 +92,7 @@ describe("clock skew is visible", () => {
     expect(c.records).toHaveLength(1);
     expect(c.records[0]!.skew?.future).toBe(false);
     expect(c.records[0]!.skew?.minutes).toBeLessThan(-29);
-    expect(c.records[0]!.received_at).toBeInstanceOf(Date);
+    expect(c.records[0]!.receivedAt).toMatch(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}\.\d{3}Z$/);
 
     // A wider threshold of the project's own clears it.
     await t.db.updateTable("projects").set({ clock_skew_minutes: 60 }).where("id", "=", fx.projectId).execute();

@@ -6,6 +6,8 @@ import { loadSessionUser } from "@/lib/server/load-session-user";
 import { updateStrandLot } from "@/lib/server/update-strand-lot";
 import { updateTendon } from "@/lib/server/update-tendon";
 import { seedDemo } from "@/scripts/seed/demo";
+import { qualified } from "@/lib/schemas/columns";
+import { TENDON_COLUMNS, tendonFromRow } from "@/lib/schemas/tendon";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 import { routeState } from "./route-mocks";
 
@@ -196,41 +198,16 @@ describe("POST …/tendons/[tendonId]/preview", () => {
     const row = await t.db
       .selectFrom("tendons")
       .innerJoin("pour_states", "pour_states.pour_id", "tendons.pour_id")
-      .select([
-        "tendons.id",
-        "tendons.pour_id",
-        "tendons.tag",
-        "tendons.kind",
-        "tendons.strand_size",
-        "tendons.strand_count",
-        "tendons.segments",
-        "tendons.ends",
-        "tendons.jack_grip_mm",
-        "tendons.shop_elongation_mm",
-        "tendons.strand_lot_id",
-        "tendons.member",
-      ])
+      .select(qualified("tendons", TENDON_COLUMNS))
       .where("tendons.project_id", "=", projectId)
       .where("pour_states.status", released ? "=" : "!=", "released")
       .where("tendons.id", "in", (eb) => eb.selectFrom("records").select("tendon_id"))
       .orderBy("tendons.tag")
       .executeTakeFirstOrThrow();
-    return {
-      id: row.id,
-      pourId: row.pour_id,
-      values: {
-        tag: row.tag,
-        kind: row.kind,
-        strandSize: row.strand_size,
-        strandCount: row.strand_count,
-        segments: row.segments,
-        ends: row.ends,
-        jackGripMm: row.jack_grip_mm,
-        shopElongationMm: row.shop_elongation_mm,
-        strandLotId: row.strand_lot_id,
-        member: row.member,
-      },
-    };
+    // The tendon as its form sends it: the DTO less its ids (the body names every field of the schema).
+    const { id, projectId: ofProject, pourId, ...values } = tendonFromRow(row);
+    expect(ofProject).toBe(projectId);
+    return { id, pourId, values };
   }
 
   it("a longer profile judges the tendon again; a new member judges the pour's stressed tendons; nothing is written", async () => {

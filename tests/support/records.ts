@@ -8,6 +8,8 @@ import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { seedDemo } from "@/scripts/seed/demo";
 import { createTestDatabase, type TestDatabase } from "./database";
 import { makeTendons, type TendonShape } from "./factories";
+import { pick } from "@/lib/schemas/columns";
+import { TENDON_COLUMNS, tendonFromRow } from "@/lib/schemas/tendon";
 
 /** Fixtures for tests that need stressing records without going through the tablet's sync. */
 
@@ -196,20 +198,16 @@ export async function copyDemoTendons(
   options: Partial<TendonShape> & { templateTag?: string } = {},
 ) {
   const { templateTag = "2-1-U01", ...changes } = options;
-  const template = await db
-    .selectFrom("tendons")
-    .selectAll()
-    .where("project_id", "=", where.projectId)
-    .where("tag", "=", templateTag)
-    .executeTakeFirstOrThrow();
+  const template = tendonFromRow(
+    await db
+      .selectFrom("tendons")
+      .select(TENDON_COLUMNS)
+      .where("project_id", "=", where.projectId)
+      .where("tag", "=", templateTag)
+      .executeTakeFirstOrThrow(),
+  );
   return makeTendons(db, where, tags, {
-    kind: template.kind,
-    strandSize: template.strand_size,
-    strandCount: template.strand_count,
-    segments: template.segments,
-    ends: template.ends,
-    jackGripMm: template.jack_grip_mm,
-    strandLotId: template.strand_lot_id,
+    ...pick(template, ["kind", "strandSize", "strandCount", "segments", "ends", "jackGripMm", "strandLotId"]),
     ...changes,
   });
 }

@@ -234,11 +234,11 @@ export default async function TendonPage({ params }: { params: Promise<{ project
               <tbody className="tabular-nums">
                 {readings.records.map((r) => (
                   <tr key={r.id} className="border-b border-concrete-300">
-                    <td className="p-2 font-semibold">{r.tendon_end}</td>
-                    <td className="p-2 whitespace-nowrap">{formatDateTime(r.device_time, projectTimeZone(project))}</td>
+                    <td className="p-2 font-semibold">{r.tendonEnd}</td>
+                    <td className="p-2 whitespace-nowrap">{formatDateTime(r.deviceTime, projectTimeZone(project))}</td>
                     <td className="p-2">{r.equipmentSet}</td>
                     <td className="p-2 text-right">
-                      {pressure(r.final_pressure_mpa)}
+                      {pressure(r.finalPressureMPa)}
                       {(() => {
                         const off = storedGaugeOffTarget(r.entered);
                         return off ? (
@@ -257,18 +257,12 @@ export default async function TendonPage({ params }: { params: Promise<{ project
                       })()}
                     </td>
                     <td className="p-2 text-right font-semibold">
-                      {len(r.measured_mm)}
-                      {r.wire_breaks > 0 ? ` · ${r.wire_breaks} wire break${r.wire_breaks > 1 ? "s" : ""}` : ""}
-                      <RereadNote
-                        line={rereadLine(project, {
-                          measuredMm: r.measured_mm,
-                          firstReadingMm: r.first_reading_mm,
-                          rereadDeclinedReason: r.reread_declined_reason,
-                        })}
-                      />
+                      {len(r.measuredMm)}
+                      {r.wireBreaks > 0 ? ` · ${r.wireBreaks} wire break${r.wireBreaks > 1 ? "s" : ""}` : ""}
+                      <RereadNote line={rereadLine(project, r)} />
                     </td>
                     <td className="p-2">
-                      {r.author}
+                      {r.authorName}
                       {r.revision > 1 ? ` (revision ${r.revision})` : ""}
                     </td>
                   </tr>

@@ -86,7 +86,7 @@ export default async function TendonFlagsPage({
             data-testid="link-flag-closed"
           >
             {requestedFlag.reference}, the flag in the link, is closed
-            {requestedFlag.closed_at ? ` since ${formatDateTime(requestedFlag.closed_at, timeZone)}` : ""}
+            {requestedFlag.closedAt ? ` since ${formatDateTime(requestedFlag.closedAt, timeZone)}` : ""}
             {requestedFlag.closedByName ? ` by ${requestedFlag.closedByName}` : ""}; nothing more waits on it.
             {open.length > 0
               ? ` ${open.length === 1 ? "One other flag is" : `${open.length} other flags are`} open on this tendon: choose below the one you decide.`
