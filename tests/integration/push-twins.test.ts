@@ -46,10 +46,10 @@ function expectAgreeing(ops: SyncOp[], first: OpResult[], second: OpResult[]) {
     (_, i) => [first[i]!, second[i]!].find((r) => r.status === "applied")?.evaluation?.flagKinds,
   );
   ops.forEach((op, i) => {
-    const pair = [first[i]!, second[i]!];
+    const pair: [OpResult, OpResult] = [first[i]!, second[i]!];
     expect(pair.map((r) => r.opId)).toEqual([op.opId, op.opId]);
     expect(pair.map((r) => r.status).sort()).toEqual(["applied", "duplicate"]);
-    const [applied, duplicate] = pair[0]!.status === "applied" ? pair : [pair[1]!, pair[0]!];
+    const [applied, duplicate] = pair[0].status === "applied" ? pair : [pair[1], pair[0]];
     expect(applied.evaluation).toBeDefined();
     expect({ ...duplicate, status: "applied" }).toEqual(applied);
   });
