@@ -6,7 +6,7 @@ import { pushOps } from "@/lib/server/push-ops";
 import { releasePour } from "@/lib/server/release-pour";
 import { reopenPour } from "@/lib/server/reopen-pour";
 import type { TestDatabase } from "../support/database";
-import { makePour, makeTendons } from "../support/factories";
+import { makePour } from "../support/factories";
 import { demoPerson } from "../support/records";
 import { syncWorld, createOp, type SyncWorld } from "./sync-fixtures";
 
@@ -24,7 +24,7 @@ beforeAll(async () => {
 });
 afterAll(() => t.drop());
 
-/** A pour of our own with a two-end and a one-end tendon copied from the demo schedule. */
+/** A pour of our own with a two-end and a one-end tendon shaped as the demo schedule's. */
 async function pourWithTendons(name: string): Promise<{ pourId: string; both: string; single: string }> {
   const demoPour = await t.db
     .selectFrom("pours")
@@ -35,17 +35,19 @@ async function pourWithTendons(name: string): Promise<{ pourId: string; both: st
   const ids: string[] = [];
   for (const ends of ["both", "A"] as const) {
     const source = w.tendons.find((x) => x.ends === ends)!;
-    const s = await t.db.selectFrom("tendons").selectAll().where("id", "=", source.id).executeTakeFirstOrThrow();
-    const [row] = await makeTendons(t.db, { projectId: w.projectId, pourId: pour.id }, [`PS-${ends}`], {
-      kind: s.kind,
-      strandSize: s.strand_size,
-      strandCount: s.strand_count,
-      segments: s.segments,
-      ends: s.ends,
-      jackGripMm: s.jack_grip_mm,
-      strandLotId: s.strand_lot_id,
-    });
-    ids.push(row!.id);
+    const row = await t.db
+      .insertInto("tendons")
+      .columns(["project_id", "pour_id", "tag", "kind", "strand_size", "strand_count", "segments", "ends"])
+      .expression((eb) =>
+        eb
+          .selectFrom("tendons")
+          .select(["project_id", eb.val(pour.id).as("pour_id"), eb.val(`PS-${ends}`).as("tag"), "kind"])
+          .select(["strand_size", "strand_count", "segments", "ends"])
+          .where("id", "=", source.id),
+      )
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    ids.push(row.id);
   }
   return { pourId: pour.id, both: ids[0]!, single: ids[1]! };
 }
