@@ -34,6 +34,7 @@ import * as dailyAttestation from "./2026-12-12T140000-daily-attestation";
 import * as gaugeOffTarget from "./2026-12-13T100000-gauge-off-target";
 import * as referenceNumbers from "./2026-12-13T140000-reference-numbers";
 import * as tendonJackingForce from "./2026-12-14T010000-tendon-jacking-force";
+import * as pourStatesPerPour from "./2026-12-14T090000-pour-states-per-pour";
 
 // A static index: vitest and bundlers cannot import .ts migrations from a folder scan.
 // Keys sort in time order; append new migrations at the end.
@@ -73,4 +74,5 @@ export const migrations: Record<string, Migration> = {
   "2026-12-13T100000-gauge-off-target": gaugeOffTarget,
   "2026-12-13T140000-reference-numbers": referenceNumbers,
   "2026-12-14T010000-tendon-jacking-force": tendonJackingForce,
+  "2026-12-14T090000-pour-states-per-pour": pourStatesPerPour,
 };

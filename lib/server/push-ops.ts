@@ -1,5 +1,5 @@
 import "server-only";
-import { duplicateOf, rejectedOp, type OpClaim } from "./applied-ops";
+import { duplicateOf, findClaim, rejectedOp, type OpClaim } from "./applied-ops";
 import { setTimeout as sleep } from "node:timers/promises";
 import { sql, type Kysely } from "kysely";
 import { jsonArrayFrom, jsonObjectFrom } from "kysely/helpers/postgres";
@@ -37,7 +37,9 @@ import { isReleasedPourRefusal, RELEASED_POUR_MESSAGE } from "./require-open-pou
  *
  * - a second delivery finds the claim and answers "duplicate" with the stored result (the
  *   claims of a whole batch are looked up in one query before its ops run, so a re-sent batch
- *   costs no read of any tendon); a concurrent one waits on the key and then does the same;
+ *   costs no read of any tendon); a concurrent one on the same server waits for the first to
+ *   end and then does the same, and one that got as far as its write (on another server) waits
+ *   there on the key, is refused by the guard and answers from the claim;
  * - when another write stored a record of the tendon since the state was read, the op reads the
  *   state again and retries, so two ends stored at the same moment are judged together;
  * - a conflict or a rejection is decided from the read, before anything is written; the read
@@ -333,6 +335,9 @@ const RETRY = Symbol("read again");
 
 /** sync_write_guard refused the write (its hint says which row was missing). */
 const refusedByGuard = (error: unknown): boolean => (error as { code?: unknown } | null)?.code === "TL409";
+/** The guard refused because the op id was claimed first: a concurrent delivery of this op committed. */
+const claimedFirst = (error: unknown): boolean =>
+  refusedByGuard(error) && (error as { hint?: unknown }).hint === "claim";
 
 async function attemptOp(
   db: Db,
@@ -405,9 +410,15 @@ async function attemptOp(
       sql`select sync_write_guard((select count(*) from claim), (select count(*) from raised), (select count(*) from stored))`,
     );
   } catch (error) {
-    // Another write came first: a concurrent delivery of this op (the claim), another record of
-    // the tendon (its version) or a record taking this one's id or revision. The read covers each
-    // of them, so reading again tells which answer is right.
+    // A concurrent delivery of this op committed first (another server's, or one this process
+    // did not see): its claim is the answer, read by its key without the tendon's state again.
+    if (claimedFirst(error)) {
+      const claim = await findClaim(db, op.opId);
+      if (claim) return duplicateOf(op, user.id, claim);
+    }
+    // Another write came first: another record of the tendon (its version) or a record taking
+    // this one's id or revision. The read covers each of them, so reading again tells which
+    // answer is right.
     if (refusedByGuard(error) || lostConcreteFlagRace(error)) return RETRY;
     if (isReleasedPourRefusal(error)) return rejected(op, "RELEASED", RELEASED_POUR_MESSAGE, { pourId: ["Released."] });
     const refusal = refusedRow(op, error);
@@ -457,13 +468,55 @@ async function applyOp(
     return checked;
   }
   if (claimed) return duplicateOf(op, user.id, claimed);
+  // Another delivery of this op id is being applied by this server (a retry racing its
+  // original): wait for it and answer from its claim, instead of reading and judging the tendon
+  // a second time only for the write's guard to refuse it.
+  const flights = opsInFlight(db);
+  for (let other = flights.get(op.opId); other; other = flights.get(op.opId)) {
+    await other;
+    const claim = await findClaim(db, op.opId);
+    if (claim) return duplicateOf(op, user.id, claim);
+  }
+  const flight = applyChecked(db, input, op, checked.payload, checked.day);
+  const settled = flight.then(
+    () => undefined,
+    () => undefined,
+  );
+  flights.set(op.opId, settled);
+  try {
+    return await flight;
+  } finally {
+    if (flights.get(op.opId) === settled) flights.delete(op.opId);
+  }
+}
+
+async function applyChecked(
+  db: Db,
+  input: { user: Pusher; deviceId: string; hooks?: PushHooks },
+  op: SyncOp,
+  p: RecordPayload,
+  day: string,
+): Promise<OpResult> {
   for (let attempt = 1; ; attempt++) {
-    const result = await attemptOp(db, input, op, checked.payload, checked.day, attempt);
+    const result = await attemptOp(db, input, op, p, day, attempt);
     if (result !== RETRY) return answered(op, result, input.hooks);
     if (attempt >= MAX_ATTEMPTS)
       throw new Error(`op ${op.opId}: the tendon kept changing under ${MAX_ATTEMPTS} attempts`);
     await sleep(Math.random() * 5 * attempt);
   }
+}
+
+/**
+ * The record ops this server is applying, by op id, per database handle (one per server
+ * process). Only a shortcut: a delivery that does not see its twin here (another server's, or
+ * one arriving after it ended) is decided by the claim and the write's guard as before.
+ */
+const inFlight = new WeakMap<Db, Map<string, Promise<void>>>();
+
+function opsInFlight(db: Db): Map<string, Promise<void>> {
+  let flights = inFlight.get(db);
+  if (!flights) inFlight.set(db, (flights = new Map()));
+  return flights;
 }
 
 /** Calls the afterCommit hook for an applied op; a failure there stands for a lost answer. */
