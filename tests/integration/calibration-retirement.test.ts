@@ -1,4 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { calibrationCorrectionSchema, calibrationRetirementSchema, pickCalibration } from "@/lib/schemas/calibration";
 import { addCalibration } from "@/lib/server/add-calibration";
 import { correctCalibration } from "@/lib/server/correct-calibration";
@@ -10,22 +10,14 @@ import {
   previewCalibrationRetirement,
 } from "@/lib/server/preview-calibration-correction";
 import { retireCalibration } from "@/lib/server/retire-calibration";
-import { insertRecord, seededDemo, type DemoFixture, demoPerson } from "../support/records";
-import { type TestDatabase } from "../support/database";
+import { insertRecord, seededDemoPerFile, demoPerson } from "../support/records";
 
 // A calibration typed wrong is corrected, one found bad is retired, each with a reason and audited,
 // on real PostgreSQL: the old figures stay, so the stored evaluation keeps the calibration it used;
 // the tendons that stood on it are judged again; a retired calibration is never picked again.
 // Calibration figures are invented (a straight line of about 5.1 kN per MPa, like a 100 t jack).
 
-let t: TestDatabase;
-let fx: DemoFixture;
-beforeAll(async () => {
-  ({ t, fx } = await seededDemo());
-});
-afterAll(async () => {
-  await t.drop();
-});
+const { t, fx } = seededDemoPerFile();
 
 const points = (slope: number) => [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: slope * p - 900 }));
 type Used = { id: string; slope_n_per_mpa: number };

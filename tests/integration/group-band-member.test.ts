@@ -1,5 +1,4 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 import { settingsFields } from "@/lib/schemas/project-settings";
 import { addCalibration } from "@/lib/server/add-calibration";
 import { createEquipmentSet } from "@/lib/server/create-equipment-set";
@@ -7,7 +6,7 @@ import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getProjectSettings } from "@/lib/server/get-project-settings";
 import { previewSettingsChange } from "@/lib/server/preview-settings-change";
 import { updateProjectSettings } from "@/lib/server/update-project-settings";
-import { insertRecord, predictionAsRead } from "../support/records";
+import { HALF_INCH, insertRecord, predictionAsRead } from "../support/records";
 import { makePour, makeProject, makeTendons } from "../support/factories";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
@@ -21,8 +20,6 @@ import { createTestDatabase, type TestDatabase } from "../support/database";
 // Jacking at 0.80·fpu·A (ACI 318-19 Table 20.3.2.5.1, from memory), 0.5 in strand 41,300 lbf
 // (ASTM A416 Table 1). The settings preview is checked on the same change: a group band moves
 // flags, not verdicts, and the preview counts them.
-
-const HALF_INCH = ASTM_A416_GRADE_270.find((s) => s.designation === "0.5 in")!;
 
 let t: TestDatabase;
 beforeAll(async () => {

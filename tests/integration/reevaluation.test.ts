@@ -1,5 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
+import { describe, expect, it } from "vitest";
 import { dayInZone } from "@/lib/format/dates";
 import { addCalibration } from "@/lib/server/add-calibration";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
@@ -8,8 +7,7 @@ import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { previewSettingsChange } from "@/lib/server/preview-settings-change";
 import { updateProjectSettings } from "@/lib/server/update-project-settings";
 import { judgeStressing } from "@/lib/stressing/judge";
-import { predictionAsRead, seededDemo, type DemoFixture, insertDemoRecord, pressureForForce } from "../support/records";
-import { type TestDatabase } from "../support/database";
+import { predictionAsRead, seededDemoPerFile, HALF_INCH, insertDemoRecord, pressureForForce } from "../support/records";
 import { settingsFields } from "@/lib/schemas/project-settings";
 
 // A change of the project's basis judges the stressed tendons again, on real PostgreSQL: the admin
@@ -17,16 +15,7 @@ import { settingsFields } from "@/lib/schemas/project-settings";
 // raises the flags the rules now find and closes the open ones they no longer find.
 // Jacking at 0.80·fpu·A (ACI 318-19 Table 20.3.2.5.1), 0.5 in strand 41,300 lbf (ASTM A416 Table 1).
 
-let t: TestDatabase;
-let fx: DemoFixture;
-beforeAll(async () => {
-  ({ t, fx } = await seededDemo());
-});
-afterAll(async () => {
-  await t.drop();
-});
-
-const HALF_INCH = ASTM_A416_GRADE_270.find((s) => s.designation === "0.5 in")!;
+const { t, fx } = seededDemoPerFile();
 
 describe("re-evaluation when the project's basis changes", () => {
   it("previews, re-judges with the reason, raises and closes flags by the rules", async () => {

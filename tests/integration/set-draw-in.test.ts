@@ -1,6 +1,5 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { uuidv7 } from "uuidv7";
-import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 import { equipmentSetSchema } from "@/lib/schemas/equipment";
 import { addCalibration } from "@/lib/server/add-calibration";
 import { createEquipmentSet } from "@/lib/server/create-equipment-set";
@@ -8,24 +7,15 @@ import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getPourReport } from "@/lib/server/get-pour-report";
 import { RECORD_COLUMNS, recordRows } from "@/lib/reports/pour-rows";
 import { listEquipmentSets } from "@/lib/server/list-equipment-sets";
-import { predictionAsRead, seededDemo, type DemoFixture } from "../support/records";
-import { type TestDatabase } from "../support/database";
+import { predictionAsRead, seededDemoPerFile, HALF_INCH } from "../support/records";
 
 // An equipment set's draw-in per re-grip, on real PostgreSQL: stored with the set, listed, and used
 // by the server's evaluation for a ram-travel record that types none, which says which value it used.
 // Jacking at 0.80·fpu·A (ACI 318-19 Table 20.3.2.5.1, from memory), 0.5 in strand 41,300 lbf
 // (ASTM A416 Table 1). The 1/4 in draw-in and 18 in grip are our test values.
 
-let t: TestDatabase;
-let fx: DemoFixture;
-beforeAll(async () => {
-  ({ t, fx } = await seededDemo());
-});
-afterAll(async () => {
-  await t.drop();
-});
+const { t, fx } = seededDemoPerFile();
 
-const HALF_INCH = ASTM_A416_GRADE_270.find((s) => s.designation === "0.5 in")!;
 const DRAW_IN_MM = 6.35; // 1/4 in
 const GRIP_MM = 457.2; // 18 in
 const SLOPE = 6000; // N per MPa, zero intercept (our test calibration)

@@ -1,4 +1,6 @@
+import { afterAll, beforeAll } from "vitest";
 import { uuidv7 } from "uuidv7";
+import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 import type { Db } from "@/db/connect";
 import type { TendonEnd } from "@/lib/schemas/domain";
 import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
@@ -22,6 +24,27 @@ export async function seededDemo(): Promise<{ t: TestDatabase; fx: DemoFixture }
   await seedDemo(t.db);
   return { t, fx: await demoFixture(t.db) };
 }
+
+/**
+ * `seededDemo` for a whole test file: made in the file's beforeAll, dropped in its afterAll. The
+ * two objects are filled when the beforeAll has run: read them in tests and hooks only.
+ */
+export function seededDemoPerFile(): { t: TestDatabase; fx: DemoFixture } {
+  const t = {} as TestDatabase;
+  const fx = {} as DemoFixture;
+  beforeAll(async () => {
+    const made = await seededDemo();
+    Object.assign(t, made.t);
+    Object.assign(fx, made.fx);
+  });
+  afterAll(async () => {
+    await t.drop?.();
+  });
+  return { t, fx };
+}
+
+/** ASTM A416 Grade 270 0.5 in strand (the demo's), from the strand table in lib/elongation. */
+export const HALF_INCH = ASTM_A416_GRADE_270.find((s) => s.designation === "0.5 in")!;
 
 export async function demoFixture(db: Db) {
   const project = await db.selectFrom("projects").select(["id"]).where("code", "=", "AYP").executeTakeFirstOrThrow();
