@@ -3,6 +3,7 @@ import { MM_PER_FOOT, MM_PER_INCH, MPA_PER_PSI } from "@/lib/units";
 import { findStrandSize } from "@/lib/elongation";
 import { judgeStressing, stressingDay, type JudgeInput, type JudgeRecord } from "./judge";
 import { findFlags } from "./rules";
+import { judgeRecord } from "@/tests/support/judge-record";
 
 // Check values are worked by hand from P·L/(A·E) with the exact friction integral of a straight
 // tendon, ∫Pj·e^(−Kx)dx = Pj·(1 − e^(−KL))/K, written out below independently of the engine.
@@ -63,26 +64,14 @@ function input(over: Partial<JudgeInput> & { lengthMm?: number; ends?: "A" | "B"
 let n = 0;
 function record(over: Partial<JudgeRecord> = {}): JudgeRecord {
   n += 1;
-  return {
+  return judgeRecord({
     id: `r${n}`,
     chainId: `c${n}`,
-    revision: 1,
-    end: "A",
     deviceTime: `2026-12-02T15:${String(n % 60).padStart(2, "0")}:00Z`,
     equipmentSetId: "set-1",
-    calibrationId: null,
-    expiredCalibrationReason: null,
-    readingMethod: "marks",
-    initialPressureMPa: null,
     finalPressureMPa: TARGET_MPA,
-    measuredMm: 100,
-    strokeCount: 1,
-    drawInMm: null,
-    seatingMm: null,
-    stressingOrder: null,
-    wireBreaks: 0,
     ...over,
-  };
+  });
 }
 
 describe("judgeStressing: each end the way it was read", () => {

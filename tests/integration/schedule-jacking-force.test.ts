@@ -12,6 +12,7 @@ import type { TendonInput } from "@/lib/schemas/tendon";
 import { N_PER_KIP } from "@/lib/units";
 import { seededDemo, type DemoFixture, insertDemoRecord } from "../support/records";
 import { makePour } from "../support/factories";
+import { judgeRecord } from "../support/judge-record";
 import { type TestDatabase } from "../support/database";
 
 // A tendon schedule imported with its own jacking force, on real PostgreSQL: the tendon is judged
@@ -70,14 +71,7 @@ async function netPrediction(tendonId: string) {
   const probe = judgeStressing({
     ...basis,
     sets: [{ id: "s", name: "s", jackGripMm: null, maxForceN: null, calibrations: [] }],
-    records: [
-      {
-        ...{ id: "p", chainId: "p", revision: 1, end: "A", deviceTime: "2026-12-01T16:00:00Z" },
-        ...{ equipmentSetId: "s", calibrationId: null, expiredCalibrationReason: null, readingMethod: "marks" },
-        ...{ initialPressureMPa: null, finalPressureMPa: 30, measuredMm: 100, strokeCount: 1, drawInMm: null },
-        ...{ seatingMm: null, stressingOrder: null, wireBreaks: 0 },
-      },
-    ],
+    records: [judgeRecord({ id: "p", chainId: "p", equipmentSetId: "s" })],
   });
   return probe.ends[0]!.predictedMm;
 }

@@ -10,6 +10,7 @@ import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { seedDemo } from "@/scripts/seed/demo";
 import { createTestDatabase, type TestDatabase } from "./database";
 import { makeTendons, type TendonShape } from "./factories";
+import { judgeRecord } from "./judge-record";
 
 /** Fixtures for tests that need stressing records without going through the tablet's sync. */
 
@@ -86,6 +87,10 @@ export async function insertRecord(
     receivedAt?: Date;
     restressOfDispositionId?: string;
     base?: { id: string; chainId: string; revision: number; reason: string };
+    /** What the crew typed, as the tablet stores it (default: the measured length in mm). */
+    entered?: unknown;
+    seatingMm?: number | null;
+    remarks?: string | null;
   },
 ): Promise<string> {
   const id = uuidv7();
@@ -105,7 +110,7 @@ export async function insertRecord(
       initial_pressure_mpa: input.initialPressureMPa ?? null,
       final_pressure_mpa: input.finalPressureMPa,
       reading_method: "marks",
-      entered: JSON.stringify({ unit: "mm", measuredMm: input.measuredMm }),
+      entered: JSON.stringify(input.entered ?? { unit: "mm", measuredMm: input.measuredMm }),
       measured_mm: input.measuredMm,
       wire_breaks: input.wireBreaks ?? 0,
       device_time: input.deviceTime ?? new Date().toISOString(),
@@ -113,6 +118,8 @@ export async function insertRecord(
       device_id: "test-device",
       author_user_id: input.authorId,
       restress_of_disposition_id: input.restressOfDispositionId ?? null,
+      ...(input.seatingMm !== undefined ? { seating_mm: input.seatingMm } : {}),
+      ...(input.remarks !== undefined ? { remarks: input.remarks } : {}),
       ...(input.receivedAt ? { received_at: input.receivedAt } : {}),
     })
     .execute();
@@ -154,27 +161,7 @@ export async function predictionAsRead(
     tendon: basis.tendon,
     lot: basis.lot,
     sets: [{ id: "s", name: "s", jackGripMm: input.jackGripMm ?? null, maxForceN: null, calibrations: [] }],
-    records: [
-      {
-        id: "p",
-        chainId: "p",
-        revision: 1,
-        end: "A",
-        deviceTime: "2026-12-01T16:00:00Z",
-        equipmentSetId: "s",
-        calibrationId: null,
-        expiredCalibrationReason: null,
-        readingMethod: input.method ?? "marks",
-        initialPressureMPa: null,
-        finalPressureMPa: 30,
-        measuredMm: 100,
-        strokeCount: 1,
-        drawInMm: null,
-        seatingMm: null,
-        stressingOrder: null,
-        wireBreaks: 0,
-      },
-    ],
+    records: [judgeRecord({ equipmentSetId: "s", readingMethod: input.method ?? "marks" })],
   });
   return { mm: probe.ends[0]!.predictedMm, setMm: probe.ends[0]!.setMm };
 }
