@@ -10,6 +10,7 @@ import { getPourReport } from "@/lib/server/get-pour-report";
 import { recordDisposition } from "@/lib/server/record-disposition";
 import { releasePour } from "@/lib/server/release-pour";
 import {
+  copyDemoTendons,
   demoPrediction,
   insertDemoRecord,
   insertRecord,
@@ -19,6 +20,7 @@ import {
 } from "../support/records";
 import { MomentOld } from "@/db/moment-old";
 import { pdfParsed } from "../support/pdf-text";
+import { makePour } from "../support/factories";
 import { type TestDatabase } from "../support/database";
 
 let t: TestDatabase;
@@ -37,39 +39,18 @@ beforeAll(async () => {
     .where("project_id", "=", fx.projectId)
     .where("name", "=", "L2 Pour 2")
     .executeTakeFirstOrThrow();
-  const pour = await t.db
-    .insertInto("pours")
-    .values({ project_id: fx.projectId, name: "Report pour", concrete_strength_mpa: 30 })
-    .returning("id")
-    .executeTakeFirstOrThrow();
-  pourId = pour.id;
+  pourId = (await makePour(t.db, fx.projectId, { name: "Report pour", concreteStrengthMPa: 30 })).id;
   const template = await t.db
     .selectFrom("tendons")
-    .selectAll()
+    .select("tag")
     .where("project_id", "=", fx.projectId)
     .where("pour_id", "=", source.id)
     .orderBy("tag")
     .execute();
   expect(template).toHaveLength(50);
-  tags = [];
+  tags = template.map((row) => `R${row.tag}`);
   for (const row of template) {
-    const tag = `R${row.tag}`;
-    tags.push(tag);
-    await t.db
-      .insertInto("tendons")
-      .values({
-        project_id: fx.projectId,
-        pour_id: pourId,
-        tag,
-        kind: row.kind,
-        strand_size: row.strand_size,
-        strand_count: row.strand_count,
-        segments: JSON.stringify(row.segments),
-        ends: row.ends,
-        jack_grip_mm: row.jack_grip_mm,
-        strand_lot_id: row.strand_lot_id,
-      })
-      .execute();
+    await copyDemoTendons(t.db, { projectId: fx.projectId, pourId }, [`R${row.tag}`], { templateTag: row.tag });
   }
   engineer = await demoPerson(t.db, "engineer@demo.tautline.test");
 

@@ -7,7 +7,7 @@ import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getPourReport } from "@/lib/server/get-pour-report";
 import { RECORD_COLUMNS, recordRows } from "@/lib/reports/pour-rows";
 import { listEquipmentSets } from "@/lib/server/list-equipment-sets";
-import { predictionAsRead, seededDemoPerFile, HALF_INCH } from "../support/records";
+import { pourOfDemoCopies, predictionAsRead, seededDemoPerFile, HALF_INCH } from "../support/records";
 
 // An equipment set's draw-in per re-grip, on real PostgreSQL: stored with the set, listed, and used
 // by the server's evaluation for a ram-travel record that types none, which says which value it used.
@@ -49,38 +49,11 @@ async function setWithDrawIn(name: string, drawInMm: number | null) {
 
 /** A one-end tendon of our own (a copy of the demo's 2-1-U06, no grip of its own) in a pour of our own. */
 async function tendonCopy(tag: string) {
-  const source = await t.db.selectFrom("tendons").selectAll().where("tag", "=", "2-1-U06").executeTakeFirstOrThrow();
-  const sourcePour = await t.db
-    .selectFrom("pours")
-    .select("concrete_strength_mpa")
-    .where("id", "=", source.pour_id)
-    .executeTakeFirstOrThrow();
-  const pour = await t.db
-    .insertInto("pours")
-    .values({
-      project_id: fx.projectId,
-      name: `Draw-in ${tag}`,
-      concrete_strength_mpa: sourcePour.concrete_strength_mpa,
-    })
-    .returning("id")
-    .executeTakeFirstOrThrow();
-  return t.db
-    .insertInto("tendons")
-    .values({
-      project_id: fx.projectId,
-      pour_id: pour.id,
-      tag,
-      kind: source.kind,
-      strand_size: source.strand_size,
-      strand_count: source.strand_count,
-      segments: JSON.stringify(source.segments),
-      ends: source.ends,
-      jack_grip_mm: null,
-      shop_elongation_mm: null,
-      strand_lot_id: source.strand_lot_id,
-    })
-    .returning(["id", "pour_id"])
-    .executeTakeFirstOrThrow();
+  const { tendons } = await pourOfDemoCopies(t.db, fx.projectId, `Draw-in ${tag}`, [tag], {
+    templateTag: "2-1-U06",
+    jackGripMm: null,
+  });
+  return tendons[0]!;
 }
 
 /** Gross plus grip for ram travel on this tendon, from the judge (one stroke, nothing deducted). */

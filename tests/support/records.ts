@@ -9,7 +9,7 @@ import { predictTendon } from "@/lib/stressing/basis";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { seedDemo } from "@/scripts/seed/demo";
 import { createTestDatabase, type TestDatabase } from "./database";
-import { makeTendons, type TendonShape } from "./factories";
+import { makePour, makeTendons, type TendonShape } from "./factories";
 import { judgeRecord } from "./judge-record";
 
 /** Fixtures for tests that need stressing records without going through the tablet's sync. */
@@ -222,6 +222,29 @@ export async function copyDemoTendons(
     strandLotId: template.strand_lot_id,
     ...changes,
   });
+}
+
+/**
+ * A pour of the test's own, `name`d, whose concrete is as confirmed as the pour of the demo tendon
+ * it copies (`templateTag`, by default 2-1-U01), with copies of that tendon tagged `tags`, as
+ * `copyDemoTendons` makes them (`options` changes their shape).
+ */
+export async function pourOfDemoCopies(
+  db: Db,
+  projectId: string,
+  name: string,
+  tags: readonly string[],
+  options: Partial<TendonShape> & { templateTag?: string } = {},
+) {
+  const source = await db
+    .selectFrom("tendons")
+    .innerJoin("pours", "pours.id", "tendons.pour_id")
+    .select("pours.concrete_strength_mpa")
+    .where("tendons.project_id", "=", projectId)
+    .where("tendons.tag", "=", options.templateTag ?? "2-1-U01")
+    .executeTakeFirstOrThrow();
+  const pour = await makePour(db, projectId, { name, concreteStrengthMPa: source.concrete_strength_mpa });
+  return { pourId: pour.id, tendons: await copyDemoTendons(db, { projectId, pourId: pour.id }, tags, options) };
 }
 
 /**
