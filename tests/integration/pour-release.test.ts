@@ -107,6 +107,21 @@ const crewSession = () =>
   }) as unknown as Parameters<typeof pullChanges>[1]["user"];
 const engineer = () => ({ ...people.engineer, role: "engineer" as const });
 
+/** The inspector's paperwork correction of the tendon's record: the length copied 1 mm short. */
+async function correctOneMm(tendonId: string) {
+  const record = await t.db
+    .selectFrom("records")
+    .select(["id", "measured_mm"])
+    .where("tendon_id", "=", tendonId)
+    .executeTakeFirstOrThrow();
+  return correctRecord(t.db, {
+    projectId: w.projectId,
+    recordId: record.id,
+    by: { id: people.inspector.id },
+    correction: { reason: "Copied from the wrong line.", measuredMm: record.measured_mm + 1 },
+  });
+}
+
 type Release = Parameters<typeof releasePour>[1];
 /** A release of the pour by `by` (the engineer unless said), signed as the demo's engineer signs. */
 const release = (pourId: string, statement: string, by: Release["by"] = engineer(), hooks?: Release["hooks"]) =>
@@ -380,17 +395,7 @@ describe("reopen", () => {
     });
 
     // The paperwork correction refused while the pour stood released is taken now.
-    const record = await t.db
-      .selectFrom("records")
-      .select(["id", "measured_mm"])
-      .where("tendon_id", "=", tendonIds[0]!)
-      .executeTakeFirstOrThrow();
-    const corrected = await correctRecord(t.db, {
-      projectId: w.projectId,
-      recordId: record.id,
-      by: { id: people.inspector.id },
-      correction: { reason: "Copied from the wrong line.", measuredMm: record.measured_mm + 1 },
-    });
+    const corrected = await correctOneMm(tendonIds[0]!);
     expect(corrected.evaluation).toMatchObject({ verdict: "in band" });
 
     // The list shows its times in the project's zone, not the server's or UTC.
@@ -486,17 +491,7 @@ describe("the release's report hash", () => {
     const released = await release(pour.pourId, HASH_RELEASE, engineer(), {
       afterDraw: async () => {
         // A paperwork correction stores a new record revision of the tendon while the report is drawn.
-        const record = await t.db
-          .selectFrom("records")
-          .select(["id", "measured_mm"])
-          .where("tendon_id", "=", pour.tendonIds[0]!)
-          .executeTakeFirstOrThrow();
-        const corrected = await correctRecord(t.db, {
-          projectId: w.projectId,
-          recordId: record.id,
-          by: { id: people.inspector.id },
-          correction: { reason: "Copied from the wrong line.", measuredMm: record.measured_mm + 1 },
-        });
+        const corrected = await correctOneMm(pour.tendonIds[0]!);
         expect(corrected.evaluation).toMatchObject({ verdict: "in band" });
         lateRecordId = corrected.recordId;
         withLateRecord = await pourReportContentSha256(t.db, { projectId: w.projectId, pourId: pour.pourId });
