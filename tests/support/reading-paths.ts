@@ -104,15 +104,15 @@ export function perfectReading(
  * it is stressed from and in what order, each end's reading plan, and the set's draw-in per
  * re-grip (none: only what a record types). Spread into `fc.property` before a test's own draws.
  */
-export const tendonCase = [
-  fc.double({ min: 8_000, max: 60_000, noNaN: true }),
-  fc.double({ min: 0, max: 1.2, noNaN: true }),
-  fc.constantFrom("A" as const, "both" as const),
-  fc.constantFrom("sequential" as const, "simultaneous" as const),
-  endPlan,
-  endPlan,
-  fc.option(fc.double({ min: 0, max: 8, noNaN: true }), { nil: null }),
-] as const;
+export const tendonCase = fc.record({
+  lengthMm: fc.double({ min: 8_000, max: 60_000, noNaN: true }),
+  angleRad: fc.double({ min: 0, max: 1.2, noNaN: true }),
+  ends: fc.constantFrom("A" as const, "both" as const),
+  order: fc.constantFrom("sequential" as const, "simultaneous" as const),
+  planA: endPlan,
+  planB: endPlan,
+  setDrawIn: fc.option(fc.double({ min: 0, max: 8, noNaN: true }), { nil: null }),
+});
 
 export interface ReadingCase {
   lengthMm: number;
