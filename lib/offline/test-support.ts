@@ -2,6 +2,7 @@ import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import { uuidv7 } from "uuidv7";
 import type { RecordPayload } from "@/lib/schemas/record";
 import type { PullResponse } from "@/lib/schemas/sync";
+import type { FieldTendon } from "@/lib/schemas/sync";
 import { FieldDb, writeMeta, type SessionMeta } from "./db";
 
 /** A tablet database on fake-indexeddb for tests; `factory` lets a test reopen the same data. */
@@ -82,5 +83,19 @@ export function emptyPull(cursor: string, over: Partial<PullResponse> = {}): Pul
     removed: [],
     unavailable: [],
     ...over,
+  };
+}
+
+/** A one-end, single-strand 9 m tendon of the pour on the tablet (values need not match a real tendon). */
+export function fieldTendon(where: { id: string; projectId: string; pourId: string; tag: string }): FieldTendon {
+  return {
+    ...where,
+    kind: "unbonded_monostrand",
+    strandSize: "0.5 in",
+    strandCount: 1,
+    segments: [{ lengthMm: 9000, angleRad: 0 }],
+    ends: "A",
+    jackGripMm: null,
+    strandLotId: null,
   };
 }
