@@ -21,7 +21,14 @@ import { dailySnapshot } from "@/lib/reports/daily-rows";
 import { signDailyReport } from "@/lib/server/sign-daily-report";
 import { verifyReportFile } from "@/lib/server/verify-report-file";
 import { type TestDatabase } from "../support/database";
-import { copyDemoTendons, seededDemo, type DemoFixture, insertDemoRecord, demoPerson } from "../support/records";
+import {
+  copyDemoTendons,
+  openFlagIdOf,
+  seededDemo,
+  type DemoFixture,
+  insertDemoRecord,
+  demoPerson,
+} from "../support/records";
 import { makePour } from "../support/factories";
 
 // A pour of our own on the demo project, whose zone is set to America/Chicago. Day under test:
@@ -144,16 +151,9 @@ beforeAll(async () => {
     ["C-01", "liftoff_check"],
     ["C-02", "detension_restress"],
   ] as const) {
-    const flag = await t.db
-      .selectFrom("flags")
-      .select("id")
-      .where("tendon_id", "=", checkTendons[tag]!.id)
-      .where("status", "!=", "closed")
-      .orderBy("created_at")
-      .executeTakeFirstOrThrow();
     const { dispositionId } = await recordDisposition(t.db, {
       projectId: fx.projectId,
-      flagId: flag.id,
+      flagId: await openFlagIdOf(t.db, checkTendons[tag]!.id),
       engineer,
       disposition: {
         decision,

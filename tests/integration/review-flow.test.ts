@@ -5,7 +5,7 @@ import { correctRecord } from "@/lib/server/correct-record";
 import { findFlags } from "@/lib/server/find-flags";
 import { recordDisposition } from "@/lib/server/record-disposition";
 import { findReleaseBlockers, releasePour } from "@/lib/server/release-pour";
-import { copyDemoTendons, demoPerson, demoStressing, seededDemo, type DemoFixture } from "../support/records";
+import { copyDemoTendons, demoPerson, demoStressing, flagIdOf, seededDemo, type DemoFixture } from "../support/records";
 import { makePour } from "../support/factories";
 import { type TestDatabase } from "../support/database";
 
@@ -171,15 +171,10 @@ describe("from flag to release", () => {
       code: "CONFLICT",
     });
     // With the corrected record in band, the inspector may now close the flag as paperwork.
-    const flag = await t.db
-      .selectFrom("flags")
-      .select("id")
-      .where("tendon_id", "=", tendon.id)
-      .where("kind", "=", "out_of_band")
-      .executeTakeFirstOrThrow();
+    const flagId = await flagIdOf(t.db, tendon.id, "out_of_band");
     const closed = await addReview(t.db, {
       projectId: fx.projectId,
-      flagId: flag.id,
+      flagId,
       author: people.inspector,
       review: { kind: "closed_paperwork", body: "Transcription error; corrected revision is in band." },
     });

@@ -17,7 +17,9 @@ import { verifyReportFile } from "@/lib/server/verify-report-file";
 import {
   copyDemoTendons,
   demoPrediction,
+  flagIdOf,
   insertDemoRecord,
+  openFlagIdOf,
   seededDemo,
   type DemoFixture,
   demoPerson,
@@ -90,16 +92,11 @@ beforeAll(async () => {
     remarks: "Jack chattered near the end of the pull",
   });
   await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: s01.id, reason: "sync" });
-  const flag = await t.db
-    .selectFrom("flags")
-    .select("id")
-    .where("tendon_id", "=", s01.id)
-    .where("kind", "=", "out_of_band")
-    .executeTakeFirstOrThrow();
+  const flagId = await flagIdOf(t.db, s01.id, "out_of_band");
   const engineer = await demoPerson(t.db, "engineer@demo.tautline.test");
   const { dispositionId } = await recordDisposition(t.db, {
     projectId: fx.projectId,
-    flagId: flag.id,
+    flagId,
     engineer,
     disposition: {
       decision: "restress",
@@ -423,16 +420,9 @@ describe("lift-off checks and concrete results on the stressing report", () => {
       .where("tag", "=", "S-01")
       .executeTakeFirstOrThrow();
     // The engineer orders a lift-off check on S-01's open flag; the crew reads 3,900 psi at lift-off.
-    const open = await t.db
-      .selectFrom("flags")
-      .select("id")
-      .where("tendon_id", "=", s01.id)
-      .where("status", "!=", "closed")
-      .orderBy("created_at")
-      .executeTakeFirstOrThrow();
     const { dispositionId } = await recordDisposition(t.db, {
       projectId: fx.projectId,
-      flagId: open.id,
+      flagId: await openFlagIdOf(t.db, s01.id),
       engineer,
       disposition: {
         decision: "liftoff_check",

@@ -2,7 +2,7 @@ import { afterAll, beforeAll } from "vitest";
 import { uuidv7 } from "uuidv7";
 import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 import type { Db } from "@/db/connect";
-import type { TendonEnd } from "@/lib/schemas/domain";
+import type { FlagKind, TendonEnd } from "@/lib/schemas/domain";
 import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { judgeStressing } from "@/lib/stressing/judge";
 import { predictTendon } from "@/lib/stressing/basis";
@@ -164,6 +164,30 @@ export async function predictionAsRead(
     records: [judgeRecord({ equipmentSetId: "s", readingMethod: input.method ?? "marks" })],
   });
   return { mm: probe.ends[0]!.predictedMm, setMm: probe.ends[0]!.setMm };
+}
+
+/** The id of the tendon's first flag of `kind`; the test fails when there is none. */
+export async function flagIdOf(db: Db, tendonId: string, kind: FlagKind): Promise<string> {
+  const flag = await db
+    .selectFrom("flags")
+    .select("id")
+    .where("tendon_id", "=", tendonId)
+    .where("kind", "=", kind)
+    .orderBy("created_at")
+    .executeTakeFirstOrThrow();
+  return flag.id;
+}
+
+/** The id of the tendon's oldest flag that is not closed; the test fails when there is none. */
+export async function openFlagIdOf(db: Db, tendonId: string): Promise<string> {
+  const flag = await db
+    .selectFrom("flags")
+    .select("id")
+    .where("tendon_id", "=", tendonId)
+    .where("status", "!=", "closed")
+    .orderBy("created_at")
+    .executeTakeFirstOrThrow();
+  return flag.id;
 }
 
 /** The demo jacks grip 18 in (457.2 mm) of strand behind the anchor (the demo seed's sets). */
