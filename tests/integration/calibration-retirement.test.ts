@@ -10,6 +10,7 @@ import {
   previewCalibrationRetirement,
 } from "@/lib/server/preview-calibration-correction";
 import { retireCalibration } from "@/lib/server/retire-calibration";
+import { calibrationBody } from "../support/api-routes";
 import { insertRecord, seededDemoPerFile, demoPerson } from "../support/records";
 
 // A calibration typed wrong is corrected, one found bad is retired, each with a reason and audited,
@@ -19,7 +20,6 @@ import { insertRecord, seededDemoPerFile, demoPerson } from "../support/records"
 
 const { t, fx } = seededDemoPerFile();
 
-const points = (slope: number) => [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: slope * p - 900 }));
 type Used = { id: string; slope_n_per_mpa: number };
 const usedOf = (inputs: unknown) =>
   ((typeof inputs === "string" ? JSON.parse(inputs) : inputs) as { calibrations: Used[] }).calibrations;
@@ -41,13 +41,7 @@ describe("correcting and retiring a calibration", () => {
     const first = await addCalibration(t.db, {
       projectId: fx.projectId,
       setId,
-      values: {
-        calibratedOn: "2026-11-02",
-        validUntil: null,
-        laboratory: null,
-        certificateAttachmentId: null,
-        points: points(5100),
-      },
+      values: calibrationBody("2026-11-02", 5100),
     });
     // A one-end tendon on a pour not yet stressed, read with this set (the record names no calibration).
     const tendon = await t.db
@@ -92,13 +86,7 @@ describe("correcting and retiring a calibration", () => {
     expect(short.error?.issues.map((i) => i.path.join("."))).toEqual(["reason"]);
     const future = calibrationCorrectionSchema.safeParse({
       reason: "The certificate's last point was typed wrong.",
-      calibration: {
-        calibratedOn: "2999-01-01",
-        validUntil: null,
-        laboratory: null,
-        certificateAttachmentId: null,
-        points: points(5200),
-      },
+      calibration: calibrationBody("2999-01-01", 5200),
     });
     expect(future.error?.issues.map((i) => i.path.join("."))).toEqual(["calibration.calibratedOn"]);
 
@@ -110,13 +98,7 @@ describe("correcting and retiring a calibration", () => {
       calibrationId: first.calibrationId,
       by: admin,
       reason: "Forces were copied from the 2025 certificate; these are the 2026 ones.",
-      values: {
-        calibratedOn: "2026-11-02",
-        validUntil: null,
-        laboratory: null,
-        certificateAttachmentId: null,
-        points: points(5300),
-      },
+      values: calibrationBody("2026-11-02", 5300),
     };
     const counts = async () => ({
       calibrations: (await t.db.selectFrom("calibrations").select("id").where("equipment_set_id", "=", setId).execute())
@@ -140,7 +122,7 @@ describe("correcting and retiring a calibration", () => {
     const addition = {
       projectId: fx.projectId,
       setId,
-      values: { ...correction.values, calibratedOn: "2026-11-20", points: points(5250) },
+      values: { ...correction.values, calibratedOn: "2026-11-20", points: calibrationBody("2026-11-20", 5250).points },
     };
     const added = await previewAddCalibration(t.db, addition);
     expect(added).toMatchObject({ rejudged: 1 });

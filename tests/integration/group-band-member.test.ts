@@ -7,6 +7,7 @@ import { getProjectSettings } from "@/lib/server/get-project-settings";
 import { previewSettingsChange } from "@/lib/server/preview-settings-change";
 import { updateProjectSettings } from "@/lib/server/update-project-settings";
 import { HALF_INCH, insertRecord, predictionAsRead } from "../support/records";
+import { calibrationBody } from "../support/api-routes";
 import { makePour, makeProject, makeTendons } from "../support/factories";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
@@ -52,13 +53,7 @@ describe("the group-average band of a schedule with member groups", () => {
     await addCalibration(t.db, {
       projectId: project.id,
       setId,
-      values: {
-        calibratedOn: "2026-11-02",
-        validUntil: null,
-        laboratory: null,
-        certificateAttachmentId: null,
-        points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })),
-      },
+      values: calibrationBody("2026-11-02"),
     });
     const pressure = (0.8 * HALF_INCH.minBreakingStrengthN + 900) / 5100;
     const pour = await makePour(t.db, project.id, { name: "Level 3 deck" });

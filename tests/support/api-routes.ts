@@ -90,11 +90,14 @@ export const equipmentSetBody = (name: string, jackSerial: string, gaugeSerial: 
   maxForceN: null,
 });
 
-/** A five-point calibration (invented demo figures: 5100 N per MPa less 900 N). */
-export const calibrationBody = () => ({
-  calibratedOn: "2026-12-01",
+/**
+ * A five-point calibration of `calibratedOn` on a straight line of `slope` N per MPa less 900 N
+ * (invented figures: 5100 is about a 100 t jack), with no expiry, laboratory or certificate.
+ */
+export const calibrationBody = (calibratedOn = "2026-12-01", slope = 5100) => ({
+  calibratedOn,
   validUntil: null,
-  points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })),
+  points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: slope * p - 900 })),
   laboratory: null,
   certificateAttachmentId: null,
 });
