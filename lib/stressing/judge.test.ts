@@ -3,7 +3,7 @@ import { MM_PER_FOOT, MM_PER_INCH, MPA_PER_PSI } from "@/lib/units";
 import { findStrandSize } from "@/lib/elongation";
 import { judgeStressing, stressingDay, type JudgeInput, type JudgeRecord } from "./judge";
 import { findFlags } from "./rules";
-import { judgeRecord } from "@/tests/support/judge-record";
+import { judgeRecord, projectBasis } from "@/tests/support/judge-record";
 
 // Check values are worked by hand from P·L/(A·E) with the exact friction integral of a straight
 // tendon, ∫Pj·e^(−Kx)dx = Pj·(1 − e^(−KL))/K, written out below independently of the engine.
@@ -42,13 +42,7 @@ function input(over: Partial<JudgeInput> & { lengthMm?: number; ends?: "A" | "B"
   const { lengthMm = 40 * FT, ends = "A", ...rest } = over;
   return {
     project: {
-      tolerancePct: 7,
-      shortTendonFloorMm: null,
-      comparisonBasis: "gross",
-      countJackGrip: true,
-      frictionMu: 0.07,
-      wobblePerM: 0.0033,
-      anchorSetMm: 6,
+      ...projectBasis({ comparisonBasis: "gross", countJackGrip: true }),
       unitSystem: "us",
       readingResolution: "1/8in",
       timeZone: "America/Chicago",

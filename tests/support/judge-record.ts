@@ -1,4 +1,5 @@
 import type { JudgeRecord } from "@/lib/stressing/judge";
+import type { ProjectBasis } from "@/lib/stressing/basis";
 
 /**
  * A record as the judge takes it: end A read by marks at 30 MPa, 100 mm measured, nothing else
@@ -24,6 +25,25 @@ export function judgeRecord(over: Partial<JudgeRecord> = {}): JudgeRecord {
     seatingMm: null,
     stressingOrder: null,
     wireBreaks: 0,
+    ...over,
+  };
+}
+
+/**
+ * A project's basis for the judge, as these tests have always written it: the ±7 % band (ACI 318-11
+ * §18.20.1, from memory), friction μ = 0.07 and wobble K = 0.0033 per m, a 6 mm anchor set (common
+ * practice for greased monostrand), compared net of the set without the jack's grip; `over`
+ * changes any of it.
+ */
+export function projectBasis<T extends Partial<ProjectBasis>>(over: T = {} as T): ProjectBasis & T {
+  return {
+    tolerancePct: 7,
+    shortTendonFloorMm: null,
+    comparisonBasis: "net",
+    countJackGrip: false,
+    frictionMu: 0.07,
+    wobblePerM: 0.0033,
+    anchorSetMm: 6,
     ...over,
   };
 }

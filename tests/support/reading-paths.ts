@@ -5,6 +5,7 @@ import type { LocalRecord } from "@/lib/offline/db";
 import { provisionalVerdict } from "@/lib/offline/tendon-view";
 import type { FieldProject, FieldTendon } from "@/lib/schemas/sync";
 import { planEvaluation, type EvaluatedRecord, type TendonState } from "@/lib/server/evaluate-tendon";
+import { projectBasis } from "./judge-record";
 
 /**
  * One tendon read as the crew would read it, judged on the tablet's path (`provisionalVerdict`,
@@ -56,13 +57,7 @@ export const project: FieldProject = {
   name: "Property",
   unitSystem: "si",
   readingResolution: "1mm",
-  tolerancePct: 7,
-  shortTendonFloorMm: null,
-  comparisonBasis: "gross",
-  countJackGrip: true,
-  frictionMu: 0.07,
-  wobblePerM: 0.0033,
-  anchorSetMm: 6,
+  ...projectBasis({ comparisonBasis: "gross", countJackGrip: true }),
   blindEntry: false,
   timeZone: "America/Denver",
 };

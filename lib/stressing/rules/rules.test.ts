@@ -3,7 +3,7 @@ import { findStrandSize } from "@/lib/elongation";
 import { judgeStressing, type JudgeInput, type JudgeRecord } from "../judge";
 import { FLAG_RULES, type RuleKind } from ".";
 import { MM_PER_INCH } from "@/lib/units";
-import { judgeRecord } from "@/tests/support/judge-record";
+import { judgeRecord, projectBasis } from "@/tests/support/judge-record";
 
 // Each rule as a table of cases. Strand 0.5 in Grade 270 (ASTM A416 Table 1); jacking at 0.80·fpu·A
 // and the anchorage at 0.70·fpu·A (ACI 318-19 Table 20.3.2.5.1); ±7 % (ACI 318-11 §18.20.1, from
@@ -26,13 +26,7 @@ const CAL = {
 function base(): JudgeInput {
   return {
     project: {
-      tolerancePct: 7,
-      shortTendonFloorMm: null,
-      comparisonBasis: "net",
-      countJackGrip: false,
-      frictionMu: 0.07,
-      wobblePerM: 0.0033,
-      anchorSetMm: 6,
+      ...projectBasis(),
       unitSystem: "si",
       readingResolution: "1mm",
       timeZone: "America/Chicago",
