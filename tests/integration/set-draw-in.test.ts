@@ -8,6 +8,7 @@ import { getPourReport } from "@/lib/server/get-pour-report";
 import { RECORD_COLUMNS, recordRows } from "@/lib/reports/pour-rows";
 import { listEquipmentSets } from "@/lib/server/list-equipment-sets";
 import { pourOfDemoCopies, predictionAsRead, seededDemoPerFile, HALF_INCH } from "../support/records";
+import { equipmentSetBody } from "../support/api-routes";
 
 // An equipment set's draw-in per re-grip, on real PostgreSQL: stored with the set, listed, and used
 // by the server's evaluation for a ram-travel record that types none, which says which value it used.
@@ -24,12 +25,8 @@ async function setWithDrawIn(name: string, drawInMm: number | null) {
   const { setId } = await createEquipmentSet(t.db, {
     projectId: fx.projectId,
     values: equipmentSetSchema.parse({
-      name,
-      jackSerial: `${name}-J`,
-      gaugeSerial: `${name}-G`,
-      pumpSerial: null,
+      ...equipmentSetBody(name, `${name}-J`, `${name}-G`),
       jackGripMm: GRIP_MM,
-      maxForceN: null,
       drawInMm,
     }),
   });
@@ -116,28 +113,11 @@ describe("an equipment set's draw-in per re-grip", () => {
     const setId = await setWithDrawIn("DI listed", DRAW_IN_MM);
     const listed = (await listEquipmentSets(t.db, fx.projectId)).find((s) => s.id === setId)!;
     expect(listed.drawInMm).toBe(DRAW_IN_MM);
-    const bad = equipmentSetSchema.safeParse({
-      name: "x",
-      jackSerial: "j",
-      gaugeSerial: "g",
-      pumpSerial: null,
-      jackGripMm: null,
-      maxForceN: null,
-      drawInMm: -1,
-    });
+    const bad = equipmentSetSchema.safeParse({ ...equipmentSetBody("x", "j", "g"), drawInMm: -1 });
     expect(bad.success).toBe(false);
     expect(bad.error!.issues[0]).toMatchObject({ path: ["drawInMm"], message: "Draw-in cannot be negative." });
     // Left out, it is none (sets made before it existed).
-    expect(
-      equipmentSetSchema.parse({
-        name: "x",
-        jackSerial: "j",
-        gaugeSerial: "g",
-        pumpSerial: null,
-        jackGripMm: null,
-        maxForceN: null,
-      }).drawInMm,
-    ).toBeNull();
+    expect(equipmentSetSchema.parse(equipmentSetBody("x", "j", "g")).drawInMm).toBeNull();
   });
 
   it("three strokes typed without a draw-in are judged with the set's, and the evaluation says so", async () => {

@@ -1,4 +1,4 @@
-import { afterAll, beforeAll } from "vitest";
+import { afterAll, beforeAll, expect } from "vitest";
 import { uuidv7 } from "uuidv7";
 import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 import type { Db } from "@/db/connect";
@@ -323,3 +323,20 @@ export async function demoStressing(db: Db, fx: DemoFixture) {
   };
   return { pressure, predicted, record, stress };
 }
+
+/**
+ * The signature section of a signed report's CSV (pour or day), as the signer typed it: who, the
+ * licence, the statement, when (in the project's zone), the content hash and the revision.
+ */
+export const signatureRows = (
+  values: { signerName: string; licence: string; statement: string },
+  contentSha256: string,
+  revision = 1,
+) => [
+  `Signed by: ${values.signerName}`,
+  `Licence or certification: ${values.licence}`,
+  `Statement: ${values.statement}`,
+  expect.stringMatching(/^Signed: \d{4}-\d\d-\d\d \d\d:\d\d C[SD]T$/),
+  `Content sha256: ${contentSha256}`,
+  `Revision: ${revision}`,
+];
