@@ -32,6 +32,10 @@ afterAll(async () => {
   await t.drop();
 });
 
+/** The inspector's review of the flag. */
+const inspectorReview = (flagId: string, review: Parameters<typeof addReview>[1]["review"]) =>
+  addReview(t.db, { projectId: fx.projectId, flagId, author: people.inspector, review });
+
 describe("from flag to release", () => {
   it("an out-of-band tendon holds the pour until the engineer's restress comes back in band", async () => {
     const [r1, r2] = tendons as [(typeof tendons)[number], (typeof tendons)[number]];
@@ -61,24 +65,16 @@ describe("from flag to release", () => {
 
     // The inspector may not close an out-of-band flag as paperwork.
     await expect(
-      addReview(t.db, {
-        projectId: fx.projectId,
-        flagId,
-        author: people.inspector,
-        review: { kind: "closed_paperwork", body: "Looks like a typo to me." },
-      }),
+      inspectorReview(flagId, { kind: "closed_paperwork", body: "Looks like a typo to me." }),
     ).rejects.toMatchObject({ code: "CONFLICT" });
-    await addReview(t.db, {
-      projectId: fx.projectId,
-      flagId,
-      author: people.inspector,
-      review: { kind: "remeasured", body: "Re-measured the tail mark with a steel tape.", remeasuredMm: 150 },
+    await inspectorReview(flagId, {
+      kind: "remeasured",
+      body: "Re-measured the tail mark with a steel tape.",
+      remeasuredMm: 150,
     });
-    const sent = await addReview(t.db, {
-      projectId: fx.projectId,
-      flagId,
-      author: people.inspector,
-      review: { kind: "sent_to_engineer", body: "Short by 10 %; mark confirmed. Please advise." },
+    const sent = await inspectorReview(flagId, {
+      kind: "sent_to_engineer",
+      body: "Short by 10 %; mark confirmed. Please advise.",
     });
     expect(sent.flagStatus).toBe("with_engineer");
 
@@ -172,11 +168,9 @@ describe("from flag to release", () => {
     });
     // With the corrected record in band, the inspector may now close the flag as paperwork.
     const flagId = await flagIdOf(t.db, tendon.id, "out_of_band");
-    const closed = await addReview(t.db, {
-      projectId: fx.projectId,
-      flagId,
-      author: people.inspector,
-      review: { kind: "closed_paperwork", body: "Transcription error; corrected revision is in band." },
+    const closed = await inspectorReview(flagId, {
+      kind: "closed_paperwork",
+      body: "Transcription error; corrected revision is in band.",
     });
     expect(closed.flagStatus).toBe("closed");
   });
