@@ -4,7 +4,7 @@ import type { LiftoffPayload } from "@/lib/schemas/liftoff";
 import type { OpResult } from "@/lib/schemas/sync";
 import { applyPushResults, OutboxWriteError, requeue, saveLiftoffCheck } from "./outbox";
 import { applyPull } from "./reference";
-import { emptyPull, TEST_USER } from "./test-support";
+import { emptyPull, fieldTendon, TEST_USER } from "./test-support";
 
 const freshDb = tabletDbsClosedAfterEach();
 
@@ -13,19 +13,7 @@ const POUR = "0190a0b0-0000-7000-8000-0000000000b1";
 const T1 = "0190a0b0-0000-7000-8000-0000000000c1";
 const ORDER = "0190a0b0-0000-7000-8000-0000000000d1";
 const SET = "0190a0b0-0000-7000-8000-0000000000e1";
-const tendon = {
-  id: T1,
-  projectId: PROJECT,
-  pourId: POUR,
-  tag: "U01",
-  kind: "unbonded_monostrand",
-  strandSize: "0.5 in",
-  strandCount: 1,
-  segments: [{ lengthMm: 9000, angleRad: 0 }],
-  ends: "A" as const,
-  jackGripMm: null,
-  strandLotId: null,
-};
+const tendon = fieldTendon({ id: T1, projectId: PROJECT, pourId: POUR, tag: "U01" });
 const payload = (over: Partial<LiftoffPayload> = {}): LiftoffPayload => ({
   projectId: PROJECT,
   pourId: POUR,

@@ -11,7 +11,7 @@ import {
   saveRecord,
   saveTailCuts,
 } from "./outbox";
-import { samplePayload, TEST_USER } from "./test-support";
+import { fieldTendon, samplePayload, TEST_USER } from "./test-support";
 
 const freshDb = tabletDbsClosedAfterEach();
 
@@ -160,19 +160,7 @@ describe("applyPushResults", () => {
 describe("saveTailCuts", () => {
   const PROJECT = "0190a0b0-0000-7000-8000-0000000000aa";
   const POUR = "0190a0b0-0000-7000-8000-0000000000bb";
-  const tendon = (id: string, tag: string) => ({
-    id,
-    projectId: PROJECT,
-    pourId: POUR,
-    tag,
-    kind: "unbonded_monostrand",
-    strandSize: "0.5 in",
-    strandCount: 1,
-    segments: [{ lengthMm: 9000, angleRad: 0 }],
-    ends: "A" as const,
-    jackGripMm: null,
-    strandLotId: null,
-  });
+  const tendon = (id: string, tag: string) => fieldTendon({ id, projectId: PROJECT, pourId: POUR, tag });
   const T1 = "0190a0b0-0000-7000-8000-0000000000c1";
   const T2 = "0190a0b0-0000-7000-8000-0000000000c2";
   const input = (tendonIds: string[]) => ({

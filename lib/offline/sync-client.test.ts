@@ -4,6 +4,7 @@ import { readMeta, type SyncMeta } from "./db";
 import { saveRecord } from "./outbox";
 import { NO_CONNECTION, SyncClient, UNREADABLE_ANSWER, type Fetch, type LockManagerLike } from "./sync-client";
 import { emptyPull, samplePayload, signIn, testDb } from "./test-support";
+import { projectBasis } from "@/tests/support/judge-record";
 
 const opened: { close: () => void }[] = [];
 afterEach(() => {
@@ -224,13 +225,7 @@ describe("SyncClient: the server's answers are parsed before anything is stored"
           name: "Test project",
           unitSystem: "si",
           readingResolution: "1mm",
-          tolerancePct: 7,
-          shortTendonFloorMm: null,
-          comparisonBasis: "gross",
-          countJackGrip: true,
-          frictionMu: 0.07,
-          wobblePerM: 0.0014,
-          anchorSetMm: 6,
+          ...projectBasis({ comparisonBasis: "gross", countJackGrip: true, wobblePerM: 0.0014 }),
           blindEntry: false,
         },
       ],

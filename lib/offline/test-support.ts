@@ -1,7 +1,7 @@
 import { IDBFactory, IDBKeyRange } from "fake-indexeddb";
 import { uuidv7 } from "uuidv7";
 import type { RecordPayload } from "@/lib/schemas/record";
-import type { PullResponse } from "@/lib/schemas/sync";
+import type { FieldTendon, PullResponse } from "@/lib/schemas/sync";
 import { emptyPull as emptyPullAt } from "@/lib/schemas/sync-response";
 import { FieldDb, writeMeta, type SessionMeta } from "./db";
 
@@ -68,4 +68,18 @@ export function samplePayload(overrides: Partial<RecordPayload> = {}): { recordI
 /** A pull that changes nothing, at a cursor: a test names what it brings. */
 export function emptyPull(cursor: string, over: Partial<PullResponse> = {}): PullResponse {
   return { ...emptyPullAt(cursor, "2026-12-02T16:00:00.000Z"), ...over };
+}
+
+/** A one-end, single-strand 9 m tendon of the pour on the tablet (values need not match a real tendon). */
+export function fieldTendon(where: { id: string; projectId: string; pourId: string; tag: string }): FieldTendon {
+  return {
+    ...where,
+    kind: "unbonded_monostrand",
+    strandSize: "0.5 in",
+    strandCount: 1,
+    segments: [{ lengthMm: 9000, angleRad: 0 }],
+    ends: "A",
+    jackGripMm: null,
+    strandLotId: null,
+  };
 }

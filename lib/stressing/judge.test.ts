@@ -3,6 +3,7 @@ import { MM_PER_FOOT, MM_PER_INCH, MPA_PER_PSI } from "@/lib/units";
 import { findStrandSize } from "@/lib/elongation";
 import { judgeStressing, stressingDay, type JudgeInput, type JudgeRecord } from "./judge";
 import { findFlags } from "./rules";
+import { judgeRecord, projectBasis } from "@/tests/support/judge-record";
 
 // Check values are worked by hand from P·L/(A·E) with the exact friction integral of a straight
 // tendon, ∫Pj·e^(−Kx)dx = Pj·(1 − e^(−KL))/K, written out below independently of the engine.
@@ -41,13 +42,7 @@ function input(over: Partial<JudgeInput> & { lengthMm?: number; ends?: "A" | "B"
   const { lengthMm = 40 * FT, ends = "A", ...rest } = over;
   return {
     project: {
-      tolerancePct: 7,
-      shortTendonFloorMm: null,
-      comparisonBasis: "gross",
-      countJackGrip: true,
-      frictionMu: 0.07,
-      wobblePerM: 0.0033,
-      anchorSetMm: 6,
+      ...projectBasis({ comparisonBasis: "gross", countJackGrip: true }),
       unitSystem: "us",
       readingResolution: "1/8in",
       timeZone: "America/Chicago",
@@ -63,26 +58,14 @@ function input(over: Partial<JudgeInput> & { lengthMm?: number; ends?: "A" | "B"
 let n = 0;
 function record(over: Partial<JudgeRecord> = {}): JudgeRecord {
   n += 1;
-  return {
+  return judgeRecord({
     id: `r${n}`,
     chainId: `c${n}`,
-    revision: 1,
-    end: "A",
     deviceTime: `2026-12-02T15:${String(n % 60).padStart(2, "0")}:00Z`,
     equipmentSetId: "set-1",
-    calibrationId: null,
-    expiredCalibrationReason: null,
-    readingMethod: "marks",
-    initialPressureMPa: null,
     finalPressureMPa: TARGET_MPA,
-    measuredMm: 100,
-    strokeCount: 1,
-    drawInMm: null,
-    seatingMm: null,
-    stressingOrder: null,
-    wireBreaks: 0,
     ...over,
-  };
+  });
 }
 
 describe("judgeStressing: each end the way it was read", () => {

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { fitCalibration } from "@/lib/elongation";
 import { predictTendon, type ProjectBasis } from "./basis";
 import { expectedAnchorForceN, judgeLiftoff, liftoffEndProblem, liftoffLine, liftoffPressureProblem } from "./liftoff";
+import { projectBasis } from "@/tests/support/judge-record";
 
 // Our own worked example (invented figures, computed by hand below; not from a published source).
 //
@@ -76,15 +77,7 @@ describe("liftoffPressureProblem", () => {
 });
 
 describe("expectedAnchorForceN", () => {
-  const project: ProjectBasis = {
-    tolerancePct: 7,
-    shortTendonFloorMm: null,
-    comparisonBasis: "net",
-    countJackGrip: false,
-    frictionMu: 0.07,
-    wobblePerM: 0.0033,
-    anchorSetMm: 6,
-  };
+  const project: ProjectBasis = projectBasis();
   const straight = { strandSize: "0.5 in", strandCount: 1, segments: [{ lengthMm: 30_000, angleRad: 0 }] };
 
   // Our own worked example, by hand with the friction taken as a straight line near the anchor

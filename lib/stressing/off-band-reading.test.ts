@@ -17,23 +17,18 @@ describe("a reading off by more than the band is out of band and flagged on ever
   it("on the tablet and on the server, to the digit", () => {
     fc.assert(
       fc.property(
-        ...tendonCase,
+        tendonCase,
         // ±7 % is the usual building band (ACI 318-11 §18.20.1, from memory), ±5 % common on bridges.
         fc.constantFrom(5, 7, 10),
         fc.constantFrom(1, -1),
         // How far past the band edge, as a fraction of the prediction.
         fc.double({ min: 0.002, max: 0.2, noNaN: true }),
         fc.constantFrom("gross" as const, "net" as const),
-        (lengthMm, angleRad, ends, order, planA, planB, setDrawIn, bandPct, sign, past, comparisonBasis) => {
+        (tc, bandPct, sign, past, comparisonBasis) => {
+          const { ends, planA, planB } = tc;
           const d = sign * (bandPct / 100 + past);
           const { tablet, server } = judgeOnBothPaths({
-            lengthMm,
-            angleRad,
-            ends,
-            order,
-            planA,
-            planB,
-            setDrawIn,
+            ...tc,
             kOf: () => 1,
             stretch: 1 + d,
             project: { tolerancePct: bandPct, comparisonBasis },

@@ -17,24 +17,18 @@ describe("a perfect reading is in band on every basis, method and order", () => 
   it("on the tablet and on the server, to the digit", () => {
     fc.assert(
       fc.property(
-        ...tendonCase,
+        tendonCase,
         fc.constantFrom(1, 1, 0.9, 0.95, 0.97, 1.02, 1.05),
         fc.double({ min: 0.9, max: 1.05, noNaN: true }),
         fc.option(fc.double({ min: 0.6, max: 0.8, noNaN: true }), { nil: null }),
-        (lengthMm, angleRad, ends, order, planA, planB, setDrawIn, kA, kB, scheduleShare) => {
+        (tc, kA, kB, scheduleShare) => {
           // The schedule's force when the row gives one, else the project's 0.80·fpu·A.
           const PJ = scheduleShare === null ? PJ_DEFAULT : scheduleShare * strand.minBreakingStrengthN;
           // The gauge force of each end, a share k of the specified force; with kA = 1 both ends are
           // pulled to the specified force and the reading is also the prediction itself (in band, 0 %).
           const kOf = (end: "A" | "B") => (end === "A" ? kA : kA === 1 ? 1 : kB);
           const { tablet, server } = judgeOnBothPaths({
-            lengthMm,
-            angleRad,
-            ends,
-            order,
-            planA,
-            planB,
-            setDrawIn,
+            ...tc,
             kOf,
             scheduleForceN: scheduleShare === null ? null : PJ,
           });

@@ -1,44 +1,34 @@
 import { expect, test, type APIRequestContext, type APIResponse } from "@playwright/test";
-import { readdirSync, readFileSync, statSync } from "node:fs";
+import { readFileSync } from "node:fs";
 import path from "node:path";
+import {
+  BOGUS_TOKEN,
+  MISSING_ID,
+  acceptInvitationBody,
+  calibrationBody,
+  certificateUploadBody,
+  concreteResultBody,
+  dispositionBody,
+  equipmentSetBody,
+  passwordResetBody,
+  passwordResetCompleteBody,
+  pourBody,
+  recordCorrectionBody,
+  releaseBody,
+  reopenBody,
+  reportSignatureBody,
+  reviewBody,
+  routesOnDisk,
+  scheduleCsv,
+  strandLotBody,
+  tendonBody,
+  walk,
+} from "../support/api-routes";
 import { MATRIX, SERVER_ACTION_FILES, type Caller } from "./authz-matrix";
 import { PEOPLE, apiAs, latestMailTo, lastMailId, linkIn, pourIdByName } from "./people";
 
-const APP_DIR = path.resolve("app");
-
-/** Source files under a folder, skipping dependencies, build output and dot-folders. */
-function walk(dir: string): string[] {
-  return readdirSync(dir).flatMap((name) => {
-    if (name.startsWith(".") || name === "node_modules" || name === "test-results") return [];
-    const full = path.join(dir, name);
-    return statSync(full).isDirectory() ? walk(full) : [full];
-  });
-}
-
-/** Every "METHOD /path" that a route.ts on disk exports. */
-function routesOnDisk(): string[] {
-  return walk(APP_DIR)
-    .filter((f) => /\/route\.tsx?$/.test(f))
-    .flatMap((file) => {
-      const source = readFileSync(file, "utf8");
-      const urlPath =
-        "/" +
-        path
-          .relative(APP_DIR, path.dirname(file))
-          .split(path.sep)
-          .filter((seg) => !/^\(.*\)$/.test(seg))
-          .join("/");
-      const methods = new Set<string>();
-      for (const m of source.matchAll(/export\s+(?:const|async function|function)\s+(GET|POST|PUT|PATCH|DELETE)\b/g))
-        methods.add(m[1]!);
-      for (const m of source.matchAll(/\bas\s+(GET|POST|PUT|PATCH|DELETE)\b/g)) methods.add(m[1]!);
-      return [...methods].map((method) => `${method} ${urlPath}`);
-    })
-    .sort();
-}
-
 test("the matrix lists every route handler and server action on disk, and nothing else", () => {
-  expect(Object.keys(MATRIX).sort()).toEqual(routesOnDisk());
+  expect(Object.keys(MATRIX).sort()).toEqual(routesOnDisk().map((r) => r.endpoint));
   const actionFiles = walk(path.resolve("."))
     .filter((f) => /\.(ts|tsx)$/.test(f))
     .filter((f) => /^\s*["']use server["']/m.test(readFileSync(f, "utf8")))
@@ -91,9 +81,6 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     return list.members.find((m) => m.email === email)!.userId;
   }
 
-  const BOGUS_TOKEN = "x".repeat(43);
-  const MISSING_ID = "00000000-0000-4000-8000-000000000000";
-
   /** A pour of the demo project, as the demo crew's download list names it. */
   async function crewDownloadPourId(): Promise<string> {
     const list = (await (await contexts.crew.get("/api/field/pours")).json()) as {
@@ -103,53 +90,55 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
   }
 
   const CERTIFICATE = Buffer.from("%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n");
-  const certificateUpload = {
-    purpose: "mill_certificate",
-    contentType: "application/pdf",
-    sizeBytes: CERTIFICATE.byteLength,
-    originalName: "matrix.pdf",
-  };
+  const certificateUpload = certificateUploadBody(CERTIFICATE.byteLength, "matrix.pdf");
   const stamp = () => `${Date.now()}-${counter++}`;
-  const pourBody = (name: string) => ({ name, level: "Matrix", areaM2: null, plannedStressingDate: null });
-  /** A throwaway pour, so the demo pours keep their schedules. */
-  async function throwawayPour(): Promise<string> {
-    const res = await contexts.admin.post(`/api/projects/${projectId}/pours`, {
-      data: pourBody(`Matrix pour ${stamp()}`),
-    });
+  const matrixPourBody = (name: string) => pourBody(name, "Matrix");
+  /** An admin's POST that must answer 201; its JSON's `key`. */
+  async function created(url: string, data: unknown, key: string): Promise<string> {
+    const res = await contexts.admin.post(url, { data });
     expect(res.status()).toBe(201);
-    return ((await res.json()) as { pourId: string }).pourId;
+    return ((await res.json()) as Record<string, string>)[key]!;
   }
+  /** A throwaway pour, so the demo pours keep their schedules. */
+  const throwawayPour = () =>
+    created(`/api/projects/${projectId}/pours`, matrixPourBody(`Matrix pour ${stamp()}`), "pourId");
+  /** A throwaway strand lot, its number starting with `prefix`. */
+  const throwawayLot = (prefix: string) =>
+    created(`/api/projects/${projectId}/strand-lots`, strandLotBody(`${prefix}-${stamp()}`), "strandLotId");
+  /** A tendon on a throwaway pour, its tag starting with `prefix`. */
+  const throwawayTendon = async (prefix: string) =>
+    created(
+      `/api/projects/${projectId}/pours/${await throwawayPour()}/tendons`,
+      tendonBody(`${prefix}-${stamp()}`),
+      "tendonId",
+    );
   async function demoPourId(): Promise<string> {
     const list = (await (await contexts.admin.get(`/api/projects/${projectId}/pours`)).json()) as {
       pours: { id: string; name: string }[];
     };
     return list.pours.find((p) => p.name === "L2 Pour 1")!.id;
   }
-  const tendonBody = (tag: string) => ({
-    tag,
-    kind: "unbonded_monostrand",
-    strandSize: "0.5 in",
-    strandCount: 1,
-    segments: [{ lengthMm: 9000, angleRad: 0.1 }],
-    ends: "A",
-    jackGripMm: null,
-    shopElongationMm: null,
-    strandLotId: null,
+  const SIGNATURE = reportSignatureBody("Matrix", "Matrix check of who may sign the stressing report.");
+  const dailySignature = () => ({
+    ...SIGNATURE,
+    remarks: `Matrix remarks ${stamp()}`,
+    conformance: "conforming",
+    witness: [],
   });
-  const lotBody = (lotNumber: string) => ({
-    lotNumber,
-    strandSize: "0.5 in",
-    areaMm2: 99,
-    modulusMPa: 197_000,
-    breakingLoadN: 186_000,
-    certificateAttachmentId: null,
-  });
-  const SIGNATURE = {
-    signerName: "Matrix Inspector",
-    licence: "ICC special inspector 0000000 (matrix)",
-    statement: "Matrix check of who may sign the stressing report.",
-  };
-  const SCHEDULE_HEADER = "tag,type,strand size [in],strands,ends,segments [ft@deg]";
+  /** The project's settings as the admin reads them, without the fields a write does not take. */
+  async function settingsToWrite(): Promise<string> {
+    const {
+      id: _id,
+      code: _code,
+      ...settings
+    } = (await (await contexts.admin.get(`/api/projects/${projectId}/settings`)).json()) as Record<string, unknown>;
+    void _id;
+    void _code;
+    return JSON.stringify(settings);
+  }
+  /** A calibration route on a set and calibration that do not exist (`then`: the part after the id). */
+  const missingCalibration = (then: string) =>
+    `/api/projects/${projectId}/equipment-sets/${MISSING_ID}/calibrations/${MISSING_ID}${then}`;
 
   /** An admin's certificate upload, put in storage; confirmed too when `confirm` is set. */
   async function uploadedCertificate(confirm: boolean): Promise<string> {
@@ -222,33 +211,24 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     "GET /api/projects/[projectId]/settings": { call: (c) => c.get(`/api/projects/${projectId}/settings`) },
     "PATCH /api/projects/[projectId]/settings": {
       // The admin writes the settings back unchanged.
-      fixture: async () =>
-        JSON.stringify(await (await contexts.admin.get(`/api/projects/${projectId}/settings`)).json()),
-      call: (c, json) => {
-        const { id: _id, code: _code, ...settings } = JSON.parse(json) as Record<string, unknown>;
-        void _id;
-        void _code;
-        return c.patch(`/api/projects/${projectId}/settings`, { data: settings });
-      },
+      fixture: settingsToWrite,
+      call: (c, json) => c.patch(`/api/projects/${projectId}/settings`, { data: JSON.parse(json) as unknown }),
     },
     "POST /api/projects/[projectId]/settings/preview": {
-      fixture: async () =>
-        JSON.stringify(await (await contexts.admin.get(`/api/projects/${projectId}/settings`)).json()),
-      call: (c, json) => {
-        const { id: _id, code: _code, ...settings } = JSON.parse(json) as Record<string, unknown>;
-        void _id;
-        void _code;
-        return c.post(`/api/projects/${projectId}/settings/preview`, { data: { ...settings, tolerancePct: 5 } });
-      },
+      fixture: settingsToWrite,
+      call: (c, json) =>
+        c.post(`/api/projects/${projectId}/settings/preview`, {
+          data: { ...(JSON.parse(json) as Record<string, unknown>), tolerancePct: 5 },
+        }),
     },
     "GET /api/projects/[projectId]/pours": { call: (c) => c.get(`/api/projects/${projectId}/pours`) },
     "POST /api/projects/[projectId]/pours": {
-      call: (c) => c.post(`/api/projects/${projectId}/pours`, { data: pourBody(`Matrix pour ${stamp()}`) }),
+      call: (c) => c.post(`/api/projects/${projectId}/pours`, { data: matrixPourBody(`Matrix pour ${stamp()}`) }),
     },
     "PATCH /api/projects/[projectId]/pours/[pourId]": {
       fixture: throwawayPour,
       call: (c, id) =>
-        c.patch(`/api/projects/${projectId}/pours/${id}`, { data: pourBody(`Matrix pour renamed ${stamp()}`) }),
+        c.patch(`/api/projects/${projectId}/pours/${id}`, { data: matrixPourBody(`Matrix pour renamed ${stamp()}`) }),
     },
     "GET /api/projects/[projectId]/pours/[pourId]/tendons": {
       fixture: demoPourId,
@@ -261,9 +241,7 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     "POST /api/projects/[projectId]/pours/[pourId]/tendons/import": {
       fixture: throwawayPour,
       call: (c, id) =>
-        c.post(`/api/projects/${projectId}/pours/${id}/tendons/import`, {
-          data: { csv: `${SCHEDULE_HEADER}\nM-${stamp()},monostrand,0.5,1,A,30@2` },
-        }),
+        c.post(`/api/projects/${projectId}/pours/${id}/tendons/import`, { data: { csv: scheduleCsv(`M-${stamp()}`) } }),
     },
     "GET /api/projects/[projectId]/pours/[pourId]/tendons/export": {
       fixture: demoPourId,
@@ -313,15 +291,12 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     },
     // Each inspector call signs new remarks, so it is always a new revision.
     "POST /api/projects/[projectId]/daily-reports/[day]/signatures": {
-      call: (c) =>
-        c.post(`/api/projects/${projectId}/daily-reports/2001-01-01/signatures`, {
-          data: { ...SIGNATURE, remarks: `Matrix remarks ${stamp()}`, conformance: "conforming", witness: [] },
-        }),
+      call: (c) => c.post(`/api/projects/${projectId}/daily-reports/2001-01-01/signatures`, { data: dailySignature() }),
     },
     "GET /api/projects/[projectId]/daily-reports/[day]/signatures/[revision]": {
       fixture: async () => {
         const res = await contexts.inspector.post(`/api/projects/${projectId}/daily-reports/2001-01-02/signatures`, {
-          data: { ...SIGNATURE, remarks: `Matrix remarks ${stamp()}`, conformance: "conforming", witness: [] },
+          data: dailySignature(),
         });
         expect(res.status()).toBe(201);
         return String(((await res.json()) as { revision: number }).revision);
@@ -357,67 +332,31 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     },
     "GET /api/projects/[projectId]/strand-lots": { call: (c) => c.get(`/api/projects/${projectId}/strand-lots`) },
     "POST /api/projects/[projectId]/strand-lots": {
-      call: (c) =>
-        c.post(`/api/projects/${projectId}/strand-lots`, {
-          data: {
-            lotNumber: `M-${stamp()}`,
-            strandSize: "0.5 in",
-            areaMm2: 99,
-            modulusMPa: 197_000,
-            breakingLoadN: 186_000,
-            certificateAttachmentId: null,
-          },
-        }),
+      call: (c) => c.post(`/api/projects/${projectId}/strand-lots`, { data: strandLotBody(`M-${stamp()}`) }),
     },
     "PATCH /api/projects/[projectId]/strand-lots/[strandLotId]": {
-      fixture: async () => {
-        const res = await contexts.admin.post(`/api/projects/${projectId}/strand-lots`, {
-          data: { ...lotBody(`M-${stamp()}`), modulusMPa: 197_000 },
-        });
-        expect(res.status()).toBe(201);
-        return ((await res.json()) as { strandLotId: string }).strandLotId;
-      },
+      fixture: () => throwawayLot("M"),
       call: (c, id) =>
         c.patch(`/api/projects/${projectId}/strand-lots/${id}`, {
-          data: { ...lotBody(`M-${id.slice(0, 8)}`), modulusMPa: 196_500 },
+          data: strandLotBody(`M-${id.slice(0, 8)}`, 196_500),
         }),
     },
     "PATCH /api/projects/[projectId]/tendons/[tendonId]": {
-      fixture: async () => {
-        const pourId = await throwawayPour();
-        const res = await contexts.admin.post(`/api/projects/${projectId}/pours/${pourId}/tendons`, {
-          data: tendonBody(`M-${stamp()}`),
-        });
-        expect(res.status()).toBe(201);
-        return ((await res.json()) as { tendonId: string }).tendonId;
-      },
+      fixture: () => throwawayTendon("M"),
       call: (c, id) =>
         c.patch(`/api/projects/${projectId}/tendons/${id}`, {
           data: { ...tendonBody(`M-${id.slice(0, 8)}`), segments: [{ lengthMm: 9500, angleRad: 0.1 }] },
         }),
     },
     "POST /api/projects/[projectId]/strand-lots/[strandLotId]/preview": {
-      fixture: async () => {
-        const res = await contexts.admin.post(`/api/projects/${projectId}/strand-lots`, {
-          data: { ...lotBody(`P-${stamp()}`), modulusMPa: 197_000 },
-        });
-        expect(res.status()).toBe(201);
-        return ((await res.json()) as { strandLotId: string }).strandLotId;
-      },
+      fixture: () => throwawayLot("P"),
       call: (c, id) =>
         c.post(`/api/projects/${projectId}/strand-lots/${id}/preview`, {
-          data: { ...lotBody(`P-${id.slice(0, 8)}`), modulusMPa: 196_500 },
+          data: strandLotBody(`P-${id.slice(0, 8)}`, 196_500),
         }),
     },
     "POST /api/projects/[projectId]/tendons/[tendonId]/preview": {
-      fixture: async () => {
-        const pourId = await throwawayPour();
-        const res = await contexts.admin.post(`/api/projects/${projectId}/pours/${pourId}/tendons`, {
-          data: tendonBody(`P-${stamp()}`),
-        });
-        expect(res.status()).toBe(201);
-        return ((await res.json()) as { tendonId: string }).tendonId;
-      },
+      fixture: () => throwawayTendon("P"),
       call: (c, id) =>
         c.post(`/api/projects/${projectId}/tendons/${id}/preview`, {
           data: { ...tendonBody(`P-${id.slice(0, 8)}`), segments: [{ lengthMm: 9500, angleRad: 0.1 }] },
@@ -427,132 +366,66 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     "POST /api/projects/[projectId]/equipment-sets": {
       call: (c) =>
         c.post(`/api/projects/${projectId}/equipment-sets`, {
-          data: {
-            name: `Matrix set ${stamp()}`,
-            jackSerial: "MJ-1",
-            gaugeSerial: "MG-1",
-            pumpSerial: null,
-            jackGripMm: null,
-            maxForceN: null,
-          },
+          data: equipmentSetBody(`Matrix set ${stamp()}`, "MJ-1", "MG-1"),
         }),
     },
     "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations": {
-      fixture: async () => {
-        const res = await contexts.admin.post(`/api/projects/${projectId}/equipment-sets`, {
-          data: {
-            name: `Matrix set ${stamp()}`,
-            jackSerial: "MJ-2",
-            gaugeSerial: "MG-2",
-            pumpSerial: null,
-            jackGripMm: null,
-            maxForceN: null,
-          },
-        });
-        return ((await res.json()) as { setId: string }).setId;
-      },
+      fixture: () =>
+        created(
+          `/api/projects/${projectId}/equipment-sets`,
+          equipmentSetBody(`Matrix set ${stamp()}`, "MJ-2", "MG-2"),
+          "setId",
+        ),
       call: (c, id) =>
-        c.post(`/api/projects/${projectId}/equipment-sets/${id}/calibrations`, {
-          data: {
-            calibratedOn: "2026-12-01",
-            validUntil: null,
-            points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })),
-            laboratory: null,
-            certificateAttachmentId: null,
-          },
-        }),
+        c.post(`/api/projects/${projectId}/equipment-sets/${id}/calibrations`, { data: calibrationBody() }),
     },
     "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/preview": {
       call: (c) =>
         c.post(`/api/projects/${projectId}/equipment-sets/${MISSING_ID}/calibrations/preview`, {
-          data: {
-            calibratedOn: "2026-12-01",
-            validUntil: null,
-            points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })),
-            laboratory: null,
-            certificateAttachmentId: null,
-          },
+          data: calibrationBody(),
         }),
     },
     "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/retirement/preview": {
       call: (c) =>
-        c.post(
-          `/api/projects/${projectId}/equipment-sets/${MISSING_ID}/calibrations/${MISSING_ID}/retirement/preview`,
-          { data: { reason: "Matrix check of who may preview a retirement." } },
-        ),
+        c.post(missingCalibration("/retirement/preview"), {
+          data: { reason: "Matrix check of who may preview a retirement." },
+        }),
     },
     "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/retirement": {
       call: (c) =>
-        c.post(`/api/projects/${projectId}/equipment-sets/${MISSING_ID}/calibrations/${MISSING_ID}/retirement`, {
+        c.post(missingCalibration("/retirement"), {
           data: { reason: "Matrix check of who may retire a calibration." },
         }),
     },
     "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/correction": {
       call: (c) =>
-        c.post(`/api/projects/${projectId}/equipment-sets/${MISSING_ID}/calibrations/${MISSING_ID}/correction`, {
-          data: {
-            reason: "Matrix check of who may correct a calibration.",
-            calibration: {
-              calibratedOn: "2026-12-01",
-              validUntil: null,
-              points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })),
-              laboratory: null,
-              certificateAttachmentId: null,
-            },
-          },
+        c.post(missingCalibration("/correction"), {
+          data: { reason: "Matrix check of who may correct a calibration.", calibration: calibrationBody() },
         }),
     },
     "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/correction/preview": {
       call: (c) =>
-        c.post(
-          `/api/projects/${projectId}/equipment-sets/${MISSING_ID}/calibrations/${MISSING_ID}/correction/preview`,
-          {
-            data: {
-              reason: "Matrix check of who may preview a correction.",
-              calibration: {
-                calibratedOn: "2026-12-01",
-                validUntil: null,
-                points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })),
-                laboratory: null,
-                certificateAttachmentId: null,
-              },
-            },
-          },
-        ),
+        c.post(missingCalibration("/correction/preview"), {
+          data: { reason: "Matrix check of who may preview a correction.", calibration: calibrationBody() },
+        }),
     },
     "GET /api/projects/[projectId]/flags": { call: (c) => c.get(`/api/projects/${projectId}/flags?status=any_open`) },
     "POST /api/projects/[projectId]/flags/[flagId]/reviews": {
-      call: (c) =>
-        c.post(`/api/projects/${projectId}/flags/${MISSING_ID}/reviews`, {
-          data: { kind: "note", body: "Checked the gauge photo." },
-        }),
+      call: (c) => c.post(`/api/projects/${projectId}/flags/${MISSING_ID}/reviews`, { data: reviewBody() }),
     },
     "POST /api/projects/[projectId]/flags/[flagId]/dispositions": {
       call: (c) =>
-        c.post(`/api/projects/${projectId}/flags/${MISSING_ID}/dispositions`, {
-          data: {
-            decision: "accept",
-            reasons: "Within the engineer's allowance.",
-            licenceStatement: "Licensed engineer (matrix)",
-          },
-        }),
+        c.post(`/api/projects/${projectId}/flags/${MISSING_ID}/dispositions`, { data: dispositionBody("Matrix") }),
     },
     "POST /api/projects/[projectId]/records/[recordId]/corrections": {
       call: (c) =>
-        c.post(`/api/projects/${projectId}/records/${MISSING_ID}/corrections`, {
-          data: { reason: "Copied from the wrong line.", measuredMm: 200 },
-        }),
+        c.post(`/api/projects/${projectId}/records/${MISSING_ID}/corrections`, { data: recordCorrectionBody() }),
     },
     "POST /api/projects/[projectId]/pours/[pourId]/release": {
       fixture: () => pourIdByName("L3 Pour 1"),
       call: (c, pourId) =>
         c.post(`/api/projects/${projectId}/pours/${pourId}/release`, {
-          data: {
-            statement: "Matrix check of the release rule.",
-            signerName: "Matrix Engineer",
-            licence: "PE 0000000 (matrix)",
-            confirmed: true,
-          },
+          data: releaseBody("Matrix"),
         }),
     },
     "GET /api/projects/[projectId]/pours/[pourId]/concrete-results": {
@@ -561,29 +434,20 @@ test.describe("every caller gets the expected answer from every endpoint", () =>
     },
     "POST /api/projects/[projectId]/pours/[pourId]/concrete-results": {
       call: (c) =>
-        c.post(`/api/projects/${projectId}/pours/${MISSING_ID}/concrete-results`, {
-          data: { specimen: "cylinder", strengthMPa: 25, ageDays: 5, specimenCount: 2 },
-        }),
+        c.post(`/api/projects/${projectId}/pours/${MISSING_ID}/concrete-results`, { data: concreteResultBody() }),
     },
     "POST /api/projects/[projectId]/pours/[pourId]/reopen": {
       fixture: () => pourIdByName("L3 Pour 1"),
-      call: (c, pourId) =>
-        c.post(`/api/projects/${projectId}/pours/${pourId}/reopen`, {
-          data: { reason: "Matrix check of the reopen rule.", confirmed: true },
-        }),
+      call: (c, pourId) => c.post(`/api/projects/${projectId}/pours/${pourId}/reopen`, { data: reopenBody("Matrix") }),
     },
     "POST /api/invitations/accept": {
-      call: (c) =>
-        c.post("/api/invitations/accept", {
-          data: { token: BOGUS_TOKEN, name: "Nobody", password: "a-long-enough-password" },
-        }),
+      call: (c) => c.post("/api/invitations/accept", { data: acceptInvitationBody() }),
     },
     "POST /api/password-reset": {
-      call: (c) => c.post("/api/password-reset", { data: { email: "nobody@nowhere.tautline.test" } }),
+      call: (c) => c.post("/api/password-reset", { data: passwordResetBody() }),
     },
     "POST /api/password-reset/complete": {
-      call: (c) =>
-        c.post("/api/password-reset/complete", { data: { token: BOGUS_TOKEN, password: "a-long-enough-password" } }),
+      call: (c) => c.post("/api/password-reset/complete", { data: passwordResetCompleteBody() }),
     },
     "GET /api/field/pours": { call: (c) => c.get("/api/field/pours") },
     "GET /api/field/pours/[pourId]": {

@@ -29,6 +29,11 @@ const projectAction = (ok: number, allowed: Person[]): Expected => ({
   anonymous: 401,
 });
 
+/** Every role on the project. */
+const MEMBERS: Person[] = ["admin", "crew", "inspector", "engineer"];
+/** The roles that read and sign reports: all but the crew. */
+const READERS: Person[] = ["admin", "inspector", "engineer"];
+
 export const MATRIX: Record<string, Expected> = {
   "GET /api/health": everyone(200),
   "GET /api/auth/[...nextauth]": everyone(200),
@@ -43,78 +48,47 @@ export const MATRIX: Record<string, Expected> = {
   "POST /api/projects/[projectId]/invitations/[invitationId]/resend": projectAction(200, ["admin"]),
   "POST /api/projects/[projectId]/uploads": projectAction(201, ["admin"]),
   "POST /api/projects/[projectId]/uploads/[attachmentId]/confirm": projectAction(200, ["admin"]),
-  "GET /api/projects/[projectId]/attachments/[attachmentId]": projectAction(200, [
-    "admin",
-    "crew",
-    "inspector",
-    "engineer",
-  ]),
-  "GET /api/projects/[projectId]/settings": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
+  "GET /api/projects/[projectId]/attachments/[attachmentId]": projectAction(200, MEMBERS),
+  "GET /api/projects/[projectId]/settings": projectAction(200, MEMBERS),
   "PATCH /api/projects/[projectId]/settings": projectAction(200, ["admin"]),
   "PATCH /api/projects/[projectId]/flag-mail": projectAction(200, ["engineer"]),
   "POST /api/projects/[projectId]/settings/preview": projectAction(200, ["admin"]),
-  "GET /api/projects/[projectId]/pours": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
+  "GET /api/projects/[projectId]/pours": projectAction(200, MEMBERS),
   "POST /api/projects/[projectId]/pours": projectAction(201, ["admin"]),
   "PATCH /api/projects/[projectId]/pours/[pourId]": projectAction(200, ["admin"]),
-  "GET /api/projects/[projectId]/pours/[pourId]/tendons": projectAction(200, [
-    "admin",
-    "crew",
-    "inspector",
-    "engineer",
-  ]),
+  "GET /api/projects/[projectId]/pours/[pourId]/tendons": projectAction(200, MEMBERS),
   "POST /api/projects/[projectId]/pours/[pourId]/tendons": projectAction(201, ["admin"]),
   "POST /api/projects/[projectId]/pours/[pourId]/tendons/import": projectAction(201, ["admin"]),
-  "GET /api/projects/[projectId]/pours/[pourId]/tendons/export": projectAction(200, [
-    "admin",
-    "crew",
-    "inspector",
-    "engineer",
-  ]),
-  "GET /api/projects/[projectId]/tendon-template": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
-  "GET /api/projects/[projectId]/pours/[pourId]/report/pdf": projectAction(200, ["admin", "inspector", "engineer"]),
-  "GET /api/projects/[projectId]/pours/[pourId]/report/csv": projectAction(200, ["admin", "inspector", "engineer"]),
-  "GET /api/projects/[projectId]/pours/[pourId]/report/signatures": projectAction(200, [
-    "admin",
-    "inspector",
-    "engineer",
-  ]),
+  "GET /api/projects/[projectId]/pours/[pourId]/tendons/export": projectAction(200, MEMBERS),
+  "GET /api/projects/[projectId]/tendon-template": projectAction(200, MEMBERS),
+  "GET /api/projects/[projectId]/pours/[pourId]/report/pdf": projectAction(200, READERS),
+  "GET /api/projects/[projectId]/pours/[pourId]/report/csv": projectAction(200, READERS),
+  "GET /api/projects/[projectId]/pours/[pourId]/report/signatures": projectAction(200, READERS),
   "POST /api/projects/[projectId]/pours/[pourId]/report/signatures": projectAction(201, ["inspector"]),
-  "GET /api/projects/[projectId]/pours/[pourId]/report/signatures/[revision]": projectAction(200, [
-    "admin",
-    "inspector",
-    "engineer",
-  ]),
+  "GET /api/projects/[projectId]/pours/[pourId]/report/signatures/[revision]": projectAction(200, READERS),
   // The day's special-inspection report: the inspector signs; the engineer and the admin read; crew may not.
-  "GET /api/projects/[projectId]/daily-reports/[day]/pdf": projectAction(200, ["admin", "inspector", "engineer"]),
-  "GET /api/projects/[projectId]/daily-reports/[day]/csv": projectAction(200, ["admin", "inspector", "engineer"]),
-  "GET /api/projects/[projectId]/daily-reports/[day]/signatures": projectAction(200, [
-    "admin",
-    "inspector",
-    "engineer",
-  ]),
+  "GET /api/projects/[projectId]/daily-reports/[day]/pdf": projectAction(200, READERS),
+  "GET /api/projects/[projectId]/daily-reports/[day]/csv": projectAction(200, READERS),
+  "GET /api/projects/[projectId]/daily-reports/[day]/signatures": projectAction(200, READERS),
   "POST /api/projects/[projectId]/daily-reports/[day]/signatures": projectAction(201, ["inspector"]),
-  "GET /api/projects/[projectId]/daily-reports/[day]/signatures/[revision]": projectAction(200, [
-    "admin",
-    "inspector",
-    "engineer",
-  ]),
-  "GET /api/projects/[projectId]/share-links": projectAction(200, ["admin", "inspector", "engineer"]),
-  "POST /api/projects/[projectId]/share-links": projectAction(201, ["admin", "inspector", "engineer"]),
+  "GET /api/projects/[projectId]/daily-reports/[day]/signatures/[revision]": projectAction(200, READERS),
+  "GET /api/projects/[projectId]/share-links": projectAction(200, READERS),
+  "POST /api/projects/[projectId]/share-links": projectAction(201, READERS),
   // Revoking a link that does not exist: the roles allowed pass the access check and get 404.
-  "DELETE /api/projects/[projectId]/share-links/[linkId]": projectAction(404, ["admin", "inspector", "engineer"]),
+  "DELETE /api/projects/[projectId]/share-links/[linkId]": projectAction(404, READERS),
   // A read-only link's token is the authorization: one never issued is not found for everyone
   // (an expired or revoked one is gone, 410: share-board.spec.ts).
   "GET /api/share/[token]/reports/[pourId]/[revision]": everyone(404),
   // Public: a report file's sha256 in, whether it is a signed revision out (audited).
   "POST /api/report-verifications": everyone(200),
-  "GET /api/projects/[projectId]/tendons/[tendonId]": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
-  "GET /api/projects/[projectId]/strand-lots": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
+  "GET /api/projects/[projectId]/tendons/[tendonId]": projectAction(200, MEMBERS),
+  "GET /api/projects/[projectId]/strand-lots": projectAction(200, MEMBERS),
   "POST /api/projects/[projectId]/strand-lots": projectAction(201, ["admin"]),
   "PATCH /api/projects/[projectId]/strand-lots/[strandLotId]": projectAction(200, ["admin"]),
   "PATCH /api/projects/[projectId]/tendons/[tendonId]": projectAction(200, ["admin"]),
   "POST /api/projects/[projectId]/strand-lots/[strandLotId]/preview": projectAction(200, ["admin"]),
   "POST /api/projects/[projectId]/tendons/[tendonId]/preview": projectAction(200, ["admin"]),
-  "GET /api/projects/[projectId]/equipment-sets": projectAction(200, ["admin", "crew", "inspector", "engineer"]),
+  "GET /api/projects/[projectId]/equipment-sets": projectAction(200, MEMBERS),
   "POST /api/projects/[projectId]/equipment-sets": projectAction(201, ["admin"]),
   "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations": projectAction(201, ["admin"]),
   // Retiring or correcting a calibration that does not exist: the admin passes the access check and gets 404.
@@ -140,12 +114,7 @@ export const MATRIX: Record<string, Expected> = {
   "POST /api/projects/[projectId]/pours/[pourId]/release": { ...projectAction(409, ["engineer"]), inspector: 403 },
   // Concrete results: every member reads them; the inspector and the admin enter them (on a pour
   // id that does not exist, so the allowed roles pass the access check and get 404).
-  "GET /api/projects/[projectId]/pours/[pourId]/concrete-results": projectAction(200, [
-    "admin",
-    "crew",
-    "inspector",
-    "engineer",
-  ]),
+  "GET /api/projects/[projectId]/pours/[pourId]/concrete-results": projectAction(200, MEMBERS),
   "POST /api/projects/[projectId]/pours/[pourId]/concrete-results": projectAction(404, ["inspector", "admin"]),
   // Only the engineer reopens; the pour named is not released, so the engineer gets 409.
   "POST /api/projects/[projectId]/pours/[pourId]/reopen": projectAction(409, ["engineer"]),

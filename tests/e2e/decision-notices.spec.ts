@@ -1,8 +1,8 @@
 import { expect, test } from "@playwright/test";
 import { screenshot } from "./support";
-import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
+import { PEOPLE, apiAs, queryDemo } from "./people";
 import { makePourFixture, typedReading, pushReadings, outOfBandFlagId, decideFlag } from "./pour-fixture";
-import { openPourAsCrew } from "./field-steps";
+import { openPourAsCrew, tendonFlagsAsEngineer } from "./field-steps";
 
 /**
  * A decision reaches the slab edge as a notice: the engineer orders a restress; after the crew's
@@ -149,11 +149,7 @@ test("stressing a pour whose concrete is not confirmed asks the crew why, and th
   expect(stored).toEqual({ concrete_go_ahead: reason });
 
   // The engineer's page for the tendon: the concrete flag quotes the crew, and so does the record.
-  const engineerCtx = await browser.newContext();
-  const engineer = await engineerCtx.newPage();
-  await signInWithPassword(engineer, PEOPLE.engineer);
-  await engineer.waitForURL(/\/home/);
-  await engineer.goto(`/projects/${fx.projectId}/tendons/${tendon.id}/flags`);
+  const { office: engineerCtx, engineer } = await tendonFlagsAsEngineer(browser, fx.projectId, tendon.id, null);
   await expect(engineer.getByText(`Crew's reason to go ahead: ${reason}`).first()).toBeVisible();
   await expect(engineer.getByTestId("concrete-go-ahead-reason")).toContainText(reason);
   await screenshot(engineer, "flag-concrete-go-ahead");

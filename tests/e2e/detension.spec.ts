@@ -1,8 +1,8 @@
 import { expect, test } from "@playwright/test";
 import { screenshot } from "./support";
-import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
-import { makePourFixture, pushEndA, outOfBandFlagId, decideFlag } from "./pour-fixture";
-import { heldTendonOffline } from "./field-steps";
+import { queryDemo } from "./people";
+import { shortTendonDecided } from "./pour-fixture";
+import { heldTendonOffline, tendonFlagsAsEngineer } from "./field-steps";
 
 /**
  * A detension from order to office: a tendon reads short and is flagged; the engineer orders a
@@ -28,11 +28,12 @@ test("the crew records an ordered detension offline; the tendon stays held and t
   browser,
 }) => {
   test.setTimeout(150_000);
-  const fx = await makePourFixture(POUR, [`DT-${stamp}-1`]);
-  const tendon = fx.tendons[0]!;
-  const crewApi = await apiAs(PEOPLE.crew);
-  const pushed = await pushEndA(crewApi, fx, tendon.id, 0.85);
-  expect(pushed.result).toMatchObject({ status: "applied" });
+  const { fx, tendon, crewApi, engineerApi, flagId, recordId } = await shortTendonDecided(
+    POUR,
+    `DT-${stamp}-1`,
+    "detension_restress",
+    "Short by about 15 %: release the strand, check the sheathing at the live end, then stress it again.",
+  );
 
   // A gauge photo with the record, uploaded as the tablet does (presign, PUT, confirm).
   const started = await crewApi.post(`/api/projects/${fx.projectId}/uploads`, {
@@ -41,7 +42,7 @@ test("the crew records an ordered detension offline; the tendon stays held and t
       contentType: "image/png",
       sizeBytes: PNG.byteLength,
       originalName: "gauge.png",
-      recordId: pushed.recordId,
+      recordId,
     },
   });
   expect(started.status()).toBe(201);
@@ -51,15 +52,6 @@ test("the crew records an ordered detension offline; the tendon stays held and t
     200,
   );
 
-  const flagId = await outOfBandFlagId(tendon.id);
-  const engineerApi = await apiAs(PEOPLE.engineer);
-  await decideFlag(
-    engineerApi,
-    fx,
-    flagId,
-    "detension_restress",
-    "Short by about 15 %: release the strand, check the sheathing at the live end, then stress it again.",
-  );
   const [strands] = await queryDemo<{ strand_count: number; ends: string }>(
     "select strand_count, ends from tendons where id = $1",
     [tendon.id],
@@ -125,11 +117,7 @@ test("the crew records an ordered detension offline; the tendon stays held and t
   if (strands!.ends !== "both") await expect(endChoices.first()).toHaveAttribute("value", strands!.ends);
 
   // The engineer's tendon page shows the detension beside the disposition that ordered it.
-  const office = await browser.newContext({ viewport: { width: 800, height: 1280 } });
-  const engineer = await office.newPage();
-  await signInWithPassword(engineer, PEOPLE.engineer);
-  await engineer.waitForURL(/\/home/);
-  await engineer.goto(`/projects/${fx.projectId}/tendons/${tendon.id}/flags`);
+  const { office, engineer } = await tendonFlagsAsEngineer(browser, fx.projectId, tendon.id);
   const shown = engineer.getByTestId("detension-record");
   await expect(shown).toContainText(`${strands!.strand_count} of ${strands!.strand_count} strand`);
   await expect(shown).toContainText("Gauge at release: 1200 psi");

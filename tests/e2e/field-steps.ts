@@ -104,6 +104,24 @@ export async function heldTendonOffline(browser: Browser, pourName: string, summ
   return { ctx, crew, rows, panel };
 }
 
+/**
+ * The engineer, signed in on a browser of their own (portrait by default; `null`: the browser's
+ * own size), on a tendon's flags page.
+ */
+export async function tendonFlagsAsEngineer(
+  browser: Browser,
+  projectId: string,
+  tendonId: string,
+  viewport: { width: number; height: number } | null = { width: 800, height: 1280 },
+) {
+  const office = await browser.newContext(viewport ? { viewport } : {});
+  const engineer = await office.newPage();
+  await signInWithPassword(engineer, PEOPLE.engineer);
+  await engineer.waitForURL(/\/home/);
+  await engineer.goto(`/projects/${projectId}/tendons/${tendonId}/flags`);
+  return { office, engineer };
+}
+
 /** Full-page shots from the top, so the sticky status bar sits where the crew sees it. */
 export async function shoot(page: Page, name: string) {
   await page.evaluate(() => window.scrollTo(0, 0));

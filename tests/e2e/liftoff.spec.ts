@@ -4,9 +4,9 @@ import { predictTendon } from "@/lib/stressing/basis";
 import { expectedAnchorForceN } from "@/lib/stressing/liftoff";
 import { MPA_PER_PSI } from "@/lib/units";
 import { screenshot } from "./support";
-import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
-import { makePourFixture, pushReadings, outOfBandFlagId, decideFlag } from "./pour-fixture";
-import { heldTendonOffline } from "./field-steps";
+import { queryDemo } from "./people";
+import { shortTendonDecided } from "./pour-fixture";
+import { heldTendonOffline, tendonFlagsAsEngineer } from "./field-steps";
 
 /**
  * A lift-off check from order to result: a tendon reads short and is flagged; the engineer orders
@@ -27,16 +27,9 @@ test("the crew records an ordered lift-off check offline and sees the server's r
   browser,
 }) => {
   test.setTimeout(150_000);
-  const fx = await makePourFixture(POUR, [`LO-${stamp}-1`]);
-  const tendon = fx.tendons[0]!;
-  const crewApi = await apiAs(PEOPLE.crew);
-  await pushReadings(crewApi, fx, [[tendon.id, 0.85]]);
-  const flagId = await outOfBandFlagId(tendon.id);
-  const engineerApi = await apiAs(PEOPLE.engineer);
-  await decideFlag(
-    engineerApi,
-    fx,
-    flagId,
+  const { fx, tendon, crewApi, engineerApi } = await shortTendonDecided(
+    POUR,
+    `LO-${stamp}-1`,
     "liftoff_check",
     "Short by about 15 %: check the force at the live end by lift-off and report the gauge pressure.",
   );
@@ -108,11 +101,7 @@ test("the crew records an ordered lift-off check offline and sees the server's r
   expect(stored!.deviation_pct).toBeLessThan(2.5);
 
   // The engineer's tendon page shows the result beside the disposition that ordered it.
-  const office = await browser.newContext({ viewport: { width: 800, height: 1280 } });
-  const engineer = await office.newPage();
-  await signInWithPassword(engineer, PEOPLE.engineer);
-  await engineer.waitForURL(/\/home/);
-  await engineer.goto(`/projects/${fx.projectId}/tendons/${tendon.id}/flags`);
+  const { office, engineer } = await tendonFlagsAsEngineer(browser, fx.projectId, tendon.id);
   const shown = engineer.getByTestId("liftoff-check-result");
   await expect(shown).toHaveAttribute("data-within", "true");
   await expect(shown).toContainText("Lift-off within band");

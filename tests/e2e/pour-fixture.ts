@@ -4,7 +4,7 @@ import { uuidv7 } from "uuidv7";
 import { pressureForForce } from "@/lib/elongation";
 import { predictTendon, type ProjectBasis, type TendonBasis } from "@/lib/stressing/basis";
 import { formatLength, MM_PER_INCH, MPA_PER_PSI, parseLength, parsePressure } from "@/lib/units";
-import { PEOPLE, queryDemo } from "./people";
+import { PEOPLE, apiAs, queryDemo } from "./people";
 
 const PSI_PER_MPA = 1 / MPA_PER_PSI;
 
@@ -219,6 +219,23 @@ export async function decideFlag(
     data: { decision, reasons, licenceStatement: "Licensed professional engineer (test)" },
   });
   expect(ordered.status()).toBe(201);
+}
+
+/**
+ * A pour of the spec's own whose one tendon (`tag`) read short, at 85 % of the prediction, and was
+ * flagged; and the engineer's `decision` on the flag, for `reasons`. The pour, its tendon, the
+ * crew's and the engineer's API clients (the spec disposes of them), the flag and the record.
+ */
+export async function shortTendonDecided(pourName: string, tag: string, decision: string, reasons: string) {
+  const fx = await makePourFixture(pourName, [tag]);
+  const tendon = fx.tendons[0]!;
+  const crewApi = await apiAs(PEOPLE.crew);
+  const pushed = await pushEndA(crewApi, fx, tendon.id, 0.85);
+  expect(pushed.result).toMatchObject({ status: "applied" });
+  const flagId = await outOfBandFlagId(tendon.id);
+  const engineerApi = await apiAs(PEOPLE.engineer);
+  await decideFlag(engineerApi, fx, flagId, decision, reasons);
+  return { fx, tendon, crewApi, engineerApi, flagId, recordId: pushed.recordId };
 }
 
 /** The demo project's id (a spec that only needs the project, not a pour of its own). */

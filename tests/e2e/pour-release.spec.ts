@@ -1,4 +1,5 @@
 import { expect, test } from "@playwright/test";
+import { tendonBody } from "../support/api-routes";
 import { screenshot } from "./support";
 import { PEOPLE, apiAs, queryDemo, signInWithPassword } from "./people";
 import { makePourFixture, pushEndA } from "./pour-fixture";
@@ -95,17 +96,7 @@ test("a released pour refuses a new record and a new tendon until the engineer r
   expect(after).toBe(before);
   const admin = await apiAs(PEOPLE.admin);
   const tendon = await admin.post(`/api/projects/${fx.projectId}/pours/${fx.pourId}/tendons`, {
-    data: {
-      tag: `RL-${stamp}-3`,
-      kind: "unbonded_monostrand",
-      strandSize: "0.5 in",
-      strandCount: 1,
-      segments: [{ lengthMm: 9000, angleRad: 0.1 }],
-      ends: "A",
-      jackGripMm: null,
-      shopElongationMm: null,
-      strandLotId: null,
-    },
+    data: tendonBody(`RL-${stamp}-3`),
   });
   expect(tendon.status()).toBe(409);
   expect(((await tendon.json()) as { error: { message: string } }).error.message).toMatch(/released/);

@@ -1,8 +1,9 @@
 import { expect, test, type Locator, type Page } from "@playwright/test";
-import { judgeStressing } from "@/lib/stressing/judge";
+import { judgeStressing, type JudgeCalibration } from "@/lib/stressing/judge";
+import { judgeRecord } from "../support/judge-record";
 import { formatLength, parsePressure, MM_PER_INCH, MPA_PER_PSI } from "@/lib/units";
 import { PEOPLE, queryDemo, signInWithPassword } from "./people";
-import { makePourFixture, typedReading } from "./pour-fixture";
+import { makePourFixture, typedReading, type PourFixture } from "./pour-fixture";
 import { screenshot } from "./support";
 import { openPourAsCrew } from "./field-steps";
 
@@ -25,23 +26,17 @@ async function expectOnScreen(page: Page, target: Locator, what: string) {
   await expect(target, `${what} is wholly seen`).toBeInViewport({ ratio: 1 });
 }
 
-test("a reading the division could flip is read again finer before saving; a broken wire names its strand and place", async ({
-  browser,
-}) => {
-  test.setTimeout(120_000);
-  const fx = await makePourFixture(POUR, [`RR-${stamp}-1`]);
-  const tendon = fx.tendons[0]!;
-  const [set] = await queryDemo<{ name: string }>("select name from equipment_sets where id = $1", [fx.setId]);
-  const [project] = await queryDemo<{ reading_resolution: string; jacking_force_factor: number; time_zone: string }>(
-    "select reading_resolution, jacking_force_factor, time_zone from projects where id = $1",
+/**
+ * What the judge the tablet runs says of one marks reading of the pour's first tendon at
+ * `finalMPa` (100 mm measured), on the project's basis in US units read to 1/8 in, with the
+ * fixture's set holding `calibrations`.
+ */
+async function judgeOnPour(fx: PourFixture, finalMPa: number, calibrations: JudgeCalibration[]) {
+  const [project] = await queryDemo<{ jacking_force_factor: number; time_zone: string }>(
+    "select jacking_force_factor, time_zone from projects where id = $1",
     [fx.projectId],
   );
-  expect(project!.reading_resolution).toBe("1/8in");
-
-  // The band's upper edge for marks, from the same judge the tablet runs.
-  const { psi } = typedReading(fx, 1);
-  const finalMPa = parsePressure(psi, { field: "finalPressure", system: "SI", defaultUnit: "psi" });
-  const judged = judgeStressing({
+  return judgeStressing({
     project: {
       ...fx.project,
       unitSystem: "us",
@@ -51,46 +46,44 @@ test("a reading the division could flip is read again finer before saving; a bro
     },
     tendon: fx.tendon,
     lot: fx.lot,
-    sets: [
-      {
-        id: fx.setId,
-        name: "set",
-        jackGripMm: null,
-        maxForceN: null,
-        calibrations: [
-          {
-            id: fx.calibrationId,
-            calibratedOn: "2000-01-01",
-            validUntil: "2100-01-01",
-            ...fx.line,
-            minPressureMPa: 0,
-            maxPressureMPa: 1000,
-          },
-        ],
-      },
-    ],
+    sets: [{ id: fx.setId, name: "set", jackGripMm: null, maxForceN: null, calibrations }],
     records: [
-      {
-        id: "probe",
-        chainId: "probe",
-        revision: 1,
-        end: "A",
+      judgeRecord({
         deviceTime: new Date(),
         equipmentSetId: fx.setId,
-        calibrationId: fx.calibrationId,
-        expiredCalibrationReason: null,
-        readingMethod: "marks",
-        initialPressureMPa: null,
+        calibrationId: calibrations[0]?.id ?? null,
         finalPressureMPa: finalMPa,
-        measuredMm: 100,
-        strokeCount: 1,
-        drawInMm: null,
-        seatingMm: null,
-        stressingOrder: null,
-        wireBreaks: 0,
-      },
+      }),
     ],
   });
+}
+
+test("a reading the division could flip is read again finer before saving; a broken wire names its strand and place", async ({
+  browser,
+}) => {
+  test.setTimeout(120_000);
+  const fx = await makePourFixture(POUR, [`RR-${stamp}-1`]);
+  const tendon = fx.tendons[0]!;
+  const [set] = await queryDemo<{ name: string }>("select name from equipment_sets where id = $1", [fx.setId]);
+  const [project] = await queryDemo<{ reading_resolution: string }>(
+    "select reading_resolution from projects where id = $1",
+    [fx.projectId],
+  );
+  expect(project!.reading_resolution).toBe("1/8in");
+
+  // The band's upper edge for marks, from the same judge the tablet runs.
+  const { psi } = typedReading(fx, 1);
+  const finalMPa = parsePressure(psi, { field: "finalPressure", system: "SI", defaultUnit: "psi" });
+  const judged = await judgeOnPour(fx, finalMPa, [
+    {
+      id: fx.calibrationId,
+      calibratedOn: "2000-01-01",
+      validUntil: "2100-01-01",
+      ...fx.line,
+      minPressureMPa: 0,
+      maxPressureMPa: 1000,
+    },
+  ]);
   const upperMm = judged.comparison!.upperMm;
   // The 1/8 in division nearest the edge: ±1/16 in around it always straddles the edge.
   const firstAfter = formatLength(2 * IN + upperMm, "1/8 in").replace(/ in$/, "");
@@ -182,46 +175,10 @@ test("gauge steps entered offline are saved, synced and judged along their least
     "select min_pressure_mpa, max_pressure_mpa from calibrations where id = $1",
     [fx.calibrationId],
   );
-  const [project] = await queryDemo<{ jacking_force_factor: number; time_zone: string }>(
-    "select jacking_force_factor, time_zone from projects where id = $1",
-    [fx.projectId],
-  );
   // The tendon's own prediction, from the judge the tablet runs: gross at the specified force and the plan's set.
   const { psi } = typedReading(fx, 1);
   const mpa = (typed: string) => parsePressure(typed, { field: "p", system: "SI", defaultUnit: "psi" });
-  const probe = judgeStressing({
-    project: {
-      ...fx.project,
-      unitSystem: "us",
-      readingResolution: "1/8in",
-      jackingForceFactor: project!.jacking_force_factor,
-      timeZone: project!.time_zone,
-    },
-    tendon: fx.tendon,
-    lot: fx.lot,
-    sets: [{ id: fx.setId, name: "set", jackGripMm: null, maxForceN: null, calibrations: [] }],
-    records: [
-      {
-        id: "probe",
-        chainId: "probe",
-        revision: 1,
-        end: "A",
-        deviceTime: new Date(),
-        equipmentSetId: fx.setId,
-        calibrationId: null,
-        expiredCalibrationReason: null,
-        readingMethod: "marks",
-        initialPressureMPa: null,
-        finalPressureMPa: mpa(psi),
-        measuredMm: 100,
-        strokeCount: 1,
-        drawInMm: null,
-        seatingMm: null,
-        stressingOrder: null,
-        wireBreaks: 0,
-      },
-    ],
-  }).ends[0]!;
+  const probe = (await judgeOnPour(fx, mpa(psi), [])).ends[0]!;
   const G = probe.predictedGrossMm;
   const force = (typed: string) => fx.line.slope * mpa(typed) + fx.line.intercept;
   // Steps at 20/40/60/80/100 % of the final pressure, read from a mark 2 in out, as a perfect tendon

@@ -1,4 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { calibrationCorrectionSchema, calibrationRetirementSchema, pickCalibration } from "@/lib/schemas/calibration";
 import { addCalibration } from "@/lib/server/add-calibration";
 import { correctCalibration } from "@/lib/server/correct-calibration";
@@ -10,24 +10,16 @@ import {
   previewCalibrationRetirement,
 } from "@/lib/server/preview-calibration-correction";
 import { retireCalibration } from "@/lib/server/retire-calibration";
-import { insertRecord, seededDemo, type DemoFixture, demoPerson } from "../support/records";
-import { type TestDatabase } from "../support/database";
+import { calibrationBody } from "../support/api-routes";
+import { insertRecord, seededDemoPerFile, demoPerson } from "../support/records";
 
 // A calibration typed wrong is corrected, one found bad is retired, each with a reason and audited,
 // on real PostgreSQL: the old figures stay, so the stored evaluation keeps the calibration it used;
 // the tendons that stood on it are judged again; a retired calibration is never picked again.
 // Calibration figures are invented (a straight line of about 5.1 kN per MPa, like a 100 t jack).
 
-let t: TestDatabase;
-let fx: DemoFixture;
-beforeAll(async () => {
-  ({ t, fx } = await seededDemo());
-});
-afterAll(async () => {
-  await t.drop();
-});
+const { t, fx } = seededDemoPerFile();
 
-const points = (slope: number) => [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: slope * p - 900 }));
 type Used = { id: string; slope_n_per_mpa: number };
 const usedOf = (inputs: unknown) =>
   ((typeof inputs === "string" ? JSON.parse(inputs) : inputs) as { calibrations: Used[] }).calibrations;
@@ -49,13 +41,7 @@ describe("correcting and retiring a calibration", () => {
     const first = await addCalibration(t.db, {
       projectId: fx.projectId,
       setId,
-      values: {
-        calibratedOn: "2026-11-02",
-        validUntil: null,
-        laboratory: null,
-        certificateAttachmentId: null,
-        points: points(5100),
-      },
+      values: calibrationBody("2026-11-02", 5100),
     });
     // A one-end tendon on a pour not yet stressed, read with this set (the record names no calibration).
     const tendon = await t.db
@@ -100,13 +86,7 @@ describe("correcting and retiring a calibration", () => {
     expect(short.error?.issues.map((i) => i.path.join("."))).toEqual(["reason"]);
     const future = calibrationCorrectionSchema.safeParse({
       reason: "The certificate's last point was typed wrong.",
-      calibration: {
-        calibratedOn: "2999-01-01",
-        validUntil: null,
-        laboratory: null,
-        certificateAttachmentId: null,
-        points: points(5200),
-      },
+      calibration: calibrationBody("2999-01-01", 5200),
     });
     expect(future.error?.issues.map((i) => i.path.join("."))).toEqual(["calibration.calibratedOn"]);
 
@@ -118,13 +98,7 @@ describe("correcting and retiring a calibration", () => {
       calibrationId: first.calibrationId,
       by: admin,
       reason: "Forces were copied from the 2025 certificate; these are the 2026 ones.",
-      values: {
-        calibratedOn: "2026-11-02",
-        validUntil: null,
-        laboratory: null,
-        certificateAttachmentId: null,
-        points: points(5300),
-      },
+      values: calibrationBody("2026-11-02", 5300),
     };
     const counts = async () => ({
       calibrations: (await t.db.selectFrom("calibrations").select("id").where("equipment_set_id", "=", setId).execute())
@@ -148,7 +122,7 @@ describe("correcting and retiring a calibration", () => {
     const addition = {
       projectId: fx.projectId,
       setId,
-      values: { ...correction.values, calibratedOn: "2026-11-20", points: points(5250) },
+      values: { ...correction.values, calibratedOn: "2026-11-20", points: calibrationBody("2026-11-20", 5250).points },
     };
     const added = await previewAddCalibration(t.db, addition);
     expect(added).toMatchObject({ rejudged: 1 });

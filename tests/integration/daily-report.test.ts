@@ -21,7 +21,15 @@ import { dailySnapshot } from "@/lib/reports/daily-rows";
 import { signDailyReport } from "@/lib/server/sign-daily-report";
 import { verifyReportFile } from "@/lib/server/verify-report-file";
 import { type TestDatabase } from "../support/database";
-import { copyDemoTendons, seededDemo, type DemoFixture, insertDemoRecord, demoPerson } from "../support/records";
+import {
+  copyDemoTendons,
+  openFlagIdOf,
+  signatureRows,
+  seededDemo,
+  type DemoFixture,
+  insertDemoRecord,
+  demoPerson,
+} from "../support/records";
 import { makePour } from "../support/factories";
 
 // A pour of our own on the demo project, whose zone is set to America/Chicago. Day under test:
@@ -144,16 +152,9 @@ beforeAll(async () => {
     ["C-01", "liftoff_check"],
     ["C-02", "detension_restress"],
   ] as const) {
-    const flag = await t.db
-      .selectFrom("flags")
-      .select("id")
-      .where("tendon_id", "=", checkTendons[tag]!.id)
-      .where("status", "!=", "closed")
-      .orderBy("created_at")
-      .executeTakeFirstOrThrow();
     const { dispositionId } = await recordDisposition(t.db, {
       projectId: fx.projectId,
-      flagId: flag.id,
+      flagId: await openFlagIdOf(t.db, checkTendons[tag]!.id),
       engineer,
       disposition: {
         decision,
@@ -425,14 +426,9 @@ describe("the day's special-inspection report", () => {
       (await getDailyCsv(t.db, { projectId: fx.projectId, day: DAY })).csv,
       { header: true },
     );
-    expect(csv.data.filter((r) => r.Section === "signature").map((r) => r.Details)).toEqual([
-      "Signed by: Dana Okafor",
-      "Licence or certification: ICC special inspector 5551234 (invented)",
-      `Statement: ${values.statement}`,
-      expect.stringMatching(/^Signed: \d{4}-\d\d-\d\d \d\d:\d\d C[SD]T$/),
-      `Content sha256: ${first.contentSha256}`,
-      "Revision: 1",
-    ]);
+    expect(csv.data.filter((r) => r.Section === "signature").map((r) => r.Details)).toEqual(
+      signatureRows(values, first.contentSha256),
+    );
     // The remarks start with "=": the CSV opens them as text, not a formula.
     expect(csv.data.find((r) => r.Section === "remarks")?.Details).toBe(`'${values.remarks}`);
 

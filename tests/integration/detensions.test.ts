@@ -11,7 +11,7 @@ import { pullChanges } from "@/lib/server/pull-changes";
 import { pushOps } from "@/lib/server/push-ops";
 import { recordDisposition } from "@/lib/server/record-disposition";
 import type { TestDatabase } from "../support/database";
-import { demoPerson } from "../support/records";
+import { demoPerson, flagIdOf } from "../support/records";
 import { syncWorld, createOp, type SyncWorld } from "./sync-fixtures";
 
 /**
@@ -88,15 +88,10 @@ beforeAll(async () => {
     // Stressed at 06:00 on the site's clock (the times of this file lie before the test's run, so none is in the future).
     const [pushed] = (await push(createOp(w, tendon.id, { marksAfter: "2" }, { deviceTime: STRESSED_AT }))).results;
     expect(pushed).toMatchObject({ status: "applied", evaluation: { verdict: "short" } });
-    const flag = await t.db
-      .selectFrom("flags")
-      .select("id")
-      .where("tendon_id", "=", tendon.id)
-      .where("kind", "=", "out_of_band")
-      .executeTakeFirstOrThrow();
+    const flagId = await flagIdOf(t.db, tendon.id, "out_of_band");
     const { dispositionId } = await recordDisposition(app, {
       projectId: w.projectId,
-      flagId: flag.id,
+      flagId,
       engineer: { id: engineer.id, name: "Demo Engineer" },
       disposition: {
         decision: i < 2 ? "detension_restress" : "restress",

@@ -5,13 +5,12 @@ import { checkHealth } from "@/lib/server/check-health";
 import { checkMailFlow } from "@/lib/server/check-mail-flow";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 import { startTcpCut, type TcpCut } from "../support/tcp-cut";
+import { inboxCount, queueMail } from "../support/mail";
 
 // The dispatcher process itself (scripts/dispatcher.ts) runs against the test database through
 // a relay that the test cuts: every connection reset and new ones refused for a few seconds, as
 // in a PostgreSQL restart. Before the pool had an error listener, the reset of an idle
 // connection ended the dispatcher and flag e-mails stopped with no sign anywhere.
-
-const INBOX = process.env.MAIL_INBOX_URL ?? "http://127.0.0.1:1081";
 
 let t: TestDatabase;
 let relay: TcpCut;
@@ -28,11 +27,6 @@ async function until<T>(what: string, probe: () => Promise<T | undefined | null 
     await sleep(100);
   }
   throw new Error(`timed out waiting for ${what}; dispatcher output:\n${output}`);
-}
-
-async function inboxCount(subject: string): Promise<number> {
-  const list = (await (await fetch(`${INBOX}/api/messages`)).json()) as { subject: string }[];
-  return list.filter((m) => m.subject === subject).length;
 }
 
 async function heartbeat(): Promise<number | undefined> {
@@ -72,17 +66,7 @@ describe("the e-mail dispatcher across a database restart", () => {
 
     await relay.cut();
     const subject = `restart-${Date.now()}`;
-    await t.db
-      .insertInto("notifications")
-      .values({
-        project_id: projectId,
-        dedupe_key: `test:${subject}`,
-        to_emails: ["engineer@demo.tautline.test"],
-        subject,
-        text_body: "queued while the database was unreachable",
-        html_body: "<p>queued while the database was unreachable</p>",
-      })
-      .execute();
+    await queueMail(t.db, projectId, subject, "queued while the database was unreachable");
     await sleep(3000);
     expect(child.exitCode, `dispatcher exited during the cut:\n${output}`).toBeNull();
     expect(output).toMatch(/dispatcher pass failed .*trying again in \d+ ms/);
@@ -112,38 +96,18 @@ describe("the e-mail dispatcher across a database restart", () => {
       .set({ beat_at: new Date(Date.now() - 10 * 60_000) })
       .execute();
     const subject = `stalled-${Date.now()}`;
-    await t.db
-      .insertInto("notifications")
-      .values({
-        project_id: projectId,
-        dedupe_key: `test:${subject}`,
-        to_emails: ["engineer@demo.tautline.test"],
-        subject,
-        text_body: "x",
-        html_body: "<p>x</p>",
-        created_at: new Date(Date.now() - 20 * 60_000),
-      })
-      .execute();
+    await queueMail(t.db, projectId, subject, "x", { created_at: new Date(Date.now() - 20 * 60_000) });
     const flag = await t.db
       .selectFrom("flags")
       .select(["id", "tendon_id"])
       .where("project_id", "=", projectId)
       .limit(1)
       .executeTakeFirstOrThrow();
-    await t.db
-      .insertInto("notifications")
-      .values({
-        project_id: projectId,
-        flag_id: flag.id,
-        dedupe_key: `test:failed-${subject}`,
-        to_emails: ["engineer@demo.tautline.test"],
-        subject: `failed-${subject}`,
-        text_body: "x",
-        html_body: "<p>x</p>",
-        status: "failed",
-        last_error: "relay refused",
-      })
-      .execute();
+    await queueMail(t.db, projectId, `failed-${subject}`, "x", {
+      flag_id: flag.id,
+      status: "failed",
+      last_error: "relay refused",
+    });
 
     const flow = await checkMailFlow(t.db, [projectId]);
     expect(flow.state).toBe("stalled");

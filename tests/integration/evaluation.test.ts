@@ -1,5 +1,5 @@
 import { sql } from "kysely";
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
+import { beforeEach, describe, expect, it } from "vitest";
 import { MPA_PER_PSI } from "@/lib/units";
 import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
@@ -9,23 +9,13 @@ import { getTendonCase } from "@/lib/server/get-tendon-case";
 import { RECORD_COLUMNS, recordRows } from "@/lib/reports/pour-rows";
 import {
   insertRecord,
-  seededDemo,
-  type DemoFixture,
+  seededDemoPerFile,
   insertDemoRecord,
   pressureForForce,
   demoPrediction,
 } from "../support/records";
-import { type TestDatabase } from "../support/database";
 
-let t: TestDatabase;
-let fx: DemoFixture;
-
-beforeAll(async () => {
-  ({ t, fx } = await seededDemo());
-});
-afterAll(async () => {
-  await t.drop();
-});
+const { t, fx } = seededDemoPerFile();
 
 const predictedFor = (tendonId: string) => demoPrediction(t.db, { projectId: fx.projectId, tendonId });
 

@@ -1,5 +1,4 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 import { settingsFields } from "@/lib/schemas/project-settings";
 import { addCalibration } from "@/lib/server/add-calibration";
 import { createEquipmentSet } from "@/lib/server/create-equipment-set";
@@ -7,7 +6,8 @@ import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getProjectSettings } from "@/lib/server/get-project-settings";
 import { previewSettingsChange } from "@/lib/server/preview-settings-change";
 import { updateProjectSettings } from "@/lib/server/update-project-settings";
-import { insertRecord, predictionAsRead } from "../support/records";
+import { HALF_INCH, insertRecord, predictionAsRead } from "../support/records";
+import { calibrationBody } from "../support/api-routes";
 import { makePour, makeProject, makeTendons } from "../support/factories";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 
@@ -21,8 +21,6 @@ import { createTestDatabase, type TestDatabase } from "../support/database";
 // Jacking at 0.80·fpu·A (ACI 318-19 Table 20.3.2.5.1, from memory), 0.5 in strand 41,300 lbf
 // (ASTM A416 Table 1). The settings preview is checked on the same change: a group band moves
 // flags, not verdicts, and the preview counts them.
-
-const HALF_INCH = ASTM_A416_GRADE_270.find((s) => s.designation === "0.5 in")!;
 
 let t: TestDatabase;
 beforeAll(async () => {
@@ -55,13 +53,7 @@ describe("the group-average band of a schedule with member groups", () => {
     await addCalibration(t.db, {
       projectId: project.id,
       setId,
-      values: {
-        calibratedOn: "2026-11-02",
-        validUntil: null,
-        laboratory: null,
-        certificateAttachmentId: null,
-        points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })),
-      },
+      values: calibrationBody("2026-11-02"),
     });
     const pressure = (0.8 * HALF_INCH.minBreakingStrengthN + 900) / 5100;
     const pour = await makePour(t.db, project.id, { name: "Level 3 deck" });

@@ -14,7 +14,7 @@ import { predictTendon, projectBasisFromRow } from "@/lib/stressing/basis";
 import { expectedAnchorForceN } from "@/lib/stressing/liftoff";
 import { mpaToPsi } from "@/lib/units";
 import type { TestDatabase } from "../support/database";
-import { demoPerson } from "../support/records";
+import { demoPerson, flagIdOf } from "../support/records";
 import { syncWorld, createOp, type SyncWorld } from "./sync-fixtures";
 import { settingsFields } from "@/lib/schemas/project-settings";
 
@@ -82,15 +82,10 @@ beforeAll(async () => {
   for (const [i, x] of [first!, second!].entries()) {
     const [pushed] = (await push(createOp(w, x.id, { marksAfter: "2" }))).results;
     expect(pushed).toMatchObject({ status: "applied", evaluation: { verdict: "short" } });
-    const flag = await t.db
-      .selectFrom("flags")
-      .select("id")
-      .where("tendon_id", "=", x.id)
-      .where("kind", "=", "out_of_band")
-      .executeTakeFirstOrThrow();
+    const flagId = await flagIdOf(t.db, x.id, "out_of_band");
     const { dispositionId: id } = await recordDisposition(app, {
       projectId: w.projectId,
-      flagId: flag.id,
+      flagId,
       engineer: { id: engineer.id, name: "Demo Engineer" },
       disposition: {
         decision: i === 0 ? "liftoff_check" : "restress",

@@ -3,8 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { seedDemo } from "@/scripts/seed/demo";
 import { MAX_ATTEMPTS, dispatchOne, drainNotifications } from "@/lib/server/dispatch-notifications";
 import { createTestDatabase, type TestDatabase } from "../support/database";
-
-const INBOX = process.env.MAIL_INBOX_URL ?? "http://127.0.0.1:1081";
+import { inboxCount, queueMail } from "../support/mail";
 
 let t: TestDatabase;
 let projectId: string;
@@ -18,26 +17,7 @@ afterAll(async () => {
   await t.drop();
 });
 
-async function queue(subject: string): Promise<string> {
-  const row = await t.db
-    .insertInto("notifications")
-    .values({
-      project_id: projectId,
-      dedupe_key: `test:${subject}`,
-      to_emails: ["engineer@demo.tautline.test"],
-      subject,
-      text_body: `Body of ${subject}`,
-      html_body: `<p>Body of ${subject}</p>`,
-    })
-    .returning("id")
-    .executeTakeFirstOrThrow();
-  return row.id;
-}
-
-async function inboxCount(subject: string): Promise<number> {
-  const list = (await (await fetch(`${INBOX}/api/messages`)).json()) as { subject: string }[];
-  return list.filter((m) => m.subject === subject).length;
-}
+const queue = (subject: string) => queueMail(t.db, projectId, subject);
 
 describe("the e-mail dispatcher", () => {
   it("sends a queued notification through SMTP once and marks it sent", async () => {

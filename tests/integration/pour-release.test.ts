@@ -84,14 +84,7 @@ const FIRST_RELEASE = "Both tendons in band; tails may be cut.";
 /** A stressed pour the engineer has released. */
 async function releasedPour(name: string): Promise<TestPour> {
   const pour = await stressedPour(name);
-  await releasePour(t.db, {
-    projectId: w.projectId,
-    pourId: pour.pourId,
-    by: engineer(),
-    statement: FIRST_RELEASE,
-    signerName: "Dana Okafor",
-    licence: "PE 048213 (invented)",
-  });
+  await release(pour.pourId, FIRST_RELEASE);
   return pour;
 }
 
@@ -113,6 +106,37 @@ const crewSession = () =>
     memberships: w.crew.memberships.map((m) => ({ ...m, projectName: "", projectCode: "" })),
   }) as unknown as Parameters<typeof pullChanges>[1]["user"];
 const engineer = () => ({ ...people.engineer, role: "engineer" as const });
+
+/** The inspector's paperwork correction of the tendon's record: the length copied 1 mm short. */
+async function correctOneMm(tendonId: string) {
+  const record = await t.db
+    .selectFrom("records")
+    .select(["id", "measured_mm"])
+    .where("tendon_id", "=", tendonId)
+    .executeTakeFirstOrThrow();
+  return correctRecord(t.db, {
+    projectId: w.projectId,
+    recordId: record.id,
+    by: { id: people.inspector.id },
+    correction: { reason: "Copied from the wrong line.", measuredMm: record.measured_mm + 1 },
+  });
+}
+
+type Release = Parameters<typeof releasePour>[1];
+/** A release of the pour by `by` (the engineer unless said), signed as the demo's engineer signs. */
+const release = (pourId: string, statement: string, by: Release["by"] = engineer(), hooks?: Release["hooks"]) =>
+  releasePour(t.db, {
+    projectId: w.projectId,
+    pourId,
+    by,
+    statement,
+    signerName: "Dana Okafor",
+    licence: "PE 048213 (invented)",
+    hooks,
+  });
+/** A reopen of the pour by `by` (the engineer unless said), for `reason`. */
+const reopen = (pourId: string, reason: string, by: Release["by"] = engineer()) =>
+  reopenPour(t.db, { projectId: w.projectId, pourId, by, reason });
 
 beforeAll(async () => {
   ({ t, w, app } = await syncWorld(3));
@@ -167,27 +191,13 @@ describe("release", () => {
   it("is refused to an admin, the inspector (on an engineer-released project) and the crew; the statement must be confirmed", async () => {
     const { pourId } = await stressedPour("Release refused pour");
     for (const role of ["admin", "inspector"] as const) {
-      await expect(
-        releasePour(t.db, {
-          projectId: w.projectId,
-          pourId,
-          by: { ...people[role], role },
-          statement: "Trying to release it.",
-          signerName: "Dana Okafor",
-          licence: "PE 048213 (invented)",
-        }),
-      ).rejects.toMatchObject({ code: "FORBIDDEN" });
+      await expect(release(pourId, "Trying to release it.", { ...people[role], role })).rejects.toMatchObject({
+        code: "FORBIDDEN",
+      });
     }
-    await expect(
-      releasePour(t.db, {
-        projectId: w.projectId,
-        pourId,
-        by: { id: w.crew.id, name: "Crew", role: "crew" },
-        statement: "Crew release.",
-        signerName: "Dana Okafor",
-        licence: "PE 048213 (invented)",
-      }),
-    ).rejects.toMatchObject({ code: "FORBIDDEN" });
+    await expect(release(pourId, "Crew release.", { id: w.crew.id, name: "Crew", role: "crew" })).rejects.toMatchObject(
+      { code: "FORBIDDEN" },
+    );
     expect((await stateOf(pourId)).status).toBe("stressed");
     const unconfirmed = releaseSchema.safeParse({ statement: "All tendons accepted; tails may be cut." });
     expect(unconfirmed.error?.issues.map((i) => i.path.join("."))).toEqual(["signerName", "licence", "confirmed"]);
@@ -200,26 +210,10 @@ describe("release", () => {
     const pour = await stressedPour("Release pour");
     const { pourId, tendonIds } = pour;
     const cursorBefore = (await pullChanges(t.db, { user: crewSession(), cursor: "0", pourIds: [pourId] })).cursor;
-    await releasePour(t.db, {
-      projectId: w.projectId,
-      pourId,
-      by: engineer(),
-      statement: "Both tendons in band; tails may be cut.",
-      signerName: "Dana Okafor",
-      licence: "PE 048213 (invented)",
-    });
+    await release(pourId, "Both tendons in band; tails may be cut.");
     const state = await stateOf(pourId);
     expect(state).toMatchObject({ status: "released", released_by_name: people.engineer.name });
-    await expect(
-      releasePour(t.db, {
-        projectId: w.projectId,
-        pourId,
-        by: engineer(),
-        statement: "A second release of the same pour.",
-        signerName: "Dana Okafor",
-        licence: "PE 048213 (invented)",
-      }),
-    ).rejects.toMatchObject({ code: "CONFLICT" });
+    await expect(release(pourId, "A second release of the same pour.")).rejects.toMatchObject({ code: "CONFLICT" });
 
     // The tablet learns of the release on its next pull, though no record changed.
     const pulled = await pullChanges(t.db, { user: crewSession(), cursor: cursorBefore, pourIds: [pourId] });
@@ -318,26 +312,14 @@ describe("reopen", () => {
   it("is the engineer's alone, needs a confirmed reason, and is refused on a pour that is not released", async () => {
     const { pourId } = await releasedPour("Reopen refused pour");
     for (const role of ["admin", "inspector"] as const) {
-      await expect(
-        reopenPour(t.db, {
-          projectId: w.projectId,
-          pourId,
-          by: { ...people[role], role },
-          reason: "Reopen by the wrong person.",
-        }),
-      ).rejects.toMatchObject({ code: "FORBIDDEN" });
+      await expect(reopen(pourId, "Reopen by the wrong person.", { ...people[role], role })).rejects.toMatchObject({
+        code: "FORBIDDEN",
+      });
     }
     expect(reopenSchema.safeParse({ reason: "short", confirmed: true }).success).toBe(false);
     expect(reopenSchema.safeParse({ reason: "Lift-off check ordered on RT-1.", confirmed: false }).success).toBe(false);
     const stressed = await stressedPour("Never released pour");
-    await expect(
-      reopenPour(t.db, {
-        projectId: w.projectId,
-        pourId: stressed.pourId,
-        by: engineer(),
-        reason: "Nothing to reopen here.",
-      }),
-    ).rejects.toMatchObject({ code: "CONFLICT" });
+    await expect(reopen(stressed.pourId, "Nothing to reopen here.")).rejects.toMatchObject({ code: "CONFLICT" });
   });
 
   it("lets records in again, is audited and shown with the pour, and the pour can be released anew", async () => {
@@ -352,12 +334,7 @@ describe("reopen", () => {
     const signer = { id: people.inspector.id };
     const first = await signPourReport(t.db, { projectId: w.projectId, pourId, signer, values: signValues });
     expect(first.revision).toBe(1);
-    await reopenPour(t.db, {
-      projectId: w.projectId,
-      pourId,
-      by: engineer(),
-      reason: "Lift-off check ordered on RT-1 after the site visit.",
-    });
+    await reopen(pourId, "Lift-off check ordered on RT-1 after the site visit.");
     // The reopen is in the report's content: a new content hash, the reopening printed under the release.
     const reopened = await getPourReport(t.db, { projectId: w.projectId, pourId });
     expect(await reportContentSha256(reopened)).not.toBe(first.contentSha256);
@@ -418,17 +395,7 @@ describe("reopen", () => {
     });
 
     // The paperwork correction refused while the pour stood released is taken now.
-    const record = await t.db
-      .selectFrom("records")
-      .select(["id", "measured_mm"])
-      .where("tendon_id", "=", tendonIds[0]!)
-      .executeTakeFirstOrThrow();
-    const corrected = await correctRecord(t.db, {
-      projectId: w.projectId,
-      recordId: record.id,
-      by: { id: people.inspector.id },
-      correction: { reason: "Copied from the wrong line.", measuredMm: record.measured_mm + 1 },
-    });
+    const corrected = await correctOneMm(tendonIds[0]!);
     expect(corrected.evaluation).toMatchObject({ verdict: "in band" });
 
     // The list shows its times in the project's zone, not the server's or UTC.
@@ -449,14 +416,7 @@ describe("reopen", () => {
       timeZone: "America/Denver",
     });
 
-    await releasePour(t.db, {
-      projectId: w.projectId,
-      pourId,
-      by: engineer(),
-      statement: "Lift-off checked; released again.",
-      signerName: "Dana Okafor",
-      licence: "PE 048213 (invented)",
-    });
+    await release(pourId, "Lift-off checked; released again.");
     expect((await stateOf(pourId)).status).toBe("released");
     const releases = await t.db
       .selectFrom("releases")
@@ -514,21 +474,12 @@ describe("decisions sync down", () => {
 });
 
 describe("the release's report hash", () => {
-  const release = (pour: string, hooks?: Parameters<typeof releasePour>[1]["hooks"]) =>
-    releasePour(t.db, {
-      projectId: w.projectId,
-      pourId: pour,
-      by: engineer(),
-      statement: "Tendon in band; tails may be cut.",
-      signerName: "Dana Okafor",
-      licence: "PE 048213 (invented)",
-      hooks,
-    });
+  const HASH_RELEASE = "Tendon in band; tails may be cut.";
 
   it("is the report drawn before the lock when nothing changed in between", async () => {
     const pour = await stressedPour("Hash pour, quiet", 1);
     const before = await pourReportContentSha256(t.db, { projectId: w.projectId, pourId: pour.pourId });
-    const released = await release(pour.pourId);
+    const released = await release(pour.pourId, HASH_RELEASE);
     expect(released).toMatchObject({ contentSha256: before, redrawn: false });
   });
 
@@ -537,20 +488,10 @@ describe("the release's report hash", () => {
     const before = await pourReportContentSha256(t.db, { projectId: w.projectId, pourId: pour.pourId });
     let withLateRecord = "";
     let lateRecordId = "";
-    const released = await release(pour.pourId, {
+    const released = await release(pour.pourId, HASH_RELEASE, engineer(), {
       afterDraw: async () => {
         // A paperwork correction stores a new record revision of the tendon while the report is drawn.
-        const record = await t.db
-          .selectFrom("records")
-          .select(["id", "measured_mm"])
-          .where("tendon_id", "=", pour.tendonIds[0]!)
-          .executeTakeFirstOrThrow();
-        const corrected = await correctRecord(t.db, {
-          projectId: w.projectId,
-          recordId: record.id,
-          by: { id: people.inspector.id },
-          correction: { reason: "Copied from the wrong line.", measuredMm: record.measured_mm + 1 },
-        });
+        const corrected = await correctOneMm(pour.tendonIds[0]!);
         expect(corrected.evaluation).toMatchObject({ verdict: "in band" });
         lateRecordId = corrected.recordId;
         withLateRecord = await pourReportContentSha256(t.db, { projectId: w.projectId, pourId: pour.pourId });
@@ -571,15 +512,12 @@ describe("the release's report hash", () => {
     const pour = await stressedPour("Hash pour, refused", 1);
     let drawn = false;
     await expect(
-      releasePour(t.db, {
-        projectId: w.projectId,
-        pourId: pour.pourId,
-        by: { ...people.inspector, role: "inspector" },
-        statement: "Inspector release.",
-        signerName: "Dana Okafor",
-        licence: "PE 048213 (invented)",
-        hooks: { afterDraw: () => void (drawn = true) },
-      }),
+      release(
+        pour.pourId,
+        "Inspector release.",
+        { ...people.inspector, role: "inspector" },
+        { afterDraw: () => void (drawn = true) },
+      ),
     ).rejects.toMatchObject({ code: "FORBIDDEN" });
     expect(drawn).toBe(false);
   });

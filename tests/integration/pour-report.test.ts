@@ -1,20 +1,26 @@
 import { createHash } from "node:crypto";
 import Papa from "papaparse";
-import { PDFParse } from "pdf-parse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { uuidv7 } from "uuidv7";
 import { CAUTION_TEXT } from "@/lib/cautions";
 import { pourCsvTable, renderPourCsv } from "@/lib/reports/pour-csv";
 import { pdfText, renderPourPdf } from "@/lib/reports/pour-pdf";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getPourInsight } from "@/lib/server/get-pour-insight";
 import { getPourReport } from "@/lib/server/get-pour-report";
-import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { recordDisposition } from "@/lib/server/record-disposition";
 import { releasePour } from "@/lib/server/release-pour";
-import { predictTendon } from "@/lib/stressing/basis";
-import { insertRecord, seededDemo, type DemoFixture, demoPerson } from "../support/records";
+import {
+  copyDemoTendons,
+  demoPrediction,
+  insertDemoRecord,
+  insertRecord,
+  seededDemo,
+  type DemoFixture,
+  demoPerson,
+} from "../support/records";
 import { MomentOld } from "@/db/moment-old";
+import { pdfParsed } from "../support/pdf-text";
+import { makePour } from "../support/factories";
 import { type TestDatabase } from "../support/database";
 
 let t: TestDatabase;
@@ -33,39 +39,18 @@ beforeAll(async () => {
     .where("project_id", "=", fx.projectId)
     .where("name", "=", "L2 Pour 2")
     .executeTakeFirstOrThrow();
-  const pour = await t.db
-    .insertInto("pours")
-    .values({ project_id: fx.projectId, name: "Report pour", concrete_strength_mpa: 30 })
-    .returning("id")
-    .executeTakeFirstOrThrow();
-  pourId = pour.id;
+  pourId = (await makePour(t.db, fx.projectId, { name: "Report pour", concreteStrengthMPa: 30 })).id;
   const template = await t.db
     .selectFrom("tendons")
-    .selectAll()
+    .select("tag")
     .where("project_id", "=", fx.projectId)
     .where("pour_id", "=", source.id)
     .orderBy("tag")
     .execute();
   expect(template).toHaveLength(50);
-  tags = [];
+  tags = template.map((row) => `R${row.tag}`);
   for (const row of template) {
-    const tag = `R${row.tag}`;
-    tags.push(tag);
-    await t.db
-      .insertInto("tendons")
-      .values({
-        project_id: fx.projectId,
-        pour_id: pourId,
-        tag,
-        kind: row.kind,
-        strand_size: row.strand_size,
-        strand_count: row.strand_count,
-        segments: JSON.stringify(row.segments),
-        ends: row.ends,
-        jack_grip_mm: row.jack_grip_mm,
-        strand_lot_id: row.strand_lot_id,
-      })
-      .execute();
+    await copyDemoTendons(t.db, { projectId: fx.projectId, pourId }, [`R${row.tag}`], { templateTag: row.tag });
   }
   engineer = await demoPerson(t.db, "engineer@demo.tautline.test");
 
@@ -88,13 +73,7 @@ beforeAll(async () => {
     if (tendon.tag === "R2-2-U04") continue; // read at gauge steps below
     const setId = i < 20 ? fx.setB : fx.setA;
     const line = lines[setId]!;
-    const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: tendon.id });
-    const predicted = predictTendon({
-      project: basis.project,
-      tendon: basis.tendon,
-      lot: basis.lot,
-      equipmentGripMm: 457.2,
-    });
+    const predicted = await demoPrediction(t.db, { projectId: fx.projectId, tendonId: tendon.id });
     const pressure = (predicted.jackingForceN - line.intercept_n) / line.slope_n_per_mpa;
     const wiggle = [0.6, -1.1, 0.3, -0.4, 1.0, -0.7, 0.2, 0.8, -0.9, 0.1][i % 10]! / 100;
     const factor =
@@ -117,54 +96,24 @@ beforeAll(async () => {
   }
   // One end read at four gauge steps, with the steps kept beside the reading as the tablet types them.
   const stepped = tendons.find((x) => x.tag === "R2-2-U04")!;
-  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: stepped.id });
-  const predicted = predictTendon({
-    project: basis.project,
-    tendon: basis.tendon,
-    lot: basis.lot,
-    equipmentGripMm: 457.2,
-  });
+  const predicted = await demoPrediction(t.db, { projectId: fx.projectId, tendonId: stepped.id });
   const line = lines[fx.setA]!;
   const steps = [0.25, 0.5, 0.75, 1].map((f) => ({
     pressureMPa: (f * predicted.jackingForceN - line.intercept_n) / line.slope_n_per_mpa,
     readingMm: 20 + f * predicted.predictedMm,
   }));
-  const id = uuidv7();
-  await t.db
-    .insertInto("records")
-    .values({
-      id,
-      project_id: fx.projectId,
-      pour_id: pourId,
-      tendon_id: stepped.id,
-      tendon_end: "A",
-      chain_id: id,
-      revision: 1,
-      equipment_set_id: fx.setA,
-      final_pressure_mpa: steps[3]!.pressureMPa,
-      reading_method: "marks",
-      entered: JSON.stringify({ unit: "mm", gaugeSteps: steps }),
-      measured_mm: predicted.predictedMm,
-      device_time: "2026-12-01T16:00:00Z",
-      device_time_zone: "America/Chicago",
-      device_id: "test-device",
-      author_user_id: fx.crewId,
-    })
-    .execute();
+  await insertDemoRecord(t.db, fx, {
+    tendon: stepped,
+    finalPressureMPa: steps[3]!.pressureMPa,
+    entered: { unit: "mm", gaugeSteps: steps },
+    measuredMm: predicted.predictedMm,
+    deviceTime: "2026-12-01T16:00:00Z",
+  });
   await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: stepped.id, reason: "sync" });
 }, 120_000);
 afterAll(async () => {
   await t.drop();
 });
-
-async function pdfTextOf(buffer: Buffer) {
-  const parser = new PDFParse({ data: new Uint8Array(buffer) });
-  try {
-    return await parser.getText();
-  } finally {
-    await parser.destroy();
-  }
-}
 
 describe("the pour's stressing report", () => {
   it("as a PDF lists every tendon with its verdict, the basis, the flags, the release and the caution, page by numbered page", async () => {
@@ -232,7 +181,7 @@ describe("the pour's stressing report", () => {
     const report = await getPourReport(t.db, { projectId: fx.projectId, pourId });
     const pdf = await renderPourPdf(report);
     expect(pdf.subarray(0, 5).toString()).toBe("%PDF-");
-    const parsed = await pdfTextOf(pdf);
+    const parsed = await pdfParsed(pdf);
     const text = parsed.text.replace(/\s+/g, " ");
     expect(parsed.total).toBeGreaterThan(2);
     for (let n = 1; n <= parsed.total; n++) expect(text).toContain(`Page ${n} of ${parsed.total}`);
@@ -267,7 +216,7 @@ describe("the pour's stressing report", () => {
     const report = await getPourReport(t.db, { projectId: fx.projectId, pourId: pour.id });
     const unstressed = report.tendons.filter((x) => !x.evaluation);
     expect(unstressed.length).toBeGreaterThan(0);
-    const text = (await pdfTextOf(await renderPourPdf(report))).text.replace(/\s+/g, " ");
+    const text = (await pdfParsed(await renderPourPdf(report))).text.replace(/\s+/g, " ");
     expect(text).toContain("Not released.");
     expect(text).toContain("Not stressed");
     expect(text).toContain(unstressed[0]!.tag);

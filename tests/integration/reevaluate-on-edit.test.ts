@@ -1,13 +1,11 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
+import { describe, expect, it } from "vitest";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { updateStrandLot } from "@/lib/server/update-strand-lot";
 import { updateTendon } from "@/lib/server/update-tendon";
 import type { TendonInput } from "@/lib/schemas/tendon";
 import { AppError } from "@/lib/errors";
-import { predictionAsRead, seededDemo, type DemoFixture, insertDemoRecord, pressureForForce } from "../support/records";
+import { predictionAsRead, seededDemoPerFile, HALF_INCH, insertDemoRecord, pressureForForce } from "../support/records";
 import { makePour, makeStrandLot, makeTendons } from "../support/factories";
-import { type TestDatabase } from "../support/database";
 
 // Editing what a prediction reads (a strand lot's modulus, a tendon's schedule) judges the stressed
 // tendons again on real PostgreSQL, in the edit's own transaction: a new evaluation with the cause,
@@ -15,16 +13,8 @@ import { type TestDatabase } from "../support/database";
 // Jacking at 0.80·fpu·A (ACI 318-19 Table 20.3.2.5.1, from memory), 0.5 in strand 41,300 lbf
 // (ASTM A416 Table 1). Elongation P·L/(A·E): the gross prediction is inversely proportional to E.
 
-let t: TestDatabase;
-let fx: DemoFixture;
-beforeAll(async () => {
-  ({ t, fx } = await seededDemo());
-});
-afterAll(async () => {
-  await t.drop();
-});
+const { t, fx } = seededDemoPerFile();
 
-const HALF_INCH = ASTM_A416_GRADE_270.find((s) => s.designation === "0.5 in")!;
 // Our test lot: certificate values near the ASTM A416 nominal 98.71 mm² and 196.5 GPa.
 const LOT = {
   lotNumber: "RE-EDIT-1",

@@ -1,5 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
+import { describe, expect, it } from "vitest";
 import { dayInZone } from "@/lib/format/dates";
 import { addCalibration } from "@/lib/server/add-calibration";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
@@ -8,8 +7,14 @@ import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { previewSettingsChange } from "@/lib/server/preview-settings-change";
 import { updateProjectSettings } from "@/lib/server/update-project-settings";
 import { judgeStressing } from "@/lib/stressing/judge";
-import { predictionAsRead, seededDemo, type DemoFixture, insertDemoRecord, pressureForForce } from "../support/records";
-import { type TestDatabase } from "../support/database";
+import {
+  pourOfDemoCopies,
+  predictionAsRead,
+  seededDemoPerFile,
+  HALF_INCH,
+  insertDemoRecord,
+  pressureForForce,
+} from "../support/records";
 import { settingsFields } from "@/lib/schemas/project-settings";
 
 // A change of the project's basis judges the stressed tendons again, on real PostgreSQL: the admin
@@ -17,16 +22,7 @@ import { settingsFields } from "@/lib/schemas/project-settings";
 // raises the flags the rules now find and closes the open ones they no longer find.
 // Jacking at 0.80·fpu·A (ACI 318-19 Table 20.3.2.5.1), 0.5 in strand 41,300 lbf (ASTM A416 Table 1).
 
-let t: TestDatabase;
-let fx: DemoFixture;
-beforeAll(async () => {
-  ({ t, fx } = await seededDemo());
-});
-afterAll(async () => {
-  await t.drop();
-});
-
-const HALF_INCH = ASTM_A416_GRADE_270.find((s) => s.designation === "0.5 in")!;
+const { t, fx } = seededDemoPerFile();
 
 describe("re-evaluation when the project's basis changes", () => {
   it("previews, re-judges with the reason, raises and closes flags by the rules", async () => {
@@ -222,43 +218,10 @@ describe("re-evaluation when the project's basis changes", () => {
   it("a group band judges a fully stressed pour's average once, on the tendon stressed last", async () => {
     // A pour of our own with two copies of 2-1-U06 (a one-end tendon), each read 6 % long: inside
     // the ±7 % band on its own, outside a ±5 % group band on the average (our test values).
-    const source = await t.db.selectFrom("tendons").selectAll().where("tag", "=", "2-1-U06").executeTakeFirstOrThrow();
-    const pour = await t.db
-      .insertInto("pours")
-      .values({
-        project_id: fx.projectId,
-        name: "Group test pour",
-        concrete_strength_mpa: (
-          await t.db
-            .selectFrom("pours")
-            .select("concrete_strength_mpa")
-            .where("id", "=", source.pour_id)
-            .executeTakeFirstOrThrow()
-        ).concrete_strength_mpa,
-      })
-      .returning("id")
-      .executeTakeFirstOrThrow();
-    const ids: string[] = [];
-    for (const tag of ["GT-1", "GT-2"]) {
-      const row = await t.db
-        .insertInto("tendons")
-        .values({
-          project_id: fx.projectId,
-          pour_id: pour.id,
-          tag,
-          kind: source.kind,
-          strand_size: source.strand_size,
-          strand_count: source.strand_count,
-          segments: JSON.stringify(source.segments),
-          ends: source.ends,
-          jack_grip_mm: source.jack_grip_mm,
-          shop_elongation_mm: null,
-          strand_lot_id: source.strand_lot_id,
-        })
-        .returning("id")
-        .executeTakeFirstOrThrow();
-      ids.push(row.id);
-    }
+    const { pourId, tendons } = await pourOfDemoCopies(t.db, fx.projectId, "Group test pour", ["GT-1", "GT-2"], {
+      templateTag: "2-1-U06",
+    });
+    const ids = tendons.map((x) => x.id);
     const settings = settingsFields(await getProjectSettings(t.db, fx.projectId));
     await updateProjectSettings(t.db, {
       projectId: fx.projectId,
@@ -271,7 +234,7 @@ describe("re-evaluation when the project's basis changes", () => {
       // The net prediction for marks on this tendon, from the same judge.
       const predicted = await predictionAsRead(t.db, { projectId: fx.projectId, tendonId });
       await insertDemoRecord(t.db, fx, {
-        tendon: { id: tendonId, pour_id: pour.id },
+        tendon: { id: tendonId, pour_id: pourId },
         measuredMm: predicted.mm * 1.06,
         finalPressureMPa: pressure,
         deviceTime: `2026-12-01T1${6 + k}:00:00Z`,
@@ -285,7 +248,7 @@ describe("re-evaluation when the project's basis changes", () => {
       t.db
         .selectFrom("flags")
         .select(["tendon_id", "reason", "status"])
-        .where("pour_id", "=", pour.id)
+        .where("pour_id", "=", pourId)
         .where("kind", "=", "group_out_of_band")
         .execute();
     expect(await groupFlags()).toEqual([

@@ -5,7 +5,7 @@ import { correctRecord } from "@/lib/server/correct-record";
 import { findFlags } from "@/lib/server/find-flags";
 import { recordDisposition } from "@/lib/server/record-disposition";
 import { findReleaseBlockers, releasePour } from "@/lib/server/release-pour";
-import { copyDemoTendons, demoPerson, demoStressing, seededDemo, type DemoFixture } from "../support/records";
+import { copyDemoTendons, demoPerson, demoStressing, flagIdOf, seededDemo, type DemoFixture } from "../support/records";
 import { makePour } from "../support/factories";
 import { type TestDatabase } from "../support/database";
 
@@ -31,6 +31,10 @@ beforeAll(async () => {
 afterAll(async () => {
   await t.drop();
 });
+
+/** The inspector's review of the flag. */
+const inspectorReview = (flagId: string, review: Parameters<typeof addReview>[1]["review"]) =>
+  addReview(t.db, { projectId: fx.projectId, flagId, author: people.inspector, review });
 
 describe("from flag to release", () => {
   it("an out-of-band tendon holds the pour until the engineer's restress comes back in band", async () => {
@@ -61,24 +65,16 @@ describe("from flag to release", () => {
 
     // The inspector may not close an out-of-band flag as paperwork.
     await expect(
-      addReview(t.db, {
-        projectId: fx.projectId,
-        flagId,
-        author: people.inspector,
-        review: { kind: "closed_paperwork", body: "Looks like a typo to me." },
-      }),
+      inspectorReview(flagId, { kind: "closed_paperwork", body: "Looks like a typo to me." }),
     ).rejects.toMatchObject({ code: "CONFLICT" });
-    await addReview(t.db, {
-      projectId: fx.projectId,
-      flagId,
-      author: people.inspector,
-      review: { kind: "remeasured", body: "Re-measured the tail mark with a steel tape.", remeasuredMm: 150 },
+    await inspectorReview(flagId, {
+      kind: "remeasured",
+      body: "Re-measured the tail mark with a steel tape.",
+      remeasuredMm: 150,
     });
-    const sent = await addReview(t.db, {
-      projectId: fx.projectId,
-      flagId,
-      author: people.inspector,
-      review: { kind: "sent_to_engineer", body: "Short by 10 %; mark confirmed. Please advise." },
+    const sent = await inspectorReview(flagId, {
+      kind: "sent_to_engineer",
+      body: "Short by 10 %; mark confirmed. Please advise.",
     });
     expect(sent.flagStatus).toBe("with_engineer");
 
@@ -171,17 +167,10 @@ describe("from flag to release", () => {
       code: "CONFLICT",
     });
     // With the corrected record in band, the inspector may now close the flag as paperwork.
-    const flag = await t.db
-      .selectFrom("flags")
-      .select("id")
-      .where("tendon_id", "=", tendon.id)
-      .where("kind", "=", "out_of_band")
-      .executeTakeFirstOrThrow();
-    const closed = await addReview(t.db, {
-      projectId: fx.projectId,
-      flagId: flag.id,
-      author: people.inspector,
-      review: { kind: "closed_paperwork", body: "Transcription error; corrected revision is in band." },
+    const flagId = await flagIdOf(t.db, tendon.id, "out_of_band");
+    const closed = await inspectorReview(flagId, {
+      kind: "closed_paperwork",
+      body: "Transcription error; corrected revision is in band.",
     });
     expect(closed.flagStatus).toBe("closed");
   });

@@ -1,6 +1,4 @@
 import { randomUUID } from "node:crypto";
-import { readdirSync, readFileSync, statSync } from "node:fs";
-import path from "node:path";
 import fc from "fast-check";
 import { sql } from "kysely";
 import { NextRequest } from "next/server";
@@ -10,6 +8,8 @@ import { loadSessionUser, type SessionUser } from "@/lib/server/load-session-use
 import { settleBackground } from "@/lib/server/run-in-background";
 import { seedDemo } from "@/scripts/seed/demo";
 import { MATRIX, type Caller } from "../e2e/authz-matrix";
+import * as api from "../support/api-routes";
+import { BOGUS_TOKEN, MISSING_ID, routesOnDisk, type RouteOnDisk } from "../support/api-routes";
 import { createTestDatabase, type TestDatabase } from "../support/database";
 import { routeState } from "./route-mocks";
 
@@ -30,43 +30,13 @@ vi.mock("@/lib/auth/session", async () => (await import("./route-mocks")).mocked
 const RUNS = Number(process.env.ROUTE_FUZZ_RUNS ?? 40);
 const SEED = Number(process.env.FUZZ_SEED ?? Date.now() % 2 ** 31);
 const ORIGIN = process.env.APP_URL ?? "http://localhost:3000";
-const MISSING_ID = "00000000-0000-4000-8000-000000000000";
-const BOGUS_TOKEN = "x".repeat(43);
 
 // next-auth's own handlers need the Next request scope (cookies(), headers()); its one input a
 // caller controls, callbackUrl, is checked before next-auth in lib/auth/callback-url.ts (tested there).
 const NOT_FUZZED = new Set(["GET /api/auth/[...nextauth]", "POST /api/auth/[...nextauth]"]);
 
-const APP_DIR = path.resolve("app");
-function walk(dir: string): string[] {
-  return readdirSync(dir).flatMap((name) => {
-    const full = path.join(dir, name);
-    return statSync(full).isDirectory() ? walk(full) : [full];
-  });
-}
 /** "METHOD /path" → the route file that serves it, from the files on disk. */
-const ROUTE_FILES = new Map<string, { file: string; method: string }>(
-  walk(APP_DIR)
-    .filter((f) => /\/route\.tsx?$/.test(f))
-    .flatMap((file) => {
-      const source = readFileSync(file, "utf8");
-      const urlPath =
-        "/" +
-        path
-          .relative(APP_DIR, path.dirname(file))
-          .split(path.sep)
-          .filter((seg) => !/^\(.*\)$/.test(seg))
-          .join("/");
-      const methods = new Set<string>();
-      for (const m of source.matchAll(/export\s+(?:const|async function|function)\s+(GET|POST|PUT|PATCH|DELETE)\b/g))
-        methods.add(m[1]!);
-      for (const m of source.matchAll(/\bas\s+(GET|POST|PUT|PATCH|DELETE)\b/g)) methods.add(m[1]!);
-      return [...methods].map((method): [string, { file: string; method: string }] => [
-        `${method} ${urlPath}`,
-        { file, method },
-      ]);
-    }),
-);
+const ROUTE_FILES = new Map<string, RouteOnDisk>(routesOnDisk().map((r) => [r.endpoint, r]));
 
 /** The first role that passes the endpoint's access check (it may still get 404/409 on the ids). */
 function callerFor(endpoint: string): Caller {
@@ -255,102 +225,32 @@ function toText(value: unknown): string {
 
 /** Valid bodies of the mutating endpoints, from which the fuzz mutates one field at a time. */
 function seedBody(endpoint: string, w: World): Record<string, unknown> | null {
-  const calibration = {
-    calibratedOn: "2026-12-01",
-    validUntil: null,
-    points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })),
-    laboratory: null,
-    certificateAttachmentId: null,
-  };
+  const calibration = api.calibrationBody();
   const bodies: Record<string, Record<string, unknown>> = {
     "POST /api/projects": { code: "FZ1", name: "Fuzz project", firstAdminEmail: "admin@demo.tautline.test" },
     "PATCH /api/projects/[projectId]/members/[userId]": { role: "crew" },
     "POST /api/projects/[projectId]/invitations": { email: "fuzz-invite@demo.tautline.test", role: "crew" },
-    "POST /api/projects/[projectId]/uploads": {
-      purpose: "mill_certificate",
-      contentType: "application/pdf",
-      sizeBytes: 4096,
-      originalName: "fuzz.pdf",
-    },
+    "POST /api/projects/[projectId]/uploads": api.certificateUploadBody(4096, "fuzz.pdf"),
     "PATCH /api/projects/[projectId]/settings": { tolerancePct: 7 },
     "PATCH /api/projects/[projectId]/flag-mail": { mode: "each" },
     "POST /api/projects/[projectId]/settings/preview": { tolerancePct: 5 },
-    "POST /api/projects/[projectId]/pours": {
-      name: "Fuzz pour",
-      level: "Fuzz",
-      areaM2: null,
-      plannedStressingDate: null,
-    },
-    "PATCH /api/projects/[projectId]/pours/[pourId]": {
-      name: "Fuzz pour",
-      level: "Fuzz",
-      areaM2: null,
-      plannedStressingDate: null,
-    },
-    "POST /api/projects/[projectId]/pours/[pourId]/tendons": {
-      tag: "FZ-1",
-      kind: "unbonded_monostrand",
-      strandSize: "0.5 in",
-      strandCount: 1,
-      segments: [{ lengthMm: 9000, angleRad: 0.1 }],
-      ends: "A",
-      jackGripMm: null,
-      shopElongationMm: null,
-      strandLotId: null,
-    },
-    "POST /api/projects/[projectId]/pours/[pourId]/tendons/import": {
-      csv: "tag,type,strand size [in],strands,ends,segments [ft@deg]\nFZ-2,monostrand,0.5,1,A,30@2",
-    },
-    "POST /api/projects/[projectId]/pours/[pourId]/report/signatures": {
-      signerName: "Fuzz Inspector",
-      licence: "ICC special inspector 0000000 (fuzz)",
-      statement: "Fuzz check of the stressing report.",
-    },
+    "POST /api/projects/[projectId]/pours": api.pourBody("Fuzz pour", "Fuzz"),
+    "PATCH /api/projects/[projectId]/pours/[pourId]": api.pourBody("Fuzz pour", "Fuzz"),
+    "POST /api/projects/[projectId]/pours/[pourId]/tendons": api.tendonBody("FZ-1"),
+    "POST /api/projects/[projectId]/pours/[pourId]/tendons/import": { csv: api.scheduleCsv("FZ-2") },
+    "POST /api/projects/[projectId]/pours/[pourId]/report/signatures": api.reportSignatureBody("Fuzz"),
     "POST /api/projects/[projectId]/daily-reports/[day]/signatures": {
-      signerName: "Fuzz Inspector",
-      licence: "ICC special inspector 0000000 (fuzz)",
-      statement: "Fuzz check of the day's inspection report.",
+      ...api.reportSignatureBody("Fuzz", "Fuzz check of the day's inspection report."),
       remarks: "",
       conformance: "not_conforming",
       witness: [],
     },
     "POST /api/projects/[projectId]/share-links": { label: "Fuzz general contractor", days: 1 },
     "POST /api/report-verifications": { sha256: "0".repeat(64) },
-    "POST /api/projects/[projectId]/strand-lots": {
-      lotNumber: "FZ-LOT",
-      strandSize: "0.5 in",
-      areaMm2: 99,
-      modulusMPa: 197_000,
-      breakingLoadN: 186_000,
-      certificateAttachmentId: null,
-    },
-    "POST /api/projects/[projectId]/strand-lots/[strandLotId]/preview": {
-      lotNumber: "FZ-LOT-P",
-      strandSize: "0.5 in",
-      areaMm2: 99,
-      modulusMPa: 197_000,
-      breakingLoadN: 186_000,
-      certificateAttachmentId: null,
-    },
-    "POST /api/projects/[projectId]/tendons/[tendonId]/preview": {
-      tag: "FZ-P",
-      kind: "unbonded_monostrand",
-      strandSize: "0.5 in",
-      strandCount: 1,
-      segments: [{ lengthMm: 9000, angleRad: 0.1 }],
-      ends: "A",
-      jackGripMm: null,
-      shopElongationMm: null,
-      strandLotId: null,
-    },
-    "POST /api/projects/[projectId]/equipment-sets": {
-      name: "Fuzz set",
-      jackSerial: "FJ-1",
-      gaugeSerial: "FG-1",
-      pumpSerial: null,
-      jackGripMm: null,
-      maxForceN: null,
-    },
+    "POST /api/projects/[projectId]/strand-lots": api.strandLotBody("FZ-LOT"),
+    "POST /api/projects/[projectId]/strand-lots/[strandLotId]/preview": api.strandLotBody("FZ-LOT-P"),
+    "POST /api/projects/[projectId]/tendons/[tendonId]/preview": api.tendonBody("FZ-P"),
+    "POST /api/projects/[projectId]/equipment-sets": api.equipmentSetBody("Fuzz set", "FJ-1", "FG-1"),
     "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations": calibration,
     "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/preview": calibration,
     "POST /api/projects/[projectId]/equipment-sets/[setId]/calibrations/[calibrationId]/retirement": {
@@ -367,35 +267,15 @@ function seedBody(endpoint: string, w: World): Record<string, unknown> | null {
       reason: "Fuzz check of a correction preview.",
       calibration,
     },
-    "POST /api/projects/[projectId]/flags/[flagId]/reviews": { kind: "note", body: "Checked the gauge photo." },
-    "POST /api/projects/[projectId]/flags/[flagId]/dispositions": {
-      decision: "accept",
-      reasons: "Within the engineer's allowance.",
-      licenceStatement: "Licensed engineer (fuzz)",
-    },
-    "POST /api/projects/[projectId]/records/[recordId]/corrections": {
-      reason: "Copied from the wrong line.",
-      measuredMm: 200,
-    },
-    "POST /api/projects/[projectId]/pours/[pourId]/release": {
-      statement: "Fuzz check of the release rule.",
-      signerName: "Fuzz Engineer",
-      licence: "PE 0000000 (fuzz)",
-      confirmed: true,
-    },
-    "POST /api/projects/[projectId]/pours/[pourId]/concrete-results": {
-      specimen: "cylinder",
-      strengthMPa: 25,
-      ageDays: 5,
-      specimenCount: 2,
-    },
-    "POST /api/projects/[projectId]/pours/[pourId]/reopen": {
-      reason: "Fuzz check of the reopen rule.",
-      confirmed: true,
-    },
-    "POST /api/invitations/accept": { token: BOGUS_TOKEN, name: "Nobody", password: "a-long-enough-password" },
-    "POST /api/password-reset": { email: "nobody@nowhere.tautline.test" },
-    "POST /api/password-reset/complete": { token: BOGUS_TOKEN, password: "a-long-enough-password" },
+    "POST /api/projects/[projectId]/flags/[flagId]/reviews": api.reviewBody(),
+    "POST /api/projects/[projectId]/flags/[flagId]/dispositions": api.dispositionBody("Fuzz"),
+    "POST /api/projects/[projectId]/records/[recordId]/corrections": api.recordCorrectionBody(),
+    "POST /api/projects/[projectId]/pours/[pourId]/release": api.releaseBody("Fuzz"),
+    "POST /api/projects/[projectId]/pours/[pourId]/concrete-results": api.concreteResultBody(),
+    "POST /api/projects/[projectId]/pours/[pourId]/reopen": api.reopenBody("Fuzz"),
+    "POST /api/invitations/accept": api.acceptInvitationBody(),
+    "POST /api/password-reset": api.passwordResetBody(),
+    "POST /api/password-reset/complete": api.passwordResetCompleteBody(),
     "POST /api/sync/push": {
       deviceId: "fuzz-tablet-0001",
       ops: [{ opId: randomUUID(), kind: "create", recordId: randomUUID(), payload: { tendonId: w.ids.tendonId } }],

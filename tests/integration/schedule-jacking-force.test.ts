@@ -12,6 +12,7 @@ import type { TendonInput } from "@/lib/schemas/tendon";
 import { N_PER_KIP } from "@/lib/units";
 import { seededDemo, type DemoFixture, insertDemoRecord } from "../support/records";
 import { makePour } from "../support/factories";
+import { judgeRecord } from "../support/judge-record";
 import { type TestDatabase } from "../support/database";
 
 // A tendon schedule imported with its own jacking force, on real PostgreSQL: the tendon is judged
@@ -70,28 +71,21 @@ async function netPrediction(tendonId: string) {
   const probe = judgeStressing({
     ...basis,
     sets: [{ id: "s", name: "s", jackGripMm: null, maxForceN: null, calibrations: [] }],
-    records: [
-      {
-        ...{ id: "p", chainId: "p", revision: 1, end: "A", deviceTime: "2026-12-01T16:00:00Z" },
-        ...{ equipmentSetId: "s", calibrationId: null, expiredCalibrationReason: null, readingMethod: "marks" },
-        ...{ initialPressureMPa: null, finalPressureMPa: 30, measuredMm: 100, strokeCount: 1, drawInMm: null },
-        ...{ seatingMm: null, stressingOrder: null, wireBreaks: 0 },
-      },
-    ],
+    records: [judgeRecord({ id: "p", chainId: "p", equipmentSetId: "s" })],
   });
   return probe.ends[0]!.predictedMm;
 }
 
+/** The crew imports these schedule rows (under HEADER) into our pour. */
+const importRows = (...rows: string[]) =>
+  importTendonSchedule(t.db, { projectId: fx.projectId, pourId, csv: [HEADER, ...rows].join("\n"), by: fx.crewId });
+
 describe("the schedule's jacking force, imported and judged", () => {
   it("judges a tendon against the schedule's force and one without against the project's; an edit re-judges", async () => {
-    const imported = await importTendonSchedule(t.db, {
-      projectId: fx.projectId,
-      pourId,
-      csv: [HEADER, "JF-SCHED,monostrand,0.5,1,A,30@0,18,,,,,30.975", "JF-PROJ,monostrand,0.5,1,A,30@0,18,,,,,"].join(
-        "\n",
-      ),
-      by: fx.crewId,
-    });
+    const imported = await importRows(
+      "JF-SCHED,monostrand,0.5,1,A,30@0,18,,,,,30.975",
+      "JF-PROJ,monostrand,0.5,1,A,30@0,18,,,,,",
+    );
     expect(imported).toEqual({ imported: 2 });
     const sched = await tendonRow("JF-SCHED");
     const proj = await tendonRow("JF-PROJ");
@@ -180,14 +174,10 @@ describe("the schedule's jacking force, imported and judged", () => {
   });
 
   it("refuses a schedule force above 0.80·fpu·A, naming the line and column, and imports nothing", async () => {
-    const refused = await importTendonSchedule(t.db, {
-      projectId: fx.projectId,
-      pourId,
-      csv: [HEADER, "JF-OVER,monostrand,0.5,1,A,30@0,18,,,,,33.05", "JF-FINE,monostrand,0.5,1,A,30@0,18,,,,,33"].join(
-        "\n",
-      ),
-      by: fx.crewId,
-    }).catch((e: unknown) => e);
+    const refused = await importRows(
+      "JF-OVER,monostrand,0.5,1,A,30@0,18,,,,,33.05",
+      "JF-FINE,monostrand,0.5,1,A,30@0,18,,,,,33",
+    ).catch((e: unknown) => e);
     expect(refused).toBeInstanceOf(AppError);
     expect((refused as AppError).code).toBe("INVALID_INPUT");
     expect((refused as AppError).fields).toEqual({

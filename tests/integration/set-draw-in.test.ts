@@ -1,6 +1,5 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { uuidv7 } from "uuidv7";
-import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 import { equipmentSetSchema } from "@/lib/schemas/equipment";
 import { addCalibration } from "@/lib/server/add-calibration";
 import { createEquipmentSet } from "@/lib/server/create-equipment-set";
@@ -8,24 +7,16 @@ import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getPourReport } from "@/lib/server/get-pour-report";
 import { RECORD_COLUMNS, recordRows } from "@/lib/reports/pour-rows";
 import { listEquipmentSets } from "@/lib/server/list-equipment-sets";
-import { predictionAsRead, seededDemo, type DemoFixture } from "../support/records";
-import { type TestDatabase } from "../support/database";
+import { pourOfDemoCopies, predictionAsRead, seededDemoPerFile, HALF_INCH } from "../support/records";
+import { equipmentSetBody } from "../support/api-routes";
 
 // An equipment set's draw-in per re-grip, on real PostgreSQL: stored with the set, listed, and used
 // by the server's evaluation for a ram-travel record that types none, which says which value it used.
 // Jacking at 0.80·fpu·A (ACI 318-19 Table 20.3.2.5.1, from memory), 0.5 in strand 41,300 lbf
 // (ASTM A416 Table 1). The 1/4 in draw-in and 18 in grip are our test values.
 
-let t: TestDatabase;
-let fx: DemoFixture;
-beforeAll(async () => {
-  ({ t, fx } = await seededDemo());
-});
-afterAll(async () => {
-  await t.drop();
-});
+const { t, fx } = seededDemoPerFile();
 
-const HALF_INCH = ASTM_A416_GRADE_270.find((s) => s.designation === "0.5 in")!;
 const DRAW_IN_MM = 6.35; // 1/4 in
 const GRIP_MM = 457.2; // 18 in
 const SLOPE = 6000; // N per MPa, zero intercept (our test calibration)
@@ -34,12 +25,8 @@ async function setWithDrawIn(name: string, drawInMm: number | null) {
   const { setId } = await createEquipmentSet(t.db, {
     projectId: fx.projectId,
     values: equipmentSetSchema.parse({
-      name,
-      jackSerial: `${name}-J`,
-      gaugeSerial: `${name}-G`,
-      pumpSerial: null,
+      ...equipmentSetBody(name, `${name}-J`, `${name}-G`),
       jackGripMm: GRIP_MM,
-      maxForceN: null,
       drawInMm,
     }),
   });
@@ -59,38 +46,11 @@ async function setWithDrawIn(name: string, drawInMm: number | null) {
 
 /** A one-end tendon of our own (a copy of the demo's 2-1-U06, no grip of its own) in a pour of our own. */
 async function tendonCopy(tag: string) {
-  const source = await t.db.selectFrom("tendons").selectAll().where("tag", "=", "2-1-U06").executeTakeFirstOrThrow();
-  const sourcePour = await t.db
-    .selectFrom("pours")
-    .select("concrete_strength_mpa")
-    .where("id", "=", source.pour_id)
-    .executeTakeFirstOrThrow();
-  const pour = await t.db
-    .insertInto("pours")
-    .values({
-      project_id: fx.projectId,
-      name: `Draw-in ${tag}`,
-      concrete_strength_mpa: sourcePour.concrete_strength_mpa,
-    })
-    .returning("id")
-    .executeTakeFirstOrThrow();
-  return t.db
-    .insertInto("tendons")
-    .values({
-      project_id: fx.projectId,
-      pour_id: pour.id,
-      tag,
-      kind: source.kind,
-      strand_size: source.strand_size,
-      strand_count: source.strand_count,
-      segments: JSON.stringify(source.segments),
-      ends: source.ends,
-      jack_grip_mm: null,
-      shop_elongation_mm: null,
-      strand_lot_id: source.strand_lot_id,
-    })
-    .returning(["id", "pour_id"])
-    .executeTakeFirstOrThrow();
+  const { tendons } = await pourOfDemoCopies(t.db, fx.projectId, `Draw-in ${tag}`, [tag], {
+    templateTag: "2-1-U06",
+    jackGripMm: null,
+  });
+  return tendons[0]!;
 }
 
 /** Gross plus grip for ram travel on this tendon, from the judge (one stroke, nothing deducted). */
@@ -153,28 +113,11 @@ describe("an equipment set's draw-in per re-grip", () => {
     const setId = await setWithDrawIn("DI listed", DRAW_IN_MM);
     const listed = (await listEquipmentSets(t.db, fx.projectId)).find((s) => s.id === setId)!;
     expect(listed.drawInMm).toBe(DRAW_IN_MM);
-    const bad = equipmentSetSchema.safeParse({
-      name: "x",
-      jackSerial: "j",
-      gaugeSerial: "g",
-      pumpSerial: null,
-      jackGripMm: null,
-      maxForceN: null,
-      drawInMm: -1,
-    });
+    const bad = equipmentSetSchema.safeParse({ ...equipmentSetBody("x", "j", "g"), drawInMm: -1 });
     expect(bad.success).toBe(false);
     expect(bad.error!.issues[0]).toMatchObject({ path: ["drawInMm"], message: "Draw-in cannot be negative." });
     // Left out, it is none (sets made before it existed).
-    expect(
-      equipmentSetSchema.parse({
-        name: "x",
-        jackSerial: "j",
-        gaugeSerial: "g",
-        pumpSerial: null,
-        jackGripMm: null,
-        maxForceN: null,
-      }).drawInMm,
-    ).toBeNull();
+    expect(equipmentSetSchema.parse(equipmentSetBody("x", "j", "g")).drawInMm).toBeNull();
   });
 
   it("three strokes typed without a draw-in are judged with the set's, and the evaluation says so", async () => {

@@ -7,6 +7,7 @@ import { createEquipmentSet } from "@/lib/server/create-equipment-set";
 import { signDailyReport } from "@/lib/server/sign-daily-report";
 import { makeProject } from "../support/factories";
 import { createTestDatabase, type TestDatabase } from "../support/database";
+import { calibrationBody } from "../support/api-routes";
 
 // "Today" for a certificate or a day's report is the day on site, in the project's time zone, on
 // real PostgreSQL. The request schemas only know a day has begun somewhere on Earth (UTC+14), so
@@ -20,14 +21,6 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await t.drop();
-});
-
-const calibration = (calibratedOn: string) => ({
-  calibratedOn,
-  validUntil: null,
-  laboratory: null,
-  certificateAttachmentId: null,
-  points: [5, 10, 20, 30, 40].map((p) => ({ pressureMPa: p, forceN: 5100 * p - 900 })),
 });
 
 async function siteWithSet(timeZone: string) {
@@ -50,10 +43,10 @@ describe("the site's day", () => {
   it("refuses a calibration dated after today on site even where that day has begun, and takes it where it has", async () => {
     const ahead = latestDayAnywhere();
     expect(ahead > dayInZone(Date.now(), "Pacific/Pago_Pago")).toBe(true);
-    expect(calibrationSchema.safeParse(calibration(ahead)).success).toBe(true);
+    expect(calibrationSchema.safeParse(calibrationBody(ahead)).success).toBe(true);
 
     const behind = await siteWithSet("Pacific/Pago_Pago");
-    await expect(addCalibration(t.db, { ...behind, values: calibration(ahead) })).rejects.toMatchObject({
+    await expect(addCalibration(t.db, { ...behind, values: calibrationBody(ahead) })).rejects.toMatchObject({
       code: "INVALID_INPUT",
       fields: { calibratedOn: [expect.stringContaining(dayInZone(Date.now(), "Pacific/Pago_Pago"))] },
     });
@@ -65,7 +58,7 @@ describe("the site's day", () => {
     expect(written).toEqual([]);
 
     const first = await siteWithSet("Pacific/Kiritimati");
-    await expect(addCalibration(t.db, { ...first, values: calibration(ahead) })).resolves.toMatchObject({
+    await expect(addCalibration(t.db, { ...first, values: calibrationBody(ahead) })).resolves.toMatchObject({
       calibrationId: expect.any(String),
     });
   });

@@ -1,6 +1,5 @@
 import { mkdirSync, writeFileSync } from "node:fs";
 import Papa from "papaparse";
-import { PDFParse } from "pdf-parse";
 import { uuidv7 } from "uuidv7";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { MM_PER_INCH, MPA_PER_PSI } from "@/lib/units";
@@ -9,16 +8,25 @@ import { renderPourPdf } from "@/lib/reports/pour-pdf";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getPourCsv } from "@/lib/server/get-pour-csv";
 import { getPourReport } from "@/lib/server/get-pour-report";
-import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { recordDisposition } from "@/lib/server/record-disposition";
 import { createHash } from "node:crypto";
 import { listReportRevisions } from "@/lib/server/list-report-revisions";
 import { readSignedReport } from "@/lib/server/read-signed-report";
 import { signPourReport } from "@/lib/server/sign-pour-report";
 import { verifyReportFile } from "@/lib/server/verify-report-file";
-import { predictTendon } from "@/lib/stressing/basis";
-import { copyDemoTendons, seededDemo, type DemoFixture, demoPerson } from "../support/records";
+import {
+  copyDemoTendons,
+  demoPrediction,
+  flagIdOf,
+  insertDemoRecord,
+  openFlagIdOf,
+  signatureRows,
+  seededDemo,
+  type DemoFixture,
+  demoPerson,
+} from "../support/records";
 import { MomentOld } from "@/db/moment-old";
+import { pdfParsed, pdfText } from "../support/pdf-text";
 import { makePour } from "../support/factories";
 import type { TestDatabase } from "../support/database";
 
@@ -33,7 +41,8 @@ let crewName: string;
 let predicted: { predictedMm: number; jackingForceN: number };
 const SHOP_MM = 5.5 * MM_PER_INCH; // the shop drawing's elongation for S-01 (invented, 5 1/2 in)
 
-async function insertTyped(values: {
+/** A record of end A of one of our pour's tendons, with what the crew typed in inches and psi. */
+function insertTyped(values: {
   tendon: { id: string };
   measuredMm: number;
   typed: { before: string; after: string; seating: string; final: string; initial: string | null };
@@ -43,49 +52,24 @@ async function insertTyped(values: {
   remarks?: string;
   restressOf?: string;
 }) {
-  const id = uuidv7();
-  await t.db
-    .insertInto("records")
-    .values({
-      id,
-      project_id: fx.projectId,
-      pour_id: pourId,
-      tendon_id: values.tendon.id,
-      tendon_end: "A",
-      chain_id: id,
-      revision: 1,
-      equipment_set_id: fx.setA,
-      initial_pressure_mpa: values.initialPressureMPa,
-      final_pressure_mpa: values.finalPressureMPa,
-      reading_method: "marks",
-      entered: JSON.stringify({
-        units: { length: "in", pressure: "psi" },
-        initialPressure: values.typed.initial,
-        finalPressure: values.typed.final,
-        marks: { before: values.typed.before, after: values.typed.after },
-        strokes: null,
-        seating: values.typed.seating,
-      }),
-      measured_mm: values.measuredMm,
-      seating_mm: 0.25 * MM_PER_INCH,
-      remarks: values.remarks ?? null,
-      device_time: values.deviceTime,
-      device_time_zone: "America/Chicago",
-      device_id: "test-device",
-      author_user_id: fx.crewId,
-      restress_of_disposition_id: values.restressOf ?? null,
-    })
-    .execute();
-  return id;
-}
-
-export async function pdfTextOf(buffer: Buffer) {
-  const parser = new PDFParse({ data: new Uint8Array(buffer) });
-  try {
-    return await parser.getText();
-  } finally {
-    await parser.destroy();
-  }
+  return insertDemoRecord(t.db, fx, {
+    tendon: { id: values.tendon.id, pour_id: pourId },
+    initialPressureMPa: values.initialPressureMPa,
+    finalPressureMPa: values.finalPressureMPa,
+    entered: {
+      units: { length: "in", pressure: "psi" },
+      initialPressure: values.typed.initial,
+      finalPressure: values.typed.final,
+      marks: { before: values.typed.before, after: values.typed.after },
+      strokes: null,
+      seating: values.typed.seating,
+    },
+    measuredMm: values.measuredMm,
+    seatingMm: 0.25 * MM_PER_INCH,
+    remarks: values.remarks ?? null,
+    deviceTime: values.deviceTime,
+    restressOfDispositionId: values.restressOf,
+  });
 }
 
 beforeAll(async () => {
@@ -96,8 +80,7 @@ beforeAll(async () => {
   const where = { projectId: fx.projectId, pourId };
   const s01 = (await copyDemoTendons(t.db, where, ["S-01"], { shopElongationMm: SHOP_MM }))[0]!;
   await copyDemoTendons(t.db, where, ["S-02"]);
-  const basis = await loadTendonBasis(t.db, { projectId: fx.projectId, tendonId: s01.id });
-  predicted = predictTendon({ project: basis.project, tendon: basis.tendon, lot: basis.lot, equipmentGripMm: 457.2 });
+  predicted = await demoPrediction(t.db, { projectId: fx.projectId, tendonId: s01.id });
 
   // The original: 85 % of the prediction, out of band.
   await insertTyped({
@@ -110,16 +93,11 @@ beforeAll(async () => {
     remarks: "Jack chattered near the end of the pull",
   });
   await evaluateTendon(t.db, { projectId: fx.projectId, tendonId: s01.id, reason: "sync" });
-  const flag = await t.db
-    .selectFrom("flags")
-    .select("id")
-    .where("tendon_id", "=", s01.id)
-    .where("kind", "=", "out_of_band")
-    .executeTakeFirstOrThrow();
+  const flagId = await flagIdOf(t.db, s01.id, "out_of_band");
   const engineer = await demoPerson(t.db, "engineer@demo.tautline.test");
   const { dispositionId } = await recordDisposition(t.db, {
     projectId: fx.projectId,
-    flagId: flag.id,
+    flagId,
     engineer,
     disposition: {
       decision: "restress",
@@ -157,7 +135,7 @@ describe("the stressing report shows every stressing of every end", () => {
 
     const pdf = await renderPourPdf(report);
     writeFileSync("test-results/reports/stressing-report.pdf", pdf);
-    const parsed = await pdfTextOf(pdf);
+    const parsed = await pdfParsed(pdf);
     const text = parsed.text.replace(/\s+/g, " ");
     expect(text).toContain("1 original");
     expect(text).toContain("2 restress (ordered)");
@@ -254,7 +232,7 @@ describe("signing the stressing report", () => {
     const signed1 = await readSignedReport(t.db, { projectId: fx.projectId, pourId, revision: 1 });
     expect(sha(signed1.body)).toBe(first.fileSha256);
     writeFileSync("test-results/reports/stressing-report-signed-rev1.pdf", signed1.body);
-    const text1 = (await pdfTextOf(Buffer.from(signed1.body))).text.replace(/\s+/g, " ");
+    const text1 = await pdfText(Buffer.from(signed1.body));
     expect(text1).toContain("Signed by Dana Okafor, ICC special inspector 5551234 (invented)");
     expect(text1).toContain(`Content sha256 ${first.contentSha256}`);
     expect(text1).toContain("(revision 1)");
@@ -275,14 +253,7 @@ describe("signing the stressing report", () => {
         .data.filter((r) => r.Section === "signature")
         .map((r) => r.Details);
     const signedRows = await signatureOf();
-    expect(signedRows).toEqual([
-      "Signed by: Dana Okafor",
-      "Licence or certification: ICC special inspector 5551234 (invented)",
-      `Statement: ${values.statement}`,
-      expect.stringMatching(/^Signed: \d{4}-\d\d-\d\d \d\d:\d\d C[SD]T$/),
-      `Content sha256: ${first.contentSha256}`,
-      "Revision: 1",
-    ]);
+    expect(signedRows).toEqual(signatureRows(values, first.contentSha256));
 
     // A paperwork correction of the restress: a new revision of that record, evaluated again.
     const s01 = await t.db
@@ -333,7 +304,7 @@ describe("signing the stressing report", () => {
     expect(second.changes.join("\n")).toMatch(/record S-01 end A stressing 2: revision 1, .* → revision 2/);
     const signed2 = await readSignedReport(t.db, { projectId: fx.projectId, pourId, revision: 2 });
     writeFileSync("test-results/reports/stressing-report-signed-rev2.pdf", signed2.body);
-    const text2 = (await pdfTextOf(Buffer.from(signed2.body))).text.replace(/\s+/g, " ");
+    const text2 = await pdfText(Buffer.from(signed2.body));
     expect(text2).toContain("corrected to revision 2: Mark after was 17 1/2, not 17 3/8 (photo checked)");
     expect(text2).toMatch(/What changed record S-01 end A stressing 2: revision 1/);
 
@@ -445,16 +416,9 @@ describe("lift-off checks and concrete results on the stressing report", () => {
       .where("tag", "=", "S-01")
       .executeTakeFirstOrThrow();
     // The engineer orders a lift-off check on S-01's open flag; the crew reads 3,900 psi at lift-off.
-    const open = await t.db
-      .selectFrom("flags")
-      .select("id")
-      .where("tendon_id", "=", s01.id)
-      .where("status", "!=", "closed")
-      .orderBy("created_at")
-      .executeTakeFirstOrThrow();
     const { dispositionId } = await recordDisposition(t.db, {
       projectId: fx.projectId,
-      flagId: open.id,
+      flagId: await openFlagIdOf(t.db, s01.id),
       engineer,
       disposition: {
         decision: "liftoff_check",
@@ -541,7 +505,7 @@ describe("lift-off checks and concrete results on the stressing report", () => {
     const pdf = await renderPourPdf(report);
     writeFileSync("test-results/reports/stressing-report-liftoff.pdf", pdf);
     // A narrow column may break "lift-off" after its hyphen: the words are read back whole.
-    const text = (await pdfTextOf(pdf)).text.replace(/\s+/g, " ").replace(/(\w)- (\w)/g, "$1-$2");
+    const text = (await pdfText(pdf)).replace(/(\w)- (\w)/g, "$1-$2");
     expect(text).toContain(`Lift-off check (ordered by disposition ${dRef})`);
     expect(text).toContain("final: 3900 psi at lift-off");
     expect(text).toContain(`gauge: ${liftoffForce} at lift-off; ${expectedForce} expected after seating`);

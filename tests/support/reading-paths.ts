@@ -5,6 +5,7 @@ import type { LocalRecord } from "@/lib/offline/db";
 import { provisionalVerdict } from "@/lib/offline/tendon-view";
 import type { FieldProject, FieldTendon } from "@/lib/schemas/sync";
 import { planEvaluation, type EvaluatedRecord, type TendonState } from "@/lib/server/evaluate-tendon";
+import { projectBasis } from "./judge-record";
 
 /**
  * One tendon read as the crew would read it, judged on the tablet's path (`provisionalVerdict`,
@@ -56,13 +57,7 @@ export const project: FieldProject = {
   name: "Property",
   unitSystem: "si",
   readingResolution: "1mm",
-  tolerancePct: 7,
-  shortTendonFloorMm: null,
-  comparisonBasis: "gross",
-  countJackGrip: true,
-  frictionMu: 0.07,
-  wobblePerM: 0.0033,
-  anchorSetMm: 6,
+  ...projectBasis({ comparisonBasis: "gross", countJackGrip: true }),
   blindEntry: false,
   timeZone: "America/Denver",
 };
@@ -104,15 +99,15 @@ export function perfectReading(
  * it is stressed from and in what order, each end's reading plan, and the set's draw-in per
  * re-grip (none: only what a record types). Spread into `fc.property` before a test's own draws.
  */
-export const tendonCase = [
-  fc.double({ min: 8_000, max: 60_000, noNaN: true }),
-  fc.double({ min: 0, max: 1.2, noNaN: true }),
-  fc.constantFrom("A" as const, "both" as const),
-  fc.constantFrom("sequential" as const, "simultaneous" as const),
-  endPlan,
-  endPlan,
-  fc.option(fc.double({ min: 0, max: 8, noNaN: true }), { nil: null }),
-] as const;
+export const tendonCase = fc.record({
+  lengthMm: fc.double({ min: 8_000, max: 60_000, noNaN: true }),
+  angleRad: fc.double({ min: 0, max: 1.2, noNaN: true }),
+  ends: fc.constantFrom("A" as const, "both" as const),
+  order: fc.constantFrom("sequential" as const, "simultaneous" as const),
+  planA: endPlan,
+  planB: endPlan,
+  setDrawIn: fc.option(fc.double({ min: 0, max: 8, noNaN: true }), { nil: null }),
+});
 
 export interface ReadingCase {
   lengthMm: number;

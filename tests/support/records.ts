@@ -1,13 +1,16 @@
+import { afterAll, beforeAll, expect } from "vitest";
 import { uuidv7 } from "uuidv7";
+import { ASTM_A416_GRADE_270 } from "@/lib/elongation";
 import type { Db } from "@/db/connect";
-import type { TendonEnd } from "@/lib/schemas/domain";
+import type { FlagKind, TendonEnd } from "@/lib/schemas/domain";
 import { loadTendonBasis } from "@/lib/server/load-tendon-basis";
 import { judgeStressing } from "@/lib/stressing/judge";
 import { predictTendon } from "@/lib/stressing/basis";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { seedDemo } from "@/scripts/seed/demo";
 import { createTestDatabase, type TestDatabase } from "./database";
-import { makeTendons, type TendonShape } from "./factories";
+import { makePour, makeTendons, type TendonShape } from "./factories";
+import { judgeRecord } from "./judge-record";
 import { pick } from "@/lib/schemas/columns";
 import { TENDON_COLUMNS, tendonFromRow } from "@/lib/schemas/tendon";
 
@@ -24,6 +27,27 @@ export async function seededDemo(): Promise<{ t: TestDatabase; fx: DemoFixture }
   await seedDemo(t.db);
   return { t, fx: await demoFixture(t.db) };
 }
+
+/**
+ * `seededDemo` for a whole test file: made in the file's beforeAll, dropped in its afterAll. The
+ * two objects are filled when the beforeAll has run: read them in tests and hooks only.
+ */
+export function seededDemoPerFile(): { t: TestDatabase; fx: DemoFixture } {
+  const t = {} as TestDatabase;
+  const fx = {} as DemoFixture;
+  beforeAll(async () => {
+    const made = await seededDemo();
+    Object.assign(t, made.t);
+    Object.assign(fx, made.fx);
+  });
+  afterAll(async () => {
+    await t.drop?.();
+  });
+  return { t, fx };
+}
+
+/** ASTM A416 Grade 270 0.5 in strand (the demo's), from the strand table in lib/elongation. */
+export const HALF_INCH = ASTM_A416_GRADE_270.find((s) => s.designation === "0.5 in")!;
 
 export async function demoFixture(db: Db) {
   const project = await db.selectFrom("projects").select(["id"]).where("code", "=", "AYP").executeTakeFirstOrThrow();
@@ -65,6 +89,10 @@ export async function insertRecord(
     receivedAt?: Date;
     restressOfDispositionId?: string;
     base?: { id: string; chainId: string; revision: number; reason: string };
+    /** What the crew typed, as the tablet stores it (default: the measured length in mm). */
+    entered?: unknown;
+    seatingMm?: number | null;
+    remarks?: string | null;
   },
 ): Promise<string> {
   const id = uuidv7();
@@ -84,7 +112,7 @@ export async function insertRecord(
       initial_pressure_mpa: input.initialPressureMPa ?? null,
       final_pressure_mpa: input.finalPressureMPa,
       reading_method: "marks",
-      entered: JSON.stringify({ unit: "mm", measuredMm: input.measuredMm }),
+      entered: JSON.stringify(input.entered ?? { unit: "mm", measuredMm: input.measuredMm }),
       measured_mm: input.measuredMm,
       wire_breaks: input.wireBreaks ?? 0,
       device_time: input.deviceTime ?? new Date().toISOString(),
@@ -92,6 +120,8 @@ export async function insertRecord(
       device_id: "test-device",
       author_user_id: input.authorId,
       restress_of_disposition_id: input.restressOfDispositionId ?? null,
+      ...(input.seatingMm !== undefined ? { seating_mm: input.seatingMm } : {}),
+      ...(input.remarks !== undefined ? { remarks: input.remarks } : {}),
       ...(input.receivedAt ? { received_at: input.receivedAt } : {}),
     })
     .execute();
@@ -133,29 +163,33 @@ export async function predictionAsRead(
     tendon: basis.tendon,
     lot: basis.lot,
     sets: [{ id: "s", name: "s", jackGripMm: input.jackGripMm ?? null, maxForceN: null, calibrations: [] }],
-    records: [
-      {
-        id: "p",
-        chainId: "p",
-        revision: 1,
-        end: "A",
-        deviceTime: "2026-12-01T16:00:00Z",
-        equipmentSetId: "s",
-        calibrationId: null,
-        expiredCalibrationReason: null,
-        readingMethod: input.method ?? "marks",
-        initialPressureMPa: null,
-        finalPressureMPa: 30,
-        measuredMm: 100,
-        strokeCount: 1,
-        drawInMm: null,
-        seatingMm: null,
-        stressingOrder: null,
-        wireBreaks: 0,
-      },
-    ],
+    records: [judgeRecord({ equipmentSetId: "s", readingMethod: input.method ?? "marks" })],
   });
   return { mm: probe.ends[0]!.predictedMm, setMm: probe.ends[0]!.setMm };
+}
+
+/** The id of the tendon's first flag of `kind`; the test fails when there is none. */
+export async function flagIdOf(db: Db, tendonId: string, kind: FlagKind): Promise<string> {
+  const flag = await db
+    .selectFrom("flags")
+    .select("id")
+    .where("tendon_id", "=", tendonId)
+    .where("kind", "=", kind)
+    .orderBy("created_at")
+    .executeTakeFirstOrThrow();
+  return flag.id;
+}
+
+/** The id of the tendon's oldest flag that is not closed; the test fails when there is none. */
+export async function openFlagIdOf(db: Db, tendonId: string): Promise<string> {
+  const flag = await db
+    .selectFrom("flags")
+    .select("id")
+    .where("tendon_id", "=", tendonId)
+    .where("status", "!=", "closed")
+    .orderBy("created_at")
+    .executeTakeFirstOrThrow();
+  return flag.id;
 }
 
 /** The demo jacks grip 18 in (457.2 mm) of strand behind the anchor (the demo seed's sets). */
@@ -213,6 +247,29 @@ export async function copyDemoTendons(
 }
 
 /**
+ * A pour of the test's own, `name`d, whose concrete is as confirmed as the pour of the demo tendon
+ * it copies (`templateTag`, by default 2-1-U01), with copies of that tendon tagged `tags`, as
+ * `copyDemoTendons` makes them (`options` changes their shape).
+ */
+export async function pourOfDemoCopies(
+  db: Db,
+  projectId: string,
+  name: string,
+  tags: readonly string[],
+  options: Partial<TendonShape> & { templateTag?: string } = {},
+) {
+  const source = await db
+    .selectFrom("tendons")
+    .innerJoin("pours", "pours.id", "tendons.pour_id")
+    .select("pours.concrete_strength_mpa")
+    .where("tendons.project_id", "=", projectId)
+    .where("tendons.tag", "=", options.templateTag ?? "2-1-U01")
+    .executeTakeFirstOrThrow();
+  const pour = await makePour(db, projectId, { name, concreteStrengthMPa: source.concrete_strength_mpa });
+  return { pourId: pour.id, tendons: await copyDemoTendons(db, { projectId, pourId: pour.id }, tags, options) };
+}
+
+/**
  * Stressing on the demo project with its set A, at the gauge pressure that gives the jacking force
  * of a tendon like 2-1-U01. `stress` records each end of the tendon at `factor` × its predicted
  * elongation (1: a perfect reading) and evaluates it as a sync would; it returns the first end's
@@ -264,3 +321,20 @@ export async function demoStressing(db: Db, fx: DemoFixture) {
   };
   return { pressure, predicted, record, stress };
 }
+
+/**
+ * The signature section of a signed report's CSV (pour or day), as the signer typed it: who, the
+ * licence, the statement, when (in the project's zone), the content hash and the revision.
+ */
+export const signatureRows = (
+  values: { signerName: string; licence: string; statement: string },
+  contentSha256: string,
+  revision = 1,
+) => [
+  `Signed by: ${values.signerName}`,
+  `Licence or certification: ${values.licence}`,
+  `Statement: ${values.statement}`,
+  expect.stringMatching(/^Signed: \d{4}-\d\d-\d\d \d\d:\d\d C[SD]T$/),
+  `Content sha256: ${contentSha256}`,
+  `Revision: ${revision}`,
+];

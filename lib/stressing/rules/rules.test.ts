@@ -3,6 +3,7 @@ import { findStrandSize } from "@/lib/elongation";
 import { judgeStressing, type JudgeInput, type JudgeRecord } from "../judge";
 import { FLAG_RULES, type RuleKind } from ".";
 import { MM_PER_INCH } from "@/lib/units";
+import { judgeRecord, projectBasis } from "@/tests/support/judge-record";
 
 // Each rule as a table of cases. Strand 0.5 in Grade 270 (ASTM A416 Table 1); jacking at 0.80·fpu·A
 // and the anchorage at 0.70·fpu·A (ACI 318-19 Table 20.3.2.5.1); ±7 % (ACI 318-11 §18.20.1, from
@@ -25,13 +26,7 @@ const CAL = {
 function base(): JudgeInput {
   return {
     project: {
-      tolerancePct: 7,
-      shortTendonFloorMm: null,
-      comparisonBasis: "net",
-      countJackGrip: false,
-      frictionMu: 0.07,
-      wobblePerM: 0.0033,
-      anchorSetMm: 6,
+      ...projectBasis(),
       unitSystem: "si",
       readingResolution: "1mm",
       timeZone: "America/Chicago",
@@ -64,27 +59,14 @@ function perfectNet(): number {
 }
 
 function rec(over: Partial<JudgeRecord> = {}): JudgeRecord {
-  return {
+  return judgeRecord({
     id: over.id ?? "r1",
     chainId: over.chainId ?? over.id ?? "r1",
-    revision: 1,
-    end: "A",
     deviceTime: "2026-12-02T16:00:00Z",
     receivedAt: "2026-12-02T16:05:00Z",
-    equipmentSetId: "set",
-    calibrationId: null,
-    expiredCalibrationReason: null,
-    readingMethod: "marks",
-    initialPressureMPa: null,
     finalPressureMPa: TARGET,
-    measuredMm: 100,
-    strokeCount: 1,
-    drawInMm: null,
-    seatingMm: null,
-    stressingOrder: null,
-    wireBreaks: 0,
     ...over,
-  };
+  });
 }
 
 type Case = { name: string; change: (i: JudgeInput) => JudgeInput; raised: boolean; reason?: RegExp };
