@@ -108,12 +108,7 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
         <h2 id="progress-heading" className="text-lead font-bold">
           Progress of the pour
         </h2>
-        <ProgressChart
-          tendons={progress.tendons}
-          stressed={progress.stressed}
-          flagged={progress.flagged}
-          released={progress.released}
-        />
+        <ProgressChart {...progress} />
       </section>
 
       {points.length === 0 ? (
