@@ -1,11 +1,11 @@
 import "server-only";
-import { sql } from "kysely";
 import type { Db } from "@/db/connect";
 import { AppError } from "@/lib/errors";
 import type { StrandLotInput } from "@/lib/schemas/strand-lot";
 import { requireStoredAttachment } from "@/lib/storage";
 import { inTransaction } from "./in-transaction";
 import { recordAudit } from "./record-audit";
+import { raiseTendonVersions } from "./evaluate-tendon";
 import { reevaluateTendons } from "./reevaluate-project";
 
 /** The lot's values a prediction reads: a change of any of them judges its stressed tendons again. */
@@ -84,21 +84,7 @@ export async function updateStrandLot(
     );
     // Raising the version of every tendon of the lot holds them until this transaction ends, so a
     // record pushed meanwhile (read on the old values) is refused by its guard and judged again.
-    if (moved.length)
-      await trx
-        .insertInto("tendon_versions")
-        .columns(["tendon_id", "version"])
-        .expression((eb) =>
-          eb
-            .selectFrom("tendons")
-            .select(["tendons.id", sql<number>`1`.as("version")])
-            .where("tendons.project_id", "=", input.projectId)
-            .where("tendons.strand_lot_id", "=", input.strandLotId),
-        )
-        .onConflict((oc) =>
-          oc.column("tendon_id").doUpdateSet((eb) => ({ version: eb("tendon_versions.version", "+", 1) })),
-        )
-        .execute();
+    if (moved.length) await raiseTendonVersions(trx, { projectId: input.projectId, strandLotId: input.strandLotId });
     const stressed = moved.length
       ? await trx
           .selectFrom("records")
