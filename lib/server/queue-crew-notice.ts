@@ -7,6 +7,7 @@ import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
 import { releaseMail, workOrderMail } from "@/lib/mail/templates";
 import { DECISION_LABELS } from "@/lib/schemas/review";
 import { showLength, showPct, showPressure, type StoredResolution } from "@/lib/format/quantities";
+import { queueMail } from "./queue-mail";
 
 /** Dispositions that send the crew back to the tendon. */
 export const ORDERS_WORK: readonly Decision[] = ["restress", "detension_restress", "liftoff_check", "replace"];
@@ -104,19 +105,13 @@ export async function queueCrewNotice(
       lastStressing,
       url: `${env.APP_URL}/field/pour?id=${d.pourId}&tendon=${d.tendonId}`,
     });
-    await db
-      .insertInto("notifications")
-      .values({
-        project_id: input.projectId,
-        flag_id: d.flag_id,
-        dedupe_key: `disposition:${d.id}`,
-        to_emails: to,
-        subject: mail.subject,
-        text_body: mail.text,
-        html_body: mail.html,
-      })
-      .onConflict((oc) => oc.column("dedupe_key").doNothing())
-      .execute();
+    await queueMail(db, {
+      projectId: input.projectId,
+      flagId: d.flag_id,
+      dedupeKey: `disposition:${d.id}`,
+      to,
+      mail,
+    });
     return true;
   }
 
@@ -150,18 +145,6 @@ export async function queueCrewNotice(
     statement: r.statement,
     url: `${env.APP_URL}/field/pour?id=${r.pourId}`,
   });
-  await db
-    .insertInto("notifications")
-    .values({
-      project_id: input.projectId,
-      flag_id: null,
-      dedupe_key: `release:${r.id}`,
-      to_emails: to,
-      subject: mail.subject,
-      text_body: mail.text,
-      html_body: mail.html,
-    })
-    .onConflict((oc) => oc.column("dedupe_key").doNothing())
-    .execute();
+  await queueMail(db, { projectId: input.projectId, flagId: null, dedupeKey: `release:${r.id}`, to, mail });
   return true;
 }

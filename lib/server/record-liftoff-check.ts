@@ -30,6 +30,7 @@ import {
 } from "./admit-event-op";
 import { inTransaction } from "./in-transaction";
 import { selectTendonBasis, toLoadedTendon } from "./load-tendon-basis";
+import { queueMail } from "./queue-mail";
 
 /**
  * Records a lift-off check from the tablet's outbox (op kind liftoff_check), exactly once: the
@@ -199,19 +200,13 @@ export async function recordLiftoffCheck(
             `(μ ${basis.project.frictionMu}, K ${showWobble(basis.project, basis.project.wobblePerM)}), ±${judged.bandPct} % lift-off band.`,
           url: `${env.APP_URL}/projects/${p.projectId}/tendons/${p.tendonId}/flags`,
         });
-        await trx
-          .insertInto("notifications")
-          .values({
-            project_id: p.projectId,
-            flag_id: flag.id,
-            dedupe_key: `liftoff:${op.recordId}`,
-            to_emails: recipients,
-            subject: mail.subject,
-            text_body: mail.text,
-            html_body: mail.html,
-          })
-          .onConflict((oc) => oc.column("dedupe_key").doNothing())
-          .execute();
+        await queueMail(trx, {
+          projectId: p.projectId,
+          flagId: flag.id,
+          dedupeKey: `liftoff:${op.recordId}`,
+          to: recipients,
+          mail,
+        });
       }
     }
 
