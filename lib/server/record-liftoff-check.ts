@@ -5,7 +5,7 @@ import type { Database } from "@/db/types";
 import { env } from "@/lib/env";
 import { dayInZone } from "@/lib/format/dates";
 import { reference } from "@/lib/format/references";
-import { showPressure, showWobble } from "@/lib/format/quantities";
+import { pressureAsTyped, showWobble } from "@/lib/format/quantities";
 import { flagMail } from "@/lib/mail/templates";
 import { CALIBRATION_COLUMNS, calibrationFromRow, pickCalibration } from "@/lib/schemas/calibration";
 import { liftoffPayloadSchema } from "@/lib/schemas/liftoff";
@@ -173,14 +173,11 @@ export async function recordLiftoffCheck(
     if (concurrent) return concurrent;
 
     const line_ = liftoffLine(basis.project, judged);
-    const readAs = `${p.pressure}${/[a-z]/i.test(p.pressure) ? "" : ` ${p.pressureUnit}`}`;
-    const shown = showPressure(basis.project, pressureMPa);
     let raisedFlagId: string | null = null;
     if (!judged.withinBand) {
       const reason =
-        `Lift-off check at end ${p.tendonEnd} of ${basis.tendon.tag} by ${person.name}: gauge ${readAs}` +
-        // The project's units beside the typed value only when they read differently.
-        `${shown.replaceAll(",", "") === readAs.replaceAll(",", "") ? "" : ` (${shown})`} on ${set.name}, ` +
+        `Lift-off check at end ${p.tendonEnd} of ${basis.tendon.tag} by ${person.name}: gauge ` +
+        `${pressureAsTyped(basis.project, { pressure: p.pressure, unit: p.pressureUnit }, pressureMPa)} on ${set.name}, ` +
         `calibration of ${picked.calibratedOn}. ${line_}`;
       const flag = await insertEventFlag(trx, p, { kind: "liftoff_out_of_band", reason })
         .returning(["id", "number"])
