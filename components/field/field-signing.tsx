@@ -13,19 +13,13 @@ import type { WitnessGroupView } from "@/lib/reports/daily-rows";
 import { DEFAULT_DAILY_STATEMENT, type DailyAttestation } from "@/lib/schemas/daily-report";
 import { DEFAULT_POUR_STATEMENT } from "@/lib/schemas/report-signature";
 import { useOnline } from "./use-live";
+import type { SignedRevisionView } from "@/components/reports/report-signing";
 
 interface Me {
   name: string;
   memberships: { projectId: string; projectName: string; projectCode: string; role: string }[];
 }
-interface Revision {
-  revision: number;
-  signerName: string;
-  licence: string;
-  signedAt: string;
-  fileSha256: string;
-  changes: string[];
-}
+type Revision = SignedRevisionView;
 interface Current {
   signed: boolean;
   changesSinceSigned: string[];

@@ -1,9 +1,8 @@
 import { formatDateTime } from "@/lib/format/dates";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
-import { rereadLine } from "@/lib/stressing/display";
-import { showPct } from "@/lib/format/quantities";
-import { storedGaugeOffTarget, storedGaugeSteps, storedWireBreaks, wireBreakWords } from "@/lib/schemas/record";
+import { storedWireBreaks, wireBreakWords } from "@/lib/schemas/record";
 import { CorrectionForm } from "./flag-actions";
+import { GaugeNotes, RereadNote } from "./record-notes";
 
 /** Every stressing record of the tendon, all revisions, oldest first; photos link to the files. */
 export function RecordsTable({
@@ -85,35 +84,8 @@ export function RecordsTable({
                         : ""}
                     </span>
                   )}
-                  {(() => {
-                    const line = rereadLine(c.basis.project, {
-                      measuredMm: r.measured_mm,
-                      firstReadingMm: r.first_reading_mm,
-                      rereadDeclinedReason: r.reread_declined_reason,
-                    });
-                    return line ? (
-                      <span className="block" data-testid="reread-line">
-                        {line}
-                      </span>
-                    ) : null;
-                  })()}
-                  {(() => {
-                    const steps = storedGaugeSteps(r.entered);
-                    return steps ? (
-                      <span className="block" data-testid="gauge-steps-line">
-                        Gauge steps:{" "}
-                        {steps.map((s) => `${showPressure(s.pressureMPa)}: ${showLength(s.readingMm)}`).join("; ")}
-                      </span>
-                    ) : null;
-                  })()}
-                  {(() => {
-                    const off = storedGaugeOffTarget(r.entered);
-                    return off ? (
-                      <span className="block font-bold" data-testid="gauge-off-target">
-                        Gauge {showPct(off.pct)} off target, kept by the crew: {off.reason}
-                      </span>
-                    ) : null;
-                  })()}
+                  <RereadNote project={c.basis.project} record={r} />
+                  <GaugeNotes entered={r.entered} pressure={showPressure} length={showLength} />
                   {r.remarks && <span className="block">{r.remarks}</span>}
                   {r.concrete_go_ahead && (
                     <span className="block" data-testid="concrete-go-ahead-reason">
