@@ -19,13 +19,14 @@ import {
   liftoffLine,
   liftoffPressureProblem,
 } from "@/lib/stressing/liftoff";
-import { isInputError, parsePressure } from "@/lib/units";
+import { isInputError } from "@/lib/units";
 import {
   admitEventOp,
   auditEventOp,
   claimEventOp,
   insertEventFlag,
   refusedField as refused,
+  typedPressureMPa,
   type OpSender,
 } from "./admit-event-op";
 import { inTransaction } from "./in-transaction";
@@ -74,13 +75,9 @@ export async function recordLiftoffCheck(
   if (!admitted.ok) return admitted.result;
   const p = admitted.payload;
   const { user, deviceId } = input;
-  let pressureMPa: number;
-  try {
-    pressureMPa = parsePressure(p.pressure, { field: "pressure", system: "SI", defaultUnit: p.pressureUnit });
-  } catch (error) {
-    if (!isInputError(error)) throw error;
+  const pressureMPa = typedPressureMPa(p.pressure, p.pressureUnit);
+  if (pressureMPa === null)
     return refused(op, "pressure", `The lift-off gauge pressure “${p.pressure}” cannot be read as a pressure.`);
-  }
 
   return inTransaction(db, async (trx) => {
     const repeat = await repeatOf(trx, op, user.id);
