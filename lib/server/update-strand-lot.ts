@@ -5,6 +5,7 @@ import type { StrandLotInput } from "@/lib/schemas/strand-lot";
 import { requireStoredAttachment } from "@/lib/storage";
 import { inTransaction } from "./in-transaction";
 import { recordAudit } from "./record-audit";
+import { requireFreeLotNumber, strandLotColumns } from "./create-strand-lot";
 import { raiseTendonVersions } from "./evaluate-tendon";
 import { reevaluateTendons } from "./reevaluate-project";
 
@@ -30,17 +31,11 @@ export async function updateStrandLot(
       .forUpdate()
       .executeTakeFirst();
     if (!before) throw new AppError("NOT_FOUND", "No such strand lot on this project.");
-    const clash = await trx
-      .selectFrom("strand_lots")
-      .select("id")
-      .where("project_id", "=", input.projectId)
-      .where("lot_number", "=", v.lotNumber)
-      .where("id", "!=", input.strandLotId)
-      .executeTakeFirst();
-    if (clash)
-      throw new AppError("CONFLICT", `Lot ${v.lotNumber} is registered already.`, {
-        lotNumber: ["Already registered on this project."],
-      });
+    await requireFreeLotNumber(trx, {
+      projectId: input.projectId,
+      lotNumber: v.lotNumber,
+      exceptId: input.strandLotId,
+    });
     const users = await trx
       .selectFrom("tendons")
       .select(["id", "tag", "strand_size"])
@@ -67,12 +62,7 @@ export async function updateStrandLot(
     await trx
       .updateTable("strand_lots")
       .set({
-        lot_number: v.lotNumber,
-        strand_size: v.strandSize,
-        area_mm2: v.areaMm2,
-        modulus_mpa: v.modulusMPa,
-        breaking_load_n: v.breakingLoadN,
-        certificate_attachment_id: v.certificateAttachmentId,
+        ...strandLotColumns(v),
       })
       .where("project_id", "=", input.projectId)
       .where("id", "=", input.strandLotId)
