@@ -205,12 +205,7 @@ export async function seedDemoRecords(
       .executeTakeFirstOrThrow();
   const licence = "Licensed professional engineer, demo licence PE-00000, invented";
   // The inspector sends a flag on to the engineer, who decides with the instruction in words.
-  const referAndDecide = async (
-    flagId: string,
-    sentWith: string,
-    decision: Decision,
-    reasons: string,
-  ) => {
+  const referAndDecide = async (flagId: string, sentWith: string, decision: Decision, reasons: string) => {
     await addReview(trx, {
       projectId: input.projectId,
       flagId,
