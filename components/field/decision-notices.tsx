@@ -4,6 +4,7 @@ import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
 import { readMeta, type LocalNotice, type SessionMeta } from "@/lib/offline/db";
 import type { NoticeKind } from "@/lib/offline/decision-notices";
 import { acknowledgeNotices, openNotices } from "@/lib/offline/notices";
+import { LineIcon, Mark } from "@/components/ui/mark";
 import { useField } from "./field-provider";
 import { useLiveQuery as useLive } from "dexie-react-hooks";
 
@@ -69,16 +70,11 @@ export function DecisionNotices({ pourId, className = "" }: { pourId?: string; c
     >
       <div role="alert">
         <h2 id="notices-heading" className="flex items-center gap-2 text-lead font-bold">
-          <svg viewBox="0 0 24 24" className="h-7 w-7 shrink-0" aria-hidden="true">
-            <path
-              d="M12 3a6 6 0 0 0-6 6v4l-2 3h16l-2-3V9a6 6 0 0 0-6-6zM10 19a2 2 0 0 0 4 0"
-              fill="none"
-              stroke="currentColor"
-              strokeWidth="2.5"
-              strokeLinecap="round"
-              strokeLinejoin="round"
-            />
-          </svg>
+          <LineIcon
+            d="M12 3a6 6 0 0 0-6 6v4l-2 3h16l-2-3V9a6 6 0 0 0-6-6zM10 19a2 2 0 0 0 4 0"
+            className="h-7 w-7 shrink-0"
+            weight={2.5}
+          />
           {notices.length === 1 ? "1 change came with the sync" : `${notices.length} changes came with the sync`}
         </h2>
       </div>
@@ -108,21 +104,12 @@ export function DecisionNotices({ pourId, className = "" }: { pourId?: string; c
                     {n.pourName}
                   </span>
                 )}
-                <span
-                  className={`inline-flex items-center gap-1 rounded-md border-2 px-2 text-label font-bold uppercase ${holds ? "border-signal-stop text-signal-stop" : "border-ink"}`}
+                <Mark
+                  look={{ icon: look.icon, cls: holds ? "border-signal-stop text-signal-stop" : "border-ink" }}
+                  size="chip"
                 >
-                  <svg viewBox="0 0 24 24" className="h-4 w-4" aria-hidden="true">
-                    <path
-                      d={look.icon}
-                      fill="none"
-                      stroke="currentColor"
-                      strokeWidth="3"
-                      strokeLinecap="round"
-                      strokeLinejoin="round"
-                    />
-                  </svg>
                   {look.word}
-                </span>
+                </Mark>
                 {manyPours && n.tendonTag && <span className="text-ink-soft">{n.pourName}</span>}
               </p>
               <p className="font-semibold" data-testid="notice-what">

@@ -2,7 +2,7 @@
 import { FormField } from "@/components/ui/form-field";
 import { useId, useState } from "react";
 import { formatDateTime, instantFromLocalInput, localInputValue, projectTimeZone } from "@/lib/format/dates";
-import { showPressure } from "@/lib/format/quantities";
+import { pressureAsTyped } from "@/lib/format/quantities";
 import { readMeta, type LocalDetension, type SessionMeta } from "@/lib/offline/db";
 import { awaitingRestressOf, type Hold } from "@/lib/offline/hold-view";
 import { saveDetension } from "@/lib/offline/outbox";
@@ -19,7 +19,6 @@ import {
   FormProblem,
   SetChoice,
   saveFailure,
-  typedPressure,
 } from "./follow-up-fields";
 import { useField } from "./field-provider";
 import { useLiveQuery as useLive } from "dexie-react-hooks";
@@ -114,10 +113,6 @@ function DetensionItem(props: {
 }) {
   const { detension: d, project } = props;
   const set = props.sets.find((s) => s.id === d.equipmentSetId);
-  const typed = d.entered ? typedPressure(d.entered) : null;
-  // The project's units beside what was typed, only when they read differently (a bare MPa on a psi job).
-  const shown =
-    d.releasePressureMPa !== null ? showPressure({ unitSystem: project.unitSystem }, d.releasePressureMPa) : null;
   return (
     <li className="grid gap-1 rounded-md border-2 border-concrete-500 bg-white p-3" data-testid="detension-item">
       <p className="font-semibold">
@@ -125,10 +120,7 @@ function DetensionItem(props: {
         {d.strandsDetensioned === 1 ? "" : "s"} · jack run by {d.operatorName} · set {set?.name ?? "not on this tablet"}
       </p>
       <p>
-        Gauge at release:{" "}
-        {typed
-          ? `${typed}${shown && shown.replaceAll(",", "") !== typed.replaceAll(",", "") ? ` (${shown})` : ""}`
-          : "not read"}
+        Gauge at release: {d.entered ? pressureAsTyped(project, d.entered, d.releasePressureMPa) : "not read"}
         {d.remarks ? ` · ${d.remarks}` : ""}
       </p>
       <p className="text-ink-soft" data-testid="detension-state">

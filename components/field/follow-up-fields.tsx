@@ -161,8 +161,3 @@ export function FollowUpActions(props: { busy: boolean; saveLabel: string; saveT
 export function saveFailure(e: unknown, what: string): string {
   return e instanceof OutboxWriteError ? e.message : `The tablet could not save ${what}. Nothing was saved.`;
 }
-
-/** A pressure as the crew typed it, its unit added when they typed a bare number. */
-export function typedPressure(entered: { pressure: string; unit: string }): string {
-  return `${entered.pressure}${/[a-z]/i.test(entered.pressure) ? "" : ` ${entered.unit}`}`;
-}

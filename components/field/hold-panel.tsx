@@ -1,3 +1,4 @@
+import { LineIcon } from "@/components/ui/mark";
 import { flagLabel } from "@/components/ui/verdict-badge";
 import { formatDateTime } from "@/lib/format/dates";
 import { holdsOf } from "@/lib/offline/hold-view";
@@ -35,16 +36,7 @@ export function HoldPanel({
       data-testid="hold-panel"
     >
       <h3 className="flex items-center gap-2 text-lead font-bold text-signal-stop">
-        <svg viewBox="0 0 24 24" className="h-7 w-7 shrink-0" aria-hidden="true">
-          <path
-            d="M6 3v18M6 4h11l-3 4 3 4H6"
-            fill="none"
-            stroke="currentColor"
-            strokeWidth="3"
-            strokeLinecap="round"
-            strokeLinejoin="round"
-          />
-        </svg>
+        <LineIcon d="M6 3v18M6 4h11l-3 4 3 4H6" className="h-7 w-7 shrink-0" />
         Held: do not cut tails
       </h3>
       {!holds.length && (

@@ -1,4 +1,5 @@
 "use client";
+import { typedPressure } from "@/lib/format/quantities";
 import { FormField } from "@/components/ui/form-field";
 import { useId, useState } from "react";
 import { formatDateTime, projectTimeZone } from "@/lib/format/dates";
@@ -22,7 +23,6 @@ import {
   Problem,
   SetChoice,
   saveFailure,
-  typedPressure,
 } from "./follow-up-fields";
 import { useField } from "./field-provider";
 import { useLiveQuery as useLive } from "dexie-react-hooks";

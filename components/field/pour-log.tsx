@@ -17,6 +17,7 @@ import { projectTimeZone } from "@/lib/format/dates";
 import type { FieldEvaluation, FieldFlag, FieldTendon } from "@/lib/schemas/sync";
 import { stressedEnds } from "@/lib/stressing/basis";
 import { showLength, showLongLength, showPressure } from "@/lib/format/quantities";
+import { Mark, type MarkLook } from "@/components/ui/mark";
 import { DecisionNotices } from "./decision-notices";
 import { useField } from "./field-provider";
 import { GaugeCheck } from "./gauge-check";
@@ -41,7 +42,7 @@ const RecordForm = dynamic(() => import("./record-form").then((m) => m.RecordFor
 
 const HoldPanel = dynamic(() => import("./hold-panel").then((m) => m.HoldPanel), { ssr: false });
 
-const STATE_LOOK: Record<TendonState, { icon: string; cls: string }> = {
+const STATE_LOOK: Record<TendonState, MarkLook> = {
   "not stressed": { icon: "M6 12h12", cls: "border-concrete-400" },
   "one end done": { icon: "M4 12h8M12 6v12", cls: "border-ink-faint bg-concrete-100" },
   done: { icon: "M5 12l4 4 10-10", cls: "border-signal-band bg-signal-band-bg text-signal-band" },
@@ -49,24 +50,10 @@ const STATE_LOOK: Record<TendonState, { icon: string; cls: string }> = {
 };
 
 function StateMark({ state }: { state: TendonState }) {
-  const look = STATE_LOOK[state];
   return (
-    <span
-      className={`inline-flex items-center gap-1 rounded-md border-2 px-2 text-label font-bold uppercase ${look.cls}`}
-      data-state={state}
-    >
-      <svg viewBox="0 0 24 24" className="h-4 w-4" aria-hidden="true">
-        <path
-          d={look.icon}
-          fill="none"
-          stroke="currentColor"
-          strokeWidth="3"
-          strokeLinecap="round"
-          strokeLinejoin="round"
-        />
-      </svg>
+    <Mark look={STATE_LOOK[state]} size="chip" data-state={state}>
       {state}
-    </span>
+    </Mark>
   );
 }
 

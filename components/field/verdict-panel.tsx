@@ -1,4 +1,5 @@
 import { Caution } from "@/components/ui/caution";
+import { VERDICT_LOOK, VerdictBadge } from "@/components/ui/verdict-badge";
 import type { LocalVerdict } from "@/lib/offline/db";
 import type { FieldProject, OpEvaluation } from "@/lib/schemas/sync";
 import { showBandPct, showComputedLength, showForce, showLength, showPct, showPressure } from "@/lib/format/quantities";
@@ -6,58 +7,10 @@ import { heldUntil, type Hold, verdictHolds } from "@/lib/offline/hold-view";
 import { flagLabel } from "@/lib/schemas/flag";
 import { showBandAsRead, showPredictedAsRead } from "@/lib/stressing/display";
 
-const LOOK = {
-  "in band": { word: "In band", icon: "M5 12l4 4 10-10", cls: "border-signal-band bg-signal-band-bg text-signal-band" },
-  long: { word: "Long", icon: "M12 19V5M5 12l7-7 7 7", cls: "border-signal-long bg-signal-long-bg text-signal-long" },
-  short: {
-    word: "Short",
-    icon: "M12 5v14M5 12l7 7 7-7",
-    cls: "border-signal-short bg-signal-short-bg text-signal-short",
-  },
-  incomplete: { word: "Incomplete", icon: "M6 12h12", cls: "border-concrete-500 bg-concrete-100 text-ink" },
-} as const;
-
 export const units = (p: FieldProject) => ({
   unitSystem: p.unitSystem,
   readingResolution: p.readingResolution,
 });
-
-/** An elongation in band on a tendon something else holds: never green. */
-const HELD = { icon: "M12 5v9M12 19h.01", cls: "border-signal-stop bg-signal-stop-bg text-signal-stop" } as const;
-
-export function VerdictMark({
-  verdict,
-  held = false,
-  children,
-}: {
-  verdict: keyof typeof LOOK;
-  /** A flag holds the tendon although its elongation is in band: the mark is not the green one. */
-  held?: boolean;
-  children?: React.ReactNode;
-}) {
-  const look = held && verdict === "in band" ? { ...LOOK[verdict], ...HELD } : LOOK[verdict];
-  return (
-    <span
-      className={`inline-flex min-h-touch items-center gap-2 rounded-md border-2 px-3 text-lead font-bold ${look.cls}`}
-      data-verdict={verdict}
-      data-held={held && verdict === "in band" ? "true" : undefined}
-    >
-      <svg viewBox="0 0 24 24" className="h-6 w-6" aria-hidden="true">
-        <path
-          d={look.icon}
-          fill="none"
-          stroke="currentColor"
-          strokeWidth="3"
-          strokeLinecap="round"
-          strokeLinejoin="round"
-        />
-      </svg>
-      {look.word}
-      {children}
-      {held && verdict === "in band" && <span>· held</span>}
-    </span>
-  );
-}
 
 /**
  * Measured, predicted and the band in the crew's own form: on an inch project fractions at the
@@ -124,13 +77,13 @@ export function VerdictPanel({
       {local ? (
         <>
           <div className="flex flex-wrap items-center gap-3">
-            <VerdictMark verdict={shown!.verdict} held={held}>
+            <VerdictBadge size="lead" verdict={shown!.verdict} held={held}>
               {shown!.deviationPct !== null && (
                 <span className="tabular-nums" data-testid="deviation">
                   {showPct(shown!.deviationPct)}
                 </span>
               )}
-            </VerdictMark>
+            </VerdictBadge>
             <span className="text-label font-semibold uppercase" data-testid="judged-by">
               {judgedBy}
             </span>
@@ -205,7 +158,7 @@ export function VerdictPanel({
           {targetMPa !== null && <p>Target gauge pressure for this set: {showPressure(u, targetMPa)}.</p>}
           {server ? (
             <p data-testid="server-verdict">
-              Server evaluation: <strong>{LOOK[server.verdict].word}</strong>
+              Server evaluation: <strong>{VERDICT_LOOK[server.verdict].word}</strong>
               {server.deviationPct !== null ? ` ${showPct(server.deviationPct)}` : ""}
               {server.provisional ? " (provisional)" : ""}
               {server.flagKinds.length ? ` · flagged: ${server.flagKinds.map(flagLabel).join("; ")}` : ""}

@@ -1,4 +1,5 @@
 import { showModulus, showNumber, showPct, showPctPoints, showShare, type DisplayUnits } from "@/lib/format/quantities";
+import { LineIcon } from "@/components/ui/mark";
 import type { ApparentModulus, ResolutionShare, SetDrift } from "@/lib/insights";
 
 /** The insight page's tables: plain server-rendered markup, numbers in tabular figures. */
@@ -42,15 +43,7 @@ export function DriftTable({ caption, sets }: { caption: string; sets: SetDrift[
               <td className="p-2">
                 {s.drifting ? (
                   <span className="inline-flex items-center gap-2 rounded-md border-2 border-signal-stop bg-signal-stop-bg px-2 font-bold text-signal-stop">
-                    <svg viewBox="0 0 24 24" className="h-4 w-4" aria-hidden="true">
-                      <path
-                        d="M12 2 L23 21 H1 Z"
-                        fill="none"
-                        stroke="currentColor"
-                        strokeWidth="2.5"
-                        strokeLinejoin="round"
-                      />
-                    </svg>
+                    <LineIcon d="M12 2 L23 21 H1 Z" className="h-4 w-4" weight={2.5} />
                     Drifting
                   </span>
                 ) : (

@@ -2,6 +2,7 @@
 
 import dynamic from "next/dynamic";
 import { PlotLoading } from "@/components/ui/plot-loading";
+import type { PourProgress } from "./progress-plot";
 
 const ProgressPlot = dynamic(() => import("./progress-plot").then((m) => m.ProgressPlot), {
   ssr: false,
@@ -12,17 +13,8 @@ const ProgressPlot = dynamic(() => import("./progress-plot").then((m) => m.Progr
  * The pour's progress: tendons stressed, with open flags, and released, out of the schedule. The
  * figure and its text alternative come with the page; the drawing (recharts) loads after it.
  */
-export function ProgressChart({
-  tendons,
-  stressed,
-  flagged,
-  released,
-}: {
-  tendons: number;
-  stressed: number;
-  flagged: number;
-  released: number;
-}) {
+export function ProgressChart(progress: PourProgress) {
+  const { tendons, stressed, flagged, released } = progress;
   return (
     <figure>
       <div
@@ -31,7 +23,7 @@ export function ProgressChart({
         aria-label={`${stressed} of ${tendons} tendons stressed, ${flagged} with open flags, ${released} released`}
         data-chart="progress"
       >
-        <ProgressPlot tendons={tendons} stressed={stressed} flagged={flagged} released={released} />
+        <ProgressPlot {...progress} />
       </div>
       <figcaption className="mt-1 text-label text-ink-faint">Out of {tendons} tendons on the schedule.</figcaption>
     </figure>

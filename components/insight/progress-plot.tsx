@@ -2,18 +2,16 @@
 
 import { Bar, BarChart, CartesianGrid, Cell, LabelList, ResponsiveContainer, XAxis, YAxis } from "recharts";
 
-/** The progress chart's drawing (recharts), loaded only where the chart is shown. */
-export function ProgressPlot({
-  tendons,
-  stressed,
-  flagged,
-  released,
-}: {
+/** The pour's counts the progress chart draws, out of the tendons on the schedule. */
+export interface PourProgress {
   tendons: number;
   stressed: number;
   flagged: number;
   released: number;
-}) {
+}
+
+/** The progress chart's drawing (recharts), loaded only where the chart is shown. */
+export function ProgressPlot({ tendons, stressed, flagged, released }: PourProgress) {
   const data = [
     { label: "Stressed", value: stressed, fill: "#14213d" },
     { label: "With open flags", value: flagged, fill: "#a3181b" },

@@ -6,21 +6,9 @@ import { FormMessage } from "@/components/ui/form-message";
 import { sendJson } from "@/lib/client/send-json";
 import { formatDateTime } from "@/lib/format/dates";
 import { ClientForm } from "@/components/ui/client-form";
+import type { Verification } from "@/lib/server/verify-report-file";
 
-type Answer =
-  | { match: false }
-  | {
-      match: true;
-      project: string;
-      pour: string | null;
-      day: string | null;
-      revision: number;
-      signerName: string;
-      licence: string;
-      signedAt: string;
-      latest: boolean;
-      supersededBy: number | null;
-    };
+type Answer = Verification<string>;
 
 async function sha256Hex(file: File): Promise<string> {
   const digest = await crypto.subtle.digest("SHA-256", await file.arrayBuffer());

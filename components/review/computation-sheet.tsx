@@ -1,4 +1,5 @@
 import { ForceProfileChart } from "@/components/review/force-profile-chart";
+import { LineIcon } from "@/components/ui/mark";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
 import {
   showAngle,
@@ -46,20 +47,11 @@ function Section({
   return (
     <details open={open} className="group rounded-md border-2 border-concrete-300 bg-white" data-sheet-section={id}>
       <summary className="flex min-h-touch cursor-pointer items-center gap-2 px-4 py-2">
-        <svg
-          viewBox="0 0 24 24"
+        <LineIcon
+          d="M9 5l7 7-7 7"
           className="h-5 w-5 shrink-0 transition-transform group-open:rotate-90"
-          aria-hidden="true"
-        >
-          <path
-            d="M9 5l7 7-7 7"
-            fill="none"
-            stroke="currentColor"
-            strokeWidth="2.5"
-            strokeLinecap="round"
-            strokeLinejoin="round"
-          />
-        </svg>
+          weight={2.5}
+        />
         <h3 id={`${id}-heading`} className="text-lead font-bold">
           {title}
         </h3>

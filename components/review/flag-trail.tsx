@@ -1,6 +1,6 @@
 import { FlagChip } from "@/components/ui/verdict-badge";
 import { formatDateTime } from "@/lib/format/dates";
-import { showPressure } from "@/lib/format/quantities";
+import { pressureAsTyped } from "@/lib/format/quantities";
 import { DECISION_LABELS } from "@/lib/schemas/review";
 import { liftoffLine } from "@/lib/stressing/liftoff";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
@@ -144,8 +144,6 @@ function LiftoffChecks({
   return (
     <ul className="mt-2 grid gap-2" aria-label="Lift-off checks">
       {checks.map((l) => {
-        const typed = `${l.entered.pressure}${/[a-z]/i.test(l.entered.pressure) ? "" : ` ${l.entered.unit}`}`;
-        const shown = showPressure(p, l.pressureMPa);
         return (
           <li
             key={l.id}
@@ -158,8 +156,7 @@ function LiftoffChecks({
             </p>
             <p>{liftoffLine(p, l)}</p>
             <p className="text-label">
-              End {l.tendonEnd} · gauge {typed}
-              {shown.replaceAll(",", "") === typed.replaceAll(",", "") ? "" : ` (${shown})`} · set {l.equipmentSet},
+              End {l.tendonEnd} · gauge {pressureAsTyped(p, l.entered, l.pressureMPa)} · set {l.equipmentSet},
               calibration of {l.calibratedOn} · {l.checkedByName}, {when(l.checkedAt)}
             </p>
           </li>
@@ -191,10 +188,6 @@ function Detensions({
     <div className="mt-2 grid gap-2">
       <ul className="grid gap-2" aria-label="Detensions">
         {detensions.map((d) => {
-          const typed = d.entered
-            ? `${d.entered.pressure}${/[a-z]/i.test(d.entered.pressure) ? "" : ` ${d.entered.unit}`}`
-            : null;
-          const shown = d.releasePressureMPa !== null ? showPressure(p, d.releasePressureMPa) : null;
           return (
             <li key={d.id} className="rounded-md border-2 border-ink bg-white p-2" data-testid="detension-record">
               <p className="font-bold">
@@ -202,10 +195,7 @@ function Detensions({
                 {c.basis.tendon.strandCount === 1 ? "" : "s"}
               </p>
               <p>
-                Gauge at release:{" "}
-                {typed
-                  ? `${typed}${shown && shown.replaceAll(",", "") !== typed.replaceAll(",", "") ? ` (${shown})` : ""}`
-                  : "not read"}
+                Gauge at release: {d.entered ? pressureAsTyped(p, d.entered, d.releasePressureMPa) : "not read"}
                 {d.remarks ? ` · ${d.remarks}` : ""}
               </p>
               <p className="text-label">

@@ -1,10 +1,9 @@
 import { Fragment } from "react";
 import { formatDateTime } from "@/lib/format/dates";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
-import { rereadLine } from "@/lib/stressing/display";
-import { showPct } from "@/lib/format/quantities";
-import { storedGaugeOffTarget, storedGaugeSteps, wireBreakWords } from "@/lib/schemas/record";
+import { wireBreakWords } from "@/lib/schemas/record";
 import { CorrectionForm } from "./flag-actions";
+import { GaugeNotes, RereadNote } from "./record-notes";
 
 /** "2026-12-03 04:39 CST" as the day over the time, each unbroken, so the column stays narrow. */
 function DateThenTime({ text }: { text: string }) {
@@ -80,31 +79,8 @@ export function RecordsTable({
                         {r.wireBreakDetails?.length ? `: ${r.wireBreakDetails.map(wireBreakWords).join("; ")}` : ""}
                       </span>
                     )}
-                    {(() => {
-                      const line = rereadLine(c.basis.project, r);
-                      return line ? (
-                        <span className="block" data-testid="reread-line">
-                          {line}
-                        </span>
-                      ) : null;
-                    })()}
-                    {(() => {
-                      const steps = storedGaugeSteps(r.entered);
-                      return steps ? (
-                        <span className="block" data-testid="gauge-steps-line">
-                          Gauge steps:{" "}
-                          {steps.map((s) => `${showPressure(s.pressureMPa)}: ${showLength(s.readingMm)}`).join("; ")}
-                        </span>
-                      ) : null;
-                    })()}
-                    {(() => {
-                      const off = storedGaugeOffTarget(r.entered);
-                      return off ? (
-                        <span className="block font-bold" data-testid="gauge-off-target">
-                          Gauge {showPct(off.pct)} off target, kept by the crew: {off.reason}
-                        </span>
-                      ) : null;
-                    })()}
+                    <RereadNote project={c.basis.project} record={r} />
+                    <GaugeNotes entered={r.entered} pressure={showPressure} length={showLength} />
                     {r.remarks && <span className="block">{r.remarks}</span>}
                     {r.concreteGoAhead && (
                       <span className="block" data-testid="concrete-go-ahead-reason">

@@ -28,6 +28,8 @@ import {
   showNumber,
   showPctPoints,
   showPressure,
+  pressureAsTyped,
+  typedPressure,
   showShare,
   showSteelStress,
   showStrength,
@@ -79,6 +81,20 @@ describe("quantities in the project's units", () => {
     expect(showPressure(us, 4227 * MPA_PER_PSI)).toBe("4227 psi");
     expect(showPressure(si, 29.14)).toBe("29.14 MPa");
     expect(showPressure(us, 29.14)).not.toContain("MPa");
+  });
+
+  it("shows a gauge pressure as typed, with the project's reading beside it only when they differ", () => {
+    // The unit is added to a bare number only; a typed unit stays as typed.
+    expect(typedPressure({ pressure: "4227", unit: "psi" })).toBe("4227 psi");
+    expect(typedPressure({ pressure: "29.14 MPa", unit: "psi" })).toBe("29.14 MPa");
+    // The same reading in the project's units (thousands separators aside): nothing beside it.
+    expect(pressureAsTyped(us, { pressure: "4,227", unit: "psi" }, 4227 * MPA_PER_PSI)).toBe("4,227 psi");
+    // A bare MPa on a psi job: the psi reading beside it.
+    expect(pressureAsTyped(us, { pressure: "29.14", unit: "MPa" }, 29.14)).toBe(
+      `29.14 MPa (${showPressure(us, 29.14)})`,
+    );
+    // Not read by the server yet: only what was typed.
+    expect(pressureAsTyped(si, { pressure: "29.14", unit: "MPa" }, null)).toBe("29.14 MPa");
   });
 
   it("prints the wobble coefficient per foot or per metre", () => {

@@ -210,3 +210,22 @@ export function showPct(pct: number): string {
   const sign = rounded === 0 ? "" : pct >= 0 ? "+" : "−";
   return `${sign}${rounded.toFixed(1)} %`;
 }
+
+/** A gauge pressure as the crew typed it, its unit added when they typed a bare number. */
+export function typedPressure(entered: { pressure: string; unit: string }): string {
+  return `${entered.pressure}${/[a-z]/i.test(entered.pressure) ? "" : ` ${entered.unit}`}`;
+}
+
+/**
+ * A gauge pressure as typed, with the project's own reading beside it in brackets only when the two
+ * read differently (a bare MPa on a psi job); `mpa` null when the server has not read it yet.
+ */
+export function pressureAsTyped(
+  project: Pick<DisplayUnits, "unitSystem">,
+  entered: { pressure: string; unit: string },
+  mpa: number | null,
+): string {
+  const typed = typedPressure(entered);
+  const shown = mpa !== null ? showPressure(project, mpa) : null;
+  return shown && shown.replaceAll(",", "") !== typed.replaceAll(",", "") ? `${typed} (${shown})` : typed;
+}

@@ -12,6 +12,7 @@ import {
   showPressure,
   showStrength,
   showWobble,
+  pressureAsTyped,
 } from "@/lib/format/quantities";
 import { MPA_PER_PSI } from "@/lib/units";
 import { JACKING_LIMIT_FPU_FRACTION } from "@/lib/elongation";
@@ -134,9 +135,7 @@ function releaseText(
   entered: { pressure: string; unit: "psi" | "MPa" },
   mpa: number | null,
 ): string {
-  const typed = `${entered.pressure}${/[a-z]/i.test(entered.pressure) ? "" : ` ${entered.unit}`}`;
-  const shown = mpa !== null ? showPressure(p, mpa) : null;
-  return shown && shown.replaceAll(",", "") !== typed.replaceAll(",", "") ? `${typed} (${shown})` : typed;
+  return pressureAsTyped(p, entered, mpa);
 }
 
 /** What a row of the records table stands for. */

@@ -1,6 +1,6 @@
 import "server-only";
 import { inTransaction } from "./in-transaction";
-import { reevaluateTendons } from "./reevaluate-project";
+import { reevaluateCalibrationUsers } from "./retire-calibration";
 import type { Db } from "@/db/connect";
 import { fitCalibration, isInputError } from "@/lib/elongation";
 import { AppError } from "@/lib/errors";
@@ -87,18 +87,11 @@ export async function addCalibration(
       .executeTakeFirstOrThrow();
     // Records that named no calibration are judged on the one in force on their day: a new one
     // may now be it, so their tendons are judged again.
-    const touched = await trx
-      .selectFrom("records")
-      .select("tendon_id")
-      .distinct()
-      .where("project_id", "=", input.projectId)
-      .where("equipment_set_id", "=", input.setId)
-      .where("calibration_id", "is", null)
-      .execute();
-    if (touched.length && input.reevaluate !== false)
-      await reevaluateTendons(trx, {
+    if (input.reevaluate !== false)
+      await reevaluateCalibrationUsers(trx, {
         projectId: input.projectId,
-        tendonIds: touched.map((t) => t.tendon_id),
+        setId: input.setId,
+        calibrationId: null,
         reason: `calibration of ${v.calibratedOn} added to the equipment set`,
       });
     return { calibrationId: row.id, validUntil, r2: fit.r2, warnings: fit.checks.map((c) => c.message) };

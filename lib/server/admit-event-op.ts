@@ -5,6 +5,7 @@ import type { Database } from "@/db/types";
 import { can } from "@/lib/auth/permissions";
 import type { OpResult, SyncOp } from "@/lib/schemas/sync";
 import { zodFields } from "@/lib/schemas/zod-fields";
+import { isInputError, parsePressure, type PressureUnit } from "@/lib/units";
 import { claimOrRepeat, rejectedOp } from "./applied-ops";
 import { auditInsert, recordAudit } from "./record-audit";
 
@@ -144,4 +145,17 @@ export function insertEventFlag(
     reason: flag.reason,
     created_at: new Date(),
   });
+}
+
+/**
+ * A gauge pressure as the crew typed it on an event op, in MPa (a bare number is in the unit the
+ * tablet sent beside it); null when it cannot be read as a pressure, for the caller to refuse.
+ */
+export function typedPressureMPa(text: string, unit: PressureUnit): number | null {
+  try {
+    return parsePressure(text, { field: "pressure", system: "SI", defaultUnit: unit });
+  } catch (error) {
+    if (!isInputError(error)) throw error;
+    return null;
+  }
 }

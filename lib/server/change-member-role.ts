@@ -43,45 +43,47 @@ export async function changeMemberRole(
   db: Db,
   input: { projectId: string; userId: string; role: Role; by: string },
 ): Promise<void> {
+  await setMembership(db, input);
+}
+
+export async function removeMember(db: Db, input: { projectId: string; userId: string; by: string }): Promise<void> {
+  await setMembership(db, { ...input, role: null });
+}
+
+/**
+ * Gives a member another role, or (`role: null`) takes them off the project, under the membership's
+ * row lock: the last admin stays, the person's sessions end and the act is audited. The same role
+ * again changes nothing.
+ */
+async function setMembership(
+  db: Db,
+  input: { projectId: string; userId: string; role: Role | null; by: string },
+): Promise<void> {
   await db.transaction().execute(async (trx) => {
     const current = await lockMembership(trx, input);
     if (current.role === input.role) return;
     if (current.role === "admin") await assertAnotherAdminRemains(trx, input.projectId, input.userId);
-    await trx
-      .updateTable("project_members")
-      .set({ role: input.role })
-      .where("project_id", "=", input.projectId)
-      .where("user_id", "=", input.userId)
-      .execute();
+    if (input.role === null)
+      await trx
+        .deleteFrom("project_members")
+        .where("project_id", "=", input.projectId)
+        .where("user_id", "=", input.userId)
+        .execute();
+    else
+      await trx
+        .updateTable("project_members")
+        .set({ role: input.role })
+        .where("project_id", "=", input.projectId)
+        .where("user_id", "=", input.userId)
+        .execute();
     await endSessions(trx, input.userId);
     await recordAudit(trx, {
-      action: "member.role-change",
+      action: input.role === null ? "member.remove" : "member.role-change",
       outcome: "success",
       actorUserId: input.by,
       projectId: input.projectId,
       target: input.userId,
-      detail: { from: current.role, to: input.role },
-    });
-  });
-}
-
-export async function removeMember(db: Db, input: { projectId: string; userId: string; by: string }): Promise<void> {
-  await db.transaction().execute(async (trx) => {
-    const current = await lockMembership(trx, input);
-    if (current.role === "admin") await assertAnotherAdminRemains(trx, input.projectId, input.userId);
-    await trx
-      .deleteFrom("project_members")
-      .where("project_id", "=", input.projectId)
-      .where("user_id", "=", input.userId)
-      .execute();
-    await endSessions(trx, input.userId);
-    await recordAudit(trx, {
-      action: "member.remove",
-      outcome: "success",
-      actorUserId: input.by,
-      projectId: input.projectId,
-      target: input.userId,
-      detail: { role: current.role },
+      detail: input.role === null ? { role: current.role } : { from: current.role, to: input.role },
     });
   });
 }

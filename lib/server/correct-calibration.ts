@@ -6,6 +6,16 @@ import { inTransaction } from "./in-transaction";
 import { recordAudit } from "./record-audit";
 import { lockStandingCalibration, reevaluateCalibrationUsers } from "./retire-calibration";
 
+/** A correction of a standing calibration: its corrected figures and why, by whom. */
+export interface CalibrationCorrection {
+  projectId: string;
+  setId: string;
+  calibrationId: string;
+  by: { id: string };
+  reason: string;
+  values: CalibrationInput;
+}
+
 /**
  * Corrects a calibration typed wrong: the corrected figures become a new calibration of the set
  * (fitted and dated like any other) and the old one is retired naming it, with the reason. The old
@@ -14,14 +24,7 @@ import { lockStandingCalibration, reevaluateCalibrationUsers } from "./retire-ca
  */
 export async function correctCalibration(
   db: Db,
-  input: {
-    projectId: string;
-    setId: string;
-    calibrationId: string;
-    by: { id: string };
-    reason: string;
-    values: CalibrationInput;
-  },
+  input: CalibrationCorrection,
 ): Promise<{ calibrationId: string; validUntil: string; r2: number; warnings: string[]; reevaluated: number }> {
   return inTransaction(db, async (trx) => {
     const old = await lockStandingCalibration(trx, input);

@@ -4,7 +4,7 @@ import type { Db } from "@/db/connect";
 import type { Database } from "@/db/types";
 import { AppError } from "@/lib/errors";
 import type { TendonInput } from "@/lib/schemas/tendon";
-import { requireOpenPour } from "./require-open-pour";
+import { lockOpenPour } from "./require-open-pour";
 
 /** Adds one tendon to a pour; the tag must be new in the pour and the lot the project's. */
 export async function createTendon(
@@ -15,30 +15,14 @@ export async function createTendon(
   return db.transaction().execute(async (trx) => {
     // The pour's row lock serialises the tag check with other writers of its tendons (the
     // schedule import takes it too), so two at once cannot both pass it.
-    const pour = await trx
-      .selectFrom("pours")
-      .select("id")
-      .where("project_id", "=", input.projectId)
-      .where("id", "=", input.pourId)
-      .forUpdate()
-      .executeTakeFirst();
-    if (!pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
-    await requireOpenPour(trx, input);
+    await lockOpenPour(trx, input);
     await checkScheduleRow(trx, { projectId: input.projectId, pourId: input.pourId, values: v });
     const row = await trx
       .insertInto("tendons")
       .values({
         project_id: input.projectId,
         pour_id: input.pourId,
-        tag: v.tag,
-        kind: v.kind,
-        strand_size: v.strandSize,
-        strand_count: v.strandCount,
-        segments: JSON.stringify(v.segments),
-        ends: v.ends,
-        jack_grip_mm: v.jackGripMm,
-        shop_elongation_mm: v.shopElongationMm,
-        strand_lot_id: v.strandLotId,
+        ...scheduleColumns(v),
         member: v.member ?? null,
         stressing_order: v.stressingOrder ?? null,
         jacking_force_n: v.jackingForceN ?? null,
@@ -47,6 +31,21 @@ export async function createTendon(
       .executeTakeFirstOrThrow();
     return { tendonId: row.id };
   });
+}
+
+/** The columns a schedule row always sets, on create and on edit (the optional ones each write its own way). */
+export function scheduleColumns(v: TendonInput) {
+  return {
+    tag: v.tag,
+    kind: v.kind,
+    strand_size: v.strandSize,
+    strand_count: v.strandCount,
+    segments: JSON.stringify(v.segments),
+    ends: v.ends,
+    jack_grip_mm: v.jackGripMm,
+    shop_elongation_mm: v.shopElongationMm,
+    strand_lot_id: v.strandLotId,
+  };
 }
 
 /**

@@ -740,7 +740,23 @@ export async function raiseTendonVersion(
   db: Kysely<Database>,
   input: { projectId: string; tendonId: string },
 ): Promise<void> {
-  const row = await db
+  const raised = await raiseTendonVersions(db, { projectId: input.projectId, tendonId: input.tendonId });
+  if (!raised) throw new AppError("NOT_FOUND", "No such tendon on this project.");
+}
+
+/**
+ * Raises the version of one tendon of the project, or of every tendon of one strand lot, holding
+ * their rows as `raiseTendonVersion` does; answers how many it raised.
+ */
+export async function raiseTendonVersions(
+  db: Kysely<Database>,
+  input: { projectId: string } & ({ tendonId: string } | { strandLotId: string }),
+): Promise<number> {
+  const [which, id] =
+    "tendonId" in input
+      ? (["tendons.id", input.tendonId] as const)
+      : (["tendons.strand_lot_id", input.strandLotId] as const);
+  const rows = await db
     .insertInto("tendon_versions")
     .columns(["tendon_id", "version"])
     .expression((eb) =>
@@ -748,14 +764,14 @@ export async function raiseTendonVersion(
         .selectFrom("tendons")
         .select(["tendons.id", sql<number>`1`.as("version")])
         .where("tendons.project_id", "=", input.projectId)
-        .where("tendons.id", "=", input.tendonId),
+        .where(which, "=", id),
     )
     .onConflict((oc) =>
       oc.column("tendon_id").doUpdateSet((eb) => ({ version: eb("tendon_versions.version", "+", 1) })),
     )
     .returning("version")
-    .executeTakeFirst();
-  if (!row) throw new AppError("NOT_FOUND", "No such tendon on this project.");
+    .execute();
+  return rows.length;
 }
 
 /**

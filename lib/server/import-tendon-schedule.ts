@@ -3,7 +3,7 @@ import type { Db } from "@/db/connect";
 import { parseTendonSchedule, type ScheduleError } from "@/lib/csv/tendon-schedule";
 import { AppError, type FieldErrors } from "@/lib/errors";
 import { recordAudit } from "./record-audit";
-import { requireOpenPour } from "./require-open-pour";
+import { lockOpenPour } from "./require-open-pour";
 
 /** Field key of one schedule error, as the import screen lists them: "line 3 · strands". */
 export function scheduleErrorKey(e: ScheduleError): string {
@@ -20,15 +20,7 @@ export async function importTendonSchedule(
   input: { projectId: string; pourId: string; csv: string; by: string },
 ): Promise<{ imported: number }> {
   return db.transaction().execute(async (trx) => {
-    const pour = await trx
-      .selectFrom("pours")
-      .select("id")
-      .where("project_id", "=", input.projectId)
-      .where("id", "=", input.pourId)
-      .forUpdate()
-      .executeTakeFirst();
-    if (!pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
-    await requireOpenPour(trx, input);
+    await lockOpenPour(trx, input);
     const existing = await trx
       .selectFrom("tendons")
       .select("tag")

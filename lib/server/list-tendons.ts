@@ -4,7 +4,7 @@ import type { Verdict } from "@/lib/schemas/domain";
 import { qualified } from "@/lib/schemas/columns";
 import { TENDON_COLUMNS, tendonFromRow, type Tendon } from "@/lib/schemas/tendon";
 import { AppError } from "@/lib/errors";
-import { predictTendon, projectBasisFromRow, targetPressureMPa } from "@/lib/stressing/basis";
+import { PREDICTION_BASIS_COLUMNS, predictTendon, projectBasisFromRow, targetPressureMPa } from "@/lib/stressing/basis";
 import { listEquipmentSets } from "./list-equipment-sets";
 
 /** A tendon on the pour's list: the one tendon DTO with its lot, length, prediction, targets and latest verdict. */
@@ -38,16 +38,7 @@ export async function listTendons(
   const [project, sets, evaluations] = await Promise.all([
     db
       .selectFrom("projects")
-      .select([
-        "tolerance_pct",
-        "short_tendon_floor_mm",
-        "comparison_basis",
-        "count_jack_grip",
-        "friction_mu",
-        "wobble_per_m",
-        "anchor_set_mm",
-        "jacking_force_factor",
-      ])
+      .select([...PREDICTION_BASIS_COLUMNS, "jacking_force_factor"])
       .where("id", "=", input.projectId)
       .executeTakeFirstOrThrow(),
     listEquipmentSets(db, input.projectId),

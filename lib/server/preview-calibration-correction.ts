@@ -2,7 +2,7 @@ import "server-only";
 import type { Db } from "@/db/connect";
 import type { CalibrationInput } from "@/lib/schemas/calibration";
 import { addCalibration } from "./add-calibration";
-import { correctCalibration } from "./correct-calibration";
+import { correctCalibration, type CalibrationCorrection } from "./correct-calibration";
 import { trialRejudging, type RejudgePreview } from "./preview-rejudging";
 import { retireCalibration } from "./retire-calibration";
 
@@ -15,17 +15,7 @@ export type CalibrationCorrectionPreview = RejudgePreview;
  * What the admin sees before pressing Correct a second time, as the settings screen does for its
  * preview. Bad figures, a future date or a retired calibration are refused exactly as the correction is.
  */
-export function previewCalibrationCorrection(
-  db: Db,
-  input: {
-    projectId: string;
-    setId: string;
-    calibrationId: string;
-    by: { id: string };
-    reason: string;
-    values: CalibrationInput;
-  },
-): Promise<RejudgePreview> {
+export function previewCalibrationCorrection(db: Db, input: CalibrationCorrection): Promise<RejudgePreview> {
   return trialRejudging(db, input.projectId, (trx) => correctCalibration(trx, input));
 }
 

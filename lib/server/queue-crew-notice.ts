@@ -9,6 +9,7 @@ import { DECISION_LABELS } from "@/lib/schemas/review";
 import { qualified } from "@/lib/schemas/columns";
 import { DISPOSITION_COLUMNS, dispositionFromRow } from "@/lib/schemas/disposition";
 import { showLength, showPct, showPressure, type StoredResolution } from "@/lib/format/quantities";
+import { queueMail } from "./queue-mail";
 
 /** Dispositions that send the crew back to the tendon. */
 export const ORDERS_WORK: readonly Decision[] = ["restress", "detension_restress", "liftoff_check", "replace"];
@@ -108,19 +109,13 @@ export async function queueCrewNotice(
       lastStressing,
       url: `${env.APP_URL}/field/pour?id=${d.pourId}&tendon=${d.tendonId}`,
     });
-    await db
-      .insertInto("notifications")
-      .values({
-        project_id: input.projectId,
-        flag_id: d.flagId,
-        dedupe_key: `disposition:${d.id}`,
-        to_emails: to,
-        subject: mail.subject,
-        text_body: mail.text,
-        html_body: mail.html,
-      })
-      .onConflict((oc) => oc.column("dedupe_key").doNothing())
-      .execute();
+    await queueMail(db, {
+      projectId: input.projectId,
+      flagId: d.flagId,
+      dedupeKey: `disposition:${d.id}`,
+      to,
+      mail,
+    });
     return true;
   }
 
@@ -154,18 +149,6 @@ export async function queueCrewNotice(
     statement: r.statement,
     url: `${env.APP_URL}/field/pour?id=${r.pourId}`,
   });
-  await db
-    .insertInto("notifications")
-    .values({
-      project_id: input.projectId,
-      flag_id: null,
-      dedupe_key: `release:${r.id}`,
-      to_emails: to,
-      subject: mail.subject,
-      text_body: mail.text,
-      html_body: mail.html,
-    })
-    .onConflict((oc) => oc.column("dedupe_key").doNothing())
-    .execute();
+  await queueMail(db, { projectId: input.projectId, flagId: null, dedupeKey: `release:${r.id}`, to, mail });
   return true;
 }

@@ -7,6 +7,7 @@ import { gaugeCheckMail } from "@/lib/mail/templates";
 import { gaugeCheckFigures, gaugeChecks } from "@/lib/stressing/gauge-check";
 import { judgedTendon } from "./get-pour-insight";
 import { listTendonResults } from "./list-tendon-results";
+import { queueMail } from "./queue-mail";
 
 /** Evaluations older than this are not looked at again (a pour idle for two days has been scanned). */
 const LOOK_BACK_MS = 2 * 24 * 3_600_000;
@@ -111,21 +112,14 @@ async function mailChecks(
       note: check.note,
       url: `${env.APP_URL}/projects/${input.projectId}/pours/${input.pourId}/insight`,
     });
-    const row = await db
-      .insertInto("notifications")
-      .values({
-        project_id: input.projectId,
-        flag_id: null,
-        dedupe_key: `gauge:${input.pourId}:${check.setId}:${day}`,
-        to_emails: inspectors.map((i) => i.email),
-        subject: mail.subject,
-        text_body: mail.text,
-        html_body: mail.html,
-      })
-      .onConflict((oc) => oc.column("dedupe_key").doNothing())
-      .returning("id")
-      .executeTakeFirst();
-    if (row) sent++;
+    const queued = await queueMail(db, {
+      projectId: input.projectId,
+      flagId: null,
+      dedupeKey: `gauge:${input.pourId}:${check.setId}:${day}`,
+      to: inspectors.map((i) => i.email),
+      mail,
+    });
+    if (queued) sent++;
   }
   return sent;
 }

@@ -8,6 +8,7 @@ import { shiftDigestMail } from "@/lib/mail/templates";
 import { FLAG_STATUS_LABELS, flagLabel } from "@/lib/schemas/flag";
 import { needsAtOnce } from "@/lib/stressing/flag-mail";
 import { lastEndedShift, shiftWords } from "@/lib/stressing/shift";
+import { queueMail } from "./queue-mail";
 
 /**
  * The shift digests: for each member who takes flags as a digest, once the project's shift has
@@ -141,19 +142,12 @@ export async function queueDigest(
     flags: lines,
     url: `${env.APP_URL}/review`,
   });
-  const row = await trx
-    .insertInto("notifications")
-    .values({
-      project_id: input.projectId,
-      flag_id: flags[0]!.id,
-      dedupe_key: `digest:${input.projectId}:${input.userId}:${input.through.toISOString()}`,
-      to_emails: [user.email],
-      subject: mail.subject,
-      text_body: mail.text,
-      html_body: mail.html,
-    })
-    .onConflict((oc) => oc.column("dedupe_key").doNothing())
-    .returning("id")
-    .executeTakeFirst();
-  return Boolean(row);
+  const queued = await queueMail(trx, {
+    projectId: input.projectId,
+    flagId: flags[0]!.id,
+    dedupeKey: `digest:${input.projectId}:${input.userId}:${input.through.toISOString()}`,
+    to: [user.email],
+    mail,
+  });
+  return queued;
 }

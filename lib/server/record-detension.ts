@@ -4,9 +4,15 @@ import type { Database } from "@/db/types";
 import { detensionPayloadSchema } from "@/lib/schemas/detension";
 import { DECISION_LABELS } from "@/lib/schemas/review";
 import type { OpResult, SyncOp } from "@/lib/schemas/sync";
-import { isInputError, parsePressure } from "@/lib/units";
 import { rejectedOp, repeatOf, takenRecordId } from "./applied-ops";
-import { admitEventOp, auditEventOp, claimEventOp, refusedField as refused, type OpSender } from "./admit-event-op";
+import {
+  admitEventOp,
+  auditEventOp,
+  claimEventOp,
+  refusedField as refused,
+  typedPressureMPa,
+  type OpSender,
+} from "./admit-event-op";
 import { inTransaction } from "./in-transaction";
 import { isReleasedPourRefusal, RELEASED_POUR_MESSAGE } from "./require-open-pour";
 
@@ -52,12 +58,9 @@ export async function recordDetension(
     return refused(op, "detensionedAt", "The time of the detension lies in the future: check the tablet's clock.");
   let pressureMPa: number | null = null;
   if (p.pressure) {
-    try {
-      pressureMPa = parsePressure(p.pressure, { field: "pressure", system: "SI", defaultUnit: p.pressureUnit });
-    } catch (error) {
-      if (!isInputError(error)) throw error;
+    pressureMPa = typedPressureMPa(p.pressure, p.pressureUnit);
+    if (pressureMPa === null)
       return refused(op, "pressure", `The gauge pressure at release “${p.pressure}” cannot be read as a pressure.`);
-    }
     if (!(pressureMPa > 0)) return refused(op, "pressure", "The gauge pressure at release must be above zero.");
   }
 

@@ -5,7 +5,7 @@ import type { Database } from "@/db/types";
 import { env } from "@/lib/env";
 import { dayInZone } from "@/lib/format/dates";
 import { reference } from "@/lib/format/references";
-import { showPressure, showWobble } from "@/lib/format/quantities";
+import { pressureAsTyped, showWobble } from "@/lib/format/quantities";
 import { flagMail } from "@/lib/mail/templates";
 import { CALIBRATION_COLUMNS, calibrationFromRow, pickCalibration } from "@/lib/schemas/calibration";
 import { liftoffPayloadSchema } from "@/lib/schemas/liftoff";
@@ -19,17 +19,19 @@ import {
   liftoffLine,
   liftoffPressureProblem,
 } from "@/lib/stressing/liftoff";
-import { isInputError, parsePressure } from "@/lib/units";
+import { isInputError } from "@/lib/units";
 import {
   admitEventOp,
   auditEventOp,
   claimEventOp,
   insertEventFlag,
   refusedField as refused,
+  typedPressureMPa,
   type OpSender,
 } from "./admit-event-op";
 import { inTransaction } from "./in-transaction";
 import { selectTendonBasis, toLoadedTendon } from "./load-tendon-basis";
+import { queueMail } from "./queue-mail";
 
 /**
  * Records a lift-off check from the tablet's outbox (op kind liftoff_check), exactly once: the
@@ -73,13 +75,9 @@ export async function recordLiftoffCheck(
   if (!admitted.ok) return admitted.result;
   const p = admitted.payload;
   const { user, deviceId } = input;
-  let pressureMPa: number;
-  try {
-    pressureMPa = parsePressure(p.pressure, { field: "pressure", system: "SI", defaultUnit: p.pressureUnit });
-  } catch (error) {
-    if (!isInputError(error)) throw error;
+  const pressureMPa = typedPressureMPa(p.pressure, p.pressureUnit);
+  if (pressureMPa === null)
     return refused(op, "pressure", `The lift-off gauge pressure “${p.pressure}” cannot be read as a pressure.`);
-  }
 
   return inTransaction(db, async (trx) => {
     const repeat = await repeatOf(trx, op, user.id);
@@ -172,14 +170,11 @@ export async function recordLiftoffCheck(
     if (concurrent) return concurrent;
 
     const line_ = liftoffLine(basis.project, judged);
-    const readAs = `${p.pressure}${/[a-z]/i.test(p.pressure) ? "" : ` ${p.pressureUnit}`}`;
-    const shown = showPressure(basis.project, pressureMPa);
     let raisedFlagId: string | null = null;
     if (!judged.withinBand) {
       const reason =
-        `Lift-off check at end ${p.tendonEnd} of ${basis.tendon.tag} by ${person.name}: gauge ${readAs}` +
-        // The project's units beside the typed value only when they read differently.
-        `${shown.replaceAll(",", "") === readAs.replaceAll(",", "") ? "" : ` (${shown})`} on ${set.name}, ` +
+        `Lift-off check at end ${p.tendonEnd} of ${basis.tendon.tag} by ${person.name}: gauge ` +
+        `${pressureAsTyped(basis.project, { pressure: p.pressure, unit: p.pressureUnit }, pressureMPa)} on ${set.name}, ` +
         `calibration of ${picked.calibratedOn}. ${line_}`;
       const flag = await insertEventFlag(trx, p, { kind: "liftoff_out_of_band", reason })
         .returning(["id", "number"])
@@ -199,19 +194,13 @@ export async function recordLiftoffCheck(
             `(μ ${basis.project.frictionMu}, K ${showWobble(basis.project, basis.project.wobblePerM)}), ±${judged.bandPct} % lift-off band.`,
           url: `${env.APP_URL}/projects/${p.projectId}/tendons/${p.tendonId}/flags`,
         });
-        await trx
-          .insertInto("notifications")
-          .values({
-            project_id: p.projectId,
-            flag_id: flag.id,
-            dedupe_key: `liftoff:${op.recordId}`,
-            to_emails: recipients,
-            subject: mail.subject,
-            text_body: mail.text,
-            html_body: mail.html,
-          })
-          .onConflict((oc) => oc.column("dedupe_key").doNothing())
-          .execute();
+        await queueMail(trx, {
+          projectId: p.projectId,
+          flagId: flag.id,
+          dedupeKey: `liftoff:${op.recordId}`,
+          to: recipients,
+          mail,
+        });
       }
     }
 

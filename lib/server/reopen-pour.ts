@@ -4,6 +4,7 @@ import type { Database } from "@/db/types";
 import type { Role } from "@/lib/schemas/domain";
 import { AppError } from "@/lib/errors";
 import { inTransaction } from "./in-transaction";
+import { lockPour } from "./require-open-pour";
 import { touchReleasedPour } from "./touch-released-pour";
 
 /**
@@ -18,14 +19,7 @@ export async function reopenPour(
   if (input.by.role !== "engineer")
     throw new AppError("FORBIDDEN", "Only the engineer of record reopens a released pour.");
   return inTransaction(db, async (trx) => {
-    const pour = await trx
-      .selectFrom("pours")
-      .select("id")
-      .where("project_id", "=", input.projectId)
-      .where("id", "=", input.pourId)
-      .forUpdate()
-      .executeTakeFirst();
-    if (!pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
+    await lockPour(trx, input);
     const state = await trx
       .selectFrom("pour_states")
       .select("release_id")

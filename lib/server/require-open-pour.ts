@@ -30,3 +30,24 @@ export async function requireOpenPour(
     .executeTakeFirst();
   if (state?.status === "released") throw new AppError("CONFLICT", RELEASED_POUR_MESSAGE);
 }
+
+/**
+ * Locks the pour's row for the rest of the transaction (it serialises the pour's schedule writers,
+ * its release and its reopening); refuses a pour that is not the project's.
+ */
+export async function lockPour(trx: Kysely<Database>, input: { projectId: string; pourId: string }): Promise<void> {
+  const pour = await trx
+    .selectFrom("pours")
+    .select("id")
+    .where("project_id", "=", input.projectId)
+    .where("id", "=", input.pourId)
+    .forUpdate()
+    .executeTakeFirst();
+  if (!pour) throw new AppError("NOT_FOUND", "No such pour on this project.");
+}
+
+/** Locks the pour's row, then refuses when it stands released: what every schedule write does first. */
+export async function lockOpenPour(trx: Kysely<Database>, input: { projectId: string; pourId: string }): Promise<void> {
+  await lockPour(trx, input);
+  await requireOpenPour(trx, input);
+}

@@ -25,13 +25,15 @@ export async function lockStandingCalibration(
 }
 
 /**
- * Judges again the tendons whose records stand on a calibration that was retired or corrected:
- * records that name it (or a calibration it corrected) and records of its set that named none.
+ * Judges again the tendons whose records stand on a calibration of the set that was added, retired
+ * or corrected: records of the set that named none (judged on the one in force on their day, which
+ * the change may alter) and, for `calibrationId`, records that name it or a calibration it corrected.
  */
 export async function reevaluateCalibrationUsers(
   trx: Kysely<Database>,
-  input: { projectId: string; setId: string; calibrationId: string; reason: string },
+  input: { projectId: string; setId: string; calibrationId: string | null; reason: string },
 ): Promise<number> {
+  const { calibrationId } = input;
   const touched = await trx
     .selectFrom("records")
     .select("tendon_id")
@@ -39,19 +41,21 @@ export async function reevaluateCalibrationUsers(
     .where("project_id", "=", input.projectId)
     .where("equipment_set_id", "=", input.setId)
     .where((w) =>
-      w.or([
-        w("calibration_id", "is", null),
-        w("calibration_id", "=", input.calibrationId),
-        w(
-          "calibration_id",
-          "in",
-          w
-            .selectFrom("calibrations")
-            .select("id")
-            .where("project_id", "=", input.projectId)
-            .where("replaced_by", "=", input.calibrationId),
-        ),
-      ]),
+      calibrationId === null
+        ? w("calibration_id", "is", null)
+        : w.or([
+            w("calibration_id", "is", null),
+            w("calibration_id", "=", calibrationId),
+            w(
+              "calibration_id",
+              "in",
+              w
+                .selectFrom("calibrations")
+                .select("id")
+                .where("project_id", "=", input.projectId)
+                .where("replaced_by", "=", calibrationId),
+            ),
+          ]),
     )
     .execute();
   if (!touched.length) return 0;

@@ -1,11 +1,12 @@
 import "server-only";
-import { sql } from "kysely";
 import type { Db } from "@/db/connect";
 import { AppError } from "@/lib/errors";
 import type { StrandLotInput } from "@/lib/schemas/strand-lot";
 import { requireStoredAttachment } from "@/lib/storage";
 import { inTransaction } from "./in-transaction";
 import { recordAudit } from "./record-audit";
+import { requireFreeLotNumber, strandLotColumns } from "./create-strand-lot";
+import { raiseTendonVersions } from "./evaluate-tendon";
 import { reevaluateTendons } from "./reevaluate-project";
 
 /** The lot's values a prediction reads: a change of any of them judges its stressed tendons again. */
@@ -30,17 +31,11 @@ export async function updateStrandLot(
       .forUpdate()
       .executeTakeFirst();
     if (!before) throw new AppError("NOT_FOUND", "No such strand lot on this project.");
-    const clash = await trx
-      .selectFrom("strand_lots")
-      .select("id")
-      .where("project_id", "=", input.projectId)
-      .where("lot_number", "=", v.lotNumber)
-      .where("id", "!=", input.strandLotId)
-      .executeTakeFirst();
-    if (clash)
-      throw new AppError("CONFLICT", `Lot ${v.lotNumber} is registered already.`, {
-        lotNumber: ["Already registered on this project."],
-      });
+    await requireFreeLotNumber(trx, {
+      projectId: input.projectId,
+      lotNumber: v.lotNumber,
+      exceptId: input.strandLotId,
+    });
     const users = await trx
       .selectFrom("tendons")
       .select(["id", "tag", "strand_size"])
@@ -67,12 +62,7 @@ export async function updateStrandLot(
     await trx
       .updateTable("strand_lots")
       .set({
-        lot_number: v.lotNumber,
-        strand_size: v.strandSize,
-        area_mm2: v.areaMm2,
-        modulus_mpa: v.modulusMPa,
-        breaking_load_n: v.breakingLoadN,
-        certificate_attachment_id: v.certificateAttachmentId,
+        ...strandLotColumns(v),
       })
       .where("project_id", "=", input.projectId)
       .where("id", "=", input.strandLotId)
@@ -84,21 +74,7 @@ export async function updateStrandLot(
     );
     // Raising the version of every tendon of the lot holds them until this transaction ends, so a
     // record pushed meanwhile (read on the old values) is refused by its guard and judged again.
-    if (moved.length)
-      await trx
-        .insertInto("tendon_versions")
-        .columns(["tendon_id", "version"])
-        .expression((eb) =>
-          eb
-            .selectFrom("tendons")
-            .select(["tendons.id", sql<number>`1`.as("version")])
-            .where("tendons.project_id", "=", input.projectId)
-            .where("tendons.strand_lot_id", "=", input.strandLotId),
-        )
-        .onConflict((oc) =>
-          oc.column("tendon_id").doUpdateSet((eb) => ({ version: eb("tendon_versions.version", "+", 1) })),
-        )
-        .execute();
+    if (moved.length) await raiseTendonVersions(trx, { projectId: input.projectId, strandLotId: input.strandLotId });
     const stressed = moved.length
       ? await trx
           .selectFrom("records")

@@ -2,12 +2,12 @@ import "server-only";
 import type { Db } from "@/db/connect";
 import { AppError } from "@/lib/errors";
 import { jackingForceOverLimit, type TendonInput } from "@/lib/schemas/tendon";
-import { checkScheduleRow } from "./create-tendon";
+import { checkScheduleRow, scheduleColumns } from "./create-tendon";
 import { inTransaction } from "./in-transaction";
 import { recordAudit } from "./record-audit";
 import { raiseTendonVersion } from "./evaluate-tendon";
 import { reevaluateTendons } from "./reevaluate-project";
-import { requireOpenPour } from "./require-open-pour";
+import { lockOpenPour } from "./require-open-pour";
 
 /**
  * Edits one tendon's schedule row. When it has been stressed and a value its prediction reads
@@ -29,14 +29,7 @@ export async function updateTendon(
       .executeTakeFirst();
     if (!found) throw new AppError("NOT_FOUND", "No such tendon on this project.");
     // The pour's row lock serialises the tag check with the pour's other schedule writers.
-    await trx
-      .selectFrom("pours")
-      .select("id")
-      .where("project_id", "=", input.projectId)
-      .where("id", "=", found.pour_id)
-      .forUpdate()
-      .executeTakeFirstOrThrow();
-    await requireOpenPour(trx, { projectId: input.projectId, pourId: found.pour_id });
+    await lockOpenPour(trx, { projectId: input.projectId, pourId: found.pour_id });
     const before = await trx
       .selectFrom("tendons")
       .selectAll()
@@ -60,15 +53,7 @@ export async function updateTendon(
     await trx
       .updateTable("tendons")
       .set({
-        tag: v.tag,
-        kind: v.kind,
-        strand_size: v.strandSize,
-        strand_count: v.strandCount,
-        segments: JSON.stringify(v.segments),
-        ends: v.ends,
-        jack_grip_mm: v.jackGripMm,
-        shop_elongation_mm: v.shopElongationMm,
-        strand_lot_id: v.strandLotId,
+        ...scheduleColumns(v),
         // Absent from the body: the member stays as it was.
         ...(v.member !== undefined && { member: v.member }),
         // Absent from the body: the schedule's stressing order stays as it was.

@@ -3,7 +3,8 @@ import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
 import { recordAudit } from "./record-audit";
 
-export type Verification =
+/** The answer; `At` is how the signing moment travels (a Date here, its ISO text in the browser). */
+export type Verification<At = Date> =
   | { match: false }
   | {
       match: true;
@@ -13,7 +14,7 @@ export type Verification =
       revision: number;
       signerName: string;
       licence: string;
-      signedAt: Date;
+      signedAt: At;
       /** False when a later revision has been signed since. */
       latest: boolean;
       /** The latest signed revision when this one is superseded by it; null when this one is the latest. */

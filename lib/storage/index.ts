@@ -81,31 +81,55 @@ export async function presignUpload(
     );
   }
   if (input.sizeBytes > env.UPLOAD_MAX_BYTES) throw tooBig(input.sizeBytes);
-  const attachmentId = randomUUID();
-  const objectKey = `projects/${input.projectId}/${input.purpose}/${attachmentId}/upload`;
+  const attachment = newAttachment({
+    ...input,
+    name: input.originalName,
+    by: input.uploadedBy,
+    keySuffix: "/upload",
+  });
   await db
     .insertInto("attachments")
-    .values({
-      id: attachmentId,
-      project_id: input.projectId,
-      purpose: input.purpose,
-      object_key: objectKey,
-      content_type: input.contentType,
-      size_bytes: input.sizeBytes,
-      original_name: safeFileName(input.originalName),
-      status: "pending",
-      record_id: input.recordId ?? null,
-      uploaded_by: input.uploadedBy,
-    })
+    .values({ ...attachment, status: "pending", record_id: input.recordId ?? null })
     .execute();
   const uploadUrl = await getSignedUrl(
     s3(),
-    new PutObjectCommand({ Bucket: bucket(), Key: objectKey, ContentType: input.contentType }),
+    new PutObjectCommand({ Bucket: bucket(), Key: attachment.object_key, ContentType: input.contentType }),
     {
       expiresIn: PRESIGN_SECONDS,
     },
   );
-  return { attachmentId, uploadUrl, headers: { "Content-Type": input.contentType }, expiresInSeconds: PRESIGN_SECONDS };
+  return {
+    attachmentId: attachment.id,
+    uploadUrl,
+    headers: { "Content-Type": input.contentType },
+    expiresInSeconds: PRESIGN_SECONDS,
+  };
+}
+
+/**
+ * A new attachment's row: a fresh id, its object key under the project and the purpose (`keySuffix`
+ * for a browser's upload), the file's name made safe, and who brought it.
+ */
+function newAttachment(input: {
+  projectId: string;
+  purpose: AttachmentPurpose;
+  contentType: string;
+  sizeBytes: number;
+  name: string;
+  by: string;
+  keySuffix?: string;
+}) {
+  const id = randomUUID();
+  return {
+    id,
+    project_id: input.projectId,
+    purpose: input.purpose,
+    object_key: `projects/${input.projectId}/${input.purpose}/${id}${input.keySuffix ?? ""}`,
+    content_type: input.contentType,
+    size_bytes: input.sizeBytes,
+    original_name: safeFileName(input.name),
+    uploaded_by: input.by,
+  };
 }
 
 async function readObject(key: string): Promise<Uint8Array | null> {
@@ -313,26 +337,19 @@ export async function storeGeneratedFile(
     createdBy: string;
   },
 ): Promise<StoredAttachment> {
-  const attachmentId = randomUUID();
-  const objectKey = `projects/${input.projectId}/${input.purpose}/${attachmentId}`;
+  const attachment = newAttachment({ ...input, sizeBytes: input.bytes.byteLength, by: input.createdBy });
   const sha256 = createHash("sha256").update(input.bytes).digest("hex");
   await s3().send(
-    new PutObjectCommand({ Bucket: bucket(), Key: objectKey, Body: input.bytes, ContentType: input.contentType }),
+    new PutObjectCommand({
+      Bucket: bucket(),
+      Key: attachment.object_key,
+      Body: input.bytes,
+      ContentType: input.contentType,
+    }),
   );
   const row = await db
     .insertInto("attachments")
-    .values({
-      id: attachmentId,
-      project_id: input.projectId,
-      purpose: input.purpose,
-      object_key: objectKey,
-      content_type: input.contentType,
-      size_bytes: input.bytes.byteLength,
-      sha256,
-      original_name: safeFileName(input.name),
-      status: "stored",
-      uploaded_by: input.createdBy,
-    })
+    .values({ ...attachment, sha256, status: "stored" })
     .returning(["id", "purpose", "content_type", "size_bytes", "sha256", "original_name"])
     .executeTakeFirstOrThrow();
   return toStored(row);

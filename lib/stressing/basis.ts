@@ -61,6 +61,17 @@ export interface ProjectBasisColumns {
   wire_loss_limit_pct?: number;
 }
 
+/** The columns of a `projects` row every prediction reads (the optional ones come where a caller needs them). */
+export const PREDICTION_BASIS_COLUMNS = [
+  "tolerance_pct",
+  "short_tendon_floor_mm",
+  "comparison_basis",
+  "count_jack_grip",
+  "friction_mu",
+  "wobble_per_m",
+  "anchor_set_mm",
+] as const satisfies readonly (keyof ProjectBasisColumns)[];
+
 /** The basis of a project as stored. */
 export const projectBasisFromRow = (p: ProjectBasisColumns): ProjectBasis => ({
   tolerancePct: p.tolerance_pct,

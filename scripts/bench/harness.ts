@@ -389,3 +389,17 @@ export async function pushOps(
   const body = res.ok ? ((await res.json()) as { results: { status: string }[] }) : (await res.text(), { results: [] });
   return { status: res.status, statuses: body.results.map((r) => r.status), ms: performance.now() - started };
 }
+
+/**
+ * A benchmark's clean-up, whatever happened: the processes it started stop, its pool closes and
+ * its database is dropped.
+ */
+export async function tearDown(
+  stops: (() => Promise<void>)[],
+  db: { destroy(): Promise<void> },
+  database: { drop(): Promise<void> },
+): Promise<void> {
+  await Promise.all(stops.map((stop) => stop()));
+  await db.destroy();
+  await database.drop();
+}

@@ -20,6 +20,7 @@ import {
   signIn,
   startApp,
   startDispatcher,
+  tearDown,
   waitForUrl,
 } from "./harness";
 
@@ -82,9 +83,7 @@ async function main() {
       holds: arrivedAt.size === RECORDS && errors === 0 && percentile(waits, 95) < 10,
     });
   } finally {
-    await Promise.all(stops.map((stop) => stop()));
-    await db.destroy();
-    await database.drop();
+    await tearDown(stops, db, database);
   }
 }
 

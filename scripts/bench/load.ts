@@ -26,6 +26,7 @@ import {
   signIn,
   startApp,
   startDispatcher,
+  tearDown,
   waitForUrl,
   type BenchOp,
 } from "./harness";
@@ -331,9 +332,7 @@ async function main() {
       holds: Math.max(...pdfMs) < 3000,
     });
   } finally {
-    await Promise.all(stops.map((stop) => stop()));
-    await db.destroy();
-    await database.drop();
+    await tearDown(stops, db, database);
   }
 }
 

@@ -21,6 +21,7 @@ import {
   signIn,
   startApp,
   startDispatcher,
+  tearDown,
   waitForUrl,
 } from "./harness";
 
@@ -123,9 +124,7 @@ async function main() {
     });
   } finally {
     await browser.close();
-    await Promise.all(stops.map((stop) => stop()));
-    await db.destroy();
-    await database.drop();
+    await tearDown(stops, db, database);
   }
 }
 

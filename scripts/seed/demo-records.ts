@@ -1,3 +1,4 @@
+import type { Decision } from "@/lib/schemas/domain";
 import { createHash } from "node:crypto";
 import type { Kysely } from "kysely";
 import type { Database } from "@/db/types";
@@ -203,6 +204,21 @@ export async function seedDemoRecords(
       .where("flags.kind", "=", kind as never)
       .executeTakeFirstOrThrow();
   const licence = "Licensed professional engineer, demo licence PE-00000, invented";
+  // The inspector sends a flag on to the engineer, who decides with the instruction in words.
+  const referAndDecide = async (flagId: string, sentWith: string, decision: Decision, reasons: string) => {
+    await addReview(trx, {
+      projectId: input.projectId,
+      flagId,
+      author: inspector,
+      review: { kind: "sent_to_engineer", body: sentWith },
+    });
+    await recordDisposition(trx, {
+      projectId: input.projectId,
+      flagId,
+      engineer,
+      disposition: { decision, reasons, licenceStatement: licence },
+    });
+  };
 
   // Last week's long tendon: checked, lifted off, accepted; then the pour was released.
   const u14 = await flagOf("2-1-U14");
@@ -216,23 +232,12 @@ export async function seedDemoRecords(
       remeasuredMm: await recordMm(trx, "2-1-U14"),
     },
   });
-  await addReview(trx, {
-    projectId: input.projectId,
-    flagId: u14.id,
-    author: inspector,
-    review: { kind: "sent_to_engineer", body: "Long by about 9 %; wedges and dead end look normal." },
-  });
-  await recordDisposition(trx, {
-    projectId: input.projectId,
-    flagId: u14.id,
-    engineer,
-    disposition: {
-      decision: "accept",
-      reasons:
-        "Lift-off at the live end matched the gauge within 2 %; friction lower than assumed on this run. Accepted as stressed.",
-      licenceStatement: licence,
-    },
-  });
+  await referAndDecide(
+    u14.id,
+    "Long by about 9 %; wedges and dead end look normal.",
+    "accept",
+    "Lift-off at the live end matched the gauge within 2 %; friction lower than assumed on this run. Accepted as stressed.",
+  );
   await releasePour(trx, {
     projectId: input.projectId,
     pourId: pourId("L2 Pour 1"),
@@ -246,43 +251,19 @@ export async function seedDemoRecords(
   // Today: one long tendon ordered restressed, one short waiting on a lift-off check, one short
   // just flagged, and the wire break still open.
   const u17 = await flagOf("2-2-U17");
-  await addReview(trx, {
-    projectId: input.projectId,
-    flagId: u17.id,
-    author: inspector,
-    review: { kind: "sent_to_engineer", body: "Long by about 10 %; the crew thinks the dead end slipped." },
-  });
-  await recordDisposition(trx, {
-    projectId: input.projectId,
-    flagId: u17.id,
-    engineer,
-    disposition: {
-      decision: "restress",
-      reasons:
-        "Possible dead-end slip. Restress to the same gauge pressure and re-read the mark before the tails are cut.",
-      licenceStatement: licence,
-    },
-  });
+  await referAndDecide(
+    u17.id,
+    "Long by about 10 %; the crew thinks the dead end slipped.",
+    "restress",
+    "Possible dead-end slip. Restress to the same gauge pressure and re-read the mark before the tails are cut.",
+  );
   const u23 = await flagOf("2-2-U23");
-  await addReview(trx, {
-    projectId: input.projectId,
-    flagId: u23.id,
-    author: inspector,
-    review: {
-      kind: "sent_to_engineer",
-      body: "Short by about 8 %; sheathing looked damaged near the second high point.",
-    },
-  });
-  await recordDisposition(trx, {
-    projectId: input.projectId,
-    flagId: u23.id,
-    engineer,
-    disposition: {
-      decision: "liftoff_check",
-      reasons: "Check the force by lift-off at the live end before deciding; report the lift-off pressure.",
-      licenceStatement: licence,
-    },
-  });
+  await referAndDecide(
+    u23.id,
+    "Short by about 8 %; sheathing looked damaged near the second high point.",
+    "liftoff_check",
+    "Check the force by lift-off at the live end before deciding; report the lift-off pressure.",
+  );
   return count;
 }
 

@@ -1,7 +1,7 @@
 import bcrypt from "bcryptjs";
 import { fitCalibration } from "@/lib/elongation";
 import { METRES_PER_FOOT, MM_PER_INCH } from "@/lib/units";
-import { predictTendon, projectBasisFromRow } from "@/lib/stressing/basis";
+import { PREDICTION_BASIS_COLUMNS, predictTendon, projectBasisFromRow } from "@/lib/stressing/basis";
 import { psiToMPa } from "@/lib/units";
 import { DEMO_TIME_ZONE, demoDay, demoInstant } from "./demo-site";
 import { seedDemoRecords } from "./demo-records";
@@ -280,15 +280,7 @@ export async function seedDemo(
     // "check with the detailer" mark shows. Invented for the demo.
     const basis = await trx
       .selectFrom("projects")
-      .select([
-        "tolerance_pct",
-        "short_tendon_floor_mm",
-        "comparison_basis",
-        "count_jack_grip",
-        "friction_mu",
-        "wobble_per_m",
-        "anchor_set_mm",
-      ])
+      .select(PREDICTION_BASIS_COLUMNS)
       .where("id", "=", ayp)
       .executeTakeFirstOrThrow();
     const lotValues = await trx

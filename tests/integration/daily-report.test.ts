@@ -11,7 +11,7 @@ import { renderDailyPdf } from "@/lib/reports/daily-pdf";
 import { evaluateTendon } from "@/lib/server/evaluate-tendon";
 import { getDailyReport } from "@/lib/server/get-daily-report";
 import { listDailyRevisions } from "@/lib/server/list-daily-revisions";
-import { readSignedDailyReport } from "@/lib/server/read-signed-daily-report";
+import { readSignedDailyReport } from "@/lib/server/read-signed-report";
 import { recordDetension } from "@/lib/server/record-detension";
 import { recordDisposition } from "@/lib/server/record-disposition";
 import { recordLiftoffCheck } from "@/lib/server/record-liftoff-check";

@@ -1,5 +1,5 @@
 import { redirect } from "next/navigation";
-import { FormField } from "@/components/ui/form-field";
+import { FormField, type FieldMessages } from "@/components/ui/form-field";
 import { ClockSkewList } from "@/components/review/clock-skew-list";
 import { FlagQueue } from "@/components/review/flag-queue";
 import { ReleaseList } from "@/components/review/release-list";
@@ -17,6 +17,34 @@ import { findReleaseCandidates } from "@/lib/server/find-release-candidates";
 export const metadata = { title: "Flags to review" };
 
 const KINDS = flagFilterSchema.shape.kind.unwrap().options;
+
+/** A filter of the list: "All" first, then each choice as [value, words]. */
+function FilterSelect({
+  id,
+  name,
+  label,
+  value,
+  error,
+  choices,
+}: {
+  id: string;
+  name: string;
+  label: string;
+  value: string | undefined;
+  error: FieldMessages;
+  choices: (readonly [string, string])[];
+}) {
+  return (
+    <FormField as="select" id={id} name={name} label={label} defaultValue={value ?? ""} error={error}>
+      <option value="">All</option>
+      {choices.map(([v, words]) => (
+        <option key={v} value={v}>
+          {words}
+        </option>
+      ))}
+    </FormField>
+  );
+}
 
 export default async function ReviewPage({
   searchParams,
@@ -56,44 +84,23 @@ export default async function ReviewPage({
       </p>
       {!parsed.success && <p className="card">Some filters in the address were not understood and were left out.</p>}
       <form className="card grid gap-4 md:grid-cols-5 md:items-end" method="get" aria-label="Filter the flags">
-        <FormField
-          as="select"
+        <FilterSelect
           id="f-project"
           name="projectId"
           label="Project"
-          defaultValue={filter.projectId ?? ""}
+          value={filter.projectId}
           error={bad.projectId}
-        >
-          <option value="">All</option>
-          {projects.map((p) => (
-            <option key={p.projectId} value={p.projectId}>
-              {p.projectName}
-            </option>
-          ))}
-        </FormField>
-        <FormField
-          as="select"
-          id="f-pour"
-          name="pourId"
-          label="Pour"
-          defaultValue={filter.pourId ?? ""}
-          error={bad.pourId}
-        >
-          <option value="">All</option>
-          {pours.map(([id, name]) => (
-            <option key={id} value={id}>
-              {name}
-            </option>
-          ))}
-        </FormField>
-        <FormField as="select" id="f-kind" name="kind" label="Flag" defaultValue={filter.kind ?? ""} error={bad.kind}>
-          <option value="">All</option>
-          {KINDS.map((k) => (
-            <option key={k} value={k}>
-              {flagLabel(k)}
-            </option>
-          ))}
-        </FormField>
+          choices={projects.map((p) => [p.projectId, p.projectName])}
+        />
+        <FilterSelect id="f-pour" name="pourId" label="Pour" value={filter.pourId} error={bad.pourId} choices={pours} />
+        <FilterSelect
+          id="f-kind"
+          name="kind"
+          label="Flag"
+          value={filter.kind}
+          error={bad.kind}
+          choices={KINDS.map((k) => [k, flagLabel(k)])}
+        />
         <FormField
           id="f-age"
           name="olderThanHours"

@@ -1,5 +1,6 @@
 import "server-only";
 import { notFound, redirect } from "next/navigation";
+import type { ReactNode } from "react";
 import { z } from "zod";
 import { authorize, type ProjectAccess } from "@/lib/auth/authorize";
 import type { Action } from "@/lib/auth/permissions";
@@ -18,3 +19,21 @@ export async function pageAccess(action: Action, projectId: string): Promise<Pro
 }
 
 export const isUuid = (value: string) => z.uuid().safeParse(value).success;
+
+/**
+ * A segment's layout that runs `pageAccess` for `action` before anything below it renders: above
+ * the segment's loading state, so a refusal answers a real 404 (or the sign-in) rather than a
+ * streamed 200, which a page under a loading state can no longer change.
+ */
+export function accessLayout(action: Action) {
+  return async function AccessLayout({
+    children,
+    params,
+  }: {
+    children: ReactNode;
+    params: Promise<{ projectId: string }>;
+  }) {
+    await pageAccess(action, (await params).projectId);
+    return children;
+  };
+}

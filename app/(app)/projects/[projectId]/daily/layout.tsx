@@ -1,15 +1,5 @@
-import type { ReactNode } from "react";
-import { pageAccess } from "../page-access";
+import { accessLayout } from "../page-access";
 
 // The daily inspection report is read by the inspector, the engineer and the admin, not the crew.
 // Checked here, above this segment's loading state, so a refusal answers 404 before the page streams.
-export default async function Layout({
-  children,
-  params,
-}: {
-  children: ReactNode;
-  params: Promise<{ projectId: string }>;
-}) {
-  await pageAccess("report.download", (await params).projectId);
-  return children;
-}
+export default accessLayout("report.download");

@@ -26,6 +26,7 @@ import { DEFAULT_DAILY_STATEMENT, reportDaySchema } from "@/lib/schemas/daily-re
 import { getProjectTimeZone } from "@/lib/server/get-project-time-zone";
 import { listDailyRevisions } from "@/lib/server/list-daily-revisions";
 import { pageAccess } from "../page-access";
+import { Section } from "@/components/ui/section";
 
 export const metadata = { title: "Daily inspection report" };
 export const dynamic = "force-dynamic";
@@ -75,10 +76,7 @@ const timeOnDay = (moment: string, day: string) =>
 
 function List({ id, title, items, empty }: { id: string; title: string; items: string[]; empty: string }) {
   return (
-    <section aria-labelledby={id} className="space-y-2">
-      <h2 id={id} className="text-lead font-bold">
-        {title}
-      </h2>
+    <Section id={id} title={title} className="space-y-2">
       {items.length ? (
         <ul className="list-disc space-y-1 pl-6">
           {items.map((item) => (
@@ -88,7 +86,7 @@ function List({ id, title, items, empty }: { id: string; title: string; items: s
       ) : (
         <p className="text-ink-soft">{empty}</p>
       )}
-    </section>
+    </Section>
   );
 }
 
@@ -165,17 +163,15 @@ export default async function DailyReportPage({
       {view && day && (
         <>
           <Caution />
-          <section aria-labelledby="daily-summary-heading" className="space-y-2">
-            <h2 id="daily-summary-heading" className="text-lead font-bold">
-              Summary
-            </h2>
+          <Section id="daily-summary-heading" title="Summary" className="space-y-2">
             <p data-testid="daily-summary">{dailySummary(view.report)}</p>
-          </section>
+          </Section>
 
-          <section aria-labelledby="daily-records-heading" className="space-y-2">
-            <h2 id="daily-records-heading" className="text-lead font-bold">
-              Stressing records, lift-off checks and detensions of the day
-            </h2>
+          <Section
+            id="daily-records-heading"
+            title="Stressing records, lift-off checks and detensions of the day"
+            className="space-y-2"
+          >
             {lines.length ? (
               <div className="overflow-x-auto">
                 <table className="w-full border-collapse text-left tabular-nums">
@@ -242,7 +238,7 @@ export default async function DailyReportPage({
             ) : (
               <p className="text-ink-soft">No stressing, lift-off check or detension was recorded this day.</p>
             )}
-          </section>
+          </Section>
 
           <div className="grid gap-8 xl:grid-cols-2">
             <List
@@ -251,48 +247,52 @@ export default async function DailyReportPage({
               items={dailyWitnessLines(view.report).map((w) => `${w.label}: ${w.stressed}; ${w.stated}.`)}
               empty="No tendon was stressed this day."
             />
-            <section aria-labelledby="daily-conformance-heading" className="space-y-2">
-              <h2 id="daily-conformance-heading" className="text-lead font-bold">
-                Statement of conformance (as last signed)
-              </h2>
+            <Section
+              id="daily-conformance-heading"
+              title="Statement of conformance (as last signed)"
+              className="space-y-2"
+            >
               <Conformance {...dailyConformance(view.report)} />
-            </section>
-            <List
-              id="daily-flags-heading"
-              title="Flags raised"
-              items={dailyFlagLines(view.report).map((f) => `${f.heading}. ${f.lines.join(" ")}`)}
-              empty="No flag was raised this day."
-            />
-            <List
-              id="daily-dispositions-heading"
-              title="Dispositions recorded"
-              items={dailyDispositionLines(view.report)}
-              empty="No disposition was recorded this day."
-            />
-            <List
-              id="daily-equipment-heading"
-              title="Equipment sets and calibrations used"
-              items={dailyEquipmentLines(view.report).map(([name, text]) => `${name}: ${text}`)}
-              empty="No equipment set was used this day."
-            />
-            <List
-              id="daily-concrete-heading"
-              title="Concrete results entered"
-              items={dailyConcreteLines(view.report)}
-              empty="No concrete result was entered this day."
-            />
-            <List
-              id="daily-tails-heading"
-              title="Tails cut"
-              items={dailyTailCutLines(view.report)}
-              empty="No tendon had its tails cut this day."
-            />
+            </Section>
+            {(
+              [
+                [
+                  "daily-flags-heading",
+                  "Flags raised",
+                  dailyFlagLines(view.report).map((f) => `${f.heading}. ${f.lines.join(" ")}`),
+                  "No flag was raised this day.",
+                ],
+                [
+                  "daily-dispositions-heading",
+                  "Dispositions recorded",
+                  dailyDispositionLines(view.report),
+                  "No disposition was recorded this day.",
+                ],
+                [
+                  "daily-equipment-heading",
+                  "Equipment sets and calibrations used",
+                  dailyEquipmentLines(view.report).map(([name, text]) => `${name}: ${text}`),
+                  "No equipment set was used this day.",
+                ],
+                [
+                  "daily-concrete-heading",
+                  "Concrete results entered",
+                  dailyConcreteLines(view.report),
+                  "No concrete result was entered this day.",
+                ],
+                [
+                  "daily-tails-heading",
+                  "Tails cut",
+                  dailyTailCutLines(view.report),
+                  "No tendon had its tails cut this day.",
+                ],
+              ] as const
+            ).map(([id, title, items, empty]) => (
+              <List key={id} id={id} title={title} items={[...items]} empty={empty} />
+            ))}
           </div>
 
-          <section aria-labelledby="daily-signature-heading" className="space-y-3">
-            <h2 id="daily-signature-heading" className="text-lead font-bold">
-              Remarks and signature
-            </h2>
+          <Section id="daily-signature-heading" title="Remarks and signature">
             <DailySigning
               projectId={projectId}
               day={day}
@@ -313,7 +313,7 @@ export default async function DailyReportPage({
               exceptions={openExceptionLines(view.report)}
               previous={view.report.attestation}
             />
-          </section>
+          </Section>
         </>
       )}
     </main>

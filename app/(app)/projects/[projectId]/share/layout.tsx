@@ -1,15 +1,5 @@
-import type { ReactNode } from "react";
-import { pageAccess } from "../page-access";
+import { accessLayout } from "../page-access";
 
 // Read-only links are made by the inspector, the engineer and the admin, not the crew.
 // Checked here, above this segment's loading state, so a refusal answers 404 before the page streams.
-export default async function Layout({
-  children,
-  params,
-}: {
-  children: ReactNode;
-  params: Promise<{ projectId: string }>;
-}) {
-  await pageAccess("share.manage", (await params).projectId);
-  return children;
-}
+export default accessLayout("share.manage");

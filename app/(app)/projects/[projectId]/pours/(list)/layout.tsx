@@ -1,15 +1,5 @@
-import type { ReactNode } from "react";
-import { pageAccess } from "../../page-access";
+import { accessLayout } from "../../page-access";
 
 // The pour list is the admin's. Checked here, above this segment's loading state, so a refusal answers 404 before
 // the page starts streaming (a page under a loading state can no longer change its status).
-export default async function Layout({
-  children,
-  params,
-}: {
-  children: ReactNode;
-  params: Promise<{ projectId: string }>;
-}) {
-  await pageAccess("schedule.manage", (await params).projectId);
-  return children;
-}
+export default accessLayout("schedule.manage");

@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { ForceProfileChart } from "@/components/review/force-profile-chart";
+import { GaugeNotes, RereadNote } from "@/components/review/record-notes";
 import { TendonForm } from "@/components/tendons/tendon-form";
 import { Caution } from "@/components/ui/caution";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
@@ -14,8 +15,7 @@ import { getTendonDetail, SHOP_DRAWING_MARK_PCT } from "@/lib/server/get-tendon-
 import { listStrandLots } from "@/lib/server/list-strand-lots";
 import { listTendonReadings } from "@/lib/server/list-tendon-readings";
 import { formatForce, formatLength, formatPressure } from "@/lib/units";
-import { rereadLine, specifiedForceSourceWords } from "@/lib/stressing/display";
-import { storedGaugeOffTarget, storedGaugeSteps } from "@/lib/schemas/record";
+import { specifiedForceSourceWords } from "@/lib/stressing/display";
 import {
   showArea,
   showComputedLength,
@@ -35,15 +35,6 @@ const Figure = ({ label, value, note }: { label: string; value: string; note?: s
     {note && <p className="mt-1 text-label text-ink-soft">{note}</p>}
   </div>
 );
-
-/** The finer second reading of a record, or why it was not taken, under its elongation. */
-function RereadNote({ line }: { line: string | null }) {
-  return line ? (
-    <span className="block text-base font-normal" data-testid="reread-line">
-      {line}
-    </span>
-  ) : null;
-}
 
 export default async function TendonPage({ params }: { params: Promise<{ projectId: string; tendonId: string }> }) {
   const { projectId, tendonId } = await params;
@@ -239,27 +230,12 @@ export default async function TendonPage({ params }: { params: Promise<{ project
                     <td className="p-2">{r.equipmentSet}</td>
                     <td className="p-2 text-right">
                       {pressure(r.finalPressureMPa)}
-                      {(() => {
-                        const off = storedGaugeOffTarget(r.entered);
-                        return off ? (
-                          <span className="block text-base font-bold" data-testid="gauge-off-target">
-                            {showPct(off.pct)} off target, kept by the crew: {off.reason}
-                          </span>
-                        ) : null;
-                      })()}
-                      {(() => {
-                        const steps = storedGaugeSteps(r.entered);
-                        return steps ? (
-                          <span className="block text-base text-ink-soft" data-testid="gauge-steps-line">
-                            Steps: {steps.map((s) => `${pressure(s.pressureMPa)}: ${len(s.readingMm)}`).join("; ")}
-                          </span>
-                        ) : null;
-                      })()}
+                      <GaugeNotes entered={r.entered} pressure={pressure} length={len} className="text-base" />
                     </td>
                     <td className="p-2 text-right font-semibold">
                       {len(r.measuredMm)}
                       {r.wireBreaks > 0 ? ` · ${r.wireBreaks} wire break${r.wireBreaks > 1 ? "s" : ""}` : ""}
-                      <RereadNote line={rereadLine(project, r)} />
+                      <RereadNote project={project} record={r} className="text-base font-normal" />
                     </td>
                     <td className="p-2">
                       {r.authorName}

@@ -18,6 +18,7 @@ import { listConcreteResults } from "@/lib/server/list-concrete-results";
 import { listReportRevisions } from "@/lib/server/list-report-revisions";
 import { displayUnit, inDisplayUnit, readingResolution, showComputedLength } from "@/lib/format/quantities";
 import { isUuid, pageAccess } from "../../../page-access";
+import { Section } from "@/components/ui/section";
 
 export const metadata = { title: "Pour insight" };
 
@@ -80,10 +81,7 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
       />
 
       {signatures && (
-        <section aria-labelledby="signatures-heading" className="space-y-3">
-          <h2 id="signatures-heading" className="text-lead font-bold">
-            Signed stressing report
-          </h2>
+        <Section id="signatures-heading" title="Signed stressing report">
           <ReportSigning
             projectId={projectId}
             pourId={pourId}
@@ -101,20 +99,12 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
             signerName={access.user.name}
             defaultStatement={DEFAULT_POUR_STATEMENT}
           />
-        </section>
+        </Section>
       )}
 
-      <section aria-labelledby="progress-heading" className="space-y-3">
-        <h2 id="progress-heading" className="text-lead font-bold">
-          Progress of the pour
-        </h2>
-        <ProgressChart
-          tendons={progress.tendons}
-          stressed={progress.stressed}
-          flagged={progress.flagged}
-          released={progress.released}
-        />
-      </section>
+      <Section id="progress-heading" title="Progress of the pour">
+        <ProgressChart {...progress} />
+      </Section>
 
       {points.length === 0 ? (
         <p className="card">
@@ -123,16 +113,10 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
         </p>
       ) : (
         <div className="grid gap-8 xl:grid-cols-2">
-          <section aria-labelledby="deviation-heading" className="space-y-3">
-            <h2 id="deviation-heading" className="text-lead font-bold">
-              Deviation per tendon against the band
-            </h2>
+          <Section id="deviation-heading" title="Deviation per tendon against the band">
             <DeviationChart points={points} tolerancePct={insight.project.tolerancePct} />
-          </section>
-          <section aria-labelledby="scatter-heading" className="space-y-3">
-            <h2 id="scatter-heading" className="text-lead font-bold">
-              Measured against predicted
-            </h2>
+          </Section>
+          <Section id="scatter-heading" title="Measured against predicted">
             <MeasuredPredictedChart
               points={insight.points.map((p) => ({
                 tag: p.tag,
@@ -145,14 +129,11 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
               tolerancePct={insight.project.tolerancePct}
               unit={lengthUnit}
             />
-          </section>
+          </Section>
         </div>
       )}
 
-      <section aria-labelledby="drift-heading" className="space-y-4">
-        <h2 id="drift-heading" className="text-lead font-bold">
-          Equipment sets: is one drifting?
-        </h2>
+      <Section id="drift-heading" title="Equipment sets: is one drifting?" className="space-y-4">
         <p className="text-ink-soft">
           Elongation follows force, so a gauge or jack out of calibration moves every tendon it stresses the same way. A
           set is marked when its mean differs from the other sets&apos; pooled mean by at least{" "}
@@ -162,29 +143,23 @@ export default async function PourInsightPage({ params }: { params: Promise<{ pr
         </p>
         <DriftTable caption="On this pour" sets={insight.driftOnPour} />
         <DriftTable caption="Across the project" sets={insight.driftOnProject} />
-      </section>
+      </Section>
 
-      <section aria-labelledby="modulus-heading" className="space-y-3">
-        <h2 id="modulus-heading" className="text-lead font-bold">
-          Apparent modulus from gauge steps
-        </h2>
+      <Section id="modulus-heading" title="Apparent modulus from gauge steps">
         <p className="text-ink-soft">
           Where the crew read the elongation at several gauge pressures, the slope of force against reading gives the
           modulus the tendon behaved as if it had. Friction alone puts it above the mill value; a ratio far from the
           neighbours&apos; is worth a look.
         </p>
         <ModulusTable moduli={insight.moduli} project={insight.project} />
-      </section>
+      </Section>
 
-      <section aria-labelledby="resolution-heading" className="space-y-3">
-        <h2 id="resolution-heading" className="text-lead font-bold">
-          Verdicts the reading division could change
-        </h2>
+      <Section id="resolution-heading" title="Verdicts the reading division could change">
         <ResolutionSummary
           resolution={insight.resolution}
           division={readingResolution(insight.project.readingResolution)}
         />
-      </section>
+      </Section>
 
       <Caution />
     </main>

@@ -2,7 +2,7 @@ import { db } from "@/db";
 import { authorize } from "@/lib/auth/authorize";
 import { route } from "@/lib/http/route";
 import { dailyRevisionParamsSchema } from "@/lib/schemas/daily-report";
-import { readSignedDailyReport } from "@/lib/server/read-signed-daily-report";
+import { readSignedDailyReport } from "@/lib/server/read-signed-report";
 
 /** One signed revision of the day's report, byte for byte as it was signed. */
 export const GET = route(
