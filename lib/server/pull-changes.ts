@@ -1,5 +1,5 @@
 import "server-only";
-import { projectBasisFromRow } from "@/lib/stressing/basis";
+import { PREDICTION_BASIS_COLUMNS, projectBasisFromRow } from "@/lib/stressing/basis";
 import { sql, type Kysely, type Transaction } from "kysely";
 import { jsonArrayFrom } from "kysely/helpers/postgres";
 import type { Database } from "@/db/types";
@@ -95,13 +95,7 @@ export async function pullChanges(
               "name",
               "unit_system",
               "reading_resolution",
-              "tolerance_pct",
-              "short_tendon_floor_mm",
-              "comparison_basis",
-              "count_jack_grip",
-              "friction_mu",
-              "wobble_per_m",
-              "anchor_set_mm",
+              ...PREDICTION_BASIS_COLUMNS,
               "blind_entry",
               "time_zone",
               "jacking_force_factor",
