@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { latestDayAnywhere } from "@/lib/format/dates";
+import { reportSignatureSchema } from "./report-signature";
 import { text } from "./text";
 
 /**
@@ -73,16 +74,7 @@ export interface DailyAttestation {
  * stressed that day. Remarks, conformance and witness are part of the signed content: changing them
  * gives a new revision. The server checks the witness list against the day (every group once).
  */
-export const dailySignatureSchema = z.strictObject({
-  signerName: text().trim().min(2, "Type your name as you sign.").max(120, "Use at most 120 characters."),
-  licence: text()
-    .trim()
-    .min(3, "Type your licence or certification number (e.g. ICC special inspector 1234567).")
-    .max(160, "Use at most 160 characters."),
-  statement: text()
-    .trim()
-    .min(20, "Write the statement you sign, at least a sentence.")
-    .max(2000, "Use at most 2,000 characters."),
+export const dailySignatureSchema = reportSignatureSchema.extend({
   remarks: text().trim().max(4000, "Use at most 4,000 characters in the remarks."),
   conformance: z.enum(CONFORMANCE, {
     error: "Choose whether the work was in conformance or not in conformance.",
