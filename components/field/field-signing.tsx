@@ -14,6 +14,7 @@ import type { WitnessGroupView } from "@/lib/reports/daily-rows";
 import { DEFAULT_DAILY_STATEMENT, type DailyAttestation } from "@/lib/schemas/daily-report";
 import { DEFAULT_POUR_STATEMENT } from "@/lib/schemas/report-signature";
 import { useOnline } from "./use-live";
+import { signatureStanding } from "@/lib/reports/signature-lines";
 
 interface Me {
   name: string;
@@ -159,11 +160,7 @@ export function FieldSigning() {
             Daily special-inspection report: {daily.day}
           </h2>
           <p className="font-semibold" data-testid="field-daily-state">
-            {!daily.revisions[0]
-              ? "Not signed yet."
-              : daily.current.signed
-                ? `Signed as it stands: revision ${daily.revisions[0].revision}.`
-                : `Changed since revision ${daily.revisions[0].revision} was signed; it needs a new signature.`}
+            {signatureStanding("The report", daily.revisions[0]?.revision ?? null, daily.current.signed)}
           </p>
           <SignedRevisions
             api={`/api/projects/${projectId}/daily-reports/${daily.day}/signatures`}
@@ -215,11 +212,11 @@ export function FieldSigning() {
           {pour && pourId && (
             <>
               <p className="font-semibold" data-testid="field-pour-state">
-                {!pour.revisions[0]
-                  ? `${pourName}: not signed yet.`
-                  : pour.current.signed
-                    ? `${pourName}: signed as it stands, revision ${pour.revisions[0].revision}.`
-                    : `${pourName}: changed since revision ${pour.revisions[0].revision} was signed; it needs a new signature.`}
+                {signatureStanding(
+                  `The stressing report of ${pourName}`,
+                  pour.revisions[0]?.revision ?? null,
+                  pour.current.signed,
+                )}
               </p>
               <SignedRevisions
                 api={`/api/projects/${projectId}/pours/${pourId}/report/signatures`}

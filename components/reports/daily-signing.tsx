@@ -6,6 +6,7 @@ import type { WitnessGroupView } from "@/lib/reports/daily-rows";
 import { DailySignForm } from "./daily-sign-form";
 import type { SignedRevisionView } from "./report-signing";
 import { SignedRevisions } from "./signed-revisions";
+import { signatureStanding } from "@/lib/reports/signature-lines";
 
 /**
  * The day's signed special-inspection reports and, for the inspector, the remarks and the form that
@@ -43,11 +44,7 @@ export function DailySigning({
   return (
     <div className="space-y-4">
       <p className="font-semibold" data-testid="daily-signature-state">
-        {!last
-          ? `The report of ${day} is not signed yet.`
-          : current.signed
-            ? `The report of ${day} as it stands is signed: revision ${last.revision}.`
-            : `Changed since revision ${last.revision} was signed; it needs a new signature.`}
+        {signatureStanding(`The report of ${day}`, last?.revision ?? null, current.signed)}
       </p>
       <SignedRevisions api={api} revisions={revisions} current={current} />
       {canSign ? (

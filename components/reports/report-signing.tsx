@@ -3,6 +3,7 @@
 import { useRouter } from "next/navigation";
 import { PourSignForm } from "./pour-sign-form";
 import { SignedRevisions } from "./signed-revisions";
+import { signatureStanding } from "@/lib/reports/signature-lines";
 
 export interface SignedRevisionView {
   revision: number;
@@ -42,11 +43,7 @@ export function ReportSigning({
   return (
     <div className="space-y-4">
       <p className="font-semibold" data-testid="signature-state">
-        {!last
-          ? "Not signed yet."
-          : current.signed
-            ? `The report as it stands is signed: revision ${last.revision}.`
-            : `Changed since revision ${last.revision} was signed; it needs a new signature.`}
+        {signatureStanding("The report", last?.revision ?? null, current.signed)}
       </p>
       <SignedRevisions api={api} revisions={revisions} current={current} />
       {canSign && !current.signed && (

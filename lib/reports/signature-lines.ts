@@ -14,6 +14,19 @@ export interface SignatureState {
   current: boolean;
 }
 
+/**
+ * Where a report stands against its signatures, in one sentence for the screens (office and
+ * tablet alike): "The report of 2026-12-02 is not signed yet.", "… as it stands is signed:
+ * revision 2.", "… has changed since revision 2 was signed; it needs a new signature." `subject`
+ * names the report as the sentence starts.
+ */
+export function signatureStanding(subject: string, lastRevision: number | null, signedAsItStands: boolean): string {
+  if (lastRevision === null) return `${subject} is not signed yet.`;
+  return signedAsItStands
+    ? `${subject} as it stands is signed: revision ${lastRevision}.`
+    : `${subject} has changed since revision ${lastRevision} was signed; it needs a new signature.`;
+}
+
 export function signatureLines(state: SignatureState, timeZone: string): [string, string][] {
   const s = state.last;
   if (!s) return [["Signature", "Not signed: no revision of this report has been signed."]];

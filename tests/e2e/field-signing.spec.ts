@@ -68,9 +68,12 @@ test("the inspector signs the day's report and a pour's stressing report on the 
   await expect(dialog).toContainText("that the work was NOT in conformance");
   await screenshot(page, "field-sign-confirm-portrait");
   await dialog.getByRole("button", { name: "Sign", exact: true }).click();
-  await expect(page.getByTestId("field-daily-state")).toHaveText(`Signed as it stands: revision ${next}.`, {
-    timeout: 30_000,
-  });
+  await expect(page.getByTestId("field-daily-state")).toHaveText(
+    `The report as it stands is signed: revision ${next}.`,
+    {
+      timeout: 30_000,
+    },
+  );
   const [stored] = await queryDemo<{ attestation: { conformance: string; witness: { extent: string }[] } }>(
     `select attestation from report_revisions v join projects p on p.id = v.project_id
       where p.code = 'AYP' and v.report_day = $1 and v.revision = $2`,
@@ -82,7 +85,9 @@ test("the inspector signs the day's report and a pour's stressing report on the 
   // The pour's stressing report, in landscape.
   await page.setViewportSize({ width: 1280, height: 800 });
   await page.getByRole("group", { name: "Pours worked that day" }).getByRole("button", { name: pourName }).click();
-  await expect(page.getByTestId("field-pour-state")).toHaveText(`${pourName}: not signed yet.`);
+  await expect(page.getByTestId("field-pour-state")).toHaveText(
+    `The stressing report of ${pourName} is not signed yet.`,
+  );
   const pourForm = page.getByRole("form", { name: `Sign the stressing report of ${pourName}` });
   await pourForm.getByLabel("Licence or certification number").fill("ICC special inspector 5551234 (demo)");
   await pourForm.scrollIntoViewIfNeeded();
@@ -92,9 +97,12 @@ test("the inspector signs the day's report and a pour's stressing report on the 
     .getByRole("dialog", { name: `Sign revision 1 of the stressing report of ${pourName}?` })
     .getByRole("button", { name: "Sign", exact: true })
     .click();
-  await expect(page.getByTestId("field-pour-state")).toHaveText(`${pourName}: signed as it stands, revision 1.`, {
-    timeout: 30_000,
-  });
+  await expect(page.getByTestId("field-pour-state")).toHaveText(
+    `The stressing report of ${pourName} as it stands is signed: revision 1.`,
+    {
+      timeout: 30_000,
+    },
+  );
   await expect(pourForm).toHaveCount(0);
   await screenshot(page, "field-sign-pour-signed-landscape");
 });

@@ -21,7 +21,7 @@ test("the inspector signs a pour's stressing report and anyone can check the sig
   await signInWithPassword(page, PEOPLE.inspector);
   await page.waitForURL(/\/home/);
   await page.goto(`/projects/${fx.projectId}/pours/${fx.pourId}/insight`);
-  await expect(page.getByTestId("signature-state")).toHaveText("Not signed yet.");
+  await expect(page.getByTestId("signature-state")).toHaveText("The report is not signed yet.");
 
   const form = page.getByRole("form", { name: `Sign the stressing report of ${POUR}` });
   // Without a licence number the server names the field and signs nothing.

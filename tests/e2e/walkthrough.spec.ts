@@ -320,7 +320,7 @@ test("one pour from the slab edge to the signed report, as each person sees it",
 
   // ── The inspector signs the pour's report; the PDF downloads.
   await office.goto(`/projects/${fx.projectId}/pours/${fx.pourId}/insight`);
-  await expect(office.getByTestId("signature-state")).toHaveText("Not signed yet.");
+  await expect(office.getByTestId("signature-state")).toHaveText("The report is not signed yet.");
   await look(office, "inspector-insight");
   const sign = office.getByRole("form", { name: new RegExp(`Sign the stressing report of ${POUR}`) });
   await expect(sign.getByLabel(/name/i).first()).toHaveValue(people!.inspector);
