@@ -1,5 +1,5 @@
 "use client";
-import { useState } from "react";
+import { useState, type ReactNode } from "react";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import type { LocalTailCut, SessionMeta } from "@/lib/offline/db";
 import { OutboxWriteError, saveTailCuts } from "@/lib/offline/outbox";
@@ -49,6 +49,48 @@ function useCut(session: SessionMeta, timeZone: string) {
 const NO_UNDO =
   "Cutting tails cannot be undone: once the strand tails are cut, the jack can no longer grip the tendon to restress it or check its lift-off.";
 
+/**
+ * The button that asks before a cut is recorded, the cut's error, and the question: it says that
+ * nothing takes a cut back, then what the caller adds.
+ */
+function AskThenCut(props: {
+  button: string;
+  buttonClass: string;
+  testId: string;
+  error: string | null;
+  title: string;
+  confirmLabel: string;
+  onConfirm: () => void;
+  children: ReactNode;
+}) {
+  const [asking, setAsking] = useState(false);
+  return (
+    <>
+      <button type="button" className={props.buttonClass} onClick={() => setAsking(true)} data-testid={props.testId}>
+        {props.button}
+      </button>
+      {props.error && (
+        <p role="alert" className="font-semibold text-signal-stop">
+          {props.error}
+        </p>
+      )}
+      <ConfirmDialog
+        open={asking}
+        title={props.title}
+        confirmLabel={props.confirmLabel}
+        onCancel={() => setAsking(false)}
+        onConfirm={() => {
+          setAsking(false);
+          props.onConfirm();
+        }}
+      >
+        <p>{NO_UNDO}</p>
+        {props.children}
+      </ConfirmDialog>
+    </>
+  );
+}
+
 export function TailCutPanel(props: {
   tendon: FieldTendon;
   clearance: Clearance;
@@ -58,7 +100,6 @@ export function TailCutPanel(props: {
 }) {
   const { tendon, clearance, cut } = props;
   const { cut: saveCut, error } = useCut(props.session, props.timeZone);
-  const [asking, setAsking] = useState(false);
 
   if (cut) {
     return (
@@ -114,27 +155,17 @@ export function TailCutPanel(props: {
     >
       <h3 className="text-lead font-bold text-signal-band">Tails: clear to cut</h3>
       <p>Every flag is closed, every end is recorded and the concrete gate is met.</p>
-      <button type="button" className="btn-primary w-fit" onClick={() => setAsking(true)} data-testid="tail-cut-button">
-        Record tails cut
-      </button>
-      {error && (
-        <p role="alert" className="font-semibold text-signal-stop">
-          {error}
-        </p>
-      )}
-      <ConfirmDialog
-        open={asking}
+      <AskThenCut
+        button="Record tails cut"
+        buttonClass="btn-primary w-fit"
+        testId="tail-cut-button"
+        error={error}
         title={`Record tails cut on ${tendon.tag}?`}
         confirmLabel={`Tails of ${tendon.tag} are cut`}
-        onCancel={() => setAsking(false)}
-        onConfirm={() => {
-          setAsking(false);
-          void saveCut({ projectId: tendon.projectId, pourId: tendon.pourId, tendons: [tendon] });
-        }}
+        onConfirm={() => void saveCut({ projectId: tendon.projectId, pourId: tendon.pourId, tendons: [tendon] })}
       >
-        <p>{NO_UNDO}</p>
         <p>It is recorded as cut by {props.session.name} now, and sent to the server with the next sync.</p>
-      </ConfirmDialog>
+      </AskThenCut>
     </section>
   );
 }
@@ -148,33 +179,22 @@ export function CutAllClear(props: {
   timeZone: string;
 }) {
   const { cut, error } = useCut(props.session, props.timeZone);
-  const [asking, setAsking] = useState(false);
   if (!props.clear.length) return null;
   const tags = props.clear.map((t) => t.tag).join(", ");
   return (
     <div className="grid gap-1">
-      <button type="button" className="btn-quiet" onClick={() => setAsking(true)} data-testid="cut-all-clear">
-        Record tails cut on all clear tendons ({props.clear.length})
-      </button>
-      {error && (
-        <p role="alert" className="font-semibold text-signal-stop">
-          {error}
-        </p>
-      )}
-      <ConfirmDialog
-        open={asking}
+      <AskThenCut
+        button={`Record tails cut on all clear tendons (${props.clear.length})`}
+        buttonClass="btn-quiet"
+        testId="cut-all-clear"
+        error={error}
         title={`Record tails cut on ${props.clear.length} tendon${props.clear.length === 1 ? "" : "s"}?`}
         confirmLabel="These tails are cut"
-        onCancel={() => setAsking(false)}
-        onConfirm={() => {
-          setAsking(false);
-          void cut({ projectId: props.projectId, pourId: props.pourId, tendons: props.clear });
-        }}
+        onConfirm={() => void cut({ projectId: props.projectId, pourId: props.pourId, tendons: props.clear })}
       >
-        <p>{NO_UNDO}</p>
         <p>Clear tendons: {tags}. Held tendons are left out.</p>
         <p>Recorded as cut by {props.session.name} now.</p>
-      </ConfirmDialog>
+      </AskThenCut>
     </div>
   );
 }
