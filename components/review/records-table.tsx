@@ -40,13 +40,13 @@ export function RecordsTable({
       <table className="w-full min-w-[36rem] bg-white">
         <thead>
           <tr className="border-b-2 border-ink text-left text-label uppercase">
-            <th className="p-2">End</th>
-            <th className="p-2">Stressed</th>
-            <th className="p-2">Equipment</th>
-            <th className="p-2 text-right">Gauge</th>
-            <th className="p-2 text-right">Elongation</th>
-            <th className="p-2">By</th>
-            <th className="p-2">Notes</th>
+            <th className="px-1.5 py-2">End</th>
+            <th className="px-1.5 py-2">Stressed</th>
+            <th className="px-1.5 py-2">Equipment</th>
+            <th className="px-1.5 py-2 text-right">Gauge</th>
+            <th className="px-1.5 py-2 text-right">Elongation</th>
+            <th className="px-1.5 py-2">By</th>
+            <th className="px-1.5 py-2">Notes</th>
           </tr>
         </thead>
         <tbody className="tabular-nums">
@@ -56,18 +56,18 @@ export function RecordsTable({
             return (
               <Fragment key={r.id}>
                 <tr className={`align-top ${r.skew ? "" : "border-b border-concrete-200"} ${struck}`}>
-                  <td className="p-2 font-bold">{r.tendonEnd}</td>
-                  <td className="p-2">
+                  <td className="px-1.5 py-2 font-bold">{r.tendonEnd}</td>
+                  <td className="px-1.5 py-2">
                     <DateThenTime text={formatDateTime(r.deviceTime, timeZone)} />
                   </td>
-                  <td className="p-2">{r.equipmentSet}</td>
-                  <td className="p-2 text-right">
+                  <td className="px-1.5 py-2">{r.equipmentSet}</td>
+                  <td className="px-1.5 py-2 text-right">
                     {r.initialPressureMPa ? `${showPressure(r.initialPressureMPa)} → ` : ""}
                     {showPressure(r.finalPressureMPa)}
                   </td>
-                  <td className="p-2 text-right font-semibold">{showLength(r.measuredMm)}</td>
-                  <td className="p-2">{r.authorName}</td>
-                  <td className="p-2">
+                  <td className="px-1.5 py-2 text-right font-semibold">{showLength(r.measuredMm)}</td>
+                  <td className="px-1.5 py-2">{r.authorName}</td>
+                  <td className="px-1.5 py-2">
                     {r.revision > 1 && (
                       <span className="block">
                         Revision {r.revision}: {r.revisionReason}
