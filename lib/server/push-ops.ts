@@ -302,10 +302,10 @@ function answerFromRead(op: SyncOp, user: Pusher, p: RecordPayload, day: string,
   return null;
 }
 
-/** The record as the evaluation reads it, before it is stored. */
-function asEvaluated(op: SyncOp, p: RecordPayload, receivedAt: Date): EvaluatedRecord {
+/** The record as the evaluation reads it, before it is stored (its row, `recordValues`, adds to it). */
+function asEvaluated(recordId: string, p: RecordPayload, receivedAt: Date): EvaluatedRecord {
   return {
-    id: op.recordId,
+    id: recordId,
     chain_id: p.chainId,
     revision: p.revision,
     tendon_end: p.tendonEnd,
@@ -357,7 +357,7 @@ async function attemptOp(
   if (answer) return answer;
 
   const receivedAt = new Date();
-  const state = stateFromRow(read, asEvaluated(op, p, receivedAt));
+  const state = stateFromRow(read, asEvaluated(op.recordId, p, receivedAt));
   // A broken wire names a strand the tendon has.
   const strands = state.basis.tendon.strandCount;
   const beyond = (p.wireBreakDetails ?? []).findIndex((b) => b.strand !== null && b.strand > strands);
@@ -573,39 +573,22 @@ function refProblem(
   return null;
 }
 
+/** The stored row: the record as the evaluation read it, with its JSON as text and what only the row keeps. */
 function recordValues(recordId: string, deviceId: string, p: RecordPayload, receivedAt: Date) {
+  const read = asEvaluated(recordId, p, receivedAt);
   return {
-    id: recordId,
+    ...read,
+    entered: JSON.stringify(read.entered),
+    wire_break_details: read.wire_break_details ? JSON.stringify(read.wire_break_details) : null,
     project_id: p.projectId,
     pour_id: p.pourId,
     tendon_id: p.tendonId,
-    tendon_end: p.tendonEnd,
-    chain_id: p.chainId,
-    revision: p.revision,
     base_record_id: p.baseRecordId,
     revision_reason: p.revisionReason,
-    equipment_set_id: p.equipmentSetId,
-    calibration_id: p.calibrationId,
-    expired_calibration_reason: p.expiredCalibrationReason,
-    concrete_go_ahead: p.concreteGoAhead ?? null,
-    initial_pressure_mpa: p.initialPressureMPa,
-    final_pressure_mpa: p.finalPressureMPa,
-    reading_method: p.readingMethod,
-    entered: JSON.stringify(p.entered),
-    measured_mm: p.measuredMm,
-    seating_mm: p.seatingMm,
-    draw_in_mm: p.drawInMm ?? null,
-    stressing_order: p.stressingOrder ?? null,
-    wire_breaks: p.wireBreaks,
-    first_reading_mm: p.firstReadingMm ?? null,
-    reread_declined_reason: p.rereadDeclinedReason ?? null,
-    wire_break_details: p.wireBreakDetails ? JSON.stringify(p.wireBreakDetails) : null,
     remarks: p.remarks,
-    device_time: p.deviceTime,
     device_time_zone: p.deviceTimeZone,
     device_id: deviceId,
     author_user_id: p.authorUserId,
-    received_at: receivedAt,
   };
 }
 
