@@ -1,17 +1,17 @@
 import { Fragment } from "react";
-import { formatDateTime } from "@/lib/format/dates";
+import { formatDateTime, formatDay, formatRecentDateTime } from "@/lib/format/dates";
 import type { TendonCase } from "@/lib/server/get-tendon-case";
 import { wireBreakWords } from "@/lib/schemas/record";
 import { CorrectionForm } from "./flag-actions";
 import { GaugeNotes, RereadNote } from "./record-notes";
 
-/** "2026-12-03 04:39 CST" as the day over the time, each unbroken, so the column stays narrow. */
-function DateThenTime({ text }: { text: string }) {
-  const [date, ...time] = text.split(" ");
+/** The day over the time ("2026-12-03" / "04:39 CST"), each unbroken, so the column stays narrow. */
+function DayThenTime({ instant, timeZone }: { instant: string; timeZone: string }) {
   return (
     <>
-      <span className="block whitespace-nowrap">{date}</span>
-      <span className="block whitespace-nowrap">{time.join(" ")}</span>
+      <span className="block whitespace-nowrap">{formatDay(instant, timeZone)}</span>
+      {/* The same day as itself: the time with its zone. */}
+      <span className="block whitespace-nowrap">{formatRecentDateTime(instant, timeZone, instant)}</span>
     </>
   );
 }
@@ -58,7 +58,7 @@ export function RecordsTable({
                 <tr className={`align-top ${r.skew ? "" : "border-b border-concrete-200"} ${struck}`}>
                   <td className="px-1.5 py-2 font-bold">{r.tendonEnd}</td>
                   <td className="px-1.5 py-2">
-                    <DateThenTime text={formatDateTime(r.deviceTime, timeZone)} />
+                    <DayThenTime instant={r.deviceTime} timeZone={timeZone} />
                   </td>
                   <td className="px-1.5 py-2">{r.equipmentSet}</td>
                   <td className="px-1.5 py-2 text-right">
